@@ -1,0 +1,57 @@
+package main
+
+import (
+	"flag"
+	"fmt"
+
+	"pare/graph"
+)
+
+type checkOpts struct{ strict, quiet bool }
+
+func init() {
+	register(&command{
+		name:    "check",
+		args:    "[--strict] FILE...",
+		summary: "load netlists and warn about likely transcription mistakes",
+		detail: `Loads each file, reports every syntax and model error as file:line:col, then
+looks for the mistakes people make copying a paper diagram: a net with one
+connection, an unconnected terminal, a cathode/emitter/source going nowhere,
+a value far outside its kind's usual range, a gang with one member, a port
+that no part uses. Prints one summary line per file.`,
+		flags: func(fs *flag.FlagSet) any {
+			o := &checkOpts{}
+			fs.BoolVar(&o.strict, "strict", false, "exit 1 when there are warnings")
+			fs.BoolVar(&o.quiet, "quiet", false, "print the summary lines only")
+			return o
+		},
+		run: runCheck,
+	})
+}
+
+func runCheck(e *env, opts any, args []string) int {
+	o := opts.(*checkOpts)
+	if len(args) == 0 {
+		fmt.Fprintln(e.stderr, "pare check: no files given")
+		return exitBad
+	}
+	code := exitOK
+	for _, path := range args {
+		c, ok := loadCircuit(e, path)
+		if !ok {
+			code = exitBad
+			continue
+		}
+		warnings := graph.Check(c)
+		if !o.quiet {
+			for _, w := range warnings {
+				fmt.Fprintf(e.stdout, "%s: warning: %s\n", w.Pos, w.Msg)
+			}
+		}
+		fmt.Fprintf(e.stdout, "%s: %s\n", path, graph.Summary(c, len(warnings)))
+		if o.strict && len(warnings) > 0 && code == exitOK {
+			code = exitFound
+		}
+	}
+	return code
+}

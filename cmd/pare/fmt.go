@@ -1,0 +1,81 @@
+package main
+
+import (
+	"bytes"
+	"flag"
+	"fmt"
+	"os"
+
+	"pare/graph"
+)
+
+type fmtOpts struct {
+	check bool
+	out   string
+}
+
+func init() {
+	register(&command{
+		name:    "fmt",
+		args:    "[--check] [-o OUT] FILE",
+		summary: "rewrite a netlist in the canonical layout",
+		detail: `Rewrites FILE in place in the canonical layout: top-level keys first, then
+[freqs], [regions], [nets] and [parts], one entry per line, sorted, values in
+the IEC 60062 letter code. Comments above entries and after them are kept.
+With --check nothing is written; the exit code is 1 when FILE is not in
+canonical form.`,
+		flags: func(fs *flag.FlagSet) any {
+			o := &fmtOpts{}
+			fs.BoolVar(&o.check, "check", false, "only report whether the file is canonical")
+			fs.StringVar(&o.out, "o", "", "write to this file instead (- for stdout)")
+			return o
+		},
+		run: runFmt,
+	})
+}
+
+func runFmt(e *env, opts any, args []string) int {
+	o := opts.(*fmtOpts)
+	if len(args) != 1 {
+		fmt.Fprintln(e.stderr, "pare fmt: give exactly one file")
+		return exitBad
+	}
+	path := args[0]
+	c, ok := loadCircuit(e, path)
+	if !ok {
+		return exitBad
+	}
+	var buf bytes.Buffer
+	if err := graph.Write(&buf, c); err != nil {
+		fmt.Fprintf(e.stderr, "pare fmt: %v\n", err)
+		return exitBad
+	}
+	old, err := os.ReadFile(path)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare fmt: %v\n", err)
+		return exitBad
+	}
+	if o.check {
+		if !bytes.Equal(old, buf.Bytes()) {
+			fmt.Fprintf(e.stdout, "%s: not in canonical layout (run 'pare fmt %s')\n", path, path)
+			return exitFound
+		}
+		return exitOK
+	}
+	dest := path
+	if o.out != "" {
+		dest = o.out
+	}
+	if dest == path && bytes.Equal(old, buf.Bytes()) {
+		return exitOK
+	}
+	if dest == "-" {
+		e.stdout.Write(buf.Bytes())
+		return exitOK
+	}
+	if err := writeFileAtomic(dest, buf.Bytes()); err != nil {
+		fmt.Fprintf(e.stderr, "pare fmt: %v\n", err)
+		return exitBad
+	}
+	return exitOK
+}

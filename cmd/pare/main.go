@@ -1,0 +1,210 @@
+// Command pare reduces a valve or transistor circuit, captured as a TOML
+// netlist, to its small-signal path: it explains every step, proves by AC
+// analysis that the signal behaviour is kept, names the stages with their
+// figures and draws the signal-path sheet for repair notes.
+//
+// Usage:
+//
+//	pare FILE.toml [-o DIR]       the whole job: reduced netlist, sheets, notes.md
+//	pare COMMAND [flags] FILE...  one step; `pare help` lists the commands
+package main
+
+import (
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"sort"
+	"strings"
+)
+
+// version is the release this build reports; bumped by hand at release.
+const version = "0.1.0"
+
+// Exit codes, the same for every command.
+const (
+	exitOK    = 0 // done, nothing to report
+	exitFound = 1 // warnings (check --strict) or a failed verification
+	exitBad   = 2 // bad input or usage
+)
+
+// command is one subcommand. Each lives in its own file and registers itself
+// in init, so the list of commands is the set of files, and `pare help`
+// prints them sorted.
+type command struct {
+	name    string
+	args    string // argument synopsis for help
+	summary string // one line
+	detail  string // paragraph for `pare help NAME`
+	flags   func(fs *flag.FlagSet) any
+	run     func(env *env, opts any, args []string) int
+}
+
+var commands = map[string]*command{}
+
+func register(c *command) {
+	if _, dup := commands[c.name]; dup {
+		panic("pare: command registered twice: " + c.name) // programming error, not user input
+	}
+	commands[c.name] = c
+}
+
+// env is what a command may touch: its output streams. Commands never call
+// os.Exit themselves, so tests can run them in-process.
+type env struct {
+	stdout io.Writer
+	stderr io.Writer
+}
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// run executes one pare invocation and returns its exit code.
+func run(args []string, stdout, stderr io.Writer) int {
+	e := &env{stdout: stdout, stderr: stderr}
+	if len(args) == 0 {
+		usage(stderr)
+		return exitBad
+	}
+	switch args[0] {
+	case "--version", "-version", "version":
+		fmt.Fprintf(stdout, "pare %s\n", version)
+		return exitOK
+	case "help", "--help", "-h", "-help":
+		if len(args) > 1 {
+			if c, ok := commands[args[1]]; ok {
+				commandHelp(stdout, c)
+				return exitOK
+			}
+			fmt.Fprintf(stderr, "pare: no command %q\n", args[1])
+			return exitBad
+		}
+		usage(stdout)
+		return exitOK
+	}
+	name, rest := args[0], args[1:]
+	c, ok := commands[name]
+	if !ok {
+		if strings.HasSuffix(name, ".toml") || fileExists(name) {
+			// `pare FILE`: the main job.
+			c, rest = commands[mainJob], args
+		} else {
+			fmt.Fprintf(stderr, "pare: unknown command %q%s\n", name, suggestCommand(name))
+			fmt.Fprintln(stderr, "run 'pare help' for the list of commands")
+			return exitBad
+		}
+	}
+	if c == nil {
+		fmt.Fprintf(stderr, "pare: %s: the whole job is not built into this version\n", name)
+		return exitBad
+	}
+	fs := flag.NewFlagSet("pare "+c.name, flag.ContinueOnError)
+	fs.SetOutput(io.Discard)
+	var opts any
+	if c.flags != nil {
+		opts = c.flags(fs)
+	}
+	pos, err := parseInterleaved(fs, rest)
+	if errors.Is(err, flag.ErrHelp) {
+		commandHelp(stdout, c)
+		return exitOK
+	}
+	if err != nil {
+		fmt.Fprintf(stderr, "pare %s: %v\n", c.name, err)
+		fmt.Fprintf(stderr, "usage: pare %s %s (see 'pare help %s')\n", c.name, c.args, c.name)
+		return exitBad
+	}
+	return c.run(e, opts, pos)
+}
+
+// mainJob is the name the whole-job command registers under; `pare FILE`
+// runs it.
+const mainJob = "run"
+
+// parseInterleaved lets flags stand before or after file names
+// (`pare reduce FILE -o OUT`), which the flag package alone does not.
+// A lone "--" ends the flags.
+func parseInterleaved(fs *flag.FlagSet, args []string) ([]string, error) {
+	var pos []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			return nil, err
+		}
+		args = fs.Args()
+		if len(args) == 0 {
+			return pos, nil
+		}
+		if args[0] == "--" {
+			return append(pos, args[1:]...), nil
+		}
+		pos = append(pos, args[0])
+		args = args[1:]
+	}
+}
+
+func usage(w io.Writer) {
+	fmt.Fprintln(w, "pare: reduce a circuit netlist to its small-signal path, verify it, name its stages, draw it")
+	fmt.Fprintln(w)
+	fmt.Fprintln(w, "usage:")
+	fmt.Fprintln(w, "  pare FILE.toml [-o DIR]     the whole job: reduce, verify, recognise, draw, write notes")
+	fmt.Fprintln(w, "  pare COMMAND [flags] ARGS   one step")
+	fmt.Fprintln(w)
+	fmt.Fprintln(w, "commands:")
+	names := make([]string, 0, len(commands))
+	for n := range commands {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		fmt.Fprintf(w, "  %-8s %s\n", n, commands[n].summary)
+	}
+	fmt.Fprintln(w)
+	fmt.Fprintln(w, "exit codes: 0 fine, 1 warnings (with --strict) or failed verification, 2 bad input or usage")
+	fmt.Fprintln(w, "'pare help COMMAND' or 'pare COMMAND --help' shows a command's flags; 'pare --version' the version.")
+}
+
+func commandHelp(w io.Writer, c *command) {
+	fmt.Fprintf(w, "usage: pare %s %s\n\n%s\n", c.name, c.args, c.summary)
+	if c.detail != "" {
+		fmt.Fprintf(w, "\n%s\n", strings.TrimSpace(c.detail))
+	}
+	fs := flag.NewFlagSet(c.name, flag.ContinueOnError)
+	if c.flags != nil {
+		c.flags(fs)
+	}
+	has := false
+	fs.VisitAll(func(*flag.Flag) { has = true })
+	if has {
+		fmt.Fprintln(w, "\nflags:")
+		fs.SetOutput(w)
+		fs.VisitAll(func(f *flag.Flag) {
+			def := ""
+			if f.DefValue != "" && f.DefValue != "false" {
+				def = fmt.Sprintf(" (default %s)", f.DefValue)
+			}
+			fmt.Fprintf(w, "  --%-12s %s%s\n", f.Name, f.Usage, def)
+		})
+	}
+}
+
+func suggestCommand(name string) string {
+	best := ""
+	for n := range commands {
+		if strings.HasPrefix(n, name) || strings.HasPrefix(name, n) {
+			if best == "" || n < best {
+				best = n
+			}
+		}
+	}
+	if best != "" {
+		return fmt.Sprintf(" (did you mean %q?)", best)
+	}
+	return ""
+}
+
+func fileExists(p string) bool {
+	st, err := os.Stat(p)
+	return err == nil && !st.IsDir()
+}

@@ -1,0 +1,73 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+
+	"pare/graph"
+)
+
+// writeFileAtomic writes data to path through a temporary file in the same
+// folder and a rename, so a reader never sees half a file and a failure
+// leaves any old file as it was.
+func writeFileAtomic(path string, data []byte) error {
+	dir := filepath.Dir(path)
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp*")
+	if err != nil {
+		return err
+	}
+	name := tmp.Name()
+	if _, err := tmp.Write(data); err != nil {
+		tmp.Close()
+		os.Remove(name)
+		return err
+	}
+	if err := tmp.Close(); err != nil {
+		os.Remove(name)
+		return err
+	}
+	if err := os.Chmod(name, 0o644); err != nil {
+		os.Remove(name)
+		return err
+	}
+	if err := os.Rename(name, path); err != nil {
+		os.Remove(name)
+		return err
+	}
+	return nil
+}
+
+// writeOutput renders with fn into memory first, then writes the file
+// atomically; "-" writes to stdout.
+func writeOutput(e *env, path string, fn func(w io.Writer) error) error {
+	var buf bytes.Buffer
+	if err := fn(&buf); err != nil {
+		return err
+	}
+	if path == "-" || path == "" {
+		_, err := e.stdout.Write(buf.Bytes())
+		return err
+	}
+	return writeFileAtomic(path, buf.Bytes())
+}
+
+// loadCircuit loads a netlist and prints every problem on stderr as
+// file:line:col: message. ok is false when the file cannot be used.
+func loadCircuit(e *env, path string) (*graph.Circuit, bool) {
+	c, err := graph.LoadFile(path)
+	if err != nil {
+		if list, isList := err.(graph.ErrorList); isList {
+			for _, x := range list {
+				fmt.Fprintln(e.stderr, x.Error())
+			}
+			fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+		} else {
+			fmt.Fprintf(e.stderr, "pare: %v\n", err)
+		}
+		return nil, false
+	}
+	return c, true
+}

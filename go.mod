@@ -1,0 +1,8 @@
+module pare
+
+go 1.26.8
+
+require (
+	github.com/BurntSushi/toml v1.6.0
+	gonum.org/v1/gonum v0.17.0
+)

@@ -1,0 +1,249 @@
+package graph
+
+import (
+	"fmt"
+	"sort"
+	"strings"
+
+	"pare/graph/value"
+)
+
+// plausible value ranges per kind, in SI units. Outside them a value is far
+// more likely a slip of the pen (47 F for 47 nF, 1 mΩ for 1 MΩ) than a real
+// part. The limits are generous on purpose (common practice, no source).
+var plausible = map[Kind][2]float64{
+	Resistor:  {0.1, 100e6},
+	Capacitor: {0.1e-12, 0.1},
+	Inductor:  {10e-9, 1000},
+	Crystal:   {1e3, 500e6},
+	Pot:       {1, 50e6},
+}
+
+// unitOf gives the unit of a kind's main value, for messages.
+func unitOf(k Kind) value.Unit {
+	switch k {
+	case Resistor, Pot:
+		return value.Ohm
+	case Capacitor:
+		return value.Farad
+	case Inductor:
+		return value.Henry
+	case Crystal:
+		return value.Hertz
+	}
+	return value.None
+}
+
+// Check looks for the transcription mistakes people make when copying a
+// paper diagram: things that load fine but are almost surely wrong. Each
+// finding is a warning with the position of the part or net concerned.
+func Check(c *Circuit) ErrorList {
+	var w ErrorList
+	conns := c.Conns()
+	for _, n := range c.Nets {
+		if n.Name == "nc" {
+			continue
+		}
+		cs := conns[n.Name]
+		switch {
+		case len(cs) == 0 && !isSignalEnd(c, n.Name):
+			w.Add(n.Pos, "net %s is declared but nothing connects to it", n.Name)
+		case len(cs) == 1 && !n.Role.IsACGround() && n.Role != PortN && !isSignalEnd(c, n.Name) && cs[0].Part.Kind != Port:
+			w.Add(cs[0].Part.Pin(cs[0].Pin).Pos, "net %s has only one connection (%s.%s): a wire missing, or a typo in the net name?", n.Name, cs[0].Part.Ref, cs[0].Pin)
+		}
+	}
+	for _, p := range c.Parts {
+		for _, pin := range p.Pins {
+			if pin.Net == "nc" && RoleOfPin(p.Kind, pin.Name) != RoleHeater && RoleOfPin(p.Kind, pin.Name) != RoleShield {
+				w.Add(pin.Pos, "%s terminal %s is marked unconnected (nc)", p.Ref, pin.Name)
+			}
+		}
+		if p.IsActive() {
+			common := p.PinWithRole(RoleCommon)
+			if net := p.NetOf(common); net != "" && net != "nc" && len(conns[net]) == 1 && !c.RoleOf(net).IsACGround() {
+				w.Add(p.Pin(common).Pos, "%s's %s (%s) goes nowhere: net %s has no other connection", p.Ref, electrodeName(p, common), common, net)
+			}
+		}
+		if lim, ok := plausible[p.Kind]; ok {
+			u := unitOf(p.Kind)
+			for _, v := range []float64{p.Value.Min, p.Value.Max} {
+				if v != 0 && (v < lim[0] || v > lim[1]) {
+					w.Add(p.Pos, "%s = %s is far outside the usual range for a %s (%s to %s): check the multiplier", p.Ref,
+						value.Format(v, u, value.Symbol), p.Kind, value.Format(lim[0], u, value.Symbol), value.Format(lim[1], u, value.Symbol))
+					break
+				}
+			}
+		}
+		if p.Kind == Capacitor && p.Type == CapFixed && p.Value.Max > 2e-6 && strings.Contains(strings.ToLower(p.Note), "coupling") {
+			w.Add(p.Pos, "%s: a %s coupling capacitor is unusually large", p.Ref, value.Format(p.Value.Max, value.Farad, value.Symbol))
+		}
+		if p.Kind != Port && p.Kind != Generic && len(p.Pins) > 0 {
+			same := true
+			for _, pin := range p.Pins {
+				if pin.Net != p.Pins[0].Net {
+					same = false
+				}
+			}
+			if same && len(p.Pins) > 1 {
+				w.Add(p.Pos, "%s has every terminal on net %s: it is shorted out", p.Ref, p.Pins[0].Net)
+			}
+		}
+	}
+	w = append(w, checkRefs(c)...)
+	w = append(w, checkGangs(c)...)
+	w = append(w, checkPorts(c, conns)...)
+	w = append(w, checkEnvelopes(c)...)
+	w.Sort()
+	return w
+}
+
+func isSignalEnd(c *Circuit, net string) bool {
+	for _, n := range c.Inputs {
+		if n == net {
+			return true
+		}
+	}
+	for _, n := range c.Outputs {
+		if n == net {
+			return true
+		}
+	}
+	for _, r := range c.Regions {
+		if r.Input == net || r.Output == net {
+			return true
+		}
+	}
+	return false
+}
+
+func electrodeName(p *Part, pin string) string {
+	switch p.Kind {
+	case Valve:
+		return "cathode"
+	case BJT:
+		return "emitter"
+	case FET:
+		return "source"
+	}
+	return pin
+}
+
+// refPrefixes are the usual letters for each kind (IEC 60617 / IEEE 315
+// practice is loose here; these are the common ones, common practice, no source).
+var refPrefixes = map[Kind][]string{
+	Resistor:    {"R"},
+	Capacitor:   {"C", "VC", "TC"},
+	Inductor:    {"L", "RFC"},
+	Transformer: {"T", "L", "IFT"},
+	Valve:       {"V"},
+	BJT:         {"Q", "T", "TR"},
+	FET:         {"Q", "T", "TR", "J", "M"},
+	Diode:       {"D"},
+	Crystal:     {"X", "XTAL", "Y"},
+	Pot:         {"RV", "VR", "R", "P"},
+	Switch:      {"S", "SW"},
+	Port:        {"P", "J", "X", "K"},
+}
+
+func checkRefs(c *Circuit) ErrorList {
+	var w ErrorList
+	lower := map[string][]*Part{}
+	for _, p := range c.Parts {
+		k := strings.ToLower(p.Ref)
+		lower[k] = append(lower[k], p)
+		if pre, ok := refPrefixes[p.Kind]; ok {
+			letters := strings.TrimRightFunc(p.Ref, func(r rune) bool { return r >= '0' && r <= '9' || r >= 'a' && r <= 'z' })
+			if !contains(pre, strings.ToUpper(letters)) {
+				w.Add(p.Pos, "%s is a %s but its letter suggests otherwise (usual: %s)", p.Ref, p.Kind, strings.Join(pre, ", "))
+			}
+		}
+	}
+	for _, k := range sortedKeys(lower) {
+		if ps := lower[k]; len(ps) > 1 {
+			var refs []string
+			for _, p := range ps {
+				refs = append(refs, p.Ref)
+			}
+			w.Add(ps[1].Pos, "reference designators %s differ only in case: one part entered twice?", strings.Join(refs, " and "))
+		}
+	}
+	return w
+}
+
+func checkGangs(c *Circuit) ErrorList {
+	var w ErrorList
+	gangs := map[string][]*Part{}
+	for _, p := range c.Parts {
+		if p.Gang != "" {
+			gangs[p.Gang] = append(gangs[p.Gang], p)
+		}
+	}
+	for _, g := range sortedKeys(gangs) {
+		ps := gangs[g]
+		if len(ps) == 1 {
+			w.Add(ps[0].Pos, "gang %q has only one member (%s): the other section's gang mark is missing?", g, ps[0].Ref)
+		}
+		for _, p := range ps {
+			if p.Kind != Capacitor || p.Type != CapVariable {
+				if p.Kind != Pot && p.Kind != Switch && p.Kind != Inductor {
+					w.Add(p.Pos, "%s is in gang %q but is not a variable part", p.Ref, g)
+				}
+			}
+		}
+	}
+	return w
+}
+
+func checkPorts(c *Circuit, conns map[string][]Conn) ErrorList {
+	var w ErrorList
+	for _, p := range c.Parts {
+		if p.Kind != Port || len(p.Pins) == 0 {
+			continue
+		}
+		if len(conns[p.Pins[0].Net]) < 2 && !c.RoleOf(p.Pins[0].Net).IsACGround() {
+			w.Add(p.Pos, "port %s (%q) connects to net %s, which no other part uses", p.Ref, p.Label, p.Pins[0].Net)
+		}
+	}
+	return w
+}
+
+// checkEnvelopes warns when the sections of one envelope disagree about the
+// heater (a multi-section valve shares one heater).
+func checkEnvelopes(c *Circuit) ErrorList {
+	var w ErrorList
+	env := map[string][]*Part{}
+	for _, p := range c.Parts {
+		if p.Envelope != "" {
+			env[p.Envelope] = append(env[p.Envelope], p)
+		}
+	}
+	for _, e := range sortedKeys(env) {
+		ps := env[e]
+		if len(ps) == 1 {
+			w.Add(ps[0].Pos, "envelope %q has one section only (%s)", e, ps[0].Ref)
+			continue
+		}
+		heaters := map[string]bool{}
+		for _, p := range ps {
+			var h []string
+			for _, pin := range p.Pins {
+				if RoleOfPin(p.Kind, pin.Name) == RoleHeater {
+					h = append(h, pin.Net)
+				}
+			}
+			sort.Strings(h)
+			if len(h) > 0 {
+				heaters[strings.Join(h, ",")] = true
+			}
+		}
+		if len(heaters) > 1 {
+			w.Add(ps[0].Pos, "sections of envelope %q show different heater connections (%s)", e, strings.Join(sortedKeys(heaters), " / "))
+		}
+	}
+	return w
+}
+
+// Summary is the one-line description `pare check` prints per file.
+func Summary(c *Circuit, warnings int) string {
+	return fmt.Sprintf("%d parts, %d nets, %d warnings", len(c.Parts), len(c.Nets), warnings)
+}

@@ -1,0 +1,350 @@
+package graph
+
+import (
+	"strconv"
+	"strings"
+)
+
+// keyIndex maps key paths ("parts.R1.pins[0]") to where the key and its value
+// were written. The TOML decoder gives values without positions, so after it
+// has accepted a file we walk the text once more to learn where each key
+// stands; every later message can then name file:line:col.
+type keyIndex struct {
+	file     string
+	keys     map[string]Pos // position of the key itself
+	vals     map[string]Pos // position of the first character of its value
+	comments map[string]Comment
+}
+
+func (ix *keyIndex) key(path string) Pos {
+	if p, ok := ix.keys[path]; ok {
+		return p
+	}
+	// An array element has no key: fall back to its value, then to the parent.
+	if p, ok := ix.vals[path]; ok {
+		return p
+	}
+	if i := strings.LastIndexAny(path, ".["); i > 0 {
+		return ix.key(path[:i])
+	}
+	return Pos{File: ix.file, Line: 1, Col: 1}
+}
+
+func (ix *keyIndex) val(path string) Pos {
+	if p, ok := ix.vals[path]; ok {
+		return p
+	}
+	return ix.key(path)
+}
+
+type keyScanner struct {
+	src     []rune
+	i       int
+	line    int
+	col     int
+	ix      *keyIndex
+	pending []string // comment lines waiting for the next statement
+	last    string   // the path recorded last, for a comment after it on its line
+}
+
+// indexKeys scans TOML text that the decoder has already accepted.
+func indexKeys(file string, src string) *keyIndex {
+	ix := &keyIndex{file: file, keys: map[string]Pos{}, vals: map[string]Pos{}, comments: map[string]Comment{}}
+	s := &keyScanner{src: []rune(src), line: 1, col: 1, ix: ix}
+	s.document()
+	return ix
+}
+
+func (s *keyScanner) pos() Pos { return Pos{File: s.ix.file, Line: s.line, Col: s.col} }
+
+func (s *keyScanner) peek() rune {
+	if s.i < len(s.src) {
+		return s.src[s.i]
+	}
+	return 0
+}
+
+func (s *keyScanner) next() rune {
+	if s.i >= len(s.src) {
+		return 0
+	}
+	r := s.src[s.i]
+	s.i++
+	if r == '\n' {
+		s.line++
+		s.col = 1
+	} else {
+		s.col++
+	}
+	return r
+}
+
+func (s *keyScanner) skipSpace() {
+	for s.peek() == ' ' || s.peek() == '\t' || s.peek() == '\r' {
+		s.next()
+	}
+}
+
+// skipBlank skips white space, newlines and comments inside arrays and
+// (TOML 1.1) multi-line inline tables.
+func (s *keyScanner) skipBlank() {
+	for {
+		switch s.peek() {
+		case ' ', '\t', '\r', '\n':
+			s.next()
+		case '#':
+			s.comment()
+		default:
+			return
+		}
+	}
+}
+
+func (s *keyScanner) comment() string {
+	s.next() // '#'
+	start := s.i
+	for s.i < len(s.src) && s.src[s.i] != '\n' {
+		s.next()
+	}
+	return strings.TrimRight(string(s.src[start:s.i]), "\r")
+}
+
+func (s *keyScanner) document() {
+	table := ""
+	for s.i < len(s.src) {
+		s.skipSpace()
+		switch r := s.peek(); {
+		case r == '\n':
+			s.next()
+			continue
+		case r == '#':
+			s.pending = append(s.pending, s.comment())
+			continue
+		case r == '[':
+			at := s.pos()
+			s.next()
+			arr := false
+			if s.peek() == '[' {
+				s.next()
+				arr = true
+			}
+			s.skipSpace()
+			table = strings.Join(s.keyParts(), ".")
+			s.skipSpace()
+			s.next()
+			if arr {
+				s.next()
+			}
+			s.record(table, at, at)
+			s.last = table
+		default:
+			at := s.pos()
+			path := join(table, strings.Join(s.keyParts(), "."))
+			s.skipSpace()
+			if s.peek() == '=' {
+				s.next()
+			}
+			s.skipSpace()
+			s.record(path, at, s.pos())
+			s.value(path)
+			s.last = path
+		}
+		s.skipSpace()
+		if s.peek() == '#' {
+			c := s.ix.comments[s.lastPath()]
+			c.After = s.comment()
+			s.ix.comments[s.lastPath()] = c
+		}
+		if s.peek() != '\n' && s.peek() != 0 {
+			// Not expected in valid TOML; skip the rest of the line.
+			for s.peek() != '\n' && s.peek() != 0 {
+				s.next()
+			}
+		}
+	}
+}
+
+func (s *keyScanner) lastPath() string { return s.last }
+
+func (s *keyScanner) record(path string, key, val Pos) {
+	if _, dup := s.ix.keys[path]; !dup {
+		s.ix.keys[path] = key
+		s.ix.vals[path] = val
+	}
+	if len(s.pending) > 0 {
+		c := s.ix.comments[path]
+		c.Above = append(c.Above, s.pending...)
+		s.ix.comments[path] = c
+		s.pending = nil
+	}
+	s.last = path
+}
+
+func join(a, b string) string {
+	if a == "" {
+		return b
+	}
+	if b == "" {
+		return a
+	}
+	return a + "." + b
+}
+
+// keyParts reads a possibly dotted, possibly quoted key.
+func (s *keyScanner) keyParts() []string {
+	var parts []string
+	for {
+		s.skipSpace()
+		switch s.peek() {
+		case '"':
+			parts = append(parts, s.basicString())
+		case '\'':
+			parts = append(parts, s.literalString())
+		default:
+			start := s.i
+			for isBareKey(s.peek()) {
+				s.next()
+			}
+			parts = append(parts, string(s.src[start:s.i]))
+		}
+		s.skipSpace()
+		if s.peek() != '.' {
+			return parts
+		}
+		s.next()
+	}
+}
+
+func isBareKey(r rune) bool {
+	return r == '_' || r == '-' || (r >= 'a' && r <= 'z') || (r >= 'A' && r <= 'Z') || (r >= '0' && r <= '9')
+}
+
+func (s *keyScanner) value(path string) {
+	switch s.peek() {
+	case '{':
+		s.next()
+		for {
+			s.skipBlank()
+			if s.peek() == '}' || s.peek() == 0 {
+				s.next()
+				return
+			}
+			at := s.pos()
+			p := join(path, strings.Join(s.keyParts(), "."))
+			s.skipSpace()
+			if s.peek() == '=' {
+				s.next()
+			}
+			s.skipBlank()
+			s.record(p, at, s.pos())
+			s.value(p)
+			s.skipBlank()
+			if s.peek() == ',' {
+				s.next()
+			}
+		}
+	case '[':
+		s.next()
+		for n := 0; ; n++ {
+			s.skipBlank()
+			if s.peek() == ']' || s.peek() == 0 {
+				s.next()
+				return
+			}
+			p := path + "[" + strconv.Itoa(n) + "]"
+			at := s.pos()
+			s.ix.vals[p] = at
+			s.value(p)
+			s.skipBlank()
+			if s.peek() == ',' {
+				s.next()
+			}
+		}
+	case '"':
+		s.basicString()
+	case '\'':
+		s.literalString()
+	default:
+		for {
+			r := s.peek()
+			if r == 0 || r == ',' || r == '}' || r == ']' || r == '\n' || r == '#' {
+				return
+			}
+			s.next()
+		}
+	}
+}
+
+func (s *keyScanner) basicString() string {
+	if s.hasPrefix(`"""`) {
+		s.next()
+		s.next()
+		s.next()
+		var b strings.Builder
+		for s.peek() != 0 && !s.hasPrefix(`"""`) {
+			if s.peek() == '\\' {
+				s.next()
+			}
+			b.WriteRune(s.next())
+		}
+		s.next()
+		s.next()
+		s.next()
+		for s.peek() == '"' { // up to two quotes may close a multi-line string
+			s.next()
+		}
+		return b.String()
+	}
+	s.next()
+	start := s.i
+	for s.peek() != 0 && s.peek() != '"' && s.peek() != '\n' {
+		if s.peek() == '\\' {
+			s.next()
+		}
+		s.next()
+	}
+	raw := string(s.src[start:s.i])
+	s.next()
+	if u, err := strconv.Unquote(`"` + raw + `"`); err == nil {
+		return u
+	}
+	return raw
+}
+
+func (s *keyScanner) literalString() string {
+	if s.hasPrefix(`'''`) {
+		s.next()
+		s.next()
+		s.next()
+		start := s.i
+		for s.peek() != 0 && !s.hasPrefix(`'''`) {
+			s.next()
+		}
+		out := string(s.src[start:s.i])
+		s.next()
+		s.next()
+		s.next()
+		return out
+	}
+	s.next()
+	start := s.i
+	for s.peek() != 0 && s.peek() != '\'' && s.peek() != '\n' {
+		s.next()
+	}
+	out := string(s.src[start:s.i])
+	s.next()
+	return out
+}
+
+func (s *keyScanner) hasPrefix(p string) bool {
+	rp := []rune(p)
+	if s.i+len(rp) > len(s.src) {
+		return false
+	}
+	for k, r := range rp {
+		if s.src[s.i+k] != r {
+			return false
+		}
+	}
+	return true
+}

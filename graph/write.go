@@ -1,0 +1,446 @@
+package graph
+
+import (
+	"bufio"
+	"fmt"
+	"io"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+
+	"pare/graph/value"
+)
+
+// Write prints a circuit in the canonical netlist layout: top-level keys,
+// then [freqs], [regions], [nets] and [parts], one entry per line, sorted.
+// The output is itself a valid netlist and loads back to the same circuit;
+// comments the user wrote above entries, or after them, are kept.
+func Write(w io.Writer, c *Circuit) error {
+	bw := bufio.NewWriter(w)
+	cw := &cwriter{w: bw, c: c}
+	cw.top()
+	return bw.Flush()
+}
+
+type cwriter struct {
+	w *bufio.Writer
+	c *Circuit
+}
+
+func (cw *cwriter) line(path, text string) {
+	if cm, ok := cw.c.Comments[path]; ok {
+		for _, a := range cm.Above {
+			fmt.Fprintf(cw.w, "#%s\n", a)
+		}
+		if cm.After != "" {
+			fmt.Fprintf(cw.w, "%s #%s\n", text, cm.After)
+			return
+		}
+	}
+	fmt.Fprintln(cw.w, text)
+}
+
+func (cw *cwriter) top() {
+	c := cw.c
+	if c.Title != "" {
+		cw.line("title", "title = "+quote(c.Title))
+	}
+	if c.Note != "" {
+		cw.line("note", "note = "+quote(c.Note))
+	}
+	if c.Band.Max > 0 {
+		cw.line("band", "band = "+quote(fmtRange(c.Band, value.Hertz)))
+	}
+	if len(c.Inputs) > 0 {
+		cw.line("inputs", "inputs = "+strList(c.Inputs))
+	}
+	if len(c.Outputs) > 0 {
+		cw.line("outputs", "outputs = "+strList(c.Outputs))
+	}
+	if len(c.Freqs) > 0 {
+		fmt.Fprintln(cw.w)
+		cw.line("freqs", "[freqs]")
+		for _, k := range sortedKeys(c.Freqs) {
+			cw.line("freqs."+k, bareKey(k)+" = "+quote(fmtNum(c.Freqs[k], value.Hertz)))
+		}
+	}
+	if len(c.Regions) > 0 {
+		fmt.Fprintln(cw.w)
+		cw.line("regions", "[regions]")
+		for _, r := range c.Regions {
+			kv := []string{"band = " + quote(fmtRange(r.Band, value.Hertz))}
+			if len(r.Parts) > 0 {
+				kv = append(kv, "parts = "+strList(r.Parts))
+			}
+			if len(r.Nets) > 0 {
+				kv = append(kv, "nets = "+strList(r.Nets))
+			}
+			if r.Input != "" {
+				kv = append(kv, "input = "+quote(r.Input))
+			}
+			if r.Output != "" {
+				kv = append(kv, "output = "+quote(r.Output))
+			}
+			cw.line("regions."+r.Name, bareKey(r.Name)+" = "+inline(kv))
+		}
+	}
+	var nets []string
+	for _, n := range c.Nets {
+		var kv []string
+		if n.Role != DefaultRole(n.Name) {
+			kv = append(kv, "role = "+quote(string(n.Role)))
+		}
+		if n.Volts != 0 {
+			kv = append(kv, "volts = "+fmtFloat(n.Volts))
+		}
+		if n.Label != "" {
+			kv = append(kv, "label = "+quote(n.Label))
+		}
+		if len(kv) > 0 {
+			nets = append(nets, n.Name)
+			_ = kv
+		}
+	}
+	if len(nets) > 0 {
+		fmt.Fprintln(cw.w)
+		cw.line("nets", "[nets]")
+		for _, name := range nets {
+			n := c.Net(name)
+			var kv []string
+			if n.Role != DefaultRole(n.Name) {
+				kv = append(kv, "role = "+quote(string(n.Role)))
+			}
+			if n.Volts != 0 {
+				kv = append(kv, "volts = "+fmtFloat(n.Volts))
+			}
+			if n.Label != "" {
+				kv = append(kv, "label = "+quote(n.Label))
+			}
+			cw.line("nets."+name, bareKey(name)+" = "+inline(kv))
+		}
+	}
+	fmt.Fprintln(cw.w)
+	cw.line("parts", "[parts]")
+	for _, p := range c.Parts {
+		cw.line("parts."+p.Ref, bareKey(p.Ref)+" = "+inline(partKV(p)))
+	}
+}
+
+func partKV(p *Part) []string {
+	var kv []string
+	add := func(s string) { kv = append(kv, s) }
+	switch p.Kind {
+	case Resistor:
+		add("r = " + quote(fmtNum(p.Value.Max, value.Ohm)))
+	case Capacitor:
+		add("c = " + quote(fmtRange(p.Value, value.Farad)))
+		defType := CapFixed
+		if p.Value.IsSpan() {
+			defType = CapVariable
+		}
+		if p.Type == CapTrimmer {
+			add("set = " + quote(fmtNum(p.Set, value.Farad)))
+		} else if p.Type != defType {
+			add("type = " + quote(p.Type))
+		}
+	case Inductor:
+		switch {
+		case len(p.Windings) == 2:
+			add(fmt.Sprintf("l = [%s, %s]", quote(fmtNum(p.Windings[0].L, value.Henry)), quote(fmtNum(p.Windings[1].L, value.Henry))))
+			if k := p.K(p.Windings[0].Name, p.Windings[1].Name); k != 1 {
+				add("k = " + fmtFloat(k))
+			}
+		default:
+			add("l = " + quote(fmtNum(p.Value.Max, value.Henry)))
+		}
+		if p.Type != IndPlain && p.Type != "" {
+			add("type = " + quote(p.Type))
+		}
+		if len(p.Windings) > 0 && p.Windings[0].Q > 0 {
+			add("q = " + fmtFloat(p.Windings[0].Q))
+		}
+	case Transformer:
+		add("windings = " + windingsKV(p))
+		if k := couplingKV(p); k != "" {
+			add("k = " + k)
+		}
+	case Valve:
+		add("valve = " + quote(p.Type))
+	case BJT:
+		add("bjt = " + quote(p.Type))
+	case FET:
+		add("fet = " + quote(p.Type))
+	case Diode:
+		add("diode = " + quote(p.Type))
+	case Crystal:
+		add("xtal = " + quote(fmtNum(p.Value.Max, value.Hertz)))
+	case Pot:
+		add("pot = " + quote(fmtNum(p.Value.Max, value.Ohm)))
+		if p.Set != 0.5 {
+			add("set = " + fmtFloat(p.Set))
+		}
+	case Switch:
+		add(fmt.Sprintf("switch = %d", len(p.Closes)))
+		if p.Set != 1 {
+			add("set = " + fmtFloat(p.Set))
+		}
+		var pos []string
+		for _, prs := range p.Closes {
+			var s []string
+			for _, pr := range prs {
+				s = append(s, pr[0]+"-"+pr[1])
+			}
+			pos = append(pos, strings.Join(s, " "))
+		}
+		add("closes = " + strList(pos))
+	case Port:
+		add("port = " + quote(p.Label))
+	case Generic:
+		add("part = " + quote(p.Label))
+	}
+	add("pins = " + pinsKV(p))
+	if p.Tol != (value.Tolerance{}) {
+		add("tol = " + quote(tolText(p.Tol)))
+	}
+	if p.Rating != 0 {
+		add("rating = " + quote(fmtNum(p.Rating, value.Volt)))
+	}
+	if p.Gang != "" {
+		add("gang = " + quote(p.Gang))
+	}
+	if p.Envelope != "" {
+		add("envelope = " + quote(p.Envelope))
+	}
+	if p.Keep {
+		add("keep = true")
+	}
+	for _, k := range sortedKeys(p.Params) {
+		u := paramUnit(k)
+		if u == value.None {
+			add(k + " = " + fmtFloat(p.Params[k]))
+		} else {
+			add(k + " = " + quote(fmtNum(p.Params[k], u)))
+		}
+	}
+	if len(p.From) > 0 {
+		add("from = " + strList(p.From))
+	}
+	if p.Note != "" {
+		add("note = " + quote(p.Note))
+	}
+	return kv
+}
+
+// tolText writes a tolerance the way ParseTolerance reads it.
+func tolText(t value.Tolerance) string {
+	if t.Plus == t.Minus {
+		return fmtFloat(t.Plus*100) + "%"
+	}
+	return "+" + fmtFloat(t.Plus*100) + "/-" + fmtFloat(t.Minus*100) + "%"
+}
+
+func windingsKV(p *Part) string {
+	var kv []string
+	done := map[string]bool{}
+	for _, w := range p.Windings {
+		if done[w.Name] {
+			continue
+		}
+		if strings.HasSuffix(w.Name, "a") && strings.HasSuffix(w.To, "t") {
+			base := strings.TrimSuffix(w.Name, "a")
+			if b := p.Winding(base + "b"); b != nil {
+				done[b.Name] = true
+				kv = append(kv, fmt.Sprintf("%s = [%s, %s]", bareKey(base), quote(fmtNum(w.L, value.Henry)), quote(fmtNum(b.L, value.Henry))))
+				continue
+			}
+		}
+		if w.Q > 0 {
+			kv = append(kv, fmt.Sprintf("%s = { l = %s, q = %s }", bareKey(w.Name), quote(fmtNum(w.L, value.Henry)), fmtFloat(w.Q)))
+		} else {
+			kv = append(kv, fmt.Sprintf("%s = %s", bareKey(w.Name), quote(fmtNum(w.L, value.Henry))))
+		}
+	}
+	return inline(kv)
+}
+
+func isHalfPair(p *Part, c Coupling) bool {
+	return strings.TrimSuffix(c.A, "a") == strings.TrimSuffix(c.B, "b") && strings.HasSuffix(c.A, "a") && strings.HasSuffix(c.B, "b") && c.K == 1
+}
+
+func couplingKV(p *Part) string {
+	var list []Coupling
+	for _, c := range p.Coupling {
+		if !isHalfPair(p, c) {
+			list = append(list, c)
+		}
+	}
+	if len(list) == 0 {
+		return ""
+	}
+	// One number when every pair of distinct windings has the same k, as the
+	// loader reads a single k.
+	pairs := 0
+	for i := range p.Windings {
+		for j := i + 1; j < len(p.Windings); j++ {
+			if !isHalfPair(p, Coupling{A: p.Windings[i].Name, B: p.Windings[j].Name, K: p.K(p.Windings[i].Name, p.Windings[j].Name)}) {
+				pairs++
+			}
+		}
+	}
+	same := true
+	for _, c := range list {
+		if c.K != list[0].K {
+			same = false
+		}
+	}
+	if same && len(list) == pairs {
+		return fmtFloat(list[0].K)
+	}
+	sort.Slice(list, func(i, j int) bool {
+		if list[i].A != list[j].A {
+			return list[i].A < list[j].A
+		}
+		return list[i].B < list[j].B
+	})
+	var kv []string
+	for _, c := range list {
+		kv = append(kv, quote(c.A+"-"+c.B)+" = "+fmtFloat(c.K))
+	}
+	return inline(kv)
+}
+
+func pinsKV(p *Part) string {
+	names := ArrayPins(p.Kind, p.Type, len(p.Pins))
+	if names != nil && !(p.Kind == Inductor && len(p.Windings) != 2 && len(p.Pins) == 3) {
+		match := true
+		for i, pin := range p.Pins {
+			if pin.Name != names[i] {
+				match = false
+			}
+		}
+		if match {
+			nets := make([]string, len(p.Pins))
+			for i, pin := range p.Pins {
+				nets[i] = pin.Net
+			}
+			return strList(nets)
+		}
+	}
+	var kv []string
+	for _, pin := range p.Pins {
+		kv = append(kv, bareKey(pin.Name)+" = "+quote(pin.Net))
+	}
+	return inline(kv)
+}
+
+func inline(kv []string) string {
+	if len(kv) == 0 {
+		return "{}"
+	}
+	return "{ " + strings.Join(kv, ", ") + " }"
+}
+
+func strList(list []string) string {
+	q := make([]string, len(list))
+	for i, s := range list {
+		q[i] = quote(s)
+	}
+	return "[" + strings.Join(q, ", ") + "]"
+}
+
+// bareKey quotes a key unless TOML allows it bare.
+func bareKey(k string) string {
+	if k == "" {
+		return `""`
+	}
+	for _, r := range k {
+		if !isBareKey(r) {
+			return quote(k)
+		}
+	}
+	return k
+}
+
+// quote writes a TOML basic string. Go's strconv.Quote is not used because
+// its \x escapes are not TOML.
+func quote(s string) string {
+	var b strings.Builder
+	b.WriteByte('"')
+	for _, r := range s {
+		switch {
+		case r == '"':
+			b.WriteString(`\"`)
+		case r == '\\':
+			b.WriteString(`\\`)
+		case r == '\n':
+			b.WriteString(`\n`)
+		case r == '\t':
+			b.WriteString(`\t`)
+		case r < 0x20 || r == 0x7f:
+			fmt.Fprintf(&b, `\u%04X`, r)
+		default:
+			b.WriteRune(r)
+		}
+	}
+	b.WriteByte('"')
+	return b.String()
+}
+
+// fmtNum writes a value in the letter code when that is exact, else with six
+// significant digits, so that a written circuit loads back the same.
+func fmtNum(v float64, u value.Unit) string {
+	if u != value.Ohm && u != value.Farad && u != value.Henry {
+		return fmtDecimal(v, u)
+	}
+	for _, digits := range []int{3, 6, 9, 15} {
+		s := value.FormatPrec(v, u, value.Code, digits)
+		if back, err := value.Parse(s, u); err == nil && closeEnough(back, v, digits) {
+			return s
+		}
+	}
+	return strconv.FormatFloat(v, 'g', -1, 64)
+}
+
+func closeEnough(a, b float64, digits int) bool {
+	if a == b {
+		return true
+	}
+	tol := math.Pow(10, -float64(digits)) * 0.5
+	if digits >= 15 {
+		tol = 1e-15
+	}
+	return math.Abs(a-b) <= tol*math.Max(math.Abs(a), math.Abs(b))
+}
+
+func fmtRange(r value.Range, u value.Unit) string {
+	if !r.IsSpan() {
+		return fmtNum(r.Max, u)
+	}
+	return fmtNum(r.Min, u) + ".." + fmtNum(r.Max, u)
+}
+
+func fmtFloat(f float64) string { return strconv.FormatFloat(f, 'g', -1, 64) }
+
+// fmtDecimal writes frequencies, voltages and conductances with an SI prefix
+// and a decimal point ("1.7M", "2.5m"): the letter code is a habit for
+// resistors, capacitors and inductors only.
+func fmtDecimal(v float64, u value.Unit) string {
+	if v == 0 {
+		return "0"
+	}
+	prefixes := []string{"p", "n", "u", "m", "", "k", "M", "G"}
+	e := int(math.Floor(math.Log10(math.Abs(v)) / 3))
+	e = max(-4, min(3, e))
+	mant := v / math.Pow(10, float64(3*e))
+	for _, digits := range []int{6, 9, 15} {
+		s := strconv.FormatFloat(mant, 'g', digits, 64) + prefixes[e+4]
+		if strings.ContainsAny(s, "e") {
+			break
+		}
+		if back, err := value.Parse(s, u); err == nil && closeEnough(back, v, digits) {
+			return s
+		}
+	}
+	return strconv.FormatFloat(v, 'g', -1, 64)
+}
