@@ -156,18 +156,18 @@ type Part struct {
 	Value value.Range `json:"value"`
 	// Set is a trimmer's setting (farads), a pot's wiper fraction (0..1) or a
 	// switch's selected position (1-based). 0 means unset.
-	Set      float64           `json:"set,omitempty"`
-	Pins     []Pin             `json:"pins"`
-	Windings []Winding         `json:"windings,omitempty"`
-	Coupling []Coupling        `json:"coupling,omitempty"`
-	Closes   [][][2]string     `json:"closes,omitempty"` // switch: per position, the pin pairs closed
-	Tol      value.Tolerance   `json:"tol"`
-	Rating   float64           `json:"rating,omitempty"` // voltage rating
-	Gang     string            `json:"gang,omitempty"`   // ganged tuning group
-	Envelope string            `json:"envelope,omitempty"`
-	Keep     bool              `json:"keep,omitempty"`
-	Note     string            `json:"note,omitempty"`
-	Label    string            `json:"label,omitempty"` // port text ("from RF stage") or generic part description
+	Set      float64            `json:"set,omitempty"`
+	Pins     []Pin              `json:"pins"`
+	Windings []Winding          `json:"windings,omitempty"`
+	Coupling []Coupling         `json:"coupling,omitempty"`
+	Closes   [][][2]string      `json:"closes,omitempty"` // switch: per position, the pin pairs closed
+	Tol      value.Tolerance    `json:"tol"`
+	Rating   float64            `json:"rating,omitempty"` // voltage rating
+	Gang     string             `json:"gang,omitempty"`   // ganged tuning group
+	Envelope string             `json:"envelope,omitempty"`
+	Keep     bool               `json:"keep,omitempty"`
+	Note     string             `json:"note,omitempty"`
+	Label    string             `json:"label,omitempty"` // port text ("from RF stage") or generic part description
 	Params   map[string]float64 `json:"params,omitempty"`
 	// From names the original parts this part stands for after a reduction
 	// (sorted). Empty means the part stands for itself.

@@ -26,14 +26,14 @@ const (
 // (h1, h2, or a single h where the heater is drawn to one net) and an internal
 // shield s are allowed on every type.
 var valveElectrodes = map[string][]string{
-	"diode":       {"a", "k"},
+	"diode":        {"a", "k"},
 	"double-diode": {"a1", "a2", "k"},
-	"triode":      {"a", "g1", "k"},
-	"tetrode":     {"a", "g1", "g2", "k"},
-	"pentode":     {"a", "g1", "g2", "g3", "k"},
-	"hexode":      {"a", "g1", "g2", "g3", "g4", "k"},
-	"heptode":     {"a", "g1", "g2", "g3", "g4", "g5", "k"},
-	"octode":      {"a", "g1", "g2", "g3", "g4", "g5", "g6", "k"},
+	"triode":       {"a", "g1", "k"},
+	"tetrode":      {"a", "g1", "g2", "k"},
+	"pentode":      {"a", "g1", "g2", "g3", "k"},
+	"hexode":       {"a", "g1", "g2", "g3", "g4", "k"},
+	"heptode":      {"a", "g1", "g2", "g3", "g4", "g5", "k"},
+	"octode":       {"a", "g1", "g2", "g3", "g4", "g5", "g6", "k"},
 }
 
 // ValveTypes lists the valve types in sorted order, for messages.
