@@ -1,0 +1,299 @@
+package value
+
+import (
+	"errors"
+	"fmt"
+	"strconv"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+)
+
+// Error kinds, so a caller can tell a typo from a unit mix-up without
+// matching message text: errors.Is(err, value.ErrUnit).
+var (
+	ErrSyntax     = errors.New("value syntax")
+	ErrUnit       = errors.New("unit mismatch")
+	ErrOutOfRange = errors.New("value out of range")
+)
+
+// MinMagnitude and MaxMagnitude bound what Parse accepts besides zero. No
+// part in a radio is anywhere near them, so a value outside is an exponent
+// typo; the bound also keeps Format's rounding clear of float overflow and
+// of subnormals that cannot hold three significant digits.
+const (
+	MinMagnitude = 1e-24
+	MaxMagnitude = 1e24
+)
+
+// Written out because %g would print 1e+24.
+const outOfRangeMsg = "out of range (magnitude must be 0 or 1e-24 to 1e24)"
+
+// inputError keeps the kind for errors.Is while the text stays a plain
+// sentence; the caller prefixes file:line:col.
+type inputError struct {
+	kind error
+	what string // "value", "range" or "tolerance"
+	text string
+	msg  string
+}
+
+func (e *inputError) Error() string {
+	if e.text == "" {
+		return "empty " + e.what
+	}
+	return fmt.Sprintf("%s %q: %s", e.what, e.text, e.msg)
+}
+
+func (e *inputError) Unwrap() error { return e.kind }
+
+// prefixExp holds the SI prefixes. "k" and "K" both occur on real parts and
+// cannot mean anything else; "m"/"M" stay strictly milli/mega.
+var prefixExp = map[rune]int{
+	'f': -15, 'p': -12, 'n': -9,
+	'u': -6, '\u00b5': -6, '\u03bc': -6, // ASCII u, MICRO SIGN, Greek mu
+	'm': -3,
+	'k': 3, 'K': 3, 'M': 6, 'G': 9, 'T': 12,
+}
+
+// isCodeLetter reports letters that may stand in for the decimal point. R, L
+// and V carry their unit with them (ohm, milliohm, volt as on zener diodes).
+func isCodeLetter(r rune) bool {
+	if _, ok := prefixExp[r]; ok {
+		return true
+	}
+	return r == 'R' || r == 'L' || r == 'V'
+}
+
+func isDigit(c byte) bool { return '0' <= c && c <= '9' }
+
+func skipDigits(s string, i int) int {
+	for i < len(s) && isDigit(s[i]) {
+		i++
+	}
+	return i
+}
+
+// Parse reads one value in the trade's notation and returns it in SI base
+// units. It accepts plain and exponent numbers ("470", "1e-9"), an SI prefix
+// with an optional unit symbol or word ("47k", "4.7 kΩ", "47 kohm", "100 pF",
+// "1.5MHz"), and the IEC 60062 code where the letter replaces the decimal
+// point ("4k7", "R47", "4R7", "47K3", "2n2", "4µ7", "2L2" = 2.2 mΩ). The
+// letters R and L imply ohms and V implies volts, so they only fit those.
+//
+// A unit written in the text must be want; with no unit written the value is
+// taken to be in want. A leading sign is kept.
+func Parse(s string, want Unit) (float64, error) {
+	t := strings.TrimSpace(s)
+	if t == "" {
+		return 0, &inputError{kind: ErrSyntax, what: "value"}
+	}
+	if strings.ContainsRune(t, ',') {
+		return 0, commaError(t, want)
+	}
+	v, msg, kind := parse(t, want)
+	if kind != nil {
+		return 0, &inputError{kind: kind, what: "value", text: t, msg: msg}
+	}
+	return v, nil
+}
+
+// commaError spells out the fix, because a decimal comma is the most common
+// slip from technicians trained on European schematics. "4,700" is left
+// without an example since it may just as well be a thousands separator.
+func commaError(t string, want Unit) error {
+	msg := "use a point or the letter code, not a comma"
+	if strings.Count(t, ",") == 1 && !thousandsLike(t) {
+		if v, err := Parse(strings.Replace(t, ",", ".", 1), want); err == nil {
+			msg = fmt.Sprintf("use a point or the letter code (%s), not a comma", FormatPrec(v, want, Code, 6))
+		}
+	}
+	return &inputError{kind: ErrSyntax, what: "value", text: t, msg: msg}
+}
+
+func thousandsLike(t string) bool {
+	i := strings.IndexByte(t, ',')
+	if i == 0 || !isDigit(t[i-1]) {
+		return false
+	}
+	j := skipDigits(t, i+1)
+	return j-(i+1) == 3
+}
+
+// parse returns a message and kind instead of an error so that Parse alone
+// decides how errors look.
+func parse(t string, want Unit) (float64, string, error) {
+	i := 0
+	neg := false
+	switch {
+	case strings.HasPrefix(t, "+"):
+		i = 1
+	case strings.HasPrefix(t, "-"):
+		neg, i = true, 1
+	case strings.HasPrefix(t, "\u2212"): // typographic minus, as Tolerance.String writes
+		neg, i = true, len("\u2212")
+	}
+
+	intStart := i
+	i = skipDigits(t, i)
+	intDigits := t[intStart:i]
+	fracDigits := ""
+	hadPoint := false
+	var code rune
+	if i < len(t) && t[i] == '.' {
+		hadPoint = true
+		i++
+		start := i
+		i = skipDigits(t, i)
+		fracDigits = t[start:i]
+	} else if i < len(t) {
+		// A letter counts as a code letter only with digits after it ("4k7",
+		// "R47"), or for R and L which mean nothing else ("100R"); "47k" and
+		// "250volts" are read as prefix and unit below.
+		r, size := utf8.DecodeRuneInString(t[i:])
+		if isCodeLetter(r) {
+			j := skipDigits(t, i+size)
+			if j > i+size || (intDigits != "" && (r == 'R' || r == 'L')) {
+				code = r
+				fracDigits = t[i+size : j]
+				i = j
+			}
+		}
+	}
+	if intDigits == "" && fracDigits == "" {
+		return 0, "not a number", ErrSyntax
+	}
+	exp := 0
+	if code == 0 && i < len(t) && (t[i] == 'e' || t[i] == 'E') {
+		j := i + 1
+		if j < len(t) && (t[j] == '+' || t[j] == '-') {
+			j++
+		}
+		if k := skipDigits(t, j); k > j {
+			e, ok := parseExp(t[i+1 : k])
+			if !ok {
+				return 0, outOfRangeMsg, ErrOutOfRange
+			}
+			exp, i = e, k
+		}
+	}
+	numText := t[:i]
+	rest := strings.TrimLeftFunc(t[i:], unicode.IsSpace)
+
+	scale := 0
+	var written Unit
+	hasUnit := false
+	if code != 0 {
+		var codeUnit Unit
+		switch code {
+		case 'R':
+			codeUnit = Ohm
+		case 'L':
+			codeUnit, scale = Ohm, -3
+		case 'V':
+			codeUnit = Volt
+		default:
+			codeUnit, scale = want, prefixExp[code]
+		}
+		if codeUnit != want {
+			return 0, fmt.Sprintf("unit %s (letter %c) does not fit %s value", codeUnit.Symbol(), code, want.withArticle()), ErrUnit
+		}
+		if rest != "" {
+			u, ok := lookupUnit(rest)
+			if !ok {
+				r, _ := utf8.DecodeRuneInString(rest)
+				if isCodeLetter(r) {
+					return 0, fmt.Sprintf("extra multiplier %q after %q: the code letter already scales the number", string(r), numText), ErrSyntax
+				}
+				return 0, fmt.Sprintf("unknown unit %q", rest), ErrSyntax
+			}
+			written, hasUnit = u, true
+		}
+	} else if rest != "" {
+		if r, size := utf8.DecodeRuneInString(rest); hadPoint && isCodeLetter(r) && size < len(rest) && isDigit(rest[size]) {
+			return 0, "use either a decimal point or a code letter, not both", ErrSyntax
+		}
+		if msg := oldMarkingHint(rest, numText); msg != "" {
+			return 0, msg, ErrSyntax
+		}
+		if u, ok := lookupUnit(rest); ok {
+			written, hasUnit = u, true
+		} else {
+			r, size := utf8.DecodeRuneInString(rest)
+			p, ok := prefixExp[r]
+			if !ok {
+				return 0, fmt.Sprintf("unknown unit or prefix %q", rest), ErrSyntax
+			}
+			scale = p
+			if tail := rest[size:]; tail != "" {
+				u, ok := lookupUnit(tail)
+				if !ok {
+					return 0, fmt.Sprintf("unknown unit or prefix %q", rest), ErrSyntax
+				}
+				written, hasUnit = u, true
+			}
+		}
+	}
+	if hasUnit && written != want {
+		return 0, fmt.Sprintf("unit %s does not fit %s value", written.Symbol(), want.withArticle()), ErrUnit
+	}
+
+	mant := intDigits
+	if mant == "" {
+		mant = "0"
+	}
+	if fracDigits != "" {
+		mant += "." + fracDigits
+	}
+	// Building a decimal string and parsing it once rounds correctly, where
+	// 4.7*1e3 would give 4700.000000000001.
+	v, err := strconv.ParseFloat(mant+"e"+strconv.Itoa(exp+scale), 64)
+	nonZero := strings.Trim(intDigits+fracDigits, "0") != ""
+	if err != nil || (nonZero && (v < MinMagnitude || v > MaxMagnitude)) {
+		return 0, outOfRangeMsg, ErrOutOfRange
+	}
+	if neg {
+		v = -v
+	}
+	return v, "", nil
+}
+
+// parseExp refuses exponents too long for any sensible value so that the
+// later arithmetic cannot overflow int.
+func parseExp(s string) (int, bool) {
+	sign := 1
+	switch s[0] {
+	case '-':
+		sign, s = -1, s[1:]
+	case '+':
+		s = s[1:]
+	}
+	s = strings.TrimLeft(s, "0")
+	if len(s) > 4 {
+		return 0, false
+	}
+	if s == "" {
+		return 0, true
+	}
+	n, err := strconv.Atoi(s)
+	if err != nil {
+		return 0, false
+	}
+	return sign * n, true
+}
+
+// oldMarkingHint catches "mfd"/"mmfd" from old schematics: there they mean
+// microfarad and picofarad, but read by SI rules "m" is milli, so guessing
+// either way would be wrong somewhere.
+func oldMarkingHint(rest, num string) string {
+	switch lowerASCII(rest) {
+	case "mfd", "mmfd", "mmf", "uuf":
+	default:
+		return ""
+	}
+	letter := "u"
+	if l := lowerASCII(rest); l == "mmfd" || l == "mmf" || l == "uuf" {
+		letter = "p"
+	}
+	return fmt.Sprintf("old marking %q is not read (m means milli here); write %s%s", rest, num, letter)
+}
