@@ -85,39 +85,17 @@ func (cw *cwriter) top() {
 			cw.line("regions."+r.Name, bareKey(r.Name)+" = "+inline(kv))
 		}
 	}
-	var nets []string
+	var nets []*Net
 	for _, n := range c.Nets {
-		var kv []string
-		if n.Role != DefaultRole(n.Name) {
-			kv = append(kv, "role = "+quote(string(n.Role)))
-		}
-		if n.Volts != 0 {
-			kv = append(kv, "volts = "+fmtFloat(n.Volts))
-		}
-		if n.Label != "" {
-			kv = append(kv, "label = "+quote(n.Label))
-		}
-		if len(kv) > 0 {
-			nets = append(nets, n.Name)
-			_ = kv
+		if len(netKV(n)) > 0 {
+			nets = append(nets, n)
 		}
 	}
 	if len(nets) > 0 {
 		fmt.Fprintln(cw.w)
 		cw.line("nets", "[nets]")
-		for _, name := range nets {
-			n := c.Net(name)
-			var kv []string
-			if n.Role != DefaultRole(n.Name) {
-				kv = append(kv, "role = "+quote(string(n.Role)))
-			}
-			if n.Volts != 0 {
-				kv = append(kv, "volts = "+fmtFloat(n.Volts))
-			}
-			if n.Label != "" {
-				kv = append(kv, "label = "+quote(n.Label))
-			}
-			cw.line("nets."+name, bareKey(name)+" = "+inline(kv))
+		for _, n := range nets {
+			cw.line("nets."+n.Name, bareKey(n.Name)+" = "+inline(netKV(n)))
 		}
 	}
 	fmt.Fprintln(cw.w)
@@ -147,6 +125,11 @@ func partKV(p *Part) []string {
 	case Inductor:
 		switch {
 		case len(p.Windings) == 2:
+			if tap, ok := tapOf(p); ok {
+				add("l = " + quote(fmtNum(p.Value.Max, value.Henry)))
+				add("tap = " + tap)
+				break
+			}
 			add(fmt.Sprintf("l = [%s, %s]", quote(fmtNum(p.Windings[0].L, value.Henry)), quote(fmtNum(p.Windings[1].L, value.Henry))))
 			if k := p.K(p.Windings[0].Name, p.Windings[1].Name); k != 1 {
 				add("k = " + fmtFloat(k))
@@ -157,7 +140,9 @@ func partKV(p *Part) []string {
 		if p.Type != IndPlain && p.Type != "" {
 			add("type = " + quote(p.Type))
 		}
-		if len(p.Windings) > 0 && p.Windings[0].Q > 0 {
+		// q is written once: from the device parameters below when the
+		// netlist gave it there, else from the windings (a part built in code).
+		if _, ok := p.Params["q"]; !ok && len(p.Windings) > 0 && p.Windings[0].Q > 0 {
 			add("q = " + fmtFloat(p.Windings[0].Q))
 		}
 	case Transformer:
@@ -204,7 +189,7 @@ func partKV(p *Part) []string {
 		add("tol = " + quote(tolText(p.Tol)))
 	}
 	if p.Rating != 0 {
-		add("rating = " + quote(fmtNum(p.Rating, value.Volt)))
+		add("rating = " + quote(fmtNum(p.Rating, value.Volt)+"V"))
 	}
 	if p.Gang != "" {
 		add("gang = " + quote(p.Gang))
@@ -216,12 +201,7 @@ func partKV(p *Part) []string {
 		add("keep = true")
 	}
 	for _, k := range sortedKeys(p.Params) {
-		u := paramUnit(k)
-		if u == value.None {
-			add(k + " = " + fmtFloat(p.Params[k]))
-		} else {
-			add(k + " = " + quote(fmtNum(p.Params[k], u)))
-		}
+		add(k + " = " + paramText(k, p.Params[k]))
 	}
 	if len(p.From) > 0 {
 		add("from = " + strList(p.From))
@@ -255,7 +235,7 @@ func windingsKV(p *Part) string {
 				continue
 			}
 		}
-		if w.Q > 0 {
+		if w.Q > 0 && w.Q != p.Params["q"] {
 			kv = append(kv, fmt.Sprintf("%s = { l = %s, q = %s }", bareKey(w.Name), quote(fmtNum(w.L, value.Henry)), fmtFloat(w.Q)))
 		} else {
 			kv = append(kv, fmt.Sprintf("%s = %s", bareKey(w.Name), quote(fmtNum(w.L, value.Henry))))
@@ -443,4 +423,63 @@ func fmtDecimal(v float64, u value.Unit) string {
 		}
 	}
 	return strconv.FormatFloat(v, 'g', -1, 64)
+}
+
+// paramText writes a device parameter in the unit a data sheet uses: mutual
+// conductance in mA/V, resistances in the letter code, plain numbers bare.
+func paramText(name string, v float64) string {
+	u := paramUnit(name)
+	switch {
+	case u == value.None:
+		return fmtFloat(v)
+	case u == value.Siemens:
+		if back, err := value.Parse(normaliseUnit(fmtDecimal(v*1e3, value.None)+"mA/V", u), u); err == nil && closeEnough(back, v, 15) {
+			return quote(fmtDecimal(v*1e3, value.None) + "mA/V")
+		}
+	}
+	return quote(fmtNum(v, u))
+}
+
+// tapOf finds the tap fraction of a tapped coil whose sections are fully
+// coupled and go with the turns squared (as `tap = n` loads), so that such a
+// coil is written back the way it was typed. It gives the shortest decimal
+// that reproduces both sections to 1e-12.
+func tapOf(p *Part) (string, bool) {
+	if len(p.Windings) != 2 || len(p.Coupling) != 1 || p.Coupling[0].K != 1 {
+		return "", false
+	}
+	a, b := p.Windings[0], p.Windings[1]
+	if a.Name != "1t" || b.Name != "t2" || a.L <= 0 || b.L <= 0 || a.Q != b.Q {
+		return "", false
+	}
+	L := p.Value.Max
+	n := math.Sqrt(a.L) / (math.Sqrt(a.L) + math.Sqrt(b.L))
+	for digits := 1; digits <= 17; digits++ {
+		s := strconv.FormatFloat(n, 'g', digits, 64)
+		m, err := strconv.ParseFloat(s, 64)
+		if err != nil || m <= 0 || m >= 1 {
+			continue
+		}
+		if closeEnough(m*m*L, a.L, 12) && closeEnough((1-m)*(1-m)*L, b.L, 12) {
+			return s, true
+		}
+	}
+	return "", false
+}
+
+// netKV lists what a [nets] entry says about a net; empty when the net needs
+// no entry. A role that the name implies anyway ("gnd") is still written when
+// the entry is there for a label or a voltage, so the entry reads in full.
+func netKV(n *Net) []string {
+	var kv []string
+	if n.Volts != 0 {
+		kv = append(kv, "volts = "+fmtFloat(n.Volts))
+	}
+	if n.Label != "" {
+		kv = append(kv, "label = "+quote(n.Label))
+	}
+	if n.Role != DefaultRole(n.Name) || (len(kv) > 0 && n.Role != Signal) {
+		kv = append([]string{"role = " + quote(string(n.Role))}, kv...)
+	}
+	return kv
 }
