@@ -31,7 +31,12 @@ func Parse(file string, data []byte) (*Circuit, error) {
 		var pe toml.ParseError
 		if errors.As(err, &pe) {
 			var l ErrorList
-			l.Add(Pos{File: file, Line: pe.Position.Line, Col: pe.Position.Col}, "%s", tomlMessage(pe))
+			line, col := pe.Position.Line, pe.Position.Col
+			if line < 1 {
+				line, col = 1, 1
+			}
+			col = duplicateCol(pe, data, line, col)
+			l.Add(Pos{File: file, Line: line, Col: col}, "%s", tomlMessage(pe))
 			return nil, l
 		}
 		var l ErrorList
@@ -48,14 +53,48 @@ func Parse(file string, data []byte) (*Circuit, error) {
 	return ld.c, nil
 }
 
-// tomlMessage shortens the decoder's message: the position is printed by us.
+// duplicateKey matches the decoder's message for a key written twice.
+var duplicateKey = regexp.MustCompile(`^Key '(.*)' has already been defined\.?$`)
+
+// duplicateCol moves the position of a "written twice" error from the
+// decoder's spot (inside the second entry) to the start of its key, when the
+// line begins with the part's reference designator.
+func duplicateCol(pe toml.ParseError, data []byte, line, col int) int {
+	m := duplicateKey.FindStringSubmatch(pe.Message)
+	if m == nil {
+		return col
+	}
+	rest, ok := strings.CutPrefix(m[1], "parts.")
+	if !ok {
+		return col
+	}
+	ref, _, _ := strings.Cut(rest, ".")
+	lines := strings.Split(string(data), "\n")
+	if line > len(lines) {
+		return col
+	}
+	text := lines[line-1]
+	trimmed := strings.TrimLeft(text, " \t")
+	if strings.HasPrefix(trimmed, ref) {
+		return len([]rune(text)) - len([]rune(trimmed)) + 1
+	}
+	return col
+}
+
+// tomlMessage shortens the decoder's message (the position is printed by us)
+// and says in the netlist's own terms what a key written twice means.
 func tomlMessage(pe toml.ParseError) string {
 	msg := pe.Message
 	if msg == "" {
 		msg = pe.Error()
 	}
-	if pe.Usage != "" {
-		return msg
+	if m := duplicateKey.FindStringSubmatch(msg); m != nil {
+		key := m[1]
+		if rest, ok := strings.CutPrefix(key, "parts."); ok {
+			ref, _, _ := strings.Cut(rest, ".")
+			return fmt.Sprintf("part %s is written twice: each reference designator names one part", ref)
+		}
+		return fmt.Sprintf("key %q is written twice", key)
 	}
 	return msg
 }
@@ -213,7 +252,22 @@ func normaliseUnit(s string, u value.Unit) string {
 	return s
 }
 
+// dashRange matches a span written with a dash ("530k-1700k"), a slip for "..".
+var dashRange = regexp.MustCompile(`^\s*[0-9][0-9.]*\s*[A-Za-zµΩ]*\s*[-–]\s*[0-9]`)
+
 func (ld *loader) rng(path string, v any, u value.Unit) value.Range {
+	if s, ok := v.(string); ok && !strings.Contains(s, "..") && !strings.Contains(s, "\u2026") {
+		if dashRange.MatchString(s) {
+			ld.errVal(path, "%s: %q: write a range with \"..\" between the two values, e.g. \"530k..1700k\"", lastKey(path), s)
+			return value.Range{}
+		}
+		// One value: read it as such, so that messages do not speak of a range.
+		x := ld.num(path, s, u)
+		if x < 0 {
+			ld.errVal(path, "%s must not be negative", lastKey(path))
+		}
+		return value.Range{Min: x, Max: x}
+	}
 	if s, ok := v.(string); ok {
 		r, err := value.ParseRange(s, u)
 		if err != nil {
@@ -737,6 +791,7 @@ func (ld *loader) pins(path string, p *Part, v any) {
 				}
 			}
 		}
+		var guessed []string // terminals a misspelt name was taken for: not reported missing as well
 		for _, name := range sortedKeys(t) {
 			ep := pp + "." + name
 			if allowed != nil && p.Kind != Generic && p.Kind != Switch && !contains(allowed, name) {
@@ -745,11 +800,14 @@ func (ld *loader) pins(path string, p *Part, v any) {
 					hint = fmt.Sprintf(" (did you mean %q?)", g)
 				}
 				ld.errKey(ep, "%s %s has no terminal %q%s; terminals: %s", kindLabel(p), p.Ref, name, hint, strings.Join(allowed, " "))
+				if g := Suggest(name, allowed); g != "" {
+					guessed = append(guessed, g)
+				}
 				continue
 			}
 			p.Pins = append(p.Pins, Pin{Name: name, Net: ld.netName(ep, t[name]), Pos: ld.ix.key(ep)})
 		}
-		ld.requiredPins(pp, p)
+		ld.requiredPins(pp, p, guessed)
 		sortPins(p)
 	default:
 		ld.errVal(pp, "pins must be a list of nets or a table of terminal = net")
@@ -795,7 +853,7 @@ func appendNew(list []string, names ...string) []string {
 }
 
 // requiredPins checks that a part written with a pin table names every terminal it must have.
-func (ld *loader) requiredPins(path string, p *Part) {
+func (ld *loader) requiredPins(path string, p *Part, guessed []string) {
 	var need []string
 	switch p.Kind {
 	case Valve:
@@ -818,7 +876,7 @@ func (ld *loader) requiredPins(path string, p *Part) {
 	}
 	var missing []string
 	for _, n := range need {
-		if p.Pin(n) == nil {
+		if p.Pin(n) == nil && !contains(guessed, n) {
 			missing = append(missing, n)
 		}
 	}

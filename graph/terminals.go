@@ -204,7 +204,9 @@ func Suggest(s string, candidates []string) string {
 	best, bestD := "", 1<<30
 	for _, c := range candidates {
 		d := editDistance(strings.ToLower(s), strings.ToLower(c))
-		if d < bestD {
+		// On a tie, a candidate that starts with what was typed wins: "g"
+		// is far more likely a short "g1" than a slipped "a".
+		if d < bestD || (d == bestD && strings.HasPrefix(c, s) && !strings.HasPrefix(best, s)) {
 			best, bestD = c, d
 		}
 	}
