@@ -1,0 +1,187 @@
+package main
+
+import (
+	"bytes"
+	"strings"
+	"testing"
+)
+
+// sampleNote is a hand-made note of the kind the main job writes for the
+// club's frequency changer; the numbers in it are only text to the writer.
+func sampleNote() *note {
+	return &note{
+		Title: "Club receiver: frequency changer (MW)", Source: "frequency-changer.toml", Version: "0.1.0",
+		Level: "signal", Symbols: "IEC 60617",
+		Furniture: []string{"Band 530 kHz–1.6 MHz", "IF 470 kHz", "Level signal"},
+		Sheets:    []noteSheet{{File: "reduced.svg", Alt: "reduced"}, {File: "faded.svg", Alt: "faded"}},
+		Before:    partCount{26, 15}, After: partCount{14, 8},
+		Removed: []string{"C6", "C9", "P4"},
+		Merged:  []noteMerge{{Into: "C3", From: []string{"C3", "TC2"}}},
+		Stages: []noteStage{{
+			Name: "S1", Title: "Hartley oscillator, cathode tap (valve)", Topology: "hartley-cathode-tap", Family: "valve",
+			Parts:   []string{"L1", "V1", "C2"},
+			Figures: []noteFigure{{"f min", "1 MHz"}, {"f max", "2.07 MHz"}},
+			Flags:   []string{"grid-leak bias"},
+		}},
+		Steps: []noteStep{
+			{N: 1, Rule: "bypass", Removed: []string{"C6"}, Grounded: []string{"ht_if"},
+				Why: "|Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2)", Where: []string{"frequency-changer.toml:39"}},
+			{N: 2, Rule: "merge_parallel", Merged: []string{"C3", "TC2"}, Result: "C3",
+				Why: "parallel capacitors add", Refused: "transfer aerial→if_out off by 0.8 dB at 1.6 MHz",
+				Where: []string{"frequency-changer.toml:37", "frequency-changer.toml:55"}},
+		},
+		Verify: noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
+			{From: "aerial", To: "if_out", What: "transfer", MaxDB: 0.12, MaxDeg: 1.3, AtHz: 1.6e6},
+		}},
+	}
+}
+
+func writeToString(t *testing.T, n *note) string {
+	t.Helper()
+	var b bytes.Buffer
+	if err := writeNote(&b, n); err != nil {
+		t.Fatal(err)
+	}
+	return b.String()
+}
+
+func TestNoteSections(t *testing.T) {
+	md := writeToString(t, sampleNote())
+	// Each line must appear verbatim: the caution wording comes from the
+	// project's safety list (reference values §9, common practice), the rest
+	// is the note's own layout.
+	for _, want := range []string{
+		"# Repair note: Club receiver: frequency changer (MW)",
+		"> **" + cautionHeading + "**",
+		"200–400 V DC",
+		"Discharge them through a resistor and confirm with a meter",
+		"isolation transformer",
+		"never clip an earthed scope ground to an unisolated chassis",
+		"local electrical codes and licensed practice",
+		"small-signal only",
+		"![reduced](reduced.svg)",
+		"![faded](faded.svg)",
+		"| stage | what | family | parts | figures | flags |",
+		"| S1 | Hartley oscillator, cathode tap (valve) (`hartley-cathode-tap`) | valve | `L1`, `V1`, `C2` | f min 1 MHz; f max 2.07 MHz | grid-leak bias |",
+		"| original | 26 | 15 |",
+		"| reduced | 14 | 8 |",
+		"Removed (drawn faded on the faded sheet): `C6`, `C9`, `P4`.",
+		"- `C3` stands for `C3`, `TC2`",
+		"2 step(s), 1 refused by the AC check.",
+		"1. **bypass**: removed `C6`; grounded `ht_if`. |Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2) (`frequency-changer.toml:39`)",
+		"2. **merge\\_parallel** REFUSED: merged `C3`, `TC2` into `C3`. parallel capacitors add Not applied: transfer aerial→if\\_out off by 0.8 dB at 1.6 MHz. (`frequency-changer.toml:37`, `frequency-changer.toml:55`)",
+		"**Verification passed**",
+		"| `aerial` | `if_out` | transfer | 0.12 | 1.3 | 1.6 MHz | ok |",
+	} {
+		if !strings.Contains(md, want) {
+			t.Errorf("note lacks %q\n--- note ---\n%s", want, md)
+		}
+	}
+	// The caution comes before anything technical: a reader who stops early
+	// has still read it.
+	if c, s := strings.Index(md, cautionHeading), strings.Index(md, "## Stages"); c < 0 || s < 0 || c > s {
+		t.Errorf("caution (at %d) must come before the stage table (at %d)", c, s)
+	}
+}
+
+func TestNoteVerification(t *testing.T) {
+	tests := []struct {
+		name   string
+		verify noteVerify
+		want   []string
+		failed bool
+	}{
+		{"passed", noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{{From: "a", To: "b", What: "transfer", MaxDB: 0.1, MaxDeg: 1, AtHz: 1e3}}},
+			[]string{"**Verification passed**", "**Passed** against a tolerance of 0.5 dB and 5°", "| 1 kHz | ok |"}, false},
+		{"one pair out", noteVerify{OK: false, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
+			{From: "a", To: "b", What: "transfer", MaxDB: 0.1, MaxDeg: 1, AtHz: 1e3},
+			{From: "a", To: "a", What: "impedance", MaxDB: 2.25, MaxDeg: 1, AtHz: 455e3}}},
+			[]string{"**Verification FAILED**", "**Failed** against a tolerance", "| 2.25 | 1 | 455 kHz | **out of tolerance** |", "| 0.1 | 1 | 1 kHz | ok |"}, true},
+		{"could not run", noteVerify{Err: "net aerial: singular matrix", TolDB: 0.5, TolDeg: 5},
+			[]string{"**Verification FAILED**", "could not be completed: net aerial: singular matrix."}, true},
+		{"skipped", noteVerify{Skipped: "--no-verify"},
+			[]string{"**Verification was not run** (--no-verify)", "Not run (--no-verify)."}, false},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			n := sampleNote()
+			n.Verify = tt.verify
+			md := writeToString(t, n)
+			for _, w := range tt.want {
+				if !strings.Contains(md, w) {
+					t.Errorf("note lacks %q\n%s", w, md[strings.Index(md, "## Verification"):])
+				}
+			}
+			if got := tt.verify.failed(); got != tt.failed {
+				t.Errorf("failed() = %v, want %v", got, tt.failed)
+			}
+		})
+	}
+}
+
+// Free text from netlists and rules must not turn into markup: a bar would
+// split a table cell, an underscore or star start emphasis, a bracket a link,
+// an angle bracket raw HTML.
+func TestNoteEscaping(t *testing.T) {
+	n := sampleNote()
+	n.Title = "<b>set</b> [1] *A*"
+	n.Stages[0].Title = "split | here"
+	n.Stages[0].Flags = []string{"a_b"}
+	n.Steps[0].Rule = "rule`x"
+	md := writeToString(t, n)
+	for _, want := range []string{
+		"# Repair note: &lt;b&gt;set&lt;/b&gt; \\[1\\] \\*A\\*",
+		"| S1 | split \\| here (`hartley-cathode-tap`)",
+		"| a\\_b |",
+		"1. **rule\\`x**",
+	} {
+		if !strings.Contains(md, want) {
+			t.Errorf("note lacks %q", want)
+		}
+	}
+	if strings.Contains(md, "<b>") {
+		t.Error("raw HTML from the title reached the note")
+	}
+}
+
+func TestNoteEmptyParts(t *testing.T) {
+	n := sampleNote()
+	n.Stages, n.Steps, n.Removed, n.Merged = nil, nil, nil, nil
+	md := writeToString(t, n)
+	for _, want := range []string{"No stage was recognised", "No step applied"} {
+		if !strings.Contains(md, want) {
+			t.Errorf("note lacks %q", want)
+		}
+	}
+	if strings.Contains(md, "Removed (") || strings.Contains(md, "Merged:") {
+		t.Error("empty removed/merged lists should not be printed")
+	}
+}
+
+func TestFigureLabelsAndOrder(t *testing.T) {
+	labels := []struct{ key, want string }{
+		{"f_min_hz", "f min"}, {"gain", "gain"}, {"tau_s", "tau"}, {"q_loaded", "q loaded"}, {"_hz", " hz"},
+	}
+	for _, l := range labels {
+		if got := figureLabel(l.key); got != l.want {
+			t.Errorf("figureLabel(%q) = %q, want %q", l.key, got, l.want)
+		}
+	}
+	// The tuning range reads first, then the gain, then the rest by key.
+	figs := map[string]float64{"zeta": 1, "gain": -16.5, "f_max_hz": 2.07e6, "alpha": 2, "f_min_hz": 1e6}
+	got := strings.Join(sortedFigureKeys(figs), " ")
+	if want := "f_min_hz f_max_hz gain alpha zeta"; got != want {
+		t.Errorf("sortedFigureKeys = %q, want %q", got, want)
+	}
+}
+
+func TestNum(t *testing.T) {
+	for _, c := range []struct {
+		v    float64
+		want string
+	}{{0.5, "0.5"}, {5, "5"}, {0.0123, "0.012"}, {-0.0001, "0"}, {12.3456, "12.346"}} {
+		if got := num(c.v); got != c.want {
+			t.Errorf("num(%v) = %q, want %q", c.v, got, c.want)
+		}
+	}
+}

@@ -1,0 +1,593 @@
+//go:build pare_pipeline
+
+package main
+
+import (
+	"errors"
+	"flag"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/value"
+	"pare/render"
+	"pare/rules"
+	"pare/rules/stages"
+)
+
+type runOpts struct {
+	out      string
+	level    string
+	symbols  string
+	tolDB    float64
+	tolDeg   float64
+	noVerify bool
+}
+
+func init() {
+	register(&command{
+		name:    mainJob,
+		args:    "[-o DIR] [--level L] [--symbols iec|ieee] [--tol-db X] [--tol-deg X] [--no-verify] FILE",
+		summary: "the whole job: reduce, verify, recognise stages, draw the sheets, write the repair note",
+		detail: `Loads FILE and prints its transcription warnings, reduces it to its small-signal
+path (every step checked by AC analysis; a step that changes the signal is
+refused), compares the original with the reduced circuit by AC analysis,
+recognises the stages, and writes into DIR (default: FILE without .toml, plus
+.pare): reduced.toml, reduced.svg, faded.svg and notes.md, a repair note that
+embeds the sheets. Everything is made in memory first; on bad input nothing is
+written. Exit 0 when the reduction was verified, 1 when the verification
+failed (the files are still written, and the note says so), 2 on bad input.
+'pare FILE' is the same as 'pare run FILE'.`,
+		flags: func(fs *flag.FlagSet) any {
+			o := &runOpts{}
+			fs.StringVar(&o.out, "o", "", "write the results into this directory")
+			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
+			fs.StringVar(&o.symbols, "symbols", "iec", "symbol style of the sheets: iec (IEC 60617) or ieee (IEEE 315)")
+			fs.Float64Var(&o.tolDB, "tol-db", 0, "verification tolerance in dB (0: the default 0.5 dB)")
+			fs.Float64Var(&o.tolDeg, "tol-deg", 0, "verification tolerance in degrees (0: the default 5°)")
+			fs.BoolVar(&o.noVerify, "no-verify", false, "skip the AC checks of each step and of the result")
+			return o
+		},
+		run: runMain,
+	})
+}
+
+// The files the main job writes, in the order they are written: the note
+// last, since it links to the others.
+const (
+	fileReducedNetlist = "reduced.toml"
+	fileReducedSheet   = "reduced.svg"
+	fileFadedSheet     = "faded.svg"
+	fileNote           = "notes.md"
+)
+
+// jobConfig is the main job's settings after the flags have been checked.
+type jobConfig struct {
+	level    rules.Level
+	style    render.Style
+	symbols  string // the style's standard, for the note
+	compare  ac.CompareOptions
+	noVerify bool
+}
+
+// outFile is one result file, complete in memory before anything is written.
+type outFile struct {
+	name string
+	data []byte
+}
+
+// jobResult is what the main job made of one netlist.
+type jobResult struct {
+	files   []outFile
+	log     *rules.Log
+	stages  []stages.Stage
+	verify  noteVerify
+	summary []string // lines for stdout
+}
+
+func runMain(e *env, opts any, args []string) int {
+	o := opts.(*runOpts)
+	if len(args) != 1 {
+		fmt.Fprintf(e.stderr, "pare %s: give exactly one netlist file\n", mainJob)
+		return exitBad
+	}
+	cfg, err := configure(o)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare %s: %v\n", mainJob, err)
+		return exitBad
+	}
+	path := args[0]
+	dir := o.out
+	if dir == "" {
+		dir = defaultOutDir(path)
+	}
+	if err := checkOutDir(path, dir); err != nil {
+		fmt.Fprintf(e.stderr, "pare %s: %v\n", mainJob, err)
+		return exitBad
+	}
+	c, ok := loadCircuit(e, path)
+	if !ok {
+		return exitBad
+	}
+	warnings := graph.Check(c)
+	for _, w := range warnings {
+		fmt.Fprintf(e.stderr, "%s: warning: %s\n", w.Pos, w.Msg)
+	}
+	res, err := mainJobOn(c, path, warnings, cfg)
+	if err != nil {
+		printJobError(e, path, err)
+		return exitBad
+	}
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		fmt.Fprintf(e.stderr, "pare %s: %v\n", mainJob, err)
+		return exitBad
+	}
+	names := make([]string, len(res.files))
+	for i, f := range res.files {
+		if err := writeFileAtomic(filepath.Join(dir, f.name), f.data); err != nil {
+			fmt.Fprintf(e.stderr, "pare %s: writing %s: %v\n", mainJob, f.name, err)
+			return exitBad
+		}
+		names[i] = f.name
+	}
+	for _, l := range res.summary {
+		fmt.Fprintln(e.stdout, l)
+	}
+	fmt.Fprintf(e.stdout, "wrote %s: %s\n", filepath.Clean(dir)+string(filepath.Separator), strings.Join(names, ", "))
+	if res.verify.failed() {
+		return exitFound
+	}
+	return exitOK
+}
+
+func configure(o *runOpts) (jobConfig, error) {
+	var cfg jobConfig
+	lvl, err := rules.ParseLevel(o.level)
+	if err != nil {
+		return cfg, fmt.Errorf("--level: %w", err)
+	}
+	cfg.level = lvl
+	switch strings.ToLower(o.symbols) {
+	case "iec":
+		cfg.style, cfg.symbols = render.IEC, "IEC 60617"
+	case "ieee":
+		cfg.style, cfg.symbols = render.IEEE, "IEEE 315"
+	default:
+		return cfg, fmt.Errorf("--symbols: %q is not a symbol style (iec or ieee)", o.symbols)
+	}
+	for _, t := range []struct {
+		name string
+		v    float64
+	}{{"--tol-db", o.tolDB}, {"--tol-deg", o.tolDeg}} {
+		if t.v < 0 || math.IsNaN(t.v) || math.IsInf(t.v, 0) {
+			return cfg, fmt.Errorf("%s: %v is not a tolerance (a number ≥ 0; 0 picks the default)", t.name, t.v)
+		}
+	}
+	cfg.compare = ac.CompareOptions{TolDB: o.tolDB, TolDeg: o.tolDeg}
+	cfg.noVerify = o.noVerify
+	return cfg, nil
+}
+
+// defaultOutDir is FILE without .toml plus .pare: examples/set.toml ->
+// examples/set.pare.
+func defaultOutDir(path string) string {
+	return strings.TrimSuffix(path, ".toml") + ".pare"
+}
+
+// checkOutDir refuses an output directory that is a file, and one where a
+// result file would overwrite the input netlist.
+func checkOutDir(input, dir string) error {
+	if st, err := os.Stat(dir); err == nil && !st.IsDir() {
+		return fmt.Errorf("output %s exists and is not a directory", dir)
+	}
+	in, err := os.Stat(input)
+	if err != nil {
+		return nil // loadCircuit reports the missing input with its own message
+	}
+	for _, name := range []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote} {
+		if st, err := os.Stat(filepath.Join(dir, name)); err == nil && os.SameFile(in, st) {
+			return fmt.Errorf("output %s would overwrite the input netlist; choose another directory with -o", filepath.Join(dir, name))
+		}
+	}
+	return nil
+}
+
+// printJobError prints a model error list as file:line:col lines, anything
+// else as one message.
+func printJobError(e *env, path string, err error) {
+	var list graph.ErrorList
+	if errors.As(err, &list) {
+		for _, x := range list {
+			fmt.Fprintln(e.stderr, x.Error())
+		}
+		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+		return
+	}
+	fmt.Fprintf(e.stderr, "pare %s: %s: %v\n", mainJob, path, err)
+}
+
+// mainJobOn runs the whole job on a loaded circuit and returns every result
+// file in memory. It never modifies c and never touches the disk.
+func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobConfig) (*jobResult, error) {
+	ro := rules.Options{Level: cfg.level}
+	if !cfg.noVerify {
+		cmp := cfg.compare
+		ro.Check = func(before, after *graph.Circuit, _ *rules.Step) error { return cmp.Check(before, after) }
+	}
+	// Reduce promises not to touch its input; the clone keeps the original
+	// pristine for the comparison and the faded sheet even if it slipped.
+	reduced, log, err := rules.Reduce(c.Clone(), ro)
+	if err != nil {
+		return nil, fmt.Errorf("reducing: %w", err)
+	}
+	if log == nil {
+		log = &rules.Log{}
+	}
+
+	res := &jobResult{log: log}
+	if cfg.noVerify {
+		res.verify = noteVerify{Skipped: "--no-verify"}
+	} else {
+		rep, err := ac.Compare(c, reduced, cfg.compare)
+		res.verify = verifyOf(rep, err, cfg.compare)
+	}
+
+	found, err := stages.Find(reduced, stages.Options{Full: c})
+	if err != nil {
+		return nil, fmt.Errorf("recognising stages: %w", err)
+	}
+	res.stages = found
+
+	var netlist strings.Builder
+	if err := graph.Write(&netlist, reduced); err != nil {
+		return nil, fmt.Errorf("writing the reduced netlist: %w", err)
+	}
+	// A reduced netlist that does not load back is a bug in pare, not in the
+	// input; catch it here rather than hand the user a broken file.
+	if _, err := graph.Parse(fileReducedNetlist, []byte(netlist.String())); err != nil {
+		return nil, fmt.Errorf("internal error: the reduced netlist does not load back: %w", err)
+	}
+
+	prov := provenanceOf(c, reduced)
+	furniture := furnitureOf(c, found, cfg.level)
+	title := c.Title
+	if title == "" {
+		title = filepath.Base(path)
+	}
+	rcfg := render.Config{Style: cfg.style}
+	reducedSheet := &render.Sheet{
+		Circuit: reduced, Title: title, View: render.Reduced,
+		Frames: framesOf(found, nil), Caution: sheetCaution, Furniture: furniture,
+	}
+	fadedSheet := &render.Sheet{
+		Circuit: c, Title: title, View: render.Faded,
+		Faded: prov.faded, Merged: prov.mergedInto,
+		Frames: framesOf(found, reduced), Caution: sheetCaution, Furniture: furniture,
+	}
+	var redSVG, fadedSVG strings.Builder
+	if err := rcfg.Fprint(&redSVG, reducedSheet); err != nil {
+		return nil, fmt.Errorf("drawing the reduced sheet: %w", err)
+	}
+	if err := rcfg.Fprint(&fadedSVG, fadedSheet); err != nil {
+		return nil, fmt.Errorf("drawing the faded sheet: %w", err)
+	}
+
+	n := &note{
+		Title: title, Source: filepath.Base(path), Version: version,
+		Level: cfg.level.String(), Symbols: cfg.symbols,
+		CircuitNote: c.Note, Furniture: furniture,
+		Warnings: warningLines(warnings),
+		Sheets: []noteSheet{
+			{File: fileReducedSheet, Alt: "Reduced signal path of " + title,
+				Caption: "Reduced view, small-signal only: the parts that shape the signal, framed by stage."},
+			{File: fileFadedSheet, Alt: "Original circuit of " + title + " with the removed parts faded",
+				Caption: "Faded view: the whole original circuit; parts the reduction removed are faded, merged parts are marked with the part they went into."},
+		},
+		Before:   partCount{len(c.Parts), len(c.Nets)},
+		After:    partCount{len(reduced.Parts), len(reduced.Nets)},
+		Removed:  prov.removed,
+		Merged:   prov.merges,
+		ACGround: sortedCopy(log.ACGround),
+		Gangs:    gangsOf(log.Gangs),
+		Stages:   noteStages(found),
+		Steps:    noteSteps(log.Steps),
+		Verify:   res.verify,
+	}
+	var md strings.Builder
+	if err := writeNote(&md, n); err != nil {
+		return nil, fmt.Errorf("writing the note: %w", err)
+	}
+
+	res.files = []outFile{
+		{fileReducedNetlist, []byte(netlist.String())},
+		{fileReducedSheet, []byte(redSVG.String())},
+		{fileFadedSheet, []byte(fadedSVG.String())},
+		{fileNote, []byte(md.String())},
+	}
+	res.summary = summaryLines(path, n, log, found, res.verify)
+	return res, nil
+}
+
+// verifyOf turns the comparison into what the note and the summary say.
+func verifyOf(rep *ac.Report, err error, o ac.CompareOptions) noteVerify {
+	v := noteVerify{TolDB: o.TolDB, TolDeg: o.TolDeg}
+	if v.TolDB == 0 {
+		v.TolDB = 0.5 // the ac package's default, restated for the message
+	}
+	if v.TolDeg == 0 {
+		v.TolDeg = 5
+	}
+	if err != nil {
+		v.Err = err.Error()
+		return v
+	}
+	if rep == nil {
+		v.Err = "the comparison returned no report"
+		return v
+	}
+	if rep.TolDB > 0 {
+		v.TolDB = rep.TolDB
+	}
+	if rep.TolDeg > 0 {
+		v.TolDeg = rep.TolDeg
+	}
+	v.OK = rep.OK
+	for _, p := range rep.Pairs {
+		v.Pairs = append(v.Pairs, notePair{From: p.From, To: p.To, What: p.What, MaxDB: p.MaxDB, MaxDeg: p.MaxDeg, AtHz: p.AtHz})
+	}
+	return v
+}
+
+// provenance relates the original parts to the reduced ones.
+type provenance struct {
+	faded      map[string]bool   // original refs no reduced part stands for
+	removed    []string          // the same, sorted
+	mergedInto map[string]string // original ref -> reduced ref, for parts that were combined or renamed
+	merges     []noteMerge
+}
+
+func provenanceOf(orig, reduced *graph.Circuit) provenance {
+	p := provenance{faded: map[string]bool{}, mergedInto: map[string]string{}}
+	kept := map[string]bool{}
+	for _, rp := range reduced.Parts {
+		from := rp.Origins()
+		for _, o := range from {
+			kept[o] = true
+		}
+		if len(from) > 1 || from[0] != rp.Ref {
+			var inOrig []string
+			for _, o := range from {
+				if orig.Part(o) != nil {
+					p.mergedInto[o] = rp.Ref
+					inOrig = append(inOrig, o)
+				}
+			}
+			if len(inOrig) > 0 {
+				p.merges = append(p.merges, noteMerge{Into: rp.Ref, From: sortedCopy(inOrig)})
+			}
+		}
+	}
+	for _, op := range orig.Parts {
+		if !kept[op.Ref] {
+			p.faded[op.Ref] = true
+			p.removed = append(p.removed, op.Ref)
+		}
+	}
+	sort.Strings(p.removed)
+	sort.Slice(p.merges, func(i, j int) bool { return p.merges[i].Into < p.merges[j].Into })
+	return p
+}
+
+// framesOf makes one frame per stage. With reduced set, the frames are for a
+// sheet of the original circuit, so each reduced part is replaced by the
+// originals it stands for.
+func framesOf(found []stages.Stage, reduced *graph.Circuit) []render.Frame {
+	frames := make([]render.Frame, 0, len(found))
+	for _, s := range found {
+		parts := s.Parts
+		if reduced != nil {
+			set := map[string]bool{}
+			for _, ref := range s.Parts {
+				if rp := reduced.Part(ref); rp != nil {
+					for _, o := range rp.Origins() {
+						set[o] = true
+					}
+				} else {
+					set[ref] = true
+				}
+			}
+			parts = make([]string, 0, len(set))
+			for ref := range set {
+				parts = append(parts, ref)
+			}
+		}
+		frames = append(frames, render.Frame{
+			Title:    s.Name + " · " + s.Title,
+			Subtitle: keyFigures(s.Figures, 2),
+			Parts:    sortedCopy(parts),
+		})
+	}
+	return frames
+}
+
+// keyFigures prints the first n figures a reader looks for, for a frame
+// subtitle: "f min 1 MHz, f max 2.17 MHz".
+func keyFigures(figs map[string]float64, n int) string {
+	keys := sortedFigureKeys(figs)
+	if len(keys) > n {
+		keys = keys[:n]
+	}
+	out := make([]string, len(keys))
+	for i, k := range keys {
+		out[i] = figureLabel(k) + " " + stages.FigureText(k, figs[k])
+	}
+	return strings.Join(out, ", ")
+}
+
+// furnitureOf is the sheet's information block and the note's header list:
+// band, regions, named frequencies, the tuning range, the level.
+func furnitureOf(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string {
+	var lines []string
+	if c.Band.Max > 0 {
+		lines = append(lines, "Band "+value.FormatRange(c.Band, value.Hertz, value.Symbol))
+	}
+	for _, r := range c.Regions {
+		if r.Band.Max > 0 {
+			lines = append(lines, "Region "+r.Name+": "+value.FormatRange(r.Band, value.Hertz, value.Symbol))
+		}
+	}
+	names := make([]string, 0, len(c.Freqs))
+	for k := range c.Freqs {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	for _, k := range names {
+		label := k
+		if strings.EqualFold(k, "if") {
+			label = "IF"
+		}
+		lines = append(lines, label+" "+value.Format(c.Freqs[k], value.Hertz, value.Symbol))
+	}
+	for _, s := range found {
+		lo, okLo := s.Figures["f_min_hz"]
+		hi, okHi := s.Figures["f_max_hz"]
+		if okLo && okHi && hi > lo {
+			lines = append(lines, fmt.Sprintf("Tuning (%s %s) %s", s.Name, s.Title,
+				value.FormatRange(value.Range{Min: lo, Max: hi}, value.Hertz, value.Symbol)))
+		}
+	}
+	lines = append(lines, "Level "+lvl.String())
+	return lines
+}
+
+func noteStages(found []stages.Stage) []noteStage {
+	out := make([]noteStage, len(found))
+	for i, s := range found {
+		ns := noteStage{
+			Name: s.Name, Title: s.Title, Topology: s.Topology, Family: s.Family,
+			Parts: s.Parts, Flags: s.Flags, Contains: s.Contains,
+		}
+		for _, k := range sortedFigureKeys(s.Figures) {
+			ns.Figures = append(ns.Figures, noteFigure{Label: figureLabel(k), Text: stages.FigureText(k, s.Figures[k])})
+		}
+		out[i] = ns
+	}
+	return out
+}
+
+func noteSteps(steps []rules.Step) []noteStep {
+	out := make([]noteStep, len(steps))
+	for i, s := range steps {
+		where := append([]graph.Pos(nil), s.Where...)
+		sort.SliceStable(where, func(a, b int) bool { return where[a].Before(where[b]) })
+		var ws []string
+		for _, p := range where {
+			t := shortPos(p)
+			if len(ws) == 0 || ws[len(ws)-1] != t {
+				ws = append(ws, t)
+			}
+		}
+		out[i] = noteStep{
+			N: s.N, Rule: s.Rule, Removed: s.Removed, Merged: s.Merged, Result: s.Result,
+			Joined: s.Joined, Grounded: s.Grounded, Why: s.Why, Refused: s.Refused, Where: ws,
+		}
+	}
+	return out
+}
+
+// shortPos prints file:line with the file's base name, so the note reads the
+// same wherever pare was run from.
+func shortPos(p graph.Pos) string {
+	if p.File != "" {
+		p.File = filepath.Base(p.File)
+	}
+	return p.Short()
+}
+
+func warningLines(ws graph.ErrorList) []string {
+	out := make([]string, len(ws))
+	for i, w := range ws {
+		p := w.Pos
+		if p.File != "" {
+			p.File = filepath.Base(p.File)
+		}
+		out[i] = p.String() + ": " + w.Msg
+	}
+	return out
+}
+
+func gangsOf(g map[string][]string) []noteGang {
+	names := make([]string, 0, len(g))
+	for k := range g {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	out := make([]noteGang, len(names))
+	for i, k := range names {
+		out[i] = noteGang{Name: k, Parts: sortedCopy(g[k])}
+	}
+	return out
+}
+
+func sortedCopy(s []string) []string {
+	out := append([]string(nil), s...)
+	sort.Strings(out)
+	return out
+}
+
+// summaryLines is what the main job prints: the counts, the stages, the
+// verification with its worst deviation.
+func summaryLines(path string, n *note, log *rules.Log, found []stages.Stage, v noteVerify) []string {
+	refused := 0
+	for _, s := range log.Steps {
+		if s.Refused != "" {
+			refused++
+		}
+	}
+	lines := []string{fmt.Sprintf("%s: %d parts, %d nets → %d parts, %d nets (level %s, %d steps, %d refused)",
+		path, n.Before.Parts, n.Before.Nets, n.After.Parts, n.After.Nets, n.Level, len(log.Steps)-refused, refused)}
+	if len(found) == 0 {
+		lines = append(lines, "stages: none recognised")
+	} else {
+		names := make([]string, len(found))
+		for i, s := range found {
+			names[i] = s.Name + " " + s.Title
+		}
+		lines = append(lines, "stages: "+strings.Join(names, "; "))
+	}
+	lines = append(lines, verifySummary(v))
+	return lines
+}
+
+func verifySummary(v noteVerify) string {
+	switch {
+	case v.Skipped != "":
+		return "verification: not run (" + v.Skipped + ")"
+	case v.Err != "":
+		return "verification: FAILED, could not compare: " + v.Err
+	}
+	verdict := "ok"
+	if !v.OK {
+		verdict = "FAILED"
+	}
+	tol := fmt.Sprintf("tolerance %s dB / %s°", num(v.TolDB), num(v.TolDeg))
+	if len(v.Pairs) == 0 {
+		return "verification: " + verdict + ", no port pair compared; " + tol
+	}
+	// The worst pair is the one closest to (or furthest past) its tolerance.
+	worst, score := 0, -1.0
+	for i, p := range v.Pairs {
+		s := math.Max(p.MaxDB/v.TolDB, p.MaxDeg/v.TolDeg)
+		if s > score {
+			worst, score = i, s
+		}
+	}
+	p := v.Pairs[worst]
+	return fmt.Sprintf("verification: %s, worst %s dB / %s° (%s %s → %s at %s); %s", verdict, num(p.MaxDB), num(p.MaxDeg),
+		p.What, p.From, p.To, value.Format(p.AtHz, value.Hertz, value.Symbol), tol)
+}
