@@ -433,11 +433,33 @@ func paramText(name string, v float64) string {
 	case u == value.None:
 		return fmtFloat(v)
 	case u == value.Siemens:
-		if back, err := value.Parse(normaliseUnit(fmtDecimal(v*1e3, value.None)+"mA/V", u), u); err == nil && closeEnough(back, v, 15) {
-			return quote(fmtDecimal(v*1e3, value.None) + "mA/V")
+		if s, ok := withUnit(v*1e3, "mA/V", v, u); ok {
+			return quote(s)
+		}
+	case u == value.Ampere:
+		if s, ok := withUnit(v*1e3, "mA", v, u); ok {
+			return quote(s)
 		}
 	}
 	return quote(fmtNum(v, u))
+}
+
+// withUnit writes x (v in a scaled unit) as the shortest decimal that reads
+// back as v, followed by the unit text.
+func withUnit(x float64, unit string, v float64, u value.Unit) (string, bool) {
+	for _, digits := range []int{6, 9, 15, 17} {
+		s := strconv.FormatFloat(x, 'f', -1, 64)
+		if digits < 17 {
+			s = strconv.FormatFloat(x, 'g', digits, 64)
+		}
+		if strings.ContainsAny(s, "eE") {
+			continue
+		}
+		if back, err := value.Parse(normaliseUnit(s+unit, u), u); err == nil && closeEnough(back, v, digits) {
+			return s + unit, true
+		}
+	}
+	return "", false
 }
 
 // tapOf finds the tap fraction of a tapped coil whose sections are fully
