@@ -1,0 +1,412 @@
+package ac
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"pare/graph"
+)
+
+// The small-signal circuit: every part turned into primitive elements on
+// numbered nodes. Both the solver and the SPICE writer work from this one
+// list, so what pare solves and what it hands to a simulator cannot drift
+// apart.
+
+type primKind int
+
+const (
+	primR    primKind = iota // resistor, v ohms
+	primC                    // capacitor, v farads
+	primRL                   // r in series with l: an uncoupled winding
+	primRLC                  // r, l, c in series: a crystal's motional arm
+	primVCCS                 // current v·(V(c)−V(d)) from a through the element to b
+)
+
+// prim is one primitive element between nodes a and b (0 is ground).
+type prim struct {
+	kind    primKind
+	ref     string // the part it models
+	sub     string // which piece of the part: "ra", "gm", winding name, ...
+	a, b    int
+	c, d    int // control nodes of a VCCS
+	v       float64
+	r, l, C float64
+}
+
+// winding is one coil of a coupled group, carrying a branch current.
+type winding struct {
+	name string // winding name within its part
+	a, b int
+	r, l float64
+}
+
+// mutual is the coupling of two windings of a group: M = k·√(La·Lb).
+type mutual struct {
+	i, j int
+	k, m float64
+}
+
+// group is a set of magnetically coupled windings of one part.
+type group struct {
+	ref   string
+	winds []winding
+	muts  []mutual
+}
+
+// netlist is the elaborated small-signal circuit.
+type netlist struct {
+	nodes   []string       // node names; nodes[0] is ground
+	netNode map[string]int // net name -> node
+	prims   []prim
+	groups  []group
+}
+
+// ncNet marks a terminal that is not connected (docs/netlist.md).
+const ncNet = "nc"
+
+// unionFind joins nets that the small-signal model treats as one node.
+type unionFind map[string]string
+
+func (u unionFind) find(x string) string {
+	for {
+		p, ok := u[x]
+		if !ok || p == x {
+			return x
+		}
+		if gp, ok := u[p]; ok && gp != p {
+			u[x] = gp
+		}
+		x = p
+	}
+}
+
+func (u unionFind) join(a, b string) {
+	ra, rb := u.find(a), u.find(b)
+	if ra == rb {
+		return
+	}
+	// Keep the smaller name as representative, for stable node names.
+	if rb < ra {
+		ra, rb = rb, ra
+	}
+	u[rb] = ra
+	u[ra] = ra
+}
+
+const groundName = "\x00ground" // sorts first; never a legal net name
+
+// elaborate turns a circuit into primitive elements. Nets with an AC-ground
+// role are ground; closed switch contacts, zero-ohm resistors, pot ends at a
+// wiper set to 0 or 1 and zero inductances join nets.
+func elaborate(c *graph.Circuit, o Options) (*netlist, error) {
+	frac := 0.5
+	if o.VarSet {
+		frac = o.VarFrac
+	}
+	var errs graph.ErrorList
+	uf := unionFind{}
+	for _, n := range c.Nets {
+		if n.Role.IsACGround() {
+			uf.join(groundName, n.Name)
+		}
+	}
+	// Pass 1: joins.
+	for _, p := range c.Parts {
+		switch p.Kind {
+		case graph.Switch:
+			pos := int(p.Set)
+			if pos >= 1 && pos <= len(p.Closes) {
+				for _, pr := range p.Closes[pos-1] {
+					a, b := p.NetOf(pr[0]), p.NetOf(pr[1])
+					if usable(a) && usable(b) {
+						uf.join(a, b)
+					}
+				}
+			}
+		case graph.Resistor:
+			if p.Value.Max == 0 {
+				joinPins(uf, p, "1", "2")
+			}
+		case graph.Inductor:
+			if len(p.Windings) == 0 && p.Value.Max == 0 {
+				joinPins(uf, p, "1", "2")
+			}
+		case graph.Pot:
+			if p.Value.Max == 0 || p.Set <= 0 {
+				joinPins(uf, p, "1", "w")
+			}
+			if p.Value.Max == 0 || p.Set >= 1 {
+				joinPins(uf, p, "w", "2")
+			}
+		}
+	}
+	for net, val := range o.Terminate {
+		if val == 0 {
+			uf.join(groundName, net)
+		}
+	}
+	nl := &netlist{netNode: map[string]int{}}
+	// Number the nodes: representatives sorted by name, ground first.
+	reps := map[string]bool{}
+	for _, n := range c.Nets {
+		if n.Name == ncNet {
+			continue
+		}
+		reps[uf.find(n.Name)] = true
+	}
+	names := make([]string, 0, len(reps))
+	for r := range reps {
+		if r != uf.find(groundName) {
+			names = append(names, r)
+		}
+	}
+	sort.Strings(names)
+	nl.nodes = append([]string{"0"}, names...)
+	repNode := map[string]int{uf.find(groundName): 0}
+	for i, r := range names {
+		repNode[r] = i + 1
+	}
+	for _, n := range c.Nets {
+		if n.Name == ncNet {
+			continue
+		}
+		nl.netNode[n.Name] = repNode[uf.find(n.Name)]
+	}
+	node := func(net string) int {
+		if !usable(net) {
+			return -1
+		}
+		if id, ok := nl.netNode[net]; ok {
+			return id
+		}
+		// A net named by a pin but missing from the net list: give it a node.
+		nl.nodes = append(nl.nodes, net)
+		nl.netNode[net] = len(nl.nodes) - 1
+		return len(nl.nodes) - 1
+	}
+	two := func(k primKind, p *graph.Part, sub, pa, pb string, v float64) {
+		a, b := node(p.NetOf(pa)), node(p.NetOf(pb))
+		if a < 0 || b < 0 || a == b {
+			return // an open end carries no current; both ends on one node do nothing
+		}
+		nl.prims = append(nl.prims, prim{kind: k, ref: p.Ref, sub: sub, a: a, b: b, v: v})
+	}
+	vccs := func(p *graph.Part, out, common, control string, gm float64) {
+		a, k, g := node(p.NetOf(out)), node(p.NetOf(common)), node(p.NetOf(control))
+		if a < 0 || k < 0 || gm == 0 {
+			return
+		}
+		if g < 0 {
+			errs.Add(p.Pos, "%s %s: control terminal %s is not connected: the small-signal model needs it", p.Kind, p.Ref, control)
+			return
+		}
+		if a == k {
+			return
+		}
+		nl.prims = append(nl.prims, prim{kind: primVCCS, ref: p.Ref, sub: "gm", a: a, b: k, c: g, d: k, v: gm})
+	}
+	fail := func(p *graph.Part, err error) { errs.Add(p.Pos, "%v", err) }
+
+	for _, p := range c.Parts {
+		switch p.Kind {
+		case graph.Resistor:
+			if p.Value.Max > 0 {
+				two(primR, p, "", "1", "2", p.Value.Max)
+			}
+		case graph.Capacitor:
+			a, b := "1", "2"
+			if p.Type == graph.CapElectrolytic {
+				a, b = "+", "-"
+			}
+			if cv := p.Capacitance(frac); cv > 0 {
+				two(primC, p, "", a, b, cv)
+			}
+		case graph.Inductor, graph.Transformer:
+			nl.windings(c, p, node, &errs)
+		case graph.Valve:
+			switch p.Type {
+			case "diode":
+				if rd := diodeRes(p, true); rd > 0 {
+					two(primR, p, "", "a", "k", rd)
+				}
+			case "double-diode":
+				if rd := diodeRes(p, true); rd > 0 {
+					two(primR, p, "a1", "a1", "k", rd)
+					two(primR, p, "a2", "a2", "k", rd)
+				}
+			default:
+				gm, ra, err := valveParams(p)
+				if err != nil {
+					fail(p, err)
+					continue
+				}
+				two(primR, p, "ra", "a", "k", ra)
+				vccs(p, "a", "k", "g1", gm)
+			}
+		case graph.BJT:
+			gm, rpi, ro, err := bjtParams(p)
+			if err != nil {
+				fail(p, err)
+				continue
+			}
+			two(primR, p, "rpi", "b", "e", rpi)
+			two(primR, p, "ro", "c", "e", ro)
+			vccs(p, "c", "e", "b", gm)
+		case graph.FET:
+			gm, rd, err := fetParams(p)
+			if err != nil {
+				fail(p, err)
+				continue
+			}
+			two(primR, p, "rd", "d", "s", rd)
+			vccs(p, "d", "s", "g", gm)
+		case graph.Diode:
+			if rd := diodeRes(p, false); rd > 0 {
+				two(primR, p, "", "a", "k", rd)
+			}
+		case graph.Crystal:
+			rm, lm, cm, c0, err := crystalParams(p)
+			if err != nil {
+				fail(p, err)
+				continue
+			}
+			a, b := node(p.NetOf("1")), node(p.NetOf("2"))
+			if a >= 0 && b >= 0 && a != b {
+				nl.prims = append(nl.prims, prim{kind: primRLC, ref: p.Ref, sub: "m", a: a, b: b, r: rm, l: lm, C: cm})
+				if c0 > 0 {
+					two(primC, p, "c0", "1", "2", c0)
+				}
+			}
+		case graph.Pot:
+			r := p.Value.Max
+			if r > 0 && p.Set > 0 {
+				two(primR, p, "1w", "1", "w", p.Set*r)
+			}
+			if r > 0 && p.Set < 1 {
+				two(primR, p, "w2", "w", "2", (1-p.Set)*r)
+			}
+		}
+	}
+	// Stated terminations, in name order.
+	var terms []string
+	for net := range o.Terminate {
+		terms = append(terms, net)
+	}
+	sort.Strings(terms)
+	for i, net := range terms {
+		r := o.Terminate[net]
+		if r < 0 || math.IsNaN(r) {
+			errs.Add(graph.Pos{File: c.File}, "termination of net %s must be a resistance ≥ 0, not %g", net, r)
+			continue
+		}
+		id, ok := nl.netNode[net]
+		if !ok {
+			errs.Add(graph.Pos{File: c.File}, "termination names net %q, which is not in the circuit", net)
+			continue
+		}
+		if r > 0 && id != 0 && !math.IsInf(r, 1) {
+			nl.prims = append(nl.prims, prim{kind: primR, ref: fmt.Sprintf("term%d", i+1), a: id, b: 0, v: r})
+		}
+	}
+	if err := errs.Err(); err != nil {
+		errs.Sort()
+		return nil, errs
+	}
+	return nl, nil
+}
+
+func usable(net string) bool { return net != "" && net != ncNet }
+
+func joinPins(uf unionFind, p *graph.Part, a, b string) {
+	na, nb := p.NetOf(a), p.NetOf(b)
+	if usable(na) && usable(nb) {
+		uf.join(na, nb)
+	}
+}
+
+// windings elaborates an inductor or transformer. Windings that no coupling
+// ties to another become series R–L elements; coupled ones form a group with
+// branch currents. Winding loss: Q is taken as the coil's Q at the centre of
+// the band the part works in (the geometric mean of its region's band edges),
+// giving a constant series resistance R = ω0·L/Q. A constant R is what a
+// simulator deck can carry, so pare and the exported deck solve the same
+// circuit; over a tuning band the real Q of a coil is roughly flat, so a
+// constant R errs by the band's frequency ratio at worst, on the side of less
+// loss at the low edge.
+func (nl *netlist) windings(c *graph.Circuit, p *graph.Part, node func(string) int, errs *graph.ErrorList) {
+	if len(p.Windings) == 0 {
+		if p.Value.Max > 0 {
+			a, b := node(p.NetOf("1")), node(p.NetOf("2"))
+			if a >= 0 && b >= 0 && a != b {
+				nl.prims = append(nl.prims, prim{kind: primRL, ref: p.Ref, a: a, b: b, l: p.Value.Max})
+			}
+		}
+		return
+	}
+	w0 := 2 * math.Pi * bandCentre(c, p)
+	var ws []winding
+	index := map[string]int{}
+	for _, w := range p.Windings {
+		if w.L <= 0 {
+			errs.Add(p.Pos, "%s %s: winding %s has no inductance", p.Kind, p.Ref, w.Name)
+			continue
+		}
+		a, b := node(p.NetOf(w.From)), node(p.NetOf(w.To))
+		if a < 0 || b < 0 {
+			continue // an open winding carries no current and so couples nothing
+		}
+		r := 0.0
+		if w.Q > 0 {
+			r = w0 * w.L / w.Q
+		}
+		index[w.Name] = len(ws)
+		ws = append(ws, winding{name: w.Name, a: a, b: b, r: r, l: w.L})
+	}
+	coupled := make([]bool, len(ws))
+	var muts []mutual
+	for _, k := range p.Coupling {
+		i, iok := index[k.A]
+		j, jok := index[k.B]
+		if !iok || !jok || k.K == 0 || i == j {
+			continue
+		}
+		if k.K < 0 || k.K > 1 {
+			errs.Add(p.Pos, "%s %s: coupling %s-%s is %g, outside 0..1", p.Kind, p.Ref, k.A, k.B, k.K)
+			continue
+		}
+		muts = append(muts, mutual{i: i, j: j, k: k.K, m: k.K * math.Sqrt(ws[i].l*ws[j].l)})
+		coupled[i], coupled[j] = true, true
+	}
+	g := group{ref: p.Ref}
+	remap := make([]int, len(ws))
+	for i, w := range ws {
+		if coupled[i] {
+			remap[i] = len(g.winds)
+			g.winds = append(g.winds, w)
+			continue
+		}
+		if w.a != w.b {
+			nl.prims = append(nl.prims, prim{kind: primRL, ref: p.Ref, sub: w.name, a: w.a, b: w.b, r: w.r, l: w.l})
+		}
+	}
+	for _, m := range muts {
+		m.i, m.j = remap[m.i], remap[m.j]
+		g.muts = append(g.muts, m)
+	}
+	if len(g.winds) > 0 {
+		nl.groups = append(nl.groups, g)
+	}
+}
+
+// bandCentre is the geometric centre of the band a part works in.
+func bandCentre(c *graph.Circuit, p *graph.Part) float64 {
+	b := c.BandOf(p)
+	if b.Min <= 0 || b.Max <= 0 {
+		b = c.FullBand()
+	}
+	if b.Min <= 0 || b.Max <= 0 {
+		return 1e3 // no band at all: loss judged at 1 kHz
+	}
+	return math.Sqrt(b.Min * b.Max)
+}

@@ -1,0 +1,485 @@
+package ac
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+	"sort"
+	"strings"
+
+	"pare/graph"
+)
+
+// Options chooses the setting of the circuit's adjustable parts.
+type Options struct {
+	// VarFrac sets variable capacitors (gang sections) at Min+VarFrac·(Max−Min).
+	VarFrac float64
+	// VarSet false: VarFrac is ignored and the sections sit at mid travel (0.5).
+	VarSet bool
+	// Terminate loads nets with a resistance to ground (ohms; 0 is a short),
+	// e.g. a port's stated termination. Ports are open otherwise.
+	Terminate map[string]float64
+}
+
+// Modified nodal analysis. Unknowns are the node voltages (ground and a
+// driven node excluded) and one branch current per coupled winding; an
+// uncoupled winding is an admittance 1/(R+jωL) and needs no branch. The
+// matrix pattern is fixed for a circuit, so it is built once: every stamp is
+// a (slot, value, sign) triple and a frequency point only recomputes values.
+
+// valKind says how a stamp's value depends on ω.
+type valKind int
+
+const (
+	valConst valKind = iota // a
+	valJW                   // jω·a
+	valRL                   // 1/(a + jω·b)
+	valRLC                  // 1/(a + jω·b + 1/(jω·c))
+	valZ                    // a + jω·b
+)
+
+type coef struct {
+	kind    valKind
+	a, b, c float64
+}
+
+func (k coef) at(w float64) complex128 {
+	switch k.kind {
+	case valConst:
+		return complex(k.a, 0)
+	case valJW:
+		return complex(0, w*k.a)
+	case valRL:
+		return 1 / complex(k.a, w*k.b)
+	case valRLC:
+		return 1 / complex(k.a, w*k.b-1/(w*k.c))
+	case valZ:
+		return complex(k.a, w*k.b)
+	}
+	return 0
+}
+
+// stamp adds sign·coefs[val] at a matrix slot, or, when the column is the
+// driven node, subtracts it from the right-hand side row rhs.
+type stamp struct {
+	slot int32
+	rhs  int32
+	val  int32
+	sign float64
+}
+
+type system struct {
+	nl     *netlist
+	n      int
+	unk    []int    // node -> unknown index; -1 ground or unused, -2 driven
+	what   []string // unknown -> what it is, for messages
+	coefs  []coef
+	stamps []stamp
+	a      csc
+	f      *lu
+	b, y   []complex128
+}
+
+const (
+	unkGround = -1
+	unkDriven = -2
+)
+
+// newSystem assembles the MNA pattern of nl with node driven held at 1 V
+// (driven < 0: nothing driven).
+func newSystem(nl *netlist, driven int) (*system, error) {
+	s := &system{nl: nl}
+	s.unk = make([]int, len(nl.nodes))
+	for i := range s.unk {
+		s.unk[i] = unkGround
+	}
+	used := make([]bool, len(nl.nodes))
+	for _, p := range nl.prims {
+		used[p.a], used[p.b] = true, true
+		if p.kind == primVCCS {
+			used[p.c], used[p.d] = true, true
+		}
+	}
+	for _, g := range nl.groups {
+		for _, w := range g.winds {
+			used[w.a], used[w.b] = true, true
+		}
+	}
+	for i := 1; i < len(nl.nodes); i++ {
+		switch {
+		case i == driven:
+			s.unk[i] = unkDriven
+		case used[i]:
+			s.unk[i] = s.n
+			s.what = append(s.what, "net "+nl.nodes[i])
+			s.n++
+		}
+	}
+	if err := s.checkFloating(driven); err != nil {
+		return nil, err
+	}
+	// Coordinates of every entry, then compress.
+	type entry struct{ row, col, val int32; sign float64 }
+	var ents []entry
+	var rhs []stamp
+	add := func(row, col, val int, sign float64) {
+		if row < 0 {
+			return
+		}
+		switch {
+		case col >= 0:
+			ents = append(ents, entry{int32(row), int32(col), int32(val), sign})
+		case col == unkDriven:
+			rhs = append(rhs, stamp{slot: -1, rhs: int32(row), val: int32(val), sign: sign})
+		}
+	}
+	newCoef := func(k coef) int {
+		s.coefs = append(s.coefs, k)
+		return len(s.coefs) - 1
+	}
+	u := func(node int) int { return s.unk[node] }
+	quad := func(p, q, r, t, val int) {
+		add(u(p), u(r), val, 1)
+		add(u(p), u(t), val, -1)
+		add(u(q), u(r), val, -1)
+		add(u(q), u(t), val, 1)
+	}
+	for _, p := range nl.prims {
+		var k coef
+		switch p.kind {
+		case primR:
+			k = coef{kind: valConst, a: 1 / p.v}
+		case primC:
+			k = coef{kind: valJW, a: p.v}
+		case primRL:
+			k = coef{kind: valRL, a: p.r, b: p.l}
+		case primRLC:
+			k = coef{kind: valRLC, a: p.r, b: p.l, c: p.C}
+		case primVCCS:
+			quad(p.a, p.b, p.c, p.d, newCoef(coef{kind: valConst, a: p.v}))
+			continue
+		}
+		quad(p.a, p.b, p.a, p.b, newCoef(k))
+	}
+	one := newCoef(coef{kind: valConst, a: 1})
+	for _, g := range nl.groups {
+		base := s.n
+		for _, w := range g.winds {
+			s.what = append(s.what, fmt.Sprintf("current in %s winding %s", g.ref, w.name))
+			s.n++
+		}
+		for i, w := range g.winds {
+			br := base + i
+			// KCL: the branch current leaves node a into the winding, enters b.
+			add(u(w.a), br, one, 1)
+			add(u(w.b), br, one, -1)
+			// Branch: V(a) − V(b) − Σ Z_ij·I_j = 0.
+			add(br, u(w.a), one, 1)
+			add(br, u(w.b), one, -1)
+			add(br, br, newCoef(coef{kind: valZ, a: w.r, b: w.l}), -1)
+		}
+		for _, m := range g.muts {
+			z := newCoef(coef{kind: valZ, b: m.m})
+			add(base+m.i, base+m.j, z, -1)
+			add(base+m.j, base+m.i, z, -1)
+		}
+	}
+	if s.n == 0 {
+		s.stamps = rhs
+		return s, nil
+	}
+	// Compress to CSC, merging duplicates into one slot.
+	sort.SliceStable(ents, func(i, j int) bool {
+		if ents[i].col != ents[j].col {
+			return ents[i].col < ents[j].col
+		}
+		return ents[i].row < ents[j].row
+	})
+	s.a = csc{n: s.n, p: make([]int, s.n+1)}
+	for i, e := range ents {
+		if i == 0 || e.row != ents[i-1].row || e.col != ents[i-1].col {
+			s.a.i = append(s.a.i, int(e.row))
+			s.a.p[e.col+1]++
+		}
+		s.stamps = append(s.stamps, stamp{slot: int32(len(s.a.i) - 1), rhs: -1, val: e.val, sign: e.sign})
+	}
+	for j := 0; j < s.n; j++ {
+		s.a.p[j+1] += s.a.p[j]
+	}
+	s.a.x = make([]complex128, len(s.a.i))
+	s.stamps = append(s.stamps, rhs...)
+	// Symmetric pattern for the ordering.
+	adj := make([][]int, s.n)
+	for j := 0; j < s.n; j++ {
+		for t := s.a.p[j]; t < s.a.p[j+1]; t++ {
+			i := s.a.i[t]
+			if i != j {
+				adj[i] = append(adj[i], j)
+				adj[j] = append(adj[j], i)
+			}
+		}
+	}
+	for i := range adj {
+		adj[i] = dedupe(adj[i])
+	}
+	s.f = newLU(s.n, rcm(adj))
+	s.b = make([]complex128, s.n)
+	s.y = make([]complex128, s.n)
+	return s, nil
+}
+
+func dedupe(a []int) []int {
+	sort.Ints(a)
+	out := a[:0]
+	for i, v := range a {
+		if i == 0 || v != a[i-1] {
+			out = append(out, v)
+		}
+	}
+	return out
+}
+
+// checkFloating finds nodes with no path to ground (or to the driven node)
+// through any element that conducts at AC; such a circuit has no unique
+// solution, and naming the nets beats a singular matrix.
+func (s *system) checkFloating(driven int) error {
+	nl := s.nl
+	parent := make([]int, len(nl.nodes))
+	for i := range parent {
+		parent[i] = i
+	}
+	var find func(int) int
+	find = func(x int) int {
+		for parent[x] != x {
+			parent[x] = parent[parent[x]]
+			x = parent[x]
+		}
+		return x
+	}
+	join := func(a, b int) {
+		ra, rb := find(a), find(b)
+		if ra != rb {
+			if ra < rb {
+				parent[rb] = ra
+			} else {
+				parent[ra] = rb
+			}
+		}
+	}
+	if driven > 0 {
+		join(0, driven)
+	}
+	for _, p := range nl.prims {
+		if p.kind != primVCCS {
+			join(p.a, p.b)
+		}
+	}
+	for _, g := range nl.groups {
+		for _, w := range g.winds {
+			join(w.a, w.b)
+		}
+	}
+	var floating []string
+	for i := 1; i < len(nl.nodes); i++ {
+		if s.unk[i] >= 0 && find(i) != find(0) {
+			floating = append(floating, nl.nodes[i])
+		}
+	}
+	if len(floating) == 0 {
+		return nil
+	}
+	more := ""
+	if len(floating) > 8 {
+		more = fmt.Sprintf(" and %d more", len(floating)-8)
+		floating = floating[:8]
+	}
+	return fmt.Errorf("floating: net(s) %s%s have no path to ground through any part (a winding or stage left unconnected?)", strings.Join(floating, ", "), more)
+}
+
+// solveAt assembles and solves the system at frequency f (Hz); the solution
+// is left in s.b, indexed by unknown.
+func (s *system) solveAt(f float64) error {
+	w := 2 * math.Pi * f
+	for i := range s.a.x {
+		s.a.x[i] = 0
+	}
+	for i := range s.b {
+		s.b[i] = 0
+	}
+	vals := make([]complex128, len(s.coefs))
+	for i, k := range s.coefs {
+		vals[i] = k.at(w)
+	}
+	for _, st := range s.stamps {
+		v := vals[st.val] * complex(st.sign, 0)
+		if st.slot >= 0 {
+			s.a.x[st.slot] += v
+		} else {
+			s.b[st.rhs] -= v // driven node at 1 V
+		}
+	}
+	if s.n == 0 {
+		return nil
+	}
+	return s.factor(f)
+}
+
+func (s *system) factor(f float64) error {
+	if err := s.f.decompose(&s.a); err != nil {
+		if e, ok := err.(*errSingular); ok {
+			return fmt.Errorf("singular at %s: the equations do not fix the %s (an undamped resonance exactly on a sweep point, or a loop of windings with nothing to set it)", hz(f), s.what[e.col])
+		}
+		return err
+	}
+	return nil
+}
+
+// solveRHS solves with the right-hand side already in s.b.
+func (s *system) solveRHS(f float64) error {
+	if s.n == 0 {
+		return nil
+	}
+	s.f.solve(s.b, s.y)
+	for i, v := range s.b {
+		if cmplx.IsNaN(v) || cmplx.IsInf(v) {
+			return fmt.Errorf("no finite solution at %s for the %s", hz(f), s.what[i])
+		}
+	}
+	return nil
+}
+
+// voltage returns the solved voltage of a node.
+func (s *system) voltage(node int) complex128 {
+	switch u := s.unk[node]; {
+	case u >= 0:
+		return s.b[u]
+	case u == unkDriven:
+		return 1
+	}
+	return 0
+}
+
+func hz(f float64) string { return fmt.Sprintf("%.6g Hz", f) }
+
+// nodeOf finds the node of a named net, with a clear error when the net is
+// not there or carries nothing the small-signal model sees.
+func nodeOf(c *graph.Circuit, nl *netlist, net string) (int, error) {
+	id, ok := nl.netNode[net]
+	if !ok {
+		if net == ncNet {
+			return 0, fmt.Errorf("net %q marks an unconnected terminal, not a node", net)
+		}
+		return 0, fmt.Errorf("no net %q in %s", net, circuitName(c))
+	}
+	return id, nil
+}
+
+func circuitName(c *graph.Circuit) string {
+	if c.File != "" {
+		return c.File
+	}
+	if c.Title != "" {
+		return fmt.Sprintf("%q", c.Title)
+	}
+	return "the circuit"
+}
+
+// Transfer returns V(out)/V(in) at each frequency, with in driven by an ideal
+// 1 V source to ground and every other port open.
+func Transfer(c *graph.Circuit, in, out string, freqs []float64, o Options) ([]complex128, error) {
+	res, err := transferMany(c, in, []string{out}, freqs, o)
+	if err != nil {
+		return nil, err
+	}
+	return res[0], nil
+}
+
+// transferMany solves once per frequency for several outputs.
+func transferMany(c *graph.Circuit, in string, outs []string, freqs []float64, o Options) ([][]complex128, error) {
+	nl, err := elaborate(c, o)
+	if err != nil {
+		return nil, err
+	}
+	inNode, err := nodeOf(c, nl, in)
+	if err != nil {
+		return nil, err
+	}
+	if inNode == 0 {
+		return nil, fmt.Errorf("input %s is at AC ground (its role, or a part joining it to ground): it cannot be driven", in)
+	}
+	outNodes := make([]int, len(outs))
+	for i, out := range outs {
+		if outNodes[i], err = nodeOf(c, nl, out); err != nil {
+			return nil, err
+		}
+	}
+	s, err := newSystem(nl, inNode)
+	if err != nil {
+		return nil, err
+	}
+	for i, n := range outNodes {
+		if n != 0 && n != inNode && s.unk[n] < 0 {
+			return nil, fmt.Errorf("output %s is not connected to any part the small-signal model sees", outs[i])
+		}
+	}
+	res := make([][]complex128, len(outs))
+	for i := range res {
+		res[i] = make([]complex128, len(freqs))
+	}
+	for k, f := range freqs {
+		if !(f > 0) || math.IsInf(f, 0) {
+			return nil, fmt.Errorf("frequency %g: must be a positive number of hertz", f)
+		}
+		if err := s.solveAt(f); err != nil {
+			return nil, err
+		}
+		if err := s.solveRHS(f); err != nil {
+			return nil, err
+		}
+		for i, n := range outNodes {
+			res[i][k] = s.voltage(n)
+		}
+	}
+	return res, nil
+}
+
+// Impedance returns the driving-point impedance between net and ground: the
+// voltage a 1 A source into net produces, with nothing else driven.
+func Impedance(c *graph.Circuit, net string, freqs []float64, o Options) ([]complex128, error) {
+	nl, err := elaborate(c, o)
+	if err != nil {
+		return nil, err
+	}
+	n, err := nodeOf(c, nl, net)
+	if err != nil {
+		return nil, err
+	}
+	out := make([]complex128, len(freqs))
+	if n == 0 {
+		return out, nil // a net at AC ground: zero impedance
+	}
+	s, err := newSystem(nl, -1)
+	if err != nil {
+		return nil, err
+	}
+	if s.unk[n] < 0 {
+		return nil, fmt.Errorf("net %s is not connected to any part the small-signal model sees: its impedance is unbounded", net)
+	}
+	for k, f := range freqs {
+		if !(f > 0) || math.IsInf(f, 0) {
+			return nil, fmt.Errorf("frequency %g: must be a positive number of hertz", f)
+		}
+		if err := s.solveAt(f); err != nil {
+			return nil, err
+		}
+		for i := range s.b {
+			s.b[i] = 0
+		}
+		s.b[s.unk[n]] = 1
+		if err := s.solveRHS(f); err != nil {
+			return nil, err
+		}
+		out[k] = s.voltage(n)
+	}
+	return out, nil
+}
