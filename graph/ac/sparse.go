@@ -61,9 +61,9 @@ type lu struct {
 	ux []complex128
 	ud []complex128
 
-	x     []complex128 // work vector
-	mark  []int
-	stack []int
+	x      []complex128 // work vector
+	mark   []int
+	stack  []int
 	reach  []int
 	frames []frame
 	gen    int

@@ -119,7 +119,10 @@ func newSystem(nl *netlist, driven int) (*system, error) {
 		return nil, err
 	}
 	// Coordinates of every entry, then compress.
-	type entry struct{ row, col, val int32; sign float64 }
+	type entry struct {
+		row, col, val int32
+		sign          float64
+	}
 	var ents []entry
 	var rhs []stamp
 	add := func(row, col, val int, sign float64) {
