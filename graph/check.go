@@ -2,6 +2,7 @@ package graph
 
 import (
 	"fmt"
+	"regexp"
 	"sort"
 	"strings"
 
@@ -40,6 +41,12 @@ func unitOf(k Kind) value.Unit {
 func Check(c *Circuit) ErrorList {
 	var w ErrorList
 	conns := c.Conns()
+	transistors := false
+	for _, p := range c.Parts {
+		if p.Kind == BJT || p.Kind == FET {
+			transistors = true
+		}
+	}
 	for _, n := range c.Nets {
 		if n.Name == "nc" {
 			continue
@@ -48,7 +55,8 @@ func Check(c *Circuit) ErrorList {
 		switch {
 		case len(cs) == 0 && !isSignalEnd(c, n.Name):
 			w.Add(n.Pos, "net %s is declared but nothing connects to it", n.Name)
-		case len(cs) == 1 && !n.Role.IsACGround() && n.Role != PortN && !isSignalEnd(c, n.Name) && cs[0].Part.Kind != Port:
+		case len(cs) == 1 && !n.Role.IsACGround() && n.Role != PortN && !isSignalEnd(c, n.Name) && cs[0].Part.Kind != Port &&
+			!isCommonPin(cs[0]): // a lone cathode/emitter/source gets its own, plainer warning below
 			w.Add(cs[0].Part.Pin(cs[0].Pin).Pos, "net %s has only one connection (%s.%s): a wire missing, or a typo in the net name?", n.Name, cs[0].Part.Ref, cs[0].Pin)
 		}
 	}
@@ -64,17 +72,22 @@ func Check(c *Circuit) ErrorList {
 				w.Add(p.Pin(common).Pos, "%s's %s (%s) goes nowhere: net %s has no other connection", p.Ref, electrodeName(p, common), common, net)
 			}
 		}
+		implausible := false
 		if lim, ok := plausible[p.Kind]; ok {
 			u := unitOf(p.Kind)
 			for _, v := range []float64{p.Value.Min, p.Value.Max} {
 				if v != 0 && (v < lim[0] || v > lim[1]) {
 					w.Add(p.Pos, "%s = %s is far outside the usual range for a %s (%s to %s): check the multiplier", p.Ref,
 						value.Format(v, u, value.Symbol), p.Kind, value.Format(lim[0], u, value.Symbol), value.Format(lim[1], u, value.Symbol))
+					implausible = true
 					break
 				}
 			}
 		}
-		if p.Kind == Capacitor && p.Type == CapFixed && p.Value.Max > 2e-6 && strings.Contains(strings.ToLower(p.Note), "coupling") {
+		// Valve interstage coupling capacitors are nanofarads to a fraction of
+		// a microfarad (common practice); transistor stages use 10 µF and more,
+		// so the check holds for valve-only circuits. One warning per part.
+		if !implausible && !transistors && p.Kind == Capacitor && p.Type == CapFixed && p.Value.Max > 2e-6 && strings.Contains(strings.ToLower(p.Note), "coupling") {
 			w.Add(p.Pos, "%s: a %s coupling capacitor is unusually large", p.Ref, value.Format(p.Value.Max, value.Farad, value.Symbol))
 		}
 		if p.Kind != Port && p.Kind != Generic && len(p.Pins) > 0 {
@@ -96,6 +109,14 @@ func Check(c *Circuit) ErrorList {
 	w.Sort()
 	return w
 }
+
+// isCommonPin reports whether a terminal is the common electrode of an active part.
+func isCommonPin(cn Conn) bool {
+	return cn.Part.IsActive() && RoleOfPin(cn.Part.Kind, cn.Pin) == RoleCommon
+}
+
+// refLetters splits a reference designator into its letters: "VC1a" → "VC".
+var refLetters = regexp.MustCompile(`^([A-Za-z]+?)[0-9]+[A-Za-z]?$`)
 
 func isSignalEnd(c *Circuit, net string) bool {
 	for _, n := range c.Inputs {
@@ -152,7 +173,10 @@ func checkRefs(c *Circuit) ErrorList {
 		k := strings.ToLower(p.Ref)
 		lower[k] = append(lower[k], p)
 		if pre, ok := refPrefixes[p.Kind]; ok {
-			letters := strings.TrimRightFunc(p.Ref, func(r rune) bool { return r >= '0' && r <= '9' || r >= 'a' && r <= 'z' })
+			letters := p.Ref
+			if m := refLetters.FindStringSubmatch(p.Ref); m != nil {
+				letters = m[1]
+			}
 			if !contains(pre, strings.ToUpper(letters)) {
 				w.Add(p.Pos, "%s is a %s but its letter suggests otherwise (usual: %s)", p.Ref, p.Kind, strings.Join(pre, ", "))
 			}
