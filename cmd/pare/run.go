@@ -244,13 +244,14 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 	res.stages = found
 
 	var netlist strings.Builder
-	if err := graph.Write(&netlist, reduced); err != nil {
+	if err := graph.Write(&netlist, regionsFollowParts(reduced)); err != nil {
 		return nil, fmt.Errorf("writing the reduced netlist: %w", err)
 	}
 	// A reduced netlist that does not load back is a bug in pare, not in the
-	// input; catch it here rather than hand the user a broken file.
+	// input; catch it here rather than hand the user a broken file. %v, not
+	// %w: the positions point into the generated file, not the user's.
 	if _, err := graph.Parse(fileReducedNetlist, []byte(netlist.String())); err != nil {
-		return nil, fmt.Errorf("internal error: the reduced netlist does not load back: %w", err)
+		return nil, fmt.Errorf("internal error, please report: the reduced netlist does not load back: %v", err)
 	}
 
 	prov := provenanceOf(c, reduced)
@@ -311,6 +312,65 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 	}
 	res.summary = summaryLines(path, n, log, found, res.verify)
 	return res, nil
+}
+
+// regionsFollowParts returns the reduced circuit with its regions naming
+// only parts and nets that are still there: a removed part's ref is dropped,
+// a merged one's is replaced by the part it went into. RegionOf gives every
+// remaining part the same region as before (it also looks through From), but
+// the loader rightly rejects a region that names a missing part, so the file
+// would not load back otherwise. The circuit is cloned only when needed.
+func regionsFollowParts(c *graph.Circuit) *graph.Circuit {
+	into := map[string]string{}
+	for _, p := range c.Parts {
+		for _, o := range p.Origins() {
+			into[o] = p.Ref
+		}
+	}
+	nets := map[string]bool{}
+	for _, n := range c.Nets {
+		nets[n.Name] = true
+	}
+	stale := false
+	for _, r := range c.Regions {
+		for _, ref := range r.Parts {
+			if c.Part(ref) == nil {
+				stale = true
+			}
+		}
+		for _, n := range r.Nets {
+			if !nets[n] {
+				stale = true
+			}
+		}
+	}
+	if !stale {
+		return c
+	}
+	c = c.Clone()
+	for _, r := range c.Regions {
+		seen := map[string]bool{}
+		var parts []string
+		for _, ref := range r.Parts {
+			if c.Part(ref) == nil {
+				ref = into[ref] // "" when removed outright
+			}
+			if ref != "" && !seen[ref] {
+				seen[ref] = true
+				parts = append(parts, ref)
+			}
+		}
+		sort.Strings(parts)
+		r.Parts = parts
+		var keep []string
+		for _, n := range r.Nets {
+			if nets[n] {
+				keep = append(keep, n)
+			}
+		}
+		r.Nets = keep
+	}
+	return c
 }
 
 // verifyOf turns the comparison into what the note and the summary say.
