@@ -34,9 +34,11 @@ type note struct {
 	ACGround      []string
 	Gangs         []noteGang
 
-	Stages []noteStage
-	Steps  []noteStep
-	Verify noteVerify
+	Stages      []noteStage
+	StagesLimit string // set when the stage search stopped early, with why
+	Steps       []noteStep
+	NearMisses  []noteStep // candidates a numeric guard turned down
+	Verify      noteVerify
 }
 
 type partCount struct{ Parts, Nets int }
@@ -71,10 +73,17 @@ type noteStep struct {
 	Result   string
 	Joined   []string
 	Grounded []string
+	Pins     []string // terminals dropped, as REF.PIN
+	Added    []string
+	Dropped  []string // nets left connecting nothing
 	Why      string
 	Refused  string
-	Where    []string // "file:line", in file order
+	Where    []notePlace // the parts concerned and where they were written
 }
+
+// notePlace is a part and its netlist position ("file:line", or "" when
+// pare made the part).
+type notePlace struct{ Ref, At string }
 
 // noteVerify is the outcome of the AC comparison of the original against the
 // reduced circuit. Exactly one of Skipped, Err or Pairs describes it.
@@ -183,6 +192,9 @@ func writeSheets(b *bytes.Buffer, n *note) {
 
 func writeStages(b *bytes.Buffer, n *note) {
 	b.WriteString("## Stages\n\n")
+	if n.StagesLimit != "" {
+		fmt.Fprintf(b, "The stage search stopped early (%s); the list below may be incomplete.\n\n", mdText(n.StagesLimit))
+	}
 	if len(n.Stages) == 0 {
 		b.WriteString("No stage was recognised in the reduced circuit.\n\n")
 		return
@@ -253,6 +265,14 @@ func writeSteps(b *bytes.Buffer, n *note) {
 		b.WriteString("\n")
 	}
 	b.WriteString("\n")
+	if len(n.NearMisses) > 0 {
+		b.WriteString("Near misses: candidates a numeric guard turned down, so the parts stay in the reduced circuit.\n\n")
+		for _, s := range n.NearMisses {
+			b.WriteString(stepLine(s))
+			b.WriteString("\n")
+		}
+		b.WriteString("\n")
+	}
 }
 
 // stepLine is one log line: "N. **rule**: what; why (file:line)".
@@ -276,8 +296,22 @@ func stepLine(s noteStep) string {
 	if len(s.Grounded) > 0 {
 		what = append(what, "grounded "+codeList(s.Grounded))
 	}
+	if len(s.Pins) > 0 {
+		what = append(what, "dropped terminals "+codeList(s.Pins))
+	}
+	if len(s.Added) > 0 {
+		what = append(what, "added "+codeList(s.Added))
+	}
+	if len(s.Dropped) > 0 {
+		what = append(what, "dropped nets "+codeList(s.Dropped))
+	}
 	var l strings.Builder
-	fmt.Fprintf(&l, "%d. **%s**", s.N, mdText(s.Rule))
+	if s.N > 0 {
+		fmt.Fprintf(&l, "%d. ", s.N)
+	} else {
+		l.WriteString("- ")
+	}
+	fmt.Fprintf(&l, "**%s**", mdText(s.Rule))
 	if s.Refused != "" {
 		l.WriteString(" REFUSED")
 	}
@@ -291,7 +325,14 @@ func stepLine(s noteStep) string {
 		fmt.Fprintf(&l, " Not applied: %s.", mdText(strings.TrimSuffix(s.Refused, ".")))
 	}
 	if len(s.Where) > 0 {
-		fmt.Fprintf(&l, " (%s)", codeList(s.Where))
+		places := make([]string, len(s.Where))
+		for i, w := range s.Where {
+			places[i] = "`" + mdCode(w.Ref) + "`"
+			if w.At != "" {
+				places[i] += " at `" + mdCode(w.At) + "`"
+			}
+		}
+		fmt.Fprintf(&l, " (%s)", strings.Join(places, ", "))
 	}
 	return l.String()
 }

@@ -25,11 +25,13 @@ func sampleNote() *note {
 		}},
 		Steps: []noteStep{
 			{N: 1, Rule: "bypass", Removed: []string{"C6"}, Grounded: []string{"ht_if"},
-				Why: "|Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2)", Where: []string{"frequency-changer.toml:39"}},
+				Why: "|Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2)", Where: []notePlace{{"C6", "frequency-changer.toml:39"}}},
 			{N: 2, Rule: "merge_parallel", Merged: []string{"C3", "TC2"}, Result: "C3",
 				Why: "parallel capacitors add", Refused: "transfer aerial→if_out off by 0.8 dB at 1.6 MHz",
-				Where: []string{"frequency-changer.toml:37", "frequency-changer.toml:55"}},
+				Where: []notePlace{{"C3", "frequency-changer.toml:37"}, {"TC2", "frequency-changer.toml:55"}, {"C20", ""}}},
 		},
+		NearMisses: []noteStep{{Rule: "bypass", Why: "C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ > 0.1·|Z|",
+			Where: []notePlace{{"C10", "if-detector-audio.toml:40"}}}},
 		Verify: noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
 			{From: "aerial", To: "if_out", What: "transfer", MaxDB: 0.12, MaxDeg: 1.3, AtHz: 1.6e6},
 		}},
@@ -68,8 +70,10 @@ func TestNoteSections(t *testing.T) {
 		"Removed (drawn faded on the faded sheet): `C6`, `C9`, `P4`.",
 		"- `C3` stands for `C3`, `TC2`",
 		"2 step(s), 1 refused by the AC check.",
-		"1. **bypass**: removed `C6`; grounded `ht_if`. |Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2) (`frequency-changer.toml:39`)",
-		"2. **merge\\_parallel** REFUSED: merged `C3`, `TC2` into `C3`. parallel capacitors add Not applied: transfer aerial→if\\_out off by 0.8 dB at 1.6 MHz. (`frequency-changer.toml:37`, `frequency-changer.toml:55`)",
+		"1. **bypass**: removed `C6`; grounded `ht_if`. |Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2) (`C6` at `frequency-changer.toml:39`)",
+		"2. **merge\\_parallel** REFUSED: merged `C3`, `TC2` into `C3`. parallel capacitors add Not applied: transfer aerial→if\\_out off by 0.8 dB at 1.6 MHz. (`C3` at `frequency-changer.toml:37`, `TC2` at `frequency-changer.toml:55`, `C20`)",
+		"Near misses: candidates a numeric guard turned down",
+		"- **bypass**: C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ &gt; 0.1·|Z| (`C10` at `if-detector-audio.toml:40`)",
 		"**Verification passed**",
 		"| `aerial` | `if_out` | transfer | 0.12 | 1.3 | 1.6 MHz | ok |",
 	} {

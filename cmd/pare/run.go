@@ -237,8 +237,14 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 		res.verify = verifyOf(rep, err, cfg.compare)
 	}
 
-	found, err := stages.Find(reduced, stages.Options{Full: c})
-	if err != nil {
+	found, err := stages.Find(reduced, stages.Options{Full: c, ACGround: log.ACGround})
+	stagesLimit := ""
+	if errors.Is(err, stages.ErrSearchLimit) {
+		// The stages found so far are sound; the note says the list may be
+		// short rather than dropping what was found.
+		stagesLimit = err.Error()
+		res.summary = append(res.summary, "stages: search stopped early: "+stagesLimit)
+	} else if err != nil {
 		return nil, fmt.Errorf("recognising stages: %w", err)
 	}
 	res.stages = found
@@ -263,12 +269,12 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 	rcfg := render.Config{Style: cfg.style}
 	reducedSheet := &render.Sheet{
 		Circuit: reduced, Title: title, View: render.Reduced,
-		Frames: framesOf(found, nil), Caution: sheetCaution, Furniture: furniture,
+		Frames: framesOf(found, reduced, nil), Caution: sheetCaution, Furniture: furniture,
 	}
 	fadedSheet := &render.Sheet{
 		Circuit: c, Title: title, View: render.Faded,
 		Faded: prov.faded, Merged: prov.mergedInto,
-		Frames: framesOf(found, reduced), Caution: sheetCaution, Furniture: furniture,
+		Frames: framesOf(found, reduced, c), Caution: sheetCaution, Furniture: furniture,
 	}
 	var redSVG, fadedSVG strings.Builder
 	if err := rcfg.Fprint(&redSVG, reducedSheet); err != nil {
@@ -295,9 +301,11 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 		Merged:   prov.merges,
 		ACGround: sortedCopy(log.ACGround),
 		Gangs:    gangsOf(log.Gangs),
-		Stages:   noteStages(found),
-		Steps:    noteSteps(log.Steps),
-		Verify:   res.verify,
+		Stages:      noteStages(found),
+		StagesLimit: stagesLimit,
+		Steps:       noteSteps(log.Steps),
+		NearMisses:  noteSteps(log.Declined),
+		Verify:      res.verify,
 	}
 	var md strings.Builder
 	if err := writeNote(&md, n); err != nil {
@@ -310,7 +318,7 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 		{fileFadedSheet, []byte(fadedSVG.String())},
 		{fileNote, []byte(md.String())},
 	}
-	res.summary = summaryLines(path, n, log, found, res.verify)
+	res.summary = append(summaryLines(path, n, log, found, res.verify), res.summary...)
 	return res, nil
 }
 
@@ -443,28 +451,47 @@ func provenanceOf(orig, reduced *graph.Circuit) provenance {
 	return p
 }
 
-// framesOf makes one frame per stage. With reduced set, the frames are for a
-// sheet of the original circuit, so each reduced part is replaced by the
-// originals it stands for.
-func framesOf(found []stages.Stage, reduced *graph.Circuit) []render.Frame {
+// framesOf makes one frame per top-level stage, for the sheet of the reduced
+// circuit (full nil) or of the original circuit full.
+func framesOf(found []stages.Stage, reduced, full *graph.Circuit) []render.Frame {
+	sub := map[string]bool{}
+	for _, s := range found {
+		for _, c := range s.Contains {
+			sub[c] = true
+		}
+	}
 	frames := make([]render.Frame, 0, len(found))
 	for _, s := range found {
-		parts := s.Parts
-		if reduced != nil {
-			set := map[string]bool{}
-			for _, ref := range s.Parts {
-				if rp := reduced.Part(ref); rp != nil {
-					for _, o := range rp.Origins() {
+		// A sub-stage is listed in the note; framing it too would draw
+		// frames inside frames.
+		if sub[s.Name] {
+			continue
+		}
+		// Signal stages name reduced parts, power-supply stages original
+		// ones. A sheet of the reduced circuit frames what it shows; a sheet
+		// of the original frames the originals each reduced part stands for.
+		set := map[string]bool{}
+		for _, ref := range s.Parts {
+			rp := reduced.Part(ref)
+			switch {
+			case full == nil && rp != nil:
+				set[ref] = true
+			case full != nil && rp != nil:
+				for _, o := range rp.Origins() {
+					if full.Part(o) != nil {
 						set[o] = true
 					}
-				} else {
-					set[ref] = true
 				}
+			case full != nil && full.Part(ref) != nil:
+				set[ref] = true
 			}
-			parts = make([]string, 0, len(set))
-			for ref := range set {
-				parts = append(parts, ref)
-			}
+		}
+		if len(set) == 0 {
+			continue
+		}
+		parts := make([]string, 0, len(set))
+		for ref := range set {
+			parts = append(parts, ref)
 		}
 		frames = append(frames, render.Frame{
 			Title:    s.Name + " · " + s.Title,
@@ -543,18 +570,20 @@ func noteStages(found []stages.Stage) []noteStage {
 func noteSteps(steps []rules.Step) []noteStep {
 	out := make([]noteStep, len(steps))
 	for i, s := range steps {
-		where := append([]graph.Pos(nil), s.Where...)
-		sort.SliceStable(where, func(a, b int) bool { return where[a].Before(where[b]) })
-		var ws []string
-		for _, p := range where {
-			t := shortPos(p)
-			if len(ws) == 0 || ws[len(ws)-1] != t {
-				ws = append(ws, t)
+		// Refs and Where run in parallel: the parts concerned, each with
+		// the place it was written (a part pare made has no place).
+		var where []notePlace
+		for j, ref := range s.Refs {
+			at := ""
+			if j < len(s.Where) && s.Where[j].IsValid() {
+				at = shortPos(s.Where[j])
 			}
+			where = append(where, notePlace{Ref: ref, At: at})
 		}
 		out[i] = noteStep{
 			N: s.N, Rule: s.Rule, Removed: s.Removed, Merged: s.Merged, Result: s.Result,
-			Joined: s.Joined, Grounded: s.Grounded, Why: s.Why, Refused: s.Refused, Where: ws,
+			Joined: s.Joined, Grounded: s.Grounded, Pins: s.Pins, Added: s.Added, Dropped: s.Dropped,
+			Why: s.Why, Refused: s.Refused, Where: where,
 		}
 	}
 	return out

@@ -114,7 +114,7 @@ func TestMainJobOnExamples(t *testing.T) {
 			}
 			// One log line per step, each with the netlist position of a
 			// part it touched (file:line).
-			logLine := regexp.MustCompile("(?m)^[0-9]+\\. \\*\\*.*\\(`" + regexp.QuoteMeta(filepath.Base(ex)) + ":[0-9]+`")
+			logLine := regexp.MustCompile("(?m)^[0-9]+\\. \\*\\*.* at `" + regexp.QuoteMeta(filepath.Base(ex)) + ":[0-9]+`")
 			if n := len(logLine.FindAllString(md, -1)); n == 0 {
 				t.Errorf("no log line with a %s:line position", filepath.Base(ex))
 			}
