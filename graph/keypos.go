@@ -115,6 +115,12 @@ func (s *keyScanner) document() {
 		s.skipSpace()
 		switch r := s.peek(); {
 		case r == '\n':
+			if len(s.pending) > 0 && len(s.ix.keys) == 0 && s.blankLine() {
+				// Comments at the top of the file, parted from the first key by
+				// a blank line, describe the file: they stay at the top.
+				s.ix.comments[HeaderComment] = Comment{Above: s.pending}
+				s.pending = nil
+			}
 			s.next()
 			continue
 		case r == '#':
@@ -165,6 +171,21 @@ func (s *keyScanner) document() {
 }
 
 func (s *keyScanner) lastPath() string { return s.last }
+
+// blankLine reports whether the line the scanner stands at the end of holds
+// nothing but white space.
+func (s *keyScanner) blankLine() bool {
+	j := s.i - 1
+	for j >= 0 && (s.src[j] == ' ' || s.src[j] == '\t' || s.src[j] == '\r') {
+		j--
+	}
+	return j < 0 || s.src[j] == '\n'
+}
+
+// HeaderComment is the Comments key of the file's header: the comment lines
+// at the very top that a blank line parts from the first key. No key of a
+// valid netlist has an empty path, so the key cannot clash.
+const HeaderComment = ""
 
 func (s *keyScanner) record(path string, key, val Pos) {
 	if _, dup := s.ix.keys[path]; !dup {

@@ -3,6 +3,7 @@ package graph
 import (
 	"errors"
 	"fmt"
+	"math"
 	"os"
 	"regexp"
 	"sort"
@@ -229,9 +230,14 @@ func typeName(v any) string {
 func (ld *loader) num(path string, v any, u value.Unit) float64 {
 	switch t := v.(type) {
 	case int64:
-		return float64(t)
+		v = strconv.FormatInt(t, 10)
 	case float64:
-		return t
+		// A TOML number passes the same checks as text does (finite, within
+		// the magnitudes pare reads), so that nan, inf or 1e308 are refused
+		// here rather than written out as text that would not load back.
+		v = strconv.FormatFloat(t, 'g', -1, 64)
+	}
+	switch t := v.(type) {
 	case string:
 		x, err := value.Parse(normaliseUnit(t, u), u)
 		if err != nil {
@@ -718,12 +724,17 @@ func (ld *loader) addK(path string, p *Part, a, b string, v any) {
 	p.Coupling = append(p.Coupling, Coupling{A: a, B: b, K: k})
 }
 
+// maxSwitchPositions bounds a switch's positions; real wafer switches have a
+// dozen at most, and the bound keeps a typo from allocating without limit.
+const maxSwitchPositions = 64
+
 func (ld *loader) switchPart(path string, p *Part, m map[string]any) {
-	n := int(ld.num(path+".switch", m["switch"], value.None))
-	if n < 1 {
-		ld.errVal(path+".switch", "switch gives the number of positions, at least 1")
+	x := ld.num(path+".switch", m["switch"], value.None)
+	if x < 1 || x > maxSwitchPositions || x != math.Trunc(x) {
+		ld.errVal(path+".switch", "switch gives the number of positions, a whole number from 1 to %d", maxSwitchPositions)
 		return
 	}
+	n := int(x)
 	p.Set = 1
 	if s, ok := m["set"]; ok {
 		p.Set = ld.num(path+".set", s, value.None)

@@ -43,6 +43,12 @@ func (cw *cwriter) line(path, text string) {
 
 func (cw *cwriter) top() {
 	c := cw.c
+	if h, ok := c.Comments[HeaderComment]; ok && len(h.Above) > 0 {
+		for _, a := range h.Above {
+			fmt.Fprintf(cw.w, "#%s\n", a)
+		}
+		fmt.Fprintln(cw.w)
+	}
 	if c.Title != "" {
 		cw.line("title", "title = "+quote(c.Title))
 	}
