@@ -1,0 +1,285 @@
+package rules
+
+import (
+	"sort"
+	"strconv"
+	"strings"
+
+	"pare/graph"
+)
+
+// A focus keeps the stage(s) around the named parts: everything reachable
+// from them without crossing an AC-ground net or the output of another
+// active device. A device's own output net is taken one level deep (its
+// load), and nets that a bypass capacitor holds at AC ground are taken one
+// level deep too (the cathode resistor and its bypass, the screen feed), so
+// the reduction can still explain them. Each net that crosses the cut gets a
+// port part labelled with what lies beyond ("from V1 anode", "to V3 grid", or
+// the net's label), so the sheet still says what enters and leaves.
+func focusCut(x *Ctx, names []string, log *Log) error {
+	c := x.c
+	seeds, err := focusSeeds(x, names)
+	if err != nil {
+		return err
+	}
+	ground := map[string]bool{} // nets at AC ground for the cut: by role, or held there by a bypass
+	detected := map[string]bool{}
+	for _, n := range c.Nets {
+		if n.Role.IsACGround() {
+			ground[n.Name] = true
+		}
+	}
+	if x.level >= LevelSignal {
+		scratch := newCtx(c, x.ratio, x.level)
+		for _, p := range c.Parts {
+			for _, flip := range []bool{false, true} {
+				if m := bypass.Match(scratch, Anchor{Part: p, Flip: flip}); m != nil {
+					if ok, _ := bypassGuard(scratch, m); ok {
+						detected[m.Nets[0]] = true
+					}
+				}
+			}
+		}
+	}
+	isGround := func(n string) bool { return ground[n] || detected[n] || n == "nc" }
+	outputs := map[string][]*graph.Part{} // net -> active devices whose output is on it
+	for _, p := range c.Parts {
+		if p.IsActive() {
+			for _, pin := range p.Pins {
+				if graph.RoleOfPin(p.Kind, pin.Name) == graph.RoleOutput {
+					outputs[pin.Net] = append(outputs[pin.Net], p)
+				}
+			}
+		}
+	}
+	in := map[*graph.Part]bool{}
+	var queue []*graph.Part
+	for _, p := range seeds {
+		if !in[p] {
+			in[p] = true
+			queue = append(queue, p)
+		}
+	}
+	for len(queue) > 0 {
+		p := queue[0]
+		queue = queue[1:]
+		for _, pin := range p.Pins {
+			n := pin.Net
+			switch {
+			case n == "nc" || ground[n]:
+				continue
+			case detected[n]:
+				for _, cn := range x.conns[n] {
+					if q := cn.Part; !in[q] && allAt(q, isGround) {
+						in[q] = true // a leaf: its other terminals are at AC ground
+					}
+				}
+				continue
+			}
+			own := graph.RoleOfPin(p.Kind, pin.Name) == graph.RoleOutput && p.IsActive()
+			if !own && len(outputs[n]) > 0 && !containsPart(outputs[n], p) {
+				continue // another device's output: the previous stage ends here
+			}
+			for _, cn := range x.conns[n] {
+				q := cn.Part
+				if in[q] {
+					continue
+				}
+				in[q] = true
+				if !own {
+					queue = append(queue, q)
+				}
+			}
+		}
+	}
+	// Nets that cross the cut, in name order, each become a port.
+	var crossing []string
+	for _, n := range c.Nets {
+		if isGround(n.Name) {
+			continue
+		}
+		inside, outside := false, false
+		for _, cn := range x.conns[n.Name] {
+			if in[cn.Part] {
+				inside = true
+			} else {
+				outside = true
+			}
+		}
+		if inside && outside {
+			crossing = append(crossing, n.Name)
+		}
+	}
+	labels := map[string]string{}
+	for _, n := range crossing {
+		labels[n] = portLabel(x, n, in)
+	}
+	var cut []*graph.Part
+	var kept []string
+	for _, p := range c.Parts {
+		if in[p] {
+			kept = append(kept, p.Ref)
+		} else {
+			cut = append(cut, p)
+		}
+	}
+	st := Step{Rule: "focus"}
+	for _, p := range seeds {
+		st.Refs, st.Where = append(st.Refs, p.Ref), append(st.Where, p.Pos)
+	}
+	st.Removed = origins(cut...)
+	x.dropped = nil
+	for _, p := range cut {
+		x.Remove(p)
+	}
+	var ports []string
+	next := 1
+	for _, n := range crossing {
+		ref := ""
+		for ; ref == "" || x.parts[ref] != nil; next++ {
+			ref = "P" + strconv.Itoa(next)
+		}
+		port := &graph.Part{Ref: ref, Kind: graph.Port, Label: labels[n], Pins: []graph.Pin{{Name: "1", Net: n}}}
+		if net := c.Net(n); net != nil && net.Role == graph.Signal && !x.IsEnd(n) {
+			net.Role = graph.PortN
+		}
+		x.Add(port)
+		st.Added = append(st.Added, ref)
+		ports = append(ports, ref+" \""+labels[n]+"\" on "+n)
+	}
+	st.Dropped = append(st.Dropped, x.dropped...)
+	sort.Strings(st.Dropped)
+	x.dropped = nil
+	var seedRefs []string
+	for _, p := range seeds {
+		seedRefs = append(seedRefs, p.Ref)
+	}
+	st.Why = "focus on " + strings.Join(seedRefs, ", ") + ": keeps the " + strconv.Itoa(len(kept)) +
+		" parts of the stage around it (reached without crossing AC ground or another device's output), cuts away " +
+		strconv.Itoa(len(cut))
+	if len(ports) > 0 {
+		st.Why += "; nets crossing the cut become ports: " + strings.Join(ports, ", ")
+	}
+	st.N = len(log.Steps) + 1
+	log.Steps = append(log.Steps, st)
+	return nil
+}
+
+func allAt(p *graph.Part, isGround func(string) bool) bool {
+	inner := 0
+	for _, pin := range p.Pins {
+		if !isGround(pin.Net) {
+			inner++
+		}
+	}
+	return inner <= 1 // one terminal on the bypassed net itself, the rest at AC ground
+}
+
+func containsPart(list []*graph.Part, p *graph.Part) bool {
+	for _, q := range list {
+		if q == p {
+			return true
+		}
+	}
+	return false
+}
+
+// focusSeeds resolves --focus names: a ref, an original ref inside a merged
+// part, or a net name (every part on it).
+func focusSeeds(x *Ctx, names []string) ([]*graph.Part, error) {
+	c := x.c
+	var errs graph.ErrorList
+	seen := map[*graph.Part]bool{}
+	var out []*graph.Part
+	add := func(p *graph.Part) {
+		if !seen[p] {
+			seen[p] = true
+			out = append(out, p)
+		}
+	}
+	var candidates []string
+	for _, p := range c.Parts {
+		candidates = append(candidates, p.Ref)
+	}
+	for _, n := range c.Nets {
+		candidates = append(candidates, n.Name)
+	}
+	for _, raw := range names {
+		name := strings.TrimSpace(raw)
+		if name == "" {
+			continue
+		}
+		if p := x.parts[name]; p != nil {
+			add(p)
+			continue
+		}
+		found := false
+		for _, p := range c.Parts {
+			if contains(p.From, name) {
+				add(p)
+				found = true
+			}
+		}
+		if found {
+			continue
+		}
+		if n := c.Net(name); n != nil {
+			if n.Role.IsACGround() {
+				errs.Add(graph.Pos{File: c.File}, "focus %q: net %s is AC ground (%s) and joins every stage: name a part or a signal net", name, name, n.Role)
+				continue
+			}
+			if len(x.conns[name]) == 0 {
+				errs.Add(graph.Pos{File: c.File}, "focus %q: nothing is connected to net %s", name, name)
+				continue
+			}
+			for _, cn := range x.conns[name] {
+				add(cn.Part)
+			}
+			continue
+		}
+		hint := ""
+		if s := graph.Suggest(name, candidates); s != "" {
+			hint = " (did you mean " + strconv.Quote(s) + "?)"
+		}
+		errs.Add(graph.Pos{File: c.File}, "focus %q: no part or net of that name%s", name, hint)
+	}
+	if len(out) == 0 && len(errs) == 0 {
+		errs.Add(graph.Pos{File: c.File}, "focus: no part or net named")
+	}
+	if err := errs.Err(); err != nil {
+		return nil, err
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Ref < out[j].Ref })
+	return out, nil
+}
+
+// portLabel says what lies beyond a cut net: its label, else the device
+// electrode or part it leads to.
+func portLabel(x *Ctx, net string, in map[*graph.Part]bool) string {
+	if n := x.c.Net(net); n != nil && n.Label != "" {
+		return n.Label
+	}
+	var firstPassive string
+	for _, cn := range x.conns[net] {
+		q := cn.Part
+		if in[q] {
+			continue
+		}
+		if q.IsActive() {
+			if graph.RoleOfPin(q.Kind, cn.Pin) == graph.RoleOutput {
+				return "from " + q.Ref + " " + electrode(q, cn.Pin)
+			}
+			return "to " + q.Ref + " " + electrode(q, cn.Pin)
+		}
+		if q.Kind == graph.Port && q.Label != "" {
+			return q.Label
+		}
+		if firstPassive == "" {
+			firstPassive = "to " + q.Ref
+		}
+	}
+	if firstPassive == "" {
+		firstPassive = "to the rest of the set"
+	}
+	return firstPassive
+}
