@@ -1,0 +1,618 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"pare/graph"
+	"pare/graph/value"
+)
+
+// A calc computes figures for a match. Arguments name pattern parts, except
+// netArgs (pattern nets) and wordArgs (plain words).
+type calc struct {
+	args, required, netArgs, wordArgs []string
+	fn                                func(x *figCtx)
+}
+
+// calcs is the table of figure calculations a pattern may ask for. Each
+// names the formula it uses beside the code.
+var calcs map[string]calc
+
+func init() {
+	calcs = map[string]calc{
+		"tank":         {args: []string{"coil", "caps", "winding", "check"}, required: []string{"coil", "caps"}, wordArgs: []string{"winding", "check"}, fn: calcTank},
+		"hartley":      {args: []string{"coil", "caps"}, required: []string{"coil", "caps"}, fn: calcHartley},
+		"colpitts":     {args: []string{"coil", "c1", "c2"}, required: []string{"coil", "c1", "c2"}, fn: calcColpitts},
+		"clapp":        {args: []string{"coil", "c1", "c2", "c3"}, required: []string{"coil", "c1", "c2", "c3"}, fn: calcClapp},
+		"crystal":      {args: []string{"xtal"}, required: []string{"xtal"}, fn: calcCrystal},
+		"rc":           {args: []string{"r", "c", "use"}, required: []string{"r", "c"}, wordArgs: []string{"use"}, fn: calcRC},
+		"rc-phase":     {args: []string{"r", "c"}, required: []string{"r", "c"}, fn: calcPhaseShift},
+		"wien":         {args: []string{"r1", "c1", "r2", "c2"}, required: []string{"r1", "c1", "r2", "c2"}, fn: calcWien},
+		"gain":         {args: []string{"device", "load", "load_net", "degeneration", "form"}, required: []string{"device", "form"}, netArgs: []string{"load_net"}, wordArgs: []string{"form"}, fn: calcGain},
+		"double-tuned": {args: []string{"xfmr", "caps1", "caps2"}, required: []string{"xfmr", "caps1", "caps2"}, fn: calcDoubleTuned},
+		"mixer":        {args: []string{"coil", "caps", "ift", "ift_caps", "winding"}, required: []string{"coil", "caps", "ift", "ift_caps"}, wordArgs: []string{"winding"}, fn: calcMixer},
+		"pi":           {args: []string{"c1", "coil", "c2"}, required: []string{"c1", "coil", "c2"}, fn: calcPi},
+		"smoothing":    {args: []string{"c1", "series", "c2"}, required: []string{"c1", "series", "c2"}, fn: calcSmoothing},
+		"value":        {args: []string{"part", "key"}, required: []string{"part", "key"}, wordArgs: []string{"key"}, fn: calcValue},
+		"ratio":        {args: []string{"xfmr"}, required: []string{"xfmr"}, fn: calcRatio},
+	}
+}
+
+// figCtx is what a calc sees: the match, and the stage it writes into.
+type figCtx struct {
+	w    *world
+	m    *match
+	st   *Stage
+	spec FigureSpec
+}
+
+func (x *figCtx) key(k string) string {
+	if x.spec.Prefix != "" {
+		return x.spec.Prefix + "_" + k
+	}
+	return k
+}
+
+func (x *figCtx) set(k string, v float64) {
+	if !math.IsNaN(v) && !math.IsInf(v, 0) {
+		x.st.Figures[x.key(k)] = v
+	}
+}
+
+func (x *figCtx) flag(format string, args ...any) {
+	f := fmt.Sprintf(format, args...)
+	for _, g := range x.st.Flags {
+		if g == f {
+			return
+		}
+	}
+	x.st.Flags = append(x.st.Flags, f)
+}
+
+// index returns the position of a pattern part in the match, -1 when the
+// variant left it out.
+func (x *figCtx) index(name string) int {
+	for i, vp := range x.m.v.parts {
+		if vp.pp.Name == name {
+			return i
+		}
+	}
+	return -1
+}
+
+// parts returns the circuit parts an argument names, skipping absent ones.
+func (x *figCtx) parts(arg string) []*graph.Part {
+	var out []*graph.Part
+	for _, n := range x.spec.Args[arg] {
+		if i := x.index(n); i >= 0 {
+			out = append(out, x.w.parts[x.m.parts[i]])
+		}
+	}
+	return out
+}
+
+func (x *figCtx) part(arg string) *graph.Part {
+	if ps := x.parts(arg); len(ps) > 0 {
+		return ps[0]
+	}
+	return nil
+}
+
+func (x *figCtx) word(arg, def string) string {
+	if v := x.spec.Args[arg]; len(v) > 0 {
+		return v[0]
+	}
+	return def
+}
+
+// ends gives the folded net ids at the two ends of the coil an argument
+// names, and its inductance: a plain or tapped inductor end to end
+// (L1 + L2 + 2M, graph.Part.Inductance), or the winding of a transformer the
+// pattern maps (winding = "1" is the first in the pattern's list).
+func (x *figCtx) coil(arg string) (a, b int, l float64, q float64, ok bool) {
+	names := x.spec.Args[arg]
+	if len(names) == 0 {
+		return 0, 0, 0, 0, false
+	}
+	i := x.index(names[0])
+	if i < 0 {
+		return 0, 0, 0, 0, false
+	}
+	ci := x.m.parts[i]
+	p := x.w.parts[ci]
+	switch p.Kind {
+	case graph.Inductor:
+		one, two := x.w.pinNet(ci, "1"), x.w.pinNet(ci, "2")
+		q := 0.0
+		if len(p.Windings) > 0 {
+			q = p.Windings[0].Q
+		}
+		return one, two, p.Inductance(), q, true
+	case graph.Transformer:
+		wi := 0
+		if x.word("winding", "1") == "2" {
+			wi = 1
+		}
+		if wi >= len(x.m.coils[i]) {
+			return 0, 0, 0, 0, false
+		}
+		cl := x.w.coils[ci][x.m.coils[i][wi]]
+		return x.w.pinNet(ci, cl.pins[0]), x.w.pinNet(ci, cl.pins[len(cl.pins)-1]), cl.l, cl.q, true
+	}
+	return 0, 0, 0, 0, false
+}
+
+// resonance is f = 1/(2π√(LC)) (reference-values §1, handbook formula).
+func resonance(l, c float64) float64 {
+	if l <= 0 || c <= 0 {
+		return math.NaN()
+	}
+	return 1 / (2 * math.Pi * math.Sqrt(l*c))
+}
+
+// tankFigures writes the capacitance and the resonance of a tank, as a range
+// when a variable capacitor takes part (Cmax gives f_min, Cmin f_max).
+func (x *figCtx) tankFigures(l float64, a, b int, caps []*graph.Part) {
+	cmin := capBetween(x.w, caps, a, b, 0)
+	cmax := capBetween(x.w, caps, a, b, 1)
+	x.set("l_h", l)
+	if hasVariable(caps) && cmax > cmin*1.0001 {
+		x.set("c_min_f", cmin)
+		x.set("c_max_f", cmax)
+		x.set("f_min_hz", resonance(l, cmax))
+		x.set("f_max_hz", resonance(l, cmin))
+		return
+	}
+	x.set("c_f", cmax)
+	x.set("f_hz", resonance(l, cmax))
+}
+
+func hasVariable(caps []*graph.Part) bool {
+	for _, c := range caps {
+		if c.Type == graph.CapVariable {
+			return true
+		}
+	}
+	return false
+}
+
+func calcTank(x *figCtx) {
+	a, b, l, _, ok := x.coil("coil")
+	if !ok {
+		return
+	}
+	x.tankFigures(l, a, b, x.parts("caps"))
+	if x.word("check", "") == "if" {
+		if f, ok := x.st.Figures[x.key("f_hz")]; ok {
+			x.checkIF(x.part("coil").Ref, f)
+		}
+	}
+}
+
+// calcHartley: the tank inductance of a Hartley coil is L1 + L2 + 2M with
+// M = k√(L1L2), windings aiding (reference-values §3).
+func calcHartley(x *figCtx) {
+	p := x.part("coil")
+	a, b, l, _, ok := x.coil("coil")
+	if !ok || p == nil {
+		return
+	}
+	if len(p.Windings) == 2 {
+		l1, l2 := p.Windings[0].L, p.Windings[1].L
+		m := p.K(p.Windings[0].Name, p.Windings[1].Name) * math.Sqrt(l1*l2)
+		x.set("l1_h", l1)
+		x.set("l2_h", l2)
+		x.set("m_h", m)
+	}
+	x.tankFigures(l, a, b, x.parts("caps"))
+}
+
+// calcColpitts: Ceff = C1C2/(C1+C2); feedback fraction β = C1/C2 with C1
+// across the output and C2 across the input, so the loop needs |A| ≥ C2/C1
+// (reference-values §3).
+func calcColpitts(x *figCtx) {
+	_, _, l, _, ok := x.coil("coil")
+	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
+	if !ok || c1 <= 0 || c2 <= 0 {
+		return
+	}
+	ceff := c1 * c2 / (c1 + c2)
+	x.set("l_h", l)
+	x.set("c_eff_f", ceff)
+	x.set("feedback", c1/c2)
+	x.set("gain_min", c2/c1)
+	x.set("f_hz", resonance(l, ceff))
+}
+
+// calcClapp: 1/Ceff = 1/C1 + 1/C2 + 1/C3 (reference-values §3).
+func calcClapp(x *figCtx) {
+	_, _, l, _, ok := x.coil("coil")
+	c1, c2, c3 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1), sumCap(x.parts("c3"), 1)
+	if !ok || c1 <= 0 || c2 <= 0 || c3 <= 0 {
+		return
+	}
+	ceff := 1 / (1/c1 + 1/c2 + 1/c3)
+	x.set("l_h", l)
+	x.set("c_eff_f", ceff)
+	x.set("feedback", c1/c2)
+	x.set("f_hz", resonance(l, ceff))
+}
+
+func calcCrystal(x *figCtx) {
+	if p := x.part("xtal"); p != nil {
+		x.set("f_hz", p.Value.Max)
+	}
+}
+
+// calcRC: τ = RC and the corner fc = 1/(2πRC) (reference-values §4). use =
+// "agc" or "detector" adds the checks a repairer makes on those.
+func calcRC(x *figCtx) {
+	r := parallelR(x.parts("r"))
+	c := sumCap(x.parts("c"), 1)
+	if r <= 0 || c <= 0 {
+		return
+	}
+	tau := r * c
+	fc := 1 / (2 * math.Pi * tau)
+	x.set("tau_s", tau)
+	x.set("f_c_hz", fc)
+	switch x.word("use", "") {
+	case "agc":
+		// Common practice, no source: an AGC line wants roughly 0.05–0.5 s,
+		// slow enough not to follow the lowest audio, quick enough to follow fading.
+		if tau < 0.02 {
+			x.flag("AGC time constant %s is short: the AGC will follow low audio notes and distort them", FigureText("tau_s", tau))
+		}
+		if tau > 1 {
+			x.flag("AGC time constant %s is long: the set will be slow to follow fading and tuning", FigureText("tau_s", tau))
+		}
+	case "detector":
+		// Common practice, no source: the load must pass the top audio
+		// (about 5 kHz for AM) yet hold the IF ripple.
+		if fc < 3e3 {
+			x.flag("detector load corner %s is below 3 kHz: the top of the audio is lost and deep modulation clips", FigureText("f_c_hz", fc))
+		}
+		if ifHz := x.w.c.Freqs["if"]; ifHz > 0 && fc > ifHz/5 {
+			x.flag("detector load corner %s is close to the IF (%s): IF ripple reaches the audio", FigureText("f_c_hz", fc), FigureText("f_hz", ifHz))
+		}
+	}
+}
+
+// calcPhaseShift: three equal RC sections give f = 1/(2πRC√6) and need a
+// gain of 29 (handbook formula, from memory).
+func calcPhaseShift(x *figCtx) {
+	rs, cs := x.parts("r"), x.parts("c")
+	if len(rs) == 0 || len(cs) == 0 {
+		return
+	}
+	r, c := rs[0].Value.Max, cs[0].Value.Max
+	for _, p := range rs {
+		if math.Abs(p.Value.Max-r) > 0.05*r {
+			x.flag("phase-shift sections are unequal: f uses %s and %s and is only a guide", rs[0].Ref, cs[0].Ref)
+		}
+	}
+	for _, p := range cs {
+		if math.Abs(p.Value.Max-c) > 0.05*c {
+			x.flag("phase-shift sections are unequal: f uses %s and %s and is only a guide", rs[0].Ref, cs[0].Ref)
+		}
+	}
+	x.set("f_hz", 1/(2*math.Pi*r*c*math.Sqrt(6)))
+	x.set("gain_min", 29)
+}
+
+// calcWien: f = 1/(2π√(R1R2C1C2)); with equal arms the loop needs a gain of
+// 3 (handbook formula, from memory).
+func calcWien(x *figCtx) {
+	r1, c1, r2, c2 := parallelR(x.parts("r1")), sumCap(x.parts("c1"), 1), parallelR(x.parts("r2")), sumCap(x.parts("c2"), 1)
+	if r1 <= 0 || r2 <= 0 || c1 <= 0 || c2 <= 0 {
+		return
+	}
+	x.set("f_hz", 1/(2*math.Pi*math.Sqrt(r1*r2*c1*c2)))
+	x.set("gain_min", 1+r1/r2+c2/c1)
+}
+
+// calcPi: a pi network C1–L–C2 resonates with L and C1 in series with C2
+// (the loop), f = 1/(2π√(L·C1C2/(C1+C2))); as a matching network it steps
+// the impedance by about (C2/C1)² (from memory, high-Q approximation).
+func calcPi(x *figCtx) {
+	_, _, l, _, ok := x.coil("coil")
+	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
+	if !ok || c1 <= 0 || c2 <= 0 {
+		return
+	}
+	x.set("f_hz", resonance(l, c1*c2/(c1+c2)))
+	x.set("z_ratio", (c2/c1)*(c2/c1))
+}
+
+// calcSmoothing: the second section's corner, 1/(2π√(LC2)) with a choke or
+// 1/(2πRC2) with a resistor (handbook formulas, from memory).
+func calcSmoothing(x *figCtx) {
+	s := x.part("series")
+	c2 := sumCap(x.parts("c2"), 1)
+	c1 := sumCap(x.parts("c1"), 1)
+	if s == nil || c2 <= 0 {
+		return
+	}
+	x.set("c_reservoir_f", c1)
+	x.set("c_smoothing_f", c2)
+	switch s.Kind {
+	case graph.Inductor:
+		x.set("f_c_hz", resonance(s.Inductance(), c2))
+	case graph.Resistor:
+		x.set("f_c_hz", 1/(2*math.Pi*s.Value.Max*c2))
+	}
+}
+
+func calcValue(x *figCtx) {
+	p := x.part("part")
+	if p == nil {
+		return
+	}
+	v := p.Value.Max
+	if p.Kind == graph.Inductor {
+		v = p.Inductance()
+	}
+	x.set(x.word("key", "value"), v)
+}
+
+// calcRatio: the turns ratio from the winding inductances, n = √(L1/L2),
+// since inductance goes with turns squared on one core (from memory).
+func calcRatio(x *figCtx) {
+	i := x.index(x.spec.Args["xfmr"][0])
+	if i < 0 {
+		return
+	}
+	ci := x.m.parts[i]
+	coils := x.w.coils[ci]
+	if len(coils) < 2 {
+		return
+	}
+	assigned := x.m.coils[i]
+	first := coils[assigned[0]]
+	var other *coil
+	for j := range coils {
+		if j != assigned[0] {
+			other = &coils[j]
+			break
+		}
+	}
+	if other == nil || other.l <= 0 || first.l <= 0 {
+		return
+	}
+	x.set("turns_ratio", math.Sqrt(first.l/other.l))
+}
+
+// sumCap adds capacitors in parallel at a setting of the variable ones.
+func sumCap(ps []*graph.Part, frac float64) float64 {
+	t := 0.0
+	for _, p := range ps {
+		t += p.Capacitance(frac)
+	}
+	return t
+}
+
+// parallelR combines resistors in parallel.
+func parallelR(ps []*graph.Part) float64 {
+	g := 0.0
+	for _, p := range ps {
+		if p.Value.Max > 0 {
+			g += 1 / p.Value.Max
+		}
+	}
+	if g == 0 {
+		return 0
+	}
+	return 1 / g
+}
+
+// capBetween is the capacitance the given capacitors present between nets a
+// and b (folded ids), however they are wired (series padders, parallel
+// trimmers): the capacitors' nodal matrix is solved with a at 1 V, b at 0 V
+// and the charge on a read off. Variable sections are set at frac.
+func capBetween(w *world, caps []*graph.Part, a, b int, frac float64) float64 {
+	if a == b {
+		return 0
+	}
+	idx := map[int]int{}
+	var nodes []int
+	node := func(n int) int {
+		if i, ok := idx[n]; ok {
+			return i
+		}
+		idx[n] = len(nodes)
+		nodes = append(nodes, n)
+		return idx[n]
+	}
+	node(a)
+	node(b)
+	type edge struct {
+		i, j int
+		c    float64
+	}
+	var edges []edge
+	for _, p := range caps {
+		if len(p.Pins) != 2 {
+			continue
+		}
+		ci := -1
+		for k, q := range w.parts {
+			if q == p {
+				ci = k
+				break
+			}
+		}
+		if ci < 0 {
+			continue
+		}
+		edges = append(edges, edge{node(w.pins[ci][0]), node(w.pins[ci][1]), p.Capacitance(frac)})
+	}
+	n := len(nodes)
+	// Unknowns: the voltages of nodes 2..n-1.
+	m := n - 2
+	mat := make([][]float64, m)
+	for i := range mat {
+		mat[i] = make([]float64, m+1)
+	}
+	for _, e := range edges {
+		for _, pair := range [][2]int{{e.i, e.j}, {e.j, e.i}} {
+			r, c := pair[0]-2, pair[1]-2
+			if r < 0 {
+				continue
+			}
+			mat[r][r] += e.c
+			switch {
+			case c >= 0:
+				mat[r][c] -= e.c
+			case pair[1] == 0: // node a at 1 V
+				mat[r][m] += e.c
+			}
+		}
+	}
+	v := solve(mat)
+	volt := func(i int) float64 {
+		switch i {
+		case 0:
+			return 1
+		case 1:
+			return 0
+		}
+		if v == nil {
+			return 0
+		}
+		return v[i-2]
+	}
+	q := 0.0
+	for _, e := range edges {
+		if e.i == 0 {
+			q += e.c * (1 - volt(e.j))
+		} else if e.j == 0 {
+			q += e.c * (1 - volt(e.i))
+		}
+	}
+	return q
+}
+
+// solve does Gaussian elimination with partial pivoting on an augmented
+// matrix; a floating node (zero row) is left at 0 V.
+func solve(a [][]float64) []float64 {
+	n := len(a)
+	for col := 0; col < n; col++ {
+		piv := col
+		for r := col + 1; r < n; r++ {
+			if math.Abs(a[r][col]) > math.Abs(a[piv][col]) {
+				piv = r
+			}
+		}
+		a[col], a[piv] = a[piv], a[col]
+		if math.Abs(a[col][col]) < 1e-30 {
+			continue
+		}
+		for r := 0; r < n; r++ {
+			if r == col {
+				continue
+			}
+			f := a[r][col] / a[col][col]
+			for k := col; k <= n; k++ {
+				a[r][k] -= f * a[col][k]
+			}
+		}
+	}
+	out := make([]float64, n)
+	for i := range out {
+		if math.Abs(a[i][i]) > 1e-30 {
+			out[i] = a[i][n] / a[i][i]
+		}
+	}
+	return out
+}
+
+// FigureText formats a figure for people, by the unit its key ends in:
+// "1.47 MHz", "0.1 s", "90.9 pF", "-16.5", "12 dB".
+func FigureText(key string, v float64) string {
+	switch {
+	case hasSuffix(key, "_hz"):
+		return value.FormatPrec(v, value.Hertz, value.Symbol, 4)
+	case hasSuffix(key, "_s"):
+		return value.FormatPrec(v, value.Second, value.Symbol, 3)
+	case hasSuffix(key, "_f"):
+		return value.FormatPrec(v, value.Farad, value.Symbol, 4)
+	case hasSuffix(key, "_h"):
+		return value.FormatPrec(v, value.Henry, value.Symbol, 4)
+	case hasSuffix(key, "_ohm"):
+		return value.FormatPrec(v, value.Ohm, value.Symbol, 3)
+	case hasSuffix(key, "_db"):
+		return fmt.Sprintf("%.1f dB", v)
+	case hasSuffix(key, "_pct"):
+		return fmt.Sprintf("%.1f %%", v)
+	}
+	return trimFloat(v)
+}
+
+func hasSuffix(s, suf string) bool { return len(s) >= len(suf) && s[len(s)-len(suf):] == suf }
+
+// trimFloat prints a plain ratio with three significant digits, or more
+// where the integer part needs them.
+func trimFloat(v float64) string {
+	if v == 0 {
+		return "0"
+	}
+	a := math.Abs(v)
+	switch {
+	case a >= 1000:
+		return fmt.Sprintf("%.0f", v)
+	case a >= 0.001:
+		digits := 2 - int(math.Floor(math.Log10(a)))
+		if digits < 0 {
+			digits = 0
+		}
+		s := fmt.Sprintf("%.*f", digits, v)
+		return trimZeros(s)
+	}
+	return fmt.Sprintf("%.3g", v)
+}
+
+func trimZeros(s string) string {
+	if !containsByte(s, '.') {
+		return s
+	}
+	for s[len(s)-1] == '0' {
+		s = s[:len(s)-1]
+	}
+	if s[len(s)-1] == '.' {
+		s = s[:len(s)-1]
+	}
+	return s
+}
+
+func containsByte(s string, b byte) bool {
+	for i := 0; i < len(s); i++ {
+		if s[i] == b {
+			return true
+		}
+	}
+	return false
+}
+
+// KeyFigures lists a stage's figure keys in the order a table shows them:
+// frequencies first, then the rest, each group sorted.
+func KeyFigures(figs map[string]float64) []string {
+	keys := sortedKeys(figs)
+	sort.SliceStable(keys, func(i, j int) bool { return figRank(keys[i]) < figRank(keys[j]) })
+	return keys
+}
+
+func figRank(k string) int {
+	switch {
+	case hasSuffix(k, "_hz"):
+		return 0
+	case k == "gain" || hasSuffix(k, "gain"):
+		return 1
+	case hasSuffix(k, "_s"):
+		return 2
+	}
+	return 3
+}
+
+func sqrt(x float64) float64 { return math.Sqrt(x) }

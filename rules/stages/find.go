@@ -1,0 +1,387 @@
+package stages
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"pare/graph"
+)
+
+// Stage is one recognised stage.
+type Stage struct {
+	Name     string             `json:"name"`     // in signal order: "S1", "S2", …; sub-stages "S2a", "S2b"
+	Topology string             `json:"topology"` // pattern id, e.g. "hartley-common-tap"
+	Title    string             `json:"title"`    // e.g. "Hartley oscillator, cathode tap (valve)"
+	Family   string             `json:"family"`   // "valve" | "bjt" | "fet" | "passive"
+	Parts    []string           `json:"parts"`
+	Figures  map[string]float64 `json:"figures"` // SI base units: "f_min_hz", "gain", "tau_s", …
+	Flags    []string           `json:"flags"`
+	Contains []string           `json:"contains,omitempty"` // names of sub-stages
+
+	group string
+	depth int
+	nets  map[string]string // pattern net → circuit net
+	roles map[string]string // pattern part → circuit ref
+}
+
+// Options steer Find.
+type Options struct {
+	PatternDir string         // more patterns, added to (and overriding by id) the built-in library
+	Full       *graph.Circuit // the original circuit, for the power-supply patterns; nil skips them
+	Limit      int            // search steps across all patterns; 0 = DefaultLimit
+	// ACGround names nets a reduction found to be at AC ground
+	// (rules.Log.ACGround); nets whose role says so are folded anyway.
+	ACGround []string
+	// Library replaces the built-in library when set (tests, callers that
+	// load patterns once).
+	Library *Library
+}
+
+// DefaultLimit is the default step budget: far above what the built-in
+// library needs on a 5,000-part set, far below a hang.
+const DefaultLimit = 20_000_000
+
+// Find recognises the stages of a reduced circuit. Stages come in signal
+// order (breadth-first from the circuit's inputs), each followed by its
+// sub-stages; power-supply stages found on o.Full come last. When the search
+// budget runs out the stages found so far are returned with an error that
+// wraps ErrSearchLimit.
+func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
+	lib := o.Library
+	if lib == nil {
+		var err error
+		if lib, err = Builtin(); err != nil {
+			return nil, fmt.Errorf("built-in patterns: %w", err)
+		}
+	}
+	if o.PatternDir != "" {
+		user, err := LoadDir(o.PatternDir)
+		if err != nil {
+			return nil, err
+		}
+		lib = lib.Merge(user)
+	}
+	limit := o.Limit
+	if limit <= 0 {
+		limit = DefaultLimit
+	}
+	acg := map[string]bool{}
+	for _, n := range o.ACGround {
+		acg[n] = true
+	}
+	budget := &limit
+	signal, errSig := recognise(reduced, lib, false, acg, budget)
+	var power []*found
+	var errPow error
+	if o.Full != nil && errSig == nil {
+		power, errPow = recognise(o.Full, lib, true, nil, budget)
+	}
+	order := signalOrder(reduced)
+	sort.SliceStable(signal, func(i, j int) bool {
+		a, b := order.of(signal[i].Parts), order.of(signal[j].Parts)
+		if a != b {
+			return a < b
+		}
+		return signal[i].Parts[0] < signal[j].Parts[0]
+	})
+	var out []Stage
+	n := 0
+	name := func(s *Stage) {
+		n++
+		s.Name = fmt.Sprintf("S%d", n)
+	}
+	for _, top := range signal {
+		name(top.Stage)
+		out = appendTree(out, top)
+	}
+	for _, top := range power {
+		name(top.Stage)
+		out = appendTree(out, top)
+	}
+	return out, errors.Join(errSig, errPow)
+}
+
+// appendTree adds a stage and, depth first, its sub-stages named after it.
+func appendTree(out []Stage, s *found) []Stage {
+	subs := s.subs
+	s.Contains = nil
+	for i, c := range subs {
+		c.Name = fmt.Sprintf("%s%c", s.Name, 'a'+rune(i%26))
+		if i >= 26 {
+			c.Name = fmt.Sprintf("%s.%d", s.Name, i+1)
+		}
+		s.Contains = append(s.Contains, c.Name)
+	}
+	out = append(out, s.public())
+	for _, c := range subs {
+		out = appendTree(out, c)
+	}
+	return out
+}
+
+func (s *Stage) public() Stage {
+	t := *s
+	if t.Flags == nil {
+		t.Flags = []string{}
+	}
+	if t.Figures == nil {
+		t.Figures = map[string]float64{}
+	}
+	return t
+}
+
+// found is a stage under construction, with its sub-stages.
+type found struct {
+	*Stage
+	m    *match
+	subs []*found
+	set  map[string]bool
+}
+
+func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, budget *int) ([]*found, error) {
+	w := newWorld(c, full, acg)
+	s := &searcher{w: w, limit: *budget, partUsed: make([]bool, len(w.parts)), netOwner: make([]int, len(w.names)), seen: map[string]bool{}}
+	for i := range s.netOwner {
+		s.netOwner[i] = -1
+	}
+	var runErr error
+	for _, p := range lib.Patterns {
+		if (p.Circuit == "full") != full {
+			continue
+		}
+		for _, v := range p.variants {
+			if err := s.run(v); err != nil {
+				runErr = err
+				break
+			}
+		}
+		if runErr != nil {
+			break
+		}
+	}
+	*budget -= s.steps
+	var cands []*found
+	for _, m := range s.found {
+		st := evaluate(w, m)
+		if st == nil {
+			continue
+		}
+		set := map[string]bool{}
+		for _, r := range st.Parts {
+			set[r] = true
+		}
+		cands = append(cands, &found{Stage: st, m: m, set: set})
+	}
+	// The overlap rule: larger first, then the more specific pattern, then
+	// pattern id and refs, so the outcome never depends on search order.
+	sort.SliceStable(cands, func(i, j int) bool {
+		a, b := cands[i], cands[j]
+		if len(a.Parts) != len(b.Parts) {
+			return len(a.Parts) > len(b.Parts)
+		}
+		if a.m.v.p.Rank != b.m.v.p.Rank {
+			return a.m.v.p.Rank > b.m.v.p.Rank
+		}
+		if a.Topology != b.Topology {
+			return a.Topology < b.Topology
+		}
+		return strings.Join(a.Parts, ",") < strings.Join(b.Parts, ",")
+	})
+	var tops []*found
+	for _, f := range cands {
+		place(&tops, f)
+	}
+	return tops, runErr
+}
+
+// place puts a candidate at the top level when it is disjoint from every
+// accepted stage, inside the stage that wholly contains it when its pattern
+// may nest, and nowhere when it straddles.
+func place(level *[]*found, f *found) bool {
+	for _, t := range *level {
+		inside, overlap := relation(f.set, t.set)
+		if !overlap {
+			continue
+		}
+		if !inside || !f.m.v.p.Inner || f.Topology == t.Topology || len(f.set) == len(t.set) {
+			return false
+		}
+		return place(&t.subs, f)
+	}
+	*level = append(*level, f)
+	sort.SliceStable(*level, func(i, j int) bool { return (*level)[i].Parts[0] < (*level)[j].Parts[0] })
+	return true
+}
+
+func relation(a, b map[string]bool) (inside, overlap bool) {
+	inside = true
+	for r := range a {
+		if b[r] {
+			overlap = true
+		} else {
+			inside = false
+		}
+	}
+	return inside && overlap, overlap
+}
+
+// evaluate turns a match into a stage: family, title, figures, flags; nil
+// when a guard rejects it or the pattern does not serve the family matched.
+func evaluate(w *world, m *match) *Stage {
+	p := m.v.p
+	st := &Stage{Topology: p.ID, group: p.Group, Parts: append([]string(nil), m.refs...),
+		Figures: map[string]float64{}, nets: map[string]string{}, roles: map[string]string{}}
+	for vi, vn := range m.v.nets {
+		for _, n := range vn.names {
+			st.nets[n] = w.names[m.nets[vi]]
+		}
+	}
+	var active *graph.Part
+	for i, vp := range m.v.parts {
+		part := w.parts[m.parts[i]]
+		st.roles[vp.pp.Name] = part.Ref
+		if active == nil && (isActiveDevice(vp.pp.Device) || part.Kind == graph.Valve) {
+			active = part
+		}
+	}
+	st.Family = familyOf(m, w)
+	if len(p.Families) > 0 && !contains(p.Families, st.Family) {
+		return nil
+	}
+	title := p.Title
+	if t, ok := p.Titles[st.Family]; ok {
+		title = t
+	}
+	st.Title = expandTitle(title, st.Family)
+	x := &figCtx{w: w, m: m, st: st}
+	for _, f := range p.Figures {
+		x.spec = f
+		calcs[f.Calc].fn(x)
+	}
+	for _, g := range p.Guards {
+		v, ok := st.Figures[g.Figure]
+		if !ok || math.IsNaN(v) || g.HasMin && v < g.Min || g.HasMax && v > g.Max {
+			return nil
+		}
+	}
+	sort.Strings(st.Flags)
+	return st
+}
+
+// familyOf is the kind of the first amplifying device in the match, a
+// valve diode counting as valve; a stage of passive parts and semiconductor
+// diodes only is "passive".
+func familyOf(m *match, w *world) string {
+	fam := ""
+	for _, ci := range m.parts {
+		p := w.parts[ci]
+		switch p.Kind {
+		case graph.Valve:
+			return "valve"
+		case graph.BJT:
+			if fam == "" {
+				fam = "bjt"
+			}
+		case graph.FET:
+			if fam == "" {
+				fam = "fet"
+			}
+		}
+	}
+	if fam == "" {
+		return "passive"
+	}
+	return fam
+}
+
+var electrodeWords = map[string]map[string]string{
+	"valve":   {"{control}": "grid", "{common}": "cathode", "{output}": "anode", "{family}": "valve"},
+	"bjt":     {"{control}": "base", "{common}": "emitter", "{output}": "collector", "{family}": "BJT"},
+	"fet":     {"{control}": "gate", "{common}": "source", "{output}": "drain", "{family}": "FET"},
+	"passive": {"{control}": "control", "{common}": "common", "{output}": "output", "{family}": "passive"},
+}
+
+func expandTitle(t, family string) string {
+	words := electrodeWords[family]
+	for _, k := range sortedKeys(words) {
+		t = strings.ReplaceAll(t, k, words[k])
+	}
+	return t
+}
+
+// order is each part's breadth-first distance from the inputs.
+type order map[string]int
+
+func (o order) of(refs []string) int {
+	best := math.MaxInt
+	for _, r := range refs {
+		if d, ok := o[r]; ok && d < best {
+			best = d
+		}
+	}
+	return best
+}
+
+// signalOrder walks the part–net graph breadth first from the circuit's
+// inputs (and region inputs), never through an AC-ground net: a common
+// ground does not carry the signal from stage to stage.
+func signalOrder(c *graph.Circuit) order {
+	conns := c.Conns()
+	dist := order{}
+	seenNet := map[string]bool{}
+	var queue []string
+	starts := append([]string(nil), c.Inputs...)
+	for _, r := range c.Regions {
+		if r.Input != "" {
+			starts = append(starts, r.Input)
+		}
+	}
+	for _, n := range starts {
+		if !seenNet[n] {
+			seenNet[n] = true
+			queue = append(queue, n)
+		}
+	}
+	depth := map[string]int{}
+	for len(queue) > 0 {
+		n := queue[0]
+		queue = queue[1:]
+		for _, cn := range conns[n] {
+			p := cn.Part
+			if _, ok := dist[p.Ref]; ok {
+				continue
+			}
+			dist[p.Ref] = depth[n]
+			for _, pin := range p.Pins {
+				if seenNet[pin.Net] || c.RoleOf(pin.Net).IsACGround() {
+					continue
+				}
+				seenNet[pin.Net] = true
+				depth[pin.Net] = depth[n] + 1
+				queue = append(queue, pin.Net)
+			}
+		}
+	}
+	return dist
+}
+
+// Unmatched lists the parts of the circuit that no stage claims, sorted,
+// leaving out ports (they are the sheet's connections, not stages).
+func Unmatched(c *graph.Circuit, stages []Stage) []string {
+	claimed := map[string]bool{}
+	for _, s := range stages {
+		for _, r := range s.Parts {
+			claimed[r] = true
+		}
+	}
+	var out []string
+	for _, p := range c.Parts {
+		if !claimed[p.Ref] && p.Kind != graph.Port {
+			out = append(out, p.Ref)
+		}
+	}
+	return out
+}

@@ -1,0 +1,185 @@
+package stages
+
+import (
+	"math"
+
+	"pare/graph"
+)
+
+// Thermal voltage at 300 K, kT/q with the exact SI 2019 constants
+// (reference-values §5: 25.8520 mV).
+const thermalVoltage = 1.380649e-23 * 300 / 1.602176634e-19
+
+// device is the small-signal description of an amplifying part.
+type device struct {
+	kind      graph.Kind
+	mu, ra    float64 // valve
+	gm        float64 // all
+	beta, rpi float64 // BJT
+	rOut      float64 // BJT ro, FET rd (0 = infinite)
+	missing   string
+}
+
+func deviceOf(p *graph.Part) device {
+	d := device{kind: p.Kind}
+	par := func(k string) float64 { v, _ := p.Param(k); return v }
+	switch p.Kind {
+	case graph.Valve:
+		d.mu, d.ra, d.gm = par("mu"), par("ra"), par("gm")
+		switch {
+		case d.mu == 0 && d.gm > 0 && d.ra > 0:
+			d.mu = d.gm * d.ra // µ = gm·ra
+		case d.ra == 0 && d.gm > 0 && d.mu > 0:
+			d.ra = d.mu / d.gm
+		case d.gm == 0 && d.mu > 0 && d.ra > 0:
+			d.gm = d.mu / d.ra
+		}
+		if d.mu == 0 || d.ra == 0 {
+			d.missing = "mu and ra (or gm and one of them)"
+		}
+	case graph.BJT:
+		d.gm, d.beta, d.rpi, d.rOut = par("gm"), par("beta"), par("rpi"), par("ro")
+		if ic := par("ic"); d.gm == 0 && ic > 0 {
+			d.gm = ic / thermalVoltage // gm = Ic/VT (hybrid-π)
+		}
+		if d.rpi == 0 && d.beta > 0 && d.gm > 0 {
+			d.rpi = d.beta / d.gm // rπ = β/gm
+		}
+		if d.gm == 0 {
+			d.missing = "gm or the bias current ic"
+		}
+	case graph.FET:
+		d.gm, d.rOut = par("gm"), par("rd")
+		if d.gm == 0 {
+			d.missing = "gm"
+		}
+	}
+	return d
+}
+
+func parallel(a, b float64) float64 {
+	switch {
+	case a == 0:
+		return b
+	case b == 0:
+		return a
+	}
+	return a * b / (a + b)
+}
+
+// calcGain computes the mid-band voltage gain by the textbook formula for
+// the stage's form (reference-values §5):
+//
+//	common       valve −µRL/(ra+RL); BJT, FET −gm·(RL∥ro)
+//	degenerated  valve −µRL/(ra+RL+(µ+1)Rk); BJT −βRL/(rπ+(β+1)RE)
+//	             (−gmRL/(1+gmRE) without β); FET −gmRL/(1+gmRS)
+//	follower     valve µRk/(ra+(µ+1)Rk), Rout = ra/(µ+1) ∥ Rk;
+//	             BJT gmRE/(1+gmRE); FET gmRS/(1+gmRS)
+//	grid         grounded grid / common base / common gate: valve
+//	             (µ+1)RL/(ra+RL); BJT, FET gm·RL (from memory)
+//	cascode      −gm1·RL, the upper device's output resistance taken as
+//	             large (from memory)
+//	pair         long-tailed pair, one output: −gm·RL/2 (from memory)
+//
+// The load RL is the parallel of the pattern's load parts and every other
+// resistor from the load net to AC ground (the next stage's grid leak
+// loads the anode too).
+func calcGain(x *figCtx) {
+	p := x.part("device")
+	if p == nil {
+		return
+	}
+	d := deviceOf(p)
+	if d.missing != "" {
+		x.flag("gain not computed: give %s %s", p.Ref, d.missing)
+		return
+	}
+	rl := x.load()
+	rk := parallelR(x.parts("degeneration"))
+	form := x.word("form", "common")
+	if form != "follower" && rl == 0 {
+		return
+	}
+	var a float64
+	switch form {
+	case "common":
+		if d.kind == graph.Valve {
+			a = -d.mu * rl / (d.ra + rl)
+		} else {
+			a = -d.gm * parallel(rl, d.rOut)
+		}
+	case "degenerated":
+		switch {
+		case d.kind == graph.Valve:
+			a = -d.mu * rl / (d.ra + rl + (d.mu+1)*rk)
+		case d.kind == graph.BJT && d.beta > 0:
+			a = -d.beta * rl / (d.rpi + (d.beta+1)*rk)
+		default:
+			a = -d.gm * rl / (1 + d.gm*rk)
+		}
+	case "follower":
+		if rk == 0 {
+			return
+		}
+		if d.kind == graph.Valve {
+			a = d.mu * rk / (d.ra + (d.mu+1)*rk)
+			x.set("r_out_ohm", parallel(d.ra/(d.mu+1), rk))
+		} else {
+			a = d.gm * rk / (1 + d.gm*rk)
+			x.set("r_out_ohm", parallel(1/d.gm, rk))
+		}
+	case "grid":
+		if d.kind == graph.Valve {
+			a = (d.mu + 1) * rl / (d.ra + rl)
+		} else {
+			a = d.gm * rl
+		}
+	case "cascode":
+		a = -d.gm * rl
+	case "pair":
+		if d.kind == graph.Valve {
+			a = -d.mu * rl / (2 * (d.ra + rl))
+		} else {
+			a = -d.gm * rl / 2
+		}
+	default:
+		return
+	}
+	x.set("gain", a)
+	if a != 0 {
+		x.set("gain_db", 20*math.Log10(math.Abs(a)))
+	}
+	if form != "follower" {
+		x.set("r_load_ohm", rl)
+	}
+}
+
+// load is the AC load at the stage's output, see calcGain.
+func (x *figCtx) load() float64 {
+	seen := map[*graph.Part]bool{}
+	var rs []*graph.Part
+	for _, p := range x.parts("load") {
+		if p.Kind == graph.Resistor {
+			seen[p] = true
+			rs = append(rs, p)
+		}
+	}
+	if nets := x.spec.Args["load_net"]; len(nets) > 0 {
+		name := x.st.nets[nets[0]]
+		id, ok := x.w.netID[name]
+		if ok && id != groundNet {
+			for _, ci := range x.w.conns[id] {
+				p := x.w.parts[ci]
+				if p.Kind != graph.Resistor || seen[p] || len(x.w.pins[ci]) != 2 {
+					continue
+				}
+				a, b := x.w.pins[ci][0], x.w.pins[ci][1]
+				if a == id && b == groundNet || b == id && a == groundNet {
+					seen[p] = true
+					rs = append(rs, p)
+				}
+			}
+		}
+	}
+	return parallelR(rs)
+}

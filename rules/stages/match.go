@@ -1,0 +1,542 @@
+package stages
+
+import (
+	"errors"
+	"fmt"
+	"sort"
+	"strings"
+
+	"pare/graph"
+)
+
+// world is the circuit as the matcher sees it: nets as small integers, every
+// AC-ground net folded into net 0 (in full-circuit mode only chassis/ground
+// nets are folded, so rails stay apart), terminals by part.
+type world struct {
+	c      *graph.Circuit
+	full   bool
+	names  []string     // net id → name ("⏚" for the folded ground)
+	role   []graph.Role // net id → role
+	netID  map[string]int
+	parts  []*graph.Part
+	pins   [][]int // part index → net id per pin (aligned with Part.Pins)
+	conns  [][]int // net id → part indices, sorted, unique
+	byKind map[graph.Kind][]int
+	coils  [][]coil // part index → coils of a transformer
+}
+
+// coil is one winding of a transformer as the pattern sees it: two ends,
+// or end, tap, end for a centre-tapped winding.
+type coil struct {
+	pins []string // pin names
+	l    float64  // total inductance end to end
+	q    float64
+	name string // winding name (first half for a tapped one)
+}
+
+const groundNet = 0
+
+func newWorld(c *graph.Circuit, full bool, acGround map[string]bool) *world {
+	w := &world{c: c, full: full, netID: map[string]int{}, byKind: map[graph.Kind][]int{}}
+	w.names = append(w.names, "⏚")
+	w.role = append(w.role, graph.Ground)
+	for _, n := range c.Nets {
+		folded := n.Role == graph.Ground
+		if !full {
+			folded = n.Role.IsACGround() || acGround[n.Name]
+		}
+		if folded {
+			w.netID[n.Name] = groundNet
+			continue
+		}
+		w.netID[n.Name] = len(w.names)
+		w.names = append(w.names, n.Name)
+		w.role = append(w.role, n.Role)
+	}
+	w.parts = c.Parts
+	w.pins = make([][]int, len(c.Parts))
+	for i, p := range c.Parts {
+		w.byKind[p.Kind] = append(w.byKind[p.Kind], i)
+		ids := make([]int, len(p.Pins))
+		for j, pin := range p.Pins {
+			id, ok := w.netID[pin.Net]
+			if !ok || pin.Net == "nc" {
+				// An unconnected terminal, or a net the part list alone
+				// names: a net of its own that nothing else shares.
+				id = len(w.names)
+				w.names = append(w.names, pin.Net)
+				w.role = append(w.role, graph.Signal)
+			}
+			ids[j] = id
+		}
+		w.pins[i] = ids
+	}
+	w.conns = make([][]int, len(w.names))
+	for i, ids := range w.pins {
+		for _, id := range ids {
+			if l := w.conns[id]; len(l) == 0 || l[len(l)-1] != i {
+				w.conns[id] = append(w.conns[id], i)
+			}
+		}
+	}
+	w.coils = make([][]coil, len(c.Parts))
+	for i, p := range c.Parts {
+		if p.Kind == graph.Transformer {
+			w.coils[i] = coilsOf(p)
+		}
+	}
+	return w
+}
+
+// coilsOf joins the halves of a centre-tapped winding (two windings meeting
+// at a pin, fully coupled) into one coil with a tap.
+func coilsOf(p *graph.Part) []coil {
+	var out []coil
+	used := map[int]bool{}
+	for i, a := range p.Windings {
+		if used[i] {
+			continue
+		}
+		joined := false
+		for j, b := range p.Windings {
+			if j == i || used[j] || a.To != b.From || p.K(a.Name, b.Name) < 0.999 {
+				continue
+			}
+			l := a.L + b.L + 2*p.K(a.Name, b.Name)*sqrt(a.L*b.L)
+			out = append(out, coil{pins: []string{a.From, a.To, b.To}, l: l, q: a.Q, name: a.Name})
+			used[i], used[j], joined = true, true, true
+			break
+		}
+		if !joined {
+			used[i] = true
+			out = append(out, coil{pins: []string{a.From, a.To}, l: a.L, q: a.Q, name: a.Name})
+		}
+	}
+	return out
+}
+
+// pinNet gives the net id of part i's terminal name, -1 if it has none.
+func (w *world) pinNet(i int, name string) int {
+	for j, pin := range w.parts[i].Pins {
+		if pin.Name == name {
+			return w.pins[i][j]
+		}
+	}
+	return -1
+}
+
+// match is one place where a pattern variant fits.
+type match struct {
+	v     *variant
+	parts []int // circuit part per variant part (search order)
+	nets  []int // circuit net per vnet
+	bind  []int // which binding of each part was used (for transformers: the coil assignment)
+	coils [][]int
+	refs  []string // sorted refs
+	score int
+}
+
+// ErrSearchLimit is wrapped by the error Find returns when its step budget
+// ran out; the stages found until then are still returned.
+var ErrSearchLimit = errors.New("search limit reached")
+
+type searcher struct {
+	w        *world
+	steps    int
+	limit    int
+	partUsed []bool
+	netOwner []int // circuit net → vnet bound to it, -1 none (ground is shared)
+	found    []*match
+	seen     map[string]bool
+}
+
+func (s *searcher) run(v *variant) error {
+	m := &match{v: v, parts: make([]int, len(v.parts)), nets: make([]int, len(v.nets)), bind: make([]int, len(v.parts)), coils: make([][]int, len(v.parts))}
+	for i := range m.nets {
+		m.nets[i] = -1
+	}
+	return s.place(m, 0)
+}
+
+func (s *searcher) place(m *match, depth int) error {
+	v := m.v
+	if depth == len(v.parts) {
+		s.complete(m)
+		return nil
+	}
+	vp := &v.parts[depth]
+	var cands []int
+	if vp.link >= 0 && m.nets[vp.slots[vp.link]] != groundNet {
+		cands = s.w.conns[m.nets[vp.slots[vp.link]]]
+	} else {
+		for _, k := range kindsFor(vp.pp.Device) {
+			cands = append(cands, s.w.byKind[k]...)
+		}
+		if len(kindsFor(vp.pp.Device)) > 1 {
+			sort.Ints(cands)
+		}
+	}
+	for _, ci := range cands {
+		if s.partUsed[ci] || !s.accepts(vp.pp, ci) {
+			continue
+		}
+		for bi, b := range s.bindings(vp.pp, ci) {
+			s.steps++
+			if s.steps > s.limit {
+				return fmt.Errorf("%w: pattern %s stopped after %d steps (raise the limit, or reduce the circuit first)", ErrSearchLimit, v.p.ID, s.limit)
+			}
+			var newly []int
+			ok := true
+			for slot, net := range b.nets {
+				vn := vp.slots[slot]
+				if cur := m.nets[vn]; cur >= 0 {
+					if cur != net {
+						ok = false
+						break
+					}
+					continue
+				}
+				if !s.netFits(&v.nets[vn], net) {
+					ok = false
+					break
+				}
+				if net != groundNet && s.netOwner[net] >= 0 {
+					ok = false
+					break
+				}
+				m.nets[vn] = net
+				if net != groundNet {
+					s.netOwner[net] = vn
+				}
+				newly = append(newly, vn)
+			}
+			if ok {
+				s.partUsed[ci] = true
+				m.parts[depth], m.bind[depth], m.coils[depth] = ci, bi, b.coils
+				if err := s.place(m, depth+1); err != nil {
+					return err
+				}
+				s.partUsed[ci] = false
+			}
+			for _, vn := range newly {
+				if net := m.nets[vn]; net != groundNet {
+					s.netOwner[net] = -1
+				}
+				m.nets[vn] = -1
+			}
+		}
+	}
+	return nil
+}
+
+// netFits checks a vnet's "at" and degree against a circuit net.
+func (s *searcher) netFits(vn *vnet, net int) bool {
+	w := s.w
+	switch vn.at {
+	case "ground":
+		if net != groundNet {
+			return false
+		}
+	case "signal":
+		if net == groundNet || w.full && w.role[net].IsACGround() {
+			return false
+		}
+	case "rail":
+		if net == groundNet || !w.role[net].IsACGround() {
+			return false
+		}
+	}
+	return net == groundNet || len(w.conns[net]) >= vn.distinctParts()
+}
+
+// distinctParts is a lower bound on the parts a net needs: the pattern's
+// terminals on it, counting a part once.
+func (vn *vnet) distinctParts() int { return min(vn.degree, 2) }
+
+// complete checks the constraints that need the whole match, then records it.
+func (s *searcher) complete(m *match) {
+	w := s.w
+	in := map[int]bool{}
+	for _, ci := range m.parts {
+		in[ci] = true
+	}
+	matchedNet := map[int]bool{}
+	for _, n := range m.nets {
+		matchedNet[n] = true
+	}
+	for vi, vn := range m.v.nets {
+		net := m.nets[vi]
+		if net == groundNet || vn.outside == "" {
+			continue
+		}
+		var others []int
+		for _, ci := range w.conns[net] {
+			if !in[ci] {
+				others = append(others, ci)
+			}
+		}
+		switch vn.outside {
+		case "none":
+			if len(others) > 0 {
+				return
+			}
+		case "some":
+			if len(others) == 0 {
+				return
+			}
+		case "signal":
+			fed := false
+			for _, ci := range others {
+				for _, id := range w.pins[ci] {
+					if id != groundNet && !matchedNet[id] && !(w.full && w.role[id].IsACGround()) {
+						fed = true
+					}
+				}
+			}
+			if !fed {
+				return
+			}
+		}
+	}
+	refs := make([]string, len(m.parts))
+	for i, ci := range m.parts {
+		refs[i] = w.parts[ci].Ref
+	}
+	sort.Strings(refs)
+	key := m.v.p.ID + ":" + strings.Join(refs, ",")
+	if s.seen[key] {
+		return
+	}
+	s.seen[key] = true
+	cp := &match{v: m.v, parts: append([]int(nil), m.parts...), nets: append([]int(nil), m.nets...),
+		bind: append([]int(nil), m.bind...), coils: append([][]int(nil), m.coils...), refs: refs}
+	s.found = append(s.found, cp)
+}
+
+func kindsFor(device string) []graph.Kind {
+	switch device {
+	case "active":
+		return []graph.Kind{graph.BJT, graph.FET, graph.Valve}
+	case "valve", "double-diode":
+		return []graph.Kind{graph.Valve}
+	case "bjt":
+		return []graph.Kind{graph.BJT}
+	case "fet":
+		return []graph.Kind{graph.FET}
+	case "resistor":
+		return []graph.Kind{graph.Resistor}
+	case "capacitor":
+		return []graph.Kind{graph.Capacitor}
+	case "inductor", "tapped-coil":
+		return []graph.Kind{graph.Inductor}
+	case "transformer":
+		return []graph.Kind{graph.Transformer}
+	case "diode":
+		return []graph.Kind{graph.Diode, graph.Valve}
+	case "crystal":
+		return []graph.Kind{graph.Crystal}
+	case "element":
+		return []graph.Kind{graph.Capacitor, graph.Crystal, graph.Inductor, graph.Resistor}
+	}
+	return nil
+}
+
+// accepts filters a candidate by kind, type and value before any binding.
+func (s *searcher) accepts(pp *PPart, ci int) bool {
+	p := s.w.parts[ci]
+	kindOK := false
+	for _, k := range kindsFor(pp.Device) {
+		if p.Kind == k {
+			kindOK = true
+		}
+	}
+	if !kindOK {
+		return false
+	}
+	switch pp.Device {
+	case "active", "valve":
+		if !p.IsActive() {
+			return false
+		}
+	case "diode":
+		if p.Kind == graph.Valve && p.Type != "diode" && p.Type != "double-diode" {
+			return false
+		}
+	case "double-diode":
+		if p.Type != "double-diode" {
+			return false
+		}
+	case "inductor":
+		if len(p.Pins) != 2 {
+			return false
+		}
+	case "tapped-coil":
+		if len(p.Pins) != 3 || p.Pin("t") == nil {
+			return false
+		}
+	}
+	if len(pp.Types) > 0 && !contains(pp.Types, p.Type) {
+		return false
+	}
+	if pp.Min > 0 || pp.Max > 0 {
+		v := p.Value.Max
+		if p.Kind == graph.Inductor {
+			v = p.Inductance()
+		}
+		if pp.Min > 0 && v < pp.Min || pp.Max > 0 && v > pp.Max {
+			return false
+		}
+	}
+	return true
+}
+
+type binding struct {
+	nets  []int
+	coils []int // transformer: circuit coil per pattern winding
+}
+
+// bindings lists every way the candidate's terminals can stand for the
+// pattern part's: both ways round for two-terminal parts and coil ends, each
+// extra grid for a "grid" terminal, each assignment of windings to coils.
+func (s *searcher) bindings(pp *PPart, ci int) []binding {
+	w := s.w
+	p := w.parts[ci]
+	switch pp.Device {
+	case "resistor", "capacitor", "inductor", "crystal", "element":
+		a, b := w.pins[ci][0], w.pins[ci][1]
+		if len(w.pins[ci]) != 2 {
+			return nil
+		}
+		return []binding{{nets: []int{a, b}}, {nets: []int{b, a}}}
+	case "tapped-coil":
+		one, t, two := w.pinNet(ci, "1"), w.pinNet(ci, "t"), w.pinNet(ci, "2")
+		return []binding{{nets: []int{one, t, two}}, {nets: []int{two, t, one}}}
+	case "diode":
+		anodes := []string{"a"}
+		if p.Type == "double-diode" {
+			anodes = []string{"a1", "a2"}
+		}
+		var out []binding
+		for _, an := range anodes {
+			a, k := w.pinNet(ci, an), w.pinNet(ci, "k")
+			if a < 0 || k < 0 {
+				continue
+			}
+			if pp.Pins[0].Key == "" {
+				out = append(out, binding{nets: []int{a, k}}, binding{nets: []int{k, a}})
+				continue
+			}
+			nets := make([]int, 2)
+			for i, pin := range pp.Pins {
+				if pin.Key == "a" {
+					nets[i] = a
+				} else {
+					nets[i] = k
+				}
+			}
+			out = append(out, binding{nets: nets})
+		}
+		return out
+	case "double-diode":
+		a1, a2, k := w.pinNet(ci, "a1"), w.pinNet(ci, "a2"), w.pinNet(ci, "k")
+		var out []binding
+		for _, order := range [][2]int{{a1, a2}, {a2, a1}} {
+			nets := make([]int, len(pp.Pins))
+			for i, pin := range pp.Pins {
+				switch pin.Key {
+				case "a1":
+					nets[i] = order[0]
+				case "a2":
+					nets[i] = order[1]
+				case "k":
+					nets[i] = k
+				}
+			}
+			out = append(out, binding{nets: nets})
+		}
+		return out
+	case "active", "valve", "bjt", "fet":
+		return s.activeBindings(pp, ci)
+	case "transformer":
+		return s.transformerBindings(pp, ci)
+	}
+	return nil
+}
+
+func (s *searcher) activeBindings(pp *PPart, ci int) []binding {
+	w := s.w
+	p := w.parts[ci]
+	choices := make([][]int, len(pp.Pins))
+	for i, pin := range pp.Pins {
+		role := graph.TermRole(pin.Key)
+		for j, cp := range p.Pins {
+			if graph.RoleOfPin(p.Kind, cp.Name) == role {
+				choices[i] = append(choices[i], w.pins[ci][j])
+				if role != graph.RoleGrid {
+					break // one control, common, output per section
+				}
+			}
+		}
+		if len(choices[i]) == 0 {
+			return nil
+		}
+	}
+	var out []binding
+	cur := make([]int, len(pp.Pins))
+	var rec func(i int)
+	rec = func(i int) {
+		if i == len(pp.Pins) {
+			out = append(out, binding{nets: append([]int(nil), cur...)})
+			return
+		}
+		for _, n := range choices[i] {
+			cur[i] = n
+			rec(i + 1)
+		}
+	}
+	rec(0)
+	return out
+}
+
+func (s *searcher) transformerBindings(pp *PPart, ci int) []binding {
+	w := s.w
+	coils := w.coils[ci]
+	var out []binding
+	used := make([]bool, len(coils))
+	assign := make([]int, len(pp.Windings))
+	var nets []int
+	var rec func(i int)
+	rec = func(i int) {
+		if i == len(pp.Windings) {
+			out = append(out, binding{nets: append([]int(nil), nets...), coils: append([]int(nil), assign...)})
+			return
+		}
+		pw := pp.Windings[i]
+		for c, cl := range coils {
+			if used[c] {
+				continue
+			}
+			var ends [][]int
+			switch {
+			case len(pw) == 3 && len(cl.pins) == 3:
+				one, t, two := w.pinNet(ci, cl.pins[0]), w.pinNet(ci, cl.pins[1]), w.pinNet(ci, cl.pins[2])
+				ends = [][]int{{one, t, two}, {two, t, one}}
+			case len(pw) == 2:
+				one, two := w.pinNet(ci, cl.pins[0]), w.pinNet(ci, cl.pins[len(cl.pins)-1])
+				ends = [][]int{{one, two}, {two, one}}
+			default:
+				continue
+			}
+			used[c] = true
+			assign[i] = c
+			for _, e := range ends {
+				nets = append(nets, e...)
+				rec(i + 1)
+				nets = nets[:len(nets)-len(e)]
+			}
+			used[c] = false
+		}
+	}
+	rec(0)
+	return out
+}
