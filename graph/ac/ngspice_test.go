@@ -116,7 +116,7 @@ func parseWrdata(t testing.TB, data []byte) ([]float64, [][]complex128) {
 // deviation returns the dB and degree differences between two responses.
 func deviation(a, b complex128) (dB, deg float64) {
 	dB = math.Abs(20 * math.Log10(cmplx.Abs(a)/cmplx.Abs(b)))
-	deg = math.Abs(cmplx.Phase(a/b)) * 180 / math.Pi
+	deg = phaseDiff(b, a)
 	return
 }
 
