@@ -203,4 +203,3 @@ func TestCompareReducedUnsolvable(t *testing.T) {
 		t.Errorf("worst %s, want the reason", w)
 	}
 }
-
