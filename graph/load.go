@@ -104,14 +104,26 @@ type loader struct {
 	ix   *keyIndex
 	c    *Circuit
 	errs ErrorList
+	bad  map[string]bool // key paths already reported
 }
 
 func (ld *loader) errKey(path, format string, args ...any) {
 	ld.errs.Add(ld.ix.key(path), format, args...)
+	ld.markBad(path)
 }
 
 func (ld *loader) errVal(path, format string, args ...any) {
 	ld.errs.Add(ld.ix.val(path), format, args...)
+	ld.markBad(path)
+}
+
+// markBad remembers that a key was already reported, so that later checks
+// on its value do not pile a follow-on message on top.
+func (ld *loader) markBad(path string) {
+	if ld.bad == nil {
+		ld.bad = map[string]bool{}
+	}
+	ld.bad[path] = true
 }
 
 var topKeys = []string{"title", "note", "band", "inputs", "outputs", "freqs", "regions", "nets", "parts"}
@@ -985,11 +997,11 @@ func (ld *loader) finish() {
 		}
 		checkNet(rp+".input", r.Input, "region input")
 		checkNet(rp+".output", r.Output, "region output")
-		if r.Band.Min <= 0 && r.Band.Max > 0 {
+		if _, given := ld.ix.vals[rp+".band"]; given && !ld.bad[rp+".band"] && r.Band.Min <= 0 {
 			ld.errVal(rp+".band", "region %s: a band must start above 0 Hz", r.Name)
 		}
 	}
-	if c.Band.Max > 0 && c.Band.Min <= 0 {
+	if _, given := ld.ix.vals["band"]; given && !ld.bad["band"] && c.Band.Min <= 0 {
 		ld.errVal("band", "the band must start above 0 Hz (reactances are judged at its low edge)")
 	}
 	for _, n := range c.Nets {
