@@ -1,0 +1,276 @@
+package layout
+
+import (
+	"math"
+
+	"pare/graph"
+	"pare/render/geom"
+	"pare/render/symbol"
+)
+
+// cell is one part made ready for placement, in its own coordinates: the
+// oriented symbol, the local ground and rail symbols at its pins and its
+// label. Everything a cell draws lies inside its footprint, so cells that do
+// not overlap cannot draw over each other.
+type cell struct {
+	part   *graph.Part
+	ref    string
+	shape  symbol.Shape
+	locals []geom.Local
+	label  geom.Label
+	faded  bool
+	col    int
+	edge   int // -1: an input flag at the left edge, +1: an output flag at the right edge
+}
+
+func (c *cell) footprint() geom.Rect {
+	r := c.shape.Box
+	for _, l := range c.locals {
+		r = r.Union(l.Box)
+		for _, s := range l.Stub {
+			r = r.Union(s.Box())
+		}
+	}
+	if len(c.label.Lines) > 0 {
+		r = r.Union(c.label.Box)
+	}
+	return r
+}
+
+func (c *cell) move(d geom.Pt) {
+	c.shape = c.shape.Moved(d)
+	for i := range c.locals {
+		l := &c.locals[i]
+		l.At = l.At.Add(d)
+		l.Box = l.Box.Move(d)
+		l.TextBox = l.TextBox.Move(d)
+		for j := range l.Stub {
+			l.Stub[j].A = l.Stub[j].A.Add(d)
+			l.Stub[j].B = l.Stub[j].B.Add(d)
+		}
+	}
+	c.label.Box = c.label.Box.Move(d)
+}
+
+// obstacle is something a new local symbol or label must keep clear of.
+type obstacles struct {
+	boxes []geom.Rect
+	segs  []geom.Seg
+}
+
+func (o *obstacles) hits(r geom.Rect, stub []geom.Seg) bool {
+	for _, b := range o.boxes {
+		if r.Overlaps(b) {
+			return true
+		}
+		for _, s := range stub {
+			if s.Touches(b.Inset(-0.05)) && s.CutsInterior(b) {
+				return true
+			}
+		}
+	}
+	for _, s := range o.segs {
+		if s.Touches(r) {
+			return true
+		}
+	}
+	return false
+}
+
+// corridor is the space straight out of a wired pin that its wire needs to
+// leave the symbol.
+func corridor(p geom.Pin) geom.Rect {
+	s := p.Dir.Step()
+	end := geom.Pt{X: p.At.X + 2*s.X, Y: p.At.Y + 2*s.Y}
+	r := geom.R(p.At.X, p.At.Y, end.X, end.Y)
+	if s.X != 0 {
+		return geom.Rect{X0: r.X0, Y0: r.Y0 - 0.45, X1: r.X1, Y1: r.Y1 + 0.45}
+	}
+	return geom.Rect{X0: r.X0 - 0.45, Y0: r.Y0, X1: r.X1 + 0.45, Y1: r.Y1}
+}
+
+// railText is what a rail symbol says: the net's label, else its voltage,
+// else its name.
+func railText(n *graph.Net, name string) string {
+	if n != nil && n.Label != "" {
+		return n.Label
+	}
+	if n != nil && n.Volts != 0 {
+		return trimFloat(n.Volts) + " V"
+	}
+	return name
+}
+
+func trimFloat(v float64) string {
+	s := formatG(v)
+	return s
+}
+
+// buildLocals attaches a local symbol to every pin on a ground, supply,
+// heater or bias net: grounds first (they are compact), then rails, each at
+// the shortest stub that keeps clear of everything placed so far.
+func buildLocals(c *graph.Circuit, cl *cell) {
+	obs := &obstacles{boxes: []geom.Rect{cl.shape.Box}}
+	var wired []geom.Pin
+	for _, p := range cl.shape.Pins {
+		if !c.RoleOf(p.Net).IsACGround() {
+			wired = append(wired, p)
+		}
+	}
+	for _, p := range wired {
+		obs.boxes = append(obs.boxes, corridor(p))
+	}
+	for pass := 0; pass < 2; pass++ {
+		for _, p := range cl.shape.Pins {
+			role := c.RoleOf(p.Net)
+			if !role.IsACGround() || (role == graph.Ground) != (pass == 0) {
+				continue
+			}
+			var best *geom.Local
+			for s := 1.0; s <= 6 && best == nil; s++ {
+				for _, l := range localCandidates(c, p, role, s) {
+					if !obs.hits(l.Box.Inset(0.15), l.Stub) {
+						ll := l
+						best = &ll
+						break
+					}
+				}
+			}
+			if best == nil {
+				l := localCandidates(c, p, role, 6)[0]
+				best = &l
+			}
+			best.Owner, best.Faded = cl.ref, cl.faded
+			cl.locals = append(cl.locals, *best)
+			obs.boxes = append(obs.boxes, best.Box)
+			obs.segs = append(obs.segs, best.Stub...)
+		}
+	}
+}
+
+// localCandidates lists the ways a local symbol can hang from pin p with a
+// stub of length s, best first.
+func localCandidates(c *graph.Circuit, p geom.Pin, role graph.Role, s float64) []geom.Local {
+	step := p.Dir.Step()
+	end := geom.Pt{X: p.At.X + s*step.X, Y: p.At.Y + s*step.Y}
+	base := geom.Local{Net: p.Net, Pin: p.Name, Side: p.Dir}
+	if role == graph.Ground {
+		l := base
+		l.Kind = geom.LocalGround
+		switch p.Dir {
+		case geom.Down:
+			l.Stub = []geom.Seg{{A: p.At, B: end}}
+			l.At, l.Down = end, true
+		case geom.Up:
+			l.Stub = []geom.Seg{{A: p.At, B: end}}
+			l.At = end
+		default:
+			at := geom.Pt{X: end.X, Y: end.Y + 1}
+			l.Stub = []geom.Seg{{A: p.At, B: end}, {A: end, B: at}}
+			l.At, l.Down = at, true
+		}
+		_, l.Box = symbol.Ground(l.At, !l.Down)
+		return []geom.Local{l}
+	}
+	text := railText(c.Net(p.Net), p.Net)
+	w := symbol.TextWidth(text) * symbol.SmallScale
+	h := symbol.LineH * symbol.SmallScale
+	l := base
+	l.Kind, l.Text, l.At = geom.LocalRail, text, end
+	l.Stub = []geom.Seg{{A: p.At, B: end}}
+	switch p.Dir {
+	case geom.Up, geom.Down:
+		bar := geom.R(end.X-0.6, end.Y-0.1, end.X+0.6, end.Y+0.1)
+		sgn := -1.0
+		if p.Dir == geom.Down {
+			sgn, l.Down = 1, true
+		}
+		y0 := end.Y + sgn*0.25
+		y1 := y0 + sgn*h
+		centred := l
+		centred.TextBox = geom.R(end.X-w/2, y0, end.X+w/2, y1)
+		centred.Box = bar.Union(centred.TextBox)
+		// beside the bar, reading away from the stub
+		right := l
+		right.Side = geom.Right
+		right.TextBox = geom.R(end.X+0.8, end.Y-h/2, end.X+0.8+w, end.Y+h/2)
+		right.Box = bar.Union(right.TextBox)
+		left := l
+		left.Side = geom.Left
+		left.TextBox = geom.R(end.X-0.8-w, end.Y-h/2, end.X-0.8, end.Y+h/2)
+		left.Box = bar.Union(left.TextBox)
+		return []geom.Local{centred, right, left}
+	}
+	bar := geom.R(end.X-0.1, end.Y-0.6, end.X+0.1, end.Y+0.6)
+	if p.Dir == geom.Right {
+		l.TextBox = geom.R(end.X+0.3, end.Y-h/2, end.X+0.3+w, end.Y+h/2)
+	} else {
+		l.TextBox = geom.R(end.X-0.3-w, end.Y-h/2, end.X-0.3, end.Y+h/2)
+	}
+	l.Box = bar.Union(l.TextBox)
+	return []geom.Local{l}
+}
+
+// placeLabel puts the cell's label at the first candidate position that
+// clears the symbol, its locals and its pins' wire corridors: a small
+// version of candidate-position label placement (Christensen, Marks and
+// Shieber 1995), with candidates ordered by the trade's habit (beside a
+// vertical part, above a horizontal one).
+func placeLabel(c *graph.Circuit, cl *cell, prefer []geom.Dir) {
+	if len(cl.label.Lines) == 0 {
+		return
+	}
+	obs := &obstacles{boxes: []geom.Rect{cl.shape.Box}}
+	for _, p := range cl.shape.Pins {
+		if !c.RoleOf(p.Net).IsACGround() {
+			obs.boxes = append(obs.boxes, corridor(p))
+		}
+	}
+	for _, l := range cl.locals {
+		obs.boxes = append(obs.boxes, l.Box)
+		obs.segs = append(obs.segs, l.Stub...)
+	}
+	w, h := 0.0, 0.0
+	for i, line := range cl.label.Lines {
+		lw := symbol.TextWidth(line)
+		if i > 0 {
+			lw *= symbol.SmallScale
+		}
+		w = math.Max(w, lw)
+		h += symbol.LineH
+	}
+	b := cl.shape.Box
+	cx, cy := (b.X0+b.X1)/2, (b.Y0+b.Y1)/2
+	for gap := 0.4; gap < 12; gap += 1 {
+		for _, d := range prefer {
+			var r geom.Rect
+			switch d {
+			case geom.Right:
+				r = geom.Rect{X0: b.X1 + gap, Y0: cy - h/2, X1: b.X1 + gap + w, Y1: cy + h/2}
+			case geom.Left:
+				r = geom.Rect{X0: b.X0 - gap - w, Y0: cy - h/2, X1: b.X0 - gap, Y1: cy + h/2}
+			case geom.Up:
+				r = geom.Rect{X0: cx - w/2, Y0: b.Y0 - gap - h, X1: cx + w/2, Y1: b.Y0 - gap}
+			case geom.Down:
+				r = geom.Rect{X0: cx - w/2, Y0: b.Y1 + gap, X1: cx + w/2, Y1: b.Y1 + gap + h}
+			}
+			if !obs.hits(r.Inset(0.2), nil) {
+				cl.label.Box = r
+				return
+			}
+		}
+		// active parts: try the corners above the symbol too
+		if cl.part != nil && cl.part.IsActive() {
+			for _, r := range []geom.Rect{
+				{X0: b.X0 - gap - w, Y0: b.Y0, X1: b.X0 - gap, Y1: b.Y0 + h},
+				{X0: b.X1 + gap, Y0: b.Y0, X1: b.X1 + gap + w, Y1: b.Y0 + h},
+			} {
+				if !obs.hits(r.Inset(0.2), nil) {
+					cl.label.Box = r
+					return
+				}
+			}
+		}
+	}
+	cl.label.Box = geom.Rect{X0: b.X1 + 12, Y0: cy - h/2, X1: b.X1 + 12 + w, Y1: cy + h/2}
+}

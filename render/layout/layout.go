@@ -1,0 +1,581 @@
+// Package layout places a circuit's symbols on the grid and routes its wires,
+// producing the geometry (package geom) that the renderer draws and the
+// checker measures.
+//
+// The method is pare's own arrangement of published ones. Parts are put in
+// layers along the signal flow, input on the left (layered placement after
+// Sugiyama, Tagawa and Toda 1981): a breadth-first rank from the input nets,
+// grouped by stage when stage frames are given, ordered inside each layer by
+// the barycentre of their neighbours, and given vertical positions that line
+// each part's signal pin up with the part it comes from (a greedy form of the
+// alignment in Brandes and Köpf 2001). Ground and rail connections become
+// local symbols at the pins, as technicians draw them, so only signal nets are
+// wired. Wires are routed on the grid by A* search (Lee 1961 with a
+// heuristic) with costs for bends and crossings, nets with the most pins
+// first, with one round of rip-up and reroute; a net that still cannot be
+// wired is drawn with net-name flags at its pins.
+package layout
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/value"
+	"pare/render/geom"
+	"pare/render/symbol"
+)
+
+// Frame is a stage to be framed: its title lines and the refs it holds.
+type Frame struct {
+	Title, Subtitle string
+	Parts           []string
+}
+
+// Options says what to draw.
+type Options struct {
+	Style symbol.Style
+	// Faded refs are drawn faded; Merged maps a ref to the part it went into.
+	Faded  map[string]bool
+	Merged map[string]string
+	Frames []Frame
+	// Links draws ganged sections joined by a dashed mechanical link.
+	Links bool
+}
+
+// Placed is a symbol at its place on the sheet, for the renderer.
+type Placed struct {
+	Ref   string
+	Part  *graph.Part // nil for the sheet's own input and output flags
+	Shape symbol.Shape
+	Faded bool
+}
+
+// Result is a laid-out sheet.
+type Result struct {
+	Geom   geom.Sheet
+	Placed []Placed
+}
+
+func formatG(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
+// Terminal refs are the flags pare adds for input and output nets that have
+// no port part; the prefix cannot occur in a netlist ref.
+const (
+	inRef  = "@in:"
+	outRef = "@out:"
+)
+
+// Layout places and routes the circuit.
+func Layout(c *graph.Circuit, o Options) (*Result, error) {
+	if c == nil {
+		return nil, fmt.Errorf("layout: no circuit")
+	}
+	cells := makeCells(c, o)
+	if len(cells) == 0 {
+		return &Result{}, nil
+	}
+	ly := &state{c: c, o: o, cells: cells}
+	ly.rank()
+	ly.orient()
+	for _, cl := range ly.cells {
+		buildLocals(c, cl)
+		placeLabel(c, cl, labelPrefs(cl))
+	}
+	ly.place()
+	res := &Result{}
+	for _, cl := range ly.cells {
+		res.Placed = append(res.Placed, Placed{Ref: cl.ref, Part: realPart(cl), Shape: cl.shape, Faded: cl.faded})
+		res.Geom.Symbols = append(res.Geom.Symbols, geom.Symbol{Ref: cl.ref, Box: cl.shape.Box, Pins: cl.shape.Pins, Faded: cl.faded})
+		res.Geom.Locals = append(res.Geom.Locals, cl.locals...)
+		if len(cl.label.Lines) > 0 {
+			res.Geom.Labels = append(res.Geom.Labels, cl.label)
+		}
+	}
+	res.Geom.Frames = ly.frames
+	for _, f := range ly.frames {
+		res.Geom.Labels = append(res.Geom.Labels, f.Title)
+	}
+	rt := newRouter(ly)
+	rt.routeAll()
+	rt.emit(&res.Geom)
+	if o.Links {
+		res.Geom.Links = ly.links(&res.Geom)
+	}
+	b := geom.Rect{}
+	for _, s := range res.Geom.Symbols {
+		b = b.Union(s.Box)
+	}
+	for _, l := range res.Geom.Locals {
+		b = b.Union(l.Box)
+	}
+	for _, l := range res.Geom.Labels {
+		b = b.Union(l.Box)
+	}
+	for _, w := range res.Geom.Wires {
+		for _, s := range w.Segs {
+			b = b.Union(s.Box())
+		}
+	}
+	for _, f := range res.Geom.Frames {
+		b = b.Union(f.Box)
+	}
+	res.Geom.Bounds = b
+	return res, nil
+}
+
+func realPart(cl *cell) *graph.Part {
+	if strings.HasPrefix(cl.ref, "@") {
+		return nil
+	}
+	return cl.part
+}
+
+// makeCells makes a cell for every part, plus input and output flags for
+// signal nets named in Inputs and Outputs that no port part sits on.
+func makeCells(c *graph.Circuit, o Options) []*cell {
+	var out []*cell
+	ported := map[string]bool{}
+	for _, p := range c.Parts {
+		if p.Kind == graph.Port {
+			for _, pn := range p.Pins {
+				ported[pn.Net] = true
+			}
+		}
+	}
+	for _, p := range c.Parts {
+		cl := &cell{part: p, ref: p.Ref, faded: o.Faded[p.Ref]}
+		cl.label.Owner, cl.label.Faded = p.Ref, cl.faded
+		cl.label.Lines = labelLines(p, o)
+		out = append(out, cl)
+	}
+	term := func(prefix, net string, in bool) {
+		if ported[net] || c.RoleOf(net).IsACGround() {
+			return
+		}
+		ported[net] = true
+		text := net
+		if n := c.Net(net); n != nil && n.Label != "" {
+			text = n.Label
+		}
+		p := &graph.Part{Ref: prefix + net, Kind: graph.Port, Label: text, Pins: []graph.Pin{{Name: "1", Net: net}}}
+		cl := &cell{part: p, ref: p.Ref, edge: 1}
+		if in {
+			cl.edge = -1
+		}
+		out = append(out, cl)
+	}
+	for _, n := range c.Inputs {
+		term(inRef, n, true)
+	}
+	for _, n := range c.Outputs {
+		term(outRef, n, false)
+	}
+	return out
+}
+
+// labelLines is the text beside a symbol: ref and value in the IEC 60062
+// letter code, then a small line with the gang and where a merged part went.
+func labelLines(p *graph.Part, o Options) []string {
+	first := p.Ref
+	add := func(s string) {
+		if s != "" {
+			first += " " + s
+		}
+	}
+	switch p.Kind {
+	case graph.Resistor, graph.Pot:
+		add(value.FormatRange(p.Value, value.Ohm, value.Code))
+	case graph.Capacitor:
+		add(value.FormatRange(p.Value, value.Farad, value.Code))
+	case graph.Inductor:
+		add(value.Format(p.Inductance(), value.Henry, value.Code))
+	case graph.Crystal:
+		add(value.Format(p.Value.Max, value.Hertz, value.Code))
+	case graph.Transformer:
+		ks := []string{}
+		for _, k := range p.Coupling {
+			ks = append(ks, "k="+formatG(k.K))
+		}
+		if len(ks) > 0 && len(ks) <= 2 {
+			add(strings.Join(dedupe(ks), " "))
+		}
+	case graph.Valve, graph.BJT, graph.FET:
+		add(p.Type)
+	case graph.Switch:
+		if p.Set > 0 {
+			add("pos " + formatG(p.Set))
+		}
+	case graph.Generic:
+		add(p.Label)
+	case graph.Port:
+		return nil
+	}
+	var second []string
+	if p.Gang != "" {
+		second = append(second, "gang "+p.Gang)
+	}
+	if to, ok := o.Merged[p.Ref]; ok && to != p.Ref {
+		second = append(second, "\u2192 "+to)
+	}
+	if len(second) > 0 {
+		return []string{first, strings.Join(second, ", ")}
+	}
+	return []string{first}
+}
+
+func dedupe(s []string) []string {
+	out := s[:0]
+	for i, v := range s {
+		if i == 0 || v != s[i-1] {
+			out = append(out, v)
+		}
+	}
+	return out
+}
+
+// labelPrefs orders the label candidates: beside vertical parts, above
+// horizontal ones, and away from the side most pins leave on.
+func labelPrefs(cl *cell) []geom.Dir {
+	if cl.part != nil && cl.part.IsActive() {
+		return []geom.Dir{geom.Up, geom.Down, geom.Right, geom.Left}
+	}
+	b := cl.shape.Box
+	if b.H() > b.W() {
+		return []geom.Dir{geom.Right, geom.Left, geom.Up, geom.Down}
+	}
+	return []geom.Dir{geom.Up, geom.Down, geom.Right, geom.Left}
+}
+
+// state is the layout in progress.
+type state struct {
+	c        *graph.Circuit
+	o        Options
+	cells    []*cell
+	rankOf   map[string]int // ref -> layer rank
+	netCol   map[string]float64
+	stageOf  map[string]int
+	netCount map[string]int
+	frames   []geom.Frame
+}
+
+// signalNets of a cell: the nets of its pins that are wired.
+func (ly *state) signalNets(cl *cell) []string {
+	var out []string
+	for _, pn := range cl.part.Pins {
+		if !ly.c.RoleOf(pn.Net).IsACGround() {
+			out = append(out, pn.Net)
+		}
+	}
+	return out
+}
+
+// rank gives every cell a layer: the breadth-first distance from the input
+// nets over shared signal nets. Pieces the inputs do not reach continue to
+// the right; parts with no signal net sit next to a part sharing a rail.
+func (ly *state) rank() {
+	byNet := map[string][]*cell{}
+	var netNames []string
+	for _, cl := range ly.cells {
+		for _, n := range ly.signalNets(cl) {
+			if _, ok := byNet[n]; !ok {
+				netNames = append(netNames, n)
+			}
+			byNet[n] = append(byNet[n], cl)
+		}
+	}
+	sort.Strings(netNames)
+	rank := map[string]int{}
+	var queue []*cell
+	seed := func(cl *cell, r int) {
+		if _, ok := rank[cl.ref]; ok {
+			return
+		}
+		rank[cl.ref] = r
+		queue = append(queue, cl)
+	}
+	drain := func() int {
+		maxR := 0
+		for len(queue) > 0 {
+			cl := queue[0]
+			queue = queue[1:]
+			r := rank[cl.ref]
+			maxR = max(maxR, r)
+			for _, n := range ly.signalNets(cl) {
+				for _, nb := range byNet[n] {
+					seed(nb, r+1)
+				}
+			}
+		}
+		return maxR
+	}
+	for _, in := range ly.c.Inputs {
+		for _, cl := range byNet[in] {
+			if cl.edge < 0 || cl.part.Kind == graph.Port {
+				seed(cl, 0)
+			}
+		}
+		for _, cl := range byNet[in] {
+			seed(cl, 1)
+		}
+	}
+	next := drain() + 1
+	for _, cl := range ly.cells {
+		if _, ok := rank[cl.ref]; !ok && len(ly.signalNets(cl)) > 0 {
+			seed(cl, next)
+			next = drain() + 1
+		}
+	}
+	// parts on rails only: beside the lowest-ranked part sharing a non-ground net
+	railNets := map[string][]*cell{}
+	for _, cl := range ly.cells {
+		for _, pn := range cl.part.Pins {
+			if ly.c.RoleOf(pn.Net) != graph.Ground {
+				railNets[pn.Net] = append(railNets[pn.Net], cl)
+			}
+		}
+	}
+	for _, cl := range ly.cells {
+		if _, ok := rank[cl.ref]; ok {
+			continue
+		}
+		best := -1
+		for _, pn := range cl.part.Pins {
+			for _, nb := range railNets[pn.Net] {
+				if r, ok := rank[nb.ref]; ok && nb != cl && (best < 0 || r < best) {
+					best = r
+				}
+			}
+		}
+		if best < 0 {
+			best = 0
+		}
+		rank[cl.ref] = best
+	}
+	ly.rankOf = rank
+	// Output flags and ports on output nets go to the right edge, ports on
+	// input nets to the left; other ports by the side their net is nearer.
+	maxRank := 0
+	for _, r := range rank {
+		maxRank = max(maxRank, r)
+	}
+	outputs := map[string]bool{}
+	for _, n := range ly.c.Outputs {
+		outputs[n] = true
+	}
+	inputs := map[string]bool{}
+	for _, n := range ly.c.Inputs {
+		inputs[n] = true
+	}
+	for _, cl := range ly.cells {
+		if cl.part.Kind != graph.Port || cl.edge != 0 {
+			continue
+		}
+		net := cl.part.Pins[0].Net
+		switch {
+		case inputs[net]:
+			cl.edge = -1
+		case outputs[net]:
+			cl.edge = 1
+		default:
+			lo := maxRank
+			for _, nb := range byNet[net] {
+				if nb != cl {
+					lo = min(lo, rank[nb.ref])
+				}
+			}
+			if len(byNet[net]) <= 1 || 2*lo <= maxRank {
+				cl.edge = -1
+			} else {
+				cl.edge = 1
+			}
+		}
+	}
+	ly.assignColumns()
+}
+
+// assignColumns turns ranks (and stages, when frames are given) into columns.
+func (ly *state) assignColumns() {
+	stage := map[string]int{}
+	for i, f := range ly.o.Frames {
+		for _, r := range f.Parts {
+			if _, ok := stage[r]; !ok {
+				stage[r] = i
+			}
+		}
+	}
+	stageOf := func(cl *cell) (int, bool) {
+		if s, ok := stage[cl.ref]; ok {
+			return s, true
+		}
+		if to, ok := ly.o.Merged[cl.ref]; ok {
+			if s, ok := stage[to]; ok {
+				return s, true
+			}
+		}
+		return 0, false
+	}
+	st := map[string]int{}
+	if len(ly.o.Frames) > 0 {
+		// unframed parts join the stage of their nearest framed neighbour
+		byNet := map[string][]*cell{}
+		for _, cl := range ly.cells {
+			for _, n := range ly.signalNets(cl) {
+				byNet[n] = append(byNet[n], cl)
+			}
+		}
+		var queue []*cell
+		for _, cl := range ly.cells {
+			if s, ok := stageOf(cl); ok && cl.part.Kind != graph.Port {
+				st[cl.ref] = s
+				queue = append(queue, cl)
+			}
+		}
+		for len(queue) > 0 {
+			cl := queue[0]
+			queue = queue[1:]
+			for _, n := range ly.signalNets(cl) {
+				for _, nb := range byNet[n] {
+					if _, ok := st[nb.ref]; !ok && nb.edge == 0 {
+						st[nb.ref] = st[cl.ref]
+						queue = append(queue, nb)
+					}
+				}
+			}
+		}
+	}
+	type key struct{ stage, rank int }
+	keys := map[key]bool{}
+	for _, cl := range ly.cells {
+		if cl.edge != 0 {
+			continue
+		}
+		keys[key{st[cl.ref], ly.rankOf[cl.ref]}] = true
+	}
+	list := make([]key, 0, len(keys))
+	for k := range keys {
+		list = append(list, k)
+	}
+	sort.Slice(list, func(i, j int) bool {
+		if list[i].stage != list[j].stage {
+			return list[i].stage < list[j].stage
+		}
+		return list[i].rank < list[j].rank
+	})
+	colOf := map[key]int{}
+	for i, k := range list {
+		colOf[k] = i + 1
+	}
+	for _, cl := range ly.cells {
+		switch cl.edge {
+		case -1:
+			cl.col = 0
+		case 1:
+			cl.col = len(list) + 1
+		default:
+			cl.col = colOf[key{st[cl.ref], ly.rankOf[cl.ref]}]
+		}
+	}
+	ly.netCol = map[string]float64{}
+	sum, cnt := map[string]float64{}, map[string]float64{}
+	ly.netCount = map[string]int{}
+	for _, cl := range ly.cells {
+		for _, pn := range cl.part.Pins {
+			sum[pn.Net] += float64(cl.col)
+			cnt[pn.Net]++
+			ly.netCount[pn.Net]++
+		}
+	}
+	for n, s := range sum {
+		ly.netCol[n] = s / cnt[n]
+	}
+	ly.stageOf = st
+}
+
+// orient picks each cell's orientation by scoring where its pins point:
+// ground and bias down, rails up, signal pins towards the parts they lead to.
+func (ly *state) orient() {
+	for _, cl := range ly.cells {
+		base := symbol.For(cl.part, ly.o.Style)
+		if cl.part.Kind == graph.Port {
+			in := cl.edge <= 0
+			base = symbol.Flag(cl.part.Label, in)
+			for i := range base.Pins {
+				base.Pins[i].Net = cl.part.Pins[0].Net
+			}
+			cl.shape = base
+			continue
+		}
+		best, bestScore := base, math.Inf(-1)
+		for _, o := range base.Turns {
+			s := base.Oriented(o)
+			score := ly.score(cl, s)
+			if score > bestScore+1e-9 {
+				best, bestScore = s, score
+			}
+		}
+		cl.shape = best
+	}
+}
+
+func (ly *state) score(cl *cell, s symbol.Shape) float64 {
+	score := 0.0
+	horizontalSignal := 0
+	signal := 0
+	for _, p := range s.Pins {
+		switch ly.c.RoleOf(p.Net) {
+		case graph.Ground, graph.Bias:
+			switch p.Dir {
+			case geom.Down:
+				score += 4
+			case geom.Up:
+				score -= 4
+			default:
+				score -= 1
+			}
+		case graph.Supply, graph.Heater:
+			switch p.Dir {
+			case geom.Up:
+				score += 4
+			case geom.Down:
+				score -= 4
+			default:
+				score -= 1
+			}
+		default:
+			signal++
+			// the mean column of the net without this part
+			n := ly.netCol[p.Net]
+			here := float64(cl.col)
+			others := float64(ly.netCount[p.Net] - 1)
+			if others > 0 {
+				tot := n*(others+1) - here
+				n = tot / others
+			}
+			switch {
+			case n < here-0.01:
+				if p.Dir == geom.Left {
+					score += 2
+				} else if p.Dir == geom.Right {
+					score -= 2
+				}
+			case n > here+0.01:
+				if p.Dir == geom.Right {
+					score += 2
+				} else if p.Dir == geom.Left {
+					score -= 2
+				}
+			}
+			if p.Dir == geom.Left || p.Dir == geom.Right {
+				horizontalSignal++
+			}
+		}
+	}
+	if signal == len(s.Pins) && horizontalSignal == signal {
+		score += 1 // a part in the signal path lies along it
+	}
+	return score
+}

@@ -1,0 +1,388 @@
+package layout
+
+import (
+	"math"
+	"sort"
+
+	"pare/graph"
+	"pare/render/geom"
+	"pare/render/symbol"
+)
+
+// Spacing, in grid steps.
+const (
+	rowGap    = 3 // between blocks stacked in a column
+	colGap    = 3 // least gap between columns, before routing tracks
+	stageGap  = 3 // extra gap between stage frames
+	framePad  = 1 // frame margin round its parts
+	blockGap  = 1 // between the parts of one block (a tuned circuit's L and C)
+	maxTracks = 8 // routing tracks reserved between columns, at most
+)
+
+// block is one or more cells placed as a unit: a single part, or parts in
+// parallel across the same two nets standing side by side (a tuned
+// circuit's L and C, a cathode resistor and its bypass).
+type block struct {
+	cells []*cell
+	col   int
+	fp    geom.Rect // footprint in block coordinates
+	pos   float64   // barycentre key while ordering
+}
+
+func isVertical(cl *cell) bool {
+	if len(cl.shape.Pins) != 2 {
+		return false
+	}
+	return cl.shape.Pins[0].At.X == cl.shape.Pins[1].At.X
+}
+
+func pairKey(cl *cell) string {
+	a, b := cl.shape.Pins[0].Net, cl.shape.Pins[1].Net
+	if cl.shape.Pins[0].At.Y > cl.shape.Pins[1].At.Y {
+		a, b = b, a
+	}
+	return a + "\x00" + b
+}
+
+func (ly *state) blocks() [][]*block {
+	nCols := 0
+	for _, cl := range ly.cells {
+		nCols = max(nCols, cl.col+1)
+	}
+	cols := make([][]*block, nCols)
+	group := map[string]*block{}
+	for _, cl := range ly.cells {
+		if cl.edge == 0 && isVertical(cl) && cl.part.Kind != graph.Port {
+			k := string(rune(cl.col)) + pairKey(cl)
+			if b, ok := group[k]; ok && len(b.cells) < 4 {
+				b.cells = append(b.cells, cl)
+				continue
+			}
+			b := &block{cells: []*cell{cl}, col: cl.col}
+			group[k] = b
+			cols[cl.col] = append(cols[cl.col], b)
+			continue
+		}
+		cols[cl.col] = append(cols[cl.col], &block{cells: []*cell{cl}, col: cl.col})
+	}
+	for _, col := range cols {
+		for _, b := range col {
+			ly.arrange(b)
+		}
+	}
+	return cols
+}
+
+// arrange sets the cells of a block side by side, labels outwards: the first
+// part's label on its left, the last one's on its right.
+func (ly *state) arrange(b *block) {
+	if len(b.cells) > 1 {
+		// inductors first, then capacitors, then the rest: the tank reads L, C
+		rank := func(cl *cell) int {
+			switch cl.part.Kind {
+			case graph.Inductor:
+				return 0
+			case graph.Capacitor:
+				return 1
+			}
+			return 2
+		}
+		sort.SliceStable(b.cells, func(i, j int) bool { return rank(b.cells[i]) < rank(b.cells[j]) })
+		for i, cl := range b.cells {
+			switch {
+			case i == 0:
+				placeLabel(ly.c, cl, []geom.Dir{geom.Left, geom.Up, geom.Down, geom.Right})
+			case i == len(b.cells)-1:
+				placeLabel(ly.c, cl, []geom.Dir{geom.Right, geom.Up, geom.Down, geom.Left})
+			default:
+				placeLabel(ly.c, cl, []geom.Dir{geom.Down, geom.Up, geom.Right, geom.Left})
+			}
+		}
+	}
+	x := 0.0
+	b.fp = geom.Rect{}
+	for i, cl := range b.cells {
+		fp := cl.footprint()
+		if i > 0 {
+			dx := math.Ceil(x + blockGap - fp.X0)
+			cl.move(geom.Pt{X: dx})
+			fp = cl.footprint()
+		}
+		x = fp.X1
+		b.fp = b.fp.Union(fp)
+	}
+}
+
+func (b *block) move(d geom.Pt) {
+	for _, cl := range b.cells {
+		cl.move(d)
+	}
+	b.fp = b.fp.Move(d)
+}
+
+// place orders the blocks in each column, then gives columns their x and
+// blocks their y, and draws the stage frames round their parts.
+func (ly *state) place() {
+	cols := ly.blocks()
+	ly.order(cols)
+	// routing tracks between columns: one per net that spans the gap
+	lo, hi := map[string]int{}, map[string]int{}
+	for _, cl := range ly.cells {
+		for _, n := range ly.signalNets(cl) {
+			if v, ok := lo[n]; !ok || cl.col < v {
+				lo[n] = cl.col
+			}
+			if v, ok := hi[n]; !ok || cl.col > v {
+				hi[n] = cl.col
+			}
+		}
+	}
+	spans := make([]int, len(cols)+1)
+	for n, l := range lo {
+		spans[l]++
+		spans[hi[n]]--
+	}
+	colStage := make([]int, len(cols))
+	for i, col := range cols {
+		colStage[i] = -1
+		for _, b := range col {
+			if s, ok := ly.stageOf[b.cells[0].ref]; ok && b.cells[0].edge == 0 && len(ly.o.Frames) > 0 {
+				colStage[i] = s
+			}
+		}
+	}
+	x := 0.0
+	running := 0
+	stageStart := map[int]float64{}
+	for i, col := range cols {
+		w := 0.0
+		for _, b := range col {
+			w = math.Max(w, b.fp.W())
+		}
+		if s := colStage[i]; s >= 0 {
+			if _, ok := stageStart[s]; !ok {
+				stageStart[s] = x
+			}
+		}
+		for _, b := range col {
+			dx := math.Round(x + (w-b.fp.W())/2 - b.fp.X0)
+			b.move(geom.Pt{X: dx})
+		}
+		running += spans[i]
+		gap := float64(colGap + min(running, maxTracks))
+		if i+1 < len(cols) && colStage[i] != colStage[i+1] {
+			gap += stageGap
+			if s := colStage[i]; s >= 0 {
+				// leave room for a frame title wider than its parts
+				tw := titleWidth(ly.o.Frames[s])
+				if have := x + w - stageStart[s]; tw > have {
+					gap += math.Ceil(tw - have)
+				}
+			}
+		}
+		x += w + gap
+	}
+	// y: line each block's first wired pin up with a pin already placed on
+	// the same net, else stack; blocks in a column keep their order
+	pinY := map[string]float64{}
+	for _, col := range cols {
+		bottom := math.Inf(-1)
+		for _, b := range col {
+			want, found := 0.0, false
+			for _, d := range []geom.Dir{geom.Left, geom.Up, geom.Down, geom.Right} {
+				for _, cl := range b.cells {
+					for _, p := range cl.shape.Pins {
+						if p.Dir != d || found {
+							continue
+						}
+						if y, ok := pinY[p.Net]; ok && !ly.c.RoleOf(p.Net).IsACGround() {
+							want, found = y-p.At.Y, true
+						}
+					}
+				}
+			}
+			dy := math.Round(want)
+			if b.fp.Y0+dy < bottom+rowGap {
+				dy = math.Ceil(bottom + rowGap - b.fp.Y0)
+			}
+			b.move(geom.Pt{Y: dy})
+			bottom = b.fp.Y1
+			for _, cl := range b.cells {
+				for _, p := range cl.shape.Pins {
+					if _, ok := pinY[p.Net]; !ok {
+						pinY[p.Net] = p.At.Y
+					}
+				}
+			}
+		}
+	}
+	ly.makeFrames()
+}
+
+func titleWidth(f Frame) float64 {
+	return math.Max(symbol.TextWidth(f.Title), symbol.TextWidth(f.Subtitle)*symbol.SmallScale) + 2*framePad
+}
+
+// order sorts the blocks of each column by the barycentre of their
+// neighbours in the columns before (sweeping right) and after (sweeping
+// left), the crossing reduction of layered drawing.
+func (ly *state) order(cols [][]*block) {
+	blockOf := map[string]*block{}
+	for _, col := range cols {
+		kind := func(b *block) int {
+			cl := b.cells[0]
+			switch {
+			case cl.part.IsActive():
+				return 0
+			case !isVertical(cl):
+				return 1
+			}
+			return 2
+		}
+		sort.SliceStable(col, func(i, j int) bool { return kind(col[i]) < kind(col[j]) })
+		for i, b := range col {
+			b.pos = float64(i)
+			for _, cl := range b.cells {
+				blockOf[cl.ref] = b
+			}
+		}
+	}
+	byNet := map[string][]*block{}
+	var nets []string
+	for _, col := range cols {
+		for _, b := range col {
+			for _, cl := range b.cells {
+				for _, n := range ly.signalNets(cl) {
+					if _, ok := byNet[n]; !ok {
+						nets = append(nets, n)
+					}
+					byNet[n] = append(byNet[n], b)
+				}
+			}
+		}
+	}
+	sort.Strings(nets)
+	sweep := func(i, from int) {
+		col := cols[i]
+		if len(col) < 2 {
+			return
+		}
+		key := make(map[*block]float64, len(col))
+		for _, b := range col {
+			sum, n := 0.0, 0.0
+			for _, cl := range b.cells {
+				for _, net := range ly.signalNets(cl) {
+					for _, nb := range byNet[net] {
+						if nb.col == from {
+							sum += nb.pos
+							n++
+						}
+					}
+				}
+			}
+			if n > 0 {
+				key[b] = sum / n
+			} else {
+				key[b] = b.pos
+			}
+		}
+		sort.SliceStable(col, func(a, c int) bool { return key[col[a]] < key[col[c]] })
+		for k, b := range col {
+			b.pos = float64(k)
+		}
+	}
+	for it := 0; it < 2; it++ {
+		for i := 1; i < len(cols); i++ {
+			sweep(i, i-1)
+		}
+		for i := len(cols) - 2; i >= 0; i-- {
+			sweep(i, i+1)
+		}
+	}
+}
+
+// makeFrames draws a frame round each stage's parts with its title inside
+// the top edge.
+func (ly *state) makeFrames() {
+	for i, f := range ly.o.Frames {
+		b := geom.Rect{}
+		for _, cl := range ly.cells {
+			if s, ok := ly.stageOf[cl.ref]; ok && s == i && cl.edge == 0 {
+				b = b.Union(cl.footprint())
+			}
+		}
+		if b == (geom.Rect{}) {
+			continue
+		}
+		lines := []string{f.Title}
+		if f.Subtitle != "" {
+			lines = append(lines, f.Subtitle)
+		}
+		h := symbol.LineH * float64(len(lines))
+		w := titleWidth(f) - 2*framePad
+		title := geom.Label{Owner: "frame:" + f.Title, Lines: lines, Small: true,
+			Box: geom.Rect{X0: b.X0, Y0: b.Y0 - 1 - h, X1: b.X0 + w, Y1: b.Y0 - 1}}
+		box := b.Union(title.Box).Inset(framePad)
+		ly.frames = append(ly.frames, geom.Frame{Box: box, Title: title})
+	}
+}
+
+// links joins ganged sections by a dashed line where one can be drawn clear
+// of every symbol, label and local symbol; the gang is named in the labels
+// in any case.
+func (ly *state) links(g *geom.Sheet) []geom.Link {
+	byGang := map[string][]*cell{}
+	var names []string
+	for _, cl := range ly.cells {
+		if p := realPart(cl); p != nil && p.Gang != "" {
+			if _, ok := byGang[p.Gang]; !ok {
+				names = append(names, p.Gang)
+			}
+			byGang[p.Gang] = append(byGang[p.Gang], cl)
+		}
+	}
+	sort.Strings(names)
+	var out []geom.Link
+	for _, name := range names {
+		cs := byGang[name]
+		for i := 0; i+1 < len(cs); i++ {
+			a, b := cs[i], cs[i+1]
+			pa := center(a.shape.Box)
+			pb := center(b.shape.Box)
+			for _, path := range [][]geom.Pt{
+				{pa, {X: pb.X, Y: pa.Y}, pb},
+				{pa, {X: pa.X, Y: pb.Y}, pb},
+			} {
+				if ly.linkClear(g, path, a.ref, b.ref) {
+					out = append(out, geom.Link{Name: name, Path: path})
+					break
+				}
+			}
+		}
+	}
+	return out
+}
+
+func center(r geom.Rect) geom.Pt { return geom.Pt{X: (r.X0 + r.X1) / 2, Y: (r.Y0 + r.Y1) / 2} }
+
+func (ly *state) linkClear(g *geom.Sheet, path []geom.Pt, a, b string) bool {
+	for k := 0; k+1 < len(path); k++ {
+		s := geom.Seg{A: path[k], B: path[k+1]}
+		for _, sym := range g.Symbols {
+			if sym.Ref != a && sym.Ref != b && s.Touches(sym.Box) {
+				return false
+			}
+		}
+		for _, l := range g.Labels {
+			if s.Touches(l.Box) {
+				return false
+			}
+		}
+		for _, l := range g.Locals {
+			if s.Touches(l.Box) {
+				return false
+			}
+		}
+	}
+	return true
+}
