@@ -112,62 +112,73 @@ func (s *keyScanner) comment() string {
 func (s *keyScanner) document() {
 	table := ""
 	for s.i < len(s.src) {
-		s.skipSpace()
-		switch r := s.peek(); {
-		case r == '\n':
-			if len(s.pending) > 0 && len(s.ix.keys) == 0 && s.blankLine() {
-				// Comments at the top of the file, parted from the first key by
-				// a blank line, describe the file: they stay at the top.
-				s.ix.comments[HeaderComment] = Comment{Above: s.pending}
-				s.pending = nil
-			}
+		start := s.i
+		table = s.statement(table)
+		if s.i == start {
+			// Nothing understood here (a NUL, a stray bracket after a string
+			// form the scanner misread): step over it rather than loop.
 			s.next()
-			continue
-		case r == '#':
-			s.pending = append(s.pending, s.comment())
-			continue
-		case r == '[':
-			at := s.pos()
-			s.next()
-			arr := false
-			if s.peek() == '[' {
-				s.next()
-				arr = true
-			}
-			s.skipSpace()
-			table = strings.Join(s.keyParts(), ".")
-			s.skipSpace()
-			s.next()
-			if arr {
-				s.next()
-			}
-			s.record(table, at, at)
-			s.last = table
-		default:
-			at := s.pos()
-			path := join(table, strings.Join(s.keyParts(), "."))
-			s.skipSpace()
-			if s.peek() == '=' {
-				s.next()
-			}
-			s.skipSpace()
-			s.record(path, at, s.pos())
-			s.value(path)
-			s.last = path
-		}
-		s.skipSpace()
-		if s.peek() == '#' {
-			c := s.ix.comments[s.lastPath()]
-			c.After = s.comment()
-			s.ix.comments[s.lastPath()] = c
-		}
-		if s.peek() != '\n' && s.peek() != 0 {
-			// Not expected in valid TOML; skip the rest of the line.
-			for s.peek() != '\n' && s.peek() != 0 {
-				s.next()
-			}
 		}
 	}
+}
+
+// statement reads one statement, blank line or comment of the document and
+// returns the table that the lines after it belong to.
+func (s *keyScanner) statement(table string) string {
+	s.skipSpace()
+	switch r := s.peek(); {
+	case r == '\n':
+		if len(s.pending) > 0 && len(s.ix.keys) == 0 && s.blankLine() {
+			// Comments at the top of the file, parted from the first key by
+			// a blank line, describe the file: they stay at the top.
+			s.ix.comments[HeaderComment] = Comment{Above: s.pending}
+			s.pending = nil
+		}
+		s.next()
+		return table
+	case r == '#':
+		s.pending = append(s.pending, s.comment())
+		return table
+	case r == '[':
+		at := s.pos()
+		s.next()
+		arr := false
+		if s.peek() == '[' {
+			s.next()
+			arr = true
+		}
+		s.skipSpace()
+		table = strings.Join(s.keyParts(), ".")
+		s.skipSpace()
+		s.next()
+		if arr {
+			s.next()
+		}
+		s.record(table, at, at)
+		s.last = table
+	default:
+		at := s.pos()
+		path := join(table, strings.Join(s.keyParts(), "."))
+		s.skipSpace()
+		if s.peek() == '=' {
+			s.next()
+		}
+		s.skipSpace()
+		s.record(path, at, s.pos())
+		s.value(path)
+		s.last = path
+	}
+	s.skipSpace()
+	if s.peek() == '#' {
+		c := s.ix.comments[s.lastPath()]
+		c.After = s.comment()
+		s.ix.comments[s.lastPath()] = c
+	}
+	// Anything else on the line is not expected in valid TOML; skip it.
+	for s.peek() != '\n' && s.i < len(s.src) {
+		s.next()
+	}
+	return table
 }
 
 func (s *keyScanner) lastPath() string { return s.last }
@@ -246,10 +257,11 @@ func (s *keyScanner) value(path string) {
 		s.next()
 		for {
 			s.skipBlank()
-			if s.peek() == '}' || s.peek() == 0 {
+			if s.peek() == '}' || s.i >= len(s.src) {
 				s.next()
 				return
 			}
+			start := s.i
 			at := s.pos()
 			p := join(path, strings.Join(s.keyParts(), "."))
 			s.skipSpace()
@@ -263,15 +275,19 @@ func (s *keyScanner) value(path string) {
 			if s.peek() == ',' {
 				s.next()
 			}
+			if s.i == start {
+				return // not a key: the decoder accepted something misread here; give up on this table
+			}
 		}
 	case '[':
 		s.next()
 		for n := 0; ; n++ {
 			s.skipBlank()
-			if s.peek() == ']' || s.peek() == 0 {
+			if s.peek() == ']' || s.i >= len(s.src) {
 				s.next()
 				return
 			}
+			start := s.i
 			p := path + "[" + strconv.Itoa(n) + "]"
 			at := s.pos()
 			s.ix.vals[p] = at
@@ -279,6 +295,9 @@ func (s *keyScanner) value(path string) {
 			s.skipBlank()
 			if s.peek() == ',' {
 				s.next()
+			}
+			if s.i == start {
+				return // as above: never loop on text the scanner cannot place
 			}
 		}
 	case '"':
@@ -345,6 +364,10 @@ func (s *keyScanner) literalString() string {
 		s.next()
 		s.next()
 		s.next()
+		for k := 0; k < 2 && s.peek() == '\''; k++ { // up to two quotes may close a multi-line literal
+			out += "'"
+			s.next()
+		}
 		return out
 	}
 	s.next()
