@@ -48,8 +48,8 @@ func bypassGuard(x *Ctx, m *Plan) (bool, string) {
 		return false, ""
 	}
 	d := x.describe(p)
-	if l, fLo, fHi, tuned := x.resonance([]string{net}, capMin(p), capMax(p), lo, hi, p); tuned {
-		return false, d + ": with " + l.Ref + " (" + henries(l.Inductance()) + ") it resonates at " + hz(fLo) + rangeTail(fLo, fHi) +
+	if l, lh, fLo, fHi, tuned := x.resonance([]string{net}, capMin(p), capMax(p), lo, hi, p); tuned {
+		return false, d + ": with " + l.Ref + " (" + henries(lh) + ") it resonates at " + hz(fLo) + rangeTail(fLo, fHi) +
 			", inside or near the band " + hz(lo) + "–" + hz(hi) + ": a tuned circuit, not a bypass"
 	}
 	xc := 1 / (omega(lo) * capMin(p))

@@ -39,8 +39,8 @@ var couplingShort = Rule{
 			return false, ""
 		}
 		d := x.describe(p)
-		if l, fLo, fHi, tuned := x.resonance([]string{na, nb}, capMin(p), capMax(p), lo, hi, p); tuned {
-			return false, d + ": with " + l.Ref + " it resonates at " + hz(fLo) + rangeTail(fLo, fHi) + ", inside or near the band: part of a tuned circuit, not shorted"
+		if l, lh, fLo, fHi, tuned := x.resonance([]string{na, nb}, capMin(p), capMax(p), lo, hi, p); tuned {
+			return false, d + ": with " + l.Ref + " (" + henries(lh) + ") it resonates at " + hz(fLo) + rangeTail(fLo, fHi) + ", inside or near the band: part of a tuned circuit, not shorted"
 		}
 		xc := 1 / (omega(lo) * capMin(p))
 		za, ta := x.LowerZ(na, lo, p)

@@ -44,8 +44,9 @@ var dcFeed = Rule{
 
 // no-signal: a group of parts that reaches the declared signal inputs and
 // outputs only through AC-ground nets carries no signal to them: a power
-// supply, a dial lamp. Needs declared inputs or outputs (or ports) to know
-// where the signal is; without them it does nothing.
+// supply, a dial lamp, a DC control line fed in at a port and decoupled to
+// ground. Needs declared inputs or outputs (or, failing those, ports) to
+// know where the signal is; without any it does nothing.
 var noSignal = Rule{
 	Name:    "no-signal",
 	Purpose: "remove groups of parts joined to the signal path only through AC ground (power supply, lamps)",
@@ -70,8 +71,10 @@ var noSignal = Rule{
 				live[groups.of[cn.Part.Ref]] = true
 			}
 		}
+		// Ports say where the signal goes when no end is declared (or all
+		// were cut away by a focus); the ports a focus made always do.
 		for _, p := range x.c.Parts {
-			if p.Kind == graph.Port {
+			if p.Kind == graph.Port && (len(live) == 0 || x.focusPorts[p.Ref]) {
 				live[groups.of[p.Ref]] = true
 			}
 		}

@@ -106,6 +106,9 @@ type Ctx struct {
 	grounded map[string]bool // nets (by the names they had) joined to ground
 	errs     graph.ErrorList
 	errSeen  map[string]bool
+	// focusPorts are the ports a focus cut made: they mark where the
+	// signal enters and leaves the stage even when no declared end is left.
+	focusPorts map[string]bool
 }
 
 func newCtx(c *graph.Circuit, ratio float64, level Level) *Ctx {
@@ -745,16 +748,29 @@ func finish(x *Ctx, log *Log) {
 			r.Output = ""
 		}
 	}
+	// An end with nothing left on it (a focus cut it away) is no end of
+	// this circuit; the netlist could not even name it.
 	keepEnds := func(list []string) []string {
 		var out []string
 		for _, n := range list {
-			if c.Net(n) != nil {
+			if c.Net(n) != nil && len(x.conns[n]) > 0 {
 				out = append(out, n)
 			}
 		}
 		return out
 	}
 	c.Inputs, c.Outputs = keepEnds(c.Inputs), keepEnds(c.Outputs)
+	for _, r := range c.Regions {
+		if r.Input != "" && len(x.conns[r.Input]) == 0 {
+			r.Input = ""
+		}
+		if r.Output != "" && len(x.conns[r.Output]) == 0 {
+			r.Output = ""
+		}
+	}
+	for _, n := range append([]*graph.Net(nil), c.Nets...) {
+		x.pruneNet(n.Name)
+	}
 	c.Sort()
 	for _, n := range x.orig.Nets {
 		if n.Role.IsACGround() || x.grounded[n.Name] {

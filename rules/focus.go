@@ -144,6 +144,10 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			net.Role = graph.PortN
 		}
 		x.Add(port)
+		if x.focusPorts == nil {
+			x.focusPorts = map[string]bool{}
+		}
+		x.focusPorts[ref] = true
 		st.Added = append(st.Added, ref)
 		ports = append(ports, ref+" \""+labels[n]+"\" on "+n)
 	}

@@ -115,10 +115,12 @@ func capMax(p *graph.Part) float64 {
 	return p.Value.Max
 }
 
-// windingL is the inductance seen from one pin of a coil or transformer
-// through the windings that end on it, with the lowest coupling-reduced
-// value: L(1−k²) is what a winding presents when a coupled winding is
-// shorted, the least it can present whatever the rest of the circuit does.
+// windingL is the self-inductance seen from one pin of a coil or
+// transformer: the smallest (lowest) or largest of the windings that end on
+// it. Coupling to other windings is not subtracted: that would take the
+// coupled windings as shorted, which in a working circuit they are not (a
+// fully coupled tap would then count as a dead short); tuned circuits are
+// caught separately by resonance.
 func windingL(p *graph.Part, pin string, lowest bool) float64 {
 	if len(p.Windings) == 0 {
 		return p.Value.Max
@@ -131,24 +133,45 @@ func windingL(p *graph.Part, pin string, lowest bool) float64 {
 		if w.From != pin && w.To != pin {
 			continue
 		}
-		l := w.L
 		if lowest {
-			kmax := 0.0
-			for _, o := range p.Windings {
-				if o.Name != w.Name {
-					kmax = math.Max(kmax, p.K(w.Name, o.Name))
-				}
-			}
-			l *= 1 - kmax*kmax
-			best = math.Min(best, l)
+			best = math.Min(best, w.L)
 		} else {
-			best = math.Max(best, l)
+			best = math.Max(best, w.L)
 		}
 	}
 	if math.IsInf(best, 1) {
 		return 0
 	}
 	return best
+}
+
+// pathL is the inductance of a coil between two of its pins when one
+// winding (or a whole tapped coil) joins them directly, else 0.
+func pathL(p *graph.Part, a, b string) float64 {
+	if len(p.Windings) == 0 {
+		if p.Kind == graph.Inductor {
+			return p.Value.Max
+		}
+		return 0
+	}
+	for _, w := range p.Windings {
+		if (w.From == a && w.To == b) || (w.From == b && w.To == a) {
+			return w.L
+		}
+	}
+	// the two ends of a tapped coil: both sections, with their mutual inductance
+	if p.Kind == graph.Inductor && ((a == "1" && b == "2") || (a == "2" && b == "1")) {
+		return p.Inductance()
+	}
+	// the two ends of a centre-tapped transformer winding NAME1–NAMEt–NAME2
+	if p.Kind == graph.Transformer && len(a) > 1 && len(b) > 1 && a[:len(a)-1] == b[:len(b)-1] {
+		base := a[:len(a)-1]
+		wa, wb := p.Winding(base+"a"), p.Winding(base+"b")
+		if wa != nil && wb != nil {
+			return wa.L + wb.L + 2*p.K(wa.Name, wb.Name)*math.Sqrt(wa.L*wb.L)
+		}
+	}
+	return 0
 }
 
 // lowBranch bounds from below the impedance a terminal presents at f, taking
@@ -165,9 +188,9 @@ func lowBranch(p *graph.Part, pin string, f float64) branch {
 		l := windingL(p, pin, true)
 		z := w * l
 		if l == 0 {
-			return branch{0, p.Ref + "." + pin + " (a fully coupled winding: no lower bound)"}
+			return branch{0, p.Ref + "." + pin + " (no winding on this pin)"}
 		}
-		return branch{z, p.Ref + "." + pin + " " + ohms(z)}
+		return branch{z, p.Ref + "." + pin + " ωL " + ohms(z)}
 	case graph.Pot:
 		r, s := p.Value.Max, p.Set
 		var z float64
@@ -246,6 +269,9 @@ func (x *Ctx) LowerZ(net string, f float64, skip ...*graph.Part) (float64, strin
 			continue
 		}
 		b := lowBranch(cn.Part, cn.Pin, f)
+		if cn.Part.Kind == graph.Inductor || cn.Part.Kind == graph.Transformer {
+			b = x.throughCoil(cn.Part, cn.Pin, net, f, b)
+		}
 		switch {
 		case b.z == 0:
 			return 0, b.text
@@ -270,6 +296,66 @@ func (x *Ctx) LowerZ(net string, f float64, skip ...*graph.Part) (float64, strin
 		text += "; " + strings.Join(opens, ", ")
 	}
 	return z, text
+}
+
+// throughCoil refines the bound of a coil path that leads on to a net
+// where everything else is resistive to AC ground (bias resistors, a base's
+// rπ, a cathode's 1/gm): the path is then jωL in series with a real R, whose
+// magnitude is √(X² + R²). A winding into a base bias point sees the base,
+// not a short. Anything reactive beyond keeps the plain ωL bound, since a
+// reactance there could cancel the coil's.
+func (x *Ctx) throughCoil(p *graph.Part, pin, net string, f float64, b branch) branch {
+	if b.z == 0 || math.IsInf(b.z, 1) {
+		return b
+	}
+	far := ""
+	for _, other := range p.Pins {
+		if other.Name != pin && pathL(p, pin, other.Name) > 0 && windingL(p, pin, true) == pathL(p, pin, other.Name) {
+			far = other.Net
+			break
+		}
+	}
+	if far == "" || far == net || far == "nc" || x.IsACGround(far) {
+		return b
+	}
+	y := 0.0
+	var parts []string
+	for _, cn := range x.conns[far] {
+		q := cn.Part
+		if q == p {
+			continue
+		}
+		var r float64
+		switch {
+		case q.Kind == graph.Resistor && len(q.Pins) == 2:
+			other := q.Pins[0].Net
+			if other == far {
+				other = q.Pins[1].Net
+			}
+			if !x.IsACGround(other) {
+				return b
+			}
+			r = q.Value.Max
+		case q.IsActive():
+			qb := lowBranch(q, cn.Pin, f)
+			if qb.z == 0 {
+				return b
+			}
+			r = qb.z
+		default:
+			return b
+		}
+		if !math.IsInf(r, 1) {
+			y += 1 / r
+			parts = append(parts, q.Ref)
+		}
+	}
+	if y == 0 {
+		return branch{math.Inf(1), p.Ref + "." + pin + " leads only to an open input on " + far}
+	}
+	rm := 1 / y
+	z := math.Hypot(b.z, rm)
+	return branch{z, p.Ref + "." + pin + " ωL " + ohms(b.z) + " + " + ohms(rm) + " on " + far + " = " + ohms(z)}
 }
 
 func isSkipped(p *graph.Part, skip []*graph.Part) bool {
@@ -392,30 +478,45 @@ func (x *Ctx) bandWhy(lo float64, from *graph.Part, self *graph.Part) string {
 	return s + " (" + where + ")"
 }
 
-// resonance looks for an inductive path on a net that resonates with a
-// capacitance range inside or near the band (within a factor of two of its
-// edges): such a capacitor is part of a tuned circuit. It returns the
-// inductive part and the resonant frequency range.
-func (x *Ctx) resonance(nets []string, cmin, cmax, lo, hi float64, skip *graph.Part) (*graph.Part, float64, float64, bool) {
+// resonance looks for a coil that forms a parallel tuned circuit with a
+// capacitance range, resonating inside or near the band (within a factor of
+// two of its edges): a coil path from one of the nets to AC ground, or
+// between the two nets. A capacitor in such a circuit is a tank capacitor,
+// not a bypass or a coupling capacitor. It returns the coil, its
+// inductance and the resonant frequency range.
+func (x *Ctx) resonance(nets []string, cmin, cmax, lo, hi float64, skip *graph.Part) (*graph.Part, float64, float64, float64, bool) {
+	target := func(n string) bool {
+		if x.IsACGround(n) {
+			return true
+		}
+		for _, m := range nets {
+			if m == n {
+				return true
+			}
+		}
+		return false
+	}
 	for _, n := range nets {
 		for _, cn := range x.conns[n] {
 			p := cn.Part
 			if p == skip || (p.Kind != graph.Inductor && p.Kind != graph.Transformer) {
 				continue
 			}
-			l := windingL(p, cn.Pin, false)
-			if p.Kind == graph.Inductor && len(p.Windings) <= 1 {
-				l = p.Inductance()
-			}
-			if l <= 0 {
-				continue
-			}
-			fHi := 1 / (2 * math.Pi * math.Sqrt(l*cmin))
-			fLo := 1 / (2 * math.Pi * math.Sqrt(l*cmax))
-			if fHi >= lo/2 && fLo <= hi*2 {
-				return p, fLo, fHi, true
+			for _, other := range p.Pins {
+				if other.Name == cn.Pin || other.Net == n || !target(other.Net) {
+					continue
+				}
+				l := pathL(p, cn.Pin, other.Name)
+				if l <= 0 {
+					continue
+				}
+				fHi := 1 / (2 * math.Pi * math.Sqrt(l*cmin))
+				fLo := 1 / (2 * math.Pi * math.Sqrt(l*cmax))
+				if fHi >= lo/2 && fLo <= hi*2 {
+					return p, l, fLo, fHi, true
+				}
 			}
 		}
 	}
-	return nil, 0, 0, false
+	return nil, 0, 0, 0, false
 }

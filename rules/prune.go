@@ -39,6 +39,8 @@ var prune = Rule{
 		switch {
 		case na == "nc" || nb == "nc":
 			return &Plan{Parts: []*graph.Part{p}, Why: x.describe(p) + ": a terminal is not connected (nc): no current flows"}
+		case na == nb && x.IsACGround(na) && x.level >= LevelSignal:
+			return nil // a decoupling part between two rails now joined: dc-feed says why
 		case na == nb:
 			return &Plan{Parts: []*graph.Part{p}, Why: x.describe(p) + ": both terminals on " + na + ": shorted out, carries no current"}
 		case x.dangling(na, p):

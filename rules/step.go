@@ -32,7 +32,11 @@ type Step struct {
 // file:line, and the justification.
 func (s Step) String() string {
 	var b strings.Builder
-	fmt.Fprintf(&b, "%3d  %-16s ", s.N, s.Rule)
+	if s.N > 0 {
+		fmt.Fprintf(&b, "%3d  %-16s ", s.N, s.Rule)
+	} else {
+		fmt.Fprintf(&b, "     %-16s ", s.Rule) // a near miss: not a step
+	}
 	for i, ref := range s.Refs {
 		if i > 0 {
 			b.WriteString(", ")

@@ -1,0 +1,249 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"sort"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/rules"
+)
+
+type reduceOpts struct {
+	out   string
+	level string
+	focus string
+	ratio float64
+	json  bool
+	check bool
+}
+
+func init() {
+	register(&command{
+		name:    "reduce",
+		args:    "FILE [-o OUT.toml] [--level tidy|signal|ideal] [--focus REF,...] [--ratio 0.1] [--json] [--check]",
+		summary: "reduce a netlist to its small-signal path, logging every step with its reason",
+		detail: `Applies the reduction rules to a fixpoint and prints the log: one line per
+step with the rule, the parts concerned (file:line) and the justification with
+its numbers, then near misses and the part and net counts before and after.
+
+Levels: tidy merges series/parallel parts, sets switches and prunes dangling
+parts only; signal (the default) also treats rails as AC ground, grounds
+bypassed nets, drops DC-only feeds and static electrodes and opens RF chokes;
+ideal also shorts coupling capacitors and opens chokes that at least match
+what they shunt. --focus keeps only the stage(s) around the named parts or
+nets; nets crossing the cut become ports. --ratio sets the factor a reactance
+must be below (bypass) or above (choke) the impedance it works against.
+--check compares the circuit by AC analysis before and after each step and
+refuses steps that change the signal behaviour (slower).
+
+-o writes the reduced netlist (itself a valid input); the input file is never
+changed. The reduced circuit is a small-signal equivalent only: it is not a
+wiring diagram and says nothing about DC voltages.`,
+		flags: func(fs *flag.FlagSet) any {
+			o := &reduceOpts{}
+			fs.StringVar(&o.out, "o", "", "write the reduced netlist to this file")
+			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
+			fs.StringVar(&o.focus, "focus", "", "comma-separated refs or net names: reduce only the stage(s) around them")
+			fs.Float64Var(&o.ratio, "ratio", rules.DefaultRatio, "bypass ratio: |Xc| ≤ ratio·|Z| makes a bypass")
+			fs.BoolVar(&o.json, "json", false, "print the log and the reduced netlist as JSON")
+			fs.BoolVar(&o.check, "check", false, "verify each step by AC analysis and refuse steps that change the signal")
+			return o
+		},
+		run: runReduce,
+	})
+}
+
+// reduceCaution goes with every printed reduction: it is read next to a
+// valve set on the bench.
+const reduceCaution = "Small-signal equivalent only: not a wiring diagram, no DC voltages. Valve sets carry lethal HT and may have a live chassis; " +
+	"capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
+
+func runReduce(e *env, opts any, args []string) int {
+	o := opts.(*reduceOpts)
+	if len(args) != 1 {
+		fmt.Fprintln(e.stderr, "pare reduce: give exactly one netlist file")
+		fmt.Fprintln(e.stderr, "usage: pare reduce FILE [-o OUT.toml] [--level tidy|signal|ideal] [--focus REF,...] [--ratio 0.1] [--json] [--check]")
+		return exitBad
+	}
+	lvl, err := rules.ParseLevel(o.level)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare reduce: %v\n", err)
+		return exitBad
+	}
+	if o.ratio <= 0 || o.ratio >= 1 {
+		fmt.Fprintf(e.stderr, "pare reduce: --ratio %g: give a factor above 0 and below 1 (0.1 means ten times)\n", o.ratio)
+		return exitBad
+	}
+	path := args[0]
+	c, ok := loadCircuit(e, path)
+	if !ok {
+		return exitBad
+	}
+	ro := rules.Options{Level: lvl, BypassRatio: o.ratio}
+	if o.focus != "" {
+		for _, f := range strings.Split(o.focus, ",") {
+			if f = strings.TrimSpace(f); f != "" {
+				ro.Focus = append(ro.Focus, f)
+			}
+		}
+		if len(ro.Focus) == 0 {
+			fmt.Fprintln(e.stderr, "pare reduce: --focus names nothing")
+			return exitBad
+		}
+	}
+	if o.check {
+		cmp := ac.CompareOptions{}
+		ro.Check = func(before, after *graph.Circuit, _ *rules.Step) error { return cmp.Check(before, after) }
+	}
+	reduced, log, err := rules.Reduce(c, ro)
+	if err != nil {
+		var list graph.ErrorList
+		if errors.As(err, &list) {
+			for _, x := range list {
+				fmt.Fprintln(e.stderr, x.Error())
+			}
+			fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+			return exitBad
+		}
+		fmt.Fprintf(e.stderr, "pare reduce: %s: %v\n", path, err)
+		return exitBad
+	}
+	var netlist bytes.Buffer
+	if err := graph.Write(&netlist, annotated(reduced, lvl)); err != nil {
+		fmt.Fprintf(e.stderr, "pare reduce: writing the reduced netlist: %v\n", err)
+		return exitBad
+	}
+	// A reduced netlist that does not load back is pare's bug; say so rather
+	// than write a file the user cannot use.
+	if _, err := graph.Parse("reduced.toml", netlist.Bytes()); err != nil {
+		fmt.Fprintf(e.stderr, "pare reduce: internal error, please report: the reduced netlist does not load back: %v\n", err)
+		return exitBad
+	}
+	if o.out != "" {
+		if err := writeFileAtomic(o.out, netlist.Bytes()); err != nil {
+			fmt.Fprintf(e.stderr, "pare reduce: writing %s: %v\n", o.out, err)
+			return exitBad
+		}
+	}
+	if o.json {
+		if err := writeReduceJSON(e.stdout, log, netlist.String()); err != nil {
+			fmt.Fprintf(e.stderr, "pare reduce: %v\n", err)
+			return exitBad
+		}
+		return exitOK
+	}
+	printReduceLog(e.stdout, path, log, o.out)
+	return exitOK
+}
+
+// annotated marks the reduced netlist as such at its top, so nobody mistakes
+// it for the set's wiring.
+func annotated(c *graph.Circuit, lvl rules.Level) *graph.Circuit {
+	d := c.Clone()
+	if d.Comments == nil {
+		d.Comments = map[string]graph.Comment{}
+	}
+	first := "title"
+	if d.Title == "" {
+		first = "parts"
+		if d.Note != "" {
+			first = "note"
+		} else if d.Band.Max > 0 {
+			first = "band"
+		}
+	}
+	cm := d.Comments[first]
+	marker := " Reduced by pare (level " + lvl.String() + "): small-signal equivalent only, not a wiring diagram."
+	var above []string
+	for _, a := range cm.Above {
+		if !strings.HasPrefix(a, " Reduced by pare (") {
+			above = append(above, a)
+		}
+	}
+	cm.Above = append([]string{marker}, above...)
+	d.Comments[first] = cm
+	return d
+}
+
+func printReduceLog(w io.Writer, path string, log *rules.Log, out string) {
+	fmt.Fprintf(w, "%s: reduction at level %s\n", path, log.Level)
+	for _, s := range log.Steps {
+		fmt.Fprintln(w, s.String())
+	}
+	if len(log.Declined) > 0 {
+		fmt.Fprintln(w, "kept (near misses):")
+		for _, s := range log.Declined {
+			fmt.Fprintln(w, s.String())
+		}
+	}
+	if len(log.Gangs) > 0 {
+		names := make([]string, 0, len(log.Gangs))
+		for g := range log.Gangs {
+			names = append(names, g)
+		}
+		sort.Strings(names)
+		for _, g := range names {
+			fmt.Fprintf(w, "gang %s: %s (mechanically linked; the link is not drawn)\n", g, strings.Join(log.Gangs[g], ", "))
+		}
+	}
+	refused := len(log.Steps) - log.Applied()
+	fmt.Fprintf(w, "parts %d → %d, nets %d → %d, %d step(s)", log.Before.Parts, log.After.Parts, log.Before.Nets, log.After.Nets, log.Applied())
+	if refused > 0 {
+		fmt.Fprintf(w, ", %d refused", refused)
+	}
+	fmt.Fprintln(w)
+	if out != "" {
+		fmt.Fprintf(w, "reduced netlist written to %s\n", out)
+	}
+	fmt.Fprintln(w, reduceCaution)
+}
+
+type reduceJSON struct {
+	Level    string              `json:"level"`
+	Steps    []rules.Step        `json:"steps"`
+	Declined []rules.Step        `json:"declined"`
+	Before   countJSON           `json:"before"`
+	After    countJSON           `json:"after"`
+	ACGround []string            `json:"ac_ground"`
+	Gangs    map[string][]string `json:"gangs"`
+	Hits     []rules.Hit         `json:"hits"`
+	Caution  string              `json:"caution"`
+	Circuit  string              `json:"circuit"`
+}
+
+type countJSON struct {
+	Parts int `json:"parts"`
+	Nets  int `json:"nets"`
+}
+
+func writeReduceJSON(w io.Writer, log *rules.Log, netlist string) error {
+	j := reduceJSON{
+		Level: log.Level.String(), Steps: log.Steps, Declined: log.Declined,
+		Before:   countJSON{log.Before.Parts, log.Before.Nets},
+		After:    countJSON{log.After.Parts, log.After.Nets},
+		ACGround: log.ACGround, Gangs: log.Gangs, Hits: log.Hits, Caution: reduceCaution, Circuit: netlist,
+	}
+	if j.Steps == nil {
+		j.Steps = []rules.Step{}
+	}
+	if j.Declined == nil {
+		j.Declined = []rules.Step{}
+	}
+	if j.ACGround == nil {
+		j.ACGround = []string{}
+	}
+	if j.Gangs == nil {
+		j.Gangs = map[string][]string{}
+	}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
+	return enc.Encode(j)
+}
