@@ -28,8 +28,8 @@ type vpart struct {
 	link  int   // slot whose net is already placed when this part's turn comes; -1 = none
 }
 
-// maxOptional bounds the variants per pattern (2^n).
-const maxOptional = 5
+// maxOptional bounds the variants per pattern (2^n): 64 keeps the search quick.
+const maxOptional = 6
 
 // deviceRarity orders the search: the rarer the kind, the fewer candidates
 // for the first part, and the earlier a dead end shows.
@@ -37,7 +37,7 @@ var deviceRarity = map[string]int{
 	"active": 0, "valve": 0, "bjt": 0, "fet": 0,
 	"transformer": 1, "double-diode": 1,
 	"tapped-coil": 2, "crystal": 2,
-	"diode": 3, "inductor": 4, "capacitor": 5, "resistor": 6, "element": 7,
+	"diode": 3, "pot": 3, "inductor": 4, "capacitor": 5, "resistor": 6, "element": 7,
 }
 
 func (p *Pattern) compile() error {
@@ -138,8 +138,49 @@ func (p *Pattern) variant(absent map[int]bool, netIdx map[string]int) *variant {
 		}
 		parts = append(parts, vp)
 	}
+	if !connected(parts, v.nets) {
+		return nil // a part tied on only through AC ground: not one stage
+	}
 	v.parts = searchOrder(parts, v.nets)
 	return v
+}
+
+// connected reports whether the parts hang together through nets that are
+// not AC ground. A variant that leaves a part joined to the rest only by
+// ground would match that part anywhere in the set.
+func connected(parts []vpart, nets []vnet) bool {
+	if len(parts) == 0 {
+		return false
+	}
+	reached := map[int]bool{0: true}
+	netSeen := map[int]bool{}
+	for changed := true; changed; {
+		changed = false
+		for i, vp := range parts {
+			if !reached[i] {
+				continue
+			}
+			for _, n := range vp.slots {
+				if nets[n].at != "ground" && !netSeen[n] {
+					netSeen[n] = true
+					changed = true
+				}
+			}
+		}
+		for i, vp := range parts {
+			if reached[i] {
+				continue
+			}
+			for _, n := range vp.slots {
+				if netSeen[n] {
+					reached[i] = true
+					changed = true
+					break
+				}
+			}
+		}
+	}
+	return len(reached) == len(parts)
 }
 
 // netList is the pattern nets of a part's terminals in binding order.

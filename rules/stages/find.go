@@ -12,7 +12,7 @@ import (
 
 // Stage is one recognised stage.
 type Stage struct {
-	Name     string             `json:"name"`     // in signal order: "S1", "S2", …; sub-stages "S2a", "S2b"
+	Name     string             `json:"name"`     // in signal order: "S1", "S2", …; sub-stages "S2.1", "S2.2"
 	Topology string             `json:"topology"` // pattern id, e.g. "hartley-common-tap"
 	Title    string             `json:"title"`    // e.g. "Hartley oscillator, cathode tap (valve)"
 	Family   string             `json:"family"`   // "valve" | "bjt" | "fet" | "passive"
@@ -73,11 +73,15 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		acg[n] = true
 	}
 	budget := &limit
-	signal, errSig := recognise(reduced, lib, false, acg, budget)
+	var orig *world
+	if o.Full != nil {
+		orig = newWorld(o.Full, false, acg)
+	}
+	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)
 	var power []*found
 	var errPow error
 	if o.Full != nil && errSig == nil {
-		power, errPow = recognise(o.Full, lib, true, nil, budget)
+		power, errPow = recognise(o.Full, lib, true, nil, nil, budget)
 	}
 	order := signalOrder(reduced)
 	sort.SliceStable(signal, func(i, j int) bool {
@@ -109,10 +113,7 @@ func appendTree(out []Stage, s *found) []Stage {
 	subs := s.subs
 	s.Contains = nil
 	for i, c := range subs {
-		c.Name = fmt.Sprintf("%s%c", s.Name, 'a'+rune(i%26))
-		if i >= 26 {
-			c.Name = fmt.Sprintf("%s.%d", s.Name, i+1)
-		}
+		c.Name = fmt.Sprintf("%s.%d", s.Name, i+1)
 		s.Contains = append(s.Contains, c.Name)
 	}
 	out = append(out, s.public())
@@ -141,8 +142,9 @@ type found struct {
 	set  map[string]bool
 }
 
-func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, budget *int) ([]*found, error) {
+func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, orig *world, budget *int) ([]*found, error) {
 	w := newWorld(c, full, acg)
+	w.orig = orig
 	s := &searcher{w: w, limit: *budget, partUsed: make([]bool, len(w.parts)), netOwner: make([]int, len(w.names)), seen: map[string]bool{}}
 	for i := range s.netOwner {
 		s.netOwner[i] = -1
@@ -206,7 +208,7 @@ func place(level *[]*found, f *found) bool {
 		if !overlap {
 			continue
 		}
-		if !inside || !f.m.v.p.Inner || f.Topology == t.Topology || len(f.set) == len(t.set) {
+		if !inside || !f.m.v.p.Inner || f.group == t.group || len(f.set) == len(t.set) {
 			return false
 		}
 		return place(&t.subs, f)
@@ -232,9 +234,18 @@ func relation(a, b map[string]bool) (inside, overlap bool) {
 // when a guard rejects it or the pattern does not serve the family matched.
 func evaluate(w *world, m *match) *Stage {
 	p := m.v.p
-	st := &Stage{Topology: p.ID, group: p.Group, Parts: append([]string(nil), m.refs...),
+	st := &Stage{Topology: p.ID, group: p.Group,
 		Figures: map[string]float64{}, nets: map[string]string{}, roles: map[string]string{}}
+	for i, vp := range m.v.parts {
+		if !vp.pp.Shared {
+			st.Parts = append(st.Parts, w.parts[m.parts[i]].Ref)
+		}
+	}
+	sort.Strings(st.Parts)
 	for vi, vn := range m.v.nets {
+		if m.nets[vi] < 0 {
+			continue // only absent optional parts touched it
+		}
 		for _, n := range vn.names {
 			st.nets[n] = w.names[m.nets[vi]]
 		}
@@ -333,10 +344,14 @@ func signalOrder(c *graph.Circuit) order {
 	dist := order{}
 	seenNet := map[string]bool{}
 	var queue []string
+	// A region's input is a point inside the chain (the IF strip starts at
+	// the mixer's anode); it only helps when the circuit names no inputs.
 	starts := append([]string(nil), c.Inputs...)
-	for _, r := range c.Regions {
-		if r.Input != "" {
-			starts = append(starts, r.Input)
+	if len(starts) == 0 {
+		for _, r := range c.Regions {
+			if r.Input != "" {
+				starts = append(starts, r.Input)
+			}
 		}
 	}
 	for _, n := range starts {

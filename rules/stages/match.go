@@ -23,6 +23,7 @@ type world struct {
 	conns  [][]int // net id → part indices, sorted, unique
 	byKind map[graph.Kind][]int
 	coils  [][]coil // part index → coils of a transformer
+	orig   *world   // the original circuit, folded the same way, when known
 }
 
 // coil is one winding of a transformer as the pattern sees it: two ends,
@@ -266,8 +267,8 @@ func (s *searcher) complete(m *match) {
 	}
 	for vi, vn := range m.v.nets {
 		net := m.nets[vi]
-		if net == groundNet || vn.outside == "" {
-			continue
+		if net <= groundNet || vn.outside == "" {
+			continue // at AC ground, unconstrained, or used by absent parts only
 		}
 		var others []int
 		for _, ci := range w.conns[net] {
@@ -335,6 +336,8 @@ func kindsFor(device string) []graph.Kind {
 		return []graph.Kind{graph.Diode, graph.Valve}
 	case "crystal":
 		return []graph.Kind{graph.Crystal}
+	case "pot":
+		return []graph.Kind{graph.Pot}
 	case "element":
 		return []graph.Kind{graph.Capacitor, graph.Crystal, graph.Inductor, graph.Resistor}
 	}
@@ -408,8 +411,15 @@ func (s *searcher) bindings(pp *PPart, ci int) []binding {
 			return nil
 		}
 		return []binding{{nets: []int{a, b}}, {nets: []int{b, a}}}
-	case "tapped-coil":
-		one, t, two := w.pinNet(ci, "1"), w.pinNet(ci, "t"), w.pinNet(ci, "2")
+	case "tapped-coil", "pot":
+		mid := "t"
+		if pp.Device == "pot" {
+			mid = "w"
+		}
+		one, t, two := w.pinNet(ci, "1"), w.pinNet(ci, mid), w.pinNet(ci, "2")
+		if one < 0 || t < 0 || two < 0 {
+			return nil
+		}
 		return []binding{{nets: []int{one, t, two}}, {nets: []int{two, t, one}}}
 	case "diode":
 		anodes := []string{"a"}

@@ -141,21 +141,74 @@ func calcMixer(x *figCtx) {
 	x.set("image_f_min_hz", smin+2*ifHz)
 	x.set("image_f_max_hz", smax+2*ifHz)
 	if b := x.w.c.Band; b.Max > 0 {
-		if smin > b.Min*1.001 || smax < b.Max*0.999 {
+		// 1 % short of a band edge is within what the trimmers set.
+		if smin > b.Min*1.01 || smax < b.Max*0.99 {
 			x.flag("oscillator covers %s–%s: with the IF %s the set tunes %s–%s, not the whole band %s–%s",
 				FigureText("f_hz", omin), FigureText("f_hz", omax), FigureText("f_hz", ifHz),
 				FigureText("f_hz", smin), FigureText("f_hz", smax), FigureText("f_hz", b.Min), FigureText("f_hz", b.Max))
 		}
 	}
-	x.tracking(lo, oa, ob, oscCaps, ifHz)
+	osc := &tankModel{w: x.w, l: lo, a: oa, b: ob, caps: oscCaps}
+	x.tracking(osc.original(x.part("coil").Ref, x.w.orig), ifHz)
+}
+
+// tankModel is a coil and the capacitors that tune it, between nets a and b
+// of world w.
+type tankModel struct {
+	w    *world
+	l    float64
+	a, b int
+	caps []*graph.Part
+}
+
+func (t *tankModel) f(frac float64) float64 {
+	return resonance(t.l, capBetween(t.w, t.caps, t.a, t.b, frac))
+}
+
+// original rebuilds a tank from the parts of the original circuit the
+// reduced ones stand for: a reduction folds a padder and a trimmer into one
+// variable part whose span is exact only at its ends, and tracking needs the
+// whole dial. It returns t itself when there is no original to go back to.
+func (t *tankModel) original(coilRef string, orig *world) *tankModel {
+	if orig == nil {
+		return t
+	}
+	var caps []*graph.Part
+	for _, p := range t.caps {
+		for _, ref := range p.Origins() {
+			q := orig.c.Part(ref)
+			if q == nil {
+				return t
+			}
+			caps = append(caps, q)
+		}
+	}
+	ci := -1
+	for i, p := range orig.parts {
+		if p.Ref == coilRef {
+			ci = i
+		}
+	}
+	if ci < 0 {
+		return t
+	}
+	coil := orig.parts[ci]
+	out := &tankModel{w: orig, l: t.l, caps: caps}
+	switch coil.Kind {
+	case graph.Inductor:
+		out.a, out.b = orig.pinNet(ci, "1"), orig.pinNet(ci, "2")
+	default:
+		return t
+	}
+	return out
 }
 
 // tracking compares the oscillator with the signal tank ganged to it. Both
 // sections turn together; capacitance is taken as linear in rotation (the
 // gang's plate shape is not in the netlist).
-func (x *figCtx) tracking(lo float64, oa, ob int, oscCaps []*graph.Part, ifHz float64) {
+func (x *figCtx) tracking(osc *tankModel, ifHz float64) {
 	var gangCap *graph.Part
-	for _, p := range oscCaps {
+	for _, p := range osc.caps {
 		if p.Gang != "" && p.Type == graph.CapVariable {
 			gangCap = p
 			break
@@ -164,7 +217,7 @@ func (x *figCtx) tracking(lo float64, oa, ob int, oscCaps []*graph.Part, ifHz fl
 	if gangCap == nil {
 		return
 	}
-	sig := findGangTank(x.w, gangCap, oscCaps)
+	sig := findGangTank(osc.w, gangCap, osc.caps)
 	if sig == nil {
 		return
 	}
@@ -172,8 +225,7 @@ func (x *figCtx) tracking(lo float64, oa, ob int, oscCaps []*graph.Part, ifHz fl
 	const steps = 100
 	for i := 0; i <= steps; i++ {
 		th := float64(i) / steps
-		fs := resonance(sig.l, capBetween(x.w, sig.caps, sig.a, sig.b, th))
-		fo := resonance(lo, capBetween(x.w, oscCaps, oa, ob, th))
+		fs, fo := sig.f(th), osc.f(th)
 		if e := fo - (fs + ifHz); math.Abs(e) > math.Abs(worst) {
 			worst, worstAt = e, fs
 		}
@@ -185,10 +237,14 @@ func (x *figCtx) tracking(lo float64, oa, ob int, oscCaps []*graph.Part, ifHz fl
 	if math.Abs(worst) > 0.02*ifHz {
 		x.flag("oscillator tracking is off by up to %s (at %s on the dial): check the padder and trimmers", FigureText("f_hz", worst), FigureText("f_hz", worstAt))
 	}
-	fixed := capBetween(x.w, sig.caps, sig.a, sig.b, 0) - sig.gang.Capacitance(0)
-	fmax := resonance(sig.l, capBetween(x.w, sig.caps, sig.a, sig.b, 0))
-	fmin := resonance(sig.l, capBetween(x.w, sig.caps, sig.a, sig.b, 1))
-	pts := TrackingPoints(fmin, fmax)
+	var gang *graph.Part
+	for _, p := range sig.caps {
+		if p.Gang == gangCap.Gang && p.Type == graph.CapVariable {
+			gang = p
+		}
+	}
+	fixed := capBetween(sig.w, sig.caps, sig.a, sig.b, 0) - gang.Capacitance(0)
+	pts := TrackingPoints(sig.f(1), sig.f(0))
 	sol, err := ThreePoint(sig.l, fixed, ifHz, pts)
 	if err != nil {
 		return
@@ -201,16 +257,9 @@ func (x *figCtx) tracking(lo float64, oa, ob int, oscCaps []*graph.Part, ifHz fl
 	x.set("pad_l_h", sol.L)
 }
 
-type gangTank struct {
-	gang *graph.Part
-	caps []*graph.Part
-	l    float64
-	a, b int
-}
-
 // findGangTank finds the other section of a gang and the tank it tunes: a
 // coil and the capacitors across the same two nets.
-func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *gangTank {
+func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *tankModel {
 	skip := map[*graph.Part]bool{}
 	for _, p := range exclude {
 		skip[p] = true
@@ -221,7 +270,7 @@ func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *gangTank {
 		}
 		a, b := w.pins[ci][0], w.pins[ci][1]
 		across := func(n1, n2 int) bool { return n1 == a && n2 == b || n1 == b && n2 == a }
-		t := &gangTank{gang: p, a: a, b: b}
+		t := &tankModel{w: w, a: a, b: b}
 		for cj, q := range w.parts {
 			switch {
 			case q.Kind == graph.Capacitor && len(q.Pins) == 2 && across(w.pins[cj][0], w.pins[cj][1]):

@@ -65,7 +65,10 @@ type PPart struct {
 	Pins     []PPin     // terminal key (a role, a pin name, or "" for a two-terminal list) → pattern net
 	Windings [][]string // transformer: per winding its end nets, or end, tap, end
 	Min, Max float64    // bounds on the main value, SI units; 0 = none
-	Pos      graph.Pos
+	// Shared parts take part in the match but are not claimed by the stage:
+	// an IF transformer is the load of one stage and the source of the next.
+	Shared bool
+	Pos    graph.Pos
 }
 
 // PPin binds one terminal of a pattern part to a pattern net.
@@ -90,11 +93,11 @@ type Guard struct {
 
 // device kinds a pattern part may ask for.
 var deviceKinds = []string{"active", "valve", "bjt", "fet", "resistor", "capacitor", "inductor",
-	"tapped-coil", "transformer", "diode", "double-diode", "crystal", "element"}
+	"tapped-coil", "transformer", "diode", "double-diode", "crystal", "element", "pot"}
 
 var patternKeys = []string{"id", "title", "titles", "group", "circuit", "rank", "inner", "families", "nets", "parts", "figure", "guard", "note"}
 var netKeys = []string{"at", "outside"}
-var partKeys = []string{"device", "type", "optional", "pins", "windings", "min", "max"}
+var partKeys = []string{"device", "type", "optional", "pins", "windings", "min", "max", "shared"}
 var activeKeys = []string{"control", "common", "output", "grid"}
 var groups = []string{"oscillator", "amplifier", "mixer", "tuned", "detector", "coupling", "power"}
 
@@ -449,6 +452,13 @@ func (ld *patLoader) part(path, name string, v any) {
 	if t, ok := m["type"]; ok {
 		pp.Types = ld.strs(path+".type", t)
 	}
+	if sh, ok := m["shared"]; ok {
+		b, isBool := sh.(bool)
+		if !isBool {
+			ld.fail(path+".shared", "shared must be true or false")
+		}
+		pp.Shared = b
+	}
 	if o, ok := m["optional"]; ok {
 		pp.Optional = ld.oneOf(path+".optional", o, []string{"open", "short"})
 	}
@@ -489,7 +499,7 @@ func (ld *patLoader) part(path, name string, v any) {
 
 func mainUnit(device string) value.Unit {
 	switch device {
-	case "resistor":
+	case "resistor", "pot":
 		return value.Ohm
 	case "capacitor":
 		return value.Farad
@@ -506,7 +516,7 @@ func pinShape(device string) (list int, keys []string) {
 	switch device {
 	case "resistor", "capacitor", "inductor", "crystal", "element":
 		return 2, nil
-	case "tapped-coil":
+	case "tapped-coil", "pot":
 		return 3, nil
 	case "diode":
 		return 2, []string{"a", "k"}
