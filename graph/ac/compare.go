@@ -246,10 +246,59 @@ func bandsOf(c *graph.Circuit) []value.Range {
 	return out
 }
 
+// netBands returns, for a net, the bands the signal on it lives in: the band
+// of every region that holds the net (names it as input, output or in its
+// nets, or has a part on it), and the default band when a part on it belongs
+// to no region. A small-signal transfer keeps frequency, so a transfer is
+// judged over its input's bands and an impedance over its net's: the IF
+// input of a strip is not asked to behave at audio frequencies, where its
+// bypass capacitors were never meant to bypass.
+func netBands(c *graph.Circuit) func(net string) []value.Range {
+	all := bandsOf(c)
+	conns := c.Conns()
+	return func(net string) []value.Range {
+		var out []value.Range
+		add := func(b value.Range) {
+			if b.Min <= 0 || b.Max < b.Min {
+				return
+			}
+			for _, x := range out {
+				if x == b {
+					return
+				}
+			}
+			out = append(out, b)
+		}
+		for _, r := range c.Regions {
+			if r.Input == net || r.Output == net {
+				add(r.Band)
+			}
+			for _, n := range r.Nets {
+				if n == net {
+					add(r.Band)
+				}
+			}
+		}
+		for _, cn := range conns[net] {
+			add(c.BandOf(cn.Part))
+		}
+		if len(out) == 0 {
+			return all
+		}
+		sort.Slice(out, func(i, j int) bool {
+			if out[i].Min != out[j].Min {
+				return out[i].Min < out[j].Min
+			}
+			return out[i].Max < out[j].Max
+		})
+		return out
+	}
+}
+
 // quantities lists what to compare, mapping each net to its name in the
 // reduced circuit and noting what cannot be mapped.
 func quantities(orig, reduced *graph.Circuit, rep *Report) []quantity {
-	all := bandsOf(orig)
+	bandsAt := netBands(orig)
 	var qs []quantity
 	seen := map[string]bool{}
 	mapped := func(name string, alt func() string) (string, bool) {
@@ -299,7 +348,7 @@ func quantities(orig, reduced *graph.Circuit, rep *Report) []quantity {
 			}
 			rout, ok := mapped(out, atOut(j))
 			if ok {
-				add(quantity{what: "transfer", from: in, to: out, rFrom: rin, rTo: rout, bands: all})
+				add(quantity{what: "transfer", from: in, to: out, rFrom: rin, rTo: rout, bands: bandsAt(in)})
 			}
 		}
 	}
@@ -350,7 +399,7 @@ func quantities(orig, reduced *graph.Circuit, rep *Report) []quantity {
 			alt = at(reduced.Inputs, i)
 		}
 		if rn, ok := mapped(net, alt); ok {
-			add(quantity{what: "impedance", from: net, rFrom: rn, bands: all})
+			add(quantity{what: "impedance", from: net, rFrom: rn, bands: bandsAt(net)})
 		}
 	}
 	sort.Strings(rep.Notes)
@@ -469,7 +518,7 @@ func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg flo
 		return pairResult{origFailed: origFailed}, err
 	}
 	// Refine around the peaks of each response and of the deviation.
-	const rounds, maxPeaks, per = 4, 6, 4
+	const rounds, maxPeaks, per = 5, 10, 4
 	for round := 0; round < rounds; round++ {
 		var add []float64
 		mo := make([]float64, len(freqs))
@@ -617,3 +666,11 @@ func sortUnique(f []float64) []float64 {
 	}
 	return out
 }
+
+// BandsOf returns the bands of interest of the signal on a net (see
+// netBands): the regions that hold it, or the default band. Sweeps use it to
+// choose their span.
+func BandsOf(c *graph.Circuit, net string) []value.Range { return netBands(c)(net) }
+
+// FormatHz prints a frequency for a report: "818 kHz", "1.17 MHz".
+func FormatHz(f float64) string { return value.Format(f, value.Hertz, value.Symbol) }

@@ -1,0 +1,210 @@
+package main
+
+import (
+	"bytes"
+	"flag"
+	"fmt"
+	"math"
+	"math/cmplx"
+	"strconv"
+
+	"pare/graph/ac"
+	"pare/graph/value"
+)
+
+type sweepOpts struct {
+	from, to  string
+	points    int
+	csv       bool
+	reduced   bool
+	level     string
+	at        string
+	band      string
+	impedance bool
+}
+
+func init() {
+	register(&command{
+		name:    "sweep",
+		args:    "FILE --from NET --to NET [--points N] [--csv] [--reduced] [--at min|mid|max|FRACTION] [--band LO..HI]",
+		summary: "print magnitude and phase against frequency, from one net to another",
+		detail: `Drives --from with 1 V and prints V(to)/V(from) at --points log-spaced
+frequencies: magnitude in dB and phase in degrees, as a table or (--csv) as
+comma-separated values. --impedance prints the impedance at --from instead
+(magnitude in ohms and dB re 1 Ω, phase). The span is --band, or else the
+bands of interest of the signal on --from (the regions that hold it, or the
+default band). --reduced sweeps the reduced circuit (--level chooses the
+reduction). Gang sections sit at --at: min, mid (the default), max or a
+fraction of the travel. --from defaults to the first input, --to to the first
+output.
+
+The numbers are those of pare's small-signal models (documented in the
+graph/ac package): no DC conditions, no overload.`,
+		flags: func(fs *flag.FlagSet) any {
+			o := &sweepOpts{}
+			fs.StringVar(&o.from, "from", "", "driven net (default: the first input)")
+			fs.StringVar(&o.to, "to", "", "observed net (default: the first output)")
+			fs.IntVar(&o.points, "points", 101, "number of log-spaced frequencies")
+			fs.BoolVar(&o.csv, "csv", false, "print comma-separated values")
+			fs.BoolVar(&o.reduced, "reduced", false, "sweep the reduced circuit")
+			fs.StringVar(&o.level, "level", "signal", "reduction level for --reduced: tidy, signal or ideal")
+			fs.StringVar(&o.at, "at", "mid", "gang setting: min, mid, max or a fraction 0..1")
+			fs.StringVar(&o.band, "band", "", "frequency span, e.g. 400k..2M (default: the bands of --from)")
+			fs.BoolVar(&o.impedance, "impedance", false, "print the impedance at --from instead of a transfer")
+			return o
+		},
+		run: runSweep,
+	})
+}
+
+func runSweep(e *env, opts any, args []string) int {
+	o := opts.(*sweepOpts)
+	if len(args) != 1 {
+		fmt.Fprintln(e.stderr, "pare sweep: give exactly one netlist file")
+		return exitBad
+	}
+	if o.points < 2 || o.points > 1000000 {
+		fmt.Fprintf(e.stderr, "pare sweep: --points %d: give 2 to 1000000\n", o.points)
+		return exitBad
+	}
+	setting, err := parseAt(o.at)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare sweep: %v\n", err)
+		return exitBad
+	}
+	if o.at == "" {
+		setting = ac.Options{VarFrac: 0.5, VarSet: true}
+	}
+	path := args[0]
+	c, code := circuitFor(e, "sweep", path, o.reduced, o.level)
+	if c == nil {
+		return code
+	}
+	from, to := o.from, o.to
+	if from == "" {
+		if len(c.Inputs) == 0 {
+			fmt.Fprintf(e.stderr, "pare sweep: %s declares no inputs: give --from NET\n", path)
+			return exitBad
+		}
+		from = c.Inputs[0]
+	}
+	if to == "" && !o.impedance {
+		if len(c.Outputs) == 0 {
+			fmt.Fprintf(e.stderr, "pare sweep: %s declares no outputs: give --to NET\n", path)
+			return exitBad
+		}
+		to = c.Outputs[0]
+	}
+	var band value.Range
+	if o.band != "" {
+		band, err = value.ParseRange(o.band, value.Hertz)
+		if err != nil || band.Min <= 0 || band.Max <= band.Min {
+			fmt.Fprintf(e.stderr, "pare sweep: --band %q: give LOW..HIGH in hertz, e.g. 400k..2M\n", o.band)
+			return exitBad
+		}
+	} else {
+		if c.Net(from) == nil {
+			fmt.Fprintf(e.stderr, "pare sweep: %s: no net %q\n", path, from)
+			return exitBad
+		}
+		for i, b := range ac.BandsOf(c, from) {
+			if i == 0 || b.Min < band.Min {
+				band.Min = b.Min
+			}
+			if b.Max > band.Max {
+				band.Max = b.Max
+			}
+		}
+		if band.Min <= 0 {
+			fmt.Fprintf(e.stderr, "pare sweep: %s has no band for %s: give --band\n", path, from)
+			return exitBad
+		}
+	}
+	freqs := make([]float64, o.points)
+	for i := range freqs {
+		freqs[i] = band.Min * math.Pow(band.Max/band.Min, float64(i)/float64(o.points-1))
+	}
+	var h []complex128
+	what := ""
+	if o.impedance {
+		h, err = ac.Impedance(c, from, freqs, setting)
+		what = "Z(" + from + ")"
+	} else {
+		h, err = ac.Transfer(c, from, to, freqs, setting)
+		what = "V(" + to + ")/V(" + from + ")"
+	}
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare sweep: %s: %v\n", path, err)
+		return exitBad
+	}
+	circuit := "original circuit"
+	if o.reduced {
+		circuit = "reduced circuit (level " + o.level + ")"
+	}
+	var b bytes.Buffer
+	if o.csv {
+		if o.impedance {
+			fmt.Fprintln(&b, "freq_hz,mag_ohm,phase_deg")
+		} else {
+			fmt.Fprintln(&b, "freq_hz,mag_db,phase_deg")
+		}
+		for i, f := range freqs {
+			m := cmplx.Abs(h[i])
+			if !o.impedance {
+				m = dB(h[i])
+			}
+			fmt.Fprintf(&b, "%s,%s,%s\n", g(f, 9), g(m, 9), g(phaseDeg(h[i]), 7))
+		}
+	} else {
+		fmt.Fprintf(&b, "%s: %s, %s, gang at %s\n", path, what, circuit, atLabel(o.at))
+		if o.impedance {
+			fmt.Fprintf(&b, "%14s  %14s  %10s  %10s\n", "frequency", "|Z|", "dB re 1 Ω", "phase °")
+			for i, f := range freqs {
+				fmt.Fprintf(&b, "%14s  %14s  %10.3f  %10.2f\n", ac.FormatHz(f), value.Format(cmplx.Abs(h[i]), value.Ohm, value.Symbol), dB(h[i]), phaseDeg(h[i]))
+			}
+		} else {
+			fmt.Fprintf(&b, "%14s  %10s  %10s\n", "frequency", "dB", "phase °")
+			for i, f := range freqs {
+				fmt.Fprintf(&b, "%14s  %10.3f  %10.2f\n", ac.FormatHz(f), dB(h[i]), phaseDeg(h[i]))
+			}
+		}
+		fmt.Fprintln(&b, "Small-signal model only: no DC conditions, no overload; the set itself may carry lethal voltages.")
+	}
+	if _, err := e.stdout.Write(b.Bytes()); err != nil {
+		fmt.Fprintf(e.stderr, "pare sweep: %v\n", err)
+		return exitBad
+	}
+	return exitOK
+}
+
+func atLabel(s string) string {
+	if s == "" {
+		return "mid"
+	}
+	return s
+}
+
+func dB(v complex128) float64 {
+	m := cmplx.Abs(v)
+	if m == 0 {
+		return math.Inf(-1)
+	}
+	return 20 * math.Log10(m)
+}
+
+func phaseDeg(v complex128) float64 {
+	if v == 0 {
+		return 0
+	}
+	return cmplx.Phase(v) * 180 / math.Pi
+}
+
+func g(v float64, digits int) string {
+	switch {
+	case math.IsInf(v, -1):
+		return "-inf"
+	case math.IsInf(v, 1):
+		return "inf"
+	}
+	return strconv.FormatFloat(v, 'g', digits, 64)
+}

@@ -1,0 +1,278 @@
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"strconv"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/rules"
+)
+
+type verifyOpts struct {
+	level  string
+	json   bool
+	tolDB  float64
+	tolDeg float64
+	steps  bool
+	at     string
+	points int
+}
+
+func init() {
+	register(&command{
+		name:    "verify",
+		args:    "FILE [--level tidy|signal|ideal] [--json] [--tol-db 0.5] [--tol-deg 5] [--steps] [--at min|mid|max|FRACTION]",
+		summary: "prove by AC analysis that the reduction keeps the signal behaviour",
+		detail: `Reduces the circuit, then sweeps the original and the reduced circuit over
+the bands of interest and prints, per pair, the worst deviation in dB and
+degrees and the frequency where it occurs: the transfer from each declared
+input to each output, each region's input to its output, and the impedance at
+each input and port. A transfer is judged over its input's bands, an impedance
+over its net's. Each band is swept at --points log-spaced frequencies and
+refined around every peak of the responses and of the deviation.
+
+Gang sections are checked at minimum, mid travel and maximum unless --at picks
+one setting (min, mid, max or a fraction of the travel, 0 to 1).
+
+--steps compares the circuit with the original after every rewrite step; the
+engine refuses a step that breaks the tolerance, and verify names the first
+such step. Exit status 1 when a pair is out of tolerance or a step was refused.
+
+The comparison is of the small-signal models only (documented in pare's
+graph/ac package): it says nothing about DC conditions or safety.`,
+		flags: func(fs *flag.FlagSet) any {
+			o := &verifyOpts{}
+			fs.StringVar(&o.level, "level", "signal", "reduction level: tidy, signal or ideal")
+			fs.BoolVar(&o.json, "json", false, "print the report as JSON")
+			fs.Float64Var(&o.tolDB, "tol-db", ac.DefaultTolDB, "tolerance on magnitude, dB")
+			fs.Float64Var(&o.tolDeg, "tol-deg", ac.DefaultTolDeg, "tolerance on phase, degrees")
+			fs.BoolVar(&o.steps, "steps", false, "check after every rewrite step and name the first that breaks the tolerance")
+			fs.StringVar(&o.at, "at", "", "gang setting: min, mid, max or a fraction 0..1 (default: all three)")
+			fs.IntVar(&o.points, "points", 100, "log-spaced points per band before refinement")
+			return o
+		},
+		run: runVerify,
+	})
+}
+
+// verifyCaution is printed under every text report: the numbers concern a
+// model, and the set they describe may be lethal.
+const verifyCaution = "Small-signal comparison only: no DC conditions. Valve sets carry lethal HT and may have a live chassis; " +
+	"capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
+
+// refusedStep is a rewrite step the comparison refused.
+type refusedStep struct {
+	N       int      `json:"n"`
+	Rule    string   `json:"rule"`
+	Refs    []string `json:"refs,omitempty"`
+	Refused string   `json:"refused"`
+}
+
+// verifyJSON is the --json shape: the comparison report, plus the refused
+// steps under --steps.
+type verifyJSON struct {
+	Pairs   []ac.Pair     `json:"pairs"`
+	TolDB   float64       `json:"tolerance_db"`
+	TolDeg  float64       `json:"tolerance_deg"`
+	OK      bool          `json:"ok"`
+	Notes   []string      `json:"notes,omitempty"`
+	Level   string        `json:"level"`
+	Refused []refusedStep `json:"refused_steps,omitempty"`
+}
+
+func runVerify(e *env, opts any, args []string) int {
+	o := opts.(*verifyOpts)
+	if len(args) != 1 {
+		fmt.Fprintln(e.stderr, "pare verify: give exactly one netlist file")
+		return exitBad
+	}
+	lvl, err := rules.ParseLevel(o.level)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare verify: %v\n", err)
+		return exitBad
+	}
+	if !(o.tolDB > 0) || !(o.tolDeg > 0) {
+		fmt.Fprintln(e.stderr, "pare verify: --tol-db and --tol-deg must be positive")
+		return exitBad
+	}
+	if o.points < 2 || o.points > 100000 {
+		fmt.Fprintf(e.stderr, "pare verify: --points %d: give 2 to 100000\n", o.points)
+		return exitBad
+	}
+	setting, err := parseAt(o.at)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare verify: %v\n", err)
+		return exitBad
+	}
+	path := args[0]
+	c, ok := loadCircuit(e, path)
+	if !ok {
+		return exitBad
+	}
+	cmp := ac.CompareOptions{TolDB: o.tolDB, TolDeg: o.tolDeg, Points: o.points, Options: setting}
+	ro := rules.Options{Level: lvl}
+	var checkErr error
+	if o.steps {
+		// Each step is judged against the original, not only against the step
+		// before it, so small changes cannot add up unseen.
+		ro.Check = func(_, after *graph.Circuit, _ *rules.Step) error {
+			err := cmp.Check(c, after)
+			var te *ac.ToleranceError
+			if err != nil && !errors.As(err, &te) && checkErr == nil {
+				checkErr = err
+			}
+			return err
+		}
+	}
+	reduced, log, err := rules.Reduce(c, ro)
+	if err != nil {
+		return reportReduceError(e, "verify", path, err)
+	}
+	if checkErr != nil {
+		fmt.Fprintf(e.stderr, "pare verify: %s: the original circuit cannot be analysed: %v\n", path, checkErr)
+		return exitBad
+	}
+	rep, err := ac.Compare(c, reduced, cmp)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare verify: %s: %v\n", path, err)
+		return exitBad
+	}
+	var refused []refusedStep
+	for _, s := range log.Steps {
+		if s.Refused != "" {
+			refused = append(refused, refusedStep{N: s.N, Rule: s.Rule, Refs: s.Refs, Refused: s.Refused})
+		}
+	}
+	code := exitOK
+	if !rep.OK || len(refused) > 0 {
+		code = exitFound
+	}
+	if o.json {
+		out := verifyJSON{Pairs: rep.Pairs, TolDB: rep.TolDB, TolDeg: rep.TolDeg, OK: rep.OK && len(refused) == 0,
+			Notes: rep.Notes, Level: lvl.String(), Refused: refused}
+		enc := json.NewEncoder(e.stdout)
+		enc.SetIndent("", "  ")
+		if err := enc.Encode(out); err != nil {
+			fmt.Fprintf(e.stderr, "pare verify: %v\n", err)
+			return exitBad
+		}
+		return code
+	}
+	printVerify(e.stdout, path, lvl, rep, refused, o.steps)
+	return code
+}
+
+func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refused []refusedStep, steps bool) {
+	fmt.Fprintf(w, "%s: reduction at level %s against the original, tolerance %g dB, %g°\n", path, lvl, rep.TolDB, rep.TolDeg)
+	width := 0
+	for _, p := range rep.Pairs {
+		width = max(width, len(p.Label()))
+	}
+	bad := 0
+	for _, p := range rep.Pairs {
+		verdict := "ok"
+		if !p.Within(rep.TolDB, rep.TolDeg) {
+			verdict = "OUT OF TOLERANCE"
+			bad++
+		}
+		if p.Error != "" {
+			fmt.Fprintf(w, "  %-*s  %s  %s\n", width, p.Label(), p.Error, verdict)
+			continue
+		}
+		where := ac.FormatHz(p.AtHz)
+		if p.Setting != "" {
+			where += ", gang at " + p.Setting
+		}
+		fmt.Fprintf(w, "  %-*s  %8.3f dB %7.2f°  at %s  %s\n", width, p.Label(), p.MaxDB, p.MaxDeg, where, verdict)
+	}
+	for _, n := range rep.Notes {
+		fmt.Fprintf(w, "  note: %s\n", n)
+	}
+	if steps {
+		if len(refused) == 0 {
+			fmt.Fprintln(w, "every rewrite step kept the signal behaviour within tolerance")
+		} else {
+			first := refused[0]
+			fmt.Fprintf(w, "first step to break the tolerance: step %d, %s (%s): %s\n", first.N, first.Rule, strings.Join(first.Refs, ", "), first.Refused)
+			for _, s := range refused[1:] {
+				fmt.Fprintf(w, "also refused: step %d, %s (%s): %s\n", s.N, s.Rule, strings.Join(s.Refs, ", "), s.Refused)
+			}
+			fmt.Fprintf(w, "the engine refused %d step(s); the pairs above are for the reduction without them\n", len(refused))
+		}
+	}
+	switch {
+	case bad > 0:
+		fmt.Fprintf(w, "FAILED: %d of %d pair(s) out of tolerance\n", bad, len(rep.Pairs))
+	case len(refused) > 0:
+		fmt.Fprintln(w, "FAILED: the unchecked reduction breaks the tolerance (see the refused steps)")
+	case len(rep.Pairs) == 0:
+		fmt.Fprintln(w, "nothing compared")
+	default:
+		fmt.Fprintf(w, "ok: all %d pair(s) within tolerance\n", len(rep.Pairs))
+	}
+	fmt.Fprintln(w, verifyCaution)
+}
+
+// parseAt reads a gang setting: min, mid, max or a fraction of the travel.
+// The empty string leaves the choice to the command (all three for verify,
+// mid for sweeps).
+func parseAt(s string) (ac.Options, error) {
+	switch strings.ToLower(strings.TrimSpace(s)) {
+	case "":
+		return ac.Options{}, nil
+	case "min":
+		return ac.Options{VarFrac: 0, VarSet: true}, nil
+	case "mid":
+		return ac.Options{VarFrac: 0.5, VarSet: true}, nil
+	case "max":
+		return ac.Options{VarFrac: 1, VarSet: true}, nil
+	}
+	f, err := strconv.ParseFloat(s, 64)
+	if err != nil || f < 0 || f > 1 {
+		return ac.Options{}, fmt.Errorf("--at %q: give min, mid, max or a fraction of the travel from 0 to 1", s)
+	}
+	return ac.Options{VarFrac: f, VarSet: true}, nil
+}
+
+// reportReduceError prints a reduction's failure the way loadCircuit prints
+// a load failure, and returns the exit code for bad input.
+func reportReduceError(e *env, cmd, path string, err error) int {
+	var list graph.ErrorList
+	if errors.As(err, &list) {
+		for _, x := range list {
+			fmt.Fprintln(e.stderr, x.Error())
+		}
+		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+		return exitBad
+	}
+	fmt.Fprintf(e.stderr, "pare %s: %s: %v\n", cmd, path, err)
+	return exitBad
+}
+
+// circuitFor loads a file and reduces it when asked: the circuit sweep and
+// spice work on.
+func circuitFor(e *env, cmd, path string, reduced bool, level string) (*graph.Circuit, int) {
+	c, ok := loadCircuit(e, path)
+	if !ok {
+		return nil, exitBad
+	}
+	if !reduced {
+		return c, exitOK
+	}
+	lvl, err := rules.ParseLevel(level)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare %s: %v\n", cmd, err)
+		return nil, exitBad
+	}
+	red, _, err := rules.Reduce(c, rules.Options{Level: lvl})
+	if err != nil {
+		return nil, reportReduceError(e, cmd, path, err)
+	}
+	return red, exitOK
+}
