@@ -163,8 +163,10 @@ func (ld *loader) circuit(raw map[string]any) {
 			ld.unknown(k, k, topKeys)
 		}
 	}
-	if _, ok := raw["parts"]; !ok {
+	if parts, ok := raw["parts"]; !ok {
 		ld.errs.Add(Pos{File: ld.ix.file, Line: 1, Col: 1}, "no [parts] table: a netlist needs at least one part")
+	} else if m, isTable := parts.(map[string]any); isTable && len(m) == 0 {
+		ld.errKey("parts", "[parts] is empty: a netlist needs at least one part")
 	}
 	if _, ok := raw["band"]; !ok && len(ld.c.Regions) == 0 {
 		ld.errs.Add(Pos{File: ld.ix.file, Line: 1, Col: 1}, `no band of interest: add e.g. band = "530k..1700k" (reductions judge reactances at the band's edges)`)
@@ -342,6 +344,9 @@ var roles = []string{string(Signal), string(Ground), string(Supply), string(Heat
 
 func (ld *loader) net(path, name string, v any) {
 	n := &Net{Name: name, Role: DefaultRole(name), Pos: ld.ix.key(path)}
+	if !netPattern.MatchString(name) {
+		ld.errKey(path, "net name %q: use letters, digits and _ + - . only", name)
+	}
 	m, ok := v.(map[string]any)
 	if !ok {
 		ld.errVal(path, "net %s must be a table such as { role = \"supply\", volts = 250 }", name)

@@ -91,9 +91,17 @@ func (cw *cwriter) top() {
 			cw.line("regions."+r.Name, bareKey(r.Name)+" = "+inline(kv))
 		}
 	}
+	// A net needs an entry when it has something to say, or when no pin
+	// names it (it would not come back otherwise).
+	pinned := map[string]bool{}
+	for _, p := range c.Parts {
+		for _, pin := range p.Pins {
+			pinned[pin.Net] = true
+		}
+	}
 	var nets []*Net
 	for _, n := range c.Nets {
-		if len(netKV(n)) > 0 {
+		if len(netKV(n)) > 0 || !pinned[n.Name] {
 			nets = append(nets, n)
 		}
 	}
