@@ -107,41 +107,49 @@ func (x *figCtx) word(arg, def string) string {
 	return def
 }
 
-// ends gives the folded net ids at the two ends of the coil an argument
-// names, and its inductance: a plain or tapped inductor end to end
-// (L1 + L2 + 2M, graph.Part.Inductance), or the winding of a transformer the
-// pattern maps (winding = "1" is the first in the pattern's list).
-func (x *figCtx) coil(arg string) (a, b int, l float64, q float64, ok bool) {
+// coilEnds is a coil as a tank sees it: the folded nets at its two ends,
+// the pin names there, its inductance and Q.
+type coilEnds struct {
+	ref        string
+	a, b       int
+	pinA, pinB string
+	l, q       float64
+}
+
+// coil gives the coil an argument names: a plain or tapped inductor end to
+// end (L1 + L2 + 2M, graph.Part.Inductance), or the winding of a transformer
+// the pattern maps (winding = "1" is the first in the pattern's list).
+func (x *figCtx) coil(arg string) (coilEnds, bool) {
 	names := x.spec.Args[arg]
 	if len(names) == 0 {
-		return 0, 0, 0, 0, false
+		return coilEnds{}, false
 	}
 	i := x.index(names[0])
 	if i < 0 {
-		return 0, 0, 0, 0, false
+		return coilEnds{}, false
 	}
 	ci := x.m.parts[i]
 	p := x.w.parts[ci]
 	switch p.Kind {
 	case graph.Inductor:
-		one, two := x.w.pinNet(ci, "1"), x.w.pinNet(ci, "2")
 		q := 0.0
 		if len(p.Windings) > 0 {
 			q = p.Windings[0].Q
 		}
-		return one, two, p.Inductance(), q, true
+		return coilEnds{ref: p.Ref, a: x.w.pinNet(ci, "1"), b: x.w.pinNet(ci, "2"), pinA: "1", pinB: "2", l: p.Inductance(), q: q}, true
 	case graph.Transformer:
 		wi := 0
 		if x.word("winding", "1") == "2" {
 			wi = 1
 		}
 		if wi >= len(x.m.coils[i]) {
-			return 0, 0, 0, 0, false
+			return coilEnds{}, false
 		}
 		cl := x.w.coils[ci][x.m.coils[i][wi]]
-		return x.w.pinNet(ci, cl.pins[0]), x.w.pinNet(ci, cl.pins[len(cl.pins)-1]), cl.l, cl.q, true
+		first, last := cl.pins[0], cl.pins[len(cl.pins)-1]
+		return coilEnds{ref: p.Ref, a: x.w.pinNet(ci, first), b: x.w.pinNet(ci, last), pinA: first, pinB: last, l: cl.l, q: cl.q}, true
 	}
-	return 0, 0, 0, 0, false
+	return coilEnds{}, false
 }
 
 // resonance is f = 1/(2π√(LC)) (reference-values §1, handbook formula).
@@ -179,11 +187,11 @@ func hasVariable(caps []*graph.Part) bool {
 }
 
 func calcTank(x *figCtx) {
-	a, b, l, _, ok := x.coil("coil")
+	c, ok := x.coil("coil")
 	if !ok {
 		return
 	}
-	x.tankFigures(l, a, b, x.parts("caps"))
+	x.tankFigures(c.l, c.a, c.b, x.parts("caps"))
 	if x.word("check", "") == "if" {
 		if f, ok := x.st.Figures[x.key("f_hz")]; ok {
 			x.checkIF(x.part("coil").Ref, f)
@@ -195,7 +203,7 @@ func calcTank(x *figCtx) {
 // M = k√(L1L2), windings aiding (reference-values §3).
 func calcHartley(x *figCtx) {
 	p := x.part("coil")
-	a, b, l, _, ok := x.coil("coil")
+	c, ok := x.coil("coil")
 	if !ok || p == nil {
 		return
 	}
@@ -206,14 +214,15 @@ func calcHartley(x *figCtx) {
 		x.set("l2_h", l2)
 		x.set("m_h", m)
 	}
-	x.tankFigures(l, a, b, x.parts("caps"))
+	x.tankFigures(c.l, c.a, c.b, x.parts("caps"))
 }
 
 // calcColpitts: Ceff = C1C2/(C1+C2); feedback fraction β = C1/C2 with C1
 // across the output and C2 across the input, so the loop needs |A| ≥ C2/C1
 // (reference-values §3).
 func calcColpitts(x *figCtx) {
-	_, _, l, _, ok := x.coil("coil")
+	coil, ok := x.coil("coil")
+	l := coil.l
 	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
 	if !ok || c1 <= 0 || c2 <= 0 {
 		return
@@ -228,7 +237,8 @@ func calcColpitts(x *figCtx) {
 
 // calcClapp: 1/Ceff = 1/C1 + 1/C2 + 1/C3 (reference-values §3).
 func calcClapp(x *figCtx) {
-	_, _, l, _, ok := x.coil("coil")
+	coil, ok := x.coil("coil")
+	l := coil.l
 	c1, c2, c3 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1), sumCap(x.parts("c3"), 1)
 	if !ok || c1 <= 0 || c2 <= 0 || c3 <= 0 {
 		return
@@ -251,6 +261,21 @@ func calcCrystal(x *figCtx) {
 func calcRC(x *figCtx) {
 	r := parallelR(x.parts("r"))
 	c := sumCap(x.parts("c"), 1)
+	if x.word("use", "") == "detector" {
+		// The diode's load is everything resistive from its output to
+		// ground: the load resistor, and the filter and volume control
+		// beyond it.
+		if cs := x.parts("c"); len(cs) > 0 {
+			for j := range cs[0].Pins {
+				if id := x.w.pinNet(x.partIndex(cs[0]), cs[0].Pins[j].Name); id != groundNet {
+					if dc := resistanceToGround(x.w, id); dc > 0 {
+						r = dc
+						x.set("r_load_ohm", dc)
+					}
+				}
+			}
+		}
+	}
 	if r <= 0 || c <= 0 {
 		return
 	}
@@ -317,7 +342,8 @@ func calcWien(x *figCtx) {
 // (the loop), f = 1/(2π√(L·C1C2/(C1+C2))); as a matching network it steps
 // the impedance by about (C2/C1)² (from memory, high-Q approximation).
 func calcPi(x *figCtx) {
-	_, _, l, _, ok := x.coil("coil")
+	coil, ok := x.coil("coil")
+	l := coil.l
 	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
 	if !ok || c1 <= 0 || c2 <= 0 {
 		return
@@ -382,6 +408,102 @@ func calcRatio(x *figCtx) {
 		return
 	}
 	x.set("turns_ratio", math.Sqrt(first.l/other.l))
+}
+
+func (x *figCtx) partIndex(p *graph.Part) int {
+	for i, q := range x.w.parts {
+		if q == p {
+			return i
+		}
+	}
+	return -1
+}
+
+// resistanceToGround is the DC resistance from a net to AC ground through
+// every resistor and potentiometer of the circuit (a pot as two sections
+// split at its wiper), found by nodal analysis with 1 A into the net. 0 when
+// no resistive path reaches ground.
+func resistanceToGround(w *world, net int) float64 {
+	type branch struct {
+		a, b int
+		g    float64
+	}
+	var branches []branch
+	for ci, p := range w.parts {
+		switch p.Kind {
+		case graph.Resistor:
+			if len(w.pins[ci]) == 2 && p.Value.Max > 0 {
+				branches = append(branches, branch{w.pins[ci][0], w.pins[ci][1], 1 / p.Value.Max})
+			}
+		case graph.Pot:
+			one, wiper, two := w.pinNet(ci, "1"), w.pinNet(ci, "w"), w.pinNet(ci, "2")
+			r := p.Value.Max
+			if one < 0 || two < 0 || r <= 0 {
+				continue
+			}
+			set := math.Min(math.Max(p.Set, 1e-6), 1-1e-6)
+			if wiper < 0 {
+				branches = append(branches, branch{one, two, 1 / r})
+				continue
+			}
+			branches = append(branches, branch{one, wiper, 1 / (set * r)}, branch{wiper, two, 1 / ((1 - set) * r)})
+		}
+	}
+	// The nets the net reaches through resistors, ground excluded.
+	idx := map[int]int{net: 0}
+	order := []int{net}
+	grounded := false
+	for k := 0; k < len(order); k++ {
+		for _, br := range branches {
+			for _, pair := range [][2]int{{br.a, br.b}, {br.b, br.a}} {
+				if pair[0] != order[k] {
+					continue
+				}
+				if pair[1] == groundNet {
+					grounded = true
+					continue
+				}
+				if _, ok := idx[pair[1]]; !ok {
+					idx[pair[1]] = len(order)
+					order = append(order, pair[1])
+				}
+			}
+		}
+	}
+	if !grounded {
+		return 0
+	}
+	n := len(order)
+	mat := make([][]float64, n)
+	for i := range mat {
+		mat[i] = make([]float64, n+1)
+	}
+	mat[0][n] = 1 // 1 A into the net
+	for _, br := range branches {
+		i, iok := idx[br.a]
+		j, jok := idx[br.b]
+		if br.a == groundNet {
+			i, iok = -1, true
+		}
+		if br.b == groundNet {
+			j, jok = -1, true
+		}
+		if !iok || !jok || i == j {
+			continue
+		}
+		if i >= 0 {
+			mat[i][i] += br.g
+		}
+		if j >= 0 {
+			mat[j][j] += br.g
+		}
+		if i >= 0 && j >= 0 {
+			mat[i][j] -= br.g
+			mat[j][i] -= br.g
+		}
+	}
+	v := solve(mat)
+	return v[0]
 }
 
 // sumCap adds capacitors in parallel at a setting of the variable ones.

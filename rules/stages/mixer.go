@@ -107,10 +107,11 @@ func (x *figCtx) checkIF(ref string, f float64) {
 // tuning, the tracking error across the dial and the three-point padder
 // (reference-values §2).
 func calcMixer(x *figCtx) {
-	oa, ob, lo, _, ok := x.coil("coil")
+	oc, ok := x.coil("coil")
 	if !ok {
 		return
 	}
+	oa, ob, lo := oc.a, oc.b, oc.l
 	oscCaps := x.parts("caps")
 	omin, omax := resonance(lo, capBetween(x.w, oscCaps, oa, ob, 1)), resonance(lo, capBetween(x.w, oscCaps, oa, ob, 0))
 	x.set("osc_f_min_hz", omin)
@@ -118,11 +119,11 @@ func calcMixer(x *figCtx) {
 	ifHz := x.w.c.Freqs["if"]
 	spec := x.spec
 	x.spec = FigureSpec{Calc: "tank", Args: map[string][]string{"coil": spec.Args["ift"], "caps": spec.Args["ift_caps"], "winding": {"1"}}}
-	ia, ib, il, _, iok := x.coil("coil")
+	ic, iok := x.coil("coil")
 	x.spec = spec
 	ift := math.NaN()
 	if iok {
-		ift = resonance(il, capBetween(x.w, x.parts("ift_caps"), ia, ib, 1))
+		ift = resonance(ic.l, capBetween(x.w, x.parts("ift_caps"), ic.a, ic.b, 1))
 		x.set("ift_f_hz", ift)
 		if p := x.part("ift"); p != nil {
 			x.checkIF(p.Ref, ift)
@@ -149,7 +150,7 @@ func calcMixer(x *figCtx) {
 		}
 	}
 	osc := &tankModel{w: x.w, l: lo, a: oa, b: ob, caps: oscCaps}
-	x.tracking(osc.original(x.part("coil").Ref, x.w.orig), ifHz)
+	x.tracking(osc.original(oc, x.w.orig), ifHz)
 }
 
 // tankModel is a coil and the capacitors that tune it, between nets a and b
@@ -169,7 +170,7 @@ func (t *tankModel) f(frac float64) float64 {
 // reduced ones stand for: a reduction folds a padder and a trimmer into one
 // variable part whose span is exact only at its ends, and tracking needs the
 // whole dial. It returns t itself when there is no original to go back to.
-func (t *tankModel) original(coilRef string, orig *world) *tankModel {
+func (t *tankModel) original(oc coilEnds, orig *world) *tankModel {
 	if orig == nil {
 		return t
 	}
@@ -185,19 +186,15 @@ func (t *tankModel) original(coilRef string, orig *world) *tankModel {
 	}
 	ci := -1
 	for i, p := range orig.parts {
-		if p.Ref == coilRef {
+		if p.Ref == oc.ref {
 			ci = i
 		}
 	}
 	if ci < 0 {
 		return t
 	}
-	coil := orig.parts[ci]
-	out := &tankModel{w: orig, l: t.l, caps: caps}
-	switch coil.Kind {
-	case graph.Inductor:
-		out.a, out.b = orig.pinNet(ci, "1"), orig.pinNet(ci, "2")
-	default:
+	out := &tankModel{w: orig, l: t.l, caps: caps, a: orig.pinNet(ci, oc.pinA), b: orig.pinNet(ci, oc.pinB)}
+	if out.a < 0 || out.b < 0 {
 		return t
 	}
 	return out

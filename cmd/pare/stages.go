@@ -1,0 +1,263 @@
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"strings"
+
+	"pare/graph"
+	"pare/rules"
+	"pare/rules/stages"
+)
+
+type stagesOpts struct {
+	json     bool
+	patterns string
+	level    string
+	limit    int
+}
+
+func init() {
+	register(&command{
+		name:    "stages",
+		args:    "FILE [--json] [--patterns DIR] [--level tidy|signal|ideal]",
+		summary: "name the stages of a circuit by their topology and compute the figures a repairer checks",
+		detail: `Reduces the circuit (at --level, default signal), then finds every stage
+topology of the pattern library in the reduced circuit: oscillators, amplifiers,
+mixers, tuned circuits, detectors, couplings, and on the original circuit the
+power supply. Stages are named S1, S2, … in signal order from the circuit's
+inputs; a stage inside another (the tank of an oscillator) is named after it,
+S2.1. Each stage comes with its figures (resonances and tuning ranges, IF,
+image, tracking, time constants, mid-band gain) and with flags for figures a
+repairer would question. Parts in no stage are listed with the reason.
+
+--patterns DIR adds the pattern files (*.toml) in DIR to the built-in library;
+a file with the id of a built-in pattern replaces it (docs/patterns.md).
+--json prints {"stages": [...]} with figures in SI base units.`,
+		flags: func(fs *flag.FlagSet) any {
+			o := &stagesOpts{}
+			fs.BoolVar(&o.json, "json", false, "print the stages as JSON, figures in SI base units")
+			fs.StringVar(&o.patterns, "patterns", "", "directory of extra pattern files (*.toml)")
+			fs.StringVar(&o.level, "level", "signal", "how far to reduce before matching: tidy, signal or ideal")
+			fs.IntVar(&o.limit, "limit", stages.DefaultLimit, "search steps before the matcher gives up")
+			return o
+		},
+		run: runStages,
+	})
+}
+
+// stagesCaution goes with every stage list: it is read beside the set.
+const stagesCaution = "Figures are small-signal values from the reduced circuit, not DC voltages. Valve sets carry lethal HT and may have a live chassis; " +
+	"capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
+
+// reasonUnmatched is what a part in no stage is told.
+const reasonUnmatched = "not part of a known topology"
+
+type stagesJSON struct {
+	Title     string          `json:"title,omitempty"`
+	Level     string          `json:"level"`
+	Stages    []stages.Stage  `json:"stages"`
+	Unmatched []unmatchedJSON `json:"unmatched"`
+	Warning   string          `json:"warning,omitempty"`
+	Caution   string          `json:"caution"`
+}
+
+type unmatchedJSON struct {
+	Ref    string `json:"ref"`
+	Reason string `json:"reason"`
+}
+
+func runStages(e *env, opts any, args []string) int {
+	o := opts.(*stagesOpts)
+	if len(args) != 1 {
+		fmt.Fprintln(e.stderr, "pare stages: give exactly one netlist file")
+		fmt.Fprintln(e.stderr, "usage: pare stages FILE [--json] [--patterns DIR] [--level tidy|signal|ideal]")
+		return exitBad
+	}
+	lvl, err := rules.ParseLevel(o.level)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare stages: %v\n", err)
+		return exitBad
+	}
+	if o.limit <= 0 {
+		fmt.Fprintf(e.stderr, "pare stages: --limit %d: give a positive number of search steps\n", o.limit)
+		return exitBad
+	}
+	path := args[0]
+	c, ok := loadCircuit(e, path)
+	if !ok {
+		return exitBad
+	}
+	reduced, log, err := rules.Reduce(c, rules.Options{Level: lvl})
+	if err != nil {
+		printErrors(e, "pare stages", path, err)
+		return exitBad
+	}
+	found, err := stages.Find(reduced, stages.Options{PatternDir: o.patterns, Full: c, ACGround: log.ACGround, Limit: o.limit})
+	warning := ""
+	if err != nil {
+		if !errors.Is(err, stages.ErrSearchLimit) {
+			printErrors(e, "pare stages", o.patterns, err)
+			return exitBad
+		}
+		warning = err.Error()
+	}
+	var unmatched []unmatchedJSON
+	for _, ref := range stages.Unmatched(reduced, found) {
+		unmatched = append(unmatched, unmatchedJSON{Ref: ref, Reason: reasonUnmatched})
+	}
+	code := exitOK
+	if warning != "" {
+		fmt.Fprintf(e.stderr, "pare stages: %s: %s; the stages below are those found so far\n", path, warning)
+		code = exitFound
+	}
+	if o.json {
+		out := stagesJSON{Title: c.Title, Level: lvl.String(), Stages: found, Unmatched: unmatched, Warning: warning, Caution: stagesCaution}
+		if out.Stages == nil {
+			out.Stages = []stages.Stage{}
+		}
+		if out.Unmatched == nil {
+			out.Unmatched = []unmatchedJSON{}
+		}
+		err := writeOutput(e, "-", func(w io.Writer) error {
+			enc := json.NewEncoder(w)
+			enc.SetIndent("", "  ")
+			return enc.Encode(out)
+		})
+		if err != nil {
+			fmt.Fprintf(e.stderr, "pare stages: %v\n", err)
+			return exitBad
+		}
+		return code
+	}
+	err = writeOutput(e, "-", func(w io.Writer) error {
+		printStages(w, path, c, lvl, found, unmatched)
+		return nil
+	})
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare stages: %v\n", err)
+		return exitBad
+	}
+	return code
+}
+
+// printErrors prints a positioned error list one problem a line, or a
+// plain error with context.
+func printErrors(e *env, who, path string, err error) {
+	var list graph.ErrorList
+	if errors.As(err, &list) {
+		for _, x := range list {
+			fmt.Fprintln(e.stderr, x.Error())
+		}
+		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+		return
+	}
+	fmt.Fprintf(e.stderr, "%s: %s: %v\n", who, path, err)
+}
+
+// hiddenFigures are the working values a table leaves to --json: the
+// capacitance and inductance that go into a resonance, the Qs behind kc.
+var hiddenFigures = map[string]bool{
+	"c_f": true, "c_min_f": true, "c_max_f": true, "l_h": true, "l1_h": true, "l2_h": true, "m_h": true,
+	"q1": true, "q2": true, "k_ratio": true, "gain_db": true,
+}
+
+func printStages(w io.Writer, path string, c *graph.Circuit, lvl rules.Level, found []stages.Stage, unmatched []unmatchedJSON) {
+	title := c.Title
+	if title == "" {
+		title = path
+	}
+	fmt.Fprintf(w, "%s: %d stage(s), reduced at level %s\n\n", title, len(found), lvl)
+	if len(found) > 0 {
+		nameW, topoW := len("stage"), len("topology")
+		for _, s := range found {
+			nameW = max(nameW, len(s.Name))
+			topoW = max(topoW, len(s.Topology))
+		}
+		fmt.Fprintf(w, "%-*s  %-*s  %s\n", nameW, "stage", topoW, "topology", "title / parts")
+		for _, s := range found {
+			fmt.Fprintf(w, "%-*s  %-*s  %s\n", nameW, s.Name, topoW, s.Topology, s.Title)
+			pad := strings.Repeat(" ", nameW+topoW+4)
+			fmt.Fprintf(w, "%sparts: %s\n", pad, strings.Join(s.Parts, " "))
+			for _, line := range wrap(figureLine(s.Figures), 96-len(pad)) {
+				fmt.Fprintf(w, "%s%s\n", pad, line)
+			}
+			if len(s.Contains) > 0 {
+				fmt.Fprintf(w, "%scontains: %s\n", pad, strings.Join(s.Contains, ", "))
+			}
+			for _, f := range s.Flags {
+				fmt.Fprintf(w, "%s! %s\n", pad, f)
+			}
+		}
+	}
+	if len(unmatched) > 0 {
+		fmt.Fprintln(w)
+		for _, u := range unmatched {
+			fmt.Fprintf(w, "%s: %s\n", u.Ref, u.Reason)
+		}
+	}
+	fmt.Fprintf(w, "\n%s\n", stagesCaution)
+}
+
+// figureLine prints a stage's figures on one line, a min/max pair as one
+// range ("osc f 1 MHz–2.07 MHz").
+func figureLine(figs map[string]float64) string {
+	var out []string
+	done := map[string]bool{}
+	for _, k := range stages.KeyFigures(figs) {
+		if done[k] || hiddenFigures[lastFigure(k)] {
+			continue
+		}
+		if strings.Contains(k, "_max_") {
+			if _, ok := figs[strings.Replace(k, "_max_", "_min_", 1)]; ok {
+				continue // printed with its minimum
+			}
+		}
+		if strings.Contains(k, "_min_") {
+			hi := strings.Replace(k, "_min_", "_max_", 1)
+			if v, ok := figs[hi]; ok {
+				done[hi] = true
+				label := figureLabel(strings.Replace(k, "_min_", "_", 1))
+				out = append(out, label+" "+stages.FigureText(k, figs[k])+"–"+stages.FigureText(hi, v))
+				continue
+			}
+		}
+		out = append(out, figureLabel(k)+" "+stages.FigureText(k, figs[k]))
+	}
+	return strings.Join(out, ", ")
+}
+
+// wrap breaks a figure line after commas so no line runs past width.
+func wrap(s string, width int) []string {
+	if s == "" {
+		return nil
+	}
+	var lines []string
+	cur := ""
+	for _, part := range strings.Split(s, ", ") {
+		switch {
+		case cur == "":
+			cur = part
+		case len(cur)+2+len(part) > width:
+			lines = append(lines, cur+",")
+			cur = part
+		default:
+			cur += ", " + part
+		}
+	}
+	return append(lines, cur)
+}
+
+// lastFigure strips a calc prefix ("osc_c_min_f" → "c_min_f") so the hidden
+// working values are hidden whatever stage they belong to.
+func lastFigure(k string) string {
+	for _, base := range []string{"c_min_f", "c_max_f", "c_f", "l1_h", "l2_h", "l_h", "m_h"} {
+		if k == base || strings.HasSuffix(k, "_"+base) && !strings.HasPrefix(k, "pad_") {
+			return base
+		}
+	}
+	return k
+}
