@@ -210,7 +210,7 @@ func (d *drawer) caution() string {
 	if c == "" {
 		c = DefaultCaution
 	}
-	if d.sheet.View == Reduced && !strings.Contains(strings.ToLower(c), "small-signal only") {
+	if d.sheet.View == Reduced && !strings.Contains(strings.ToLower(c), "small-signal") {
 		c += " " + smallSignal
 	}
 	return c

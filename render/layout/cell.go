@@ -83,10 +83,12 @@ func corridor(p geom.Pin) geom.Rect {
 	s := p.Dir.Step()
 	end := geom.Pt{X: p.At.X + 2*s.X, Y: p.At.Y + 2*s.Y}
 	r := geom.R(p.At.X, p.At.Y, end.X, end.Y)
+	// a full grid step either side, so that no box rounded out to the grid
+	// covers the row (or column) the wire leaves along
 	if s.X != 0 {
-		return geom.Rect{X0: r.X0, Y0: r.Y0 - 0.45, X1: r.X1, Y1: r.Y1 + 0.45}
+		return geom.Rect{X0: r.X0, Y0: r.Y0 - 1, X1: r.X1, Y1: r.Y1 + 1}
 	}
-	return geom.Rect{X0: r.X0 - 0.45, Y0: r.Y0, X1: r.X1 + 0.45, Y1: r.Y1}
+	return geom.Rect{X0: r.X0 - 1, Y0: r.Y0, X1: r.X1 + 1, Y1: r.Y1}
 }
 
 // railText is what a rail symbol says: the net's label, else its voltage,

@@ -447,6 +447,14 @@ func (ly *state) assignColumns() {
 			}
 		}
 	}
+	if len(ly.o.Frames) > 0 {
+		// parts no frame reaches get columns of their own after the frames
+		for _, cl := range ly.cells {
+			if _, ok := st[cl.ref]; !ok && cl.edge == 0 {
+				st[cl.ref] = len(ly.o.Frames)
+			}
+		}
+	}
 	type key struct{ stage, rank int }
 	keys := map[key]bool{}
 	for _, cl := range ly.cells {

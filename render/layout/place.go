@@ -172,7 +172,7 @@ func (ly *state) place() {
 		gap := float64(colGap + min(running, maxTracks))
 		if i+1 < len(cols) && colStage[i] != colStage[i+1] {
 			gap += stageGap
-			if s := colStage[i]; s >= 0 {
+			if s := colStage[i]; s >= 0 && s < len(ly.o.Frames) {
 				// leave room for a frame title wider than its parts
 				tw := titleWidth(ly.o.Frames[s])
 				if have := x + w - stageStart[s]; tw > have {
@@ -321,7 +321,7 @@ func (ly *state) makeFrames() {
 		h := symbol.LineH * float64(len(lines))
 		w := titleWidth(f) - 2*framePad
 		title := geom.Label{Owner: "frame:" + f.Title, Lines: lines, Small: true,
-			Box: geom.Rect{X0: b.X0, Y0: b.Y0 - 1 - h, X1: b.X0 + w, Y1: b.Y0 - 1}}
+			Box: geom.Rect{X0: b.X0, Y0: b.Y0 - 2.2 - h, X1: b.X0 + w, Y1: b.Y0 - 2.2}}
 		box := b.Union(title.Box).Inset(framePad)
 		ly.frames = append(ly.frames, geom.Frame{Box: box, Title: title})
 	}

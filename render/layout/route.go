@@ -560,15 +560,16 @@ func (rt *router) flagNet(id int) {
 	text := railText(rt.ly.c.Net(nr.name), nr.name)
 	for _, wp := range nr.pins {
 		var chosen *geom.Local
-		var cand geom.Local
-		for s := 1.0; s <= 4 && chosen == nil; s++ {
-			cand = rt.flagAt(wp, text, s)
-			if rt.free(cand, id) {
-				chosen = &cand
+		for s := 1.0; s <= 8 && chosen == nil; s++ {
+			for side := 0; side < 3 && chosen == nil; side++ {
+				cand := rt.flagAt(wp, text, s, side)
+				if rt.free(cand, id) {
+					chosen = &cand
+				}
 			}
 		}
 		if chosen == nil {
-			cand = rt.flagAt(wp, text, 1)
+			cand := rt.flagAt(wp, text, 1, 0)
 			chosen = &cand
 		}
 		rt.block(chosen.Box, false)
@@ -580,14 +581,23 @@ func (rt *router) flagNet(id int) {
 	}
 }
 
-func (rt *router) flagAt(wp wirePin, text string, s float64) geom.Local {
+func (rt *router) flagAt(wp wirePin, text string, s float64, side int) geom.Local {
 	st := wp.pin.Dir.Step()
 	end := geom.Pt{X: wp.pin.At.X + s*st.X, Y: wp.pin.At.Y + s*st.Y}
 	w := symbol.TextWidth(text)*symbol.SmallScale + 0.6
 	h := symbol.LineH * symbol.SmallScale
 	l := geom.Local{Kind: geom.LocalFlag, Net: wp.pin.Net, Owner: wp.ref, Pin: wp.pin.Name,
 		Stub: []geom.Seg{{A: wp.pin.At, B: end}}, At: end, Text: text, Side: wp.pin.Dir, Faded: wp.faded}
-	switch wp.pin.Dir {
+	// side 0: the flag continues the stub; 1 and 2: it sits beside the
+	// stub's end, on one side or the other
+	dir := wp.pin.Dir
+	if side > 0 {
+		dir = geom.Dir((int(dir) + 2*side - 1) % 4)
+		if dir < 0 {
+			dir += 4
+		}
+	}
+	switch dir {
 	case geom.Left:
 		l.Box = geom.R(end.X-w, end.Y-h/2, end.X, end.Y+h/2)
 	case geom.Right:

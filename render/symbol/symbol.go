@@ -462,7 +462,7 @@ func valve(p *graph.Part, st Style) Shape {
 	// envelope: a circle for small valves, a stadium for tall ones
 	h := bottom - top
 	if h <= 4 {
-		c := (top + bottom) / 2
+		c := math.Ceil((top + bottom) / 2) // pins stay on whole grid points
 		top, bottom = c-2, c+2
 		s.Prims = append(s.Prims, circle(pt(0, c), 2))
 	} else {

@@ -1,0 +1,270 @@
+package main
+
+import (
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"path/filepath"
+	"sort"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/value"
+	"pare/render"
+	"pare/rules"
+	"pare/rules/stages"
+)
+
+type drawOpts struct {
+	out     string
+	view    string
+	symbols string
+	focus   string
+	level   string
+}
+
+func init() {
+	register(&command{
+		name:    "draw",
+		args:    "FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--focus REF,...] [--level tidy|signal|ideal]",
+		summary: "draw the signal-path sheet of a netlist as SVG",
+		detail: `Draws one sheet: the reduced circuit (the default), the full original
+circuit, or the original with the parts the reduction removed faded and the
+parts it merged marked with the part they went into. Stages pare recognises
+are framed and titled with their key figures. Signal runs left to right;
+grounds and rails are drawn as local symbols at each pin.
+
+--symbols chooses IEC 60617 (rectangle resistor, the default) or IEEE 315
+(zig-zag resistor). --focus and --level are passed to the reduction (see
+'pare help reduce'). A reduced sheet is a small-signal diagram only, not a
+wiring diagram. The file is written whole or not at all.`,
+		flags: func(fs *flag.FlagSet) any {
+			o := &drawOpts{}
+			fs.StringVar(&o.out, "o", "", "write the SVG to this file (- for standard output)")
+			fs.StringVar(&o.view, "view", "reduced", "what to draw: reduced, full or faded")
+			fs.StringVar(&o.symbols, "symbols", "iec", "symbol style: iec (IEC 60617) or ieee (IEEE 315)")
+			fs.StringVar(&o.focus, "focus", "", "comma-separated refs or net names: reduce only the stage(s) around them")
+			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
+			return o
+		},
+		run: runDraw,
+	})
+}
+
+const drawUsage = "usage: pare draw FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--focus REF,...] [--level tidy|signal|ideal]"
+
+func runDraw(e *env, opts any, args []string) int {
+	o := opts.(*drawOpts)
+	if len(args) != 1 {
+		fmt.Fprintln(e.stderr, "pare draw: give exactly one netlist file")
+		fmt.Fprintln(e.stderr, drawUsage)
+		return exitBad
+	}
+	if o.out == "" {
+		fmt.Fprintln(e.stderr, "pare draw: no output file: give -o OUT.svg (or -o - for standard output)")
+		return exitBad
+	}
+	view, err := render.ParseView(o.view)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare draw: --view: %v\n", err)
+		return exitBad
+	}
+	style, err := render.ParseStyle(o.symbols)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare draw: --symbols: %v\n", err)
+		return exitBad
+	}
+	lvl, err := rules.ParseLevel(o.level)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare draw: --level: %v\n", err)
+		return exitBad
+	}
+	path := args[0]
+	c, ok := loadCircuit(e, path)
+	if !ok {
+		return exitBad
+	}
+	ro := rules.Options{Level: lvl}
+	for _, f := range strings.Split(o.focus, ",") {
+		if f = strings.TrimSpace(f); f != "" {
+			ro.Focus = append(ro.Focus, f)
+		}
+	}
+	sheet, err := drawSheet(c, path, view, ro)
+	if err != nil {
+		var list graph.ErrorList
+		if errors.As(err, &list) {
+			for _, x := range list {
+				fmt.Fprintln(e.stderr, x.Error())
+			}
+			fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+			return exitBad
+		}
+		fmt.Fprintf(e.stderr, "pare draw: %s: %v\n", path, err)
+		return exitBad
+	}
+	cfg := render.Config{Style: style}
+	if err := writeOutput(e, o.out, func(w io.Writer) error { return cfg.Fprint(w, sheet) }); err != nil {
+		fmt.Fprintf(e.stderr, "pare draw: %s: %v\n", o.out, err)
+		return exitBad
+	}
+	return exitOK
+}
+
+// drawSheet reduces the circuit (except for a full view without focus, which
+// needs nothing but the circuit), finds its stages and fills the sheet.
+func drawSheet(c *graph.Circuit, path string, view render.View, ro rules.Options) (*render.Sheet, error) {
+	title := c.Title
+	if title == "" {
+		title = filepath.Base(path)
+	}
+	reduced, log, err := rules.Reduce(c, ro)
+	if err != nil {
+		return nil, err
+	}
+	found, err := stages.Find(reduced, stages.Options{Full: c, ACGround: log.ACGround})
+	if err != nil && !errors.Is(err, stages.ErrSearchLimit) {
+		return nil, fmt.Errorf("recognising stages: %w", err)
+	}
+	s := &render.Sheet{Title: title, View: view, Caution: drawCaution, Furniture: sheetFurniture(c, found, ro.Level)}
+	switch view {
+	case render.Reduced:
+		s.Circuit = reduced
+		s.Frames = stageFrames(found, reduced, nil)
+	case render.Full:
+		s.Circuit = c
+		s.Frames = stageFrames(found, reduced, c)
+	case render.Faded:
+		s.Circuit = c
+		s.Faded, s.Merged = fadedAndMerged(c, reduced)
+		s.Frames = stageFrames(found, reduced, c)
+	}
+	return s, nil
+}
+
+// drawCaution is the sheet's one-line caution; the renderer adds
+// "small-signal only" to reduced views.
+const drawCaution = "Caution: valve HT and mains can kill; capacitors stay charged and the chassis may be live. " +
+	"Use an isolation transformer and follow local codes and licensed practice."
+
+// fadedAndMerged compares the original with the reduced circuit through the
+// reduced parts' origins: an original part no reduced part stands for was
+// removed (faded); one that a reduced part of another ref stands for was
+// merged into it.
+func fadedAndMerged(orig, reduced *graph.Circuit) (map[string]bool, map[string]string) {
+	kept := map[string]bool{}
+	merged := map[string]string{}
+	for _, rp := range reduced.Parts {
+		for _, o := range rp.Origins() {
+			kept[o] = true
+			if o != rp.Ref {
+				merged[o] = rp.Ref
+			}
+		}
+	}
+	faded := map[string]bool{}
+	for _, p := range orig.Parts {
+		if !kept[p.Ref] {
+			faded[p.Ref] = true
+		}
+	}
+	return faded, merged
+}
+
+// stageFrames makes one frame per top-level stage (sub-stages would draw
+// frames inside frames). On a sheet of the original circuit (full not nil) a
+// frame holds the original parts its reduced parts stand for.
+func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Frame {
+	sub := map[string]bool{}
+	for _, s := range found {
+		for _, c := range s.Contains {
+			sub[c] = true
+		}
+	}
+	var frames []render.Frame
+	for _, s := range found {
+		if sub[s.Name] {
+			continue
+		}
+		set := map[string]bool{}
+		for _, ref := range s.Parts {
+			rp := reduced.Part(ref)
+			switch {
+			case full == nil && rp != nil:
+				set[ref] = true
+			case full != nil && rp != nil:
+				for _, o := range rp.Origins() {
+					if full.Part(o) != nil {
+						set[o] = true
+					}
+				}
+			case full != nil && full.Part(ref) != nil:
+				set[ref] = true
+			}
+		}
+		if len(set) == 0 {
+			continue
+		}
+		parts := make([]string, 0, len(set))
+		for ref := range set {
+			parts = append(parts, ref)
+		}
+		sort.Strings(parts)
+		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts})
+	}
+	return frames
+}
+
+// frameFigures prints up to n figures, sorted by key, for a frame's second
+// line: "f max 2.07 MHz, f min 1 MHz".
+func frameFigures(figs map[string]float64, n int) string {
+	keys := make([]string, 0, len(figs))
+	for k := range figs {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	if len(keys) > n {
+		keys = keys[:n]
+	}
+	out := make([]string, len(keys))
+	for i, k := range keys {
+		name := k
+		for _, unit := range []string{"_hz", "_s", "_ohm", "_f", "_h", "_v", "_db"} {
+			name = strings.TrimSuffix(name, unit)
+		}
+		out[i] = strings.ReplaceAll(name, "_", " ") + " " + stages.FigureText(k, figs[k])
+	}
+	return strings.Join(out, ", ")
+}
+
+// sheetFurniture is the sheet's information block: band, regions, named
+// frequencies, tuning ranges and the reduction level.
+func sheetFurniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string {
+	var lines []string
+	for _, r := range c.Regions {
+		if r.Band.Max > 0 {
+			lines = append(lines, "Region "+r.Name+": "+value.FormatRange(r.Band, value.Hertz, value.Symbol))
+		}
+	}
+	names := make([]string, 0, len(c.Freqs))
+	for k := range c.Freqs {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	for _, k := range names {
+		label := k
+		if strings.EqualFold(k, "if") {
+			label = "IF"
+		}
+		lines = append(lines, label+" "+value.Format(c.Freqs[k], value.Hertz, value.Symbol))
+	}
+	for _, s := range found {
+		lo, okLo := s.Figures["f_min_hz"]
+		hi, okHi := s.Figures["f_max_hz"]
+		if okLo && okHi && hi > lo {
+			lines = append(lines, "Tuning "+s.Name+": "+value.FormatRange(value.Range{Min: lo, Max: hi}, value.Hertz, value.Symbol))
+		}
+	}
+	return append(lines, "Reduction level "+lvl.String())
+}

@@ -1,0 +1,190 @@
+package main
+
+import (
+	"bytes"
+	"encoding/xml"
+	"errors"
+	"flag"
+	"io"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"pare/graph"
+	"pare/render"
+	"pare/render/check"
+	"pare/rules"
+)
+
+var updateSheets = flag.Bool("update", false, "rewrite the example sheets under examples/")
+
+var drawViews = []render.View{render.Reduced, render.Full, render.Faded}
+
+func exampleFiles(t testing.TB) []string {
+	files, err := filepath.Glob("../../examples/*.toml")
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no examples found: %v", err)
+	}
+	return files
+}
+
+// TestDrawExamplesCheck lays out every example in every view and fails on
+// any overlap, wire through a symbol, broken net or bad junction, the
+// qualities the sheet must have; crossings and bends are reported, and the
+// reduced sheets must have no crossing inside a stage frame.
+func TestDrawExamplesCheck(t *testing.T) {
+	for _, f := range exampleFiles(t) {
+		c, err := loadForTest(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, v := range drawViews {
+			for _, st := range []render.Style{render.IEC, render.IEEE} {
+				s, err := drawSheet(c, f, v, rules.Options{Level: rules.LevelSignal})
+				if err != nil {
+					t.Fatalf("%s %s: %v", f, v, err)
+				}
+				g, err := render.Config{Style: st}.Geometry(s)
+				if err != nil {
+					t.Fatalf("%s %s: %v", f, v, err)
+				}
+				r := check.Measure(g)
+				t.Logf("%s %s %s: %s", filepath.Base(f), v, st, r.Summary())
+				for _, p := range r.Problems() {
+					t.Errorf("%s %s %s: %s", filepath.Base(f), v, st, p)
+				}
+				if v == render.Reduced {
+					for i, n := range r.FrameCrossings {
+						if n > 0 {
+							t.Errorf("%s reduced %s: %d crossings inside frame %q", filepath.Base(f), st, n, s.Frames[i].Title)
+						}
+					}
+				}
+			}
+		}
+	}
+}
+
+func loadForTest(path string) (*graphCircuit, error) { return loadGraph(path) }
+
+// sheetName is where the committed sheet of an example and view lives.
+func sheetName(toml string, v render.View) string {
+	return strings.TrimSuffix(toml, ".toml") + "." + v.String() + ".svg"
+}
+
+// TestDrawExampleSheets runs `pare draw` on every example in every view and
+// compares with the sheets committed under examples/ (byte-identical; run
+// with -update to regenerate), checks the SVG is well-formed XML with the
+// SVG namespace, and renders it with rsvg-convert.
+func TestDrawExampleSheets(t *testing.T) {
+	for _, f := range exampleFiles(t) {
+		for _, v := range drawViews {
+			var out, errb bytes.Buffer
+			code := run([]string{"draw", f, "-o", "-", "--view", v.String()}, &out, &errb)
+			if code != exitOK {
+				t.Fatalf("pare draw %s --view %s: exit %d: %s", f, v, code, errb.String())
+			}
+			checkXML(t, out.Bytes())
+			name := sheetName(f, v)
+			if *updateSheets {
+				if err := os.WriteFile(name, out.Bytes(), 0o644); err != nil {
+					t.Fatal(err)
+				}
+			}
+			want, err := os.ReadFile(name)
+			if err != nil {
+				t.Fatalf("%v (run go test ./cmd/pare -run TestDrawExampleSheets -update)", err)
+			}
+			if !bytes.Equal(want, out.Bytes()) {
+				t.Errorf("%s differs from what pare draws now (run with -update after checking the PNG)", name)
+			}
+			rsvg(t, name)
+			// the same input gives the same bytes
+			var again bytes.Buffer
+			run([]string{"draw", f, "-o", "-", "--view", v.String()}, &again, io.Discard)
+			if !bytes.Equal(again.Bytes(), out.Bytes()) {
+				t.Errorf("%s %s: two runs differ", f, v)
+			}
+		}
+	}
+}
+
+// checkXML decodes the whole document and checks the root is an svg element
+// in the SVG namespace.
+func checkXML(t *testing.T, data []byte) {
+	t.Helper()
+	d := xml.NewDecoder(bytes.NewReader(data))
+	root := true
+	for {
+		tok, err := d.Token()
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		if err != nil {
+			t.Fatalf("SVG is not well-formed XML: %v", err)
+		}
+		if se, ok := tok.(xml.StartElement); ok && root {
+			root = false
+			if se.Name.Local != "svg" || se.Name.Space != "http://www.w3.org/2000/svg" {
+				t.Fatalf("root element is %v, want svg in the SVG namespace", se.Name)
+			}
+		}
+	}
+}
+
+// rsvg renders an SVG file with rsvg-convert (librsvg, Debian librsvg2-bin);
+// skipped when it is missing unless PARE_REQUIRE_TOOLS is set.
+func rsvg(t *testing.T, file string) {
+	t.Helper()
+	bin, err := exec.LookPath("rsvg-convert")
+	if err != nil {
+		if os.Getenv("PARE_REQUIRE_TOOLS") != "" {
+			t.Fatal("rsvg-convert not found and PARE_REQUIRE_TOOLS is set (apt-get install librsvg2-bin)")
+		}
+		t.Skip("rsvg-convert not installed")
+	}
+	cmd := exec.Command(bin, file)
+	cmd.Stdout = io.Discard
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	if err := cmd.Run(); err != nil {
+		t.Errorf("rsvg-convert %s: %v: %s", file, err, stderr.String())
+	}
+}
+
+func TestDrawBadInput(t *testing.T) {
+	dir := t.TempDir()
+	bad := filepath.Join(dir, "bad.toml")
+	os.WriteFile(bad, []byte("title = \"x\"\nband = \"1k..2k\"\n[parts]\nR1 = { r = \"4k7\", pins = [\"a\"] }\n"), 0o644)
+	out := filepath.Join(dir, "out.svg")
+	cases := []struct {
+		name string
+		args []string
+		want string
+	}{
+		{"no output", []string{"draw", bad}, "no output file"},
+		{"bad view", []string{"draw", "../../examples/frequency-changer.toml", "-o", out, "--view", "sideways"}, "unknown view"},
+		{"bad symbols", []string{"draw", "../../examples/frequency-changer.toml", "-o", out, "--symbols", "din"}, "unknown symbol style"},
+		{"bad level", []string{"draw", "../../examples/frequency-changer.toml", "-o", out, "--level", "extreme"}, "level"},
+		{"bad netlist", []string{"draw", bad, "-o", out}, "bad.toml:4"},
+		{"two files", []string{"draw", bad, bad, "-o", out}, "exactly one"},
+	}
+	for _, tc := range cases {
+		var stdout, stderr bytes.Buffer
+		if code := run(tc.args, &stdout, &stderr); code != exitBad {
+			t.Errorf("%s: exit %d, want %d", tc.name, code, exitBad)
+		}
+		if !strings.Contains(stderr.String(), tc.want) {
+			t.Errorf("%s: stderr %q does not mention %q", tc.name, stderr.String(), tc.want)
+		}
+		if _, err := os.Stat(out); err == nil {
+			t.Errorf("%s: an output file was written", tc.name)
+		}
+	}
+}
+
+type graphCircuit = graph.Circuit
+
+func loadGraph(path string) (*graph.Circuit, error) { return graph.LoadFile(path) }
