@@ -304,3 +304,30 @@ func TestDiffCircuitsNotices(t *testing.T) {
 		t.Errorf("a clone differs: %v", d)
 	}
 }
+
+// TestValuesWrittenExactly: a value that needs more digits than its usual
+// letter-code form keeps them all (found by FuzzLoad: 70010 F was written
+// "70k"). The expected text is the letter code of IEC 60062 with the digits
+// the value has.
+func TestValuesWrittenExactly(t *testing.T) {
+	cases := []struct {
+		r    string
+		want string
+	}{
+		{"4702", `r = "4k702"`},
+		{"4.7k", `r = "4k7"`},
+		{"1.0001M", `r = "1M0001"`},
+		{"0.47", `r = "R47"`},
+		{"123456789", `r = "123M456789"`},
+	}
+	for _, tc := range cases {
+		c, err := Parse("t.toml", []byte(`band = "1M..2M"`+"\n[parts]\nR1 = { r = \""+tc.r+"\", pins = [\"a\", \"gnd\"] }\n"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		out := writeString(t, c)
+		if !strings.Contains(out, tc.want) {
+			t.Errorf("r = %q written as\n%s\nwant %s", tc.r, out, tc.want)
+		}
+	}
+}

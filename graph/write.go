@@ -396,15 +396,16 @@ func fmtNum(v float64, u value.Unit) string {
 	return strconv.FormatFloat(v, 'g', -1, 64)
 }
 
+// closeEnough reports whether text printed with the given number of digits
+// read back as the value itself (to 1e-12, what survives a decimal round trip
+// of a float64), so the shortest faithful form is chosen. Rounding to the
+// digits is never accepted: "4k70" for 4702 Ω would change the circuit.
 func closeEnough(a, b float64, digits int) bool {
+	_ = digits
 	if a == b {
 		return true
 	}
-	tol := math.Pow(10, -float64(digits)) * 0.5
-	if digits >= 15 {
-		tol = 1e-15
-	}
-	return math.Abs(a-b) <= tol*math.Max(math.Abs(a), math.Abs(b))
+	return math.Abs(a-b) <= 1e-12*math.Max(math.Abs(a), math.Abs(b))
 }
 
 func fmtRange(r value.Range, u value.Unit) string {
