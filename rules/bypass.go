@@ -23,7 +23,7 @@ var bypass = Rule{
 	Match: func(x *Ctx, a Anchor) *Plan {
 		p := a.Part
 		net, gnd := Ends(p, a.Flip)
-		if p.Keep || len(p.Pins) != 2 || net == "nc" || gnd == "nc" || net == gnd {
+		if p.Kind != graph.Capacitor || p.Keep || len(p.Pins) != 2 || net == "nc" || gnd == "nc" || net == gnd {
 			return nil
 		}
 		if !x.IsACGround(gnd) || x.IsACGround(net) || x.IsEnd(net) {

@@ -34,7 +34,7 @@ func TestBypass(t *testing.T) {
 		xc      string // |Xc| as the why prints it (5 significant digits)
 	}{
 		// Xc = 1/(2πfC) (derived): 1 µF at 20 Hz is 7957.7 Ω, far above 1 kΩ/10.
-		{"1uF across 1k at 20 Hz is no bypass", gridNet("20..20k", "1k", "1u", `["x", "gnd"]`, "")+"\n" /* R9 100k also on x */, false, "7.9577 kΩ"},
+		{"1uF across 1k at 20 Hz is no bypass", gridNet("20..20k", "1k", "1u", `["x", "gnd"]`, "") + "\n" /* R9 100k also on x */, false, "7.9577 kΩ"},
 		// reference-values.md §4: 25 µF at 100 Hz = 63.6620 Ω ≤ 1 kΩ/10 … but R9 (100 kΩ) is on x too: 990.1 Ω/10 = 99.0 Ω.
 		{"25uF at 100 Hz bypasses 1k", gridNet("100..20k", "1k", "25u", `["x", "gnd"]`, ""), true, "63.662 Ω"},
 		// same part, typed the other way round: a symmetric match must still fire.

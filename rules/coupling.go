@@ -20,7 +20,7 @@ var couplingShort = Rule{
 	Kinds:   []graph.Kind{graph.Capacitor},
 	Match: func(x *Ctx, a Anchor) *Plan {
 		p := a.Part
-		if p.Keep || len(p.Pins) != 2 || p.Type == graph.CapVariable || p.Type == graph.CapTrimmer {
+		if p.Kind != graph.Capacitor || p.Keep || len(p.Pins) != 2 || p.Type == graph.CapVariable || p.Type == graph.CapTrimmer {
 			return nil
 		}
 		na, nb := Ends(p, false)

@@ -44,7 +44,7 @@ var staticElectrode = Rule{
 		}
 		var kept []string
 		for _, pin := range p.Pins {
-			if !contains(drop, pin.Name) {
+			if !contains(drop, pin.Name) && pin.Net != "nc" {
 				kept = append(kept, pin.Name)
 			}
 		}

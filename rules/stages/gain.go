@@ -2,8 +2,10 @@ package stages
 
 import (
 	"math"
+	"math/cmplx"
 
 	"pare/graph"
+	"pare/graph/ac"
 )
 
 // Thermal voltage at 300 K, kT/q with the exact SI 2019 constants
@@ -149,6 +151,7 @@ func calcGain(x *figCtx) {
 	if a != 0 {
 		x.set("gain_db", 20*math.Log10(math.Abs(a)))
 	}
+	x.crossCheckGain(p, form, a)
 	if form != "follower" {
 		x.set("r_load_ohm", rl)
 	}
@@ -182,4 +185,59 @@ func (x *figCtx) load() float64 {
 		}
 	}
 	return parallelR(rs)
+}
+
+// gainAgreement is how far the textbook gain and the AC solver's may differ
+// before a stage is flagged: 10 % (common practice, no source: about the
+// spread of valve and transistor parameters between samples).
+const gainAgreement = 0.10
+
+// crossCheckGain solves the whole reduced circuit with graph/ac, driving the
+// stage's input net with 1 V at the middle of the device's band (geometric
+// mean of its edges), and reads the output: gain_ac. A textbook formula that
+// disagrees means the stage is loaded or fed back in a way the formula does
+// not know; the flag says by how much.
+func (x *figCtx) crossCheckGain(p *graph.Part, form string, a float64) {
+	i := x.index(x.spec.Args["device"][0])
+	if i < 0 || a == 0 {
+		return
+	}
+	var inNet, outNet string
+	for _, pin := range x.m.v.parts[i].pp.Pins {
+		switch pin.Key {
+		case "control":
+			inNet = x.st.nets[pin.Net]
+		case "common":
+			if form == "follower" {
+				outNet = x.st.nets[pin.Net]
+			}
+			if form == "grid" {
+				inNet = x.st.nets[pin.Net]
+			}
+		}
+	}
+	if nets := x.spec.Args["load_net"]; len(nets) > 0 {
+		outNet = x.st.nets[nets[0]]
+	}
+	if inNet == "" || outNet == "" || x.w.c.Net(inNet) == nil || x.w.c.Net(outNet) == nil {
+		return
+	}
+	band := x.w.c.BandOf(p)
+	if band.Min <= 0 || band.Max <= 0 {
+		return
+	}
+	f := math.Sqrt(band.Min * band.Max)
+	h, err := ac.Transfer(x.w.c, inNet, outNet, []float64{f}, ac.Options{})
+	if err != nil || len(h) != 1 || cmplx.IsNaN(h[0]) {
+		return
+	}
+	g := cmplx.Abs(h[0])
+	if real(h[0]) < 0 {
+		g = -g
+	}
+	x.set("gain_ac", g)
+	if math.Abs(g-a) > gainAgreement*math.Abs(a) {
+		x.flag("textbook gain %s but the AC solver gives %s at %s: the stage is loaded or fed back beyond the formula",
+			trimFloat(a), trimFloat(g), FigureText("f_hz", f))
+	}
 }

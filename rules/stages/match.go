@@ -246,6 +246,10 @@ func (s *searcher) netFits(vn *vnet, net int) bool {
 		if net == groundNet || !w.role[net].IsACGround() {
 			return false
 		}
+	case "not-ground":
+		if net == groundNet {
+			return false
+		}
 	}
 	return net == groundNet || len(w.conns[net]) >= vn.distinctParts()
 }

@@ -421,7 +421,7 @@ func (ld *patLoader) net(path, name string, v any) {
 		kp := path + "." + k
 		switch k {
 		case "at":
-			n.At = ld.oneOf(kp, m[k], []string{"signal", "ground", "any", "rail"})
+			n.At = ld.oneOf(kp, m[k], []string{"signal", "ground", "any", "rail", "not-ground"})
 		case "outside":
 			n.Outside = ld.oneOf(kp, m[k], []string{"none", "some", "signal"})
 		default:
