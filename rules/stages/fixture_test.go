@@ -36,8 +36,11 @@ func circuit(t testing.TB, family, parts string, extra ...string) *graph.Circuit
 	t.Helper()
 	src := `title = "fixture"
 band = "530k..1.6M"
-inputs = ["in"]
-` + strings.Join(extra, "\n") + `
+`
+	if strings.Contains(parts, `"in"`) {
+		src += "inputs = [\"in\"]\n"
+	}
+	src += strings.Join(extra, "\n") + `
 [nets]
 ht = { role = "supply", volts = 250 }
 [parts]

@@ -24,6 +24,7 @@ type world struct {
 	byKind map[graph.Kind][]int
 	coils  [][]coil // part index → coils of a transformer
 	orig   *world   // the original circuit, folded the same way, when known
+	isEnd  []bool   // net id → a declared input or output of the circuit or a region
 }
 
 // coil is one winding of a transformer as the pattern sees it: two ends,
@@ -78,6 +79,16 @@ func newWorld(c *graph.Circuit, full bool, acGround map[string]bool) *world {
 			if l := w.conns[id]; len(l) == 0 || l[len(l)-1] != i {
 				w.conns[id] = append(w.conns[id], i)
 			}
+		}
+	}
+	w.isEnd = make([]bool, len(w.names))
+	ends := append(append([]string(nil), c.Inputs...), c.Outputs...)
+	for _, r := range c.Regions {
+		ends = append(ends, r.Input, r.Output)
+	}
+	for _, n := range ends {
+		if id, ok := w.netID[n]; ok && id != groundNet {
+			w.isEnd[id] = true
 		}
 	}
 	w.coils = make([][]coil, len(c.Parts))
@@ -290,8 +301,11 @@ func (s *searcher) complete(m *match) {
 				return
 			}
 		case "signal":
-			fed := false
+			fed := w.isEnd[net]
 			for _, ci := range others {
+				if w.parts[ci].Kind == graph.Port {
+					fed = true
+				}
 				for _, id := range w.pins[ci] {
 					if id != groundNet && !matchedNet[id] && !(w.full && w.role[id].IsACGround()) {
 						fed = true

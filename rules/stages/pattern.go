@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"sort"
 	"strings"
+	"sync"
 
 	"github.com/BurntSushi/toml"
 
@@ -104,10 +105,18 @@ var groups = []string{"oscillator", "amplifier", "mixer", "tuned", "detector", "
 // Library is a set of loaded patterns, in id order.
 type Library struct{ Patterns []*Pattern }
 
-// Builtin returns the embedded pattern library. It is checked by the tests,
-// so an error here is a build mistake.
+var (
+	builtinOnce sync.Once
+	builtinLib  *Library
+	builtinErr  error
+)
+
+// Builtin returns the embedded pattern library, loaded once and shared (a
+// Library is never changed after loading). It is checked by the tests, so
+// an error here is a build mistake.
 func Builtin() (*Library, error) {
-	return loadFS(builtin, "patterns", "patterns")
+	builtinOnce.Do(func() { builtinLib, builtinErr = loadFS(builtin, "patterns", "patterns") })
+	return builtinLib, builtinErr
 }
 
 // LoadDir reads every *.toml file in dir as a pattern file.

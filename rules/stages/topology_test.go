@@ -1,0 +1,594 @@
+package stages
+
+import (
+	"strings"
+	"testing"
+)
+
+var allFamilies = []string{"valve", "bjt", "fet"}
+
+// topologyCase is one pattern's positive fixture and its near miss. Both
+// are expanded for each family in families (the devices of a passive
+// pattern's surroundings are valves); want is the family the stage must
+// report: "" means the family expanded.
+type topologyCase struct {
+	topology string
+	families []string
+	want     string
+	full     bool // a power pattern: recognised on Options.Full
+	extra    string
+	parts    string
+	nearMiss string // must not be recognised as topology; why is in its comment
+}
+
+var topologyCases = []topologyCase{
+	{topology: "lc-tank", families: []string{"valve"}, want: "passive",
+		parts: `L1 = { l = "253u", pins = ["t", "gnd"] }
+C1 = { c = "100p", pins = ["gnd", "t"] }`,
+		// The same coil and capacitor in series: a series circuit, not a tank.
+		nearMiss: `L1 = { l = "253u", pins = ["in", "m"] }
+C1 = { c = "100p", pins = ["m", "gnd"] }`},
+	{topology: "tuned-winding", families: []string{"valve"}, want: "passive",
+		parts: `T1 = { windings = { p = "230u", s = "10u" }, k = 0.3, pins = { p1 = "t", p2 = "gnd", s1 = "b", s2 = "gnd" } }
+C1 = { c = "12p..365p", pins = ["t", "gnd"] }`,
+		// The capacitor is across neither winding.
+		nearMiss: `T1 = { windings = { p = "230u", s = "10u" }, k = 0.3, pins = { p1 = "t", p2 = "gnd", s1 = "b", s2 = "gnd" } }
+C1 = { c = "12p..365p", pins = ["t", "x"] }
+R1 = { r = "1k", pins = ["x", "gnd"] }`},
+	{topology: "double-tuned", families: []string{"valve"}, want: "passive",
+		parts: `T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "a", p2 = "ht", s1 = "g", s2 = "gnd" } }
+C1 = { c = "122p", pins = ["a", "ht"] }
+C2 = { c = "122p", pins = ["g", "gnd"] }`,
+		// Secondary untuned: single-tuned only.
+		nearMiss: `T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "a", p2 = "ht", s1 = "g", s2 = "gnd" } }
+C1 = { c = "122p", pins = ["a", "ht"] }
+R2 = { r = "1M", pins = ["g", "gnd"] }`},
+	{topology: "hartley-common-tap", families: allFamilies,
+		parts: `@Q1(g, tap, ht)
+L1 = { l = ["20u", "5u"], k = 0.5, pins = ["top", "tap", "gnd"] }
+C1 = { c = "100p", pins = ["top", "gnd"] }
+C2 = { c = "100p", pins = ["top", "g"] }
+R1 = { r = "47k", pins = ["g", "gnd"] }`,
+		// The tap goes to the HT rail, not to the common electrode.
+		nearMiss: `@Q1(g, k, ht)
+R2 = { r = "1k", pins = ["k", "gnd"] }
+L1 = { l = ["20u", "5u"], k = 0.5, pins = ["top", "ht", "gnd"] }
+C1 = { c = "100p", pins = ["top", "gnd"] }
+C2 = { c = "100p", pins = ["top", "g"] }
+R1 = { r = "47k", pins = ["g", "gnd"] }`},
+	{topology: "hartley-grounded-tap", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+L1 = { l = ["80u", "20u"], k = 1, pins = ["top", "gnd", "bot"] }
+C1 = { c = "250p", pins = ["top", "bot"] }
+C2 = { c = "100p", pins = ["g", "top"] }
+C3 = { c = "1n", pins = ["o", "bot"] }`,
+		// The tap sits on a resistor, not at AC ground.
+		nearMiss: `@Q1(g, gnd, o)
+L1 = { l = ["80u", "20u"], k = 1, pins = ["top", "x", "bot"] }
+R3 = { r = "10k", pins = ["x", "gnd"] }
+C1 = { c = "250p", pins = ["top", "bot"] }
+C2 = { c = "100p", pins = ["g", "top"] }
+C3 = { c = "1n", pins = ["o", "bot"] }`},
+	{topology: "colpitts-common-tap", families: allFamilies,
+		parts: `@Q1(top, k, ht)
+L1 = { l = "4u7", pins = ["top", "gnd"] }
+C2 = { c = "1n", pins = ["top", "k"] }
+C1 = { c = "100p", pins = ["k", "gnd"] }`,
+		// The divider's midpoint does not reach the common electrode.
+		nearMiss: `@Q1(top, k, ht)
+R1 = { r = "1k", pins = ["k", "gnd"] }
+L1 = { l = "4u7", pins = ["top", "gnd"] }
+C2 = { c = "1n", pins = ["top", "m"] }
+C1 = { c = "100p", pins = ["m", "gnd"] }`},
+	{topology: "colpitts-grounded-tap", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+L1 = { l = "10u", pins = ["top", "bot"] }
+C1 = { c = "1n", pins = ["bot", "gnd"] }
+C2 = { c = "1n", pins = ["top", "gnd"] }
+C3 = { c = "100p", pins = ["g", "top"] }
+C4 = { c = "1n", pins = ["o", "bot"] }`,
+		// No capacitor on the output side: the coil alone feeds back.
+		nearMiss: `@Q1(g, gnd, o)
+L1 = { l = "10u", pins = ["top", "bot"] }
+C2 = { c = "1n", pins = ["top", "gnd"] }
+C3 = { c = "100p", pins = ["g", "top"] }
+C4 = { c = "1n", pins = ["o", "bot"] }`},
+	{topology: "clapp", families: allFamilies,
+		parts: `@Q1(top, k, ht)
+L1 = { l = "22u", pins = ["top", "m"] }
+C3 = { c = "100p", pins = ["m", "gnd"] }
+C2 = { c = "1n", pins = ["top", "k"] }
+C1 = { c = "1n", pins = ["k", "gnd"] }`,
+		// A resistor, not a capacitor, in series with the coil.
+		nearMiss: `@Q1(top, k, ht)
+L1 = { l = "22u", pins = ["top", "m"] }
+R3 = { r = "100", pins = ["m", "gnd"] }
+C2 = { c = "1n", pins = ["top", "k"] }
+C1 = { c = "1n", pins = ["k", "gnd"] }`},
+	{topology: "tuned-grid-tickler", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+T1 = { windings = { p = "250u", t = "20u" }, k = 0.3, pins = { p1 = "top", p2 = "gnd", t1 = "o", t2 = "ht" } }
+C1 = { c = "100p", pins = ["top", "gnd"] }
+C2 = { c = "100p", pins = ["g", "top"] }`,
+		// The tickler is driven from elsewhere, not by this device's output.
+		nearMiss: `@Q1(g, gnd, o)
+R2 = { r = "10k", pins = ["o", "ht"] }
+T1 = { windings = { p = "250u", t = "20u" }, k = 0.3, pins = { p1 = "top", p2 = "gnd", t1 = "x", t2 = "ht" } }
+R3 = { r = "1k", pins = ["x", "gnd"] }
+C1 = { c = "100p", pins = ["top", "gnd"] }
+C2 = { c = "100p", pins = ["g", "top"] }`},
+	{topology: "tuned-output-tickler", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+T1 = { windings = { p = "250u", f = "20u" }, k = 0.3, pins = { p1 = "o", p2 = "ht", f1 = "g", f2 = "gnd" } }
+C1 = { c = "100p", pins = ["o", "ht"] }`,
+		// The second winding feeds a load, not the control electrode.
+		nearMiss: `@Q1(g, gnd, o)
+R1 = { r = "100k", pins = ["in", "g"] }
+T1 = { windings = { p = "250u", f = "20u" }, k = 0.3, pins = { p1 = "o", p2 = "ht", f1 = "x", f2 = "gnd" } }
+R2 = { r = "1k", pins = ["x", "gnd"] }
+C1 = { c = "100p", pins = ["o", "ht"] }`},
+	{topology: "tuned-output-tuned-control", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+L1 = { l = "250u", pins = ["g", "gnd"] }
+C1 = { c = "100p", pins = ["g", "gnd"] }
+L2 = { l = "250u", pins = ["o", "ht"] }
+C2 = { c = "100p", pins = ["o", "ht"] }
+R1 = { r = "1M", pins = ["g", "gnd"] }`,
+		// Signal fed into the grid tank: a tuned amplifier, not an oscillator.
+		nearMiss: `@Q1(g, gnd, o)
+C3 = { c = "10p", pins = ["in", "g"] }
+L1 = { l = "250u", pins = ["g", "gnd"] }
+C1 = { c = "100p", pins = ["g", "gnd"] }
+L2 = { l = "250u", pins = ["o", "ht"] }
+C2 = { c = "100p", pins = ["o", "ht"] }`},
+	{topology: "pierce-crystal", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+X1 = { xtal = "7M", pins = ["g", "o"] }
+C1 = { c = "47p", pins = ["g", "gnd"] }
+C2 = { c = "47p", pins = ["o", "gnd"] }`,
+		// The crystal goes from the control electrode to ground.
+		nearMiss: `@Q1(g, gnd, o)
+X1 = { xtal = "7M", pins = ["g", "gnd"] }
+R1 = { r = "10k", pins = ["o", "ht"] }
+C1 = { c = "47p", pins = ["g", "o"] }`},
+	{topology: "rc-phase-shift", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+R9 = { r = "10k", pins = ["o", "ht"] }
+C1 = { c = "10n", pins = ["o", "n1"] }
+R1 = { r = "10k", pins = ["n1", "gnd"] }
+C2 = { c = "10n", pins = ["n1", "n2"] }
+R2 = { r = "10k", pins = ["n2", "gnd"] }
+C3 = { c = "10n", pins = ["n2", "g"] }
+R3 = { r = "10k", pins = ["g", "gnd"] }`,
+		// Two sections only: 120° at most, no oscillation.
+		nearMiss: `@Q1(g, gnd, o)
+R9 = { r = "10k", pins = ["o", "ht"] }
+C1 = { c = "10n", pins = ["o", "n1"] }
+R1 = { r = "10k", pins = ["n1", "gnd"] }
+C2 = { c = "10n", pins = ["n1", "g"] }
+R3 = { r = "10k", pins = ["g", "gnd"] }`},
+	{topology: "wien-bridge", families: allFamilies,
+		parts: `@Q1(g1, gnd, o1)
+@Q2(g2, gnd, o2)
+C5 = { c = "100n", pins = ["o1", "g2"] }
+R1 = { r = "10k", pins = ["o2", "m"] }
+C1 = { c = "10n", pins = ["m", "g1"] }
+R2 = { r = "10k", pins = ["g1", "gnd"] }
+C2 = { c = "10n", pins = ["g1", "gnd"] }`,
+		// The network is fed from the first (inverting) output.
+		nearMiss: `@Q1(g1, gnd, o1)
+@Q2(g2, gnd, o2)
+C5 = { c = "100n", pins = ["o1", "g2"] }
+R1 = { r = "10k", pins = ["o1", "m"] }
+C1 = { c = "10n", pins = ["m", "g1"] }
+R2 = { r = "10k", pins = ["g1", "gnd"] }
+C2 = { c = "10n", pins = ["g1", "gnd"] }`},
+	{topology: "amp-common", families: allFamilies,
+		parts: `@Q1(in, gnd, o)
+R1 = { r = "47k", pins = ["o", "ht"] }`,
+		// An unbypassed common resistor.
+		nearMiss: `@Q1(in, k, o)
+R1 = { r = "47k", pins = ["o", "ht"] }
+R2 = { r = "1k", pins = ["k", "gnd"] }`},
+	{topology: "amp-common-degenerated", families: allFamilies,
+		parts: `@Q1(in, k, o)
+R1 = { r = "47k", pins = ["o", "ht"] }
+R2 = { r = "1k", pins = ["k", "gnd"] }`,
+		// The common resistor is bypassed.
+		nearMiss: `@Q1(in, k, o)
+R1 = { r = "47k", pins = ["o", "ht"] }
+R2 = { r = "1k", pins = ["k", "gnd"] }
+C1 = { c = "25u", pins = ["k", "gnd"] }`},
+	{topology: "amp-common-bypassed", families: allFamilies,
+		parts: `@Q1(in, k, o)
+R1 = { r = "47k", pins = ["o", "ht"] }
+R2 = { r = "1k", pins = ["k", "gnd"] }
+C1 = { c = "25u", pins = ["k", "gnd"] }`,
+		// The capacitor on the common electrode leads elsewhere.
+		nearMiss: `@Q1(in, k, o)
+R1 = { r = "47k", pins = ["o", "ht"] }
+R2 = { r = "1k", pins = ["k", "gnd"] }
+C1 = { c = "25u", pins = ["k", "x"] }
+R3 = { r = "1k", pins = ["x", "gnd"] }`},
+	{topology: "amp-follower", families: allFamilies,
+		parts: `@Q1(in, k, ht)
+R1 = { r = "1k", pins = ["k", "gnd"] }`,
+		// The output electrode carries a load: a degenerated amplifier.
+		nearMiss: `@Q1(in, k, o)
+R1 = { r = "1k", pins = ["k", "gnd"] }
+R2 = { r = "10k", pins = ["o", "ht"] }`},
+	{topology: "amp-common-control", families: allFamilies,
+		parts: `@Q1(gnd, i, o)
+C1 = { c = "10n", pins = ["in", "i"] }
+R1 = { r = "1k", pins = ["i", "gnd"] }
+R2 = { r = "10k", pins = ["o", "ht"] }`,
+		// Nothing feeds the common electrode.
+		nearMiss: `@Q1(gnd, i, o)
+R1 = { r = "1k", pins = ["i", "gnd"] }
+R2 = { r = "10k", pins = ["o", "ht"] }`},
+	{topology: "amp-tuned", families: allFamilies,
+		parts: `@Q1(in, gnd, o)
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C1 = { c = "100p", pins = ["o", "ht"] }
+C2 = { c = "100p", pins = ["s", "gnd"] }`,
+		// The tuned transformer is at the input, the output has a resistor.
+		nearMiss: `@Q1(g, gnd, o)
+R1 = { r = "47k", pins = ["o", "ht"] }
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "in", p2 = "gnd", s1 = "g", s2 = "gnd" } }
+C1 = { c = "100p", pins = ["in", "gnd"] }
+C2 = { c = "100p", pins = ["g", "gnd"] }`},
+	{topology: "amp-tuned-tapped", families: allFamilies,
+		parts: `@Q1(in, gnd, o)
+T1 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, pins = { p1 = "ht", pt = "o", p2 = "hot", s1 = "s", s2 = "gnd" } }
+C1 = { c = "180p", pins = ["hot", "ht"] }`,
+		// The output is on the hot end, the tap unused.
+		nearMiss: `@Q1(in, gnd, o)
+T1 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, pins = { p1 = "ht", pt = "nc", p2 = "o", s1 = "s", s2 = "gnd" } }
+C1 = { c = "180p", pins = ["o", "ht"] }`},
+	{topology: "cascode", families: allFamilies,
+		parts: `@Q1(in, gnd, m)
+@Q2(gnd, m, o)
+R1 = { r = "10k", pins = ["o", "ht"] }`,
+		// The upper device's control electrode is not at AC ground.
+		nearMiss: `@Q1(in, gnd, m)
+@Q2(x, m, o)
+R2 = { r = "1k", pins = ["x", "gnd"] }
+R1 = { r = "10k", pins = ["o", "ht"] }`},
+	{topology: "long-tailed-pair", families: allFamilies,
+		parts: `@Q1(in, t, o1)
+@Q2(gnd, t, o2)
+R1 = { r = "10k", pins = ["t", "gnd"] }
+R2 = { r = "10k", pins = ["o1", "ht"] }
+R3 = { r = "10k", pins = ["o2", "ht"] }`,
+		// Each device has its own common resistor: no shared tail.
+		nearMiss: `@Q1(in, t, o1)
+@Q2(gnd, t2, o2)
+R1 = { r = "10k", pins = ["t", "gnd"] }
+R4 = { r = "10k", pins = ["t2", "gnd"] }
+R2 = { r = "10k", pins = ["o1", "ht"] }
+R3 = { r = "10k", pins = ["o2", "ht"] }`},
+	{topology: "push-pull", families: allFamilies,
+		parts: `@Q1(g1, gnd, a1)
+@Q2(g2, gnd, a2)
+C1 = { c = "10n", pins = ["in", "g1"] }
+C2 = { c = "10n", pins = ["inb", "g2"] }
+T1 = { windings = { p = ["10", "10"], s = "0.1" }, k = 0.95, pins = { p1 = "a1", pt = "ht", p2 = "a2", s1 = "spk", s2 = "gnd" } }`,
+		// Both devices on one end of an untapped primary: parallel, not push-pull.
+		nearMiss: `@Q1(g1, gnd, a)
+@Q2(g2, gnd, a)
+C1 = { c = "10n", pins = ["in", "g1"] }
+C2 = { c = "10n", pins = ["inb", "g2"] }
+T1 = { windings = { p = "20", s = "0.1" }, k = 0.95, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }`},
+	{topology: "self-oscillating-mixer", families: allFamilies, extra: `[freqs]
+if = "470k"`,
+		parts: `@Q1(g, tap, o)
+T1 = { windings = { p = "40u", s = "230u" }, k = 0.3, pins = { p1 = "in", p2 = "gnd", s1 = "rf", s2 = "gnd" } }
+VC1 = { c = "12p..365p", pins = ["rf", "gnd"], gang = "tune" }
+C1 = { c = "10p", pins = ["rf", "g"] }
+C2 = { c = "100p", pins = ["top", "g"] }
+R1 = { r = "47k", pins = ["g", "gnd"] }
+L1 = { l = "128u", tap = 0.12, pins = ["gnd", "tap", "top"] }
+VC2 = { c = "12p..365p", pins = ["top", "gnd"], gang = "tune" }
+T2 = { windings = { p = "1m147", s = "1m147" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "if", s2 = "gnd" } }
+C3 = { c = "100p", pins = ["o", "ht"] }
+C4 = { c = "100p", pins = ["if", "gnd"] }`,
+		// No signal reaches the oscillator's grid: an oscillator with an IF
+		// transformer, converting nothing.
+		nearMiss: `@Q1(g, tap, o)
+C2 = { c = "100p", pins = ["top", "g"] }
+R1 = { r = "47k", pins = ["g", "gnd"] }
+L1 = { l = "128u", tap = 0.12, pins = ["gnd", "tap", "top"] }
+VC2 = { c = "12p..365p", pins = ["top", "gnd"] }
+T2 = { windings = { p = "1m147", s = "1m147" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "if", s2 = "gnd" } }
+C3 = { c = "100p", pins = ["o", "ht"] }
+C4 = { c = "100p", pins = ["if", "gnd"] }`},
+	{topology: "self-oscillating-mixer-common-fed", families: allFamilies, extra: `[freqs]
+if = "455k"`,
+		parts: `@Q1(b, e, c)
+C9 = { c = "4p7", pins = ["in", "ant"] }
+T1 = { windings = { p = "365u", s = "8u" }, k = 0.8, pins = { p1 = "ant", p2 = "gnd", s1 = "b", s2 = "gnd" } }
+VC1 = { c = "8p..230p", pins = ["ant", "gnd"], gang = "tune" }
+T2 = { windings = { f = "6u", p = ["2u1", "167u"] }, k = 0.5, pins = { f1 = "c", f2 = "x", p1 = "gnd", pt = "tap", p2 = "top" } }
+VC2 = { c = "8p..230p", pins = ["top", "gnd"], gang = "tune" }
+C3 = { c = "10n", pins = ["tap", "e"] }
+R3 = { r = "2k2", pins = ["e", "gnd"] }
+T3 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, pins = { p1 = "ht", pt = "x", p2 = "hot", s1 = "if", s2 = "gnd" } }
+C5 = { c = "180p", pins = ["hot", "ht"] }`,
+		// The feedback winding is not in the output lead: no oscillation.
+		nearMiss: `@Q1(b, e, x)
+C9 = { c = "4p7", pins = ["in", "ant"] }
+T1 = { windings = { p = "365u", s = "8u" }, k = 0.8, pins = { p1 = "ant", p2 = "gnd", s1 = "b", s2 = "gnd" } }
+VC1 = { c = "8p..230p", pins = ["ant", "gnd"] }
+T2 = { windings = { f = "6u", p = ["2u1", "167u"] }, k = 0.5, pins = { f1 = "ht", f2 = "x", p1 = "gnd", pt = "tap", p2 = "top" } }
+VC2 = { c = "8p..230p", pins = ["top", "gnd"] }
+C3 = { c = "10n", pins = ["tap", "e"] }
+R3 = { r = "2k2", pins = ["e", "gnd"] }
+T3 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, pins = { p1 = "ht", pt = "x", p2 = "hot", s1 = "if", s2 = "gnd" } }
+C5 = { c = "180p", pins = ["hot", "ht"] }`},
+	{topology: "mixer-grid-injected", families: []string{"valve"},
+		parts: `V1 = { valve = "heptode", pins = { g1 = "g", g2 = "ht", g3 = "inj", g4 = "ht", g5 = "gnd", a = "o", k = "gnd" } }
+C1 = { c = "100p", pins = ["in", "g"] }
+C2 = { c = "50p", pins = ["osc", "inj"] }
+R2 = { r = "47k", pins = ["osc", "gnd"] }
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C3 = { c = "117p", pins = ["o", "ht"] }
+C4 = { c = "117p", pins = ["s", "gnd"] }`,
+		// Every further grid is at AC ground: nothing is injected.
+		nearMiss: `V1 = { valve = "heptode", pins = { g1 = "g", g2 = "ht", g3 = "gnd", g4 = "ht", g5 = "gnd", a = "o", k = "gnd" } }
+C1 = { c = "100p", pins = ["in", "g"] }
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C3 = { c = "117p", pins = ["o", "ht"] }
+C4 = { c = "117p", pins = ["s", "gnd"] }`},
+	{topology: "mixer-common-injected", families: allFamilies,
+		parts: `@Q1(g, e, o)
+C1 = { c = "100p", pins = ["in", "g"] }
+C2 = { c = "50p", pins = ["osc", "e"] }
+R1 = { r = "1k", pins = ["e", "gnd"] }
+R2 = { r = "47k", pins = ["osc", "gnd"] }
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C3 = { c = "117p", pins = ["o", "ht"] }
+C4 = { c = "117p", pins = ["s", "gnd"] }`,
+		// The common electrode is only bypassed: a tuned amplifier.
+		nearMiss: `@Q1(g, e, o)
+C1 = { c = "100p", pins = ["in", "g"] }
+C2 = { c = "50n", pins = ["e", "gnd"] }
+R1 = { r = "1k", pins = ["e", "gnd"] }
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C3 = { c = "117p", pins = ["o", "ht"] }
+C4 = { c = "117p", pins = ["s", "gnd"] }`},
+	{topology: "diode-detector", families: []string{"valve"}, want: "passive",
+		parts: `D1 = { diode = "signal", pins = ["in", "out"] }
+C1 = { c = "100p", pins = ["out", "gnd"] }
+R1 = { r = "100k", pins = ["out", "gnd"] }`,
+		// A reservoir-sized capacitor: a rectifier, not a detector.
+		nearMiss: `D1 = { diode = "signal", pins = ["in", "out"] }
+C1 = { c = "47u", type = "electrolytic", pins = ["out", "gnd"] }
+R1 = { r = "100k", pins = ["out", "gnd"] }`},
+	{topology: "diode-detector-cold-end", families: allFamilies, want: "valve",
+		parts: `@Q1(in, gnd, a)
+C1 = { c = "100p", pins = ["a", "ht"] }
+T1 = { windings = { p = "1m147", s = "1m147" }, k = 0.012, pins = { p1 = "a", p2 = "ht", s1 = "d", s2 = "out" } }
+C2 = { c = "100p", pins = ["d", "out"] }
+V2 = { valve = "double-diode", pins = { a1 = "d", a2 = "d", k = "gnd" } }
+C7 = { c = "100p", pins = ["out", "gnd"] }
+R6 = { r = "1M", pins = ["out", "gnd"] }`,
+		// The diode returns to a resistor, not to AC ground.
+		nearMiss: `@Q1(in, gnd, a)
+C1 = { c = "100p", pins = ["a", "ht"] }
+T1 = { windings = { p = "1m147", s = "1m147" }, k = 0.012, pins = { p1 = "a", p2 = "ht", s1 = "d", s2 = "out" } }
+C2 = { c = "100p", pins = ["d", "out"] }
+V2 = { valve = "double-diode", pins = { a1 = "d", a2 = "d", k = "x" } }
+R2 = { r = "10k", pins = ["x", "gnd"] }
+C7 = { c = "100p", pins = ["out", "gnd"] }
+R6 = { r = "1M", pins = ["out", "gnd"] }`},
+	{topology: "grid-leak-detector", families: []string{"valve", "fet"},
+		parts: `@Q1(g, gnd, o)
+C1 = { c = "100p", pins = ["in", "g"] }
+R1 = { r = "2M2", pins = ["g", "gnd"] }
+R2 = { r = "100k", pins = ["o", "ht"] }`,
+		// A 10 nF coupling capacitor into 470 kΩ: an RC-coupled amplifier.
+		nearMiss: `@Q1(g, gnd, o)
+C1 = { c = "10n", pins = ["in", "g"] }
+R1 = { r = "470k", pins = ["g", "gnd"] }
+R2 = { r = "100k", pins = ["o", "ht"] }`},
+	{topology: "fm-phase-discriminator", families: allFamilies, want: "passive",
+		parts: `@Q1(in, gnd, a)
+T1 = { windings = { p = "10u", s = ["5u", "5u"] }, k = 0.3, pins = { p1 = "a", p2 = "ht", s1 = "s1", st = "ct", s2 = "s2" } }
+C1 = { c = "47p", pins = ["s1", "s2"] }
+D1 = { diode = "signal", pins = ["s1", "o1"] }
+D2 = { diode = "signal", pins = ["s2", "o2"] }
+R1 = { r = "100k", pins = ["o1", "ct"] }
+R2 = { r = "100k", pins = ["o2", "ct"] }`,
+		// An untapped secondary: no phase comparison.
+		nearMiss: `@Q1(in, gnd, a)
+T1 = { windings = { p = "10u", s = "20u" }, k = 0.3, pins = { p1 = "a", p2 = "ht", s1 = "s1", s2 = "s2" } }
+C1 = { c = "47p", pins = ["s1", "s2"] }
+D1 = { diode = "signal", pins = ["s1", "o1"] }
+D2 = { diode = "signal", pins = ["s2", "o2"] }
+R1 = { r = "100k", pins = ["o1", "gnd"] }
+R2 = { r = "100k", pins = ["o2", "gnd"] }`},
+	{topology: "fm-ratio-detector", families: allFamilies, want: "passive",
+		parts: `@Q1(in, gnd, a)
+T1 = { windings = { p = "10u", s = ["5u", "5u"] }, k = 0.3, pins = { p1 = "a", p2 = "ht", s1 = "s1", st = "ct", s2 = "s2" } }
+C1 = { c = "47p", pins = ["s1", "s2"] }
+D1 = { diode = "signal", pins = ["s1", "o1"] }
+D2 = { diode = "signal", pins = ["o2", "s2"] }
+R1 = { r = "10k", pins = ["o1", "o2"] }`,
+		// Both diodes the same way round: a phase discriminator.
+		nearMiss: `@Q1(in, gnd, a)
+T1 = { windings = { p = "10u", s = ["5u", "5u"] }, k = 0.3, pins = { p1 = "a", p2 = "ht", s1 = "s1", st = "ct", s2 = "s2" } }
+C1 = { c = "47p", pins = ["s1", "s2"] }
+D1 = { diode = "signal", pins = ["s1", "o1"] }
+D2 = { diode = "signal", pins = ["s2", "o2"] }
+R1 = { r = "100k", pins = ["o1", "ct"] }
+R2 = { r = "100k", pins = ["o2", "ct"] }`},
+	{topology: "rc-coupling", families: []string{"valve"}, want: "passive",
+		parts: `@Q1(in, gnd, a)
+R2 = { r = "47k", pins = ["a", "ht"] }
+C1 = { c = "10n", pins = ["a", "b"] }
+R1 = { r = "470k", pins = ["b", "gnd"] }
+@Q2(b, gnd, o)
+R3 = { r = "47k", pins = ["o", "ht"] }`,
+		// Choke coupling: no resistor on either side of the capacitor.
+		nearMiss: `@Q1(in, gnd, a)
+L2 = { l = "10", type = "choke", pins = ["a", "ht"] }
+C1 = { c = "10n", pins = ["a", "b"] }
+L1 = { l = "10", type = "choke", pins = ["b", "gnd"] }
+@Q2(b, gnd, o)
+R3 = { r = "47k", pins = ["o", "ht"] }`},
+	{topology: "agc-filter", families: []string{"valve"}, want: "passive",
+		parts: `D1 = { diode = "signal", pins = ["in", "det"] }
+C2 = { c = "100p", pins = ["det", "gnd"] }
+R1 = { r = "1M", pins = ["det", "agc"] }
+C1 = { c = "100n", pins = ["agc", "gnd"] }`,
+		// 22 kΩ × 1 nF: far too quick for an AGC line.
+		nearMiss: `D1 = { diode = "signal", pins = ["in", "det"] }
+C2 = { c = "100p", pins = ["det", "gnd"] }
+R1 = { r = "22k", pins = ["det", "agc"] }
+C1 = { c = "1n", pins = ["agc", "gnd"] }`},
+	{topology: "de-emphasis", families: []string{"valve"}, want: "passive",
+		parts: `R1 = { r = "47k", pins = ["in", "b"] }
+C1 = { c = "1n", pins = ["b", "gnd"] }`,
+		// 0.1 s: an AGC filter, not de-emphasis.
+		nearMiss: `R1 = { r = "1M", pins = ["in", "b"] }
+C1 = { c = "100n", pins = ["b", "gnd"] }`},
+	{topology: "rc-pi-filter", families: []string{"valve"}, want: "passive",
+		parts: `D1 = { diode = "signal", pins = ["in", "det"] }
+C1 = { c = "100p", pins = ["det", "gnd"] }
+R1 = { r = "47k", pins = ["det", "f"] }
+C2 = { c = "100p", pins = ["f", "gnd"] }
+R2 = { r = "500k", pins = ["f", "gnd"] }`,
+		// The second capacitor is an audio-sized one: an AGC filter.
+		nearMiss: `D1 = { diode = "signal", pins = ["in", "det"] }
+C1 = { c = "100p", pins = ["det", "gnd"] }
+R1 = { r = "1M", pins = ["det", "f"] }
+C2 = { c = "100n", pins = ["f", "gnd"] }`},
+	{topology: "pi-network", families: []string{"valve"}, want: "passive",
+		parts: `R1 = { r = "50", pins = ["in", "a"] }
+C1 = { c = "100p", pins = ["a", "gnd"] }
+L1 = { l = "10u", pins = ["a", "b"] }
+C2 = { c = "400p", pins = ["b", "gnd"] }`,
+		// Coil to ground: a tank beside a capacitor, not a pi.
+		nearMiss: `R1 = { r = "50", pins = ["in", "a"] }
+C1 = { c = "100p", pins = ["a", "gnd"] }
+L1 = { l = "10u", pins = ["a", "gnd"] }
+C2 = { c = "400p", pins = ["in", "gnd"] }`},
+	{topology: "volume-control", families: []string{"valve"}, want: "passive",
+		parts: `RV1 = { pot = "500k", pins = ["in", "w", "gnd"] }
+C1 = { c = "10n", pins = ["w", "g"] }
+R1 = { r = "1M", pins = ["g", "gnd"] }`,
+		// The track's far end is not at ground: a series rheostat.
+		nearMiss: `RV1 = { pot = "500k", pins = ["in", "w", "x"] }
+R2 = { r = "10k", pins = ["x", "gnd"] }
+C1 = { c = "10n", pins = ["w", "g"] }
+R1 = { r = "1M", pins = ["g", "gnd"] }`},
+	{topology: "coupling-capacitor", families: []string{"valve"}, want: "passive",
+		parts: `C1 = { c = "22n", pins = ["in", "out"] }
+P1 = { port = "to the next stage", pins = ["out"] }`,
+		// A capacitor to ground couples nothing.
+		nearMiss: `C1 = { c = "22n", pins = ["in", "gnd"] }`},
+	{topology: "rectifier-half-wave", families: []string{"valve"}, want: "passive", full: true,
+		parts: `T1 = { windings = { p = "10", s = "10" }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "s", s2 = "gnd" } }
+D1 = { diode = "rectifier", pins = ["s", "out"] }
+C1 = { c = "32u", type = "electrolytic", pins = ["out", "gnd"] }`,
+		// The diode clamps the winding to chassis.
+		nearMiss: `T1 = { windings = { p = "10", s = "10" }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "s", s2 = "gnd" } }
+D1 = { diode = "rectifier", pins = ["s", "gnd"] }
+R1 = { r = "1k", pins = ["s", "gnd"] }`},
+	{topology: "rectifier-full-wave", families: []string{"valve"}, want: "passive", full: true,
+		parts: `T1 = { windings = { p = "10", s = ["5", "5"] }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "s1", st = "gnd", s2 = "s2" } }
+D1 = { diode = "rectifier", pins = ["s1", "out"] }
+D2 = { diode = "rectifier", pins = ["s2", "out"] }
+C1 = { c = "32u", type = "electrolytic", pins = ["out", "gnd"] }`,
+		// The centre tap is not returned to chassis.
+		nearMiss: `T1 = { windings = { p = "10", s = ["5", "5"] }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "s1", st = "x", s2 = "s2" } }
+R1 = { r = "1k", pins = ["x", "gnd"] }
+D1 = { diode = "rectifier", pins = ["s1", "out"] }
+D2 = { diode = "rectifier", pins = ["s2", "out"] }
+C1 = { c = "32u", type = "electrolytic", pins = ["out", "gnd"] }`},
+	{topology: "rectifier-full-wave-double-diode", families: []string{"valve"}, full: true,
+		parts: `T1 = { windings = { p = "10", s = ["5", "5"] }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "s1", st = "gnd", s2 = "s2" } }
+V1 = { valve = "double-diode", pins = { a1 = "s1", a2 = "s2", k = "out" } }
+C1 = { c = "32u", type = "electrolytic", pins = ["out", "gnd"] }`,
+		// Both anodes strapped to one end: half-wave at best.
+		nearMiss: `T1 = { windings = { p = "10", s = ["5", "5"] }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "s1", st = "gnd", s2 = "s2" } }
+V1 = { valve = "double-diode", pins = { a1 = "s1", a2 = "s1", k = "out" } }
+C1 = { c = "32u", type = "electrolytic", pins = ["out", "gnd"] }`},
+	{topology: "rectifier-bridge", families: []string{"valve"}, want: "passive", full: true,
+		parts: `T1 = { windings = { p = "10", s = "10" }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "x", s2 = "y" } }
+D1 = { diode = "rectifier", pins = ["x", "out"] }
+D2 = { diode = "rectifier", pins = ["y", "out"] }
+D3 = { diode = "rectifier", pins = ["gnd", "x"] }
+D4 = { diode = "rectifier", pins = ["gnd", "y"] }
+C1 = { c = "100u", type = "electrolytic", pins = ["out", "gnd"] }`,
+		// One diode missing: not a bridge.
+		nearMiss: `T1 = { windings = { p = "10", s = "10" }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "x", s2 = "y" } }
+D1 = { diode = "rectifier", pins = ["x", "out"] }
+D2 = { diode = "rectifier", pins = ["y", "out"] }
+D3 = { diode = "rectifier", pins = ["gnd", "x"] }
+C1 = { c = "100u", type = "electrolytic", pins = ["out", "gnd"] }`},
+	{topology: "smoothing-filter", families: []string{"valve"}, want: "passive", full: true,
+		parts: `C1 = { c = "32u", type = "electrolytic", pins = ["hv", "gnd"] }
+L1 = { l = "10", type = "choke", pins = ["hv", "ht"] }
+C2 = { c = "32u", type = "electrolytic", pins = ["ht", "gnd"] }
+R1 = { r = "10k", pins = ["in", "hv"] }`,
+		// A film capacitor after the choke: an RF filter, not smoothing.
+		nearMiss: `C1 = { c = "32u", type = "electrolytic", pins = ["hv", "gnd"] }
+L1 = { l = "10", type = "choke", pins = ["hv", "ht"] }
+C2 = { c = "100n", pins = ["ht", "gnd"] }
+R1 = { r = "10k", pins = ["in", "hv"] }`},
+}
+
+// findAll recognises a fixture; power fixtures go in as the full circuit.
+func findAll(t *testing.T, tc topologyCase, family, parts string) []Stage {
+	t.Helper()
+	c := circuit(t, family, parts, tc.extra)
+	o := Options{}
+	if tc.full {
+		o.Full = c
+	}
+	return find(t, c, o)
+}
+
+func TestTopologies(t *testing.T) {
+	lib, err := Builtin()
+	if err != nil {
+		t.Fatal(err)
+	}
+	covered := map[string]bool{}
+	for _, tc := range topologyCases {
+		covered[tc.topology] = true
+		if lib.Pattern(tc.topology) == nil {
+			t.Errorf("%s: no such pattern in the library", tc.topology)
+			continue
+		}
+		for _, fam := range tc.families {
+			t.Run(tc.topology+"/"+fam, func(t *testing.T) {
+				got := findAll(t, tc, fam, tc.parts)
+				s := stageOf(got, tc.topology)
+				if s == nil {
+					t.Fatalf("not recognised; found %s", topologies(got))
+				}
+				want := tc.want
+				if want == "" {
+					want = fam
+				}
+				if s.Family != want {
+					t.Errorf("family %q, want %q", s.Family, want)
+				}
+				if strings.Contains(s.Title, "{") {
+					t.Errorf("title %q has an unexpanded placeholder", s.Title)
+				}
+				miss := findAll(t, tc, fam, tc.nearMiss)
+				if s := stageOf(miss, tc.topology); s != nil {
+					t.Errorf("near miss recognised as %s %v; all: %s", tc.topology, s.Parts, topologies(miss))
+				}
+			})
+		}
+	}
+	for _, p := range lib.Patterns {
+		if !covered[p.ID] {
+			t.Errorf("pattern %s has no test case", p.ID)
+		}
+	}
+}
