@@ -9,6 +9,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/BurntSushi/toml"
 
@@ -36,6 +37,7 @@ func Parse(file string, data []byte) (*Circuit, error) {
 			if line < 1 {
 				line, col = 1, 1
 			}
+			col = runeCol(data, line, col)
 			col = duplicateCol(pe, data, line, col)
 			l.Add(Pos{File: file, Line: line, Col: col}, "%s", tomlMessage(pe))
 			return nil, l
@@ -56,6 +58,21 @@ func Parse(file string, data []byte) (*Circuit, error) {
 
 // duplicateKey matches the decoder's message for a key written twice.
 var duplicateKey = regexp.MustCompile(`^Key '(.*)' has already been defined\.?$`)
+
+// runeCol turns the decoder's byte column into a character column, the
+// unit the key scanner and every other message use (a line with "µF" or "kΩ"
+// before the mistake would otherwise point past it).
+func runeCol(data []byte, line, col int) int {
+	lines := strings.Split(string(data), "\n")
+	if line > len(lines) || col < 1 {
+		return col
+	}
+	text := lines[line-1]
+	if col-1 > len(text) {
+		return col
+	}
+	return utf8.RuneCountInString(text[:col-1]) + 1
+}
 
 // duplicateCol moves the position of a "written twice" error from the
 // decoder's spot (inside the second entry) to the start of its key, when the
