@@ -102,6 +102,7 @@ type Ctx struct {
 	level    Level
 	conns    map[string][]graph.Conn // sorted by ref, then pin
 	parts    map[string]*graph.Part
+	nets     map[string]*graph.Net
 	dropped  []string
 	grounded map[string]bool // nets (by the names they had) joined to ground
 	errs     graph.ErrorList
@@ -120,6 +121,10 @@ func newCtx(c *graph.Circuit, ratio float64, level Level) *Ctx {
 func (x *Ctx) rebuild() {
 	x.conns = make(map[string][]graph.Conn, len(x.c.Nets))
 	x.parts = make(map[string]*graph.Part, len(x.c.Parts))
+	x.nets = make(map[string]*graph.Net, len(x.c.Nets))
+	for _, n := range x.c.Nets {
+		x.nets[n.Name] = n
+	}
 	for _, p := range x.c.Parts {
 		x.parts[p.Ref] = p
 		for _, pin := range p.Pins {
@@ -140,9 +145,38 @@ func (x *Ctx) Conns(net string) []graph.Conn { return x.conns[net] }
 // Part returns a part by ref, or nil.
 func (x *Ctx) Part(ref string) *graph.Part { return x.parts[ref] }
 
+// Net returns a net by name, or nil. The Ctx keeps its own index: the
+// circuit's rebuilds itself after every edit, which would make a reduction
+// quadratic.
+func (x *Ctx) Net(name string) *graph.Net { return x.nets[name] }
+
+// RoleOf is the role of a net; unknown nets are signal nets.
+func (x *Ctx) RoleOf(name string) graph.Role {
+	if n := x.nets[name]; n != nil {
+		return n.Role
+	}
+	return graph.Signal
+}
+
 // IsACGround reports whether a net is at AC ground by its role (ground, or a
 // rail assumed stiff).
-func (x *Ctx) IsACGround(net string) bool { return x.c.RoleOf(net).IsACGround() }
+func (x *Ctx) IsACGround(net string) bool { return x.RoleOf(net).IsACGround() }
+
+// ensureNet returns the named net, creating it (with the default role for
+// its name) in sorted place when it does not exist.
+func (x *Ctx) ensureNet(name string) *graph.Net {
+	if n := x.nets[name]; n != nil {
+		return n
+	}
+	n := &graph.Net{Name: name, Role: graph.DefaultRole(name)}
+	i := sort.Search(len(x.c.Nets), func(i int) bool { return x.c.Nets[i].Name >= name })
+	x.c.Nets = append(x.c.Nets, nil)
+	copy(x.c.Nets[i+1:], x.c.Nets[i:])
+	x.c.Nets[i] = n
+	x.nets[name] = n
+	x.c.Touch()
+	return n
+}
 
 // IsEnd reports whether a net is a declared signal input or output of the
 // circuit or of a region: such nets carry the signal by definition and are
@@ -182,7 +216,7 @@ func Ends(p *graph.Part, flip bool) (string, string) {
 // there is none: the conventional names first, then the first by name.
 func (x *Ctx) ground() string {
 	for _, name := range []string{"gnd", "0", "ground", "chassis"} {
-		if n := x.c.Net(name); n != nil && n.Role == graph.Ground {
+		if n := x.Net(name); n != nil && n.Role == graph.Ground {
 			return name
 		}
 	}
@@ -191,7 +225,7 @@ func (x *Ctx) ground() string {
 			return n.Name
 		}
 	}
-	x.c.EnsureNet("gnd", graph.Pos{})
+	x.ensureNet("gnd")
 	return "gnd"
 }
 
@@ -246,6 +280,7 @@ func (x *Ctx) pruneNet(net string) {
 	i := sort.Search(len(x.c.Nets), func(i int) bool { return x.c.Nets[i].Name >= net })
 	if i < len(x.c.Nets) && x.c.Nets[i].Name == net {
 		x.c.Nets = append(x.c.Nets[:i], x.c.Nets[i+1:]...)
+		delete(x.nets, net)
 		x.c.Touch()
 		x.dropped = append(x.dropped, net)
 	}
@@ -266,9 +301,14 @@ func (x *Ctx) Remove(p *graph.Part) {
 
 // Add puts a part into the circuit, creating the nets its pins name.
 func (x *Ctx) Add(p *graph.Part) {
-	x.c.AddPart(p)
+	i := sort.Search(len(x.c.Parts), func(i int) bool { return x.c.Parts[i].Ref >= p.Ref })
+	x.c.Parts = append(x.c.Parts, nil)
+	copy(x.c.Parts[i+1:], x.c.Parts[i:])
+	x.c.Parts[i] = p
+	x.c.Touch()
 	x.parts[p.Ref] = p
 	for _, pin := range p.Pins {
+		x.ensureNet(pin.Net)
 		x.addConn(pin.Net, graph.Conn{Part: p, Pin: pin.Name})
 	}
 }
@@ -290,7 +330,7 @@ func (x *Ctx) Unconnect(p *graph.Part, name string) {
 		if pin.Name == name && pin.Net != "nc" {
 			p.Pins[i].Net = "nc"
 			x.delConn(pin.Net, p, name)
-			x.c.EnsureNet("nc", graph.Pos{})
+			x.ensureNet("nc")
 			x.addConn("nc", graph.Conn{Part: p, Pin: name})
 			return
 		}
@@ -303,8 +343,8 @@ func (x *Ctx) Join(keep, gone string) {
 	if keep == gone {
 		return
 	}
-	k := x.c.EnsureNet(keep, graph.Pos{})
-	if g := x.c.Net(gone); g != nil {
+	k := x.ensureNet(keep)
+	if g := x.nets[gone]; g != nil {
 		if roleRank(g.Role) > roleRank(k.Role) {
 			k.Role, k.Volts = g.Role, g.Volts
 		}
@@ -350,6 +390,7 @@ func (x *Ctx) Join(keep, gone string) {
 	if i < len(x.c.Nets) && x.c.Nets[i].Name == gone {
 		x.c.Nets = append(x.c.Nets[:i], x.c.Nets[i+1:]...)
 	}
+	delete(x.nets, gone)
 	x.c.Touch()
 }
 
@@ -382,14 +423,14 @@ func roleRank(r graph.Role) int {
 // finally the smaller name, so the result does not depend on input order.
 func (x *Ctx) ChooseKeep(a, b string) (keep, gone string) {
 	score := func(n string) int {
-		s := roleRank(x.c.RoleOf(n)) * 4
+		s := roleRank(x.RoleOf(n)) * 4
 		if x.IsEnd(n) {
 			s += 100
 		}
-		if x.c.RoleOf(n) == graph.Ground {
+		if x.RoleOf(n) == graph.Ground {
 			s += 1000
 		}
-		if net := x.c.Net(n); net != nil && net.Label != "" {
+		if net := x.Net(n); net != nil && net.Label != "" {
 			s += 2
 		}
 		return s
@@ -575,7 +616,7 @@ func (dr *driver) live(a Anchor) bool {
 	case a.Part != nil:
 		return dr.x.parts[a.Part.Ref] == a.Part
 	case a.Net != nil:
-		return dr.x.c.Net(a.Net.Name) == a.Net
+		return dr.x.Net(a.Net.Name) == a.Net
 	}
 	return true
 }
@@ -639,7 +680,7 @@ func (dr *driver) try(r *Rule, m *Plan) (bool, error) {
 	}
 	if len(m.Parts) == 0 {
 		for _, n := range m.Nets {
-			if net := dr.x.c.Net(n); net != nil {
+			if net := dr.x.Net(n); net != nil {
 				refs, where = append(refs, n), append(where, net.Pos)
 			}
 		}

@@ -140,7 +140,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			ref = "P" + strconv.Itoa(next)
 		}
 		port := &graph.Part{Ref: ref, Kind: graph.Port, Label: labels[n], Pins: []graph.Pin{{Name: "1", Net: n}}}
-		if net := c.Net(n); net != nil && net.Role == graph.Signal && !x.IsEnd(n) {
+		if net := x.Net(n); net != nil && net.Role == graph.Signal && !x.IsEnd(n) {
 			net.Role = graph.PortN
 		}
 		x.Add(port)
@@ -227,7 +227,7 @@ func focusSeeds(x *Ctx, names []string) ([]*graph.Part, error) {
 		if found {
 			continue
 		}
-		if n := c.Net(name); n != nil {
+		if n := x.Net(name); n != nil {
 			if n.Role.IsACGround() {
 				errs.Add(graph.Pos{File: c.File}, "focus %q: net %s is AC ground (%s) and joins every stage: name a part or a signal net", name, name, n.Role)
 				continue
@@ -260,7 +260,7 @@ func focusSeeds(x *Ctx, names []string) ([]*graph.Part, error) {
 // portLabel says what lies beyond a cut net: its label, else the device
 // electrode or part it leads to.
 func portLabel(x *Ctx, net string, in map[*graph.Part]bool) string {
-	if n := x.c.Net(net); n != nil && n.Label != "" {
+	if n := x.Net(net); n != nil && n.Label != "" {
 		return n.Label
 	}
 	var firstPassive string

@@ -22,7 +22,11 @@ var parallel = Rule{
 		if na == nb || na == "nc" || nb == "nc" {
 			return nil
 		}
-		for _, cn := range x.conns[na] {
+		side := x.conns[na] // scan the quieter net: a part to ground must not walk all of ground
+		if len(x.conns[nb]) < len(side) {
+			side = x.conns[nb]
+		}
+		for _, cn := range side {
 			q := cn.Part
 			if q == p || !plainTwoTerminal(q) {
 				continue

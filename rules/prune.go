@@ -60,7 +60,7 @@ var prune = Rule{
 // dangling reports whether only p is on net, and the net is not somewhere
 // the signal comes from (a declared end, a rail or ground, a port net).
 func (x *Ctx) dangling(net string, p *graph.Part) bool {
-	if x.IsEnd(net) || x.IsACGround(net) || x.c.RoleOf(net) == graph.PortN {
+	if x.IsEnd(net) || x.IsACGround(net) || x.RoleOf(net) == graph.PortN {
 		return false
 	}
 	for _, cn := range x.conns[net] {

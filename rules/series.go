@@ -24,7 +24,7 @@ var series = Rule{
 		if out == mid || mid == "nc" || out == "nc" || x.IsEnd(mid) {
 			return nil
 		}
-		n := x.c.Net(mid)
+		n := x.Net(mid)
 		if n == nil || n.Role != graph.Signal || n.Label != "" || n.Volts != 0 {
 			return nil
 		}
