@@ -135,6 +135,7 @@ outputs = ["tank"]
 R1 = { r = "10k", pins = ["in", "tank"] }
 L1 = { l = "250u", pins = ["tank", "gnd"] }
 C1 = { c = "12p..365p", pins = ["tank", "gnd"] }
+R2 = { r = "100k", pins = ["tank", "gnd"], note = "coil loss" }
 `
 	c := mustParse(t, src)
 	red := c.Clone()

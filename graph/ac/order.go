@@ -1,6 +1,9 @@
 package ac
 
-import "sort"
+import (
+	"cmp"
+	"slices"
+)
 
 // rcm returns a reverse Cuthill–McKee ordering of the unknowns of a matrix
 // whose symmetric pattern is given as adjacency lists (no self loops needed).
@@ -15,11 +18,11 @@ func rcm(adj [][]int) []int {
 		deg[i] = len(a)
 	}
 	for _, a := range adj {
-		sort.Slice(a, func(x, y int) bool {
-			if deg[a[x]] != deg[a[y]] {
-				return deg[a[x]] < deg[a[y]]
+		slices.SortFunc(a, func(x, y int) int {
+			if deg[x] != deg[y] {
+				return cmp.Compare(deg[x], deg[y])
 			}
-			return a[x] < a[y]
+			return cmp.Compare(x, y)
 		})
 	}
 	visited := make([]bool, n)

@@ -127,6 +127,13 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 	// do too, but it loads high-Q nodes: 1 TΩ across a crystal's motional
 	// capacitance adds tens of ohms of series loss.)
 	sw.line(".option noopac")
+	// Keep only the recorded nodes: a large deck would otherwise hold every
+	// node's vector in the simulator's memory.
+	var saves []string
+	for _, n := range outNodes {
+		saves = append(saves, "v("+sw.nodes[n]+")")
+	}
+	sw.line(".save %s", strings.Join(saves, " "))
 	sw.line(".ac dec %d %s %s", ppd, num(band.Min), num(band.Max))
 	sw.line(".control")
 	sw.line("set wr_singlescale")

@@ -1,10 +1,11 @@
 package ac
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"math/cmplx"
-	"sort"
+	"slices"
 	"strings"
 
 	"pare/graph"
@@ -78,6 +79,7 @@ type system struct {
 	a      csc
 	f      *lu
 	b, y   []complex128
+	vals   []complex128 // coefficient values at the current frequency
 }
 
 const (
@@ -86,8 +88,9 @@ const (
 )
 
 // newSystem assembles the MNA pattern of nl with node driven held at 1 V
-// (driven < 0: nothing driven).
-func newSystem(nl *netlist, driven int) (*system, error) {
+// (driven < 0: nothing driven) and the nodes in held at 0 V, as by ideal
+// sources with no AC output.
+func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 	s := &system{nl: nl}
 	s.unk = make([]int, len(nl.nodes))
 	for i := range s.unk {
@@ -105,17 +108,25 @@ func newSystem(nl *netlist, driven int) (*system, error) {
 			used[w.a], used[w.b] = true, true
 		}
 	}
+	isHeld := make([]bool, len(nl.nodes))
+	for _, h := range held {
+		if h > 0 && h != driven {
+			isHeld[h] = true
+		}
+	}
 	for i := 1; i < len(nl.nodes); i++ {
 		switch {
 		case i == driven:
 			s.unk[i] = unkDriven
+		case isHeld[i]:
+			// at 0 V: like ground, its entries drop out
 		case used[i]:
 			s.unk[i] = s.n
 			s.what = append(s.what, "net "+nl.nodes[i])
 			s.n++
 		}
 	}
-	if err := s.checkFloating(driven); err != nil {
+	if err := s.checkFloating(driven, isHeld); err != nil {
 		return nil, err
 	}
 	// Coordinates of every entry, then compress.
@@ -192,11 +203,11 @@ func newSystem(nl *netlist, driven int) (*system, error) {
 		return s, nil
 	}
 	// Compress to CSC, merging duplicates into one slot.
-	sort.SliceStable(ents, func(i, j int) bool {
-		if ents[i].col != ents[j].col {
-			return ents[i].col < ents[j].col
+	slices.SortStableFunc(ents, func(x, y entry) int {
+		if x.col != y.col {
+			return cmp.Compare(x.col, y.col)
 		}
-		return ents[i].row < ents[j].row
+		return cmp.Compare(x.row, y.row)
 	})
 	s.a = csc{n: s.n, p: make([]int, s.n+1)}
 	for i, e := range ents {
@@ -232,7 +243,7 @@ func newSystem(nl *netlist, driven int) (*system, error) {
 }
 
 func dedupe(a []int) []int {
-	sort.Ints(a)
+	slices.Sort(a)
 	out := a[:0]
 	for i, v := range a {
 		if i == 0 || v != a[i-1] {
@@ -245,7 +256,7 @@ func dedupe(a []int) []int {
 // checkFloating finds nodes with no path to ground (or to the driven node)
 // through any element that conducts at AC; such a circuit has no unique
 // solution, and naming the nets beats a singular matrix.
-func (s *system) checkFloating(driven int) error {
+func (s *system) checkFloating(driven int, held []bool) error {
 	nl := s.nl
 	parent := make([]int, len(nl.nodes))
 	for i := range parent {
@@ -272,6 +283,11 @@ func (s *system) checkFloating(driven int) error {
 	if driven > 0 {
 		join(0, driven)
 	}
+	for i, h := range held {
+		if h {
+			join(0, i)
+		}
+	}
 	for _, p := range nl.prims {
 		if p.kind != primVCCS {
 			join(p.a, p.b)
@@ -291,12 +307,20 @@ func (s *system) checkFloating(driven int) error {
 	if len(floating) == 0 {
 		return nil
 	}
-	more := ""
-	if len(floating) > 8 {
-		more = fmt.Sprintf(" and %d more", len(floating)-8)
-		floating = floating[:8]
+	return &FloatingError{Nets: floating}
+}
+
+// FloatingError names nets with no path to ground through any part that
+// conducts at AC: the equations do not fix their voltages.
+type FloatingError struct{ Nets []string }
+
+func (e *FloatingError) Error() string {
+	nets, more := e.Nets, ""
+	if len(nets) > 8 {
+		more = fmt.Sprintf(" and %d more", len(nets)-8)
+		nets = nets[:8]
 	}
-	return fmt.Errorf("floating: net(s) %s%s have no path to ground through any part (a winding or stage left unconnected?)", strings.Join(floating, ", "), more)
+	return fmt.Sprintf("floating: net(s) %s%s have no path to ground through any part (a winding or stage left unconnected?)", strings.Join(nets, ", "), more)
 }
 
 // solveAt assembles and solves the system at frequency f (Hz); the solution
@@ -309,7 +333,10 @@ func (s *system) solveAt(f float64) error {
 	for i := range s.b {
 		s.b[i] = 0
 	}
-	vals := make([]complex128, len(s.coefs))
+	if len(s.vals) != len(s.coefs) {
+		s.vals = make([]complex128, len(s.coefs))
+	}
+	vals := s.vals
 	for i, k := range s.coefs {
 		vals[i] = k.at(w)
 	}
@@ -446,8 +473,22 @@ func transferMany(c *graph.Circuit, in string, outs []string, freqs []float64, o
 	return res, nil
 }
 
+// otherInputs lists the nodes of the circuit's declared inputs other than
+// skip: while an impedance is measured they are held at 0 V, as the ideal
+// sources that drive them would hold them.
+func otherInputs(c *graph.Circuit, nl *netlist, skip int) []int {
+	var out []int
+	for _, in := range c.Inputs {
+		if n, ok := nl.netNode[in]; ok && n != skip {
+			out = append(out, n)
+		}
+	}
+	return out
+}
+
 // Impedance returns the driving-point impedance between net and ground: the
-// voltage a 1 A source into net produces, with nothing else driven.
+// voltage a 1 A source into net produces, with the circuit's other declared
+// inputs held at 0 V by their ideal sources and nothing else driven.
 func Impedance(c *graph.Circuit, net string, freqs []float64, o Options) ([]complex128, error) {
 	nl, err := elaborate(c, o)
 	if err != nil {
@@ -461,7 +502,7 @@ func Impedance(c *graph.Circuit, net string, freqs []float64, o Options) ([]comp
 	if n == 0 {
 		return out, nil // a net at AC ground: zero impedance
 	}
-	s, err := newSystem(nl, -1)
+	s, err := newSystem(nl, -1, otherInputs(c, nl, n)...)
 	if err != nil {
 		return nil, err
 	}
