@@ -609,41 +609,49 @@ func hasKind(ks []graph.Kind, k graph.Kind) bool {
 	return false
 }
 
-// live reports whether an anchor taken at the start of a sweep is still in
-// the circuit.
-func (dr *driver) live(a Anchor) bool {
+// resolve turns an anchor taken at the start of a sweep into the part or
+// net of that name in the circuit as it is now (an edit, or a refused step
+// that put the circuit back, may have replaced it); ok is false when it is
+// gone.
+func (dr *driver) resolve(a Anchor) (Anchor, bool) {
 	switch {
 	case a.Part != nil:
-		return dr.x.parts[a.Part.Ref] == a.Part
+		p := dr.x.parts[a.Part.Ref]
+		return Anchor{Part: p, Flip: a.Flip}, p != nil
 	case a.Net != nil:
-		return dr.x.Net(a.Net.Name) == a.Net
+		n := dr.x.nets[a.Net.Name]
+		return Anchor{Net: n}, n != nil
 	}
-	return true
+	return a, true
 }
 
 // run offers a rule every anchor once, applying each sound match at once (so
 // later anchors see the edited circuit); an anchor that matched is offered
-// again until it no longer matches.
+// again until it no longer matches. Symmetric rules see a two-terminal part
+// both ways round.
 func (dr *driver) run(r *Rule) (bool, error) {
 	changed := false
 	for _, a := range dr.anchors(r) {
-		for dr.live(a) {
+		for {
 			applied := false
-			flips := []bool{false}
-			if r.Symmetric && a.Part != nil && len(a.Part.Pins) == 2 {
-				flips = []bool{false, true}
-			}
-			for _, f := range flips {
-				a.Flip = f
-				m := r.Match(dr.x, a)
+			for _, f := range []bool{false, true} {
+				cur, ok := dr.resolve(a)
+				if !ok {
+					break
+				}
+				if f && !(r.Symmetric && cur.Part != nil && len(cur.Part.Pins) == 2) {
+					break
+				}
+				cur.Flip = f
+				m := r.Match(dr.x, cur)
 				if m == nil {
 					continue
 				}
-				ok, err := dr.try(r, m)
+				done, err := dr.try(r, m)
 				if err != nil {
 					return changed, err
 				}
-				if ok {
+				if done {
 					applied = true
 					break
 				}

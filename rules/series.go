@@ -57,7 +57,7 @@ var series = Rule{
 		case graph.Capacitor:
 			r, note = mergedCap(s, o, recip)
 			if capClass(s) == 3 {
-				note += ": a padder in series narrows the range at the top (Cmin·Cp/(Cmin+Cp) .. Cmax·Cp/(Cmax+Cp))"
+				note += ": a padder in series narrows the range at the top (Cmin·Cp/(Cmin+Cp) .. Cmax·Cp/(Cmax+Cp)); exact at both ends of the travel, in between only approximately a linear range"
 			}
 		default:
 			r, note = mergedRL(s, o, sum)
