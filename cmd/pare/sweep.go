@@ -8,6 +8,7 @@ import (
 	"math/cmplx"
 	"strconv"
 
+	"pare/graph"
 	"pare/graph/ac"
 	"pare/graph/value"
 )
@@ -156,7 +157,14 @@ func runSweep(e *env, opts any, args []string) int {
 			fmt.Fprintf(&b, "%s,%s,%s\n", g(f, 9), g(m, 9), g(phaseDeg(h[i]), 7))
 		}
 	} else {
-		fmt.Fprintf(&b, "%s: %s, %s, gang at %s\n", path, what, circuit, atLabel(o.at))
+		gang := ""
+		for _, p := range c.Parts {
+			if p.Kind == graph.Capacitor && p.Type == graph.CapVariable {
+				gang = ", gang at " + atLabel(o.at)
+				break
+			}
+		}
+		fmt.Fprintf(&b, "%s: %s, %s%s\n", path, what, circuit, gang)
 		if o.impedance {
 			fmt.Fprintf(&b, "%14s  %14s  %10s  %10s\n", "frequency", "|Z|", "dB re 1 Ω", "phase °")
 			for i, f := range freqs {

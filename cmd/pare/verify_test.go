@@ -1,0 +1,147 @@
+package main
+
+import (
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// edgeCoupling is a triode stage whose coupling capacitor just passes the
+// ten-times rule at 20 Hz, so the ideal level shorts it; the phase it leaves
+// out there is atan(Xc/(R2 + ra∥RL)) = 5.28°, over the 5° tolerance
+// (derived: Xc = 1/(2π·20 Hz·180 nF) = 44.21 kΩ, ra∥RL = 10k∥47k = 8.2456 kΩ).
+const edgeCoupling = `title = "Coupling capacitor at the edge of the ten-times rule"
+band = "20..20k"
+inputs = ["in"]
+outputs = ["out"]
+
+[nets]
+ht = { role = "supply", volts = 250 }
+
+[parts]
+V1 = { valve = "triode", mu = 20, ra = "10k", pins = { a = "a", g1 = "in", k = "gnd" } }
+R1 = { r = "47k", pins = ["a", "ht"] }
+C1 = { c = "180n", pins = ["a", "out"] }
+R2 = { r = "470k", pins = ["out", "gnd"] }
+`
+
+func writeTemp(t *testing.T, name, src string) string {
+	t.Helper()
+	p := filepath.Join(t.TempDir(), name)
+	if err := os.WriteFile(p, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+func edgeNumbers() (dB, deg float64) {
+	xc := 1 / (2 * math.Pi * 20 * 180e-9)
+	rs := 10e3 * 47e3 / (10e3 + 47e3)
+	r := xc / (470e3 + rs)
+	return 10 * math.Log10(1+r*r), math.Atan(r) * 180 / math.Pi
+}
+
+func TestVerifyPasses(t *testing.T) {
+	for _, f := range []string{"graph/ac/testdata/triode-stage.toml", "graph/ac/testdata/bjt-stage.toml", "examples/if-detector-audio.toml"} {
+		path := filepath.Join(root, f)
+		if _, err := os.Stat(path); err != nil {
+			continue
+		}
+		code, out, errs := cliRun(t, "verify", path)
+		if code != exitOK || errs != "" || !strings.Contains(out, "ok: all") || !strings.Contains(out, "isolation transformer") {
+			t.Errorf("verify %s: exit %d\n%s\n%s", f, code, out, errs)
+		}
+	}
+}
+
+func TestVerifyIdealEdge(t *testing.T) {
+	path := writeTemp(t, "edge.toml", edgeCoupling)
+	wantDB, wantDeg := edgeNumbers()
+	code, out, _ := cliRun(t, "verify", "--level", "ideal", "--json", path)
+	if code != exitFound {
+		t.Fatalf("exit %d, want 1 for a reduction out of tolerance:\n%s", code, out)
+	}
+	var rep struct {
+		Pairs []struct {
+			From, To, What string
+			MaxDB          float64 `json:"max_db"`
+			MaxDeg         float64 `json:"max_deg"`
+			AtHz           float64 `json:"at_hz"`
+		} `json:"pairs"`
+		TolDB  float64 `json:"tolerance_db"`
+		TolDeg float64 `json:"tolerance_deg"`
+		OK     *bool   `json:"ok"`
+	}
+	if err := json.Unmarshal([]byte(out), &rep); err != nil {
+		t.Fatalf("--json output does not parse: %v\n%s", err, out)
+	}
+	if rep.OK == nil || *rep.OK || rep.TolDB != 0.5 || rep.TolDeg != 5 || len(rep.Pairs) != 1 {
+		t.Fatalf("report %+v", rep)
+	}
+	p := rep.Pairs[0]
+	if p.From != "in" || p.To != "out" || p.What != "transfer" || p.AtHz != 20 ||
+		math.Abs(p.MaxDB-wantDB) > 1e-6 || math.Abs(p.MaxDeg-wantDeg) > 1e-6 {
+		t.Errorf("pair %+v, want in→out %.4f dB %.3f° at 20 Hz", p, wantDB, wantDeg)
+	}
+	// A wider phase tolerance lets it pass.
+	if code, out, _ := cliRun(t, "verify", "--level", "ideal", "--tol-deg", "6", path); code != exitOK {
+		t.Errorf("--tol-deg 6: exit %d\n%s", code, out)
+	}
+}
+
+func TestVerifySteps(t *testing.T) {
+	path := writeTemp(t, "edge.toml", edgeCoupling)
+	code, out, _ := cliRun(t, "verify", "--level", "ideal", "--steps", path)
+	if code != exitFound {
+		t.Fatalf("exit %d, want 1:\n%s", code, out)
+	}
+	m := regexp.MustCompile(`first step to break the tolerance: step (\d+), coupling-short \(C1\): V\(out\)/V\(in\) changes by ([0-9.]+) dB, ([0-9.]+)° at 20 Hz`).FindStringSubmatch(out)
+	if m == nil {
+		t.Fatalf("no blame on the coupling-short step of C1:\n%s", out)
+	}
+	_, wantDeg := edgeNumbers()
+	if deg, _ := strconv.ParseFloat(m[3], 64); math.Abs(deg-wantDeg) > 0.01 {
+		t.Errorf("blamed deviation %s°, want %.2f°", m[3], wantDeg)
+	}
+	// The step was refused, so what is left verifies.
+	if !strings.Contains(out, "V(out)/V(in)     0.000 dB") {
+		t.Errorf("the refused step still shows in the final comparison:\n%s", out)
+	}
+}
+
+func TestVerifyBadInput(t *testing.T) {
+	bad := writeTemp(t, "bad.toml", "band = \"1k..2k\"\n[parts]\nR1 = { r = \"4k7\", pins = [\"a\"] }\n")
+	good := writeTemp(t, "edge.toml", edgeCoupling)
+	cases := []struct {
+		args []string
+		want string
+	}{
+		{[]string{"verify", bad}, "bad.toml:3:"},
+		{[]string{"verify", filepath.Join(t.TempDir(), "missing.toml")}, "no such file"},
+		{[]string{"verify", "--level", "tight", good}, "unknown reduction level"},
+		{[]string{"verify", "--tol-db", "0", good}, "must be positive"},
+		{[]string{"verify", "--at", "1.5", good}, "fraction of the travel"},
+		{[]string{"verify"}, "exactly one"},
+	}
+	for _, tc := range cases {
+		code, out, errs := cliRun(t, tc.args...)
+		if code != exitBad || !strings.Contains(errs, tc.want) || out != "" {
+			t.Errorf("%v: exit %d, stdout %q, stderr %q; want exit 2 and %q", tc.args, code, out, errs, tc.want)
+		}
+	}
+}
+
+// The same input gives byte-identical output.
+func TestVerifyDeterministic(t *testing.T) {
+	path := filepath.Join(root, "graph/ac/testdata/hartley-xtal.toml")
+	_, a, _ := cliRun(t, "verify", "--json", "--steps", path)
+	_, b, _ := cliRun(t, "verify", "--json", "--steps", path)
+	if a != b || a == "" {
+		t.Errorf("two runs differ:\n%s\n---\n%s", a, b)
+	}
+}
