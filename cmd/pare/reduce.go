@@ -45,7 +45,9 @@ refuses steps that change the signal behaviour (slower).
 
 -o writes the reduced netlist (itself a valid input); the input file is never
 changed. The reduced circuit is a small-signal equivalent only: it is not a
-wiring diagram and says nothing about DC voltages.`,
+wiring diagram and says nothing about DC voltages.
+
+` + ruleTableHelp(),
 		flags: func(fs *flag.FlagSet) any {
 			o := &reduceOpts{}
 			fs.StringVar(&o.out, "o", "", "write the reduced netlist to this file")
@@ -58,6 +60,18 @@ wiring diagram and says nothing about DC voltages.`,
 		},
 		run: runReduce,
 	})
+}
+
+// ruleTableHelp lists the rule table, in the order the rules are tried, for
+// `pare help reduce`: the help is generated from the table itself, so it
+// cannot drift from what the engine does.
+func ruleTableHelp() string {
+	var b strings.Builder
+	b.WriteString("Rules, in the order they are tried on every sweep:\n")
+	for _, r := range rules.Table() {
+		fmt.Fprintf(&b, "  %-16s %-6s %s\n", r.Name, r.Level, r.Purpose)
+	}
+	return b.String()
 }
 
 // reduceCaution goes with every printed reduction: it is read next to a
@@ -192,6 +206,15 @@ func printReduceLog(w io.Writer, path string, log *rules.Log, out string) {
 		for _, g := range names {
 			fmt.Fprintf(w, "gang %s: %s (mechanically linked; the link is not drawn)\n", g, strings.Join(log.Gangs[g], ", "))
 		}
+	}
+	var fired []string
+	for _, h := range log.Hits {
+		if h.N > 0 {
+			fired = append(fired, fmt.Sprintf("%s %d", h.Rule, h.N))
+		}
+	}
+	if len(fired) > 0 {
+		fmt.Fprintf(w, "rules fired: %s\n", strings.Join(fired, ", "))
 	}
 	refused := len(log.Steps) - log.Applied()
 	fmt.Fprintf(w, "parts %d → %d, nets %d → %d, %d step(s)", log.Before.Parts, log.After.Parts, log.Before.Nets, log.After.Nets, log.Applied())
