@@ -97,9 +97,14 @@ var noSignal = Rule{
 			}
 			var via []string
 			for _, p := range parts {
-				for _, pin := range p.Pins {
-					if x.IsACGround(pin.Net) && !contains(via, pin.Net) {
-						via = append(via, pin.Net)
+				written := x.netsAsWritten(p)
+				for i, pin := range p.Pins {
+					n := pin.Net
+					if i < len(written) {
+						n = written[i]
+					}
+					if x.IsACGround(pin.Net) && !contains(via, n) {
+						via = append(via, n)
 					}
 				}
 			}
@@ -108,7 +113,7 @@ var noSignal = Rule{
 			if len(via) > 0 {
 				why += " (" + strings.Join(via, ", ") + ")"
 			}
-			why += ": no signal passes through them (a supply or an indicator, say)"
+			why += ": no signal passes through them to the declared inputs and outputs (a supply, an indicator, a decoupled DC control line)"
 			return &Plan{Parts: parts, Why: why}
 		}
 		return nil
