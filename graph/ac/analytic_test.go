@@ -331,3 +331,40 @@ R1 = { r = "1k", pins = ["a", "gnd"] }
 		})
 	}
 }
+
+func TestDocumentedDefaults(t *testing.T) {
+	// A triode with no parameters takes gm 2 mA/V, ra 20 kΩ (µ 40): with a
+	// 20 kΩ load the gain is −µRL/(ra+RL) = −20 (reference-values.md §5
+	// formula with the documented defaults, derived).
+	c := mustParse(t, `band = "1k..2k"
+[nets]
+ht = { role = "supply" }
+[parts]
+V1 = { valve = "triode", pins = { a = "a", g1 = "in", k = "gnd" } }
+R1 = { r = "20k", pins = ["a", "ht"] }
+`)
+	if h := transferAt(t, c, "in", "a", 1e3); !closeRel(real(h), -20, 1e-9) {
+		t.Errorf("default triode gain %v, want −20", h)
+	}
+	// A 1 MHz crystal with the default cm 20 fF and Q 50 000 and no holder
+	// capacitance is its motional resistance at fs: Lm = 1/((2π·1 MHz)²·20 fF)
+	// = 1.26651 H, Rm = 2π·1 MHz·Lm/Q = 159.155 Ω (derived from the
+	// four-element equivalent).
+	x := mustParse(t, `band = "999k..1001k"
+[parts]
+X1 = { xtal = "1M", c0 = 0, pins = ["in", "gnd"] }
+`)
+	z := impedanceAt(t, x, "in", 1e6)
+	if !closeRel(real(z), 159.155, 1e-5) || math.Abs(imag(z)) > 1e-6 {
+		t.Errorf("crystal at fs: %v, want 159.155 Ω", z)
+	}
+	// A signal diode conducting at 1 mA is VT/1 mA = 25.852 Ω (Shockley,
+	// ideality 1; VT from SI 2019 constants).
+	d := mustParse(t, `band = "1k..2k"
+[parts]
+D1 = { diode = "signal", pins = ["in", "gnd"] }
+`)
+	if z := impedanceAt(t, d, "in", 1e3); !closeRel(real(z), 25.8520, 1e-5) {
+		t.Errorf("diode: %v, want 25.852 Ω", z)
+	}
+}

@@ -50,11 +50,19 @@ func (p Pair) String() string {
 	if p.Error != "" {
 		return fmt.Sprintf("%s: %s", name, p.Error)
 	}
-	s := fmt.Sprintf("%s: worst %.3f dB, %.2f° at %s", name, p.MaxDB, p.MaxDeg, value.Format(p.AtHz, value.Hertz, value.Symbol))
+	s := fmt.Sprintf("%s: worst %s, %.2f° at %s", name, p.dbText(), p.MaxDeg, value.Format(p.AtHz, value.Hertz, value.Symbol))
 	if p.Setting != "" {
 		s += ", gang at " + p.Setting
 	}
 	return s
+}
+
+// dbText prints the magnitude deviation; at the floor it says what that means.
+func (p Pair) dbText() string {
+	if p.MaxDB >= floorDB-1e-9 {
+		return fmt.Sprintf("%.0f dB or more (one response is %d dB below the peak: the signal is lost or appears from nowhere)", p.MaxDB, floorDB)
+	}
+	return fmt.Sprintf("%.3f dB", p.MaxDB)
 }
 
 // Label names the quantity: "V(out)/V(in)" or "Z(net)".
@@ -112,7 +120,7 @@ func (e *ToleranceError) Error() string {
 	if e.Pair.Error != "" {
 		return e.Pair.String()
 	}
-	return fmt.Sprintf("%s changes by %.3f dB, %.2f° at %s (tolerance %g dB, %g°)", e.Pair.Label(), e.Pair.MaxDB, e.Pair.MaxDeg,
+	return fmt.Sprintf("%s changes by %s, %.2f° at %s (tolerance %g dB, %g°)", e.Pair.Label(), e.Pair.dbText(), e.Pair.MaxDeg,
 		value.Format(e.Pair.AtHz, value.Hertz, value.Symbol), e.TolDB, e.TolDeg)
 }
 

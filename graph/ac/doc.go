@@ -32,7 +32,38 @@
 //     closed in the set position join their nets. Ports are open unless
 //     Options.Terminate states a termination. Generic parts are open.
 //
-// Defaults lists every default parameter with its source.
+// Defaults lists every default parameter with its source:
+//
+//	class                    param  default      source
+//	triode                   gm     2 mA/V       typical small-signal triode, from memory
+//	triode                   ra     20 kΩ        typical (µ 40), from memory
+//	tetrode, pentode         gm     2 mA/V       typical RF/IF pentode, from memory
+//	tetrode, pentode         ra     1 MΩ         typical RF/IF pentode, from memory
+//	hexode, heptode, octode  gm     0.5 mA/V     typical conversion conductance, from memory
+//	hexode, heptode, octode  ra     1 MΩ         typical frequency changer, from memory
+//	valve diode              rd     1 kΩ         conducting signal diode, typical, from memory
+//	bjt                      beta   100          typical small-signal transistor, from memory
+//	bjt                      ic     1 mA         typical small-signal bias, from memory
+//	bjt                      VA     100 V        Early voltage, ro = VA/Ic, typical, from memory
+//	fet                      gm     4 mA/V       typical small-signal JFET, from memory
+//	fet                      rd     50 kΩ        typical small-signal JFET, from memory
+//	diode                    Id     1 mA         rd = VT/Id = 25.85 Ω (Shockley, ideality 1)
+//	crystal                  c0     5 pF         typical holder capacitance, from memory
+//	crystal                  cm     20 fF        c0/cm = 250, typical, from memory
+//	crystal                  q      50 000       typical quartz unit, from memory
+//
+// Any two of a valve's gm, ra and mu give the third; given alone, gm or mu
+// is completed with the class's ra, and ra with the class's gm. All three
+// given must agree within 2 %.
+//
+// An impedance is the voltage a 1 A source into the net produces, with the
+// circuit's other declared inputs held at 0 V by their ideal sources.
+//
+// Compare judges a transfer over the bands of its input net and an impedance
+// over the bands of its net (the regions holding the net, or the default
+// band); see netBands for why. Gang sections are checked at minimum, mid
+// travel and maximum unless Options.VarSet picks one setting. Responses more
+// than 80 dB below their peak count as that floor.
 //
 // The equations are modified nodal analysis over complex frequency, solved by
 // a sparse LU after a reverse Cuthill–McKee ordering (sparse.go, order.go):
