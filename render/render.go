@@ -129,7 +129,7 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 	if s == nil || s.Circuit == nil {
 		return nil, fmt.Errorf("render: no circuit to draw")
 	}
-	o := layout.Options{Style: symbol.Style(cfg.Style), Links: s.View != Reduced}
+	o := layout.Options{Style: symbol.Style(cfg.Style), Links: s.View != Reduced, Untangle: s.View == Reduced}
 	if s.View == Faded {
 		o.Faded, o.Merged = s.Faded, s.Merged
 	}
@@ -409,7 +409,7 @@ func (d *drawer) label(l geom.Label, frame bool) {
 		y += symbol.LineH
 		cls := ""
 		switch {
-		case frame && i == 0:
+		case frame && i < l.Head:
 			cls = `class="mk"`
 		case frame || i > 0:
 			cls = `class="sm"`

@@ -58,7 +58,7 @@ func TestDrawExamplesCheck(t *testing.T) {
 				if v == render.Reduced {
 					for i, n := range r.FrameCrossings {
 						if n > 0 {
-							t.Errorf("%s reduced %s: %d crossings inside frame %q", filepath.Base(f), st, n, s.Frames[i].Title)
+							t.Errorf("%s reduced %s: %d crossings inside frame %q", filepath.Base(f), st, n, g.Frames[i].Title.Lines)
 						}
 					}
 				}

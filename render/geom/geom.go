@@ -158,6 +158,7 @@ type Label struct {
 	Box   Rect
 	Faded bool
 	Small bool // second-line markers and frame figures
+	Head  int  // frame titles: how many leading lines are the title (the rest are figures)
 }
 
 // Wire is one net's routed segments.

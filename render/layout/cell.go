@@ -21,6 +21,8 @@ type cell struct {
 	faded  bool
 	col    int
 	edge   int // -1: an input flag at the left edge, +1: an output flag at the right edge
+	turns  []symbol.Orient
+	turn   int // index of the chosen orientation in turns
 }
 
 func (c *cell) footprint() geom.Rect {

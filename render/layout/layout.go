@@ -44,6 +44,9 @@ type Options struct {
 	Frames []Frame
 	// Links draws ganged sections joined by a dashed mechanical link.
 	Links bool
+	// Untangle tries other orientations of the parts on crossing nets until
+	// no crossing is left (bounded); worth its time on small reduced sheets.
+	Untangle bool
 }
 
 // Placed is a symbol at its place on the sheet, for the renderer.
@@ -74,11 +77,56 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	if c == nil {
 		return nil, fmt.Errorf("layout: no circuit")
 	}
-	cells := makeCells(c, o)
-	if len(cells) == 0 {
-		return &Result{}, nil
+	res, ly, crossings := layoutOnce(c, o, nil)
+	if crossings == 0 || !o.Untangle || len(ly.cells) > maxRetryCells {
+		return res, nil
 	}
-	ly := &state{c: c, o: o, cells: cells}
+	// Crossings left after rerouting come from the placement: try the other
+	// orientations of the parts on crossing nets (coils, transformers) and
+	// keep the first that has fewer crossings, a bounded local search.
+	turns := map[string]int{}
+	tried := 0
+	for _, cl := range ly.cells {
+		if !ly.crossing[cl.ref] {
+			continue
+		}
+		n := len(cl.turns)
+		for t := 0; t < n && tried < maxRetries; t++ {
+			if t == cl.turn {
+				continue
+			}
+			tried++
+			trial := map[string]int{}
+			for k, v := range turns {
+				trial[k] = v
+			}
+			trial[cl.ref] = t
+			r2, _, x2 := layoutOnce(c, o, trial)
+			if x2 < crossings {
+				res, crossings, turns = r2, x2, trial
+				if crossings == 0 {
+					return res, nil
+				}
+			}
+		}
+	}
+	return res, nil
+}
+
+// Bounds of the orientation search: small sheets only, a few dozen tries.
+const (
+	maxRetryCells = 300
+	maxRetries    = 16
+)
+
+// layoutOnce lays the circuit out with some orientations fixed (index into
+// each symbol's Turns) and returns the sheet and its number of crossings.
+func layoutOnce(c *graph.Circuit, o Options, turns map[string]int) (*Result, *state, int) {
+	cells := makeCells(c, o)
+	ly := &state{c: c, o: o, cells: cells, turns: turns, crossing: map[string]bool{}}
+	if len(cells) == 0 {
+		return &Result{}, ly, 0
+	}
 	ly.rank()
 	ly.orient()
 	for _, cl := range ly.cells {
@@ -102,6 +150,19 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	rt := newRouter(ly)
 	rt.routeAll()
 	rt.emit(&res.Geom)
+	ly.growFrames(&res.Geom)
+	res.Geom.Frames = ly.frames
+	crossings := 0
+	for i := range rt.own2 {
+		if rt.own2[i] != 0 {
+			crossings++
+			for _, id := range []int32{rt.own1[i], rt.own2[i]} {
+				for _, p := range rt.nets[id-1].pins {
+					ly.crossing[p.ref] = true
+				}
+			}
+		}
+	}
 	if o.Links {
 		res.Geom.Links = ly.links(&res.Geom)
 	}
@@ -124,7 +185,7 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 		b = b.Union(f.Box)
 	}
 	res.Geom.Bounds = b
-	return res, nil
+	return res, ly, crossings
 }
 
 func realPart(cl *cell) *graph.Part {
@@ -260,6 +321,46 @@ type state struct {
 	stageOf  map[string]int
 	netCount map[string]int
 	frames   []geom.Frame
+	// orientation search: fixed turns by ref, and refs on crossing nets
+	turns    map[string]int
+	crossing map[string]bool
+	// frameStage is the stage (index into Options.Frames) of each frame drawn
+	frameStage []int
+}
+
+// growFrames widens each frame to hold the wires of nets that lie wholly
+// inside its stage, so that a detour never leaves its own frame.
+func (ly *state) growFrames(g *geom.Sheet) {
+	if len(ly.frames) == 0 {
+		return
+	}
+	stageOfNet := map[string]int{}
+	for _, cl := range ly.cells {
+		s, ok := ly.stageOf[cl.ref]
+		if !ok || cl.edge != 0 {
+			s = -1
+		}
+		for _, p := range cl.shape.Pins {
+			if prev, seen := stageOfNet[p.Net]; seen && prev != s {
+				s = -1
+			}
+			stageOfNet[p.Net] = s
+		}
+	}
+	frameOf := map[int]int{}
+	for i, s := range ly.frameStage {
+		frameOf[s] = i
+	}
+	for _, w := range g.Wires {
+		s, ok := stageOfNet[w.Net]
+		f, drawn := frameOf[s]
+		if !ok || s < 0 || !drawn {
+			continue
+		}
+		for _, seg := range w.Segs {
+			ly.frames[f].Box = ly.frames[f].Box.Union(seg.Box().Inset(framePad))
+		}
+	}
 }
 
 // signalNets of a cell: the nets of its pins that are wired.
@@ -518,11 +619,18 @@ func (ly *state) orient() {
 			continue
 		}
 		best, bestScore := base, math.Inf(-1)
-		for _, o := range base.Turns {
+		cl.turns = base.Turns
+		for i, o := range base.Turns {
 			s := base.Oriented(o)
 			score := ly.score(cl, s)
+			if t, ok := ly.turns[cl.ref]; ok {
+				score = 0
+				if t == i {
+					score = 1
+				}
+			}
 			if score > bestScore+1e-9 {
-				best, bestScore = s, score
+				best, bestScore, cl.turn = s, score, i
 			}
 		}
 		cl.shape = best

@@ -3,6 +3,7 @@ package layout
 import (
 	"math"
 	"sort"
+	"strings"
 
 	"pare/graph"
 	"pare/render/geom"
@@ -29,19 +30,39 @@ type block struct {
 	pos   float64   // barycentre key while ordering
 }
 
-func isVertical(cl *cell) bool {
-	if len(cl.shape.Pins) != 2 {
-		return false
+// outer returns the two end pins of a part that can stand in parallel with
+// others: a two-terminal part's pins, a tapped coil's ends.
+func outer(cl *cell) (a, b *geom.Pin, ok bool) {
+	switch {
+	case len(cl.shape.Pins) == 2:
+		return &cl.shape.Pins[0], &cl.shape.Pins[1], true
+	case cl.part.Kind == graph.Inductor && len(cl.shape.Pins) == 3:
+		a, b = cl.shape.Pin("1"), cl.shape.Pin("2")
+		return a, b, a != nil && b != nil
 	}
-	return cl.shape.Pins[0].At.X == cl.shape.Pins[1].At.X
+	return nil, nil, false
+}
+
+func isVertical(cl *cell) bool {
+	a, b, ok := outer(cl)
+	return ok && a.At.X == b.At.X
 }
 
 func pairKey(cl *cell) string {
-	a, b := cl.shape.Pins[0].Net, cl.shape.Pins[1].Net
-	if cl.shape.Pins[0].At.Y > cl.shape.Pins[1].At.Y {
+	a, b, _ := outer(cl)
+	if a.At.Y > b.At.Y {
 		a, b = b, a
 	}
-	return a + "\x00" + b
+	return a.Net + "\x00" + b.Net
+}
+
+// sidePins says whether a cell has pins leaving left or right.
+func sidePins(cl *cell) (left, right bool) {
+	for _, p := range cl.shape.Pins {
+		left = left || p.Dir == geom.Left
+		right = right || p.Dir == geom.Right
+	}
+	return
 }
 
 func (ly *state) blocks() [][]*block {
@@ -78,14 +99,24 @@ func (ly *state) blocks() [][]*block {
 func (ly *state) arrange(b *block) {
 	if len(b.cells) > 1 {
 		// inductors first, then capacitors, then the rest: the tank reads L, C
+		// a part with a pin to the left goes first and one with a pin to
+		// the right last, so side pins face out of the block
 		rank := func(cl *cell) int {
+			l, r := sidePins(cl)
+			side := 1
+			if l {
+				side = 0
+			} else if r {
+				side = 2
+			}
+			kind := 2
 			switch cl.part.Kind {
 			case graph.Inductor:
-				return 0
+				kind = 0
 			case graph.Capacitor:
-				return 1
+				kind = 1
 			}
-			return 2
+			return side*3 + kind
 		}
 		sort.SliceStable(b.cells, func(i, j int) bool { return rank(b.cells[i]) < rank(b.cells[j]) })
 		for i, cl := range b.cells {
@@ -104,7 +135,13 @@ func (ly *state) arrange(b *block) {
 	for i, cl := range b.cells {
 		fp := cl.footprint()
 		if i > 0 {
-			dx := math.Ceil(x + blockGap - fp.X0)
+			gap := float64(blockGap)
+			_, r := sidePins(b.cells[i-1])
+			l, _ := sidePins(cl)
+			if r || l {
+				gap += 3 // room for the side pin's wire
+			}
+			dx := math.Ceil(x + gap - fp.X0)
 			cl.move(geom.Pt{X: dx})
 			fp = cl.footprint()
 		}
@@ -174,8 +211,8 @@ func (ly *state) place() {
 			gap += stageGap
 			if s := colStage[i]; s >= 0 && s < len(ly.o.Frames) {
 				// leave room for a frame title wider than its parts
-				tw := titleWidth(ly.o.Frames[s])
-				if have := x + w - stageStart[s]; tw > have {
+				have := x + w - stageStart[s]
+				if tw := titleWidth(ly.o.Frames[s], have); tw > have {
 					gap += math.Ceil(tw - have)
 				}
 			}
@@ -219,8 +256,53 @@ func (ly *state) place() {
 	ly.makeFrames()
 }
 
-func titleWidth(f Frame) float64 {
-	return math.Max(symbol.TextWidth(f.Title), symbol.TextWidth(f.Subtitle)*symbol.SmallScale) + 2*framePad
+// minTitleChars is the narrowest a frame title is wrapped to.
+const minTitleChars = 24
+
+// titleLines wraps a frame's title and figures to the width of its parts
+// (but no narrower than minTitleChars); head is the number of title lines.
+func titleLines(f Frame, width float64) (lines []string, head int) {
+	chars := int(math.Max(minTitleChars, math.Floor(width/symbol.CharW)))
+	lines = wrapWords(f.Title, chars)
+	head = len(lines)
+	if f.Subtitle != "" {
+		lines = append(lines, wrapWords(f.Subtitle, int(float64(chars)/symbol.SmallScale))...)
+	}
+	return lines, head
+}
+
+func titleWidth(f Frame, width float64) float64 {
+	lines, head := titleLines(f, width)
+	w := 0.0
+	for i, l := range lines {
+		lw := symbol.TextWidth(l)
+		if i >= head {
+			lw *= symbol.SmallScale
+		}
+		w = math.Max(w, lw)
+	}
+	return w + 2*framePad
+}
+
+// wrapWords breaks text into lines of at most n characters at spaces.
+func wrapWords(s string, n int) []string {
+	var out []string
+	line := ""
+	for _, w := range strings.Fields(s) {
+		if line != "" && len([]rune(line))+1+len([]rune(w)) > n {
+			out = append(out, line)
+			line = w
+			continue
+		}
+		if line != "" {
+			line += " "
+		}
+		line += w
+	}
+	if line != "" {
+		out = append(out, line)
+	}
+	return out
 }
 
 // order sorts the blocks of each column by the barycentre of their
@@ -314,16 +396,14 @@ func (ly *state) makeFrames() {
 		if b == (geom.Rect{}) {
 			continue
 		}
-		lines := []string{f.Title}
-		if f.Subtitle != "" {
-			lines = append(lines, f.Subtitle)
-		}
+		lines, head := titleLines(f, b.W())
 		h := symbol.LineH * float64(len(lines))
-		w := titleWidth(f) - 2*framePad
-		title := geom.Label{Owner: "frame:" + f.Title, Lines: lines, Small: true,
+		w := titleWidth(f, b.W()) - 2*framePad
+		title := geom.Label{Owner: "frame:" + f.Title, Lines: lines, Small: true, Head: head,
 			Box: geom.Rect{X0: b.X0, Y0: b.Y0 - 2.2 - h, X1: b.X0 + w, Y1: b.Y0 - 2.2}}
 		box := b.Union(title.Box).Inset(framePad)
 		ly.frames = append(ly.frames, geom.Frame{Box: box, Title: title})
+		ly.frameStage = append(ly.frameStage, i)
 	}
 }
 

@@ -15,7 +15,9 @@ import (
 const (
 	stepCost  = 10
 	bendCost  = 30
-	crossCost = 80
+	crossCost = 300
+	// while removing crossings a wire may go a long way round instead
+	wideCrossCost = 1200
 )
 
 // arm bits: which neighbours a wire cell connects to
@@ -62,6 +64,7 @@ type router struct {
 	parent []int32
 	gen    uint32
 	heap   []heapItem
+	wide   bool // search wide windows first (while removing crossings)
 }
 
 type heapItem struct{ f, s int32 }
@@ -272,10 +275,120 @@ func (rt *router) routeAll() {
 			rt.routeNet(v)
 		}
 	}
+	rt.uncross()
 	for id, nr := range rt.nets {
 		if !nr.ok && len(nr.pins) >= 2 {
 			rt.ripUp(id)
 			rt.flagNet(id)
+		}
+	}
+}
+
+// saved is a net's wiring, kept while trying another.
+type saved struct {
+	cells []int
+	arms  []uint8
+	fe    []bool
+	fs    []bool
+}
+
+func (rt *router) save(id int) saved {
+	net := int32(id + 1)
+	var s saved
+	for _, c := range rt.nets[id].cells {
+		s.cells = append(s.cells, c)
+		s.arms = append(s.arms, rt.arms(c, net))
+		s.fe = append(s.fe, rt.fadedE[c])
+		s.fs = append(s.fs, rt.fadedS[c])
+	}
+	return s
+}
+
+func (rt *router) restore(id int, s saved) {
+	net := int32(id + 1)
+	for i, c := range s.cells {
+		if !rt.owns(c, net) || rt.arms(c, net) != s.arms[i] {
+			rt.addArm(c, net, s.arms[i])
+		}
+		if s.arms[i]&armE != 0 {
+			rt.fadedE[c] = s.fe[i]
+		}
+		if s.arms[i]&armS != 0 {
+			rt.fadedS[c] = s.fs[i]
+		}
+	}
+	rt.nets[id].cells = append([]int(nil), s.cells...)
+	rt.nets[id].ok = true
+}
+
+// crossingsOf counts the cells where the given nets cross another net.
+func (rt *router) crossingsOf(ids ...int) int {
+	seen := map[int]bool{}
+	for _, id := range ids {
+		for _, c := range rt.nets[id].cells {
+			if rt.own2[c] != 0 {
+				seen[c] = true
+			}
+		}
+	}
+	return len(seen)
+}
+
+// uncross is rip-up and reroute for crossings: for each pair of crossing
+// nets, try rerouting one of them over a wider window, then both in the
+// other order, and keep whichever has fewer crossings.
+func (rt *router) uncross() {
+	for round := 0; round < 4; round++ {
+		type pair struct{ a, b int }
+		var pairs []pair
+		seen := map[pair]bool{}
+		for c := range rt.own2 {
+			if rt.own2[c] != 0 {
+				p := pair{int(min(rt.own1[c], rt.own2[c])) - 1, int(max(rt.own1[c], rt.own2[c])) - 1}
+				if !seen[p] {
+					seen[p] = true
+					pairs = append(pairs, p)
+				}
+			}
+		}
+		if len(pairs) == 0 || len(pairs) > 400 {
+			return
+		}
+		improved := false
+		for _, p := range pairs {
+			before := rt.crossingsOf(p.a, p.b)
+			if before == 0 {
+				continue
+			}
+			sa, sb := rt.save(p.a), rt.save(p.b)
+			tries := [][]int{{p.b}, {p.a}, {p.b, p.a}, {p.a, p.b}}
+			if round%2 == 1 {
+				tries = [][]int{{p.a}, {p.b}, {p.a, p.b}, {p.b, p.a}}
+			}
+			done := false
+			for _, order := range tries {
+				for _, id := range order {
+					rt.ripUp(id)
+				}
+				rt.wide = true
+				ok := true
+				for _, id := range order {
+					ok = rt.routeNet(id) && ok
+				}
+				rt.wide = false
+				if ok && rt.crossingsOf(p.a, p.b) < before {
+					done, improved = true, true
+					break
+				}
+				rt.ripUp(p.a)
+				rt.ripUp(p.b)
+				rt.restore(p.a, sa)
+				rt.restore(p.b, sb)
+			}
+			_ = done
+		}
+		if !improved {
+			return
 		}
 	}
 }
@@ -350,7 +463,11 @@ func (rt *router) routeNet(id int) bool {
 		p := pending[best]
 		pending = append(pending[:best:best], pending[best+1:]...)
 		var path []int
-		for _, m := range []int{6, 20, 1 << 20} {
+		margins := []int{6, 20, 1 << 20}
+		if rt.wide {
+			margins = []int{12}
+		}
+		for _, m := range margins {
 			path = rt.search(net, p, tree, m)
 			if path != nil {
 				break
@@ -489,7 +606,11 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, margin int) []int
 					if rt.arm1[n] != want {
 						continue
 					}
-					cost += crossCost
+					if rt.wide {
+						cost += wideCrossCost
+					} else {
+						cost += crossCost
+					}
 				}
 			}
 			ns := int32(n*4 + nd)
