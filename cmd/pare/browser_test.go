@@ -1,5 +1,3 @@
-//go:build pare_pipeline
-
 package main
 
 import (
@@ -50,10 +48,11 @@ func TestSheetsInBrowser(t *testing.T) {
 	for _, ex := range examples(t) {
 		name := strings.TrimSuffix(filepath.Base(ex), ".toml")
 		t.Run(name, func(t *testing.T) {
-			dir := filepath.Join(t.TempDir(), name+".pare")
-			if code, _, stderr := runJob(t, ex, "-o", dir); code == exitBad {
-				t.Fatalf("main job failed: %s", stderr)
+			r := cachedJob(t, ex)
+			if r.code == exitBad {
+				t.Fatalf("main job failed: %s", r.stderr)
 			}
+			dir := r.dir
 			for _, sheet := range []string{fileReducedSheet, fileFadedSheet} {
 				svgPath := filepath.Join(dir, sheet)
 				checkWellFormed(t, svgPath)

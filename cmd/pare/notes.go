@@ -11,6 +11,7 @@ import (
 	"io"
 	"sort"
 	"strings"
+	"unicode"
 
 	"pare/graph/value"
 )
@@ -94,12 +95,29 @@ type noteVerify struct {
 	TolDB   float64
 	TolDeg  float64
 	Pairs   []notePair
+	Notes   []string // what could not be compared, and why
 }
 
 type notePair struct {
 	From, To, What string
 	MaxDB, MaxDeg  float64
 	AtHz           float64
+	Setting        string // gang setting of the worst point
+	Error          string // the reduced circuit could not be solved for this pair
+}
+
+// label names the quantity compared, as the verify command prints it:
+// "V(out)/V(in)" for a transfer, "Z(net)" for an impedance.
+func (p notePair) label() string {
+	if p.What == "impedance" {
+		return "Z(" + p.From + ")"
+	}
+	return "V(" + p.To + ")/V(" + p.From + ")"
+}
+
+// within reports whether the pair is inside the tolerance.
+func (p notePair) within(tolDB, tolDeg float64) bool {
+	return p.Error == "" && p.MaxDB <= tolDB && p.MaxDeg <= tolDeg
 }
 
 // failed reports whether the note must say the verification failed.
@@ -120,8 +138,10 @@ var cautionLines = []string{
 // cautionHeading opens the caution block; tests look for it.
 const cautionHeading = "Caution: valve and mains equipment can kill."
 
-// sheetCaution is the one line printed on every sheet.
-const sheetCaution = "Small-signal view only: no DC conditions, heaters or supplies. Valve HT and mains can kill; see notes.md before working on the set."
+// sheetCaution is the one line printed on every sheet of the main job (the
+// renderer adds "small-signal only" to a reduced view). It sends the reader
+// to the full caution in the note beside the sheets.
+const sheetCaution = "Caution: valve HT and mains can kill; capacitors stay charged and the chassis may be live. Read the caution in notes.md before working on the set."
 
 // writeNote writes the repair note. Output depends only on n, so the same
 // run gives the same bytes.
@@ -258,8 +278,8 @@ func writeSteps(b *bytes.Buffer, n *note) {
 			refused++
 		}
 	}
-	fmt.Fprintf(b, "%d step(s), %d refused by the AC check. Each line names the rule, what it did, why, and where the parts are in the netlist.\n\n",
-		len(n.Steps), refused)
+	fmt.Fprintf(b, "%d step(s): %d applied, %d refused by the AC check. Each line names the rule, what it did, why, and where the parts are in the netlist.\n\n",
+		len(n.Steps), len(n.Steps)-refused, refused)
 	for _, s := range n.Steps {
 		b.WriteString(stepLine(s))
 		b.WriteString("\n")
@@ -321,6 +341,9 @@ func stepLine(s noteStep) string {
 		l.WriteString(". ")
 	}
 	l.WriteString(mdText(s.Why))
+	if s.Refused != "" && !strings.HasSuffix(s.Why, ".") {
+		l.WriteString(".")
+	}
 	if s.Refused != "" {
 		fmt.Fprintf(&l, " Not applied: %s.", mdText(strings.TrimSuffix(s.Refused, ".")))
 	}
@@ -356,19 +379,32 @@ func writeVerify(b *bytes.Buffer, n *note) {
 		verdict, num(v.TolDB), num(v.TolDeg))
 	if len(v.Pairs) == 0 {
 		b.WriteString("No port pair was compared.\n\n")
-		return
-	}
-	b.WriteString("| from | to | what | worst dB | worst ° | at | result |\n")
-	b.WriteString("|---|---|---|---|---|---|---|\n")
-	for _, p := range v.Pairs {
-		res := "ok"
-		if p.MaxDB > v.TolDB || p.MaxDeg > v.TolDeg {
-			res = "**out of tolerance**"
+	} else {
+		b.WriteString("| quantity | what | worst dB | worst ° | at | gang | result |\n")
+		b.WriteString("|---|---|---|---|---|---|---|\n")
+		for _, p := range v.Pairs {
+			res := "ok"
+			switch {
+			case p.Error != "":
+				res = "**not solved**: " + mdCell(p.Error)
+			case !p.within(v.TolDB, v.TolDeg):
+				res = "**out of tolerance**"
+			}
+			dB, deg, at := num(p.MaxDB), num(p.MaxDeg), value.Format(p.AtHz, value.Hertz, value.Symbol)
+			if p.Error != "" {
+				dB, deg, at = "–", "–", "–"
+			}
+			fmt.Fprintf(b, "| `%s` | %s | %s | %s | %s | %s | %s |\n", mdCode(p.label()), mdCell(p.What),
+				dB, deg, at, orDash(mdCell(p.Setting)), res)
 		}
-		fmt.Fprintf(b, "| `%s` | `%s` | %s | %s | %s | %s | %s |\n", mdCode(p.From), mdCode(p.To), mdCell(p.What),
-			num(p.MaxDB), num(p.MaxDeg), value.Format(p.AtHz, value.Hertz, value.Symbol), res)
+		b.WriteString("\n")
 	}
-	b.WriteString("\n")
+	for _, x := range v.Notes {
+		fmt.Fprintf(b, "- %s\n", mdText(x))
+	}
+	if len(v.Notes) > 0 {
+		b.WriteString("\n")
+	}
 }
 
 func writeWarnings(b *bytes.Buffer, n *note) {
@@ -417,12 +453,36 @@ func mdCode(s string) string { return strings.ReplaceAll(s, "`", "'") }
 
 // mdText escapes the characters that would turn free text (a rule's
 // justification, a title) into markup: emphasis, links, HTML, headings.
-var mdEscaper = strings.NewReplacer(
-	`\`, `\\`, "*", `\*`, "_", `\_`, "`", "\\`", "[", `\[`, "]", `\]`,
-	"<", "&lt;", ">", "&gt;", "#", `\#`, "\n", " ", "\r", " ",
-)
+// An underscore inside a word (rf_tank) starts no emphasis in CommonMark, so
+// it is left alone and the raw note stays readable.
+func mdText(s string) string {
+	var b strings.Builder
+	rs := []rune(s)
+	for i, r := range rs {
+		switch r {
+		case '\\', '*', '`', '[', ']', '#':
+			b.WriteRune('\\')
+			b.WriteRune(r)
+		case '_':
+			if i > 0 && i+1 < len(rs) && isWordRune(rs[i-1]) && isWordRune(rs[i+1]) {
+				b.WriteRune(r)
+			} else {
+				b.WriteString(`\_`)
+			}
+		case '<':
+			b.WriteString("&lt;")
+		case '>':
+			b.WriteString("&gt;")
+		case '\n', '\r':
+			b.WriteRune(' ')
+		default:
+			b.WriteRune(r)
+		}
+	}
+	return b.String()
+}
 
-func mdText(s string) string { return mdEscaper.Replace(s) }
+func isWordRune(r rune) bool { return unicode.IsLetter(r) || unicode.IsDigit(r) }
 
 // mdCell is mdText for a table cell, where a bar would start a new column.
 func mdCell(s string) string { return strings.ReplaceAll(mdText(s), "|", `\|`) }

@@ -33,7 +33,7 @@ func sampleNote() *note {
 		NearMisses: []noteStep{{Rule: "bypass", Why: "C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ > 0.1·|Z|",
 			Where: []notePlace{{"C10", "if-detector-audio.toml:40"}}}},
 		Verify: noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
-			{From: "aerial", To: "if_out", What: "transfer", MaxDB: 0.12, MaxDeg: 1.3, AtHz: 1.6e6},
+			{From: "aerial", To: "if_out", What: "transfer", MaxDB: 0.12, MaxDeg: 1.3, AtHz: 1.6e6, Setting: "max"},
 		}},
 	}
 }
@@ -69,13 +69,13 @@ func TestNoteSections(t *testing.T) {
 		"| reduced | 14 | 8 |",
 		"Removed (drawn faded on the faded sheet): `C6`, `C9`, `P4`.",
 		"- `C3` stands for `C3`, `TC2`",
-		"2 step(s), 1 refused by the AC check.",
+		"2 step(s): 1 applied, 1 refused by the AC check.",
 		"1. **bypass**: removed `C6`; grounded `ht_if`. |Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2) (`C6` at `frequency-changer.toml:39`)",
-		"2. **merge\\_parallel** REFUSED: merged `C3`, `TC2` into `C3`. parallel capacitors add Not applied: transfer aerial→if\\_out off by 0.8 dB at 1.6 MHz. (`C3` at `frequency-changer.toml:37`, `TC2` at `frequency-changer.toml:55`, `C20`)",
+		"2. **merge_parallel** REFUSED: merged `C3`, `TC2` into `C3`. parallel capacitors add. Not applied: transfer aerial→if_out off by 0.8 dB at 1.6 MHz. (`C3` at `frequency-changer.toml:37`, `TC2` at `frequency-changer.toml:55`, `C20`)",
 		"Near misses: candidates a numeric guard turned down",
 		"- **bypass**: C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ &gt; 0.1·|Z| (`C10` at `if-detector-audio.toml:40`)",
 		"**Verification passed**",
-		"| `aerial` | `if_out` | transfer | 0.12 | 1.3 | 1.6 MHz | ok |",
+		"| `V(if_out)/V(aerial)` | transfer | 0.12 | 1.3 | 1.6 MHz | max | ok |",
 	} {
 		if !strings.Contains(md, want) {
 			t.Errorf("note lacks %q\n--- note ---\n%s", want, md)
@@ -96,11 +96,14 @@ func TestNoteVerification(t *testing.T) {
 		failed bool
 	}{
 		{"passed", noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{{From: "a", To: "b", What: "transfer", MaxDB: 0.1, MaxDeg: 1, AtHz: 1e3}}},
-			[]string{"**Verification passed**", "**Passed** against a tolerance of 0.5 dB and 5°", "| 1 kHz | ok |"}, false},
+			[]string{"**Verification passed**", "**Passed** against a tolerance of 0.5 dB and 5°", "| 1 kHz | – | ok |"}, false},
 		{"one pair out", noteVerify{OK: false, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
 			{From: "a", To: "b", What: "transfer", MaxDB: 0.1, MaxDeg: 1, AtHz: 1e3},
-			{From: "a", To: "a", What: "impedance", MaxDB: 2.25, MaxDeg: 1, AtHz: 455e3}}},
-			[]string{"**Verification FAILED**", "**Failed** against a tolerance", "| 2.25 | 1 | 455 kHz | **out of tolerance** |", "| 0.1 | 1 | 1 kHz | ok |"}, true},
+			{From: "a", To: "a", What: "impedance", MaxDB: 2.25, MaxDeg: 1, AtHz: 455e3},
+			{From: "b", To: "b", What: "impedance", Error: "singular matrix"}},
+			Notes: []string{"port p3 has no ground return"}},
+			[]string{"**Verification FAILED**", "**Failed** against a tolerance", "| 2.25 | 1 | 455 kHz | – | **out of tolerance** |",
+				"| 0.1 | 1 | 1 kHz | – | ok |", "| – | – | – | – | **not solved**: singular matrix |", "- port p3 has no ground return"}, true},
 		{"could not run", noteVerify{Err: "net aerial: singular matrix", TolDB: 0.5, TolDeg: 5},
 			[]string{"**Verification FAILED**", "could not be completed: net aerial: singular matrix."}, true},
 		{"skipped", noteVerify{Skipped: "--no-verify"},
@@ -130,13 +133,13 @@ func TestNoteEscaping(t *testing.T) {
 	n := sampleNote()
 	n.Title = "<b>set</b> [1] *A*"
 	n.Stages[0].Title = "split | here"
-	n.Stages[0].Flags = []string{"a_b"}
+	n.Stages[0].Flags = []string{"a_b", "_x_"}
 	n.Steps[0].Rule = "rule`x"
 	md := writeToString(t, n)
 	for _, want := range []string{
 		"# Repair note: &lt;b&gt;set&lt;/b&gt; \\[1\\] \\*A\\*",
 		"| S1 | split \\| here (`hartley-cathode-tap`)",
-		"| a\\_b |",
+		"| a_b, \\_x\\_ |",
 		"1. **rule\\`x**",
 	} {
 		if !strings.Contains(md, want) {

@@ -1,5 +1,3 @@
-//go:build pare_pipeline
-
 package main
 
 import (
@@ -260,8 +258,10 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 		return nil, fmt.Errorf("internal error, please report: the reduced netlist does not load back: %v", err)
 	}
 
-	prov := provenanceOf(c, reduced)
-	furniture := furnitureOf(c, found, cfg.level)
+	// The sheets are filled the same way `pare draw` fills them, so the
+	// main job's sheets and a drawn view agree.
+	faded, mergedInto := fadedAndMerged(c, reduced)
+	furniture := sheetFurniture(c, found, cfg.level)
 	title := c.Title
 	if title == "" {
 		title = filepath.Base(path)
@@ -269,12 +269,12 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 	rcfg := render.Config{Style: cfg.style}
 	reducedSheet := &render.Sheet{
 		Circuit: reduced, Title: title, View: render.Reduced,
-		Frames: framesOf(found, reduced, nil), Caution: sheetCaution, Furniture: furniture,
+		Frames: stageFrames(found, reduced, nil), Caution: sheetCaution, Furniture: furniture,
 	}
 	fadedSheet := &render.Sheet{
 		Circuit: c, Title: title, View: render.Faded,
-		Faded: prov.faded, Merged: prov.mergedInto,
-		Frames: framesOf(found, reduced, c), Caution: sheetCaution, Furniture: furniture,
+		Faded: faded, Merged: mergedInto,
+		Frames: stageFrames(found, reduced, c), Caution: sheetCaution, Furniture: furniture,
 	}
 	var redSVG, fadedSVG strings.Builder
 	if err := rcfg.Fprint(&redSVG, reducedSheet); err != nil {
@@ -287,7 +287,7 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 	n := &note{
 		Title: title, Source: filepath.Base(path), Version: version,
 		Level: cfg.level.String(), Symbols: cfg.symbols,
-		CircuitNote: c.Note, Furniture: furniture,
+		CircuitNote: c.Note, Furniture: append(bandLine(c), furniture...),
 		Warnings: warningLines(warnings),
 		Sheets: []noteSheet{
 			{File: fileReducedSheet, Alt: "Reduced signal path of " + title,
@@ -297,8 +297,8 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 		},
 		Before:      partCount{len(c.Parts), len(c.Nets)},
 		After:       partCount{len(reduced.Parts), len(reduced.Nets)},
-		Removed:     prov.removed,
-		Merged:      prov.merges,
+		Removed:     sortedKeys(faded),
+		Merged:      mergesOf(c, reduced),
 		ACGround:    sortedCopy(log.ACGround),
 		Gangs:       gangsOf(log.Gangs),
 		Stages:      noteStages(found),
@@ -405,151 +405,52 @@ func verifyOf(rep *ac.Report, err error, o ac.CompareOptions) noteVerify {
 		v.TolDeg = rep.TolDeg
 	}
 	v.OK = rep.OK
+	v.Notes = rep.Notes
 	for _, p := range rep.Pairs {
-		v.Pairs = append(v.Pairs, notePair{From: p.From, To: p.To, What: p.What, MaxDB: p.MaxDB, MaxDeg: p.MaxDeg, AtHz: p.AtHz})
+		v.Pairs = append(v.Pairs, notePair{From: p.From, To: p.To, What: p.What, MaxDB: p.MaxDB, MaxDeg: p.MaxDeg,
+			AtHz: p.AtHz, Setting: p.Setting, Error: p.Error})
 	}
 	return v
 }
 
-// provenance relates the original parts to the reduced ones.
-type provenance struct {
-	faded      map[string]bool   // original refs no reduced part stands for
-	removed    []string          // the same, sorted
-	mergedInto map[string]string // original ref -> reduced ref, for parts that were combined or renamed
-	merges     []noteMerge
+// bandLine is the note's first header line; the sheets print the band in
+// their title block.
+func bandLine(c *graph.Circuit) []string {
+	if c.Band.Max <= 0 {
+		return nil
+	}
+	return []string{"Band " + value.FormatRange(c.Band, value.Hertz, value.Symbol)}
 }
 
-func provenanceOf(orig, reduced *graph.Circuit) provenance {
-	p := provenance{faded: map[string]bool{}, mergedInto: map[string]string{}}
-	kept := map[string]bool{}
+// mergesOf lists each reduced part that stands for more than itself, with
+// the original parts it stands for, for the note.
+func mergesOf(orig, reduced *graph.Circuit) []noteMerge {
+	var out []noteMerge
 	for _, rp := range reduced.Parts {
 		from := rp.Origins()
+		if len(from) == 1 && from[0] == rp.Ref {
+			continue
+		}
+		var inOrig []string
 		for _, o := range from {
-			kept[o] = true
-		}
-		if len(from) > 1 || from[0] != rp.Ref {
-			var inOrig []string
-			for _, o := range from {
-				if orig.Part(o) != nil {
-					p.mergedInto[o] = rp.Ref
-					inOrig = append(inOrig, o)
-				}
-			}
-			if len(inOrig) > 0 {
-				p.merges = append(p.merges, noteMerge{Into: rp.Ref, From: sortedCopy(inOrig)})
+			if orig.Part(o) != nil {
+				inOrig = append(inOrig, o)
 			}
 		}
-	}
-	for _, op := range orig.Parts {
-		if !kept[op.Ref] {
-			p.faded[op.Ref] = true
-			p.removed = append(p.removed, op.Ref)
+		if len(inOrig) > 0 {
+			out = append(out, noteMerge{Into: rp.Ref, From: sortedCopy(inOrig)})
 		}
 	}
-	sort.Strings(p.removed)
-	sort.Slice(p.merges, func(i, j int) bool { return p.merges[i].Into < p.merges[j].Into })
-	return p
+	return out // reduced.Parts is sorted by ref, so this is too
 }
 
-// framesOf makes one frame per top-level stage, for the sheet of the reduced
-// circuit (full nil) or of the original circuit full.
-func framesOf(found []stages.Stage, reduced, full *graph.Circuit) []render.Frame {
-	sub := map[string]bool{}
-	for _, s := range found {
-		for _, c := range s.Contains {
-			sub[c] = true
-		}
+func sortedKeys(m map[string]bool) []string {
+	out := make([]string, 0, len(m))
+	for k := range m {
+		out = append(out, k)
 	}
-	frames := make([]render.Frame, 0, len(found))
-	for _, s := range found {
-		// A sub-stage is listed in the note; framing it too would draw
-		// frames inside frames.
-		if sub[s.Name] {
-			continue
-		}
-		// Signal stages name reduced parts, power-supply stages original
-		// ones. A sheet of the reduced circuit frames what it shows; a sheet
-		// of the original frames the originals each reduced part stands for.
-		set := map[string]bool{}
-		for _, ref := range s.Parts {
-			rp := reduced.Part(ref)
-			switch {
-			case full == nil && rp != nil:
-				set[ref] = true
-			case full != nil && rp != nil:
-				for _, o := range rp.Origins() {
-					if full.Part(o) != nil {
-						set[o] = true
-					}
-				}
-			case full != nil && full.Part(ref) != nil:
-				set[ref] = true
-			}
-		}
-		if len(set) == 0 {
-			continue
-		}
-		parts := make([]string, 0, len(set))
-		for ref := range set {
-			parts = append(parts, ref)
-		}
-		frames = append(frames, render.Frame{
-			Title:    s.Name + " · " + s.Title,
-			Subtitle: keyFigures(s.Figures, 2),
-			Parts:    sortedCopy(parts),
-		})
-	}
-	return frames
-}
-
-// keyFigures prints the first n figures a reader looks for, for a frame
-// subtitle: "f min 1 MHz, f max 2.17 MHz".
-func keyFigures(figs map[string]float64, n int) string {
-	keys := sortedFigureKeys(figs)
-	if len(keys) > n {
-		keys = keys[:n]
-	}
-	out := make([]string, len(keys))
-	for i, k := range keys {
-		out[i] = figureLabel(k) + " " + stages.FigureText(k, figs[k])
-	}
-	return strings.Join(out, ", ")
-}
-
-// furnitureOf is the sheet's information block and the note's header list:
-// band, regions, named frequencies, the tuning range, the level.
-func furnitureOf(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string {
-	var lines []string
-	if c.Band.Max > 0 {
-		lines = append(lines, "Band "+value.FormatRange(c.Band, value.Hertz, value.Symbol))
-	}
-	for _, r := range c.Regions {
-		if r.Band.Max > 0 {
-			lines = append(lines, "Region "+r.Name+": "+value.FormatRange(r.Band, value.Hertz, value.Symbol))
-		}
-	}
-	names := make([]string, 0, len(c.Freqs))
-	for k := range c.Freqs {
-		names = append(names, k)
-	}
-	sort.Strings(names)
-	for _, k := range names {
-		label := k
-		if strings.EqualFold(k, "if") {
-			label = "IF"
-		}
-		lines = append(lines, label+" "+value.Format(c.Freqs[k], value.Hertz, value.Symbol))
-	}
-	for _, s := range found {
-		lo, okLo := s.Figures["f_min_hz"]
-		hi, okHi := s.Figures["f_max_hz"]
-		if okLo && okHi && hi > lo {
-			lines = append(lines, fmt.Sprintf("Tuning (%s %s) %s", s.Name, s.Title,
-				value.FormatRange(value.Range{Min: lo, Max: hi}, value.Hertz, value.Symbol)))
-		}
-	}
-	lines = append(lines, "Level "+lvl.String())
-	return lines
+	sort.Strings(out)
+	return out
 }
 
 func noteStages(found []stages.Stage) []noteStage {
@@ -638,15 +539,30 @@ func summaryLines(path string, n *note, log *rules.Log, found []stages.Stage, v 
 			refused++
 		}
 	}
-	lines := []string{fmt.Sprintf("%s: %d parts, %d nets → %d parts, %d nets (level %s, %d steps, %d refused)",
+	lines := []string{fmt.Sprintf("%s: %d parts, %d nets → %d parts, %d nets (level %s, %d steps applied, %d refused)",
 		path, n.Before.Parts, n.Before.Nets, n.After.Parts, n.After.Nets, n.Level, len(log.Steps)-refused, refused)}
-	if len(found) == 0 {
+	// Top-level stages only, each with the names of its sub-stages: the
+	// note's table has the rest.
+	sub := map[string]bool{}
+	for _, s := range found {
+		for _, c := range s.Contains {
+			sub[c] = true
+		}
+	}
+	var names []string
+	for _, s := range found {
+		if sub[s.Name] {
+			continue
+		}
+		t := s.Name + " " + s.Title
+		if len(s.Contains) > 0 {
+			t += " (with " + strings.Join(s.Contains, ", ") + ")"
+		}
+		names = append(names, t)
+	}
+	if len(names) == 0 {
 		lines = append(lines, "stages: none recognised")
 	} else {
-		names := make([]string, len(found))
-		for i, s := range found {
-			names[i] = s.Name + " " + s.Title
-		}
 		lines = append(lines, "stages: "+strings.Join(names, "; "))
 	}
 	lines = append(lines, verifySummary(v))
@@ -672,11 +588,17 @@ func verifySummary(v noteVerify) string {
 	worst, score := 0, -1.0
 	for i, p := range v.Pairs {
 		s := math.Max(p.MaxDB/v.TolDB, p.MaxDeg/v.TolDeg)
+		if p.Error != "" {
+			s = math.Inf(1)
+		}
 		if s > score {
 			worst, score = i, s
 		}
 	}
 	p := v.Pairs[worst]
+	if p.Error != "" {
+		return fmt.Sprintf("verification: %s, %s %s → %s could not be solved: %s; %s", verdict, p.What, p.From, p.To, p.Error, tol)
+	}
 	return fmt.Sprintf("verification: %s, worst %s dB / %s° (%s %s → %s at %s); %s", verdict, num(p.MaxDB), num(p.MaxDeg),
 		p.What, p.From, p.To, value.Format(p.AtHz, value.Hertz, value.Symbol), tol)
 }
