@@ -66,7 +66,7 @@ type stamp struct {
 	slot int32
 	rhs  int32
 	val  int32
-	sign float64
+	neg  bool
 }
 
 type system struct {
@@ -144,7 +144,7 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 		case col >= 0:
 			ents = append(ents, entry{int32(row), int32(col), int32(val), sign})
 		case col == unkDriven:
-			rhs = append(rhs, stamp{slot: -1, rhs: int32(row), val: int32(val), sign: sign})
+			rhs = append(rhs, stamp{slot: -1, rhs: int32(row), val: int32(val), neg: sign < 0})
 		}
 	}
 	newCoef := func(k coef) int {
@@ -202,6 +202,41 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 		s.stamps = rhs
 		return s, nil
 	}
+	// Order the unknowns (reverse Cuthill–McKee on the symmetric pattern)
+	// and renumber them in that order, so that the factorisation walks the
+	// matrix's storage front to back instead of jumping about in it.
+	adj := make([][]int, s.n)
+	for _, e := range ents {
+		i, j := int(e.row), int(e.col)
+		if i != j {
+			adj[i] = append(adj[i], j)
+			adj[j] = append(adj[j], i)
+		}
+	}
+	for i := range adj {
+		adj[i] = dedupe(adj[i])
+	}
+	order := rcm(adj)
+	perm := make([]int32, s.n)
+	for k, old := range order {
+		perm[old] = int32(k)
+	}
+	for i := range ents {
+		ents[i].row, ents[i].col = perm[ents[i].row], perm[ents[i].col]
+	}
+	for i := range rhs {
+		rhs[i].rhs = perm[rhs[i].rhs]
+	}
+	for node, u := range s.unk {
+		if u >= 0 {
+			s.unk[node] = int(perm[u])
+		}
+	}
+	what := make([]string, s.n)
+	for old, w := range s.what {
+		what[perm[old]] = w
+	}
+	s.what = what
 	// Compress to CSC, merging duplicates into one slot.
 	slices.SortStableFunc(ents, func(x, y entry) int {
 		if x.col != y.col {
@@ -215,28 +250,18 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 			s.a.i = append(s.a.i, int(e.row))
 			s.a.p[e.col+1]++
 		}
-		s.stamps = append(s.stamps, stamp{slot: int32(len(s.a.i) - 1), rhs: -1, val: e.val, sign: e.sign})
+		s.stamps = append(s.stamps, stamp{slot: int32(len(s.a.i) - 1), rhs: -1, val: e.val, neg: e.sign < 0})
 	}
 	for j := 0; j < s.n; j++ {
 		s.a.p[j+1] += s.a.p[j]
 	}
 	s.a.x = make([]complex128, len(s.a.i))
 	s.stamps = append(s.stamps, rhs...)
-	// Symmetric pattern for the ordering.
-	adj := make([][]int, s.n)
-	for j := 0; j < s.n; j++ {
-		for t := s.a.p[j]; t < s.a.p[j+1]; t++ {
-			i := s.a.i[t]
-			if i != j {
-				adj[i] = append(adj[i], j)
-				adj[j] = append(adj[j], i)
-			}
-		}
+	identity := make([]int, s.n)
+	for i := range identity {
+		identity[i] = i
 	}
-	for i := range adj {
-		adj[i] = dedupe(adj[i])
-	}
-	s.f = newLU(s.n, rcm(adj))
+	s.f = newLU(s.n, identity)
 	s.b = make([]complex128, s.n)
 	s.y = make([]complex128, s.n)
 	return s, nil
@@ -341,7 +366,10 @@ func (s *system) solveAt(f float64) error {
 		vals[i] = k.at(w)
 	}
 	for _, st := range s.stamps {
-		v := vals[st.val] * complex(st.sign, 0)
+		v := vals[st.val]
+		if st.neg {
+			v = -v
+		}
 		if st.slot >= 0 {
 			s.a.x[st.slot] += v
 		} else {
