@@ -597,8 +597,8 @@ func verifySummary(v noteVerify) string {
 	}
 	p := v.Pairs[worst]
 	if p.Error != "" {
-		return fmt.Sprintf("verification: %s, %s %s → %s could not be solved: %s; %s", verdict, p.What, p.From, p.To, p.Error, tol)
+		return fmt.Sprintf("verification: %s, %s could not be solved: %s; %s", verdict, p.label(), p.Error, tol)
 	}
-	return fmt.Sprintf("verification: %s, worst %s dB / %s° (%s %s → %s at %s); %s", verdict, num(p.MaxDB), num(p.MaxDeg),
-		p.What, p.From, p.To, value.Format(p.AtHz, value.Hertz, value.Symbol), tol)
+	return fmt.Sprintf("verification: %s, worst %s dB / %s° (%s at %s); %s", verdict, num(p.MaxDB), num(p.MaxDeg),
+		p.label(), value.Format(p.AtHz, value.Hertz, value.Symbol), tol)
 }

@@ -404,15 +404,20 @@ func TestDefaultOutDir(t *testing.T) {
 func TestVerifySummaryWorst(t *testing.T) {
 	v := noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
 		{From: "a", To: "b", What: "transfer", MaxDB: 0.3, MaxDeg: 1, AtHz: 1e3},
-		{From: "a", To: "a", What: "impedance", MaxDB: 0.1, MaxDeg: 4, AtHz: 2e6},
+		{From: "a", What: "impedance", MaxDB: 0.1, MaxDeg: 4, AtHz: 2e6},
 	}}
 	got := verifySummary(v)
-	if want := "verification: ok, worst 0.1 dB / 4° (impedance a → a at 2 MHz); tolerance 0.5 dB / 5°"; got != want {
+	if want := "verification: ok, worst 0.1 dB / 4° (Z(a) at 2 MHz); tolerance 0.5 dB / 5°"; got != want {
 		t.Errorf("got  %q\nwant %q", got, want)
 	}
 	v.OK = false
 	if got := verifySummary(v); !strings.HasPrefix(got, "verification: FAILED") {
 		t.Errorf("failed verification summarised as %q", got)
+	}
+	// A pair the reduced circuit could not be solved for is always the worst.
+	v.Pairs = append(v.Pairs, notePair{From: "b", To: "c", What: "transfer", Error: "singular matrix"})
+	if got, want := verifySummary(v), "verification: FAILED, V(c)/V(b) could not be solved: singular matrix; tolerance 0.5 dB / 5°"; got != want {
+		t.Errorf("got  %q\nwant %q", got, want)
 	}
 }
 
@@ -437,3 +442,29 @@ func readBytes(t *testing.T, p string) []byte {
 }
 
 func readString(t *testing.T, p string) string { return string(readBytes(t, p)) }
+
+// BenchmarkMainJob times the whole job in memory (reduce with a per-step AC
+// check, compare, recognise, draw two sheets, write the note) per example.
+func BenchmarkMainJob(b *testing.B) {
+	files, _ := filepath.Glob("../../examples/*.toml")
+	if len(files) == 0 {
+		b.Skip("no examples")
+	}
+	cfg, err := configure(&runOpts{level: "signal", symbols: "iec"})
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, ex := range files {
+		c, err := graph.LoadFile(ex)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(strings.TrimSuffix(filepath.Base(ex), ".toml"), func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				if _, err := mainJobOn(c, ex, nil, cfg); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
