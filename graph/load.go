@@ -814,7 +814,7 @@ func (ld *loader) pins(path string, p *Part, v any) {
 			return
 		}
 		if names == nil {
-			ld.errVal(pp, "%s %s cannot take %d pins as a list; %s", p.Kind, p.Ref, len(t), pinHint(p))
+			ld.errVal(pp, "%s %s cannot take %s as a list; %s", p.Kind, p.Ref, plural(len(t), "pin"), pinHint(p))
 			return
 		}
 		for i, e := range t {
@@ -840,14 +840,24 @@ func (ld *loader) pins(path string, p *Part, v any) {
 		for _, name := range sortedKeys(t) {
 			ep := pp + "." + name
 			if allowed != nil && p.Kind != Generic && p.Kind != Switch && !contains(allowed, name) {
-				hint := ""
-				if g := Suggest(name, allowed); g != "" {
-					hint = fmt.Sprintf(" (did you mean %q?)", g)
+				// A misspelt terminal is most likely one not written yet:
+				// "p3" beside p1 means p2.
+				var unused []string
+				for _, a := range allowed {
+					if _, given := t[a]; !given {
+						unused = append(unused, a)
+					}
 				}
-				ld.errKey(ep, "%s %s has no terminal %q%s; terminals: %s", kindLabel(p), p.Ref, name, hint, strings.Join(allowed, " "))
-				if g := Suggest(name, allowed); g != "" {
+				g := Suggest(name, unused)
+				if g == "" {
+					g = Suggest(name, allowed)
+				}
+				hint := ""
+				if g != "" {
+					hint = fmt.Sprintf(" (did you mean %q?)", g)
 					guessed = append(guessed, g)
 				}
+				ld.errKey(ep, "%s %s has no terminal %q%s; terminals: %s", kindLabel(p), p.Ref, name, hint, strings.Join(allowed, " "))
 				continue
 			}
 			p.Pins = append(p.Pins, Pin{Name: name, Net: ld.netName(ep, t[name]), Pos: ld.ix.key(ep)})
@@ -1037,4 +1047,12 @@ func (ld *loader) finish() {
 			continue
 		}
 	}
+}
+
+// plural writes "1 pin", "3 pins".
+func plural(n int, word string) string {
+	if n == 1 {
+		return "1 " + word
+	}
+	return strconv.Itoa(n) + " " + word + "s"
 }
