@@ -9,7 +9,6 @@ import (
 	"bytes"
 	"fmt"
 	"io"
-	"sort"
 	"strings"
 	"unicode"
 
@@ -59,12 +58,10 @@ type noteGang struct {
 type noteStage struct {
 	Name, Title, Topology, Family string
 	Parts                         []string
-	Figures                       []noteFigure // in the order they should be read
+	Figures                       string // one line, as `pare stages` prints it
 	Flags                         []string
 	Contains                      []string
 }
-
-type noteFigure struct{ Label, Text string }
 
 type noteStep struct {
 	N        int
@@ -229,16 +226,12 @@ func writeStages(b *bytes.Buffer, n *note) {
 		if len(s.Contains) > 0 {
 			what += "; contains " + strings.Join(s.Contains, ", ")
 		}
-		figs := make([]string, len(s.Figures))
-		for i, f := range s.Figures {
-			figs[i] = mdCell(f.Label) + " " + mdCell(f.Text)
-		}
 		flags := make([]string, len(s.Flags))
 		for i, f := range s.Flags {
 			flags[i] = mdCell(f)
 		}
 		fmt.Fprintf(b, "| %s | %s | %s | %s | %s | %s |\n", mdCell(s.Name), what, mdCell(s.Family),
-			codeList(s.Parts), orDash(strings.Join(figs, "; ")), orDash(strings.Join(flags, ", ")))
+			codeList(s.Parts), orDash(mdCell(s.Figures)), orDash(strings.Join(flags, ", ")))
 	}
 	b.WriteString("\n")
 }
@@ -498,37 +491,4 @@ func figureLabel(key string) string {
 		}
 	}
 	return strings.ReplaceAll(key, "_", " ")
-}
-
-// figureOrder says which figures a reader looks for first; the rest follow
-// in key order. Only the first two go into a stage frame's subtitle.
-var figureOrder = []string{
-	"f_hz", "f0_hz", "f_osc_hz", "f_min_hz", "f_max_hz", "f_if_hz", "if_hz",
-	"gain", "gain_db", "bw_hz", "q", "q_loaded", "tau_s", "fc_hz",
-}
-
-// sortedFigureKeys returns the keys of figs, the well-known ones first.
-func sortedFigureKeys(figs map[string]float64) []string {
-	rank := map[string]int{}
-	for i, k := range figureOrder {
-		rank[k] = i + 1
-	}
-	keys := make([]string, 0, len(figs))
-	for k := range figs {
-		keys = append(keys, k)
-	}
-	sort.Slice(keys, func(i, j int) bool {
-		ri, rj := rank[keys[i]], rank[keys[j]]
-		if ri == 0 {
-			ri = len(figureOrder) + 1
-		}
-		if rj == 0 {
-			rj = len(figureOrder) + 1
-		}
-		if ri != rj {
-			return ri < rj
-		}
-		return keys[i] < keys[j]
-	})
-	return keys
 }

@@ -459,9 +459,7 @@ func noteStages(found []stages.Stage) []noteStage {
 		ns := noteStage{
 			Name: s.Name, Title: s.Title, Topology: s.Topology, Family: s.Family,
 			Parts: s.Parts, Flags: s.Flags, Contains: s.Contains,
-		}
-		for _, k := range sortedFigureKeys(s.Figures) {
-			ns.Figures = append(ns.Figures, noteFigure{Label: figureLabel(k), Text: stages.FigureText(k, s.Figures[k])})
+			Figures: figureLine(s.Figures), // the same line `pare stages` prints
 		}
 		out[i] = ns
 	}

@@ -206,7 +206,7 @@ func TestMainJobTuningRange(t *testing.T) {
 	if !near(fOsc[0], 1000e3, 0.005) || !near(fOsc[1], 2070e3, 0.005) {
 		t.Errorf("the oscillator formula gives %g–%g Hz, not 1000–2070 kHz: the example's tracking is off", fOsc[0], fOsc[1])
 	}
-	figs := regexp.MustCompile(`f min ([0-9.]+) (k|M)Hz; f max ([0-9.]+) (k|M)Hz`)
+	figs := regexp.MustCompile(`\| f ([0-9.]+) (k|M)Hz–([0-9.]+) (k|M)Hz`)
 	for _, tt := range tests {
 		row := ""
 		for _, l := range strings.Split(md, "\n") {
@@ -221,7 +221,7 @@ func TestMainJobTuningRange(t *testing.T) {
 		}
 		m := figs.FindStringSubmatch(row)
 		if m == nil {
-			t.Errorf("stage %s has no f min / f max figures: %s", tt.topology, row)
+			t.Errorf("stage %s has no tuning range (f min–max) figure: %s", tt.topology, row)
 			continue
 		}
 		fmin, fmax := parseHz(t, m[1], m[2]), parseHz(t, m[3], m[4])
