@@ -431,3 +431,77 @@ func TestSuggest(t *testing.T) {
 		}
 	}
 }
+
+// TestConnsOf: the terminals on a net in part-ref then pin order, the same
+// as the one-pass Conns map.
+func TestConnsOf(t *testing.T) {
+	c := mustLoad(t, filepath.Join(repo, "examples", "frequency-changer.toml"))
+	got := c.ConnsOf("k1")
+	var names []string
+	for _, cn := range got {
+		names = append(names, cn.Part.Ref+"."+cn.Pin)
+	}
+	// The cathode net: L1's tap, and V1's cathode with the suppressor strapped to it.
+	// Pins of a part follow its terminal order (a g1 g2 g3 k for a pentode).
+	if want := []string{"L1.t", "V1.g3", "V1.k"}; !reflect.DeepEqual(names, want) {
+		t.Errorf("ConnsOf(k1) = %v, want %v", names, want)
+	}
+	all := c.Conns()
+	for _, n := range c.Nets {
+		if !reflect.DeepEqual(all[n.Name], c.ConnsOf(n.Name)) {
+			t.Errorf("Conns()[%s] and ConnsOf disagree", n.Name)
+		}
+	}
+}
+
+func TestIsTwoTerminalAndParam(t *testing.T) {
+	c := mustLoad(t, filepath.Join(repo, "testdata", "good", "every-kind.toml"))
+	cases := map[string]bool{"R1": true, "C3": true, "L1": true, "D1": true, "X1": true,
+		"L2": false, "T1": false, "V1a": false, "RV1": false, "S1": false, "P1": false}
+	for ref, want := range cases {
+		if got := c.Part(ref).IsTwoTerminal(); got != want {
+			t.Errorf("%s.IsTwoTerminal() = %v, want %v", ref, got, want)
+		}
+	}
+	// 0.45 mA/V written in the data-sheet unit is 0.45 mS.
+	if gm, ok := c.Part("V1b").Param("gm"); !ok || !relNear(gm, 0.45e-3, 1e-12) {
+		t.Errorf("V1b gm = %g, %v; want 0.45e-3 S", gm, ok)
+	}
+	if _, ok := c.Part("V1b").Param("mu"); ok {
+		t.Error("V1b has no mu, but Param says it does")
+	}
+}
+
+func TestPosAndErrorList(t *testing.T) {
+	cases := []struct {
+		p           Pos
+		long, short string
+		valid       bool
+	}{
+		{Pos{File: "a.toml", Line: 3, Col: 17}, "a.toml:3:17", "a.toml:3", true},
+		{Pos{File: "a.toml", Line: 3}, "a.toml:3", "a.toml:3", true},
+		{Pos{File: "a.toml"}, "a.toml", "a.toml", false},
+		{Pos{}, "-", "-", false},
+	}
+	for _, tc := range cases {
+		if tc.p.String() != tc.long || tc.p.Short() != tc.short || tc.p.IsValid() != tc.valid {
+			t.Errorf("%#v: String %q Short %q IsValid %v", tc.p, tc.p.String(), tc.p.Short(), tc.p.IsValid())
+		}
+	}
+	var l ErrorList
+	if l.Err() != nil {
+		t.Error("an empty list is not an error")
+	}
+	l.Add(Pos{File: "b.toml", Line: 2, Col: 1}, "second")
+	l.Add(Pos{File: "a.toml", Line: 9, Col: 1}, "first")
+	l.Add(Pos{File: "b.toml", Line: 2, Col: 1}, "second") // exact repeat: dropped
+	l.Add(Pos{File: "b.toml", Line: 1, Col: 5}, "between")
+	l.Sort()
+	if got, want := l.Error(), "a.toml:9:1: first\nb.toml:1:5: between\nb.toml:2:1: second"; got != want {
+		t.Errorf("sorted list:\n%s\nwant\n%s", got, want)
+	}
+	c := mustLoad(t, filepath.Join(repo, "examples", "frequency-changer.toml"))
+	if got := Summary(c, 2); got != "26 parts, 15 nets, 2 warnings" {
+		t.Errorf("Summary = %q", got)
+	}
+}
