@@ -3,6 +3,8 @@ package stages
 import (
 	"fmt"
 	"sort"
+
+	"pare/graph"
 )
 
 // A variant is a pattern with each optional part decided: present, or left
@@ -26,6 +28,7 @@ type vpart struct {
 	pp    *PPart
 	slots []int // vnet per terminal: Pins in order, or the windings flattened
 	link  int   // slot whose net is already placed when this part's turn comes; -1 = none
+	kinds []graph.Kind
 }
 
 // maxOptional bounds the variants per pattern (2^n): 64 keeps the search quick.
@@ -122,7 +125,7 @@ func (p *Pattern) variant(absent map[int]bool, netIdx map[string]int) *variant {
 			continue
 		}
 		pp := &p.Parts[i]
-		vp := vpart{pp: pp, link: -1}
+		vp := vpart{pp: pp, link: -1, kinds: kindsFor(pp.Device)}
 		for _, n := range pp.netList() {
 			vp.slots = append(vp.slots, classOf[find(netIdx[n])])
 		}
@@ -247,6 +250,9 @@ func searchOrder(parts []vpart, nets []vnet) []vpart {
 				}
 			}
 			score := deviceRarity[vp.pp.Device]
+			if link >= 0 && nets[vp.slots[link]].at != "signal" {
+				score += 50 // an "any" net may turn out to be ground
+			}
 			if link < 0 {
 				score += 100
 				if len(out) == 0 {

@@ -208,7 +208,16 @@ func calcHartley(x *figCtx) {
 		return
 	}
 	if len(p.Windings) == 2 {
+		// l1 is the section from the hot end (the pattern's first terminal)
+		// to the tap, l2 from the tap to the cold end, however the coil's
+		// pins were written.
 		l1, l2 := p.Windings[0].L, p.Windings[1].L
+		if i := x.index(x.spec.Args["coil"][0]); i >= 0 {
+			hot := x.m.nets[x.m.v.parts[i].slots[0]]
+			if x.w.pinNet(x.m.parts[i], "1") != hot {
+				l1, l2 = l2, l1
+			}
+		}
 		m := p.K(p.Windings[0].Name, p.Windings[1].Name) * math.Sqrt(l1*l2)
 		x.set("l1_h", l1)
 		x.set("l2_h", l2)
@@ -411,10 +420,8 @@ func calcRatio(x *figCtx) {
 }
 
 func (x *figCtx) partIndex(p *graph.Part) int {
-	for i, q := range x.w.parts {
-		if q == p {
-			return i
-		}
+	if i, ok := x.w.index[p]; ok {
+		return i
 	}
 	return -1
 }
@@ -424,49 +431,26 @@ func (x *figCtx) partIndex(p *graph.Part) int {
 // split at its wiper), found by nodal analysis with 1 A into the net. 0 when
 // no resistive path reaches ground.
 func resistanceToGround(w *world, net int) float64 {
-	type branch struct {
-		a, b int
-		g    float64
-	}
-	var branches []branch
-	for ci, p := range w.parts {
-		switch p.Kind {
-		case graph.Resistor:
-			if len(w.pins[ci]) == 2 && p.Value.Max > 0 {
-				branches = append(branches, branch{w.pins[ci][0], w.pins[ci][1], 1 / p.Value.Max})
-			}
-		case graph.Pot:
-			one, wiper, two := w.pinNet(ci, "1"), w.pinNet(ci, "w"), w.pinNet(ci, "2")
-			r := p.Value.Max
-			if one < 0 || two < 0 || r <= 0 {
-				continue
-			}
-			set := math.Min(math.Max(p.Set, 1e-6), 1-1e-6)
-			if wiper < 0 {
-				branches = append(branches, branch{one, two, 1 / r})
-				continue
-			}
-			branches = append(branches, branch{one, wiper, 1 / (set * r)}, branch{wiper, two, 1 / ((1 - set) * r)})
-		}
-	}
+	adj := w.resistive()
 	// The nets the net reaches through resistors, ground excluded.
 	idx := map[int]int{net: 0}
 	order := []int{net}
 	grounded := false
+	var branches []branch
 	for k := 0; k < len(order); k++ {
-		for _, br := range branches {
-			for _, pair := range [][2]int{{br.a, br.b}, {br.b, br.a}} {
-				if pair[0] != order[k] {
-					continue
-				}
-				if pair[1] == groundNet {
-					grounded = true
-					continue
-				}
-				if _, ok := idx[pair[1]]; !ok {
-					idx[pair[1]] = len(order)
-					order = append(order, pair[1])
-				}
+		for _, br := range adj[order[k]] {
+			other := br.b
+			if other == order[k] {
+				other = br.a
+			}
+			branches = append(branches, br) // seen from both ends; counted once below
+			if other == groundNet {
+				grounded = true
+				continue
+			}
+			if _, ok := idx[other]; !ok {
+				idx[other] = len(order)
+				order = append(order, other)
 			}
 		}
 	}
@@ -479,16 +463,20 @@ func resistanceToGround(w *world, net int) float64 {
 		mat[i] = make([]float64, n+1)
 	}
 	mat[0][n] = 1 // 1 A into the net
+	seen := map[branch]bool{}
 	for _, br := range branches {
-		i, iok := idx[br.a]
-		j, jok := idx[br.b]
-		if br.a == groundNet {
-			i, iok = -1, true
+		if seen[br] {
+			continue
 		}
-		if br.b == groundNet {
-			j, jok = -1, true
+		seen[br] = true
+		i, j := -1, -1
+		if br.a != groundNet {
+			i = idx[br.a]
 		}
-		if !iok || !jok || i == j {
+		if br.b != groundNet {
+			j = idx[br.b]
+		}
+		if i == j {
 			continue
 		}
 		if i >= 0 {
@@ -504,6 +492,51 @@ func resistanceToGround(w *world, net int) float64 {
 	}
 	v := solve(mat)
 	return v[0]
+}
+
+// branch is one resistive path between two nets (a resistor, or one side of
+// a pot's wiper).
+type branch struct {
+	a, b int
+	g    float64
+	part int
+	half int
+}
+
+// resistive indexes the circuit's resistive branches by net, built once.
+func (w *world) resistive() map[int][]branch {
+	if w.resAdj != nil {
+		return w.resAdj
+	}
+	w.resAdj = map[int][]branch{}
+	add := func(br branch) {
+		w.resAdj[br.a] = append(w.resAdj[br.a], br)
+		if br.b != br.a {
+			w.resAdj[br.b] = append(w.resAdj[br.b], br)
+		}
+	}
+	for ci, p := range w.parts {
+		switch p.Kind {
+		case graph.Resistor:
+			if len(w.pins[ci]) == 2 && p.Value.Max > 0 {
+				add(branch{w.pins[ci][0], w.pins[ci][1], 1 / p.Value.Max, ci, 0})
+			}
+		case graph.Pot:
+			one, wiper, two := w.pinNet(ci, "1"), w.pinNet(ci, "w"), w.pinNet(ci, "2")
+			r := p.Value.Max
+			if one < 0 || two < 0 || r <= 0 {
+				continue
+			}
+			set := math.Min(math.Max(p.Set, 1e-6), 1-1e-6)
+			if wiper < 0 {
+				add(branch{one, two, 1 / r, ci, 0})
+				continue
+			}
+			add(branch{one, wiper, 1 / (set * r), ci, 1})
+			add(branch{wiper, two, 1 / ((1 - set) * r), ci, 2})
+		}
+	}
+	return w.resAdj
 }
 
 // sumCap adds capacitors in parallel at a setting of the variable ones.
@@ -558,14 +591,8 @@ func capBetween(w *world, caps []*graph.Part, a, b int, frac float64) float64 {
 		if len(p.Pins) != 2 {
 			continue
 		}
-		ci := -1
-		for k, q := range w.parts {
-			if q == p {
-				ci = k
-				break
-			}
-		}
-		if ci < 0 {
+		ci, ok := w.index[p]
+		if !ok {
 			continue
 		}
 		edges = append(edges, edge{node(w.pins[ci][0]), node(w.pins[ci][1]), p.Capacitance(frac)})

@@ -326,7 +326,7 @@ func TestFigureText(t *testing.T) {
 		v    float64
 		want string
 	}{
-		{"f_hz", 1.47e6, "1.47 MHz"},        // SI prefix, common practice
+		{"f_hz", 1.47e6, "1.47 MHz"},          // SI prefix, common practice
 		{"osc_f_min_hz", 1455e3, "1.455 MHz"}, // four digits keep kHz steps
 		{"tau_s", 0.1, "100 ms"},
 		{"gain", -16.4912, "-16.5"},

@@ -193,29 +193,58 @@ func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, o
 		return strings.Join(a.Parts, ",") < strings.Join(b.Parts, ",")
 	})
 	var tops []*found
+	claimedBy := map[string]*found{} // part ref → the top-level stage holding it
 	for _, f := range cands {
-		place(&tops, f)
+		var holder *found
+		straddles := false
+		for r := range f.set {
+			if t := claimedBy[r]; t != nil {
+				if holder != nil && holder != t {
+					straddles = true
+				}
+				holder = t
+			}
+		}
+		switch {
+		case straddles:
+		case holder == nil:
+			tops = append(tops, f)
+			for r := range f.set {
+				claimedBy[r] = f
+			}
+		default:
+			place(&holder.subs, f, holder)
+		}
 	}
+	sortTree(tops)
 	return tops, runErr
 }
 
-// place puts a candidate at the top level when it is disjoint from every
-// accepted stage, inside the stage that wholly contains it when its pattern
-// may nest, and nowhere when it straddles.
-func place(level *[]*found, f *found) bool {
+// place puts a candidate that overlaps stage parent inside it when it lies
+// wholly inside and its pattern may nest (and is of another group: a tank
+// in an oscillator, not a tank in a tank), then recursively among parent's
+// sub-stages the same way; a candidate that straddles is dropped. The
+// top level is handled by recognise with an index.
+func place(level *[]*found, f *found, parent *found) {
+	if inside, _ := relation(f.set, parent.set); !inside || !f.m.v.p.Inner || f.group == parent.group || len(f.set) == len(parent.set) {
+		return
+	}
 	for _, t := range *level {
-		inside, overlap := relation(f.set, t.set)
-		if !overlap {
-			continue
+		if _, overlap := relation(f.set, t.set); overlap {
+			place(&t.subs, f, t)
+			return
 		}
-		if !inside || !f.m.v.p.Inner || f.group == t.group || len(f.set) == len(t.set) {
-			return false
-		}
-		return place(&t.subs, f)
 	}
 	*level = append(*level, f)
-	sort.SliceStable(*level, func(i, j int) bool { return (*level)[i].Parts[0] < (*level)[j].Parts[0] })
-	return true
+}
+
+// sortTree orders each level of sub-stages by first part ref, so names do
+// not depend on the order patterns were tried.
+func sortTree(level []*found) {
+	sort.SliceStable(level, func(i, j int) bool { return level[i].Parts[0] < level[j].Parts[0] })
+	for _, f := range level {
+		sortTree(f.subs)
+	}
 }
 
 func relation(a, b map[string]bool) (inside, overlap bool) {

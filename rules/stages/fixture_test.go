@@ -37,7 +37,7 @@ func circuit(t testing.TB, family, parts string, extra ...string) *graph.Circuit
 	src := `title = "fixture"
 band = "530k..1.6M"
 `
-	if strings.Contains(parts, `"in"`) {
+	if strings.Contains(expandDevices(parts, family), `"in"`) {
 		src += "inputs = [\"in\"]\n"
 	}
 	src += strings.Join(extra, "\n") + `

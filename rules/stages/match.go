@@ -25,6 +25,12 @@ type world struct {
 	coils  [][]coil // part index → coils of a transformer
 	orig   *world   // the original circuit, folded the same way, when known
 	isEnd  []bool   // net id → a declared input or output of the circuit or a region
+	// onGround lists the parts with every terminal at AC ground (a reduced
+	// circuit has none; a full one has its decoupling).
+	onGround []int
+	resAdj   map[int][]branch    // net → resistive branches, built on first use
+	roles    [][]graph.TermRole  // part index → role per pin
+	index    map[*graph.Part]int // part → its index
 }
 
 // coil is one winding of a transformer as the pattern sees it: two ends,
@@ -57,6 +63,15 @@ func newWorld(c *graph.Circuit, full bool, acGround map[string]bool) *world {
 	}
 	w.parts = c.Parts
 	w.pins = make([][]int, len(c.Parts))
+	w.roles = make([][]graph.TermRole, len(c.Parts))
+	w.index = make(map[*graph.Part]int, len(c.Parts))
+	for i, p := range c.Parts {
+		w.index[p] = i
+		w.roles[i] = make([]graph.TermRole, len(p.Pins))
+		for j, pin := range p.Pins {
+			w.roles[i][j] = graph.RoleOfPin(p.Kind, pin.Name)
+		}
+	}
 	for i, p := range c.Parts {
 		w.byKind[p.Kind] = append(w.byKind[p.Kind], i)
 		ids := make([]int, len(p.Pins))
@@ -72,6 +87,17 @@ func newWorld(c *graph.Circuit, full bool, acGround map[string]bool) *world {
 			ids[j] = id
 		}
 		w.pins[i] = ids
+	}
+	for i, ids := range w.pins {
+		all := len(ids) > 0
+		for _, id := range ids {
+			if id != groundNet {
+				all = false
+			}
+		}
+		if all {
+			w.onGround = append(w.onGround, i)
+		}
 	}
 	w.conns = make([][]int, len(w.names))
 	for i, ids := range w.pins {
@@ -160,9 +186,13 @@ type searcher struct {
 	netOwner []int // circuit net → vnet bound to it, -1 none (ground is shared)
 	found    []*match
 	seen     map[string]bool
+	scratch  [][]binding // per search depth, reused
 }
 
 func (s *searcher) run(v *variant) error {
+	for len(s.scratch) < len(v.parts) {
+		s.scratch = append(s.scratch, nil)
+	}
 	m := &match{v: v, parts: make([]int, len(v.parts)), nets: make([]int, len(v.nets)), bind: make([]int, len(v.parts)), coils: make([][]int, len(v.parts))}
 	for i := range m.nets {
 		m.nets[i] = -1
@@ -177,29 +207,29 @@ func (s *searcher) place(m *match, depth int) error {
 		return nil
 	}
 	vp := &v.parts[depth]
-	var cands []int
-	if vp.link >= 0 && m.nets[vp.slots[vp.link]] != groundNet {
-		cands = s.w.conns[m.nets[vp.slots[vp.link]]]
-	} else {
-		for _, k := range kindsFor(vp.pp.Device) {
+	cands, ok := s.linked(m, vp)
+	if !ok {
+		for _, k := range vp.kinds {
 			cands = append(cands, s.w.byKind[k]...)
 		}
-		if len(kindsFor(vp.pp.Device)) > 1 {
+		if len(vp.kinds) > 1 {
 			sort.Ints(cands)
 		}
 	}
 	for _, ci := range cands {
-		if s.partUsed[ci] || !s.accepts(vp.pp, ci) {
+		if s.partUsed[ci] || !s.accepts(vp, ci) {
 			continue
 		}
-		for bi, b := range s.bindings(vp.pp, ci) {
+		s.scratch[depth] = s.bindings(vp.pp, ci, s.scratch[depth][:0])
+		for bi := range s.scratch[depth] {
+			b := &s.scratch[depth][bi]
 			s.steps++
 			if s.steps > s.limit {
 				return fmt.Errorf("%w: pattern %s stopped after %d steps (raise the limit, or reduce the circuit first)", ErrSearchLimit, v.p.ID, s.limit)
 			}
 			var newly []int
 			ok := true
-			for slot, net := range b.nets {
+			for slot, net := range b.nets() {
 				vn := vp.slots[slot]
 				if cur := m.nets[vn]; cur >= 0 {
 					if cur != net {
@@ -224,7 +254,8 @@ func (s *searcher) place(m *match, depth int) error {
 			}
 			if ok {
 				s.partUsed[ci] = true
-				m.parts[depth], m.bind[depth], m.coils[depth] = ci, bi, b.coils
+				m.parts[depth], m.bind[depth] = ci, bi
+				m.coils[depth] = append(m.coils[depth][:0], b.coil[:b.ncoil]...)
 				if err := s.place(m, depth+1); err != nil {
 					return err
 				}
@@ -239,6 +270,33 @@ func (s *searcher) place(m *match, depth int) error {
 		}
 	}
 	return nil
+}
+
+// linked draws a part's candidates from the terminals already placed: the
+// placed non-ground net with the fewest connections, or, when every terminal
+// is placed at AC ground, the parts that sit wholly on ground. ok is false
+// when the part must be looked for among all parts of its kind.
+func (s *searcher) linked(m *match, vp *vpart) ([]int, bool) {
+	var best []int
+	found, allPlaced := false, true
+	for _, vn := range vp.slots {
+		net := m.nets[vn]
+		switch {
+		case net < 0:
+			allPlaced = false
+		case net != groundNet:
+			if l := s.w.conns[net]; !found || len(l) < len(best) {
+				best, found = l, true
+			}
+		}
+	}
+	if found {
+		return best, true
+	}
+	if allPlaced {
+		return s.w.onGround, true
+	}
+	return nil, false
 }
 
 // netFits checks a vnet's "at" and degree against a circuit net.
@@ -328,45 +386,39 @@ func (s *searcher) complete(m *match) {
 	}
 	s.seen[key] = true
 	cp := &match{v: m.v, parts: append([]int(nil), m.parts...), nets: append([]int(nil), m.nets...),
-		bind: append([]int(nil), m.bind...), coils: append([][]int(nil), m.coils...), refs: refs}
+		bind: append([]int(nil), m.bind...), coils: make([][]int, len(m.coils)), refs: refs}
+	for i, c := range m.coils {
+		cp.coils[i] = append([]int(nil), c...)
+	}
 	s.found = append(s.found, cp)
 }
 
-func kindsFor(device string) []graph.Kind {
-	switch device {
-	case "active":
-		return []graph.Kind{graph.BJT, graph.FET, graph.Valve}
-	case "valve", "double-diode":
-		return []graph.Kind{graph.Valve}
-	case "bjt":
-		return []graph.Kind{graph.BJT}
-	case "fet":
-		return []graph.Kind{graph.FET}
-	case "resistor":
-		return []graph.Kind{graph.Resistor}
-	case "capacitor":
-		return []graph.Kind{graph.Capacitor}
-	case "inductor", "tapped-coil":
-		return []graph.Kind{graph.Inductor}
-	case "transformer":
-		return []graph.Kind{graph.Transformer}
-	case "diode":
-		return []graph.Kind{graph.Diode, graph.Valve}
-	case "crystal":
-		return []graph.Kind{graph.Crystal}
-	case "pot":
-		return []graph.Kind{graph.Pot}
-	case "element":
-		return []graph.Kind{graph.Capacitor, graph.Crystal, graph.Inductor, graph.Resistor}
-	}
-	return nil
+// deviceKindsOf maps a pattern device to the part kinds that may stand for it.
+var deviceKindsOf = map[string][]graph.Kind{
+	"active":       {graph.BJT, graph.FET, graph.Valve},
+	"valve":        {graph.Valve},
+	"double-diode": {graph.Valve},
+	"bjt":          {graph.BJT},
+	"fet":          {graph.FET},
+	"resistor":     {graph.Resistor},
+	"capacitor":    {graph.Capacitor},
+	"inductor":     {graph.Inductor},
+	"tapped-coil":  {graph.Inductor},
+	"transformer":  {graph.Transformer},
+	"diode":        {graph.Diode, graph.Valve},
+	"crystal":      {graph.Crystal},
+	"pot":          {graph.Pot},
+	"element":      {graph.Capacitor, graph.Crystal, graph.Inductor, graph.Resistor},
 }
 
+func kindsFor(device string) []graph.Kind { return deviceKindsOf[device] }
+
 // accepts filters a candidate by kind, type and value before any binding.
-func (s *searcher) accepts(pp *PPart, ci int) bool {
+func (s *searcher) accepts(vp *vpart, ci int) bool {
+	pp := vp.pp
 	p := s.w.parts[ci]
 	kindOK := false
-	for _, k := range kindsFor(pp.Device) {
+	for _, k := range vp.kinds {
 		if p.Kind == k {
 			kindOK = true
 		}
@@ -411,24 +463,42 @@ func (s *searcher) accepts(pp *PPart, ci int) bool {
 	return true
 }
 
+// binding is one way a candidate's terminals stand for the pattern part's:
+// the circuit net per pattern terminal, and for a transformer the circuit
+// coil per pattern winding. Fixed arrays keep the search from allocating.
 type binding struct {
-	nets  []int
-	coils []int // transformer: circuit coil per pattern winding
+	net   [maxSlots]int
+	n     int
+	coil  [maxWindings]int
+	ncoil int
 }
+
+const (
+	maxSlots    = 12 // terminals of one pattern part (four three-pin windings)
+	maxWindings = 4
+)
+
+func bind(nets ...int) binding {
+	var b binding
+	b.n = copy(b.net[:], nets)
+	return b
+}
+
+func (b *binding) nets() []int { return b.net[:b.n] }
 
 // bindings lists every way the candidate's terminals can stand for the
 // pattern part's: both ways round for two-terminal parts and coil ends, each
 // extra grid for a "grid" terminal, each assignment of windings to coils.
-func (s *searcher) bindings(pp *PPart, ci int) []binding {
+func (s *searcher) bindings(pp *PPart, ci int, out []binding) []binding {
 	w := s.w
 	p := w.parts[ci]
 	switch pp.Device {
 	case "resistor", "capacitor", "inductor", "crystal", "element":
-		a, b := w.pins[ci][0], w.pins[ci][1]
 		if len(w.pins[ci]) != 2 {
-			return nil
+			return out
 		}
-		return []binding{{nets: []int{a, b}}, {nets: []int{b, a}}}
+		a, b := w.pins[ci][0], w.pins[ci][1]
+		return append(out, bind(a, b), bind(b, a))
 	case "tapped-coil", "pot":
 		mid := "t"
 		if pp.Device == "pot" {
@@ -436,89 +506,93 @@ func (s *searcher) bindings(pp *PPart, ci int) []binding {
 		}
 		one, t, two := w.pinNet(ci, "1"), w.pinNet(ci, mid), w.pinNet(ci, "2")
 		if one < 0 || t < 0 || two < 0 {
-			return nil
+			return out
 		}
-		return []binding{{nets: []int{one, t, two}}, {nets: []int{two, t, one}}}
+		return append(out, bind(one, t, two), bind(two, t, one))
 	case "diode":
 		anodes := []string{"a"}
 		if p.Type == "double-diode" {
 			anodes = []string{"a1", "a2"}
 		}
-		var out []binding
 		for _, an := range anodes {
 			a, k := w.pinNet(ci, an), w.pinNet(ci, "k")
 			if a < 0 || k < 0 {
 				continue
 			}
 			if pp.Pins[0].Key == "" {
-				out = append(out, binding{nets: []int{a, k}}, binding{nets: []int{k, a}})
+				out = append(out, bind(a, k), bind(k, a))
 				continue
 			}
-			nets := make([]int, 2)
+			b := binding{n: 2}
 			for i, pin := range pp.Pins {
 				if pin.Key == "a" {
-					nets[i] = a
+					b.net[i] = a
 				} else {
-					nets[i] = k
+					b.net[i] = k
 				}
 			}
-			out = append(out, binding{nets: nets})
+			out = append(out, b)
 		}
 		return out
 	case "double-diode":
 		a1, a2, k := w.pinNet(ci, "a1"), w.pinNet(ci, "a2"), w.pinNet(ci, "k")
-		var out []binding
 		for _, order := range [][2]int{{a1, a2}, {a2, a1}} {
-			nets := make([]int, len(pp.Pins))
+			b := binding{n: len(pp.Pins)}
 			for i, pin := range pp.Pins {
 				switch pin.Key {
 				case "a1":
-					nets[i] = order[0]
+					b.net[i] = order[0]
 				case "a2":
-					nets[i] = order[1]
+					b.net[i] = order[1]
 				case "k":
-					nets[i] = k
+					b.net[i] = k
 				}
 			}
-			out = append(out, binding{nets: nets})
+			out = append(out, b)
 		}
 		return out
 	case "active", "valve", "bjt", "fet":
-		return s.activeBindings(pp, ci)
+		return s.activeBindings(pp, ci, out)
 	case "transformer":
-		return s.transformerBindings(pp, ci)
+		return s.transformerBindings(pp, ci, out)
 	}
-	return nil
+	return out
 }
 
-func (s *searcher) activeBindings(pp *PPart, ci int) []binding {
+func (s *searcher) activeBindings(pp *PPart, ci int, out []binding) []binding {
 	w := s.w
 	p := w.parts[ci]
+	var choiceBuf [4][8]int
+	var choiceN [4]int
+	if len(pp.Pins) > len(choiceBuf) {
+		return out
+	}
 	choices := make([][]int, len(pp.Pins))
 	for i, pin := range pp.Pins {
 		role := graph.TermRole(pin.Key)
-		for j, cp := range p.Pins {
-			if graph.RoleOfPin(p.Kind, cp.Name) == role {
-				choices[i] = append(choices[i], w.pins[ci][j])
+		for j := range p.Pins {
+			if w.roles[ci][j] == role && choiceN[i] < len(choiceBuf[i]) {
+				choiceBuf[i][choiceN[i]] = w.pins[ci][j]
+				choiceN[i]++
+				choices[i] = choiceBuf[i][:choiceN[i]]
 				if role != graph.RoleGrid {
 					break // one control, common, output per section
 				}
 			}
 		}
 		if len(choices[i]) == 0 {
-			return nil
+			return out
 		}
 	}
-	var out []binding
-	cur := make([]int, len(pp.Pins))
+	cur := binding{n: len(pp.Pins)}
 	var rec func(i int)
 	rec = func(i int) {
 		if i == len(pp.Pins) {
-			out = append(out, binding{nets: append([]int(nil), cur...)})
+			out = append(out, cur)
 			return
 		}
 		for _, n := range choices[i] {
-			cur[i] = n
+			cur.net[i] = n
 			rec(i + 1)
 		}
 	}
@@ -526,17 +600,19 @@ func (s *searcher) activeBindings(pp *PPart, ci int) []binding {
 	return out
 }
 
-func (s *searcher) transformerBindings(pp *PPart, ci int) []binding {
+func (s *searcher) transformerBindings(pp *PPart, ci int, out []binding) []binding {
 	w := s.w
 	coils := w.coils[ci]
-	var out []binding
+	if len(pp.Windings) > maxWindings || len(pp.Windings) > len(coils) {
+		return out
+	}
 	used := make([]bool, len(coils))
-	assign := make([]int, len(pp.Windings))
-	var nets []int
+	var cur binding
+	cur.ncoil = len(pp.Windings)
 	var rec func(i int)
 	rec = func(i int) {
 		if i == len(pp.Windings) {
-			out = append(out, binding{nets: append([]int(nil), nets...), coils: append([]int(nil), assign...)})
+			out = append(out, cur)
 			return
 		}
 		pw := pp.Windings[i]
@@ -556,11 +632,15 @@ func (s *searcher) transformerBindings(pp *PPart, ci int) []binding {
 				continue
 			}
 			used[c] = true
-			assign[i] = c
+			cur.coil[i] = c
 			for _, e := range ends {
-				nets = append(nets, e...)
+				if cur.n+len(e) > maxSlots {
+					continue
+				}
+				copy(cur.net[cur.n:], e)
+				cur.n += len(e)
 				rec(i + 1)
-				nets = nets[:len(nets)-len(e)]
+				cur.n -= len(e)
 			}
 			used[c] = false
 		}

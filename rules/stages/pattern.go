@@ -562,6 +562,25 @@ func (ld *patLoader) pins(path string, pp *PPart, m map[string]any) {
 	if _, ok := m["windings"]; ok {
 		ld.fail(path+".windings", "windings apply to a transformer only")
 	}
+	if !contains(deviceKinds, pp.Device) {
+		// Reported already; note the nets it names so that no second
+		// message follows from the first.
+		switch t := m["pins"].(type) {
+		case []any:
+			for _, e := range t {
+				if n, ok := e.(string); ok {
+					pp.Pins = append(pp.Pins, PPin{Net: n})
+				}
+			}
+		case map[string]any:
+			for _, k := range sortedKeys(t) {
+				if n, ok := t[k].(string); ok {
+					pp.Pins = append(pp.Pins, PPin{Key: k, Net: n})
+				}
+			}
+		}
+		return
+	}
 	list, keys := pinShape(pp.Device)
 	switch t := m["pins"].(type) {
 	case nil:
