@@ -1,0 +1,160 @@
+package main
+
+import (
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// pare stages on the valve frequency changer: the mixer with its Hartley
+// oscillator, and the ranges a repairer checks printed in the table.
+func TestStagesFrequencyChanger(t *testing.T) {
+	code, out, errs := cliRun(t, "stages", filepath.Join(root, "examples/frequency-changer.toml"))
+	if code != exitOK {
+		t.Fatalf("exit %d\n%s\n%s", code, out, errs)
+	}
+	for _, want := range []string{
+		"self-oscillating-mixer", "Self-oscillating mixer, Hartley oscillator with cathode tap (valve)",
+		"hartley-common-tap", "contains: S2.1, S2.2",
+		"osc f 1.004 MHz–2.063 MHz", "sig f 534.1 kHz–1.593 MHz", "image f 1.474 MHz–2.533 MHz", "if 470 kHz",
+		"lethal", "isolation transformer", "small-signal",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("output lacks %q:\n%s", want, out)
+		}
+	}
+}
+
+// --json: the contract's shape, figures in SI base units, same bytes twice.
+func TestStagesJSON(t *testing.T) {
+	file := filepath.Join(root, "examples/frequency-changer.toml")
+	code, out, errs := cliRun(t, "stages", "--json", file)
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var doc struct {
+		Stages []struct {
+			Name     string             `json:"name"`
+			Topology string             `json:"topology"`
+			Title    string             `json:"title"`
+			Family   string             `json:"family"`
+			Parts    []string           `json:"parts"`
+			Figures  map[string]float64 `json:"figures"`
+			Flags    []string           `json:"flags"`
+			Contains []string           `json:"contains"`
+		} `json:"stages"`
+		Unmatched []struct{ Ref, Reason string } `json:"unmatched"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatalf("not JSON: %v\n%s", err, out)
+	}
+	var mixer *struct {
+		Name     string             `json:"name"`
+		Topology string             `json:"topology"`
+		Title    string             `json:"title"`
+		Family   string             `json:"family"`
+		Parts    []string           `json:"parts"`
+		Figures  map[string]float64 `json:"figures"`
+		Flags    []string           `json:"flags"`
+		Contains []string           `json:"contains"`
+	}
+	for i := range doc.Stages {
+		if doc.Stages[i].Topology == "self-oscillating-mixer" {
+			mixer = &doc.Stages[i]
+		}
+	}
+	if mixer == nil {
+		t.Fatalf("no mixer in %s", out)
+	}
+	if mixer.Family != "valve" || len(mixer.Contains) != 2 {
+		t.Errorf("mixer family %q contains %v", mixer.Family, mixer.Contains)
+	}
+	// Signal = oscillator − IF and image = signal + 2·IF (reference-values §2), in hertz.
+	osc, sig, img := mixer.Figures["osc_f_min_hz"], mixer.Figures["sig_f_min_hz"], mixer.Figures["image_f_min_hz"]
+	if math.Abs(osc-470e3-sig) > 1e-6 || math.Abs(sig+940e3-img) > 1e-6 || osc < 1e5 {
+		t.Errorf("osc %g, signal %g, image %g do not follow LO − IF and RF + 2·IF", osc, sig, img)
+	}
+	_, again, _ := cliRun(t, "stages", "--json", file)
+	if again != out {
+		t.Error("two runs gave different output")
+	}
+}
+
+// Every part of every example is in a stage or listed with the reason.
+func TestStagesExamplesLabelled(t *testing.T) {
+	for _, f := range cliGlob(t, "examples/*.toml") {
+		code, out, errs := cliRun(t, "stages", "--json", f)
+		if code != exitOK {
+			t.Errorf("%s: exit %d: %s", f, code, errs)
+			continue
+		}
+		var doc struct {
+			Stages []struct {
+				Name  string   `json:"name"`
+				Parts []string `json:"parts"`
+			} `json:"stages"`
+			Unmatched []struct {
+				Ref    string `json:"ref"`
+				Reason string `json:"reason"`
+			} `json:"unmatched"`
+		}
+		if err := json.Unmarshal([]byte(out), &doc); err != nil {
+			t.Fatalf("%s: %v", f, err)
+		}
+		if len(doc.Stages) == 0 {
+			t.Errorf("%s: no stages", f)
+		}
+		for _, u := range doc.Unmatched {
+			if u.Reason == "" {
+				t.Errorf("%s: %s unlabelled without a reason", f, u.Ref)
+			}
+		}
+		for i, s := range doc.Stages {
+			if !strings.HasPrefix(s.Name, "S") || i == 0 && s.Name != "S1" {
+				t.Errorf("%s: stage %d named %q", f, i, s.Name)
+			}
+		}
+	}
+}
+
+// Bad input: a file:line:col message and exit 2, nothing on stdout.
+func TestStagesBadInput(t *testing.T) {
+	dir := t.TempDir()
+	bad := filepath.Join(dir, "bad.toml")
+	if err := os.WriteFile(bad, []byte("band = \"1k..2k\"\n[parts]\nR1 = { r = \"4k7\", pins = [\"a\"] }\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, out, errs := cliRun(t, "stages", bad)
+	if code != exitBad || out != "" || !strings.Contains(errs, "bad.toml:3:") {
+		t.Errorf("bad netlist: exit %d, stdout %q, stderr %q", code, out, errs)
+	}
+	pats := filepath.Join(dir, "patterns")
+	if err := os.Mkdir(pats, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(pats, "x.toml"), []byte("id = \"x\"\ntitle = \"X\"\ngroup = \"tuned\"\n[nets]\na = {}\n[parts]\nC = { device = \"capacitor\", pins = [\"a\", \"b\"] }\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, out, errs = cliRun(t, "stages", "--patterns", pats, filepath.Join(root, "examples/frequency-changer.toml"))
+	if code != exitBad || out != "" || !strings.Contains(errs, "x.toml:7:1:") {
+		t.Errorf("bad pattern: exit %d, stdout %q, stderr %q", code, out, errs)
+	}
+	if code, _, _ := cliRun(t, "stages", "--level", "hard", filepath.Join(root, "examples/frequency-changer.toml")); code != exitBad {
+		t.Errorf("unknown level: exit %d", code)
+	}
+	if code, _, _ := cliRun(t, "stages"); code != exitBad {
+		t.Errorf("no file: exit %d", code)
+	}
+}
+
+// A search budget too small for the circuit: the stages found so far, a
+// clear message and exit 1.
+func TestStagesLimit(t *testing.T) {
+	code, _, errs := cliRun(t, "stages", "--limit", "5", filepath.Join(root, "examples/frequency-changer.toml"))
+	if code != exitFound || !strings.Contains(errs, "search limit reached") {
+		t.Errorf("exit %d, stderr %q", code, errs)
+	}
+}
