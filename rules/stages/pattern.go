@@ -48,8 +48,9 @@ type PNet struct {
 	At string
 	// Outside constrains the bound net's other connections: "" no constraint,
 	// "none" (only the pattern's parts touch it), "some" (something else
-	// does), "signal" (a part outside the match brings signal from another
-	// non-ground net: the net is fed from elsewhere).
+	// does), "signal" (the net is fed from elsewhere: a part outside the
+	// match reaches another non-ground net, or a port, or the net is a
+	// declared input or output).
 	Outside string
 	Pos     graph.Pos
 }

@@ -1,0 +1,138 @@
+package stages
+
+import (
+	"math"
+	"path/filepath"
+	"testing"
+
+	"pare/graph"
+	"pare/rules"
+)
+
+// reduceExample loads an example and reduces it at the default level, as
+// `pare stages` does.
+func reduceExample(t *testing.T, name string) (*graph.Circuit, *graph.Circuit, *rules.Log) {
+	t.Helper()
+	c, err := graph.LoadFile(filepath.Join("..", "..", "examples", name))
+	if err != nil {
+		t.Fatalf("%s: %v", name, err)
+	}
+	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatalf("reduce %s: %v", name, err)
+	}
+	return c, r, log
+}
+
+// The valve frequency changer is a self-oscillating mixer containing a
+// Hartley oscillator with the cathode tap. Its oscillator range follows
+// from L1 128 µH and the gang 12–365 pF with 41 pF trimmer in series with
+// the 380 pF padder: C = (Cg+Ct)·Cp/(Cg+Ct+Cp) (series and parallel
+// capacitors, reference-values §4), f = 1/(2π√(LC)) (§1); the signal range is
+// oscillator − 470 kHz and the image signal + 940 kHz (§2).
+func TestFrequencyChangerExample(t *testing.T) {
+	full, reduced, log := reduceExample(t, "frequency-changer.toml")
+	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround})
+	mix := stageOf(st, "self-oscillating-mixer")
+	if mix == nil {
+		t.Fatalf("no self-oscillating mixer: %s", topologies(st))
+	}
+	var hartley *Stage
+	for _, name := range mix.Contains {
+		for i := range st {
+			if st[i].Name == name && st[i].Topology == "hartley-common-tap" {
+				hartley = &st[i]
+			}
+		}
+	}
+	if hartley == nil {
+		t.Fatalf("the mixer %v contains no Hartley oscillator: %s", mix.Contains, topologies(st))
+	}
+	series := func(cg float64) float64 { c := cg + 41e-12; return c * 380e-12 / (c + 380e-12) }
+	fmin := 1 / (2 * math.Pi * math.Sqrt(128e-6*series(365e-12)))
+	fmax := 1 / (2 * math.Pi * math.Sqrt(128e-6*series(12e-12)))
+	for _, c := range []struct {
+		key  string
+		want float64
+	}{
+		{"osc_f_min_hz", fmin}, {"osc_f_max_hz", fmax},
+		{"sig_f_min_hz", fmin - 470e3}, {"sig_f_max_hz", fmax - 470e3},
+		{"image_f_min_hz", fmin + 470e3}, {"image_f_max_hz", fmax + 470e3},
+		{"if_hz", 470e3},
+	} {
+		got, ok := mix.Figures[c.key]
+		if !ok || math.Abs(got-c.want) > 1e-6*c.want {
+			t.Errorf("%s = %g (present %v), want %g", c.key, got, ok, c.want)
+		}
+	}
+	// With the original gang, trimmer and padder the dial sweep stays
+	// within the design's few kHz (the file's header tracks at three points).
+	if e := math.Abs(mix.Figures["track_err_max_hz"]); e == 0 || e > 10e3 {
+		t.Errorf("tracking error %g Hz: want a few kHz from the original parts", e)
+	}
+	if u := Unmatched(reduced, st); len(u) > 0 {
+		t.Errorf("parts in no stage: %v", u)
+	}
+}
+
+// The IF strip: the triode preamplifier's gain is the textbook
+// −µRL/(ra+RL) = −61.5385 for µ 100, ra 62.5 kΩ, RL 100 kΩ
+// (reference-values §5), and the AC solver agrees.
+func TestIFStripExample(t *testing.T) {
+	full, reduced, log := reduceExample(t, "if-detector-audio.toml")
+	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround})
+	for _, want := range []string{"amp-tuned", "double-tuned"} {
+		if stageOf(st, want) == nil {
+			t.Errorf("no %s: %s", want, topologies(st))
+		}
+	}
+	var det *Stage
+	for i := range st {
+		if st[i].Topology == "diode-detector" || st[i].Topology == "diode-detector-cold-end" {
+			det = &st[i]
+		}
+	}
+	if det == nil {
+		t.Errorf("no detector: %s", topologies(st))
+	}
+	var amp *Stage
+	for i := range st {
+		if g, ok := st[i].Figures["gain"]; ok && g < -1 {
+			amp = &st[i]
+		}
+	}
+	if amp == nil {
+		t.Fatalf("no amplifier with a gain: %s", topologies(st))
+	}
+	if g := amp.Figures["gain"]; math.Abs(g+61.5385) > 1e-4*61.5385 {
+		t.Errorf("preamplifier gain %g, want −61.5385", g)
+	}
+	if g, ok := amp.Figures["gain_ac"]; !ok || math.Abs(g-amp.Figures["gain"]) > gainAgreement*math.Abs(amp.Figures["gain"]) {
+		t.Errorf("AC solver gain %g (present %v) disagrees with %g", g, ok, amp.Figures["gain"])
+	}
+	if u := Unmatched(reduced, st); len(u) > 0 {
+		t.Errorf("parts in no stage: %v", u)
+	}
+}
+
+// The transistor front end: the BJT mixer and the IF amplifier are named,
+// every part labelled.
+func TestTransistorExample(t *testing.T) {
+	full, reduced, log := reduceExample(t, "transistor-front-end.toml")
+	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround})
+	var mixer *Stage
+	for i := range st {
+		if st[i].Topology == "self-oscillating-mixer-common-fed" {
+			mixer = &st[i]
+		}
+	}
+	if mixer == nil || mixer.Family != "bjt" {
+		t.Fatalf("no BJT self-oscillating mixer: %s", topologies(st))
+	}
+	if mixer.Figures["if_hz"] != 455e3 {
+		t.Errorf("IF %g, want the declared 455 kHz", mixer.Figures["if_hz"])
+	}
+	if u := Unmatched(reduced, st); len(u) > 0 {
+		t.Errorf("parts in no stage: %v", u)
+	}
+}
