@@ -4,12 +4,15 @@ import (
 	"context"
 	"encoding/xml"
 	"errors"
+	"fmt"
 	"image"
 	"image/png"
 	"io"
+	"math"
 	"os"
 	"os/exec"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -54,29 +57,87 @@ func TestSheetsInBrowser(t *testing.T) {
 			}
 			dir := r.dir
 			for _, sheet := range []string{fileReducedSheet, fileFadedSheet} {
-				svgPath := filepath.Join(dir, sheet)
-				checkWellFormed(t, svgPath)
-				shot := filepath.Join(t.TempDir(), strings.TrimSuffix(sheet, ".svg")+".png")
-				screenshot(t, browser, svgPath, shot)
+				svgPath, err := filepath.Abs(filepath.Join(dir, sheet))
+				if err != nil {
+					t.Fatal(err)
+				}
+				w, h := checkWellFormed(t, svgPath)
+				// The sheet goes into the page the way the note embeds it, as
+				// an image: a browser draws an SVG image only when it is a
+				// proper SVG document (namespace, size), where loading the
+				// file directly would still show an XML tree.
+				work := t.TempDir()
+				page := imagePage(t, work, svgPath)
+				shot := filepath.Join(work, "shot.png")
+				screenshot(t, browser, page, shot, w, h)
 				ink, dark := inkOf(t, shot)
-				// Thresholds are common practice for "something is drawn": a
-				// schematic with a frame and labels covers a few percent of the
-				// window, and its lines and text are dark.
-				if ink < 0.01 {
+				// Thresholds are common practice for "something is drawn",
+				// with the window the size of the sheet: a schematic with its
+				// frames and labels inks a few percent of it, and its lines
+				// and text are dark. The examples' sheets give 2.3–3.3 % ink
+				// and 1.0–1.5 % dark pixels.
+				if ink < minInk {
 					t.Errorf("%s: only %.2f%% of the screenshot is not white: blank sheet?", sheet, 100*ink)
 				}
-				if dark < 200 {
-					t.Errorf("%s: %d dark pixels: no lines or text visible", sheet, dark)
+				if dark < minDark {
+					t.Errorf("%s: %.2f%% dark pixels: no lines or text visible", sheet, 100*dark)
 				}
-				t.Logf("%s: %.1f%% ink, %d dark pixels", sheet, 100*ink, dark)
+				t.Logf("%s: %.0f×%.0f, %.1f%% ink, %.1f%% dark", sheet, w, h, 100*ink, 100*dark)
 			}
 		})
 	}
 }
 
+// The least ink and dark fractions of a screenshot that shows a drawing.
+const (
+	minInk  = 0.015
+	minDark = 0.005
+)
+
+// TestBrowserCheckCatchesBrokenSheet shows the browser check can fail: the
+// same sheet without its SVG namespace is not drawn as an image at all.
+func TestBrowserCheckCatchesBrokenSheet(t *testing.T) {
+	browser := findChromium(t)
+	exs := examples(t)
+	r := cachedJob(t, exs[0])
+	if r.code == exitBad {
+		t.Fatalf("main job failed: %s", r.stderr)
+	}
+	svg := readString(t, filepath.Join(r.dir, fileReducedSheet))
+	broken := strings.Replace(svg, ` xmlns="http://www.w3.org/2000/svg"`, "", 1)
+	if broken == svg {
+		t.Fatal("the sheet has no SVG namespace to take away")
+	}
+	work := t.TempDir()
+	svgPath := filepath.Join(work, "broken.svg")
+	if err := os.WriteFile(svgPath, []byte(broken), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	page := imagePage(t, work, svgPath)
+	shot := filepath.Join(work, "shot.png")
+	screenshot(t, browser, page, shot, 1200, 600)
+	if ink, dark := inkOf(t, shot); ink >= minInk || dark >= minDark {
+		t.Errorf("a sheet without its namespace passed the check: %.2f%% ink, %.2f%% dark", 100*ink, 100*dark)
+	}
+}
+
+// imagePage writes a page into dir that shows the SVG at svgPath (absolute)
+// as an image across the window's width, and returns the page's path.
+func imagePage(t *testing.T, dir, svgPath string) string {
+	t.Helper()
+	page := filepath.Join(dir, "page.html")
+	html := `<!DOCTYPE html><html><body style="margin:0;background:#fff">` +
+		`<img style="display:block;width:100vw" src="file://` + svgPath + `"></body></html>`
+	if err := os.WriteFile(page, []byte(html), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return page
+}
+
 // checkWellFormed parses the sheet as XML with an svg root in the SVG
-// namespace, so a failure here says what is wrong before the browser does.
-func checkWellFormed(t *testing.T, path string) {
+// namespace, so a failure here says what is wrong before the browser does,
+// and returns the sheet's size from the root's width and height.
+func checkWellFormed(t *testing.T, path string) (w, h float64) {
 	t.Helper()
 	f, err := os.Open(path)
 	if err != nil {
@@ -88,7 +149,7 @@ func checkWellFormed(t *testing.T, path string) {
 	for {
 		tok, err := d.Token()
 		if errors.Is(err, io.EOF) {
-			return
+			break
 		}
 		if err != nil {
 			t.Fatalf("%s is not well-formed XML: %v", path, err)
@@ -98,19 +159,39 @@ func checkWellFormed(t *testing.T, path string) {
 			if se.Name.Local != "svg" || se.Name.Space != "http://www.w3.org/2000/svg" {
 				t.Fatalf("%s: root element is {%s}%s, want an svg element in the SVG namespace", path, se.Name.Space, se.Name.Local)
 			}
+			for _, a := range se.Attr {
+				v, err := strconv.ParseFloat(strings.TrimSuffix(a.Value, "px"), 64)
+				switch {
+				case a.Name.Local == "width" && err == nil:
+					w = v
+				case a.Name.Local == "height" && err == nil:
+					h = v
+				}
+			}
 		}
 	}
+	if root {
+		t.Fatalf("%s has no root element", path)
+	}
+	if w <= 0 || h <= 0 {
+		t.Fatalf("%s: the svg root has no usable width and height (%v × %v): a browser would pick a size of its own", path, w, h)
+	}
+	return w, h
 }
 
 // screenshot loads a page in headless Chromium (flags from the project's
 // reference-tools notes) with a fresh profile, removed afterwards, and a
 // time limit so a hung browser cannot hang the test run.
-func screenshot(t *testing.T, browser, page, png string) {
+func screenshot(t *testing.T, browser, page, png string, w, h float64) {
 	t.Helper()
 	abs, err := filepath.Abs(page)
 	if err != nil {
 		t.Fatal(err)
 	}
+	// The window is the sheet's size, within what a screenshot can hold.
+	clamp := func(v float64) int { return int(math.Ceil(math.Min(math.Max(v, 200), 4000))) }
+	scale := math.Min(1, 4000/math.Max(w, h))
+	size := fmt.Sprintf("--window-size=%d,%d", clamp(w*scale), clamp(h*scale))
 	profile, err := os.MkdirTemp("", "pare-chromium-")
 	if err != nil {
 		t.Fatal(err)
@@ -122,7 +203,7 @@ func screenshot(t *testing.T, browser, page, png string) {
 		"--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
 		"--disable-background-networking", "--disable-component-update", "--disable-sync",
 		"--hide-scrollbars", "--log-level=3",
-		"--user-data-dir="+profile, "--window-size=1600,1200",
+		"--user-data-dir="+profile, size,
 		"--screenshot="+png, "file://"+abs)
 	cmd.WaitDelay = 5 * time.Second // the browser's helpers may hold the pipes open
 	out, err := cmd.CombinedOutput()
@@ -138,9 +219,9 @@ func screenshot(t *testing.T, browser, page, png string) {
 	}
 }
 
-// inkOf returns the fraction of pixels that are not white and the number of
-// dark pixels (all channels below 40 % of full scale).
-func inkOf(t *testing.T, path string) (float64, int) {
+// inkOf returns the fractions of pixels that are not white and that are
+// dark (all channels below 40 % of full scale).
+func inkOf(t *testing.T, path string) (float64, float64) {
 	t.Helper()
 	f, err := os.Open(path)
 	if err != nil {
@@ -154,7 +235,7 @@ func inkOf(t *testing.T, path string) (float64, int) {
 	return countInk(img)
 }
 
-func countInk(img image.Image) (float64, int) {
+func countInk(img image.Image) (float64, float64) {
 	b := img.Bounds()
 	ink, dark := 0, 0
 	for y := b.Min.Y; y < b.Max.Y; y++ {
@@ -172,7 +253,7 @@ func countInk(img image.Image) (float64, int) {
 	if total == 0 {
 		return 0, 0
 	}
-	return float64(ink) / float64(total), dark
+	return float64(ink) / float64(total), float64(dark) / float64(total)
 }
 
 // countInk itself, on images whose answer is known by construction.
@@ -182,7 +263,7 @@ func TestCountInk(t *testing.T) {
 		white.Pix[i] = 0xff
 	}
 	if ink, dark := countInk(white); ink != 0 || dark != 0 {
-		t.Errorf("white image: ink %v, dark %d; want 0, 0", ink, dark)
+		t.Errorf("white image: ink %v, dark %v; want 0, 0", ink, dark)
 	}
 	// A 5×2 black bar on a 10×10 white image: 10 of 100 pixels.
 	for y := 0; y < 2; y++ {
@@ -192,7 +273,7 @@ func TestCountInk(t *testing.T) {
 	}
 	// One light grey pixel counts as ink but not as dark.
 	white.Pix[9*white.Stride+9] = 0xc0
-	if ink, dark := countInk(white); ink != 0.11 || dark != 10 {
-		t.Errorf("bar image: ink %v, dark %d; want 0.11, 10", ink, dark)
+	if ink, dark := countInk(white); ink != 0.11 || dark != 0.10 {
+		t.Errorf("bar image: ink %v, dark %v; want 0.11, 0.10", ink, dark)
 	}
 }
