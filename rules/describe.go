@@ -163,6 +163,13 @@ func electrode(p *graph.Part, pin string) string {
 		case "e":
 			return "emitter"
 		}
+	case graph.Diode:
+		switch pin {
+		case "a":
+			return "anode"
+		case "k":
+			return "cathode"
+		}
 	case graph.FET:
 		switch pin {
 		case "g":

@@ -9,8 +9,10 @@ import (
 )
 
 // A focus keeps the stage(s) around the named parts: everything reachable
-// from them without crossing an AC-ground net or the output of another
-// active device. A device's own output net is taken one level deep (its
+// from them without crossing an AC-ground net, the output of another active
+// device, or the coupling between two windings of a transformer (an
+// interstage transformer belongs to both stages: it is kept, the far side of
+// it is not followed). A device's own output net is taken one level deep (its
 // load), and nets that a bypass capacitor holds at AC ground are taken one
 // level deep too (the cathode resistor and its bypass, the screen feed), so
 // the reduction can still explain them. Each net that crosses the cut gets a
@@ -53,18 +55,26 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 		}
 	}
 	in := map[*graph.Part]bool{}
-	var queue []*graph.Part
+	type visit struct {
+		p     *graph.Part
+		entry string // the pin it was reached through; "" for a seed
+	}
+	var queue []visit
 	for _, p := range seeds {
 		if !in[p] {
 			in[p] = true
-			queue = append(queue, p)
+			queue = append(queue, visit{p, ""})
 		}
 	}
 	for len(queue) > 0 {
-		p := queue[0]
+		v := queue[0]
 		queue = queue[1:]
+		p := v.p
 		for _, pin := range p.Pins {
 			n := pin.Net
+			if p.Kind == graph.Transformer && v.entry != "" && windingGroup(pin.Name) != windingGroup(v.entry) {
+				continue // coupling to another winding ends the stage: an interstage transformer
+			}
 			switch {
 			case n == "nc" || ground[n]:
 				continue
@@ -87,7 +97,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 				}
 				in[q] = true
 				if !own {
-					queue = append(queue, q)
+					queue = append(queue, visit{q, cn.Pin})
 				}
 			}
 		}
@@ -167,6 +177,15 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 	st.N = len(log.Steps) + 1
 	log.Steps = append(log.Steps, st)
 	return nil
+}
+
+// windingGroup names the winding a transformer pin belongs to: the loader
+// names them NAME1, NAME2 and NAMEt for a tap.
+func windingGroup(pin string) string {
+	if len(pin) < 2 {
+		return pin
+	}
+	return pin[:len(pin)-1]
 }
 
 func allAt(p *graph.Part, isGround func(string) bool) bool {
@@ -269,17 +288,22 @@ func portLabel(x *Ctx, net string, in map[*graph.Part]bool) string {
 		if in[q] {
 			continue
 		}
-		if q.IsActive() {
-			if graph.RoleOfPin(q.Kind, cn.Pin) == graph.RoleOutput {
-				return "from " + q.Ref + " " + electrode(q, cn.Pin)
-			}
+		switch {
+		case q.IsActive() && graph.RoleOfPin(q.Kind, cn.Pin) == graph.RoleOutput:
+			return "from " + q.Ref + " " + electrode(q, cn.Pin)
+		case q.IsActive() || q.Kind == graph.Valve || q.Kind == graph.Diode:
 			return "to " + q.Ref + " " + electrode(q, cn.Pin)
-		}
-		if q.Kind == graph.Port && q.Label != "" {
+		case q.Kind == graph.Port && q.Label != "":
 			return q.Label
+		}
+		if firstPassive == "" && q.Kind == graph.Transformer {
+			firstPassive = "to " + q.Ref + " winding " + windingGroup(cn.Pin)
 		}
 		if firstPassive == "" {
 			firstPassive = "to " + q.Ref
+			if q.Note != "" && len(q.Note) <= 40 {
+				firstPassive += " (" + q.Note + ")"
+			}
 		}
 	}
 	if firstPassive == "" {
