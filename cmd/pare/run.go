@@ -82,8 +82,6 @@ type outFile struct {
 // jobResult is what the main job made of one netlist.
 type jobResult struct {
 	files   []outFile
-	log     *rules.Log
-	stages  []stages.Stage
 	verify  noteVerify
 	summary []string // lines for stdout
 }
@@ -118,7 +116,7 @@ func runMain(e *env, opts any, args []string) int {
 	}
 	res, err := mainJobOn(c, path, warnings, cfg)
 	if err != nil {
-		printJobError(e, path, err)
+		printErrors(e, "pare "+mainJob, path, err)
 		return exitBad
 	}
 	if err := os.MkdirAll(dir, 0o755); err != nil {
@@ -195,20 +193,6 @@ func checkOutDir(input, dir string) error {
 	return nil
 }
 
-// printJobError prints a model error list as file:line:col lines, anything
-// else as one message.
-func printJobError(e *env, path string, err error) {
-	var list graph.ErrorList
-	if errors.As(err, &list) {
-		for _, x := range list {
-			fmt.Fprintln(e.stderr, x.Error())
-		}
-		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
-		return
-	}
-	fmt.Fprintf(e.stderr, "pare %s: %s: %v\n", mainJob, path, err)
-}
-
 // mainJobOn runs the whole job on a loaded circuit and returns every result
 // file in memory. It never modifies c and never touches the disk.
 func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobConfig) (*jobResult, error) {
@@ -227,7 +211,7 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 		log = &rules.Log{}
 	}
 
-	res := &jobResult{log: log}
+	res := &jobResult{}
 	if cfg.noVerify {
 		res.verify = noteVerify{Skipped: "--no-verify"}
 	} else {
@@ -245,10 +229,10 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 	} else if err != nil {
 		return nil, fmt.Errorf("recognising stages: %w", err)
 	}
-	res.stages = found
 
 	var netlist strings.Builder
-	if err := graph.Write(&netlist, regionsFollowParts(reduced)); err != nil {
+	// Written as `pare reduce` writes it: marked at the top as a reduction.
+	if err := graph.Write(&netlist, annotated(reduced, cfg.level)); err != nil {
 		return nil, fmt.Errorf("writing the reduced netlist: %w", err)
 	}
 	// A reduced netlist that does not load back is a bug in pare, not in the
@@ -320,65 +304,6 @@ func mainJobOn(c *graph.Circuit, path string, warnings graph.ErrorList, cfg jobC
 	}
 	res.summary = append(summaryLines(path, n, log, found, res.verify), res.summary...)
 	return res, nil
-}
-
-// regionsFollowParts returns the reduced circuit with its regions naming
-// only parts and nets that are still there: a removed part's ref is dropped,
-// a merged one's is replaced by the part it went into. RegionOf gives every
-// remaining part the same region as before (it also looks through From), but
-// the loader rightly rejects a region that names a missing part, so the file
-// would not load back otherwise. The circuit is cloned only when needed.
-func regionsFollowParts(c *graph.Circuit) *graph.Circuit {
-	into := map[string]string{}
-	for _, p := range c.Parts {
-		for _, o := range p.Origins() {
-			into[o] = p.Ref
-		}
-	}
-	nets := map[string]bool{}
-	for _, n := range c.Nets {
-		nets[n.Name] = true
-	}
-	stale := false
-	for _, r := range c.Regions {
-		for _, ref := range r.Parts {
-			if c.Part(ref) == nil {
-				stale = true
-			}
-		}
-		for _, n := range r.Nets {
-			if !nets[n] {
-				stale = true
-			}
-		}
-	}
-	if !stale {
-		return c
-	}
-	c = c.Clone()
-	for _, r := range c.Regions {
-		seen := map[string]bool{}
-		var parts []string
-		for _, ref := range r.Parts {
-			if c.Part(ref) == nil {
-				ref = into[ref] // "" when removed outright
-			}
-			if ref != "" && !seen[ref] {
-				seen[ref] = true
-				parts = append(parts, ref)
-			}
-		}
-		sort.Strings(parts)
-		r.Parts = parts
-		var keep []string
-		for _, n := range r.Nets {
-			if nets[n] {
-				keep = append(keep, n)
-			}
-		}
-		r.Nets = keep
-	}
-	return c
 }
 
 // verifyOf turns the comparison into what the note and the summary say.
