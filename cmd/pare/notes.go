@@ -186,6 +186,8 @@ func writeVerdict(b *bytes.Buffer, n *note) {
 	switch {
 	case v.Skipped != "":
 		fmt.Fprintf(b, "**Verification was not run** (%s): the reduced sheet has not been checked against the original by AC analysis.\n\n", mdText(v.Skipped))
+	case v.Err != "":
+		b.WriteString("**Verification FAILED**: the AC comparison could not be completed, so the reduced sheet is unproven. Use the faded sheet, not the reduced one, until this is resolved (see Verification below).\n\n")
 	case v.failed():
 		b.WriteString("**Verification FAILED**: the reduced circuit does not match the original within tolerance. Use the faded sheet, not the reduced one, until this is resolved (see Verification below).\n\n")
 	default:

@@ -102,10 +102,10 @@ func TestNoteVerification(t *testing.T) {
 			{From: "a", To: "a", What: "impedance", MaxDB: 2.25, MaxDeg: 1, AtHz: 455e3},
 			{From: "b", To: "b", What: "impedance", Error: "singular matrix"}},
 			Notes: []string{"port p3 has no ground return"}},
-			[]string{"**Verification FAILED**", "**Failed** against a tolerance", "| 2.25 | 1 | 455 kHz | – | **out of tolerance** |",
+			[]string{"**Verification FAILED**: the reduced circuit does not match", "**Failed** against a tolerance", "| 2.25 | 1 | 455 kHz | – | **out of tolerance** |",
 				"| 0.1 | 1 | 1 kHz | – | ok |", "| – | – | – | – | **not solved**: singular matrix |", "- port p3 has no ground return"}, true},
 		{"could not run", noteVerify{Err: "net aerial: singular matrix", TolDB: 0.5, TolDeg: 5},
-			[]string{"**Verification FAILED**", "could not be completed: net aerial: singular matrix."}, true},
+			[]string{"**Verification FAILED**: the AC comparison could not be completed", "could not be completed: net aerial: singular matrix."}, true},
 		{"skipped", noteVerify{Skipped: "--no-verify"},
 			[]string{"**Verification was not run** (--no-verify)", "Not run (--no-verify)."}, false},
 	}
