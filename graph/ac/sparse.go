@@ -59,7 +59,7 @@ type lu struct {
 	up []int
 	ui []int
 	ux []complex128
-	ud []complex128
+	ud []complex128 // 1/U(k,k): solves multiply, division is far slower
 
 	x      []complex128 // work vector
 	mark   []int
@@ -136,14 +136,14 @@ func (f *lu) factor(a *csc) error {
 		if diagAbs >= pivotTol*bestAbs && diagAbs > 0 {
 			best = j
 		}
-		piv := x[best]
-		f.ud[k] = piv
+		inv := 1 / x[best]
+		f.ud[k] = inv
 		f.pinv[best] = k
 		f.prow[k] = best
 		for _, r := range f.reach {
 			if f.pinv[r] < 0 {
 				f.li = append(f.li, r)
-				f.lx = append(f.lx, x[r]/piv)
+				f.lx = append(f.lx, x[r]*inv)
 			}
 		}
 		f.lp = append(f.lp, len(f.li))
@@ -258,10 +258,11 @@ func (f *lu) refactor(a *csc) error {
 			}
 			return errStalePivot
 		}
-		f.ud[k] = piv
+		inv := 1 / piv
+		f.ud[k] = inv
 		for m := f.lp[k]; m < f.lp[k+1]; m++ {
 			r := f.li[m]
-			f.lx[m] = x[r] / piv
+			f.lx[m] = x[r] * inv
 			x[r] = 0
 		}
 	}
@@ -283,8 +284,8 @@ func (f *lu) solve(b, y []complex128) {
 		}
 	}
 	for k := f.n - 1; k >= 0; k-- {
-		y[k] /= f.ud[k]
-		v := y[k]
+		v := y[k] * f.ud[k]
+		y[k] = v
 		if v == 0 {
 			continue
 		}
