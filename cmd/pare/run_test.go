@@ -387,6 +387,31 @@ func TestMainJobDefaultDirAndNoVerify(t *testing.T) {
 	}
 }
 
+// A circuit the AC comparison cannot solve: its grid net touches nothing but
+// the grid, so nodal analysis has an all-zero row for it (a floating node
+// makes the admittance matrix singular; textbook nodal analysis, from
+// memory). The job must still write everything, say so, and exit 1.
+func TestMainJobVerificationFails(t *testing.T) {
+	in := filepath.Join("testdata", "unverifiable", "floating-grid.toml")
+	dir := filepath.Join(t.TempDir(), "out")
+	code, stdout, stderr := runJob(t, in, "-o", dir)
+	if code != exitFound {
+		t.Fatalf("exit %d, want 1\nstdout: %s\nstderr: %s", code, stdout, stderr)
+	}
+	for _, f := range resultFiles {
+		if _, err := os.Stat(filepath.Join(dir, f)); err != nil {
+			t.Errorf("%s not written: %v", f, err)
+		}
+	}
+	md := readString(t, filepath.Join(dir, fileNote))
+	if !strings.Contains(md, "**Verification FAILED**") || !strings.Contains(md, "gx") {
+		t.Errorf("note does not say the verification failed, or not why:\n%s", md)
+	}
+	if !strings.Contains(stdout, "verification: FAILED") {
+		t.Errorf("summary does not say the verification failed:\n%s", stdout)
+	}
+}
+
 func TestDefaultOutDir(t *testing.T) {
 	for _, c := range []struct{ in, want string }{
 		{"examples/frequency-changer.toml", "examples/frequency-changer.pare"},
