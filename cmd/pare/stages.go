@@ -191,6 +191,11 @@ func printStages(w io.Writer, path string, c *graph.Circuit, lvl rules.Level, fo
 			for _, f := range s.Flags {
 				fmt.Fprintf(w, "%s! %s\n", pad, f)
 			}
+			for _, n := range s.Notes {
+				for _, line := range wrap(n, 96-len(pad)) {
+					fmt.Fprintf(w, "%s%s\n", pad, line)
+				}
+			}
 		}
 	}
 	if len(unmatched) > 0 {

@@ -684,6 +684,11 @@ func FigureText(key string, v float64) string {
 	case hasSuffix(key, "_hz"):
 		return value.FormatPrec(v, value.Hertz, value.Symbol, 4)
 	case hasSuffix(key, "_s"):
+		// Time constants from a tenth of a second up read best in plain
+		// seconds ("0.1 s", "2.2 s"); shorter ones with a prefix ("4.7 ms").
+		if math.Abs(v) >= 0.1 {
+			return trimFloat(v) + " s"
+		}
 		return value.FormatPrec(v, value.Second, value.Symbol, 3)
 	case hasSuffix(key, "_f"):
 		return value.FormatPrec(v, value.Farad, value.Symbol, 4)

@@ -328,7 +328,9 @@ func TestFigureText(t *testing.T) {
 	}{
 		{"f_hz", 1.47e6, "1.47 MHz"},          // SI prefix, common practice
 		{"osc_f_min_hz", 1455e3, "1.455 MHz"}, // four digits keep kHz steps
-		{"tau_s", 0.1, "100 ms"},
+		{"tau_s", 0.1, "0.1 s"},
+		{"tau_s", 4.7e-3, "4.7 ms"},
+		{"tau_s", 2.209, "2.21 s"},
 		{"gain", -16.4912, "-16.5"},
 		{"gain_db", 35.78, "35.8 dB"},
 		{"pad_c_f", 364.241e-12, "364.2 pF"},

@@ -20,11 +20,12 @@ type Stage struct {
 	Figures  map[string]float64 `json:"figures"` // SI base units: "f_min_hz", "gain", "tau_s", …
 	Flags    []string           `json:"flags"`
 	Contains []string           `json:"contains,omitempty"` // names of sub-stages
+	// Notes state the assumptions behind figures ("capacitance linear in
+	// rotation"), so a note that quotes a figure can quote its basis too.
+	Notes []string `json:"notes,omitempty"`
 
 	group string
-	depth int
 	nets  map[string]string // pattern net → circuit net
-	roles map[string]string // pattern part → circuit ref
 }
 
 // Options steer Find.
@@ -264,7 +265,7 @@ func relation(a, b map[string]bool) (inside, overlap bool) {
 func evaluate(w *world, m *match) *Stage {
 	p := m.v.p
 	st := &Stage{Topology: p.ID, group: p.Group,
-		Figures: map[string]float64{}, nets: map[string]string{}, roles: map[string]string{}}
+		Figures: map[string]float64{}, nets: map[string]string{}}
 	for i, vp := range m.v.parts {
 		if !vp.pp.Shared {
 			st.Parts = append(st.Parts, w.parts[m.parts[i]].Ref)
@@ -282,7 +283,6 @@ func evaluate(w *world, m *match) *Stage {
 	var active *graph.Part
 	for i, vp := range m.v.parts {
 		part := w.parts[m.parts[i]]
-		st.roles[vp.pp.Name] = part.Ref
 		if active == nil && (isActiveDevice(vp.pp.Device) || part.Kind == graph.Valve) {
 			active = part
 		}

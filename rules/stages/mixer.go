@@ -2,6 +2,7 @@ package stages
 
 import (
 	"errors"
+	"fmt"
 	"math"
 
 	"pare/graph"
@@ -155,6 +156,16 @@ func calcMixer(x *figCtx) {
 
 // tankModel is a coil and the capacitors that tune it, between nets a and b
 // of world w.
+// gangRef names the tank's section of the gang.
+func (t *tankModel) gangRef(gang string) string {
+	for _, p := range t.caps {
+		if p.Gang == gang {
+			return p.Ref
+		}
+	}
+	return "the other section"
+}
+
 type tankModel struct {
 	w    *world
 	l    float64
@@ -229,6 +240,9 @@ func (x *figCtx) tracking(osc *tankModel, ifHz float64) {
 	}
 	x.set("track_err_max_hz", worst)
 	x.set("track_err_at_hz", worstAt)
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("tracking: %s and %s turn together, capacitance taken as linear in rotation; three-point padding exact at %s, %s and %s",
+		gangCap.Ref, sig.gangRef(gangCap.Gang), FigureText("f_hz", TrackingPoints(sig.f(1), sig.f(0))[0]),
+		FigureText("f_hz", TrackingPoints(sig.f(1), sig.f(0))[1]), FigureText("f_hz", TrackingPoints(sig.f(1), sig.f(0))[2])))
 	// Common practice, no source: tracking should stay well inside the IF
 	// pass-band; 2 % of the IF (9 kHz at 455 kHz) is taken as the line.
 	if math.Abs(worst) > 0.02*ifHz {
