@@ -12,8 +12,8 @@ import (
 // from them without crossing an AC-ground net, the output of another active
 // device, or the coupling between two windings of a transformer (an
 // interstage transformer belongs to both stages: it is kept, the far side of
-// it is not followed). A device's own output net is taken one level deep (its
-// load), and nets that a bypass capacitor holds at AC ground are taken one
+// it is not followed). From a device's own output the load is followed up to
+// the next device (which starts the next stage), and nets that a bypass capacitor holds at AC ground are taken one
 // level deep too (the cathode resistor and its bypass, the screen feed), so
 // the reduction can still explain them. Each net that crosses the cut gets a
 // port part labelled with what lies beyond ("from V1 anode", "to V3 grid", or
@@ -58,12 +58,13 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 	type visit struct {
 		p     *graph.Part
 		entry string // the pin it was reached through; "" for a seed
+		down  bool   // reached from a device's output: its load, up to the next device
 	}
 	var queue []visit
 	for _, p := range seeds {
 		if !in[p] {
 			in[p] = true
-			queue = append(queue, visit{p, ""})
+			queue = append(queue, visit{p, "", false})
 		}
 	}
 	for len(queue) > 0 {
@@ -90,15 +91,30 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			if !own && len(outputs[n]) > 0 && !containsPart(outputs[n], p) {
 				continue // another device's output: the previous stage ends here
 			}
+			down := own || v.down
 			for _, cn := range x.conns[n] {
 				q := cn.Part
-				if in[q] {
-					continue
+				if in[q] || (down && q.IsActive()) {
+					continue // the next device starts the next stage
 				}
 				in[q] = true
-				if !own {
-					queue = append(queue, visit{q, cn.Pin})
-				}
+				queue = append(queue, visit{q, cn.Pin, down})
+			}
+		}
+	}
+	// A port of the input on a net the stage uses stays: it already says
+	// what lies beyond.
+	for _, n := range c.Nets {
+		if isGround(n.Name) {
+			continue
+		}
+		used := false
+		for _, cn := range x.conns[n.Name] {
+			used = used || in[cn.Part]
+		}
+		for _, cn := range x.conns[n.Name] {
+			if used && cn.Part.Kind == graph.Port {
+				in[cn.Part] = true
 			}
 		}
 	}
@@ -108,15 +124,16 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 		if isGround(n.Name) {
 			continue
 		}
-		inside, outside := false, false
+		inside, outside, ported := false, false, false
 		for _, cn := range x.conns[n.Name] {
 			if in[cn.Part] {
 				inside = true
+				ported = ported || cn.Part.Kind == graph.Port
 			} else {
 				outside = true
 			}
 		}
-		if inside && outside {
+		if inside && outside && !ported {
 			crossing = append(crossing, n.Name)
 		}
 	}
@@ -138,6 +155,15 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 		st.Refs, st.Where = append(st.Refs, p.Ref), append(st.Where, p.Pos)
 	}
 	st.Removed = origins(cut...)
+	// New ports take refs no part of the input used, not even one the cut
+	// removes, so that every ref keeps one meaning in the log.
+	taken := map[string]bool{}
+	for _, p := range c.Parts {
+		taken[p.Ref] = true
+		for _, o := range p.From {
+			taken[o] = true
+		}
+	}
 	x.dropped = nil
 	for _, p := range cut {
 		x.Remove(p)
@@ -146,7 +172,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 	next := 1
 	for _, n := range crossing {
 		ref := ""
-		for ; ref == "" || x.parts[ref] != nil; next++ {
+		for ; ref == "" || taken[ref]; next++ {
 			ref = "P" + strconv.Itoa(next)
 		}
 		port := &graph.Part{Ref: ref, Kind: graph.Port, Label: labels[n], Pins: []graph.Pin{{Name: "1", Net: n}}}

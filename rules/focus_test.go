@@ -41,7 +41,8 @@ func TestFocus(t *testing.T) {
 	}{
 		{[]string{"V2"}, []string{"C3", "R4", "V2", "R6"}, []string{"V1", "R1", "R2", "C2", "R3"}, "from V1 anode", "a1"},
 		{[]string{"R4"}, []string{"C3", "V2"}, []string{"V1", "R3"}, "from V1 anode", "a1"},
-		{[]string{"V1"}, []string{"V1", "R1", "R3", "C3"}, []string{"V2", "R4", "R6"}, "to V2 grid", "g2"},
+		// from V1's anode its load is followed up to the next valve: the coupling capacitor and V2's grid leak
+		{[]string{"V1"}, []string{"V1", "R1", "R3", "C3", "R4"}, []string{"V2", "R5", "R6"}, "to V2 grid", "g2"},
 	}
 	for _, tc := range cases {
 		t.Run(strings.Join(tc.focus, ","), func(t *testing.T) {
@@ -92,6 +93,59 @@ func TestFocusBadNames(t *testing.T) {
 		var list graph.ErrorList
 		if !errors.As(err, &list) || !strings.Contains(err.Error(), tc.want) || !strings.HasPrefix(err.Error(), "test.toml") {
 			t.Errorf("focus %v: error %v, want a graph.ErrorList naming the file and saying %q", tc.focus, err, tc.want)
+		}
+	}
+}
+
+// An interstage transformer ends a stage: focusing on the transistor
+// example's IF amplifier keeps T3 (its input) but not the mixer beyond it.
+func TestFocusStopsAtTransformerCoupling(t *testing.T) {
+	c, err := graph.LoadFile("../examples/transistor-front-end.toml")
+	if err != nil {
+		t.Skip(err)
+	}
+	r, log := reduceChecked(t, c, Options{Level: LevelSignal, Focus: []string{"Q2"}})
+	if r.Part("T3") == nil || r.Part("Q1") != nil || r.Part("T2") != nil {
+		t.Fatalf("want T3 kept and Q1, T2 cut:\n%s", logText(log))
+	}
+}
+
+// Focus results are sound netlists too: for every active device of every
+// fixture, the cut reduces, loads back, is a fixpoint, and accounts for
+// every original part.
+func TestFocusProperties(t *testing.T) {
+	for _, path := range fixtures(t) {
+		c := loadFile(t, path)
+		for _, p := range c.Parts {
+			if !p.IsActive() {
+				continue
+			}
+			r, log := reduceChecked(t, c, Options{Level: LevelSignal, Focus: []string{p.Ref}})
+			text := written(t, r)
+			back, err := graph.Parse("focus.toml", []byte(text))
+			if err != nil {
+				t.Fatalf("%s focus %s: does not load back: %v\n%s", path, p.Ref, err, text)
+			}
+			if _, again := reduceChecked(t, back, Options{Level: LevelSignal}); again.Applied() != 0 {
+				t.Errorf("%s focus %s: not a fixpoint:\n%s", path, p.Ref, logText(again))
+			}
+			kept := map[string]bool{}
+			for _, q := range r.Parts {
+				for _, o := range q.Origins() {
+					kept[o] = true
+				}
+			}
+			removed := map[string]int{}
+			for _, s := range log.Steps {
+				for _, ref := range s.Removed {
+					removed[ref]++
+				}
+			}
+			for _, q := range c.Parts {
+				if kept[q.Ref] == (removed[q.Ref] == 1) || removed[q.Ref] > 1 {
+					t.Errorf("%s focus %s: %s kept=%v, removed %d times", path, p.Ref, q.Ref, kept[q.Ref], removed[q.Ref])
+				}
+			}
 		}
 	}
 }
