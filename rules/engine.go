@@ -466,7 +466,15 @@ type driver struct {
 // Reduce rewrites a copy of c to its small-signal path and returns it with
 // the log. c is never modified. Bad input (a focus that names nothing, a
 // part with no band where a rule needs one) gives a graph.ErrorList.
-func Reduce(c *graph.Circuit, o Options) (*graph.Circuit, *Log, error) {
+func Reduce(c *graph.Circuit, o Options) (rc *graph.Circuit, rl *Log, rerr error) {
+	// A rule that trips over input nobody foresaw must not take the program
+	// down with a stack trace: the user gets a message and the input is
+	// untouched (Reduce works on a copy).
+	defer func() {
+		if v := recover(); v != nil {
+			rc, rl, rerr = nil, nil, fmt.Errorf("reduce: internal error (please report, with the netlist): %v", v)
+		}
+	}()
 	if c == nil {
 		return nil, nil, errors.New("reduce: no circuit")
 	}

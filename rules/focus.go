@@ -102,6 +102,12 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			}
 		}
 	}
+	// Parts marked keep are never removed, not even by a focus.
+	for _, p := range c.Parts {
+		if p.Keep {
+			in[p] = true
+		}
+	}
 	// A port of the input on a net the stage uses stays: it already says
 	// what lies beyond.
 	for _, n := range c.Nets {

@@ -17,6 +17,9 @@ var staticElectrode = Rule{
 	Kinds:   []graph.Kind{graph.Valve, graph.FET, graph.BJT},
 	Match: func(x *Ctx, a Anchor) *Plan {
 		p := a.Part
+		if p.Keep {
+			return nil // keep means as drawn, electrodes and all
+		}
 		common := p.NetOf(p.PinWithRole(graph.RoleCommon))
 		var drop, reasons []string
 		add := func(pin, reason string) {

@@ -70,3 +70,12 @@ func TestStaticElectrodesNotAtTidy(t *testing.T) {
 		t.Fatalf("tidy must leave the valve alone:\n%s", logText(log))
 	}
 }
+
+// A valve marked keep stays as drawn, electrodes and all.
+func TestStaticElectrodesKeep(t *testing.T) {
+	src := strings.Replace(pentodeFixture, `gm = "2.2mA/V" }`, `gm = "2.2mA/V", keep = true }`, 1)
+	r, log := reduceChecked(t, parse(t, src), Options{Level: LevelSignal})
+	if len(r.Part("V1").Pins) != 8 || len(stepsOf(log, "static-electrode")) != 0 {
+		t.Fatalf("a kept valve lost electrodes:\n%s", logText(log))
+	}
+}
