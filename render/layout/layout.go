@@ -116,7 +116,7 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 // Bounds of the orientation search: small sheets only, a few dozen tries.
 const (
 	maxRetryCells = 300
-	maxRetries    = 16
+	maxRetries    = 10
 )
 
 // layoutOnce lays the circuit out with some orientations fixed (index into
@@ -253,7 +253,7 @@ func labelLines(p *graph.Part, o Options) []string {
 	case graph.Capacitor:
 		add(value.FormatRange(p.Value, value.Farad, value.Code))
 	case graph.Inductor:
-		add(value.Format(p.Inductance(), value.Henry, value.Code))
+		add(withUnit(value.Format(p.Inductance(), value.Henry, value.Code), "H"))
 	case graph.Crystal:
 		add(value.Format(p.Value.Max, value.Hertz, value.Code))
 	case graph.Transformer:
@@ -286,6 +286,19 @@ func labelLines(p *graph.Part, o Options) []string {
 		return []string{first, strings.Join(second, ", ")}
 	}
 	return []string{first}
+}
+
+// withUnit appends the unit where the letter code has no letter of its own
+// ("2" henries reads as "2H").
+func withUnit(code, unit string) string {
+	for _, r := range code {
+		if r < '0' || r > '9' {
+			if r != '.' {
+				return code
+			}
+		}
+	}
+	return code + unit
 }
 
 func dedupe(s []string) []string {

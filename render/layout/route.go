@@ -65,6 +65,7 @@ type router struct {
 	gen    uint32
 	heap   []heapItem
 	wide   bool // search wide windows first (while removing crossings)
+	pops   int  // states taken off the heap so far: the work budget
 }
 
 type heapItem struct{ f, s int32 }
@@ -284,6 +285,10 @@ func (rt *router) routeAll() {
 	}
 }
 
+// budget bounds the search work spent removing crossings, in heap pops:
+// generous for a stage or two, linear in the sheet's size.
+func (rt *router) budget() int { return 400000 + 200*len(rt.ly.cells) }
+
 // saved is a net's wiring, kept while trying another.
 type saved struct {
 	cells []int
@@ -356,6 +361,9 @@ func (rt *router) uncross() {
 		}
 		improved := false
 		for _, p := range pairs {
+			if rt.pops > rt.budget() {
+				return // deterministic work bound: the same input stops at the same place
+			}
 			before := rt.crossingsOf(p.a, p.b)
 			if before == 0 {
 				continue
@@ -548,7 +556,23 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, margin int) []int
 	wx1 := min(rt.w-1, int(win.X1)-rt.x0+margin)
 	wy0 := max(0, int(win.Y0)-rt.y0-margin)
 	wy1 := min(rt.h-1, int(win.Y1)-rt.y0+margin)
-	h := func(i int) int32 { return int32(stepCost * rt.distRect(i, tree)) }
+	tx0, ty0 := int(tree.X0)-rt.x0, int(tree.Y0)-rt.y0
+	tx1, ty1 := int(tree.X1)-rt.x0, int(tree.Y1)-rt.y0
+	h := func(i int) int32 {
+		x, y := i%rt.w, i/rt.w
+		d := 0
+		if x < tx0 {
+			d += tx0 - x
+		} else if x > tx1 {
+			d += x - tx1
+		}
+		if y < ty0 {
+			d += ty0 - y
+		} else if y > ty1 {
+			d += y - ty1
+		}
+		return int32(stepCost * d)
+	}
 	pdir := int(p.pin.Dir)
 	start := int32(p.cell*4 + pdir)
 	rt.heap = rt.heap[:0]
@@ -556,6 +580,7 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, margin int) []int
 	rt.push(heapItem{h(p.cell), start})
 	for len(rt.heap) > 0 {
 		it := rt.pop()
+		rt.pops++
 		s := int(it.s)
 		c, d := s/4, s%4
 		g := rt.gcost[s]
