@@ -237,8 +237,8 @@ P1 = { port = "from <stage> & \"more\"", pins = ["in"] }
 		t.Fatal(err)
 	}
 	s := &Sheet{Circuit: c, View: Faded, Faded: map[string]bool{"R2": true}, Merged: map[string]string{"R1": `"><script>`},
-		Frames:    []Frame{{Title: "S1 <svg onload=alert(1)>", Subtitle: "a & b", Parts: []string{"R1", "X1"}}},
-		Caution:   "Caution </text><script>", Furniture: []string{"IF <470> kHz"}}
+		Frames:  []Frame{{Title: "S1 <svg onload=alert(1)>", Subtitle: "a & b", Parts: []string{"R1", "X1"}}},
+		Caution: "Caution </text><script>", Furniture: []string{"IF <470> kHz"}}
 	var buf bytes.Buffer
 	if err := (Config{}).Fprint(&buf, s); err != nil {
 		t.Fatal(err)
