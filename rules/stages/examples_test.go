@@ -136,3 +136,37 @@ func TestTransistorExample(t *testing.T) {
 		t.Errorf("parts in no stage: %v", u)
 	}
 }
+
+// Every netlist in the repository, reduced at every level, goes through Find
+// without a panic or an error, and twice gives the same stages.
+func TestEveryNetlistEveryLevel(t *testing.T) {
+	var files []string
+	for _, g := range []string{"../../examples/*.toml", "../testdata/*.toml", "testdata/*.toml"} {
+		m, _ := filepath.Glob(g)
+		files = append(files, m...)
+	}
+	if len(files) == 0 {
+		t.Skip("no netlists")
+	}
+	for _, f := range files {
+		c, err := graph.LoadFile(f)
+		if err != nil {
+			continue // fixtures of bad input belong to other tests
+		}
+		for _, lvl := range []rules.Level{rules.LevelTidy, rules.LevelSignal, rules.LevelIdeal} {
+			r, log, err := rules.Reduce(c, rules.Options{Level: lvl})
+			if err != nil {
+				continue
+			}
+			a, err := Find(r, Options{Full: c, ACGround: log.ACGround})
+			if err != nil {
+				t.Errorf("%s at %s: %v", f, lvl, err)
+				continue
+			}
+			b, _ := Find(r, Options{Full: c, ACGround: log.ACGround})
+			if topologies(a) != topologies(b) {
+				t.Errorf("%s at %s: two runs differ:\n%s\n%s", f, lvl, topologies(a), topologies(b))
+			}
+		}
+	}
+}

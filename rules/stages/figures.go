@@ -194,7 +194,7 @@ func calcTank(x *figCtx) {
 	x.tankFigures(c.l, c.a, c.b, x.parts("caps"))
 	if x.word("check", "") == "if" {
 		if f, ok := x.st.Figures[x.key("f_hz")]; ok {
-			x.checkIF(x.part("coil").Ref, f)
+			x.checkIF(c.ref, f)
 		}
 	}
 }

@@ -51,6 +51,9 @@ const DefaultLimit = 20_000_000
 // budget runs out the stages found so far are returned with an error that
 // wraps ErrSearchLimit.
 func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
+	if reduced == nil {
+		return nil, errors.New("stages: no circuit to recognise")
+	}
 	lib := o.Library
 	if lib == nil {
 		var err error
@@ -345,6 +348,10 @@ var electrodeWords = map[string]map[string]string{
 }
 
 func expandTitle(t, family string) string {
+	if family == "passive" {
+		// "(passive)" tells a reader nothing; drop the parenthesis.
+		t = strings.ReplaceAll(t, " ({family})", "")
+	}
 	words := electrodeWords[family]
 	for _, k := range sortedKeys(words) {
 		t = strings.ReplaceAll(t, k, words[k])

@@ -122,13 +122,15 @@ func TestSearchLimit(t *testing.T) {
 	}
 }
 
-// Bad input to Find: a pattern directory with a broken file is an error list, not a panic.
+// A part no pattern explains is reported; ports are the sheet's
+// connections, not stages.
 func TestUnmatched(t *testing.T) {
-	c := circuit(t, "valve", `R1 = { r = "1k", pins = ["in", "gnd"] }
-P1 = { port = "from the aerial", pins = ["in"] }`)
+	c := circuit(t, "valve", `L1 = { l = "1m", pins = ["in", "x"] }
+P1 = { port = "from the aerial", pins = ["in"] }
+P2 = { port = "to the mixer", pins = ["x"] }`)
 	st := find(t, c, Options{})
-	if got := Unmatched(c, st); strings.Join(got, " ") != "R1" {
-		t.Errorf("unmatched %v, want [R1] (ports are connections, not stages)", got)
+	if got := Unmatched(c, st); strings.Join(got, " ") != "L1" {
+		t.Errorf("unmatched %v, want [L1]", got)
 	}
 }
 

@@ -487,6 +487,14 @@ R1 = { r = "1M", pins = ["g", "gnd"] }`},
 P1 = { port = "to the next stage", pins = ["out"] }`,
 		// A capacitor to ground couples nothing.
 		nearMiss: `C1 = { c = "22n", pins = ["in", "gnd"] }`},
+	{topology: "shunt-resistor", families: []string{"valve"}, want: "passive",
+		parts: `R1 = { r = "1M", pins = ["in", "gnd"] }
+@Q1(in, gnd, o)
+R2 = { r = "47k", pins = ["o", "ht"] }`,
+		// A series resistor between two signal nets shunts nothing.
+		nearMiss: `R1 = { r = "1M", pins = ["in", "x"] }
+@Q1(x, gnd, o)
+R2 = { r = "47k", pins = ["o", "ht"] }`},
 	{topology: "rectifier-half-wave", families: []string{"valve"}, want: "passive", full: true,
 		parts: `T1 = { windings = { p = "10", s = "10" }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "s", s2 = "gnd" } }
 D1 = { diode = "rectifier", pins = ["s", "out"] }
