@@ -234,6 +234,81 @@ func TestMainJobTuningRange(t *testing.T) {
 	}
 }
 
+// The stage table of each note must carry the figures a handbook gives for
+// the example's values.
+func TestMainJobStageFigures(t *testing.T) {
+	tests := []struct {
+		example, topology, label string
+		want, tol                float64
+		source                   string
+	}{
+		{"if-detector-audio", "amp-common-bypassed", "gain", -61.5385, 0.002,
+			"reference-values.md §5: −µRL/(ra+RL) with µ 100, ra 62.5 kΩ, RL 100 kΩ (R9)"},
+		{"if-detector-audio", "rc-coupling", "f c", 33.8628, 0.002,
+			"reference-values.md §4: fc = 1/(2πRC), C10 10 nF into R7 470 kΩ"},
+		{"if-detector-audio", "rc-coupling", "tau", 4.7e-3, 0.002,
+			"reference-values.md §4: τ = RC = 10 nF × 470 kΩ"},
+		{"if-detector-audio", "amp-common-bypassed", "bypass tau", 0.15, 0.002,
+			"derived from τ = RC: C13 100 µF × R8 1.5 kΩ"},
+		{"frequency-changer", "double-tuned", "kc", 0.0095346, 0.005,
+			"reference-values.md §6: kc = 1/√(Q1Q2) with T2's Q 110 and 100"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.example+"/"+tt.topology+"/"+tt.label, func(t *testing.T) {
+			ex := "../../examples/" + tt.example + ".toml"
+			if _, err := os.Stat(ex); err != nil {
+				t.Skip("example not present")
+			}
+			r := cachedJob(t, ex)
+			if r.code != exitOK {
+				t.Fatalf("exit %d: %s", r.code, r.stderr)
+			}
+			figs, ok := stageFigures(readString(t, filepath.Join(r.dir, fileNote)), tt.topology)
+			if !ok {
+				t.Fatalf("no stage %s in the note's table", tt.topology)
+			}
+			got, ok := figs[tt.label]
+			if !ok {
+				t.Fatalf("stage %s has no figure %q: %v", tt.topology, tt.label, figs)
+			}
+			if math.Abs(got-tt.want) > tt.tol*math.Abs(tt.want) {
+				t.Errorf("%s %s = %g, want %g (%s)", tt.topology, tt.label, got, tt.want, tt.source)
+			}
+		})
+	}
+}
+
+// stageFigures reads the figures cell of the first stage-table row whose
+// topology is topology: "gain -61.5, f c 33.86 Hz" → {"gain": -61.5,
+// "f c": 33.86}. Ranges ("f 1 MHz–2 MHz") are left out.
+func stageFigures(md, topology string) (map[string]float64, bool) {
+	item := regexp.MustCompile(`^(.+?) (-?[0-9.]+(?:e[-+]?[0-9]+)?)(?: ?([pnµumkMG]?)(?:Hz|s|Ω|F|H|V|A)?)?$`)
+	scale := map[string]float64{"": 1, "p": 1e-12, "n": 1e-9, "µ": 1e-6, "u": 1e-6, "m": 1e-3, "k": 1e3, "M": 1e6, "G": 1e9}
+	for _, line := range strings.Split(md, "\n") {
+		if !strings.Contains(line, "(`"+topology+"`)") {
+			continue
+		}
+		cells := strings.Split(line, " | ")
+		if len(cells) < 6 {
+			return nil, false
+		}
+		out := map[string]float64{}
+		for _, f := range strings.Split(cells[4], ", ") {
+			m := item.FindStringSubmatch(f)
+			if m == nil {
+				continue
+			}
+			v, err := strconv.ParseFloat(m[2], 64)
+			if err != nil {
+				continue
+			}
+			out[m[1]] = v * scale[m[3]]
+		}
+		return out, true
+	}
+	return nil, false
+}
+
 // lc is the resonant frequency 1/(2π√(LC)).
 func lc(l, c float64) float64 { return 1 / (2 * math.Pi * math.Sqrt(l*c)) }
 
