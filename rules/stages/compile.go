@@ -22,6 +22,7 @@ type vnet struct {
 	at      string
 	outside string
 	degree  int // terminals of the pattern on it
+	parts   int // distinct pattern parts on it: a lower bound on the bound net's parts
 }
 
 type vpart struct {
@@ -130,11 +131,16 @@ func (p *Pattern) variant(absent map[int]bool, netIdx map[string]int) *variant {
 			vp.slots = append(vp.slots, classOf[find(netIdx[n])])
 		}
 		same := true
+		counted := map[int]bool{}
 		for _, s := range vp.slots {
 			if s != vp.slots[0] {
 				same = false
 			}
 			v.nets[s].degree++
+			if !counted[s] {
+				counted[s] = true
+				v.nets[s].parts++
+			}
 		}
 		if same && len(vp.slots) > 1 && !isActiveDevice(pp.Device) {
 			return nil // a short has put this part across one net

@@ -320,12 +320,10 @@ func (s *searcher) netFits(vn *vnet, net int) bool {
 			return false
 		}
 	}
-	return net == groundNet || len(w.conns[net]) >= vn.distinctParts()
+	// Degree: the circuit net carries at least as many parts as the
+	// pattern puts on it (parts are matched one to one).
+	return net == groundNet || len(w.conns[net]) >= vn.parts
 }
-
-// distinctParts is a lower bound on the parts a net needs: the pattern's
-// terminals on it, counting a part once.
-func (vn *vnet) distinctParts() int { return min(vn.degree, 2) }
 
 // complete checks the constraints that need the whole match, then records it.
 func (s *searcher) complete(m *match) {
