@@ -50,8 +50,12 @@ func TestNoSignalNeedsEnds(t *testing.T) {
 	src := `
 band = "20..20k"
 [parts]
-R1 = { r = "1k", pins = ["a", "b"] }
-R2 = { r = "1k", pins = ["c", "d"] }
+V1 = { valve = "triode", pins = { a = "a1", g1 = "g1", k = "gnd" } }
+R1 = { r = "1M", pins = ["g1", "gnd"] }
+R2 = { r = "47k", pins = ["a1", "gnd"] }
+V2 = { valve = "triode", pins = { a = "a2", g1 = "g2", k = "gnd" } }
+R3 = { r = "1M", pins = ["g2", "gnd"] }
+R4 = { r = "47k", pins = ["a2", "gnd"] }
 `
 	_, log := reduceChecked(t, parse(t, src), Options{Level: LevelSignal})
 	if len(stepsOf(log, "no-signal")) != 0 {

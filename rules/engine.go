@@ -524,6 +524,13 @@ func Reduce(c *graph.Circuit, o Options) (rc *graph.Circuit, rl *Log, rerr error
 		x.errs.Sort()
 		return nil, nil, x.errs
 	}
+	if len(x.c.Parts) == 0 {
+		// No netlist can hold an empty circuit, and an empty sheet helps
+		// nobody: say what probably went wrong instead.
+		var l graph.ErrorList
+		l.Add(graph.Pos{File: c.File}, "nothing is left after the reduction at level %s: no part carries signal between the declared inputs and outputs (are the ends declared, and is the signal path on a rail by mistake?)", o.Level)
+		return nil, nil, l
+	}
 	dr.declined()
 	finish(x, log)
 	for _, r := range dr.rules {
