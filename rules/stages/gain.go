@@ -3,6 +3,7 @@ package stages
 import (
 	"math"
 	"math/cmplx"
+	"sort"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -271,18 +272,26 @@ func (x *figCtx) neighbourhood(depth int) *graph.Circuit {
 	}
 	c := x.w.c
 	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions}
+	idx := make([]int, 0, len(in))
+	for ci := range in {
+		idx = append(idx, ci)
+	}
+	sort.Ints(idx) // the circuit's parts are sorted by ref, so this keeps them sorted
 	used := map[string]bool{}
-	for ci, p := range x.w.parts {
-		if !in[ci] {
-			continue
-		}
+	var names []string
+	for _, ci := range idx {
+		p := x.w.parts[ci]
 		sub.Parts = append(sub.Parts, p)
 		for _, pin := range p.Pins {
-			used[pin.Net] = true
+			if !used[pin.Net] {
+				used[pin.Net] = true
+				names = append(names, pin.Net)
+			}
 		}
 	}
-	for _, n := range c.Nets {
-		if used[n.Name] {
+	sort.Strings(names)
+	for _, name := range names {
+		if n := c.Net(name); n != nil {
 			sub.Nets = append(sub.Nets, n)
 		}
 	}
