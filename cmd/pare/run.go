@@ -119,17 +119,10 @@ func runMain(e *env, opts any, args []string) int {
 		printErrors(e, "pare "+mainJob, path, err)
 		return exitBad
 	}
-	if err := os.MkdirAll(dir, 0o755); err != nil {
+	names, err := writeResults(dir, res.files)
+	if err != nil {
 		fmt.Fprintf(e.stderr, "pare %s: %v\n", mainJob, err)
 		return exitBad
-	}
-	names := make([]string, len(res.files))
-	for i, f := range res.files {
-		if err := writeFileAtomic(filepath.Join(dir, f.name), f.data); err != nil {
-			fmt.Fprintf(e.stderr, "pare %s: writing %s: %v\n", mainJob, f.name, err)
-			return exitBad
-		}
-		names[i] = f.name
 	}
 	for _, l := range res.summary {
 		fmt.Fprintln(e.stdout, l)
@@ -139,6 +132,32 @@ func runMain(e *env, opts any, args []string) int {
 		return exitFound
 	}
 	return exitOK
+}
+
+// writeResults writes each file atomically into dir, creating dir when it is
+// missing. When a write fails in a directory this run created, the files
+// already written and the directory are removed again, so a failed run never
+// leaves a half-filled new directory behind.
+func writeResults(dir string, files []outFile) ([]string, error) {
+	_, statErr := os.Stat(dir)
+	created := errors.Is(statErr, os.ErrNotExist)
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return nil, err
+	}
+	var names []string
+	for _, f := range files {
+		if err := writeFileAtomic(filepath.Join(dir, f.name), f.data); err != nil {
+			if created {
+				for _, n := range names {
+					os.Remove(filepath.Join(dir, n))
+				}
+				os.Remove(dir) // only succeeds when empty: nothing of anyone else's goes
+			}
+			return nil, fmt.Errorf("writing %s: %w", filepath.Join(dir, f.name), err)
+		}
+		names = append(names, f.name)
+	}
+	return names, nil
 }
 
 func configure(o *runOpts) (jobConfig, error) {

@@ -487,6 +487,34 @@ func TestMainJobVerificationFails(t *testing.T) {
 	}
 }
 
+// A write that fails part-way leaves no new directory behind, and leaves an
+// existing one with what was written.
+func TestWriteResultsCleansUp(t *testing.T) {
+	// A new directory whose second file cannot be written (its folder
+	// "sub" does not exist) is removed again, with the first file.
+	fresh := filepath.Join(t.TempDir(), "new")
+	_, err := writeResults(fresh, []outFile{{"a.txt", []byte("a")}, {"sub/b.txt", []byte("b")}})
+	if err == nil || !strings.Contains(err.Error(), "b.txt") {
+		t.Fatalf("want an error naming b.txt, got %v", err)
+	}
+	if _, err := os.Stat(fresh); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("the new directory was left behind (%v)", err)
+	}
+	// In a directory that was there before, nothing is taken away.
+	old := t.TempDir()
+	if _, err := writeResults(old, []outFile{{"a.txt", []byte("a")}, {"sub/b.txt", []byte("b")}}); err == nil {
+		t.Fatal("want an error")
+	}
+	if _, err := os.Stat(filepath.Join(old, "a.txt")); err != nil {
+		t.Errorf("existing directory: a.txt should stay: %v", err)
+	}
+	// And a run that works writes every file, in order.
+	names, err := writeResults(filepath.Join(old, "ok"), []outFile{{"x", []byte("1")}, {"y", []byte("2")}})
+	if err != nil || strings.Join(names, " ") != "x y" {
+		t.Errorf("got %v, %v", names, err)
+	}
+}
+
 func TestDefaultOutDir(t *testing.T) {
 	for _, c := range []struct{ in, want string }{
 		{"examples/frequency-changer.toml", "examples/frequency-changer.pare"},
