@@ -20,6 +20,15 @@ var plausible = map[Kind][2]float64{
 	Pot:       {1, 50e6},
 }
 
+// limitText prints a plausibility limit; farads from a millifarad up are
+// printed in farads ("0.1 F", not "100000 µF").
+func limitText(v float64, u value.Unit) string {
+	if u == value.Farad && v >= 1e-3 {
+		return fmt.Sprintf("%g F", v)
+	}
+	return value.Format(v, u, value.Symbol)
+}
+
 // unitOf gives the unit of a kind's main value, for messages.
 func unitOf(k Kind) value.Unit {
 	switch k {
@@ -78,7 +87,7 @@ func Check(c *Circuit) ErrorList {
 			for _, v := range []float64{p.Value.Min, p.Value.Max} {
 				if v != 0 && (v < lim[0] || v > lim[1]) {
 					w.Add(p.Pos, "%s = %s is far outside the usual range for a %s (%s to %s): check the multiplier", p.Ref,
-						value.Format(v, u, value.Symbol), p.Kind, value.Format(lim[0], u, value.Symbol), value.Format(lim[1], u, value.Symbol))
+						value.Format(v, u, value.Symbol), p.Kind, limitText(lim[0], u), limitText(lim[1], u))
 					implausible = true
 					break
 				}
