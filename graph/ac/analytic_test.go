@@ -368,3 +368,29 @@ D1 = { diode = "signal", pins = ["in", "gnd"] }
 		t.Errorf("diode: %v, want 25.852 Ω", z)
 	}
 }
+
+// Odd but loadable values give clear errors, never a panic or a NaN.
+func TestOddValues(t *testing.T) {
+	cases := []struct{ name, parts, want string }{
+		{"crystal with q 0", `X1 = { xtal = "1M", q = 0, pins = ["in", "gnd"] }`, "q must be a positive number"},
+		{"valve with gm 0 and mu", `V1 = { valve = "triode", gm = 0, mu = 20, pins = { a = "in", g1 = "gnd", k = "gnd" } }`, "do not make a model"},
+		{"winding with no inductance", `T1 = { windings = { p = "0", s = "1m" }, k = 0.1, pins = { p1 = "in", p2 = "gnd", s1 = "gnd", s2 = "gnd" } }`, "has no inductance"},
+		{"bjt with beta 0", `Q1 = { bjt = "npn", beta = 0, pins = { b = "in", c = "gnd", e = "gnd" } }`, "must be positive"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			c := mustParse(t, "band = \"1k..2k\"\n[parts]\n"+tc.parts+"\nR9 = { r = \"1k\", pins = [\"in\", \"gnd\"] }\n")
+			_, err := Impedance(c, "in", []float64{1e3}, Options{})
+			if err == nil || !strings.Contains(err.Error(), tc.want) {
+				t.Errorf("error %v, want %q", err, tc.want)
+			}
+		})
+	}
+	c := mustParse(t, highPass)
+	if _, err := Transfer(c, "in", "out", []float64{1e3}, Options{VarFrac: 1.5, VarSet: true}); err == nil {
+		t.Error("a gang setting of 1.5 was accepted")
+	}
+	if _, err := Transfer(c, "in", "out", []float64{-5}, Options{}); err == nil {
+		t.Error("a negative frequency was accepted")
+	}
+}

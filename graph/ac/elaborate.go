@@ -104,6 +104,9 @@ func elaborate(c *graph.Circuit, o Options) (*netlist, error) {
 	if o.VarSet {
 		frac = o.VarFrac
 	}
+	if !(frac >= 0 && frac <= 1) {
+		return nil, fmt.Errorf("gang setting %g: give a fraction of the travel from 0 to 1", frac)
+	}
 	var errs graph.ErrorList
 	uf := unionFind{}
 	for _, n := range c.Nets {

@@ -178,9 +178,13 @@ func crystalParams(p *graph.Part) (rm, lm, cm, c0 float64, err error) {
 	}
 	rm, hasR := p.Param("rm")
 	if !hasR {
-		rm = ws * l / paramOr(p, "q", def("crystal", "q"))
+		q := paramOr(p, "q", def("crystal", "q"))
+		if !(q > 0) || math.IsInf(q, 0) {
+			return 0, 0, 0, 0, fmt.Errorf("crystal %s: q must be a positive number, not %g", p.Ref, q)
+		}
+		rm = ws * l / q
 	}
-	if l <= 0 || c <= 0 || rm < 0 || c0 < 0 {
+	if !(l > 0) || !(c > 0) || !(rm >= 0) || !(c0 >= 0) || math.IsInf(l+c+rm+c0, 0) {
 		return 0, 0, 0, 0, fmt.Errorf("crystal %s: lm, cm must be positive and rm, c0 not negative", p.Ref)
 	}
 	return rm, l, c, c0, nil
