@@ -16,6 +16,9 @@ import (
 func ngspiceSweep(t *testing.T, netlist, sweep string) (f, v []float64) {
 	t.Helper()
 	if _, err := exec.LookPath("ngspice"); err != nil {
+		if os.Getenv("PARE_REQUIRE_NGSPICE") != "" {
+			t.Fatal("PARE_REQUIRE_NGSPICE is set but ngspice is not installed")
+		}
 		t.Skip("ngspice not installed (apt-get install -y ngspice)")
 	}
 	dir := t.TempDir()
