@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 
 	"pare/graph"
 	"pare/graph/value"
@@ -681,30 +682,28 @@ func solve(a [][]float64) []float64 {
 // "1.47 MHz", "0.1 s", "90.9 pF", "-16.5", "12 dB".
 func FigureText(key string, v float64) string {
 	switch {
-	case hasSuffix(key, "_hz"):
+	case strings.HasSuffix(key, "_hz"):
 		return value.FormatPrec(v, value.Hertz, value.Symbol, 4)
-	case hasSuffix(key, "_s"):
+	case strings.HasSuffix(key, "_s"):
 		// Time constants from a tenth of a second up read best in plain
 		// seconds ("0.1 s", "2.2 s"); shorter ones with a prefix ("4.7 ms").
 		if math.Abs(v) >= 0.1 {
 			return trimFloat(v) + " s"
 		}
 		return value.FormatPrec(v, value.Second, value.Symbol, 3)
-	case hasSuffix(key, "_f"):
+	case strings.HasSuffix(key, "_f"):
 		return value.FormatPrec(v, value.Farad, value.Symbol, 4)
-	case hasSuffix(key, "_h"):
+	case strings.HasSuffix(key, "_h"):
 		return value.FormatPrec(v, value.Henry, value.Symbol, 4)
-	case hasSuffix(key, "_ohm"):
+	case strings.HasSuffix(key, "_ohm"):
 		return value.FormatPrec(v, value.Ohm, value.Symbol, 3)
-	case hasSuffix(key, "_db"):
+	case strings.HasSuffix(key, "_db"):
 		return fmt.Sprintf("%.1f dB", v)
-	case hasSuffix(key, "_pct"):
+	case strings.HasSuffix(key, "_pct"):
 		return fmt.Sprintf("%.1f %%", v)
 	}
 	return trimFloat(v)
 }
-
-func hasSuffix(s, suf string) bool { return len(s) >= len(suf) && s[len(s)-len(suf):] == suf }
 
 // trimFloat prints a plain ratio with three significant digits, or more
 // where the integer part needs them.
@@ -728,7 +727,7 @@ func trimFloat(v float64) string {
 }
 
 func trimZeros(s string) string {
-	if !containsByte(s, '.') {
+	if !strings.Contains(s, ".") {
 		return s
 	}
 	for s[len(s)-1] == '0' {
@@ -738,15 +737,6 @@ func trimZeros(s string) string {
 		s = s[:len(s)-1]
 	}
 	return s
-}
-
-func containsByte(s string, b byte) bool {
-	for i := 0; i < len(s); i++ {
-		if s[i] == b {
-			return true
-		}
-	}
-	return false
 }
 
 // KeyFigures lists a stage's figure keys in the order a table shows them:
@@ -759,11 +749,11 @@ func KeyFigures(figs map[string]float64) []string {
 
 func figRank(k string) int {
 	switch {
-	case hasSuffix(k, "_hz"):
+	case strings.HasSuffix(k, "_hz"):
 		return 0
-	case k == "gain" || hasSuffix(k, "gain"):
+	case k == "gain" || strings.HasSuffix(k, "gain"):
 		return 1
-	case hasSuffix(k, "_s"):
+	case strings.HasSuffix(k, "_s"):
 		return 2
 	}
 	return 3
