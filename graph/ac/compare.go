@@ -182,6 +182,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 			settings = []setting{{"min", 0}, {"mid", 0.5}, {"max", 1}}
 		}
 	}
+	marks := append(landmarks(orig), landmarks(reduced)...)
 	for _, q := range qs {
 		worst := Pair{From: q.from, To: q.to, What: q.what}
 		bestScore := -1.0
@@ -206,7 +207,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 				worst.Setting = st.label
 				break
 			}
-			p, err := sweepPair(po, pr, q.bands, o.Points, o.TolDB, o.TolDeg)
+			p, err := sweepPair(po, pr, q.bands, o.Points, o.TolDB, o.TolDeg, marks)
 			if err != nil {
 				if p.origFailed {
 					return nil, fmt.Errorf("original circuit: %s: %w", worst.Label(), err)
@@ -240,6 +241,39 @@ func contains(list []string, s string) bool {
 		}
 	}
 	return false
+}
+
+// landmarks are frequencies worth a sweep point of their own: the named
+// frequencies of the circuit (its IF) and each crystal's series and parallel
+// resonance, whose width (a few hertz at Q 50 000) slips between the points
+// of any log grid.
+func landmarks(c *graph.Circuit) []float64 {
+	var out []float64
+	names := make([]string, 0, len(c.Freqs))
+	for n := range c.Freqs {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		if f := c.Freqs[n]; f > 0 {
+			out = append(out, f)
+		}
+	}
+	for _, p := range c.Parts {
+		if p.Kind != graph.Crystal {
+			continue
+		}
+		_, lm, cm, c0, err := crystalParams(p)
+		if err != nil {
+			continue
+		}
+		fs := 1 / (2 * math.Pi * math.Sqrt(lm*cm))
+		out = append(out, fs)
+		if c0 > 0 {
+			out = append(out, fs*math.Sqrt(1+cm/c0))
+		}
+	}
+	return out
 }
 
 type setting struct {
@@ -520,10 +554,17 @@ type pairResult struct {
 }
 
 // sweepPair runs the coarse sweep and the refinement for one quantity.
-func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg float64) (pairResult, error) {
+func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg float64, marks []float64) (pairResult, error) {
 	var freqs []float64
 	for _, b := range bands {
 		freqs = append(freqs, logSweep(b.Min, b.Max, points)...)
+		// Resonances too narrow for any grid (a crystal's) are visited
+		// directly, with a point either side for the refinement to work on.
+		for _, f := range marks {
+			if f >= b.Min && f <= b.Max {
+				freqs = append(freqs, f*(1-1e-6), f, f*(1+1e-6))
+			}
+		}
 	}
 	freqs = sortUnique(freqs)
 	ho := map[float64]complex128{}

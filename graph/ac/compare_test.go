@@ -204,3 +204,48 @@ func TestCompareReducedUnsolvable(t *testing.T) {
 		t.Errorf("worst %s, want the reason", w)
 	}
 }
+
+// A crystal of Q 50 000 at 1 MHz is 20 Hz wide; a coarse grid over
+// 0.9–1.1 MHz is 2 kHz apart. Moving its series frequency by 10 Hz (half a
+// bandwidth) changes the transfer through it into 50 Ω by about 2 dB at fs
+// (derived from the four-element equivalent: Rm 159 Ω, Xm = 2·Lm·2π·10 Hz
+// = 159 Ω) and by hundredths of a dB a grid step away. The refined sweep must
+// find what a brute-force sweep in 0.5 Hz steps finds.
+func TestCompareFindsCrystal(t *testing.T) {
+	src := `band = "900k..1.1M"
+inputs = ["in"]
+outputs = ["out"]
+[parts]
+X1 = { xtal = "1M", c0 = "1p", pins = ["in", "out"] }
+R1 = { r = "50", pins = ["out", "gnd"] }
+`
+	orig := mustParse(t, src)
+	red := orig.Clone()
+	red.Part("X1").Value.Min, red.Part("X1").Value.Max = 1.00001e6, 1.00001e6
+	r, err := Compare(orig, red, CompareOptions{Points: 100})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var got Pair
+	for _, p := range r.Pairs {
+		if p.What == "transfer" {
+			got = p
+		}
+	}
+	var freqs []float64
+	for f := 0.9999e6; f < 1.0001e6; f += 0.5 {
+		freqs = append(freqs, f)
+	}
+	ho, _ := Transfer(orig, "in", "out", freqs, Options{})
+	hr, _ := Transfer(red, "in", "out", freqs, Options{})
+	want := 0.0
+	for i := range freqs {
+		want = math.Max(want, math.Abs(20*math.Log10(cmplx.Abs(hr[i])/cmplx.Abs(ho[i]))))
+	}
+	if want < 1.5 {
+		t.Fatalf("test premise: brute force found only %.2f dB", want)
+	}
+	if math.Abs(got.MaxDB-want) > 0.02*want {
+		t.Errorf("refined sweep found %s, brute force %.3f dB", got, want)
+	}
+}
