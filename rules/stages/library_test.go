@@ -1,6 +1,10 @@
 package stages
 
-import "testing"
+import (
+	"os"
+	"strings"
+	"testing"
+)
 
 // The embedded library must load without a single message: a broken
 // built-in pattern is a build mistake, and users would see it on every run.
@@ -14,5 +18,27 @@ func TestBuiltinLoads(t *testing.T) {
 	}
 	for _, p := range lib.Patterns {
 		t.Logf("%-34s %-10s variants %d", p.ID, p.Group, len(p.variants))
+	}
+}
+
+// docs/patterns.md lists every built-in topology, so the page stays true.
+func TestDocsListEveryPattern(t *testing.T) {
+	doc, err := os.ReadFile("../../docs/patterns.md")
+	if err != nil {
+		t.Skipf("docs not found: %v", err)
+	}
+	lib, err := Builtin()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, p := range lib.Patterns {
+		if !strings.Contains(string(doc), "`"+p.ID+"`") {
+			t.Errorf("docs/patterns.md does not list %s", p.ID)
+		}
+	}
+	for name := range calcs {
+		if !strings.Contains(string(doc), "| `"+name+"` |") {
+			t.Errorf("docs/patterns.md does not describe calc %s", name)
+		}
 	}
 }
