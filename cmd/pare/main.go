@@ -17,6 +17,8 @@ import (
 	"os"
 	"sort"
 	"strings"
+
+	"pare/graph"
 )
 
 // version is the release this build reports; bumped by hand at release.
@@ -190,16 +192,18 @@ func commandHelp(w io.Writer, c *command) {
 }
 
 func suggestCommand(name string) string {
-	best := ""
+	names := make([]string, 0, len(commands))
 	for n := range commands {
-		if strings.HasPrefix(n, name) || strings.HasPrefix(name, n) {
-			if best == "" || n < best {
-				best = n
-			}
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		if strings.HasPrefix(n, name) {
+			return fmt.Sprintf(" (did you mean %q?)", n)
 		}
 	}
-	if best != "" {
-		return fmt.Sprintf(" (did you mean %q?)", best)
+	if s := graph.Suggest(name, names); s != "" {
+		return fmt.Sprintf(" (did you mean %q?)", s)
 	}
 	return ""
 }

@@ -29,7 +29,13 @@ func writeFileAtomic(path string, data []byte) error {
 		os.Remove(name)
 		return err
 	}
-	if err := os.Chmod(name, 0o644); err != nil {
+	// Keep the mode of a file being replaced (pare fmt rewrites in place);
+	// a new file gets the usual 0644.
+	mode := os.FileMode(0o644)
+	if st, err := os.Stat(path); err == nil {
+		mode = st.Mode().Perm()
+	}
+	if err := os.Chmod(name, mode); err != nil {
 		os.Remove(name)
 		return err
 	}
