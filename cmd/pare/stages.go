@@ -23,7 +23,7 @@ type stagesOpts struct {
 func init() {
 	register(&command{
 		name:    "stages",
-		args:    "FILE [--json] [--patterns DIR] [--level tidy|signal|ideal]",
+		args:    "FILE [--json] [--patterns DIR] [--level tidy|signal|ideal] [--limit N]",
 		summary: "name the stages of a circuit by their topology and compute the figures a repairer checks",
 		detail: `Reduces the circuit (at --level, default signal), then finds every stage
 topology of the pattern library in the reduced circuit: oscillators, amplifiers,
