@@ -131,6 +131,11 @@ func (x *Ctx) rebuild() {
 			x.conns[pin.Net] = append(x.conns[pin.Net], graph.Conn{Part: p, Pin: pin.Name})
 		}
 	}
+	// Parts come in ref order but a part's pins in terminal order: sort
+	// fully, so that lookups can search.
+	for _, list := range x.conns {
+		sort.Slice(list, func(i, j int) bool { return connLess(list[i], list[j]) })
+	}
 }
 
 // Circuit is the circuit being reduced.
@@ -260,8 +265,10 @@ func (x *Ctx) addConn(net string, cn graph.Conn) {
 
 func (x *Ctx) delConn(net string, p *graph.Part, pin string) {
 	list := x.conns[net]
-	for i, cn := range list {
-		if cn.Part == p && cn.Pin == pin {
+	key := graph.Conn{Part: p, Pin: pin}
+	i := sort.Search(len(list), func(i int) bool { return !connLess(list[i], key) })
+	for ; i < len(list) && list[i].Part.Ref == p.Ref; i++ { // sorted by ref and pin: a short look
+		if list[i].Part == p && list[i].Pin == pin {
 			x.conns[net] = append(list[:i], list[i+1:]...)
 			break
 		}
