@@ -23,6 +23,9 @@ var bypass = Rule{
 	Match: func(x *Ctx, a Anchor) *Plan {
 		p := a.Part
 		net, gnd := Ends(p, a.Flip)
+		if p.Type == graph.CapVariable || p.Type == graph.CapTrimmer {
+			return nil // a tuning element, never a bypass
+		}
 		if p.Kind != graph.Capacitor || p.Keep || len(p.Pins) != 2 || net == "nc" || gnd == "nc" || net == gnd {
 			return nil
 		}
