@@ -42,3 +42,17 @@ func TestDocsListEveryPattern(t *testing.T) {
 		}
 	}
 }
+
+// Each built-in pattern lives in the file named after its id, so a message
+// about a pattern points at the file a reader expects.
+func TestPatternFilesNamedByID(t *testing.T) {
+	lib, err := Builtin()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, p := range lib.Patterns {
+		if want := "patterns/" + p.ID + ".toml"; p.Pos.File != want {
+			t.Errorf("pattern %s is in %s, want %s", p.ID, p.Pos.File, want)
+		}
+	}
+}
