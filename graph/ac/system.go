@@ -131,10 +131,10 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 	}
 	// Coordinates of every entry, then compress.
 	type entry struct {
-		row, col, val int32
-		sign          float64
+		row, col, val, ord int32
+		sign               float64
 	}
-	var ents []entry
+	ents := make([]entry, 0, 4*len(nl.prims)+8*len(nl.groups))
 	var rhs []stamp
 	add := func(row, col, val int, sign float64) {
 		if row < 0 {
@@ -142,7 +142,7 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 		}
 		switch {
 		case col >= 0:
-			ents = append(ents, entry{int32(row), int32(col), int32(val), sign})
+			ents = append(ents, entry{int32(row), int32(col), int32(val), int32(len(ents)), sign})
 		case col == unkDriven:
 			rhs = append(rhs, stamp{slot: -1, rhs: int32(row), val: int32(val), neg: sign < 0})
 		}
@@ -237,14 +237,19 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 		what[perm[old]] = w
 	}
 	s.what = what
-	// Compress to CSC, merging duplicates into one slot.
-	slices.SortStableFunc(ents, func(x, y entry) int {
+	// Compress to CSC, merging duplicates into one slot. The stamp order
+	// breaks ties, so the sums are added in the same order on every run.
+	slices.SortFunc(ents, func(x, y entry) int {
 		if x.col != y.col {
 			return cmp.Compare(x.col, y.col)
 		}
-		return cmp.Compare(x.row, y.row)
+		if x.row != y.row {
+			return cmp.Compare(x.row, y.row)
+		}
+		return cmp.Compare(x.ord, y.ord)
 	})
-	s.a = csc{n: s.n, p: make([]int, s.n+1)}
+	s.a = csc{n: s.n, p: make([]int, s.n+1), i: make([]int, 0, len(ents))}
+	s.stamps = make([]stamp, 0, len(ents)+len(rhs))
 	for i, e := range ents {
 		if i == 0 || e.row != ents[i-1].row || e.col != ents[i-1].col {
 			s.a.i = append(s.a.i, int(e.row))
