@@ -38,6 +38,7 @@ func init() {
 		"smoothing":    {args: []string{"c1", "series", "c2"}, required: []string{"c1", "series", "c2"}, fn: calcSmoothing},
 		"value":        {args: []string{"part", "key"}, required: []string{"part", "key"}, wordArgs: []string{"key"}, fn: calcValue},
 		"ratio":        {args: []string{"xfmr"}, required: []string{"xfmr"}, fn: calcRatio},
+		"tuned-gain":   {args: []string{"device", "coil", "winding", "caps"}, required: []string{"device", "coil", "caps"}, wordArgs: []string{"winding"}, fn: calcTunedGain},
 	}
 }
 

@@ -166,6 +166,25 @@ R1 = { r = "1k", pins = ["k", "gnd"] }`, "amp-follower", "gain", 0.974799, 1e-5}
 R1 = { r = "10k", pins = ["o", "ht"] }`, "amp-common", "gain", -50, 1e-9},
 	{"source follower", "fet", "", `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`, "amp-follower", "gain", 0.833333, 1e-5},
+	// Tuned stage: Rd = Q·ω0·L = 100 · 2π · 455 kHz · 1 mH = 285.885 kΩ
+	// (reference-values §6 parallel R); FET gm 5 mS → −gm·Rd = −1429.42 (derived).
+	{"tuned rdyn", "fet", "", `@Q1(in, gnd, o)
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C1 = { c = "122.354p", pins = ["o", "ht"] }
+C2 = { c = "122.354p", pins = ["s", "gnd"] }`, "amp-tuned", "r_dyn_ohm", 285.885e3, 2e-5},
+	{"tuned gain", "fet", "", `@Q1(in, gnd, o)
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C1 = { c = "122.354p", pins = ["o", "ht"] }
+C2 = { c = "122.354p", pins = ["s", "gnd"] }`, "amp-tuned", "gain_unloaded", -1429.42, 2e-5},
+	// Collector on a tap a third of the turns up (75 µH of 675 µH, fully
+	// coupled: n = √75/(√75+√300) = 1/3, derived): 38.6817 mS (§5, Ic 1 mA)
+	// × Rd/9 with Rd = 110 · 2π · 456.596 kHz · 675 µH = 213.014 kΩ → −915.53.
+	{"tap share", "bjt", "", `@Q1(in, gnd, o)
+T1 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, q = 110, pins = { p1 = "ht", pt = "o", p2 = "hot", s1 = "s", s2 = "gnd" } }
+C1 = { c = "180p", pins = ["hot", "ht"] }`, "amp-tuned-tapped", "tap_share", 1.0 / 3, 1e-9},
+	{"tapped tuned gain", "bjt", "", `@Q1(in, gnd, o)
+T1 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, q = 110, pins = { p1 = "ht", pt = "o", p2 = "hot", s1 = "s", s2 = "gnd" } }
+C1 = { c = "180p", pins = ["hot", "ht"] }`, "amp-tuned-tapped", "gain_unloaded", -915.53, 1e-5},
 	// Phase shift: f = 1/(2πRC√6) with 10 kΩ, 10 nF → 649.747 Hz (derived).
 	{"phase shift", "fet", "", `@Q1(g, gnd, o)
 R9 = { r = "10k", pins = ["o", "ht"] }

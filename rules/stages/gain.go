@@ -297,3 +297,89 @@ func (x *figCtx) neighbourhood(depth int) *graph.Circuit {
 	}
 	return sub
 }
+
+// calcTunedGain: a tuned stage's load at resonance is the tank's dynamic
+// resistance Rd = Q·ω0·L (handbook formula, from memory); with the output
+// electrode on a tap it sees Rd·n², n the tap's share of the turns counted
+// from the cold end (turns go with √L on one core). The gain to the output
+// electrode is then −gm·(Rd·n² ∥ ra) with the secondary's load left out:
+// gain_unloaded, an upper bound. (No AC cross-check here yet: the coupled
+// secondary's loading is where the formula and a solver part ways, and that
+// comparison needs its own reference first.)
+func calcTunedGain(x *figCtx) {
+	p := x.part("device")
+	c, ok := x.coil("coil")
+	if p == nil || !ok {
+		return
+	}
+	d := deviceOf(p)
+	q := c.q
+	if q == 0 {
+		if t := x.part("coil"); t != nil {
+			q, _ = t.Param("q")
+		}
+	}
+	f0 := resonance(c.l, capBetween(x.w, x.parts("caps"), c.a, c.b, 0.5))
+	if q <= 0 || math.IsNaN(f0) {
+		return
+	}
+	rd := q * 2 * math.Pi * f0 * c.l
+	x.set("r_dyn_ohm", rd)
+	n := x.tapShare()
+	x.set("tap_share", n)
+	if d.missing != "" {
+		x.flag("gain not computed: give %s %s", p.Ref, d.missing)
+		return
+	}
+	rOut := d.rOut
+	if d.kind == graph.Valve {
+		rOut = d.ra
+	}
+	gm := d.gm
+	if d.kind == graph.Valve && gm == 0 && d.ra > 0 {
+		gm = d.mu / d.ra
+	}
+	x.set("gain_unloaded", -gm*parallel(rd*n*n, rOut))
+}
+
+// tapShare is the share of the tuned winding's turns between its cold end
+// and the tap the output electrode is on: 1 when it is on the hot end.
+func (x *figCtx) tapShare() float64 {
+	i := x.index(x.spec.Args["coil"][0])
+	if i < 0 || len(x.m.coils[i]) == 0 {
+		return 1
+	}
+	ci := x.m.parts[i]
+	p := x.w.parts[ci]
+	cl := x.w.coils[ci][x.m.coils[i][0]]
+	if len(cl.pins) != 3 {
+		return 1
+	}
+	var out int = -1
+	for _, pin := range x.m.v.parts[x.index(x.spec.Args["device"][0])].pp.Pins {
+		if pin.Key == "output" {
+			out = x.w.netID[x.st.nets[pin.Net]]
+		}
+	}
+	if x.w.pinNet(ci, cl.pins[1]) != out {
+		return 1
+	}
+	// The halves: first pin to tap, tap to last pin; the cold end is the one at AC ground.
+	var la, lb float64
+	for _, w := range p.Windings {
+		if w.From == cl.pins[0] && w.To == cl.pins[1] {
+			la = w.L
+		}
+		if w.From == cl.pins[1] && w.To == cl.pins[2] {
+			lb = w.L
+		}
+	}
+	if la <= 0 || lb <= 0 {
+		return 1
+	}
+	cold := la
+	if x.w.pinNet(ci, cl.pins[2]) == groundNet {
+		cold = lb
+	}
+	return math.Sqrt(cold) / (math.Sqrt(la) + math.Sqrt(lb))
+}
