@@ -126,3 +126,30 @@ K1 L1 L2 0.01`, "lin 8001 445k 465k")
 		t.Errorf("ngspice bandwidth %.1f Hz, stage bw_hz %.1f Hz", bw, want)
 	}
 }
+
+// A transistor IF stage with the collector on a tap a third of the way up
+// its tuned winding, as a simulator sees it: a transconductance into the
+// tap, the two fully coupled halves, the tuning capacitor and the tank loss
+// as a parallel resistance. The peak is the stage's gain_unloaded.
+func TestTappedTunedGainAgainstNgspice(t *testing.T) {
+	c := circuit(t, "bjt", `@Q1(in, gnd, o)
+T1 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, q = 110, pins = { p1 = "ht", pt = "o", p2 = "hot", s1 = "s", s2 = "gnd" } }
+C1 = { c = "180p", pins = ["hot", "ht"] }`)
+	s := stageOf(find(t, c, Options{}), "amp-tuned-tapped")
+	if s == nil {
+		t.Fatal("no tapped tuned amplifier")
+	}
+	// gm = Ic/VT (reference-values §5); the loss resistance is the stage's own r_dyn_ohm.
+	gm := 1e-3 / thermalVoltage
+	f, v := ngspiceSweep(t, `V1 in 0 DC 0 AC 1
+G1 out 0 in 0 `+strconv.FormatFloat(gm, 'g', 12, 64)+`
+La out 0 75u
+Lb hot out 300u
+K1 La Lb 0.999999
+C1 hot 0 180p
+R1 hot 0 `+strconv.FormatFloat(s.Figures["r_dyn_ohm"], 'g', 12, 64), "lin 2001 450k 463k")
+	_, vp := peak(f, v)
+	if want := -s.Figures["gain_unloaded"]; math.Abs(vp-want) > 0.002*want {
+		t.Errorf("ngspice peak gain %.2f, stage gain_unloaded %.2f", vp, -want)
+	}
+}
