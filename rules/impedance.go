@@ -8,24 +8,27 @@ import (
 )
 
 // Small-signal device figures used when a netlist gives none. They serve
-// only to bound the impedance a terminal presents, so each comes as a low
-// and a high value: bypass and coupling judgements take the low one (they
-// must hold against the stiffest load), choke judgements the high one.
-// Typical receiving valves and small transistors (from memory).
+// only to bound the impedance a terminal presents, so the output resistances
+// come as a low and a high value: bypass and coupling judgements take the
+// low one (they must hold against the stiffest load), choke judgements the
+// high one. The central values are the ones graph/ac's models use
+// (ac.Defaults; a test holds the two tables together), typical of domestic
+// receiving valves and small transistors (from memory).
 var deviceDefaults = struct {
-	valveGm                  float64 // S
-	triodeRaLow, triodeRaHi  float64 // Ω
-	multiRaLow, multiRaHi    float64 // Ω, tetrodes to octodes
-	screenFactor             float64 // a further grid drawing current looks like screenFactor/gm
-	bjtIc, bjtBeta           float64
-	bjtRoLow, bjtRoHi        float64
-	fetGm, fetRdLow, fetRdHi float64
-	vt                       float64 // thermal voltage at 300 K
+	triodeGm, pentodeGm, multigridGm float64 // S
+	triodeRaLow, triodeRaHi          float64 // Ω
+	multiRaLow, multiRaHi            float64 // Ω, tetrodes to octodes
+	screenFactor                     float64 // a further grid drawing current looks like screenFactor/gm
+	bjtIc, bjtBeta                   float64
+	bjtRoLow, bjtRoHi                float64
+	fetGm, fetRdLow, fetRdHi         float64
+	vt                               float64 // thermal voltage at 300 K
 }{
-	valveGm: 2.5e-3, triodeRaLow: 5e3, triodeRaHi: 100e3, multiRaLow: 300e3, multiRaHi: 2e6,
+	triodeGm: 2e-3, pentodeGm: 2e-3, multigridGm: 0.5e-3,
+	triodeRaLow: 5e3, triodeRaHi: 100e3, multiRaLow: 300e3, multiRaHi: 2e6,
 	screenFactor: 4, // screen current is about a quarter of the cathode current (from memory, rough)
 	bjtIc:        1e-3, bjtBeta: 100, bjtRoLow: 10e3, bjtRoHi: 1e6,
-	fetGm: 5e-3, fetRdLow: 10e3, fetRdHi: 1e6,
+	fetGm: 4e-3, fetRdLow: 10e3, fetRdHi: 1e6,
 	vt: 0.025852, // kT/q at 300 K, reference-values.md §5 (SI 2019 exact constants)
 }
 
@@ -38,7 +41,13 @@ func valveGm(p *graph.Part) float64 {
 			return mu / ra
 		}
 	}
-	return deviceDefaults.valveGm
+	switch p.Type {
+	case "triode":
+		return deviceDefaults.triodeGm
+	case "tetrode", "pentode":
+		return deviceDefaults.pentodeGm
+	}
+	return deviceDefaults.multigridGm
 }
 
 func valveRa(p *graph.Part, high bool) float64 {
