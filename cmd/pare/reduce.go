@@ -228,10 +228,29 @@ func printReduceLog(w io.Writer, path string, log *rules.Log, out string) {
 	fmt.Fprintln(w, reduceCaution)
 }
 
+// stepJSON is a step with the places of its parts as file:line strings,
+// parallel to refs (Step keeps graph.Pos out of its own JSON).
+type stepJSON struct {
+	rules.Step
+	At []string `json:"at,omitempty"`
+}
+
+func stepsJSON(steps []rules.Step) []stepJSON {
+	out := make([]stepJSON, 0, len(steps))
+	for _, s := range steps {
+		j := stepJSON{Step: s}
+		for _, p := range s.Where {
+			j.At = append(j.At, p.Short())
+		}
+		out = append(out, j)
+	}
+	return out
+}
+
 type reduceJSON struct {
 	Level    string              `json:"level"`
-	Steps    []rules.Step        `json:"steps"`
-	Declined []rules.Step        `json:"declined"`
+	Steps    []stepJSON          `json:"steps"`
+	Declined []stepJSON          `json:"declined"`
 	Before   countJSON           `json:"before"`
 	After    countJSON           `json:"after"`
 	ACGround []string            `json:"ac_ground"`
@@ -248,16 +267,10 @@ type countJSON struct {
 
 func writeReduceJSON(w io.Writer, log *rules.Log, netlist string) error {
 	j := reduceJSON{
-		Level: log.Level.String(), Steps: log.Steps, Declined: log.Declined,
+		Level: log.Level.String(), Steps: stepsJSON(log.Steps), Declined: stepsJSON(log.Declined),
 		Before:   countJSON{log.Before.Parts, log.Before.Nets},
 		After:    countJSON{log.After.Parts, log.After.Nets},
 		ACGround: log.ACGround, Gangs: log.Gangs, Hits: log.Hits, Caution: reduceCaution, Circuit: netlist,
-	}
-	if j.Steps == nil {
-		j.Steps = []rules.Step{}
-	}
-	if j.Declined == nil {
-		j.Declined = []rules.Step{}
 	}
 	if j.ACGround == nil {
 		j.ACGround = []string{}

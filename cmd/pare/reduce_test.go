@@ -84,6 +84,8 @@ func TestReduceOutputAndJSON(t *testing.T) {
 			Removed []string `json:"removed"`
 			Merged  []string `json:"merged"`
 			Why     string   `json:"why"`
+			Refs    []string `json:"refs"`
+			At      []string `json:"at"`
 		} `json:"steps"`
 		Before  struct{ Parts, Nets int } `json:"before"`
 		After   struct{ Parts, Nets int } `json:"after"`
@@ -94,6 +96,11 @@ func TestReduceOutputAndJSON(t *testing.T) {
 	}
 	if len(doc.Steps) == 0 || doc.Steps[0].Rule == "" || doc.Steps[0].Why == "" {
 		t.Errorf("steps lack rule or why: %+v", doc.Steps)
+	}
+	for _, s := range doc.Steps {
+		if len(s.At) != len(s.Refs) || (len(s.At) > 0 && !strings.Contains(s.At[0], "if-detector-audio.toml:")) {
+			t.Errorf("step %s: at %v does not match refs %v", s.Rule, s.At, s.Refs)
+		}
 	}
 	if doc.Before.Parts != 37 || doc.After.Parts != len(c.Parts) {
 		t.Errorf("counts %+v → %+v, want 37 → %d", doc.Before, doc.After, len(c.Parts))
