@@ -77,53 +77,80 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	if c == nil {
 		return nil, fmt.Errorf("layout: no circuit")
 	}
-	res, ly, crossings := layoutOnce(c, o, nil)
+	res, ly, crossings := layoutOnce(c, o, nil, false)
 	if crossings == 0 || !o.Untangle || len(ly.cells) > maxRetryCells {
 		return res, nil
 	}
 	// Crossings left after rerouting come from the placement: try the other
-	// orientations of the parts on crossing nets (coils, transformers) and
-	// keep the first that has fewer crossings, a bounded local search.
-	turns := map[string]int{}
+	// orientations of the parts on crossing nets (coils, transformers), or
+	// a part moved down its column, with parts lined up on the signal line
+	// or along their nets; keep each change that lowers the crossings. A
+	// bounded greedy local search.
 	tried := 0
-	for _, cl := range ly.cells {
-		if !ly.crossing[cl.ref] {
-			continue
+	for _, free := range []bool{false, true} {
+		turns := map[string]int{}
+		cur, curLy, curX := res, ly, crossings
+		if free {
+			cur, curLy, curX = layoutOnce(c, o, nil, true)
 		}
-		n := len(cl.turns)
-		for t := 0; t < n && tried < maxRetries; t++ {
-			if t == cl.turn {
-				continue
-			}
-			tried++
-			trial := map[string]int{}
-			for k, v := range turns {
-				trial[k] = v
-			}
-			trial[cl.ref] = t
-			r2, _, x2 := layoutOnce(c, o, trial)
-			if x2 < crossings {
-				res, crossings, turns = r2, x2, trial
-				if crossings == 0 {
-					return res, nil
+		for pass := 0; pass < 2 && curX > 0; pass++ {
+			for _, cl := range curLy.cells {
+				if !curLy.crossing[cl.ref] || curX == 0 {
+					continue
+				}
+				n := len(cl.turns)
+				for t := 0; t <= n+2 && tried < maxRetries && curX > 0; t++ {
+					if t == cl.turn && t < n {
+						continue
+					}
+					tried++
+					trial := map[string]int{}
+					for k, v := range turns {
+						trial[k] = v
+					}
+					switch {
+					case t == n:
+						trial[sinkKey+cl.ref] = 1
+					case t > n:
+						trial[shiftKey+cl.ref] = 2*(t-n) - 3 // one layer left, then right
+					default:
+						trial[cl.ref] = t
+					}
+					r2, ly2, x2 := layoutOnce(c, o, trial, free)
+					if x2 < curX {
+						cur, curLy, curX, turns = r2, ly2, x2, trial
+					}
 				}
 			}
+		}
+		if curX < crossings {
+			res, crossings = cur, curX
+		}
+		if crossings == 0 {
+			break
 		}
 	}
 	return res, nil
 }
 
+// sinkKey marks, in the search's turns map, a part moved to the bottom of
+// its column.
+const sinkKey = "sink:"
+
+// shiftKey marks a part moved one layer left (-1) or right (+1).
+const shiftKey = "shift:"
+
 // Bounds of the orientation search: small sheets only, a few dozen tries.
 const (
 	maxRetryCells = 300
-	maxRetries    = 10
+	maxRetries    = 80
 )
 
 // layoutOnce lays the circuit out with some orientations fixed (index into
 // each symbol's Turns) and returns the sheet and its number of crossings.
-func layoutOnce(c *graph.Circuit, o Options, turns map[string]int) (*Result, *state, int) {
+func layoutOnce(c *graph.Circuit, o Options, turns map[string]int, free bool) (*Result, *state, int) {
 	cells := makeCells(c, o)
-	ly := &state{c: c, o: o, cells: cells, turns: turns, crossing: map[string]bool{}}
+	ly := &state{c: c, o: o, cells: cells, turns: turns, crossing: map[string]bool{}, free: free}
 	if len(cells) == 0 {
 		return &Result{}, ly, 0
 	}
@@ -337,6 +364,7 @@ type state struct {
 	// orientation search: fixed turns by ref, and refs on crossing nets
 	turns    map[string]int
 	crossing map[string]bool
+	free     bool // no common signal line: every part lines up along its nets
 	// frameStage is the stage (index into Options.Frames) of each frame drawn
 	frameStage []int
 }
@@ -468,6 +496,39 @@ func (ly *state) rank() {
 			best = 0
 		}
 		rank[cl.ref] = best
+	}
+	// the parts from an active part's common terminal to ground (cathode or
+	// emitter resistor and bypass) stand under it, in its layer
+	common := map[string]int{}
+	var commonNets []string
+	for _, cl := range ly.cells {
+		if cl.part.IsActive() {
+			if pin := cl.part.PinWithRole(graph.RoleCommon); pin != "" {
+				n := cl.part.NetOf(pin)
+				if !ly.c.RoleOf(n).IsACGround() {
+					if _, ok := common[n]; !ok {
+						commonNets = append(commonNets, n)
+					}
+					common[n] = rank[cl.ref]
+				}
+			}
+		}
+	}
+	for _, cl := range ly.cells {
+		if cl.part.IsActive() {
+			continue
+		}
+		nets := ly.signalNets(cl)
+		if len(nets) == 1 && len(cl.part.Pins) == 2 {
+			if r, ok := common[nets[0]]; ok {
+				rank[cl.ref] = r
+			}
+		}
+	}
+	for _, cl := range ly.cells {
+		if d, ok := ly.turns[shiftKey+cl.ref]; ok && rank[cl.ref]+d >= 0 {
+			rank[cl.ref] += d
+		}
 	}
 	ly.rankOf = rank
 	// Output flags and ports on output nets go to the right edge, ports on
@@ -636,7 +697,7 @@ func (ly *state) orient() {
 		for i, o := range base.Turns {
 			s := base.Oriented(o)
 			score := ly.score(cl, s)
-			if t, ok := ly.turns[cl.ref]; ok {
+			if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, base.Oriented(base.Turns[t])) {
 				score = 0
 				if t == i {
 					score = 1
@@ -648,6 +709,24 @@ func (ly *state) orient() {
 		}
 		cl.shape = best
 	}
+}
+
+// upright says whether a symbol keeps grounds from pointing up and rails
+// from pointing down: the search for fewer crossings may only choose such.
+func upright(c *graph.Circuit, s symbol.Shape) bool {
+	for _, p := range s.Pins {
+		switch c.RoleOf(p.Net) {
+		case graph.Ground, graph.Bias:
+			if p.Dir == geom.Up {
+				return false
+			}
+		case graph.Supply, graph.Heater:
+			if p.Dir == geom.Down {
+				return false
+			}
+		}
+	}
+	return true
 }
 
 func (ly *state) score(cl *cell, s symbol.Shape) float64 {

@@ -226,6 +226,18 @@ func (ly *state) place() {
 		bottom := math.Inf(-1)
 		for _, b := range col {
 			want, found := 0.0, false
+			// parts in the signal path (active parts, series parts,
+			// transformers) put their first wired left pin on the sheet's
+			// signal line, y = 0, so a long chain does not climb stage by
+			// stage; shunt parts hang from the net they sit on
+			if cl := b.cells[0]; !ly.free && len(b.cells) == 1 && !isVertical(cl) {
+				for _, p := range cl.shape.Pins {
+					if p.Dir == geom.Left && !ly.c.RoleOf(p.Net).IsACGround() {
+						want, found = -p.At.Y, true
+						break
+					}
+				}
+			}
 			for _, d := range []geom.Dir{geom.Left, geom.Up, geom.Down, geom.Right} {
 				for _, cl := range b.cells {
 					for _, p := range cl.shape.Pins {
@@ -380,6 +392,14 @@ func (ly *state) order(cols [][]*block) {
 		for i := len(cols) - 2; i >= 0; i-- {
 			sweep(i, i+1)
 		}
+	}
+	// parts the orientation search sent down go last in their column
+	for _, col := range cols {
+		sort.SliceStable(col, func(a, b int) bool {
+			_, sa := ly.turns[sinkKey+col[a].cells[0].ref]
+			_, sb := ly.turns[sinkKey+col[b].cells[0].ref]
+			return !sa && sb
+		})
 	}
 }
 

@@ -287,7 +287,7 @@ func (rt *router) routeAll() {
 
 // budget bounds the search work spent removing crossings, in heap pops:
 // generous for a stage or two, linear in the sheet's size.
-func (rt *router) budget() int { return 400000 + 200*len(rt.ly.cells) }
+func (rt *router) budget() int { return 200000 + 50*len(rt.ly.cells) }
 
 // saved is a net's wiring, kept while trying another.
 type saved struct {
@@ -474,6 +474,9 @@ func (rt *router) routeNet(id int) bool {
 		margins := []int{6, 20, 1 << 20}
 		if rt.wide {
 			margins = []int{12}
+			if len(rt.ly.cells) <= 300 {
+				margins = []int{12, 40} // small sheets can afford to look far
+			}
 		}
 		for _, m := range margins {
 			path = rt.search(net, p, tree, m)

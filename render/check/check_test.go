@@ -1,0 +1,139 @@
+package check
+
+import (
+	"strings"
+	"testing"
+
+	"pare/render/geom"
+)
+
+// Hand-worked geometry: each case is drawn on squared paper first, the
+// expected findings counted by eye (independent of the layout code).
+
+func sym(ref string, x0, y0, x1, y1 float64, pins ...geom.Pin) geom.Symbol {
+	return geom.Symbol{Ref: ref, Box: geom.Rect{X0: x0, Y0: y0, X1: x1, Y1: y1}, Pins: pins}
+}
+
+func pin(name, net string, x, y float64, d geom.Dir) geom.Pin {
+	return geom.Pin{Name: name, Net: net, At: geom.Pt{X: x, Y: y}, Dir: d}
+}
+
+func seg(x0, y0, x1, y1 float64) geom.Seg {
+	return geom.Seg{A: geom.Pt{X: x0, Y: y0}, B: geom.Pt{X: x1, Y: y1}}
+}
+
+func wire(net string, segs ...geom.Seg) geom.Wire {
+	return geom.Wire{Net: net, Segs: segs, Faded: make([]bool, len(segs))}
+}
+
+// two resistors R1 (0..4) and R2 (10..14) on y=0, joined by net n from 4 to 10
+func clean() *geom.Sheet {
+	return &geom.Sheet{
+		Symbols: []geom.Symbol{
+			sym("R1", 0, -0.6, 4, 0.6, pin("1", "a", 0, 0, geom.Left), pin("2", "n", 4, 0, geom.Right)),
+			sym("R2", 10, -0.6, 14, 0.6, pin("1", "n", 10, 0, geom.Left), pin("2", "b", 14, 0, geom.Right)),
+		},
+		Wires: []geom.Wire{wire("n", seg(4, 0, 10, 0))},
+	}
+}
+
+func TestCleanSheet(t *testing.T) {
+	r := Measure(clean())
+	if p := r.Problems(); len(p) != 0 {
+		t.Fatalf("clean sheet has problems: %v", p)
+	}
+	if r.Crossings != 0 || r.Bends != 0 {
+		t.Errorf("crossings %d bends %d, want 0 0", r.Crossings, r.Bends)
+	}
+}
+
+func TestFindings(t *testing.T) {
+	cases := []struct {
+		name  string
+		edit  func(g *geom.Sheet)
+		want  string // a word the finding must contain, "" for none
+		field func(r *Report) []string
+	}{
+		{"symbols overlap", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("C1", 3, -1, 5, 1))
+		}, "overlaps", func(r *Report) []string { return r.SymbolOverlaps }},
+		{"touching boxes are not an overlap", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("C1", 4, 0.6, 6, 2))
+		}, "", func(r *Report) []string { return r.SymbolOverlaps }},
+		{"wire through a symbol", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("x", seg(2, -3, 2, 3)))
+		}, "runs through symbol R1", func(r *Report) []string { return r.WireThrough }},
+		{"label on a wire", func(g *geom.Sheet) {
+			g.Labels = append(g.Labels, geom.Label{Lines: []string{"C9 1n"}, Box: geom.Rect{X0: 6, Y0: -0.5, X1: 8, Y1: 0.5}})
+		}, "touches label", func(r *Report) []string { return r.LabelOverlaps }},
+		{"label on a label", func(g *geom.Sheet) {
+			g.Labels = append(g.Labels,
+				geom.Label{Lines: []string{"A"}, Box: geom.Rect{X0: 0, Y0: 2, X1: 3, Y1: 3}},
+				geom.Label{Lines: []string{"B"}, Box: geom.Rect{X0: 2, Y0: 2.5, X1: 5, Y1: 3.5}})
+		}, "overlaps label", func(r *Report) []string { return r.LabelOverlaps }},
+		{"broken net", func(g *geom.Sheet) {
+			g.Wires[0] = wire("n", seg(4, 0, 6, 0), seg(8, 0, 10, 0))
+		}, "pieces", func(r *Report) []string { return r.Connectivity }},
+		{"net with a flag on each piece is joined", func(g *geom.Sheet) {
+			g.Wires[0] = wire("n", seg(4, 0, 6, 0), seg(8, 0, 10, 0))
+			g.Locals = []geom.Local{
+				{Kind: geom.LocalFlag, Net: "n", At: geom.Pt{X: 6, Y: 0}, Box: geom.Rect{X0: 6, Y0: 2, X1: 7, Y1: 3}},
+				{Kind: geom.LocalFlag, Net: "n", At: geom.Pt{X: 8, Y: 0}, Box: geom.Rect{X0: 7.5, Y0: 2, X1: 8.5, Y1: 3}},
+			}
+		}, "", func(r *Report) []string { return r.Connectivity }},
+		{"wire onto another net's pin", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(14, 0, 14, 3)))
+		}, "touches pin R2.2", func(r *Report) []string { return r.Connectivity }},
+		{"wires of two nets overlap", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(5, 0, 9, 0)))
+		}, "overlap", func(r *Report) []string { return r.Connectivity }},
+		{"T onto another net", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(7, 0, 7, 3)))
+		}, "touch", func(r *Report) []string { return r.Connectivity }},
+		{"junction without a dot", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("C1", 6, 4, 8, 8, pin("1", "n", 7, 4, geom.Up)))
+			g.Wires = append(g.Wires, wire("n", seg(7, 0, 7, 4)))
+		}, "no dot", func(r *Report) []string { return r.Junctions }},
+		{"four-way junction", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("C1", 6, 4, 8, 8, pin("1", "n", 7, 4, geom.Up)),
+				sym("C2", 6, -8, 8, -4, pin("1", "n", 7, -4, geom.Down)))
+			g.Wires = append(g.Wires, wire("n", seg(7, 0, 7, 4)), wire("n", seg(7, -4, 7, 0)))
+			g.Dots = []geom.Pt{{X: 7, Y: 0}}
+		}, "four-way", func(r *Report) []string { return r.Junctions }},
+		{"stray dot", func(g *geom.Sheet) {
+			g.Dots = []geom.Pt{{X: 6, Y: 0}}
+		}, "not on a junction", func(r *Report) []string { return r.Junctions }},
+	}
+	for _, tc := range cases {
+		g := clean()
+		tc.edit(g)
+		got := tc.field(Measure(g))
+		switch {
+		case tc.want == "" && len(got) > 0:
+			t.Errorf("%s: unexpected %v", tc.name, got)
+		case tc.want != "" && (len(got) == 0 || !strings.Contains(strings.Join(got, "\n"), tc.want)):
+			t.Errorf("%s: got %v, want a finding with %q", tc.name, got, tc.want)
+		}
+	}
+}
+
+// A wire of another net crossing n at (7,0) is one crossing, not a touch;
+// an L-shaped wire has one bend.
+func TestCrossingsAndBends(t *testing.T) {
+	g := clean()
+	g.Symbols = append(g.Symbols,
+		sym("C1", 6, -8, 8, -4, pin("1", "m", 7, -4, geom.Down)),
+		sym("C2", 16, 4, 18, 8, pin("1", "m", 17, 4, geom.Up)))
+	g.Wires = append(g.Wires, wire("m", seg(7, -4, 7, 2), seg(7, 2, 17, 2), seg(17, 2, 17, 4)))
+	g.Frames = []geom.Frame{{Box: geom.Rect{X0: 5, Y0: -2, X1: 9, Y1: 1}}}
+	r := Measure(g)
+	if p := r.Problems(); len(p) != 0 {
+		t.Fatalf("problems: %v", p)
+	}
+	if r.Crossings != 1 || r.FrameCrossings[0] != 1 {
+		t.Errorf("crossings %d (frame %v), want 1 (frame [1])", r.Crossings, r.FrameCrossings)
+	}
+	if r.Bends != 2 || r.MaxBends != 2 {
+		t.Errorf("bends %d max %d, want 2 2", r.Bends, r.MaxBends)
+	}
+}
