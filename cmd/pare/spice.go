@@ -19,6 +19,7 @@ type spiceOpts struct {
 	at      string
 	ppd     int
 	band    string
+	term    termFlag
 }
 
 func init() {
@@ -46,6 +47,8 @@ It is a small-signal model: no bias, no supplies, nothing about DC or safety.`,
 			fs.StringVar(&o.at, "at", "mid", "gang setting: min, mid, max or a fraction 0..1")
 			fs.IntVar(&o.ppd, "per-decade", 50, "sweep points per decade")
 			fs.StringVar(&o.band, "band", "", "sweep span, e.g. 400k..2M (default: the circuit's full band)")
+			o.term = termFlag{}
+			fs.Var(o.term, "term", "terminate a net: NET=OHMS to ground (repeatable; ports are open otherwise)")
 			return o
 		},
 		run: runSpice,
@@ -70,6 +73,7 @@ func runSpice(e *env, opts any, args []string) int {
 	if o.at == "" {
 		setting = ac.Options{VarFrac: 0.5, VarSet: true}
 	}
+	setting.Terminate = o.term
 	so := ac.SpiceOptions{Options: setting, Input: o.from, PointsPerDecade: o.ppd, DataFile: dataFileFor(o.out)}
 	if o.band != "" {
 		b, err := value.ParseRange(o.band, value.Hertz)

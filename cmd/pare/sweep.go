@@ -22,6 +22,7 @@ type sweepOpts struct {
 	at        string
 	band      string
 	impedance bool
+	term      termFlag
 }
 
 func init() {
@@ -52,6 +53,8 @@ graph/ac package): no DC conditions, no overload.`,
 			fs.StringVar(&o.at, "at", "mid", "gang setting: min, mid, max or a fraction 0..1")
 			fs.StringVar(&o.band, "band", "", "frequency span, e.g. 400k..2M (default: the bands of --from)")
 			fs.BoolVar(&o.impedance, "impedance", false, "print the impedance at --from instead of a transfer")
+			o.term = termFlag{}
+			fs.Var(o.term, "term", "terminate a net: NET=OHMS to ground (repeatable; ports are open otherwise)")
 			return o
 		},
 		run: runSweep,
@@ -76,6 +79,7 @@ func runSweep(e *env, opts any, args []string) int {
 	if o.at == "" {
 		setting = ac.Options{VarFrac: 0.5, VarSet: true}
 	}
+	setting.Terminate = o.term
 	path := args[0]
 	c, code := circuitFor(e, "sweep", path, o.reduced, o.level)
 	if c == nil {

@@ -78,3 +78,25 @@ func TestSweepBadInput(t *testing.T) {
 		}
 	}
 }
+
+// A stated termination loads the output: 470 kΩ ∥ 470 kΩ halves the
+// resistance, and the corner moves to 1/(2π·235 kΩ·10 nF) = 67.7256 Hz
+// (derived), where the response is −3.0103 dB.
+func TestSweepTermination(t *testing.T) {
+	path := writeTemp(t, "hp.toml", highPassNet)
+	code, out, errs := cliRun(t, "sweep", path, "--band", "67.7256..677.256", "--points", "2", "--csv", "--term", "out=470k")
+	if code != exitOK {
+		t.Fatalf("exit %d\n%s", code, errs)
+	}
+	rows, _ := csv.NewReader(strings.NewReader(out)).ReadAll()
+	m, _ := strconv.ParseFloat(rows[1][1], 64)
+	if math.Abs(m+3.0103) > 1e-3 {
+		t.Errorf("terminated corner %v, want −3.0103 dB", rows[1])
+	}
+	for _, bad := range []string{"out", "out=-5", "nowhere=600"} {
+		code, _, errs := cliRun(t, "sweep", path, "--term", bad)
+		if code != exitBad || errs == "" {
+			t.Errorf("--term %s: exit %d, stderr %q", bad, code, errs)
+		}
+	}
+}

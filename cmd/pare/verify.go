@@ -6,11 +6,13 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"sort"
 	"strconv"
 	"strings"
 
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/value"
 	"pare/rules"
 )
 
@@ -22,6 +24,7 @@ type verifyOpts struct {
 	steps  bool
 	at     string
 	points int
+	term   termFlag
 }
 
 func init() {
@@ -55,6 +58,8 @@ graph/ac package): it says nothing about DC conditions or safety.`,
 			fs.BoolVar(&o.steps, "steps", false, "check after every rewrite step and name the first that breaks the tolerance")
 			fs.StringVar(&o.at, "at", "", "gang setting: min, mid, max or a fraction 0..1 (default: all three)")
 			fs.IntVar(&o.points, "points", 100, "log-spaced points per band before refinement")
+			o.term = termFlag{}
+			fs.Var(o.term, "term", "terminate a net: NET=OHMS to ground (repeatable; ports are open otherwise)")
 			return o
 		},
 		run: runVerify,
@@ -115,6 +120,7 @@ func runVerify(e *env, opts any, args []string) int {
 	if !ok {
 		return exitBad
 	}
+	setting.Terminate = o.term
 	cmp := ac.CompareOptions{TolDB: o.tolDB, TolDeg: o.tolDeg, Points: o.points, Options: setting}
 	ro := rules.Options{Level: lvl}
 	var checkErr error
@@ -217,6 +223,36 @@ func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refu
 		fmt.Fprintf(w, "ok: all %d pair(s) within tolerance\n", len(rep.Pairs))
 	}
 	fmt.Fprintln(w, verifyCaution)
+}
+
+// termFlag collects --term NET=OHMS: a stated termination on a port or any
+// other net, a resistance to ground (0 is a short). Ports are open otherwise.
+type termFlag map[string]float64
+
+func (t termFlag) String() string {
+	names := make([]string, 0, len(t))
+	for n := range t {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	var parts []string
+	for _, n := range names {
+		parts = append(parts, n+"="+value.Format(t[n], value.Ohm, value.Code))
+	}
+	return strings.Join(parts, ",")
+}
+
+func (t termFlag) Set(s string) error {
+	net, ohms, ok := strings.Cut(s, "=")
+	if !ok || net == "" {
+		return fmt.Errorf("write a termination as NET=OHMS, e.g. aerial=75 or if_out=1M")
+	}
+	r, err := value.Parse(ohms, value.Ohm)
+	if err != nil || r < 0 {
+		return fmt.Errorf("termination %q: give a resistance such as 75, 600R or 1M", s)
+	}
+	t[net] = r
+	return nil
 }
 
 // parseAt reads a gang setting: min, mid, max or a fraction of the travel.
