@@ -394,3 +394,25 @@ func TestOddValues(t *testing.T) {
 		t.Error("a negative frequency was accepted")
 	}
 }
+
+// Two inputs into a two-grid mixer model: driving one, the other is held at
+// 0 V by its own source, so the result is the one stage's gain alone
+// (superposition; reference-values.md §5 formula −µRL/(ra+RL), derived).
+func TestOtherInputsHeld(t *testing.T) {
+	c := mustParse(t, `band = "1k..2k"
+inputs = ["in1", "in2"]
+outputs = ["a"]
+[nets]
+ht = { role = "supply" }
+[parts]
+V1 = { valve = "triode", mu = 20, ra = "10k", pins = { a = "a", g1 = "in1", k = "gnd" } }
+V2 = { valve = "triode", mu = 20, ra = "10k", pins = { a = "a", g1 = "in2", k = "gnd" } }
+R1 = { r = "47k", pins = ["a", "ht"] }
+`)
+	// Two anodes in parallel on R1: each sees RL ∥ the other's ra.
+	rl := 47e3 * 10e3 / (47e3 + 10e3)
+	want := -20 * rl / (10e3 + rl)
+	if h := transferAt(t, c, "in1", "a", 1e3); !closeRel(real(h), want, 1e-9) {
+		t.Errorf("V(a)/V(in1) = %v, want %.6f", h, want)
+	}
+}

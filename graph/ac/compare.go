@@ -519,7 +519,7 @@ func newProbe(c *graph.Circuit, what, from, to string, o Options) (*probe, error
 	if err != nil {
 		return nil, err
 	}
-	s, err := newSystem(nl, fromNode)
+	s, err := newSystem(nl, fromNode, otherInputs(c, nl, fromNode)...)
 	if err != nil {
 		return nil, err
 	}

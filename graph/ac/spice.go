@@ -92,7 +92,8 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 	}
 	// Check the system is solvable before handing it on: a floating node
 	// would only earn a warning in the simulator.
-	if _, err := newSystem(nl, inNode); err != nil {
+	held := otherInputs(c, nl, inNode)
+	if _, err := newSystem(nl, inNode, held...); err != nil {
 		return err
 	}
 
@@ -120,6 +121,10 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 		sw.group(g)
 	}
 	sw.line("Vpare_in %s 0 DC 0 AC 1", sw.nodes[inNode])
+	// The other inputs are held at 0 V by their own (silent) sources, as pare solves it.
+	for i, n := range held {
+		sw.line("Vpare_in%d %s 0 DC 0 AC 0", i+2, sw.nodes[n])
+	}
 	// Nodes reached only through capacitors have no DC path, and the
 	// simulator would call the matrix singular in the operating point it
 	// solves before an AC sweep. The deck is linear, so that operating point

@@ -448,7 +448,8 @@ func circuitName(c *graph.Circuit) string {
 }
 
 // Transfer returns V(out)/V(in) at each frequency, with in driven by an ideal
-// 1 V source to ground and every other port open.
+// 1 V source to ground, the circuit's other declared inputs held at 0 V by
+// their own sources (superposition) and every port open.
 func Transfer(c *graph.Circuit, in, out string, freqs []float64, o Options) ([]complex128, error) {
 	res, err := transferMany(c, in, []string{out}, freqs, o)
 	if err != nil {
@@ -476,7 +477,7 @@ func transferMany(c *graph.Circuit, in string, outs []string, freqs []float64, o
 			return nil, err
 		}
 	}
-	s, err := newSystem(nl, inNode)
+	s, err := newSystem(nl, inNode, otherInputs(c, nl, inNode)...)
 	if err != nil {
 		return nil, err
 	}
