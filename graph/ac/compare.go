@@ -293,28 +293,31 @@ func hasVariable(c *graph.Circuit) bool {
 // bandsOf lists the circuit's default band and every region's band.
 func bandsOf(c *graph.Circuit) []value.Range {
 	var out []value.Range
-	add := func(b value.Range) {
-		if b.Min <= 0 || b.Max < b.Min {
-			return
-		}
-		for _, x := range out {
-			if x == b {
-				return
-			}
-		}
-		out = append(out, b)
-	}
-	add(c.Band)
+	out = addBand(out, c.Band)
 	for _, r := range c.Regions {
-		add(r.Band)
+		out = addBand(out, r.Band)
 	}
 	return out
+}
+
+// addBand appends a valid band that is not in the list yet.
+func addBand(list []value.Range, b value.Range) []value.Range {
+	if b.Min <= 0 || b.Max < b.Min {
+		return list
+	}
+	for _, x := range list {
+		if x == b {
+			return list
+		}
+	}
+	return append(list, b)
 }
 
 // netBands returns, for a net, the bands the signal on it lives in: the band
 // of every region that holds the net (names it as input, output or in its
 // nets, or has a part on it), and the default band when a part on it belongs
-// to no region. A small-signal transfer keeps frequency, so a transfer is
+// to no region. Port parts do not count: a port is where the sheet was cut,
+// and it carries whatever the net carries. A small-signal transfer keeps frequency, so a transfer is
 // judged over its input's bands and an impedance over its net's: the IF
 // input of a strip is not asked to behave at audio frequencies, where its
 // bypass capacitors were never meant to bypass.
@@ -323,29 +326,20 @@ func netBands(c *graph.Circuit) func(net string) []value.Range {
 	conns := c.Conns()
 	return func(net string) []value.Range {
 		var out []value.Range
-		add := func(b value.Range) {
-			if b.Min <= 0 || b.Max < b.Min {
-				return
-			}
-			for _, x := range out {
-				if x == b {
-					return
-				}
-			}
-			out = append(out, b)
-		}
 		for _, r := range c.Regions {
 			if r.Input == net || r.Output == net {
-				add(r.Band)
+				out = addBand(out, r.Band)
 			}
 			for _, n := range r.Nets {
 				if n == net {
-					add(r.Band)
+					out = addBand(out, r.Band)
 				}
 			}
 		}
 		for _, cn := range conns[net] {
-			add(c.BandOf(cn.Part))
+			if cn.Part.Kind != graph.Port {
+				out = addBand(out, c.BandOf(cn.Part))
+			}
 		}
 		if len(out) == 0 {
 			return all

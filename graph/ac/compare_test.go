@@ -2,6 +2,7 @@ package ac
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"math/cmplx"
 	"strings"
@@ -247,5 +248,28 @@ R1 = { r = "50", pins = ["out", "gnd"] }
 	}
 	if math.Abs(got.MaxDB-want) > 0.02*want {
 		t.Errorf("refined sweep found %s, brute force %.3f dB", got, want)
+	}
+}
+
+func TestNetBands(t *testing.T) {
+	c, err := graph.LoadFile("../../examples/if-detector-audio.toml")
+	if err != nil {
+		t.Skip("example not there yet:", err)
+	}
+	ifBand := value.Range{Min: 455e3, Max: 485e3}
+	audio := value.Range{Min: 20, Max: 20e3}
+	cases := []struct {
+		net  string
+		want []value.Range
+	}{
+		{"mix_a", []value.Range{ifBand}},          // IF1 primary and the port from the mixer
+		{"audio_out", []value.Range{audio}},       // coupling capacitor to the output stage; the port does not count
+		{"det_out", []value.Range{audio, ifBand}}, // the detector load is both
+	}
+	for _, tc := range cases {
+		got := BandsOf(c, tc.net)
+		if fmt.Sprint(got) != fmt.Sprint(tc.want) {
+			t.Errorf("bands of %s: %v, want %v", tc.net, got, tc.want)
+		}
 	}
 }
