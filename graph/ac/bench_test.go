@@ -177,3 +177,23 @@ func TestWriteBenchDecks(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkCompareExample is the cost of one equivalence check of an example
+// against a copy of itself: what the rules engine pays per checked step.
+func BenchmarkCompareExample(b *testing.B) {
+	files, _ := filepath.Glob("../../examples/*.toml")
+	for _, f := range files {
+		c, err := graph.LoadFile(f)
+		if err != nil {
+			b.Fatal(err)
+		}
+		d := c.Clone()
+		b.Run(filepath.Base(f), func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				if _, err := Compare(c, d, CompareOptions{}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
