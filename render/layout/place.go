@@ -393,13 +393,25 @@ func (ly *state) order(cols [][]*block) {
 			sweep(i, i+1)
 		}
 	}
-	// parts the orientation search sent down go last in their column
+	// the signal path stays on top of its column (active parts, then series
+	// parts, then the shunts hanging below), in barycentre order within
+	// each kind; parts the orientation search sent down go last
 	for _, col := range cols {
-		sort.SliceStable(col, func(a, b int) bool {
-			_, sa := ly.turns[sinkKey+col[a].cells[0].ref]
-			_, sb := ly.turns[sinkKey+col[b].cells[0].ref]
-			return !sa && sb
-		})
+		rank := func(b *block) int {
+			k := 0
+			switch cl := b.cells[0]; {
+			case cl.part.IsActive():
+			case !isVertical(cl):
+				k = 1
+			default:
+				k = 2
+			}
+			if _, sunk := ly.turns[sinkKey+b.cells[0].ref]; sunk {
+				k += 3
+			}
+			return k
+		}
+		sort.SliceStable(col, func(a, b int) bool { return rank(col[a]) < rank(col[b]) })
 	}
 }
 
