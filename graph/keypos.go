@@ -37,20 +37,37 @@ func (ix *keyIndex) val(path string) Pos {
 	return ix.key(path)
 }
 
+// KeyPositions tells where each key of a TOML text was written, for other
+// TOML formats of the project (stage pattern files) that want the same
+// file:line:col messages as netlists. Paths are dotted keys with [i] for
+// array elements and for the i-th [[table]] of an array of tables.
+type KeyPositions struct{ ix *keyIndex }
+
+// IndexKeys scans TOML text that the decoder has already accepted.
+func IndexKeys(file, src string) *KeyPositions { return &KeyPositions{indexKeys(file, src)} }
+
+// Key is where the key of path was written, or the nearest enclosing key's
+// position when path itself was not written (a default, an array element).
+func (k *KeyPositions) Key(path string) Pos { return k.ix.key(path) }
+
+// Value is where the value of path starts.
+func (k *KeyPositions) Value(path string) Pos { return k.ix.val(path) }
+
 type keyScanner struct {
 	src     []rune
 	i       int
 	line    int
 	col     int
 	ix      *keyIndex
-	pending []string // comment lines waiting for the next statement
-	last    string   // the path recorded last, for a comment after it on its line
+	pending []string       // comment lines waiting for the next statement
+	last    string         // the path recorded last, for a comment after it on its line
+	arrays  map[string]int // [[name]] headers seen so far
 }
 
 // indexKeys scans TOML text that the decoder has already accepted.
 func indexKeys(file string, src string) *keyIndex {
 	ix := &keyIndex{file: file, keys: map[string]Pos{}, vals: map[string]Pos{}, comments: map[string]Comment{}}
-	s := &keyScanner{src: []rune(src), line: 1, col: 1, ix: ix}
+	s := &keyScanner{src: []rune(src), line: 1, col: 1, ix: ix, arrays: map[string]int{}}
 	s.document()
 	return ix
 }
@@ -153,6 +170,12 @@ func (s *keyScanner) statement(table string) string {
 		s.next()
 		if arr {
 			s.next()
+			// Each [[name]] header opens the next element of an array of
+			// tables: paths inside it read name[0].key, name[1].key, ...
+			n := s.arrays[table]
+			s.arrays[table] = n + 1
+			s.record(table, at, at)
+			table += "[" + strconv.Itoa(n) + "]"
 		}
 		s.record(table, at, at)
 		s.last = table

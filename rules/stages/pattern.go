@@ -225,7 +225,7 @@ func ParsePattern(file string, data []byte) (*Pattern, error) {
 		}
 		return nil, l
 	}
-	ld := &patLoader{at: scanPositions(file, string(data)), p: &Pattern{Inner: false}}
+	ld := &patLoader{at: graph.IndexKeys(file, string(data)), file: file, p: &Pattern{Inner: false}}
 	ld.pattern(raw)
 	if err := ld.errs.Err(); err != nil {
 		ld.errs.Sort()
@@ -235,13 +235,14 @@ func ParsePattern(file string, data []byte) (*Pattern, error) {
 }
 
 type patLoader struct {
-	at   *positions
+	at   *graph.KeyPositions
+	file string
 	p    *Pattern
 	errs graph.ErrorList
 }
 
 func (ld *patLoader) fail(path, format string, args ...any) {
-	ld.errs.Add(ld.at.of(path), format, args...)
+	ld.errs.Add(ld.at.Key(path), format, args...)
 }
 
 func (ld *patLoader) unknown(path, key string, known []string) {
@@ -314,7 +315,7 @@ func (ld *patLoader) pattern(raw map[string]any) {
 		switch k {
 		case "id":
 			p.ID = ld.str(k, v)
-			p.Pos = ld.at.of(k)
+			p.Pos = ld.at.Key(k)
 		case "title":
 			p.Title = ld.str(k, v)
 		case "titles":
@@ -380,7 +381,7 @@ func (ld *patLoader) pattern(raw map[string]any) {
 			ld.unknown(k, k, patternKeys)
 		}
 	}
-	top := graph.Pos{File: ld.at.file, Line: 1, Col: 1}
+	top := graph.Pos{File: ld.file, Line: 1, Col: 1}
 	if p.ID == "" {
 		ld.errs.Add(top, "pattern has no id")
 	}
@@ -421,7 +422,7 @@ func tables(v any) []map[string]any {
 }
 
 func (ld *patLoader) net(path, name string, v any) {
-	n := PNet{Name: name, At: "signal", Pos: ld.at.of(path)}
+	n := PNet{Name: name, At: "signal", Pos: ld.at.Key(path)}
 	m, ok := v.(map[string]any)
 	if !ok {
 		ld.fail(path, "net %s must be a table such as { at = \"ground\" }", name)
@@ -442,7 +443,7 @@ func (ld *patLoader) net(path, name string, v any) {
 }
 
 func (ld *patLoader) part(path, name string, v any) {
-	pp := PPart{Name: name, Pos: ld.at.of(path)}
+	pp := PPart{Name: name, Pos: ld.at.Key(path)}
 	m, ok := v.(map[string]any)
 	if !ok {
 		ld.fail(path, "part %s must be a table such as { device = \"capacitor\", pins = [\"a\", \"b\"] }", name)
@@ -624,7 +625,7 @@ func (ld *patLoader) pins(path string, pp *PPart, m map[string]any) {
 var figureArgKeys = []string{"calc", "prefix"}
 
 func (ld *patLoader) figure(path string, m map[string]any) {
-	f := FigureSpec{Args: map[string][]string{}, Pos: ld.at.of(path)}
+	f := FigureSpec{Args: map[string][]string{}, Pos: ld.at.Key(path)}
 	for _, k := range sortedKeys(m) {
 		kp := path + "." + k
 		switch k {
@@ -657,7 +658,7 @@ func (ld *patLoader) figure(path string, m map[string]any) {
 }
 
 func (ld *patLoader) guard(path string, m map[string]any) {
-	g := Guard{Pos: ld.at.of(path)}
+	g := Guard{Pos: ld.at.Key(path)}
 	for _, k := range sortedKeys(m) {
 		kp := path + "." + k
 		switch k {
