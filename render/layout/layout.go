@@ -398,8 +398,16 @@ func (ly *state) growFrames(g *geom.Sheet) {
 		if !ok || s < 0 || !drawn {
 			continue
 		}
+		// grow up or down only: frames stand side by side, so growing
+		// sideways could run one into the next
+		fb := &ly.frames[f].Box
 		for _, seg := range w.Segs {
-			ly.frames[f].Box = ly.frames[f].Box.Union(seg.Box().Inset(framePad))
+			sb := seg.Box()
+			if sb.X1 < fb.X0 || sb.X0 > fb.X1 {
+				continue
+			}
+			fb.Y0 = math.Min(fb.Y0, sb.Y0-framePad+0.5)
+			fb.Y1 = math.Max(fb.Y1, sb.Y1+framePad-0.5)
 		}
 	}
 }

@@ -283,6 +283,12 @@ func titleLines(f Frame, width float64) (lines []string, head int) {
 	return lines, head
 }
 
+// halfGrid rounds a box out to half-grid lines, so that a frame's edge
+// never lies along a wire (wires run on whole grid lines).
+func halfGrid(r geom.Rect) geom.Rect {
+	return geom.Rect{X0: math.Floor(r.X0) - 0.5, Y0: math.Floor(r.Y0) - 0.5, X1: math.Ceil(r.X1) + 0.5, Y1: math.Ceil(r.Y1) + 0.5}
+}
+
 func titleWidth(f Frame, width float64) float64 {
 	lines, head := titleLines(f, width)
 	w := 0.0
@@ -433,7 +439,7 @@ func (ly *state) makeFrames() {
 		w := titleWidth(f, b.W()) - 2*framePad
 		title := geom.Label{Owner: "frame:" + f.Title, Lines: lines, Small: true, Head: head,
 			Box: geom.Rect{X0: b.X0, Y0: b.Y0 - 2.2 - h, X1: b.X0 + w, Y1: b.Y0 - 2.2}}
-		box := b.Union(title.Box).Inset(framePad)
+		box := halfGrid(b.Union(title.Box).Inset(framePad - 0.5))
 		ly.frames = append(ly.frames, geom.Frame{Box: box, Title: title})
 		ly.frameStage = append(ly.frameStage, i)
 	}
