@@ -79,6 +79,35 @@ func TestDrawExamplesCheck(t *testing.T) {
 	}
 }
 
+// TestDrawFocus: a sheet of a --focus reduction (the oscillator valve and
+// what surrounds it) is as clean as a whole one.
+func TestDrawFocus(t *testing.T) {
+	c, err := loadGraph("../../examples/frequency-changer.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := drawSheet(c, "frequency-changer.toml", render.Reduced, rules.Options{Level: rules.LevelSignal, Focus: []string{"V1"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	g, err := render.Config{}.Geometry(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := check.Measure(g)
+	t.Logf("focus V1: %s", r.Summary())
+	for _, p := range r.Problems() {
+		t.Error(p)
+	}
+	found := false
+	for _, sym := range g.Symbols {
+		found = found || sym.Ref == "V1"
+	}
+	if !found {
+		t.Error("the focused valve is not on the sheet")
+	}
+}
+
 func loadForTest(path string) (*graphCircuit, error) { return loadGraph(path) }
 
 // sheetName is where the committed sheet of an example and view lives.

@@ -656,6 +656,13 @@ func transformer(p *graph.Part, st Style) Shape {
 				s.Prims = append(s.Prims, arc(pt(x, y0), pt(x, y0+0.8), 0.4, side < 0))
 			}
 		}
+		// the winding's start, by the dot convention (IEC 60617 / IEEE 315
+		// polarity mark): the first pin of each winding as written
+		dx := -0.45
+		if side > 0 {
+			dx = 0.45
+		}
+		s.Prims = append(s.Prims, Prim{Kind: Circle, Pts: []geom.Pt{pt(x+dx, top+0.5)}, R: 0.13, Fill: true})
 		*y = top + 4*float64(sections) + 2
 	}
 	height := math.Max(yl, yr) - 2
