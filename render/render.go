@@ -400,7 +400,6 @@ func wrap(s string, n int) []string {
 
 func (d *drawer) label(l geom.Label, frame bool) {
 	cv := d.canvas
-	k := d.cfg.Grid
 	if l.Faded {
 		cv.Group(`class="g"`)
 	}
@@ -427,7 +426,6 @@ func (d *drawer) label(l geom.Label, frame bool) {
 			cv.Text(d.X(l.Box.X0), d.Y(y-0.3), line, cls)
 		}
 	}
-	_ = k
 	if l.Faded {
 		cv.Gend()
 	}

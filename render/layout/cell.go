@@ -54,7 +54,7 @@ func (c *cell) move(d geom.Pt) {
 	c.label.Box = c.label.Box.Move(d)
 }
 
-// obstacle is something a new local symbol or label must keep clear of.
+// obstacles are what a new local symbol or label must keep clear of.
 type obstacles struct {
 	boxes []geom.Rect
 	segs  []geom.Seg
@@ -66,7 +66,7 @@ func (o *obstacles) hits(r geom.Rect, stub []geom.Seg) bool {
 			return true
 		}
 		for _, s := range stub {
-			if s.Touches(b.Inset(-0.05)) && s.CutsInterior(b) {
+			if s.CutsInterior(b) {
 				return true
 			}
 		}
@@ -100,14 +100,9 @@ func railText(n *graph.Net, name string) string {
 		return n.Label
 	}
 	if n != nil && n.Volts != 0 {
-		return trimFloat(n.Volts) + " V"
+		return formatG(n.Volts) + " V"
 	}
 	return name
-}
-
-func trimFloat(v float64) string {
-	s := formatG(v)
-	return s
 }
 
 // buildLocals attaches a local symbol to every pin on a ground, supply,

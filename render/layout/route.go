@@ -116,19 +116,19 @@ func newRouter(ly *state) *router {
 	}
 	// obstacles: symbol bodies (bar their pin tips), locals, labels, titles
 	for _, cl := range ly.cells {
-		rt.block(cl.shape.Box, true)
+		rt.block(cl.shape.Box)
 		for _, l := range cl.locals {
-			rt.block(l.Box, false)
+			rt.block(l.Box)
 			for _, s := range l.Stub {
-				rt.block(s.Box(), false)
+				rt.block(s.Box())
 			}
 		}
 		if len(cl.label.Lines) > 0 {
-			rt.block(cl.label.Box, false)
+			rt.block(cl.label.Box)
 		}
 	}
 	for _, f := range ly.frames {
-		rt.block(f.Title.Box, false)
+		rt.block(f.Title.Box)
 	}
 	for id, nr := range rt.nets {
 		for _, wp := range nr.pins {
@@ -170,7 +170,7 @@ func (rt *router) neighbour(i, d int) int {
 
 // block marks every grid point inside or on the integer hull of r, so that
 // no wire between free points can enter r.
-func (rt *router) block(r geom.Rect, _ bool) {
+func (rt *router) block(r geom.Rect) {
 	x0, x1 := int(math.Floor(r.X0+geom.Eps))-rt.x0, int(math.Ceil(r.X1-geom.Eps))-rt.x0
 	y0, y1 := int(math.Floor(r.Y0+geom.Eps))-rt.y0, int(math.Ceil(r.Y1-geom.Eps))-rt.y0
 	for y := max(y0, 0); y <= min(y1, rt.h-1); y++ {
@@ -721,9 +721,9 @@ func (rt *router) flagNet(id int) {
 			cand := rt.flagAt(wp, text, 1, 0)
 			chosen = &cand
 		}
-		rt.block(chosen.Box, false)
+		rt.block(chosen.Box)
 		for _, s := range chosen.Stub {
-			rt.block(s.Box(), false)
+			rt.block(s.Box())
 		}
 		rt.blocked[wp.cell] = false
 		rt.flags = append(rt.flags, *chosen)
