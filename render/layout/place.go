@@ -460,6 +460,23 @@ func (ly *state) links(g *geom.Sheet) []geom.Link {
 		}
 	}
 	sort.Strings(names)
+	// a link between far-apart sections runs above everything drawn
+	top := math.Inf(1)
+	for _, s := range g.Symbols {
+		top = math.Min(top, s.Box.Y0)
+	}
+	for _, l := range g.Labels {
+		top = math.Min(top, l.Box.Y0)
+	}
+	for _, f := range g.Frames {
+		top = math.Min(top, f.Box.Y0)
+	}
+	for _, w := range g.Wires {
+		for _, s := range w.Segs {
+			top = math.Min(top, s.Box().Y0)
+		}
+	}
+	over := math.Floor(top) - 1.5
 	var out []geom.Link
 	for _, name := range names {
 		cs := byGang[name]
@@ -470,6 +487,7 @@ func (ly *state) links(g *geom.Sheet) []geom.Link {
 			for _, path := range [][]geom.Pt{
 				{pa, {X: pb.X, Y: pa.Y}, pb},
 				{pa, {X: pa.X, Y: pb.Y}, pb},
+				{pa, {X: pa.X, Y: over}, {X: pb.X, Y: over}, pb},
 			} {
 				if ly.linkClear(g, path, a.ref, b.ref) {
 					out = append(out, geom.Link{Name: name, Path: path})
