@@ -281,3 +281,47 @@ func BenchmarkDraw2000(b *testing.B) {
 		})
 	}
 }
+
+// TestFadedViewFindsEveryReducedPart: every part of the reduced circuit is
+// on the faded sheet of the original, drawn live under its own ref or named
+// by the marker of a part merged into it.
+func TestFadedViewFindsEveryReducedPart(t *testing.T) {
+	for _, f := range exampleFiles(t) {
+		c, err := loadGraph(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ro := rules.Options{Level: rules.LevelSignal}
+		reduced, _, err := rules.Reduce(c, ro)
+		if err != nil {
+			t.Fatal(err)
+		}
+		s, err := drawSheet(c, f, render.Faded, ro)
+		if err != nil {
+			t.Fatal(err)
+		}
+		g, err := render.Config{}.Geometry(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		live := map[string]bool{}
+		for _, sym := range g.Symbols {
+			if !sym.Faded {
+				live[sym.Ref] = true
+			}
+		}
+		marked := map[string]bool{}
+		for _, l := range g.Labels {
+			for _, line := range l.Lines[1:] {
+				if i := strings.Index(line, "\u2192 "); i >= 0 {
+					marked[strings.TrimSpace(strings.Split(line[i+len("\u2192 "):], ",")[0])] = true
+				}
+			}
+		}
+		for _, p := range reduced.Parts {
+			if !live[p.Ref] && !marked[p.Ref] {
+				t.Errorf("%s: reduced part %s is neither drawn live nor named by a marker on the faded sheet", filepath.Base(f), p.Ref)
+			}
+		}
+	}
+}
