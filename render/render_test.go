@@ -300,3 +300,40 @@ func TestReducedCaution(t *testing.T) {
 		}
 	}
 }
+
+// TestOddParts draws parts a reduction or a hand-made circuit may produce
+// with unusual terminals: a port with no pin, a transformer without
+// windings, a valve with only a heater, a switch closing unknown contacts.
+// None may panic, and the sheet must still pass the checker.
+func TestOddParts(t *testing.T) {
+	c := &graph.Circuit{Title: "odd parts", Inputs: []string{"in"}, Outputs: []string{"out"}}
+	c.EnsureNet("gnd", graph.Pos{})
+	add := func(p *graph.Part) { c.AddPart(p) }
+	pins := func(kv ...string) []graph.Pin {
+		var out []graph.Pin
+		for i := 0; i+1 < len(kv); i += 2 {
+			out = append(out, graph.Pin{Name: kv[i], Net: kv[i+1]})
+		}
+		return out
+	}
+	add(&graph.Part{Ref: "P1", Kind: graph.Port, Label: "nowhere"})
+	add(&graph.Part{Ref: "T1", Kind: graph.Transformer, Pins: pins("p1", "in", "p2", "gnd", "s1", "mid", "s2", "gnd")})
+	add(&graph.Part{Ref: "V1", Kind: graph.Valve, Type: "triode", Pins: pins("h1", "gnd", "h2", "gnd")})
+	add(&graph.Part{Ref: "S1", Kind: graph.Switch, Set: 3, Closes: [][][2]string{{{"x", "y"}}}, Pins: pins("c", "mid", "1", "out")})
+	add(&graph.Part{Ref: "X1", Kind: graph.Generic, Label: "meter"})
+	for _, v := range []View{Reduced, Full, Faded} {
+		s := &Sheet{Circuit: c, View: v, Faded: map[string]bool{"X1": true}}
+		var buf bytes.Buffer
+		if err := (Config{}).Fprint(&buf, s); err != nil {
+			t.Fatalf("%s: %v", v, err)
+		}
+		wellFormed(t, buf.Bytes())
+		g, err := Config{}.Geometry(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, p := range check.Measure(g).Problems() {
+			t.Errorf("%s: %s", v, p)
+		}
+	}
+}

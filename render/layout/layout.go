@@ -554,7 +554,7 @@ func (ly *state) rank() {
 		inputs[n] = true
 	}
 	for _, cl := range ly.cells {
-		if cl.part.Kind != graph.Port || cl.edge != 0 {
+		if cl.part.Kind != graph.Port || cl.edge != 0 || len(cl.part.Pins) == 0 {
 			continue
 		}
 		net := cl.part.Pins[0].Net
@@ -691,7 +691,7 @@ func (ly *state) assignColumns() {
 func (ly *state) orient() {
 	for _, cl := range ly.cells {
 		base := symbol.For(cl.part, ly.o.Style)
-		if cl.part.Kind == graph.Port {
+		if cl.part.Kind == graph.Port && len(cl.part.Pins) == 1 {
 			in := cl.edge <= 0
 			base = symbol.Flag(cl.part.Label, in)
 			for i := range base.Pins {
