@@ -216,26 +216,80 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 	return frames
 }
 
-// frameFigures prints up to n figures, sorted by key, for a frame's second
-// line: "f max 2.07 MHz, f min 1 MHz".
+// frameFigures prints up to n figures for a frame's second line: the ones a
+// repairer checks first (oscillator and signal range, resonance, IF,
+// bandwidth, gain, then time constants), with a min/max pair shown as one
+// range ("osc f 1.004–2.063 MHz").
 func frameFigures(figs map[string]float64, n int) string {
+	type entry struct {
+		rank int
+		name string
+		text string
+	}
+	var list []entry
 	keys := make([]string, 0, len(figs))
 	for k := range figs {
 		keys = append(keys, k)
 	}
 	sort.Strings(keys)
-	if len(keys) > n {
-		keys = keys[:n]
-	}
-	out := make([]string, len(keys))
-	for i, k := range keys {
-		name := k
-		for _, unit := range []string{"_hz", "_s", "_ohm", "_f", "_h", "_v", "_db"} {
-			name = strings.TrimSuffix(name, unit)
+	for _, k := range keys {
+		base, unit := splitFigure(k)
+		if strings.HasSuffix(base, "_max") {
+			if _, paired := figs[strings.TrimSuffix(base, "_max")+"_min"+unit]; paired {
+				continue // shown with its _min
+			}
 		}
-		out[i] = strings.ReplaceAll(name, "_", " ") + " " + stages.FigureText(k, figs[k])
+		text := stages.FigureText(k, figs[k])
+		name := base
+		if strings.HasSuffix(base, "_min") {
+			name = strings.TrimSuffix(base, "_min")
+			if hi, ok := figs[name+"_max"+unit]; ok {
+				text = stages.FigureText(k, figs[k]) + "–" + stages.FigureText(k, hi)
+			}
+		}
+		list = append(list, entry{figureRank(name), name, text})
+	}
+	sort.SliceStable(list, func(i, j int) bool { return list[i].rank < list[j].rank })
+	seen := map[string]bool{}
+	kept := list[:0]
+	for _, e := range list {
+		if !seen[e.name] { // gain and gain_db say the same thing once
+			seen[e.name] = true
+			kept = append(kept, e)
+		}
+	}
+	list = kept
+	if len(list) > n {
+		list = list[:n]
+	}
+	out := make([]string, len(list))
+	for i, e := range list {
+		out[i] = strings.ReplaceAll(e.name, "_", " ") + " " + e.text
 	}
 	return strings.Join(out, ", ")
+}
+
+// frameFigureOrder lists figure names (without unit suffix) in the order a
+// repairer looks for them on a stage (common practice).
+var frameFigureOrder = []string{"osc_f", "sig_f", "f", "f1", "if", "ift_f", "bw", "gain", "gain_unloaded", "load_f", "tau", "f_c", "c"}
+
+func figureRank(name string) int {
+	for i, n := range frameFigureOrder {
+		if n == name {
+			return i
+		}
+	}
+	return len(frameFigureOrder)
+}
+
+// splitFigure parts a figure key into its name and its unit suffix.
+func splitFigure(k string) (string, string) {
+	for _, unit := range []string{"_hz", "_s", "_ohm", "_f", "_h", "_v", "_db"} {
+		if strings.HasSuffix(k, unit) {
+			return strings.TrimSuffix(k, unit), unit
+		}
+	}
+	return k, ""
 }
 
 // sheetFurniture is the sheet's information block: band, regions, named
