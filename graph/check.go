@@ -111,6 +111,7 @@ func Check(c *Circuit) ErrorList {
 			}
 		}
 	}
+	w = append(w, checkEnds(c)...)
 	w = append(w, checkRefs(c)...)
 	w = append(w, checkGangs(c)...)
 	w = append(w, checkPorts(c, conns)...)
@@ -199,6 +200,33 @@ func checkRefs(c *Circuit) ErrorList {
 			}
 			w.Add(ps[1].Pos, "reference designators %s differ only in case: one part entered twice?", strings.Join(refs, " and "))
 		}
+	}
+	return w
+}
+
+// checkEnds warns when the file says nowhere where the signal enters or
+// leaves: the reduction keeps only what lies between the two, and the AC
+// proof compares transfers between them.
+func checkEnds(c *Circuit) ErrorList {
+	var w ErrorList
+	top := Pos{File: c.File, Line: 1, Col: 1}
+	in, out := len(c.Inputs) > 0, len(c.Outputs) > 0
+	for _, r := range c.Regions {
+		in = in || r.Input != ""
+		out = out || r.Output != ""
+	}
+	for _, p := range c.Parts {
+		if p.Kind == Port {
+			// A port marks where the circuit meets the rest of the set, which
+			// is as good a signal end as a declared one.
+			in, out = true, true
+		}
+	}
+	if !in {
+		w.Add(top, "no signal input declared: add inputs = [\"net\"] (the reduction keeps what lies between inputs and outputs)")
+	}
+	if !out {
+		w.Add(top, "no signal output declared: add outputs = [\"net\"] (the reduction keeps what lies between inputs and outputs)")
 	}
 	return w
 }

@@ -186,7 +186,11 @@ func commandHelp(w io.Writer, c *command) {
 			if f.DefValue != "" && f.DefValue != "false" {
 				def = fmt.Sprintf(" (default %s)", f.DefValue)
 			}
-			fmt.Fprintf(w, "  --%-12s %s%s\n", f.Name, f.Usage, def)
+			dash := "--"
+			if len(f.Name) == 1 {
+				dash = "-" // -o reads as the short option it is
+			}
+			fmt.Fprintf(w, "  %-14s %s%s\n", dash+f.Name, f.Usage, def)
 		})
 	}
 }

@@ -464,10 +464,11 @@ func mdText(s string) string {
 			} else {
 				b.WriteString(`\_`)
 			}
-		case '<':
-			b.WriteString("&lt;")
-		case '>':
-			b.WriteString("&gt;")
+		case '<', '>':
+			// A backslash escape keeps the raw note readable ("|Xc| \> 0.1·|Z|")
+			// and, unlike a bare '<', never opens an HTML tag.
+			b.WriteRune('\\')
+			b.WriteRune(r)
 		case '\n', '\r':
 			b.WriteRune(' ')
 		default:

@@ -73,7 +73,7 @@ func TestNoteSections(t *testing.T) {
 		"1. **bypass**: removed `C6`; grounded `ht_if`. |Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2) (`C6` at `frequency-changer.toml:39`)",
 		"2. **merge_parallel** REFUSED: merged `C3`, `TC2` into `C3`. parallel capacitors add. Not applied: transfer aerial→if_out off by 0.8 dB at 1.6 MHz. (`C3` at `frequency-changer.toml:37`, `TC2` at `frequency-changer.toml:55`, `C20`)",
 		"Near misses: candidates a numeric guard turned down",
-		"- **bypass**: C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ &gt; 0.1·|Z| (`C10` at `if-detector-audio.toml:40`)",
+		"- **bypass**: C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ \\> 0.1·|Z| (`C10` at `if-detector-audio.toml:40`)",
 		"**Verification passed**",
 		"| `V(if_out)/V(aerial)` | transfer | 0.12 | 1.3 | 1.6 MHz | max | ok |",
 	} {
@@ -137,7 +137,7 @@ func TestNoteEscaping(t *testing.T) {
 	n.Steps[0].Rule = "rule`x"
 	md := writeToString(t, n)
 	for _, want := range []string{
-		"# Repair note: &lt;b&gt;set&lt;/b&gt; \\[1\\] \\*A\\*",
+		"# Repair note: \\<b\\>set\\</b\\> \\[1\\] \\*A\\*",
 		"| S1 | split \\| here (`hartley-cathode-tap`)",
 		"| a_b, \\_x\\_ |",
 		"1. **rule\\`x**",

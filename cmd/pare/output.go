@@ -14,6 +14,9 @@ import (
 // folder and a rename, so a reader never sees half a file and a failure
 // leaves any old file as it was.
 func writeFileAtomic(path string, data []byte) error {
+	if st, err := os.Stat(path); err == nil && st.IsDir() {
+		return fmt.Errorf("%s is a directory: give a file name to write", path)
+	}
 	dir := filepath.Dir(path)
 	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp*")
 	if err != nil {

@@ -502,9 +502,15 @@ func summaryLines(path string, n *note, log *rules.Log, found []stages.Stage, v 
 		}
 		names = append(names, t)
 	}
-	if len(names) == 0 {
+	// A summary is read on a terminal: past a screenful of stages, name the
+	// first few and send the reader to the note.
+	const shown = 8
+	switch {
+	case len(names) == 0:
 		lines = append(lines, "stages: none recognised")
-	} else {
+	case len(names) > shown:
+		lines = append(lines, fmt.Sprintf("stages: %s; … %d stages in all, listed in notes.md", strings.Join(names[:shown], "; "), len(names)))
+	default:
 		lines = append(lines, "stages: "+strings.Join(names, "; "))
 	}
 	lines = append(lines, verifySummary(v))
