@@ -129,7 +129,8 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 	if s == nil || s.Circuit == nil {
 		return nil, fmt.Errorf("render: no circuit to draw")
 	}
-	o := layout.Options{Style: symbol.Style(cfg.Style), Links: s.View != Reduced, Untangle: s.View == Reduced}
+	o := layout.Options{Style: symbol.Style(cfg.Style), Links: s.View != Reduced, Untangle: s.View == Reduced,
+		HideUnconnected: s.View == Reduced}
 	if s.View == Faded {
 		o.Faded, o.Merged = s.Faded, s.Merged
 	}

@@ -45,6 +45,10 @@ func (r *Report) Summary() string {
 		r.Crossings, r.FrameCrossings, r.Bends, r.MaxBends, r.Flagged)
 }
 
+// notConnected is the netlist format's net for a terminal that is really not
+// connected (docs/netlist.md): its pins are never joined to each other.
+const notConnected = "nc"
+
 type netSeg struct {
 	net   string
 	seg   geom.Seg
@@ -243,6 +247,9 @@ func (r *Report) connectivity(g *geom.Sheet, segs []netSeg) {
 	var pins []pinRef
 	for _, s := range g.Symbols {
 		for _, p := range s.Pins {
+			if p.Net == notConnected {
+				continue // a bare lead: nothing to wire, nothing to touch
+			}
 			pins = append(pins, pinRef{s.Ref + "." + p.Name, p.Net, p.At, p.Dir})
 		}
 	}

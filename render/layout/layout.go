@@ -47,6 +47,36 @@ type Options struct {
 	// Untangle tries other orientations of the parts on crossing nets until
 	// no crossing is left (bounded); worth its time on small reduced sheets.
 	Untangle bool
+	// HideUnconnected leaves out the valve electrodes on "nc" (the format's
+	// not-connected net): a reduced sheet draws a pentode whose screen and
+	// suppressor were dropped as static electrodes with cathode, g1 and
+	// anode only. Other views draw such an electrode as a bare lead.
+	HideUnconnected bool
+}
+
+// notConnected is the netlist format's net for a terminal that is really not
+// connected (docs/netlist.md): it never joins the pins on it, so it is never
+// wired, ranked or checked as a net.
+const notConnected = "nc"
+
+// drawnPart is the part as its symbol shows it: with HideUnconnected, a
+// valve without its electrodes on "nc".
+func (o Options) drawnPart(p *graph.Part) *graph.Part {
+	if !o.HideUnconnected || p.Kind != graph.Valve {
+		return p
+	}
+	var keep []graph.Pin
+	for _, pn := range p.Pins {
+		if pn.Net != notConnected && pn.Net != "" {
+			keep = append(keep, pn)
+		}
+	}
+	if len(keep) == len(p.Pins) {
+		return p
+	}
+	q := *p
+	q.Pins = keep
+	return &q
 }
 
 // Placed is a symbol at its place on the sheet, for the renderer.
@@ -416,7 +446,7 @@ func (ly *state) growFrames(g *geom.Sheet) {
 func (ly *state) signalNets(cl *cell) []string {
 	var out []string
 	for _, pn := range cl.part.Pins {
-		if !ly.c.RoleOf(pn.Net).IsACGround() {
+		if pn.Net != notConnected && pn.Net != "" && !ly.c.RoleOf(pn.Net).IsACGround() {
 			out = append(out, pn.Net)
 		}
 	}
@@ -483,7 +513,7 @@ func (ly *state) rank() {
 	railNets := map[string][]*cell{}
 	for _, cl := range ly.cells {
 		for _, pn := range cl.part.Pins {
-			if ly.c.RoleOf(pn.Net) != graph.Ground {
+			if ly.c.RoleOf(pn.Net) != graph.Ground && pn.Net != notConnected {
 				railNets[pn.Net] = append(railNets[pn.Net], cl)
 			}
 		}
@@ -675,6 +705,9 @@ func (ly *state) assignColumns() {
 	ly.netCount = map[string]int{}
 	for _, cl := range ly.cells {
 		for _, pn := range cl.part.Pins {
+			if pn.Net == notConnected {
+				continue
+			}
 			sum[pn.Net] += float64(cl.col)
 			cnt[pn.Net]++
 			ly.netCount[pn.Net]++
@@ -690,7 +723,7 @@ func (ly *state) assignColumns() {
 // ground and bias down, rails up, signal pins towards the parts they lead to.
 func (ly *state) orient() {
 	for _, cl := range ly.cells {
-		base := symbol.For(cl.part, ly.o.Style)
+		base := symbol.For(ly.o.drawnPart(cl.part), ly.o.Style)
 		if cl.part.Kind == graph.Port && len(cl.part.Pins) == 1 {
 			in := cl.edge <= 0
 			base = symbol.Flag(cl.part.Label, in)

@@ -98,7 +98,7 @@ func newRouter(ly *state) *router {
 	var names []string
 	for _, cl := range ly.cells {
 		for _, p := range cl.shape.Pins {
-			if ly.c.RoleOf(p.Net).IsACGround() || p.Net == "" {
+			if ly.c.RoleOf(p.Net).IsACGround() || p.Net == "" || p.Net == notConnected {
 				continue
 			}
 			nr := byName[p.Net]
