@@ -186,7 +186,7 @@ func logWithoutPositions(l *Log) string {
 
 // The frequency changer reduces to the bare oscillator-mixer: the tapped
 // oscillator coil, the oscillator gang section with its trimmer merged in
-// (and, in the ideal view, its padder too), the grid capacitor and grid leak, the valve on its signal
+// (its padder stays apart at every level), the grid capacitor and grid leak, the valve on its signal
 // electrodes, the RF injection (aerial coil, tuned by its section and
 // trimmer, through the injection capacitor), and the IF transformer with its
 // tuning capacitors. Everything else (decoupling, screen feed, rails, heater
@@ -207,10 +207,7 @@ func oscillatorMixer(t *testing.T, path string, lvl Level) {
 	for _, p := range r.Parts {
 		got = append(got, string(p.Kind)+":"+strings.Join(p.Origins(), "+"))
 	}
-	osc := []string{"capacitor:C3", "capacitor:TC2+VC1b"} // padder apart: exact
-	if lvl == LevelIdeal {
-		osc = []string{"capacitor:C3+TC2+VC1b"} // padder merged: exact at the ends of the travel only
-	}
+	osc := []string{"capacitor:C3", "capacitor:TC2+VC1b"} // padder apart at every level: a series merge would be exact at the ends of the travel only
 	want := []string{
 		"capacitor:C1",       // RF injection onto the oscillator grid
 		"capacitor:C2",       // oscillator grid capacitor
@@ -242,13 +239,9 @@ func oscillatorMixer(t *testing.T, path string, lvl Level) {
 		t.Errorf("V1 keeps %v, want a, g1, k", live)
 	}
 	// The oscillator section: gang 12–365 pF + trimmer 41 pF = 53–406 pF
-	// (derived: sum), in the ideal view in series with the 380 pF padder
-	// (derived: 53·380/433 = 46.513 pF .. 406·380/786 = 196.28 pF).
+	// (derived: sum); the 380 pF padder stays its own part in series.
 	sec := r.Part("VC1b")
 	lo, hi := 53e-12, 406e-12
-	if lvl == LevelIdeal {
-		lo, hi = 53*380/433.0*1e-12, 406*380/786.0*1e-12
-	}
 	if !near(sec.Value.Min, lo, 1e-6) || !near(sec.Value.Max, hi, 1e-6) || sec.Gang != "tune" {
 		t.Errorf("%s: oscillator section %v gang %q, want %g–%g F on gang tune", lvl, sec.Value, sec.Gang, lo, hi)
 	}

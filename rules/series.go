@@ -5,23 +5,20 @@ import (
 )
 
 // series: two resistors, capacitors or uncoupled inductors joined by a net
-// that has nothing else on it are one part. A variable section in series
-// with a padder becomes a variable capacitor of range
-// Cmin·Cp/(Cmin+Cp) .. Cmax·Cp/(Cmax+Cp). The middle net must not be a
+// that has nothing else on it are one part. The middle net must not be a
 // declared signal end, AC ground, or a labelled point of the diagram.
-var series = seriesRule("series", LevelTidy, false,
+//
+// A gang section in series with a fixed capacitor (a padder) is a near miss,
+// never a merge, at every level: the series combination
+// C·Cp/(C+Cp) does not vary linearly with rotation, and a netlist range
+// Min..Max is read as linear, so one part would be right at the two ends of
+// the travel only (on the frequency changer example about 20 dB off at
+// mid-travel). A technician draws the padder as its own part in series with
+// the section, and so does pare.
+var series = seriesRule("series", LevelTidy,
 	"merge two resistors, capacitors or uncoupled inductors joined by a net with nothing else on it")
 
-// padder is the series merge of a gang section with its padder. It is exact
-// at both ends of the travel but not in between: the series combination is
-// not linear in the gang's setting, and a netlist range is (at mid-travel the
-// frequency changer example moves by about 20 dB in the AC check). So it
-// belongs to the ideal view, where the sheet shows the effective tuning
-// range and accepts the approximation.
-var padder = seriesRule("padder", LevelIdeal, true,
-	"merge a gang section with its series padder into one variable capacitor (exact at the ends of the travel only)")
-
-func seriesRule(name string, level Level, variable bool, purpose string) Rule {
+func seriesRule(name string, level Level, purpose string) Rule {
 	return Rule{
 		Name:      name,
 		Purpose:   purpose,
@@ -55,15 +52,20 @@ func seriesRule(name string, level Level, variable bool, purpose string) Rule {
 			if ok, _ := compatible(p, q, false); !ok {
 				return nil
 			}
-			if isVariable := p.Kind == graph.Capacitor && (capClass(p) == 3 || capClass(q) == 3); isVariable != variable {
-				return nil
-			}
 			qa, qb := Ends(q, false)
 			if qa != mid && qb != mid {
 				return nil
 			}
 			s, o := survivor(p, q)
 			return &Plan{Parts: []*graph.Part{s, o}, Nets: []string{mid}}
+		},
+		Guard: func(x *Ctx, m *Plan) (bool, string) {
+			s, o := m.Parts[0], m.Parts[1]
+			if s.Kind == graph.Capacitor && capClass(s) == 3 {
+				return false, x.describe(s) + " in series with " + x.describe(o) + " through " + m.Nets[0] +
+					": a gang section in series with a padder is not merged (the series combination C·Cp/(C+Cp) does not vary linearly with rotation; one variable capacitor would be right at the ends of the travel only)"
+			}
+			return true, ""
 		},
 		Apply: func(x *Ctx, m *Plan) Step {
 			s, o, mid := m.Parts[0], m.Parts[1], m.Nets[0]
@@ -72,9 +74,6 @@ func seriesRule(name string, level Level, variable bool, purpose string) Rule {
 			switch s.Kind {
 			case graph.Capacitor:
 				r, note = mergedCap(s, o, recip)
-				if capClass(s) == 3 {
-					note += ": a padder in series narrows the range at the top (Cmin·Cp/(Cmin+Cp) .. Cmax·Cp/(Cmax+Cp)); exact at both ends of the travel, in between only approximately a linear range"
-				}
 			default:
 				r, note = mergedRL(s, o, sum)
 				if s.Kind == graph.Inductor {

@@ -21,7 +21,6 @@ var table = [...]*Rule{
 	&series,          // tidy:   series R, C, L through an otherwise empty net
 	&bypass,          // signal: bypass and decoupling capacitors ground their net
 	&rfChoke,         // signal: RF chokes open
-	&padder,          // ideal:  a gang section and its padder as one variable capacitor
 	&couplingShort,   // ideal:  coupling capacitors become wires
 	&chokeOpen,       // ideal:  chokes open when they at least match what they shunt
 }

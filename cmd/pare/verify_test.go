@@ -145,3 +145,23 @@ func TestVerifyDeterministic(t *testing.T) {
 		t.Errorf("two runs differ:\n%s\n---\n%s", a, b)
 	}
 }
+
+// The examples verify at every level, the ideal view included: the ideal
+// view may short coupling capacitors and open chokes only where the AC
+// comparison (0.5 dB, 5°, common practice for a redrawn circuit) agrees.
+// A gang section merged with its padder into one linear range moved the
+// frequency changer's aerial-to-IF transfer by about 20 dB at mid-travel.
+func TestVerifyExamplesAtEveryLevel(t *testing.T) {
+	files, _ := filepath.Glob(filepath.Join(root, "examples", "*.toml"))
+	if len(files) == 0 {
+		t.Skip("no examples")
+	}
+	for _, f := range files {
+		for _, lvl := range []string{"tidy", "signal", "ideal"} {
+			code, out, errs := cliRun(t, "verify", "--level", lvl, f)
+			if code != exitOK || !strings.Contains(out, "ok: all") {
+				t.Errorf("verify --level %s %s: exit %d\n%s\n%s", lvl, filepath.Base(f), code, out, errs)
+			}
+		}
+	}
+}
