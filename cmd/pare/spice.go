@@ -30,12 +30,16 @@ func init() {
 		detail: `Writes a SPICE-compatible deck of the small-signal circuit pare solves:
 R, L and C elements, K cards for coupled windings, G elements for the
 transconductances of valves, transistors and FETs, a 1 V AC source on --from
-(default: the first input), an .ac dec card over the circuit's bands, and a
+(default: the first input), an .ac card over the circuit's bands, and a
 .control block that runs the sweep and writes the magnitude and phase
 (radians) of every output with wrdata into OUT.dat (pare-ac.dat on stdout).
 Run it with 'ngspice -b OUT.cir'. --reduced writes the reduced circuit
 (--level chooses the reduction). Node names are the net names, lower-cased
 with other characters replaced; the deck lists every renaming.
+
+The sweep has at least 101 points: a band narrower than an octave is swept
+linearly (.ac lin), a wider one logarithmically (.ac dec) at --per-decade or
+at the density that gives 101 points, whichever is more.
 
 It is a small-signal model: no bias, no supplies, nothing about DC or safety.`,
 		flags: func(fs *flag.FlagSet) any {
@@ -45,7 +49,7 @@ It is a small-signal model: no bias, no supplies, nothing about DC or safety.`,
 			fs.StringVar(&o.level, "level", "signal", "reduction level for --reduced: tidy, signal or ideal")
 			fs.StringVar(&o.from, "from", "", "net driven by the AC source (default: the first input)")
 			fs.StringVar(&o.at, "at", "mid", "gang setting: min, mid, max or a fraction 0..1")
-			fs.IntVar(&o.ppd, "per-decade", 50, "sweep points per decade")
+			fs.IntVar(&o.ppd, "per-decade", 50, "sweep points per decade (at least 101 points in all; linear below an octave)")
 			fs.StringVar(&o.band, "band", "", "sweep span, e.g. 400k..2M (default: the circuit's full band)")
 			o.term = termFlag{}
 			fs.Var(o.term, "term", "terminate a net: NET=OHMS to ground (repeatable; ports are open otherwise)")

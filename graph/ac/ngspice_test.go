@@ -3,6 +3,8 @@ package ac
 import (
 	"bufio"
 	"bytes"
+	"context"
+	"errors"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -13,6 +15,7 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 
 	"pare/graph"
 )
@@ -23,7 +26,19 @@ import (
 const (
 	spiceTolDB  = 0.01
 	spiceTolDeg = 0.1
+	// spiceTimeout bounds one ngspice run.
+	spiceTimeout = 30 * time.Second
 )
+
+// acLine is the deck's .ac card.
+func acLine(deck string) string {
+	for _, l := range strings.Split(deck, "\n") {
+		if strings.HasPrefix(l, ".ac ") {
+			return l
+		}
+	}
+	return ""
+}
 
 // needNgspice returns the path of ngspice, or skips the test; with
 // PARE_REQUIRE_NGSPICE=1 (set by .ci/run) a missing ngspice fails it.
@@ -52,11 +67,19 @@ func spiceRun(t testing.TB, bin string, c *graph.Circuit, o SpiceOptions) ([]flo
 	if err := os.WriteFile(filepath.Join(dir, "deck.cir"), deck.Bytes(), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	cmd := exec.Command(bin, "-b", "deck.cir")
+	// Every deck here runs in well under a second; one that takes longer is
+	// a sweep card gone wrong (a narrow band at a few points per decade made
+	// ngspice-39 run for minutes), and the test fails instead of hanging.
+	ctx, cancel := context.WithTimeout(context.Background(), spiceTimeout)
+	defer cancel()
+	cmd := exec.CommandContext(ctx, bin, "-b", "deck.cir")
 	cmd.Dir = dir
 	var stdout, stderr bytes.Buffer
 	cmd.Stdout, cmd.Stderr = &stdout, &stderr
 	if err := cmd.Run(); err != nil {
+		if errors.Is(ctx.Err(), context.DeadlineExceeded) {
+			t.Fatalf("ngspice did not finish within %v: the deck's sweep card is %q", spiceTimeout, acLine(deck.String()))
+		}
 		t.Fatalf("ngspice: %v\n%s", err, stderr.String())
 	}
 	// ngspice exits 0 on errors inside .control and on singular matrices
@@ -240,4 +263,32 @@ func TestAgainstNgspice(t *testing.T) {
 		})
 	}
 	t.Logf("%d decks; worst disagreement with ngspice over all points: %.3g dB, %.3g°", len(cases), worstDB, worstDeg)
+}
+
+// A band narrower than an octave (a 10.7 MHz discriminator swept over
+// 10.6–10.8 MHz) is swept linearly at 101 points or more: at 50 points per
+// decade a logarithmic card asks for 0.4 points, and ngspice-39 then ran
+// for minutes. The deck must finish within spiceTimeout, give at least 101
+// rows spanning the band, and agree with pare at every row (ngspice is the
+// reference, 0.01 dB and 0.1°).
+func TestNarrowBandDeckAgainstNgspice(t *testing.T) {
+	bin := needNgspice(t)
+	c := load(t, "testdata/fm-discriminator.toml")
+	o := SpiceOptions{PointsPerDecade: 50}
+	freqs, ref := spiceRun(t, bin, c, o)
+	if len(freqs) < MinSpicePoints {
+		t.Fatalf("%d rows, want at least %d", len(freqs), MinSpicePoints)
+	}
+	if freqs[0] != 10.6e6 || math.Abs(freqs[len(freqs)-1]-10.8e6) > 1 {
+		t.Errorf("sweep spans %g..%g Hz, want the band 10.6–10.8 MHz", freqs[0], freqs[len(freqs)-1])
+	}
+	got, err := transferMany(c, c.Inputs[0], c.Outputs, freqs, o.Options)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, f := range freqs {
+		if d, p := deviation(got[0][i], ref[0][i]); d > spiceTolDB || p > spiceTolDeg {
+			t.Fatalf("at %.7g Hz: pare %v, ngspice %v: %.4g dB, %.4g°", f, got[0][i], ref[0][i], d, p)
+		}
+	}
 }

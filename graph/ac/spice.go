@@ -21,7 +21,9 @@ type SpiceOptions struct {
 	// Outputs are the nets whose magnitude and phase wrdata records; nil takes
 	// the circuit's outputs (or the input alone when it declares none).
 	Outputs []string
-	// PointsPerDecade of the .ac dec sweep; 0 means 50.
+	// PointsPerDecade of the .ac dec sweep; 0 means 50. The sweep has at
+	// least MinSpicePoints points whatever the density, and a band narrower
+	// than an octave is swept linearly (see acCard).
 	PointsPerDecade int
 	// Band of the sweep; the zero Range takes the circuit's full band
 	// (default band and every region).
@@ -108,9 +110,17 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 	}
 	sw.line("* Small-signal only: no bias, no supplies; rails, heater and bias nets are node 0.")
 	sw.line("* Device models and defaults: see pare's graph/ac documentation.")
-	sw.line("* Node names (pare net -> deck node):")
+	var renamed []int
 	for i := 1; i < len(nl.nodes); i++ {
 		if sw.nodes[i] != nl.nodes[i] {
+			renamed = append(renamed, i)
+		}
+	}
+	if len(renamed) == 0 {
+		sw.line("* Node names are pare's net names; ground is node 0.")
+	} else {
+		sw.line("* Node names are pare's net names, ground is node 0, except (pare net -> deck node):")
+		for _, i := range renamed {
 			sw.line("*   %s -> %s", oneLine(nl.nodes[i]), sw.nodes[i])
 		}
 	}
@@ -139,7 +149,7 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 		saves = append(saves, "v("+sw.nodes[n]+")")
 	}
 	sw.line(".save %s", strings.Join(saves, " "))
-	sw.line(".ac dec %d %s %s", ppd, num(band.Min), num(band.Max))
+	sw.line("%s", acCard(band, ppd))
 	sw.line(".control")
 	sw.line("set wr_singlescale")
 	sw.line("set wr_vecnames")
@@ -300,4 +310,29 @@ func num(v float64) string {
 		return strconv.FormatFloat(v, 'f', -1, 64)
 	}
 	return strconv.FormatFloat(v, 'e', -1, 64)
+}
+
+// MinSpicePoints is the fewest frequencies a deck's sweep asks for: enough
+// to see a tuned circuit's peak on any band.
+const MinSpicePoints = 101
+
+// acCard is the deck's sweep card. A logarithmic sweep at ppd points per
+// decade over a narrow band asks the simulator for less than one point
+// (50 per decade over 10.6–10.8 MHz is 0.4), which ngspice-39 does not
+// refuse but turns into a run of minutes and gigabytes. So a band narrower
+// than an octave is swept linearly, and a wider one at a density raised to
+// give at least MinSpicePoints points over the band; a single frequency is
+// one point.
+func acCard(band value.Range, ppd int) string {
+	f1, f2 := band.Min, band.Max
+	if f2 <= f1 {
+		return fmt.Sprintf(".ac lin 1 %s %s", num(f1), num(f1))
+	}
+	decades := math.Log10(f2 / f1)
+	if f2/f1 < 2 {
+		n := max(MinSpicePoints, int(math.Ceil(float64(ppd)*decades))+1)
+		return fmt.Sprintf(".ac lin %d %s %s", n, num(f1), num(f2))
+	}
+	ppd = max(ppd, int(math.Ceil(float64(MinSpicePoints-1)/decades)))
+	return fmt.Sprintf(".ac dec %d %s %s", ppd, num(f1), num(f2))
 }
