@@ -208,12 +208,17 @@ func printStages(w io.Writer, path string, c *graph.Circuit, lvl rules.Level, fo
 }
 
 // figureLine prints a stage's figures on one line, a min/max pair as one
-// range ("osc f 1 MHz–2.07 MHz").
+// range ("osc f 1 MHz–2.07 MHz"), the tracking error with where it occurs
+// as one item, the three exact-tracking points as one item.
 func figureLine(figs map[string]float64) string {
 	var out []string
 	done := map[string]bool{}
 	for _, k := range stages.KeyFigures(figs) {
 		if done[k] || hiddenFigures[lastFigure(k)] {
+			continue
+		}
+		if item, ok := joinedFigure(figs, k, done); ok {
+			out = append(out, item)
 			continue
 		}
 		if strings.Contains(k, "_max_") {
@@ -225,14 +230,80 @@ func figureLine(figs map[string]float64) string {
 			hi := strings.Replace(k, "_min_", "_max_", 1)
 			if v, ok := figs[hi]; ok {
 				done[hi] = true
-				label := figureLabel(strings.Replace(k, "_min_", "_", 1))
+				label := figureWords(strings.Replace(k, "_min_", "_", 1))
 				out = append(out, label+" "+stages.FigureText(k, figs[k])+"–"+stages.FigureText(hi, v))
 				continue
 			}
 		}
-		out = append(out, figureLabel(k)+" "+stages.FigureText(k, figs[k]))
+		out = append(out, figureWords(k)+" "+stages.FigureText(k, figs[k]))
 	}
 	return strings.Join(out, ", ")
+}
+
+// joinedFigure prints figures that only make sense together as one item:
+// the worst tracking error and the dial frequency where it occurs ("track
+// err max -7.708 kHz at 1.6 MHz"), and the three frequencies where a
+// three-point padding tracks exactly. It marks the keys it used in done.
+func joinedFigure(figs map[string]float64, k string, done map[string]bool) (string, bool) {
+	base, ok := strings.CutSuffix(k, "track_err_max_hz")
+	if !ok {
+		base, ok = strings.CutSuffix(k, "track_err_at_hz")
+	}
+	if ok {
+		maxK, atK := base+"track_err_max_hz", base+"track_err_at_hz"
+		v, hasMax := figs[maxK]
+		at, hasAt := figs[atK]
+		done[maxK], done[atK] = true, true
+		switch {
+		case hasMax && hasAt:
+			return "track err max " + stages.FigureText(maxK, v) + " at " + stages.FigureText(atK, at), true
+		case hasMax:
+			return "track err max " + stages.FigureText(maxK, v), true
+		}
+		return "", true // where the error peaks, without the error, says nothing
+	}
+	if base, ok := strings.CutSuffix(k, "track_f1_hz"); ok {
+		var at []string
+		for _, n := range []string{"1", "2", "3"} {
+			key := base + "track_f" + n + "_hz"
+			if v, has := figs[key]; has {
+				at = append(at, stages.FigureText(key, v))
+				done[key] = true
+			}
+		}
+		if len(at) == 3 {
+			return "tracks exactly at " + at[0] + ", " + at[1] + " and " + at[2], true
+		}
+		return "tracks exactly at " + strings.Join(at, " and "), true
+	}
+	return "", false
+}
+
+// figureNames are the words for figure keys whose plain spelling
+// (figureLabel: underscores to spaces, unit dropped) reads badly. The keys
+// themselves, in --json, stay as they are.
+var figureNames = map[string]string{
+	"if":            "IF",
+	"ift_f":         "IF transformer f",
+	"load_f":        "load tuned f",
+	"f_c_unloaded":  "f c (unloaded)",
+	"r_dyn":         "dynamic R",
+	"r_in":          "r in",
+	"bw":            "bandwidth",
+	"pad_c":         "3-point padder",
+	"pad_l":         "3-point coil",
+	"pad_trim":      "3-point trimmer",
+	"gain_ac":       "gain (AC check)",
+	"gain_unloaded": "gain unloaded",
+}
+
+// figureWords is the label figureLine prints before a figure's value.
+func figureWords(key string) string {
+	name := figureLabel(key)
+	if w, ok := figureNames[strings.ReplaceAll(name, " ", "_")]; ok {
+		return w
+	}
+	return name
 }
 
 // wrap breaks a figure line after commas so no line runs past width.

@@ -19,7 +19,7 @@ func TestStagesFrequencyChanger(t *testing.T) {
 	for _, want := range []string{
 		"self-oscillating-mixer", "Self-oscillating mixer, Hartley oscillator with cathode tap (valve)",
 		"hartley-common-tap", "contains: S2.1, S2.2",
-		"osc f 1.004 MHz–2.063 MHz", "sig f 534.1 kHz–1.593 MHz", "image f 1.474 MHz–2.533 MHz", "if 470 kHz",
+		"osc f 1.004 MHz–2.063 MHz", "sig f 534.1 kHz–1.593 MHz", "image f 1.474 MHz–2.533 MHz", "IF 470 kHz", "track err max -7.708 kHz at 1.6 MHz",
 		"lethal", "isolation transformer", "small-signal",
 	} {
 		if !strings.Contains(out, want) {
@@ -156,5 +156,43 @@ func TestStagesLimit(t *testing.T) {
 	code, _, errs := cliRun(t, "stages", "--limit", "5", filepath.Join(root, "examples/frequency-changer.toml"))
 	if code != exitFound || !strings.Contains(errs, "search limit reached") {
 		t.Errorf("exit %d, stderr %q", code, errs)
+	}
+}
+
+// The figure line a person reads: the tracking error with where it peaks as
+// one item, the three exact-tracking points as one item, trade words for
+// the IF; ranges joined; JSON keys untouched (they are the map's keys).
+func TestFigureLine(t *testing.T) {
+	cases := []struct {
+		figs map[string]float64
+		want string
+	}{
+		{map[string]float64{"track_err_max_hz": -7708, "track_err_at_hz": 1.6e6},
+			"track err max -7.708 kHz at 1.6 MHz"},
+		{map[string]float64{"track_f1_hz": 591.7e3, "track_f2_hz": 1.053e6, "track_f3_hz": 1.509e6},
+			"tracks exactly at 591.7 kHz, 1.053 MHz and 1.509 MHz"},
+		{map[string]float64{"if_hz": 470e3, "ift_f_hz": 469.9e3}, "IF 470 kHz, IF transformer f 469.9 kHz"},
+		{map[string]float64{"load_f_hz": 456.6e3}, "load tuned f 456.6 kHz"},
+		{map[string]float64{"f_min_hz": 527.4e3, "f_max_hz": 1.6e6, "c_min_f": 43e-12, "c_max_f": 396e-12}, "f 527.4 kHz–1.6 MHz"},
+		{map[string]float64{"f_c_unloaded_hz": 1591.5, "tau_s": 100e-6}, "f c (unloaded) 1.592 kHz, tau 100 µs"},
+		// where the error peaks without the error says nothing: left out
+		{map[string]float64{"track_err_at_hz": 1.6e6}, ""},
+	}
+	for _, tc := range cases {
+		if got := figureLine(tc.figs); got != tc.want {
+			t.Errorf("figureLine(%v) = %q, want %q", tc.figs, got, tc.want)
+		}
+	}
+}
+
+// A circuit with a switch S1 (IEC letter code S) names its stages ST1, ST2…
+// so a frame never carries the name of a part inside it.
+func TestStagesNamesBesideASwitch(t *testing.T) {
+	code, out, errs := cliRun(t, "stages", filepath.Join(root, "rules/stages/testdata/band-switch.toml"))
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	if !strings.Contains(out, "\nST1 ") || strings.Contains(out, "\nS1 ") {
+		t.Errorf("stage names clash with switch S1:\n%s", out)
 	}
 }

@@ -226,7 +226,7 @@ func outsideRank(s string) int {
 	switch s {
 	case "none":
 		return 3
-	case "signal":
+	case "signal", "source":
 		return 2
 	case "some":
 		return 1

@@ -36,6 +36,7 @@ func init() {
 		"mixer":        {args: []string{"coil", "caps", "ift", "ift_caps", "winding"}, required: []string{"coil", "caps", "ift", "ift_caps"}, wordArgs: []string{"winding"}, fn: calcMixer},
 		"pi":           {args: []string{"c1", "coil", "c2"}, required: []string{"c1", "coil", "c2"}, fn: calcPi},
 		"smoothing":    {args: []string{"c1", "series", "c2"}, required: []string{"c1", "series", "c2"}, fn: calcSmoothing},
+		"coupling":     {args: []string{"c"}, required: []string{"c"}, fn: calcCoupling},
 		"value":        {args: []string{"part", "key"}, required: []string{"part", "key"}, wordArgs: []string{"key"}, fn: calcValue},
 		"ratio":        {args: []string{"xfmr"}, required: []string{"xfmr"}, fn: calcRatio},
 		"tuned-gain":   {args: []string{"device", "coil", "winding", "caps"}, required: []string{"device", "coil", "caps"}, wordArgs: []string{"winding"}, fn: calcTunedGain},
@@ -293,6 +294,21 @@ func calcRC(x *figCtx) {
 	tau := r * c
 	fc := 1 / (2 * math.Pi * tau)
 	x.set("tau_s", tau)
+	if x.word("use", "") == "section" {
+		if loads := x.loadsBeyond(x.parts("c")); len(loads) > 0 {
+			// 1/(2πRC) holds only for a section into an open circuit; the
+			// next section draws current from C, so the true −3 dB point
+			// is lower. Say so rather than print a corner that is not there.
+			x.set("f_c_unloaded_hz", fc)
+			verb := "loads"
+			if len(loads) > 1 {
+				verb = "load"
+			}
+			x.st.Notes = append(x.st.Notes, fmt.Sprintf("corner figured unloaded: %s %s the section, so its real corner is lower",
+				strings.Join(loads, ", "), verb))
+			return
+		}
+	}
 	x.set("f_c_hz", fc)
 	switch x.word("use", "") {
 	case "agc":
@@ -380,6 +396,106 @@ func calcSmoothing(x *figCtx) {
 	case graph.Resistor:
 		x.set("f_c_hz", 1/(2*math.Pi*s.Value.Max*c2))
 	}
+}
+
+// loadsBeyond lists the parts outside the match on the signal nets of the
+// given shunt parts that draw current: everything but ports and the control
+// terminal of an amplifying device (a grid or gate takes next to none).
+func (x *figCtx) loadsBeyond(shunts []*graph.Part) []string {
+	in := map[int]bool{}
+	for _, ci := range x.m.parts {
+		in[ci] = true
+	}
+	seen := map[string]bool{}
+	var out []string
+	for _, p := range shunts {
+		pi := x.partIndex(p)
+		if pi < 0 {
+			continue
+		}
+		for _, net := range x.w.pins[pi] {
+			if net == groundNet {
+				continue
+			}
+			for _, ci := range x.w.conns[net] {
+				q := x.w.parts[ci]
+				if in[ci] || q.Kind == graph.Port || seen[q.Ref] || x.controlOnly(ci, net) {
+					continue
+				}
+				seen[q.Ref] = true
+				out = append(out, q.Ref)
+			}
+		}
+	}
+	sort.Strings(out)
+	return out
+}
+
+// controlOnly tells whether part ci touches net only through its control
+// terminal (grid, base, gate): a high-impedance input, not a load.
+func (x *figCtx) controlOnly(ci, net int) bool {
+	touches := false
+	for j, id := range x.w.pins[ci] {
+		if id != net {
+			continue
+		}
+		if x.w.roles[ci][j] != graph.RoleControl {
+			return false
+		}
+		touches = true
+	}
+	return touches
+}
+
+// calcCoupling: a series capacitor and the resistance it feeds, the
+// resistive network from its far side to AC ground (the next grid leak or
+// input resistance), make a high-pass: τ = RC, fc = 1/(2πRC)
+// (reference-values §4). The far side is the one downstream in signal
+// order; a capacitor into a tank or port alone has no corner.
+func calcCoupling(x *figCtx) {
+	p := x.part("c")
+	if p == nil {
+		return
+	}
+	c := p.Value.Max
+	x.set("c_f", c)
+	ci := x.partIndex(p)
+	if ci < 0 || len(x.w.pins[ci]) != 2 || c <= 0 {
+		return
+	}
+	dist := x.w.signalDist()
+	best, bestR, bestD := -1, 0.0, -1
+	for _, net := range x.w.pins[ci] {
+		if net == groundNet {
+			return
+		}
+		r := resistanceToGround(x.w, net)
+		if r <= 0 {
+			continue
+		}
+		d := math.MaxInt // a side nothing else reaches from the inputs is downstream
+		if x.w.isInput(net) {
+			d = -1
+		}
+		for _, other := range x.w.conns[net] {
+			if other == ci {
+				continue
+			}
+			if od, ok := dist[x.w.parts[other].Ref]; ok && od < d {
+				d = od
+			}
+		}
+		if d > bestD {
+			best, bestR, bestD = net, r, d
+		}
+	}
+	if best < 0 {
+		return
+	}
+	tau := bestR * c
+	x.set("r_in_ohm", bestR)
+	x.set("tau_s", tau)
+	x.set("f_c_hz", 1/(2*math.Pi*tau))
 }
 
 func calcValue(x *figCtx) {

@@ -81,13 +81,14 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	if o.Full != nil {
 		orig = newWorld(o.Full, false, acg)
 	}
+	order := signalOrder(reduced)
 	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)
+	foldShunts(reduced, acg, signal, order)
 	var power []*found
 	var errPow error
 	if o.Full != nil && errSig == nil {
 		power, errPow = recognise(o.Full, lib, true, nil, nil, budget)
 	}
-	order := signalOrder(reduced)
 	sort.SliceStable(signal, func(i, j int) bool {
 		a, b := order.of(signal[i].Parts), order.of(signal[j].Parts)
 		if a != b {
@@ -97,9 +98,10 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	})
 	var out []Stage
 	n := 0
+	prefix := namePrefix(reduced, o.Full, len(signal)+len(power))
 	name := func(s *Stage) {
 		n++
-		s.Name = fmt.Sprintf("S%d", n)
+		s.Name = fmt.Sprintf("%s%d", prefix, n)
 	}
 	for _, top := range signal {
 		name(top.Stage)
@@ -110,6 +112,100 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		out = appendTree(out, top)
 	}
 	return out, errors.Join(errSig, errPow)
+}
+
+// namePrefix is "S" for stage names (S1, S2.1), or "ST" when a part of the
+// circuit is itself called S1, S2… (IEC 60617 letter code S for a switch):
+// a frame "S1" drawn round switch S1 would say two things at once. Sub-stage
+// names are checked too, so S2.1 never clashes with a ref either.
+func namePrefix(reduced, full *graph.Circuit, stages int) string {
+	refs := map[string]bool{}
+	for _, c := range []*graph.Circuit{reduced, full} {
+		if c == nil {
+			continue
+		}
+		for _, p := range c.Parts {
+			refs[p.Ref] = true
+		}
+	}
+	for r := range refs {
+		if stageLike(r) {
+			return "ST"
+		}
+	}
+	return "S"
+}
+
+// stageLike tells whether a ref reads like a stage name: S, then digits,
+// optionally dotted ("S1", "S2.1").
+func stageLike(ref string) bool {
+	rest, ok := strings.CutPrefix(ref, "S")
+	if !ok || rest == "" {
+		return false
+	}
+	for _, f := range strings.Split(rest, ".") {
+		if f == "" || strings.Trim(f, "0123456789") != "" {
+			return false
+		}
+	}
+	return true
+}
+
+// foldShunts gives each resistor that no stage claims and that runs from a
+// signal net to AC ground (a grid leak, an anode or speaker load, a return)
+// to the stage it loads: the first stage in signal order with a part on its
+// signal net, that is the one feeding the net. A lone resistor is no stage of
+// its own; one next to no stage stays unmatched.
+func foldShunts(c *graph.Circuit, acg map[string]bool, tops []*found, ord order) {
+	ground := func(net string) bool { return acg[net] || c.RoleOf(net).IsACGround() }
+	claimed := map[string]bool{}
+	for _, f := range tops {
+		for r := range f.set {
+			claimed[r] = true
+		}
+	}
+	// which top-level stages touch each net, in signal order
+	touching := map[string][]*found{}
+	for _, f := range tops {
+		for _, ref := range f.Parts {
+			p := c.Part(ref)
+			if p == nil {
+				continue
+			}
+			for _, pin := range p.Pins {
+				l := touching[pin.Net]
+				if len(l) == 0 || l[len(l)-1] != f {
+					touching[pin.Net] = append(l, f)
+				}
+			}
+		}
+	}
+	for _, p := range c.Parts {
+		if p.Kind != graph.Resistor || claimed[p.Ref] || len(p.Pins) != 2 {
+			continue
+		}
+		a, b := p.Pins[0].Net, p.Pins[1].Net
+		if ground(a) == ground(b) {
+			continue
+		}
+		if ground(a) {
+			a = b
+		}
+		var best *found
+		for _, f := range touching[a] {
+			if best == nil || ord.of(f.Parts) < ord.of(best.Parts) ||
+				ord.of(f.Parts) == ord.of(best.Parts) && f.Parts[0] < best.Parts[0] {
+				best = f
+			}
+		}
+		if best == nil {
+			continue
+		}
+		best.Parts = append(best.Parts, p.Ref)
+		sort.Strings(best.Parts)
+		best.set[p.Ref] = true
+		claimed[p.Ref] = true
+	}
 }
 
 // appendTree adds a stage and, depth first, its sub-stages named after it.
@@ -294,6 +390,9 @@ func evaluate(w *world, m *match) *Stage {
 	if len(p.Families) > 0 && !contains(p.Families, st.Family) {
 		return nil
 	}
+	if p.Context == "fm" && !fmReceived(w.c) {
+		return nil
+	}
 	title := p.Title
 	if t, ok := p.Titles[st.Family]; ok {
 		title = t
@@ -312,6 +411,19 @@ func evaluate(w *world, m *match) *Stage {
 	}
 	sort.Strings(st.Flags)
 	return st
+}
+
+// fmMinHz is where FM reception shows in a circuit's frequencies: the
+// usual FM IF is 10.7 MHz and the broadcast band 88–108 MHz, while AM sets
+// stop near 30 MHz with a 450–470 kHz IF (from memory). A band or IF of
+// 10 MHz or more says the set handles FM.
+const fmMinHz = 10e6
+
+// fmReceived tells whether a circuit receives FM: its band, a region's band
+// or its declared IF reaches fmMinHz. A network that only makes sense after
+// an FM detector (de-emphasis) is not looked for anywhere else.
+func fmReceived(c *graph.Circuit) bool {
+	return c.FullBand().Max >= fmMinHz || c.Freqs["if"] >= fmMinHz
 }
 
 // familyOf is the kind of the first amplifying device in the match, a

@@ -31,6 +31,26 @@ type world struct {
 	resAdj   map[int][]branch    // net → resistive branches, built on first use
 	roles    [][]graph.TermRole  // part index → role per pin
 	index    map[*graph.Part]int // part → its index
+	dist     order               // part ref → distance from the inputs, built on first use
+}
+
+// signalDist is each part's breadth-first distance from the circuit's
+// inputs (signalOrder), built once per world.
+func (w *world) signalDist() order {
+	if w.dist == nil {
+		w.dist = signalOrder(w.c)
+	}
+	return w.dist
+}
+
+// isInput tells whether a net is a declared input of the circuit.
+func (w *world) isInput(net int) bool {
+	for _, n := range w.c.Inputs {
+		if id, ok := w.netID[n]; ok && id == net {
+			return true
+		}
+	}
+	return false
 }
 
 // coil is one winding of a transformer as the pattern sees it: two ends,
@@ -354,6 +374,16 @@ func (s *searcher) complete(m *match) {
 			}
 		case "some":
 			if len(others) == 0 {
+				return
+			}
+		case "source":
+			fed := false
+			for _, ci := range others {
+				if k := w.parts[ci].Kind; k != graph.Resistor && k != graph.Capacitor {
+					fed = true
+				}
+			}
+			if !fed {
 				return
 			}
 		case "signal":

@@ -30,11 +30,14 @@ type Pattern struct {
 	Rank     int               // specificity among matches of equal size; higher wins
 	Inner    bool              // may be recorded as a sub-stage of a larger stage
 	Families []string
-	Nets     []PNet
-	Parts    []PPart
-	Figures  []FigureSpec
-	Guards   []Guard
-	Pos      graph.Pos // where the pattern's id was written
+	// Context names a condition on the circuit as a whole: "fm" means the
+	// stage only exists where FM is received (see fmReceived).
+	Context string
+	Nets    []PNet
+	Parts   []PPart
+	Figures []FigureSpec
+	Guards  []Guard
+	Pos     graph.Pos // where the pattern's id was written
 
 	variants []*variant
 }
@@ -50,7 +53,9 @@ type PNet struct {
 	// "none" (only the pattern's parts touch it), "some" (something else
 	// does), "signal" (the net is fed from elsewhere: a part outside the
 	// match reaches another non-ground net, or a port, or the net is a
-	// declared input or output).
+	// declared input or output), "source" (a part outside the match that is
+	// not a resistor or capacitor touches it: a diode, winding, device or
+	// port feeds it, not another RC section).
 	Outside string
 	Pos     graph.Pos
 }
@@ -97,7 +102,7 @@ type Guard struct {
 var deviceKinds = []string{"active", "valve", "bjt", "fet", "resistor", "capacitor", "inductor",
 	"tapped-coil", "transformer", "diode", "double-diode", "crystal", "element", "pot"}
 
-var patternKeys = []string{"id", "title", "titles", "group", "circuit", "rank", "inner", "families", "nets", "parts", "figure", "guard", "note"}
+var patternKeys = []string{"id", "title", "titles", "group", "circuit", "rank", "inner", "families", "context", "nets", "parts", "figure", "guard", "note"}
 var netKeys = []string{"at", "outside"}
 var partKeys = []string{"device", "type", "optional", "pins", "windings", "min", "max", "shared"}
 var activeKeys = []string{"control", "common", "output", "grid"}
@@ -349,6 +354,8 @@ func (ld *patLoader) pattern(raw map[string]any) {
 			for i, f := range ld.strs(k, v) {
 				p.Families = append(p.Families, ld.oneOf(fmt.Sprintf("%s[%d]", k, i), f, []string{"valve", "bjt", "fet", "passive"}))
 			}
+		case "context":
+			p.Context = ld.oneOf(k, v, []string{"fm"})
 		case "note":
 			ld.str(k, v)
 		case "nets":
@@ -434,7 +441,7 @@ func (ld *patLoader) net(path, name string, v any) {
 		case "at":
 			n.At = ld.oneOf(kp, m[k], []string{"signal", "ground", "any", "rail", "not-ground"})
 		case "outside":
-			n.Outside = ld.oneOf(kp, m[k], []string{"none", "some", "signal"})
+			n.Outside = ld.oneOf(kp, m[k], []string{"none", "some", "signal", "source"})
 		default:
 			ld.unknown(kp, k, netKeys)
 		}

@@ -65,7 +65,7 @@ func TestPatternDir(t *testing.T) {
 	own := `id = "series-rc"
 title = "Series RC to ground"
 group = "coupling"
-rank = 3
+rank = 4
 [nets]
 a = {}
 m = {}
