@@ -45,7 +45,12 @@ one setting (min, mid, max or a fraction of the travel, 0 to 1).
 
 --steps compares the circuit with the original after every rewrite step; the
 engine refuses a step that breaks the tolerance, and verify names the first
-such step. Exit status 1 when a pair is out of tolerance or a step was refused.
+such step. Exit status 1 when a pair is out of tolerance, a step was refused
+or the circuit cannot be solved (a floating net: "cannot be solved: ...");
+2 for bad input or usage.
+
+A group of nets reached only through ports (a mains primary on its ports) is
+held at 0 V as an undriven source; --term on a port net models it otherwise.
 
 The comparison is of the small-signal models only (documented in pare's
 graph/ac package): it says nothing about DC conditions or safety.`,
@@ -89,6 +94,36 @@ type verifyJSON struct {
 	Notes   []string      `json:"notes,omitempty"`
 	Level   string        `json:"level"`
 	Refused []refusedStep `json:"refused_steps,omitempty"`
+	Error   string        `json:"error,omitempty"` // why nothing could be compared
+}
+
+// reportUnsolvable reports a comparison that could not run. A stated
+// termination naming no net is bad usage (exit 2); anything else (a
+// floating net, a singular system) is a finding about a valid netlist,
+// reported like a failed verification with exit 1, as the main job does.
+func reportUnsolvable(e *env, path string, lvl rules.Level, cmp ac.CompareOptions, asJSON bool, err error) int {
+	var list graph.ErrorList
+	if errors.As(err, &list) {
+		for _, x := range list {
+			fmt.Fprintln(e.stderr, x.Error())
+		}
+		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+		return exitBad
+	}
+	msg := "cannot be solved: " + err.Error()
+	if asJSON {
+		enc := json.NewEncoder(e.stdout)
+		enc.SetIndent("", "  ")
+		if err := enc.Encode(verifyJSON{Pairs: []ac.Pair{}, TolDB: cmp.TolDB, TolDeg: cmp.TolDeg, Level: lvl.String(), Error: msg}); err != nil {
+			fmt.Fprintf(e.stderr, "pare verify: %v\n", err)
+			return exitBad
+		}
+		return exitFound
+	}
+	fmt.Fprintf(e.stdout, "%s: reduction at level %s against the original, tolerance %g dB, %g°\n", path, lvl, cmp.TolDB, cmp.TolDeg)
+	fmt.Fprintf(e.stdout, "FAILED: the circuit %s\n", msg)
+	fmt.Fprintln(e.stdout, verifyCaution)
+	return exitFound
 }
 
 func runVerify(e *env, opts any, args []string) int {
@@ -141,13 +176,11 @@ func runVerify(e *env, opts any, args []string) int {
 		return reportReduceError(e, "verify", path, err)
 	}
 	if checkErr != nil {
-		fmt.Fprintf(e.stderr, "pare verify: %s: the original circuit cannot be analysed: %v\n", path, checkErr)
-		return exitBad
+		return reportUnsolvable(e, path, lvl, cmp, o.json, checkErr)
 	}
 	rep, err := ac.Compare(c, reduced, cmp)
 	if err != nil {
-		fmt.Fprintf(e.stderr, "pare verify: %s: %v\n", path, err)
-		return exitBad
+		return reportUnsolvable(e, path, lvl, cmp, o.json, err)
 	}
 	var refused []refusedStep
 	for _, s := range log.Steps {

@@ -165,3 +165,35 @@ func TestVerifyExamplesAtEveryLevel(t *testing.T) {
 		}
 	}
 }
+
+// A valid netlist whose AC model cannot be solved (a grid net touching
+// nothing but the grid floats: textbook nodal analysis, from memory) is a
+// finding, not bad input: exit 1 and "cannot be solved", as the main job
+// reports it; in --json too. A primary reached only through its mains ports
+// is held at 0 V as an undriven source and verifies.
+func TestVerifyUnsolvableAndPortFed(t *testing.T) {
+	floating := filepath.Join(root, "cmd/pare/testdata/unverifiable/floating-grid.toml")
+	for _, args := range [][]string{{"verify", floating}, {"verify", "--steps", floating}} {
+		code, out, errs := cliRun(t, args...)
+		if code != exitFound || !strings.Contains(out, "FAILED: the circuit cannot be solved: ") || !strings.Contains(out, "gx") {
+			t.Errorf("%v: exit %d, want 1 and 'cannot be solved' naming gx\n%s\n%s", args, code, out, errs)
+		}
+	}
+	code, out, _ := cliRun(t, "verify", "--json", floating)
+	var rep struct {
+		OK    *bool  `json:"ok"`
+		Error string `json:"error"`
+	}
+	if err := json.Unmarshal([]byte(out), &rep); err != nil || code != exitFound || rep.OK == nil || *rep.OK || !strings.HasPrefix(rep.Error, "cannot be solved: ") {
+		t.Errorf("--json: exit %d, %+v (%v)\n%s", code, rep, err, out)
+	}
+	bridge := filepath.Join(root, "graph/ac/testdata/mains-bridge.toml")
+	code, out, errs := cliRun(t, "verify", bridge)
+	if code != exitOK || !strings.Contains(out, "ok: all") || !strings.Contains(out, "held at 0 V: net(s) mains_l, mains_n") {
+		t.Errorf("verify of the port-fed bridge: exit %d\n%s\n%s", code, out, errs)
+	}
+	// A termination naming no net is bad usage: exit 2.
+	if code, _, errs := cliRun(t, "verify", "--term", "nosuch=5", bridge); code != exitBad || !strings.Contains(errs, "nosuch") {
+		t.Errorf("--term on a missing net: exit %d, %s", code, errs)
+	}
+}

@@ -7,6 +7,7 @@ import (
 	"math/cmplx"
 	"sort"
 	"strconv"
+	"strings"
 
 	"pare/graph"
 	"pare/graph/value"
@@ -170,6 +171,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	}
 	rep := &Report{TolDB: o.TolDB, TolDeg: o.TolDeg, OK: true, Pairs: []Pair{}}
 	qs := quantities(orig, reduced, rep)
+	qs = withoutHeldPorts(orig, qs, o.Options, rep)
 	if len(qs) == 0 {
 		rep.Notes = append(rep.Notes, "the circuit declares no inputs, outputs or ports: nothing to compare")
 		return rep, nil
@@ -232,6 +234,28 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	}
 	sort.Strings(rep.Notes)
 	return rep, nil
+}
+
+// withoutHeldPorts drops the impedances at port nets the model holds at
+// 0 V (portHeldNets: a group reached only through its ports) and says so:
+// both circuits would show zero there, which compares nothing.
+func withoutHeldPorts(orig *graph.Circuit, qs []quantity, o Options, rep *Report) []quantity {
+	nl, err := elaborate(orig, o)
+	if err != nil || len(nl.portHeld) == 0 {
+		return qs // an elaboration error is reported by the probes with its context
+	}
+	rep.Notes = append(rep.Notes, fmt.Sprintf("held at 0 V: net(s) %s, reached only through a port (an undriven source beyond it; state a termination to model it otherwise)",
+		strings.Join(nl.portHeld, ", ")))
+	out := qs[:0]
+	for _, q := range qs {
+		if q.what == "impedance" && contains(nl.portHeld, q.from) {
+			rep.Notes = append(rep.Notes, fmt.Sprintf("Z(%s) is not compared: the net is held at 0 V as an undriven source", q.from))
+			continue
+		}
+		out = append(out, q)
+	}
+	sort.Strings(rep.Notes)
+	return out
 }
 
 func contains(list []string, s string) bool {

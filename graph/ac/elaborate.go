@@ -60,6 +60,9 @@ type netlist struct {
 	netNode map[string]int // net name -> node
 	prims   []prim
 	groups  []group
+	// portHeld lists the port nets held at 0 V because nothing else gives
+	// their group of nets a path to ground (portHeldNets), sorted.
+	portHeld []string
 }
 
 // ncNet marks a terminal that is not connected (docs/netlist.md).
@@ -98,8 +101,99 @@ const groundName = "\x00ground" // sorts first; never a legal net name
 
 // elaborate turns a circuit into primitive elements. Nets with an AC-ground
 // role are ground; closed switch contacts, zero-ohm resistors, pot ends at a
-// wiper set to 0 or 1 and zero inductances join nets.
+// wiper set to 0 or 1 and zero inductances join nets. The nets of a port
+// that is the only way in to a group of nets with no path to ground are
+// held at 0 V as well (see portHeldNets).
 func elaborate(c *graph.Circuit, o Options) (*netlist, error) {
+	nl, err := build(c, o, nil)
+	if err != nil {
+		return nil, err
+	}
+	held := portHeldNets(c, nl)
+	if len(held) == 0 {
+		return nl, nil
+	}
+	if nl, err = build(c, o, held); err != nil {
+		return nil, err
+	}
+	nl.portHeld = held
+	return nl, nil
+}
+
+// portHeldNets finds the port nets of groups of nets that nothing connects
+// to ground, to a declared input or to a region's input through a part that
+// conducts at AC: a mains primary brought in on two ports, a winding wired
+// to a socket. Such a group is reached only from outside, through its
+// ports, so for the small-signal model the port is a source that is not
+// driven, and an undriven ideal source is 0 V: its nets are held at ground,
+// just as a transfer holds the circuit's other declared inputs at 0 V
+// (superposition). A mains primary is then shorted by the supply, which is
+// what a stiff supply does. Without this the group floats and no solution
+// exists; a stated termination (Options.Terminate) on a port net gives the
+// group its path to ground and overrides it. Returned sorted.
+func portHeldNets(c *graph.Circuit, nl *netlist) []string {
+	parent := make([]int, len(nl.nodes))
+	for i := range parent {
+		parent[i] = i
+	}
+	find := func(x int) int {
+		for parent[x] != x {
+			parent[x] = parent[parent[x]]
+			x = parent[x]
+		}
+		return x
+	}
+	join := func(a, b int) {
+		if a < 0 || b < 0 {
+			return
+		}
+		ra, rb := find(a), find(b)
+		if ra < rb {
+			parent[rb] = ra
+		} else if rb < ra {
+			parent[ra] = rb
+		}
+	}
+	for _, p := range nl.prims {
+		if p.kind != primVCCS {
+			join(p.a, p.b)
+		}
+	}
+	for _, g := range nl.groups {
+		for _, w := range g.winds {
+			join(w.a, w.b)
+		}
+	}
+	driven := append([]string(nil), c.Inputs...)
+	for _, r := range c.Regions {
+		driven = append(driven, r.Input)
+	}
+	for _, in := range driven {
+		if n, ok := nl.netNode[in]; ok {
+			join(0, n)
+		}
+	}
+	seen := map[string]bool{}
+	var held []string
+	for _, p := range c.Parts {
+		if p.Kind != graph.Port {
+			continue
+		}
+		for _, pin := range p.Pins {
+			n, ok := nl.netNode[pin.Net]
+			if !ok || !usable(pin.Net) || find(n) == find(0) || seen[pin.Net] {
+				continue
+			}
+			seen[pin.Net] = true
+			held = append(held, pin.Net)
+		}
+	}
+	sort.Strings(held)
+	return held
+}
+
+// build is elaborate with the nets in held joined to ground.
+func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
 	frac := 0.5
 	if o.VarSet {
 		frac = o.VarFrac
@@ -113,6 +207,9 @@ func elaborate(c *graph.Circuit, o Options) (*netlist, error) {
 		if n.Role.IsACGround() {
 			uf.join(groundName, n.Name)
 		}
+	}
+	for _, n := range held {
+		uf.join(groundName, n)
 	}
 	// Pass 1: joins.
 	for _, p := range c.Parts {

@@ -110,6 +110,9 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 	}
 	sw.line("* Small-signal only: no bias, no supplies; rails, heater and bias nets are node 0.")
 	sw.line("* Device models and defaults: see pare's graph/ac documentation.")
+	if len(nl.portHeld) > 0 {
+		sw.line("* Node 0 too, as undriven sources reached only through a port: %s", oneLine(strings.Join(nl.portHeld, ", ")))
+	}
 	var renamed []int
 	for i := 1; i < len(nl.nodes); i++ {
 		if sw.nodes[i] != nl.nodes[i] {
