@@ -30,7 +30,8 @@ topology of the pattern library in the reduced circuit: oscillators, amplifiers,
 mixers, tuned circuits, detectors, couplings, and on the original circuit the
 power supply. Stages are named S1, S2, … in signal order from the circuit's
 inputs; a stage inside another (the tank of an oscillator) is named after it,
-S2.1. Each stage comes with its figures (resonances and tuning ranges, IF,
+S2.1. In a circuit with a part called S1, S2… (a switch) they are named ST1,
+ST2, … instead. A resistor to AC ground joins the stage it loads. Each stage comes with its figures (resonances and tuning ranges, IF,
 image, tracking, time constants, mid-band gain) and with flags for figures a
 repairer would question. Parts in no stage are listed with the reason.
 
@@ -53,8 +54,12 @@ a file with the id of a built-in pattern replaces it (docs/patterns.md).
 const stagesCaution = "Figures are small-signal values from the reduced circuit, not DC voltages. Valve sets carry lethal HT and may have a live chassis; " +
 	"capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
 
-// reasonUnmatched is what a part in no stage is told.
-const reasonUnmatched = "not part of a known topology"
+// reasonUnmatched is what a part in no stage is told; reasonLoneShunt a
+// resistor to AC ground that no stage touches (one that does joins it).
+const (
+	reasonUnmatched = "not part of a known topology"
+	reasonLoneShunt = "resistor to AC ground (grid leak, load or return) beside no stage"
+)
 
 type stagesJSON struct {
 	Title     string          `json:"title,omitempty"`
@@ -106,8 +111,20 @@ func runStages(e *env, opts any, args []string) int {
 		warning = err.Error()
 	}
 	var unmatched []unmatchedJSON
+	acg := map[string]bool{}
+	for _, n := range log.ACGround {
+		acg[n] = true
+	}
 	for _, ref := range stages.Unmatched(reduced, found) {
-		unmatched = append(unmatched, unmatchedJSON{Ref: ref, Reason: reasonUnmatched})
+		reason := reasonUnmatched
+		if p := reduced.Part(ref); p != nil && p.Kind == graph.Resistor && len(p.Pins) == 2 {
+			g0 := acg[p.Pins[0].Net] || reduced.RoleOf(p.Pins[0].Net).IsACGround()
+			g1 := acg[p.Pins[1].Net] || reduced.RoleOf(p.Pins[1].Net).IsACGround()
+			if g0 != g1 {
+				reason = reasonLoneShunt
+			}
+		}
+		unmatched = append(unmatched, unmatchedJSON{Ref: ref, Reason: reason})
 	}
 	code := exitOK
 	if warning != "" {
@@ -199,7 +216,9 @@ func printStages(w io.Writer, path string, c *graph.Circuit, lvl rules.Level, fo
 		}
 	}
 	if len(unmatched) > 0 {
-		fmt.Fprintln(w)
+		if len(found) > 0 {
+			fmt.Fprintln(w)
+		}
 		for _, u := range unmatched {
 			fmt.Fprintf(w, "%s: %s\n", u.Ref, u.Reason)
 		}
@@ -279,31 +298,14 @@ func joinedFigure(figs map[string]float64, k string, done map[string]bool) (stri
 	return "", false
 }
 
-// figureNames are the words for figure keys whose plain spelling
-// (figureLabel: underscores to spaces, unit dropped) reads badly. The keys
-// themselves, in --json, stay as they are.
-var figureNames = map[string]string{
-	"if":            "IF",
-	"ift_f":         "IF transformer f",
-	"load_f":        "load tuned f",
-	"f_c_unloaded":  "f c (unloaded)",
-	"r_dyn":         "dynamic R",
-	"r_in":          "r in",
-	"bw":            "bandwidth",
-	"pad_c":         "3-point padder",
-	"pad_l":         "3-point coil",
-	"pad_trim":      "3-point trimmer",
-	"gain_ac":       "gain (AC check)",
-	"gain_unloaded": "gain unloaded",
-}
-
-// figureWords is the label figureLine prints before a figure's value.
+// figureWords is the label figureLine prints before a figure's value: the
+// trade's words where stages has them (stages.FigureName), else the key
+// spelt plainly (figureLabel).
 func figureWords(key string) string {
-	name := figureLabel(key)
-	if w, ok := figureNames[strings.ReplaceAll(name, " ", "_")]; ok {
+	if w, ok := stages.FigureName(key); ok {
 		return w
 	}
-	return name
+	return figureLabel(key)
 }
 
 // wrap breaks a figure line after commas so no line runs past width.

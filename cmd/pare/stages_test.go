@@ -196,3 +196,26 @@ func TestStagesNamesBesideASwitch(t *testing.T) {
 		t.Errorf("stage names clash with switch S1:\n%s", out)
 	}
 }
+
+// A resistor to AC ground beside no stage is listed with what it is, not as
+// a stage of its own.
+func TestStagesLoneShunt(t *testing.T) {
+	file := filepath.Join(t.TempDir(), "divider.toml")
+	src := "title = \"divider\"\nband = \"20..20k\"\ninputs = [\"in\"]\noutputs = [\"out\"]\n[parts]\n" +
+		"R1 = { r = \"1M\", pins = [\"in\", \"gnd\"] }\nR2 = { r = \"10k\", pins = [\"in\", \"out\"] }\nR3 = { r = \"10k\", pins = [\"out\", \"gnd\"] }\n"
+	if err := os.WriteFile(file, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, out, errs := cliRun(t, "stages", file)
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	for _, want := range []string{"0 stage(s)", "R1: " + reasonLoneShunt, "R2: " + reasonUnmatched, "R3: " + reasonLoneShunt} {
+		if !strings.Contains(out, want) {
+			t.Errorf("output lacks %q:\n%s", want, out)
+		}
+	}
+	if strings.Contains(out, "\n\n\n") {
+		t.Errorf("empty lines doubled:\n%q", out)
+	}
+}

@@ -822,6 +822,38 @@ func FigureText(key string, v float64) string {
 	return trimFloat(v)
 }
 
+// figureNames are the words for figure names (a key without its unit
+// suffix) whose plain spelling, underscores as spaces, reads badly. The keys
+// themselves, in JSON, stay as they are.
+var figureNames = map[string]string{
+	"if":            "IF",
+	"ift_f":         "IF transformer f",
+	"load_f":        "load tuned f",
+	"f_c_unloaded":  "f c (unloaded)",
+	"r_dyn":         "dynamic R",
+	"bw":            "bandwidth",
+	"pad_c":         "3-point padder",
+	"pad_l":         "3-point coil",
+	"pad_trim":      "3-point trimmer",
+	"gain_ac":       "gain (AC check)",
+	"track_err_max": "track err max",
+}
+
+// FigureName gives the words a person reads before a figure ("if_hz" →
+// "IF", "ift_f_hz" → "IF transformer f"), with false for keys whose plain
+// spelling serves (the caller then prints the key with spaces).
+func FigureName(key string) (string, bool) {
+	name := key
+	for _, unit := range []string{"_hz", "_ohm", "_s", "_f", "_h", "_db"} {
+		if n, ok := strings.CutSuffix(key, unit); ok && n != "" {
+			name = n
+			break
+		}
+	}
+	w, ok := figureNames[name]
+	return w, ok
+}
+
 // trimFloat prints a plain ratio with three significant digits, or more
 // where the integer part needs them.
 func trimFloat(v float64) string {

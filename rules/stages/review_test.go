@@ -274,3 +274,21 @@ func TestStageNamesAvoidRefs(t *testing.T) {
 		}
 	}
 }
+
+// Figure names in the trade's words; keys whose plain spelling serves are
+// left to the caller.
+func TestFigureName(t *testing.T) {
+	for _, tc := range []struct {
+		key, want string
+		ok        bool
+	}{
+		{"if_hz", "IF", true}, {"ift_f_hz", "IF transformer f", true}, {"load_f_hz", "load tuned f", true},
+		{"f_c_unloaded_hz", "f c (unloaded)", true}, {"pad_c_f", "3-point padder", true},
+		{"gain", "", false}, {"f_c_hz", "", false}, {"tau_s", "", false}, {"_hz", "", false},
+	} {
+		got, ok := FigureName(tc.key)
+		if got != tc.want || ok != tc.ok {
+			t.Errorf("FigureName(%q) = %q, %v; want %q, %v", tc.key, got, ok, tc.want, tc.ok)
+		}
+	}
+}
