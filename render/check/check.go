@@ -21,28 +21,44 @@ type Report struct {
 	LabelOverlaps  []string // label against label, symbol, local symbol or wire
 	Connectivity   []string // nets not one connected tree, wires touching other nets or pins
 	Junctions      []string // four-way junctions, missing or stray dots
-	Crossings      int      // wire–wire crossings of different nets
-	FrameCrossings []int    // crossings inside each frame, in frame order
-	Bends          int      // bends over all wires
-	MaxBends       int      // most bends on one net
-	Flagged        int      // nets drawn with net-name flags instead of wires
+	FrameCuts      []string // a frame edge through a symbol, local symbol or label
+	// CloseWires are runs of two nets' wires side by side on neighbouring
+	// grid lines (one grid step apart or less) for more than closeRun steps:
+	// at print size they read as one thick line or a bus.
+	CloseWires []string
+	// FrameHugs are wires running along a frame edge less than a grid step
+	// from it for more than closeRun steps: the dashed edge and the wire
+	// blur into a double line.
+	FrameHugs      []string
+	Crossings      int   // wire–wire crossings of different nets
+	FrameCrossings []int // crossings inside each frame, in frame order
+	Bends          int   // bends over all wires
+	MaxBends       int   // most bends on one net
+	Flagged        int   // nets drawn with net-name flags instead of wires
 }
 
 // Problems lists every fatal finding: overlaps, wires through symbols,
 // broken connectivity, bad junctions.
 func (r *Report) Problems() []string {
 	var out []string
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.Connectivity, r.Junctions} {
 		out = append(out, l...)
 	}
 	return out
 }
 
+// Crowding lists the readability findings that are not fatal to the
+// geometry but spoil a printed sheet: wires side by side, wires hugging a
+// frame edge.
+func (r *Report) Crowding() []string {
+	return append(append([]string{}, r.CloseWires...), r.FrameHugs...)
+}
+
 // Summary is one line of the measured qualities.
 func (r *Report) Summary() string {
-	return fmt.Sprintf("overlaps %d, wires through symbols %d, label overlaps %d, connectivity %d, junctions %d, crossings %d (per frame %v), bends %d (max %d per net), flagged nets %d",
-		len(r.SymbolOverlaps), len(r.WireThrough), len(r.LabelOverlaps), len(r.Connectivity), len(r.Junctions),
-		r.Crossings, r.FrameCrossings, r.Bends, r.MaxBends, r.Flagged)
+	return fmt.Sprintf("overlaps %d, wires through symbols %d, label overlaps %d, frame cuts %d, connectivity %d, junctions %d, close wires %d, frame hugs %d, crossings %d (per frame %v), bends %d (max %d per net), flagged nets %d",
+		len(r.SymbolOverlaps), len(r.WireThrough), len(r.LabelOverlaps), len(r.FrameCuts), len(r.Connectivity), len(r.Junctions),
+		len(r.CloseWires), len(r.FrameHugs), r.Crossings, r.FrameCrossings, r.Bends, r.MaxBends, r.Flagged)
 }
 
 // notConnected is the netlist format's net for a terminal that is really not
@@ -165,12 +181,91 @@ func Measure(g *geom.Sheet) *Report {
 			}
 		}
 	}
+	r.frameEdges(g, boxes, segs)
+	r.closeWires(segs)
 	r.crossings(g, segs)
 	r.connectivity(g, segs)
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.CloseWires, r.FrameHugs, r.Connectivity, r.Junctions} {
 		sort.Strings(l)
 	}
 	return r
+}
+
+// closeRun is the longest run, in grid steps, two parallel lines may share
+// closer than the spacing rule before it counts: a short jog beside another
+// wire still reads as two wires.
+const closeRun = 2
+
+// edges are a box's four sides.
+func edges(b geom.Rect) []geom.Seg {
+	a, c := geom.Pt{X: b.X0, Y: b.Y0}, geom.Pt{X: b.X1, Y: b.Y1}
+	return []geom.Seg{{A: a, B: geom.Pt{X: c.X, Y: a.Y}}, {A: geom.Pt{X: a.X, Y: c.Y}, B: c},
+		{A: a, B: geom.Pt{X: a.X, Y: c.Y}}, {A: geom.Pt{X: c.X, Y: a.Y}, B: c}}
+}
+
+// alongside returns how far apart two parallel segments lie and how long
+// they run side by side (0, 0 when they are not parallel or do not overlap).
+func alongside(a, b geom.Seg) (gap, run float64) {
+	if a.Horizontal() != b.Horizontal() {
+		return 0, 0
+	}
+	ab, bb := a.Box(), b.Box()
+	if a.Horizontal() {
+		return math.Abs(ab.Y0 - bb.Y0), math.Min(ab.X1, bb.X1) - math.Max(ab.X0, bb.X0)
+	}
+	return math.Abs(ab.X0 - bb.X0), math.Min(ab.Y1, bb.Y1) - math.Max(ab.Y0, bb.Y0)
+}
+
+// frameEdges finds frame edges through symbols, local symbols and labels
+// other than the frame's own title, and wires hugging an edge.
+func (r *Report) frameEdges(g *geom.Sheet, boxes []box, segs []netSeg) {
+	for k, f := range g.Frames {
+		name := fmt.Sprintf("frame %d %q", k+1, first(f.Title.Lines))
+		for _, e := range edges(f.Box) {
+			for _, b := range boxes {
+				if e.CutsInterior(b.r) {
+					r.FrameCuts = append(r.FrameCuts, fmt.Sprintf("edge of %s runs through %s", name, b.what))
+				}
+			}
+			for _, l := range g.Labels {
+				if (l.Owner == "" || l.Owner != f.Title.Owner) && e.CutsInterior(l.Box) {
+					r.FrameCuts = append(r.FrameCuts, fmt.Sprintf("edge of %s runs through label %q", name, first(l.Lines)))
+				}
+			}
+			for _, s := range segs {
+				if s.local >= 0 {
+					continue
+				}
+				if gap, run := alongside(e, s.seg); gap < 1-geom.Eps && run > closeRun+geom.Eps {
+					r.FrameHugs = append(r.FrameHugs, fmt.Sprintf("wire of %s %s-%s runs %g from the edge of %s", s.net, pt(s.seg.A), pt(s.seg.B), gap, name))
+				}
+			}
+		}
+	}
+}
+
+// closeWires finds wires of different nets side by side one grid step apart
+// or closer (wires on the same line are an overlap, reported as broken
+// connectivity).
+func (r *Report) closeWires(segs []netSeg) {
+	var six bucketed
+	for i, s := range segs {
+		six.add(i, s.seg.Box().Inset(1))
+	}
+	for i, a := range segs {
+		if a.local >= 0 {
+			continue
+		}
+		for _, j := range six.near(a.seg.Box().Inset(1)) {
+			b := segs[j]
+			if j <= i || b.local >= 0 || a.net == b.net {
+				continue
+			}
+			if gap, run := alongside(a.seg, b.seg); gap > geom.Eps && gap < 1+geom.Eps && run > closeRun+geom.Eps {
+				r.CloseWires = append(r.CloseWires, fmt.Sprintf("wires of %s %s-%s and %s %s-%s run %g apart for %g", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), gap, run))
+			}
+		}
+	}
 }
 
 func first(l []string) string {

@@ -100,6 +100,35 @@ func TestFindings(t *testing.T) {
 			g.Wires = append(g.Wires, wire("n", seg(7, 0, 7, 4)), wire("n", seg(7, -4, 7, 0)))
 			g.Dots = []geom.Pt{{X: 7, Y: 0}}
 		}, "four-way", func(r *Report) []string { return r.Junctions }},
+		// n runs y=0 from x=4 to 10; a wire of m one step above it for 4
+		// steps reads as a double line, two steps above it does not
+		{"wires side by side", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(5, -1, 9, -1)))
+		}, "run 1 apart for 4", func(r *Report) []string { return r.CloseWires }},
+		{"wires two steps apart", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(5, -2, 9, -2)))
+		}, "", func(r *Report) []string { return r.CloseWires }},
+		{"a short jog beside a wire", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(5, -1, 7, -1)))
+		}, "", func(r *Report) []string { return r.CloseWires }},
+		{"wire along a frame edge", func(g *geom.Sheet) {
+			g.Frames = []geom.Frame{{Box: geom.Rect{X0: -1.5, Y0: -2.5, X1: 15.5, Y1: 0.5}}}
+		}, "runs 0.5 from the edge", func(r *Report) []string { return r.FrameHugs }},
+		{"frame with room round its wires", func(g *geom.Sheet) {
+			g.Frames = []geom.Frame{{Box: geom.Rect{X0: -1.5, Y0: -2.5, X1: 15.5, Y1: 1.5}}}
+		}, "", func(r *Report) []string { return append(r.FrameHugs, r.FrameCuts...) }},
+		{"frame edge through a label", func(g *geom.Sheet) {
+			g.Labels = append(g.Labels, geom.Label{Lines: []string{"C13 100u"}, Box: geom.Rect{X0: 6, Y0: 2, X1: 9, Y1: 3.2}})
+			g.Frames = []geom.Frame{{Box: geom.Rect{X0: 7.5, Y0: -2.5, X1: 15.5, Y1: 4.5}}}
+		}, "runs through label \"C13 100u\"", func(r *Report) []string { return r.FrameCuts }},
+		{"frame edge through a symbol", func(g *geom.Sheet) {
+			g.Frames = []geom.Frame{{Box: geom.Rect{X0: 2.5, Y0: -2.5, X1: 15.5, Y1: 2.5}}}
+		}, "runs through symbol R1", func(r *Report) []string { return r.FrameCuts }},
+		{"frame title inside its frame", func(g *geom.Sheet) {
+			title := geom.Label{Owner: "frame:S1", Lines: []string{"S1"}, Box: geom.Rect{X0: 0, Y0: -3, X1: 2, Y1: -2}}
+			g.Labels = append(g.Labels, title)
+			g.Frames = []geom.Frame{{Box: geom.Rect{X0: -1.5, Y0: -3.5, X1: 15.5, Y1: 2.5}, Title: title}}
+		}, "", func(r *Report) []string { return r.FrameCuts }},
 		{"stray dot", func(g *geom.Sheet) {
 			g.Dots = []geom.Pt{{X: 6, Y: 0}}
 		}, "not on a junction", func(r *Report) []string { return r.Junctions }},

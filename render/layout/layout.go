@@ -389,6 +389,7 @@ type state struct {
 	rankOf   map[string]int // ref -> layer rank
 	netCol   map[string]float64
 	stageOf  map[string]int
+	before   map[string]bool // shunts placed just before their active part
 	netCount map[string]int
 	frames   []geom.Frame
 	// orientation search: fixed turns by ref, and refs on crossing nets
@@ -436,8 +437,10 @@ func (ly *state) growFrames(g *geom.Sheet) {
 			if sb.X1 < fb.X0 || sb.X0 > fb.X1 {
 				continue
 			}
-			fb.Y0 = math.Min(fb.Y0, sb.Y0-framePad+0.5)
-			fb.Y1 = math.Max(fb.Y1, sb.Y1+framePad-0.5)
+			// a grid step and a half: the edge never runs along the wire
+			// half a step from it
+			fb.Y0 = math.Min(fb.Y0, sb.Y0-framePad-0.5)
+			fb.Y1 = math.Max(fb.Y1, sb.Y1+framePad+0.5)
 		}
 	}
 }
@@ -563,6 +566,35 @@ func (ly *state) rank() {
 			}
 		}
 	}
+	// a shunt from an active part's control electrode to AC ground (a grid
+	// leak, a base bias resistor) stands in a column of its own just before
+	// the active part, hanging from the wire into the grid, not stacked
+	// under the valve with the cathode parts
+	control := map[string]int{}
+	for _, cl := range ly.cells {
+		if cl.part.IsActive() {
+			if pin := cl.part.PinWithRole(graph.RoleControl); pin != "" {
+				if n := cl.part.NetOf(pin); n != "" && n != notConnected && !ly.c.RoleOf(n).IsACGround() {
+					if r, ok := control[n]; !ok || rank[cl.ref] < r {
+						control[n] = rank[cl.ref]
+					}
+				}
+			}
+		}
+	}
+	ly.before = map[string]bool{}
+	for _, cl := range ly.cells {
+		if cl.part.IsActive() || len(cl.part.Pins) != 2 || cl.part.Kind == graph.Port {
+			continue
+		}
+		nets := ly.signalNets(cl)
+		if len(nets) != 1 {
+			continue
+		}
+		if r, ok := control[nets[0]]; ok && r == rank[cl.ref] {
+			ly.before[cl.ref] = true
+		}
+	}
 	for _, cl := range ly.cells {
 		if d, ok := ly.turns[shiftKey+cl.ref]; ok && rank[cl.ref]+d >= 0 {
 			rank[cl.ref] += d
@@ -674,7 +706,7 @@ func (ly *state) assignColumns() {
 		if cl.edge != 0 {
 			continue
 		}
-		keys[key{st[cl.ref], ly.rankOf[cl.ref]}] = true
+		keys[key{st[cl.ref], ly.column(cl)}] = true
 	}
 	list := make([]key, 0, len(keys))
 	for k := range keys {
@@ -697,7 +729,7 @@ func (ly *state) assignColumns() {
 		case 1:
 			cl.col = len(list) + 1
 		default:
-			cl.col = colOf[key{st[cl.ref], ly.rankOf[cl.ref]}]
+			cl.col = colOf[key{st[cl.ref], ly.column(cl)}]
 		}
 	}
 	ly.netCol = map[string]float64{}
@@ -717,6 +749,16 @@ func (ly *state) assignColumns() {
 		ly.netCol[n] = s / cnt[n]
 	}
 	ly.stageOf = st
+}
+
+// column is a cell's place along the signal flow: two per rank, the first
+// for the shunts that stand before an active part's control electrode.
+func (ly *state) column(cl *cell) int {
+	c := 2 * ly.rankOf[cl.ref]
+	if ly.before[cl.ref] {
+		c--
+	}
+	return c
 }
 
 // orient picks each cell's orientation by scoring where its pins point:

@@ -18,6 +18,14 @@ const (
 	crossCost = 300
 	// while removing crossings a wire may go a long way round instead
 	wideCrossCost = 1200
+	// a step beside another net's wire, on the neighbouring grid line and
+	// running the same way, or along a stage frame's dashed edge half a step
+	// away: at print size the two lines blur into one, so a wire keeps a
+	// grid step of clear space when a short detour allows
+	nearCost = 30
+	// a step through a stage frame's edge: a wire of the stage stays inside
+	// its frame rather than run round outside it
+	edgeCost = 60
 )
 
 // arm bits: which neighbours a wire cell connects to
@@ -56,8 +64,14 @@ type router struct {
 	own1, own2     []int32
 	arm1, arm2     []uint8
 	fadedE, fadedS []bool
-	nets           []*netRoute // index = id-1
-	flags          []geom.Local
+	// hugH and hugV mark the cells half a step from a frame edge that runs
+	// horizontally or vertically past them
+	hugH, hugV []bool
+	// cutE and cutS mark the steps east and south of a cell that pass
+	// through a frame edge
+	cutE, cutS []bool
+	nets       []*netRoute // index = id-1
+	flags      []geom.Local
 	// search scratch, stamped so that a search never clears the grid
 	stamp  []uint32
 	gcost  []int32
@@ -127,8 +141,11 @@ func newRouter(ly *state) *router {
 			rt.block(cl.label.Box)
 		}
 	}
+	rt.hugH, rt.hugV = make([]bool, n), make([]bool, n)
+	rt.cutE, rt.cutS = make([]bool, n), make([]bool, n)
 	for _, f := range ly.frames {
 		rt.block(f.Title.Box)
+		rt.markHugs(f.Box)
 	}
 	for id, nr := range rt.nets {
 		for _, wp := range nr.pins {
@@ -149,6 +166,88 @@ func newRouter(ly *state) *router {
 		}
 	}
 	return rt
+}
+
+// markHugs marks the grid lines on either side of a frame's edges.
+func (rt *router) markHugs(b geom.Rect) {
+	mark := func(x, y int, h bool) {
+		x, y = x-rt.x0, y-rt.y0
+		if x < 0 || y < 0 || x >= rt.w || y >= rt.h {
+			return
+		}
+		if h {
+			rt.hugH[y*rt.w+x] = true
+		} else {
+			rt.hugV[y*rt.w+x] = true
+		}
+	}
+	cut := func(x, y int, east bool) {
+		x, y = x-rt.x0, y-rt.y0
+		if x < 0 || y < 0 || x >= rt.w || y >= rt.h {
+			return
+		}
+		if east {
+			rt.cutE[y*rt.w+x] = true
+		} else {
+			rt.cutS[y*rt.w+x] = true
+		}
+	}
+	for _, ey := range []float64{b.Y0, b.Y1} {
+		for x := int(math.Ceil(b.X0)); x <= int(math.Floor(b.X1)); x++ {
+			mark(x, int(math.Floor(ey)), true)
+			mark(x, int(math.Ceil(ey)), true)
+			cut(x, int(math.Floor(ey)), false)
+		}
+	}
+	for _, ex := range []float64{b.X0, b.X1} {
+		for y := int(math.Ceil(b.Y0)); y <= int(math.Floor(b.Y1)); y++ {
+			mark(int(math.Floor(ex)), y, false)
+			mark(int(math.Ceil(ex)), y, false)
+			cut(int(math.Floor(ex)), y, true)
+		}
+	}
+}
+
+// crowded says whether a step into cell n moving in direction d runs
+// beside another net's wire going the same way, or along a frame edge.
+func (rt *router) crowded(n, d int, net int32) bool {
+	horizontal := d == int(geom.Left) || d == int(geom.Right)
+	if (horizontal && rt.hugH[n]) || (!horizontal && rt.hugV[n]) {
+		return true
+	}
+	along := uint8(armN | armS)
+	if horizontal {
+		along = armE | armW
+	}
+	for _, side := range []int{(d + 1) % 4, (d + 3) % 4} {
+		m := rt.neighbour(n, side)
+		if m < 0 {
+			continue
+		}
+		for _, o := range []struct {
+			own int32
+			arm uint8
+		}{{rt.own1[m], rt.arm1[m]}, {rt.own2[m], rt.arm2[m]}} {
+			if o.own != 0 && o.own != net && o.arm&along != 0 {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// cutsFrame says whether the step from cell c to its neighbour n in
+// direction d passes through a frame edge.
+func (rt *router) cutsFrame(c, n, d int) bool {
+	switch d {
+	case int(geom.Right):
+		return rt.cutE[c]
+	case int(geom.Left):
+		return rt.cutE[n]
+	case int(geom.Down):
+		return rt.cutS[c]
+	}
+	return rt.cutS[n]
 }
 
 func (rt *router) index(p geom.Pt) int {
@@ -614,6 +713,12 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, margin int) []int
 			cost := g + stepCost
 			if nd != d {
 				cost += bendCost
+			}
+			if rt.crowded(n, nd, net) {
+				cost += nearCost
+			}
+			if rt.cutsFrame(c, n, nd) {
+				cost += edgeCost
 			}
 			if rt.owns(n, net) {
 				if !rt.joinable(n, net, nd) {
