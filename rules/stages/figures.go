@@ -463,15 +463,17 @@ func calcCoupling(x *figCtx) {
 	if ci < 0 || len(x.w.pins[ci]) != 2 || c <= 0 {
 		return
 	}
+	// The downstream side is the one farther from the inputs (a declared
+	// input is upstream by definition). Only a resistance there is what the
+	// capacitor feeds; one on the upstream side (an anode load) is its source.
 	dist := x.w.signalDist()
-	best, bestR, bestD := -1, 0.0, -1
-	for _, net := range x.w.pins[ci] {
+	var sides [2]struct {
+		d int
+		r float64
+	}
+	for i, net := range x.w.pins[ci] {
 		if net == groundNet {
 			return
-		}
-		r := resistanceToGround(x.w, net)
-		if r <= 0 {
-			continue
 		}
 		d := math.MaxInt // a side nothing else reaches from the inputs is downstream
 		if x.w.isInput(net) {
@@ -485,11 +487,39 @@ func calcCoupling(x *figCtx) {
 				d = od
 			}
 		}
-		if d > bestD {
-			best, bestR, bestD = net, r, d
+		sides[i].d, sides[i].r = d, resistanceToGround(x.w, net)
+	}
+	var bestR float64
+	down := -1
+	switch {
+	case sides[0].d > sides[1].d:
+		down = 0
+	case sides[1].d > sides[0].d:
+		down = 1
+	case (sides[0].r > 0) != (sides[1].r > 0):
+		// No order to go by (no inputs declared): the one resistive side.
+		down = 0
+		if sides[1].r > 0 {
+			down = 1
 		}
 	}
-	if best < 0 {
+	if down >= 0 {
+		bestR = sides[down].r
+	}
+	if bestR <= 0 {
+		if down >= 0 {
+			for _, other := range x.w.conns[x.w.pins[ci][down]] {
+				if q := x.w.parts[other]; q.Kind == graph.Port {
+					port := q.Ref
+					if q.Label != "" {
+						port += " (" + q.Label + ")"
+					}
+					x.st.Notes = append(x.st.Notes, fmt.Sprintf("no corner figured: %s feeds %s, and the resistance beyond is not in this circuit",
+						p.Ref, port))
+					break
+				}
+			}
+		}
 		return
 	}
 	tau := bestR * c

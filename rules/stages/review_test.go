@@ -176,6 +176,12 @@ R2 = { r = "47k", pins = ["o", "ht"] }`, 33.8628, 4.7e-3, 470e3, "reference-valu
 R2 = { r = "47k", pins = ["a", "ht"] }
 C1 = { c = "10n", pins = ["a", "b"] }
 R1 = { r = "470k", pins = ["b", "gnd"] }`, 33.8628, 4.7e-3, 470e3, "reference-values §4: 10 nF into 470 kΩ"},
+		// Only a port beyond: the 47 kΩ anode load is the source, not what
+		// the capacitor feeds, so no corner (not 338.6 Hz).
+		{"from an anode into a port", `@Q1(in, gnd, a)
+R2 = { r = "47k", pins = ["a", "ht"] }
+C1 = { c = "10n", pins = ["a", "out"] }
+P1 = { port = "to the output stage", pins = ["out"] }`, 0, 0, 0, "nothing resistive downstream: no corner"},
 		{"into a tank", `C1 = { c = "10p", pins = ["in", "t"] }
 L1 = { l = "230u", pins = ["t", "gnd"] }
 C2 = { c = "365p", pins = ["t", "gnd"] }`, 0, 0, 0, "no resistance to feed: no corner"},
@@ -192,6 +198,9 @@ C2 = { c = "365p", pins = ["t", "gnd"] }`, 0, 0, 0, "no resistance to feed: no c
 				if tc.fc == 0 {
 					if has {
 						t.Errorf("corner %g Hz with nothing resistive to feed", fc)
+					}
+					if port := strings.Contains(tc.parts, "port ="); port != (len(s.Notes) == 1 && strings.Contains(s.Notes[0], "feeds P1 (to the output stage)")) {
+						t.Errorf("into a port %v, notes %q", port, s.Notes)
 					}
 					return
 				}
