@@ -390,7 +390,7 @@ func evaluate(w *world, m *match) *Stage {
 	if len(p.Families) > 0 && !contains(p.Families, st.Family) {
 		return nil
 	}
-	if p.Context == "fm" && !fmReceived(w.c) {
+	if p.Context == "fm" && (!fmReceived(w.c) || !inAudioBand(w.c, st.Parts)) {
 		return nil
 	}
 	title := p.Title
@@ -421,9 +421,30 @@ const fmMinHz = 10e6
 
 // fmReceived tells whether a circuit receives FM: its band, a region's band
 // or its declared IF reaches fmMinHz. A network that only makes sense after
-// an FM detector (de-emphasis) is not looked for anywhere else.
+// an FM detector (de-emphasis) is not looked for anywhere else; the
+// detector itself need not be in the file (an audio board of an FM set).
 func fmReceived(c *graph.Circuit) bool {
 	return c.FullBand().Max >= fmMinHz || c.Freqs["if"] >= fmMinHz
+}
+
+// audioTopHz is the highest top of a band still taken as audio: 20 kHz for
+// the ear, with room for a stereo multiplex signal (53 kHz, from memory).
+const audioTopHz = 100e3
+
+// inAudioBand tells whether every part lies in an audio band (its region's
+// band, or the circuit's): de-emphasis works on the detector's audio
+// output, not in the RF or IF stages of the same set.
+func inAudioBand(c *graph.Circuit, refs []string) bool {
+	for _, r := range refs {
+		p := c.Part(r)
+		if p == nil {
+			return false
+		}
+		if b := c.BandOf(p); b.Max <= 0 || b.Max > audioTopHz {
+			return false
+		}
+	}
+	return len(refs) > 0
 }
 
 // familyOf is the kind of the first amplifying device in the match, a

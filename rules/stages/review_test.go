@@ -110,22 +110,26 @@ func TestRCLadder(t *testing.T) {
 // that receives FM: a band or IF of 10 MHz or more (FM IF 10.7 MHz, from
 // memory). τ = RC is derived.
 func TestDeEmphasisNeedsFMAndBroadcastTau(t *testing.T) {
+	const audio = "[regions]\naudio = { band = \"20..15k\", parts = [\"R1\", \"C1\"] }"
+	const fmIF = "[freqs]\nif = \"10.7M\"\n"
 	cases := []struct {
 		name, extra, r, c string
 		want              bool
 	}{
-		{"47 µs, FM IF", "[freqs]\nif = \"10.7M\"", "47k", "1n", true},
-		{"75 µs, FM IF", "[freqs]\nif = \"10.7M\"", "75k", "1n", true},
-		{"62 µs, FM region", "[regions]\nrf = { band = \"88M..108M\", parts = [\"R1\"] }", "62k", "1n", true},
-		{"39 µs, FM IF: below 40 µs", "[freqs]\nif = \"10.7M\"", "39k", "1n", false},
-		{"100 µs, FM IF: above 90 µs", "[freqs]\nif = \"10.7M\"", "10k", "10n", false},
-		{"47 µs, AM set (IF 470 kHz)", "[freqs]\nif = \"470k\"", "47k", "1n", false},
-		{"75 µs, medium-wave band only", "", "75k", "1n", false},
+		{"47 µs, audio of an FM set", fmIF + audio, "47k", "1n", true},
+		{"75 µs, audio of an FM set", fmIF + audio, "75k", "1n", true},
+		{"62 µs, audio beside an FM region", audio + "\nrf = { band = \"88M..108M\", parts = [\"R9\"] }", "62k", "1n", true},
+		{"47 µs, in the MW band of an FM set, not audio", fmIF, "47k", "1n", false},
+		{"39 µs, below 40 µs", fmIF + audio, "39k", "1n", false},
+		{"100 µs, above 90 µs", fmIF + audio, "10k", "10n", false},
+		{"47 µs, audio of an AM set (IF 470 kHz)", "[freqs]\nif = \"470k\"\n" + audio, "47k", "1n", false},
+		{"75 µs, no FM anywhere", audio, "75k", "1n", false},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
 			c := circuit(t, "valve", `R1 = { r = "`+tc.r+`", pins = ["in", "b"] }
-C1 = { c = "`+tc.c+`", pins = ["b", "gnd"] }`, tc.extra)
+C1 = { c = "`+tc.c+`", pins = ["b", "gnd"] }
+R9 = { r = "1k", pins = ["rf", "gnd"] }`, tc.extra)
 			st := find(t, c, Options{})
 			got := stageOf(st, "de-emphasis") != nil
 			if got != tc.want {

@@ -446,10 +446,12 @@ C1 = { c = "100n", pins = ["agc", "gnd"] }`,
 C2 = { c = "100p", pins = ["det", "gnd"] }
 R1 = { r = "22k", pins = ["det", "agc"] }
 C1 = { c = "1n", pins = ["agc", "gnd"] }`},
-	// An FM set (IF 10.7 MHz, from memory the usual FM IF): 47 kΩ × 1 nF =
-	// 47 µs, within ±20 % of 50 µs (derived from τ = RC).
+	// The audio of an FM set (IF 10.7 MHz, from memory the usual FM IF):
+	// 47 kΩ × 1 nF = 47 µs, within ±20 % of 50 µs (derived from τ = RC).
 	{topology: "de-emphasis", families: []string{"valve"}, want: "passive", extra: `[freqs]
-if = "10.7M"`,
+if = "10.7M"
+[regions]
+audio = { band = "20..15k", parts = ["R1", "C1"] }`,
 		parts: `R1 = { r = "47k", pins = ["in", "b"] }
 C1 = { c = "1n", pins = ["b", "gnd"] }`,
 		// 10 kΩ × 10 nF = 100 µs: 33 % over 75 µs, no broadcast time constant.
