@@ -189,7 +189,7 @@ func TestVerifyUnsolvableAndPortFed(t *testing.T) {
 	}
 	bridge := filepath.Join(root, "graph/ac/testdata/mains-bridge.toml")
 	code, out, errs := cliRun(t, "verify", bridge)
-	if code != exitOK || !strings.Contains(out, "ok: all") || !strings.Contains(out, "held at 0 V: net(s) mains_l, mains_n") {
+	if code != exitOK || !strings.Contains(out, "ok: all") || !strings.Contains(out, "Held at 0 V: net(s) mains_l, mains_n") {
 		t.Errorf("verify of the port-fed bridge: exit %d\n%s\n%s", code, out, errs)
 	}
 	// A termination naming no net is bad usage: exit 2.

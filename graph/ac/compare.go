@@ -236,7 +236,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	return rep, nil
 }
 
-// withoutHeldPorts drops the impedances at port nets the model holds at
+// withoutHeldPorts drops the quantities at port nets the model holds at
 // 0 V (portHeldNets: a group reached only through its ports) and says so:
 // both circuits would show zero there, which compares nothing.
 func withoutHeldPorts(orig *graph.Circuit, qs []quantity, o Options, rep *Report) []quantity {
@@ -244,12 +244,17 @@ func withoutHeldPorts(orig *graph.Circuit, qs []quantity, o Options, rep *Report
 	if err != nil || len(nl.portHeld) == 0 {
 		return qs // an elaboration error is reported by the probes with its context
 	}
-	rep.Notes = append(rep.Notes, fmt.Sprintf("held at 0 V: net(s) %s, reached only through a port (an undriven source beyond it; state a termination to model it otherwise)",
+	rep.Notes = append(rep.Notes, fmt.Sprintf("Held at 0 V: net(s) %s, reached only through a port (the source or reference beyond it, undriven; state a termination to model it otherwise)",
 		strings.Join(nl.portHeld, ", ")))
 	out := qs[:0]
 	for _, q := range qs {
-		if q.what == "impedance" && contains(nl.portHeld, q.from) {
-			rep.Notes = append(rep.Notes, fmt.Sprintf("Z(%s) is not compared: the net is held at 0 V as an undriven source", q.from))
+		held := q.from
+		if !contains(nl.portHeld, held) {
+			held = q.to
+		}
+		if contains(nl.portHeld, held) {
+			label := Pair{From: q.from, To: q.to, What: q.what}.Label()
+			rep.Notes = append(rep.Notes, fmt.Sprintf("%s is not compared: %s is held at 0 V", label, held))
 			continue
 		}
 		out = append(out, q)

@@ -31,14 +31,16 @@
 //   - Pots: two resistors at the wiper setting. Switches: the contact pairs
 //     closed in the set position join their nets. Ports are open unless
 //     Options.Terminate states a termination. Generic parts are open.
-//   - A group of nets that no part connects to ground or to a declared or
-//     region input, and that is reached only through ports (a mains
-//     primary on its two ports), is fed from beyond the ports by a source
-//     the sweep does not drive: an undriven ideal source is 0 V, so the
-//     port nets are held at ground, as a transfer holds the other declared
-//     inputs (superposition). A mains primary is thus shorted by a stiff
-//     supply; a termination stated on a port net overrides it. Compare
-//     notes the held nets and asks no impedance of them.
+//   - A group of nets that no part connects to ground or to a declared
+//     input, and that is reached only through ports (a mains primary on
+//     its two ports, the far winding of a transformer at a focus cut), is
+//     fed or referenced from beyond the ports by a source the sweep does
+//     not drive: an undriven ideal source is 0 V, so the port nets are held
+//     at ground, as a transfer holds the other declared inputs
+//     (superposition). A mains primary is thus shorted by a stiff supply.
+//     A port on a declared output is never held; a termination stated on a
+//     port net overrides it all. Compare notes the held nets and compares
+//     nothing at them.
 //
 // Defaults lists every default parameter with its source:
 //

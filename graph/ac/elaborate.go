@@ -121,16 +121,19 @@ func elaborate(c *graph.Circuit, o Options) (*netlist, error) {
 }
 
 // portHeldNets finds the port nets of groups of nets that nothing connects
-// to ground, to a declared input or to a region's input through a part that
-// conducts at AC: a mains primary brought in on two ports, a winding wired
-// to a socket. Such a group is reached only from outside, through its
-// ports, so for the small-signal model the port is a source that is not
-// driven, and an undriven ideal source is 0 V: its nets are held at ground,
-// just as a transfer holds the circuit's other declared inputs at 0 V
-// (superposition). A mains primary is then shorted by the supply, which is
-// what a stiff supply does. Without this the group floats and no solution
-// exists; a stated termination (Options.Terminate) on a port net gives the
-// group its path to ground and overrides it. Returned sorted.
+// to ground or to a declared input through a part that conducts at AC: a
+// mains primary brought in on two ports, a winding wired to a socket, the
+// far winding of a transformer at the edge of a focus cut. Such a group is
+// reached only from outside, through its ports, so for the small-signal
+// model a port is a source that is not driven (or the reference of what
+// lies beyond), and an undriven ideal source is 0 V: its nets are held at
+// ground, just as a transfer holds the circuit's other declared inputs at
+// 0 V (superposition). A mains primary is then shorted by the supply, which
+// is what a stiff supply does. A port on a declared output is where the
+// signal is measured, not fed, and is never held. Without this the group
+// floats and no solution exists; a stated termination (Options.Terminate) on
+// a port net gives the group its own path to ground and overrides it.
+// Returned sorted.
 func portHeldNets(c *graph.Circuit, nl *netlist) []string {
 	parent := make([]int, len(nl.nodes))
 	for i := range parent {
@@ -164,14 +167,15 @@ func portHeldNets(c *graph.Circuit, nl *netlist) []string {
 			join(w.a, w.b)
 		}
 	}
-	driven := append([]string(nil), c.Inputs...)
-	for _, r := range c.Regions {
-		driven = append(driven, r.Input)
-	}
-	for _, in := range driven {
+	// The declared inputs are driven or held at 0 V in every solve.
+	for _, in := range c.Inputs {
 		if n, ok := nl.netNode[in]; ok {
 			join(0, n)
 		}
+	}
+	outputs := map[string]bool{}
+	for _, out := range c.Outputs {
+		outputs[out] = true
 	}
 	seen := map[string]bool{}
 	var held []string
@@ -181,7 +185,7 @@ func portHeldNets(c *graph.Circuit, nl *netlist) []string {
 		}
 		for _, pin := range p.Pins {
 			n, ok := nl.netNode[pin.Net]
-			if !ok || !usable(pin.Net) || find(n) == find(0) || seen[pin.Net] {
+			if !ok || !usable(pin.Net) || find(n) == find(0) || seen[pin.Net] || outputs[pin.Net] {
 				continue
 			}
 			seen[pin.Net] = true

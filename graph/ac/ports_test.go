@@ -74,7 +74,7 @@ func TestCompareHeldPorts(t *testing.T) {
 		}
 	}
 	notes := strings.Join(rep.Notes, "\n")
-	if !strings.Contains(notes, "held at 0 V: net(s) mains_l, mains_n, reached only through a port") {
+	if !strings.Contains(notes, "Held at 0 V: net(s) mains_l, mains_n, reached only through a port") {
 		t.Errorf("notes do not name the held nets:\n%s", notes)
 	}
 }
