@@ -102,6 +102,28 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			}
 		}
 	}
+	// A net held at AC ground by a bypass that an inside part touches keeps
+	// its leaves (the bypass, the feed to the rail) even when the walk never
+	// stepped onto it, e.g. the cold end of an interstage transformer's far
+	// winding: without them that end would dangle and the winding carry no
+	// current.
+	for _, n := range c.Nets {
+		if !detected[n.Name] {
+			continue
+		}
+		touched := false
+		for _, cn := range x.conns[n.Name] {
+			touched = touched || in[cn.Part]
+		}
+		if !touched {
+			continue
+		}
+		for _, cn := range x.conns[n.Name] {
+			if q := cn.Part; !in[q] && allAt(q, isGround) {
+				in[q] = true
+			}
+		}
+	}
 	// Parts marked keep are never removed, not even by a focus.
 	for _, p := range c.Parts {
 		if p.Keep {
@@ -147,6 +169,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 	for _, n := range crossing {
 		labels[n] = portLabel(x, n, in)
 	}
+	c.Inputs, c.Outputs = focusEnds(x, in, crossing, isGround)
 	var cut []*graph.Part
 	var kept []string
 	for _, p := range c.Parts {
@@ -209,6 +232,85 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 	st.N = len(log.Steps) + 1
 	log.Steps = append(log.Steps, st)
 	return nil
+}
+
+// focusEnds gives the focused circuit its declared ends, so that it can be
+// verified and swept on its own. The original inputs and outputs that the
+// stage still holds stay. A cut net on which signal enters becomes an input
+// too: one driven by a device output outside the cut ("from V1 anode"), or
+// one the signal reaches from an original input through the parts cut away,
+// following devices from their control (or common) terminal to their output
+// only. When no original output is left, the other cut nets, where the
+// signal leaves, become the outputs. Both lists are in the original order,
+// then the cut nets by name.
+func focusEnds(x *Ctx, in map[*graph.Part]bool, crossing []string, isGround func(string) bool) (inputs, outputs []string) {
+	c := x.c
+	inside := func(net string) bool {
+		for _, cn := range x.conns[net] {
+			if in[cn.Part] {
+				return true
+			}
+		}
+		return false
+	}
+	for _, n := range c.Inputs {
+		if inside(n) {
+			inputs = append(inputs, n)
+		}
+	}
+	for _, n := range c.Outputs {
+		if inside(n) {
+			outputs = append(outputs, n)
+		}
+	}
+	// Nets the signal reaches from the original inputs through parts outside.
+	reached := map[string]bool{}
+	queue := append([]string(nil), c.Inputs...)
+	for _, n := range queue {
+		reached[n] = true
+	}
+	for len(queue) > 0 {
+		n := queue[0]
+		queue = queue[1:]
+		for _, cn := range x.conns[n] {
+			q := cn.Part
+			if in[q] {
+				continue
+			}
+			from := graph.RoleOfPin(q.Kind, cn.Pin)
+			for _, pin := range q.Pins {
+				m := pin.Net
+				if reached[m] || isGround(m) {
+					continue
+				}
+				if q.IsActive() && (from == graph.RoleOutput || graph.RoleOfPin(q.Kind, pin.Name) != graph.RoleOutput) {
+					continue // through a device only from its control or common terminal to its output
+				}
+				reached[m] = true
+				queue = append(queue, m)
+			}
+		}
+	}
+	var leaving []string
+	for _, n := range crossing {
+		entering := reached[n]
+		for _, cn := range x.conns[n] {
+			if q := cn.Part; !in[q] && q.IsActive() && graph.RoleOfPin(q.Kind, cn.Pin) == graph.RoleOutput {
+				entering = true
+			}
+		}
+		switch {
+		case x.IsEnd(n):
+		case entering:
+			inputs = append(inputs, n)
+		default:
+			leaving = append(leaving, n)
+		}
+	}
+	if len(outputs) == 0 {
+		outputs = leaving
+	}
+	return inputs, outputs
 }
 
 // windingGroup names the winding a transformer pin belongs to: the loader

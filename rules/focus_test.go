@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/graph/ac"
 )
 
 // Two resistance-coupled triode stages; focusing on the second keeps its grid
@@ -38,11 +39,15 @@ func TestFocus(t *testing.T) {
 		cut    []string
 		port   string // label of the port on the cut net
 		portOn string
+		// The focused circuit's ends: a cut net the signal enters by is an
+		// input, and when the original output is cut away the net the
+		// signal leaves by is the output (so the cut verifies on its own).
+		inputs, outputs string
 	}{
-		{[]string{"V2"}, []string{"C3", "R4", "V2", "R6"}, []string{"V1", "R1", "R2", "C2", "R3"}, "from V1 anode", "a1"},
-		{[]string{"R4"}, []string{"C3", "V2"}, []string{"V1", "R3"}, "from V1 anode", "a1"},
+		{[]string{"V2"}, []string{"C3", "R4", "V2", "R6"}, []string{"V1", "R1", "R2", "C2", "R3"}, "from V1 anode", "a1", "a1", "out"},
+		{[]string{"R4"}, []string{"C3", "V2"}, []string{"V1", "R3"}, "from V1 anode", "a1", "a1", "out"},
 		// from V1's anode its load is followed up to the next valve: the coupling capacitor and V2's grid leak
-		{[]string{"V1"}, []string{"V1", "R1", "R3", "C3", "R4"}, []string{"V2", "R5", "R6"}, "to V2 grid", "g2"},
+		{[]string{"V1"}, []string{"V1", "R1", "R3", "C3", "R4"}, []string{"V2", "R5", "R6"}, "to V2 grid", "g2", "in", "g2"},
 	}
 	for _, tc := range cases {
 		t.Run(strings.Join(tc.focus, ","), func(t *testing.T) {
@@ -74,6 +79,9 @@ func TestFocus(t *testing.T) {
 			}
 			if !found {
 				t.Errorf("no port %q on %s:\n%s", tc.port, tc.portOn, written(t, r))
+			}
+			if got := strings.Join(r.Inputs, ",") + " -> " + strings.Join(r.Outputs, ","); got != tc.inputs+" -> "+tc.outputs {
+				t.Errorf("ends %s, want %s -> %s", got, tc.inputs, tc.outputs)
 			}
 		})
 	}
@@ -128,6 +136,13 @@ func TestFocusProperties(t *testing.T) {
 			}
 			if _, again := reduceChecked(t, back, Options{Level: LevelSignal}); again.Applied() != 0 {
 				t.Errorf("%s focus %s: not a fixpoint:\n%s", path, p.Ref, logText(again))
+			}
+			// The cut declares where the signal enters and leaves, and its
+			// AC model solves, so it can be verified and swept on its own.
+			if len(back.Inputs) == 0 || len(back.Outputs) == 0 {
+				t.Errorf("%s focus %s: inputs %v, outputs %v: the cut should declare both\n%s", path, p.Ref, back.Inputs, back.Outputs, text)
+			} else if _, err := ac.Compare(back, back.Clone(), ac.CompareOptions{Points: 10}); err != nil {
+				t.Errorf("%s focus %s: the cut cannot be analysed: %v\n%s", path, p.Ref, err, text)
 			}
 			kept := map[string]bool{}
 			for _, q := range r.Parts {

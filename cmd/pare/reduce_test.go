@@ -180,3 +180,29 @@ func TestReduceCheck(t *testing.T) {
 		t.Errorf("the loose bypass of C7 changes the IF gain and should be refused:\n%s", out)
 	}
 }
+
+// A focused netlist declares where the signal enters and leaves, so it can
+// be verified and swept on its own: focusing on the audio preamplifier V3
+// cuts at V1's anode, whose port becomes the input; the output stays.
+func TestReduceFocusWritesEnds(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "f.toml")
+	code, _, errs := cliRun(t, "reduce", "--focus", "V3", "-o", out, filepath.Join(root, "examples/if-detector-audio.toml"))
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	c, err := graph.LoadFile(out)
+	if err != nil {
+		t.Fatalf("the focused netlist does not load: %v", err)
+	}
+	if strings.Join(c.Inputs, ",") != "if_a" || strings.Join(c.Outputs, ",") != "audio_out" {
+		t.Errorf("inputs %v, outputs %v; want [if_a] (from V1 anode) and [audio_out]", c.Inputs, c.Outputs)
+	}
+	code, vout, verrs := cliRun(t, "verify", out)
+	if code != exitOK || !strings.Contains(vout, "V(audio_out)/V(if_a)") || !strings.Contains(vout, "ok: all") {
+		t.Errorf("verify of the focused netlist: exit %d\n%s\n%s", code, vout, verrs)
+	}
+	code, sout, serrs := cliRun(t, "sweep", out)
+	if code != exitOK || !strings.Contains(sout, "V(audio_out)/V(if_a)") {
+		t.Errorf("sweep of the focused netlist: exit %d\n%s\n%s", code, sout, serrs)
+	}
+}
