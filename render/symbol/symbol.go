@@ -626,15 +626,31 @@ func coils(p *graph.Part) []coil {
 // bulging right, the rest on the right bulging left; each coil's end and tap
 // pins point outwards. An iron core is a pair of lines between the sides.
 func transformer(p *graph.Part, st Style) Shape {
+	// coils stand 0.9 either side of the centre so that their humps (0.4
+	// deep) clear the core lines at ±0.2 and read at print size
 	s := Shape{Turns: flipOnly}
 	cs := coils(p)
 	nLeft := (len(cs) + 1) / 2
-	yl, yr := 0.0, 0.0
+	// the shorter side stands centred against the longer one (a single
+	// secondary across a centre-tapped primary), on whole grid steps
+	sideH := [2]float64{-2, -2}
 	for i, c := range cs {
-		side, x, px, dir := -1.0, -0.6, -2.0, geom.Left
+		k := 0
+		if i >= nLeft {
+			k = 1
+		}
+		sideH[k] += 4*float64(len(c.pins)-1) + 2
+	}
+	yl := math.Floor((math.Max(sideH[0], sideH[1]) - sideH[0]) / 2)
+	yr := math.Floor((math.Max(sideH[0], sideH[1]) - sideH[1]) / 2)
+	if len(cs) <= nLeft {
+		yr = 0
+	}
+	for i, c := range cs {
+		side, x, px, dir := -1.0, -0.9, -2.0, geom.Left
 		y := &yl
 		if i >= nLeft {
-			side, x, px, dir = 1, 0.6, 2, geom.Right
+			side, x, px, dir = 1, 0.9, 2, geom.Right
 			y = &yr
 		}
 		sections := len(c.pins) - 1
