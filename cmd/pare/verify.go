@@ -6,6 +6,7 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"math"
 	"sort"
 	"strconv"
 	"strings"
@@ -43,7 +44,8 @@ refined around every peak of the responses and of the deviation.
 Gang sections are checked at minimum, mid travel and maximum unless --at picks
 one setting (min, mid, max or a fraction of the travel, 0 to 1).
 
---steps compares the circuit with the original after every rewrite step; the
+--steps compares the circuit with the original after every rewrite step and
+prints one line per step with its worst pair (dB, degrees, frequency); the
 engine refuses a step that breaks the tolerance, and verify names the first
 such step. Exit status 1 when a pair is out of tolerance, a step was refused
 or the circuit cannot be solved (a floating net: "cannot be solved: ...");
@@ -60,7 +62,7 @@ graph/ac package): it says nothing about DC conditions or safety.`,
 			fs.BoolVar(&o.json, "json", false, "print the report as JSON")
 			fs.Float64Var(&o.tolDB, "tol-db", ac.DefaultTolDB, "tolerance on magnitude, dB")
 			fs.Float64Var(&o.tolDeg, "tol-deg", ac.DefaultTolDeg, "tolerance on phase, degrees")
-			fs.BoolVar(&o.steps, "steps", false, "check after every rewrite step and name the first that breaks the tolerance")
+			fs.BoolVar(&o.steps, "steps", false, "check after every rewrite step, print each step's worst deviation and name the first that breaks the tolerance")
 			fs.StringVar(&o.at, "at", "", "gang setting: min, mid, max or a fraction 0..1 (default: all three)")
 			fs.IntVar(&o.points, "points", 100, "log-spaced points per band before refinement")
 			o.term = termFlag{}
@@ -95,6 +97,7 @@ type verifyJSON struct {
 	Level   string        `json:"level"`
 	Refused []refusedStep `json:"refused_steps,omitempty"`
 	Error   string        `json:"error,omitempty"` // why nothing could be compared
+	Steps   []stepCheck   `json:"steps,omitempty"` // under --steps: the worst pair after each step
 }
 
 // reportUnsolvable reports a comparison that could not run. A stated
@@ -159,22 +162,35 @@ func runVerify(e *env, opts any, args []string) int {
 	cmp := ac.CompareOptions{TolDB: o.tolDB, TolDeg: o.tolDeg, Points: o.points, Options: setting}
 	ro := rules.Options{Level: lvl}
 	var checkErr error
+	var checks []stepCheck
 	if o.steps {
 		// Each step is judged against the original, not only against the step
-		// before it, so small changes cannot add up unseen.
-		ro.Check = func(_, after *graph.Circuit, _ *rules.Step) error {
-			err := cmp.Check(c, after)
-			var te *ac.ToleranceError
-			if err != nil && !errors.As(err, &te) && checkErr == nil {
-				checkErr = err
+		// before it, so small changes cannot add up unseen. The worst pair
+		// after each step is kept for the per-step table.
+		ro.Check = func(_, after *graph.Circuit, st *rules.Step) error {
+			rep, err := ac.Compare(c, after, cmp)
+			if err != nil {
+				if checkErr == nil {
+					checkErr = err
+				}
+				return err
 			}
-			return err
+			ck := stepCheck{Rule: st.Rule, Refs: st.Refs, OK: rep.OK}
+			if w, ok := rep.Worst(); ok {
+				ck.Worst = &w
+			}
+			checks = append(checks, ck)
+			if rep.OK {
+				return nil
+			}
+			return &ac.ToleranceError{Pair: *ck.Worst, TolDB: rep.TolDB, TolDeg: rep.TolDeg}
 		}
 	}
 	reduced, log, err := rules.Reduce(c, ro)
 	if err != nil {
 		return reportReduceError(e, "verify", path, err)
 	}
+	numberChecks(checks, log.Steps)
 	if checkErr != nil {
 		return reportUnsolvable(e, path, lvl, cmp, o.json, checkErr)
 	}
@@ -194,7 +210,7 @@ func runVerify(e *env, opts any, args []string) int {
 	}
 	if o.json {
 		out := verifyJSON{Pairs: rep.Pairs, TolDB: rep.TolDB, TolDeg: rep.TolDeg, OK: rep.OK && len(refused) == 0,
-			Notes: rep.Notes, Level: lvl.String(), Refused: refused}
+			Notes: rep.Notes, Level: lvl.String(), Refused: refused, Steps: checks}
 		enc := json.NewEncoder(e.stdout)
 		enc.SetIndent("", "  ")
 		if err := enc.Encode(out); err != nil {
@@ -203,11 +219,85 @@ func runVerify(e *env, opts any, args []string) int {
 		}
 		return code
 	}
-	printVerify(e.stdout, path, lvl, rep, refused, o.steps)
+	printVerify(e.stdout, path, lvl, rep, refused, o.steps, checks)
 	return code
 }
 
-func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refused []refusedStep, steps bool) {
+// stepCheck is the comparison with the original after one tentative
+// rewrite step: its worst pair, and whether the step was kept.
+type stepCheck struct {
+	N     int      `json:"n"`
+	Rule  string   `json:"rule"`
+	Refs  []string `json:"refs,omitempty"`
+	Worst *ac.Pair `json:"worst,omitempty"` // nil when nothing was compared
+	OK    bool     `json:"ok"`
+}
+
+// numberChecks gives each check the number of its step in the log. The
+// engine calls Check once for every step it logs, applied or refused, in
+// log order; a step the log holds without a check (none today) is skipped.
+func numberChecks(checks []stepCheck, steps []rules.Step) {
+	k := 0
+	for _, s := range steps {
+		if k < len(checks) && checks[k].Rule == s.Rule && strings.Join(checks[k].Refs, ",") == strings.Join(s.Refs, ",") {
+			checks[k].N = s.N
+			k++
+		}
+	}
+}
+
+// printSteps prints one line per checked step: its worst deviation from the
+// original and whether the engine kept it.
+func printSteps(w io.Writer, checks []stepCheck, tolDB, tolDeg float64) {
+	if len(checks) == 0 {
+		fmt.Fprintln(w, "no rewrite step to check")
+		return
+	}
+	fmt.Fprintf(w, "after each step, the worst pair against the original (%d step(s) checked):\n", len(checks))
+	refW, labelW := 0, 0
+	for _, ck := range checks {
+		refW = max(refW, len(strings.Join(ck.Refs, ",")))
+		if ck.Worst != nil {
+			labelW = max(labelW, len(ck.Worst.Label()))
+		}
+	}
+	refW = min(refW, 24)
+	worstN, worstScore := 0, -1.0
+	for _, ck := range checks {
+		refs := strings.Join(ck.Refs, ",")
+		if len(refs) > refW {
+			refs = refs[:refW-1] + "…"
+		}
+		verdict := "kept"
+		if !ck.OK {
+			verdict = "REFUSED"
+		}
+		if ck.Worst == nil {
+			fmt.Fprintf(w, "  %3d  %-16s %-*s  nothing compared  %s\n", ck.N, ck.Rule, refW, refs, verdict)
+			continue
+		}
+		p := *ck.Worst
+		where := ac.FormatHz(p.AtHz)
+		if p.Setting != "" {
+			where += ", gang at " + p.Setting
+		}
+		if p.Error != "" {
+			fmt.Fprintf(w, "  %3d  %-16s %-*s  %-*s  %s  %s\n", ck.N, ck.Rule, refW, refs, labelW, p.Label(), p.Error, verdict)
+		} else {
+			fmt.Fprintf(w, "  %3d  %-16s %-*s  %-*s  %8.3f dB %7.2f°  at %s  %s\n", ck.N, ck.Rule, refW, refs, labelW, p.Label(), p.MaxDB, p.MaxDeg, where, verdict)
+		}
+		if ck.OK {
+			if s := math.Max(p.MaxDB/tolDB, p.MaxDeg/tolDeg); s > worstScore {
+				worstN, worstScore = ck.N, s
+			}
+		}
+	}
+	if worstScore >= 0 {
+		fmt.Fprintf(w, "closest to the tolerance among the kept steps: step %d\n", worstN)
+	}
+}
+
+func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refused []refusedStep, steps bool, checks []stepCheck) {
 	fmt.Fprintf(w, "%s: reduction at level %s against the original, tolerance %g dB, %g°\n", path, lvl, rep.TolDB, rep.TolDeg)
 	width := 0
 	for _, p := range rep.Pairs {
@@ -234,6 +324,7 @@ func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refu
 		fmt.Fprintf(w, "  note: %s\n", n)
 	}
 	if steps {
+		printSteps(w, checks, rep.TolDB, rep.TolDeg)
 		if len(refused) == 0 {
 			fmt.Fprintln(w, "every rewrite step kept the signal behaviour within tolerance")
 		} else {

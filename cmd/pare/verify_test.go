@@ -197,3 +197,43 @@ func TestVerifyUnsolvableAndPortFed(t *testing.T) {
 		t.Errorf("--term on a missing net: exit %d, %s", code, errs)
 	}
 }
+
+// --steps prints one line per checked step with its worst deviation from
+// the original: on the edge fixture, the rail step keeps everything (0 dB),
+// and the coupling-short of C1 is refused at the phase edgeNumbers derives
+// (5.28° at 20 Hz); --json carries the same table.
+func TestVerifyStepTable(t *testing.T) {
+	path := writeTemp(t, "edge.toml", edgeCoupling)
+	_, out, _ := cliRun(t, "verify", "--level", "ideal", "--steps", path)
+	if !strings.Contains(out, "(2 step(s) checked)") {
+		t.Errorf("the table should count the checked steps:\n%s", out)
+	}
+	if !regexp.MustCompile(`(?m)^\s+1  rail-ground\s+ht\s+V\(out\)/V\(in\)\s+0\.000 dB\s+0\.00°  at 20 Hz  kept$`).MatchString(out) {
+		t.Errorf("no kept line for step 1:\n%s", out)
+	}
+	m := regexp.MustCompile(`(?m)^\s+2  coupling-short\s+C1\s+V\(out\)/V\(in\)\s+([0-9.]+) dB\s+([0-9.]+)°  at 20 Hz  REFUSED$`).FindStringSubmatch(out)
+	if m == nil {
+		t.Fatalf("no refused line for step 2:\n%s", out)
+	}
+	_, wantDeg := edgeNumbers()
+	if deg, _ := strconv.ParseFloat(m[2], 64); math.Abs(deg-wantDeg) > 0.01 {
+		t.Errorf("step 2 deviation %s°, want %.2f°", m[2], wantDeg)
+	}
+	_, js, _ := cliRun(t, "verify", "--level", "ideal", "--steps", "--json", path)
+	var rep struct {
+		Steps []struct {
+			N     int
+			Rule  string
+			OK    bool
+			Worst *struct {
+				MaxDeg float64 `json:"max_deg"`
+			}
+		}
+	}
+	if err := json.Unmarshal([]byte(js), &rep); err != nil {
+		t.Fatal(err)
+	}
+	if len(rep.Steps) != 2 || rep.Steps[1].N != 2 || rep.Steps[1].OK || rep.Steps[1].Worst == nil || math.Abs(rep.Steps[1].Worst.MaxDeg-wantDeg) > 1e-6 {
+		t.Errorf("--json steps %+v", rep.Steps)
+	}
+}
