@@ -147,3 +147,39 @@ func TestOrientRoundTrip(t *testing.T) {
 		t.Errorf("a quarter turn clockwise takes the left pin to the top, got %v %v", p.At, p.Dir)
 	}
 }
+
+// An output transformer (centre-tapped primary, one secondary, iron core):
+// the secondary stands centred against the primary and every coil hump keeps
+// clear of the core lines, so the symbol reads at print size (common
+// drawing practice: the windings face each other across the core).
+func TestOutputTransformerReads(t *testing.T) {
+	p := part(graph.Transformer, "", "p1", "pt", "p2", "s1", "s2")
+	p.Windings = []graph.Winding{{Name: "pa", L: 10, From: "p1", To: "pt"}, {Name: "pb", L: 10, From: "pt", To: "p2"},
+		{Name: "s", L: 0.025, From: "s1", To: "s2"}}
+	p.Coupling = []graph.Coupling{{A: "pa", B: "s", K: 0.99}, {A: "pb", B: "s", K: 0.99}, {A: "pa", B: "pb", K: 0.99}}
+	s := For(p, IEC)
+	y := map[string]float64{}
+	for _, pn := range s.Pins {
+		y[pn.Name] = pn.At.Y
+	}
+	// primary p1..p2 spans 8 steps; the 4-step secondary is centred on pt
+	if mid := (y["s1"] + y["s2"]) / 2; mid != y["pt"] {
+		t.Errorf("secondary centred at %g, primary tap at %g: want the same", mid, y["pt"])
+	}
+	coreX, humpX := 0.0, math.Inf(1)
+	for _, pr := range s.Prims {
+		switch {
+		case pr.Thick && pr.Pts[0].X == pr.Pts[1].X:
+			coreX = math.Max(coreX, math.Abs(pr.Pts[0].X))
+		case pr.Kind == Arc:
+			// a hump's tip lies its radius from its chord, towards the core
+			humpX = math.Min(humpX, math.Abs(pr.Pts[0].X)-pr.R)
+		}
+	}
+	if coreX == 0 {
+		t.Fatal("no core drawn for k = 0.99")
+	}
+	if gap := humpX - coreX; gap < 0.2 {
+		t.Errorf("coil humps come within %g of the core lines, want at least 0.2 grid steps", gap)
+	}
+}
