@@ -3,6 +3,7 @@ package stages
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -291,6 +292,9 @@ func calcRC(x *figCtx) {
 	if r <= 0 || c <= 0 {
 		return
 	}
+	if x.word("use", "") == "section" && x.backwards(x.parts("r"), x.parts("c")) {
+		return // the capacitor is the previous section's: no figures, the guard drops the match
+	}
 	tau := r * c
 	fc := 1 / (2 * math.Pi * tau)
 	x.set("tau_s", tau)
@@ -398,6 +402,56 @@ func calcSmoothing(x *figCtx) {
 	}
 }
 
+// backwards tells whether a series resistor runs against the signal into
+// its shunt capacitor: the resistor's free end (not on the capacitor) is
+// farther from the inputs than the capacitor's net. In a ladder R1 C1 R2 C2
+// the pair R2–C1 has the shape of a section but C1 belongs to R1.
+func (x *figCtx) backwards(rs, cs []*graph.Part) bool {
+	if len(rs) != 1 || len(cs) != 1 {
+		return false
+	}
+	ri, cj := x.partIndex(rs[0]), x.partIndex(cs[0])
+	if ri < 0 || cj < 0 || len(x.w.pins[ri]) != 2 {
+		return false
+	}
+	onC := map[int]bool{}
+	for _, id := range x.w.pins[cj] {
+		onC[id] = true
+	}
+	free, shared := -1, -1
+	for _, id := range x.w.pins[ri] {
+		if onC[id] && id != groundNet {
+			shared = id
+		} else {
+			free = id
+		}
+	}
+	if free < 0 || shared < 0 {
+		return false
+	}
+	return x.netDist(free, ri, cj) > x.netDist(shared, ri, cj)
+}
+
+// netDist is how far a net lies from the inputs: a declared input -1, else
+// the least distance of the parts on it other than those given, MaxInt when
+// none is reached.
+func (x *figCtx) netDist(net int, skip ...int) int {
+	if x.w.isInput(net) {
+		return -1
+	}
+	dist := x.w.signalDist()
+	d := math.MaxInt
+	for _, ci := range x.w.conns[net] {
+		if slices.Contains(skip, ci) {
+			continue
+		}
+		if od, ok := dist[x.w.parts[ci].Ref]; ok && od < d {
+			d = od
+		}
+	}
+	return d
+}
+
 // loadsBeyond lists the parts outside the match on the signal nets of the
 // given shunt parts that draw current: everything but ports and the control
 // terminal of an amplifying device (a grid or gate takes next to none).
@@ -466,7 +520,6 @@ func calcCoupling(x *figCtx) {
 	// The downstream side is the one farther from the inputs (a declared
 	// input is upstream by definition). Only a resistance there is what the
 	// capacitor feeds; one on the upstream side (an anode load) is its source.
-	dist := x.w.signalDist()
 	var sides [2]struct {
 		d int
 		r float64
@@ -475,19 +528,8 @@ func calcCoupling(x *figCtx) {
 		if net == groundNet {
 			return
 		}
-		d := math.MaxInt // a side nothing else reaches from the inputs is downstream
-		if x.w.isInput(net) {
-			d = -1
-		}
-		for _, other := range x.w.conns[net] {
-			if other == ci {
-				continue
-			}
-			if od, ok := dist[x.w.parts[other].Ref]; ok && od < d {
-				d = od
-			}
-		}
-		sides[i].d, sides[i].r = d, resistanceToGround(x.w, net)
+		// a side nothing else reaches from the inputs is downstream (MaxInt)
+		sides[i].d, sides[i].r = x.netDist(net, ci), resistanceToGround(x.w, net)
 	}
 	var bestR float64
 	down := -1

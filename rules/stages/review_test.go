@@ -105,6 +105,23 @@ func TestRCLadder(t *testing.T) {
 	}
 }
 
+// A ladder whose refs do not follow the chain still pairs each resistor
+// with the capacitor after it, never with the one before (that belongs to
+// the previous section).
+func TestRCLadderPairsForward(t *testing.T) {
+	c := circuit(t, "valve", `R1 = { r = "10k", pins = ["in", "n1"] }
+C2 = { c = "10n", pins = ["n1", "gnd"] }
+R3 = { r = "10k", pins = ["n1", "n2"] }
+C1 = { c = "10n", pins = ["n2", "gnd"] }
+R2 = { r = "10k", pins = ["n2", "out"] }
+C3 = { c = "10n", pins = ["out", "gnd"] }`)
+	st := find(t, c, Options{})
+	got := topologies(st)
+	if want := "S1:rc-low-pass[C2 R1] S2:rc-low-pass[C1 R3] S3:rc-low-pass[C3 R2]"; got != want {
+		t.Errorf("sections %s, want %s", got, want)
+	}
+}
+
 // De-emphasis needs τ within ±20 % of 50 µs or 75 µs (the broadcast FM time
 // constants, from memory: ITU-R BS.450 and regional FM practice), and a set
 // that receives FM: a band or IF of 10 MHz or more (FM IF 10.7 MHz, from
