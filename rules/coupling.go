@@ -42,6 +42,12 @@ var couplingShort = Rule{
 		if l, lh, fLo, fHi, tuned := x.resonance([]string{na, nb}, capMin(p), capMax(p), lo, hi, p); tuned {
 			return false, d + ": with " + l.Ref + " (" + henries(lh) + ") it resonates at " + hz(fLo) + rangeTail(fLo, fHi) + ", inside or near the band: part of a tuned circuit, not shorted"
 		}
+		if q := acrossPart(x, p, na, nb); q != nil {
+			// The impedances on either side would count the part across the
+			// capacitor as a load to ground, while the capacitor itself
+			// shorts it: no ratio says anything here.
+			return false, d + ": " + x.describe(q) + " is directly across it: an R–C or L–C network (a load, a time constant), not a coupling capacitor: kept"
+		}
 		xc := 1 / (omega(lo) * capMin(p))
 		za, ta := x.LowerZ(na, lo, p)
 		zb, tb := x.LowerZ(nb, lo, p)
@@ -66,4 +72,32 @@ var couplingShort = Rule{
 		x.Join(keep, gone)
 		return Step{Removed: removed, Joined: []string{keep, gone}}
 	},
+}
+
+// acrossPart returns a part other than p whose terminals all lie on the two
+// nets a and b, touching both (a resistor or coil across a capacitor), or
+// nil. Parts are tried in the circuit's order, so the answer is stable.
+func acrossPart(x *Ctx, p *graph.Part, a, b string) *graph.Part {
+	for _, cn := range x.conns[a] {
+		q := cn.Part
+		if q == p {
+			continue
+		}
+		onA, onB, other := false, false, false
+		for _, pin := range q.Pins {
+			switch pin.Net {
+			case a:
+				onA = true
+			case b:
+				onB = true
+			case "nc":
+			default:
+				other = true
+			}
+		}
+		if onA && onB && !other {
+			return q
+		}
+	}
+	return nil
 }

@@ -75,3 +75,20 @@ R2 = { r = "1M", pins = ["cold", "gnd"] }
 		t.Errorf("near miss should give the resonance 469.9 kHz:\n%s", logText(log))
 	}
 }
+
+// A capacitor with a resistor directly across it is an R–C network (a
+// detector load, a de-emphasis or tone network), not a coupling capacitor:
+// the "impedance on either side" would count the resistor as a load to
+// ground while the capacitor shorts it. The 1 µF of the fixture, which the
+// ten-times rule shorts when alone (7.9577 kΩ ≤ 47 kΩ), stays with 1 MΩ
+// across it: shorting it would also short the resistor.
+func TestCouplingNotAcrossAResistor(t *testing.T) {
+	src := couplingFixture("1u") + `R9 = { r = "1M", pins = ["g2", "a1"] }` + "\n"
+	r, log := reduceChecked(t, parse(t, src), Options{Level: LevelIdeal})
+	if r.Part("C1") == nil || r.Part("R9") == nil {
+		t.Fatalf("C1 with R9 across it was shorted:\n%s", logText(log))
+	}
+	if !strings.Contains(logText(log), "R9 (1 MΩ, g2–a1) is directly across it") {
+		t.Errorf("the near miss should name R9:\n%s", logText(log))
+	}
+}
