@@ -25,6 +25,10 @@ const (
 // circuit's L and C, a cathode resistor and its bypass).
 type block struct {
 	cells []*cell
+	// chain is a series pair standing beside the block's coil, one above
+	// the other (a padder over its tuning capacitor): a tuned circuit
+	// whose C is two parts still stands beside its L
+	chain []*cell
 	col   int
 	fp    geom.Rect // footprint in block coordinates
 	pos   float64   // barycentre key while ordering
@@ -65,7 +69,71 @@ func sidePins(cl *cell) (left, right bool) {
 	return
 }
 
+// ends returns the upper and lower pin of a vertical cell.
+func ends(cl *cell) (top, bottom *geom.Pin) {
+	a, b, _ := outer(cl)
+	if a.At.Y > b.At.Y {
+		a, b = b, a
+	}
+	return a, b
+}
+
+// padChains finds, for each tuned coil standing vertically from a signal net
+// to AC ground, a series pair across it: a vertical part from the coil's hot
+// net down to a net only the two share, then a vertical part from there to
+// AC ground. The pair is drawn beside the coil, so the tank's L and C stand
+// side by side joined at the top.
+func (ly *state) padChains() map[*cell][]*cell {
+	vertical := func(cl *cell) bool {
+		return cl.edge == 0 && cl.part.Kind != graph.Port && !cl.part.IsActive() && isVertical(cl)
+	}
+	byTop := map[string][]*cell{}
+	for _, cl := range ly.cells {
+		if vertical(cl) && len(cl.shape.Pins) == 2 {
+			top, _ := ends(cl)
+			byTop[top.Net] = append(byTop[top.Net], cl)
+		}
+	}
+	used := map[*cell]bool{}
+	out := map[*cell][]*cell{}
+	for _, l := range ly.cells {
+		if !vertical(l) || l.part.Kind != graph.Inductor {
+			continue
+		}
+		hot, cold := ends(l)
+		if ly.c.RoleOf(hot.Net).IsACGround() || !ly.c.RoleOf(cold.Net).IsACGround() {
+			continue
+		}
+		for _, a := range byTop[hot.Net] {
+			_, mid := ends(a)
+			if used[a] || a == l || ly.netCount[mid.Net] != 2 || ly.c.RoleOf(mid.Net).IsACGround() {
+				continue
+			}
+			var b *cell
+			for _, cand := range byTop[mid.Net] {
+				if _, low := ends(cand); !used[cand] && cand != a && ly.c.RoleOf(low.Net).IsACGround() {
+					b = cand
+				}
+			}
+			if b != nil {
+				used[a], used[b] = true, true
+				out[l] = []*cell{a, b}
+				break
+			}
+		}
+	}
+	return out
+}
+
 func (ly *state) blocks() [][]*block {
+	chains := ly.padChains()
+	inChain := map[*cell]bool{}
+	for l, ch := range chains {
+		for _, cl := range ch {
+			cl.col = l.col
+			inChain[cl] = true
+		}
+	}
 	nCols := 0
 	for _, cl := range ly.cells {
 		nCols = max(nCols, cl.col+1)
@@ -73,6 +141,14 @@ func (ly *state) blocks() [][]*block {
 	cols := make([][]*block, nCols)
 	group := map[string]*block{}
 	for _, cl := range ly.cells {
+		if inChain[cl] {
+			continue
+		}
+		if ch, ok := chains[cl]; ok {
+			b := &block{cells: []*cell{cl}, chain: ch, col: cl.col}
+			cols[cl.col] = append(cols[cl.col], b)
+			continue
+		}
 		if cl.edge == 0 && isVertical(cl) && cl.part.Kind != graph.Port {
 			k := string(rune(cl.col)) + pairKey(cl)
 			if b, ok := group[k]; ok && len(b.cells) < 4 {
@@ -148,10 +224,43 @@ func (ly *state) arrange(b *block) {
 		x = fp.X1
 		b.fp = b.fp.Union(fp)
 	}
+	if len(b.chain) == 2 {
+		ly.stackChain(b)
+	}
+}
+
+// stackChain stands the block's series pair beside its coil: the upper
+// part's top pin level with the coil's hot end, the lower part two steps
+// under it, labels to the right.
+func (ly *state) stackChain(b *block) {
+	l := b.cells[0]
+	hot, _ := ends(l)
+	a, c := b.chain[0], b.chain[1]
+	for _, cl := range b.chain {
+		placeLabel(ly.c, cl, []geom.Dir{geom.Right, geom.Left, geom.Up, geom.Down})
+	}
+	gap := float64(blockGap + 1)
+	if _, r := sidePins(l); r {
+		gap += 3
+	}
+	at, _ := ends(a)
+	a.move(geom.Pt{X: math.Ceil(b.fp.X1 + gap - a.footprint().X0), Y: hot.At.Y - at.At.Y})
+	at, ab := ends(a)
+	ct, _ := ends(c)
+	dx := at.At.X - ct.At.X
+	dy := ab.At.Y + 2 - ct.At.Y
+	if fa, fc := a.footprint(), c.footprint().Move(geom.Pt{X: dx, Y: dy}); fc.Y0 < fa.Y1+1 {
+		dy += math.Ceil(fa.Y1 + 1 - fc.Y0)
+	}
+	c.move(geom.Pt{X: dx, Y: dy})
+	b.fp = b.fp.Union(a.footprint()).Union(c.footprint())
 }
 
 func (b *block) move(d geom.Pt) {
 	for _, cl := range b.cells {
+		cl.move(d)
+	}
+	for _, cl := range b.chain {
 		cl.move(d)
 	}
 	b.fp = b.fp.Move(d)
