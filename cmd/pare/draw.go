@@ -264,7 +264,11 @@ func frameFigures(figs map[string]float64, n int) string {
 	}
 	out := make([]string, len(list))
 	for i, e := range list {
-		out[i] = strings.ReplaceAll(e.name, "_", " ") + " " + e.text
+		label := strings.ReplaceAll(e.name, "_", " ")
+		if w, ok := stages.FigureName(e.name); ok {
+			label = w // the same words as pare stages prints
+		}
+		out[i] = label + " " + e.text
 	}
 	return strings.Join(out, ", ")
 }
