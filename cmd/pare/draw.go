@@ -224,6 +224,7 @@ func frameFigures(figs map[string]float64, n int) string {
 	type entry struct {
 		rank int
 		name string
+		key  string
 		text string
 	}
 	var list []entry
@@ -247,7 +248,7 @@ func frameFigures(figs map[string]float64, n int) string {
 				text = stages.FigureText(k, figs[k]) + "–" + stages.FigureText(k, hi)
 			}
 		}
-		list = append(list, entry{figureRank(name), name, text})
+		list = append(list, entry{figureRank(name), name, name + unit, text})
 	}
 	sort.SliceStable(list, func(i, j int) bool { return list[i].rank < list[j].rank })
 	seen := map[string]bool{}
@@ -265,7 +266,7 @@ func frameFigures(figs map[string]float64, n int) string {
 	out := make([]string, len(list))
 	for i, e := range list {
 		label := strings.ReplaceAll(e.name, "_", " ")
-		if w, ok := stages.FigureName(e.name); ok {
+		if w, ok := stages.FigureName(e.key); ok {
 			label = w // the same words as pare stages prints
 		}
 		out[i] = label + " " + e.text
