@@ -85,23 +85,10 @@ func runDraw(e *env, opts any, args []string) int {
 	if !ok {
 		return exitBad
 	}
-	ro := rules.Options{Level: lvl}
-	for _, f := range strings.Split(o.focus, ",") {
-		if f = strings.TrimSpace(f); f != "" {
-			ro.Focus = append(ro.Focus, f)
-		}
-	}
+	ro := rules.Options{Level: lvl, Focus: splitRefs(o.focus)}
 	sheet, err := drawSheet(c, path, view, ro)
 	if err != nil {
-		var list graph.ErrorList
-		if errors.As(err, &list) {
-			for _, x := range list {
-				fmt.Fprintln(e.stderr, x.Error())
-			}
-			fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
-			return exitBad
-		}
-		fmt.Fprintf(e.stderr, "pare draw: %s: %v\n", path, err)
+		printErrors(e, "pare draw", path, err)
 		return exitBad
 	}
 	cfg := render.Config{Style: style}

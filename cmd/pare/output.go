@@ -2,10 +2,12 @@ package main
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
+	"strings"
 
 	"pare/graph"
 )
@@ -68,15 +70,38 @@ func writeOutput(e *env, path string, fn func(w io.Writer) error) error {
 func loadCircuit(e *env, path string) (*graph.Circuit, bool) {
 	c, err := graph.LoadFile(path)
 	if err != nil {
-		if list, isList := err.(graph.ErrorList); isList {
-			for _, x := range list {
-				fmt.Fprintln(e.stderr, x.Error())
-			}
-			fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+		var list graph.ErrorList
+		if errors.As(err, &list) {
+			printErrors(e, "pare", path, err)
 		} else {
-			fmt.Fprintf(e.stderr, "pare: %v\n", err)
+			fmt.Fprintf(e.stderr, "pare: %v\n", err) // the OS error names the file
 		}
 		return nil, false
 	}
 	return c, true
+}
+
+// printErrors prints a positioned error list one problem a line, or a
+// plain error with context.
+func printErrors(e *env, who, path string, err error) {
+	var list graph.ErrorList
+	if errors.As(err, &list) {
+		for _, x := range list {
+			fmt.Fprintln(e.stderr, x.Error())
+		}
+		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+		return
+	}
+	fmt.Fprintf(e.stderr, "%s: %s: %v\n", who, path, err)
+}
+
+// splitRefs reads a comma-separated list such as --focus V1,C3 (blanks dropped).
+func splitRefs(s string) []string {
+	var out []string
+	for _, f := range strings.Split(s, ",") {
+		if f = strings.TrimSpace(f); f != "" {
+			out = append(out, f)
+		}
+	}
+	return out
 }

@@ -3,7 +3,6 @@ package main
 import (
 	"bytes"
 	"encoding/json"
-	"errors"
 	"flag"
 	"fmt"
 	"io"
@@ -102,11 +101,7 @@ func runReduce(e *env, opts any, args []string) int {
 	}
 	ro := rules.Options{Level: lvl, BypassRatio: o.ratio}
 	if o.focus != "" {
-		for _, f := range strings.Split(o.focus, ",") {
-			if f = strings.TrimSpace(f); f != "" {
-				ro.Focus = append(ro.Focus, f)
-			}
-		}
+		ro.Focus = splitRefs(o.focus)
 		if len(ro.Focus) == 0 {
 			fmt.Fprintln(e.stderr, "pare reduce: --focus names nothing")
 			return exitBad
@@ -118,15 +113,7 @@ func runReduce(e *env, opts any, args []string) int {
 	}
 	reduced, log, err := rules.Reduce(c, ro)
 	if err != nil {
-		var list graph.ErrorList
-		if errors.As(err, &list) {
-			for _, x := range list {
-				fmt.Fprintln(e.stderr, x.Error())
-			}
-			fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
-			return exitBad
-		}
-		fmt.Fprintf(e.stderr, "pare reduce: %s: %v\n", path, err)
+		printErrors(e, "pare reduce", path, err)
 		return exitBad
 	}
 	var netlist bytes.Buffer

@@ -161,20 +161,6 @@ func runStages(e *env, opts any, args []string) int {
 	return code
 }
 
-// printErrors prints a positioned error list one problem a line, or a
-// plain error with context.
-func printErrors(e *env, who, path string, err error) {
-	var list graph.ErrorList
-	if errors.As(err, &list) {
-		for _, x := range list {
-			fmt.Fprintln(e.stderr, x.Error())
-		}
-		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
-		return
-	}
-	fmt.Fprintf(e.stderr, "%s: %s: %v\n", who, path, err)
-}
-
 // hiddenFigures are the working values a table leaves to --json: the
 // capacitance and inductance that go into a resonance, the Qs behind kc.
 var hiddenFigures = map[string]bool{

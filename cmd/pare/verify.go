@@ -107,10 +107,7 @@ type verifyJSON struct {
 func reportUnsolvable(e *env, path string, lvl rules.Level, cmp ac.CompareOptions, asJSON bool, err error) int {
 	var list graph.ErrorList
 	if errors.As(err, &list) {
-		for _, x := range list {
-			fmt.Fprintln(e.stderr, x.Error())
-		}
-		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
+		printErrors(e, "pare verify", path, err)
 		return exitBad
 	}
 	msg := "cannot be solved: " + err.Error()
@@ -403,15 +400,7 @@ func parseAt(s string) (ac.Options, error) {
 // reportReduceError prints a reduction's failure the way loadCircuit prints
 // a load failure, and returns the exit code for bad input.
 func reportReduceError(e *env, cmd, path string, err error) int {
-	var list graph.ErrorList
-	if errors.As(err, &list) {
-		for _, x := range list {
-			fmt.Fprintln(e.stderr, x.Error())
-		}
-		fmt.Fprintf(e.stderr, "%s: %d error(s)\n", path, len(list))
-		return exitBad
-	}
-	fmt.Fprintf(e.stderr, "pare %s: %s: %v\n", cmd, path, err)
+	printErrors(e, "pare "+cmd, path, err)
 	return exitBad
 }
 
