@@ -153,6 +153,42 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 				}
 			}
 		}
+		// a crossing no single change removes may yield to two: a part on
+		// a crossing net turned (a transformer mirrored) together with a
+		// part it is wired to moved to the bottom of its column
+		pairs := 0
+		if free {
+			pairs = maxPairTries // once is enough: on the signal-line layout
+		}
+		for _, a := range curLy.cells {
+			if curX == 0 || pairs >= maxPairTries {
+				break
+			}
+			if !curLy.crossing[a.ref] || len(a.turns) < 2 {
+				continue
+			}
+			for t := range a.turns {
+				if t == a.turn {
+					continue
+				}
+				for _, b := range curLy.cells {
+					if b == a || b.edge != 0 || pairs >= maxPairTries || curX == 0 || !shareNet(curLy, a, b) {
+						continue
+					}
+					pairs++
+					trial := map[string]int{}
+					for k, v := range turns {
+						trial[k] = v
+					}
+					trial[a.ref] = t
+					trial[sinkKey+b.ref] = 1
+					r2, ly2, x2 := layoutOnce(c, o, trial, free)
+					if x2 < curX {
+						cur, curLy, curX, turns = r2, ly2, x2, trial
+					}
+				}
+			}
+		}
 		if curX < crossings {
 			res, crossings = cur, curX
 		}
@@ -162,6 +198,22 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	}
 	return res, nil
 }
+
+// shareNet says whether two cells have a wired net in common.
+func shareNet(ly *state, a, b *cell) bool {
+	for _, n := range ly.signalNets(a) {
+		for _, m := range ly.signalNets(b) {
+			if n == m {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// maxPairTries bounds the two-change search: a few dozen layouts of a
+// small reduced sheet.
+const maxPairTries = 40
 
 // sinkKey marks, in the search's turns map, a part moved to the bottom of
 // its column.
