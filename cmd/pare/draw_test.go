@@ -23,17 +23,6 @@ var updateSheets = flag.Bool("update", false, "rewrite the example sheets under 
 
 var drawViews = []render.View{render.Reduced, render.Full, render.Faded}
 
-// knownCrossings are the crossings left inside a stage frame of a reduced
-// example sheet that the layout cannot yet remove, by example and frame
-// title. The portable's mixer: T2's tapped tuned winding sends its tap to
-// C3 on the emitter side while the feedback winding's cold end goes on to
-// T3's tap, so the two nets change sides across the transformer; a hand
-// drawing has the same crossing unless the coil is drawn twice. Any other
-// crossing fails the test.
-var knownCrossings = map[string]int{
-	"transistor-front-end.toml S3 Self-oscillating mixer, oscillator fed into the emitter (BJT)": 1,
-}
-
 func exampleFiles(t testing.TB) []string {
 	files, err := filepath.Glob("../../examples/*.toml")
 	if err != nil || len(files) == 0 {
@@ -45,7 +34,8 @@ func exampleFiles(t testing.TB) []string {
 // TestDrawExamplesCheck lays out every example in every view and fails on
 // any overlap, wire through a symbol, broken net or bad junction, the
 // qualities the sheet must have; crossings and bends are reported, and the
-// reduced sheets must have no crossing inside a stage frame.
+// reduced sheets must have no crossing inside a stage frame and no crowded
+// wires.
 func TestDrawExamplesCheck(t *testing.T) {
 	for _, f := range exampleFiles(t) {
 		c, err := loadForTest(f)
@@ -69,9 +59,14 @@ func TestDrawExamplesCheck(t *testing.T) {
 				}
 				if v == render.Reduced {
 					for i, n := range r.FrameCrossings {
-						if n > knownCrossings[filepath.Base(f)+" "+g.Frames[i].Title.Lines[0]] {
+						if n > 0 {
 							t.Errorf("%s reduced %s: %d crossings inside frame %q", filepath.Base(f), st, n, g.Frames[i].Title.Lines)
 						}
+					}
+					// Reduced sheets go into repair notes: no wires crowded
+					// against each other or against a frame edge either.
+					for _, p := range r.Crowding() {
+						t.Errorf("%s reduced %s: %s", filepath.Base(f), st, p)
 					}
 				}
 			}
