@@ -7,12 +7,12 @@ import (
 	"flag"
 	"io"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
 
 	"pare/graph"
+	"pare/internal/reftool"
 	"pare/render/check"
 )
 
@@ -196,25 +196,8 @@ func wellFormed(t *testing.T, data []byte) {
 	}
 }
 
-// renders runs rsvg-convert (Debian librsvg2-bin) on a file; skipped when
-// it is not installed, unless PARE_REQUIRE_TOOLS is set.
-func renders(t *testing.T, file string) {
-	t.Helper()
-	bin, err := exec.LookPath("rsvg-convert")
-	if err != nil {
-		if os.Getenv("PARE_REQUIRE_TOOLS") != "" {
-			t.Fatal("rsvg-convert is missing and PARE_REQUIRE_TOOLS is set (apt-get install librsvg2-bin)")
-		}
-		t.Skip("rsvg-convert not installed")
-	}
-	cmd := exec.Command(bin, file)
-	cmd.Stdout = io.Discard
-	var stderr bytes.Buffer
-	cmd.Stderr = &stderr
-	if err := cmd.Run(); err != nil {
-		t.Errorf("rsvg-convert %s: %v %s", file, err, stderr.String())
-	}
-}
+// renders runs rsvg-convert (Debian librsvg2-bin) on a file.
+func renders(t *testing.T, file string) { t.Helper(); reftool.RenderSVG(t, file) }
 
 // TestUserTextIsEscaped puts markup into every user string that reaches the
 // sheet: it must come out as text, never as elements or attributes.

@@ -15,6 +15,7 @@ import (
 	"pare/graph"
 	"pare/graph/ac"
 	"pare/graph/value"
+	"pare/internal/reftool"
 )
 
 // An independent solver agrees that the reductions keep the signal: ngspice
@@ -26,10 +27,7 @@ import (
 // tolerance, common practice) wherever the response is within 60 dB of its
 // peak (below that, a deep null's exact depth is not the signal's behaviour).
 func TestReductionsAgainstNgspice(t *testing.T) {
-	bin, err := exec.LookPath("ngspice")
-	if err != nil {
-		t.Skip("ngspice not installed (apt-get install -y ngspice)")
-	}
+	bin := reftool.Find(t, reftool.Ngspice)
 	for _, path := range fixtures(t) {
 		c := loadFile(t, path)
 		if len(c.Inputs) == 0 || len(c.Outputs) == 0 {

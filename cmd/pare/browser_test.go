@@ -16,30 +16,15 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"pare/internal/reftool"
 )
 
-// chromiumPaths are where Debian's chromium package puts the browser; the
-// binary under /usr/lib is the one that takes the headless flags directly.
-var chromiumPaths = []string{"/usr/lib/chromium/chromium", "/usr/bin/chromium"}
-
-// findChromium returns the browser, or skips (fails when the tools are
-// required, as in CI).
+// findChromium returns the browser (Debian package chromium), or skips
+// (fails when the tools are required, as in CI).
 func findChromium(t *testing.T) string {
 	t.Helper()
-	for _, p := range chromiumPaths {
-		if st, err := os.Stat(p); err == nil && !st.IsDir() {
-			return p
-		}
-	}
-	if p, err := exec.LookPath("chromium"); err == nil {
-		return p
-	}
-	msg := "chromium not found (" + strings.Join(chromiumPaths, ", ") + "); install it with: apt-get install -y --no-install-recommends chromium"
-	if os.Getenv("PARE_REQUIRE_TOOLS") == "1" {
-		t.Fatal(msg)
-	}
-	t.Skip(msg + "; skipping the browser check")
-	return ""
+	return reftool.Find(t, reftool.Chromium)
 }
 
 // TestSheetsInBrowser draws every example's sheets in headless Chromium and

@@ -7,13 +7,13 @@ import (
 	"flag"
 	"io"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
 
 	"pare/graph"
+	"pare/internal/reftool"
 	"pare/render"
 	"pare/render/check"
 	"pare/rules"
@@ -170,25 +170,8 @@ func checkXML(t *testing.T, data []byte) {
 	}
 }
 
-// rsvg renders an SVG file with rsvg-convert (librsvg, Debian librsvg2-bin);
-// skipped when it is missing unless PARE_REQUIRE_TOOLS is set.
-func rsvg(t *testing.T, file string) {
-	t.Helper()
-	bin, err := exec.LookPath("rsvg-convert")
-	if err != nil {
-		if os.Getenv("PARE_REQUIRE_TOOLS") != "" {
-			t.Fatal("rsvg-convert not found and PARE_REQUIRE_TOOLS is set (apt-get install librsvg2-bin)")
-		}
-		t.Skip("rsvg-convert not installed")
-	}
-	cmd := exec.Command(bin, file)
-	cmd.Stdout = io.Discard
-	var stderr bytes.Buffer
-	cmd.Stderr = &stderr
-	if err := cmd.Run(); err != nil {
-		t.Errorf("rsvg-convert %s: %v: %s", file, err, stderr.String())
-	}
-}
+// rsvg renders an SVG file with rsvg-convert (librsvg, Debian librsvg2-bin).
+func rsvg(t *testing.T, file string) { t.Helper(); reftool.RenderSVG(t, file) }
 
 func TestDrawBadInput(t *testing.T) {
 	dir := t.TempDir()

@@ -18,6 +18,7 @@ import (
 	"time"
 
 	"pare/graph"
+	"pare/internal/reftool"
 )
 
 // ngspice is the independent reference: the deck WriteSpice writes is run by
@@ -44,14 +45,7 @@ func acLine(deck string) string {
 // PARE_REQUIRE_NGSPICE=1 (set by .ci/run) a missing ngspice fails it.
 func needNgspice(t testing.TB) string {
 	t.Helper()
-	path, err := exec.LookPath("ngspice")
-	if err != nil {
-		if os.Getenv("PARE_REQUIRE_NGSPICE") == "1" {
-			t.Fatalf("ngspice not found and PARE_REQUIRE_NGSPICE=1: install the Debian package ngspice")
-		}
-		t.Skip("ngspice not installed (Debian package ngspice): reference checks skipped")
-	}
-	return path
+	return reftool.Find(t, reftool.Ngspice)
 }
 
 // spiceRun writes c's deck, runs ngspice in batch mode and returns the

@@ -9,18 +9,15 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"pare/internal/reftool"
 )
 
 // ngspiceSweep runs an AC deck (a 1 A source into net "in", a lin sweep)
 // and returns frequency and |V(out)|. Recipe and pitfalls: reference-tools.md.
 func ngspiceSweep(t *testing.T, netlist, sweep string) (f, v []float64) {
 	t.Helper()
-	if _, err := exec.LookPath("ngspice"); err != nil {
-		if os.Getenv("PARE_REQUIRE_NGSPICE") != "" {
-			t.Fatal("PARE_REQUIRE_NGSPICE is set but ngspice is not installed")
-		}
-		t.Skip("ngspice not installed (apt-get install -y ngspice)")
-	}
+	bin := reftool.Find(t, reftool.Ngspice)
 	dir := t.TempDir()
 	deck := "* stages cross-check\n" + netlist + `
 .control
@@ -36,7 +33,7 @@ quit
 	if err := os.WriteFile(filepath.Join(dir, "deck.cir"), []byte(deck), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	cmd := exec.Command("ngspice", "-b", "deck.cir")
+	cmd := exec.Command(bin, "-b", "deck.cir")
 	cmd.Dir = dir
 	out, err := cmd.CombinedOutput()
 	if err != nil || strings.Contains(string(out), "Error") {
