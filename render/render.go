@@ -250,7 +250,7 @@ func (d *drawer) draw() {
 	}
 	// the caution wraps at the drawing width (at least 60 characters)
 	wrapAt := int(math.Max(60, width/small))
-	cautionLines := wrap(caution, wrapAt)
+	cautionLines := layout.WrapWords(caution, wrapAt)
 	for _, l := range cautionLines {
 		width = math.Max(width, float64(len([]rune(l)))*small)
 	}
@@ -378,26 +378,6 @@ text{font-family:'DejaVu Sans Mono',monospace;font-size:%[4]spx;fill:#000}
 	cv.End()
 }
 
-// wrap breaks text into lines of at most n characters at spaces.
-func wrap(s string, n int) []string {
-	var out []string
-	line := ""
-	for _, w := range strings.Fields(s) {
-		if line != "" && len([]rune(line))+1+len([]rune(w)) > n {
-			out = append(out, line)
-			line = w
-			continue
-		}
-		if line != "" {
-			line += " "
-		}
-		line += w
-	}
-	if line != "" {
-		out = append(out, line)
-	}
-	return out
-}
 
 func (d *drawer) label(l geom.Label, frame bool) {
 	cv := d.canvas

@@ -384,10 +384,10 @@ const minTitleChars = 24
 // (but no narrower than minTitleChars); head is the number of title lines.
 func titleLines(f Frame, width float64) (lines []string, head int) {
 	chars := int(math.Max(minTitleChars, math.Floor(width/symbol.CharW)))
-	lines = wrapWords(f.Title, chars)
+	lines = WrapWords(f.Title, chars)
 	head = len(lines)
 	if f.Subtitle != "" {
-		lines = append(lines, wrapWords(f.Subtitle, int(float64(chars)/symbol.SmallScale))...)
+		lines = append(lines, WrapWords(f.Subtitle, int(float64(chars)/symbol.SmallScale))...)
 	}
 	return lines, head
 }
@@ -411,8 +411,9 @@ func titleWidth(f Frame, width float64) float64 {
 	return w + 2*framePad
 }
 
-// wrapWords breaks text into lines of at most n characters at spaces.
-func wrapWords(s string, n int) []string {
+// WrapWords breaks text into lines of at most n characters at spaces (frame
+// titles here, the caution line in render).
+func WrapWords(s string, n int) []string {
 	var out []string
 	line := ""
 	for _, w := range strings.Fields(s) {
