@@ -312,5 +312,13 @@ func sheetFurniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []s
 			lines = append(lines, "Tuning "+s.Name+": "+value.FormatRange(value.Range{Min: lo, Max: hi}, value.Hertz, value.Symbol))
 		}
 	}
+	// A reduced sheet holds for one setting of each switch only (the
+	// reduction replaces a switch by the contacts closed in its set
+	// position), so the sheet says which.
+	for _, p := range c.Parts {
+		if p.Kind == graph.Switch {
+			lines = append(lines, fmt.Sprintf("Switch %s at position %d of %d", p.Ref, int(p.Set), len(p.Closes)))
+		}
+	}
 	return append(lines, "Reduction level "+lvl.String())
 }

@@ -303,3 +303,31 @@ func TestFadedViewFindsEveryReducedPart(t *testing.T) {
 		}
 	}
 }
+
+// A reduced sheet is true for one switch setting only: the information
+// block must say which (the reduction keeps the contacts of the set position).
+func TestFurnitureNamesSwitchPositions(t *testing.T) {
+	src := `title = "Band switch"
+band = "530k..1.6M"
+inputs = ["ant"]
+outputs = ["tank"]
+[parts]
+S1 = { switch = 2, set = 2, closes = ["c-1", "c-2"], pins = { c = "tank", 1 = "lmw", 2 = "llw" } }
+L1 = { l = "230u", pins = ["lmw", "gnd"] }
+L2 = { l = "2m", pins = ["llw", "gnd"] }
+C1 = { c = "10p", pins = ["ant", "tank"] }
+C2 = { c = "12p..365p", pins = ["tank", "gnd"] }
+`
+	c, err := graph.Parse("switch.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	lines := sheetFurniture(c, nil, rules.LevelSignal)
+	want := "Switch S1 at position 2 of 2"
+	for _, l := range lines {
+		if l == want {
+			return
+		}
+	}
+	t.Errorf("furniture %q lacks %q", lines, want)
+}
