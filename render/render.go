@@ -378,7 +378,6 @@ text{font-family:'DejaVu Sans Mono',monospace;font-size:%[4]spx;fill:#000}
 	cv.End()
 }
 
-
 func (d *drawer) label(l geom.Label, frame bool) {
 	cv := d.canvas
 	if l.Faded {
