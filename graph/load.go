@@ -528,7 +528,12 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 	case Resistor:
 		p.Value = ld.rngOne(kp, m[key], value.Ohm)
 	case Capacitor:
+		before := len(ld.errs)
 		p.Value = ld.rng(kp, m[key], value.Farad)
+		if len(ld.errs) == before && p.Value.Max <= 0 {
+			// No capacitor has 0 F; a missing multiplier or a slip of the pen.
+			ld.errVal(kp, "a capacitor must be above 0 F")
+		}
 		switch {
 		case typ != "":
 			if !contains(capTypes, typ) {
@@ -627,6 +632,9 @@ func (ld *loader) inductor(path string, p *Part, m map[string]any, typ string) {
 	q := 0.0
 	if x, ok := m["q"]; ok {
 		q = ld.num(path+".q", x, value.None)
+		if !(q > 0) {
+			ld.errVal(path+".q", "q is the unloaded quality factor and must be above 0 (leave it out for a lossless coil)")
+		}
 	}
 	kp := path + ".l"
 	if list, ok := m["l"].([]any); ok {
@@ -652,7 +660,11 @@ func (ld *loader) inductor(path string, p *Part, m map[string]any, typ string) {
 		p.Value = value.Range{Min: p.Inductance(), Max: p.Inductance()}
 		return
 	}
+	before := len(ld.errs)
 	p.Value = ld.rngOne(kp, m["l"], value.Henry)
+	if len(ld.errs) == before && p.Value.Max == 0 {
+		ld.errVal(kp, "an inductor must be above 0 H")
+	}
 	if x, ok := m["tap"]; ok {
 		n := ld.num(path+".tap", x, value.None)
 		if n <= 0 || n >= 1 {
@@ -686,6 +698,9 @@ func (ld *loader) transformer(path string, p *Part, m map[string]any) {
 	q := 0.0
 	if x, ok := m["q"]; ok {
 		q = ld.num(path+".q", x, value.None)
+		if !(q > 0) {
+			ld.errVal(path+".q", "q is the unloaded quality factor and must be above 0 (leave it out for a lossless coil)")
+		}
 	}
 	for _, name := range sortedKeys(wm) {
 		np := wp + "." + name
