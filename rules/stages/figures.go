@@ -295,6 +295,9 @@ func calcRC(x *figCtx) {
 	if x.word("use", "") == "section" && x.backwards(x.parts("r"), x.parts("c")) {
 		return // the capacitor is the previous section's: no figures, the guard drops the match
 	}
+	if x.word("use", "") == "coupling" && x.upstream(x.parts("r"), x.parts("c")) {
+		return // the resistor is the source's (an anode load, a source resistor): no figures, the guard drops the match
+	}
 	tau := r * c
 	fc := 1 / (2 * math.Pi * tau)
 	x.set("tau_s", tau)
@@ -430,6 +433,38 @@ func (x *figCtx) backwards(rs, cs []*graph.Part) bool {
 		return false
 	}
 	return x.netDist(free, ri, cj) > x.netDist(shared, ri, cj)
+}
+
+// upstream tells whether the shunt resistor of a coupling capacitor sits on
+// the capacitor's driven side: the net it shares with the capacitor is
+// nearer the inputs than the capacitor's other end. A coupling corner is
+// set by the resistance the capacitor feeds (the next grid leak or load),
+// f = 1/(2πRC); the resistor on the driving side (an anode load, a source
+// resistor) is part of the source and sets no corner with it.
+func (x *figCtx) upstream(rs, cs []*graph.Part) bool {
+	if len(rs) != 1 || len(cs) != 1 {
+		return false
+	}
+	ri, cj := x.partIndex(rs[0]), x.partIndex(cs[0])
+	if ri < 0 || cj < 0 || len(x.w.pins[cj]) != 2 {
+		return false
+	}
+	onR := map[int]bool{}
+	for _, id := range x.w.pins[ri] {
+		onR[id] = true
+	}
+	shared, other := -1, -1
+	for _, id := range x.w.pins[cj] {
+		if onR[id] && id != groundNet && shared < 0 {
+			shared = id
+		} else {
+			other = id
+		}
+	}
+	if shared < 0 || other < 0 || other == shared {
+		return false
+	}
+	return x.netDist(shared, ri, cj) < x.netDist(other, ri, cj)
 }
 
 // netDist is how far a net lies from the inputs: a declared input -1, else
