@@ -132,7 +132,7 @@ func drawSheet(c *graph.Circuit, path string, view render.View, ro rules.Options
 
 // drawCaution is the sheet's one-line caution; the renderer adds
 // "small-signal only" to reduced views.
-const drawCaution = "Caution: valve HT and mains can kill; capacitors stay charged and the chassis may be live. " +
+const drawCaution = "Caution: mains and valve HT can kill; capacitors stay charged and the chassis may be live. " +
 	"Use an isolation transformer and follow local codes and licensed practice."
 
 // fadedAndMerged compares the original with the reduced circuit through the

@@ -133,12 +133,12 @@ var cautionLines = []string{
 }
 
 // cautionHeading opens the caution block; tests look for it.
-const cautionHeading = "Caution: valve and mains equipment can kill."
+const cautionHeading = "Caution: mains-powered and valve equipment can kill."
 
 // sheetCaution is the one line printed on every sheet of the main job (the
 // renderer adds "small-signal only" to a reduced view). It sends the reader
 // to the full caution in the note beside the sheets.
-const sheetCaution = "Caution: valve HT and mains can kill; capacitors stay charged and the chassis may be live. Read the caution in notes.md before working on the set."
+const sheetCaution = "Caution: mains and valve HT can kill; capacitors stay charged and the chassis may be live. Read the caution in notes.md before working on the set."
 
 // writeNote writes the repair note. Output depends only on n, so the same
 // run gives the same bytes.
