@@ -169,6 +169,7 @@ func writeNote(w io.Writer, n *note) error {
 	}
 
 	writeVerdict(&b, n)
+	writeFindings(&b, n)
 	writeSheets(&b, n)
 	writeStages(&b, n)
 	writeParts(&b, n)
@@ -194,6 +195,24 @@ func writeVerdict(b *bytes.Buffer, n *note) {
 		fmt.Fprintf(b, "**Verification passed**: the reduced circuit matches the original within %s dB and %s° at every port pair checked.\n\n",
 			num(v.TolDB), num(v.TolDeg))
 	}
+}
+
+// writeFindings lists, right under the verdict, the figures pare found
+// questionable (an oscillator that misses the band, an IF can tuned off the
+// IF, poor tracking): what a repairer wants to see before any table.
+func writeFindings(b *bytes.Buffer, n *note) {
+	var lines []string
+	for _, s := range n.Stages {
+		for _, f := range s.Flags {
+			lines = append(lines, fmt.Sprintf("- **%s** %s: %s", mdText(s.Name), mdText(s.Title), mdText(f)))
+		}
+	}
+	if len(lines) == 0 {
+		return
+	}
+	b.WriteString("**Figures to check** (flagged by pare from the part values; each is also in the stage table):\n\n")
+	b.WriteString(strings.Join(lines, "\n"))
+	b.WriteString("\n\n")
 }
 
 func writeSheets(b *bytes.Buffer, n *note) {

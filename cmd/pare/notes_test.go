@@ -186,3 +186,22 @@ func TestNum(t *testing.T) {
 		}
 	}
 }
+
+// A flagged figure is what a repairer must see first: it stands under the
+// verdict, before the sheets and the stage table.
+func TestNoteFindingsComeFirst(t *testing.T) {
+	out := writeToString(t, sampleNote())
+	finding := "- **S1** Hartley oscillator, cathode tap (valve): grid-leak bias"
+	at := strings.Index(out, finding)
+	if at < 0 {
+		t.Fatalf("note lacks the finding %q:\n%s", finding, out)
+	}
+	if sheets := strings.Index(out, "## Sheets"); sheets < at || strings.Index(out, "Verification passed") > at {
+		t.Errorf("finding at %d is not between the verdict and the sheets (%d)", at, sheets)
+	}
+	n := sampleNote()
+	n.Stages[0].Flags = nil
+	if strings.Contains(writeToString(t, n), "Figures to check") {
+		t.Error("a note without flags has a findings block")
+	}
+}
