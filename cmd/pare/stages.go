@@ -54,6 +54,10 @@ a file with the id of a built-in pattern replaces it (docs/patterns.md).
 const stagesCaution = "Figures are small-signal values from the reduced circuit, not DC voltages. Valve sets carry lethal HT and may have a live chassis; " +
 	"capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
 
+// supplyHeading separates the supply stages, found on the full circuit,
+// from the signal stages of the reduced one.
+const supplyHeading = "Supply stages (found on the full circuit; the reduction removes them from the signal path):"
+
 // reasonUnmatched is what a part in no stage is told; reasonLoneShunt a
 // resistor to AC ground that no stage touches (one that does joins it).
 const (
@@ -181,7 +185,14 @@ func printStages(w io.Writer, path string, c *graph.Circuit, lvl rules.Level, fo
 			topoW = max(topoW, len(s.Topology))
 		}
 		fmt.Fprintf(w, "%-*s  %-*s  %s\n", nameW, "stage", topoW, "topology", "title / parts")
+		supplyShown := false
 		for _, s := range found {
+			if s.Supply && !supplyShown {
+				// Supply stages come last (Find orders them so); the
+				// heading keeps them apart from the signal path.
+				supplyShown = true
+				fmt.Fprintf(w, "\n%s\n", supplyHeading)
+			}
 			fmt.Fprintf(w, "%-*s  %-*s  %s\n", nameW, s.Name, topoW, s.Topology, s.Title)
 			pad := strings.Repeat(" ", nameW+topoW+4)
 			fmt.Fprintf(w, "%sparts: %s\n", pad, strings.Join(s.Parts, " "))

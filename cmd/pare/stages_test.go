@@ -219,3 +219,26 @@ func TestStagesLoneShunt(t *testing.T) {
 		t.Errorf("empty lines doubled:\n%q", out)
 	}
 }
+
+// The transistor example's smoothing filter (C12 100 µF reservoir on the
+// battery side, R7 470 Ω, C10 47 µF): the corner 1/(2π·470 Ω·47 µF) =
+// 7.205 Hz (derived from f = 1/(2πRC)), printed after the signal stages
+// under the supply heading, since the reduction removes its parts.
+func TestStagesSupplyListedApart(t *testing.T) {
+	code, out, errs := cliRun(t, "stages", filepath.Join(root, "examples/transistor-front-end.toml"))
+	if code != exitOK {
+		t.Fatalf("exit %d\n%s\n%s", code, out, errs)
+	}
+	for _, want := range []string{"f c 7.205 Hz", "c reservoir 100 µF", "c smoothing 47 µF", supplyHeading} {
+		if !strings.Contains(out, want) {
+			t.Errorf("output lacks %q:\n%s", want, out)
+		}
+	}
+	head, smooth := strings.Index(out, supplyHeading), strings.Index(out, "smoothing-filter")
+	if head < 0 || smooth < head {
+		t.Errorf("the smoothing filter is not under the supply heading:\n%s", out)
+	}
+	if last := strings.LastIndex(out, "amp-tuned-tapped"); last > head {
+		t.Errorf("a signal stage follows the supply heading:\n%s", out)
+	}
+}

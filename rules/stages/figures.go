@@ -392,6 +392,12 @@ func calcSmoothing(x *figCtx) {
 	s := x.part("series")
 	c2 := sumCap(x.parts("c2"), 1)
 	c1 := sumCap(x.parts("c1"), 1)
+	// The pattern is symmetric, so the match may have it either way round:
+	// the reservoir is the capacitor on the side that faces the rectifier
+	// or the supply input, and the corner is set by the other one.
+	if x.feeds(x.st.nets["out"]) > x.feeds(x.st.nets["in"]) {
+		c1, c2 = c2, c1
+	}
 	if s == nil || c2 <= 0 {
 		return
 	}
@@ -403,6 +409,35 @@ func calcSmoothing(x *figCtx) {
 	case graph.Resistor:
 		x.set("f_c_hz", 1/(2*math.Pi*s.Value.Max*c2))
 	}
+}
+
+// feeds scores how surely a net is the supply input of a smoothing filter:
+// a rectifier (a diode) on it counts most, then a port (a battery, the
+// supply's connection), then a declared supply role; the declared voltage
+// breaks ties, since each filter section drops some. Higher is nearer the
+// source.
+func (x *figCtx) feeds(net string) float64 {
+	id, ok := x.w.netID[net]
+	if !ok || id == groundNet {
+		return math.Inf(-1)
+	}
+	score := 0.0
+	for _, ci := range x.w.conns[id] {
+		switch x.w.parts[ci].Kind {
+		case graph.Diode:
+			score = max(score, 4)
+		case graph.Port:
+			score = max(score, 2)
+		}
+	}
+	if n := x.w.c.Net(net); n != nil {
+		if n.Role == graph.Supply {
+			score = max(score, 1)
+		}
+		// volts add less than a step: a tie-break between like nets
+		score += math.Atan(math.Abs(n.Volts)) / math.Pi
+	}
+	return score
 }
 
 // backwards tells whether a series resistor runs against the signal into

@@ -20,6 +20,9 @@ type Stage struct {
 	Figures  map[string]float64 `json:"figures"` // SI base units: "f_min_hz", "gain", "tau_s", …
 	Flags    []string           `json:"flags"`
 	Contains []string           `json:"contains,omitempty"` // names of sub-stages
+	// Supply marks a power-supply stage found on the full circuit: it comes
+	// after every signal stage and is on no reduced sheet.
+	Supply bool `json:"supply,omitempty"`
 	// Notes state the assumptions behind figures ("capacitance linear in
 	// rotation"), so a note that quotes a figure can quote its basis too.
 	Notes []string `json:"notes,omitempty"`
@@ -109,9 +112,26 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	}
 	for _, top := range power {
 		name(top.Stage)
+		markSupply(top)
 		out = appendTree(out, top)
 	}
 	return out, errors.Join(errSig, errPow)
+}
+
+// SupplyNote goes with every supply stage (a smoothing filter, a
+// rectifier), found on the full circuit: the reduction removes its parts,
+// so a reader who looks for it on the reduced sheet knows why it is not
+// there.
+const SupplyNote = "supply stage found on the full circuit; its parts are not on the reduced sheet"
+
+// markSupply marks a stage found on the full circuit, and its sub-stages,
+// as a supply stage.
+func markSupply(f *found) {
+	f.Supply = true
+	f.Notes = append(f.Notes, SupplyNote)
+	for _, c := range f.subs {
+		markSupply(c)
+	}
 }
 
 // namePrefix is "S" for stage names (S1, S2.1), or "ST" when a part of the

@@ -4,6 +4,9 @@ import (
 	"math"
 	"slices"
 	"testing"
+
+	"pare/graph"
+	"pare/rules"
 )
 
 // stageWith is the stage that holds part ref, nil when none does.
@@ -48,5 +51,85 @@ func TestCouplingCornerUsesLoadSide(t *testing.T) {
 				t.Errorf("%s: f c %g Hz, want %g Hz", c.cap, got, fc)
 			}
 		})
+	}
+}
+
+// The smoothing filter of the transistor example runs vcc (C12 100 µF, on
+// the battery port and the declared supply) → R7 470 Ω → vcc_mix (C10
+// 47 µF): C12 is the reservoir, C10 the smoothing capacitor, and the corner
+// is 1/(2π·R7·C10) = 7.205 Hz (derived from f = 1/(2πRC)). The stage is on
+// the full circuit only, so it comes after every signal stage, marked.
+func TestSmoothingFilterFacesTheSupply(t *testing.T) {
+	full, reduced, log := reduceExample(t, "transistor-front-end.toml")
+	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround})
+	sm := stageOf(st, "smoothing-filter")
+	if sm == nil {
+		t.Fatalf("no smoothing filter: %s", topologies(st))
+	}
+	for _, c := range []struct {
+		key  string
+		want float64
+	}{
+		{"c_reservoir_f", 100e-6},                   // C12, on vcc with the battery port
+		{"c_smoothing_f", 47e-6},                    // C10, on vcc_mix
+		{"f_c_hz", 1 / (2 * math.Pi * 470 * 47e-6)}, // derived from f = 1/(2πRC)
+	} {
+		if got := sm.Figures[c.key]; math.Abs(got-c.want) > 1e-3*c.want {
+			t.Errorf("%s = %g, want %g", c.key, got, c.want)
+		}
+	}
+	if !sm.Supply || !slices.Contains(sm.Notes, SupplyNote) {
+		t.Errorf("smoothing filter supply %v notes %q: want it marked, with the note %q", sm.Supply, sm.Notes, SupplyNote)
+	}
+	seenSupply := false
+	for _, s := range st {
+		if s.Supply {
+			seenSupply = true
+		} else if seenSupply {
+			t.Errorf("signal stage %s %s listed after a supply stage: %s", s.Name, s.Topology, topologies(st))
+		}
+	}
+}
+
+// The same filter drawn the other way round in the netlist (supply input on
+// the net the pattern calls out): the reservoir still is the capacitor on
+// the rectifier's side. A valve supply: rectifier D1 into C1 32 µF, choke L1
+// 10 H, C2 16 µF on HT; f = 1/(2π√(L·C2)) (handbook formula, from memory)
+// with the smoothing capacitor, 12.58 Hz, not 8.9 Hz with the reservoir.
+func TestSmoothingFilterRectifierSide(t *testing.T) {
+	src := `title = "supply"
+band = "20..20k"
+inputs = ["ac"]
+outputs = ["ht"]
+[nets]
+gnd = { role = "ground" }
+ht = { role = "supply", volts = 250 }
+[parts]
+D1 = { diode = "rectifier", pins = { a = "ac", k = "raw" } }
+R1 = { r = "100k", pins = ["ac", "gnd"] }
+C1 = { c = "32u", type = "electrolytic", pins = ["raw", "gnd"] }
+L1 = { l = "10", type = "choke", pins = ["raw", "ht"] }
+C2 = { c = "16u", type = "electrolytic", pins = ["ht", "gnd"] }
+R2 = { r = "10k", pins = ["ht", "gnd"] }
+`
+	full, err := graph.Parse("supply.toml", []byte(src))
+	if err != nil {
+		t.Fatalf("fixture: %v", err)
+	}
+	reduced, log, err := rules.Reduce(full, rules.Options{Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatalf("reduce: %v", err)
+	}
+	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround})
+	sm := stageOf(st, "smoothing-filter")
+	if sm == nil {
+		t.Fatalf("no smoothing filter: %s", topologies(st))
+	}
+	want := 1 / (2 * math.Pi * math.Sqrt(10*16e-6)) // derived from f = 1/(2π√(LC))
+	if got := sm.Figures["f_c_hz"]; math.Abs(got-want) > 1e-3*want {
+		t.Errorf("f c %g Hz, want %g Hz (with C2, the smoothing capacitor)", got, want)
+	}
+	if got := sm.Figures["c_reservoir_f"]; got != 32e-6 {
+		t.Errorf("reservoir %g F, want C1 32 µF (on the rectifier)", got)
 	}
 }
