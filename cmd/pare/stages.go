@@ -6,6 +6,7 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"regexp"
 	"strings"
 
 	"pare/graph"
@@ -278,21 +279,78 @@ func joinedFigure(figs map[string]float64, k string, done map[string]bool) (stri
 		}
 		return "", true // where the error peaks, without the error, says nothing
 	}
-	if base, ok := strings.CutSuffix(k, "track_f1_hz"); ok {
-		var at []string
+	// The three-point padding is a design pare proposes, not the fitted
+	// set: its parts and its exact points go in one item that says so, so a
+	// repairer does not take them for the set's values and "correct" a good
+	// padder.
+	for _, member := range suggestedKeys {
+		base, ok := strings.CutSuffix(k, member)
+		if !ok {
+			continue
+		}
+		var parts, at []string
+		for _, p := range []struct{ key, word string }{{"pad_c_f", "padder"}, {"pad_l_h", "coil"}, {"pad_trim_f", "trimmer"}} {
+			if v, has := figs[base+p.key]; has {
+				parts = append(parts, p.word+" "+stages.FigureText(base+p.key, v))
+			}
+			done[base+p.key] = true
+		}
 		for _, n := range []string{"1", "2", "3"} {
 			key := base + "track_f" + n + "_hz"
 			if v, has := figs[key]; has {
 				at = append(at, stages.FigureText(key, v))
-				done[key] = true
 			}
+			done[key] = true
 		}
-		if len(at) == 3 {
-			return "tracks exactly at " + at[0] + ", " + at[1] + " and " + at[2], true
+		if len(at) > 0 {
+			parts = append(parts, "exact at "+andList(at))
 		}
-		return "tracks exactly at " + strings.Join(at, " and "), true
+		item := "suggested 3-point design: " + strings.Join(parts, ", ")
+		if fit := fittedItem(figs, base, done); fit != "" {
+			item = fit + ", " + item // what the set does before what pare proposes
+		}
+		return item, true
+	}
+	if m := fittedKey.FindStringSubmatch(k); m != nil {
+		return fittedItem(figs, m[1], done), true
 	}
 	return "", false
+}
+
+// fittedItem is "fitted set tracks exactly at …" for the figures with the
+// given prefix, "" when there are none; it marks the keys it used in done.
+func fittedItem(figs map[string]float64, base string, done map[string]bool) string {
+	var at []string
+	for n := 1; ; n++ {
+		key := fmt.Sprintf("%strack_fit%d_hz", base, n)
+		v, has := figs[key]
+		if !has {
+			break
+		}
+		if !done[key] {
+			at = append(at, stages.FigureText(key, v))
+		}
+		done[key] = true
+	}
+	if len(at) == 0 {
+		return ""
+	}
+	return "fitted set tracks exactly at " + andList(at)
+}
+
+// suggestedKeys are the figures of a suggested three-point padding design
+// (rules/stages tracking); any of them starts the joined item.
+var suggestedKeys = []string{"track_f1_hz", "track_f2_hz", "track_f3_hz", "pad_c_f", "pad_l_h", "pad_trim_f"}
+
+// fittedKey matches the points where the fitted set tracks exactly.
+var fittedKey = regexp.MustCompile(`^(.*)track_fit\d+_hz$`)
+
+// andList joins items as prose: "a", "a and b", "a, b and c".
+func andList(items []string) string {
+	if len(items) < 2 {
+		return strings.Join(items, "")
+	}
+	return strings.Join(items[:len(items)-1], ", ") + " and " + items[len(items)-1]
 }
 
 // figureWords is the label figureLine prints before a figure's value: the

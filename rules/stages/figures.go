@@ -974,9 +974,10 @@ var figureNames = map[string]string{
 	"f_c_unloaded":  "f c (unloaded)",
 	"r_dyn":         "dynamic R",
 	"bw":            "bandwidth",
-	"pad_c":         "3-point padder",
-	"pad_l":         "3-point coil",
-	"pad_trim":      "3-point trimmer",
+	"pad_c":         "suggested 3-point padder", // a proposed design, not the fitted part
+	"pad_l":         "suggested 3-point coil",
+	"pad_trim":      "suggested 3-point trimmer",
+	"gain_min":      "gain needed to oscillate ≥", // the loop's threshold, not the stage's gain
 	"gain_ac":       "gain (AC check)",
 	"track_err_max": "track err max",
 }

@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sort"
+	"strings"
 
 	"pare/graph"
 )
@@ -240,9 +242,22 @@ func (x *figCtx) tracking(osc *tankModel, ifHz float64) {
 	}
 	x.set("track_err_max_hz", worst)
 	x.set("track_err_at_hz", worstAt)
-	x.st.Notes = append(x.st.Notes, fmt.Sprintf("tracking: %s and %s turn together, capacitance taken as linear in rotation; three-point padding exact at %s, %s and %s",
-		gangCap.Ref, sig.gangRef(gangCap.Gang), FigureText("f_hz", TrackingPoints(sig.f(1), sig.f(0))[0]),
-		FigureText("f_hz", TrackingPoints(sig.f(1), sig.f(0))[1]), FigureText("f_hz", TrackingPoints(sig.f(1), sig.f(0))[2])))
+	fitted := fittedTracking(sig.f, osc.f, ifHz)
+	for i, f := range fitted {
+		x.set(fmt.Sprintf("track_fit%d_hz", i+1), f)
+	}
+	fittedText := "the fitted set tracks exactly nowhere on the dial"
+	if len(fitted) > 0 {
+		var at []string
+		for _, f := range fitted {
+			at = append(at, FigureText("f_hz", f))
+		}
+		fittedText = "the fitted set tracks exactly at " + andList(at)
+	}
+	ideal := TrackingPoints(sig.f(1), sig.f(0))
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("tracking: %s and %s turn together, capacitance taken as linear in rotation; %s; a suggested three-point design would be exact at %s",
+		gangCap.Ref, sig.gangRef(gangCap.Gang), fittedText,
+		andList([]string{FigureText("f_hz", ideal[0]), FigureText("f_hz", ideal[1]), FigureText("f_hz", ideal[2])})))
 	// Common practice, no source: tracking should stay well inside the IF
 	// pass-band; 2 % of the IF (9 kHz at 455 kHz) is taken as the line.
 	if math.Abs(worst) > 0.02*ifHz {
@@ -266,6 +281,58 @@ func (x *figCtx) tracking(osc *tankModel, ifHz float64) {
 	x.set("pad_c_f", sol.Padder)
 	x.set("pad_trim_f", sol.Trimmer)
 	x.set("pad_l_h", sol.L)
+}
+
+// trackingScan is how finely fittedTracking walks the dial before it
+// closes in on a crossing: fine enough that two crossings never fall in one
+// step of a broadcast gang.
+const trackingScan = 2000
+
+// fittedTracking is where the fitted parts track exactly: the dial points
+// (as signal frequencies, low to high) where the oscillator minus the
+// signal frequency crosses the IF, fosc − (fsig + IF) = 0. Each sign change
+// over the scan is narrowed by bisection.
+func fittedTracking(sig, osc func(th float64) float64, ifHz float64) []float64 {
+	errAt := func(th float64) float64 { return osc(th) - (sig(th) + ifHz) }
+	var out []float64
+	prevTh, prevE := 0.0, errAt(0)
+	if prevE == 0 {
+		out = append(out, sig(0))
+	}
+	for i := 1; i <= trackingScan; i++ {
+		th := float64(i) / trackingScan
+		e := errAt(th)
+		switch {
+		case e == 0:
+			out = append(out, sig(th))
+		case prevE != 0 && math.Signbit(e) != math.Signbit(prevE):
+			lo, hi, elo := prevTh, th, prevE
+			for range 60 {
+				mid := (lo + hi) / 2
+				em := errAt(mid)
+				if math.Signbit(em) == math.Signbit(elo) {
+					lo, elo = mid, em
+				} else {
+					hi = mid
+				}
+			}
+			out = append(out, sig((lo+hi)/2))
+		}
+		prevTh, prevE = th, e
+	}
+	sort.Float64s(out)
+	return out
+}
+
+// andList joins items as prose: "a", "a and b", "a, b and c".
+func andList(items []string) string {
+	switch len(items) {
+	case 0:
+		return ""
+	case 1:
+		return items[0]
+	}
+	return strings.Join(items[:len(items)-1], ", ") + " and " + items[len(items)-1]
 }
 
 // findGangTank finds the other section of a gang and the tank it tunes: a

@@ -133,3 +133,75 @@ R2 = { r = "10k", pins = ["ht", "gnd"] }
 		t.Errorf("reservoir %g F, want C1 32 µF (on the rectifier)", got)
 	}
 }
+
+// reference-values §2, three-point tracking: the padded set of
+// TestTrackingAcrossTheDial (RF tank 230.625 µH + 26.0046 pF trimmer; L2
+// 135.265 µH, Ct2 33.5915 pF, Cp 364.241 pF; IF 455 kHz) was designed exact
+// at 600, 1100 and 1600 kHz, so the fitted set must track exactly there and
+// nowhere else on the dial.
+func TestFittedTrackingPoints(t *testing.T) {
+	c := circuit(t, "valve", `@Q1(g, tap, o)
+T1 = { windings = { p = "40u", s = "230.625u" }, k = 0.3, pins = { p1 = "in", p2 = "gnd", s1 = "rf", s2 = "gnd" } }
+VC1 = { c = "12p..365p", pins = ["rf", "gnd"], gang = "tune" }
+TC1 = { c = "5p..50p", set = "26.0046p", pins = ["rf", "gnd"] }
+C1 = { c = "10p", pins = ["rf", "g"] }
+C2 = { c = "100p", pins = ["top", "g"] }
+L1 = { l = "135.265u", tap = 0.12, pins = ["gnd", "tap", "top"] }
+C6 = { c = "364.241p", pins = ["top", "pad"] }
+VC2 = { c = "12p..365p", pins = ["pad", "gnd"], gang = "tune" }
+TC2 = { c = "5p..50p", set = "33.5915p", pins = ["pad", "gnd"] }
+T2 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "if", s2 = "gnd" } }
+C3 = { c = "122.354p", pins = ["o", "ht"] }
+C4 = { c = "122.354p", pins = ["if", "gnd"] }`, "[freqs]\nif = \"455k\"")
+	s := stageOf(find(t, c, Options{}), "self-oscillating-mixer")
+	if s == nil {
+		t.Fatal("mixer not recognised")
+	}
+	for i, want := range []float64{600e3, 1100e3, 1600e3} { // reference-values §2 design points
+		key := "track_fit" + string(rune('1'+i)) + "_hz"
+		if got, ok := s.Figures[key]; !ok || math.Abs(got-want) > 0.5e3 {
+			t.Errorf("%s = %g Hz (present %v), want %g Hz", key, got, ok, want)
+		}
+	}
+	if _, ok := s.Figures["track_fit4_hz"]; ok {
+		t.Errorf("a fourth exact-tracking point: %v", s.Figures)
+	}
+}
+
+// The frequency changer example's fitted parts (RF 230 µH + 31 pF trimmer;
+// oscillator 128 µH, 41 pF trimmer, 380 pF padder; gang 12–365 pF; IF
+// 470 kHz) do not track where the suggested design would: at each fitted
+// point pare reports, the oscillator worked out by hand, f = 1/(2π√(LC)) with
+// C = (Cg+Ct)·Cp/(Cg+Ct+Cp) (reference-values §1, §4), is the signal + IF.
+func TestFittedTrackingFrequencyChanger(t *testing.T) {
+	full, reduced, log := reduceExample(t, "frequency-changer.toml")
+	mix := stageOf(find(t, reduced, Options{Full: full, ACGround: log.ACGround}), "self-oscillating-mixer")
+	if mix == nil {
+		t.Fatal("no self-oscillating mixer")
+	}
+	var pts []float64
+	for i := 1; ; i++ {
+		v, ok := mix.Figures["track_fit"+string(rune('0'+i))+"_hz"]
+		if !ok {
+			break
+		}
+		pts = append(pts, v)
+	}
+	if len(pts) != 3 {
+		t.Fatalf("fitted tracking points %v: want three (QA hand check: about 620 kHz, 905 kHz, 1.48 MHz)", pts)
+	}
+	for _, fs := range pts {
+		w := 2 * math.Pi * fs
+		cg := 1/(w*w*230e-6) - 31e-12
+		ct := cg + 41e-12
+		fo := 1 / (2 * math.Pi * math.Sqrt(128e-6*ct*380e-12/(ct+380e-12)))
+		if e := fo - (fs + 470e3); math.Abs(e) > 200 {
+			t.Errorf("at %g Hz the fitted set is off by %g Hz, not tracking", fs, e)
+		}
+		for _, ideal := range []string{"track_f1_hz", "track_f2_hz", "track_f3_hz"} {
+			if math.Abs(mix.Figures[ideal]-fs) < 5e3 {
+				t.Errorf("fitted point %g Hz coincides with the suggested design's %s %g Hz", fs, ideal, mix.Figures[ideal])
+			}
+		}
+	}
+}

@@ -313,7 +313,7 @@ func TestFigureName(t *testing.T) {
 		ok        bool
 	}{
 		{"if_hz", "IF", true}, {"ift_f_hz", "IF transformer f", true}, {"load_f_hz", "load tuned f", true},
-		{"f_c_unloaded_hz", "f c (unloaded)", true}, {"pad_c_f", "3-point padder", true},
+		{"f_c_unloaded_hz", "f c (unloaded)", true}, {"pad_c_f", "suggested 3-point padder", true}, {"gain_min", "gain needed to oscillate ≥", true},
 		{"gain", "", false}, {"f_c_hz", "", false}, {"tau_s", "", false}, {"_hz", "", false},
 	} {
 		got, ok := FigureName(tc.key)
