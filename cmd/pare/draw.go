@@ -229,9 +229,11 @@ func frameFigures(figs map[string]float64, n int) string {
 		}
 		text := stages.FigureText(k, figs[k])
 		name := base
-		if strings.HasSuffix(base, "_min") {
-			name = strings.TrimSuffix(base, "_min")
-			if hi, ok := figs[name+"_max"+unit]; ok {
+		if lo, ok := strings.CutSuffix(base, "_min"); ok {
+			// Only a min with its max is a range; a lone min (the gain
+			// needed to oscillate) keeps its own name.
+			if hi, paired := figs[lo+"_max"+unit]; paired {
+				name = lo
 				text = stages.FigureText(k, figs[k]) + "–" + stages.FigureText(k, hi)
 			}
 		}
