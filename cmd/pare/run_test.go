@@ -248,8 +248,8 @@ func TestMainJobStageFigures(t *testing.T) {
 			"reference-values.md §4: fc = 1/(2πRC), C10 10 nF into R7 470 kΩ"},
 		{"if-detector-audio", "rc-coupling", "tau", 4.7e-3, 0.002,
 			"reference-values.md §4: τ = RC = 10 nF × 470 kΩ"},
-		{"if-detector-audio", "amp-common-bypassed", "bypass tau", 0.15, 0.002,
-			"derived from τ = RC: C13 100 µF × R8 1.5 kΩ"},
+		{"if-detector-audio", "amp-common-bypassed", "bypass tau", 0.077628, 0.002,
+			"derived from τ = RC with R = R8 1.5 kΩ ∥ (ra + RL)/(µ + 1) = 62.5 k + 100 k over 101 (the impedance into a cathode: textbook, from memory) = 776.3 Ω, C13 100 µF"},
 		{"frequency-changer", "double-tuned", "kc", 0.0095346, 0.005,
 			"reference-values.md §6: kc = 1/√(Q1Q2) with T2's Q 110 and 100"},
 	}

@@ -30,6 +30,7 @@ func init() {
 		"clapp":        {args: []string{"coil", "c1", "c2", "c3"}, required: []string{"coil", "c1", "c2", "c3"}, fn: calcClapp},
 		"crystal":      {args: []string{"xtal"}, required: []string{"xtal"}, fn: calcCrystal},
 		"rc":           {args: []string{"r", "c", "use"}, required: []string{"r", "c"}, wordArgs: []string{"use"}, fn: calcRC},
+		"bypass":       {args: []string{"device", "r", "c", "load", "load_net"}, required: []string{"device", "r", "c"}, netArgs: []string{"load_net"}, fn: calcBypass},
 		"rc-phase":     {args: []string{"r", "c"}, required: []string{"r", "c"}, fn: calcPhaseShift},
 		"wien":         {args: []string{"r1", "c1", "r2", "c2"}, required: []string{"r1", "c1", "r2", "c2"}, fn: calcWien},
 		"gain":         {args: []string{"device", "load", "load_net", "degeneration", "form"}, required: []string{"device", "form"}, netArgs: []string{"load_net"}, wordArgs: []string{"form"}, fn: calcGain},

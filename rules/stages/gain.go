@@ -383,3 +383,37 @@ func (x *figCtx) tapShare() float64 {
 	}
 	return math.Sqrt(cold) / (math.Sqrt(la) + math.Sqrt(lb))
 }
+
+// calcBypass gives the corner of a cathode (emitter, source) bypass
+// capacitor. The capacitor works against everything at the common
+// electrode: the resistor in parallel with the impedance looking into the
+// electrode, which for a valve is (ra + RL)/(µ + 1) and for a BJT or FET
+// about 1/gm (textbook small-signal results, from memory; the BJT figure
+// leaves out the base source resistance over β + 1). Taking the resistor
+// alone, as 1/(2πRkCk), puts the corner too low by the factor Rk/R.
+func calcBypass(x *figCtx) {
+	p := x.part("device")
+	rk := parallelR(x.parts("r"))
+	ck := sumCap(x.parts("c"), 1)
+	if p == nil || rk <= 0 || ck <= 0 {
+		return
+	}
+	d := deviceOf(p)
+	var zin float64
+	switch {
+	case d.kind == graph.Valve && d.mu > 0:
+		zin = (d.ra + x.load()) / (d.mu + 1)
+	case d.kind == graph.FET && d.gm > 0 && d.rOut > 0:
+		zin = (d.rOut + x.load()) / (1 + d.gm*d.rOut)
+	case d.gm > 0:
+		zin = 1 / d.gm
+	}
+	r := rk
+	if zin > 0 {
+		r = parallel(rk, zin)
+		x.set("r_ohm", r)
+	}
+	tau := r * ck
+	x.set("tau_s", tau)
+	x.set("f_c_hz", 1/(2*math.Pi*tau))
+}

@@ -205,3 +205,25 @@ func TestFittedTrackingFrequencyChanger(t *testing.T) {
 		}
 	}
 }
+
+// A cathode bypass works against Rk in parallel with the impedance looking
+// into the cathode, (ra + RL)/(µ + 1) (textbook small-signal result, from
+// memory): with µ 100, ra 62.5 kΩ, RL 100 kΩ that is 1608.9 Ω, so 1.5 kΩ
+// ∥ 1608.9 Ω = 776.3 Ω and with 100 µF the corner is 2.050 Hz (derived from
+// f = 1/(2πRC)), not the 1.061 Hz of Rk alone.
+func TestCathodeBypassCountsTheCathode(t *testing.T) {
+	_, st := reduceFixture(t, "triode-bypassed.toml")
+	s := stageWith(st, "V1")
+	if s == nil || s.Topology != "amp-common-bypassed" {
+		t.Fatalf("V1 not in a bypassed common-cathode stage: %s", topologies(st))
+	}
+	zk := (62.5e3 + 100e3) / (100 + 1)
+	r := 1.5e3 * zk / (1.5e3 + zk)
+	fc := 1 / (2 * math.Pi * r * 100e-6)
+	if got := s.Figures["bypass_r_ohm"]; !within(got, r, 1e-3) {
+		t.Errorf("bypass r %g Ω, want %g Ω", got, r)
+	}
+	if got := s.Figures["bypass_f_c_hz"]; !within(got, fc, 1e-3) || !within(fc, 2.050, 1e-3) {
+		t.Errorf("bypass f c %g Hz, want %g Hz (2.050 Hz)", got, fc)
+	}
+}
