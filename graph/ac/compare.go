@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -752,14 +753,8 @@ func logSweepInner(lo, hi float64, n int) []float64 {
 }
 
 func sortUnique(f []float64) []float64 {
-	sort.Float64s(f)
-	out := f[:0]
-	for i, v := range f {
-		if i == 0 || v != f[i-1] {
-			out = append(out, v)
-		}
-	}
-	return out
+	slices.Sort(f)
+	return slices.Compact(f)
 }
 
 // BandsOf returns the bands of interest of the signal on a net (see

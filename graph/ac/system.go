@@ -274,13 +274,7 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 
 func dedupe(a []int) []int {
 	slices.Sort(a)
-	out := a[:0]
-	for i, v := range a {
-		if i == 0 || v != a[i-1] {
-			out = append(out, v)
-		}
-	}
-	return out
+	return slices.Compact(a)
 }
 
 // checkFloating finds nodes with no path to ground (or to the driven node)
