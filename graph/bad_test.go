@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"pare/internal/golden"
 )
 
 // update rewrites the golden .err files from what the loader says now:
@@ -53,20 +55,7 @@ func TestBadInput(t *testing.T) {
 				got.WriteString(e.Error())
 				got.WriteByte('\n')
 			}
-			golden := strings.TrimSuffix(path, ".toml") + ".err"
-			if *update {
-				if err := os.WriteFile(golden, []byte(got.String()), 0o644); err != nil {
-					t.Fatal(err)
-				}
-				return
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("no golden file (run with -update and review it): %v", err)
-			}
-			if got.String() != string(want) {
-				t.Errorf("messages differ from %s\n--- got\n%s--- want\n%s", golden, got.String(), want)
-			}
+			golden.Check(t, strings.TrimSuffix(path, ".toml")+".err", []byte(got.String()), *update, "go test ./graph -update")
 		})
 	}
 }

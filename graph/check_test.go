@@ -5,6 +5,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"pare/internal/golden"
 )
 
 // TestCheckWarnings loads each fixture under testdata/warn (each holds one
@@ -40,20 +42,7 @@ func TestCheckWarnings(t *testing.T) {
 				got.WriteString(w.Error())
 				got.WriteByte('\n')
 			}
-			golden := strings.TrimSuffix(path, ".toml") + ".warn"
-			if *update {
-				if err := os.WriteFile(golden, []byte(got.String()), 0o644); err != nil {
-					t.Fatal(err)
-				}
-				return
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("no golden file (run with -update and review it): %v", err)
-			}
-			if got.String() != string(want) {
-				t.Errorf("warnings differ from %s\n--- got\n%s--- want\n%s", golden, got.String(), want)
-			}
+			golden.Check(t, strings.TrimSuffix(path, ".toml")+".warn", []byte(got.String()), *update, "go test ./graph -update")
 		})
 	}
 }

@@ -6,12 +6,12 @@ import (
 	"errors"
 	"flag"
 	"io"
-	"os"
 	"path/filepath"
 	"strings"
 	"testing"
 
 	"pare/graph"
+	"pare/internal/golden"
 	"pare/internal/reftool"
 	"pare/render/check"
 )
@@ -131,20 +131,9 @@ func TestGoldenSheets(t *testing.T) {
 				t.Fatal(err)
 			}
 			wellFormed(t, buf.Bytes())
-			golden := filepath.Join("testdata", name+"."+st.String()+".svg")
-			if *update {
-				if err := os.WriteFile(golden, buf.Bytes(), 0o644); err != nil {
-					t.Fatal(err)
-				}
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("%v (run go test ./render -update)", err)
-			}
-			if !bytes.Equal(want, buf.Bytes()) {
-				t.Errorf("%s differs from the golden sheet (look at the PNG, then -update)", golden)
-			}
-			renders(t, golden)
+			file := filepath.Join("testdata", name+"."+st.String()+".svg")
+			golden.Check(t, file, buf.Bytes(), *update, "look at the PNG, then go test ./render -update")
+			renders(t, file)
 		}
 	}
 }

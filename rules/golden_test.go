@@ -2,10 +2,11 @@ package rules
 
 import (
 	"flag"
-	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"pare/internal/golden"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden logs in testdata/golden")
@@ -26,22 +27,7 @@ func TestGoldenLogs(t *testing.T) {
 			r, log := reduceChecked(t, c, Options{Level: lvl})
 			got := logText(log) + "---\n" + written(t, r)
 			name := filepath.Join("testdata", "golden", strings.TrimSuffix(filepath.Base(path), ".toml")+"."+lvl.String()+".log")
-			if *update {
-				if err := os.MkdirAll(filepath.Dir(name), 0o755); err != nil {
-					t.Fatal(err)
-				}
-				if err := os.WriteFile(name, []byte(got), 0o644); err != nil {
-					t.Fatal(err)
-				}
-				continue
-			}
-			want, err := os.ReadFile(name)
-			if err != nil {
-				t.Fatalf("%v (run go test ./rules -run TestGoldenLogs -update)", err)
-			}
-			if string(want) != got {
-				t.Errorf("%s at %s: log differs from %s:\n--- got\n%s\n--- want\n%s", path, lvl, name, got, want)
-			}
+			golden.Check(t, name, []byte(got), *update, "go test ./rules -run TestGoldenLogs -update")
 		}
 	}
 }

@@ -13,6 +13,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/internal/golden"
 	"pare/internal/reftool"
 	"pare/render"
 	"pare/render/check"
@@ -124,18 +125,7 @@ func TestDrawExampleSheets(t *testing.T) {
 			}
 			checkXML(t, out.Bytes())
 			name := sheetName(f, v)
-			if *updateSheets {
-				if err := os.WriteFile(name, out.Bytes(), 0o644); err != nil {
-					t.Fatal(err)
-				}
-			}
-			want, err := os.ReadFile(name)
-			if err != nil {
-				t.Fatalf("%v (run go test ./cmd/pare -run TestDrawExampleSheets -update)", err)
-			}
-			if !bytes.Equal(want, out.Bytes()) {
-				t.Errorf("%s differs from what pare draws now (run with -update after checking the PNG)", name)
-			}
+			golden.Check(t, name, out.Bytes(), *updateSheets, "look at the PNG, then go test ./cmd/pare -run TestDrawExampleSheets -update")
 			rsvg(t, name)
 			// the same input gives the same bytes
 			var again bytes.Buffer
