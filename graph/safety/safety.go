@@ -1,0 +1,323 @@
+// Package safety decides what kind of set a circuit belongs to for the
+// bench (mains or valve HT, AC/DC with a possibly live chassis, battery
+// only) and holds the one set of caution texts that pare prints: on the
+// sheets, in the repair note and under every text report. It reads only the
+// circuit model, so the renderer and the commands can share it without
+// knowing about reductions or stages.
+//
+// The choice is made from the original circuit, never from a reduced one: a
+// reduction removes heaters, rails and supplies, which is exactly the
+// evidence this package looks at. When the netlist does not show what
+// powers the set, the caution says so and assumes the worst.
+package safety
+
+import (
+	"fmt"
+	"math"
+	"regexp"
+	"strings"
+
+	"pare/graph"
+)
+
+// Class is what the netlist shows of how the set is powered.
+type Class int
+
+// Classes, from the least known to the most dangerous; the order is used
+// nowhere but in tests.
+const (
+	// Unknown: no valves, no mains parts and no rail voltage declared, so
+	// nothing says the set is low voltage. The caution assumes mains and HT.
+	Unknown Class = iota
+	// Battery: no valves, nothing from the mains, every declared rail at
+	// or below LowVolts.
+	Battery
+	// MainsHT: valves, a mains transformer, a rectifier or a mains input,
+	// or a rail above LowVolts.
+	MainsHT
+	// LiveChassis: fed from the mains without a mains transformer: a
+	// series heater chain, a rectifier on the mains input, or a mains input
+	// that feeds no transformer (an AC/DC or "universal" set).
+	LiveChassis
+)
+
+var classNames = [...]string{Unknown: "unknown", Battery: "battery", MainsHT: "mains-ht", LiveChassis: "live-chassis"}
+
+// String gives the class's name as tests and JSON show it.
+func (c Class) String() string {
+	if c >= 0 && int(c) < len(classNames) {
+		return classNames[c]
+	}
+	return fmt.Sprintf("Class(%d)", int(c))
+}
+
+// LowVolts is the highest rail voltage a set may have and still count as
+// low voltage: the 50 V of the extra-low-voltage band (IEC 60449, band I,
+// stated there for AC; applied to DC rails too, which errs on the safe side).
+const LowVolts = 50
+
+// Assessment is the class of a circuit with the evidence for it.
+type Assessment struct {
+	Class Class
+	// MaxVolts is the largest declared rail voltage (magnitude), 0 when
+	// none is declared.
+	MaxVolts float64
+	// Evidence names what the choice rests on, in the order found
+	// ("valve V1", "rail ht at 250 V"); empty for Unknown.
+	Evidence []string
+}
+
+// evidence is what Assess collects while walking the circuit once: one
+// list of short items per kind of finding, in circuit order.
+type evidence struct {
+	valves, highRails, lowRails []string
+	mainsNets                   map[string]bool
+	mainsInputs                 []string // parts or nets that bring the mains in
+	mainsTransformers           []string
+	rectifiers                  []string
+	mainsRectifiers             []string // rectifiers with a pin on a mains net
+	chain                       []string // heaters in series, or a heater net above LowVolts
+	acdc                        []string // labels that say AC/DC outright
+	maxVolts                    float64
+}
+
+// Assess classifies a circuit. A nil circuit is Unknown.
+func Assess(c *graph.Circuit) Assessment {
+	if c == nil {
+		return Assessment{Class: Unknown}
+	}
+	ev := collect(c)
+	a := Assessment{MaxVolts: ev.maxVolts}
+	var unfed []string // a mains input that feeds no transformer
+	if len(ev.mainsTransformers) == 0 {
+		unfed = ev.mainsInputs
+	}
+	switch {
+	case len(ev.acdc)+len(ev.chain)+len(ev.mainsRectifiers)+len(unfed) > 0:
+		a.Class = LiveChassis
+		a.Evidence = summary(
+			group{"said AC/DC by", ev.acdc}, group{"series heaters:", ev.chain},
+			group{"rectifier on the mains:", ev.mainsRectifiers}, group{"mains input with no mains transformer:", unfed},
+			group{"valves", ev.valves}, group{"rails above 50 V:", ev.highRails})
+	case len(ev.valves)+len(ev.highRails)+len(ev.mainsInputs)+len(ev.mainsTransformers)+len(ev.rectifiers) > 0:
+		a.Class = MainsHT
+		a.Evidence = summary(
+			group{"valves", ev.valves}, group{"rails above 50 V:", ev.highRails},
+			group{"mains transformer", ev.mainsTransformers}, group{"rectifiers", ev.rectifiers},
+			group{"mains input", ev.mainsInputs})
+	case len(ev.lowRails) > 0:
+		a.Class = Battery
+		a.Evidence = summary(group{"no valves, no mains parts, rails at 50 V or below:", ev.lowRails})
+	}
+	return a
+}
+
+// group is one kind of evidence and the items found for it.
+type group struct {
+	what  string
+	items []string
+}
+
+// summary writes each non-empty group as one line, naming at most four
+// items: a set with twelve valves needs no list of twelve to be believed.
+func summary(gs ...group) []string {
+	var out []string
+	for _, g := range gs {
+		if len(g.items) == 0 {
+			continue
+		}
+		items := g.items
+		more := ""
+		if len(items) > 4 {
+			items, more = items[:4], fmt.Sprintf(" and %d more", len(g.items)-4)
+		}
+		out = append(out, g.what+" "+strings.Join(items, ", ")+more)
+	}
+	return out
+}
+
+func collect(c *graph.Circuit) *evidence {
+	ev := &evidence{mainsNets: map[string]bool{}}
+	// Mains ports and parts first: a net they already name is not listed
+	// again on its own.
+	for _, p := range c.Parts {
+		if (p.Kind == graph.Port || p.Kind == graph.Generic) && saysMains(p.Label) {
+			for _, pin := range p.Pins {
+				ev.mainsNets[pin.Net] = true
+			}
+			what := p.Ref + " " + quote(p.Label)
+			ev.mainsInputs = append(ev.mainsInputs, what)
+			if offSheetTransformer.MatchString(p.Label) {
+				// "from the mains transformer": the transformer is there,
+				// only cut away from this sheet.
+				ev.mainsTransformers = append(ev.mainsTransformers, "off the sheet ("+p.Ref+")")
+			}
+		}
+		if saysACDC(p.Label) {
+			ev.acdc = append(ev.acdc, p.Ref)
+		}
+	}
+	for _, n := range c.Nets {
+		if n.Role == graph.Supply || n.Role == graph.Bias || n.Role == graph.Heater {
+			railEvidence(ev, n)
+		}
+		if (saysMains(n.Name) || saysMains(n.Label)) && !ev.mainsNets[n.Name] {
+			ev.mainsNets[n.Name] = true
+			ev.mainsInputs = append(ev.mainsInputs, "net "+n.Name)
+			if offSheetTransformer.MatchString(n.Label) {
+				ev.mainsTransformers = append(ev.mainsTransformers, "off the sheet (net "+n.Name+")")
+			}
+		}
+		if saysACDC(n.Label) {
+			ev.acdc = append(ev.acdc, "net "+n.Name)
+		}
+	}
+	if saysACDC(c.Title) {
+		ev.acdc = append(ev.acdc, "the title")
+	}
+	supply := map[string]bool{}
+	for _, n := range c.Nets {
+		if n.Role == graph.Supply {
+			supply[n.Name] = true
+		}
+	}
+	for _, p := range c.Parts {
+		partEvidence(ev, p, supply)
+	}
+	ev.chain = append(ev.chain, seriesHeaters(c)...)
+	return ev
+}
+
+// railEvidence sorts a declared rail into high or low; a heater net
+// declared above LowVolts is a series chain across the mains.
+func railEvidence(ev *evidence, n *graph.Net) {
+	v := math.Abs(n.Volts)
+	if v == 0 {
+		return
+	}
+	ev.maxVolts = math.Max(ev.maxVolts, v)
+	what := fmt.Sprintf("%s %s V", n.Name, volts(n.Volts))
+	switch {
+	case n.Role == graph.Heater && v > LowVolts:
+		ev.chain = append(ev.chain, fmt.Sprintf("heater net %s at %s V", n.Name, volts(n.Volts)))
+	case v > LowVolts:
+		ev.highRails = append(ev.highRails, what)
+	default:
+		ev.lowRails = append(ev.lowRails, what)
+	}
+}
+
+// partEvidence looks at one part: valves, rectifiers, mains transformers.
+func partEvidence(ev *evidence, p *graph.Part, supply map[string]bool) {
+	onMains := false
+	for _, pin := range p.Pins {
+		onMains = onMains || ev.mainsNets[pin.Net]
+	}
+	switch p.Kind {
+	case graph.Valve:
+		ev.valves = append(ev.valves, p.Ref)
+		// A valve diode with its cathode on a supply rail charges the
+		// reservoir: a rectifier. One on a signal net is a detector.
+		if (p.Type == "diode" || p.Type == "double-diode") && supply[p.NetOf("k")] {
+			ev.rectifiers = append(ev.rectifiers, p.Ref)
+			if onMains {
+				ev.mainsRectifiers = append(ev.mainsRectifiers, p.Ref)
+			}
+		}
+	case graph.Diode:
+		if p.Type == "rectifier" {
+			ev.rectifiers = append(ev.rectifiers, p.Ref)
+			if onMains {
+				ev.mainsRectifiers = append(ev.mainsRectifiers, p.Ref)
+			}
+		}
+	case graph.Transformer:
+		if onMains {
+			ev.mainsTransformers = append(ev.mainsTransformers, p.Ref)
+		}
+	}
+}
+
+// seriesHeaters finds valves whose heaters are wired in series: in a
+// parallel heater supply every valve has the same pair of heater nets,
+// while in a chain two valves share exactly one heater net and each has
+// its other heater pin elsewhere. Sections of one envelope count once.
+func seriesHeaters(c *graph.Circuit) []string {
+	type heater struct {
+		who  string
+		nets [2]string
+	}
+	var hs []heater
+	seen := map[string]bool{}
+	for _, p := range c.Parts {
+		if p.Kind != graph.Valve {
+			continue
+		}
+		h1, h2 := p.NetOf("h1"), p.NetOf("h2")
+		if h1 == "" || h2 == "" || h1 == h2 {
+			continue // one heater pin ("h") or a shorted heater says nothing
+		}
+		who := p.Ref
+		if p.Envelope != "" {
+			who = p.Envelope
+		}
+		if seen[who] {
+			continue
+		}
+		seen[who] = true
+		hs = append(hs, heater{who, [2]string{h1, h2}})
+	}
+	var out []string
+	for i := range hs {
+		for j := i + 1; j < len(hs); j++ {
+			a, b := hs[i].nets, hs[j].nets
+			shared := 0
+			for _, x := range a {
+				if x == b[0] || x == b[1] {
+					shared++
+				}
+			}
+			if shared == 1 {
+				out = append(out, hs[i].who+"–"+hs[j].who)
+			}
+		}
+	}
+	return out
+}
+
+// mainsWord and mainsAC find a mains input in a name or label: the word
+// itself, or an AC voltage in the range of public supplies (100–250 V,
+// written "230 V~", "240 V AC", "120VAC"). A mains label that names a
+// transformer ("from the mains transformer") means the transformer is
+// there, cut away from the sheet. acdcWord finds a set called AC/DC or
+// universal outright.
+var (
+	mainsWord           = regexp.MustCompile(`(?i)(^|[^a-z])mains([^a-z]|$)`)
+	mainsAC             = regexp.MustCompile(`(?i)\b(\d{3})\s*v\s*(~|ac\b|a\.c\.)`)
+	offSheetTransformer = regexp.MustCompile(`(?i)transformer`)
+	acdcWord            = regexp.MustCompile(`(?i)\bac\s*[/-]\s*dc\b|\buniversal\b`)
+)
+
+func saysMains(s string) bool {
+	if s == "" {
+		return false
+	}
+	if mainsWord.MatchString(s) {
+		return true
+	}
+	for _, m := range mainsAC.FindAllStringSubmatch(s, -1) {
+		var v int
+		fmt.Sscan(m[1], &v)
+		if v >= 100 && v <= 250 {
+			return true
+		}
+	}
+	return false
+}
+
+func saysACDC(s string) bool { return s != "" && acdcWord.MatchString(s) }
+
+func quote(s string) string { return "“" + strings.TrimSpace(s) + "”" }
+
+// volts prints a rail voltage without trailing zeros: 250, 90.5, -12.
+func volts(v float64) string { return fmt.Sprintf("%g", v) }

@@ -1,0 +1,190 @@
+package safety
+
+import (
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"pare/graph"
+)
+
+// repo is the repository root, where examples/ and testdata/ live.
+const repo = "../.."
+
+// inline netlists for the classes no file covers; each is the smallest
+// circuit that carries the evidence.
+const (
+	// A passive band-pass with no rail declared: nothing says what
+	// powers the set.
+	passiveNet = `band = "1k..10k"
+inputs = ["in"]
+outputs = ["out"]
+[parts]
+C1 = { c = "10n", pins = ["in", "out"] }
+R1 = { r = "10k", pins = ["out", "gnd"] }
+`
+	// A transistor stage on a 90 V rail: no valve, no mains, but above the
+	// extra-low-voltage band.
+	highRailNet = `band = "1k..10k"
+inputs = ["in"]
+outputs = ["out"]
+[nets]
+vcc = { role = "supply", volts = 90 }
+[parts]
+C1 = { c = "10n", pins = ["in", "b"] }
+Q1 = { bjt = "npn", pins = { b = "b", c = "out", e = "gnd" } }
+R1 = { r = "10k", pins = ["vcc", "out"] }
+R2 = { r = "1M", pins = ["vcc", "b"] }
+`
+	// Two valves with their heaters in series and nothing else: the chain
+	// alone says the set is fed from the mains without a transformer.
+	chainNet = `band = "1k..10k"
+inputs = ["in"]
+outputs = ["out"]
+[parts]
+C1 = { c = "10n", pins = ["in", "g"] }
+R1 = { r = "1M", pins = ["g", "gnd"] }
+V1 = { valve = "triode", pins = { a = "out", g1 = "g", k = "gnd", h1 = "h0", h2 = "h1" } }
+V2 = { valve = "triode", pins = { a = "out", g1 = "g", k = "gnd", h1 = "h1", h2 = "gnd" } }
+`
+	// The same two valves with their heaters in parallel on one winding:
+	// a valve set, not an AC/DC one.
+	parallelNet = `band = "1k..10k"
+inputs = ["in"]
+outputs = ["out"]
+[parts]
+C1 = { c = "10n", pins = ["in", "g"] }
+R1 = { r = "1M", pins = ["g", "gnd"] }
+V1 = { valve = "triode", pins = { a = "out", g1 = "g", k = "gnd", h1 = "hx", h2 = "hy" } }
+V2 = { valve = "triode", pins = { a = "out", g1 = "g", k = "gnd", h1 = "hx", h2 = "hy" } }
+`
+	// A mains port whose label names the transformer beyond the sheet's
+	// cut: mains, but not live-chassis.
+	offSheetNet = `band = "1k..10k"
+inputs = ["in"]
+outputs = ["out"]
+[nets]
+vcc = { role = "supply", volts = 12 }
+[parts]
+P1 = { port = "6 V from the mains transformer", pins = ["hx"] }
+C1 = { c = "10n", pins = ["in", "out"] }
+R1 = { r = "10k", pins = ["vcc", "out"] }
+R2 = { r = "10k", pins = ["hx", "gnd"] }
+`
+)
+
+// TestAssess: the class of every example and fixture, and of the inline
+// circuits above, with the piece of evidence that decided it. The classes
+// follow the trade's usual split (common practice): valves or anything on
+// the mains is lethal; no mains transformer means a possibly live chassis;
+// a set whose rails all sit in the extra-low-voltage band (IEC 60449 band
+// I, 50 V) is a battery set.
+func TestAssess(t *testing.T) {
+	for _, tc := range []struct {
+		name, file, text string
+		want             Class
+		because          string // a piece of the evidence
+	}{
+		{name: "valve frequency changer", file: "examples/frequency-changer.toml", want: MainsHT, because: "valves V1"},
+		{name: "valve IF strip", file: "examples/if-detector-audio.toml", want: MainsHT, because: "rails above 50 V: ht 250 V"},
+		{name: "9 V transistor portable", file: "examples/transistor-front-end.toml", want: Battery, because: "vcc 9 V"},
+		{name: "AC/DC output stage", file: "testdata/safety/acdc-output.toml", want: LiveChassis, because: "series heaters: V1–V2"},
+		{name: "AC/DC rectifier on the mains", file: "testdata/safety/acdc-output.toml", want: LiveChassis, because: "rectifier on the mains: V2"},
+		{name: "mains transistor amplifier", file: "testdata/safety/mains-transistor.toml", want: MainsHT, because: "mains transformer T1"},
+		{name: "kitchen-sink fixture", file: "testdata/good/every-kind.toml", want: MainsHT, because: "valves V1a"},
+		{name: "no rail declared", text: passiveNet, want: Unknown},
+		{name: "transistor on 90 V", text: highRailNet, want: MainsHT, because: "vcc 90 V"},
+		{name: "series heaters alone", text: chainNet, want: LiveChassis, because: "series heaters: V1–V2"},
+		{name: "heater chain declared", text: strings.Replace(parallelNet, "[parts]", "[nets]\nhx = { role = \"heater\", volts = 120 }\n[parts]", 1),
+			want: LiveChassis, because: "heater net hx at 120 V"},
+		{name: "parallel heaters", text: parallelNet, want: MainsHT, because: "valves V1, V2"},
+		{name: "transformer off the sheet", text: offSheetNet, want: MainsHT, because: "mains transformer off the sheet (P1)"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			var c *graph.Circuit
+			var err error
+			if tc.file != "" {
+				c, err = graph.LoadFile(filepath.Join(repo, tc.file))
+			} else {
+				c, err = graph.Parse(tc.name+".toml", []byte(tc.text))
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			a := Assess(c)
+			if a.Class != tc.want {
+				t.Fatalf("class %s, want %s (evidence %q)", a.Class, tc.want, a.Evidence)
+			}
+			if tc.because != "" && !strings.Contains(strings.Join(a.Evidence, "; "), tc.because) {
+				t.Errorf("evidence %q lacks %q", a.Evidence, tc.because)
+			}
+			if tc.want == Unknown && len(a.Evidence) != 0 {
+				t.Errorf("unknown class with evidence %q", a.Evidence)
+			}
+		})
+	}
+}
+
+// TestMainsWords: which labels bring the mains in. A public supply is
+// 100–250 V AC (common practice); a 6.3 V heater winding is not the mains.
+func TestMainsWords(t *testing.T) {
+	for _, tc := range []struct {
+		s    string
+		want bool
+	}{
+		{"230 V~ mains, live", true},
+		{"mains_l", true},
+		{"240 V AC in", true},
+		{"120VAC", true},
+		{"6.3 V~", false},
+		{"HT +250 V from power supply", false}, // DC, not an AC supply
+		{"remains of the chassis", false},      // a word that only contains "mains"
+		{"", false},
+	} {
+		if got := saysMains(tc.s); got != tc.want {
+			t.Errorf("saysMains(%q) = %v, want %v", tc.s, got, tc.want)
+		}
+	}
+}
+
+// TestCautionTexts: every class's caution defers to local codes and
+// licensed practice, says the reduced diagram is small-signal only where a
+// reduced or modelled output goes with it, and the battery caution names
+// the rail it read.
+func TestCautionTexts(t *testing.T) {
+	for _, a := range []Assessment{
+		{Class: Unknown}, {Class: Battery, MaxVolts: 9}, {Class: MainsHT, MaxVolts: 250}, {Class: LiveChassis},
+	} {
+		c := a.Caution()
+		all := []string{c.Heading, strings.Join(c.Lines, " "), c.Sheet(false), c.Sheet(true)}
+		for o := ReduceLog; o <= SweepModel; o++ {
+			all = append(all, c.Report(o))
+		}
+		for i, s := range all {
+			if i > 0 && !strings.Contains(s, "local") || i > 0 && !strings.Contains(s, "licensed practice") {
+				t.Errorf("%s: text %d does not defer to local codes and licensed practice: %q", a.Class, i, s)
+			}
+			if strings.Contains(s, "{volts}") {
+				t.Errorf("%s: placeholder left in %q", a.Class, s)
+			}
+		}
+		if !strings.Contains(c.Lines[len(c.Lines)-1], "small-signal only") || !strings.Contains(c.Sheet(true), "Small-signal only") ||
+			strings.Contains(c.Sheet(false), "Small-signal") {
+			t.Errorf("%s: the small-signal warning is missing or on a full sheet", a.Class)
+		}
+		for o := ReduceLog; o <= SweepModel; o++ {
+			if !strings.Contains(strings.ToLower(c.Report(o)), "small-signal") {
+				t.Errorf("%s: report %d does not say small-signal", a.Class, o)
+			}
+		}
+		if a.Class != Battery && !strings.Contains(c.Sheet(false), "isolation transformer") {
+			t.Errorf("%s: a set that may be on the mains needs the isolation transformer on its sheet", a.Class)
+		}
+	}
+	if s := (Assessment{Class: Battery, MaxVolts: 9}).Caution().Sheet(false); !strings.Contains(s, "battery set (9 V)") {
+		t.Errorf("battery sheet caution does not name the rail: %q", s)
+	}
+	if b := (Assessment{Class: Unknown}).Caution().Basis(); !strings.Contains(b, "cannot tell") {
+		t.Errorf("unknown basis %q", b)
+	}
+}

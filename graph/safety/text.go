@@ -1,0 +1,155 @@
+package safety
+
+import (
+	"fmt"
+	"strings"
+
+	"pare/graph"
+)
+
+// The caution texts, in our own words (common practice; the project's
+// reference values §9). Every one defers to local codes and licensed
+// practice, and every one that goes with reduced or modelled output says
+// the output is small-signal only.
+
+// Caution is the safety text for one circuit, in the forms pare prints it.
+type Caution struct {
+	Assessment
+	// Heading and Lines are the repair note's caution block: a bold first
+	// line, then one item per line. The last line is about the reduced
+	// diagram itself.
+	Heading string
+	Lines   []string
+	// sheet is the one line a sheet carries; sentence the safety sentence
+	// under a text report.
+	sheet, sentence string
+}
+
+// For is the caution for a circuit: Assess, then the texts of its class.
+// Pass the original circuit, not a reduced one (see the package comment).
+func For(c *graph.Circuit) Caution { return Assess(c).Caution() }
+
+// Caution gives the texts for the assessed class.
+func (a Assessment) Caution() Caution {
+	t := texts[Unknown]
+	if a.Class >= 0 && int(a.Class) < len(texts) {
+		t = texts[a.Class]
+	}
+	lines := make([]string, 0, len(t.lines)+2)
+	for _, l := range t.lines {
+		lines = append(lines, strings.ReplaceAll(l, "{volts}", volts(a.MaxVolts)))
+	}
+	lines = append(lines, codesLine, smallSignalLine)
+	return Caution{
+		Assessment: a, Heading: t.heading, Lines: lines,
+		sheet:    strings.ReplaceAll(t.sheet, "{volts}", volts(a.MaxVolts)),
+		sentence: t.sentence,
+	}
+}
+
+// Basis says what the choice was made from, for the note: "Chosen from the
+// netlist: valves V1, V2; rails above 50 V: ht 250 V."
+func (c Caution) Basis() string {
+	if len(c.Evidence) == 0 {
+		return "Chosen because the netlist shows no valves, no mains parts and no rail voltage: pare cannot tell what powers the set."
+	}
+	return "Chosen from the netlist: " + strings.Join(c.Evidence, "; ") + "."
+}
+
+// Sheet is the caution line of a sheet; a sheet of the reduced circuit
+// also says it is small-signal only.
+func (c Caution) Sheet(reduced bool) string {
+	if reduced {
+		return c.sheet + " " + smallSignalSheet
+	}
+	return c.sheet
+}
+
+// Output is a kind of text report a caution goes under.
+type Output int
+
+// Outputs: what the report is, said before the safety sentence.
+const (
+	ReduceLog    Output = iota // pare reduce: the reduced circuit and its log
+	Comparison                 // pare verify: the AC comparison
+	StageFigures               // pare stages: stage figures
+	SweepModel                 // pare sweep: a response of the model
+)
+
+var outputPrefix = [...]string{
+	ReduceLog:    "Small-signal equivalent only: not a wiring diagram, no DC voltages.",
+	Comparison:   "Small-signal comparison only: no DC conditions.",
+	StageFigures: "Figures are small-signal values from the reduced circuit, not DC voltages.",
+	SweepModel:   "Small-signal model only: no DC conditions, no overload.",
+}
+
+// Report is the caution printed under a text report (and in its JSON).
+func (c Caution) Report(o Output) string {
+	if int(o) < 0 || int(o) >= len(outputPrefix) {
+		panic(fmt.Sprintf("safety: no output %d", int(o))) // programming error, never user input
+	}
+	return outputPrefix[o] + " " + c.sentence
+}
+
+const (
+	codesLine       = "Follow your local electrical codes and licensed practice; this note does not replace them."
+	smallSignalLine = "The reduced diagram is small-signal only: it leaves out DC conditions, heaters and supplies. Do not take voltages or safety decisions from it."
+	// smallSignalSheet goes on every sheet of a reduced circuit.
+	smallSignalSheet = "Small-signal only: bias, supply and heater paths are not shown."
+)
+
+// Lines shared by the classes that may carry mains or HT.
+const (
+	htLine        = "The HT in a valve set is typically 200–400 V DC, more in transmitters: treat it as lethal. Work one-handed, never when wet or standing on a conductive floor."
+	reservoirLine = "Reservoir and filter capacitors stay charged long after switch-off. Discharge them through a resistor and confirm with a meter before you touch anything."
+	acdcLine      = "AC/DC (live-chassis) sets can put mains on the chassis. Power them through an isolation transformer, and never clip an earthed scope ground to an unisolated chassis."
+	slowLine      = "Bring an old set up slowly (variac or a series lamp), and replace suspect mains-side capacitors and perished wiring first."
+)
+
+// classText is what one class says; {volts} stands for the highest
+// declared rail.
+type classText struct {
+	heading  string
+	lines    []string // before the codes and small-signal lines
+	sheet    string
+	sentence string
+}
+
+var texts = [...]classText{
+	MainsHT: {
+		heading:  "Caution: mains-powered and valve equipment can kill.",
+		lines:    []string{htLine, reservoirLine, acdcLine, slowLine},
+		sheet:    "Caution: mains and valve HT can kill; capacitors stay charged and the chassis may be live. Use an isolation transformer and follow local codes and licensed practice.",
+		sentence: "Mains and valve sets carry lethal voltages and may have a live chassis; capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice.",
+	},
+	LiveChassis: {
+		heading: "Caution: this is an AC/DC set: its chassis can be live at mains potential, and its HT can kill.",
+		lines: []string{
+			"An AC/DC set has no mains transformer: depending on which way round it is plugged in, the chassis, the control spindles and any screw in reach can be at mains potential. Power it only through an isolation transformer, and never clip an earthed scope ground to its chassis.",
+			"Its HT is rectified straight from the mains: treat it as lethal. Work one-handed, never when wet or standing on a conductive floor.",
+			"The heater chain sits across the mains as well, and its dropper resistor or line cord runs hot.",
+			reservoirLine, slowLine,
+		},
+		sheet:    "Caution: AC/DC set: the chassis can be live at mains potential and the HT can kill. Work only through an isolation transformer and follow local codes and licensed practice.",
+		sentence: "This AC/DC set can have its chassis at mains potential and carries lethal HT; capacitors stay charged after switch-off. Work only through an isolation transformer and follow local codes and licensed practice.",
+	},
+	Battery: {
+		heading: "Caution: a battery set is low voltage, but not free of hazards.",
+		lines: []string{
+			"This set runs from {volts} V, low voltage on its own. A mains adaptor, charger or bench supply feeding it can be faulty: check it before connecting, and prefer a bench supply with a current limit.",
+			"A battery or a large electrolytic shorted by a probe or a solder bridge can deliver a large current and burn: take the battery out before you solder.",
+			"Leaking cells are corrosive: clean the contacts and keep the electrolyte off your skin.",
+		},
+		sheet:    "Caution: battery set ({volts} V): low voltage, but check any mains adaptor or bench supply before connecting and never short the battery. Follow local codes and licensed practice.",
+		sentence: "A battery set is low voltage, but a mains adaptor or bench supply can be faulty and a shorted battery can burn: check the supply before connecting and follow local codes and licensed practice.",
+	},
+	Unknown: {
+		heading: "Caution: the netlist does not show what powers this set; treat it as mains-powered equipment, which can kill.",
+		lines: []string{
+			"Find out what powers the set before you work on it. Until then assume mains and HT: " + strings.ToLower(htLine[:1]) + htLine[1:],
+			reservoirLine, acdcLine, slowLine,
+		},
+		sheet:    "Caution: what powers this set is not shown; treat it as mains and valve HT until checked. Use an isolation transformer and follow local codes and licensed practice.",
+		sentence: "The netlist does not show what powers the set: until checked, treat it as mains and valve HT, with lethal voltages, a possibly live chassis and capacitors charged after switch-off. Use an isolation transformer and follow local codes and licensed practice.",
+	},
+}
