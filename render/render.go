@@ -19,6 +19,7 @@ import (
 	svg "github.com/ajstarks/svgo/float"
 
 	"pare/graph"
+	"pare/graph/safety"
 	"pare/graph/value"
 	"pare/render/geom"
 	"pare/render/layout"
@@ -99,6 +100,10 @@ type Sheet struct {
 	Faded   map[string]bool   // refs drawn faded (removed by the reduction)
 	Merged  map[string]string // original ref -> ref of the reduced part it went into
 	Frames  []Frame
+	// Caution is the safety line printed under the drawing, as given
+	// (graph/safety words it for the set and the view). Empty: the
+	// circuit's own caution from graph/safety, so no sheet goes out
+	// without one.
 	Caution string
 	// Furniture holds lines for the sheet's info block: IF, tuning range, level.
 	Furniture []string
@@ -109,12 +114,6 @@ type Config struct {
 	Style Style
 	Grid  float64 // SVG units per grid step; 0 means 10
 }
-
-// DefaultCaution is printed when a sheet has no caution of its own.
-const DefaultCaution = "Caution: valve and mains sets carry lethal voltages; capacitors stay charged and the chassis may be live. Work from an isolation transformer and follow local codes and licensed practice."
-
-// smallSignal is added to every reduced view.
-const smallSignal = "Small-signal only: bias, supply and heater paths are not shown."
 
 // Geometry lays the sheet out and returns the geometry that Fprint draws.
 func (cfg Config) Geometry(s *Sheet) (*geom.Sheet, error) {
@@ -207,14 +206,10 @@ func attr(s string) string {
 }
 
 func (d *drawer) caution() string {
-	c := d.sheet.Caution
-	if c == "" {
-		c = DefaultCaution
+	if d.sheet.Caution != "" {
+		return d.sheet.Caution
 	}
-	if d.sheet.View == Reduced && !strings.Contains(strings.ToLower(c), "small-signal") {
-		c += " " + smallSignal
-	}
-	return c
+	return safety.For(d.sheet.Circuit).Sheet(d.sheet.View == Reduced)
 }
 
 func (d *drawer) infoLines() []string {

@@ -257,8 +257,16 @@ func TestParseViewAndStyle(t *testing.T) {
 }
 
 // TestReducedCaution: a reduced view says it is small-signal only, every
-// view carries the safety caution (common practice for repair notes).
+// view carries the safety caution (common practice for repair notes); a
+// sheet without a caution of its own gets its circuit's from graph/safety,
+// and a given caution is printed as given.
 func TestReducedCaution(t *testing.T) {
+	given := "Caution: a line the caller worded."
+	var own bytes.Buffer
+	Config{}.Fprint(&own, &Sheet{Circuit: load(t, "testdata/all-symbols.toml"), View: Reduced, Caution: given})
+	if !strings.Contains(own.String(), given+"</text>") {
+		t.Errorf("the given caution is not printed as given")
+	}
 	c := load(t, "testdata/all-symbols.toml")
 	for _, v := range []View{Reduced, Full} {
 		var buf bytes.Buffer
