@@ -4,6 +4,7 @@ import (
 	"flag"
 	"fmt"
 
+	"pare/cmd/internal/pipeline"
 	"pare/graph"
 )
 
@@ -19,30 +20,26 @@ looks for the mistakes people make copying a paper diagram: a net with one
 connection, an unconnected terminal, a cathode/emitter/source going nowhere,
 a value far outside its kind's usual range, a gang with one member, a port
 that no part uses. Prints one summary line per file.`,
-		flags: func(fs *flag.FlagSet) any {
-			o := &checkOpts{}
+		bind: typed(func(fs *flag.FlagSet, o *checkOpts) {
 			fs.BoolVar(&o.strict, "strict", false, "exit 1 when there are warnings")
 			fs.BoolVar(&o.quiet, "quiet", false, "print the summary lines only")
-			return o
-		},
-		run: runCheck,
+		}, runCheck),
 	})
 }
 
-func runCheck(e *env, opts any, args []string) int {
-	o := opts.(*checkOpts)
+func runCheck(e *env, o *checkOpts, args []string) int {
 	if len(args) == 0 {
 		fmt.Fprintln(e.stderr, "pare check: no files given")
 		return exitBad
 	}
 	code := exitOK
 	for _, path := range args {
-		c, ok := loadCircuit(e, path)
-		if !ok {
+		res, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseCheck})
+		if loadFailed(e, path, err) {
 			code = exitBad
 			continue
 		}
-		warnings := graph.Check(c)
+		c, warnings := res.Circuit, res.Warnings
 		if !o.quiet {
 			for _, w := range warnings {
 				fmt.Fprintf(e.stdout, "%s: warning: %s\n", w.Pos, w.Msg)

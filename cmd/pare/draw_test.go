@@ -12,6 +12,7 @@ import (
 	"strings"
 	"testing"
 
+	"pare/cmd/internal/pipeline"
 	"pare/graph"
 	"pare/internal/golden"
 	"pare/internal/reftool"
@@ -39,17 +40,10 @@ func exampleFiles(t testing.TB) []string {
 // wires.
 func TestDrawExamplesCheck(t *testing.T) {
 	for _, f := range exampleFiles(t) {
-		c, err := loadForTest(f)
-		if err != nil {
-			t.Fatal(err)
-		}
+		res := sheetsOf(t, pipeline.Options{Path: f, Level: rules.LevelSignal})
 		for _, v := range drawViews {
 			for _, st := range []render.Style{render.IEC, render.IEEE} {
-				s, err := drawSheet(c, f, v, rules.Options{Level: rules.LevelSignal})
-				if err != nil {
-					t.Fatalf("%s %s: %v", f, v, err)
-				}
-				g, err := render.Config{Style: st}.Geometry(s)
+				g, err := render.Config{Style: st}.Geometry(res.Sheet(v))
 				if err != nil {
 					t.Fatalf("%s %s: %v", f, v, err)
 				}
@@ -78,15 +72,8 @@ func TestDrawExamplesCheck(t *testing.T) {
 // TestDrawFocus: a sheet of a --focus reduction (the oscillator valve and
 // what surrounds it) is as clean as a whole one.
 func TestDrawFocus(t *testing.T) {
-	c, err := loadGraph("../../examples/frequency-changer.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	s, err := drawSheet(c, "frequency-changer.toml", render.Reduced, rules.Options{Level: rules.LevelSignal, Focus: []string{"V1"}})
-	if err != nil {
-		t.Fatal(err)
-	}
-	g, err := render.Config{}.Geometry(s)
+	res := sheetsOf(t, pipeline.Options{Path: "../../examples/frequency-changer.toml", Level: rules.LevelSignal, Focus: []string{"V1"}})
+	g, err := render.Config{}.Geometry(res.Sheet(render.Reduced))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -104,7 +91,16 @@ func TestDrawFocus(t *testing.T) {
 	}
 }
 
-func loadForTest(path string) (*graphCircuit, error) { return loadGraph(path) }
+// sheetsOf runs the pipeline up to the stages, ready for any sheet.
+func sheetsOf(t *testing.T, o pipeline.Options) *pipeline.Result {
+	t.Helper()
+	o.Until = pipeline.PhaseStages
+	res, err := pipeline.Run(o)
+	if err != nil {
+		t.Fatalf("%s: %v", o.Path, err)
+	}
+	return res
+}
 
 // sheetName is where the committed sheet of an example and view lives.
 func sheetName(toml string, v render.View) string {
@@ -194,10 +190,6 @@ func TestDrawBadInput(t *testing.T) {
 	}
 }
 
-type graphCircuit = graph.Circuit
-
-func loadGraph(path string) (*graph.Circuit, error) { return graph.LoadFile(path) }
-
 // chainNetlist writes a netlist of n/6 RC-coupled triode stages (coupling
 // C, grid leak, valve, cathode R and bypass, anode load to HT), a long strip
 // for the drawing benchmarks.
@@ -255,20 +247,9 @@ func BenchmarkDraw2000(b *testing.B) {
 // by the marker of a part merged into it.
 func TestFadedViewFindsEveryReducedPart(t *testing.T) {
 	for _, f := range exampleFiles(t) {
-		c, err := loadGraph(f)
-		if err != nil {
-			t.Fatal(err)
-		}
-		ro := rules.Options{Level: rules.LevelSignal}
-		reduced, _, err := rules.Reduce(c, ro)
-		if err != nil {
-			t.Fatal(err)
-		}
-		s, err := drawSheet(c, f, render.Faded, ro)
-		if err != nil {
-			t.Fatal(err)
-		}
-		g, err := render.Config{}.Geometry(s)
+		res := sheetsOf(t, pipeline.Options{Path: f, Level: rules.LevelSignal})
+		reduced := res.Reduced
+		g, err := render.Config{}.Geometry(res.Sheet(render.Faded))
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -312,7 +293,7 @@ C2 = { c = "12p..365p", pins = ["tank", "gnd"] }
 	if err != nil {
 		t.Fatal(err)
 	}
-	lines := sheetFurniture(c, nil, rules.LevelSignal)
+	lines := pipeline.Furniture(c, nil, rules.LevelSignal)
 	want := "Switch S1 at position 2 of 2"
 	for _, l := range lines {
 		if l == want {

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"os"
 
+	"pare/cmd/internal/pipeline"
 	"pare/graph"
 )
 
@@ -24,27 +25,24 @@ func init() {
 the IEC 60062 letter code. Comments above entries and after them are kept.
 With --check nothing is written; the exit code is 1 when FILE is not in
 canonical form.`,
-		flags: func(fs *flag.FlagSet) any {
-			o := &fmtOpts{}
+		bind: typed(func(fs *flag.FlagSet, o *fmtOpts) {
 			fs.BoolVar(&o.check, "check", false, "only report whether the file is canonical")
 			fs.StringVar(&o.out, "o", "", "write to this file instead (- for stdout)")
-			return o
-		},
-		run: runFmt,
+		}, runFmt),
 	})
 }
 
-func runFmt(e *env, opts any, args []string) int {
-	o := opts.(*fmtOpts)
+func runFmt(e *env, o *fmtOpts, args []string) int {
 	if len(args) != 1 {
 		fmt.Fprintln(e.stderr, "pare fmt: give exactly one file")
 		return exitBad
 	}
 	path := args[0]
-	c, ok := loadCircuit(e, path)
-	if !ok {
+	res, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseLoad})
+	if loadFailed(e, path, err) {
 		return exitBad
 	}
+	c := res.Circuit
 	var buf bytes.Buffer
 	if err := graph.Write(&buf, c); err != nil {
 		fmt.Fprintf(e.stderr, "pare fmt: %v\n", err)

@@ -39,8 +39,22 @@ type command struct {
 	args    string // argument synopsis for help
 	summary string // one line
 	detail  string // paragraph for `pare help NAME`
-	flags   func(fs *flag.FlagSet) any
-	run     func(env *env, opts any, args []string) int
+	// bind defines the command's flags on fs and returns the command bound
+	// to the options they fill (see typed).
+	bind func(fs *flag.FlagSet) func(e *env, args []string) int
+}
+
+// typed binds a command's own options type: flags defines the flags on a
+// fresh options value, run gets that value once they are parsed. Each
+// command keeps its options typed from the flag to the run.
+func typed[O any](flags func(fs *flag.FlagSet, o *O), run func(e *env, o *O, args []string) int) func(*flag.FlagSet) func(*env, []string) int {
+	return func(fs *flag.FlagSet) func(*env, []string) int {
+		o := new(O)
+		if flags != nil {
+			flags(fs, o)
+		}
+		return func(e *env, args []string) int { return run(e, o, args) }
+	}
 }
 
 var commands = map[string]*command{}
@@ -104,10 +118,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 	}
 	fs := flag.NewFlagSet("pare "+c.name, flag.ContinueOnError)
 	fs.SetOutput(io.Discard)
-	var opts any
-	if c.flags != nil {
-		opts = c.flags(fs)
-	}
+	runBound := c.bind(fs)
 	pos, err := parseInterleaved(fs, rest)
 	if errors.Is(err, flag.ErrHelp) {
 		commandHelp(stdout, c)
@@ -118,7 +129,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "usage: pare %s %s (see 'pare help %s')\n", c.name, c.args, c.name)
 		return exitBad
 	}
-	return c.run(e, opts, pos)
+	return runBound(e, pos)
 }
 
 // mainJob is the name the whole-job command registers under; `pare FILE`
@@ -173,9 +184,7 @@ func commandHelp(w io.Writer, c *command) {
 		fmt.Fprintf(w, "\n%s\n", strings.TrimSpace(c.detail))
 	}
 	fs := flag.NewFlagSet(c.name, flag.ContinueOnError)
-	if c.flags != nil {
-		c.flags(fs)
-	}
+	c.bind(fs)
 	has := false
 	fs.VisitAll(func(*flag.Flag) { has = true })
 	if has {

@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"pare/cmd/internal/pipeline"
 	"pare/graph"
 )
 
@@ -65,20 +66,21 @@ func writeOutput(e *env, path string, fn func(w io.Writer) error) error {
 	return writeFileAtomic(path, buf.Bytes())
 }
 
-// loadCircuit loads a netlist and prints every problem on stderr as
-// file:line:col: message. ok is false when the file cannot be used.
-func loadCircuit(e *env, path string) (*graph.Circuit, bool) {
-	c, err := graph.LoadFile(path)
-	if err != nil {
-		var list graph.ErrorList
-		if errors.As(err, &list) {
-			printErrors(e, "pare", path, err)
-		} else {
-			fmt.Fprintf(e.stderr, "pare: %v\n", err) // the OS error names the file
-		}
-		return nil, false
+// loadFailed prints a failure to load the netlist, every problem on
+// stderr as file:line:col: message, and reports whether err was one. Other
+// pipeline failures are left to the command to word.
+func loadFailed(e *env, path string, err error) bool {
+	var pe *pipeline.Error
+	if !errors.As(err, &pe) || pe.Phase != pipeline.PhaseLoad {
+		return false
 	}
-	return c, true
+	var list graph.ErrorList
+	if errors.As(err, &list) {
+		printErrors(e, "pare", path, err)
+	} else {
+		fmt.Fprintf(e.stderr, "pare: %v\n", err) // the OS error names the file
+	}
+	return true
 }
 
 // printErrors prints a positioned error list one problem a line, or a

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"encoding/json"
 	"flag"
 	"fmt"
@@ -9,8 +8,8 @@ import (
 	"sort"
 	"strings"
 
-	"pare/graph"
-	"pare/graph/ac"
+	"pare/cmd/internal/pipeline"
+	"pare/graph/safety"
 	"pare/rules"
 )
 
@@ -47,17 +46,14 @@ changed. The reduced circuit is a small-signal equivalent only: it is not a
 wiring diagram and says nothing about DC voltages.
 
 ` + ruleTableHelp(),
-		flags: func(fs *flag.FlagSet) any {
-			o := &reduceOpts{}
+		bind: typed(func(fs *flag.FlagSet, o *reduceOpts) {
 			fs.StringVar(&o.out, "o", "", "write the reduced netlist to this file")
 			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
 			fs.StringVar(&o.focus, "focus", "", "comma-separated refs or net names: reduce only the stage(s) around them")
 			fs.Float64Var(&o.ratio, "ratio", rules.DefaultRatio, "bypass ratio: |Xc| ≤ ratio·|Z| makes a bypass")
 			fs.BoolVar(&o.json, "json", false, "print the log and the reduced netlist as JSON")
 			fs.BoolVar(&o.check, "check", false, "verify each step by AC analysis and refuse steps that change the signal")
-			return o
-		},
-		run: runReduce,
+		}, runReduce),
 	})
 }
 
@@ -73,13 +69,7 @@ func ruleTableHelp() string {
 	return b.String()
 }
 
-// reduceCaution goes with every printed reduction: it is read next to a
-// valve set on the bench.
-const reduceCaution = "Small-signal equivalent only: not a wiring diagram, no DC voltages. Valve sets carry lethal HT and may have a live chassis; " +
-	"capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
-
-func runReduce(e *env, opts any, args []string) int {
-	o := opts.(*reduceOpts)
+func runReduce(e *env, o *reduceOpts, args []string) int {
 	if len(args) != 1 {
 		fmt.Fprintln(e.stderr, "pare reduce: give exactly one netlist file")
 		fmt.Fprintln(e.stderr, "usage: pare reduce FILE [-o OUT.toml] [--level tidy|signal|ideal] [--focus REF,...] [--ratio 0.1] [--json] [--check]")
@@ -95,85 +85,53 @@ func runReduce(e *env, opts any, args []string) int {
 		return exitBad
 	}
 	path := args[0]
-	c, ok := loadCircuit(e, path)
-	if !ok {
-		return exitBad
-	}
-	ro := rules.Options{Level: lvl, BypassRatio: o.ratio}
+	po := pipeline.Options{Path: path, Until: pipeline.PhaseReduce, Level: lvl, BypassRatio: o.ratio}
 	if o.focus != "" {
-		ro.Focus = splitRefs(o.focus)
-		if len(ro.Focus) == 0 {
+		if po.Focus = splitRefs(o.focus); len(po.Focus) == 0 {
+			// Said before the netlist is read, as it always was: a flag
+			// that names nothing is a usage error whatever the file holds.
+			if _, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseLoad}); loadFailed(e, path, err) {
+				return exitBad
+			}
 			fmt.Fprintln(e.stderr, "pare reduce: --focus names nothing")
 			return exitBad
 		}
 	}
 	if o.check {
-		cmp := ac.CompareOptions{}
-		ro.Check = func(before, after *graph.Circuit, _ *rules.Step) error { return cmp.Check(before, after) }
+		po.StepCheck = pipeline.AgainstPrevious
 	}
-	reduced, log, err := rules.Reduce(c, ro)
+	res, err := pipeline.Run(po)
+	if loadFailed(e, path, err) {
+		return exitBad
+	}
 	if err != nil {
 		printErrors(e, "pare reduce", path, err)
 		return exitBad
 	}
-	var netlist bytes.Buffer
-	if err := graph.Write(&netlist, annotated(reduced, lvl)); err != nil {
-		fmt.Fprintf(e.stderr, "pare reduce: writing the reduced netlist: %v\n", err)
-		return exitBad
-	}
-	// A reduced netlist that does not load back is pare's bug; say so rather
-	// than write a file the user cannot use.
-	if _, err := graph.Parse("reduced.toml", netlist.Bytes()); err != nil {
-		fmt.Fprintf(e.stderr, "pare reduce: internal error, please report: the reduced netlist does not load back: %v\n", err)
+	netlist, err := res.ReducedNetlist()
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare reduce: %v\n", err)
 		return exitBad
 	}
 	if o.out != "" {
-		if err := writeFileAtomic(o.out, netlist.Bytes()); err != nil {
+		if err := writeFileAtomic(o.out, netlist); err != nil {
 			fmt.Fprintf(e.stderr, "pare reduce: writing %s: %v\n", o.out, err)
 			return exitBad
 		}
 	}
+	caution := res.Caution.Report(safety.ReduceLog)
 	if o.json {
-		if err := writeReduceJSON(e.stdout, log, netlist.String()); err != nil {
+		if err := writeReduceJSON(e.stdout, res.Log, string(netlist), caution); err != nil {
 			fmt.Fprintf(e.stderr, "pare reduce: %v\n", err)
 			return exitBad
 		}
 		return exitOK
 	}
-	printReduceLog(e.stdout, path, log, o.out)
+	printReduceLog(e.stdout, path, res.Log, o.out, caution)
 	return exitOK
 }
 
-// annotated marks the reduced netlist as such at its top, so nobody mistakes
-// it for the set's wiring.
-func annotated(c *graph.Circuit, lvl rules.Level) *graph.Circuit {
-	d := c.Clone()
-	if d.Comments == nil {
-		d.Comments = map[string]graph.Comment{}
-	}
-	first := "title"
-	if d.Title == "" {
-		first = "parts"
-		if d.Note != "" {
-			first = "note"
-		} else if d.Band.Max > 0 {
-			first = "band"
-		}
-	}
-	cm := d.Comments[first]
-	marker := " Reduced by pare (level " + lvl.String() + "): small-signal equivalent only, not a wiring diagram."
-	var above []string
-	for _, a := range cm.Above {
-		if !strings.HasPrefix(a, " Reduced by pare (") {
-			above = append(above, a)
-		}
-	}
-	cm.Above = append([]string{marker}, above...)
-	d.Comments[first] = cm
-	return d
-}
-
-func printReduceLog(w io.Writer, path string, log *rules.Log, out string) {
+func printReduceLog(w io.Writer, path string, log *rules.Log, out, caution string) {
 	fmt.Fprintf(w, "%s: reduction at level %s\n", path, log.Level)
 	for _, s := range log.Steps {
 		fmt.Fprintln(w, s.String())
@@ -212,7 +170,7 @@ func printReduceLog(w io.Writer, path string, log *rules.Log, out string) {
 	if out != "" {
 		fmt.Fprintf(w, "reduced netlist written to %s\n", out)
 	}
-	fmt.Fprintln(w, reduceCaution)
+	fmt.Fprintln(w, caution)
 }
 
 // stepJSON is a step with the places of its parts as file:line strings,
@@ -252,12 +210,12 @@ type countJSON struct {
 	Nets  int `json:"nets"`
 }
 
-func writeReduceJSON(w io.Writer, log *rules.Log, netlist string) error {
+func writeReduceJSON(w io.Writer, log *rules.Log, netlist, caution string) error {
 	j := reduceJSON{
 		Level: log.Level.String(), Steps: stepsJSON(log.Steps), Declined: stepsJSON(log.Declined),
 		Before:   countJSON{log.Before.Parts, log.Before.Nets},
 		After:    countJSON{log.After.Parts, log.After.Nets},
-		ACGround: log.ACGround, Gangs: log.Gangs, Hits: log.Hits, Caution: reduceCaution, Circuit: netlist,
+		ACGround: log.ACGround, Gangs: log.Gangs, Hits: log.Hits, Caution: caution, Circuit: netlist,
 	}
 	if j.ACGround == nil {
 		j.ACGround = []string{}

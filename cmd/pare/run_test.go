@@ -13,8 +13,11 @@ import (
 	"sync"
 	"testing"
 
+	"pare/cmd/internal/note"
+	"pare/cmd/internal/pipeline"
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/safety"
 )
 
 // examples lists the bundled example netlists; the main job must handle
@@ -136,8 +139,16 @@ func TestMainJobOnExamples(t *testing.T) {
 			}
 
 			md := readString(t, filepath.Join(dir, fileNote))
+			// The caution is the one graph/safety words for this set, with
+			// what it was chosen from.
+			caution := safety.For(full)
+			for _, want := range append(caution.Lines, "> **"+caution.Heading+"**", caution.Basis()) {
+				if !strings.Contains(md, want) {
+					t.Errorf("notes.md lacks the caution line %q", want)
+				}
+			}
 			for _, want := range []string{
-				cautionHeading, "200–400 V DC", "isolation transformer", "small-signal only",
+				"small-signal only",
 				"## Stages", "| stage | what | family | parts | figures | flags |",
 				"## Reduction log", "## Verification", "**Verification passed**",
 				"](reduced.svg)", "](faded.svg)", "## Parts before → after",
@@ -530,7 +541,7 @@ func TestDefaultOutDir(t *testing.T) {
 // The summary names the pair nearest its tolerance, measured against each
 // tolerance separately: 4° of 5° is worse than 0.3 dB of 0.5 dB.
 func TestVerifySummaryWorst(t *testing.T) {
-	v := noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
+	v := note.Verify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []note.Pair{
 		{From: "a", To: "b", What: "transfer", MaxDB: 0.3, MaxDeg: 1, AtHz: 1e3},
 		{From: "a", What: "impedance", MaxDB: 0.1, MaxDeg: 4, AtHz: 2e6},
 	}}
@@ -543,7 +554,7 @@ func TestVerifySummaryWorst(t *testing.T) {
 		t.Errorf("failed verification summarised as %q", got)
 	}
 	// A pair the reduced circuit could not be solved for is always the worst.
-	v.Pairs = append(v.Pairs, notePair{From: "b", To: "c", What: "transfer", Error: "singular matrix"})
+	v.Pairs = append(v.Pairs, note.Pair{From: "b", To: "c", What: "transfer", Error: "singular matrix"})
 	if got, want := verifySummary(v), "verification: FAILED, V(c)/V(b) could not be solved: singular matrix; tolerance 0.5 dB / 5°"; got != want {
 		t.Errorf("got  %q\nwant %q", got, want)
 	}
@@ -552,10 +563,10 @@ func TestVerifySummaryWorst(t *testing.T) {
 // verifyOf must carry a failed comparison through, so the job exits 1.
 func TestVerifyOfFailed(t *testing.T) {
 	rep := &ac.Report{OK: false, TolDB: 0.5, TolDeg: 5, Pairs: []ac.Pair{{From: "a", To: "b", MaxDB: 3, What: "transfer"}}}
-	if v := verifyOf(rep, nil, ac.CompareOptions{}); !v.failed() {
+	if v := note.VerifyOf(rep, nil, ac.CompareOptions{}); !v.Failed() {
 		t.Error("a failed report did not make a failed verification")
 	}
-	if v := verifyOf(nil, errors.New("no inputs"), ac.CompareOptions{}); !v.failed() || v.Err == "" {
+	if v := note.VerifyOf(nil, errors.New("no inputs"), ac.CompareOptions{}); !v.Failed() || v.Err == "" {
 		t.Error("a comparison error did not make a failed verification")
 	}
 }
@@ -583,16 +594,39 @@ func BenchmarkMainJob(b *testing.B) {
 		b.Fatal(err)
 	}
 	for _, ex := range files {
-		c, err := graph.LoadFile(ex)
-		if err != nil {
-			b.Fatal(err)
-		}
 		b.Run(strings.TrimSuffix(filepath.Base(ex), ".toml"), func(b *testing.B) {
 			for i := 0; i < b.N; i++ {
-				if _, err := mainJobOn(c, ex, nil, cfg); err != nil {
+				pr, err := pipeline.Run(jobOptions(ex, cfg))
+				if err != nil {
+					b.Fatal(err)
+				}
+				if _, err := mainJobOn(pr, cfg); err != nil {
 					b.Fatal(err)
 				}
 			}
 		})
+	}
+}
+
+// TestDrawMatchesMainJob: `pare draw` and the main job draw their sheets
+// from the one pipeline, so for every example the reduced and faded sheets
+// of both are the same bytes, and so is the committed example sheet.
+func TestDrawMatchesMainJob(t *testing.T) {
+	for _, ex := range examples(t) {
+		job := cachedJob(t, ex)
+		for _, sheet := range []struct {
+			view, file string
+		}{{"reduced", fileReducedSheet}, {"faded", fileFadedSheet}} {
+			code, drawn, errs := runJob(t, "draw", ex, "--view", sheet.view, "-o", "-")
+			if code != exitOK {
+				t.Fatalf("draw %s --view %s: exit %d: %s", ex, sheet.view, code, errs)
+			}
+			if written := readString(t, filepath.Join(job.dir, sheet.file)); drawn != written {
+				t.Errorf("%s: pare draw --view %s differs from the main job's %s", filepath.Base(ex), sheet.view, sheet.file)
+			}
+			if committed := readString(t, strings.TrimSuffix(ex, ".toml")+"."+sheet.view+".svg"); drawn != committed {
+				t.Errorf("%s: the %s sheet differs from the committed example sheet", filepath.Base(ex), sheet.view)
+			}
+		}
 	}
 }

@@ -42,8 +42,7 @@ linearly (.ac lin), a wider one logarithmically (.ac dec) at --per-decade or
 at the density that gives 101 points, whichever is more.
 
 It is a small-signal model: no bias, no supplies, nothing about DC or safety.`,
-		flags: func(fs *flag.FlagSet) any {
-			o := &spiceOpts{}
+		bind: typed(func(fs *flag.FlagSet, o *spiceOpts) {
 			fs.StringVar(&o.out, "o", "-", "write the deck to this file (- for stdout)")
 			fs.BoolVar(&o.reduced, "reduced", false, "write the reduced circuit")
 			fs.StringVar(&o.level, "level", "signal", "reduction level for --reduced: tidy, signal or ideal")
@@ -53,14 +52,11 @@ It is a small-signal model: no bias, no supplies, nothing about DC or safety.`,
 			fs.StringVar(&o.band, "band", "", "sweep span, e.g. 400k..2M (default: the circuit's full band)")
 			o.term = termFlag{}
 			fs.Var(o.term, "term", "terminate a net: NET=OHMS to ground (repeatable; ports are open otherwise)")
-			return o
-		},
-		run: runSpice,
+		}, runSpice),
 	})
 }
 
-func runSpice(e *env, opts any, args []string) int {
-	o := opts.(*spiceOpts)
+func runSpice(e *env, o *spiceOpts, args []string) int {
 	if len(args) != 1 {
 		fmt.Fprintln(e.stderr, "pare spice: give exactly one netlist file")
 		return exitBad
@@ -88,7 +84,7 @@ func runSpice(e *env, opts any, args []string) int {
 		so.Band = b
 	}
 	path := args[0]
-	c, code := circuitFor(e, "spice", path, o.reduced, o.level)
+	c, _, code := circuitFor(e, "spice", path, o.reduced, o.level)
 	if c == nil {
 		return code
 	}

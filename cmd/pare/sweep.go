@@ -10,6 +10,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/safety"
 	"pare/graph/value"
 )
 
@@ -42,8 +43,7 @@ output.
 
 The numbers are those of pare's small-signal models (documented in the
 graph/ac package): no DC conditions, no overload.`,
-		flags: func(fs *flag.FlagSet) any {
-			o := &sweepOpts{}
+		bind: typed(func(fs *flag.FlagSet, o *sweepOpts) {
 			fs.StringVar(&o.from, "from", "", "driven net (default: the first input)")
 			fs.StringVar(&o.to, "to", "", "observed net (default: the first output)")
 			fs.IntVar(&o.points, "points", 101, "number of log-spaced frequencies")
@@ -55,14 +55,11 @@ graph/ac package): no DC conditions, no overload.`,
 			fs.BoolVar(&o.impedance, "impedance", false, "print the impedance at --from instead of a transfer")
 			o.term = termFlag{}
 			fs.Var(o.term, "term", "terminate a net: NET=OHMS to ground (repeatable; ports are open otherwise)")
-			return o
-		},
-		run: runSweep,
+		}, runSweep),
 	})
 }
 
-func runSweep(e *env, opts any, args []string) int {
-	o := opts.(*sweepOpts)
+func runSweep(e *env, o *sweepOpts, args []string) int {
 	if len(args) != 1 {
 		fmt.Fprintln(e.stderr, "pare sweep: give exactly one netlist file")
 		return exitBad
@@ -81,7 +78,7 @@ func runSweep(e *env, opts any, args []string) int {
 	}
 	setting.Terminate = o.term
 	path := args[0]
-	c, code := circuitFor(e, "sweep", path, o.reduced, o.level)
+	c, caution, code := circuitFor(e, "sweep", path, o.reduced, o.level)
 	if c == nil {
 		return code
 	}
@@ -180,7 +177,7 @@ func runSweep(e *env, opts any, args []string) int {
 				fmt.Fprintf(&b, "%14s  %10.3f  %10.2f\n", ac.FormatHz(f), dB(h[i]), phaseDeg(h[i]))
 			}
 		}
-		fmt.Fprintln(&b, "Small-signal model only: no DC conditions, no overload; the set itself may carry lethal voltages.")
+		fmt.Fprintln(&b, caution.Report(safety.SweepModel))
 	}
 	if _, err := e.stdout.Write(b.Bytes()); err != nil {
 		fmt.Fprintf(e.stderr, "pare sweep: %v\n", err)

@@ -11,8 +11,10 @@ import (
 	"strconv"
 	"strings"
 
+	"pare/cmd/internal/pipeline"
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/safety"
 	"pare/graph/value"
 	"pare/rules"
 )
@@ -56,8 +58,7 @@ held at 0 V as an undriven source; --term on a port net models it otherwise.
 
 The comparison is of the small-signal models only (documented in pare's
 graph/ac package): it says nothing about DC conditions or safety.`,
-		flags: func(fs *flag.FlagSet) any {
-			o := &verifyOpts{}
+		bind: typed(func(fs *flag.FlagSet, o *verifyOpts) {
 			fs.StringVar(&o.level, "level", "signal", "reduction level: tidy, signal or ideal")
 			fs.BoolVar(&o.json, "json", false, "print the report as JSON")
 			fs.Float64Var(&o.tolDB, "tol-db", ac.DefaultTolDB, "tolerance on magnitude, dB")
@@ -67,16 +68,9 @@ graph/ac package): it says nothing about DC conditions or safety.`,
 			fs.IntVar(&o.points, "points", 100, "log-spaced points per band before refinement")
 			o.term = termFlag{}
 			fs.Var(o.term, "term", "terminate a net: NET=OHMS to ground (repeatable; ports are open otherwise)")
-			return o
-		},
-		run: runVerify,
+		}, runVerify),
 	})
 }
-
-// verifyCaution is printed under every text report: the numbers concern a
-// model, and the set they describe may be lethal.
-const verifyCaution = "Small-signal comparison only: no DC conditions. Valve sets carry lethal HT and may have a live chassis; " +
-	"capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
 
 // refusedStep is a rewrite step the comparison refused.
 type refusedStep struct {
@@ -89,22 +83,22 @@ type refusedStep struct {
 // verifyJSON is the --json shape: the comparison report, plus the refused
 // steps under --steps.
 type verifyJSON struct {
-	Pairs   []ac.Pair     `json:"pairs"`
-	TolDB   float64       `json:"tolerance_db"`
-	TolDeg  float64       `json:"tolerance_deg"`
-	OK      bool          `json:"ok"`
-	Notes   []string      `json:"notes,omitempty"`
-	Level   string        `json:"level"`
-	Refused []refusedStep `json:"refused_steps,omitempty"`
-	Error   string        `json:"error,omitempty"` // why nothing could be compared
-	Steps   []stepCheck   `json:"steps,omitempty"` // under --steps: the worst pair after each step
+	Pairs   []ac.Pair       `json:"pairs"`
+	TolDB   float64         `json:"tolerance_db"`
+	TolDeg  float64         `json:"tolerance_deg"`
+	OK      bool            `json:"ok"`
+	Notes   []string        `json:"notes,omitempty"`
+	Level   string          `json:"level"`
+	Refused []refusedStep   `json:"refused_steps,omitempty"`
+	Error   string          `json:"error,omitempty"` // why nothing could be compared
+	Steps   []pipeline.Step `json:"steps,omitempty"` // under --steps: the worst pair after each step
 }
 
 // reportUnsolvable reports a comparison that could not run. A stated
 // termination naming no net is bad usage (exit 2); anything else (a
 // floating net, a singular system) is a finding about a valid netlist,
 // reported like a failed verification with exit 1, as the main job does.
-func reportUnsolvable(e *env, path string, lvl rules.Level, cmp ac.CompareOptions, asJSON bool, err error) int {
+func reportUnsolvable(e *env, path string, lvl rules.Level, cmp ac.CompareOptions, asJSON bool, caution string, err error) int {
 	var list graph.ErrorList
 	if errors.As(err, &list) {
 		printErrors(e, "pare verify", path, err)
@@ -122,12 +116,11 @@ func reportUnsolvable(e *env, path string, lvl rules.Level, cmp ac.CompareOption
 	}
 	fmt.Fprintf(e.stdout, "%s: reduction at level %s against the original, tolerance %g dB, %g°\n", path, lvl, cmp.TolDB, cmp.TolDeg)
 	fmt.Fprintf(e.stdout, "FAILED: the circuit %s\n", msg)
-	fmt.Fprintln(e.stdout, verifyCaution)
+	fmt.Fprintln(e.stdout, caution)
 	return exitFound
 }
 
-func runVerify(e *env, opts any, args []string) int {
-	o := opts.(*verifyOpts)
+func runVerify(e *env, o *verifyOpts, args []string) int {
 	if len(args) != 1 {
 		fmt.Fprintln(e.stderr, "pare verify: give exactly one netlist file")
 		return exitBad
@@ -151,52 +144,31 @@ func runVerify(e *env, opts any, args []string) int {
 		return exitBad
 	}
 	path := args[0]
-	c, ok := loadCircuit(e, path)
-	if !ok {
-		return exitBad
-	}
 	setting.Terminate = o.term
 	cmp := ac.CompareOptions{TolDB: o.tolDB, TolDeg: o.tolDeg, Points: o.points, Options: setting}
-	ro := rules.Options{Level: lvl}
-	var checkErr error
-	var checks []stepCheck
+	po := pipeline.Options{Path: path, Until: pipeline.PhaseVerify, Level: lvl, Verify: true, Compare: cmp}
 	if o.steps {
-		// Each step is judged against the original, not only against the step
-		// before it, so small changes cannot add up unseen. The worst pair
-		// after each step is kept for the per-step table.
-		ro.Check = func(_, after *graph.Circuit, st *rules.Step) error {
-			rep, err := ac.Compare(c, after, cmp)
-			if err != nil {
-				if checkErr == nil {
-					checkErr = err
-				}
-				return err
-			}
-			ck := stepCheck{Rule: st.Rule, Refs: st.Refs, OK: rep.OK}
-			if w, ok := rep.Worst(); ok {
-				ck.Worst = &w
-			}
-			checks = append(checks, ck)
-			if rep.OK {
-				return nil
-			}
-			return &ac.ToleranceError{Pair: *ck.Worst, TolDB: rep.TolDB, TolDeg: rep.TolDeg}
-		}
+		// Each step is judged against the original, not only against the
+		// step before it, so small changes cannot add up unseen.
+		po.StepCheck = pipeline.AgainstOriginal
 	}
-	reduced, log, err := rules.Reduce(c, ro)
+	res, err := pipeline.Run(po)
+	if loadFailed(e, path, err) {
+		return exitBad
+	}
 	if err != nil {
 		return reportReduceError(e, "verify", path, err)
 	}
-	numberChecks(checks, log.Steps)
-	if checkErr != nil {
-		return reportUnsolvable(e, path, lvl, cmp, o.json, checkErr)
+	caution := res.Caution.Report(safety.Comparison)
+	if res.StepErr != nil {
+		return reportUnsolvable(e, path, lvl, cmp, o.json, caution, res.StepErr)
 	}
-	rep, err := ac.Compare(c, reduced, cmp)
-	if err != nil {
-		return reportUnsolvable(e, path, lvl, cmp, o.json, err)
+	if res.CompareErr != nil {
+		return reportUnsolvable(e, path, lvl, cmp, o.json, caution, res.CompareErr)
 	}
+	rep := res.Report
 	var refused []refusedStep
-	for _, s := range log.Steps {
+	for _, s := range res.Log.Steps {
 		if s.Refused != "" {
 			refused = append(refused, refusedStep{N: s.N, Rule: s.Rule, Refs: s.Refs, Refused: s.Refused})
 		}
@@ -207,7 +179,7 @@ func runVerify(e *env, opts any, args []string) int {
 	}
 	if o.json {
 		out := verifyJSON{Pairs: rep.Pairs, TolDB: rep.TolDB, TolDeg: rep.TolDeg, OK: rep.OK && len(refused) == 0,
-			Notes: rep.Notes, Level: lvl.String(), Refused: refused, Steps: checks}
+			Notes: rep.Notes, Level: lvl.String(), Refused: refused, Steps: res.Steps}
 		enc := json.NewEncoder(e.stdout)
 		enc.SetIndent("", "  ")
 		if err := enc.Encode(out); err != nil {
@@ -216,36 +188,13 @@ func runVerify(e *env, opts any, args []string) int {
 		}
 		return code
 	}
-	printVerify(e.stdout, path, lvl, rep, refused, o.steps, checks)
+	printVerify(e.stdout, path, lvl, rep, refused, o.steps, res.Steps, caution)
 	return code
-}
-
-// stepCheck is the comparison with the original after one tentative
-// rewrite step: its worst pair, and whether the step was kept.
-type stepCheck struct {
-	N     int      `json:"n"`
-	Rule  string   `json:"rule"`
-	Refs  []string `json:"refs,omitempty"`
-	Worst *ac.Pair `json:"worst,omitempty"` // nil when nothing was compared
-	OK    bool     `json:"ok"`
-}
-
-// numberChecks gives each check the number of its step in the log. The
-// engine calls Check once for every step it logs, applied or refused, in
-// log order; a step the log holds without a check (none today) is skipped.
-func numberChecks(checks []stepCheck, steps []rules.Step) {
-	k := 0
-	for _, s := range steps {
-		if k < len(checks) && checks[k].Rule == s.Rule && strings.Join(checks[k].Refs, ",") == strings.Join(s.Refs, ",") {
-			checks[k].N = s.N
-			k++
-		}
-	}
 }
 
 // printSteps prints one line per checked step: its worst deviation from the
 // original and whether the engine kept it.
-func printSteps(w io.Writer, checks []stepCheck, tolDB, tolDeg float64) {
+func printSteps(w io.Writer, checks []pipeline.Step, tolDB, tolDeg float64) {
 	if len(checks) == 0 {
 		fmt.Fprintln(w, "no rewrite step to check")
 		return
@@ -294,7 +243,7 @@ func printSteps(w io.Writer, checks []stepCheck, tolDB, tolDeg float64) {
 	}
 }
 
-func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refused []refusedStep, steps bool, checks []stepCheck) {
+func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refused []refusedStep, steps bool, checks []pipeline.Step, caution string) {
 	fmt.Fprintf(w, "%s: reduction at level %s against the original, tolerance %g dB, %g°\n", path, lvl, rep.TolDB, rep.TolDeg)
 	width := 0
 	for _, p := range rep.Pairs {
@@ -343,7 +292,7 @@ func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refu
 	default:
 		fmt.Fprintf(w, "ok: all %d pair(s) within tolerance\n", len(rep.Pairs))
 	}
-	fmt.Fprintln(w, verifyCaution)
+	fmt.Fprintln(w, caution)
 }
 
 // termFlag collects --term NET=OHMS: a stated termination on a port or any
@@ -397,31 +346,38 @@ func parseAt(s string) (ac.Options, error) {
 	return ac.Options{VarFrac: f, VarSet: true}, nil
 }
 
-// reportReduceError prints a reduction's failure the way loadCircuit prints
-// a load failure, and returns the exit code for bad input.
+// reportReduceError prints a reduction's failure the way a load failure
+// is printed, and returns the exit code for bad input.
 func reportReduceError(e *env, cmd, path string, err error) int {
 	printErrors(e, "pare "+cmd, path, err)
 	return exitBad
 }
 
 // circuitFor loads a file and reduces it when asked: the circuit sweep and
-// spice work on.
-func circuitFor(e *env, cmd, path string, reduced bool, level string) (*graph.Circuit, int) {
-	c, ok := loadCircuit(e, path)
-	if !ok {
-		return nil, exitBad
+// spice work on, with the caution of the original set.
+func circuitFor(e *env, cmd, path string, reduced bool, level string) (*graph.Circuit, safety.Caution, int) {
+	po := pipeline.Options{Path: path, Until: pipeline.PhaseLoad}
+	if reduced {
+		lvl, err := rules.ParseLevel(level)
+		if err != nil {
+			// Said after the file loads, as it always was.
+			if _, err := pipeline.Run(po); loadFailed(e, path, err) {
+				return nil, safety.Caution{}, exitBad
+			}
+			fmt.Fprintf(e.stderr, "pare %s: %v\n", cmd, err)
+			return nil, safety.Caution{}, exitBad
+		}
+		po.Until, po.Level = pipeline.PhaseReduce, lvl
 	}
-	if !reduced {
-		return c, exitOK
+	res, err := pipeline.Run(po)
+	if loadFailed(e, path, err) {
+		return nil, safety.Caution{}, exitBad
 	}
-	lvl, err := rules.ParseLevel(level)
 	if err != nil {
-		fmt.Fprintf(e.stderr, "pare %s: %v\n", cmd, err)
-		return nil, exitBad
+		return nil, safety.Caution{}, reportReduceError(e, cmd, path, err)
 	}
-	red, _, err := rules.Reduce(c, rules.Options{Level: lvl})
-	if err != nil {
-		return nil, reportReduceError(e, cmd, path, err)
+	if reduced {
+		return res.Reduced, res.Caution, exitOK
 	}
-	return red, exitOK
+	return res.Circuit, res.Caution, exitOK
 }

@@ -62,8 +62,10 @@ type Assessment struct {
 	// MaxVolts is the largest declared rail voltage (magnitude), 0 when
 	// none is declared.
 	MaxVolts float64
+	// Valves counts the valves (sections of one envelope each count).
+	Valves int
 	// Evidence names what the choice rests on, in the order found
-	// ("valve V1", "rail ht at 250 V"); empty for Unknown.
+	// ("valve V1", "rail above 50 V: ht 250 V"); empty for Unknown.
 	Evidence []string
 }
 
@@ -87,7 +89,7 @@ func Assess(c *graph.Circuit) Assessment {
 		return Assessment{Class: Unknown}
 	}
 	ev := collect(c)
-	a := Assessment{MaxVolts: ev.maxVolts}
+	a := Assessment{MaxVolts: ev.maxVolts, Valves: len(ev.valves)}
 	var unfed []string // a mains input that feeds no transformer
 	if len(ev.mainsTransformers) == 0 {
 		unfed = ev.mainsInputs
@@ -97,22 +99,23 @@ func Assess(c *graph.Circuit) Assessment {
 		a.Class = LiveChassis
 		a.Evidence = summary(
 			group{"said AC/DC by", ev.acdc}, group{"series heaters:", ev.chain},
-			group{"rectifier on the mains:", ev.mainsRectifiers}, group{"mains input with no mains transformer:", unfed},
-			group{"valves", ev.valves}, group{"rails above 50 V:", ev.highRails})
+			group{"rectifier(s) on the mains:", ev.mainsRectifiers}, group{"mains input(s) with no mains transformer:", unfed},
+			group{"valve(s)", ev.valves}, group{"rail(s) above 50 V:", ev.highRails})
 	case len(ev.valves)+len(ev.highRails)+len(ev.mainsInputs)+len(ev.mainsTransformers)+len(ev.rectifiers) > 0:
 		a.Class = MainsHT
 		a.Evidence = summary(
-			group{"valves", ev.valves}, group{"rails above 50 V:", ev.highRails},
-			group{"mains transformer", ev.mainsTransformers}, group{"rectifiers", ev.rectifiers},
-			group{"mains input", ev.mainsInputs})
+			group{"valve(s)", ev.valves}, group{"rail(s) above 50 V:", ev.highRails},
+			group{"mains transformer(s)", ev.mainsTransformers}, group{"rectifier(s)", ev.rectifiers},
+			group{"mains input(s)", ev.mainsInputs})
 	case len(ev.lowRails) > 0:
 		a.Class = Battery
-		a.Evidence = summary(group{"no valves, no mains parts, rails at 50 V or below:", ev.lowRails})
+		a.Evidence = summary(group{"no valves, no mains parts, rail(s) at 50 V or below:", ev.lowRails})
 	}
 	return a
 }
 
-// group is one kind of evidence and the items found for it.
+// group is one kind of evidence and the items found for it; "(s)" in what
+// becomes a plural "s" for more than one item.
 type group struct {
 	what  string
 	items []string
@@ -131,7 +134,11 @@ func summary(gs ...group) []string {
 		if len(items) > 4 {
 			items, more = items[:4], fmt.Sprintf(" and %d more", len(g.items)-4)
 		}
-		out = append(out, g.what+" "+strings.Join(items, ", ")+more)
+		plural := ""
+		if len(g.items) > 1 {
+			plural = "s"
+		}
+		out = append(out, strings.ReplaceAll(g.what, "(s)", plural)+" "+strings.Join(items, ", ")+more)
 	}
 	return out
 }

@@ -85,8 +85,8 @@ func TestAssess(t *testing.T) {
 		want             Class
 		because          string // a piece of the evidence
 	}{
-		{name: "valve frequency changer", file: "examples/frequency-changer.toml", want: MainsHT, because: "valves V1"},
-		{name: "valve IF strip", file: "examples/if-detector-audio.toml", want: MainsHT, because: "rails above 50 V: ht 250 V"},
+		{name: "valve frequency changer", file: "examples/frequency-changer.toml", want: MainsHT, because: "valve V1"},
+		{name: "valve IF strip", file: "examples/if-detector-audio.toml", want: MainsHT, because: "rail above 50 V: ht 250 V"},
 		{name: "9 V transistor portable", file: "examples/transistor-front-end.toml", want: Battery, because: "vcc 9 V"},
 		{name: "AC/DC output stage", file: "testdata/safety/acdc-output.toml", want: LiveChassis, because: "series heaters: V1–V2"},
 		{name: "AC/DC rectifier on the mains", file: "testdata/safety/acdc-output.toml", want: LiveChassis, because: "rectifier on the mains: V2"},
@@ -153,7 +153,8 @@ func TestMainsWords(t *testing.T) {
 // the rail it read.
 func TestCautionTexts(t *testing.T) {
 	for _, a := range []Assessment{
-		{Class: Unknown}, {Class: Battery, MaxVolts: 9}, {Class: MainsHT, MaxVolts: 250}, {Class: LiveChassis},
+		{Class: Unknown}, {Class: Battery, MaxVolts: 9}, {Class: MainsHT, MaxVolts: 250, Valves: 2},
+		{Class: MainsHT, MaxVolts: 24}, {Class: LiveChassis},
 	} {
 		c := a.Caution()
 		all := []string{c.Heading, strings.Join(c.Lines, " "), c.Sheet(false), c.Sheet(true)}

@@ -40,15 +40,19 @@ func (a Assessment) Caution() Caution {
 		lines = append(lines, strings.ReplaceAll(l, "{volts}", volts(a.MaxVolts)))
 	}
 	lines = append(lines, codesLine, smallSignalLine)
+	sentence := t.sentence
+	if a.Class == MainsHT && a.Valves == 0 {
+		sentence = mainsSentence // a mains transformer or a high rail, no valve
+	}
 	return Caution{
 		Assessment: a, Heading: t.heading, Lines: lines,
 		sheet:    strings.ReplaceAll(t.sheet, "{volts}", volts(a.MaxVolts)),
-		sentence: t.sentence,
+		sentence: sentence,
 	}
 }
 
 // Basis says what the choice was made from, for the note: "Chosen from the
-// netlist: valves V1, V2; rails above 50 V: ht 250 V."
+// netlist: valves V1, V2; rail above 50 V: ht 250 V."
 func (c Caution) Basis() string {
 	if len(c.Evidence) == 0 {
 		return "Chosen because the netlist shows no valves, no mains parts and no rail voltage: pare cannot tell what powers the set."
@@ -106,6 +110,9 @@ const (
 	slowLine      = "Bring an old set up slowly (variac or a series lamp), and replace suspect mains-side capacitors and perished wiring first."
 )
 
+// mainsSentence is the MainsHT report sentence for a set without valves.
+const mainsSentence = "Mains-powered sets carry lethal voltages on the mains side and on any rail above 50 V; capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
+
 // classText is what one class says; {volts} stands for the highest
 // declared rail.
 type classText struct {
@@ -120,7 +127,7 @@ var texts = [...]classText{
 		heading:  "Caution: mains-powered and valve equipment can kill.",
 		lines:    []string{htLine, reservoirLine, acdcLine, slowLine},
 		sheet:    "Caution: mains and valve HT can kill; capacitors stay charged and the chassis may be live. Use an isolation transformer and follow local codes and licensed practice.",
-		sentence: "Mains and valve sets carry lethal voltages and may have a live chassis; capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice.",
+		sentence: "Valve sets carry lethal HT and may have a live chassis; capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice.",
 	},
 	LiveChassis: {
 		heading: "Caution: this is an AC/DC set: its chassis can be live at mains potential, and its HT can kill.",

@@ -1,47 +1,57 @@
-package main
+package note
 
 import (
 	"bytes"
 	"strings"
 	"testing"
+
+	"pare/graph/safety"
 )
 
 // sampleNote is a hand-made note of the kind the main job writes for the
 // club's frequency changer; the numbers in it are only text to the writer.
-func sampleNote() *note {
-	return &note{
+func sampleNote() *Note {
+	return &Note{
 		Title: "Club receiver: frequency changer (MW)", Source: "frequency-changer.toml", Version: "0.1.0",
 		Level: "signal", Symbols: "IEC 60617",
 		Furniture: []string{"Band 530 kHz–1.6 MHz", "IF 470 kHz", "Level signal"},
-		Sheets:    []noteSheet{{File: "reduced.svg", Alt: "reduced"}, {File: "faded.svg", Alt: "faded"}},
-		Before:    partCount{26, 15}, After: partCount{14, 8},
+		Sheets:    []Sheet{{File: "reduced.svg", Alt: "reduced"}, {File: "faded.svg", Alt: "faded"}},
+		Before:    PartCount{26, 15}, After: PartCount{14, 8},
 		Removed: []string{"C6", "C9", "P4"},
-		Merged:  []noteMerge{{Into: "C3", From: []string{"C3", "TC2"}}},
-		Stages: []noteStage{{
+		Merged:  []Merge{{Into: "C3", From: []string{"C3", "TC2"}}},
+		Stages: []Stage{{
 			Name: "S1", Title: "Hartley oscillator, cathode tap (valve)", Topology: "hartley-cathode-tap", Family: "valve",
 			Parts:   []string{"L1", "V1", "C2"},
 			Figures: "f 1 MHz–2.07 MHz, gain |A| 3",
 			Flags:   []string{"grid-leak bias"},
 		}},
-		Steps: []noteStep{
+		Steps: []Step{
 			{N: 1, Rule: "bypass", Removed: []string{"C6"}, Grounded: []string{"ht_if"},
-				Why: "|Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2)", Where: []notePlace{{"C6", "frequency-changer.toml:39"}}},
+				Why: "|Xc| = 3.39 Ω at 470 kHz ≤ 0.1·|Z| (R2 2k2)", Where: []Place{{"C6", "frequency-changer.toml:39"}}},
 			{N: 2, Rule: "merge_parallel", Merged: []string{"C3", "TC2"}, Result: "C3",
 				Why: "parallel capacitors add", Refused: "transfer aerial→if_out off by 0.8 dB at 1.6 MHz",
-				Where: []notePlace{{"C3", "frequency-changer.toml:37"}, {"TC2", "frequency-changer.toml:55"}, {"C20", ""}}},
+				Where: []Place{{"C3", "frequency-changer.toml:37"}, {"TC2", "frequency-changer.toml:55"}, {"C20", ""}}},
 		},
-		NearMisses: []noteStep{{Rule: "bypass", Why: "C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ > 0.1·|Z|",
-			Where: []notePlace{{"C10", "if-detector-audio.toml:40"}}}},
-		Verify: noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
+		NearMisses: []Step{{Rule: "bypass", Why: "C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ > 0.1·|Z|",
+			Where: []Place{{"C10", "if-detector-audio.toml:40"}}}},
+		Caution: valveCaution(),
+		Verify: Verify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []Pair{
 			{From: "aerial", To: "if_out", What: "transfer", MaxDB: 0.12, MaxDeg: 1.3, AtHz: 1.6e6, Setting: "max"},
 		}},
 	}
 }
 
-func writeToString(t *testing.T, n *note) string {
+// valveCaution is the caution graph/safety words for a valve set with a
+// 250 V rail, as the main job hands it to the note.
+func valveCaution() Caution {
+	c := safety.Assessment{Class: safety.MainsHT, MaxVolts: 250, Evidence: []string{"valves V1"}}.Caution()
+	return Caution{Heading: c.Heading, Lines: c.Lines, Basis: c.Basis()}
+}
+
+func writeToString(t *testing.T, n *Note) string {
 	t.Helper()
 	var b bytes.Buffer
-	if err := writeNote(&b, n); err != nil {
+	if err := Write(&b, n); err != nil {
 		t.Fatal(err)
 	}
 	return b.String()
@@ -49,6 +59,7 @@ func writeToString(t *testing.T, n *note) string {
 
 func TestNoteSections(t *testing.T) {
 	md := writeToString(t, sampleNote())
+	cautionHeading := valveCaution().Heading
 	// Each line must appear verbatim: the caution wording comes from the
 	// project's safety list (reference values §9, common practice), the rest
 	// is the note's own layout.
@@ -61,6 +72,7 @@ func TestNoteSections(t *testing.T) {
 		"never clip an earthed scope ground to an unisolated chassis",
 		"local electrical codes and licensed practice",
 		"small-signal only",
+		"> *Chosen from the netlist: valves V1.*",
 		"![reduced](reduced.svg)",
 		"![faded](faded.svg)",
 		"| stage | what | family | parts | figures | flags |",
@@ -91,22 +103,22 @@ func TestNoteSections(t *testing.T) {
 func TestNoteVerification(t *testing.T) {
 	tests := []struct {
 		name   string
-		verify noteVerify
+		verify Verify
 		want   []string
 		failed bool
 	}{
-		{"passed", noteVerify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{{From: "a", To: "b", What: "transfer", MaxDB: 0.1, MaxDeg: 1, AtHz: 1e3}}},
+		{"passed", Verify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []Pair{{From: "a", To: "b", What: "transfer", MaxDB: 0.1, MaxDeg: 1, AtHz: 1e3}}},
 			[]string{"**Verification passed**", "**Passed** against a tolerance of 0.5 dB and 5°", "| 1 kHz | – | ok |"}, false},
-		{"one pair out", noteVerify{OK: false, TolDB: 0.5, TolDeg: 5, Pairs: []notePair{
+		{"one pair out", Verify{OK: false, TolDB: 0.5, TolDeg: 5, Pairs: []Pair{
 			{From: "a", To: "b", What: "transfer", MaxDB: 0.1, MaxDeg: 1, AtHz: 1e3},
 			{From: "a", To: "a", What: "impedance", MaxDB: 2.25, MaxDeg: 1, AtHz: 455e3},
 			{From: "b", To: "b", What: "impedance", Error: "singular matrix"}},
 			Notes: []string{"port p3 has no ground return"}},
 			[]string{"**Verification FAILED**: the reduced circuit does not match", "**Failed** against a tolerance", "| 2.25 | 1 | 455 kHz | – | **out of tolerance** |",
 				"| 0.1 | 1 | 1 kHz | – | ok |", "| – | – | – | – | **not solved**: singular matrix |", "- port p3 has no ground return"}, true},
-		{"could not run", noteVerify{Err: "net aerial: singular matrix", TolDB: 0.5, TolDeg: 5},
+		{"could not run", Verify{Err: "net aerial: singular matrix", TolDB: 0.5, TolDeg: 5},
 			[]string{"**Verification FAILED**: the AC comparison could not be completed", "could not be completed: net aerial: singular matrix."}, true},
-		{"skipped", noteVerify{Skipped: "--no-verify"},
+		{"skipped", Verify{Skipped: "--no-verify"},
 			[]string{"**Verification was not run** (--no-verify)", "Not run (--no-verify)."}, false},
 	}
 	for _, tt := range tests {
@@ -119,7 +131,7 @@ func TestNoteVerification(t *testing.T) {
 					t.Errorf("note lacks %q\n%s", w, md[strings.Index(md, "## Verification"):])
 				}
 			}
-			if got := tt.verify.failed(); got != tt.failed {
+			if got := tt.verify.Failed(); got != tt.failed {
 				t.Errorf("failed() = %v, want %v", got, tt.failed)
 			}
 		})
@@ -165,24 +177,13 @@ func TestNoteEmptyParts(t *testing.T) {
 	}
 }
 
-func TestFigureLabels(t *testing.T) {
-	labels := []struct{ key, want string }{
-		{"f_min_hz", "f min"}, {"gain", "gain"}, {"tau_s", "tau"}, {"q_loaded", "q loaded"}, {"_hz", " hz"},
-	}
-	for _, l := range labels {
-		if got := figureLabel(l.key); got != l.want {
-			t.Errorf("figureLabel(%q) = %q, want %q", l.key, got, l.want)
-		}
-	}
-}
-
 func TestNum(t *testing.T) {
 	for _, c := range []struct {
 		v    float64
 		want string
 	}{{0.5, "0.5"}, {5, "5"}, {0.0123, "0.012"}, {-0.0001, "0"}, {12.3456, "12.346"}} {
-		if got := num(c.v); got != c.want {
-			t.Errorf("num(%v) = %q, want %q", c.v, got, c.want)
+		if got := Num(c.v); got != c.want {
+			t.Errorf("Num(%v) = %q, want %q", c.v, got, c.want)
 		}
 	}
 }

@@ -1,23 +1,23 @@
-package main
-
-// The repair note: a Markdown page written next to the sheets by the main
-// job. It is built from plain data (note and friends) rather than from the
-// rules, ac and stages types directly, so the writer can be tested with
-// hand-made inputs and does not change when those packages grow fields.
+// Package note writes the repair note: a Markdown page written next to the
+// sheets by the main job. The writer works on plain data (Note and
+// friends) rather than on the rules, ac and stages types directly, so it
+// can be tested with hand-made inputs and does not change when those
+// packages grow fields; FromResult fills that data from the pipeline's one
+// result.
+package note
 
 import (
 	"bytes"
 	"fmt"
 	"io"
 	"strings"
-	"unicode"
 
 	"pare/graph/value"
 )
 
-// note is everything the repair note says, already turned into text where
+// Note is everything the repair note says, already turned into text where
 // formatting depends on another package (stage figures, positions).
-type note struct {
+type Note struct {
 	Title       string
 	Source      string // netlist file name as the note shows it
 	Version     string
@@ -26,36 +26,37 @@ type note struct {
 	CircuitNote string // the netlist's own `note`
 	Furniture   []string
 	Warnings    []string // transcription warnings, already "file:line: text"
-	Sheets      []noteSheet
+	Sheets      []Sheet
 
-	Before, After partCount
-	Removed       []string    // original refs the reduction took out
-	Merged        []noteMerge // reduced part -> the originals it stands for
+	Before, After PartCount
+	Removed       []string // original refs the reduction took out
+	Merged        []Merge  // reduced part -> the originals it stands for
 	ACGround      []string
-	Gangs         []noteGang
+	Gangs         []Gang
 
-	Stages      []noteStage
+	Stages      []Stage
 	StagesLimit string // set when the stage search stopped early, with why
-	Steps       []noteStep
-	NearMisses  []noteStep // candidates a numeric guard turned down
-	Verify      noteVerify
+	Steps       []Step
+	NearMisses  []Step // candidates a numeric guard turned down
+	Verify      Verify
+	Caution     Caution
 }
 
-type partCount struct{ Parts, Nets int }
+type PartCount struct{ Parts, Nets int }
 
-type noteSheet struct{ File, Alt, Caption string }
+type Sheet struct{ File, Alt, Caption string }
 
-type noteMerge struct {
+type Merge struct {
 	Into string
 	From []string
 }
 
-type noteGang struct {
+type Gang struct {
 	Name  string
 	Parts []string
 }
 
-type noteStage struct {
+type Stage struct {
 	Name, Title, Topology, Family string
 	Parts                         []string
 	Figures                       string // one line, as `pare stages` prints it
@@ -63,7 +64,7 @@ type noteStage struct {
 	Contains                      []string
 }
 
-type noteStep struct {
+type Step struct {
 	N        int
 	Rule     string
 	Removed  []string
@@ -76,26 +77,26 @@ type noteStep struct {
 	Dropped  []string // nets left connecting nothing
 	Why      string
 	Refused  string
-	Where    []notePlace // the parts concerned and where they were written
+	Where    []Place // the parts concerned and where they were written
 }
 
-// notePlace is a part and its netlist position ("file:line", or "" when
+// Place is a part and its netlist position ("file:line", or "" when
 // pare made the part).
-type notePlace struct{ Ref, At string }
+type Place struct{ Ref, At string }
 
-// noteVerify is the outcome of the AC comparison of the original against the
+// Verify is the outcome of the AC comparison of the original against the
 // reduced circuit. Exactly one of Skipped, Err or Pairs describes it.
-type noteVerify struct {
+type Verify struct {
 	Skipped string // why it was not run ("--no-verify"), empty when it ran
 	Err     string // why it could not be completed
 	OK      bool
 	TolDB   float64
 	TolDeg  float64
-	Pairs   []notePair
+	Pairs   []Pair
 	Notes   []string // what could not be compared, and why
 }
 
-type notePair struct {
+type Pair struct {
 	From, To, What string
 	MaxDB, MaxDeg  float64
 	AtHz           float64
@@ -103,9 +104,9 @@ type notePair struct {
 	Error          string // the reduced circuit could not be solved for this pair
 }
 
-// label names the quantity compared, as the verify command prints it:
+// Label names the quantity compared, as the verify command prints it:
 // "V(out)/V(in)" for a transfer, "Z(net)" for an impedance.
-func (p notePair) label() string {
+func (p Pair) Label() string {
 	if p.What == "impedance" {
 		return "Z(" + p.From + ")"
 	}
@@ -113,36 +114,24 @@ func (p notePair) label() string {
 }
 
 // within reports whether the pair is inside the tolerance.
-func (p notePair) within(tolDB, tolDeg float64) bool {
+func (p Pair) within(tolDB, tolDeg float64) bool {
 	return p.Error == "" && p.MaxDB <= tolDB && p.MaxDeg <= tolDeg
 }
 
-// failed reports whether the note must say the verification failed.
-func (v noteVerify) failed() bool { return v.Skipped == "" && (v.Err != "" || !v.OK) }
+// Failed reports whether the note must say the verification failed.
+func (v Verify) Failed() bool { return v.Skipped == "" && (v.Err != "" || !v.OK) }
 
-// cautionLines is the safety text of every repair note, in our own words
-// (common practice, see the project's reference values §9). The last line is
-// about the drawing itself: a reduced diagram is a small-signal picture.
-var cautionLines = []string{
-	"The HT in a valve set is typically 200–400 V DC, more in transmitters: treat it as lethal. Work one-handed, never when wet or standing on a conductive floor.",
-	"Reservoir and filter capacitors stay charged long after switch-off. Discharge them through a resistor and confirm with a meter before you touch anything.",
-	"AC/DC (live-chassis) sets can put mains on the chassis. Power them through an isolation transformer, and never clip an earthed scope ground to an unisolated chassis.",
-	"Bring an old set up slowly (variac or a series lamp), and replace suspect mains-side capacitors and perished wiring first.",
-	"Follow your local electrical codes and licensed practice; this note does not replace them.",
-	"The reduced diagram is small-signal only: it leaves out DC conditions, heaters and supplies. Do not take voltages or safety decisions from it.",
+// Caution is the note's safety block, as graph/safety words it for the set:
+// a bold heading, one item per line, and what the choice rests on.
+type Caution struct {
+	Heading string
+	Lines   []string
+	Basis   string
 }
 
-// cautionHeading opens the caution block; tests look for it.
-const cautionHeading = "Caution: mains-powered and valve equipment can kill."
-
-// sheetCaution is the one line printed on every sheet of the main job (the
-// renderer adds "small-signal only" to a reduced view). It sends the reader
-// to the full caution in the note beside the sheets.
-const sheetCaution = "Caution: mains and valve HT can kill; capacitors stay charged and the chassis may be live. Read the caution in notes.md before working on the set."
-
-// writeNote writes the repair note. Output depends only on n, so the same
+// Write writes the repair note. Output depends only on n, so the same
 // run gives the same bytes.
-func writeNote(w io.Writer, n *note) error {
+func Write(w io.Writer, n *Note) error {
 	var b bytes.Buffer
 	title := n.Title
 	if title == "" {
@@ -152,11 +141,7 @@ func writeNote(w io.Writer, n *note) error {
 	fmt.Fprintf(&b, "Made by pare %s from `%s` at reduction level **%s**, symbols %s.\n\n",
 		n.Version, mdCode(n.Source), mdText(n.Level), mdText(n.Symbols))
 
-	fmt.Fprintf(&b, "> **%s**\n>\n", cautionHeading)
-	for _, l := range cautionLines {
-		fmt.Fprintf(&b, "> - %s\n", l)
-	}
-	b.WriteString("\n")
+	writeCaution(&b, n.Caution)
 
 	if n.CircuitNote != "" {
 		fmt.Fprintf(&b, "%s\n\n", mdText(n.CircuitNote))
@@ -180,27 +165,40 @@ func writeNote(w io.Writer, n *note) error {
 	return err
 }
 
+// writeCaution puts the caution before anything technical: a reader who
+// stops early has read it.
+func writeCaution(b *bytes.Buffer, c Caution) {
+	fmt.Fprintf(b, "> **%s**\n>\n", mdText(c.Heading))
+	for _, l := range c.Lines {
+		fmt.Fprintf(b, "> - %s\n", mdText(l))
+	}
+	if c.Basis != "" {
+		fmt.Fprintf(b, ">\n> *%s*\n", mdText(c.Basis))
+	}
+	b.WriteString("\n")
+}
+
 // writeVerdict puts the one thing a reader must not miss at the top: whether
 // the reduced drawing was proven to behave like the original.
-func writeVerdict(b *bytes.Buffer, n *note) {
+func writeVerdict(b *bytes.Buffer, n *Note) {
 	v := n.Verify
 	switch {
 	case v.Skipped != "":
 		fmt.Fprintf(b, "**Verification was not run** (%s): the reduced sheet has not been checked against the original by AC analysis.\n\n", mdText(v.Skipped))
 	case v.Err != "":
 		b.WriteString("**Verification FAILED**: the AC comparison could not be completed, so the reduced sheet is unproven. Use the faded sheet, not the reduced one, until this is resolved (see Verification below).\n\n")
-	case v.failed():
+	case v.Failed():
 		b.WriteString("**Verification FAILED**: the reduced circuit does not match the original within tolerance. Use the faded sheet, not the reduced one, until this is resolved (see Verification below).\n\n")
 	default:
 		fmt.Fprintf(b, "**Verification passed**: the reduced circuit matches the original within %s dB and %s° at every port pair checked.\n\n",
-			num(v.TolDB), num(v.TolDeg))
+			Num(v.TolDB), Num(v.TolDeg))
 	}
 }
 
 // writeFindings lists, right under the verdict, the figures pare found
 // questionable (an oscillator that misses the band, an IF can tuned off the
 // IF, poor tracking): what a repairer wants to see before any table.
-func writeFindings(b *bytes.Buffer, n *note) {
+func writeFindings(b *bytes.Buffer, n *Note) {
 	var lines []string
 	for _, s := range n.Stages {
 		for _, f := range s.Flags {
@@ -215,7 +213,7 @@ func writeFindings(b *bytes.Buffer, n *note) {
 	b.WriteString("\n\n")
 }
 
-func writeSheets(b *bytes.Buffer, n *note) {
+func writeSheets(b *bytes.Buffer, n *Note) {
 	if len(n.Sheets) == 0 {
 		return
 	}
@@ -228,7 +226,7 @@ func writeSheets(b *bytes.Buffer, n *note) {
 	}
 }
 
-func writeStages(b *bytes.Buffer, n *note) {
+func writeStages(b *bytes.Buffer, n *Note) {
 	b.WriteString("## Stages\n\n")
 	if n.StagesLimit != "" {
 		fmt.Fprintf(b, "The stage search stopped early (%s); the list below may be incomplete.\n\n", mdText(n.StagesLimit))
@@ -257,7 +255,7 @@ func writeStages(b *bytes.Buffer, n *note) {
 	b.WriteString("\n")
 }
 
-func writeParts(b *bytes.Buffer, n *note) {
+func writeParts(b *bytes.Buffer, n *Note) {
 	b.WriteString("## Parts before → after\n\n")
 	b.WriteString("| | parts | nets |\n|---|---|---|\n")
 	fmt.Fprintf(b, "| original | %d | %d |\n", n.Before.Parts, n.Before.Nets)
@@ -280,7 +278,7 @@ func writeParts(b *bytes.Buffer, n *note) {
 	}
 }
 
-func writeSteps(b *bytes.Buffer, n *note) {
+func writeSteps(b *bytes.Buffer, n *Note) {
 	b.WriteString("## Reduction log\n\n")
 	if len(n.Steps) == 0 {
 		b.WriteString("No step applied: the circuit was already as small as this level makes it.\n\n")
@@ -310,7 +308,7 @@ func writeSteps(b *bytes.Buffer, n *note) {
 }
 
 // stepLine is one log line: "N. **rule**: what; why (file:line)".
-func stepLine(s noteStep) string {
+func stepLine(s Step) string {
 	var what []string
 	if len(s.Merged) > 0 {
 		m := "merged " + codeList(s.Merged)
@@ -374,7 +372,7 @@ func stepLine(s noteStep) string {
 	return l.String()
 }
 
-func writeVerify(b *bytes.Buffer, n *note) {
+func writeVerify(b *bytes.Buffer, n *Note) {
 	v := n.Verify
 	b.WriteString("## Verification\n\n")
 	switch {
@@ -390,7 +388,7 @@ func writeVerify(b *bytes.Buffer, n *note) {
 		verdict = "**Failed**"
 	}
 	fmt.Fprintf(b, "%s against a tolerance of %s dB and %s°: the original and the reduced circuit were swept by small-signal AC analysis over each pair's band, and the worst deviation is listed.\n\n",
-		verdict, num(v.TolDB), num(v.TolDeg))
+		verdict, Num(v.TolDB), Num(v.TolDeg))
 	if len(v.Pairs) == 0 {
 		b.WriteString("No port pair was compared.\n\n")
 	} else {
@@ -404,11 +402,11 @@ func writeVerify(b *bytes.Buffer, n *note) {
 			case !p.within(v.TolDB, v.TolDeg):
 				res = "**out of tolerance**"
 			}
-			dB, deg, at := num(p.MaxDB), num(p.MaxDeg), value.Format(p.AtHz, value.Hertz, value.Symbol)
+			dB, deg, at := Num(p.MaxDB), Num(p.MaxDeg), value.Format(p.AtHz, value.Hertz, value.Symbol)
 			if p.Error != "" {
 				dB, deg, at = "–", "–", "–"
 			}
-			fmt.Fprintf(b, "| `%s` | %s | %s | %s | %s | %s | %s |\n", mdCode(p.label()), mdCell(p.What),
+			fmt.Fprintf(b, "| `%s` | %s | %s | %s | %s | %s | %s |\n", mdCode(p.Label()), mdCell(p.What),
 				dB, deg, at, orDash(mdCell(p.Setting)), res)
 		}
 		b.WriteString("\n")
@@ -421,7 +419,7 @@ func writeVerify(b *bytes.Buffer, n *note) {
 	}
 }
 
-func writeWarnings(b *bytes.Buffer, n *note) {
+func writeWarnings(b *bytes.Buffer, n *Note) {
 	if len(n.Warnings) == 0 {
 		return
 	}
@@ -431,86 +429,4 @@ func writeWarnings(b *bytes.Buffer, n *note) {
 		fmt.Fprintf(b, "- %s\n", mdText(w))
 	}
 	b.WriteString("\n")
-}
-
-// num prints a deviation or tolerance with at most three decimals and no
-// trailing zeros: "0.5", "0.012", "5".
-func num(v float64) string {
-	s := fmt.Sprintf("%.3f", v)
-	s = strings.TrimRight(s, "0")
-	s = strings.TrimSuffix(s, ".")
-	if s == "-0" {
-		s = "0"
-	}
-	return s
-}
-
-func orDash(s string) string {
-	if s == "" {
-		return "–"
-	}
-	return s
-}
-
-// codeList writes refs or net names as code spans, so underscores in names
-// like osc_g are never read as emphasis.
-func codeList(items []string) string {
-	out := make([]string, len(items))
-	for i, s := range items {
-		out[i] = "`" + mdCode(s) + "`"
-	}
-	return strings.Join(out, ", ")
-}
-
-// mdCode keeps a code span intact: a backtick inside would end it.
-func mdCode(s string) string { return strings.ReplaceAll(s, "`", "'") }
-
-// mdText escapes the characters that would turn free text (a rule's
-// justification, a title) into markup: emphasis, links, HTML, headings.
-// An underscore inside a word (rf_tank) starts no emphasis in CommonMark, so
-// it is left alone and the raw note stays readable.
-func mdText(s string) string {
-	var b strings.Builder
-	rs := []rune(s)
-	for i, r := range rs {
-		switch r {
-		case '\\', '*', '`', '[', ']', '#':
-			b.WriteRune('\\')
-			b.WriteRune(r)
-		case '_':
-			if i > 0 && i+1 < len(rs) && isWordRune(rs[i-1]) && isWordRune(rs[i+1]) {
-				b.WriteRune(r)
-			} else {
-				b.WriteString(`\_`)
-			}
-		case '<', '>':
-			// A backslash escape keeps the raw note readable ("|Xc| \> 0.1·|Z|")
-			// and, unlike a bare '<', never opens an HTML tag.
-			b.WriteRune('\\')
-			b.WriteRune(r)
-		case '\n', '\r':
-			b.WriteRune(' ')
-		default:
-			b.WriteRune(r)
-		}
-	}
-	return b.String()
-}
-
-func isWordRune(r rune) bool { return unicode.IsLetter(r) || unicode.IsDigit(r) }
-
-// mdCell is mdText for a table cell, where a bar would start a new column.
-func mdCell(s string) string { return strings.ReplaceAll(mdText(s), "|", `\|`) }
-
-// figureLabel turns a figure key into the words a note prints before it:
-// "f_min_hz" -> "f min", "q_loaded" -> "q loaded". The unit is dropped
-// because FigureText prints it with the number.
-func figureLabel(key string) string {
-	for _, suffix := range []string{"_hz", "_ohm", "_s", "_f", "_h", "_v", "_a", "_db", "_deg"} {
-		if strings.HasSuffix(key, suffix) && len(key) > len(suffix) {
-			key = strings.TrimSuffix(key, suffix)
-			break
-		}
-	}
-	return strings.ReplaceAll(key, "_", " ")
 }

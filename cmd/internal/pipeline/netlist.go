@@ -1,0 +1,93 @@
+package pipeline
+
+import (
+	"bytes"
+	"fmt"
+	"strings"
+
+	"pare/graph"
+	"pare/rules"
+	"pare/rules/stages"
+)
+
+// ReducedNetlist is the reduced circuit as a netlist file, marked at its top
+// as a reduction so nobody mistakes it for the set's wiring. It is loaded
+// back before it is handed out: a reduced netlist that does not load is a
+// bug in pare, not in the input, and the user gets a message, not a broken
+// file.
+func (r *Result) ReducedNetlist() ([]byte, error) {
+	var b bytes.Buffer
+	if err := graph.Write(&b, annotated(r.Reduced, r.Level)); err != nil {
+		return nil, fmt.Errorf("writing the reduced netlist: %w", err)
+	}
+	// %v, not %w: the positions point into the generated file, not the
+	// user's.
+	if _, err := graph.Parse("reduced.toml", b.Bytes()); err != nil {
+		return nil, fmt.Errorf("internal error, please report: the reduced netlist does not load back: %v", err)
+	}
+	return b.Bytes(), nil
+}
+
+// annotated marks the reduced netlist as such above its first key.
+func annotated(c *graph.Circuit, lvl rules.Level) *graph.Circuit {
+	d := c.Clone()
+	if d.Comments == nil {
+		d.Comments = map[string]graph.Comment{}
+	}
+	first := "title"
+	if d.Title == "" {
+		first = "parts"
+		if d.Note != "" {
+			first = "note"
+		} else if d.Band.Max > 0 {
+			first = "band"
+		}
+	}
+	cm := d.Comments[first]
+	marker := " Reduced by pare (level " + lvl.String() + "): small-signal equivalent only, not a wiring diagram."
+	var above []string
+	for _, a := range cm.Above {
+		if !strings.HasPrefix(a, " Reduced by pare (") {
+			above = append(above, a)
+		}
+	}
+	cm.Above = append([]string{marker}, above...)
+	d.Comments[first] = cm
+	return d
+}
+
+// Unmatched is a part of the reduced circuit in no stage, with the reason.
+type Unmatched struct {
+	Ref    string `json:"ref"`
+	Reason string `json:"reason"`
+}
+
+// What a part in no stage is told; a resistor to AC ground that no stage
+// touches gets the second reason (one that does joins the stage).
+const (
+	ReasonUnmatched = "not part of a known topology"
+	ReasonLoneShunt = "resistor to AC ground (grid leak, load or return) beside no stage"
+)
+
+// Unmatched lists the reduced circuit's parts that no stage took, in ref
+// order.
+func (r *Result) Unmatched() []Unmatched {
+	var out []Unmatched
+	acg := map[string]bool{}
+	for _, n := range r.Log.ACGround {
+		acg[n] = true
+	}
+	reduced := r.Reduced
+	for _, ref := range stages.Unmatched(reduced, r.Stages) {
+		reason := ReasonUnmatched
+		if p := reduced.Part(ref); p != nil && p.Kind == graph.Resistor && len(p.Pins) == 2 {
+			g0 := acg[p.Pins[0].Net] || reduced.RoleOf(p.Pins[0].Net).IsACGround()
+			g1 := acg[p.Pins[1].Net] || reduced.RoleOf(p.Pins[1].Net).IsACGround()
+			if g0 != g1 {
+				reason = ReasonLoneShunt
+			}
+		}
+		out = append(out, Unmatched{Ref: ref, Reason: reason})
+	}
+	return out
+}

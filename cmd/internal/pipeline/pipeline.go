@@ -1,0 +1,229 @@
+// Package pipeline runs pare's one job: load a netlist, check it, reduce it
+// (each step optionally proven by AC analysis), compare the reduced circuit
+// with the original, recognise the stages and lay out the sheets. Every
+// subcommand asks it for the phases it needs and prints from the one Result
+// it returns, so the sheet `pare draw` writes and the sheet the main job
+// writes are made by the same code from the same values.
+//
+// The pipeline never prints and never writes files; the commands do. Its
+// errors carry the phase they come from, so each command can word them as
+// it always has.
+package pipeline
+
+import (
+	"errors"
+	"fmt"
+	"path/filepath"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/safety"
+	"pare/render"
+	"pare/rules"
+	"pare/rules/stages"
+)
+
+// Phase is one step of the pipeline, in the order they run.
+type Phase int
+
+// Phases. Options.Until names the last one to run; each runs only after
+// every phase before it.
+const (
+	PhaseLoad   Phase = iota + 1 // read and parse the netlist
+	PhaseCheck                   // transcription warnings (graph.Check)
+	PhaseReduce                  // the rewrite rules, with the step checks asked for
+	PhaseVerify                  // the AC comparison of the reduced circuit with the original
+	PhaseStages                  // stage recognition on the reduced circuit
+	PhaseSheets                  // sheets laid out and drawn as SVG
+)
+
+var phaseNames = [...]string{PhaseLoad: "load", PhaseCheck: "check", PhaseReduce: "reduce",
+	PhaseVerify: "verify", PhaseStages: "stages", PhaseSheets: "sheets"}
+
+func (p Phase) String() string {
+	if p > 0 && int(p) < len(phaseNames) {
+		return phaseNames[p]
+	}
+	return fmt.Sprintf("Phase(%d)", int(p))
+}
+
+// StepCheck says how each tentative rewrite step is proven.
+type StepCheck int
+
+// Step checks.
+const (
+	// NoStepCheck applies every step the rules offer.
+	NoStepCheck StepCheck = iota
+	// AgainstPrevious compares the circuit after a step with the one
+	// before it and refuses the step when they differ beyond tolerance
+	// (the main job, `reduce --check`).
+	AgainstPrevious
+	// AgainstOriginal compares the circuit after each step with the
+	// original, so small changes cannot add up unseen, and keeps the worst
+	// pair of every step (`verify --steps`).
+	AgainstOriginal
+)
+
+// Options says what to run. The zero value of Until runs every phase.
+type Options struct {
+	Path  string // the netlist file
+	Until Phase  // last phase to run; 0 means PhaseSheets
+
+	// Reduction.
+	Level       rules.Level
+	Focus       []string
+	BypassRatio float64 // 0: rules.DefaultRatio
+	StepCheck   StepCheck
+
+	// Verify runs the final comparison in PhaseVerify; Compare sets its
+	// tolerances, sweep density and device settings, and those of the
+	// step checks.
+	Verify  bool
+	Compare ac.CompareOptions
+
+	// Stage recognition: extra patterns and the search budget (0: the
+	// default).
+	PatternDir string
+	StageLimit int
+
+	// Sheets to draw in PhaseSheets, in this order, in this symbol style.
+	Views []render.View
+	Style render.Style
+}
+
+// Error is a failure of one phase. Its message is the underlying error's,
+// unchanged, so a command prints what it printed before the pipeline
+// existed; errors.As still finds a graph.ErrorList inside.
+type Error struct {
+	Phase Phase
+	View  render.View // the sheet that failed, for PhaseSheets
+	Err   error
+}
+
+func (e *Error) Error() string { return e.Err.Error() }
+func (e *Error) Unwrap() error { return e.Err }
+
+// Result is everything the pipeline made of one netlist. Fields of phases
+// that did not run are zero.
+type Result struct {
+	Path    string
+	Title   string // the netlist's title, or its file name
+	Circuit *graph.Circuit
+	// Caution is chosen from the original circuit, before any reduction
+	// takes its supplies and heaters away.
+	Caution  safety.Caution
+	Warnings graph.ErrorList
+
+	Level   rules.Level
+	Reduced *graph.Circuit
+	Log     *rules.Log
+	// Steps holds, under AgainstOriginal, the comparison after each step
+	// in log order; StepErr the first step comparison that could not run.
+	Steps   []Step
+	StepErr error
+
+	// Verified is set when the final comparison ran; Report is its
+	// outcome, or CompareErr why it could not be made.
+	Verified   bool
+	Compare    ac.CompareOptions
+	Report     *ac.Report
+	CompareErr error
+
+	Stages []stages.Stage
+	// StagesLimit is set when the stage search ran out of budget: the
+	// stages found so far are sound, the list may be short.
+	StagesLimit string
+
+	Sheets []Sheet
+}
+
+// Run runs the phases up to o.Until. On an error the result holds what the
+// phases before the failing one made (the warnings of a circuit that does
+// not reduce, say).
+func Run(o Options) (*Result, error) {
+	until := o.Until
+	if until == 0 {
+		until = PhaseSheets
+	}
+	r := &Result{Path: o.Path, Level: o.Level, Compare: o.Compare}
+	c, err := graph.LoadFile(o.Path)
+	if err != nil {
+		return r, &Error{Phase: PhaseLoad, Err: err}
+	}
+	r.Circuit, r.Title, r.Caution = c, c.Title, safety.For(c)
+	if r.Title == "" {
+		r.Title = filepath.Base(o.Path)
+	}
+	phases := []struct {
+		p  Phase
+		fn func(*Result, Options) error
+	}{
+		{PhaseCheck, (*Result).check},
+		{PhaseReduce, (*Result).reduce},
+		{PhaseVerify, (*Result).verify},
+		{PhaseStages, (*Result).recognise},
+		{PhaseSheets, (*Result).drawSheets},
+	}
+	for _, ph := range phases {
+		if ph.p > until {
+			break
+		}
+		if err := ph.fn(r, o); err != nil {
+			return r, err
+		}
+	}
+	return r, nil
+}
+
+func (r *Result) check(Options) error {
+	r.Warnings = graph.Check(r.Circuit)
+	return nil
+}
+
+// reduce is the one call of the rewrite engine in pare's commands.
+func (r *Result) reduce(o Options) error {
+	ro := rules.Options{Level: o.Level, Focus: o.Focus, BypassRatio: o.BypassRatio}
+	if o.StepCheck != NoStepCheck {
+		ro.Check = r.stepChecker(o.StepCheck)
+	}
+	// Reduce promises not to touch its input; the clone keeps the original
+	// pristine for the comparison and the faded sheet even if it slipped.
+	reduced, log, err := rules.Reduce(r.Circuit.Clone(), ro)
+	if err != nil {
+		return &Error{Phase: PhaseReduce, Err: err}
+	}
+	if log == nil {
+		log = &rules.Log{Level: o.Level}
+	}
+	r.Reduced, r.Log = reduced, log
+	numberSteps(r.Steps, log.Steps)
+	return nil
+}
+
+func (r *Result) verify(o Options) error {
+	if !o.Verify {
+		return nil
+	}
+	r.Verified = true
+	r.Report, r.CompareErr = r.compare(r.Circuit, r.Reduced)
+	return nil
+}
+
+// recognise is the one call of the stage finder in pare's commands.
+func (r *Result) recognise(o Options) error {
+	found, err := stages.Find(r.Reduced, stages.Options{
+		PatternDir: o.PatternDir, Full: r.Circuit, ACGround: r.Log.ACGround, Limit: o.StageLimit})
+	if errors.Is(err, stages.ErrSearchLimit) {
+		r.StagesLimit = err.Error()
+	} else if err != nil {
+		return &Error{Phase: PhaseStages, Err: err}
+	}
+	r.Stages = found
+	return nil
+}
+
+// compare is the one call of the AC comparison in pare's commands: the
+// final proof and every step check go through it.
+func (r *Result) compare(orig, reduced *graph.Circuit) (*ac.Report, error) {
+	return ac.Compare(orig, reduced, r.Compare)
+}

@@ -1,0 +1,179 @@
+package pipeline
+
+import (
+	"bytes"
+	"fmt"
+	"sort"
+	"strings"
+
+	"pare/cmd/internal/figtext"
+	"pare/graph"
+	"pare/graph/value"
+	"pare/render"
+	"pare/rules"
+	"pare/rules/stages"
+)
+
+// Sheet is one drawn view: what was drawn and the SVG it gave.
+type Sheet struct {
+	View  render.View
+	Sheet *render.Sheet
+	SVG   []byte
+}
+
+// SheetFor returns the drawn sheet of a view, or nil if it was not asked for.
+func (r *Result) SheetFor(v render.View) *Sheet {
+	for i := range r.Sheets {
+		if r.Sheets[i].View == v {
+			return &r.Sheets[i]
+		}
+	}
+	return nil
+}
+
+func (r *Result) drawSheets(o Options) error {
+	cfg := render.Config{Style: o.Style}
+	for _, v := range o.Views {
+		s := r.Sheet(v)
+		var b bytes.Buffer
+		if err := cfg.Fprint(&b, s); err != nil {
+			return &Error{Phase: PhaseSheets, View: v, Err: err}
+		}
+		r.Sheets = append(r.Sheets, Sheet{View: v, Sheet: s, SVG: b.Bytes()})
+	}
+	return nil
+}
+
+// Sheet fills the sheet of a view from the result: the one place a sheet is
+// assembled. The reduced view shows the reduced circuit; the full and faded
+// views the original, the faded one with the removed parts faded and the
+// merged ones marked. Stage frames hold the parts each stage stands for on
+// the circuit drawn.
+func (r *Result) Sheet(v render.View) *render.Sheet {
+	c, reduced := r.Circuit, r.Reduced
+	s := &render.Sheet{
+		Title: r.Title, View: v, Caution: r.Caution.Sheet(v == render.Reduced),
+		Furniture: Furniture(c, r.Stages, r.Level),
+	}
+	switch v {
+	case render.Reduced:
+		s.Circuit = reduced
+		s.Frames = stageFrames(r.Stages, reduced, nil)
+	case render.Full:
+		s.Circuit = c
+		s.Frames = stageFrames(r.Stages, reduced, c)
+	case render.Faded:
+		s.Circuit = c
+		s.Faded, s.Merged = FadedAndMerged(c, reduced)
+		s.Frames = stageFrames(r.Stages, reduced, c)
+	}
+	return s
+}
+
+// FadedAndMerged compares the original with the reduced circuit through the
+// reduced parts' origins: an original part no reduced part stands for was
+// removed (faded); one that a reduced part of another ref stands for was
+// merged into it.
+func FadedAndMerged(orig, reduced *graph.Circuit) (map[string]bool, map[string]string) {
+	kept := map[string]bool{}
+	merged := map[string]string{}
+	for _, rp := range reduced.Parts {
+		for _, o := range rp.Origins() {
+			kept[o] = true
+			if o != rp.Ref {
+				merged[o] = rp.Ref
+			}
+		}
+	}
+	faded := map[string]bool{}
+	for _, p := range orig.Parts {
+		if !kept[p.Ref] {
+			faded[p.Ref] = true
+		}
+	}
+	return faded, merged
+}
+
+// stageFrames makes one frame per top-level stage (sub-stages would draw
+// frames inside frames). On a sheet of the original circuit (full not nil) a
+// frame holds the original parts its reduced parts stand for.
+func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Frame {
+	sub := map[string]bool{}
+	for _, s := range found {
+		for _, c := range s.Contains {
+			sub[c] = true
+		}
+	}
+	var frames []render.Frame
+	for _, s := range found {
+		if sub[s.Name] {
+			continue
+		}
+		set := map[string]bool{}
+		for _, ref := range s.Parts {
+			rp := reduced.Part(ref)
+			switch {
+			case full == nil && rp != nil:
+				set[ref] = true
+			case full != nil && rp != nil:
+				for _, o := range rp.Origins() {
+					if full.Part(o) != nil {
+						set[o] = true
+					}
+				}
+			case full != nil && full.Part(ref) != nil:
+				set[ref] = true
+			}
+		}
+		if len(set) == 0 {
+			continue
+		}
+		parts := make([]string, 0, len(set))
+		for ref := range set {
+			parts = append(parts, ref)
+		}
+		sort.Strings(parts)
+		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: figtext.Frame(s.Figures, 2), Parts: parts})
+	}
+	return frames
+}
+
+// Furniture is the sheet's information block, which the note repeats under
+// its title: regions, named frequencies, tuning ranges, switch positions and
+// the reduction level.
+func Furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string {
+	var lines []string
+	for _, r := range c.Regions {
+		if r.Band.Max > 0 {
+			lines = append(lines, "Region "+r.Name+": "+value.FormatRange(r.Band, value.Hertz, value.Symbol))
+		}
+	}
+	names := make([]string, 0, len(c.Freqs))
+	for k := range c.Freqs {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	for _, k := range names {
+		label := k
+		if strings.EqualFold(k, "if") {
+			label = "IF"
+		}
+		lines = append(lines, label+" "+value.Format(c.Freqs[k], value.Hertz, value.Symbol))
+	}
+	for _, s := range found {
+		lo, okLo := s.Figures["f_min_hz"]
+		hi, okHi := s.Figures["f_max_hz"]
+		if okLo && okHi && hi > lo {
+			lines = append(lines, "Tuning "+s.Name+": "+value.FormatRange(value.Range{Min: lo, Max: hi}, value.Hertz, value.Symbol))
+		}
+	}
+	// A reduced sheet holds for one setting of each switch only (the
+	// reduction replaces a switch by the contacts closed in its set
+	// position), so the sheet says which.
+	for _, p := range c.Parts {
+		if p.Kind == graph.Switch {
+			lines = append(lines, fmt.Sprintf("Switch %s at position %d of %d", p.Ref, int(p.Set), len(p.Closes)))
+		}
+	}
+	return append(lines, "Reduction level "+lvl.String())
+}

@@ -1,0 +1,63 @@
+package pipeline
+
+import (
+	"strings"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/rules"
+)
+
+// Step is the comparison with the original after one tentative rewrite
+// step: its worst pair, and whether the step was kept.
+type Step struct {
+	N     int      `json:"n"`
+	Rule  string   `json:"rule"`
+	Refs  []string `json:"refs,omitempty"`
+	Worst *ac.Pair `json:"worst,omitempty"` // nil when nothing was compared
+	OK    bool     `json:"ok"`
+}
+
+// stepChecker is the engine's Check hook for the chosen mode. A step that
+// cannot be compared or that breaks the tolerance is refused; the engine
+// logs why.
+func (r *Result) stepChecker(mode StepCheck) func(before, after *graph.Circuit, st *rules.Step) error {
+	return func(before, after *graph.Circuit, st *rules.Step) error {
+		ref := before
+		if mode == AgainstOriginal {
+			ref = r.Circuit
+		}
+		rep, err := r.compare(ref, after)
+		if err != nil {
+			if r.StepErr == nil {
+				r.StepErr = err
+			}
+			return err
+		}
+		w, has := rep.Worst()
+		if mode == AgainstOriginal {
+			ck := Step{Rule: st.Rule, Refs: st.Refs, OK: rep.OK}
+			if has {
+				ck.Worst = &w
+			}
+			r.Steps = append(r.Steps, ck)
+		}
+		if rep.OK {
+			return nil
+		}
+		return &ac.ToleranceError{Pair: w, TolDB: rep.TolDB, TolDeg: rep.TolDeg}
+	}
+}
+
+// numberSteps gives each check the number of its step in the log. The
+// engine calls Check once for every step it logs, applied or refused, in
+// log order; a step the log holds without a check (none today) is skipped.
+func numberSteps(checks []Step, steps []rules.Step) {
+	k := 0
+	for _, s := range steps {
+		if k < len(checks) && checks[k].Rule == s.Rule && strings.Join(checks[k].Refs, ",") == strings.Join(s.Refs, ",") {
+			checks[k].N = s.N
+			k++
+		}
+	}
+}
