@@ -302,3 +302,26 @@ C2 = { c = "12p..365p", pins = ["tank", "gnd"] }
 	}
 	t.Errorf("furniture %q lacks %q", lines, want)
 }
+
+// TestDrawMatchesMainJob: `pare draw` and the main job draw their sheets
+// from the one pipeline, so for every example the reduced and faded sheets
+// of both are the same bytes, and so is the committed example sheet.
+func TestDrawMatchesMainJob(t *testing.T) {
+	for _, ex := range examples(t) {
+		job := cachedJob(t, ex)
+		for _, sheet := range []struct {
+			view, file string
+		}{{"reduced", fileReducedSheet}, {"faded", fileFadedSheet}} {
+			code, drawn, errs := runJob(t, "draw", ex, "--view", sheet.view, "-o", "-")
+			if code != exitOK {
+				t.Fatalf("draw %s --view %s: exit %d: %s", ex, sheet.view, code, errs)
+			}
+			if written := readString(t, filepath.Join(job.dir, sheet.file)); drawn != written {
+				t.Errorf("%s: pare draw --view %s differs from the main job's %s", filepath.Base(ex), sheet.view, sheet.file)
+			}
+			if committed := readString(t, strings.TrimSuffix(ex, ".toml")+"."+sheet.view+".svg"); drawn != committed {
+				t.Errorf("%s: the %s sheet differs from the committed example sheet", filepath.Base(ex), sheet.view)
+			}
+		}
+	}
+}

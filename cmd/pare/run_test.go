@@ -560,17 +560,6 @@ func TestVerifySummaryWorst(t *testing.T) {
 	}
 }
 
-// verifyOf must carry a failed comparison through, so the job exits 1.
-func TestVerifyOfFailed(t *testing.T) {
-	rep := &ac.Report{OK: false, TolDB: 0.5, TolDeg: 5, Pairs: []ac.Pair{{From: "a", To: "b", MaxDB: 3, What: "transfer"}}}
-	if v := note.VerifyOf(rep, nil, ac.CompareOptions{}); !v.Failed() {
-		t.Error("a failed report did not make a failed verification")
-	}
-	if v := note.VerifyOf(nil, errors.New("no inputs"), ac.CompareOptions{}); !v.Failed() || v.Err == "" {
-		t.Error("a comparison error did not make a failed verification")
-	}
-}
-
 func readBytes(t *testing.T, p string) []byte {
 	t.Helper()
 	b, err := os.ReadFile(p)
@@ -605,28 +594,5 @@ func BenchmarkMainJob(b *testing.B) {
 				}
 			}
 		})
-	}
-}
-
-// TestDrawMatchesMainJob: `pare draw` and the main job draw their sheets
-// from the one pipeline, so for every example the reduced and faded sheets
-// of both are the same bytes, and so is the committed example sheet.
-func TestDrawMatchesMainJob(t *testing.T) {
-	for _, ex := range examples(t) {
-		job := cachedJob(t, ex)
-		for _, sheet := range []struct {
-			view, file string
-		}{{"reduced", fileReducedSheet}, {"faded", fileFadedSheet}} {
-			code, drawn, errs := runJob(t, "draw", ex, "--view", sheet.view, "-o", "-")
-			if code != exitOK {
-				t.Fatalf("draw %s --view %s: exit %d: %s", ex, sheet.view, code, errs)
-			}
-			if written := readString(t, filepath.Join(job.dir, sheet.file)); drawn != written {
-				t.Errorf("%s: pare draw --view %s differs from the main job's %s", filepath.Base(ex), sheet.view, sheet.file)
-			}
-			if committed := readString(t, strings.TrimSuffix(ex, ".toml")+"."+sheet.view+".svg"); drawn != committed {
-				t.Errorf("%s: the %s sheet differs from the committed example sheet", filepath.Base(ex), sheet.view)
-			}
-		}
 	}
 }

@@ -99,20 +99,7 @@ func runStages(e *env, o *stagesOpts, args []string) int {
 		code = exitFound
 	}
 	if o.json {
-		out := stagesJSON{Title: res.Circuit.Title, Level: lvl.String(), Stages: res.Stages, Unmatched: unmatched,
-			Warning: res.StagesLimit, Caution: caution}
-		if out.Stages == nil {
-			out.Stages = []stages.Stage{}
-		}
-		if out.Unmatched == nil {
-			out.Unmatched = []pipeline.Unmatched{}
-		}
-		err := writeOutput(e, "-", func(w io.Writer) error {
-			enc := json.NewEncoder(w)
-			enc.SetIndent("", "  ")
-			return enc.Encode(out)
-		})
-		if err != nil {
+		if err := printStagesJSON(e, res, unmatched, caution); err != nil {
 			fmt.Fprintf(e.stderr, "pare stages: %v\n", err)
 			return exitBad
 		}
@@ -127,6 +114,23 @@ func runStages(e *env, o *stagesOpts, args []string) int {
 		return exitBad
 	}
 	return code
+}
+
+// printStagesJSON prints {"stages": [...]} with figures in SI base units.
+func printStagesJSON(e *env, res *pipeline.Result, unmatched []pipeline.Unmatched, caution string) error {
+	out := stagesJSON{Title: res.Circuit.Title, Level: res.Level.String(), Stages: res.Stages, Unmatched: unmatched,
+		Warning: res.StagesLimit, Caution: caution}
+	if out.Stages == nil {
+		out.Stages = []stages.Stage{}
+	}
+	if out.Unmatched == nil {
+		out.Unmatched = []pipeline.Unmatched{}
+	}
+	return writeOutput(e, "-", func(w io.Writer) error {
+		enc := json.NewEncoder(w)
+		enc.SetIndent("", "  ")
+		return enc.Encode(out)
+	})
 }
 
 func printStages(w io.Writer, res *pipeline.Result, unmatched []pipeline.Unmatched, caution string) {

@@ -82,34 +82,70 @@ func runSweep(e *env, o *sweepOpts, args []string) int {
 	if c == nil {
 		return code
 	}
-	from, to := o.from, o.to
-	if from == "" {
-		if len(c.Inputs) == 0 {
-			fmt.Fprintf(e.stderr, "pare sweep: %s declares no inputs: give --from NET\n", path)
-			return exitBad
-		}
-		from = c.Inputs[0]
+	sw, msg := sweepSpan(c, path, o)
+	if msg != "" {
+		fmt.Fprintf(e.stderr, "pare sweep: %s\n", msg)
+		return exitBad
 	}
-	if to == "" && !o.impedance {
-		if len(c.Outputs) == 0 {
-			fmt.Fprintf(e.stderr, "pare sweep: %s declares no outputs: give --to NET\n", path)
-			return exitBad
+	if o.impedance {
+		sw.h, err = ac.Impedance(c, sw.from, sw.freqs, setting)
+	} else {
+		sw.h, err = ac.Transfer(c, sw.from, sw.to, sw.freqs, setting)
+	}
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare sweep: %s: %v\n", path, err)
+		return exitBad
+	}
+	var b bytes.Buffer
+	if o.csv {
+		sweepCSV(&b, sw, o.impedance)
+	} else {
+		sweepTable(&b, c, path, sw, o)
+		fmt.Fprintln(&b, caution.Report(safety.SweepModel))
+	}
+	if _, err := e.stdout.Write(b.Bytes()); err != nil {
+		fmt.Fprintf(e.stderr, "pare sweep: %v\n", err)
+		return exitBad
+	}
+	return exitOK
+}
+
+// sweep is what one sweep drives, observes and measures.
+type sweep struct {
+	from, to string
+	freqs    []float64
+	h        []complex128
+}
+
+// sweepSpan picks the nets (the first input and output unless given) and
+// the frequencies: --band, or the bands of the driven net. A non-empty
+// message says what is missing.
+func sweepSpan(c *graph.Circuit, path string, o *sweepOpts) (*sweep, string) {
+	sw := &sweep{from: o.from, to: o.to}
+	if sw.from == "" {
+		if len(c.Inputs) == 0 {
+			return nil, path + " declares no inputs: give --from NET"
 		}
-		to = c.Outputs[0]
+		sw.from = c.Inputs[0]
+	}
+	if sw.to == "" && !o.impedance {
+		if len(c.Outputs) == 0 {
+			return nil, path + " declares no outputs: give --to NET"
+		}
+		sw.to = c.Outputs[0]
 	}
 	var band value.Range
 	if o.band != "" {
+		var err error
 		band, err = value.ParseRange(o.band, value.Hertz)
 		if err != nil || band.Min <= 0 || band.Max <= band.Min {
-			fmt.Fprintf(e.stderr, "pare sweep: --band %q: give LOW..HIGH in hertz, e.g. 400k..2M\n", o.band)
-			return exitBad
+			return nil, fmt.Sprintf("--band %q: give LOW..HIGH in hertz, e.g. 400k..2M", o.band)
 		}
 	} else {
-		if c.Net(from) == nil {
-			fmt.Fprintf(e.stderr, "pare sweep: %s: no net %q\n", path, from)
-			return exitBad
+		if c.Net(sw.from) == nil {
+			return nil, fmt.Sprintf("%s: no net %q", path, sw.from)
 		}
-		for i, b := range ac.BandsOf(c, from) {
+		for i, b := range ac.BandsOf(c, sw.from) {
 			if i == 0 || b.Min < band.Min {
 				band.Min = b.Min
 			}
@@ -118,72 +154,59 @@ func runSweep(e *env, o *sweepOpts, args []string) int {
 			}
 		}
 		if band.Min <= 0 {
-			fmt.Fprintf(e.stderr, "pare sweep: %s has no band for %s: give --band\n", path, from)
-			return exitBad
+			return nil, path + " has no band for " + sw.from + ": give --band"
 		}
 	}
-	freqs := make([]float64, o.points)
-	for i := range freqs {
-		freqs[i] = band.Min * math.Pow(band.Max/band.Min, float64(i)/float64(o.points-1))
+	sw.freqs = make([]float64, o.points)
+	for i := range sw.freqs {
+		sw.freqs[i] = band.Min * math.Pow(band.Max/band.Min, float64(i)/float64(o.points-1))
 	}
-	var h []complex128
-	what := ""
-	if o.impedance {
-		h, err = ac.Impedance(c, from, freqs, setting)
-		what = "Z(" + from + ")"
+	return sw, ""
+}
+
+func sweepCSV(b *bytes.Buffer, sw *sweep, impedance bool) {
+	if impedance {
+		fmt.Fprintln(b, "freq_hz,mag_ohm,phase_deg")
 	} else {
-		h, err = ac.Transfer(c, from, to, freqs, setting)
-		what = "V(" + to + ")/V(" + from + ")"
+		fmt.Fprintln(b, "freq_hz,mag_db,phase_deg")
 	}
-	if err != nil {
-		fmt.Fprintf(e.stderr, "pare sweep: %s: %v\n", path, err)
-		return exitBad
+	for i, f := range sw.freqs {
+		m := cmplx.Abs(sw.h[i])
+		if !impedance {
+			m = dB(sw.h[i])
+		}
+		fmt.Fprintf(b, "%s,%s,%s\n", g(f, 9), g(m, 9), g(phaseDeg(sw.h[i]), 7))
+	}
+}
+
+func sweepTable(b *bytes.Buffer, c *graph.Circuit, path string, sw *sweep, o *sweepOpts) {
+	what := "V(" + sw.to + ")/V(" + sw.from + ")"
+	if o.impedance {
+		what = "Z(" + sw.from + ")"
 	}
 	circuit := "original circuit"
 	if o.reduced {
 		circuit = "reduced circuit (level " + o.level + ")"
 	}
-	var b bytes.Buffer
-	if o.csv {
-		if o.impedance {
-			fmt.Fprintln(&b, "freq_hz,mag_ohm,phase_deg")
-		} else {
-			fmt.Fprintln(&b, "freq_hz,mag_db,phase_deg")
+	gang := ""
+	for _, p := range c.Parts {
+		if p.Kind == graph.Capacitor && p.Type == graph.CapVariable {
+			gang = ", gang at " + atLabel(o.at)
+			break
 		}
-		for i, f := range freqs {
-			m := cmplx.Abs(h[i])
-			if !o.impedance {
-				m = dB(h[i])
-			}
-			fmt.Fprintf(&b, "%s,%s,%s\n", g(f, 9), g(m, 9), g(phaseDeg(h[i]), 7))
-		}
-	} else {
-		gang := ""
-		for _, p := range c.Parts {
-			if p.Kind == graph.Capacitor && p.Type == graph.CapVariable {
-				gang = ", gang at " + atLabel(o.at)
-				break
-			}
-		}
-		fmt.Fprintf(&b, "%s: %s, %s%s\n", path, what, circuit, gang)
-		if o.impedance {
-			fmt.Fprintf(&b, "%14s  %14s  %10s  %10s\n", "frequency", "|Z|", "dB re 1 Ω", "phase °")
-			for i, f := range freqs {
-				fmt.Fprintf(&b, "%14s  %14s  %10.3f  %10.2f\n", ac.FormatHz(f), value.Format(cmplx.Abs(h[i]), value.Ohm, value.Symbol), dB(h[i]), phaseDeg(h[i]))
-			}
-		} else {
-			fmt.Fprintf(&b, "%14s  %10s  %10s\n", "frequency", "dB", "phase °")
-			for i, f := range freqs {
-				fmt.Fprintf(&b, "%14s  %10.3f  %10.2f\n", ac.FormatHz(f), dB(h[i]), phaseDeg(h[i]))
-			}
-		}
-		fmt.Fprintln(&b, caution.Report(safety.SweepModel))
 	}
-	if _, err := e.stdout.Write(b.Bytes()); err != nil {
-		fmt.Fprintf(e.stderr, "pare sweep: %v\n", err)
-		return exitBad
+	fmt.Fprintf(b, "%s: %s, %s%s\n", path, what, circuit, gang)
+	if o.impedance {
+		fmt.Fprintf(b, "%14s  %14s  %10s  %10s\n", "frequency", "|Z|", "dB re 1 Ω", "phase °")
+		for i, f := range sw.freqs {
+			fmt.Fprintf(b, "%14s  %14s  %10.3f  %10.2f\n", ac.FormatHz(f), value.Format(cmplx.Abs(sw.h[i]), value.Ohm, value.Symbol), dB(sw.h[i]), phaseDeg(sw.h[i]))
+		}
+		return
 	}
-	return exitOK
+	fmt.Fprintf(b, "%14s  %10s  %10s\n", "frequency", "dB", "phase °")
+	for i, f := range sw.freqs {
+		fmt.Fprintf(b, "%14s  %10.3f  %10.2f\n", ac.FormatHz(f), dB(sw.h[i]), phaseDeg(sw.h[i]))
+	}
 }
 
 func atLabel(s string) string {

@@ -166,6 +166,12 @@ func runVerify(e *env, o *verifyOpts, args []string) int {
 	if res.CompareErr != nil {
 		return reportUnsolvable(e, path, lvl, cmp, o.json, caution, res.CompareErr)
 	}
+	return reportVerify(e, res, o, caution)
+}
+
+// reportVerify prints the comparison, with the refused steps and under
+// --steps the per-step table, and returns 1 when it failed.
+func reportVerify(e *env, res *pipeline.Result, o *verifyOpts, caution string) int {
 	rep := res.Report
 	var refused []refusedStep
 	for _, s := range res.Log.Steps {
@@ -179,7 +185,7 @@ func runVerify(e *env, o *verifyOpts, args []string) int {
 	}
 	if o.json {
 		out := verifyJSON{Pairs: rep.Pairs, TolDB: rep.TolDB, TolDeg: rep.TolDeg, OK: rep.OK && len(refused) == 0,
-			Notes: rep.Notes, Level: lvl.String(), Refused: refused, Steps: res.Steps}
+			Notes: rep.Notes, Level: res.Level.String(), Refused: refused, Steps: res.Steps}
 		enc := json.NewEncoder(e.stdout)
 		enc.SetIndent("", "  ")
 		if err := enc.Encode(out); err != nil {
@@ -188,7 +194,7 @@ func runVerify(e *env, o *verifyOpts, args []string) int {
 		}
 		return code
 	}
-	printVerify(e.stdout, path, lvl, rep, refused, o.steps, res.Steps, caution)
+	printVerify(e.stdout, res.Path, res.Level, rep, refused, o.steps, res.Steps, caution)
 	return code
 }
 

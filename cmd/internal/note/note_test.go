@@ -2,9 +2,11 @@ package note
 
 import (
 	"bytes"
+	"errors"
 	"strings"
 	"testing"
 
+	"pare/graph/ac"
 	"pare/graph/safety"
 )
 
@@ -204,5 +206,16 @@ func TestNoteFindingsComeFirst(t *testing.T) {
 	n.Stages[0].Flags = nil
 	if strings.Contains(writeToString(t, n), "Figures to check") {
 		t.Error("a note without flags has a findings block")
+	}
+}
+
+// VerifyOf must carry a failed comparison through, so the job exits 1.
+func TestVerifyOfFailed(t *testing.T) {
+	rep := &ac.Report{OK: false, TolDB: 0.5, TolDeg: 5, Pairs: []ac.Pair{{From: "a", To: "b", MaxDB: 3, What: "transfer"}}}
+	if v := VerifyOf(rep, nil, ac.CompareOptions{}); !v.Failed() {
+		t.Error("a failed report did not make a failed verification")
+	}
+	if v := VerifyOf(nil, errors.New("no inputs"), ac.CompareOptions{}); !v.Failed() || v.Err == "" {
+		t.Error("a comparison error did not make a failed verification")
 	}
 }
