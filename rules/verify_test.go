@@ -27,37 +27,3 @@ func TestReductionsVerify(t *testing.T) {
 		}
 	}
 }
-
-// The device figures the rules assume agree with the ones the AC models use:
-// the same central transconductances and bias, and output-resistance bounds
-// that bracket the models' values.
-func TestDeviceDefaultsAgreeWithModels(t *testing.T) {
-	model := map[string]float64{}
-	for _, d := range ac.Defaults {
-		model[d.Class+"."+d.Param] = d.Value
-	}
-	d := deviceDefaults
-	same := []struct {
-		key  string
-		ours float64
-	}{
-		{"triode.gm", d.triodeGm}, {"tetrode, pentode.gm", d.pentodeGm}, {"hexode, heptode, octode.gm", d.multigridGm},
-		{"bjt.beta", d.bjtBeta}, {"bjt.ic", d.bjtIc}, {"fet.gm", d.fetGm},
-	}
-	for _, s := range same {
-		if m, ok := model[s.key]; !ok || m != s.ours {
-			t.Errorf("%s: rules assume %g, the AC models %g (present: %v)", s.key, s.ours, m, ok)
-		}
-	}
-	bracket := []struct {
-		key    string
-		lo, hi float64
-	}{
-		{"triode.ra", d.triodeRaLow, d.triodeRaHi}, {"tetrode, pentode.ra", d.multiRaLow, d.multiRaHi}, {"fet.rd", d.fetRdLow, d.fetRdHi},
-	}
-	for _, b := range bracket {
-		if m, ok := model[b.key]; !ok || m < b.lo || m > b.hi {
-			t.Errorf("%s: the AC models' %g is outside the rules' bounds %g..%g", b.key, m, b.lo, b.hi)
-		}
-	}
-}

@@ -232,22 +232,6 @@ R2 = { r = "1k", pins = ["s", "gnd"] }
 	}
 }
 
-func TestVTAndHybridPi(t *testing.T) {
-	// reference-values.md §5: VT at 300 K = 25.8520 mV (SI 2019 exact constants).
-	if math.Abs(VT*1e3-25.8520) > 5e-5 {
-		t.Errorf("VT = %.5f mV, want 25.8520", VT*1e3)
-	}
-	// rπ = β/gm = 2585.20 Ω at Ic 1 mA, β 100 (reference-values.md §5, from memory).
-	p := &graph.Part{Ref: "Q1", Kind: graph.BJT, Params: map[string]float64{"beta": 100, "ic": 1e-3}}
-	gm, rpi, _, err := bjtParams(p)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if !closeRel(gm, 38.6817e-3, 1e-5) || !closeRel(rpi, 2585.20, 1e-5) {
-		t.Errorf("gm %g rπ %g, want 38.6817 mS and 2585.20 Ω", gm, rpi)
-	}
-}
-
 // An IF transformer at critical coupling: a pentode (current source) drives
 // the tuned primary, the output is the tuned secondary.
 func TestCriticalCouplingBandwidth(t *testing.T) {

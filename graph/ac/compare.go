@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/device"
 	"pare/graph/value"
 )
 
@@ -293,7 +294,7 @@ func landmarks(c *graph.Circuit) []float64 {
 		if p.Kind != graph.Crystal {
 			continue
 		}
-		_, lm, cm, c0, err := crystalParams(p)
+		_, lm, cm, c0, err := device.Crystal(p)
 		if err != nil {
 			continue
 		}

@@ -13,21 +13,16 @@
 //     tapped coil's halves aid). Loss: Q is read as the coil's Q at the
 //     geometric centre f0 of the band the part works in, a constant series
 //     R = 2π·f0·L/Q (see windings in elaborate.go for why).
-//   - Valves: a conductance 1/ra from anode to cathode and a current gm·Vg1k
-//     from anode to cathode; µ = gm·ra, any two of gm, ra, mu give the third.
-//     Further grids (g2…) are at their nets but draw no current: screen and
-//     injector currents are ignored. In a multi-grid frequency changer g1 is
-//     the control grid. Valve diodes are a resistance rd, or open with off = 1.
-//   - BJTs (npn and pnp alike): hybrid-π, gm = Ic/VT with VT = kT/q at 300 K
-//     (25.8520 mV, SI 2019 exact constants), rπ = β/gm, ro = VA/Ic; gm, rpi
-//     and ro given on the part win.
-//   - FETs: gm·Vgs from drain to source and rd; the body pin is ignored.
-//   - Diodes: a resistance rd (default VT/1 mA), or open with off = 1;
-//     varicaps are open (their capacitance is not in the netlist format).
-//   - Crystals: the four-element equivalent, motional Rm–Lm–Cm in series with
-//     the holder capacitance C0 across it. From the series frequency fs:
-//     lm or cm given fixes the other by (2π·fs)² = 1/(Lm·Cm), with neither cm
-//     takes its default; rm given wins, else Rm = 2π·fs·Lm/Q.
+//   - Valves, BJTs, FETs, diodes and crystals: the small-signal models of
+//     package graph/device (one model, shared with the reduction's
+//     judgements and the stage figures; its doc lists every default with its
+//     source), stamped as elements: a valve's ra from anode to cathode and
+//     gm·v(g1, k) from anode to cathode; a BJT's rπ (b–e), ro (c–e) and
+//     gm·v(b, e); a FET's rd and gm·v(g, s); a diode's rd; a crystal's
+//     motional Rm–Lm–Cm arm with C0 across it. Further grids (g2…) are at
+//     their nets but draw no current: screen and injector currents are
+//     ignored. In a multi-grid frequency changer g1 is the control grid. A
+//     FET's body pin is ignored.
 //   - Pots: two resistors at the wiper setting. Switches: the contact pairs
 //     closed in the set position join their nets. Ports are open unless
 //     Options.Terminate states a termination. Generic parts are open.
@@ -41,30 +36,6 @@
 //     A port on a declared output is never held; a termination stated on a
 //     port net overrides it all. Compare notes the held nets and compares
 //     nothing at them.
-//
-// Defaults lists every default parameter with its source:
-//
-//	class                    param  default      source
-//	triode                   gm     2 mA/V       typical small-signal triode, from memory
-//	triode                   ra     20 kΩ        typical (µ 40), from memory
-//	tetrode, pentode         gm     2 mA/V       typical RF/IF pentode, from memory
-//	tetrode, pentode         ra     1 MΩ         typical RF/IF pentode, from memory
-//	hexode, heptode, octode  gm     0.5 mA/V     typical conversion conductance, from memory
-//	hexode, heptode, octode  ra     1 MΩ         typical frequency changer, from memory
-//	valve diode              rd     1 kΩ         conducting signal diode, typical, from memory
-//	bjt                      beta   100          typical small-signal transistor, from memory
-//	bjt                      ic     1 mA         typical small-signal bias, from memory
-//	bjt                      VA     100 V        Early voltage, ro = VA/Ic, typical, from memory
-//	fet                      gm     4 mA/V       typical small-signal JFET, from memory
-//	fet                      rd     50 kΩ        typical small-signal JFET, from memory
-//	diode                    Id     1 mA         rd = VT/Id = 25.85 Ω (Shockley, ideality 1)
-//	crystal                  c0     5 pF         typical holder capacitance, from memory
-//	crystal                  cm     20 fF        c0/cm = 250, typical, from memory
-//	crystal                  q      50 000       typical quartz unit, from memory
-//
-// Any two of a valve's gm, ra and mu give the third; given alone, gm or mu
-// is completed with the class's ra, and ra with the class's gm. All three
-// given must agree within 2 %.
 //
 // An impedance is the voltage a 1 A source into the net produces, with the
 // circuit's other declared inputs held at 0 V by their ideal sources.

@@ -205,7 +205,24 @@ func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
 	if !(frac >= 0 && frac <= 1) {
 		return nil, fmt.Errorf("gang setting %g: give a fraction of the travel from 0 to 1", frac)
 	}
-	var errs graph.ErrorList
+	nl := numberNodes(c, joinNets(c, o, held))
+	st := &stamper{nl: nl, frac: frac}
+	for _, p := range c.Parts {
+		st.part(c, p)
+	}
+	st.terminations(c, o)
+	if err := st.errs.Err(); err != nil {
+		st.errs.Sort()
+		return nil, st.errs
+	}
+	return nl, nil
+}
+
+// joinNets finds the nets the model treats as one node: AC-ground nets and
+// held nets with ground, closed switch contacts, zero-ohm resistors, pot
+// ends at a wiper set to 0 or 1, zero inductances, and nets terminated in
+// 0 Ω with ground.
+func joinNets(c *graph.Circuit, o Options, held []string) unionFind {
 	uf := unionFind{}
 	for _, n := range c.Nets {
 		if n.Role.IsACGround() {
@@ -215,7 +232,6 @@ func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
 	for _, n := range held {
 		uf.join(groundName, n)
 	}
-	// Pass 1: joins.
 	for _, p := range c.Parts {
 		switch p.Kind {
 		case graph.Switch:
@@ -250,8 +266,13 @@ func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
 			uf.join(groundName, net)
 		}
 	}
+	return uf
+}
+
+// numberNodes numbers the nodes: the representatives of uf sorted by name,
+// ground first.
+func numberNodes(c *graph.Circuit, uf unionFind) *netlist {
 	nl := &netlist{netNode: map[string]int{}}
-	// Number the nodes: representatives sorted by name, ground first.
 	reps := map[string]bool{}
 	for _, n := range c.Nets {
 		if n.Name == ncNet {
@@ -277,147 +298,7 @@ func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
 		}
 		nl.netNode[n.Name] = repNode[uf.find(n.Name)]
 	}
-	node := func(net string) int {
-		if !usable(net) {
-			return -1
-		}
-		if id, ok := nl.netNode[net]; ok {
-			return id
-		}
-		// A net named by a pin but missing from the net list: give it a node.
-		nl.nodes = append(nl.nodes, net)
-		nl.netNode[net] = len(nl.nodes) - 1
-		return len(nl.nodes) - 1
-	}
-	two := func(k primKind, p *graph.Part, sub, pa, pb string, v float64) {
-		a, b := node(p.NetOf(pa)), node(p.NetOf(pb))
-		if a < 0 || b < 0 || a == b {
-			return // an open end carries no current; both ends on one node do nothing
-		}
-		nl.prims = append(nl.prims, prim{kind: k, ref: p.Ref, sub: sub, a: a, b: b, v: v})
-	}
-	vccs := func(p *graph.Part, out, common, control string, gm float64) {
-		a, k, g := node(p.NetOf(out)), node(p.NetOf(common)), node(p.NetOf(control))
-		if a < 0 || k < 0 || gm == 0 {
-			return
-		}
-		if g < 0 {
-			errs.Add(p.Pos, "%s %s: control terminal %s is not connected: the small-signal model needs it", p.Kind, p.Ref, control)
-			return
-		}
-		if a == k {
-			return
-		}
-		nl.prims = append(nl.prims, prim{kind: primVCCS, ref: p.Ref, sub: "gm", a: a, b: k, c: g, d: k, v: gm})
-	}
-	fail := func(p *graph.Part, err error) { errs.Add(p.Pos, "%v", err) }
-
-	for _, p := range c.Parts {
-		switch p.Kind {
-		case graph.Resistor:
-			if p.Value.Max > 0 {
-				two(primR, p, "", "1", "2", p.Value.Max)
-			}
-		case graph.Capacitor:
-			a, b := "1", "2"
-			if p.Type == graph.CapElectrolytic {
-				a, b = "+", "-"
-			}
-			if cv := p.Capacitance(frac); cv > 0 {
-				two(primC, p, "", a, b, cv)
-			}
-		case graph.Inductor, graph.Transformer:
-			nl.windings(c, p, node, &errs)
-		case graph.Valve:
-			switch p.Type {
-			case "diode":
-				if rd := diodeRes(p, true); rd > 0 {
-					two(primR, p, "", "a", "k", rd)
-				}
-			case "double-diode":
-				if rd := diodeRes(p, true); rd > 0 {
-					two(primR, p, "a1", "a1", "k", rd)
-					two(primR, p, "a2", "a2", "k", rd)
-				}
-			default:
-				gm, ra, err := valveParams(p)
-				if err != nil {
-					fail(p, err)
-					continue
-				}
-				two(primR, p, "ra", "a", "k", ra)
-				vccs(p, "a", "k", "g1", gm)
-			}
-		case graph.BJT:
-			gm, rpi, ro, err := bjtParams(p)
-			if err != nil {
-				fail(p, err)
-				continue
-			}
-			two(primR, p, "rpi", "b", "e", rpi)
-			two(primR, p, "ro", "c", "e", ro)
-			vccs(p, "c", "e", "b", gm)
-		case graph.FET:
-			gm, rd, err := fetParams(p)
-			if err != nil {
-				fail(p, err)
-				continue
-			}
-			two(primR, p, "rd", "d", "s", rd)
-			vccs(p, "d", "s", "g", gm)
-		case graph.Diode:
-			if rd := diodeRes(p, false); rd > 0 {
-				two(primR, p, "", "a", "k", rd)
-			}
-		case graph.Crystal:
-			rm, lm, cm, c0, err := crystalParams(p)
-			if err != nil {
-				fail(p, err)
-				continue
-			}
-			a, b := node(p.NetOf("1")), node(p.NetOf("2"))
-			if a >= 0 && b >= 0 && a != b {
-				nl.prims = append(nl.prims, prim{kind: primRLC, ref: p.Ref, sub: "m", a: a, b: b, r: rm, l: lm, C: cm})
-				if c0 > 0 {
-					two(primC, p, "c0", "1", "2", c0)
-				}
-			}
-		case graph.Pot:
-			r := p.Value.Max
-			if r > 0 && p.Set > 0 {
-				two(primR, p, "1w", "1", "w", p.Set*r)
-			}
-			if r > 0 && p.Set < 1 {
-				two(primR, p, "w2", "w", "2", (1-p.Set)*r)
-			}
-		}
-	}
-	// Stated terminations, in name order.
-	var terms []string
-	for net := range o.Terminate {
-		terms = append(terms, net)
-	}
-	sort.Strings(terms)
-	for i, net := range terms {
-		r := o.Terminate[net]
-		if r < 0 || math.IsNaN(r) {
-			errs.Add(graph.Pos{File: c.File}, "termination of net %s must be a resistance ≥ 0, not %g", net, r)
-			continue
-		}
-		id, ok := nl.netNode[net]
-		if !ok {
-			errs.Add(graph.Pos{File: c.File}, "termination names net %q, which is not in the circuit", net)
-			continue
-		}
-		if r > 0 && id != 0 && !math.IsInf(r, 1) {
-			nl.prims = append(nl.prims, prim{kind: primR, ref: fmt.Sprintf("term%d", i+1), a: id, b: 0, v: r})
-		}
-	}
-	if err := errs.Err(); err != nil {
-		errs.Sort()
-		return nil, errs
-	}
-	return nl, nil
+	return nl
 }
 
 func usable(net string) bool { return net != "" && net != ncNet }
