@@ -10,8 +10,9 @@ import (
 // when its reactance, at the lowest frequency of interest on the net, is
 // small against everything else the net sees towards AC ground. "Everything
 // else" is a lower bound (parallel combination of each terminal's least
-// impedance: resistors, coils, a cathode's 1/gm, an anode's ra …), so the
-// judgement errs towards keeping a capacitor. A capacitor that resonates
+// impedance: resistors, coils, a cathode's (ra + RL)/(µ + 1), an anode's
+// ra …, from graph/device's model), so the judgement errs towards keeping a
+// capacitor. A capacitor that resonates
 // with a coil on the same net inside or near the band is a tuned circuit and
 // never a bypass.
 var bypass = Rule{
