@@ -7,54 +7,54 @@ import (
 
 	"pare/graph"
 	"pare/graph/ac"
+	model "pare/graph/device"
 )
 
-// Thermal voltage at 300 K, kT/q with the exact SI 2019 constants
-// (reference-values §5: 25.8520 mV).
-const thermalVoltage = 1.380649e-23 * 300 / 1.602176634e-19
-
-// device is the small-signal description of an amplifying part.
+// device is the small-signal description of an amplifying part, as the
+// stage figures read it: the values are graph/device's (the model the AC
+// solver stamps), with those resting on a class default dropped (see
+// deviceOf). 0 stands for an infinite output resistance, as in parallel.
 type device struct {
 	kind      graph.Kind
 	mu, ra    float64 // valve
 	gm        float64 // all
 	beta, rpi float64 // BJT
 	rOut      float64 // BJT ro, FET rd (0 = infinite)
+	small     model.Small
 	missing   string
 }
 
+// deviceOf reads a part's model for the figures. A figure a repairer checks
+// rests on the part's own parameters: what only a class default gives is
+// dropped (model.Small.GivenOnly), so an output resistance not given counts
+// as infinite, as in the textbook formulas, and a gain that would rest on a
+// default transconductance or µ is not computed; missing names what to give.
 func deviceOf(p *graph.Part) device {
 	d := device{kind: p.Kind}
-	par := func(k string) float64 { v, _ := p.Param(k); return v }
+	s, err := model.Of(p)
+	if err != nil {
+		d.missing = "parameters the model accepts (" + err.Error() + ")"
+		return d
+	}
+	g := s.GivenOnly()
+	d.small, d.gm = g, g.Gm
 	switch p.Kind {
 	case graph.Valve:
-		d.mu, d.ra, d.gm = par("mu"), par("ra"), par("gm")
-		switch {
-		case d.mu == 0 && d.gm > 0 && d.ra > 0:
-			d.mu = d.gm * d.ra // µ = gm·ra
-		case d.ra == 0 && d.gm > 0 && d.mu > 0:
-			d.ra = d.mu / d.gm
-		case d.gm == 0 && d.mu > 0 && d.ra > 0:
-			d.gm = d.mu / d.ra
-		}
-		if d.mu == 0 || d.ra == 0 {
+		if s.Given(model.Gm | model.ROut) {
+			d.mu, d.ra = s.Mu, s.ROut
+		} else {
 			d.missing = "mu and ra (or gm and one of them)"
 		}
-	case graph.BJT:
-		d.gm, d.beta, d.rpi, d.rOut = par("gm"), par("beta"), par("rpi"), par("ro")
-		if ic := par("ic"); d.gm == 0 && ic > 0 {
-			d.gm = ic / thermalVoltage // gm = Ic/VT (hybrid-π)
+	case graph.BJT, graph.FET:
+		d.beta = g.Beta
+		if s.Given(model.RPi) {
+			d.rpi = g.RPi
 		}
-		if d.rpi == 0 && d.beta > 0 && d.gm > 0 {
-			d.rpi = d.beta / d.gm // rπ = β/gm
+		if s.Given(model.ROut) {
+			d.rOut = g.ROut
 		}
 		if d.gm == 0 {
-			d.missing = "gm or the bias current ic"
-		}
-	case graph.FET:
-		d.gm, d.rOut = par("gm"), par("rd")
-		if d.gm == 0 {
-			d.missing = "gm"
+			d.missing = map[graph.Kind]string{graph.BJT: "gm or the bias current ic", graph.FET: "gm"}[p.Kind]
 		}
 	}
 	return d
@@ -126,11 +126,10 @@ func calcGain(x *figCtx) {
 		}
 		if d.kind == graph.Valve {
 			a = d.mu * rk / (d.ra + (d.mu+1)*rk)
-			x.set("r_out_ohm", parallel(d.ra/(d.mu+1), rk))
 		} else {
 			a = d.gm * rk / (1 + d.gm*rk)
-			x.set("r_out_ohm", parallel(1/d.gm, rk))
 		}
+		x.set("r_out_ohm", parallel(d.small.ZCommon(0), rk))
 	case "grid":
 		if d.kind == graph.Valve {
 			a = (d.mu + 1) * rl / (d.ra + rl)
@@ -387,10 +386,12 @@ func (x *figCtx) tapShare() float64 {
 // calcBypass gives the corner of a cathode (emitter, source) bypass
 // capacitor. The capacitor works against everything at the common
 // electrode: the resistor in parallel with the impedance looking into the
-// electrode, which for a valve is (ra + RL)/(µ + 1) and for a BJT or FET
-// about 1/gm (textbook small-signal results, from memory; the BJT figure
-// leaves out the base source resistance over β + 1). Taking the resistor
-// alone, as 1/(2πRkCk), puts the corner too low by the factor Rk/R.
+// electrode, graph/device's ZCommon(RL): (ra + RL)/(µ + 1) for a valve,
+// (rd + RL)/(1 + gm·rd) for a FET, rπ ∥ (ro + RL)/(1 + gm·ro) for a BJT,
+// 1/gm where the output resistance is not given (textbook small-signal
+// results, from memory; the BJT figure leaves out the base source
+// resistance over β + 1). Taking the resistor alone, as 1/(2πRkCk), puts
+// the corner too low by the factor Rk/R.
 func calcBypass(x *figCtx) {
 	p := x.part("device")
 	rk := parallelR(x.parts("r"))
@@ -400,16 +401,11 @@ func calcBypass(x *figCtx) {
 	}
 	d := deviceOf(p)
 	var zin float64
-	switch {
-	case d.kind == graph.Valve && d.mu > 0:
-		zin = (d.ra + x.load()) / (d.mu + 1)
-	case d.kind == graph.FET && d.gm > 0 && d.rOut > 0:
-		zin = (d.rOut + x.load()) / (1 + d.gm*d.rOut)
-	case d.gm > 0:
-		zin = 1 / d.gm
+	if d.gm > 0 {
+		zin = d.small.ZCommon(x.load())
 	}
 	r := rk
-	if zin > 0 {
+	if zin > 0 && !math.IsInf(zin, 1) {
 		r = parallel(rk, zin)
 		x.set("r_ohm", r)
 	}

@@ -10,6 +10,7 @@ import (
 	"strings"
 	"testing"
 
+	model "pare/graph/device"
 	"pare/internal/reftool"
 )
 
@@ -137,7 +138,7 @@ C1 = { c = "180p", pins = ["hot", "ht"] }`)
 		t.Fatal("no tapped tuned amplifier")
 	}
 	// gm = Ic/VT (reference-values §5); the loss resistance is the stage's own r_dyn_ohm.
-	gm := 1e-3 / thermalVoltage
+	gm := 1e-3 / model.VT
 	f, v := ngspiceSweep(t, `V1 in 0 DC 0 AC 1
 G1 out 0 in 0 `+strconv.FormatFloat(gm, 'g', 12, 64)+`
 La out 0 75u
