@@ -130,3 +130,42 @@ func compareDevice(t *testing.T, path string, p *graph.Part, stamped map[string]
 	same("µ", gm*rout, sg*sr, okR && okG)
 	return n
 }
+
+// The impedance into a cathode that the bypass judgement counts is
+// graph/device's one formula, (ra + RL)/(µ + 1), with RL the lower bound of
+// the anode's load; values derived from that formula for µ 20, ra 10 kΩ
+// (reference-values.md §5 gives ra/(µ+1) = 476.190 Ω), in parallel with
+// the 1.5 kΩ cathode resistor.
+func TestCathodeBranchCountsLoad(t *testing.T) {
+	cases := []struct {
+		name, anode, extra string
+		want               float64
+		text               string
+	}{
+		{"resistive anode load", "a1", `R3 = { r = "47k", pins = ["a1", "ht"] }`, 966.10,
+			"V1 cathode ≈ (ra+RL)/(µ+1) 2.7143 kΩ with RL ≥ 47 kΩ on a1"}, // 57 kΩ/21 ∥ 1.5 kΩ
+		{"anode at AC ground", "ht", "", 361.45, "V1 cathode ≈ ra/(µ+1) 476.19 Ω"}, // 476.19 ∥ 1.5 kΩ
+		{"anode load beyond a port", "a1", `P1 = { port = "to the next stage", pins = ["a1"] }`, 361.45,
+			"V1 cathode ≈ ra/(µ+1) 476.19 Ω"}, // the port bounds nothing: RL ≥ 0
+		{"nothing else on the anode", "a1", "", 1500, "V1 cathode open (nothing else on a1)"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			c := parse(t, `band = "20..20k"
+[nets]
+ht = { role = "supply", volts = 250 }
+[parts]
+V1 = { valve = "triode", mu = 20, ra = "10k", pins = { a = "`+tc.anode+`", g1 = "in", k = "k1" } }
+R1 = { r = "1M", pins = ["in", "gnd"] }
+R2 = { r = "1k5", pins = ["k1", "gnd"] }
+`+tc.extra+"\n")
+			z, text := newCtx(c, 0.1, LevelSignal).LowerZ("k1", 20)
+			if math.Abs(z-tc.want) > 0.01 {
+				t.Errorf("LowerZ(k1) = %.5g Ω, want %.5g Ω (%s)", z, tc.want, text)
+			}
+			if !strings.Contains(text, tc.text) {
+				t.Errorf("why %q does not name %q", text, tc.text)
+			}
+		})
+	}
+}

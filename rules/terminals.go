@@ -47,6 +47,9 @@ func (x *Ctx) commonBranch(p *graph.Part, pin string, f float64) branch {
 		return deviceBranch(p, pin)
 	}
 	rl, _ := x.lowerZ(out, f, false, p)
+	if rl == 0 {
+		return deviceBranch(p, pin) // something unbounded (a port) on the output: RL ≥ 0 is all that is known
+	}
 	return deviceBranchLoaded(p, pin, rl, out)
 }
 
@@ -73,8 +76,11 @@ func deviceBranchLoaded(p *graph.Part, pin string, rl float64, out string) branc
 	switch role {
 	case graph.RoleCommon:
 		z := s.ZCommon(rl)
-		if out == "" {
+		switch {
+		case out == "":
 			return branch{z, p.Ref + " " + w.Common + " ≈ " + w.Common0 + " " + ohms(z)}
+		case math.IsInf(z, 1):
+			return branch{z, p.Ref + " " + w.Common + " open (nothing else on " + out + ")"}
 		}
 		return branch{z, p.Ref + " " + w.Common + " ≈ " + w.CommonRL + " " + ohms(z) + " with RL ≥ " + ohms(rl) + " on " + out}
 	case graph.RoleOutput:
