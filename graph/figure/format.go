@@ -1,0 +1,158 @@
+package figure
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"pare/graph/value"
+)
+
+// Medium is where a figure is written for a person. JSON, the third
+// medium, takes the numbers at full precision (List.MarshalJSON).
+type Medium int
+
+const (
+	// Text is notes, tables, flags and messages: as many digits as the
+	// unit's row in units gives (four for frequencies, C and L).
+	Text Medium = iota
+	// Sheet is a drawing: three significant digits, as a part's marking
+	// carries, and a range that shares its unit ("1–2.06 MHz").
+	Sheet
+)
+
+// secondsPlain is where time constants start to read best in plain seconds
+// ("0.1 s", "2.2 s"); shorter ones take a prefix ("4.7 ms").
+const secondsPlain = 0.1
+
+// Format writes one number of unit u for medium m: "1.47 MHz", "4.7 ms",
+// "0.1 s", "-16.5", "35.8 dB".
+func Format(v float64, u Unit, m Medium) string {
+	switch {
+	case u == Decibel:
+		return fmt.Sprintf("%.1f dB", v)
+	case u == Ratio || !u.known():
+		return Plain(v)
+	case u == Second && math.Abs(v) >= secondsPlain:
+		return Plain(v) + " s"
+	}
+	return value.FormatPrec(v, units[u].si, value.Symbol, digits(u, m))
+}
+
+func digits(u Unit, m Medium) int {
+	if m == Sheet {
+		return value.DefaultDigits
+	}
+	return units[u].digits
+}
+
+// Plain writes a plain number with three significant digits, or more where
+// the integer part needs them ("-597", "1234", "0.00953").
+func Plain(v float64) string {
+	if v == 0 {
+		return "0"
+	}
+	a := math.Abs(v)
+	switch {
+	case a >= 1000:
+		return fmt.Sprintf("%.0f", v)
+	case a >= 0.001:
+		d := max(2-int(math.Floor(math.Log10(a))), 0)
+		return trimZeros(fmt.Sprintf("%.*f", d, v))
+	}
+	return fmt.Sprintf("%.3g", v)
+}
+
+func trimZeros(s string) string {
+	if !strings.Contains(s, ".") {
+		return s
+	}
+	s = strings.TrimRight(s, "0")
+	return strings.TrimSuffix(s, ".")
+}
+
+// Text writes a figure's value without its label: "1.47 MHz",
+// "527.4 kHz–1.6 MHz", "620.9 kHz, 905.6 kHz and 1.486 MHz",
+// "-7.708 kHz at 1.6 MHz".
+func (f Figure) Text(m Medium) string {
+	var s string
+	switch {
+	case f.Range != nil:
+		s = f.rangeText(m)
+	case f.Points != nil:
+		s = Points(f.Points, f.Unit, m)
+	default:
+		s = Format(f.Value, f.Unit, m)
+	}
+	if f.At != nil {
+		s += " at " + f.At.Text(m)
+	}
+	return s
+}
+
+// rangeText writes a range end to end; on a sheet the two ends share their
+// prefixed unit where they can, as the sheet's tuning lines do.
+func (f Figure) rangeText(m Medium) string {
+	r := *f.Range
+	if m == Sheet && f.Unit.known() && units[f.Unit].si != value.None && f.Unit != Second {
+		return value.FormatRange(r, units[f.Unit].si, value.Symbol)
+	}
+	return Format(r.Min, f.Unit, m) + "\u2013" + Format(r.Max, f.Unit, m)
+}
+
+// Item is the figure as a person reads it in a list: its label, then its
+// value ("osc f 1.004 MHz–2.063 MHz").
+func (f Figure) Item(m Medium) string {
+	label := f.Label
+	if label == "" {
+		label = strings.ReplaceAll(f.Name, "_", " ")
+	}
+	return label + " " + f.Text(m)
+}
+
+// Items lists a stage's figures as a person reads them, in the list's
+// order: working values left out, the members of a group joined into one
+// item ("suggested 3-point design: padder 366.6 pF, coil 130.8 µH, …") at
+// the place of the first.
+func Items(l List, m Medium) []string {
+	var out []string
+	done := map[string]bool{}
+	for i, f := range l {
+		switch {
+		case f.Working:
+		case f.Group == "":
+			out = append(out, f.Item(m))
+		case !done[f.Group]:
+			done[f.Group] = true
+			var members []string
+			for _, g := range l[i:] {
+				if g.Group == f.Group && !g.Working {
+					members = append(members, g.Item(m))
+				}
+			}
+			out = append(out, f.Group+": "+strings.Join(members, ", "))
+		}
+	}
+	return out
+}
+
+// Line is Items on one line, comma separated: the figures column of a
+// table and a note.
+func Line(l List, m Medium) string { return strings.Join(Items(l, m), ", ") }
+
+// Points writes like values as prose: "600 kHz, 1.1 MHz and 1.6 MHz".
+func Points(vs []float64, u Unit, m Medium) string {
+	items := make([]string, len(vs))
+	for i, v := range vs {
+		items[i] = Format(v, u, m)
+	}
+	return AndList(items)
+}
+
+// AndList joins items as prose: "a", "a and b", "a, b and c".
+func AndList(items []string) string {
+	if len(items) < 2 {
+		return strings.Join(items, "")
+	}
+	return strings.Join(items[:len(items)-1], ", ") + " and " + items[len(items)-1]
+}
