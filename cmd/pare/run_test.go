@@ -237,7 +237,7 @@ func TestMainJobTuningRange(t *testing.T) {
 		}
 		fmin, fmax := parseHz(t, m[1], m[2]), parseHz(t, m[3], m[4])
 		wantMin, wantMax := lc(tt.l, tt.cMax), lc(tt.l, tt.cMin)
-		// 0.5 %: FigureText prints four digits; the stage figures leave out
+		// 0.5 %: a note prints four digits (figure.Text); the stage figures leave out
 		// nothing the hand formula includes.
 		if !near(fmin, wantMin, 0.005) || !near(fmax, wantMax, 0.005) {
 			t.Errorf("%s: tuning %g–%g Hz, want %g–%g Hz", tt.topology, fmin, fmax, wantMin, wantMax)

@@ -8,8 +8,8 @@ import (
 	"io"
 	"strings"
 
-	"pare/cmd/internal/figtext"
 	"pare/cmd/internal/pipeline"
+	"pare/graph/figure"
 	"pare/graph/safety"
 	"pare/rules"
 	"pare/rules/stages"
@@ -39,7 +39,8 @@ repairer would question. Parts in no stage are listed with the reason.
 
 --patterns DIR adds the pattern files (*.toml) in DIR to the built-in library;
 a file with the id of a built-in pattern replaces it (docs/patterns.md).
---json prints {"stages": [...]} with figures in SI base units.`,
+--json prints {"stages": [...]} with figures in SI base units and, under the
+same keys, where each came from (formula, solver or netlist).`,
 		bind: typed(func(fs *flag.FlagSet, o *stagesOpts) {
 			fs.BoolVar(&o.json, "json", false, "print the stages as JSON, figures in SI base units")
 			fs.StringVar(&o.patterns, "patterns", "", "directory of extra pattern files (*.toml)")
@@ -158,7 +159,7 @@ func printStages(w io.Writer, res *pipeline.Result, unmatched []pipeline.Unmatch
 			fmt.Fprintf(w, "%-*s  %-*s  %s\n", nameW, s.Name, topoW, s.Topology, s.Title)
 			pad := strings.Repeat(" ", nameW+topoW+4)
 			fmt.Fprintf(w, "%sparts: %s\n", pad, strings.Join(s.Parts, " "))
-			for _, line := range wrap(figtext.Line(s.Figures), 96-len(pad)) {
+			for _, line := range wrap(figure.Line(s.Figures, figure.Text), 96-len(pad)) {
 				fmt.Fprintf(w, "%s%s\n", pad, line)
 			}
 			if len(s.Contains) > 0 {

@@ -56,25 +56,63 @@ func (l *List) Put(f Figure) {
 // "f_min_hz": 527400.2, …}. The keys are the figures' Entries; a key met
 // twice keeps its last number.
 func (l List) MarshalJSON() ([]byte, error) {
-	var all []Entry
+	var members []member
 	for _, f := range l {
-		all = append(all, f.Entries()...)
+		for _, e := range f.Entries() {
+			members = append(members, member{e.Key, e.Value})
+		}
 	}
-	slices.SortStableFunc(all, func(a, b Entry) int { return strings.Compare(a.Key, b.Key) })
+	return object(members)
+}
+
+// Origins is a List seen for JSON as where each number came from: one
+// object of key → origin ("f_hz": "formula f = 1/(2π√(LC))",
+// "gain_ac": "solver V(o)/V(g) at 54.77 kHz"), keys as List.MarshalJSON
+// writes them.
+type Origins List
+
+// MarshalJSON writes the origins of the figures' keys, sorted by key.
+func (o Origins) MarshalJSON() ([]byte, error) {
+	var members []member
+	for _, f := range o {
+		at := f.At
+		f.At = nil
+		for _, g := range []*Figure{&f, at} {
+			if g == nil {
+				continue
+			}
+			for _, e := range g.Entries() {
+				members = append(members, member{e.Key, g.Origin.String()})
+			}
+		}
+	}
+	return object(members)
+}
+
+// member is one key and value of a JSON object.
+type member struct {
+	key   string
+	value any
+}
+
+// object writes a JSON object with its members sorted by key, as
+// encoding/json writes a map; of a key met twice the last value stays.
+func object(members []member) ([]byte, error) {
+	slices.SortStableFunc(members, func(a, b member) int { return strings.Compare(a.key, b.key) })
 	var b bytes.Buffer
 	b.WriteByte('{')
-	for i, e := range all {
-		if i+1 < len(all) && all[i+1].Key == e.Key {
+	for i, m := range members {
+		if i+1 < len(members) && members[i+1].key == m.key {
 			continue
 		}
 		if b.Len() > 1 {
 			b.WriteByte(',')
 		}
-		k, err := json.Marshal(e.Key)
+		k, err := json.Marshal(m.key)
 		if err != nil {
 			return nil, err
 		}
-		v, err := json.Marshal(e.Value)
+		v, err := json.Marshal(m.value)
 		if err != nil {
 			return nil, err
 		}

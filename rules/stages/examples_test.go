@@ -60,14 +60,14 @@ func TestFrequencyChangerExample(t *testing.T) {
 		{"image_f_min_hz", fmin + 470e3}, {"image_f_max_hz", fmax + 470e3},
 		{"if_hz", 470e3},
 	} {
-		got, ok := mix.Figures[c.key]
+		got, ok := mix.Figures.Lookup(c.key)
 		if !ok || math.Abs(got-c.want) > 1e-6*c.want {
 			t.Errorf("%s = %g (present %v), want %g", c.key, got, ok, c.want)
 		}
 	}
 	// With the original gang, trimmer and padder the dial sweep stays
 	// within the design's few kHz (the file's header tracks at three points).
-	if e := math.Abs(mix.Figures["track_err_max_hz"]); e == 0 || e > 10e3 {
+	if e := math.Abs(fig(mix.Figures, "track_err_max_hz")); e == 0 || e > 10e3 {
 		t.Errorf("tracking error %g Hz: want a few kHz from the original parts", e)
 	}
 	if u := Unmatched(reduced, st); len(u) > 0 {
@@ -97,18 +97,18 @@ func TestIFStripExample(t *testing.T) {
 	}
 	var amp *Stage
 	for i := range st {
-		if g, ok := st[i].Figures["gain"]; ok && g < -1 {
+		if g, ok := st[i].Figures.Lookup("gain"); ok && g < -1 {
 			amp = &st[i]
 		}
 	}
 	if amp == nil {
 		t.Fatalf("no amplifier with a gain: %s", topologies(st))
 	}
-	if g := amp.Figures["gain"]; math.Abs(g+61.5385) > 1e-4*61.5385 {
+	if g := fig(amp.Figures, "gain"); math.Abs(g+61.5385) > 1e-4*61.5385 {
 		t.Errorf("preamplifier gain %g, want −61.5385", g)
 	}
-	if g, ok := amp.Figures["gain_ac"]; !ok || math.Abs(g-amp.Figures["gain"]) > gainAgreement*math.Abs(amp.Figures["gain"]) {
-		t.Errorf("AC solver gain %g (present %v) disagrees with %g", g, ok, amp.Figures["gain"])
+	if g, ok := amp.Figures.Lookup("gain_ac"); !ok || math.Abs(g-fig(amp.Figures, "gain")) > gainAgreement*math.Abs(fig(amp.Figures, "gain")) {
+		t.Errorf("AC solver gain %g (present %v) disagrees with %g", g, ok, fig(amp.Figures, "gain"))
 	}
 	if u := Unmatched(reduced, st); len(u) > 0 {
 		t.Errorf("parts in no stage: %v", u)
@@ -129,8 +129,8 @@ func TestTransistorExample(t *testing.T) {
 	if mixer == nil || mixer.Family != "bjt" {
 		t.Fatalf("no BJT self-oscillating mixer: %s", topologies(st))
 	}
-	if mixer.Figures["if_hz"] != 455e3 {
-		t.Errorf("IF %g, want the declared 455 kHz", mixer.Figures["if_hz"])
+	if fig(mixer.Figures, "if_hz") != 455e3 {
+		t.Errorf("IF %g, want the declared 455 kHz", fig(mixer.Figures, "if_hz"))
 	}
 	if u := Unmatched(reduced, st); len(u) > 0 {
 		t.Errorf("parts in no stage: %v", u)

@@ -4,6 +4,8 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"pare/graph/figure"
 )
 
 // figureCase checks one figure of one recognised stage against a value
@@ -217,7 +219,7 @@ func TestFigures(t *testing.T) {
 			if s == nil {
 				t.Fatalf("no %s; found %s", tc.topology, topologies(st))
 			}
-			got, ok := s.Figures[tc.key]
+			got, ok := s.Figures.Lookup(tc.key)
 			if !ok {
 				t.Fatalf("%s has no figure %s; figures %v", tc.topology, tc.key, s.Figures)
 			}
@@ -283,10 +285,10 @@ C4 = { c = "122.354p", pins = ["if", "gnd"] }`, "[freqs]\nif = \"455k\"")
 	if s == nil {
 		t.Fatal("mixer not recognised")
 	}
-	if got := s.Figures["track_err_max_hz"] / 1e3; math.Abs(got-6.94) > 0.01 {
+	if got := fig(s.Figures, "track_err_max_hz") / 1e3; math.Abs(got-6.94) > 0.01 {
 		t.Errorf("worst tracking error %.3f kHz, want +6.94 (reference-values §2 residual at 530 kHz)", got)
 	}
-	if got := s.Figures["track_err_at_hz"] / 1e3; math.Abs(got-530) > 1 {
+	if got := fig(s.Figures, "track_err_at_hz") / 1e3; math.Abs(got-530) > 1 {
 		t.Errorf("worst tracking error at %.1f kHz, want 530", got)
 	}
 	for _, f := range s.Flags {
@@ -331,7 +333,7 @@ R1 = { r = "47k", pins = ["o", "ht"] }`)
 	if s == nil {
 		t.Fatal("no amplifier")
 	}
-	if g, ok := s.Figures["gain_ac"]; !ok || math.Abs(g+16.4912) > 0.01*16.4912 {
+	if g, ok := s.Figures.Lookup("gain_ac"); !ok || math.Abs(g+16.4912) > 0.01*16.4912 {
 		t.Errorf("gain_ac = %v (present %v), want about −16.4912", g, ok)
 	}
 	if len(s.Flags) > 0 {
@@ -339,26 +341,8 @@ R1 = { r = "47k", pins = ["o", "ht"] }`)
 	}
 }
 
-func TestFigureText(t *testing.T) {
-	for _, c := range []struct {
-		key  string
-		v    float64
-		want string
-	}{
-		{"f_hz", 1.47e6, "1.47 MHz"},          // SI prefix, common practice
-		{"osc_f_min_hz", 1455e3, "1.455 MHz"}, // four digits keep kHz steps
-		{"tau_s", 0.1, "0.1 s"},
-		{"tau_s", 4.7e-3, "4.7 ms"},
-		{"tau_s", 2.209, "2.21 s"},
-		{"gain", -16.4912, "-16.5"},
-		{"gain_db", 35.78, "35.8 dB"},
-		{"pad_c_f", 364.241e-12, "364.2 pF"},
-		{"k", 0.0102062, "0.0102"},
-		{"feedback", 0.1, "0.1"},
-		{"turns_ratio", 31.6, "31.6"},
-	} {
-		if got := FigureText(c.key, c.v); got != c.want {
-			t.Errorf("FigureText(%q, %g) = %q, want %q", c.key, c.v, got, c.want)
-		}
-	}
+// fig is the number under a JSON key of a stage's figures, 0 when absent.
+func fig(l figure.List, key string) float64 {
+	v, _ := l.Lookup(key)
+	return v
 }

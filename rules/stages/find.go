@@ -8,18 +8,19 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/figure"
 )
 
 // Stage is one recognised stage.
 type Stage struct {
-	Name     string             `json:"name"`     // in signal order: "S1", "S2", …; sub-stages "S2.1", "S2.2"
-	Topology string             `json:"topology"` // pattern id, e.g. "hartley-common-tap"
-	Title    string             `json:"title"`    // e.g. "Hartley oscillator, cathode tap (valve)"
-	Family   string             `json:"family"`   // "valve" | "bjt" | "fet" | "passive"
-	Parts    []string           `json:"parts"`
-	Figures  map[string]float64 `json:"figures"` // SI base units: "f_min_hz", "gain", "tau_s", …
-	Flags    []string           `json:"flags"`
-	Contains []string           `json:"contains,omitempty"` // names of sub-stages
+	Name     string      `json:"name"`     // in signal order: "S1", "S2", …; sub-stages "S2.1", "S2.2"
+	Topology string      `json:"topology"` // pattern id, e.g. "hartley-common-tap"
+	Title    string      `json:"title"`    // e.g. "Hartley oscillator, cathode tap (valve)"
+	Family   string      `json:"family"`   // "valve" | "bjt" | "fet" | "passive"
+	Parts    []string    `json:"parts"`
+	Figures  figure.List `json:"figures"` // in the order a person reads them; JSON: key → SI number, "f_min_hz", "gain", "tau_s", …
+	Flags    []string    `json:"flags"`
+	Contains []string    `json:"contains,omitempty"` // names of sub-stages
 	// Supply marks a power-supply stage found on the full circuit: it comes
 	// after every signal stage and is on no reduced sheet.
 	Supply bool `json:"supply,omitempty"`
@@ -27,8 +28,9 @@ type Stage struct {
 	// rotation"), so a note that quotes a figure can quote its basis too.
 	Notes []string `json:"notes,omitempty"`
 
-	group string
-	nets  map[string]string // pattern net → circuit net
+	group    string
+	nets     map[string]string  // pattern net → circuit net
+	figRanks map[string]figRank // figure name → its place in the one order (figorder.go)
 }
 
 // Options steer Find.
@@ -248,9 +250,6 @@ func (s *Stage) public() Stage {
 	if t.Flags == nil {
 		t.Flags = []string{}
 	}
-	if t.Figures == nil {
-		t.Figures = map[string]float64{}
-	}
 	return t
 }
 
@@ -383,8 +382,7 @@ func relation(a, b map[string]bool) (inside, overlap bool) {
 // when a guard rejects it or the pattern does not serve the family matched.
 func evaluate(w *world, m *match) *Stage {
 	p := m.v.p
-	st := &Stage{Topology: p.ID, group: p.Group,
-		Figures: map[string]float64{}, nets: map[string]string{}}
+	st := &Stage{Topology: p.ID, group: p.Group, nets: map[string]string{}}
 	for i, vp := range m.v.parts {
 		if !vp.pp.Shared {
 			st.Parts = append(st.Parts, w.parts[m.parts[i]].Ref)
@@ -424,11 +422,12 @@ func evaluate(w *world, m *match) *Stage {
 		calcs[f.Calc].fn(x)
 	}
 	for _, g := range p.Guards {
-		v, ok := st.Figures[g.Figure]
+		v, ok := st.Figures.Lookup(g.Figure)
 		if !ok || math.IsNaN(v) || g.HasMin && v < g.Min || g.HasMax && v > g.Max {
 			return nil
 		}
 	}
+	sortFigures(st)
 	sort.Strings(st.Flags)
 	return st
 }

@@ -8,6 +8,19 @@ import (
 	"pare/graph"
 	"pare/graph/ac"
 	model "pare/graph/device"
+	"pare/graph/figure"
+)
+
+// The formulas behind the gain figures, by the names a figure's origin
+// gives them (reference-values §5; from memory where calcGain says so).
+var (
+	byDecibels  = figure.ByFormula("20·log10|A|")
+	byROut      = figure.ByFormula("Rout = ra/(µ+1) ∥ Rk (1/gm ∥ RS)")
+	byLoad      = figure.ByFormula("RL = load ∥ every resistor to AC ground")
+	byDynamicR  = figure.ByFormula("Rd = Q·ω0·L")
+	byTapShare  = figure.ByFormula("n = √Lcold/(√L1 + √L2)")
+	byTunedGain = figure.ByFormula("A = −gm·(Rd·n² ∥ ra)")
+	byBypassR   = figure.ByFormula("R = Rk ∥ Z into the common electrode")
 )
 
 // device is the small-signal description of an amplifying part, as the
@@ -129,7 +142,7 @@ func calcGain(x *figCtx) {
 		} else {
 			a = d.gm * rk / (1 + d.gm*rk)
 		}
-		x.set("r_out_ohm", parallel(d.small.ZCommon(0), rk))
+		x.set("r_out", figure.Ohm, parallel(d.small.ZCommon(0), rk), byROut)
 	case "grid":
 		if d.kind == graph.Valve {
 			a = (d.mu + 1) * rl / (d.ra + rl)
@@ -147,13 +160,13 @@ func calcGain(x *figCtx) {
 	default:
 		return
 	}
-	x.set("gain", a)
+	x.set("gain", figure.Ratio, a, figure.ByFormula("textbook mid-band gain, "+form+" form"))
 	if a != 0 {
-		x.set("gain_db", 20*math.Log10(math.Abs(a)))
+		x.set("gain", figure.Decibel, 20*math.Log10(math.Abs(a)), byDecibels)
 	}
 	x.crossCheckGain(p, form, a)
 	if form != "follower" {
-		x.set("r_load_ohm", rl)
+		x.set("r_load", figure.Ohm, rl, byLoad)
 	}
 }
 
@@ -235,10 +248,10 @@ func (x *figCtx) crossCheckGain(p *graph.Part, form string, a float64) {
 	if real(h[0]) < 0 {
 		g = -g
 	}
-	x.set("gain_ac", g)
+	x.set("gain_ac", figure.Ratio, g, figure.BySolver("V("+outNet+")/V("+inNet+")", hz(f)+", gang at mid travel"))
 	if math.Abs(g-a) > gainAgreement*math.Abs(a) {
 		x.flag("textbook gain %s but the AC solver gives %s at %s: the stage is loaded or fed back beyond the formula",
-			trimFloat(a), trimFloat(g), FigureText("f_hz", f))
+			figure.Plain(a), figure.Plain(g), hz(f))
 	}
 }
 
@@ -323,9 +336,9 @@ func calcTunedGain(x *figCtx) {
 		return
 	}
 	rd := q * 2 * math.Pi * f0 * c.l
-	x.set("r_dyn_ohm", rd)
+	x.set("r_dyn", figure.Ohm, rd, byDynamicR)
 	n := x.tapShare()
-	x.set("tap_share", n)
+	x.set("tap_share", figure.Ratio, n, byTapShare)
 	if d.missing != "" {
 		x.flag("gain not computed: give %s %s", p.Ref, d.missing)
 		return
@@ -338,7 +351,7 @@ func calcTunedGain(x *figCtx) {
 	if d.kind == graph.Valve && gm == 0 && d.ra > 0 {
 		gm = d.mu / d.ra
 	}
-	x.set("gain_unloaded", -gm*parallel(rd*n*n, rOut))
+	x.set("gain_unloaded", figure.Ratio, -gm*parallel(rd*n*n, rOut), byTunedGain)
 }
 
 // tapShare is the share of the tuned winding's turns between its cold end
@@ -407,9 +420,9 @@ func calcBypass(x *figCtx) {
 	r := rk
 	if zin > 0 && !math.IsInf(zin, 1) {
 		r = parallel(rk, zin)
-		x.set("r_ohm", r)
+		x.set("r", figure.Ohm, r, byBypassR)
 	}
 	tau := r * ck
-	x.set("tau_s", tau)
-	x.set("f_c_hz", 1/(2*math.Pi*tau))
+	x.set("tau", figure.Second, tau, byTau)
+	x.set("f_c", figure.Hertz, 1/(2*math.Pi*tau), byCorner)
 }

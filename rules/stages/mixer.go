@@ -1,13 +1,23 @@
 package stages
 
 import (
-	"errors"
-	"fmt"
 	"math"
-	"sort"
-	"strings"
 
 	"pare/graph"
+	"pare/graph/figure"
+)
+
+// The formulas of coupled tuned circuits and frequency changers, by the
+// names a figure's origin gives them (reference-values §2, §6).
+var (
+	byCoupling   = figure.FromNetlist("coupling k")
+	byWindingQ   = figure.FromNetlist("winding Q")
+	byCritical   = figure.ByFormula("kc = 1/√(Q1Q2)")
+	byKRatio     = figure.ByFormula("k/kc")
+	byBandwidth  = figure.ByFormula("B = √2·f0/Q, Q = √(Q1Q2)")
+	byDeclaredIF = figure.FromNetlist("[freqs] if")
+	bySignal     = figure.ByFormula("fsig = fosc − IF")
+	byImage      = figure.ByFormula("fimage = fsig + 2·IF")
 )
 
 // calcDoubleTuned: both resonances of a coupled pair of tuned windings; with
@@ -29,7 +39,7 @@ func calcDoubleTuned(x *figCtx) {
 	f1 := x.windingTank(ci, c1, x.parts("caps1"), "1")
 	f2 := x.windingTank(ci, c2, x.parts("caps2"), "2")
 	k := p.K(c1.name, c2.name)
-	x.set("k", k)
+	x.set("k", figure.Ratio, k, byCoupling)
 	q1, q2 := c1.q, c2.q
 	if q, ok := p.Param("q"); ok {
 		if q1 == 0 {
@@ -40,42 +50,48 @@ func calcDoubleTuned(x *figCtx) {
 		}
 	}
 	if q1 > 0 && q2 > 0 {
-		q := math.Sqrt(q1 * q2)
-		kc := 1 / q
-		x.set("q1", q1)
-		x.set("q2", q2)
-		x.set("kc", kc)
-		if f1 > 0 {
-			x.set("bw_hz", math.Sqrt2*f1/q)
-		}
-		if k > 0 {
-			x.set("k_ratio", k/kc)
-			switch r := k / kc; {
-			case r > 2:
-				x.flag("%s is over-coupled (k = %s·kc): expect a double-humped response", p.Ref, trimFloat(r))
-			case r < 0.5:
-				x.flag("%s is under-coupled (k = %s·kc): low gain, narrow response", p.Ref, trimFloat(r))
-			}
-		}
+		x.coupledPair(p.Ref, f1, k, q1, q2)
 	}
 	for _, f := range []float64{f1, f2} {
 		x.checkIF(p.Ref, f)
 	}
 }
 
-// windingTank writes one side's resonance (f1_hz or f2_hz, or a range) and
-// returns the fixed or mid-range value for later figures.
+// coupledPair writes the critical coupling and bandwidth of a pair of
+// windings of Q q1 and q2 coupled by k, and flags a pair far from critical.
+func (x *figCtx) coupledPair(ref string, f1, k, q1, q2 float64) {
+	q := math.Sqrt(q1 * q2)
+	kc := 1 / q
+	x.set("q1", figure.Ratio, q1, byWindingQ)
+	x.set("q2", figure.Ratio, q2, byWindingQ)
+	x.set("kc", figure.Ratio, kc, byCritical)
+	if f1 > 0 {
+		x.set("bw", figure.Hertz, math.Sqrt2*f1/q, byBandwidth)
+	}
+	if k <= 0 {
+		return
+	}
+	x.set("k_ratio", figure.Ratio, k/kc, byKRatio)
+	switch r := k / kc; {
+	case r > 2:
+		x.flag("%s is over-coupled (k = %s·kc): expect a double-humped response", ref, figure.Plain(r))
+	case r < 0.5:
+		x.flag("%s is under-coupled (k = %s·kc): low gain, narrow response", ref, figure.Plain(r))
+	}
+}
+
+// windingTank writes one side's resonance (f1 or f2, a value or a range)
+// and returns the fixed or mid-range value for later figures.
 func (x *figCtx) windingTank(ci int, cl coil, caps []*graph.Part, side string) float64 {
 	a, b := x.w.pinNet(ci, cl.pins[0]), x.w.pinNet(ci, cl.pins[len(cl.pins)-1])
 	cmin, cmax := capBetween(x.w, caps, a, b, 0), capBetween(x.w, caps, a, b, 1)
-	x.set("l"+side+"_h", cl.l)
+	x.set("l"+side, figure.Henry, cl.l, byPartValue)
 	if cmax > cmin*1.0001 {
-		x.set("f"+side+"_min_hz", resonance(cl.l, cmax))
-		x.set("f"+side+"_max_hz", resonance(cl.l, cmin))
+		x.span("f"+side, figure.Hertz, resonance(cl.l, cmax), resonance(cl.l, cmin), byResonance)
 		return resonance(cl.l, (cmin+cmax)/2)
 	}
 	f := resonance(cl.l, cmax)
-	x.set("f"+side+"_hz", f)
+	x.set("f"+side, figure.Hertz, f, byResonance)
 	return f
 }
 
@@ -99,8 +115,8 @@ func (x *figCtx) checkIF(ref string, f float64) {
 	if off < 0 {
 		dir = "below"
 	}
-	x.flag("%s is tuned to %s, %s (%s %%) %s the declared IF %s", ref, FigureText("f_hz", f), FigureText("f_hz", math.Abs(off)),
-		trimFloat(100*math.Abs(off)/ifHz), dir, FigureText("f_hz", ifHz))
+	x.flag("%s is tuned to %s, %s (%s %%) %s the declared IF %s", ref, hz(f), hz(math.Abs(off)),
+		figure.Plain(100*math.Abs(off)/ifHz), dir, hz(ifHz))
 }
 
 // calcMixer: for a self-oscillating or separate-oscillator mixer the
@@ -114,12 +130,31 @@ func calcMixer(x *figCtx) {
 	if !ok {
 		return
 	}
-	oa, ob, lo := oc.a, oc.b, oc.l
 	oscCaps := x.parts("caps")
-	omin, omax := resonance(lo, capBetween(x.w, oscCaps, oa, ob, 1)), resonance(lo, capBetween(x.w, oscCaps, oa, ob, 0))
-	x.set("osc_f_min_hz", omin)
-	x.set("osc_f_max_hz", omax)
-	ifHz := x.w.c.Freqs["if"]
+	osc := &tankModel{w: x.w, l: oc.l, a: oc.a, b: oc.b, caps: oscCaps}
+	omin, omax := osc.f(1), osc.f(0)
+	x.span("osc_f", figure.Hertz, omin, omax, byResonance)
+	ifHz := x.intermediate()
+	if !(ifHz > 0) {
+		return
+	}
+	smin, smax := omin-ifHz, omax-ifHz
+	x.span("sig_f", figure.Hertz, smin, smax, bySignal)
+	x.span("image_f", figure.Hertz, smin+2*ifHz, smax+2*ifHz, byImage)
+	if b := x.w.c.Band; b.Max > 0 {
+		// 1 % short of a band edge is within what the trimmers set.
+		if smin > b.Min*1.01 || smax < b.Max*0.99 {
+			x.flag("oscillator covers %s–%s: with the IF %s the set tunes %s–%s, not the whole band %s–%s",
+				hz(omin), hz(omax), hz(ifHz), hz(smin), hz(smax), hz(b.Min), hz(b.Max))
+		}
+	}
+	x.tracking(osc.original(oc, x.w.orig), ifHz)
+}
+
+// intermediate writes the IF transformer's tuning and the IF, and returns
+// the IF: the declared one, else the transformer's; NaN when neither is
+// known.
+func (x *figCtx) intermediate() float64 {
 	spec := x.spec
 	x.spec = FigureSpec{Calc: "tank", Args: map[string][]string{"coil": spec.Args["ift"], "caps": spec.Args["ift_caps"], "winding": {"1"}}}
 	ic, iok := x.coil("coil")
@@ -127,37 +162,28 @@ func calcMixer(x *figCtx) {
 	ift := math.NaN()
 	if iok {
 		ift = resonance(ic.l, capBetween(x.w, x.parts("ift_caps"), ic.a, ic.b, 1))
-		x.set("ift_f_hz", ift)
+		x.set("ift_f", figure.Hertz, ift, byResonance)
 		if p := x.part("ift"); p != nil {
 			x.checkIF(p.Ref, ift)
 		}
 	}
-	if ifHz <= 0 {
-		ifHz = ift
+	if ifHz := x.w.c.Freqs["if"]; ifHz > 0 {
+		x.set("if", figure.Hertz, ifHz, byDeclaredIF)
+		return ifHz
 	}
-	if !(ifHz > 0) {
-		return
-	}
-	x.set("if_hz", ifHz)
-	smin, smax := omin-ifHz, omax-ifHz
-	x.set("sig_f_min_hz", smin)
-	x.set("sig_f_max_hz", smax)
-	x.set("image_f_min_hz", smin+2*ifHz)
-	x.set("image_f_max_hz", smax+2*ifHz)
-	if b := x.w.c.Band; b.Max > 0 {
-		// 1 % short of a band edge is within what the trimmers set.
-		if smin > b.Min*1.01 || smax < b.Max*0.99 {
-			x.flag("oscillator covers %s–%s: with the IF %s the set tunes %s–%s, not the whole band %s–%s",
-				FigureText("f_hz", omin), FigureText("f_hz", omax), FigureText("f_hz", ifHz),
-				FigureText("f_hz", smin), FigureText("f_hz", smax), FigureText("f_hz", b.Min), FigureText("f_hz", b.Max))
-		}
-	}
-	osc := &tankModel{w: x.w, l: lo, a: oa, b: ob, caps: oscCaps}
-	x.tracking(osc.original(oc, x.w.orig), ifHz)
+	x.set("if", figure.Hertz, ift, byResonance)
+	return ift
 }
 
 // tankModel is a coil and the capacitors that tune it, between nets a and b
 // of world w.
+type tankModel struct {
+	w    *world
+	l    float64
+	a, b int
+	caps []*graph.Part
+}
+
 // gangRef names the tank's section of the gang.
 func (t *tankModel) gangRef(gang string) string {
 	for _, p := range t.caps {
@@ -168,13 +194,8 @@ func (t *tankModel) gangRef(gang string) string {
 	return "the other section"
 }
 
-type tankModel struct {
-	w    *world
-	l    float64
-	a, b int
-	caps []*graph.Part
-}
-
+// f is the tank's resonance with its variable capacitors at frac of their
+// travel (0 at minimum capacitance).
 func (t *tankModel) f(frac float64) float64 {
 	return resonance(t.l, capBetween(t.w, t.caps, t.a, t.b, frac))
 }
@@ -213,128 +234,6 @@ func (t *tankModel) original(oc coilEnds, orig *world) *tankModel {
 	return out
 }
 
-// tracking compares the oscillator with the signal tank ganged to it. Both
-// sections turn together; capacitance is taken as linear in rotation (the
-// gang's plate shape is not in the netlist).
-func (x *figCtx) tracking(osc *tankModel, ifHz float64) {
-	var gangCap *graph.Part
-	for _, p := range osc.caps {
-		if p.Gang != "" && p.Type == graph.CapVariable {
-			gangCap = p
-			break
-		}
-	}
-	if gangCap == nil {
-		return
-	}
-	sig := findGangTank(osc.w, gangCap, osc.caps)
-	if sig == nil {
-		return
-	}
-	worst, worstAt := 0.0, 0.0
-	const steps = 100
-	for i := 0; i <= steps; i++ {
-		th := float64(i) / steps
-		fs, fo := sig.f(th), osc.f(th)
-		if e := fo - (fs + ifHz); math.Abs(e) > math.Abs(worst) {
-			worst, worstAt = e, fs
-		}
-	}
-	x.set("track_err_max_hz", worst)
-	x.set("track_err_at_hz", worstAt)
-	fitted := fittedTracking(sig.f, osc.f, ifHz)
-	for i, f := range fitted {
-		x.set(fmt.Sprintf("track_fit%d_hz", i+1), f)
-	}
-	fittedText := "the fitted set tracks exactly nowhere on the dial"
-	if len(fitted) > 0 {
-		var at []string
-		for _, f := range fitted {
-			at = append(at, FigureText("f_hz", f))
-		}
-		fittedText = "the fitted set tracks exactly at " + andList(at)
-	}
-	ideal := TrackingPoints(sig.f(1), sig.f(0))
-	x.st.Notes = append(x.st.Notes, fmt.Sprintf("tracking: %s and %s turn together, capacitance taken as linear in rotation; %s; a suggested three-point design would be exact at %s",
-		gangCap.Ref, sig.gangRef(gangCap.Gang), fittedText,
-		andList([]string{FigureText("f_hz", ideal[0]), FigureText("f_hz", ideal[1]), FigureText("f_hz", ideal[2])})))
-	// Common practice, no source: tracking should stay well inside the IF
-	// pass-band; 2 % of the IF (9 kHz at 455 kHz) is taken as the line.
-	if math.Abs(worst) > 0.02*ifHz {
-		x.flag("oscillator tracking is off by up to %s (at %s on the dial): check the padder and trimmers", FigureText("f_hz", worst), FigureText("f_hz", worstAt))
-	}
-	var gang *graph.Part
-	for _, p := range sig.caps {
-		if p.Gang == gangCap.Gang && p.Type == graph.CapVariable {
-			gang = p
-		}
-	}
-	fixed := capBetween(sig.w, sig.caps, sig.a, sig.b, 0) - gang.Capacitance(0)
-	pts := TrackingPoints(sig.f(1), sig.f(0))
-	sol, err := ThreePoint(sig.l, fixed, ifHz, pts)
-	if err != nil {
-		return
-	}
-	for i, f := range pts {
-		x.set("track_f"+string(rune('1'+i))+"_hz", f)
-	}
-	x.set("pad_c_f", sol.Padder)
-	x.set("pad_trim_f", sol.Trimmer)
-	x.set("pad_l_h", sol.L)
-}
-
-// trackingScan is how finely fittedTracking walks the dial before it
-// closes in on a crossing: fine enough that two crossings never fall in one
-// step of a broadcast gang.
-const trackingScan = 2000
-
-// fittedTracking is where the fitted parts track exactly: the dial points
-// (as signal frequencies, low to high) where the oscillator minus the
-// signal frequency crosses the IF, fosc − (fsig + IF) = 0. Each sign change
-// over the scan is narrowed by bisection.
-func fittedTracking(sig, osc func(th float64) float64, ifHz float64) []float64 {
-	errAt := func(th float64) float64 { return osc(th) - (sig(th) + ifHz) }
-	var out []float64
-	prevTh, prevE := 0.0, errAt(0)
-	if prevE == 0 {
-		out = append(out, sig(0))
-	}
-	for i := 1; i <= trackingScan; i++ {
-		th := float64(i) / trackingScan
-		e := errAt(th)
-		switch {
-		case e == 0:
-			out = append(out, sig(th))
-		case prevE != 0 && math.Signbit(e) != math.Signbit(prevE):
-			lo, hi, elo := prevTh, th, prevE
-			for range 60 {
-				mid := (lo + hi) / 2
-				em := errAt(mid)
-				if math.Signbit(em) == math.Signbit(elo) {
-					lo, elo = mid, em
-				} else {
-					hi = mid
-				}
-			}
-			out = append(out, sig((lo+hi)/2))
-		}
-		prevTh, prevE = th, e
-	}
-	sort.Float64s(out)
-	return out
-}
-
-// andList joins items as prose: "a", "a and b", "a, b and c".
-func andList(items []string) string {
-	switch len(items) {
-	case 0:
-		return ""
-	case 1:
-		return items[0]
-	}
-	return strings.Join(items[:len(items)-1], ", ") + " and " + items[len(items)-1]
-}
-
 // findGangTank finds the other section of a gang and the tank it tunes: a
 // coil and the capacitors across the same two nets.
 func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *tankModel {
@@ -369,83 +268,4 @@ func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *tankModel {
 		}
 	}
 	return nil
-}
-
-// TrackingPoints are the three dial frequencies where a padded oscillator is
-// made to track exactly: at 6 %, 49 % and 91.5 % of the signal range, which
-// gives the customary 600, 1100 and 1600 kHz on a 530–1700 kHz band
-// (reference-values §2; the fractions are ours).
-func TrackingPoints(fmin, fmax float64) [3]float64 {
-	span := fmax - fmin
-	return [3]float64{fmin + 0.06*span, fmin + 0.49*span, fmin + 0.915*span}
-}
-
-// Padding is a three-point tracking solution: the oscillator coil L in
-// parallel with [(gang + Trimmer) in series with Padder].
-type Padding struct{ L, Trimmer, Padder float64 }
-
-// ThreePoint solves for the oscillator coil, trimmer and padder that make the
-// oscillator run exactly IF above a signal tank (coil ls, fixed capacitance
-// ct beside the gang) at the three signal frequencies pts. At each point the
-// gang stands at Cg = 1/(ω²Ls) − Ct; the oscillator then needs
-// 1/(Cg+Ct2) + 1/Cp = ωo²L2. Differences eliminate Cp; the ratio of the two
-// differences is one equation in Ct2, solved by bisection; L2 and Cp follow.
-func ThreePoint(ls, ct, ifHz float64, pts [3]float64) (Padding, error) {
-	var cg, a [3]float64
-	for i, f := range pts {
-		w := 2 * math.Pi * f
-		cg[i] = 1/(w*w*ls) - ct
-		wo := 2 * math.Pi * (f + ifHz)
-		a[i] = wo * wo
-	}
-	lower := math.Min(cg[0], math.Min(cg[1], cg[2]))
-	if lower <= 0 {
-		return Padding{}, errors.New("tracking points outside the gang's range")
-	}
-	g := func(t float64) float64 {
-		d12 := 1/(cg[0]+t) - 1/(cg[1]+t)
-		d13 := 1/(cg[0]+t) - 1/(cg[2]+t)
-		return d12*(a[0]-a[2]) - d13*(a[0]-a[1])
-	}
-	// Scan for a sign change from just above −min(Cg) up to 1 nF of trimmer.
-	lo := -lower * 0.999
-	prev, prevG := lo, g(lo)
-	found := false
-	var hi float64
-	for i := 1; i <= 4000; i++ {
-		t := lo + (1e-9-lo)*float64(i)/4000
-		if gt := g(t); gt == 0 || math.Signbit(gt) != math.Signbit(prevG) {
-			lo, hi, found = prev, t, true
-			break
-		} else {
-			prev, prevG = t, gt
-		}
-	}
-	if !found {
-		return Padding{}, errors.New("no three-point solution")
-	}
-	glo := g(lo)
-	for i := 0; i < 200; i++ {
-		mid := (lo + hi) / 2
-		gm := g(mid)
-		if math.Signbit(gm) == math.Signbit(glo) {
-			lo, glo = mid, gm
-		} else {
-			hi = mid
-		}
-	}
-	t := (lo + hi) / 2
-	l2 := (1/(cg[0]+t) - 1/(cg[1]+t)) / (a[0] - a[1])
-	invCp := a[0]*l2 - 1/(cg[0]+t)
-	if l2 <= 0 || invCp <= 0 {
-		return Padding{}, errors.New("three-point solution is not physical")
-	}
-	return Padding{L: l2, Trimmer: t, Padder: 1 / invCp}, nil
-}
-
-// OscillatorAt is the frequency of a padded oscillator (see Padding) when the
-// gang stands at cg.
-func (p Padding) OscillatorAt(cg float64) float64 {
-	c := cg + p.Trimmer
-	return resonance(p.L, c*p.Padder/(c+p.Padder))
 }

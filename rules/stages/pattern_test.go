@@ -89,7 +89,7 @@ C1 = { c = "100n", pins = ["m", "gnd"] }`)
 		t.Fatalf("user pattern not used: %s", topologies(st))
 	}
 	// τ = 10 kΩ × 100 nF = 1 ms (reference-values §4 formula).
-	if got := s.Figures["tau_s"]; got < 0.999e-3 || got > 1.001e-3 {
+	if got := fig(s.Figures, "tau_s"); got < 0.999e-3 || got > 1.001e-3 {
 		t.Errorf("tau_s = %g, want 1 ms", got)
 	}
 	if err := os.WriteFile(filepath.Join(dir, "broken.toml"), []byte("id = \"b\"\ntitle = \"B\"\ngroup = \"tuned\"\n[nets]\na = {}\n[parts]\nC = { device = \"capacitor\", pins = [\"a\", \"q\"] }\n"), 0o644); err != nil {

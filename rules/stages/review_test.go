@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/graph/figure"
 	"pare/rules"
 )
 
@@ -70,7 +71,7 @@ T2 = { windings = { p = "10", s = "25m" }, k = 0.99, pins = { p1 = "a2", p2 = "h
 	// n = √(Lp/Ls), inductance going with turns squared (from memory); the
 	// primary's two 10 H halves are one winding, (√10 + √10)² = 40 H, so
 	// n = √(40 H / 25 mH) = 40.
-	if got := s.Figures["turns_ratio"]; !within(got, 40, 0.001) {
+	if got := fig(s.Figures, "turns_ratio"); !within(got, 40, 0.001) {
 		t.Errorf("turns ratio %g, want 40", got)
 	}
 }
@@ -93,10 +94,10 @@ func TestRCLadder(t *testing.T) {
 		if loaded {
 			key = "f_c_unloaded_hz"
 		}
-		if got := s.Figures[key]; !within(got, fc, 1e-6) {
+		if got := fig(s.Figures, key); !within(got, fc, 1e-6) {
 			t.Errorf("%s %s = %g, want %g; figures %v", s.Name, key, got, fc, s.Figures)
 		}
-		if _, ok := s.Figures["f_c_hz"]; ok && loaded {
+		if _, ok := s.Figures.Lookup("f_c_hz"); ok && loaded {
 			t.Errorf("%s: a loaded section reports a plain corner f_c_hz", s.Name)
 		}
 		if loaded != (len(s.Notes) > 0 && strings.Contains(s.Notes[0], "unloaded")) {
@@ -215,7 +216,7 @@ C2 = { c = "365p", pins = ["t", "gnd"] }`, 0, 0, 0, "no resistance to feed: no c
 				if s == nil {
 					t.Fatalf("no coupling capacitor: %s", topologies(st))
 				}
-				fc, has := s.Figures["f_c_hz"]
+				fc, has := s.Figures.Lookup("f_c_hz")
 				if tc.fc == 0 {
 					if has {
 						t.Errorf("corner %g Hz with nothing resistive to feed", fc)
@@ -225,8 +226,8 @@ C2 = { c = "365p", pins = ["t", "gnd"] }`, 0, 0, 0, "no resistance to feed: no c
 					}
 					return
 				}
-				if !within(fc, tc.fc, 1e-5) || !within(s.Figures["tau_s"], tc.tau, 1e-9) || !within(s.Figures["r_in_ohm"], tc.rIn, 1e-9) {
-					t.Errorf("fc %g τ %g R %g, want %g, %g, %g (%s)", fc, s.Figures["tau_s"], s.Figures["r_in_ohm"], tc.fc, tc.tau, tc.rIn, tc.source)
+				if !within(fc, tc.fc, 1e-5) || !within(fig(s.Figures, "tau_s"), tc.tau, 1e-9) || !within(fig(s.Figures, "r_in_ohm"), tc.rIn, 1e-9) {
+					t.Errorf("fc %g τ %g R %g, want %g, %g, %g (%s)", fc, fig(s.Figures, "tau_s"), fig(s.Figures, "r_in_ohm"), tc.fc, tc.tau, tc.rIn, tc.source)
 				}
 			})
 		}
@@ -238,8 +239,8 @@ C2 = { c = "365p", pins = ["t", "gnd"] }`, 0, 0, 0, "no resistance to feed: no c
 	if s == nil {
 		t.Fatalf("triode stage: %s", topologies(st))
 	}
-	if want := 1 / (2 * math.Pi * 1e6 * 22e-9); !within(s.Figures["f_c_hz"], want, 1e-6) {
-		t.Errorf("triode input corner %g Hz, want %g", s.Figures["f_c_hz"], want)
+	if want := 1 / (2 * math.Pi * 1e6 * 22e-9); !within(fig(s.Figures, "f_c_hz"), want, 1e-6) {
+		t.Errorf("triode input corner %g Hz, want %g", fig(s.Figures, "f_c_hz"), want)
 	}
 	if !slices.Equal(s.Parts, []string{"C1", "R1"}) {
 		t.Errorf("coupling stage parts %v, want [C1 R1]", s.Parts)
@@ -305,20 +306,17 @@ func TestStageNamesAvoidRefs(t *testing.T) {
 	}
 }
 
-// Figure names in the trade's words; keys whose plain spelling serves are
-// left to the caller.
-func TestFigureName(t *testing.T) {
-	for _, tc := range []struct {
-		key, want string
-		ok        bool
-	}{
-		{"if_hz", "IF", true}, {"ift_f_hz", "IF transformer f", true}, {"load_f_hz", "load tuned f", true},
-		{"f_c_unloaded_hz", "f c (unloaded)", true}, {"pad_c_f", "suggested 3-point padder", true}, {"gain_min", "gain needed to oscillate ≥", true},
-		{"gain", "", false}, {"f_c_hz", "", false}, {"tau_s", "", false}, {"_hz", "", false},
+// Figure labels in the trade's words: a row of the figure table for the
+// whole name, the prefix's word before a known name, else the name spelt
+// plainly.
+func TestFigureLabels(t *testing.T) {
+	for _, tc := range []struct{ prefix, name, want string }{
+		{"", "if", "IF"}, {"", "ift_f", "IF transformer f"}, {"ift", "f", "IF transformer f"}, {"load", "f", "load tuned f"},
+		{"", "f_c_unloaded", "f c (unloaded)"}, {"", "pad_c", "padder"}, {"", "gain_min", "gain needed to oscillate ≥"},
+		{"grid", "f_c", "grid f c"}, {"bypass", "tau", "bypass tau"}, {"", "gain", "gain"}, {"", "r_track", "r track"},
 	} {
-		got, ok := FigureName(tc.key)
-		if got != tc.want || ok != tc.ok {
-			t.Errorf("FigureName(%q) = %q, %v; want %q, %v", tc.key, got, ok, tc.want, tc.ok)
+		if got := nameOf(tc.prefix, tc.name, figure.Ratio).label; got != tc.want {
+			t.Errorf("label of %q under prefix %q = %q, want %q", tc.name, tc.prefix, got, tc.want)
 		}
 	}
 }

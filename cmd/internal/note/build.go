@@ -4,10 +4,10 @@ import (
 	"path/filepath"
 	"sort"
 
-	"pare/cmd/internal/figtext"
 	"pare/cmd/internal/pipeline"
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/figure"
 	"pare/graph/value"
 	"pare/rules"
 	"pare/rules/stages"
@@ -123,7 +123,7 @@ func noteStages(found []stages.Stage) []Stage {
 		out[i] = Stage{
 			Name: s.Name, Title: s.Title, Topology: s.Topology, Family: s.Family,
 			Parts: s.Parts, Flags: s.Flags, Contains: s.Contains,
-			Figures: figtext.Line(s.Figures), // the same line `pare stages` prints
+			Figures: figure.Line(s.Figures, figure.Text), // the same line `pare stages` prints
 		}
 	}
 	return out

@@ -6,8 +6,8 @@ import (
 	"sort"
 	"strings"
 
-	"pare/cmd/internal/figtext"
 	"pare/graph"
+	"pare/graph/figure"
 	"pare/graph/value"
 	"pare/render"
 	"pare/rules"
@@ -133,9 +133,17 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 			parts = append(parts, ref)
 		}
 		sort.Strings(parts)
-		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: figtext.Frame(s.Figures, 2), Parts: parts})
+		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts})
 	}
 	return frames
+}
+
+// frameFigures is a frame's second line: the first n items of the stage's
+// figure line, in the one order (the ones a repairer checks first), at a
+// sheet's precision ("osc f 1–2.06 MHz").
+func frameFigures(figs figure.List, n int) string {
+	items := figure.Items(figs, figure.Sheet)
+	return strings.Join(items[:min(n, len(items))], ", ")
 }
 
 // Furniture is the sheet's information block, which the note repeats under
@@ -161,10 +169,8 @@ func Furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string
 		lines = append(lines, label+" "+value.Format(c.Freqs[k], value.Hertz, value.Symbol))
 	}
 	for _, s := range found {
-		lo, okLo := s.Figures["f_min_hz"]
-		hi, okHi := s.Figures["f_max_hz"]
-		if okLo && okHi && hi > lo {
-			lines = append(lines, "Tuning "+s.Name+": "+value.FormatRange(value.Range{Min: lo, Max: hi}, value.Hertz, value.Symbol))
+		if f, ok := s.Figures.Get("f"); ok && f.Range != nil && f.Range.Max > f.Range.Min {
+			lines = append(lines, "Tuning "+s.Name+": "+f.Text(figure.Sheet))
 		}
 	}
 	// A reduced sheet holds for one setting of each switch only (the

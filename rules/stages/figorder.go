@@ -1,0 +1,153 @@
+package stages
+
+import (
+	"cmp"
+	"slices"
+	"strings"
+
+	"pare/graph/figure"
+)
+
+// figName is what pare knows about a figure by its name: the words a person
+// reads before it, the item it makes with others (a group), and whether it
+// is a working value, one that goes into another figure (the C and L of a
+// resonance): JSON has it, a table and a sheet leave it out.
+type figName struct {
+	name, label, group string
+	working            bool
+	inDB               bool // the row of the figure's value in decibels (gain_db)
+}
+
+// suggestedDesign is the item a three-point padding design makes: a design
+// pare proposes, not the fitted set, so its parts and its exact points go
+// in one item that says so, and a repairer does not "correct" a good padder.
+const suggestedDesign = "suggested 3-point design"
+
+// figureNames is every figure a calc writes, in the one order a stage's
+// figures are read in: a table and a note list them so, a sheet's frame
+// shows the first two. First what a repairer checks first on a stage (the
+// oscillator and signal ranges, the resonance, the IF, the bandwidth, the
+// gain; common practice), then the rest, then the working values.
+var figureNames = []figName{
+	{name: "osc_f", label: "osc f"},
+	{name: "sig_f", label: "sig f"},
+	{name: "f", label: "f"},
+	{name: "f1", label: "f1"},
+	{name: "f2", label: "f2"},
+	{name: "if", label: "IF"},
+	{name: "ift_f", label: "IF transformer f"},
+	{name: "bw", label: "bandwidth"},
+	{name: "image_f", label: "image f"},
+	{name: "track_err_max", label: "track err max"},
+	{name: "track_err_at", label: "track err at"},
+	{name: "track_fit", label: "fitted set tracks exactly at"},
+	{name: "pad_c", label: "padder", group: suggestedDesign},
+	{name: "pad_l", label: "coil", group: suggestedDesign},
+	{name: "pad_trim", label: "trimmer", group: suggestedDesign},
+	{name: "track_f", label: "exact at", group: suggestedDesign},
+	{name: "gain", label: "gain"},
+	{name: "gain_ac", label: "gain (AC check)"},
+	{name: "gain_unloaded", label: "gain unloaded"},
+	{name: "load_f", label: "load tuned f"},
+	{name: "f_c", label: "f c"},
+	{name: "f_c_unloaded", label: "f c (unloaded)"},
+	{name: "tau", label: "tau"},
+	{name: "r_dyn", label: "dynamic R"},
+	{name: "tap_share", label: "tap share"},
+	{name: "r_load", label: "r load"},
+	{name: "r_out", label: "r out"},
+	{name: "r_in", label: "r in"},
+	{name: "r", label: "r"},
+	{name: "c_eff", label: "c eff"},
+	{name: "feedback", label: "feedback"},
+	{name: "gain_min", label: "gain needed to oscillate ≥"}, // the loop's threshold, not the stage's gain
+	{name: "k", label: "k"},
+	{name: "kc", label: "kc"},
+	{name: "z_ratio", label: "z ratio"},
+	{name: "turns_ratio", label: "turns ratio"},
+	{name: "c_reservoir", label: "c reservoir"},
+	{name: "c_smoothing", label: "c smoothing"},
+	{name: "l", working: true},
+	{name: "c", working: true},
+	{name: "l1", working: true},
+	{name: "l2", working: true},
+	{name: "m", working: true},
+	{name: "q1", working: true},
+	{name: "q2", working: true},
+	{name: "k_ratio", working: true},
+	{name: "gain", inDB: true, working: true}, // says what gain says
+}
+
+// figureIndex finds a figure in figureNames, -1 when it is not there (a
+// name a pattern's value calc gives).
+func figureIndex(name string, u figure.Unit) int {
+	return slices.IndexFunc(figureNames, func(n figName) bool { return n.name == name && n.inDB == (u == figure.Decibel) })
+}
+
+// figID tells figures apart for the order: by name and unit, as
+// figure.List.Put does.
+func figID(f figure.Figure) string { return f.Name + " " + f.Unit.String() }
+
+// prefixed puts a pattern's prefix before a figure's name: "osc", "f" →
+// "osc_f".
+func prefixed(prefix, name string) string {
+	if prefix == "" {
+		return name
+	}
+	return prefix + "_" + name
+}
+
+// nameOf is what the table says of a figure written under a prefix: the
+// whole name's row when it has one ("ift" + "f" is the IF transformer's
+// f), else the bare name's with the prefix's word before its label ("grid
+// f c"), else the name spelt plainly.
+func nameOf(prefix, name string, u figure.Unit) figName {
+	full := prefixed(prefix, name)
+	if i := figureIndex(full, u); i >= 0 {
+		n := figureNames[i]
+		n.label = labelOr(n, full)
+		return n
+	}
+	if i := figureIndex(name, u); i >= 0 && prefix != "" {
+		n := figureNames[i]
+		n.label = strings.ReplaceAll(prefix, "_", " ") + " " + labelOr(n, name)
+		return n
+	}
+	return figName{name: full, label: strings.ReplaceAll(full, "_", " ")}
+}
+
+func labelOr(n figName, name string) string {
+	if n.label != "" {
+		return n.label
+	}
+	return strings.ReplaceAll(name, "_", " ")
+}
+
+// figRank is a figure's place in the one order: the table's own rows
+// first in table order, then figures under a pattern's prefix (grouped by
+// prefix, in table order within), then names the table does not know, by
+// name.
+type figRank struct {
+	tier   int
+	prefix string
+	index  int
+}
+
+func rankOf(prefix, name string, u figure.Unit) figRank {
+	if i := figureIndex(prefixed(prefix, name), u); i >= 0 {
+		return figRank{tier: 0, index: i}
+	}
+	if i := figureIndex(name, u); i >= 0 {
+		return figRank{tier: 1, prefix: prefix, index: i}
+	}
+	return figRank{tier: 2, prefix: prefix}
+}
+
+// sortFigures puts a stage's figures in the one order.
+func sortFigures(st *Stage) {
+	slices.SortStableFunc(st.Figures, func(a, b figure.Figure) int {
+		ra, rb := st.figRanks[figID(a)], st.figRanks[figID(b)]
+		return cmp.Or(cmp.Compare(ra.tier, rb.tier), strings.Compare(ra.prefix, rb.prefix),
+			cmp.Compare(ra.index, rb.index), strings.Compare(a.Name, b.Name))
+	})
+}

@@ -1,0 +1,285 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/figure"
+)
+
+// The formulas of RC networks and filters, by the names a figure's origin
+// gives them (reference-values §4; handbook formulas, from memory where
+// the calc says so).
+var (
+	byTau        = figure.ByFormula("τ = RC")
+	byCorner     = figure.ByFormula("fc = 1/(2πRC)")
+	byPhaseShift = figure.ByFormula("f = 1/(2πRC√6)")
+	byPhaseGain  = figure.ByFormula("A ≥ 29")
+	byWien       = figure.ByFormula("f = 1/(2π√(R1R2C1C2))")
+	byWienGain   = figure.ByFormula("A ≥ 1 + R1/R2 + C2/C1")
+	byChoke      = figure.ByFormula("fc = 1/(2π√(LC2))")
+	bySmoothRC   = figure.ByFormula("fc = 1/(2πRC2)")
+	byLoadR      = figure.BySolver("DC resistance to AC ground, nodal analysis", "")
+)
+
+// calcRC: τ = RC and the corner fc = 1/(2πRC) (reference-values §4). use =
+// "agc" or "detector" adds the checks a repairer makes on those.
+func calcRC(x *figCtx) {
+	r := parallelR(x.parts("r"))
+	c := sumCap(x.parts("c"), 1)
+	use := x.word("use", "")
+	if use == "detector" {
+		r = x.detectorLoad(r)
+	}
+	if r <= 0 || c <= 0 {
+		return
+	}
+	if use == "section" && x.backwards(x.parts("r"), x.parts("c")) {
+		return // the capacitor is the previous section's: no figures, the guard drops the match
+	}
+	if use == "coupling" && x.upstream(x.parts("r"), x.parts("c")) {
+		return // the resistor is the source's (an anode load, a source resistor): no figures, the guard drops the match
+	}
+	tau := r * c
+	fc := 1 / (2 * math.Pi * tau)
+	x.set("tau", figure.Second, tau, byTau)
+	if use == "section" {
+		if loads := x.loadsBeyond(x.parts("c")); len(loads) > 0 {
+			// 1/(2πRC) holds only for a section into an open circuit; the
+			// next section draws current from C, so the true −3 dB point
+			// is lower. Say so rather than print a corner that is not there.
+			x.set("f_c_unloaded", figure.Hertz, fc, byCorner)
+			verb := "loads"
+			if len(loads) > 1 {
+				verb = "load"
+			}
+			x.st.Notes = append(x.st.Notes, fmt.Sprintf("corner figured unloaded: %s %s the section, so its real corner is lower",
+				strings.Join(loads, ", "), verb))
+			return
+		}
+	}
+	x.set("f_c", figure.Hertz, fc, byCorner)
+	switch use {
+	case "agc":
+		x.checkAGC(tau)
+	case "detector":
+		x.checkDetector(fc)
+	}
+}
+
+// detectorLoad is a diode detector's load: everything resistive from its
+// output to ground, the load resistor and the filter and volume control
+// beyond it. It returns r when no such network is found.
+func (x *figCtx) detectorLoad(r float64) float64 {
+	cs := x.parts("c")
+	if len(cs) == 0 {
+		return r
+	}
+	for j := range cs[0].Pins {
+		if id := x.w.pinNet(x.partIndex(cs[0]), cs[0].Pins[j].Name); id != groundNet {
+			if dc := resistanceToGround(x.w, id); dc > 0 {
+				r = dc
+				x.set("r_load", figure.Ohm, dc, byLoadR)
+			}
+		}
+	}
+	return r
+}
+
+// checkAGC: common practice, no source: an AGC line wants roughly
+// 0.05–0.5 s, slow enough not to follow the lowest audio, quick enough to
+// follow fading.
+func (x *figCtx) checkAGC(tau float64) {
+	text := figure.Format(tau, figure.Second, figure.Text)
+	if tau < 0.02 {
+		x.flag("AGC time constant %s is short: the AGC will follow low audio notes and distort them", text)
+	}
+	if tau > 1 {
+		x.flag("AGC time constant %s is long: the set will be slow to follow fading and tuning", text)
+	}
+}
+
+// checkDetector: common practice, no source: the load must pass the top
+// audio (about 5 kHz for AM) yet hold the IF ripple.
+func (x *figCtx) checkDetector(fc float64) {
+	if fc < 3e3 {
+		x.flag("detector load corner %s is below 3 kHz: the top of the audio is lost and deep modulation clips", hz(fc))
+	}
+	if ifHz := x.w.c.Freqs["if"]; ifHz > 0 && fc > ifHz/5 {
+		x.flag("detector load corner %s is close to the IF (%s): IF ripple reaches the audio", hz(fc), hz(ifHz))
+	}
+}
+
+// calcPhaseShift: three equal RC sections give f = 1/(2πRC√6) and need a
+// gain of 29 (handbook formula, from memory).
+func calcPhaseShift(x *figCtx) {
+	rs, cs := x.parts("r"), x.parts("c")
+	if len(rs) == 0 || len(cs) == 0 {
+		return
+	}
+	r, c := rs[0].Value.Max, cs[0].Value.Max
+	for _, p := range rs {
+		if math.Abs(p.Value.Max-r) > 0.05*r {
+			x.flag("phase-shift sections are unequal: f uses %s and %s and is only a guide", rs[0].Ref, cs[0].Ref)
+		}
+	}
+	for _, p := range cs {
+		if math.Abs(p.Value.Max-c) > 0.05*c {
+			x.flag("phase-shift sections are unequal: f uses %s and %s and is only a guide", rs[0].Ref, cs[0].Ref)
+		}
+	}
+	x.set("f", figure.Hertz, 1/(2*math.Pi*r*c*math.Sqrt(6)), byPhaseShift)
+	x.set("gain_min", figure.Ratio, 29, byPhaseGain)
+}
+
+// calcWien: f = 1/(2π√(R1R2C1C2)); with equal arms the loop needs a gain of
+// 3 (handbook formula, from memory).
+func calcWien(x *figCtx) {
+	r1, c1, r2, c2 := parallelR(x.parts("r1")), sumCap(x.parts("c1"), 1), parallelR(x.parts("r2")), sumCap(x.parts("c2"), 1)
+	if r1 <= 0 || r2 <= 0 || c1 <= 0 || c2 <= 0 {
+		return
+	}
+	x.set("f", figure.Hertz, 1/(2*math.Pi*math.Sqrt(r1*r2*c1*c2)), byWien)
+	x.set("gain_min", figure.Ratio, 1+r1/r2+c2/c1, byWienGain)
+}
+
+// calcSmoothing: the second section's corner, 1/(2π√(LC2)) with a choke or
+// 1/(2πRC2) with a resistor (handbook formulas, from memory).
+func calcSmoothing(x *figCtx) {
+	s := x.part("series")
+	c2 := sumCap(x.parts("c2"), 1)
+	c1 := sumCap(x.parts("c1"), 1)
+	// The pattern is symmetric, so the match may have it either way round:
+	// the reservoir is the capacitor on the side that faces the rectifier
+	// or the supply input, and the corner is set by the other one.
+	if x.feeds(x.st.nets["out"]) > x.feeds(x.st.nets["in"]) {
+		c1, c2 = c2, c1
+	}
+	if s == nil || c2 <= 0 {
+		return
+	}
+	x.set("c_reservoir", figure.Farad, c1, byPartValue)
+	x.set("c_smoothing", figure.Farad, c2, byPartValue)
+	switch s.Kind {
+	case graph.Inductor:
+		x.set("f_c", figure.Hertz, resonance(s.Inductance(), c2), byChoke)
+	case graph.Resistor:
+		x.set("f_c", figure.Hertz, 1/(2*math.Pi*s.Value.Max*c2), bySmoothRC)
+	}
+}
+
+// feeds scores how surely a net is the supply input of a smoothing filter:
+// a rectifier (a diode) on it counts most, then a port (a battery, the
+// supply's connection), then a declared supply role; the declared voltage
+// breaks ties, since each filter section drops some. Higher is nearer the
+// source.
+func (x *figCtx) feeds(net string) float64 {
+	id, ok := x.w.netID[net]
+	if !ok || id == groundNet {
+		return math.Inf(-1)
+	}
+	score := 0.0
+	for _, ci := range x.w.conns[id] {
+		switch x.w.parts[ci].Kind {
+		case graph.Diode:
+			score = max(score, 4)
+		case graph.Port:
+			score = max(score, 2)
+		}
+	}
+	if n := x.w.c.Net(net); n != nil {
+		if n.Role == graph.Supply {
+			score = max(score, 1)
+		}
+		// volts add less than a step: a tie-break between like nets
+		score += math.Atan(math.Abs(n.Volts)) / math.Pi
+	}
+	return score
+}
+
+// calcCoupling: a series capacitor and the resistance it feeds, the
+// resistive network from its far side to AC ground (the next grid leak or
+// input resistance), make a high-pass: τ = RC, fc = 1/(2πRC)
+// (reference-values §4). The far side is the one downstream in signal
+// order; a capacitor into a tank or port alone has no corner.
+func calcCoupling(x *figCtx) {
+	p := x.part("c")
+	if p == nil {
+		return
+	}
+	c := p.Value.Max
+	x.set("c", figure.Farad, c, byPartValue)
+	ci := x.partIndex(p)
+	if ci < 0 || len(x.w.pins[ci]) != 2 || c <= 0 {
+		return
+	}
+	down, r, ok := x.downstream(ci)
+	if !ok {
+		return
+	}
+	if r <= 0 {
+		if down >= 0 {
+			x.noteOpenPort(p, x.w.pins[ci][down])
+		}
+		return
+	}
+	tau := r * c
+	x.set("r_in", figure.Ohm, r, byLoadR)
+	x.set("tau", figure.Second, tau, byTau)
+	x.set("f_c", figure.Hertz, 1/(2*math.Pi*tau), byCorner)
+}
+
+// downstream finds which side of a two-terminal part (ci) is farther from
+// the inputs (a declared input is upstream by definition) and the
+// resistance from it to AC ground: only a resistance there is what a
+// coupling capacitor feeds; one on the upstream side (an anode load) is its
+// source. down is -1 when neither side is; ok is false when a side is at
+// AC ground.
+func (x *figCtx) downstream(ci int) (down int, r float64, ok bool) {
+	var sides [2]struct {
+		d int
+		r float64
+	}
+	for i, net := range x.w.pins[ci] {
+		if net == groundNet {
+			return -1, 0, false
+		}
+		// a side nothing else reaches from the inputs is downstream (MaxInt)
+		sides[i].d, sides[i].r = x.netDist(net, ci), resistanceToGround(x.w, net)
+	}
+	down = -1
+	switch {
+	case sides[0].d > sides[1].d:
+		down = 0
+	case sides[1].d > sides[0].d:
+		down = 1
+	case (sides[0].r > 0) != (sides[1].r > 0):
+		// No order to go by (no inputs declared): the one resistive side.
+		down = 0
+		if sides[1].r > 0 {
+			down = 1
+		}
+	}
+	if down < 0 {
+		return -1, 0, true
+	}
+	return down, sides[down].r, true
+}
+
+// noteOpenPort notes a coupling capacitor that feeds a port (a connection
+// off the sheet) and no resistance: its corner depends on what is beyond.
+func (x *figCtx) noteOpenPort(p *graph.Part, net int) {
+	for _, other := range x.w.conns[net] {
+		if q := x.w.parts[other]; q.Kind == graph.Port {
+			port := q.Ref
+			if q.Label != "" {
+				port += " (" + q.Label + ")"
+			}
+			x.st.Notes = append(x.st.Notes, fmt.Sprintf("no corner figured: %s feeds %s, and the resistance beyond is not in this circuit",
+				p.Ref, port))
+			return
+		}
+	}
+}

@@ -1,0 +1,208 @@
+package stages
+
+import (
+	"math"
+
+	"pare/graph"
+	"pare/graph/figure"
+)
+
+// The formulas of tuned circuits and oscillator tanks, by the names a
+// figure's origin gives them (reference-values §1, §3; handbook formulas).
+var (
+	byResonance  = figure.ByFormula("f = 1/(2π√(LC))")
+	byTankC      = figure.BySolver("capacitance across the coil, nodal analysis", "")
+	byHartleyL   = figure.ByFormula("L = L1 + L2 + 2M, M = k√(L1L2)")
+	byColpitts   = figure.ByFormula("Ceff = C1C2/(C1+C2)")
+	byClapp      = figure.ByFormula("1/Ceff = 1/C1 + 1/C2 + 1/C3")
+	byFeedback   = figure.ByFormula("β = C1/C2")
+	byColpittsA  = figure.ByFormula("A ≥ C2/C1")
+	byPi         = figure.ByFormula("f = 1/(2π√(L·C1C2/(C1+C2)))")
+	byPiStep     = figure.ByFormula("Z2/Z1 ≈ (C2/C1)²")
+	byTurnsRatio = figure.ByFormula("n = √(L1/L2)")
+	byPartValue  = figure.FromNetlist("part value")
+	byCoilL      = figure.FromNetlist("coil inductance end to end (L1 + L2 + 2M for a tapped coil)")
+)
+
+// resonance is f = 1/(2π√(LC)) (reference-values §1, handbook formula).
+func resonance(l, c float64) float64 {
+	if l <= 0 || c <= 0 {
+		return math.NaN()
+	}
+	return 1 / (2 * math.Pi * math.Sqrt(l*c))
+}
+
+// tankFigures writes the capacitance and the resonance of a tank, as a range
+// when a variable capacitor takes part (Cmax gives the low end of f, Cmin
+// the high end).
+func (x *figCtx) tankFigures(l float64, a, b int, caps []*graph.Part) {
+	cmin := capBetween(x.w, caps, a, b, 0)
+	cmax := capBetween(x.w, caps, a, b, 1)
+	x.set("l", figure.Henry, l, byCoilL)
+	if hasVariable(caps) && cmax > cmin*1.0001 {
+		x.span("c", figure.Farad, cmin, cmax, byTankC)
+		x.span("f", figure.Hertz, resonance(l, cmax), resonance(l, cmin), byResonance)
+		return
+	}
+	x.set("c", figure.Farad, cmax, byTankC)
+	x.set("f", figure.Hertz, resonance(l, cmax), byResonance)
+}
+
+func hasVariable(caps []*graph.Part) bool {
+	for _, c := range caps {
+		if c.Type == graph.CapVariable {
+			return true
+		}
+	}
+	return false
+}
+
+func calcTank(x *figCtx) {
+	c, ok := x.coil("coil")
+	if !ok {
+		return
+	}
+	x.tankFigures(c.l, c.a, c.b, x.parts("caps"))
+	if x.word("check", "") == "if" {
+		if f, ok := x.get("f"); ok && f.Range == nil {
+			x.checkIF(c.ref, f.Value)
+		}
+	}
+}
+
+// calcHartley: the tank inductance of a Hartley coil is L1 + L2 + 2M with
+// M = k√(L1L2), windings aiding (reference-values §3).
+func calcHartley(x *figCtx) {
+	p := x.part("coil")
+	c, ok := x.coil("coil")
+	if !ok || p == nil {
+		return
+	}
+	if len(p.Windings) == 2 {
+		// l1 is the section from the hot end (the pattern's first terminal)
+		// to the tap, l2 from the tap to the cold end, however the coil's
+		// pins were written.
+		l1, l2 := p.Windings[0].L, p.Windings[1].L
+		if i := x.index(x.spec.Args["coil"][0]); i >= 0 {
+			hot := x.m.nets[x.m.v.parts[i].slots[0]]
+			if x.w.pinNet(x.m.parts[i], "1") != hot {
+				l1, l2 = l2, l1
+			}
+		}
+		m := p.K(p.Windings[0].Name, p.Windings[1].Name) * math.Sqrt(l1*l2)
+		x.set("l1", figure.Henry, l1, byPartValue)
+		x.set("l2", figure.Henry, l2, byPartValue)
+		x.set("m", figure.Henry, m, byHartleyL)
+	}
+	x.tankFigures(c.l, c.a, c.b, x.parts("caps"))
+}
+
+// calcColpitts: Ceff = C1C2/(C1+C2); feedback fraction β = C1/C2 with C1
+// across the output and C2 across the input, so the loop needs |A| ≥ C2/C1
+// (reference-values §3).
+func calcColpitts(x *figCtx) {
+	coil, ok := x.coil("coil")
+	l := coil.l
+	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
+	if !ok || c1 <= 0 || c2 <= 0 {
+		return
+	}
+	ceff := c1 * c2 / (c1 + c2)
+	x.set("l", figure.Henry, l, byCoilL)
+	x.set("c_eff", figure.Farad, ceff, byColpitts)
+	x.set("feedback", figure.Ratio, c1/c2, byFeedback)
+	x.set("gain_min", figure.Ratio, c2/c1, byColpittsA)
+	x.set("f", figure.Hertz, resonance(l, ceff), byResonance)
+}
+
+// calcClapp: 1/Ceff = 1/C1 + 1/C2 + 1/C3 (reference-values §3).
+func calcClapp(x *figCtx) {
+	coil, ok := x.coil("coil")
+	l := coil.l
+	c1, c2, c3 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1), sumCap(x.parts("c3"), 1)
+	if !ok || c1 <= 0 || c2 <= 0 || c3 <= 0 {
+		return
+	}
+	ceff := 1 / (1/c1 + 1/c2 + 1/c3)
+	x.set("l", figure.Henry, l, byCoilL)
+	x.set("c_eff", figure.Farad, ceff, byClapp)
+	x.set("feedback", figure.Ratio, c1/c2, byFeedback)
+	x.set("f", figure.Hertz, resonance(l, ceff), byResonance)
+}
+
+// calcCrystal: the crystal's marked (series) frequency.
+func calcCrystal(x *figCtx) {
+	if p := x.part("xtal"); p != nil {
+		x.set("f", figure.Hertz, p.Value.Max, byPartValue)
+	}
+}
+
+// calcPi: a pi network C1–L–C2 resonates with L and C1 in series with C2
+// (the loop), f = 1/(2π√(L·C1C2/(C1+C2))); as a matching network it steps
+// the impedance by about (C2/C1)² (from memory, high-Q approximation).
+func calcPi(x *figCtx) {
+	coil, ok := x.coil("coil")
+	l := coil.l
+	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
+	if !ok || c1 <= 0 || c2 <= 0 {
+		return
+	}
+	x.set("f", figure.Hertz, resonance(l, c1*c2/(c1+c2)), byPi)
+	x.set("z_ratio", figure.Ratio, (c2/c1)*(c2/c1), byPiStep)
+}
+
+// valueUnits is the unit of a part's main value by its kind, for the value
+// calc: the figure takes the part's unit, so a pattern names a figure and
+// never spells a unit.
+var valueUnits = map[graph.Kind]figure.Unit{
+	graph.Resistor: figure.Ohm, graph.Pot: figure.Ohm, graph.Capacitor: figure.Farad,
+	graph.Inductor: figure.Henry, graph.Crystal: figure.Hertz,
+}
+
+// calcValue: a part's own value as a figure ("r_track" for a volume
+// control's track), in the unit of its kind.
+func calcValue(x *figCtx) {
+	p := x.part("part")
+	if p == nil {
+		return
+	}
+	u, ok := valueUnits[p.Kind]
+	if !ok {
+		return
+	}
+	v := p.Value.Max
+	if p.Kind == graph.Inductor {
+		v = p.Inductance()
+	}
+	x.set(x.word("name", "value"), u, v, byPartValue)
+}
+
+// calcRatio: the turns ratio from the winding inductances, n = √(L1/L2),
+// since inductance goes with turns squared on one core (from memory).
+func calcRatio(x *figCtx) {
+	i := x.index(x.spec.Args["xfmr"][0])
+	if i < 0 {
+		return
+	}
+	ci := x.m.parts[i]
+	coils := x.w.coils[ci]
+	if len(coils) < 2 {
+		return
+	}
+	assigned := x.m.coils[i]
+	first := coils[assigned[0]]
+	var other *coil
+	for j := range coils {
+		if j != assigned[0] {
+			other = &coils[j]
+			break
+		}
+	}
+	if other == nil || other.l <= 0 || first.l <= 0 {
+		return
+	}
+	x.set("turns_ratio", figure.Ratio, math.Sqrt(first.l/other.l), byTurnsRatio)
+}
+
+// sqrt is math.Sqrt for match.go, which joins tapped windings with it.
+func sqrt(x float64) float64 { return math.Sqrt(x) }
