@@ -2,7 +2,7 @@ package stages
 
 import (
 	"cmp"
-	"slices"
+	"sort"
 	"strings"
 
 	"pare/graph/figure"
@@ -78,15 +78,29 @@ var figureNames = []figName{
 	{name: "gain", inDB: true, working: true}, // says what gain says
 }
 
+// figureRows indexes figureNames by name, the decibel rows apart: built
+// once, since every candidate match writes its figures through it.
+var figureRows = func() map[figRow]int {
+	m := make(map[figRow]int, len(figureNames))
+	for i, n := range figureNames {
+		m[figRow{n.name, n.inDB}] = i
+	}
+	return m
+}()
+
+type figRow struct {
+	name string
+	inDB bool
+}
+
 // figureIndex finds a figure in figureNames, -1 when it is not there (a
 // name a pattern's value calc gives).
 func figureIndex(name string, u figure.Unit) int {
-	return slices.IndexFunc(figureNames, func(n figName) bool { return n.name == name && n.inDB == (u == figure.Decibel) })
+	if i, ok := figureRows[figRow{name, u == figure.Decibel}]; ok {
+		return i
+	}
+	return -1
 }
-
-// figID tells figures apart for the order: by name and unit, as
-// figure.List.Put does.
-func figID(f figure.Figure) string { return f.Name + " " + f.Unit.String() }
 
 // prefixed puts a pattern's prefix before a figure's name: "osc", "f" →
 // "osc_f".
@@ -143,11 +157,25 @@ func rankOf(prefix, name string, u figure.Unit) figRank {
 	return figRank{tier: 2, prefix: prefix}
 }
 
-// sortFigures puts a stage's figures in the one order.
+// sortFigures puts a stage's figures in the one order; figRanks runs
+// beside Figures (figCtx.put keeps them so) and is sorted with it.
 func sortFigures(st *Stage) {
-	slices.SortStableFunc(st.Figures, func(a, b figure.Figure) int {
-		ra, rb := st.figRanks[figID(a)], st.figRanks[figID(b)]
-		return cmp.Or(cmp.Compare(ra.tier, rb.tier), strings.Compare(ra.prefix, rb.prefix),
-			cmp.Compare(ra.index, rb.index), strings.Compare(a.Name, b.Name))
-	})
+	sort.Stable(byRank{st})
+}
+
+// byRank sorts a stage's figures and their ranks together, in place.
+type byRank struct{ st *Stage }
+
+func (b byRank) Len() int { return len(b.st.Figures) }
+
+func (b byRank) Swap(i, j int) {
+	f, r := b.st.Figures, b.st.figRanks
+	f[i], f[j] = f[j], f[i]
+	r[i], r[j] = r[j], r[i]
+}
+
+func (b byRank) Less(i, j int) bool {
+	ra, rb := b.st.figRanks[i], b.st.figRanks[j]
+	return cmp.Or(cmp.Compare(ra.tier, rb.tier), strings.Compare(ra.prefix, rb.prefix),
+		cmp.Compare(ra.index, rb.index), strings.Compare(b.st.Figures[i].Name, b.st.Figures[j].Name)) < 0
 }

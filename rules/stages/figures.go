@@ -65,8 +65,10 @@ type figCtx struct {
 }
 
 // put records a figure on the stage under the pattern's prefix ("osc" makes
-// "f" "osc_f"), with its label and its place in the one order (figorder.go).
-// A figure whose number is not finite is left out (figure.List.Put).
+// "f" "osc_f"), with its label and its place in the one order (figorder.go),
+// replacing one of the same name and unit as figure.List.Put does. A
+// figure whose number is not finite is left out: no figure is better than
+// a wrong one.
 func (x *figCtx) put(f figure.Figure) {
 	name := f.Name
 	f = x.named(f)
@@ -79,11 +81,19 @@ func (x *figCtx) put(f figure.Figure) {
 	if !f.Finite() {
 		return
 	}
-	if x.st.figRanks == nil {
-		x.st.figRanks = map[string]figRank{}
+	rank := rankOf(x.spec.Prefix, name, f.Unit)
+	for i, g := range x.st.Figures {
+		if g.Name == f.Name && g.Unit == f.Unit {
+			x.st.Figures[i], x.st.figRanks[i] = f, rank
+			return
+		}
 	}
-	x.st.figRanks[figID(f)] = rankOf(x.spec.Prefix, name, f.Unit)
-	x.st.Figures.Put(f)
+	if x.st.Figures == nil {
+		// a stage has a handful of figures; one allocation for them
+		x.st.Figures, x.st.figRanks = make(figure.List, 0, 4), make([]figRank, 0, 4)
+	}
+	x.st.Figures = append(x.st.Figures, f)
+	x.st.figRanks = append(x.st.figRanks, rank)
 }
 
 // named fills in what the figure table (figorder.go) says about a figure:

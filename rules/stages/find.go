@@ -29,8 +29,8 @@ type Stage struct {
 	Notes []string `json:"notes,omitempty"`
 
 	group    string
-	nets     map[string]string  // pattern net → circuit net
-	figRanks map[string]figRank // figure name → its place in the one order (figorder.go)
+	nets     map[string]string // pattern net → circuit net
+	figRanks []figRank         // beside Figures: each one's place in the one order (figorder.go)
 }
 
 // Options steer Find.
