@@ -593,15 +593,11 @@ func (ly *state) rank() {
 	// the parts from an active part's common terminal to ground (cathode or
 	// emitter resistor and bypass) stand under it, in its layer
 	common := map[string]int{}
-	var commonNets []string
 	for _, cl := range ly.cells {
 		if cl.part.IsActive() {
 			if pin := cl.part.PinWithRole(graph.RoleCommon); pin != "" {
 				n := cl.part.NetOf(pin)
 				if !ly.c.RoleOf(n).IsACGround() {
-					if _, ok := common[n]; !ok {
-						commonNets = append(commonNets, n)
-					}
 					common[n] = rank[cl.ref]
 				}
 			}

@@ -563,7 +563,7 @@ func (rt *router) routeNet(id int) bool {
 				continue
 			}
 			d := rt.distRect(p.cell, tree)
-			if d < bestD || (p.faded == false && pending[best].faded) {
+			if d < bestD || (!p.faded && pending[best].faded) {
 				best, bestD = i, d
 			}
 		}

@@ -82,8 +82,7 @@ func (p *Pattern) variant(absent map[int]bool, netIdx map[string]int) *variant {
 	for i := range parent {
 		parent[i] = i
 	}
-	var find func(int) int
-	find = func(i int) int {
+	find := func(i int) int {
 		for parent[i] != i {
 			parent[i] = parent[parent[i]]
 			i = parent[i]

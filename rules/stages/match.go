@@ -191,7 +191,6 @@ type match struct {
 	bind  []int // which binding of each part was used (for transformers: the coil assignment)
 	coils [][]int
 	refs  []string // sorted refs
-	score int
 }
 
 // ErrSearchLimit is wrapped by the error Find returns when its step budget
