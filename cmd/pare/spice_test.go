@@ -8,6 +8,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"pare/internal/reftool"
 )
 
 func TestSpiceDeck(t *testing.T) {
@@ -28,9 +30,9 @@ func TestSpiceDeck(t *testing.T) {
 			t.Errorf("deck lacks %q:\n%s", want, deck)
 		}
 	}
-	// The deck runs in ngspice where it is installed (the ac package's tests
-	// compare the numbers).
-	if bin, err := exec.LookPath("ngspice"); err == nil {
+	// The deck runs in ngspice where it is installed, and must where
+	// PARE_REQUIRE_NGSPICE is set (the ac package's tests compare the numbers).
+	if bin := reftool.Lookup(t, reftool.Ngspice); bin != "" {
 		ctx, cancel := context.WithTimeout(context.Background(), 30*time.Second) // a sweep card gone wrong fails, never hangs
 		defer cancel()
 		cmd := exec.CommandContext(ctx, bin, "-b", "pair.cir")

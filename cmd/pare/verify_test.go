@@ -166,7 +166,7 @@ func TestVerifyDeterministic(t *testing.T) {
 func TestVerifyExamplesAtEveryLevel(t *testing.T) {
 	files, _ := filepath.Glob(filepath.Join(root, "examples", "*.toml"))
 	if len(files) == 0 {
-		t.Skip("no examples")
+		t.Fatal("no examples found")
 	}
 	for _, f := range files {
 		for _, lvl := range []string{"tidy", "signal", "ideal"} {
