@@ -1,0 +1,206 @@
+// Readers for the kinds with more than one value: inductors (tapped, ganged),
+// transformers (windings and couplings) and switches.
+
+package graph
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"pare/graph/value"
+)
+
+func (ld *loader) inductor(path string, p *Part, m map[string]any, typ string) {
+	p.Type = IndPlain
+	if typ != "" {
+		if !contains(indTypes, typ) {
+			ld.badType(path+".type", "inductor", typ, indTypes)
+		}
+		p.Type = typ
+	}
+	q := 0.0
+	if x, ok := m["q"]; ok {
+		q = ld.num(path+".q", x, value.None)
+		if !(q > 0) {
+			ld.errVal(path+".q", "q is the unloaded quality factor and must be above 0 (leave it out for a lossless coil)")
+		}
+	}
+	kp := path + ".l"
+	if list, ok := m["l"].([]any); ok {
+		// Two partial inductances of a tapped coil: ["120u", "8u"], pins 1–t and t–2.
+		if len(list) != 2 {
+			ld.errVal(kp, "a tapped coil takes two partial inductances, [\"L(1–t)\", \"L(t–2)\"]")
+			return
+		}
+		l1 := ld.num(kp+"[0]", list[0], value.Henry)
+		l2 := ld.num(kp+"[1]", list[1], value.Henry)
+		k := 1.0
+		if x, ok := m["k"]; ok {
+			k = ld.num(path+".k", x, value.None)
+			if k < 0 || k > 1 {
+				ld.errVal(path+".k", "coupling factor k must be between 0 and 1, not %g", k)
+			}
+		}
+		p.Windings = []Winding{{Name: "1t", L: l1, From: "1", To: "t", Q: q}, {Name: "t2", L: l2, From: "t", To: "2", Q: q}}
+		p.Coupling = []Coupling{{A: "1t", B: "t2", K: k}}
+		if _, ok := m["tap"]; ok {
+			ld.errKey(path+".tap", "give either tap or two partial inductances, not both")
+		}
+		p.Value = value.Range{Min: p.Inductance(), Max: p.Inductance()}
+		return
+	}
+	before := len(ld.errs)
+	p.Value = ld.rngOne(kp, m["l"], value.Henry)
+	if len(ld.errs) == before && p.Value.Max == 0 {
+		ld.errVal(kp, "an inductor must be above 0 H")
+	}
+	if x, ok := m["tap"]; ok {
+		n := ld.num(path+".tap", x, value.None)
+		if n <= 0 || n >= 1 {
+			ld.errVal(path+".tap", "tap is the fraction of the turns from pin 1 to the tap, between 0 and 1 (not %g)", n)
+			return
+		}
+		// A tap on one tightly wound coil: inductance goes with turns squared,
+		// and the sections are fully coupled (k = 1), so L1 + L2 + 2M = L.
+		L := p.Value.Max
+		p.Windings = []Winding{{Name: "1t", L: n * n * L, From: "1", To: "t", Q: q}, {Name: "t2", L: (1 - n) * (1 - n) * L, From: "t", To: "2", Q: q}}
+		p.Coupling = []Coupling{{A: "1t", B: "t2", K: 1}}
+		return
+	}
+	if _, ok := m["k"]; ok {
+		ld.errKey(path+".k", "k applies to a tapped coil given as two partial inductances")
+	}
+	if q > 0 {
+		p.Windings = []Winding{{Name: "12", L: p.Value.Max, From: "1", To: "2", Q: q}}
+	}
+}
+
+var windingKeys = []string{"l", "q"}
+
+func (ld *loader) transformer(path string, p *Part, m map[string]any) {
+	wp := path + ".windings"
+	wm, ok := m["windings"].(map[string]any)
+	if !ok || len(wm) == 0 {
+		ld.errVal(wp, "windings must be a table such as { p = \"1m\", s = \"1m\" }")
+		return
+	}
+	q := 0.0
+	if x, ok := m["q"]; ok {
+		q = ld.num(path+".q", x, value.None)
+		if !(q > 0) {
+			ld.errVal(path+".q", "q is the unloaded quality factor and must be above 0 (leave it out for a lossless coil)")
+		}
+	}
+	for _, name := range sortedKeys(wm) {
+		np := wp + "." + name
+		w := Winding{Name: name, From: name + "1", To: name + "2", Q: q}
+		switch t := wm[name].(type) {
+		case map[string]any:
+			for _, k := range sortedKeys(t) {
+				switch k {
+				case "l":
+					w.L = ld.num(np+".l", t[k], value.Henry)
+				case "q":
+					w.Q = ld.num(np+".q", t[k], value.None)
+				default:
+					ld.unknown(np+"."+k, k, windingKeys)
+				}
+			}
+			if _, ok := t["l"]; !ok {
+				ld.errKey(np, "winding %s has no inductance l", name)
+			}
+			p.Windings = append(p.Windings, w)
+		case []any:
+			// A centre-tapped winding: two halves, pins NAME1–NAMEt–NAME2, fully coupled.
+			if len(t) != 2 {
+				ld.errVal(np, "a tapped winding takes two partial inductances")
+				continue
+			}
+			a := Winding{Name: name + "a", L: ld.num(np+"[0]", t[0], value.Henry), From: name + "1", To: name + "t", Q: q}
+			b := Winding{Name: name + "b", L: ld.num(np+"[1]", t[1], value.Henry), From: name + "t", To: name + "2", Q: q}
+			p.Windings = append(p.Windings, a, b)
+			p.Coupling = append(p.Coupling, Coupling{A: a.Name, B: b.Name, K: 1})
+		default:
+			w.L = ld.num(np, wm[name], value.Henry)
+			p.Windings = append(p.Windings, w)
+		}
+	}
+	kp := path + ".k"
+	switch t := m["k"].(type) {
+	case nil:
+		if len(p.Windings) > 1 && len(p.Coupling) == 0 {
+			ld.errKey(path, "transformer %s has no coupling: give k (e.g. k = 0.01 for an IF transformer, 0.99 for a mains one)", p.Ref)
+		}
+	case map[string]any:
+		for _, pair := range sortedKeys(t) {
+			a, b, ok := strings.Cut(pair, "-")
+			if !ok || p.Winding(a) == nil || p.Winding(b) == nil {
+				ld.errKey(kp+"."+pair, "coupling key %q must name two windings as \"A-B\"", pair)
+				continue
+			}
+			ld.addK(kp+"."+pair, p, a, b, t[pair])
+		}
+	default:
+		// One k for every pair of distinct windings (halves of one tapped
+		// winding stay fully coupled).
+		for i := range p.Windings {
+			for j := i + 1; j < len(p.Windings); j++ {
+				a, b := p.Windings[i].Name, p.Windings[j].Name
+				if p.K(a, b) == 0 {
+					ld.addK(kp, p, a, b, t)
+				}
+			}
+		}
+	}
+}
+
+func (ld *loader) addK(path string, p *Part, a, b string, v any) {
+	k := ld.num(path, v, value.None)
+	if k <= 0 || k > 1 {
+		ld.errVal(path, "coupling factor k must be above 0 and at most 1, not %g", k)
+	}
+	p.Coupling = append(p.Coupling, Coupling{A: a, B: b, K: k})
+}
+
+// maxSwitchPositions bounds a switch's positions; real wafer switches have a
+// dozen at most, and the bound keeps a typo from allocating without limit.
+const maxSwitchPositions = 64
+
+func (ld *loader) switchPart(path string, p *Part, m map[string]any) {
+	x := ld.num(path+".switch", m["switch"], value.None)
+	if x < 1 || x > maxSwitchPositions || x != math.Trunc(x) {
+		ld.errVal(path+".switch", "switch gives the number of positions, a whole number from 1 to %d", maxSwitchPositions)
+		return
+	}
+	n := int(x)
+	p.Set = 1
+	if s, ok := m["set"]; ok {
+		p.Set = ld.num(path+".set", s, value.None)
+		if p.Set < 1 || p.Set > float64(n) || p.Set != float64(int(p.Set)) {
+			ld.errVal(path+".set", "switch position must be a whole number from 1 to %d", n)
+		}
+	}
+	list, _ := m["closes"].([]any)
+	if m["closes"] != nil && list == nil {
+		ld.errVal(path+".closes", "closes must be a list with one string per position, e.g. [\"c-1\", \"c-2\"]")
+	}
+	if list != nil && len(list) != n {
+		ld.errVal(path+".closes", "closes lists %d positions but the switch has %d", len(list), n)
+	}
+	p.Closes = make([][][2]string, n)
+	for i, e := range list {
+		if i >= n {
+			break
+		}
+		ep := fmt.Sprintf("%s.closes[%d]", path, i)
+		for _, pair := range strings.Fields(ld.str(ep, e)) {
+			a, b, ok := strings.Cut(pair, "-")
+			if !ok || a == "" || b == "" {
+				ld.errVal(ep, "contact pair %q must be written \"A-B\"", pair)
+				continue
+			}
+			p.Closes[i] = append(p.Closes[i], [2]string{a, b})
+		}
+	}
+}

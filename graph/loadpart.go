@@ -1,0 +1,207 @@
+// Reading one part: its kind key, the common keys, device parameters and the
+// value that chose the kind.
+
+package graph
+
+import (
+	"regexp"
+	"sort"
+	"strings"
+
+	"pare/graph/value"
+)
+
+// kindKeys choose a part's kind; exactly one must be present.
+var kindKeys = map[string]Kind{
+	"r": Resistor, "c": Capacitor, "l": Inductor, "windings": Transformer, "valve": Valve,
+	"bjt": BJT, "fet": FET, "diode": Diode, "xtal": Crystal, "pot": Pot, "switch": Switch,
+	"port": Port, "part": Generic,
+}
+
+var commonKeys = []string{"pins", "tol", "rating", "gang", "keep", "note", "from", "type", "envelope"}
+
+// extraKeys are the keys a kind accepts besides the common ones and its device parameters.
+var extraKeys = map[Kind][]string{
+	Capacitor:   {"set"},
+	Inductor:    {"tap", "k"},
+	Transformer: {"k"},
+	Pot:         {"set"},
+	Switch:      {"set", "closes"},
+}
+
+var capTypes = []string{CapFixed, CapElectrolytic, CapVariable, CapTrimmer}
+
+var indTypes = []string{IndPlain, IndChoke}
+
+var refPattern = regexp.MustCompile(`^[A-Za-z]+[0-9]+[A-Za-z]?$`)
+
+func (ld *loader) part(path, ref string, v any) {
+	p := &Part{Ref: ref, Pos: ld.ix.key(path)}
+	m, ok := v.(map[string]any)
+	if !ok {
+		ld.errVal(path, "part %s must be an inline table such as { r = \"47k\", pins = [\"a\", \"b\"] }", ref)
+		return
+	}
+	var kindKey string
+	for _, k := range sortedKeys(m) {
+		if kk, ok := kindKeys[k]; ok {
+			if kindKey != "" {
+				ld.errKey(path+"."+k, "part %s has two kind keys, %q and %q: use one", ref, kindKey, k)
+				continue
+			}
+			kindKey, p.Kind = k, kk
+		}
+	}
+	if kindKey == "" {
+		ld.errKey(path, "part %s has no kind key: give one of %s", ref, strings.Join(sortedKeys(kindKeys), ", "))
+		return
+	}
+	known := append(append(append([]string(nil), commonKeys...), extraKeys[p.Kind]...), ParamNames(p.Kind)...)
+	known = append(known, kindKey)
+	for _, k := range sortedKeys(m) {
+		if !contains(known, k) {
+			kp := path + "." + k
+			if _, isKind := kindKeys[k]; isKind {
+				continue // reported above
+			}
+			ld.unknown(kp, k, known)
+		}
+	}
+	ld.kindValue(path, p, kindKey, m)
+	for _, k := range sortedKeys(m) {
+		kp := path + "." + k
+		x := m[k]
+		switch k {
+		case "tol":
+			if s, ok := x.(string); ok {
+				t, err := value.ParseTolerance(s)
+				if err != nil {
+					ld.errVal(kp, "tol: %v", err)
+				}
+				p.Tol = t
+			} else {
+				ld.errVal(kp, "tol must be a string such as \"5%%\"")
+			}
+		case "rating":
+			p.Rating = ld.num(kp, x, value.Volt)
+		case "gang":
+			p.Gang = ld.str(kp, x)
+		case "keep":
+			p.Keep = ld.boolean(kp, x)
+		case "note":
+			p.Note = ld.str(kp, x)
+		case "envelope":
+			p.Envelope = ld.str(kp, x)
+		case "from":
+			p.From = ld.strList(kp, x)
+			sort.Strings(p.From)
+		default:
+			if contains(ParamNames(p.Kind), k) {
+				if p.Params == nil {
+					p.Params = map[string]float64{}
+				}
+				p.Params[k] = ld.num(kp, x, paramUnit(k))
+			}
+		}
+	}
+	ld.pins(path, p, m["pins"])
+	if !refPattern.MatchString(ref) {
+		ld.errKey(path, "malformed reference designator %q: write letters then a number, e.g. R12, C3, V1a", ref)
+	}
+	ld.c.Parts = append(ld.c.Parts, p)
+}
+
+func paramUnit(name string) value.Unit {
+	switch name {
+	case "gm":
+		return value.Siemens
+	case "ra", "rd", "ro", "rpi", "rm":
+		return value.Ohm
+	case "ic":
+		return value.Ampere
+	case "lm":
+		return value.Henry
+	case "cm", "c0":
+		return value.Farad
+	}
+	return value.None // mu, beta, q, off
+}
+
+// kindValue reads the value that chose the kind, and the type and settings that go with it.
+func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) {
+	kp := path + "." + key
+	typ := ""
+	if t, ok := m["type"]; ok {
+		typ = ld.str(path+".type", t)
+	}
+	switch p.Kind {
+	case Resistor:
+		p.Value = ld.rngOne(kp, m[key], value.Ohm)
+	case Capacitor:
+		before := len(ld.errs)
+		p.Value = ld.rng(kp, m[key], value.Farad)
+		if len(ld.errs) == before && p.Value.Max <= 0 {
+			// No capacitor has 0 F; a missing multiplier or a slip of the pen.
+			ld.errVal(kp, "a capacitor must be above 0 F")
+		}
+		switch {
+		case typ != "":
+			if !contains(capTypes, typ) {
+				ld.badType(path+".type", "capacitor", typ, capTypes)
+			}
+			p.Type = typ
+		case m["set"] != nil:
+			p.Type = CapTrimmer
+		case p.Value.IsSpan():
+			p.Type = CapVariable
+		default:
+			p.Type = CapFixed
+		}
+		if (p.Type == CapVariable || p.Type == CapTrimmer) && !p.Value.IsSpan() {
+			ld.errVal(kp, "a %s capacitor needs a range such as \"12p..420p\"", p.Type)
+		}
+		if (p.Type == CapFixed || p.Type == CapElectrolytic) && p.Value.IsSpan() {
+			ld.errVal(kp, "a %s capacitor has one value, not a range", p.Type)
+		}
+		if s, ok := m["set"]; ok {
+			p.Set = ld.num(path+".set", s, value.Farad)
+			if p.Type != CapTrimmer {
+				ld.errKey(path+".set", "set applies to a trimmer capacitor only")
+			} else if p.Set < p.Value.Min || p.Set > p.Value.Max {
+				ld.errVal(path+".set", "trimmer set to %s, outside its range %s", value.Format(p.Set, value.Farad, value.Symbol), value.FormatRange(p.Value, value.Farad, value.Symbol))
+			}
+		}
+	case Inductor:
+		ld.inductor(path, p, m, typ)
+	case Transformer:
+		ld.transformer(path, p, m)
+	case Valve:
+		p.Type = ld.deviceType(kp, m[key], "valve", ValveTypes())
+	case BJT:
+		p.Type = ld.deviceType(kp, m[key], "bjt", BJTTypes)
+	case FET:
+		p.Type = ld.deviceType(kp, m[key], "fet", FETTypes)
+	case Diode:
+		p.Type = ld.deviceType(kp, m[key], "diode", DiodeTypes)
+	case Crystal:
+		p.Value = ld.rngOne(kp, m[key], value.Hertz)
+	case Pot:
+		p.Value = ld.rngOne(kp, m[key], value.Ohm)
+		p.Set = 0.5
+		if s, ok := m["set"]; ok {
+			p.Set = ld.num(path+".set", s, value.None)
+			if p.Set < 0 || p.Set > 1 {
+				ld.errVal(path+".set", "a pot's set is the wiper position from 0 (pin 1) to 1 (pin 2), not %g", p.Set)
+			}
+		}
+	case Switch:
+		ld.switchPart(path, p, m)
+	case Port:
+		p.Label = ld.str(kp, m[key])
+	case Generic:
+		p.Label = ld.str(kp, m[key])
+	}
+	if typ != "" && p.Kind != Capacitor && p.Kind != Inductor {
+		ld.errKey(path+".type", "type applies to capacitors (%s) and inductors (%s) only", strings.Join(capTypes, ", "), strings.Join(indTypes, ", "))
+	}
+}
