@@ -1,0 +1,230 @@
+// Sweeping one pair of responses (original and reduced) over their bands,
+// refining around peaks, and measuring the deviation between them.
+
+package ac
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+	"sort"
+
+	"pare/graph"
+	"pare/graph/value"
+)
+
+// probe evaluates one response of one circuit at any frequency.
+type probe struct {
+	s         *system
+	node      int
+	impedance bool
+	zero      bool // the net is AC ground: the response is 0
+}
+
+func newProbe(c *graph.Circuit, what, from, to string, o Options) (*probe, error) {
+	nl, err := elaborate(c, o)
+	if err != nil {
+		return nil, err
+	}
+	fromNode, err := nodeOf(c, nl, from)
+	if err != nil {
+		return nil, err
+	}
+	if what == "impedance" {
+		if fromNode == 0 {
+			return &probe{zero: true}, nil
+		}
+		s, err := newSystem(nl, -1, otherInputs(c, nl, fromNode)...)
+		if err != nil {
+			return nil, err
+		}
+		if s.unk[fromNode] < 0 {
+			return nil, fmt.Errorf("net %s is not connected to any part the small-signal model sees", from)
+		}
+		return &probe{s: s, node: fromNode, impedance: true}, nil
+	}
+	if fromNode == 0 {
+		return nil, fmt.Errorf("input %s is at AC ground: it cannot be driven", from)
+	}
+	toNode, err := nodeOf(c, nl, to)
+	if err != nil {
+		return nil, err
+	}
+	s, err := newSystem(nl, fromNode, otherInputs(c, nl, fromNode)...)
+	if err != nil {
+		return nil, err
+	}
+	if toNode != 0 && toNode != fromNode && s.unk[toNode] < 0 {
+		return nil, fmt.Errorf("output %s is not connected to any part the small-signal model sees", to)
+	}
+	return &probe{s: s, node: toNode}, nil
+}
+
+func (p *probe) at(f float64) (complex128, error) {
+	if p.zero {
+		return 0, nil
+	}
+	if err := p.s.solveAt(f); err != nil {
+		return 0, err
+	}
+	if p.impedance {
+		for i := range p.s.b {
+			p.s.b[i] = 0
+		}
+		p.s.b[p.s.unk[p.node]] = 1
+	}
+	if err := p.s.solveRHS(f); err != nil {
+		return 0, err
+	}
+	return p.s.voltage(p.node), nil
+}
+
+type pairResult struct {
+	Pair
+	origFailed bool
+}
+
+// sweepPair runs the coarse sweep and the refinement for one quantity.
+func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg float64, marks []float64) (pairResult, error) {
+	var freqs []float64
+	for _, b := range bands {
+		freqs = append(freqs, logSweep(b.Min, b.Max, points)...)
+		// Resonances too narrow for any grid (a crystal's) are visited
+		// directly, with a point either side for the refinement to work on.
+		for _, f := range marks {
+			if f >= b.Min && f <= b.Max {
+				freqs = append(freqs, f*(1-1e-6), f, f*(1+1e-6))
+			}
+		}
+	}
+	freqs = sortUnique(freqs)
+	ho := map[float64]complex128{}
+	hr := map[float64]complex128{}
+	eval := func(fs []float64) (bool, error) {
+		for _, f := range fs {
+			if _, done := ho[f]; done {
+				continue
+			}
+			a, err := po.at(f)
+			if err != nil {
+				return true, err
+			}
+			b, err := pr.at(f)
+			if err != nil {
+				return false, err
+			}
+			ho[f], hr[f] = a, b
+		}
+		return false, nil
+	}
+	if origFailed, err := eval(freqs); err != nil {
+		return pairResult{origFailed: origFailed}, err
+	}
+	// Refine around the peaks of each response and of the deviation.
+	const rounds, maxPeaks, per = 5, 10, 4
+	for round := 0; round < rounds; round++ {
+		var add []float64
+		mo := make([]float64, len(freqs))
+		mr := make([]float64, len(freqs))
+		for i, f := range freqs {
+			mo[i], mr[i] = cmplx.Abs(ho[f]), cmplx.Abs(hr[f])
+		}
+		floor := floorOf(mo, mr)
+		dd := make([]float64, len(freqs))
+		dp := make([]float64, len(freqs))
+		for i, f := range freqs {
+			dd[i], dp[i] = deviationFloor(ho[f], hr[f], floor)
+		}
+		for _, m := range [][]float64{mo, mr, dd, dp} {
+			for _, i := range peaks(m, maxPeaks) {
+				if i > 0 {
+					add = append(add, logSweepInner(freqs[i-1], freqs[i], per)...)
+				}
+				if i < len(freqs)-1 {
+					add = append(add, logSweepInner(freqs[i], freqs[i+1], per)...)
+				}
+			}
+		}
+		if len(add) == 0 {
+			break
+		}
+		if origFailed, err := eval(add); err != nil {
+			return pairResult{origFailed: origFailed}, err
+		}
+		freqs = sortUnique(append(freqs, add...))
+	}
+	mo := make([]float64, len(freqs))
+	mr := make([]float64, len(freqs))
+	for i, f := range freqs {
+		mo[i], mr[i] = cmplx.Abs(ho[f]), cmplx.Abs(hr[f])
+	}
+	floor := floorOf(mo, mr)
+	var res pairResult
+	best := -1.0
+	for _, f := range freqs {
+		d, p := deviationFloor(ho[f], hr[f], floor)
+		res.MaxDB = math.Max(res.MaxDB, d)
+		res.MaxDeg = math.Max(res.MaxDeg, p)
+		// The frequency reported is where the larger of the two deviations,
+		// each against its tolerance, peaks.
+		if s := math.Max(d/tolDB, p/tolDeg); s > best {
+			best, res.AtHz = s, f
+		}
+	}
+	return res, nil
+}
+
+// floorOf is the level floorDB below the larger response's peak.
+func floorOf(mo, mr []float64) float64 {
+	peak := 0.0
+	for i := range mo {
+		peak = math.Max(peak, math.Max(mo[i], mr[i]))
+	}
+	f := peak * math.Pow(10, -floorDB/20)
+	if f == 0 {
+		f = math.SmallestNonzeroFloat64
+	}
+	return f
+}
+
+// deviationFloor is the dB and degree difference between two responses, with
+// magnitudes measured against the floor so a null does not dominate.
+func deviationFloor(a, b complex128, floor float64) (dB, deg float64) {
+	ma, mb := cmplx.Abs(a), cmplx.Abs(b)
+	if ma == 0 && mb == 0 {
+		return 0, 0
+	}
+	dB = math.Abs(20 * math.Log10(math.Max(mb, floor)/math.Max(ma, floor)))
+	if ma > floor && mb > floor {
+		deg = phaseDiff(a, b)
+	}
+	return dB, deg
+}
+
+// phaseDiff is |arg b − arg a| in degrees, wrapped into 0..180. (Taking the
+// phase of b/a instead leaves rounding noise when a == b.)
+func phaseDiff(a, b complex128) float64 {
+	d := math.Abs(cmplx.Phase(b) - cmplx.Phase(a))
+	if d > math.Pi {
+		d = 2*math.Pi - d
+	}
+	return d * 180 / math.Pi
+}
+
+// peaks returns the indices of the largest local maxima of m (ends count),
+// at most n of them, largest first, ties by index.
+func peaks(m []float64, n int) []int {
+	var idx []int
+	for i := range m {
+		left := i == 0 || m[i] >= m[i-1]
+		right := i == len(m)-1 || m[i] >= m[i+1]
+		if left && right && m[i] > 0 {
+			idx = append(idx, i)
+		}
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return m[idx[a]] > m[idx[b]] })
+	if len(idx) > n {
+		idx = idx[:n]
+	}
+	return idx
+}
