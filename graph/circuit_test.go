@@ -21,7 +21,7 @@ func parseOK(t *testing.T, src string) *Circuit {
 func relNear(a, b, tol float64) bool { return math.Abs(a-b) <= tol*math.Abs(b) }
 
 // TestTappedCoilInductance: the Hartley total L = L1 + L2 + 2M, M = k√(L1L2).
-// Values from reference-values.md §3 (formula confirmed in oscillator lecture
+// Values from docs/references.md §3 (formula confirmed in oscillator lecture
 // notes, ecexplain.in and technosains.com; the numbers are derived).
 func TestTappedCoilInductance(t *testing.T) {
 	cases := []struct {

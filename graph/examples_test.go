@@ -8,7 +8,7 @@ import (
 
 // The examples are realistic circuits, not just files that load: these tests
 // check their tuned circuits against the resonance formula f = 1/(2π√(LC))
-// (reference-values.md §1) so that later stages (reduction, AC checks, stage
+// (docs/references.md §1) so that later stages (reduction, AC checks, stage
 // figures) work on a set that would actually tune.
 
 func resonance(l, c float64) float64 { return 1 / (2 * math.Pi * math.Sqrt(l*c)) }
@@ -86,7 +86,7 @@ func TestExampleIFTanks(t *testing.T) {
 // covers the file's band at its two ends (gang fully in, fully out), and the
 // oscillator tank (coil across padder in series with gang plus trimmer) runs
 // one IF above the band edges within 3 % (three-point tracking leaves small
-// errors at the ends; reference-values.md §2 shows errors of a few kHz).
+// errors at the ends; docs/references.md §2 shows errors of a few kHz).
 func TestExampleTuningRange(t *testing.T) {
 	cases := []struct {
 		file                   string

@@ -35,13 +35,13 @@ func TestBypass(t *testing.T) {
 	}{
 		// Xc = 1/(2πfC) (derived): 1 µF at 20 Hz is 7957.7 Ω, far above 1 kΩ/10.
 		{"1uF across 1k at 20 Hz is no bypass", gridNet("20..20k", "1k", "1u", `["x", "gnd"]`, "") + "\n" /* R9 100k also on x */, false, "7.9577 kΩ"},
-		// reference-values.md §4: 25 µF at 100 Hz = 63.6620 Ω ≤ 1 kΩ/10 … but R9 (100 kΩ) is on x too: 990.1 Ω/10 = 99.0 Ω.
+		// docs/references.md §4: 25 µF at 100 Hz = 63.6620 Ω ≤ 1 kΩ/10 … but R9 (100 kΩ) is on x too: 990.1 Ω/10 = 99.0 Ω.
 		{"25uF at 100 Hz bypasses 1k", gridNet("100..20k", "1k", "25u", `["x", "gnd"]`, ""), true, "63.662 Ω"},
 		// same part, typed the other way round: a symmetric match must still fire.
 		{"pins typed gnd first", gridNet("100..20k", "1k", "25u", `["gnd", "x"]`, ""), true, "63.662 Ω"},
 		// 63.662 Ω > 0.1 × (600 ∥ 100k = 596.42 Ω): a near miss.
 		{"25uF at 100 Hz does not bypass 600R", gridNet("100..20k", "600", "25u", `["x", "gnd"]`, ""), false, "63.662 Ω"},
-		// reference-values.md §4: 0.1 µF at 455 kHz = 3.49791 Ω.
+		// docs/references.md §4: 0.1 µF at 455 kHz = 3.49791 Ω.
 		{"100n at 455 kHz", gridNet("455k..485k", "1k", "100n", `["x", "gnd"]`, ""), true, "3.4979 Ω"},
 	}
 	for _, tc := range cases {
@@ -69,7 +69,7 @@ func TestBypass(t *testing.T) {
 	}
 }
 
-// The bypass rule of thumb Xc(f_low) ≤ R/10: reference-values.md §4 gives
+// The bypass rule of thumb Xc(f_low) ≤ R/10: docs/references.md §4 gives
 // C ≥ 53.0516 µF for 1.5 kΩ at 20 Hz. Just above fires, just below does not
 // (the grid resistor is made huge so the net sees 1.5 kΩ only).
 func TestBypassThreshold(t *testing.T) {
@@ -135,7 +135,7 @@ R2 = { r = "100k", pins = ["out", "gnd"] }
 }
 
 // A capacitor across a coil to ground is a tank, not a bypass: 100 pF with
-// 253 µH resonates at 1000.6 kHz (reference-values.md §1), inside the band.
+// 253 µH resonates at 1000.6 kHz (docs/references.md §1), inside the band.
 // 10 nF with a 2.5 mH choke resonates at 31.8 kHz, far below 530 kHz: a
 // decoupling filter, and there the capacitor is a bypass.
 func TestBypassNotATank(t *testing.T) {

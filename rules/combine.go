@@ -9,7 +9,7 @@ import (
 
 // Exact worst-case combination of toleranced values. Series sums and
 // parallel combinations are monotonic in every part, so the limits of the
-// result are the result of the limits (reference-values.md §4: 10k ±5 % +
+// result are the result of the limits (docs/references.md §4: 10k ±5 % +
 // 22k ±10 % → ±8.4375 %; in parallel 6419.80–7322.77 Ω).
 
 // limits is a nominal value with its lowest and highest values.

@@ -8,7 +8,7 @@ import (
 
 // A coupling capacitor into a 470 kΩ grid leak, audio band from 20 Hz.
 // 10 nF: Xc(20 Hz) = 795.77 kΩ (derived; its corner is 33.86 Hz,
-// reference-values.md §4) — kept. 1 µF: 7957.7 Ω ≤ 47 kΩ — a wire in the
+// docs/references.md §4) — kept. 1 µF: 7957.7 Ω ≤ 47 kΩ — a wire in the
 // ideal view, never below it.
 func couplingFixture(c string) string {
 	return fmt.Sprintf(`

@@ -27,7 +27,7 @@ C9 = { c = "50u", type = "electrolytic", pins = ["ht", "gnd"] }
 `
 	r, log := reduceChecked(t, parse(t, src), Options{Level: LevelSignal})
 	if r.Part("R2") == nil || r.Part("V1").NetOf("k") != "k" {
-		t.Errorf("the unbypassed cathode resistor R2 must stay (it sets the gain, reference-values.md §5)\n%s", logText(log))
+		t.Errorf("the unbypassed cathode resistor R2 must stay (it sets the gain, docs/references.md §5)\n%s", logText(log))
 	}
 	for _, ref := range []string{"R4", "C4", "C9", "T9", "D9"} {
 		if r.Part(ref) != nil {

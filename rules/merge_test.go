@@ -51,11 +51,11 @@ func TestParallelAndSeriesValues(t *testing.T) {
 		source   string
 	}{
 		{"R parallel", `{ r = "10k", tol = "5%", pins = ["a", "b"] }`, `{ r = "22k", tol = "10%", pins = ["b", "a"] }`, "parallel",
-			6875, 6875, 6419.80, 7322.77, "", "reference-values.md §4: 6875 Ω, exact limits 6419.80–7322.77 Ω"},
+			6875, 6875, 6419.80, 7322.77, "", "docs/references.md §4: 6875 Ω, exact limits 6419.80–7322.77 Ω"},
 		{"R series", `{ r = "10k", tol = "5%", pins = ["a", "m"] }`, `{ r = "22k", tol = "10%", pins = ["m", "b"] }`, "series",
-			32000, 32000, 29300, 34700, "", "reference-values.md §4: 32 kΩ ±8.4375 % (29.3–34.7 kΩ)"},
+			32000, 32000, 29300, 34700, "", "docs/references.md §4: 32 kΩ ±8.4375 % (29.3–34.7 kΩ)"},
 		{"C series", `{ c = "100p", pins = ["a", "m"] }`, `{ c = "100p", pins = ["b", "m"] }`, "series",
-			50e-12, 50e-12, 0, 0, graph.CapFixed, "reference-values.md §4: 100 pF + 100 pF in series = 50 pF"},
+			50e-12, 50e-12, 0, 0, graph.CapFixed, "docs/references.md §4: 100 pF + 100 pF in series = 50 pF"},
 		{"C parallel", `{ c = "100p", pins = ["a", "b"] }`, `{ c = "47p", pins = ["a", "b"] }`, "parallel",
 			147e-12, 147e-12, 0, 0, graph.CapFixed, "derived: C = C1 + C2"},
 		{"gang section with trimmer", `{ c = "12p..365p", gang = "tune", pins = ["a", "b"] }`, `{ c = "5p..50p", set = "31p", pins = ["a", "b"] }`, "parallel",
@@ -97,7 +97,7 @@ func TestParallelAndSeriesValues(t *testing.T) {
 	}
 }
 
-// reference-values.md §4: 10k ±5 % + 22k ±10 % in series is ±8.4375 % worst case.
+// docs/references.md §4: 10k ±5 % + 22k ±10 % in series is ±8.4375 % worst case.
 func TestSeriesToleranceIsSymmetric(t *testing.T) {
 	p, log := mergedPart(t, twoParts(`{ r = "10k", tol = "5%", pins = ["a", "m"] }`, `{ r = "22k", tol = "10%", pins = ["m", "b"] }`), "series")
 	if p.Tol.Plus != p.Tol.Minus || !near(p.Tol.Plus, 0.084375, 1e-9) {

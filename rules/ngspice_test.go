@@ -19,7 +19,7 @@ import (
 )
 
 // An independent solver agrees that the reductions keep the signal: ngspice
-// (Debian package, reference-tools.md) sweeps the original and the reduced
+// (Debian package, docs/references.md §15) sweeps the original and the reduced
 // circuit from the same input over the input's own bands (a small-signal
 // transfer keeps frequency: an IF input is not asked to behave at audio,
 // where its bypasses were never meant to bypass), and the responses at every
@@ -108,7 +108,7 @@ func spice(t *testing.T, bin string, c *graph.Circuit, o ac.SpiceOptions) ([]flo
 		t.Fatalf("ngspice: %v\n%s", err, stderr.String())
 	}
 	// ngspice exits 0 after errors in .control and on singular matrices
-	// (reference-tools.md), so its complaints are looked for on stderr.
+	// (docs/references.md §15), so its complaints are looked for on stderr.
 	for _, l := range strings.Split(stderr.String(), "\n") {
 		if strings.Contains(l, "Error") || strings.Contains(l, "singular") {
 			t.Fatalf("ngspice: %s\n%s", l, deck.String())

@@ -164,8 +164,8 @@ func checkWellFormed(t *testing.T, path string) (w, h float64) {
 	return w, h
 }
 
-// screenshot loads a page in headless Chromium (flags from the project's
-// reference-tools notes) with a fresh profile, removed afterwards, and a
+// screenshot loads a page in headless Chromium (flags as in
+// docs/references.md §15) with a fresh profile, removed afterwards, and a
 // time limit so a hung browser cannot hang the test run.
 func screenshot(t *testing.T, browser, page, png string, w, h float64) {
 	t.Helper()

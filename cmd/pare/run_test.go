@@ -187,7 +187,7 @@ func TestMainJobOnExamples(t *testing.T) {
 }
 
 // The frequency changer's tuned circuits, as the stage table of the note
-// reports them, must agree with f = 1/(2π√(LC)) (reference-values.md §1)
+// reports them, must agree with f = 1/(2π√(LC)) (docs/references.md §1)
 // worked by hand from the netlist's values: the RF tank is T1's 230 µH
 // secondary across gang section VC1a (12–365 pF) plus its 31 pF trimmer; the
 // Hartley oscillator is L1 (128 µH) across VC1b (12–365 pF) plus its 41 pF
@@ -254,15 +254,15 @@ func TestMainJobStageFigures(t *testing.T) {
 		source                   string
 	}{
 		{"if-detector-audio", "amp-common-bypassed", "gain", -61.5385, 0.002,
-			"reference-values.md §5: −µRL/(ra+RL) with µ 100, ra 62.5 kΩ, RL 100 kΩ (R9)"},
+			"docs/references.md §5: −µRL/(ra+RL) with µ 100, ra 62.5 kΩ, RL 100 kΩ (R9)"},
 		{"if-detector-audio", "rc-coupling", "f c", 33.8628, 0.002,
-			"reference-values.md §4: fc = 1/(2πRC), C10 10 nF into R7 470 kΩ"},
+			"docs/references.md §4: fc = 1/(2πRC), C10 10 nF into R7 470 kΩ"},
 		{"if-detector-audio", "rc-coupling", "tau", 4.7e-3, 0.002,
-			"reference-values.md §4: τ = RC = 10 nF × 470 kΩ"},
+			"docs/references.md §4: τ = RC = 10 nF × 470 kΩ"},
 		{"if-detector-audio", "amp-common-bypassed", "bypass tau", 0.077628, 0.002,
 			"derived from τ = RC with R = R8 1.5 kΩ ∥ (ra + RL)/(µ + 1) = 62.5 k + 100 k over 101 (the impedance into a cathode: textbook, from memory) = 776.3 Ω, C13 100 µF"},
 		{"frequency-changer", "double-tuned", "kc", 0.0095346, 0.005,
-			"reference-values.md §6: kc = 1/√(Q1Q2) with T2's Q 110 and 100"},
+			"docs/references.md §6: kc = 1/√(Q1Q2) with T2's Q 110 and 100"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.example+"/"+tt.topology+"/"+tt.label, func(t *testing.T) {

@@ -74,7 +74,7 @@ func TestStagesJSON(t *testing.T) {
 	if mixer.Family != "valve" || len(mixer.Contains) != 2 {
 		t.Errorf("mixer family %q contains %v", mixer.Family, mixer.Contains)
 	}
-	// Signal = oscillator − IF and image = signal + 2·IF (reference-values §2), in hertz.
+	// Signal = oscillator − IF and image = signal + 2·IF (docs/references.md §2), in hertz.
 	osc, sig, img := mixer.Figures["osc_f_min_hz"], mixer.Figures["sig_f_min_hz"], mixer.Figures["image_f_min_hz"]
 	if math.Abs(osc-470e3-sig) > 1e-6 || math.Abs(sig+940e3-img) > 1e-6 || osc < 1e5 {
 		t.Errorf("osc %g, signal %g, image %g do not follow LO − IF and RF + 2·IF", osc, sig, img)
@@ -222,7 +222,7 @@ func TestStagesSupplyListedApart(t *testing.T) {
 // The three-point padding figures are a design pare proposes, not the fitted
 // parts: they are printed as a suggestion, and apart from where the fitted
 // set really tracks (QA hand check on the example's 380 pF / 128 µH / 41 pF:
-// about 620 kHz, 905 kHz and 1.48 MHz, with the model of reference-values §2).
+// about 620 kHz, 905 kHz and 1.48 MHz, with the model of docs/references.md §2).
 // A Colpitts's loop-gain threshold reads as a threshold, not a stage gain.
 func TestStagesTrackingAndGainWording(t *testing.T) {
 	code, out, errs := cliRun(t, "stages", filepath.Join(root, "examples/frequency-changer.toml"))

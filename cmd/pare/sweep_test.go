@@ -10,7 +10,7 @@ import (
 )
 
 // The RC corner of a coupling network: 10 nF into 470 kΩ, −3.0103 dB and
-// +45° at 33.8628 Hz (reference-values.md §4, derived from fc = 1/(2πRC)).
+// +45° at 33.8628 Hz (docs/references.md §4, derived from fc = 1/(2πRC)).
 const highPassNet = `band = "20..20k"
 inputs = ["in"]
 outputs = ["out"]

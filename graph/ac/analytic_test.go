@@ -78,25 +78,25 @@ func TestTankResonance(t *testing.T) {
 L1 = { l = "253u", pins = ["tank", "gnd"] }
 C1 = { c = "100p", pins = ["tank", "gnd"] }
 R1 = { r = "100k", pins = ["tank", "gnd"] }
-`, 1000.599e3, "reference-values.md §1: L 253 µH, C 100 pF, derived from f = 1/(2π√(LC))"},
+`, 1000.599e3, "docs/references.md §1: L 253 µH, C 100 pF, derived from f = 1/(2π√(LC))"},
 		{"Hartley, coupled sections", `band = "1M..5M"
 [parts]
 L1 = { l = ["20u", "5u"], k = 0.5, pins = ["top", "tap", "gnd"] }
 C1 = { c = "100p", pins = ["top", "gnd"] }
 R1 = { r = "100k", pins = ["top", "gnd"] }
-`, 2690.21e3, "reference-values.md §3: L1 20 µH, L2 5 µH, k 0.5, C 100 pF, derived (L = L1+L2+2M)"},
+`, 2690.21e3, "docs/references.md §3: L1 20 µH, L2 5 µH, k 0.5, C 100 pF, derived (L = L1+L2+2M)"},
 		{"Hartley, k = 0, tap grounded", `band = "500k..2M"
 [parts]
 L1 = { l = ["80u", "20u"], k = 0, pins = ["top", "gnd", "bot"] }
 C1 = { c = "250p", pins = ["top", "bot"] }
 R1 = { r = "1M", pins = ["top", "bot"] }
-`, 1006.58e3, "reference-values.md §3: 80 µH + 20 µH, k 0, C 250 pF, derived"},
+`, 1006.58e3, "docs/references.md §3: 80 µH + 20 µH, k 0, C 250 pF, derived"},
 		{"Hartley, k = 1 (one tapped coil)", `band = "500k..2M"
 [parts]
 L1 = { l = "180u", tap = 0.666666666666667, pins = ["top", "gnd", "bot"] }
 C1 = { c = "250p", pins = ["top", "bot"] }
 R1 = { r = "1M", pins = ["top", "bot"] }
-`, 750.264e3, "reference-values.md §3: 80 µH + 20 µH, k 1 (180 µH), C 250 pF, derived"},
+`, 750.264e3, "docs/references.md §3: 80 µH + 20 µH, k 1 (180 µH), C 250 pF, derived"},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
@@ -118,7 +118,7 @@ R1 = { r = "1M", pins = ["top", "bot"] }
 
 func TestTankImpedanceAtResonance(t *testing.T) {
 	// At resonance a parallel tank is its shunt resistance alone
-	// (reference-values.md §1, derived: f0 = 1/(2π√(253 µH·100 pF))).
+	// (docs/references.md §1, derived: f0 = 1/(2π√(253 µH·100 pF))).
 	c := mustParse(t, `band = "500k..2M"
 [parts]
 L1 = { l = "253u", pins = ["tank", "gnd"] }
@@ -133,7 +133,7 @@ R1 = { r = "100k", pins = ["tank", "gnd"] }
 }
 
 func TestRCCorner(t *testing.T) {
-	// reference-values.md §4: coupling 10 nF into 470 kΩ, fc = 1/(2πRC) =
+	// docs/references.md §4: coupling 10 nF into 470 kΩ, fc = 1/(2πRC) =
 	// 33.8628 Hz, where the response is −3.0103 dB and leads by 45°.
 	c := mustParse(t, `band = "20..20k"
 [parts]
@@ -164,23 +164,23 @@ V1 = { valve = "triode", mu = 20, ra = "10k", pins = { a = "a", g1 = "in", k = "
 		why            string
 	}{
 		{"triode CK, Rk bypassed", triode(`R1 = { r = "47k", pins = ["a", "ht"] }`+"\n", "gnd"), "a", -16.4912,
-			"reference-values.md §5: −µRL/(ra+RL), textbook solved problem (holooly.com)"},
+			"docs/references.md §5: −µRL/(ra+RL), textbook solved problem (holooly.com)"},
 		{"triode CK, Rk unbypassed", triode(`R1 = { r = "47k", pins = ["a", "ht"] }
 R2 = { r = "1k", pins = ["k", "gnd"] }
-`, "k"), "a", -12.0513, "reference-values.md §5: −µRL/(ra+RL+(µ+1)Rk), derived"},
+`, "k"), "a", -12.0513, "docs/references.md §5: −µRL/(ra+RL+(µ+1)Rk), derived"},
 		{"cathode follower, Rk 1k", triode(`R2 = { r = "1k", pins = ["k", "gnd"] }
 R9 = { r = "0", pins = ["a", "ht"], note = "anode straight to HT: a zero-ohm link joins the nets" }
-`, "k"), "k", 0.645161, "reference-values.md §5: µRk/(ra+(µ+1)Rk), derived"},
+`, "k"), "k", 0.645161, "docs/references.md §5: µRk/(ra+(µ+1)Rk), derived"},
 		{"cathode follower, Rk 10k", triode(`R2 = { r = "10k", pins = ["k", "gnd"] }
 R9 = { r = "0", pins = ["a", "ht"] }
-`, "k"), "k", 0.909091, "reference-values.md §5: µRk/(ra+(µ+1)Rk), derived"},
+`, "k"), "k", 0.909091, "docs/references.md §5: µRk/(ra+(µ+1)Rk), derived"},
 		{"BJT CE, ro open", `band = "20..20k"
 [nets]
 vcc = { role = "supply", volts = 9 }
 [parts]
 Q1 = { bjt = "npn", beta = 100, ic = "1m", ro = "1T", pins = { b = "in", c = "c", e = "gnd" } }
 R1 = { r = "4k7", pins = ["c", "vcc"] }
-`, "c", -181.804 * (1 - 4.7e3/1e12), "reference-values.md §5: −gm·RC with gm = Ic/VT, from memory (ro 1 TΩ shunts RC negligibly)"},
+`, "c", -181.804 * (1 - 4.7e3/1e12), "docs/references.md §5: −gm·RC with gm = Ic/VT, from memory (ro 1 TΩ shunts RC negligibly)"},
 		{"BJT CE, default ro", `band = "20..20k"
 [nets]
 vcc = { role = "supply", volts = 9 }
@@ -195,7 +195,7 @@ vee = { role = "supply", volts = -9 }
 Q1 = { bjt = "pnp", beta = 100, ic = "1m", ro = "1T", pins = { b = "in", c = "c", e = "e" } }
 R1 = { r = "4k7", pins = ["c", "vee"] }
 R2 = { r = "100", pins = ["e", "gnd"] }
-`, "c", -37.0511, "reference-values.md §5: exact −βRC/(rπ+(β+1)RE), from memory"},
+`, "c", -37.0511, "docs/references.md §5: exact −βRC/(rπ+(β+1)RE), from memory"},
 		{"emitter follower", `band = "20..20k"
 [nets]
 vcc = { role = "supply", volts = 9 }
@@ -209,14 +209,14 @@ vdd = { role = "supply", volts = 12 }
 [parts]
 Q1 = { fet = "njfet", gm = "5m", rd = "1T", pins = { g = "in", d = "d", s = "gnd" } }
 R1 = { r = "10k", pins = ["d", "vdd"] }
-`, "d", -50, "reference-values.md §5: −gm·RD, from memory"},
+`, "d", -50, "docs/references.md §5: −gm·RD, from memory"},
 		{"source follower", `band = "20..20k"
 [nets]
 vdd = { role = "supply", volts = 12 }
 [parts]
 Q1 = { fet = "njfet", gm = "5m", rd = "1T", pins = { g = "in", d = "vdd", s = "s" } }
 R2 = { r = "1k", pins = ["s", "gnd"] }
-`, "s", 0.833333, "reference-values.md §5: gmRS/(1+gmRS), tecnicalc.com"},
+`, "s", 0.833333, "docs/references.md §5: gmRS/(1+gmRS), tecnicalc.com"},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
@@ -235,7 +235,7 @@ R2 = { r = "1k", pins = ["s", "gnd"] }
 // An IF transformer at critical coupling: a pentode (current source) drives
 // the tuned primary, the output is the tuned secondary.
 func TestCriticalCouplingBandwidth(t *testing.T) {
-	// reference-values.md §6: L 1 mH, C 122.354 pF, parallel R 285.885 kΩ,
+	// docs/references.md §6: L 1 mH, C 122.354 pF, parallel R 285.885 kΩ,
 	// k 0.01: full-circuit simulation gives BW 6.429 kHz (±0.01), peak 454.99 kHz.
 	c := mustParse(t, `band = "440k..470k"
 [nets]
@@ -318,7 +318,7 @@ R1 = { r = "1k", pins = ["a", "gnd"] }
 
 func TestDocumentedDefaults(t *testing.T) {
 	// A triode with no parameters takes gm 2 mA/V, ra 20 kΩ (µ 40): with a
-	// 20 kΩ load the gain is −µRL/(ra+RL) = −20 (reference-values.md §5
+	// 20 kΩ load the gain is −µRL/(ra+RL) = −20 (docs/references.md §5
 	// formula with the documented defaults, derived).
 	c := mustParse(t, `band = "1k..2k"
 [nets]
@@ -381,7 +381,7 @@ func TestOddValues(t *testing.T) {
 
 // Two inputs into a two-grid mixer model: driving one, the other is held at
 // 0 V by its own source, so the result is the one stage's gain alone
-// (superposition; reference-values.md §5 formula −µRL/(ra+RL), derived).
+// (superposition; docs/references.md §5 formula −µRL/(ra+RL), derived).
 func TestOtherInputsHeld(t *testing.T) {
 	c := mustParse(t, `band = "1k..2k"
 inputs = ["in1", "in2"]

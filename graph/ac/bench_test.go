@@ -133,7 +133,7 @@ func cpuTime() time.Duration {
 
 // The benchmark circuits are solved correctly, not just fast: the ladder's
 // low-frequency response is 1 and a single stage's gain is −µ(RL∥Rg)/(ra+RL∥Rg)
-// at mid band (reference-values.md §5 formula, derived).
+// at mid band (docs/references.md §5 formula, derived).
 func TestBenchCircuits(t *testing.T) {
 	h, err := Transfer(ladder(1000), "n0", "n1000", []float64{1e-3}, Options{})
 	if err != nil {

@@ -77,7 +77,7 @@ func spiceRun(t testing.TB, bin string, c *graph.Circuit, o SpiceOptions) ([]flo
 		t.Fatalf("ngspice: %v\n%s", err, stderr.String())
 	}
 	// ngspice exits 0 on errors inside .control and on singular matrices
-	// (reference-tools.md): look at stderr.
+	// (docs/references.md §15): look at stderr.
 	for _, l := range strings.Split(stderr.String(), "\n") {
 		if strings.Contains(l, "Error") || strings.Contains(l, "singular") || strings.Contains(l, "Warning") {
 			t.Fatalf("ngspice reported: %s\ndeck:\n%s", l, deck.String())

@@ -28,7 +28,7 @@ func reduceExample(t *testing.T, name string) (*graph.Circuit, *graph.Circuit, *
 // Hartley oscillator with the cathode tap. Its oscillator range follows
 // from L1 128 µH and the gang 12–365 pF with 41 pF trimmer in series with
 // the 380 pF padder: C = (Cg+Ct)·Cp/(Cg+Ct+Cp) (series and parallel
-// capacitors, reference-values §4), f = 1/(2π√(LC)) (§1); the signal range is
+// capacitors, docs/references.md §4), f = 1/(2π√(LC)) (§1); the signal range is
 // oscillator − 470 kHz and the image signal + 940 kHz (§2).
 func TestFrequencyChangerExample(t *testing.T) {
 	full, reduced, log := reduceExample(t, "frequency-changer.toml")
@@ -77,7 +77,7 @@ func TestFrequencyChangerExample(t *testing.T) {
 
 // The IF strip: the triode preamplifier's gain is the textbook
 // −µRL/(ra+RL) = −61.5385 for µ 100, ra 62.5 kΩ, RL 100 kΩ
-// (reference-values §5), and the AC solver agrees.
+// (docs/references.md §5), and the AC solver agrees.
 func TestIFStripExample(t *testing.T) {
 	full, reduced, log := reduceExample(t, "if-detector-audio.toml")
 	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround})

@@ -37,7 +37,7 @@ C3 = { c = "100p", pins = ["m", "gnd"] }
 C2 = { c = "1n", pins = ["top", "k"] }
 C1 = { c = "1n", pins = ["k", "gnd"] }`
 
-// The IF transformer of reference-values §6: 1 mH, 122.354 pF (455 kHz), Q 100, k 0.01.
+// The IF transformer of docs/references.md §6: 1 mH, 122.354 pF (455 kHz), Q 100, k 0.01.
 const ifRef = `T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "a", p2 = "ht", s1 = "g", s2 = "gnd" } }
 C1 = { c = "122.354p", pins = ["a", "ht"] }
 C2 = { c = "122.354p", pins = ["g", "gnd"] }`
@@ -54,122 +54,122 @@ C3 = { c = "122.354p", pins = ["o", "ht"] }
 C4 = { c = "122.354p", pins = ["if", "gnd"] }`
 
 var figureCases = []figureCase{
-	// reference-values §3: Hartley L1 20 µH, L2 5 µH, k 0.5 → 35 µH, 2690.21 kHz.
+	// docs/references.md §3: Hartley L1 20 µH, L2 5 µH, k 0.5 → 35 µH, 2690.21 kHz.
 	{"hartley L", "valve", "", hartleyRef, "hartley-common-tap", "l_h", 35e-6, 1e-9},
 	{"hartley f", "bjt", "", hartleyRef, "hartley-common-tap", "f_hz", 2690.21e3, 2e-6},
-	// reference-values §3: Hartley 80 µH + 20 µH, k 1, 250 pF → 180 µH, 750.264 kHz.
+	// docs/references.md §3: Hartley 80 µH + 20 µH, k 1, 250 pF → 180 µH, 750.264 kHz.
 	{"hartley k1", "fet", "", `@Q1(top, tap, ht)
 L1 = { l = ["80u", "20u"], k = 1, pins = ["top", "tap", "gnd"] }
 C1 = { c = "250p", pins = ["top", "gnd"] }`, "hartley-common-tap", "f_hz", 750.264e3, 2e-6},
-	// reference-values §3: Hartley k 0 → 100 µH, 1006.58 kHz.
+	// docs/references.md §3: Hartley k 0 → 100 µH, 1006.58 kHz.
 	{"hartley k0", "valve", "", `@Q1(top, tap, ht)
 L1 = { l = ["80u", "20u"], k = 0, pins = ["top", "tap", "gnd"] }
 C1 = { c = "250p", pins = ["top", "gnd"] }`, "hartley-common-tap", "f_hz", 1006.58e3, 5e-6},
-	// reference-values §3: Colpitts 4.7 µH, C1 100 pF, C2 1 nF → 90.9091 pF, 7699.59 kHz, β 0.1, A ≥ 10.
+	// docs/references.md §3: Colpitts 4.7 µH, C1 100 pF, C2 1 nF → 90.9091 pF, 7699.59 kHz, β 0.1, A ≥ 10.
 	{"colpitts Ceff", "valve", "", colpittsRef, "colpitts-common-tap", "c_eff_f", 90.9091e-12, 1e-6},
 	{"colpitts f", "bjt", "", colpittsRef, "colpitts-common-tap", "f_hz", 7699.59e3, 2e-6},
 	{"colpitts beta", "fet", "", colpittsRef, "colpitts-common-tap", "feedback", 0.1, 1e-9},
 	{"colpitts gain", "fet", "", colpittsRef, "colpitts-common-tap", "gain_min", 10, 1e-9},
-	// reference-values §3: Colpitts 10 µH, 1 nF, 1 nF → 500 pF, β 1, 2250.79 kHz.
+	// docs/references.md §3: Colpitts 10 µH, 1 nF, 1 nF → 500 pF, β 1, 2250.79 kHz.
 	{"colpitts grounded", "bjt", "", `@Q1(g, gnd, o)
 L1 = { l = "10u", pins = ["top", "bot"] }
 C1 = { c = "1n", pins = ["bot", "gnd"] }
 C2 = { c = "1n", pins = ["top", "gnd"] }
 C3 = { c = "100n", pins = ["g", "top"] }
 C4 = { c = "100n", pins = ["o", "bot"] }`, "colpitts-grounded-tap", "f_hz", 2250.79e3, 2e-6},
-	// reference-values §3: Clapp 22 µH, 1 nF, 1 nF, 100 pF → 83.3333 pF, 3717.06 kHz.
+	// docs/references.md §3: Clapp 22 µH, 1 nF, 1 nF, 100 pF → 83.3333 pF, 3717.06 kHz.
 	{"clapp Ceff", "valve", "", clappRef, "clapp", "c_eff_f", 83.3333e-12, 1e-6},
 	{"clapp f", "valve", "", clappRef, "clapp", "f_hz", 3717.06e3, 2e-6},
-	// reference-values §3: Clapp 100 µH, 2.2 nF, 2.2 nF, 47 pF → 2370.59 kHz.
+	// docs/references.md §3: Clapp 100 µH, 2.2 nF, 2.2 nF, 47 pF → 2370.59 kHz.
 	{"clapp 2", "bjt", "", `@Q1(top, k, ht)
 L1 = { l = "100u", pins = ["top", "m"] }
 C3 = { c = "47p", pins = ["m", "gnd"] }
 C2 = { c = "2n2", pins = ["top", "k"] }
 C1 = { c = "2n2", pins = ["k", "gnd"] }`, "clapp", "f_hz", 2370.59e3, 2e-6},
-	// reference-values §1: L 253 µH, C 100 pF → 1000.599 kHz.
+	// docs/references.md §1: L 253 µH, C 100 pF → 1000.599 kHz.
 	{"tank", "valve", "", `L1 = { l = "253u", pins = ["t", "gnd"] }
 C1 = { c = "100p", pins = ["t", "gnd"] }`, "lc-tank", "f_hz", 1000.599e3, 1e-6},
-	// reference-values §1: L 250 µH, gang 12–365 pF → 2905.76 → 526.870 kHz.
+	// docs/references.md §1: L 250 µH, gang 12–365 pF → 2905.76 → 526.870 kHz.
 	{"gang top", "valve", "", `L1 = { l = "250u", pins = ["t", "gnd"] }
 C1 = { c = "12p..365p", pins = ["t", "gnd"] }`, "lc-tank", "f_max_hz", 2905.76e3, 2e-6},
 	{"gang bottom", "valve", "", `L1 = { l = "250u", pins = ["t", "gnd"] }
 C1 = { c = "12p..365p", pins = ["t", "gnd"] }`, "lc-tank", "f_min_hz", 526.870e3, 2e-6},
-	// reference-values §1: L 100 µH with 15 pF / 500 pF → 4109.36 / 711.763 kHz.
+	// docs/references.md §1: L 100 µH with 15 pF / 500 pF → 4109.36 / 711.763 kHz.
 	{"100u range", "valve", "", `L1 = { l = "100u", pins = ["t", "gnd"] }
 C1 = { c = "15p..500p", pins = ["t", "gnd"] }`, "lc-tank", "f_min_hz", 711.763e3, 2e-6},
 	// A trimmer beside the gang adds to both ends: 12+26.0046 .. 365+26.0046 pF
-	// with 230.625 µH covers 1700 .. 530 kHz (reference-values §2, RF tank).
+	// with 230.625 µH covers 1700 .. 530 kHz (docs/references.md §2, RF tank).
 	{"gang with trimmer", "valve", "", `L1 = { l = "230.625u", pins = ["t", "gnd"] }
 C1 = { c = "12p..365p", pins = ["t", "gnd"] }
 C2 = { c = "5p..50p", set = "26.0046p", pins = ["t", "gnd"] }`, "lc-tank", "f_min_hz", 530e3, 1e-4},
-	// reference-values §6: f0 455 kHz, Q 100 → kc 0.01, critically coupled bandwidth 6.43467 kHz.
+	// docs/references.md §6: f0 455 kHz, Q 100 → kc 0.01, critically coupled bandwidth 6.43467 kHz.
 	{"if kc", "valve", "", ifRef, "double-tuned", "kc", 0.01, 1e-9},
 	{"if bw", "valve", "", ifRef, "double-tuned", "bw_hz", 6.43467e3, 2e-5},
 	{"if f1", "valve", "", ifRef, "double-tuned", "f1_hz", 455e3, 1e-5},
-	// reference-values §6: Q1 80, Q2 120 → kc 0.0102062.
+	// docs/references.md §6: Q1 80, Q2 120 → kc 0.0102062.
 	{"kc unequal", "valve", "", `T1 = { windings = { p = { l = "1m", q = 80 }, s = { l = "1m", q = 120 } }, k = 0.01, pins = { p1 = "a", p2 = "ht", s1 = "g", s2 = "gnd" } }
 C1 = { c = "122.354p", pins = ["a", "ht"] }
 C2 = { c = "122.354p", pins = ["g", "gnd"] }`, "double-tuned", "kc", 0.0102062, 1e-6},
-	// reference-values §2: IF 455, RF 1000 kHz → LO 1455 kHz, image 1910 kHz.
+	// docs/references.md §2: IF 455, RF 1000 kHz → LO 1455 kHz, image 1910 kHz.
 	{"mixer signal", "valve", "[freqs]\nif = \"455k\"", mixerRef, "self-oscillating-mixer", "sig_f_min_hz", 1000e3, 1e-6},
 	{"mixer image", "bjt", "[freqs]\nif = \"455k\"", mixerRef, "self-oscillating-mixer", "image_f_max_hz", 1910e3, 1e-6},
 	{"mixer osc", "fet", "[freqs]\nif = \"455k\"", mixerRef, "self-oscillating-mixer", "osc_f_min_hz", 1455e3, 1e-6},
 	// No IF declared: the IF transformer's own tuning (455 kHz, §1) is used.
 	{"mixer IF from IFT", "valve", "", mixerRef, "self-oscillating-mixer", "if_hz", 455e3, 1e-5},
-	// reference-values §4: AGC 1 MΩ × 0.1 µF → 0.1 s, 1.59155 Hz.
+	// docs/references.md §4: AGC 1 MΩ × 0.1 µF → 0.1 s, 1.59155 Hz.
 	{"agc tau", "valve", "", `R1 = { r = "1M", pins = ["det", "agc"] }
 C1 = { c = "100n", pins = ["agc", "gnd"] }`, "agc-filter", "tau_s", 0.1, 1e-9},
 	{"agc corner", "valve", "", `R1 = { r = "1M", pins = ["det", "agc"] }
 C1 = { c = "100n", pins = ["agc", "gnd"] }`, "agc-filter", "f_c_hz", 1.59155, 1e-5},
-	// reference-values §4: coupling 10 nF into 470 kΩ → 4.7 ms, 33.8628 Hz.
+	// docs/references.md §4: coupling 10 nF into 470 kΩ → 4.7 ms, 33.8628 Hz.
 	{"coupling corner", "valve", "", `@Q1(in, gnd, a)
 R2 = { r = "47k", pins = ["a", "ht"] }
 C1 = { c = "10n", pins = ["a", "b"] }
 R1 = { r = "470k", pins = ["b", "gnd"] }
 @Q2(b, gnd, o)
 R3 = { r = "47k", pins = ["o", "ht"] }`, "rc-coupling", "f_c_hz", 33.8628, 1e-5},
-	// reference-values §4: detector load 100 kΩ ∥ 100 pF → 10 µs, 15.9155 kHz.
+	// docs/references.md §4: detector load 100 kΩ ∥ 100 pF → 10 µs, 15.9155 kHz.
 	{"detector", "valve", "", `D1 = { diode = "signal", pins = ["in", "out"] }
 C1 = { c = "100p", pins = ["out", "gnd"] }
 R1 = { r = "100k", pins = ["out", "gnd"] }`, "diode-detector", "f_c_hz", 15.9155e3, 1e-5},
 	// The detector's DC load is the whole resistive network: 1 MΩ ∥ (47 kΩ +
-	// 500 kΩ track) = 353.588 kΩ (series/parallel, reference-values §4 rules).
+	// 500 kΩ track) = 353.588 kΩ (series/parallel, docs/references.md §4 rules).
 	{"detector network", "valve", "", `D1 = { diode = "signal", pins = ["in", "out"] }
 C1 = { c = "100p", pins = ["out", "gnd"] }
 R1 = { r = "1M", pins = ["out", "gnd"] }
 R2 = { r = "47k", pins = ["out", "f"] }
 RV1 = { pot = "500k", set = 0.3, pins = ["f", "w", "gnd"] }`, "diode-detector", "r_load_ohm", 353.5876e3, 1e-6},
-	// reference-values §5: triode CK µ 20, ra 10 k, RL 47 k → −16.4912.
+	// docs/references.md §5: triode CK µ 20, ra 10 k, RL 47 k → −16.4912.
 	{"triode CK", "valve", "", `@Q1(in, gnd, o)
 R1 = { r = "47k", pins = ["o", "ht"] }`, "amp-common", "gain", -16.4912, 1e-5},
-	// reference-values §5: + Rk 1 k unbypassed → −12.0513.
+	// docs/references.md §5: + Rk 1 k unbypassed → −12.0513.
 	{"triode CK unbypassed", "valve", "", `@Q1(in, k, o)
 R1 = { r = "47k", pins = ["o", "ht"] }
 R2 = { r = "1k", pins = ["k", "gnd"] }`, "amp-common-degenerated", "gain", -12.0513, 1e-5},
-	// reference-values §5: cathode follower µ 20, ra 10 k, Rk 1 k → 0.645161, Rout 322.581 Ω.
+	// docs/references.md §5: cathode follower µ 20, ra 10 k, Rk 1 k → 0.645161, Rout 322.581 Ω.
 	{"cathode follower", "valve", "", `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`, "amp-follower", "gain", 0.645161, 1e-5},
 	{"cathode follower Rout", "valve", "", `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`, "amp-follower", "r_out_ohm", 322.581, 1e-5},
-	// reference-values §5: Rk 10 k → 0.909091, Rout 454.545 Ω.
+	// docs/references.md §5: Rk 10 k → 0.909091, Rout 454.545 Ω.
 	{"cathode follower 10k", "valve", "", `@Q1(in, k, ht)
 R1 = { r = "10k", pins = ["k", "gnd"] }`, "amp-follower", "gain", 0.909091, 1e-5},
-	// reference-values §5: CE Ic 1 mA, RC 4.7 k → −181.804; RE 100 Ω exact −37.0511.
+	// docs/references.md §5: CE Ic 1 mA, RC 4.7 k → −181.804; RE 100 Ω exact −37.0511.
 	{"CE", "bjt", "", `@Q1(in, gnd, o)
 R1 = { r = "4k7", pins = ["o", "ht"] }`, "amp-common", "gain", -181.804, 1e-5},
 	{"CE unbypassed", "bjt", "", `@Q1(in, k, o)
 R1 = { r = "4k7", pins = ["o", "ht"] }
 R2 = { r = "100", pins = ["k", "gnd"] }`, "amp-common-degenerated", "gain", -37.0511, 1e-5},
-	// reference-values §5: emitter follower RE 1 k → 0.974799.
+	// docs/references.md §5: emitter follower RE 1 k → 0.974799.
 	{"emitter follower", "bjt", "", `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`, "amp-follower", "gain", 0.974799, 1e-5},
-	// reference-values §5: FET CS gm 5 mS, RD 10 k → −50; source follower RS 1 k → 0.833333.
+	// docs/references.md §5: FET CS gm 5 mS, RD 10 k → −50; source follower RS 1 k → 0.833333.
 	{"CS", "fet", "", `@Q1(in, gnd, o)
 R1 = { r = "10k", pins = ["o", "ht"] }`, "amp-common", "gain", -50, 1e-9},
 	{"source follower", "fet", "", `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`, "amp-follower", "gain", 0.833333, 1e-5},
 	// Tuned stage: Rd = Q·ω0·L = 100 · 2π · 455 kHz · 1 mH = 285.885 kΩ
-	// (reference-values §6 parallel R); FET gm 5 mS → −gm·Rd = −1429.42 (derived).
+	// (docs/references.md §6 parallel R); FET gm 5 mS → −gm·Rd = −1429.42 (derived).
 	{"tuned rdyn", "fet", "", `@Q1(in, gnd, o)
 T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
 C1 = { c = "122.354p", pins = ["o", "ht"] }
@@ -230,7 +230,7 @@ func TestFigures(t *testing.T) {
 	}
 }
 
-// reference-values §2, three-point tracking: RF tank 230.625 µH with a
+// docs/references.md §2, three-point tracking: RF tank 230.625 µH with a
 // 26.0046 pF trimmer beside a 12–365 pF gang, IF 455 kHz, exact at
 // 600/1100/1600 kHz → L2 135.265 µH, Ct2 33.5915 pF, Cp 364.241 pF; residual
 // fosc − (RF + IF) at 530: +6.94, 800: −6.35, 1300: +4.07, 1700: −5.22 kHz.
@@ -265,7 +265,7 @@ func TestThreePointTracking(t *testing.T) {
 	}
 }
 
-// The padded set of reference-values §2 built as a circuit: the dial sweep
+// The padded set of docs/references.md §2 built as a circuit: the dial sweep
 // finds the residual's worst point, +6.94 kHz at the bottom of the band.
 func TestTrackingAcrossTheDial(t *testing.T) {
 	c := circuit(t, "valve", `@Q1(g, tap, o)
@@ -286,7 +286,7 @@ C4 = { c = "122.354p", pins = ["if", "gnd"] }`, "[freqs]\nif = \"455k\"")
 		t.Fatal("mixer not recognised")
 	}
 	if got := fig(s.Figures, "track_err_max_hz") / 1e3; math.Abs(got-6.94) > 0.01 {
-		t.Errorf("worst tracking error %.3f kHz, want +6.94 (reference-values §2 residual at 530 kHz)", got)
+		t.Errorf("worst tracking error %.3f kHz, want +6.94 (docs/references.md §2 residual at 530 kHz)", got)
 	}
 	if got := fig(s.Figures, "track_err_at_hz") / 1e3; math.Abs(got-530) > 1 {
 		t.Errorf("worst tracking error at %.1f kHz, want 530", got)
@@ -301,7 +301,7 @@ C4 = { c = "122.354p", pins = ["if", "gnd"] }`, "[freqs]\nif = \"455k\"")
 // Flags a repairer would act on: an IF transformer tuned off the declared
 // IF, with how much, and an oscillator that cannot reach the band.
 func TestFlags(t *testing.T) {
-	// 1 mH with 122.354 pF is 455 kHz (reference-values §1); declared 470 kHz.
+	// 1 mH with 122.354 pF is 455 kHz (docs/references.md §1); declared 470 kHz.
 	c := circuit(t, "valve", mixerRef, "[freqs]\nif = \"470k\"")
 	s := stageOf(find(t, c, Options{}), "self-oscillating-mixer")
 	if s == nil {
@@ -325,7 +325,7 @@ func TestFlags(t *testing.T) {
 }
 
 // The textbook gain and the AC solver agree on a plain stage
-// (reference-values §5 value, nodal solve by graph/ac).
+// (docs/references.md §5 value, nodal solve by graph/ac).
 func TestGainCrossCheck(t *testing.T) {
 	c := circuit(t, "valve", `@Q1(in, gnd, o)
 R1 = { r = "47k", pins = ["o", "ht"] }`)

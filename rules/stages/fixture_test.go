@@ -12,7 +12,7 @@ import (
 // Fixtures are reduced circuits written as netlist part lines. An amplifying
 // device is written @Q1(control, common, output) and expands per family, so
 // one fixture tests a pattern on valves, BJTs and FETs alike. The device
-// parameters are the invented ones of reference-values §5.
+// parameters are the invented ones of docs/references.md §5.
 var devicePattern = regexp.MustCompile(`@(\w+)\(\s*(\w+)\s*,\s*(\w+)\s*,\s*(\w+)\s*\)`)
 
 func expandDevices(parts, family string) string {

@@ -15,7 +15,7 @@ import (
 )
 
 // ngspiceSweep runs an AC deck (a 1 A source into net "in", a lin sweep)
-// and returns frequency and |V(out)|. Recipe and pitfalls: reference-tools.md.
+// and returns frequency and |V(out)|. Recipe and pitfalls: docs/references.md §15.
 func ngspiceSweep(t *testing.T, netlist, sweep string) (f, v []float64) {
 	t.Helper()
 	bin := reftool.Find(t, reftool.Ngspice)
@@ -92,7 +92,7 @@ R1 out 0 1meg`, "lin 4001 2.68meg 2.70meg")
 	}
 }
 
-// The IF transformer of reference-values §6 simulated whole (Q 100 as a
+// The IF transformer of docs/references.md §6 simulated whole (Q 100 as a
 // parallel 285.885 kΩ, k 0.01): its −3 dB bandwidth agrees with the stage's
 // bw_hz (√2·f0/Q at critical coupling) within 0.5 %.
 func TestDoubleTunedAgainstNgspice(t *testing.T) {
@@ -137,7 +137,7 @@ C1 = { c = "180p", pins = ["hot", "ht"] }`)
 	if s == nil {
 		t.Fatal("no tapped tuned amplifier")
 	}
-	// gm = Ic/VT (reference-values §5); the loss resistance is the stage's own r_dyn_ohm.
+	// gm = Ic/VT (docs/references.md §5); the loss resistance is the stage's own r_dyn_ohm.
 	gm := 1e-3 / model.VT
 	f, v := ngspiceSweep(t, `V1 in 0 DC 0 AC 1
 G1 out 0 in 0 `+strconv.FormatFloat(gm, 'g', 12, 64)+`

@@ -88,7 +88,7 @@ C1 = { c = "100n", pins = ["m", "gnd"] }`)
 	if s == nil {
 		t.Fatalf("user pattern not used: %s", topologies(st))
 	}
-	// τ = 10 kΩ × 100 nF = 1 ms (reference-values §4 formula).
+	// τ = 10 kΩ × 100 nF = 1 ms (docs/references.md §4 formula).
 	if got := fig(s.Figures, "tau_s"); got < 0.999e-3 || got > 1.001e-3 {
 		t.Errorf("tau_s = %g, want 1 ms", got)
 	}

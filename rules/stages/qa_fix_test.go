@@ -22,7 +22,7 @@ func stageWith(stages []Stage, ref string) *Stage {
 // A coupling capacitor with a resistor to AC ground on both sides has its
 // corner against the resistor it feeds (downstream, away from the driving
 // electrode), never against the source's resistor: f = 1/(2πRC)
-// (reference-values §4).
+// (docs/references.md §4).
 func TestCouplingCornerUsesLoadSide(t *testing.T) {
 	for _, c := range []struct {
 		file, cap, load, source string
@@ -134,7 +134,7 @@ R2 = { r = "10k", pins = ["ht", "gnd"] }
 	}
 }
 
-// reference-values §2, three-point tracking: the padded set of
+// docs/references.md §2, three-point tracking: the padded set of
 // TestTrackingAcrossTheDial (RF tank 230.625 µH + 26.0046 pF trimmer; L2
 // 135.265 µH, Ct2 33.5915 pF, Cp 364.241 pF; IF 455 kHz) was designed exact
 // at 600, 1100 and 1600 kHz, so the fitted set must track exactly there and
@@ -157,7 +157,7 @@ C4 = { c = "122.354p", pins = ["if", "gnd"] }`, "[freqs]\nif = \"455k\"")
 	if s == nil {
 		t.Fatal("mixer not recognised")
 	}
-	for i, want := range []float64{600e3, 1100e3, 1600e3} { // reference-values §2 design points
+	for i, want := range []float64{600e3, 1100e3, 1600e3} { // docs/references.md §2 design points
 		key := "track_fit" + string(rune('1'+i)) + "_hz"
 		if got, ok := s.Figures.Lookup(key); !ok || math.Abs(got-want) > 0.5e3 {
 			t.Errorf("%s = %g Hz (present %v), want %g Hz", key, got, ok, want)
@@ -172,7 +172,7 @@ C4 = { c = "122.354p", pins = ["if", "gnd"] }`, "[freqs]\nif = \"455k\"")
 // oscillator 128 µH, 41 pF trimmer, 380 pF padder; gang 12–365 pF; IF
 // 470 kHz) do not track where the suggested design would: at each fitted
 // point pare reports, the oscillator worked out by hand, f = 1/(2π√(LC)) with
-// C = (Cg+Ct)·Cp/(Cg+Ct+Cp) (reference-values §1, §4), is the signal + IF.
+// C = (Cg+Ct)·Cp/(Cg+Ct+Cp) (docs/references.md §1, §4), is the signal + IF.
 func TestFittedTrackingFrequencyChanger(t *testing.T) {
 	full, reduced, log := reduceExample(t, "frequency-changer.toml")
 	mix := stageOf(find(t, reduced, Options{Full: full, ACGround: log.ACGround}), "self-oscillating-mixer")

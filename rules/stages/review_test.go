@@ -191,13 +191,13 @@ func TestCouplingCapacitorCorner(t *testing.T) {
 		{"into a grid leak", `C1 = { c = "10n", pins = ["in", "g"] }
 R1 = { r = "470k", pins = ["g", "gnd"] }
 @Q1(g, gnd, o)
-R2 = { r = "47k", pins = ["o", "ht"] }`, 33.8628, 4.7e-3, 470e3, "reference-values §4: 10 nF into 470 kΩ"},
+R2 = { r = "47k", pins = ["o", "ht"] }`, 33.8628, 4.7e-3, 470e3, "docs/references.md §4: 10 nF into 470 kΩ"},
 		// The anode load (47 kΩ to HT, AC ground) is upstream: the corner
 		// is against the 470 kΩ beyond, not 338.6 Hz against the load.
 		{"from an anode into the next grid", `@Q1(in, gnd, a)
 R2 = { r = "47k", pins = ["a", "ht"] }
 C1 = { c = "10n", pins = ["a", "b"] }
-R1 = { r = "470k", pins = ["b", "gnd"] }`, 33.8628, 4.7e-3, 470e3, "reference-values §4: 10 nF into 470 kΩ"},
+R1 = { r = "470k", pins = ["b", "gnd"] }`, 33.8628, 4.7e-3, 470e3, "docs/references.md §4: 10 nF into 470 kΩ"},
 		// Only a port beyond: the 47 kΩ anode load is the source, not what
 		// the capacitor feeds, so no corner (not 338.6 Hz).
 		{"from an anode into a port", `@Q1(in, gnd, a)

@@ -63,7 +63,7 @@ func TestNoteSections(t *testing.T) {
 	md := writeToString(t, sampleNote())
 	cautionHeading := valveCaution().Heading
 	// Each line must appear verbatim: the caution wording comes from the
-	// project's safety list (reference values §9, common practice), the rest
+	// project's safety list (docs/references.md §9, common practice), the rest
 	// is the note's own layout.
 	for _, want := range []string{
 		"# Repair note: Club receiver: frequency changer (MW)",
