@@ -86,6 +86,28 @@ type pairResult struct {
 
 // sweepPair runs the coarse sweep and the refinement for one quantity.
 func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg float64, marks []float64) (pairResult, error) {
+	sw := &pairSweep{po: po, pr: pr, ho: map[float64]complex128{}, hr: map[float64]complex128{}}
+	freqs := coarseGrid(bands, points, marks)
+	if origFailed, err := sw.eval(freqs); err != nil {
+		return pairResult{origFailed: origFailed}, err
+	}
+	// Refine around the peaks of each response and of the deviation.
+	const rounds = 5
+	for round := 0; round < rounds; round++ {
+		add := sw.refinePoints(freqs)
+		if len(add) == 0 {
+			break
+		}
+		if origFailed, err := sw.eval(add); err != nil {
+			return pairResult{origFailed: origFailed}, err
+		}
+		freqs = sortUnique(append(freqs, add...))
+	}
+	return sw.worst(freqs, tolDB, tolDeg), nil
+}
+
+// coarseGrid is the first sweep: Points log-spaced frequencies per band.
+func coarseGrid(bands []value.Range, points int, marks []float64) []float64 {
 	var freqs []float64
 	for _, b := range bands {
 		freqs = append(freqs, logSweep(b.Min, b.Max, points)...)
@@ -97,72 +119,78 @@ func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg flo
 			}
 		}
 	}
-	freqs = sortUnique(freqs)
-	ho := map[float64]complex128{}
-	hr := map[float64]complex128{}
-	eval := func(fs []float64) (bool, error) {
-		for _, f := range fs {
-			if _, done := ho[f]; done {
-				continue
-			}
-			a, err := po.at(f)
-			if err != nil {
-				return true, err
-			}
-			b, err := pr.at(f)
-			if err != nil {
-				return false, err
-			}
-			ho[f], hr[f] = a, b
+	return sortUnique(freqs)
+}
+
+// pairSweep holds both circuits' responses at every frequency visited.
+type pairSweep struct {
+	po, pr *probe
+	ho, hr map[float64]complex128
+}
+
+// eval solves both circuits at the frequencies not yet visited; on an
+// error it says whether the original (rather than the reduced) failed.
+func (sw *pairSweep) eval(fs []float64) (bool, error) {
+	for _, f := range fs {
+		if _, done := sw.ho[f]; done {
+			continue
 		}
-		return false, nil
+		a, err := sw.po.at(f)
+		if err != nil {
+			return true, err
+		}
+		b, err := sw.pr.at(f)
+		if err != nil {
+			return false, err
+		}
+		sw.ho[f], sw.hr[f] = a, b
 	}
-	if origFailed, err := eval(freqs); err != nil {
-		return pairResult{origFailed: origFailed}, err
-	}
-	// Refine around the peaks of each response and of the deviation.
-	const rounds, maxPeaks, per = 5, 10, 4
-	for round := 0; round < rounds; round++ {
-		var add []float64
-		mo := make([]float64, len(freqs))
-		mr := make([]float64, len(freqs))
-		for i, f := range freqs {
-			mo[i], mr[i] = cmplx.Abs(ho[f]), cmplx.Abs(hr[f])
-		}
-		floor := floorOf(mo, mr)
-		dd := make([]float64, len(freqs))
-		dp := make([]float64, len(freqs))
-		for i, f := range freqs {
-			dd[i], dp[i] = deviationFloor(ho[f], hr[f], floor)
-		}
-		for _, m := range [][]float64{mo, mr, dd, dp} {
-			for _, i := range peaks(m, maxPeaks) {
-				if i > 0 {
-					add = append(add, logSweepInner(freqs[i-1], freqs[i], per)...)
-				}
-				if i < len(freqs)-1 {
-					add = append(add, logSweepInner(freqs[i], freqs[i+1], per)...)
-				}
-			}
-		}
-		if len(add) == 0 {
-			break
-		}
-		if origFailed, err := eval(add); err != nil {
-			return pairResult{origFailed: origFailed}, err
-		}
-		freqs = sortUnique(append(freqs, add...))
-	}
-	mo := make([]float64, len(freqs))
-	mr := make([]float64, len(freqs))
+	return false, nil
+}
+
+// magnitudes returns both responses' magnitudes over freqs.
+func (sw *pairSweep) magnitudes(freqs []float64) (mo, mr []float64) {
+	mo = make([]float64, len(freqs))
+	mr = make([]float64, len(freqs))
 	for i, f := range freqs {
-		mo[i], mr[i] = cmplx.Abs(ho[f]), cmplx.Abs(hr[f])
+		mo[i], mr[i] = cmplx.Abs(sw.ho[f]), cmplx.Abs(sw.hr[f])
 	}
+	return mo, mr
+}
+
+// refinePoints lists new frequencies on both sides of the highest peaks of
+// each response and of the dB and phase deviations.
+func (sw *pairSweep) refinePoints(freqs []float64) []float64 {
+	const maxPeaks, per = 10, 4
+	var add []float64
+	mo, mr := sw.magnitudes(freqs)
+	floor := floorOf(mo, mr)
+	dd := make([]float64, len(freqs))
+	dp := make([]float64, len(freqs))
+	for i, f := range freqs {
+		dd[i], dp[i] = deviationFloor(sw.ho[f], sw.hr[f], floor)
+	}
+	for _, m := range [][]float64{mo, mr, dd, dp} {
+		for _, i := range peaks(m, maxPeaks) {
+			if i > 0 {
+				add = append(add, logSweepInner(freqs[i-1], freqs[i], per)...)
+			}
+			if i < len(freqs)-1 {
+				add = append(add, logSweepInner(freqs[i], freqs[i+1], per)...)
+			}
+		}
+	}
+	return add
+}
+
+// worst is the largest deviation in dB and in degrees over freqs.
+func (sw *pairSweep) worst(freqs []float64, tolDB, tolDeg float64) pairResult {
+	mo, mr := sw.magnitudes(freqs)
 	floor := floorOf(mo, mr)
 	var res pairResult
 	best := -1.0
 	for _, f := range freqs {
-		d, p := deviationFloor(ho[f], hr[f], floor)
+		d, p := deviationFloor(sw.ho[f], sw.hr[f], floor)
 		res.MaxDB = math.Max(res.MaxDB, d)
 		res.MaxDeg = math.Max(res.MaxDeg, p)
 		// The frequency reported is where the larger of the two deviations,
@@ -171,7 +199,7 @@ func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg flo
 			best, res.AtHz = s, f
 		}
 	}
-	return res, nil
+	return res
 }
 
 // floorOf is the level floorDB below the larger response's peak.

@@ -99,81 +99,102 @@ func sortedKeys[V any](m map[string]V) []string {
 }
 
 func (ld *patLoader) pattern(raw map[string]any) {
-	p := ld.p
-	p.Circuit = "reduced"
+	ld.p.Circuit = "reduced"
 	for _, k := range sortedKeys(raw) {
-		v := raw[k]
-		switch k {
-		case "id":
-			p.ID = ld.str(k, v)
-			p.Pos = ld.at.Key(k)
-		case "title":
-			p.Title = ld.str(k, v)
-		case "titles":
-			m, ok := v.(map[string]any)
-			if !ok {
-				ld.fail(k, "titles must be a table such as { valve = \"Grounded-grid amplifier\" }")
-				continue
-			}
-			p.Titles = map[string]string{}
-			for _, f := range sortedKeys(m) {
-				ld.oneOf(k+"."+f, f, []string{"valve", "bjt", "fet", "passive"})
-				p.Titles[f] = ld.str(k+"."+f, m[f])
-			}
-		case "group":
-			p.Group = ld.oneOf(k, v, groups)
-		case "circuit":
-			p.Circuit = ld.oneOf(k, v, []string{"reduced", "full"})
-		case "rank":
-			n, ok := v.(int64)
-			if !ok {
-				ld.fail(k, "rank must be a whole number")
-			}
-			p.Rank = int(n)
-		case "inner":
-			b, ok := v.(bool)
-			if !ok {
-				ld.fail(k, "inner must be true or false")
-			}
-			p.Inner = b
-		case "families":
-			for i, f := range ld.strs(k, v) {
-				p.Families = append(p.Families, ld.oneOf(fmt.Sprintf("%s[%d]", k, i), f, []string{"valve", "bjt", "fet", "passive"}))
-			}
-		case "context":
-			p.Context = ld.oneOf(k, v, []string{"fm"})
-		case "note":
-			ld.str(k, v)
-		case "nets":
-			m, ok := v.(map[string]any)
-			if !ok {
-				ld.fail(k, "[nets] must be a table")
-				continue
-			}
-			for _, name := range sortedKeys(m) {
-				ld.net("nets."+name, name, m[name])
-			}
-		case "parts":
-			m, ok := v.(map[string]any)
-			if !ok {
-				ld.fail(k, "[parts] must be a table")
-				continue
-			}
-			for _, name := range sortedKeys(m) {
-				ld.part("parts."+name, name, m[name])
-			}
-		case "figure":
-			for i, t := range tables(v) {
-				ld.figure(fmt.Sprintf("figure[%d]", i), t)
-			}
-		case "guard":
-			for i, t := range tables(v) {
-				ld.guard(fmt.Sprintf("guard[%d]", i), t)
-			}
-		default:
-			ld.unknown(k, k, patternKeys)
+		ld.topKey(k, raw[k])
+	}
+	ld.required()
+	ld.crossCheck()
+	if len(ld.errs) == 0 {
+		if err := ld.p.compile(); err != nil {
+			ld.errs.Add(ld.p.Pos, "%v", err)
 		}
 	}
+}
+
+// topKey reads one top-level key of a pattern file.
+func (ld *patLoader) topKey(k string, v any) {
+	p := ld.p
+	switch k {
+	case "id":
+		p.ID = ld.str(k, v)
+		p.Pos = ld.at.Key(k)
+	case "title":
+		p.Title = ld.str(k, v)
+	case "titles":
+		ld.titles(k, v)
+	case "group":
+		p.Group = ld.oneOf(k, v, groups)
+	case "circuit":
+		p.Circuit = ld.oneOf(k, v, []string{"reduced", "full"})
+	case "rank":
+		n, ok := v.(int64)
+		if !ok {
+			ld.fail(k, "rank must be a whole number")
+		}
+		p.Rank = int(n)
+	case "inner":
+		b, ok := v.(bool)
+		if !ok {
+			ld.fail(k, "inner must be true or false")
+		}
+		p.Inner = b
+	case "families":
+		for i, f := range ld.strs(k, v) {
+			p.Families = append(p.Families, ld.oneOf(fmt.Sprintf("%s[%d]", k, i), f, []string{"valve", "bjt", "fet", "passive"}))
+		}
+	case "context":
+		p.Context = ld.oneOf(k, v, []string{"fm"})
+	case "note":
+		ld.str(k, v)
+	case "nets", "parts":
+		ld.namedTables(k, v)
+	case "figure":
+		for i, t := range tables(v) {
+			ld.figure(fmt.Sprintf("figure[%d]", i), t)
+		}
+	case "guard":
+		for i, t := range tables(v) {
+			ld.guard(fmt.Sprintf("guard[%d]", i), t)
+		}
+	default:
+		ld.unknown(k, k, patternKeys)
+	}
+}
+
+// titles reads the per-family titles, { valve = "Grounded-grid amplifier" }.
+func (ld *patLoader) titles(k string, v any) {
+	m, ok := v.(map[string]any)
+	if !ok {
+		ld.fail(k, "titles must be a table such as { valve = \"Grounded-grid amplifier\" }")
+		return
+	}
+	ld.p.Titles = map[string]string{}
+	for _, f := range sortedKeys(m) {
+		ld.oneOf(k+"."+f, f, []string{"valve", "bjt", "fet", "passive"})
+		ld.p.Titles[f] = ld.str(k+"."+f, m[f])
+	}
+}
+
+// namedTables reads [nets] or [parts]: one table per name, in name order.
+func (ld *patLoader) namedTables(k string, v any) {
+	m, ok := v.(map[string]any)
+	if !ok {
+		ld.fail(k, "[%s] must be a table", k)
+		return
+	}
+	for _, name := range sortedKeys(m) {
+		if k == "nets" {
+			ld.net(k+"."+name, name, m[name])
+		} else {
+			ld.part(k+"."+name, name, m[name])
+		}
+	}
+}
+
+// required reports the keys every pattern must have, at the file's start.
+func (ld *patLoader) required() {
+	p := ld.p
 	top := graph.Pos{File: ld.file, Line: 1, Col: 1}
 	if p.ID == "" {
 		ld.errs.Add(top, "pattern has no id")
@@ -186,12 +207,6 @@ func (ld *patLoader) pattern(raw map[string]any) {
 	}
 	if len(p.Parts) == 0 {
 		ld.errs.Add(top, "pattern %s has no [parts]", p.ID)
-	}
-	ld.crossCheck()
-	if len(ld.errs) == 0 {
-		if err := p.compile(); err != nil {
-			ld.errs.Add(p.Pos, "%v", err)
-		}
 	}
 }
 
