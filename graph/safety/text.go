@@ -7,8 +7,8 @@ import (
 	"pare/graph"
 )
 
-// The caution texts, in our own words (common practice; the project's
-// reference values §9). Every one defers to local codes and licensed
+// The caution texts, in our own words (common practice;
+// docs/references.md §9). Every one defers to local codes and licensed
 // practice, and every one that goes with reduced or modelled output says
 // the output is small-signal only.
 
