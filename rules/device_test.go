@@ -134,7 +134,7 @@ func compareDevice(t *testing.T, path string, p *graph.Part, stamped map[string]
 // The impedance into a cathode that the bypass judgement counts is
 // graph/device's one formula, (ra + RL)/(µ + 1), with RL the lower bound of
 // the anode's load; values derived from that formula for µ 20, ra 10 kΩ
-// (reference-values.md §5 gives ra/(µ+1) = 476.190 Ω), in parallel with
+// (docs/references.md §5 gives ra/(µ+1) = 476.190 Ω), in parallel with
 // the 1.5 kΩ cathode resistor.
 func TestCathodeBranchCountsLoad(t *testing.T) {
 	cases := []struct {

@@ -10,7 +10,7 @@ const (
 )
 
 // VT is the thermal voltage kT/q at 300 K, 25.8520 mV (SI 2019 exact
-// constants; reference-values.md §5).
+// constants; docs/references.md §5).
 const VT = boltzmann * RoomKelvin / charge
 
 // Default is one documented default of a small-signal model: used when a

@@ -17,7 +17,7 @@ func part(kind graph.Kind, typ string, params map[string]float64) *graph.Part {
 }
 
 func TestThermalVoltage(t *testing.T) {
-	// reference-values.md §5: VT at 300 K = 25.8520 mV (SI 2019 exact constants).
+	// docs/references.md §5: VT at 300 K = 25.8520 mV (SI 2019 exact constants).
 	if !near(VT, 25.8520e-3, 2e-6) {
 		t.Errorf("VT = %.6g V, want 25.8520 mV", VT)
 	}
@@ -38,7 +38,7 @@ func TestOf(t *testing.T) {
 		{"triode mu and ra", part(graph.Valve, "triode", map[string]float64{"mu": 20, "ra": 10e3}), 2e-3, 10e3, 20, math.Inf(1), 0,
 			"gm = µ/ra"},
 		{"triode gm and mu", part(graph.Valve, "triode", map[string]float64{"gm": 1.6e-3, "mu": 100}), 1.6e-3, 62.5e3, 100, math.Inf(1), 0,
-			"ra = µ/gm = 62.5 kΩ (reference-values.md §10)"},
+			"ra = µ/gm = 62.5 kΩ (docs/references.md §10)"},
 		{"triode all three", part(graph.Valve, "triode", map[string]float64{"gm": 1.6e-3, "mu": 100, "ra": 62.5e3}), 1.6e-3, 62.5e3, 100, math.Inf(1), 0,
 			"consistent within 2 %"},
 		{"triode gm only", part(graph.Valve, "triode", map[string]float64{"gm": 1e-3}), 1e-3, 20e3, 20, math.Inf(1), ROut | Mu,
@@ -50,7 +50,7 @@ func TestOf(t *testing.T) {
 		{"heptode mu only", part(graph.Valve, "heptode", map[string]float64{"mu": 100}), 100 / 1e6, 1e6, 100, math.Inf(1), Gm | ROut,
 			"multigrid default ra 1 MΩ, gm = µ/ra"},
 		{"bjt beta and ic", part(graph.BJT, "npn", map[string]float64{"beta": 100, "ic": 1e-3}), 38.6817e-3, 100e3, 38.6817e-3 * 100e3, 2585.20, ROut | Mu,
-			"reference-values.md §5: gm = Ic/VT 38.6817 mS, rπ = β/gm 2585.20 Ω; ro = VA/Ic with the default VA 100 V"},
+			"docs/references.md §5: gm = Ic/VT 38.6817 mS, rπ = β/gm 2585.20 Ω; ro = VA/Ic with the default VA 100 V"},
 		{"bjt nothing", part(graph.BJT, "pnp", nil), 38.6817e-3, 100e3, 38.6817e-3 * 100e3, 2585.20, Beta | Ic | Gm | ROut | Mu | RPi,
 			"defaults β 100, Ic 1 mA, VA 100 V (from memory)"},
 		{"bjt given gm rpi ro", part(graph.BJT, "npn", map[string]float64{"gm": 0.02, "rpi": 4e3, "ro": 50e3}), 0.02, 50e3, 1000, 4e3, Beta | Ic,
@@ -108,19 +108,19 @@ func TestTerminalImpedances(t *testing.T) {
 		why       string
 	}{
 		{"triode cathode, anode at AC ground", triode.ZCommon(0), 476.190,
-			"reference-values.md §5: ra/(µ+1) = 476.190 Ω for µ 20, ra 10 kΩ (derived)"},
+			"docs/references.md §5: ra/(µ+1) = 476.190 Ω for µ 20, ra 10 kΩ (derived)"},
 		{"triode cathode, RL 47 kΩ", triode.ZCommon(47e3), 2714.286,
 			"(ra+RL)/(µ+1) = 57 kΩ/21, textbook (from memory), derived"},
 		{"triode anode, Rk 1 kΩ", triode.ZOutput(1e3), 31e3,
-			"ra + (µ+1)Rk = 10 k + 21 k: the denominator of reference-values.md §5's −µRL/(ra+RL+(µ+1)Rk) less RL"},
+			"ra + (µ+1)Rk = 10 k + 21 k: the denominator of docs/references.md §5's −µRL/(ra+RL+(µ+1)Rk) less RL"},
 		{"triode anode, cathode at AC ground", triode.ZOutput(0), 10e3, "ra"},
 		{"triode grid", triode.ZControl(1e3), math.Inf(1), "a grid draws no current"},
 		{"BJT emitter", bjt.ZCommon(0), 25.5960,
 			"re = α/gm = 25.8520 Ω·100/101 (hybrid-π, from memory; derived)"},
 		{"BJT base, RE 100 Ω", bjt.ZControl(100), 12685.2,
-			"rπ + (β+1)RE = 2585.20 + 10100: the denominator of reference-values.md §5's −βRC/(rπ+(β+1)RE)"},
+			"rπ + (β+1)RE = 2585.20 + 10100: the denominator of docs/references.md §5's −βRC/(rπ+(β+1)RE)"},
 		{"BJT collector, emitter at AC ground", bjt.ZOutput(0), 1e15, "ro"},
-		{"FET source", fet.ZCommon(0), 200, "1/gm for gm 5 mS (reference-values.md §5 source follower, rd large)"},
+		{"FET source", fet.ZCommon(0), 200, "1/gm for gm 5 mS (docs/references.md §5 source follower, rd large)"},
 		{"FET gate", fet.ZControl(0), math.Inf(1), "a gate draws no current"},
 		{"pentode screen", mustOf(t, part(graph.Valve, "pentode", map[string]float64{"gm": 2e-3})).ZFurtherGrid(), 2e3,
 			"4/gm with the rough screen default (from memory)"},
@@ -164,7 +164,7 @@ func TestDiodeRd(t *testing.T) {
 		assumed bool
 		why     string
 	}{
-		{part(graph.Diode, "signal", nil), 25.8520, true, "VT/1 mA (Shockley, ideality 1; reference-values.md §5 VT)"},
+		{part(graph.Diode, "signal", nil), 25.8520, true, "VT/1 mA (Shockley, ideality 1; docs/references.md §5 VT)"},
 		{part(graph.Diode, "signal", map[string]float64{"rd": 100}), 100, false, "given"},
 		{part(graph.Diode, "signal", map[string]float64{"off": 1, "rd": 100}), 0, false, "off = 1 opens it"},
 		{part(graph.Diode, "varicap", nil), 0, true, "a varicap is reverse biased"},

@@ -19,10 +19,11 @@ import (
 
 // The device model against ngspice's own nonlinear devices: a Gummel–Poon
 // transistor, a JFET, a junction diode, and a triode written as a
-// behavioural source with the three-halves-power law (reference-values.md
-// §10). ngspice linearises each at its operating point; the impedance it
-// computes into an electrode must equal this package's formula fed with the
-// small-signal values of that operating point, and this package's laws
+// behavioural source with the three-halves-power law
+// (docs/references.md §10). ngspice linearises each at its operating point;
+// the impedance it computes into an electrode must equal this package's
+// formula fed with the small-signal values of that operating point, and this
+// package's laws
 // (gm = Ic/VT, rπ = β/gm, ro = VA/Ic, rd = VT/Id, ra = µ/gm) must give those
 // values. ngspice runs at 26.85 °C, the 300 K of VT.
 
@@ -61,7 +62,7 @@ func spiceZ(t *testing.T, circuit, node string, vecs []opVec) (map[string]float6
 	if err := cmd.Run(); err != nil {
 		t.Fatalf("ngspice: %v\n%s", err, stderr.String())
 	}
-	// ngspice exits 0 on errors inside .control (reference-tools.md).
+	// ngspice exits 0 on errors inside .control (docs/references.md §15).
 	for _, l := range strings.Split(stderr.String(), "\n") {
 		if strings.Contains(l, "Error") || strings.Contains(l, "singular") {
 			t.Fatalf("ngspice reported: %s\ndeck:\n%s", l, b.String())
@@ -118,7 +119,7 @@ func checkNear(t *testing.T, what string, got, want, rel float64, why string) {
 // (12 printed digits) separates them.
 const spiceExact = 1e-6
 
-// The three-halves-power triode of reference-values.md §10: µ 100, gm
+// The three-halves-power triode of docs/references.md §10: µ 100, gm
 // 1.6 mA/V at 1.2 mA, K = 1.005663e-3 A/V^1.5.
 const triodeLaw = "B1 a k I = 1.005663e-3*pow(max(v(g,k)+v(a,k)/100,0),1.5)"
 
@@ -137,7 +138,7 @@ func TestTriodeAgainstNgspice(t *testing.T) {
 	// cathode, fed only by current sources, would float.
 	op, z := spiceZ(t, "VHT ht 0 DC 250\nRL ht a 100k\nVG g 0 DC 0\nIK k 0 DC 1.2m\n"+triodeLaw+"\n.nodeset v(k)=0.17 v(a)=130", "k", triodeVecs)
 	gm := triodeGm(op)
-	checkNear(t, "gm at 1.2 mA", gm, 1.6e-3, 1e-4, "reference-values.md §10: the law's stated operating point")
+	checkNear(t, "gm at 1.2 mA", gm, 1.6e-3, 1e-4, "docs/references.md §10: the law's stated operating point")
 	s := mustOf(t, part(graph.Valve, "triode", map[string]float64{"gm": gm, "mu": 100}))
 	checkNear(t, "cathode (ra+RL)/(µ+1)", s.ZCommon(100e3), real(z), spiceExact, "ra = µ/gm follows from the law")
 	// Anode: cathode resistor 1.5 kΩ, anode fed through 100 kΩ; the

@@ -114,7 +114,7 @@ func valve(p *graph.Part) (Small, error) {
 
 // bjt resolves the hybrid-π model: gm = Ic/VT, rπ = β/gm, ro = VA/Ic
 // (Ebers–Moll in forward activity, linearised; any transistor text, from
-// memory; reference-values.md §5). gm, rpi or ro given win over the values
+// memory; docs/references.md §5). gm, rpi or ro given win over the values
 // derived from the bias current.
 func bjt(p *graph.Part) (Small, error) {
 	s := Small{Ref: p.Ref, Kind: p.Kind, Class: "bjt"}
