@@ -31,10 +31,10 @@ func TestFormat(t *testing.T) {
 		{0.0102062, Ratio, Text, "0.0102"},     // three significant digits
 		{1e-5, Ratio, Text, "1e-05"},           // below a thousandth: %g
 		{35.78, Decibel, Text, "35.8 dB"},      // tenths of a decibel, common practice
-		{364.241e-12, Farad, Text, "364.2 pF"}, // reference-values §2 three-point padder, four digits
+		{364.241e-12, Farad, Text, "364.2 pF"}, // docs/references.md §2 three-point padder, four digits
 		{364.241e-12, Farad, Sheet, "364 pF"},  // the same on a sheet
 		{4.7e-3, Farad, Text, "4700 µF"},       // capacitances skip milli (graph/value, common practice)
-		{135.265e-6, Henry, Text, "135.3 µH"},  // reference-values §2 three-point L2
+		{135.265e-6, Henry, Text, "135.3 µH"},  // docs/references.md §2 three-point L2
 		{776.2, Ohm, Text, "776 Ω"},            // three digits for resistance
 		{1234.5, Unit(99), Text, "1234"},       // an unknown unit falls back to a plain number
 	} {

@@ -12,7 +12,7 @@ import (
 )
 
 // The formulas behind the gain figures, by the names a figure's origin
-// gives them (reference-values §5; from memory where calcGain says so).
+// gives them (docs/references.md §5; from memory where calcGain says so).
 var (
 	byDecibels  = figure.ByFormula("20·log10|A|")
 	byROut      = figure.ByFormula("Rout = ra/(µ+1) ∥ Rk (1/gm ∥ RS)")
@@ -84,7 +84,7 @@ func parallel(a, b float64) float64 {
 }
 
 // calcGain computes the mid-band voltage gain by the textbook formula for
-// the stage's form (reference-values §5):
+// the stage's form (docs/references.md §5):
 //
 //	common       valve −µRL/(ra+RL); BJT, FET −gm·(RL∥ro)
 //	degenerated  valve −µRL/(ra+RL+(µ+1)Rk); BJT −βRL/(rπ+(β+1)RE)

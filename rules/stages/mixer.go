@@ -8,7 +8,7 @@ import (
 )
 
 // The formulas of coupled tuned circuits and frequency changers, by the
-// names a figure's origin gives them (reference-values §2, §6).
+// names a figure's origin gives them (docs/references.md §2, §6).
 var (
 	byCoupling   = figure.FromNetlist("coupling k")
 	byWindingQ   = figure.FromNetlist("winding Q")
@@ -23,7 +23,7 @@ var (
 // calcDoubleTuned: both resonances of a coupled pair of tuned windings; with
 // the coupling k and the windings' Q the critical coupling kc = 1/√(Q1Q2)
 // and the bandwidth at critical coupling √2·f0/Q, with Q = √(Q1Q2)
-// (reference-values §6; exact for equal Q).
+// (docs/references.md §6; exact for equal Q).
 func calcDoubleTuned(x *figCtx) {
 	i := x.index(x.spec.Args["xfmr"][0])
 	if i < 0 {
@@ -124,7 +124,7 @@ func (x *figCtx) checkIF(ref string, f float64) {
 // transformer's tuning), the signal range it converts with high-side
 // injection (oscillator − IF) and the image (signal + 2·IF); with ganged
 // tuning, the tracking error across the dial and the three-point padder
-// (reference-values §2).
+// (docs/references.md §2).
 func calcMixer(x *figCtx) {
 	oc, ok := x.coil("coil")
 	if !ok {

@@ -10,7 +10,7 @@ import (
 )
 
 // The formulas of RC networks and filters, by the names a figure's origin
-// gives them (reference-values §4; handbook formulas, from memory where
+// gives them (docs/references.md §4; handbook formulas, from memory where
 // the calc says so).
 var (
 	byTau        = figure.ByFormula("τ = RC")
@@ -24,7 +24,7 @@ var (
 	byLoadR      = figure.BySolver("DC resistance to AC ground, nodal analysis", "")
 )
 
-// calcRC: τ = RC and the corner fc = 1/(2πRC) (reference-values §4). use =
+// calcRC: τ = RC and the corner fc = 1/(2πRC) (docs/references.md §4). use =
 // "agc" or "detector" adds the checks a repairer makes on those.
 func calcRC(x *figCtx) {
 	r := parallelR(x.parts("r"))
@@ -202,7 +202,7 @@ func (x *figCtx) feeds(net string) float64 {
 // calcCoupling: a series capacitor and the resistance it feeds, the
 // resistive network from its far side to AC ground (the next grid leak or
 // input resistance), make a high-pass: τ = RC, fc = 1/(2πRC)
-// (reference-values §4). The far side is the one downstream in signal
+// (docs/references.md §4). The far side is the one downstream in signal
 // order; a capacitor into a tank or port alone has no corner.
 func calcCoupling(x *figCtx) {
 	p := x.part("c")

@@ -8,7 +8,7 @@ import (
 )
 
 // The formulas of tuned circuits and oscillator tanks, by the names a
-// figure's origin gives them (reference-values §1, §3; handbook formulas).
+// figure's origin gives them (docs/references.md §1, §3; handbook formulas).
 var (
 	byResonance  = figure.ByFormula("f = 1/(2π√(LC))")
 	byTankC      = figure.BySolver("capacitance across the coil, nodal analysis", "")
@@ -24,7 +24,7 @@ var (
 	byCoilL      = figure.FromNetlist("coil inductance end to end (L1 + L2 + 2M for a tapped coil)")
 )
 
-// resonance is f = 1/(2π√(LC)) (reference-values §1, handbook formula).
+// resonance is f = 1/(2π√(LC)) (docs/references.md §1, handbook formula).
 func resonance(l, c float64) float64 {
 	if l <= 0 || c <= 0 {
 		return math.NaN()
@@ -71,7 +71,7 @@ func calcTank(x *figCtx) {
 }
 
 // calcHartley: the tank inductance of a Hartley coil is L1 + L2 + 2M with
-// M = k√(L1L2), windings aiding (reference-values §3).
+// M = k√(L1L2), windings aiding (docs/references.md §3).
 func calcHartley(x *figCtx) {
 	p := x.part("coil")
 	c, ok := x.coil("coil")
@@ -99,7 +99,7 @@ func calcHartley(x *figCtx) {
 
 // calcColpitts: Ceff = C1C2/(C1+C2); feedback fraction β = C1/C2 with C1
 // across the output and C2 across the input, so the loop needs |A| ≥ C2/C1
-// (reference-values §3).
+// (docs/references.md §3).
 func calcColpitts(x *figCtx) {
 	coil, ok := x.coil("coil")
 	l := coil.l
@@ -115,7 +115,7 @@ func calcColpitts(x *figCtx) {
 	x.set("f", figure.Hertz, resonance(l, ceff), byResonance)
 }
 
-// calcClapp: 1/Ceff = 1/C1 + 1/C2 + 1/C3 (reference-values §3).
+// calcClapp: 1/Ceff = 1/C1 + 1/C2 + 1/C3 (docs/references.md §3).
 func calcClapp(x *figCtx) {
 	coil, ok := x.coil("coil")
 	l := coil.l

@@ -11,7 +11,7 @@ import (
 )
 
 // The tracking figures of a ganged frequency changer, by the names a
-// figure's origin gives them (reference-values §2; numerical solutions).
+// figure's origin gives them (docs/references.md §2; numerical solutions).
 var (
 	byTrackError = figure.ByFormula("fosc − (fsig + IF), worst over the dial")
 	byTrackAt    = figure.ByFormula("fsig where the tracking error is worst")
@@ -147,7 +147,7 @@ func fittedTracking(sig, osc func(th float64) float64, ifHz float64) []float64 {
 // TrackingPoints are the three dial frequencies where a padded oscillator is
 // made to track exactly: at 6 %, 49 % and 91.5 % of the signal range, which
 // gives the customary 600, 1100 and 1600 kHz on a 530–1700 kHz band
-// (reference-values §2; the fractions are ours).
+// (docs/references.md §2; the fractions are ours).
 func TrackingPoints(fmin, fmax float64) [3]float64 {
 	span := fmax - fmin
 	return [3]float64{fmin + 0.06*span, fmin + 0.49*span, fmin + 0.915*span}
