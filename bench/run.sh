@@ -1,0 +1,87 @@
+#!/usr/bin/env bash
+# Whole-process timing of pare's phases on synthetic receiver banks
+# (internal/synth), and of `pare sweep` against ngspice on an RC ladder.
+#
+#   bash bench/run.sh [SIZES] [PHASES]
+#   SIZES  parts per bank, comma-separated (default 100,1000,10000)
+#   PHASES of load,reduce,verify,stages,draw,main (default all)
+#   PARE_BENCH_TIMEOUT  seconds before a run is given up (default 600)
+#   PARE_BENCH_LADDER   RC ladder sections for the sweep pairing (default 10000; 0 skips)
+#
+# For each size and phase it prints the wall time, the time per part, the
+# peak resident memory, the time as a multiple of the load of the same file
+# (`pare check`), and the growth exponent log(t2/t1)/log(n2/n1) against the
+# size before. Each phase is a whole `pare` process, so every figure
+# includes loading the file. The machine is shared: run it when it is quiet,
+# or read the ratios rather than the seconds.
+set -u
+sizes=${1:-100,1000,10000}
+phases=${2:-load,reduce,verify,stages,draw,main}
+limit=${PARE_BENCH_TIMEOUT:-600}
+ladder=${PARE_BENCH_LADDER:-10000}
+root=$(cd "$(dirname "$0")/.." && pwd)
+work=$(mktemp -d)
+trap 'rm -rf "$work"' EXIT
+(cd "$root" && go build -o "$work/pare" ./cmd/pare && go build -o "$work/gen" ./bench/gen) || exit 2
+
+# run NAME FILE ARGS...: prints "seconds peakKB" or "timeout".
+run() {
+	local out=$work/time.txt
+	if ! /usr/bin/time -f '%e %M' -o "$out" timeout "$limit" "$work/pare" "$@" >/dev/null 2>"$work/err.txt"; then
+		if grep -q 'Command exited with non-zero status 124' "$out" 2>/dev/null; then
+			echo timeout
+			return
+		fi
+	fi
+	tail -n 1 "$out"
+}
+
+args_of() { # phase file
+	case $1 in
+	load) echo "check $2" ;;
+	reduce) echo "reduce $2 -o $work/r.toml" ;;
+	verify) echo "verify $2" ;;
+	stages) echo "stages $2" ;;
+	draw) echo "draw $2 -o $work/d.svg" ;;
+	main) echo "$2 -o $work/out" ;;
+	esac
+}
+
+echo "# $(uname -m), $(nproc) cores, $(grep -m1 'model name' /proc/cpuinfo | cut -d: -f2 | sed 's/^ //'), load $(cut -d' ' -f1-3 /proc/loadavg)"
+printf '%-7s %-7s %10s %12s %9s %9s %7s\n' phase parts seconds "µs/part" peakMB "×load" growth
+declare -A prev_t prev_n
+for n in ${sizes//,/ }; do
+	f=$work/bank$n.toml
+	"$work/gen" -parts "$n" -seed 1 >"$f"
+	parts=$(grep -c '^[A-Z][A-Za-z0-9]* = {' "$f")
+	load=""
+	for ph in ${phases//,/ }; do
+		# shellcheck disable=SC2046
+		r=$(run $(args_of "$ph" "$f"))
+		if [ "$r" = timeout ]; then
+			printf '%-7s %-7s %10s\n' "$ph" "$parts" ">$limit"
+			continue
+		fi
+		t=${r% *}
+		kb=${r#* }
+		[ "$ph" = load ] && load=$t
+		awk -v ph="$ph" -v n="$parts" -v t="$t" -v kb="$kb" -v load="$load" -v pt="${prev_t[$ph]:-}" -v pn="${prev_n[$ph]:-}" 'BEGIN {
+			ratio = (load > 0) ? sprintf("%.1f", t / load) : "-"
+			g = (pt > 0 && t > 0 && pn > 0 && n != pn) ? sprintf("%.2f", log(t / pt) / log(n / pn)) : "-"
+			printf "%-7s %-7d %10.2f %12.1f %9.1f %9s %7s\n", ph, n, t, 1e6 * t / n, kb / 1024, ratio, g
+		}'
+		prev_t[$ph]=$t
+		prev_n[$ph]=$parts
+	done
+done
+
+if [ "$ladder" -gt 0 ] && command -v ngspice >/dev/null; then
+	"$work/gen" -ladder "$ladder" >"$work/ladder.toml"
+	"$work/pare" spice "$work/ladder.toml" -o "$work/ladder.cir" >/dev/null
+	echo "# RC ladder, $ladder sections: whole processes, paired (pare sweep 101 points; ngspice -b on pare's own deck)"
+	for i in 1 2 3; do
+		p=$(/usr/bin/time -f '%e %M' "$work/pare" sweep "$work/ladder.toml" 2>&1 >/dev/null | tail -n 1)
+		s=$(cd "$work" && /usr/bin/time -f '%e %M' ngspice -b ladder.cir 2>&1 >/dev/null | tail -n 1)
+		echo "run $i: pare ${p% *} s (${p#* } KB), ngspice ${s% *} s (${s#* } KB)"
+	done
+fi
