@@ -74,6 +74,9 @@ type Options struct {
 	Focus       []string
 	BypassRatio float64 // 0: rules.DefaultRatio
 	StepCheck   StepCheck
+	// wholeSteps proves each step on the whole circuit instead of the
+	// groups it touched (local.go); tests set it to show both agree.
+	wholeSteps bool
 
 	// Verify runs the final comparison in PhaseVerify; Compare sets its
 	// tolerances, sweep density and device settings, and those of the
@@ -184,7 +187,7 @@ func (r *Result) check(Options) error {
 func (r *Result) reduce(o Options) error {
 	ro := rules.Options{Level: o.Level, Focus: o.Focus, BypassRatio: o.BypassRatio}
 	if o.StepCheck != NoStepCheck {
-		ro.Check = r.stepChecker(o.StepCheck)
+		ro.Check = r.stepChecker(o.StepCheck, o.wholeSteps)
 	}
 	// Reduce promises not to touch its input; the clone keeps the original
 	// pristine for the comparison and the faded sheet even if it slipped.

@@ -21,11 +21,19 @@ type Step struct {
 // stepChecker is the engine's Check hook for the chosen mode. A step that
 // cannot be compared or that breaks the tolerance is refused; the engine
 // logs why.
-func (r *Result) stepChecker(mode StepCheck) func(before, after *graph.Circuit, st *rules.Step) error {
+func (r *Result) stepChecker(mode StepCheck, whole bool) func(before, after *graph.Circuit, st *rules.Step) error {
 	return func(before, after *graph.Circuit, st *rules.Step) error {
 		ref := before
 		if mode == AgainstOriginal {
 			ref = r.Circuit
+		} else if !whole {
+			// Against the previous circuit only the groups of parts the
+			// step touched can differ (local.go): compare those.
+			b, a, _, none := localPair(before, after)
+			if none {
+				return nil
+			}
+			ref, after = b, a
 		}
 		rep, err := r.compare(ref, after)
 		if err != nil {
