@@ -103,8 +103,8 @@ func run(args []string, stdout, stderr io.Writer) int {
 	name, rest := args[0], args[1:]
 	c, ok := commands[name]
 	if !ok {
-		if strings.HasSuffix(name, ".toml") || fileExists(name) {
-			// `pare FILE`: the main job.
+		if strings.HasSuffix(name, ".toml") || fileExists(name) || isDir(name) {
+			// `pare FILE_OR_DIR...`: the main job.
 			c, rest = commands[mainJob], args
 		} else {
 			fmt.Fprintf(stderr, "pare: unknown command %q%s\n", name, suggestCommand(name))
@@ -219,6 +219,11 @@ func suggestCommand(name string) string {
 		return fmt.Sprintf(" (did you mean %q?)", s)
 	}
 	return ""
+}
+
+func isDir(p string) bool {
+	st, err := os.Stat(p)
+	return err == nil && st.IsDir()
 }
 
 func fileExists(p string) bool {

@@ -31,7 +31,7 @@ type runOpts struct {
 func init() {
 	register(&command{
 		name:    mainJob,
-		args:    "[-o DIR] [--level L] [--symbols iec|ieee] [--tol-db X] [--tol-deg X] [--no-verify] FILE",
+		args:    "[-o DIR] [--level L] [--symbols iec|ieee] [--tol-db X] [--tol-deg X] [--no-verify] FILE_OR_DIR...",
 		summary: "the whole job: reduce, verify, recognise stages, draw the sheets, write the repair note",
 		detail: `Loads FILE and prints its transcription warnings, reduces it to its small-signal
 path (every step checked by AC analysis; a step that changes the signal is
@@ -41,7 +41,15 @@ recognises the stages, and writes into DIR (default: FILE without .toml, plus
 embeds the sheets. Everything is made in memory first; on bad input nothing is
 written. Exit 0 when the reduction was verified, 1 when the verification
 failed (the files are still written, and the note says so), 2 on bad input.
-'pare FILE' is the same as 'pare run FILE'.`,
+'pare FILE' is the same as 'pare run FILE'.
+
+Given several files, or a folder (every .toml under it), it runs the job on
+each set, as many at a time as there are cores, each into its own pack
+(SET.pare beside the file, or DIR/SET.pare with -o), and writes an index of
+all packs, index.md and index.html, into DIR (or the folder the inputs have
+in common). A set that fails never stops the others; the exit status is the
+worst of all sets. The printed reports come in the order of the inputs,
+whatever order the sets finish in; on a terminal a progress line counts them.`,
 		bind: typed(func(fs *flag.FlagSet, o *runOpts) {
 			fs.StringVar(&o.out, "o", "", "write the results into this directory")
 			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
@@ -82,11 +90,13 @@ type jobResult struct {
 	files   []outFile
 	verify  note.Verify
 	summary []string // lines for stdout
+	// before and after count the parts and nets, for the batch index
+	before, after note.PartCount
 }
 
 func runMain(e *env, o *runOpts, args []string) int {
-	if len(args) != 1 {
-		fmt.Fprintf(e.stderr, "pare %s: give exactly one netlist file\n", mainJob)
+	if len(args) == 0 {
+		fmt.Fprintf(e.stderr, "pare %s: give exactly one netlist file, or several files and folders\n", mainJob)
 		return exitBad
 	}
 	cfg, err := configure(o)
@@ -94,19 +104,44 @@ func runMain(e *env, o *runOpts, args []string) int {
 		fmt.Fprintf(e.stderr, "pare %s: %v\n", mainJob, err)
 		return exitBad
 	}
+	if len(args) > 1 || isDir(args[0]) {
+		return runBatch(e, o.out, cfg, args)
+	}
 	path := args[0]
 	dir := o.out
 	if dir == "" {
 		dir = defaultOutDir(path)
 	}
+	code, _ := oneJob(e, path, dir, cfg)
+	return code
+}
+
+// pack is what the batch index says about one set.
+type pack struct {
+	path, dir string
+	title     string
+	before    note.PartCount
+	after     note.PartCount
+	stages    int
+	verdict   string // the verification summary line
+	code      int
+}
+
+// oneJob runs the main job on one netlist into dir, printing as the main
+// job always has, and returns its exit code and what the index needs.
+func oneJob(e *env, path, dir string, cfg jobConfig) (int, pack) {
+	pk := pack{path: path, dir: dir, title: filepath.Base(path)}
 	if err := checkOutDir(path, dir); err != nil {
 		fmt.Fprintf(e.stderr, "pare %s: %v\n", mainJob, err)
-		return exitBad
+		pk.code = exitBad
+		return exitBad, pk
 	}
 	pr, err := pipeline.Run(jobOptions(path, cfg))
 	if loadFailed(e, path, err) {
-		return exitBad
+		pk.code = exitBad
+		return exitBad, pk
 	}
+	pk.title = pr.Title
 	for _, w := range pr.Warnings {
 		fmt.Fprintf(e.stderr, "%s: warning: %s\n", w.Pos, w.Msg)
 	}
@@ -116,21 +151,29 @@ func runMain(e *env, o *runOpts, args []string) int {
 	}
 	if err != nil {
 		printErrors(e, "pare "+mainJob, path, jobError(err))
-		return exitBad
+		pk.code = exitBad
+		return exitBad, pk
 	}
 	names, err := writeResults(dir, res.files)
 	if err != nil {
 		fmt.Fprintf(e.stderr, "pare %s: %v\n", mainJob, err)
-		return exitBad
+		pk.code = exitBad
+		return exitBad, pk
 	}
 	for _, l := range res.summary {
 		fmt.Fprintln(e.stdout, l)
 	}
 	fmt.Fprintf(e.stdout, "wrote %s: %s\n", filepath.Clean(dir)+string(filepath.Separator), strings.Join(names, ", "))
-	if res.verify.Failed() {
-		return exitFound
+	pk.before, pk.after, pk.stages = res.before, res.after, len(pr.Stages)
+	pk.verdict = res.summary[len(res.summary)-1]
+	if pr.StagesLimit != "" {
+		pk.verdict = res.summary[len(res.summary)-2]
 	}
-	return exitOK
+	if res.verify.Failed() {
+		pk.code = exitFound
+		return exitFound, pk
+	}
+	return exitOK, pk
 }
 
 // jobOptions is the whole pipeline as the main job runs it: every step
@@ -270,6 +313,7 @@ func mainJobOn(pr *pipeline.Result, cfg jobConfig) (*jobResult, error) {
 		},
 	}
 	res.summary = summaryLines(pr.Path, n, pr.Log, pr.Stages, res.verify)
+	res.before, res.after = n.Before, n.After
 	if pr.StagesLimit != "" {
 		// The stages found so far are sound; the note says the list may be
 		// short rather than dropping what was found.

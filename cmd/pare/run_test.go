@@ -399,7 +399,6 @@ func TestMainJobUsage(t *testing.T) {
 		want string
 	}{
 		{"no file", []string{"run"}, "give exactly one netlist file"},
-		{"two files", []string{"run", ex, ex}, "give exactly one netlist file"},
 		{"bad level", []string{ex, "--level", "max"}, "--level"},
 		{"bad symbols", []string{ex, "--symbols", "din"}, "--symbols"},
 		{"negative tolerance", []string{ex, "--tol-db", "-1"}, "--tol-db"},
