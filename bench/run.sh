@@ -4,7 +4,9 @@
 #
 #   bash bench/run.sh [SIZES] [PHASES]
 #   SIZES  parts per bank, comma-separated (default 100,1000,10000)
-#   PHASES of load,reduce,verify,stages,draw,main (default all)
+#   PHASES of load,reduce,proof,verify,stages,draw,main (default all);
+#          proof is `reduce --check`: the main job's step proofs, without drawing
+#   PARE_BENCH_BIN      time this pare binary instead of building the worktree's
 #   PARE_BENCH_TIMEOUT  seconds before a run is given up (default 600)
 #   PARE_BENCH_LADDER   RC ladder sections for the sweep pairing (default 10000; 0 skips)
 #
@@ -16,13 +18,14 @@
 # or read the ratios rather than the seconds.
 set -u
 sizes=${1:-100,1000,10000}
-phases=${2:-load,reduce,verify,stages,draw,main}
+phases=${2:-load,reduce,proof,verify,stages,draw,main}
 limit=${PARE_BENCH_TIMEOUT:-600}
 ladder=${PARE_BENCH_LADDER:-10000}
 root=$(cd "$(dirname "$0")/.." && pwd)
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
 (cd "$root" && go build -o "$work/pare" ./cmd/pare && go build -o "$work/gen" ./bench/gen) || exit 2
+if [ -n "${PARE_BENCH_BIN:-}" ]; then cp "$PARE_BENCH_BIN" "$work/pare" || exit 2; fi
 
 # run NAME FILE ARGS...: prints "seconds peakKB" or "timeout".
 run() {
@@ -40,6 +43,7 @@ args_of() { # phase file
 	case $1 in
 	load) echo "check $2" ;;
 	reduce) echo "reduce $2 -o $work/r.toml" ;;
+	proof) echo "reduce $2 --check -o $work/r.toml" ;;
 	verify) echo "verify $2" ;;
 	stages) echo "stages $2" ;;
 	draw) echo "draw $2 -o $work/d.svg" ;;
