@@ -49,7 +49,6 @@ func unitOf(k Kind) value.Unit {
 // finding is a warning with the position of the part or net concerned.
 func Check(c *Circuit) ErrorList {
 	var w ErrorList
-	conns := c.Conns()
 	transistors := false
 	for _, p := range c.Parts {
 		if p.Kind == BJT || p.Kind == FET {
@@ -60,7 +59,7 @@ func Check(c *Circuit) ErrorList {
 		if n.Name == "nc" {
 			continue
 		}
-		cs := conns[n.Name]
+		cs := c.ConnsOf(n.Name)
 		switch {
 		case len(cs) == 0 && !isSignalEnd(c, n.Name):
 			w.Add(n.Pos, "net %s is declared but nothing connects to it", n.Name)
@@ -77,7 +76,7 @@ func Check(c *Circuit) ErrorList {
 		}
 		if p.IsActive() {
 			common := p.PinWithRole(RoleCommon)
-			if net := p.NetOf(common); net != "" && net != "nc" && len(conns[net]) == 1 && !c.RoleOf(net).IsACGround() {
+			if net := p.NetOf(common); net != "" && net != "nc" && len(c.ConnsOf(net)) == 1 && !c.RoleOf(net).IsACGround() {
 				w.Add(p.Pin(common).Pos, "%s's %s (%s) goes nowhere: net %s has no other connection", p.Ref, electrodeName(p, common), common, net)
 			}
 		}
@@ -114,7 +113,7 @@ func Check(c *Circuit) ErrorList {
 	w = append(w, checkEnds(c)...)
 	w = append(w, checkRefs(c)...)
 	w = append(w, checkGangs(c)...)
-	w = append(w, checkPorts(c, conns)...)
+	w = append(w, checkPorts(c)...)
 	w = append(w, checkEnvelopes(c)...)
 	w.Sort()
 	return w
@@ -255,13 +254,13 @@ func checkGangs(c *Circuit) ErrorList {
 	return w
 }
 
-func checkPorts(c *Circuit, conns map[string][]Conn) ErrorList {
+func checkPorts(c *Circuit) ErrorList {
 	var w ErrorList
 	for _, p := range c.Parts {
 		if p.Kind != Port || len(p.Pins) == 0 {
 			continue
 		}
-		if len(conns[p.Pins[0].Net]) < 2 && !c.RoleOf(p.Pins[0].Net).IsACGround() {
+		if len(c.ConnsOf(p.Pins[0].Net)) < 2 && !c.RoleOf(p.Pins[0].Net).IsACGround() {
 			w.Add(p.Pos, "port %s (%q) connects to net %s, which no other part uses", p.Ref, p.Label, p.Pins[0].Net)
 		}
 	}

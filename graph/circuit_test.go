@@ -184,18 +184,23 @@ func TestJoinNets(t *testing.T) {
 	}
 }
 
-func TestPruneNets(t *testing.T) {
+// TestRemovePartPrunes: a net a removal leaves empty goes with the part,
+// unless it is a declared end (common practice for netlists: an input or
+// output is named even while nothing is on it).
+func TestRemovePartPrunes(t *testing.T) {
 	c := parseOK(t, joinSrc)
-	if !c.RemovePart("R2") {
-		t.Fatal("RemovePart R2 reported it missing")
+	if dropped, ok := c.RemovePart("R2"); !ok || !reflect.DeepEqual(dropped, []string{"ht"}) {
+		t.Fatalf("RemovePart R2 = %v, %v; want [ht], true", dropped, ok)
 	}
-	if c.RemovePart("R2") {
+	if _, ok := c.RemovePart("R2"); ok {
 		t.Error("RemovePart of a removed part reported success")
 	}
-	c.RemovePart("R1") // x stays (C1, and it is an input), y stays (an output)
-	gone := c.PruneNets()
-	if !reflect.DeepEqual(gone, []string{"ht"}) {
-		t.Errorf("pruned %v, want [ht]", gone)
+	// x stays (C1, and it is an input), y stays (an output, though empty now)
+	if dropped, _ := c.RemovePart("R1"); len(dropped) != 0 {
+		t.Errorf("removing R1 dropped %v, want nothing (x and y are ends)", dropped)
+	}
+	if gone := c.PruneNets(); len(gone) != 0 {
+		t.Errorf("PruneNets found %v left to prune, want nothing", gone)
 	}
 	var names []string
 	for _, n := range c.Nets {
@@ -432,8 +437,8 @@ func TestSuggest(t *testing.T) {
 	}
 }
 
-// TestConnsOf: the terminals on a net in part-ref then pin order, the same
-// as the one-pass Conns map.
+// TestConnsOf: the terminals on a net in part-ref then pin-name order, the
+// same as a from-scratch index.
 func TestConnsOf(t *testing.T) {
 	c := mustLoad(t, filepath.Join(repo, "examples", "frequency-changer.toml"))
 	got := c.ConnsOf("k1")
@@ -441,15 +446,15 @@ func TestConnsOf(t *testing.T) {
 	for _, cn := range got {
 		names = append(names, cn.Part.Ref+"."+cn.Pin)
 	}
-	// The cathode net: L1's tap, and V1's cathode with the suppressor strapped to it.
-	// Pins of a part follow its terminal order (a g1 g2 g3 k for a pentode).
+	// The cathode net: L1's tap, and V1's cathode with the suppressor strapped
+	// to it (read off the example's netlist).
 	if want := []string{"L1.t", "V1.g3", "V1.k"}; !reflect.DeepEqual(names, want) {
 		t.Errorf("ConnsOf(k1) = %v, want %v", names, want)
 	}
-	all := c.Conns()
+	fresh := NewIndex(c.Parts, c.Nets)
 	for _, n := range c.Nets {
-		if !reflect.DeepEqual(all[n.Name], c.ConnsOf(n.Name)) {
-			t.Errorf("Conns()[%s] and ConnsOf disagree", n.Name)
+		if !reflect.DeepEqual(fresh.Conns(n.Name), c.ConnsOf(n.Name)) {
+			t.Errorf("ConnsOf(%s) and a fresh index disagree", n.Name)
 		}
 	}
 }

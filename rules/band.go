@@ -33,7 +33,7 @@ func (x *Ctx) bandOn(parts []*graph.Part, nets ...string) (lo, hi float64, from 
 		visit(p)
 	}
 	for _, n := range nets {
-		for _, cn := range x.conns[n] {
+		for _, cn := range x.Conns(n) {
 			visit(cn.Part)
 		}
 	}
@@ -78,7 +78,7 @@ func (x *Ctx) resonance(nets []string, cmin, cmax, lo, hi float64, skip *graph.P
 		return false
 	}
 	for _, n := range nets {
-		for _, cn := range x.conns[n] {
+		for _, cn := range x.Conns(n) {
 			p := cn.Part
 			if p == skip || (p.Kind != graph.Inductor && p.Kind != graph.Transformer) {
 				continue

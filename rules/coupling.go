@@ -78,7 +78,7 @@ var couplingShort = Rule{
 // nets a and b, touching both (a resistor or coil across a capacitor), or
 // nil. Parts are tried in the circuit's order, so the answer is stable.
 func acrossPart(x *Ctx, p *graph.Part, a, b string) *graph.Part {
-	for _, cn := range x.conns[a] {
+	for _, cn := range x.Conns(a) {
 		q := cn.Part
 		if q == p {
 			continue

@@ -67,7 +67,7 @@ var noSignal = Rule{
 		}
 		live := map[int]bool{}
 		for _, n := range seeds {
-			for _, cn := range x.conns[n] {
+			for _, cn := range x.Conns(n) {
 				live[groups.of[cn.Part.Ref]] = true
 			}
 		}
@@ -88,7 +88,7 @@ var noSignal = Rule{
 			var parts []*graph.Part
 			keep := false
 			for _, ref := range refs {
-				p := x.parts[ref]
+				p := x.Part(ref)
 				keep = keep || p.Keep
 				parts = append(parts, p)
 			}
@@ -151,7 +151,7 @@ func (x *Ctx) signalGroups() groups {
 				if pin.Net == "nc" || x.IsACGround(pin.Net) {
 					continue
 				}
-				for _, cn := range x.conns[pin.Net] {
+				for _, cn := range x.Conns(pin.Net) {
 					if _, done := g.of[cn.Part.Ref]; !done {
 						g.of[cn.Part.Ref] = id
 						stack = append(stack, cn.Part)

@@ -80,7 +80,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			case n == "nc" || ground[n]:
 				continue
 			case detected[n]:
-				for _, cn := range x.conns[n] {
+				for _, cn := range x.Conns(n) {
 					if q := cn.Part; !in[q] && allAt(q, isGround) {
 						in[q] = true // a leaf: its other terminals are at AC ground
 					}
@@ -92,7 +92,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 				continue // another device's output: the previous stage ends here
 			}
 			down := own || v.down
-			for _, cn := range x.conns[n] {
+			for _, cn := range x.Conns(n) {
 				q := cn.Part
 				if in[q] || (down && q.IsActive()) {
 					continue // the next device starts the next stage
@@ -112,13 +112,13 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			continue
 		}
 		touched := false
-		for _, cn := range x.conns[n.Name] {
+		for _, cn := range x.Conns(n.Name) {
 			touched = touched || in[cn.Part]
 		}
 		if !touched {
 			continue
 		}
-		for _, cn := range x.conns[n.Name] {
+		for _, cn := range x.Conns(n.Name) {
 			if q := cn.Part; !in[q] && allAt(q, isGround) {
 				in[q] = true
 			}
@@ -137,10 +137,10 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			continue
 		}
 		used := false
-		for _, cn := range x.conns[n.Name] {
+		for _, cn := range x.Conns(n.Name) {
 			used = used || in[cn.Part]
 		}
-		for _, cn := range x.conns[n.Name] {
+		for _, cn := range x.Conns(n.Name) {
 			if used && cn.Part.Kind == graph.Port {
 				in[cn.Part] = true
 			}
@@ -153,7 +153,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			continue
 		}
 		inside, outside, ported := false, false, false
-		for _, cn := range x.conns[n.Name] {
+		for _, cn := range x.Conns(n.Name) {
 			if in[cn.Part] {
 				inside = true
 				ported = ported || cn.Part.Kind == graph.Port
@@ -246,7 +246,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 func focusEnds(x *Ctx, in map[*graph.Part]bool, crossing []string, isGround func(string) bool) (inputs, outputs []string) {
 	c := x.c
 	inside := func(net string) bool {
-		for _, cn := range x.conns[net] {
+		for _, cn := range x.Conns(net) {
 			if in[cn.Part] {
 				return true
 			}
@@ -272,7 +272,7 @@ func focusEnds(x *Ctx, in map[*graph.Part]bool, crossing []string, isGround func
 	for len(queue) > 0 {
 		n := queue[0]
 		queue = queue[1:]
-		for _, cn := range x.conns[n] {
+		for _, cn := range x.Conns(n) {
 			q := cn.Part
 			if in[q] {
 				continue
@@ -294,7 +294,7 @@ func focusEnds(x *Ctx, in map[*graph.Part]bool, crossing []string, isGround func
 	var leaving []string
 	for _, n := range crossing {
 		entering := reached[n]
-		for _, cn := range x.conns[n] {
+		for _, cn := range x.Conns(n) {
 			if q := cn.Part; !in[q] && q.IsActive() && graph.RoleOfPin(q.Kind, cn.Pin) == graph.RoleOutput {
 				entering = true
 			}
@@ -366,7 +366,7 @@ func focusSeeds(x *Ctx, names []string) ([]*graph.Part, error) {
 		if name == "" {
 			continue
 		}
-		if p := x.parts[name]; p != nil {
+		if p := x.Part(name); p != nil {
 			add(p)
 			continue
 		}
@@ -385,11 +385,11 @@ func focusSeeds(x *Ctx, names []string) ([]*graph.Part, error) {
 				errs.Add(graph.Pos{File: c.File}, "focus %q: net %s is AC ground (%s) and joins every stage: name a part or a signal net", name, name, n.Role)
 				continue
 			}
-			if len(x.conns[name]) == 0 {
+			if len(x.Conns(name)) == 0 {
 				errs.Add(graph.Pos{File: c.File}, "focus %q: nothing is connected to net %s", name, name)
 				continue
 			}
-			for _, cn := range x.conns[name] {
+			for _, cn := range x.Conns(name) {
 				add(cn.Part)
 			}
 			continue
@@ -417,7 +417,7 @@ func portLabel(x *Ctx, net string, in map[*graph.Part]bool) string {
 		return n.Label
 	}
 	var firstPassive string
-	for _, cn := range x.conns[net] {
+	for _, cn := range x.Conns(net) {
 		q := cn.Part
 		if in[q] {
 			continue

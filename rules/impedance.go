@@ -145,7 +145,7 @@ func (x *Ctx) LowerZ(net string, f float64, skip ...*graph.Part) (float64, strin
 func (x *Ctx) lowerZ(net string, f float64, withLoad bool, skip ...*graph.Part) (float64, string) {
 	y := 0.0
 	var texts, opens []string
-	for _, cn := range x.conns[net] {
+	for _, cn := range x.Conns(net) {
 		if isSkipped(cn.Part, skip) {
 			continue
 		}
@@ -203,7 +203,7 @@ func (x *Ctx) throughCoil(p *graph.Part, pin, net string, f float64, b branch) b
 		return b
 	}
 	y := 0.0
-	for _, cn := range x.conns[far] {
+	for _, cn := range x.Conns(far) {
 		q := cn.Part
 		if q == p {
 			continue
@@ -261,7 +261,7 @@ func (x *Ctx) UpperZ(net string, f float64, skip ...*graph.Part) (float64, strin
 			best, text = z, t
 		}
 	}
-	for _, cn := range x.conns[net] {
+	for _, cn := range x.Conns(net) {
 		p := cn.Part
 		if isSkipped(p, skip) {
 			continue

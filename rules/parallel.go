@@ -22,9 +22,9 @@ var parallel = Rule{
 		if na == nb || na == "nc" || nb == "nc" {
 			return nil
 		}
-		side := x.conns[na] // scan the quieter net: a part to ground must not walk all of ground
-		if len(x.conns[nb]) < len(side) {
-			side = x.conns[nb]
+		side := x.Conns(na) // scan the quieter net: a part to ground must not walk all of ground
+		if len(x.Conns(nb)) < len(side) {
+			side = x.Conns(nb)
 		}
 		for _, cn := range side {
 			q := cn.Part

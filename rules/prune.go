@@ -63,7 +63,7 @@ func (x *Ctx) dangling(net string, p *graph.Part) bool {
 	if x.IsEnd(net) || x.IsACGround(net) || x.RoleOf(net) == graph.PortN {
 		return false
 	}
-	for _, cn := range x.conns[net] {
+	for _, cn := range x.Conns(net) {
 		if cn.Part != p {
 			return false
 		}

@@ -38,7 +38,7 @@ func seriesRule(name string, level Level, purpose string) Rule {
 			if n == nil || n.Role != graph.Signal || n.Label != "" || n.Volts != 0 {
 				return nil
 			}
-			cs := x.conns[mid]
+			cs := x.Conns(mid)
 			if len(cs) != 2 {
 				return nil
 			}

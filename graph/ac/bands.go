@@ -94,7 +94,6 @@ func addBand(list []value.Range, b value.Range) []value.Range {
 // bypass capacitors were never meant to bypass.
 func netBands(c *graph.Circuit) func(net string) []value.Range {
 	all := bandsOf(c)
-	conns := c.Conns()
 	return func(net string) []value.Range {
 		var out []value.Range
 		for _, r := range c.Regions {
@@ -107,7 +106,7 @@ func netBands(c *graph.Circuit) func(net string) []value.Range {
 				}
 			}
 		}
-		for _, cn := range conns[net] {
+		for _, cn := range c.ConnsOf(net) {
 			if cn.Part.Kind != graph.Port {
 				out = addBand(out, c.BandOf(cn.Part))
 			}

@@ -178,7 +178,7 @@ func (s *set) add(t *graph.Circuit, k int, rng *rand.Rand) {
 	for _, n := range t.Outputs {
 		c.Outputs = append(c.Outputs, rename(n))
 	}
-	c.Touch()
+	c.Sort() // the direct appends above: sorted again, the index rebuilt on next use
 }
 
 // jitter moves a value one step up or down the IEC 60063 E12 series, as a

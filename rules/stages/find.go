@@ -528,7 +528,6 @@ func (o order) of(refs []string) int {
 // inputs (and region inputs), never through an AC-ground net: a common
 // ground does not carry the signal from stage to stage.
 func signalOrder(c *graph.Circuit) order {
-	conns := c.Conns()
 	dist := order{}
 	seenNet := map[string]bool{}
 	var queue []string
@@ -552,7 +551,7 @@ func signalOrder(c *graph.Circuit) order {
 	for len(queue) > 0 {
 		n := queue[0]
 		queue = queue[1:]
-		for _, cn := range conns[n] {
+		for _, cn := range c.ConnsOf(n) {
 			p := cn.Part
 			if _, ok := dist[p.Ref]; ok {
 				continue

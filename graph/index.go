@@ -1,0 +1,134 @@
+package graph
+
+import "sort"
+
+// Conn is one terminal of a part as seen from a net.
+type Conn struct {
+	Part *Part
+	Pin  string
+}
+
+// connLess orders terminals by part ref, then pin name: the one order every
+// list of terminals on a net is kept in, so that lookups can search and
+// walks over a net are deterministic.
+func connLess(a, b Conn) bool {
+	if a.Part.Ref != b.Part.Ref {
+		return a.Part.Ref < b.Part.Ref
+	}
+	return a.Pin < b.Pin
+}
+
+// Index is the connection index of a set of parts and nets: parts by ref,
+// nets by name, and the terminals on each net. A circuit keeps one, built
+// from scratch once (on first use after a load, a clone or Sort) and then
+// kept current by every edit (edit.go), so a reduction that asks "what is
+// on this net" thousands of times never rebuilds it.
+type Index struct {
+	parts map[string]*Part
+	nets  map[string]*Net
+	conns map[string][]Conn // sorted by connLess
+}
+
+// NewIndex builds the index of parts and nets from scratch. Nets named only
+// in a pin list have terminals but no *Net. Parts outside a circuit (the
+// flags a drawing adds for its ends) may be indexed the same way.
+func NewIndex(parts []*Part, nets []*Net) *Index {
+	ix := &Index{
+		parts: make(map[string]*Part, len(parts)),
+		nets:  make(map[string]*Net, len(nets)),
+		conns: make(map[string][]Conn, len(nets)),
+	}
+	for _, n := range nets {
+		ix.nets[n.Name] = n
+	}
+	for _, p := range parts {
+		ix.parts[p.Ref] = p
+		for _, pin := range p.Pins {
+			ix.conns[pin.Net] = append(ix.conns[pin.Net], Conn{Part: p, Pin: pin.Name})
+		}
+	}
+	// Parts may come in any order and a part's pins come in terminal
+	// order: sort fully, so that edits can search.
+	for _, list := range ix.conns {
+		sort.Slice(list, func(i, j int) bool { return connLess(list[i], list[j]) })
+	}
+	return ix
+}
+
+// Conns lists the terminals on a net by part ref, then pin name. The slice
+// belongs to the index: read it, do not keep it across an edit.
+func (ix *Index) Conns(net string) []Conn { return ix.conns[net] }
+
+// Part returns the part with the given ref, or nil.
+func (ix *Index) Part(ref string) *Part { return ix.parts[ref] }
+
+// Net returns the net with the given name, or nil.
+func (ix *Index) Net(name string) *Net { return ix.nets[name] }
+
+// NetNames lists every net that has a terminal or a *Net, sorted.
+func (ix *Index) NetNames() []string {
+	seen := make(map[string]bool, len(ix.conns)+len(ix.nets))
+	var out []string
+	for n := range ix.conns {
+		if !seen[n] {
+			seen[n] = true
+			out = append(out, n)
+		}
+	}
+	for n := range ix.nets {
+		if !seen[n] {
+			seen[n] = true
+			out = append(out, n)
+		}
+	}
+	sort.Strings(out)
+	return out
+}
+
+func (ix *Index) addConn(net string, cn Conn) {
+	list := ix.conns[net]
+	i := sort.Search(len(list), func(i int) bool { return !connLess(list[i], cn) })
+	list = append(list, Conn{})
+	copy(list[i+1:], list[i:])
+	list[i] = cn
+	ix.conns[net] = list
+}
+
+// delConn takes one terminal off a net and reports whether the net is now
+// empty (its entry is then gone from the index).
+func (ix *Index) delConn(net string, p *Part, pin string) (empty bool) {
+	list := ix.conns[net]
+	key := Conn{Part: p, Pin: pin}
+	i := sort.Search(len(list), func(i int) bool { return !connLess(list[i], key) })
+	for ; i < len(list) && list[i].Part.Ref == p.Ref; i++ { // sorted by ref and pin: a short look
+		if list[i].Part == p && list[i].Pin == pin {
+			list = append(list[:i], list[i+1:]...)
+			break
+		}
+	}
+	if len(list) == 0 {
+		delete(ix.conns, net)
+		return true
+	}
+	ix.conns[net] = list
+	return false
+}
+
+// moveConns puts every terminal of net gone on net keep, merging the two
+// sorted lists in one pass (ground collects most terminals of a circuit).
+func (ix *Index) moveConns(keep, gone string) {
+	a, b := ix.conns[keep], ix.conns[gone]
+	delete(ix.conns, gone)
+	if len(b) == 0 {
+		return
+	}
+	out := make([]Conn, 0, len(a)+len(b))
+	for len(a) > 0 && len(b) > 0 {
+		if connLess(b[0], a[0]) {
+			out, b = append(out, b[0]), b[1:]
+		} else {
+			out, a = append(out, a[0]), a[1:]
+		}
+	}
+	ix.conns[keep] = append(append(out, a...), b...)
+}

@@ -1,0 +1,120 @@
+package graph
+
+import (
+	"sort"
+
+	"pare/graph/value"
+)
+
+// Sort restores the sorted order of Parts and Nets after direct edits to the
+// slices (the loader's appends, a test's surgery) and drops the connection
+// index, which the next lookup builds afresh: the one place besides Clone
+// where it is rebuilt.
+func (c *Circuit) Sort() {
+	sort.Slice(c.Parts, func(i, j int) bool { return c.Parts[i].Ref < c.Parts[j].Ref })
+	sort.Slice(c.Nets, func(i, j int) bool { return c.Nets[i].Name < c.Nets[j].Name })
+	sort.Slice(c.Regions, func(i, j int) bool { return c.Regions[i].Name < c.Regions[j].Name })
+	c.ix = nil
+}
+
+// Clone returns a deep copy that shares nothing with c, for reductions that
+// must leave the loaded circuit as it was.
+func (c *Circuit) Clone() *Circuit {
+	d := *c
+	d.ix = nil // the clone builds its own on first use
+	d.Freqs = make(map[string]float64, len(c.Freqs))
+	for k, v := range c.Freqs {
+		d.Freqs[k] = v
+	}
+	d.Inputs = append([]string(nil), c.Inputs...)
+	d.Outputs = append([]string(nil), c.Outputs...)
+	d.Regions = make([]*Region, len(c.Regions))
+	for i, r := range c.Regions {
+		rr := *r
+		rr.Parts = append([]string(nil), r.Parts...)
+		rr.Nets = append([]string(nil), r.Nets...)
+		d.Regions[i] = &rr
+	}
+	d.Nets = make([]*Net, len(c.Nets))
+	for i, n := range c.Nets {
+		nn := *n
+		d.Nets[i] = &nn
+	}
+	d.Parts = make([]*Part, len(c.Parts))
+	for i, p := range c.Parts {
+		d.Parts[i] = p.Clone()
+	}
+	if c.Comments != nil {
+		d.Comments = make(map[string]Comment, len(c.Comments))
+		for k, v := range c.Comments {
+			d.Comments[k] = v
+		}
+	}
+	return &d
+}
+
+// RegionOf returns the region a part works in, or nil for the default band.
+// A region that names the part wins; otherwise the first region (by name) that
+// names one of its nets.
+func (c *Circuit) RegionOf(p *Part) *Region {
+	for _, r := range c.Regions {
+		for _, ref := range r.Parts {
+			if ref == p.Ref {
+				return r
+			}
+			for _, o := range p.From {
+				if o == ref {
+					return r
+				}
+			}
+		}
+	}
+	for _, r := range c.Regions {
+		for _, n := range r.Nets {
+			for _, pin := range p.Pins {
+				if pin.Net == n {
+					return r
+				}
+			}
+		}
+	}
+	return nil
+}
+
+// BandOf returns the band of interest for a part: its region's band, or the
+// circuit's default band.
+func (c *Circuit) BandOf(p *Part) value.Range {
+	if r := c.RegionOf(p); r != nil {
+		return r.Band
+	}
+	return c.Band
+}
+
+// Region returns the region with the given name, or nil.
+func (c *Circuit) Region(name string) *Region {
+	for _, r := range c.Regions {
+		if r.Name == name {
+			return r
+		}
+	}
+	return nil
+}
+
+// FullBand is the span from the lowest to the highest frequency of interest
+// over the default band and all regions.
+func (c *Circuit) FullBand() value.Range {
+	b := c.Band
+	for _, r := range c.Regions {
+		if b.Max == 0 || (r.Band.Min > 0 && r.Band.Min < b.Min) {
+			if b.Max == 0 {
+				b = r.Band
+				continue
+			}
+			b.Min = r.Band.Min
+		}
+		if r.Band.Max > b.Max {
+			b.Max = r.Band.Max
+		}
+	}
+	return b
+}
