@@ -9,7 +9,7 @@ import (
 // FuzzLoad feeds arbitrary bytes to Parse. Whatever happens, Parse must not
 // panic; a refused input must come with positioned messages; and anything
 // accepted must write out, load back, and write out the same text again (the
-// canonical layout is a fixpoint), and survive Check, Clone and NewView.
+// canonical layout is a fixpoint), and survive Check, Clone and View.
 //
 // Seeds: the examples, every good, warning and bad fixture, and the tricky
 // TOML forms under testdata/fuzz/netlists.
@@ -56,6 +56,6 @@ func FuzzLoad(f *testing.F) {
 			t.Fatalf("Write is not a fixpoint:\n%s", firstDiff(out1, out2))
 		}
 		Check(c)
-		NewView(c.Clone())
+		c.Clone().View()
 	})
 }

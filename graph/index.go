@@ -114,21 +114,29 @@ func (ix *Index) delConn(net string, p *Part, pin string) (empty bool) {
 	return false
 }
 
-// moveConns puts every terminal of net gone on net keep, merging the two
-// sorted lists in one pass (ground collects most terminals of a circuit).
+// moveConns puts every terminal of net gone on net keep. Ground collects
+// most terminals of a circuit and is joined to over and over, so the short
+// list is merged into the long one in place, from the back: only the
+// entries after the first insertion point move, and nothing is allocated
+// once the slice has grown.
 func (ix *Index) moveConns(keep, gone string) {
-	a, b := ix.conns[keep], ix.conns[gone]
+	b := ix.conns[gone]
 	delete(ix.conns, gone)
 	if len(b) == 0 {
 		return
 	}
-	out := make([]Conn, 0, len(a)+len(b))
-	for len(a) > 0 && len(b) > 0 {
-		if connLess(b[0], a[0]) {
-			out, b = append(out, b[0]), b[1:]
+	a := ix.conns[keep]
+	n := len(a)
+	a = append(a, b...) // room; the tail is overwritten by the merge below
+	i, j := n-1, len(b)-1
+	for k := len(a) - 1; j >= 0; k-- {
+		if i >= 0 && connLess(b[j], a[i]) {
+			a[k] = a[i]
+			i--
 		} else {
-			out, a = append(out, a[0]), a[1:]
+			a[k] = b[j]
+			j--
 		}
 	}
-	ix.conns[keep] = append(append(out, a...), b...)
+	ix.conns[keep] = a
 }

@@ -1,102 +1,153 @@
 package graph
 
 import (
+	"slices"
+	"sort"
+
 	"gonum.org/v1/gonum/graph"
-	"gonum.org/v1/gonum/graph/multi"
-	"gonum.org/v1/gonum/graph/topo"
+	"gonum.org/v1/gonum/graph/iterator"
+	"gonum.org/v1/gonum/graph/simple"
 )
 
-// View is the bipartite part–net graph of a circuit on gonum: one node per
-// part, one per net, one line per terminal (a part with two terminals on the
-// same net gets two parallel lines, hence a multigraph). Node IDs are
-// assigned in sorted order, parts first, so results that list nodes by ID are
-// deterministic. Our own structs keep the meaning; the view is for algorithms.
+// View is the part–net incidence graph of a set of parts as gonum sees it
+// (graph.Undirected): one node per part, one per net, an edge where a part
+// has a terminal on a net. It reads a connection index and copies nothing
+// but the adjacency lists; our own structs keep the meaning (pin → net),
+// the view is for gonum's algorithms (traverse, topo). Node IDs are the
+// parts in the order given, then the nets by name, and every node list it
+// returns is in ID order, never map order, so walks are deterministic.
 type View struct {
-	*multi.UndirectedGraph
-	c        *Circuit
-	partID   map[string]int64
-	netID    map[string]int64
-	nodePart map[int64]*Part
-	nodeNet  map[int64]*Net
+	parts  []*Part
+	nets   []string
+	partID map[*Part]int64
+	netID  map[string]int64
+	adj    [][]graph.Node // node ID → neighbours in ID order
 }
 
-// TermLine is a line of the view: the part's terminal Pin is on the net.
-type TermLine struct {
-	multi.Line
-	Pin string
-}
+var _ graph.Undirected = (*View)(nil)
 
-// NewView builds the part–net graph of c.
-func NewView(c *Circuit) *View {
-	v := &View{UndirectedGraph: multi.NewUndirectedGraph(), c: c,
-		partID: map[string]int64{}, netID: map[string]int64{}, nodePart: map[int64]*Part{}, nodeNet: map[int64]*Net{}}
-	id := int64(0)
-	for _, p := range c.Parts {
-		v.partID[p.Ref] = id
-		v.nodePart[id] = p
-		v.AddNode(multi.Node(id))
-		id++
+// NewView builds the view of parts over their index (the circuit's own, or
+// NewIndex of a drawing's cells).
+func NewView(ix *Index, parts []*Part) *View {
+	v := &View{parts: parts, nets: ix.NetNames(), partID: make(map[*Part]int64, len(parts))}
+	v.netID = make(map[string]int64, len(v.nets))
+	for i, p := range parts {
+		v.partID[p] = int64(i)
 	}
-	for _, n := range c.Nets {
-		v.netID[n.Name] = id
-		v.nodeNet[id] = n
-		v.AddNode(multi.Node(id))
-		id++
+	for i, n := range v.nets {
+		v.netID[n] = int64(len(parts) + i)
 	}
-	lineID := int64(0)
-	for _, p := range c.Parts {
+	// Neighbour IDs first, sorted and unique per node, then one backing
+	// array of gonum nodes for all of them: building the view is what a
+	// walk costs most (DEVELOPERS.md, "Graph algorithms").
+	ids := make([][]int64, len(parts)+len(v.nets))
+	total := 0
+	for i, p := range parts {
 		for _, pin := range p.Pins {
-			nid, ok := v.netID[pin.Net]
-			if !ok {
-				continue
+			if id, ok := v.netID[pin.Net]; ok {
+				ids[i] = append(ids[i], id)
 			}
-			v.SetLine(TermLine{Line: multi.Line{F: multi.Node(v.partID[p.Ref]), T: multi.Node(nid), UID: lineID}, Pin: pin.Name})
-			lineID++
 		}
+	}
+	for i, n := range v.nets {
+		id := len(parts) + i
+		for _, cn := range ix.Conns(n) {
+			if pid, ok := v.partID[cn.Part]; ok {
+				ids[id] = append(ids[id], pid)
+			}
+		}
+	}
+	for i := range ids {
+		slices.Sort(ids[i])
+		ids[i] = slices.Compact(ids[i])
+		total += len(ids[i])
+	}
+	backing := make([]graph.Node, 0, total)
+	v.adj = make([][]graph.Node, len(ids))
+	for i, list := range ids {
+		start := len(backing)
+		for _, id := range list {
+			backing = append(backing, simple.Node(id))
+		}
+		v.adj[i] = backing[start:len(backing):len(backing)]
 	}
 	return v
 }
 
-// PartNode and NetNode give the node IDs; ok is false for unknown names.
-func (v *View) PartNode(ref string) (int64, bool) { id, ok := v.partID[ref]; return id, ok }
+// View returns the part–net view of the circuit, over its index.
+func (c *Circuit) View() *View { return NewView(c.index(), c.Parts) }
+
+// PartNode and NetNode give the node IDs; ok is false for unknown ones.
+func (v *View) PartNode(p *Part) (int64, bool) { id, ok := v.partID[p]; return id, ok }
 
 // NetNode gives the node ID of a net.
 func (v *View) NetNode(name string) (int64, bool) { id, ok := v.netID[name]; return id, ok }
 
-// PartOf and NetOf turn a node ID back into the model (nil if the node is the other sort).
-func (v *View) PartOf(id int64) *Part { return v.nodePart[id] }
-
-// NetOf returns the net behind a node ID.
-func (v *View) NetOf(id int64) *Net { return v.nodeNet[id] }
-
-// Components returns the connected groups of parts, each sorted by ref, the
-// groups ordered by their first ref. Nets that are AC ground by role are left
-// out of the graph first when acGroundSplits is set, because a common ground
-// does not couple stages for the signal.
-func Components(c *Circuit, acGroundSplits bool) [][]string {
-	g := NewView(c)
-	if acGroundSplits {
-		for _, n := range c.Nets {
-			if n.Role.IsACGround() {
-				id, _ := g.NetNode(n.Name)
-				g.RemoveNode(id)
-			}
-		}
+// PartOf returns the part behind a node ID, or nil if the node is a net.
+func (v *View) PartOf(id int64) *Part {
+	if id >= 0 && id < int64(len(v.parts)) {
+		return v.parts[id]
 	}
-	var out [][]string
-	for _, comp := range topo.ConnectedComponents(graph.Undirected(g)) {
-		var refs []string
-		for _, n := range comp {
-			if p := g.PartOf(n.ID()); p != nil {
-				refs = append(refs, p.Ref)
-			}
-		}
-		if len(refs) == 0 {
-			continue
-		}
-		sortStrings(refs)
-		out = append(out, refs)
-	}
-	sortGroups(out)
-	return out
+	return nil
 }
+
+// NetOf returns the net name behind a node ID, or "" if the node is a part.
+func (v *View) NetOf(id int64) string {
+	name, _ := v.netAt(id)
+	return name
+}
+
+func (v *View) netAt(id int64) (string, bool) {
+	if i := id - int64(len(v.parts)); i >= 0 && i < int64(len(v.nets)) {
+		return v.nets[i], true
+	}
+	return "", false
+}
+
+func (v *View) has(id int64) bool { return id >= 0 && id < int64(len(v.adj)) }
+
+// Node returns the node with the given ID, or nil.
+func (v *View) Node(id int64) graph.Node {
+	if !v.has(id) {
+		return nil
+	}
+	return simple.Node(id)
+}
+
+// Nodes returns every node in ID order.
+func (v *View) Nodes() graph.Nodes {
+	all := make([]graph.Node, len(v.adj))
+	for i := range all {
+		all[i] = simple.Node(i)
+	}
+	return iterator.NewOrderedNodes(all)
+}
+
+// From returns the neighbours of a node in ID order.
+func (v *View) From(id int64) graph.Nodes {
+	if !v.has(id) {
+		return graph.Empty
+	}
+	return iterator.NewOrderedNodes(v.adj[id])
+}
+
+// HasEdgeBetween reports whether a part has a terminal on a net.
+func (v *View) HasEdgeBetween(xid, yid int64) bool {
+	if !v.has(xid) || !v.has(yid) {
+		return false
+	}
+	list := v.adj[xid]
+	i := sort.Search(len(list), func(i int) bool { return list[i].ID() >= yid })
+	return i < len(list) && list[i].ID() == yid
+}
+
+// Edge returns the edge from u to v, or nil.
+func (v *View) Edge(uid, vid int64) graph.Edge {
+	if !v.HasEdgeBetween(uid, vid) {
+		return nil
+	}
+	return simple.Edge{F: simple.Node(uid), T: simple.Node(vid)}
+}
+
+// EdgeBetween returns the edge between x and y, or nil.
+func (v *View) EdgeBetween(xid, yid int64) graph.Edge { return v.Edge(xid, yid) }

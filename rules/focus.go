@@ -263,37 +263,21 @@ func focusEnds(x *Ctx, in map[*graph.Part]bool, crossing []string, isGround func
 			outputs = append(outputs, n)
 		}
 	}
-	// Nets the signal reaches from the original inputs through parts outside.
-	reached := map[string]bool{}
-	queue := append([]string(nil), c.Inputs...)
-	for _, n := range queue {
-		reached[n] = true
+	// Nets the signal reaches from the original inputs through parts outside,
+	// crossing a device only from its control or common terminal to its output.
+	w := graph.NewWalk(c.View())
+	w.Follow = func(n string) bool { return !isGround(n) }
+	w.Enter = func(q *graph.Part, pin string) bool {
+		return !in[q] && (!q.IsActive() || graph.RoleOfPin(q.Kind, pin) != graph.RoleOutput)
 	}
-	for len(queue) > 0 {
-		n := queue[0]
-		queue = queue[1:]
-		for _, cn := range x.Conns(n) {
-			q := cn.Part
-			if in[q] {
-				continue
-			}
-			from := graph.RoleOfPin(q.Kind, cn.Pin)
-			for _, pin := range q.Pins {
-				m := pin.Net
-				if reached[m] || isGround(m) {
-					continue
-				}
-				if q.IsActive() && (from == graph.RoleOutput || graph.RoleOfPin(q.Kind, pin.Name) != graph.RoleOutput) {
-					continue // through a device only from its control or common terminal to its output
-				}
-				reached[m] = true
-				queue = append(queue, m)
-			}
-		}
+	w.Leave = func(q *graph.Part, pin string) bool {
+		return !q.IsActive() || graph.RoleOfPin(q.Kind, pin) == graph.RoleOutput
 	}
+	w.FromNets(c.Inputs, 0)
+	reached := func(n string) bool { _, ok := w.NetDist(n); return ok }
 	var leaving []string
 	for _, n := range crossing {
-		entering := reached[n]
+		entering := reached(n)
 		for _, cn := range x.Conns(n) {
 			if q := cn.Part; !in[q] && q.IsActive() && graph.RoleOfPin(q.Kind, cn.Pin) == graph.RoleOutput {
 				entering = true

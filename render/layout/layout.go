@@ -19,6 +19,7 @@ package layout
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -523,47 +524,7 @@ func (ly *state) rank() {
 		}
 	}
 	sort.Strings(netNames)
-	rank := map[string]int{}
-	var queue []*cell
-	seed := func(cl *cell, r int) {
-		if _, ok := rank[cl.ref]; ok {
-			return
-		}
-		rank[cl.ref] = r
-		queue = append(queue, cl)
-	}
-	drain := func() int {
-		maxR := 0
-		for len(queue) > 0 {
-			cl := queue[0]
-			queue = queue[1:]
-			r := rank[cl.ref]
-			maxR = max(maxR, r)
-			for _, n := range ly.signalNets(cl) {
-				for _, nb := range byNet[n] {
-					seed(nb, r+1)
-				}
-			}
-		}
-		return maxR
-	}
-	for _, in := range ly.c.Inputs {
-		for _, cl := range byNet[in] {
-			if cl.edge < 0 || cl.part.Kind == graph.Port {
-				seed(cl, 0)
-			}
-		}
-		for _, cl := range byNet[in] {
-			seed(cl, 1)
-		}
-	}
-	next := drain() + 1
-	for _, cl := range ly.cells {
-		if _, ok := rank[cl.ref]; !ok && len(ly.signalNets(cl)) > 0 {
-			seed(cl, next)
-			next = drain() + 1
-		}
-	}
+	rank := ly.signalRank()
 	// parts on rails only: beside the lowest-ranked part sharing a non-ground net
 	railNets := map[string][]*cell{}
 	for _, cl := range ly.cells {
@@ -688,6 +649,49 @@ func (ly *state) rank() {
 		}
 	}
 	ly.assignColumns()
+}
+
+// signalRank is the breadth-first distance of every cell from the signal
+// input nets over shared signal nets (graph.Walk): the parts on an input at
+// 1, input flags and ports there at 0; each piece the inputs do not reach
+// follows, from its first cell, one layer after the highest so far.
+func (ly *state) signalRank() map[string]int {
+	parts := make([]*graph.Part, len(ly.cells))
+	for i, cl := range ly.cells {
+		parts[i] = cl.part
+	}
+	w := graph.NewWalk(graph.NewView(graph.NewIndex(parts, nil), parts))
+	w.Follow = func(n string) bool { return n != notConnected && n != "" && !ly.c.RoleOf(n).IsACGround() }
+	var inputs []string
+	for _, in := range ly.c.Inputs {
+		if w.Follow(in) {
+			inputs = append(inputs, in)
+		}
+	}
+	w.FromNets(inputs, 1)
+	rank := map[string]int{}
+	maxR := 0
+	collect := func() {
+		for _, cl := range ly.cells {
+			if r, ok := w.PartDist(cl.part); ok {
+				if _, done := rank[cl.ref]; !done {
+					rank[cl.ref] = r
+					if cl.part.Kind == graph.Port && slices.Contains(inputs, cl.part.NetOf("1")) {
+						rank[cl.ref] = 0 // an input flag or port (cl.edge < 0 is one)
+					}
+					maxR = max(maxR, rank[cl.ref])
+				}
+			}
+		}
+	}
+	collect()
+	for _, cl := range ly.cells {
+		if _, ok := rank[cl.ref]; !ok && len(ly.signalNets(cl)) > 0 {
+			w.FromPart(cl.part, maxR+1)
+			collect()
+		}
+	}
+	return rank
 }
 
 // assignColumns turns ranks (and stages, when frames are given) into columns.

@@ -526,11 +526,8 @@ func (o order) of(refs []string) int {
 
 // signalOrder walks the part–net graph breadth first from the circuit's
 // inputs (and region inputs), never through an AC-ground net: a common
-// ground does not carry the signal from stage to stage.
+// ground does not carry the signal from stage to stage (graph.Walk).
 func signalOrder(c *graph.Circuit) order {
-	dist := order{}
-	seenNet := map[string]bool{}
-	var queue []string
 	// A region's input is a point inside the chain (the IF strip starts at
 	// the mixer's anode); it only helps when the circuit names no inputs.
 	starts := append([]string(nil), c.Inputs...)
@@ -541,30 +538,13 @@ func signalOrder(c *graph.Circuit) order {
 			}
 		}
 	}
-	for _, n := range starts {
-		if !seenNet[n] {
-			seenNet[n] = true
-			queue = append(queue, n)
-		}
-	}
-	depth := map[string]int{}
-	for len(queue) > 0 {
-		n := queue[0]
-		queue = queue[1:]
-		for _, cn := range c.ConnsOf(n) {
-			p := cn.Part
-			if _, ok := dist[p.Ref]; ok {
-				continue
-			}
-			dist[p.Ref] = depth[n]
-			for _, pin := range p.Pins {
-				if seenNet[pin.Net] || c.RoleOf(pin.Net).IsACGround() {
-					continue
-				}
-				seenNet[pin.Net] = true
-				depth[pin.Net] = depth[n] + 1
-				queue = append(queue, pin.Net)
-			}
+	w := graph.NewWalk(c.View())
+	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }
+	w.FromNets(starts, 0)
+	dist := order{}
+	for _, p := range c.Parts {
+		if d, ok := w.PartDist(p); ok {
+			dist[p.Ref] = d
 		}
 	}
 	return dist
