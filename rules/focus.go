@@ -24,8 +24,27 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 	if err != nil {
 		return err
 	}
-	ground := map[string]bool{} // nets at AC ground for the cut: by role, or held there by a bypass
-	detected := map[string]bool{}
+	ground, detected := focusGround(x)
+	isGround := func(n string) bool { return ground[n] || detected[n] || n == "nc" }
+	in := focusStage(x, seeds, ground, detected, isGround)
+	focusLeaves(x, in, detected, isGround)
+	crossing := crossingNets(x, in, isGround)
+	labels := map[string]string{}
+	for _, n := range crossing {
+		labels[n] = portLabel(x, n, in)
+	}
+	c.Inputs, c.Outputs = focusEnds(x, in, crossing, isGround)
+	st := applyCut(x, seeds, in, crossing, labels)
+	st.N = len(log.Steps) + 1
+	log.Steps = append(log.Steps, st)
+	return nil
+}
+
+// focusGround finds the nets at AC ground for the cut: by role, or (at the
+// signal level) held there by a bypass capacitor, which the rule judges.
+func focusGround(x *Ctx) (ground, detected map[string]bool) {
+	c := x.c
+	ground, detected = map[string]bool{}, map[string]bool{}
 	for _, n := range c.Nets {
 		if n.Role.IsACGround() {
 			ground[n.Name] = true
@@ -43,7 +62,13 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			}
 		}
 	}
-	isGround := func(n string) bool { return ground[n] || detected[n] || n == "nc" }
+	return ground, detected
+}
+
+// focusStage walks from the seeds to the edges of their stage (see focusCut)
+// and returns the parts inside.
+func focusStage(x *Ctx, seeds []*graph.Part, ground, detected map[string]bool, isGround func(string) bool) map[*graph.Part]bool {
+	c := x.c
 	outputs := map[string][]*graph.Part{} // net -> active devices whose output is on it
 	for _, p := range c.Parts {
 		if p.IsActive() {
@@ -102,6 +127,14 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			}
 		}
 	}
+	return in
+}
+
+// focusLeaves adds what the stage needs besides the walk: the leaves of
+// bypassed nets it touches, parts marked keep, and the input's ports on its
+// nets.
+func focusLeaves(x *Ctx, in map[*graph.Part]bool, detected map[string]bool, isGround func(string) bool) {
+	c := x.c
 	// A net held at AC ground by a bypass that an inside part touches keeps
 	// its leaves (the bypass, the feed to the rail) even when the walk never
 	// stepped onto it, e.g. the cold end of an interstage transformer's far
@@ -146,7 +179,12 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			}
 		}
 	}
-	// Nets that cross the cut, in name order, each become a port.
+}
+
+// crossingNets lists the nets that cross the cut, in name order: each
+// becomes a port.
+func crossingNets(x *Ctx, in map[*graph.Part]bool, isGround func(string) bool) []string {
+	c := x.c
 	var crossing []string
 	for _, n := range c.Nets {
 		if isGround(n.Name) {
@@ -165,11 +203,13 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 			crossing = append(crossing, n.Name)
 		}
 	}
-	labels := map[string]string{}
-	for _, n := range crossing {
-		labels[n] = portLabel(x, n, in)
-	}
-	c.Inputs, c.Outputs = focusEnds(x, in, crossing, isGround)
+	return crossing
+}
+
+// applyCut removes what lies outside, puts a port on each crossing net and
+// returns the logged step.
+func applyCut(x *Ctx, seeds []*graph.Part, in map[*graph.Part]bool, crossing []string, labels map[string]string) Step {
+	c := x.c
 	var cut []*graph.Part
 	var kept []string
 	for _, p := range c.Parts {
@@ -229,9 +269,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 	if len(ports) > 0 {
 		st.Why += "; nets crossing the cut become ports: " + strings.Join(ports, ", ")
 	}
-	st.N = len(log.Steps) + 1
-	log.Steps = append(log.Steps, st)
-	return nil
+	return st
 }
 
 // focusEnds gives the focused circuit its declared ends, so that it can be
