@@ -173,3 +173,76 @@ func Components(c *Circuit, acGroundSplits bool) [][]string {
 	slices.SortFunc(out, func(a, b []string) int { return strings.Compare(a[0], b[0]) })
 	return out
 }
+
+// DisjointSets is a union–find over small non-negative integers (solver
+// nodes), growing as members are named: the one place the model groups
+// things that are joined. The least member of a set represents it, so the
+// grouping names nodes the same way on every run. The zero value is empty
+// and ready. It is slice-backed: a map-backed one cost 50 times as much on
+// the solver's 100k-node benchmark circuit (DEVELOPERS.md, "Graph algorithms").
+type DisjointSets struct {
+	parent []int
+	less   func(a, b int) bool // the order of members; nil: by number
+}
+
+// Find returns the representative of x's set (x itself if it was never
+// joined), halving the path on the way.
+func (s *DisjointSets) Find(x int) int {
+	if x >= len(s.parent) {
+		return x
+	}
+	for s.parent[x] != x {
+		s.parent[x] = s.parent[s.parent[x]]
+		x = s.parent[x]
+	}
+	return x
+}
+
+// Union joins the sets of a and b.
+func (s *DisjointSets) Union(a, b int) {
+	for n := max(a, b); len(s.parent) <= n; {
+		s.parent = append(s.parent, len(s.parent))
+	}
+	ra, rb := s.Find(a), s.Find(b)
+	if ra == rb {
+		return
+	}
+	if s.less != nil && s.less(rb, ra) || s.less == nil && rb < ra {
+		ra, rb = rb, ra
+	}
+	s.parent[rb] = ra
+}
+
+// NamedSets is DisjointSets over names (nets): the smallest name of a set
+// represents it.
+type NamedSets struct {
+	sets  DisjointSets
+	id    map[string]int
+	names []string
+}
+
+func (n *NamedSets) intern(name string) int {
+	if n.id == nil {
+		n.id = map[string]int{}
+		n.sets.less = func(a, b int) bool { return n.names[a] < n.names[b] }
+	}
+	id, ok := n.id[name]
+	if !ok {
+		id = len(n.names)
+		n.id[name] = id
+		n.names = append(n.names, name)
+	}
+	return id
+}
+
+// Find returns the representative name of name's set.
+func (n *NamedSets) Find(name string) string {
+	id, ok := n.id[name]
+	if !ok {
+		return name
+	}
+	return n.names[n.sets.Find(id)]
+}
+
+// Union joins the sets of a and b.
+func (n *NamedSets) Union(a, b string) { n.sets.Union(n.intern(a), n.intern(b)) }

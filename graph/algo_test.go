@@ -242,3 +242,35 @@ R4 = { r = "1M", pins = ["x", "y"] }
 		t.Errorf("Components(split) = %v, want %v", got, want)
 	}
 }
+
+// TestDisjointSets: joins merge sets, the smallest member names each set
+// whatever the order of the joins (union–find, the textbook structure, from
+// memory), and keys never joined stand alone.
+func TestDisjointSets(t *testing.T) {
+	cases := []struct {
+		joins [][2]string
+		want  map[string]string // key → representative
+	}{
+		{nil, map[string]string{"a": "a"}},
+		{[][2]string{{"b", "a"}}, map[string]string{"a": "a", "b": "a"}},
+		{[][2]string{{"d", "c"}, {"b", "d"}, {"x", "y"}}, map[string]string{"b": "b", "c": "b", "d": "b", "x": "x", "y": "x", "z": "z"}},
+		{[][2]string{{"z", "y"}, {"y", "x"}, {"x", "w"}, {"w", "z"}}, map[string]string{"z": "w", "y": "w", "x": "w", "w": "w"}},
+	}
+	for i, tc := range cases {
+		var s NamedSets
+		for _, j := range tc.joins {
+			s.Union(j[0], j[1])
+		}
+		for k, rep := range tc.want {
+			if got := s.Find(k); got != rep {
+				t.Errorf("case %d: Find(%s) = %s, want %s", i, k, got, rep)
+			}
+		}
+	}
+	var n DisjointSets
+	n.Union(7, 3)
+	n.Union(3, 9)
+	if n.Find(9) != 3 || n.Find(5) != 5 {
+		t.Errorf("ints: Find(9) = %d, Find(5) = %d; want 3 and 5", n.Find(9), n.Find(5))
+	}
+}

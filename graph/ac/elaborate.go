@@ -68,35 +68,6 @@ type netlist struct {
 // ncNet marks a terminal that is not connected (docs/netlist.md).
 const ncNet = "nc"
 
-// unionFind joins nets that the small-signal model treats as one node.
-type unionFind map[string]string
-
-func (u unionFind) find(x string) string {
-	for {
-		p, ok := u[x]
-		if !ok || p == x {
-			return x
-		}
-		if gp, ok := u[p]; ok && gp != p {
-			u[x] = gp
-		}
-		x = p
-	}
-}
-
-func (u unionFind) join(a, b string) {
-	ra, rb := u.find(a), u.find(b)
-	if ra == rb {
-		return
-	}
-	// Keep the smaller name as representative, for stable node names.
-	if rb < ra {
-		ra, rb = rb, ra
-	}
-	u[rb] = ra
-	u[ra] = ra
-}
-
 const groundName = "\x00ground" // sorts first; never a legal net name
 
 // elaborate turns a circuit into primitive elements. Nets with an AC-ground
@@ -135,26 +106,11 @@ func elaborate(c *graph.Circuit, o Options) (*netlist, error) {
 // a port net gives the group its own path to ground and overrides it.
 // Returned sorted.
 func portHeldNets(c *graph.Circuit, nl *netlist) []string {
-	parent := make([]int, len(nl.nodes))
-	for i := range parent {
-		parent[i] = i
-	}
-	find := func(x int) int {
-		for parent[x] != x {
-			parent[x] = parent[parent[x]]
-			x = parent[x]
-		}
-		return x
-	}
+	var sets graph.DisjointSets
+	find := sets.Find
 	join := func(a, b int) {
-		if a < 0 || b < 0 {
-			return
-		}
-		ra, rb := find(a), find(b)
-		if ra < rb {
-			parent[rb] = ra
-		} else if rb < ra {
-			parent[ra] = rb
+		if a >= 0 && b >= 0 { // an element to ground on one side only
+			sets.Union(a, b)
 		}
 	}
 	for _, p := range nl.prims {
@@ -222,15 +178,15 @@ func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
 // held nets with ground, closed switch contacts, zero-ohm resistors, pot
 // ends at a wiper set to 0 or 1, zero inductances, and nets terminated in
 // 0 Ω with ground.
-func joinNets(c *graph.Circuit, o Options, held []string) unionFind {
-	uf := unionFind{}
+func joinNets(c *graph.Circuit, o Options, held []string) *graph.NamedSets {
+	uf := &graph.NamedSets{}
 	for _, n := range c.Nets {
 		if n.Role.IsACGround() {
-			uf.join(groundName, n.Name)
+			uf.Union(groundName, n.Name)
 		}
 	}
 	for _, n := range held {
-		uf.join(groundName, n)
+		uf.Union(groundName, n)
 	}
 	for _, p := range c.Parts {
 		switch p.Kind {
@@ -240,7 +196,7 @@ func joinNets(c *graph.Circuit, o Options, held []string) unionFind {
 				for _, pr := range p.Closes[pos-1] {
 					a, b := p.NetOf(pr[0]), p.NetOf(pr[1])
 					if usable(a) && usable(b) {
-						uf.join(a, b)
+						uf.Union(a, b)
 					}
 				}
 			}
@@ -263,7 +219,7 @@ func joinNets(c *graph.Circuit, o Options, held []string) unionFind {
 	}
 	for net, val := range o.Terminate {
 		if val == 0 {
-			uf.join(groundName, net)
+			uf.Union(groundName, net)
 		}
 	}
 	return uf
@@ -271,24 +227,24 @@ func joinNets(c *graph.Circuit, o Options, held []string) unionFind {
 
 // numberNodes numbers the nodes: the representatives of uf sorted by name,
 // ground first.
-func numberNodes(c *graph.Circuit, uf unionFind) *netlist {
+func numberNodes(c *graph.Circuit, uf *graph.NamedSets) *netlist {
 	nl := &netlist{netNode: map[string]int{}}
 	reps := map[string]bool{}
 	for _, n := range c.Nets {
 		if n.Name == ncNet {
 			continue
 		}
-		reps[uf.find(n.Name)] = true
+		reps[uf.Find(n.Name)] = true
 	}
 	names := make([]string, 0, len(reps))
 	for r := range reps {
-		if r != uf.find(groundName) {
+		if r != uf.Find(groundName) {
 			names = append(names, r)
 		}
 	}
 	sort.Strings(names)
 	nl.nodes = append([]string{"0"}, names...)
-	repNode := map[string]int{uf.find(groundName): 0}
+	repNode := map[string]int{uf.Find(groundName): 0}
 	for i, r := range names {
 		repNode[r] = i + 1
 	}
@@ -296,17 +252,17 @@ func numberNodes(c *graph.Circuit, uf unionFind) *netlist {
 		if n.Name == ncNet {
 			continue
 		}
-		nl.netNode[n.Name] = repNode[uf.find(n.Name)]
+		nl.netNode[n.Name] = repNode[uf.Find(n.Name)]
 	}
 	return nl
 }
 
 func usable(net string) bool { return net != "" && net != ncNet }
 
-func joinPins(uf unionFind, p *graph.Part, a, b string) {
+func joinPins(uf *graph.NamedSets, p *graph.Part, a, b string) {
 	na, nb := p.NetOf(a), p.NetOf(b)
 	if usable(na) && usable(nb) {
-		uf.join(na, nb)
+		uf.Union(na, nb)
 	}
 }
 

@@ -282,27 +282,8 @@ func dedupe(a []int) []int {
 // solution, and naming the nets beats a singular matrix.
 func (s *system) checkFloating(driven int, held []bool) error {
 	nl := s.nl
-	parent := make([]int, len(nl.nodes))
-	for i := range parent {
-		parent[i] = i
-	}
-	find := func(x int) int {
-		for parent[x] != x {
-			parent[x] = parent[parent[x]]
-			x = parent[x]
-		}
-		return x
-	}
-	join := func(a, b int) {
-		ra, rb := find(a), find(b)
-		if ra != rb {
-			if ra < rb {
-				parent[rb] = ra
-			} else {
-				parent[ra] = rb
-			}
-		}
-	}
+	var sets graph.DisjointSets
+	find, join := sets.Find, sets.Union
 	if driven > 0 {
 		join(0, driven)
 	}
