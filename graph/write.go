@@ -122,82 +122,7 @@ func (cw *cwriter) top() {
 func partKV(p *Part) []string {
 	var kv []string
 	add := func(s string) { kv = append(kv, s) }
-	switch p.Kind {
-	case Resistor:
-		add("r = " + quote(fmtNum(p.Value.Max, value.Ohm)))
-	case Capacitor:
-		add("c = " + quote(fmtRange(p.Value, value.Farad)))
-		defType := CapFixed
-		if p.Value.IsSpan() {
-			defType = CapVariable
-		}
-		if p.Type == CapTrimmer {
-			add("set = " + quote(fmtNum(p.Set, value.Farad)))
-		} else if p.Type != defType {
-			add("type = " + quote(p.Type))
-		}
-	case Inductor:
-		switch {
-		case len(p.Windings) == 2:
-			if tap, ok := tapOf(p); ok {
-				add("l = " + quote(fmtNum(p.Value.Max, value.Henry)))
-				add("tap = " + tap)
-				break
-			}
-			add(fmt.Sprintf("l = [%s, %s]", quote(fmtNum(p.Windings[0].L, value.Henry)), quote(fmtNum(p.Windings[1].L, value.Henry))))
-			if k := p.K(p.Windings[0].Name, p.Windings[1].Name); k != 1 {
-				add("k = " + fmtFloat(k))
-			}
-		default:
-			add("l = " + quote(fmtNum(p.Value.Max, value.Henry)))
-		}
-		if p.Type != IndPlain && p.Type != "" {
-			add("type = " + quote(p.Type))
-		}
-		// q is written once: from the device parameters below when the
-		// netlist gave it there, else from the windings (a part built in code).
-		if _, ok := p.Params["q"]; !ok && len(p.Windings) > 0 && p.Windings[0].Q > 0 {
-			add("q = " + fmtFloat(p.Windings[0].Q))
-		}
-	case Transformer:
-		add("windings = " + windingsKV(p))
-		if k := couplingKV(p); k != "" {
-			add("k = " + k)
-		}
-	case Valve:
-		add("valve = " + quote(p.Type))
-	case BJT:
-		add("bjt = " + quote(p.Type))
-	case FET:
-		add("fet = " + quote(p.Type))
-	case Diode:
-		add("diode = " + quote(p.Type))
-	case Crystal:
-		add("xtal = " + quote(fmtNum(p.Value.Max, value.Hertz)))
-	case Pot:
-		add("pot = " + quote(fmtNum(p.Value.Max, value.Ohm)))
-		if p.Set != 0.5 {
-			add("set = " + fmtFloat(p.Set))
-		}
-	case Switch:
-		add(fmt.Sprintf("switch = %d", len(p.Closes)))
-		if p.Set != 1 {
-			add("set = " + fmtFloat(p.Set))
-		}
-		var pos []string
-		for _, prs := range p.Closes {
-			var s []string
-			for _, pr := range prs {
-				s = append(s, pr[0]+"-"+pr[1])
-			}
-			pos = append(pos, strings.Join(s, " "))
-		}
-		add("closes = " + strList(pos))
-	case Port:
-		add("port = " + quote(p.Label))
-	case Generic:
-		add("part = " + quote(p.Label))
-	}
+	kindKV(p, add)
 	add("pins = " + pinsKV(p))
 	if p.Tol != (value.Tolerance{}) {
 		add("tol = " + quote(tolText(p.Tol)))
@@ -224,6 +149,99 @@ func partKV(p *Part) []string {
 		add("note = " + quote(p.Note))
 	}
 	return kv
+}
+
+// kindKV writes the part's kind key with its value and the keys that go
+// with that kind.
+func kindKV(p *Part, add func(string)) {
+	switch p.Kind {
+	case Resistor:
+		add("r = " + quote(fmtNum(p.Value.Max, value.Ohm)))
+	case Capacitor:
+		add("c = " + quote(fmtRange(p.Value, value.Farad)))
+		defType := CapFixed
+		if p.Value.IsSpan() {
+			defType = CapVariable
+		}
+		if p.Type == CapTrimmer {
+			add("set = " + quote(fmtNum(p.Set, value.Farad)))
+		} else if p.Type != defType {
+			add("type = " + quote(p.Type))
+		}
+	case Inductor:
+		inductorKV(p, add)
+	case Transformer:
+		add("windings = " + windingsKV(p))
+		if k := couplingKV(p); k != "" {
+			add("k = " + k)
+		}
+	case Valve:
+		add("valve = " + quote(p.Type))
+	case BJT:
+		add("bjt = " + quote(p.Type))
+	case FET:
+		add("fet = " + quote(p.Type))
+	case Diode:
+		add("diode = " + quote(p.Type))
+	case Crystal:
+		add("xtal = " + quote(fmtNum(p.Value.Max, value.Hertz)))
+	case Pot:
+		add("pot = " + quote(fmtNum(p.Value.Max, value.Ohm)))
+		if p.Set != 0.5 {
+			add("set = " + fmtFloat(p.Set))
+		}
+	case Switch:
+		switchKV(p, add)
+	case Port:
+		add("port = " + quote(p.Label))
+	case Generic:
+		add("part = " + quote(p.Label))
+	}
+}
+
+// inductorKV writes an inductor: one value, a tapped coil, or two windings
+// with their coupling.
+func inductorKV(p *Part, add func(string)) {
+	switch {
+	case len(p.Windings) == 2:
+		if tap, ok := tapOf(p); ok {
+			add("l = " + quote(fmtNum(p.Value.Max, value.Henry)))
+			add("tap = " + tap)
+			break
+		}
+		add(fmt.Sprintf("l = [%s, %s]", quote(fmtNum(p.Windings[0].L, value.Henry)), quote(fmtNum(p.Windings[1].L, value.Henry))))
+		if k := p.K(p.Windings[0].Name, p.Windings[1].Name); k != 1 {
+			add("k = " + fmtFloat(k))
+		}
+	default:
+		add("l = " + quote(fmtNum(p.Value.Max, value.Henry)))
+	}
+	if p.Type != IndPlain && p.Type != "" {
+		add("type = " + quote(p.Type))
+	}
+	// q is written once: with the device parameters (partKV) when the
+	// netlist gave it there, else from the windings (a part built in code).
+	if _, ok := p.Params["q"]; !ok && len(p.Windings) > 0 && p.Windings[0].Q > 0 {
+		add("q = " + fmtFloat(p.Windings[0].Q))
+	}
+}
+
+// switchKV writes a switch: its positions, the one selected, and the pin
+// pairs each position closes.
+func switchKV(p *Part, add func(string)) {
+	add(fmt.Sprintf("switch = %d", len(p.Closes)))
+	if p.Set != 1 {
+		add("set = " + fmtFloat(p.Set))
+	}
+	var pos []string
+	for _, prs := range p.Closes {
+		var s []string
+		for _, pr := range prs {
+			s = append(s, pr[0]+"-"+pr[1])
+		}
+		pos = append(pos, strings.Join(s, " "))
+	}
+	add("closes = " + strList(pos))
 }
 
 // tolText writes a tolerance the way ParseTolerance reads it.
