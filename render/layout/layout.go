@@ -513,17 +513,12 @@ func (ly *state) signalNets(cl *cell) []string {
 // nets over shared signal nets. Pieces the inputs do not reach continue to
 // the right; parts with no signal net sit next to a part sharing a rail.
 func (ly *state) rank() {
-	byNet := map[string][]*cell{}
-	var netNames []string
+	byNet := map[string][]*cell{} // for the ports' sides below
 	for _, cl := range ly.cells {
 		for _, n := range ly.signalNets(cl) {
-			if _, ok := byNet[n]; !ok {
-				netNames = append(netNames, n)
-			}
 			byNet[n] = append(byNet[n], cl)
 		}
 	}
-	sort.Strings(netNames)
 	rank := ly.signalRank()
 	// parts on rails only: beside the lowest-ranked part sharing a non-ground net
 	railNets := map[string][]*cell{}
