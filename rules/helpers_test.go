@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"fmt"
 	"math"
+	"reflect"
 	"sort"
 	"strings"
 	"testing"
@@ -42,8 +43,12 @@ func reduceChecked(t testing.TB, c *graph.Circuit, o Options) (*graph.Circuit, *
 }
 
 // invariants: every pin on an existing net, no duplicate refs, parts and nets
-// sorted, every declared end an existing net.
+// sorted, every declared end an existing net, and the connection index the
+// edits keep equal to one built from scratch.
 func invariants(c *graph.Circuit) error {
+	if err := indexFresh(c); err != nil {
+		return err
+	}
 	nets := map[string]bool{}
 	for i, n := range c.Nets {
 		if nets[n.Name] {
@@ -70,6 +75,27 @@ func invariants(c *graph.Circuit) error {
 	for _, n := range append(append([]string(nil), c.Inputs...), c.Outputs...) {
 		if !nets[n] {
 			return errorf("declared end %s is not a net", n)
+		}
+	}
+	return nil
+}
+
+// indexFresh compares the circuit's kept connection index with a fresh one.
+func indexFresh(c *graph.Circuit) error {
+	fresh := graph.NewIndex(c.Parts, c.Nets)
+	for _, p := range c.Parts {
+		if c.Part(p.Ref) != p {
+			return errorf("index: part %s not found by ref", p.Ref)
+		}
+		for _, pin := range p.Pins {
+			if !reflect.DeepEqual(c.ConnsOf(pin.Net), fresh.Conns(pin.Net)) {
+				return errorf("index: terminals on %s differ from a fresh index", pin.Net)
+			}
+		}
+	}
+	for _, n := range c.Nets {
+		if c.Net(n.Name) != n || !reflect.DeepEqual(c.ConnsOf(n.Name), fresh.Conns(n.Name)) {
+			return errorf("index: net %s differs from a fresh index", n.Name)
 		}
 	}
 	return nil
