@@ -36,7 +36,7 @@ func localPair(before, after *graph.Circuit) (b, a *graph.Circuit, whole, none b
 		return before, after, true, false
 	}
 	seeds := changedNets(before, after)
-	uf := map[string]string{}
+	uf := &graph.NamedSets{} // nets joined through parts, AC ground left out
 	live := func(c *graph.Circuit, net string) bool { return !c.RoleOf(net).IsACGround() }
 	for _, c := range []*graph.Circuit{before, after} {
 		for _, p := range c.Parts {
@@ -47,23 +47,22 @@ func localPair(before, after *graph.Circuit) (b, a *graph.Circuit, whole, none b
 				}
 				if first == "" {
 					first = pin.Net
-					ufFind(uf, first)
 					continue
 				}
-				ufJoin(uf, first, pin.Net)
+				uf.Union(first, pin.Net)
 			}
 		}
 	}
 	touched := map[string]bool{}
 	for _, n := range seeds {
 		if live(before, n) || live(after, n) {
-			touched[ufFind(uf, n)] = true
+			touched[uf.Find(n)] = true
 		}
 	}
 	if len(touched) == 0 {
 		return nil, nil, false, true
 	}
-	in := func(c *graph.Circuit, net string) bool { return live(c, net) && touched[ufFind(uf, net)] }
+	in := func(c *graph.Circuit, net string) bool { return live(c, net) && touched[uf.Find(net)] }
 	b, allB := subCircuit(before, in)
 	a, allA := subCircuit(after, in)
 	if (allB && allA) || !regionsFit(b) || !regionsFit(a) {
@@ -264,26 +263,4 @@ func filterEnds(before, after, b, a *graph.Circuit, in func(*graph.Circuit, stri
 	}
 	b.Inputs, a.Inputs = pick(before.Inputs, after.Inputs)
 	b.Outputs, a.Outputs = pick(before.Outputs, after.Outputs)
-}
-
-func ufFind(uf map[string]string, x string) string {
-	for {
-		p, ok := uf[x]
-		if !ok {
-			uf[x] = x
-			return x
-		}
-		if p == x {
-			return x
-		}
-		uf[x] = uf[p]
-		x = p
-	}
-}
-
-func ufJoin(uf map[string]string, x, y string) {
-	rx, ry := ufFind(uf, x), ufFind(uf, y)
-	if rx != ry {
-		uf[ry] = rx
-	}
 }
