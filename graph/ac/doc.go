@@ -12,7 +12,8 @@
 //     M = k·√(La·Lb) for each coupling (dots at each winding's From pin, so a
 //     tapped coil's halves aid). Loss: Q is read as the coil's Q at the
 //     geometric centre f0 of the band the part works in, a constant series
-//     R = 2π·f0·L/Q (see windings in elaborate.go for why).
+//     R = 2π·f0·L/Q (see windings in elaborate.go for why); the sections of
+//     a tapped winding share the loss of the whole coil (device.WindingLoss).
 //   - Valves, BJTs, FETs, diodes and crystals: the small-signal models of
 //     package graph/device (one model, shared with the reduction's
 //     judgements and the stage figures; its doc lists every default with its

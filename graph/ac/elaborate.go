@@ -6,6 +6,7 @@ import (
 	"sort"
 
 	"pare/graph"
+	"pare/graph/device"
 )
 
 // The small-signal circuit: every part turned into primitive elements on
@@ -270,7 +271,8 @@ func joinPins(uf *graph.NamedSets, p *graph.Part, a, b string) {
 // ties to another become series R–L elements; coupled ones form a group with
 // branch currents. Winding loss: Q is taken as the coil's Q at the centre of
 // the band the part works in (the geometric mean of its region's band edges),
-// giving a constant series resistance R = ω0·L/Q. A constant R is what a
+// giving a constant series resistance R = ω0·L/Q (device.WindingLoss; the
+// sections of a tapped winding share the loss of the whole coil). A constant R is what a
 // simulator deck can carry, so pare and the exported deck solve the same
 // circuit; over a tuning band the real Q of a coil is roughly flat, so a
 // constant R errs by the band's frequency ratio at worst, on the side of less
@@ -285,10 +287,10 @@ func (nl *netlist) windings(c *graph.Circuit, p *graph.Part, node func(string) i
 		}
 		return
 	}
-	w0 := 2 * math.Pi * bandCentre(c, p)
+	loss := device.WindingLoss(p, 2*math.Pi*bandCentre(c, p))
 	var ws []winding
 	index := map[string]int{}
-	for _, w := range p.Windings {
+	for wi, w := range p.Windings {
 		if w.L <= 0 {
 			errs.Add(p.Pos, "%s %s: winding %s has no inductance", p.Kind, p.Ref, w.Name)
 			continue
@@ -297,12 +299,8 @@ func (nl *netlist) windings(c *graph.Circuit, p *graph.Part, node func(string) i
 		if a < 0 || b < 0 {
 			continue // an open winding carries no current and so couples nothing
 		}
-		r := 0.0
-		if w.Q > 0 {
-			r = w0 * w.L / w.Q
-		}
 		index[w.Name] = len(ws)
-		ws = append(ws, winding{name: w.Name, a: a, b: b, r: r, l: w.L})
+		ws = append(ws, winding{name: w.Name, a: a, b: b, r: loss[wi], l: w.L})
 	}
 	coupled := make([]bool, len(ws))
 	var muts []mutual

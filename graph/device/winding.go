@@ -1,0 +1,43 @@
+package device
+
+import (
+	"math"
+
+	"pare/graph"
+)
+
+// WindingLoss gives the series loss resistance of each of p's windings (in
+// p.Windings order) for a coil whose q is its unloaded Q at angular
+// frequency w0: R = w0·L/Q for a whole winding.
+//
+// The sections of a tapped winding (two windings that share a pin: 1–t and
+// t–2, or NAME1–NAMEt and NAMEt–NAME2) are one coil, and q is the Q of that
+// whole coil, end to end: its loss is w0·Lwhole/Q, with Lwhole = La + Lb +
+// 2k·√(La·Lb), shared between the sections in proportion to their turns
+// (√L, the length of wire in each). Giving each section w0·Lsection/Q
+// instead would leave out the mutual inductance and overstate Q: a
+// centre-tapped coil would run at twice the Q asked for. The whole coil
+// then has exactly the Q asked for, and a section used alone has the loss
+// of its share of the wire (docs/devices.md, docs/references.md §16).
+func WindingLoss(p *graph.Part, w0 float64) []float64 {
+	r := make([]float64, len(p.Windings))
+	for i, w := range p.Windings {
+		if w.Q > 0 && w.L > 0 {
+			r[i] = w0 * w.L / w.Q
+		}
+	}
+	for i := range p.Windings {
+		for j := range p.Windings {
+			a, b := p.Windings[i], p.Windings[j]
+			if i == j || a.To != b.From || a.Q <= 0 || a.Q != b.Q || a.L <= 0 || b.L <= 0 {
+				continue
+			}
+			k := p.K(a.Name, b.Name)
+			sa, sb := math.Sqrt(a.L), math.Sqrt(b.L)
+			whole := a.L + b.L + 2*k*sa*sb
+			loss := w0 * whole / a.Q
+			r[i], r[j] = loss*sa/(sa+sb), loss*sb/(sa+sb)
+		}
+	}
+	return r
+}
