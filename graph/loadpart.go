@@ -111,6 +111,24 @@ func (ld *loader) part(path, ref string, v any) {
 	ld.c.Parts = append(ld.c.Parts, p)
 }
 
+// valveParams refuses the parameters that do not fit the valve's type: a
+// valve diode has an rd (or is off), a valve with a control grid a gm, ra
+// and µ.
+func (ld *loader) valveParams(path string, p *Part, m map[string]any) {
+	diode := p.Type == "diode" || p.Type == "double-diode"
+	for _, k := range []string{"gm", "ra", "mu", "rd", "off"} {
+		if _, ok := m[k]; !ok {
+			continue
+		}
+		switch isDiodeKey := k == "rd" || k == "off"; {
+		case diode && !isDiodeKey:
+			ld.errKey(path+"."+k, "%s applies to a valve with a control grid; a valve diode takes rd or off = 1", k)
+		case !diode && isDiodeKey:
+			ld.errKey(path+"."+k, "%s applies to a valve diode (valve = \"diode\" or \"double-diode\"); a %s takes gm, ra, mu", k, p.Type)
+		}
+	}
+}
+
 func paramUnit(name string) value.Unit {
 	switch name {
 	case "gm":
@@ -177,6 +195,7 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 		ld.transformer(path, p, m)
 	case Valve:
 		p.Type = ld.deviceType(kp, m[key], "valve", ValveTypes())
+		ld.valveParams(path, p, m)
 	case BJT:
 		p.Type = ld.deviceType(kp, m[key], "bjt", BJTTypes)
 	case FET:

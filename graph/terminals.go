@@ -177,7 +177,7 @@ func (p *Part) IsActive() bool {
 // Device parameters a part may carry, by kind, with the unit each is read in.
 // The AC models document their defaults.
 var paramNames = map[Kind][]string{
-	Valve:       {"gm", "ra", "mu"},
+	Valve:       {"gm", "ra", "mu", "rd", "off"}, // rd and off: a valve diode's (loadpart.go checks which)
 	BJT:         {"beta", "ic", "gm", "ro", "rpi"},
 	FET:         {"gm", "rd"},
 	Diode:       {"rd", "off"},

@@ -108,7 +108,7 @@ func diodeBranch(p *graph.Part, pin string) branch {
 	if off, ok := p.Param("off"); ok && off != 0 {
 		return branch{math.Inf(1), ""}
 	}
-	rd, assumed := device.DiodeRd(p)
+	rd, assumed := device.DiodeRd(p, 0) // the detector default is never the judgement's: it counts an rd-less diode open
 	if assumed {
 		return branch{math.Inf(1), p.Ref + " counted open (no rd given)"}
 	}

@@ -163,7 +163,7 @@ func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
 		return nil, fmt.Errorf("gang setting %g: give a fraction of the travel from 0 to 1", frac)
 	}
 	nl := numberNodes(c, joinNets(c, o, held))
-	st := &stamper{nl: nl, frac: frac}
+	st := &stamper{nl: nl, c: c, frac: frac}
 	for _, p := range c.Parts {
 		st.part(c, p)
 	}

@@ -13,8 +13,10 @@ import (
 // collecting the errors of parts that have no model.
 type stamper struct {
 	nl   *netlist
+	c    *graph.Circuit
 	frac float64 // gang setting
 	errs graph.ErrorList
+	dc   *dcNet // the DC view for detector loads, built at the first diode
 }
 
 // node is the node of a net, -1 for an unconnected terminal.
@@ -98,14 +100,9 @@ func (st *stamper) device(p *graph.Part) {
 	case graph.Valve:
 		switch p.Type {
 		case "diode":
-			if rd, _ := device.DiodeRd(p); rd > 0 {
-				st.two(primR, p, "", "a", "k", rd)
-			}
+			st.diode(p, "", []string{"a"}, "k")
 		case "double-diode":
-			if rd, _ := device.DiodeRd(p); rd > 0 {
-				st.two(primR, p, "a1", "a1", "k", rd)
-				st.two(primR, p, "a2", "a2", "k", rd)
-			}
+			st.diode(p, "a", []string{"a1", "a2"}, "k")
 		default:
 			s, err := device.Of(p)
 			if err != nil {
@@ -133,9 +130,7 @@ func (st *stamper) device(p *graph.Part) {
 		st.two(primR, p, "rd", "d", "s", s.ROut)
 		st.vccs(p, "d", "s", "g", s.Gm)
 	case graph.Diode:
-		if rd, _ := device.DiodeRd(p); rd > 0 {
-			st.two(primR, p, "", "a", "k", rd)
-		}
+		st.diode(p, "", []string{"a"}, "k")
 	case graph.Crystal:
 		rm, lm, cm, c0, err := device.Crystal(p)
 		if err != nil {
@@ -148,6 +143,37 @@ func (st *stamper) device(p *graph.Part) {
 			if c0 > 0 {
 				st.two(primC, p, "c0", "1", "2", c0)
 			}
+		}
+	}
+}
+
+// diode stamps each section of a diode, anode to cathode, with its rd from
+// graph/device. A section's DC load (detector.go) is shared by the sections
+// whose anodes are on the same net: each carries that many times the load,
+// so together they take the detector's input resistance once. sub prefixes
+// the anode's name in the element's piece name ("" for a lone section,
+// whose piece is "").
+func (st *stamper) diode(p *graph.Part, sub string, anodes []string, cathode string) {
+	for _, a := range anodes {
+		load := math.Inf(1)
+		if _, own := p.Param("rd"); !own && p.Type != "varicap" {
+			if st.dc == nil {
+				st.dc = newDCNet(st.c)
+			}
+			shared := 0
+			for _, b := range anodes {
+				if p.NetOf(b) == p.NetOf(a) {
+					shared++
+				}
+			}
+			load = float64(shared) * st.dc.load(p.NetOf(a), p.NetOf(cathode))
+		}
+		piece := ""
+		if sub != "" {
+			piece = a
+		}
+		if rd, _ := device.DiodeRd(p, load); rd > 0 {
+			st.two(primR, p, piece, a, cathode, rd)
 		}
 	}
 }

@@ -41,6 +41,7 @@ var Defaults = []Default{
 	{"bjt", "va", 100, "V", "Early voltage for ro = VA/Ic, typical, from memory"},
 	{"fet", "gm", 4e-3, "S", "typical small-signal JFET, from memory"},
 	{"fet", "rd", 50e3, "Ω", "typical small-signal JFET, from memory"},
+	{"detector", "rin/rl", 0.5, "", "a peak detector's input resistance is half its DC load: common practice, derived from the power balance (efficiency 1)"},
 	{"diode", "id", 1e-3, "A", "conducting at 1 mA: rd = VT/Id = 25.85 Ω (Shockley, ideality 1)"},
 	{"crystal", "c0", 5e-12, "F", "typical HC-6 holder capacitance, from memory"},
 	{"crystal", "cm", 20e-15, "F", "c0/cm = 250, typical, from memory"},

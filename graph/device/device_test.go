@@ -160,18 +160,25 @@ func TestGivenOnly(t *testing.T) {
 func TestDiodeRd(t *testing.T) {
 	cases := []struct {
 		p       *graph.Part
+		load    float64 // DC load per section, 0: none
 		rd      float64
 		assumed bool
 		why     string
 	}{
-		{part(graph.Diode, "signal", nil), 25.8520, true, "VT/1 mA (Shockley, ideality 1; docs/references.md §5 VT)"},
-		{part(graph.Diode, "signal", map[string]float64{"rd": 100}), 100, false, "given"},
-		{part(graph.Diode, "signal", map[string]float64{"off": 1, "rd": 100}), 0, false, "off = 1 opens it"},
-		{part(graph.Diode, "varicap", nil), 0, true, "a varicap is reverse biased"},
-		{part(graph.Valve, "double-diode", nil), 1e3, true, "valve diode default 1 kΩ (from memory)"},
+		{part(graph.Diode, "signal", nil), 0, 25.8520, true, "VT/1 mA (Shockley, ideality 1; docs/references.md §5 VT)"},
+		{part(graph.Diode, "signal", nil), math.Inf(1), 25.8520, true, "no DC load: VT/1 mA"},
+		{part(graph.Diode, "signal", map[string]float64{"rd": 100}), 470e3, 100, false, "given wins over the detector default"},
+		{part(graph.Diode, "signal", map[string]float64{"off": 1, "rd": 100}), 0, 0, false, "off = 1 opens it"},
+		{part(graph.Diode, "varicap", nil), 470e3, 0, true, "a varicap is reverse biased"},
+		{part(graph.Valve, "double-diode", nil), 0, 1e3, true, "valve diode default 1 kΩ (from memory)"},
+		{part(graph.Valve, "double-diode", nil), 470e3, 235e3, true, "detector into 470 kΩ: Rin = RL/2 (common practice, docs/references.md §17)"},
+		{part(graph.Diode, "signal", nil), 100e3, 50e3, true, "detector into 100 kΩ: Rin = RL/2 (common practice, docs/references.md §17)"},
+		{part(graph.Diode, "rectifier", nil), 100e3, 25.8520, true, "a rectifier is no detector: VT/1 mA"},
+		{part(graph.Valve, "diode", map[string]float64{"rd": 5e3}), 470e3, 5e3, false, "a valve diode's own rd"},
+		{part(graph.Valve, "diode", map[string]float64{"off": 1}), 470e3, 0, false, "a valve diode off"},
 	}
 	for _, tc := range cases {
-		rd, a := DiodeRd(tc.p)
+		rd, a := DiodeRd(tc.p, tc.load)
 		if !(rd == tc.rd || near(rd, tc.rd, 1e-5)) || a != tc.assumed {
 			t.Errorf("%s %v: rd %g assumed %v, want %g %v (%s)", tc.p.Type, tc.p.Params, rd, a, tc.rd, tc.assumed, tc.why)
 		}

@@ -11,13 +11,15 @@
 //   - Valves: a current gm·v(g1, k) from anode to cathode and ra across
 //     them; µ = gm·ra, any two of gm, ra, mu give the third, all three given
 //     must agree within 2 %; one alone is completed with the class's ra (gm
-//     when only ra is given). Valve diodes: a resistance rd.
+//     when only ra is given). Valve diodes: a resistance rd per section.
 //   - BJTs, npn and pnp alike: hybrid-π, gm = Ic/VT with VT = kT/q at 300 K
 //     (25.8520 mV, SI 2019 exact constants), rπ = β/gm, ro = VA/Ic
 //     (Ebers–Moll in forward activity, linearised; any transistor text);
 //     gm, rpi and ro given on the part win.
 //   - FETs: gm·v(g, s) from drain to source and rd across them.
-//   - Diodes: rd given, else VT/Id (Shockley, ideality 1); off = 1 opens
+//   - Diodes: rd given, else, for a signal diode with a DC load RL, a peak
+//     detector of input resistance RL/2 (DetectorRd), else VT/Id
+//     (Shockley, ideality 1) or the valve diode default; off = 1 opens
 //     them; a varicap without rd is open.
 //   - Crystals: motional Rm–Lm–Cm with the holder capacitance C0 across it.
 //
@@ -44,6 +46,7 @@
 //	bjt                      va      100 V     Early voltage, ro = VA/Ic, typical, from memory
 //	fet                      gm      4 mA/V    typical small-signal JFET, from memory
 //	fet                      rd      50 kΩ     typical small-signal JFET, from memory
+//	detector                 rin/rl  0.5       peak detector: Rin = RL/2, common practice (power balance)
 //	diode                    id      1 mA      rd = VT/Id = 25.85 Ω (Shockley, ideality 1)
 //	crystal                  c0      5 pF      typical HC-6 holder capacitance, from memory
 //	crystal                  cm      20 fF     c0/cm = 250, typical, from memory

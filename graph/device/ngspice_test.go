@@ -202,7 +202,7 @@ func TestDiodeAgainstNgspice(t *testing.T) {
 	// 1 mA through a junction diode of ideality 1: its resistance is the
 	// default rd = VT/1 mA (Shockley).
 	_, z := spiceZ(t, "ID 0 a DC 1m\nD1 a 0 dn\n.model dn d(IS=1e-14 N=1)", "a", nil)
-	rd, _ := DiodeRd(part(graph.Diode, "signal", nil))
+	rd, _ := DiodeRd(part(graph.Diode, "signal", nil), 0)
 	// ngspice's own constants (CODATA 2014 k and q) and GMIN across the
 	// junction move the last digits only.
 	checkNear(t, "rd = VT/Id", rd, real(z), 2e-5, "Shockley, ideality 1, 300 K")

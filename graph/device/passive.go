@@ -8,27 +8,44 @@ import (
 )
 
 // DiodeRd is the small-signal resistance of a conducting diode (a
-// semiconductor diode, or a valve diode's section): the part's rd, else the
-// default, VT/Id at the "diode" bias for a semiconductor diode (Shockley,
-// ideality 1) and the "valve diode" rd for a valve. It is 0 when the diode
-// is off (off = 1), and for a varicap without rd: a varicap is reverse
-// biased, and its capacitance is not in the netlist format. assumed says
-// the value is a default, not the part's own.
-func DiodeRd(p *graph.Part) (rd float64, assumed bool) {
+// semiconductor diode, or a valve diode's section): the part's rd, else a
+// default. It is 0 when the diode is off (off = 1), and for a varicap
+// without rd: a varicap is reverse biased, and its capacitance is not in the
+// netlist format. assumed says the value is a default, not the part's own.
+//
+// The default: a signal diode (a valve diode, or a semiconductor diode that
+// is not a rectifier or a zener) with a DC load is a peak detector, and
+// load is that DC load per section (the resistance its current returns
+// through, times the number of sections that share it); its rd is the
+// detector's input resistance, DetectorRd(load). Any other diode, or one
+// with no DC load (load 0 or infinite), conducts at the class bias: VT/Id
+// for a semiconductor diode (Shockley, ideality 1), the "valve diode" rd
+// for a valve.
+func DiodeRd(p *graph.Part, load float64) (rd float64, assumed bool) {
 	if off, ok := p.Param("off"); ok && off != 0 {
 		return 0, false
 	}
 	if rd, ok := p.Param("rd"); ok {
 		return rd, false
 	}
-	switch {
-	case p.Kind == graph.Valve:
-		return def("valve diode", "rd"), true
-	case p.Type == "varicap":
+	if p.Type == "varicap" {
 		return 0, true
+	}
+	if load > 0 && !math.IsInf(load, 0) && p.Type != "rectifier" && p.Type != "zener" {
+		return DetectorRd(load), true
+	}
+	if p.Kind == graph.Valve {
+		return def("valve diode", "rd"), true
 	}
 	return VT / def("diode", "id"), true
 }
+
+// DetectorRd is the input resistance of a peak (envelope) detector into a
+// DC load RL: RL/2. A detector of efficiency near 1 turns a carrier of peak
+// Vp into Vp of DC, so the power it takes, Vp²/(2·Rin), is the power in its
+// load, Vp²/RL (common practice; derived from that power balance; checked
+// against ngspice's diode in a detector, docs/references.md §17).
+func DetectorRd(load float64) float64 { return def("detector", "rin/rl") * load }
 
 // Crystal gives the motional arm Rm, Lm, Cm and the holder capacitance C0
 // of a crystal at series frequency fs (the four-element equivalent). Lm or
