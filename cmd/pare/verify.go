@@ -293,8 +293,8 @@ func printVerify(w io.Writer, path string, lvl rules.Level, rep *ac.Report, refu
 		fmt.Fprintf(w, "FAILED: %d of %d pair(s) out of tolerance\n", bad, len(rep.Pairs))
 	case len(refused) > 0:
 		fmt.Fprintln(w, "FAILED: the unchecked reduction breaks the tolerance (see the refused steps)")
-	case len(rep.Pairs) == 0:
-		fmt.Fprintln(w, "nothing compared")
+	case rep.Empty():
+		fmt.Fprintln(w, "FAILED: "+ac.NothingComparable)
 	default:
 		fmt.Fprintf(w, "ok: all %d pair(s) within tolerance\n", len(rep.Pairs))
 	}

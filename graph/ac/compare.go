@@ -80,7 +80,19 @@ type Report struct {
 	TolDeg float64  `json:"tolerance_deg"`
 	OK     bool     `json:"ok"`
 	Notes  []string `json:"notes,omitempty"` // what could not be compared, and why
+	// Characteristic counts the transfers and tank impedances compared:
+	// the quantities that say what the circuit does. With none of them the
+	// proof is empty (an output impedance alone proves nothing about the
+	// frequency-setting parts), and OK is false.
+	Characteristic int `json:"characteristic"`
 }
+
+// Empty reports a comparison that compared no transfer and no tank: not a
+// pass, however small the deviations of what it did compare.
+func (r *Report) Empty() bool { return r.Characteristic == 0 }
+
+// NothingComparable is the text for an empty comparison.
+const NothingComparable = "nothing comparable: no transfer and no tank impedance could be compared (declare an input and an output, or a region with both)"
 
 // Worst returns the pair furthest outside (or nearest to) the tolerance.
 func (r *Report) Worst() (Pair, bool) {
@@ -137,7 +149,12 @@ func (o CompareOptions) Check(before, after *graph.Circuit) error {
 	if r.OK {
 		return nil
 	}
-	w, _ := r.Worst()
+	w, ok := r.Worst()
+	if !ok || w.Within(r.TolDB, r.TolDeg) {
+		// An empty comparison refuses no step: nothing it compared broke
+		// the tolerance. The final comparison says nothing was proven.
+		return nil
+	}
 	return &ToleranceError{Pair: w, TolDB: r.TolDB, TolDeg: r.TolDeg}
 }
 
@@ -164,6 +181,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	qs = withoutHeldPorts(orig, qs, o.Options, rep)
 	if len(qs) == 0 {
 		rep.Notes = append(rep.Notes, "the circuit declares no inputs, outputs or ports: nothing to compare")
+		rep.OK = false
 		return rep, nil
 	}
 	settings := []setting{{label: ""}}
@@ -220,7 +238,14 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 		if !worst.Within(o.TolDB, o.TolDeg) {
 			rep.OK = false
 		}
+		if q.what == "transfer" || q.tank {
+			rep.Characteristic++
+		}
 		rep.Pairs = append(rep.Pairs, worst)
+	}
+	if rep.Empty() {
+		rep.OK = false
+		rep.Notes = append(rep.Notes, NothingComparable)
 	}
 	sort.Strings(rep.Notes)
 	return rep, nil

@@ -156,3 +156,40 @@ func TestDetectorLoadsItsTank(t *testing.T) {
 		}
 	}
 }
+
+// TestNeverAnEmptyPass: a circuit with no declared input is compared by
+// its tanks and its amplifying parts' transfers; where there are none the
+// comparison is not a pass, whatever the output impedance did. Comparing a
+// circuit with itself gives 0 dB (identity), so the count alone decides.
+func TestNeverAnEmptyPass(t *testing.T) {
+	cases := []struct {
+		file   string
+		ok     bool
+		labels []string // the characteristic quantities expected
+	}{
+		{"oscillator-only.toml", true, []string{"Z(tank)", "Z(tap)", "V(e)/V(b)"}},
+		{"nothing-comparable.toml", false, nil},
+	}
+	for _, tc := range cases {
+		c := load(t, filepath.Join("testdata/models", tc.file))
+		rep, err := Compare(c, c, CompareOptions{})
+		if err != nil {
+			t.Fatalf("%s: %v", tc.file, err)
+		}
+		if rep.OK != tc.ok || rep.Empty() == tc.ok || rep.Characteristic != len(tc.labels) {
+			t.Errorf("%s: OK %v, %d characteristic quantities, want OK %v and %d", tc.file, rep.OK, rep.Characteristic, tc.ok, len(tc.labels))
+		}
+		got := map[string]bool{}
+		for _, p := range rep.Pairs {
+			got[p.Label()] = true
+		}
+		for _, l := range tc.labels {
+			if !got[l] {
+				t.Errorf("%s: %s not compared (pairs %v)", tc.file, l, rep.Pairs)
+			}
+		}
+		if !tc.ok && !contains(rep.Notes, NothingComparable) {
+			t.Errorf("%s: notes %q lack %q", tc.file, rep.Notes, NothingComparable)
+		}
+	}
+}

@@ -14,6 +14,7 @@ import (
 // quantity is one thing to compare: a transfer from→to, or an impedance at from.
 type quantity struct {
 	what     string
+	tank     bool   // an impedance at a tank net (characterise.go)
 	from, to string // names in the original
 	rFrom    string // names in the reduced circuit
 	rTo      string
@@ -27,6 +28,7 @@ func quantities(orig, reduced *graph.Circuit, rep *Report) []quantity {
 	ql.inputTransfers()
 	ql.regionTransfers()
 	ql.portImpedances()
+	ql.characterise()
 	sort.Strings(rep.Notes)
 	rep.Notes = dedupeStrings(rep.Notes)
 	return ql.qs

@@ -78,6 +78,7 @@ func VerifyOf(rep *ac.Report, err error, o ac.CompareOptions) Verify {
 		v.TolDeg = rep.TolDeg
 	}
 	v.OK = rep.OK
+	v.Empty = rep.Empty()
 	v.Notes = rep.Notes
 	for _, p := range rep.Pairs {
 		v.Pairs = append(v.Pairs, Pair{From: p.From, To: p.To, What: p.What, MaxDB: p.MaxDB, MaxDeg: p.MaxDeg,

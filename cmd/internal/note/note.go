@@ -94,6 +94,9 @@ type Verify struct {
 	TolDeg  float64
 	Pairs   []Pair
 	Notes   []string // what could not be compared, and why
+	// Empty: no transfer and no tank impedance was compared, so nothing
+	// was proven (never a pass).
+	Empty bool
 }
 
 type Pair struct {
@@ -185,6 +188,8 @@ func writeVerdict(b *bytes.Buffer, n *Note) {
 	switch {
 	case v.Skipped != "":
 		fmt.Fprintf(b, "**Verification was not run** (%s): the reduced sheet has not been checked against the original by AC analysis.\n\n", mdText(v.Skipped))
+	case v.Empty && v.Err == "":
+		b.WriteString("**Verification proved nothing**: nothing comparable, no transfer and no tank impedance could be compared, so the reduced sheet is unproven. Declare an input and an output (or a region with both) and run again; until then use the faded sheet.\n\n")
 	case v.Err != "":
 		b.WriteString("**Verification FAILED**: the AC comparison could not be completed, so the reduced sheet is unproven. Use the faded sheet, not the reduced one, until this is resolved (see Verification below).\n\n")
 	case v.Failed():
@@ -384,7 +389,10 @@ func writeVerify(b *bytes.Buffer, n *Note) {
 		return
 	}
 	verdict := "**Passed**"
-	if !v.OK {
+	switch {
+	case v.Empty:
+		verdict = "**Nothing comparable** (no transfer and no tank impedance; not a pass)"
+	case !v.OK:
 		verdict = "**Failed**"
 	}
 	fmt.Fprintf(b, "%s against a tolerance of %s dB and %s°: the original and the reduced circuit were swept by small-signal AC analysis over each pair's band, and the worst deviation is listed.\n\n",

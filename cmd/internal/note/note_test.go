@@ -120,6 +120,10 @@ func TestNoteVerification(t *testing.T) {
 				"| 0.1 | 1 | 1 kHz | – | ok |", "| – | – | – | – | **not solved**: singular matrix |", "- port p3 has no ground return"}, true},
 		{"could not run", Verify{Err: "net aerial: singular matrix", TolDB: 0.5, TolDeg: 5},
 			[]string{"**Verification FAILED**: the AC comparison could not be completed", "could not be completed: net aerial: singular matrix."}, true},
+		// An oscillator's output impedance behind a buffer, alone, was once
+		// reported as a pass: a proof with no transfer or tank in it is none.
+		{"nothing comparable", Verify{OK: false, Empty: true, TolDB: 0.5, TolDeg: 5, Pairs: []Pair{{From: "out", To: "out", What: "impedance", AtHz: 1e6}}},
+			[]string{"**Verification proved nothing**: nothing comparable", "**Nothing comparable** (no transfer and no tank impedance; not a pass)"}, true},
 		{"skipped", Verify{Skipped: "--no-verify"},
 			[]string{"**Verification was not run** (--no-verify)", "Not run (--no-verify)."}, false},
 	}
@@ -132,6 +136,9 @@ func TestNoteVerification(t *testing.T) {
 				if !strings.Contains(md, w) {
 					t.Errorf("note lacks %q\n%s", w, md[strings.Index(md, "## Verification"):])
 				}
+			}
+			if tt.verify.Empty && (strings.Contains(md, "Verification passed") || strings.Contains(md, "**Passed**")) {
+				t.Errorf("an empty comparison is reported as a pass")
 			}
 			if got := tt.verify.Failed(); got != tt.failed {
 				t.Errorf("failed() = %v, want %v", got, tt.failed)
