@@ -91,6 +91,14 @@ type Report struct {
 // pass, however small the deviations of what it did compare.
 func (r *Report) Empty() bool { return r.Characteristic == 0 }
 
+// Broken reports whether a compared pair is outside the tolerance (or could
+// not be solved): what refuses a rewrite step. An empty comparison breaks
+// nothing; only the final verdict calls it unproven.
+func (r *Report) Broken() bool {
+	w, ok := r.Worst()
+	return ok && !w.Within(r.TolDB, r.TolDeg)
+}
+
 // NothingComparable is the text for an empty comparison.
 const NothingComparable = "nothing comparable: no transfer and no tank impedance could be compared (declare an input and an output, or a region with both)"
 
@@ -146,15 +154,10 @@ func (o CompareOptions) Check(before, after *graph.Circuit) error {
 	if err != nil {
 		return err
 	}
-	if r.OK {
-		return nil
+	if !r.Broken() {
+		return nil // an empty comparison refuses no step (Broken)
 	}
-	w, ok := r.Worst()
-	if !ok || w.Within(r.TolDB, r.TolDeg) {
-		// An empty comparison refuses no step: nothing it compared broke
-		// the tolerance. The final comparison says nothing was proven.
-		return nil
-	}
+	w, _ := r.Worst()
 	return &ToleranceError{Pair: w, TolDB: r.TolDB, TolDeg: r.TolDeg}
 }
 

@@ -44,14 +44,14 @@ func (r *Result) stepChecker(mode StepCheck, whole bool) func(before, after *gra
 		}
 		w, has := rep.Worst()
 		if mode == AgainstOriginal {
-			ck := Step{Rule: st.Rule, Refs: st.Refs, OK: rep.OK}
+			ck := Step{Rule: st.Rule, Refs: st.Refs, OK: !rep.Broken()}
 			if has {
 				ck.Worst = &w
 			}
 			r.Steps = append(r.Steps, ck)
 		}
-		if rep.OK {
-			return nil
+		if !rep.Broken() {
+			return nil // a step is refused for what it broke, not for an empty comparison
 		}
 		return &ac.ToleranceError{Pair: w, TolDB: rep.TolDB, TolDeg: rep.TolDeg}
 	}
