@@ -20,7 +20,7 @@ import (
 // the load. A reduction keeps these nets (rail-ground only states their
 // role), so a detector's load is the same before and after it.
 type dcNet struct {
-	uf      unionFind
+	uf      *graph.NamedSets
 	node    map[string]int // representative net -> unknown; -1 the return
 	n       int
 	entries []Entry
@@ -35,10 +35,10 @@ const (
 )
 
 func newDCNet(c *graph.Circuit) *dcNet {
-	uf := unionFind{}
+	uf := &graph.NamedSets{}
 	for _, n := range c.Nets {
 		if n.Role.IsACGround() {
-			uf.join(groundName, n.Name)
+			uf.Union(groundName, n.Name)
 		}
 	}
 	var rs []struct {
@@ -51,7 +51,7 @@ func newDCNet(c *graph.Circuit) *dcNet {
 			return
 		}
 		if r == 0 {
-			uf.join(a, b)
+			uf.Union(a, b)
 			return
 		}
 		rs = append(rs, struct {
@@ -82,9 +82,9 @@ func newDCNet(c *graph.Circuit) *dcNet {
 		}
 	}
 	d := &dcNet{uf: uf, node: map[string]int{}}
-	ground := uf.find(groundName)
+	ground := uf.Find(groundName)
 	id := func(net string) int {
-		r := uf.find(net)
+		r := uf.Find(net)
 		if r == ground {
 			return -1
 		}
@@ -128,8 +128,8 @@ func (d *dcNet) load(a, b string) float64 {
 	if !usable(a) || !usable(b) {
 		return math.Inf(1)
 	}
-	na, oka := d.node[d.uf.find(a)]
-	nb, okb := d.node[d.uf.find(b)]
+	na, oka := d.node[d.uf.Find(a)]
+	nb, okb := d.node[d.uf.Find(b)]
 	if !oka || !okb {
 		return math.Inf(1)
 	}
