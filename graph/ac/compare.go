@@ -195,47 +195,19 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 			settings = []setting{{"min", 0}, {"mid", 0.5}, {"max", 1}}
 		}
 	}
-	marks := append(landmarks(orig), landmarks(reduced)...)
+	cp := &comparer{o: o, settings: settings, marks: append(landmarks(orig), landmarks(reduced)...),
+		circuits: [2]*graph.Circuit{orig, reduced}, models: map[modelKey]*modelOrErr{}}
+	var silent []string
 	for _, q := range qs {
-		worst := Pair{From: q.from, To: q.to, What: q.what}
-		bestScore := -1.0
-		skip := false
-		for _, st := range settings {
-			opt := o.Options
-			opt.VarFrac, opt.VarSet = st.frac, true
-			po, err := newProbe(orig, q.what, q.from, q.to, opt)
-			var fe *FloatingError
-			if err != nil && q.what == "impedance" && errors.As(err, &fe) && contains(fe.Nets, q.from) {
-				// Nothing loads the net (an input into a grid alone): its
-				// impedance is unbounded in the model and there is nothing to compare.
-				skip = true
-				break
-			}
-			if err != nil {
-				return nil, fmt.Errorf("original circuit: %s: %w", worst.Label(), err)
-			}
-			pr, err := newProbe(reduced, q.what, q.rFrom, q.rTo, opt)
-			if err != nil {
-				worst.Error = "reduced circuit cannot be solved: " + err.Error()
-				worst.Setting = st.label
-				break
-			}
-			p, err := sweepPair(po, pr, q.bands, o.Points, o.TolDB, o.TolDeg, marks)
-			if err != nil {
-				if p.origFailed {
-					return nil, fmt.Errorf("original circuit: %s: %w", worst.Label(), err)
-				}
-				worst.Error = "reduced circuit cannot be solved: " + err.Error()
-				worst.Setting = st.label
-				break
-			}
-			p.From, p.To, p.What, p.Setting = q.from, q.to, q.what, st.label
-			if s := p.score(o.TolDB, o.TolDeg); s > bestScore {
-				bestScore, worst = s, p.Pair
-			}
-		}
-		if skip {
+		worst, out, err := cp.quantity(q)
+		switch {
+		case err != nil:
+			return nil, err
+		case out == outOpen:
 			rep.Notes = append(rep.Notes, fmt.Sprintf("%s is not compared: nothing in the small-signal model loads %s (an open input)", worst.Label(), q.from))
+			continue
+		case out == outSilent:
+			silent = append(silent, worst.Label())
 			continue
 		}
 		if !worst.Within(o.TolDB, o.TolDeg) {
@@ -246,12 +218,119 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 		}
 		rep.Pairs = append(rep.Pairs, worst)
 	}
+	if len(silent) > 0 {
+		rep.Notes = append(rep.Notes, silentNote(silent))
+	}
 	if rep.Empty() {
 		rep.OK = false
 		rep.Notes = append(rep.Notes, NothingComparable)
 	}
 	sort.Strings(rep.Notes)
 	return rep, nil
+}
+
+// silentNote counts the transfers left out because no net that is not AC
+// ground leads from the input to the output in either circuit: both are
+// zero by the circuits' structure, at every frequency and setting.
+func silentNote(labels []string) string {
+	const show = 4
+	list := strings.Join(labels[:min(show, len(labels))], ", ")
+	if len(labels) > show {
+		list += fmt.Sprintf(" and %d more", len(labels)-show)
+	}
+	return fmt.Sprintf("%d transfer(s) not compared: no net other than AC ground or a held input joins the input to the output in either circuit, so both are zero (%s)", len(labels), list)
+}
+
+// outcome says what became of one quantity.
+type outcome int
+
+const (
+	outCompared outcome = iota
+	outOpen             // an impedance at a net nothing loads
+	outSilent           // a transfer zero by structure in both circuits
+)
+
+type modelKey struct{ circuit, setting int }
+
+type modelOrErr struct {
+	m   *model
+	err error
+}
+
+// comparer holds what every quantity of one comparison shares: the gang
+// settings, the landmark frequencies and each circuit elaborated once per
+// setting.
+type comparer struct {
+	o        CompareOptions
+	settings []setting
+	marks    []float64
+	circuits [2]*graph.Circuit
+	models   map[modelKey]*modelOrErr
+}
+
+// probe builds the probe of a quantity in circuit ci (0 original, 1 reduced)
+// at setting si.
+func (cp *comparer) probe(ci, si int, what, from, to string) (*probe, error) {
+	k := modelKey{ci, si}
+	me := cp.models[k]
+	if me == nil {
+		opt := cp.o.Options
+		opt.VarFrac, opt.VarSet = cp.settings[si].frac, true
+		m, err := newModel(cp.circuits[ci], opt)
+		me = &modelOrErr{m, err}
+		cp.models[k] = me
+	}
+	if me.err != nil {
+		return nil, me.err
+	}
+	return newProbe(me.m, what, from, to)
+}
+
+// quantity sweeps one quantity at every setting and returns its worst pair.
+func (cp *comparer) quantity(q quantity) (Pair, outcome, error) {
+	o := cp.o
+	worst := Pair{From: q.from, To: q.to, What: q.what}
+	bestScore := -1.0
+	silent := 0
+	for si, st := range cp.settings {
+		po, err := cp.probe(0, si, q.what, q.from, q.to)
+		var fe *FloatingError
+		if err != nil && q.what == "impedance" && errors.As(err, &fe) && contains(fe.Nets, q.from) {
+			// Nothing loads the net (an input into a grid alone): its
+			// impedance is unbounded in the model and there is nothing to compare.
+			return worst, outOpen, nil
+		}
+		if err != nil {
+			return worst, outCompared, fmt.Errorf("original circuit: %s: %w", worst.Label(), err)
+		}
+		pr, err := cp.probe(1, si, q.what, q.rFrom, q.rTo)
+		if err != nil {
+			worst.Error = "reduced circuit cannot be solved: " + err.Error()
+			worst.Setting = st.label
+			return worst, outCompared, nil
+		}
+		if po.silent && pr.silent {
+			silent++
+			continue
+		}
+		p, err := sweepPair(po, pr, q.bands, o.Points, o.TolDB, o.TolDeg, cp.marks)
+		if err != nil {
+			if p.origFailed {
+				return worst, outCompared, fmt.Errorf("original circuit: %s: %w", worst.Label(), err)
+			}
+			worst.Error = "reduced circuit cannot be solved: " + err.Error()
+			worst.Setting = st.label
+			return worst, outCompared, nil
+		}
+		p.From, p.To, p.What, p.Setting = q.from, q.to, q.what, st.label
+		if s := p.score(o.TolDB, o.TolDeg); s > bestScore {
+			bestScore, worst = s, p.Pair
+		}
+	}
+	if silent == len(cp.settings) {
+		return worst, outSilent, nil
+	}
+	return worst, outCompared, nil
 }
 
 // withoutHeldPorts drops the quantities at port nets the model holds at

@@ -9,7 +9,6 @@ import (
 	"math/cmplx"
 	"sort"
 
-	"pare/graph"
 	"pare/graph/value"
 )
 
@@ -19,13 +18,15 @@ type probe struct {
 	node      int
 	impedance bool
 	zero      bool // the net is AC ground: the response is 0
+	// silent: no stamp joins the output to the driven input (other than
+	// through AC ground or a held input), so the transfer is 0 by structure.
+	silent bool
 }
 
-func newProbe(c *graph.Circuit, what, from, to string, o Options) (*probe, error) {
-	nl, err := elaborate(c, o)
-	if err != nil {
-		return nil, err
-	}
+// newProbe builds the system of one response of the model: the block of
+// the matrix the source drives, with the circuit's other inputs held.
+func newProbe(m *model, what, from, to string) (*probe, error) {
+	c, nl := m.c, m.nl
 	fromNode, err := nodeOf(c, nl, from)
 	if err != nil {
 		return nil, err
@@ -34,13 +35,15 @@ func newProbe(c *graph.Circuit, what, from, to string, o Options) (*probe, error
 		if fromNode == 0 {
 			return &probe{zero: true}, nil
 		}
-		s, err := newSystem(nl, -1, otherInputs(c, nl, fromNode)...)
-		if err != nil {
+		held := otherInputs(c, nl, fromNode)
+		isHeld := heldSet(len(nl.nodes), -1, held)
+		if err := m.floating(-1, held, isHeld); err != nil {
 			return nil, err
 		}
-		if s.unk[fromNode] < 0 {
+		if !m.used[fromNode] {
 			return nil, fmt.Errorf("net %s is not connected to any part the small-signal model sees", from)
 		}
+		s := assemble(nl, -1, isHeld, m.component(fromNode, isHeld))
 		return &probe{s: s, node: fromNode, impedance: true}, nil
 	}
 	if fromNode == 0 {
@@ -50,14 +53,17 @@ func newProbe(c *graph.Circuit, what, from, to string, o Options) (*probe, error
 	if err != nil {
 		return nil, err
 	}
-	s, err := newSystem(nl, fromNode, otherInputs(c, nl, fromNode)...)
-	if err != nil {
+	held := otherInputs(c, nl, fromNode)
+	isHeld := heldSet(len(nl.nodes), fromNode, held)
+	if err := m.floating(fromNode, held, isHeld); err != nil {
 		return nil, err
 	}
-	if toNode != 0 && toNode != fromNode && s.unk[toNode] < 0 {
+	if toNode != 0 && toNode != fromNode && (!m.used[toNode] || isHeld[toNode]) {
 		return nil, fmt.Errorf("output %s is not connected to any part the small-signal model sees", to)
 	}
-	return &probe{s: s, node: toNode}, nil
+	s := assemble(nl, fromNode, isHeld, m.component(fromNode, isHeld))
+	silent := toNode != 0 && toNode != fromNode && s.unk[toNode] < 0
+	return &probe{s: s, node: toNode, silent: silent}, nil
 }
 
 func (p *probe) at(f float64) (complex128, error) {

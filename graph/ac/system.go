@@ -6,7 +6,6 @@ import (
 	"math"
 	"math/cmplx"
 	"slices"
-	"strings"
 
 	"pare/graph"
 )
@@ -91,50 +90,90 @@ const (
 // (driven < 0: nothing driven) and the nodes in held at 0 V, as by ideal
 // sources with no AC output.
 func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
-	s := &system{nl: nl}
-	s.unk = make([]int, len(nl.nodes))
-	for i := range s.unk {
-		s.unk[i] = unkGround
+	isHeld := heldSet(len(nl.nodes), driven, held)
+	s := assemble(nl, driven, isHeld, nil)
+	if err := s.checkFloating(driven, isHeld); err != nil {
+		return nil, err
 	}
-	used := make([]bool, len(nl.nodes))
-	for _, p := range nl.prims {
-		used[p.a], used[p.b] = true, true
-		if p.kind == primVCCS {
-			used[p.c], used[p.d] = true, true
-		}
-	}
-	for _, g := range nl.groups {
-		for _, w := range g.winds {
-			used[w.a], used[w.b] = true, true
-		}
-	}
-	isHeld := make([]bool, len(nl.nodes))
+	return s, nil
+}
+
+// heldSet marks the held nodes other than ground and the driven one.
+func heldSet(n, driven int, held []int) []bool {
+	isHeld := make([]bool, n)
 	for _, h := range held {
 		if h > 0 && h != driven {
 			isHeld[h] = true
 		}
 	}
-	for i := 1; i < len(nl.nodes); i++ {
-		switch {
-		case i == driven:
-			s.unk[i] = unkDriven
-		case isHeld[i]:
-			// at 0 V: like ground, its entries drop out
-		case used[i]:
+	return isHeld
+}
+
+// part is a piece of a netlist that no stamp joins to the rest: its nodes,
+// primitives and winding groups, each in ascending order.
+type part struct{ nodes, prims, groups []int }
+
+// assemble builds the system of the piece sub of nl (nil: all of it).
+// Numbering the unknowns in ascending node order, visiting the primitives
+// and groups in their order and ordering each connected piece of the
+// pattern on its own (rcm) makes the system of a piece the same block, to
+// the last bit, as it is inside the system of the whole.
+func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
+	s := &system{nl: nl}
+	s.unk = make([]int, len(nl.nodes))
+	for i := range s.unk {
+		s.unk[i] = unkGround
+	}
+	if driven > 0 {
+		s.unk[driven] = unkDriven
+	}
+	prims, groups := nl.prims, nl.groups
+	number := func(i int) {
+		if i != driven && !isHeld[i] && s.unk[i] == unkGround {
 			s.unk[i] = s.n
 			s.what = append(s.what, "net "+nl.nodes[i])
 			s.n++
 		}
 	}
-	if err := s.checkFloating(driven, isHeld); err != nil {
-		return nil, err
+	if sub == nil {
+		used := make([]bool, len(nl.nodes))
+		for _, p := range prims {
+			used[p.a], used[p.b] = true, true
+			if p.kind == primVCCS {
+				used[p.c], used[p.d] = true, true
+			}
+		}
+		for _, g := range groups {
+			for _, w := range g.winds {
+				used[w.a], used[w.b] = true, true
+			}
+		}
+		for i := 1; i < len(nl.nodes); i++ {
+			if used[i] {
+				number(i)
+			}
+		}
+	} else {
+		for _, i := range sub.nodes {
+			if i > 0 {
+				number(i)
+			}
+		}
+		prims = make([]prim, len(sub.prims))
+		for k, i := range sub.prims {
+			prims[k] = nl.prims[i]
+		}
+		groups = make([]group, len(sub.groups))
+		for k, i := range sub.groups {
+			groups[k] = nl.groups[i]
+		}
 	}
 	// Coordinates of every entry, then compress.
 	type entry struct {
 		row, col, val, ord int32
 		sign               float64
 	}
-	ents := make([]entry, 0, 4*len(nl.prims)+8*len(nl.groups))
+	ents := make([]entry, 0, 4*len(prims)+8*len(groups))
 	var rhs []stamp
 	add := func(row, col, val int, sign float64) {
 		if row < 0 {
@@ -158,7 +197,7 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 		add(u(q), u(r), val, -1)
 		add(u(q), u(t), val, 1)
 	}
-	for _, p := range nl.prims {
+	for _, p := range prims {
 		var k coef
 		switch p.kind {
 		case primR:
@@ -176,7 +215,7 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 		quad(p.a, p.b, p.a, p.b, newCoef(k))
 	}
 	one := newCoef(coef{kind: valConst, a: 1})
-	for _, g := range nl.groups {
+	for _, g := range groups {
 		base := s.n
 		for _, w := range g.winds {
 			s.what = append(s.what, fmt.Sprintf("current in %s winding %s", g.ref, w.name))
@@ -200,7 +239,7 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 	}
 	if s.n == 0 {
 		s.stamps = rhs
-		return s, nil
+		return s
 	}
 	// Order the unknowns (reverse Cuthill–McKee on the symmetric pattern)
 	// and renumber them in that order, so that the factorisation walks the
@@ -269,62 +308,12 @@ func newSystem(nl *netlist, driven int, held ...int) (*system, error) {
 	s.f = newLU(s.n, identity)
 	s.b = make([]complex128, s.n)
 	s.y = make([]complex128, s.n)
-	return s, nil
+	return s
 }
 
 func dedupe(a []int) []int {
 	slices.Sort(a)
 	return slices.Compact(a)
-}
-
-// checkFloating finds nodes with no path to ground (or to the driven node)
-// through any element that conducts at AC; such a circuit has no unique
-// solution, and naming the nets beats a singular matrix.
-func (s *system) checkFloating(driven int, held []bool) error {
-	nl := s.nl
-	var sets graph.DisjointSets
-	find, join := sets.Find, sets.Union
-	if driven > 0 {
-		join(0, driven)
-	}
-	for i, h := range held {
-		if h {
-			join(0, i)
-		}
-	}
-	for _, p := range nl.prims {
-		if p.kind != primVCCS {
-			join(p.a, p.b)
-		}
-	}
-	for _, g := range nl.groups {
-		for _, w := range g.winds {
-			join(w.a, w.b)
-		}
-	}
-	var floating []string
-	for i := 1; i < len(nl.nodes); i++ {
-		if s.unk[i] >= 0 && find(i) != find(0) {
-			floating = append(floating, nl.nodes[i])
-		}
-	}
-	if len(floating) == 0 {
-		return nil
-	}
-	return &FloatingError{Nets: floating}
-}
-
-// FloatingError names nets with no path to ground through any part that
-// conducts at AC: the equations do not fix their voltages.
-type FloatingError struct{ Nets []string }
-
-func (e *FloatingError) Error() string {
-	nets, more := e.Nets, ""
-	if len(nets) > 8 {
-		more = fmt.Sprintf(" and %d more", len(nets)-8)
-		nets = nets[:8]
-	}
-	return fmt.Sprintf("floating: net(s) %s%s have no path to ground through any part (a winding or stage left unconnected?)", strings.Join(nets, ", "), more)
 }
 
 // solveAt assembles and solves the system at frequency f (Hz); the solution
