@@ -12,6 +12,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/value"
+	"pare/internal/synth"
 )
 
 // Benchmarks: an RC ladder and a chain of identical valve stages, at about
@@ -194,6 +195,35 @@ func BenchmarkCompareExample(b *testing.B) {
 					b.Fatal(err)
 				}
 			}
+		})
+	}
+}
+
+// BenchmarkCompareBank is verify's comparison on a receiver bank of about
+// 100, 1,000 and 10,000 parts (internal/synth, seed 1) against a copy of
+// itself: every input to every output, each region, each port impedance, at
+// three gang settings. It reports the process CPU time per operation too:
+//
+//	go test -run XXX -bench CompareBank -benchtime 1x -cpu 1 ./graph/ac/
+func BenchmarkCompareBank(b *testing.B) {
+	for _, parts := range []int{100, 1000, 10000} {
+		src, err := synth.Bank(parts, 1)
+		if err != nil {
+			b.Fatal(err)
+		}
+		c, err := graph.Parse("bank.toml", src)
+		if err != nil {
+			b.Fatal(err)
+		}
+		d := c.Clone()
+		b.Run(fmt.Sprint(parts), func(b *testing.B) {
+			cpu0 := cpuTime()
+			for i := 0; i < b.N; i++ {
+				if _, err := Compare(c, d, CompareOptions{}); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric((cpuTime()-cpu0).Seconds()/float64(b.N), "cpu-s/op")
 		})
 	}
 }

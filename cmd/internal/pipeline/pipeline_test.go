@@ -33,7 +33,7 @@ C1 = { c = "180n", pins = ["a", "out"] }
 R2 = { r = "470k", pins = ["out", "gnd"] }
 `
 
-func writeTemp(t *testing.T, name, src string) string {
+func writeTemp(t testing.TB, name, src string) string {
 	t.Helper()
 	p := filepath.Join(t.TempDir(), name)
 	if err := os.WriteFile(p, []byte(src), 0o644); err != nil {
