@@ -168,7 +168,9 @@ func (o CompareOptions) Check(before, after *graph.Circuit) error {
 // Points log-spaced frequencies, then refined around the peaks of each
 // response and of the deviation, so a narrow resonance that moves or changes
 // height is caught. Nets that the reduction joined away are compared under
-// the name they took where that is known, else skipped with a note.
+// the name they took where that is known, else skipped with a note. A
+// transfer that no net other than AC ground joins to its input in either
+// circuit is zero in both by structure: it is counted in a note, not swept.
 func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	if o.TolDB <= 0 {
 		o.TolDB = DefaultTolDB
