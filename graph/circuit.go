@@ -122,6 +122,9 @@ type Net struct {
 	Volts float64 `json:"volts,omitempty"` // DC voltage of a supply or bias net
 	Label string  `json:"label,omitempty"` // text for the drawing, e.g. "HT +250 V"
 	Pos   Pos     `json:"-"`               // where it was declared or first used
+	// Declared is set for a net written in [nets], so that the writer keeps
+	// an entry the user wrote even when it only restates the default.
+	Declared bool `json:"-"`
 }
 
 // Pin is one terminal of a part and the net it is on.

@@ -1,13 +1,9 @@
 package graph
 
 import (
-	"errors"
 	"fmt"
-	"os"
-	"regexp"
 	"strconv"
 	"strings"
-	"unicode/utf8"
 
 	"github.com/BurntSushi/toml"
 
@@ -17,7 +13,7 @@ import (
 // LoadFile reads and checks a netlist file. On any problem it returns a nil
 // circuit and an ErrorList holding every problem found, sorted by position.
 func LoadFile(path string) (*Circuit, error) {
-	data, err := os.ReadFile(path)
+	data, err := ReadFile(path)
 	if err != nil {
 		return nil, err
 	}
@@ -26,23 +22,12 @@ func LoadFile(path string) (*Circuit, error) {
 
 // Parse reads a netlist from memory; file names it in messages.
 func Parse(file string, data []byte) (*Circuit, error) {
+	if err := CheckTOML(file, data); err != nil {
+		return nil, err
+	}
 	var raw map[string]any
 	if _, err := toml.Decode(string(data), &raw); err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			var l ErrorList
-			line, col := pe.Position.Line, pe.Position.Col
-			if line < 1 {
-				line, col = 1, 1
-			}
-			col = runeCol(data, line, col)
-			col = duplicateCol(pe, data, line, col)
-			l.Add(Pos{File: file, Line: line, Col: col}, "%s", tomlMessage(pe))
-			return nil, l
-		}
-		var l ErrorList
-		l.Add(Pos{File: file, Line: 1, Col: 1}, "%v", err)
-		return nil, l
+		return nil, DecodeError(file, data, err)
 	}
 	ld := &loader{ix: indexKeys(file, string(data)), c: &Circuit{File: file, Freqs: map[string]float64{}}}
 	ld.circuit(raw)
@@ -54,66 +39,6 @@ func Parse(file string, data []byte) (*Circuit, error) {
 	return ld.c, nil
 }
 
-// duplicateKey matches the decoder's message for a key written twice.
-var duplicateKey = regexp.MustCompile(`^Key '(.*)' has already been defined\.?$`)
-
-// runeCol turns the decoder's byte column into a character column, the
-// unit the key scanner and every other message use (a line with "µF" or "kΩ"
-// before the mistake would otherwise point past it).
-func runeCol(data []byte, line, col int) int {
-	lines := strings.Split(string(data), "\n")
-	if line > len(lines) || col < 1 {
-		return col
-	}
-	text := lines[line-1]
-	if col-1 > len(text) {
-		return col
-	}
-	return utf8.RuneCountInString(text[:col-1]) + 1
-}
-
-// duplicateCol moves the position of a "written twice" error from the
-// decoder's spot (inside the second entry) to the start of its key, when the
-// line begins with the part's reference designator.
-func duplicateCol(pe toml.ParseError, data []byte, line, col int) int {
-	m := duplicateKey.FindStringSubmatch(pe.Message)
-	if m == nil {
-		return col
-	}
-	rest, ok := strings.CutPrefix(m[1], "parts.")
-	if !ok {
-		return col
-	}
-	ref, _, _ := strings.Cut(rest, ".")
-	lines := strings.Split(string(data), "\n")
-	if line > len(lines) {
-		return col
-	}
-	text := lines[line-1]
-	trimmed := strings.TrimLeft(text, " \t")
-	if strings.HasPrefix(trimmed, ref) {
-		return len([]rune(text)) - len([]rune(trimmed)) + 1
-	}
-	return col
-}
-
-// tomlMessage shortens the decoder's message (the position is printed by us)
-// and says in the netlist's own terms what a key written twice means.
-func tomlMessage(pe toml.ParseError) string {
-	msg := pe.Message
-	if msg == "" {
-		msg = pe.Error()
-	}
-	if m := duplicateKey.FindStringSubmatch(msg); m != nil {
-		key := m[1]
-		if rest, ok := strings.CutPrefix(key, "parts."); ok {
-			ref, _, _ := strings.Cut(rest, ".")
-			return fmt.Sprintf("part %s is written twice: each reference designator names one part", ref)
-		}
-		return fmt.Sprintf("key %q is written twice", key)
-	}
-	return msg
-}
 
 type loader struct {
 	ix   *keyIndex
@@ -187,6 +112,9 @@ func (ld *loader) circuit(raw map[string]any) {
 		ld.errs.Add(Pos{File: ld.ix.file, Line: 1, Col: 1}, `no band of interest: add e.g. band = "530k..1700k" (reductions judge reactances at the band's edges)`)
 	}
 	ld.finish()
+	ld.checkCounts()
+	ld.checkParams()
+	ld.checkPorts()
 }
 
 var regionKeys = []string{"band", "parts", "nets", "input", "output"}
@@ -225,7 +153,7 @@ var netKeys = []string{"role", "volts", "label"}
 var roles = []string{string(Signal), string(Ground), string(Supply), string(Heater), string(Bias), string(PortN)}
 
 func (ld *loader) net(path, name string, v any) {
-	n := &Net{Name: name, Role: DefaultRole(name), Pos: ld.ix.key(path)}
+	n := &Net{Name: name, Role: DefaultRole(name), Pos: ld.ix.key(path), Declared: true}
 	if !netPattern.MatchString(name) {
 		ld.errKey(path, "net name %q: use letters, digits and _ + - . only", name)
 	}

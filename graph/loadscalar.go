@@ -115,7 +115,7 @@ var dashRange = regexp.MustCompile(`^\s*[0-9][0-9.]*\s*[A-Za-zµΩ]*\s*[-–]\s*
 
 func (ld *loader) rng(path string, v any, u value.Unit) value.Range {
 	if s, ok := v.(string); ok && !strings.Contains(s, "..") && !strings.Contains(s, "\u2026") {
-		if dashRange.MatchString(s) {
+		if dashRange.MatchString(s) && !isOneValue(s, u) {
 			ld.errVal(path, "%s: %q: write a range with \"..\" between the two values, e.g. \"530k..1700k\"", lastKey(path), s)
 			return value.Range{}
 		}

@@ -10,10 +10,13 @@ import (
 	"strings"
 
 	"pare/graph/value"
+	"pare/internal/esc"
 )
 
 // Write prints a circuit in the canonical netlist layout: top-level keys,
-// then [freqs], [regions], [nets] and [parts], one entry per line, sorted.
+// then [freqs], [regions], [nets] and [parts], one entry per line, in the
+// order they were written (the order a user captured the signal path in),
+// entries pare made after them in natural order (C2 before C10).
 // The output is itself a valid netlist and loads back to the same circuit;
 // comments the user wrote above entries, or after them, are kept.
 func Write(w io.Writer, c *Circuit) error {
@@ -74,7 +77,7 @@ func (cw *cwriter) top() {
 	if len(c.Regions) > 0 {
 		fmt.Fprintln(cw.w)
 		cw.line("regions", "[regions]")
-		for _, r := range c.Regions {
+		for _, r := range inSourceOrder(c.Regions, func(r *Region) (Pos, string) { return r.Pos, r.Name }) {
 			kv := []string{"band = " + quote(fmtRange(r.Band, value.Hertz))}
 			if len(r.Parts) > 0 {
 				kv = append(kv, "parts = "+strList(r.Parts))
@@ -100,7 +103,7 @@ func (cw *cwriter) top() {
 		}
 	}
 	var nets []*Net
-	for _, n := range c.Nets {
+	for _, n := range inSourceOrder(c.Nets, func(n *Net) (Pos, string) { return n.Pos, n.Name }) {
 		if len(netKV(n)) > 0 || !pinned[n.Name] {
 			nets = append(nets, n)
 		}
@@ -114,7 +117,7 @@ func (cw *cwriter) top() {
 	}
 	fmt.Fprintln(cw.w)
 	cw.line("parts", "[parts]")
-	for _, p := range c.Parts {
+	for _, p := range inSourceOrder(c.Parts, func(p *Part) (Pos, string) { return p.Pos, p.Ref }) {
 		cw.line("parts."+p.Ref, bareKey(p.Ref)+" = "+inline(partKV(p)))
 	}
 }
@@ -389,7 +392,10 @@ func quote(s string) string {
 			b.WriteString(`\n`)
 		case r == '\t':
 			b.WriteString(`\t`)
-		case r < 0x20 || r == 0x7f:
+		case esc.Hidden(r):
+			// Controls and bidi overrides as escapes: the text loads back
+			// the same, and a netlist shown in a terminal or an editor
+			// shows them rather than obeying them.
 			fmt.Fprintf(&b, `\u%04X`, r)
 		default:
 			b.WriteRune(r)
@@ -533,7 +539,9 @@ func netKV(n *Net) []string {
 	if n.Label != "" {
 		kv = append(kv, "label = "+quote(n.Label))
 	}
-	if n.Role != DefaultRole(n.Name) || (len(kv) > 0 && n.Role != Signal) {
+	// A declared net keeps its entry, even one that restates the default
+	// (gnd = { role = "ground" }): the user wrote it to be sure.
+	if n.Role != DefaultRole(n.Name) || (len(kv) > 0 && n.Role != Signal) || (len(kv) == 0 && n.Declared) {
 		kv = append([]string{"role = " + quote(string(n.Role))}, kv...)
 	}
 	return kv

@@ -154,7 +154,7 @@ func (cfg Config) Fprint(w io.Writer, s *Sheet) error {
 		return err
 	}
 	var buf bytes.Buffer
-	d := &drawer{cfg: cfg, canvas: svg.New(&buf), sheet: s, res: r}
+	d := &drawer{cfg: cfg, canvas: textSafe{svg.New(&buf)}, sheet: s, res: r}
 	d.draw()
 	_, err = w.Write(buf.Bytes())
 	return err
@@ -162,7 +162,7 @@ func (cfg Config) Fprint(w io.Writer, s *Sheet) error {
 
 type drawer struct {
 	cfg    Config
-	canvas *svg.SVG
+	canvas textSafe
 	sheet  *Sheet
 	res    *layout.Result
 	ox, oy float64 // sheet position of grid origin, in grid units

@@ -38,7 +38,7 @@ func checkOptions(c *graph.Circuit, o Options) (ratio float64, rules []Rule, err
 	}
 	if ratio < 0 || ratio >= 1 {
 		var l graph.ErrorList
-		l.Add(graph.Pos{File: c.File}, "bypass ratio %g: it must be above 0 and below 1 (the default 0.1 means a factor of ten)", ratio)
+		l.Add(graph.Pos{File: c.File, Line: 1, Col: 1}, "bypass ratio %g: it must be above 0 and below 1 (the default 0.1 means a factor of ten)", ratio)
 		return 0, nil, l
 	}
 	if o.Level < LevelTidy || o.Level > LevelIdeal {
@@ -63,7 +63,7 @@ func Reduce(c *graph.Circuit, o Options) (rc *graph.Circuit, rl *Log, rerr error
 	// untouched (Reduce works on a copy).
 	defer func() {
 		if v := recover(); v != nil {
-			rc, rl, rerr = nil, nil, fmt.Errorf("reduce: internal error (please report, with the netlist): %v", v)
+			rc, rl, rerr = nil, nil, fmt.Errorf("reduce: %w (please report, with the netlist): %v", ErrInternal, v)
 		}
 	}()
 	if c == nil {
@@ -104,7 +104,7 @@ func Reduce(c *graph.Circuit, o Options) (rc *graph.Circuit, rl *Log, rerr error
 		// No netlist can hold an empty circuit, and an empty sheet helps
 		// nobody: say what probably went wrong instead.
 		var l graph.ErrorList
-		l.Add(graph.Pos{File: c.File}, "nothing is left after the reduction at level %s: no part carries signal between the declared inputs and outputs (are the ends declared, and is the signal path on a rail by mistake?)", o.Level)
+		l.Add(endsPos(c), "nothing is left after the reduction at level %s: no part carries signal between the declared inputs and outputs (are the ends declared, and is the signal path on a rail by mistake?)", o.Level)
 		return nil, nil, l
 	}
 	dr.declined()

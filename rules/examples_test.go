@@ -129,7 +129,7 @@ func TestOrderIndependent(t *testing.T) {
 				r1, l1 := reduceChecked(t, c, Options{Level: lvl})
 				r2, l2 := reduceChecked(t, d, Options{Level: lvl})
 				r1.Comments, r2.Comments = nil, nil
-				if a, b := written(t, r1), written(t, r2); a != b {
+				if a, b := writtenByName(t, r1), writtenByName(t, r2); a != b {
 					t.Fatalf("%s at %s: shuffled input reduces differently:\n%s\n---\n%s", path, lvl, a, b)
 				}
 				if a, b := logWithoutPositions(l1), logWithoutPositions(l2); a != b {

@@ -119,6 +119,24 @@ func written(t testing.TB, c *graph.Circuit) string {
 	return b.String()
 }
 
+// writtenByName writes c as if nothing had a position, so entries come in
+// natural order of their names rather than in the order they were typed:
+// for comparing circuits loaded from texts in different orders.
+func writtenByName(t testing.TB, c *graph.Circuit) string {
+	t.Helper()
+	d := c.Clone()
+	for _, p := range d.Parts {
+		p.Pos = graph.Pos{}
+	}
+	for _, n := range d.Nets {
+		n.Pos = graph.Pos{}
+	}
+	for _, r := range d.Regions {
+		r.Pos = graph.Pos{}
+	}
+	return written(t, d)
+}
+
 func logText(l *Log) string {
 	var b strings.Builder
 	for _, s := range l.Steps {

@@ -353,17 +353,28 @@ D1 = { diode = "signal", pins = ["in", "gnd"] }
 	}
 }
 
-// Odd but loadable values give clear errors, never a panic or a NaN.
+// Odd values that the loader refuses (it checks every parameter's range)
+// can still be set by code: the models give clear errors, never a panic or
+// a NaN. Each part loads with a good value, then the edit makes it odd.
 func TestOddValues(t *testing.T) {
-	cases := []struct{ name, parts, want string }{
-		{"crystal with q 0", `X1 = { xtal = "1M", q = 0, pins = ["in", "gnd"] }`, "q must be a positive number"},
-		{"valve with gm 0 and mu", `V1 = { valve = "triode", gm = 0, mu = 20, pins = { a = "in", g1 = "gnd", k = "gnd" } }`, "do not make a model"},
-		{"winding with no inductance", `T1 = { windings = { p = "0", s = "1m" }, k = 0.1, pins = { p1 = "in", p2 = "gnd", s1 = "gnd", s2 = "gnd" } }`, "has no inductance"},
-		{"bjt with beta 0", `Q1 = { bjt = "npn", beta = 0, pins = { b = "in", c = "gnd", e = "gnd" } }`, "must be positive"},
+	cases := []struct {
+		name, parts string
+		edit        func(p *graph.Part)
+		want        string
+	}{
+		{"crystal with q 0", `X1 = { xtal = "1M", q = 50, pins = ["in", "gnd"] }`, func(p *graph.Part) { p.Params["q"] = 0 }, "q must be a positive number"},
+		{"valve with gm 0 and mu", `V1 = { valve = "triode", gm = 1, mu = 20, pins = { a = "in", g1 = "gnd", k = "gnd" } }`, func(p *graph.Part) { p.Params["gm"] = 0 }, "do not make a model"},
+		{"winding with no inductance", `T1 = { windings = { p = "1m", s = "1m" }, k = 0.1, pins = { p1 = "in", p2 = "gnd", s1 = "gnd", s2 = "gnd" } }`, func(p *graph.Part) { p.Windings[0].L = 0 }, "has no inductance"},
+		{"bjt with beta 0", `Q1 = { bjt = "npn", beta = 100, pins = { b = "in", c = "gnd", e = "gnd" } }`, func(p *graph.Part) { p.Params["beta"] = 0 }, "must be positive"},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
 			c := mustParse(t, "band = \"1k..2k\"\n[parts]\n"+tc.parts+"\nR9 = { r = \"1k\", pins = [\"in\", \"gnd\"] }\n")
+			for _, p := range c.Parts {
+				if p.Ref != "R9" {
+					tc.edit(p)
+				}
+			}
 			_, err := Impedance(c, "in", []float64{1e3}, Options{})
 			if err == nil || !strings.Contains(err.Error(), tc.want) {
 				t.Errorf("error %v, want %q", err, tc.want)

@@ -184,6 +184,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	rep := &Report{TolDB: o.TolDB, TolDeg: o.TolDeg, OK: true, Pairs: []Pair{}}
 	qs := quantities(orig, reduced, rep)
 	qs = withoutHeldPorts(orig, qs, o.Options, rep)
+	qs = withoutRails(orig, qs, rep)
 	if len(qs) == 0 {
 		rep.Notes = append(rep.Notes, "the circuit declares no inputs, outputs or ports: nothing to compare")
 		rep.OK = false

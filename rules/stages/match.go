@@ -49,7 +49,7 @@ func (s *searcher) place(m *match, depth int) error {
 	v := m.v
 	if depth == len(v.parts) {
 		s.complete(m)
-		return nil
+		return s.tooMany(v)
 	}
 	vp := &v.parts[depth]
 	cands, ok := s.linked(m, vp)

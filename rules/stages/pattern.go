@@ -125,6 +125,23 @@ func LoadDir(dir string) (*Library, error) {
 	return loadFS(os.DirFS(dir), ".", dir)
 }
 
+// readPatternFile reads one file of a pattern folder: the built-in ones
+// from the embedded files, a user's through graph.ReadFile, which refuses a
+// device, a pipe or a folder named x.toml (reported at the file, so that
+// every other file is still checked).
+func readPatternFile(fsys fs.FS, name, shown string) ([]byte, error) {
+	if _, embedded := fsys.(embed.FS); embedded {
+		return fs.ReadFile(fsys, name)
+	}
+	data, err := graph.ReadFile(filepath.Join(shown, filepath.Base(name)))
+	if err != nil {
+		var l graph.ErrorList
+		l.Add(graph.Pos{File: filepath.Join(shown, filepath.Base(name)), Line: 1, Col: 1}, "%v", err)
+		return nil, l
+	}
+	return data, nil
+}
+
 func loadFS(fsys fs.FS, root, shown string) (*Library, error) {
 	names, err := fs.Glob(fsys, filepath.ToSlash(filepath.Join(root, "*.toml")))
 	if err != nil {
@@ -134,21 +151,20 @@ func loadFS(fsys fs.FS, root, shown string) (*Library, error) {
 	lib := &Library{}
 	var errs graph.ErrorList
 	for _, n := range names {
-		data, err := fs.ReadFile(fsys, n)
-		if err != nil {
-			return nil, err
-		}
 		file := filepath.Join(shown, filepath.Base(n))
-		p, err := ParsePattern(file, data)
-		if err != nil {
-			var l graph.ErrorList
-			if errors.As(err, &l) {
-				errs = append(errs, l...)
+		data, err := readPatternFile(fsys, n, shown)
+		if err == nil {
+			var p *Pattern
+			if p, err = ParsePattern(file, data); err == nil {
+				lib.Patterns = append(lib.Patterns, p)
 				continue
 			}
+		}
+		var l graph.ErrorList
+		if !errors.As(err, &l) {
 			return nil, err
 		}
-		lib.Patterns = append(lib.Patterns, p)
+		errs = append(errs, l...)
 	}
 	errs = append(errs, lib.checkIDs()...)
 	if len(errs) > 0 {
@@ -207,16 +223,12 @@ func (lib *Library) Pattern(id string) *Pattern {
 // ParsePattern reads one pattern file; file names it in messages. Every
 // problem is reported as file:line:col in a graph.ErrorList.
 func ParsePattern(file string, data []byte) (*Pattern, error) {
+	if err := graph.CheckTOML(file, data); err != nil {
+		return nil, err
+	}
 	var raw map[string]any
 	if _, err := toml.Decode(string(data), &raw); err != nil {
-		var l graph.ErrorList
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			l.Add(graph.Pos{File: file, Line: pe.Position.Line, Col: pe.Position.Col}, "%s", pe.Message)
-		} else {
-			l.Add(graph.Pos{File: file, Line: 1, Col: 1}, "%v", err)
-		}
-		return nil, l
+		return nil, graph.DecodeError(file, data, err)
 	}
 	ld := &patLoader{at: graph.IndexKeys(file, string(data)), file: file, p: &Pattern{Inner: false}}
 	ld.pattern(raw)
