@@ -72,6 +72,9 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 		return exitBad
 	}
 	path := args[0]
+	if !checkOutput(e, "pare draw", o.out, path) {
+		return exitBad
+	}
 	res, err := pipeline.Run(pipeline.Options{Path: path, Level: lvl, Focus: splitRefs(o.focus),
 		Views: []render.View{view}, Style: style})
 	if loadFailed(e, path, err) {
@@ -83,14 +86,12 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 		fmt.Fprintf(e.stderr, "pare draw: %s: %v\n", o.out, err)
 		return exitBad
 	case errors.As(err, &pe) && pe.Phase == pipeline.PhaseStages:
-		printErrors(e, "pare draw", path, fmt.Errorf("recognising stages: %w", err))
-		return exitBad
+		return reportErr(e, "pare draw", path, fmt.Errorf("recognising stages: %w", err))
 	case err != nil:
-		printErrors(e, "pare draw", path, err)
-		return exitBad
+		return reportErr(e, "pare draw", path, err)
 	}
 	svg := res.SheetFor(view).SVG
-	if err := writeOutput(e, o.out, func(w io.Writer) error { _, err := w.Write(svg); return err }); err != nil {
+	if err := writeOutput(e, o.out, func(w io.Writer) error { _, err := w.Write(svg); return err }, path); err != nil {
 		fmt.Fprintf(e.stderr, "pare draw: %s: %v\n", o.out, err)
 		return exitBad
 	}

@@ -4,10 +4,10 @@ import (
 	"bytes"
 	"flag"
 	"fmt"
-	"os"
 
 	"pare/cmd/internal/pipeline"
 	"pare/graph"
+	"pare/internal/outfile"
 )
 
 type fmtOpts struct {
@@ -42,36 +42,41 @@ func runFmt(e *env, o *fmtOpts, args []string) int {
 	if loadFailed(e, path, err) {
 		return exitBad
 	}
-	c := res.Circuit
-	var buf bytes.Buffer
-	if err := graph.Write(&buf, c); err != nil {
-		fmt.Fprintf(e.stderr, "pare fmt: %v\n", err)
-		return exitBad
+	// Marshal proves the text loads back as the same circuit: fmt never
+	// replaces a netlist with one pare itself would refuse.
+	text, err := graph.Marshal(res.Circuit)
+	if err != nil {
+		return internalError(e, "pare fmt", err)
 	}
-	old, err := os.ReadFile(path)
+	old, err := readInput(path)
 	if err != nil {
 		fmt.Fprintf(e.stderr, "pare fmt: %v\n", err)
 		return exitBad
 	}
 	if o.check {
-		if !bytes.Equal(old, buf.Bytes()) {
+		if !bytes.Equal(old, text) {
 			fmt.Fprintf(e.stdout, "%s: not in canonical layout (run 'pare fmt %s')\n", path, path)
 			return exitFound
 		}
 		return exitOK
 	}
-	dest := path
-	if o.out != "" {
-		dest = o.out
-	}
-	if dest == path && bytes.Equal(old, buf.Bytes()) {
+	if o.out == "-" {
+		e.stdout.Write(text)
 		return exitOK
 	}
-	if dest == "-" {
-		e.stdout.Write(buf.Bytes())
+	if o.out == "" {
+		// In place: the input is the output. A link is followed to the
+		// netlist it names; a read-only netlist is refused.
+		if bytes.Equal(old, text) {
+			return exitOK
+		}
+		if err := outfile.WriteFile(path, text); err != nil {
+			fmt.Fprintf(e.stderr, "pare fmt: %v\n", err)
+			return exitBad
+		}
 		return exitOK
 	}
-	if err := writeFileAtomic(dest, buf.Bytes()); err != nil {
+	if err := outfile.WriteFile(o.out, text, path); err != nil {
 		fmt.Fprintf(e.stderr, "pare fmt: %v\n", err)
 		return exitBad
 	}

@@ -3,16 +3,19 @@ package main
 import (
 	"bytes"
 	"fmt"
-	"html"
 	"net/url"
 	"os"
 	"path/filepath"
 	"strings"
+
+	"pare/internal/esc"
+	"pare/internal/outfile"
 )
 
 // The batch index: one row per set, in input order, linking its pack's
 // repair note. Every string that came from a netlist or a file name is
-// escaped for the page it goes into (a title may hold `|`, `<`, `]`).
+// escaped for the page it goes into (a title may hold `|`, `<`, `]`), by
+// internal/esc.
 
 const (
 	indexMarkdown = "index.md"
@@ -36,19 +39,19 @@ func writeIndex(at string, packs []pack) error {
 		if p.code == exitBad {
 			fmt.Fprintf(&md, "| %s | %s | | | %s |\n", mdEscape(name), mdEscape(p.title), mdEscape(p.verdict))
 			fmt.Fprintf(&page, "<tr><td>%s</td><td>%s</td><td></td><td></td><td>%s</td></tr>\n",
-				html.EscapeString(name), html.EscapeString(p.title), html.EscapeString(p.verdict))
+				esc.HTML(name), esc.HTML(p.title), esc.HTML(p.verdict))
 			continue
 		}
 		link := relLink(at, filepath.Join(p.dir, fileNote))
 		fmt.Fprintf(&md, "| [%s](%s) | %s | %s | %s | %s |\n", mdEscape(name), link, mdEscape(p.title), parts, stages, mdEscape(p.verdict))
 		fmt.Fprintf(&page, "<tr><td><a href=\"%s\">%s</a></td><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n",
-			html.EscapeString(link), html.EscapeString(name), html.EscapeString(p.title), parts, stages, html.EscapeString(p.verdict))
+			esc.HTML(link), esc.HTML(name), esc.HTML(p.title), parts, stages, esc.HTML(p.verdict))
 	}
 	page.WriteString("</table>\n</body></html>\n")
-	if err := writeFileAtomic(filepath.Join(at, indexMarkdown), md.Bytes()); err != nil {
+	if err := outfile.WriteFile(filepath.Join(at, indexMarkdown), md.Bytes()); err != nil {
 		return err
 	}
-	return writeFileAtomic(filepath.Join(at, indexHTML), page.Bytes())
+	return outfile.WriteFile(filepath.Join(at, indexHTML), page.Bytes())
 }
 
 // relLink is target relative to the index's folder, each segment escaped
@@ -66,21 +69,6 @@ func relLink(from, target string) string {
 	return strings.Join(segs, "/")
 }
 
-// mdEscape makes text literal in a Markdown table cell: every punctuation
-// mark that Markdown or a table gives a meaning is backslash-escaped, and a
-// line break becomes a space.
-func mdEscape(s string) string {
-	var b strings.Builder
-	for _, r := range s {
-		switch {
-		case r == '\n' || r == '\r':
-			b.WriteByte(' ')
-		case strings.ContainsRune("\\`*_{}[]()<>#+-.!|~&", r):
-			b.WriteByte('\\')
-			b.WriteRune(r)
-		default:
-			b.WriteRune(r)
-		}
-	}
-	return b.String()
-}
+// mdEscape makes text literal in a Markdown table cell (esc.MarkdownAll:
+// every punctuation mark Markdown or a table gives a meaning is escaped).
+func mdEscape(s string) string { return esc.MarkdownAll(s) }

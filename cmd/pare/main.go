@@ -19,6 +19,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/internal/esc"
 )
 
 // version is the release this build reports; bumped by hand at release.
@@ -29,6 +30,9 @@ const (
 	exitOK    = 0 // done, nothing to report
 	exitFound = 1 // warnings (check --strict) or a failed verification
 	exitBad   = 2 // bad input or usage
+	// exitInternal is a failure of pare itself (a result that does not load
+	// back, a rule that broke): never the input's fault.
+	exitInternal = 3
 )
 
 // command is one subcommand. Each lives in its own file and registers itself
@@ -79,6 +83,17 @@ func main() {
 
 // run executes one pare invocation and returns its exit code.
 func run(args []string, stdout, stderr io.Writer) int {
+	// Everything a command prints goes through the terminal escaper: a
+	// title or label with an escape sequence or an RTL override is shown,
+	// not obeyed.
+	tout, terr := esc.NewTerminalWriter(stdout), esc.NewTerminalWriter(stderr)
+	defer tout.Flush()
+	defer terr.Flush()
+	return dispatch(args, tout, terr)
+}
+
+// dispatch picks the command and runs it.
+func dispatch(args []string, stdout, stderr io.Writer) int {
 	e := &env{stdout: stdout, stderr: stderr}
 	if len(args) == 0 {
 		usage(stderr)
@@ -103,7 +118,13 @@ func run(args []string, stdout, stderr io.Writer) int {
 	name, rest := args[0], args[1:]
 	c, ok := commands[name]
 	if !ok {
-		if strings.HasSuffix(name, ".toml") || fileExists(name) || isDir(name) {
+		if name == "" {
+			fmt.Fprintln(stderr, "pare: empty command: give a command or a netlist file (run 'pare help')")
+			return exitBad
+		}
+		// "pare -o DIR FILE", "pare --no-verify FILE": flags of the whole
+		// job before its files, read by the main job's own flag set.
+		if strings.HasPrefix(name, "-") || strings.HasSuffix(name, ".toml") || fileExists(name) || isDir(name) {
 			// `pare FILE_OR_DIR...`: the main job.
 			c, rest = commands[mainJob], args
 		} else {
@@ -174,7 +195,7 @@ func usage(w io.Writer) {
 		fmt.Fprintf(w, "  %-8s %s\n", n, commands[n].summary)
 	}
 	fmt.Fprintln(w)
-	fmt.Fprintln(w, "exit codes: 0 fine, 1 warnings (with --strict) or failed verification, 2 bad input or usage")
+	fmt.Fprintln(w, "exit codes: 0 fine, 1 warnings (with --strict) or failed verification, 2 bad input or usage, 3 internal error")
 	fmt.Fprintln(w, "'pare help COMMAND' or 'pare COMMAND --help' shows a command's flags; 'pare --version' the version.")
 }
 

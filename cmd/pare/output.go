@@ -5,56 +5,19 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
-	"path/filepath"
 	"strings"
 
 	"pare/cmd/internal/pipeline"
 	"pare/graph"
+	"pare/internal/outfile"
+	"pare/rules"
 )
 
-// writeFileAtomic writes data to path through a temporary file in the same
-// folder and a rename, so a reader never sees half a file and a failure
-// leaves any old file as it was.
-func writeFileAtomic(path string, data []byte) error {
-	if st, err := os.Stat(path); err == nil && st.IsDir() {
-		return fmt.Errorf("%s is a directory: give a file name to write", path)
-	}
-	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp*")
-	if err != nil {
-		return err
-	}
-	name := tmp.Name()
-	if _, err := tmp.Write(data); err != nil {
-		tmp.Close()
-		os.Remove(name)
-		return err
-	}
-	if err := tmp.Close(); err != nil {
-		os.Remove(name)
-		return err
-	}
-	// Keep the mode of a file being replaced (pare fmt rewrites in place);
-	// a new file gets the usual 0644.
-	mode := os.FileMode(0o644)
-	if st, err := os.Stat(path); err == nil {
-		mode = st.Mode().Perm()
-	}
-	if err := os.Chmod(name, mode); err != nil {
-		os.Remove(name)
-		return err
-	}
-	if err := os.Rename(name, path); err != nil {
-		os.Remove(name)
-		return err
-	}
-	return nil
-}
-
 // writeOutput renders with fn into memory first, then writes the file
-// atomically; "-" writes to stdout.
-func writeOutput(e *env, path string, fn func(w io.Writer) error) error {
+// through outfile (regular files only, links followed, synced, renamed
+// over); "-" or "" writes to stdout. protect names files the output must not
+// replace: the input netlist.
+func writeOutput(e *env, path string, fn func(w io.Writer) error, protect ...string) error {
 	var buf bytes.Buffer
 	if err := fn(&buf); err != nil {
 		return err
@@ -63,8 +26,53 @@ func writeOutput(e *env, path string, fn func(w io.Writer) error) error {
 		_, err := e.stdout.Write(buf.Bytes())
 		return err
 	}
-	return writeFileAtomic(path, buf.Bytes())
+	return outfile.WriteFile(path, buf.Bytes(), protect...)
 }
+
+// checkOutput refuses an output file before any work is done: a device, a
+// pipe, a folder, a link to nothing, a read-only file or the input itself.
+func checkOutput(e *env, who, path string, protect ...string) bool {
+	if path == "" || path == "-" {
+		return true
+	}
+	if _, err := outfile.Target(path, protect...); err != nil {
+		fmt.Fprintf(e.stderr, "%s: %v\n", who, err)
+		return false
+	}
+	return true
+}
+
+// internalError reports a failure that is pare's fault, not the input's,
+// with its own exit code so that scripts can tell the two apart.
+func internalError(e *env, who string, err error) int {
+	msg := err.Error()
+	if !strings.Contains(msg, "internal error") {
+		msg = "internal error, please report: " + msg
+	}
+	fmt.Fprintf(e.stderr, "%s: %s\n", who, msg)
+	return exitInternal
+}
+
+// isInternal tells pare's own failures (a rule that broke, a netlist the
+// writer could not put back into text) from what the input caused.
+func isInternal(err error) bool {
+	return errors.Is(err, rules.ErrInternal) || errors.Is(err, graph.ErrWriter)
+}
+
+// reportErr prints a failure with printErrors and returns its exit code:
+// exitInternal for pare's own failures, exitBad for everything the input or
+// the command line caused.
+func reportErr(e *env, who, path string, err error) int {
+	if isInternal(err) {
+		return internalError(e, who, err)
+	}
+	printErrors(e, who, path, err)
+	return exitBad
+}
+
+// readInput reads a netlist the way the loader does (a regular file of
+// bounded size).
+func readInput(path string) ([]byte, error) { return graph.ReadFile(path) }
 
 // loadFailed prints a failure to load the netlist, every problem on
 // stderr as file:line:col: message, and reports whether err was one. Other

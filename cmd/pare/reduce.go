@@ -50,7 +50,7 @@ wiring diagram and says nothing about DC voltages.
 			fs.StringVar(&o.out, "o", "", "write the reduced netlist to this file")
 			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
 			fs.StringVar(&o.focus, "focus", "", "comma-separated refs or net names: reduce only the stage(s) around them")
-			fs.Float64Var(&o.ratio, "ratio", rules.DefaultRatio, "bypass ratio: |Xc| ≤ ratio·|Z| makes a bypass")
+			finiteVar(fs, &o.ratio, "ratio", rules.DefaultRatio, "bypass ratio: |Xc| ≤ ratio·|Z| makes a bypass")
 			fs.BoolVar(&o.json, "json", false, "print the log and the reduced netlist as JSON")
 			fs.BoolVar(&o.check, "check", false, "verify each step by AC analysis and refuse steps that change the signal")
 		}, runReduce),
@@ -80,11 +80,14 @@ func runReduce(e *env, o *reduceOpts, args []string) int {
 		fmt.Fprintf(e.stderr, "pare reduce: %v\n", err)
 		return exitBad
 	}
-	if o.ratio <= 0 || o.ratio >= 1 {
+	if !(o.ratio > 0 && o.ratio < 1) {
 		fmt.Fprintf(e.stderr, "pare reduce: --ratio %g: give a factor above 0 and below 1 (0.1 means ten times)\n", o.ratio)
 		return exitBad
 	}
 	path := args[0]
+	if !checkOutput(e, "pare reduce", o.out, path) {
+		return exitBad
+	}
 	po := pipeline.Options{Path: path, Until: pipeline.PhaseReduce, Level: lvl, BypassRatio: o.ratio}
 	if o.focus != "" {
 		if po.Focus = splitRefs(o.focus); len(po.Focus) == 0 {
@@ -105,16 +108,14 @@ func runReduce(e *env, o *reduceOpts, args []string) int {
 		return exitBad
 	}
 	if err != nil {
-		printErrors(e, "pare reduce", path, err)
-		return exitBad
+		return reportErr(e, "pare reduce", path, err)
 	}
 	netlist, err := res.ReducedNetlist()
 	if err != nil {
-		fmt.Fprintf(e.stderr, "pare reduce: %v\n", err)
-		return exitBad
+		return reportErr(e, "pare reduce", path, err)
 	}
 	if o.out != "" {
-		if err := writeFileAtomic(o.out, netlist); err != nil {
+		if err := writeOutput(e, o.out, func(w io.Writer) error { _, err := w.Write(netlist); return err }, path); err != nil {
 			fmt.Fprintf(e.stderr, "pare reduce: writing %s: %v\n", o.out, err)
 			return exitBad
 		}

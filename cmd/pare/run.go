@@ -6,7 +6,6 @@ import (
 	"flag"
 	"fmt"
 	"math"
-	"os"
 	"path/filepath"
 	"strings"
 
@@ -14,6 +13,7 @@ import (
 	"pare/cmd/internal/pipeline"
 	"pare/graph/ac"
 	"pare/graph/value"
+	"pare/internal/outfile"
 	"pare/render"
 	"pare/rules"
 	"pare/rules/stages"
@@ -54,8 +54,8 @@ whatever order the sets finish in; on a terminal a progress line counts them.`,
 			fs.StringVar(&o.out, "o", "", "write the results into this directory")
 			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
 			fs.StringVar(&o.symbols, "symbols", "iec", "symbol style of the sheets: iec (IEC 60617) or ieee (IEEE 315)")
-			fs.Float64Var(&o.tolDB, "tol-db", 0, "verification tolerance in dB (0: the default 0.5 dB)")
-			fs.Float64Var(&o.tolDeg, "tol-deg", 0, "verification tolerance in degrees (0: the default 5°)")
+			finiteVar(fs, &o.tolDB, "tol-db", 0, "verification tolerance in dB (0: the default 0.5 dB)")
+			finiteVar(fs, &o.tolDeg, "tol-deg", 0, "verification tolerance in degrees (0: the default 5°)")
 			fs.BoolVar(&o.noVerify, "no-verify", false, "skip the AC checks of each step and of the result")
 		}, runMain),
 	})
@@ -150,11 +150,11 @@ func oneJob(e *env, path, dir string, cfg jobConfig) (int, pack) {
 		res, err = mainJobOn(pr, cfg)
 	}
 	if err != nil {
-		printErrors(e, "pare "+mainJob, path, jobError(err))
-		pk.code = exitBad
-		return exitBad, pk
+		code := reportErr(e, "pare "+mainJob, path, jobError(err))
+		pk.code = code
+		return code, pk
 	}
-	names, err := writeResults(dir, res.files)
+	names, err := writeResults(dir, path, res.files)
 	if err != nil {
 		fmt.Fprintf(e.stderr, "pare %s: %v\n", mainJob, err)
 		pk.code = exitBad
@@ -206,28 +206,18 @@ func jobError(err error) error {
 	return err
 }
 
-// writeResults writes each file atomically into dir, creating dir when it is
-// missing. When a write fails in a directory this run created, the files
-// already written and the directory are removed again, so a failed run never
-// leaves a half-filled new directory behind.
-func writeResults(dir string, files []outFile) ([]string, error) {
-	_, statErr := os.Stat(dir)
-	created := errors.Is(statErr, os.ErrNotExist)
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return nil, err
+// writeResults replaces dir with a folder holding exactly these files,
+// in one step (outfile.WriteDir): a failure or a kill at any moment leaves
+// the previous results whole, or no folder when there was none.
+func writeResults(dir, input string, files []outFile) ([]string, error) {
+	list := make([]outfile.File, len(files))
+	names := make([]string, len(files))
+	for i, f := range files {
+		list[i] = outfile.File{Name: f.name, Data: f.data}
+		names[i] = f.name
 	}
-	var names []string
-	for _, f := range files {
-		if err := writeFileAtomic(filepath.Join(dir, f.name), f.data); err != nil {
-			if created {
-				for _, n := range names {
-					os.Remove(filepath.Join(dir, n))
-				}
-				os.Remove(dir) // only succeeds when empty: nothing of anyone else's goes
-			}
-			return nil, fmt.Errorf("writing %s: %w", filepath.Join(dir, f.name), err)
-		}
-		names = append(names, f.name)
+	if err := outfile.WriteDir(dir, list, input); err != nil {
+		return nil, err
 	}
 	return names, nil
 }
@@ -266,22 +256,11 @@ func defaultOutDir(path string) string {
 	return strings.TrimSuffix(path, ".toml") + ".pare"
 }
 
-// checkOutDir refuses an output directory that is a file, and one where a
-// result file would overwrite the input netlist.
+// checkOutDir refuses, before any work, an output folder that WriteDir
+// would refuse: a file, a link to nothing, a folder holding files pare did
+// not write, one where a result would overwrite the input netlist.
 func checkOutDir(input, dir string) error {
-	if st, err := os.Stat(dir); err == nil && !st.IsDir() {
-		return fmt.Errorf("output %s exists and is not a directory", dir)
-	}
-	in, err := os.Stat(input)
-	if err != nil {
-		return nil // loadCircuit reports the missing input with its own message
-	}
-	for _, name := range []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote} {
-		if st, err := os.Stat(filepath.Join(dir, name)); err == nil && os.SameFile(in, st) {
-			return fmt.Errorf("output %s would overwrite the input netlist; choose another directory with -o", filepath.Join(dir, name))
-		}
-	}
-	return nil
+	return outfile.CheckDir(dir, []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote}, input)
 }
 
 // mainJobOn turns the pipeline's result into the job's files, in memory,
@@ -379,6 +358,9 @@ func verifySummary(v note.Verify) string {
 		verdict = "FAILED"
 	}
 	tol := fmt.Sprintf("tolerance %s dB / %s°", note.Num(v.TolDB), note.Num(v.TolDeg))
+	if len(v.Rails) > 0 {
+		return "verification: NOT VERIFIED, output " + strings.Join(v.Rails, ", ") + " on a rail cannot be compared; " + tol
+	}
 	if len(v.Pairs) == 0 {
 		return "verification: " + verdict + ", no port pair compared; " + tol
 	}

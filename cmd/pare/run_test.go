@@ -82,6 +82,9 @@ func cachedJob(t *testing.T, ex string) *jobRun {
 }
 
 func TestMain(m *testing.M) {
+	if args, ok := killChildArgs(); ok { // the kill test's child: one main job
+		os.Exit(run(args, os.Stdout, os.Stderr))
+	}
 	code := m.Run()
 	if jobCache.root != "" {
 		os.RemoveAll(jobCache.root)
@@ -403,7 +406,7 @@ func TestMainJobUsage(t *testing.T) {
 		{"bad symbols", []string{ex, "--symbols", "din"}, "--symbols"},
 		{"negative tolerance", []string{ex, "--tol-db", "-1"}, "--tol-db"},
 		{"missing file", []string{"run", "nowhere.toml"}, "nowhere.toml"},
-		{"output is a file", []string{ex, "-o", notDir}, "not a directory"},
+		{"output is a file", []string{ex, "-o", notDir}, "exists and is not a folder"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -440,7 +443,7 @@ func TestMainJobKeepsInput(t *testing.T) {
 		t.Fatal(err)
 	}
 	code, _, stderr := runJob(t, in, "-o", dir)
-	if code != exitBad || !strings.Contains(stderr, "overwrite the input") {
+	if code != exitBad || !strings.Contains(stderr, "is the input: writing there would overwrite it") {
 		t.Errorf("exit %d, stderr %q: want 2 and a refusal", code, stderr)
 	}
 	if !bytes.Equal(readBytes(t, in), data) {
@@ -497,30 +500,30 @@ func TestMainJobVerificationFails(t *testing.T) {
 	}
 }
 
-// A write that fails part-way leaves no new directory behind, and leaves an
-// existing one with what was written.
-func TestWriteResultsCleansUp(t *testing.T) {
-	// A new directory whose second file cannot be written (its folder
-	// "sub" does not exist) is removed again, with the first file.
+// A write that fails part-way leaves no new directory behind, and an
+// existing one exactly as it was (red-team item 3: a folder was left half
+// old, half new).
+func TestWriteResultsAllOrNothing(t *testing.T) {
 	fresh := filepath.Join(t.TempDir(), "new")
-	_, err := writeResults(fresh, []outFile{{"a.txt", []byte("a")}, {"sub/b.txt", []byte("b")}})
-	if err == nil || !strings.Contains(err.Error(), "b.txt") {
-		t.Fatalf("want an error naming b.txt, got %v", err)
+	_, err := writeResults(fresh, "", []outFile{{"a.txt", []byte("a")}, {"sub/b.txt", []byte("b")}})
+	if err == nil {
+		t.Fatal("want an error for a file name with a folder in it")
 	}
 	if _, err := os.Stat(fresh); !errors.Is(err, os.ErrNotExist) {
 		t.Errorf("the new directory was left behind (%v)", err)
 	}
-	// In a directory that was there before, nothing is taken away.
-	old := t.TempDir()
-	if _, err := writeResults(old, []outFile{{"a.txt", []byte("a")}, {"sub/b.txt", []byte("b")}}); err == nil {
+	old := filepath.Join(t.TempDir(), "old")
+	if _, err := writeResults(old, "", []outFile{{"x", []byte("1")}, {"y", []byte("2")}}); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := writeResults(old, "", []outFile{{"x", []byte("3")}, {"y/z", []byte("4")}}); err == nil {
 		t.Fatal("want an error")
 	}
-	if _, err := os.Stat(filepath.Join(old, "a.txt")); err != nil {
-		t.Errorf("existing directory: a.txt should stay: %v", err)
+	if got := readString(t, filepath.Join(old, "x")); got != "1" {
+		t.Errorf("existing folder changed: x = %q", got)
 	}
-	// And a run that works writes every file, in order.
-	names, err := writeResults(filepath.Join(old, "ok"), []outFile{{"x", []byte("1")}, {"y", []byte("2")}})
-	if err != nil || strings.Join(names, " ") != "x y" {
+	names, err := writeResults(old, "", []outFile{{"x", []byte("5")}, {"y", []byte("6")}})
+	if err != nil || strings.Join(names, " ") != "x y" || readString(t, filepath.Join(old, "y")) != "6" {
 		t.Errorf("got %v, %v", names, err)
 	}
 }

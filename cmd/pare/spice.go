@@ -84,11 +84,14 @@ func runSpice(e *env, o *spiceOpts, args []string) int {
 		so.Band = b
 	}
 	path := args[0]
+	if !checkOutput(e, "pare spice", o.out, path) {
+		return exitBad
+	}
 	c, _, code := circuitFor(e, "spice", path, o.reduced, o.level)
 	if c == nil {
 		return code
 	}
-	if err := writeOutput(e, o.out, func(w io.Writer) error { return ac.WriteSpice(w, c, so) }); err != nil {
+	if err := writeOutput(e, o.out, func(w io.Writer) error { return ac.WriteSpice(w, c, so) }, path); err != nil {
 		fmt.Fprintf(e.stderr, "pare spice: %s: %v\n", path, err)
 		return exitBad
 	}

@@ -89,8 +89,7 @@ func runStages(e *env, o *stagesOpts, args []string) int {
 		printErrors(e, "pare stages", o.patterns, err) // a pattern file is at fault
 		return exitBad
 	} else if err != nil {
-		printErrors(e, "pare stages", path, err)
-		return exitBad
+		return reportErr(e, "pare stages", path, err)
 	}
 	unmatched := res.Unmatched()
 	caution := res.Caution.Report(safety.StageFigures)

@@ -134,6 +134,13 @@ func sweepSpan(c *graph.Circuit, path string, o *sweepOpts) (*sweep, string) {
 		}
 		sw.to = c.Outputs[0]
 	}
+	for _, end := range []struct{ flag, net string }{{"--from", sw.from}, {"--to", sw.to}} {
+		// Ground is the reference: the voltage there is zero by definition,
+		// and a transfer to it printed -Inf dB.
+		if end.net != "" && c.Net(end.net) != nil && c.RoleOf(end.net) == graph.Ground {
+			return nil, fmt.Sprintf("%s %s: %s is the ground net, AC ground by definition (the reference of every voltage); give a signal net", end.flag, end.net, end.net)
+		}
+	}
 	var band value.Range
 	if o.band != "" {
 		var err error

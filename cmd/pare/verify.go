@@ -11,6 +11,7 @@ import (
 	"strconv"
 	"strings"
 
+	"pare/cmd/internal/note"
 	"pare/cmd/internal/pipeline"
 	"pare/graph"
 	"pare/graph/ac"
@@ -61,8 +62,8 @@ graph/ac package): it says nothing about DC conditions or safety.`,
 		bind: typed(func(fs *flag.FlagSet, o *verifyOpts) {
 			fs.StringVar(&o.level, "level", "signal", "reduction level: tidy, signal or ideal")
 			fs.BoolVar(&o.json, "json", false, "print the report as JSON")
-			fs.Float64Var(&o.tolDB, "tol-db", ac.DefaultTolDB, "tolerance on magnitude, dB")
-			fs.Float64Var(&o.tolDeg, "tol-deg", ac.DefaultTolDeg, "tolerance on phase, degrees")
+			finiteVar(fs, &o.tolDB, "tol-db", ac.DefaultTolDB, "tolerance on magnitude, dB")
+			finiteVar(fs, &o.tolDeg, "tol-deg", ac.DefaultTolDeg, "tolerance on phase, degrees")
 			fs.BoolVar(&o.steps, "steps", false, "check after every rewrite step, print each step's worst deviation and name the first that breaks the tolerance")
 			fs.StringVar(&o.at, "at", "", "gang setting: min, mid, max or a fraction 0..1 (default: all three)")
 			fs.IntVar(&o.points, "points", 100, "log-spaced points per band before refinement")
@@ -101,8 +102,7 @@ type verifyJSON struct {
 func reportUnsolvable(e *env, path string, lvl rules.Level, cmp ac.CompareOptions, asJSON bool, caution string, err error) int {
 	var list graph.ErrorList
 	if errors.As(err, &list) {
-		printErrors(e, "pare verify", path, err)
-		return exitBad
+		return reportErr(e, "pare verify", path, err)
 	}
 	msg := "cannot be solved: " + err.Error()
 	if asJSON {
@@ -179,12 +179,15 @@ func reportVerify(e *env, res *pipeline.Result, o *verifyOpts, caution string) i
 			refused = append(refused, refusedStep{N: s.N, Rule: s.Rule, Refs: s.Refs, Refused: s.Refused})
 		}
 	}
+	// Nothing compared is not a pass: an output on a rail, or no ports,
+	// proves nothing about the reduction.
+	rails := note.RailOutputs(res.Circuit)
 	code := exitOK
-	if !rep.OK || len(refused) > 0 {
+	if !rep.OK || len(refused) > 0 || len(rep.Pairs) == 0 || len(rails) > 0 {
 		code = exitFound
 	}
 	if o.json {
-		out := verifyJSON{Pairs: rep.Pairs, TolDB: rep.TolDB, TolDeg: rep.TolDeg, OK: rep.OK && len(refused) == 0,
+		out := verifyJSON{Pairs: rep.Pairs, TolDB: rep.TolDB, TolDeg: rep.TolDeg, OK: code == exitOK,
 			Notes: rep.Notes, Level: res.Level.String(), Refused: refused, Steps: res.Steps}
 		enc := json.NewEncoder(e.stdout)
 		enc.SetIndent("", "  ")
@@ -195,6 +198,9 @@ func reportVerify(e *env, res *pipeline.Result, o *verifyOpts, caution string) i
 		return code
 	}
 	printVerify(e.stdout, res.Path, res.Level, rep, refused, o.steps, res.Steps, caution)
+	for _, n := range rails {
+		fmt.Fprintf(e.stdout, "NOT VERIFIED: output %s is a %s net, AC ground for the signal: nothing there can be compared\n", n, res.Circuit.RoleOf(n))
+	}
 	return code
 }
 
@@ -346,7 +352,7 @@ func parseAt(s string) (ac.Options, error) {
 		return ac.Options{VarFrac: 1, VarSet: true}, nil
 	}
 	f, err := strconv.ParseFloat(s, 64)
-	if err != nil || f < 0 || f > 1 {
+	if err != nil || !(f >= 0 && f <= 1) { // written so that NaN fails too
 		return ac.Options{}, fmt.Errorf("--at %q: give min, mid, max or a fraction of the travel from 0 to 1", s)
 	}
 	return ac.Options{VarFrac: f, VarSet: true}, nil
@@ -355,8 +361,7 @@ func parseAt(s string) (ac.Options, error) {
 // reportReduceError prints a reduction's failure the way a load failure
 // is printed, and returns the exit code for bad input.
 func reportReduceError(e *env, cmd, path string, err error) int {
-	printErrors(e, "pare "+cmd, path, err)
-	return exitBad
+	return reportErr(e, "pare "+cmd, path, err)
 }
 
 // circuitFor loads a file and reduces it when asked: the circuit sweep and

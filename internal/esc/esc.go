@@ -11,8 +11,8 @@
 //     acts.
 //   - Terminal: Visible, keeping newlines and tabs; NewTerminalWriter
 //     applies it to everything a command prints.
-//   - Markdown, MarkdownCell and MarkdownCode: text in a paragraph, in a
-//     table cell, and
+//   - Markdown, MarkdownCell, MarkdownAll and MarkdownCode: text in a
+//     paragraph, in a table cell, anywhere (every mark escaped), and
 //     text inside a code span. Nothing a user writes can open a tag, a
 //     link, an image or an entity, or leave a code span.
 //   - HTML: text content and attribute values.
@@ -163,6 +163,22 @@ func markerEnd(rs []rune, i int) bool { return i >= len(rs) || rs[i] == ' ' }
 // MarkdownCell is Markdown for a table cell, where a bar would start the
 // next column.
 func MarkdownCell(s string) string { return strings.ReplaceAll(Markdown(s), "|", `\|`) }
+
+// MarkdownAll makes text literal wherever it stands in Markdown, a table
+// cell included: every ASCII punctuation mark Markdown or a table gives a
+// meaning is backslash-escaped (CommonMark allows the escape before any of
+// them), and a line break becomes a space. Less readable as raw text than
+// Markdown, for cells of generated tables such as the batch index.
+func MarkdownAll(s string) string {
+	var b strings.Builder
+	for _, r := range Visible(oneLine.Replace(s)) {
+		if strings.ContainsRune("\\`*_{}[]()<>#+-.!|~&", r) {
+			b.WriteByte('\\')
+		}
+		b.WriteRune(r)
+	}
+	return b.String()
+}
 
 // orderedListStart reports whether the text before a '.' or ')' is all
 // digits from the start, which would make the line an ordered list item.

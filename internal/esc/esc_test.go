@@ -58,7 +58,7 @@ func TestVisible(t *testing.T) {
 func TestSinks(t *testing.T) {
 	for _, h := range hostile {
 		for name, f := range map[string]func(string) string{
-			"Visible": Visible, "HTML": HTML, "SVG": SVG, "SVGAttr": SVGAttr, "Markdown": Markdown, "MarkdownCell": MarkdownCell, "MarkdownCode": MarkdownCode,
+			"Visible": Visible, "HTML": HTML, "SVG": SVG, "SVGAttr": SVGAttr, "Markdown": Markdown, "MarkdownCell": MarkdownCell, "MarkdownAll": MarkdownAll, "MarkdownCode": MarkdownCode,
 		} {
 			if got := f(h); acting(got) {
 				t.Errorf("%s(%q) = %q still holds a hidden character", name, h, got)
@@ -75,6 +75,9 @@ func TestSinks(t *testing.T) {
 		}
 		if got := Markdown(h); !markdownInert(got, "*`[]#<>&!~") {
 			t.Errorf("Markdown(%q) = %q holds unescaped markup", h, got)
+		}
+		if got := MarkdownAll(h); !markdownInert(got, "*`[]#<>&!~|()_-+.{}") {
+			t.Errorf("MarkdownAll(%q) = %q holds unescaped markup", h, got)
 		}
 		if got := MarkdownCell(h); !markdownInert(got, "*`[]#<>&!~|") {
 			t.Errorf("MarkdownCell(%q) = %q holds unescaped markup", h, got)

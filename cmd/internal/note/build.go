@@ -2,6 +2,7 @@ package note
 
 import (
 	"path/filepath"
+	"slices"
 	"sort"
 
 	"pare/cmd/internal/pipeline"
@@ -50,6 +51,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 	}
 	if r.Verified {
 		n.Verify = VerifyOf(r.Report, r.CompareErr, r.Compare)
+		n.Verify.Rails = RailOutputs(r.Circuit)
 	}
 	return n
 }
@@ -101,8 +103,10 @@ func bandLine(c *graph.Circuit) []string {
 func mergesOf(orig, reduced *graph.Circuit) []Merge {
 	var out []Merge
 	for _, rp := range reduced.Parts {
-		from := rp.Origins()
-		if len(from) == 1 && from[0] == rp.Ref {
+		// Deduplicated: a netlist may name a part twice in from, or the
+		// part itself ("RV1 stands for RV1, RV1" helps nobody).
+		from := slices.Compact(sortedCopy(rp.Origins()))
+		if len(from) == 0 || (len(from) == 1 && from[0] == rp.Ref) {
 			continue
 		}
 		var inOrig []string
@@ -198,5 +202,19 @@ func sortedKeys(m map[string]bool) []string {
 func sortedCopy(s []string) []string {
 	out := append([]string(nil), s...)
 	sort.Strings(out)
+	return out
+}
+
+// RailOutputs lists the declared outputs on a net that is AC ground by its
+// role (a supply, heater or bias rail; ground is refused at load): the
+// comparison skips them, so a reduction with such an output is never
+// reported as verified.
+func RailOutputs(c *graph.Circuit) []string {
+	var out []string
+	for _, n := range c.Outputs {
+		if c.RoleOf(n).IsACGround() {
+			out = append(out, n)
+		}
+	}
 	return out
 }

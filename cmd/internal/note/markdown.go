@@ -3,7 +3,8 @@ package note
 import (
 	"fmt"
 	"strings"
-	"unicode"
+
+	"pare/internal/esc"
 )
 
 // Num prints a deviation or tolerance with at most three decimals and no
@@ -35,42 +36,15 @@ func codeList(items []string) string {
 	return strings.Join(out, ", ")
 }
 
-// mdCode keeps a code span intact: a backtick inside would end it.
-func mdCode(s string) string { return strings.ReplaceAll(s, "`", "'") }
+// mdCode makes text safe inside a code span (esc.MarkdownCode): a gang
+// name or a file name with a backtick or a line break in it cannot leave
+// the span.
+func mdCode(s string) string { return esc.MarkdownCode(s) }
 
-// mdText escapes the characters that would turn free text (a rule's
-// justification, a title) into markup: emphasis, links, HTML, headings.
-// An underscore inside a word (rf_tank) starts no emphasis in CommonMark, so
-// it is left alone and the raw note stays readable.
-func mdText(s string) string {
-	var b strings.Builder
-	rs := []rune(s)
-	for i, r := range rs {
-		switch r {
-		case '\\', '*', '`', '[', ']', '#':
-			b.WriteRune('\\')
-			b.WriteRune(r)
-		case '_':
-			if i > 0 && i+1 < len(rs) && isWordRune(rs[i-1]) && isWordRune(rs[i+1]) {
-				b.WriteRune(r)
-			} else {
-				b.WriteString(`\_`)
-			}
-		case '<', '>':
-			// A backslash escape keeps the raw note readable ("|Xc| \> 0.1·|Z|")
-			// and, unlike a bare '<', never opens an HTML tag.
-			b.WriteRune('\\')
-			b.WriteRune(r)
-		case '\n', '\r':
-			b.WriteRune(' ')
-		default:
-			b.WriteRune(r)
-		}
-	}
-	return b.String()
-}
-
-func isWordRune(r rune) bool { return unicode.IsLetter(r) || unicode.IsDigit(r) }
+// mdText escapes free text (a rule's justification, a title) for the note:
+// no emphasis, link, image, HTML, entity, heading or list can start from
+// it, and control and bidi characters are shown as escapes (esc.Markdown).
+func mdText(s string) string { return esc.Markdown(s) }
 
 // mdCell is mdText for a table cell, where a bar would start a new column.
-func mdCell(s string) string { return strings.ReplaceAll(mdText(s), "|", `\|`) }
+func mdCell(s string) string { return esc.MarkdownCell(s) }

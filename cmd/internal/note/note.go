@@ -97,6 +97,7 @@ type Verify struct {
 	// Empty: no transfer and no tank impedance was compared, so nothing
 	// was proven (never a pass).
 	Empty bool
+	Rails []string // declared outputs on a rail: nothing there is compared
 }
 
 type Pair struct {
@@ -122,7 +123,14 @@ func (p Pair) within(tolDB, tolDeg float64) bool {
 }
 
 // Failed reports whether the note must say the verification failed.
-func (v Verify) Failed() bool { return v.Skipped == "" && (v.Err != "" || !v.OK) }
+func (v Verify) Failed() bool { return v.Skipped == "" && (v.Err != "" || !v.OK || v.Unproven()) }
+
+// Unproven reports a comparison that ran but cannot stand for the
+// declared outputs: one of them is on a rail, where nothing is compared.
+// Never a pass. (An empty comparison is Empty.)
+func (v Verify) Unproven() bool {
+	return v.Skipped == "" && v.Err == "" && len(v.Rails) > 0
+}
 
 // Caution is the note's safety block, as graph/safety words it for the set:
 // a bold heading, one item per line, and what the choice rests on.
@@ -192,6 +200,8 @@ func writeVerdict(b *bytes.Buffer, n *Note) {
 		b.WriteString("**Verification proved nothing**: nothing comparable, no transfer and no tank impedance could be compared, so the reduced sheet is unproven. Declare an input and an output (or a region with both) and run again; until then use the faded sheet.\n\n")
 	case v.Err != "":
 		b.WriteString("**Verification FAILED**: the AC comparison could not be completed, so the reduced sheet is unproven. Use the faded sheet, not the reduced one, until this is resolved (see Verification below).\n\n")
+	case v.Unproven():
+		b.WriteString("**Not verified**: a declared output is on a rail, where nothing can be compared (see Verification below), so the reduced sheet is unproven. Use the faded sheet, not the reduced one, for anything that matters.\n\n")
 	case v.Failed():
 		b.WriteString("**Verification FAILED**: the reduced circuit does not match the original within tolerance. Use the faded sheet, not the reduced one, until this is resolved (see Verification below).\n\n")
 	default:
@@ -392,6 +402,8 @@ func writeVerify(b *bytes.Buffer, n *Note) {
 	switch {
 	case v.Empty:
 		verdict = "**Nothing comparable** (no transfer and no tank impedance; not a pass)"
+	case v.Unproven():
+		verdict = "**Not verified**"
 	case !v.OK:
 		verdict = "**Failed**"
 	}
