@@ -40,7 +40,9 @@ recognises the stages, and writes into DIR (default: FILE without .toml, plus
 .pare): reduced.toml, reduced.svg, faded.svg and notes.md, a repair note that
 embeds the sheets. Everything is made in memory first; on bad input nothing is
 written. Exit 0 when the reduction was verified, 1 when the verification
-failed (the files are still written, and the note says so), 2 on bad input.
+failed or compared nothing (the files are still written, and the note says so),
+2 on bad input, 3 on an internal error. The folder DIR is replaced whole, in
+one step; a folder holding files pare did not write is refused.
 'pare FILE' is the same as 'pare run FILE'.
 
 Given several files, or a folder (every .toml under it), it runs the job on
