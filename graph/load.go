@@ -39,7 +39,6 @@ func Parse(file string, data []byte) (*Circuit, error) {
 	return ld.c, nil
 }
 
-
 type loader struct {
 	ix   *keyIndex
 	c    *Circuit
