@@ -8,5 +8,3 @@ require (
 )
 
 require github.com/ajstarks/svgo v0.0.0-20211024235047-1546f124cd8b
-
-require golang.org/x/sys v0.50.0 // indirect

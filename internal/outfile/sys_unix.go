@@ -6,12 +6,10 @@ import (
 	"io/fs"
 	"os"
 	"syscall"
-
-	"golang.org/x/sys/unix"
 )
 
 // canWrite asks the system whether this process may write the file.
-func canWrite(path string) bool { return unix.Access(path, unix.W_OK) == nil }
+func canWrite(path string) bool { return syscall.Access(path, 0x2) == nil } // W_OK, unistd.h
 
 // owner is the user and group of a file being replaced.
 type owner struct {
