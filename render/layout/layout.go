@@ -17,7 +17,6 @@
 package layout
 
 import (
-	"fmt"
 	"math"
 	"slices"
 	"sort"
@@ -102,201 +101,6 @@ const (
 	inRef  = "@in:"
 	outRef = "@out:"
 )
-
-// Layout places and routes the circuit.
-func Layout(c *graph.Circuit, o Options) (*Result, error) {
-	if c == nil {
-		return nil, fmt.Errorf("layout: no circuit")
-	}
-	res, ly, crossings := layoutOnce(c, o, nil, false)
-	if crossings == 0 || !o.Untangle || len(ly.cells) > maxRetryCells {
-		return res, nil
-	}
-	// Crossings left after rerouting come from the placement: try the other
-	// orientations of the parts on crossing nets (coils, transformers), or
-	// a part moved down its column, with parts lined up on the signal line
-	// or along their nets; keep each change that lowers the crossings. A
-	// bounded greedy local search.
-	tried := 0
-	for _, free := range []bool{false, true} {
-		turns := map[string]int{}
-		cur, curLy, curX := res, ly, crossings
-		if free {
-			cur, curLy, curX = layoutOnce(c, o, nil, true)
-		}
-		for pass := 0; pass < 2 && curX > 0; pass++ {
-			for _, cl := range curLy.cells {
-				if !curLy.crossing[cl.ref] || curX == 0 {
-					continue
-				}
-				n := len(cl.turns)
-				for t := 0; t <= n+2 && tried < maxRetries && curX > 0; t++ {
-					if t == cl.turn && t < n {
-						continue
-					}
-					tried++
-					trial := map[string]int{}
-					for k, v := range turns {
-						trial[k] = v
-					}
-					switch {
-					case t == n:
-						trial[sinkKey+cl.ref] = 1
-					case t > n:
-						trial[shiftKey+cl.ref] = 2*(t-n) - 3 // one layer left, then right
-					default:
-						trial[cl.ref] = t
-					}
-					r2, ly2, x2 := layoutOnce(c, o, trial, free)
-					if x2 < curX {
-						cur, curLy, curX, turns = r2, ly2, x2, trial
-					}
-				}
-			}
-		}
-		// a crossing no single change removes may yield to two: a part on
-		// a crossing net turned (a transformer mirrored) together with a
-		// part it is wired to moved to the bottom of its column
-		pairs := 0
-		if free {
-			pairs = maxPairTries // once is enough: on the signal-line layout
-		}
-		for _, a := range curLy.cells {
-			if curX == 0 || pairs >= maxPairTries {
-				break
-			}
-			if !curLy.crossing[a.ref] || len(a.turns) < 2 {
-				continue
-			}
-			for t := range a.turns {
-				if t == a.turn {
-					continue
-				}
-				for _, b := range curLy.cells {
-					if b == a || b.edge != 0 || pairs >= maxPairTries || curX == 0 || !shareNet(curLy, a, b) {
-						continue
-					}
-					pairs++
-					trial := map[string]int{}
-					for k, v := range turns {
-						trial[k] = v
-					}
-					trial[a.ref] = t
-					trial[sinkKey+b.ref] = 1
-					r2, ly2, x2 := layoutOnce(c, o, trial, free)
-					if x2 < curX {
-						cur, curLy, curX, turns = r2, ly2, x2, trial
-					}
-				}
-			}
-		}
-		if curX < crossings {
-			res, crossings = cur, curX
-		}
-		if crossings == 0 {
-			break
-		}
-	}
-	return res, nil
-}
-
-// shareNet says whether two cells have a wired net in common.
-func shareNet(ly *state, a, b *cell) bool {
-	for _, n := range ly.signalNets(a) {
-		for _, m := range ly.signalNets(b) {
-			if n == m {
-				return true
-			}
-		}
-	}
-	return false
-}
-
-// maxPairTries bounds the two-change search: a few dozen layouts of a
-// small reduced sheet.
-const maxPairTries = 40
-
-// sinkKey marks, in the search's turns map, a part moved to the bottom of
-// its column.
-const sinkKey = "sink:"
-
-// shiftKey marks a part moved one layer left (-1) or right (+1).
-const shiftKey = "shift:"
-
-// Bounds of the orientation search: small sheets only, a few dozen tries.
-const (
-	maxRetryCells = 300
-	maxRetries    = 80
-)
-
-// layoutOnce lays the circuit out with some orientations fixed (index into
-// each symbol's Turns) and returns the sheet and its number of crossings.
-func layoutOnce(c *graph.Circuit, o Options, turns map[string]int, free bool) (*Result, *state, int) {
-	cells := makeCells(c, o)
-	ly := &state{c: c, o: o, cells: cells, turns: turns, crossing: map[string]bool{}, free: free}
-	if len(cells) == 0 {
-		return &Result{}, ly, 0
-	}
-	ly.rank()
-	ly.orient()
-	for _, cl := range ly.cells {
-		buildLocals(c, cl)
-		placeLabel(c, cl, labelPrefs(cl))
-	}
-	ly.place()
-	res := &Result{}
-	for _, cl := range ly.cells {
-		res.Placed = append(res.Placed, Placed{Ref: cl.ref, Part: realPart(cl), Shape: cl.shape, Faded: cl.faded})
-		res.Geom.Symbols = append(res.Geom.Symbols, geom.Symbol{Ref: cl.ref, Box: cl.shape.Box, Pins: cl.shape.Pins, Faded: cl.faded})
-		res.Geom.Locals = append(res.Geom.Locals, cl.locals...)
-		if len(cl.label.Lines) > 0 {
-			res.Geom.Labels = append(res.Geom.Labels, cl.label)
-		}
-	}
-	res.Geom.Frames = ly.frames
-	for _, f := range ly.frames {
-		res.Geom.Labels = append(res.Geom.Labels, f.Title)
-	}
-	rt := newRouter(ly)
-	rt.routeAll()
-	rt.emit(&res.Geom)
-	ly.growFrames(&res.Geom)
-	res.Geom.Frames = ly.frames
-	crossings := 0
-	for i := range rt.own2 {
-		if rt.own2[i] != 0 {
-			crossings++
-			for _, id := range []int32{rt.own1[i], rt.own2[i]} {
-				for _, p := range rt.nets[id-1].pins {
-					ly.crossing[p.ref] = true
-				}
-			}
-		}
-	}
-	if o.Links {
-		res.Geom.Links = ly.links(&res.Geom)
-	}
-	b := geom.Rect{}
-	for _, s := range res.Geom.Symbols {
-		b = b.Union(s.Box)
-	}
-	for _, l := range res.Geom.Locals {
-		b = b.Union(l.Box)
-	}
-	for _, l := range res.Geom.Labels {
-		b = b.Union(l.Box)
-	}
-	for _, w := range res.Geom.Wires {
-		for _, s := range w.Segs {
-			b = b.Union(s.Box())
-		}
-	}
-	for _, f := range res.Geom.Frames {
-		b = b.Union(f.Box)
-	}
-	res.Geom.Bounds = b
-	return res, ly, crossings
-}
 
 func realPart(cl *cell) *graph.Part {
 	if strings.HasPrefix(cl.ref, "@") {
@@ -449,15 +253,19 @@ type state struct {
 	turns    map[string]int
 	crossing map[string]bool
 	free     bool // no common signal line: every part lines up along its nets
+	// shortFirst routes the nets shortest first rather than most pins first
+	shortFirst bool
 	// frameStage is the stage (index into Options.Frames) of each frame drawn
 	frameStage []int
 }
 
-// growFrames widens each frame to hold the wires of nets that lie wholly
-// inside its stage, so that a detour never leaves its own frame.
-func (ly *state) growFrames(g *geom.Sheet) {
-	if len(ly.frames) == 0 {
-		return
+// growFrames widens each frame (a copy of the placed frames) to hold the
+// wires of nets that lie wholly inside its stage, so that a detour never
+// leaves its own frame.
+func (ly *state) growFrames(g *geom.Sheet) []geom.Frame {
+	frames := append([]geom.Frame(nil), ly.frames...)
+	if len(frames) == 0 {
+		return frames
 	}
 	stageOfNet := map[string]int{}
 	for _, cl := range ly.cells {
@@ -484,7 +292,7 @@ func (ly *state) growFrames(g *geom.Sheet) {
 		}
 		// grow up or down only: frames stand side by side, so growing
 		// sideways could run one into the next
-		fb := &ly.frames[f].Box
+		fb := &frames[f].Box
 		for _, seg := range w.Segs {
 			sb := seg.Box()
 			if sb.X1 < fb.X0 || sb.X0 > fb.X1 {
@@ -496,6 +304,7 @@ func (ly *state) growFrames(g *geom.Sheet) {
 			fb.Y1 = math.Max(fb.Y1, sb.Y1+framePad+0.5)
 		}
 	}
+	return frames
 }
 
 // signalNets of a cell: the nets of its pins that are wired.

@@ -1,0 +1,338 @@
+package layout
+
+import (
+	"math"
+	"math/bits"
+	"sort"
+
+	"pare/render/geom"
+)
+
+// Routing costs, in grid steps: a bend costs three steps, a crossing thirty,
+// so a wire goes a fair way round rather than cross another (crossings hurt
+// a reader most: Purchase 1997). Every cost is a whole number of steps, so
+// the search can keep its open states in buckets by cost (queue.go).
+const (
+	stepCost  = 1
+	bendCost  = 3
+	crossCost = 30
+	// while removing crossings a wire may go a long way round instead
+	wideCrossCost = 120
+	// a step beside another net's wire, on the neighbouring grid line and
+	// running the same way, or along a stage frame's dashed edge half a step
+	// away: at print size the two lines blur into one, so a wire keeps a
+	// grid step of clear space when a short detour allows
+	nearCost = 3
+	// a step through a stage frame's edge: a wire of the stage stays inside
+	// its frame rather than run round outside it
+	edgeCost = 6
+)
+
+// arm bits: which neighbours a wire cell connects to
+const (
+	armW = 1 << geom.Left
+	armN = 1 << geom.Up
+	armE = 1 << geom.Right
+	armS = 1 << geom.Down
+)
+
+// alongArms are the arms of a straight run in each direction's axis.
+var alongArms = [4]uint8{armE | armW, armN | armS, armE | armW, armN | armS}
+
+func opposite(d int) int { return (d + 2) % 4 }
+
+// axisOf is 0 for a horizontal direction, 1 for a vertical one.
+func axisOf(d int) int { return d & 1 }
+
+// Grid cell flags.
+const (
+	fBlocked uint8 = 1 << iota // a symbol, local, label or title: no wire
+	fPin                       // a pin tip: only its own net's wire starts here
+	fHugH                      // half a step from a frame edge running horizontally
+	fHugV                      // half a step from a frame edge running vertically
+	fCutE                      // the step east passes through a frame edge
+	fCutS                      // the step south passes through a frame edge
+	fFadedE                    // the wire step east is drawn faded
+	fFadedS                    // the wire step south is drawn faded
+)
+
+// gridCell is one grid point: the nets whose wires use it (two where wires
+// cross), their arms, the net reserved there (a pin tip and the point just
+// outside it) and the flags above. Kept together so that the search reads
+// one small record per point it looks at.
+type gridCell struct {
+	own   [2]int32
+	resv  int32
+	arm   [2]uint8
+	flags uint8
+}
+
+type wirePin struct {
+	ref   string
+	pin   geom.Pin
+	faded bool
+	cell  int
+}
+
+type netRoute struct {
+	name  string
+	pins  []wirePin
+	cells []int // cells the net's wires use, in the order they were laid
+	ok    bool
+}
+
+// router is a grid of cells one grid step apart over the sheet.
+type router struct {
+	ly           *state
+	x0, y0, w, h int
+	g            []gridCell
+	nets         []*netRoute // index = id-1
+	flags        []geom.Local
+	sc           *scratch // the search's memory, shared by the layouts of one sheet
+	wide         bool     // search wide windows first (while removing crossings)
+	pops         int      // states taken off the queue so far: the work budget
+}
+
+func newRouter(ly *state, sc *scratch) *router {
+	b := geom.Rect{}
+	for _, cl := range ly.cells {
+		b = b.Union(cl.footprint())
+	}
+	for _, f := range ly.frames {
+		b = b.Union(f.Box)
+	}
+	rt := &router{ly: ly, sc: sc}
+	rt.x0, rt.y0 = int(math.Floor(b.X0))-4, int(math.Floor(b.Y0))-4
+	rt.w = int(math.Ceil(b.X1)) + 5 - rt.x0
+	rt.h = int(math.Ceil(b.Y1)) + 5 - rt.y0
+	rt.g = make([]gridCell, rt.w*rt.h)
+	rt.collectNets()
+	rt.blockObstacles()
+	rt.reservePins()
+	return rt
+}
+
+// collectNets makes a route for every wired net, in name order.
+func (rt *router) collectNets() {
+	byName := map[string]*netRoute{}
+	var names []string
+	for _, cl := range rt.ly.cells {
+		for _, p := range cl.shape.Pins {
+			if rt.ly.c.RoleOf(p.Net).IsACGround() || p.Net == "" || p.Net == notConnected {
+				continue
+			}
+			nr := byName[p.Net]
+			if nr == nil {
+				nr = &netRoute{name: p.Net}
+				byName[p.Net] = nr
+				names = append(names, p.Net)
+			}
+			nr.pins = append(nr.pins, wirePin{ref: cl.ref, pin: p, faded: cl.faded, cell: rt.index(p.At)})
+		}
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		rt.nets = append(rt.nets, byName[n])
+	}
+}
+
+// blockObstacles blocks symbol bodies, locals, labels and frame titles, and
+// marks the grid lines beside frame edges.
+func (rt *router) blockObstacles() {
+	for _, cl := range rt.ly.cells {
+		rt.block(cl.shape.Box)
+		for _, l := range cl.locals {
+			rt.block(l.Box)
+			for _, s := range l.Stub {
+				rt.block(s.Box())
+			}
+		}
+		if len(cl.label.Lines) > 0 {
+			rt.block(cl.label.Box)
+		}
+	}
+	for _, f := range rt.ly.frames {
+		rt.block(f.Title.Box)
+		rt.markHugs(f.Box)
+	}
+}
+
+// reservePins frees every pin tip for its own net and reserves the point
+// just outside it, so that no other wire closes a pin's way out.
+func (rt *router) reservePins() {
+	for id, nr := range rt.nets {
+		for _, wp := range nr.pins {
+			g := &rt.g[wp.cell]
+			g.flags = g.flags&^fBlocked | fPin
+			g.resv = int32(id + 1)
+		}
+	}
+	for id, nr := range rt.nets {
+		if len(nr.pins) < 2 {
+			continue
+		}
+		for _, wp := range nr.pins {
+			e := rt.neighbour(wp.cell, int(wp.pin.Dir))
+			if e >= 0 && rt.g[e].flags&fBlocked == 0 && rt.g[e].resv == 0 {
+				rt.g[e].resv = int32(id + 1)
+			}
+		}
+	}
+}
+
+// markHugs marks the grid lines on either side of a frame's edges.
+func (rt *router) markHugs(b geom.Rect) {
+	set := func(x, y int, f uint8) {
+		x, y = x-rt.x0, y-rt.y0
+		if x >= 0 && y >= 0 && x < rt.w && y < rt.h {
+			rt.g[y*rt.w+x].flags |= f
+		}
+	}
+	for _, ey := range []float64{b.Y0, b.Y1} {
+		for x := int(math.Ceil(b.X0)); x <= int(math.Floor(b.X1)); x++ {
+			set(x, int(math.Floor(ey)), fHugH|fCutS)
+			set(x, int(math.Ceil(ey)), fHugH)
+		}
+	}
+	for _, ex := range []float64{b.X0, b.X1} {
+		for y := int(math.Ceil(b.Y0)); y <= int(math.Floor(b.Y1)); y++ {
+			set(int(math.Floor(ex)), y, fHugV|fCutE)
+			set(int(math.Ceil(ex)), y, fHugV)
+		}
+	}
+}
+
+// crowded says whether a step into cell n (at x, y) moving in direction d
+// runs beside another net's wire going the same way, or along a frame edge.
+func (rt *router) crowded(n, x, y, d int, net int32) bool {
+	hug, along := fHugV, uint8(armN|armS)
+	a, b := -1, -1 // the neighbours on either side of the step
+	if axisOf(d) == 0 {
+		hug, along = fHugH, armE|armW
+		if y > 0 {
+			a = n - rt.w
+		}
+		if y < rt.h-1 {
+			b = n + rt.w
+		}
+	} else {
+		if x > 0 {
+			a = n - 1
+		}
+		if x < rt.w-1 {
+			b = n + 1
+		}
+	}
+	if rt.g[n].flags&hug != 0 {
+		return true
+	}
+	return (a >= 0 && rt.runsAlong(a, along, net)) || (b >= 0 && rt.runsAlong(b, along, net))
+}
+
+// runsAlong says whether another net's wire at cell m has an arm along the
+// given axis.
+func (rt *router) runsAlong(m int, along uint8, net int32) bool {
+	g := &rt.g[m]
+	return (g.own[0] != 0 && g.own[0] != net && g.arm[0]&along != 0) ||
+		(g.own[1] != 0 && g.own[1] != net && g.arm[1]&along != 0)
+}
+
+// cutsFrame says whether the step from cell c to its neighbour n in
+// direction d passes through a frame edge.
+func (rt *router) cutsFrame(c, n, d int) bool {
+	switch d {
+	case int(geom.Right):
+		return rt.g[c].flags&fCutE != 0
+	case int(geom.Left):
+		return rt.g[n].flags&fCutE != 0
+	case int(geom.Down):
+		return rt.g[c].flags&fCutS != 0
+	}
+	return rt.g[n].flags&fCutS != 0
+}
+
+func (rt *router) index(p geom.Pt) int {
+	x, y := int(math.Round(p.X))-rt.x0, int(math.Round(p.Y))-rt.y0
+	return y*rt.w + x
+}
+
+func (rt *router) point(i int) geom.Pt {
+	return geom.Pt{X: float64(i%rt.w + rt.x0), Y: float64(i/rt.w + rt.y0)}
+}
+
+var dirStep = [4][2]int{{-1, 0}, {0, -1}, {1, 0}, {0, 1}}
+
+func (rt *router) neighbour(i, d int) int {
+	x, y := i%rt.w+dirStep[d][0], i/rt.w+dirStep[d][1]
+	if x < 0 || y < 0 || x >= rt.w || y >= rt.h {
+		return -1
+	}
+	return y*rt.w + x
+}
+
+// block marks every grid point inside or on the integer hull of r, so that
+// no wire between free points can enter r.
+func (rt *router) block(r geom.Rect) {
+	x0, x1 := int(math.Floor(r.X0+geom.Eps))-rt.x0, int(math.Ceil(r.X1-geom.Eps))-rt.x0
+	y0, y1 := int(math.Floor(r.Y0+geom.Eps))-rt.y0, int(math.Ceil(r.Y1-geom.Eps))-rt.y0
+	for y := max(y0, 0); y <= min(y1, rt.h-1); y++ {
+		for x := max(x0, 0); x <= min(x1, rt.w-1); x++ {
+			rt.g[y*rt.w+x].flags |= fBlocked
+		}
+	}
+}
+
+func (rt *router) arms(i int, net int32) uint8 {
+	switch net {
+	case rt.g[i].own[0]:
+		return rt.g[i].arm[0]
+	case rt.g[i].own[1]:
+		return rt.g[i].arm[1]
+	}
+	return 0
+}
+
+func (rt *router) owns(i int, net int32) bool { return rt.g[i].own[0] == net || rt.g[i].own[1] == net }
+
+func (rt *router) foreign(i int, net int32) bool {
+	g := &rt.g[i]
+	return (g.own[0] != 0 && g.own[0] != net) || (g.own[1] != 0 && g.own[1] != net)
+}
+
+func (rt *router) addArm(i int, net int32, bit uint8) {
+	g := &rt.g[i]
+	switch {
+	case g.own[0] == net:
+		g.arm[0] |= bit
+	case g.own[1] == net:
+		g.arm[1] |= bit
+	case g.own[0] == 0:
+		g.own[0], g.arm[0] = net, bit
+	default:
+		g.own[1], g.arm[1] = net, bit
+	}
+}
+
+// joinable says whether a wire arriving into cell i moving in direction d
+// may join the net's tree there: the arm must be free, no other net may be
+// there, and the cell must end with at most three arms (a T, never a
+// four-way junction).
+func (rt *router) joinable(i int, net int32, d int) bool {
+	g := &rt.g[i]
+	if g.own[1] != 0 || g.own[0] != net {
+		return false
+	}
+	bit := uint8(1) << opposite(d)
+	return g.arm[0]&bit == 0 && bits.OnesCount8(g.arm[0]) < 3
+}
+
+// setFaded records whether the step east (or south) of cell i is faded.
+func (rt *router) setFaded(i int, f uint8, faded bool) {
+	if faded {
+		rt.g[i].flags |= f
+	} else {
+		rt.g[i].flags &^= f
+	}
+}
+
+func (rt *router) faded(i int, f uint8) bool { return rt.g[i].flags&f != 0 }
