@@ -125,32 +125,53 @@ func (rt *router) wire(id int) (geom.Wire, []geom.Pt) {
 	sort.Ints(cells)
 	cells = uniq(cells)
 	w := geom.Wire{Net: nr.name}
-	straight := func(c int, along uint8) bool { return rt.arms(c, net) == along }
-	// a real step joins two cells that both carry it (a pin's lead into
-	// its body is an arm without a step)
-	edgeE := func(c int) bool {
-		return c >= 0 && c%rt.w < rt.w-1 && rt.arms(c, net)&armE != 0 && rt.arms(c+1, net)&armW != 0
-	}
-	edgeS := func(c int) bool {
-		return c >= 0 && c+rt.w < len(rt.g) && rt.arms(c, net)&armS != 0 && rt.arms(c+rt.w, net)&armN != 0
-	}
-	// horizontal runs, row by row (cells are sorted by row, then column)
+	rt.runsAcross(net, cells, &w)
+	rt.runsDown(net, cells, &w)
+	var dots []geom.Pt
 	for _, c := range cells {
-		if !edgeE(c) {
+		if bits.OnesCount8(rt.arms(c, net)) >= 3 {
+			dots = append(dots, rt.point(c))
+		}
+	}
+	return w, dots
+}
+
+// edgeE says whether the net steps from cell c to the cell east of it: a
+// real step joins two cells that both carry it (a pin's lead into its body
+// is an arm without a step).
+func (rt *router) edgeE(c int, net int32) bool {
+	return c >= 0 && c%rt.w < rt.w-1 && rt.arms(c, net)&armE != 0 && rt.arms(c+1, net)&armW != 0
+}
+
+// edgeS says whether the net steps from cell c to the cell south of it.
+func (rt *router) edgeS(c int, net int32) bool {
+	return c >= 0 && c+rt.w < len(rt.g) && rt.arms(c, net)&armS != 0 && rt.arms(c+rt.w, net)&armN != 0
+}
+
+// runsAcross adds the net's horizontal runs, row by row (cells are sorted by
+// row, then column).
+func (rt *router) runsAcross(net int32, cells []int, w *geom.Wire) {
+	straight := func(c int) bool { return rt.arms(c, net) == armE|armW }
+	for _, c := range cells {
+		if !rt.edgeE(c, net) {
 			continue
 		}
 		fe := rt.faded(c, fFadedE)
-		if c%rt.w > 0 && edgeE(c-1) && straight(c, armE|armW) && rt.faded(c-1, fFadedE) == fe {
+		if c%rt.w > 0 && rt.edgeE(c-1, net) && straight(c) && rt.faded(c-1, fFadedE) == fe {
 			continue // inside a run started further left
 		}
 		end := c + 1
-		for edgeE(end) && straight(end, armE|armW) && rt.faded(end, fFadedE) == fe {
+		for rt.edgeE(end, net) && straight(end) && rt.faded(end, fFadedE) == fe {
 			end++
 		}
 		w.Segs = append(w.Segs, geom.Seg{A: rt.point(c), B: rt.point(end)})
 		w.Faded = append(w.Faded, fe)
 	}
-	// vertical runs, column by column
+}
+
+// runsDown adds the net's vertical runs, column by column.
+func (rt *router) runsDown(net int32, cells []int, w *geom.Wire) {
+	straight := func(c int) bool { return rt.arms(c, net) == armN|armS }
 	byCol := append([]int(nil), cells...)
 	sort.Slice(byCol, func(a, b int) bool {
 		xa, xb := byCol[a]%rt.w, byCol[b]%rt.w
@@ -160,27 +181,20 @@ func (rt *router) wire(id int) (geom.Wire, []geom.Pt) {
 		return byCol[a] < byCol[b]
 	})
 	for _, c := range byCol {
-		if !edgeS(c) {
+		if !rt.edgeS(c, net) {
 			continue
 		}
 		fs := rt.faded(c, fFadedS)
-		if edgeS(c-rt.w) && straight(c, armN|armS) && rt.faded(c-rt.w, fFadedS) == fs {
-			continue
+		if rt.edgeS(c-rt.w, net) && straight(c) && rt.faded(c-rt.w, fFadedS) == fs {
+			continue // inside a run started further up
 		}
 		end := c + rt.w
-		for edgeS(end) && straight(end, armN|armS) && rt.faded(end, fFadedS) == fs {
+		for rt.edgeS(end, net) && straight(end) && rt.faded(end, fFadedS) == fs {
 			end += rt.w
 		}
 		w.Segs = append(w.Segs, geom.Seg{A: rt.point(c), B: rt.point(end)})
 		w.Faded = append(w.Faded, fs)
 	}
-	var dots []geom.Pt
-	for _, c := range cells {
-		if bits.OnesCount8(rt.arms(c, net)) >= 3 {
-			dots = append(dots, rt.point(c))
-		}
-	}
-	return w, dots
 }
 
 func uniq(s []int) []int {

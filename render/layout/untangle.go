@@ -2,11 +2,8 @@ package layout
 
 import (
 	"fmt"
-	"strconv"
-	"strings"
 
 	"pare/graph"
-	"pare/render/geom"
 )
 
 // Layout places and routes the circuit.
@@ -113,77 +110,6 @@ func (u *untangler) layout(turns map[string]int, free bool) *routed {
 	return &routed{ly: ly, w: w, crossings: w.crossings}
 }
 
-// search runs the greedy local search from the plain layout (signal path on
-// one line, or every part lined up along its nets when free) and returns
-// the best layout it found.
-func (u *untangler) search(free bool) *routed {
-	turns := map[string]int{}
-	cur := u.layout(nil, free)
-	try := func(trial map[string]int) {
-		if u.pops > untangleBudget {
-			return // deterministic work bound: the same input stops at the same place
-		}
-		if r := u.layout(trial, free); r.crossings < cur.crossings {
-			cur, turns = r, trial
-		}
-	}
-	for pass := 0; pass < 2 && cur.crossings > 0; pass++ {
-		for _, cl := range cur.ly.cells {
-			if !cur.ly.crossing[cl.ref] || cur.crossings == 0 {
-				continue
-			}
-			n := len(cl.turns)
-			for t := 0; t <= n+2 && u.tried < maxRetries && cur.crossings > 0; t++ {
-				if t == cl.turn && t < n {
-					continue
-				}
-				u.tried++
-				trial := copyTurns(turns)
-				switch {
-				case t == n:
-					trial[sinkKey+cl.ref] = 1
-				case t > n:
-					trial[shiftKey+cl.ref] = 2*(t-n) - 3 // one layer left, then right
-				default:
-					trial[cl.ref] = t
-				}
-				try(trial)
-			}
-		}
-	}
-	if free {
-		return cur // pairs once is enough: on the signal-line layout
-	}
-	// a crossing no single change removes may yield to two: a part on a
-	// crossing net turned (a transformer mirrored) together with a part it
-	// is wired to moved to the bottom of its column
-	pairs := 0
-	for _, a := range cur.ly.cells {
-		if cur.crossings == 0 || pairs >= maxPairTries {
-			break
-		}
-		if !cur.ly.crossing[a.ref] || len(a.turns) < 2 {
-			continue
-		}
-		for t := range a.turns {
-			if t == a.turn {
-				continue
-			}
-			for _, b := range cur.ly.cells {
-				if b == a || b.edge != 0 || pairs >= maxPairTries || cur.crossings == 0 || !shareNet(cur.ly, a, b) {
-					continue
-				}
-				pairs++
-				trial := copyTurns(turns)
-				trial[a.ref] = t
-				trial[sinkKey+b.ref] = 1
-				try(trial)
-			}
-		}
-	}
-	return cur
-}
-
 func copyTurns(m map[string]int) map[string]int {
 	out := make(map[string]int, len(m)+1)
 	for k, v := range m {
@@ -204,154 +130,93 @@ func shareNet(ly *state, a, b *cell) bool {
 	return false
 }
 
-// place puts the circuit's symbols, locals, labels and frames in place,
-// with some orientations fixed (index into each symbol's Turns).
-func place(c *graph.Circuit, o Options, turns map[string]int, free bool) *state {
-	cells := makeCells(c, o)
-	ly := &state{c: c, o: o, cells: cells, turns: turns, crossing: map[string]bool{}, free: free}
-	if len(cells) == 0 {
-		return ly
-	}
-	ly.rank()
-	ly.orient()
-	for _, cl := range ly.cells {
-		buildLocals(c, cl)
-		placeLabel(c, cl, labelPrefs(cl))
-	}
-	ly.place()
-	return ly
+// climb is one greedy local search: the best layout so far and the changes
+// that made it.
+type climb struct {
+	u     *untangler
+	free  bool
+	cur   *routed
+	turns map[string]int
 }
 
-// key is everything the router sees of a placement: two placements with
-// the same key route the same way.
-func (ly *state) key() string {
-	b := []byte{'n'}
-	if ly.shortFirst {
-		b[0] = 's'
+// search runs the greedy local search from the plain layout (signal path on
+// one line, or every part lined up along its nets when free) and returns
+// the best layout it found.
+func (u *untangler) search(free bool) *routed {
+	k := &climb{u: u, free: free, cur: u.layout(nil, free), turns: map[string]int{}}
+	k.singles()
+	if !free {
+		k.pairs() // once is enough: on the signal-line layout
 	}
-	num := func(v float64) { b = strconv.AppendFloat(append(b, ' '), v, 'g', -1, 64) }
-	rect := func(r geom.Rect) { num(r.X0); num(r.Y0); num(r.X1); num(r.Y1) }
-	for _, cl := range ly.cells {
-		b = append(append(b, '|'), cl.ref...)
-		b = strconv.AppendInt(b, int64(cl.edge), 10)
-		rect(cl.shape.Box)
-		for _, p := range cl.shape.Pins {
-			b = append(append(append(b, ' '), p.Name...), p.Net...)
-			num(p.At.X)
-			num(p.At.Y)
-			b = strconv.AppendInt(b, int64(p.Dir), 10)
-		}
-		for _, l := range cl.locals {
-			rect(l.Box)
-			for _, s := range l.Stub {
-				rect(s.Box())
+	return k.cur
+}
+
+// try lays out the changes and keeps them if they leave fewer crossings.
+func (k *climb) try(trial map[string]int) {
+	if k.u.pops > untangleBudget {
+		return // deterministic work bound: the same input stops at the same place
+	}
+	if r := k.u.layout(trial, k.free); r.crossings < k.cur.crossings {
+		k.cur, k.turns = r, trial
+	}
+}
+
+// singles tries, for each part on a crossing net, its other orientations,
+// then moving it to the bottom of its column, then one layer left and
+// right; twice over.
+func (k *climb) singles() {
+	for pass := 0; pass < 2 && k.cur.crossings > 0; pass++ {
+		for _, cl := range k.cur.ly.cells {
+			if !k.cur.ly.crossing[cl.ref] || k.cur.crossings == 0 {
+				continue
 			}
-		}
-		rect(cl.label.Box)
-		if s, ok := ly.stageOf[cl.ref]; ok {
-			b = strconv.AppendInt(append(b, 's'), int64(s), 10)
-		}
-	}
-	for _, f := range ly.frames {
-		rect(f.Box)
-		rect(f.Title.Box)
-		b = append(b, strings.Join(f.Title.Lines, "\n")...)
-	}
-	return string(b)
-}
-
-// wiring is what routing adds to a placed sheet.
-type wiring struct {
-	wires  []geom.Wire
-	dots   []geom.Pt
-	failed []string
-	flags  []geom.Local // net-name flags of nets that could not be wired
-	frames []geom.Frame // grown to hold their stages' wires
-	// crossings counts the points where two nets cross; crossing marks the
-	// refs on nets that cross
-	crossings int
-	crossing  map[string]bool
-	pops      int
-}
-
-// route wires a placed sheet: every net, then (when full) rip-up and
-// reroute of crossings and net-name flags for nets that could not be wired.
-func route(ly *state, full bool, sc *scratch) *wiring {
-	w := &wiring{crossing: map[string]bool{}}
-	if len(ly.cells) == 0 {
-		return w
-	}
-	rt := newRouter(ly, sc)
-	rt.routeNets()
-	if full {
-		rt.finish()
-	}
-	var g geom.Sheet
-	rt.emit(&g)
-	w.frames = ly.growFrames(&g)
-	w.wires, w.dots, w.failed, w.flags = g.Wires, g.Dots, g.Failed, g.Locals
-	w.pops = rt.pops
-	for i := range rt.g {
-		if o := rt.g[i].own; o[1] != 0 {
-			w.crossings++
-			for _, id := range o {
-				for _, p := range rt.nets[id-1].pins {
-					w.crossing[p.ref] = true
+			n := len(cl.turns)
+			for t := 0; t <= n+2 && k.u.tried < maxRetries && k.cur.crossings > 0; t++ {
+				if t == cl.turn && t < n {
+					continue
 				}
+				k.u.tried++
+				trial := copyTurns(k.turns)
+				switch {
+				case t == n:
+					trial[sinkKey+cl.ref] = 1
+				case t > n:
+					trial[shiftKey+cl.ref] = 2*(t-n) - 3 // one layer left, then right
+				default:
+					trial[cl.ref] = t
+				}
+				k.try(trial)
 			}
 		}
 	}
-	return w
 }
 
-// assemble is the finished sheet: the placed symbols, locals and labels,
-// and the wiring.
-func assemble(ly *state, w *wiring) *Result {
-	res := &Result{}
-	if len(ly.cells) == 0 {
-		return res
-	}
-	g := &res.Geom
-	for _, cl := range ly.cells {
-		res.Placed = append(res.Placed, Placed{Ref: cl.ref, Part: realPart(cl), Shape: cl.shape, Faded: cl.faded})
-		g.Symbols = append(g.Symbols, geom.Symbol{Ref: cl.ref, Box: cl.shape.Box, Pins: cl.shape.Pins, Faded: cl.faded})
-		g.Locals = append(g.Locals, cl.locals...)
-		if len(cl.label.Lines) > 0 {
-			g.Labels = append(g.Labels, cl.label)
+// pairs tries two changes at once, for a crossing no single change
+// removes: a part on a crossing net turned (a transformer mirrored)
+// together with a part it is wired to moved to the bottom of its column.
+func (k *climb) pairs() {
+	pairs := 0
+	for _, a := range k.cur.ly.cells {
+		if k.cur.crossings == 0 || pairs >= maxPairTries {
+			break
+		}
+		if !k.cur.ly.crossing[a.ref] || len(a.turns) < 2 {
+			continue
+		}
+		for t := range a.turns {
+			if t == a.turn {
+				continue
+			}
+			for _, b := range k.cur.ly.cells {
+				if b == a || b.edge != 0 || pairs >= maxPairTries || k.cur.crossings == 0 || !shareNet(k.cur.ly, a, b) {
+					continue
+				}
+				pairs++
+				trial := copyTurns(k.turns)
+				trial[a.ref] = t
+				trial[sinkKey+b.ref] = 1
+				k.try(trial)
+			}
 		}
 	}
-	for _, f := range ly.frames {
-		g.Labels = append(g.Labels, f.Title)
-	}
-	g.Wires, g.Dots, g.Failed = w.wires, w.dots, w.failed
-	g.Locals = append(g.Locals, w.flags...)
-	g.Frames = append([]geom.Frame(nil), w.frames...)
-	if ly.o.Links {
-		g.Links = ly.links(g)
-	}
-	g.Bounds = bounds(g)
-	return res
-}
-
-// bounds is the box round everything drawn.
-func bounds(g *geom.Sheet) geom.Rect {
-	b := geom.Rect{}
-	for _, s := range g.Symbols {
-		b = b.Union(s.Box)
-	}
-	for _, l := range g.Locals {
-		b = b.Union(l.Box)
-	}
-	for _, l := range g.Labels {
-		b = b.Union(l.Box)
-	}
-	for _, w := range g.Wires {
-		for _, s := range w.Segs {
-			b = b.Union(s.Box())
-		}
-	}
-	for _, f := range g.Frames {
-		b = b.Union(f.Box)
-	}
-	return b
 }

@@ -1,0 +1,134 @@
+package layout
+
+import (
+	"strconv"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/value"
+)
+
+func realPart(cl *cell) *graph.Part {
+	if strings.HasPrefix(cl.ref, "@") {
+		return nil
+	}
+	return cl.part
+}
+
+// makeCells makes a cell for every part, plus input and output flags for
+// signal nets named in Inputs and Outputs that no port part sits on.
+func makeCells(c *graph.Circuit, o Options) []*cell {
+	var out []*cell
+	ported := map[string]bool{}
+	for _, p := range c.Parts {
+		if p.Kind == graph.Port {
+			for _, pn := range p.Pins {
+				ported[pn.Net] = true
+			}
+		}
+	}
+	for _, p := range c.Parts {
+		cl := &cell{part: p, ref: p.Ref, faded: o.Faded[p.Ref]}
+		cl.label.Owner, cl.label.Faded = p.Ref, cl.faded
+		cl.label.Lines = labelLines(p, o)
+		out = append(out, cl)
+	}
+	term := func(prefix, net string, in bool) {
+		if ported[net] || c.RoleOf(net).IsACGround() {
+			return
+		}
+		ported[net] = true
+		text := net
+		if n := c.Net(net); n != nil && n.Label != "" {
+			text = n.Label
+		}
+		p := &graph.Part{Ref: prefix + net, Kind: graph.Port, Label: text, Pins: []graph.Pin{{Name: "1", Net: net}}}
+		cl := &cell{part: p, ref: p.Ref, edge: 1}
+		if in {
+			cl.edge = -1
+		}
+		out = append(out, cl)
+	}
+	for _, n := range c.Inputs {
+		term(inRef, n, true)
+	}
+	for _, n := range c.Outputs {
+		term(outRef, n, false)
+	}
+	return out
+}
+
+// labelLines is the text beside a symbol: ref and value in the IEC 60062
+// letter code, then a small line with the gang and where a merged part went.
+func labelLines(p *graph.Part, o Options) []string {
+	first := p.Ref
+	add := func(s string) {
+		if s != "" {
+			first += " " + s
+		}
+	}
+	switch p.Kind {
+	case graph.Resistor, graph.Pot:
+		add(value.FormatRange(p.Value, value.Ohm, value.Code))
+	case graph.Capacitor:
+		add(value.FormatRange(p.Value, value.Farad, value.Code))
+	case graph.Inductor:
+		add(withUnit(value.Format(p.Inductance(), value.Henry, value.Code), "H"))
+	case graph.Crystal:
+		add(value.Format(p.Value.Max, value.Hertz, value.Code))
+	case graph.Transformer:
+		ks := []string{}
+		for _, k := range p.Coupling {
+			ks = append(ks, "k="+formatG(k.K))
+		}
+		if len(ks) > 0 && len(ks) <= 2 {
+			add(strings.Join(dedupe(ks), " "))
+		}
+	case graph.Valve, graph.BJT, graph.FET:
+		add(p.Type)
+	case graph.Switch:
+		if p.Set > 0 {
+			add("pos " + formatG(p.Set))
+		}
+	case graph.Generic:
+		add(p.Label)
+	case graph.Port:
+		return nil
+	}
+	var second []string
+	if p.Gang != "" {
+		second = append(second, "gang "+p.Gang)
+	}
+	if to, ok := o.Merged[p.Ref]; ok && to != p.Ref {
+		second = append(second, "\u2192 "+to)
+	}
+	if len(second) > 0 {
+		return []string{first, strings.Join(second, ", ")}
+	}
+	return []string{first}
+}
+
+// withUnit appends the unit where the letter code has no letter of its own
+// ("2" henries reads as "2H").
+func withUnit(code, unit string) string {
+	for _, r := range code {
+		if r < '0' || r > '9' {
+			if r != '.' {
+				return code
+			}
+		}
+	}
+	return code + unit
+}
+
+func dedupe(s []string) []string {
+	out := s[:0]
+	for i, v := range s {
+		if i == 0 || v != s[i-1] {
+			out = append(out, v)
+		}
+	}
+	return out
+}
+
+func formatG(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }

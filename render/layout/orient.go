@@ -1,0 +1,128 @@
+package layout
+
+import (
+	"math"
+
+	"pare/graph"
+	"pare/render/geom"
+	"pare/render/symbol"
+)
+
+// orient picks each cell's orientation by scoring where its pins point:
+// ground and bias down, rails up, signal pins towards the parts they lead to.
+// An orientation the untangle search fixed wins, if it keeps the symbol
+// upright.
+func (ly *state) orient() {
+	for _, cl := range ly.cells {
+		base := symbol.For(ly.o.drawnPart(cl.part), ly.o.Style)
+		if cl.part.Kind == graph.Port && len(cl.part.Pins) == 1 {
+			in := cl.edge <= 0
+			base = symbol.Flag(cl.part.Label, in)
+			for i := range base.Pins {
+				base.Pins[i].Net = cl.part.Pins[0].Net
+			}
+			cl.shape = base
+			continue
+		}
+		best, bestScore := base, math.Inf(-1)
+		cl.turns = base.Turns
+		for i, o := range base.Turns {
+			s := base.Oriented(o)
+			score := ly.score(cl, s)
+			if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, base.Oriented(base.Turns[t])) {
+				score = 0
+				if t == i {
+					score = 1
+				}
+			}
+			if score > bestScore+1e-9 {
+				best, bestScore, cl.turn = s, score, i
+			}
+		}
+		cl.shape = best
+	}
+}
+
+// upright says whether a symbol keeps grounds from pointing up and rails
+// from pointing down: the search for fewer crossings may only choose such.
+func upright(c *graph.Circuit, s symbol.Shape) bool {
+	for _, p := range s.Pins {
+		switch c.RoleOf(p.Net) {
+		case graph.Ground, graph.Bias:
+			if p.Dir == geom.Up {
+				return false
+			}
+		case graph.Supply, graph.Heater:
+			if p.Dir == geom.Down {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// score rates an orientation of a cell: ground and bias pins down, supply
+// and heater pins up, signal pins towards the rest of their net, and a part
+// whose pins are all signal pins lying along the signal path.
+func (ly *state) score(cl *cell, s symbol.Shape) float64 {
+	score := 0.0
+	horizontalSignal := 0
+	signal := 0
+	for _, p := range s.Pins {
+		switch ly.c.RoleOf(p.Net) {
+		case graph.Ground, graph.Bias:
+			score += railScore(p.Dir, geom.Down)
+		case graph.Supply, graph.Heater:
+			score += railScore(p.Dir, geom.Up)
+		default:
+			signal++
+			score += ly.towards(cl, p)
+			if p.Dir == geom.Left || p.Dir == geom.Right {
+				horizontalSignal++
+			}
+		}
+	}
+	if signal == len(s.Pins) && horizontalSignal == signal {
+		score += 1 // a part in the signal path lies along it
+	}
+	return score
+}
+
+// railScore rates a rail pin pointing in direction d where it should point
+// in direction want: its own way, the opposite way, or sideways.
+func railScore(d, want geom.Dir) float64 {
+	switch d {
+	case want:
+		return 4
+	case geom.Dir((int(want) + 2) % 4):
+		return -4
+	}
+	return -1
+}
+
+// towards rates a signal pin by whether it points to the side where the
+// rest of its net lies, by mean column.
+func (ly *state) towards(cl *cell, p geom.Pin) float64 {
+	n := ly.netCol[p.Net]
+	here := float64(cl.col)
+	others := float64(ly.netCount[p.Net] - 1)
+	if others > 0 {
+		tot := n*(others+1) - here
+		n = tot / others
+	}
+	switch {
+	case n < here-0.01:
+		if p.Dir == geom.Left {
+			return 2
+		} else if p.Dir == geom.Right {
+			return -2
+		}
+	case n > here+0.01:
+		if p.Dir == geom.Right {
+			return 2
+		} else if p.Dir == geom.Left {
+			return -2
+		}
+	}
+	return 0
+}

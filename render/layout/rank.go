@@ -1,0 +1,213 @@
+package layout
+
+import (
+	"slices"
+
+	"pare/graph"
+)
+
+// rank gives every cell a layer along the signal flow, marks the shunts that
+// stand before an active part's control electrode, sends ports to the left
+// or right edge, and turns the layers into columns.
+func (ly *state) rank() {
+	byNet := ly.cellsByNet()
+	rank := ly.signalRank()
+	ly.railLayers(rank)
+	ly.commonUnder(rank)
+	ly.before = ly.controlShunts(rank)
+	for _, cl := range ly.cells {
+		if d, ok := ly.turns[shiftKey+cl.ref]; ok && rank[cl.ref]+d >= 0 {
+			rank[cl.ref] += d
+		}
+	}
+	ly.rankOf = rank
+	ly.portSides(byNet)
+	ly.assignColumns()
+}
+
+// cellsByNet lists the cells on each wired net, in cell order.
+func (ly *state) cellsByNet() map[string][]*cell {
+	byNet := map[string][]*cell{}
+	for _, cl := range ly.cells {
+		for _, n := range ly.signalNets(cl) {
+			byNet[n] = append(byNet[n], cl)
+		}
+	}
+	return byNet
+}
+
+// signalRank is the breadth-first distance of every cell from the signal
+// input nets over shared signal nets (graph.Walk): the parts on an input at
+// 1, input flags and ports there at 0; each piece the inputs do not reach
+// follows, from its first cell, one layer after the highest so far.
+func (ly *state) signalRank() map[string]int {
+	parts := make([]*graph.Part, len(ly.cells))
+	for i, cl := range ly.cells {
+		parts[i] = cl.part
+	}
+	w := graph.NewWalk(graph.NewView(graph.NewIndex(parts, nil), parts))
+	w.Follow = func(n string) bool { return n != notConnected && n != "" && !ly.c.RoleOf(n).IsACGround() }
+	var inputs []string
+	for _, in := range ly.c.Inputs {
+		if w.Follow(in) {
+			inputs = append(inputs, in)
+		}
+	}
+	w.FromNets(inputs, 1)
+	rank := map[string]int{}
+	maxR := 0
+	collect := func() {
+		for _, cl := range ly.cells {
+			if r, ok := w.PartDist(cl.part); ok {
+				if _, done := rank[cl.ref]; !done {
+					rank[cl.ref] = r
+					if cl.part.Kind == graph.Port && slices.Contains(inputs, cl.part.NetOf("1")) {
+						rank[cl.ref] = 0 // an input flag or port (cl.edge < 0 is one)
+					}
+					maxR = max(maxR, rank[cl.ref])
+				}
+			}
+		}
+	}
+	collect()
+	for _, cl := range ly.cells {
+		if _, ok := rank[cl.ref]; !ok && len(ly.signalNets(cl)) > 0 {
+			w.FromPart(cl.part, maxR+1)
+			collect()
+		}
+	}
+	return rank
+}
+
+// railLayers puts the parts on rails only (no signal net) beside the
+// lowest-ranked part sharing a net other than ground with them, or in
+// layer 0.
+func (ly *state) railLayers(rank map[string]int) {
+	railNets := map[string][]*cell{}
+	for _, cl := range ly.cells {
+		for _, pn := range cl.part.Pins {
+			if ly.c.RoleOf(pn.Net) != graph.Ground && pn.Net != notConnected {
+				railNets[pn.Net] = append(railNets[pn.Net], cl)
+			}
+		}
+	}
+	for _, cl := range ly.cells {
+		if _, ok := rank[cl.ref]; ok {
+			continue
+		}
+		best := -1
+		for _, pn := range cl.part.Pins {
+			for _, nb := range railNets[pn.Net] {
+				if r, ok := rank[nb.ref]; ok && nb != cl && (best < 0 || r < best) {
+					best = r
+				}
+			}
+		}
+		rank[cl.ref] = max(best, 0)
+	}
+}
+
+// commonUnder puts the parts from an active part's common terminal to
+// ground (cathode or emitter resistor and bypass) in the active part's
+// layer, to stand under it.
+func (ly *state) commonUnder(rank map[string]int) {
+	common := map[string]int{}
+	for _, cl := range ly.cells {
+		if !cl.part.IsActive() {
+			continue
+		}
+		if pin := cl.part.PinWithRole(graph.RoleCommon); pin != "" {
+			if n := cl.part.NetOf(pin); !ly.c.RoleOf(n).IsACGround() {
+				common[n] = rank[cl.ref]
+			}
+		}
+	}
+	for _, cl := range ly.cells {
+		if cl.part.IsActive() {
+			continue
+		}
+		nets := ly.signalNets(cl)
+		if len(nets) == 1 && len(cl.part.Pins) == 2 {
+			if r, ok := common[nets[0]]; ok {
+				rank[cl.ref] = r
+			}
+		}
+	}
+}
+
+// controlShunts marks the shunts from an active part's control electrode
+// to AC ground (a grid leak, a base bias resistor) in the active part's
+// layer: each stands in a column of its own just before the active part,
+// hanging from the wire into the grid, not stacked under the valve with the
+// cathode parts.
+func (ly *state) controlShunts(rank map[string]int) map[string]bool {
+	control := map[string]int{}
+	for _, cl := range ly.cells {
+		if !cl.part.IsActive() {
+			continue
+		}
+		if pin := cl.part.PinWithRole(graph.RoleControl); pin != "" {
+			if n := cl.part.NetOf(pin); n != "" && n != notConnected && !ly.c.RoleOf(n).IsACGround() {
+				if r, ok := control[n]; !ok || rank[cl.ref] < r {
+					control[n] = rank[cl.ref]
+				}
+			}
+		}
+	}
+	before := map[string]bool{}
+	for _, cl := range ly.cells {
+		if cl.part.IsActive() || len(cl.part.Pins) != 2 || cl.part.Kind == graph.Port {
+			continue
+		}
+		nets := ly.signalNets(cl)
+		if len(nets) != 1 {
+			continue
+		}
+		if r, ok := control[nets[0]]; ok && r == rank[cl.ref] {
+			before[cl.ref] = true
+		}
+	}
+	return before
+}
+
+// portSides sends output flags and ports on output nets to the right edge,
+// ports on input nets to the left, other ports to the side their net's
+// parts are nearer.
+func (ly *state) portSides(byNet map[string][]*cell) {
+	maxRank := 0
+	for _, r := range ly.rankOf {
+		maxRank = max(maxRank, r)
+	}
+	outputs := map[string]bool{}
+	for _, n := range ly.c.Outputs {
+		outputs[n] = true
+	}
+	inputs := map[string]bool{}
+	for _, n := range ly.c.Inputs {
+		inputs[n] = true
+	}
+	for _, cl := range ly.cells {
+		if cl.part.Kind != graph.Port || cl.edge != 0 || len(cl.part.Pins) == 0 {
+			continue
+		}
+		net := cl.part.Pins[0].Net
+		switch {
+		case inputs[net]:
+			cl.edge = -1
+		case outputs[net]:
+			cl.edge = 1
+		default:
+			lo := maxRank
+			for _, nb := range byNet[net] {
+				if nb != cl {
+					lo = min(lo, ly.rankOf[nb.ref])
+				}
+			}
+			if len(byNet[net]) <= 1 || 2*lo <= maxRank {
+				cl.edge = -1
+			} else {
+				cl.edge = 1
+			}
+		}
+	}
+}
