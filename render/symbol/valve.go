@@ -1,0 +1,174 @@
+package symbol
+
+import (
+	"math"
+
+	"pare/graph"
+	"pare/render/geom"
+)
+
+// valveRows is where a valve's electrodes go: anode(s) at the top, the grids
+// from the highest number down to g1 one grid step apart, then cathode and
+// heater; and the envelope's top and bottom.
+type valveRows struct {
+	anodes, grids, heaters []string
+	hasK, shield           bool
+	ay, ky, hy             float64
+	gy                     map[string]float64
+	top, bottom            float64
+}
+
+// present lists the names the part has pins for, in the given order.
+func present(p *graph.Part, names ...string) []string {
+	var out []string
+	for _, n := range names {
+		if p.Pin(n) != nil {
+			out = append(out, n)
+		}
+	}
+	return out
+}
+
+func newValveRows(p *graph.Part) *valveRows {
+	v := &valveRows{
+		grids:   present(p, "g6", "g5", "g4", "g3", "g2", "g1"),
+		anodes:  present(p, "a", "a1", "a2"),
+		heaters: present(p, "h", "h1", "h2"),
+		hasK:    p.Pin("k") != nil,
+		shield:  p.Pin("s") != nil,
+		gy:      map[string]float64{},
+	}
+	y := 0.0
+	v.ay = y
+	y++
+	for _, g := range v.grids {
+		v.gy[g] = y
+		y++
+	}
+	v.ky = y
+	if len(v.heaters) > 0 {
+		y++
+	}
+	v.hy = y
+	v.top, v.bottom = v.ay-1, y
+	if !v.hasK && len(v.heaters) == 0 {
+		v.bottom = v.ky
+	}
+	// Right-side pins: grids other than g1, then the shield.
+	right := 0
+	for _, g := range v.grids {
+		if g != "g1" {
+			right++
+		}
+	}
+	if v.shield {
+		right++
+		if float64(right) > v.bottom-v.top-1 {
+			v.bottom++
+		}
+	}
+	return v
+}
+
+// Valve electrodes run top to bottom one grid step apart: anode(s), the grids
+// from the highest number down to g1, cathode, heater. g1 leaves on the left,
+// the other grids and the internal shield on the right; anode up, cathode and
+// heater down. Only electrodes the part has pins for are drawn.
+func valve(p *graph.Part, st Style) Shape {
+	s := Shape{Turns: fixed}
+	v := newValveRows(p)
+	v.envelope(&s)
+	v.anodeLeads(&s)
+	ry := v.gridLeads(&s)
+	if v.shield {
+		sy := math.Max(ry, v.ky)
+		if sy >= v.bottom-0.5 {
+			sy = v.ky
+		}
+		s.Prims = append(s.Prims, Prim{Kind: Line, Pts: []geom.Pt{pt(1.4, v.top+1.2), pt(1.4, v.bottom-1.2)}, Dash: true},
+			line(pt(1.4, sy), pt(3, sy)))
+		s.Pins = append(s.Pins, pin("s", 3, sy, geom.Right))
+	}
+	v.cathodeAndHeater(&s)
+	x0, x1 := -2.0, 2.0
+	for _, pn := range s.Pins {
+		x0, x1 = math.Min(x0, pn.At.X), math.Max(x1, pn.At.X)
+	}
+	y0, y1 := v.top, v.bottom
+	for _, pn := range s.Pins {
+		y0, y1 = math.Min(y0, pn.At.Y), math.Max(y1, pn.At.Y)
+	}
+	s.Box = geom.R(x0, y0, x1, y1)
+	return s
+}
+
+// envelope draws a circle round a small valve (moving its top and bottom to
+// whole grid points round the centre) and a stadium round a tall one.
+func (v *valveRows) envelope(s *Shape) {
+	if v.bottom-v.top <= 4 {
+		c := math.Ceil((v.top + v.bottom) / 2) // pins stay on whole grid points
+		v.top, v.bottom = c-2, c+2
+		s.Prims = append(s.Prims, circle(pt(0, c), 2))
+		return
+	}
+	top, bottom := v.top, v.bottom
+	s.Prims = append(s.Prims, line(pt(-2, top+2), pt(-2, bottom-2)), line(pt(2, top+2), pt(2, bottom-2)),
+		arc(pt(-2, top+2), pt(2, top+2), 2, true), arc(pt(2, bottom-2), pt(-2, bottom-2), 2, true))
+}
+
+// anodeLeads draws one anode, or two side by side, with their leads up.
+func (v *valveRows) anodeLeads(s *Shape) {
+	switch len(v.anodes) {
+	case 1:
+		s.Prims = append(s.Prims, thick(pt(-0.9, v.ay), pt(0.9, v.ay)), line(pt(0, v.ay), pt(0, v.top-1)))
+		s.Pins = append(s.Pins, pin(v.anodes[0], 0, v.top-1, geom.Up))
+	case 2:
+		for i, a := range v.anodes {
+			x := -1.0 + 2*float64(i)
+			s.Prims = append(s.Prims, thick(pt(x-0.6, v.ay), pt(x+0.6, v.ay)), line(pt(x, v.ay), pt(x, v.top-1)))
+			s.Pins = append(s.Pins, pin(a, x, v.top-1, geom.Up))
+		}
+	}
+}
+
+// gridLeads draws the grids as dashed lines, g1 leaving to the left, the
+// others to the right, and returns the first free row on the right.
+func (v *valveRows) gridLeads(s *Shape) float64 {
+	ry := v.ay + 1
+	for _, g := range v.grids {
+		y := v.gy[g]
+		s.Prims = append(s.Prims, Prim{Kind: Line, Pts: []geom.Pt{pt(-1.2, y), pt(1.2, y)}, Dash: true})
+		if g == "g1" {
+			s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-3, y)))
+			s.Pins = append(s.Pins, pin(g, -3, y, geom.Left))
+			continue
+		}
+		s.Prims = append(s.Prims, line(pt(1.2, y), pt(3, y)))
+		s.Pins = append(s.Pins, pin(g, 3, y, geom.Right))
+		ry = y + 1
+	}
+	return ry
+}
+
+// cathodeAndHeater draws the cathode (beside the heater when there is one)
+// and the heater, their leads down.
+func (v *valveRows) cathodeAndHeater(s *Shape) {
+	ky, hy, bottom := v.ky, v.hy, v.bottom
+	if v.hasK {
+		s.Prims = append(s.Prims, thick(pt(-1, ky-0.2), pt(-1, ky), pt(1, ky), pt(1, ky-0.2)))
+		kx := 0.0
+		if len(v.heaters) > 0 {
+			kx = -1
+		}
+		s.Prims = append(s.Prims, line(pt(kx, ky), pt(kx, bottom+1)))
+		s.Pins = append(s.Pins, pin("k", kx, bottom+1, geom.Down))
+	}
+	switch len(v.heaters) {
+	case 1:
+		s.Prims = append(s.Prims, line(pt(0.3, hy-0.3), pt(0.6, hy+0.2), pt(0.9, hy-0.3)), line(pt(0.9, hy-0.3), pt(1, bottom+1)))
+		s.Pins = append(s.Pins, pin(v.heaters[0], 1, bottom+1, geom.Down))
+	case 2, 3:
+		s.Prims = append(s.Prims, line(pt(0, bottom+1), pt(0, hy), pt(0.5, hy-0.5), pt(1, hy), pt(1, bottom+1)))
+		s.Pins = append(s.Pins, pin(v.heaters[0], 0, bottom+1, geom.Down), pin(v.heaters[1], 1, bottom+1, geom.Down))
+	}
+}
