@@ -1,6 +1,9 @@
 package layout
 
 import (
+	"fmt"
+	"path/filepath"
+	"strings"
 	"syscall"
 	"testing"
 	"time"
@@ -8,6 +11,14 @@ import (
 	"pare/graph"
 	"pare/render/symbol"
 )
+
+// The layout's benchmarks (docs/performance.md): the sampler fixture's
+// reduced sheet, the examples, and chains of triode stages.
+//
+//	go test -run XXX -bench . -benchtime 5x ./render/layout/
+//
+// Besides wall time each reports the process's CPU time per layout
+// (cpu-ms/op, from getrusage), which a shared machine disturbs less.
 
 func loadFixture(tb testing.TB, path string) *graph.Circuit {
 	tb.Helper()
@@ -33,20 +44,75 @@ func reducedOptions(c *graph.Circuit, st symbol.Style) Options {
 	return o
 }
 
+// benchLayout lays c out b.N times and reports the CPU time per layout.
+func benchLayout(b *testing.B, c *graph.Circuit, o Options) {
+	b.Helper()
+	c0 := cpuNow()
+	for i := 0; i < b.N; i++ {
+		if _, err := Layout(c, o); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(cpuNow()-c0)/1e6/float64(b.N), "cpu-ms/op")
+}
+
+// BenchmarkAllSymbolsReduced: the sampler fixture's reduced sheet, 27 parts
+// in three stand-in frames, the sheet render's tests draw most often.
 func BenchmarkAllSymbolsReduced(b *testing.B) {
 	c := loadFixture(b, "../testdata/all-symbols.toml")
 	for _, st := range []symbol.Style{symbol.IEC, symbol.IEEE} {
-		o := reducedOptions(c, st)
-		b.Run([]string{"iec", "ieee"}[st], func(b *testing.B) {
-			c0 := cpuNow()
-			for i := 0; i < b.N; i++ {
-				if _, err := Layout(c, o); err != nil {
-					b.Fatal(err)
-				}
-			}
-			b.ReportMetric(float64(cpuNow()-c0)/1e6/float64(b.N), "cpu-ms/op")
-		})
+		b.Run([]string{"iec", "ieee"}[st], func(b *testing.B) { benchLayout(b, c, reducedOptions(c, st)) })
 	}
+}
+
+// BenchmarkExamples: each example circuit as drawn in a full view (gang
+// links, no search) and with the untangle search of a reduced view (on the
+// whole circuit: the reduction is cmd/pare's business).
+func BenchmarkExamples(b *testing.B) {
+	files, _ := filepath.Glob("../../examples/*.toml")
+	if len(files) == 0 {
+		b.Fatal("no examples")
+	}
+	for _, f := range files {
+		c := loadFixture(b, f)
+		name := strings.TrimSuffix(filepath.Base(f), ".toml")
+		b.Run(name+"/full", func(b *testing.B) { benchLayout(b, c, Options{Links: true}) })
+		b.Run(name+"/untangle", func(b *testing.B) { benchLayout(b, c, Options{Untangle: true, HideUnconnected: true}) })
+	}
+}
+
+// BenchmarkChain: chains of RC-coupled triode stages, 60 parts with the
+// untangle search of a reduced view, 2,000 parts in a full view (the search
+// is for small sheets only).
+func BenchmarkChain(b *testing.B) {
+	b.Run("60/untangle", func(b *testing.B) { benchLayout(b, stageChain(60), Options{Untangle: true}) })
+	b.Run("2000/full", func(b *testing.B) { benchLayout(b, stageChain(2000), Options{}) })
+}
+
+// stageChain builds a chain of RC-coupled common-cathode triode stages
+// (coupling C, grid leak, valve, cathode R and bypass C, anode load to HT):
+// six parts a stage, as a long audio or IF strip would be.
+func stageChain(parts int) *graph.Circuit {
+	var src strings.Builder
+	fmt.Fprintf(&src, "title = \"chain of %d parts\"\nband = \"20..20k\"\ninputs = [\"in\"]\n", parts)
+	prev := "in"
+	var body strings.Builder
+	for i := 1; 6*i <= parts; i++ {
+		g, k, a := fmt.Sprintf("g%d", i), fmt.Sprintf("k%d", i), fmt.Sprintf("a%d", i)
+		fmt.Fprintf(&body, "C%da = { c = \"10n\", pins = [%q, %q] }\n", i, prev, g)
+		fmt.Fprintf(&body, "R%dg = { r = \"1M\", pins = [%q, \"gnd\"] }\n", i, g)
+		fmt.Fprintf(&body, "V%d = { valve = \"triode\", pins = { a = %q, g1 = %q, k = %q } }\n", i, a, g, k)
+		fmt.Fprintf(&body, "R%dk = { r = \"1k5\", pins = [%q, \"gnd\"] }\n", i, k)
+		fmt.Fprintf(&body, "C%dk = { c = \"25u\", pins = [%q, \"gnd\"] }\n", i, k)
+		fmt.Fprintf(&body, "R%da = { r = \"100k\", pins = [\"ht\", %q] }\n", i, a)
+		prev = a
+	}
+	fmt.Fprintf(&src, "outputs = [%q]\n[nets]\nht = { role = \"supply\", volts = 250, label = \"HT +250 V\" }\n[parts]\n%s", prev, body.String())
+	c, err := graph.Parse("chain.toml", []byte(src.String()))
+	if err != nil {
+		panic(err)
+	}
+	return c
 }
 
 func cpuNow() time.Duration {

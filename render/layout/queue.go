@@ -1,23 +1,34 @@
 package layout
 
+import "slices"
+
 // stateQueue is the search's open list, ordered by estimated total cost,
 // then by state number: the second key makes the order of equal estimates,
 // and so the wire found among equally cheap ones, depend on nothing but
-// the grid. Costs are whole grid steps and the estimate never drops by
-// more than a step costs, so states are kept in one bucket per total cost
-// and taken from the lowest bucket; a bucket is a small binary heap of
-// state numbers.
+// the grid. Costs are whole grid steps, so states are kept in one bucket per
+// total cost and taken from the lowest bucket. A bucket is filled unsorted,
+// sorted once when it is first taken from, and what arrives after that
+// (the search going straight on towards its end keeps the same total) waits
+// in a small heap beside the sorted run.
 type stateQueue struct {
-	b        [][]int32
+	b        []bucket
 	cur, top int // lowest bucket that may hold states; highest used
 	n        int
+}
+
+type bucket struct {
+	run    []int32 // run[head:] are waiting; sorted once taken from
+	head   int
+	sorted bool
+	late   []int32 // a binary heap of what arrived after sorting
 }
 
 func (q *stateQueue) len() int { return q.n }
 
 func (q *stateQueue) reset() {
-	for k := q.cur; k <= q.top && k < len(q.b); k++ {
-		q.b[k] = q.b[k][:0]
+	for k := 0; k <= q.top && k < len(q.b); k++ {
+		b := &q.b[k]
+		b.run, b.head, b.sorted, b.late = b.run[:0], 0, false, b.late[:0]
 	}
 	q.cur, q.top, q.n = 0, 0, 0
 }
@@ -25,14 +36,19 @@ func (q *stateQueue) reset() {
 func (q *stateQueue) push(f, s int32) {
 	k := int(f)
 	for k >= len(q.b) {
-		q.b = append(q.b, nil)
+		q.b = append(q.b, bucket{})
 	}
 	if q.n == 0 || k < q.cur {
 		q.cur = k
 	}
 	q.top = max(q.top, k)
 	q.n++
-	h := append(q.b[k], s)
+	b := &q.b[k]
+	if !b.sorted {
+		b.run = append(b.run, s)
+		return
+	}
+	h := append(b.late, s)
 	i := len(h) - 1
 	for i > 0 {
 		p := (i - 1) / 2
@@ -43,14 +59,31 @@ func (q *stateQueue) push(f, s int32) {
 		i = p
 	}
 	h[i] = s
-	q.b[k] = h
+	b.late = h
 }
 
 func (q *stateQueue) pop() (f, s int32) {
-	for len(q.b[q.cur]) == 0 {
+	b := &q.b[q.cur]
+	for b.head == len(b.run) && len(b.late) == 0 {
 		q.cur++
+		b = &q.b[q.cur]
 	}
-	h := q.b[q.cur]
+	q.n--
+	if !b.sorted {
+		slices.Sort(b.run[b.head:])
+		b.sorted = true
+	}
+	if len(b.late) == 0 || (b.head < len(b.run) && b.run[b.head] < b.late[0]) {
+		s = b.run[b.head]
+		b.head++
+		return int32(q.cur), s
+	}
+	return int32(q.cur), b.popLate()
+}
+
+// popLate takes the least state off the bucket's heap.
+func (b *bucket) popLate() int32 {
+	h := b.late
 	top, last := h[0], h[len(h)-1]
 	h = h[:len(h)-1]
 	n, i := len(h), 0
@@ -72,7 +105,6 @@ func (q *stateQueue) pop() (f, s int32) {
 	if n > 0 {
 		h[i] = last
 	}
-	q.b[q.cur] = h
-	q.n--
-	return int32(q.cur), top
+	b.late = h
+	return top
 }

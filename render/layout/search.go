@@ -7,12 +7,14 @@ import (
 // The search is A* (Lee 1961 with a heuristic) over states (grid point,
 // direction of arrival), the direction being what a bend's cost needs.
 
-// stateInfo is the search's record of one state, stamped with the search
-// that wrote it so that a search never has to clear the grid.
+// stateInfo is the search's record of one state: the cost from the pin,
+// and, stamped with the search that wrote it (so that a search never has to
+// clear the grid), the direction the wire arrived in at the previous point.
+// The previous point itself is one step back against the state's own
+// direction, so the wire can be followed back without storing it.
 type stateInfo struct {
-	stamp  uint32
-	g      int32 // cost from the pin
-	parent int32 // previous state, -1 at the pin
+	stamp uint32 // search number << 2 | direction of arrival at the previous point
+	g     int32
 }
 
 // scratch is the search's memory, kept between searches.
@@ -29,7 +31,7 @@ func (sc *scratch) next(n int) {
 		sc.gen = 0
 	}
 	sc.gen++
-	if sc.gen == 0 {
+	if sc.gen == 1<<30 {
 		for i := range sc.st {
 			sc.st[i].stamp = 0
 		}
@@ -77,7 +79,7 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 	to := aim{int(tree.X0) - rt.x0, int(tree.Y0) - rt.y0, int(tree.X1) - rt.x0, int(tree.Y1) - rt.y0}
 	pdir := int(p.pin.Dir)
 	start := int32(p.cell*4 + pdir)
-	sc.st[start] = stateInfo{stamp: sc.gen, g: 0, parent: -1}
+	sc.st[start] = stateInfo{stamp: sc.gen << 2, g: 0}
 	sc.q.push(to.estimate(p.cell%rt.w, p.cell/rt.w), start)
 	for sc.q.len() > 0 {
 		f, s := sc.q.pop()
@@ -89,7 +91,7 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 			continue // stale entry: the state was reached more cheaply since
 		}
 		if c != p.cell && rt.owns(c, net) {
-			return rt.path(int(s))
+			return rt.path(int(s), int(start))
 		}
 		rt.expand(net, p.cell, c, x, y, d, g, to, win)
 	}
@@ -118,17 +120,24 @@ func (rt *router) expand(net int32, pinCell, c, x, y, d int, g int32, to aim, wi
 			continue
 		}
 		n := ny*rt.w + nx
+		ns := int32(n*4 + nd)
+		nsi := &sc.st[ns]
+		least := g + stepCost // the step costs at least this much
+		if nd != d {
+			least += bendCost
+		}
+		if nsi.stamp>>2 == sc.gen && nsi.g <= least {
+			continue // reached as cheaply already, whatever this step costs
+		}
 		cost, ok := rt.stepCost(net, c, n, nx, ny, d, nd)
 		if !ok {
 			continue
 		}
 		cost += g
-		ns := int32(n*4 + nd)
-		nsi := &sc.st[ns]
-		if nsi.stamp == sc.gen && nsi.g <= cost {
+		if nsi.stamp>>2 == sc.gen && nsi.g <= cost {
 			continue
 		}
-		*nsi = stateInfo{stamp: sc.gen, g: cost, parent: int32(c*4 + d)}
+		*nsi = stateInfo{stamp: sc.gen<<2 | uint32(d), g: cost}
 		sc.q.push(cost+to.estimate(nx, ny), ns)
 	}
 }
@@ -141,43 +150,46 @@ func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
 	if nd != d {
 		cost += bendCost
 	}
+	g := &rt.g[n]
+	if g.own[0] == net || g.own[1] == net {
+		if !rt.joinable(n, net, nd) {
+			return 0, false
+		}
+	} else {
+		if g.flags&(fBlocked|fPin) != 0 || (g.resv != 0 && g.resv != net) {
+			return 0, false
+		}
+		if g.own[0] != 0 {
+			// over another net's straight wire, at right angles, only
+			if g.own[1] != 0 || g.arm[0] != alongArms[(nd+1)%4] {
+				return 0, false
+			}
+			if rt.wide {
+				cost += wideCrossCost
+			} else {
+				cost += crossCost
+			}
+		}
+	}
 	if rt.crowded(n, nx, ny, nd, net) {
 		cost += nearCost
 	}
 	if rt.cutsFrame(c, n, nd) {
 		cost += edgeCost
 	}
-	g := &rt.g[n]
-	if g.own[0] == net || g.own[1] == net {
-		if !rt.joinable(n, net, nd) {
-			return 0, false
-		}
-		return cost, true
-	}
-	if g.flags&(fBlocked|fPin) != 0 || (g.resv != 0 && g.resv != net) {
-		return 0, false
-	}
-	if g.own[0] != 0 {
-		// over another net's straight wire, at right angles, only
-		if g.own[1] != 0 || g.arm[0] != alongArms[(nd+1)%4] {
-			return 0, false
-		}
-		if rt.wide {
-			cost += wideCrossCost
-		} else {
-			cost += crossCost
-		}
-	}
 	return cost, true
 }
 
-// path lists the cells from the pin to state s.
-func (rt *router) path(s int) []int {
+// path lists the cells from the pin (state start) to state s.
+func (rt *router) path(s, start int) []int {
 	var out []int
-	for s >= 0 {
-		out = append(out, s/4)
-		s = int(rt.sc.st[s].parent)
+	for s != start {
+		c, d := s/4, s%4
+		out = append(out, c)
+		prev := c - dirStep[d][0] - dirStep[d][1]*rt.w
+		s = prev*4 + int(rt.sc.st[s].stamp&3)
 	}
+	out = append(out, start/4)
 	for i, j := 0, len(out)-1; i < j; i, j = i+1, j-1 {
 		out[i], out[j] = out[j], out[i]
 	}
