@@ -75,21 +75,19 @@ type wiring struct {
 	// refs on nets that cross
 	crossings int
 	crossing  map[string]bool
-	pops      int
+	pops      int // the router's work, in states taken off its queue
 }
 
-// route wires a placed sheet: every net, then (when full) rip-up and
-// reroute of crossings and net-name flags for nets that could not be wired.
-func route(ly *state, full bool, sc *scratch) *wiring {
+// route wires a placed sheet: every net, then rip-up and reroute of
+// crossings and net-name flags for nets that could not be wired.
+func route(ly *state, sc *scratch) *wiring {
 	w := &wiring{crossing: map[string]bool{}}
 	if len(ly.cells) == 0 {
 		return w
 	}
 	rt := newRouter(ly, sc)
 	rt.routeNets()
-	if full {
-		rt.finish()
-	}
+	rt.finish()
 	var g geom.Sheet
 	rt.emit(&g)
 	w.frames = ly.growFrames(&g)

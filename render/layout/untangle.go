@@ -90,8 +90,8 @@ type untangler struct {
 	tried int                // single changes tried, both passes together
 	// shortFirst routes the nets shortest first
 	shortFirst bool
-	sc         scratch
-	pops       int
+	sc         scratch // the router's search memory, for every layout
+	pops       int     // the router's work so far, for untangleBudget
 }
 
 // layout places the circuit with the given changes and routes it, unless
@@ -102,7 +102,7 @@ func (u *untangler) layout(turns map[string]int, free bool) *routed {
 	key := ly.key()
 	w, ok := u.seen[key]
 	if !ok {
-		w = route(ly, true, &u.sc)
+		w = route(ly, &u.sc)
 		u.pops += w.pops
 		u.seen[key] = w
 	}
