@@ -133,16 +133,18 @@ func paramUnit(name string) value.Unit {
 	switch name {
 	case "gm":
 		return value.Siemens
-	case "ra", "rd", "ro", "rpi", "rm":
+	case "ra", "rd", "ro", "rpi", "rm", "rdc", "leak":
 		return value.Ohm
-	case "ic":
+	case "ic", "ia", "idss":
 		return value.Ampere
+	case "vbe", "vp", "vf":
+		return value.Volt
 	case "lm":
 		return value.Henry
 	case "cm", "c0":
 		return value.Farad
 	}
-	return value.None // mu, beta, q, off
+	return value.None // mu, beta, q, off, watts, pmax (W: no watt unit in value)
 }
 
 // kindValue reads the value that chose the kind, and the type and settings that go with it.

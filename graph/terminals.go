@@ -177,13 +177,17 @@ func (p *Part) IsActive() bool {
 // Device parameters a part may carry, by kind, with the unit each is read in.
 // The AC models document their defaults.
 var paramNames = map[Kind][]string{
-	Valve:       {"gm", "ra", "mu", "rd", "off"}, // rd and off: a valve diode's (loadpart.go checks which)
-	BJT:         {"beta", "ic", "gm", "ro", "rpi"},
-	FET:         {"gm", "rd"},
-	Diode:       {"rd", "off"},
+	Valve:       {"gm", "ra", "mu", "rd", "off", "ia", "pmax"}, // rd and off: a valve diode's (loadpart.go checks which)
+	BJT:         {"beta", "ic", "gm", "ro", "rpi", "vbe"},
+	FET:         {"gm", "rd", "idss", "vp"},
+	Diode:       {"rd", "off", "vf"},
 	Crystal:     {"rm", "lm", "cm", "c0", "q"},
-	Inductor:    {"q"},
-	Transformer: {"q"},
+	Inductor:    {"q", "rdc"},
+	Transformer: {"q", "rdc"},
+	// DC-only attributes (graph/dc): a resistor's power rating in watts, a
+	// capacitor's leakage resistance.
+	Resistor:  {"watts"},
+	Capacitor: {"leak"},
 }
 
 // ParamNames lists the device parameters a kind accepts.

@@ -1,0 +1,312 @@
+package dc
+
+import (
+	"fmt"
+	"math"
+
+	"pare/graph"
+)
+
+// A terminal is a free node (index ≥ 0) or a fixed one (−1 − index into
+// fixedV). Chassis, declared rails and heater nets are fixed: the DC analysis
+// eliminates them instead of adding branch equations, which keeps the matrix
+// a nodal conductance matrix with a diagonal everywhere.
+type term = int
+
+// branch is a linear conductance between two terminals: a resistor, a pot
+// section, a winding's DC resistance, a capacitor's leakage, a meter, or an
+// injected fault.
+type branch struct {
+	ref, what string // part and which element of it ("", "1w", winding name)
+	a, b      term
+	g         float64
+}
+
+// device kinds.
+const (
+	devValve = iota
+	devValveDiode
+	devDiode
+	devBJT
+	devFET
+)
+
+// device is a nonlinear element; t holds its terminals in the law's order:
+// valve a, g1, g2, k (g2 = −0 when absent); valve diode and diode a, k;
+// BJT b, c, e; FET g, d, s.
+type device struct {
+	ref   string
+	pins  []string // the pin name of each terminal, for currents per pin
+	kind  int
+	t     []term
+	valve valveLaw
+	bjt   bjtLaw
+	fet   fetLaw
+	is    float64 // diode saturation current; valve diode perveance
+	// Faults: emission scales the valve's perveance; openBE and openBC
+	// remove a junction.
+	emission       float64
+	openBE, openBC bool
+}
+
+// model is a circuit elaborated for the DC analysis.
+type model struct {
+	circuit  *graph.Circuit
+	nodeNet  []string // free node → net name (the canonical net of a joined group)
+	fixedNet []string
+	fixedV   []float64
+	netTerm  map[string]term // every net of the circuit (joined nets share a terminal)
+	floating []bool          // free node with no DC path to a fixed net
+	branches []branch
+	devices  []device
+	caps     []branch // capacitors: open, with their leakage (g may be 0); pairs kept for faults
+	origins  []Origin
+	warnings []string
+	gmin     float64
+}
+
+// build elaborates c. Zero-ohm parts and closed switch contacts join nets;
+// heater pins are left out (the heater is its own circuit); ports and
+// generic parts carry no DC current.
+func build(c *graph.Circuit) (*model, error) {
+	m := &model{circuit: c, netTerm: map[string]term{}, gmin: def("gmin", "g")}
+	uf := newJoin()
+	for _, n := range c.Nets {
+		uf.add(n.Name)
+	}
+	joinShorts(c, uf)
+	if err := m.assignNodes(c, uf); err != nil {
+		return nil, err
+	}
+	var o origins
+	for _, p := range c.Parts {
+		if err := m.addPart(p, &o); err != nil {
+			return nil, err
+		}
+	}
+	m.origins = o.list
+	m.markFloating()
+	return m, nil
+}
+
+// joinShorts joins the nets of zero-ohm parts and of closed switch contacts.
+func joinShorts(c *graph.Circuit, uf *join) {
+	for _, p := range c.Parts {
+		switch p.Kind {
+		case graph.Switch:
+			pos := int(p.Set)
+			if pos >= 1 && pos <= len(p.Closes) {
+				for _, pr := range p.Closes[pos-1] {
+					uf.union(p.NetOf(pr[0]), p.NetOf(pr[1]))
+				}
+			}
+		case graph.Resistor:
+			if p.Value.Max == 0 {
+				uf.union(p.NetOf("1"), p.NetOf("2"))
+			}
+		case graph.Pot:
+			if p.Value.Max == 0 || p.Set <= 0 {
+				uf.union(p.NetOf("1"), p.NetOf("w"))
+			}
+			if p.Value.Max == 0 || p.Set >= 1 {
+				uf.union(p.NetOf("w"), p.NetOf("2"))
+			}
+		}
+	}
+}
+
+// fixedVolts says whether a net is held by declaration and at what voltage:
+// chassis at 0 V, a rail or bias supply at its declared volts, a heater net
+// at 0 V DC (the heater supply is AC, or a separate chain).
+func fixedVolts(n *graph.Net) (float64, bool) {
+	switch n.Role {
+	case graph.Ground, graph.Heater:
+		return 0, true
+	case graph.Supply, graph.Bias:
+		if n.Volts != 0 {
+			return n.Volts, true
+		}
+	}
+	return 0, false
+}
+
+func (m *model) assignNodes(c *graph.Circuit, uf *join) error {
+	groupTerm := map[string]term{}
+	groupV := map[string]float64{}
+	// Fixed groups first, in net order; two different voltages joined is bad input.
+	for _, n := range c.Nets {
+		v, ok := fixedVolts(n)
+		if !ok {
+			continue
+		}
+		root := uf.find(n.Name)
+		if t, seen := groupTerm[root]; seen {
+			if groupV[root] != v {
+				return fmt.Errorf("%s: net %s (%g V) is joined to %s (%g V) through zero-ohm parts or switch contacts",
+					n.Pos, n.Name, v, m.fixedNet[-1-t], groupV[root])
+			}
+			continue
+		}
+		groupTerm[root] = -1 - len(m.fixedNet)
+		groupV[root] = v
+		m.fixedNet = append(m.fixedNet, n.Name)
+		m.fixedV = append(m.fixedV, v)
+	}
+	for _, n := range c.Nets {
+		root := uf.find(n.Name)
+		t, seen := groupTerm[root]
+		if !seen {
+			t = len(m.nodeNet)
+			groupTerm[root] = t
+			m.nodeNet = append(m.nodeNet, n.Name)
+		}
+		m.netTerm[n.Name] = t
+		if n.Role == graph.Supply && n.Volts == 0 {
+			m.warnings = append(m.warnings, fmt.Sprintf("rail %s declares no volts: it is solved as an ordinary net", n.Name))
+		}
+	}
+	return nil
+}
+
+func (m *model) term(p *graph.Part, pin string) (term, bool) {
+	net := p.NetOf(pin)
+	if net == "" {
+		return 0, false
+	}
+	t, ok := m.netTerm[net]
+	return t, ok
+}
+
+func (m *model) addBranch(p *graph.Part, what, pa, pb string, r float64) {
+	a, okA := m.term(p, pa)
+	b, okB := m.term(p, pb)
+	if !okA || !okB || !(r > 0) || math.IsInf(r, 0) {
+		return
+	}
+	m.branches = append(m.branches, branch{ref: p.Ref, what: what, a: a, b: b, g: 1 / r})
+}
+
+func (m *model) addPart(p *graph.Part, o *origins) error {
+	switch p.Kind {
+	case graph.Resistor:
+		m.addBranch(p, "", "1", "2", p.Value.Max)
+	case graph.Pot:
+		m.addBranch(p, "1w", "1", "w", p.Set*p.Value.Max)
+		m.addBranch(p, "w2", "w", "2", (1-p.Set)*p.Value.Max)
+	case graph.Inductor, graph.Transformer:
+		m.addWindings(p, o)
+	case graph.Capacitor:
+		a, okA := m.term(p, p.Pins[0].Name)
+		b, okB := m.term(p, p.Pins[len(p.Pins)-1].Name)
+		if okA && okB && len(p.Pins) == 2 {
+			g := 0.0
+			if leak, ok := p.Param("leak"); ok && leak > 0 {
+				g = 1 / leak
+			}
+			m.caps = append(m.caps, branch{ref: p.Ref, a: a, b: b, g: g})
+		}
+	case graph.Valve, graph.BJT, graph.FET, graph.Diode:
+		return m.addDevice(p, o)
+	}
+	return nil
+}
+
+// addWindings gives every winding its DC resistance: the part's rdc when
+// given (the same for each winding), else the small default.
+func (m *model) addWindings(p *graph.Part, o *origins) {
+	rdc := o.given(p, "rdc", "winding", "Ω")
+	if len(p.Windings) == 0 {
+		m.addBranch(p, "", "1", "2", rdc)
+		return
+	}
+	for _, w := range p.Windings {
+		m.addBranch(p, w.Name, w.From, w.To, rdc)
+	}
+}
+
+// markFloating finds free nodes with no conducting path to a fixed net
+// through branches, diodes or transistor junctions: their voltage is set by
+// something off this sheet (an AGC line, a port) and the chart says so.
+func (m *model) markFloating() {
+	n := len(m.nodeNet)
+	adj := make([][]int, n)
+	link := func(a, b term) {
+		if a >= 0 && b >= 0 {
+			adj[a] = append(adj[a], b)
+			adj[b] = append(adj[b], a)
+		}
+	}
+	reached := make([]bool, n)
+	var queue []int
+	seed := func(a, b term) {
+		for _, t := range [][2]term{{a, b}, {b, a}} {
+			if t[0] >= 0 && t[1] < 0 && !reached[t[0]] {
+				reached[t[0]] = true
+				queue = append(queue, t[0])
+			}
+		}
+	}
+	for _, b := range m.branches {
+		link(b.a, b.b)
+		seed(b.a, b.b)
+	}
+	for _, c := range m.caps {
+		if c.g > 0 {
+			link(c.a, c.b)
+			seed(c.a, c.b)
+		}
+	}
+	for _, d := range m.devices {
+		for i := 1; i < len(d.t); i++ {
+			link(d.t[0], d.t[i])
+			seed(d.t[0], d.t[i])
+		}
+	}
+	for h := 0; h < len(queue); h++ {
+		for _, w := range adj[queue[h]] {
+			if !reached[w] {
+				reached[w] = true
+				queue = append(queue, w)
+			}
+		}
+	}
+	m.floating = make([]bool, n)
+	for i := range m.floating {
+		m.floating[i] = !reached[i]
+	}
+}
+
+// join is a union–find over net names with deterministic roots (the
+// smallest name), so the canonical net of a group never depends on order.
+type join struct{ parent map[string]string }
+
+func newJoin() *join { return &join{parent: map[string]string{}} }
+
+func (j *join) add(n string) {
+	if _, ok := j.parent[n]; !ok {
+		j.parent[n] = n
+	}
+}
+
+func (j *join) find(n string) string {
+	j.add(n)
+	for j.parent[n] != n {
+		j.parent[n] = j.parent[j.parent[n]]
+		n = j.parent[n]
+	}
+	return n
+}
+
+func (j *join) union(a, b string) {
+	if a == "" || b == "" {
+		return
+	}
+	ra, rb := j.find(a), j.find(b)
+	if ra == rb {
+		return
+	}
+	if rb < ra {
+		ra, rb = rb, ra
+	}
+	j.parent[rb] = ra
+}

@@ -1,0 +1,144 @@
+// Package dc computes the DC operating point of a whole (unreduced) circuit
+// with nonlinear device laws: valves by the three-halves-power law, diodes by
+// Shockley's law, bipolar transistors by Ebers–Moll, JFETs by the square law,
+// windings as their DC resistance and capacitors open (laws.go gives each law
+// and default with its source). Rails are held at their declared volts.
+//
+// The operating point is found by damped Newton–Raphson on the sparse solver
+// of graph/ac, with source stepping and gmin stepping when plain Newton does
+// not settle (solve.go). Faults are simulated as small changes to the same
+// system, warm-started from the fault-free solution (fault.go).
+package dc
+
+import (
+	"errors"
+	"math"
+
+	"pare/graph"
+)
+
+// Point is a solved operating point.
+type Point struct {
+	Circuit *graph.Circuit
+	Nets    []NetV   // every net, sorted by name
+	Parts   []PartDC // every part that carries DC current, sorted by ref
+	Origins []Origin // where each law parameter came from
+	Method  string   // "Newton", "source stepping" or "gmin stepping"
+	Iter    int
+	Notes   []string // rails without volts and the like
+
+	m *model
+	v []float64 // free node voltages
+}
+
+// NetV is the DC voltage of one net.
+type NetV struct {
+	Name     string  `json:"name"`
+	Volts    float64 `json:"volts"`
+	Fixed    bool    `json:"fixed,omitempty"`    // held by declaration: chassis, rail, heater
+	Floating bool    `json:"floating,omitempty"` // no DC path on this sheet: set elsewhere
+}
+
+// Solve finds the operating point of c.
+func Solve(c *graph.Circuit) (*Point, error) {
+	m, err := build(c)
+	if err != nil {
+		return nil, err
+	}
+	v, method, iter, err := m.solve(nil, nil)
+	if err != nil {
+		return nil, err
+	}
+	pt := &Point{Circuit: c, Origins: m.origins, Method: method, Iter: iter, Notes: m.warnings, m: m, v: v}
+	pt.fill()
+	return pt, nil
+}
+
+// solve runs the strategies in turn. start, when given, is a warm start (a
+// fault simulated from the fault-free point); extra are added branches.
+func (m *model) solve(start []float64, extra []branch) ([]float64, string, int, error) {
+	s, err := newSystem(m, extra)
+	if err != nil {
+		return nil, "", 0, err
+	}
+	v := make([]float64, s.n)
+	if start != nil {
+		copy(v, start)
+	}
+	if ok, err := s.newton(v, maxIter); err == nil && ok {
+		return v, "Newton", 1, nil
+	}
+	// Source stepping: ramp every rail from a tenth up, each step warm-started.
+	for i := range v {
+		v[i] = 0
+	}
+	settled := true
+	for k := 1; k <= 20 && settled; k++ {
+		s.scale = float64(k) / 20
+		ok, err := s.newton(v, maxIter)
+		settled = ok && err == nil
+	}
+	s.scale = 1
+	if settled {
+		return v, "source stepping", 20, nil
+	}
+	// Gmin stepping: start with every net tied to chassis by 10 mS, divide by 10.
+	for i := range v {
+		v[i] = 0
+	}
+	settled = true
+	for g := 1e-2; g >= m.gmin && settled; g /= 10 {
+		s.gmin = g
+		ok, err := s.newton(v, maxIter)
+		settled = ok && err == nil
+	}
+	s.gmin = m.gmin
+	if settled {
+		if ok, err := s.newton(v, maxIter); ok && err == nil {
+			return v, "gmin stepping", 11, nil
+		}
+	}
+	return nil, "", 0, &NoConvergence{File: m.circuit.File, Nets: s.unsettled()}
+}
+
+// IsNoConvergence reports whether err is a failure to settle.
+func IsNoConvergence(err error) bool {
+	var nc *NoConvergence
+	return errors.As(err, &nc)
+}
+
+// Volts returns the voltage of a net and whether the net exists.
+func (p *Point) Volts(net string) (float64, bool) {
+	t, ok := p.m.netTerm[net]
+	if !ok {
+		return 0, false
+	}
+	return p.m.voltOf(p.v, t), true
+}
+
+func (m *model) voltOf(v []float64, t term) float64 {
+	if t >= 0 {
+		return v[t]
+	}
+	return m.fixedV[-1-t]
+}
+
+func (p *Point) fill() {
+	for _, n := range p.Circuit.Nets {
+		t := p.m.netTerm[n.Name]
+		nv := NetV{Name: n.Name, Volts: clean(p.m.voltOf(p.v, t)), Fixed: t < 0}
+		if t >= 0 {
+			nv.Floating = p.m.floating[t]
+		}
+		p.Nets = append(p.Nets, nv)
+	}
+	p.Parts = partCurrents(p.m, p.v)
+}
+
+// clean turns −0 and sub-nanovolt dust into 0, so charts never print "-0.0".
+func clean(x float64) float64 {
+	if math.Abs(x) < 1e-9 {
+		return 0
+	}
+	return x
+}

@@ -1,0 +1,232 @@
+package dc
+
+import (
+	"fmt"
+	"math"
+
+	"pare/graph"
+)
+
+// Large-signal laws and their defaults. This file is the seam to the one
+// device model: every parameter a law needs is resolved here from what the
+// netlist gives, and every default names its source. The small-signal figures
+// the user already types (gm, ra, µ at a stated current) fix the large-signal
+// law, so a part needs nothing new to get a DC operating point.
+
+// Physical constants, SI 2019 exact values.
+const (
+	boltzmann = 1.380649e-23    // J/K
+	charge    = 1.602176634e-19 // C
+	// Kelvin is the temperature of the junction laws: 27 °C, the nominal
+	// temperature of SPICE device models, so that the ngspice cross-check
+	// uses the same thermal voltage.
+	Kelvin = 300.15
+)
+
+// VT is the thermal voltage kT/q at 27 °C, 25.865 mV.
+var VT = boltzmann * Kelvin / charge
+
+// Default is one documented default of a large-signal law.
+type Default struct {
+	Class  string  `json:"class"`
+	Param  string  `json:"param"`
+	Value  float64 `json:"value"`
+	Unit   string  `json:"unit"`
+	Source string  `json:"source"`
+}
+
+// Defaults lists every default the DC laws use, in a fixed order.
+var Defaults = []Default{
+	{"triode", "ia", 1e-3, "A", "anode current at which gm is stated, typical small-signal triode, from memory"},
+	{"triode", "gm", 2e-3, "S", "typical small-signal triode, from memory (same as the AC model)"},
+	{"triode", "mu", 40, "", "typical small-signal triode (gm 2 mA/V, ra 20 kΩ), from memory"},
+	{"pentode", "ia", 5e-3, "A", "anode current at which gm is stated, typical RF/IF pentode, from memory"},
+	{"pentode", "gm", 2e-3, "S", "typical RF/IF pentode, from memory (same as the AC model)"},
+	{"pentode", "mu2", 20, "", "amplification factor of g1 over the screen, typical RF pentode, from memory"},
+	{"pentode", "share", 0.25, "", "screen current as a fraction of cathode current, typical, from memory"},
+	{"pentode", "vknee", 20, "V", "anode voltage scale of the knee (tanh law), typical, from memory"},
+	{"valve grid", "kg", 1e-3, "A/V^1.5", "grid–cathode diode above 0 V: about 1 mA at +1 V, from memory"},
+	{"valve diode", "k", 3e-4, "A/V^1.5", "signal diode perveance: 3 mA at 10 V, from memory"},
+	{"bjt", "beta", 100, "", "typical small-signal transistor, from memory (same as the AC model)"},
+	{"bjt", "ic", 1e-3, "A", "current at which vbe is stated, typical, from memory"},
+	{"bjt", "vbe", 0.65, "V", "silicon small-signal transistor at about 1 mA, common practice"},
+	{"bjt", "betar", 1, "", "reverse β, the SPICE default (BR = 1)"},
+	{"fet", "idss", 5e-3, "A", "typical small-signal JFET, from memory"},
+	{"fet", "vp", -2, "V", "pinch-off of a typical n-channel JFET, from memory"},
+	{"fet", "is", 1e-14, "A", "gate junction saturation current, the SPICE default"},
+	{"diode", "vf", 0.65, "V", "silicon junction at 1 mA, common practice"},
+	{"winding", "rdc", 1, "Ω", "DC resistance of a coil or winding when not given: small, from memory"},
+	{"gmin", "g", 1e-12, "S", "conductance from every net to chassis, the SPICE GMIN default"},
+}
+
+func def(class, param string) float64 {
+	for _, d := range Defaults {
+		if d.Class == class && d.Param == param {
+			return d.Value
+		}
+	}
+	panic("dc: no default " + class + "." + param) // programming error: the table is fixed
+}
+
+// Origin says where a law's parameter came from, for the note.
+type Origin struct {
+	Ref   string  `json:"ref"`
+	Param string  `json:"param"`
+	Value float64 `json:"value"`
+	Unit  string  `json:"unit"`
+	From  string  `json:"from"` // "given", "default: …" or "derived: …"
+}
+
+type origins struct{ list []Origin }
+
+func (o *origins) given(p *graph.Part, name, class, unit string) float64 {
+	if v, ok := p.Param(name); ok {
+		o.list = append(o.list, Origin{p.Ref, name, v, unit, "given"})
+		return v
+	}
+	v := def(class, name)
+	o.list = append(o.list, Origin{p.Ref, name, v, unit, "default: " + sourceOf(class, name)})
+	return v
+}
+
+func (o *origins) derived(ref, name string, v float64, unit, how string) {
+	o.list = append(o.list, Origin{ref, name, v, unit, "derived: " + how})
+}
+
+func sourceOf(class, param string) string {
+	for _, d := range Defaults {
+		if d.Class == class && d.Param == param {
+			return d.Source
+		}
+	}
+	return ""
+}
+
+// valveLaw is the three-halves-power law of a valve section (Child–Langmuir
+// with an amplification factor; Langmuir, Phys. Rev. 2, 1913; the form
+// Ia = K·(Vgk + Vak/µ)^1.5 is the textbook one, e.g. Terman, "Radio
+// Engineers' Handbook", 1943, §4):
+//
+//	triode:  Ia = K·(Vg1k + Vak/µ)^1.5
+//	pentode: Ik = K·(Vg1k + Vg2k/µ2)^1.5, Ia = (1−s)·Ik·tanh(Vak/Vknee), Ig2 = Ik − Ia
+//
+// K follows from gm at the stated current Ia0: the law gives
+// gm = 1.5·Ia0/x with x the effective grid voltage, so x = 1.5·Ia0/gm and
+// K = Ia0/x^1.5 (divided by 1−s for a pentode, whose gm is the anode's share).
+type valveLaw struct {
+	pentode bool
+	k, mu   float64 // triode: µ; pentode: µ2 of the screen
+	share   float64 // screen share of a pentode
+	vknee   float64
+	kg      float64 // grid current perveance
+}
+
+func resolveValve(p *graph.Part, o *origins) (valveLaw, error) {
+	switch p.Type {
+	case "triode":
+		gm := o.given(p, "gm", "triode", "S")
+		ia := o.given(p, "ia", "triode", "A")
+		mu, ok := p.Param("mu")
+		if ok {
+			o.list = append(o.list, Origin{p.Ref, "mu", mu, "", "given"})
+		} else if ra, ok := p.Param("ra"); ok {
+			mu = gm * ra
+			o.derived(p.Ref, "mu", mu, "", "gm·ra")
+		} else {
+			mu = def("triode", "mu")
+			o.list = append(o.list, Origin{p.Ref, "mu", mu, "", "default: " + sourceOf("triode", "mu")})
+		}
+		if !(gm > 0) || !(ia > 0) || !(mu > 0) {
+			return valveLaw{}, fmt.Errorf("valve %s: gm, ia and mu must be positive for the DC law", p.Ref)
+		}
+		x := 1.5 * ia / gm
+		k := ia / math.Pow(x, 1.5)
+		o.derived(p.Ref, "K", k, "A/V^1.5", "K = ia/x^1.5 with x = 1.5·ia/gm (three-halves law)")
+		return valveLaw{k: k, mu: mu, kg: def("valve grid", "kg")}, nil
+	case "tetrode", "pentode", "hexode", "heptode", "octode":
+		gm := o.given(p, "gm", "pentode", "S")
+		ia := o.given(p, "ia", "pentode", "A")
+		s := def("pentode", "share")
+		if !(gm > 0) || !(ia > 0) {
+			return valveLaw{}, fmt.Errorf("valve %s: gm and ia must be positive for the DC law", p.Ref)
+		}
+		x := 1.5 * ia / gm
+		k := ia / (1 - s) / math.Pow(x, 1.5)
+		o.derived(p.Ref, "K", k, "A/V^1.5", "K = ia/((1−share)·x^1.5) with x = 1.5·ia/gm (three-halves law)")
+		return valveLaw{pentode: true, k: k, mu: def("pentode", "mu2"), share: s,
+			vknee: def("pentode", "vknee"), kg: def("valve grid", "kg")}, nil
+	}
+	return valveLaw{}, fmt.Errorf("valve %s: type %q has no DC law", p.Ref, p.Type)
+}
+
+// bjtLaw is the Ebers–Moll transport model (Ebers and Moll, Proc. IRE 42,
+// 1954), the Gummel–Poon model of SPICE with only IS, BF and BR:
+//
+//	Ic = Is·(e^(Vbe/VT) − e^(Vbc/VT)) − Is/βR·(e^(Vbc/VT) − 1)
+//	Ib = Is/βF·(e^(Vbe/VT) − 1) + Is/βR·(e^(Vbc/VT) − 1)
+//
+// Is follows from Vbe at the stated Ic: Is = Ic·e^(−Vbe/VT).
+type bjtLaw struct {
+	is, bf, br float64
+	sign       float64 // +1 npn, −1 pnp
+}
+
+func resolveBJT(p *graph.Part, o *origins) (bjtLaw, error) {
+	bf := o.given(p, "beta", "bjt", "")
+	ic := o.given(p, "ic", "bjt", "A")
+	vbe := o.given(p, "vbe", "bjt", "V")
+	if !(bf > 0) || !(ic > 0) || !(vbe > 0) || vbe > 2 {
+		return bjtLaw{}, fmt.Errorf("transistor %s: beta and ic must be positive and vbe between 0 and 2 V", p.Ref)
+	}
+	is := ic * math.Exp(-vbe/VT)
+	o.derived(p.Ref, "is", is, "A", "Is = ic·exp(−vbe/VT) (Ebers–Moll)")
+	sign := 1.0
+	if p.Type == "pnp" {
+		sign = -1
+	}
+	return bjtLaw{is: is, bf: bf, br: def("bjt", "betar"), sign: sign}, nil
+}
+
+// fetLaw is the square law of a JFET (Shichman and Hodges, IEEE JSSC 3,
+// 1968; SPICE JFET level 1 with BETA = Idss/Vp², LAMBDA 0), with its two
+// gate junctions as Shockley diodes.
+type fetLaw struct {
+	beta, vto, is float64
+	sign          float64 // +1 n-channel, −1 p-channel
+}
+
+func resolveFET(p *graph.Part, o *origins) (fetLaw, error) {
+	if p.Type == "nmos" || p.Type == "pmos" {
+		return fetLaw{}, fmt.Errorf("FET %s: no DC law for a MOSFET yet (give the operating point by hand)", p.Ref)
+	}
+	sign := 1.0
+	if p.Type == "pjfet" {
+		sign = -1
+	}
+	idss := o.given(p, "idss", "fet", "A")
+	vp, ok := p.Param("vp")
+	if ok {
+		o.list = append(o.list, Origin{p.Ref, "vp", vp, "V", "given"})
+	} else {
+		vp = def("fet", "vp") * sign
+		o.list = append(o.list, Origin{p.Ref, "vp", vp, "V", "default: " + sourceOf("fet", "vp")})
+	}
+	// Vp is written with its sign; the law works in n-channel terms.
+	vto := vp * sign
+	if !(idss > 0) || !(vto < 0) {
+		return fetLaw{}, fmt.Errorf("FET %s: idss must be positive and vp of the channel's sign (negative for n-channel)", p.Ref)
+	}
+	return fetLaw{beta: idss / (vto * vto), vto: vto, is: def("fet", "is"), sign: sign}, nil
+}
+
+// diodeIs is the saturation current of a Shockley diode (Shockley, Bell
+// Syst. Tech. J. 28, 1949; ideality 1) that passes 1 mA at vf.
+func diodeIs(p *graph.Part, o *origins) (float64, error) {
+	vf := o.given(p, "vf", "diode", "V")
+	if !(vf > 0) || vf > 3 {
+		return 0, fmt.Errorf("diode %s: vf must be between 0 and 3 V", p.Ref)
+	}
+	is := 1e-3 * math.Exp(-vf/VT)
+	o.derived(p.Ref, "is", is, "A", "Is = 1 mA·exp(−vf/VT) (Shockley)")
+	return is, nil
+}
