@@ -57,6 +57,7 @@ type model struct {
 	fixedV   []float64
 	netTerm  map[string]term // every net of the circuit (joined nets share a terminal)
 	floating []bool          // free node with no DC path to a fixed net
+	chassis  term            // the 0 V reference meters return to
 	branches []branch
 	devices  []device
 	caps     []branch // capacitors: open, with their leakage (g may be 0); pairs kept for faults
@@ -151,6 +152,18 @@ func (m *model) assignNodes(c *graph.Circuit, uf *join) error {
 		groupV[root] = v
 		m.fixedNet = append(m.fixedNet, n.Name)
 		m.fixedV = append(m.fixedV, v)
+	}
+	m.chassis = 0
+	for _, n := range c.Nets {
+		if n.Role == graph.Ground {
+			m.chassis = groupTerm[uf.find(n.Name)]
+			break
+		}
+	}
+	if m.chassis == 0 { // no chassis net: a 0 V reference of our own
+		m.chassis = -1 - len(m.fixedNet)
+		m.fixedNet = append(m.fixedNet, "")
+		m.fixedV = append(m.fixedV, 0)
 	}
 	for _, n := range c.Nets {
 		root := uf.find(n.Name)

@@ -91,3 +91,36 @@ func TestDeterministic(t *testing.T) {
 		}
 	}
 }
+
+// TestMeterLoading: a 20 kΩ/V meter on its 250 V range is 5 MΩ; a 150 V
+// source behind 47 kΩ reads 150·5M/(5M+47k) = 148.60 V (docs/references.md §10,
+// common practice).
+func TestMeterLoading(t *testing.T) {
+	src := `title = "meter"
+band = "20..20k"
+[nets]
+s = { role = "supply", volts = 150 }
+[parts]
+R1 = { r = "47k", pins = ["s", "x"] }
+R2 = { r = "100G", pins = ["x", "gnd"] }
+`
+	c, err := graph.Parse("meter.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	pt, err := Solve(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mt, err := ParseMeter("20k/V@250")
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := pt.Reading("x", mt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(got-148.60) > 0.005 {
+		t.Errorf("reading %.4f V, want 148.60 (derived, docs/references.md §10)", got)
+	}
+}

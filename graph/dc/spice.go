@@ -29,7 +29,7 @@ func (m *model) spiceNode(t term) string {
 		return "n_" + spiceName(m.nodeNet[t])
 	}
 	name := m.fixedNet[-1-t]
-	if m.fixedV[-1-t] == 0 && m.circuit.RoleOf(name) == graph.Ground {
+	if name == "" || (m.fixedV[-1-t] == 0 && m.circuit.RoleOf(name) == graph.Ground) {
 		return "0"
 	}
 	return "f_" + spiceName(name)

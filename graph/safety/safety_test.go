@@ -189,3 +189,24 @@ func TestCautionTexts(t *testing.T) {
 		t.Errorf("unknown basis %q", b)
 	}
 }
+
+// TestReadingsCaution: the caution above a voltage chart opens with the
+// live-set line and keeps the class's lines, but not the line about the
+// reduced diagram, which a chart of the whole set is not (common practice).
+func TestReadingsCaution(t *testing.T) {
+	for _, a := range []Assessment{{Class: MainsHT}, {Class: Battery, MaxVolts: 9}, {Class: LiveChassis}, {Class: Unknown}} {
+		c := a.Caution()
+		r := c.Readings()
+		if r[0] != liveLine {
+			t.Errorf("class %v: first line %q, want the live-set line", a.Class, r[0])
+		}
+		if len(r) != len(c.Lines) {
+			t.Errorf("class %v: %d lines, want %d (the class's lines less the small-signal one, plus the live-set one)", a.Class, len(r), len(c.Lines))
+		}
+		for _, l := range r {
+			if l == smallSignalLine {
+				t.Errorf("class %v: the small-signal line does not belong above a DC chart", a.Class)
+			}
+		}
+	}
+}

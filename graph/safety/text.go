@@ -102,6 +102,25 @@ const (
 	smallSignalSheet = "Small-signal only: bias, supply and heater paths are not shown."
 )
 
+// liveLine opens the caution of a DC voltage chart and of a readings
+// report: unlike everything else pare prints, these invite work on a set
+// that is switched on (common practice: one hand, clip the negative lead
+// first with the set off).
+const liveLine = "These voltages are measured with the set switched on. Clip the meter's negative lead to chassis with the set off, then probe with one hand."
+
+// Readings is the caution above a DC voltage chart or a readings report:
+// the live-set line, then the class's own lines and the line on codes (the
+// line about the reduced diagram does not apply to a chart of the whole set).
+func (c Caution) Readings() []string {
+	out := []string{liveLine}
+	for _, l := range c.Lines {
+		if l != smallSignalLine {
+			out = append(out, l)
+		}
+	}
+	return out
+}
+
 // Lines shared by the classes that may carry mains or HT.
 const (
 	htLine        = "The HT in a valve set is typically 200–400 V DC, more in transmitters: treat it as lethal. Work one-handed, never when wet or standing on a conductive floor."

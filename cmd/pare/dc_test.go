@@ -1,0 +1,51 @@
+package main
+
+import (
+	"bytes"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"pare/internal/golden"
+)
+
+// TestDCChartGolden keeps the voltage charts of the examples in golden files
+// (the numbers themselves are checked against ngspice in graph/dc).
+func TestDCChartGolden(t *testing.T) {
+	files, _ := filepath.Glob("../../examples/*.toml")
+	for _, f := range files {
+		var out, errb bytes.Buffer
+		if code := run([]string{"dc", "--meter", "20k/V", f}, &out, &errb); code != exitOK {
+			t.Fatalf("%s: exit %d: %s", f, code, errb.String())
+		}
+		name := filepath.Join("testdata", "dc", strings.TrimSuffix(filepath.Base(f), ".toml")+".chart")
+		golden.Check(t, name, out.Bytes(), *updateSheets, "go test ./cmd/pare -run TestDCChartGolden -update")
+	}
+}
+
+func TestDCWarningsAndErrors(t *testing.T) {
+	cases := []struct {
+		args []string
+		code int
+		want string // in stdout or stderr
+	}{
+		// Caution first: readings are taken on a live set (graph/safety, common practice).
+		{[]string{"dc", "../../graph/dc/testdata/triode-self-bias.toml"}, exitOK, "switched on"},
+		// 20 kΩ/V on 250 V is 5 MΩ (common practice, docs/references.md §10).
+		{[]string{"dc", "--meter", "20k/V@250", "../../graph/dc/testdata/triode-self-bias.toml"}, exitOK, "20 kΩ/V meter on its 250 V range"},
+		{[]string{"dc", "--meter", "fast", "x.toml"}, exitBad, "--meter"},
+		{[]string{"dc"}, exitBad, "exactly one"},
+		{[]string{"dc", "missing.toml"}, exitBad, "missing.toml"},
+		{[]string{"dc", "testdata/dc/reversed-electrolytic.toml"}, exitOK, "reversed"},
+		{[]string{"dc", "testdata/dc/reversed-electrolytic.toml"}, exitOK, "R1 dissipates"},
+		{[]string{"dc", "testdata/dc/reversed-electrolytic.toml"}, exitOK, "over its 1 W rating"},
+		{[]string{"dc", "testdata/dc/reversed-electrolytic.toml"}, exitOK, "against its 5 V rating"},
+	}
+	for _, tc := range cases {
+		var out, errb bytes.Buffer
+		code := run(tc.args, &out, &errb)
+		if code != tc.code || !strings.Contains(out.String()+errb.String(), tc.want) {
+			t.Errorf("%v: exit %d (want %d), output lacks %q:\n%s%s", tc.args, code, tc.code, tc.want, out.String(), errb.String())
+		}
+	}
+}

@@ -1,0 +1,213 @@
+package dc
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"pare/graph"
+)
+
+// Chart is the voltage chart of a set: the DC voltages at the trade's test
+// points (electrodes of the active devices, each rail), the currents a
+// repairer checks, the power in each resistor and the warnings.
+type Chart struct {
+	Meter     Meter        `json:"meter"`
+	Points    []TestPoint  `json:"points"`
+	Rails     []Rail       `json:"rails"`
+	Currents  []DevCurrent `json:"currents"`
+	Resistors []Heat       `json:"resistors"`
+	Warnings  []string     `json:"warnings,omitempty"`
+}
+
+// TestPoint is one electrode: the net it is on, its voltage and what the
+// chart's meter would show there.
+type TestPoint struct {
+	Ref, Pin, Label, Net string
+	Volts, Reading       float64
+	Elsewhere            bool // the net has no DC path on this sheet
+}
+
+// Rail is a held net and the current the circuit draws from it.
+type Rail struct {
+	Net   string
+	Volts float64
+	Amps  float64
+}
+
+// DevCurrent is one electrode current of an active part.
+type DevCurrent struct {
+	Ref, What string
+	Amps      float64
+}
+
+// Heat is the power in a resistor against its rating (0 when not given).
+type Heat struct {
+	Ref           string
+	Watts, Rating float64
+}
+
+// electrode names test points in the trade's words.
+func electrode(p *graph.Part, pin string) string {
+	switch p.Kind {
+	case graph.Valve:
+		switch {
+		case pin == "a" || pin == "a1" || pin == "a2":
+			return strings.Replace(pin, "a", "anode ", 1)
+		case pin == "k":
+			return "cathode"
+		case pin == "g1":
+			return "grid"
+		case pin == "g2" && (p.Type == "tetrode" || p.Type == "pentode"):
+			return "screen"
+		case pin == "g3" && p.Type == "pentode":
+			return "suppressor"
+		}
+		return pin
+	case graph.BJT:
+		return map[string]string{"b": "base", "c": "collector", "e": "emitter"}[pin]
+	case graph.FET:
+		return map[string]string{"g": "gate", "d": "drain", "s": "source"}[pin]
+	case graph.Diode:
+		return map[string]string{"a": "anode", "k": "cathode"}[pin]
+	}
+	return pin
+}
+
+// Chart builds the voltage chart at p with readings on meter mt.
+func (p *Point) Chart(mt Meter) (*Chart, error) {
+	ch := &Chart{Meter: mt}
+	for _, part := range p.Circuit.Parts {
+		if err := p.chartPart(ch, part, mt); err != nil {
+			return nil, err
+		}
+	}
+	for i, name := range p.m.fixedNet {
+		if name == "" || p.Circuit.RoleOf(name) == graph.Ground || p.Circuit.RoleOf(name) == graph.Heater {
+			continue
+		}
+		ch.Rails = append(ch.Rails, Rail{Net: name, Volts: p.m.fixedV[i], Amps: p.railCurrent(name)})
+	}
+	for _, n := range p.Nets {
+		if n.Floating && p.isTestPoint(n.Name) {
+			ch.Warnings = append(ch.Warnings, fmt.Sprintf("net %s has no DC path on this sheet: its voltage is set elsewhere (shown as 0 V)", n.Name))
+		}
+	}
+	ch.Warnings = append(ch.Warnings, p.Notes...)
+	return ch, nil
+}
+
+func (p *Point) isTestPoint(net string) bool {
+	for _, c := range p.Circuit.ConnsOf(net) {
+		if part := c.Part; part.IsActive() || part.Kind == graph.Diode || part.Kind == graph.Valve {
+			return true
+		}
+	}
+	return false
+}
+
+func (p *Point) chartPart(ch *Chart, part *graph.Part, mt Meter) error {
+	switch part.Kind {
+	case graph.Valve, graph.BJT, graph.FET, graph.Diode:
+		for _, pin := range part.Pins {
+			role := graph.RoleOfPin(part.Kind, pin.Name)
+			if role == graph.RoleHeater || role == graph.RoleShield {
+				continue
+			}
+			v, _ := p.Volts(pin.Net)
+			rd, err := p.Reading(pin.Net, mt)
+			if err != nil {
+				return err
+			}
+			t := p.m.netTerm[pin.Net]
+			ch.Points = append(ch.Points, TestPoint{Ref: part.Ref, Pin: pin.Name, Label: electrode(part, pin.Name),
+				Net: pin.Net, Volts: v, Reading: rd, Elsewhere: t >= 0 && p.m.floating[t]})
+		}
+		p.deviceCurrents(ch, part)
+	case graph.Resistor, graph.Pot:
+		w := 0.0
+		if pd := p.Part(part.Ref); pd != nil {
+			w = pd.Watts
+		}
+		rating, _ := part.Param("watts")
+		ch.Resistors = append(ch.Resistors, Heat{Ref: part.Ref, Watts: w, Rating: rating})
+		if rating > 0 && w > rating {
+			ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s dissipates %.3g W against its %.3g W rating", part.Ref, w, rating))
+		}
+	case graph.Capacitor:
+		p.capWarnings(ch, part)
+	}
+	return nil
+}
+
+func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
+	add := func(what, pin string, sign float64) {
+		if part.Pin(pin) != nil {
+			ch.Currents = append(ch.Currents, DevCurrent{part.Ref, what, sign * p.Current(part.Ref, pin)})
+		}
+	}
+	switch part.Kind {
+	case graph.Valve:
+		if !part.IsActive() {
+			add("anode current", "a", 1)
+			add("anode 1 current", "a1", 1)
+			add("anode 2 current", "a2", 1)
+			return
+		}
+		add("anode current", "a", 1)
+		if part.Type != "triode" {
+			add("screen current", "g2", 1)
+		}
+		pd := p.Part(part.Ref)
+		if pmax, ok := part.Param("pmax"); ok && pd != nil {
+			va, _ := p.Volts(part.NetOf("a"))
+			vk, _ := p.Volts(part.NetOf("k"))
+			pa := p.Current(part.Ref, "a") * (va - vk)
+			if pa > pmax {
+				ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s anode dissipation %.3g W is over its %.3g W rating", part.Ref, pa, pmax))
+			}
+		}
+	case graph.BJT:
+		add("collector current", "c", 1)
+		add("base current", "b", 1)
+	case graph.FET:
+		add("drain current", "d", 1)
+	case graph.Diode:
+		add("forward current", "a", 1)
+	}
+}
+
+// capWarnings checks an electrolytic's polarity and any capacitor's voltage
+// rating against the DC across it. Electrolytics stand about 1 V of reverse
+// voltage at most (common practice); pare warns above 0.5 V.
+func (p *Point) capWarnings(ch *Chart, part *graph.Part) {
+	if len(part.Pins) != 2 {
+		return
+	}
+	first, second := part.Pins[0], part.Pins[1]
+	if part.Type == graph.CapElectrolytic {
+		first, second = *part.Pin("+"), *part.Pin("-")
+	}
+	va, _ := p.Volts(first.Net)
+	vb, _ := p.Volts(second.Net)
+	d := va - vb
+	if part.Type == graph.CapElectrolytic && d < -0.5 {
+		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s is an electrolytic with its + at %.3g V and its − at %.3g V: reversed", part.Ref, va, vb))
+	}
+	if part.Rating > 0 && math.Abs(d) > part.Rating {
+		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s has %.3g V DC across it against its %.3g V rating", part.Ref, math.Abs(d), part.Rating))
+	}
+}
+
+// railCurrent is the current the parts draw from a held net.
+func (p *Point) railCurrent(net string) float64 {
+	total := 0.0
+	for _, part := range p.Circuit.Parts {
+		for _, pin := range part.Pins {
+			if p.m.netTerm[pin.Net] == p.m.netTerm[net] {
+				total += p.Current(part.Ref, pin.Name)
+			}
+		}
+	}
+	return total
+}
