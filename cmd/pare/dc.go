@@ -75,7 +75,7 @@ func runDC(e *env, o *dcOpts, args []string) int {
 		return exitBad
 	}
 	if o.readings != "" {
-		return runReadings(e, pt, o)
+		return runReadings(e, pt, o, caution)
 	}
 	ch, err := pt.Chart(mt)
 	if err != nil {

@@ -49,3 +49,31 @@ func TestDCWarningsAndErrors(t *testing.T) {
 		}
 	}
 }
+
+// TestDCReadings runs the ranking on the bench fixture whose readings were
+// taken (in simulation) with its coupling capacitor leaking, and on a
+// readings file full of mistakes; both outputs are golden files.
+func TestDCReadings(t *testing.T) {
+	cases := []struct {
+		readings, golden string
+		code             int
+	}{
+		{"testdata/dc/pentode-rc.readings", "testdata/dc/pentode-rc.ranking", exitOK},
+		{"testdata/dc/bad.readings", "testdata/dc/bad.readings.err", exitBad},
+	}
+	for _, tc := range cases {
+		var out, errb bytes.Buffer
+		code := run([]string{"dc", "../../graph/dc/testdata/pentode-rc.toml", "--readings", tc.readings}, &out, &errb)
+		if code != tc.code {
+			t.Fatalf("%s: exit %d, want %d: %s", tc.readings, code, tc.code, errb.String())
+		}
+		golden.Check(t, tc.golden, append(out.Bytes(), errb.Bytes()...), *updateSheets, "go test ./cmd/pare -run TestDCReadings -update")
+	}
+	var out bytes.Buffer
+	run([]string{"dc", "../../graph/dc/testdata/pentode-rc.toml", "--readings", cases[0].readings}, &out, &out)
+	// The leaky coupling capacitor pulls the next grid positive (common
+	// practice): it must come first, and the grid is the reading to take next.
+	if !strings.Contains(out.String(), "1. C2 leaky") || !strings.Contains(out.String(), "next reading: g2") {
+		t.Errorf("ranking should put C2 leaky first and ask for g2:\n%s", out.String())
+	}
+}

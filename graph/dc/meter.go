@@ -69,6 +69,19 @@ func (m Meter) String() string {
 	return "ideal meter (no loading)"
 }
 
+// Short is the meter in the readings file's own notation.
+func (m Meter) Short() string {
+	switch {
+	case m.Ohms > 0:
+		return value.Format(m.Ohms, value.Ohm, value.Code)
+	case m.OhmsPerVolt > 0 && m.Range > 0:
+		return value.Format(m.OhmsPerVolt, value.Ohm, value.Code) + "/V@" + fmt.Sprint(m.Range)
+	case m.OhmsPerVolt > 0:
+		return value.Format(m.OhmsPerVolt, value.Ohm, value.Code) + "/V"
+	}
+	return "ideal"
+}
+
 func rangesText() string {
 	var s []string
 	for _, r := range Ranges {

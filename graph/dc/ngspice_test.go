@@ -37,6 +37,30 @@ func dcFiles(t *testing.T) []string {
 // runOP runs ngspice on a deck and returns its node voltages by node name.
 func runOP(t *testing.T, bin, deck string) map[string]float64 {
 	t.Helper()
+	got := map[string]float64{}
+	for _, kv := range ngspiceValues(t, bin, deck) {
+		got[kv.name] = kv.v
+	}
+	return got
+}
+
+// runOPList returns the printed values in order.
+func runOPList(t *testing.T, bin, deck string) []float64 {
+	t.Helper()
+	var out []float64
+	for _, kv := range ngspiceValues(t, bin, deck) {
+		out = append(out, kv.v)
+	}
+	return out
+}
+
+type named struct {
+	name string
+	v    float64
+}
+
+func ngspiceValues(t *testing.T, bin, deck string) []named {
+	t.Helper()
 	dir := t.TempDir()
 	path := filepath.Join(dir, "op.cir")
 	if err := os.WriteFile(path, []byte(deck), 0o644); err != nil {
@@ -54,13 +78,13 @@ func runOP(t *testing.T, bin, deck string) map[string]float64 {
 	if strings.Contains(errb.String(), "Error") || strings.Contains(errb.String(), "singular") {
 		t.Fatalf("ngspice complained:\n%s", errb.String())
 	}
-	got := map[string]float64{}
+	var got []named
 	sc := bufio.NewScanner(&out)
 	for sc.Scan() {
 		f := strings.Fields(sc.Text())
 		if len(f) == 3 && f[1] == "=" {
 			if v, err := strconv.ParseFloat(f[2], 64); err == nil {
-				got[f[0]] = v
+				got = append(got, named{f[0], v})
 			}
 		}
 	}

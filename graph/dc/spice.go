@@ -20,7 +20,7 @@ func WriteSpiceOP(w io.Writer, c *graph.Circuit) error {
 	if err != nil {
 		return err
 	}
-	return m.writeSpice(w, nil)
+	return m.writeSpice(w, nil, "option numdgt=12\nop\nprint all\n")
 }
 
 // spiceNode names a terminal in the deck.
@@ -47,7 +47,7 @@ func spiceName(s string) string {
 	}, s)
 }
 
-func (m *model) writeSpice(w io.Writer, extra []branch) error {
+func (m *model) writeSpice(w io.Writer, extra []branch, control string) error {
 	var b strings.Builder
 	fmt.Fprintf(&b, "* DC operating point of %s (written by pare for a cross-check)\n", m.circuit.File)
 	for i := range m.fixedNet {
@@ -79,7 +79,7 @@ func (m *model) writeSpice(w io.Writer, extra []branch) error {
 		m.deviceCards(&b, i, &d)
 	}
 	b.WriteString(".options reltol=1e-7 vntol=1e-10 abstol=1e-15 gmin=1e-12\n")
-	b.WriteString(".control\noption numdgt=12\nop\nprint all\nquit\n.endc\n.end\n")
+	b.WriteString(".control\n" + control + "quit\n.endc\n.end\n")
 	_, err := io.WriteString(w, b.String())
 	return err
 }
@@ -139,3 +139,28 @@ func SpiceNodes(c *graph.Circuit) (map[string]string, error) {
 	}
 	return out, nil
 }
+
+// WriteSpiceReadings writes the faulty circuit as a deck that takes one
+// reading per net with a meter of the given resistance (an R card from the
+// net to chassis, switched in by `alter` for its own `op` only), printing
+// "v(node) = value" once per reading in order.
+func (fd *Faulted) WriteSpiceReadings(w io.Writer, nets []string, ohms []float64) error {
+	m := fd.m
+	var meters, ctl strings.Builder
+	ctl.WriteString("option numdgt=12\n")
+	for i, net := range nets {
+		node := m.spiceNode(m.netTerm[net])
+		fmt.Fprintf(&meters, "RMETER%d %s 0 1e18\n", i, node)
+		fmt.Fprintf(&ctl, "alter rmeter%d = %.12g\nop\nprint v(%s)\nalter rmeter%d = 1e18\n", i, ohms[i], node, i)
+	}
+	var deck strings.Builder
+	if err := m.writeSpice(&deck, fd.extra, ctl.String()); err != nil {
+		return err
+	}
+	text := strings.Replace(deck.String(), ".options", meters.String()+".options", 1)
+	_, err := io.WriteString(w, text)
+	return err
+}
+
+// SpiceNode is the deck's node name for net in the faulty circuit.
+func (fd *Faulted) SpiceNode(net string) string { return fd.m.spiceNode(fd.m.netTerm[net]) }
