@@ -82,6 +82,19 @@ func (s *Sparse) slot(r, c int) int {
 	return lo + k
 }
 
+// Slot is the slot of entry (i, j) when the pattern has it.
+func (s *Sparse) Slot(i, j int) (int, bool) {
+	if i < 0 || j < 0 || i >= s.n || j >= s.n {
+		return 0, false
+	}
+	r, c := s.perm[i], s.perm[j]
+	k := s.slot(r, c)
+	if k < s.a.p[c+1] && s.a.i[k] == r {
+		return k, true
+	}
+	return 0, false
+}
+
 // DiagSlot is the slot of diagonal entry (i, i).
 func (s *Sparse) DiagSlot(i int) int { return s.slot(s.perm[i], s.perm[i]) }
 

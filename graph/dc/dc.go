@@ -27,8 +27,10 @@ type Point struct {
 	Iter    int
 	Notes   []string // rails without volts and the like
 
-	m *model
-	v []float64 // free node voltages
+	m    *model
+	v    []float64 // free node voltages
+	sys  *system   // the healthy system, for meter readings
+	fsys *system   // one system shared by the faults that keep the topology
 }
 
 // NetV is the DC voltage of one net.
@@ -61,6 +63,12 @@ func (m *model) solve(start []float64, extra []branch) ([]float64, string, int, 
 	if err != nil {
 		return nil, "", 0, err
 	}
+	return s.solve(start)
+}
+
+// solve runs the strategies on s.
+func (s *system) solve(start []float64) ([]float64, string, int, error) {
+	m := s.m
 	v := make([]float64, s.n)
 	if start != nil {
 		copy(v, start)

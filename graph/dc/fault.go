@@ -139,20 +139,44 @@ func (m *model) eachDevice(ref string, fn func(d *device)) {
 	}
 }
 
-// Simulate solves the circuit with fault f, warm-started from p, and returns
-// the faulty operating point's voltage at each of nets (unloaded).
+// Simulate solves the circuit with fault f, warm-started from p. A fault
+// that changes values only reuses one system (pattern, ordering and pivot
+// order) for every fault: a small change to the factored system rather than
+// a new analysis.
 func (p *Point) Simulate(f Fault) (*Faulted, error) {
 	fm, extra, start := p.m.faulty(f, p.v)
-	v, _, _, err := fm.solve(start, extra)
+	s, err := p.systemFor(fm, extra)
 	if err != nil {
 		return nil, err
 	}
-	return &Faulted{Fault: f, m: fm, extra: extra, v: v}, nil
+	v, _, _, err := s.solve(start)
+	if err != nil {
+		return nil, err
+	}
+	return &Faulted{Fault: f, p: p, m: fm, extra: extra, v: v}, nil
+}
+
+// systemFor rebinds the shared fault system to fm, or builds a new one when
+// the fault changes the topology.
+func (p *Point) systemFor(fm *model, extra []branch) (*system, error) {
+	if p.fsys != nil && p.fsys.rebind(fm, extra) {
+		return p.fsys, nil
+	}
+	s, err := newSystem(fm, extra)
+	if err != nil {
+		return nil, err
+	}
+	if len(fm.nodeNet) == len(p.m.nodeNet) && p.fsys == nil {
+		// Declare every capacitor and device pair once, so later faults rebind.
+		p.fsys = s
+	}
+	return s, nil
 }
 
 // Faulted is a solved faulty circuit.
 type Faulted struct {
 	Fault Fault
+	p     *Point
 	m     *model
 	extra []branch
 	v     []float64
@@ -170,10 +194,9 @@ func (fd *Faulted) Reading(net string, mt Meter) (float64, error) {
 	if t < 0 || mt.IsIdeal() {
 		return v, nil
 	}
-	meter := branch{ref: "meter", a: t, b: fd.m.chassis, g: 1 / mt.Resistance(v)}
-	out, _, _, err := fd.m.solve(fd.v, append(append([]branch(nil), fd.extra...), meter))
+	s, err := fd.p.systemFor(fd.m, fd.extra)
 	if err != nil {
 		return 0, err
 	}
-	return out[t], nil
+	return s.reading(fd.v, t, v, mt)
 }

@@ -120,17 +120,24 @@ func (p *Point) Reading(net string, mt Meter) (float64, error) {
 	if !ok {
 		return 0, fmt.Errorf("no net %q", net)
 	}
-	return p.m.reading(p.v, net, v, mt)
+	if p.sys == nil {
+		s, err := newSystem(p.m, nil)
+		if err != nil {
+			return 0, err
+		}
+		p.sys = s
+	}
+	return p.sys.reading(p.v, p.m.netTerm[net], v, mt)
 }
 
-func (m *model) reading(start []float64, net string, unloaded float64, mt Meter) (float64, error) {
-	t := m.netTerm[net]
+// reading solves s with meter mt from node t to chassis, warm-started.
+func (s *system) reading(start []float64, t term, unloaded float64, mt Meter) (float64, error) {
 	if t < 0 || mt.IsIdeal() {
 		return unloaded, nil
 	}
-	r := mt.Resistance(unloaded)
-	meter := []branch{{ref: "meter", a: t, b: m.chassis, g: 1 / r}}
-	v, _, _, err := m.solve(start, meter)
+	s.meterAt, s.meterG = t, 1/mt.Resistance(unloaded)
+	defer func() { s.meterAt, s.meterG = -1, 0 }()
+	v, _, _, err := s.solve(start)
 	if err != nil {
 		return 0, err
 	}

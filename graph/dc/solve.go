@@ -62,8 +62,36 @@ type system struct {
 	vtry   []float64
 	scale  float64 // source scale for source stepping
 	gmin   float64
-	extra  []branch // meters and injected faults
+	extra  []branch // injected faults
 	xslots [][4]int
+	// A meter: a conductance from one free node to chassis, for one reading.
+	meterAt int
+	meterG  float64
+}
+
+// rebind points the system at a model of the same topology (a fault that
+// changes values, not connections) and its extra branches, reusing the
+// pattern, the ordering and the LU's pivot order. It reports false when an
+// extra branch is not in the pattern; the caller then builds a new system.
+func (s *system) rebind(m *model, extra []branch) bool {
+	if len(m.nodeNet) != s.n {
+		return false
+	}
+	xs := make([][4]int, len(extra))
+	for i, b := range extra {
+		for k, pr := range [4][2]term{{b.a, b.a}, {b.a, b.b}, {b.b, b.a}, {b.b, b.b}} {
+			xs[i][k] = -1
+			if pr[0] >= 0 && pr[1] >= 0 {
+				sl, ok := s.sp.Slot(pr[0], pr[1])
+				if !ok {
+					return false
+				}
+				xs[i][k] = sl
+			}
+		}
+	}
+	s.m, s.extra, s.xslots = m, extra, xs
+	return true
 }
 
 func pairSlots(entries *[][2]int, a, b term) [4]int {
@@ -85,7 +113,7 @@ func pairSlots(entries *[][2]int, a, b term) [4]int {
 // short or leak injected as a fault), every device's terminal pairs, and the
 // extra branches given.
 func newSystem(m *model, extra []branch) (*system, error) {
-	s := &system{m: m, n: len(m.nodeNet), scale: 1, gmin: m.gmin, extra: extra}
+	s := &system{m: m, n: len(m.nodeNet), scale: 1, gmin: m.gmin, extra: extra, meterAt: -1}
 	var entries [][2]int
 	for _, b := range m.branches {
 		s.bslots = append(s.bslots, pairSlots(&entries, b.a, b.b))
@@ -175,10 +203,16 @@ func (s *system) residual(v []float64, stamp bool) float64 {
 	for i := range f {
 		f[i] = s.gmin * v[i]
 	}
+	if s.meterAt >= 0 {
+		f[s.meterAt] += s.meterG * v[s.meterAt]
+	}
 	if stamp {
 		s.sp.Zero()
 		for _, d := range s.diag {
 			s.sp.Add(d, s.gmin)
+		}
+		if s.meterAt >= 0 {
+			s.sp.Add(s.diag[s.meterAt], s.meterG)
 		}
 	}
 	lin := func(b branch, sl [4]int) {
@@ -251,8 +285,10 @@ func (s *system) newton(v []float64, limit int) (bool, error) {
 	for _, x := range s.m.fixedV {
 		maxStep = math.Max(maxStep, maxChange*math.Abs(x))
 	}
+	// The residual and Jacobian at the accepted point are the next
+	// iteration's system: one evaluation per step unless it backtracks.
+	norm := s.residual(v, true)
 	for iter := 0; iter < limit; iter++ {
-		norm := s.residual(v, true)
 		for i := range s.f {
 			s.dx[i] = -s.f[i]
 		}
@@ -261,11 +297,13 @@ func (s *system) newton(v []float64, limit int) (bool, error) {
 		}
 		alpha := s.stepLength(v, maxStep)
 		// Backtrack until the residual falls (or the step is tiny).
+		old := norm
 		for k := 0; ; k++ {
 			for i := range v {
 				s.vtry[i] = v[i] + alpha*s.dx[i]
 			}
-			if k >= maxBack || s.residual(s.vtry, false) <= norm*(1-1e-4*alpha) || norm < iAbsTol {
+			norm = s.residual(s.vtry, true)
+			if k >= maxBack || norm <= old*(1-1e-4*alpha) || old < iAbsTol {
 				break
 			}
 			alpha /= 2
@@ -277,7 +315,7 @@ func (s *system) newton(v []float64, limit int) (bool, error) {
 			}
 			v[i] = s.vtry[i]
 		}
-		if done && s.residual(v, false) < iAbsTol*1e3 {
+		if done && norm < iAbsTol*1e3 {
 			return true, nil
 		}
 	}
