@@ -10,6 +10,7 @@ import (
 
 	"pare/cmd/internal/pipeline"
 	"pare/graph/dc"
+	"pare/rules"
 	"pare/graph/value"
 )
 
@@ -63,10 +64,13 @@ func runDC(e *env, o *dcOpts, args []string) int {
 		fmt.Fprintf(e.stderr, "pare dc: --meter: %v\n", err)
 		return exitBad
 	}
-	res, err := pipeline.Run(pipeline.Options{Path: args[0], Until: pipeline.PhaseLoad})
+	// Stages name the oscillators; the chart stands without them if the
+	// reduction or the recognition fails (oscillatorNotes says so).
+	res, err := pipeline.Run(pipeline.Options{Path: args[0], Until: pipeline.PhaseStages, Level: rules.LevelSignal})
 	if loadFailed(e, args[0], err) {
 		return exitBad
 	}
+	stagesErr := err
 	c := res.Circuit
 	caution := res.Caution.Readings()
 	pt, err := dc.Solve(c)
@@ -90,14 +94,15 @@ func runDC(e *env, o *dcOpts, args []string) int {
 		}
 		return exitOK
 	}
-	writeChart(e.stdout, args[0], pt, ch, caution)
+	osc := oscillatorNotes(res, stagesErr, pt)
+	writeChart(e.stdout, args[0], pt, ch, caution, osc)
 	return exitOK
 }
 
 // writeChart prints the chart under the caution of the circuit's class
 // (graph/safety), which opens with the live-set line: the readings a chart
 // invites are taken on a set that is switched on.
-func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution []string) {
+func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, osc []string) {
 	fmt.Fprintf(w, "%s: DC operating point (%s); readings for: %s\n", path, pt.Method, ch.Meter)
 	for _, l := range caution {
 		fmt.Fprintf(w, "  %s\n", l)
@@ -138,6 +143,12 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution []
 	if len(ch.Warnings) > 0 {
 		fmt.Fprintln(w, "\nwarnings")
 		for _, x := range ch.Warnings {
+			fmt.Fprintf(w, "  %s\n", x)
+		}
+	}
+	if len(osc) > 0 {
+		fmt.Fprintln(w, "\noscillators")
+		for _, x := range osc {
 			fmt.Fprintf(w, "  %s\n", x)
 		}
 	}
