@@ -10,8 +10,8 @@ import (
 
 	"pare/cmd/internal/pipeline"
 	"pare/graph/dc"
-	"pare/rules"
 	"pare/graph/value"
+	"pare/rules"
 )
 
 type dcOpts struct {
@@ -71,11 +71,11 @@ func runDC(e *env, o *dcOpts, args []string) int {
 		return exitBad
 	}
 	stagesErr := err
-	c := res.Circuit
 	caution := res.Caution.Readings()
-	pt, err := dc.Solve(c)
-	if err != nil {
-		fmt.Fprintf(e.stderr, "pare dc: %v\n", err)
+	// The pipeline solved the circuit as written, before the reduction.
+	pt := res.DC
+	if res.DCErr != nil || pt == nil {
+		fmt.Fprintf(e.stderr, "pare dc: %v\n", res.DCErr)
 		return exitBad
 	}
 	if o.readings != "" {
@@ -155,6 +155,12 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 	fmt.Fprintln(w, "\nlaw parameters (where each came from)")
 	for _, o := range pt.Origins {
 		fmt.Fprintf(w, "  %-6s %-5s %-12s %s\n", o.Ref, o.Param, fmt.Sprintf("%.4g %s", o.Value, o.Unit), o.From)
+	}
+	if _, biased := pt.Biased(); len(biased) > 0 {
+		fmt.Fprintln(w, "\nsmall-signal figures taken at this operating point (not given in the netlist)")
+		for _, o := range biased {
+			fmt.Fprintf(w, "  %-6s %-5s %-12s %s\n", o.Ref, o.Param, fmt.Sprintf("%.4g %s", o.Value, o.Unit), o.From)
+		}
 	}
 }
 

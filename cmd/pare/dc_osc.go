@@ -24,7 +24,7 @@ func oscillatorNotes(res *pipeline.Result, err error, pt *dc.Point) []string {
 	if err != nil && !errors.Is(err, stages.ErrSearchLimit) {
 		return []string{fmt.Sprintf("stages not recognised (%v): no oscillator notes", err)}
 	}
-	return oscillatorNotesOf(res.Stages, res.Circuit, pt)
+	return oscillatorNotesOf(res.Stages, pt.Circuit, pt)
 }
 
 // oscillatorNotesOf writes the notes for stages already recognised.

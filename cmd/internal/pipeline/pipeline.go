@@ -17,6 +17,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/dc"
 	"pare/graph/safety"
 	"pare/render"
 	"pare/rules"
@@ -132,6 +133,15 @@ type Result struct {
 	Report     *ac.Report
 	CompareErr error
 
+	// DC is the operating point of the circuit as written, or DCErr why it
+	// was not found (it runs before the reduction). Biased lists the
+	// small-signal figures the AC model takes at that operating point
+	// because the netlist gave a characteristic instead (dc.Point.Biased);
+	// Circuit then carries them.
+	DC     *dc.Point
+	DCErr  error
+	Biased []dc.Origin
+
 	Stages []stages.Stage
 	// StagesLimit is set when the stage search ran out of budget: the
 	// stages found so far are sound, the list may be short.
@@ -162,6 +172,7 @@ func Run(o Options) (*Result, error) {
 		fn func(*Result, Options) error
 	}{
 		{PhaseCheck, (*Result).check},
+		{PhaseReduce, (*Result).bias},
 		{PhaseReduce, (*Result).reduce},
 		{PhaseVerify, (*Result).verify},
 		{PhaseStages, (*Result).recognise},
@@ -180,6 +191,22 @@ func Run(o Options) (*Result, error) {
 
 func (r *Result) check(Options) error {
 	r.Warnings = graph.Check(r.Circuit)
+	return nil
+}
+
+// bias solves the DC operating point before anything small-signal runs, so
+// the one AC model takes a device's figures at its computed bias where the
+// netlist gives only its characteristic. A circuit whose operating point is
+// not found is used as written (the AC model's defaults apply, and `pare
+// dc` says why); one that gives every figure is not touched.
+func (r *Result) bias(Options) error {
+	r.DC, r.DCErr = dc.Solve(r.Circuit)
+	if r.DCErr != nil {
+		return nil
+	}
+	if biased, filled := r.DC.Biased(); len(filled) > 0 {
+		r.Circuit, r.Biased = biased, filled
+	}
 	return nil
 }
 

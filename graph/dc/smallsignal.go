@@ -1,0 +1,98 @@
+package dc
+
+import (
+	"math"
+
+	"pare/graph"
+)
+
+// Small-signal parameters at the operating point. Where the user gives a
+// device's characteristic (a JFET's idss and vp, a transistor's β and vbe)
+// instead of its small-signal figures, the AC model should take them at the
+// computed bias rather than at a default one. Biased returns a copy of the
+// circuit with exactly those missing figures filled in, so the one AC model
+// (which reads gm, ra, ic, … from the part) needs nothing new; Origins say
+// which figures came from the operating point.
+//
+// Filled, only when not given: a BJT's ic (the AC model then takes
+// gm = Ic/VT, rπ = β/gm, ro = VA/Ic); a JFET's gm = ∂Id/∂Vgs; an amplifying
+// valve's gm = ∂Ia/∂Vg1 unless ra and mu are both given (the AC model
+// completes any two of the three), and for a triode given none of them
+// ra = 1/(∂Ia/∂Va).
+// Diodes are left alone: a detector conducts on the signal's peaks, so its
+// small-signal resistance is not a property of the DC bias.
+
+// Biased returns c with the missing small-signal figures taken at the
+// operating point, and where each came from.
+func (p *Point) Biased() (*graph.Circuit, []Origin) {
+	out := p.Circuit.Clone()
+	var origins []Origin
+	set := func(part *graph.Part, name string, v float64, how string) {
+		if !(v > 0) || math.IsInf(v, 0) || math.IsNaN(v) {
+			return
+		}
+		if part.Params == nil {
+			part.Params = map[string]float64{}
+		}
+		part.Params[name] = v
+		origins = append(origins, Origin{part.Ref, name, v, paramUnitText(name), "operating point: " + how})
+	}
+	for _, d := range p.m.devices {
+		part := out.Part(d.ref)
+		if part == nil {
+			continue
+		}
+		slopes := p.slopes(&d)
+		switch d.kind {
+		case devBJT:
+			if _, ok := part.Param("ic"); !ok {
+				set(part, "ic", math.Abs(p.Current(d.ref, "c")), "collector current")
+			}
+		case devFET:
+			if _, ok := part.Param("gm"); !ok {
+				set(part, "gm", slopes[1][0], "∂Id/∂Vgs of the square law")
+			}
+		case devValve:
+			// The AC model completes any two of gm, ra and µ; fill only what
+			// the given ones leave open.
+			_, hasGm := part.Param("gm")
+			_, hasRa := part.Param("ra")
+			_, hasMu := part.Param("mu")
+			if !hasGm && !(hasRa && hasMu) {
+				set(part, "gm", slopes[0][1], "∂Ia/∂Vg1 of the three-halves law")
+			}
+			if !d.valve.pentode && !hasGm && !hasRa && !hasMu && slopes[0][0] > 0 {
+				set(part, "ra", 1/slopes[0][0], "1/(∂Ia/∂Va) of the three-halves law")
+			}
+		}
+	}
+	return out, origins
+}
+
+// slopes evaluates the device's Jacobian at the operating point.
+func (p *Point) slopes(d *device) [][]float64 {
+	k := len(d.t)
+	vt := make([]float64, k)
+	cur := make([]float64, k)
+	jac := make([][]float64, k)
+	for i := range jac {
+		jac[i] = make([]float64, k)
+	}
+	for i, t := range d.t {
+		vt[i] = p.m.voltOf(p.v, t)
+	}
+	d.eval(vt, cur, jac)
+	return jac
+}
+
+func paramUnitText(name string) string {
+	switch name {
+	case "gm":
+		return "S"
+	case "ra":
+		return "Ω"
+	case "ic":
+		return "A"
+	}
+	return ""
+}
