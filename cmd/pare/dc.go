@@ -8,6 +8,7 @@ import (
 	"math"
 	"strings"
 
+	"pare/cmd/internal/note"
 	"pare/cmd/internal/pipeline"
 	"pare/graph/dc"
 	"pare/graph/value"
@@ -94,7 +95,10 @@ func runDC(e *env, o *dcOpts, args []string) int {
 		}
 		return exitOK
 	}
-	osc := oscillatorNotes(res, stagesErr, pt)
+	osc := note.StagesFailed(stagesErr)
+	if osc == nil {
+		osc = note.OscillatorNotes(res.Stages, pt)
+	}
 	writeChart(e.stdout, args[0], pt, ch, caution, osc)
 	return exitOK
 }

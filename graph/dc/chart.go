@@ -3,7 +3,6 @@ package dc
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"pare/graph"
 )
@@ -52,8 +51,10 @@ func electrode(p *graph.Part, pin string) string {
 	switch p.Kind {
 	case graph.Valve:
 		switch {
-		case pin == "a" || pin == "a1" || pin == "a2":
-			return strings.Replace(pin, "a", "anode ", 1)
+		case pin == "a":
+			return "anode"
+		case pin == "a1" || pin == "a2":
+			return "anode " + pin[1:]
 		case pin == "k":
 			return "cathode"
 		case pin == "g1":

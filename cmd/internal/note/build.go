@@ -53,6 +53,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 		n.Verify = VerifyOf(r.Report, r.CompareErr, r.Compare)
 		n.Verify.Rails = RailOutputs(r.Circuit)
 	}
+	n.DC = dcFrom(r)
 	return n
 }
 

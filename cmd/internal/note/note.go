@@ -40,6 +40,7 @@ type Note struct {
 	NearMisses  []Step // candidates a numeric guard turned down
 	Verify      Verify
 	Caution     Caution
+	DC          DC // the voltage chart
 }
 
 type PartCount struct{ Parts, Nets int }
@@ -168,6 +169,7 @@ func Write(w io.Writer, n *Note) error {
 	writeFindings(&b, n)
 	writeSheets(&b, n)
 	writeStages(&b, n)
+	writeDC(&b, n)
 	writeParts(&b, n)
 	writeSteps(&b, n)
 	writeVerify(&b, n)

@@ -226,3 +226,25 @@ func TestVerifyOfFailed(t *testing.T) {
 		t.Error("a comparison error did not make a failed verification")
 	}
 }
+
+// TestDCChart: the voltage chart says its readings are taken on a live set
+// (graph/safety's live-set line, common practice) and names the meter it
+// assumes; a chart that could not be made says why.
+func TestDCChart(t *testing.T) {
+	n := &Note{Title: "t", DC: DC{Meter: "20 kΩ/V meter", Caution: []string{"Probe with one hand."},
+		Rows: []DCRow{{"V1", "anode", "a", "181.4 V", "179 V"}}}}
+	var b bytes.Buffer
+	if err := Write(&b, n); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"## DC voltage chart", "taken on a live set", "Probe with one hand.", "20 kΩ/V meter", "| V1 | anode | `a` | 181.4 V | 179 V |"} {
+		if !strings.Contains(b.String(), want) {
+			t.Errorf("chart lacks %q:\n%s", want, b.String())
+		}
+	}
+	b.Reset()
+	n.DC = DC{Err: "x.toml: the DC operating point does not settle; still moving: a"}
+	if err := Write(&b, n); err != nil || !strings.Contains(b.String(), "was not found: x.toml") {
+		t.Errorf("a failed chart must say why:\n%s", b.String())
+	}
+}

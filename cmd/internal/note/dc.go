@@ -1,0 +1,157 @@
+package note
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"math"
+	"strings"
+
+	"pare/cmd/internal/pipeline"
+	"pare/graph"
+	"pare/graph/dc"
+	"pare/graph/value"
+	"pare/rules/stages"
+)
+
+// Meter is the meter the note's voltage chart assumes: a 20 kΩ/V analogue
+// multimeter, the common service meter (common practice). The chart gives
+// both the voltage and what that meter reads.
+const Meter = "20k/V"
+
+// DC is the note's voltage chart, as text.
+type DC struct {
+	Err         string // set when the operating point was not found
+	Meter       string
+	Rows        []DCRow
+	Caution     []string // the live-set caution (graph/safety)
+	Notes       []string // oscillators, warnings, figures taken at the bias
+	Oscillators []string
+}
+
+// DCRow is one test point or rail.
+type DCRow struct{ Part, Electrode, Net, Volts, Reads string }
+
+// dcFrom fills the chart from the pipeline's operating point.
+func dcFrom(r *pipeline.Result) DC {
+	if r.DC == nil {
+		msg := "not solved"
+		if r.DCErr != nil {
+			msg = r.DCErr.Error()
+		}
+		return DC{Err: msg}
+	}
+	mt, _ := dc.ParseMeter(Meter) // a fixed, valid spec
+	ch, err := r.DC.Chart(mt)
+	if err != nil {
+		return DC{Err: err.Error()}
+	}
+	// The note's caution block is at its top; the chart repeats only the
+	// live-set line of the same source.
+	d := DC{Meter: mt.String(), Caution: r.Caution.Readings()[:1]}
+	for _, p := range ch.Points {
+		reads := Volts(p.Reading)
+		if p.Elsewhere {
+			reads = "set elsewhere"
+		}
+		d.Rows = append(d.Rows, DCRow{p.Ref, p.Label, p.Net, Volts(p.Volts), reads})
+	}
+	for _, rl := range ch.Rails {
+		d.Rows = append(d.Rows, DCRow{"rail", "", rl.Net, Volts(rl.Volts), "draws " + value.FormatPrec(rl.Amps, value.Ampere, value.Symbol, 3)})
+	}
+	d.Oscillators = OscillatorNotes(r.Stages, r.DC)
+	d.Notes = append(d.Notes, ch.Warnings...)
+	for _, o := range r.Biased {
+		d.Notes = append(d.Notes, fmt.Sprintf("%s %s = %.4g %s taken at this operating point (%s).", o.Ref, o.Param, o.Value, o.Unit, o.From))
+	}
+	return d
+}
+
+// writeDC writes the voltage chart: the DC voltages a repairer measures
+// first, under the live-set caution.
+func writeDC(b *bytes.Buffer, n *Note) {
+	d := n.DC
+	if d.Err == "" && len(d.Rows) == 0 {
+		return // no chart was made (a note assembled by hand)
+	}
+	b.WriteString("## DC voltage chart\n\n")
+	if d.Err != "" {
+		fmt.Fprintf(b, "The DC operating point was not found: %s\n\n", mdText(d.Err))
+		return
+	}
+	b.WriteString("**These readings are taken on a live set**: the caution at the top of this note applies to every one.")
+	for _, l := range d.Caution {
+		fmt.Fprintf(b, " %s", mdText(l))
+	}
+	fmt.Fprintf(b, "\n\nComputed for the whole circuit as captured (`pare dc`); the last column is what a %s reads.\n\n", mdText(d.Meter))
+	b.WriteString("| part | electrode | net | DC | meter reads |\n|---|---|---|---:|---:|\n")
+	for _, r := range d.Rows {
+		fmt.Fprintf(b, "| %s | %s | `%s` | %s | %s |\n", mdText(r.Part), mdText(r.Electrode), mdCode(r.Net), r.Volts, mdText(r.Reads))
+	}
+	b.WriteString("\n")
+	for _, x := range append(append([]string(nil), d.Oscillators...), d.Notes...) {
+		fmt.Fprintf(b, "- %s\n", mdText(x))
+	}
+	if len(d.Oscillators)+len(d.Notes) > 0 {
+		b.WriteString("\n")
+	}
+}
+
+// Volts prints a DC voltage the way a chart does: four figures at most, no
+// "-0".
+func Volts(v float64) string {
+	if math.Abs(v) < 5e-4 {
+		return "0 V"
+	}
+	return fmt.Sprintf("%.4g V", v)
+}
+
+// OscillatorNotes says, for each recognised oscillator, what its control
+// electrode shows when it runs. A DC analysis has no oscillation, so the
+// chart gives the stopped value; on the bench a running valve oscillator
+// charges its grid negative through grid current in the grid leak, and a
+// reading near 0 V means it is not running (common practice). A transistor
+// oscillator's junction rectifies the oscillation too: its emitter voltage
+// moves when the tank is shorted out (common practice).
+func OscillatorNotes(found []stages.Stage, pt *dc.Point) []string {
+	var notes []string
+	seen := map[string]bool{}
+	for _, s := range found {
+		if !strings.Contains(strings.ToLower(s.Title), "oscillat") {
+			continue
+		}
+		for _, ref := range s.Parts {
+			p := pt.Circuit.Part(ref)
+			if p == nil || !p.IsActive() || seen[ref] {
+				continue
+			}
+			seen[ref] = true
+			notes = append(notes, oscillatorNote(s, p, pt))
+		}
+	}
+	return notes
+}
+
+// StagesFailed is the oscillator line when the stages could not be found.
+func StagesFailed(err error) []string {
+	if err == nil || errors.Is(err, stages.ErrSearchLimit) {
+		return nil
+	}
+	return []string{fmt.Sprintf("stages not recognised (%v): no oscillator notes", err)}
+}
+
+func oscillatorNote(s stages.Stage, p *graph.Part, pt *dc.Point) string {
+	ctl := p.PinWithRole(graph.RoleControl)
+	v, _ := pt.Volts(p.NetOf(ctl))
+	if p.Kind == graph.Valve {
+		return fmt.Sprintf("%s %s (%s): the chart gives the grid at %s, the value with the oscillator stopped. "+
+			"Running, grid current through the grid leak holds the grid a few volts negative; "+
+			"a reading near 0 V at the grid points to an oscillator that is not running.", s.Name, s.Title, p.Ref, Volts(v))
+	}
+	com := p.PinWithRole(graph.RoleCommon)
+	ve, _ := pt.Volts(p.NetOf(com))
+	word := map[string]string{"b": "base", "e": "emitter", "g": "gate", "s": "source"}
+	return fmt.Sprintf("%s %s (%s): the chart gives the %s at %s and the %s at %s, the values with the oscillator stopped. "+
+		"Running, the junction rectifies the oscillation and the %s voltage shifts; if it does not move when the tank is shorted out, "+
+		"the oscillator is not running.", s.Name, s.Title, p.Ref, word[ctl], Volts(v), word[com], Volts(ve), word[com])
+}
