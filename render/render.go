@@ -107,6 +107,9 @@ type Sheet struct {
 	Caution string
 	// Furniture holds lines for the sheet's info block: IF, tuning range, level.
 	Furniture []string
+	// Volts holds per ref the DC voltages at its electrodes, drawn small in
+	// its label on the full and faded views (never on a reduced one).
+	Volts map[string]string
 }
 
 // Config says how to draw.
@@ -132,6 +135,9 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 		HideUnconnected: s.View == Reduced}
 	if s.View == Faded {
 		o.Faded, o.Merged = s.Faded, s.Merged
+	}
+	if s.View != Reduced {
+		o.Volts = s.Volts
 	}
 	for _, f := range s.Frames {
 		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts})

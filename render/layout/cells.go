@@ -102,10 +102,14 @@ func labelLines(p *graph.Part, o Options) []string {
 	if to, ok := o.Merged[p.Ref]; ok && to != p.Ref {
 		second = append(second, "\u2192 "+to)
 	}
+	out := []string{first}
 	if len(second) > 0 {
-		return []string{first, strings.Join(second, ", ")}
+		out = append(out, strings.Join(second, ", "))
 	}
-	return []string{first}
+	if v := o.Volts[p.Ref]; v != "" {
+		out = append(out, v)
+	}
+	return out
 }
 
 // withUnit appends the unit where the letter code has no letter of its own

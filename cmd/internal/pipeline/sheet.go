@@ -3,7 +3,9 @@ package pipeline
 import (
 	"bytes"
 	"fmt"
+	"math"
 	"sort"
+	"strconv"
 	"strings"
 
 	"pare/graph"
@@ -62,10 +64,12 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	case render.Full:
 		s.Circuit = c
 		s.Frames = stageFrames(r.Stages, reduced, c)
+		s.Volts = r.electrodeVolts()
 	case render.Faded:
 		s.Circuit = c
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
 		s.Frames = stageFrames(r.Stages, reduced, c)
+		s.Volts = r.electrodeVolts()
 	}
 	return s
 }
@@ -182,4 +186,46 @@ func Furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string
 		}
 	}
 	return append(lines, "Reduction level "+lvl.String())
+}
+
+// electrodeVolts gives each active part's electrode voltages for the full
+// and faded sheets, the trade's small figures beside the valve or
+// transistor: "DC a 229 g2 104 k 0.012 V". A grid strapped to the cathode
+// (a suppressor) is not repeated. Nil when the operating point was not
+// found: the sheet is then drawn without figures.
+func (r *Result) electrodeVolts() map[string]string {
+	if r.DC == nil {
+		return nil
+	}
+	out := map[string]string{}
+	for _, p := range r.DC.Circuit.Parts {
+		if !p.IsActive() {
+			continue
+		}
+		var parts []string
+		seen := map[string]bool{}
+		common := p.NetOf(p.PinWithRole(graph.RoleCommon))
+		for _, pin := range p.Pins {
+			role := graph.RoleOfPin(p.Kind, pin.Name)
+			strapped := pin.Net == common && role != graph.RoleCommon
+			if role == graph.RoleHeater || role == graph.RoleShield || strapped || seen[pin.Net] {
+				continue
+			}
+			seen[pin.Net] = true
+			v, _ := r.DC.Volts(pin.Net)
+			parts = append(parts, pin.Name+" "+shortVolts(v))
+		}
+		if len(parts) > 0 {
+			out[p.Ref] = "DC " + strings.Join(parts, " ") + " V"
+		}
+	}
+	return out
+}
+
+// shortVolts is a voltage in three figures at most, as charts print them.
+func shortVolts(v float64) string {
+	if math.Abs(v) < 5e-3 {
+		return "0"
+	}
+	return strconv.FormatFloat(v, 'g', 3, 64)
 }
