@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"pare/graph"
+	dev "pare/graph/device"
 )
 
 // Large-signal laws and their defaults. This file is the seam to the one
@@ -35,20 +36,19 @@ type Default struct {
 	Source string  `json:"source"`
 }
 
-// Defaults lists every default the DC laws use, in a fixed order.
+// Defaults lists every default the DC laws use beyond the small-signal
+// model's, in a fixed order. A valve's gm and µ and a transistor's β and ic
+// come from the one device model (graph/device: given, completed from the
+// other figures, or its class default), so the DC law and the AC model start
+// from the same figures.
 var Defaults = []Default{
 	{"triode", "ia", 1e-3, "A", "anode current at which gm is stated, typical small-signal triode, from memory"},
-	{"triode", "gm", 2e-3, "S", "typical small-signal triode, from memory (same as the AC model)"},
-	{"triode", "mu", 40, "", "typical small-signal triode (gm 2 mA/V, ra 20 kΩ), from memory"},
 	{"pentode", "ia", 5e-3, "A", "anode current at which gm is stated, typical RF/IF pentode, from memory"},
-	{"pentode", "gm", 2e-3, "S", "typical RF/IF pentode, from memory (same as the AC model)"},
 	{"pentode", "mu2", 20, "", "amplification factor of g1 over the screen, typical RF pentode, from memory"},
 	{"pentode", "share", 0.25, "", "screen current as a fraction of cathode current, typical, from memory"},
 	{"pentode", "vknee", 20, "V", "anode voltage scale of the knee (tanh law), typical, from memory"},
 	{"valve grid", "kg", 1e-3, "A/V^1.5", "grid–cathode diode above 0 V: about 1 mA at +1 V, from memory"},
 	{"valve diode", "k", 3e-4, "A/V^1.5", "signal diode perveance: 3 mA at 10 V, from memory"},
-	{"bjt", "beta", 100, "", "typical small-signal transistor, from memory (same as the AC model)"},
-	{"bjt", "ic", 1e-3, "A", "current at which vbe is stated, typical, from memory"},
 	{"bjt", "vbe", 0.65, "V", "silicon small-signal transistor at about 1 mA, common practice"},
 	{"bjt", "betar", 1, "", "reverse β, the SPICE default (BR = 1)"},
 	{"fet", "idss", 5e-3, "A", "typical small-signal JFET, from memory"},
@@ -122,20 +122,15 @@ type valveLaw struct {
 }
 
 func resolveValve(p *graph.Part, o *origins) (valveLaw, error) {
+	sm, err := dev.Of(p)
+	if err != nil {
+		return valveLaw{}, err
+	}
+	gm := o.small(p, "gm", sm.Gm, "S", sm.Given(dev.Gm))
 	switch p.Type {
 	case "triode":
-		gm := o.given(p, "gm", "triode", "S")
 		ia := o.given(p, "ia", "triode", "A")
-		mu, ok := p.Param("mu")
-		if ok {
-			o.list = append(o.list, Origin{p.Ref, "mu", mu, "", "given"})
-		} else if ra, ok := p.Param("ra"); ok {
-			mu = gm * ra
-			o.derived(p.Ref, "mu", mu, "", "gm·ra")
-		} else {
-			mu = def("triode", "mu")
-			o.list = append(o.list, Origin{p.Ref, "mu", mu, "", "default: " + sourceOf("triode", "mu")})
-		}
+		mu := o.small(p, "mu", sm.Mu, "", sm.Given(dev.Mu))
 		if !(gm > 0) || !(ia > 0) || !(mu > 0) {
 			return valveLaw{}, fmt.Errorf("valve %s: gm, ia and mu must be positive for the DC law", p.Ref)
 		}
@@ -144,7 +139,6 @@ func resolveValve(p *graph.Part, o *origins) (valveLaw, error) {
 		o.derived(p.Ref, "K", k, "A/V^1.5", "K = ia/x^1.5 with x = 1.5·ia/gm (three-halves law)")
 		return valveLaw{k: k, mu: mu, kg: def("valve grid", "kg")}, nil
 	case "tetrode", "pentode", "hexode", "heptode", "octode":
-		gm := o.given(p, "gm", "pentode", "S")
 		ia := o.given(p, "ia", "pentode", "A")
 		s := def("pentode", "share")
 		if !(gm > 0) || !(ia > 0) {
@@ -157,6 +151,18 @@ func resolveValve(p *graph.Part, o *origins) (valveLaw, error) {
 			vknee: def("pentode", "vknee"), kg: def("valve grid", "kg")}, nil
 	}
 	return valveLaw{}, fmt.Errorf("valve %s: type %q has no DC law", p.Ref, p.Type)
+}
+
+// small records a figure taken from the one small-signal model.
+func (o *origins) small(p *graph.Part, name string, v float64, unit string, given bool) float64 {
+	from := "default: the device model's (graph/device)"
+	if _, ok := p.Param(name); ok {
+		from = "given"
+	} else if given {
+		from = "derived from the given figures (graph/device)"
+	}
+	o.list = append(o.list, Origin{p.Ref, name, v, unit, from})
+	return v
 }
 
 // bjtLaw is the Ebers–Moll transport model (Ebers and Moll, Proc. IRE 42,
@@ -172,8 +178,12 @@ type bjtLaw struct {
 }
 
 func resolveBJT(p *graph.Part, o *origins) (bjtLaw, error) {
-	bf := o.given(p, "beta", "bjt", "")
-	ic := o.given(p, "ic", "bjt", "A")
+	sm, err := dev.Of(p)
+	if err != nil {
+		return bjtLaw{}, err
+	}
+	bf := o.small(p, "beta", sm.Beta, "", sm.Given(dev.Beta))
+	ic := o.small(p, "ic", sm.Ic, "A", sm.Given(dev.Ic))
 	vbe := o.given(p, "vbe", "bjt", "V")
 	if !(bf > 0) || !(ic > 0) || !(vbe > 0) || vbe > 2 {
 		return bjtLaw{}, fmt.Errorf("transistor %s: beta and ic must be positive and vbe between 0 and 2 V", p.Ref)
