@@ -56,12 +56,21 @@ func writeDiagnosis(w io.Writer, rd *dc.Readings, dg *dc.Diagnosis, top int, cau
 		return
 	}
 	fmt.Fprintln(w, "\nlikely single faults, best first (misfit in tolerance bands, squared and summed)")
+	if len(dg.Ranked) > 0 && len(dg.Ranked[0].Explains) < len(rd.List) {
+		// Say so rather than let the first line read as a diagnosis.
+		fmt.Fprintln(w, "  no single fault of the dictionary explains every reading: more than one fault, a value or")
+		fmt.Fprintln(w, "  connection captured wrong, or a reading mistaken; the first candidates below fit least badly")
+	}
 	for i, c := range dg.Ranked {
 		if i == top {
 			break
 		}
+		which := strings.Join(c.Explains, ", ")
+		if which == "" {
+			which = "none"
+		}
 		fmt.Fprintf(w, "  %d. %-24s misfit %-9.3g explains %d of %d: %s\n", i+1, c.Fault, c.Score,
-			len(c.Explains), len(rd.List), strings.Join(c.Explains, ", "))
+			len(c.Explains), len(rd.List), which)
 	}
 	if dg.Next != "" && len(dg.Ranked) > 1 {
 		fmt.Fprintf(w, "\nnext reading: %s separates the first two: %s if %s, %s if %s\n", dg.Next,
