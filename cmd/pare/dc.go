@@ -90,7 +90,7 @@ func runDC(e *env, o *dcOpts, args []string) int {
 	if o.json {
 		enc := json.NewEncoder(e.stdout)
 		enc.SetIndent("", "  ")
-		if err := enc.Encode(map[string]any{"chart": ch, "origins": pt.Origins, "method": pt.Method}); err != nil {
+		if err := enc.Encode(map[string]any{"chart": ch, "origins": pt.Origins, "method": pt.Method, "caution": caution}); err != nil {
 			return exitBad
 		}
 		return exitOK

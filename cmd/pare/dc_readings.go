@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -31,6 +32,18 @@ func runReadings(e *env, pt *dc.Point, o *dcOpts, caution []string) int {
 	if err != nil {
 		fmt.Fprintf(e.stderr, "pare dc: %v\n", err)
 		return exitBad
+	}
+	if o.json {
+		if len(dg.Ranked) > o.top {
+			dg.Ranked = dg.Ranked[:o.top]
+		}
+		enc := json.NewEncoder(e.stdout)
+		enc.SetIndent("", "  ")
+		if err := enc.Encode(map[string]any{"diagnosis": dg, "tolerance": rd.Tolerance, "caution": caution}); err != nil {
+			fmt.Fprintf(e.stderr, "pare dc: %v\n", err)
+			return exitBad
+		}
+		return exitOK
 	}
 	writeDiagnosis(e.stdout, rd, dg, o.top, caution)
 	return exitOK

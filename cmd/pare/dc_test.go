@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -75,5 +76,26 @@ func TestDCReadings(t *testing.T) {
 	// practice): it must come first, and the grid is the reading to take next.
 	if !strings.Contains(out.String(), "1. C2 leaky") || !strings.Contains(out.String(), "next reading: g2") {
 		t.Errorf("ranking should put C2 leaky first and ask for g2:\n%s", out.String())
+	}
+}
+
+// TestDCJSON: the chart and the ranking print as JSON in SI base units with
+// the caution beside them.
+func TestDCJSON(t *testing.T) {
+	for _, args := range [][]string{
+		{"dc", "--json", "../../graph/dc/testdata/triode-self-bias.toml"},
+		{"dc", "--json", "../../graph/dc/testdata/pentode-rc.toml", "--readings", "testdata/dc/pentode-rc.readings"},
+	} {
+		var out, errb bytes.Buffer
+		if code := run(args, &out, &errb); code != exitOK {
+			t.Fatalf("%v: exit %d: %s", args, code, errb.String())
+		}
+		var v map[string]any
+		if err := json.Unmarshal(out.Bytes(), &v); err != nil {
+			t.Fatalf("%v: not JSON: %v", args, err)
+		}
+		if _, ok := v["caution"]; !ok {
+			t.Errorf("%v: no caution in the JSON", args)
+		}
 	}
 }

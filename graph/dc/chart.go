@@ -22,28 +22,34 @@ type Chart struct {
 // TestPoint is one electrode: the net it is on, its voltage and what the
 // chart's meter would show there.
 type TestPoint struct {
-	Ref, Pin, Label, Net string
-	Volts, Reading       float64
-	Elsewhere            bool // the net has no DC path on this sheet
+	Ref       string  `json:"ref"`
+	Pin       string  `json:"pin"`
+	Label     string  `json:"electrode"`
+	Net       string  `json:"net"`
+	Volts     float64 `json:"volts"`
+	Reading   float64 `json:"reading"`             // what the chart's meter shows
+	Elsewhere bool    `json:"elsewhere,omitempty"` // the net has no DC path on this sheet
 }
 
 // Rail is a held net and the current the circuit draws from it.
 type Rail struct {
-	Net   string
-	Volts float64
-	Amps  float64
+	Net   string  `json:"net"`
+	Volts float64 `json:"volts"`
+	Amps  float64 `json:"amps"`
 }
 
 // DevCurrent is one electrode current of an active part.
 type DevCurrent struct {
-	Ref, What string
-	Amps      float64
+	Ref  string  `json:"ref"`
+	What string  `json:"what"`
+	Amps float64 `json:"amps"`
 }
 
 // Heat is the power in a resistor against its rating (0 when not given).
 type Heat struct {
-	Ref           string
-	Watts, Rating float64
+	Ref    string  `json:"ref"`
+	Watts  float64 `json:"watts"`
+	Rating float64 `json:"rating,omitempty"`
 }
 
 // electrode names test points in the trade's words.

@@ -18,28 +18,29 @@ const absFloor = 0.1
 // Flagged is one reading against the fault-free chart.
 type Flagged struct {
 	Reading
-	Expected float64 // what the meter should read on a healthy set
-	Outside  bool
+	Expected float64 `json:"expected"` // what the meter should read on a healthy set
+	Outside  bool    `json:"outside"`
 }
 
 // Candidate is one fault with how well it explains the readings.
 type Candidate struct {
-	Fault     Fault
-	Score     float64   // Σ ((reading − prediction)/band)²
-	Explains  []string  // keys of the readings within tolerance of the prediction
-	Predicted []float64 // per reading
+	Fault     Fault     `json:"fault"`
+	Score     float64   `json:"misfit"`    // Σ ((reading − prediction)/band)²
+	Explains  []string  `json:"explains"`  // keys of the readings within tolerance of the prediction
+	Predicted []float64 `json:"predicted"` // per reading, volts on its meter
 	sim       *Faulted
 }
 
 // Diagnosis is the outcome of a ranking.
 type Diagnosis struct {
-	Readings []Flagged
-	Ranked   []Candidate
+	Readings []Flagged   `json:"readings"`
+	Ranked   []Candidate `json:"ranked"`
 	// Next is the net whose reading best separates the first two candidates
 	// ("" when there is none), with their predicted voltages there.
-	Next         string
-	NextA, NextB float64
-	Unsolved     []Fault // faults whose circuit would not settle
+	Next     string  `json:"next,omitempty"`
+	NextA    float64 `json:"next_if_first,omitempty"`
+	NextB    float64 `json:"next_if_second,omitempty"`
+	Unsolved []Fault `json:"unsolved,omitempty"` // faults whose circuit would not settle
 }
 
 func (rd *Readings) band(v float64) float64 {

@@ -30,11 +30,11 @@ type Readings struct {
 
 // Reading is one measurement.
 type Reading struct {
-	Key   string // as written: a net or REF.PIN
-	Net   string
-	Volts float64
-	Meter Meter
-	Pos   graph.Pos
+	Key   string    `json:"key"` // as written: a net or REF.PIN
+	Net   string    `json:"net"`
+	Volts float64   `json:"volts"`
+	Meter Meter     `json:"meter"`
+	Pos   graph.Pos `json:"-"`
 }
 
 // defaultTolerance is how far a reading may differ from the chart before it
