@@ -71,10 +71,7 @@ type model struct {
 // generic parts carry no DC current.
 func build(c *graph.Circuit) (*model, error) {
 	m := &model{circuit: c, netTerm: map[string]term{}, gmin: def("gmin", "g")}
-	uf := newJoin()
-	for _, n := range c.Nets {
-		uf.add(n.Name)
-	}
+	uf := &graph.NamedSets{} // the one union-find: the smallest name stands for a group
 	joinShorts(c, uf)
 	if err := m.assignNodes(c, uf); err != nil {
 		return nil, err
@@ -91,26 +88,31 @@ func build(c *graph.Circuit) (*model, error) {
 }
 
 // joinShorts joins the nets of zero-ohm parts and of closed switch contacts.
-func joinShorts(c *graph.Circuit, uf *join) {
+func joinShorts(c *graph.Circuit, uf *graph.NamedSets) {
+	union := func(a, b string) {
+		if a != "" && b != "" {
+			uf.Union(a, b)
+		}
+	}
 	for _, p := range c.Parts {
 		switch p.Kind {
 		case graph.Switch:
 			pos := int(p.Set)
 			if pos >= 1 && pos <= len(p.Closes) {
 				for _, pr := range p.Closes[pos-1] {
-					uf.union(p.NetOf(pr[0]), p.NetOf(pr[1]))
+					union(p.NetOf(pr[0]), p.NetOf(pr[1]))
 				}
 			}
 		case graph.Resistor:
 			if p.Value.Max == 0 {
-				uf.union(p.NetOf("1"), p.NetOf("2"))
+				union(p.NetOf("1"), p.NetOf("2"))
 			}
 		case graph.Pot:
 			if p.Value.Max == 0 || p.Set <= 0 {
-				uf.union(p.NetOf("1"), p.NetOf("w"))
+				union(p.NetOf("1"), p.NetOf("w"))
 			}
 			if p.Value.Max == 0 || p.Set >= 1 {
-				uf.union(p.NetOf("w"), p.NetOf("2"))
+				union(p.NetOf("w"), p.NetOf("2"))
 			}
 		}
 	}
@@ -131,7 +133,7 @@ func fixedVolts(n *graph.Net) (float64, bool) {
 	return 0, false
 }
 
-func (m *model) assignNodes(c *graph.Circuit, uf *join) error {
+func (m *model) assignNodes(c *graph.Circuit, uf *graph.NamedSets) error {
 	groupTerm := map[string]term{}
 	groupV := map[string]float64{}
 	// Fixed groups first, in net order; two different voltages joined is bad input.
@@ -140,7 +142,7 @@ func (m *model) assignNodes(c *graph.Circuit, uf *join) error {
 		if !ok {
 			continue
 		}
-		root := uf.find(n.Name)
+		root := uf.Find(n.Name)
 		if t, seen := groupTerm[root]; seen {
 			if groupV[root] != v {
 				return fmt.Errorf("%s: net %s (%g V) is joined to %s (%g V) through zero-ohm parts or switch contacts",
@@ -156,7 +158,7 @@ func (m *model) assignNodes(c *graph.Circuit, uf *join) error {
 	m.chassis = 0
 	for _, n := range c.Nets {
 		if n.Role == graph.Ground {
-			m.chassis = groupTerm[uf.find(n.Name)]
+			m.chassis = groupTerm[uf.Find(n.Name)]
 			break
 		}
 	}
@@ -166,7 +168,7 @@ func (m *model) assignNodes(c *graph.Circuit, uf *join) error {
 		m.fixedV = append(m.fixedV, 0)
 	}
 	for _, n := range c.Nets {
-		root := uf.find(n.Name)
+		root := uf.Find(n.Name)
 		t, seen := groupTerm[root]
 		if !seen {
 			t = len(m.nodeNet)
@@ -287,39 +289,4 @@ func (m *model) markFloating() {
 	for i := range m.floating {
 		m.floating[i] = !reached[i]
 	}
-}
-
-// join is a union–find over net names with deterministic roots (the
-// smallest name), so the canonical net of a group never depends on order.
-type join struct{ parent map[string]string }
-
-func newJoin() *join { return &join{parent: map[string]string{}} }
-
-func (j *join) add(n string) {
-	if _, ok := j.parent[n]; !ok {
-		j.parent[n] = n
-	}
-}
-
-func (j *join) find(n string) string {
-	j.add(n)
-	for j.parent[n] != n {
-		j.parent[n] = j.parent[j.parent[n]]
-		n = j.parent[n]
-	}
-	return n
-}
-
-func (j *join) union(a, b string) {
-	if a == "" || b == "" {
-		return
-	}
-	ra, rb := j.find(a), j.find(b)
-	if ra == rb {
-		return
-	}
-	if rb < ra {
-		ra, rb = rb, ra
-	}
-	j.parent[rb] = ra
 }
