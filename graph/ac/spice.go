@@ -40,66 +40,27 @@ type SpiceOptions struct {
 // each output with wrdata. The deck is the same elaborated circuit pare
 // solves, element for element.
 func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
-	nl, err := elaborate(c, o.Options)
+	d, err := planDeck(c, o)
 	if err != nil {
 		return err
 	}
-	in := o.Input
-	if in == "" {
-		if len(c.Inputs) == 0 {
-			return fmt.Errorf("%s declares no inputs: name the net to drive", circuitName(c))
-		}
-		in = c.Inputs[0]
+	sw := &spiceWriter{w: bufio.NewWriter(w), nodes: spiceNodes(d.nl.nodes), used: map[string]bool{}}
+	sw.header(c, d.nl)
+	for _, p := range d.nl.prims {
+		sw.prim(p)
 	}
-	inNode, err := nodeOf(c, nl, in)
-	if err != nil {
-		return err
+	for _, g := range d.nl.groups {
+		sw.group(g)
 	}
-	if inNode == 0 {
-		return fmt.Errorf("input %s is at AC ground: it cannot be driven", in)
-	}
-	outs := o.Outputs
-	if outs == nil {
-		outs = c.Outputs
-	}
-	if len(outs) == 0 {
-		outs = []string{in}
-	}
-	outNodes := make([]int, len(outs))
-	for i, out := range outs {
-		if outNodes[i], err = nodeOf(c, nl, out); err != nil {
-			return err
-		}
-		if outNodes[i] == 0 {
-			return fmt.Errorf("output %s is at AC ground: there is nothing to record", out)
-		}
-	}
-	band := o.Band
-	if band.Max <= 0 {
-		band = c.FullBand()
-	}
-	if band.Min <= 0 || band.Max < band.Min {
-		return fmt.Errorf("no band to sweep: give %s a band", circuitName(c))
-	}
-	ppd := o.PointsPerDecade
-	if ppd <= 0 {
-		ppd = 50
-	}
-	data := o.DataFile
-	if data == "" {
-		data = "pare-ac.dat"
-	}
-	if strings.ContainsAny(data, " \t\n;") {
-		return fmt.Errorf("data file name %q: no spaces or semicolons", data)
-	}
-	// Check the system is solvable before handing it on: a floating node
-	// would only earn a warning in the simulator.
-	held := otherInputs(c, nl, inNode)
-	if _, err := newSystem(nl, inNode, held...); err != nil {
-		return err
-	}
+	sw.sources(d)
+	sw.control(d)
+	return sw.w.Flush()
+}
 
-	sw := &spiceWriter{w: bufio.NewWriter(w), nodes: spiceNodes(nl.nodes), used: map[string]bool{}}
+// header writes the comment lines that say where the deck came from, what it
+// leaves out, and which nets had to be renamed to be SPICE nodes: a reader of
+// the deck alone can map it back to the netlist.
+func (sw *spiceWriter) header(c *graph.Circuit, nl *netlist) {
 	title := c.Title
 	if title == "" {
 		title = "circuit"
@@ -121,21 +82,20 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 	}
 	if len(renamed) == 0 {
 		sw.line("* Node names are pare's net names; ground is node 0.")
-	} else {
-		sw.line("* Node names are pare's net names, ground is node 0, except (pare net -> deck node):")
-		for _, i := range renamed {
-			sw.line("*   %s -> %s", oneLine(nl.nodes[i]), sw.nodes[i])
-		}
+		return
 	}
-	for _, p := range nl.prims {
-		sw.prim(p)
+	sw.line("* Node names are pare's net names, ground is node 0, except (pare net -> deck node):")
+	for _, i := range renamed {
+		sw.line("*   %s -> %s", oneLine(nl.nodes[i]), sw.nodes[i])
 	}
-	for _, g := range nl.groups {
-		sw.group(g)
-	}
-	sw.line("Vpare_in %s 0 DC 0 AC 1", sw.nodes[inNode])
+}
+
+// sources writes the input sources and the simulator options that make the
+// deck solve the same system pare does.
+func (sw *spiceWriter) sources(d *spiceDeck) {
+	sw.line("Vpare_in %s 0 DC 0 AC 1", sw.nodes[d.inNode])
 	// The other inputs are held at 0 V by their own (silent) sources, as pare solves it.
-	for i, n := range held {
+	for i, n := range d.held {
 		sw.line("Vpare_in%d %s 0 DC 0 AC 0", i+2, sw.nodes[n])
 	}
 	// Nodes reached only through capacitors have no DC path, and the
@@ -145,28 +105,32 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 	// do too, but it loads high-Q nodes: 1 TΩ across a crystal's motional
 	// capacitance adds tens of ohms of series loss.)
 	sw.line(".option noopac")
+}
+
+// control writes the sweep and the .control block that runs it and writes
+// the outputs' magnitude and phase to the data file, then the deck's end.
+func (sw *spiceWriter) control(d *spiceDeck) {
 	// Keep only the recorded nodes: a large deck would otherwise hold every
 	// node's vector in the simulator's memory.
 	var saves []string
-	for _, n := range outNodes {
+	for _, n := range d.outNodes {
 		saves = append(saves, "v("+sw.nodes[n]+")")
 	}
 	sw.line(".save %s", strings.Join(saves, " "))
-	sw.line("%s", acCard(band, ppd))
+	sw.line("%s", acCard(d.band, d.ppd))
 	sw.line(".control")
 	sw.line("set wr_singlescale")
 	sw.line("set wr_vecnames")
 	sw.line("option numdgt=12")
 	sw.line("run")
 	var vecs []string
-	for _, n := range outNodes {
+	for _, n := range d.outNodes {
 		vecs = append(vecs, fmt.Sprintf("vm(%s) vp(%s)", sw.nodes[n], sw.nodes[n]))
 	}
-	sw.line("wrdata %s %s", data, strings.Join(vecs, " "))
+	sw.line("wrdata %s %s", d.data, strings.Join(vecs, " "))
 	sw.line("quit")
 	sw.line(".endc")
 	sw.line(".end")
-	return sw.w.Flush()
 }
 
 type spiceWriter struct {
