@@ -116,25 +116,41 @@ func pt(p geom.Pt) string { return fmt.Sprintf("(%g,%g)", p.X, p.Y) }
 // Measure checks the sheet.
 func Measure(g *geom.Sheet) *Report {
 	r := &Report{Flagged: len(g.Failed)}
-	var boxes []box
-	for _, s := range g.Symbols {
-		boxes = append(boxes, box{"symbol " + s.Ref, s.Box})
-	}
-	nSym := len(boxes)
-	for _, l := range g.Locals {
-		boxes = append(boxes, box{fmt.Sprintf("local %s at %s.%s", l.Net, l.Owner, l.Pin), l.Box})
-	}
+	boxes, nSym := symbolBoxes(g)
 	var bix bucketed
 	for i, b := range boxes {
 		bix.add(i, b.r)
 	}
-	for i, a := range boxes {
-		for _, j := range bix.near(a.r) {
-			if j > i && a.r.Overlaps(boxes[j].r) {
-				r.SymbolOverlaps = append(r.SymbolOverlaps, a.what+" overlaps "+boxes[j].what)
-			}
-		}
+	segs := sheetSegs(g)
+	r.symbolOverlaps(boxes, &bix)
+	r.wiresThrough(segs, boxes, &bix, nSym)
+	r.labels(g, boxes, &bix, segs)
+	r.frameEdges(g, boxes, segs)
+	r.closeWires(segs)
+	r.crossings(g, segs)
+	r.connectivity(g, segs)
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.CloseWires, r.FrameHugs, r.Connectivity, r.Junctions} {
+		sort.Strings(l)
 	}
+	return r
+}
+
+// symbolBoxes lists the symbols' boxes, then the local symbols' (so the
+// local symbol i is box nSym+i, which lets a stub skip its own symbol).
+func symbolBoxes(g *geom.Sheet) (boxes []box, nSym int) {
+	for _, s := range g.Symbols {
+		boxes = append(boxes, box{"symbol " + s.Ref, s.Box})
+	}
+	nSym = len(boxes)
+	for _, l := range g.Locals {
+		boxes = append(boxes, box{fmt.Sprintf("local %s at %s.%s", l.Net, l.Owner, l.Pin), l.Box})
+	}
+	return boxes, nSym
+}
+
+// sheetSegs lists every wire segment, then every local symbol's stub,
+// each with its net: the checks treat both as wire.
+func sheetSegs(g *geom.Sheet) []netSeg {
 	var segs []netSeg
 	for _, w := range g.Wires {
 		for _, s := range w.Segs {
@@ -146,6 +162,23 @@ func Measure(g *geom.Sheet) *Report {
 			segs = append(segs, netSeg{l.Net, s, i})
 		}
 	}
+	return segs
+}
+
+// symbolOverlaps reports each pair of boxes sharing interior once.
+func (r *Report) symbolOverlaps(boxes []box, bix *bucketed) {
+	for i, a := range boxes {
+		for _, j := range bix.near(a.r) {
+			if j > i && a.r.Overlaps(boxes[j].r) {
+				r.SymbolOverlaps = append(r.SymbolOverlaps, a.what+" overlaps "+boxes[j].what)
+			}
+		}
+	}
+}
+
+// wiresThrough reports wires and stubs running through a symbol; a stub
+// may end inside its own local symbol.
+func (r *Report) wiresThrough(segs []netSeg, boxes []box, bix *bucketed, nSym int) {
 	for _, s := range segs {
 		for _, j := range bix.near(s.seg.Box()) {
 			if s.local >= 0 && j == nSym+s.local {
@@ -156,7 +189,11 @@ func Measure(g *geom.Sheet) *Report {
 			}
 		}
 	}
-	// labels
+}
+
+// labels reports labels overlapping each other or a symbol, and wires
+// touching a label: any of them makes the text hard to read.
+func (r *Report) labels(g *geom.Sheet, boxes []box, bix *bucketed, segs []netSeg) {
 	var lix bucketed
 	for i, l := range g.Labels {
 		lix.add(i, l.Box)
@@ -181,14 +218,6 @@ func Measure(g *geom.Sheet) *Report {
 			}
 		}
 	}
-	r.frameEdges(g, boxes, segs)
-	r.closeWires(segs)
-	r.crossings(g, segs)
-	r.connectivity(g, segs)
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.CloseWires, r.FrameHugs, r.Connectivity, r.Junctions} {
-		sort.Strings(l)
-	}
-	return r
 }
 
 // closeRun is the longest run, in grid steps, two parallel lines may share
@@ -312,193 +341,6 @@ func (r *Report) crossings(g *geom.Sheet, segs []netSeg) {
 					r.FrameCrossings[k]++
 				}
 			}
-		}
-	}
-}
-
-type unionFind []int
-
-func (u unionFind) find(i int) int {
-	for u[i] != i {
-		u[i] = u[u[i]]
-		i = u[i]
-	}
-	return i
-}
-
-func (u unionFind) join(a, b int) { u[u.find(a)] = u.find(b) }
-
-// connectivity checks each net: its wires and stubs form connected pieces
-// that reach every one of its pins; there is one piece, or every piece ends
-// in a local symbol (ground, rail, net-name flag) of the net; no wire touches
-// another net's pin; junctions have dots and at most three arms.
-func (r *Report) connectivity(g *geom.Sheet, segs []netSeg) {
-	type pinRef struct {
-		what string
-		net  string
-		at   geom.Pt
-		dir  geom.Dir
-	}
-	var pins []pinRef
-	for _, s := range g.Symbols {
-		for _, p := range s.Pins {
-			if p.Net == notConnected {
-				continue // a bare lead: nothing to wire, nothing to touch
-			}
-			pins = append(pins, pinRef{s.Ref + "." + p.Name, p.Net, p.At, p.Dir})
-		}
-	}
-	var pix bucketed
-	for i, p := range pins {
-		pix.add(i, geom.Rect{X0: p.at.X, Y0: p.at.Y, X1: p.at.X, Y1: p.at.Y})
-	}
-	byNet := map[string][]int{}
-	var nets []string
-	for i, s := range segs {
-		if _, ok := byNet[s.net]; !ok {
-			nets = append(nets, s.net)
-		}
-		byNet[s.net] = append(byNet[s.net], i)
-		for _, j := range pix.near(s.seg.Box()) {
-			if pins[j].net != s.net && s.seg.HasPoint(pins[j].at) {
-				r.Connectivity = append(r.Connectivity, fmt.Sprintf("wire of %s touches pin %s of %s", s.net, pins[j].what, pins[j].net))
-			}
-		}
-	}
-	pinsOf := map[string][]int{}
-	for i, p := range pins {
-		if _, ok := byNet[p.net]; !ok {
-			if _, seen := pinsOf[p.net]; !seen {
-				nets = append(nets, p.net)
-			}
-		}
-		pinsOf[p.net] = append(pinsOf[p.net], i)
-	}
-	localsOf := map[string][]int{}
-	for i, l := range g.Locals {
-		localsOf[l.Net] = append(localsOf[l.Net], i)
-	}
-	dots := map[geom.Pt]bool{}
-	for _, d := range g.Dots {
-		dots[d] = true
-	}
-	usedDots := map[geom.Pt]bool{}
-	sort.Strings(nets)
-	for _, net := range nets {
-		ss := byNet[net]
-		ps := pinsOf[net]
-		if len(ps) == 0 && len(ss) == 0 {
-			continue
-		}
-		// nodes: segment ends, pins; a node on a segment's inside joins it
-		idx := map[geom.Pt]int{}
-		node := func(p geom.Pt) int {
-			if i, ok := idx[p]; ok {
-				return i
-			}
-			idx[p] = len(idx)
-			return idx[p]
-		}
-		for _, i := range ss {
-			node(segs[i].seg.A)
-			node(segs[i].seg.B)
-		}
-		for _, i := range ps {
-			node(pins[i].at)
-		}
-		pts := make([]geom.Pt, len(idx))
-		for p, i := range idx {
-			pts[i] = p
-		}
-		uf := make(unionFind, len(idx))
-		for i := range uf {
-			uf[i] = i
-		}
-		arms := make([]int, len(idx))
-		for _, i := range ps {
-			arms[idx[pins[i].at]]++ // the pin's lead
-		}
-		for _, i := range ss {
-			s := segs[i].seg
-			a, b := idx[s.A], idx[s.B]
-			uf.join(a, b)
-			arms[a]++
-			arms[b]++
-			for k, p := range pts {
-				if k != a && k != b && s.HasPoint(p) {
-					uf.join(a, k)
-					arms[k] += 2
-				}
-			}
-		}
-		pieces := map[int]bool{}
-		for k := range pts {
-			pieces[uf.find(k)] = true
-		}
-		withLocal := map[int]bool{}
-		for _, li := range localsOf[net] {
-			if k, ok := idx[g.Locals[li].At]; ok {
-				withLocal[uf.find(k)] = true
-			} else {
-				r.Connectivity = append(r.Connectivity, fmt.Sprintf("local symbol of %s at %s is not on a wire", net, pt(g.Locals[li].At)))
-			}
-		}
-		if len(pieces) > 1 {
-			for k := range pieces {
-				if !withLocal[k] {
-					r.Connectivity = append(r.Connectivity, fmt.Sprintf("net %s is in %d pieces and the one at %s has no ground, rail or flag", net, len(pieces), pt(pts[k])))
-				}
-			}
-		}
-		if len(pieces) == 1 && len(ps) > 1 && len(ss) == 0 {
-			r.Connectivity = append(r.Connectivity, fmt.Sprintf("net %s has no wires", net))
-		}
-		for _, i := range ps {
-			k := idx[pins[i].at]
-			if len(ps) > 1 && arms[k] < 2 && len(localsOf[net]) == 0 {
-				r.Connectivity = append(r.Connectivity, fmt.Sprintf("pin %s of %s is not wired", pins[i].what, net))
-			}
-			if len(ps) > 1 && arms[k] < 2 && len(localsOf[net]) > 0 && !withLocal[uf.find(k)] {
-				r.Connectivity = append(r.Connectivity, fmt.Sprintf("pin %s of %s is not wired", pins[i].what, net))
-			}
-		}
-		for k, p := range pts {
-			switch {
-			case arms[k] >= 4:
-				r.Junctions = append(r.Junctions, fmt.Sprintf("four-way junction of %s at %s", net, pt(p)))
-			case arms[k] == 3:
-				if !dots[p] {
-					r.Junctions = append(r.Junctions, fmt.Sprintf("junction of %s at %s has no dot", net, pt(p)))
-				}
-				usedDots[p] = true
-			}
-		}
-		// bends: two perpendicular segment ends meeting, no pin there
-		nb := 0
-		ends := map[geom.Pt][2]int{}
-		for _, i := range ss {
-			s := segs[i].seg
-			for _, p := range []geom.Pt{s.A, s.B} {
-				e := ends[p]
-				if s.Horizontal() {
-					e[0]++
-				} else {
-					e[1]++
-				}
-				ends[p] = e
-			}
-		}
-		for p, e := range ends {
-			if e[0] == 1 && e[1] == 1 && arms[idx[p]] == 2 {
-				nb++
-			}
-		}
-		r.Bends += nb
-		r.MaxBends = max(r.MaxBends, nb)
-	}
-	for _, d := range g.Dots {
-		if !usedDots[d] {
-			r.Junctions = append(r.Junctions, "dot at "+pt(d)+" is not on a junction")
 		}
 	}
 }
