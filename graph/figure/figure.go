@@ -168,6 +168,41 @@ type Figure struct {
 	// a resonance): in JSON, not in the line a person reads.
 	Working bool
 	Origin  Origin
+	// Check is the named formula's value of the same quantity, kept beside
+	// a solver figure as its cross-check (the solver is the truth): notes
+	// and tables show both, a sheet the solver's value alone. Its Name is
+	// the figure's; its Origin names the formula.
+	Check *Figure
+	// Why says in words why Check differs from the value by more than
+	// CheckAgreement (loading, ro, rπ, partial bypass); empty when they
+	// agree.
+	Why string
+}
+
+// CheckAgreement is how far a formula cross-check may differ from the
+// solver's in-circuit value before a figure says why: 2 % (common
+// practice, no source: about the tolerance of the parts themselves).
+const CheckAgreement = 0.02
+
+// Differs tells whether a formula's value b strays from the solver's a by
+// more than CheckAgreement of a.
+func Differs(a, b float64) bool {
+	return math.Abs(a-b) > CheckAgreement*math.Abs(a)
+}
+
+// CheckDiffers tells whether the figure's cross-check strays from it by more
+// than CheckAgreement: at either end of a range.
+func (f Figure) CheckDiffers() bool {
+	c := f.Check
+	switch {
+	case c == nil:
+		return false
+	case f.Range != nil && c.Range != nil:
+		return Differs(f.Range.Min, c.Range.Min) || Differs(f.Range.Max, c.Range.Max)
+	case f.Range == nil && c.Range == nil:
+		return Differs(f.Value, c.Value)
+	}
+	return true // a range checked by a single value, or the other way round
 }
 
 // Finite tells whether every number of the figure is a real number: a
@@ -190,7 +225,7 @@ func (f Figure) Finite() bool {
 			return false
 		}
 	}
-	return f.At == nil || f.At.Finite()
+	return (f.At == nil || f.At.Finite()) && (f.Check == nil || f.Check.Finite())
 }
 
 // Entry is one key and its number, as JSON shows a figure.
@@ -221,5 +256,23 @@ func (f Figure) Entries() []Entry {
 	if f.At != nil {
 		out = append(out, f.At.Entries()...)
 	}
+	if c := f.checkFigure(); c != nil {
+		out = append(out, c.Entries()...)
+	}
 	return out
+}
+
+// checkSuffix marks a cross-check's keys in JSON: "gain_formula",
+// "f_formula_min_hz".
+const checkSuffix = "_formula"
+
+// checkFigure is the cross-check under its own name, for JSON; nil when
+// there is none.
+func (f Figure) checkFigure() *Figure {
+	if f.Check == nil {
+		return nil
+	}
+	c := *f.Check
+	c.Name, c.At, c.Check = f.Name+checkSuffix, nil, nil
+	return &c
 }

@@ -101,13 +101,23 @@ func (f Figure) rangeText(m Medium) string {
 }
 
 // Item is the figure as a person reads it in a list: its label, then its
-// value ("osc f 1.004 MHz–2.063 MHz").
+// value ("osc f 1.004 MHz–2.063 MHz"); in text, a formula cross-check
+// follows in brackets, with why it differs where it does ("gain -58.3
+// (formula −µ·RL/(ra+RL) -61.6: …)"). A sheet shows the value alone.
 func (f Figure) Item(m Medium) string {
 	label := f.Label
 	if label == "" {
 		label = strings.ReplaceAll(f.Name, "_", " ")
 	}
-	return label + " " + f.Text(m)
+	s := label + " " + f.Text(m)
+	if m == Text && f.Check != nil {
+		s += " (" + f.Check.Origin.String() + " " + f.Check.Text(m)
+		if f.Why != "" {
+			s += ": " + f.Why
+		}
+		s += ")"
+	}
+	return s
 }
 
 // Items lists a stage's figures as a person reads them, in the list's

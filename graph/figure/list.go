@@ -75,9 +75,9 @@ type Origins List
 func (o Origins) MarshalJSON() ([]byte, error) {
 	var members []member
 	for _, f := range o {
-		at := f.At
-		f.At = nil
-		for _, g := range []*Figure{&f, at} {
+		at, check := f.At, f.checkFigure()
+		f.At, f.Check = nil, nil
+		for _, g := range []*Figure{&f, at, check} {
 			if g == nil {
 				continue
 			}

@@ -1,0 +1,118 @@
+package ac
+
+import (
+	"fmt"
+	"math"
+
+	"pare/graph"
+)
+
+// Response is one response of one circuit, assembled once and solved at any
+// frequency: what a search for a peak or a −3 dB point asks for point by
+// point (the stage figures in rules/stages), without assembling the
+// circuit again for each point.
+type Response struct {
+	s       *system
+	in, out int
+	current bool // 1 A into in (a transimpedance), else 1 V on in
+	zero    bool // read at AC ground: 0
+}
+
+// NewTransfer is V(out)/V(in) with in driven by an ideal 1 V source, as
+// Transfer solves it.
+func NewTransfer(c *graph.Circuit, in, out string, o Options) (*Response, error) {
+	nl, err := elaborate(c, o)
+	if err != nil {
+		return nil, err
+	}
+	n, m, err := twoNodes(c, nl, in, out)
+	if err != nil {
+		return nil, err
+	}
+	if n == 0 {
+		return nil, fmt.Errorf("input %s is at AC ground: it cannot be driven", in)
+	}
+	s, err := newSystem(nl, n, otherInputs(c, nl, n)...)
+	if err != nil {
+		return nil, err
+	}
+	if m != 0 && m != n && s.unk[m] < 0 {
+		return nil, fmt.Errorf("output %s is not connected to any part the small-signal model sees", out)
+	}
+	return &Response{s: s, in: n, out: m, zero: m == 0}, nil
+}
+
+// NewTransimpedance is V(out)/I for a current I of 1 A driven into net in
+// from ground, the circuit's other declared inputs held at 0 V by their
+// ideal sources and nothing else driven: a tank or a winding driven so, as
+// the anode or collector that feeds it would (a current source), keeps
+// its damping, which an ideal voltage source would short. With out = in it
+// is the driving-point impedance (Impedance).
+func NewTransimpedance(c *graph.Circuit, in, out string, o Options) (*Response, error) {
+	nl, err := elaborate(c, o)
+	if err != nil {
+		return nil, err
+	}
+	n, m, err := twoNodes(c, nl, in, out)
+	if err != nil {
+		return nil, err
+	}
+	if n == 0 || m == 0 {
+		return &Response{zero: true}, nil // into AC ground, or read there
+	}
+	s, err := newSystem(nl, -1, otherInputs(c, nl, n)...)
+	if err != nil {
+		return nil, err
+	}
+	if s.unk[n] < 0 || s.unk[m] < 0 {
+		return nil, fmt.Errorf("net %s or %s is not connected to any part the small-signal model sees", in, out)
+	}
+	return &Response{s: s, in: n, out: m, current: true}, nil
+}
+
+func twoNodes(c *graph.Circuit, nl *netlist, in, out string) (int, int, error) {
+	n, err := nodeOf(c, nl, in)
+	if err != nil {
+		return 0, 0, err
+	}
+	m, err := nodeOf(c, nl, out)
+	return n, m, err
+}
+
+// At solves the response at f hertz.
+func (r *Response) At(f float64) (complex128, error) {
+	if !(f > 0) || math.IsInf(f, 0) {
+		return 0, fmt.Errorf("frequency %g: must be a positive number of hertz", f)
+	}
+	if r.zero {
+		return 0, nil
+	}
+	if err := r.s.solveAt(f); err != nil {
+		return 0, err
+	}
+	if r.current {
+		for i := range r.s.b {
+			r.s.b[i] = 0
+		}
+		r.s.b[r.s.unk[r.in]] = 1
+	}
+	if err := r.s.solveRHS(f); err != nil {
+		return 0, err
+	}
+	return r.s.voltage(r.out), nil
+}
+
+// Transimpedance is NewTransimpedance solved at each frequency.
+func Transimpedance(c *graph.Circuit, in, out string, freqs []float64, o Options) ([]complex128, error) {
+	r, err := NewTransimpedance(c, in, out, o)
+	if err != nil {
+		return nil, err
+	}
+	res := make([]complex128, len(freqs))
+	for k, f := range freqs {
+		if res[k], err = r.At(f); err != nil {
+			return nil, err
+		}
+	}
+	return res, nil
+}
