@@ -16,6 +16,10 @@ type Response struct {
 	in, out int
 	current bool // 1 A into in (a transimpedance), else 1 V on in
 	zero    bool // read at AC ground: 0
+	// back, when set (not ground), is where the current leaves (a current
+	// driven from back to in) and the node read against out: V(out) −
+	// V(back). 0: ground.
+	back int
 }
 
 // NewTransfer is V(out)/V(in) with in driven by an ideal 1 V source, as
@@ -70,6 +74,36 @@ func NewTransimpedance(c *graph.Circuit, in, out string, o Options) (*Response, 
 	return &Response{s: s, in: n, out: m, current: true}, nil
 }
 
+// NewAcross is the impedance between nets a and b: V(a) − V(b) for 1 A
+// driven into a and out of b, with the circuit's declared inputs held at
+// 0 V and nothing else driven. It is a tank's own impedance where neither
+// end is at AC ground (a secondary whose cold end returns through a
+// capacitor); with b at AC ground it is the driving-point impedance of a.
+func NewAcross(c *graph.Circuit, a, b string, o Options) (*Response, error) {
+	nl, err := elaborate(c, o)
+	if err != nil {
+		return nil, err
+	}
+	n, m, err := twoNodes(c, nl, a, b)
+	if err != nil {
+		return nil, err
+	}
+	if n == 0 {
+		n, m = m, n
+	}
+	if n == 0 || n == m {
+		return &Response{zero: true}, nil
+	}
+	s, err := newSystem(nl, -1, otherInputs(c, nl, -1)...)
+	if err != nil {
+		return nil, err
+	}
+	if s.unk[n] < 0 || m != 0 && s.unk[m] < 0 {
+		return nil, fmt.Errorf("net %s or %s is not connected to any part the small-signal model sees", a, b)
+	}
+	return &Response{s: s, in: n, out: n, back: m, current: true}, nil
+}
+
 func twoNodes(c *graph.Circuit, nl *netlist, in, out string) (int, int, error) {
 	n, err := nodeOf(c, nl, in)
 	if err != nil {
@@ -95,11 +129,14 @@ func (r *Response) At(f float64) (complex128, error) {
 			r.s.b[i] = 0
 		}
 		r.s.b[r.s.unk[r.in]] = 1
+		if r.back > 0 {
+			r.s.b[r.s.unk[r.back]] = -1
+		}
 	}
 	if err := r.s.solveRHS(f); err != nil {
 		return 0, err
 	}
-	return r.s.voltage(r.out), nil
+	return r.s.voltage(r.out) - r.s.voltage(r.back), nil
 }
 
 // Transimpedance is NewTransimpedance solved at each frequency.

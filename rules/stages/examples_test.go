@@ -60,7 +60,7 @@ func TestFrequencyChangerExample(t *testing.T) {
 		{"image_f_min_hz", fmin + 470e3}, {"image_f_max_hz", fmax + 470e3},
 		{"if_hz", 470e3},
 	} {
-		got, ok := mix.Figures.Lookup(c.key)
+		got, ok := formulaOf(mix.Figures, c.key)
 		if !ok || math.Abs(got-c.want) > 1e-6*c.want {
 			t.Errorf("%s = %g (present %v), want %g", c.key, got, ok, c.want)
 		}

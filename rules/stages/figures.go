@@ -62,6 +62,10 @@ type figCtx struct {
 	m    *match
 	st   *Stage
 	spec FigureSpec
+	sub  *graph.Circuit // what the solver sees of the circuit (solverCircuit), built on first use
+	// solve: solve the figures in circuit (a stage kept); a candidate has
+	// its formulas' alone (solveFigures).
+	solve bool
 }
 
 // put records a figure on the stage under the pattern's prefix ("osc" makes

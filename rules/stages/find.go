@@ -286,7 +286,7 @@ func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, o
 	*budget -= s.steps
 	var cands []*found
 	for _, m := range s.found {
-		st := evaluate(w, m)
+		st := evaluate(w, m, false)
 		if st == nil {
 			continue
 		}
@@ -336,7 +336,23 @@ func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, o
 		}
 	}
 	sortTree(tops)
+	solveFigures(w, tops)
 	return tops, runErr
+}
+
+// solveFigures evaluates the stages kept once more, now with the AC solver
+// on each in circuit (figures.go, incircuit.go): a candidate's figures are
+// the formulas' alone, so the search over thousands of candidates costs no
+// solve, and only a stage a person will read is solved. A stage whose
+// guard the solver's figures fail keeps its formulas' figures: the guard
+// chose it on them.
+func solveFigures(w *world, level []*found) {
+	for _, f := range level {
+		if st := evaluate(w, f.m, true); st != nil {
+			f.Title, f.Figures, f.figRanks, f.Flags, f.Notes = st.Title, st.Figures, st.figRanks, st.Flags, st.Notes
+		}
+		solveFigures(w, f.subs)
+	}
 }
 
 // place puts a candidate that overlaps stage parent inside it when it lies
@@ -380,7 +396,9 @@ func relation(a, b map[string]bool) (inside, overlap bool) {
 
 // evaluate turns a match into a stage: family, title, figures, flags; nil
 // when a guard rejects it or the pattern does not serve the family matched.
-func evaluate(w *world, m *match) *Stage {
+// With solve, the figures are the solver's in circuit, the formulas
+// beside them; without, the formulas' alone.
+func evaluate(w *world, m *match, solve bool) *Stage {
 	p := m.v.p
 	st := &Stage{Topology: p.ID, group: p.Group, nets: map[string]string{}}
 	for i, vp := range m.v.parts {
@@ -416,7 +434,7 @@ func evaluate(w *world, m *match) *Stage {
 		title = t
 	}
 	st.Title = expandTitle(title, st.Family)
-	x := &figCtx{w: w, m: m, st: st}
+	x := &figCtx{w: w, m: m, st: st, solve: solve}
 	for _, f := range p.Figures {
 		x.spec = f
 		calcs[f.Calc].fn(x)

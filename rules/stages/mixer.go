@@ -5,6 +5,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/figure"
+	"pare/graph/value"
 )
 
 // The formulas of coupled tuned circuits and frequency changers, by the
@@ -36,8 +37,14 @@ func calcDoubleTuned(x *figCtx) {
 		return
 	}
 	c1, c2 := x.w.coils[ci][as[0]], x.w.coils[ci][as[1]]
+	// Each side is tuned as an aligner peaks it: with the other side's
+	// coupling taken out, so the pair's split does not pass for a
+	// mistuning. The pair's response with its coupling is the bandwidth.
+	sub := x.sub
+	x.sub = withPart(x.solverCircuit(), uncoupled(p, c1.name, c2.name))
 	f1 := x.windingTank(ci, c1, x.parts("caps1"), "1")
 	f2 := x.windingTank(ci, c2, x.parts("caps2"), "2")
+	x.sub = sub
 	k := p.K(c1.name, c2.name)
 	x.set("k", figure.Ratio, k, byCoupling)
 	q1, q2 := c1.q, c2.q
@@ -55,6 +62,19 @@ func calcDoubleTuned(x *figCtx) {
 	for _, f := range []float64{f1, f2} {
 		x.checkIF(p.Ref, f)
 	}
+}
+
+// uncoupled is a copy of transformer p with windings a and b not coupled;
+// with a empty, no winding coupled to another.
+func uncoupled(p *graph.Part, a, b string) *graph.Part {
+	q := *p
+	q.Coupling = nil
+	for _, c := range p.Coupling {
+		if a != "" && !(c.A == a && c.B == b || c.A == b && c.B == a) {
+			q.Coupling = append(q.Coupling, c)
+		}
+	}
+	return &q
 }
 
 // coupledPair writes the critical coupling and bandwidth of a pair of
@@ -84,15 +104,17 @@ func (x *figCtx) coupledPair(ref string, f1, k, q1, q2 float64) {
 // and returns the fixed or mid-range value for later figures.
 func (x *figCtx) windingTank(ci int, cl coil, caps []*graph.Part, side string) float64 {
 	a, b := x.w.pinNet(ci, cl.pins[0]), x.w.pinNet(ci, cl.pins[len(cl.pins)-1])
-	cmin, cmax := capBetween(x.w, caps, a, b, 0), capBetween(x.w, caps, a, b, 1)
 	x.set("l"+side, figure.Henry, cl.l, byPartValue)
-	if cmax > cmin*1.0001 {
-		x.span("f"+side, figure.Hertz, resonance(cl.l, cmax), resonance(cl.l, cmin), byResonance)
-		return resonance(cl.l, (cmin+cmax)/2)
+	formulaAt := func(frac float64) float64 { return resonance(cl.l, capBetween(x.w, caps, a, b, frac)) }
+	x.resonanceFigure("f"+side, x.w.parts[ci].Ref, cl.l, a, b, formulaAt, byResonance, refsOf(caps))
+	f, ok := x.get("f" + side)
+	switch {
+	case !ok:
+		return math.NaN()
+	case f.Range != nil:
+		return (f.Range.Min + f.Range.Max) / 2
 	}
-	f := resonance(cl.l, cmax)
-	x.set("f"+side, figure.Hertz, f, byResonance)
-	return f
+	return f.Value
 }
 
 // ifTolerance is how far a tuned IF circuit may sit from the declared IF
@@ -132,15 +154,45 @@ func calcMixer(x *figCtx) {
 	}
 	oscCaps := x.parts("caps")
 	osc := &tankModel{w: x.w, l: oc.l, a: oc.a, b: oc.b, caps: oscCaps}
-	omin, omax := osc.f(1), osc.f(0)
-	x.span("osc_f", figure.Hertz, omin, omax, byResonance)
+	x.resonanceFigure("osc_f", oc.ref, oc.l, oc.a, oc.b, osc.f, byResonance, refsOf(oscCaps))
+	fmin, fmax := osc.f(1), osc.f(0) // the formula's
+	omin, omax := fmin, fmax
+	if f, ok := x.get("osc_f"); ok && f.Range == nil {
+		// a tank the gang does not move: still the oscillator's range,
+		// one point wide, as the signal and image ranges are
+		r := value.Range{Min: f.Value, Max: f.Value}
+		f.Range, f.Value = &r, 0
+		if c := f.Check; c != nil && c.Range == nil {
+			cr := value.Range{Min: c.Value, Max: c.Value}
+			c.Range, c.Value = &cr, 0
+		}
+		f.Name = "osc_f"
+		x.put(f)
+	}
+	if f, ok := x.get("osc_f"); ok && f.Range != nil {
+		omin, omax = f.Range.Min, f.Range.Max // the solver's, in circuit
+	}
 	ifHz := x.intermediate()
 	if !(ifHz > 0) {
 		return
 	}
 	smin, smax := omin-ifHz, omax-ifHz
-	x.span("sig_f", figure.Hertz, smin, smax, bySignal)
-	x.span("image_f", figure.Hertz, smin+2*ifHz, smax+2*ifHz, byImage)
+	// From the solver's oscillator range, with the same sums on the
+	// formula's range beside them.
+	span := func(name string, lo, hi float64, o figure.Origin) *figure.Figure {
+		return &figure.Figure{Name: name, Unit: figure.Hertz, Range: &value.Range{Min: lo, Max: hi}, Origin: o}
+	}
+	sig := span("sig_f", smin, smax, bySignal)
+	img := span("image_f", smin+2*ifHz, smax+2*ifHz, byImage)
+	if f, ok := x.get("osc_f"); ok && f.Check != nil {
+		sig.Check = span("sig_f", fmin-ifHz, fmax-ifHz, bySignal)
+		img.Check = span("image_f", fmin+ifHz, fmax+ifHz, byImage)
+		if f.Why != "" {
+			sig.Why, img.Why = "from the oscillator's range, "+f.Why, "from the oscillator's range, "+f.Why
+		}
+	}
+	x.put(*sig)
+	x.put(*img)
 	if b := x.w.c.Band; b.Max > 0 {
 		// 1 % short of a band edge is within what the trimmers set.
 		if smin > b.Min*1.01 || smax < b.Max*0.99 {
@@ -161,8 +213,19 @@ func (x *figCtx) intermediate() float64 {
 	x.spec = spec
 	ift := math.NaN()
 	if iok {
-		ift = resonance(ic.l, capBetween(x.w, x.parts("ift_caps"), ic.a, ic.b, 1))
-		x.set("ift_f", figure.Hertz, ift, byResonance)
+		caps := x.parts("ift_caps")
+		formulaAt := func(float64) float64 { return resonance(ic.l, capBetween(x.w, caps, ic.a, ic.b, 1)) }
+		// the primary peaked as an aligner peaks it, the secondary's
+		// coupling out (calcDoubleTuned)
+		if p := x.part("ift"); p != nil && x.solve {
+			sub := x.sub
+			x.sub = withPart(x.solverCircuit(), uncoupled(p, "", ""))
+			defer func() { x.sub = sub }()
+		}
+		x.resonanceFigure("ift_f", ic.ref, ic.l, ic.a, ic.b, formulaAt, byResonance, refsOf(caps))
+		if f, ok := x.get("ift_f"); ok {
+			ift = f.Value
+		}
 		if p := x.part("ift"); p != nil {
 			x.checkIF(p.Ref, ift)
 		}
@@ -171,7 +234,10 @@ func (x *figCtx) intermediate() float64 {
 		x.set("if", figure.Hertz, ifHz, byDeclaredIF)
 		return ifHz
 	}
-	x.set("if", figure.Hertz, ift, byResonance)
+	if f, ok := x.get("ift_f"); ok {
+		f.Name = "if" // the transformer's tuning is the IF, as solved
+		x.put(f)
+	}
 	return ift
 }
 

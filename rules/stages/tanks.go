@@ -32,20 +32,27 @@ func resonance(l, c float64) float64 {
 	return 1 / (2 * math.Pi * math.Sqrt(l*c))
 }
 
-// tankFigures writes the capacitance and the resonance of a tank, as a range
-// when a variable capacitor takes part (Cmax gives the low end of f, Cmin
-// the high end).
-func (x *figCtx) tankFigures(l float64, a, b int, caps []*graph.Part) {
+// tankFigures writes the capacitance and the resonance of a tank: the
+// solver's peak of the tank's impedance in circuit, with 1/(2π√(LC)) on
+// the capacitors the pattern names as its cross-check; a range when a
+// variable capacitor takes part (full capacitance gives the low end of f,
+// least the high end).
+func (x *figCtx) tankFigures(ref string, l float64, a, b int, caps []*graph.Part) {
 	cmin := capBetween(x.w, caps, a, b, 0)
 	cmax := capBetween(x.w, caps, a, b, 1)
 	x.set("l", figure.Henry, l, byCoilL)
 	if hasVariable(caps) && cmax > cmin*1.0001 {
 		x.span("c", figure.Farad, cmin, cmax, byTankC)
-		x.span("f", figure.Hertz, resonance(l, cmax), resonance(l, cmin), byResonance)
-		return
+	} else {
+		x.set("c", figure.Farad, cmax, byTankC)
 	}
-	x.set("c", figure.Farad, cmax, byTankC)
-	x.set("f", figure.Hertz, resonance(l, cmax), byResonance)
+	formulaAt := func(frac float64) float64 {
+		if !hasVariable(caps) {
+			frac = 1
+		}
+		return resonance(l, capBetween(x.w, caps, a, b, frac))
+	}
+	x.resonanceFigure("f", ref, l, a, b, formulaAt, byResonance, refsOf(caps))
 }
 
 func hasVariable(caps []*graph.Part) bool {
@@ -62,7 +69,7 @@ func calcTank(x *figCtx) {
 	if !ok {
 		return
 	}
-	x.tankFigures(c.l, c.a, c.b, x.parts("caps"))
+	x.tankFigures(c.ref, c.l, c.a, c.b, x.parts("caps"))
 	if x.word("check", "") == "if" {
 		if f, ok := x.get("f"); ok && f.Range == nil {
 			x.checkIF(c.ref, f.Value)
@@ -94,7 +101,7 @@ func calcHartley(x *figCtx) {
 		x.set("l2", figure.Henry, l2, byPartValue)
 		x.set("m", figure.Henry, m, byHartleyL)
 	}
-	x.tankFigures(c.l, c.a, c.b, x.parts("caps"))
+	x.tankFigures(c.ref, c.l, c.a, c.b, x.parts("caps"))
 }
 
 // calcColpitts: Ceff = C1C2/(C1+C2); feedback fraction β = C1/C2 with C1

@@ -1,0 +1,296 @@
+package stages
+
+import (
+	"math"
+	"math/cmplx"
+
+	"pare/graph"
+	"pare/graph/ac"
+	model "pare/graph/device"
+	"pare/graph/figure"
+	"pare/graph/value"
+)
+
+// In-circuit figures. A stage's resonance, gain, corner and bandwidth are
+// what the AC solver gives on the stage as it sits in the reduced circuit:
+// driven from its input, loaded by what follows, at each gang setting. The
+// textbook formula is kept beside it as the named cross-check
+// (figure.Figure.Check), with words for why the two part where they
+// differ by more than figure.CheckAgreement.
+
+// wholeCircuitParts is the size up to which a stage is solved in the whole
+// reduced circuit; a larger set is cut to the parts within solverDepth
+// steps of the stage (neighbourhood), so a figure costs the same in a
+// 5,000-part set as in a one-stage sheet. Four steps reach from a stage's
+// output through a coupling capacitor to the next device and its
+// emitter or cathode parts, which set what that device draws.
+const (
+	wholeCircuitParts = 400
+	solverDepth       = 4
+)
+
+// solverCircuit is the circuit a stage's figures are solved in.
+func (x *figCtx) solverCircuit() *graph.Circuit {
+	if x.sub == nil {
+		if len(x.w.parts) <= wholeCircuitParts {
+			x.sub = x.w.c
+		} else {
+			x.sub = x.neighbourhood(solverDepth)
+		}
+	}
+	return x.sub
+}
+
+// gang is one setting of the variable capacitors the figures are solved
+// at: VarFrac 1 is every section at its largest capacitance.
+type gang struct {
+	frac float64
+	at   string
+}
+
+var (
+	gangMid   = gang{0.5, "gang at mid travel"}
+	gangTravel = []gang{{1, "gang at full capacitance"}, gangMid, {0, "gang at least capacitance"}}
+)
+
+// gangs are the settings a stage is solved at: the two ends of the travel
+// and the middle where the solver's circuit has a variable capacitor, the
+// middle alone otherwise.
+func (x *figCtx) gangs() []gang {
+	for _, p := range x.solverCircuit().Parts {
+		if p.Kind == graph.Capacitor && p.Value.IsSpan() && !(p.Type == graph.CapTrimmer && p.Set > 0) {
+			return gangTravel
+		}
+	}
+	return []gang{gangMid}
+}
+
+func (g gang) options() ac.Options { return ac.Options{VarFrac: g.frac, VarSet: true} }
+
+// overGang is where a figure solved at every gang setting was solved: the
+// one setting's words, or the travel's.
+func overGang(gs []gang) string {
+	if len(gs) == 1 {
+		return gs[0].at
+	}
+	return "gang at each end and mid travel"
+}
+
+// magnitude is |r(f)|, NaN where the solver fails.
+func magnitude(r *ac.Response, f float64) float64 {
+	h, err := r.At(f)
+	if err != nil || cmplx.IsNaN(h) || cmplx.IsInf(h) {
+		return math.NaN()
+	}
+	return cmplx.Abs(h)
+}
+
+// peakPoints is the number of points of each pass of a peak search, and
+// peakPasses the passes: each narrows the span to two cells of the last,
+// a twentieth, so four passes over a span of a factor of nine leave
+// cells of 7·10⁻⁶, and the parabola through the best three a good deal
+// less (enough to meet ngspice to 2·10⁻⁶).
+const (
+	peakPoints = 41
+	peakPasses = 4
+)
+
+// peakOf finds the frequency in lo..hi where |r| is largest: a log grid over
+// the span, then finer grids over the cells either side of the best
+// point, then a parabola through the best three (in log f and dB). ok is
+// false when the largest value sits on an end of lo..hi (no peak inside)
+// or the solver fails.
+func peakOf(r *ac.Response, lo, hi float64) (f, mag float64, ok bool) {
+	a, b := math.Log(lo), math.Log(hi)
+	for pass := 0; pass < peakPasses; pass++ {
+		step := (b - a) / (peakPoints - 1)
+		best, bestMag := -1, -1.0
+		mags := make([]float64, peakPoints)
+		for i := range mags {
+			mags[i] = magnitude(r, math.Exp(a+float64(i)*step))
+			if math.IsNaN(mags[i]) {
+				return 0, 0, false
+			}
+			if mags[i] > bestMag {
+				best, bestMag = i, mags[i]
+			}
+		}
+		if pass == 0 && (best == 0 || best == peakPoints-1) {
+			return 0, 0, false
+		}
+		if pass < peakPasses-1 {
+			lo := max(best-1, 0)
+			hi := min(best+1, peakPoints-1)
+			a, b = a+float64(lo)*step, a+float64(hi)*step
+			continue
+		}
+		x := a + float64(best)*step
+		if best > 0 && best < peakPoints-1 {
+			y0, y1, y2 := db(mags[best-1]), db(mags[best]), db(mags[best+1])
+			if den := y0 - 2*y1 + y2; den < 0 {
+				x += 0.5 * step * (y0 - y2) / den
+			}
+		}
+		return math.Exp(x), magnitude(r, math.Exp(x)), true
+	}
+	return 0, 0, false
+}
+
+func db(v float64) float64 { return 20 * math.Log10(v) }
+
+// crossing finds, by bisection in log f, where |r| passes level between
+// from (where it is above level) and to (where it is below); ok is false
+// when it does not pass there.
+func crossing(r *ac.Response, level, from, to float64) (float64, bool) {
+	above := func(f float64) (bool, bool) {
+		m := magnitude(r, f)
+		return m >= level, !math.IsNaN(m)
+	}
+	if up, ok := above(from); !ok || !up {
+		return 0, false
+	}
+	if up, ok := above(to); !ok || up {
+		return 0, false
+	}
+	a, b := math.Log(from), math.Log(to)
+	for i := 0; i < 50; i++ {
+		m := (a + b) / 2
+		up, ok := above(math.Exp(m))
+		if !ok {
+			return 0, false
+		}
+		if up {
+			a = m
+		} else {
+			b = m
+		}
+	}
+	return math.Exp((a + b) / 2), true
+}
+
+// solved is a figure solved at each gang setting (vals in the order of
+// gs): one value, or a range over the gang; nil when a value is missing.
+func solved(name string, u figure.Unit, vals []float64, what string, gs []gang) *figure.Figure {
+	f := figure.Figure{Name: name, Unit: u, Origin: figure.BySolver(what, overGang(gs))}
+	if len(vals) == 0 || len(vals) != len(gs) {
+		return nil
+	}
+	lo, hi := vals[0], vals[0]
+	for _, v := range vals {
+		if math.IsNaN(v) || v == 0 {
+			return nil
+		}
+		lo, hi = min(lo, v), max(hi, v)
+	}
+	if len(vals) == 1 || hi <= lo*1.0001 {
+		f.Value = vals[len(vals)/2]
+		f.Origin.At = gangMid.at
+		if len(vals) == 1 {
+			f.Origin.At = gs[0].at
+		}
+		return &f
+	}
+	f.Range = &value.Range{Min: lo, Max: hi}
+	return &f
+}
+
+// putChecked records the solver's figure with the formula's beside it
+// (check may be nil: no formula for it), and the reason words when they
+// part by more than figure.CheckAgreement. Without a solver figure the
+// formula's stands alone, as before: a figure the solver could not reach
+// is still better read from its formula than not at all.
+func (x *figCtx) putChecked(sv *figure.Figure, check *figure.Figure, why func() string) {
+	switch {
+	case sv == nil && check == nil:
+		return
+	case sv == nil:
+		x.put(*check)
+		return
+	}
+	f := *sv
+	if check != nil && check.Finite() {
+		c := *check
+		c.Name, c.Label = f.Name, ""
+		f.Check = &c
+		if f.CheckDiffers() && why != nil {
+			f.Why = why()
+		}
+	}
+	x.put(f)
+}
+
+// netName is the circuit's name of a folded net, "" for the folded ground.
+func (x *figCtx) netName(id int) string {
+	if id <= groundNet || id >= len(x.w.names) {
+		return ""
+	}
+	return x.w.names[id]
+}
+
+// withPart is c with one part replaced (same ref) by p: a new circuit
+// sharing every other part and net, for a solve with one part changed
+// (a coupling taken out, a capacitor made a full bypass).
+func withPart(c *graph.Circuit, p *graph.Part) *graph.Circuit {
+	out := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
+		Inputs: c.Inputs, Outputs: c.Outputs, Nets: c.Nets, Parts: make([]*graph.Part, len(c.Parts))}
+	for i, q := range c.Parts {
+		out.Parts[i] = q
+		if q.Ref == p.Ref {
+			out.Parts[i] = p
+		}
+	}
+	return out
+}
+
+// quietGm is the transconductance a device keeps in a quiet copy: small
+// enough that no loop through it matters, not zero, which the model
+// refuses for a valve (µ = gm·ra must make a model).
+const quietGm = 1e-12
+
+// quiet is the circuit with every amplifying device made passive:
+// transconductance gone, input and output resistances kept. A tank is
+// solved so: where a device closes a loop around it (an oscillator, or a
+// tank coupled into an oscillator's grid) the peak would be the loop's,
+// not the tank's; quiet, the resonance is the tank's, loaded as it sits,
+// as a dip meter finds it with the set off.
+func quiet(c *graph.Circuit) *graph.Circuit {
+	var parts []*graph.Part
+	changed := false
+	for _, p := range c.Parts {
+		if q := quietPart(p); q != nil {
+			parts, changed = append(parts, q), true
+			continue
+		}
+		parts = append(parts, p)
+	}
+	if !changed {
+		return c
+	}
+	out := withPart(c, &graph.Part{})
+	out.Parts = parts
+	return out
+}
+
+// quietPart is a copy of an amplifying part with its transconductance
+// gone, nil for any other part.
+func quietPart(p *graph.Part) *graph.Part {
+	if p.Kind != graph.Valve && p.Kind != graph.BJT && p.Kind != graph.FET {
+		return nil
+	}
+	s, err := model.Of(p)
+	if err != nil {
+		return nil
+	}
+	q := *p
+	q.Params = map[string]float64{"gm": quietGm}
+	switch p.Kind {
+	case graph.Valve:
+		q.Params["ra"] = s.ROut
+	case graph.BJT:
+		q.Params["beta"], q.Params["ic"] = s.Beta, s.Ic
+		q.Params["rpi"], q.Params["ro"] = s.RPi, s.ROut
+	case graph.FET:
+		q.Params["rd"] = s.ROut
+	}
+	return &q
+}
