@@ -46,8 +46,6 @@ var figureNames = []figName{
 	{name: "pad_trim", label: "trimmer", group: suggestedDesign},
 	{name: "track_f", label: "exact at", group: suggestedDesign},
 	{name: "gain", label: "gain"},
-	{name: "gain_ac", label: "gain (AC check)"},
-	{name: "gain_unloaded", label: "gain unloaded"},
 	{name: "load_f", label: "load tuned f"},
 	{name: "f_c", label: "f c"},
 	{name: "f_c_unloaded", label: "f c (unloaded)"},

@@ -2,11 +2,9 @@ package stages
 
 import (
 	"math"
-	"math/cmplx"
 	"sort"
 
 	"pare/graph"
-	"pare/graph/ac"
 	model "pare/graph/device"
 	"pare/graph/figure"
 )
@@ -19,7 +17,7 @@ var (
 	byLoad      = figure.ByFormula("RL = load ∥ every resistor to AC ground")
 	byDynamicR  = figure.ByFormula("Rd = Q·ω0·L")
 	byTapShare  = figure.ByFormula("n = √Lcold/(√L1 + √L2)")
-	byTunedGain = figure.ByFormula("A = −gm·(Rd·n² ∥ ra)")
+	byTunedGain = figure.ByFormula("A = −gm·(Rd·n² ∥ rout)")
 	byBypassR   = figure.ByFormula("R = Rk ∥ Z into the common electrode")
 )
 
@@ -116,58 +114,60 @@ func calcGain(x *figCtx) {
 	if form != "follower" && rl == 0 {
 		return
 	}
-	var a float64
-	switch form {
-	case "common":
-		if d.kind == graph.Valve {
-			a = -d.mu * rl / (d.ra + rl)
-		} else {
-			a = -d.gm * parallel(rl, d.rOut)
-		}
-	case "degenerated":
-		switch {
-		case d.kind == graph.Valve:
-			a = -d.mu * rl / (d.ra + rl + (d.mu+1)*rk)
-		case d.kind == graph.BJT && d.beta > 0:
-			a = -d.beta * rl / (d.rpi + (d.beta+1)*rk)
-		default:
-			a = -d.gm * rl / (1 + d.gm*rk)
-		}
-	case "follower":
-		if rk == 0 {
-			return
-		}
-		if d.kind == graph.Valve {
-			a = d.mu * rk / (d.ra + (d.mu+1)*rk)
-		} else {
-			a = d.gm * rk / (1 + d.gm*rk)
-		}
-		x.set("r_out", figure.Ohm, parallel(d.small.ZCommon(0), rk), byROut)
-	case "grid":
-		if d.kind == graph.Valve {
-			a = (d.mu + 1) * rl / (d.ra + rl)
-		} else {
-			a = d.gm * rl
-		}
-	case "cascode":
-		a = -d.gm * rl
-	case "pair":
-		if d.kind == graph.Valve {
-			a = -d.mu * rl / (2 * (d.ra + rl))
-		} else {
-			a = -d.gm * rl / 2
-		}
-	default:
+	a, name := gainFormula(d, form, rl, rk)
+	if name == "" {
 		return
 	}
-	x.set("gain", figure.Ratio, a, figure.ByFormula("textbook mid-band gain, "+form+" form"))
-	if a != 0 {
-		x.set("gain", figure.Decibel, 20*math.Log10(math.Abs(a)), byDecibels)
+	if form == "follower" {
+		x.set("r_out", figure.Ohm, parallel(d.small.ZCommon(0), rk), byROut)
 	}
-	x.crossCheckGain(p, form, a)
+	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: a, Origin: figure.ByFormula(name)}
+	sv, why := x.solveGain(p, form, d, rl)
+	x.putChecked(sv, &check, why)
+	if g, ok := x.get("gain"); ok && g.Value != 0 {
+		x.set("gain", figure.Decibel, 20*math.Log10(math.Abs(g.Value)), byDecibels)
+	}
 	if form != "follower" {
 		x.set("r_load", figure.Ohm, rl, byLoad)
 	}
+}
+
+// gainFormula is the textbook mid-band gain of a form (see calcGain) and
+// the formula's name as a figure's origin gives it; name is "" for a form
+// the table does not know or a follower without its resistor.
+func gainFormula(d device, form string, rl, rk float64) (a float64, name string) {
+	valve := d.kind == graph.Valve
+	switch {
+	case form == "common" && valve:
+		return -d.mu * rl / (d.ra + rl), "A = −µ·RL/(ra+RL)"
+	case form == "common" && d.rOut > 0:
+		return -d.gm * parallel(rl, d.rOut), "A = −gm·(RL∥ro)"
+	case form == "common":
+		return -d.gm * rl, "A = −gm·RL"
+	case form == "degenerated" && valve:
+		return -d.mu * rl / (d.ra + rl + (d.mu+1)*rk), "A = −µ·RL/(ra+RL+(µ+1)Rk)"
+	case form == "degenerated" && d.kind == graph.BJT && d.beta > 0:
+		return -d.beta * rl / (d.rpi + (d.beta+1)*rk), "A = −β·RL/(rπ+(β+1)RE)"
+	case form == "degenerated":
+		return -d.gm * rl / (1 + d.gm*rk), "A = −gm·RL/(1+gm·RS)"
+	case form == "follower" && rk == 0:
+		return 0, ""
+	case form == "follower" && valve:
+		return d.mu * rk / (d.ra + (d.mu+1)*rk), "A = µ·Rk/(ra+(µ+1)Rk)"
+	case form == "follower":
+		return d.gm * rk / (1 + d.gm*rk), "A = gm·RE/(1+gm·RE)"
+	case form == "grid" && valve:
+		return (d.mu + 1) * rl / (d.ra + rl), "A = (µ+1)·RL/(ra+RL)"
+	case form == "grid":
+		return d.gm * rl, "A = gm·RL"
+	case form == "cascode":
+		return -d.gm * rl, "A = −gm1·RL"
+	case form == "pair" && valve:
+		return -d.mu * rl / (2 * (d.ra + rl)), "A = −µ·RL/(2(ra+RL))"
+	case form == "pair":
+		return -d.gm * rl / 2, "A = −gm·RL/2"
+	}
+	return 0, ""
 }
 
 // load is the AC load at the stage's output, see calcGain.
@@ -198,61 +198,6 @@ func (x *figCtx) load() float64 {
 		}
 	}
 	return parallelR(rs)
-}
-
-// gainAgreement is how far the textbook gain and the AC solver's may differ
-// before a stage is flagged: 10 % (common practice, no source: about the
-// spread of valve and transistor parameters between samples).
-const gainAgreement = 0.10
-
-// crossCheckGain solves the whole reduced circuit with graph/ac, driving the
-// stage's input net with 1 V at the middle of the device's band (geometric
-// mean of its edges), and reads the output: gain_ac. A textbook formula that
-// disagrees means the stage is loaded or fed back in a way the formula does
-// not know; the flag says by how much.
-func (x *figCtx) crossCheckGain(p *graph.Part, form string, a float64) {
-	i := x.index(x.spec.Args["device"][0])
-	if i < 0 || a == 0 {
-		return
-	}
-	var inNet, outNet string
-	for _, pin := range x.m.v.parts[i].pp.Pins {
-		switch pin.Key {
-		case "control":
-			inNet = x.st.nets[pin.Net]
-		case "common":
-			if form == "follower" {
-				outNet = x.st.nets[pin.Net]
-			}
-			if form == "grid" {
-				inNet = x.st.nets[pin.Net]
-			}
-		}
-	}
-	if nets := x.spec.Args["load_net"]; len(nets) > 0 {
-		outNet = x.st.nets[nets[0]]
-	}
-	if inNet == "" || outNet == "" || x.w.c.Net(inNet) == nil || x.w.c.Net(outNet) == nil {
-		return
-	}
-	band := x.w.c.BandOf(p)
-	if band.Min <= 0 || band.Max <= 0 {
-		return
-	}
-	f := math.Sqrt(band.Min * band.Max)
-	h, err := ac.Transfer(x.neighbourhood(2), inNet, outNet, []float64{f}, ac.Options{})
-	if err != nil || len(h) != 1 || cmplx.IsNaN(h[0]) {
-		return
-	}
-	g := cmplx.Abs(h[0])
-	if real(h[0]) < 0 {
-		g = -g
-	}
-	x.set("gain_ac", figure.Ratio, g, figure.BySolver("V("+outNet+")/V("+inNet+")", hz(f)+", gang at mid travel"))
-	if math.Abs(g-a) > gainAgreement*math.Abs(a) {
-		x.flag("textbook gain %s but the AC solver gives %s at %s: the stage is loaded or fed back beyond the formula",
-			figure.Plain(a), figure.Plain(g), hz(f))
-	}
 }
 
 // neighbourhood is the stage with every part within depth steps of it
@@ -315,9 +260,8 @@ func (x *figCtx) neighbourhood(depth int) *graph.Circuit {
 // electrode on a tap it sees Rd·n², n the tap's share of the turns counted
 // from the cold end (turns go with √L on one core). The gain to the output
 // electrode is then −gm·(Rd·n² ∥ ra) with the secondary's load left out:
-// gain_unloaded, an upper bound. (No AC cross-check here yet: the coupled
-// secondary's loading is where the formula and a solver part ways, and that
-// comparison needs its own reference first.)
+// the cross-check of the gain, which is the solver's peak in circuit
+// (solveTunedGain), the secondary's load and the windings' coupling in.
 func calcTunedGain(x *figCtx) {
 	p := x.part("device")
 	c, ok := x.coil("coil")
@@ -351,7 +295,9 @@ func calcTunedGain(x *figCtx) {
 	if d.kind == graph.Valve && gm == 0 && d.ra > 0 {
 		gm = d.mu / d.ra
 	}
-	x.set("gain_unloaded", figure.Ratio, -gm*parallel(rd*n*n, rOut), byTunedGain)
+	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: -gm * parallel(rd*n*n, rOut), Origin: byTunedGain}
+	sv, why := x.solveTunedGain(p, rd*n*n, rOut)
+	x.putChecked(sv, &check, why)
 }
 
 // tapShare is the share of the tuned winding's turns between its cold end

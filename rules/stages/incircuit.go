@@ -49,7 +49,7 @@ type gang struct {
 }
 
 var (
-	gangMid   = gang{0.5, "gang at mid travel"}
+	gangMid    = gang{0.5, "gang at mid travel"}
 	gangTravel = []gang{{1, "gang at full capacitance"}, gangMid, {0, "gang at least capacitance"}}
 )
 

@@ -1,0 +1,228 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/ac"
+	model "pare/graph/device"
+	"pare/graph/figure"
+)
+
+// gainWhy words why a textbook gain parts from the solver's in circuit,
+// each reason checked on the circuit, not guessed: the load the output
+// sees (what lies beyond the coupling capacitor), an output resistance the
+// formula leaves out (ro from VA/Ic), and a common electrode that is not
+// at AC ground at the frequency solved (a capacitor that is no full
+// bypass there).
+func (x *figCtx) gainWhy(p *graph.Part, form string, d device, rl float64, out string, f float64) string {
+	var why []string
+	c := quiet(x.solverCircuit())
+	full, err := model.Of(p)
+	if err != nil {
+		return ""
+	}
+	if form != "follower" {
+		if z, ok := impedanceAt(c, out, f); ok {
+			// the quiet device keeps its output resistance across the load
+			y := 1 / z
+			if !math.IsInf(full.ROut, 1) && full.ROut > 0 {
+				y -= 1 / complex(full.ROut, 0)
+			}
+			if load := cmplx.Abs(1 / y); figure.Differs(load, rl) {
+				why = append(why, fmt.Sprintf("the output works into %s in circuit, not the %s of resistors to AC ground the formula takes",
+					figure.Format(load, figure.Ohm, figure.Text), figure.Format(rl, figure.Ohm, figure.Text)))
+			}
+		}
+	}
+	if d.kind != graph.Valve && d.rOut == 0 && full.ROut > 0 && !math.IsInf(full.ROut, 1) {
+		why = append(why, fmt.Sprintf("the solver's ro of %s (from the default Early voltage) the formula leaves out",
+			figure.Format(full.ROut, figure.Ohm, figure.Text)))
+	}
+	if form == "common" {
+		if k := x.commonNet(); k != "" {
+			if z, ok := impedanceAt(c, k, f); ok && cmplx.Abs(z) > figure.CheckAgreement*full.ZCommon(rl) {
+				why = append(why, fmt.Sprintf("the %s is not at AC ground at %s: it sees %s, no full bypass",
+					electrodeWord(p), hz(f), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text)))
+			}
+		}
+	}
+	if len(why) == 0 {
+		return "the circuit round the stage (feedback, or a path the formula does not model) moves it"
+	}
+	return strings.Join(why, "; ")
+}
+
+// outputWord is the output electrode's name for a device.
+func outputWord(p *graph.Part) string {
+	switch p.Kind {
+	case graph.BJT:
+		return "collector"
+	case graph.FET:
+		return "drain"
+	}
+	return "anode"
+}
+
+// electrodeWord is the common electrode's name for a device.
+func electrodeWord(p *graph.Part) string {
+	switch p.Kind {
+	case graph.BJT:
+		return "emitter"
+	case graph.FET:
+		return "source"
+	}
+	return "cathode"
+}
+
+// commonNet is the circuit net of the stage device's common electrode, ""
+// when it is at AC ground or the pattern has no such pin.
+func (x *figCtx) commonNet() string {
+	args := x.spec.Args["device"]
+	if len(args) == 0 {
+		return ""
+	}
+	i := x.index(args[0])
+	if i < 0 {
+		return ""
+	}
+	for _, pin := range x.m.v.parts[i].pp.Pins {
+		if pin.Key == "common" {
+			name := x.st.nets[pin.Net]
+			if id, ok := x.w.netID[name]; ok && id != groundNet {
+				return name
+			}
+		}
+	}
+	return ""
+}
+
+// impedanceAt is the driving-point impedance of a net at f, gang at mid
+// travel; ok is false where the solver cannot give it.
+func impedanceAt(c *graph.Circuit, net string, f float64) (complex128, bool) {
+	r, err := ac.NewTransimpedance(c, net, net, gangMid.options())
+	if err != nil {
+		return 0, false
+	}
+	z, err := r.At(f)
+	if err != nil || cmplx.IsNaN(z) || cmplx.IsInf(z) || z == 0 {
+		return 0, false
+	}
+	return z, true
+}
+
+// gainNets are the nets a stage's gain is read between: the control
+// electrode's (the common one's for a grid-driven stage) and the load net
+// (the common electrode's for a follower).
+func (x *figCtx) gainNets(form string) (in, out string) {
+	i := x.index(x.spec.Args["device"][0])
+	if i < 0 {
+		return "", ""
+	}
+	for _, pin := range x.m.v.parts[i].pp.Pins {
+		switch pin.Key {
+		case "control":
+			in = x.st.nets[pin.Net]
+		case "common":
+			if form == "follower" {
+				out = x.st.nets[pin.Net]
+			}
+			if form == "grid" {
+				in = x.st.nets[pin.Net]
+			}
+		}
+	}
+	if nets := x.spec.Args["load_net"]; len(nets) > 0 {
+		out = x.st.nets[nets[0]]
+	}
+	return in, out
+}
+
+// solveGain is the stage's gain as the solver gives it in circuit: the
+// whole reduced circuit (solverCircuit), the stage's input net driven with
+// 1 V at the middle of the device's band (geometric mean of its edges),
+// the output read where the next stage loads it, gang at mid travel. why
+// words a difference from the formula (gainWhy). nil when the nets or the
+// band are not known or the solver fails.
+func (x *figCtx) solveGain(p *graph.Part, form string, d device, rl float64) (*figure.Figure, func() string) {
+	in, out := x.gainNets(form)
+	c := x.solverCircuit()
+	band := x.w.c.BandOf(p)
+	if !x.solve || in == "" || out == "" || c.Net(in) == nil || c.Net(out) == nil || band.Min <= 0 || band.Max <= 0 {
+		return nil, nil
+	}
+	f := math.Sqrt(band.Min * band.Max)
+	r, err := ac.NewTransfer(c, in, out, gangMid.options())
+	if err != nil {
+		return nil, nil
+	}
+	h, err := r.At(f)
+	if err != nil || cmplx.IsNaN(h) || cmplx.IsInf(h) {
+		return nil, nil
+	}
+	g := cmplx.Abs(h)
+	if real(h) < 0 {
+		g = -g
+	}
+	sv := &figure.Figure{Name: "gain", Unit: figure.Ratio, Value: g,
+		Origin: figure.BySolver("V("+out+")/V("+in+")", hz(f)+", "+gangMid.at)}
+	return sv, func() string { return x.gainWhy(p, form, d, rl, out, f) }
+}
+
+// solveTunedGain is a tuned stage's gain as the solver gives it in
+// circuit: the peak of V(output)/V(control) near the load's in-circuit
+// resonance, with everything the tuned winding feeds connected. The
+// formula beside it takes the tank's own dynamic resistance (rdn2: Rd·n²)
+// and the device's output resistance rOut alone; why says what the output
+// works into at the peak in circuit instead.
+func (x *figCtx) solveTunedGain(p *graph.Part, rdn2, rOut float64) (*figure.Figure, func() string) {
+	in, out := "", ""
+	i := x.index(x.spec.Args["device"][0])
+	if i < 0 || !x.solve {
+		return nil, nil
+	}
+	for _, pin := range x.m.v.parts[i].pp.Pins {
+		switch pin.Key {
+		case "control":
+			in = x.st.nets[pin.Net]
+		case "output":
+			out = x.st.nets[pin.Net]
+		}
+	}
+	f0, ok := x.st.Figures.Lookup("load_f_hz")
+	c := x.solverCircuit()
+	if !ok || in == "" || out == "" || c.Net(in) == nil || c.Net(out) == nil {
+		return nil, nil
+	}
+	r, err := ac.NewTransfer(c, in, out, gangMid.options())
+	if err != nil {
+		return nil, nil
+	}
+	f, _, ok := peakOf(r, f0/tankSearch, f0*tankSearch)
+	if !ok {
+		return nil, nil
+	}
+	h, err := r.At(f)
+	if err != nil {
+		return nil, nil
+	}
+	g := cmplx.Abs(h)
+	if real(h) < 0 {
+		g = -g
+	}
+	sv := &figure.Figure{Name: "gain", Unit: figure.Ratio, Value: g,
+		Origin: figure.BySolver("peak of V("+out+")/V("+in+")", hz(f)+", "+gangMid.at)}
+	why := func() string {
+		z, ok := impedanceAt(quiet(c), out, f)
+		if !ok {
+			return ""
+		}
+		return fmt.Sprintf("at its peak the output works into %s in circuit, not the %s the formula takes from the tank's own Q, the tap's share of the turns and %s: the windings' coupling and what the tuned winding feeds set it",
+			figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text), figure.Format(parallel(rdn2, rOut), figure.Ohm, figure.Text),
+			outputWord(p)+" output resistance")
+	}
+	return sv, why
+}
