@@ -1,6 +1,7 @@
 package stages
 
 import (
+	"fmt"
 	"math"
 	"sort"
 
@@ -370,5 +371,32 @@ func calcBypass(x *figCtx) {
 	}
 	tau := r * ck
 	x.set("tau", figure.Second, tau, byTau)
-	x.set("f_c", figure.Hertz, 1/(2*math.Pi*tau), byCorner)
+	check := figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: 1 / (2 * math.Pi * tau), Origin: byCorner}
+	cs := x.parts("c")
+	b := x.bypassInCircuit(p, cs[0])
+	if b.solved && len(cs) == 1 {
+		x.checkBypass(cs[0], b)
+	}
+	if !b.solved || !b.hasCorner || len(cs) != 1 {
+		x.put(check)
+		return
+	}
+	sv := &figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: b.corner,
+		Origin: figure.BySolver("−3 dB of the stage's gain below a perfect bypass's", gangMid.at)}
+	x.putChecked(sv, &check, func() string {
+		return fmt.Sprintf("the formula is the pole of %s with %s; the gain runs from %s with no bypass to %s with a perfect one, and its −3 dB point meets the pole only where the first is far below the second",
+			cs[0].Ref, figure.Format(r, figure.Ohm, figure.Text), figure.Plain(b.open), figure.Plain(b.full))
+	})
+}
+
+// checkBypass keeps the name "bypassed" only where the solver shows it: at
+// the middle of the band the gain comes within bypassAgreement of a
+// perfect bypass's. Else the plainer name, and a note that says why.
+func (x *figCtx) checkBypass(ck *graph.Part, b bypassSolve) {
+	if b.bypassed() {
+		return
+	}
+	x.st.Title = expandTitle(partlyBypassed, x.st.Family)
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("named partly bypassed: at %s the gain in circuit is %s, %s %% short of the %s a perfect bypass gives; %s is no bypass at the band",
+		hz(b.f), figure.Plain(b.a), figure.Plain(100*(1-b.a/b.full)), figure.Plain(b.full), ck.Ref))
 }

@@ -60,7 +60,12 @@ func calcRC(x *figCtx) {
 			return
 		}
 	}
-	x.set("f_c", figure.Hertz, fc, byCorner)
+	switch rs, cs := x.parts("r"), x.parts("c"); {
+	case len(rs) == 1 && len(cs) == 1 && (use == "coupling" || use == "section" || use == "" && x.spec.Prefix == ""):
+		x.rcCorner(rs[0], cs[0], fc, use == "coupling")
+	default:
+		x.set("f_c", figure.Hertz, fc, byCorner)
+	}
 	switch use {
 	case "agc":
 		x.checkAGC(tau)
@@ -228,7 +233,7 @@ func calcCoupling(x *figCtx) {
 	tau := r * c
 	x.set("r_in", figure.Ohm, r, byLoadR)
 	x.set("tau", figure.Second, tau, byTau)
-	x.set("f_c", figure.Hertz, 1/(2*math.Pi*tau), byCorner)
+	x.couplingCorner(p, x.w.pins[ci][1-down], x.w.pins[ci][down], r, c)
 }
 
 // downstream finds which side of a two-terminal part (ci) is farther from

@@ -216,7 +216,7 @@ C2 = { c = "365p", pins = ["t", "gnd"] }`, 0, 0, 0, "no resistance to feed: no c
 				if s == nil {
 					t.Fatalf("no coupling capacitor: %s", topologies(st))
 				}
-				fc, has := s.Figures.Lookup("f_c_hz")
+				fc, has := formulaOf(s.Figures, "f_c_hz")
 				if tc.fc == 0 {
 					if has {
 						t.Errorf("corner %g Hz with nothing resistive to feed", fc)

@@ -1,0 +1,218 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/figure"
+)
+
+// cornerSpan is how far above a formula's corner the solver looks for the
+// pass band's level (the most of |H| there), and below it for the −3 dB
+// point: three decades either way hold any corner a formula can miss by
+// loading (common practice, no source).
+const cornerSpan = 1000
+
+// highPassCorner is where V(out)/V(in) falls 3 dB below its pass band
+// level, the level the most of |H| between guess and guess·cornerSpan,
+// the −3 dB point searched down to guess/cornerSpan; in is driven by an
+// ideal 1 V source in the solver's circuit c. ok is false where the
+// solver fails or there is no such point.
+func highPassCorner(c *graph.Circuit, in, out string, guess float64) (float64, bool) {
+	r, err := ac.NewTransfer(c, in, out, gangMid.options())
+	if err != nil {
+		return 0, false
+	}
+	top, level := 0.0, 0.0
+	for i := 0; i <= 12; i++ {
+		f := guess * math.Pow(cornerSpan, float64(i)/12)
+		if m := magnitude(r, f); m > level {
+			top, level = f, m
+		}
+	}
+	if level == 0 {
+		return 0, false
+	}
+	return crossing(r, level/math.Sqrt2, top, guess/cornerSpan)
+}
+
+// couplingCorner writes a coupling capacitor's corner as the solver gives
+// it in circuit: the −3 dB point of V(down)/V(up) with everything beyond
+// the capacitor connected (the next device's input resistance, rπ, in
+// parallel with its bias resistors), the formula 1/(2πRC) on the
+// resistors to AC ground beside it.
+func (x *figCtx) couplingCorner(p *graph.Part, up, down int, r, c float64) {
+	fc := 1 / (2 * math.Pi * r * c)
+	check := figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: fc, Origin: byCorner}
+	upNet, downNet := x.netName(up), x.netName(down)
+	if !x.solve || upNet == "" || downNet == "" {
+		x.put(check)
+		return
+	}
+	f, ok := highPassCorner(x.solverCircuit(), upNet, downNet, fc)
+	if !ok {
+		x.put(check)
+		return
+	}
+	sv := &figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: f,
+		Origin: figure.BySolver("−3 dB of V("+downNet+")/V("+upNet+")", gangMid.at)}
+	x.putChecked(sv, &check, func() string {
+		load := 1 / (2 * math.Pi * f * c)
+		beyond := "what lies beyond draws current too"
+		if refs := x.devicesOn(down); len(refs) > 0 {
+			beyond = "the input of " + figure.AndList(refs) + " draws current too"
+		}
+		return fmt.Sprintf("in circuit %s works into about %s, not the %s of resistors to AC ground the formula takes: %s",
+			p.Ref, figure.Format(load, figure.Ohm, figure.Text), figure.Format(r, figure.Ohm, figure.Text), beyond)
+	})
+}
+
+// devicesOn lists the amplifying parts with a pin on a folded net.
+func (x *figCtx) devicesOn(net int) []string {
+	var out []string
+	for _, ci := range x.w.conns[net] {
+		switch p := x.w.parts[ci]; p.Kind {
+		case graph.Valve, graph.BJT, graph.FET:
+			out = append(out, p.Ref)
+		}
+	}
+	return out
+}
+
+// bypassAgreement is how close the gain with a common-electrode capacitor
+// must come to the gain with a perfect bypass, at the stage's band, for
+// the capacitor to be called a bypass: 5 % (common practice, no source:
+// half a decibel, less than a listener or a meter on the bench tells).
+const bypassAgreement = 0.05
+
+// fullBypassC is the factor a capacitor is made larger by to stand for a
+// perfect bypass in the solver.
+const fullBypassC = 1e6
+
+// bypassInCircuit solves a common-electrode capacitor's effect in circuit:
+// the stage's gain at the middle of its band as it is (a), with the
+// capacitor a perfect bypass (full) and with none (open), and the corner where the gain falls
+// 3 dB below full (ok false when it never does: the unbypassed gain is
+// within 3 dB). f is the band's middle; solved false when the solver
+// cannot say.
+type bypassSolve struct {
+	f, a, full, open, corner float64
+	hasCorner, solved  bool
+}
+
+func (x *figCtx) bypassInCircuit(p, ck *graph.Part) bypassSolve {
+	var b bypassSolve
+	in, out := x.gainNets("common")
+	band := x.w.c.BandOf(p)
+	c := x.solverCircuit()
+	if !x.solve || in == "" || out == "" || c.Net(in) == nil || c.Net(out) == nil || band.Min <= 0 || band.Max <= 0 || c.Part(ck.Ref) == nil {
+		return b
+	}
+	b.f = math.Sqrt(band.Min * band.Max)
+	big := *ck
+	big.Value.Min, big.Value.Max = ck.Value.Min*fullBypassC, ck.Value.Max*fullBypassC
+	r, err1 := ac.NewTransfer(c, in, out, gangMid.options())
+	rf, err2 := ac.NewTransfer(withPart(c, &big), in, out, gangMid.options())
+	if err1 != nil || err2 != nil {
+		return b
+	}
+	h, err1 := r.At(b.f)
+	hf, err2 := rf.At(b.f)
+	if err1 != nil || err2 != nil || cmplx.IsNaN(h) || cmplx.IsNaN(hf) || hf == 0 {
+		return b
+	}
+	b.a, b.full, b.solved = cmplx.Abs(h), cmplx.Abs(hf), true
+	small := *ck
+	small.Value.Min, small.Value.Max = ck.Value.Min/fullBypassC, ck.Value.Max/fullBypassC
+	if ro, err := ac.NewTransfer(withPart(c, &small), in, out, gangMid.options()); err == nil {
+		b.open = magnitude(ro, b.f)
+	}
+	b.corner, b.hasCorner = crossing(r, b.full/math.Sqrt2, b.f, b.f/cornerSpan/cornerSpan)
+	return b
+}
+
+// bypassed tells whether the solved capacitor is a bypass at the band: the
+// gain within bypassAgreement of a perfect bypass's.
+func (b bypassSolve) bypassed() bool {
+	return !b.solved || math.Abs(b.a-b.full) <= bypassAgreement*b.full
+}
+
+// partlyBypassed is the plainer name of a stage whose common-electrode
+// capacitor the solver shows is no bypass at the band.
+const partlyBypassed = "Common-{common} amplifier, {common} resistor partly bypassed ({family})"
+
+// lowPassCorner is where V(out)/V(in) falls 3 dB below its pass band
+// level, the most of |H| between guess/cornerSpan and guess, the −3 dB
+// point searched up to guess·cornerSpan.
+func lowPassCorner(c *graph.Circuit, in, out string, guess float64) (float64, bool) {
+	r, err := ac.NewTransfer(c, in, out, gangMid.options())
+	if err != nil {
+		return 0, false
+	}
+	top, level := 0.0, 0.0
+	for i := 0; i <= 12; i++ {
+		f := guess / math.Pow(cornerSpan, float64(i)/12)
+		if m := magnitude(r, f); m > level {
+			top, level = f, m
+		}
+	}
+	if level == 0 {
+		return 0, false
+	}
+	return crossing(r, level/math.Sqrt2, top, guess*cornerSpan)
+}
+
+// rcNets are the nets of a series-shunt RC pair: the series part's free
+// end (in) and the net the two share (out); the series part is the
+// capacitor for a high-pass (coupling), the resistor for a low-pass.
+// ok is false unless each is one two-terminal part sharing one net off
+// ground.
+func (x *figCtx) rcNets(series, shunt *graph.Part) (in, out int, ok bool) {
+	si, hi := x.partIndex(series), x.partIndex(shunt)
+	if si < 0 || hi < 0 || len(x.w.pins[si]) != 2 || len(x.w.pins[hi]) != 2 {
+		return 0, 0, false
+	}
+	for k, id := range x.w.pins[si] {
+		other := x.w.pins[si][1-k]
+		if id != groundNet && other != groundNet && (x.w.pins[hi][0] == id || x.w.pins[hi][1] == id) {
+			return other, id, true
+		}
+	}
+	return 0, 0, false
+}
+
+// rcCorner writes an RC section's corner as the solver gives it in
+// circuit, the section driven at its input by an ideal source and
+// loaded by whatever follows, with fc = 1/(2πRC) beside it. highPass: the
+// capacitor is in series (a coupling); else the resistor (a low-pass
+// section, a pi filter's second half, de-emphasis).
+func (x *figCtx) rcCorner(rp, cp *graph.Part, fc float64, highPass bool) {
+	check := figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: fc, Origin: byCorner}
+	series, shunt := rp, cp
+	if highPass {
+		series, shunt = cp, rp
+	}
+	in, out, ok := x.rcNets(series, shunt)
+	inNet, outNet := x.netName(in), x.netName(out)
+	if !x.solve || !ok || inNet == "" || outNet == "" {
+		x.put(check)
+		return
+	}
+	solve := lowPassCorner
+	if highPass {
+		solve = highPassCorner
+	}
+	f, ok := solve(x.solverCircuit(), inNet, outNet, fc)
+	if !ok {
+		x.put(check)
+		return
+	}
+	sv := &figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: f,
+		Origin: figure.BySolver("−3 dB of V("+outNet+")/V("+inNet+")", gangMid.at)}
+	x.putChecked(sv, &check, func() string {
+		return fmt.Sprintf("the formula takes %s and %s alone; in circuit what follows loads the section", rp.Ref, cp.Ref)
+	})
+}
