@@ -66,6 +66,10 @@ type figCtx struct {
 	// solve: solve the figures in circuit (a stage kept); a candidate has
 	// its formulas' alone (solveFigures).
 	solve bool
+	// tank is the last tank solved in circuit (solveTank) and whether it
+	// solved: a tuned amplifier's name is checked on its load's.
+	tank   tankPeaks
+	tankOK bool
 }
 
 // put records a figure on the stage under the pattern's prefix ("osc" makes

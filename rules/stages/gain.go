@@ -128,7 +128,9 @@ func calcGain(x *figCtx) {
 	if g, ok := x.get("gain"); ok && g.Value != 0 {
 		x.set("gain", figure.Decibel, 20*math.Log10(math.Abs(g.Value)), byDecibels)
 	}
-	if form != "follower" {
+	if form == "follower" {
+		x.checkFollower()
+	} else {
 		x.set("r_load", figure.Ohm, rl, byLoad)
 	}
 }
@@ -296,6 +298,7 @@ func calcTunedGain(x *figCtx) {
 	if d.kind == graph.Valve && gm == 0 && d.ra > 0 {
 		gm = d.mu / d.ra
 	}
+	x.checkTuned(x.tank, x.tankOK)
 	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: -gm * parallel(rd*n*n, rOut), Origin: byTunedGain}
 	sv, why := x.solveTunedGain(p, rd*n*n, rOut)
 	x.putChecked(sv, &check, why)

@@ -100,7 +100,7 @@ const fullBypassC = 1e6
 // cannot say.
 type bypassSolve struct {
 	f, a, full, open, corner float64
-	hasCorner, solved  bool
+	hasCorner, solved        bool
 }
 
 func (x *figCtx) bypassInCircuit(p, ck *graph.Part) bypassSolve {

@@ -91,6 +91,7 @@ func (x *figCtx) resonanceFigure(name, coil string, l float64, a, b int, formula
 		check.Value = lo
 	}
 	t, ok := x.solveTank(a, b, lo, hi)
+	x.tank, x.tankOK = t, ok
 	if !x.solve || !ok {
 		x.put(check)
 		return

@@ -1,6 +1,7 @@
 package stages
 
 import (
+	"fmt"
 	"math"
 
 	"pare/graph"
@@ -58,6 +59,7 @@ func calcDoubleTuned(x *figCtx) {
 	}
 	if q1 > 0 && q2 > 0 {
 		x.coupledPair(p.Ref, f1, k, q1, q2)
+		x.pairFigure(x.hotEnd(ci, c1), x.hotEnd(ci, c2), f1)
 	}
 	for _, f := range []float64{f1, f2} {
 		x.checkIF(p.Ref, f)
@@ -86,7 +88,7 @@ func (x *figCtx) coupledPair(ref string, f1, k, q1, q2 float64) {
 	x.set("q2", figure.Ratio, q2, byWindingQ)
 	x.set("kc", figure.Ratio, kc, byCritical)
 	if f1 > 0 {
-		x.set("bw", figure.Hertz, math.Sqrt2*f1/q, byBandwidth)
+		x.set("bw", figure.Hertz, math.Sqrt2*f1/q, byBandwidth) // the solver's replaces it (pairFigure)
 	}
 	if k <= 0 {
 		return
@@ -334,4 +336,32 @@ func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *tankModel {
 		}
 	}
 	return nil
+}
+
+// hotEnd is the circuit net of a winding's end off AC ground (its first
+// pin's when neither end is).
+func (x *figCtx) hotEnd(ci int, cl coil) string {
+	a, b := x.w.pinNet(ci, cl.pins[0]), x.w.pinNet(ci, cl.pins[len(cl.pins)-1])
+	if a == groundNet {
+		a = b
+	}
+	return x.netName(a)
+}
+
+// pairFigure puts the pair's bandwidth as the solver gives it in circuit
+// (pairBandwidth), with √2·f0/Q beside it: the formula holds at critical
+// coupling and for equal Q, so the words for a difference give k/kc.
+func (x *figCtx) pairFigure(prim, sec string, f0 float64) {
+	bw, ok := x.pairBandwidth(prim, sec, f0)
+	check, has := x.get("bw")
+	if !ok || !has {
+		return
+	}
+	sv := &figure.Figure{Name: "bw", Unit: figure.Hertz, Value: bw,
+		Origin: figure.BySolver("−3 dB band of V("+sec+") for 1 A into "+prim, gangMid.at)}
+	x.putChecked(sv, &check, func() string {
+		kr, _ := x.get("k_ratio")
+		return fmt.Sprintf("the formula holds at critical coupling with the windings' own Q; here k is %s·kc and the pair works into its loads in circuit",
+			figure.Plain(kr.Value))
+	})
 }

@@ -165,6 +165,9 @@ func calcSmoothing(x *figCtx) {
 	if s == nil || c2 <= 0 {
 		return
 	}
+	if x.solve {
+		x.checkSmoothing(x.st.nets["in"], x.st.nets["out"])
+	}
 	x.set("c_reservoir", figure.Farad, c1, byPartValue)
 	x.set("c_smoothing", figure.Farad, c2, byPartValue)
 	switch s.Kind {

@@ -1,0 +1,146 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/figure"
+)
+
+// Names checked against behaviour: a pattern's name claims a property (a
+// bypass, a tuned load, a follower, a smoothing filter); the claim stands
+// only where the solver (or, for smoothing, the circuit) shows it. Where
+// it fails the stage takes the plainer name and a note says why.
+
+// tunedMinQ is the least in-circuit Q of a load that makes an amplifier
+// "tuned": 2 (common practice, no source: below it the peak is a broad
+// hump, as an audio transformer with a top-cut capacitor gives, and no
+// one aligns it).
+const tunedMinQ = 2
+
+// followerMinGain is the least gain of a follower: 0.7, about 3 dB down
+// (common practice, no source: a cathode or emitter follower gives 0.8
+// to 0.99; a stage far below is loaded or is something else).
+const followerMinGain = 0.7
+
+// plainerTitles are the names a stage takes when its claim fails.
+var plainerTitles = map[string]string{
+	"tuned":    "Transformer-coupled amplifier, common {common} ({family})",
+	"follower": "Stage with its output at the {common} ({family})",
+	"smooth":   "Supply decoupling filter",
+}
+
+// checkTuned keeps "tuned" where the load's in-circuit peak has a Q worth
+// the name (tunedMinQ); t is the load tank as solved.
+func (x *figCtx) checkTuned(t tankPeaks, ok bool) {
+	if !x.solve {
+		return
+	}
+	q := math.NaN()
+	if ok && len(t.q) > 0 {
+		q = t.q[len(t.q)/2]
+	}
+	switch {
+	case !ok:
+		x.rename("tuned", "named transformer-coupled: the solver finds no peak in the load's impedance near its formula resonance")
+	case math.IsNaN(q) || q < tunedMinQ:
+		x.rename("tuned", fmt.Sprintf("named transformer-coupled: the load's peak in circuit has a Q of %s, below the %d a tuned stage has",
+			qText(q), tunedMinQ))
+	}
+}
+
+func qText(q float64) string {
+	if math.IsNaN(q) {
+		return "less than 0.5 (no −3 dB points either side)"
+	}
+	return figure.Plain(q)
+}
+
+// checkFollower keeps "follower" where the solver's gain is near 1.
+func (x *figCtx) checkFollower() {
+	g, ok := x.get("gain")
+	if !x.solve || !ok || g.Origin.Source != figure.Solver || g.Value >= followerMinGain {
+		return
+	}
+	x.rename("follower", fmt.Sprintf("not named a follower: its gain in circuit is %s, not near 1", figure.Plain(g.Value)))
+}
+
+// checkSmoothing keeps "smoothing" where a rectifier feeds the filter: a
+// diode or a valve diode on either of its nets. A battery set's
+// decoupling has none.
+func (x *figCtx) checkSmoothing(nets ...string) {
+	for _, name := range nets {
+		id, ok := x.w.netID[name]
+		if !ok || id == groundNet {
+			continue
+		}
+		for _, ci := range x.w.conns[id] {
+			if p := x.w.parts[ci]; p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p) {
+				return
+			}
+		}
+	}
+	x.rename("smooth", "named a decoupling filter: no rectifier feeds it, so it filters a supply, it does not smooth one")
+}
+
+// isValveDiode tells a rectifier valve from an amplifying one: it has no
+// control grid.
+func isValveDiode(p *graph.Part) bool {
+	for _, pin := range p.Pins {
+		if pin.Name == "g" || pin.Name == "g1" {
+			return false
+		}
+	}
+	return true
+}
+
+// rename gives the stage its plainer name and says why in its notes.
+func (x *figCtx) rename(claim, why string) {
+	x.st.Title = expandTitle(plainerTitles[claim], x.st.Family)
+	x.st.Notes = append(x.st.Notes, why)
+}
+
+// pairBandwidth is a coupled pair's −3 dB bandwidth as the solver gives it
+// in circuit: 1 A into the primary's hot end (as the anode or collector
+// feeds it), the secondary's hot end read, every device quiet and all the
+// pair's loads in; the band's outer edges, so an over-coupled pair's dip
+// between its humps does not cut it short. ok is false where the solver
+// cannot say.
+func (x *figCtx) pairBandwidth(prim, sec string, f0 float64) (float64, bool) {
+	if !x.solve || prim == "" || sec == "" || !(f0 > 0) {
+		return 0, false
+	}
+	r, err := ac.NewTransimpedance(quiet(x.solverCircuit()), prim, sec, gangMid.options())
+	if err != nil {
+		return 0, false
+	}
+	lo, hi := f0/1.5, f0*1.5
+	_, top, ok := peakOf(r, lo, hi)
+	if !ok {
+		return 0, false
+	}
+	level := top / math.Sqrt2
+	const n = 600
+	first, last := -1, -1
+	fs := make([]float64, n)
+	for i := range fs {
+		fs[i] = lo * math.Pow(hi/lo, float64(i)/(n-1))
+		if magnitude(r, fs[i]) >= level {
+			if first < 0 {
+				first = i
+			}
+			last = i
+		}
+	}
+	if first <= 0 || last < 0 || last >= n-1 {
+		return 0, false
+	}
+	f1, ok1 := crossing(r, level, fs[first], fs[first-1])
+	f2, ok2 := crossing(r, level, fs[last], fs[last+1])
+	if !ok1 || !ok2 {
+		return 0, false
+	}
+	return f2 - f1, true
+}
