@@ -161,6 +161,15 @@ func printStages(w io.Writer, res *pipeline.Result, unmatched []pipeline.Unmatch
 			for _, line := range wrap(figure.Line(s.Figures, figure.Text), 96-len(pad)) {
 				fmt.Fprintf(w, "%s%s\n", pad, line)
 			}
+			for _, c := range figure.Checks(s.Figures, figure.Text) {
+				for i, line := range wrapWords(c, 96-len(pad)-len(checkMark)) {
+					mark := checkMark
+					if i > 0 {
+						mark = strings.Repeat(" ", len(checkMark))
+					}
+					fmt.Fprintf(w, "%s%s%s\n", pad, mark, line)
+				}
+			}
 			if len(s.Contains) > 0 {
 				fmt.Fprintf(w, "%scontains: %s\n", pad, strings.Join(s.Contains, ", "))
 			}
@@ -184,6 +193,30 @@ func printStages(w io.Writer, res *pipeline.Result, unmatched []pipeline.Unmatch
 	}
 	fmt.Fprintf(w, "\n%s\n", caution)
 }
+
+// wrapWords breaks prose at spaces so no line runs past width.
+func wrapWords(s string, width int) []string {
+	var lines []string
+	cur := ""
+	for _, word := range strings.Fields(s) {
+		switch {
+		case cur == "":
+			cur = word
+		case len(cur)+1+len(word) > width:
+			lines = append(lines, cur)
+			cur = word
+		default:
+			cur += " " + word
+		}
+	}
+	if cur != "" {
+		lines = append(lines, cur)
+	}
+	return lines
+}
+
+// checkMark starts a figure's formula cross-check under the figures.
+const checkMark = "≈ "
 
 // wrap breaks a figure line after commas so no line runs past width.
 func wrap(s string, width int) []string {

@@ -101,23 +101,66 @@ func (f Figure) rangeText(m Medium) string {
 }
 
 // Item is the figure as a person reads it in a list: its label, then its
-// value ("osc f 1.004 MHz–2.063 MHz"); in text, a formula cross-check
-// follows in brackets, with why it differs where it does ("gain -58.3
-// (formula −µ·RL/(ra+RL) -61.6: …)"). A sheet shows the value alone.
+// value ("osc f 1.004 MHz–2.063 MHz"). A formula cross-check is read
+// apart (CheckLine), so the list of what to measure stays short.
 func (f Figure) Item(m Medium) string {
-	label := f.Label
-	if label == "" {
-		label = strings.ReplaceAll(f.Name, "_", " ")
+	return f.label() + " " + f.Text(m)
+}
+
+func (f Figure) label() string {
+	if f.Label != "" {
+		return f.Label
 	}
-	s := label + " " + f.Text(m)
-	if m == Text && f.Check != nil {
-		s += " (" + f.Check.Origin.String() + " " + f.Check.Text(m)
-		if f.Why != "" {
-			s += ": " + f.Why
-		}
-		s += ")"
+	return strings.ReplaceAll(f.Name, "_", " ")
+}
+
+// CheckLine is a figure's formula cross-check as a person reads it: the
+// figure, where the solver gave it, the formula's value and how far off,
+// and why where they part by more than CheckAgreement ("gain -58.3 in
+// circuit; formula A = −µ·RL/(ra+RL) gives -61.5, 5.5 % off: …"). Empty
+// for a figure without one.
+func (f Figure) CheckLine(m Medium) string {
+	c := f.Check
+	if c == nil {
+		return ""
+	}
+	s := f.Item(m) + " in circuit; formula " + c.Origin.Name + " gives " + c.Text(m)
+	if !f.CheckDiffers() {
+		return s + ", within " + Plain(100*CheckAgreement) + " %"
+	}
+	s += ", " + Plain(100*f.checkOff()) + " % off"
+	if f.Why != "" {
+		s += ": " + f.Why
 	}
 	return s
+}
+
+// checkOff is the largest relative difference of the cross-check from the
+// figure, over a range's two ends.
+func (f Figure) checkOff() float64 {
+	c := f.Check
+	off := func(a, b float64) float64 { return math.Abs(b-a) / math.Abs(a) }
+	switch {
+	case f.Range != nil && c.Range != nil:
+		return math.Max(off(f.Range.Min, c.Range.Min), off(f.Range.Max, c.Range.Max))
+	case f.Range == nil && c.Range == nil:
+		return off(f.Value, c.Value)
+	case f.Range != nil:
+		return math.Max(off(f.Range.Min, c.Value), off(f.Range.Max, c.Value))
+	}
+	return math.Max(off(f.Value, c.Range.Min), off(f.Value, c.Range.Max))
+}
+
+// Checks lists the cross-check lines of a stage's figures, in the list's
+// order, working values left out.
+func Checks(l List, m Medium) []string {
+	var out []string
+	for _, f := range l {
+		if line := f.CheckLine(m); line != "" && !f.Working {
+			out = append(out, line)
+		}
+	}
+	return out
 }
 
 // Items lists a stage's figures as a person reads them, in the list's

@@ -3,6 +3,7 @@ package stages
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -42,7 +43,7 @@ func calcDoubleTuned(x *figCtx) {
 	// coupling taken out, so the pair's split does not pass for a
 	// mistuning. The pair's response with its coupling is the bandwidth.
 	sub := x.sub
-	x.sub = withPart(x.solverCircuit(), uncoupled(p, c1.name, c2.name))
+	x.sub = withPart(x.solverCircuit(), x.w.uncoupled(ci, as[0], as[1]))
 	f1 := x.windingTank(ci, c1, x.parts("caps1"), "1")
 	f2 := x.windingTank(ci, c2, x.parts("caps2"), "2")
 	x.sub = sub
@@ -66,15 +67,34 @@ func calcDoubleTuned(x *figCtx) {
 	}
 }
 
-// uncoupled is a copy of transformer p with windings a and b not coupled;
-// with a empty, no winding coupled to another.
-func uncoupled(p *graph.Part, a, b string) *graph.Part {
+// uncoupled is a copy of transformer part ci with no winding of one coil
+// coupled to a winding of another (the halves of a tapped coil stay
+// coupled: they are one coil); with only set, only couplings between
+// those two coils (by index in w.coils[ci]) go.
+func (w *world) uncoupled(ci int, only ...int) *graph.Part {
+	p := w.parts[ci]
+	coilOf := func(winding string) int {
+		for _, wd := range p.Windings {
+			if wd.Name != winding {
+				continue
+			}
+			for i, cl := range w.coils[ci] {
+				if slices.Contains(cl.pins, wd.From) && slices.Contains(cl.pins, wd.To) {
+					return i
+				}
+			}
+		}
+		return -1
+	}
 	q := *p
 	q.Coupling = nil
 	for _, c := range p.Coupling {
-		if a != "" && !(c.A == a && c.B == b || c.A == b && c.B == a) {
-			q.Coupling = append(q.Coupling, c)
+		a, b := coilOf(c.A), coilOf(c.B)
+		apart := a != b && a >= 0 && b >= 0
+		if apart && (len(only) < 2 || slices.Contains(only, a) && slices.Contains(only, b)) {
+			continue
 		}
+		q.Coupling = append(q.Coupling, c)
 	}
 	return &q
 }
@@ -219,9 +239,9 @@ func (x *figCtx) intermediate() float64 {
 		formulaAt := func(float64) float64 { return resonance(ic.l, capBetween(x.w, caps, ic.a, ic.b, 1)) }
 		// the primary peaked as an aligner peaks it, the secondary's
 		// coupling out (calcDoubleTuned)
-		if p := x.part("ift"); p != nil && x.solve {
+		if p := x.part("ift"); p != nil && x.solve && x.partIndex(p) >= 0 {
 			sub := x.sub
-			x.sub = withPart(x.solverCircuit(), uncoupled(p, "", ""))
+			x.sub = withPart(x.solverCircuit(), x.w.uncoupled(x.partIndex(p)))
 			defer func() { x.sub = sub }()
 		}
 		x.resonanceFigure("ift_f", ic.ref, ic.l, ic.a, ic.b, formulaAt, byResonance, refsOf(caps))

@@ -130,6 +130,8 @@ func noteStages(found []stages.Stage) []Stage {
 			Name: s.Name, Title: s.Title, Topology: s.Topology, Family: s.Family,
 			Parts: s.Parts, Flags: s.Flags, Contains: s.Contains,
 			Figures: figure.Line(s.Figures, figure.Text), // the same line `pare stages` prints
+			Checks:  figure.Checks(s.Figures, figure.Text),
+			Notes:   s.Notes,
 		}
 	}
 	return out

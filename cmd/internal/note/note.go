@@ -63,6 +63,9 @@ type Stage struct {
 	Figures                       string // one line, as `pare stages` prints it
 	Flags                         []string
 	Contains                      []string
+	// Checks are the figures' formula cross-checks (figure.Checks), Notes
+	// the stage's own (a name the solver did not bear out, and why).
+	Checks, Notes []string
 }
 
 type Step struct {
@@ -270,6 +273,26 @@ func writeStages(b *bytes.Buffer, n *Note) {
 			codeList(s.Parts), orDash(mdCell(s.Figures)), orDash(strings.Join(flags, ", ")))
 	}
 	b.WriteString("\n")
+	writeChecks(b, n)
+}
+
+// writeChecks lists under the stage table how its figures were checked:
+// each is the solver's on the stage as it sits in the reduced circuit,
+// with the handbook formula beside it and why they part where they do,
+// and each name the solver did not bear out.
+func writeChecks(b *bytes.Buffer, n *Note) {
+	var lines []string
+	for _, s := range n.Stages {
+		for _, c := range append(append([]string(nil), s.Checks...), s.Notes...) {
+			lines = append(lines, fmt.Sprintf("- **%s** %s", mdText(s.Name), mdText(c)))
+		}
+	}
+	if len(lines) == 0 {
+		return
+	}
+	b.WriteString("The figures are the AC solver's, on each stage as it sits in the reduced circuit; the handbook formula is their cross-check:\n\n")
+	b.WriteString(strings.Join(lines, "\n"))
+	b.WriteString("\n\n")
 }
 
 func writeParts(b *bytes.Buffer, n *Note) {
