@@ -26,13 +26,9 @@ func (x *figCtx) gainWhy(p *graph.Part, form string, d device, rl float64, out s
 		return ""
 	}
 	if form != "follower" {
-		if z, ok := impedanceAt(c, out, f); ok {
-			// the quiet device keeps its output resistance across the load
-			y := 1 / z
-			if !math.IsInf(full.ROut, 1) && full.ROut > 0 {
-				y -= 1 / complex(full.ROut, 0)
-			}
-			if load := cmplx.Abs(1 / y); figure.Differs(load, rl) {
+		// the load as the output sees it: the circuit without the device
+		if z, ok := impedanceAt(without(c, p.Ref), out, f); ok {
+			if load := cmplx.Abs(z); figure.Differs(load, rl) {
 				why = append(why, fmt.Sprintf("the output works into %s in circuit, not the %s of resistors to AC ground the formula takes",
 					figure.Format(load, figure.Ohm, figure.Text), figure.Format(rl, figure.Ohm, figure.Text)))
 			}
@@ -225,4 +221,17 @@ func (x *figCtx) solveTunedGain(p *graph.Part, rdn2, rOut float64) (*figure.Figu
 			outputWord(p)+" output resistance")
 	}
 	return sv, why
+}
+
+// without is c less one part: what the rest of the circuit presents to
+// that part's terminals.
+func without(c *graph.Circuit, ref string) *graph.Circuit {
+	out := withPart(c, &graph.Part{})
+	out.Parts = nil
+	for _, p := range c.Parts {
+		if p.Ref != ref {
+			out.Parts = append(out.Parts, p)
+		}
+	}
+	return out
 }
