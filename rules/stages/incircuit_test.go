@@ -205,3 +205,59 @@ C2 = { c = "122.354p", pins = ["s", "gnd"] }`)
 		t.Errorf("an IF stage lost its tuned name: %v", s)
 	}
 }
+
+// inCircuitKinds are the figures the solver gives in circuit, by their
+// name without a pattern's prefix, and the unit that makes them so (a
+// gain in decibels follows its ratio).
+var inCircuitKinds = map[string]figure.Unit{
+	"f": figure.Hertz, "f1": figure.Hertz, "f2": figure.Hertz, "osc_f": figure.Hertz, "ift_f": figure.Hertz,
+	"sig_f": figure.Hertz, "image_f": figure.Hertz, "bw": figure.Hertz, "gain": figure.Ratio, "f_c": figure.Hertz,
+}
+
+// formulaOnly are the corners still from their formula alone, by the
+// stage's topology and the figure's name, each with why the small-signal
+// solver cannot give it: a known gap, kept short.
+var formulaOnly = map[[2]string]string{
+	{"smoothing-filter", "f_c"}:            "a supply filter sits between nets the small-signal model holds at AC ground",
+	{"agc-filter", "f_c"}:                  "an AGC line's time constant filters a DC level, not a signal",
+	{"diode-detector-cold-end", "f_c"}:     "a detector's load is charged in pulses the small-signal diode does not show",
+	{"diode-detector", "f_c"}:              "a detector's load is charged in pulses the small-signal diode does not show",
+	{"grid-leak-detector", "f_c"}:          "a grid-leak detector rectifies at the grid: the time constant of a DC level",
+	{"hartley-common-tap", "grid_f_c"}:     "an oscillator's grid-leak bias time constant, not a corner the signal passes",
+	{"self-oscillating-mixer", "grid_f_c"}: "an oscillator's grid-leak bias time constant, not a corner the signal passes",
+}
+
+// Every figure of the kinds the solver gives, on every example and
+// fixture a person reads, is the solver's in circuit with its formula
+// beside it: none is left to a formula where the solver could reach it.
+func TestSheetFiguresAreInCircuit(t *testing.T) {
+	seen := 0
+	for name, st := range allFixtureStages(t) {
+		if strings.HasPrefix(name, "figureCases") {
+			continue
+		}
+		for _, s := range st {
+			for _, f := range s.Figures {
+				bare := f.Name
+				if i := strings.Index(bare, "_"); i > 0 && f.Name != "osc_f" && f.Name != "ift_f" && f.Name != "sig_f" && f.Name != "image_f" {
+					if _, known := inCircuitKinds[bare[i+1:]]; known {
+						bare = bare[i+1:]
+					}
+				}
+				u, ok := inCircuitKinds[bare]
+				tracking := strings.HasPrefix(f.Name, "track_") || strings.HasPrefix(f.Name, "pad_")
+				_, gap := formulaOnly[[2]string{s.Topology, f.Name}]
+				if f.Working || !ok || u != f.Unit || tracking || gap {
+					continue
+				}
+				seen++
+				if f.Origin.Source != figure.Solver || f.Check == nil {
+					t.Errorf("%s %s %s: %s from %s, with no solver figure and its cross-check", name, s.Name, s.Topology, f.Name, f.Origin)
+				}
+			}
+		}
+	}
+	if seen < 30 {
+		t.Errorf("only %d in-circuit figures seen: the loop checked nothing", seen)
+	}
+}

@@ -207,6 +207,9 @@ func calcMixer(x *figCtx) {
 	sig := span("sig_f", smin, smax, bySignal)
 	img := span("image_f", smin+2*ifHz, smax+2*ifHz, byImage)
 	if f, ok := x.get("osc_f"); ok && f.Check != nil {
+		// the solver's oscillator range less the IF: the solver's figure
+		sig.Origin = figure.BySolver("osc f in circuit − IF", f.Origin.At)
+		img.Origin = figure.BySolver("osc f in circuit + IF", f.Origin.At)
 		sig.Check = span("sig_f", fmin-ifHz, fmax-ifHz, bySignal)
 		img.Check = span("image_f", fmin+ifHz, fmax+ifHz, byImage)
 		if f.Why != "" {

@@ -119,7 +119,18 @@ func calcColpitts(x *figCtx) {
 	x.set("c_eff", figure.Farad, ceff, byColpitts)
 	x.set("feedback", figure.Ratio, c1/c2, byFeedback)
 	x.set("gain_min", figure.Ratio, c2/c1, byColpittsA)
-	x.set("f", figure.Hertz, resonance(l, ceff), byResonance)
+	x.fixedResonance("f", coil, resonance(l, ceff), byResonance, x.parts("c1"), x.parts("c2"))
+}
+
+// fixedResonance is a tank's f from a formula on a fixed capacitance (the
+// Colpitts and Clapp series strings, a pi network's loop), put as the
+// solver's peak across the coil in circuit with the formula beside it.
+func (x *figCtx) fixedResonance(name string, coil coilEnds, f float64, o figure.Origin, caps ...[]*graph.Part) {
+	var refs []string
+	for _, cs := range caps {
+		refs = append(refs, refsOf(cs)...)
+	}
+	x.resonanceFigure(name, coil.ref, coil.l, coil.a, coil.b, func(float64) float64 { return f }, o, refs)
 }
 
 // calcClapp: 1/Ceff = 1/C1 + 1/C2 + 1/C3 (docs/references.md §3).
@@ -134,7 +145,7 @@ func calcClapp(x *figCtx) {
 	x.set("l", figure.Henry, l, byCoilL)
 	x.set("c_eff", figure.Farad, ceff, byClapp)
 	x.set("feedback", figure.Ratio, c1/c2, byFeedback)
-	x.set("f", figure.Hertz, resonance(l, ceff), byResonance)
+	x.fixedResonance("f", coil, resonance(l, ceff), byResonance, x.parts("c1"), x.parts("c2"), x.parts("c3"))
 }
 
 // calcCrystal: the crystal's marked (series) frequency.
@@ -154,7 +165,7 @@ func calcPi(x *figCtx) {
 	if !ok || c1 <= 0 || c2 <= 0 {
 		return
 	}
-	x.set("f", figure.Hertz, resonance(l, c1*c2/(c1+c2)), byPi)
+	x.fixedResonance("f", coil, resonance(l, c1*c2/(c1+c2)), byPi, x.parts("c1"), x.parts("c2"))
 	x.set("z_ratio", figure.Ratio, (c2/c1)*(c2/c1), byPiStep)
 }
 
