@@ -294,3 +294,18 @@ func quietPart(p *graph.Part) *graph.Part {
 	}
 	return &q
 }
+
+// solveFigures evaluates the stages kept once more, now with the AC solver
+// on each in circuit (figures.go, incircuit.go): a candidate's figures are
+// the formulas' alone, so the search over thousands of candidates costs no
+// solve, and only a stage a person will read is solved. A stage whose
+// guard the solver's figures fail keeps its formulas' figures: the guard
+// chose it on them.
+func solveFigures(w *world, level []*found) {
+	for _, f := range level {
+		if st := evaluate(w, f.m, true); st != nil {
+			f.Title, f.Figures, f.figRanks, f.Flags, f.Notes = st.Title, st.Figures, st.figRanks, st.Flags, st.Notes
+		}
+		solveFigures(w, f.subs)
+	}
+}
