@@ -21,7 +21,7 @@ func TestStagesFrequencyChanger(t *testing.T) {
 	for _, want := range []string{
 		"self-oscillating-mixer", "Self-oscillating mixer, Hartley oscillator with cathode tap (valve)",
 		"hartley-common-tap", "contains: S2.1, S2.2",
-		// the formulas' ranges (reference-values §1, §2), beside the solver's in circuit
+		// the formulas' ranges (docs/references.md §1, §2), beside the solver's in circuit
 		"1/(2π√(LC)) gives 1.004 MHz–2.063 MHz", "fosc − IF gives 534.1 kHz–1.593 MHz", "fsig + 2·IF gives 1.474 MHz–2.533 MHz",
 		"osc f ", "IF 470 kHz", "track err max -7.708 kHz at 1.6 MHz",
 		"lethal", "isolation transformer", "small-signal",

@@ -59,7 +59,7 @@ func cornerOfDeck(t *testing.T, deck, sweep string) float64 {
 // deck written by hand for the same circuit: the figure is the solver's
 // in circuit, and the formula stays beside it. Valves are the fixtures'
 // triode (µ 20, ra 10 kΩ: gm 2 mA/V) as a VCCS with ra; a transistor is
-// rπ = β/gm with gm = Ic/VT (reference-values §5; graph/device); a
+// rπ = β/gm with gm = Ic/VT (docs/references.md §5; graph/device); a
 // winding's Q is the series resistance ω0·L/Q at the middle of the band,
 // as graph/ac models it. Tolerances: 0.1 % on solved points, 0.5 % on
 // swept ones (the sweep's step).
