@@ -54,10 +54,12 @@ var (
 )
 
 // gangs are the settings a stage is solved at: the two ends of the travel
-// and the middle where the solver's circuit has a variable capacitor, the
-// middle alone otherwise.
+// and the middle where a variable capacitor sits within two steps of the
+// stage, the middle alone otherwise.
 func (x *figCtx) gangs() []gang {
-	for _, p := range x.solverCircuit().Parts {
+	// a gang section two steps from the stage moves it; one across the
+	// set (the other band's tank) does not
+	for _, p := range x.neighbourhood(2).Parts {
 		if p.Kind == graph.Capacitor && p.Value.IsSpan() && !(p.Type == graph.CapTrimmer && p.Set > 0) {
 			return gangTravel
 		}
@@ -87,11 +89,11 @@ func magnitude(r *ac.Response, f float64) float64 {
 
 // peakPoints is the number of points of each pass of a peak search, and
 // peakPasses the passes: each narrows the span to two cells of the last,
-// a twentieth, so four passes over a span of a factor of nine leave
-// cells of 7·10⁻⁶, and the parabola through the best three a good deal
+// a tenth, so four passes over a span of a factor of nine leave cells of
+// 10⁻⁴ in log f, and the parabola through the best three a good deal
 // less (enough to meet ngspice to 2·10⁻⁶).
 const (
-	peakPoints = 41
+	peakPoints = 21
 	peakPasses = 4
 )
 
@@ -153,7 +155,7 @@ func crossing(r *ac.Response, level, from, to float64) (float64, bool) {
 		return 0, false
 	}
 	a, b := math.Log(from), math.Log(to)
-	for i := 0; i < 50; i++ {
+	for i := 0; i < 36; i++ { // 2⁻³⁶ of the span: far below any figure's digits
 		m := (a + b) / 2
 		up, ok := above(math.Exp(m))
 		if !ok {

@@ -122,7 +122,7 @@ func (x *figCtx) pairBandwidth(prim, sec string, f0 float64) (float64, bool) {
 		return 0, false
 	}
 	level := top / math.Sqrt2
-	const n = 600
+	const n = 200
 	first, last := -1, -1
 	fs := make([]float64, n)
 	for i := range fs {

@@ -16,7 +16,8 @@ import (
 // where the other is at AC ground) with everything else in the circuit
 // connected, so
 // every capacitance across the tank counts and every load damps it; q is
-// the peak's f/(f2 − f1) from its −3 dB points (NaN where one is missing).
+// the peak's f/(f2 − f1) from its −3 dB points at mid travel (NaN where one
+// is missing, and at the ends of the travel).
 type tankPeaks struct {
 	net string
 	gs  []gang
@@ -60,7 +61,11 @@ func (x *figCtx) solveTank(a, b int, lo, hi float64) (tankPeaks, bool) {
 			return t, false
 		}
 		t.f = append(t.f, f)
-		t.q = append(t.q, qOfPeak(r, f, mag, lo/tankSearch/2, hi*tankSearch*2))
+		q := math.NaN()
+		if g == gangMid { // the tuned check reads the middle's alone
+			q = qOfPeak(r, f, mag, lo/tankSearch/2, hi*tankSearch*2)
+		}
+		t.q = append(t.q, q)
 	}
 	return t, true
 }
