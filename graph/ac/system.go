@@ -127,7 +127,31 @@ func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
 	if driven > 0 {
 		s.unk[driven] = unkDriven
 	}
-	prims, groups := nl.prims, nl.groups
+	prims, groups := s.numberUnknowns(driven, isHeld, sub)
+	b := &builder{s: s, ents: make([]entry, 0, 4*len(prims)+8*len(groups))}
+	b.stampPrims(prims)
+	b.stampGroups(groups)
+	if s.n == 0 {
+		s.stamps = b.rhs
+		return s
+	}
+	b.reorder()
+	b.compress()
+	identity := make([]int, s.n)
+	for i := range identity {
+		identity[i] = i
+	}
+	s.f = newLU(s.n, identity)
+	s.b = make([]complex128, s.n)
+	s.y = make([]complex128, s.n)
+	return s
+}
+
+// numberUnknowns gives every node of the piece that is neither ground, held
+// nor driven an unknown, in ascending node order, and returns the piece's
+// primitives and winding groups.
+func (s *system) numberUnknowns(driven int, isHeld []bool, sub *part) ([]prim, []group) {
+	nl := s.nl
 	number := func(i int) {
 		if i != driven && !isHeld[i] && s.unk[i] == unkGround {
 			s.unk[i] = s.n
@@ -135,68 +159,85 @@ func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
 			s.n++
 		}
 	}
-	if sub == nil {
-		used := make([]bool, len(nl.nodes))
-		for _, p := range prims {
-			used[p.a], used[p.b] = true, true
-			if p.kind == primVCCS {
-				used[p.c], used[p.d] = true, true
-			}
-		}
-		for _, g := range groups {
-			for _, w := range g.winds {
-				used[w.a], used[w.b] = true, true
-			}
-		}
-		for i := 1; i < len(nl.nodes); i++ {
-			if used[i] {
-				number(i)
-			}
-		}
-	} else {
+	if sub != nil {
 		for _, i := range sub.nodes {
 			if i > 0 {
 				number(i)
 			}
 		}
-		prims = make([]prim, len(sub.prims))
+		prims := make([]prim, len(sub.prims))
 		for k, i := range sub.prims {
 			prims[k] = nl.prims[i]
 		}
-		groups = make([]group, len(sub.groups))
+		groups := make([]group, len(sub.groups))
 		for k, i := range sub.groups {
 			groups[k] = nl.groups[i]
 		}
+		return prims, groups
 	}
-	// Coordinates of every entry, then compress.
-	type entry struct {
-		row, col, val, ord int32
-		sign               float64
-	}
-	ents := make([]entry, 0, 4*len(prims)+8*len(groups))
-	var rhs []stamp
-	add := func(row, col, val int, sign float64) {
-		if row < 0 {
-			return
-		}
-		switch {
-		case col >= 0:
-			ents = append(ents, entry{int32(row), int32(col), int32(val), int32(len(ents)), sign})
-		case col == unkDriven:
-			rhs = append(rhs, stamp{slot: -1, rhs: int32(row), val: int32(val), neg: sign < 0})
+	used := make([]bool, len(nl.nodes))
+	for _, p := range nl.prims {
+		used[p.a], used[p.b] = true, true
+		if p.kind == primVCCS {
+			used[p.c], used[p.d] = true, true
 		}
 	}
-	newCoef := func(k coef) int {
-		s.coefs = append(s.coefs, k)
-		return len(s.coefs) - 1
+	for _, g := range nl.groups {
+		for _, w := range g.winds {
+			used[w.a], used[w.b] = true, true
+		}
 	}
-	u := func(node int) int { return s.unk[node] }
-	quad := func(p, q, r, t, val int) {
-		add(u(p), u(r), val, 1)
-		add(u(p), u(t), val, -1)
-		add(u(q), u(r), val, -1)
-		add(u(q), u(t), val, 1)
+	for i := 1; i < len(nl.nodes); i++ {
+		if used[i] {
+			number(i)
+		}
 	}
+	return nl.prims, nl.groups
+}
+
+// entry is one coefficient's place in the matrix before compression; ord
+// is the stamp order, which breaks ties so that sums come out the same on
+// every run.
+type entry struct {
+	row, col, val, ord int32
+	sign               float64
+}
+
+// builder collects a system's entries and driven right-hand sides.
+type builder struct {
+	s    *system
+	ents []entry
+	rhs  []stamp
+}
+
+func (b *builder) add(row, col, val int, sign float64) {
+	if row < 0 {
+		return
+	}
+	switch {
+	case col >= 0:
+		b.ents = append(b.ents, entry{int32(row), int32(col), int32(val), int32(len(b.ents)), sign})
+	case col == unkDriven:
+		b.rhs = append(b.rhs, stamp{slot: -1, rhs: int32(row), val: int32(val), neg: sign < 0})
+	}
+}
+
+func (b *builder) newCoef(k coef) int {
+	b.s.coefs = append(b.s.coefs, k)
+	return len(b.s.coefs) - 1
+}
+
+// quad stamps a conductance-like value between the node pairs (p, q) and
+// (r, t): a branch when they are the same pair, a VCCS when not.
+func (b *builder) quad(p, q, r, t, val int) {
+	u := b.s.unk
+	b.add(u[p], u[r], val, 1)
+	b.add(u[p], u[t], val, -1)
+	b.add(u[q], u[r], val, -1)
+	b.add(u[q], u[t], val, 1)
+}
+
+func (b *builder) stampPrims(prims []prim) {
 	for _, p := range prims {
 		var k coef
 		switch p.kind {
@@ -209,12 +250,19 @@ func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
 		case primRLC:
 			k = coef{kind: valRLC, a: p.r, b: p.l, c: p.C}
 		case primVCCS:
-			quad(p.a, p.b, p.c, p.d, newCoef(coef{kind: valConst, a: p.v}))
+			b.quad(p.a, p.b, p.c, p.d, b.newCoef(coef{kind: valConst, a: p.v}))
 			continue
 		}
-		quad(p.a, p.b, p.a, p.b, newCoef(k))
+		b.quad(p.a, p.b, p.a, p.b, b.newCoef(k))
 	}
-	one := newCoef(coef{kind: valConst, a: 1})
+}
+
+// stampGroups adds a branch-current unknown per winding: coupled windings
+// need their currents, since a mutual inductance ties one winding's voltage
+// to another's current.
+func (b *builder) stampGroups(groups []group) {
+	s := b.s
+	one := b.newCoef(coef{kind: valConst, a: 1})
 	for _, g := range groups {
 		base := s.n
 		for _, w := range g.winds {
@@ -224,28 +272,28 @@ func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
 		for i, w := range g.winds {
 			br := base + i
 			// KCL: the branch current leaves node a into the winding, enters b.
-			add(u(w.a), br, one, 1)
-			add(u(w.b), br, one, -1)
+			b.add(s.unk[w.a], br, one, 1)
+			b.add(s.unk[w.b], br, one, -1)
 			// Branch: V(a) − V(b) − Σ Z_ij·I_j = 0.
-			add(br, u(w.a), one, 1)
-			add(br, u(w.b), one, -1)
-			add(br, br, newCoef(coef{kind: valZ, a: w.r, b: w.l}), -1)
+			b.add(br, s.unk[w.a], one, 1)
+			b.add(br, s.unk[w.b], one, -1)
+			b.add(br, br, b.newCoef(coef{kind: valZ, a: w.r, b: w.l}), -1)
 		}
 		for _, m := range g.muts {
-			z := newCoef(coef{kind: valZ, b: m.m})
-			add(base+m.i, base+m.j, z, -1)
-			add(base+m.j, base+m.i, z, -1)
+			z := b.newCoef(coef{kind: valZ, b: m.m})
+			b.add(base+m.i, base+m.j, z, -1)
+			b.add(base+m.j, base+m.i, z, -1)
 		}
 	}
-	if s.n == 0 {
-		s.stamps = rhs
-		return s
-	}
-	// Order the unknowns (reverse Cuthill–McKee on the symmetric pattern)
-	// and renumber them in that order, so that the factorisation walks the
-	// matrix's storage front to back instead of jumping about in it.
+}
+
+// reorder orders the unknowns (reverse Cuthill–McKee on the symmetric
+// pattern) and renumbers them in that order, so that the factorisation walks
+// the matrix's storage front to back instead of jumping about in it.
+func (b *builder) reorder() {
+	s := b.s
 	adj := make([][]int, s.n)
-	for _, e := range ents {
+	for _, e := range b.ents {
 		i, j := int(e.row), int(e.col)
 		if i != j {
 			adj[i] = append(adj[i], j)
@@ -260,11 +308,11 @@ func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
 	for k, old := range order {
 		perm[old] = int32(k)
 	}
-	for i := range ents {
-		ents[i].row, ents[i].col = perm[ents[i].row], perm[ents[i].col]
+	for i := range b.ents {
+		b.ents[i].row, b.ents[i].col = perm[b.ents[i].row], perm[b.ents[i].col]
 	}
-	for i := range rhs {
-		rhs[i].rhs = perm[rhs[i].rhs]
+	for i := range b.rhs {
+		b.rhs[i].rhs = perm[b.rhs[i].rhs]
 	}
 	for node, u := range s.unk {
 		if u >= 0 {
@@ -276,8 +324,13 @@ func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
 		what[perm[old]] = w
 	}
 	s.what = what
-	// Compress to CSC, merging duplicates into one slot. The stamp order
-	// breaks ties, so the sums are added in the same order on every run.
+}
+
+// compress stores the entries as CSC, merging duplicates into one slot. The
+// stamp order breaks ties, so the sums are added in the same order on every
+// run.
+func (b *builder) compress() {
+	s, ents := b.s, b.ents
 	slices.SortFunc(ents, func(x, y entry) int {
 		if x.col != y.col {
 			return cmp.Compare(x.col, y.col)
@@ -288,7 +341,7 @@ func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
 		return cmp.Compare(x.ord, y.ord)
 	})
 	s.a = csc{n: s.n, p: make([]int, s.n+1), i: make([]int, 0, len(ents))}
-	s.stamps = make([]stamp, 0, len(ents)+len(rhs))
+	s.stamps = make([]stamp, 0, len(ents)+len(b.rhs))
 	for i, e := range ents {
 		if i == 0 || e.row != ents[i-1].row || e.col != ents[i-1].col {
 			s.a.i = append(s.a.i, int(e.row))
@@ -300,15 +353,7 @@ func assemble(nl *netlist, driven int, isHeld []bool, sub *part) *system {
 		s.a.p[j+1] += s.a.p[j]
 	}
 	s.a.x = make([]complex128, len(s.a.i))
-	s.stamps = append(s.stamps, rhs...)
-	identity := make([]int, s.n)
-	for i := range identity {
-		identity[i] = i
-	}
-	s.f = newLU(s.n, identity)
-	s.b = make([]complex128, s.n)
-	s.y = make([]complex128, s.n)
-	return s
+	s.stamps = append(s.stamps, b.rhs...)
 }
 
 func dedupe(a []int) []int {
