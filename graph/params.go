@@ -2,6 +2,7 @@ package graph
 
 import (
 	"fmt"
+	"math"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -61,6 +62,33 @@ func (ld *loader) checkParams() {
 		}
 		ld.checkWindings(path, p)
 		ld.checkCoupling(path, p)
+		ld.checkValveTriple(path, p)
+	}
+}
+
+// ValveAgreement is how far gm·ra may stray from µ when a valve gives all
+// three (docs/devices.md): data-sheet figures are rounded, so exact
+// agreement is too much to ask, but a wider gap means one of them is wrong
+// and no model can honour all three.
+const ValveAgreement = 0.02
+
+// checkValveTriple refuses a valve whose gm, ra and µ are all given but
+// disagree, at the µ key: loaded, it used to pass check and fail only in
+// verification, with the exit code of a failed proof.
+func (ld *loader) checkValveTriple(path string, p *Part) {
+	g, hasG := p.Param("gm")
+	r, hasR := p.Param("ra")
+	mu, hasMu := p.Param("mu")
+	if !hasG || !hasR || !hasMu {
+		return
+	}
+	for _, k := range []string{"gm", "ra", "mu"} {
+		if ld.bad[path+"."+k] {
+			return // already reported as out of range
+		}
+	}
+	if math.Abs(g*r-mu) > ValveAgreement*mu {
+		ld.errVal(path+".mu", "gm·ra = %.4g but mu = %.4g: the three must agree within 2 %%; give any two of gm, ra, mu", g*r, mu)
 	}
 }
 

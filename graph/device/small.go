@@ -87,7 +87,7 @@ func valve(p *graph.Part) (Small, error) {
 	mu, hasMu := p.Param("mu")
 	switch {
 	case hasG && hasR && hasMu:
-		if math.Abs(g*r-mu) > 0.02*mu {
+		if math.Abs(g*r-mu) > graph.ValveAgreement*mu {
 			return s, fmt.Errorf("valve %s: gm·ra = %.4g but mu = %.4g: give any two of gm, ra, mu", p.Ref, g*r, mu)
 		}
 	case hasG && hasR:
