@@ -177,12 +177,15 @@ func (d *depthScanner) skipString(q byte) {
 // more terminals than MaxTerminalsPerNet, at the first entry past the limit.
 func (ld *loader) checkCounts() {
 	c := ld.c
+	// Count in source order, so that "the first entry past the limit" is
+	// the one a reader finds by scrolling down, not the one that happens
+	// to come first in the order of reference designators.
+	byPos := inSourceOrder(c.Parts, func(p *Part) (Pos, string) { return p.Pos, p.Ref })
 	if len(c.Parts) > MaxParts {
-		byPos := inSourceOrder(c.Parts, func(p *Part) (Pos, string) { return p.Pos, p.Ref })
 		ld.errs.Add(byPos[MaxParts].Pos, "more than %d parts: pare reads netlists of up to %d parts", MaxParts, MaxParts)
 	}
 	count := map[string]int{}
-	for _, p := range c.Parts {
+	for _, p := range byPos {
 		for _, pin := range p.Pins {
 			count[pin.Net]++
 			if count[pin.Net] == MaxTerminalsPerNet+1 {
