@@ -150,12 +150,14 @@ func (x *figCtx) index(name string) int {
 	return -1
 }
 
-// parts returns the circuit parts an argument names, skipping absent ones.
+// parts returns the circuit parts an argument names, skipping absent ones,
+// with the capacitors in parallel with a named capacitor (alongside).
 func (x *figCtx) parts(arg string) []*graph.Part {
 	var out []*graph.Part
 	for _, n := range x.spec.Args[arg] {
 		if i := x.index(n); i >= 0 {
 			out = append(out, x.w.parts[x.m.parts[i]])
+			out = append(out, alongside(x.w, x.m, i)...)
 		}
 	}
 	return out

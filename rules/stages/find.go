@@ -389,6 +389,9 @@ func evaluate(w *world, m *match, solve bool) *Stage {
 	for i, vp := range m.v.parts {
 		if !vp.pp.Shared {
 			st.Parts = append(st.Parts, w.parts[m.parts[i]].Ref)
+			for _, o := range alongside(w, m, i) {
+				st.Parts = append(st.Parts, o.Ref)
+			}
 		}
 	}
 	sort.Strings(st.Parts)
