@@ -28,6 +28,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 	isGround := func(n string) bool { return ground[n] || detected[n] || n == "nc" }
 	in := focusStage(x, seeds, ground, detected, isGround)
 	focusLeaves(x, in, detected, isGround)
+	focusWindingTuning(x, in, isGround)
 	crossing := crossingNets(x, in, isGround)
 	labels := map[string]string{}
 	for _, n := range crossing {
@@ -176,6 +177,46 @@ func focusLeaves(x *Ctx, in map[*graph.Part]bool, detected map[string]bool, isGr
 		for _, cn := range x.Conns(n.Name) {
 			if used && cn.Part.Kind == graph.Port {
 				in[cn.Part] = true
+			}
+		}
+	}
+}
+
+// focusWindingTuning keeps the capacitors across each winding of a kept
+// transformer: the walk does not follow one winding to the next, yet the
+// transformer is kept whole, and a winding without the capacitor that tunes
+// it (an IF can's secondary) resonates nowhere near where it does in the
+// set. Nets at AC ground count as one, so a capacitor from the hot end to
+// chassis tunes a winding whose cold end is on a decoupled line.
+func focusWindingTuning(x *Ctx, in map[*graph.Part]bool, isGround func(string) bool) {
+	key := func(n string) string {
+		if isGround(n) {
+			return "" // every AC-ground net is the same node here
+		}
+		return n
+	}
+	for _, t := range x.c.Parts {
+		if !in[t] || t.Kind != graph.Transformer {
+			continue
+		}
+		nets := map[string]map[string]bool{} // winding group → its nets
+		for _, pin := range t.Pins {
+			g := windingGroup(pin.Name)
+			if nets[g] == nil {
+				nets[g] = map[string]bool{}
+			}
+			nets[g][key(pin.Net)] = true
+		}
+		for _, pin := range t.Pins {
+			for _, cn := range x.Conns(pin.Net) {
+				q := cn.Part
+				if in[q] || q.Kind != graph.Capacitor || len(q.Pins) != 2 {
+					continue
+				}
+				a, b := key(q.Pins[0].Net), key(q.Pins[1].Net)
+				if w := nets[windingGroup(pin.Name)]; a != b && w[a] && w[b] {
+					in[q] = true
+				}
 			}
 		}
 	}

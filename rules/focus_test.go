@@ -164,3 +164,42 @@ func TestFocusProperties(t *testing.T) {
 		}
 	}
 }
+
+// A transformer kept by a focus keeps the capacitor that tunes each of its
+// windings, even on the winding the walk does not follow: focusing on an
+// oscillator coil keeps the IF transformer its valve feeds, and its
+// secondary must stay tuned (C5, to a decoupled AGC line) rather than
+// resonate with nothing. What lies beyond the secondary (R9) is still cut.
+func TestFocusKeepsWindingTuning(t *testing.T) {
+	const src = `
+band = "530k..1.6M"
+inputs = ["in"]
+outputs = ["if_out"]
+[nets]
+ht = { role = "supply", volts = 250 }
+agc = { role = "bias" }
+[parts]
+C1 = { c = "10p", pins = ["in", "g"] }
+R1 = { r = "47k", pins = ["g", "gnd"] }
+C2 = { c = "100p", pins = ["tank", "g"] }
+L1 = { l = "120u", tap = 0.1, pins = ["gnd", "k", "tank"], q = 80 }
+C3 = { c = "200p", pins = ["tank", "gnd"] }
+V1 = { valve = "triode", pins = { a = "a", g1 = "g", k = "k" }, mu = 20, ra = "10k" }
+C4 = { c = "100p", pins = ["a", "ht"] }
+T2 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "a", p2 = "ht", s1 = "if_out", s2 = "agc" } }
+C5 = { c = "100p", pins = ["if_out", "agc"] }
+R9 = { r = "1M", pins = ["if_out", "g2"] }
+V2 = { valve = "triode", pins = { a = "ht", g1 = "g2", k = "gnd" }, mu = 20, ra = "10k" }
+`
+	r, log := reduceChecked(t, parse(t, src), Options{Level: LevelSignal, Focus: []string{"L1"}})
+	for _, ref := range []string{"L1", "V1", "T2", "C4", "C5"} {
+		if r.Part(ref) == nil {
+			t.Errorf("%s cut, want it kept:\n%s", ref, logText(log))
+		}
+	}
+	for _, ref := range []string{"R9", "V2"} {
+		if r.Part(ref) != nil {
+			t.Errorf("%s kept, want it cut:\n%s", ref, logText(log))
+		}
+	}
+}
