@@ -49,6 +49,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 		Verify:      Verify{Skipped: m.VerifySkipped},
 		Caution:     Caution{Heading: r.Caution.Heading, Lines: r.Caution.Lines, Basis: r.Caution.Basis()},
 	}
+	n.PartNotes, n.RemovedNotes = partNotes(c, reduced)
 	if r.Verified {
 		n.Verify = VerifyOf(r.Report, r.CompareErr, r.Compare)
 		n.Verify.Rails = RailOutputs(r.Circuit)

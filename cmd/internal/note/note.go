@@ -33,6 +33,9 @@ type Note struct {
 	Merged        []Merge  // reduced part -> the originals it stands for
 	ACGround      []string
 	Gangs         []Gang
+	// The parts' own notes from the netlist: on the reduced sheet, and
+	// removed by the reduction.
+	PartNotes, RemovedNotes []PartNote
 
 	Stages      []Stage
 	StagesLimit string // set when the stage search stopped early, with why
@@ -174,6 +177,7 @@ func Write(w io.Writer, n *Note) error {
 	writeStages(&b, n)
 	writeDC(&b, n)
 	writeParts(&b, n)
+	writePartNotes(&b, n)
 	writeSteps(&b, n)
 	writeVerify(&b, n)
 	writeWarnings(&b, n)
