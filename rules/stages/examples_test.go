@@ -67,7 +67,7 @@ func TestFrequencyChangerExample(t *testing.T) {
 		}
 	}
 	// With the original gang, trimmer and padder the dial sweep stays
-	// within the design's few kHz (the file's header tracks at three points).
+	// within a few kHz (the file's header: exact near 621, 906 and 1486 kHz).
 	if e := math.Abs(fig(mix.Figures, "track_err_max_hz")); e == 0 || e > 10e3 {
 		t.Errorf("tracking error %g Hz: want a few kHz from the original parts", e)
 	}
