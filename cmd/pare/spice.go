@@ -46,7 +46,7 @@ It is a small-signal model: no bias, no supplies, nothing about DC or safety.`,
 			fs.StringVar(&o.out, "o", "-", "write the deck to this file (- for stdout)")
 			fs.BoolVar(&o.reduced, "reduced", false, "write the reduced circuit")
 			fs.StringVar(&o.level, "level", "signal", "reduction level for --reduced: tidy, signal or ideal")
-			fs.StringVar(&o.from, "from", "", "net driven by the AC source (default: the first input)")
+			fs.StringVar(&o.from, "from", "", "net driven by the AC source (default: the first input; with none declared, the control of the oscillator or of the first active part)")
 			fs.StringVar(&o.at, "at", "mid", "gang setting: min, mid, max or a fraction 0..1")
 			fs.IntVar(&o.ppd, "per-decade", 50, "sweep points per decade (at least 101 points in all; linear below an octave)")
 			fs.StringVar(&o.band, "band", "", "sweep span, e.g. 400k..2M (default: the circuit's full band)")

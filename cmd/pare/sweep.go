@@ -44,7 +44,7 @@ output.
 The numbers are those of pare's small-signal models (documented in the
 graph/ac package): no DC conditions, no overload.`,
 		bind: typed(func(fs *flag.FlagSet, o *sweepOpts) {
-			fs.StringVar(&o.from, "from", "", "driven net (default: the first input)")
+			fs.StringVar(&o.from, "from", "", "driven net (default: the first input; with none declared, the control of the oscillator or of the first active part)")
 			fs.StringVar(&o.to, "to", "", "observed net (default: the first output)")
 			fs.IntVar(&o.points, "points", 101, "number of log-spaced frequencies")
 			fs.BoolVar(&o.csv, "csv", false, "print comma-separated values")
@@ -113,6 +113,7 @@ func runSweep(e *env, o *sweepOpts, args []string) int {
 // sweep is what one sweep drives, observes and measures.
 type sweep struct {
 	from, to string
+	chosen   []string // what pare chose for a net the file does not declare, said before the table
 	freqs    []float64
 	h        []complex128
 }
@@ -122,17 +123,26 @@ type sweep struct {
 // message says what is missing.
 func sweepSpan(c *graph.Circuit, path string, o *sweepOpts) (*sweep, string) {
 	sw := &sweep{from: o.from, to: o.to}
-	if sw.from == "" {
-		if len(c.Inputs) == 0 {
-			return nil, path + " declares no inputs: give --from NET"
-		}
+	if sw.from == "" && len(c.Inputs) > 0 {
 		sw.from = c.Inputs[0]
+	} else if sw.from == "" {
+		// No input declared: drive the oscillator's or the first active
+		// part's control (graph.InferredInput), and say so.
+		net, p, why := graph.InferredInput(c)
+		if net == "" {
+			return nil, path + " declares no inputs and has no active part to drive: give --from NET"
+		}
+		sw.from = net
+		sw.chosen = append(sw.chosen, fmt.Sprintf("no input declared: driving %s, the control of %s (%s)", net, p.Ref, why))
 	}
-	if sw.to == "" && !o.impedance {
-		if len(c.Outputs) == 0 {
+	if sw.to == "" && !o.impedance && len(c.Outputs) > 0 {
+		sw.to = c.Outputs[0]
+	} else if sw.to == "" && !o.impedance {
+		sw.to = graph.FarthestNet(c, sw.from)
+		if sw.to == "" {
 			return nil, path + " declares no outputs: give --to NET"
 		}
-		sw.to = c.Outputs[0]
+		sw.chosen = append(sw.chosen, "no output declared: observing "+sw.to+", the signal net farthest from "+sw.from)
 	}
 	for _, end := range []struct{ flag, net string }{{"--from", sw.from}, {"--to", sw.to}} {
 		// Ground is the reference: the voltage there is zero by definition,
@@ -203,6 +213,9 @@ func sweepTable(b *bytes.Buffer, c *graph.Circuit, path string, sw *sweep, o *sw
 		}
 	}
 	fmt.Fprintf(b, "%s: %s, %s%s\n", path, what, circuit, gang)
+	for _, l := range sw.chosen {
+		fmt.Fprintln(b, l)
+	}
 	if o.impedance {
 		fmt.Fprintf(b, "%14s  %14s  %10s  %10s\n", "frequency", "|Z|", "dB re 1 Ω", "phase °")
 		for i, f := range sw.freqs {

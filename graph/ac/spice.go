@@ -16,7 +16,8 @@ import (
 type SpiceOptions struct {
 	Options
 	// Input is the net driven by the 1 V AC source; "" takes the circuit's
-	// first input.
+	// first input, or with none declared the control of its oscillator or
+	// first active part (graph.InferredInput).
 	Input string
 	// Outputs are the nets whose magnitude and phase wrdata records; nil takes
 	// the circuit's outputs (or the input alone when it declares none).
@@ -46,6 +47,9 @@ func WriteSpice(w io.Writer, c *graph.Circuit, o SpiceOptions) error {
 	}
 	sw := &spiceWriter{w: bufio.NewWriter(w), nodes: spiceNodes(d.nl.nodes), used: map[string]bool{}}
 	sw.header(c, d.nl)
+	if d.inferred != "" {
+		sw.line("* Driven at %s", oneLine(d.inferred))
+	}
 	for _, p := range d.nl.prims {
 		sw.prim(p)
 	}

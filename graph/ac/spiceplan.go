@@ -19,6 +19,7 @@ type spiceDeck struct {
 	band     value.Range
 	ppd      int
 	data     string
+	inferred string // why the driven net was chosen, when no input was declared
 }
 
 // planDeck elaborates the circuit and resolves the options. The checks run
@@ -52,11 +53,16 @@ func planDeck(c *graph.Circuit, o SpiceOptions) (*spiceDeck, error) {
 // input resolves the driven net ("" takes the circuit's first input) and
 // returns its name, which outputs falls back on.
 func (d *spiceDeck) input(c *graph.Circuit, in string) (string, error) {
-	if in == "" {
-		if len(c.Inputs) == 0 {
-			return "", fmt.Errorf("%s declares no inputs: name the net to drive", circuitName(c))
-		}
+	if in == "" && len(c.Inputs) > 0 {
 		in = c.Inputs[0]
+	} else if in == "" {
+		// No input declared: drive the oscillator's or the first active
+		// part's control (graph.InferredInput), and say so in the deck.
+		net, p, why := graph.InferredInput(c)
+		if net == "" {
+			return "", fmt.Errorf("%s declares no inputs and has no active part to drive: name the net to drive", circuitName(c))
+		}
+		in, d.inferred = net, fmt.Sprintf("%s (%s's control, %s: no input declared)", net, p.Ref, why)
 	}
 	n, err := nodeOf(c, d.nl, in)
 	if err != nil {
@@ -74,6 +80,11 @@ func (d *spiceDeck) input(c *graph.Circuit, in string) (string, error) {
 func (d *spiceDeck) outputs(c *graph.Circuit, in string, outs []string) error {
 	if outs == nil {
 		outs = c.Outputs
+	}
+	if len(outs) == 0 && d.inferred != "" {
+		if far := graph.FarthestNet(c, in); far != "" {
+			outs = []string{far} // the end of the chain from the inferred input
+		}
 	}
 	if len(outs) == 0 {
 		outs = []string{in}

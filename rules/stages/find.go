@@ -544,6 +544,14 @@ func signalOrder(c *graph.Circuit) order {
 			}
 		}
 	}
+	if len(starts) == 0 {
+		// No input named anywhere: the oscillator or the first active
+		// part's control (graph.InferredInput), never the order of the
+		// file, which put an output coupling capacitor first.
+		if n, _, _ := graph.InferredInput(c); n != "" {
+			starts = []string{graph.UpstreamOf(c, n)}
+		}
+	}
 	w := graph.NewWalk(c.View())
 	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }
 	w.FromNets(starts, 0)
