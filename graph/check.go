@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"regexp"
 	"sort"
+	"strconv"
 	"strings"
 
 	"pare/graph/value"
@@ -81,7 +82,11 @@ func Check(c *Circuit) ErrorList {
 			}
 		}
 		implausible := false
-		if lim, ok := plausible[p.Kind]; ok {
+		if msg := bareCapacitor(p); msg != "" {
+			w.Add(p.bareValue, "%s", msg)
+			implausible = true // one warning per part
+		}
+		if lim, ok := plausible[p.Kind]; ok && !implausible {
 			u := unitOf(p.Kind)
 			for _, v := range []float64{p.Value.Min, p.Value.Max} {
 				if v != 0 && (v < lim[0] || v > lim[1]) {
@@ -306,4 +311,19 @@ func checkEnvelopes(c *Circuit) ErrorList {
 // Summary is the one-line description `pare check` prints per file.
 func Summary(c *Circuit, warnings int) string {
 	return fmt.Sprintf("%d parts, %d nets, %d warnings", len(c.Parts), len(c.Nets), warnings)
+}
+
+// bareCapacitor words the warning for a capacitor written as a bare
+// fraction of a farad from a millifarad up (c = 0.05): old diagrams give
+// capacitors with no unit, and a fraction there is microfarads (common
+// practice), while pare reads a bare number in farads. A whole number
+// (pF on old diagrams, but not always) is left to the range check. "" when
+// there is nothing to say.
+func bareCapacitor(p *Part) string {
+	if v := p.Value.Max; p.Kind != Capacitor || !p.bareValue.IsValid() || v < 1e-3 || v >= 1 {
+		return ""
+	}
+	n := strconv.FormatFloat(p.Value.Max, 'g', -1, 64)
+	return fmt.Sprintf("%s = %s F: a capacitor written without a unit is read in farads (did you mean %s µF? write \"%su\")",
+		p.Ref, n, n, n)
 }

@@ -178,6 +178,9 @@ type Part struct {
 	// (sorted). Empty means the part stands for itself.
 	From []string `json:"from,omitempty"`
 	Pos  Pos      `json:"-"`
+	// bareValue is where a capacitor's value was written as a bare number,
+	// no unit and no prefix (c = 0.05): Check asks whether µF was meant.
+	bareValue Pos
 }
 
 // Part returns the part with the given ref, or nil.

@@ -160,6 +160,9 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 	case Capacitor:
 		before := len(ld.errs)
 		p.Value = ld.rng(kp, m[key], value.Farad)
+		if isBare(m[key]) {
+			p.bareValue = ld.ix.val(kp)
+		}
 		if len(ld.errs) == before && p.Value.Max <= 0 {
 			// No capacitor has 0 F; a missing multiplier or a slip of the pen.
 			ld.errVal(kp, "a capacitor must be above 0 F")
@@ -225,4 +228,19 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 	if typ != "" && p.Kind != Capacitor && p.Kind != Inductor {
 		ld.errKey(path+".type", "type applies to capacitors (%s) and inductors (%s) only", strings.Join(capTypes, ", "), strings.Join(indTypes, ", "))
 	}
+}
+
+// bareNumber is a value written as digits alone, no unit and no prefix.
+var bareNumber = regexp.MustCompile(`^\s*[0-9]*\.?[0-9]+([eE][-+]?[0-9]+)?\s*$`)
+
+// isBare tells whether a value was written as a bare number: a TOML number,
+// or a string of digits alone ("0.05").
+func isBare(v any) bool {
+	switch t := v.(type) {
+	case int64, float64:
+		return true
+	case string:
+		return bareNumber.MatchString(t)
+	}
+	return false
 }
