@@ -155,10 +155,14 @@ type Coupling struct {
 // farads, henries, or a crystal's series frequency; a variable or trimmer
 // capacitor has a span, everything else Min == Max.
 type Part struct {
-	Ref   string      `json:"ref"`
-	Kind  Kind        `json:"kind"`
-	Type  string      `json:"type,omitempty"` // sub-type: "trimmer", "triode", "npn", "njfet", ...
-	Value value.Range `json:"value"`
+	Ref  string `json:"ref"`
+	Kind Kind   `json:"kind"`
+	Type string `json:"type,omitempty"` // sub-type: "trimmer", "triode", "npn", "njfet", ...
+	// Designation is the type a valve, transistor or FET is marked with,
+	// free text as the user writes it (`type = "XV12"`): shown beside the
+	// ref on sheets, never interpreted.
+	Designation string      `json:"designation,omitempty"`
+	Value       value.Range `json:"value"`
 	// Set is a trimmer's setting (farads), a pot's wiper fraction (0..1) or a
 	// switch's selected position (1-based). 0 means unset.
 	Set      float64            `json:"set,omitempty"`

@@ -7,6 +7,7 @@ import (
 	"regexp"
 	"sort"
 	"strings"
+	"unicode/utf8"
 
 	"pare/graph/value"
 )
@@ -201,10 +202,13 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 	case Valve:
 		p.Type = ld.deviceType(kp, m[key], "valve", ValveTypes())
 		ld.valveParams(path, p, m)
+		p.Designation = ld.designation(path, typ)
 	case BJT:
 		p.Type = ld.deviceType(kp, m[key], "bjt", BJTTypes)
+		p.Designation = ld.designation(path, typ)
 	case FET:
 		p.Type = ld.deviceType(kp, m[key], "fet", FETTypes)
+		p.Designation = ld.designation(path, typ)
 	case Diode:
 		p.Type = ld.deviceType(kp, m[key], "diode", DiodeTypes)
 	case Crystal:
@@ -225,8 +229,8 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 	case Generic:
 		p.Label = ld.str(kp, m[key])
 	}
-	if typ != "" && p.Kind != Capacitor && p.Kind != Inductor {
-		ld.errKey(path+".type", "type applies to capacitors (%s) and inductors (%s) only", strings.Join(capTypes, ", "), strings.Join(indTypes, ", "))
+	if typ != "" && p.Kind != Capacitor && p.Kind != Inductor && p.Kind != Valve && p.Kind != BJT && p.Kind != FET {
+		ld.errKey(path+".type", "type applies to capacitors (%s), inductors (%s), and valves and transistors (the type they are marked with)", strings.Join(capTypes, ", "), strings.Join(indTypes, ", "))
 	}
 }
 
@@ -243,4 +247,19 @@ func isBare(v any) bool {
 		return bareNumber.MatchString(t)
 	}
 	return false
+}
+
+// designation reads the type a valve or transistor is marked with: free
+// text, one line of at most 24 characters, so that it fits beside the ref
+// on a sheet.
+func (ld *loader) designation(path, typ string) string {
+	t := strings.TrimSpace(typ)
+	switch {
+	case typ == "":
+		return ""
+	case t == "" || strings.ContainsAny(t, "\n\r\t") || utf8.RuneCountInString(t) > 24:
+		ld.errVal(path+".type", "type %q: give the type the part is marked with, one line of at most 24 characters", typ)
+		return ""
+	}
+	return t
 }

@@ -178,12 +178,11 @@ func kindKV(p *Part, add func(string)) {
 		if k := couplingKV(p); k != "" {
 			add("k = " + k)
 		}
-	case Valve:
-		add("valve = " + quote(p.Type))
-	case BJT:
-		add("bjt = " + quote(p.Type))
-	case FET:
-		add("fet = " + quote(p.Type))
+	case Valve, BJT, FET:
+		add(activeKeys[p.Kind] + " = " + quote(p.Type))
+		if p.Designation != "" {
+			add("type = " + quote(p.Designation)) // the type it is marked with
+		}
 	case Diode:
 		add("diode = " + quote(p.Type))
 	case Crystal:
@@ -546,3 +545,6 @@ func netKV(n *Net) []string {
 	}
 	return kv
 }
+
+// activeKeys is the kind key of each amplifying kind.
+var activeKeys = map[Kind]string{Valve: "valve", BJT: "bjt", FET: "fet"}

@@ -85,7 +85,13 @@ func labelLines(p *graph.Part, o Options) []string {
 			add(strings.Join(dedupe(ks), " "))
 		}
 	case graph.Valve, graph.BJT, graph.FET:
-		add(p.Type)
+		// The type it is marked with says more at the bench than the
+		// kind, which the symbol already shows.
+		if p.Designation != "" {
+			add(p.Designation)
+		} else {
+			add(p.Type)
+		}
 	case graph.Switch:
 		if p.Set > 0 {
 			add("pos " + formatG(p.Set))
