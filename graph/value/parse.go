@@ -227,6 +227,9 @@ func parse(t string, want Unit) (float64, string, error) {
 			scale = p
 			if tail := rest[size:]; tail != "" {
 				u, ok := lookupUnit(tail)
+				if !ok && foldsTo(r, tail, want) {
+					u, ok = want, true // "100pf", "47uh", "10khz": the case was lost, the meaning was not
+				}
 				if !ok {
 					return 0, fmt.Sprintf("unknown unit or prefix %q", rest), ErrSyntax
 				}
@@ -296,4 +299,12 @@ func oldMarkingHint(rest, num string) string {
 		letter = "p"
 	}
 	return fmt.Sprintf("old marking %q is not read (m means milli here); write %s%s", rest, num, letter)
+}
+
+// foldsTo tells whether a unit written in the wrong case after a prefix
+// can only mean the wanted unit: "pf" after 100 is picofarads, as nothing
+// else reads so. Only after p, n, u, µ and k, whose case never changes
+// their meaning; after m ("10 mhz") milli and mega cannot be told apart.
+func foldsTo(prefix rune, tail string, want Unit) bool {
+	return strings.ContainsRune("pnuµk", prefix) && want != None && strings.EqualFold(tail, want.Symbol())
 }

@@ -65,6 +65,9 @@ func TestParseSINotation(t *testing.T) {
 		{"4.7 kΩ", Ohm, 4.7e3},
 		{"4k7Ω", Ohm, 4.7e3},
 		{"100 pF", Farad, 100e-12},
+		{"100pf", Farad, 100e-12}, // SI prefix p = 1e-12, unit in the wrong case
+		{"47 uh", Henry, 47e-6},   // SI prefix u = 1e-6
+		{"10khz", Hertz, 10e3},    // SI prefix k = 1e3
 		{"100pF", Farad, 100e-12},
 		{"1.5MHz", Hertz, 1.5e6},
 		{"455 kHz", Hertz, 455e3},
@@ -125,6 +128,13 @@ func TestParseErrors(t *testing.T) {
 		{"4.7k3", Ohm, `value "4.7k3": use either a decimal point or a code letter, not both`, ErrSyntax},
 		{"4 k7", Ohm, `value "4 k7": unknown unit or prefix "k7"`, ErrSyntax},
 		{"10 mhz", Hertz, `value "10 mhz": unknown unit or prefix "mhz"`, ErrSyntax},
+		// A unit in the wrong case after a prefix whose case never matters
+		// (common practice on parts lists): read where it can mean one thing.
+		{"100pf", Farad, "", nil},
+		{"47 uh", Henry, "", nil},
+		{"10khz", Hertz, "", nil},
+		{"100pf", Henry, `value "100pf": unknown unit or prefix "pf"`, ErrSyntax},
+		{"10 mf", Farad, `value "10 mf": unknown unit or prefix "mf"`, ErrSyntax},
 		{"4k7x", Ohm, `value "4k7x": unknown unit "x"`, ErrSyntax},
 		{"0.01 mfd", Farad, `value "0.01 mfd": old marking "mfd" is not read (m means milli here); write 0.01u`, ErrSyntax},
 		{"1e999", Ohm, `value "1e999": out of range (magnitude must be 0 or 1e-24 to 1e24)`, ErrOutOfRange},
