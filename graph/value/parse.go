@@ -121,31 +121,75 @@ func thousandsLike(t string) bool {
 }
 
 // parse returns a message and kind instead of an error so that Parse alone
-// decides how errors look.
+// decides how errors look. It reads, in order, a sign, the digits with a
+// decimal point or an IEC 60062 code letter, an exponent, and a prefix and
+// unit; each step is its own function below.
 func parse(t string, want Unit) (float64, string, error) {
-	i := 0
-	neg := false
+	neg, i := readSign(t)
+	n := readDigits(t, i)
+	if n.intDigits == "" && n.fracDigits == "" {
+		return 0, "not a number", ErrSyntax
+	}
+	if msg, err := n.readExponent(t); err != nil {
+		return 0, msg, err
+	}
+	numText := t[:n.end]
+	rest := strings.TrimLeftFunc(t[n.end:], unicode.IsSpace)
+	var (
+		u   unitRead
+		msg string
+		err error
+	)
+	if n.code != 0 {
+		u, msg, err = codeUnit(n.code, rest, numText, want)
+	} else if rest != "" {
+		u, msg, err = prefixUnit(rest, numText, n.hadPoint, want)
+	}
+	if err != nil {
+		return 0, msg, err
+	}
+	if u.hasUnit && u.written != want {
+		return 0, fmt.Sprintf("unit %s does not fit %s value", u.written.Symbol(), want.withArticle()), ErrUnit
+	}
+	return n.value(u.scale, neg)
+}
+
+// readSign reads an optional leading sign and returns where the digits start.
+func readSign(t string) (neg bool, i int) {
 	switch {
 	case strings.HasPrefix(t, "+"):
-		i = 1
+		return false, 1
 	case strings.HasPrefix(t, "-"):
-		neg, i = true, 1
+		return true, 1
 	case strings.HasPrefix(t, "\u2212"): // typographic minus, as Tolerance.String writes
-		neg, i = true, len("\u2212")
+		return true, len("\u2212")
 	}
+	return false, 0
+}
 
+// digits is the number part of a value as written: the digits before and
+// after the decimal point or code letter, the code letter if any, the
+// exponent, and where the number ends in the text.
+type digits struct {
+	intDigits, fracDigits string
+	hadPoint              bool
+	code                  rune
+	exp, end              int
+}
+
+// readDigits reads the digits from i, with a decimal point or a code letter
+// standing for it.
+func readDigits(t string, i int) digits {
+	var n digits
 	intStart := i
 	i = skipDigits(t, i)
-	intDigits := t[intStart:i]
-	fracDigits := ""
-	hadPoint := false
-	var code rune
+	n.intDigits = t[intStart:i]
 	if i < len(t) && t[i] == '.' {
-		hadPoint = true
+		n.hadPoint = true
 		i++
 		start := i
 		i = skipDigits(t, i)
-		fracDigits = t[start:i]
+		n.fracDigits = t[start:i]
 	} else if i < len(t) {
 		// A letter counts as a code letter only with digits after it ("4k7",
 		// "R47"), or for R and L which mean nothing else ("100R"); "47k" and
@@ -153,105 +197,125 @@ func parse(t string, want Unit) (float64, string, error) {
 		r, size := utf8.DecodeRuneInString(t[i:])
 		if isCodeLetter(r) {
 			j := skipDigits(t, i+size)
-			if j > i+size || (intDigits != "" && (r == 'R' || r == 'L')) {
-				code = r
-				fracDigits = t[i+size : j]
+			if j > i+size || (n.intDigits != "" && (r == 'R' || r == 'L')) {
+				n.code = r
+				n.fracDigits = t[i+size : j]
 				i = j
 			}
 		}
 	}
-	if intDigits == "" && fracDigits == "" {
-		return 0, "not a number", ErrSyntax
-	}
-	exp := 0
-	if code == 0 && i < len(t) && (t[i] == 'e' || t[i] == 'E') {
-		j := i + 1
-		if j < len(t) && (t[j] == '+' || t[j] == '-') {
-			j++
-		}
-		if k := skipDigits(t, j); k > j {
-			e, ok := parseExp(t[i+1 : k])
-			if !ok {
-				return 0, outOfRangeMsg, ErrOutOfRange
-			}
-			exp, i = e, k
-		}
-	}
-	numText := t[:i]
-	rest := strings.TrimLeftFunc(t[i:], unicode.IsSpace)
+	n.end = i
+	return n
+}
 
-	scale := 0
-	var written Unit
-	hasUnit := false
-	if code != 0 {
-		var codeUnit Unit
-		switch code {
-		case 'R':
-			codeUnit = Ohm
-		case 'L':
-			codeUnit, scale = Ohm, -3
-		case 'V':
-			codeUnit = Volt
-		default:
-			codeUnit, scale = want, prefixExp[code]
-		}
-		if codeUnit != want {
-			return 0, fmt.Sprintf("unit %s (letter %c) does not fit %s value", codeUnit.Symbol(), code, want.withArticle()), ErrUnit
-		}
-		if rest != "" {
-			u, ok := lookupUnit(rest)
-			if !ok {
-				r, _ := utf8.DecodeRuneInString(rest)
-				if isCodeLetter(r) {
-					return 0, fmt.Sprintf("extra multiplier %q after %q: the code letter already scales the number", string(r), numText), ErrSyntax
-				}
-				return 0, fmt.Sprintf("unknown unit %q", rest), ErrSyntax
-			}
-			written, hasUnit = u, true
-		}
-	} else if rest != "" {
-		if r, size := utf8.DecodeRuneInString(rest); hadPoint && isCodeLetter(r) && size < len(rest) && isDigit(rest[size]) {
-			return 0, "use either a decimal point or a code letter, not both", ErrSyntax
-		}
-		if msg := oldMarkingHint(rest, numText); msg != "" {
-			return 0, msg, ErrSyntax
-		}
-		if u, ok := lookupUnit(rest); ok {
-			written, hasUnit = u, true
-		} else {
-			r, size := utf8.DecodeRuneInString(rest)
-			p, ok := prefixExp[r]
-			if !ok {
-				return 0, fmt.Sprintf("unknown unit or prefix %q", rest), ErrSyntax
-			}
-			scale = p
-			if tail := rest[size:]; tail != "" {
-				u, ok := lookupUnit(tail)
-				if !ok && foldsTo(r, tail, want) {
-					u, ok = want, true // "100pf", "47uh", "10khz": the case was lost, the meaning was not
-				}
-				if !ok {
-					return 0, fmt.Sprintf("unknown unit or prefix %q", rest), ErrSyntax
-				}
-				written, hasUnit = u, true
-			}
-		}
+// readExponent reads an "e" exponent after a number written without a code
+// letter; an "e" with no digits after it is left for the unit.
+func (n *digits) readExponent(t string) (string, error) {
+	i := n.end
+	if n.code != 0 || i >= len(t) || (t[i] != 'e' && t[i] != 'E') {
+		return "", nil
 	}
-	if hasUnit && written != want {
-		return 0, fmt.Sprintf("unit %s does not fit %s value", written.Symbol(), want.withArticle()), ErrUnit
+	j := i + 1
+	if j < len(t) && (t[j] == '+' || t[j] == '-') {
+		j++
 	}
+	if k := skipDigits(t, j); k > j {
+		e, ok := parseExp(t[i+1 : k])
+		if !ok {
+			return outOfRangeMsg, ErrOutOfRange
+		}
+		n.exp, n.end = e, k
+	}
+	return "", nil
+}
 
-	mant := intDigits
+// unitRead is what the text after the number says: a power of ten and, if
+// written, a unit.
+type unitRead struct {
+	scale   int
+	written Unit
+	hasUnit bool
+}
+
+// codeUnit reads the unit of a number written with a code letter: the
+// letter sets the scale (or the unit, for R, L and V), and only a unit may
+// follow it.
+func codeUnit(code rune, rest, numText string, want Unit) (unitRead, string, error) {
+	var u unitRead
+	var letterUnit Unit
+	switch code {
+	case 'R':
+		letterUnit = Ohm
+	case 'L':
+		letterUnit, u.scale = Ohm, -3
+	case 'V':
+		letterUnit = Volt
+	default:
+		letterUnit, u.scale = want, prefixExp[code]
+	}
+	if letterUnit != want {
+		return u, fmt.Sprintf("unit %s (letter %c) does not fit %s value", letterUnit.Symbol(), code, want.withArticle()), ErrUnit
+	}
+	if rest == "" {
+		return u, "", nil
+	}
+	w, ok := lookupUnit(rest)
+	if !ok {
+		r, _ := utf8.DecodeRuneInString(rest)
+		if isCodeLetter(r) {
+			return u, fmt.Sprintf("extra multiplier %q after %q: the code letter already scales the number", string(r), numText), ErrSyntax
+		}
+		return u, fmt.Sprintf("unknown unit %q", rest), ErrSyntax
+	}
+	u.written, u.hasUnit = w, true
+	return u, "", nil
+}
+
+// prefixUnit reads an SI prefix and unit after a plain number.
+func prefixUnit(rest, numText string, hadPoint bool, want Unit) (unitRead, string, error) {
+	var u unitRead
+	if r, size := utf8.DecodeRuneInString(rest); hadPoint && isCodeLetter(r) && size < len(rest) && isDigit(rest[size]) {
+		return u, "use either a decimal point or a code letter, not both", ErrSyntax
+	}
+	if msg := oldMarkingHint(rest, numText); msg != "" {
+		return u, msg, ErrSyntax
+	}
+	if w, ok := lookupUnit(rest); ok {
+		u.written, u.hasUnit = w, true
+		return u, "", nil
+	}
+	r, size := utf8.DecodeRuneInString(rest)
+	p, ok := prefixExp[r]
+	if !ok {
+		return u, fmt.Sprintf("unknown unit or prefix %q", rest), ErrSyntax
+	}
+	u.scale = p
+	if tail := rest[size:]; tail != "" {
+		w, ok := lookupUnit(tail)
+		if !ok && foldsTo(r, tail, want) {
+			w, ok = want, true // "100pf", "47uh", "10khz": the case was lost, the meaning was not
+		}
+		if !ok {
+			return u, fmt.Sprintf("unknown unit or prefix %q", rest), ErrSyntax
+		}
+		u.written, u.hasUnit = w, true
+	}
+	return u, "", nil
+}
+
+// value builds the number from its digits and powers of ten.
+func (n digits) value(scale int, neg bool) (float64, string, error) {
+	mant := n.intDigits
 	if mant == "" {
 		mant = "0"
 	}
-	if fracDigits != "" {
-		mant += "." + fracDigits
+	if n.fracDigits != "" {
+		mant += "." + n.fracDigits
 	}
 	// Building a decimal string and parsing it once rounds correctly, where
 	// 4.7*1e3 would give 4700.000000000001.
-	v, err := strconv.ParseFloat(mant+"e"+strconv.Itoa(exp+scale), 64)
-	nonZero := strings.Trim(intDigits+fracDigits, "0") != ""
+	v, err := strconv.ParseFloat(mant+"e"+strconv.Itoa(n.exp+scale), 64)
+	nonZero := strings.Trim(n.intDigits+n.fracDigits, "0") != ""
 	if err != nil || (nonZero && (v < MinMagnitude || v > MaxMagnitude)) {
 		return 0, outOfRangeMsg, ErrOutOfRange
 	}
