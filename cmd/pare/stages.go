@@ -170,6 +170,11 @@ func printStages(w io.Writer, res *pipeline.Result, unmatched []pipeline.Unmatch
 					fmt.Fprintf(w, "%s%s%s\n", pad, mark, line)
 				}
 			}
+			for _, l := range s.Loop {
+				for _, line := range wrap(stages.LoopLine(l), 96-len(pad)) {
+					fmt.Fprintf(w, "%s%s\n", pad, line)
+				}
+			}
 			if len(s.Contains) > 0 {
 				fmt.Fprintf(w, "%scontains: %s\n", pad, strings.Join(s.Contains, ", "))
 			}

@@ -27,6 +27,9 @@ type Stage struct {
 	// Notes state the assumptions behind figures ("capacitance linear in
 	// rotation"), so a note that quotes a figure can quote its basis too.
 	Notes []string `json:"notes,omitempty"`
+	// Loop is the loop gain of an oscillator's or mixer's device across the
+	// dial (loop.go), solved on the original circuit with every load.
+	Loop []Loop `json:"loop,omitempty"`
 
 	group    string
 	nets     map[string]string // pattern net → circuit net
@@ -117,6 +120,11 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		markSupply(top)
 		out = appendTree(out, top)
 	}
+	loopCircuit := o.Full
+	if loopCircuit == nil {
+		loopCircuit = reduced
+	}
+	addLoops(loopCircuit, out)
 	return out, errors.Join(errSig, errPow)
 }
 

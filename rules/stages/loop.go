@@ -1,0 +1,293 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/ac"
+)
+
+// Oscillator loops. A pattern names an oscillator's topology; whether it
+// starts, where it runs and how hard it is driven are in its loop gain,
+// which the AC solver gives in circuit, with every load (ac.FindLoop: the
+// return ratio of the device's controlled source). Each oscillator and
+// mixer stage carries its loop at several settings of the gang, and flags
+// a repairer acts on.
+
+// LoopSetting is an oscillator's loop at one gang setting.
+type LoopSetting struct {
+	Gang     float64 `json:"gang"`      // 0: gang at minimum (top of the dial), 1: at maximum
+	F        float64 `json:"f_hz"`      // where the loop phase is 0°; 0: nowhere
+	MarginDB float64 `json:"margin_db"` // loop gain there, dB: the start-up margin
+}
+
+// Loop is the loop gain of one device of a stage across the dial.
+type Loop struct {
+	Device   string        `json:"device"`
+	Settings []LoopSetting `json:"settings"`
+	// GrowthPerS is the linear circuit's growth rate σ at the setting with
+	// the largest margin (1/s; the natural frequency's real part).
+	GrowthPerS float64 `json:"growth_per_s,omitempty"`
+}
+
+// Range gives the lowest and highest oscillation frequency and margin over
+// the settings where the loop has a 0° crossing.
+func (l Loop) Range() (fMin, fMax, mMin, mMax float64, ok bool) {
+	for _, s := range l.Settings {
+		if s.F == 0 {
+			continue
+		}
+		if !ok {
+			fMin, fMax, mMin, mMax, ok = s.F, s.F, s.MarginDB, s.MarginDB, true
+			continue
+		}
+		fMin, fMax = math.Min(fMin, s.F), math.Max(fMax, s.F)
+		mMin, mMax = math.Min(mMin, s.MarginDB), math.Max(mMax, s.MarginDB)
+	}
+	return
+}
+
+// gangSettings are the dial positions a loop is solved at: both ends, the
+// middle and the quarters when the circuit has a variable capacitor.
+func gangSettings(c *graph.Circuit) []float64 {
+	for _, p := range c.Parts {
+		if p.Kind == graph.Capacitor && p.Type != graph.CapTrimmer && p.Value.IsSpan() {
+			return []float64{0, 0.25, 0.5, 0.75, 1}
+		}
+	}
+	return []float64{0.5}
+}
+
+// loopOf solves part ref's loop at every gang setting of c.
+func loopOf(c *graph.Circuit, ref string) (Loop, error) {
+	l := Loop{Device: ref}
+	best, bestAt := math.Inf(-1), -1
+	for _, g := range gangSettings(c) {
+		r, err := ac.FindLoop(c, ref, ac.LoopOptions{Options: ac.Options{VarFrac: g, VarSet: true}})
+		if err != nil {
+			return l, err
+		}
+		l.Settings = append(l.Settings, LoopSetting{Gang: g, F: r.F, MarginDB: r.MarginDB})
+		if r.F > 0 && r.MarginDB > best {
+			best, bestAt = r.MarginDB, len(l.Settings)-1
+		}
+	}
+	if bestAt >= 0 {
+		s := l.Settings[bestAt]
+		if p, err := ac.Pole(c, ref, s.F, ac.Options{VarFrac: s.Gang, VarSet: true}); err == nil {
+			l.GrowthPerS = real(p)
+		}
+	}
+	return l, nil
+}
+
+// dialPlace words a gang setting for a repairer.
+func dialPlace(g float64, settings int) string {
+	switch {
+	case settings == 1:
+		return ""
+	case g == 1:
+		return " at the low end of the dial"
+	case g == 0:
+		return " at the high end of the dial"
+	}
+	return fmt.Sprintf(" at %.0f %% of the gang's travel", 100*g)
+}
+
+// Thresholds of the loop flags: common practice, not standards.
+const (
+	// pullFlag: a loaded tank more than 2 % off its own resonance.
+	pullFlag = 0.02
+	// squeggMarginDB and squeggTau: a margin of 10 dB or more while the
+	// grid (base) bias network's time constant RC is more than ten times
+	// the oscillation's build-up time 1/σ: the bias cannot follow the
+	// amplitude, which then grows, blocks and restarts in bursts.
+	squeggMarginDB = 10.0
+	squeggTau      = 10.0
+)
+
+// loopFlags are the sentences for an oscillator's loop: not starting, the
+// squegging risk, and a frequency pulled away from the tank's own.
+func loopFlags(c *graph.Circuit, st *Stage, l Loop) []string {
+	var out []string
+	n := len(l.Settings)
+	_, _, mMin, mMax, ok := l.Range()
+	if !ok || mMax < 0 {
+		best := ""
+		if ok {
+			best = fmt.Sprintf(": loop gain %+.1f dB at best", mMax)
+		}
+		return append(out, fmt.Sprintf("does not oscillate as drawn%s (%s)", best, l.Device))
+	}
+	if mMin < 0 {
+		for _, s := range l.Settings {
+			if s.F > 0 && s.MarginDB < 0 {
+				out = append(out, fmt.Sprintf("will not start: loop gain %+.1f dB%s (%s, %s)", s.MarginDB, dialPlace(s.Gang, n), l.Device, hzText(s.F)))
+			}
+		}
+	}
+	for _, s := range l.Settings {
+		if s.F == 0 && n > 1 {
+			out = append(out, fmt.Sprintf("will not start: no 0° loop phase%s (%s)", dialPlace(s.Gang, n), l.Device))
+		}
+	}
+	if tau := biasTau(c, l.Device); mMax >= squeggMarginDB && l.GrowthPerS > 0 && tau*l.GrowthPerS > squeggTau {
+		out = append(out, fmt.Sprintf("large margin (%+.1f dB) with a long grid time constant (%s, %.0f× the build-up time): may squegg", mMax, secText(tau), tau*l.GrowthPerS))
+	}
+	out = append(out, pullFlags(st, l)...)
+	return out
+}
+
+// pullFlags compares the loop's frequency at the ends of the dial with the
+// tank's own resonance (the stage's f figures): the difference is what the
+// device and its loads pull it by.
+func pullFlags(st *Stage, l Loop) []string {
+	tank := func(keys ...string) float64 {
+		for _, k := range keys {
+			if v, ok := st.Figures[k]; ok && v > 0 {
+				return v
+			}
+		}
+		return 0
+	}
+	var out []string
+	for _, s := range l.Settings {
+		var f0 float64
+		switch {
+		case len(l.Settings) == 1:
+			f0 = tank("f_hz", "osc_f_hz")
+		case s.Gang == 0:
+			f0 = tank("f_max_hz", "osc_f_max_hz")
+		case s.Gang == 1:
+			f0 = tank("f_min_hz", "osc_f_min_hz")
+		default:
+			continue
+		}
+		if f0 == 0 || s.F == 0 {
+			continue
+		}
+		if d := s.F/f0 - 1; math.Abs(d) > pullFlag {
+			out = append(out, fmt.Sprintf("frequency pulled %+.1f %% by loading%s (tank alone %s, in circuit %s)", 100*d, dialPlace(s.Gang, len(l.Settings)), hzText(f0), hzText(s.F)))
+		}
+	}
+	return out
+}
+
+// biasTau is the time constant of a device's grid-leak (base) bias: the
+// resistor from its control net to AC ground times the capacitor in series
+// into that net; 0 when there is none.
+func biasTau(c *graph.Circuit, ref string) float64 {
+	p := c.Part(ref)
+	if p == nil {
+		return 0
+	}
+	g := p.NetOf(p.PinWithRole(graph.RoleControl))
+	var r, cap float64
+	for _, q := range c.Parts {
+		if len(q.Pins) != 2 || (q.Pins[0].Net != g && q.Pins[1].Net != g) {
+			continue
+		}
+		other := q.Pins[0].Net
+		if other == g {
+			other = q.Pins[1].Net
+		}
+		ground := c.RoleOf(other).IsACGround()
+		switch {
+		case q.Kind == graph.Resistor && ground:
+			r = math.Max(r, q.Value.Max)
+		case q.Kind == graph.Capacitor && !ground:
+			cap = math.Max(cap, q.Capacitance(0.5))
+		}
+	}
+	return r * cap
+}
+
+// addLoops gives every oscillator and mixer stage the loop of its device
+// (the innermost stage holding it: a Hartley inside a mixer carries it, the
+// mixer does not repeat it), with its flags.
+// A loop that cannot be solved (a net the model leaves floating) is said in
+// a flag; the stage stays.
+func addLoops(c *graph.Circuit, out []Stage) {
+	done := map[string]bool{}
+	for i := len(out) - 1; i >= 0; i-- { // sub-stages follow their parent
+		st := &out[i]
+		if st.group != "oscillator" && st.group != "mixer" {
+			continue
+		}
+		for _, ref := range st.Parts {
+			p := c.Part(ref)
+			if p == nil || !p.IsActive() || done[ref] {
+				continue
+			}
+			done[ref] = true
+			l, err := loopOf(c, ref)
+			if err != nil {
+				st.Flags = append(st.Flags, fmt.Sprintf("loop gain of %s not computed: %v", ref, err))
+				continue
+			}
+			st.Loop = append(st.Loop, l)
+			st.Flags = append(st.Flags, loopFlags(c, st, l)...)
+		}
+		slices.Sort(st.Flags)
+	}
+}
+
+// LoopLine is a loop in words for the stage list: "V1: 1.004–2.063 MHz,
+// margin +12.1 to +15.3 dB across the dial".
+func LoopLine(l Loop) string {
+	fMin, fMax, mMin, mMax, ok := l.Range()
+	if !ok {
+		return fmt.Sprintf("loop %s: no 0° loop phase from 10 Hz to 1 GHz", l.Device)
+	}
+	var b strings.Builder
+	fmt.Fprintf(&b, "loop %s: ", l.Device)
+	if fMax/fMin-1 < 1e-4 {
+		b.WriteString(hzText(fMin))
+	} else {
+		fmt.Fprintf(&b, "%s–%s", hzText(fMin), hzText(fMax))
+	}
+	if mMax-mMin < 0.05 {
+		fmt.Fprintf(&b, ", margin %+.1f dB", mMin)
+	} else {
+		fmt.Fprintf(&b, ", margin %+.1f to %+.1f dB", mMin, mMax)
+	}
+	if len(l.Settings) > 1 {
+		b.WriteString(" across the dial (")
+		for i, s := range l.Settings {
+			if i > 0 {
+				b.WriteString("; ")
+			}
+			if s.F == 0 {
+				fmt.Fprintf(&b, "%.0f %%: none", 100*s.Gang)
+				continue
+			}
+			fmt.Fprintf(&b, "%.0f %%: %s %+.1f dB", 100*s.Gang, hzText(s.F), s.MarginDB)
+		}
+		b.WriteString(")")
+	}
+	return b.String()
+}
+
+// hzText prints a frequency with four significant digits and its prefix.
+func hzText(f float64) string {
+	switch {
+	case f >= 1e6:
+		return fmt.Sprintf("%.4g MHz", f/1e6)
+	case f >= 1e3:
+		return fmt.Sprintf("%.4g kHz", f/1e3)
+	}
+	return fmt.Sprintf("%.4g Hz", f)
+}
+
+func secText(t float64) string {
+	switch {
+	case t >= 1:
+		return fmt.Sprintf("%.3g s", t)
+	case t >= 1e-3:
+		return fmt.Sprintf("%.3g ms", t*1e3)
+	}
+	return fmt.Sprintf("%.3g µs", t*1e6)
+}

@@ -1,0 +1,64 @@
+package stages
+
+import (
+	"strings"
+	"testing"
+
+	"pare/graph"
+)
+
+func loadOsc(t *testing.T, name string) *graph.Circuit {
+	t.Helper()
+	c, err := graph.LoadFile("../../testdata/osc/" + name)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c
+}
+
+// Each oscillator stage carries its loop across the dial and the flags a
+// repairer needs. The margins are pare's return-ratio loop gains, which
+// graph/ac checks against ngspice transients on the same fixtures; here the
+// check is that the stage reports them and words the right flag.
+func TestOscillatorLoopFlags(t *testing.T) {
+	cases := []struct {
+		file, topology string
+		settings       int
+		flag           string // a flag that must be there ("" none of the loop flags)
+	}{
+		// A tickler's feedback rises with frequency (M·ω against a
+		// tank of falling dynamic resistance): too loose a coupling
+		// fails first at the low end of the dial (common practice).
+		{"tickler-valve-weak.toml", "tuned-grid-tickler", 5, "will not start: loop gain -1.3 dB at the low end of the dial"},
+		{"tickler-valve.toml", "tuned-grid-tickler", 5, "may squegg"},
+		{"edge-below-colpitts-bjt.toml", "colpitts-common-tap", 1, "does not oscillate as drawn: loop gain -0.5 dB at best"},
+		{"edge-above-colpitts-bjt.toml", "colpitts-common-tap", 1, ""},
+		{"hartley-valve.toml", "hartley-common-tap", 1, ""},
+	}
+	for _, tc := range cases {
+		t.Run(tc.file, func(t *testing.T) {
+			c := loadOsc(t, tc.file)
+			st := stageOf(find(t, c, Options{}), tc.topology)
+			if st == nil || len(st.Loop) != 1 {
+				t.Fatalf("no %s stage with one loop", tc.topology)
+			}
+			if n := len(st.Loop[0].Settings); n != tc.settings {
+				t.Errorf("%d gang settings, want %d", n, tc.settings)
+			}
+			flags := strings.Join(st.Flags, "\n")
+			if tc.flag != "" && !strings.Contains(flags, tc.flag) {
+				t.Errorf("flags %q lack %q", st.Flags, tc.flag)
+			}
+			if tc.flag == "" {
+				for _, w := range []string{"will not start", "does not oscillate", "squegg"} {
+					if strings.Contains(flags, w) {
+						t.Errorf("unexpected flag %q", flags)
+					}
+				}
+			}
+			if line := LoopLine(st.Loop[0]); !strings.HasPrefix(line, "loop ") {
+				t.Errorf("loop line %q", line)
+			}
+		})
+	}
+}
