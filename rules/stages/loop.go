@@ -8,6 +8,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/figure"
 )
 
 // Oscillator loops. A pattern names an oscillator's topology; whether it
@@ -147,7 +148,7 @@ func loopFlags(c *graph.Circuit, st *Stage, l Loop) []string {
 func pullFlags(st *Stage, l Loop) []string {
 	tank := func(keys ...string) float64 {
 		for _, k := range keys {
-			if v, ok := st.Figures[k]; ok && v > 0 {
+			if v, ok := st.Figures.Lookup(k); ok && v > 0 {
 				return v
 			}
 		}
@@ -235,8 +236,8 @@ func addLoops(c *graph.Circuit, out []Stage) {
 	}
 }
 
-// LoopLine is a loop in words for the stage list: "V1: 1.004–2.063 MHz,
-// margin +12.1 to +15.3 dB across the dial".
+// LoopLine is a loop in words for the stage list: "loop V1: 982.6 kHz–1.959
+// MHz, margin +15.8 to +19.3 dB across the dial; by gang travel, 0 %: …".
 func LoopLine(l Loop) string {
 	fMin, fMax, mMin, mMax, ok := l.Range()
 	if !ok {
@@ -255,39 +256,18 @@ func LoopLine(l Loop) string {
 		fmt.Fprintf(&b, ", margin %+.1f to %+.1f dB", mMin, mMax)
 	}
 	if len(l.Settings) > 1 {
-		b.WriteString(" across the dial (")
-		for i, s := range l.Settings {
-			if i > 0 {
-				b.WriteString("; ")
-			}
+		b.WriteString(" across the dial; by gang travel")
+		for _, s := range l.Settings {
 			if s.F == 0 {
-				fmt.Fprintf(&b, "%.0f %%: none", 100*s.Gang)
+				fmt.Fprintf(&b, ", %.0f %%: none", 100*s.Gang)
 				continue
 			}
-			fmt.Fprintf(&b, "%.0f %%: %s %+.1f dB", 100*s.Gang, hzText(s.F), s.MarginDB)
+			fmt.Fprintf(&b, ", %.0f %%: %s %+.1f dB", 100*s.Gang, hzText(s.F), s.MarginDB)
 		}
-		b.WriteString(")")
 	}
 	return b.String()
 }
 
-// hzText prints a frequency with four significant digits and its prefix.
-func hzText(f float64) string {
-	switch {
-	case f >= 1e6:
-		return fmt.Sprintf("%.4g MHz", f/1e6)
-	case f >= 1e3:
-		return fmt.Sprintf("%.4g kHz", f/1e3)
-	}
-	return fmt.Sprintf("%.4g Hz", f)
-}
-
-func secText(t float64) string {
-	switch {
-	case t >= 1:
-		return fmt.Sprintf("%.3g s", t)
-	case t >= 1e-3:
-		return fmt.Sprintf("%.3g ms", t*1e3)
-	}
-	return fmt.Sprintf("%.3g µs", t*1e6)
-}
+// hzText and secText print with the figures' one formatter.
+func hzText(f float64) string  { return figure.Format(f, figure.Hertz, figure.Text) }
+func secText(t float64) string { return figure.Format(t, figure.Second, figure.Text) }
