@@ -92,6 +92,11 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	order := signalOrder(reduced)
 	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)
 	foldShunts(reduced, acg, signal, order)
+	loopCircuit := o.Full
+	if loopCircuit == nil {
+		loopCircuit = reduced
+	}
+	signal = append(signal, loopStages(reduced, loopCircuit, acg, signal)...)
 	var power []*found
 	var errPow error
 	if o.Full != nil && errSig == nil {
@@ -119,10 +124,6 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		name(top.Stage)
 		markSupply(top)
 		out = appendTree(out, top)
-	}
-	loopCircuit := o.Full
-	if loopCircuit == nil {
-		loopCircuit = reduced
 	}
 	addLoops(loopCircuit, out)
 	return out, errors.Join(errSig, errPow)

@@ -220,7 +220,7 @@ func addLoops(c *graph.Circuit, out []Stage) {
 		}
 		for _, ref := range st.Parts {
 			p := c.Part(ref)
-			if p == nil || !p.IsActive() || done[ref] {
+			if p == nil || !p.IsActive() || done[ref] || slices.ContainsFunc(st.Loop, func(l Loop) bool { return l.Device == ref }) {
 				continue
 			}
 			done[ref] = true

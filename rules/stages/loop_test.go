@@ -1,6 +1,7 @@
 package stages
 
 import (
+	"slices"
 	"strings"
 	"testing"
 
@@ -58,6 +59,52 @@ func TestOscillatorLoopFlags(t *testing.T) {
 			}
 			if line := LoopLine(st.Loop[0]); !strings.HasPrefix(line, "loop ") {
 				t.Errorf("loop line %q", line)
+			}
+		})
+	}
+}
+
+// An oscillator no pattern names is found by its loop: the converter whose
+// feedback reaches the emitter through a separate link winding, and the
+// Wien bridge whose first valve has the bridge's arm on its cathode. The
+// near miss is the same converter with the link winding reversed: negative
+// feedback, no 0° loop phase, no oscillator.
+func TestOscillatorFoundByLoop(t *testing.T) {
+	cases := []struct {
+		path, device, title string
+		amplifierFlag       string // a device in an amplifier stage that oscillates
+	}{
+		{"../../testdata/osc/link-bjt.toml", "Q1", "Oscillator, feedback through T1 (BJT)", ""},
+		{"../../testdata/osc/wien-valve.toml", "V1", "Oscillator, feedback through an RC network (valve)", "V2 oscillates"},
+		{"../../testdata/osc/wien-bjt.toml", "Q1", "Oscillator, feedback through an RC network (BJT)", "Q2 oscillates"},
+		{"testdata/link-bjt-reversed.toml", "", "", ""},
+		{"testdata/triode-stage.toml", "", "", ""},
+	}
+	for _, tc := range cases {
+		t.Run(tc.path, func(t *testing.T) {
+			c, err := graph.LoadFile(tc.path)
+			if err != nil {
+				t.Fatal(err)
+			}
+			found := find(t, c, Options{})
+			st := stageOf(found, loopTopology)
+			if tc.device == "" {
+				if st != nil {
+					t.Fatalf("near miss found as %s %v", st.Title, st.Parts)
+				}
+				return
+			}
+			if st == nil || st.Title != tc.title || !slices.Contains(st.Parts, tc.device) {
+				t.Fatalf("stages %s: want %q holding %s", topologies(found), tc.title, tc.device)
+			}
+			if len(st.Loop) != 1 || st.Loop[0].Device != tc.device {
+				t.Errorf("loop %+v", st.Loop)
+			}
+			if tc.amplifierFlag != "" {
+				amp := stageOf(found, "amp-common")
+				if amp == nil || !strings.Contains(strings.Join(amp.Flags, "\n"), tc.amplifierFlag) {
+					t.Errorf("amplifier stage lacks %q", tc.amplifierFlag)
+				}
 			}
 		})
 	}
