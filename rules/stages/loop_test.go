@@ -109,3 +109,39 @@ func TestOscillatorFoundByLoop(t *testing.T) {
 		})
 	}
 }
+
+// Patterns as equivalence classes: a phase-shift oscillator whose emitter
+// resistor is only partly bypassed (4.7 µF: 51 Ω at 660 Hz against
+// 1/gm = 26 Ω, so the reduction keeps it) is still a phase-shift
+// oscillator; the same circuit with two sections (each under 90°, so short of the 180° the
+// ladder must give; handbook analysis) is not, and has no loop.
+func TestVariantPatterns(t *testing.T) {
+	cases := []struct{ file, topology string }{
+		{"testdata/phase-shift-partial-bypass.toml", "rc-phase-shift-degenerated"},
+		{"testdata/phase-shift-two-sections.toml", ""},
+	}
+	for _, tc := range cases {
+		t.Run(tc.file, func(t *testing.T) {
+			c, err := graph.LoadFile(tc.file)
+			if err != nil {
+				t.Fatal(err)
+			}
+			found := find(t, c, Options{})
+			for _, s := range found {
+				if s.group == "oscillator" && s.Topology != tc.topology {
+					t.Errorf("unexpected oscillator %s", s.Topology)
+				}
+			}
+			if tc.topology == "" {
+				return
+			}
+			st := stageOf(found, tc.topology)
+			if st == nil || len(st.Loop) != 1 {
+				t.Fatalf("stages %s: want %s with its loop", topologies(found), tc.topology)
+			}
+			if _, _, _, m, ok := st.Loop[0].Range(); !ok || m < 0 {
+				t.Errorf("loop %+v: the fixture oscillates (its bypass is partial, not absent)", st.Loop[0])
+			}
+		})
+	}
+}

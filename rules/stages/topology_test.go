@@ -167,6 +167,27 @@ C1 = { c = "10n", pins = ["o", "n1"] }
 R1 = { r = "10k", pins = ["n1", "gnd"] }
 C2 = { c = "10n", pins = ["n1", "g"] }
 R3 = { r = "10k", pins = ["g", "gnd"] }`},
+	{topology: "rc-phase-shift-degenerated", families: allFamilies,
+		parts: `@Q1(g, k, o)
+R8 = { r = "220", pins = ["k", "gnd"] }
+C8 = { c = "4u7", pins = ["k", "gnd"] }
+R9 = { r = "10k", pins = ["o", "ht"] }
+C1 = { c = "10n", pins = ["o", "n1"] }
+R1 = { r = "10k", pins = ["n1", "gnd"] }
+C2 = { c = "10n", pins = ["n1", "n2"] }
+R2 = { r = "10k", pins = ["n2", "gnd"] }
+C3 = { c = "10n", pins = ["n2", "g"] }
+R3 = { r = "10k", pins = ["g", "gnd"] }`,
+		// The ladder's middle section is a series resistor: no 180°.
+		nearMiss: `@Q1(g, k, o)
+R8 = { r = "220", pins = ["k", "gnd"] }
+C8 = { c = "4u7", pins = ["k", "gnd"] }
+R9 = { r = "10k", pins = ["o", "ht"] }
+C1 = { c = "10n", pins = ["o", "n1"] }
+R1 = { r = "10k", pins = ["n1", "gnd"] }
+R2 = { r = "10k", pins = ["n1", "n2"] }
+C3 = { c = "10n", pins = ["n2", "g"] }
+R3 = { r = "10k", pins = ["g", "gnd"] }`},
 	{topology: "wien-bridge", families: allFamilies,
 		parts: `@Q1(g1, gnd, o1)
 @Q2(g2, gnd, o2)
