@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -96,7 +97,8 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	if loopCircuit == nil {
 		loopCircuit = reduced
 	}
-	signal = append(signal, loopStages(reduced, loopCircuit, acg, signal)...)
+	byLoop, gone := loopStages(reduced, loopCircuit, acg, signal)
+	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
 	var power []*found
 	var errPow error
 	if o.Full != nil && errSig == nil {

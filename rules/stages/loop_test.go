@@ -145,3 +145,45 @@ func TestVariantPatterns(t *testing.T) {
 		})
 	}
 }
+
+// The self-oscillating mixer is any device with an oscillator loop and an
+// output tuned to the IF, however the feedback is coupled: here a link
+// winding to the emitter. Its padder and link capacitor belong to it, not
+// to "coupling capacitor" stages. The near miss has the IF can tuned far
+// off the IF (47 pF: about 890 kHz by f = 1/(2π√(LC))): an oscillator, not
+// a mixer.
+func TestMixerFoundByLoop(t *testing.T) {
+	cases := []struct{ file, topology string }{
+		{"testdata/converter-link.toml", loopMixerTopology},
+		{"testdata/converter-link-off-if.toml", loopTopology},
+	}
+	for _, tc := range cases {
+		t.Run(tc.file, func(t *testing.T) {
+			c, err := graph.LoadFile(tc.file)
+			if err != nil {
+				t.Fatal(err)
+			}
+			found := find(t, c, Options{})
+			st := stageOf(found, tc.topology)
+			if st == nil {
+				t.Fatalf("stages %s: no %s", topologies(found), tc.topology)
+			}
+			if !strings.Contains(st.Title, "through T2") {
+				t.Errorf("title %q: the feedback goes through T2", st.Title)
+			}
+			for _, ref := range []string{"C3", "C4", "Q1", "T2", "VC1b"} {
+				if !slices.Contains(st.Parts, ref) {
+					t.Errorf("parts %v lack %s", st.Parts, ref)
+				}
+			}
+			if cc := stageOf(found, "coupling-capacitor"); cc != nil && slices.Contains(cc.Parts, "C3") {
+				t.Errorf("the padder C3 is still a coupling capacitor")
+			}
+			if tc.topology == loopMixerTopology {
+				if _, ok := st.Figures.Lookup("osc_f_min_hz"); !ok {
+					t.Errorf("figures %v lack the oscillator range", st.Figures)
+				}
+			}
+		})
+	}
+}

@@ -6,6 +6,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/figure"
+	"pare/graph/value"
 )
 
 // Oscillators found by their loop. A pattern describes one drawing of a
@@ -17,13 +18,21 @@ import (
 // own ("Oscillator, feedback through T1"); one inside another stage (an
 // amplifier) gets a flag, for an amplifier that oscillates is a fault.
 
-// loopTopology is the topology id of an oscillator found by its loop.
-const loopTopology = "oscillator-loop"
+// loopTopology is the topology id of an oscillator found by its loop, and
+// loopMixerTopology of one whose output is tuned to the IF: a
+// self-oscillating mixer however its feedback is coupled.
+const (
+	loopTopology      = "oscillator-loop"
+	loopMixerTopology = "self-oscillating-mixer-loop"
+)
 
 // loopStages returns the stages of oscillators no pattern named, and flags
 // the stages that hold a device of such a loop. The loops are solved on
 // lc (the original circuit); the stages' parts come from the reduced c.
-func loopStages(c, lc *graph.Circuit, acg map[string]bool, tops []*found) []*found {
+// A coupling-group stage on the loop (a padder or a link capacitor that
+// the coupling patterns took for a coupling capacitor) is absorbed: it is
+// returned in gone, and its parts belong to the oscillator.
+func loopStages(c, lc *graph.Circuit, acg map[string]bool, tops []*found) (out []*found, gone map[*found]bool) {
 	claimed := map[string]*found{}
 	named := map[string]bool{} // devices an oscillator or mixer stage holds
 	var walk func(f *found)
@@ -43,7 +52,7 @@ func loopStages(c, lc *graph.Circuit, acg map[string]bool, tops []*found) []*fou
 	for _, f := range tops {
 		walk(f)
 	}
-	var out []*found
+	gone = map[*found]bool{}
 	for _, p := range c.Parts {
 		if !p.IsActive() || named[p.Ref] {
 			continue
@@ -62,76 +71,101 @@ func loopStages(c, lc *graph.Circuit, acg map[string]bool, tops []*found) []*fou
 			slices.Sort(f.Flags)
 			continue
 		}
-		parts, through := loopParts(c, acg, p, claimed)
+		through := feedbackThrough(lc, p.Ref, l)
+		parts := loopParts(c, acg, p, through, claimed, gone)
+		if through == "" {
+			through = "an RC network"
+		}
 		st := &Stage{Topology: loopTopology, group: "oscillator", Family: deviceFamily(p),
 			Parts: parts, Figures: figure.List{}, Loop: []Loop{l}}
 		st.Title = expandTitle("Oscillator, feedback through "+through+" ({family})", st.Family)
+		if ifStage := ifOutput(c, p, tops); ifStage != nil {
+			st.Topology, st.group = loopMixerTopology, "mixer"
+			st.Title = expandTitle("Self-oscillating mixer, oscillator feedback through "+through+" ({family})", st.Family)
+			mixerFigures(c, st, l, ifStage)
+		}
+		f := &found{Stage: st, set: map[string]bool{}}
+		// The tank the feedback transformer tunes, named by its own
+		// pattern, is the oscillator's sub-stage, as a tank found inside
+		// a Hartley is.
+		if t := claimed[through]; t != nil && t.group == "tuned" && !gone[t] && slices.Contains(tops, t) {
+			gone[t] = true
+			f.subs = append(f.subs, t)
+			st.Parts = append(st.Parts, t.Parts...)
+			slices.Sort(st.Parts)
+			parts = slices.Compact(st.Parts)
+			st.Parts = parts
+		}
 		st.Flags = loopFlags(lc, st, l)
 		slices.Sort(st.Flags)
-		f := &found{Stage: st, set: map[string]bool{}}
 		for _, r := range parts {
 			f.set[r] = true
 			claimed[r] = f
 		}
 		out = append(out, f)
 	}
-	return out
+	return out, gone
 }
 
-// loopParts gathers an unnamed oscillator's parts: the device, and the
-// parts no stage holds that touch its signal nets, going on through a
-// winding to the nets of the transformer's other windings (the feedback
-// winding's far side). It names what the feedback goes through: the
-// transformer or coil, else "an RC network".
-func loopParts(c *graph.Circuit, acg map[string]bool, dev *graph.Part, claimed map[string]*found) ([]string, string) {
+// loopHops is how far from the device's nets (and the feedback
+// transformer's) an unnamed oscillator's parts are gathered: the padder
+// beyond the tank, the coupling capacitor beyond the link winding.
+const loopHops = 2
+
+// loopParts gathers an unnamed oscillator's parts: the device, the
+// transformer that carries its feedback, and, within loopHops of their
+// nets through capacitors and windings, the parts that no stage holds or
+// that a coupling stage holds (which is then marked gone). Tuned stages
+// and amplifiers keep their parts: an IF transformer is the next stage's
+// input, an amplifier in the loop (a Wien bridge's second valve) is a stage
+// of its own.
+func loopParts(c *graph.Circuit, acg map[string]bool, dev *graph.Part, through string, claimed map[string]*found, gone map[*found]bool) []string {
 	ground := func(net string) bool { return acg[net] || c.RoleOf(net).IsACGround() }
 	nets := map[string]bool{}
-	for _, pin := range dev.Pins {
-		if !ground(pin.Net) {
-			nets[pin.Net] = true
+	in := map[string]bool{dev.Ref: true}
+	addNets := func(q *graph.Part) {
+		for _, pin := range q.Pins {
+			if !ground(pin.Net) {
+				nets[pin.Net] = true
+			}
 		}
 	}
-	in := map[string]bool{dev.Ref: true}
-	through := ""
-	for range 2 { // the device's nets, then one step beyond a winding
-		grown := false
+	addNets(dev)
+	if t := c.Part(through); t != nil && claimed[through] == nil {
+		in[through] = true
+		addNets(t)
+	}
+	takeable := func(q *graph.Part) bool {
+		f := claimed[q.Ref]
+		return f == nil || f.group == "coupling" || gone[f]
+	}
+	for range loopHops {
+		var grown []*graph.Part
 		for _, q := range c.Parts {
-			if in[q.Ref] || q.IsActive() || !touches(q, nets) {
-				continue
-			}
-			if claimed[q.Ref] != nil {
-				// Another stage's winding (the tank's transformer, named
-				// by its own pattern) still carries the feedback.
-				if q.Kind == graph.Transformer && through == "" {
-					through = q.Ref
-				}
+			if in[q.Ref] || q.IsActive() || !touches(q, nets) || !takeable(q) {
 				continue
 			}
 			in[q.Ref] = true
-			if q.Kind == graph.Transformer || q.Kind == graph.Inductor {
-				if through == "" || q.Kind == graph.Transformer {
-					through = q.Ref
-				}
-				for _, pin := range q.Pins {
-					if !ground(pin.Net) && !nets[pin.Net] {
-						nets[pin.Net], grown = true, true
-					}
+			if f := claimed[q.Ref]; f != nil && !gone[f] {
+				gone[f] = true
+				for _, r := range f.Parts {
+					in[r] = true
 				}
 			}
+			if q.Kind != graph.Resistor {
+				grown = append(grown, q)
+			}
 		}
-		if !grown {
-			break
+		for _, q := range grown {
+			addNets(q)
 		}
-	}
-	if through == "" {
-		through = "an RC network"
 	}
 	var refs []string
 	for r := range in {
 		refs = append(refs, r)
 	}
 	slices.Sort(refs)
-	return refs, through
+	return refs
 }
 
 func touches(p *graph.Part, nets map[string]bool) bool {
@@ -153,4 +187,78 @@ func deviceFamily(p *graph.Part) string {
 		return "fet"
 	}
 	return "passive"
+}
+
+// feedbackThrough names the transformer that carries a loop: the one whose
+// coupling, set to zero in a copy of the circuit, leaves the loop short of
+// 0 dB at every setting. "" when no single transformer does.
+func feedbackThrough(lc *graph.Circuit, ref string, l Loop) string {
+	for _, q := range lc.Parts {
+		if len(q.Coupling) == 0 {
+			continue
+		}
+		cp := lc.Clone()
+		for i := range cp.Part(q.Ref).Coupling {
+			cp.Part(q.Ref).Coupling[i].K = 0
+		}
+		cut, err := loopOf(cp, ref)
+		if err != nil {
+			continue
+		}
+		if _, _, _, m, ok := cut.Range(); !ok || m < 0 {
+			return q.Ref
+		}
+	}
+	return ""
+}
+
+// ifFreqTol is how near the declared IF a tuned output must be for the
+// device to be a mixer: 10 %, wider than any IF can's trimming range
+// (common practice).
+const ifFreqTol = 0.1
+
+// ifOutput finds the tuned stage on a device's output net that is tuned to
+// the declared IF: the IF transformer of a self-oscillating mixer.
+func ifOutput(c *graph.Circuit, dev *graph.Part, tops []*found) *Stage {
+	fif := c.Freqs["if"]
+	out := dev.NetOf(dev.PinWithRole(graph.RoleOutput))
+	if fif <= 0 || out == "" {
+		return nil
+	}
+	for _, f := range tops {
+		if f.group != "tuned" {
+			continue
+		}
+		fr, ok := f.Figures.Lookup("f_hz")
+		if !ok || (fr/fif-1 > ifFreqTol || 1-fr/fif > ifFreqTol) {
+			continue
+		}
+		for _, ref := range f.Parts {
+			if q := c.Part(ref); q != nil && touches(q, map[string]bool{out: true}) {
+				return f.Stage
+			}
+		}
+	}
+	return nil
+}
+
+// mixerFigures gives a mixer found by its loop the oscillator's range from
+// the loop (0° of loop phase in circuit, across the gang), the IF its
+// output is tuned to, and the signal range it receives with high-side
+// injection (signal = oscillator − IF).
+func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage *Stage) {
+	fMin, fMax, _, _, ok := l.Range()
+	if !ok {
+		return
+	}
+	fif := c.Freqs["if"]
+	origin := figure.BySolver("loop gain, 0° of loop phase", "across the gang")
+	st.Figures.Put(figure.Figure{Name: "osc_f", Label: "osc f", Unit: figure.Hertz, Range: &value.Range{Min: fMin, Max: fMax}, Origin: origin})
+	st.Figures.Put(figure.Figure{Name: "if", Label: "IF", Unit: figure.Hertz, Value: fif, Origin: figure.FromNetlist("[freqs] if")})
+	if ft, ok := ifStage.Figures.Lookup("f_hz"); ok {
+		st.Figures.Put(figure.Figure{Name: "ift_f", Label: "IF transformer f", Unit: figure.Hertz, Value: ft, Origin: figure.ByFormula("f = 1/(2π√(LC))")})
+	}
+	if fMin > fif {
+		st.Figures.Put(figure.Figure{Name: "sig_f", Label: "sig f", Unit: figure.Hertz, Range: &value.Range{Min: fMin - fif, Max: fMax - fif}, Origin: figure.ByFormula("signal = oscillator − IF")})
+	}
 }
