@@ -40,6 +40,10 @@ type LoopOptions struct {
 	// step: a tank of Q up to a few hundred turns its phase through 0°
 	// over more than one step, so no crossing is skipped).
 	PerDecade int
+	// Inverted searches for 180° of loop phase instead: where the loop
+	// feeds back against the signal (degeneration), as a reaction winding
+	// connected the wrong way round does.
+	Inverted bool
 }
 
 // Crossing is one frequency where the loop phase is 0°.
@@ -199,6 +203,9 @@ func FindLoop(c *graph.Circuit, ref string, o LoopOptions) (Loop, error) {
 	grid, err := searchGrid(ls, o)
 	if err != nil {
 		return res, err
+	}
+	if o.Inverted {
+		ls.gm = -ls.gm // −L: its 0° is L's 180°
 	}
 	prevF := grid[0]
 	prev, err := ls.atF(prevF)

@@ -59,6 +59,8 @@ var figureNames = []figName{
 	{name: "c_eff", label: "c eff"},
 	{name: "feedback", label: "feedback"},
 	{name: "gain_min", label: "gain needed to oscillate ≥"}, // the loop's threshold, not the stage's gain
+	{name: "regen_loop", label: "reaction loop gain", inDB: true},
+	{name: "q_mult", label: "Q multiplied by"},
 	{name: "k", label: "k"},
 	{name: "kc", label: "kc"},
 	{name: "z_ratio", label: "z ratio"},

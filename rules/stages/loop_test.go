@@ -1,6 +1,7 @@
 package stages
 
 import (
+	"math"
 	"slices"
 	"strings"
 	"testing"
@@ -183,6 +184,43 @@ func TestMixerFoundByLoop(t *testing.T) {
 				if _, ok := st.Figures.Lookup("osc_f_min_hz"); !ok {
 					t.Errorf("figures %v lack the oscillator range", st.Figures)
 				}
+			}
+		})
+	}
+}
+
+// Reaction in a grid-leak detector: the regeneration loop gain at the
+// tuned frequency. Phased to regenerate and set below oscillation, the
+// loop multiplies the tank's Q by 1/(1 − L) (regeneration, the classic
+// result for positive feedback around a resonator); the same detector with
+// the reaction winding reversed feeds back at 180° and is flagged.
+func TestReaction(t *testing.T) {
+	cases := []struct{ file, flag string }{
+		{"testdata/grid-leak-reaction-phased.toml", ""},
+		{"testdata/grid-leak-reaction.toml", "connected the wrong way round"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.file, func(t *testing.T) {
+			c, err := graph.LoadFile(tc.file)
+			if err != nil {
+				t.Fatal(err)
+			}
+			st := stageOf(find(t, c, Options{}), "grid-leak-detector-reaction")
+			if st == nil || len(st.Loop) != 1 {
+				t.Fatal("no detector with reaction and its loop")
+			}
+			flags := strings.Join(st.Flags, "\n")
+			if tc.flag != "" {
+				if !strings.Contains(flags, tc.flag) {
+					t.Errorf("flags %q lack %q", st.Flags, tc.flag)
+				}
+				return
+			}
+			_, _, _, mMax, _ := st.Loop[0].Range()
+			q, ok := st.Figures.Lookup("q_mult")
+			want := 1 / (1 - math.Pow(10, mMax/20)) // derived: Q·1/(1 − L)
+			if !ok || mMax >= 0 || math.Abs(q-want) > 1e-9*want || q <= 1 {
+				t.Errorf("q mult %v (%v), loop %+.2f dB: want %.4g", q, ok, mMax, want)
 			}
 		})
 	}

@@ -54,7 +54,7 @@ func loopStages(c, lc *graph.Circuit, acg map[string]bool, tops []*found) (out [
 	}
 	gone = map[*found]bool{}
 	for _, p := range c.Parts {
-		if !p.IsActive() || named[p.Ref] {
+		if !p.IsActive() || named[p.Ref] || claimed[p.Ref] != nil && hasLoop(claimed[p.Ref].Stage, p.Ref) {
 			continue
 		}
 		l, err := loopOf(lc, p.Ref)

@@ -412,6 +412,22 @@ R2 = { r = "100k", pins = ["o", "ht"] }`,
 C1 = { c = "10n", pins = ["in", "g"] }
 R1 = { r = "470k", pins = ["g", "gnd"] }
 R2 = { r = "100k", pins = ["o", "ht"] }`},
+	{topology: "grid-leak-detector-reaction", families: []string{"valve", "fet"},
+		parts: `@Q1(g, gnd, a)
+T1 = { windings = { g = "230u", r = "0u1" }, k = 0.3, pins = { g1 = "tk", g2 = "gnd", r1 = "rc", r2 = "a" }, q = 80 }
+VC1 = { c = "12p..365p", pins = ["tk", "gnd"] }
+C2 = { c = "100p", pins = ["tk", "g"] }
+R1 = { r = "2M2", pins = ["g", "gnd"] }
+VC2 = { c = "10p", pins = ["rc", "gnd"] }
+R2 = { r = "47k", pins = ["a", "ht"] }`,
+		// The reaction winding's far end on HT, no reaction capacitor: a
+		// tuned-grid oscillator with a tickler, not a detector with reaction.
+		nearMiss: `@Q1(g, gnd, a)
+T1 = { windings = { g = "230u", r = "0u1" }, k = 0.3, pins = { g1 = "tk", g2 = "gnd", r1 = "ht", r2 = "a" }, q = 80 }
+VC1 = { c = "12p..365p", pins = ["tk", "gnd"] }
+C2 = { c = "100p", pins = ["tk", "g"] }
+R1 = { r = "2M2", pins = ["g", "gnd"] }
+R2 = { r = "47k", pins = ["a", "ht"] }`},
 	{topology: "fm-phase-discriminator", families: allFamilies, want: "passive",
 		parts: `@Q1(in, gnd, a)
 T1 = { windings = { p = "10u", s = ["5u", "5u"] }, k = 0.3, pins = { p1 = "a", p2 = "ht", s1 = "s1", st = "ct", s2 = "s2" } }
