@@ -22,6 +22,13 @@ type Report struct {
 	Connectivity   []string // nets not one connected tree, wires touching other nets or pins
 	Junctions      []string // four-way junctions, missing or stray dots
 	FrameCuts      []string // a frame edge through a symbol, local symbol or label
+	// FrameIntruders are symbols inside a stage's frame that are parts of
+	// another stage: a frame says "these parts are this stage", so one
+	// enclosing another stage's transistor tells a wrong story.
+	FrameIntruders []string
+	// FrameStrays are symbols of parts in no stage inside a frame: not
+	// wrong (the part belongs to no other stage), but worth a look.
+	FrameStrays []string
 	// CloseWires are runs of two nets' wires side by side on neighbouring
 	// grid lines (one grid step apart or less) for more than closeRun steps:
 	// at print size they read as one thick line or a bus.
@@ -41,7 +48,7 @@ type Report struct {
 // broken connectivity, bad junctions.
 func (r *Report) Problems() []string {
 	var out []string
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.Connectivity, r.Junctions} {
 		out = append(out, l...)
 	}
 	return out
@@ -126,10 +133,11 @@ func Measure(g *geom.Sheet) *Report {
 	r.wiresThrough(segs, boxes, &bix, nSym)
 	r.labels(g, boxes, &bix, segs)
 	r.frameEdges(g, boxes, segs)
+	r.frameIntruders(g)
 	r.closeWires(segs)
 	r.crossings(g, segs)
 	r.connectivity(g, segs)
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.CloseWires, r.FrameHugs, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Connectivity, r.Junctions} {
 		sort.Strings(l)
 	}
 	return r

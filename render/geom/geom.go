@@ -172,6 +172,9 @@ type Wire struct {
 type Frame struct {
 	Box   Rect
 	Title Label
+	// Parts are the refs of the stage the frame holds: a symbol of any
+	// other part inside the box is a fault the checker reports.
+	Parts []string
 }
 
 // Link is a mechanical link (a gang) drawn dashed between symbols.

@@ -75,7 +75,7 @@ func (ly *state) makeFrames() {
 		title := geom.Label{Owner: "frame:" + f.Title, Lines: lines, Small: true, Head: head,
 			Box: geom.Rect{X0: b.X0, Y0: b.Y0 - 2.2 - h, X1: b.X0 + w, Y1: b.Y0 - 2.2}}
 		box := halfGrid(b.Union(title.Box).Inset(framePad + 0.5))
-		ly.frames = append(ly.frames, geom.Frame{Box: box, Title: title})
+		ly.frames = append(ly.frames, geom.Frame{Box: box, Title: title, Parts: f.Parts})
 		ly.frameStage = append(ly.frameStage, i)
 	}
 }
