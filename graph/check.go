@@ -18,7 +18,10 @@ var plausible = map[Kind][2]float64{
 	Capacitor: {0.1e-12, 0.1},
 	Inductor:  {10e-9, 1000},
 	Crystal:   {1e3, 500e6},
-	Pot:       {1, 50e6},
+	// 2–16 Ω moving coils and the 600–800 Ω of early high-impedance
+	// speakers, with room either side (common practice, no source).
+	Loudspeaker: {1, 5e3},
+	Pot:         {1, 50e6},
 }
 
 // limitText prints a plausibility limit; farads from a millifarad up are
@@ -33,7 +36,7 @@ func limitText(v float64, u value.Unit) string {
 // unitOf gives the unit of a kind's main value, for messages.
 func unitOf(k Kind) value.Unit {
 	switch k {
-	case Resistor, Pot:
+	case Resistor, Pot, Loudspeaker:
 		return value.Ohm
 	case Capacitor:
 		return value.Farad
@@ -175,6 +178,7 @@ var refPrefixes = map[Kind][]string{
 	FET:         {"Q", "T", "TR", "J", "M"},
 	Diode:       {"D"},
 	Crystal:     {"X", "XTAL", "Y"},
+	Loudspeaker: {"LS", "SP", "SPK"},
 	Pot:         {"RV", "VR", "R", "P"},
 	Switch:      {"S", "SW"},
 	Port:        {"P", "J", "X", "K"},

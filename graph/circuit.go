@@ -28,6 +28,7 @@ const (
 	FET         Kind = "fet"
 	Diode       Kind = "diode"
 	Crystal     Kind = "crystal"
+	Loudspeaker Kind = "loudspeaker" // a moving-coil speaker: its value is its rated impedance
 	Pot         Kind = "pot"
 	Switch      Kind = "switch"
 	Port        Kind = "port"

@@ -16,7 +16,7 @@ import (
 var kindKeys = map[string]Kind{
 	"r": Resistor, "c": Capacitor, "l": Inductor, "windings": Transformer, "valve": Valve,
 	"bjt": BJT, "fet": FET, "diode": Diode, "xtal": Crystal, "pot": Pot, "switch": Switch,
-	"port": Port, "part": Generic,
+	"port": Port, "part": Generic, "spk": Loudspeaker,
 }
 
 var commonKeys = []string{"pins", "tol", "rating", "gang", "keep", "note", "from", "type", "envelope"}
@@ -213,6 +213,8 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 		p.Type = ld.deviceType(kp, m[key], "diode", DiodeTypes)
 	case Crystal:
 		p.Value = ld.rngOne(kp, m[key], value.Hertz)
+	case Loudspeaker:
+		p.Value = ld.rngOne(kp, m[key], value.Ohm)
 	case Pot:
 		p.Value = ld.rngOne(kp, m[key], value.Ohm)
 		p.Set = 0.5

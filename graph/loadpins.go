@@ -132,7 +132,7 @@ func (ld *loader) requiredPins(path string, p *Part, guessed []string) {
 		for _, w := range p.Windings {
 			need = appendNew(need, w.From, w.To)
 		}
-	case Resistor, Capacitor, Crystal, Diode, Pot, Port:
+	case Resistor, Capacitor, Crystal, Diode, Pot, Port, Loudspeaker:
 		need = Terminals(p.Kind, p.Type)
 	case Inductor:
 		need = []string{"1", "2"}

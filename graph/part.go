@@ -29,7 +29,7 @@ func (p *Part) NetOf(name string) string {
 // IsTwoTerminal reports whether the part is a plain two-terminal element.
 func (p *Part) IsTwoTerminal() bool {
 	switch p.Kind {
-	case Resistor, Capacitor, Crystal, Diode:
+	case Resistor, Capacitor, Crystal, Diode, Loudspeaker:
 		return len(p.Pins) == 2
 	case Inductor:
 		return len(p.Pins) == 2 && len(p.Windings) <= 1

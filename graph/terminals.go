@@ -53,7 +53,7 @@ var (
 // return nil here.
 func Terminals(k Kind, typ string) []string {
 	switch k {
-	case Resistor, Crystal:
+	case Resistor, Crystal, Loudspeaker:
 		return []string{"1", "2"}
 	case Capacitor:
 		if typ == CapElectrolytic {
@@ -87,7 +87,7 @@ func Terminals(k Kind, typ string) []string {
 // or a pot. Kinds without a natural order (valves, transistors) need a table.
 func ArrayPins(k Kind, typ string, n int) []string {
 	switch k {
-	case Resistor, Crystal, Capacitor, Diode:
+	case Resistor, Crystal, Capacitor, Diode, Loudspeaker:
 		if n == 2 {
 			return Terminals(k, typ)
 		}

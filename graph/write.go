@@ -187,6 +187,8 @@ func kindKV(p *Part, add func(string)) {
 		add("diode = " + quote(p.Type))
 	case Crystal:
 		add("xtal = " + quote(fmtNum(p.Value.Max, value.Hertz)))
+	case Loudspeaker:
+		add("spk = " + quote(fmtNum(p.Value.Max, value.Ohm)))
 	case Pot:
 		add("pot = " + quote(fmtNum(p.Value.Max, value.Ohm)))
 		if p.Set != 0.5 {

@@ -55,6 +55,8 @@ func valueText(p *graph.Part) string {
 		return p.Type
 	case graph.Crystal:
 		return hz(p.Value.Max) + " crystal"
+	case graph.Loudspeaker:
+		return value.Format(p.Value.Max, value.Ohm, value.Symbol) + " loudspeaker"
 	case graph.Port, graph.Generic:
 		return strconv.Quote(p.Label)
 	}

@@ -28,7 +28,7 @@ var prune = Rule{
 			return nil
 		}
 		switch p.Kind {
-		case graph.Resistor, graph.Capacitor, graph.Inductor, graph.Diode, graph.Crystal:
+		case graph.Resistor, graph.Capacitor, graph.Inductor, graph.Diode, graph.Crystal, graph.Loudspeaker:
 		default:
 			return nil
 		}

@@ -78,6 +78,13 @@ func (st *stamper) part(c *graph.Circuit, p *graph.Part) {
 		if cv := p.Capacitance(st.frac); cv > 0 {
 			st.two(primC, p, "", a, b, cv)
 		}
+	case graph.Loudspeaker:
+		// Its rated impedance as a resistance: what an output transformer
+		// reflects; the voice coil's inductance and cone resonance are not
+		// in the netlist.
+		if p.Value.Max > 0 {
+			st.two(primR, p, "", "1", "2", p.Value.Max)
+		}
 	case graph.Inductor, graph.Transformer:
 		st.nl.windings(c, p, st.node, &st.errs)
 	case graph.Valve, graph.BJT, graph.FET, graph.Diode, graph.Crystal:

@@ -68,7 +68,7 @@ func labelLines(p *graph.Part, o Options) []string {
 		}
 	}
 	switch p.Kind {
-	case graph.Resistor, graph.Pot:
+	case graph.Resistor, graph.Pot, graph.Loudspeaker:
 		add(value.FormatRange(p.Value, value.Ohm, value.Code))
 	case graph.Capacitor:
 		add(value.FormatRange(p.Value, value.Farad, value.Code))

@@ -21,6 +21,7 @@ var deviceKindsOf = map[string][]graph.Kind{
 	"transformer":  {graph.Transformer},
 	"diode":        {graph.Diode, graph.Valve},
 	"crystal":      {graph.Crystal},
+	"loudspeaker":  {graph.Loudspeaker},
 	"pot":          {graph.Pot},
 	"element":      {graph.Capacitor, graph.Crystal, graph.Inductor, graph.Resistor},
 }
@@ -107,7 +108,7 @@ func (s *searcher) bindings(pp *PPart, ci int, out []binding) []binding {
 	w := s.w
 	p := w.parts[ci]
 	switch pp.Device {
-	case "resistor", "capacitor", "inductor", "crystal", "element":
+	case "resistor", "capacitor", "inductor", "crystal", "element", "loudspeaker":
 		if len(w.pins[ci]) != 2 {
 			return out
 		}

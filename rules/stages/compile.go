@@ -40,7 +40,7 @@ const maxOptional = 6
 var deviceRarity = map[string]int{
 	"active": 0, "valve": 0, "bjt": 0, "fet": 0,
 	"transformer": 1, "double-diode": 1,
-	"tapped-coil": 2, "crystal": 2,
+	"tapped-coil": 2, "crystal": 2, "loudspeaker": 2,
 	"diode": 3, "pot": 3, "inductor": 4, "capacitor": 5, "resistor": 6, "element": 7,
 }
 

@@ -60,6 +60,8 @@ var figureNames = []figName{
 	{name: "feedback", label: "feedback"},
 	{name: "gain_min", label: "gain needed to oscillate ≥"}, // the loop's threshold, not the stage's gain
 	{name: "regen_loop", label: "reaction loop gain", inDB: true},
+	{name: "r_reflected", label: "reflected load"},
+	{name: "f_top_cut", label: "top-cut f"},
 	{name: "q_mult", label: "Q multiplied by"},
 	{name: "k", label: "k"},
 	{name: "kc", label: "kc"},

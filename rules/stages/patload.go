@@ -13,7 +13,7 @@ import (
 
 // device kinds a pattern part may ask for.
 var deviceKinds = []string{"active", "valve", "bjt", "fet", "resistor", "capacitor", "inductor",
-	"tapped-coil", "transformer", "diode", "double-diode", "crystal", "element", "pot"}
+	"tapped-coil", "transformer", "diode", "double-diode", "crystal", "element", "pot", "loudspeaker"}
 
 var patternKeys = []string{"id", "title", "titles", "group", "circuit", "rank", "inner", "families", "context", "nets", "parts", "figure", "guard", "note"}
 

@@ -78,7 +78,7 @@ func (ld *patLoader) part(path, name string, v any) {
 
 func mainUnit(device string) value.Unit {
 	switch device {
-	case "resistor", "pot":
+	case "resistor", "pot", "loudspeaker":
 		return value.Ohm
 	case "capacitor":
 		return value.Farad
@@ -93,7 +93,7 @@ func mainUnit(device string) value.Unit {
 // pinShape says how a device's terminals are written in a pattern.
 func pinShape(device string) (list int, keys []string) {
 	switch device {
-	case "resistor", "capacitor", "inductor", "crystal", "element":
+	case "resistor", "capacitor", "inductor", "crystal", "element", "loudspeaker":
 		return 2, nil
 	case "tapped-coil", "pot":
 		return 3, nil

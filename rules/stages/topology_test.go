@@ -428,6 +428,17 @@ VC1 = { c = "12p..365p", pins = ["tk", "gnd"] }
 C2 = { c = "100p", pins = ["tk", "g"] }
 R1 = { r = "2M2", pins = ["g", "gnd"] }
 R2 = { r = "47k", pins = ["a", "ht"] }`},
+	{topology: "output-transformer", families: allFamilies,
+		parts: `@Q1(g, gnd, a)
+R1 = { r = "470k", pins = ["g", "gnd"] }
+T1 = { windings = { p = "10", s = "16m" }, k = 0.99, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }
+LS1 = { spk = "8", pins = ["spk", "gnd"] }`,
+		// An 8 Ω resistor where the loudspeaker goes: a dummy load on the
+		// bench, not a loudspeaker.
+		nearMiss: `@Q1(g, gnd, a)
+R1 = { r = "470k", pins = ["g", "gnd"] }
+T1 = { windings = { p = "10", s = "16m" }, k = 0.99, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }
+R2 = { r = "8", pins = ["spk", "gnd"] }`},
 	{topology: "fm-phase-discriminator", families: allFamilies, want: "passive",
 		parts: `@Q1(in, gnd, a)
 T1 = { windings = { p = "10u", s = ["5u", "5u"] }, k = 0.3, pins = { p1 = "a", p2 = "ht", s1 = "s1", st = "ct", s2 = "s2" } }
