@@ -245,3 +245,26 @@ func TestOutputTransformerFigures(t *testing.T) {
 		}
 	}
 }
+
+// A transistor set's audio end: the driver's phase-splitting transformer
+// and the push-pull pair whose output transformer carries the loudspeaker,
+// with the reflected load collector to collector, n²·Z: the primary's two
+// halves are one winding, turns adding, Lp = (√0.05 + √0.05)² = 0.2 H
+// against 1 mH, n² = 200, 1600 Ω (derived, ideal transformer).
+func TestDriverAndPushPull(t *testing.T) {
+	c, err := graph.LoadFile("testdata/driver-push-pull.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := find(t, c, Options{})
+	if stageOf(found, "phase-splitter-transformer") == nil {
+		t.Errorf("no phase splitter: %s", topologies(found))
+	}
+	pp := stageOf(found, "push-pull")
+	if pp == nil || !slices.Contains(pp.Parts, "LS1") {
+		t.Fatalf("no push-pull stage with its loudspeaker: %s", topologies(found))
+	}
+	if z, ok := pp.Figures.Lookup("r_reflected_ohm"); !ok || math.Abs(z/1600-1) > 1e-3 {
+		t.Errorf("reflected load %v (%v), want 1600 Ω", z, ok)
+	}
+}

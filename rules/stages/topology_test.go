@@ -439,6 +439,18 @@ LS1 = { spk = "8", pins = ["spk", "gnd"] }`,
 R1 = { r = "470k", pins = ["g", "gnd"] }
 T1 = { windings = { p = "10", s = "16m" }, k = 0.99, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }
 R2 = { r = "8", pins = ["spk", "gnd"] }`},
+	{topology: "phase-splitter-transformer", families: allFamilies,
+		parts: `@Q1(g, gnd, a)
+R1 = { r = "22k", pins = ["g", "gnd"] }
+T1 = { windings = { p = "2", s = ["0.12", "0.12"] }, k = 0.95, pins = { p1 = "a", p2 = "ht", s1 = "g2", st = "gnd", s2 = "g3" } }
+@Q2(g2, gnd, ht)
+@Q3(g3, gnd, ht)`,
+		// No centre tap: the secondary drives one grid, a plain
+		// interstage transformer that splits nothing.
+		nearMiss: `@Q1(g, gnd, a)
+R1 = { r = "22k", pins = ["g", "gnd"] }
+T1 = { windings = { p = "2", s = "0.5" }, k = 0.95, pins = { p1 = "a", p2 = "ht", s1 = "g2", s2 = "gnd" } }
+@Q2(g2, gnd, ht)`},
 	{topology: "fm-phase-discriminator", families: allFamilies, want: "passive",
 		parts: `@Q1(in, gnd, a)
 T1 = { windings = { p = "10u", s = ["5u", "5u"] }, k = 0.3, pins = { p1 = "a", p2 = "ht", s1 = "s1", st = "ct", s2 = "s2" } }
