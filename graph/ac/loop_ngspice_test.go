@@ -52,6 +52,39 @@ type ring struct{ sigma, f float64 }
 
 func runTran(t *testing.T, bin string, c *graph.Circuit, o Options, r tranRun) ring {
 	t.Helper()
+	deck := tranDeck(t, c, o, r)
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "deck.cir"), deck, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	ctx, cancel := context.WithTimeout(context.Background(), 4*spiceTimeout)
+	defer cancel()
+	cmd := exec.CommandContext(ctx, bin, "-b", "deck.cir")
+	cmd.Dir = dir
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	if err := cmd.Run(); err != nil {
+		t.Fatalf("ngspice: %v\n%s", err, stderr.String())
+	}
+	for _, l := range strings.Split(stderr.String(), "\n") {
+		if strings.Contains(l, "Error") || strings.Contains(l, "singular") {
+			t.Fatalf("ngspice reported: %s\ndeck:\n%s", l, deck)
+		}
+	}
+	data, err := os.ReadFile(filepath.Join(dir, "out.dat"))
+	if err != nil {
+		t.Fatalf("ngspice wrote no data: %v\n%s", err, stderr.String())
+	}
+	tt, v := parseTran(t, data)
+	return measureRing(t, tt, v, 1/r.f)
+}
+
+// tranDeck writes the elaborated circuit with r.ref's transconductance
+// scaled by r.k, a kick into its control terminal, a transient of
+// r.cycles periods at a fixed step, and the returned control voltage
+// written out.
+func tranDeck(t *testing.T, c *graph.Circuit, o Options, r tranRun) []byte {
+	t.Helper()
 	nl, err := elaborate(c, o)
 	if err != nil {
 		t.Fatal(err)
@@ -111,30 +144,7 @@ func runTran(t *testing.T, bin string, c *graph.Circuit, o Options, r tranRun) r
 	if err := sw.w.Flush(); err != nil {
 		t.Fatal(err)
 	}
-	dir := t.TempDir()
-	if err := os.WriteFile(filepath.Join(dir, "deck.cir"), deck.Bytes(), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	ctx, cancel := context.WithTimeout(context.Background(), 4*spiceTimeout)
-	defer cancel()
-	cmd := exec.CommandContext(ctx, bin, "-b", "deck.cir")
-	cmd.Dir = dir
-	var stderr bytes.Buffer
-	cmd.Stderr = &stderr
-	if err := cmd.Run(); err != nil {
-		t.Fatalf("ngspice: %v\n%s", err, stderr.String())
-	}
-	for _, l := range strings.Split(stderr.String(), "\n") {
-		if strings.Contains(l, "Error") || strings.Contains(l, "singular") {
-			t.Fatalf("ngspice reported: %s\ndeck:\n%s", l, deck.String())
-		}
-	}
-	data, err := os.ReadFile(filepath.Join(dir, "out.dat"))
-	if err != nil {
-		t.Fatalf("ngspice wrote no data: %v\n%s", err, stderr.String())
-	}
-	tt, v := parseTran(t, data)
-	return measureRing(t, tt, v, period)
+	return deck.Bytes()
 }
 
 func parseTran(t *testing.T, data []byte) (tt, v []float64) {

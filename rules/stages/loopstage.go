@@ -33,25 +33,7 @@ const (
 // the coupling patterns took for a coupling capacitor) is absorbed: it is
 // returned in gone, and its parts belong to the oscillator.
 func loopStages(c, lc *graph.Circuit, acg map[string]bool, tops []*found) (out []*found, gone map[*found]bool) {
-	claimed := map[string]*found{}
-	named := map[string]bool{} // devices an oscillator or mixer stage holds
-	var walk func(f *found)
-	walk = func(f *found) {
-		for _, r := range f.Parts {
-			if _, ok := claimed[r]; !ok {
-				claimed[r] = f
-			}
-			if f.group == "oscillator" || f.group == "mixer" {
-				named[r] = true
-			}
-		}
-		for _, s := range f.subs {
-			walk(s)
-		}
-	}
-	for _, f := range tops {
-		walk(f)
-	}
+	claimed, named := claims(tops)
 	gone = map[*found]bool{}
 	for _, p := range c.Parts {
 		if !p.IsActive() || named[p.Ref] || claimed[p.Ref] != nil && hasLoop(claimed[p.Ref].Stage, p.Ref) {
@@ -71,40 +53,69 @@ func loopStages(c, lc *graph.Circuit, acg map[string]bool, tops []*found) (out [
 			slices.Sort(f.Flags)
 			continue
 		}
-		through := feedbackThrough(lc, p.Ref, l)
-		parts := loopParts(c, acg, p, through, claimed, gone)
-		if through == "" {
-			through = "an RC network"
-		}
-		st := &Stage{Topology: loopTopology, group: "oscillator", Family: deviceFamily(p),
-			Parts: parts, Figures: figure.List{}, Loop: []Loop{l}}
-		st.Title = expandTitle("Oscillator, feedback through "+through+" ({family})", st.Family)
-		if ifStage := ifOutput(c, p, tops); ifStage != nil {
-			st.Topology, st.group = loopMixerTopology, "mixer"
-			st.Title = expandTitle("Self-oscillating mixer, oscillator feedback through "+through+" ({family})", st.Family)
-			mixerFigures(c, st, l, ifStage)
-		}
-		f := &found{Stage: st, set: map[string]bool{}}
-		// The tank the feedback transformer tunes, named by its own
-		// pattern, is the oscillator's sub-stage, as a tank found inside
-		// a Hartley is.
-		if t := claimed[through]; t != nil && t.group == "tuned" && !gone[t] && slices.Contains(tops, t) {
-			gone[t] = true
-			f.subs = append(f.subs, t)
-			st.Parts = append(st.Parts, t.Parts...)
-			slices.Sort(st.Parts)
-			parts = slices.Compact(st.Parts)
-			st.Parts = parts
-		}
-		st.Flags = loopFlags(lc, st, l)
-		slices.Sort(st.Flags)
-		for _, r := range parts {
+		f := loopStage(c, lc, acg, p, l, tops, claimed, gone)
+		for _, r := range f.Parts {
 			f.set[r] = true
 			claimed[r] = f
 		}
 		out = append(out, f)
 	}
 	return out, gone
+}
+
+// claims maps each part to the stage (or sub-stage) that first holds it,
+// and marks the devices an oscillator or mixer stage holds.
+func claims(tops []*found) (claimed map[string]*found, named map[string]bool) {
+	claimed, named = map[string]*found{}, map[string]bool{}
+	var walk func(f *found)
+	walk = func(f *found) {
+		for _, r := range f.Parts {
+			if _, ok := claimed[r]; !ok {
+				claimed[r] = f
+			}
+			if f.group == "oscillator" || f.group == "mixer" {
+				named[r] = true
+			}
+		}
+		for _, s := range f.subs {
+			walk(s)
+		}
+	}
+	for _, f := range tops {
+		walk(f)
+	}
+	return claimed, named
+}
+
+// loopStage builds the stage of device p's unnamed oscillator: its parts,
+// the transformer its feedback goes through, a mixer's title and figures
+// when its output is tuned to the IF, the tank stage as a sub-stage.
+func loopStage(c, lc *graph.Circuit, acg map[string]bool, p *graph.Part, l Loop, tops []*found, claimed map[string]*found, gone map[*found]bool) *found {
+	through := feedbackThrough(lc, p.Ref, l)
+	parts := loopParts(c, acg, p, through, claimed, gone)
+	word := through
+	if word == "" {
+		word = "an RC network"
+	}
+	st := &Stage{Topology: loopTopology, group: "oscillator", Family: deviceFamily(p),
+		Parts: parts, Figures: figure.List{}, Loop: []Loop{l}}
+	st.Title = expandTitle("Oscillator, feedback through "+word+" ({family})", st.Family)
+	if ifStage := ifOutput(c, p, tops); ifStage != nil {
+		st.Topology, st.group = loopMixerTopology, "mixer"
+		st.Title = expandTitle("Self-oscillating mixer, oscillator feedback through "+word+" ({family})", st.Family)
+		mixerFigures(c, st, l, ifStage)
+	}
+	f := &found{Stage: st, set: map[string]bool{}}
+	// The tank the feedback transformer tunes, named by its own pattern,
+	// is the oscillator's sub-stage, as a tank found inside a Hartley is.
+	if t := claimed[through]; t != nil && t.group == "tuned" && !gone[t] && slices.Contains(tops, t) {
+		gone[t] = true
+		f.subs = append(f.subs, t)
+		st.Parts = slices.Compact(slices.Sorted(slices.Values(append(st.Parts, t.Parts...))))
+	}
+	st.Flags = loopFlags(lc, st, l)
+	slices.Sort(st.Flags)
+	return f
 }
 
 // loopHops is how far from the device's nets (and the feedback
