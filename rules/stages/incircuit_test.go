@@ -225,6 +225,14 @@ var formulaOnly = map[[2]string]string{
 	{"grid-leak-detector", "f_c"}:          "a grid-leak detector rectifies at the grid: the time constant of a DC level",
 	{"hartley-common-tap", "grid_f_c"}:     "an oscillator's grid-leak bias time constant, not a corner the signal passes",
 	{"self-oscillating-mixer", "grid_f_c"}: "an oscillator's grid-leak bias time constant, not a corner the signal passes",
+	{"grid-leak-detector-reaction", "f_c"}: "a grid-leak detector rectifies at the grid: the time constant of a DC level",
+	// A mixer found by its loop: osc_f is the solver's (the loop's 0°
+	// frequency) with no formula to cross-check it; the IF can and the dial
+	// follow from it.
+	{"self-oscillating-mixer-loop", "osc_f"}: "the loop's own solver figure: no formula describes an oscillator no pattern names",
+	{"self-oscillating-mixer-loop", "ift_f"}: "the IF can's resonance, copied from its own stage's formula (known gap)",
+	{"self-oscillating-mixer-loop", "sig_f"}: "signal = oscillator − IF from the loop's range (known gap)",
+	{"rc-phase-shift-degenerated", "f"}:      "the in-circuit frequency is the loop's, in the stage's loop line (known gap: not yet the figure)",
 }
 
 // Every figure of the kinds the solver gives, on every example and
