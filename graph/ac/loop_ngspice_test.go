@@ -243,7 +243,13 @@ func TestLoopGainAgainstNgspiceTransient(t *testing.T) {
 				continue
 			}
 			name := filepath.Base(file) + "/" + p.Ref
-			t.Run(name, func(t *testing.T) { checkLoopTran(t, bin, c, p.Ref) })
+			// Each run loads its own copy, so parallel runs share no circuit
+			// (a circuit's connection index is built on first use), and
+			// ngspice, single-threaded, keeps both cores busy.
+			t.Run(name, func(t *testing.T) {
+				t.Parallel()
+				checkLoopTran(t, bin, load(t, file), p.Ref)
+			})
 		}
 	}
 }
