@@ -25,11 +25,7 @@ type Response struct {
 // NewTransfer is V(out)/V(in) with in driven by an ideal 1 V source, as
 // Transfer solves it.
 func NewTransfer(c *graph.Circuit, in, out string, o Options) (*Response, error) {
-	nl, err := elaborate(c, o)
-	if err != nil {
-		return nil, err
-	}
-	n, m, err := twoNodes(c, nl, in, out)
+	nl, n, m, err := elaborateTwo(c, o, in, out)
 	if err != nil {
 		return nil, err
 	}
@@ -53,11 +49,7 @@ func NewTransfer(c *graph.Circuit, in, out string, o Options) (*Response, error)
 // its damping, which an ideal voltage source would short. With out = in it
 // is the driving-point impedance (Impedance).
 func NewTransimpedance(c *graph.Circuit, in, out string, o Options) (*Response, error) {
-	nl, err := elaborate(c, o)
-	if err != nil {
-		return nil, err
-	}
-	n, m, err := twoNodes(c, nl, in, out)
+	nl, n, m, err := elaborateTwo(c, o, in, out)
 	if err != nil {
 		return nil, err
 	}
@@ -80,11 +72,7 @@ func NewTransimpedance(c *graph.Circuit, in, out string, o Options) (*Response, 
 // end is at AC ground (a secondary whose cold end returns through a
 // capacitor); with b at AC ground it is the driving-point impedance of a.
 func NewAcross(c *graph.Circuit, a, b string, o Options) (*Response, error) {
-	nl, err := elaborate(c, o)
-	if err != nil {
-		return nil, err
-	}
-	n, m, err := twoNodes(c, nl, a, b)
+	nl, n, m, err := elaborateTwo(c, o, a, b)
 	if err != nil {
 		return nil, err
 	}
@@ -152,4 +140,15 @@ func Transimpedance(c *graph.Circuit, in, out string, freqs []float64, o Options
 		}
 	}
 	return res, nil
+}
+
+// elaborateTwo elaborates the circuit and finds the solver nodes of two nets:
+// the first step of every single response.
+func elaborateTwo(c *graph.Circuit, o Options, a, b string) (*netlist, int, int, error) {
+	nl, err := elaborate(c, o)
+	if err != nil {
+		return nil, 0, 0, err
+	}
+	n, m, err := twoNodes(c, nl, a, b)
+	return nl, n, m, err
 }
