@@ -197,6 +197,16 @@ func (f Figure) CheckDiffers() bool {
 	switch {
 	case c == nil:
 		return false
+	case f.Points != nil || c.Points != nil:
+		if len(f.Points) != len(c.Points) {
+			return true
+		}
+		for i, v := range f.Points {
+			if Differs(v, c.Points[i]) {
+				return true
+			}
+		}
+		return false
 	case f.Range != nil && c.Range != nil:
 		return Differs(f.Range.Min, c.Range.Min) || Differs(f.Range.Max, c.Range.Max)
 	case f.Range == nil && c.Range == nil:

@@ -3,6 +3,7 @@ package figure
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"pare/graph/value"
@@ -128,7 +129,11 @@ func (f Figure) CheckLine(m Medium) string {
 	if !f.CheckDiffers() {
 		return s + ", within " + Plain(100*CheckAgreement) + " %"
 	}
-	s += ", " + Plain(100*f.checkOff()) + " % off"
+	if n, m := len(f.Points), len(c.Points); n != m {
+		s += ", " + strconv.Itoa(m) + " against " + strconv.Itoa(n) + " in circuit"
+	} else {
+		s += ", " + Plain(100*f.checkOff()) + " % off"
+	}
 	if f.Why != "" {
 		s += ": " + f.Why
 	}
@@ -141,6 +146,12 @@ func (f Figure) checkOff() float64 {
 	c := f.Check
 	off := func(a, b float64) float64 { return math.Abs(b-a) / math.Abs(a) }
 	switch {
+	case f.Points != nil || c.Points != nil:
+		worst := 0.0 // over the pairs both have; CheckLine says when the counts part
+		for i := 0; i < len(f.Points) && i < len(c.Points); i++ {
+			worst = math.Max(worst, off(f.Points[i], c.Points[i]))
+		}
+		return worst
 	case f.Range != nil && c.Range != nil:
 		return math.Max(off(f.Range.Min, c.Range.Min), off(f.Range.Max, c.Range.Max))
 	case f.Range == nil && c.Range == nil:
