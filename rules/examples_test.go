@@ -238,10 +238,11 @@ func oscillatorMixer(t *testing.T, path string, lvl Level) {
 	if strings.Join(live, ",") != "a,g1,k" {
 		t.Errorf("V1 keeps %v, want a, g1, k", live)
 	}
-	// The oscillator section: gang 12–365 pF + trimmer 41 pF = 53–406 pF
-	// (derived: sum); the 380 pF padder stays its own part in series.
+	// The oscillator section: gang 12–365 pF + trimmer 36.3 pF =
+	// 48.3–401.3 pF (derived: sum); the 390 pF padder stays its own part in
+	// series.
 	sec := r.Part("VC1b")
-	lo, hi := 53e-12, 406e-12
+	lo, hi := 48.3e-12, 401.3e-12
 	if !near(sec.Value.Min, lo, 1e-6) || !near(sec.Value.Max, hi, 1e-6) || sec.Gang != "tune" {
 		t.Errorf("%s: oscillator section %v gang %q, want %g–%g F on gang tune", lvl, sec.Value, sec.Gang, lo, hi)
 	}

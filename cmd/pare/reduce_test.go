@@ -42,7 +42,7 @@ func TestReduceSummary(t *testing.T) {
 	if !strings.Contains(out, "gang tune: VC1a, VC1b") {
 		t.Errorf("gang annotation missing:\n%s", out)
 	}
-	if !strings.Contains(out, "frequency-changer.toml:49") { // C6, the anode bypass, is on line 49
+	if !strings.Contains(out, "frequency-changer.toml:53") { // C6, the anode bypass, is on line 53
 		t.Errorf("steps should name parts with file:line:\n%s", out)
 	}
 }

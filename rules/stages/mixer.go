@@ -225,7 +225,7 @@ func calcMixer(x *figCtx) {
 				hz(omin), hz(omax), hz(ifHz), hz(smin), hz(smax), hz(b.Min), hz(b.Max))
 		}
 	}
-	x.tracking(osc.original(oc, x.w.orig), ifHz)
+	x.tracking(osc, oc, ifHz)
 }
 
 // intermediate writes the IF transformer's tuning and the IF, and returns

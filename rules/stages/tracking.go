@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"sort"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -12,44 +11,60 @@ import (
 
 // The tracking figures of a ganged frequency changer, by the names a
 // figure's origin gives them (docs/references.md §2; numerical solutions).
+// The solver's walk is the figure; the parts' formula is its cross-check.
 var (
-	byTrackError = figure.ByFormula("fosc − (fsig + IF), worst over the dial")
-	byTrackAt    = figure.ByFormula("fsig where the tracking error is worst")
-	byTrackFit   = figure.ByFormula("fosc = fsig + IF, crossings over the dial")
-	byThreePoint = figure.ByFormula("three-point tracking at 6 %, 49 % and 91.5 % of the signal range")
+	byTrackError    = figure.ByFormula("fosc − (fsig + IF) on the tanks' own parts, worst over the dial")
+	byTrackAt       = figure.ByFormula("fsig where the tracking error is worst")
+	byTrackFit      = figure.ByFormula("fosc = fsig + IF on the tanks' own parts, crossings over the dial")
+	byThreePoint    = figure.ByFormula("three-point tracking at 6 %, 49 % and 91.5 % of the signal range, on the tanks' own parts")
+	byThreePointInC = figure.ByFormula("three-point tracking at 6 %, 49 % and 91.5 % of the signal range in circuit, signal tank fitted to its ends in circuit, oscillator tank's own parts (strays across it not counted)")
+	trackWhat       = "fosc − (fsig + IF), each the peak of |Z| across its coil"
 )
 
-// tracking compares the oscillator with the signal tank ganged to it. Both
+// trackingFormulaRefine is the bisection steps of the formula's crossings:
+// the formula costs nothing, so to the bottom of float64.
+const trackingFormulaRefine = 60
+
+// tracking compares the oscillator tank osc (in the reduced circuit; oc
+// its coil) with the signal tank ganged to it: in circuit by the solver
+// (solveTracking), with the formula on the original parts beside it. Both
 // sections turn together; capacitance is taken as linear in rotation (the
 // gang's plate shape is not in the netlist).
-func (x *figCtx) tracking(osc *tankModel, ifHz float64) {
-	var gangCap *graph.Part
-	for _, p := range osc.caps {
-		if p.Gang != "" && p.Type == graph.CapVariable {
-			gangCap = p
-			break
-		}
-	}
+func (x *figCtx) tracking(osc *tankModel, oc coilEnds, ifHz float64) {
+	model := osc.original(oc, x.w.orig)
+	gangCap := gangSection(model.caps)
 	if gangCap == nil {
 		return
 	}
-	sig := findGangTank(osc.w, gangCap, osc.caps)
+	sig := findGangTank(model.w, gangCap, model.caps)
 	if sig == nil {
 		return
 	}
-	x.trackingError(sig, osc, ifHz)
-	fitted := fittedTracking(sig.f, osc.f, ifHz)
-	if len(fitted) > 0 {
-		x.put(figure.Figure{Name: "track_fit", Unit: figure.Hertz, Points: fitted, Origin: byTrackFit})
+	formula, ok := walkDial(func(th float64) (float64, float64, bool) { return sig.f(th), model.f(th), true },
+		ifHz, trackingScan, trackingFormulaRefine)
+	if !ok {
+		return
 	}
-	fittedText := "the fitted set tracks exactly nowhere on the dial"
-	if len(fitted) > 0 {
-		fittedText = "the fitted set tracks exactly at " + hzList(fitted)
+	walk, solvedOK := x.solveTracking(osc, sig, model, ifHz)
+	var sv *trackWalk
+	if solvedOK {
+		sv = &walk
 	}
-	ideal := TrackingPoints(sig.f(1), sig.f(0))
-	x.st.Notes = append(x.st.Notes, fmt.Sprintf("tracking: %s and %s turn together, capacitance taken as linear in rotation; %s; a suggested three-point design would be exact at %s",
-		gangCap.Ref, sig.gangRef(gangCap.Gang), fittedText, hzList(ideal[:])))
-	x.suggestDesign(sig, gangCap.Gang, ifHz)
+	why := func() string { return trackWhy(sig, model, walk) }
+	x.trackingError(formula, sv, ifHz, why)
+	x.trackingFits(formula, sv, why)
+	x.trackingNote(gangCap.Ref+" and "+sig.gangRef(gangCap.Gang), formula, sv, sig)
+	x.suggestDesign(sig, gangCap.Gang, ifHz, sv)
+}
+
+// trackWhy says what each coil resonates with in circuit at least
+// capacitance against what the formula counts there.
+func trackWhy(sig, osc *tankModel, walk trackWalk) string {
+	c := func(l, f float64) string {
+		return figure.Format(1/(math.Pow(2*math.Pi*f, 2)*l), figure.Farad, figure.Text)
+	}
+	return fmt.Sprintf("with the gang at least capacitance the signal coil resonates in circuit with %s (formula %s) and the oscillator coil with %s (formula %s): strays and loads the formula leaves out move the tracking",
+		c(sig.l, walk.fs[0]), c(sig.l, sig.f(0)), c(osc.l, walk.fo[0]), c(osc.l, osc.f(0)))
 }
 
 // hzList writes frequencies as prose: "600 kHz, 1.1 MHz and 1.6 MHz".
@@ -58,30 +73,83 @@ func hzList(fs []float64) string {
 }
 
 // trackingError writes the worst error of the oscillator against signal +
-// IF over the dial, and where on the dial it is, and flags it when it is
-// large.
-func (x *figCtx) trackingError(sig, osc *tankModel, ifHz float64) {
-	worst, worstAt := 0.0, 0.0
-	const steps = 100
-	for i := 0; i <= steps; i++ {
-		th := float64(i) / steps
-		fs, fo := sig.f(th), osc.f(th)
-		if e := fo - (fs + ifHz); math.Abs(e) > math.Abs(worst) {
-			worst, worstAt = e, fs
+// IF over the dial, and where on the dial it is: the solver's walk (sv; nil
+// when it did not solve) with the formula's beside it. It flags the error
+// when it is large.
+func (x *figCtx) trackingError(formula trackWalk, sv *trackWalk, ifHz float64, why func() string) {
+	errFig := func(w trackWalk, o figure.Origin) *figure.Figure {
+		at := figure.Figure{Name: "track_err_at", Unit: figure.Hertz, Value: w.worstAt, Origin: byTrackAt}
+		if o.Source == figure.Solver {
+			at.Origin = o
 		}
+		return &figure.Figure{Name: "track_err_max", Unit: figure.Hertz, Value: w.worst, At: &at, Origin: o}
 	}
-	at := figure.Figure{Name: "track_err_at", Unit: figure.Hertz, Value: worstAt, Origin: byTrackAt}
-	x.put(figure.Figure{Name: "track_err_max", Unit: figure.Hertz, Value: worst, At: &at, Origin: byTrackError})
+	check := errFig(formula, byTrackError)
+	worst := formula
+	var solved *figure.Figure
+	if sv != nil {
+		solved, worst = errFig(*sv, figure.BySolver(trackWhat, gangWalk)), *sv
+	}
+	x.putChecked(solved, check, why)
 	// Common practice, no source: tracking should stay well inside the IF
 	// pass-band; 2 % of the IF (9 kHz at 455 kHz) is taken as the line.
-	if math.Abs(worst) > 0.02*ifHz {
-		x.flag("oscillator tracking is off by up to %s (at %s on the dial): check the padder and trimmers", hz(worst), hz(worstAt))
+	if math.Abs(worst.worst) > 0.02*ifHz {
+		x.flag("oscillator tracking is off by up to %s (at %s on the dial): check the padder and trimmers", hz(worst.worst), hz(worst.worstAt))
 	}
 }
 
+// gangWalk is where the solver's tracking figures were solved.
+var gangWalk = fmt.Sprintf("%d gang settings over the travel", trackSettings+1)
+
+// trackingFits writes where the set tracks exactly: the solver's crossings
+// with the formula's beside them. Where the solver finds none, there is no
+// figure (the note says so): the formula's would claim what the circuit
+// does not do.
+func (x *figCtx) trackingFits(formula trackWalk, sv *trackWalk, why func() string) {
+	var check *figure.Figure
+	if len(formula.fits) > 0 {
+		check = &figure.Figure{Name: "track_fit", Unit: figure.Hertz, Points: formula.fits, Origin: byTrackFit}
+	}
+	if sv == nil {
+		x.putChecked(nil, check, nil)
+		return
+	}
+	if len(sv.fits) == 0 {
+		return
+	}
+	solved := &figure.Figure{Name: "track_fit", Unit: figure.Hertz, Points: sv.fits,
+		Origin: figure.BySolver("fosc = fsig + IF, crossings of "+trackWhat, gangWalk)}
+	x.putChecked(solved, check, why)
+}
+
+// trackingNote says in words where the set tracks: in circuit, and by the
+// parts' formula, and where a suggested design would.
+func (x *figCtx) trackingNote(sections string, formula trackWalk, sv *trackWalk, sig *tankModel) {
+	where := func(fits []float64) string {
+		if len(fits) == 0 {
+			return "nowhere on the dial"
+		}
+		return "at " + hzList(fits)
+	}
+	text := "the fitted set tracks exactly " + where(formula.fits)
+	if sv != nil {
+		text = "in circuit the set tracks exactly " + where(sv.fits) + "; by the formula on its parts alone, " + where(formula.fits)
+	}
+	lo, hi := sig.f(1), sig.f(0)
+	if sv != nil {
+		lo, hi = sv.fs[1], sv.fs[0]
+	}
+	ideal := TrackingPoints(lo, hi)
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("tracking: %s turn together, capacitance taken as linear in rotation; %s; a suggested three-point design would be exact at %s",
+		sections, text, hzList(ideal[:])))
+}
+
 // suggestDesign writes the oscillator coil, trimmer and padder that would
-// track exactly at the three customary points of the signal tank's range.
-func (x *figCtx) suggestDesign(sig *tankModel, gangName string, ifHz float64) {
+// track exactly at the three customary points of the signal range: the
+// signal tank as the solver finds it (its coil and fixed capacitance
+// fitted to its two ends in circuit; sv nil: its own parts), the
+// oscillator tank's own parts alone.
+func (x *figCtx) suggestDesign(sig *tankModel, gangName string, ifHz float64, sv *trackWalk) {
 	var gang *graph.Part
 	for _, p := range sig.caps {
 		if p.Gang == gangName && p.Type == graph.CapVariable {
@@ -91,58 +159,31 @@ func (x *figCtx) suggestDesign(sig *tankModel, gangName string, ifHz float64) {
 	if gang == nil {
 		return
 	}
+	l := sig.l
 	fixed := capBetween(sig.w, sig.caps, sig.a, sig.b, 0) - gang.Capacitance(0)
 	pts := TrackingPoints(sig.f(1), sig.f(0))
-	sol, err := ThreePoint(sig.l, fixed, ifHz, pts)
+	o := byThreePoint
+	if sv != nil {
+		// L(Cg+Ct) = 1/ω² at both ends: two equations in L and Ct
+		inv := func(f float64) float64 { return 1 / math.Pow(2*math.Pi*f, 2) }
+		l = (inv(sv.fs[1]) - inv(sv.fs[0])) / (gang.Capacitance(1) - gang.Capacitance(0))
+		fixed = inv(sv.fs[0])/l - gang.Capacitance(0)
+		pts, o = TrackingPoints(sv.fs[1], sv.fs[0]), byThreePointInC
+	}
+	sol, err := ThreePoint(l, fixed, ifHz, pts)
 	if err != nil {
 		return
 	}
-	x.put(figure.Figure{Name: "track_f", Unit: figure.Hertz, Points: pts[:], Origin: byThreePoint})
-	x.set("pad_c", figure.Farad, sol.Padder, byThreePoint)
-	x.set("pad_trim", figure.Farad, sol.Trimmer, byThreePoint)
-	x.set("pad_l", figure.Henry, sol.L, byThreePoint)
+	x.put(figure.Figure{Name: "track_f", Unit: figure.Hertz, Points: pts[:], Origin: o})
+	x.set("pad_c", figure.Farad, sol.Padder, o)
+	x.set("pad_trim", figure.Farad, sol.Trimmer, o)
+	x.set("pad_l", figure.Henry, sol.L, o)
 }
 
-// trackingScan is how finely fittedTracking walks the dial before it
-// closes in on a crossing: fine enough that two crossings never fall in one
-// step of a broadcast gang.
+// trackingScan is how finely the formula's walk steps over the dial before
+// it closes in on a crossing: fine enough that two crossings never fall in
+// one step of a broadcast gang.
 const trackingScan = 2000
-
-// fittedTracking is where the fitted parts track exactly: the dial points
-// (as signal frequencies, low to high) where the oscillator minus the
-// signal frequency crosses the IF, fosc − (fsig + IF) = 0. Each sign change
-// over the scan is narrowed by bisection.
-func fittedTracking(sig, osc func(th float64) float64, ifHz float64) []float64 {
-	errAt := func(th float64) float64 { return osc(th) - (sig(th) + ifHz) }
-	var out []float64
-	prevTh, prevE := 0.0, errAt(0)
-	if prevE == 0 {
-		out = append(out, sig(0))
-	}
-	for i := 1; i <= trackingScan; i++ {
-		th := float64(i) / trackingScan
-		e := errAt(th)
-		switch {
-		case e == 0:
-			out = append(out, sig(th))
-		case prevE != 0 && math.Signbit(e) != math.Signbit(prevE):
-			lo, hi, elo := prevTh, th, prevE
-			for range 60 {
-				mid := (lo + hi) / 2
-				em := errAt(mid)
-				if math.Signbit(em) == math.Signbit(elo) {
-					lo, elo = mid, em
-				} else {
-					hi = mid
-				}
-			}
-			out = append(out, sig((lo+hi)/2))
-		}
-		prevTh, prevE = th, e
-	}
-	sort.Float64s(out)
-	return out
-}
 
 // TrackingPoints are the three dial frequencies where a padded oscillator is
 // made to track exactly: at 6 %, 49 % and 91.5 % of the signal range, which

@@ -1,0 +1,211 @@
+package stages
+
+import (
+	"math"
+	"sort"
+
+	"pare/graph"
+	"pare/graph/ac"
+)
+
+// In-circuit tracking. The oscillator and the signal tank a gang turns
+// together are solved as each sits in the circuit, at settings across the
+// whole travel: the frequency of each is the peak of the impedance across
+// its coil with the devices quiet (as the oscillator's own f is), so every
+// stray and load the circuit puts across either tank counts. The tracking
+// error fosc − (fsig + IF) then comes from the same circuit that gives the
+// oscillator's and the signal tank's ranges; the parts' formula stays
+// beside it as the cross-check.
+
+// trackSettings is how many steps the solver's dial walk takes: a broadcast
+// gang's error curve crosses zero at most three times, and 32 steps keep two
+// crossings of a customary design (6 %, 49 %, 91.5 % of the range) at least
+// four steps apart. trackRefine is the bisection steps on a crossing:
+// 2⁻¹² of a step, far below a hertz on the dial.
+const (
+	trackSettings = 32
+	trackRefine   = 12
+)
+
+// dialCurve gives, at a gang setting th (0 at least capacitance), the
+// signal tank's frequency and the oscillator's; ok is false where either
+// is not found.
+type dialCurve func(th float64) (fs, fo float64, ok bool)
+
+// trackWalk is a tracking curve as walked over the dial: the worst error
+// and the signal frequency where it occurs, the signal frequencies where
+// the error crosses zero (low to high), and the frequencies at the two
+// ends of the travel (index 0 at least capacitance).
+type trackWalk struct {
+	worst, worstAt float64
+	fits           []float64
+	fs, fo         [2]float64
+}
+
+// walkDial walks curve at n+1 settings from least to full capacitance: the
+// worst error over them, and each sign change of the error narrowed by
+// refine bisections. ok is false where the curve fails at any setting.
+func walkDial(curve dialCurve, ifHz float64, n, refine int) (trackWalk, bool) {
+	var w trackWalk
+	errAt := func(th float64) (e, fs float64, ok bool) {
+		fs, fo, ok := curve(th)
+		return fo - (fs + ifHz), fs, ok
+	}
+	prevE := 0.0
+	for i := 0; i <= n; i++ {
+		th := float64(i) / float64(n)
+		e, fs, ok := errAt(th)
+		if !ok {
+			return w, false
+		}
+		if i == 0 || i == n {
+			k := i / n
+			w.fs[k], w.fo[k] = fs, e+fs+ifHz
+		}
+		if i == 0 || math.Abs(e) > math.Abs(w.worst) {
+			w.worst, w.worstAt = e, fs
+		}
+		switch {
+		case e == 0:
+			w.fits = append(w.fits, fs)
+		case i > 0 && prevE != 0 && math.Signbit(e) != math.Signbit(prevE):
+			f, ok := narrowCrossing(errAt, float64(i-1)/float64(n), th, prevE, refine)
+			if !ok {
+				return w, false
+			}
+			w.fits = append(w.fits, f)
+		}
+		prevE = e
+	}
+	sort.Float64s(w.fits)
+	return w, true
+}
+
+// narrowCrossing bisects lo..hi (the error elo at lo, of the other sign at
+// hi) and returns the signal frequency at the middle of the last interval.
+func narrowCrossing(errAt func(float64) (float64, float64, bool), lo, hi, elo float64, refine int) (float64, bool) {
+	for range refine {
+		mid := (lo + hi) / 2
+		em, _, ok := errAt(mid)
+		if !ok {
+			return 0, false
+		}
+		if math.Signbit(em) == math.Signbit(elo) {
+			lo, elo = mid, em
+		} else {
+			hi = mid
+		}
+	}
+	_, fs, ok := errAt((lo + hi) / 2)
+	return fs, ok
+}
+
+// tankNets are a tank's coil ends as the solver names them: hot off
+// ground, other "" where that end is the ground.
+type tankNets struct{ hot, other string }
+
+// tankNetsOf names the folded nets a and b for the solver; ok is false when
+// neither is off ground.
+func (x *figCtx) tankNetsOf(a, b int) (tankNets, bool) {
+	if a == groundNet {
+		a, b = b, a
+	}
+	t := tankNets{hot: x.netName(a), other: x.netName(b)}
+	return t, t.hot != ""
+}
+
+// tankResponse is the impedance across a tank at gang setting g: from its
+// hot end to ground, or across both ends where neither is ground.
+func tankResponse(c *graph.Circuit, t tankNets, g gang) (*ac.Response, error) {
+	if t.other == "" {
+		return ac.NewTransimpedance(c, t.hot, t.hot, g.options())
+	}
+	return ac.NewAcross(c, t.hot, t.other, g.options())
+}
+
+// tankAt is a tank's resonance in circuit c at gang setting frac: the peak
+// of its impedance nearest guess, searched within a factor trackNear of
+// it, then 1.5, then tankSearch. The nearest first: the other tank's
+// resonance shows through the coupling between them (strongest where a
+// winding has no loss), and can stand higher than this one's own.
+func tankAt(c *graph.Circuit, t tankNets, frac, guess float64) (float64, bool) {
+	r, err := tankResponse(c, t, gang{frac: frac})
+	if err != nil || !(guess > 0) {
+		return 0, false
+	}
+	for _, k := range []float64{trackNear, 1.5, tankSearch} {
+		if f, _, ok := peakOf(r, guess/k, guess*k); ok {
+			return f, true
+		}
+	}
+	return 0, false
+}
+
+// trackNear is the first search window of tankAt: well inside the ratio of
+// an oscillator to its signal tank (at least (1.6 + 0.455)/1.6 = 1.28 on a
+// broadcast band), well outside the step of a guess carried from the last
+// setting solved (a few parts in a thousand).
+const trackNear = 1.1
+
+// follow is a guess for a tank's frequency at setting th: the last solved
+// frequency moved as the formula moves between the two settings, the
+// formula's own before the first solve. It keeps the search on the same
+// peak across the dial.
+type follow struct {
+	formula      func(th float64) float64
+	lastTh, last float64
+}
+
+func (g *follow) at(th float64) float64 {
+	if g.last == 0 {
+		return g.formula(th)
+	}
+	return g.last * g.formula(th) / g.formula(g.lastTh)
+}
+
+func (g *follow) solved(th, f float64) { g.lastTh, g.last = th, f }
+
+// solveTracking walks the dial in circuit: the oscillator tank osc and the
+// signal tank the same gang turns, each found in the circuit the solver
+// sees, with the formula models (sigF, oscF, in the original circuit) as
+// the guesses where to look. ok is false when either tank is not found in
+// the reduced circuit or a peak is missing.
+func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackWalk, bool) {
+	gangCap := gangSection(osc.caps)
+	if !x.solve || gangCap == nil {
+		return trackWalk{}, false
+	}
+	sig := findGangTank(x.w, gangCap, osc.caps)
+	if sig == nil {
+		return trackWalk{}, false
+	}
+	on, ok1 := x.tankNetsOf(osc.a, osc.b)
+	sn, ok2 := x.tankNetsOf(sig.a, sig.b)
+	if !ok1 || !ok2 {
+		return trackWalk{}, false
+	}
+	c := quiet(x.solverCircuit())
+	gs, gosc := &follow{formula: sigF.f}, &follow{formula: oscF.f}
+	curve := func(th float64) (float64, float64, bool) {
+		fs, ok := tankAt(c, sn, th, gs.at(th))
+		if !ok {
+			return 0, 0, false
+		}
+		fo, ok := tankAt(c, on, th, gosc.at(th))
+		gs.solved(th, fs)
+		gosc.solved(th, fo)
+		return fs, fo, ok
+	}
+	return walkDial(curve, ifHz, trackSettings, trackRefine)
+}
+
+// gangSection is the first ganged variable capacitor among caps, nil when
+// there is none.
+func gangSection(caps []*graph.Part) *graph.Part {
+	for _, p := range caps {
+		if p.Gang != "" && p.Type == graph.CapVariable {
+			return p
+		}
+	}
+	return nil
+}
