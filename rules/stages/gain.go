@@ -125,6 +125,7 @@ func calcGain(x *figCtx) {
 	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: a, Origin: figure.ByFormula(name)}
 	sv, why := x.solveGain(p, form, d, rl)
 	x.putChecked(sv, &check, why)
+	x.stageImpedances(p, form, d, rk)
 	if g, ok := x.get("gain"); ok && g.Value != 0 {
 		x.set("gain", figure.Decibel, 20*math.Log10(math.Abs(g.Value)), byDecibels)
 	}

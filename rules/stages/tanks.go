@@ -70,6 +70,7 @@ func calcTank(x *figCtx) {
 		return
 	}
 	x.tankFigures(c.ref, c.l, c.a, c.b, x.parts("caps"))
+	x.loadedQ(c.ref, c.q)
 	if x.word("check", "") == "if" {
 		if f, ok := x.get("f"); ok && f.Range == nil {
 			x.checkIF(c.ref, f.Value)
