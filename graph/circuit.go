@@ -86,6 +86,11 @@ type Circuit struct {
 	Outputs []string           `json:"outputs,omitempty"` // signal output nets
 	Nets    []*Net             `json:"nets"`
 	Parts   []*Part            `json:"parts"`
+	// Rails are the rail nets (supply, bias, heater) a reduction joined into
+	// another net, with their role, volts and label, sorted by name: the
+	// pins that returned to them name them in Pin.Rail, so that a drawing
+	// labels such a return with its rail, never as chassis (rails.go).
+	Rails []*Net `json:"rails,omitempty"`
 
 	// Comments written above top-level keys, kept so `pare fmt` does not throw
 	// away what the user typed. Keyed by key path ("title", "parts.R1", ...).
@@ -132,6 +137,10 @@ type Net struct {
 type Pin struct {
 	Name string `json:"name"`
 	Net  string `json:"net"`
+	// Rail is the rail net this terminal returned to before a reduction
+	// joined that rail into another net (AC ground, mostly); empty when the
+	// terminal never sat on a rail that went. Set only by JoinNets.
+	Rail string `json:"rail,omitempty"`
 	Pos  Pos    `json:"-"`
 }
 

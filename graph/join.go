@@ -12,6 +12,7 @@ func (c *Circuit) JoinNets(keep, gone string) {
 	}
 	ix := c.index()
 	k := c.EnsureNet(keep, Pos{})
+	rail := c.retireRail(ix.nets[gone])
 	if g := ix.nets[gone]; g != nil {
 		if roleRank(g.Role) > roleRank(k.Role) {
 			k.Role, k.Volts = g.Role, g.Volts
@@ -22,8 +23,11 @@ func (c *Circuit) JoinNets(keep, gone string) {
 	}
 	for _, cn := range ix.conns[gone] {
 		for i := range cn.Part.Pins {
-			if cn.Part.Pins[i].Net == gone && cn.Part.Pins[i].Name == cn.Pin {
-				cn.Part.Pins[i].Net = keep
+			if pn := &cn.Part.Pins[i]; pn.Net == gone && pn.Name == cn.Pin {
+				pn.Net = keep
+				if pn.Rail == "" {
+					pn.Rail = rail
+				}
 			}
 		}
 	}

@@ -40,6 +40,11 @@ func (c *Circuit) Clone() *Circuit {
 		nn := *n
 		d.Nets[i] = &nn
 	}
+	d.Rails = make([]*Net, len(c.Rails))
+	for i, n := range c.Rails {
+		nn := *n
+		d.Rails[i] = &nn
+	}
 	d.Parts = make([]*Part, len(c.Parts))
 	for i, p := range c.Parts {
 		d.Parts[i] = p.Clone()

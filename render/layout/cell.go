@@ -91,18 +91,6 @@ func corridor(p geom.Pin) geom.Rect {
 	return geom.Rect{X0: r.X0 - 1, Y0: r.Y0, X1: r.X1 + 1, Y1: r.Y1}
 }
 
-// railText is what a rail symbol says: the net's label, else its voltage,
-// else its name.
-func railText(n *graph.Net, name string) string {
-	if n != nil && n.Label != "" {
-		return n.Label
-	}
-	if n != nil && n.Volts != 0 {
-		return formatG(n.Volts) + " V"
-	}
-	return name
-}
-
 // buildLocals attaches a local symbol to every pin on a ground, supply,
 // heater or bias net: grounds first (they are compact), then rails, each at
 // the shortest stub that keeps clear of everything placed so far.
@@ -119,13 +107,16 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 	}
 	for pass := 0; pass < 2; pass++ {
 		for _, p := range cl.shape.Pins {
-			role := c.RoleOf(p.Net)
-			if !role.IsACGround() || (role == graph.Ground) != (pass == 0) {
+			if !c.RoleOf(p.Net).IsACGround() {
+				continue
+			}
+			ret, role := pinReturn(c, cl.part, p), pinRole(c, cl.part, p)
+			if (role == graph.Ground) != (pass == 0) {
 				continue
 			}
 			var best *geom.Local
 			for s := 1.0; s <= 6 && best == nil; s++ {
-				for _, l := range localCandidates(c, p, role, s) {
+				for _, l := range localCandidates(p, ret, role, s) {
 					if !obs.hits(l.Box.Inset(0.15), l.Stub) {
 						ll := l
 						best = &ll
@@ -134,7 +125,7 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 				}
 			}
 			if best == nil {
-				l := localCandidates(c, p, role, 6)[0]
+				l := localCandidates(p, ret, role, 6)[0]
 				best = &l
 			}
 			best.Owner, best.Faded = cl.ref, cl.faded
@@ -146,8 +137,9 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 }
 
 // localCandidates lists the ways a local symbol can hang from pin p with a
-// stub of length s, best first.
-func localCandidates(c *graph.Circuit, p geom.Pin, role graph.Role, s float64) []geom.Local {
+// stub of length s, best first: the earth symbol for chassis, else a rail
+// tag saying ret, the rail the pin returns to.
+func localCandidates(p geom.Pin, ret *graph.Net, role graph.Role, s float64) []geom.Local {
 	step := p.Dir.Step()
 	end := geom.Pt{X: p.At.X + s*step.X, Y: p.At.Y + s*step.Y}
 	base := geom.Local{Net: p.Net, Pin: p.Name, Side: p.Dir}
@@ -169,7 +161,7 @@ func localCandidates(c *graph.Circuit, p geom.Pin, role graph.Role, s float64) [
 		_, l.Box = symbol.Ground(l.At, !l.Down)
 		return []geom.Local{l}
 	}
-	text := railText(c.Net(p.Net), p.Net)
+	text := railText(ret, p.Net)
 	w := symbol.TextWidth(text) * symbol.SmallScale
 	h := symbol.LineH * symbol.SmallScale
 	l := base

@@ -29,7 +29,7 @@ func (ly *state) orient() {
 		for i, o := range base.Turns {
 			s := base.Oriented(o)
 			score := ly.score(cl, s)
-			if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, base.Oriented(base.Turns[t])) {
+			if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, cl.part, base.Oriented(base.Turns[t])) {
 				score = 0
 				if t == i {
 					score = 1
@@ -43,37 +43,33 @@ func (ly *state) orient() {
 	}
 }
 
-// upright says whether a symbol keeps grounds from pointing up and rails
-// from pointing down: the search for fewer crossings may only choose such.
-func upright(c *graph.Circuit, s symbol.Shape) bool {
+// upright says whether a symbol keeps grounds and low rails from pointing
+// up and high rails from pointing down (railWant): the search for fewer
+// crossings may only choose such.
+func upright(c *graph.Circuit, part *graph.Part, s symbol.Shape) bool {
 	for _, p := range s.Pins {
-		switch c.RoleOf(p.Net) {
-		case graph.Ground, graph.Bias:
-			if p.Dir == geom.Up {
-				return false
-			}
-		case graph.Supply, graph.Heater:
-			if p.Dir == geom.Down {
-				return false
-			}
+		if !c.RoleOf(p.Net).IsACGround() {
+			continue
+		}
+		if want, ok := railWant(c, part, p); ok && p.Dir == geom.Dir((int(want)+2)%4) {
+			return false
 		}
 	}
 	return true
 }
 
-// score rates an orientation of a cell: ground and bias pins down, supply
-// and heater pins up, signal pins towards the rest of their net, and a part
+// score rates an orientation of a cell: ground and low rails down, high
+// rails up (railWant), signal pins towards the rest of their net, and a part
 // whose pins are all signal pins lying along the signal path.
 func (ly *state) score(cl *cell, s symbol.Shape) float64 {
 	score := 0.0
 	horizontalSignal := 0
 	signal := 0
 	for _, p := range s.Pins {
-		switch ly.c.RoleOf(p.Net) {
-		case graph.Ground, graph.Bias:
-			score += railScore(p.Dir, geom.Down)
-		case graph.Supply, graph.Heater:
-			score += railScore(p.Dir, geom.Up)
+		want, rail := railWant(ly.c, cl.part, p)
+		switch {
+		case rail && ly.c.RoleOf(p.Net).IsACGround():
+			score += railScore(p.Dir, want)
 		default:
 			signal++
 			score += ly.towards(cl, p)

@@ -1,0 +1,73 @@
+package graph
+
+import "testing"
+
+// railsNetlist has a main HT rail, a decoupled B+ line declared as a rail of
+// its own, a negative bias rail and a signal net (invented values).
+const railsNetlist = `title = "rails"
+band = "20..20k"
+inputs = ["in"]
+outputs = ["a"]
+
+[nets]
+ht = { role = "supply", volts = 250, label = "HT +250 V" }
+b2 = { role = "supply", volts = 200, label = "B+ 2 (decoupled)" }
+vb = { role = "bias", volts = -6 }
+
+[parts]
+C1 = { c = "22n", pins = ["in", "a"] }
+R1 = { r = "100k", pins = ["a", "ht"] }
+R2 = { r = "10k", pins = ["b2", "ht"] }
+R3 = { r = "1M", pins = ["in", "vb"] }
+R4 = { r = "1k", pins = ["a", "x"] }
+C2 = { c = "10u", pins = ["x", "gnd"] }
+`
+
+// TestJoinRemembersRails: a terminal moved off a rail by a join keeps the
+// first rail it returned to, with the rail's volts and label, through later
+// joins and a Clone; a terminal that never sat on a rail has none. A
+// drawing relies on it to label a return to HT as HT, not chassis
+// (docs/netlist.md, "Nets": supply and bias nets are rails).
+func TestJoinRemembersRails(t *testing.T) {
+	tests := []struct {
+		name  string
+		joins [][2]string // keep, gone, in order
+		pin   [2]string   // part, pin name
+		rail  string      // want Pin.Rail
+		volts float64     // want the volts ReturnOf gives
+	}{
+		{"HT to ground", [][2]string{{"gnd", "ht"}}, [2]string{"R1", "2"}, "ht", 250},
+		{"bias to ground", [][2]string{{"gnd", "vb"}}, [2]string{"R3", "2"}, "vb", -6},
+		{"B+ 2 into HT, then HT to ground", [][2]string{{"ht", "b2"}, {"gnd", "ht"}}, [2]string{"R2", "1"}, "b2", 200},
+		{"HT side of the same part", [][2]string{{"ht", "b2"}, {"gnd", "ht"}}, [2]string{"R2", "2"}, "ht", 250},
+		{"a bypassed signal net", [][2]string{{"gnd", "x"}}, [2]string{"R4", "2"}, "", 0},
+	}
+	for _, tc := range tests {
+		c, err := Parse("rails.toml", []byte(railsNetlist))
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, j := range tc.joins {
+			c.JoinNets(j[0], j[1])
+		}
+		c = c.Clone()
+		pn := c.Part(tc.pin[0]).Pin(tc.pin[1])
+		if pn.Rail != tc.rail {
+			t.Errorf("%s: %s.%s returns to %q, want %q", tc.name, tc.pin[0], tc.pin[1], pn.Rail, tc.rail)
+			continue
+		}
+		n := c.ReturnOf(*pn)
+		if n == nil || n.Volts != tc.volts {
+			t.Errorf("%s: ReturnOf gives %+v, want a net at %g V", tc.name, n, tc.volts)
+		}
+		if g := c.Net("gnd"); g.Role != Ground || g.Label != "" || g.Volts != 0 {
+			t.Errorf("%s: ground took a rail's role, label or volts: %+v", tc.name, *g)
+		}
+	}
+	c, _ := Parse("rails.toml", []byte(railsNetlist))
+	c.JoinNets("ht", "b2")
+	c.JoinNets("gnd", "ht")
+	if len(c.Rails) != 2 || c.Rails[0].Name != "b2" || c.Rails[1].Name != "ht" || c.Rails[1].Label != "HT +250 V" {
+		t.Errorf("Rails = %+v, want b2 and ht, sorted, with their labels", c.Rails)
+	}
+}

@@ -1,0 +1,86 @@
+package layout
+
+import (
+	"math"
+	"strings"
+
+	"pare/graph"
+	"pare/render/geom"
+)
+
+// pinReturn is the net a pin's local symbol stands for: on a reduced
+// circuit, the rail the terminal returned to before the reduction tied that
+// rail to AC ground (graph.Pin.Rail), else the pin's own net. So a return to
+// HT is drawn as HT, never as chassis.
+func pinReturn(c *graph.Circuit, part *graph.Part, p geom.Pin) *graph.Net {
+	if part != nil && c.RoleOf(p.Net).IsACGround() {
+		if pn := part.Pin(p.Name); pn != nil {
+			return c.ReturnOf(*pn)
+		}
+	}
+	return c.Net(p.Net)
+}
+
+// pinRole is the role a pin's local symbol is drawn for: its return rail's
+// role where it has one, else the role of its net.
+func pinRole(c *graph.Circuit, part *graph.Part, p geom.Pin) graph.Role {
+	if n := pinReturn(c, part, p); n != nil && n.Role.IsRail() {
+		return n.Role
+	}
+	return c.RoleOf(p.Net)
+}
+
+// railWant is where a pin on an AC-ground net should point, and whether it
+// has a preference at all: higher potential up, lower down (common
+// practice). Chassis goes down; a supply or heater rail up, unless its
+// declared voltage is negative; a bias rail (grid bias, AGC) down, unless
+// its declared voltage is positive.
+func railWant(c *graph.Circuit, part *graph.Part, p geom.Pin) (geom.Dir, bool) {
+	role := pinRole(c, part, p)
+	volts := 0.0
+	if n := pinReturn(c, part, p); n != nil {
+		volts = n.Volts
+	}
+	switch {
+	case role == graph.Ground:
+		return geom.Down, true
+	case role == graph.Supply || role == graph.Heater:
+		if volts < 0 {
+			return geom.Down, true
+		}
+		return geom.Up, true
+	case role == graph.Bias:
+		if volts > 0 {
+			return geom.Up, true
+		}
+		return geom.Down, true
+	}
+	return geom.Right, false
+}
+
+// railText is what a rail tag says: the net's label with its declared
+// voltage ("HT +250 V"; the voltage is added in brackets when the label does
+// not state it), else the signed voltage ("+9 V", "−6 V"), else the net's
+// name. The text is the netlist's; the writer escapes it for SVG.
+func railText(n *graph.Net, name string) string {
+	if n == nil {
+		return name
+	}
+	volts := ""
+	if n.Volts != 0 {
+		sign := "+"
+		if n.Volts < 0 {
+			sign = "−" // U+2212 MINUS SIGN, as typeset
+		}
+		volts = sign + formatG(math.Abs(n.Volts)) + " V"
+	}
+	switch {
+	case n.Label != "" && volts != "" && !strings.Contains(n.Label, formatG(math.Abs(n.Volts))):
+		return n.Label + " (" + volts + ")"
+	case n.Label != "":
+		return n.Label
+	case volts != "":
+		return volts
+	}
+	return name
+}
