@@ -1,6 +1,10 @@
 package graph
 
-import "sort"
+import (
+	"math"
+	"sort"
+	"strconv"
+)
 
 // IsRail reports whether a net of this role is a rail: a supply, bias or
 // heater net, at AC ground for the signal but never chassis.
@@ -40,4 +44,73 @@ func (c *Circuit) ReturnOf(pin Pin) *Net {
 		}
 	}
 	return c.Net(pin.Net)
+}
+
+// MarkDecoupled makes a signal net that a reduction is about to tie to AC
+// ground a rail of its own when a resistor or choke feeds it from a rail: a
+// decoupled B+ line, a screen feed, a collector or emitter fed from the
+// supply through a resistor, but not a divider's tap (a resistor or choke
+// to chassis as well: a bias point). It takes the supply role and, unless it has a
+// label, the label of the rail that feeds it ("HT +250 V"), so that the join
+// keeps on every terminal that the return is to that rail, not to chassis.
+// Its own DC voltage is the rail's less the drop, which only the DC
+// solution knows; a reduced sheet shows the small-signal returns, as its
+// caution says, and the full sheet the feed. The first feed by part ref
+// wins; it reports whether it marked.
+func (c *Circuit) MarkDecoupled(net string) bool {
+	n := c.Net(net)
+	if n == nil || n.Role != Signal {
+		return false
+	}
+	var from *Net
+	for _, cn := range c.ConnsOf(net) {
+		other, ok := dcNeighbour(cn)
+		if !ok || other.Net == net || !c.RoleOf(other.Net).IsACGround() {
+			continue
+		}
+		ret := c.ReturnOf(other)
+		if ret == nil || !ret.Role.IsRail() {
+			return false // a leg to chassis too: a bias divider's tap, not a supply line
+		}
+		if from == nil {
+			from = ret
+		}
+	}
+	if from == nil {
+		return false
+	}
+	n.Role = Supply
+	if n.Label == "" {
+		n.Label = railLabel(from)
+	}
+	return true
+}
+
+// dcNeighbour is the far terminal of a resistor or choke on a net: the
+// parts that carry a DC feed.
+func dcNeighbour(cn Conn) (Pin, bool) {
+	p := cn.Part
+	if (p.Kind != Resistor && p.Kind != Inductor) || len(p.Pins) != 2 {
+		return Pin{}, false
+	}
+	if p.Pins[0].Name == cn.Pin {
+		return p.Pins[1], true
+	}
+	return p.Pins[0], true
+}
+
+// railLabel is how a rail is named on a tag: its label, else its signed
+// voltage ("+9 V", "−6 V"), else its net name.
+func railLabel(n *Net) string {
+	switch {
+	case n.Label != "":
+		return n.Label
+	case n.Volts != 0:
+		sign := "+"
+		if n.Volts < 0 {
+			sign = "−" // U+2212 MINUS SIGN, as typeset
+		}
+		return sign + strconv.FormatFloat(math.Abs(n.Volts), 'g', -1, 64) + " V"
+	}
+	return n.Name
 }

@@ -21,6 +21,11 @@ R2 = { r = "10k", pins = ["b2", "ht"] }
 R3 = { r = "1M", pins = ["in", "vb"] }
 R4 = { r = "1k", pins = ["a", "x"] }
 C2 = { c = "10u", pins = ["x", "gnd"] }
+R5 = { r = "2k2", pins = ["ht", "d"] }
+R6 = { r = "100k", pins = ["d", "a"] }
+R7 = { r = "47k", pins = ["ht", "t"] }
+R8 = { r = "10k", pins = ["t", "gnd"] }
+C3 = { c = "10u", pins = ["t", "b"] }
 `
 
 // TestJoinRemembersRails: a terminal moved off a rail by a join keeps the
@@ -31,16 +36,23 @@ C2 = { c = "10u", pins = ["x", "gnd"] }
 func TestJoinRemembersRails(t *testing.T) {
 	tests := []struct {
 		name  string
-		joins [][2]string // keep, gone, in order
+		joins [][2]string // keep, gone, in order; keep "mark": MarkDecoupled(gone)
 		pin   [2]string   // part, pin name
 		rail  string      // want Pin.Rail
 		volts float64     // want the volts ReturnOf gives
+		label string      // want the label ReturnOf gives
 	}{
-		{"HT to ground", [][2]string{{"gnd", "ht"}}, [2]string{"R1", "2"}, "ht", 250},
-		{"bias to ground", [][2]string{{"gnd", "vb"}}, [2]string{"R3", "2"}, "vb", -6},
-		{"B+ 2 into HT, then HT to ground", [][2]string{{"ht", "b2"}, {"gnd", "ht"}}, [2]string{"R2", "1"}, "b2", 200},
-		{"HT side of the same part", [][2]string{{"ht", "b2"}, {"gnd", "ht"}}, [2]string{"R2", "2"}, "ht", 250},
-		{"a bypassed signal net", [][2]string{{"gnd", "x"}}, [2]string{"R4", "2"}, "", 0},
+		{"HT to ground", [][2]string{{"gnd", "ht"}}, [2]string{"R1", "2"}, "ht", 250, "HT +250 V"},
+		{"bias to ground", [][2]string{{"gnd", "vb"}}, [2]string{"R3", "2"}, "vb", -6, ""},
+		{"B+ 2 into HT, then HT to ground", [][2]string{{"ht", "b2"}, {"gnd", "ht"}}, [2]string{"R2", "1"}, "b2", 200, "B+ 2 (decoupled)"},
+		{"HT side of the same part", [][2]string{{"ht", "b2"}, {"gnd", "ht"}}, [2]string{"R2", "2"}, "ht", 250, "HT +250 V"},
+		{"a bypassed signal net", [][2]string{{"mark", "x"}, {"gnd", "x"}}, [2]string{"R4", "2"}, "", 0, ""},
+		// d is fed from HT by R5 and bypassed: a decoupled line, named after
+		// its rail; its own voltage is not declared
+		{"a decoupled line", [][2]string{{"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT +250 V"},
+		// t is a divider's tap (R7 from HT, R8 to chassis): a bias point
+		{"a divider's tap", [][2]string{{"mark", "t"}, {"gnd", "t"}}, [2]string{"C3", "1"}, "", 0, ""},
+		{"a decoupled line after HT went", [][2]string{{"gnd", "ht"}, {"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT +250 V"},
 	}
 	for _, tc := range tests {
 		c, err := Parse("rails.toml", []byte(railsNetlist))
@@ -48,6 +60,10 @@ func TestJoinRemembersRails(t *testing.T) {
 			t.Fatal(err)
 		}
 		for _, j := range tc.joins {
+			if j[0] == "mark" {
+				c.MarkDecoupled(j[1])
+				continue
+			}
 			c.JoinNets(j[0], j[1])
 		}
 		c = c.Clone()
@@ -57,8 +73,8 @@ func TestJoinRemembersRails(t *testing.T) {
 			continue
 		}
 		n := c.ReturnOf(*pn)
-		if n == nil || n.Volts != tc.volts {
-			t.Errorf("%s: ReturnOf gives %+v, want a net at %g V", tc.name, n, tc.volts)
+		if n == nil || n.Volts != tc.volts || (tc.rail != "" && n.Label != tc.label) {
+			t.Errorf("%s: ReturnOf gives %+v, want a net at %g V labelled %q", tc.name, n, tc.volts, tc.label)
 		}
 		if g := c.Net("gnd"); g.Role != Ground || g.Label != "" || g.Volts != 0 {
 			t.Errorf("%s: ground took a rail's role, label or volts: %+v", tc.name, *g)

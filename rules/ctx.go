@@ -109,10 +109,14 @@ func (x *Ctx) Unconnect(p *graph.Part, name string) {
 // regions.
 func (x *Ctx) Join(keep, gone string) { x.c.JoinNets(keep, gone) }
 
-// GroundNet joins a net to the ground net and remembers it as AC ground.
+// GroundNet joins a net to the ground net and remembers it as AC ground. A
+// net fed from a rail through a resistor or choke is marked as a decoupled
+// rail first (graph.Circuit.MarkDecoupled), so that its terminals are still
+// drawn returning to that rail, not to chassis.
 func (x *Ctx) GroundNet(net string) string {
 	g := x.ground()
 	x.grounded[net] = true
+	x.c.MarkDecoupled(net)
 	x.Join(g, net)
 	return g
 }
