@@ -20,7 +20,8 @@
 //
 // The pipeline, by file: cells.go (a cell per part, its label text), rank.go
 // and columns.go (layers, stages, columns), orient.go (orientations),
-// cell.go and labels.go (local ground and rail symbols, label candidates),
+// cell.go and labels.go (local ground and rail symbols, label candidates;
+// rails.go: the rail each pin returns to, its tag text and direction),
 // blocks.go, order.go and place.go (blocks, their order in a column, x and
 // y), frames.go and links.go (stage frames, gang links), sheet.go (one
 // placement routed and assembled), untangle.go (the search for fewer
