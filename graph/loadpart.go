@@ -130,6 +130,23 @@ func (ld *loader) valveParams(path string, p *Part, m map[string]any) {
 	}
 }
 
+// fetParams refuses the DC law parameters of the other kind of FET: a JFET's
+// law is set by idss and vp, a MOSFET's by its threshold vth and k.
+func (ld *loader) fetParams(path string, p *Part, m map[string]any) {
+	mos := p.Type == "nmos" || p.Type == "pmos"
+	for _, k := range []string{"idss", "vp", "vth", "k"} {
+		if _, ok := m[k]; !ok {
+			continue
+		}
+		switch isMOSKey := k == "vth" || k == "k"; {
+		case mos && !isMOSKey:
+			ld.errKey(path+"."+k, "%s applies to a JFET; a MOSFET takes vth and k", k)
+		case !mos && isMOSKey:
+			ld.errKey(path+"."+k, "%s applies to a MOSFET (fet = \"nmos\" or \"pmos\"); a JFET takes idss and vp", k)
+		}
+	}
+}
+
 func paramUnit(name string) value.Unit {
 	switch name {
 	case "gm":
@@ -138,14 +155,14 @@ func paramUnit(name string) value.Unit {
 		return value.Ohm
 	case "ic", "ia", "idss":
 		return value.Ampere
-	case "vbe", "vp", "vf":
+	case "vbe", "vp", "vf", "vth":
 		return value.Volt
 	case "lm":
 		return value.Henry
 	case "cm", "c0":
 		return value.Farad
 	}
-	return value.None // mu, beta, q, off, watts, pmax (W: no watt unit in value)
+	return value.None // mu, beta, q, off, watts, pmax (W: no watt unit in value), k (A/V²)
 }
 
 // kindValue reads the value that chose the kind, and the type and settings that go with it.
@@ -208,6 +225,7 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 		p.Designation = ld.designation(path, typ)
 	case FET:
 		p.Type = ld.deviceType(kp, m[key], "fet", FETTypes)
+		ld.fetParams(path, p, m)
 		p.Designation = ld.designation(path, typ)
 	case Diode:
 		p.Type = ld.deviceType(kp, m[key], "diode", DiodeTypes)

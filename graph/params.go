@@ -29,6 +29,7 @@ var positiveParams = map[string]string{
 	"lm":   "the motional inductance",
 	"cm":   "the motional capacitance",
 	"q":    "the quality factor",
+	"k":    "the MOSFET's square-law factor k",
 }
 
 // checkParams runs after the parts are read (their own keys already

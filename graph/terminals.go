@@ -179,7 +179,7 @@ func (p *Part) IsActive() bool {
 var paramNames = map[Kind][]string{
 	Valve:       {"gm", "ra", "mu", "rd", "off", "ia", "pmax"}, // rd and off: a valve diode's (loadpart.go checks which)
 	BJT:         {"beta", "ic", "gm", "ro", "rpi", "vbe"},
-	FET:         {"gm", "rd", "idss", "vp"},
+	FET:         {"gm", "rd", "idss", "vp", "vth", "k"}, // idss, vp: JFET; vth, k: MOSFET (loadpart.go checks which)
 	Diode:       {"rd", "off", "vf"},
 	Crystal:     {"rm", "lm", "cm", "c0", "q"},
 	Inductor:    {"q", "rdc"},

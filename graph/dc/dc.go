@@ -1,6 +1,6 @@
 // Package dc computes the DC operating point of a whole (unreduced) circuit
 // with nonlinear device laws: valves by the three-halves-power law, diodes by
-// Shockley's law, bipolar transistors by Ebers–Moll, JFETs by the square law,
+// Shockley's law, bipolar transistors by Ebers–Moll, JFETs and MOSFETs by the square law,
 // windings as their DC resistance and capacitors open (laws.go gives each law
 // and default with its source). Rails are held at their declared volts.
 //

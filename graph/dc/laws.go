@@ -54,6 +54,8 @@ var Defaults = []Default{
 	{"fet", "idss", 5e-3, "A", "typical small-signal JFET, from memory"},
 	{"fet", "vp", -2, "V", "pinch-off of a typical n-channel JFET, from memory"},
 	{"fet", "is", 1e-14, "A", "gate junction saturation current, the SPICE default"},
+	{"mosfet", "vth", 2, "V", "threshold of a typical small-signal enhancement n-channel MOSFET, from memory"},
+	{"mosfet", "k", 0.05, "A/V²", "square-law factor of a typical small-signal MOSFET (50 mA at 1 V above threshold), from memory"},
 	{"diode", "vf", 0.65, "V", "silicon junction at 1 mA, common practice"},
 	{"winding", "rdc", 1, "Ω", "DC resistance of a coil or winding when not given: small, from memory"},
 	{"gmin", "g", 1e-12, "S", "conductance from every net to chassis, the SPICE GMIN default"},
@@ -203,11 +205,12 @@ func resolveBJT(p *graph.Part, o *origins) (bjtLaw, error) {
 type fetLaw struct {
 	beta, vto, is float64
 	sign          float64 // +1 n-channel, −1 p-channel
+	mos           bool    // insulated gate (is = 0): SPICE's level-1 MOSFET in the deck
 }
 
 func resolveFET(p *graph.Part, o *origins) (fetLaw, error) {
 	if p.Type == "nmos" || p.Type == "pmos" {
-		return fetLaw{}, fmt.Errorf("FET %s: no DC law for a MOSFET yet (give the operating point by hand)", p.Ref)
+		return resolveMOS(p, o)
 	}
 	sign := 1.0
 	if p.Type == "pjfet" {
@@ -227,6 +230,35 @@ func resolveFET(p *graph.Part, o *origins) (fetLaw, error) {
 		return fetLaw{}, fmt.Errorf("FET %s: idss must be positive and vp of the channel's sign (negative for n-channel)", p.Ref)
 	}
 	return fetLaw{beta: idss / (vto * vto), vto: vto, is: def("fet", "is"), sign: sign}, nil
+}
+
+// resolveMOS gives a MOSFET the square law of SPICE's level-1 MOSFET
+// (Shichman and Hodges 1968, with λ = 0 and no body effect):
+//
+//	saturation (Vds ≥ Vgs − Vth): Id = k·(Vgs − Vth)²
+//	triode     (Vds < Vgs − Vth): Id = k·Vds·(2(Vgs − Vth) − Vds)
+//
+// k is ½·KP·W/L in SPICE's terms (Sedra and Smith's k'n/2·W/L). It is the
+// JFET's law with vto = Vth and β = k, and an insulated gate: no gate
+// junctions. Vth is written with the channel's sign (an enhancement pmos
+// has a negative one); a depletion device has Vth of the other sign.
+func resolveMOS(p *graph.Part, o *origins) (fetLaw, error) {
+	sign := 1.0
+	if p.Type == "pmos" {
+		sign = -1
+	}
+	vth, ok := p.Param("vth")
+	if ok {
+		o.list = append(o.list, Origin{p.Ref, "vth", vth, "V", "given"})
+	} else {
+		vth = def("mosfet", "vth") * sign
+		o.list = append(o.list, Origin{p.Ref, "vth", vth, "V", "default: " + sourceOf("mosfet", "vth")})
+	}
+	k := o.given(p, "k", "mosfet", "A/V²")
+	if !(k > 0) || math.IsInf(vth, 0) {
+		return fetLaw{}, fmt.Errorf("MOSFET %s: k must be positive", p.Ref)
+	}
+	return fetLaw{beta: k, vto: vth * sign, sign: sign, mos: true}, nil
 }
 
 // diodeIs is the saturation current of a Shockley diode (Shockley, Bell

@@ -117,6 +117,16 @@ func (m *model) deviceCards(b *strings.Builder, i int, d *device) {
 		fmt.Fprintf(b, "Q%s %s %s %s QM%s\n.model QM%s %s(IS=%.12g BF=%.12g BR=%.12g)\n",
 			id, n(1), n(0), n(2), id, id, typ, d.bjt.is, d.bjt.bf, d.bjt.br)
 	case devFET:
+		if d.fet.mos {
+			// Level 1 with W = L, so KP = 2k; bulk tied to the source (no body effect).
+			typ := "nmos"
+			if d.fet.sign < 0 {
+				typ = "pmos"
+			}
+			fmt.Fprintf(b, "M%s %s %s %s %s MM%s W=10u L=10u\n.model MM%s %s(LEVEL=1 VTO=%.12g KP=%.12g)\n",
+				id, n(1), n(0), n(2), n(2), id, id, typ, d.fet.vto*d.fet.sign, 2*d.fet.beta)
+			return
+		}
 		typ := "njf"
 		if d.fet.sign < 0 {
 			typ = "pjf"
