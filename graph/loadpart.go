@@ -155,10 +155,12 @@ func paramUnit(name string) value.Unit {
 		return value.Ohm
 	case "ic", "ia", "idss":
 		return value.Ampere
-	case "vbe", "vp", "vf", "vth":
+	case "vbe", "vp", "vf", "vth", "vac":
 		return value.Volt
 	case "lm":
 		return value.Henry
+	case "hz":
+		return value.Hertz
 	case "cm", "c0":
 		return value.Farad
 	}

@@ -30,6 +30,8 @@ var positiveParams = map[string]string{
 	"cm":   "the motional capacitance",
 	"q":    "the quality factor",
 	"k":    "the MOSFET's square-law factor k",
+	"vac":  "the RMS voltage of the rectifier winding",
+	"hz":   "the mains frequency",
 }
 
 // checkParams runs after the parts are read (their own keys already

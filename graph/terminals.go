@@ -183,7 +183,7 @@ var paramNames = map[Kind][]string{
 	Diode:       {"rd", "off", "vf"},
 	Crystal:     {"rm", "lm", "cm", "c0", "q"},
 	Inductor:    {"q", "rdc"},
-	Transformer: {"q", "rdc"},
+	Transformer: {"q", "rdc", "vac", "hz"}, // vac, hz: a mains transformer's rectifier winding (graph/dc)
 	// DC-only attributes (graph/dc): a resistor's power rating in watts, a
 	// capacitor's leakage resistance.
 	Resistor:  {"watts"},

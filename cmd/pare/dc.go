@@ -115,6 +115,8 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 	for _, tp := range ch.Points {
 		line := fmt.Sprintf("  %-6s %-11s %-12s %10s", tp.Ref, tp.Label, tp.Net, volts(tp.Volts))
 		switch {
+		case tp.AC:
+			line += "   AC: the rectifier's winding"
 		case tp.Elsewhere:
 			line += "   set elsewhere"
 		case !ch.Meter.IsIdeal():
@@ -126,6 +128,10 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 		fmt.Fprintln(w, "\nrails")
 		for _, r := range ch.Rails {
 			fmt.Fprintf(w, "  %-12s %10s   draws %s\n", r.Net, volts(r.Volts), amps(r.Amps))
+			if e := r.Estimate; e != nil {
+				fmt.Fprintf(w, "  %-12s estimate: %s rectifier on %s, %s peak, %s drop, ripple %s p-p\n  %-12s method: %s\n",
+					"", e.Wave, e.Transformer, volts(e.Peak), volts(e.Drop), volts(e.Ripple), "", e.Method)
+			}
 		}
 	}
 	if len(ch.Currents) > 0 {

@@ -64,6 +64,12 @@ type model struct {
 	origins  []Origin
 	warnings []string
 	gmin     float64
+	// Rails estimated from a captured rectifier (rectifier.go): the
+	// rectifier, the index of its reservoir net in fixedV, and the last
+	// estimate of each.
+	rects     []rectifier
+	rectFixed []int
+	estimates []Estimate
 }
 
 // build elaborates c. Zero-ohm parts and closed switch contacts join nets;
@@ -73,6 +79,11 @@ func build(c *graph.Circuit) (*model, error) {
 	m := &model{circuit: c, netTerm: map[string]term{}, gmin: def("gmin", "g")}
 	uf := &graph.NamedSets{} // the one union-find: the smallest name stands for a group
 	joinShorts(c, uf)
+	rects, err := findRectifiers(c)
+	if err != nil {
+		return nil, err
+	}
+	m.rects = rects
 	if err := m.assignNodes(c, uf); err != nil {
 		return nil, err
 	}
@@ -137,13 +148,25 @@ func (m *model) assignNodes(c *graph.Circuit, uf *graph.NamedSets) error {
 	groupTerm := map[string]term{}
 	groupV := map[string]float64{}
 	// Fixed groups first, in net order; two different voltages joined is bad input.
+	estimated := map[string]int{} // reservoir net → its rectifier
+	for k, r := range m.rects {
+		estimated[r.net] = k
+	}
+	m.rectFixed = make([]int, len(m.rects))
 	for _, n := range c.Nets {
 		v, ok := fixedVolts(n)
+		k, est := estimated[n.Name]
+		if est {
+			v, ok = m.heldEstimate(n, k)
+		}
 		if !ok {
 			continue
 		}
 		root := uf.Find(n.Name)
 		if t, seen := groupTerm[root]; seen {
+			if est {
+				m.rectFixed[k] = -1 - t
+			}
 			if groupV[root] != v {
 				return fmt.Errorf("%s: net %s (%g V) is joined to %s (%g V) through zero-ohm parts or switch contacts",
 					n.Pos, n.Name, v, m.fixedNet[-1-t], groupV[root])
@@ -152,6 +175,9 @@ func (m *model) assignNodes(c *graph.Circuit, uf *graph.NamedSets) error {
 		}
 		groupTerm[root] = -1 - len(m.fixedNet)
 		groupV[root] = v
+		if est {
+			m.rectFixed[k] = len(m.fixedNet)
+		}
 		m.fixedNet = append(m.fixedNet, n.Name)
 		m.fixedV = append(m.fixedV, v)
 	}
@@ -176,11 +202,20 @@ func (m *model) assignNodes(c *graph.Circuit, uf *graph.NamedSets) error {
 			m.nodeNet = append(m.nodeNet, n.Name)
 		}
 		m.netTerm[n.Name] = t
-		if n.Role == graph.Supply && n.Volts == 0 {
+		if _, est := estimated[n.Name]; !est && n.Role == graph.Supply && n.Volts == 0 {
 			m.warnings = append(m.warnings, fmt.Sprintf("rail %s declares no volts: it is solved as an ordinary net", n.Name))
 		}
 	}
 	return nil
+}
+
+// heldEstimate starts an estimated rail at its rectifier's unloaded peak
+// (solveRails moves it), with a warning when the net also declares volts.
+func (m *model) heldEstimate(n *graph.Net, k int) (float64, bool) {
+	if n.Volts != 0 {
+		m.warnings = append(m.warnings, fmt.Sprintf("rail %s declares %g V; it is held at the estimate from transformer %s's rectifier instead", n.Name, n.Volts, m.rects[k].xfmr))
+	}
+	return m.rects[k].peak, true
 }
 
 func (m *model) term(p *graph.Part, pin string) (term, bool) {

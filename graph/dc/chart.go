@@ -29,6 +29,7 @@ type TestPoint struct {
 	Volts     float64 `json:"volts"`
 	Reading   float64 `json:"reading"`             // what the chart's meter shows
 	Elsewhere bool    `json:"elsewhere,omitempty"` // the net has no DC path on this sheet
+	AC        bool    `json:"ac,omitempty"`        // a rectifier's winding end: it carries the secondary's AC
 }
 
 // Rail is a held net and the current the circuit draws from it.
@@ -36,6 +37,9 @@ type Rail struct {
 	Net   string  `json:"net"`
 	Volts float64 `json:"volts"`
 	Amps  float64 `json:"amps"`
+	// Estimate is set for a rail estimated from a captured rectifier and
+	// reservoir rather than declared: its method, ripple and load.
+	Estimate *Estimate `json:"estimate,omitempty"`
 }
 
 // DevCurrent is one electrode current of an active part.
@@ -93,7 +97,7 @@ func (p *Point) Chart(mt Meter) (*Chart, error) {
 		if name == "" || p.Circuit.RoleOf(name) == graph.Ground || p.Circuit.RoleOf(name) == graph.Heater {
 			continue
 		}
-		ch.Rails = append(ch.Rails, Rail{Net: name, Volts: p.m.fixedV[i], Amps: p.railCurrent(name)})
+		ch.Rails = append(ch.Rails, Rail{Net: name, Volts: p.m.fixedV[i], Amps: p.railCurrent(name), Estimate: p.estimateFor(name)})
 	}
 	for _, n := range p.Nets {
 		if n.Floating && p.isTestPoint(n.Name) {
@@ -128,7 +132,7 @@ func (p *Point) chartPart(ch *Chart, part *graph.Part, mt Meter) error {
 			}
 			t := p.m.netTerm[pin.Net]
 			ch.Points = append(ch.Points, TestPoint{Ref: part.Ref, Pin: pin.Name, Label: electrode(part, pin.Name),
-				Net: pin.Net, Volts: v, Reading: rd, Elsewhere: t >= 0 && p.m.floating[t]})
+				Net: pin.Net, Volts: v, Reading: rd, Elsewhere: t >= 0 && p.m.floating[t], AC: p.m.isWindingEnd(pin.Net)})
 		}
 		p.deviceCurrents(ch, part)
 	case graph.Resistor, graph.Pot:

@@ -13,6 +13,7 @@ package dc
 import (
 	"errors"
 	"math"
+	"sort"
 
 	"pare/graph"
 )
@@ -26,6 +27,9 @@ type Point struct {
 	Method  string   // "Newton", "source stepping" or "gmin stepping"
 	Iter    int
 	Notes   []string // rails without volts and the like
+	// Estimates are the rails estimated from a captured rectifier and
+	// reservoir (rectifier.go), sorted by net.
+	Estimates []Estimate
 
 	m    *model
 	v    []float64 // free node voltages
@@ -39,6 +43,10 @@ type NetV struct {
 	Volts    float64 `json:"volts"`
 	Fixed    bool    `json:"fixed,omitempty"`    // held by declaration: chassis, rail, heater
 	Floating bool    `json:"floating,omitempty"` // no DC path on this sheet: set elsewhere
+	// AC marks an end of an estimated rectifier's winding: on the bench it
+	// carries the secondary's AC, and its DC value here is only what the
+	// reverse-biased junctions' leakage leaves (not a test point).
+	AC bool `json:"ac,omitempty"`
 }
 
 // Solve finds the operating point of c.
@@ -47,11 +55,13 @@ func Solve(c *graph.Circuit) (*Point, error) {
 	if err != nil {
 		return nil, err
 	}
-	v, method, iter, err := m.solve(nil, nil)
+	v, method, iter, err := m.solveRails()
 	if err != nil {
 		return nil, err
 	}
 	pt := &Point{Circuit: c, Origins: m.origins, Method: method, Iter: iter, Notes: m.warnings, m: m, v: v}
+	pt.Estimates = append([]Estimate(nil), m.estimates...)
+	sort.Slice(pt.Estimates, func(i, j int) bool { return pt.Estimates[i].Net < pt.Estimates[j].Net })
 	pt.fill()
 	return pt, nil
 }
@@ -134,7 +144,7 @@ func (m *model) voltOf(v []float64, t term) float64 {
 func (p *Point) fill() {
 	for _, n := range p.Circuit.Nets {
 		t := p.m.netTerm[n.Name]
-		nv := NetV{Name: n.Name, Volts: clean(p.m.voltOf(p.v, t)), Fixed: t < 0}
+		nv := NetV{Name: n.Name, Volts: clean(p.m.voltOf(p.v, t)), Fixed: t < 0, AC: p.m.isWindingEnd(n.Name)}
 		if t >= 0 {
 			nv.Floating = p.m.floating[t]
 		}

@@ -102,7 +102,7 @@ func suitePoints(t *testing.T, pt *Point) ([]string, []float64) {
 	var ohms []float64
 	for _, tp := range ch.Points {
 		term := pt.m.netTerm[tp.Net]
-		if seen[tp.Net] || term < 0 || tp.Elsewhere {
+		if seen[tp.Net] || term < 0 || tp.Elsewhere || tp.AC {
 			continue
 		}
 		seen[tp.Net] = true

@@ -49,6 +49,7 @@ var Defaults = []Default{
 	{"pentode", "vknee", 20, "V", "anode voltage scale of the knee (tanh law), typical, from memory"},
 	{"valve grid", "kg", 1e-3, "A/V^1.5", "grid–cathode diode above 0 V: about 1 mA at +1 V, from memory"},
 	{"valve diode", "k", 3e-4, "A/V^1.5", "signal diode perveance: 3 mA at 10 V, from memory"},
+	{"rectifier valve", "k", 1e-3, "A/V^1.5", "perveance of one anode of a rectifier valve: about 90 mA at 20 V, from memory"},
 	{"bjt", "vbe", 0.65, "V", "silicon small-signal transistor at about 1 mA, common practice"},
 	{"bjt", "betar", 1, "", "reverse β, the SPICE default (BR = 1)"},
 	{"fet", "idss", 5e-3, "A", "typical small-signal JFET, from memory"},
@@ -58,6 +59,7 @@ var Defaults = []Default{
 	{"mosfet", "k", 0.05, "A/V²", "square-law factor of a typical small-signal MOSFET (50 mA at 1 V above threshold), from memory"},
 	{"diode", "vf", 0.65, "V", "silicon junction at 1 mA, common practice"},
 	{"winding", "rdc", 1, "Ω", "DC resistance of a coil or winding when not given: small, from memory"},
+	{"mains", "hz", 50, "Hz", "mains frequency of a rectifier's transformer when hz is not given: 50 Hz in most of the world (60 Hz in North America), common practice"},
 	{"gmin", "g", 1e-12, "S", "conductance from every net to chassis, the SPICE GMIN default"},
 }
 

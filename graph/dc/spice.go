@@ -13,12 +13,21 @@ import (
 // sources, resistors and winding resistances as R cards, the three-halves
 // law of each valve as behavioural current sources (B cards), and ngspice's
 // own diode, bipolar (IS, BF, BR) and JFET (VTO, BETA, IS) models with the
-// parameters pare derived. Every net has its gmin resistor to ground, as in
+// parameters pare derived; a rail estimated from a captured rectifier is
+// a source at pare's estimate. Every net has its gmin resistor to ground, as in
 // pare's own system. The control block prints every node voltage.
 func WriteSpiceOP(w io.Writer, c *graph.Circuit) error {
 	m, err := build(c)
 	if err != nil {
 		return err
+	}
+	if len(m.rects) > 0 {
+		// An estimated rail is a source in the deck at pare's estimate: the
+		// deck checks the solve around it, the transient check in
+		// rectifier_test.go the estimate itself.
+		if _, _, _, err := m.solveRails(); err != nil {
+			return err
+		}
 	}
 	return m.writeSpice(w, nil, "option numdgt=12\nop\nprint all\n")
 }

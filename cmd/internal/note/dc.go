@@ -51,13 +51,22 @@ func dcFrom(r *pipeline.Result) DC {
 	d := DC{Meter: mt.String(), Caution: r.Caution.Readings()[:1]}
 	for _, p := range ch.Points {
 		reads := Volts(p.Reading)
-		if p.Elsewhere {
+		switch {
+		case p.AC:
+			reads = "AC: the rectifier's winding"
+		case p.Elsewhere:
 			reads = "set elsewhere"
 		}
 		d.Rows = append(d.Rows, DCRow{p.Ref, p.Label, p.Net, Volts(p.Volts), reads})
 	}
 	for _, rl := range ch.Rails {
-		d.Rows = append(d.Rows, DCRow{"rail", "", rl.Net, Volts(rl.Volts), "draws " + value.FormatPrec(rl.Amps, value.Ampere, value.Symbol, 3)})
+		label := ""
+		if e := rl.Estimate; e != nil {
+			label = "estimate"
+			d.Notes = append(d.Notes, fmt.Sprintf("Rail %s is an estimate, not a declared voltage: %s rectifier on %s, %s peak, %s drop in the diodes and winding, ripple %s p-p at the load current (%s).",
+				rl.Net, e.Wave, e.Transformer, Volts(e.Peak), Volts(e.Drop), Volts(e.Ripple), e.Method))
+		}
+		d.Rows = append(d.Rows, DCRow{"rail", label, rl.Net, Volts(rl.Volts), "draws " + value.FormatPrec(rl.Amps, value.Ampere, value.Symbol, 3)})
 	}
 	d.Oscillators = OscillatorNotes(r.Stages, r.DC)
 	d.Notes = append(d.Notes, ch.Warnings...)
