@@ -250,10 +250,10 @@ func (d *drawer) label(l geom.Label, frame bool) {
 		switch {
 		case frame && i < l.Head:
 			cls = `class="mk"`
-		case frame || i > 0:
+		case frame || i > 0 || l.Small:
 			cls = `class="sm"`
 		}
-		if i > 0 && !frame && l.Faded {
+		if i > 0 && !frame && !l.Small && l.Faded {
 			// markers stay black on faded parts: they say where the part went
 			cv.Gend()
 			cv.Text(d.X(l.Box.X0), d.Y(y-0.3), line, `class="sm mk"`)

@@ -107,9 +107,10 @@ type Sheet struct {
 	Caution string
 	// Furniture holds lines for the sheet's info block: IF, tuning range, level.
 	Furniture []string
-	// Volts holds per ref the DC voltages at its electrodes, drawn small in
-	// its label on the full and faded views (never on a reduced one).
-	Volts map[string]string
+	// PinVolts holds per ref and pin the DC voltage at an electrode, drawn
+	// small beside the pin on the full and faded views (never on a reduced
+	// one).
+	PinVolts map[string]map[string]string
 }
 
 // Config says how to draw.
@@ -137,7 +138,7 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 		o.Faded, o.Merged = s.Faded, s.Merged
 	}
 	if s.View != Reduced {
-		o.Volts = s.Volts
+		o.PinVolts = s.PinVolts
 	}
 	for _, f := range s.Frames {
 		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts})

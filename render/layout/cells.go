@@ -112,7 +112,7 @@ func labelLines(p *graph.Part, o Options) []string {
 	if len(second) > 0 {
 		out = append(out, strings.Join(second, ", "))
 	}
-	if v := o.Volts[p.Ref]; v != "" {
+	if v := dcLine(p, o.PinVolts[p.Ref]); v != "" {
 		out = append(out, v)
 	}
 	return out

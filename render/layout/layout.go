@@ -59,10 +59,10 @@ type Options struct {
 	// suppressor were dropped as static electrodes with cathode, g1 and
 	// anode only. Other views draw such an electrode as a bare lead.
 	HideUnconnected bool
-	// Volts holds, per ref, the DC voltages at a part's electrodes in the
-	// trade's short form ("a 229 g2 104 k 0 V"): drawn as a small line of the
-	// part's label on the full and faded views.
-	Volts map[string]string
+	// PinVolts holds, per ref and pin, the DC voltage at an electrode in
+	// volts in the trade's short form ("229"): drawn small beside the pin on the
+	// full and faded views (pinfigs.go).
+	PinVolts map[string]map[string]string
 }
 
 // notConnected is the netlist format's net for a terminal that is really not

@@ -131,6 +131,7 @@ func assemble(ly *state, w *wiring) *Result {
 	if ly.o.Links {
 		g.Links = ly.links(g)
 	}
+	placePinFigures(ly, g)
 	g.Bounds = bounds(g)
 	return res
 }

@@ -64,12 +64,12 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	case render.Full:
 		s.Circuit = c
 		s.Frames = stageFrames(r.Stages, reduced, c)
-		s.Volts = r.electrodeVolts()
+		s.PinVolts = r.electrodeVolts()
 	case render.Faded:
 		s.Circuit = c
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
 		s.Frames = stageFrames(r.Stages, reduced, c)
-		s.Volts = r.electrodeVolts()
+		s.PinVolts = r.electrodeVolts()
 	}
 	return s
 }
@@ -189,34 +189,39 @@ func Furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string
 }
 
 // electrodeVolts gives each active part's electrode voltages for the full
-// and faded sheets, the trade's small figures beside the valve or
-// transistor: "DC a 229 g2 104 k 0.012 V". A grid strapped to the cathode
-// (a suppressor) is not repeated. Nil when the operating point was not
-// found: the sheet is then drawn without figures.
-func (r *Result) electrodeVolts() map[string]string {
+// and faded sheets, the trade's small figures beside each pin of the valve
+// or transistor ("229" at the anode, in volts). A grid strapped to the cathode (a
+// suppressor) is not repeated, nor a second pin on a net already marked,
+// nor a pin on chassis or a rail.
+// Nil when the operating point was not found: the sheet is then drawn
+// without figures.
+func (r *Result) electrodeVolts() map[string]map[string]string {
 	if r.DC == nil {
 		return nil
 	}
-	out := map[string]string{}
+	out := map[string]map[string]string{}
 	for _, p := range r.DC.Circuit.Parts {
 		if !p.IsActive() {
 			continue
 		}
-		var parts []string
+		pins := map[string]string{}
 		seen := map[string]bool{}
 		common := p.NetOf(p.PinWithRole(graph.RoleCommon))
 		for _, pin := range p.Pins {
 			role := graph.RoleOfPin(p.Kind, pin.Name)
 			strapped := pin.Net == common && role != graph.RoleCommon
-			if role == graph.RoleHeater || role == graph.RoleShield || strapped || seen[pin.Net] {
+			// A pin on chassis or a rail needs no figure: the rail symbol
+			// at it says its voltage.
+			railed := r.DC.Circuit.RoleOf(pin.Net).IsACGround()
+			if role == graph.RoleHeater || role == graph.RoleShield || strapped || railed || seen[pin.Net] {
 				continue
 			}
 			seen[pin.Net] = true
 			v, _ := r.DC.Volts(pin.Net)
-			parts = append(parts, pin.Name+" "+shortVolts(v))
+			pins[pin.Name] = shortVolts(v)
 		}
-		if len(parts) > 0 {
-			out[p.Ref] = "DC " + strings.Join(parts, " ") + " V"
+		if len(pins) > 0 {
+			out[p.Ref] = pins
 		}
 	}
 	return out
