@@ -41,6 +41,12 @@ func TestDCWarningsAndErrors(t *testing.T) {
 		{[]string{"dc", "testdata/dc/reversed-electrolytic.toml"}, exitOK, "R1 dissipates"},
 		{[]string{"dc", "testdata/dc/reversed-electrolytic.toml"}, exitOK, "over its 1 W rating"},
 		{[]string{"dc", "testdata/dc/reversed-electrolytic.toml"}, exitOK, "against its 5 V rating"},
+		// A captured rectifier: the rail is marked an estimate with its method (docs/dc.md).
+		{[]string{"dc", "../../graph/dc/testdata/rectifier-bridge.toml"}, exitOK, "estimate: full-wave bridge rectifier on T1"},
+		{[]string{"dc", "../../graph/dc/testdata/rectifier-bridge.toml"}, exitOK, "method: capacitor-input filter by conduction angle (Schade"},
+		{[]string{"dc", "../../graph/dc/testdata/rectifier-bridge.toml"}, exitOK, "AC: the rectifier's winding"},
+		// MOSFETs have the square law now, not a refusal.
+		{[]string{"dc", "../../graph/dc/testdata/mosfet.toml"}, exitOK, "drain current"},
 	}
 	for _, tc := range cases {
 		var out, errb bytes.Buffer
