@@ -155,6 +155,9 @@ func TestHostileTextEverySink(t *testing.T) {
 	if !strings.Contains(note, `R\&amp;D`) {
 		t.Error(`notes.md does not show "&amp;" as written`)
 	}
+	page := readString(t, filepath.Join(out, fileNoteHTML))
+	hidden("notes.html", page)
+	checkHTMLText(t, page)
 	for _, sheet := range []string{fileReducedSheet, fileFadedSheet} {
 		svg := readString(t, filepath.Join(out, sheet))
 		hidden(sheet, svg)

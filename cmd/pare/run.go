@@ -38,7 +38,8 @@ path (every step checked by AC analysis; a step that changes the signal is
 refused), compares the original with the reduced circuit by AC analysis,
 recognises the stages, and writes into DIR (default: FILE without .toml, plus
 .pare): reduced.toml, reduced.svg, faded.svg and notes.md, a repair note that
-embeds the sheets. Everything is made in memory first; on bad input nothing is
+embeds the sheets, and notes.html, the same note as one page with the sheets
+inline (prints one sheet per page). Everything is made in memory first; on bad input nothing is
 written. Exit 0 when the reduction was verified, 1 when the verification
 failed or compared nothing (the files are still written, and the note says so),
 2 on bad input, 3 on an internal error. The folder DIR is replaced whole, in
@@ -70,6 +71,7 @@ const (
 	fileReducedSheet   = "reduced.svg"
 	fileFadedSheet     = "faded.svg"
 	fileNote           = "notes.md"
+	fileNoteHTML       = "notes.html" // the same note, sheets inline, for a browser and for print
 )
 
 // jobConfig is the main job's settings after the flags have been checked.
@@ -262,7 +264,7 @@ func defaultOutDir(path string) string {
 // would refuse: a file, a link to nothing, a folder holding files pare did
 // not write, one where a result would overwrite the input netlist.
 func checkOutDir(input, dir string) error {
-	return outfile.CheckDir(dir, []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote}, input)
+	return outfile.CheckDir(dir, []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote, fileNoteHTML}, input)
 }
 
 // mainJobOn turns the pipeline's result into the job's files, in memory,
@@ -274,15 +276,20 @@ func mainJobOn(pr *pipeline.Result, cfg jobConfig) (*jobResult, error) {
 	}
 	reduced, faded := pr.SheetFor(render.Reduced), pr.SheetFor(render.Faded)
 	m := note.Meta{Version: version, Symbols: cfg.symbols, VerifySkipped: "--no-verify", Sheets: []note.Sheet{
-		{File: fileReducedSheet, Alt: "Reduced signal path of " + pr.Title,
+		{File: fileReducedSheet, View: note.ViewReduced, Alt: "Reduced signal path of " + pr.Title,
 			Caption: "Reduced view, small-signal only: the parts that shape the signal, framed by stage."},
-		{File: fileFadedSheet, Alt: "Original circuit of " + pr.Title + " with the removed parts faded",
+		{File: fileFadedSheet, View: note.ViewFaded, Alt: "Original circuit of " + pr.Title + " with the removed parts faded",
 			Caption: "Faded view: the whole original circuit; parts the reduction removed are faded, merged parts are marked with the part they went into."},
 	}}
 	n := note.FromResult(pr, m)
 	var md bytes.Buffer
 	if err := note.Write(&md, n); err != nil {
 		return nil, fmt.Errorf("writing the note: %w", err)
+	}
+	var page bytes.Buffer
+	svgs := map[string][]byte{fileReducedSheet: reduced.SVG, fileFadedSheet: faded.SVG}
+	if err := note.WriteHTML(&page, n, svgs); err != nil {
+		return nil, fmt.Errorf("writing the HTML note: %w", err)
 	}
 	res := &jobResult{
 		verify: n.Verify,
@@ -291,6 +298,7 @@ func mainJobOn(pr *pipeline.Result, cfg jobConfig) (*jobResult, error) {
 			{fileReducedSheet, reduced.SVG},
 			{fileFadedSheet, faded.SVG},
 			{fileNote, md.Bytes()},
+			{fileNoteHTML, page.Bytes()},
 		},
 	}
 	res.summary = summaryLines(pr.Path, n, pr.Log, pr.Stages, res.verify)

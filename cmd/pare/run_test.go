@@ -42,7 +42,7 @@ func runJob(t *testing.T, args ...string) (int, string, string) {
 	return code, out.String(), errb.String()
 }
 
-var resultFiles = []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote}
+var resultFiles = []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote, fileNoteHTML}
 
 // jobRun is one run of the main job on an example, kept for every test that
 // only reads its results: the job verifies every step by AC analysis, and

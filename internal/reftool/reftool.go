@@ -1,5 +1,5 @@
 // Package reftool finds the outside reference tools that pare's tests check
-// against (ngspice, rsvg-convert and Chromium, all Debian packages) and says
+// against (ngspice, rsvg-convert, Chromium and pdftoppm, all Debian packages) and says
 // what a missing one means: a skip on a developer's machine, a failure in
 // CI, where .ci/run sets PARE_REQUIRE_NGSPICE and PARE_REQUIRE_TOOLS so that
 // a green run always means the reference checks really ran.
@@ -30,6 +30,9 @@ var (
 	// Chromium: the binary under /usr/lib takes the headless flags directly.
 	Chromium = Tool{Name: "chromium", Paths: []string{"/usr/lib/chromium/chromium", "/usr/bin/chromium"},
 		Lookups: []string{"chromium"}, Env: "PARE_REQUIRE_TOOLS", Package: "chromium"}
+	// Pdftoppm turns the pages of a PDF Chromium printed into images, so a
+	// test can count them and look at each.
+	Pdftoppm = Tool{Name: "pdftoppm", Lookups: []string{"pdftoppm"}, Env: "PARE_REQUIRE_TOOLS", Package: "poppler-utils"}
 )
 
 // Required reports whether the environment makes a missing tool a failure.

@@ -48,7 +48,9 @@ type Note struct {
 
 type PartCount struct{ Parts, Nets int }
 
-type Sheet struct{ File, Alt, Caption string }
+// Sheet is a drawing beside the note. View (ViewReduced, ViewFaded or
+// empty) is the part it plays in the HTML note's hover.
+type Sheet struct{ File, Alt, Caption, View string }
 
 type Merge struct {
 	Into string
