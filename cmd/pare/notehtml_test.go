@@ -240,3 +240,97 @@ func checkSheetPage(img image.Image, box image.Rectangle) string {
 	}
 	return ""
 }
+
+// hoverProbe is appended to a copy of notes.html: it points at every part
+// of both sheets in turn (the events a mouse sends) and writes what lit up
+// on the other sheet into an attribute of the body, which --dump-dom shows.
+const hoverProbe = `<script>
+(function(){
+function probe(from,to){var out=[];
+document.querySelectorAll("#"+from+" .part").forEach(function(g){
+g.dispatchEvent(new MouseEvent("mouseenter"));
+var lit=[].map.call(document.querySelectorAll("#"+to+" .part.hl"),function(e){return e.getAttribute("data-ref")}).sort();
+g.dispatchEvent(new MouseEvent("mouseleave"));
+out.push(g.getAttribute("data-ref")+"="+lit.join(","));});
+return out.join(" ")}
+document.body.setAttribute("data-reduced",probe("n-reduced","n-faded"));
+document.body.setAttribute("data-faded",probe("n-faded","n-reduced"));
+document.body.setAttribute("data-left",document.querySelectorAll(".hl").length);
+})();
+</script>`
+
+// mergeLine is notes.md's merge record: "- `C3` stands for `C3`, `TC2`".
+var mergeLine = regexp.MustCompile("(?m)^- `([^`]+)` stands for (.+)$")
+
+// TestNoteHoverLightsOriginals points at every part of the HTML note's
+// sheets in Chromium: a reduced part lights up exactly the original parts
+// notes.md says it stands for (itself when it was kept as it is), a part on
+// the faded sheet lights up the reduced part it went into, and nothing stays
+// lit when the pointer leaves.
+func TestNoteHoverLightsOriginals(t *testing.T) {
+	browser := findChromium(t)
+	r := cachedJob(t, redExample)
+	if r.code == exitBad {
+		t.Fatalf("main job failed: %s", r.stderr)
+	}
+	md := readString(t, filepath.Join(r.dir, fileNote))
+	from := map[string][]string{}
+	into := map[string]string{}
+	for _, m := range mergeLine.FindAllStringSubmatch(md, -1) {
+		for _, o := range strings.Split(m[2], ", ") {
+			o = strings.Trim(o, "`")
+			from[m[1]] = append(from[m[1]], o)
+			into[o] = m[1]
+		}
+	}
+	if len(from) == 0 {
+		t.Fatal("notes.md records no merge: the example cannot show the hover")
+	}
+	page := readString(t, filepath.Join(r.dir, fileNoteHTML))
+	probe := filepath.Join(t.TempDir(), "probe.html")
+	if err := os.WriteFile(probe, []byte(strings.Replace(page, "</body>", hoverProbe+"</body>", 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	dom := string(runBrowser(t, browser, "--dump-dom", "file://"+probe))
+	reduced, faded := bodyAttr(t, dom, "data-reduced"), bodyAttr(t, dom, "data-faded")
+	if left := bodyAttr(t, dom, "data-left"); left != "0" {
+		t.Errorf("%s parts still lit after the pointer left", left)
+	}
+	for _, kv := range strings.Fields(reduced) {
+		ref, lit, _ := strings.Cut(kv, "=")
+		want := []string{ref}
+		if f, ok := from[ref]; ok {
+			want = append([]string(nil), f...)
+			sort.Strings(want)
+		}
+		if strings.HasPrefix(ref, "_") { // a port: drawn on both sheets under its own name
+			continue
+		}
+		if lit != strings.Join(want, ",") {
+			t.Errorf("pointing at reduced %s lights %q on the faded sheet, want %q", ref, lit, strings.Join(want, ","))
+		}
+	}
+	checked := 0
+	for _, kv := range strings.Fields(faded) {
+		ref, lit, _ := strings.Cut(kv, "=")
+		if in, ok := into[ref]; ok {
+			checked++
+			if lit != in {
+				t.Errorf("pointing at original %s lights %q on the reduced sheet, want %q", ref, lit, in)
+			}
+		}
+	}
+	if checked == 0 || len(strings.Fields(reduced)) == 0 {
+		t.Errorf("no merged part was pointed at (reduced %q, faded %q)", reduced, faded)
+	}
+}
+
+// bodyAttr reads an attribute of the body from Chromium's DOM dump.
+func bodyAttr(t *testing.T, dom, name string) string {
+	t.Helper()
+	m := regexp.MustCompile(`<body[^>]* ` + name + `="([^"]*)"`).FindStringSubmatch(dom)
+	if m == nil {
+		t.Fatalf("the probe left no %s on the body: the page's script did not run?", name)
+	}
+	return m[1]
+}
