@@ -43,7 +43,7 @@ func TestBatch(t *testing.T) {
 			t.Fatalf("GOMAXPROCS %d: exit %d, want 2\n%s\n%s", procs, code, stdout, stderr)
 		}
 		got := []string{stdout, stderr}
-		for _, f := range []string{"index.md", "index.html", "a-ok.pare/notes.md", "a-ok.pare/reduced.svg", "c-fail.pare/notes.md"} {
+		for _, f := range []string{"index.md", "index.html", "a-ok.pare/notes.md", "a-ok.pare/notes.html", "a-ok.pare/reduced.svg", "c-fail.pare/notes.md"} {
 			got = append(got, readString(t, filepath.Join(out, f)))
 		}
 		if first == nil {
@@ -61,6 +61,9 @@ func TestBatch(t *testing.T) {
 		if !strings.Contains(md, want) {
 			t.Errorf("index.md lacks %q:\n%s", want, md)
 		}
+	}
+	if !strings.Contains(page, `<a href="a-ok.pare/notes.html">`) {
+		t.Errorf("index.html does not link the HTML note:\n%s", page)
 	}
 	if strings.Contains(page, "<b>") || !strings.Contains(page, "Stage &lt;b&gt;|one|&lt;/b&gt;") {
 		t.Errorf("index.html does not escape the title:\n%s", page)

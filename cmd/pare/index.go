@@ -42,10 +42,12 @@ func writeIndex(at string, packs []pack) error {
 				esc.HTML(name), esc.HTML(p.title), esc.HTML(p.verdict))
 			continue
 		}
+		// Each index links the note in its own format: a browser reading
+		// index.html opens the HTML note, with its sheets inline.
 		link := relLink(at, filepath.Join(p.dir, fileNote))
 		fmt.Fprintf(&md, "| [%s](%s) | %s | %s | %s | %s |\n", mdEscape(name), link, mdEscape(p.title), parts, stages, mdEscape(p.verdict))
 		fmt.Fprintf(&page, "<tr><td><a href=\"%s\">%s</a></td><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n",
-			esc.HTML(link), esc.HTML(name), esc.HTML(p.title), parts, stages, esc.HTML(p.verdict))
+			esc.HTML(relLink(at, filepath.Join(p.dir, fileNoteHTML))), esc.HTML(name), esc.HTML(p.title), parts, stages, esc.HTML(p.verdict))
 	}
 	page.WriteString("</table>\n</body></html>\n")
 	if err := outfile.WriteFile(filepath.Join(at, indexMarkdown), md.Bytes()); err != nil {
