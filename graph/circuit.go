@@ -188,6 +188,11 @@ type Part struct {
 	Note     string             `json:"note,omitempty"`
 	Label    string             `json:"label,omitempty"` // port text ("from RF stage") or generic part description
 	Params   map[string]float64 `json:"params,omitempty"`
+	// Adjust names the cores a repairer can turn: CoreWhole for one core
+	// that tunes the whole coil or transformer, else the transformer's
+	// windings that each have their own (sorted). Empty: nothing adjustable
+	// was captured.
+	Adjust []string `json:"adjust,omitempty"`
 	// From names the original parts this part stands for after a reduction
 	// (sorted). Empty means the part stands for itself.
 	From []string `json:"from,omitempty"`

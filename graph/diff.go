@@ -129,5 +129,8 @@ func diffParts(p, q *Part) []string {
 	if fmt.Sprint(p.From) != fmt.Sprint(q.From) {
 		add("from %v vs %v", p.From, q.From)
 	}
+	if fmt.Sprint(p.Adjust) != fmt.Sprint(q.Adjust) {
+		add("adjust %v vs %v", p.Adjust, q.Adjust)
+	}
 	return d
 }

@@ -24,8 +24,8 @@ var commonKeys = []string{"pins", "tol", "rating", "gang", "keep", "note", "from
 // extraKeys are the keys a kind accepts besides the common ones and its device parameters.
 var extraKeys = map[Kind][]string{
 	Capacitor:   {"set"},
-	Inductor:    {"tap", "k"},
-	Transformer: {"k"},
+	Inductor:    {"tap", "k", "adjust"},
+	Transformer: {"k", "adjust"},
 	Pot:         {"set"},
 	Switch:      {"set", "closes"},
 }
@@ -96,6 +96,8 @@ func (ld *loader) part(path, ref string, v any) {
 		case "from":
 			p.From = ld.strList(kp, x)
 			sort.Strings(p.From)
+		case "adjust":
+			ld.adjust(kp, p, x)
 		default:
 			if contains(ParamNames(p.Kind), k) {
 				if p.Params == nil {

@@ -102,6 +102,7 @@ func (p *Part) Clone() *Part {
 	q.Windings = append([]Winding(nil), p.Windings...)
 	q.Coupling = append([]Coupling(nil), p.Coupling...)
 	q.From = append([]string(nil), p.From...)
+	q.Adjust = append([]string(nil), p.Adjust...)
 	if p.Closes != nil {
 		q.Closes = make([][][2]string, len(p.Closes))
 		for i, pos := range p.Closes {

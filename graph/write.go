@@ -142,6 +142,9 @@ func partKV(p *Part) []string {
 	if p.Keep {
 		add("keep = true")
 	}
+	if len(p.Adjust) > 0 {
+		add(adjustKV(p))
+	}
 	for _, k := range sortedKeys(p.Params) {
 		add(k + " = " + paramText(k, p.Params[k]))
 	}
