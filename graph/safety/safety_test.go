@@ -196,16 +196,18 @@ func TestCautionTexts(t *testing.T) {
 func TestReadingsCaution(t *testing.T) {
 	for _, a := range []Assessment{{Class: MainsHT}, {Class: Battery, MaxVolts: 9}, {Class: LiveChassis}, {Class: Unknown}} {
 		c := a.Caution()
-		r := c.Readings()
-		if r[0] != liveLine {
-			t.Errorf("class %v: first line %q, want the live-set line", a.Class, r[0])
-		}
-		if len(r) != len(c.Lines) {
-			t.Errorf("class %v: %d lines, want %d (the class's lines less the small-signal one, plus the live-set one)", a.Class, len(r), len(c.Lines))
-		}
-		for _, l := range r {
-			if l == smallSignalLine {
-				t.Errorf("class %v: the small-signal line does not belong above a DC chart", a.Class)
+		// The alignment guide is worked on a live set too (common practice).
+		for first, r := range map[string][]string{liveLine: c.Readings(), alignLine: c.Alignment()} {
+			if r[0] != first {
+				t.Errorf("class %v: first line %q, want %q", a.Class, r[0], first)
+			}
+			if len(r) != len(c.Lines) {
+				t.Errorf("class %v: %d lines, want %d (the class's lines less the small-signal one, plus the live-set one)", a.Class, len(r), len(c.Lines))
+			}
+			for _, l := range r {
+				if l == smallSignalLine {
+					t.Errorf("class %v: the small-signal line does not belong above a DC chart or an alignment guide", a.Class)
+				}
 			}
 		}
 	}

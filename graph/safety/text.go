@@ -111,8 +111,11 @@ const liveLine = "These voltages are measured with the set switched on. Clip the
 // Readings is the caution above a DC voltage chart or a readings report:
 // the live-set line, then the class's own lines and the line on codes (the
 // line about the reduced diagram does not apply to a chart of the whole set).
-func (c Caution) Readings() []string {
-	out := []string{liveLine}
+func (c Caution) Readings() []string { return c.live(liveLine) }
+
+// live is the class's lines less the small-signal one, after first.
+func (c Caution) live(first string) []string {
+	out := []string{first}
 	for _, l := range c.Lines {
 		if l != smallSignalLine {
 			out = append(out, l)
@@ -120,6 +123,18 @@ func (c Caution) Readings() []string {
 	}
 	return out
 }
+
+// Alignment is the caution above an alignment procedure and a
+// signal-injection table: the live-set line for trimming, then the class's
+// own lines and the line on codes (the line about the reduced diagram does
+// not apply: the guide is for the whole set).
+func (c Caution) Alignment() []string { return c.live(alignLine) }
+
+// alignLine opens the caution of an alignment guide: cores and trimmers
+// are turned with the set switched on (common practice: an insulated
+// trimming tool, one hand, the generator's earth clipped on with the set
+// off).
+const alignLine = "Alignment and signal tracing are done with the set switched on. Clip the generator's earth lead on with the set off, turn cores and trimmers with an insulated trimming tool, and keep one hand away from the chassis."
 
 // Lines shared by the classes that may carry mains or HT.
 const (

@@ -1,0 +1,147 @@
+// Package align turns what pare knows of a superhet (its IF, the IF
+// transformers and their cores, the oscillator and signal ranges, the
+// tracking points, the gains of every stage) into the bench guide a
+// repairer works from after a recap or a valve change: the alignment
+// procedure in the trade's order, a signal-injection table for finding a
+// dead stage, and what common faults look like in those readings.
+//
+// Every frequency the procedure quotes is one of the stage figures
+// (rules/stages), read by name; every level in the injection table is the
+// AC solver's on the whole circuit as captured (graph/ac). The package
+// never prints: `pare align` and the repair note write a Guide.
+package align
+
+import (
+	"pare/cmd/internal/pipeline"
+	"pare/graph"
+	"pare/rules/stages"
+)
+
+// Guide is the bench guide of one circuit.
+type Guide struct {
+	Title string
+	// Caution is the caution of the set's class for work on a live set
+	// (graph/safety): alignment and signal tracing are done switched on.
+	Caution []string
+	// IF is the set's intermediate frequency in hertz (0: none known) and
+	// IFFrom where it was read ("S2 IF", "[freqs] if"); FM marks an FM IF
+	// strip (a discriminator or ratio detector recognised).
+	IF     float64
+	IFFrom string
+	FM     bool
+	// Steps is the procedure, numbered from 1 in the order they are done.
+	Steps []Step
+	// Repeat says which steps are repeated until both ends hold.
+	Repeat []string
+	// Ends are the dial ends the oscillator and signal ranges should reach.
+	Ends []End
+	// Warnings: what the circuit cannot do or the capture does not show.
+	Warnings []string
+	// Nothing is set, with the reason, when there is nothing to align.
+	Nothing string
+	// Inject is the signal-injection table from the output back to the
+	// input; InjectErr says why it could not be made.
+	Inject    []Injection
+	InjectErr string
+	// Hints are the symptom hints for the kinds of stage this circuit has.
+	Hints []Hint
+}
+
+// Step is one adjustment.
+type Step struct {
+	N     int
+	Phase string // "IF", "oscillator", "aerial/RF"
+	Part  string // the part turned: "T2", "TC2"
+	What  string // "core of T2's secondary (s)", "oscillator trimmer TC2"
+	// Freq is the generator frequency in hertz; Dial, when not zero, the
+	// dial (signal) frequency the set is tuned to, and Osc the oscillator
+	// frequency expected there.
+	Freq, Dial, Osc float64
+	Watch           string // what to watch and for what
+	From            string // where the frequency comes from: "S2 track_fit"
+}
+
+// End is what one end of the dial should show.
+type End struct {
+	Where    string // "gang fully meshed (low end)"
+	Sig, Osc float64
+}
+
+// Build makes the guide of a pipeline result that ran to PhaseStages.
+func Build(r *pipeline.Result) *Guide {
+	g := &Guide{Title: r.Title, Caution: r.Caution.Alignment()}
+	c := r.Circuit
+	mix := mixerStage(r.Stages)
+	g.IF, g.IFFrom = setIF(c, mix)
+	g.FM = fmDetector(r.Stages) || g.IF >= fmIFMin
+	g.ifSteps(c, r.Stages)
+	if mix != nil {
+		g.trackingSteps(c, mix)
+	}
+	for i := range g.Steps {
+		g.Steps[i].N = i + 1
+	}
+	if len(g.Steps) == 0 {
+		g.Nothing = nothingReason(c, r.Stages)
+	}
+	g.Inject, g.InjectErr = injections(c, r.Stages, g)
+	g.Hints = hintsFor(r.Stages, g.IF)
+	return g
+}
+
+// fmIFMin separates an FM IF (10.7 MHz) from an AM one (455–470 kHz): any
+// IF above 5 MHz is taken as FM (common practice, no source).
+const fmIFMin = 5e6
+
+// mixerStage is the first stage that carries the mixer's figures (an IF
+// and an oscillator range), or nil.
+func mixerStage(sts []stages.Stage) *stages.Stage {
+	for i := range sts {
+		if _, ok := sts[i].Figures.Get("if"); ok {
+			return &sts[i]
+		}
+	}
+	return nil
+}
+
+// setIF is the IF the set is aligned to: the mixer's IF figure, else the
+// netlist's own [freqs] if (an IF strip on its own).
+func setIF(c *graph.Circuit, mix *stages.Stage) (float64, string) {
+	if mix != nil {
+		if f, ok := mix.Figures.Get("if"); ok && f.Value > 0 {
+			return f.Value, mix.Name + " IF"
+		}
+	}
+	if f := c.Freqs["if"]; f > 0 {
+		return f, "[freqs] if"
+	}
+	return 0, ""
+}
+
+func fmDetector(sts []stages.Stage) bool {
+	for _, s := range sts {
+		if s.Topology == "fm-ratio-detector" || s.Topology == "fm-phase-discriminator" {
+			return true
+		}
+	}
+	return false
+}
+
+// nothingReason says why a circuit has nothing to align.
+func nothingReason(c *graph.Circuit, sts []stages.Stage) string {
+	trimmers, cores := 0, 0
+	for _, p := range c.Parts {
+		if p.Type == graph.CapTrimmer {
+			trimmers++
+		}
+		cores += len(p.Adjust)
+	}
+	why := "no trimmer capacitor and no adjustable core is captured"
+	if trimmers+cores > 0 {
+		why = "its trimmers and cores tune no IF transformer and no ganged oscillator pare recognised"
+	}
+	if len(ifTransformers(c, sts, 0)) == 0 && mixerStage(sts) == nil {
+		why += ", and pare recognised no IF transformer and no frequency changer"
+	}
+	return "nothing to align: " + why + "."
+}

@@ -1,0 +1,100 @@
+package align
+
+import (
+	"slices"
+	"strings"
+
+	"pare/rules/stages"
+)
+
+// Hint is what a common fault of one kind of stage looks like on the
+// bench, for a stage of this circuit.
+type Hint struct {
+	Stage    string // "S2"
+	Parts    []string
+	Fault    string
+	Readings string // in the DC readings
+	Inject   string // in the injection table
+}
+
+// hintRow is one fault of a kind of stage (common practice, no source: the
+// faults a service bench meets most, in our own words).
+type hintRow struct {
+	kinds    []string // topology words that select the row
+	atIF     bool     // only a stage tuned to the IF
+	fault    string
+	readings string
+	inject   string
+}
+
+var hintTable = []hintRow{
+	{[]string{"hartley", "colpitts", "clapp", "tickler", "pierce", "self-oscillating-mixer"}, false,
+		"dead oscillator",
+		"no negative voltage on the oscillator grid (or base bias not pulled back); the cathode or emitter current rises to its no-signal value",
+		"the IF row gives its output, the RF row gives none at any setting of the dial"},
+	{[]string{"mixer"}, false,
+		"mixer not converting",
+		"anode or collector voltage normal but screen or emitter readings off the chart",
+		"IF injected at the mixer input passes, RF at the aerial gives nothing though the oscillator runs"},
+	{[]string{"double-tuned", "tuned-winding", "amp-tuned"}, true,
+		"detuned IF transformer (cores moved, a tuning capacitor gone low)",
+		"DC readings normal",
+		"the IF row at the IF needs far more level than the table says; rocking the generator finds a peak away from the IF"},
+	{[]string{"amp-common-bypassed"}, false,
+		"open cathode or emitter bypass",
+		"DC readings normal",
+		"the stage gains about half its figure or less (its unbypassed gain); the level at its input row rises by the same factor"},
+	{[]string{"rc-coupling", "coupling-capacitor"}, false,
+		"leaky coupling capacitor",
+		"the next grid sits positive (a valve) or the next base is pulled off its bias; that stage's anode or collector voltage drops",
+		"the stage after it distorts or gains little; injection before the capacitor needs more level than after it by more than the table's gain"},
+	{[]string{"rc-coupling", "coupling-capacitor"}, false,
+		"open coupling capacitor",
+		"DC readings normal",
+		"injection after the capacitor works, before it nothing (or a faint signal by stray capacity)"},
+	{[]string{"detector"}, false,
+		"open detector diode or load",
+		"no negative DC on the detector load and the AGC line with a carrier in",
+		"the IF rows reach the detector at their level, the audio rows work, yet no audio comes from an IF injection"},
+	{[]string{"discriminator", "ratio-detector"}, false,
+		"misaligned FM detector",
+		"the DC at the audio output is not zero with an unmodulated carrier at the IF",
+		"an FM signal at the IF gives distorted audio; AM on the carrier is heard"},
+	{[]string{"volume-control"}, false,
+		"worn volume track",
+		"DC readings normal",
+		"injection at the detector load gives a crackling or missing output that changes as the control is moved"},
+	{[]string{"agc-filter"}, false,
+		"leaky AGC decoupling capacitor",
+		"the AGC line stays near zero volts on a strong carrier",
+		"strong signals overload: the output stops rising with level long before the IF rows' reference"},
+}
+
+// hintsFor are the hints for the stages the circuit has, in stage order;
+// a sub-stage does not repeat a fault its parent already shows.
+func hintsFor(sts []stages.Stage, ifHz float64) []Hint {
+	var out []Hint
+	for _, s := range sts {
+		if s.Supply {
+			continue
+		}
+		for _, row := range hintTable {
+			if !slices.ContainsFunc(row.kinds, func(k string) bool { return strings.Contains(s.Topology, k) }) ||
+				(row.atIF && !tunedAt(s, ifHz)) || shown(out, row.fault, s.Parts) {
+				continue
+			}
+			out = append(out, Hint{Stage: s.Name, Parts: s.Parts, Fault: row.fault, Readings: row.readings, Inject: row.inject})
+		}
+	}
+	return out
+}
+
+// shown tells whether a hint for fault already covers all of parts.
+func shown(hs []Hint, fault string, parts []string) bool {
+	for _, h := range hs {
+		if h.Fault == fault && !slices.ContainsFunc(parts, func(p string) bool { return !slices.Contains(h.Parts, p) }) {
+			return true
+		}
+	}
+	return false
+}

@@ -1,0 +1,205 @@
+package align
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"pare/graph"
+	"pare/rules/stages"
+)
+
+// tunedTopologies are the stages whose transformer is an IF can when they
+// resonate at the IF.
+var tunedTopologies = []string{"double-tuned", "tuned-winding", "amp-tuned", "amp-tuned-tapped"}
+
+// resonanceNames are the figures that say where such a stage is tuned.
+var resonanceNames = []string{"f", "f1", "f2", "load_f"}
+
+// ifNear is how close a stage's resonance must be to the IF for its
+// transformer to count as an IF can: 10 % (an IF can detuned by a few
+// per cent is still one; the next tuned circuit, the aerial, is a factor
+// away). Common practice, no source.
+const ifNear = 0.10
+
+// ifTransformers are the transformers (and tuned coils) of the stages tuned
+// to the IF, in signal order, each once. ifHz 0: the set's IF is unknown and
+// there are none.
+func ifTransformers(c *graph.Circuit, sts []stages.Stage, ifHz float64) []*graph.Part {
+	var out []*graph.Part
+	if ifHz <= 0 {
+		return nil
+	}
+	for _, s := range sts {
+		if !slices.Contains(tunedTopologies, s.Topology) || !tunedAt(s, ifHz) {
+			continue
+		}
+		for _, ref := range s.Parts {
+			p := c.Part(ref)
+			if p == nil || (p.Kind != graph.Transformer && p.Kind != graph.Inductor) || slices.Contains(out, p) {
+				continue
+			}
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+func tunedAt(s stages.Stage, ifHz float64) bool {
+	for _, n := range resonanceNames {
+		f, ok := s.Figures.Get(n)
+		if ok && f.Range == nil && math.Abs(f.Value-ifHz) <= ifNear*ifHz {
+			return true
+		}
+	}
+	return false
+}
+
+// ifSteps adds the IF alignment: each IF transformer from the detector back
+// to the mixer (common practice: the can nearest the detector first, its
+// secondary before its primary, so each peak is read through cans already
+// peaked).
+func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
+	cans := ifTransformers(c, sts, g.IF)
+	watch := ifWatch(c, sts, g.FM)
+	for i := len(cans) - 1; i >= 0; i-- {
+		p := cans[i]
+		adj := ifAdjusters(c, p)
+		if len(adj) == 0 {
+			g.Warnings = append(g.Warnings, fmt.Sprintf("%s is tuned to the IF but no adjustable core or trimmer is captured on it: if the can has cores, add adjust = %s to %s (docs/netlist.md)", p.Ref, adjustHint(p), p.Ref))
+			continue
+		}
+		for _, a := range adj {
+			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Watch: watch, From: g.IFFrom})
+		}
+	}
+}
+
+type adjuster struct{ ref, what string }
+
+// ifAdjusters are what tunes one IF can: its cores as captured (the
+// secondary's first), else the trimmers across its windings.
+func ifAdjusters(c *graph.Circuit, p *graph.Part) []adjuster {
+	var out []adjuster
+	cores := slices.Clone(p.Adjust)
+	slices.SortFunc(cores, func(a, b string) int { return windingOrder(a) - windingOrder(b) })
+	for _, w := range cores {
+		if w == graph.CoreWhole {
+			out = append(out, adjuster{p.Ref, "core of " + p.Ref})
+			continue
+		}
+		out = append(out, adjuster{p.Ref, fmt.Sprintf("core of %s's %s (%s)", p.Ref, windingWord(w), w)})
+	}
+	if len(out) > 0 {
+		return out
+	}
+	for _, t := range trimmersOn(c, netsOf(p)) {
+		out = append(out, adjuster{t.Ref, fmt.Sprintf("trimmer %s across %s", t.Ref, p.Ref)})
+	}
+	return out
+}
+
+// windingOrder puts a secondary before a primary, then the rest by name.
+func windingOrder(w string) int {
+	switch w {
+	case "s":
+		return 0
+	case "p":
+		return 1
+	}
+	return 2
+}
+
+func windingWord(w string) string {
+	switch w {
+	case "s":
+		return "secondary"
+	case "p":
+		return "primary"
+	}
+	return "winding"
+}
+
+func adjustHint(p *graph.Part) string {
+	if p.Kind != graph.Transformer {
+		return `"core"`
+	}
+	var names []string
+	for _, w := range p.Windings {
+		names = append(names, fmt.Sprintf("%q", w.Name))
+	}
+	return "[" + strings.Join(names, ", ") + "]"
+}
+
+// netsOf are the signal nets a part touches (ground left out).
+func netsOf(p *graph.Part) []string {
+	var out []string
+	for _, pin := range p.Pins {
+		if pin.Net != "" && !slices.Contains(out, pin.Net) {
+			out = append(out, pin.Net)
+		}
+	}
+	return out
+}
+
+// trimmersOn are the trimmer capacitors with a pin on one of the nets, in
+// the circuit's order.
+func trimmersOn(c *graph.Circuit, nets []string) []*graph.Part {
+	var out []*graph.Part
+	for _, q := range c.Parts {
+		if q.Kind != graph.Capacitor || q.Type != graph.CapTrimmer {
+			continue
+		}
+		for _, pin := range q.Pins {
+			if slices.Contains(nets, pin.Net) && c.RoleOf(pin.Net) != graph.Ground {
+				out = append(out, q)
+				break
+			}
+		}
+	}
+	return out
+}
+
+// ifWatch is what to watch while peaking the IF (common practice): on an
+// AM set the detector's DC or the AGC line, or the output meter; on an FM
+// strip the detector's DC; a section without the detector its IF output.
+func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool) string {
+	agc := agcNet(c)
+	det := detectorStage(sts)
+	switch {
+	case fm:
+		return "the DC across the ratio detector's load (or the discriminator's limiter grid) for a maximum; then the detector's secondary for zero DC at the audio output on a centre-zero meter"
+	case det != nil && agc != "":
+		return fmt.Sprintf("the DC on the AGC line (%s) for its most negative reading, or the output meter for a maximum", agc)
+	case det != nil:
+		return fmt.Sprintf("the detector's DC (%s) for its largest reading, or the output meter for a maximum", det.Name)
+	case len(c.Outputs) > 0:
+		w := fmt.Sprintf("the IF at %s on an RF voltmeter or scope for a maximum", c.Outputs[0])
+		if agc != "" {
+			w += fmt.Sprintf(" (on the whole set: the AGC line %s, most negative)", agc)
+		}
+		return w
+	}
+	return "the output meter for a maximum"
+}
+
+// agcNet is the AGC line: a bias net named or labelled AGC.
+func agcNet(c *graph.Circuit) string {
+	for _, n := range c.Nets {
+		if n.Role == graph.Bias && (strings.Contains(strings.ToLower(n.Name), "agc") || strings.Contains(strings.ToLower(n.Label), "agc")) {
+			return n.Name
+		}
+	}
+	return ""
+}
+
+func detectorStage(sts []stages.Stage) *stages.Stage {
+	for i := range sts {
+		t := sts[i].Topology
+		if strings.Contains(t, "detector") || strings.Contains(t, "discriminator") {
+			return &sts[i]
+		}
+	}
+	return nil
+}

@@ -1,0 +1,217 @@
+package align
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/rules/stages"
+)
+
+// Injection is one row of the signal-injection table: where a generator
+// goes, at what frequency and level, and what that level should give.
+type Injection struct {
+	Net   string // the injection point
+	Where string // the part and electrode there: "V3 grid (g1)", "P1 (from aerial coupling)"
+	Band  string // "audio", "IF", "RF"
+	Freq  float64
+	// Level is the generator's RMS voltage at Net that gives RefLevel at
+	// RefNet, from the AC solver on the whole circuit.
+	Level    float64
+	RefNet   string
+	RefLevel float64
+	RefWhat  string // "1 V at the detector (det_a)"
+	// Gain is what the stage from Net to GainTo should show at Freq: the
+	// ratio of the voltages at the two points (the solver's, on the whole
+	// circuit). 0 with GainNote where it is no linear gain.
+	Gain     float64
+	GainTo   string
+	GainNote string
+	// Gang is the gang setting the row is solved at (fraction of travel
+	// from fully open); Tuned says the gang was turned for the peak.
+	Gang  float64
+	Tuned bool
+}
+
+// Options is the AC solver's setting for the row.
+func (in Injection) Options() ac.Options { return ac.Options{VarFrac: in.Gang, VarSet: true} }
+
+// Reference outputs (common practice, no source): 50 mW into a loudspeaker
+// is the customary standard output; 1 V at the detector or at a section's
+// output is a level a meter reads easily and a detector works well at. The
+// audio tone is the generators' customary 400 Hz.
+const (
+	refSpeakerW = 0.05
+	refVolts    = 1.0
+	audioHz     = 400.0
+)
+
+// point is an injection point before it is solved.
+type point struct {
+	net, where, band string
+	mixer            bool
+}
+
+// injections builds the table from the output back to the input.
+func injections(c *graph.Circuit, sts []stages.Stage, g *Guide) ([]Injection, string) {
+	pts := injectionPoints(c, sts, g)
+	if len(pts) == 0 {
+		return nil, "no active stage and no declared input to inject at"
+	}
+	rows := make([]Injection, len(pts))
+	// Solve from the output end: an RF row's reference is the mixer row's
+	// level, solved first.
+	for i := len(pts) - 1; i >= 0; i-- {
+		in, err := solveRow(c, sts, pts, rows, i, g)
+		if err != nil {
+			return nil, fmt.Sprintf("%s at %s: %v", pts[i].band, pts[i].net, err)
+		}
+		rows[i] = in
+	}
+	slices.Reverse(rows)
+	return rows, ""
+}
+
+// injectionPoints are the points in signal order: the declared input, then
+// each active device's control electrode (the trade injects on grids,
+// bases and gates) and the detector's load, in the order of the stages.
+func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
+	var pts []point
+	seen := map[string]bool{}
+	add := func(p point) {
+		if p.net != "" && !seen[p.net] && !c.RoleOf(p.net).IsACGround() {
+			seen[p.net] = true
+			pts = append(pts, p)
+		}
+	}
+	mixerSeen, detSeen := false, false
+	band := func() string {
+		switch {
+		case detSeen:
+			return "audio"
+		case g.IF > 0 && (mixerSeen || mixerStage(sts) == nil):
+			return "IF"
+		case g.IF > 0:
+			return "RF"
+		case c.FullBand().Max <= 30e3:
+			return "audio"
+		}
+		return "RF"
+	}
+	if len(c.Inputs) > 0 {
+		add(point{net: c.Inputs[0], where: portOn(c, c.Inputs[0]), band: band()})
+	}
+	for _, s := range sts {
+		if s.Supply {
+			continue
+		}
+		isMixer := strings.Contains(s.Topology, "mixer")
+		if isMixer {
+			mixerSeen = true
+		}
+		if strings.Contains(s.Topology, "detector") || strings.Contains(s.Topology, "discriminator") {
+			detSeen = true
+			add(point{net: detectorLoad(c, s), where: s.Name + " detector load", band: "audio"})
+			continue
+		}
+		for _, ref := range s.Parts {
+			p := c.Part(ref)
+			if p == nil || !p.IsActive() {
+				continue
+			}
+			pin := p.PinWithRole(graph.RoleControl)
+			add(point{net: p.NetOf(pin), where: fmt.Sprintf("%s %s (%s)", p.Ref, controlWord(p), pin), band: band(), mixer: isMixer})
+		}
+	}
+	return pts
+}
+
+func controlWord(p *graph.Part) string {
+	switch p.Kind {
+	case graph.BJT:
+		return "base"
+	case graph.FET:
+		return "gate"
+	}
+	return "grid"
+}
+
+func portOn(c *graph.Circuit, net string) string {
+	for _, p := range c.Parts {
+		if p.Kind == graph.Port && p.NetOf("1") == net {
+			return fmt.Sprintf("%s (%s)", p.Ref, p.Label)
+		}
+	}
+	return "input " + net
+}
+
+// detectorLoad is the net the detector's load sits on: a net of the
+// detector stage that is neither AC ground nor the diode's anode.
+func detectorLoad(c *graph.Circuit, s stages.Stage) string {
+	anode := diodeAnode(c, s)
+	for _, ref := range s.Parts {
+		p := c.Part(ref)
+		if p == nil || p.Kind == graph.Valve || p.Kind == graph.Diode {
+			continue
+		}
+		for _, n := range netsOf(p) {
+			if n != anode && !c.RoleOf(n).IsACGround() {
+				return n
+			}
+		}
+	}
+	return ""
+}
+
+// diodeAnode is the detector diode's anode net.
+func diodeAnode(c *graph.Circuit, s stages.Stage) string {
+	for _, ref := range s.Parts {
+		p := c.Part(ref)
+		if p == nil {
+			continue
+		}
+		switch {
+		case p.Kind == graph.Diode:
+			return p.NetOf("a")
+		case p.Kind == graph.Valve && !p.IsActive():
+			for _, a := range []string{"a", "a1", "a2"} {
+				if n := p.NetOf(a); n != "" {
+					return n
+				}
+			}
+		}
+	}
+	return ""
+}
+
+// reference is what a row of a band is solved to give.
+func reference(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injection, i int) (net string, level float64, what string) {
+	switch pts[i].band {
+	case "audio":
+		for _, p := range c.Parts {
+			if p.Kind == graph.Loudspeaker && p.Value.Max > 0 {
+				hot := hotNet(c, p)
+				return hot, math.Sqrt(refSpeakerW * p.Value.Max), fmt.Sprintf("50 mW into the loudspeaker %s", p.Ref)
+			}
+		}
+	case "IF":
+		if det := detectorStage(sts); det != nil {
+			if a := diodeAnode(c, *det); a != "" {
+				return a, refVolts, fmt.Sprintf("1 V of IF at the detector (%s)", a)
+			}
+		}
+	case "RF":
+		for j := i + 1; j < len(pts); j++ {
+			if pts[j].mixer {
+				return pts[j].net, rows[j].Level, fmt.Sprintf("the mixer row's level on %s (conversion is no small-signal gain)", pts[j].net)
+			}
+		}
+	}
+	if len(c.Outputs) == 0 {
+		return "", 0, ""
+	}
+	return c.Outputs[0], refVolts, fmt.Sprintf("1 V at the output (%s)", c.Outputs[0])
+}

@@ -1,0 +1,125 @@
+package align
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/rules/stages"
+)
+
+// solveRow solves row i: its frequency, the gang (turned for the peak on an
+// RF row, as the repairer tunes the set to the generator), the level that
+// gives the reference, and the gain to the next point of its band.
+func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injection, i int, g *Guide) (Injection, error) {
+	p := pts[i]
+	in := Injection{Net: p.net, Where: p.where, Band: p.band, Gang: 0.5}
+	in.RefNet, in.RefLevel, in.RefWhat = reference(c, sts, pts, rows, i)
+	if in.RefNet == "" {
+		return in, fmt.Errorf("no output declared to refer the level to")
+	}
+	in.Freq = rowFreq(c, p.band, g)
+	if p.band == "RF" {
+		in.Gang, in.Tuned = peakGang(c, p.net, in.RefNet, in.Freq), true
+	}
+	h, err := Response(c, in.Net, in.RefNet, in.Freq, in.Gang)
+	if err != nil {
+		return in, err
+	}
+	if h == 0 {
+		return in, fmt.Errorf("nothing reaches %s from here in the small-signal circuit", in.RefNet)
+	}
+	in.Level = in.RefLevel / h
+	in.GainTo = gainTarget(pts, i, in.RefNet)
+	if in.Gain, err = Response(c, in.Net, in.GainTo, in.Freq, in.Gang); err != nil {
+		return in, err
+	}
+	if p.mixer {
+		in.GainNote = "at the IF, as an IF amplifier"
+	}
+	return in, nil
+}
+
+// Response is |V(out)/V(in)| with in driven by an ideal source at f hertz,
+// the gang at frac of its travel: the AC solver on the whole circuit.
+func Response(c *graph.Circuit, in, out string, f, frac float64) (float64, error) {
+	r, err := ac.NewTransfer(c, in, out, ac.Options{VarFrac: frac, VarSet: true})
+	if err != nil {
+		return 0, err
+	}
+	v, err := r.At(f)
+	return cmplx.Abs(v), err
+}
+
+// gainTarget is the next point toward the output in the same band (an RF
+// row's band ends at the mixer), else the reference net.
+func gainTarget(pts []point, i int, ref string) string {
+	for j := i + 1; j < len(pts); j++ {
+		if pts[j].band == pts[i].band || (pts[i].band == "RF" && pts[j].mixer) {
+			return pts[j].net
+		}
+	}
+	return ref
+}
+
+// rowFreq is the generator frequency of a band: the audio tone, the set's
+// IF, or for RF the high tracking point (the first oscillator step's dial),
+// else the band's geometric centre.
+func rowFreq(c *graph.Circuit, band string, g *Guide) float64 {
+	switch band {
+	case "audio":
+		return audioHz
+	case "IF":
+		return g.IF
+	}
+	for _, s := range g.Steps {
+		if s.Dial > 0 {
+			return s.Dial
+		}
+	}
+	b := c.Band
+	if b.Min <= 0 {
+		b = c.FullBand()
+	}
+	return math.Sqrt(b.Min * b.Max)
+}
+
+// peakGang turns the gang for the largest response at f: a scan of the
+// travel, then a golden-section search around the best point.
+func peakGang(c *graph.Circuit, in, out string, f float64) float64 {
+	mag := func(th float64) float64 {
+		v, err := Response(c, in, out, f, th)
+		if err != nil {
+			return 0
+		}
+		return v
+	}
+	const scan = 40
+	best, bestV := 0.0, -1.0
+	for k := 0; k <= scan; k++ {
+		th := float64(k) / scan
+		if v := mag(th); v > bestV {
+			best, bestV = th, v
+		}
+	}
+	lo, hi := math.Max(0, best-1.0/scan), math.Min(1, best+1.0/scan)
+	const phi = 0.6180339887498949
+	a, b := hi-phi*(hi-lo), lo+phi*(hi-lo)
+	fa, fb := mag(a), mag(b)
+	for range 40 {
+		if fa > fb {
+			hi, b, fb = b, a, fa
+			a = hi - phi*(hi-lo)
+			fa = mag(a)
+		} else {
+			lo, a, fa = a, b, fb
+			b = lo + phi*(hi-lo)
+			fb = mag(b)
+		}
+	}
+	return (lo + hi) / 2
+}
+
+func db(v float64) float64 { return 20 * math.Log10(v) }

@@ -1,0 +1,280 @@
+package align
+
+import (
+	"fmt"
+	"math"
+	"slices"
+
+	"pare/graph"
+	"pare/graph/figure"
+	"pare/rules/stages"
+)
+
+// trackLimit is the tracking error above which a set is said not to
+// track: 2 % of the IF, inside the IF pass-band, the line `pare stages`
+// flags as well (common practice, no source).
+const trackLimit = 0.02
+
+// tank is one ganged tuned circuit as the bench sees it: the gang section,
+// the trimmer across it, the padder in series (oscillator only) and the
+// coil.
+type tank struct {
+	gang, trimmer, padder, coil *graph.Part
+}
+
+// trackingSteps adds the oscillator and aerial/RF tracking (common
+// practice): oscillator trimmer at the high tracking point, padder or
+// oscillator core at the low one, repeated until both hold; then the aerial
+// trimmer and core at the same two points.
+func (g *Guide) trackingSteps(c *graph.Circuit, mix *stages.Stage) {
+	osc := oscTank(c, mix)
+	if osc.gang == nil {
+		return
+	}
+	sig := sigTank(c, osc.gang)
+	lo, hi, from, ok := g.trackPoints(mix)
+	if !ok {
+		return
+	}
+	g.ends(c, mix)
+	g.trackWarnings(mix, osc)
+	first := len(g.Steps)
+	g.addEnd(osc.trimmer, "oscillator trimmer", "oscillator", hi, from, "no oscillator trimmer is captured on "+osc.gang.Ref+": the high end of the dial cannot be set")
+	g.addEnd(lowSetter(osc), "", "oscillator", lo, from, lowMissing(osc))
+	if len(g.Steps)-first == 2 {
+		g.Repeat = append(g.Repeat, fmt.Sprintf("repeat the two oscillator steps until both hold: each pulls the other (common practice)"))
+	}
+	if sig.gang == nil {
+		return
+	}
+	first = len(g.Steps)
+	g.addEnd(sig.trimmer, "aerial trimmer", "aerial/RF", hi, from, "no aerial trimmer is captured on "+sig.gang.Ref+": the aerial circuit cannot be peaked at the high end")
+	g.addEnd(coreOf(sig.coil), "", "aerial/RF", lo, from, rfLowMissing(sig))
+	if len(g.Steps)-first == 2 {
+		g.Repeat = append(g.Repeat, "repeat the two aerial/RF steps until both peak (common practice)")
+	}
+}
+
+// addEnd adds one tracking step: p at the dial frequency f, or the warning
+// when p is nil.
+func (g *Guide) addEnd(p *graph.Part, word, phase string, f float64, from, missing string) {
+	if p == nil {
+		g.Warnings = append(g.Warnings, missing)
+		return
+	}
+	what := word + " " + p.Ref
+	if word == "" {
+		what = describe(p)
+	}
+	watch := "tune the set to the generator and turn " + p.Ref + " for the loudest output"
+	if phase == "oscillator" {
+		watch = fmt.Sprintf("set the dial to %s and turn %s until the generator is heard there at its loudest (the oscillator is then at %s)",
+			hz(f), p.Ref, hz(f+g.IF))
+		if word == "" {
+			watch = fmt.Sprintf("set the dial to %s, then rock the gang through the signal while turning %s, for the loudest output at that dial reading (oscillator at %s)",
+				hz(f), p.Ref, hz(f+g.IF))
+		}
+	} else if word == "" {
+		watch = "rock the gang through the signal while turning " + p.Ref + ", for the loudest output"
+	}
+	g.Steps = append(g.Steps, Step{Phase: phase, Part: p.Ref, What: what, Freq: f, Dial: f, Osc: f + g.IF, Watch: watch, From: from})
+}
+
+func describe(p *graph.Part) string {
+	if p.Kind == graph.Capacitor {
+		return "padder " + p.Ref
+	}
+	return "core of " + p.Ref
+}
+
+// trackPoints are the low and high tracking frequencies: where the set as
+// captured tracks exactly (track_fit) when it does at two points or more,
+// else the three customary points pare proposes (track_f), with a warning.
+func (g *Guide) trackPoints(mix *stages.Stage) (lo, hi float64, from string, ok bool) {
+	fit, _ := mix.Figures.Get("track_fit")
+	if len(fit.Points) >= 2 {
+		return fit.Points[0], fit.Points[len(fit.Points)-1], fmt.Sprintf("%s: %s %s", mix.Name, fit.Label, hzList(fit.Points)), true
+	}
+	sug, okS := mix.Figures.Get("track_f")
+	if !okS || len(sug.Points) < 2 {
+		g.Warnings = append(g.Warnings, mix.Name+": pare found no tracking points for this oscillator: the gang's sections could not be paired")
+		return 0, 0, "", false
+	}
+	as := "nowhere on the dial"
+	if len(fit.Points) == 1 {
+		as = "at " + hz(fit.Points[0]) + " only"
+	}
+	g.Warnings = append(g.Warnings, fmt.Sprintf("as captured the set tracks exactly %s: the procedure aligns at the customary points of pare's suggested three-point design instead", as))
+	return sug.Points[0], sug.Points[len(sug.Points)-1], fmt.Sprintf("%s: %s, %s %s", mix.Name, sug.Group, sug.Label, hzList(sug.Points)), true
+}
+
+// ends records the dial ends from the oscillator and signal ranges, and
+// warns when the signal range misses the band.
+func (g *Guide) ends(c *graph.Circuit, mix *stages.Stage) {
+	osc, ok1 := mix.Figures.Get("osc_f")
+	sig, ok2 := mix.Figures.Get("sig_f")
+	if !ok1 || !ok2 || osc.Range == nil || sig.Range == nil {
+		return
+	}
+	g.Ends = []End{
+		{Where: "gang fully meshed (low end)", Sig: sig.Range.Min, Osc: osc.Range.Min},
+		{Where: "gang fully open (high end)", Sig: sig.Range.Max, Osc: osc.Range.Max},
+	}
+	b := c.Band
+	if b.Max > 0 && (sig.Range.Min > b.Min*1.001 || sig.Range.Max < b.Max*0.999) {
+		g.Warnings = append(g.Warnings, fmt.Sprintf("as captured the set tunes %s to %s, not the whole band %s to %s: after alignment check both ends of the dial",
+			hz(sig.Range.Min), hz(sig.Range.Max), hz(b.Min), hz(b.Max)))
+	}
+}
+
+// trackWarnings says when the oscillator cannot track.
+func (g *Guide) trackWarnings(mix *stages.Stage, osc tank) {
+	e, ok := mix.Figures.Get("track_err_max")
+	if !ok || g.IF <= 0 || math.Abs(e.Value) <= trackLimit*g.IF {
+		return
+	}
+	at := ""
+	if e.At != nil {
+		at = " at " + hz(e.At.Value)
+	}
+	if osc.padder == nil {
+		g.Warnings = append(g.Warnings, fmt.Sprintf("this oscillator has no padder and pare's tracking error is %s%s, above %s (2 %% of the IF, common practice): it cannot track over the dial, whatever the trimmers", hz(e.Value), at, hz(trackLimit*g.IF)))
+		return
+	}
+	g.Warnings = append(g.Warnings, fmt.Sprintf("pare's tracking error for the parts as captured is %s%s, above %s (2 %% of the IF, common practice): the two-point alignment should bring it in; if it does not, check the padder %s's value", hz(e.Value), at, hz(trackLimit*g.IF), osc.padder.Ref))
+}
+
+// oscTank finds the mixer's oscillator gang section and what sits on it.
+func oscTank(c *graph.Circuit, mix *stages.Stage) tank {
+	var t tank
+	for _, ref := range mix.Parts {
+		if p := c.Part(ref); p != nil && p.Kind == graph.Capacitor && p.Gang != "" && p.Type == graph.CapVariable {
+			t.gang = p
+			break
+		}
+	}
+	if t.gang == nil {
+		return t
+	}
+	hot := hotNet(c, t.gang)
+	t.trimmer = shuntTrimmer(c, hot, t.gang)
+	t.padder = seriesCap(c, hot, t.gang)
+	coilNet := hot
+	if t.padder != nil {
+		coilNet = otherNet(t.padder, hot)
+	}
+	t.coil = coilOn(c, coilNet)
+	if t.trimmer == nil && t.padder != nil {
+		t.trimmer = shuntTrimmer(c, coilNet, nil)
+	}
+	return t
+}
+
+// sigTank is the signal section ganged with the oscillator's.
+func sigTank(c *graph.Circuit, oscGang *graph.Part) tank {
+	var t tank
+	for _, p := range c.Parts {
+		if p != oscGang && p.Kind == graph.Capacitor && p.Gang == oscGang.Gang && p.Type == graph.CapVariable {
+			t.gang = p
+			break
+		}
+	}
+	if t.gang == nil {
+		return t
+	}
+	hot := hotNet(c, t.gang)
+	t.trimmer = shuntTrimmer(c, hot, t.gang)
+	t.coil = coilOn(c, hot)
+	return t
+}
+
+// hotNet is a gang section's net away from ground.
+func hotNet(c *graph.Circuit, p *graph.Part) string {
+	for _, pin := range p.Pins {
+		if !c.RoleOf(pin.Net).IsACGround() {
+			return pin.Net
+		}
+	}
+	return ""
+}
+
+func otherNet(p *graph.Part, net string) string {
+	for _, pin := range p.Pins {
+		if pin.Net != net {
+			return pin.Net
+		}
+	}
+	return ""
+}
+
+// shuntTrimmer is a trimmer from net to AC ground.
+func shuntTrimmer(c *graph.Circuit, net string, not *graph.Part) *graph.Part {
+	for _, t := range trimmersOn(c, []string{net}) {
+		if t != not && c.RoleOf(otherNet(t, net)).IsACGround() {
+			return t
+		}
+	}
+	return nil
+}
+
+// seriesCap is the padder: a capacitor from the section's hot net to a
+// net that is not AC ground (the coil's).
+func seriesCap(c *graph.Circuit, net string, gang *graph.Part) *graph.Part {
+	for _, p := range c.Parts {
+		if p == gang || p.Kind != graph.Capacitor || len(p.Pins) != 2 || p.Type == graph.CapVariable {
+			continue
+		}
+		if slices.Contains(netsOf(p), net) && !c.RoleOf(otherNet(p, net)).IsACGround() && coilOn(c, otherNet(p, net)) != nil {
+			return p
+		}
+	}
+	return nil
+}
+
+// coilOn is the coil or transformer with a pin on net.
+func coilOn(c *graph.Circuit, net string) *graph.Part {
+	for _, p := range c.Parts {
+		if (p.Kind == graph.Inductor || p.Kind == graph.Transformer) && slices.Contains(netsOf(p), net) {
+			return p
+		}
+	}
+	return nil
+}
+
+// lowSetter is what sets the oscillator's low end: an adjustable padder,
+// else the coil's core.
+func lowSetter(t tank) *graph.Part {
+	if t.padder != nil && t.padder.Type == graph.CapTrimmer {
+		return t.padder
+	}
+	return coreOf(t.coil)
+}
+
+func coreOf(p *graph.Part) *graph.Part {
+	if p != nil && len(p.Adjust) > 0 {
+		return p
+	}
+	return nil
+}
+
+func lowMissing(t tank) string {
+	coil := "the oscillator coil"
+	if t.coil != nil {
+		coil = t.coil.Ref
+	}
+	if t.padder != nil {
+		return fmt.Sprintf("the low end cannot be set: the padder %s is fixed and no adjustable core is captured on %s (add adjust = \"core\" if it has one)", t.padder.Ref, coil)
+	}
+	return fmt.Sprintf("the low end cannot be set: no padder and no adjustable core is captured on %s", coil)
+}
+
+func rfLowMissing(t tank) string {
+	if t.coil == nil {
+		return "no aerial coil found on " + t.gang.Ref + ": the low end of the aerial circuit cannot be peaked"
+	}
+	return fmt.Sprintf("no adjustable core is captured on the aerial coil %s: on a ferrite rod the low end is peaked by sliding the winding along the rod (common practice); add adjust = \"core\" if the coil has a core", t.coil.Ref)
+}
+
+func hz(v float64) string { return figure.Format(v, figure.Hertz, figure.Text) }
+
+func hzList(vs []float64) string { return figure.Points(vs, figure.Hertz, figure.Text) }
