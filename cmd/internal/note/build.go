@@ -1,6 +1,7 @@
 package note
 
 import (
+	"pare/cmd/internal/align"
 	"path/filepath"
 	"slices"
 	"sort"
@@ -55,6 +56,9 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 		n.Verify.Rails = RailOutputs(r.Circuit)
 	}
 	n.DC = dcFrom(r)
+	if r.Stages != nil {
+		n.Align = align.Build(r)
+	}
 	return n
 }
 

@@ -10,6 +10,7 @@ import (
 	"bytes"
 	"fmt"
 	"io"
+	"pare/cmd/internal/align"
 	"strings"
 
 	"pare/graph/value"
@@ -44,6 +45,9 @@ type Note struct {
 	Verify      Verify
 	Caution     Caution
 	DC          DC // the voltage chart
+	// Align is the alignment and signal-tracing guide (cmd/internal/align);
+	// nil when the stages were not found.
+	Align *align.Guide
 }
 
 type PartCount struct{ Parts, Nets int }
@@ -178,6 +182,11 @@ func Write(w io.Writer, n *Note) error {
 	writeSheets(&b, n)
 	writeStages(&b, n)
 	writeDC(&b, n)
+	if n.Align != nil {
+		if err := align.WriteMarkdown(&b, n.Align); err != nil {
+			return err
+		}
+	}
 	writeParts(&b, n)
 	writePartNotes(&b, n)
 	writeSteps(&b, n)
