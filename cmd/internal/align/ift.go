@@ -71,7 +71,7 @@ func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 			continue
 		}
 		for _, a := range adj {
-			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Watch: watch, From: g.IFFrom})
+			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Watch: "watch " + watch, From: g.IFFrom})
 		}
 	}
 }

@@ -21,7 +21,17 @@ func WriteText(w io.Writer, g *Guide) error {
 		fmt.Fprintf(&b, "! %s\n", l)
 	}
 	b.WriteString("\n")
-	for _, l := range g.procedure() {
+	intro, items, closing := g.procedure()
+	if intro != "" {
+		fmt.Fprintf(&b, "%s\n", intro)
+	}
+	for _, it := range items {
+		fmt.Fprintf(&b, "%d. %s\n   %s\n", it.n, it.text, it.how)
+		for _, r := range it.repeatsAfter {
+			fmt.Fprintf(&b, "   %s\n", r)
+		}
+	}
+	for _, l := range closing {
 		fmt.Fprintf(&b, "%s\n", l)
 	}
 	b.WriteString("\nSignal injection, from the output back to the input (levels from the AC solver on the whole circuit):\n")
@@ -49,18 +59,27 @@ func WriteMarkdown(w io.Writer, g *Guide) error {
 		fmt.Fprintf(&b, "> %s\n", esc.Markdown(l))
 	}
 	b.WriteString("\n")
-	for _, l := range g.procedure() {
-		if strings.HasPrefix(l, "  ") {
-			fmt.Fprintf(&b, "   %s\n", esc.Markdown(strings.TrimSpace(l)))
-			continue
+	intro, items, closing := g.procedure()
+	if intro != "" {
+		fmt.Fprintf(&b, "%s\n\n", esc.Markdown(intro))
+	}
+	for _, it := range items {
+		fmt.Fprintf(&b, "%d. %s  \n   %s\n", it.n, esc.Markdown(it.text), esc.Markdown(it.how))
+		for _, r := range it.repeatsAfter {
+			fmt.Fprintf(&b, "   **%s**\n", esc.Markdown(r))
 		}
-		fmt.Fprintf(&b, "%s\n\n", esc.Markdown(l))
+	}
+	if len(items) > 0 {
+		b.WriteString("\n")
+	}
+	for _, l := range closing {
+		fmt.Fprintf(&b, "- %s\n", esc.Markdown(l))
 	}
 	b.WriteString("\n### Signal injection\n\nFrom the output back to the input; levels from the AC solver on the whole circuit as captured.\n\n")
 	if len(g.Inject) > 0 {
 		b.WriteString("| # | inject at | frequency | level | gives | stage gain |\n|---|---|---|---|---|---|\n")
 		for i, in := range g.Inject {
-			fmt.Fprintf(&b, "| %d | %s | %s | %s | %s | %s |\n", i+1, esc.MarkdownCell(in.Where+" on "+in.Net),
+			fmt.Fprintf(&b, "| %d | %s | %s | %s | %s | %s |\n", i+1, cellCode(in.Where)+" on "+cellCode(in.Net),
 				hz(in.Freq)+freqNote(in), volts(in.Level), esc.MarkdownCell(in.RefWhat), esc.MarkdownCell(gainText(in)))
 		}
 	}
@@ -78,42 +97,47 @@ func WriteMarkdown(w io.Writer, g *Guide) error {
 	return err
 }
 
-// procedure is the procedure as lines: one per step, indented detail
-// under it, then the repeats, the dial ends and the warnings.
-func (g *Guide) procedure() []string {
+// item is one numbered step as it is printed: the action, then how to
+// do it, then any repeat that closes its phase.
+type item struct {
+	n            int
+	text, how    string
+	repeatsAfter []string
+}
+
+// procedure is the procedure in print order: an opening paragraph, the
+// numbered steps, and the closing lines (dial ends, warnings).
+func (g *Guide) procedure() (intro string, items []item, closing []string) {
 	if g.Nothing != "" {
-		return append([]string{cap1(g.Nothing)}, warnLines(g.Warnings)...)
+		return cap1(g.Nothing), nil, warnLines(g.Warnings)
 	}
-	var out []string
 	if g.IF > 0 {
 		kind := "AM"
 		if g.FM {
 			kind = "FM"
 		}
-		out = append(out, fmt.Sprintf("Procedure, in the trade's order %s: IF first, from the detector back to the mixer, at the set's IF %s (%s, %s); then the oscillator; then the aerial/RF circuit. Generator %s, output as low as gives a reading so the AGC does not flatten the peaks %s.",
-			practice, hz(g.IF), g.IFFrom, kind, genWord(g.FM), practice))
+		intro = fmt.Sprintf("Procedure, in the trade's order %s: IF first, from the detector back to the mixer, at the set's IF %s (%s, %s); then the oscillator; then the aerial/RF circuit. Generator %s, output as low as gives a reading so the AGC does not flatten the peaks %s.",
+			practice, hz(g.IF), g.IFFrom, kind, genWord(g.FM), practice)
 	}
-	phase := ""
-	for _, s := range g.Steps {
-		if s.Phase != phase && phase != "" {
-			out = append(out, g.repeatFor(phase)...)
+	for i, s := range g.Steps {
+		it := item{n: s.N, text: fmt.Sprintf("%s, %s, %s: turn the %s.", s.Phase, hz(s.Freq), genAt(s), s.What),
+			how: "How: " + s.Watch + " (frequency: " + s.From + ")."}
+		if i+1 == len(g.Steps) || g.Steps[i+1].Phase != s.Phase {
+			it.repeatsAfter = g.repeatFor(s.Phase)
 		}
-		phase = s.Phase
-		out = append(out, fmt.Sprintf("%d. %s, %s: %s at %s", s.N, s.Phase, s.What, genAt(s), hz(s.Freq)))
-		out = append(out, "  watch "+s.Watch+" (frequency: "+s.From+")")
+		items = append(items, it)
 	}
-	out = append(out, g.repeatFor(phase)...)
 	for _, e := range g.Ends {
-		out = append(out, fmt.Sprintf("Dial end, %s: the set tunes %s, oscillator at %s.", e.Where, hz(e.Sig), hz(e.Osc)))
+		closing = append(closing, fmt.Sprintf("Dial end, %s: the set tunes %s, oscillator at %s.", e.Where, hz(e.Sig), hz(e.Osc)))
 	}
-	return append(out, warnLines(g.Warnings)...)
+	return intro, items, append(closing, warnLines(g.Warnings)...)
 }
 
 func (g *Guide) repeatFor(phase string) []string {
 	var out []string
 	for _, r := range g.Repeat {
 		if strings.Contains(r, phase) {
-			out = append(out, "  "+r)
+			out = append(out, cap1(r)+".")
 		}
 	}
 	return out
@@ -169,6 +193,12 @@ func volts(v float64) string {
 		return fmt.Sprintf("%.3g mV", v*1e3)
 	}
 	return fmt.Sprintf("%.3g µV", v*1e6)
+}
+
+// cellCode puts netlist text (a port's label) in a code span inside a
+// table cell: nothing in it is markup, and its bar cannot split the cell.
+func cellCode(s string) string {
+	return "`" + strings.ReplaceAll(esc.MarkdownCode(s), "|", `\|`) + "`"
 }
 
 func cap1(s string) string {
