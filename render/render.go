@@ -111,6 +111,9 @@ type Sheet struct {
 	// small beside the pin on the full and faded views (never on a reduced
 	// one).
 	PinVolts map[string]map[string]string
+	// Marks holds per ref the alignment steps turned at it ("align 3, 4"),
+	// drawn small in its label on every view.
+	Marks map[string]string
 }
 
 // Config says how to draw.
@@ -140,6 +143,7 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 	if s.View != Reduced {
 		o.PinVolts = s.PinVolts
 	}
+	o.Marks = s.Marks
 	for _, f := range s.Frames {
 		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts})
 	}

@@ -53,7 +53,7 @@ func runAlign(e *env, _ *alignOpts, args []string) int {
 	} else if err != nil {
 		return reportErr(e, "pare align", path, err)
 	}
-	g := align.Build(res)
+	g := align.Build(res.Title, res.Circuit, res.Stages, res.Caution)
 	if err := writeOutput(e, "-", func(w io.Writer) error { return align.WriteText(w, g) }); err != nil {
 		fmt.Fprintf(e.stderr, "pare align: %v\n", err)
 		return exitBad

@@ -108,6 +108,9 @@ func labelLines(p *graph.Part, o Options) []string {
 	if to, ok := o.Merged[p.Ref]; ok && to != p.Ref {
 		second = append(second, "\u2192 "+to)
 	}
+	if m := o.Marks[p.Ref]; m != "" {
+		second = append(second, m)
+	}
 	out := []string{first}
 	if len(second) > 0 {
 		out = append(out, strings.Join(second, ", "))

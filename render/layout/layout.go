@@ -63,6 +63,10 @@ type Options struct {
 	// volts in the trade's short form ("229"): drawn small beside the pin on the
 	// full and faded views (pinfigs.go).
 	PinVolts map[string]map[string]string
+	// Marks holds, per ref, the alignment steps turned at a part ("align
+	// 3, 4"): drawn in the small line of its label on every view, so the
+	// label placement keeps it clear of wires and other labels.
+	Marks map[string]string
 }
 
 // notConnected is the netlist format's net for a terminal that is really not

@@ -1,4 +1,4 @@
-package align
+package align_test
 
 import (
 	"bytes"
@@ -12,23 +12,25 @@ import (
 	"strings"
 	"testing"
 
+	"pare/cmd/internal/align"
 	"pare/cmd/internal/pipeline"
 	"pare/graph"
 	"pare/graph/ac"
 	"pare/graph/value"
 	"pare/internal/reftool"
 	"pare/rules"
+	"pare/rules/stages"
 )
 
 var superhets = []string{"frequency-changer", "if-detector-audio", "transistor-front-end"}
 
-func build(t *testing.T, path string) (*pipeline.Result, *Guide) {
+func build(t *testing.T, path string) (*pipeline.Result, *align.Guide) {
 	t.Helper()
 	r, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseStages, Level: rules.LevelSignal})
 	if err != nil {
 		t.Fatalf("%s: %v", path, err)
 	}
-	return r, Build(r)
+	return r, align.Build(r.Title, r.Circuit, r.Stages, r.Caution)
 }
 
 func example(name string) string { return filepath.Join("..", "..", "..", "examples", name+".toml") }
@@ -44,7 +46,7 @@ func TestFrequenciesArePareFigures(t *testing.T) {
 			if len(g.Steps) == 0 {
 				t.Fatalf("no steps: %s", g.Nothing)
 			}
-			mix := mixerStage(r.Stages)
+			mix := mixerOf(r.Stages)
 			wantIF := r.Circuit.Freqs["if"]
 			var points []float64
 			if mix != nil {
@@ -130,7 +132,7 @@ R4 = { r = "470k", pins = ["out", "gnd"] }
 		t.Errorf("steps %v, nothing %q", g.Steps, g.Nothing)
 	}
 	var b bytes.Buffer
-	if err := WriteText(&b, g); err != nil || !strings.Contains(b.String(), "Nothing to align") {
+	if err := align.WriteText(&b, g); err != nil || !strings.Contains(b.String(), "Nothing to align") {
 		t.Errorf("text %q, %v", b.String(), err)
 	}
 }
@@ -183,7 +185,7 @@ func TestGainsAgainstNgspice(t *testing.T) {
 
 // spiceAt runs the deck for one row at its frequency and returns V(GainTo)
 // and V(RefNet) for 1 V at the row's point.
-func spiceAt(t *testing.T, bin string, c *graph.Circuit, in Injection) []complex128 {
+func spiceAt(t *testing.T, bin string, c *graph.Circuit, in align.Injection) []complex128 {
 	t.Helper()
 	dir := t.TempDir()
 	var deck bytes.Buffer
@@ -218,4 +220,14 @@ func spiceAt(t *testing.T, bin string, c *graph.Circuit, in Injection) []complex
 		return x
 	}
 	return []complex128{cmplx.Rect(num(f[1]), num(f[2])), cmplx.Rect(num(f[3]), num(f[4]))}
+}
+
+// mixerOf is the stage with the IF figure, as the procedure reads it.
+func mixerOf(sts []stages.Stage) *stages.Stage {
+	for i := range sts {
+		if _, ok := sts[i].Figures.Get("if"); ok {
+			return &sts[i]
+		}
+	}
+	return nil
 }

@@ -12,8 +12,11 @@
 package align
 
 import (
-	"pare/cmd/internal/pipeline"
+	"strconv"
+	"strings"
+
 	"pare/graph"
+	"pare/graph/safety"
 	"pare/rules/stages"
 )
 
@@ -67,14 +70,23 @@ type End struct {
 	Sig, Osc float64
 }
 
-// Build makes the guide of a pipeline result that ran to PhaseStages.
-func Build(r *pipeline.Result) *Guide {
-	g := &Guide{Title: r.Title, Caution: r.Caution.Alignment()}
-	c := r.Circuit
-	mix := mixerStage(r.Stages)
+// Build makes the guide of a circuit as captured (the original, not the
+// reduced one) from the stages pare found, under the caution of its class.
+func Build(title string, c *graph.Circuit, sts []stages.Stage, caution safety.Caution) *Guide {
+	g := procedure(c, sts)
+	g.Title, g.Caution = title, caution.Alignment()
+	g.Inject, g.InjectErr = injections(c, sts, g)
+	g.Hints = hintsFor(sts, g.IF)
+	return g
+}
+
+// procedure is the numbered procedure alone: what a sheet marks.
+func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
+	g := &Guide{}
+	mix := mixerStage(sts)
 	g.IF, g.IFFrom = setIF(c, mix)
-	g.FM = fmDetector(r.Stages) || g.IF >= fmIFMin
-	g.ifSteps(c, r.Stages)
+	g.FM = fmDetector(sts) || g.IF >= fmIFMin
+	g.ifSteps(c, sts)
 	if mix != nil {
 		g.trackingSteps(c, mix)
 	}
@@ -82,11 +94,29 @@ func Build(r *pipeline.Result) *Guide {
 		g.Steps[i].N = i + 1
 	}
 	if len(g.Steps) == 0 {
-		g.Nothing = nothingReason(c, r.Stages)
+		g.Nothing = nothingReason(c, sts)
 	}
-	g.Inject, g.InjectErr = injections(c, r.Stages, g)
-	g.Hints = hintsFor(r.Stages, g.IF)
 	return g
+}
+
+// Marks are the step numbers turned at each part of the circuit, by ref,
+// as a sheet labels them ("align 1, 2"): the parts of the circuit as
+// captured, in step order.
+func Marks(c *graph.Circuit, sts []stages.Stage) map[string]string {
+	g := procedure(c, sts)
+	nums := map[string][]string{}
+	var refs []string
+	for _, s := range g.Steps {
+		if nums[s.Part] == nil {
+			refs = append(refs, s.Part)
+		}
+		nums[s.Part] = append(nums[s.Part], strconv.Itoa(s.N))
+	}
+	out := make(map[string]string, len(refs))
+	for _, ref := range refs {
+		out[ref] = "align " + strings.Join(nums[ref], ", ")
+	}
+	return out
 }
 
 // fmIFMin separates an FM IF (10.7 MHz) from an AM one (455–470 kHz): any

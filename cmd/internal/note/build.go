@@ -57,7 +57,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 	}
 	n.DC = dcFrom(r)
 	if r.Stages != nil {
-		n.Align = align.Build(r)
+		n.Align = align.Build(r.Title, r.Circuit, r.Stages, r.Caution)
 	}
 	return n
 }

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"fmt"
 	"math"
+	"pare/cmd/internal/align"
 	"sort"
 	"strconv"
 	"strings"
@@ -71,7 +72,42 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		s.Frames = stageFrames(r.Stages, reduced, c)
 		s.PinVolts = r.electrodeVolts()
 	}
+	s.Marks = r.alignMarks(v)
 	return s
+}
+
+// alignMarks are the alignment steps at each part drawn on the view
+// (cmd/internal/align numbers them on the circuit as captured); on the
+// reduced view a part merged into another is marked on the one it went
+// into.
+func (r *Result) alignMarks(v render.View) map[string]string {
+	if r.Stages == nil {
+		return nil
+	}
+	marks := align.Marks(r.Circuit, r.Stages)
+	if v != render.Reduced || len(marks) == 0 {
+		return marks
+	}
+	_, merged := FadedAndMerged(r.Circuit, r.Reduced)
+	out := map[string]string{}
+	for _, p := range r.Circuit.Parts { // circuit order: a merged pair's marks join in order
+		m, ok := marks[p.Ref]
+		if !ok {
+			continue
+		}
+		to := p.Ref
+		if t, ok := merged[p.Ref]; ok {
+			to = t
+		}
+		if r.Reduced.Part(to) == nil {
+			continue // removed by the reduction: nothing to mark on this view
+		}
+		if prev := out[to]; prev != "" {
+			m = prev + ", " + strings.TrimPrefix(m, "align ")
+		}
+		out[to] = m
+	}
+	return out
 }
 
 // FadedAndMerged compares the original with the reduced circuit through the
