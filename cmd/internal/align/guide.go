@@ -48,6 +48,8 @@ type Guide struct {
 	InjectErr string
 	// Hints are the symptom hints for the kinds of stage this circuit has.
 	Hints []Hint
+
+	aerialInto string // where the RF generator goes, for the tracking steps
 }
 
 // Step is one adjustment.
@@ -60,6 +62,7 @@ type Step struct {
 	// dial (signal) frequency the set is tuned to, and Osc the oscillator
 	// frequency expected there.
 	Freq, Dial, Osc float64
+	Into            string // where the generator goes: "the mixer's grid (V1 g1, net osc_g)"
 	Watch           string // what to watch and for what
 	From            string // where the frequency comes from: "S2 track_fit"
 }
@@ -94,7 +97,7 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 		g.Steps[i].N = i + 1
 	}
 	if len(g.Steps) == 0 {
-		g.Nothing = nothingReason(c, sts)
+		g.Nothing = nothingReason(c, sts, g.IF)
 	}
 	return g
 }
@@ -158,7 +161,7 @@ func fmDetector(sts []stages.Stage) bool {
 }
 
 // nothingReason says why a circuit has nothing to align.
-func nothingReason(c *graph.Circuit, sts []stages.Stage) string {
+func nothingReason(c *graph.Circuit, sts []stages.Stage, ifHz float64) string {
 	trimmers, cores := 0, 0
 	for _, p := range c.Parts {
 		if p.Type == graph.CapTrimmer {
@@ -170,7 +173,7 @@ func nothingReason(c *graph.Circuit, sts []stages.Stage) string {
 	if trimmers+cores > 0 {
 		why = "its trimmers and cores tune no IF transformer and no ganged oscillator pare recognised"
 	}
-	if len(ifTransformers(c, sts, 0)) == 0 && mixerStage(sts) == nil {
+	if len(ifTransformers(c, sts, ifHz)) == 0 && mixerStage(sts) == nil {
 		why += ", and pare recognised no IF transformer and no frequency changer"
 	}
 	return "nothing to align: " + why + "."

@@ -63,6 +63,7 @@ func tunedAt(s stages.Stage, ifHz float64) bool {
 func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 	cans := ifTransformers(c, sts, g.IF)
 	watch := ifWatch(c, sts, g.FM)
+	into := ifInto(c, sts)
 	for i := len(cans) - 1; i >= 0; i-- {
 		p := cans[i]
 		adj := ifAdjusters(c, p)
@@ -71,7 +72,7 @@ func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 			continue
 		}
 		for _, a := range adj {
-			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Watch: "watch " + watch, From: g.IFFrom})
+			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Into: into, Watch: "watch " + watch + "; keep the oscillator from beating with the generator: tune to a quiet end of the dial or stop it (common practice)", From: g.IFFrom})
 		}
 	}
 }
@@ -202,4 +203,21 @@ func detectorStage(sts []stages.Stage) *stages.Stage {
 		}
 	}
 	return nil
+}
+
+// ifInto is where the IF generator goes: the mixer's control electrode
+// (through a small capacitor, common practice), else the IF strip's input.
+func ifInto(c *graph.Circuit, sts []stages.Stage) string {
+	if mix := mixerStage(sts); mix != nil {
+		for _, ref := range mix.Parts {
+			if p := c.Part(ref); p != nil && p.IsActive() {
+				pin := p.PinWithRole(graph.RoleControl)
+				return fmt.Sprintf("the mixer's %s (%s %s, net %s) through a small capacitor", controlWord(p), p.Ref, pin, p.NetOf(pin))
+			}
+		}
+	}
+	if len(c.Inputs) > 0 {
+		return fmt.Sprintf("the IF strip's input (net %s)", c.Inputs[0])
+	}
+	return "the mixer's input"
 }

@@ -145,7 +145,7 @@ func portOn(c *graph.Circuit, net string) string {
 			return fmt.Sprintf("%s (%s)", p.Ref, p.Label)
 		}
 	}
-	return "input " + net
+	return "the input"
 }
 
 // detectorLoad is the net the detector's load sits on: a net of the

@@ -39,7 +39,36 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	if p.mixer {
 		in.GainNote = "at the IF, as an IF amplifier"
 	}
+	in.GainNote = join(in.GainNote, implausible(in))
 	return in, nil
+}
+
+// Bounds of a believable row (common practice, no source): a signal
+// generator gives a few volts at most, and no single stage of a receiver
+// gains 100 dB.
+const (
+	maxGenVolts = 10.0
+	maxGain     = 1e5
+)
+
+// implausible says why a row's numbers cannot be met on the bench: the
+// capture, not the set, is then at fault, and the table says so instead of
+// quoting the number bare.
+func implausible(in Injection) string {
+	switch {
+	case in.Gain > maxGain:
+		return "not finite on a real set: a tuned circuit in the capture has no loss (give its coil a q)"
+	case in.Level > maxGenVolts:
+		return "more than a generator gives: as captured next to nothing passes (see pare dc for the bias)"
+	}
+	return ""
+}
+
+func join(a, b string) string {
+	if a == "" || b == "" {
+		return a + b
+	}
+	return a + "; " + b
 }
 
 // Response is |V(out)/V(in)| with in driven by an ideal source at f hertz,

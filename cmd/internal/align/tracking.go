@@ -38,6 +38,10 @@ func (g *Guide) trackingSteps(c *graph.Circuit, mix *stages.Stage) {
 	}
 	g.ends(c, mix)
 	g.trackWarnings(mix, osc)
+	g.aerialInto = "the aerial socket through a dummy aerial (common practice)"
+	if len(c.Inputs) > 0 {
+		g.aerialInto = fmt.Sprintf("the aerial input (net %s) through a dummy aerial (common practice)", c.Inputs[0])
+	}
 	first := len(g.Steps)
 	g.addEnd(osc.trimmer, "oscillator trimmer", "oscillator", hi, from, "no oscillator trimmer is captured on "+osc.gang.Ref+": the high end of the dial cannot be set")
 	g.addEnd(lowSetter(osc), "", "oscillator", lo, from, lowMissing(osc))
@@ -77,7 +81,7 @@ func (g *Guide) addEnd(p *graph.Part, word, phase string, f float64, from, missi
 	} else if word == "" {
 		watch = "rock the gang through the signal while turning " + p.Ref + ", for the loudest output"
 	}
-	g.Steps = append(g.Steps, Step{Phase: phase, Part: p.Ref, What: what, Freq: f, Dial: f, Osc: f + g.IF, Watch: watch, From: from})
+	g.Steps = append(g.Steps, Step{Phase: phase, Part: p.Ref, What: what, Freq: f, Dial: f, Osc: f + g.IF, Into: g.aerialInto, Watch: watch, From: from})
 }
 
 func describe(p *graph.Part) string {

@@ -150,12 +150,7 @@ func genWord(fm bool) string {
 	return "modulated 30 % at 400 Hz"
 }
 
-func genAt(s Step) string {
-	if s.Phase == "IF" {
-		return "generator into the mixer's signal input"
-	}
-	return "generator into the aerial"
-}
+func genAt(s Step) string { return "generator into " + s.Into }
 
 func warnLines(ws []string) []string {
 	var out []string
