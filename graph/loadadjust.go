@@ -2,6 +2,7 @@ package graph
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 	"strings"
 )
@@ -40,8 +41,8 @@ func (ld *loader) adjust(path string, p *Part, x any) {
 		name := ld.str(ep, e)
 		switch {
 		case name == "":
-		case p.Winding(name) == nil:
-			ld.errVal(ep, "adjust names winding %q, which %s does not have (windings: %s)", name, p.Ref, windingNames(p))
+		case !slices.Contains(windingsAsWritten(p), name):
+			ld.errVal(ep, "adjust names winding %q, which %s does not have (windings: %s)", name, p.Ref, strings.Join(windingsAsWritten(p), ", "))
 		case seen[name]:
 			ld.errVal(ep, "adjust names winding %q twice", name)
 		default:
@@ -52,12 +53,23 @@ func (ld *loader) adjust(path string, p *Part, x any) {
 	sort.Strings(p.Adjust)
 }
 
-func windingNames(p *Part) string {
+// windingsAsWritten are a transformer's windings by the names the netlist
+// gave them: a centre-tapped winding s, loaded as its halves sa and sb, is
+// s, and its one core is named so.
+func windingsAsWritten(p *Part) []string {
 	var names []string
 	for _, w := range p.Windings {
+		stem, half := w.Name[:len(w.Name)-1], w.Name[len(w.Name)-1]
+		if half == 'a' && w.From == stem+"1" && w.To == stem+"t" {
+			names = append(names, stem)
+			continue
+		}
+		if half == 'b' && w.From == stem+"t" && w.To == stem+"2" {
+			continue
+		}
 		names = append(names, w.Name)
 	}
-	return strings.Join(names, ", ")
+	return names
 }
 
 // adjustKV writes Part.Adjust back in the form the loader reads.

@@ -24,6 +24,18 @@ import (
 
 var superhets = []string{"frequency-changer", "if-detector-audio", "transistor-front-end"}
 
+// fmRatio is an invented FM IF stage and ratio detector (testdata).
+var fmRatio = filepath.Join("testdata", "fm-ratio.toml")
+
+// cases are every circuit the guide is checked on.
+func cases() []string {
+	var out []string
+	for _, n := range superhets {
+		out = append(out, example(n))
+	}
+	return append(out, fmRatio)
+}
+
 func build(t *testing.T, path string) (*pipeline.Result, *align.Guide) {
 	t.Helper()
 	r, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseStages, Level: rules.LevelSignal})
@@ -40,9 +52,9 @@ func example(name string) string { return filepath.Join("..", "..", "..", "examp
 // IF figures; LO = RF + IF, docs/references.md §2), and every part it
 // names is in the circuit.
 func TestFrequenciesArePareFigures(t *testing.T) {
-	for _, name := range superhets {
-		t.Run(name, func(t *testing.T) {
-			r, g := build(t, example(name))
+	for _, name := range cases() {
+		t.Run(filepath.Base(name), func(t *testing.T) {
+			r, g := build(t, name)
 			if len(g.Steps) == 0 {
 				t.Fatalf("no steps: %s", g.Nothing)
 			}
@@ -104,6 +116,28 @@ func TestOrder(t *testing.T) {
 	}
 }
 
+// TestFMRatioDetector: an FM strip is aligned at its 10.7 MHz IF (the
+// netlist's [freqs] if; 10.7 MHz is the FM broadcast IF, common practice):
+// the detector's primary and the IF can peaked for the largest DC, the
+// detector's secondary last, for zero at its audio output (common practice).
+func TestFMRatioDetector(t *testing.T) {
+	_, g := build(t, fmRatio)
+	if !g.FM || g.IF != 10.7e6 {
+		t.Fatalf("FM %v, IF %g: want FM at 10.7 MHz", g.FM, g.IF)
+	}
+	var got []string
+	for _, s := range g.Steps {
+		got = append(got, s.What)
+	}
+	want := []string{"core of T2's primary (p)", "core of T1", "core of T2's secondary (s)"}
+	if !slices.Equal(got, want) {
+		t.Errorf("steps %q, want %q", got, want)
+	}
+	if last := g.Steps[len(g.Steps)-1]; !strings.Contains(last.Watch, "zero") || !strings.Contains(last.Watch, "(ct)") {
+		t.Errorf("last step watches %q, want zero DC at the centre tap ct", last.Watch)
+	}
+}
+
 // TestNothingToAlign: an audio stage has no trimmer and no core: the
 // guide says so, with the reason, and names no part.
 func TestNothingToAlign(t *testing.T) {
@@ -142,8 +176,8 @@ R4 = { r = "470k", pins = ["out", "gnd"] }
 // not the response the table was solved with), gives the stated reference
 // within 0.5 dB (the issue's tolerance).
 func TestInjectionGivesReference(t *testing.T) {
-	for _, name := range superhets {
-		r, g := build(t, example(name))
+	for _, name := range cases() {
+		r, g := build(t, name)
 		if len(g.Inject) < 2 {
 			t.Fatalf("%s: %d rows (%s)", name, len(g.Inject), g.InjectErr)
 		}
@@ -167,8 +201,8 @@ func TestInjectionGivesReference(t *testing.T) {
 // docs/references.md §15 for the recipe).
 func TestGainsAgainstNgspice(t *testing.T) {
 	bin := reftool.Find(t, reftool.Ngspice)
-	for _, name := range superhets {
-		r, g := build(t, example(name))
+	for _, name := range cases() {
+		r, g := build(t, name)
 		for _, in := range g.Inject {
 			v := spiceAt(t, bin, r.Circuit, in)
 			gain, ref := cmplx.Abs(v[0]), cmplx.Abs(v[1])

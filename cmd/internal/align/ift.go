@@ -62,19 +62,71 @@ func tunedAt(s stages.Stage, ifHz float64) bool {
 // peaked).
 func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 	cans := ifTransformers(c, sts, g.IF)
-	watch := ifWatch(c, sts, g.FM)
+	watch := "watch " + ifWatch(c, sts, g.FM)
+	if mixerStage(sts) != nil {
+		watch += "; keep the oscillator from beating with the generator: tune to a quiet end of the dial or stop it (common practice)"
+	}
 	into := ifInto(c, sts)
-	for i := len(cans) - 1; i >= 0; i-- {
-		p := cans[i]
-		adj := ifAdjusters(c, p)
-		if len(adj) == 0 {
-			g.Warnings = append(g.Warnings, fmt.Sprintf("%s is tuned to the IF but no adjustable core or trimmer is captured on it: if the can has cores, add adjust = %s to %s (docs/netlist.md)", p.Ref, adjustHint(p), p.Ref))
-			continue
-		}
+	add := func(adj []adjuster, how string) {
 		for _, a := range adj {
-			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Into: into, Watch: "watch " + watch + "; keep the oscillator from beating with the generator: tune to a quiet end of the dial or stop it (common practice)", From: g.IFFrom})
+			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Into: into, Watch: how, From: g.IFFrom})
 		}
 	}
+	// An FM detector's transformer: its primary is peaked with the IF cans,
+	// its secondary set last for zero (common practice).
+	var zero []adjuster
+	if det := detectorStage(sts); g.FM && det != nil {
+		if t := transformerIn(c, *det); t != nil {
+			var peak []adjuster
+			peak, zero = splitSecondary(c, t)
+			g.warnMissing(t, append(peak, zero...))
+			add(peak, watch)
+			cans = slices.DeleteFunc(cans, func(p *graph.Part) bool { return p == t })
+		}
+	}
+	for i := len(cans) - 1; i >= 0; i-- {
+		adj := ifAdjusters(c, cans[i])
+		g.warnMissing(cans[i], adj)
+		add(adj, watch)
+	}
+	add(zero, fmt.Sprintf("watch the DC at the detector's audio output (%s) on a centre-zero meter and set it to zero, the generator unmodulated and exactly at the IF (common practice)", detectorOut(c, sts)))
+}
+
+func (g *Guide) warnMissing(p *graph.Part, adj []adjuster) {
+	if len(adj) == 0 {
+		g.Warnings = append(g.Warnings, fmt.Sprintf("%s is tuned to the IF but no adjustable core or trimmer is captured on it: if the can has cores, add adjust = %s to %s (docs/netlist.md)", p.Ref, adjustHint(p), p.Ref))
+	}
+}
+
+// transformerIn is a stage's transformer, or nil.
+func transformerIn(c *graph.Circuit, s stages.Stage) *graph.Part {
+	for _, ref := range s.Parts {
+		if p := c.Part(ref); p != nil && p.Kind == graph.Transformer {
+			return p
+		}
+	}
+	return nil
+}
+
+// splitSecondary parts an FM detector transformer's adjusters into those
+// peaked for the largest DC and the secondary's, set for zero.
+func splitSecondary(c *graph.Circuit, t *graph.Part) (peak, zero []adjuster) {
+	for _, a := range ifAdjusters(c, t) {
+		if strings.Contains(a.what, "secondary") {
+			zero = append(zero, a)
+		} else {
+			peak = append(peak, a)
+		}
+	}
+	return peak, zero
+}
+
+// detectorOut is the detector's audio output net, for the zero setting.
+func detectorOut(c *graph.Circuit, sts []stages.Stage) string {
+	if det := detectorStage(sts); det != nil {
+		return detectorLoad(c, *det)
+	}
+	return "the audio output"
 }
 
 type adjuster struct{ ref, what string }
@@ -170,7 +222,7 @@ func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool) string {
 	det := detectorStage(sts)
 	switch {
 	case fm:
-		return "the DC across the ratio detector's load (or the discriminator's limiter grid) for a maximum; then the detector's secondary for zero DC at the audio output on a centre-zero meter"
+		return "the DC across the ratio detector's load (or the discriminator's limiter grid) for a maximum"
 	case det != nil && agc != "":
 		return fmt.Sprintf("the DC on the AGC line (%s) for its most negative reading, or the output meter for a maximum", agc)
 	case det != nil:

@@ -52,7 +52,7 @@ const (
 // point is an injection point before it is solved.
 type point struct {
 	net, where, band string
-	mixer            bool
+	mixer, detector  bool
 }
 
 // injections builds the table from the output back to the input.
@@ -77,7 +77,8 @@ func injections(c *graph.Circuit, sts []stages.Stage, g *Guide) ([]Injection, st
 
 // injectionPoints are the points in signal order: the declared input, then
 // each active device's control electrode (the trade injects on grids,
-// bases and gates) and the detector's load, in the order of the stages.
+// bases and gates) and the detector's load, ordered by their distance from
+// the input; a device no stage claimed is placed by its distance too.
 func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	var pts []point
 	seen := map[string]bool{}
@@ -87,46 +88,79 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 			pts = append(pts, p)
 		}
 	}
-	mixerSeen, detSeen := false, false
-	band := func() string {
-		switch {
-		case detSeen:
-			return "audio"
-		case g.IF > 0 && (mixerSeen || mixerStage(sts) == nil):
-			return "IF"
-		case g.IF > 0:
-			return "RF"
-		case c.FullBand().Max <= 30e3:
-			return "audio"
-		}
-		return "RF"
-	}
 	if len(c.Inputs) > 0 {
-		add(point{net: c.Inputs[0], where: portOn(c, c.Inputs[0]), band: band()})
+		add(point{net: c.Inputs[0], where: portOn(c, c.Inputs[0])})
 	}
 	for _, s := range sts {
 		if s.Supply {
 			continue
 		}
-		isMixer := strings.Contains(s.Topology, "mixer")
-		if isMixer {
-			mixerSeen = true
-		}
-		if strings.Contains(s.Topology, "detector") || strings.Contains(s.Topology, "discriminator") {
-			detSeen = true
-			add(point{net: detectorLoad(c, s), where: s.Name + " detector load", band: "audio"})
+		if isDetector(s) {
+			add(point{net: detectorLoad(c, s), where: s.Name + " detector load", detector: true})
 			continue
 		}
 		for _, ref := range s.Parts {
-			p := c.Part(ref)
-			if p == nil || !p.IsActive() {
-				continue
-			}
-			pin := p.PinWithRole(graph.RoleControl)
-			add(point{net: p.NetOf(pin), where: fmt.Sprintf("%s %s (%s)", p.Ref, controlWord(p), pin), band: band(), mixer: isMixer})
+			add(controlPoint(c.Part(ref), strings.Contains(s.Topology, "mixer")))
 		}
 	}
+	for _, p := range c.Parts {
+		add(controlPoint(p, false))
+	}
+	dist := netDistances(c)
+	slices.SortStableFunc(pts, func(a, b point) int { return dist(a.net) - dist(b.net) })
+	classify(c, pts, g, mixerStage(sts) != nil)
 	return pts
+}
+
+// controlPoint is an active part's control electrode; the zero point for
+// anything else.
+func controlPoint(p *graph.Part, mixer bool) point {
+	if p == nil || !p.IsActive() {
+		return point{}
+	}
+	pin := p.PinWithRole(graph.RoleControl)
+	return point{net: p.NetOf(pin), where: fmt.Sprintf("%s %s (%s)", p.Ref, controlWord(p), pin), mixer: mixer}
+}
+
+// classify gives each point its band: RF before the mixer, the IF from the
+// mixer to the detector, audio after it (a set with no IF: audio or RF by
+// its band).
+func classify(c *graph.Circuit, pts []point, g *Guide, hasMixer bool) {
+	mixerSeen, detSeen := false, false
+	for i := range pts {
+		mixerSeen = mixerSeen || pts[i].mixer
+		detSeen = detSeen || pts[i].detector
+		switch {
+		case detSeen:
+			pts[i].band = "audio"
+		case g.IF > 0 && (mixerSeen || !hasMixer):
+			pts[i].band = "IF"
+		case g.IF > 0:
+			pts[i].band = "RF"
+		case c.FullBand().Max <= 30e3:
+			pts[i].band = "audio"
+		default:
+			pts[i].band = "RF"
+		}
+	}
+}
+
+// netDistances is how far each net is from the circuit's inputs (graph.Walk
+// over nets not at AC ground); a net the walk does not reach comes last.
+func netDistances(c *graph.Circuit) func(string) int {
+	w := graph.NewWalk(c.View())
+	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }
+	w.FromNets(c.Inputs, 0)
+	return func(n string) int {
+		if d, ok := w.NetDist(n); ok {
+			return d
+		}
+		return 1 << 30
+	}
+}
+
+func isDetector(s stages.Stage) bool {
+	return strings.Contains(s.Topology, "detector") || strings.Contains(s.Topology, "discriminator")
 }
 
 func controlWord(p *graph.Part) string {
@@ -152,6 +186,23 @@ func portOn(c *graph.Circuit, net string) string {
 // detector stage that is neither AC ground nor the diode's anode.
 func detectorLoad(c *graph.Circuit, s stages.Stage) string {
 	anode := diodeAnode(c, s)
+	// An FM detector's audio leaves by the secondary's centre tap; an AM
+	// diode's by its cathode unless that is at AC ground (the load then
+	// sits at the winding's cold end).
+	for _, want := range []struct {
+		kind graph.Kind
+		pin  string
+	}{{graph.Transformer, "st"}, {graph.Diode, "k"}} {
+		for _, ref := range s.Parts {
+			p := c.Part(ref)
+			if p == nil || p.Kind != want.kind {
+				continue
+			}
+			if n := p.NetOf(want.pin); n != "" && !c.RoleOf(n).IsACGround() {
+				return n
+			}
+		}
+	}
 	for _, ref := range s.Parts {
 		p := c.Part(ref)
 		if p == nil || p.Kind == graph.Valve || p.Kind == graph.Diode {

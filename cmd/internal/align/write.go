@@ -3,6 +3,7 @@ package align
 import (
 	"fmt"
 	"io"
+	"slices"
 	"strings"
 
 	"pare/graph/figure"
@@ -112,12 +113,16 @@ func (g *Guide) procedure() (intro string, items []item, closing []string) {
 		return cap1(g.Nothing), nil, warnLines(g.Warnings)
 	}
 	if g.IF > 0 {
-		kind := "AM"
+		kind, flat := "AM", "the AGC"
 		if g.FM {
-			kind = "FM"
+			kind, flat = "FM", "the limiter"
 		}
-		intro = fmt.Sprintf("Procedure, in the trade's order %s: IF first, from the detector back to the mixer, at the set's IF %s (%s, %s); then the oscillator; then the aerial/RF circuit. Generator %s, output as low as gives a reading so the AGC does not flatten the peaks %s.",
-			practice, hz(g.IF), g.IFFrom, kind, genWord(g.FM), practice)
+		order := "IF first, from the detector back to the mixer"
+		if slices.ContainsFunc(g.Steps, func(s Step) bool { return s.Phase != "IF" }) {
+			order += "; then the oscillator; then the aerial/RF circuit"
+		}
+		intro = fmt.Sprintf("Procedure, in the trade's order %s: %s. The IF is %s (%s, %s); generator %s, output as low as gives a reading so %s does not flatten the peaks %s.",
+			practice, order, hz(g.IF), g.IFFrom, kind, genWord(g.FM), flat, practice)
 	}
 	for i, s := range g.Steps {
 		it := item{n: s.N, text: fmt.Sprintf("%s, %s, %s: turn the %s.", s.Phase, hz(s.Freq), genAt(s), s.What),
