@@ -47,7 +47,7 @@ func build(t *testing.T, path string) (*pipeline.Result, *align.Guide) {
 
 func example(name string) string { return filepath.Join("..", "..", "..", "examples", name+".toml") }
 
-// TestFrequenciesArePareFigures: every frequency the procedure quotes is
+// TestFrequenciesArePareFigures (docs/references.md §19): every frequency the procedure quotes is
 // one of the stage figures it names, bit for bit (pare's own tracking and
 // IF figures; LO = RF + IF, docs/references.md §2), and every part it
 // names is in the circuit.
