@@ -46,7 +46,7 @@ func (g *Guide) trackingSteps(c *graph.Circuit, mix *stages.Stage) {
 	g.addEnd(osc.trimmer, "oscillator trimmer", "oscillator", hi, from, "no oscillator trimmer is captured on "+osc.gang.Ref+": the high end of the dial cannot be set")
 	g.addEnd(lowSetter(osc), "", "oscillator", lo, from, lowMissing(osc))
 	if len(g.Steps)-first == 2 {
-		g.Repeat = append(g.Repeat, fmt.Sprintf("repeat the two oscillator steps until both hold: each pulls the other (common practice)"))
+		g.Repeat = append(g.Repeat, "repeat the two oscillator steps until both hold: each pulls the other (common practice)")
 	}
 	if sig.gang == nil {
 		return
