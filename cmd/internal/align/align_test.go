@@ -265,3 +265,67 @@ func mixerOf(sts []stages.Stage) *stages.Stage {
 	}
 	return nil
 }
+
+// TestHints: the symptom table (common practice) is chosen by the kind of
+// stage: a detuned IF only for stages tuned to the IF (not the aerial
+// circuit S1 of the frequency changer), an open bypass for the bypassed
+// triode, each fault once with every stage it applies to.
+func TestHints(t *testing.T) {
+	for _, tc := range []struct {
+		name      string
+		want, not map[string]string // fault → stages
+	}{
+		{"if-detector-audio",
+			map[string]string{"detuned IF transformer (cores moved, a tuning capacitor gone low)": "S1, S2", "open cathode or emitter bypass": "S7", "leaky coupling capacitor": "S6, S8"},
+			nil},
+		{"frequency-changer",
+			map[string]string{"dead oscillator": "S2", "detuned IF transformer (cores moved, a tuning capacitor gone low)": "S2.2"},
+			map[string]string{"open cathode or emitter bypass": ""}},
+	} {
+		_, g := build(t, example(tc.name))
+		got := map[string]string{}
+		for _, h := range g.Hints {
+			if _, dup := got[h.Fault]; dup {
+				t.Errorf("%s: %q twice", tc.name, h.Fault)
+			}
+			got[h.Fault] = strings.Join(h.Stages, ", ")
+		}
+		for f, st := range tc.want {
+			if got[f] != st {
+				t.Errorf("%s: %q on %q, want %q", tc.name, f, got[f], st)
+			}
+		}
+		for f := range tc.not {
+			if _, ok := got[f]; ok {
+				t.Errorf("%s: %q does not apply", tc.name, f)
+			}
+		}
+	}
+}
+
+// TestSpeakerReference: where the circuit has a loudspeaker the audio rows
+// give 50 mW into it (the customary standard output, common practice):
+// V = √(P·R) across its rated impedance (derived from P = V²/R).
+func TestSpeakerReference(t *testing.T) {
+	r, g := build(t, filepath.Join("..", "..", "..", "rules", "stages", "testdata", "output-single-ended.toml"))
+	var spk *graph.Part
+	for _, p := range r.Circuit.Parts {
+		if p.Kind == graph.Loudspeaker {
+			spk = p
+		}
+	}
+	if spk == nil || len(g.Inject) == 0 {
+		t.Fatalf("no loudspeaker or no rows (%s)", g.InjectErr)
+	}
+	in := g.Inject[0]
+	if want := math.Sqrt(0.05 * spk.Value.Max); in.RefLevel != want || !strings.Contains(in.RefWhat, "50 mW") {
+		t.Errorf("reference %g V (%s), want %g V", in.RefLevel, in.RefWhat, want)
+	}
+	h, err := ac.Transfer(r.Circuit, in.Net, in.RefNet, []float64{in.Freq}, in.Options())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p := math.Pow(in.Level*cmplx.Abs(h[0]), 2) / spk.Value.Max; math.Abs(10*math.Log10(p/0.05)) > 0.5 {
+		t.Errorf("%g V at %s gives %g W in %s, want 50 mW", in.Level, in.Net, p, spk.Ref)
+	}
+}

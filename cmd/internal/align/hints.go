@@ -10,8 +10,8 @@ import (
 // Hint is what a common fault of one kind of stage looks like on the
 // bench, for a stage of this circuit.
 type Hint struct {
-	Stage    string // "S2"
-	Parts    []string
+	Stages   []string // "S6", "S8": every stage of the kind, in order
+	Parts    []string // the parts of those stages, in order, each once
 	Fault    string
 	Readings string // in the DC readings
 	Inject   string // in the injection table
@@ -83,10 +83,27 @@ func hintsFor(sts []stages.Stage, ifHz float64) []Hint {
 				(row.atIF && !tunedAt(s, ifHz)) || shown(out, row.fault, s.Parts) {
 				continue
 			}
-			out = append(out, Hint{Stage: s.Name, Parts: s.Parts, Fault: row.fault, Readings: row.readings, Inject: row.inject})
+			out = addHint(out, s, row)
 		}
 	}
 	return out
+}
+
+// addHint adds a stage to the hint of its fault, or starts one: a large set
+// with forty coupling capacitors gets one line for them, not forty.
+func addHint(hs []Hint, s stages.Stage, row hintRow) []Hint {
+	for i := range hs {
+		if hs[i].Fault == row.fault {
+			hs[i].Stages = append(hs[i].Stages, s.Name)
+			for _, p := range s.Parts {
+				if !slices.Contains(hs[i].Parts, p) {
+					hs[i].Parts = append(hs[i].Parts, p)
+				}
+			}
+			return hs
+		}
+	}
+	return append(hs, Hint{Stages: []string{s.Name}, Parts: slices.Clone(s.Parts), Fault: row.fault, Readings: row.readings, Inject: row.inject})
 }
 
 // shown tells whether a hint for fault already covers all of parts.

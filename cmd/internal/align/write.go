@@ -45,7 +45,7 @@ func WriteText(w io.Writer, g *Guide) error {
 	if len(g.Hints) > 0 {
 		fmt.Fprintf(&b, "\nSymptoms %s:\n", practice)
 		for _, h := range g.Hints {
-			fmt.Fprintf(&b, "  %s %s: readings: %s; injection: %s\n", h.Stage, h.Fault, h.Readings, h.Inject)
+			fmt.Fprintf(&b, "  %s %s: readings: %s; injection: %s\n", strings.Join(h.Stages, ", "), h.Fault, h.Readings, h.Inject)
 		}
 	}
 	_, err := io.WriteString(w, b.String())
@@ -90,7 +90,7 @@ func WriteMarkdown(w io.Writer, g *Guide) error {
 	if len(g.Hints) > 0 {
 		fmt.Fprintf(&b, "\n### Symptoms %s\n\n| stage | fault | readings | injection table |\n|---|---|---|---|\n", practice)
 		for _, h := range g.Hints {
-			fmt.Fprintf(&b, "| %s | %s | %s | %s |\n", esc.MarkdownCell(h.Stage), esc.MarkdownCell(h.Fault), esc.MarkdownCell(h.Readings), esc.MarkdownCell(h.Inject))
+			fmt.Fprintf(&b, "| %s | %s | %s | %s |\n", esc.MarkdownCell(strings.Join(h.Stages, ", ")), esc.MarkdownCell(h.Fault), esc.MarkdownCell(h.Readings), esc.MarkdownCell(h.Inject))
 		}
 	}
 	b.WriteString("\n")
