@@ -17,6 +17,10 @@ type CompareOptions struct {
 	TolDB, TolDeg float64 // 0 means 0.5 dB and 5° (common practice for a redrawn circuit)
 	Points        int     // log-spaced points per band before refinement; 0 means 100
 	Options               // device settings; with VarSet false, gangs are checked at min, mid and max
+	// Memo, when set, lends the responses of earlier comparisons of the
+	// same systems and keeps this one's for later (memo.go); the caller
+	// settles it after each comparison.
+	Memo *Memo `json:"-"`
 }
 
 // Default tolerances: half a decibel and five degrees, well inside what a
@@ -286,7 +290,11 @@ func (cp *comparer) probe(ci, si int, what, from, to string) (*probe, error) {
 	if me.err != nil {
 		return nil, me.err
 	}
-	return newProbe(me.m, what, from, to)
+	p, err := newProbe(me.m, what, from, to)
+	if err == nil && cp.o.Memo != nil {
+		cp.o.Memo.attach(ci, p)
+	}
+	return p, err
 }
 
 // quantity sweeps one quantity at every setting and returns its worst pair.

@@ -21,6 +21,9 @@ type probe struct {
 	// silent: no stamp joins the output to the driven input (other than
 	// through AC ground or a held input), so the transfer is 0 by structure.
 	silent bool
+	// memo holds the responses of this very system solved before (Memo);
+	// nil without a memo.
+	memo map[float64]complex128
 }
 
 // newProbe builds the system of one response of the model: the block of
@@ -92,7 +95,13 @@ type pairResult struct {
 
 // sweepPair runs the coarse sweep and the refinement for one quantity.
 func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg float64, marks []float64) (pairResult, error) {
-	sw := &pairSweep{po: po, pr: pr, ho: map[float64]complex128{}, hr: map[float64]complex128{}}
+	sw := &pairSweep{po: po, pr: pr, ho: po.memo, hr: pr.memo}
+	if sw.ho == nil {
+		sw.ho = map[float64]complex128{}
+	}
+	if sw.hr == nil {
+		sw.hr = map[float64]complex128{}
+	}
 	freqs := coarseGrid(bands, points, marks)
 	if origFailed, err := sw.eval(freqs); err != nil {
 		return pairResult{origFailed: origFailed}, err
@@ -134,22 +143,25 @@ type pairSweep struct {
 	ho, hr map[float64]complex128
 }
 
-// eval solves both circuits at the frequencies not yet visited; on an
+// eval solves both circuits at the frequencies not yet visited (a memo may
+// already hold one side, or both when the two systems are the same); on an
 // error it says whether the original (rather than the reduced) failed.
 func (sw *pairSweep) eval(fs []float64) (bool, error) {
 	for _, f := range fs {
-		if _, done := sw.ho[f]; done {
-			continue
+		if _, done := sw.ho[f]; !done {
+			a, err := sw.po.at(f)
+			if err != nil {
+				return true, err
+			}
+			sw.ho[f] = a
 		}
-		a, err := sw.po.at(f)
-		if err != nil {
-			return true, err
+		if _, done := sw.hr[f]; !done {
+			b, err := sw.pr.at(f)
+			if err != nil {
+				return false, err
+			}
+			sw.hr[f] = b
 		}
-		b, err := sw.pr.at(f)
-		if err != nil {
-			return false, err
-		}
-		sw.ho[f], sw.hr[f] = a, b
 	}
 	return false, nil
 }

@@ -94,11 +94,11 @@ func TestLocalProofRefusesWrongStep(t *testing.T) {
 		t.Errorf("local comparison holds %d of %d parts", len(b.Parts), len(before.Parts))
 	}
 	r := &Result{}
-	local, err := r.compare(b, a)
+	local, err := r.compare(b, a, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
-	full, err := r.compare(before, after)
+	full, err := r.compare(before, after, nil)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -235,7 +235,7 @@ func (r *Result) verify(o Options) error {
 		return nil
 	}
 	r.Verified = true
-	r.Report, r.CompareErr = r.compare(r.Circuit, r.Reduced)
+	r.Report, r.CompareErr = r.compare(r.Circuit, r.Reduced, nil)
 	return nil
 }
 
@@ -253,7 +253,10 @@ func (r *Result) recognise(o Options) error {
 }
 
 // compare is the one call of the AC comparison in pare's commands: the
-// final proof and every step check go through it.
-func (r *Result) compare(orig, reduced *graph.Circuit) (*ac.Report, error) {
-	return ac.Compare(orig, reduced, r.Compare)
+// final proof and every step check go through it. The step checks lend it
+// their memo of solved responses; the final proof solves afresh.
+func (r *Result) compare(orig, reduced *graph.Circuit, memo *ac.Memo) (*ac.Report, error) {
+	o := r.Compare
+	o.Memo = memo
+	return ac.Compare(orig, reduced, o)
 }

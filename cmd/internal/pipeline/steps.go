@@ -21,7 +21,13 @@ type Step struct {
 // stepChecker is the engine's Check hook for the chosen mode. A step that
 // cannot be compared or that breaks the tolerance is refused; the engine
 // logs why.
+//
+// The checks share one memo of solved responses (ac.Memo): each step's
+// "before" is the circuit the previous step was proven with, and under
+// AgainstOriginal the original is the same every time, so its responses
+// are solved once.
 func (r *Result) stepChecker(mode StepCheck, whole bool) func(before, after *graph.Circuit, st *rules.Step) error {
+	memo := ac.NewMemo()
 	return func(before, after *graph.Circuit, st *rules.Step) error {
 		ref := before
 		if mode == AgainstOriginal {
@@ -35,7 +41,9 @@ func (r *Result) stepChecker(mode StepCheck, whole bool) func(before, after *gra
 			}
 			ref, after = b, a
 		}
-		rep, err := r.compare(ref, after)
+		rep, err := r.compare(ref, after, memo)
+		applied := err == nil && !rep.Broken()
+		memo.Settle(mode == AgainstOriginal || !applied, mode != AgainstOriginal && applied)
 		if err != nil {
 			if r.StepErr == nil {
 				r.StepErr = err

@@ -1,0 +1,135 @@
+// Responses remembered from one comparison to the next, keyed by the exact
+// system that produced them.
+
+package ac
+
+import (
+	"crypto/sha256"
+	"encoding/binary"
+	"math"
+)
+
+// Memo keeps the responses a comparison solved so that the next comparison
+// need not solve them again. A reduction proves each step against the
+// circuit before it, and that circuit is the one the previous step was
+// proven with as "after": the same responses, solved twice. A step that
+// does not change the small-signal model at all (a heater pin dropped) gives
+// the same systems before and after, and its responses are solved once.
+//
+// A response is remembered under a digest of everything its solution
+// depends on: the size and pattern of the block's matrix, every stamp and
+// coefficient to the bit, and where the response is read. Two probes with
+// the same digest solve the same equations, so a remembered value is the
+// value the probe would compute (to the rounding of the LU's pivot
+// history, which depends on the first frequency a system is factored at:
+// a relative 10⁻¹² or so, far below any tolerance).
+//
+// Settle says, after each comparison, which circuit lives on; the responses
+// of the other are dropped, so the memo holds about one set of responses
+// per group of parts and never grows with the number of steps.
+type Memo struct {
+	series map[[sha256.Size]byte]map[float64]complex128
+	// used lists the digests each circuit's probes used in the comparison
+	// since the last Settle.
+	used [2][][sha256.Size]byte
+}
+
+// NewMemo returns an empty memo for a run of comparisons.
+func NewMemo() *Memo {
+	return &Memo{series: map[[sha256.Size]byte]map[float64]complex128{}}
+}
+
+// Settle ends one comparison: the responses of the original (keepOrig) and
+// of the reduced circuit (keepReduced) are kept for the comparisons to
+// come, the others dropped unless a kept circuit shares them. A step that
+// was applied keeps the reduced circuit (the next step's "before"); one that
+// was refused keeps the original; a run against a fixed original keeps the
+// original every time.
+func (m *Memo) Settle(keepOrig, keepReduced bool) {
+	keep := map[[sha256.Size]byte]bool{}
+	for ci, kept := range []bool{keepOrig, keepReduced} {
+		if kept {
+			for _, k := range m.used[ci] {
+				keep[k] = true
+			}
+		}
+	}
+	for ci := range m.used {
+		for _, k := range m.used[ci] {
+			if !keep[k] {
+				delete(m.series, k)
+			}
+		}
+		m.used[ci] = m.used[ci][:0]
+	}
+}
+
+// attach gives probe p of circuit ci the remembered responses of its
+// system, creating an empty set the sweep fills.
+func (m *Memo) attach(ci int, p *probe) {
+	if p.zero || p.silent || p.s == nil {
+		return
+	}
+	k := p.digest()
+	h := m.series[k]
+	if h == nil {
+		h = map[float64]complex128{}
+		m.series[k] = h
+	}
+	m.used[ci] = append(m.used[ci], k)
+	p.memo = h
+}
+
+// digest hashes everything the probe's response depends on.
+func (p *probe) digest() [sha256.Size]byte {
+	s := p.s
+	d := sha256.New()
+	var buf []byte
+	put := func(v uint64) { buf = binary.LittleEndian.AppendUint64(buf, v) }
+	flush := func() {
+		d.Write(buf)
+		buf = buf[:0]
+	}
+	read := s.unk[p.node] // where the response is read: an unknown, the driven node or ground
+	imp := uint64(0)
+	if p.impedance {
+		imp = 1
+	}
+	put(uint64(s.n))
+	put(uint64(int64(read)))
+	put(imp)
+	for _, v := range s.a.p {
+		put(uint64(v))
+	}
+	put(uint64(len(s.a.i)))
+	for _, v := range s.a.i {
+		put(uint64(v))
+	}
+	flush()
+	put(uint64(len(s.coefs)))
+	for _, k := range s.coefs {
+		put(uint64(k.kind))
+		put(math.Float64bits(k.a))
+		put(math.Float64bits(k.b))
+		put(math.Float64bits(k.c))
+		if len(buf) > 4096 {
+			flush()
+		}
+	}
+	put(uint64(len(s.stamps)))
+	for _, st := range s.stamps {
+		neg := uint64(0)
+		if st.neg {
+			neg = 1
+		}
+		put(uint64(uint32(st.slot)) | uint64(uint32(st.rhs))<<32)
+		put(uint64(uint32(st.val)) | neg<<32)
+		if len(buf) > 4096 {
+			flush()
+		}
+	}
+	flush()
+	var out [sha256.Size]byte
+	d.Sum(out[:0])
+	return out
+}
