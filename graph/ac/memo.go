@@ -67,7 +67,7 @@ func (m *Memo) Settle(keepOrig, keepReduced bool) {
 // attach gives probe p of circuit ci the remembered responses of its
 // system, creating an empty set the sweep fills.
 func (m *Memo) attach(ci int, p *probe) {
-	if p.zero || p.silent || p.s == nil {
+	if p.zero || p.silent {
 		return
 	}
 	k := p.digest()
@@ -80,55 +80,63 @@ func (m *Memo) attach(ci int, p *probe) {
 	p.memo = h
 }
 
-// digest hashes everything the probe's response depends on.
+// digest hashes everything the probe's response depends on: the block's
+// primitives and winding groups in their order, on its unknowns numbered
+// as assemble numbers them (held nodes and ground alike, the driven node
+// apart), and where the response is read. assemble is a function of exactly
+// these, so equal digests mean equal systems, without assembling either.
 func (p *probe) digest() [sha256.Size]byte {
-	s := p.s
+	nl, sub := p.nl, p.sub
+	unk := make(map[int]int64, len(sub.nodes))
+	for _, i := range sub.nodes {
+		if i > 0 && i != p.driven && !p.isHeld[i] {
+			unk[i] = int64(len(unk))
+		}
+	}
+	local := func(i int) uint64 {
+		switch u, ok := unk[i]; {
+		case ok:
+			return uint64(u)
+		case i == p.driven && i > 0:
+			return math.MaxUint64 - 1
+		}
+		return math.MaxUint64 // ground or held
+	}
 	d := sha256.New()
 	var buf []byte
-	put := func(v uint64) { buf = binary.LittleEndian.AppendUint64(buf, v) }
-	flush := func() {
-		d.Write(buf)
-		buf = buf[:0]
+	put := func(vs ...uint64) {
+		for _, v := range vs {
+			buf = binary.LittleEndian.AppendUint64(buf, v)
+		}
+		if len(buf) > 4096 {
+			d.Write(buf)
+			buf = buf[:0]
+		}
 	}
-	read := s.unk[p.node] // where the response is read: an unknown, the driven node or ground
+	f := math.Float64bits
 	imp := uint64(0)
 	if p.impedance {
 		imp = 1
 	}
-	put(uint64(s.n))
-	put(uint64(int64(read)))
-	put(imp)
-	for _, v := range s.a.p {
-		put(uint64(v))
-	}
-	put(uint64(len(s.a.i)))
-	for _, v := range s.a.i {
-		put(uint64(v))
-	}
-	flush()
-	put(uint64(len(s.coefs)))
-	for _, k := range s.coefs {
-		put(uint64(k.kind))
-		put(math.Float64bits(k.a))
-		put(math.Float64bits(k.b))
-		put(math.Float64bits(k.c))
-		if len(buf) > 4096 {
-			flush()
+	put(uint64(len(unk)), local(p.node), imp, uint64(len(sub.prims)), uint64(len(sub.groups)))
+	for _, i := range sub.prims {
+		q := &nl.prims[i]
+		put(uint64(q.kind), local(q.a), local(q.b), f(q.v), f(q.r), f(q.l), f(q.C))
+		if q.kind == primVCCS {
+			put(local(q.c), local(q.d))
 		}
 	}
-	put(uint64(len(s.stamps)))
-	for _, st := range s.stamps {
-		neg := uint64(0)
-		if st.neg {
-			neg = 1
+	for _, i := range sub.groups {
+		g := &nl.groups[i]
+		put(uint64(len(g.winds)), uint64(len(g.muts)))
+		for _, w := range g.winds {
+			put(local(w.a), local(w.b), f(w.r), f(w.l))
 		}
-		put(uint64(uint32(st.slot)) | uint64(uint32(st.rhs))<<32)
-		put(uint64(uint32(st.val)) | neg<<32)
-		if len(buf) > 4096 {
-			flush()
+		for _, m := range g.muts {
+			put(uint64(m.i), uint64(m.j), f(m.k), f(m.m))
 		}
 	}
-	flush()
+	d.Write(buf)
 	var out [sha256.Size]byte
 	d.Sum(out[:0])
 	return out

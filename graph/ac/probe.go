@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"slices"
 	"sort"
 
 	"pare/graph/value"
@@ -14,7 +15,8 @@ import (
 
 // probe evaluates one response of one circuit at any frequency.
 type probe struct {
-	s         *system
+	block
+	s         *system // assembled from block on the first solve
 	node      int
 	impedance bool
 	zero      bool // the net is AC ground: the response is 0
@@ -46,8 +48,8 @@ func newProbe(m *model, what, from, to string) (*probe, error) {
 		if !m.used[fromNode] {
 			return nil, fmt.Errorf("net %s is not connected to any part the small-signal model sees", from)
 		}
-		s := assemble(nl, -1, isHeld, m.component(fromNode, isHeld))
-		return &probe{s: s, node: fromNode, impedance: true}, nil
+		return &probe{block: block{nl: nl, driven: -1, isHeld: isHeld, sub: m.component(fromNode, isHeld)},
+			node: fromNode, impedance: true}, nil
 	}
 	if fromNode == 0 {
 		return nil, fmt.Errorf("input %s is at AC ground: it cannot be driven", from)
@@ -64,14 +66,30 @@ func newProbe(m *model, what, from, to string) (*probe, error) {
 	if toNode != 0 && toNode != fromNode && (!m.used[toNode] || isHeld[toNode]) {
 		return nil, fmt.Errorf("output %s is not connected to any part the small-signal model sees", to)
 	}
-	s := assemble(nl, fromNode, isHeld, m.component(fromNode, isHeld))
-	silent := toNode != 0 && toNode != fromNode && s.unk[toNode] < 0
-	return &probe{s: s, node: toNode, silent: silent}, nil
+	sub := m.component(fromNode, isHeld)
+	// The output is an unknown of the block when the search reached it
+	// (the driven node itself is reached but not an unknown).
+	_, reached := slices.BinarySearch(sub.nodes, toNode)
+	silent := toNode != 0 && toNode != fromNode && !reached
+	return &probe{block: block{nl: nl, driven: fromNode, isHeld: isHeld, sub: sub}, node: toNode, silent: silent}, nil
+}
+
+// block is what a probe's system is assembled from, kept until the first
+// solve: with a memo (memo.go) that already holds every point asked for,
+// the system is never assembled.
+type block struct {
+	nl     *netlist
+	driven int
+	isHeld []bool
+	sub    *part
 }
 
 func (p *probe) at(f float64) (complex128, error) {
 	if p.zero {
 		return 0, nil
+	}
+	if p.s == nil {
+		p.s = assemble(p.nl, p.driven, p.isHeld, p.sub)
 	}
 	if err := p.s.solveAt(f); err != nil {
 		return 0, err
