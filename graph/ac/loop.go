@@ -77,6 +77,17 @@ func newLoopSystem(c *graph.Circuit, ref string, o Options) (*loopSystem, error)
 	if err != nil {
 		return nil, err
 	}
+	return loopSystemOf(c, nl, ref)
+}
+
+// loopSystemOf removes ref's controlled source from the elaborated nl and
+// assembles the blocks of the matrix that hold the source's four nodes: a
+// set of many channels is block diagonal (model.go), and a block the
+// source does not reach carries no current, so its voltages are zero
+// whether it is solved or not. The blocks are numbered and ordered as they
+// are inside the whole matrix, so a circuit of one block solves exactly as
+// before, and a set of many costs the size of the source's channel.
+func loopSystemOf(c *graph.Circuit, nl *netlist, ref string) (*loopSystem, error) {
 	idx := slices.IndexFunc(nl.prims, func(p prim) bool { return p.kind == primVCCS && p.ref == ref })
 	if idx < 0 {
 		if c.Part(ref) == nil {
@@ -87,10 +98,29 @@ func newLoopSystem(c *graph.Circuit, ref string, o Options) (*loopSystem, error)
 	src := nl.prims[idx]
 	cp := *nl
 	cp.prims = slices.Delete(slices.Clone(nl.prims), idx, idx+1)
-	s, err := newSystem(&cp, -1, otherInputs(c, &cp, -1)...)
-	if err != nil {
+	m := indexModel(c, &cp)
+	held := otherInputs(c, &cp, -1)
+	isHeld := heldSet(len(cp.nodes), -1, held)
+	if err := m.floating(-1, held, isHeld); err != nil {
 		return nil, err
 	}
+	sub := &part{}
+	for _, n := range []int{src.a, src.b, src.c, src.d} {
+		if n <= 0 || isHeld[n] || !m.used[n] {
+			continue
+		}
+		if _, in := slices.BinarySearch(sub.nodes, n); in {
+			continue
+		}
+		b := m.component(n, isHeld)
+		sub.nodes = slices.Concat(sub.nodes, b.nodes)
+		sub.prims = slices.Concat(sub.prims, b.prims)
+		sub.groups = slices.Concat(sub.groups, b.groups)
+		slices.Sort(sub.nodes) // blocks are disjoint: no duplicates
+		slices.Sort(sub.prims)
+		slices.Sort(sub.groups)
+	}
+	s := assemble(&cp, -1, isHeld, sub)
 	return &loopSystem{s: s, gm: src.v, a: src.a, b: src.b, c: src.c, d: src.d}, nil
 }
 
@@ -191,12 +221,17 @@ func LoopGain(c *graph.Circuit, ref string, freqs []float64, o Options) ([]compl
 // FindLoop searches the loop gain of part ref for every frequency where its
 // phase is 0° and reports the gain there.
 func FindLoop(c *graph.Circuit, ref string, o LoopOptions) (Loop, error) {
+	return NewLoops(c).Find(ref, o)
+}
+
+// Find is FindLoop of part ref.
+func (l *Loops) Find(ref string, o LoopOptions) (Loop, error) {
 	frac := 0.5
 	if o.VarSet {
 		frac = o.VarFrac
 	}
 	res := Loop{Ref: ref, Frac: frac}
-	ls, err := newLoopSystem(c, ref, o.Options)
+	ls, err := l.system(ref, o.Options)
 	if err != nil {
 		return res, err
 	}
@@ -316,11 +351,7 @@ func searchGrid(ls *loopSystem, o LoopOptions) ([]float64, error) {
 // frequency of that growing or dying ring, which differs from f by as much
 // as the margin detunes it.
 func Pole(c *graph.Circuit, ref string, f float64, o Options) (complex128, error) {
-	ls, err := newLoopSystem(c, ref, o)
-	if err != nil {
-		return 0, err
-	}
-	return ls.pole(f, 1)
+	return NewLoops(c).Pole(ref, f, o)
 }
 
 // pole solves k·L(s) = 1 near s = j2πf: the natural frequency with the

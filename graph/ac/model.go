@@ -39,6 +39,11 @@ func newModel(c *graph.Circuit, o Options) (*model, error) {
 	if err != nil {
 		return nil, err
 	}
+	return indexModel(c, nl), nil
+}
+
+// indexModel builds the indexes of an elaborated netlist.
+func indexModel(c *graph.Circuit, nl *netlist) *model {
 	n := len(nl.nodes)
 	m := &model{c: c, nl: nl, used: make([]bool, n), nodePrims: make([][]int32, n), nodeGroups: make([][]int32, n),
 		nodeMark: make([]int, n), primMark: make([]int, len(nl.prims)), grMark: make([]int, len(nl.groups))}
@@ -63,7 +68,7 @@ func newModel(c *graph.Circuit, o Options) (*model, error) {
 		}
 	}
 	m.conduction()
-	return m, nil
+	return m
 }
 
 // conduction joins the nodes through every part that conducts at AC (as

@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/ac"
 	"pare/graph/figure"
 )
 
@@ -97,7 +98,8 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	if loopCircuit == nil {
 		loopCircuit = reduced
 	}
-	byLoop, gone := loopStages(reduced, loopCircuit, acg, signal)
+	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
+	byLoop, gone := loopStages(reduced, loops, acg, signal)
 	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
 	var power []*found
 	var errPow error
@@ -127,7 +129,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		markSupply(top)
 		out = appendTree(out, top)
 	}
-	addLoops(loopCircuit, out)
+	addLoops(loops, out)
 	return out, errors.Join(errSig, errPow)
 }
 

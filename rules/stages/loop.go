@@ -62,12 +62,15 @@ func gangSettings(c *graph.Circuit) []float64 {
 	return []float64{0.5}
 }
 
-// loopOf solves part ref's loop at every gang setting of c.
-func loopOf(c *graph.Circuit, ref string) (Loop, error) {
+// loopOf solves part ref's loop at every gang setting of the circuit of
+// lp (one ac.Loops serves every device of a circuit, elaborating it once
+// per setting).
+func loopOf(lp *ac.Loops, ref string) (Loop, error) {
+	c := lp.Circuit()
 	l := Loop{Device: ref}
 	best, bestAt := math.Inf(-1), -1
 	for _, g := range gangSettings(c) {
-		r, err := ac.FindLoop(c, ref, ac.LoopOptions{Options: ac.Options{VarFrac: g, VarSet: true}})
+		r, err := lp.Find(ref, ac.LoopOptions{Options: ac.Options{VarFrac: g, VarSet: true}})
 		if err != nil {
 			return l, err
 		}
@@ -78,7 +81,7 @@ func loopOf(c *graph.Circuit, ref string) (Loop, error) {
 	}
 	if bestAt >= 0 {
 		s := l.Settings[bestAt]
-		if p, err := ac.Pole(c, ref, s.F, ac.Options{VarFrac: s.Gang, VarSet: true}); err == nil {
+		if p, err := lp.Pole(ref, s.F, ac.Options{VarFrac: s.Gang, VarSet: true}); err == nil {
 			l.GrowthPerS = real(p)
 		}
 	}
@@ -211,7 +214,8 @@ func biasTau(c *graph.Circuit, ref string) float64 {
 // mixer does not repeat it), with its flags.
 // A loop that cannot be solved (a net the model leaves floating) is said in
 // a flag; the stage stays.
-func addLoops(c *graph.Circuit, out []Stage) {
+func addLoops(lp *ac.Loops, out []Stage) {
+	c := lp.Circuit()
 	done := map[string]bool{}
 	for i := len(out) - 1; i >= 0; i-- { // sub-stages follow their parent
 		st := &out[i]
@@ -224,7 +228,7 @@ func addLoops(c *graph.Circuit, out []Stage) {
 				continue
 			}
 			done[ref] = true
-			l, err := loopOf(c, ref)
+			l, err := loopOf(lp, ref)
 			if err != nil {
 				st.Flags = append(st.Flags, fmt.Sprintf("loop gain of %s not computed: %v", ref, err))
 				continue

@@ -5,6 +5,7 @@ import (
 	"slices"
 
 	"pare/graph"
+	"pare/graph/ac"
 	"pare/graph/figure"
 	"pare/graph/value"
 )
@@ -32,14 +33,15 @@ const (
 // A coupling-group stage on the loop (a padder or a link capacitor that
 // the coupling patterns took for a coupling capacitor) is absorbed: it is
 // returned in gone, and its parts belong to the oscillator.
-func loopStages(c, lc *graph.Circuit, acg map[string]bool, tops []*found) (out []*found, gone map[*found]bool) {
+func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*found) (out []*found, gone map[*found]bool) {
+	lc := lp.Circuit()
 	claimed, named := claims(tops)
 	gone = map[*found]bool{}
 	for _, p := range c.Parts {
 		if !p.IsActive() || named[p.Ref] || claimed[p.Ref] != nil && hasLoop(claimed[p.Ref].Stage, p.Ref) {
 			continue
 		}
-		l, err := loopOf(lc, p.Ref)
+		l, err := loopOf(lp, p.Ref)
 		if err != nil {
 			continue // no loop to speak of: the stage it is in says the rest
 		}
@@ -212,7 +214,7 @@ func feedbackThrough(lc *graph.Circuit, ref string, l Loop) string {
 		for i := range cp.Part(q.Ref).Coupling {
 			cp.Part(q.Ref).Coupling[i].K = 0
 		}
-		cut, err := loopOf(cp, ref)
+		cut, err := loopOf(ac.NewLoops(cp), ref)
 		if err != nil {
 			continue
 		}

@@ -1,0 +1,54 @@
+package ac
+
+import "pare/graph"
+
+// Loops finds the loops of many parts of one circuit, which must not change
+// while it is in use: the circuit is elaborated once per gang setting for
+// all of them (a set's diode detectors make elaboration cost a DC solve
+// each), and each part's loop is solved on its own blocks of the matrix.
+type Loops struct {
+	c   *graph.Circuit
+	nls map[[2]float64]nlOrErr
+}
+
+type nlOrErr struct {
+	nl  *netlist
+	err error
+}
+
+// NewLoops prepares the loop searches of circuit c.
+func NewLoops(c *graph.Circuit) *Loops { return &Loops{c: c, nls: map[[2]float64]nlOrErr{}} }
+
+// Circuit is the circuit the loops are solved in.
+func (l *Loops) Circuit() *graph.Circuit { return l.c }
+
+// system is ref's loop system at setting o; settings with terminations are
+// elaborated afresh.
+func (l *Loops) system(ref string, o Options) (*loopSystem, error) {
+	if o.Terminate != nil {
+		return newLoopSystem(l.c, ref, o)
+	}
+	set := 0.0
+	if o.VarSet {
+		set = 1
+	}
+	k := [2]float64{set, o.VarFrac}
+	e, ok := l.nls[k]
+	if !ok {
+		e.nl, e.err = elaborate(l.c, o)
+		l.nls[k] = e
+	}
+	if e.err != nil {
+		return nil, e.err
+	}
+	return loopSystemOf(l.c, e.nl, ref)
+}
+
+// Pole is the package's Pole of part ref.
+func (l *Loops) Pole(ref string, f float64, o Options) (complex128, error) {
+	ls, err := l.system(ref, o)
+	if err != nil {
+		return 0, err
+	}
+	return ls.pole(f, 1)
+}
