@@ -187,7 +187,8 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	}
 	rep := &Report{TolDB: o.TolDB, TolDeg: o.TolDeg, OK: true, Pairs: []Pair{}}
 	qs := quantities(orig, reduced, rep)
-	qs = withoutHeldPorts(orig, qs, o.Options, rep)
+	dc := [2]*dcShare{{}, {}}
+	qs = withoutHeldPorts(orig, qs, o.Options, rep, dc[0])
 	qs = withoutRails(orig, qs, rep)
 	if len(qs) == 0 {
 		rep.Notes = append(rep.Notes, "the circuit declares no inputs, outputs or ports: nothing to compare")
@@ -203,7 +204,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 		}
 	}
 	cp := &comparer{o: o, settings: settings, marks: append(landmarks(orig), landmarks(reduced)...),
-		circuits: [2]*graph.Circuit{orig, reduced}, models: map[modelKey]*modelOrErr{}}
+		circuits: [2]*graph.Circuit{orig, reduced}, dc: dc, models: map[modelKey]*modelOrErr{}}
 	var silent []string
 	for _, q := range qs {
 		worst, out, err := cp.quantity(q)
@@ -272,6 +273,7 @@ type comparer struct {
 	settings []setting
 	marks    []float64
 	circuits [2]*graph.Circuit
+	dc       [2]*dcShare // each circuit's DC view, the same at every setting
 	models   map[modelKey]*modelOrErr
 }
 
@@ -283,7 +285,7 @@ func (cp *comparer) probe(ci, si int, what, from, to string) (*probe, error) {
 	if me == nil {
 		opt := cp.o.Options
 		opt.VarFrac, opt.VarSet = cp.settings[si].frac, true
-		m, err := newModel(cp.circuits[ci], opt)
+		m, err := newModel(cp.circuits[ci], opt, cp.dc[ci])
 		me = &modelOrErr{m, err}
 		cp.models[k] = me
 	}
@@ -347,8 +349,8 @@ func (cp *comparer) quantity(q quantity) (Pair, outcome, error) {
 // withoutHeldPorts drops the quantities at port nets the model holds at
 // 0 V (portHeldNets: a group reached only through its ports) and says so:
 // both circuits would show zero there, which compares nothing.
-func withoutHeldPorts(orig *graph.Circuit, qs []quantity, o Options, rep *Report) []quantity {
-	nl, err := elaborate(orig, o)
+func withoutHeldPorts(orig *graph.Circuit, qs []quantity, o Options, rep *Report, dc *dcShare) []quantity {
+	nl, err := elaborateShared(orig, o, dc)
 	if err != nil || len(nl.portHeld) == 0 {
 		return qs // an elaboration error is reported by the probes with its context
 	}

@@ -24,6 +24,7 @@ type dcNet struct {
 	node    map[string]int // representative net -> unknown; -1 the return
 	n       int
 	entries []Entry
+	loads   map[[2]string]float64 // load's answers so far
 }
 
 // leak is a conductance from every node to the return, far below any
@@ -81,7 +82,7 @@ func newDCNet(c *graph.Circuit) *dcNet {
 			}
 		}
 	}
-	d := &dcNet{uf: uf, node: map[string]int{}}
+	d := &dcNet{uf: uf, node: map[string]int{}, loads: map[[2]string]float64{}}
 	ground := uf.Find(groundName)
 	id := func(net string) int {
 		r := uf.Find(net)
@@ -136,6 +137,17 @@ func (d *dcNet) load(a, b string) float64 {
 	if na == nb {
 		return 0
 	}
+	k := [2]string{a, b}
+	if r, ok := d.loads[k]; ok {
+		return r
+	}
+	r := d.solveLoad(na, nb)
+	d.loads[k] = r
+	return r
+}
+
+// solveLoad is the DC resistance between unknowns na and nb (-1 the return).
+func (d *dcNet) solveLoad(na, nb int) float64 {
 	rhs := make([]float64, d.n)
 	if na >= 0 {
 		rhs[na] = 1

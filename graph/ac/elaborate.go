@@ -77,7 +77,18 @@ const groundName = "\x00ground" // sorts first; never a legal net name
 // that is the only way in to a group of nets with no path to ground are
 // held at 0 V as well (see portHeldNets).
 func elaborate(c *graph.Circuit, o Options) (*netlist, error) {
-	nl, err := build(c, o, nil)
+	return elaborateShared(c, o, &dcShare{})
+}
+
+// dcShare carries one circuit's DC view from one elaboration to the next:
+// the detectors' DC loads do not depend on the gang setting, and each is a
+// solve of the circuit's whole DC network, so a comparison or a loop search
+// that elaborates a circuit at several settings finds them once.
+type dcShare struct{ net *dcNet }
+
+// elaborateShared is elaborate with the DC view of c shared through dc.
+func elaborateShared(c *graph.Circuit, o Options, dc *dcShare) (*netlist, error) {
+	nl, err := build(c, o, nil, dc)
 	if err != nil {
 		return nil, err
 	}
@@ -85,7 +96,7 @@ func elaborate(c *graph.Circuit, o Options) (*netlist, error) {
 	if len(held) == 0 {
 		return nl, nil
 	}
-	if nl, err = build(c, o, held); err != nil {
+	if nl, err = build(c, o, held, dc); err != nil {
 		return nil, err
 	}
 	nl.portHeld = held
@@ -154,7 +165,7 @@ func portHeldNets(c *graph.Circuit, nl *netlist) []string {
 }
 
 // build is elaborate with the nets in held joined to ground.
-func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
+func build(c *graph.Circuit, o Options, held []string, dc *dcShare) (*netlist, error) {
 	frac := 0.5
 	if o.VarSet {
 		frac = o.VarFrac
@@ -163,7 +174,7 @@ func build(c *graph.Circuit, o Options, held []string) (*netlist, error) {
 		return nil, fmt.Errorf("gang setting %g: give a fraction of the travel from 0 to 1", frac)
 	}
 	nl := numberNodes(c, joinNets(c, o, held))
-	st := &stamper{nl: nl, c: c, frac: frac}
+	st := &stamper{nl: nl, c: c, frac: frac, dc: dc}
 	for _, p := range c.Parts {
 		st.part(c, p)
 	}

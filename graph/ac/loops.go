@@ -9,6 +9,7 @@ import "pare/graph"
 type Loops struct {
 	c   *graph.Circuit
 	nls map[[2]float64]nlOrErr
+	dc  dcShare
 }
 
 type nlOrErr struct {
@@ -35,7 +36,7 @@ func (l *Loops) system(ref string, o Options) (*loopSystem, error) {
 	k := [2]float64{set, o.VarFrac}
 	e, ok := l.nls[k]
 	if !ok {
-		e.nl, e.err = elaborate(l.c, o)
+		e.nl, e.err = elaborateShared(l.c, o, &l.dc)
 		l.nls[k] = e
 	}
 	if e.err != nil {

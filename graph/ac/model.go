@@ -33,9 +33,9 @@ type model struct {
 	nodeMark, primMark, grMark []int
 }
 
-// newModel elaborates c at the setting o.
-func newModel(c *graph.Circuit, o Options) (*model, error) {
-	nl, err := elaborate(c, o)
+// newModel elaborates c at the setting o, with c's DC view shared through dc.
+func newModel(c *graph.Circuit, o Options, dc *dcShare) (*model, error) {
+	nl, err := elaborateShared(c, o, dc)
 	if err != nil {
 		return nil, err
 	}

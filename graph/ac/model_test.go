@@ -25,7 +25,7 @@ func TestBlockProbeMatchesWhole(t *testing.T) {
 	for i := 0; i < 2*len(files); i++ {
 		f, n := files[i/2], 1+i%2
 		c := copies(t, f, n)
-		m, err := newModel(c, Options{VarSet: true, VarFrac: 0.3})
+		m, err := newModel(c, Options{VarSet: true, VarFrac: 0.3}, &dcShare{})
 		if err != nil {
 			t.Fatal(err)
 		}

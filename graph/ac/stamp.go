@@ -16,7 +16,7 @@ type stamper struct {
 	c    *graph.Circuit
 	frac float64 // gang setting
 	errs graph.ErrorList
-	dc   *dcNet // the DC view for detector loads, built at the first diode
+	dc   *dcShare // the DC view for detector loads, built at the first diode
 }
 
 // node is the node of a net, -1 for an unconnected terminal.
@@ -164,8 +164,8 @@ func (st *stamper) diode(p *graph.Part, sub string, anodes []string, cathode str
 	for _, a := range anodes {
 		load := math.Inf(1)
 		if _, own := p.Param("rd"); !own && p.Type != "varicap" {
-			if st.dc == nil {
-				st.dc = newDCNet(st.c)
+			if st.dc.net == nil {
+				st.dc.net = newDCNet(st.c)
 			}
 			shared := 0
 			for _, b := range anodes {
@@ -173,7 +173,7 @@ func (st *stamper) diode(p *graph.Part, sub string, anodes []string, cathode str
 					shared++
 				}
 			}
-			load = float64(shared) * st.dc.load(p.NetOf(a), p.NetOf(cathode))
+			load = float64(shared) * st.dc.net.load(p.NetOf(a), p.NetOf(cathode))
 		}
 		piece := ""
 		if sub != "" {
