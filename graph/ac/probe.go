@@ -204,7 +204,7 @@ func (sw *pairSweep) refinePoints(freqs []float64) []float64 {
 	dd := make([]float64, len(freqs))
 	dp := make([]float64, len(freqs))
 	for i, f := range freqs {
-		dd[i], dp[i] = deviationFloor(sw.ho[f], sw.hr[f], floor)
+		dd[i], dp[i] = deviationOf(sw.ho[f], sw.hr[f], mo[i], mr[i], floor)
 	}
 	for _, m := range [][]float64{mo, mr, dd, dp} {
 		for _, i := range peaks(m, maxPeaks) {
@@ -225,8 +225,8 @@ func (sw *pairSweep) worst(freqs []float64, tolDB, tolDeg float64) pairResult {
 	floor := floorOf(mo, mr)
 	var res pairResult
 	best := -1.0
-	for _, f := range freqs {
-		d, p := deviationFloor(sw.ho[f], sw.hr[f], floor)
+	for i, f := range freqs {
+		d, p := deviationOf(sw.ho[f], sw.hr[f], mo[i], mr[i], floor)
 		res.MaxDB = math.Max(res.MaxDB, d)
 		res.MaxDeg = math.Max(res.MaxDeg, p)
 		// The frequency reported is where the larger of the two deviations,
@@ -251,10 +251,10 @@ func floorOf(mo, mr []float64) float64 {
 	return f
 }
 
-// deviationFloor is the dB and degree difference between two responses, with
+// deviationOf is the dB and degree difference between two responses a and
+// b of magnitudes ma and mb (the sweep has them for its floor), with
 // magnitudes measured against the floor so a null does not dominate.
-func deviationFloor(a, b complex128, floor float64) (dB, deg float64) {
-	ma, mb := cmplx.Abs(a), cmplx.Abs(b)
+func deviationOf(a, b complex128, ma, mb, floor float64) (dB, deg float64) {
 	if ma == 0 && mb == 0 {
 		return 0, 0
 	}
