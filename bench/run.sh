@@ -13,7 +13,8 @@
 # For each size and phase it prints the wall time, the time per part, the
 # peak resident memory, the time as a multiple of the load of the same file
 # (`pare check`), and the growth exponent log(t2/t1)/log(n2/n1) against the
-# size before. Each phase is a whole `pare` process, so every figure
+# size before, and the CPU time (user + system) beside the wall time, which
+# on a shared machine counts waiting for a core. Each phase is a whole `pare` process, so every figure
 # includes loading the file. The machine is shared: run it when it is quiet,
 # or read the ratios rather than the seconds.
 set -u
@@ -27,16 +28,16 @@ trap 'rm -rf "$work"' EXIT
 (cd "$root" && go build -o "$work/pare" ./cmd/pare && go build -o "$work/gen" ./bench/gen) || exit 2
 if [ -n "${PARE_BENCH_BIN:-}" ]; then cp "$PARE_BENCH_BIN" "$work/pare" || exit 2; fi
 
-# run NAME FILE ARGS...: prints "seconds peakKB" or "timeout".
+# run NAME FILE ARGS...: prints "seconds peakKB cpuseconds" or "timeout".
 run() {
 	local out=$work/time.txt
-	if ! /usr/bin/time -f '%e %M' -o "$out" timeout "$limit" "$work/pare" "$@" >/dev/null 2>"$work/err.txt"; then
+	if ! /usr/bin/time -f '%e %M %U %S' -o "$out" timeout "$limit" "$work/pare" "$@" >/dev/null 2>"$work/err.txt"; then
 		if grep -q 'Command exited with non-zero status 124' "$out" 2>/dev/null; then
 			echo timeout
 			return
 		fi
 	fi
-	tail -n 1 "$out"
+	tail -n 1 "$out" | awk '{ printf "%s %s %.2f\n", $1, $2, $3 + $4 }'
 }
 
 args_of() { # phase file
@@ -52,7 +53,7 @@ args_of() { # phase file
 }
 
 echo "# $(uname -m), $(nproc) cores, $(grep -m1 'model name' /proc/cpuinfo | cut -d: -f2 | sed 's/^ //'), load $(cut -d' ' -f1-3 /proc/loadavg)"
-printf '%-7s %-7s %10s %12s %9s %9s %7s\n' phase parts seconds "µs/part" peakMB "×load" growth
+printf '%-7s %-7s %10s %10s %12s %9s %9s %7s\n' phase parts seconds cpu-s "µs/part" peakMB "×load" growth
 declare -A prev_t prev_n
 for n in ${sizes//,/ }; do
 	f=$work/bank$n.toml
@@ -66,13 +67,12 @@ for n in ${sizes//,/ }; do
 			printf '%-7s %-7s %10s\n' "$ph" "$parts" ">$limit"
 			continue
 		fi
-		t=${r% *}
-		kb=${r#* }
+		read -r t kb cpu <<<"$r"
 		[ "$ph" = load ] && load=$t
-		awk -v ph="$ph" -v n="$parts" -v t="$t" -v kb="$kb" -v load="$load" -v pt="${prev_t[$ph]:-}" -v pn="${prev_n[$ph]:-}" 'BEGIN {
+		awk -v ph="$ph" -v n="$parts" -v t="$t" -v cpu="$cpu" -v kb="$kb" -v load="$load" -v pt="${prev_t[$ph]:-}" -v pn="${prev_n[$ph]:-}" 'BEGIN {
 			ratio = (load > 0) ? sprintf("%.1f", t / load) : "-"
 			g = (pt > 0 && t > 0 && pn > 0 && n != pn) ? sprintf("%.2f", log(t / pt) / log(n / pn)) : "-"
-			printf "%-7s %-7d %10.2f %12.1f %9.1f %9s %7s\n", ph, n, t, 1e6 * t / n, kb / 1024, ratio, g
+			printf "%-7s %-7d %10.2f %10.2f %12.1f %9.1f %9s %7s\n", ph, n, t, cpu, 1e6 * t / n, kb / 1024, ratio, g
 		}'
 		prev_t[$ph]=$t
 		prev_n[$ph]=$parts
