@@ -39,7 +39,7 @@ const (
 // alongArms are the arms of a straight run in each direction's axis.
 var alongArms = [4]uint8{armE | armW, armN | armS, armE | armW, armN | armS}
 
-func opposite(d int) int { return (d + 2) % 4 }
+func opposite(d int) int { return d ^ 2 }
 
 // axisOf is 0 for a horizontal direction, 1 for a vertical one.
 func axisOf(d int) int { return d & 1 }

@@ -1,6 +1,8 @@
 package layout
 
 import (
+	"math/bits"
+
 	"pare/render/geom"
 )
 
@@ -71,88 +73,119 @@ func (a aim) estimate(x, y int) int32 {
 	return int32(stepCost * d)
 }
 
+// seek is one search's fixed terms: the net, the pin it starts from, the
+// tree it aims at and the window it may use, with the steps between
+// neighbours on the grid and among the window's states.
+type seek struct {
+	net     int32
+	pinCell int
+	to      aim
+	win     window
+	ww      int    // the window's width
+	cellAt  [4]int // grid index step in each direction
+	stateAt [4]int // state number step (of the point) in each direction
+}
+
 // search is A* from a pending pin to the net's tree, inside a window of the
 // grid. It returns the cells from the pin to the joining cell, or nil.
+//
+// States are numbered inside the window, row by row as on the grid, so the
+// search's memory is as small as its window (and stays in the cache) while
+// state numbers keep the grid's order, which the queue's ties follow.
 func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int {
 	sc := rt.sc
-	sc.next(4 * len(rt.g))
-	to := aim{int(tree.X0) - rt.x0, int(tree.Y0) - rt.y0, int(tree.X1) - rt.x0, int(tree.Y1) - rt.y0}
-	pdir := int(p.pin.Dir)
-	start := int32(p.cell*4 + pdir)
+	k := seek{net: net, pinCell: p.cell, win: win, ww: win.x1 - win.x0 + 1,
+		to: aim{int(tree.X0) - rt.x0, int(tree.Y0) - rt.y0, int(tree.X1) - rt.x0, int(tree.Y1) - rt.y0}}
+	for d, st := range dirStep {
+		k.cellAt[d] = st[0] + st[1]*rt.w
+		k.stateAt[d] = 4 * (st[0] + st[1]*k.ww)
+	}
+	sc.next(4 * k.ww * (win.y1 - win.y0 + 1))
+	px, py := p.cell%rt.w, p.cell/rt.w
+	start := int32(((py-win.y0)*k.ww+px-win.x0)*4 + int(p.pin.Dir))
 	sc.st[start] = stateInfo{stamp: sc.gen << 2, g: 0}
-	sc.q.push(to.estimate(p.cell%rt.w, p.cell/rt.w), start)
+	sc.q.push(k.to.estimate(px, py), start)
 	for sc.q.len() > 0 {
 		f, s := sc.q.pop()
 		rt.pops++
-		c, d := int(s)/4, int(s)%4
+		lc, d := int(uint32(s)>>2), int(s&3)
 		g := sc.st[s].g
-		x, y := c%rt.w, c/rt.w
-		if f != g+to.estimate(x, y) {
+		ly := lc / k.ww
+		x, y := lc-ly*k.ww+win.x0, ly+win.y0
+		if f != g+k.to.estimate(x, y) {
 			continue // stale entry: the state was reached more cheaply since
 		}
+		c := y*rt.w + x
 		if c != p.cell && rt.owns(c, net) {
-			return rt.path(int(s), int(start))
+			return rt.path(int(s), int(start), win)
 		}
-		rt.expand(net, p.cell, c, x, y, d, g, to, win)
+		rt.expand(&k, c, int(s)&^3, x, y, d, g)
 	}
 	return nil
 }
 
-// expand pushes the states one step on from point c (at x, y), reached at
-// cost g moving in direction d.
-func (rt *router) expand(net int32, pinCell, c, x, y, d int, g int32, to aim, win window) {
+// expand pushes the states one step on from point c (at x, y; its states
+// numbered from s0 in the window), reached at cost g moving in direction d.
+func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 	sc := rt.sc
-	atPin := c == pinCell
-	straightOnly := !atPin && rt.foreign(c, net)
-	for nd := 0; nd < 4; nd++ {
-		switch {
-		case atPin:
-			if nd != d {
-				continue // a wire leaves its pin straight out
-			}
-		case nd == opposite(d):
-			continue
-		case straightOnly && nd != d:
-			continue // a crossing goes straight over
-		}
-		nx, ny := x+dirStep[nd][0], y+dirStep[nd][1]
-		if nx < win.x0 || nx > win.x1 || ny < win.y0 || ny > win.y1 {
-			continue
-		}
-		n := ny*rt.w + nx
-		ns := int32(n*4 + nd)
+	var dirs uint8 // the directions a wire may leave c in
+	switch {
+	case c == k.pinCell:
+		dirs = 1 << d // a wire leaves its pin straight out
+	case rt.foreign(c, k.net):
+		dirs = 1 << d // a crossing goes straight over
+	default:
+		dirs = 0xf &^ (1 << (d ^ 2)) // never back
+	}
+	if x == k.win.x0 {
+		dirs &^= 1 << geom.Left
+	}
+	if x == k.win.x1 {
+		dirs &^= 1 << geom.Right
+	}
+	if y == k.win.y0 {
+		dirs &^= 1 << geom.Up
+	}
+	if y == k.win.y1 {
+		dirs &^= 1 << geom.Down
+	}
+	for ; dirs != 0; dirs &= dirs - 1 {
+		nd := bits.TrailingZeros8(dirs)
+		ns := s0 + k.stateAt[nd] + nd
 		nsi := &sc.st[ns]
 		least := g + stepCost // the step costs at least this much
 		if nd != d {
 			least += bendCost
 		}
-		if nsi.stamp>>2 == sc.gen && nsi.g <= least {
+		seen := nsi.stamp>>2 == sc.gen
+		if seen && nsi.g <= least {
 			continue // reached as cheaply already, whatever this step costs
 		}
-		cost, ok := rt.stepCost(net, c, n, nx, ny, d, nd)
+		n := c + k.cellAt[nd]
+		extra, ok := rt.stepExtra(k.net, c, n, x+dirStep[nd][0], y+dirStep[nd][1], nd)
 		if !ok {
 			continue
 		}
-		cost += g
-		if nsi.stamp>>2 == sc.gen && nsi.g <= cost {
+		cost := least + extra
+		if seen && nsi.g <= cost {
 			continue
 		}
 		*nsi = stateInfo{stamp: sc.gen<<2 | uint32(d), g: cost}
-		sc.q.push(cost+to.estimate(nx, ny), ns)
+		sc.q.push(cost+k.to.estimate(x+dirStep[nd][0], y+dirStep[nd][1]), int32(ns))
 	}
 }
 
-// stepCost is the cost of the step from c into its neighbour n (at nx, ny)
-// in direction nd after arriving in direction d, or false where the wire
+// stepExtra is what the step from c into its neighbour n (at nx, ny) in
+// direction nd costs beyond a plain step and bend, or false where the wire
 // may not go.
-func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
-	cost := int32(stepCost)
-	if nd != d {
-		cost += bendCost
-	}
+func (rt *router) stepExtra(net int32, c, n, nx, ny, nd int) (int32, bool) {
+	cost := int32(0)
 	g := &rt.g[n]
 	if g.own[0] == net || g.own[1] == net {
-		if !rt.joinable(n, net, nd) {
+		// joining the tree: the arm must be free, no other net may be
+		// there, and the cell must end with at most three arms (a T, never
+		// a four-way junction)
+		if g.own[1] != 0 || g.arm[0]&(1<<(nd^2)) != 0 || bits.OnesCount8(g.arm[0]) >= 3 {
 			return 0, false
 		}
 	} else {
@@ -161,7 +194,7 @@ func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
 		}
 		if g.own[0] != 0 {
 			// over another net's straight wire, at right angles, only
-			if g.own[1] != 0 || g.arm[0] != alongArms[(nd+1)%4] {
+			if g.own[1] != 0 || g.arm[0] != alongArms[(nd+1)&3] {
 				return 0, false
 			}
 			if rt.wide {
@@ -180,16 +213,18 @@ func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
 	return cost, true
 }
 
-// path lists the cells from the pin (state start) to state s.
-func (rt *router) path(s, start int) []int {
+// path lists the cells from the pin (state start) to state s, both
+// numbered in the window.
+func (rt *router) path(s, start int, win window) []int {
+	ww := win.x1 - win.x0 + 1
 	var out []int
 	for s != start {
-		c, d := s/4, s%4
-		out = append(out, c)
-		prev := c - dirStep[d][0] - dirStep[d][1]*rt.w
+		lc, d := s/4, s%4
+		out = append(out, (lc/ww+win.y0)*rt.w+lc%ww+win.x0)
+		prev := lc - dirStep[d][0] - dirStep[d][1]*ww
 		s = prev*4 + int(rt.sc.st[s].stamp&3)
 	}
-	out = append(out, start/4)
+	out = append(out, (start/4/ww+win.y0)*rt.w+start/4%ww+win.x0)
 	for i, j := 0, len(out)-1; i < j; i, j = i+1, j-1 {
 		out[i], out[j] = out[j], out[i]
 	}
