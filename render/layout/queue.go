@@ -1,6 +1,9 @@
 package layout
 
-import "slices"
+import (
+	"math/bits"
+	"slices"
+)
 
 // stateQueue is the search's open list, ordered by estimated total cost,
 // then by state number: the second key makes the order of equal estimates,
@@ -14,6 +17,7 @@ type stateQueue struct {
 	b        []bucket
 	cur, top int // lowest bucket that may hold states; highest used
 	n        int
+	marks    []uint64 // sortStates' bitmap, kept between sorts
 }
 
 type bucket struct {
@@ -70,7 +74,7 @@ func (q *stateQueue) pop() (f, s int32) {
 	}
 	q.n--
 	if !b.sorted {
-		slices.Sort(b.run[b.head:])
+		q.sortStates(b.run[b.head:])
 		b.sorted = true
 	}
 	if len(b.late) == 0 || (b.head < len(b.run) && b.run[b.head] < b.late[0]) {
@@ -107,4 +111,54 @@ func (b *bucket) popLate() int32 {
 	}
 	b.late = h
 	return top
+}
+
+// sortStates sorts a bucket's states. Within one search they are distinct
+// (a state is pushed again only at a lower cost, so into a lower bucket),
+// and a bucket's states lie close together, as the search's front of equal
+// estimates does: a bitmap over their range, read back in order, sorts
+// them in time linear in their number and range. Few states are sorted by
+// insertion, and states spread too thinly for a bitmap, or ones that
+// repeat (never from the search), by comparison.
+func (q *stateQueue) sortStates(r []int32) {
+	if len(r) <= 16 {
+		for i := 1; i < len(r); i++ {
+			v, j := r[i], i
+			for ; j > 0 && r[j-1] > v; j-- {
+				r[j] = r[j-1]
+			}
+			r[j] = v
+		}
+		return
+	}
+	lo, hi := r[0], r[0]
+	for _, v := range r {
+		lo, hi = min(lo, v), max(hi, v)
+	}
+	words := int(hi-lo)/64 + 1
+	if words > 8*len(r) {
+		slices.Sort(r)
+		return
+	}
+	if cap(q.marks) < words {
+		q.marks = make([]uint64, words)
+	}
+	m := q.marks[:words]
+	clear(m)
+	for _, v := range r {
+		d := uint32(v - lo)
+		bit := uint64(1) << (d & 63)
+		if m[d>>6]&bit != 0 {
+			slices.Sort(r) // a repeat, which a bitmap would drop
+			return
+		}
+		m[d>>6] |= bit
+	}
+	k := 0
+	for i, w := range m {
+		for ; w != 0; w &= w - 1 {
+			r[k] = lo + int32(i*64+bits.TrailingZeros64(w))
+			k++
+		}
+	}
 }

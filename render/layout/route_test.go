@@ -387,12 +387,25 @@ func (rt *router) pathCost(net int32, p wirePin, path []int) int32 {
 func TestQueueOrder(t *testing.T) {
 	rng := rand.New(rand.NewSource(2))
 	var q stateQueue
-	for round := 0; round < 3; round++ {
+	// the shapes of bucket the sort takes different ways: a few states
+	// each, many close together (a bitmap, with and without repeats), and
+	// many spread thinly
+	for round, tc := range []struct {
+		items, costs, states int
+		distinct             bool
+	}{
+		{500, 40, 10000, false}, {500, 40, 10000, false}, {500, 40, 10000, false},
+		{3000, 3, 4000, true}, {3000, 3, 4000, false}, {2000, 2, 1 << 24, false},
+	} {
 		q.reset()
 		type item struct{ f, s int32 }
 		var in []item
-		for k := 0; k < 500; k++ {
-			it := item{int32(rng.Intn(40)), int32(rng.Intn(10000))}
+		perm := rng.Perm(tc.states)
+		for k := 0; k < tc.items; k++ {
+			it := item{int32(rng.Intn(tc.costs)), int32(rng.Intn(tc.states))}
+			if tc.distinct {
+				it.s = int32(perm[k])
+			}
 			in = append(in, it)
 			q.push(it.f, it.s)
 		}
