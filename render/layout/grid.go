@@ -202,53 +202,12 @@ func (rt *router) markHugs(b geom.Rect) {
 	}
 }
 
-// crowded says whether a step into cell n (at x, y) moving in direction d
-// runs beside another net's wire going the same way, or along a frame edge.
-func (rt *router) crowded(n, x, y, d int, net int32) bool {
-	hug, along := fHugV, uint8(armN|armS)
-	a, b := -1, -1 // the neighbours on either side of the step
-	if axisOf(d) == 0 {
-		hug, along = fHugH, armE|armW
-		if y > 0 {
-			a = n - rt.w
-		}
-		if y < rt.h-1 {
-			b = n + rt.w
-		}
-	} else {
-		if x > 0 {
-			a = n - 1
-		}
-		if x < rt.w-1 {
-			b = n + 1
-		}
-	}
-	if rt.g[n].flags&hug != 0 {
-		return true
-	}
-	return (a >= 0 && rt.runsAlong(a, along, net)) || (b >= 0 && rt.runsAlong(b, along, net))
-}
-
-// runsAlong says whether another net's wire at cell m has an arm along the
-// given axis.
-func (rt *router) runsAlong(m int, along uint8, net int32) bool {
-	g := &rt.g[m]
+// runsAlong says whether another net's wire at this cell has an arm along
+// the given axis: a wire stepping beside it would be crowded (the search's
+// stepExtra).
+func (g *gridCell) runsAlong(along uint8, net int32) bool {
 	return (g.own[0] != 0 && g.own[0] != net && g.arm[0]&along != 0) ||
 		(g.own[1] != 0 && g.own[1] != net && g.arm[1]&along != 0)
-}
-
-// cutsFrame says whether the step from cell c to its neighbour n in
-// direction d passes through a frame edge.
-func (rt *router) cutsFrame(c, n, d int) bool {
-	switch d {
-	case int(geom.Right):
-		return rt.g[c].flags&fCutE != 0
-	case int(geom.Left):
-		return rt.g[n].flags&fCutE != 0
-	case int(geom.Down):
-		return rt.g[c].flags&fCutS != 0
-	}
-	return rt.g[n].flags&fCutS != 0
 }
 
 func (rt *router) index(p geom.Pt) int {

@@ -127,7 +127,7 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 // expand pushes the states one step on from point c (at x, y; its states
 // numbered from s0 in the window), reached at cost g moving in direction d.
 func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
-	sc := rt.sc
+	st, gen := rt.sc.st, rt.sc.gen
 	var dirs uint8 // the directions a wire may leave c in
 	switch {
 	case c == k.pinCell:
@@ -152,12 +152,12 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 	for ; dirs != 0; dirs &= dirs - 1 {
 		nd := bits.TrailingZeros8(dirs)
 		ns := s0 + k.stateAt[nd] + nd
-		nsi := &sc.st[ns]
+		nsi := &st[ns]
 		least := g + stepCost // the step costs at least this much
 		if nd != d {
 			least += bendCost
 		}
-		seen := nsi.stamp>>2 == sc.gen
+		seen := nsi.stamp>>2 == gen
 		if seen && nsi.g <= least {
 			continue // reached as cheaply already, whatever this step costs
 		}
@@ -170,17 +170,19 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 		if seen && nsi.g <= cost {
 			continue
 		}
-		*nsi = stateInfo{stamp: sc.gen<<2 | uint32(d), g: cost}
-		sc.q.push(cost+k.to.estimate(x+dirStep[nd][0], y+dirStep[nd][1]), int32(ns))
+		*nsi = stateInfo{stamp: gen<<2 | uint32(d), g: cost}
+		rt.sc.q.push(cost+k.to.estimate(x+dirStep[nd][0], y+dirStep[nd][1]), int32(ns))
 	}
 }
 
 // stepExtra is what the step from c into its neighbour n (at nx, ny) in
 // direction nd costs beyond a plain step and bend, or false where the wire
-// may not go.
+// may not go. It is the search's innermost work, so the grid's tests
+// (crowded, cutsFrame) are written out here on the record already loaded.
 func (rt *router) stepExtra(net int32, c, n, nx, ny, nd int) (int32, bool) {
-	cost := int32(0)
-	g := &rt.g[n]
+	grid := rt.g
+	g := &grid[n]
+	extra := int32(0)
 	if g.own[0] == net || g.own[1] == net {
 		// joining the tree: the arm must be free, no other net may be
 		// there, and the cell must end with at most three arms (a T, never
@@ -198,19 +200,36 @@ func (rt *router) stepExtra(net int32, c, n, nx, ny, nd int) (int32, bool) {
 				return 0, false
 			}
 			if rt.wide {
-				cost += wideCrossCost
+				extra += wideCrossCost
 			} else {
-				cost += crossCost
+				extra += crossCost
 			}
 		}
 	}
-	if rt.crowded(n, nx, ny, nd, net) {
-		cost += nearCost
+	// crowded: along a frame edge, or beside another net's wire running the
+	// same way (fHugV and fCutS follow fHugH and fCutE)
+	axis := nd & 1
+	near := g.flags&(fHugH<<axis) != 0
+	if !near {
+		side, lo, hi := rt.w, ny > 0, ny < rt.h-1
+		if axis == 1 {
+			side, lo, hi = 1, nx > 0, nx < rt.w-1
+		}
+		along := alongArms[nd]
+		near = (lo && grid[n-side].runsAlong(along, net)) || (hi && grid[n+side].runsAlong(along, net))
 	}
-	if rt.cutsFrame(c, n, nd) {
-		cost += edgeCost
+	if near {
+		extra += nearCost
 	}
-	return cost, true
+	// cutsFrame: a frame edge is marked on the cell west or north of it
+	at := g
+	if nd == int(geom.Right) || nd == int(geom.Down) {
+		at = &grid[c]
+	}
+	if at.flags&(fCutE<<axis) != 0 {
+		extra += edgeCost
+	}
+	return extra, true
 }
 
 // path lists the cells from the pin (state start) to state s, both
