@@ -2,6 +2,7 @@ package layout
 
 import (
 	"fmt"
+	"sync"
 
 	"pare/graph"
 )
@@ -11,13 +12,20 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	if c == nil {
 		return nil, fmt.Errorf("layout: no circuit")
 	}
-	u := &untangler{c: c, o: o, seen: map[string]*wiring{}}
+	sc := scratchPool.Get().(*scratch)
+	defer scratchPool.Put(sc)
+	u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: sc}
 	best := u.layout(nil, false)
 	if best.crossings > 0 && o.Untangle && len(best.ly.cells) <= maxRetryCells {
 		best = u.untangle(best)
 	}
 	return assemble(best.ly, best.w), nil
 }
+
+// scratchPool keeps the router's search memory from one sheet to the next
+// (render lays out several views of one circuit): a search starts by
+// stamping a new generation, so nothing left in it can be read again.
+var scratchPool = sync.Pool{New: func() any { return new(scratch) }}
 
 // untangle looks for a layout with fewer crossings than the plain one.
 func (u *untangler) untangle(plain *routed) *routed {
@@ -90,8 +98,8 @@ type untangler struct {
 	tried int                // single changes tried, both passes together
 	// shortFirst routes the nets shortest first
 	shortFirst bool
-	sc         scratch // the router's search memory, for every layout
-	pops       int     // the router's work so far, for untangleBudget
+	sc         *scratch // the router's search memory, for every layout
+	pops       int      // the router's work so far, for untangleBudget
 }
 
 // layout places the circuit with the given changes and routes it, unless
@@ -102,7 +110,7 @@ func (u *untangler) layout(turns map[string]int, free bool) *routed {
 	key := ly.key()
 	w, ok := u.seen[key]
 	if !ok {
-		w = route(ly, &u.sc)
+		w = route(ly, u.sc)
 		u.pops += w.pops
 		u.seen[key] = w
 	}

@@ -86,7 +86,7 @@ func TestSamplerRoutesOnce(t *testing.T) {
 	}
 	c := loadFixture(t, "../testdata/all-symbols.toml")
 	o := reducedOptions(c, 0)
-	u := &untangler{c: c, o: o, seen: map[string]*wiring{}}
+	u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: new(scratch)}
 	best := u.untangle(u.layout(nil, false))
 	if len(u.seen) > 6 {
 		t.Errorf("%d placements routed; the budget allows a few", len(u.seen))
