@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"pare/graph"
+	"pare/internal/synth"
 	"pare/render/symbol"
 )
 
@@ -47,6 +48,7 @@ func reducedOptions(c *graph.Circuit, st symbol.Style) Options {
 // benchLayout lays c out b.N times and reports the CPU time per layout.
 func benchLayout(b *testing.B, c *graph.Circuit, o Options) {
 	b.Helper()
+	b.ResetTimer()
 	c0 := cpuNow()
 	for i := 0; i < b.N; i++ {
 		if _, err := Layout(c, o); err != nil {
@@ -87,6 +89,35 @@ func BenchmarkExamples(b *testing.B) {
 func BenchmarkChain(b *testing.B) {
 	b.Run("60/untangle", func(b *testing.B) { benchLayout(b, stageChain(60), Options{Untangle: true}) })
 	b.Run("2000/full", func(b *testing.B) { benchLayout(b, stageChain(2000), Options{}) })
+}
+
+// BenchmarkSynth: sheets from internal/synth, drawn from the examples' own
+// stages: one valve superhet channel (50 parts, every decoupling, heater
+// bypass and trimmer) with the untangle search of a reduced view, the
+// largest sheet of up to 60 parts pare draws; and receiver banks of about
+// 200 and 2,000 parts in a full view. The 2,000-part bank takes minutes
+// (docs/performance.md): run it on its own, -bench Synth/bank-2000.
+func BenchmarkSynth(b *testing.B) {
+	b.Run("superhet-50/untangle", func(b *testing.B) {
+		one, err := synth.Load(synth.Superhet)
+		if err != nil {
+			b.Fatal(err)
+		}
+		benchLayout(b, one, Options{Untangle: true, HideUnconnected: true})
+	})
+	for _, n := range []int{200, 2000} {
+		b.Run(fmt.Sprintf("bank-%d/full", n), func(b *testing.B) {
+			src, err := synth.Bank(n, 1)
+			if err != nil {
+				b.Fatal(err)
+			}
+			bank, err := graph.Parse("bank.toml", src)
+			if err != nil {
+				b.Fatal(err)
+			}
+			benchLayout(b, bank, Options{Links: true})
+		})
+	}
 }
 
 // stageChain builds a chain of RC-coupled common-cathode triode stages
