@@ -2,7 +2,6 @@ package layout
 
 import (
 	"math"
-	"math/bits"
 	"sort"
 
 	"pare/render/geom"
@@ -40,9 +39,6 @@ const (
 var alongArms = [4]uint8{armE | armW, armN | armS, armE | armW, armN | armS}
 
 func opposite(d int) int { return d ^ 2 }
-
-// axisOf is 0 for a horizontal direction, 1 for a vertical one.
-func axisOf(d int) int { return d & 1 }
 
 // Grid cell flags.
 const (
@@ -270,19 +266,6 @@ func (rt *router) addArm(i int, net int32, bit uint8) {
 	default:
 		g.own[1], g.arm[1] = net, bit
 	}
-}
-
-// joinable says whether a wire arriving into cell i moving in direction d
-// may join the net's tree there: the arm must be free, no other net may be
-// there, and the cell must end with at most three arms (a T, never a
-// four-way junction).
-func (rt *router) joinable(i int, net int32, d int) bool {
-	g := &rt.g[i]
-	if g.own[1] != 0 || g.own[0] != net {
-		return false
-	}
-	bit := uint8(1) << opposite(d)
-	return g.arm[0]&bit == 0 && bits.OnesCount8(g.arm[0]) < 3
 }
 
 // setFaded records whether the step east (or south) of cell i is faded.
