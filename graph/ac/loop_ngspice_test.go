@@ -248,7 +248,7 @@ func TestLoopGainAgainstNgspiceTransient(t *testing.T) {
 			// ngspice, single-threaded, keeps both cores busy.
 			t.Run(name, func(t *testing.T) {
 				t.Parallel()
-				checkLoopTran(t, bin, load(t, file), p.Ref)
+				checkLoopTran(t, bin, load(t, file), p.Ref, 1) // the low end of any dial
 			})
 		}
 	}
@@ -259,8 +259,8 @@ func TestLoopGainAgainstNgspiceTransient(t *testing.T) {
 // 0 dB. L is linear in the source's gm (the return ratio of one source),
 // so the scaled runs test pare's margin to ±0.3 dB and, ringing at nearly
 // constant amplitude, its 0°-phase frequency.
-func checkLoopTran(t *testing.T, bin string, c *graph.Circuit, ref string) {
-	o := Options{VarFrac: 1, VarSet: true} // the low end of any dial
+func checkLoopTran(t *testing.T, bin string, c *graph.Circuit, ref string, gang float64) {
+	o := Options{VarFrac: gang, VarSet: true}
 	loop, err := FindLoop(c, ref, LoopOptions{Options: o})
 	if err != nil {
 		t.Fatal(err)

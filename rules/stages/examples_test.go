@@ -134,14 +134,15 @@ func TestIFStripExample(t *testing.T) {
 	}
 }
 
-// The transistor front end: the BJT mixer and the IF amplifier are named,
-// every part labelled.
+// The transistor front end: the BJT mixer (its emitter fed by a link
+// winding on the oscillator coil) and the IF amplifier are named, every
+// part labelled.
 func TestTransistorExample(t *testing.T) {
 	full, reduced, log := reduceExample(t, "transistor-front-end.toml")
 	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround})
 	var mixer *Stage
 	for i := range st {
-		if st[i].Topology == "self-oscillating-mixer-common-fed" {
+		if st[i].Topology == "self-oscillating-mixer-common-link" {
 			mixer = &st[i]
 		}
 	}

@@ -346,6 +346,31 @@ C3 = { c = "10n", pins = ["tap", "e"] }
 R3 = { r = "2k2", pins = ["e", "gnd"] }
 T3 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, pins = { p1 = "ht", pt = "x", p2 = "hot", s1 = "if", s2 = "gnd" } }
 C5 = { c = "180p", pins = ["hot", "ht"] }`},
+	{topology: "self-oscillating-mixer-common-link", families: allFamilies, extra: `[freqs]
+if = "455k"`,
+		parts: `@Q1(b, e, c)
+C9 = { c = "4p7", pins = ["in", "ant"] }
+T1 = { windings = { p = "365u", s = "8u" }, k = 0.8, pins = { p1 = "ant", p2 = "gnd", s1 = "b", s2 = "gnd" } }
+VC1 = { c = "8p..230p", pins = ["ant", "gnd"], gang = "tune" }
+T2 = { windings = { f = "9u5", p = "206u5", s = "2u1" }, k = { "f-p" = 0.5, "f-s" = 0.45, "p-s" = 0.9 }, pins = { f1 = "c", f2 = "x", p1 = "gnd", p2 = "top", s1 = "link", s2 = "gnd" } }
+VC2 = { c = "8p..230p", pins = ["top", "gnd"], gang = "tune" }
+C3 = { c = "10n", pins = ["link", "e"] }
+R3 = { r = "2k2", pins = ["e", "gnd"] }
+T3 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, pins = { p1 = "ht", pt = "x", p2 = "hot", s1 = "if", s2 = "gnd" } }
+C5 = { c = "180p", pins = ["hot", "ht"] }`,
+		// The link winding's cold end sits on a resistor, not at AC
+		// ground: it is no link from the tank to the emitter.
+		nearMiss: `@Q1(b, e, c)
+C9 = { c = "4p7", pins = ["in", "ant"] }
+T1 = { windings = { p = "365u", s = "8u" }, k = 0.8, pins = { p1 = "ant", p2 = "gnd", s1 = "b", s2 = "gnd" } }
+VC1 = { c = "8p..230p", pins = ["ant", "gnd"] }
+T2 = { windings = { f = "9u5", p = "206u5", s = "2u1" }, k = { "f-p" = 0.5, "f-s" = 0.45, "p-s" = 0.9 }, pins = { f1 = "c", f2 = "x", p1 = "gnd", p2 = "top", s1 = "link", s2 = "y" } }
+R4 = { r = "10k", pins = ["y", "gnd"] }
+VC2 = { c = "8p..230p", pins = ["top", "gnd"] }
+C3 = { c = "10n", pins = ["link", "e"] }
+R3 = { r = "2k2", pins = ["e", "gnd"] }
+T3 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, pins = { p1 = "ht", pt = "x", p2 = "hot", s1 = "if", s2 = "gnd" } }
+C5 = { c = "180p", pins = ["hot", "ht"] }`},
 	{topology: "mixer-grid-injected", families: []string{"valve"},
 		parts: `V1 = { valve = "heptode", pins = { g1 = "g", g2 = "ht", g3 = "inj", g4 = "ht", g5 = "gnd", a = "o", k = "gnd" } }
 C1 = { c = "100p", pins = ["in", "g"] }
