@@ -227,12 +227,11 @@ var formulaOnly = map[[2]string]string{
 	{"self-oscillating-mixer", "grid_f_c"}: "an oscillator's grid-leak bias time constant, not a corner the signal passes",
 	{"grid-leak-detector-reaction", "f_c"}: "a grid-leak detector rectifies at the grid: the time constant of a DC level",
 	// A mixer found by its loop: osc_f is the solver's (the loop's 0°
-	// frequency) with no formula to cross-check it; the IF can and the dial
-	// follow from it.
-	{"self-oscillating-mixer-loop", "osc_f"}: "the loop's own solver figure: no formula describes an oscillator no pattern names",
-	{"self-oscillating-mixer-loop", "ift_f"}: "the IF can's resonance, copied from its own stage's formula (known gap)",
-	{"self-oscillating-mixer-loop", "sig_f"}: "signal = oscillator − IF from the loop's range (known gap)",
-	{"rc-phase-shift-degenerated", "f"}:      "the in-circuit frequency is the loop's, in the stage's loop line (known gap: not yet the figure)",
+	// frequency across the gang) and sig_f follows from it; their formula
+	// check is the tank's f = 1/(2π√(LC)) when a pattern names the tank the
+	// feedback goes through, and a padded tank no pattern names has none.
+	{"self-oscillating-mixer-loop", "osc_f"}: "the loop's solver figure: its check needs a stage that names the tank (known gap for a padded tank)",
+	{"self-oscillating-mixer-loop", "sig_f"}: "oscillator − IF from the loop: its check needs a stage that names the tank (known gap for a padded tank)",
 }
 
 // Every figure of the kinds the solver gives, on every example and

@@ -234,6 +234,7 @@ func addLoops(lp *ac.Loops, out []Stage) {
 				continue
 			}
 			st.Loop = append(st.Loop, l)
+			loopFrequencyFigure(st, l)
 			st.Flags = append(st.Flags, loopFlags(c, st, l)...)
 		}
 		slices.Sort(st.Flags)

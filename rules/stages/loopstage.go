@@ -7,7 +7,6 @@ import (
 	"pare/graph"
 	"pare/graph/ac"
 	"pare/graph/figure"
-	"pare/graph/value"
 )
 
 // Oscillators found by their loop. A pattern describes one drawing of a
@@ -102,18 +101,20 @@ func loopStage(c, lc *graph.Circuit, acg map[string]bool, p *graph.Part, l Loop,
 	st := &Stage{Topology: loopTopology, group: "oscillator", Family: deviceFamily(p),
 		Parts: parts, Figures: figure.List{}, Loop: []Loop{l}}
 	st.Title = expandTitle("Oscillator, feedback through "+word+" ({family})", st.Family)
-	if ifStage := ifOutput(c, p, tops); ifStage != nil {
-		st.Topology, st.group = loopMixerTopology, "mixer"
-		st.Title = expandTitle("Self-oscillating mixer, oscillator feedback through "+word+" ({family})", st.Family)
-		mixerFigures(c, st, l, ifStage)
-	}
 	f := &found{Stage: st, set: map[string]bool{}}
 	// The tank the feedback transformer tunes, named by its own pattern,
 	// is the oscillator's sub-stage, as a tank found inside a Hartley is.
+	var tank *Stage
 	if t := claimed[through]; t != nil && t.group == "tuned" && !gone[t] && slices.Contains(tops, t) {
 		gone[t] = true
 		f.subs = append(f.subs, t)
 		st.Parts = slices.Compact(slices.Sorted(slices.Values(append(st.Parts, t.Parts...))))
+		tank = t.Stage
+	}
+	if ifStage := ifOutput(c, p, tops); ifStage != nil {
+		st.Topology, st.group = loopMixerTopology, "mixer"
+		st.Title = expandTitle("Self-oscillating mixer, oscillator feedback through "+word+" ({family})", st.Family)
+		mixerFigures(c, st, l, ifStage, tank)
 	}
 	st.Flags = loopFlags(lc, st, l)
 	slices.Sort(st.Flags)
@@ -253,25 +254,4 @@ func ifOutput(c *graph.Circuit, dev *graph.Part, tops []*found) *Stage {
 		}
 	}
 	return nil
-}
-
-// mixerFigures gives a mixer found by its loop the oscillator's range from
-// the loop (0° of loop phase in circuit, across the gang), the IF its
-// output is tuned to, and the signal range it receives with high-side
-// injection (signal = oscillator − IF).
-func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage *Stage) {
-	fMin, fMax, _, _, ok := l.Range()
-	if !ok {
-		return
-	}
-	fif := c.Freqs["if"]
-	origin := figure.BySolver("loop gain, 0° of loop phase", "across the gang")
-	st.Figures.Put(figure.Figure{Name: "osc_f", Label: "osc f", Unit: figure.Hertz, Range: &value.Range{Min: fMin, Max: fMax}, Origin: origin})
-	st.Figures.Put(figure.Figure{Name: "if", Label: "IF", Unit: figure.Hertz, Value: fif, Origin: figure.FromNetlist("[freqs] if")})
-	if ft, ok := ifStage.Figures.Lookup("f_hz"); ok {
-		st.Figures.Put(figure.Figure{Name: "ift_f", Label: "IF transformer f", Unit: figure.Hertz, Value: ft, Origin: figure.ByFormula("f = 1/(2π√(LC))")})
-	}
-	if fMin > fif {
-		st.Figures.Put(figure.Figure{Name: "sig_f", Label: "sig f", Unit: figure.Hertz, Range: &value.Range{Min: fMin - fif, Max: fMax - fif}, Origin: figure.ByFormula("signal = oscillator − IF")})
-	}
 }

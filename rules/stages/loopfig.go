@@ -1,0 +1,129 @@
+package stages
+
+import (
+	"fmt"
+
+	"pare/graph"
+	"pare/graph/figure"
+	"pare/graph/value"
+)
+
+// Oscillator frequencies from the loop. An oscillator runs where its loop
+// phase is 0°, in circuit, with every load on the network (ac.FindLoop);
+// that is the solver's figure. A pattern's formula for an RC oscillator
+// (f = 1/(2πRC√6), f = 1/(2π√(R1R2C1C2))) assumes sections unloaded by the
+// device on either side and stays beside it as the named cross-check, with
+// words for why the two part.
+
+// loopOrigin is the origin of a frequency read from the loop.
+var loopOrigin = figure.BySolver("loop gain, 0° of loop phase", "")
+
+// loopFreq is the loop's oscillation frequency as a figure: one value
+// when the loop runs at one frequency, the range over the gang otherwise;
+// ok is false when no setting has a 0° crossing.
+func loopFreq(name, label string, l Loop) (figure.Figure, bool) {
+	fMin, fMax, _, _, ok := l.Range()
+	if !ok {
+		return figure.Figure{}, false
+	}
+	o := loopOrigin
+	f := figure.Figure{Name: name, Label: label, Unit: figure.Hertz, Origin: o}
+	if len(l.Settings) > 1 && fMax/fMin-1 > 1e-4 {
+		f.Origin.At = "across the gang"
+		f.Range = &value.Range{Min: fMin, Max: fMax}
+	} else {
+		f.Origin.At = "in circuit"
+		f.Value = fMin
+	}
+	return f, true
+}
+
+// withCheck returns f with c (a formula's figure of the same quantity) as
+// its cross-check, and why when they part by more than CheckAgreement.
+func withCheck(f figure.Figure, c figure.Figure, why string) figure.Figure {
+	if !c.Finite() {
+		return f
+	}
+	c.Name, c.Label, c.Check, c.Why = f.Name, "", nil, ""
+	f.Check = &c
+	if f.CheckDiffers() {
+		f.Why = why
+	}
+	return f
+}
+
+// loopFrequencyFigure makes an oscillator stage's formula-only frequency f
+// the loop's, keeping the formula as its check. Figures the solver
+// already gives (a tank's resonance in circuit) are left alone: the loop
+// line and the pull flag compare the two.
+func loopFrequencyFigure(st *Stage, l Loop) {
+	old, ok := st.Figures.Get("f")
+	if !ok || old.Origin.Source != figure.Formula || old.Unit != figure.Hertz {
+		return
+	}
+	f, ok := loopFreq("f", old.Label, l)
+	if !ok {
+		return
+	}
+	why := fmt.Sprintf("the formula takes the network unloaded; in circuit the loop's phase is 0° at %s, with %s's input and output loading the network", hzText(f.Value), l.Device)
+	if f.Range != nil {
+		why = fmt.Sprintf("the formula takes the network unloaded; in circuit %s's input and output load it", l.Device)
+	}
+	st.Figures.Put(withCheck(f, old, why))
+}
+
+// mixerFigures gives a mixer found by its loop the oscillator's range from
+// the loop (0° of loop phase in circuit, across the gang), the IF its
+// output is tuned to (that stage's own in-circuit resonance), and the
+// signal range it receives with high-side injection (signal = oscillator −
+// IF). The oscillator's formula cross-check is the tank's f = 1/(2π√(LC))
+// of the tuned winding the feedback goes through (tank), when a stage
+// names it.
+func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage, tank *Stage) {
+	osc, ok := loopFreq("osc_f", "osc f", l)
+	if !ok {
+		return
+	}
+	fif := c.Freqs["if"]
+	var oscCheck *figure.Figure
+	if tank != nil {
+		if t, ok := tank.Figures.Get("f"); ok && t.Check != nil {
+			oscCheck = t.Check
+			osc = withCheck(osc, *t.Check, "the tank alone, by its formula, leaves out what the device and its loads put across it: the loop runs where its phase is 0° in circuit")
+		}
+	}
+	st.Figures.Put(osc)
+	st.Figures.Put(figure.Figure{Name: "if", Label: "IF", Unit: figure.Hertz, Value: fif, Origin: figure.FromNetlist("[freqs] if")})
+	if ft, ok := ifStage.Figures.Get("f"); ok {
+		ft.Name, ft.Label = "ift_f", "IF transformer f"
+		if ft.Check != nil {
+			ck := *ft.Check
+			ck.Name = "ift_f"
+			ft.Check = &ck
+		}
+		st.Figures.Put(ft)
+	}
+	lo, hi := osc.Value, osc.Value
+	if osc.Range != nil {
+		lo, hi = osc.Range.Min, osc.Range.Max
+	}
+	if lo <= fif {
+		return
+	}
+	sig := figure.Figure{Name: "sig_f", Label: "sig f", Unit: figure.Hertz, Origin: figure.BySolver("loop gain, 0° of loop phase, less the IF", osc.Origin.At)}
+	if osc.Range != nil {
+		sig.Range = &value.Range{Min: lo - fif, Max: hi - fif}
+	} else {
+		sig.Value = lo - fif
+	}
+	if oscCheck != nil {
+		ck := figure.Figure{Unit: figure.Hertz, Origin: figure.ByFormula("fsig = fosc − IF")}
+		if r := oscCheck.Range; r != nil {
+			ck.Range = &value.Range{Min: r.Min - fif, Max: r.Max - fif}
+		} else {
+			ck.Value = oscCheck.Value - fif
+		}
+		sig = withCheck(sig, ck, "it follows the oscillator's own difference from its tank's formula")
+	}
+	st.Figures.Put(sig)
+}
