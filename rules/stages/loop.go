@@ -219,7 +219,7 @@ func addLoops(lp *ac.Loops, out []Stage) {
 	done := map[string]bool{}
 	for i := len(out) - 1; i >= 0; i-- { // sub-stages follow their parent
 		st := &out[i]
-		if st.group != "oscillator" && st.group != "mixer" {
+		if st.group != "oscillator" && st.group != "mixer" || injectedMixer(st.Topology) {
 			continue
 		}
 		for _, ref := range st.Parts {
@@ -240,6 +240,14 @@ func addLoops(lp *ac.Loops, out []Stage) {
 		slices.Sort(st.Flags)
 	}
 }
+
+// injectedMixers are the mixers fed by a separate oscillator: their valve
+// has no oscillator loop of its own, so it has none to fail, and a loop
+// searched round it would only say "does not oscillate" of a part that
+// is not meant to.
+var injectedMixers = []string{"mixer-grid-injected", "mixer-common-injected"}
+
+func injectedMixer(topology string) bool { return slices.Contains(injectedMixers, topology) }
 
 // LoopLine is a loop in words for the stage list: "loop V1: 982.6 kHz–1.959
 // MHz, margin +15.8 to +19.3 dB across the dial; by gang travel, 0 %: …".
