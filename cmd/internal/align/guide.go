@@ -40,6 +40,9 @@ type Guide struct {
 	Ends []End
 	// Warnings: what the circuit cannot do or the capture does not show.
 	Warnings []string
+	// TrackNote says plainly why a set with ganged tuning has no tracking
+	// steps, and what to turn instead; empty when the steps are there.
+	TrackNote string
 	// Nothing is set, with the reason, when there is nothing to align.
 	Nothing string
 	// Inject is the signal-injection table from the output back to the
@@ -90,9 +93,7 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 	g.IF, g.IFFrom = setIF(c, mix)
 	g.FM = fmDetector(sts) || g.IF >= fmIFMin
 	g.ifSteps(c, sts)
-	if mix != nil {
-		g.trackingSteps(c, mix)
-	}
+	g.tracking(c, sts)
 	for i := range g.Steps {
 		g.Steps[i].N = i + 1
 	}

@@ -66,7 +66,7 @@ func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 	if mixerStage(sts) != nil {
 		watch += "; keep the oscillator from beating with the generator: tune to a quiet end of the dial or stop it (common practice)"
 	}
-	into := ifInto(c, sts)
+	into := ifInto(c, sts, g.IF)
 	add := func(adj []adjuster, how string) {
 		for _, a := range adj {
 			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Into: into, Watch: how, From: g.IFFrom})
@@ -255,21 +255,4 @@ func detectorStage(sts []stages.Stage) *stages.Stage {
 		}
 	}
 	return nil
-}
-
-// ifInto is where the IF generator goes: the mixer's control electrode
-// (through a small capacitor, common practice), else the IF strip's input.
-func ifInto(c *graph.Circuit, sts []stages.Stage) string {
-	if mix := mixerStage(sts); mix != nil {
-		for _, ref := range mix.Parts {
-			if p := c.Part(ref); p != nil && p.IsActive() {
-				pin := p.PinWithRole(graph.RoleControl)
-				return fmt.Sprintf("the mixer's %s (%s %s, net %s) through a small capacitor", controlWord(p), p.Ref, pin, p.NetOf(pin))
-			}
-		}
-	}
-	if len(c.Inputs) > 0 {
-		return fmt.Sprintf("the IF strip's input (net %s)", c.Inputs[0])
-	}
-	return "the mixer's input"
 }

@@ -91,6 +91,13 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	if len(c.Inputs) > 0 {
 		add(point{net: c.Inputs[0], where: portOn(c, c.Inputs[0])})
 	}
+	mixer := mixerDevice(c, sts, g.IF)
+	osc := oscillatorOnly(sts, mixer)
+	device := func(p *graph.Part) {
+		if p != nil && !osc[p.Ref] {
+			add(controlPoint(p, p == mixer))
+		}
+	}
 	for _, s := range sts {
 		if s.Supply {
 			continue
@@ -100,15 +107,15 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 			continue
 		}
 		for _, ref := range s.Parts {
-			add(controlPoint(c.Part(ref), strings.Contains(s.Topology, "mixer")))
+			device(c.Part(ref))
 		}
 	}
 	for _, p := range c.Parts {
-		add(controlPoint(p, false))
+		device(p)
 	}
 	dist := netDistances(c)
 	slices.SortStableFunc(pts, func(a, b point) int { return dist(a.net) - dist(b.net) })
-	classify(c, pts, g, mixerStage(sts) != nil)
+	classify(c, pts, g, mixer != nil)
 	return pts
 }
 

@@ -37,7 +37,7 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 		return in, err
 	}
 	if p.mixer {
-		in.GainNote = "at the IF, as an IF amplifier"
+		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF row before it is referred to this row's level"
 	}
 	in.GainNote = join(in.GainNote, implausible(in))
 	return in, nil

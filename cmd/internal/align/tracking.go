@@ -23,21 +23,29 @@ type tank struct {
 }
 
 // trackingSteps adds the oscillator and aerial/RF tracking (common
-// practice): oscillator trimmer at the high tracking point, padder or
-// oscillator core at the low one, repeated until both hold; then the aerial
-// trimmer and core at the same two points.
-func (g *Guide) trackingSteps(c *graph.Circuit, mix *stages.Stage) {
+// practice) of a mixer that carries the tracking figures: oscillator
+// trimmer at the high tracking point, padder or oscillator core at the low
+// one, repeated until both hold; then the aerial trimmer and core at the
+// same two points. It returns why it could not, or "".
+func (g *Guide) trackingSteps(c *graph.Circuit, mix *stages.Stage) string {
 	osc := oscTank(c, mix)
 	if osc.gang == nil {
-		return
+		return mix.Name + " has no ganged tuning capacitor among its parts"
 	}
 	sig := sigTank(c, osc.gang)
-	lo, hi, from, ok := g.trackPoints(mix)
-	if !ok {
-		return
+	lo, hi, from, why := g.trackPoints(mix)
+	if why != "" {
+		return why
 	}
 	g.ends(c, mix)
 	g.trackWarnings(mix, osc)
+	g.trackSteps(c, osc, sig, lo, hi, from)
+	return ""
+}
+
+// trackSteps adds the tracking steps proper at the low and high tracking
+// points lo and hi (dial frequencies; from says where they come from).
+func (g *Guide) trackSteps(c *graph.Circuit, osc, sig tank, lo, hi float64, from string) {
 	g.aerialInto = "the aerial socket through a dummy aerial (common practice)"
 	if len(c.Inputs) > 0 {
 		g.aerialInto = fmt.Sprintf("the aerial input (net %s) through a dummy aerial (common practice)", c.Inputs[0])
@@ -94,22 +102,21 @@ func describe(p *graph.Part) string {
 // trackPoints are the low and high tracking frequencies: where the set as
 // captured tracks exactly (track_fit) when it does at two points or more,
 // else the three customary points pare proposes (track_f), with a warning.
-func (g *Guide) trackPoints(mix *stages.Stage) (lo, hi float64, from string, ok bool) {
+func (g *Guide) trackPoints(mix *stages.Stage) (lo, hi float64, from, why string) {
 	fit, _ := mix.Figures.Get("track_fit")
 	if len(fit.Points) >= 2 {
-		return fit.Points[0], fit.Points[len(fit.Points)-1], fmt.Sprintf("%s: %s %s", mix.Name, fit.Label, hzList(fit.Points)), true
+		return fit.Points[0], fit.Points[len(fit.Points)-1], fmt.Sprintf("%s: %s %s", mix.Name, fit.Label, hzList(fit.Points)), ""
 	}
 	sug, okS := mix.Figures.Get("track_f")
 	if !okS || len(sug.Points) < 2 {
-		g.Warnings = append(g.Warnings, mix.Name+": pare found no tracking points for this oscillator: the gang's sections could not be paired")
-		return 0, 0, "", false
+		return 0, 0, "", mix.Name + ": pare found no tracking points for this oscillator: the gang's sections could not be paired"
 	}
 	as := "nowhere on the dial"
 	if len(fit.Points) == 1 {
 		as = "at " + hz(fit.Points[0]) + " only"
 	}
 	g.Warnings = append(g.Warnings, fmt.Sprintf("as captured the set tracks exactly %s: the procedure aligns at the customary points of pare's suggested three-point design instead", as))
-	return sug.Points[0], sug.Points[len(sug.Points)-1], fmt.Sprintf("%s: %s, %s %s", mix.Name, sug.Group, sug.Label, hzList(sug.Points)), true
+	return sug.Points[0], sug.Points[len(sug.Points)-1], fmt.Sprintf("%s: %s, %s %s", mix.Name, sug.Group, sug.Label, hzList(sug.Points)), ""
 }
 
 // ends records the dial ends from the oscillator and signal ranges, and
@@ -171,7 +178,46 @@ func oscTank(c *graph.Circuit, mix *stages.Stage) tank {
 	if t.trimmer == nil && t.padder != nil {
 		t.trimmer = shuntTrimmer(c, coilNet, nil)
 	}
+	if t.padder == nil && t.coil != nil {
+		t.padder = coldPadder(c, t.coil, hot)
+	}
 	return t
+}
+
+// coldPadder is a padder between the coil's cold end and ground (the
+// other customary place for it, common practice): a capacitor from the far
+// end of the winding on hot to AC ground, that end being no ground itself.
+func coldPadder(c *graph.Circuit, coil *graph.Part, hot string) *graph.Part {
+	cold := farEnd(coil, hot)
+	if cold == "" || c.RoleOf(cold).IsACGround() {
+		return nil
+	}
+	for _, p := range c.Parts {
+		if p.Kind == graph.Capacitor && len(p.Pins) == 2 && p.Type != graph.CapVariable &&
+			slices.Contains(netsOf(p), cold) && c.RoleOf(otherNet(p, cold)).IsACGround() {
+			return p
+		}
+	}
+	return nil
+}
+
+// farEnd is the net at the other end of the winding of coil that has a pin
+// on net (pins "s1"/"s2", "p1"/"p2", or a plain coil's two pins).
+func farEnd(coil *graph.Part, net string) string {
+	for _, pin := range coil.Pins {
+		if pin.Net != net || pin.Name == "" {
+			continue
+		}
+		w, end := pin.Name[:len(pin.Name)-1], pin.Name[len(pin.Name)-1]
+		other := map[byte]string{'1': "2", '2': "1"}[end]
+		if other == "" {
+			continue
+		}
+		if n := coil.NetOf(w + other); n != "" {
+			return n
+		}
+	}
+	return ""
 }
 
 // sigTank is the signal section ganged with the oscillator's.

@@ -110,7 +110,10 @@ type item struct {
 // numbered steps, and the closing lines (dial ends, warnings).
 func (g *Guide) procedure() (intro string, items []item, closing []string) {
 	if g.Nothing != "" {
-		return cap1(g.Nothing), nil, warnLines(g.Warnings)
+		if g.TrackNote != "" {
+			closing = append(closing, cap1(g.TrackNote)+".")
+		}
+		return cap1(g.Nothing), nil, append(closing, warnLines(g.Warnings)...)
 	}
 	if g.IF > 0 {
 		kind, flat := "AM", "the AGC"
@@ -131,6 +134,9 @@ func (g *Guide) procedure() (intro string, items []item, closing []string) {
 			it.repeatsAfter = g.repeatFor(s.Phase)
 		}
 		items = append(items, it)
+	}
+	if g.TrackNote != "" {
+		closing = append(closing, cap1(g.TrackNote)+".")
 	}
 	for _, e := range g.Ends {
 		closing = append(closing, fmt.Sprintf("Dial end, %s: the set tunes %s, oscillator at %s.", e.Where, hz(e.Sig), hz(e.Osc)))

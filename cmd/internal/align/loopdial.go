@@ -1,0 +1,171 @@
+package align
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"pare/graph"
+	"pare/rules/stages"
+)
+
+// Tracking of a set whose oscillator is a stage of its own (a triode
+// oscillator beside a heptode mixer), found by its loop: the oscillator's
+// range is the loop's (0° of loop phase in circuit at each gang setting),
+// the signal range the aerial tank's in-circuit resonance. pare computes no
+// exact-tracking crossings for such a pair, so the procedure aligns at the
+// customary three-point tracking points of the signal range (6 % and
+// 91.5 %, docs/references.md §2) and says so.
+
+// tracking adds the tracking steps of a superhet with ganged tuning, or
+// says plainly in the procedure why there are none: a ganged oscillator is
+// never left without its trimmers named.
+func (g *Guide) tracking(c *graph.Circuit, sts []stages.Stage) {
+	gangs := gangSections(c)
+	why := "pare recognised no oscillator tuned by the gang (no mixer-oscillator and no oscillator stage on " + refList(gangs) + ")"
+	if mix := mixerStage(sts); mix != nil {
+		if why = g.trackingSteps(c, mix); why == "" {
+			return
+		}
+	} else if osc := loopOscillator(c, sts); osc != nil {
+		if why = g.loopTracking(c, sts, osc); why == "" {
+			return
+		}
+	}
+	if len(gangs) < 2 || g.IF <= 0 {
+		return
+	}
+	g.TrackNote = fmt.Sprintf("tracking steps not generated: %s; adjust by the usual method (common practice): %s", why, usualMethod(c, gangs))
+}
+
+// loopOscillator is the first stage with a loop that oscillates and a
+// ganged section among its parts.
+func loopOscillator(c *graph.Circuit, sts []stages.Stage) *stages.Stage {
+	for i := range sts {
+		if oscTank(c, &sts[i]).gang == nil {
+			continue
+		}
+		for _, l := range sts[i].Loop {
+			if _, _, _, _, ok := l.Range(); ok {
+				return &sts[i]
+			}
+		}
+	}
+	return nil
+}
+
+// loopTracking adds the steps for the oscillator stage osc; it returns why
+// it could not, or "".
+func (g *Guide) loopTracking(c *graph.Circuit, sts []stages.Stage, osc *stages.Stage) string {
+	ot := oscTank(c, osc)
+	sig := sigTank(c, ot.gang)
+	if sig.gang == nil {
+		return "no signal section is ganged with " + ot.gang.Ref
+	}
+	sigSt, sMin, sMax := tankRange(sts, sig.gang.Ref)
+	if sigSt == "" {
+		return "no signal tank found on " + sig.gang.Ref
+	}
+	oMin, oMax := loopRange(osc)
+	if oMin <= g.IF {
+		return fmt.Sprintf("%s's loop runs at %s at its lowest, not above the IF", osc.Name, hz(oMin))
+	}
+	g.Ends = []End{
+		{Where: "gang fully meshed (low end)", Sig: sMin, Osc: oMin},
+		{Where: "gang fully open (high end)", Sig: sMax, Osc: oMax},
+	}
+	g.mistrack(osc.Name, sigSt, oMin, oMax, sMin, sMax)
+	pts := stages.TrackingPoints(sMin, sMax)
+	from := fmt.Sprintf("the customary tracking points at 6 %% and 91.5 %% of %s's range %s to %s, docs/references.md §2; oscillator %s: loop, 0° of loop phase",
+		sigSt, hz(sMin), hz(sMax), osc.Name)
+	g.trackSteps(c, ot, sig, pts[0], pts[2], from)
+	return ""
+}
+
+// loopRange is the lowest and highest frequency of a stage's oscillating
+// loops.
+func loopRange(st *stages.Stage) (lo, hi float64) {
+	lo = math.Inf(1)
+	for _, l := range st.Loop {
+		if fMin, fMax, _, _, ok := l.Range(); ok {
+			lo, hi = math.Min(lo, fMin), math.Max(hi, fMax)
+		}
+	}
+	return lo, hi
+}
+
+// tankRange is the name and tuning range of the stage that holds the gang
+// section ref and is tuned across the gang ("f" as a range).
+func tankRange(sts []stages.Stage, ref string) (name string, lo, hi float64) {
+	for _, s := range sts {
+		f, ok := s.Figures.Get("f")
+		if !ok || f.Range == nil {
+			continue
+		}
+		for _, p := range s.Parts {
+			if p == ref {
+				return s.Name, f.Range.Min, f.Range.Max
+			}
+		}
+	}
+	return "", 0, 0
+}
+
+// mistrack warns when the oscillator's range less the IF misses the
+// aerial tank's range at either end by more than trackLimit of the IF.
+func (g *Guide) mistrack(osc, sig string, oMin, oMax, sMin, sMax float64) {
+	lo, hi := oMin-g.IF-sMin, oMax-g.IF-sMax
+	worst, end := lo, "low"
+	if math.Abs(hi) > math.Abs(lo) {
+		worst, end = hi, "high"
+	}
+	if math.Abs(worst) <= trackLimit*g.IF {
+		return
+	}
+	g.Warnings = append(g.Warnings, fmt.Sprintf("the set mistracks as captured: %s's range less the IF, %s to %s, misses the aerial circuit's range (%s), %s to %s, by %s at the %s end, more than %s (2 %% of the IF, common practice); the tracking steps must pull it in, else check the padder and the oscillator coil",
+		osc, hz(oMin-g.IF), hz(oMax-g.IF), sig, hz(sMin), hz(sMax), hz(math.Abs(worst)), end, hz(trackLimit*g.IF)))
+}
+
+// gangSections are the ganged variable capacitors, in the circuit's order.
+func gangSections(c *graph.Circuit) []*graph.Part {
+	var out []*graph.Part
+	for _, p := range c.Parts {
+		if p.Kind == graph.Capacitor && p.Gang != "" && p.Type == graph.CapVariable {
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+// usualMethod names, section by section, what the repairer turns at each
+// end of the dial when pare has no tracking figures.
+func usualMethod(c *graph.Circuit, gangs []*graph.Part) string {
+	var parts []string
+	for _, gp := range gangs {
+		t := oscTank(c, &stages.Stage{Parts: []string{gp.Ref}})
+		var ends []string
+		if t.trimmer != nil {
+			ends = append(ends, t.trimmer.Ref+" at the high end")
+		}
+		if low := lowSetter(t); low != nil {
+			ends = append(ends, "the "+describe(low)+" at the low end")
+		}
+		if len(ends) == 0 {
+			parts = append(parts, "nothing adjustable is captured on "+gp.Ref)
+			continue
+		}
+		parts = append(parts, "on "+gp.Ref+" "+strings.Join(ends, " and "))
+	}
+	return strings.Join(parts, "; ")
+}
+
+func refList(ps []*graph.Part) string {
+	var refs []string
+	for _, p := range ps {
+		refs = append(refs, p.Ref)
+	}
+	if len(refs) == 0 {
+		return "the gang"
+	}
+	return strings.Join(refs, ", ")
+}
