@@ -82,7 +82,7 @@ func Build(title string, c *graph.Circuit, sts []stages.Stage, caution safety.Ca
 	g := procedure(c, sts)
 	g.Title, g.Caution = title, caution.Alignment()
 	g.Inject, g.InjectErr = injections(c, sts, g)
-	g.Hints = hintsFor(sts, g.IF)
+	g.Hints = hintsFor(c, sts, g.IF)
 	return g
 }
 

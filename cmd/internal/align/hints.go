@@ -4,6 +4,7 @@ import (
 	"slices"
 	"strings"
 
+	"pare/graph"
 	"pare/rules/stages"
 )
 
@@ -54,7 +55,7 @@ var hintTable = []hintRow{
 		"injection after the capacitor works, before it nothing (or a faint signal by stray capacity)"},
 	{[]string{"detector"}, false,
 		"open detector diode or load",
-		"no negative DC on the detector load and the AGC line with a carrier in",
+		"no DC on the detector load and the AGC line with a carrier in",
 		"the IF rows reach the detector at their level, the audio rows work, yet no audio comes from an IF injection"},
 	{[]string{"discriminator", "ratio-detector"}, false,
 		"misaligned FM detector",
@@ -72,8 +73,9 @@ var hintTable = []hintRow{
 
 // hintsFor are the hints for the stages the circuit has, in stage order;
 // a sub-stage does not repeat a fault its parent already shows.
-func hintsFor(sts []stages.Stage, ifHz float64) []Hint {
+func hintsFor(c *graph.Circuit, sts []stages.Stage, ifHz float64) []Hint {
 	var out []Hint
+	family, det := setFamily(c), detectorSign(c, sts)
 	for _, s := range sts {
 		if s.Supply {
 			continue
@@ -83,6 +85,7 @@ func hintsFor(sts []stages.Stage, ifHz float64) []Hint {
 				(row.atIF && !tunedAt(s, ifHz)) || shown(out, row.fault, s.Parts) {
 				continue
 			}
+			row.readings = readingsFor(row, family, det)
 			out = addHint(out, s, row)
 		}
 	}

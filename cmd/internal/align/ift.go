@@ -224,13 +224,13 @@ func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool) string {
 	case fm:
 		return "the DC across the ratio detector's load (or the discriminator's limiter grid) for a maximum"
 	case det != nil && agc != "":
-		return fmt.Sprintf("the DC on the AGC line (%s) for its most negative reading, or the output meter for a maximum", agc)
+		return fmt.Sprintf("the DC on the AGC line (%s) for %s, or the output meter for a maximum", agc, agcReading(c, sts, agc))
 	case det != nil:
 		return fmt.Sprintf("the detector's DC (%s) for its largest reading, or the output meter for a maximum", det.Name)
 	case len(c.Outputs) > 0:
 		w := fmt.Sprintf("the IF at %s on an RF voltmeter or scope for a maximum", c.Outputs[0])
 		if agc != "" {
-			w += fmt.Sprintf(" (on the whole set: the AGC line %s, most negative)", agc)
+			w += fmt.Sprintf(" (on the whole set: the AGC line %s, %s)", agc, strings.TrimPrefix(agcReading(c, sts, agc), "its "))
 		}
 		return w
 	}

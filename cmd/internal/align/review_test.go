@@ -114,3 +114,30 @@ func TestInjectionFollowsSignalPath(t *testing.T) {
 		}
 	}
 }
+
+// TestPolarityWords: an NPN set whose detector gives positive DC (diode
+// cathode on the load) and whose AGC line sits at +1.2 V is told to watch
+// for the most positive reading, and its symptoms speak of bases, not
+// grids; the valve set keeps its grids (common practice).
+func TestPolarityWords(t *testing.T) {
+	cases := []struct {
+		name, watch, symptom, not string
+	}{
+		{"c2-transistor-portable", "most positive", "no positive DC", "grid"},
+		{"c1-valve-superhet", "largest change", "next grid", "base is pulled"},
+	}
+	for _, tc := range cases {
+		_, g := build(t, review(tc.name))
+		if !strings.Contains(g.Steps[0].Watch, tc.watch) {
+			t.Errorf("%s: watch %q, want %q", tc.name, g.Steps[0].Watch, tc.watch)
+		}
+		var all []string
+		for _, h := range g.Hints {
+			all = append(all, h.Readings)
+		}
+		text := strings.Join(all, "\n")
+		if !strings.Contains(text, tc.symptom) || strings.Contains(text, tc.not) {
+			t.Errorf("%s: symptoms %q: want %q, not %q", tc.name, text, tc.symptom, tc.not)
+		}
+	}
+}
