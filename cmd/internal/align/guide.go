@@ -12,6 +12,7 @@
 package align
 
 import (
+	"slices"
 	"strconv"
 	"strings"
 
@@ -60,6 +61,9 @@ type Step struct {
 	N     int
 	Phase string // "IF", "oscillator", "aerial/RF"
 	Part  string // the part turned: "T2", "TC2"
+	// Winding is the winding whose core is turned ("s", "p"), empty for a
+	// whole core or a trimmer: a sheet's mark tells the two apart.
+	Winding string
 	What  string // "core of T2's secondary (s)", "oscillator trimmer TC2"
 	// Freq is the generator frequency in hertz; Dial, when not zero, the
 	// dial (signal) frequency the set is tuned to, and Osc the oscillator
@@ -104,23 +108,38 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 }
 
 // Marks are the step numbers turned at each part of the circuit, by ref,
-// as a sheet labels them ("align 1, 2"): the parts of the circuit as
+// as a sheet labels them ("align 1, 2"; "align 3 sec, 4 pri" where two
+// windings of one transformer are turned): the parts of the circuit as
 // captured, in step order.
 func Marks(c *graph.Circuit, sts []stages.Stage) map[string]string {
 	g := procedure(c, sts)
-	nums := map[string][]string{}
+	steps := map[string][]Step{}
 	var refs []string
 	for _, s := range g.Steps {
-		if nums[s.Part] == nil {
+		if steps[s.Part] == nil {
 			refs = append(refs, s.Part)
 		}
-		nums[s.Part] = append(nums[s.Part], strconv.Itoa(s.N))
+		steps[s.Part] = append(steps[s.Part], s)
 	}
 	out := make(map[string]string, len(refs))
 	for _, ref := range refs {
-		out[ref] = "align " + strings.Join(nums[ref], ", ")
+		out[ref] = "align " + markNumbers(steps[ref])
 	}
 	return out
+}
+
+// markNumbers are one part's step numbers, each with its winding's short
+// word when the steps turn more than one winding.
+func markNumbers(steps []Step) string {
+	var nums []string
+	for _, s := range steps {
+		n := strconv.Itoa(s.N)
+		if s.Winding != "" && slices.ContainsFunc(steps, func(o Step) bool { return o.Winding != s.Winding }) {
+			n += " " + windingShort(s.Winding)
+		}
+		nums = append(nums, n)
+	}
+	return strings.Join(nums, ", ")
 }
 
 // fmIFMin separates an FM IF (10.7 MHz) from an AM one (455–470 kHz): any

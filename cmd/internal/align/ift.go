@@ -69,7 +69,7 @@ func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 	into := ifInto(c, sts, g.IF)
 	add := func(adj []adjuster, how string) {
 		for _, a := range adj {
-			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, What: a.what, Freq: g.IF, Into: into, Watch: how, From: g.IFFrom})
+			g.Steps = append(g.Steps, Step{Phase: "IF", Part: a.ref, Winding: a.winding, What: a.what, Freq: g.IF, Into: into, Watch: how, From: g.IFFrom})
 		}
 	}
 	// An FM detector's transformer: its primary is peaked with the IF cans,
@@ -129,7 +129,9 @@ func detectorOut(c *graph.Circuit, sts []stages.Stage) string {
 	return "the audio output"
 }
 
-type adjuster struct{ ref, what string }
+// adjuster is one thing turned on an IF can; winding is the core's
+// winding ("s", "p"), empty for a whole core or a trimmer.
+type adjuster struct{ ref, what, winding string }
 
 // ifAdjusters are what tunes one IF can: its cores as captured (the
 // secondary's first), else the trimmers across its windings.
@@ -139,16 +141,16 @@ func ifAdjusters(c *graph.Circuit, p *graph.Part) []adjuster {
 	slices.SortFunc(cores, func(a, b string) int { return windingOrder(a) - windingOrder(b) })
 	for _, w := range cores {
 		if w == graph.CoreWhole {
-			out = append(out, adjuster{p.Ref, "core of " + p.Ref})
+			out = append(out, adjuster{p.Ref, "core of " + p.Ref, ""})
 			continue
 		}
-		out = append(out, adjuster{p.Ref, fmt.Sprintf("core of %s's %s (%s)", p.Ref, windingWord(w), w)})
+		out = append(out, adjuster{p.Ref, fmt.Sprintf("core of %s's %s (%s)", p.Ref, windingWord(w), w), w})
 	}
 	if len(out) > 0 {
 		return out
 	}
 	for _, t := range trimmersOn(c, netsOf(p)) {
-		out = append(out, adjuster{t.Ref, fmt.Sprintf("trimmer %s across %s", t.Ref, p.Ref)})
+		out = append(out, adjuster{t.Ref, fmt.Sprintf("trimmer %s across %s", t.Ref, p.Ref), ""})
 	}
 	return out
 }
@@ -172,6 +174,17 @@ func windingWord(w string) string {
 		return "primary"
 	}
 	return "winding"
+}
+
+// windingShort is a winding's word on a sheet mark.
+func windingShort(w string) string {
+	switch w {
+	case "s":
+		return "sec"
+	case "p":
+		return "pri"
+	}
+	return w
 }
 
 func adjustHint(p *graph.Part) string {

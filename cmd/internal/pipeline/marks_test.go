@@ -15,14 +15,19 @@ import (
 // TestAlignMarksOnEveryView: every step of the alignment procedure is
 // marked exactly once on each view, at a part that view draws (on the
 // reduced one a trimmer merged into its gang section is marked there), so
-// the sheet and the procedure agree.
+// the sheet and the procedure agree; a mark on a part that is not the
+// one turned names it ("align 5 (TC2)"), and a transformer turned at two
+// windings says which step is which ("align 3 sec, 4 pri").
 func TestAlignMarksOnEveryView(t *testing.T) {
-	for _, name := range []string{"frequency-changer", "if-detector-audio", "transistor-front-end"} {
-		r, err := Run(Options{Path: filepath.Join("..", "..", "..", "examples", name+".toml"), Until: PhaseStages, Level: rules.LevelSignal})
+	for _, path := range []string{example("frequency-changer"), example("if-detector-audio"), example("transistor-front-end"),
+		filepath.Join("..", "..", "..", "testdata", "good", "review-align-c1-valve-superhet.toml")} {
+		name := filepath.Base(path)
+		r, err := Run(Options{Path: path, Until: PhaseStages, Level: rules.LevelSignal})
 		if err != nil {
 			t.Fatal(err)
 		}
-		steps := len(align.Build(r.Title, r.Circuit, r.Stages, r.Caution).Steps)
+		g := align.Build(r.Title, r.Circuit, r.Stages, r.Caution)
+		steps := len(g.Steps)
 		if steps == 0 {
 			t.Fatalf("%s: no steps", name)
 		}
@@ -34,11 +39,15 @@ func TestAlignMarksOnEveryView(t *testing.T) {
 					t.Errorf("%s %v: mark on %s, which the view does not draw", name, v, ref)
 				}
 				for _, n := range strings.Split(strings.TrimPrefix(m, "align "), ", ") {
-					k, err := strconv.Atoi(n)
-					if err != nil {
+					f := strings.Fields(n)
+					k, err := strconv.Atoi(f[0])
+					if err != nil || k < 1 || k > steps {
 						t.Fatalf("%s %v: mark %q", name, v, m)
 					}
 					got = append(got, k)
+					if want := markWords(g.Steps[k-1], ref); !slices.Equal(f[1:], want) {
+						t.Errorf("%s %v: mark %q on %s, want step %d with %q", name, v, n, ref, k, want)
+					}
 				}
 			}
 			slices.Sort(got)
@@ -53,4 +62,22 @@ func TestAlignMarksOnEveryView(t *testing.T) {
 			}
 		}
 	}
+}
+
+func example(name string) string { return filepath.Join("..", "..", "..", "examples", name+".toml") }
+
+// markWords are the words a step's mark carries after its number on the
+// part ref: the winding of a transformer turned at two windings (every
+// such transformer here has its primary and secondary adjusted, so a
+// winding step always has a sister), the part turned when the mark sits
+// on another.
+func markWords(s align.Step, ref string) []string {
+	var w []string
+	if s.Winding != "" {
+		w = append(w, map[string]string{"s": "sec", "p": "pri"}[s.Winding])
+	}
+	if s.Part != ref {
+		w = append(w, "("+s.Part+")")
+	}
+	return w
 }

@@ -97,7 +97,9 @@ func (r *Result) alignMarks(v render.View) map[string]string {
 		}
 		to := p.Ref
 		if t, ok := merged[p.Ref]; ok {
-			to = t
+			// a trimmer or padder merged into its gang section: the mark
+			// names it, "align 5 (TC2)", so the step still says what to turn
+			to, m = t, m+" ("+p.Ref+")"
 		}
 		if r.Reduced.Part(to) == nil {
 			continue // removed by the reduction: nothing to mark on this view
