@@ -64,7 +64,7 @@ type Step struct {
 	// Winding is the winding whose core is turned ("s", "p"), empty for a
 	// whole core or a trimmer: a sheet's mark tells the two apart.
 	Winding string
-	What  string // "core of T2's secondary (s)", "oscillator trimmer TC2"
+	What    string // "core of T2's secondary (s)", "oscillator trimmer TC2"
 	// Freq is the generator frequency in hertz; Dial, when not zero, the
 	// dial (signal) frequency the set is tuned to, and Osc the oscillator
 	// frequency expected there.
