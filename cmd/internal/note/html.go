@@ -7,6 +7,7 @@ import (
 	"io"
 	"strings"
 
+	"pare/cmd/internal/align"
 	"pare/internal/esc"
 	"pare/render"
 )
@@ -54,6 +55,11 @@ func WriteHTML(w io.Writer, n *Note, svgs map[string][]byte) error {
 	}
 	hStages(&b, n)
 	hDC(&b, n)
+	if n.Align != nil {
+		if err := align.WriteHTML(&b, n.Align); err != nil {
+			return err
+		}
+	}
 	hParts(&b, n)
 	hPartNotes(&b, n)
 	hSteps(&b, n)

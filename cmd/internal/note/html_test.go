@@ -8,6 +8,8 @@ import (
 	"regexp"
 	"strings"
 	"testing"
+
+	"pare/cmd/internal/align"
 )
 
 // fullNote is sampleNote with every section filled, so the HTML note is
@@ -30,7 +32,30 @@ func fullNote() *Note {
 	n.DC = DC{Meter: "20 kΩ/V meter", Caution: []string{"Probe with one hand."},
 		Rows:  []DCRow{{"V1", "anode", "a", "181.4 V", "179 V"}},
 		Notes: []string{"V1 gm taken at this operating point."}}
+	n.Align = sampleGuide()
 	return n
+}
+
+// sampleGuide is an alignment guide with every part the section prints:
+// caution, IF and tracking steps with a repeat, dial ends, a tracking
+// note, warnings, an injection table and symptoms (made-up figures).
+func sampleGuide() *align.Guide {
+	return &align.Guide{
+		Caution: []string{"Alignment is done with the set switched on."},
+		IF:      470e3, IFFrom: "S2 IF",
+		Steps: []align.Step{
+			{N: 1, Phase: "IF", Part: "T2", Winding: "s", What: "core of T2's secondary (s)", Freq: 470e3, Into: "the mixer's grid (V1 g1, net g1) through a small capacitor", Watch: "watch the AGC line", From: "S2 IF"},
+			{N: 2, Phase: "oscillator", Part: "TC2", What: "oscillator trimmer TC2", Freq: 1.4e6, Dial: 1.4e6, Osc: 1.87e6, Into: "the aerial input (net aerial)", Watch: "turn TC2 for the loudest output", From: "S2: exact at 1.4 MHz"},
+			{N: 3, Phase: "oscillator", Part: "L1", What: "core of L1", Freq: 600e3, Dial: 600e3, Osc: 1.07e6, Into: "the aerial input (net aerial)", Watch: "rock the gang", From: "S2: exact at 600 kHz"},
+		},
+		Repeat:    []string{"repeat the two oscillator steps until both hold"},
+		Ends:      []align.End{{Where: "gang fully meshed (low end)", Sig: 530e3, Osc: 1e6}},
+		Warnings:  []string{"no aerial trimmer is captured on VC1a"},
+		TrackNote: "tracking steps not generated: none found; adjust by the usual method (common practice): on VC1b TC2 at the high end",
+		Inject: []align.Injection{{Net: "g1", Where: "V1 grid (g1)", Band: "IF", Freq: 470e3, Level: 2e-3, RefNet: "det", RefLevel: 1, RefWhat: "1 V of IF at the detector (det)", Gain: 80, GainTo: "g2", GainNote: "at the IF, as an IF amplifier"},
+			{Net: "aerial", Where: "the input", Band: "RF", Freq: 1.4e6, Level: 5e-6, RefNet: "g1", RefLevel: 2e-3, RefWhat: "the mixer row's level on g1", Gain: 20, GainTo: "g1", Gang: 0.1, Tuned: true}},
+		Hints: []align.Hint{{Stages: []string{"S3"}, Fault: "open coupling capacitor", Readings: "DC readings normal", Inject: "injection after the capacitor works"}},
+	}
 }
 
 // tinySVG is a sheet as render writes one: prolog, generator comment,
@@ -234,7 +259,7 @@ func TestHTMLHostileText(t *testing.T) {
 		t.Errorf("%d script elements, want the writer's 2", got)
 	}
 	allowed := map[string]bool{}
-	for _, e := range strings.Fields("html head meta title style body h1 h2 p b i code ul ol li div table tr th td figure figcaption script svg g path") {
+	for _, e := range strings.Fields("html head meta title style body h1 h2 h3 br p b i code ul ol li div table tr th td figure figcaption script svg g path") {
 		allowed[e] = true
 	}
 	d := xml.NewDecoder(strings.NewReader(page))
