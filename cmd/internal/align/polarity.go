@@ -48,6 +48,9 @@ func agcSign(c *graph.Circuit, net string) int {
 // sign, else its largest change from the no-signal reading.
 func agcReading(c *graph.Circuit, sts []stages.Stage, agc string) string {
 	d, a := detectorSign(c, sts), agcSign(c, agc)
+	if d == 0 && a == 0 && setFamily(c) == "valve" {
+		a = -1 // a valve set's AGC goes negative (common practice)
+	}
 	switch {
 	case d < 0 && a <= 0, d == 0 && a < 0:
 		return "its most negative reading"

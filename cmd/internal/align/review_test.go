@@ -123,11 +123,13 @@ func TestPolarityWords(t *testing.T) {
 	cases := []struct {
 		name, watch, symptom, not string
 	}{
-		{"c2-transistor-portable", "most positive", "no positive DC", "grid"},
-		{"c1-valve-superhet", "largest change", "next grid", "base is pulled"},
+		{review("c2-transistor-portable"), "most positive", "no positive DC", "grid"},
+		{review("c1-valve-superhet"), "largest change", "next grid", "base is pulled"},
+		// no detector and no declared AGC voltage: a valve set's AGC goes negative
+		{example("frequency-changer"), "most negative", "oscillator grid", "base"},
 	}
 	for _, tc := range cases {
-		_, g := build(t, review(tc.name))
+		_, g := build(t, tc.name)
 		if !strings.Contains(g.Steps[0].Watch, tc.watch) {
 			t.Errorf("%s: watch %q, want %q", tc.name, g.Steps[0].Watch, tc.watch)
 		}
