@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"pare/cmd/internal/align"
+	"pare/cmd/internal/pipeline"
 	"pare/internal/reftool"
 	"pare/rules/stages"
 )
@@ -107,10 +108,16 @@ func TestInjectionFollowsSignalPath(t *testing.T) {
 		t.Errorf("rows on %q: want the aerial and no oscillator grid", nets)
 	}
 	bin := reftool.Find(t, reftool.Ngspice)
-	for _, in := range g.Inject {
-		v := spiceAt(t, bin, r.Circuit, in)
-		if d := 20 * math.Log10(cmplx.Abs(v[0])/in.Gain); math.Abs(d) > 0.1 {
-			t.Errorf("%s→%s: gain %g, ngspice %g", in.Net, in.GainTo, in.Gain, cmplx.Abs(v[0]))
+	r2, g2 := build(t, review("c2-transistor-portable"))
+	for i, set := range []struct {
+		r    *pipeline.Result
+		rows []align.Injection
+	}{{r, g.Inject}, {r2, g2.Inject}} {
+		for _, in := range set.rows {
+			v := spiceAt(t, bin, set.r.Circuit, in)
+			if d := 20 * math.Log10(cmplx.Abs(v[0])/in.Gain); math.Abs(d) > 0.1 {
+				t.Errorf("set %d %s→%s: gain %g, ngspice %g", i+1, in.Net, in.GainTo, in.Gain, cmplx.Abs(v[0]))
+			}
 		}
 	}
 }
