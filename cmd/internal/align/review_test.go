@@ -107,8 +107,15 @@ func TestInjectionFollowsSignalPath(t *testing.T) {
 	if slices.Contains(nets, "osc_g") || !slices.Contains(nets, "ant") {
 		t.Errorf("rows on %q: want the aerial and no oscillator grid", nets)
 	}
-	bin := reftool.Find(t, reftool.Ngspice)
 	r2, g2 := build(t, review("c2-transistor-portable"))
+	// set B has no tracking steps: its aerial row is at the customary high
+	// tracking point of its band, 91.5 % of 525–1650 kHz (docs/references.md §2)
+	for _, in := range g2.Inject {
+		if in.Net == "rod" && (in.Band != "RF" || !in.Tuned || math.Abs(in.Freq-1554.375e3) > 1) {
+			t.Errorf("set B aerial row %s at %g Hz, tuned %v: want RF at 1554.375 kHz, tuned", in.Band, in.Freq, in.Tuned)
+		}
+	}
+	bin := reftool.Find(t, reftool.Ngspice)
 	for i, set := range []struct {
 		r    *pipeline.Result
 		rows []align.Injection

@@ -94,8 +94,10 @@ func gainTarget(pts []point, i int, ref string) string {
 }
 
 // rowFreq is the generator frequency of a band: the audio tone, the set's
-// IF, or for RF the high tracking point (the first oscillator step's dial),
-// else the band's geometric centre.
+// IF, or for RF the high tracking point (the first oscillator step's dial);
+// a superhet without tracking steps the customary high tracking point of
+// its band (docs/references.md §2), anything else the band's geometric
+// centre.
 func rowFreq(c *graph.Circuit, band string, g *Guide) float64 {
 	switch band {
 	case "audio":
@@ -111,6 +113,9 @@ func rowFreq(c *graph.Circuit, band string, g *Guide) float64 {
 	b := c.Band
 	if b.Min <= 0 {
 		b = c.FullBand()
+	}
+	if g.IF > 0 && b.Min > 0 {
+		return stages.TrackingPoints(b.Min, b.Max)[2]
 	}
 	return math.Sqrt(b.Min * b.Max)
 }
