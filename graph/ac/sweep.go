@@ -1,0 +1,202 @@
+// The sweep of one pair of responses: a coarse grid, then rounds of points
+// added around the peaks of each response and of the deviation.
+
+package ac
+
+import (
+	"math"
+	"math/cmplx"
+
+	"pare/graph/value"
+)
+
+// sweepPair runs the coarse sweep and the refinement for one quantity.
+func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg float64, marks []float64) (pairResult, error) {
+	sw := &pairSweep{po: po, pr: pr, ho: po.memo, hr: pr.memo, floor: math.NaN()}
+	if sw.ho == nil {
+		sw.ho = map[float64]complex128{}
+	}
+	if sw.hr == nil {
+		sw.hr = map[float64]complex128{}
+	}
+	freqs := coarseGrid(bands, points, marks)
+	if origFailed, err := sw.eval(freqs); err != nil {
+		return pairResult{origFailed: origFailed}, err
+	}
+	sw.merge(freqs)
+	// Refine around the peaks of each response and of the deviation.
+	const rounds = 5
+	for round := 0; round < rounds; round++ {
+		add := sw.refinePoints()
+		if len(add) == 0 {
+			break
+		}
+		if origFailed, err := sw.eval(add); err != nil {
+			return pairResult{origFailed: origFailed}, err
+		}
+		sw.merge(add)
+	}
+	return sw.worst(tolDB, tolDeg), nil
+}
+
+// coarseGrid is the first sweep: Points log-spaced frequencies per band.
+func coarseGrid(bands []value.Range, points int, marks []float64) []float64 {
+	var freqs []float64
+	for _, b := range bands {
+		freqs = append(freqs, logSweep(b.Min, b.Max, points)...)
+		// Resonances too narrow for any grid (a crystal's) are visited
+		// directly, with a point either side for the refinement to work on.
+		for _, f := range marks {
+			if f >= b.Min && f <= b.Max {
+				freqs = append(freqs, f*(1-1e-6), f, f*(1+1e-6))
+			}
+		}
+	}
+	return sortUnique(freqs)
+}
+
+// pairSweep holds both circuits' responses at every frequency visited.
+//
+// The maps hold the solved responses (a memo's, shared with other sweeps
+// of the same system, or the sweep's own); the slices hold the points the
+// sweep has taken in ascending frequency, with each response, its
+// magnitude and the deviations, so a refinement round reads them in order
+// and works out only what its new points add. The deviations depend on
+// the floor (floorDB below the peak of both responses); they are kept for
+// the floor they were taken at and worked out again when it moves.
+type pairSweep struct {
+	po, pr *probe
+	ho, hr map[float64]complex128
+
+	freqs  []float64
+	vo, vr []complex128
+	mo, mr []float64
+	dd, dp []float64
+	peak   float64
+	floor  float64   // the floor dd and dp were taken at (NaN: none yet)
+	fresh  []bool    // points whose dd and dp are not yet taken
+	spare  []float64 // the merge's scratch space
+}
+
+// eval solves both circuits at the frequencies not yet visited (a memo may
+// already hold one side, or both when the two systems are the same); on an
+// error it says whether the original (rather than the reduced) failed.
+// Points are solved in the order given: a system's pivots are chosen at
+// the first frequency it is factored at.
+func (sw *pairSweep) eval(fs []float64) (bool, error) {
+	for _, f := range fs {
+		if _, done := sw.ho[f]; !done {
+			a, err := sw.po.at(f)
+			if err != nil {
+				return true, err
+			}
+			sw.ho[f] = a
+		}
+		if _, done := sw.hr[f]; !done {
+			b, err := sw.pr.at(f)
+			if err != nil {
+				return false, err
+			}
+			sw.hr[f] = b
+		}
+	}
+	return false, nil
+}
+
+// merge adds the points of add (solved by eval; in any order, repeats
+// and points already taken allowed) to the sweep's ascending list.
+func (sw *pairSweep) merge(add []float64) {
+	add = sortUnique(append(sw.spare[:0], add...))
+	sw.spare = add
+	n := len(sw.freqs)
+	old := struct {
+		freqs  []float64
+		vo, vr []complex128
+		mo, mr []float64
+		dd, dp []float64
+		fresh  []bool
+	}{sw.freqs, sw.vo, sw.vr, sw.mo, sw.mr, sw.dd, sw.dp, sw.fresh}
+	size := n + len(add)
+	sw.freqs, sw.vo, sw.vr = make([]float64, 0, size), make([]complex128, 0, size), make([]complex128, 0, size)
+	sw.mo, sw.mr = make([]float64, 0, size), make([]float64, 0, size)
+	sw.dd, sw.dp, sw.fresh = make([]float64, 0, size), make([]float64, 0, size), make([]bool, 0, size)
+	i, j := 0, 0
+	for i < n || j < len(add) {
+		if j == len(add) || (i < n && old.freqs[i] <= add[j]) {
+			if j < len(add) && old.freqs[i] == add[j] {
+				j++
+			}
+			sw.freqs = append(sw.freqs, old.freqs[i])
+			sw.vo, sw.vr = append(sw.vo, old.vo[i]), append(sw.vr, old.vr[i])
+			sw.mo, sw.mr = append(sw.mo, old.mo[i]), append(sw.mr, old.mr[i])
+			sw.dd, sw.dp, sw.fresh = append(sw.dd, old.dd[i]), append(sw.dp, old.dp[i]), append(sw.fresh, old.fresh[i])
+			i++
+			continue
+		}
+		f := add[j]
+		a, b := sw.ho[f], sw.hr[f]
+		ma, mb := cmplx.Abs(a), cmplx.Abs(b)
+		sw.peak = math.Max(sw.peak, math.Max(ma, mb))
+		sw.freqs = append(sw.freqs, f)
+		sw.vo, sw.vr = append(sw.vo, a), append(sw.vr, b)
+		sw.mo, sw.mr = append(sw.mo, ma), append(sw.mr, mb)
+		sw.dd, sw.dp, sw.fresh = append(sw.dd, 0), append(sw.dp, 0), append(sw.fresh, true)
+		j++
+	}
+}
+
+// deviations brings dd and dp up to date with the current floor and
+// returns it.
+func (sw *pairSweep) deviations() float64 {
+	floor := sw.peak * math.Pow(10, -floorDB/20)
+	if floor == 0 {
+		floor = math.SmallestNonzeroFloat64
+	}
+	all := floor != sw.floor
+	for i := range sw.freqs {
+		if all || sw.fresh[i] {
+			sw.dd[i], sw.dp[i] = deviationOf(sw.vo[i], sw.vr[i], sw.mo[i], sw.mr[i], floor)
+			sw.fresh[i] = false
+		}
+	}
+	sw.floor = floor
+	return floor
+}
+
+// refinePoints lists new frequencies on both sides of the highest peaks of
+// each response and of the dB and phase deviations.
+func (sw *pairSweep) refinePoints() []float64 {
+	const maxPeaks, per = 10, 4
+	var add []float64
+	sw.deviations()
+	freqs := sw.freqs
+	for _, m := range [][]float64{sw.mo, sw.mr, sw.dd, sw.dp} {
+		for _, i := range peaks(m, maxPeaks) {
+			if i > 0 {
+				add = append(add, logSweepInner(freqs[i-1], freqs[i], per)...)
+			}
+			if i < len(freqs)-1 {
+				add = append(add, logSweepInner(freqs[i], freqs[i+1], per)...)
+			}
+		}
+	}
+	return add
+}
+
+// worst is the largest deviation in dB and in degrees over the points.
+func (sw *pairSweep) worst(tolDB, tolDeg float64) pairResult {
+	sw.deviations()
+	var res pairResult
+	best := -1.0
+	for i, f := range sw.freqs {
+		d, p := sw.dd[i], sw.dp[i]
+		res.MaxDB = math.Max(res.MaxDB, d)
+		res.MaxDeg = math.Max(res.MaxDeg, p)
+		// The frequency reported is where the larger of the two deviations,
+		// each against its tolerance, peaks.
+		if s := math.Max(d/tolDB, p/tolDeg); s > best {
+			best, res.AtHz = s, f
+		}
+	}
+	return res
+}
