@@ -14,7 +14,7 @@ import (
 // In the small-signal model every net whose role is AC ground is one node,
 // the reference, so two groups of parts joined only through AC-ground nets
 // are independent systems: a change in one cannot move any voltage in the
-// other. A step changes a few parts (and perhaps the role of a net); every
+// other. The same holds for "nc": its terminals are connected to nothing. A step changes a few parts (and perhaps the role of a net); every
 // quantity outside the groups those parts touch, before or after the step,
 // is the same in both circuits, and a transfer between two different groups
 // is zero in both. Comparing only the touched groups is therefore the same
@@ -36,8 +36,8 @@ func localPair(before, after *graph.Circuit) (b, a *graph.Circuit, whole, none b
 		return before, after, true, false
 	}
 	seeds := changedNets(before, after)
-	uf := &graph.NamedSets{} // nets joined through parts, AC ground left out
-	live := func(c *graph.Circuit, net string) bool { return !c.RoleOf(net).IsACGround() }
+	uf := &graph.NamedSets{} // nets joined through parts, AC ground and "nc" left out
+	live := liveNet
 	for _, c := range []*graph.Circuit{before, after} {
 		for _, p := range c.Parts {
 			first := ""
@@ -70,6 +70,15 @@ func localPair(before, after *graph.Circuit) (b, a *graph.Circuit, whole, none b
 	}
 	filterEnds(before, after, b, a, in)
 	return b, a, false, false
+}
+
+// liveNet reports whether a net can carry signal between the parts on it:
+// not one at AC ground (the reference node) and not "nc", whose terminals
+// the small-signal model leaves unconnected each on its own. Every static
+// electrode a reduction drops goes to "nc", so taking it as a net would
+// join every channel of a bank whose valves were tidied into one group.
+func liveNet(c *graph.Circuit, net string) bool {
+	return net != graph.NotConnected && !c.RoleOf(net).IsACGround()
 }
 
 // sameDeclarations reports whether a step left the circuit's declared ends,
@@ -168,7 +177,7 @@ func subCircuit(c *graph.Circuit, in func(*graph.Circuit, string) bool) (*graph.
 	for _, p := range c.Parts {
 		keep, live := false, false
 		for _, pin := range p.Pins {
-			if !c.RoleOf(pin.Net).IsACGround() {
+			if liveNet(c, pin.Net) {
 				live = true
 			}
 			keep = keep || in(c, pin.Net)
