@@ -6,6 +6,7 @@ package ac
 import (
 	"math"
 	"math/cmplx"
+	"slices"
 
 	"pare/graph/value"
 )
@@ -104,46 +105,46 @@ func (sw *pairSweep) eval(fs []float64) (bool, error) {
 }
 
 // merge adds the points of add (solved by eval; in any order, repeats
-// and points already taken allowed) to the sweep's ascending list.
+// and points already taken allowed) to the sweep's ascending list, in
+// place from the back.
 func (sw *pairSweep) merge(add []float64) {
 	add = sortUnique(append(sw.spare[:0], add...))
 	sw.spare = add
-	n := len(sw.freqs)
-	old := struct {
-		freqs  []float64
-		vo, vr []complex128
-		mo, mr []float64
-		dd, dp []float64
-		fresh  []bool
-	}{sw.freqs, sw.vo, sw.vr, sw.mo, sw.mr, sw.dd, sw.dp, sw.fresh}
-	size := n + len(add)
-	sw.freqs, sw.vo, sw.vr = make([]float64, 0, size), make([]complex128, 0, size), make([]complex128, 0, size)
-	sw.mo, sw.mr = make([]float64, 0, size), make([]float64, 0, size)
-	sw.dd, sw.dp, sw.fresh = make([]float64, 0, size), make([]float64, 0, size), make([]bool, 0, size)
-	i, j := 0, 0
-	for i < n || j < len(add) {
-		if j == len(add) || (i < n && old.freqs[i] <= add[j]) {
-			if j < len(add) && old.freqs[i] == add[j] {
-				j++
-			}
-			sw.freqs = append(sw.freqs, old.freqs[i])
-			sw.vo, sw.vr = append(sw.vo, old.vo[i]), append(sw.vr, old.vr[i])
-			sw.mo, sw.mr = append(sw.mo, old.mo[i]), append(sw.mr, old.mr[i])
-			sw.dd, sw.dp, sw.fresh = append(sw.dd, old.dd[i]), append(sw.dp, old.dp[i]), append(sw.fresh, old.fresh[i])
+	fresh, i := add[:0], 0
+	for _, f := range add {
+		for i < len(sw.freqs) && sw.freqs[i] < f {
 			i++
+		}
+		if i == len(sw.freqs) || sw.freqs[i] != f {
+			fresh = append(fresh, f)
+		}
+	}
+	n, k := len(sw.freqs), len(fresh)
+	if k == 0 {
+		return
+	}
+	sw.freqs, sw.vo, sw.vr = grow(sw.freqs, k), grow(sw.vo, k), grow(sw.vr, k)
+	sw.mo, sw.mr, sw.dd, sw.dp, sw.fresh = grow(sw.mo, k), grow(sw.mr, k), grow(sw.dd, k), grow(sw.dp, k), grow(sw.fresh, k)
+	i = n - 1
+	for w, j := n+k-1, k-1; j >= 0; w-- {
+		if i >= 0 && sw.freqs[i] > fresh[j] {
+			sw.freqs[w], sw.vo[w], sw.vr[w] = sw.freqs[i], sw.vo[i], sw.vr[i]
+			sw.mo[w], sw.mr[w], sw.dd[w], sw.dp[w], sw.fresh[w] = sw.mo[i], sw.mr[i], sw.dd[i], sw.dp[i], sw.fresh[i]
+			i--
 			continue
 		}
-		f := add[j]
+		f := fresh[j]
 		a, b := sw.ho[f], sw.hr[f]
 		ma, mb := cmplx.Abs(a), cmplx.Abs(b)
 		sw.peak = math.Max(sw.peak, math.Max(ma, mb))
-		sw.freqs = append(sw.freqs, f)
-		sw.vo, sw.vr = append(sw.vo, a), append(sw.vr, b)
-		sw.mo, sw.mr = append(sw.mo, ma), append(sw.mr, mb)
-		sw.dd, sw.dp, sw.fresh = append(sw.dd, 0), append(sw.dp, 0), append(sw.fresh, true)
-		j++
+		sw.freqs[w], sw.vo[w], sw.vr[w] = f, a, b
+		sw.mo[w], sw.mr[w], sw.dd[w], sw.dp[w], sw.fresh[w] = ma, mb, 0, 0, true
+		j--
 	}
 }
+
+// grow lengthens s by k elements, keeping its contents.
+func grow[T any](s []T, k int) []T { return slices.Grow(s, k)[:len(s)+k] }
 
 // deviations brings dd and dp up to date with the current floor and
 // returns it.

@@ -37,7 +37,13 @@ func localPair(before, after *graph.Circuit) (b, a *graph.Circuit, whole, none b
 	}
 	seeds := changedNets(before, after)
 	uf := &graph.NamedSets{} // nets joined through parts, AC ground and "nc" left out
-	live := liveNet
+	deadB, deadA := deadNets(before), deadNets(after)
+	live := func(c *graph.Circuit, net string) bool {
+		if c == before {
+			return !deadB[net]
+		}
+		return !deadA[net]
+	}
 	for _, c := range []*graph.Circuit{before, after} {
 		for _, p := range c.Parts {
 			first := ""
@@ -63,8 +69,8 @@ func localPair(before, after *graph.Circuit) (b, a *graph.Circuit, whole, none b
 		return nil, nil, false, true
 	}
 	in := func(c *graph.Circuit, net string) bool { return live(c, net) && touched[uf.Find(net)] }
-	b, allB := subCircuit(before, in)
-	a, allA := subCircuit(after, in)
+	b, allB := subCircuit(before, deadB, in)
+	a, allA := subCircuit(after, deadA, in)
 	if (allB && allA) || !regionsFit(b) || !regionsFit(a) {
 		return before, after, true, false
 	}
@@ -72,13 +78,22 @@ func localPair(before, after *graph.Circuit) (b, a *graph.Circuit, whole, none b
 	return b, a, false, false
 }
 
-// liveNet reports whether a net can carry signal between the parts on it:
-// not one at AC ground (the reference node) and not "nc", whose terminals
+// deadNets lists the nets of c that carry no signal between the parts on
+// them: those at AC ground (the reference node) and "nc", whose terminals
 // the small-signal model leaves unconnected each on its own. Every static
 // electrode a reduction drops goes to "nc", so taking it as a net would
 // join every channel of a bank whose valves were tidied into one group.
-func liveNet(c *graph.Circuit, net string) bool {
-	return net != graph.NotConnected && !c.RoleOf(net).IsACGround()
+// A net c does not list is a signal net (Circuit.RoleOf). The set is taken
+// from the net list rather than by RoleOf, which would build the index of
+// the engine's fresh clone on every step.
+func deadNets(c *graph.Circuit) map[string]bool {
+	dead := map[string]bool{graph.NotConnected: true}
+	for _, n := range c.Nets {
+		if n.Role.IsACGround() {
+			dead[n.Name] = true
+		}
+	}
+	return dead
 }
 
 // sameDeclarations reports whether a step left the circuit's declared ends,
@@ -167,7 +182,7 @@ func samePart(p, q *graph.Part) bool {
 // nets they use, and everything the circuit declares; all is true when no
 // part with a live net was left out. The crystals left out keep their
 // resonances as named frequencies, so the sweep visits the same points.
-func subCircuit(c *graph.Circuit, in func(*graph.Circuit, string) bool) (*graph.Circuit, bool) {
+func subCircuit(c *graph.Circuit, dead map[string]bool, in func(*graph.Circuit, string) bool) (*graph.Circuit, bool) {
 	s := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: maps.Clone(c.Freqs)}
 	if s.Freqs == nil {
 		s.Freqs = map[string]float64{}
@@ -177,7 +192,7 @@ func subCircuit(c *graph.Circuit, in func(*graph.Circuit, string) bool) (*graph.
 	for _, p := range c.Parts {
 		keep, live := false, false
 		for _, pin := range p.Pins {
-			if liveNet(c, pin.Net) {
+			if !dead[pin.Net] {
 				live = true
 			}
 			keep = keep || in(c, pin.Net)
