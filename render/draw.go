@@ -36,6 +36,12 @@ type page struct {
 	cautionLines []string // the caution, wrapped
 	furn         []string // the info block in the footer
 	lineH        float64  // line pitch of small text
+	m            float64  // the margin round the sheet
+	// a paged sheet (pagedraw.go): the paper, where the footer starts, the
+	// title block's width and the text height on paper
+	paper         *Paper
+	foot          foot
+	footY, textMM float64
 }
 
 // page sizes the sheet: wide enough for the drawing, the title and every
@@ -64,6 +70,7 @@ func (d *drawer) page() page {
 	if len(pg.furn) > 0 {
 		footH += 1 + float64(len(pg.furn))*pg.lineH + 0.6
 	}
+	pg.m = margin
 	pg.W = width + 2*margin
 	pg.H = margin + headerH + b.H() + footH + margin
 	d.ox = margin - b.X0 + (width-b.W())/2
@@ -90,9 +97,16 @@ func (d *drawer) start(pg page) {
 	k := d.cfg.Grid
 	cv := d.canvas
 	cv.Decimals = 2
-	cv.Start(pg.W*k, pg.H*k, fmt.Sprintf(`viewBox="0 0 %s %s"`, num(pg.W*k), num(pg.H*k)))
+	view := fmt.Sprintf(`viewBox="0 0 %s %s"`, num(pg.W*k), num(pg.H*k))
+	desc := "Signal-path sheet drawn by pare, " + d.sheet.View.String() + " view."
+	if pg.paper != nil {
+		cv.Startunit(pg.paper.W, pg.paper.H, "mm", view)
+		desc += fmt.Sprintf(" For %s landscape; smallest text %s mm high printed.", pg.paper.Name, num(pg.textMM))
+	} else {
+		cv.Start(pg.W*k, pg.H*k, view)
+	}
 	cv.Title(pg.title)
-	cv.Desc("Signal-path sheet drawn by pare, " + d.sheet.View.String() + " view.")
+	cv.Desc(desc)
 	sw := 0.15 * k
 	cv.Style("text/css", fmt.Sprintf(`
 .s{fill:none;stroke:#000;stroke-width:%[1]s;stroke-linecap:round;stroke-linejoin:round}
@@ -111,10 +125,13 @@ text{font-family:'DejaVu Sans Mono',monospace;font-size:%[4]spx;fill:#000}
 `, num(sw), num(2*sw), num(0.3*k)+" "+num(0.25*k), num(k), num(k*symbol.SmallScale), num(k*titleSize),
 		num(0.07*k), num(0.5*k)+" "+num(0.3*k)))
 	cv.Rect(0, 0, pg.W*k, pg.H*k, `fill="#fff"`)
+	if pg.paper != nil {
+		return // the title block holds the title
+	}
 	// header
-	cv.Text(margin*k, (margin+titleSize)*k, pg.title, `class="ttl"`)
+	cv.Text(pg.m*k, (pg.m+titleSize)*k, pg.title, `class="ttl"`)
 	for i, l := range pg.info {
-		cv.Text(margin*k, (margin+titleSize+1.4+float64(i)*pg.lineH)*k, l, `class="sm"`)
+		cv.Text(pg.m*k, (pg.m+titleSize+1.4+float64(i)*pg.lineH)*k, l, `class="sm"`)
 	}
 }
 

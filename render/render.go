@@ -114,12 +114,18 @@ type Sheet struct {
 	// Marks holds per ref the alignment steps turned at it ("align 3, 4"),
 	// drawn small in its label on every view.
 	Marks map[string]string
+	// continues are a row's off-row connectors when a paged sheet is cut
+	// into rows (pages.go).
+	continues []layout.Continuation
 }
 
 // Config says how to draw.
 type Config struct {
 	Style Style
 	Grid  float64 // SVG units per grid step; 0 means 10
+	// Page is the paper the sheet is printed on (FprintPages): nil draws
+	// one sheet as wide as the drawing.
+	Page *Paper
 }
 
 // Geometry lays the sheet out and returns the geometry that Fprint draws.
@@ -135,6 +141,15 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 	if s == nil || s.Circuit == nil {
 		return nil, fmt.Errorf("render: no circuit to draw")
 	}
+	r, err := layout.Layout(s.Circuit, cfg.options(s))
+	if err != nil {
+		return nil, fmt.Errorf("render: %w", err)
+	}
+	return r, nil
+}
+
+// options are the layout options of a sheet.
+func (cfg Config) options(s *Sheet) layout.Options {
 	o := layout.Options{Style: symbol.Style(cfg.Style), Links: s.View != Reduced, Untangle: s.View == Reduced,
 		HideUnconnected: s.View == Reduced}
 	if s.View == Faded {
@@ -144,14 +159,11 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 		o.PinVolts = s.PinVolts
 	}
 	o.Marks = s.Marks
+	o.Continues = s.continues
 	for _, f := range s.Frames {
 		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts})
 	}
-	r, err := layout.Layout(s.Circuit, o)
-	if err != nil {
-		return nil, fmt.Errorf("render: %w", err)
-	}
-	return r, nil
+	return o
 }
 
 // Fprint draws the sheet as SVG on w. Nothing is written if the sheet cannot

@@ -17,12 +17,13 @@ type drawOpts struct {
 	symbols string
 	focus   string
 	level   string
+	page    string
 }
 
 func init() {
 	register(&command{
 		name:    "draw",
-		args:    "FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--focus REF,...] [--level tidy|signal|ideal]",
+		args:    "FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--page A4|A3|letter|none] [--focus REF,...] [--level tidy|signal|ideal]",
 		summary: "draw the signal-path sheet of a netlist as SVG",
 		detail: `Draws one sheet: the reduced circuit (the default), the full original
 circuit, or the original with the parts the reduction removed faded and the
@@ -33,18 +34,24 @@ grounds and rails are drawn as local symbols at each pin.
 --symbols chooses IEC 60617 (rectangle resistor, the default) or IEEE 315
 (zig-zag resistor). --focus and --level are passed to the reduction (see
 'pare help reduce'). A reduced sheet is a small-signal diagram only, not a
-wiring diagram. The file is written whole or not at all.`,
+wiring diagram. The file is written whole or not at all.
+
+--page fits the sheet to paper (landscape) with text at least 2.5 mm high:
+the stages flow into rows, with a pair of labelled off-row connectors where a
+net runs on in the next row, and the rows onto further sheets, each with a
+title block and the caution. The pages go to OUT-1.svg, OUT-2.svg ...`,
 		bind: typed(func(fs *flag.FlagSet, o *drawOpts) {
 			fs.StringVar(&o.out, "o", "", "write the SVG to this file (- for standard output)")
 			fs.StringVar(&o.view, "view", "reduced", "what to draw: reduced, full or faded")
 			fs.StringVar(&o.symbols, "symbols", "iec", "symbol style: iec (IEC 60617) or ieee (IEEE 315)")
 			fs.StringVar(&o.focus, "focus", "", "comma-separated refs or net names: reduce only the stage(s) around them")
 			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
+			fs.StringVar(&o.page, "page", "none", pageHelp)
 		}, runDraw),
 	})
 }
 
-const drawUsage = "usage: pare draw FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--focus REF,...] [--level tidy|signal|ideal]"
+const drawUsage = "usage: pare draw FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--page A4|A3|letter|none] [--focus REF,...] [--level tidy|signal|ideal]"
 
 func runDraw(e *env, o *drawOpts, args []string) int {
 	if len(args) != 1 {
@@ -71,12 +78,17 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 		fmt.Fprintf(e.stderr, "pare draw: --level: %v\n", err)
 		return exitBad
 	}
+	paper, err := parsePage(o.page)
+	if err != nil {
+		fmt.Fprintf(e.stderr, "pare draw: %v\n", err)
+		return exitBad
+	}
 	path := args[0]
 	if !checkOutput(e, "pare draw", o.out, path) {
 		return exitBad
 	}
 	res, err := pipeline.Run(pipeline.Options{Path: path, Level: lvl, Focus: splitRefs(o.focus),
-		Views: []render.View{view}, Style: style})
+		Views: []render.View{view}, Style: style, Page: paper})
 	if loadFailed(e, path, err) {
 		return exitBad
 	}
@@ -89,6 +101,13 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 		return reportErr(e, "pare draw", path, fmt.Errorf("recognising stages: %w", err))
 	case err != nil:
 		return reportErr(e, "pare draw", path, err)
+	}
+	if paper != nil {
+		if err := writePages(e, o.out, path, res.SheetFor(view).Pages); err != nil {
+			fmt.Fprintf(e.stderr, "pare draw: %v\n", err)
+			return exitBad
+		}
+		return exitOK
 	}
 	svg := res.SheetFor(view).SVG
 	if err := writeOutput(e, o.out, func(w io.Writer) error { _, err := w.Write(svg); return err }, path); err != nil {

@@ -26,12 +26,13 @@ type runOpts struct {
 	tolDB    float64
 	tolDeg   float64
 	noVerify bool
+	page     string
 }
 
 func init() {
 	register(&command{
 		name:    mainJob,
-		args:    "[-o DIR] [--level L] [--symbols iec|ieee] [--tol-db X] [--tol-deg X] [--no-verify] FILE_OR_DIR...",
+		args:    "[-o DIR] [--level L] [--symbols iec|ieee] [--page A4|A3|letter|none] [--tol-db X] [--tol-deg X] [--no-verify] FILE_OR_DIR...",
 		summary: "the whole job: reduce, verify, recognise stages, draw the sheets, write the repair note",
 		detail: `Loads FILE and prints its transcription warnings, reduces it to its small-signal
 path (every step checked by AC analysis; a step that changes the signal is
@@ -39,7 +40,10 @@ refused), compares the original with the reduced circuit by AC analysis,
 recognises the stages, and writes into DIR (default: FILE without .toml, plus
 .pare): reduced.toml, reduced.svg, faded.svg and notes.md, a repair note that
 embeds the sheets, and notes.html, the same note as one page with the sheets
-inline (prints one sheet per page). Everything is made in memory first; on bad input nothing is
+inline (prints one sheet per page). With --page the sheets are fitted to that
+paper (landscape, text at least 2.5 mm high): the stages flow into rows, the
+rows onto further sheets, reduced-1.svg, reduced-2.svg ... (faded-1.svg ...),
+each with a title block. Everything is made in memory first; on bad input nothing is
 written. Exit 0 when the reduction was verified, 1 when the verification
 failed or compared nothing (the files are still written, and the note says so),
 2 on bad input, 3 on an internal error. The folder DIR is replaced whole, in
@@ -60,6 +64,7 @@ whatever order the sets finish in; on a terminal a progress line counts them.`,
 			finiteVar(fs, &o.tolDB, "tol-db", 0, "verification tolerance in dB (0: the default 0.5 dB)")
 			finiteVar(fs, &o.tolDeg, "tol-deg", 0, "verification tolerance in degrees (0: the default 5°)")
 			fs.BoolVar(&o.noVerify, "no-verify", false, "skip the AC checks of each step and of the result")
+			fs.StringVar(&o.page, "page", "none", pageHelp)
 		}, runMain),
 	})
 }
@@ -81,6 +86,7 @@ type jobConfig struct {
 	symbols  string // the style's standard, for the note
 	compare  ac.CompareOptions
 	noVerify bool
+	paper    *render.Paper // nil: one sheet per view
 }
 
 // outFile is one result file, complete in memory before anything is written.
@@ -185,7 +191,7 @@ func oneJob(e *env, path, dir string, cfg jobConfig) (int, pack) {
 // the reduced and faded sheets drawn.
 func jobOptions(path string, cfg jobConfig) pipeline.Options {
 	po := pipeline.Options{Path: path, Level: cfg.level, Verify: !cfg.noVerify, Compare: cfg.compare,
-		Views: []render.View{render.Reduced, render.Faded}, Style: cfg.style}
+		Views: []render.View{render.Reduced, render.Faded}, Style: cfg.style, Page: cfg.paper}
 	if !cfg.noVerify {
 		po.StepCheck = pipeline.AgainstPrevious
 	}
@@ -220,7 +226,8 @@ func writeResults(dir, input string, files []outFile) ([]string, error) {
 		list[i] = outfile.File{Name: f.name, Data: f.data}
 		names[i] = f.name
 	}
-	if err := outfile.WriteDir(dir, list, input); err != nil {
+	// a previous run on other paper may have drawn more or fewer pages
+	if err := outfile.WriteDirLike(dir, list, []string{pagedReducedSheets, pagedFadedSheets}, input); err != nil {
 		return nil, err
 	}
 	return names, nil
@@ -251,7 +258,8 @@ func configure(o *runOpts) (jobConfig, error) {
 	}
 	cfg.compare = ac.CompareOptions{TolDB: o.tolDB, TolDeg: o.tolDeg}
 	cfg.noVerify = o.noVerify
-	return cfg, nil
+	cfg.paper, err = parsePage(o.page)
+	return cfg, err
 }
 
 // defaultOutDir is FILE without .toml plus .pare: examples/set.toml ->
@@ -264,7 +272,8 @@ func defaultOutDir(path string) string {
 // would refuse: a file, a link to nothing, a folder holding files pare did
 // not write, one where a result would overwrite the input netlist.
 func checkOutDir(input, dir string) error {
-	return outfile.CheckDir(dir, []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote, fileNoteHTML}, input)
+	return outfile.CheckDir(dir, []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote, fileNoteHTML,
+		pagedReducedSheets, pagedFadedSheets}, input)
 }
 
 // mainJobOn turns the pipeline's result into the job's files, in memory,
@@ -274,32 +283,33 @@ func mainJobOn(pr *pipeline.Result, cfg jobConfig) (*jobResult, error) {
 	if err != nil {
 		return nil, err
 	}
-	reduced, faded := pr.SheetFor(render.Reduced), pr.SheetFor(render.Faded)
-	m := note.Meta{Version: version, Symbols: cfg.symbols, VerifySkipped: "--no-verify", Sheets: []note.Sheet{
-		{File: fileReducedSheet, View: note.ViewReduced, Alt: "Reduced signal path of " + pr.Title,
-			Caption: "Reduced view, small-signal only: the parts that shape the signal, framed by stage."},
-		{File: fileFadedSheet, View: note.ViewFaded, Alt: "Original circuit of " + pr.Title + " with the removed parts faded",
-			Caption: "Faded view: the whole original circuit; parts the reduction removed are faded, merged parts are marked with the part they went into."},
-	}}
+	paged := cfg.paper != nil
+	redFiles, redEntries := sheetFiles(pr.SheetFor(render.Reduced), fileReducedSheet, paged, note.Sheet{
+		View: note.ViewReduced, Alt: "Reduced signal path of " + pr.Title,
+		Caption: "Reduced view, small-signal only: the parts that shape the signal, framed by stage."})
+	fadedFiles, fadedEntries := sheetFiles(pr.SheetFor(render.Faded), fileFadedSheet, paged, note.Sheet{
+		View: note.ViewFaded, Alt: "Original circuit of " + pr.Title + " with the removed parts faded",
+		Caption: "Faded view: the whole original circuit; parts the reduction removed are faded, merged parts are marked with the part they went into."})
+	sheets := append(redFiles, fadedFiles...)
+	m := note.Meta{Version: version, Symbols: cfg.symbols, VerifySkipped: "--no-verify",
+		Sheets: append(redEntries, fadedEntries...)}
 	n := note.FromResult(pr, m)
 	var md bytes.Buffer
 	if err := note.Write(&md, n); err != nil {
 		return nil, fmt.Errorf("writing the note: %w", err)
 	}
 	var page bytes.Buffer
-	svgs := map[string][]byte{fileReducedSheet: reduced.SVG, fileFadedSheet: faded.SVG}
+	svgs := map[string][]byte{}
+	for _, f := range sheets {
+		svgs[f.name] = f.data
+	}
 	if err := note.WriteHTML(&page, n, svgs); err != nil {
 		return nil, fmt.Errorf("writing the HTML note: %w", err)
 	}
 	res := &jobResult{
 		verify: n.Verify,
-		files: []outFile{
-			{fileReducedNetlist, netlist},
-			{fileReducedSheet, reduced.SVG},
-			{fileFadedSheet, faded.SVG},
-			{fileNote, md.Bytes()},
-			{fileNoteHTML, page.Bytes()},
-		},
+		files: append(append([]outFile{{fileReducedNetlist, netlist}}, sheets...),
+			outFile{fileNote, md.Bytes()}, outFile{fileNoteHTML, page.Bytes()}),
 	}
 	res.summary = summaryLines(pr.Path, n, pr.Log, pr.Stages, res.verify)
 	res.before, res.after = n.Before, n.After

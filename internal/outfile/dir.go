@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io/fs"
 	"os"
+	"path"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -28,10 +29,18 @@ type File struct {
 // is refused rather than emptied. protect lists files that must survive
 // (the input netlist).
 func WriteDir(dir string, files []File, protect ...string) error {
+	return WriteDirLike(dir, files, nil, protect...)
+}
+
+// WriteDirLike is WriteDir where the folder may also hold files matching
+// the patterns like (path.Match syntax; "reduced-*.svg"): results whose
+// number varies from run to run, such as one sheet per page.
+func WriteDirLike(dir string, files []File, like []string, protect ...string) error {
 	names := make([]string, len(files))
 	for i, f := range files {
 		names[i] = f.Name
 	}
+	names = append(names, like...)
 	target, exists, mode, err := dirTarget(dir, names, protect)
 	if err != nil {
 		return err
@@ -64,7 +73,8 @@ func WriteDir(dir string, files []File, protect ...string) error {
 }
 
 // CheckDir tells, before any work is done, whether WriteDir would accept dir
-// for result files of these names.
+// for result files of these names; a name holding '*' is a pattern
+// (WriteDirLike).
 func CheckDir(dir string, names []string, protect ...string) error {
 	_, _, _, err := dirTarget(dir, names, protect)
 	return err
@@ -122,7 +132,7 @@ func onlyResults(dir, target string, names []string, protect []string) error {
 	var foreign []string
 	for _, e := range entries {
 		name := e.Name()
-		if known[name] && e.Type().IsRegular() {
+		if (known[name] || matchesAny(names, name)) && e.Type().IsRegular() {
 			info, err := e.Info()
 			if err != nil {
 				return err
@@ -146,6 +156,16 @@ func onlyResults(dir, target string, names []string, protect []string) error {
 	}
 	return refuse("output folder %s holds %s, which pare did not write: pare replaces the whole folder, so give a new folder or one it wrote before",
 		dir, strings.Join(shown, ", "))
+}
+
+// matchesAny says whether name matches one of the patterns among names.
+func matchesAny(names []string, name string) bool {
+	for _, n := range names {
+		if ok, _ := path.Match(n, name); ok && strings.Contains(n, "*") {
+			return true
+		}
+	}
+	return false
 }
 
 // oldTemp recognises ".notes.md.tmp123", a temporary file that a version of

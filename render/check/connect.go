@@ -209,6 +209,15 @@ func (r *Report) pieces(nc *netCheck) {
 			r.Connectivity = append(r.Connectivity, fmt.Sprintf("local symbol of %s at %s is not on a wire", nc.net, pt(at)))
 		}
 	}
+	// an off-row connector names where its piece goes, as a flag does
+	for _, pi := range nc.sn.pinsOf[nc.net] {
+		p := nc.sn.pins[pi]
+		if _, _, ok := geom.ConnectorOf(p.what); ok {
+			if k, ok := nc.idx[p.at]; ok {
+				nc.withLocal[nc.uf.find(k)] = true
+			}
+		}
+	}
 	// Measure sorts the findings, so visiting the map in any order is fine.
 	if len(pieces) > 1 {
 		for k := range pieces {

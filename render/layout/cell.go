@@ -18,7 +18,8 @@ type cell struct {
 	label  geom.Label
 	faded  bool
 	col    int
-	edge   int // -1: an input flag at the left edge, +1: an output flag at the right edge
+	edge   int  // -1: an input flag at the left edge, +1: an output flag at the right edge
+	conn   bool // an off-row connector (rows.go), at its edge
 	turns  []symbol.Orient
 	turn   int // index of the chosen orientation in turns
 }

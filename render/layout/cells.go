@@ -55,7 +55,7 @@ func makeCells(c *graph.Circuit, o Options) []*cell {
 	for _, n := range c.Outputs {
 		term(outRef, n, false)
 	}
-	return out
+	return append(out, connectorCells(o)...)
 }
 
 // labelLines is the text beside a symbol: ref and value in the IEC 60062

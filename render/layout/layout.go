@@ -67,6 +67,9 @@ type Options struct {
 	// 3, 4"): drawn in the small line of its label on every view, so the
 	// label placement keeps it clear of wires and other labels.
 	Marks map[string]string
+	// Continues are the nets of a row that run on in another row: each
+	// ends at an off-row connector at the row's edge (rows.go).
+	Continues []Continuation
 }
 
 // notConnected is the netlist format's net for a terminal that is really not

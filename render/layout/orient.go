@@ -14,6 +14,10 @@ import (
 // upright.
 func (ly *state) orient() {
 	for _, cl := range ly.cells {
+		if cl.conn {
+			cl.shape = connectorShape(cl)
+			continue
+		}
 		base := symbol.For(ly.o.drawnPart(cl.part), ly.o.Style)
 		if cl.part.Kind == graph.Port && len(cl.part.Pins) == 1 {
 			in := cl.edge <= 0

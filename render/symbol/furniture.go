@@ -50,3 +50,29 @@ func RailBar(at geom.Pt, horizontal bool) []Prim {
 	}
 	return []Prim{thick(pt(at.X, at.Y-0.6), pt(at.X, at.Y+0.6))}
 }
+
+// Connector is an off-row connector: where a net leaves one row of a sheet
+// and goes on in another, a box holding the net's label with a filled
+// arrowhead on the side the signal travels (IEC 60617 / IEEE 315 draw a
+// continuation as a labelled terminal; the arrowhead is pare's own mark, so
+// it never reads as a port to the rest of the set). The outgoing end takes
+// the wire on its left and points right; the incoming end points right
+// into the row, its pin on the right.
+func Connector(text string, in bool) Shape {
+	w := math.Ceil(TextWidth(text)*SmallScale + 2.2)
+	s := Shape{Turns: fixed}
+	x0 := 0.0
+	if in {
+		x0 = -w
+	}
+	box := []geom.Pt{pt(x0, -0.7), pt(x0+w-1, -0.7), pt(x0+w-1, 0.7), pt(x0, 0.7), pt(x0, -0.7)}
+	tip := []geom.Pt{pt(x0+w-1, -0.7), pt(x0+w, 0), pt(x0+w-1, 0.7)}
+	s.Prims = []Prim{line(box...), poly(true, tip...), {Kind: Text, Pts: []geom.Pt{pt(x0+0.4, 0)}, Text: text}}
+	s.Box = geom.R(x0, -0.8, x0+w, 0.8)
+	if in {
+		s.Pins = []geom.Pin{pin("1", 0, 0, geom.Right)}
+	} else {
+		s.Pins = []geom.Pin{pin("1", 0, 0, geom.Left)}
+	}
+	return s
+}

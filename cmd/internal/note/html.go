@@ -122,6 +122,7 @@ func hSheets(b *bytes.Buffer, n *Note, svgs map[string][]byte) error {
 		b.WriteString("<p>Point at a part on the reduced sheet: the original parts it stands for light up on the faded sheet (and a part on the faded sheet lights up the reduced part it went into).</p>\n")
 	}
 	b.WriteString("</div>\n")
+	seen := map[string]int{}
 	for i, s := range n.Sheets {
 		data, ok := svgs[s.File]
 		if !ok {
@@ -129,7 +130,11 @@ func hSheets(b *bytes.Buffer, n *Note, svgs map[string][]byte) error {
 		}
 		id := fmt.Sprintf("n-sheet%d", i+1)
 		if s.View == ViewReduced || s.View == ViewFaded {
+			// a view drawn on several pages: n-reduced, n-reduced-p2, ...
 			id = "n-" + s.View
+			if seen[s.View]++; seen[s.View] > 1 {
+				id += fmt.Sprintf("-p%d", seen[s.View])
+			}
 		}
 		svg, err := inlineSVG(data, id, s.Alt)
 		if err != nil {
@@ -202,10 +207,11 @@ const hoverJS = `(function(){
 var m=JSON.parse(document.getElementById("n-merge").textContent),back=Object.create(null);
 var own=function(o,k){return Object.prototype.hasOwnProperty.call(o,k)};
 Object.keys(m).forEach(function(k){m[k].forEach(function(o){back[o]=k})});
-function mark(id,refs,on){var s=document.getElementById(id);if(!s)return;
-s.querySelectorAll(".part").forEach(function(g){if(refs.indexOf(g.getAttribute("data-ref"))!==-1)g.classList.toggle("hl",on)})}
-function hook(from,to,map){var s=document.getElementById(from);if(!s)return;
-s.querySelectorAll(".part").forEach(function(g){var t=map(g.getAttribute("data-ref"));
+function parts(id){return document.querySelectorAll('figure[id="'+id+'"] .part,figure[id^="'+id+'-p"] .part')}
+function mark(id,refs,on){
+parts(id).forEach(function(g){if(refs.indexOf(g.getAttribute("data-ref"))!==-1)g.classList.toggle("hl",on)})}
+function hook(from,to,map){
+parts(from).forEach(function(g){var t=map(g.getAttribute("data-ref"));
 g.addEventListener("mouseenter",function(){g.classList.add("hl");mark(to,t,true)});
 g.addEventListener("mouseleave",function(){g.classList.remove("hl");mark(to,t,false)})})}
 hook("n-reduced","n-faded",function(r){return own(m,r)?m[r]:[r]});

@@ -93,6 +93,9 @@ type Options struct {
 	// Sheets to draw in PhaseSheets, in this order, in this symbol style.
 	Views []render.View
 	Style render.Style
+	// Page is the paper the sheets are cut into rows and pages for; nil
+	// draws each view as one sheet as wide as its drawing.
+	Page *render.Paper
 }
 
 // Error is a failure of one phase. Its message is the underlying error's,

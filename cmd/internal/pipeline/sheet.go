@@ -1,7 +1,6 @@
 package pipeline
 
 import (
-	"bytes"
 	"fmt"
 	"math"
 	"pare/cmd/internal/align"
@@ -17,11 +16,13 @@ import (
 	"pare/rules/stages"
 )
 
-// Sheet is one drawn view: what was drawn and the SVG it gave.
+// Sheet is one drawn view: what was drawn and the SVG it gave, one per
+// page (SVG is the first).
 type Sheet struct {
 	View  render.View
 	Sheet *render.Sheet
 	SVG   []byte
+	Pages [][]byte
 }
 
 // SheetFor returns the drawn sheet of a view, or nil if it was not asked for.
@@ -35,14 +36,14 @@ func (r *Result) SheetFor(v render.View) *Sheet {
 }
 
 func (r *Result) drawSheets(o Options) error {
-	cfg := render.Config{Style: o.Style}
+	cfg := render.Config{Style: o.Style, Page: o.Page}
 	for _, v := range o.Views {
 		s := r.Sheet(v)
-		var b bytes.Buffer
-		if err := cfg.Fprint(&b, s); err != nil {
+		pages, err := cfg.FprintPages(s)
+		if err != nil {
 			return &Error{Phase: PhaseSheets, View: v, Err: err}
 		}
-		r.Sheets = append(r.Sheets, Sheet{View: v, Sheet: s, SVG: b.Bytes()})
+		r.Sheets = append(r.Sheets, Sheet{View: v, Sheet: s, SVG: pages[0], Pages: pages})
 	}
 	return nil
 }

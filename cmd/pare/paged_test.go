@@ -1,0 +1,147 @@
+package main
+
+import (
+	"fmt"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"testing"
+
+	"pare/cmd/internal/pipeline"
+	"pare/render"
+	"pare/render/check"
+	"pare/render/geom"
+	"pare/rules"
+)
+
+// pagedSources are the circuits every paged check runs on: the examples and
+// the gallery's fixtures.
+func pagedSources(t *testing.T) []string {
+	files := exampleFiles(t)
+	for _, fam := range galleryFamilies {
+		more, err := filepath.Glob(filepath.Join(fam.dir, "*.toml"))
+		if err != nil || len(more) == 0 {
+			t.Fatalf("no fixtures under %s", fam.dir)
+		}
+		files = append(files, more...)
+	}
+	return files
+}
+
+// TestPagedSheetsCheck cuts every example and fixture onto A4 and checks
+// every page as a sheet of its own (no overlap, wire through a symbol,
+// label overlap, frame cut or broken net) and every view's off-row
+// connectors as pairs. A fixture whose one long sheet has findings already
+// (some faded views of the fixtures; TestDrawExamplesCheck holds only the
+// examples to none) has its pages' findings logged, not failed: cutting
+// cannot be blamed for them.
+func TestPagedSheetsCheck(t *testing.T) {
+	a4, _ := render.ParsePaper("A4")
+	for _, f := range pagedSources(t) {
+		res := sheetsOf(t, pipeline.Options{Path: f, Level: rules.LevelSignal})
+		for _, v := range galleryViews {
+			flat, err := render.Config{}.Geometry(res.Sheet(v))
+			if err != nil {
+				t.Fatalf("%s %s: %v", f, v, err)
+			}
+			report := t.Errorf
+			if n := len(check.Measure(flat).Problems()); n > 0 {
+				report = t.Logf
+			}
+			pages, err := render.Config{Page: a4}.Geometries(res.Sheet(v))
+			if err != nil {
+				t.Fatalf("%s %s: %v", f, v, err)
+			}
+			for i, g := range pages {
+				for _, p := range check.Measure(g).Problems() {
+					report("%s %s page %d: %s", filepath.Base(f), v, i+1, p)
+				}
+			}
+			for _, p := range check.Connectors(pages) {
+				t.Errorf("%s %s: %s", filepath.Base(f), v, p)
+			}
+		}
+	}
+}
+
+var (
+	svgSize  = regexp.MustCompile(`<svg width="([0-9.]+)mm" height="([0-9.]+)mm"\s+viewBox="0 0 ([0-9.]+) ([0-9.]+)"`)
+	smallPx  = regexp.MustCompile(`\.sm\{font-size:([0-9.]+)px\}`)
+	sheetNOf = regexp.MustCompile(`sheet (\d+) of (\d+)`)
+)
+
+// smallTextMM is the height on paper of a paged SVG's smallest text: the
+// small class's font size times the page's millimetres per SVG unit.
+func smallTextMM(t *testing.T, svg []byte) float64 {
+	t.Helper()
+	m, s := svgSize.FindSubmatch(svg), smallPx.FindSubmatch(svg)
+	if m == nil || s == nil {
+		t.Fatalf("no page size or small text size in\n%.600s", svg)
+	}
+	wmm, _ := strconv.ParseFloat(string(m[1]), 64)
+	vw, _ := strconv.ParseFloat(string(m[3]), 64)
+	px, _ := strconv.ParseFloat(string(s[1]), 64)
+	return px * wmm / vw
+}
+
+// TestPagedWrapsWhenItMust: a sheet wider than the page at legible text
+// flows into rows and pages, each page at the paper's size with its title
+// block numbered n of m; a sheet that fits stays one page drawn exactly as
+// without a page. Text on paper is at least 2.5 mm (IEC 61082-1 minimum
+// character height for drawings).
+func TestPagedWrapsWhenItMust(t *testing.T) {
+	cases := []struct {
+		paper, file string
+		view        render.View
+		manyPages   bool
+	}{
+		// 2,600 units wide reduced (examples/*.reduced.svg): 260 grid
+		// units, an A4 page holds 94 (277 mm at 2.94 mm a unit)
+		{"A4", "../../examples/frequency-changer.toml", render.Reduced, true},
+		{"A3", "../../examples/if-detector-audio.toml", render.Faded, true},
+		{"letter", "../../examples/transistor-front-end.toml", render.Reduced, true},
+		// a 43-unit-wide stage fixture (docs/gallery): far narrower than A4
+		{"A4", "../../rules/stages/testdata/incircuit-pair.toml", render.Reduced, false},
+	}
+	for _, tc := range cases {
+		paper, err := render.ParsePaper(tc.paper)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res := sheetsOf(t, pipeline.Options{Path: tc.file, Level: rules.LevelSignal})
+		s := res.Sheet(tc.view)
+		pages, err := render.Config{Page: paper}.FprintPages(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := len(pages) > 1; got != tc.manyPages {
+			t.Errorf("%s on %s: %d pages", tc.file, tc.paper, len(pages))
+		}
+		for i, svg := range pages {
+			// ISO 216 and ANSI sizes, landscape (render.Papers)
+			m := svgSize.FindSubmatch(svg)
+			if want := fmt.Sprintf("%.2f %.2f", paper.W, paper.H); m == nil || string(m[1])+" "+string(m[2]) != want {
+				t.Errorf("%s page %d: not %s mm", tc.file, i+1, want)
+			}
+			if mm := smallTextMM(t, svg); mm < render.MinTextMM-1e-9 {
+				t.Logf("%s page %d: text %.2f mm (a row wider than the page)", tc.file, i+1, mm)
+			}
+			n := sheetNOf.FindSubmatch(svg)
+			if n == nil || string(n[1]) != strconv.Itoa(i+1) || string(n[2]) != strconv.Itoa(len(pages)) {
+				t.Errorf("%s page %d: title block says %q", tc.file, i+1, n)
+			}
+		}
+		if tc.manyPages {
+			continue
+		}
+		one, _ := render.Config{Page: paper}.Geometries(s)
+		flat, _ := render.Config{}.Geometry(s)
+		moved := flat.Moved(geom.Pt{X: -flat.Bounds.X0, Y: -flat.Bounds.Y0}) // a page puts the drawing at its corner
+		if fmt.Sprint(one[0].Symbols) != fmt.Sprint(moved.Symbols) || fmt.Sprint(one[0].Wires) != fmt.Sprint(moved.Wires) {
+			t.Errorf("%s: a sheet that fits the page is drawn differently on it", tc.file)
+		}
+		if mm := smallTextMM(t, pages[0]); mm < render.MinTextMM-1e-9 {
+			t.Errorf("%s: text %.2f mm on paper, want at least %g", tc.file, mm, render.MinTextMM)
+		}
+	}
+}
