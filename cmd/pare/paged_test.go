@@ -3,8 +3,11 @@ package main
 import (
 	"fmt"
 	"path/filepath"
+	"os"
 	"regexp"
+	"sort"
 	"strconv"
+	"strings"
 	"testing"
 
 	"pare/cmd/internal/pipeline"
@@ -144,4 +147,92 @@ func TestPagedWrapsWhenItMust(t *testing.T) {
 			t.Errorf("%s: text %.2f mm on paper, want at least %g", tc.file, mm, render.MinTextMM)
 		}
 	}
+}
+
+// TestMainJobOnPaper: with --page the main job writes each view as
+// numbered sheets, the notes name and embed every one of them, a rerun
+// writes the same bytes, and a rerun on other paper (or none) replaces the
+// pack whole, leaving no page of the earlier run behind.
+func TestMainJobOnPaper(t *testing.T) {
+	ex := "../../examples/frequency-changer.toml"
+	dir := filepath.Join(t.TempDir(), "fc.pare")
+	job := func(page string) map[string][]byte {
+		t.Helper()
+		if code, _, errs := runJob(t, ex, "--no-verify", "--page", page, "-o", dir); code != exitOK {
+			t.Fatalf("--page %s: exit %d: %s", page, code, errs)
+		}
+		files := map[string][]byte{}
+		names, _ := filepath.Glob(filepath.Join(dir, "*"))
+		for _, n := range names {
+			files[filepath.Base(n)], _ = os.ReadFile(n)
+		}
+		return files
+	}
+	a4 := job("A4")
+	if a4[fileReducedSheet] != nil || a4["reduced-1.svg"] == nil || a4["reduced-2.svg"] == nil || a4["faded-1.svg"] == nil {
+		t.Fatalf("A4 pack holds %v", keys(a4))
+	}
+	md, page := string(a4[fileNote]), string(a4[fileNoteHTML])
+	for name := range a4 {
+		if !strings.HasSuffix(name, ".svg") {
+			continue
+		}
+		if !strings.Contains(md, "]("+name+")") {
+			t.Errorf("notes.md does not embed %s", name)
+		}
+	}
+	if !strings.Contains(page, `id="n-reduced"`) || !strings.Contains(page, `id="n-reduced-p2"`) {
+		t.Errorf("notes.html does not hold the reduced sheets as n-reduced, n-reduced-p2, ...")
+	}
+	again := job("A4")
+	for name, data := range a4 {
+		if string(again[name]) != string(data) {
+			t.Errorf("%s differs on a rerun", name)
+		}
+	}
+	a3 := job("A3")
+	if len(a3) >= len(a4) {
+		t.Errorf("A3 pack has %d files, A4 %d: a larger page should take fewer sheets", len(a3), len(a4))
+	}
+	flat := job("none")
+	if got := keys(flat); strings.Join(got, " ") != strings.Join(sortedCopy(resultFiles), " ") {
+		t.Errorf("--page none pack holds %v, want %v", got, sortedCopy(resultFiles))
+	}
+}
+
+// TestPageBadInput: an unknown paper is a usage error (exit 2) naming the
+// choices, before any work; pare draw on paper writes OUT-1.svg ... and
+// refuses standard output for a drawing of several pages.
+func TestPageBadInput(t *testing.T) {
+	ex := "../../examples/frequency-changer.toml"
+	code, _, errs := runJob(t, ex, "--page", "B5", "-o", filepath.Join(t.TempDir(), "x"))
+	if code != exitBad || !strings.Contains(errs, "A4, A3, letter or none") {
+		t.Errorf("run --page B5: exit %d, %q", code, errs)
+	}
+	code, _, errs = runJob(t, "draw", ex, "--page", "A4", "-o", "-")
+	if code != exitBad || !strings.Contains(errs, "pages: give -o FILE.svg") {
+		t.Errorf("draw --page A4 -o -: exit %d, %q", code, errs)
+	}
+	out := filepath.Join(t.TempDir(), "fc.svg")
+	if code, _, errs = runJob(t, "draw", ex, "--page", "A4", "-o", out); code != exitOK {
+		t.Fatalf("draw --page A4: exit %d: %s", code, errs)
+	}
+	got, _ := filepath.Glob(strings.TrimSuffix(out, ".svg") + "*")
+	if len(got) < 2 || filepath.Base(got[0]) != "fc-1.svg" {
+		t.Errorf("draw --page A4 wrote %v", got)
+	}
+}
+
+func keys(m map[string][]byte) []string {
+	var out []string
+	for k := range m {
+		out = append(out, k)
+	}
+	return sortedCopy(out)
+}
+
+func sortedCopy(s []string) []string {
+	out := append([]string(nil), s...)
+	sort.Strings(out)
+	return out
 }
