@@ -3,7 +3,6 @@ package render
 import (
 	"bytes"
 	"fmt"
-	"strings"
 
 	svg "github.com/ajstarks/svgo/float"
 
@@ -88,52 +87,32 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	return pages, nil
 }
 
-// layoutRows lays out each row (the sheet itself when there is one row)
-// and moves a row's last stretch on to the next row while it comes out
-// wider or taller than the page and can be cut. That changes no other
-// row's connectors (a net still runs on before and after it as it did),
-// so the other rows are not laid out again.
+// layoutRows lays out each row in turn (the sheet itself when there is
+// one row), moving a row's last stretch on to the next row while it comes
+// out wider or taller than the page and can be cut. A row's connectors
+// depend only on which nets the rows before it and after it hold, so
+// moving stretches between later rows never changes a row already laid
+// out: each row is laid out once plus once per stretch it gives away.
 func (cfg Config) layoutRows(s *Sheet, rows [][]block, cw, ch float64) ([]*layout.Result, error) {
-	done := map[string]*layout.Result{}
-	for {
-		sheets := []*Sheet{s}
-		if len(rows) > 1 {
-			sheets = rowSheets(s, rowRefs(rows))
-		}
-		out := make([]*layout.Result, len(sheets))
-		cut := -1
-		for i, rs := range sheets {
-			key := rowKey(rows, i)
-			r, ok := done[key]
-			if !ok {
-				var err error
-				if r, err = cfg.layout(rs); err != nil {
-					return nil, err
-				}
-				done[key] = r
+	var out []*layout.Result
+	for i := 0; i < len(rows); i++ {
+		for {
+			rs := s
+			if len(rows) > 1 {
+				rs = rowSheets(s, rowRefs(rows))[i]
 			}
-			out[i] = r
-			if b := r.Geom.Bounds; cut < 0 && len(rows[i]) > 1 && (b.W() > cw || b.H() > ch) {
-				cut = i
+			r, err := cfg.layout(rs)
+			if err != nil {
+				return nil, err
 			}
-		}
-		if cut < 0 {
-			return out, nil
-		}
-		rows = peel(rows, cut)
-	}
-}
-
-// rowKey names a row by its parts, and whether it is the whole sheet.
-func rowKey(rows [][]block, i int) string {
-	var b strings.Builder
-	fmt.Fprintf(&b, "%d", min(len(rows), 2))
-	for _, k := range rows[i] {
-		for _, r := range k.refs {
-			b.WriteString("\x00" + r)
+			if b := r.Geom.Bounds; len(rows[i]) == 1 || (b.W() <= cw && b.H() <= ch) {
+				out = append(out, r)
+				break
+			}
+			rows = peel(rows, i)
 		}
 	}
-	return b.String()
+	return out, nil
 }
 
 // rowSlack is the width, in grid units, a row keeps free of its parts'

@@ -1,0 +1,111 @@
+package render
+
+import (
+	"bytes"
+	"fmt"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"pare/internal/golden"
+	"pare/render/check"
+)
+
+// chainSheet is a chain of triode stages, each framed: 6 parts a stage.
+func chainSheet(stages int) *Sheet {
+	c := stageChain(6*stages + 1)
+	s := &Sheet{Circuit: c, View: Reduced}
+	for i := 1; i <= stages; i++ {
+		var refs []string
+		for _, f := range []string{"C%da", "R%dg", "V%d", "R%dk", "C%dk", "R%da"} {
+			refs = append(refs, fmt.Sprintf(f, i))
+		}
+		s.Frames = append(s.Frames, Frame{Title: fmt.Sprintf("S%d triode stage", i), Parts: refs})
+	}
+	return s
+}
+
+func TestParsePaper(t *testing.T) {
+	cases := []struct {
+		in   string
+		want string // "" for none
+		bad  bool
+	}{
+		{"A4", "A4", false}, {"a3", "A3", false}, {"Letter", "letter", false}, {"none", "", false},
+		{"NONE", "", false}, {"B5", "", true}, {"", "", true},
+	}
+	for _, tc := range cases {
+		p, err := ParsePaper(tc.in)
+		if (err != nil) != tc.bad {
+			t.Errorf("%q: err %v", tc.in, err)
+			continue
+		}
+		if got := ""; p != nil {
+			got = p.Name
+			if got != tc.want {
+				t.Errorf("%q: %s, want %s", tc.in, got, tc.want)
+			}
+		} else if tc.want != "" {
+			t.Errorf("%q: none, want %s", tc.in, tc.want)
+		}
+	}
+	// A4 landscape less 10 mm margins is 277 × 190 mm (ISO 216); at 2.5 mm
+	// small text (0.85 of a grid unit) one unit is 2.94 mm
+	a4, _ := ParsePaper("A4")
+	if w, h := a4.content(); w < 94.1 || w > 94.3 || h < 64.5 || h > 64.7 {
+		t.Errorf("A4 printable area %.2f × %.2f grid units, want 94.2 × 64.6", w, h)
+	}
+}
+
+// TestChainPages: three framed stages (62 units wide each) on A4 (94 units) flow into rows and pages: each
+// page passes the checker, its connectors pair up across pages, each page
+// says "sheet n of m", and the pages are the committed ones byte for byte
+// (look at them as PNG after go test ./render -update) on every run.
+func TestChainPages(t *testing.T) {
+	a4, _ := ParsePaper("A4")
+	s := chainSheet(3)
+	cfg := Config{Page: a4}
+	pages, err := cfg.FprintPages(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(pages) < 2 {
+		t.Fatalf("three stages on A4: %d page(s)", len(pages))
+	}
+	again, _ := cfg.FprintPages(chainSheet(3))
+	gs, err := cfg.Geometries(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, g := range gs {
+		for _, p := range check.Measure(g).Problems() {
+			t.Errorf("page %d: %s", i+1, p)
+		}
+	}
+	for _, p := range check.Connectors(gs) {
+		t.Error(p)
+	}
+	conns := 0
+	for _, g := range gs {
+		for _, sym := range g.Symbols {
+			if strings.HasPrefix(sym.Ref, "@from:") || strings.HasPrefix(sym.Ref, "@to:") {
+				conns++
+			}
+		}
+	}
+	if conns < 2 {
+		t.Errorf("%d off-row connectors on %d pages", conns, len(pages))
+	}
+	for i, svg := range pages {
+		if !bytes.Contains(svg, []byte(fmt.Sprintf("sheet %d of %d", i+1, len(pages)))) {
+			t.Errorf("page %d has no 'sheet %d of %d'", i+1, i+1, len(pages))
+		}
+		if !bytes.Equal(svg, again[i]) {
+			t.Errorf("page %d differs from run to run", i+1)
+		}
+		wellFormed(t, svg)
+		file := filepath.Join("testdata", fmt.Sprintf("chain-a4-%d.svg", i+1))
+		golden.Check(t, file, svg, *update, "look at the PNG, then go test ./render -update")
+		renders(t, file)
+	}
+}
