@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"pare/graph/value"
 	"pare/render/layout"
 	"pare/render/symbol"
 )
@@ -52,15 +53,18 @@ func (d *drawer) foot(n, m int) foot {
 }
 
 // blockLines are the title block: the set, the sheet's number, the view
-// and the symbol style; beside them the sheet's furniture (bands, IF,
+// with the band of interest and the symbol style; beside them the sheet's furniture (bands, IF,
 // tuning, level).
 func (d *drawer) blockLines(n, m int) [2][]string {
 	style := "IEC 60617"
 	if d.cfg.Style == IEEE {
 		style = "IEEE 315"
 	}
-	return [2][]string{{d.title(), fmt.Sprintf("sheet %d of %d", n, m), "view: " + d.sheet.View.String(),
-		"symbols: " + style}, d.sheet.Furniture}
+	view := "view: " + d.sheet.View.String()
+	if b := d.sheet.Circuit.Band; b.Max > 0 {
+		view += ", band " + value.FormatRange(b, value.Hertz, value.Symbol)
+	}
+	return [2][]string{{d.title(), fmt.Sprintf("sheet %d of %d", n, m), view, "symbols: " + style}, d.sheet.Furniture}
 }
 
 // pagedPage sizes page n of m: the paper's proportions, one grid unit

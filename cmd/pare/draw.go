@@ -63,22 +63,7 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 		fmt.Fprintln(e.stderr, "pare draw: no output file: give -o OUT.svg (or -o - for standard output)")
 		return exitBad
 	}
-	view, err := render.ParseView(o.view)
-	if err != nil {
-		fmt.Fprintf(e.stderr, "pare draw: --view: %v\n", err)
-		return exitBad
-	}
-	style, err := render.ParseStyle(o.symbols)
-	if err != nil {
-		fmt.Fprintf(e.stderr, "pare draw: --symbols: %v\n", err)
-		return exitBad
-	}
-	lvl, err := rules.ParseLevel(o.level)
-	if err != nil {
-		fmt.Fprintf(e.stderr, "pare draw: --level: %v\n", err)
-		return exitBad
-	}
-	paper, err := parsePage(o.page)
+	view, style, lvl, paper, err := drawSettings(o)
 	if err != nil {
 		fmt.Fprintf(e.stderr, "pare draw: %v\n", err)
 		return exitBad
@@ -115,4 +100,22 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 		return exitBad
 	}
 	return exitOK
+}
+
+// drawSettings reads the flags that say what to draw and how.
+func drawSettings(o *drawOpts) (render.View, render.Style, rules.Level, *render.Paper, error) {
+	view, err := render.ParseView(o.view)
+	if err != nil {
+		return view, 0, 0, nil, fmt.Errorf("--view: %w", err)
+	}
+	style, err := render.ParseStyle(o.symbols)
+	if err != nil {
+		return view, style, 0, nil, fmt.Errorf("--symbols: %w", err)
+	}
+	lvl, err := rules.ParseLevel(o.level)
+	if err != nil {
+		return view, style, lvl, nil, fmt.Errorf("--level: %w", err)
+	}
+	paper, err := parsePage(o.page)
+	return view, style, lvl, paper, err
 }

@@ -7,6 +7,7 @@ import (
 
 	"pare/cmd/internal/note"
 	"pare/cmd/internal/pipeline"
+	"pare/internal/outfile"
 	"pare/render"
 )
 
@@ -20,6 +21,16 @@ const (
 	pagedReducedSheets = "reduced-*.svg"
 	pagedFadedSheets   = "faded-*.svg"
 )
+
+// checkOutDir refuses, before any work, an output folder that WriteDir
+// would refuse: a file, a link to nothing, a folder holding files pare did
+// not write, one where a result would overwrite the input netlist. Numbered
+// sheets of any count are the job's: a run on other paper may have drawn
+// more or fewer.
+func checkOutDir(input, dir string) error {
+	return outfile.CheckDir(dir, []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote, fileNoteHTML,
+		pagedReducedSheets, pagedFadedSheets}, input)
+}
 
 // pageFile is the file of page n (from 1) of a view's sheet.
 func pageFile(single string, n int, paged bool) string {

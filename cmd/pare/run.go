@@ -40,10 +40,8 @@ refused), compares the original with the reduced circuit by AC analysis,
 recognises the stages, and writes into DIR (default: FILE without .toml, plus
 .pare): reduced.toml, reduced.svg, faded.svg and notes.md, a repair note that
 embeds the sheets, and notes.html, the same note as one page with the sheets
-inline (prints one sheet per page). With --page the sheets are fitted to that
-paper (landscape, text at least 2.5 mm high): the stages flow into rows, the
-rows onto further sheets, reduced-1.svg, reduced-2.svg ... (faded-1.svg ...),
-each with a title block. Everything is made in memory first; on bad input nothing is
+inline (prints one sheet per page). --page fits the sheets to paper (see
+'pare help draw'): reduced-1.svg, reduced-2.svg ..., faded-1.svg ... Everything is made in memory first; on bad input nothing is
 written. Exit 0 when the reduction was verified, 1 when the verification
 failed or compared nothing (the files are still written, and the note says so),
 2 on bad input, 3 on an internal error. The folder DIR is replaced whole, in
@@ -266,14 +264,6 @@ func configure(o *runOpts) (jobConfig, error) {
 // examples/set.pare.
 func defaultOutDir(path string) string {
 	return strings.TrimSuffix(path, ".toml") + ".pare"
-}
-
-// checkOutDir refuses, before any work, an output folder that WriteDir
-// would refuse: a file, a link to nothing, a folder holding files pare did
-// not write, one where a result would overwrite the input netlist.
-func checkOutDir(input, dir string) error {
-	return outfile.CheckDir(dir, []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote, fileNoteHTML,
-		pagedReducedSheets, pagedFadedSheets}, input)
 }
 
 // mainJobOn turns the pipeline's result into the job's files, in memory,
