@@ -25,7 +25,7 @@
 // blocks.go, order.go and place.go (blocks, their order in a column, x and
 // y), frames.go and links.go (stage frames, gang links), sheet.go (one
 // placement routed and assembled), untangle.go (the search for fewer
-// crossings), and the router: grid.go (the grid and its costs), search.go
+// crossings), rows.go (off-row connectors of a row of a paged sheet), and the router: grid.go (the grid and its costs), search.go
 // and queue.go (A*), reroute.go (net order, rip-up and reroute), emit.go
 // (wires, dots and flags).
 package layout
