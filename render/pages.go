@@ -24,10 +24,11 @@ var Papers = []Paper{
 	{Name: "letter", W: 279.4, H: 215.9}, // ANSI/ASME Y14.1 size A, 11 × 8.5 in
 }
 
-// ParsePaper reads a --page value: a paper name (any case), or "none" for
+// ParsePaper reads a --page value: a paper name (any case), or "none" (or
+// nothing, as ParseStyle and ParseView read nothing as their default) for
 // one long sheet as wide as the drawing (nil).
 func ParsePaper(s string) (*Paper, error) {
-	if strings.EqualFold(s, "none") {
+	if s == "" || strings.EqualFold(s, "none") {
 		return nil, nil
 	}
 	for i := range Papers {

@@ -32,7 +32,7 @@ func TestParsePaper(t *testing.T) {
 		bad  bool
 	}{
 		{"A4", "A4", false}, {"a3", "A3", false}, {"Letter", "letter", false}, {"none", "", false},
-		{"NONE", "", false}, {"B5", "", true}, {"", "", true},
+		{"NONE", "", false}, {"B5", "", true}, {"", "", false},
 	}
 	for _, tc := range cases {
 		p, err := ParsePaper(tc.in)
