@@ -182,6 +182,7 @@ func collect(c *graph.Circuit) *evidence {
 	if saysACDC(c.Title) {
 		ev.acdc = append(ev.acdc, "the title")
 	}
+	spreadMains(c, ev.mainsNets)
 	supply := map[string]bool{}
 	for _, n := range c.Nets {
 		if n.Role == graph.Supply {
@@ -193,6 +194,47 @@ func collect(c *graph.Circuit) *evidence {
 	}
 	ev.chain = append(ev.chain, seriesHeaters(c)...)
 	return ev
+}
+
+// spreadMains follows the mains from the nets that bring it in through
+// the parts that pass it on unchanged: a switch's contacts (any pair some
+// position closes: the on/off switch on the volume control) and a fuse. A
+// mains transformer behind the switch is still on the mains; without this
+// the set would count as one with no mains transformer at all.
+func spreadMains(c *graph.Circuit, mains map[string]bool) {
+	for grew := len(mains) > 0; grew; {
+		grew = false
+		for _, p := range c.Parts {
+			for _, pair := range passes(p) {
+				a, b := p.NetOf(pair[0]), p.NetOf(pair[1])
+				if a == "" || b == "" || a == "nc" || b == "nc" || mains[a] == mains[b] {
+					continue
+				}
+				mains[a], mains[b] = true, true
+				grew = true
+			}
+		}
+	}
+}
+
+// fuseWord finds a fuse in a generic part's label ("fuse 1 A", "F1 fuse").
+var fuseWord = regexp.MustCompile(`(?i)\bfuse`)
+
+// passes lists the terminal pairs of a part that carry the mains through:
+// every contact pair a switch closes in some position, and both ends of a
+// two-terminal generic part called a fuse.
+func passes(p *graph.Part) [][2]string {
+	switch {
+	case p.Kind == graph.Switch:
+		var out [][2]string
+		for _, pos := range p.Closes {
+			out = append(out, pos...)
+		}
+		return out
+	case p.Kind == graph.Generic && len(p.Pins) == 2 && fuseWord.MatchString(p.Label):
+		return [][2]string{{p.Pins[0].Name, p.Pins[1].Name}}
+	}
+	return nil
 }
 
 // railEvidence sorts a declared rail into high or low; a heater net

@@ -71,6 +71,23 @@ C1 = { c = "10n", pins = ["in", "out"] }
 R1 = { r = "10k", pins = ["vcc", "out"] }
 R2 = { r = "10k", pins = ["hx", "gnd"] }
 `
+	// The mains comes in through a fuse and the double-pole on/off switch
+	// before it reaches the transformer's primary: a transformer set, the
+	// switch and the fuse pass the mains on (common practice).
+	switchedNet = `band = "1k..10k"
+inputs = ["in"]
+outputs = ["out"]
+[nets]
+ht = { role = "supply", volts = 250 }
+[parts]
+P1 = { port = "230 V mains, line", pins = ["mains_l"] }
+P2 = { port = "230 V mains, neutral", pins = ["mains_n"] }
+F1 = { part = "fuse 1 A", pins = { a = "mains_l", b = "fused" } }
+S1 = { switch = 2, set = 2, closes = ["", "c-1 d-2"], pins = { c = "fused", "1" = "pri_l", d = "mains_n", "2" = "pri_n" } }
+T1 = { windings = { p = "10", s = "100m" }, k = 0.98, pins = { p1 = "pri_l", p2 = "pri_n", s1 = "s1", s2 = "gnd" } }
+C1 = { c = "10n", pins = ["in", "out"] }
+R1 = { r = "10k", pins = ["ht", "out"] }
+`
 )
 
 // TestAssess: the class of every example and fixture, and of the inline
@@ -99,6 +116,12 @@ func TestAssess(t *testing.T) {
 			want: LiveChassis, because: "heater net hx at 120 V"},
 		{name: "parallel heaters", text: parallelNet, want: MainsHT, because: "valves V1, V2"},
 		{name: "transformer off the sheet", text: offSheetNet, want: MainsHT, because: "mains transformer off the sheet (P1)"},
+		{name: "mains through a fuse and a switch", text: switchedNet, want: MainsHT, because: "mains transformer T1"},
+		// Near miss: the neutral contact lifted and a lamp, not a fuse, in
+		// the line: nothing carries the mains to T1.
+		{name: "mains stopped by a lamp", text: strings.NewReplacer(`d = "mains_n"`, `d = "nc"`, `"fuse 1 A"`, `"dial lamp"`).Replace(switchedNet),
+			want: LiveChassis, because: "mains inputs"},
+		{name: "the whole club receiver", file: "examples/club-receiver.toml", want: MainsHT, because: "mains transformer T9"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			var c *graph.Circuit
