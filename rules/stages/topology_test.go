@@ -464,6 +464,25 @@ LS1 = { spk = "8", pins = ["spk", "gnd"] }`,
 R1 = { r = "470k", pins = ["g", "gnd"] }
 T1 = { windings = { p = "10", s = "16m" }, k = 0.99, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }
 R2 = { r = "8", pins = ["spk", "gnd"] }`},
+	// The usual output pentode: cathode bias with its bypass and a top-cut
+	// capacitor across the primary (common practice). A tuned-amplifier
+	// match takes the same parts, so the output stage must take them too.
+	{topology: "output-transformer", families: allFamilies,
+		parts: `@Q1(g, k, a)
+R1 = { r = "470k", pins = ["g", "gnd"] }
+R2 = { r = "160R", pins = ["k", "gnd"] }
+C1 = { c = "50u", type = "electrolytic", pins = ["k", "gnd"] }
+C2 = { c = "4n7", pins = ["a", "gnd"] }
+T1 = { windings = { p = "15", s = "6m43" }, k = 0.99, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }
+LS1 = { spk = "3", pins = ["spk", "gnd"] }`,
+		// The speaker replaced by a 3 Ω resistor: a dummy load.
+		nearMiss: `@Q1(g, k, a)
+R1 = { r = "470k", pins = ["g", "gnd"] }
+R2 = { r = "160R", pins = ["k", "gnd"] }
+C1 = { c = "50u", type = "electrolytic", pins = ["k", "gnd"] }
+C2 = { c = "4n7", pins = ["a", "gnd"] }
+T1 = { windings = { p = "15", s = "6m43" }, k = 0.99, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }
+R3 = { r = "3", pins = ["spk", "gnd"] }`},
 	{topology: "phase-splitter-transformer", families: allFamilies,
 		parts: `@Q1(g, gnd, a)
 R1 = { r = "22k", pins = ["g", "gnd"] }
