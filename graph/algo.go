@@ -119,6 +119,12 @@ func (w *Walk) traverse(e graph.Edge) bool {
 	}
 	if p := w.v.PartOf(uid); p != nil {
 		net := w.v.NetOf(vid)
+		if net == NotConnected {
+			// "nc" is no net: the reduction moves every static electrode
+			// there, so following it would put every valve one step from
+			// the first (the output stage beside the RF stage).
+			return false
+		}
 		if w.Follow != nil && !w.Follow(net) {
 			return false
 		}

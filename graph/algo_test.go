@@ -116,6 +116,34 @@ func TestWalk(t *testing.T) {
 	}
 }
 
+// TestWalkSkipsNC: "nc" marks terminals connected to nothing, so two
+// valves whose screens the reduction moved there are not neighbours: the
+// second stage is as far from the input as the signal path makes it (the
+// netlist format's definition of nc; distances by hand).
+func TestWalkSkipsNC(t *testing.T) {
+	c := parseOK(t, `band = "20..20k"
+[parts]
+R1 = { r = "1k", pins = ["in", "g1"] }
+V1 = { valve = "pentode", pins = { a = "a1", g1 = "g1", g2 = "nc", g3 = "gnd", k = "gnd" } }
+C1 = { c = "10n", pins = ["a1", "g2"] }
+R2 = { r = "1M", pins = ["g2", "x"] }
+V2 = { valve = "pentode", pins = { a = "a2", g1 = "x", g2 = "nc", g3 = "gnd", k = "gnd" } }
+`)
+	w := NewWalk(c.View())
+	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }
+	w.FromNets([]string{"in"}, 0)
+	got := map[string]int{}
+	for _, p := range c.Parts {
+		if d, ok := w.PartDist(p); ok {
+			got[p.Ref] = d
+		}
+	}
+	// Through nc V2 would be 2, beside C1; along the signal it is 4.
+	if want := map[string]int{"R1": 0, "V1": 1, "C1": 2, "R2": 3, "V2": 4}; !reflect.DeepEqual(got, want) {
+		t.Errorf("distances %v, want %v", got, want)
+	}
+}
+
 // TestWalkPieces: a later walk ranks only what the earlier ones left, from
 // its own base; net distances are those of the parts reached through them.
 func TestWalkPieces(t *testing.T) {
@@ -168,7 +196,7 @@ func refDistances(c *Circuit, starts []string) map[string]int {
 			}
 			dist[p.Ref] = depth[n]
 			for _, pin := range p.Pins {
-				if _, seen := depth[pin.Net]; !seen && !c.RoleOf(pin.Net).IsACGround() {
+				if _, seen := depth[pin.Net]; !seen && !c.RoleOf(pin.Net).IsACGround() && pin.Net != NotConnected {
 					depth[pin.Net] = depth[n] + 1
 					queue = append(queue, pin.Net)
 				}
