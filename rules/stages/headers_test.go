@@ -18,7 +18,7 @@ import (
 // themselves are checked against their formulas in the tests above; this
 // test keeps the prose in step with them.
 func TestExampleHeadersQuoteStages(t *testing.T) {
-	for _, name := range []string{"frequency-changer.toml", "if-detector-audio.toml", "transistor-front-end.toml"} {
+	for _, name := range []string{"frequency-changer.toml", "if-detector-audio.toml", "transistor-front-end.toml", "club-receiver.toml"} {
 		t.Run(name, func(t *testing.T) {
 			quotes := headerQuotes(t, filepath.Join("..", "..", "examples", name))
 			if len(quotes) == 0 {
