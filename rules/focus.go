@@ -1,6 +1,7 @@
 package rules
 
 import (
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -363,9 +364,16 @@ func focusEnds(x *Ctx, in map[*graph.Part]bool, crossing []string, isGround func
 			}
 		}
 		switch {
-		case x.IsEnd(n):
+		case slices.Contains(c.Inputs, n) || slices.Contains(c.Outputs, n):
+			// listed above
 		case entering:
+			// a region's input (the IF strip's mix_a, fed by the mixer's
+			// anode) is where the signal enters a cut of the IF amplifier
+			// as much as any other net
 			inputs = append(inputs, n)
+		case x.IsEnd(n):
+			// a region's output that the signal leaves by: not a port of the
+			// cut (the detector beyond it is cut away)
 		default:
 			leaving = append(leaving, n)
 		}
