@@ -464,6 +464,19 @@ LS1 = { spk = "8", pins = ["spk", "gnd"] }`,
 R1 = { r = "470k", pins = ["g", "gnd"] }
 T1 = { windings = { p = "10", s = "16m" }, k = 0.99, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }
 R2 = { r = "8", pins = ["spk", "gnd"] }`},
+	// An RF stage: untuned primary in the anode, the secondary tuned by a
+	// gang section into the next grid (common practice).
+	{topology: "amp-tuned-secondary", families: allFamilies,
+		parts: `@Q1(g, gnd, a)
+R1 = { r = "1M", pins = ["g", "gnd"] }
+T1 = { windings = { p = "100u", s = "230u" }, k = 0.3, q = 80, pins = { p1 = "a", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C1 = { c = "12p..365p", pins = ["s", "gnd"] }
+R2 = { r = "47k", pins = ["s", "gnd"] }`,
+		// The secondary untuned: an untuned RF transformer, nothing named tuned.
+		nearMiss: `@Q1(g, gnd, a)
+R1 = { r = "1M", pins = ["g", "gnd"] }
+T1 = { windings = { p = "100u", s = "230u" }, k = 0.3, q = 80, pins = { p1 = "a", p2 = "ht", s1 = "s", s2 = "gnd" } }
+R2 = { r = "47k", pins = ["s", "gnd"] }`},
 	// The usual output pentode: cathode bias with its bypass and a top-cut
 	// capacitor across the primary (common practice). A tuned-amplifier
 	// match takes the same parts, so the output stage must take them too.
