@@ -4,10 +4,7 @@ import (
 	"path/filepath"
 	"testing"
 
-	"pare/cmd/internal/pipeline"
 	"pare/render"
-	"pare/render/check"
-	"pare/rules"
 )
 
 // TestFramesHoldTheirOwnParts: no stage frame on the reduced sheet of an
@@ -25,13 +22,8 @@ func TestFramesHoldTheirOwnParts(t *testing.T) {
 		files = append(files, more...)
 	}
 	for _, f := range files {
-		res := sheetsOf(t, pipeline.Options{Path: f, Level: rules.LevelSignal})
 		for _, st := range []render.Style{render.IEC, render.IEEE} {
-			g, err := render.Config{Style: st}.Geometry(res.Sheet(render.Reduced))
-			if err != nil {
-				t.Fatalf("%s %s: %v", f, st, err)
-			}
-			r := check.Measure(g)
+			r := cachedSheet(t, f, render.Reduced, st).report
 			for _, p := range r.FrameIntruders {
 				t.Errorf("%s %s: %s", filepath.Base(f), st, p)
 			}

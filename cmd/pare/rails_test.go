@@ -9,9 +9,7 @@ import (
 	"pare/cmd/internal/pipeline"
 	"pare/graph"
 	"pare/render"
-	"pare/render/check"
 	"pare/render/geom"
-	"pare/rules"
 )
 
 // railSheetFiles are every example and every test fixture that draws: the
@@ -61,13 +59,11 @@ func TestNoEarthOnRails(t *testing.T) {
 	}
 	earthOnRail, tags, loose := 0, 0, 0
 	for _, f := range railSheetFiles(t) {
-		res := sheetsOf(t, pipeline.Options{Path: f, Level: rules.LevelSignal})
+		res := cachedResult(t, f)
 		for _, v := range drawViews {
 			for _, st := range []render.Style{render.IEC, render.IEEE} {
-				g, err := render.Config{Style: st}.Geometry(res.Sheet(v))
-				if err != nil {
-					t.Fatalf("%s %s: %v", f, v, err)
-				}
+				ls := cachedSheet(t, f, v, st)
+				g := ls.g
 				where := filepath.Base(f) + " " + v.String() + " " + st.String()
 				for _, l := range g.Locals {
 					n := returnNet(res, v, l)
@@ -90,7 +86,7 @@ func TestNoEarthOnRails(t *testing.T) {
 				// clean; the full and faded sheets of some fixtures carry
 				// problems of the router's and the full layout's, logged.
 				strict := v == render.Reduced || strings.Contains(f, "examples")
-				for _, p := range check.Measure(g).Problems() {
+				for _, p := range ls.report.Problems() {
 					if strict {
 						t.Errorf("%s: %s", where, p)
 					} else {
