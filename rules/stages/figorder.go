@@ -48,6 +48,9 @@ var figureNames = []figName{
 	{name: "track_f", label: "exact at", group: suggestedDesign},
 	{name: "gain", label: "gain"},
 	{name: "load_f", label: "load tuned f"},
+	// The tuned load's Q: the prefix's word before "loaded Q" would read
+	// "load loaded Q".
+	{name: "load_q_loaded", label: "load tuned Q (loaded)"},
 	{name: "f_c", label: "f c"},
 	{name: "f_c_unloaded", label: "f c (unloaded)"},
 	{name: "tau", label: "tau"},

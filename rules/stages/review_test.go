@@ -317,6 +317,7 @@ func TestStageNamesAvoidRefs(t *testing.T) {
 func TestFigureLabels(t *testing.T) {
 	for _, tc := range []struct{ prefix, name, want string }{
 		{"", "if", "IF"}, {"", "ift_f", "IF transformer f"}, {"ift", "f", "IF transformer f"}, {"load", "f", "load tuned f"},
+		{"load", "q_loaded", "load tuned Q (loaded)"}, // not "load loaded Q"
 		{"", "f_c_unloaded", "f c (unloaded)"}, {"", "pad_c", "padder"}, {"", "gain_min", "gain needed to oscillate ≥"},
 		{"grid", "f_c", "grid f c"}, {"bypass", "tau", "bypass tau"}, {"", "gain", "gain"}, {"", "r_track", "r track"},
 	} {
