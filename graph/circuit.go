@@ -105,6 +105,9 @@ type Circuit struct {
 type Comment struct {
 	Above []string // without the leading '#'
 	After string
+	// Blank: a blank line parted the entry from the one before it in its
+	// table, a grouping the user made that fmt keeps.
+	Blank bool
 }
 
 // Region is a part of the set that works in its own band: the IF strip around

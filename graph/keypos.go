@@ -60,6 +60,7 @@ type keyScanner struct {
 	col     int
 	ix      *keyIndex
 	pending []string       // comment lines waiting for the next statement
+	blank   bool           // a blank line since the last statement
 	last    string         // the path recorded last, for a comment after it on its line
 	arrays  map[string]int // [[name]] headers seen so far
 }
@@ -151,12 +152,14 @@ func (s *keyScanner) statement(table string) string {
 			s.ix.comments[HeaderComment] = Comment{Above: s.pending}
 			s.pending = nil
 		}
+		s.blank = s.blank || s.blankLine()
 		s.next()
 		return table
 	case r == '#':
 		s.pending = append(s.pending, s.comment())
 		return table
 	case r == '[':
+		s.blank = false // the writer parts tables itself
 		at := s.pos()
 		s.next()
 		arr := false
@@ -182,6 +185,12 @@ func (s *keyScanner) statement(table string) string {
 	default:
 		at := s.pos()
 		path := join(table, strings.Join(s.keyParts(), "."))
+		if s.blank && s.last != table { // not the first entry of its table
+			c := s.ix.comments[path]
+			c.Blank = true
+			s.ix.comments[path] = c
+		}
+		s.blank = false
 		s.skipSpace()
 		if s.peek() == '=' {
 			s.next()

@@ -207,3 +207,51 @@ func TestValuesWrittenExactly(t *testing.T) {
 		}
 	}
 }
+
+// TestBlankLinesKept: a blank line the user put between groups of entries
+// in a table is a grouping fmt keeps (one blank line, however many were
+// written); the first entry of a table and the top of the file get none, as
+// the writer parts tables itself, and the result is canonical.
+func TestBlankLinesKept(t *testing.T) {
+	src := `title = "t"
+
+band = "1M..2M"
+
+[parts]
+
+R1 = { r = "1k", pins = ["a", "gnd"] }
+R2 = { r = "1k", pins = ["a", "gnd"] }
+
+
+# second group
+R3 = { r = "1k", pins = ["a", "b"] }
+R4 = { r = "1k", pins = ["b", "gnd"] }
+`
+	want := `title = "t"
+
+band = "1M..2M"
+
+[parts]
+R1 = { r = "1k", pins = ["a", "gnd"] }
+R2 = { r = "1k", pins = ["a", "gnd"] }
+
+# second group
+R3 = { r = "1k", pins = ["a", "b"] }
+R4 = { r = "1k", pins = ["b", "gnd"] }
+`
+	c, err := Parse("c.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := writeString(t, c)
+	if out != want {
+		t.Errorf("written:\n%s\nwant:\n%s", out, want)
+	}
+	again, err := Parse("c.toml", []byte(out))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if twice := writeString(t, again); twice != out {
+		t.Errorf("not canonical: a second write gives\n%s", twice)
+	}
+}

@@ -33,6 +33,9 @@ type cwriter struct {
 
 func (cw *cwriter) line(path, text string) {
 	if cm, ok := cw.c.Comments[path]; ok {
+		if cm.Blank {
+			fmt.Fprintln(cw.w)
+		}
 		for _, a := range cm.Above {
 			fmt.Fprintf(cw.w, "#%s\n", a)
 		}
