@@ -47,16 +47,30 @@ func runAlign(e *env, _ *alignOpts, args []string) int {
 		return exitBad
 	}
 	path := args[0]
-	res, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseStages, Level: rules.LevelSignal})
+	g, err := alignGuide(path)
 	if loadFailed(e, path, err) {
 		return exitBad
 	} else if err != nil {
 		return reportErr(e, "pare align", path, err)
 	}
-	g := align.Build(res.Title, res.Circuit, res.Stages, res.Caution)
 	if err := writeOutput(e, "-", func(w io.Writer) error { return align.WriteText(w, g) }); err != nil {
 		fmt.Fprintf(e.stderr, "pare align: %v\n", err)
 		return exitBad
 	}
 	return exitOK
+}
+
+// alignGuide runs the pipeline exactly as the main job reduces and
+// recognises (every step proven against the one before it, so a refused
+// step leaves the same reduced circuit), so `pare align` and the note's
+// Alignment section come from the same stages. Only the final comparison
+// and the sheets are left out: the guide reads neither.
+func alignGuide(path string) (*align.Guide, error) {
+	po := jobOptions(path, jobConfig{level: rules.LevelSignal})
+	po.Until, po.Verify, po.Views = pipeline.PhaseStages, false, nil
+	res, err := pipeline.Run(po)
+	if err != nil {
+		return nil, err
+	}
+	return align.Build(res.Title, res.Circuit, res.Stages, res.Caution), nil
 }

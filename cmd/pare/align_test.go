@@ -1,8 +1,12 @@
 package main
 
 import (
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
+
+	"pare/cmd/internal/align"
 )
 
 // TestAlignCommand: pare align prints the live-set caution first, then the
@@ -29,5 +33,46 @@ func TestAlignCommand(t *testing.T) {
 	code, stdout, _ = cliRun(t, "help", "align")
 	if code != exitOK || !strings.Contains(stdout, "usage: pare align FILE") {
 		t.Errorf("help: exit %d, %q", code, stdout)
+	}
+}
+
+// TestAlignMatchesMainJob: on every example and fixture with something to
+// adjust, `pare align` gives the procedure the main job's notes.md gives:
+// the note's Alignment section is byte for byte what the align command's
+// guide writes as Markdown (the same guide, so the same text as well).
+func TestAlignMatchesMainJob(t *testing.T) {
+	var files []string
+	for _, pat := range []string{"examples/*.toml", "testdata/good/*.toml"} {
+		for _, f := range cliGlob(t, pat) {
+			if b, err := os.ReadFile(f); err == nil && strings.Contains(string(b), "adjust") {
+				files = append(files, f)
+			}
+		}
+	}
+	if len(files) < 8 {
+		t.Fatalf("only %d netlists with adjustable parts", len(files))
+	}
+	for _, f := range files {
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			dir := filepath.Join(t.TempDir(), "out")
+			if code, _, stderr := cliRun(t, f, "-o", dir); code > exitFound {
+				t.Fatalf("main job: exit %d: %s", code, stderr)
+			}
+			md, err := os.ReadFile(filepath.Join(dir, fileNote))
+			if err != nil {
+				t.Fatal(err)
+			}
+			g, err := alignGuide(f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			var want strings.Builder
+			if err := align.WriteMarkdown(&want, g); err != nil {
+				t.Fatal(err)
+			}
+			if !strings.Contains(string(md), want.String()) {
+				t.Errorf("notes.md's Alignment differs from pare align's guide; pare align gives:\n%s", want.String())
+			}
+		})
 	}
 }
