@@ -38,7 +38,16 @@ func cases() []string {
 
 func build(t *testing.T, path string) (*pipeline.Result, *align.Guide) {
 	t.Helper()
-	r, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseStages, Level: rules.LevelSignal})
+	// The main job's path: every step proven against the one before it.
+	return buildWith(t, path, pipeline.AgainstPrevious)
+}
+
+// buildWith runs the pipeline with the given step check: a refused step
+// leaves a different reduced circuit and stage order, and the guide must
+// read the same wiring either way.
+func buildWith(t *testing.T, path string, check pipeline.StepCheck) (*pipeline.Result, *align.Guide) {
+	t.Helper()
+	r, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseStages, Level: rules.LevelSignal, StepCheck: check})
 	if err != nil {
 		t.Fatalf("%s: %v", path, err)
 	}

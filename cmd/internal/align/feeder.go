@@ -21,29 +21,22 @@ func ifFeeder(c *graph.Circuit, sts []stages.Stage, ifHz float64) *graph.Part {
 	if len(cans) == 0 {
 		return nil
 	}
-	on := netsOf(cans[0])
-	for _, p := range c.Parts {
-		if !p.IsActive() {
-			continue
-		}
-		if out := p.NetOf(p.PinWithRole(graph.RoleOutput)); out != "" && slices.Contains(on, out) {
-			return p
-		}
-	}
-	return nil
+	return outputFeeder(c, cans[0])
 }
 
 // mixerDevice is the set's mixer: the device feeding the first IF
 // transformer when a stage names it a mixer or the set has ganged tuning
-// (a front end), else the first active part of a mixer stage; nil for an
-// IF strip captured on its own.
+// (a front end), else the first active part of a mixer stage that no IF
+// can drives (one that an IF can drives is an IF amplifier); nil for an IF
+// strip captured on its own.
 func mixerDevice(c *graph.Circuit, sts []stages.Stage, ifHz float64) *graph.Part {
 	if p := ifFeeder(c, sts, ifHz); p != nil && (inMixerStage(sts, p.Ref) || len(gangSections(c)) >= 2) {
 		return p
 	}
+	cans := ifTransformers(c, sts, ifHz)
 	if mix := mixerStage(sts); mix != nil {
 		for _, ref := range mix.Parts {
-			if p := c.Part(ref); p != nil && p.IsActive() {
+			if p := c.Part(ref); p != nil && p.IsActive() && !downstreamOfIF(c, cans, p) {
 				return p
 			}
 		}
@@ -84,7 +77,7 @@ func ifInto(c *graph.Circuit, sts []stages.Stage, ifHz float64) string {
 		p = ifFeeder(c, sts, ifHz)
 	}
 	if p != nil {
-		pin := p.PinWithRole(graph.RoleControl)
+		pin := signalGrid(c, p)
 		return fmt.Sprintf("%s%s (%s %s, net %s) through a small capacitor", whose, controlWord(p), p.Ref, pin, p.NetOf(pin))
 	}
 	if len(c.Inputs) > 0 {

@@ -42,7 +42,7 @@ func WriteHTML(w io.Writer, g *Guide) error {
 		b.WriteString("<table>\n<tr><th>#</th><th>inject at</th><th>frequency</th><th>level</th><th>gives</th><th>stage gain</th></tr>\n")
 		for i, in := range g.Inject {
 			fmt.Fprintf(&b, "<tr><td>%d</td><td><code>%s</code> on <code>%s</code></td><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n", i+1,
-				esc.HTML(in.Where), esc.HTML(in.Net), esc.HTML(hz(in.Freq)+freqNote(in)), esc.HTML(volts(in.Level)), esc.HTML(in.RefWhat), esc.HTML(gainText(in)))
+				esc.HTML(in.Where), esc.HTML(in.Net), esc.HTML(hz(in.Freq)+freqNote(in)), esc.HTML(levelCell(in)), esc.HTML(in.RefWhat), esc.HTML(gainCell(in)))
 		}
 		b.WriteString("</table>\n")
 	}

@@ -43,7 +43,7 @@ func ifTransformers(c *graph.Circuit, sts []stages.Stage, ifHz float64) []*graph
 			out = append(out, p)
 		}
 	}
-	return out
+	return orderCans(c, out)
 }
 
 func tunedAt(s stages.Stage, ifHz float64) bool {

@@ -34,6 +34,10 @@ type Injection struct {
 	// from fully open); Tuned says the gang was turned for the peak.
 	Gang  float64
 	Tuned bool
+	// Why, when set, says why pare gives no numbers for this row (it could
+	// not be solved, or its result is no level a bench could meet); the
+	// other rows stand.
+	Why string
 }
 
 // Options is the AC solver's setting for the row.
@@ -53,6 +57,9 @@ const (
 type point struct {
 	net, where, band string
 	mixer, detector  bool
+	// unmodelled says why the solver's figure at this point is not the
+	// stage's (a grid the device model does not drive).
+	unmodelled string
 }
 
 // injections builds the table from the output back to the input.
@@ -67,7 +74,7 @@ func injections(c *graph.Circuit, sts []stages.Stage, g *Guide) ([]Injection, st
 	for i := len(pts) - 1; i >= 0; i-- {
 		in, err := solveRow(c, sts, pts, rows, i, g)
 		if err != nil {
-			return nil, fmt.Sprintf("%s at %s: %v", pts[i].band, pts[i].net, err)
+			in = Injection{Net: pts[i].net, Where: pts[i].where, Band: pts[i].band, Freq: in.Freq, Why: err.Error()}
 		}
 		rows[i] = in
 	}
@@ -95,7 +102,7 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	osc := oscillatorOnly(sts, mixer)
 	device := func(p *graph.Part) {
 		if p != nil && !osc[p.Ref] {
-			add(controlPoint(p, p == mixer))
+			add(controlPoint(c, p, p == mixer))
 		}
 	}
 	for _, s := range sts {
@@ -119,14 +126,27 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	return pts
 }
 
-// controlPoint is an active part's control electrode; the zero point for
-// anything else.
-func controlPoint(p *graph.Part, mixer bool) point {
+// controlPoint is an active part's control electrode (the mixer's signal
+// grid, by wiring); the zero point for anything else.
+func controlPoint(c *graph.Circuit, p *graph.Part, mixer bool) point {
 	if p == nil || !p.IsActive() {
 		return point{}
 	}
 	pin := p.PinWithRole(graph.RoleControl)
-	return point{net: p.NetOf(pin), where: fmt.Sprintf("%s %s (%s)", p.Ref, controlWord(p), pin), mixer: mixer}
+	pt := point{mixer: mixer}
+	if mixer {
+		// The small-signal model drives a valve's anode current from g1
+		// alone (graph/ac), so a heptode's signal grid on g3 has no gain
+		// there: the row says so rather than quote a leak as a gain.
+		if sg := signalGrid(c, p); sg != pin {
+			if p.Kind == graph.Valve {
+				pt.unmodelled = fmt.Sprintf("not computed: pare's small-signal valve model drives the anode from %s only, and the signal grid is %s (the mixer's gain from it is not modelled)", pin, sg)
+			}
+			pin = sg
+		}
+	}
+	pt.net, pt.where = p.NetOf(pin), fmt.Sprintf("%s %s (%s)", p.Ref, controlWord(p), pin)
+	return pt
 }
 
 // classify gives each point its band: RF before the mixer, the IF from the

@@ -21,6 +21,12 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 		return in, fmt.Errorf("no output declared to refer the level to")
 	}
 	in.Freq = rowFreq(c, p.band, g)
+	if p.unmodelled != "" {
+		return in, fmt.Errorf("%s", p.unmodelled)
+	}
+	if in.RefLevel == 0 {
+		return in, fmt.Errorf("not computed: its level is referred to the row at %s, which pare could not compute", in.RefNet)
+	}
 	if p.band == "RF" {
 		in.Gang, in.Tuned = peakGang(c, p.net, in.RefNet, in.Freq), true
 	}
@@ -28,8 +34,8 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	if err != nil {
 		return in, err
 	}
-	if h == 0 {
-		return in, fmt.Errorf("nothing reaches %s from here in the small-signal circuit", in.RefNet)
+	if h == 0 || math.IsNaN(h) || math.IsInf(h, 0) {
+		return in, fmt.Errorf("not computed: nothing reaches %s from here in the small-signal circuit", in.RefNet)
 	}
 	in.Level = in.RefLevel / h
 	in.GainTo = gainTarget(pts, i, in.RefNet)
@@ -39,7 +45,7 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	if p.mixer {
 		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF row before it is referred to this row's level"
 	}
-	in.GainNote = join(in.GainNote, implausible(in))
+	in.Why = implausible(in)
 	return in, nil
 }
 
@@ -52,23 +58,18 @@ const (
 )
 
 // implausible says why a row's numbers cannot be met on the bench: the
-// capture, not the set, is then at fault, and the table says so instead of
-// quoting the number bare.
+// capture, not the set, is then at fault, and the row says so instead of
+// quoting the numbers.
 func implausible(in Injection) string {
 	switch {
+	case in.Gain == 0 || math.IsNaN(in.Gain) || math.IsInf(in.Gain, 0):
+		return fmt.Sprintf("no figure: nothing reaches %s from here in the small-signal circuit", in.GainTo)
 	case in.Gain > maxGain:
-		return "not finite on a real set: a tuned circuit in the capture has no loss (give its coil a q)"
+		return fmt.Sprintf("no figure: the gain to %s would be ×%.3g, not finite on a real set: a tuned circuit in the capture has no loss (give its coil a q)", in.GainTo, in.Gain)
 	case in.Level > maxGenVolts:
-		return "more than a generator gives: as captured next to nothing passes (see pare dc for the bias)"
+		return fmt.Sprintf("no figure: it would take %s, more than a generator gives: as captured next to nothing passes (see pare dc for the bias)", volts(in.Level))
 	}
 	return ""
-}
-
-func join(a, b string) string {
-	if a == "" || b == "" {
-		return a + b
-	}
-	return a + "; " + b
 }
 
 // Response is |V(out)/V(in)| with in driven by an ideal source at f hertz,

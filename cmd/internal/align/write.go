@@ -81,7 +81,7 @@ func WriteMarkdown(w io.Writer, g *Guide) error {
 		b.WriteString("| # | inject at | frequency | level | gives | stage gain |\n|---|---|---|---|---|---|\n")
 		for i, in := range g.Inject {
 			fmt.Fprintf(&b, "| %d | %s | %s | %s | %s | %s |\n", i+1, cellCode(in.Where)+" on "+cellCode(in.Net),
-				hz(in.Freq)+freqNote(in), volts(in.Level), esc.MarkdownCell(in.RefWhat), esc.MarkdownCell(gainText(in)))
+				hz(in.Freq)+freqNote(in), levelCell(in), esc.MarkdownCell(in.RefWhat), esc.MarkdownCell(gainCell(in)))
 		}
 	}
 	if g.InjectErr != "" {
@@ -172,8 +172,27 @@ func warnLines(ws []string) []string {
 }
 
 func injectLine(in Injection) string {
+	if in.Why != "" {
+		return fmt.Sprintf("%s on %s: %s %s: %s", in.Where, in.Net, in.Band, hz(in.Freq)+freqNote(in), in.Why)
+	}
 	return fmt.Sprintf("%s on %s: %s %s at %s gives %s; stage gain %s",
 		in.Where, in.Net, in.Band, hz(in.Freq)+freqNote(in), volts(in.Level), in.RefWhat, gainText(in))
+}
+
+// levelCell and gainCell are a table row's level and gain, or for a row
+// pare gives no numbers for, a dash and why.
+func levelCell(in Injection) string {
+	if in.Why != "" {
+		return "—"
+	}
+	return volts(in.Level)
+}
+
+func gainCell(in Injection) string {
+	if in.Why != "" {
+		return in.Why
+	}
+	return gainText(in)
 }
 
 func freqNote(in Injection) string {
