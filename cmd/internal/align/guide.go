@@ -98,6 +98,7 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 	g.FM = fmDetector(sts) || g.IF >= fmIFMin
 	g.ifSteps(c, sts)
 	g.tracking(c, sts)
+	g.coverage(c, sts)
 	for i := range g.Steps {
 		g.Steps[i].N = i + 1
 	}

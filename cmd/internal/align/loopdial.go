@@ -75,10 +75,10 @@ func (g *Guide) loopTracking(c *graph.Circuit, sts []stages.Stage, osc *stages.S
 		{Where: "gang fully open (high end)", Sig: sMax, Osc: oMax},
 	}
 	g.mistrack(osc.Name, sigSt, oMin, oMax, sMin, sMax)
-	pts := stages.TrackingPoints(sMin, sMax)
-	from := fmt.Sprintf("the customary tracking points at 6 %% and 91.5 %% of %s's range %s to %s, docs/references.md §2; oscillator %s: loop, 0° of loop phase",
-		sigSt, hz(sMin), hz(sMax), osc.Name)
-	g.trackSteps(c, ot, sig, pts[0], pts[2], from)
+	lo, hi, of := dialPoints(c, sigSt, sMin, sMax)
+	from := fmt.Sprintf("the customary tracking points at 6 %% and 91.5 %% of %s (common practice, docs/references.md §2); oscillator %s: loop, 0° of loop phase",
+		of, osc.Name)
+	g.trackSteps(c, ot, sig, lo, hi, from)
 	return ""
 }
 
