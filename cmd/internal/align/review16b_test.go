@@ -91,3 +91,21 @@ func TestCoverageMissesBand(t *testing.T) {
 		t.Errorf("no warning that the aerial circuit misses 530 kHz: %q", g.Warnings)
 	}
 }
+
+// TestTableStatesAssumptions: the table says what the solver assumes of
+// the generator (an ideal source straight on the point: the reviewer's
+// ngspice found set A's aerial at 545 kHz so driven, 528 kHz unloaded) and
+// where the gang stood for an RF row, as a share of its travel from fully
+// open (graph/value.Range.At: 0 is the least capacitance).
+func TestTableStatesAssumptions(t *testing.T) {
+	_, g := build(t, review("c1-valve-superhet"))
+	var b strings.Builder
+	if err := align.WriteText(&b, g); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"generator of zero source impedance", "of the way from fully open to fully meshed"} {
+		if !strings.Contains(b.String(), want) {
+			t.Errorf("the table does not say %q:\n%s", want, b.String())
+		}
+	}
+}

@@ -35,7 +35,7 @@ func WriteText(w io.Writer, g *Guide) error {
 	for _, l := range closing {
 		fmt.Fprintf(&b, "%s\n", l)
 	}
-	b.WriteString("\nSignal injection, from the output back to the input (levels from the AC solver on the whole circuit):\n")
+	fmt.Fprintf(&b, "\nSignal injection, from the output back to the input (levels from the AC solver on the whole circuit; %s):\n", sourceNote)
 	for i, in := range g.Inject {
 		fmt.Fprintf(&b, "  %d. %s\n", i+1, injectLine(in))
 	}
@@ -76,7 +76,7 @@ func WriteMarkdown(w io.Writer, g *Guide) error {
 	for _, l := range closing {
 		fmt.Fprintf(&b, "- %s\n", esc.Markdown(l))
 	}
-	b.WriteString("\n### Signal injection\n\nFrom the output back to the input; levels from the AC solver on the whole circuit as captured.\n\n")
+	fmt.Fprintf(&b, "\n### Signal injection\n\nFrom the output back to the input; levels from the AC solver on the whole circuit as captured; %s.\n\n", esc.Markdown(sourceNote))
 	if len(g.Inject) > 0 {
 		b.WriteString("| # | inject at | frequency | level | gives | stage gain |\n|---|---|---|---|---|---|\n")
 		for i, in := range g.Inject {
@@ -195,9 +195,15 @@ func gainCell(in Injection) string {
 	return gainText(in)
 }
 
+// sourceNote says what the levels assume of the generator: the solver
+// drives each point from an ideal source, so the aerial row is the level
+// on the aerial terminal itself, not the generator's setting behind a
+// dummy aerial.
+const sourceNote = "each level is the voltage on the point itself, driven by a generator of zero source impedance (an ideal source in the solver); through a dummy aerial or a coupling capacitor the generator must be set higher, and the aerial circuit tunes a little lower"
+
 func freqNote(in Injection) string {
 	if in.Tuned {
-		return fmt.Sprintf(" (set tuned to it, gang at %.0f %% of travel)", in.Gang*100)
+		return fmt.Sprintf(" (set tuned to it: gang %.0f %% of the way from fully open to fully meshed)", in.Gang*100)
 	}
 	return ""
 }
