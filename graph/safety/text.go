@@ -105,13 +105,24 @@ const (
 // liveLine opens the caution of a DC voltage chart and of a readings
 // report: unlike everything else pare prints, these invite work on a set
 // that is switched on (common practice: one hand, clip the negative lead
-// first with the set off).
-const liveLine = "These voltages are measured with the set switched on. Clip the meter's negative lead to chassis with the set off, then probe with one hand."
+// first with the set off). A battery set's chart says the same without the
+// mains and HT wording (batteryLiveLine): its danger is a shorted battery.
+const (
+	liveLine        = "These voltages are measured with the set switched on. Clip the meter's negative lead to chassis with the set off, then probe with one hand."
+	batteryLiveLine = "These voltages are measured with the set on (battery connected). Clip the meter's negative lead to the battery negative before you connect the battery, and keep the probes from bridging the battery's leads."
+)
 
 // Readings is the caution above a DC voltage chart or a readings report:
-// the live-set line, then the class's own lines and the line on codes (the
-// line about the reduced diagram does not apply to a chart of the whole set).
-func (c Caution) Readings() []string { return c.live(liveLine) }
+// the class's line on measuring a working set (a battery set's without
+// the mains and HT wording), then its own lines and the line on codes (the
+// line about the reduced diagram does not apply to a chart of the whole
+// set).
+func (c Caution) Readings() []string {
+	if c.Class == Battery {
+		return c.live(batteryLiveLine)
+	}
+	return c.live(liveLine)
+}
 
 // live is the class's lines less the small-signal one, after first.
 func (c Caution) live(first string) []string {
@@ -159,9 +170,12 @@ type classText struct {
 var texts = [...]classText{
 	MainsHT: {
 		heading:  "Caution: mains-powered and valve equipment can kill.",
-		lines:    []string{htLine, reservoirLine, acdcLine, slowLine},
-		sheet:    "Caution: mains and valve HT can kill; capacitors stay charged and the chassis may be live. Use an isolation transformer and follow local codes and licensed practice.",
-		sentence: "Valve sets carry lethal HT and may have a live chassis; capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice.",
+		// No live-chassis line: the netlist shows no mains input without
+		// a transformer and no heater chain (that is LiveChassis), and the
+		// README promises that caution only where the circuit shows it.
+		lines:    []string{htLine, reservoirLine, slowLine},
+		sheet:    "Caution: mains and valve HT can kill; capacitors stay charged after switch-off. Follow local codes and licensed practice.",
+		sentence: "Valve sets carry lethal HT; capacitors stay charged after switch-off. Follow local codes and licensed practice.",
 	},
 	LiveChassis: {
 		heading: "Caution: this is an AC/DC set: its chassis can be live at mains potential, and its HT can kill.",

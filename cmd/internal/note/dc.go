@@ -88,7 +88,7 @@ func writeDC(b *bytes.Buffer, n *Note) {
 		fmt.Fprintf(b, "The DC operating point was not found: %s\n\n", mdText(d.Err))
 		return
 	}
-	b.WriteString("**These readings are taken on a live set**: the caution at the top of this note applies to every one.")
+	b.WriteString("**These readings are taken with the set working**: the caution at the top of this note applies to every one.")
 	for _, l := range d.Caution {
 		fmt.Fprintf(b, " %s", mdText(l))
 	}
