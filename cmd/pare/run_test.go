@@ -156,7 +156,7 @@ func TestMainJobOnExamples(t *testing.T) {
 				"## Reduction log", "## Verification", "**Verification passed**",
 				"](reduced.svg)", "](faded.svg)", "## Parts before → after",
 				// The voltage chart carries the live-set caution (common practice).
-				"## DC voltage chart", "taken on a live set", "| part | electrode | net | DC | meter reads |",
+				"## DC voltage chart", "taken with the set working", "| part | electrode | net | DC | meter reads |",
 				"| original | " + strconv.Itoa(len(full.Parts)) + " | " + strconv.Itoa(len(full.Nets)) + " |",
 				"| reduced | " + strconv.Itoa(len(reduced.Parts)) + " | " + strconv.Itoa(len(reduced.Nets)) + " |",
 			} {

@@ -169,7 +169,7 @@ type classText struct {
 
 var texts = [...]classText{
 	MainsHT: {
-		heading:  "Caution: mains-powered and valve equipment can kill.",
+		heading: "Caution: mains-powered and valve equipment can kill.",
 		// No live-chassis line: the netlist shows no mains input without
 		// a transformer and no heater chain (that is LiveChassis), and the
 		// README promises that caution only where the circuit shows it.
