@@ -92,6 +92,14 @@ type Circuit struct {
 	// labels such a return with its rail, never as chassis (rails.go).
 	Rails []*Net `json:"rails,omitempty"`
 
+	// DetectorLoads holds, per detector diode section ("REF.PIN" of the
+	// anode), the DC load its rectified current returns through in the
+	// circuit as written (graph/ac.KeepDetectorLoads). A reduction that
+	// grounds a filter line for the signal does not change the wiring DC
+	// flows through, so the reduced circuit's detectors keep these loads.
+	// Never written to a netlist; shared (read only) by clones.
+	DetectorLoads map[string]float64 `json:"-"`
+
 	// Comments written above top-level keys, kept so `pare fmt` does not throw
 	// away what the user typed. Keyed by key path ("title", "parts.R1", ...).
 	Comments map[string]Comment `json:"-"`

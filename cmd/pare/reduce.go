@@ -25,7 +25,7 @@ type reduceOpts struct {
 func init() {
 	register(&command{
 		name:    "reduce",
-		args:    "FILE [-o OUT.toml] [--level tidy|signal|ideal] [--focus REF,...] [--ratio 0.1] [--json] [--check]",
+		args:    "FILE [-o OUT.toml] [--level tidy|signal|ideal] [--focus REF,...] [--ratio 0.1] [--json] [--check=false]",
 		summary: "reduce a netlist to its small-signal path, logging every step with its reason",
 		detail: `Applies the reduction rules to a fixpoint and prints the log: one line per
 step with the rule, the parts concerned (file:line) and the justification with
@@ -38,8 +38,10 @@ ideal also shorts coupling capacitors and opens chokes that at least match
 what they shunt. --focus keeps only the stage(s) around the named parts or
 nets; nets crossing the cut become ports. --ratio sets the factor a reactance
 must be below (bypass) or above (choke) the impedance it works against.
---check compares the circuit by AC analysis before and after each step and
-refuses steps that change the signal behaviour (slower).
+Each step is proven as the main job proves it: the circuit is compared by AC
+analysis before and after it, and a step that changes the signal behaviour is
+refused, so this is the reduction every other command shows. --check=false
+applies every step unproven (faster, and not what the other commands use).
 
 -o writes the reduced netlist (itself a valid input); the input file is never
 changed. The reduced circuit is a small-signal equivalent only: it is not a
@@ -52,7 +54,7 @@ wiring diagram and says nothing about DC voltages.
 			fs.StringVar(&o.focus, "focus", "", "comma-separated refs or net names: reduce only the stage(s) around them")
 			finiteVar(fs, &o.ratio, "ratio", rules.DefaultRatio, "bypass ratio: |Xc| ≤ ratio·|Z| makes a bypass")
 			fs.BoolVar(&o.json, "json", false, "print the log and the reduced netlist as JSON")
-			fs.BoolVar(&o.check, "check", false, "verify each step by AC analysis and refuse steps that change the signal")
+			fs.BoolVar(&o.check, "check", true, "verify each step by AC analysis and refuse steps that change the signal (false: apply every step unproven)")
 		}, runReduce),
 	})
 }
@@ -72,7 +74,7 @@ func ruleTableHelp() string {
 func runReduce(e *env, o *reduceOpts, args []string) int {
 	if len(args) != 1 {
 		fmt.Fprintln(e.stderr, "pare reduce: give exactly one netlist file")
-		fmt.Fprintln(e.stderr, "usage: pare reduce FILE [-o OUT.toml] [--level tidy|signal|ideal] [--focus REF,...] [--ratio 0.1] [--json] [--check]")
+		fmt.Fprintln(e.stderr, "usage: pare reduce FILE [-o OUT.toml] [--level tidy|signal|ideal] [--focus REF,...] [--ratio 0.1] [--json] [--check=false]")
 		return exitBad
 	}
 	lvl, err := rules.ParseLevel(o.level)
@@ -100,8 +102,8 @@ func runReduce(e *env, o *reduceOpts, args []string) int {
 			return exitBad
 		}
 	}
-	if o.check {
-		po.StepCheck = pipeline.AgainstPrevious
+	if !o.check {
+		po.StepCheck = pipeline.NoStepCheck
 	}
 	res, err := pipeline.Run(po)
 	if loadFailed(e, path, err) {

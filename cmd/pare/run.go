@@ -190,8 +190,8 @@ func oneJob(e *env, path, dir string, cfg jobConfig) (int, pack) {
 func jobOptions(path string, cfg jobConfig) pipeline.Options {
 	po := pipeline.Options{Path: path, Level: cfg.level, Verify: !cfg.noVerify, Compare: cfg.compare,
 		Views: []render.View{render.Reduced, render.Faded}, Style: cfg.style, Page: cfg.paper}
-	if !cfg.noVerify {
-		po.StepCheck = pipeline.AgainstPrevious
+	if cfg.noVerify {
+		po.StepCheck = pipeline.NoStepCheck
 	}
 	return po
 }

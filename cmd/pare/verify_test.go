@@ -74,7 +74,9 @@ func TestVerifyPasses(t *testing.T) {
 func TestVerifyIdealEdge(t *testing.T) {
 	path := writeTemp(t, "edge.toml", edgeCoupling)
 	wantDB, wantDeg := edgeNumbers()
-	code, out, _ := cliRun(t, "verify", "--level", "ideal", "--json", path)
+	// The unproven reduction: the per-step proof (the default, the main
+	// job's) refuses the edge step, so only --check=false shows its error.
+	code, out, _ := cliRun(t, "verify", "--level", "ideal", "--check=false", "--json", path)
 	if code != exitFound {
 		t.Fatalf("exit %d, want 1 for a reduction out of tolerance:\n%s", code, out)
 	}
@@ -101,8 +103,14 @@ func TestVerifyIdealEdge(t *testing.T) {
 		t.Errorf("pair %+v, want in→out %.4f dB %.3f° at 20 Hz", p, wantDB, wantDeg)
 	}
 	// A wider phase tolerance lets it pass.
-	if code, out, _ := cliRun(t, "verify", "--level", "ideal", "--tol-deg", "6", path); code != exitOK {
+	if code, out, _ := cliRun(t, "verify", "--level", "ideal", "--check=false", "--tol-deg", "6", path); code != exitOK {
 		t.Errorf("--tol-deg 6: exit %d\n%s", code, out)
+	}
+	// By default verify judges the main job's reduction: the step is
+	// refused, named, and what is left passes, as the main job says.
+	code, out, _ = cliRun(t, "verify", "--level", "ideal", path)
+	if code != exitOK || !strings.Contains(out, "refused: step") || !strings.Contains(out, "coupling-short (C1)") {
+		t.Errorf("default verify: exit %d, want 0 with the refused step named:\n%s", code, out)
 	}
 }
 

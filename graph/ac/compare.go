@@ -186,6 +186,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 		o.Points = 100
 	}
 	rep := &Report{TolDB: o.TolDB, TolDeg: o.TolDeg, OK: true, Pairs: []Pair{}}
+	reduced = withDetectorLoads(orig, reduced)
 	qs := quantities(orig, reduced, rep)
 	dc := [2]*dcShare{{}, {}}
 	qs = withoutHeldPorts(orig, qs, o.Options, rep, dc[0])

@@ -13,12 +13,14 @@ import (
 
 // dcNet is the circuit as DC sees it: windings and closed contacts are
 // shorts, capacitors and the diodes themselves are open, amplifying parts
-// draw no current from this network, and the nets at AC ground by role
-// (ground, supply, heater, bias) are the one return, as they are one node
-// for the solver: a rail is a stiff source, and a decoupled bias line (an
-// AGC line) holds still at the detector's audio and carries its share of
-// the load. A reduction keeps these nets (rail-ground only states their
-// role), so a detector's load is the same before and after it.
+// draw no current from this network, and the nets that return DC by role
+// (ground, supply, heater, a bias supply with a voltage: dcReturn) are the
+// one return, as they are one node for the solver: a rail is a stiff
+// source. A bias line with no voltage of its own (an AGC line) returns no
+// DC: its filter resistor loads the detector's audio, not its DC. A reduction that grounds a filter line (a bypassed AGC line)
+// would put its resistor across the detector here, though the line's
+// capacitor passes no DC: so the loads are taken once from the circuit as
+// written (KeepDetectorLoads) and the reduced circuit keeps them.
 type dcNet struct {
 	uf      *graph.NamedSets
 	node    map[string]int // representative net -> unknown; -1 the return
@@ -38,7 +40,7 @@ const (
 func newDCNet(c *graph.Circuit) *dcNet {
 	uf := &graph.NamedSets{}
 	for _, n := range c.Nets {
-		if n.Role.IsACGround() {
+		if dcReturn(n) {
 			uf.Union(groundName, n.Name)
 		}
 	}
@@ -170,4 +172,119 @@ func (d *dcNet) solveLoad(na, nb int) float64 {
 		return math.Inf(1)
 	}
 	return r
+}
+
+// detectorLoad is the DC load of one section of a detector diode: the one
+// kept from the circuit as written (KeepDetectorLoads), else the one this
+// circuit's DC paths give.
+func (st *stamper) detectorLoad(p *graph.Part, anodes []string, a, cathode string) float64 {
+	l, ok := st.c.DetectorLoads[p.Ref+"."+a]
+	if !ok {
+		if st.dc.net == nil {
+			st.dc.net = newDCNet(st.c)
+		}
+		l = st.dc.net.load(p.NetOf(a), p.NetOf(cathode))
+	}
+	return float64(sharing(p, anodes, a)) * l
+}
+
+// sharing counts the sections on anode a's net: they share its load, so
+// each takes it as many times over.
+func sharing(p *graph.Part, anodes []string, a string) int {
+	shared := 0
+	for _, b := range anodes {
+		if p.NetOf(b) == p.NetOf(a) {
+			shared++
+		}
+	}
+	return shared
+}
+
+// dcReturn says whether a net is the DC return for a detector's current: a
+// rail or heater supply (a stiff source), or a bias supply with a voltage
+// of its own. A bias net without one (an AGC line) is held by its filter
+// capacitor, which passes no DC: the detector's current returns only
+// through the resistors that reach a real return from it.
+func dcReturn(n *graph.Net) bool {
+	switch n.Role {
+	case graph.Ground, graph.Supply, graph.Heater:
+		return true
+	case graph.Bias:
+		return n.Volts != 0
+	}
+	return false
+}
+
+// diodeSections names a diode's anodes and cathode as the stamper stamps
+// them (a double diode valve has two anodes on one cathode).
+func diodeSections(p *graph.Part) (anodes []string, cathode string) {
+	switch {
+	case p.Kind == graph.Diode:
+		return []string{"a"}, "k"
+	case p.Kind == graph.Valve && p.Type == "diode":
+		return []string{"a"}, "k"
+	case p.Kind == graph.Valve && p.Type == "double-diode":
+		return []string{"a1", "a2"}, "k"
+	}
+	return nil, ""
+}
+
+// KeepDetectorLoads records on c the DC load of every diode section as c
+// is wired (the circuit as written, before any reduction), so the reduced
+// circuit's detectors keep it: grounding an AGC line for the signal puts
+// its filter resistor across the detector for AC, not for DC (the line's
+// capacitor passes no DC), and the detector's rd = Rdc/2 rests on the DC
+// load (docs/devices.md).
+func KeepDetectorLoads(c *graph.Circuit) {
+	var d *dcNet
+	loads := map[string]float64{}
+	for _, p := range c.Parts {
+		anodes, cathode := diodeSections(p)
+		if len(anodes) == 0 || p.Type == "varicap" {
+			continue
+		}
+		if d == nil {
+			d = newDCNet(c)
+		}
+		for _, a := range anodes {
+			loads[p.Ref+"."+a] = d.load(p.NetOf(a), p.NetOf(cathode))
+		}
+	}
+	c.DetectorLoads = loads
+}
+
+// DetectorLoad is the DC load on a diode's first anode in c (all the
+// sections on that anode together): the one kept from the circuit as
+// written, else computed on c; +Inf when none. The stage figures print it,
+// so they show the load the solver's rd rests on.
+func DetectorLoad(c *graph.Circuit, p *graph.Part) float64 {
+	anodes, cathode := diodeSections(p)
+	if len(anodes) == 0 {
+		return math.Inf(1)
+	}
+	if l, ok := c.DetectorLoads[p.Ref+"."+anodes[0]]; ok {
+		return l
+	}
+	return newDCNet(c).load(p.NetOf(anodes[0]), p.NetOf(cathode))
+}
+
+// withDetectorLoads is reduced with the detector loads of orig when it
+// keeps none of its own (a caller that reduced without the pipeline): the
+// reduced circuit's detectors are solved on the original wiring's DC
+// loads, as the pipeline's are. orig is not changed.
+func withDetectorLoads(orig, reduced *graph.Circuit) *graph.Circuit {
+	if reduced.DetectorLoads != nil {
+		return reduced
+	}
+	src := orig
+	if src.DetectorLoads == nil {
+		src = orig.Clone()
+		KeepDetectorLoads(src)
+	}
+	if len(src.DetectorLoads) == 0 {
+		return reduced
+	}
+	out := reduced.Clone()
+	out.DetectorLoads = src.DetectorLoads
+	return out
 }

@@ -164,16 +164,7 @@ func (st *stamper) diode(p *graph.Part, sub string, anodes []string, cathode str
 	for _, a := range anodes {
 		load := math.Inf(1)
 		if _, own := p.Param("rd"); !own && p.Type != "varicap" {
-			if st.dc.net == nil {
-				st.dc.net = newDCNet(st.c)
-			}
-			shared := 0
-			for _, b := range anodes {
-				if p.NetOf(b) == p.NetOf(a) {
-					shared++
-				}
-			}
-			load = float64(shared) * st.dc.net.load(p.NetOf(a), p.NetOf(cathode))
+			load = st.detectorLoad(p, anodes, a, cathode)
 		}
 		piece := ""
 		if sub != "" {

@@ -232,7 +232,8 @@ func (x *figCtx) neighbourhood(depth int) *graph.Circuit {
 		frontier = next
 	}
 	c := x.w.c
-	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions}
+	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
+		DetectorLoads: c.DetectorLoads}
 	idx := make([]int, 0, len(in))
 	for ci := range in {
 		idx = append(idx, ci)

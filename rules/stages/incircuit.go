@@ -234,7 +234,8 @@ func (x *figCtx) netName(id int) string {
 // (a coupling taken out, a capacitor made a full bypass).
 func withPart(c *graph.Circuit, p *graph.Part) *graph.Circuit {
 	out := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
-		Inputs: c.Inputs, Outputs: c.Outputs, Nets: c.Nets, Parts: make([]*graph.Part, len(c.Parts))}
+		Inputs: c.Inputs, Outputs: c.Outputs, Nets: c.Nets, Parts: make([]*graph.Part, len(c.Parts)),
+		DetectorLoads: c.DetectorLoads}
 	for i, q := range c.Parts {
 		out.Parts[i] = q
 		if q.Ref == p.Ref {

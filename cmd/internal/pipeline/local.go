@@ -183,7 +183,8 @@ func samePart(p, q *graph.Part) bool {
 // part with a live net was left out. The crystals left out keep their
 // resonances as named frequencies, so the sweep visits the same points.
 func subCircuit(c *graph.Circuit, dead map[string]bool, in func(*graph.Circuit, string) bool) (*graph.Circuit, bool) {
-	s := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: maps.Clone(c.Freqs)}
+	s := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: maps.Clone(c.Freqs),
+		DetectorLoads: c.DetectorLoads} // a cut keeps the detectors' loads: DC flows through the whole set
 	if s.Freqs == nil {
 		s.Freqs = map[string]float64{}
 	}

@@ -51,18 +51,24 @@ func (p Phase) String() string {
 // StepCheck says how each tentative rewrite step is proven.
 type StepCheck int
 
-// Step checks.
+// Step checks. The zero value proves each step against the circuit before
+// it: every command that shows a reduction (the main job, `stages`,
+// `reduce`, `verify`, `draw`, `dc`, `sweep --reduced`) then works on the
+// same reduced circuit, the one whose unsound steps were refused, so the
+// figures `stages` prints are the main job's and `verify` judges what the
+// main job judged. Only an explicit choice gives another reduction.
 const (
-	// NoStepCheck applies every step the rules offer.
-	NoStepCheck StepCheck = iota
 	// AgainstPrevious compares the circuit after a step with the one
 	// before it and refuses the step when they differ beyond tolerance
-	// (the main job, `reduce --check`).
-	AgainstPrevious
+	// (the default).
+	AgainstPrevious StepCheck = iota
 	// AgainstOriginal compares the circuit after each step with the
 	// original, so small changes cannot add up unseen, and keeps the worst
 	// pair of every step (`verify --steps`).
 	AgainstOriginal
+	// NoStepCheck applies every step the rules offer (`--no-verify`,
+	// `reduce --check=false`): a reduction nobody proved.
+	NoStepCheck
 )
 
 // Options says what to run. The zero value of Until runs every phase.
@@ -73,8 +79,8 @@ type Options struct {
 	// Reduction.
 	Level       rules.Level
 	Focus       []string
-	BypassRatio float64 // 0: rules.DefaultRatio
-	StepCheck   StepCheck
+	BypassRatio float64   // 0: rules.DefaultRatio
+	StepCheck   StepCheck // zero: AgainstPrevious
 	// wholeSteps proves each step on the whole circuit instead of the
 	// groups it touched (local.go); tests set it to show both agree.
 	wholeSteps bool
@@ -215,6 +221,11 @@ func (r *Result) bias(Options) error {
 
 // reduce is the one call of the rewrite engine in pare's commands.
 func (r *Result) reduce(o Options) error {
+	// The detectors' DC loads are the wiring's, not the reduced circuit's
+	// (an AGC line grounded for the signal carries no DC): taken once here,
+	// kept by every clone, so each step and the stage figures solve the
+	// detector the original has.
+	ac.KeepDetectorLoads(r.Circuit)
 	ro := rules.Options{Level: o.Level, Focus: o.Focus, BypassRatio: o.BypassRatio}
 	if o.StepCheck != NoStepCheck {
 		ro.Check = r.stepChecker(o.StepCheck, o.wholeSteps)
