@@ -4,6 +4,7 @@ import (
 	"crypto/sha256"
 	"errors"
 	"fmt"
+	"maps"
 	"sort"
 	"strings"
 
@@ -285,8 +286,9 @@ func (dr *driver) try(r *Rule, m *Plan) (bool, error) {
 		}
 	}
 	var before *graph.Circuit
+	var groundedBefore map[string]bool
 	if dr.o.Check != nil {
-		before = dr.x.c.Clone()
+		before, groundedBefore = dr.x.c.Clone(), maps.Clone(dr.x.grounded)
 	}
 	dr.x.dropped = nil
 	st := r.Apply(dr.x, m)
@@ -300,6 +302,9 @@ func (dr *driver) try(r *Rule, m *Plan) (bool, error) {
 	if dr.o.Check != nil {
 		if err := dr.o.Check(before, dr.x.c, &st); err != nil {
 			dr.x.c = before // a clone: its index is built afresh on first use
+			// A refused step grounded nothing: the log's AC-ground list
+			// (and the note's "At AC ground") must not name its net.
+			dr.x.grounded = groundedBefore
 			st.Refused = err.Error()
 			st.N = len(dr.log.Steps) + 1
 			dr.log.Steps = append(dr.log.Steps, st)

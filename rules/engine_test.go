@@ -107,6 +107,13 @@ func TestCheckRefuses(t *testing.T) {
 	if r.Part("C1") == nil || r.Net("x") == nil {
 		t.Errorf("a refused step must not be applied")
 	}
+	// Nor may the log name its net as AC ground (the note prints this list
+	// under "At AC ground"): failed before, issue 10 item 9.
+	for _, n := range log.ACGround {
+		if n == "x" {
+			t.Errorf("net x listed at AC ground though the bypass that grounds it was refused: %v", log.ACGround)
+		}
+	}
 	if log.Applied() != len(log.Steps)-1 {
 		t.Errorf("Applied() = %d of %d", log.Applied(), len(log.Steps))
 	}

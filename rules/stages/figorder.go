@@ -59,6 +59,8 @@ var figureNames = []figName{
 	{name: "z_in", label: "Zin"},
 	{name: "z_out", label: "Zout"},
 	{name: "r_load", label: "r load"},
+	{name: "r_load_ac", label: "r load AC"},
+	{name: "ac_dc_ratio", label: "AC/DC load"},
 	{name: "r_out", label: "r out"},
 	{name: "r_in", label: "r in"},
 	{name: "r", label: "r"},

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/ac"
 	"pare/graph/figure"
 )
 
@@ -21,7 +22,9 @@ var (
 	byWienGain   = figure.ByFormula("A ≥ 1 + R1/R2 + C2/C1")
 	byChoke      = figure.ByFormula("fc = 1/(2π√(LC2))")
 	bySmoothRC   = figure.ByFormula("fc = 1/(2πRC2)")
-	byLoadR      = figure.BySolver("DC resistance to AC ground, nodal analysis", "")
+	byLoadR      = figure.BySolver("resistance to AC ground, nodal analysis", "")
+	byLoadDC     = figure.BySolver("DC load through the set's DC paths, nodal analysis (the solver's detector takes rd = Rdc/2)", "")
+	byACDC       = figure.ByFormula("m ≈ Rac/Rdc")
 )
 
 // calcRC: τ = RC and the corner fc = 1/(2πRC) (docs/references.md §4). use =
@@ -74,23 +77,61 @@ func calcRC(x *figCtx) {
 	}
 }
 
-// detectorLoad is a diode detector's load: everything resistive from its
-// output to ground, the load resistor and the filter and volume control
-// beyond it. It returns r when no such network is found.
+// detectorLoad is a diode detector's DC load, the one figure the note
+// prints and the solver's detector model uses (rd = Rdc/2): the load kept
+// from the circuit as written (ac.DetectorLoad), so a filter line grounded
+// for the signal does not count as a DC return. Beside it the AC load, the
+// resistance to AC ground at the detector's output in the reduced circuit
+// (what the audio sees), and their ratio. It returns r when no diode or no
+// load is found.
 func (x *figCtx) detectorLoad(r float64) float64 {
 	cs := x.parts("c")
 	if len(cs) == 0 {
 		return r
 	}
+	rdc := 0.0
+	if i := x.index("D"); i >= 0 {
+		if l := ac.DetectorLoad(x.w.c, x.w.parts[x.m.parts[i]]); l > 0 && !math.IsInf(l, 0) {
+			rdc = l
+		}
+	}
+	rac := 0.0
 	for j := range cs[0].Pins {
 		if id := x.w.pinNet(x.partIndex(cs[0]), cs[0].Pins[j].Name); id != groundNet {
-			if dc := resistanceToGround(x.w, id); dc > 0 {
-				r = dc
-				x.set("r_load", figure.Ohm, dc, byLoadR)
+			if v := resistanceToGround(x.w, id); v > 0 {
+				rac = v
 			}
 		}
 	}
-	return r
+	if rdc == 0 {
+		rdc = rac
+	}
+	if rdc == 0 {
+		return r
+	}
+	x.set("r_load", figure.Ohm, rdc, byLoadDC)
+	if rac > 0 && rac < rdc*(1-1e-6) {
+		x.set("r_load_ac", figure.Ohm, rac, byLoadR)
+		x.checkClipping(rac / rdc)
+	}
+	return rdc
+}
+
+// clipDepth is the deepest modulation a detector should follow without
+// clipping the troughs: broadcast programme peaks reach 80 % and more
+// (common practice, no source).
+const clipDepth = 0.8
+
+// checkClipping: a detector whose audio load is below its DC load cuts the
+// troughs of modulation deeper than about Rac/Rdc (common practice: the
+// peak modulation depth a diode detector follows without clipping is about
+// the ratio of its AC load to its DC load).
+func (x *figCtx) checkClipping(ratio float64) {
+	x.set("ac_dc_ratio", figure.Ratio, ratio, byACDC)
+	if ratio < clipDepth {
+		x.flag("AC/DC load ratio %.2f: modulation deeper than about %.0f %% is clipped (Rac/Rdc below %.0f %%)",
+			ratio, 100*ratio, 100*clipDepth)
+	}
 }
 
 // checkAGC: common practice, no source: an AGC line wants roughly
