@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"pare/graph"
+	"pare/graph/device"
 )
 
 // The DC load of a detector diode: the resistance its rectified current
@@ -287,4 +288,29 @@ func withDetectorLoads(orig, reduced *graph.Circuit) *graph.Circuit {
 	out := reduced.Clone()
 	out.DetectorLoads = src.DetectorLoads
 	return out
+}
+
+// KeptDetectorRd is the rd the solver gives diode p of c from the loads
+// kept from the circuit as written, when every section takes the same one:
+// written into a reduced netlist as the diode's own rd, the file solves as
+// the reduced circuit does (loaded alone, it would take its detector load
+// from its own, reduced, DC paths). ok is false for a diode with its own
+// rd, without kept loads, or whose sections differ.
+func KeptDetectorRd(c *graph.Circuit, p *graph.Part) (rd float64, ok bool) {
+	if _, own := p.Param("rd"); own || c.DetectorLoads == nil {
+		return 0, false
+	}
+	anodes, _ := diodeSections(p)
+	for i, a := range anodes {
+		l, kept := c.DetectorLoads[p.Ref+"."+a]
+		if !kept {
+			return 0, false
+		}
+		r, _ := device.DiodeRd(p, float64(sharing(p, anodes, a))*l)
+		if i > 0 && math.Abs(r-rd) > 1e-9*math.Abs(rd) {
+			return 0, false
+		}
+		rd = r
+	}
+	return rd, rd > 0
 }

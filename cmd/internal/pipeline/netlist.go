@@ -1,9 +1,11 @@
 package pipeline
 
 import (
+	"strconv"
 	"strings"
 
 	"pare/graph"
+	"pare/graph/ac"
 	"pare/rules"
 	"pare/rules/stages"
 )
@@ -44,7 +46,35 @@ func annotated(c *graph.Circuit, lvl rules.Level) *graph.Circuit {
 	}
 	cm.Above = append([]string{marker}, above...)
 	d.Comments[first] = cm
+	keepDetectorRd(d)
 	return d
+}
+
+// keepDetectorRd writes each detector's rd, as the reduced circuit solves
+// it from the original wiring's DC load, into the netlist as the diode's
+// own: the file alone would take the load from its own DC paths, where a
+// grounded AGC line looks like a DC return (graph/ac.KeepDetectorLoads).
+func keepDetectorRd(c *graph.Circuit) {
+	for i, p := range c.Parts {
+		rd, ok := ac.KeptDetectorRd(c, p)
+		if !ok {
+			continue
+		}
+		q := p.Clone()
+		if q.Params == nil {
+			q.Params = map[string]float64{}
+		}
+		// Six significant digits: the file stays readable and solves within
+		// a part per million of the reduced circuit.
+		q.Params["rd"], _ = strconv.ParseFloat(strconv.FormatFloat(rd, 'g', 6, 64), 64)
+		c.Parts[i] = q
+		key := "parts." + p.Ref
+		cm := c.Comments[key]
+		if cm.After == "" {
+			cm.After = " rd from the detector's DC load in the set as wired"
+		}
+		c.Comments[key] = cm
+	}
 }
 
 // Unmatched is a part of the reduced circuit in no stage, with the reason.
