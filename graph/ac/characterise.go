@@ -39,8 +39,21 @@ func (ql *quantityList) characterise() {
 		if !coil[net] || !capa[net] || !usable(net) || orig.RoleOf(net).IsACGround() {
 			continue
 		}
-		if rn, ok := ql.mapped(net, noAlt); ok {
-			ql.add(quantity{what: "impedance", tank: true, from: net, rFrom: rn, bands: ql.bandsAt(net)})
+		rn, ok := ql.mapped(net, noAlt)
+		if !ok {
+			continue
+		}
+		ql.add(quantity{what: "impedance", tank: true, from: net, rFrom: rn, bands: ql.bandsAt(net)})
+		// A declared output is what the circuit is for: the transfer from
+		// the tank to it (an oscillator's buffer and its load) is compared
+		// too, not only the tank itself.
+		for j, out := range orig.Outputs {
+			if out == net {
+				continue
+			}
+			if rout, ok := ql.mapped(out, ql.outputAlt(j)); ok {
+				ql.add(quantity{what: "transfer", from: net, to: out, rFrom: rn, rTo: rout, bands: ql.bandsAt(net)})
+			}
 		}
 	}
 	for _, p := range orig.Parts {

@@ -46,6 +46,9 @@ type Pair struct {
 	What    string  `json:"what"`              // "transfer" | "impedance"
 	Setting string  `json:"setting,omitempty"` // gang setting of the worst point: "min", "mid", "max" or a fraction
 	Error   string  `json:"error,omitempty"`   // the reduced circuit could not be solved for this pair
+	// Bands is what the pair was swept over ("445 kHz–465 kHz"): the
+	// regions its path works in (quantities.go, detpairs.go).
+	Bands string `json:"bands,omitempty"`
 }
 
 // String prints the pair for a terminal.
@@ -219,6 +222,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 			silent = append(silent, worst.Label())
 			continue
 		}
+		worst.Bands = bandsText(q.bands)
 		if !worst.Within(o.TolDB, o.TolDeg) {
 			rep.OK = false
 		}

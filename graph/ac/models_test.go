@@ -167,7 +167,9 @@ func TestNeverAnEmptyPass(t *testing.T) {
 		ok     bool
 		labels []string // the characteristic quantities expected
 	}{
-		{"oscillator-only.toml", true, []string{"Z(tank)", "Z(tap)", "V(e)/V(b)"}},
+		// The declared output is compared from each tank too (issue 10,
+		// item 6: a VFO's output was never compared).
+		{"oscillator-only.toml", true, []string{"Z(tank)", "Z(tap)", "V(out)/V(tank)", "V(out)/V(tap)", "V(e)/V(b)"}},
 		{"nothing-comparable.toml", false, nil},
 	}
 	for _, tc := range cases {

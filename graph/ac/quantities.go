@@ -25,6 +25,7 @@ type quantity struct {
 // reduced circuit and noting what cannot be mapped.
 func quantities(orig, reduced *graph.Circuit, rep *Report) []quantity {
 	ql := &quantityList{orig: orig, reduced: reduced, rep: rep, bandsAt: netBands(orig), seen: map[string]bool{}}
+	ql.skip = ql.detectorTransfers()
 	ql.inputTransfers()
 	ql.regionTransfers()
 	ql.portImpedances()
@@ -42,6 +43,7 @@ type quantityList struct {
 	bandsAt       func(net string) []value.Range
 	seen          map[string]bool
 	qs            []quantity
+	skip          map[string]bool // input\x00output transfers judged past a detector (detpairs.go)
 }
 
 // mapped finds a net of the original in the reduced circuit: under its own
@@ -102,6 +104,9 @@ func (ql *quantityList) inputTransfers() {
 		}
 		for j, out := range ql.orig.Outputs {
 			if out == in {
+				continue
+			}
+			if ql.skip[in+"\x00"+out] {
 				continue
 			}
 			rout, ok := ql.mapped(out, ql.outputAlt(j))

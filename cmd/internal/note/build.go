@@ -90,7 +90,7 @@ func VerifyOf(rep *ac.Report, err error, o ac.CompareOptions) Verify {
 	v.Notes = rep.Notes
 	for _, p := range rep.Pairs {
 		v.Pairs = append(v.Pairs, Pair{From: p.From, To: p.To, What: p.What, MaxDB: p.MaxDB, MaxDeg: p.MaxDeg,
-			AtHz: p.AtHz, Setting: p.Setting, Error: p.Error})
+			AtHz: p.AtHz, Setting: p.Setting, Error: p.Error, Bands: p.Bands})
 	}
 	return v
 }

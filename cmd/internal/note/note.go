@@ -119,6 +119,7 @@ type Pair struct {
 	AtHz           float64
 	Setting        string // gang setting of the worst point
 	Error          string // the reduced circuit could not be solved for this pair
+	Bands          string // what it was swept over
 }
 
 // Label names the quantity compared, as the verify command prints it:
@@ -447,13 +448,13 @@ func writeVerify(b *bytes.Buffer, n *Note) {
 	case !v.OK:
 		verdict = "**Failed**"
 	}
-	fmt.Fprintf(b, "%s against a tolerance of %s dB and %s°: the original and the reduced circuit were swept by small-signal AC analysis over each pair's band, and the worst deviation is listed.\n\n",
+	fmt.Fprintf(b, "%s against a tolerance of %s dB and %s°: the original and the reduced circuit were swept by small-signal AC analysis over each pair's bands (the regions its path works in), and the worst deviation is listed; what was not compared is said below the table.\n\n",
 		verdict, Num(v.TolDB), Num(v.TolDeg))
 	if len(v.Pairs) == 0 {
 		b.WriteString("No port pair was compared.\n\n")
 	} else {
-		b.WriteString("| quantity | what | worst dB | worst ° | at | gang | result |\n")
-		b.WriteString("|---|---|---|---|---|---|---|\n")
+		b.WriteString("| quantity | what | over | worst dB | worst ° | at | gang | result |\n")
+		b.WriteString("|---|---|---|---|---|---|---|---|\n")
 		for _, p := range v.Pairs {
 			res := "ok"
 			switch {
@@ -466,8 +467,8 @@ func writeVerify(b *bytes.Buffer, n *Note) {
 			if p.Error != "" {
 				dB, deg, at = "–", "–", "–"
 			}
-			fmt.Fprintf(b, "| `%s` | %s | %s | %s | %s | %s | %s |\n", mdCode(p.Label()), mdCell(p.What),
-				dB, deg, at, orDash(mdCell(p.Setting)), res)
+			fmt.Fprintf(b, "| `%s` | %s | %s | %s | %s | %s | %s | %s |\n", mdCode(p.Label()), mdCell(p.What),
+				orDash(mdCell(p.Bands)), dB, deg, at, orDash(mdCell(p.Setting)), res)
 		}
 		b.WriteString("\n")
 	}

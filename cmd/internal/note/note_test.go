@@ -38,7 +38,7 @@ func sampleNote() *Note {
 			Where: []Place{{"C10", "if-detector-audio.toml:40"}}}},
 		Caution: valveCaution(),
 		Verify: Verify{OK: true, TolDB: 0.5, TolDeg: 5, Pairs: []Pair{
-			{From: "aerial", To: "if_out", What: "transfer", MaxDB: 0.12, MaxDeg: 1.3, AtHz: 1.6e6, Setting: "max"},
+			{From: "aerial", To: "if_out", What: "transfer", MaxDB: 0.12, MaxDeg: 1.3, AtHz: 1.6e6, Setting: "max", Bands: "520 kHz–1.6 MHz"},
 		}},
 	}
 }
@@ -70,8 +70,7 @@ func TestNoteSections(t *testing.T) {
 		"> **" + cautionHeading + "**",
 		"200–400 V DC",
 		"Discharge them through a resistor and confirm with a meter",
-		"isolation transformer",
-		"never clip an earthed scope ground to an unisolated chassis",
+		"treat it as lethal", // a transformer set: no live-chassis line (graph/safety)
 		"local electrical codes and licensed practice",
 		"small-signal only",
 		"> *Chosen from the netlist: valves V1.*",
@@ -89,7 +88,8 @@ func TestNoteSections(t *testing.T) {
 		"Near misses: candidates a numeric guard turned down",
 		"- **bypass**: C10 is not a bypass at 20 Hz: |Xc| = 796 kΩ \\> 0.1·|Z| (`C10` at `if-detector-audio.toml:40`)",
 		"**Verification passed**",
-		"| `V(if_out)/V(aerial)` | transfer | 0.12 | 1.3 | 1.6 MHz | max | ok |",
+		"| `V(if_out)/V(aerial)` | transfer | 520 kHz–1.6 MHz | 0.12 | 1.3 | 1.6 MHz | max | ok |", // what each pair was swept over
+		"what was not compared is said below the table",
 	} {
 		if !strings.Contains(md, want) {
 			t.Errorf("note lacks %q\n--- note ---\n%s", want, md)
@@ -237,7 +237,7 @@ func TestDCChart(t *testing.T) {
 	if err := Write(&b, n); err != nil {
 		t.Fatal(err)
 	}
-	for _, want := range []string{"## DC voltage chart", "taken on a live set", "Probe with one hand.", "20 kΩ/V meter", "| V1 | anode | `a` | 181.4 V | 179 V |"} {
+	for _, want := range []string{"## DC voltage chart", "taken with the set working", "Probe with one hand.", "20 kΩ/V meter", "| V1 | anode | `a` | 181.4 V | 179 V |"} {
 		if !strings.Contains(b.String(), want) {
 			t.Errorf("chart lacks %q:\n%s", want, b.String())
 		}
