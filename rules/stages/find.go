@@ -9,7 +9,6 @@ import (
 	"strings"
 
 	"pare/graph"
-	"pare/graph/ac"
 	"pare/graph/figure"
 )
 
@@ -64,18 +63,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	if reduced == nil {
 		return nil, errors.New("stages: no circuit to recognise")
 	}
-	if reduced.DetectorLoads == nil && o.Full != nil {
-		// The detectors' DC loads are the wiring's (ac.KeepDetectorLoads),
-		// as in the comparison: a caller that reduced without the pipeline
-		// gets them from the full circuit here.
-		full := o.Full
-		if full.DetectorLoads == nil {
-			full = full.Clone()
-			ac.KeepDetectorLoads(full)
-		}
-		reduced = reduced.Clone()
-		reduced.DetectorLoads = full.DetectorLoads
-	}
+	reduced = withDetectorLoads(reduced, o.Full)
 	lib := o.Library
 	if lib == nil {
 		var err error

@@ -332,3 +332,19 @@ func (x *figCtx) noteOpenPort(p *graph.Part, net int) {
 		}
 	}
 }
+
+// withDetectorLoads is reduced with the detectors' DC loads of the wiring
+// (ac.KeepDetectorLoads), as the comparison uses them: a caller that
+// reduced without the pipeline gets them from the full circuit here.
+func withDetectorLoads(reduced, full *graph.Circuit) *graph.Circuit {
+	if reduced.DetectorLoads != nil || full == nil {
+		return reduced
+	}
+	if full.DetectorLoads == nil {
+		full = full.Clone()
+		ac.KeepDetectorLoads(full)
+	}
+	reduced = reduced.Clone()
+	reduced.DetectorLoads = full.DetectorLoads
+	return reduced
+}
