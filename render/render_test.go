@@ -11,6 +11,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/graph/safety"
 	"pare/internal/golden"
 	"pare/internal/reftool"
 	"pare/render/check"
@@ -272,7 +273,7 @@ func TestReducedCaution(t *testing.T) {
 		var buf bytes.Buffer
 		Config{}.Fprint(&buf, &Sheet{Circuit: c, View: v})
 		out := buf.String()
-		if !strings.Contains(out, "isolation transformer") {
+		if !strings.Contains(out, safety.For(c).Sheet(false)) {
 			t.Errorf("%s view: no safety caution", v)
 		}
 		if got := strings.Contains(out, "Small-signal only"); got != (v == Reduced) {

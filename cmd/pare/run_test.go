@@ -164,11 +164,14 @@ func TestMainJobOnExamples(t *testing.T) {
 					t.Errorf("notes.md lacks %q", want)
 				}
 			}
-			// Each of the netlist's signal paths is a verified pair.
+			// Each of the netlist's signal paths is a verified pair, or, past
+			// a detector, the note says plainly it was not compared at the IF
+			// (the audio side is then compared from the detector).
 			for _, in := range full.Inputs {
 				for _, out := range full.Outputs {
-					if !strings.Contains(md, "| `V("+out+")/V("+in+")` | transfer |") {
-						t.Errorf("verification table lacks the pair %s → %s", in, out)
+					pair := "V(" + out + ")/V(" + in + ")"
+					if !strings.Contains(md, "| `"+pair+"` | transfer |") && !strings.Contains(md, "- "+pair+" not compared over") {
+						t.Errorf("verification table lacks the pair %s → %s and no note says why", in, out)
 					}
 				}
 			}
