@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/ac"
 	"pare/graph/figure"
 )
 
