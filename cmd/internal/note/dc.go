@@ -78,6 +78,14 @@ func dcFrom(r *pipeline.Result) DC {
 
 // writeDC writes the voltage chart: the DC voltages a repairer measures
 // first, under the live-set caution.
+//
+// chartLead and chartApplies open the chart in both notes; the caution
+// lines after them are graph/safety's for the set.
+const (
+	chartLead    = "These readings are taken with the set working"
+	chartApplies = "the caution at the top of this note applies to every one."
+)
+
 func writeDC(b *bytes.Buffer, n *Note) {
 	d := n.DC
 	if d.Err == "" && len(d.Rows) == 0 {
@@ -88,7 +96,7 @@ func writeDC(b *bytes.Buffer, n *Note) {
 		fmt.Fprintf(b, "The DC operating point was not found: %s\n\n", mdText(d.Err))
 		return
 	}
-	b.WriteString("**These readings are taken with the set working**: the caution at the top of this note applies to every one.")
+	b.WriteString("**" + chartLead + "**: " + chartApplies)
 	for _, l := range d.Caution {
 		fmt.Fprintf(b, " %s", mdText(l))
 	}

@@ -114,7 +114,7 @@ func hDC(b *bytes.Buffer, n *Note) {
 		fmt.Fprintf(b, "<p>The DC operating point was not found: %s</p>\n", h(d.Err))
 		return
 	}
-	b.WriteString("<p><b>These readings are taken on a live set</b>: the caution at the top of this note applies to every one.")
+	b.WriteString("<p><b>" + chartLead + "</b>: " + chartApplies)
 	for _, l := range d.Caution {
 		fmt.Fprintf(b, " %s", h(l))
 	}
@@ -289,12 +289,11 @@ func hVerify(b *bytes.Buffer, n *Note) {
 	case !v.OK:
 		verdict = "<b>Failed</b>"
 	}
-	fmt.Fprintf(b, "<p>%s against a tolerance of %s dB and %s°: the original and the reduced circuit were swept by small-signal AC analysis over each pair's band, and the worst deviation is listed.</p>\n",
-		verdict, Num(v.TolDB), Num(v.TolDeg))
+	fmt.Fprintf(b, "<p>%s against a tolerance of %s dB and %s°: %s</p>\n", verdict, Num(v.TolDB), Num(v.TolDeg), verifyMethod)
 	if len(v.Pairs) == 0 {
 		b.WriteString("<p>No port pair was compared.</p>\n")
 	} else {
-		b.WriteString("<table>\n<tr><th>quantity</th><th>what</th><th>worst dB</th><th>worst °</th><th>at</th><th>gang</th><th>result</th></tr>\n")
+		b.WriteString("<table>\n<tr><th>quantity</th><th>what</th><th>over</th><th>worst dB</th><th>worst °</th><th>at</th><th>gang</th><th>result</th></tr>\n")
 		for _, p := range v.Pairs {
 			res := "ok"
 			switch {
@@ -307,8 +306,8 @@ func hVerify(b *bytes.Buffer, n *Note) {
 			if p.Error != "" {
 				dB, deg, at = "–", "–", "–"
 			}
-			fmt.Fprintf(b, "<tr><td>%s</td><td>%s</td><td class=\"n-num\">%s</td><td class=\"n-num\">%s</td><td class=\"n-num\">%s</td><td>%s</td><td>%s</td></tr>\n",
-				hCode(p.Label()), h(p.What), dB, deg, h(at), orDash(h(p.Setting)), res)
+			fmt.Fprintf(b, "<tr><td>%s</td><td>%s</td><td>%s</td><td class=\"n-num\">%s</td><td class=\"n-num\">%s</td><td class=\"n-num\">%s</td><td>%s</td><td>%s</td></tr>\n",
+				hCode(p.Label()), h(p.What), orDash(h(p.Bands)), dB, deg, h(at), orDash(h(p.Setting)), res)
 		}
 		b.WriteString("</table>\n")
 	}

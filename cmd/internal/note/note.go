@@ -428,6 +428,9 @@ func stepLine(s Step) string {
 	return l.String()
 }
 
+// verifyMethod says how the comparison was made, in both notes.
+const verifyMethod = "the original and the reduced circuit were swept by small-signal AC analysis over each pair's bands (the regions its path works in), and the worst deviation is listed; what was not compared is said below the table."
+
 func writeVerify(b *bytes.Buffer, n *Note) {
 	v := n.Verify
 	b.WriteString("## Verification\n\n")
@@ -448,8 +451,7 @@ func writeVerify(b *bytes.Buffer, n *Note) {
 	case !v.OK:
 		verdict = "**Failed**"
 	}
-	fmt.Fprintf(b, "%s against a tolerance of %s dB and %s°: the original and the reduced circuit were swept by small-signal AC analysis over each pair's bands (the regions its path works in), and the worst deviation is listed; what was not compared is said below the table.\n\n",
-		verdict, Num(v.TolDB), Num(v.TolDeg))
+	fmt.Fprintf(b, "%s against a tolerance of %s dB and %s°: %s\n\n", verdict, Num(v.TolDB), Num(v.TolDeg), verifyMethod)
 	if len(v.Pairs) == 0 {
 		b.WriteString("No port pair was compared.\n\n")
 	} else {
