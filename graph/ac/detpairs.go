@@ -141,14 +141,22 @@ func (ql *quantityList) detectorTransfers() (replaced map[string]bool) {
 			if in == d.ifNet || !okI {
 				continue
 			}
-			if rin, ok := ql.mapped(in, ql.inputAlt(i)); ok {
-				ql.add(quantity{what: "transfer", from: in, to: d.ifNet, rFrom: rin, rTo: rIF, bands: ql.bandsAt(in)})
+			// The input's signal reaches the detector only where the two
+			// share a band: past a frequency changer the input's band is
+			// not the detector's, and the small-signal transfer there is
+			// leakage too (the regions' own pairs prove the IF).
+			instead := "the regions' own pairs cover the stages between"
+			if overlaps(ql.bandsAt(in), ql.bandsAt(d.ifNet)) {
+				if rin, ok := ql.mapped(in, ql.inputAlt(i)); ok {
+					ql.add(quantity{what: "transfer", from: in, to: d.ifNet, rFrom: rin, rTo: rIF, bands: ql.bandsAt(in)})
+					instead = fmt.Sprintf("V(%s)/V(%s) is compared there instead", d.ifNet, in)
+				}
 			}
 			for _, out := range ql.orig.Outputs {
 				if ql.pastDetector(in, out) {
 					replaced[in+"\x00"+out] = true
-					ql.rep.Notes = append(ql.rep.Notes, fmt.Sprintf("V(%s)/V(%s) not compared over %s: past detector %s the signal there is only the IF the detector leaks (a resistor in the model), not signal; V(%s)/V(%s) is compared there instead",
-						out, in, bandsText(ql.bandsAt(in)), d.ref, d.ifNet, in))
+					ql.rep.Notes = append(ql.rep.Notes, fmt.Sprintf("V(%s)/V(%s) not compared over %s: past detector %s the signal there is only the IF the detector leaks (a resistor in the model), not signal; %s",
+						out, in, bandsText(ql.bandsAt(in)), d.ref, instead))
 				}
 			}
 		}
@@ -174,6 +182,18 @@ func (ql *quantityList) pastDetector(in, out string) bool {
 		}
 	}
 	return true
+}
+
+// overlaps says whether any band of a meets any band of b.
+func overlaps(a, b []value.Range) bool {
+	for _, x := range a {
+		for _, y := range b {
+			if x.Min <= y.Max && y.Min <= x.Max {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // bandsText lists bands for a note: "20 Hz–20 kHz, 445 kHz–465 kHz".
