@@ -428,7 +428,7 @@ func evaluate(w *world, m *match, solve bool) *Stage {
 	if len(p.Families) > 0 && !contains(p.Families, st.Family) {
 		return nil
 	}
-	if p.Context == "fm" && (!fmReceived(w.c) || !inAudioBand(w.c, st.Parts)) {
+	if !contextHolds(p, w, st) {
 		return nil
 	}
 	title := p.Title

@@ -144,7 +144,7 @@ func (ld *patLoader) topKey(k string, v any) {
 			p.Families = append(p.Families, ld.oneOf(fmt.Sprintf("%s[%d]", k, i), f, []string{"valve", "bjt", "fet", "passive"}))
 		}
 	case "context":
-		p.Context = ld.oneOf(k, v, []string{"fm"})
+		p.Context = ld.oneOf(k, v, []string{"fm", "supply"})
 	case "note":
 		ld.str(k, v)
 	case "nets", "parts":

@@ -1,0 +1,75 @@
+package stages
+
+import (
+	"path/filepath"
+	"testing"
+
+	"pare/graph"
+	"pare/rules"
+)
+
+// reduceGood loads a circuit of the top-level testdata/good/ and reduces
+// it at the default level, as `pare stages` does.
+func reduceGood(t *testing.T, name string) (*graph.Circuit, []Stage) {
+	t.Helper()
+	c, err := graph.LoadFile(filepath.Join("..", "..", "testdata", "good", name))
+	if err != nil {
+		t.Fatalf("%s: %v", name, err)
+	}
+	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatalf("reduce %s: %v", name, err)
+	}
+	return r, find(t, r, Options{Full: c, ACGround: log.ACGround})
+}
+
+// A rectifier is a supply stage only with supply evidence: a mains
+// winding, a declared AC voltage, a rail it feeds. A diode on an IF
+// transformer's secondary into a small capacitor and a volume control has
+// the same shape and is a detector (common practice).
+func TestRectifierNeedsSupplyEvidence(t *testing.T) {
+	const detector = `T1 = { windings = { p = "300u", s = "12u" }, k = 0.8, q = 100, pins = { p1 = "hot", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C4 = { c = "180p", pins = ["hot", "ht"] }
+D1 = { diode = "signal", pins = ["s", "out"] }
+C5 = { c = "10n", pins = ["out", "gnd"] }
+`
+	cases := []struct {
+		name, parts string
+		want        bool
+	}{
+		{"detector into a volume control", detector + `RV1 = { pot = "5k", set = 0.5, pins = ["gnd", "vol", "out"] }`, false},
+		{"detector with a 1M load to the rail", detector + `R1 = { r = "1M", pins = ["out", "ht"] }`, false},
+		{"winding on the mains", `T1 = { windings = { p = "10", s = "10" }, k = 0.99, pins = { p1 = "mains", p2 = "neutral", s1 = "s", s2 = "gnd" } }
+D1 = { diode = "rectifier", pins = ["s", "out"] }
+C1 = { c = "32u", type = "electrolytic", pins = ["out", "gnd"] }`, true},
+		{"declared AC voltage", `T1 = { windings = { p = "10", s = "10" }, k = 0.99, vac = 250, pins = { p1 = "x", p2 = "y", s1 = "s", s2 = "gnd" } }
+R9 = { r = "1", pins = ["x", "y"] }
+D1 = { diode = "rectifier", pins = ["s", "out"] }
+C1 = { c = "32u", type = "electrolytic", pins = ["out", "gnd"] }`, true},
+		{"reservoir feeding the rail through a resistor", `T1 = { windings = { p = "10", s = "10" }, k = 0.99, pins = { p1 = "x", p2 = "y", s1 = "s", s2 = "gnd" } }
+R9 = { r = "1", pins = ["x", "y"] }
+D1 = { diode = "rectifier", pins = ["s", "out"] }
+C1 = { c = "32u", type = "electrolytic", pins = ["out", "gnd"] }
+R1 = { r = "1k", pins = ["out", "ht"] }`, true},
+		{"the output is the rail", `T1 = { windings = { p = "10", s = "10" }, k = 0.99, pins = { p1 = "x", p2 = "y", s1 = "s", s2 = "gnd" } }
+R9 = { r = "1", pins = ["x", "y"] }
+D1 = { diode = "rectifier", pins = ["s", "ht"] }
+C1 = { c = "32u", type = "electrolytic", pins = ["ht", "gnd"] }`, true},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			c := circuit(t, "valve", tc.parts)
+			got := find(t, c, Options{Full: c})
+			if s := stageOf(got, "rectifier-half-wave"); (s != nil) != tc.want {
+				t.Errorf("rectifier found %v, want %v; all: %s", s != nil, tc.want, topologies(got))
+			}
+		})
+	}
+	// The reviewer's portable (issue 10): D1 and T1 are its detector.
+	_, got := reduceGood(t, "review-portable.toml")
+	for _, s := range got {
+		if s.Supply {
+			t.Errorf("portable: supply stage %s %s %v", s.Name, s.Topology, s.Parts)
+		}
+	}
+}
