@@ -61,26 +61,47 @@ func controlNet(c *Circuit, p *Part) string {
 
 // hasTank tells whether a device has a tank on one of its terminals: a net
 // it shares with a coil (an inductor or a transformer winding) and a
-// capacitor, the mark of an LC oscillator.
+// capacitor, the mark of an LC oscillator; or a net on a coil whose other
+// end holds the capacitor (a cathode or emitter on the tank coil's tap,
+// the tank itself beyond it). A buffer coupled to the tank through a
+// capacitor has no coil on its own nets and is not taken for it.
 func hasTank(c *Circuit, p *Part) bool {
 	for _, pin := range p.Pins {
 		if pin.Net == "nc" || c.RoleOf(pin.Net).IsACGround() {
 			continue
 		}
-		coil, capacitor := false, false
-		for _, cn := range c.ConnsOf(pin.Net) {
-			switch cn.Part.Kind {
-			case Inductor, Transformer:
-				coil = true
-			case Capacitor:
-				capacitor = true
-			}
-		}
+		coil, capacitor := tankParts(c, pin.Net)
 		if coil && capacitor {
 			return true
 		}
+		for _, cn := range c.ConnsOf(pin.Net) {
+			if cn.Part.Kind != Inductor && cn.Part.Kind != Transformer {
+				continue
+			}
+			for _, other := range cn.Part.Pins {
+				if other.Net == pin.Net || other.Net == "nc" || c.RoleOf(other.Net).IsACGround() {
+					continue
+				}
+				if _, capacitor := tankParts(c, other.Net); capacitor {
+					return true
+				}
+			}
+		}
 	}
 	return false
+}
+
+// tankParts tells whether a net holds a coil and a capacitor.
+func tankParts(c *Circuit, net string) (coil, capacitor bool) {
+	for _, cn := range c.ConnsOf(net) {
+		switch cn.Part.Kind {
+		case Inductor, Transformer:
+			coil = true
+		case Capacitor:
+			capacitor = true
+		}
+	}
+	return coil, capacitor
 }
 
 // UpstreamOf is where the signal comes from before it reaches net, a

@@ -27,6 +27,21 @@ L1 = { l = "100u", pins = ["tank", "ht"] }
 C1 = { c = "250p", pins = ["tank", "ht"] }
 C2 = { c = "1n", pins = ["tank", "b1"] }
 R2 = { r = "10k", pins = ["b2", "gnd"] }`, "b2", "Q2", "oscillator", "b2"},
+		// The review VFO (issue 10): the oscillator's cathode on the tank
+		// coil's tap, its grid through a grid capacitor; a buffer with the
+		// lower ref coupled to the tank by 4p7. The oscillator starts it;
+		// the passive walk upstream of its grid ends at the buffer's grid,
+		// so callers start an oscillator's walk at its own control.
+		{"oscillator on a tap before its buffer", `
+V1 = { valve = "triode", pins = { a = "ht", g1 = "g2", k = "k2" } }
+R1 = { r = "470k", pins = ["g2", "gnd"] }
+R5 = { r = "2k2", pins = ["k2", "gnd"] }
+C6 = { c = "4p7", pins = ["tank", "g2"] }
+V2 = { valve = "triode", pins = { a = "ht", g1 = "g1", k = "k1" } }
+L1 = { l = "4u7", tap = 0.25, pins = ["gnd", "k1", "tank"] }
+C1 = { c = "150p", pins = ["tank", "gnd"] }
+C4 = { c = "100p", pins = ["tank", "g1"] }
+R2 = { r = "47k", pins = ["g1", "gnd"] }`, "g1", "V2", "oscillator", "g2"}, // upstream through passives reaches the buffer: an oscillator's walk starts at its own control
 		{"no active part", `
 R1 = { r = "1k", pins = ["a", "gnd"] }`, "", "", "", ""},
 	}

@@ -2,6 +2,8 @@ package stages
 
 import (
 	"path/filepath"
+	"slices"
+	"strings"
 	"testing"
 
 	"pare/graph"
@@ -71,5 +73,49 @@ C1 = { c = "32u", type = "electrolytic", pins = ["ht", "gnd"] }`, true},
 		if s.Supply {
 			t.Errorf("portable: supply stage %s %s %v", s.Name, s.Topology, s.Parts)
 		}
+	}
+}
+
+// The reviewer's portable (issue 10): Q2 with 100R unbypassed in series
+// with 1k ∥ 22u is one amplifier stage, "emitter partly bypassed", holding
+// its own parts only; its gain at 1 kHz is 26.66 (the reviewer's ngspice
+// deck port_au.cir, ngspice .ac, V(c2)/V(b2) at 1 kHz), not an RC low-pass.
+func TestPartlyBypassedEmitterIsAnAmplifier(t *testing.T) {
+	_, got := reduceGood(t, "review-portable.toml")
+	s := stageWith(got, "Q2")
+	if s == nil || s.Topology != "amp-common-partly-bypassed" {
+		t.Fatalf("Q2 in %v; all: %s", s, topologies(got))
+	}
+	if want := []string{"C9", "Q2", "R10", "R8", "R9"}; !slices.Equal(s.Parts, want) {
+		t.Errorf("parts %v, want %v", s.Parts, want)
+	}
+	if !strings.Contains(s.Title, "emitter partly bypassed") {
+		t.Errorf("title %q", s.Title)
+	}
+	g, ok := s.Figures.Get("gain")
+	if !ok || !within(-g.Value, 26.656, 0.005) {
+		t.Errorf("gain %v, want -26.66 (ngspice)", g.Value)
+	}
+	for _, o := range got {
+		if o.Topology == "rc-low-pass" && slices.Contains(o.Parts, "C9") {
+			t.Errorf("C9 framed as %s %v", o.Topology, o.Parts)
+		}
+	}
+}
+
+// With no input declared the stages are numbered from the oscillator
+// (graph.InferredInput), not from its buffer's coupling capacitor: the
+// reviewer's VFO (issue 10) had S1 = C6 and the oscillator S3.
+func TestOscillatorNumberedFirst(t *testing.T) {
+	_, got := reduceGood(t, "review-vfo.toml")
+	want := []string{"hartley-common-tap", "coupling-capacitor", "amp-follower", "coupling-capacitor"}
+	var tops []string
+	for _, s := range got {
+		if !strings.Contains(s.Name, ".") {
+			tops = append(tops, s.Topology)
+		}
+	}
+	if !slices.Equal(tops, want) {
+		t.Errorf("order %v, want %v", tops, want)
 	}
 }

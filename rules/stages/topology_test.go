@@ -231,6 +231,18 @@ R1 = { r = "47k", pins = ["o", "ht"] }
 R2 = { r = "1k", pins = ["k", "gnd"] }
 C1 = { c = "25u", pins = ["k", "x"] }
 R3 = { r = "1k", pins = ["x", "gnd"] }`},
+	{topology: "amp-common-partly-bypassed", families: allFamilies,
+		parts: `@Q1(in, k, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+R2 = { r = "100", pins = ["k", "kb"] }
+R3 = { r = "1k", pins = ["kb", "gnd"] }
+C1 = { c = "22u", pins = ["kb", "gnd"] }`,
+		// The capacitor goes across both resistors: a full bypass.
+		nearMiss: `@Q1(in, k, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+R2 = { r = "100", pins = ["k", "kb"] }
+R3 = { r = "1k", pins = ["kb", "gnd"] }
+C1 = { c = "22u", pins = ["k", "gnd"] }`},
 	{topology: "amp-follower", families: allFamilies,
 		parts: `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`,
