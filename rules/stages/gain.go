@@ -394,14 +394,23 @@ func calcBypass(x *figCtx) {
 	})
 }
 
-// checkBypass keeps the name "bypassed" only where the solver shows it: at
-// the middle of the band the gain comes within bypassAgreement of a
-// perfect bypass's. Else the plainer name, and a note that says why.
+// checkBypass keeps the name "bypassed" only where the solver shows it:
+// across the band (its middle and its low edge) the gain comes within
+// bypassAgreement of a perfect bypass's. Else the plainer name, a flag
+// where the bypass corner lies in the band, and a note where even the
+// middle of the band falls short.
 func (x *figCtx) checkBypass(ck *graph.Part, b bypassSolve) {
 	if b.bypassed() {
 		return
 	}
 	x.st.Title = expandTitle(partlyBypassed, x.st.Family)
+	if b.aLo < (1-bypassAgreement)*b.fullLo && b.hasCorner && b.corner > b.lo {
+		x.flag("bypass corner %s lies in the band %s–%s: gain falls to %s at %s (%s with a perfect bypass)",
+			hz(b.corner), hz(b.lo), hz(b.hi), figure.Plain(b.aLo), hz(b.lo), figure.Plain(b.fullLo))
+	}
+	if math.Abs(b.a-b.full) <= bypassAgreement*b.full {
+		return
+	}
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("named partly bypassed: at %s the gain in circuit is %s, %s %% short of the %s a perfect bypass gives; %s is no bypass at the band",
 		hz(b.f), figure.Plain(b.a), figure.Plain(100*(1-b.a/b.full)), figure.Plain(b.full), ck.Ref))
 }

@@ -3,7 +3,6 @@ package stages
 import (
 	"fmt"
 	"math"
-	"math/cmplx"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -87,58 +86,6 @@ func (x *figCtx) devicesOn(net int) []string {
 // the capacitor to be called a bypass: 5 % (common practice, no source:
 // half a decibel, less than a listener or a meter on the bench tells).
 const bypassAgreement = 0.05
-
-// fullBypassC is the factor a capacitor is made larger by to stand for a
-// perfect bypass in the solver.
-const fullBypassC = 1e6
-
-// bypassInCircuit solves a common-electrode capacitor's effect in circuit:
-// the stage's gain at the middle of its band as it is (a), with the
-// capacitor a perfect bypass (full) and with none (open), and the corner where the gain falls
-// 3 dB below full (ok false when it never does: the unbypassed gain is
-// within 3 dB). f is the band's middle; solved false when the solver
-// cannot say.
-type bypassSolve struct {
-	f, a, full, open, corner float64
-	hasCorner, solved        bool
-}
-
-func (x *figCtx) bypassInCircuit(p, ck *graph.Part) bypassSolve {
-	var b bypassSolve
-	in, out := x.gainNets("common")
-	band := x.w.c.BandOf(p)
-	c := x.solverCircuit()
-	if !x.solve || in == "" || out == "" || c.Net(in) == nil || c.Net(out) == nil || band.Min <= 0 || band.Max <= 0 || c.Part(ck.Ref) == nil {
-		return b
-	}
-	b.f = math.Sqrt(band.Min * band.Max)
-	big := *ck
-	big.Value.Min, big.Value.Max = ck.Value.Min*fullBypassC, ck.Value.Max*fullBypassC
-	r, err1 := ac.NewTransfer(c, in, out, gangMid.options())
-	rf, err2 := ac.NewTransfer(withPart(c, &big), in, out, gangMid.options())
-	if err1 != nil || err2 != nil {
-		return b
-	}
-	h, err1 := r.At(b.f)
-	hf, err2 := rf.At(b.f)
-	if err1 != nil || err2 != nil || cmplx.IsNaN(h) || cmplx.IsNaN(hf) || hf == 0 {
-		return b
-	}
-	b.a, b.full, b.solved = cmplx.Abs(h), cmplx.Abs(hf), true
-	small := *ck
-	small.Value.Min, small.Value.Max = ck.Value.Min/fullBypassC, ck.Value.Max/fullBypassC
-	if ro, err := ac.NewTransfer(withPart(c, &small), in, out, gangMid.options()); err == nil {
-		b.open = magnitude(ro, b.f)
-	}
-	b.corner, b.hasCorner = crossing(r, b.full/math.Sqrt2, b.f, b.f/cornerSpan/cornerSpan)
-	return b
-}
-
-// bypassed tells whether the solved capacitor is a bypass at the band: the
-// gain within bypassAgreement of a perfect bypass's.
-func (b bypassSolve) bypassed() bool {
-	return !b.solved || math.Abs(b.a-b.full) <= bypassAgreement*b.full
-}
 
 // partlyBypassed is the plainer name of a stage whose common-electrode
 // capacitor the solver shows is no bypass at the band.

@@ -119,3 +119,27 @@ func TestOscillatorNumberedFirst(t *testing.T) {
 		t.Errorf("order %v, want %v", tops, want)
 	}
 }
+
+// "Bypassed" holds only across the band (issue 10): in the reviewer's
+// variant the emitter's 1k ∥ 22u has its corner inside 100 Hz–10 kHz. The
+// corner is where the gain falls 3 dB below a perfect bypass's at the
+// same frequency: 280.3 Hz, the gain 51.1 at 100 Hz against 151 with a
+// perfect bypass (the reviewer's ngspice deck pb_q2.cir, ngspice .ac).
+func TestBypassCheckedAcrossTheBand(t *testing.T) {
+	_, got := reduceGood(t, "review-portable-b.toml")
+	s := stageWith(got, "Q2")
+	if s == nil {
+		t.Fatalf("no stage holds Q2: %s", topologies(got))
+	}
+	if !strings.Contains(s.Title, "partly bypassed") {
+		t.Errorf("title %q, want the plainer name", s.Title)
+	}
+	fc, ok := s.Figures.Get("bypass_f_c")
+	if !ok || !within(fc.Value, 280.3, 0.002) {
+		t.Errorf("bypass corner %v, want 280.3 Hz (ngspice)", fc.Value)
+	}
+	const flag = "bypass corner 280.3 Hz lies in the band 100 Hz–10 kHz: gain falls to 51.1 at 100 Hz (151 with a perfect bypass)"
+	if !slices.Contains(s.Flags, flag) {
+		t.Errorf("flags %q, want %q", s.Flags, flag)
+	}
+}
