@@ -19,7 +19,9 @@ var (
 	byDynamicR  = figure.ByFormula("Rd = Q·ω0·L")
 	byTapShare  = figure.ByFormula("n = √Lcold/(√L1 + √L2)")
 	byTunedGain = figure.ByFormula("A = −gm·(Rd·n² ∥ rout)")
-	byBypassR   = figure.ByFormula("R = Rk ∥ Z into the common electrode")
+	// byTunedGainNoRout: no output resistance given, none counted.
+	byTunedGainNoRout = figure.ByFormula("A = −gm·Rd·n² (rout not given)")
+	byBypassR         = figure.ByFormula("R = Rk ∥ Z into the common electrode")
 )
 
 // device is the small-signal description of an amplifying part, as the
@@ -123,14 +125,14 @@ func calcGain(x *figCtx) {
 		x.set("r_out", figure.Ohm, parallel(d.small.ZCommon(0), rk), byROut)
 	}
 	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: a, Origin: figure.ByFormula(name)}
-	sv, why := x.solveGain(p, form, d, rl)
+	sv, why := x.solveGain(p, form, d, rl, rk)
 	x.putChecked(sv, &check, why)
 	x.stageImpedances(p, form, d, rk)
 	if g, ok := x.get("gain"); ok && g.Value != 0 {
 		x.set("gain", figure.Decibel, 20*math.Log10(math.Abs(g.Value)), byDecibels)
 	}
 	if form == "follower" {
-		x.checkFollower()
+		x.checkFollower(p)
 	} else {
 		x.set("r_load", figure.Ohm, rl, byLoad)
 	}
@@ -301,7 +303,13 @@ func calcTunedGain(x *figCtx) {
 		gm = d.mu / d.ra
 	}
 	x.checkTuned(x.tank, x.tankOK)
-	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: -gm * parallel(rd*n*n, rOut), Origin: byTunedGain}
+	// The formula names rout only where it counts one: a transistor's ro
+	// not given is infinite here (deviceOf), as in the textbook.
+	origin := byTunedGain
+	if rOut == 0 {
+		origin = byTunedGainNoRout
+	}
+	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: -gm * parallel(rd*n*n, rOut), Origin: origin}
 	sv, why := x.solveTunedGain(p, rd*n*n, rOut)
 	x.putChecked(sv, &check, why)
 }

@@ -12,45 +12,62 @@ import (
 	"pare/graph/figure"
 )
 
-// gainWhy words why a textbook gain parts from the solver's in circuit,
-// each reason checked on the circuit, not guessed: the load the output
-// sees (what lies beyond the coupling capacitor), an output resistance the
-// formula leaves out (ro from VA/Ic), and a common electrode that is not
-// at AC ground at the frequency solved (a capacitor that is no full
-// bypass there).
-func (x *figCtx) gainWhy(p *graph.Part, form string, d device, rl float64, out string, f float64) string {
+// gainWhy words why a textbook gain parts from the solver's in circuit
+// (sv), each reason checked on the circuit, not guessed: a reason is
+// named only where the formula, re-evaluated with that effect put in,
+// comes nearer the solver. The effects: the load the output sees in
+// circuit (the rest of the circuit with its devices working, the stage's
+// own device taken out; for a follower the load on its common electrode),
+// an output resistance the formula leaves out (ro from VA/Ic), and a
+// common electrode that is not at AC ground at the frequency solved (a
+// capacitor that is no full bypass there). Where none is found the text
+// names no cause.
+func (x *figCtx) gainWhy(p *graph.Part, form string, d device, rl, rk float64, out string, f, sv float64) string {
 	var why []string
-	c := quiet(x.solverCircuit())
 	full, err := model.Of(p)
 	if err != nil {
 		return ""
 	}
-	if form != "follower" {
-		// the load as the output sees it: the circuit without the device
-		if z, ok := impedanceAt(without(c, p.Ref), out, f); ok {
-			if load := cmplx.Abs(z); figure.Differs(load, rl) {
-				why = append(why, fmt.Sprintf("the output works into %s in circuit, not the %s of resistors to AC ground the formula takes",
-					figure.Format(load, figure.Ohm, figure.Text), figure.Format(rl, figure.Ohm, figure.Text)))
-			}
+	a0, _ := gainFormula(d, form, rl, rk)
+	nearer := func(a float64) bool { return math.Abs(a-sv) < math.Abs(a0-sv)-1e-9*math.Abs(sv) }
+	if z, ok := impedanceAt(without(x.solverCircuit(), p.Ref), out, f); ok {
+		load, formulaLoad, a := cmplx.Abs(z), rl, 0.0
+		if form == "follower" {
+			formulaLoad = rk
+			a, _ = gainFormula(d, form, rl, load)
+		} else {
+			a, _ = gainFormula(d, form, load, rk)
+		}
+		if figure.Differs(load, formulaLoad) && nearer(a) {
+			why = append(why, fmt.Sprintf("the output works into %s in circuit, not the %s of resistors to AC ground the formula takes",
+				figure.Format(load, figure.Ohm, figure.Text), figure.Format(formulaLoad, figure.Ohm, figure.Text)))
 		}
 	}
 	if d.kind != graph.Valve && d.rOut == 0 && full.ROut > 0 && !math.IsInf(full.ROut, 1) {
-		why = append(why, fmt.Sprintf("the solver's ro of %s (from the default Early voltage) the formula leaves out",
-			figure.Format(full.ROut, figure.Ohm, figure.Text)))
+		dr := d
+		dr.rOut = full.ROut
+		if a, _ := gainFormula(dr, form, rl, rk); nearer(a) {
+			why = append(why, fmt.Sprintf("the solver's ro of %s (from the default Early voltage) the formula leaves out",
+				figure.Format(full.ROut, figure.Ohm, figure.Text)))
+		}
 	}
 	if form == "common" {
 		if k := x.commonNet(); k != "" {
-			if z, ok := impedanceAt(c, k, f); ok && cmplx.Abs(z) > figure.CheckAgreement*full.ZCommon(rl) {
+			if z, ok := impedanceAt(quiet(x.solverCircuit()), k, f); ok && cmplx.Abs(z) > figure.CheckAgreement*full.ZCommon(rl) {
 				why = append(why, fmt.Sprintf("the %s is not at AC ground at %s: it sees %s, no full bypass",
 					electrodeWord(p), hz(f), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text)))
 			}
 		}
 	}
 	if len(why) == 0 {
-		return "the circuit round the stage (feedback, or a path the formula does not model) moves it"
+		return noCause
 	}
 	return strings.Join(why, "; ")
 }
+
+// noCause is the why of a difference no checked effect explains: it
+// names no cause, since a guessed one (feedback, say) misleads a repairer.
+const noCause = "the solver takes the whole circuit round the stage, which the formula does not model; no single effect pare checks (the load, ro, the bypass) accounts for it"
 
 // outputWord is the output electrode's name for a device.
 func outputWord(p *graph.Part) string {
@@ -143,7 +160,7 @@ func (x *figCtx) gainNets(form string) (in, out string) {
 // the output read where the next stage loads it, gang at mid travel. why
 // words a difference from the formula (gainWhy). nil when the nets or the
 // band are not known or the solver fails.
-func (x *figCtx) solveGain(p *graph.Part, form string, d device, rl float64) (*figure.Figure, func() string) {
+func (x *figCtx) solveGain(p *graph.Part, form string, d device, rl, rk float64) (*figure.Figure, func() string) {
 	in, out := x.gainNets(form)
 	c := x.solverCircuit()
 	band := x.w.c.BandOf(p)
@@ -165,7 +182,7 @@ func (x *figCtx) solveGain(p *graph.Part, form string, d device, rl float64) (*f
 	}
 	sv := &figure.Figure{Name: "gain", Unit: figure.Ratio, Value: g,
 		Origin: figure.BySolver("V("+out+")/V("+in+")", hz(f)+", "+gangMid.at)}
-	return sv, func() string { return x.gainWhy(p, form, d, rl, out, f) }
+	return sv, func() string { return x.gainWhy(p, form, d, rl, rk, out, f, g) }
 }
 
 // solveTunedGain is a tuned stage's gain as the solver gives it in
@@ -216,9 +233,12 @@ func (x *figCtx) solveTunedGain(p *graph.Part, rdn2, rOut float64) (*figure.Figu
 		if !ok {
 			return ""
 		}
+		what := outputWord(p) + " output resistance"
+		if rOut == 0 {
+			what = "no " + what + " (none given)"
+		}
 		return fmt.Sprintf("at its peak the output works into %s in circuit, not the %s the formula takes from the tank's own Q, the tap's share of the turns and %s: the windings' coupling and what the tuned winding feeds set it",
-			figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text), figure.Format(parallel(rdn2, rOut), figure.Ohm, figure.Text),
-			outputWord(p)+" output resistance")
+			figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text), figure.Format(parallel(rdn2, rOut), figure.Ohm, figure.Text), what)
 	}
 	return sv, why
 }

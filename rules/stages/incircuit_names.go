@@ -3,6 +3,7 @@ package stages
 import (
 	"fmt"
 	"math"
+	"math/cmplx"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -10,7 +11,7 @@ import (
 )
 
 // Names checked against behaviour: a pattern's name claims a property (a
-// bypass, a tuned load, a follower, a smoothing filter); the claim stands
+// bypass, a tuned load, a smoothing filter); the claim stands
 // only where the solver (or, for smoothing, the circuit) shows it. Where
 // it fails the stage takes the plainer name and a note says why.
 
@@ -20,15 +21,14 @@ import (
 // one aligns it).
 const tunedMinQ = 2
 
-// followerMinGain is the least gain of a follower: 0.7, about 3 dB down
-// (common practice, no source: a cathode or emitter follower gives 0.8
-// to 0.99; a stage far below is loaded or is something else).
+// followerMinGain is the gain below which a follower's note says what
+// loads it: 0.7, about 3 dB down (common practice, no source: a cathode or
+// emitter follower into a light load gives 0.8 to 0.99).
 const followerMinGain = 0.7
 
 // plainerTitles are the names a stage takes when its claim fails.
 var plainerTitles = map[string]string{
 	"tuned":    "Transformer-coupled amplifier, common {common} ({family})",
-	"follower": "Stage with its output at the {common} ({family})",
 	"smooth":   "Supply decoupling filter",
 }
 
@@ -58,13 +58,27 @@ func qText(q float64) string {
 	return figure.Plain(q)
 }
 
-// checkFollower keeps "follower" where the solver's gain is near 1.
-func (x *figCtx) checkFollower() {
+// checkFollower: a follower is named by its topology (output electrode at
+// AC ground, the signal taken from the common one), whatever its gain; a
+// gain well below 1 comes from what it drives, and the note says what
+// that is in circuit, so the figure is read with its load.
+func (x *figCtx) checkFollower(p *graph.Part) {
 	g, ok := x.get("gain")
 	if !x.solve || !ok || g.Origin.Source != figure.Solver || g.Value >= followerMinGain {
 		return
 	}
-	x.rename("follower", fmt.Sprintf("not named a follower: its gain in circuit is %s, not near 1", figure.Plain(g.Value)))
+	_, out := x.gainNets("follower")
+	band := x.w.c.BandOf(p)
+	if out == "" || band.Min <= 0 || band.Max <= 0 {
+		return
+	}
+	f := math.Sqrt(band.Min * band.Max)
+	z, ok := impedanceAt(without(x.solverCircuit(), p.Ref), out, f)
+	if !ok {
+		return
+	}
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("a follower with a gain of %s in circuit: at %s its %s drives %s, the load pulls it below 1",
+		figure.Plain(g.Value), hz(f), electrodeWord(p), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text)))
 }
 
 // checkSmoothing keeps "smoothing" where a rectifier feeds the filter: a

@@ -143,3 +143,50 @@ func TestBypassCheckedAcrossTheBand(t *testing.T) {
 		t.Errorf("flags %q, want %q", s.Flags, flag)
 	}
 }
+
+// Cross-check explanations name only a cause that re-solving confirms
+// (issue 10): the VFO's cathode follower gives 0.5844 (the reviewer's
+// ngspice deck vfo_buf.cir, ngspice .ac at 5.23 MHz) because it drives
+// 2k2 ∥ (C8 + 1k), about 688 Ω (derived: C8 is 3 Ω there), not through
+// feedback; it stays a follower by topology, its load named.
+func TestFollowerLoadNotFeedback(t *testing.T) {
+	_, got := reduceGood(t, "review-vfo.toml")
+	s := stageWith(got, "V1b")
+	if s == nil || s.Topology != "amp-follower" || s.Title != "Cathode follower" {
+		t.Fatalf("V1b in %+v", s)
+	}
+	g, ok := s.Figures.Get("gain")
+	if !ok || !within(g.Value, 0.5844, 0.002) || g.Check == nil {
+		t.Fatalf("gain %+v, want 0.5844 (ngspice) with its check", g)
+	}
+	if strings.Contains(g.Why, "feedback") || !strings.Contains(g.Why, "works into 688 Ω") {
+		t.Errorf("why %q, want the 688 Ω load, no feedback", g.Why)
+	}
+	if !slices.ContainsFunc(s.Notes, func(n string) bool { return strings.Contains(n, "cathode drives 688 Ω") }) {
+		t.Errorf("notes %q do not name the load", s.Notes)
+	}
+}
+
+// A formula that names rout counts it: the portable's IF stage has no ro
+// given, so its formula does not claim "∥ rout" (issue 10).
+func TestTunedGainFormulaSaysWhatItCounts(t *testing.T) {
+	_, got := reduceGood(t, "review-portable.toml")
+	s := stageOf(got, "amp-tuned-tapped")
+	if s == nil {
+		t.Fatalf("no tuned stage: %s", topologies(got))
+	}
+	g, ok := s.Figures.Get("gain")
+	if !ok || g.Check == nil {
+		t.Fatalf("gain %+v", g)
+	}
+	if strings.Contains(g.Check.Origin.String(), "∥ rout") {
+		t.Errorf("formula %q names rout but leaves it out", g.Check.Origin)
+	}
+	// −gm·Rd·n², gm = Ic/VT = 1 mA/25.852 mV (docs/devices.md), Rd and n
+	// as the stage gives them (derived)
+	rd, _ := s.Figures.Get("r_dyn")
+	n, _ := s.Figures.Get("tap_share")
+	if want := -1e-3 / 0.025852 * rd.Value * n.Value * n.Value; !within(g.Check.Value, want, 0.01) {
+		t.Errorf("formula %g, want −gm·Rd·n² = %g", g.Check.Value, want)
+	}
+}
