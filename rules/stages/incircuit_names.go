@@ -28,8 +28,8 @@ const followerMinGain = 0.7
 
 // plainerTitles are the names a stage takes when its claim fails.
 var plainerTitles = map[string]string{
-	"tuned":    "Transformer-coupled amplifier, common {common} ({family})",
-	"smooth":   "Supply decoupling filter",
+	"tuned":  "Transformer-coupled amplifier, common {common} ({family})",
+	"smooth": "Supply decoupling filter",
 }
 
 // checkTuned keeps "tuned" where the load's in-circuit peak has a Q worth
