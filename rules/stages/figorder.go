@@ -73,6 +73,8 @@ var figureNames = []figName{
 	{name: "q_mult", label: "Q multiplied by"},
 	{name: "k", label: "k"},
 	{name: "kc", label: "kc"},
+	{name: "q1_loaded", label: "loaded Q1"},
+	{name: "q2_loaded", label: "loaded Q2"},
 	{name: "z_ratio", label: "z ratio"},
 	{name: "turns_ratio", label: "turns ratio"},
 	{name: "c_reservoir", label: "c reservoir"},

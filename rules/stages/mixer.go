@@ -17,6 +17,7 @@ var (
 	byWindingQ   = figure.FromNetlist("winding Q")
 	byCritical   = figure.ByFormula("kc = 1/√(Q1Q2)")
 	byKRatio     = figure.ByFormula("k/kc")
+	byLoadedQ    = figure.BySolver("f0/(f2 − f1) of |Z| across the winding, the other uncoupled", gangMid.at)
 	byBandwidth  = figure.ByFormula("B = √2·f0/Q, Q = √(Q1Q2)")
 	byDeclaredIF = figure.FromNetlist("[freqs] if")
 	bySignal     = figure.ByFormula("fsig = fosc − IF")
@@ -45,7 +46,9 @@ func calcDoubleTuned(x *figCtx) {
 	sub := x.sub
 	x.sub = withPart(x.solverCircuit(), x.w.uncoupled(ci, as[0], as[1]))
 	f1 := x.windingTank(ci, c1, x.parts("caps1"), "1")
+	ql1 := x.tankLoadedQ()
 	f2 := x.windingTank(ci, c2, x.parts("caps2"), "2")
+	ql2 := x.tankLoadedQ()
 	x.sub = sub
 	k := p.K(c1.name, c2.name)
 	x.set("k", figure.Ratio, k, byCoupling)
@@ -59,7 +62,7 @@ func calcDoubleTuned(x *figCtx) {
 		}
 	}
 	if q1 > 0 && q2 > 0 {
-		x.coupledPair(p.Ref, f1, k, q1, q2)
+		x.coupledPair(p.Ref, f1, k, [2]float64{q1, q2}, [2]float64{ql1, ql2})
 		x.pairFigure(x.hotEnd(ci, c1), x.hotEnd(ci, c2), f1)
 	}
 	for _, f := range []float64{f1, f2} {
@@ -100,15 +103,31 @@ func (w *world) uncoupled(ci int, only ...int) *graph.Part {
 }
 
 // coupledPair writes the critical coupling and bandwidth of a pair of
-// windings of Q q1 and q2 coupled by k, and flags a pair far from critical.
-func (x *figCtx) coupledPair(ref string, f1, k, q1, q2 float64) {
-	q := math.Sqrt(q1 * q2)
-	kc := 1 / q
-	x.set("q1", figure.Ratio, q1, byWindingQ)
-	x.set("q2", figure.Ratio, q2, byWindingQ)
-	x.set("kc", figure.Ratio, kc, byCritical)
+// windings of own Q q coupled by k, and flags a pair far from critical.
+// Where the solver gives each winding's Q as its circuit loads it (ql,
+// each side solved with the other uncoupled), kc and k/kc come from those,
+// with kc from the windings' own Q as the cross-check: a pair is judged
+// as it works, not as its coils would on the bench.
+func (x *figCtx) coupledPair(ref string, f1, k float64, q, ql [2]float64) {
+	qo := math.Sqrt(q[0] * q[1])
+	kc := 1 / qo
+	x.set("q1", figure.Ratio, q[0], byWindingQ)
+	x.set("q2", figure.Ratio, q[1], byWindingQ)
+	check := figure.Figure{Name: "kc", Unit: figure.Ratio, Value: kc, Origin: byCritical}
+	if ql[0] > 0 && ql[1] > 0 {
+		x.set("q1_loaded", figure.Ratio, ql[0], byLoadedQ)
+		x.set("q2_loaded", figure.Ratio, ql[1], byLoadedQ)
+		kc = 1 / math.Sqrt(ql[0]*ql[1])
+		sv := &figure.Figure{Name: "kc", Unit: figure.Ratio, Value: kc, Origin: figure.BySolver("1/√(Q1Q2) with each winding's loaded Q", gangMid.at)}
+		x.putChecked(sv, &check, func() string {
+			return fmt.Sprintf("the formula takes the windings' own Q (%s, %s); in circuit their loads bring them to %s and %s",
+				figure.Plain(q[0]), figure.Plain(q[1]), figure.Plain(ql[0]), figure.Plain(ql[1]))
+		})
+	} else {
+		x.put(check)
+	}
 	if f1 > 0 {
-		x.set("bw", figure.Hertz, math.Sqrt2*f1/q, byBandwidth) // the solver's replaces it (pairFigure)
+		x.set("bw", figure.Hertz, math.Sqrt2*f1/qo, byBandwidth) // the solver's replaces it (pairFigure)
 	}
 	if k <= 0 {
 		return
@@ -120,6 +139,19 @@ func (x *figCtx) coupledPair(ref string, f1, k, q1, q2 float64) {
 	case r < 0.5:
 		x.flag("%s is under-coupled (k = %s·kc): low gain, narrow response", ref, figure.Plain(r))
 	}
+}
+
+// tankLoadedQ is the Q of the tank last solved (resonanceFigure) at mid
+// travel, 0 where it did not solve or nothing damps it (maxLoadedQ).
+func (x *figCtx) tankLoadedQ() float64 {
+	if !x.solve || !x.tankOK || len(x.tank.q) == 0 {
+		return 0
+	}
+	v := x.tank.q[len(x.tank.q)/2]
+	if math.IsNaN(v) || v <= 0 || v > maxLoadedQ {
+		return 0
+	}
+	return v
 }
 
 // windingTank writes one side's resonance (f1 or f2, a value or a range)

@@ -1,6 +1,7 @@
 package stages
 
 import (
+	"math"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -188,5 +189,34 @@ func TestTunedGainFormulaSaysWhatItCounts(t *testing.T) {
 	n, _ := s.Figures.Get("tap_share")
 	if want := -1e-3 / 0.025852 * rd.Value * n.Value * n.Value; !within(g.Check.Value, want, 0.01) {
 		t.Errorf("formula %g, want −gm·Rd·n² = %g", g.Check.Value, want)
+	}
+}
+
+// A double-tuned pair is judged on its windings' Q as their circuits load
+// them (issue 10): in the reviewer's IF strip the primary's loaded Q is
+// 77.17 (own ngspice 42 deck on the reviewer's ifs_base.inc with K1 set to
+// 1e-9 and 1 A into a1: f0/(f2 − f1) of |Z|); kc = 1/√(Q1Q2) from the
+// loaded Qs, the windings' own Q 100 only its cross-check, and k = 0.008
+// is then under-coupled by pare's own rule (k/kc < 0.5).
+func TestDoubleTunedOnLoadedQ(t *testing.T) {
+	_, got := reduceGood(t, "review-ifstrip.toml")
+	s := stageOf(got, "double-tuned")
+	if s == nil {
+		t.Fatalf("no double-tuned stage: %s", topologies(got))
+	}
+	q1, ok1 := s.Figures.Get("q1_loaded")
+	q2, ok2 := s.Figures.Get("q2_loaded")
+	kc, ok3 := s.Figures.Get("kc")
+	if !ok1 || !ok2 || !ok3 {
+		t.Fatalf("figures %v", s.Figures)
+	}
+	if !within(q1.Value, 77.17, 0.003) {
+		t.Errorf("loaded Q1 %g, ngspice 77.17", q1.Value)
+	}
+	if want := 1 / math.Sqrt(q1.Value*q2.Value); !within(kc.Value, want, 1e-9) || kc.Check == nil || !within(kc.Check.Value, 0.01, 1e-9) {
+		t.Errorf("kc %+v, want %g from the loaded Qs with 1/√(100·100) as its check", kc, want)
+	}
+	if r := 0.008 / kc.Value; r >= 0.5 || !slices.ContainsFunc(s.Flags, func(f string) bool { return strings.Contains(f, "under-coupled") }) {
+		t.Errorf("k/kc %g, flags %q: want under-coupled", r, s.Flags)
 	}
 }
