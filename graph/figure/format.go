@@ -185,7 +185,7 @@ func Items(l List, m Medium) []string {
 		switch {
 		case f.Working:
 		case f.Group == "":
-			out = append(out, f.Item(m))
+			out = append(out, f.Item(m)+f.formulaMark())
 		case !done[f.Group]:
 			done[f.Group] = true
 			var members []string
@@ -198,6 +198,25 @@ func Items(l List, m Medium) []string {
 		}
 	}
 	return out
+}
+
+// FormulaMark follows, in a list of figures, a figure of a kind the
+// solver gives in circuit (a frequency or corner, a gain, an impedance
+// into or out of a stage) that comes from its formula alone: "f c 3.18 kHz
+// (formula)", so it is not read as the solver's. docs/patterns.md says so.
+const FormulaMark = " (formula)"
+
+// formulaMark is FormulaMark for a formula-only figure of a solver kind.
+func (f Figure) formulaMark() string {
+	if f.Origin.Source != Formula || f.Origin.Name == "" {
+		return ""
+	}
+	switch {
+	case f.Unit == Hertz, f.Unit == Ratio && strings.HasSuffix(f.Name, "gain"),
+		f.Unit == Ohm && (strings.HasSuffix(f.Name, "r_out") || strings.HasSuffix(f.Name, "z_in") || strings.HasSuffix(f.Name, "z_out")):
+		return FormulaMark
+	}
+	return ""
 }
 
 // Line is Items on one line, comma separated: the figures column of a

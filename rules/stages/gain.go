@@ -122,7 +122,7 @@ func calcGain(x *figCtx) {
 		return
 	}
 	if form == "follower" {
-		x.set("r_out", figure.Ohm, parallel(d.small.ZCommon(0), rk), byROut)
+		x.followerROut(p, d, rk)
 	}
 	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: a, Origin: figure.ByFormula(name)}
 	sv, why := x.solveGain(p, form, d, rl, rk)

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/graph/figure"
 	"pare/rules"
 )
 
@@ -218,5 +219,24 @@ func TestDoubleTunedOnLoadedQ(t *testing.T) {
 	}
 	if r := 0.008 / kc.Value; r >= 0.5 || !slices.ContainsFunc(s.Flags, func(f string) bool { return strings.Contains(f, "under-coupled") }) {
 		t.Errorf("k/kc %g, flags %q: want under-coupled", r, s.Flags)
+	}
+}
+
+// Figures a repairer reads are the solver's where it can give them (issue
+// 10): the VFO buffer's r out is 361.7 Ω into its cathode with the load
+// removed (the reviewer's ngspice deck vfo_buf.cir, vm(kk)); the coupling
+// capacitor into the buffer gets its corner, 1/(2π·470k·4p7) = 72.05 kHz
+// (derived from fc = 1/(2πRC)).
+func TestVFOFiguresInCircuit(t *testing.T) {
+	_, got := reduceGood(t, "review-vfo.toml")
+	s := stageWith(got, "V1b")
+	r, ok := s.Figures.Get("r_out")
+	if !ok || r.Origin.Source != figure.Solver || !within(r.Value, 361.72, 0.002) {
+		t.Errorf("r out %+v, want the solver's 361.7 Ω (ngspice)", r)
+	}
+	c := stageWith(got, "C6")
+	fc, ok := c.Figures.Get("f_c")
+	if !ok || !within(fc.Value, 1/(2*math.Pi*470e3*4.7e-12), 0.01) {
+		t.Errorf("C6 corner %+v, want 72.05 kHz", fc)
 	}
 }
