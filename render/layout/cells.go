@@ -108,6 +108,9 @@ func labelLines(p *graph.Part, o Options) []string {
 	if to, ok := o.Merged[p.Ref]; ok && to != p.Ref {
 		second = append(second, "\u2192 "+to)
 	}
+	if len(p.From) > 1 {
+		second = append(second, equivalentOf(p.From))
+	}
 	if m := o.Marks[p.Ref]; m != "" {
 		second = append(second, m)
 	}
@@ -119,6 +122,22 @@ func labelLines(p *graph.Part, o Options) []string {
 		out = append(out, v)
 	}
 	return out
+}
+
+// maxEquivalentRefs is how many original refs an equivalent's label names
+// before "…": a bias divider's two, a ladder's few; more crowds a sheet.
+const maxEquivalentRefs = 4
+
+// equivalentOf marks a reduced part that stands for several original ones
+// ("≡ R1, R2"): its value (a bias divider's 6k98) is on no part of the
+// set, and a repairer must not hunt for it.
+func equivalentOf(from []string) string {
+	refs := from
+	more := ""
+	if len(refs) > maxEquivalentRefs {
+		refs, more = refs[:maxEquivalentRefs], ", \u2026"
+	}
+	return "\u2261 " + strings.Join(refs, ", ") + more
 }
 
 // withUnit appends the unit where the letter code has no letter of its own

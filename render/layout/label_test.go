@@ -146,6 +146,21 @@ P1 = { port = "aerial", pins = ["a"] }
 	}
 }
 
+// A reduced bias divider (issue 10): R1 stands for R1 ∥ R2 with a value
+// (6k98, IEC 60062) no part of the set has, so its label names the parts
+// it is the equivalent of, and a long list is cut.
+func TestLabelEquivalent(t *testing.T) {
+	p := &graph.Part{Ref: "R1", Kind: graph.Resistor, From: []string{"R1", "R2"}}
+	p.Value.Min, p.Value.Max = 6982, 6982
+	if got, want := labelLines(p, Options{}), []string{"R1 6k98", "\u2261 R1, R2"}; !reflect.DeepEqual(got, want) {
+		t.Errorf("label %q, want %q", got, want)
+	}
+	p.From = []string{"R1", "R2", "R3", "R4", "R5"}
+	if got, want := labelLines(p, Options{})[1], "\u2261 R1, R2, R3, R4, \u2026"; got != want {
+		t.Errorf("label %q, want %q", got, want)
+	}
+}
+
 // TestWrapWords: frame titles break at spaces into lines of at most n
 // characters; a word longer than n stands alone.
 func TestWrapWords(t *testing.T) {
