@@ -185,3 +185,21 @@ func TestReducedNetlist(t *testing.T) {
 		t.Errorf("reduced netlist does not load back: %v", err)
 	}
 }
+
+// A running valve oscillator's grid sits at a negative grid-leak bias the
+// DC solve (oscillator stopped) gives as 0 V, so its sheets carry no grid
+// figure (issue 10, the reviewer's VFO: "DC a 126 g1 0"); its buffer, not
+// oscillating, keeps its grid figure.
+func TestOscillatorGridHasNoDCFigure(t *testing.T) {
+	res, err := Run(Options{Path: filepath.Join("..", "..", "..", "testdata", "good", "review-vfo.toml"), Until: PhaseStages, Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatal(err)
+	}
+	v := res.electrodeVolts()
+	if _, ok := v["V1a"]["g1"]; ok || v["V1a"]["a"] == "" {
+		t.Errorf("V1a figures %v: want the anode's and no grid's", v["V1a"])
+	}
+	if _, ok := v["V1b"]["g1"]; !ok {
+		t.Errorf("V1b figures %v: the buffer keeps its grid's", v["V1b"])
+	}
+}

@@ -239,6 +239,7 @@ func (r *Result) electrodeVolts() map[string]map[string]string {
 		return nil
 	}
 	out := map[string]map[string]string{}
+	running := r.oscillatingValves()
 	for _, p := range r.DC.Circuit.Parts {
 		if !p.IsActive() {
 			continue
@@ -252,7 +253,11 @@ func (r *Result) electrodeVolts() map[string]map[string]string {
 			// A pin on chassis or a rail needs no figure: the rail symbol
 			// at it says its voltage.
 			railed := r.DC.Circuit.RoleOf(pin.Net).IsACGround()
-			if role == graph.RoleHeater || role == graph.RoleShield || strapped || railed || seen[pin.Net] {
+			// A running valve oscillator's grid charges its grid capacitor
+			// to a negative bias the DC solve, which sees it stopped, gives
+			// as 0 V: the figure would mislead, so the grid carries none.
+			stopped := running[p.Ref] && role == graph.RoleControl
+			if role == graph.RoleHeater || role == graph.RoleShield || strapped || railed || stopped || seen[pin.Net] {
 				continue
 			}
 			seen[pin.Net] = true
@@ -261,6 +266,21 @@ func (r *Result) electrodeVolts() map[string]map[string]string {
 		}
 		if len(pins) > 0 {
 			out[p.Ref] = pins
+		}
+	}
+	return out
+}
+
+// oscillatingValves are the valves whose loop (stages.Loop) reaches 0 dB
+// somewhere on the dial: the oscillators that run.
+func (r *Result) oscillatingValves() map[string]bool {
+	out := map[string]bool{}
+	for _, s := range r.Stages {
+		for _, l := range s.Loop {
+			_, _, _, mMax, ok := l.Range()
+			if p := r.Circuit.Part(l.Device); ok && mMax >= 0 && p != nil && p.Kind == graph.Valve {
+				out[l.Device] = true
+			}
 		}
 	}
 	return out
