@@ -240,3 +240,24 @@ func TestVFOFiguresInCircuit(t *testing.T) {
 		t.Errorf("C6 corner %+v, want 72.05 kHz", fc)
 	}
 }
+
+// The frequency-changer example's pair keeps kc = 1/√(Q1Q2) with T2's own
+// Q 110 and 100 as its cross-check: 0.0095346 (docs/references.md §6).
+func TestDoubleTunedOwnQCheck(t *testing.T) {
+	c, err := graph.LoadFile(filepath.Join("..", "..", "examples", "frequency-changer.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := stageOf(find(t, r, Options{Full: c, ACGround: log.ACGround}), "double-tuned")
+	if s == nil {
+		t.Fatal("no double-tuned stage")
+	}
+	kc, ok := s.Figures.Get("kc")
+	if !ok || kc.Check == nil || !within(kc.Check.Value, 0.0095346, 0.0005) {
+		t.Errorf("kc %+v, want the check 0.0095346 (docs/references.md §6)", kc)
+	}
+}
