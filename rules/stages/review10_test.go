@@ -261,3 +261,16 @@ func TestDoubleTunedOwnQCheck(t *testing.T) {
 		t.Errorf("kc %+v, want the check 0.0095346 (docs/references.md §6)", kc)
 	}
 }
+
+// The load named in a gain's why is what the output works into with the
+// next stage working, not made quiet: in the reviewer's variant Q2's
+// collector sees 3.404 kΩ at 1 kHz (own ngspice 42 deck: R8 ∥ (C11 into
+// 14.76k ∥ Q3's input with its 470R), the reviewer's hybrid-pi values),
+// where pare said 1.76 kΩ (issue 10).
+func TestGainWhyLoadWithNextStageWorking(t *testing.T) {
+	_, got := reduceGood(t, "review-portable-b.toml")
+	g, ok := stageWith(got, "Q2").Figures.Get("gain")
+	if !ok || !strings.Contains(g.Why, "works into 3.4 kΩ") {
+		t.Errorf("why %q, want the 3.4 kΩ load (ngspice 3.404 kΩ)", g.Why)
+	}
+}
