@@ -108,7 +108,10 @@ func labelLines(p *graph.Part, o Options) []string {
 	if to, ok := o.Merged[p.Ref]; ok && to != p.Ref {
 		second = append(second, "\u2192 "+to)
 	}
-	if len(p.From) > 1 {
+	// A gang section drawn with its trimmer folded in is named by its gang
+	// and alignment mark already; the mark is for a fixed equivalent (a
+	// bias divider's 6k98) that is on no part of the set.
+	if len(p.From) > 1 && p.Gang == "" {
 		second = append(second, equivalentOf(p.From))
 	}
 	if m := o.Marks[p.Ref]; m != "" {
