@@ -68,9 +68,14 @@ func (g *Guide) coverage(c *graph.Circuit, sts []stages.Stage) {
 		if _, signal := dist[hotNet(c, gp)]; !signal {
 			continue
 		}
-		if name, lo, hi := tankRange(sts, gp.Ref); name != "" {
-			g.missWarn(fmt.Sprintf("the aerial/RF circuit %s (%s)", name, gp.Ref), lo, hi, b.Min, b.Max, "")
+		name, lo, hi := tankRange(sts, gp.Ref)
+		if name == "" {
+			// Say so rather than stay silent: no named tank means no
+			// in-circuit range, so the coverage was not checked.
+			g.Warnings = append(g.Warnings, fmt.Sprintf("pare could not check whether the aerial/RF circuit on %s covers the declared band %s to %s: no recognised stage names its tank as captured; check the dial ends with a generator", gp.Ref, hz(b.Min), hz(b.Max)))
+			continue
 		}
+		g.missWarn(fmt.Sprintf("the aerial/RF circuit %s (%s)", name, gp.Ref), lo, hi, b.Min, b.Max, "")
 	}
 }
 
