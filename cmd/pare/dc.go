@@ -79,6 +79,9 @@ func runDC(e *env, o *dcOpts, args []string) int {
 		fmt.Fprintf(e.stderr, "pare dc: %v\n", res.DCErr)
 		return exitBad
 	}
+	if stagesErr == nil {
+		pt.AddOscillators(note.StageOscillators(res.Stages))
+	}
 	if o.readings != "" {
 		return runReadings(e, pt, o, caution)
 	}

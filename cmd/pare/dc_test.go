@@ -45,6 +45,11 @@ func TestDCWarningsAndErrors(t *testing.T) {
 		{[]string{"dc", "../../graph/dc/testdata/rectifier-bridge.toml"}, exitOK, "estimate: full-wave bridge rectifier on T1"},
 		{[]string{"dc", "../../graph/dc/testdata/rectifier-bridge.toml"}, exitOK, "method: capacitor-input filter by conduction angle (Schade"},
 		{[]string{"dc", "../../graph/dc/testdata/rectifier-bridge.toml"}, exitOK, "AC: the rectifier's winding"},
+		// The JFET Hartley's source sits on the coil's tap at DC ground: a
+		// running VFO shows at the gate behind its leak (the reviewer's
+		// ngspice transient: gate −9.5 V, source 1.4 mV), not at the source.
+		{[]string{"dc", "../../graph/dc/testdata/review-vfo-bfo.toml"}, exitOK, "through the gate leak, and the gate reads more negative; the drain goes up"},
+		{[]string{"dc", "../../graph/dc/testdata/review-vfo-bfo.toml"}, exitOK, "(Q3): the chart gives the base at 5.539 V"},
 		// MOSFETs have the square law now, not a refusal.
 		{[]string{"dc", "../../graph/dc/testdata/mosfet.toml"}, exitOK, "drain current"},
 	}
@@ -58,19 +63,26 @@ func TestDCWarningsAndErrors(t *testing.T) {
 }
 
 // TestDCReadings runs the ranking on the bench fixture whose readings were
-// taken (in simulation) with its coupling capacitor leaking, and on a
-// readings file full of mistakes; both outputs are golden files.
+// taken (in simulation) with its coupling capacitor leaking, on a
+// readings file full of mistakes, and on the blind review's readings (a
+// healthy set with its oscillators running, an open bias diode: ngspice on
+// the reviewer's decks through a 20 kΩ/V meter); the outputs are golden
+// files.
 func TestDCReadings(t *testing.T) {
+	const pentode = "../../graph/dc/testdata/pentode-rc.toml"
 	cases := []struct {
-		readings, golden string
-		code             int
+		circuit, readings, golden string
+		code                      int
 	}{
-		{"testdata/dc/pentode-rc.readings", "testdata/dc/pentode-rc.ranking", exitOK},
-		{"testdata/dc/bad.readings", "testdata/dc/bad.readings.err", exitBad},
+		{pentode, "testdata/dc/pentode-rc.readings", "testdata/dc/pentode-rc.ranking", exitOK},
+		{pentode, "testdata/dc/bad.readings", "testdata/dc/bad.readings.err", exitBad},
+		{"../../graph/dc/testdata/review-vfo-bfo.toml", "testdata/dc/review-vfo-bfo-healthy.readings", "testdata/dc/review-vfo-bfo-healthy.ranking", exitOK},
+		{"../../graph/dc/testdata/review-vfo-bfo.toml", "testdata/dc/review-vfo-bfo-f5.readings", "testdata/dc/review-vfo-bfo-f5.ranking", exitOK},
+		{"../../graph/dc/testdata/review-tr-portable.toml", "testdata/dc/review-tr-portable-f4.readings", "testdata/dc/review-tr-portable-f4.ranking", exitOK},
 	}
 	for _, tc := range cases {
 		var out, errb bytes.Buffer
-		code := run([]string{"dc", "../../graph/dc/testdata/pentode-rc.toml", "--readings", tc.readings}, &out, &errb)
+		code := run([]string{"dc", tc.circuit, "--readings", tc.readings}, &out, &errb)
 		if code != tc.code {
 			t.Fatalf("%s: exit %d, want %d: %s", tc.readings, code, tc.code, errb.String())
 		}

@@ -32,9 +32,10 @@ type Point struct {
 	Estimates []Estimate
 
 	m    *model
-	v    []float64 // free node voltages
-	sys  *system   // the healthy system, for meter readings
-	fsys *system   // one system shared by the faults that keep the topology
+	v    []float64     // free node voltages
+	sys  *system       // the healthy system, for meter readings
+	fsys *system       // one system shared by the faults that keep the topology
+	osc  *[]Oscillator // found on first use (oscillator.go)
 }
 
 // NetV is the DC voltage of one net.

@@ -50,7 +50,8 @@ func TestInjectedFaults(t *testing.T) {
 				t.Fatal(err)
 			}
 			vals := runReadings(t, bin, deck.String(), len(nets))
-			rd := &Readings{Tolerance: defaultTolerance}
+			// ngspice .op has no oscillation: the readings are the stopped ones.
+			rd := &Readings{Tolerance: defaultTolerance, Stopped: true}
 			for i, n := range nets {
 				rd.List = append(rd.List, Reading{Key: n, Net: n, Volts: vals[i], Meter: Meter{Ohms: ohms[i]}})
 			}
@@ -91,7 +92,8 @@ func TestInjectedFaults(t *testing.T) {
 }
 
 // suitePoints are the standard test points: every electrode net that is not
-// held and has a DC path, each with its meter resistance.
+// held and has a DC path, and every rail (a technician reads the HT or the
+// battery first: common practice), each with its meter resistance.
 func suitePoints(t *testing.T, pt *Point) ([]string, []float64) {
 	ch, err := pt.Chart(Meter{})
 	if err != nil {
@@ -108,6 +110,13 @@ func suitePoints(t *testing.T, pt *Point) ([]string, []float64) {
 		seen[tp.Net] = true
 		nets = append(nets, tp.Net)
 		ohms = append(ohms, Meter{OhmsPerVolt: suiteOhmsPerVolt}.Resistance(tp.Volts))
+	}
+	for _, r := range ch.Rails {
+		if !seen[r.Net] && r.Volts != 0 {
+			seen[r.Net] = true
+			nets = append(nets, r.Net)
+			ohms = append(ohms, Meter{OhmsPerVolt: suiteOhmsPerVolt}.Resistance(r.Volts))
+		}
 	}
 	return nets, ohms
 }

@@ -18,6 +18,7 @@ import (
 //
 //	meter = "20k/V"        # the default meter for every reading
 //	tolerance = "10%"      # how far a reading may stray from the chart
+//	oscillators = "running" # or "stopped" (tanks shorted out); default running
 //	[readings]
 //	pre_a = 120            # a net, in volts
 //	"V3.k" = { volts = "2.1", meter = "20k/V@10" }   # a part's pin
@@ -25,7 +26,12 @@ type Readings struct {
 	File      string
 	Meter     Meter
 	Tolerance float64 // fraction
-	List      []Reading
+	// Stopped says the oscillators were stopped for the readings (each
+	// tank shorted out). The default is running: a set switched on on the
+	// bench has its oscillators running, and a reading taken so is what a
+	// technician has unless they stop them on purpose.
+	Stopped bool
+	List    []Reading
 }
 
 // Reading is one measurement.
@@ -82,9 +88,17 @@ func ParseReadings(path string, data []byte, c *graph.Circuit) (*Readings, error
 				bad(k, "tolerance must be a percentage such as \"10%%\"")
 			}
 			rd.Tolerance = t.Plus
+		case "oscillators":
+			switch raw[k] {
+			case "running":
+			case "stopped":
+				rd.Stopped = true
+			default:
+				bad(k, "oscillators must be \"running\" (the default: the set switched on) or \"stopped\" (each tank shorted out)")
+			}
 		case "readings":
 		default:
-			errs.Add(ix.Key(k), "unknown key %q; expected meter, tolerance or [readings]", k)
+			errs.Add(ix.Key(k), "unknown key %q; expected meter, tolerance, oscillators or [readings]", k)
 		}
 	}
 	table, ok := raw["readings"].(map[string]any)

@@ -3,6 +3,7 @@ package dc
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 
 	"pare/graph"
@@ -57,6 +58,9 @@ type rectifier struct {
 	diodes          int      // diodes in series in the conducting path
 	valve           bool     // a valve rectifier (three-halves law), else Shockley
 	is              float64  // the semiconductor diode's saturation current
+	parts           []string // the rectifying diodes' refs
+	sec             string   // the rectifier winding's name (a centre-tapped one: its halves' stem)
+	dead            bool     // a fault stops it rectifying (railfault.go)
 }
 
 // rippleHz is the ripple frequency: the mains for half-wave, twice it for
@@ -81,6 +85,10 @@ func (r *rectifier) drop(i float64) float64 {
 // at is the estimate at load current i.
 func (r *rectifier) at(i float64) Estimate {
 	e := Estimate{Net: r.net, Volts: r.peak, Amps: i, Peak: r.peak, Wave: r.wave, Transformer: r.xfmr, Method: rectifierMethod}
+	if r.dead {
+		e.Volts = 0
+		return e
+	}
 	if !(i > 0) {
 		return e
 	}
@@ -212,6 +220,12 @@ func rectifierOf(c *graph.Circuit, p *graph.Part, vac float64, diodes []rectDiod
 	for _, d := range fwd {
 		ends[d.a] = true
 	}
+	for _, d := range append(fwd, ret...) {
+		if !slices.Contains(r.parts, d.part.Ref) {
+			r.parts = append(r.parts, d.part.Ref)
+		}
+	}
+	r.sec = sec.name
 	switch {
 	case len(ends) == 2 && len(ret) >= 2:
 		r.wave, r.full, r.diodes = "full-wave bridge", true, 2

@@ -117,6 +117,10 @@ func (m *model) deviceCards(b *strings.Builder, i int, d *device) {
 		fmt.Fprintf(b, "BS%s %s %s I=%s*(1-%s)\n", id, n(2), n(3), ik, share)
 		fmt.Fprintf(b, "BG%s %s %s I=%s\n", id, n(1), n(3), pow(l.kg, fmt.Sprintf("v(%s,%s)", n(1), n(3))))
 	case devDiode:
+		if d.is == 0 { // an open diode (a fault): no element at all
+			fmt.Fprintf(b, "* D%s open\n", id)
+			return
+		}
 		fmt.Fprintf(b, "D%s %s %s DM%s\n.model DM%s D(IS=%.12g N=1)\n", id, n(0), n(1), id, id, d.is)
 	case devBJT:
 		typ := "npn"

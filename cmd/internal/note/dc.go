@@ -5,10 +5,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"strings"
 
 	"pare/cmd/internal/pipeline"
-	"pare/graph"
 	"pare/graph/dc"
 	"pare/graph/value"
 	"pare/rules/stages"
@@ -123,52 +121,10 @@ func Volts(v float64) string {
 	return fmt.Sprintf("%.4g V", v)
 }
 
-// OscillatorNotes says, for each recognised oscillator, what its control
-// electrode shows when it runs. A DC analysis has no oscillation, so the
-// chart gives the stopped value; on the bench a running valve oscillator
-// charges its grid negative through grid current in the grid leak, and a
-// reading near 0 V means it is not running (common practice). A transistor
-// oscillator's junction rectifies the oscillation too: its emitter voltage
-// moves when the tank is shorted out (common practice).
-func OscillatorNotes(found []stages.Stage, pt *dc.Point) []string {
-	var notes []string
-	seen := map[string]bool{}
-	for _, s := range found {
-		if !strings.Contains(strings.ToLower(s.Title), "oscillat") {
-			continue
-		}
-		for _, ref := range s.Parts {
-			p := pt.Circuit.Part(ref)
-			if p == nil || !p.IsActive() || seen[ref] {
-				continue
-			}
-			seen[ref] = true
-			notes = append(notes, oscillatorNote(s, p, pt))
-		}
-	}
-	return notes
-}
-
 // StagesFailed is the oscillator line when the stages could not be found.
 func StagesFailed(err error) []string {
 	if err == nil || errors.Is(err, stages.ErrSearchLimit) {
 		return nil
 	}
 	return []string{fmt.Sprintf("stages not recognised (%v): no oscillator notes", err)}
-}
-
-func oscillatorNote(s stages.Stage, p *graph.Part, pt *dc.Point) string {
-	ctl := p.PinWithRole(graph.RoleControl)
-	v, _ := pt.Volts(p.NetOf(ctl))
-	if p.Kind == graph.Valve {
-		return fmt.Sprintf("%s %s (%s): the chart gives the grid at %s, the value with the oscillator stopped. "+
-			"Running, grid current through the grid leak holds the grid a few volts negative; "+
-			"a reading near 0 V at the grid points to an oscillator that is not running.", s.Name, s.Title, p.Ref, Volts(v))
-	}
-	com := p.PinWithRole(graph.RoleCommon)
-	ve, _ := pt.Volts(p.NetOf(com))
-	word := map[string]string{"b": "base", "e": "emitter", "g": "gate", "s": "source"}
-	return fmt.Sprintf("%s %s (%s): the chart gives the %s at %s and the %s at %s, the values with the oscillator stopped. "+
-		"Running, the junction rectifies the oscillation and the %s voltage shifts; if it does not move when the tank is shorted out, "+
-		"the oscillator is not running.", s.Name, s.Title, p.Ref, word[ctl], Volts(v), word[com], Volts(ve), word[com])
 }
