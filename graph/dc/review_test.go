@@ -141,3 +141,64 @@ func TestNextReadingOnTheMeter(t *testing.T) {
 		t.Errorf("next reading %.4g V, meter %.4g V, unloaded %.4g V", dg.NextA, want, sim.Volts("g3"))
 	}
 }
+
+// TestRailFaults: faults on parts across a rail answer to the rail. A short
+// across the 9 V battery collapses it (no battery holds into 1 Ω: common
+// practice), so "C8 short" predicts 0 V at the rail and is contradicted by
+// a rail that reads normal; a shorted reservoir collapses the estimated HT
+// (the review: "C1 (reservoir) short" ranked second while HT read 288 V).
+func TestRailFaults(t *testing.T) {
+	cases := []struct {
+		file, fault, net string
+		below           float64 // the faulty rail is under this fraction of the healthy one
+	}{
+		{"testdata/review-tr-portable.toml", "C8 short", "vcc", 0.01},
+		{"testdata/review-valve-amp.toml", "C1 short", "res", 0.1},
+		{"testdata/review-valve-amp.toml", "V1 open", "res", 0.01},
+	}
+	for _, tc := range cases {
+		pt, err := Solve(load(t, tc.file))
+		if err != nil {
+			t.Fatal(err)
+		}
+		kind := tc.fault[len("C8 "):]
+		sim, err := pt.Simulate(Fault{tc.fault[:2], kind})
+		if err != nil {
+			t.Fatal(err)
+		}
+		healthy, _ := pt.Volts(tc.net)
+		if got := sim.Volts(tc.net); !(got < tc.below*healthy) {
+			t.Errorf("%s %s: %s at %.4g V, healthy %.4g V", tc.file, tc.fault, tc.net, got, healthy)
+		}
+	}
+	// With the rail read normal, neither is among the first candidates.
+	for _, tc := range []struct{ circuit, readings, fault string }{
+		{"review-valve-amp", "review-valve-amp-f1", "C1 short"},
+		{"review-tr-portable", "review-tr-portable-f3", "C8 short"},
+	} {
+		_, dg := rankFile(t, tc.circuit, tc.readings)
+		for i, c := range dg.Ranked[:5] {
+			if c.Fault.String() == tc.fault {
+				t.Errorf("%s: %s ranked %d", tc.readings, tc.fault, i+1)
+			}
+		}
+	}
+}
+
+// TestNothingExplainedRanksLast: a fault that fits no reading off the chart
+// never ranks above one that fits some (the review: faults that change
+// nothing tied with the true leak).
+func TestNothingExplainedRanksLast(t *testing.T) {
+	_, dg := rankFile(t, "review-tr-portable", "review-tr-portable-f3")
+	seenNone := false
+	for _, c := range dg.Ranked {
+		if len(c.Explains) == 0 {
+			seenNone = true
+		} else if seenNone {
+			t.Fatalf("%s explains %v but ranks after a fault that explains nothing", c.Fault, c.Explains)
+		}
+	}
+	if len(dg.Ranked[0].Explains) == 0 || dg.Ranked[0].Score >= dg.Ranked[1].Score {
+		t.Errorf("first %s (misfit %.3g) does not stand apart from %s (%.3g)", dg.Ranked[0].Fault, dg.Ranked[0].Score, dg.Ranked[1].Fault, dg.Ranked[1].Score)
+	}
+}
