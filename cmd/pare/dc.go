@@ -114,6 +114,9 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 	for _, l := range caution {
 		fmt.Fprintf(w, "  %s\n", l)
 	}
+	if ch.Leads != "" {
+		fmt.Fprintf(w, "  %s\n", ch.Leads)
+	}
 	fmt.Fprintln(w, "\ntest points")
 	for _, tp := range ch.Points {
 		line := fmt.Sprintf("  %-6s %-11s %-12s %10s", tp.Ref, tp.Label, tp.Net, volts(tp.Volts))
@@ -135,6 +138,16 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 				fmt.Fprintf(w, "  %-12s estimate: %s rectifier on %s, %s peak, %s drop, ripple %s p-p\n  %-12s method: %s\n",
 					"", e.Wave, e.Transformer, volts(e.Peak), volts(e.Drop), volts(e.Ripple), "", e.Method)
 			}
+		}
+	}
+	if len(ch.Supplies) > 0 {
+		fmt.Fprintln(w, "\nsupply test points")
+		for _, sp := range ch.Supplies {
+			line := fmt.Sprintf("  %-12s %10s   after %s from %s, decoupled by %s", sp.Net, volts(sp.Volts), sp.Via, sp.From, sp.Cap)
+			if !ch.Meter.IsIdeal() {
+				line += fmt.Sprintf("; meter reads %s", volts(sp.Reading))
+			}
+			fmt.Fprintln(w, line)
 		}
 	}
 	if len(ch.Currents) > 0 {

@@ -50,6 +50,15 @@ func TestDCWarningsAndErrors(t *testing.T) {
 		// ngspice transient: gate −9.5 V, source 1.4 mV), not at the source.
 		{[]string{"dc", "../../graph/dc/testdata/review-vfo-bfo.toml"}, exitOK, "through the gate leak, and the gate reads more negative; the drain goes up"},
 		{[]string{"dc", "../../graph/dc/testdata/review-vfo-bfo.toml"}, exitOK, "(Q3): the chart gives the base at 5.539 V"},
+		// Positive earth: the chassis is the positive side, the meter's
+		// positive lead goes to it (common practice).
+		{[]string{"dc", "testdata/dc/positive-earth.toml"}, exitOK, "instead clip the meter's positive (red) lead to chassis"},
+		{[]string{"dc", "testdata/dc/positive-earth.toml"}, exitOK, "-9 V   draws 1.01 mA"},
+		// Supply test points and the rectifier's anode currents (reviewer's
+		// ngspice .op: 268 V after the choke, 229 V decoupled).
+		{[]string{"dc", "../../graph/dc/testdata/review-valve-amp.toml"}, exitOK, "ht              268.4 V   after L1 from res, decoupled by C2"},
+		{[]string{"dc", "../../graph/dc/testdata/review-valve-amp.toml"}, exitOK, "htd             228.7 V   after R4 from ht, decoupled by C5"},
+		{[]string{"dc", "../../graph/dc/testdata/review-valve-amp.toml"}, exitOK, "V1     anode 1, mean (est.) 22.1 mA"},
 		// MOSFETs have the square law now, not a refusal.
 		{[]string{"dc", "../../graph/dc/testdata/mosfet.toml"}, exitOK, "drain current"},
 	}

@@ -3,6 +3,7 @@ package dc
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"pare/graph"
 )
@@ -11,12 +12,16 @@ import (
 // points (electrodes of the active devices, each rail), the currents a
 // repairer checks, the power in each resistor and the warnings.
 type Chart struct {
-	Meter     Meter        `json:"meter"`
-	Points    []TestPoint  `json:"points"`
-	Rails     []Rail       `json:"rails"`
-	Currents  []DevCurrent `json:"currents"`
-	Resistors []Heat       `json:"resistors"`
-	Warnings  []string     `json:"warnings,omitempty"`
+	Meter     Meter         `json:"meter"`
+	Points    []TestPoint   `json:"points"`
+	Rails     []Rail        `json:"rails"`
+	Supplies  []SupplyPoint `json:"supplies"` // supply test points after the rails (supplies.go)
+	Currents  []DevCurrent  `json:"currents"`
+	Resistors []Heat        `json:"resistors"`
+	Warnings  []string      `json:"warnings,omitempty"`
+	// Leads says which meter lead goes to chassis when that is not the
+	// usual negative one (a positive-earth set); "" otherwise.
+	Leads string `json:"leads,omitempty"`
 }
 
 // TestPoint is one electrode: the net it is on, its voltage and what the
@@ -36,7 +41,7 @@ type TestPoint struct {
 type Rail struct {
 	Net   string  `json:"net"`
 	Volts float64 `json:"volts"`
-	Amps  float64 `json:"amps"`
+	Amps  float64 `json:"amps"` // the current the rail delivers (from its negative side for a negative rail)
 	// Estimate is set for a rail estimated from a captured rectifier and
 	// reservoir rather than declared: its method, ripple and load.
 	Estimate *Estimate `json:"estimate,omitempty"`
@@ -97,7 +102,19 @@ func (p *Point) Chart(mt Meter) (*Chart, error) {
 		if name == "" || p.Circuit.RoleOf(name) == graph.Ground || p.Circuit.RoleOf(name) == graph.Heater {
 			continue
 		}
-		ch.Rails = append(ch.Rails, Rail{Net: name, Volts: p.m.fixedV[i], Amps: p.railCurrent(name), Estimate: p.estimateFor(name)})
+		amps := p.railCurrent(name)
+		if p.m.fixedV[i] < 0 {
+			amps = -amps // a negative rail delivers the current its pins return
+		}
+		ch.Rails = append(ch.Rails, Rail{Net: name, Volts: p.m.fixedV[i], Amps: amps, Estimate: p.estimateFor(name)})
+	}
+	sp, err := p.supplyPoints(mt)
+	if err != nil {
+		return nil, err
+	}
+	ch.Supplies = sp
+	if p.PositiveEarth() {
+		ch.Leads = PositiveEarthLeads
 	}
 	for _, n := range p.Nets {
 		if n.Floating && p.isTestPoint(n.Name) {
@@ -157,6 +174,17 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 			ch.Currents = append(ch.Currents, DevCurrent{part.Ref, what, sign * p.Current(part.Ref, pin)})
 		}
 	}
+	if amps, ok := p.rectifierShare(part.Ref); ok {
+		// A rectifier's junctions carry the load in pulses the DC solve
+		// cannot see (its winding is AC): each gets its share of the
+		// estimated rail's current, as a mean.
+		for _, pin := range []string{"a", "a1", "a2"} {
+			if part.Pin(pin) != nil {
+				ch.Currents = append(ch.Currents, DevCurrent{part.Ref, rectCurrentLabel[part.Kind][pin], amps})
+			}
+		}
+		return
+	}
 	switch part.Kind {
 	case graph.Valve:
 		if !part.IsActive() {
@@ -186,6 +214,33 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 	case graph.Diode:
 		add("forward current", "a", 1)
 	}
+}
+
+// rectCurrentLabel names a rectifier junction's mean current (an estimate).
+var rectCurrentLabel = map[graph.Kind]map[string]string{
+	graph.Valve: {"a": "anode, mean (est.)", "a1": "anode 1, mean (est.)", "a2": "anode 2, mean (est.)"},
+	graph.Diode: {"a": "forward, mean (est.)"},
+}
+
+// rectifierShare is the mean current of each junction of a rectifier
+// part: the estimated rail's load, shared between the two conducting
+// halves of a full-wave rectifier (each diode of a bridge, each anode of a
+// centre-tapped one, conducts every other half-cycle).
+func (p *Point) rectifierShare(ref string) (float64, bool) {
+	for _, r := range p.m.rects {
+		if !slices.Contains(r.parts, ref) {
+			continue
+		}
+		e := p.estimateFor(r.net)
+		if e == nil {
+			return 0, false
+		}
+		if r.full {
+			return e.Amps / 2, true
+		}
+		return e.Amps, true
+	}
+	return 0, false
 }
 
 // capWarnings checks an electrolytic's polarity and any capacitor's voltage

@@ -202,3 +202,42 @@ func TestNothingExplainedRanksLast(t *testing.T) {
 		t.Errorf("first %s (misfit %.3g) does not stand apart from %s (%.3g)", dg.Ranked[0].Fault, dg.Ranked[0].Score, dg.Ranked[1].Fault, dg.Ranked[1].Score)
 	}
 }
+
+// TestSupplyPoints: the chart lists the supply after the smoothing choke
+// and each decoupled line with its voltage. The reviewer's ngspice .op on
+// the same laws (c1_op.cir, the rail at pare's estimate): HT after the choke
+// 268 V, decoupled HT 229 V. A rectifier's junctions each carry half the
+// load of a full-wave rectifier (derived: each conducts every other
+// half-cycle), not the 0 A the DC solve sees on its AC winding.
+func TestSupplyPoints(t *testing.T) {
+	pt, err := Solve(load(t, "testdata/review-valve-amp.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ch, err := pt.Chart(Meter{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[string]float64{"ht": 268, "htd": 229}
+	for _, sp := range ch.Supplies {
+		if w, ok := want[sp.Net]; ok && math.Abs(sp.Volts-w) < 0.005*w {
+			delete(want, sp.Net)
+		}
+	}
+	if len(want) > 0 {
+		t.Errorf("supply points missing or off: %v (chart %+v)", want, ch.Supplies)
+	}
+	load := ch.Rails[0].Amps
+	n := 0
+	for _, c := range ch.Currents {
+		if c.Ref == "V1" {
+			n++
+			if math.Abs(c.Amps-load/2) > 1e-9 {
+				t.Errorf("V1 %s %.4g A, want half the rail's %.4g A", c.What, c.Amps, load)
+			}
+		}
+	}
+	if n != 2 {
+		t.Errorf("V1: %d anode currents, want 2", n)
+	}
+}

@@ -47,6 +47,9 @@ func dcFrom(r *pipeline.Result) DC {
 	// The note's caution block is at its top; the chart repeats only the
 	// live-set line of the same source.
 	d := DC{Meter: mt.String(), Caution: r.Caution.Readings()[:1]}
+	if ch.Leads != "" {
+		d.Caution = append(d.Caution, ch.Leads)
+	}
 	for _, p := range ch.Points {
 		reads := Volts(p.Reading)
 		switch {
@@ -65,6 +68,9 @@ func dcFrom(r *pipeline.Result) DC {
 				rl.Net, e.Wave, e.Transformer, Volts(e.Peak), Volts(e.Drop), Volts(e.Ripple), e.Method))
 		}
 		d.Rows = append(d.Rows, DCRow{"rail", label, rl.Net, Volts(rl.Volts), "draws " + value.FormatPrec(rl.Amps, value.Ampere, value.Symbol, 3)})
+	}
+	for _, sp := range ch.Supplies {
+		d.Rows = append(d.Rows, DCRow{"supply", "after " + sp.Via, sp.Net, Volts(sp.Volts), Volts(sp.Reading)})
 	}
 	d.Oscillators = OscillatorNotes(r.Stages, r.DC)
 	d.Notes = append(d.Notes, ch.Warnings...)

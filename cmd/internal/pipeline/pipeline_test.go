@@ -203,3 +203,38 @@ func TestOscillatorGridHasNoDCFigure(t *testing.T) {
 		t.Errorf("V1b figures %v: the buffer keeps its grid's", v["V1b"])
 	}
 }
+
+// TestPinFiguresSayWhatTheyAre: the full and faded sheets carry the pin
+// figures' legend once (ideal meter, oscillators stopped: docs/dc.md), the
+// reduced sheet (no figures) does not; the supply points get figures at
+// their decouplers (the review's valve amplifier: the reservoir C1 at the
+// estimate, C2 after the choke, C5 on the decoupled line).
+func TestPinFiguresSayWhatTheyAre(t *testing.T) {
+	path := filepath.Join("..", "..", "..", "graph", "dc", "testdata", "review-valve-amp.toml")
+	res, err := Run(Options{Path: path, Level: rules.LevelSignal,
+		Views: []render.View{render.Reduced, render.Full, render.Faded}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, s := range res.Sheets {
+		n := 0
+		for _, l := range s.Sheet.Furniture {
+			if l == PinLegend {
+				n++
+			}
+		}
+		if want := map[bool]int{true: 0, false: 1}[s.View == render.Reduced]; n != want {
+			t.Errorf("%s sheet: legend %d times, want %d", s.View, n, want)
+		}
+	}
+	pv := res.SheetFor(render.Full).Sheet.PinVolts
+	for ref, want := range map[string]string{"C1": "282", "C2": "268", "C5": "229"} {
+		got := ""
+		for _, v := range pv[ref] {
+			got = v
+		}
+		if got != want {
+			t.Errorf("%s: figure %q, want %q (pare dc on the same circuit; reviewer's ngspice .op 268 V, 229 V)", ref, got, want)
+		}
+	}
+}

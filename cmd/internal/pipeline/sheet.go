@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/dc"
 	"pare/graph/figure"
 	"pare/graph/value"
 	"pare/render"
@@ -74,8 +75,17 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		s.PinVolts = r.electrodeVolts()
 	}
 	s.Marks = r.alignMarks(v)
+	if len(s.PinVolts) > 0 {
+		s.Furniture = append(s.Furniture, PinLegend)
+	}
 	return s
 }
+
+// PinLegend is the sheet legend's line for the pin figures: they are the
+// operating point itself, not what a meter shows (a 20 kΩ/V meter reads
+// a grid behind its leak far lower: pare dc --meter 20k/V gives that), and
+// with the oscillators stopped (docs/dc.md).
+const PinLegend = "Pin figures: DC volts to chassis, ideal meter, oscillators stopped"
 
 // alignMarks are the alignment steps at each part drawn on the view
 // (cmd/internal/align numbers them on the circuit as captured); on the
@@ -268,6 +278,7 @@ func (r *Result) electrodeVolts() map[string]map[string]string {
 			out[p.Ref] = pins
 		}
 	}
+	r.supplyVolts(out)
 	return out
 }
 
@@ -284,6 +295,41 @@ func (r *Result) oscillatingValves() map[string]bool {
 		}
 	}
 	return out
+}
+
+// supplyVolts adds the supply test points' figures (the estimated
+// reservoir, the HT after the choke, each decoupled line: dc.Chart's
+// supplies) at the pin of each one's smoothing or decoupling capacitor on
+// that net; a declared rail's tag says its voltage already.
+func (r *Result) supplyVolts(out map[string]map[string]string) {
+	ch, err := r.DC.Chart(dc.Meter{})
+	if err != nil {
+		return
+	}
+	at := func(capRef, net string, v float64) {
+		p := r.DC.Circuit.Part(capRef)
+		if p == nil {
+			return
+		}
+		for _, pin := range p.Pins {
+			if pin.Net == net {
+				if out[capRef] == nil {
+					out[capRef] = map[string]string{}
+				}
+				out[capRef][pin.Name] = shortVolts(v)
+			}
+		}
+	}
+	for _, rl := range ch.Rails {
+		if e := rl.Estimate; e != nil && !r.DC.Circuit.RoleOf(rl.Net).IsACGround() {
+			if cp := dc.GroundCap(r.DC.Circuit, rl.Net); cp != "" {
+				at(cp, rl.Net, rl.Volts)
+			}
+		}
+	}
+	for _, sp := range ch.Supplies {
+		at(sp.Cap, sp.Net, sp.Volts)
+	}
 }
 
 // shortVolts is a voltage in three figures at most, as charts print them.
