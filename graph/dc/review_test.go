@@ -150,7 +150,7 @@ func TestNextReadingOnTheMeter(t *testing.T) {
 func TestRailFaults(t *testing.T) {
 	cases := []struct {
 		file, fault, net string
-		below           float64 // the faulty rail is under this fraction of the healthy one
+		below            float64 // the faulty rail is under this fraction of the healthy one
 	}{
 		{"testdata/review-tr-portable.toml", "C8 short", "vcc", 0.01},
 		{"testdata/review-valve-amp.toml", "C1 short", "res", 0.1},
