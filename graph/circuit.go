@@ -163,6 +163,10 @@ type Winding struct {
 	From string  `json:"from"` // pin names
 	To   string  `json:"to"`
 	Q    float64 `json:"q,omitempty"` // unloaded Q, 0 = lossless
+	// Rdc is this winding's own DC resistance (graph/dc), 0 when the part's
+	// rdc (or the default) applies. A centre-tapped winding's halves have
+	// one each: the resistance from the tap to that end.
+	Rdc float64 `json:"rdc,omitempty"`
 }
 
 // Coupling is the coupling factor k between two windings (M = k·√(La·Lb)).

@@ -76,7 +76,36 @@ func (ld *loader) inductor(path string, p *Part, m map[string]any, typ string) {
 	}
 }
 
-var windingKeys = []string{"l", "q"}
+var windingKeys = []string{"l", "q", "rdc"}
+
+// winding reads one winding (or one half of a tapped one): its inductance,
+// or a table { l, q, rdc } with its own unloaded Q and DC resistance.
+func (ld *loader) winding(np string, w Winding, x any) Winding {
+	t, ok := x.(map[string]any)
+	if !ok {
+		w.L = ld.num(np, x, value.Henry)
+		return w
+	}
+	for _, k := range sortedKeys(t) {
+		switch k {
+		case "l":
+			w.L = ld.num(np+".l", t[k], value.Henry)
+		case "q":
+			w.Q = ld.num(np+".q", t[k], value.None)
+		case "rdc":
+			w.Rdc = ld.num(np+".rdc", t[k], value.Ohm)
+			if !(w.Rdc > 0) && !ld.bad[np+".rdc"] {
+				ld.errVal(np+".rdc", "rdc, the winding's DC resistance, must be above 0 Ω")
+			}
+		default:
+			ld.unknown(np+"."+k, k, windingKeys)
+		}
+	}
+	if _, ok := t["l"]; !ok {
+		ld.errKey(np, "winding %s has no inductance l", w.Name)
+	}
+	return w
+}
 
 func (ld *loader) transformer(path string, p *Part, m map[string]any) {
 	wp := path + ".windings"
@@ -96,34 +125,18 @@ func (ld *loader) transformer(path string, p *Part, m map[string]any) {
 		np := wp + "." + name
 		w := Winding{Name: name, From: name + "1", To: name + "2", Q: q}
 		switch t := wm[name].(type) {
-		case map[string]any:
-			for _, k := range sortedKeys(t) {
-				switch k {
-				case "l":
-					w.L = ld.num(np+".l", t[k], value.Henry)
-				case "q":
-					w.Q = ld.num(np+".q", t[k], value.None)
-				default:
-					ld.unknown(np+"."+k, k, windingKeys)
-				}
-			}
-			if _, ok := t["l"]; !ok {
-				ld.errKey(np, "winding %s has no inductance l", name)
-			}
-			p.Windings = append(p.Windings, w)
 		case []any:
 			// A centre-tapped winding: two halves, pins NAME1–NAMEt–NAME2, fully coupled.
 			if len(t) != 2 {
 				ld.errVal(np, "a tapped winding takes two partial inductances")
 				continue
 			}
-			a := Winding{Name: name + "a", L: ld.num(np+"[0]", t[0], value.Henry), From: name + "1", To: name + "t", Q: q}
-			b := Winding{Name: name + "b", L: ld.num(np+"[1]", t[1], value.Henry), From: name + "t", To: name + "2", Q: q}
+			a := ld.winding(fmt.Sprintf("%s[0]", np), Winding{Name: name + "a", From: name + "1", To: name + "t", Q: q}, t[0])
+			b := ld.winding(fmt.Sprintf("%s[1]", np), Winding{Name: name + "b", From: name + "t", To: name + "2", Q: q}, t[1])
 			p.Windings = append(p.Windings, a, b)
 			p.Coupling = append(p.Coupling, Coupling{A: a.Name, B: b.Name, K: 1})
 		default:
-			w.L = ld.num(np, wm[name], value.Henry)
-			p.Windings = append(p.Windings, w)
+			p.Windings = append(p.Windings, ld.winding(np, w, wm[name]))
 		}
 	}
 	kp := path + ".k"

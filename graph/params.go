@@ -32,6 +32,7 @@ var positiveParams = map[string]string{
 	"k":    "the MOSFET's square-law factor k",
 	"vac":  "the RMS voltage of the rectifier winding",
 	"hz":   "the mains frequency",
+	"rdc":  "the DC resistance of each winding",
 }
 
 // checkParams runs after the parts are read (their own keys already

@@ -273,17 +273,30 @@ func windingsKV(p *Part) string {
 			base := strings.TrimSuffix(w.Name, "a")
 			if b := p.Winding(base + "b"); b != nil {
 				done[b.Name] = true
-				kv = append(kv, fmt.Sprintf("%s = [%s, %s]", bareKey(base), quote(fmtNum(w.L, value.Henry)), quote(fmtNum(b.L, value.Henry))))
+				kv = append(kv, fmt.Sprintf("%s = [%s, %s]", bareKey(base), windingVal(p, w), windingVal(p, *b)))
 				continue
 			}
 		}
-		if w.Q > 0 && w.Q != p.Params["q"] {
-			kv = append(kv, fmt.Sprintf("%s = { l = %s, q = %s }", bareKey(w.Name), quote(fmtNum(w.L, value.Henry)), fmtFloat(w.Q)))
-		} else {
-			kv = append(kv, fmt.Sprintf("%s = %s", bareKey(w.Name), quote(fmtNum(w.L, value.Henry))))
-		}
+		kv = append(kv, fmt.Sprintf("%s = %s", bareKey(w.Name), windingVal(p, w)))
 	}
 	return inline(kv)
+}
+
+// windingVal is a winding's inductance, or a table with its own Q and DC
+// resistance where it has them.
+func windingVal(p *Part, w Winding) string {
+	l := quote(fmtNum(w.L, value.Henry))
+	var kv []string
+	if w.Q > 0 && w.Q != p.Params["q"] {
+		kv = append(kv, "q = "+fmtFloat(w.Q))
+	}
+	if w.Rdc > 0 {
+		kv = append(kv, "rdc = "+quote(fmtNum(w.Rdc, value.Ohm)))
+	}
+	if len(kv) == 0 {
+		return l
+	}
+	return inline(append([]string{"l = " + l}, kv...))
 }
 
 func isHalfPair(p *Part, c Coupling) bool {

@@ -261,16 +261,31 @@ func (m *model) addPart(p *graph.Part, o *origins) error {
 	return nil
 }
 
-// addWindings gives every winding its DC resistance: the part's rdc when
-// given (the same for each winding), else the small default.
+// addWindings gives every winding its DC resistance: its own rdc when the
+// winding gives one, else the part's rdc (the same for each winding, each
+// half of a centre-tapped one: tap to end), else the small default.
 func (m *model) addWindings(p *graph.Part, o *origins) {
-	rdc := o.given(p, "rdc", "winding", "Ω")
+	own := 0
+	for _, w := range p.Windings {
+		if w.Rdc > 0 {
+			own++
+			o.list = append(o.list, Origin{p.Ref, "rdc " + w.Name, w.Rdc, "Ω", "given for winding " + w.Name})
+		}
+	}
+	rdc := 0.0
+	if own < len(p.Windings) || len(p.Windings) == 0 {
+		rdc = o.given(p, "rdc", "winding", "Ω")
+	}
 	if len(p.Windings) == 0 {
 		m.addBranch(p, "", "1", "2", rdc)
 		return
 	}
 	for _, w := range p.Windings {
-		m.addBranch(p, w.Name, w.From, w.To, rdc)
+		r := rdc
+		if w.Rdc > 0 {
+			r = w.Rdc
+		}
+		m.addBranch(p, w.Name, w.From, w.To, r)
 	}
 }
 

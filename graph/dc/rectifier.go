@@ -208,7 +208,7 @@ func rectifierOf(c *graph.Circuit, p *graph.Part, vac float64, diodes []rectDiod
 			r.ends = append(r.ends, n)
 		}
 	}
-	r.rs, r.valve = windingR(p), fwd[0].valve
+	r.rs, r.valve = windingR(p, sec), fwd[0].valve
 	if !r.valve {
 		vf, ok := fwd[0].part.Param("vf")
 		if !ok {
@@ -290,8 +290,15 @@ func rectifierWinding(p *graph.Part, diodes []rectDiode) (secondary, error) {
 	return secondary{}, fmt.Errorf("vac is given but rectifiers hang on %d windings: pare estimates one rectifier winding per transformer", len(found))
 }
 
-// windingR is the DC resistance of the winding in the conducting path.
-func windingR(p *graph.Part) float64 {
+// windingR is the DC resistance in the conducting path: the rectifier
+// winding's own rdc (a centre-tapped winding's first half: tap to end),
+// else the part's, else the default.
+func windingR(p *graph.Part, sec secondary) float64 {
+	for _, name := range []string{sec.name, sec.name + "a"} {
+		if w := p.Winding(name); w != nil && w.Rdc > 0 {
+			return w.Rdc
+		}
+	}
 	if r, ok := p.Param("rdc"); ok {
 		return r
 	}
