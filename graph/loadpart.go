@@ -119,15 +119,21 @@ func (ld *loader) part(path, ref string, v any) {
 // and µ.
 func (ld *loader) valveParams(path string, p *Part, m map[string]any) {
 	diode := p.Type == "diode" || p.Type == "double-diode"
-	for _, k := range []string{"gm", "ra", "mu", "rd", "off"} {
+	for _, k := range []string{"gm", "ra", "mu", "rd", "off", "perveance", "kg"} {
 		if _, ok := m[k]; !ok {
 			continue
 		}
-		switch isDiodeKey := k == "rd" || k == "off"; {
+		switch isDiodeKey := k == "rd" || k == "off" || k == "perveance"; {
 		case diode && !isDiodeKey:
-			ld.errKey(path+"."+k, "%s applies to a valve with a control grid; a valve diode takes rd or off = 1", k)
+			ld.errKey(path+"."+k, "%s applies to a valve with a control grid; a valve diode takes rd, perveance or off = 1", k)
 		case !diode && isDiodeKey:
 			ld.errKey(path+"."+k, "%s applies to a valve diode (valve = \"diode\" or \"double-diode\"); a %s takes gm, ra, mu", k, p.Type)
+		}
+	}
+	screen := p.Type != "triode" && !diode
+	for _, k := range []string{"mu2", "share", "vknee"} {
+		if _, ok := m[k]; ok && !screen {
+			ld.errKey(path+"."+k, "%s applies to a valve with a screen grid (tetrode, pentode, hexode, heptode, octode), not a %s", k, p.Type)
 		}
 	}
 }
@@ -155,9 +161,9 @@ func paramUnit(name string) value.Unit {
 		return value.Siemens
 	case "ra", "rd", "ro", "rpi", "rm", "rdc", "leak":
 		return value.Ohm
-	case "ic", "ia", "idss":
+	case "ic", "ia", "idss", "is":
 		return value.Ampere
-	case "vbe", "vp", "vf", "vth", "vac":
+	case "vbe", "vp", "vf", "vth", "vac", "vknee":
 		return value.Volt
 	case "lm":
 		return value.Henry
@@ -166,7 +172,7 @@ func paramUnit(name string) value.Unit {
 	case "cm", "c0":
 		return value.Farad
 	}
-	return value.None // mu, beta, q, off, watts, pmax (W: no watt unit in value), k (A/V²)
+	return value.None // mu, mu2, share, n, beta, q, off, watts, pmax (W: no watt unit in value), k (A/V²), kg and perveance (A/V^1.5)
 }
 
 // kindValue reads the value that chose the kind, and the type and settings that go with it.

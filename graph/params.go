@@ -33,7 +33,15 @@ var positiveParams = map[string]string{
 	"vac":  "the RMS voltage of the rectifier winding",
 	"hz":   "the mains frequency",
 	"rdc":  "the DC resistance of each winding",
+	// The DC laws' own parameters (graph/dc, docs/devices.md).
+	"mu2":       "the screen's amplification factor µ2",
+	"vknee":     "the anode voltage scale of the knee",
+	"kg":        "the grid current's perveance",
+	"perveance": "the valve diode's perveance",
+	"is":        "the diode's saturation current",
 }
+
+func hasParam(p *Part, name string) bool { _, ok := p.Params[name]; return ok }
 
 // checkParams runs after the parts are read (their own keys already
 // checked for syntax) and reports every value out of its physical range.
@@ -54,6 +62,12 @@ func (ld *loader) checkParams() {
 				ld.errVal(path+"."+k, "%s must be above 0: %s is %s", k, what, fmtParam(v))
 			case k == "c0" && v < 0:
 				ld.errVal(path+"."+k, "c0, the crystal's shunt capacitance, must not be negative")
+			case k == "is" && hasParam(p, "vf"):
+				ld.errKey(path+"."+k, "give a diode's vf (Is is then the one that passes 1 mA at vf) or its is, not both")
+			case k == "share" && !(v > 0 && v < 1):
+				ld.errVal(path+"."+k, "share, the screen's part of the cathode current, must lie between 0 and 1 (not %s)", fmtParam(v))
+			case k == "n" && !(v >= 0.5 && v <= 5):
+				ld.errVal(path+"."+k, "n, the diode's ideality factor, must lie between 0.5 and 5 (not %s)", fmtParam(v))
 			case k == "off" && v != 0 && v != 1:
 				ld.errVal(path+"."+k, "off is 1 for a diode that is cut off, or 0; not %s", fmtParam(v))
 			}

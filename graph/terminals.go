@@ -177,10 +177,12 @@ func (p *Part) IsActive() bool {
 // Device parameters a part may carry, by kind, with the unit each is read in.
 // The AC models document their defaults.
 var paramNames = map[Kind][]string{
-	Valve:       {"gm", "ra", "mu", "rd", "off", "ia", "pmax"}, // rd and off: a valve diode's (loadpart.go checks which)
+	// rd, off, perveance: a valve diode's; mu2, share, vknee: a screen-grid
+	// valve's DC law; kg: grid current (loadpart.go checks which).
+	Valve:       {"gm", "ra", "mu", "rd", "off", "ia", "pmax", "mu2", "share", "vknee", "kg", "perveance"},
 	BJT:         {"beta", "ic", "gm", "ro", "rpi", "vbe"},
 	FET:         {"gm", "rd", "idss", "vp", "vth", "k"}, // idss, vp: JFET; vth, k: MOSFET (loadpart.go checks which)
-	Diode:       {"rd", "off", "vf"},
+	Diode:       {"rd", "off", "vf", "n", "is"},         // n, is: the Shockley law's ideality and saturation current (graph/dc)
 	Crystal:     {"rm", "lm", "cm", "c0", "q"},
 	Inductor:    {"q", "rdc"},
 	Transformer: {"q", "rdc", "vac", "hz"}, // vac, hz: a mains transformer's rectifier winding (graph/dc)

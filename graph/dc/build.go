@@ -43,6 +43,7 @@ type device struct {
 	bjt   bjtLaw
 	fet   fetLaw
 	is    float64 // diode saturation current; valve diode perveance
+	n     float64 // diode ideality factor
 	// Faults: emission scales the valve's perveance; openBE and openBC
 	// remove a junction.
 	emission       float64

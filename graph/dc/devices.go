@@ -3,6 +3,7 @@ package dc
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"pare/graph"
 )
@@ -29,7 +30,7 @@ func (m *model) addDevice(p *graph.Part, o *origins) error {
 	case graph.Valve:
 		switch p.Type {
 		case "diode", "double-diode":
-			return m.addValveDiodes(p)
+			return m.addValveDiodes(p, o)
 		}
 		d.kind = devValve
 		if d.valve, err = resolveValve(p, o); err != nil {
@@ -60,7 +61,7 @@ func (m *model) addDevice(p *graph.Part, o *origins) error {
 		}
 	case graph.Diode:
 		d.kind = devDiode
-		if d.is, err = diodeIs(p, o); err != nil {
+		if d.is, d.n, err = diodeLaw(p, o); err != nil {
 			return err
 		}
 		if !need("a", "k") {
@@ -73,7 +74,14 @@ func (m *model) addDevice(p *graph.Part, o *origins) error {
 
 // addValveDiodes adds one three-halves-law diode per anode (Child–Langmuir:
 // Ia = K·Vak^1.5) with the default perveance.
-func (m *model) addValveDiodes(p *graph.Part) error {
+func (m *model) addValveDiodes(p *graph.Part, o *origins) error {
+	class := valveDiodeClass
+	for _, r := range m.rects {
+		if slices.Contains(r.parts, p.Ref) {
+			class = "rectifier valve"
+		}
+	}
+	perv := o.given(p, "perveance", class, "A/V^1.5")
 	k, okK := m.term(p, "k")
 	if !okK {
 		return fmt.Errorf("%s: valve %s needs its cathode connected", p.Pos, p.Ref)
@@ -84,7 +92,7 @@ func (m *model) addValveDiodes(p *graph.Part) error {
 			continue
 		}
 		m.devices = append(m.devices, device{ref: p.Ref, pins: []string{an, "k"}, kind: devValveDiode,
-			t: []term{a, k}, is: def(valveDiodeClass, "k"), emission: 1})
+			t: []term{a, k}, is: perv, emission: 1})
 	}
 	return nil
 }
@@ -105,8 +113,8 @@ func (d *device) eval(v []float64, cur []float64, jac [][]float64) {
 		i, g := threeHalves(d.is*d.emission, v[0]-v[1])
 		twoTerm(cur, jac, i, g)
 	case devDiode:
-		i, g := shockley(d.is, v[0]-v[1])
-		twoTerm(cur, jac, i, g)
+		i, g := shockley(d.is, (v[0]-v[1])/d.n)
+		twoTerm(cur, jac, i, g/d.n)
 	case devBJT:
 		d.evalBJT(v, cur, jac)
 	case devFET:

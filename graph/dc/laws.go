@@ -48,8 +48,8 @@ var Defaults = []Default{
 	{"pentode", "share", 0.25, "", "screen current as a fraction of cathode current, typical, from memory"},
 	{"pentode", "vknee", 20, "V", "anode voltage scale of the knee (tanh law), typical, from memory"},
 	{"valve grid", "kg", 1e-3, "A/V^1.5", "grid–cathode diode above 0 V: about 1 mA at +1 V, from memory"},
-	{"valve diode", "k", 3e-4, "A/V^1.5", "signal diode perveance: 3 mA at 10 V, from memory"},
-	{"rectifier valve", "k", 1e-3, "A/V^1.5", "perveance of one anode of a rectifier valve: about 90 mA at 20 V, from memory"},
+	{"valve diode", "perveance", 3e-4, "A/V^1.5", "signal diode perveance: 3 mA at 10 V, from memory"},
+	{"rectifier valve", "perveance", 1e-3, "A/V^1.5", "perveance of one anode of a rectifier valve: about 90 mA at 20 V, from memory"},
 	{"bjt", "vbe", 0.65, "V", "silicon small-signal transistor at about 1 mA, common practice"},
 	{"bjt", "betar", 1, "", "reverse β, the SPICE default (BR = 1)"},
 	{"fet", "idss", 5e-3, "A", "typical small-signal JFET, from memory"},
@@ -58,6 +58,7 @@ var Defaults = []Default{
 	{"mosfet", "vth", 2, "V", "threshold of a typical small-signal enhancement n-channel MOSFET, from memory"},
 	{"mosfet", "k", 0.05, "A/V²", "square-law factor of a typical small-signal MOSFET (50 mA at 1 V above threshold), from memory"},
 	{"diode", "vf", 0.65, "V", "silicon junction at 1 mA, common practice"},
+	{"diode", "n", 1, "", "ideality factor of Shockley's ideal junction, the SPICE default (N = 1)"},
 	{"winding", "rdc", 1, "Ω", "DC resistance of a coil or winding when not given: small, from memory"},
 	{"mains", "hz", 50, "Hz", "mains frequency of a rectifier's transformer when hz is not given: 50 Hz in most of the world (60 Hz in North America), common practice"},
 	{"gmin", "g", 1e-12, "S", "conductance from every net to chassis, the SPICE GMIN default"},
@@ -141,18 +142,18 @@ func resolveValve(p *graph.Part, o *origins) (valveLaw, error) {
 		x := 1.5 * ia / gm
 		k := ia / math.Pow(x, 1.5)
 		o.derived(p.Ref, "K", k, "A/V^1.5", "K = ia/x^1.5 with x = 1.5·ia/gm (three-halves law)")
-		return valveLaw{k: k, mu: mu, kg: def("valve grid", "kg")}, nil
+		return valveLaw{k: k, mu: mu, kg: o.given(p, "kg", "valve grid", "A/V^1.5")}, nil
 	case "tetrode", "pentode", "hexode", "heptode", "octode":
 		ia := o.given(p, "ia", "pentode", "A")
-		s := def("pentode", "share")
+		s := o.given(p, "share", "pentode", "")
 		if !(gm > 0) || !(ia > 0) {
 			return valveLaw{}, fmt.Errorf("valve %s: gm and ia must be positive for the DC law", p.Ref)
 		}
 		x := 1.5 * ia / gm
 		k := ia / (1 - s) / math.Pow(x, 1.5)
 		o.derived(p.Ref, "K", k, "A/V^1.5", "K = ia/((1−share)·x^1.5) with x = 1.5·ia/gm (three-halves law)")
-		return valveLaw{pentode: true, k: k, mu: def("pentode", "mu2"), share: s,
-			vknee: def("pentode", "vknee"), kg: def("valve grid", "kg")}, nil
+		return valveLaw{pentode: true, k: k, mu: o.given(p, "mu2", "pentode", ""), share: s,
+			vknee: o.given(p, "vknee", "pentode", "V"), kg: o.given(p, "kg", "valve grid", "A/V^1.5")}, nil
 	}
 	return valveLaw{}, fmt.Errorf("valve %s: type %q has no DC law", p.Ref, p.Type)
 }
@@ -263,14 +264,20 @@ func resolveMOS(p *graph.Part, o *origins) (fetLaw, error) {
 	return fetLaw{beta: k, vto: vth * sign, sign: sign, mos: true}, nil
 }
 
-// diodeIs is the saturation current of a Shockley diode (Shockley, Bell
-// Syst. Tech. J. 28, 1949; ideality 1) that passes 1 mA at vf.
-func diodeIs(p *graph.Part, o *origins) (float64, error) {
+// diodeLaw is the Shockley law of a semiconductor diode (Shockley, Bell
+// Syst. Tech. J. 28, 1949), I = Is·(e^(V/(n·VT)) − 1): Is given, or the one
+// that passes 1 mA at vf; n given or 1.
+func diodeLaw(p *graph.Part, o *origins) (is, n float64, err error) {
+	n = o.given(p, "n", "diode", "")
+	if v, ok := p.Param("is"); ok {
+		o.list = append(o.list, Origin{p.Ref, "is", v, "A", "given"})
+		return v, n, nil
+	}
 	vf := o.given(p, "vf", "diode", "V")
 	if !(vf > 0) || vf > 3 {
-		return 0, fmt.Errorf("diode %s: vf must be between 0 and 3 V", p.Ref)
+		return 0, 0, fmt.Errorf("diode %s: vf must be between 0 and 3 V", p.Ref)
 	}
-	is := 1e-3 * math.Exp(-vf/VT)
-	o.derived(p.Ref, "is", is, "A", "Is = 1 mA·exp(−vf/VT) (Shockley)")
-	return is, nil
+	is = 1e-3 * math.Exp(-vf/(n*VT))
+	o.derived(p.Ref, "is", is, "A", "Is = 1 mA·exp(−vf/(n·VT)) (Shockley)")
+	return is, n, nil
 }

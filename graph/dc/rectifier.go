@@ -57,7 +57,8 @@ type rectifier struct {
 	ends            []string // the winding's nets that carry the secondary's AC
 	diodes          int      // diodes in series in the conducting path
 	valve           bool     // a valve rectifier (three-halves law), else Shockley
-	is              float64  // the semiconductor diode's saturation current
+	is, n           float64  // the semiconductor diode's saturation current and ideality
+	perv            float64  // the rectifier valve's perveance per anode
 	parts           []string // the rectifying diodes' refs
 	sec             string   // the rectifier winding's name (a centre-tapped one: its halves' stem)
 	dead            bool     // a fault stops it rectifying (railfault.go)
@@ -77,9 +78,9 @@ func (r *rectifier) rippleHz() float64 {
 // the diode's vf.
 func (r *rectifier) drop(i float64) float64 {
 	if r.valve {
-		return math.Pow(i/def("rectifier valve", "k"), 2.0/3)
+		return math.Pow(i/r.perv, 2.0/3)
 	}
-	return VT * math.Log1p(i/r.is)
+	return r.n * VT * math.Log1p(i/r.is)
 }
 
 // at is the estimate at load current i.
@@ -209,12 +210,14 @@ func rectifierOf(c *graph.Circuit, p *graph.Part, vac float64, diodes []rectDiod
 		}
 	}
 	r.rs, r.valve = windingR(p, sec), fwd[0].valve
-	if !r.valve {
-		vf, ok := fwd[0].part.Param("vf")
-		if !ok {
-			vf = def("diode", "vf")
+	if r.valve {
+		r.perv = def("rectifier valve", "perveance")
+		if v, ok := fwd[0].part.Param("perveance"); ok {
+			r.perv = v
 		}
-		r.is = 1e-3 * math.Exp(-vf/VT) // as diodeIs: 1 mA at vf
+	} else {
+		var o origins // the build lists the diode's law; here only its values
+		r.is, r.n, _ = diodeLaw(fwd[0].part, &o)
 	}
 	ends := map[string]bool{}
 	for _, d := range fwd {

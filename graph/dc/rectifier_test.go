@@ -61,10 +61,10 @@ func transientDeck(r rectifier, e Estimate) string {
 // diode writes one rectifying junction with pare's own law.
 func diode(b *strings.Builder, r rectifier, name, a, k string) {
 	if r.valve {
-		fmt.Fprintf(b, "BD%s %s %s I=%.12g*pow(max(v(%s,%s),0),1.5)\n", name, a, k, def("rectifier valve", "k"), a, k)
+		fmt.Fprintf(b, "BD%s %s %s I=%.12g*pow(max(v(%s,%s),0),1.5)\n", name, a, k, r.perv, a, k)
 		return
 	}
-	fmt.Fprintf(b, "D%s %s %s DR%s\n.model DR%s D(IS=%.12g N=1)\n", name, a, k, name, name, r.is)
+	fmt.Fprintf(b, "D%s %s %s DR%s\n.model DR%s D(IS=%.12g N=%.12g)\n", name, a, k, name, name, r.is, r.n)
 }
 
 // TestRectifierAgainstNgspiceTransient checks each estimated rail against

@@ -121,7 +121,7 @@ func (m *model) deviceCards(b *strings.Builder, i int, d *device) {
 			fmt.Fprintf(b, "* D%s open\n", id)
 			return
 		}
-		fmt.Fprintf(b, "D%s %s %s DM%s\n.model DM%s D(IS=%.12g N=1)\n", id, n(0), n(1), id, id, d.is)
+		fmt.Fprintf(b, "D%s %s %s DM%s\n.model DM%s D(IS=%.12g N=%.12g)\n", id, n(0), n(1), id, id, d.is, d.n)
 	case devBJT:
 		typ := "npn"
 		if d.bjt.sign < 0 {
