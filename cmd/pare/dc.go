@@ -130,26 +130,7 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 		}
 		fmt.Fprintln(w, strings.TrimRight(line, " "))
 	}
-	if len(ch.Rails) > 0 {
-		fmt.Fprintln(w, "\nrails")
-		for _, r := range ch.Rails {
-			fmt.Fprintf(w, "  %-12s %10s   draws %s\n", r.Net, volts(r.Volts), amps(r.Amps))
-			if e := r.Estimate; e != nil {
-				fmt.Fprintf(w, "  %-12s estimate: %s rectifier on %s, %s peak, %s drop, ripple %s p-p\n  %-12s method: %s\n",
-					"", e.Wave, e.Transformer, volts(e.Peak), volts(e.Drop), volts(e.Ripple), "", e.Method)
-			}
-		}
-	}
-	if len(ch.Supplies) > 0 {
-		fmt.Fprintln(w, "\nsupply test points")
-		for _, sp := range ch.Supplies {
-			line := fmt.Sprintf("  %-12s %10s   after %s from %s, decoupled by %s", sp.Net, volts(sp.Volts), sp.Via, sp.From, sp.Cap)
-			if !ch.Meter.IsIdeal() {
-				line += fmt.Sprintf("; meter reads %s", volts(sp.Reading))
-			}
-			fmt.Fprintln(w, line)
-		}
-	}
+	writeSupply(w, ch)
 	if len(ch.Currents) > 0 {
 		fmt.Fprintln(w, "\ncurrents")
 		for _, c := range ch.Currents {
@@ -186,6 +167,30 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 		fmt.Fprintln(w, "\nsmall-signal figures taken at this operating point (not given in the netlist)")
 		for _, o := range biased {
 			fmt.Fprintf(w, "  %-6s %-5s %-12s %s\n", o.Ref, o.Param, fmt.Sprintf("%.4g %s", o.Value, o.Unit), o.From)
+		}
+	}
+}
+
+// writeSupply prints the rails and the supply test points after them.
+func writeSupply(w io.Writer, ch *dc.Chart) {
+	if len(ch.Rails) > 0 {
+		fmt.Fprintln(w, "\nrails")
+		for _, r := range ch.Rails {
+			fmt.Fprintf(w, "  %-12s %10s   draws %s\n", r.Net, volts(r.Volts), amps(r.Amps))
+			if e := r.Estimate; e != nil {
+				fmt.Fprintf(w, "  %-12s estimate: %s rectifier on %s, %s peak, %s drop, ripple %s p-p\n  %-12s method: %s\n",
+					"", e.Wave, e.Transformer, volts(e.Peak), volts(e.Drop), volts(e.Ripple), "", e.Method)
+			}
+		}
+	}
+	if len(ch.Supplies) > 0 {
+		fmt.Fprintln(w, "\nsupply test points")
+		for _, sp := range ch.Supplies {
+			line := fmt.Sprintf("  %-12s %10s   after %s from %s, decoupled by %s", sp.Net, volts(sp.Volts), sp.Via, sp.From, sp.Cap)
+			if !ch.Meter.IsIdeal() {
+				line += fmt.Sprintf("; meter reads %s", volts(sp.Reading))
+			}
+			fmt.Fprintln(w, line)
 		}
 	}
 }

@@ -210,15 +210,7 @@ func rectifierOf(c *graph.Circuit, p *graph.Part, vac float64, diodes []rectDiod
 		}
 	}
 	r.rs, r.valve = windingR(p, sec), fwd[0].valve
-	if r.valve {
-		r.perv = def("rectifier valve", "perveance")
-		if v, ok := fwd[0].part.Param("perveance"); ok {
-			r.perv = v
-		}
-	} else {
-		var o origins // the build lists the diode's law; here only its values
-		r.is, r.n, _ = diodeLaw(fwd[0].part, &o)
-	}
+	r.junctionLaw(fwd[0].part)
 	ends := map[string]bool{}
 	for _, d := range fwd {
 		ends[d.a] = true
@@ -243,6 +235,20 @@ func rectifierOf(c *graph.Circuit, p *graph.Part, vac float64, diodes []rectDiod
 		return rectifier{}, fmt.Errorf("no reservoir capacitor from %s to chassis: pare estimates capacitor-input filters only", r.net)
 	}
 	return r, nil
+}
+
+// junctionLaw takes the rectifying junction's law from part: a rectifier
+// valve's perveance, or a diode's Shockley law.
+func (r *rectifier) junctionLaw(part *graph.Part) {
+	if r.valve {
+		r.perv = def("rectifier valve", "perveance")
+		if v, ok := part.Param("perveance"); ok {
+			r.perv = v
+		}
+		return
+	}
+	var o origins // the build lists the diode's law; here only its values
+	r.is, r.n, _ = diodeLaw(part, &o)
 }
 
 // reservoir is the capacitance from net to chassis: the reservoir and any
