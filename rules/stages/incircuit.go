@@ -148,6 +148,14 @@ func crossing(r *ac.Response, level, from, to float64) (float64, bool) {
 		m := magnitude(r, f)
 		return m >= level, !math.IsNaN(m)
 	}
+	return bisectLog(above, from, to)
+}
+
+// bisectLog finds, by bisection in log f, where above turns from true (at
+// from) to false (at to); above's second result is false where the
+// quantity cannot be read, which ends the search. ok is false when the
+// quantity does not pass between from and to.
+func bisectLog(above func(f float64) (bool, bool), from, to float64) (float64, bool) {
 	if up, ok := above(from); !ok || !up {
 		return 0, false
 	}

@@ -77,26 +77,7 @@ func ratioCrossing(r, rf *ac.Response, level, from, to float64) (float64, bool) 
 		}
 		return cmplx.Abs(h)/cmplx.Abs(hf) >= level, true
 	}
-	if up, ok := above(from); !ok || !up {
-		return 0, false
-	}
-	if up, ok := above(to); !ok || up {
-		return 0, false
-	}
-	a, b := math.Log(from), math.Log(to)
-	for i := 0; i < 36; i++ { // 2⁻³⁶ of the span: far below any figure's digits
-		m := (a + b) / 2
-		up, ok := above(math.Exp(m))
-		if !ok {
-			return 0, false
-		}
-		if up {
-			a = m
-		} else {
-			b = m
-		}
-	}
-	return math.Exp((a + b) / 2), true
+	return bisectLog(above, from, to)
 }
 
 // bypassed tells whether the solved capacitor is a bypass across the band:
