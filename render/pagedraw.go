@@ -3,8 +3,8 @@ package render
 import (
 	"fmt"
 	"math"
+	"pare/graph/figure"
 
-	"pare/graph/value"
 	"pare/render/layout"
 	"pare/render/symbol"
 )
@@ -62,7 +62,7 @@ func (d *drawer) blockLines(n, m int) [2][]string {
 	}
 	view := "view: " + d.sheet.View.String()
 	if b := d.sheet.Circuit.Band; b.Max > 0 {
-		view += ", band " + value.FormatRange(b, value.Hertz, value.Symbol)
+		view += ", band " + figure.FormatRange(b, figure.Hertz, figure.Sheet)
 	}
 	return [2][]string{{d.title(), fmt.Sprintf("sheet %d of %d", n, m), view, "symbols: " + style}, d.sheet.Furniture}
 }

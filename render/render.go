@@ -13,6 +13,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"pare/graph/figure"
 	"strconv"
 	"strings"
 
@@ -20,7 +21,6 @@ import (
 
 	"pare/graph"
 	"pare/graph/safety"
-	"pare/graph/value"
 	"pare/render/geom"
 	"pare/render/layout"
 	"pare/render/symbol"
@@ -239,7 +239,7 @@ func (d *drawer) infoLines() []string {
 	c := d.sheet.Circuit
 	lines := []string{"view: " + d.sheet.View.String() + ", " + d.cfg.Style.String() + " symbols"}
 	if c.Band.Max > 0 {
-		lines[0] += ", band " + value.FormatRange(c.Band, value.Hertz, value.Symbol)
+		lines[0] += ", band " + figure.FormatRange(c.Band, figure.Hertz, figure.Sheet)
 	}
 	return lines
 }

@@ -93,12 +93,16 @@ func (f Figure) Text(m Medium) string {
 
 // rangeText writes a range end to end; on a sheet the two ends share their
 // prefixed unit where they can, as the sheet's tuning lines do.
-func (f Figure) rangeText(m Medium) string {
-	r := *f.Range
-	if m == Sheet && f.Unit.known() && units[f.Unit].si != value.None && f.Unit != Second {
-		return value.FormatRange(r, units[f.Unit].si, value.Symbol)
+func (f Figure) rangeText(m Medium) string { return FormatRange(*f.Range, f.Unit, m) }
+
+// FormatRange writes a range of unit u for medium m: a sheet's ends share
+// their prefixed unit where they can ("1–2.06 MHz", and one value where
+// the range is one). Sheets write bands and regions with it.
+func FormatRange(r value.Range, u Unit, m Medium) string {
+	if m == Sheet && u.known() && units[u].si != value.None && u != Second {
+		return value.FormatRange(r, units[u].si, value.Symbol)
 	}
-	return Format(r.Min, f.Unit, m) + "\u2013" + Format(r.Max, f.Unit, m)
+	return Format(r.Min, u, m) + "\u2013" + Format(r.Max, u, m)
 }
 
 // Item is the figure as a person reads it in a list: its label, then its

@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"pare/graph/figure"
 	"strconv"
 	"strings"
 
@@ -79,7 +80,7 @@ func labelLines(p *graph.Part, o Options) []string {
 	case graph.Transformer:
 		ks := []string{}
 		for _, k := range p.Coupling {
-			ks = append(ks, "k="+formatG(k.K))
+			ks = append(ks, "k="+figure.Plain(k.K))
 		}
 		if len(ks) > 0 && len(ks) <= 2 {
 			add(strings.Join(dedupe(ks), " "))
@@ -94,7 +95,7 @@ func labelLines(p *graph.Part, o Options) []string {
 		}
 	case graph.Switch:
 		if p.Set > 0 {
-			add("pos " + formatG(p.Set))
+			add("pos " + figure.Plain(p.Set))
 		}
 	case graph.Generic:
 		add(p.Label)

@@ -2,6 +2,7 @@ package layout
 
 import (
 	"math"
+	"pare/graph/figure"
 	"strings"
 
 	"pare/graph"
@@ -72,10 +73,13 @@ func railText(n *graph.Net, name string) string {
 		if n.Volts < 0 {
 			sign = "−" // U+2212 MINUS SIGN, as typeset
 		}
-		volts = sign + formatG(math.Abs(n.Volts)) + " V"
+		volts = sign + figure.Plain(math.Abs(n.Volts)) + " V"
 	}
+	// A label that states the voltage, at the netlist's precision or the
+	// sheet's, needs no bracket.
+	stated := strings.Contains(n.Label, formatG(math.Abs(n.Volts))) || strings.Contains(n.Label, figure.Plain(math.Abs(n.Volts)))
 	switch {
-	case n.Label != "" && volts != "" && !strings.Contains(n.Label, formatG(math.Abs(n.Volts))):
+	case n.Label != "" && volts != "" && !stated:
 		return n.Label + " (" + volts + ")"
 	case n.Label != "":
 		return n.Label

@@ -5,13 +5,11 @@ import (
 	"math"
 	"pare/cmd/internal/align"
 	"sort"
-	"strconv"
 	"strings"
 
 	"pare/graph"
 	"pare/graph/dc"
 	"pare/graph/figure"
-	"pare/graph/value"
 	"pare/render"
 	"pare/rules"
 	"pare/rules/stages"
@@ -206,7 +204,7 @@ func Furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string
 	var lines []string
 	for _, r := range c.Regions {
 		if r.Band.Max > 0 {
-			lines = append(lines, "Region "+r.Name+": "+value.FormatRange(r.Band, value.Hertz, value.Symbol))
+			lines = append(lines, "Region "+r.Name+": "+figure.FormatRange(r.Band, figure.Hertz, figure.Sheet))
 		}
 	}
 	names := make([]string, 0, len(c.Freqs))
@@ -219,7 +217,7 @@ func Furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string
 		if strings.EqualFold(k, "if") {
 			label = "IF"
 		}
-		lines = append(lines, label+" "+value.Format(c.Freqs[k], value.Hertz, value.Symbol))
+		lines = append(lines, label+" "+figure.Format(c.Freqs[k], figure.Hertz, figure.Sheet))
 	}
 	for _, s := range found {
 		if f, ok := s.Figures.Get("f"); ok && f.Range != nil && f.Range.Max > f.Range.Min {
@@ -332,10 +330,12 @@ func (r *Result) supplyVolts(out map[string]map[string]string) {
 	}
 }
 
-// shortVolts is a voltage in three figures at most, as charts print them.
+// shortVolts is a voltage in three figures (more only where the integer
+// part needs them, never an exponent), as charts print them, through the
+// one formatter of sheet figures.
 func shortVolts(v float64) string {
 	if math.Abs(v) < 5e-3 {
 		return "0"
 	}
-	return strconv.FormatFloat(v, 'g', 3, 64)
+	return figure.Plain(v)
 }
