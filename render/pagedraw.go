@@ -29,27 +29,67 @@ func (d *drawer) drawPaged(n, m int) {
 // title block, and its height.
 type foot struct {
 	caution   []string
-	block     [2][]string // the title block's columns: the sheet, the furniture
-	colW      [2]float64
+	block     [][]string // the title block's columns: the sheet, then the furniture
+	colW      []float64
 	blockW, h float64
 }
 
+// cautionMin is the narrowest the caution beside the title block is
+// wrapped, in characters.
+const cautionMin = 30
+
 // foot lays out the footer of page n of m on the page's printable width.
+// The furniture (regions, tuning, switch positions) is set in as many
+// columns as the width leaves beside a caution of cautionMin characters,
+// no taller than it must be: every line of footer is a line the drawing
+// cannot use, and a page holds another row only where the footer is short.
 func (d *drawer) foot(n, m int) foot {
 	cw, _ := d.cfg.Page.content()
-	f := foot{block: d.blockLines(n, m)}
-	for c, col := range f.block {
-		for _, l := range col {
-			f.colW[c] = math.Max(f.colW[c], symbol.TextWidth(l)*furnitureW+1)
+	small := symbol.CharW * furnitureW
+	lines := d.blockLines(n, m)
+	var f foot
+	for k := 1; ; k++ {
+		g := foot{block: append([][]string{lines[0]}, split(lines[1], k)...)}
+		g.colW = make([]float64, len(g.block))
+		for c, col := range g.block {
+			for _, l := range col {
+				g.colW[c] = math.Max(g.colW[c], symbol.TextWidth(l)*furnitureW+1)
+			}
+			g.blockW += g.colW[c]
+		}
+		if k > 1 && (g.blockW > cw-cautionMin*small-2 || g.rows() >= f.rows()) {
+			break
+		}
+		f = g
+		if k >= len(lines[1]) {
+			break
 		}
 	}
-	f.blockW = f.colW[0] + f.colW[1]
-	small := symbol.CharW * furnitureW
-	wrapAt := int(math.Max(30, (cw-f.blockW-2)/small))
+	wrapAt := int(math.Max(cautionMin, (cw-f.blockW-2)/small))
 	f.caution = layout.WrapWords(d.caution(), wrapAt)
 	lineH := symbol.LineH * furnitureW
-	f.h = float64(max(len(f.caution), len(f.block[0]), len(f.block[1])))*lineH + 1.6
+	f.h = float64(max(len(f.caution), f.rows()))*lineH + 1.6
 	return f
+}
+
+// rows is the title block's height in lines.
+func (f foot) rows() int {
+	n := 0
+	for _, col := range f.block {
+		n = max(n, len(col))
+	}
+	return n
+}
+
+// split cuts lines into k columns of equal length, in reading order down
+// each column.
+func split(lines []string, k int) [][]string {
+	per := (len(lines) + k - 1) / max(k, 1)
+	var out [][]string
+	for i := 0; i < len(lines); i += per {
+		out = append(out, lines[i:min(i+per, len(lines))])
+	}
+	return out
 }
 
 // blockLines are the title block: the set, the sheet's number, the view
@@ -100,7 +140,7 @@ func (d *drawer) titleBlock(pg page) {
 	}
 	ft := pg.foot
 	x := pg.W - pg.m - ft.blockW
-	rows := max(len(ft.block[0]), len(ft.block[1]))
+	rows := ft.rows()
 	cv.Rect(x*k, pg.footY*k, ft.blockW*k, (float64(rows)*pg.lineH+0.6)*k, `class="fr"`)
 	for c, col := range ft.block {
 		y = pg.footY + pg.lineH
