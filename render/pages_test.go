@@ -78,8 +78,17 @@ func TestChainPages(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	laid, err := cfg.pageResults(s)
+	if err != nil {
+		t.Fatal(err)
+	}
 	for i, g := range gs {
 		for _, p := range check.Measure(g).Problems() {
+			t.Errorf("page %d: %s", i+1, p)
+		}
+		// every label prints at least MinTextMM high at the page's scale
+		pg := (&drawer{cfg: cfg, sheet: s, res: laid[i]}).pagedPage(i+1, len(gs))
+		for _, p := range check.TextHeights(g, mmPerUnit()*pg.textMM/MinTextMM, symbol.SmallScale, MinTextMM) {
 			t.Errorf("page %d: %s", i+1, p)
 		}
 	}

@@ -7,29 +7,58 @@ import (
 	"pare/render"
 )
 
-// TestFramesHoldTheirOwnParts: no stage frame on the reduced sheet of an
-// example or a stage fixture (the oscillators of testdata/osc and the
-// fixtures of rules/stages/testdata) encloses a part of another stage. A
-// frame tells the reader "these parts are this stage"; a transistor drawn
-// inside an "RC coupling" frame tells a wrong story.
-func TestFramesHoldTheirOwnParts(t *testing.T) {
+// readSheets are every circuit the gallery draws: the examples and the
+// fixtures of galleryFamilies (the review circuits, the oscillators, the
+// sets for the caution and the stage fixtures).
+func readSheets(t *testing.T) []string {
 	files := exampleFiles(t)
-	for _, glob := range []string{"../../testdata/osc/*.toml", "../../rules/stages/testdata/*.toml"} {
-		more, err := filepath.Glob(glob)
+	for _, fam := range galleryFamilies {
+		more, err := filepath.Glob(filepath.Join(fam.dir, "*.toml"))
 		if err != nil || len(more) == 0 {
-			t.Fatalf("no fixtures in %s: %v", glob, err)
+			t.Fatalf("no fixtures in %s: %v", fam.dir, err)
 		}
 		files = append(files, more...)
 	}
-	for _, f := range files {
-		for _, st := range []render.Style{render.IEC, render.IEEE} {
-			r := cachedSheet(t, f, render.Reduced, st).report
-			for _, p := range r.FrameIntruders {
-				t.Errorf("%s %s: %s", filepath.Base(f), st, p)
-			}
-			for _, p := range r.FrameStrays {
-				t.Logf("%s %s: %s", filepath.Base(f), st, p)
+	return files
+}
+
+// misreadCeiling is how many wires beside another net's closer than two
+// grid steps, and how many in line with one across a short gap, the
+// gallery's sheets hold in all (every view, both styles), as measured when
+// the checker learned them: the layout does not yet keep unrelated wires
+// two steps apart (most are one-step jogs where a pin's lead or a stub
+// meets another net's wire). A change may lower these, never raise them;
+// lower the numbers with it.
+var misreadCeiling = struct{ beside, inLine int }{908, 224}
+
+// TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
+// symbol style, has a stage frame holding another stage's part (a frame
+// tells the reader "these parts are this stage"; a transistor inside an
+// "RC coupling" frame tells a wrong story), and the wires that read as
+// joined when they are not (render/check's Beside and InLine) grow no
+// more numerous than misreadCeiling. Every finding is logged; long wires
+// and frame strays are reported.
+func TestSheetsReadAsDrawn(t *testing.T) {
+	beside, inLine := 0, 0
+	for _, f := range readSheets(t) {
+		for _, v := range drawViews {
+			for _, st := range []render.Style{render.IEC, render.IEEE} {
+				r := cachedSheet(t, f, v, st).report
+				for _, p := range r.FrameIntruders {
+					t.Errorf("%s %s %s: %s", filepath.Base(f), v, st, p)
+				}
+				beside += len(r.Beside)
+				inLine += len(r.InLine)
+				for _, l := range [][]string{r.Beside, r.InLine, r.LongWires, r.FrameStrays} {
+					for _, p := range l {
+						t.Logf("%s %s %s: %s", filepath.Base(f), v, st, p)
+					}
+				}
 			}
 		}
+	}
+	t.Logf("wires beside another net's: %d (ceiling %d); in line across a gap: %d (ceiling %d)", beside, misreadCeiling.beside, inLine, misreadCeiling.inLine)
+	if beside > misreadCeiling.beside || inLine > misreadCeiling.inLine {
+		t.Errorf("more wires that read as joined: %d beside (ceiling %d), %d in line (ceiling %d); the log lists them", beside, misreadCeiling.beside, inLine, misreadCeiling.inLine)
 	}
 }

@@ -36,7 +36,16 @@ type Report struct {
 	// FrameHugs are wires running along a frame edge less than a grid step
 	// from it for more than closeRun steps: the dashed edge and the wire
 	// blur into a double line.
-	FrameHugs      []string
+	FrameHugs []string
+	// Beside are wires of two nets parallel, overlapping in extent and
+	// closer than apartMin: they read as joined or as a bus.
+	Beside []string
+	// InLine are wires of two nets on one line with a short empty gap
+	// between their ends: they read as one wire.
+	InLine []string
+	// LongWires are nets wired much longer than their stage is wide
+	// (reported, not a fault).
+	LongWires      []string
 	Crossings      int   // wire–wire crossings of different nets
 	FrameCrossings []int // crossings inside each frame, in frame order
 	Bends          int   // bends over all wires
@@ -54,6 +63,13 @@ func (r *Report) Problems() []string {
 	return out
 }
 
+// Misreadings lists what a reader would take for a connection that is not
+// there: unrelated wires beside each other closer than apartMin, or in line
+// across a short gap, and a frame holding another stage's part.
+func (r *Report) Misreadings() []string {
+	return append(append(append([]string{}, r.Beside...), r.InLine...), r.FrameIntruders...)
+}
+
 // Crowding lists the readability findings that are not fatal to the
 // geometry but spoil a printed sheet: wires side by side, wires hugging a
 // frame edge.
@@ -63,9 +79,9 @@ func (r *Report) Crowding() []string {
 
 // Summary is one line of the measured qualities.
 func (r *Report) Summary() string {
-	return fmt.Sprintf("overlaps %d, wires through symbols %d, label overlaps %d, frame cuts %d, connectivity %d, junctions %d, close wires %d, frame hugs %d, crossings %d (per frame %v), bends %d (max %d per net), flagged nets %d",
+	return fmt.Sprintf("overlaps %d, wires through symbols %d, label overlaps %d, frame cuts %d, connectivity %d, junctions %d, close wires %d, frame hugs %d, wires beside %d, wires in line %d, long wires %d, crossings %d (per frame %v), bends %d (max %d per net), flagged nets %d",
 		len(r.SymbolOverlaps), len(r.WireThrough), len(r.LabelOverlaps), len(r.FrameCuts), len(r.Connectivity), len(r.Junctions),
-		len(r.CloseWires), len(r.FrameHugs), r.Crossings, r.FrameCrossings, r.Bends, r.MaxBends, r.Flagged)
+		len(r.CloseWires), len(r.FrameHugs), len(r.Beside), len(r.InLine), len(r.LongWires), r.Crossings, r.FrameCrossings, r.Bends, r.MaxBends, r.Flagged)
 }
 
 // notConnected is the netlist format's net for a terminal that is really not
@@ -135,9 +151,11 @@ func Measure(g *geom.Sheet) *Report {
 	r.frameEdges(g, boxes, segs)
 	r.frameIntruders(g)
 	r.closeWires(segs)
+	r.misreadings(segs, boxes, &bix)
+	r.longWires(g)
 	r.crossings(g, segs)
 	r.connectivity(g, segs)
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.LongWires, r.Connectivity, r.Junctions} {
 		sort.Strings(l)
 	}
 	return r

@@ -129,6 +129,35 @@ func TestFindings(t *testing.T) {
 			g.Labels = append(g.Labels, title)
 			g.Frames = []geom.Frame{{Box: geom.Rect{X0: -1.5, Y0: -3.5, X1: 15.5, Y1: 2.5}, Title: title}}
 		}, "", func(r *Report) []string { return r.FrameCuts }},
+		// a reader's complaints (render/check/reader.go): parallel wires of
+		// two nets closer than two steps over any shared stretch; two nets in
+		// line across a short empty gap
+		{"a short jog one step beside a wire reads as joined", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(5, -1, 7, -1)))
+		}, "run 1 apart for 2", func(r *Report) []string { return r.Beside }},
+		{"half a step apart", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(5, 1.5, 9, 1.5)))
+		}, "run 1.5 apart for 4", func(r *Report) []string { return r.Beside }},
+		{"two steps apart reads as two wires", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(5, -2, 9, -2)))
+		}, "", func(r *Report) []string { return r.Beside }},
+		{"parallel but not side by side", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(10, -1, 12, -1)))
+		}, "", func(r *Report) []string { return r.Beside }},
+		{"a wire in line with another across an empty gap", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(-9, 6, -4, 6)), wire("n", seg(4, 0, 4, 6), seg(4, 6, 0.5, 6)))
+			g.Dots = nil
+		}, "lie in line 4.5 apart", func(r *Report) []string { return r.InLine }},
+		{"a part in the gap", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("a", seg(-3, 0, 0, 0)), wire("b", seg(14, 0, 17, 0)))
+		}, "", func(r *Report) []string { return r.InLine }},
+		{"a gap long enough to read as two wires", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("m", seg(-12, 6, -6, 6)), wire("n", seg(4, 0, 4, 6), seg(4, 6, 0.5, 6)))
+		}, "", func(r *Report) []string { return r.InLine }},
+		{"a wire round the sheet", func(g *geom.Sheet) {
+			g.Frames = []geom.Frame{{Box: geom.Rect{X0: 9, Y0: -2, X1: 15, Y1: 2}, Parts: []string{"R2"}}}
+			g.Wires[0].Segs = []geom.Seg{seg(4, 0, 4, 10), seg(4, 10, 10, 10), seg(10, 10, 10, 0)}
+		}, "4.3 times its stage's width 6", func(r *Report) []string { return r.LongWires }},
 		{"stray dot", func(g *geom.Sheet) {
 			g.Dots = []geom.Pt{{X: 6, Y: 0}}
 		}, "not on a junction", func(r *Report) []string { return r.Junctions }},
@@ -164,5 +193,18 @@ func TestCrossingsAndBends(t *testing.T) {
 	}
 	if r.Bends != 2 || r.MaxBends != 2 {
 		t.Errorf("bends %d max %d, want 2 2", r.Bends, r.MaxBends)
+	}
+}
+
+// TestTextHeights: at 2.94 mm a grid unit (A4 at pare's page scale), a
+// label prints 2.94 mm and a small line 2.5 mm (0.85 of it); at 2 mm a
+// unit both are under the 2.5 mm IEC 61082-1 and ISO 3098 allow.
+func TestTextHeights(t *testing.T) {
+	g := &geom.Sheet{Labels: []geom.Label{{Lines: []string{"R1 4k7"}}, {Lines: []string{"gang tune"}, Small: true}}}
+	if p := TextHeights(g, 2.5/0.85, 0.85, 2.5); len(p) != 0 {
+		t.Errorf("at 2.94 mm a unit: %q", p)
+	}
+	if p := TextHeights(g, 2, 0.85, 2.5); len(p) != 2 {
+		t.Errorf("at 2 mm a unit: %q, want both labels", p)
 	}
 }

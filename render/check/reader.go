@@ -1,0 +1,142 @@
+package check
+
+import (
+	"fmt"
+	"math"
+
+	"pare/render/geom"
+)
+
+// A reader takes two lines for one wire, or for a bus, when they are close
+// or in line; these are the spacings below which a sheet misleads (common
+// drafting practice: unrelated conductors are kept visibly apart, and a
+// line is never continued by an unrelated one across a small gap).
+const (
+	// apartMin is the least distance, in grid steps, between parallel
+	// wires of different nets that run beside each other.
+	apartMin = 2.0
+	// inLineGap is the longest gap, in grid steps, between the facing ends
+	// of two collinear wires of different nets with nothing drawn between
+	// them that still reads as one wire broken (a supply stub in line with
+	// an input line 4.5 steps away was read as joined to it).
+	inLineGap = 6.0
+	// longWire is how many times its stage's width a net's wire may run
+	// before it is reported as a long way round.
+	longWire = 3.0
+)
+
+// misreadings finds wires a reader would take as joined: parallel wires of
+// different nets closer than apartMin that overlap in extent (a bus or one
+// thick line), and collinear wires of different nets whose facing ends are
+// less than inLineGap apart with no symbol between them (one wire). Local
+// symbols' stubs count as wire: a supply stub in line with a signal wire
+// reads as the same line.
+func (r *Report) misreadings(segs []netSeg, boxes []box, bix *bucketed) {
+	var six bucketed
+	for i, s := range segs {
+		six.add(i, s.seg.Box().Inset(inLineGap))
+	}
+	for i, a := range segs {
+		for _, j := range six.near(a.seg.Box().Inset(inLineGap)) {
+			b := segs[j]
+			if j <= i || a.net == b.net || a.net == notConnected || b.net == notConnected || degenerate(a.seg) || degenerate(b.seg) {
+				continue
+			}
+			gap, run := alongside(a.seg, b.seg)
+			switch {
+			case gap > geom.Eps && gap < apartMin-geom.Eps && run > geom.Eps:
+				r.Beside = append(r.Beside, fmt.Sprintf("wires of %s %s-%s and %s %s-%s run %g apart for %g", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), gap, run))
+			case gap < geom.Eps && run < -geom.Eps && -run < inLineGap-geom.Eps && a.seg.Horizontal() == b.seg.Horizontal():
+				gap := between(a.seg, b.seg)
+				if blocked(gap, boxes, bix) {
+					continue
+				}
+				{
+					r.InLine = append(r.InLine, fmt.Sprintf("wires of %s %s-%s and %s %s-%s lie in line %g apart", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), -run))
+				}
+			}
+		}
+	}
+}
+
+// degenerate is a segment of no length (a pin tip wired to itself): it has
+// no direction to be parallel or in line with anything.
+func degenerate(s geom.Seg) bool {
+	return math.Abs(s.A.X-s.B.X) < geom.Eps && math.Abs(s.A.Y-s.B.Y) < geom.Eps
+}
+
+// between is the open stretch between two collinear segments' facing ends,
+// from a's end to b's.
+func between(a, b geom.Seg) geom.Seg {
+	ab, bb := a.Box(), b.Box()
+	if a.Horizontal() {
+		if ab.X1 < bb.X0 {
+			return geom.Seg{A: geom.Pt{X: ab.X1, Y: ab.Y0}, B: geom.Pt{X: bb.X0, Y: ab.Y0}}
+		}
+		return geom.Seg{A: geom.Pt{X: ab.X0, Y: ab.Y0}, B: geom.Pt{X: bb.X1, Y: ab.Y0}}
+	}
+	if ab.Y1 < bb.Y0 {
+		return geom.Seg{A: geom.Pt{X: ab.X0, Y: ab.Y1}, B: geom.Pt{X: ab.X0, Y: bb.Y0}}
+	}
+	return geom.Seg{A: geom.Pt{X: ab.X0, Y: ab.Y0}, B: geom.Pt{X: ab.X0, Y: bb.Y1}}
+}
+
+// blocked reports whether a symbol or local symbol stands in the gap (or at
+// either end of it, as a part between two wires does): the eye then sees
+// two wires meeting a part, not one wire. A part beside the gap, within a
+// grid step, counts too: the wire ends read as its leads.
+func blocked(gap geom.Seg, boxes []box, bix *bucketed) bool {
+	near := gap.Box().Inset(1)
+	for _, j := range bix.near(near) {
+		if b := boxes[j].r; near.X0 <= b.X1+geom.Eps && b.X0 <= near.X1+geom.Eps && near.Y0 <= b.Y1+geom.Eps && b.Y0 <= near.Y1+geom.Eps {
+			return true
+		}
+	}
+	return false
+}
+
+// longWires reports nets whose wire is more than longWire times as long as
+// the widest stage frame holding one of the parts it joins: a wire taking
+// a long way round a sheet (reported, not a fault: a feedback or a supply
+// may have to).
+func (r *Report) longWires(g *geom.Sheet) {
+	width := map[string]float64{} // ref: the widest frame holding it
+	for _, f := range g.Frames {
+		for _, p := range f.Parts {
+			width[p] = math.Max(width[p], f.Box.W())
+		}
+	}
+	joins := map[string]float64{} // net: the widest frame of its parts
+	for _, s := range g.Symbols {
+		for _, p := range s.Pins {
+			joins[p.Net] = math.Max(joins[p.Net], width[s.Ref])
+		}
+	}
+	for _, w := range g.Wires {
+		n := 0.0
+		for _, s := range w.Segs {
+			n += math.Abs(s.A.X-s.B.X) + math.Abs(s.A.Y-s.B.Y)
+		}
+		if wd := joins[w.Net]; wd > 0 && n > longWire*wd {
+			r.LongWires = append(r.LongWires, fmt.Sprintf("wire of %s runs %g, %.1f times its stage's width %g", w.Net, n, n/wd, wd))
+		}
+	}
+}
+
+// TextHeights lists the labels of a sheet whose text would print smaller
+// than minMM at mmPerUnit millimetres per grid unit (labels are set one
+// grid unit high, small lines at smallScale of that), for a sheet put on
+// paper.
+func TextHeights(g *geom.Sheet, mmPerUnit, smallScale, minMM float64) []string {
+	var out []string
+	for _, l := range g.Labels {
+		h := mmPerUnit
+		if l.Small || len(l.Lines) > 1 {
+			h *= smallScale // a second line is set small
+		}
+		if h < minMM-geom.Eps {
+			out = append(out, fmt.Sprintf("label %q prints %.2f mm high, under %g mm", first(l.Lines), h, minMM))
+		}
+	}
+	return out
+}
