@@ -343,7 +343,7 @@ func (d *drawer) local(l geom.Local) {
 	cv.Path(sb.String(), `class="s"`)
 	switch l.Kind {
 	case geom.LocalGround:
-		ps, _ := symbol.Ground(l.At, !l.Down)
+		ps, _ := symbol.Ground(l.At, !l.Down, symbol.Style(d.cfg.Style))
 		for _, p := range ps {
 			d.prim(p)
 		}

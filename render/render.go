@@ -114,10 +114,26 @@ type Sheet struct {
 	// Marks holds per ref the alignment steps turned at it ("align 3, 4"),
 	// drawn small in its label on every view.
 	Marks map[string]string
+	// Ties holds, per ref and pin, where a valve electrode the reduction
+	// made static is held: the reduced view keeps its grid line with a stub
+	// to that mark (the other views draw every electrode's lead).
+	Ties map[string]map[string]Tie
+	// Presets holds, per ref of the circuit drawn, the trimmers merged into
+	// the part: the merged symbol keeps the preset mark and names them.
+	Presets map[string][]string
 	// continues are a row's off-row connectors when a paged sheet is cut
 	// into rows (pages.go).
 	continues []layout.Continuation
 }
+
+// Tie is where a static valve electrode is held (render/symbol).
+type Tie = symbol.Tie
+
+// Ties of a static electrode.
+const (
+	TieGround  = symbol.TieGround  // at AC ground
+	TieCathode = symbol.TieCathode // strapped to the cathode
+)
 
 // Config says how to draw.
 type Config struct {
@@ -150,8 +166,10 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 
 // options are the layout options of a sheet.
 func (cfg Config) options(s *Sheet) layout.Options {
-	o := layout.Options{Style: symbol.Style(cfg.Style), Links: s.View != Reduced, Untangle: s.View == Reduced,
-		HideUnconnected: s.View == Reduced}
+	// the gang link is drawn on every view: it is how the trade shows that
+	// the sections turn together, reduced or not
+	o := layout.Options{Style: symbol.Style(cfg.Style), Links: true, Untangle: s.View == Reduced,
+		HideUnconnected: s.View == Reduced, Ties: s.Ties, Presets: s.Presets}
 	if s.View == Faded {
 		o.Faded, o.Merged = s.Faded, s.Merged
 	}

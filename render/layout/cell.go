@@ -159,7 +159,7 @@ func localCandidates(p geom.Pin, ret *graph.Net, role graph.Role, s float64) []g
 			l.Stub = []geom.Seg{{A: p.At, B: end}, {A: end, B: at}}
 			l.At, l.Down = at, true
 		}
-		_, l.Box = symbol.Ground(l.At, !l.Down)
+		_, l.Box = symbol.Ground(l.At, !l.Down, symbol.IEC) // the box is the same in both styles
 		return []geom.Local{l}
 	}
 	text := railText(ret, p.Net)

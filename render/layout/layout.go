@@ -67,6 +67,14 @@ type Options struct {
 	// 3, 4"): drawn in the small line of its label on every view, so the
 	// label placement keeps it clear of wires and other labels.
 	Marks map[string]string
+	// Ties holds, per ref and pin, where a valve electrode the reduction
+	// made static is held (HideUnconnected sheets): its grid line stays,
+	// stubbed to a chassis mark or strapped to the cathode, with no pin.
+	Ties map[string]map[string]symbol.Tie
+	// Presets holds, per ref, the trimmers merged into the part: the merged
+	// symbol keeps the preset mark and its label names them ("VC1b ∥ TC2"),
+	// so the alignment point stays on the sheet.
+	Presets map[string][]string
 	// Continues are the nets of a row that run on in another row: each
 	// ends at an off-row connector at the row's edge (rows.go).
 	Continues []Continuation
@@ -95,6 +103,15 @@ func (o Options) drawnPart(p *graph.Part) *graph.Part {
 	q := *p
 	q.Pins = keep
 	return &q
+}
+
+// marksOf is what the symbol of a part shows beyond its netlist entry.
+func (o Options) marksOf(p *graph.Part) symbol.Marks {
+	m := symbol.Marks{Preset: len(o.Presets[p.Ref]) > 0}
+	if o.HideUnconnected {
+		m.Ties = o.Ties[p.Ref]
+	}
+	return m
 }
 
 // Placed is a symbol at its place on the sheet, for the renderer.

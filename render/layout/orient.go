@@ -18,7 +18,7 @@ func (ly *state) orient() {
 			cl.shape = connectorShape(cl)
 			continue
 		}
-		base := symbol.For(ly.o.drawnPart(cl.part), ly.o.Style)
+		base := symbol.ForMarked(ly.o.drawnPart(cl.part), ly.o.Style, ly.o.marksOf(cl.part))
 		if cl.part.Kind == graph.Port && len(cl.part.Pins) == 1 {
 			in := cl.edge <= 0
 			base = symbol.Flag(cl.part.Label, in)

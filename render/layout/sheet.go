@@ -156,5 +156,10 @@ func bounds(g *geom.Sheet) geom.Rect {
 	for _, f := range g.Frames {
 		b = b.Union(f.Box)
 	}
+	for _, l := range g.Links {
+		for k := 0; k+1 < len(l.Path); k++ {
+			b = b.Union(geom.Seg{A: l.Path[k], B: l.Path[k+1]}.Box())
+		}
+	}
 	return b
 }

@@ -28,17 +28,28 @@ func Flag(text string, in bool) Shape {
 	return s
 }
 
-// Ground is the local ground symbol hanging from at: three bars, shortening
-// downwards (IEC 60617 / IEEE 315 ground), or pointing up when up is set.
-func Ground(at geom.Pt, up bool) ([]Prim, geom.Rect) {
+// Ground is the local ground symbol hanging from at, or pointing up when up
+// is set: in the IEC style three bars shortening downwards (IEC 60617
+// earth, the mark European service sheets use for the chassis return); in
+// the IEEE style the chassis or frame connection of IEEE 315, a bar with
+// three slanting strokes. Both fit the same box, so the layout does not
+// depend on the style.
+func Ground(at geom.Pt, up bool, st Style) ([]Prim, geom.Rect) {
 	sgn := 1.0
 	if up {
 		sgn = -1
 	}
 	var ps []Prim
-	for i, w := range []float64{0.7, 0.45, 0.2} {
-		y := at.Y + sgn*0.25*float64(i)
-		ps = append(ps, line(pt(at.X-w, y), pt(at.X+w, y)))
+	if st == IEEE {
+		ps = append(ps, line(pt(at.X-0.7, at.Y), pt(at.X+0.7, at.Y)))
+		for _, x := range []float64{-0.4, 0.1, 0.6} {
+			ps = append(ps, line(pt(at.X+x, at.Y), pt(at.X+x-0.3, at.Y+sgn*0.45)))
+		}
+	} else {
+		for i, w := range []float64{0.7, 0.45, 0.2} {
+			y := at.Y + sgn*0.25*float64(i)
+			ps = append(ps, line(pt(at.X-w, y), pt(at.X+w, y)))
+		}
 	}
 	return ps, geom.R(at.X-0.7, at.Y, at.X+0.7, at.Y+sgn*0.55)
 }

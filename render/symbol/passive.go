@@ -8,7 +8,7 @@ import (
 	"pare/render/geom"
 )
 
-func resistor(p *graph.Part, st Style) Shape {
+func resistor(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Pins: twoPins(p), Box: geom.R(-2, -0.6, 2, 0.6), Turns: allTurns}
 	s.Prims = append(s.Prims, resistorBody(st)...)
 	return s
@@ -30,14 +30,18 @@ func resistorBody(st Style) []Prim {
 	return append(leads(1.2), poly(false, pt(-1.2, -0.4), pt(1.2, -0.4), pt(1.2, 0.4), pt(-1.2, 0.4)))
 }
 
-func capacitor(p *graph.Part, st Style) Shape {
+func capacitor(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Pins: twoPins(p), Box: geom.R(-2, -0.9, 2, 0.9), Turns: allTurns}
 	s.Prims = leads(0.25)
 	switch {
-	case p.Type == graph.CapElectrolytic && st == IEEE:
+	case st == IEEE:
+		// IEEE 315: one straight and one curved plate (the curved one the
+		// outside foil, or the negative of a polarised capacitor)
 		s.Prims = append(s.Prims, thick(pt(-0.25, -0.8), pt(-0.25, 0.8)),
-			arc(pt(0.45, -0.8), pt(0.45, 0.8), 1.2, false), line(pt(0.25, 0), pt(0.3, 0)),
-			line(pt(-0.95, -0.75), pt(-0.55, -0.75)), line(pt(-0.75, -0.95), pt(-0.75, -0.55)))
+			arc(pt(0.45, -0.8), pt(0.45, 0.8), 1.2, false), line(pt(0.25, 0), pt(0.3, 0)))
+		if p.Type == graph.CapElectrolytic {
+			s.Prims = append(s.Prims, line(pt(-0.95, -0.75), pt(-0.55, -0.75)), line(pt(-0.75, -0.95), pt(-0.75, -0.55)))
+		}
 	case p.Type == graph.CapElectrolytic:
 		s.Prims = append(s.Prims, poly(false, pt(-0.25, -0.8), pt(-0.05, -0.8), pt(-0.05, 0.8), pt(-0.25, 0.8)),
 			Prim{Kind: Line, Pts: []geom.Pt{pt(0.25, -0.8), pt(0.25, -0.8), pt(0.25, 0.8)}, Thick: true},
@@ -51,20 +55,24 @@ func capacitor(p *graph.Part, st Style) Shape {
 		s.Prims = append(s.Prims, line(pt(-0.9, 0.85), pt(0.9, -0.85)),
 			poly(true, pt(0.9, -0.85), pt(0.45, -0.7), pt(0.75, -0.4)))
 	case graph.CapTrimmer:
-		s.Prims = append(s.Prims, line(pt(-0.9, 0.85), pt(0.8, -0.75)), thick(pt(0.5, -1.0), pt(1.1, -0.45)))
+		s.Prims = append(s.Prims, presetMark(pt(-0.9, 0.85), pt(0.8, -0.75))...)
+	}
+	if m.Preset && p.Type != graph.CapTrimmer {
+		// a trimmer merged into this section: its preset mark on the other
+		// diagonal, so the alignment point is still on the sheet
+		s.Prims = append(s.Prims, presetMark(pt(-0.9, -0.85), pt(0.8, 0.75))...)
 	}
 	return s
 }
 
-// coilHumps draws n half-turns from x0 to x1 along y=0, bulging to negative y.
-func coilHumps(x0, x1 float64, n int) []Prim {
-	w := (x1 - x0) / float64(n)
-	var out []Prim
-	for i := 0; i < n; i++ {
-		a := x0 + w*float64(i)
-		out = append(out, arc(pt(a, 0), pt(a+w, 0), w/2, true))
-	}
-	return out
+// presetMark is the preset-adjustment mark (IEC 60617 / IEEE 315): a line
+// across the body from a to b ending in a short bar square to it at b, for
+// a trimmer, a merged trimmer or an adjustable core.
+func presetMark(a, b geom.Pt) []Prim {
+	dx, dy := b.X-a.X, b.Y-a.Y
+	n := math.Hypot(dx, dy)
+	ux, uy := -dy/n*0.4, dx/n*0.4 // half the bar, square to the line
+	return []Prim{line(a, b), thick(pt(b.X-ux, b.Y-uy), pt(b.X+ux, b.Y+uy))}
 }
 
 // ironCored says whether a coil is drawn with a core: smoothing and audio
@@ -82,35 +90,14 @@ func ironCored(p *graph.Part) bool {
 	return p.Inductance() >= 1
 }
 
-func inductor(p *graph.Part, st Style) Shape {
-	s := Shape{Box: geom.R(-2, -0.9, 2, 0.9), Turns: allTurns}
-	s.Prims = append(leads(1.6), coilHumps(-1.6, 1.6, 4)...)
-	if ironCored(p) {
-		s.Prims = append(s.Prims, thick(pt(-1.6, -0.85), pt(1.6, -0.85)))
-		s.Box.Y0 = -1.1
-	}
-	if p.Pin("t") == nil {
-		s.Pins = twoPins(p)
-		return s
-	}
-	frac := 0.5
-	if w := p.Winding("1t"); w != nil {
-		if tot := p.Inductance(); tot > 0 {
-			// tap position along the coil, by turns: √(L1t/L) for coupled halves
-			frac = math.Sqrt(w.L / tot)
-		}
-	}
-	tx := math.Round(-1.6 + 3.2*frac)
-	tx = math.Max(-1, math.Min(1, tx))
-	s.Pins = []geom.Pin{pin("1", -2, 0, geom.Left), pin("t", tx, 1, geom.Down), pin("2", 2, 0, geom.Right)}
-	s.Prims = append(s.Prims, line(pt(tx, 0), pt(tx, 1)))
-	s.Box.Y1 = 1
-	return s
-}
-
-func diode(p *graph.Part, st Style) Shape {
+func diode(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Pins: twoPins(p), Box: geom.R(-2, -0.9, 2, 0.9), Turns: allTurns}
-	s.Prims = append(leads(0.6), poly(true, pt(-0.6, -0.6), pt(-0.6, 0.6), pt(0.6, 0)))
+	// IEC 60617 draws the triangle open with the lead running through it;
+	// IEEE 315 readers know the filled triangle
+	s.Prims = append(leads(0.6), poly(st == IEEE, pt(-0.6, -0.6), pt(-0.6, 0.6), pt(0.6, 0)))
+	if st != IEEE {
+		s.Prims = append(s.Prims, line(pt(-0.6, 0), pt(0.6, 0)))
+	}
 	switch p.Type {
 	case "zener":
 		s.Prims = append(s.Prims, thick(pt(0.35, -0.8), pt(0.6, -0.6), pt(0.6, 0.6), pt(0.85, 0.8)))
@@ -123,21 +110,21 @@ func diode(p *graph.Part, st Style) Shape {
 	return s
 }
 
-func crystal(p *graph.Part, st Style) Shape {
+func crystal(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Pins: twoPins(p), Box: geom.R(-2, -0.9, 2, 0.9), Turns: allTurns}
 	s.Prims = append(leads(0.7), thick(pt(-0.7, -0.7), pt(-0.7, 0.7)), thick(pt(0.7, -0.7), pt(0.7, 0.7)),
 		poly(false, pt(-0.4, -0.8), pt(0.4, -0.8), pt(0.4, 0.8), pt(-0.4, 0.8)))
 	return s
 }
 
-func pot(p *graph.Part, st Style) Shape {
+func pot(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Box: geom.R(-2, -2, 2, 0.6), Turns: allTurns}
 	s.Pins = []geom.Pin{pin("1", -2, 0, geom.Left), pin("w", 0, -2, geom.Up), pin("2", 2, 0, geom.Right)}
 	s.Prims = append(resistorBody(st), line(pt(0, -2), pt(0, -0.7)), poly(true, pt(0, -0.45), pt(-0.3, -0.95), pt(0.3, -0.95)))
 	return s
 }
 
-func switchSym(p *graph.Part, st Style) Shape {
+func switchSym(p *graph.Part, st Style, m Marks) Shape {
 	names := make([]string, 0, len(p.Pins))
 	for _, pn := range p.Pins {
 		names = append(names, pn.Name)
@@ -190,7 +177,7 @@ func switchSym(p *graph.Part, st Style) Shape {
 }
 
 // generic is a box with the part's terminals split left and right.
-func generic(p *graph.Part, st Style) Shape {
+func generic(p *graph.Part, st Style, m Marks) Shape {
 	n := len(p.Pins)
 	half := (n + 1) / 2
 	rows := math.Max(1, float64(half))

@@ -7,7 +7,7 @@ import (
 	"pare/render/geom"
 )
 
-func bjt(p *graph.Part, st Style) Shape {
+func bjt(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Turns: fixed, Box: geom.R(-3, -3, 1.8, 3)}
 	s.Prims = []Prim{circle(pt(0.2, 0), 1.6), line(pt(-3, 0), pt(-0.6, 0)), thick(pt(-0.6, -0.9), pt(-0.6, 0.9)),
 		line(pt(-0.6, -0.4), pt(1, -1.2), pt(1, -3)), line(pt(-0.6, 0.4), pt(1, 1.2), pt(1, 3))}
@@ -24,7 +24,7 @@ func bjt(p *graph.Part, st Style) Shape {
 // centre (so its lead clears the source), drain up, source down, body (when
 // the part has one) to the right. A MOSFET has an insulated gate plate and a
 // broken channel; a JFET a solid channel with the gate arrow on it.
-func fet(p *graph.Part, st Style) Shape {
+func fet(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Turns: fixed, Box: geom.R(-3, -3, 1.8, 3)}
 	s.Prims = []Prim{circle(pt(0.2, 0), 1.6),
 		line(pt(0, -0.7), pt(1, -0.7), pt(1, -3)), line(pt(0, 0.7), pt(1, 0.7), pt(1, 3))}

@@ -11,7 +11,7 @@ import (
 // table's own initialisation.
 func init() { table[graph.Loudspeaker] = loudspeaker }
 
-func loudspeaker(p *graph.Part, st Style) Shape {
+func loudspeaker(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Pins: twoPins(p), Box: geom.R(-2, -1.8, 2, 0.6), Turns: allTurns}
 	s.Prims = append(leads(0.6),
 		poly(false, pt(-0.6, -0.5), pt(0.6, -0.5), pt(0.6, 0.5), pt(-0.6, 0.5)),

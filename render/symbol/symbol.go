@@ -188,7 +188,29 @@ func pin(name string, x, y float64, d geom.Dir) geom.Pin {
 }
 
 // builder is one entry of the symbol table.
-type builder func(p *graph.Part, st Style) Shape
+type builder func(p *graph.Part, st Style, m Marks) Shape
+
+// Marks is what a sheet knows about a part beyond its netlist entry, for its
+// symbol: the valve electrodes the reduction made static and where they are
+// held, and the alignment points a reduction folded into the part.
+type Marks struct {
+	// Ties holds, per pin name, where a static electrode is held: the
+	// electrode keeps its grid line with a stub to that mark and has no pin.
+	Ties map[string]Tie
+	// Preset says a trimmer (a preset the repairer turns at alignment) was
+	// merged into the part: its preset mark stays on the merged symbol.
+	Preset bool
+}
+
+// Tie is where a static electrode is held.
+type Tie int
+
+// Ties of a static electrode.
+const (
+	TieNone    Tie = iota
+	TieGround      // at AC ground: a stub to a chassis mark
+	TieCathode     // strapped to the cathode, drawn as the trade's internal strap
+)
 
 // table maps a part kind to its symbol builder: the single place that says
 // how each kind is drawn.
@@ -204,19 +226,22 @@ var table = map[graph.Kind]builder{
 	graph.Crystal:     crystal,
 	graph.Pot:         pot,
 	graph.Switch:      switchSym,
-	graph.Port:        func(p *graph.Part, st Style) Shape { return Flag(p.Label, true) },
+	graph.Port:        func(p *graph.Part, st Style, m Marks) Shape { return Flag(p.Label, true) },
 	graph.Generic:     generic,
 }
 
 // For returns the symbol of a part in its natural orientation with each pin's
 // net filled in. Pins the part does not have are not drawn (a reduced valve
 // without its screen is drawn without a screen).
-func For(p *graph.Part, st Style) Shape {
+func For(p *graph.Part, st Style) Shape { return ForMarked(p, st, Marks{}) }
+
+// ForMarked is For with the sheet's marks for the part.
+func ForMarked(p *graph.Part, st Style, m Marks) Shape {
 	b, ok := table[p.Kind]
 	if !ok {
 		b = generic
 	}
-	s := b(p, st)
+	s := b(p, st, m)
 	for i := range s.Pins {
 		s.Pins[i].Net = p.NetOf(s.Pins[i].Name)
 	}
@@ -224,7 +249,7 @@ func For(p *graph.Part, st Style) Shape {
 	// know) would vanish from the drawing: fall back to the generic box.
 	for _, pn := range p.Pins {
 		if s.Pin(pn.Name) == nil {
-			s = generic(p, st)
+			s = generic(p, st, m)
 			for i := range s.Pins {
 				s.Pins[i].Net = p.NetOf(s.Pins[i].Name)
 			}

@@ -16,6 +16,7 @@ type valveRows struct {
 	ay, ky, hy             float64
 	gy                     map[string]float64
 	top, bottom            float64
+	ties                   map[string]Tie // grids drawn with no pin, held at a mark
 }
 
 // present lists the names the part has pins for, in the given order.
@@ -29,14 +30,23 @@ func present(p *graph.Part, names ...string) []string {
 	return out
 }
 
-func newValveRows(p *graph.Part) *valveRows {
+func newValveRows(p *graph.Part, ties map[string]Tie) *valveRows {
 	v := &valveRows{
-		grids:   present(p, "g6", "g5", "g4", "g3", "g2", "g1"),
+		grids:   drawnGrids(p, ties),
 		anodes:  present(p, "a", "a1", "a2"),
 		heaters: present(p, "h", "h1", "h2"),
 		hasK:    p.Pin("k") != nil,
 		shield:  p.Pin("s") != nil,
 		gy:      map[string]float64{},
+		ties:    map[string]Tie{},
+	}
+	for _, g := range v.grids {
+		if p.Pin(g) == nil {
+			v.ties[g] = ties[g]
+			if v.ties[g] == TieCathode && !v.hasK {
+				v.ties[g] = TieGround // no cathode drawn to strap it to
+			}
+		}
 	}
 	y := 0.0
 	v.ay = y
@@ -51,13 +61,18 @@ func newValveRows(p *graph.Part) *valveRows {
 	}
 	v.hy = y
 	v.top, v.bottom = v.ay-1, y
-	if !v.hasK && len(v.heaters) == 0 {
+	switch {
+	case !v.hasK && len(v.heaters) == 0:
 		v.bottom = v.ky
+	case len(v.heaters) == 0 && len(v.grids) > 1:
+		// a tall envelope's end is round: a step under the cathode keeps
+		// its bar (and a suppressor's strap) inside it
+		v.bottom = v.ky + 1
 	}
 	// Right-side pins: grids other than g1, then the shield.
 	right := 0
 	for _, g := range v.grids {
-		if g != "g1" {
+		if g != "g1" && v.ties[g] == TieNone {
 			right++
 		}
 	}
@@ -74,9 +89,9 @@ func newValveRows(p *graph.Part) *valveRows {
 // from the highest number down to g1, cathode, heater. g1 leaves on the left,
 // the other grids and the internal shield on the right; anode up, cathode and
 // heater down. Only electrodes the part has pins for are drawn.
-func valve(p *graph.Part, st Style) Shape {
+func valve(p *graph.Part, st Style, m Marks) Shape {
 	s := Shape{Turns: fixed}
-	v := newValveRows(p)
+	v := newValveRows(p, m.Ties)
 	v.envelope(&s)
 	v.anodeLeads(&s)
 	ry := v.gridLeads(&s)
@@ -93,6 +108,11 @@ func valve(p *graph.Part, st Style) Shape {
 	x0, x1 := -2.0, 2.0
 	for _, pn := range s.Pins {
 		x0, x1 = math.Min(x0, pn.At.X), math.Max(x1, pn.At.X)
+	}
+	for _, t := range v.ties {
+		if t == TieGround {
+			x0 = math.Min(x0, -3) // the chassis mark of a grid held at AC ground
+		}
 	}
 	y0, y1 := v.top, v.bottom
 	for _, pn := range s.Pins {
@@ -138,6 +158,10 @@ func (v *valveRows) gridLeads(s *Shape) float64 {
 	for _, g := range v.grids {
 		y := v.gy[g]
 		s.Prims = append(s.Prims, Prim{Kind: Line, Pts: []geom.Pt{pt(-1.2, y), pt(1.2, y)}, Dash: true})
+		if t := v.ties[g]; t != TieNone {
+			v.tiedGrid(s, y, t)
+			continue
+		}
 		if g == "g1" {
 			s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-3, y)))
 			s.Pins = append(s.Pins, pin(g, -3, y, geom.Left))
@@ -148,6 +172,36 @@ func (v *valveRows) gridLeads(s *Shape) float64 {
 		ry = y + 1
 	}
 	return ry
+}
+
+// drawnGrids lists the grids drawn, highest number first: those the part
+// has pins for and those the sheet marks as held static, so a pentode whose
+// screen and suppressor were made static still reads as a pentode.
+func drawnGrids(p *graph.Part, ties map[string]Tie) []string {
+	var out []string
+	for _, g := range []string{"g6", "g5", "g4", "g3", "g2", "g1"} {
+		if p.Pin(g) != nil || ties[g] != TieNone {
+			out = append(out, g)
+		}
+	}
+	return out
+}
+
+// tiedGrid draws a static grid's lead: a grid at AC ground leaves on the
+// left (g1's row is the only other left lead, and it is never static) with
+// a stub to a small chassis mark inside the symbol's box; a grid strapped to
+// the cathode is joined to the cathode's end inside the envelope, as valve
+// makers draw an internal strap.
+func (v *valveRows) tiedGrid(s *Shape, y float64, t Tie) {
+	if t == TieCathode {
+		s.Prims = append(s.Prims, line(pt(1.2, y), pt(1.5, y), pt(1.5, v.ky), pt(1, v.ky)))
+		return
+	}
+	s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-2.6, y), pt(-2.6, y+0.3)))
+	for i, w := range []float64{0.35, 0.22, 0.08} {
+		yy := y + 0.3 + 0.17*float64(i)
+		s.Prims = append(s.Prims, line(pt(-2.6-w, yy), pt(-2.6+w, yy)))
+	}
 }
 
 // cathodeAndHeater draws the cathode (beside the heater when there is one)

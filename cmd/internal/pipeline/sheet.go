@@ -62,6 +62,8 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	case render.Reduced:
 		s.Circuit = reduced
 		s.Frames = stageFrames(r.Stages, reduced, nil)
+		_, merged := FadedAndMerged(c, reduced)
+		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
 	case render.Full:
 		s.Circuit = c
 		s.Frames = stageFrames(r.Stages, reduced, c)
