@@ -212,4 +212,3 @@ func (c coil) sections() []float64 {
 	}
 	return out
 }
-
