@@ -24,10 +24,16 @@ func turns(a, b, nrm geom.Pt, n int, st Style) []Prim {
 		}
 		return out
 	}
-	// a prolate cycloid: the pen runs back a little at the foot of each
-	// turn, which closes it into a loop
-	const steps = 12
-	h, back := 0.9*w, 0.28*w // loop height and the run back
+	// a prolate cycloid: the pen runs back at the foot of each turn, which
+	// closes it into a loop; loops narrower than 0.75 grid steps close up
+	// at the stroke's width, so a short coil gets fewer of them
+	if fit := int(w * float64(n) / 0.75); fit < n {
+		n = max(1, fit)
+		ux, uy = (b.X-a.X)/float64(n), (b.Y-a.Y)/float64(n)
+		w = math.Hypot(ux, uy)
+	}
+	const steps = 16
+	h, back := 0.9*w, 0.4*w // loop height and the run back
 	var pts []geom.Pt
 	for i := 0; i <= n*steps; i++ {
 		t := 2 * math.Pi * float64(i) / steps

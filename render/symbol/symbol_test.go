@@ -50,6 +50,8 @@ func kinds() map[string]*graph.Part {
 		"pot":          part(graph.Pot, "", "1", "w", "2"),
 		"switch":       sw,
 		"generic":      part(graph.Generic, "", "a", "b", "c"),
+		"loudspeaker":  part(graph.Loudspeaker, "", "1", "2"),
+		"port":         part(graph.Port, "", "1"),
 	}
 }
 
@@ -181,5 +183,202 @@ func TestOutputTransformerReads(t *testing.T) {
 	}
 	if gap := humpX - coreX; gap < 0.2 {
 		t.Errorf("coil humps come within %g of the core lines, want at least 0.2 grid steps", gap)
+	}
+}
+
+// Every kind in the symbol table is drawn in both styles, and the IEEE 315
+// set differs from the IEC 60617 one exactly where the standards' forms
+// differ (from the standards' symbol tables as the trade knows them):
+// resistor and pot (zig-zag against rectangle), capacitors (one curved
+// plate), coils and windings (loops against humps), diodes (IEC's open
+// triangle with the lead through it); valves, transistors, crystals,
+// loudspeakers, switches and the generic box are drawn alike in both. The
+// pins never move with the style: the layout is the same in both.
+func TestStylesDifferWhereStandardsDiffer(t *testing.T) {
+	differ := map[string]bool{
+		"resistor": true, "pot": true, "capacitor": true, "electrolytic": true, "variable": true, "trimmer": true,
+		"inductor": true, "tapped": true, "transformer": true, "diode": true, "zener": true, "varicap": true,
+	}
+	ks := kinds()
+	drawn := map[graph.Kind]bool{}
+	for name, p := range ks {
+		drawn[p.Kind] = true
+		a, b := For(p, IEC), For(p, IEEE)
+		if got := !reflect.DeepEqual(a.Prims, b.Prims); got != differ[name] {
+			t.Errorf("%s: IEC and IEEE differ = %v, want %v", name, got, differ[name])
+		}
+		if !reflect.DeepEqual(a.Pins, b.Pins) || a.Box != b.Box {
+			t.Errorf("%s: the styles place pins or box differently", name)
+		}
+	}
+	for k := range table {
+		if !drawn[k] {
+			t.Errorf("kind %s has a symbol but no case here", k)
+		}
+	}
+	gi, _ := Ground(geom.Pt{}, false, IEC)
+	ge, _ := Ground(geom.Pt{}, false, IEEE)
+	if reflect.DeepEqual(gi, ge) {
+		t.Error("the IEEE 315 chassis mark is drawn as the IEC earth")
+	}
+}
+
+// Every stroke of every symbol stays near its box (the layout keeps other
+// parts, wires and labels off the box, so a stroke far outside it would be
+// drawn over them); half a stroke's reach of slack for round caps and bars.
+func TestStrokesInsideBox(t *testing.T) {
+	for name, p := range kinds() {
+		for _, st := range []Style{IEC, IEEE} {
+			s := For(p, st)
+			b := s.Box
+			b = geom.Rect{X0: b.X0 - 0.35, Y0: b.Y0 - 0.35, X1: b.X1 + 0.35, Y1: b.Y1 + 0.35}
+			for _, pr := range s.Prims {
+				for _, q := range pr.Pts {
+					if pr.Kind != Arc && !b.Contains(q) {
+						t.Errorf("%s %v: stroke point %v outside box %v", name, st, q, s.Box)
+					}
+				}
+			}
+		}
+	}
+}
+
+// A pentode whose screen the reduction put at AC ground and whose
+// suppressor is strapped to the cathode is still drawn with three grids
+// (common practice: a valve keeps its electrodes on a diagram); the static
+// two have no pin, the screen a stub to a chassis mark, the suppressor a
+// strap to the cathode; the live pins sit as on the pentode drawn without
+// them, so the layout is unaffected by the marks.
+func TestStaticGridsKeepTheirLines(t *testing.T) {
+	p := part(graph.Valve, "pentode", "a", "g1", "k")
+	plain := For(p, IEC)
+	marked := ForMarked(p, IEC, Marks{Ties: map[string]Tie{"g2": TieGround, "g3": TieCathode}})
+	dashes := func(s Shape) int {
+		n := 0
+		for _, pr := range s.Prims {
+			if pr.Dash {
+				n++
+			}
+		}
+		return n
+	}
+	if dashes(plain) != 1 || dashes(marked) != 3 {
+		t.Errorf("grid lines: plain %d (want 1), marked %d (want 3)", dashes(plain), dashes(marked))
+	}
+	if marked.Pin("g2") != nil || marked.Pin("g3") != nil || len(marked.Pins) != 3 {
+		t.Errorf("static grids have pins: %v", marked.Pins)
+	}
+	k := marked.Pin("k").At
+	strap, chassis := false, 0
+	for _, pr := range marked.Prims {
+		last := pr.Pts[len(pr.Pts)-1]
+		if pr.Kind == Line && len(pr.Pts) == 4 && !pr.Thick && last.X == 1 && last.Y < k.Y {
+			strap = true
+		}
+		if pr.Kind == Line && len(pr.Pts) == 2 && pr.Pts[0].Y == pr.Pts[1].Y && pr.Pts[0].X < -2 && pr.Pts[1].X < -2 {
+			chassis++
+		}
+	}
+	if !strap || chassis != 3 {
+		t.Errorf("strap to the cathode %v, chassis bars %d (want true, 3)", strap, chassis)
+	}
+	// the table moves the live pins down past the static grids' rows; they
+	// stay on whole grid points on the box's edge, where the router
+	// takes them from
+	for _, pn := range marked.Pins {
+		b := marked.Box
+		onEdge := map[geom.Dir]bool{geom.Left: pn.At.X == b.X0, geom.Right: pn.At.X == b.X1, geom.Up: pn.At.Y == b.Y0, geom.Down: pn.At.Y == b.Y1}
+		if pn.At.X != math.Round(pn.At.X) || pn.At.Y != math.Round(pn.At.Y) || !onEdge[pn.Dir] {
+			t.Errorf("pin %s at %v (dir %v) is off the grid or off the %v edge of %v", pn.Name, pn.At, pn.Dir, pn.Dir, b)
+		}
+	}
+}
+
+// A tap is drawn where it is along the turns (the netlist's tap fraction,
+// or the halves' inductances: L goes with turns squared, handbook formula
+// L ∝ N²), not mid-winding: an inductor's tap lead meets the coil at that
+// fraction of its turns; a transformer's tap pin stands near it.
+func TestTapAtItsPlace(t *testing.T) {
+	for _, tc := range []struct {
+		l1, l2 float64 // μH of the halves, tightly coupled (k = 1)
+		frac   float64 // of the turns from pin 1
+	}{
+		{1.44, 77.44, 0.12}, // N ratio 12:88 → L1 = 0.12² of 100, L2 = 0.88² of 100
+		{25, 25, 0.5},
+		{56.25, 6.25, 0.75},
+	} {
+		p := part(graph.Inductor, "plain", "1", "t", "2")
+		p.Windings = []graph.Winding{{Name: "1t", L: tc.l1 * 1e-6, From: "1", To: "t"}, {Name: "t2", L: tc.l2 * 1e-6, From: "t", To: "2"}}
+		p.Coupling = []graph.Coupling{{A: "1t", B: "t2", K: 1}}
+		if got := tapAt(p); math.Abs(got-tc.frac) > 0.02 {
+			t.Errorf("tap of %g+%g µH at %.3f of the turns, want %.2f", tc.l1, tc.l2, got, tc.frac)
+			continue
+		}
+		for _, st := range []Style{IEC, IEEE} {
+			s := For(p, st)
+			tx := s.Pin("t").At.X
+			x0, x1 := math.Inf(1), math.Inf(-1) // the turns' extent, leads left out
+			for _, pr := range s.Prims {
+				if pr.Kind == Arc || (pr.Kind == Line && len(pr.Pts) > 2) {
+					for _, q := range pr.Pts {
+						x0, x1 = math.Min(x0, q.X), math.Max(x1, q.X)
+					}
+				}
+			}
+			if st == IEEE {
+				// the loops run back past their ends by the pen's back-run
+				x0, x1 = x0+0.15, x1-0.15
+			}
+			if got := (tx - x0) / (x1 - x0); math.Abs(got-tc.frac) > 0.06 {
+				t.Errorf("%v: tap lead at %.2f of the coil, want %.2f", st, got, tc.frac)
+			}
+		}
+	}
+	// a transformer winding tapped a quarter of the way: turns 1:3, L 1:9
+	x := part(graph.Transformer, "", "p1", "pt", "p2", "s1", "s2")
+	x.Windings = []graph.Winding{{Name: "pa", L: 1e-6, From: "p1", To: "pt"}, {Name: "pb", L: 9e-6, From: "pt", To: "p2"},
+		{Name: "s", L: 1e-6, From: "s1", To: "s2"}}
+	x.Coupling = []graph.Coupling{{A: "pa", B: "pb", K: 0.99}, {A: "pa", B: "s", K: 0.1}}
+	s := For(x, IEC)
+	y := func(n string) float64 { return s.Pin(n).At.Y }
+	if got := (y("pt") - y("p1")) / (y("p2") - y("p1")); math.Abs(got-0.25) > 0.05 {
+		t.Errorf("transformer tap at %.2f of the winding, want 0.25", got)
+	}
+}
+
+// Alignment points stay marked: a gang section a trimmer was merged into
+// carries the preset mark (its bar) beside its own arrow, and a coil or a
+// transformer winding with an adjustable core carries it across the turns.
+func TestPresetMarks(t *testing.T) {
+	bars := func(s Shape) int {
+		n := 0
+		for _, pr := range s.Prims {
+			if pr.Thick && len(pr.Pts) == 2 && pr.Pts[0].X != pr.Pts[1].X && pr.Pts[0].Y != pr.Pts[1].Y {
+				n++ // a slanting bar: the preset mark's end
+			}
+		}
+		return n
+	}
+	vc := part(graph.Capacitor, graph.CapVariable, "1", "2")
+	coil := part(graph.Inductor, "plain", "1", "2")
+	slug := part(graph.Inductor, "plain", "1", "2")
+	slug.Adjust = []string{graph.CoreWhole}
+	ift := kinds()["transformer"]
+	ift.Adjust = []string{"p", "sa"}
+	plainIFT := kinds()["transformer"]
+	for _, st := range []Style{IEC, IEEE} {
+		for _, tc := range []struct {
+			name       string
+			got, plain Shape
+			want       int
+		}{
+			{"merged trimmer", ForMarked(vc, st, Marks{Preset: true}), For(vc, st), 1},
+			{"adjustable core", For(slug, st), For(coil, st), 1},
+			{"two adjustable windings", For(ift, st), For(plainIFT, st), 2},
+		} {
+			if d := bars(tc.got) - bars(tc.plain); d != tc.want {
+				t.Errorf("%v %s: %d preset marks, want %d", st, tc.name, d, tc.want)
+			}
+		}
 	}
 }
