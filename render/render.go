@@ -119,7 +119,7 @@ type Sheet struct {
 	// to that mark (the other views draw every electrode's lead).
 	Ties map[string]map[string]Tie
 	// Presets holds, per ref of the circuit drawn, the trimmers merged into
-	// the part: the merged symbol keeps the preset mark and names them.
+	// the part: the merged symbol keeps the preset mark.
 	Presets map[string][]string
 	// continues are a row's off-row connectors when a paged sheet is cut
 	// into rows (pages.go).

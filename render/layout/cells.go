@@ -63,9 +63,6 @@ func makeCells(c *graph.Circuit, o Options) []*cell {
 // letter code, then a small line with the gang and where a merged part went.
 func labelLines(p *graph.Part, o Options) []string {
 	first := p.Ref
-	if ts := o.Presets[p.Ref]; len(ts) > 0 {
-		first += " \u2225 " + strings.Join(ts, " \u2225 ")
-	}
 	add := func(s string) {
 		if s != "" {
 			first += " " + s

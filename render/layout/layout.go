@@ -72,8 +72,9 @@ type Options struct {
 	// stubbed to a chassis mark or strapped to the cathode, with no pin.
 	Ties map[string]map[string]symbol.Tie
 	// Presets holds, per ref, the trimmers merged into the part: the merged
-	// symbol keeps the preset mark and its label names them ("VC1b ∥ TC2"),
-	// so the alignment point stays on the sheet.
+	// symbol keeps the preset mark, so the alignment point stays on the
+	// sheet (the alignment mark in its label names the trimmer, "align 3
+	// (TC2)").
 	Presets map[string][]string
 	// Continues are the nets of a row that run on in another row: each
 	// ends at an off-row connector at the row's edge (rows.go).

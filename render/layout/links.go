@@ -49,19 +49,25 @@ func linkPaths(ba, bb geom.Rect, over, under float64) [][]geom.Pt {
 		{pa, {X: pa.X, Y: pb.Y}, pb},
 		{pa, {X: pa.X, Y: over}, {X: pb.X, Y: over}, pb},
 	}
-	side := func(r geom.Rect, left bool) (edge, out geom.Pt) {
+	// out of a side, one to three steps clear of it, so the link can keep
+	// off a wire leaving the symbol there
+	side := func(r geom.Rect, left bool, d float64) (edge, out geom.Pt) {
 		c := center(r)
 		if left {
-			return geom.Pt{X: r.X0, Y: c.Y}, geom.Pt{X: r.X0 - 1, Y: c.Y}
+			return geom.Pt{X: r.X0, Y: c.Y}, geom.Pt{X: r.X0 - d, Y: c.Y}
 		}
-		return geom.Pt{X: r.X1, Y: c.Y}, geom.Pt{X: r.X1 + 1, Y: c.Y}
+		return geom.Pt{X: r.X1, Y: c.Y}, geom.Pt{X: r.X1 + d, Y: c.Y}
 	}
 	for _, via := range []float64{over, under} {
 		for _, leftA := range []bool{true, false} {
 			for _, leftB := range []bool{true, false} {
-				ea, oa := side(ba, leftA)
-				eb, ob := side(bb, leftB)
-				out = append(out, []geom.Pt{ea, oa, {X: oa.X, Y: via}, {X: ob.X, Y: via}, ob, eb})
+				for _, da := range []float64{1, 2, 3} {
+					for _, db := range []float64{1, 2, 3} {
+						ea, oa := side(ba, leftA, da)
+						eb, ob := side(bb, leftB, db)
+						out = append(out, []geom.Pt{ea, oa, {X: oa.X, Y: via}, {X: ob.X, Y: via}, ob, eb})
+					}
+				}
 			}
 		}
 	}

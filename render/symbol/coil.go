@@ -58,18 +58,26 @@ func tapAt(p *graph.Part) float64 {
 	return math.Sqrt(w.L / tot)
 }
 
-// tappedCoil draws a tapped inductor between pins at ±3: the tap's lead
-// leaves on a whole grid point and the coil is laid so that its turns on
-// either side of the lead stand in the tap's ratio (8 turns in all, at
-// least one on each side), so a tap 12 % up the coil is drawn there and not
-// mid-winding.
+// tappedCoil draws a tapped inductor between pins at ±2, as an untapped
+// one: the tap's lead leaves on a whole grid point and the coil is laid so
+// that its turns on either side of the lead stand in the tap's ratio (six
+// turns in all, at least one on each side), so a tap 12 % up the coil is
+// drawn there and not mid-winding. The coil shortens when the tap is so
+// near an end that it would not fit between the pins.
 func tappedCoil(frac float64, st Style) (prims []Prim, tx float64) {
-	const length, n = 4.8, 8
-	tx = math.Max(-2, math.Min(2, math.Round(-length/2+frac*length)))
+	const n = 6
+	length := 3.2
+	tx = math.Max(-1, math.Min(1, math.Round(-length/2+frac*length)))
+	if frac > 0 {
+		length = math.Min(length, (tx+1.8)/frac)
+	}
+	if frac < 1 {
+		length = math.Min(length, (1.8-tx)/(1-frac))
+	}
 	x0, x1 := tx-frac*length, tx+(1-frac)*length
 	n1 := int(math.Max(1, math.Min(n-1, math.Round(frac*n))))
 	up := pt(0, -1)
-	prims = []Prim{line(pt(-3, 0), pt(x0, 0)), line(pt(x1, 0), pt(3, 0)), line(pt(tx, 0), pt(tx, 1))}
+	prims = []Prim{line(pt(-2, 0), pt(x0, 0)), line(pt(x1, 0), pt(2, 0)), line(pt(tx, 0), pt(tx, 1))}
 	prims = append(prims, turns(pt(x0, 0), pt(tx, 0), up, n1, st)...)
 	prims = append(prims, turns(pt(tx, 0), pt(x1, 0), up, n-n1, st)...)
 	return prims, tx
@@ -83,8 +91,8 @@ func inductor(p *graph.Part, st Style, m Marks) Shape {
 	} else {
 		prims, tx := tappedCoil(tapAt(p), st)
 		s.Prims = prims
-		s.Pins = []geom.Pin{pin("1", -3, 0, geom.Left), pin("t", tx, 1, geom.Down), pin("2", 3, 0, geom.Right)}
-		s.Box = geom.R(-3, -0.9, 3, 1)
+		s.Pins = []geom.Pin{pin("1", -2, 0, geom.Left), pin("t", tx, 1, geom.Down), pin("2", 2, 0, geom.Right)}
+		s.Box.Y1 = 1
 	}
 	if ironCored(p) {
 		s.Prims = append(s.Prims, thick(pt(-1.6, -0.85), pt(1.6, -0.85)))

@@ -51,20 +51,35 @@ func newValveRows(p *graph.Part, ties map[string]Tie) *valveRows {
 	y := 0.0
 	v.ay = y
 	y++
+	if len(v.ties) > 0 && v.ties[v.grids[0]] != TieNone {
+		// static grids right under the anode: the plate moves up half a
+		// step (its pin stays) to give them room
+		v.ay = -0.5
+	}
+	prev := v.ay
+	var held []string // static grids waiting for the next row with a pin
 	for _, g := range v.grids {
+		if v.ties[g] != TieNone {
+			held = append(held, g)
+			continue
+		}
+		v.spread(held, prev, y)
+		held = nil
 		v.gy[g] = y
+		prev = y
 		y++
 	}
+	v.spread(held, prev, y)
 	v.ky = y
 	if len(v.heaters) > 0 {
 		y++
 	}
 	v.hy = y
-	v.top, v.bottom = v.ay-1, y
+	v.top, v.bottom = -1, y // the anode row is 0 (its plate may stand higher)
 	switch {
 	case !v.hasK && len(v.heaters) == 0:
 		v.bottom = v.ky
-	case len(v.heaters) == 0 && len(v.grids) > 1:
+	case len(v.heaters) == 0 && len(v.grids)-len(v.ties) > 1:
 		// a tall envelope's end is round: a step under the cathode keeps
 		// its bar (and a suppressor's strap) inside it
 		v.bottom = v.ky + 1
@@ -174,6 +189,16 @@ func (v *valveRows) gridLeads(s *Shape) float64 {
 	return ry
 }
 
+// spread sets static grids evenly between two rows: a grid without a pin
+// has no lead to keep clear of its neighbours', so it takes no row of its own
+// and the valve keeps the pins and the size of the same valve without it:
+// the layout around it does not change.
+func (v *valveRows) spread(held []string, from, to float64) {
+	for i, g := range held {
+		v.gy[g] = from + (to-from)*float64(i+1)/float64(len(held)+1)
+	}
+}
+
 // drawnGrids lists the grids drawn, highest number first: those the part
 // has pins for and those the sheet marks as held static, so a pentode whose
 // screen and suppressor were made static still reads as a pentode.
@@ -188,18 +213,18 @@ func drawnGrids(p *graph.Part, ties map[string]Tie) []string {
 }
 
 // tiedGrid draws a static grid's lead: a grid at AC ground leaves on the
-// left (g1's row is the only other left lead, and it is never static) with
-// a stub to a small chassis mark inside the symbol's box; a grid strapped to
-// the cathode is joined to the cathode's end inside the envelope, as valve
-// makers draw an internal strap.
+// left (g1's row, below it, is the only other left lead, and it is never
+// static) with a stub to a small chassis mark pointing up, clear of g1's
+// lead; a grid strapped to the cathode is joined to the cathode's end inside
+// the envelope, as valve makers draw an internal strap.
 func (v *valveRows) tiedGrid(s *Shape, y float64, t Tie) {
 	if t == TieCathode {
 		s.Prims = append(s.Prims, line(pt(1.2, y), pt(1.5, y), pt(1.5, v.ky), pt(1, v.ky)))
 		return
 	}
-	s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-2.6, y), pt(-2.6, y+0.3)))
+	s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-2.6, y), pt(-2.6, y-0.3)))
 	for i, w := range []float64{0.35, 0.22, 0.08} {
-		yy := y + 0.3 + 0.17*float64(i)
+		yy := y - 0.3 - 0.17*float64(i)
 		s.Prims = append(s.Prims, line(pt(-2.6-w, yy), pt(-2.6+w, yy)))
 	}
 }

@@ -41,7 +41,7 @@ func staticTies(orig, reduced *graph.Circuit) map[string]map[string]render.Tie {
 
 // presets lists, per reduced part, the trimmers merged into it (in circuit
 // order): each is an alignment point the repairer turns, so the merged
-// symbol keeps the preset mark and names them.
+// symbol keeps the preset mark (its alignment mark names the trimmer).
 func presets(orig *graph.Circuit, merged map[string]string) map[string][]string {
 	out := map[string][]string{}
 	for _, p := range orig.Parts {
