@@ -291,7 +291,7 @@ func TestStaticGridsKeepTheirLines(t *testing.T) {
 
 // A tap is drawn where it is along the turns (the netlist's tap fraction,
 // or the halves' inductances: L goes with turns squared, handbook formula
-// L ∝ N²), not mid-winding: an inductor's tap lead meets the coil at that
+// L ∝ N², docs/references.md §20), not mid-winding: an inductor's tap lead meets the coil at that
 // fraction of its turns; a transformer's tap pin stands near it.
 func TestTapAtItsPlace(t *testing.T) {
 	for _, tc := range []struct {
