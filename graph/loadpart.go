@@ -130,6 +130,9 @@ func (ld *loader) valveParams(path string, p *Part, m map[string]any) {
 			ld.errKey(path+"."+k, "%s applies to a valve diode (valve = \"diode\" or \"double-diode\"); a %s takes gm, ra, mu", k, p.Type)
 		}
 	}
+	if _, ok := m["gmo"]; ok && p.Type != "heptode" && p.Type != "octode" {
+		ld.errKey(path+".gmo", "gmo, the g1-to-g2 (oscillator anode) transconductance, applies to a pentagrid converter (heptode, octode), not a %s", p.Type)
+	}
 	screen := p.Type != "triode" && !diode
 	for _, k := range []string{"mu2", "share", "vknee"} {
 		if _, ok := m[k]; ok && !screen {
@@ -157,7 +160,7 @@ func (ld *loader) fetParams(path string, p *Part, m map[string]any) {
 
 func paramUnit(name string) value.Unit {
 	switch name {
-	case "gm":
+	case "gm", "gmo":
 		return value.Siemens
 	case "ra", "rd", "ro", "rpi", "rm", "rdc", "leak":
 		return value.Ohm

@@ -18,6 +18,7 @@ import (
 // with what each one is, for the message.
 var positiveParams = map[string]string{
 	"gm":   "the mutual conductance",
+	"gmo":  "the g1-to-g2 (oscillator anode) transconductance",
 	"mu":   "the amplification factor µ",
 	"ra":   "the anode resistance",
 	"beta": "the current gain β",

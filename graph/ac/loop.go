@@ -64,11 +64,21 @@ type Loop struct {
 }
 
 // loopSystem is a circuit assembled for one active part's return ratio:
-// the part's transconductance removed and driven as a source instead.
+// the part's transconductances removed and driven as sources instead.
 type loopSystem struct {
-	s          *system
-	gm         float64
-	a, b, c, d int // output, common (current returns), control, control reference
+	s    *system
+	srcs []loopSource
+	sign float64 // 1, or −1 for the loop seen the other way round
+	c, d int     // control, control reference
+}
+
+// loopSource is one controlled current of the part: gm·1 V from node a
+// through the source into node b. A valve with an oscillator anode (a
+// heptode's g2) has two, both ruled by the one control grid: the loop is
+// broken at that grid, so both are driven together.
+type loopSource struct {
+	gm   float64
+	a, b int
 }
 
 // newLoopSystem elaborates c and removes ref's controlled source.
@@ -97,7 +107,15 @@ func loopSystemOf(c *graph.Circuit, nl *netlist, ref string) (*loopSystem, error
 	}
 	src := nl.prims[idx]
 	cp := *nl
-	cp.prims = slices.Delete(slices.Clone(nl.prims), idx, idx+1)
+	var srcs []loopSource
+	cp.prims = nil
+	for _, p := range nl.prims {
+		if p.kind == primVCCS && p.ref == ref && p.c == src.c && p.d == src.d {
+			srcs = append(srcs, loopSource{gm: p.v, a: p.a, b: p.b})
+			continue
+		}
+		cp.prims = append(cp.prims, p)
+	}
 	m := indexModel(c, &cp)
 	held := otherInputs(c, &cp, -1)
 	isHeld := heldSet(len(cp.nodes), -1, held)
@@ -105,7 +123,11 @@ func loopSystemOf(c *graph.Circuit, nl *netlist, ref string) (*loopSystem, error
 		return nil, err
 	}
 	sub := &part{}
-	for _, n := range []int{src.a, src.b, src.c, src.d} {
+	reach := []int{src.c, src.d}
+	for _, q := range srcs {
+		reach = append(reach, q.a, q.b)
+	}
+	for _, n := range reach {
 		if n <= 0 || isHeld[n] || !m.used[n] {
 			continue
 		}
@@ -121,7 +143,7 @@ func loopSystemOf(c *graph.Circuit, nl *netlist, ref string) (*loopSystem, error
 		slices.Sort(sub.groups)
 	}
 	s := assemble(&cp, -1, isHeld, sub)
-	return &loopSystem{s: s, gm: src.v, a: src.a, b: src.b, c: src.c, d: src.d}, nil
+	return &loopSystem{s: s, srcs: srcs, sign: 1, c: src.c, d: src.d}, nil
 }
 
 // at returns L at complex frequency sc (rad/s): the controlling voltage the
@@ -134,12 +156,15 @@ func (ls *loopSystem) at(sc complex128) (complex128, error) {
 	for i := range s.b {
 		s.b[i] = 0
 	}
-	// The source carries gm·1 V out of node a, through itself, into node b.
-	if u := s.unk[ls.a]; u >= 0 {
-		s.b[u] -= complex(ls.gm, 0)
-	}
-	if u := s.unk[ls.b]; u >= 0 {
-		s.b[u] += complex(ls.gm, 0)
+	// Each source carries gm·1 V out of node a, through itself, into node b.
+	for _, q := range ls.srcs {
+		g := complex(ls.sign*q.gm, 0)
+		if u := s.unk[q.a]; u >= 0 {
+			s.b[u] -= g
+		}
+		if u := s.unk[q.b]; u >= 0 {
+			s.b[u] += g
+		}
 	}
 	if s.n > 0 {
 		s.f.solve(s.b, s.y)
@@ -240,7 +265,7 @@ func (l *Loops) Find(ref string, o LoopOptions) (Loop, error) {
 		return res, err
 	}
 	if o.Inverted {
-		ls.gm = -ls.gm // −L: its 0° is L's 180°
+		ls.sign = -ls.sign // −L: its 0° is L's 180°
 	}
 	prevF := grid[0]
 	prev, err := ls.atF(prevF)

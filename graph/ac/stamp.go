@@ -44,7 +44,7 @@ func (st *stamper) two(k primKind, p *graph.Part, sub, pa, pb string, v float64)
 }
 
 // vccs stamps gm·v(control, common) from out to common.
-func (st *stamper) vccs(p *graph.Part, out, common, control string, gm float64) {
+func (st *stamper) vccs(p *graph.Part, sub, out, common, control string, gm float64) {
 	a, k, g := st.node(p.NetOf(out)), st.node(p.NetOf(common)), st.node(p.NetOf(control))
 	if a < 0 || k < 0 || gm == 0 {
 		return
@@ -56,7 +56,7 @@ func (st *stamper) vccs(p *graph.Part, out, common, control string, gm float64) 
 	if a == k {
 		return
 	}
-	st.nl.prims = append(st.nl.prims, prim{kind: primVCCS, ref: p.Ref, sub: "gm", a: a, b: k, c: g, d: k, v: gm})
+	st.nl.prims = append(st.nl.prims, prim{kind: primVCCS, ref: p.Ref, sub: sub, a: a, b: k, c: g, d: k, v: gm})
 }
 
 func (st *stamper) fail(p *graph.Part, err error) { st.errs.Add(p.Pos, "%v", err) }
@@ -117,7 +117,13 @@ func (st *stamper) device(p *graph.Part) {
 				return
 			}
 			st.two(primR, p, "ra", "a", "k", s.ROut)
-			st.vccs(p, "a", "k", "g1", s.Gm)
+			st.vccs(p, "gm", "a", "k", "g1", s.Gm)
+			// A pentagrid converter's oscillator anode (g2) draws the
+			// inner triode's current, ruled by g1 as the anode's is:
+			// without it the oscillator loop through g2 is not there.
+			if s.GmOsc > 0 && p.NetOf("g2") != "" {
+				st.vccs(p, "gmo", "g2", "k", "g1", s.GmOsc)
+			}
 		}
 	case graph.BJT:
 		s, err := device.Of(p)
@@ -127,7 +133,7 @@ func (st *stamper) device(p *graph.Part) {
 		}
 		st.two(primR, p, "rpi", "b", "e", s.RPi)
 		st.two(primR, p, "ro", "c", "e", s.ROut)
-		st.vccs(p, "c", "e", "b", s.Gm)
+		st.vccs(p, "gm", "c", "e", "b", s.Gm)
 	case graph.FET:
 		s, err := device.Of(p)
 		if err != nil {
@@ -135,7 +141,7 @@ func (st *stamper) device(p *graph.Part) {
 			return
 		}
 		st.two(primR, p, "rd", "d", "s", s.ROut)
-		st.vccs(p, "d", "s", "g", s.Gm)
+		st.vccs(p, "gm", "d", "s", "g", s.Gm)
 	case graph.Diode:
 		st.diode(p, "", []string{"a"}, "k")
 	case graph.Crystal:

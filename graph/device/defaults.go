@@ -34,6 +34,7 @@ var Defaults = []Default{
 	{"tetrode, pentode", "ra", 1e6, "Ω", "typical RF/IF pentode, from memory"},
 	{"hexode, heptode, octode", "gm", 0.5e-3, "S", "typical frequency-changer conversion conductance, from memory"},
 	{"hexode, heptode, octode", "ra", 1e6, "Ω", "typical frequency changer, from memory"},
+	{"heptode, octode", "gmo", 3e-3, "S", "g1 to oscillator anode (g2) transconductance of a pentagrid converter's inner triode at its working bias, typical, from memory, rough"},
 	{"valve", "screen", 4, "", "a further grid drawing current looks like screen/gm: screen current about a quarter of the cathode current, from memory, rough"},
 	{"valve diode", "rd", 1e3, "Ω", "conducting signal diode, typical, from memory"},
 	{"bjt", "beta", 100, "", "typical small-signal transistor, from memory"},

@@ -13,12 +13,13 @@ type Param uint8
 
 // The parameters of Small.
 const (
-	Gm   Param = 1 << iota // transconductance
-	ROut                   // output resistance: ra, ro, rd
-	Mu                     // amplification factor gm·ROut
-	RPi                    // BJT input resistance
-	Beta                   // BJT current gain
-	Ic                     // BJT bias current
+	Gm    Param = 1 << iota // transconductance
+	ROut                    // output resistance: ra, ro, rd
+	Mu                      // amplification factor gm·ROut
+	RPi                     // BJT input resistance
+	Beta                    // BJT current gain
+	Ic                      // BJT bias current
+	GmOsc                   // a pentagrid converter's g1-to-g2 transconductance
 )
 
 // Small is the small-signal model of an amplifying part: a current
@@ -35,6 +36,10 @@ type Small struct {
 	RPi   float64 // Ω; +Inf for valves and FETs
 	Beta  float64 // BJT small-signal current gain β = gm·rπ; 0 for valves and FETs
 	Ic    float64 // BJT bias current, A; 0 for valves and FETs
+	// GmOsc is a pentagrid converter's (heptode, octode) transconductance
+	// from g1 to g2, the oscillator anode: the inner triode of cathode, g1
+	// and g2 that runs the oscillator. 0 for other parts.
+	GmOsc float64
 	// Assumed holds the parameters whose value came from a class default,
 	// directly or through a formula: a figure for a repairer may refuse to
 	// rest on them, the solver and the bypass judgement use them alike.
@@ -109,6 +114,11 @@ func valve(p *graph.Part) (Small, error) {
 		return s, fmt.Errorf("valve %s: gm %g and ra %g do not make a model", p.Ref, g, r)
 	}
 	s.Gm, s.ROut, s.Mu = g, r, g*r
+	if p.Type == "heptode" || p.Type == "octode" {
+		var assumed Param
+		s.GmOsc, assumed = paramOr(p, "gmo", "heptode, octode", GmOsc)
+		s.Assumed |= assumed
+	}
 	return s, nil
 }
 
@@ -189,6 +199,9 @@ func (s Small) GivenOnly() Small {
 	g := s
 	if !s.Given(Gm) {
 		g.Gm = 0
+	}
+	if !s.Given(GmOsc) {
+		g.GmOsc = 0
 	}
 	if !s.Given(ROut) {
 		g.ROut = math.Inf(1)

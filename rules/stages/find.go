@@ -100,7 +100,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		loopCircuit = reduced
 	}
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
-	byLoop, gone := loopStages(reduced, loops, acg, signal)
+	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
 	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
 	var power []*found
 	var errPow error

@@ -65,12 +65,16 @@ func gangSettings(c *graph.Circuit) []float64 {
 // loopOf solves part ref's loop at every gang setting of the circuit of
 // lp (one ac.Loops serves every device of a circuit, elaborating it once
 // per setting).
-func loopOf(lp *ac.Loops, ref string) (Loop, error) {
+func loopOf(lp *ac.Loops, ref string) (Loop, error) { return loopTurned(lp, ref, false) }
+
+// loopTurned is loopOf, or with inverted the loop with the feedback's sign
+// turned over: what a winding with its ends swapped would give.
+func loopTurned(lp *ac.Loops, ref string, inverted bool) (Loop, error) {
 	c := lp.Circuit()
 	l := Loop{Device: ref}
 	best, bestAt := math.Inf(-1), -1
 	for _, g := range gangSettings(c) {
-		r, err := lp.Find(ref, ac.LoopOptions{Options: ac.Options{VarFrac: g, VarSet: true}})
+		r, err := lp.Find(ref, ac.LoopOptions{Options: ac.Options{VarFrac: g, VarSet: true}, Inverted: inverted})
 		if err != nil {
 			return l, err
 		}

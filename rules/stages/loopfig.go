@@ -94,7 +94,8 @@ func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage, tank *Stage) {
 	}
 	st.Figures.Put(osc)
 	st.Figures.Put(figure.Figure{Name: "if", Label: "IF", Unit: figure.Hertz, Value: fif, Origin: figure.FromNetlist("[freqs] if")})
-	if ft, ok := ifStage.Figures.Get("f"); ok {
+	// ifStage nil: the mixer's own pattern named its IF transformer (ift_f).
+	if ft, ok := ifTuning(ifStage); ok {
 		ft.Name, ft.Label = "ift_f", "IF transformer f"
 		if ft.Check != nil {
 			ck := *ft.Check
@@ -126,4 +127,20 @@ func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage, tank *Stage) {
 		sig = withCheck(sig, ck, "it follows the oscillator's own difference from its tank's formula")
 	}
 	st.Figures.Put(sig)
+	// The image is the signal plus twice the IF: the oscillator plus the IF.
+	img := figure.Figure{Name: "image_f", Label: "image f", Unit: figure.Hertz, Origin: figure.BySolver("loop gain, 0° of loop phase, plus the IF", osc.Origin.At)}
+	if osc.Range != nil {
+		img.Range = &value.Range{Min: lo + fif, Max: hi + fif}
+	} else {
+		img.Value = lo + fif
+	}
+	st.Figures.Put(img)
+}
+
+// ifTuning is the tuning of an IF stage, if there is one.
+func ifTuning(ifStage *Stage) (figure.Figure, bool) {
+	if ifStage == nil {
+		return figure.Figure{}, false
+	}
+	return ifStage.Figures.Get("f")
 }

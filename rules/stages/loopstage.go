@@ -32,11 +32,17 @@ const (
 // A coupling-group stage on the loop (a padder or a link capacitor that
 // the coupling patterns took for a coupling capacitor) is absorbed: it is
 // returned in gone, and its parts belong to the oscillator.
-func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*found) (out []*found, gone map[*found]bool) {
+func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*found, orig *world) (out []*found, gone map[*found]bool) {
 	lc := lp.Circuit()
 	claimed, named := claims(tops)
 	gone = map[*found]bool{}
+	w := newWorld(c, false, acg)
+	w.orig = orig
 	for _, p := range c.Parts {
+		if f := claimed[p.Ref]; f != nil && injectedMixer(f.Topology) {
+			selfOscillating(w, lp, acg, p, f, claimed, gone)
+			continue
+		}
 		if !p.IsActive() || named[p.Ref] || claimed[p.Ref] != nil && hasLoop(claimed[p.Ref].Stage, p.Ref) {
 			continue
 		}
@@ -45,7 +51,7 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 			continue // no loop to speak of: the stage it is in says the rest
 		}
 		_, _, _, mMax, ok := l.Range()
-		if !ok || mMax < 0 {
+		if !ok || mMax < 0 && (claimed[p.Ref] != nil || !drawnConverter(w, lc, p, l, tops)) {
 			continue
 		}
 		if f, in := claimed[p.Ref]; in {
@@ -54,7 +60,7 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 			slices.Sort(f.Flags)
 			continue
 		}
-		f := loopStage(c, lc, acg, p, l, tops, claimed, gone)
+		f := loopStage(w, lc, acg, p, l, tops, claimed, gone)
 		for _, r := range f.Parts {
 			f.set[r] = true
 			claimed[r] = f
@@ -91,7 +97,8 @@ func claims(tops []*found) (claimed map[string]*found, named map[string]bool) {
 // loopStage builds the stage of device p's unnamed oscillator: its parts,
 // the transformer its feedback goes through, a mixer's title and figures
 // when its output is tuned to the IF, the tank stage as a sub-stage.
-func loopStage(c, lc *graph.Circuit, acg map[string]bool, p *graph.Part, l Loop, tops []*found, claimed map[string]*found, gone map[*found]bool) *found {
+func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, l Loop, tops []*found, claimed map[string]*found, gone map[*found]bool) *found {
+	c := w.c
 	through := feedbackThrough(lc, p.Ref, l)
 	parts := loopParts(c, acg, p, through, claimed, gone)
 	word := through
@@ -111,10 +118,16 @@ func loopStage(c, lc *graph.Circuit, acg map[string]bool, p *graph.Part, l Loop,
 		st.Parts = slices.Compact(slices.Sorted(slices.Values(append(st.Parts, t.Parts...))))
 		tank = t.Stage
 	}
-	if ifStage := ifOutput(c, p, tops); ifStage != nil {
+	if ifStage := ifOutput(w, p, tops); ifStage != nil {
 		st.Topology, st.group = loopMixerTopology, "mixer"
-		st.Title = expandTitle("Self-oscillating mixer, oscillator feedback through "+word+" ({family})", st.Family)
-		mixerFigures(c, st, l, ifStage, tank)
+		st.Title = mixerTitle(w, p, through, st.Family)
+		if _, _, _, mMax, _ := l.Range(); mMax >= 0 {
+			mixerFigures(c, st, l, ifStage.Stage, tank) // a loop that runs: where it runs
+		} else if ft, ok := ifStage.Figures.Get("f"); ok {
+			ft.Name, ft.Label, ft.Check, ft.Why = "ift_f", "IF transformer f", nil, ""
+			st.Figures.Put(ft)
+		}
+		loopTracking(w, st, through, c.Freqs["if"])
 	}
 	st.Flags = loopFlags(lc, st, l)
 	slices.Sort(st.Flags)
@@ -134,19 +147,28 @@ const loopHops = 2
 // input, an amplifier in the loop (a Wien bridge's second valve) is a stage
 // of its own.
 func loopParts(c *graph.Circuit, acg map[string]bool, dev *graph.Part, through string, claimed map[string]*found, gone map[*found]bool) []string {
+	return loopPartsFrom(c, acg, dev, through, claimed, gone, func(graph.Pin) bool { return true })
+}
+
+// loopPartsFrom is loopParts gathering from the device's pins from says:
+// a mixer's signal grid leads to the aerial circuit, not the oscillator.
+func loopPartsFrom(c *graph.Circuit, acg map[string]bool, dev *graph.Part, through string, claimed map[string]*found, gone map[*found]bool, from func(graph.Pin) bool) []string {
 	ground := func(net string) bool { return acg[net] || c.RoleOf(net).IsACGround() }
 	nets := map[string]bool{}
 	in := map[string]bool{dev.Ref: true}
 	addNets := func(q *graph.Part) {
 		for _, pin := range q.Pins {
-			if !ground(pin.Net) {
+			if !ground(pin.Net) && (q != dev || from(pin)) {
 				nets[pin.Net] = true
 			}
 		}
 	}
 	addNets(dev)
-	if t := c.Part(through); t != nil && claimed[through] == nil {
-		in[through] = true
+	// The feedback transformer's nets lead to the tank's padder and
+	// gang section, also when its tuned winding is a tank stage of its
+	// own (which the oscillator then holds as its sub-stage).
+	if t := c.Part(through); t != nil && (claimed[through] == nil || claimed[through].group == "tuned") {
+		in[through] = claimed[through] == nil
 		addNets(t)
 	}
 	takeable := func(q *graph.Part) bool {
@@ -205,8 +227,19 @@ func deviceFamily(p *graph.Part) string {
 
 // feedbackThrough names the transformer that carries a loop: the one whose
 // coupling, set to zero in a copy of the circuit, leaves the loop short of
-// 0 dB at every setting. "" when no single transformer does.
-func feedbackThrough(lc *graph.Circuit, ref string, l Loop) string {
+// 0 dB at every setting; for a loop short of 0 dB already, the one without
+// whose coupling it loses its 0° crossing or 20 dB of its best gain.
+// "" when no single transformer does.
+func feedbackThrough(lc *graph.Circuit, ref string, l Loop) string { return carrier(lc, ref, l, false) }
+
+// carrier is feedbackThrough for the loop as solved, or for the loop
+// turned over (loopTurned) when inverted.
+func carrier(lc *graph.Circuit, ref string, l Loop, inverted bool) string {
+	_, _, _, best, _ := l.Range()
+	below := 0.0
+	if best < 0 {
+		below = best + loopDrawnDB
+	}
 	for _, q := range lc.Parts {
 		if len(q.Coupling) == 0 {
 			continue
@@ -215,11 +248,11 @@ func feedbackThrough(lc *graph.Circuit, ref string, l Loop) string {
 		for i := range cp.Part(q.Ref).Coupling {
 			cp.Part(q.Ref).Coupling[i].K = 0
 		}
-		cut, err := loopOf(ac.NewLoops(cp), ref)
+		cut, err := loopTurned(ac.NewLoops(cp), ref, inverted)
 		if err != nil {
 			continue
 		}
-		if _, _, _, m, ok := cut.Range(); !ok || m < 0 {
+		if _, _, _, m, ok := cut.Range(); !ok || m < below {
 			return q.Ref
 		}
 	}
@@ -231,14 +264,18 @@ func feedbackThrough(lc *graph.Circuit, ref string, l Loop) string {
 // (common practice).
 const ifFreqTol = 0.1
 
-// ifOutput finds the tuned stage on a device's output net that is tuned to
-// the declared IF: the IF transformer of a self-oscillating mixer.
-func ifOutput(c *graph.Circuit, dev *graph.Part, tops []*found) *Stage {
-	fif := c.Freqs["if"]
-	out := dev.NetOf(dev.PinWithRole(graph.RoleOutput))
-	if fif <= 0 || out == "" {
+// ifOutput finds the tuned stage on a device's output circuit that is
+// tuned to the declared IF: the IF transformer of a self-oscillating
+// mixer, on the output net or beyond a winding in series with it (a
+// reaction winding between the collector and the IF can).
+func ifOutput(w *world, dev *graph.Part, tops []*found) *found {
+	fif := w.c.Freqs["if"]
+	di, ok := w.index[dev]
+	out := w.pinNet(di, dev.PinWithRole(graph.RoleOutput))
+	if fif <= 0 || !ok || out <= groundNet {
 		return nil
 	}
+	reached := seriesNets(w, di, out)
 	for _, f := range tops {
 		if f.group != "tuned" {
 			continue
@@ -248,10 +285,38 @@ func ifOutput(c *graph.Circuit, dev *graph.Part, tops []*found) *Stage {
 			continue
 		}
 		for _, ref := range f.Parts {
-			if q := c.Part(ref); q != nil && touches(q, map[string]bool{out: true}) {
-				return f.Stage
+			if q := w.c.Part(ref); q != nil && touches(q, reached) {
+				return f
 			}
 		}
 	}
 	return nil
+}
+
+// seriesNets are the nets reached from net start through at most
+// windingReach windings or capacitors of parts other than the device,
+// never through AC ground: the output circuit of a device as the signal
+// current runs through it.
+func seriesNets(w *world, dev, start int) map[string]bool {
+	out := map[string]bool{w.names[start]: true}
+	frontier, seen := []int{start}, map[int]bool{start: true}
+	for hop := 0; hop < windingReach && len(frontier) > 0; hop++ {
+		var next []int
+		for _, n := range frontier {
+			for _, ci := range w.conns[n] {
+				if ci == dev {
+					continue
+				}
+				for _, m := range passOn(w, ci, n) {
+					if !seen[m] && m != groundNet {
+						seen[m] = true
+						out[w.names[m]] = true
+						next = append(next, m)
+					}
+				}
+			}
+		}
+		frontier = next
+	}
+	return out
 }
