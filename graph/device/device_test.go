@@ -47,8 +47,8 @@ func TestOf(t *testing.T) {
 			"triode defaults gm 2 mA/V, ra 20 kΩ (from memory)"},
 		{"pentode ra only", part(graph.Valve, "pentode", map[string]float64{"ra": 500e3}), 2e-3, 500e3, 1000, math.Inf(1), Gm | Mu,
 			"pentode default gm 2 mA/V"},
-		{"heptode mu only", part(graph.Valve, "heptode", map[string]float64{"mu": 100}), 100 / 1e6, 1e6, 100, math.Inf(1), Gm | ROut,
-			"multigrid default ra 1 MΩ, gm = µ/ra"},
+		{"heptode mu only", part(graph.Valve, "heptode", map[string]float64{"mu": 100}), 100 / 1e6, 1e6, 100, math.Inf(1), Gm | ROut | GmOsc,
+			"multigrid default ra 1 MΩ, gm = µ/ra; g1-to-g2 gmo its default"},
 		{"bjt beta and ic", part(graph.BJT, "npn", map[string]float64{"beta": 100, "ic": 1e-3}), 38.6817e-3, 100e3, 38.6817e-3 * 100e3, 2585.20, ROut | Mu,
 			"docs/references.md §5: gm = Ic/VT 38.6817 mS, rπ = β/gm 2585.20 Ω; ro = VA/Ic with the default VA 100 V"},
 		{"bjt nothing", part(graph.BJT, "pnp", nil), 38.6817e-3, 100e3, 38.6817e-3 * 100e3, 2585.20, Beta | Ic | Gm | ROut | Mu | RPi,
@@ -223,5 +223,33 @@ func TestDefaultsDocumented(t *testing.T) {
 		if _, err := Of(p); err != nil && ValveClass(typ) != "" {
 			t.Errorf("%s: %v", typ, err)
 		}
+	}
+}
+
+// A pentagrid converter's g1-to-g2 transconductance: its own gmo when
+// given, else the class default (3 mA/V, from memory, rough; flagged
+// assumed); other valves have none.
+func TestOscillatorAnodeTransconductance(t *testing.T) {
+	cases := []struct {
+		name    string
+		p       *graph.Part
+		want    float64
+		assumed bool
+	}{
+		{"heptode given", part(graph.Valve, "heptode", map[string]float64{"gm": 0.45e-3, "gmo": 2e-3}), 2e-3, false},
+		{"octode default", part(graph.Valve, "octode", map[string]float64{"gm": 0.45e-3}), 3e-3, true},
+		{"hexode none", part(graph.Valve, "hexode", map[string]float64{"gm": 0.45e-3}), 0, false},
+		{"pentode none", part(graph.Valve, "pentode", nil), 0, false},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			s, err := Of(tc.p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if s.GmOsc != tc.want || s.Given(GmOsc) == tc.assumed {
+				t.Errorf("gmo %g (assumed %v), want %g (assumed %v)", s.GmOsc, !s.Given(GmOsc), tc.want, tc.assumed)
+			}
+		})
 	}
 }

@@ -232,6 +232,7 @@ var formulaOnly = map[[2]string]string{
 	// feedback goes through, and a padded tank no pattern names has none.
 	{"self-oscillating-mixer-loop", "osc_f"}: "the loop's solver figure: its check needs a stage that names the tank (known gap for a padded tank)",
 	{"self-oscillating-mixer-loop", "sig_f"}: "oscillator − IF from the loop: its check needs a stage that names the tank (known gap for a padded tank)",
+	{"self-oscillating-mixer-loop", "image_f"}: "oscillator + IF from the loop: its check needs a stage that names the tank (known gap for a padded tank)",
 }
 
 // Every figure of the kinds the solver gives, on every example and

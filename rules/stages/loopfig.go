@@ -134,6 +134,15 @@ func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage, tank *Stage) {
 	} else {
 		img.Value = lo + fif
 	}
+	if oscCheck != nil {
+		ck := figure.Figure{Unit: figure.Hertz, Origin: figure.ByFormula("fimage = fosc + IF")}
+		if r := oscCheck.Range; r != nil {
+			ck.Range = &value.Range{Min: r.Min + fif, Max: r.Max + fif}
+		} else {
+			ck.Value = oscCheck.Value + fif
+		}
+		img = withCheck(img, ck, "it follows the oscillator's own difference from its tank's formula")
+	}
 	st.Figures.Put(img)
 }
 
