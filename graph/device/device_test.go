@@ -239,6 +239,11 @@ func TestOscillatorAnodeTransconductance(t *testing.T) {
 		{"heptode given", part(graph.Valve, "heptode", map[string]float64{"gm": 0.45e-3, "gmo": 2e-3}), 2e-3, false},
 		{"octode default", part(graph.Valve, "octode", map[string]float64{"gm": 0.45e-3}), 3e-3, true},
 		{"hexode none", part(graph.Valve, "hexode", map[string]float64{"gm": 0.45e-3}), 0, false},
+		{"triode-heptode's heptode section none", func() *graph.Part {
+			p := part(graph.Valve, "heptode", map[string]float64{"gm": 0.45e-3})
+			p.Envelope = "V1"
+			return p
+		}(), 0, false},
 		{"pentode none", part(graph.Valve, "pentode", nil), 0, false},
 	}
 	for _, tc := range cases {

@@ -38,7 +38,9 @@ type Small struct {
 	Ic    float64 // BJT bias current, A; 0 for valves and FETs
 	// GmOsc is a pentagrid converter's (heptode, octode) transconductance
 	// from g1 to g2, the oscillator anode: the inner triode of cathode, g1
-	// and g2 that runs the oscillator. 0 for other parts.
+	// and g2 that runs the oscillator. 0 for other parts, and for a section
+	// of a multi-section envelope (a triode-heptode's oscillator is its
+	// triode).
 	GmOsc float64
 	// Assumed holds the parameters whose value came from a class default,
 	// directly or through a formula: a figure for a repairer may refuse to
@@ -114,7 +116,9 @@ func valve(p *graph.Part) (Small, error) {
 		return s, fmt.Errorf("valve %s: gm %g and ra %g do not make a model", p.Ref, g, r)
 	}
 	s.Gm, s.ROut, s.Mu = g, r, g*r
-	if p.Type == "heptode" || p.Type == "octode" {
+	// A heptode section sharing its envelope with a triode (a
+	// triode-heptode) has its oscillator in the triode: its g2 is a screen.
+	if (p.Type == "heptode" || p.Type == "octode") && p.Envelope == "" {
 		var assumed Param
 		s.GmOsc, assumed = paramOr(p, "gmo", "heptode, octode", GmOsc)
 		s.Assumed |= assumed
