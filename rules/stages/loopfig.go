@@ -93,7 +93,7 @@ func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage, tank *Stage) {
 		}
 	}
 	st.Figures.Put(osc)
-	st.Figures.Put(figure.Figure{Name: "if", Label: "IF", Unit: figure.Hertz, Value: fif, Origin: figure.FromNetlist("[freqs] if")})
+	st.Figures.Put(ifFigure(fif))
 	// ifStage nil: the mixer's own pattern named its IF transformer (ift_f).
 	if ft, ok := ifTuning(ifStage); ok {
 		ft.Name, ft.Label = "ift_f", "IF transformer f"
@@ -152,4 +152,11 @@ func ifTuning(ifStage *Stage) (figure.Figure, bool) {
 		return figure.Figure{}, false
 	}
 	return ifStage.Figures.Get("f")
+}
+
+// ifFigure is the declared IF as a mixer's figure: a loop-found mixer
+// carries it whether its loop runs or not, so the alignment finds the
+// mixer and its tracking.
+func ifFigure(fif float64) figure.Figure {
+	return figure.Figure{Name: "if", Label: "IF", Unit: figure.Hertz, Value: fif, Origin: figure.FromNetlist("[freqs] if")}
 }

@@ -323,6 +323,8 @@ func selfOscillating(w *world, lp *ac.Loops, acg map[string]bool, p *graph.Part,
 	slices.Sort(st.Parts)
 	if _, _, _, best, ok := l.Range(); ok && best >= 0 {
 		mixerFigures(w.c, st, l, nil, nil) // a loop that runs: where it runs
+	} else if fif := w.c.Freqs["if"]; fif > 0 {
+		st.Figures.Put(ifFigure(fif))
 	}
 	loopTracking(w, st, through, w.c.Freqs["if"])
 	st.Flags = append(st.Flags, loopFlags(lc, st, l)...)

@@ -123,9 +123,12 @@ func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, 
 		st.Title = mixerTitle(w, p, through, st.Family)
 		if _, _, _, mMax, _ := l.Range(); mMax >= 0 {
 			mixerFigures(c, st, l, ifStage.Stage, tank) // a loop that runs: where it runs
-		} else if ft, ok := ifStage.Figures.Get("f"); ok {
-			ft.Name, ft.Label, ft.Check, ft.Why = "ift_f", "IF transformer f", nil, ""
-			st.Figures.Put(ft)
+		} else {
+			if ft, ok := ifStage.Figures.Get("f"); ok {
+				ft.Name, ft.Label, ft.Check, ft.Why = "ift_f", "IF transformer f", nil, ""
+				st.Figures.Put(ft)
+			}
+			st.Figures.Put(ifFigure(c.Freqs["if"]))
 		}
 		loopTracking(w, st, through, c.Freqs["if"])
 	}

@@ -369,11 +369,15 @@ func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *tankModel {
 			continue
 		}
 		a, b := w.pins[ci][0], w.pins[ci][1]
-		across := func(n1, n2 int) bool { return n1 == a && n2 == b || n1 == b && n2 == a }
+		cold := coldEnds(w, p.Value.Max)
+		across := func(n1, n2 int) bool {
+			n1, n2 = cold(n1), cold(n2)
+			return n1 == a && n2 == b || n1 == b && n2 == a
+		}
 		t := &tankModel{w: w, a: a, b: b}
 		for cj, q := range w.parts {
 			switch {
-			case q.Kind == graph.Capacitor && len(q.Pins) == 2 && across(w.pins[cj][0], w.pins[cj][1]):
+			case q.Kind == graph.Capacitor && len(q.Pins) == 2 && (w.pins[cj][0] == a && w.pins[cj][1] == b || w.pins[cj][0] == b && w.pins[cj][1] == a):
 				t.caps = append(t.caps, q)
 			case q.Kind == graph.Inductor && t.l == 0 && across(w.pinNet(cj, "1"), w.pinNet(cj, "2")):
 				t.l = q.Inductance()
@@ -391,6 +395,34 @@ func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *tankModel {
 		}
 	}
 	return nil
+}
+
+// coldBypass is how many times a tank's largest tuning capacitance a
+// capacitor from a coil's cold end to ground must be for that end to count
+// as grounded for the tank: 100 times keeps its reactance under 1 % of the
+// tuning capacitor's at every frequency (an aerial coil returned to the
+// AGC line, decoupled there; judgement, in the spirit of the reduction's
+// bypass rule).
+const coldBypass = 100
+
+// coldEnds maps a net bypassed to ground by a capacitor of coldBypass times
+// cmax or more to the ground, any other net to itself.
+func coldEnds(w *world, cmax float64) func(int) int {
+	return func(n int) int {
+		if n <= groundNet || n >= len(w.conns) {
+			return n
+		}
+		for _, ci := range w.conns[n] {
+			q := w.parts[ci]
+			if q.Kind != graph.Capacitor || len(w.pins[ci]) != 2 || q.Value.Min < coldBypass*cmax {
+				continue
+			}
+			if w.pins[ci][0] == groundNet || w.pins[ci][1] == groundNet {
+				return groundNet
+			}
+		}
+		return n
+	}
 }
 
 // hotEnd is the circuit net of a winding's end off AC ground (its first
