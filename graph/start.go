@@ -109,26 +109,51 @@ func tankParts(c *Circuit, net string) (coil, capacitor bool) {
 // (a coupling capacitor to a port, a tuned circuit), or net itself. A walk
 // that orders stages starts there, so the parts feeding the first device
 // come before it and a coupling capacitor's driven side is the far one.
+// The walk stops at a net that holds an active part's output or common
+// electrode (an anode, a collector, an emitter): whatever lies beyond a
+// device's output is what it drives, not where its signal comes from, so a
+// feedback network from its own emitter or collector (a Colpitts divider, a
+// phase-shift ladder) or a buffer beyond it never becomes the start.
 func UpstreamOf(c *Circuit, net string) string {
-	if far := farthest(c, net, func(p *Part, _ string) bool { return !p.IsActive() }); far != "" {
+	if far := farthestStopping(c, net, func(p *Part, _ string) bool { return !p.IsActive() }, drivenNets(c)); far != "" {
 		return far
 	}
 	return net
 }
 
+// drivenNets are the nets on some active part's terminals other than its
+// control: where a device puts its signal out.
+func drivenNets(c *Circuit) map[string]bool {
+	out := map[string]bool{}
+	for _, p := range c.Parts {
+		if !p.IsActive() {
+			continue
+		}
+		for _, pin := range p.Pins {
+			switch RoleOfPin(p.Kind, pin.Name) {
+			case RoleOutput, RoleCommon:
+				out[pin.Net] = true
+			}
+		}
+	}
+	return out
+}
+
 // FarthestNet is the signal net the walk from net reaches last, never
 // crossing an AC-ground net: where a chain with no declared output ends.
 // Ties go to the smaller name; "" when nothing is reached.
-func FarthestNet(c *Circuit, net string) string { return farthest(c, net, nil) }
+func FarthestNet(c *Circuit, net string) string { return farthestStopping(c, net, nil, nil) }
 
-func farthest(c *Circuit, net string, enter func(*Part, string) bool) string {
+// farthestStopping is the net the walk from net reaches last, entering
+// only parts enter allows and never reaching a net in stop (nor AC ground).
+func farthestStopping(c *Circuit, net string, enter func(*Part, string) bool, stop map[string]bool) string {
 	w := NewWalk(c.View())
 	w.Enter = enter
-	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }
+	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() && !stop[n] }
 	w.FromNets([]string{net}, 0)
 	var nets []string
 	for _, n := range c.Nets {
-		if _, ok := w.NetDist(n.Name); ok && n.Name != net && !n.Role.IsACGround() {
+		if _, ok := w.NetDist(n.Name); ok && n.Name != net && !n.Role.IsACGround() && !stop[n.Name] {
 			nets = append(nets, n.Name)
 		}
 	}

@@ -42,6 +42,21 @@ L1 = { l = "4u7", tap = 0.25, pins = ["gnd", "k1", "tank"] }
 C1 = { c = "150p", pins = ["tank", "gnd"] }
 C4 = { c = "100p", pins = ["tank", "g1"] }
 R2 = { r = "47k", pins = ["g1", "gnd"] }`, "g1", "V2", "oscillator", "g2"}, // upstream through passives reaches the buffer: an oscillator's walk starts at its own control
+		// The review Colpitts (review 11): the tank reaches the base through
+		// a DC block, the feedback divider runs from the base to the emitter,
+		// and a buffer hangs on the emitter. Upstream of the base is the
+		// tank, never the buffer's base beyond the oscillator's own emitter.
+		{"feedback from its own emitter to a buffer", `
+L1 = { l = "4u7", pins = ["tank", "gnd"] }
+C1 = { c = "50p", pins = ["tank", "gnd"] }
+C2 = { c = "1n", pins = ["tank", "b1"] }
+C3 = { c = "220p", pins = ["b1", "e1"] }
+R3 = { r = "2k2", pins = ["e1", "gnd"] }
+Q1 = { bjt = "npn", pins = { b = "b1", c = "ht", e = "e1" } }
+C6 = { c = "22p", pins = ["e1", "b2"] }
+R5 = { r = "100k", pins = ["b2", "gnd"] }
+Q2 = { bjt = "npn", pins = { b = "b2", c = "ht", e = "e2" } }
+R7 = { r = "1k", pins = ["e2", "gnd"] }`, "b1", "Q1", "first active part", "tank"},
 		{"no active part", `
 R1 = { r = "1k", pins = ["a", "gnd"] }`, "", "", "", ""},
 	}
