@@ -142,11 +142,52 @@ func loopFlags(c *graph.Circuit, st *Stage, l Loop) []string {
 			out = append(out, fmt.Sprintf("will not start: no 0° loop phase%s (%s)", dialPlace(s.Gang, n), l.Device))
 		}
 	}
-	if tau := biasTau(c, l.Device); mMax >= squeggMarginDB && l.GrowthPerS > 0 && tau*l.GrowthPerS > squeggTau {
-		out = append(out, fmt.Sprintf("large margin (%+.1f dB) with a long grid time constant (%s, %.0f× the build-up time): may squegg", mMax, secText(tau), tau*l.GrowthPerS))
+	if s := squeggFlag(c, l); s != "" {
+		out = append(out, s)
 	}
 	out = append(out, pullFlags(st, l)...)
 	return out
+}
+
+// squeggFlag is the squegging risk of an oscillator's loop, "" when there
+// is none: a large margin while the grid (base) bias network's time
+// constant is long against the build-up time (squeggMarginDB, squeggTau).
+// Every oscillator gets it, named by a pattern or found by its loop only.
+func squeggFlag(c *graph.Circuit, l Loop) string {
+	_, _, _, mMax, ok := l.Range()
+	tau := biasTau(c, l.Device)
+	if !ok || mMax < squeggMarginDB || l.GrowthPerS <= 0 || tau*l.GrowthPerS <= squeggTau {
+		return ""
+	}
+	return fmt.Sprintf("large margin (%+.1f dB) with a long %s time constant (%s, %.0f× the build-up time): may squegg",
+		mMax, biasWord(c, l.Device), secText(tau), tau*l.GrowthPerS)
+}
+
+// biasWord names a device's control electrode for the squegging flag.
+func biasWord(c *graph.Circuit, ref string) string {
+	if p := c.Part(ref); p != nil {
+		switch p.Kind {
+		case graph.BJT:
+			return "base"
+		case graph.FET:
+			return "gate"
+		}
+	}
+	return "grid"
+}
+
+// gmMargin says what a loop margin is: the return ratio of the device's
+// controlled source, so the factor its gm could fall by before the loop
+// stops (or must rise by to start). It is not the voltage gain a loop
+// broken at the grid or base would read, which the loading of the break
+// changes (common practice: the return ratio is the loop gain of the
+// dependent source, a handbook definition).
+func gmMargin(ref string, db float64) string {
+	x := math.Pow(10, math.Abs(db)/20)
+	if db >= 0 {
+		return fmt.Sprintf("%s's gm could fall %.1f dB (%.3g×) before it stops", ref, db, x)
+	}
+	return fmt.Sprintf("%s's gm would have to rise %.1f dB (%.3g×) to start", ref, -db, x)
 }
 
 // pullFlags compares the loop's frequency at the ends of the dial with the
@@ -268,9 +309,9 @@ func LoopLine(l Loop) string {
 		fmt.Fprintf(&b, "%s–%s", hzText(fMin), hzText(fMax))
 	}
 	if mMax-mMin < 0.05 {
-		fmt.Fprintf(&b, ", margin %+.1f dB", mMin)
+		fmt.Fprintf(&b, ", gm margin %+.1f dB", mMin)
 	} else {
-		fmt.Fprintf(&b, ", margin %+.1f to %+.1f dB", mMin, mMax)
+		fmt.Fprintf(&b, ", gm margin %+.1f to %+.1f dB", mMin, mMax)
 	}
 	if len(l.Settings) > 1 {
 		b.WriteString(" across the dial; by gang travel")

@@ -51,12 +51,16 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 			continue // no loop to speak of: the stage it is in says the rest
 		}
 		_, _, _, mMax, ok := l.Range()
-		if !ok || mMax < 0 && (claimed[p.Ref] != nil || !drawnConverter(w, lc, p, l, tops)) {
+		if !ok || mMax < loopReachDB && (claimed[p.Ref] != nil || !drawnConverter(w, lc, p, l, tops)) {
 			continue
 		}
 		if f, in := claimed[p.Ref]; in {
-			f.Loop = append(f.Loop, l)
-			f.Flags = append(f.Flags, fmt.Sprintf("%s oscillates: loop gain %+.1f dB with 0° loop phase: an amplifier that oscillates, or an oscillator no pattern names", p.Ref, mMax))
+			f.Flags = append(f.Flags, claimedLoopFlags(lc, l)...)
+			if mMax >= 0 {
+				// Below 0 dB it is not an oscillator: the stage keeps its
+				// own name and the alignment its signal path.
+				f.Loop = append(f.Loop, l)
+			}
 			slices.Sort(f.Flags)
 			continue
 		}
@@ -68,6 +72,38 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 		out = append(out, f)
 	}
 	return out, gone
+}
+
+// loopReachDB is how far below 0 dB a loop that reaches 0° of loop phase
+// is still reported: −10 dB, a gm about three times short. That is within
+// what a repairer meets on the bench (a transistor's hFE and a valve's
+// emission spread by 2–3× between samples and with age, a resistor or a
+// capacitor a tolerance band off), so such a loop is an oscillator that
+// fails to start or an amplifier that a new device may set off (common
+// practice, no source); lower than that the loop is only the stray
+// feedback every amplifier has.
+const loopReachDB = -10.0
+
+// claimedLoopFlags are the sentences for the loop of a device that a stage
+// other than an oscillator holds: it oscillates, or its loop falls just
+// short (found by the loop, named by no pattern), with the squegging risk
+// any oscillator found by its loop carries.
+func claimedLoopFlags(lc *graph.Circuit, l Loop) []string {
+	fMin, fMax, _, mMax, _ := l.Range()
+	at := hzText(fMin)
+	if fMax/fMin-1 > 1e-4 {
+		at = hzText(fMin) + "–" + hzText(fMax)
+	}
+	if mMax < 0 {
+		return []string{fmt.Sprintf("%s: loop phase 0° at %s, loop gain %+.1f dB at best (%s): will not start as drawn; a frequency-selective feedback loop short of starting, or an oscillator no pattern names",
+			l.Device, at, mMax, gmMargin(l.Device, mMax))}
+	}
+	out := []string{fmt.Sprintf("%s oscillates: loop phase 0° at %s, loop gain %+.1f dB (%s): an amplifier that oscillates, or an oscillator no pattern names",
+		l.Device, at, mMax, gmMargin(l.Device, mMax))}
+	if s := squeggFlag(lc, l); s != "" {
+		out = append(out, s)
+	}
+	return out
 }
 
 // claims maps each part to the stage (or sub-stage) that first holds it,

@@ -1,0 +1,90 @@
+package stages
+
+import (
+	"math"
+	"slices"
+	"strings"
+	"testing"
+)
+
+// The blind review of oscillator recognition (review 11): its circuits are
+// testdata/good/review-osc-*.toml, its ngspice decks beside them in
+// testdata/good/review-osc/.
+
+// A coupling capacitor's corner is against the resistance of the side it
+// feeds even when no input is declared and the signal starts at an
+// oscillator: the walk that orders the circuit does not run backwards
+// through the oscillator's own emitter or collector. C6 feeds buffer Q2's
+// base bias, R5 ∥ R6 = 100k ∥ 100k = 50 kΩ; C4 feeds R5 47 kΩ, fc =
+// 1/(2π·47k·1µ) = 3.386 Hz (handbook formula fc = 1/(2πRC),
+// docs/references.md §4).
+func TestReviewOscCouplingReadsLoadSide(t *testing.T) {
+	for _, tc := range []struct {
+		file, cap string
+		rIn, fc   float64 // fc 0: not checked
+	}{
+		{"review-osc-c1-vfo.toml", "C6", 50e3, 0},
+		{"review-osc-c3-phaseshift.toml", "C4", 47e3, 3.386},
+	} {
+		t.Run(tc.file, func(t *testing.T) {
+			_, st := reduceGood(t, tc.file)
+			s := stageWith(st, tc.cap)
+			if s == nil {
+				t.Fatalf("no stage holds %s: %s", tc.cap, topologies(st))
+			}
+			r, ok := s.Figures.Lookup("r_in_ohm")
+			if !ok || math.Abs(r/tc.rIn-1) > 0.01 {
+				t.Errorf("%s %s: r in %v (ok %v), want %v", s.Name, tc.cap, r, ok, tc.rIn)
+			}
+			if tc.fc > 0 {
+				if f, ok := s.Figures.Lookup("f_c_hz"); !ok || math.Abs(f/tc.fc-1) > 0.02 {
+					t.Errorf("%s %s: f c %v (ok %v), want %v", s.Name, tc.cap, f, ok, tc.fc)
+				}
+			}
+		})
+	}
+}
+
+// A device whose loop reaches 0° of loop phase is reported on both sides
+// of 0 dB, with the margin worded as what it is (the return ratio of the
+// device's gm). ngspice .ac on testdata/good/review-osc/c3-phaseshift-loop.cir:
+// R7 100 Ω, 0° at 1555.0 Hz, +0.49 dB; R7 120 Ω, 0° at 1532.1 Hz, −2.05 dB
+// (the kicked transient c3-phaseshift-below-tran.cir decays). ngspice .ac
+// on c1-vfo-loop.cir: +27.92 dB at 5.858 MHz (C1 15p), +27.75 dB at 5.300
+// MHz (C1 50p); base time constant 1 nF into 33k: squegging risk (common
+// practice, squeggMarginDB and squeggTau).
+func TestReviewOscLoopFlags(t *testing.T) {
+	for _, tc := range []struct {
+		file string
+		want []string
+	}{
+		{"review-osc-c3-phaseshift-below.toml", []string{"loop phase 0° at 1.532 kHz, loop gain -2.1 dB", "will not start as drawn", "gm would have to rise 2.1 dB"}},
+		{"review-osc-c3-phaseshift.toml", []string{"loop phase 0° at 1.555 kHz, loop gain +0.5 dB", "gm could fall 0.5 dB"}},
+		{"review-osc-c1-vfo.toml", []string{"loop gain +27.9 dB", "gm could fall 27.9 dB (24.9×)", "long base time constant", "may squegg"}},
+	} {
+		t.Run(tc.file, func(t *testing.T) {
+			_, st := reduceGood(t, tc.file)
+			var flags []string
+			for _, s := range st {
+				flags = append(flags, s.Flags...)
+			}
+			all := strings.Join(flags, "\n")
+			for _, w := range tc.want {
+				if !strings.Contains(all, w) {
+					t.Errorf("no flag says %q; flags:\n%s", w, all)
+				}
+			}
+		})
+	}
+}
+
+// A loop well short of 0 dB is stray feedback, not an oscillator that
+// fails to start: a plain amplifier stays silent (loopReachDB).
+func TestReviewOscReachIsBounded(t *testing.T) {
+	_, st := reduceGood(t, "review-audio-triode.toml")
+	for _, s := range st {
+		if slices.ContainsFunc(s.Flags, func(f string) bool { return strings.Contains(f, "will not start as drawn") }) {
+			t.Errorf("%s: an audio amplifier flagged as an oscillator short of starting: %v", s.Name, s.Flags)
+		}
+	}
+}
