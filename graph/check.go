@@ -212,6 +212,11 @@ func checkRefs(c *Circuit) ErrorList {
 	return w
 }
 
+// NoInputWarning is the warning for a circuit with no signal input
+// anywhere. A caller that can show the circuit makes its own signal (an
+// oscillator found by its loop) turns it into a note.
+const NoInputWarning = "no signal input declared: add inputs = [\"net\"] (the reduction keeps what lies between inputs and outputs)"
+
 // checkEnds warns when the file says nowhere where the signal enters or
 // leaves: the reduction keeps only what lies between the two, and the AC
 // proof compares transfers between them.
@@ -231,7 +236,7 @@ func checkEnds(c *Circuit) ErrorList {
 		}
 	}
 	if !in {
-		w.Add(top, "no signal input declared: add inputs = [\"net\"] (the reduction keeps what lies between inputs and outputs)")
+		w.Add(top, "%s", NoInputWarning)
 	}
 	if !out {
 		w.Add(top, "no signal output declared: add outputs = [\"net\"] (the reduction keeps what lies between inputs and outputs)")

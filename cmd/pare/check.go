@@ -44,6 +44,9 @@ func runCheck(e *env, o *checkOpts, args []string) int {
 			for _, w := range warnings {
 				fmt.Fprintf(e.stdout, "%s: warning: %s\n", w.Pos, w.Msg)
 			}
+			for _, n := range res.Notes {
+				fmt.Fprintf(e.stdout, "%s: note: %s\n", n.Pos, n.Msg)
+			}
 		}
 		fmt.Fprintf(e.stdout, "%s: %s\n", path, graph.Summary(c, len(warnings)))
 		if o.strict && len(warnings) > 0 && code == exitOK {

@@ -155,3 +155,26 @@ func TestUnknownCommand(t *testing.T) {
 		t.Errorf("pare with no arguments: exit %d, stderr %q", code, errs)
 	}
 }
+
+// TestCheckStrictOscillator: a circuit whose device oscillates by its loop
+// is its own signal source, so the missing input is a note that --strict
+// does not count (the review's Colpitts VFO, +27.92 dB at 5.858 MHz by
+// ngspice .ac on testdata/good/review-osc/c1-vfo-loop.cir); an amplifier
+// with no input (no-signal-ends) and an oscillator that does not start
+// (R7 120 Ω, −2.05 dB by c3-phaseshift-loop.cir) still fail it.
+func TestCheckStrictOscillator(t *testing.T) {
+	for _, tc := range []struct {
+		file string
+		code int
+		line string
+	}{
+		{"testdata/good/review-osc-c1-vfo.toml", exitOK, "note: no signal input declared, and none needed: Q1 oscillates by its loop (0° of loop phase at 5.858 MHz"},
+		{"testdata/good/review-osc-c3-phaseshift-below.toml", exitFound, "warning: no signal input declared"},
+		{"testdata/warn/no-signal-ends.toml", exitFound, "warning: no signal input declared"},
+	} {
+		code, out, _ := cliRun(t, "check", "--strict", filepath.Join(root, tc.file))
+		if code != tc.code || !strings.Contains(out, tc.line) {
+			t.Errorf("%s: exit %d (want %d), output:\n%s", tc.file, code, tc.code, out)
+		}
+	}
+}

@@ -126,6 +126,10 @@ type Result struct {
 	// takes its supplies and heaters away.
 	Caution  safety.Caution
 	Warnings graph.ErrorList
+	// Notes are what the check found worth saying that is no mistake (a
+	// circuit that makes its own signal needs no input): they do not fail
+	// `check --strict`.
+	Notes graph.ErrorList
 
 	Level   rules.Level
 	Reduced *graph.Circuit
@@ -200,6 +204,7 @@ func Run(o Options) (*Result, error) {
 
 func (r *Result) check(Options) error {
 	r.Warnings = graph.Check(r.Circuit)
+	r.weighNoInput()
 	return nil
 }
 
