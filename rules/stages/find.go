@@ -131,6 +131,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		out = appendTree(out, top)
 	}
 	addLoops(loops, out)
+	loopCapacitors(loops, out)
 	return out, errors.Join(errSig, errPow)
 }
 

@@ -88,3 +88,38 @@ func TestReviewOscReachIsBounded(t *testing.T) {
 		}
 	}
 }
+
+// A capacitor in an oscillator's loop is no coupling capacitor: opened, the
+// loop stops or moves. The Colpitts VFO's C3 is an arm of its feedback
+// divider and C2 the DC block from the tank into the base: without either
+// there is no feedback (handbook: a Colpitts oscillator's feedback is its
+// capacitive divider, from memory); C6, a 22p light coupling into the
+// buffer, stays a coupling capacitor. The triode-heptode's padder C2,
+// opened, leaves T2's 110 µH with the 10p trimmer: f = 1/(2π√(LC)) = 4.80
+// MHz (handbook formula) against 3.25 MHz with the gang at its minimum.
+func TestReviewOscLoopCapacitors(t *testing.T) {
+	for _, tc := range []struct {
+		file, cap, topology, says string
+	}{
+		{"review-osc-c1-vfo.toml", "C3", loopCapTopology, "open, it stops the oscillator"},
+		{"review-osc-c1-vfo.toml", "C2", loopCapTopology, "open, it stops the oscillator"},
+		{"review-osc-c1-vfo.toml", "C6", "coupling-capacitor", ""},
+		{"review-osc-c2b-triode-heptode.toml", "C2", loopCapTopology, "open, it detunes the oscillator at the high end of the dial (3.253 MHz → 4.78"},
+	} {
+		t.Run(tc.file+"/"+tc.cap, func(t *testing.T) {
+			_, st := reduceGood(t, tc.file)
+			s := stageWith(st, tc.cap)
+			if s == nil {
+				t.Fatalf("no stage holds %s: %s", tc.cap, topologies(st))
+			}
+			if s.Topology != tc.topology || !strings.Contains(strings.Join(s.Notes, "\n"), tc.says) {
+				t.Errorf("%s: %s %q, notes %q; want %s saying %q", tc.cap, s.Topology, s.Title, s.Notes, tc.topology, tc.says)
+			}
+			if tc.topology == loopCapTopology {
+				if _, ok := s.Figures.Get("f_c"); ok || !strings.Contains(s.Title, "oscillator loop") {
+					t.Errorf("%s: %q keeps a coupling corner or a coupling name: %v", tc.cap, s.Title, s.Figures)
+				}
+			}
+		})
+	}
+}

@@ -338,3 +338,20 @@ func TestSpeakerReference(t *testing.T) {
 		t.Errorf("%g V at %s gives %g W in %s, want 50 mW", in.Level, in.Net, p, spk.Ref)
 	}
 }
+
+// TestHintsLoopCapacitor: a capacitor in an oscillator's loop (the review
+// VFO's DC block C2 and feedback arm C3, which open stop it; a Colpitts
+// oscillator's feedback is its capacitive divider, handbook, from memory)
+// gets the oscillator's fault, never the coupling capacitor's "the next
+// base is pulled off its bias"; the buffer's coupling capacitors keep it.
+func TestHintsLoopCapacitor(t *testing.T) {
+	_, g := build(t, filepath.Join("..", "..", "..", "testdata", "good", "review-osc-c1-vfo.toml"))
+	for _, h := range g.Hints {
+		loop := strings.Contains(h.Fault, "oscillator's loop")
+		for _, p := range []string{"C2", "C3"} {
+			if slices.Contains(h.Parts, p) != loop {
+				t.Errorf("%s in %q (stages %v): want it only in the oscillator-loop fault", p, h.Fault, h.Stages)
+			}
+		}
+	}
+}
