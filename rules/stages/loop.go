@@ -123,12 +123,11 @@ func loopFlags(c *graph.Circuit, st *Stage, l Loop) []string {
 	var out []string
 	n := len(l.Settings)
 	_, _, mMin, mMax, ok := l.Range()
-	if !ok || mMax < 0 {
-		best := ""
-		if ok {
-			best = fmt.Sprintf(": loop gain %+.1f dB at best", mMax)
-		}
-		return append(out, fmt.Sprintf("does not oscillate as drawn%s (%s)", best, l.Device))
+	if !ok {
+		return append(out, fmt.Sprintf("does not oscillate as drawn (%s)", l.Device))
+	}
+	if mMax < 0 {
+		return append(out, shortLoopFlag(l))
 	}
 	if mMin < 0 {
 		for _, s := range l.Settings {
@@ -147,6 +146,19 @@ func loopFlags(c *graph.Circuit, st *Stage, l Loop) []string {
 	}
 	out = append(out, pullFlags(st, l)...)
 	return out
+}
+
+// shortLoopFlag words a loop that reaches 0° of loop phase short of 0 dB:
+// where, by how much, and what gm it would need.
+func shortLoopFlag(l Loop) string {
+	var best LoopSetting
+	for _, s := range l.Settings {
+		if s.F > 0 && (best.F == 0 || s.MarginDB > best.MarginDB) {
+			best = s
+		}
+	}
+	return fmt.Sprintf("%s: loop phase 0° at %s%s, loop gain %+.1f dB at best (%s): will not start as drawn",
+		l.Device, hzText(best.F), dialPlace(best.Gang, len(l.Settings)), best.MarginDB, gmMargin(l.Device, best.MarginDB))
 }
 
 // squeggFlag is the squegging risk of an oscillator's loop, "" when there

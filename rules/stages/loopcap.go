@@ -70,9 +70,16 @@ func loopCapacitors(lp *ac.Loops, out []Stage) {
 // "" when no capacitor of the stage matters to the loop.
 func openedLoop(lc *graph.Circuit, st *Stage, l Loop) (what, ref string) {
 	near := loopNets(lc, l.Device)
+	// A capacitor on a declared input or output is the circuit's coupling
+	// to what lies outside it (an aerial, the next stage), whatever it
+	// does to a loop the solver closes through an ideal source there.
+	ends := map[string]bool{}
+	for _, n := range append(slices.Clone(lc.Inputs), lc.Outputs...) {
+		ends[n] = true
+	}
 	for _, r := range st.Parts {
 		p := lc.Part(r)
-		if p == nil || p.Kind != graph.Capacitor || !touches(p, near) {
+		if p == nil || p.Kind != graph.Capacitor || !touches(p, near) || touches(p, ends) {
 			continue
 		}
 		cp := lc.Clone()

@@ -95,8 +95,7 @@ func claimedLoopFlags(lc *graph.Circuit, l Loop) []string {
 		at = hzText(fMin) + "–" + hzText(fMax)
 	}
 	if mMax < 0 {
-		return []string{fmt.Sprintf("%s: loop phase 0° at %s, loop gain %+.1f dB at best (%s): will not start as drawn; a frequency-selective feedback loop short of starting, or an oscillator no pattern names",
-			l.Device, at, mMax, gmMargin(l.Device, mMax))}
+		return []string{shortLoopFlag(l) + "; a frequency-selective feedback loop short of starting, or an oscillator no pattern names"}
 	}
 	out := []string{fmt.Sprintf("%s oscillates: loop phase 0° at %s, loop gain %+.1f dB (%s): an amplifier that oscillates, or an oscillator no pattern names",
 		l.Device, at, mMax, gmMargin(l.Device, mMax))}
