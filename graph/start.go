@@ -109,13 +109,16 @@ func tankParts(c *Circuit, net string) (coil, capacitor bool) {
 // (a coupling capacitor to a port, a tuned circuit), or net itself. A walk
 // that orders stages starts there, so the parts feeding the first device
 // come before it and a coupling capacitor's driven side is the far one.
-// The walk stops at a net that holds an active part's output or common
-// electrode (an anode, a collector, an emitter): whatever lies beyond a
-// device's output is what it drives, not where its signal comes from, so a
-// feedback network from its own emitter or collector (a Colpitts divider, a
-// phase-shift ladder) or a buffer beyond it never becomes the start.
+// The walk goes no further than a net that holds an active part's output
+// or common electrode (an anode, a collector, an emitter), which may itself
+// be the answer: a feedback network from the device's own output (a
+// phase-shift ladder, a Colpitts divider) starts there, but what lies
+// beyond an output (a buffer on the oscillator's emitter) is what the
+// device drives, never where its signal comes from.
 func UpstreamOf(c *Circuit, net string) string {
-	if far := farthestStopping(c, net, func(p *Part, _ string) bool { return !p.IsActive() }, drivenNets(c)); far != "" {
+	stop := drivenNets(c)
+	enter := func(p *Part, pin string) bool { return !p.IsActive() && !stop[p.NetOf(pin)] }
+	if far := farthest(c, net, enter); far != "" {
 		return far
 	}
 	return net
@@ -142,18 +145,16 @@ func drivenNets(c *Circuit) map[string]bool {
 // FarthestNet is the signal net the walk from net reaches last, never
 // crossing an AC-ground net: where a chain with no declared output ends.
 // Ties go to the smaller name; "" when nothing is reached.
-func FarthestNet(c *Circuit, net string) string { return farthestStopping(c, net, nil, nil) }
+func FarthestNet(c *Circuit, net string) string { return farthest(c, net, nil) }
 
-// farthestStopping is the net the walk from net reaches last, entering
-// only parts enter allows and never reaching a net in stop (nor AC ground).
-func farthestStopping(c *Circuit, net string, enter func(*Part, string) bool, stop map[string]bool) string {
+func farthest(c *Circuit, net string, enter func(*Part, string) bool) string {
 	w := NewWalk(c.View())
 	w.Enter = enter
-	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() && !stop[n] }
+	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }
 	w.FromNets([]string{net}, 0)
 	var nets []string
 	for _, n := range c.Nets {
-		if _, ok := w.NetDist(n.Name); ok && n.Name != net && !n.Role.IsACGround() && !stop[n.Name] {
+		if _, ok := w.NetDist(n.Name); ok && n.Name != net && !n.Role.IsACGround() {
 			nets = append(nets, n.Name)
 		}
 	}

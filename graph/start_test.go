@@ -45,7 +45,8 @@ R2 = { r = "47k", pins = ["g1", "gnd"] }`, "g1", "V2", "oscillator", "g2"}, // u
 		// The review Colpitts (review 11): the tank reaches the base through
 		// a DC block, the feedback divider runs from the base to the emitter,
 		// and a buffer hangs on the emitter. Upstream of the base is the
-		// tank, never the buffer's base beyond the oscillator's own emitter.
+		// oscillator's own emitter, where the feedback starts, never the
+		// buffer's base beyond it.
 		{"feedback from its own emitter to a buffer", `
 L1 = { l = "4u7", pins = ["tank", "gnd"] }
 C1 = { c = "50p", pins = ["tank", "gnd"] }
@@ -56,7 +57,7 @@ Q1 = { bjt = "npn", pins = { b = "b1", c = "ht", e = "e1" } }
 C6 = { c = "22p", pins = ["e1", "b2"] }
 R5 = { r = "100k", pins = ["b2", "gnd"] }
 Q2 = { bjt = "npn", pins = { b = "b2", c = "ht", e = "e2" } }
-R7 = { r = "1k", pins = ["e2", "gnd"] }`, "b1", "Q1", "first active part", "tank"},
+R7 = { r = "1k", pins = ["e2", "gnd"] }`, "b1", "Q1", "first active part", "e1"},
 		{"no active part", `
 R1 = { r = "1k", pins = ["a", "gnd"] }`, "", "", "", ""},
 	}
