@@ -132,6 +132,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	}
 	addLoops(loops, out)
 	loopCapacitors(loops, out)
+	dropContradicted(out)
 	return out, errors.Join(errSig, errPow)
 }
 

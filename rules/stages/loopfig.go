@@ -2,6 +2,7 @@ package stages
 
 import (
 	"fmt"
+	"slices"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -159,4 +160,73 @@ func ifTuning(ifStage *Stage) (figure.Figure, bool) {
 // mixer and its tracking.
 func ifFigure(fif float64) figure.Figure {
 	return figure.Figure{Name: "if", Label: "IF", Unit: figure.Hertz, Value: fif, Origin: figure.FromNetlist("[freqs] if")}
+}
+
+// formulaOff is how far outside an oscillator's loop range a sub-stage's
+// formula-only frequency may lie and still be shown: 10 %, beyond any
+// trimmer's or core's reach (common practice, no source).
+const formulaOff = 0.1
+
+// dropContradicted removes the formula-only frequency of a tuned sub-stage
+// of an oscillator when it lies outside the loop's range: a winding with
+// its trimmer alone, by f = 1/(2π√(LC)), without the gang section and the
+// padder that also tune it, is not where the oscillator runs, and a figure
+// the solver's range contradicts must not stand as the winding's
+// frequency. A note says what the formula gave and why it is not shown.
+func dropContradicted(out []Stage) {
+	byName := map[string]int{}
+	for i := range out {
+		byName[out[i].Name] = i
+	}
+	for i := range out {
+		fMin, fMax, ok := loopSpan(out[i].Loop)
+		if !ok {
+			continue
+		}
+		for _, sub := range out[i].Contains {
+			j, in := byName[sub]
+			if !in {
+				continue
+			}
+			st := &out[j]
+			k := slices.IndexFunc(st.Figures, func(f figure.Figure) bool { return f.Name == "f" })
+			if k < 0 || st.Figures[k].Origin.Source != figure.Formula || st.Figures[k].Range != nil {
+				continue
+			}
+			f := st.Figures[k].Value
+			if f >= fMin*(1-formulaOff) && f <= fMax*(1+formulaOff) {
+				continue
+			}
+			st.Figures = slices.Delete(slices.Clone(st.Figures), k, k+1)
+			if k < len(st.figRanks) {
+				st.figRanks = slices.Delete(slices.Clone(st.figRanks), k, k+1)
+			}
+			st.Notes = append(st.Notes, fmt.Sprintf("f by the formula alone, %s, takes these parts without what else tunes them (a gang section, a padder); %s's loop runs at %s, so it is not shown",
+				hzText(f), out[i].Name, spanText(fMin, fMax)))
+		}
+	}
+}
+
+// loopSpan is the lowest and highest frequency of a stage's loops that
+// have a 0° crossing.
+func loopSpan(ls []Loop) (lo, hi float64, ok bool) {
+	for _, l := range ls {
+		fMin, fMax, _, _, has := l.Range()
+		if !has {
+			continue
+		}
+		if !ok {
+			lo, hi, ok = fMin, fMax, true
+			continue
+		}
+		lo, hi = min(lo, fMin), max(hi, fMax)
+	}
+	return lo, hi, ok
+}
+
+func spanText(lo, hi float64) string {
+	if hi/lo-1 < 1e-4 {
+		return hzText(lo)
+	}
+	return hzText(lo) + "–" + hzText(hi)
 }

@@ -148,3 +148,27 @@ func TestReviewOscPhaseShiftNamed(t *testing.T) {
 		t.Errorf("f %v (ok %v), want 1555 Hz (ngspice)", f, ok)
 	}
 }
+
+// A tuned winding inside an oscillator shows no formula frequency that the
+// loop contradicts: T2 with its trimmer alone gives f = 1/(2π√(LC)) =
+// 4.80 MHz (handbook formula), while the gang and the padder put the loop
+// at 1.02–3.25 MHz (ngspice .ac on testdata/good/review-osc/c2b-triode-loop.cir,
+// by the review: 1.021 MHz to 3.255 MHz).
+func TestReviewOscWindingFormulaNotShown(t *testing.T) {
+	_, st := reduceGood(t, "review-osc-c2b-triode-heptode.toml")
+	var s *Stage
+	for i := range st {
+		if st[i].Topology == "tuned-winding" && slices.Contains(st[i].Parts, "T2") {
+			s = &st[i]
+		}
+	}
+	if s == nil {
+		t.Fatalf("no tuned winding on T2: %s", topologies(st))
+	}
+	if f, ok := s.Figures.Get("f"); ok {
+		t.Errorf("%s shows f %v (%s), outside the loop's 1.02–3.25 MHz", s.Name, f.Value, f.Origin.Source)
+	}
+	if !strings.Contains(strings.Join(s.Notes, "\n"), "f by the formula alone, 4.799 MHz") {
+		t.Errorf("%s: no note on the formula's figure: %q", s.Name, s.Notes)
+	}
+}

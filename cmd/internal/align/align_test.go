@@ -355,3 +355,17 @@ func TestHintsLoopCapacitor(t *testing.T) {
 		}
 	}
 }
+
+// TestTrackingLoopOscillatorBesideMixer: a triode-heptode's triode
+// oscillator, found with its loop across the gang (the review's circuit,
+// loop 1.021–3.255 MHz by ngspice .ac on
+// testdata/good/review-osc/c2b-triode-loop.cir), is the oscillator the
+// tracking looks at even though the heptode is a mixer stage: the note no
+// longer says there is no oscillator stage on the gang, and names what is
+// missing (the aerial tank pare does not recognise).
+func TestTrackingLoopOscillatorBesideMixer(t *testing.T) {
+	_, g := build(t, filepath.Join("..", "..", "..", "testdata", "good", "review-osc-c2b-triode-heptode.toml"))
+	if strings.Contains(g.TrackNote, "no oscillator stage") || !strings.Contains(g.TrackNote, "no signal tank found on C1a") {
+		t.Errorf("track note %q", g.TrackNote)
+	}
+}

@@ -3,6 +3,7 @@ package align
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"pare/graph"
@@ -27,7 +28,11 @@ func (g *Guide) tracking(c *graph.Circuit, sts []stages.Stage) {
 		if why = g.trackingSteps(c, mix); why == "" {
 			return
 		}
-	} else if osc := loopOscillator(c, sts); osc != nil {
+	}
+	// A mixer fed by an oscillator of its own (a triode-heptode's triode)
+	// holds no gang section: the oscillator stage, found with its loop,
+	// is tracked instead.
+	if osc := loopOscillator(c, sts); osc != nil {
 		if why = g.loopTracking(c, sts, osc); why == "" {
 			return
 		}
@@ -39,19 +44,63 @@ func (g *Guide) tracking(c *graph.Circuit, sts []stages.Stage) {
 }
 
 // loopOscillator is the first stage with a loop that oscillates and a
-// ganged section among its parts.
+// ganged section among its parts or beside them (loopGang), as a copy
+// that holds the section.
 func loopOscillator(c *graph.Circuit, sts []stages.Stage) *stages.Stage {
 	for i := range sts {
-		if oscTank(c, &sts[i]).gang == nil {
+		st := withGang(c, sts[i])
+		if oscTank(c, &st).gang == nil {
 			continue
 		}
-		for _, l := range sts[i].Loop {
+		for _, l := range st.Loop {
 			if _, _, _, _, ok := l.Range(); ok {
-				return &sts[i]
+				return &st
 			}
 		}
 	}
 	return nil
+}
+
+// withGang is st with the gang section that tunes it added to its parts
+// when the stage does not hold it: a section on one of the stage's nets,
+// or across one fixed capacitor from it (the padder in series with the
+// section, which the stage recognition names apart as part of the
+// oscillator's loop).
+func withGang(c *graph.Circuit, st stages.Stage) stages.Stage {
+	nets := map[string]bool{}
+	for _, ref := range st.Parts {
+		p := c.Part(ref)
+		if p == nil {
+			continue
+		}
+		if p.Kind == graph.Capacitor && p.Gang != "" && p.Type == graph.CapVariable {
+			return st
+		}
+		for _, n := range netsOf(p) {
+			if !c.RoleOf(n).IsACGround() {
+				nets[n] = true
+			}
+		}
+	}
+	for _, hop := range []bool{false, true} {
+		for _, p := range c.Parts {
+			if p.Kind != graph.Capacitor || len(p.Pins) != 2 || p.Type == graph.CapVariable || !hop {
+				continue
+			}
+			for _, n := range netsOf(p) {
+				if nets[n] && !c.RoleOf(otherNet(p, n)).IsACGround() {
+					nets[otherNet(p, n)] = true
+				}
+			}
+		}
+		for _, p := range c.Parts {
+			if p.Kind == graph.Capacitor && p.Gang != "" && p.Type == graph.CapVariable && slices.ContainsFunc(netsOf(p), func(n string) bool { return nets[n] }) {
+				st.Parts = append(slices.Clone(st.Parts), p.Ref)
+				return st
+			}
+		}
+	}
+	return st
 }
 
 // loopTracking adds the steps for the oscillator stage osc; it returns why
