@@ -24,15 +24,17 @@ import (
 func (g *Guide) tracking(c *graph.Circuit, sts []stages.Stage) {
 	gangs := gangSections(c)
 	why := "pare recognised no oscillator tuned by the gang (no mixer-oscillator and no oscillator stage on " + refList(gangs) + ")"
-	if mix := mixerStage(sts); mix != nil {
+	mix := mixerStage(sts)
+	if mix != nil {
 		if why = g.trackingSteps(c, mix); why == "" {
 			return
 		}
 	}
 	// A mixer fed by an oscillator of its own (a triode-heptode's triode)
 	// holds no gang section: the oscillator stage, found with its loop,
-	// is tracked instead.
-	if osc := loopOscillator(c, sts); osc != nil {
+	// is tracked instead. A mixer that holds one and failed for another
+	// reason (sections that cannot be paired) keeps its reason.
+	if osc := loopOscillator(c, sts); osc != nil && (mix == nil || oscTank(c, mix).gang == nil) {
 		if why = g.loopTracking(c, sts, osc); why == "" {
 			return
 		}
