@@ -51,13 +51,17 @@ func loopCapacitors(lp *ac.Loops, out []Stage) {
 	if len(loops) == 0 {
 		return
 	}
+	near := map[string]map[string]bool{} // device → its loop's nets, worked out once
+	for _, l := range loops {
+		near[l.Device] = loopNets(lc, l.Device)
+	}
 	for i := range out {
 		st := &out[i]
 		if !slices.Contains(couplingTopologies, st.Topology) {
 			continue
 		}
 		for _, l := range loops {
-			if what, ref := openedLoop(lc, st, l); what != "" {
+			if what, ref := openedLoop(lc, st, l, near[l.Device]); what != "" {
 				markLoopCap(st, l.Device, ref, what)
 				break
 			}
@@ -67,9 +71,9 @@ func loopCapacitors(lp *ac.Loops, out []Stage) {
 
 // openedLoop is what opening a capacitor of stage st does to loop l,
 // worded for the stage ("stops the oscillator: …"), and the capacitor;
-// "" when no capacitor of the stage matters to the loop.
-func openedLoop(lc *graph.Circuit, st *Stage, l Loop) (what, ref string) {
-	near := loopNets(lc, l.Device)
+// "" when no capacitor of the stage matters to the loop. Only capacitors
+// on the loop's nets (near) are tried.
+func openedLoop(lc *graph.Circuit, st *Stage, l Loop, near map[string]bool) (what, ref string) {
 	// A capacitor on a declared input or output is the circuit's coupling
 	// to what lies outside it (an aerial, the next stage), whatever it
 	// does to a loop the solver closes through an ideal source there.
