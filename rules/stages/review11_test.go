@@ -9,7 +9,7 @@ import (
 
 // The blind review of oscillator recognition (review 11): its circuits are
 // testdata/good/review-osc-*.toml, its ngspice decks beside them in
-// testdata/good/review-osc/ (docs/references.md §21).
+// testdata/good/review-osc/ (docs/references.md §22).
 
 // A coupling capacitor's corner is against the resistance of the side it
 // feeds even when no input is declared and the signal starts at an
