@@ -148,7 +148,9 @@ func loopFlags(c *graph.Circuit, st *Stage, l Loop) []string {
 	return out
 }
 
-// shortLoopFlag words a loop that reaches 0° of loop phase short of 0 dB:
+// shortLoopFlag words a loop a pattern names as an oscillator that reaches
+// 0° of loop phase short of 0 dB (the name is contradicted: "does not
+// oscillate as drawn"):
 // where, by how much, and what gm it would need.
 func shortLoopFlag(l Loop) string {
 	var best LoopSetting
@@ -157,7 +159,7 @@ func shortLoopFlag(l Loop) string {
 			best = s
 		}
 	}
-	return fmt.Sprintf("%s: loop phase 0° at %s%s, loop gain %+.1f dB at best (%s): will not start as drawn",
+	return fmt.Sprintf("%s: loop phase 0° at %s%s, loop gain %+.1f dB at best (%s): does not oscillate as drawn",
 		l.Device, hzText(best.F), dialPlace(best.Gang, len(l.Settings)), best.MarginDB, gmMargin(l.Device, best.MarginDB))
 }
 
