@@ -7,6 +7,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -16,7 +17,7 @@ import (
 
 // The kill test runs the main job in a child process (this test binary,
 // told by an environment variable to be pare) and kills it with SIGKILL at
-// random moments, 100 times, over a large set. After every kill the result
+// random moments, 100 times. After every kill the result
 // folder must hold one whole pack, the previous one or the new one, file
 // for file, and nothing else; what a killed run left beside it must be
 // gone after the next run. Red-team item 3: three folders in 60 kills were
@@ -83,58 +84,133 @@ func packNames(p map[string]string) string {
 	return strings.Join(n, " ")
 }
 
+// The kill moments: a quarter of the kills fall anywhere in a run; the rest
+// are aimed at the write, the only phase that touches the folder. The
+// parent watches for the child's temporary folder beside the pack (made
+// when the write begins, gone when the swap is done) and kills after a
+// random part of the longest write it saw, so those kills land in the
+// fill, the swap and the removal of the previous folder rather than in the
+// computation before them. A small set keeps the computation short; the
+// write is the same files, each synced, whatever the set's size.
+const (
+	kills      = 100
+	killStages = 24 // chainNetlist parts: four triode stages
+)
+
+// childTemp reports whether the child pid has a temporary folder (staging
+// or a previous folder set aside) beside pack: it is writing its results.
+func childTemp(pack string, pid int) bool {
+	mark := "-" + strconv.Itoa(pid) + "-"
+	for _, n := range outfile.Leftovers(pack) {
+		if strings.Contains(n, ".pare-staging"+mark) || strings.Contains(n, ".pare-old"+mark) {
+			return true
+		}
+	}
+	return false
+}
+
+// watchedChild is a started child run: done is closed when it has ended.
+type watchedChild struct {
+	cmd   *exec.Cmd
+	out   bytes.Buffer
+	start time.Time
+	done  chan struct{}
+}
+
+func startChild(t *testing.T, args ...string) *watchedChild {
+	t.Helper()
+	w := &watchedChild{cmd: childCmd(args...), done: make(chan struct{})}
+	w.cmd.Stdout, w.cmd.Stderr = &w.out, &w.out
+	w.start = time.Now()
+	if err := w.cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	go func() { w.cmd.Wait(); close(w.done) }()
+	return w
+}
+
+// awaitWrite polls until the child's write has begun (true) or the child
+// has ended (false), and returns how long after the start that was.
+func (w *watchedChild) awaitWrite(pack string) (bool, time.Duration) {
+	for {
+		select {
+		case <-w.done:
+			return false, time.Since(w.start)
+		default:
+		}
+		if childTemp(pack, w.cmd.Process.Pid) {
+			return true, time.Since(w.start)
+		}
+		time.Sleep(100 * time.Microsecond)
+	}
+}
+
+// timedRun runs the child to its end, returning how long the whole run
+// and its write (from the temporary folder's appearance) took.
+func timedRun(t *testing.T, pack string, args ...string) (full, write time.Duration) {
+	t.Helper()
+	w := startChild(t, args...)
+	began, at := w.awaitWrite(pack)
+	<-w.done
+	full = time.Since(w.start)
+	if !w.cmd.ProcessState.Success() {
+		t.Fatalf("run %v: %v\n%s", args, w.cmd.ProcessState, w.out.String())
+	}
+	if began {
+		write = full - at
+	}
+	return full, write
+}
+
 func TestKillLeavesWholePack(t *testing.T) {
 	if testing.Short() {
 		t.Skip("100 child runs: not in -short")
 	}
+	t.Parallel() // mostly waiting on the children and their syncs
 	dir := t.TempDir()
 	in := filepath.Join(dir, "chain.toml")
-	if err := os.WriteFile(in, []byte(chainNetlist(120)), 0o644); err != nil {
+	if err := os.WriteFile(in, []byte(chainNetlist(killStages)), 0o644); err != nil {
 		t.Fatal(err)
 	}
 	// The two packs a run may leave: the job at two levels writes different
 	// files, so a mix of the two would show.
 	levels := []string{"signal", "tidy"}
 	want := map[string]map[string]string{}
-	var full time.Duration
+	var full, write time.Duration
 	for _, lvl := range levels {
 		ref := filepath.Join(dir, "ref-"+lvl)
-		start := time.Now()
-		out, err := childCmd(in, "-o", ref, "--level", lvl).CombinedOutput()
-		full = max(full, time.Since(start))
-		if err != nil {
-			t.Fatalf("reference run at %s: %v\n%s", lvl, err, out)
-		}
+		f, w := timedRun(t, ref, in, "-o", ref, "--level", lvl)
+		full, write = max(full, f), max(write, w)
 		want[lvl] = readPack(t, ref)
 	}
 	if samePack(want["signal"], want["tidy"]) {
 		t.Fatal("the two reference packs are the same: the test could not see a mix")
 	}
 	pack := filepath.Join(dir, "chain.pare")
-	if out, err := childCmd(in, "-o", pack, "--level", "signal").CombinedOutput(); err != nil {
-		t.Fatalf("first run: %v\n%s", err, out)
+	// The first run makes the folder, the second swaps it: its write is
+	// the one the kills meet.
+	for _, lvl := range levels {
+		f, w := timedRun(t, pack, in, "-o", pack, "--level", lvl)
+		full, write = max(full, f), max(write, w)
 	}
 	rng := rand.New(rand.NewSource(14))
 	counts := map[string]int{}
 	seen := map[string]bool{}
-	const kills = 100
 	for i := 0; i < kills; i++ {
 		lvl := levels[i%2]
-		// Half the kills anywhere in the run, half in its last fifth,
-		// where the files are written.
-		at := time.Duration(rng.Float64() * float64(full) * 1.05)
-		if i%4 >= 2 {
-			at = time.Duration((0.8 + 0.25*rng.Float64()) * float64(full))
+		w := startChild(t, in, "-o", pack, "--level", lvl)
+		var at time.Duration
+		if (i/2)%4 == 0 {
+			at = time.Duration(rng.Float64() * float64(full) * 1.05)
+			time.Sleep(time.Until(w.start.Add(at)))
+		} else {
+			_, began := w.awaitWrite(pack)
+			delay := time.Duration(rng.Float64() * float64(write) * 1.1)
+			at = began + delay
+			time.Sleep(delay)
 		}
-		cmd := childCmd(in, "-o", pack, "--level", lvl)
-		var outb bytes.Buffer
-		cmd.Stdout, cmd.Stderr = &outb, &outb
-		if err := cmd.Start(); err != nil {
-			t.Fatal(err)
-		}
-		time.Sleep(at)
-		cmd.Process.Kill() // SIGKILL
-		cmd.Wait()
+		w.cmd.Process.Kill() // SIGKILL
+		<-w.done
 		got := readPack(t, pack)
 		switch {
 		case samePack(got, want["signal"]):
@@ -149,7 +225,7 @@ func TestKillLeavesWholePack(t *testing.T) {
 			t.Fatalf("kill %d: leftovers of more than the killed run: %v", i+1, left)
 		}
 		if len(left) == 1 && !seen[left[0]] {
-			counts["killed while writing (staging left, swept by the next run)"]++
+			counts[killedMidWrite]++
 			seen[left[0]] = true
 		}
 	}
@@ -162,5 +238,11 @@ func TestKillLeavesWholePack(t *testing.T) {
 	if left := outfile.Leftovers(pack); len(left) > 0 {
 		t.Errorf("left beside the folder after a complete run: %v", left)
 	}
-	t.Logf("%d kills (a full run takes %v): %v", kills, full, counts)
+	t.Logf("%d kills (a full run takes %v, its write %v): %v", kills, full, write, counts)
+	// The aimed kills must have met the write, or the test saw nothing of it.
+	if counts[killedMidWrite] == 0 {
+		t.Errorf("no kill met a run while it was writing: %v", counts)
+	}
 }
+
+const killedMidWrite = "killed while writing (staging left, swept by the next run)"
