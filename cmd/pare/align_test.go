@@ -41,6 +41,7 @@ func TestAlignCommand(t *testing.T) {
 // the note's Alignment section is byte for byte what the align command's
 // guide writes as Markdown (the same guide, so the same text as well).
 func TestAlignMatchesMainJob(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	var files []string
 	for _, pat := range []string{"examples/*.toml", "testdata/good/*.toml"} {
 		for _, f := range cliGlob(t, pat) {
@@ -54,11 +55,11 @@ func TestAlignMatchesMainJob(t *testing.T) {
 	}
 	for _, f := range files {
 		t.Run(filepath.Base(f), func(t *testing.T) {
-			dir := filepath.Join(t.TempDir(), "out")
-			if code, _, stderr := cliRun(t, f, "-o", dir); code > exitFound {
-				t.Fatalf("main job: exit %d: %s", code, stderr)
+			job := cachedJob(t, f)
+			if job.code > exitFound {
+				t.Fatalf("main job: exit %d: %s", job.code, job.stderr)
 			}
-			md, err := os.ReadFile(filepath.Join(dir, fileNote))
+			md, err := os.ReadFile(filepath.Join(job.dir, fileNote))
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -32,6 +32,7 @@ func findChromium(t *testing.T) string {
 // the sheets and the note in, and it rejects SVG that a lenient converter
 // would still draw (a missing namespace shows as an XML tree, or nothing).
 func TestSheetsInBrowser(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	browser := findChromium(t)
 	for _, ex := range examples(t) {
 		name := strings.TrimSuffix(filepath.Base(ex), ".toml")
@@ -123,6 +124,7 @@ func rsvgPNG(t *testing.T, svg, png string, width int) {
 // same sheet without its SVG namespace is not drawn as an image at all, and
 // a sheet with nothing drawn on it shows nothing to either renderer.
 func TestBrowserCheckCatchesBrokenSheet(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	browser := findChromium(t)
 	r := cachedJob(t, redExample)
 	if r.code == exitBad {

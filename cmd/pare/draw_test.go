@@ -244,12 +244,8 @@ func BenchmarkDraw2000(b *testing.B) {
 // by the marker of a part merged into it.
 func TestFadedViewFindsEveryReducedPart(t *testing.T) {
 	for _, f := range exampleFiles(t) {
-		res := sheetsOf(t, pipeline.Options{Path: f, Level: rules.LevelSignal})
-		reduced := res.Reduced
-		g, err := render.Config{}.Geometry(res.Sheet(render.Faded))
-		if err != nil {
-			t.Fatal(err)
-		}
+		reduced := cachedResult(t, f).Reduced
+		g := cachedSheet(t, f, render.Faded, render.IEC).g
 		live := map[string]bool{}
 		for _, sym := range g.Symbols {
 			if !sym.Faded {

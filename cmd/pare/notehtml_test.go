@@ -63,6 +63,7 @@ var sheetFigure = regexp.MustCompile(`(?s)<figure class="n-sheet".*?</figure>\n`
 // sheet boxes are outlined in pure red for the test (an outline takes no
 // room, so the layout is the note's own; nothing else on the page is red).
 func TestNotePrintsOneSheetPerPage(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	browser := findChromium(t)
 	pdftoppm := reftool.Find(t, reftool.Pdftoppm)
 	r := cachedJob(t, redExample)
@@ -268,6 +269,7 @@ var mergeLine = regexp.MustCompile("(?m)^- `([^`]+)` stands for (.+)$")
 // the faded sheet lights up the reduced part it went into, and nothing stays
 // lit when the pointer leaves.
 func TestNoteHoverLightsOriginals(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	browser := findChromium(t)
 	r := cachedJob(t, redExample)
 	if r.code == exitBad {

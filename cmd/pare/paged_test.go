@@ -41,14 +41,10 @@ func pagedSources(t *testing.T) []string {
 func TestPagedSheetsCheck(t *testing.T) {
 	a4, _ := render.ParsePaper("A4")
 	for _, f := range pagedSources(t) {
-		res := sheetsOf(t, pipeline.Options{Path: f, Level: rules.LevelSignal})
+		res := cachedResult(t, f)
 		for _, v := range galleryViews {
-			flat, err := render.Config{}.Geometry(res.Sheet(v))
-			if err != nil {
-				t.Fatalf("%s %s: %v", f, v, err)
-			}
 			report := t.Errorf
-			if n := len(check.Measure(flat).Problems()); n > 0 {
+			if n := len(cachedSheet(t, f, v, render.IEC).report.Problems()); n > 0 {
 				report = t.Logf
 			}
 			pages, err := render.Config{Page: a4}.Geometries(res.Sheet(v))

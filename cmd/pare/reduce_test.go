@@ -14,6 +14,7 @@ import (
 // The examples reduce at every level with exit 0, a numbered log, the
 // counts, and the caution; the output is the same on every run.
 func TestReduceExamples(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	for _, f := range cliGlob(t, "examples/*.toml") {
 		for _, lvl := range []string{"tidy", "signal", "ideal"} {
 			code, out, errs := cliRun(t, "reduce", "--level", lvl, f)

@@ -53,31 +53,30 @@ type jobRun struct {
 	stdout, stderr string
 }
 
-var jobCache struct {
-	sync.Mutex
-	root string
-	runs map[string]*jobRun
-}
-
-// cachedJob runs the main job on ex once per test binary, into a folder
+// jobCache holds the runs; jobRoot is the folder they are written into,
 // removed by TestMain.
+var (
+	jobCache memo[string, *jobRun]
+	jobRoot  struct {
+		once sync.Once
+		dir  string
+		err  error
+	}
+)
+
+// cachedJob runs the main job on ex once per test binary. Tests running in
+// parallel wait only for the example they ask for.
 func cachedJob(t *testing.T, ex string) *jobRun {
 	t.Helper()
-	jobCache.Lock()
-	defer jobCache.Unlock()
-	if r, ok := jobCache.runs[ex]; ok {
-		return r
+	jobRoot.once.Do(func() { jobRoot.dir, jobRoot.err = os.MkdirTemp("", "pare-run-test-") })
+	if jobRoot.err != nil {
+		t.Fatal(jobRoot.err)
 	}
-	if jobCache.root == "" {
-		root, err := os.MkdirTemp("", "pare-run-test-")
-		if err != nil {
-			t.Fatal(err)
-		}
-		jobCache.root, jobCache.runs = root, map[string]*jobRun{}
-	}
-	r := &jobRun{dir: filepath.Join(jobCache.root, strings.TrimSuffix(filepath.Base(ex), ".toml")+".pare")}
-	r.code, r.stdout, r.stderr = runJob(t, ex, "-o", r.dir)
-	jobCache.runs[ex] = r
+	r, _ := jobCache.get(ex, func() (*jobRun, error) {
+		r := &jobRun{dir: filepath.Join(jobRoot.dir, strings.TrimSuffix(filepath.Base(ex), ".toml")+".pare")}
+		r.code, r.stdout, r.stderr = runJob(t, ex, "-o", r.dir)
+		return r, nil
+	})
 	return r
 }
 
@@ -86,8 +85,8 @@ func TestMain(m *testing.M) {
 		os.Exit(run(args, os.Stdout, os.Stderr))
 	}
 	code := m.Run()
-	if jobCache.root != "" {
-		os.RemoveAll(jobCache.root)
+	if jobRoot.dir != "" {
+		os.RemoveAll(jobRoot.dir)
 	}
 	os.Exit(code)
 }
@@ -363,6 +362,7 @@ func parseHz(t *testing.T, n, prefix string) float64 {
 }
 
 func TestMainJobDeterministic(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	for _, ex := range examples(t) {
 		t.Run(filepath.Base(ex), func(t *testing.T) {
 			first := cachedJob(t, ex)

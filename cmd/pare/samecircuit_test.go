@@ -30,6 +30,7 @@ func sameCircuitFiles(t *testing.T) []string {
 // reviewer's decks) and `verify` failed the reduction the main job never
 // made.
 func TestStagesAndVerifyMatchMainJob(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	for _, path := range sameCircuitFiles(t) {
 		t.Run(filepath.Base(path), func(t *testing.T) {
 			po := jobOptions(path, jobConfig{level: rules.LevelSignal})

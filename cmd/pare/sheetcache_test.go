@@ -19,6 +19,12 @@ import (
 // and shared: these tests only read them. The repeatability of a run is
 // checked where two independent runs are compared (TestMainJobDeterministic,
 // TestDrawExampleSheets, TestDrawMatchesMainJob), never on a cached copy.
+//
+// Tests that read these in-memory results run one after another: a circuit
+// builds its connection index on first use, so two tests reading one result
+// at once could race. Tests that read only the main job's files (cachedJob)
+// and runs of their own call t.Parallel, and share the two cores with the
+// kill test and the browser, which mostly wait.
 var sheetCache struct {
 	sync.Mutex
 	results map[string]*pipeline.Result
@@ -105,4 +111,33 @@ func cachedDraw(t *testing.T, file string, v render.View) []byte {
 	}
 	sheetCache.drawn[k] = out.Bytes()
 	return out.Bytes()
+}
+
+// memo computes each key's value once per test binary: callers of one key
+// wait for the first, callers of other keys go ahead, so tests that run in
+// parallel share the work without queueing behind each other's.
+type memo[K comparable, V any] struct {
+	mu sync.Mutex
+	m  map[K]*memoEntry[V]
+}
+
+type memoEntry[V any] struct {
+	once sync.Once
+	v    V
+	err  error
+}
+
+func (c *memo[K, V]) get(k K, compute func() (V, error)) (V, error) {
+	c.mu.Lock()
+	if c.m == nil {
+		c.m = map[K]*memoEntry[V]{}
+	}
+	e, ok := c.m[k]
+	if !ok {
+		e = &memoEntry[V]{}
+		c.m[k] = e
+	}
+	c.mu.Unlock()
+	e.once.Do(func() { e.v, e.err = compute() })
+	return e.v, e.err
 }

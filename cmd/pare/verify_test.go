@@ -172,6 +172,7 @@ func TestVerifyDeterministic(t *testing.T) {
 // A gang section merged with its padder into one linear range moved the
 // frequency changer's aerial-to-IF transfer by about 20 dB at mid-travel.
 func TestVerifyExamplesAtEveryLevel(t *testing.T) {
+	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	files, _ := filepath.Glob(filepath.Join(root, "examples", "*.toml"))
 	if len(files) == 0 {
 		t.Fatal("no examples found")
