@@ -49,7 +49,7 @@ func TestConverterDecksCommitted(t *testing.T) {
 				t.Fatal(err)
 			}
 			fp := imag(pole) / (2 * math.Pi)
-			deck := tranDeck(t, c, o, tranRun{ref: ref, k: 1, f: fp, cycles: cyclesFor(real(pole), fp)})
+			deck := tranDeck(t, c, o, tranRun{ref: ref, k: 1, f: fp, cycles: cyclesFor(real(pole), fp)}, looseTol)
 			path := strings.TrimSuffix(file, ".toml") + ".cir"
 			if os.Getenv("PARE_WRITE_DECKS") == "1" {
 				if err := os.WriteFile(path, deck, 0o644); err != nil {
