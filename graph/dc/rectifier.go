@@ -17,33 +17,37 @@ import (
 // the voltage the capacitor-input filter gives at the load current the DC
 // solve computes, iterated until the two agree (solveRails).
 //
-// The method is the classical analysis of a capacitor-input filter with a
-// reservoir large enough that the ripple is small beside the peak (the limit
-// of Schade's curves at large ωC·RL: O. H. Schade, "Analysis of rectifier
-// operation", Proc. IRE 31(7), 1943; the ripple as in Sedra and Smith,
-// "Microelectronic Circuits", the peak rectifier):
+// The estimate is the reservoir's periodic steady state: its equation
+// stepped through the mains cycle with the winding's rdc and each
+// junction's own law (Shockley, or the three-halves law of a rectifier
+// valve) until the cycle repeats (rectwave.go). Beside it, as the named
+// cross-check, the classical conduction-angle analysis of a capacitor-input
+// filter with a large reservoir (the limit of Schade's curves at large
+// ωC·RL: O. H. Schade, "Analysis of rectifier operation", Proc. IRE 31(7),
+// 1943; the ripple as in Sedra and Smith, "Microelectronic Circuits", the
+// peak rectifier):
 //
 //	conduction   I = k·Vp·(sin θ − θ·cos θ)/(π·Rs)   θ half the conduction angle, k = 1 half-wave, 2 full-wave
 //	top          Vtop = Vp·cos θ − n·Vd              Vp = √2·Vac across the conducting path, n diodes in it
 //	ripple p-p   Vr = I·(1/f − θ/(π·fmains))/C        f = k·fmains; the discharge lasts the period less the conduction
 //	mean         Vdc = Vtop − Vr/2
 //
-// Rs is the winding's rdc; Vd is each diode's own law (Shockley, or the
-// three-halves law of a rectifier valve) at the mean current while it
-// conducts, π·I/(k·θ). Leakage inductance and the mains transformer's
-// regulation are not modelled. rectifier_test.go checks the estimate against
-// an ngspice transient of the same rectifier (docs/references.md §18).
-const rectifierMethod = "capacitor-input filter by conduction angle (Schade, Proc. IRE 1943): Vdc = Vpeak·cos θ − Vdiodes − ripple/2"
+// with Vd at the mean current while a diode conducts, π·I/(k·θ). Leakage
+// inductance and the mains transformer's regulation are not modelled.
+// rectifier_test.go checks the estimate against an ngspice transient of the
+// same rectifier (docs/references.md §18).
+const rectifierMethod = "capacitor-input filter: the reservoir's periodic steady state over the mains cycle (winding rdc, each junction's own law); cross-check: conduction angle (Schade, Proc. IRE 1943)"
 
 // Estimate is a rail pare estimates from a captured rectifier and reservoir
 // instead of holding it at declared volts.
 type Estimate struct {
 	Net         string  `json:"net"`
 	Volts       float64 `json:"volts"`     // mean DC at the reservoir
+	Formula     float64 `json:"formula"`   // the conduction-angle formula's mean, the cross-check
 	Ripple      float64 `json:"ripple_pp"` // peak-to-peak ripple at the reservoir
 	Amps        float64 `json:"amps"`      // the load current the estimate is taken at
 	Peak        float64 `json:"peak"`      // √2·Vac across the conducting path, open circuit
-	Drop        float64 `json:"drop"`      // diodes and winding at the mean conduction current
+	Drop        float64 `json:"drop"`      // peak less the reservoir's top: diodes and winding
 	Wave        string  `json:"wave"`      // "half-wave", "full-wave centre-tapped", "full-wave bridge"
 	Transformer string  `json:"transformer"`
 	Method      string  `json:"method"`
@@ -83,16 +87,25 @@ func (r *rectifier) drop(i float64) float64 {
 	return r.n * VT * math.Log1p(i/r.is)
 }
 
-// at is the estimate at load current i.
+// at is the estimate at load current i: the reservoir's periodic steady
+// state (rectwave.go), with the conduction-angle formula as its cross-check.
 func (r *rectifier) at(i float64) Estimate {
-	e := Estimate{Net: r.net, Volts: r.peak, Amps: i, Peak: r.peak, Wave: r.wave, Transformer: r.xfmr, Method: rectifierMethod}
+	e := Estimate{Net: r.net, Volts: r.peak, Formula: r.peak, Amps: i, Peak: r.peak, Wave: r.wave, Transformer: r.xfmr, Method: rectifierMethod}
 	if r.dead {
-		e.Volts = 0
+		e.Volts, e.Formula = 0, 0
 		return e
 	}
 	if !(i > 0) {
 		return e
 	}
+	e.Formula = r.formula(i)
+	w := r.steady(i, e.Formula)
+	e.Volts, e.Ripple, e.Drop = math.Max(w.mean, 0), w.top-w.bottom, r.peak-w.top
+	return e
+}
+
+// formula is the conduction-angle estimate of the mean at load current i.
+func (r *rectifier) formula(i float64) float64 {
 	pulses := 1.0 // charging pulses per mains cycle
 	if r.full {
 		pulses = 2
@@ -102,12 +115,11 @@ func (r *rectifier) at(i float64) Estimate {
 	if theta == 0 {
 		iav = i
 	}
-	e.Drop = r.peak*(1-math.Cos(theta)) + float64(r.diodes)*r.drop(iav)
+	drop := r.peak*(1-math.Cos(theta)) + float64(r.diodes)*r.drop(iav)
 	// The reservoir discharges between pulses: the ripple period less the
 	// conduction time 2θ/ω (Vr = I/(f·C) takes the whole period and reads high).
-	e.Ripple = i * (1/r.rippleHz() - theta/(math.Pi*r.hz)) / r.c
-	e.Volts = math.Max(r.peak-e.Drop-e.Ripple/2, 0)
-	return e
+	ripple := i * (1/r.rippleHz() - theta/(math.Pi*r.hz)) / r.c
+	return math.Max(r.peak-drop-ripple/2, 0)
 }
 
 // conductionAngle solves I = k·Vp·(sin θ − θ·cos θ)/(π·Rs) for the half
@@ -181,7 +193,7 @@ func findRectifiers(c *graph.Circuit) ([]rectifier, error) {
 type secondary struct{ name, e1, e2, tap string }
 
 func rectifierOf(c *graph.Circuit, p *graph.Part, vac float64, diodes []rectDiode) (rectifier, error) {
-	sec, err := rectifierWinding(p, diodes)
+	sec, err := rectifierWinding(c, p, diodes)
 	if err != nil {
 		return rectifier{}, err
 	}
@@ -266,37 +278,58 @@ func reservoir(c *graph.Circuit, net string) float64 {
 	return total
 }
 
-// rectifierWinding finds the one winding (or centre-tapped pair) of p with
-// a rectifying junction at an end.
-func rectifierWinding(p *graph.Part, diodes []rectDiode) (secondary, error) {
-	touches := func(n string) bool {
-		for _, d := range diodes {
-			if n != "" && (d.a == n || d.k == n) {
-				return true
-			}
-		}
-		return false
+// rectifierWinding finds the one winding (or centre-tapped pair) of p that
+// feeds the rectifier: the winding with a rectifying junction's anode on an
+// end off chassis. A winding touched only by cathodes is not a source: the
+// filament winding of a directly heated rectifier valve has an end on the
+// cathode (the filament is the cathode, at full HT) and a heater winding
+// with one end at chassis meets the cathodes strapped there; both are the
+// cathodes' connections, not rectifier windings. Without any anode on an
+// end, the windings any junction touches are taken, so that a negative
+// supply or a stray diode gets its own message.
+func rectifierWinding(c *graph.Circuit, p *graph.Part, diodes []rectDiode) (secondary, error) {
+	anodeOn := func(n string) bool {
+		return n != "" && c.RoleOf(n) != graph.Ground && slices.ContainsFunc(diodes, func(d rectDiode) bool { return d.a == n })
 	}
-	var found []secondary
+	touches := func(n string) bool {
+		return n != "" && slices.ContainsFunc(diodes, func(d rectDiode) bool { return d.a == n || d.k == n })
+	}
+	var fed, touched []secondary
+	for _, s := range secondaries(p) {
+		if anodeOn(s.e1) || anodeOn(s.e2) {
+			fed = append(fed, s)
+		}
+		if touches(s.e1) || touches(s.e2) {
+			touched = append(touched, s)
+		}
+	}
+	if len(fed) == 0 {
+		fed = touched
+	}
+	switch len(fed) {
+	case 0:
+		return secondary{}, fmt.Errorf("vac is given but no rectifier diode is connected to its windings")
+	case 1:
+		return fed[0], nil
+	}
+	return secondary{}, fmt.Errorf("vac is given but rectifier anodes hang on %d windings: pare estimates one rectifier winding per transformer", len(fed))
+}
+
+// secondaries lists p's windings with their end nets, a centre-tapped
+// winding (two halves NAMEa, NAME1–NAMEt, and NAMEb, NAMEt–NAME2) as one
+// with its tap.
+func secondaries(p *graph.Part) []secondary {
+	var out []secondary
 	for i := 0; i < len(p.Windings); i++ {
 		w := p.Windings[i]
 		s := secondary{name: w.Name, e1: p.NetOf(w.From), e2: p.NetOf(w.To)}
-		// A centre-tapped winding is two halves NAMEa (NAME1–NAMEt) and NAMEb (NAMEt–NAME2).
 		if i+1 < len(p.Windings) && w.To == p.Windings[i+1].From && w.To[len(w.To)-1] == 't' {
 			s = secondary{name: w.Name[:len(w.Name)-1], e1: p.NetOf(w.From), e2: p.NetOf(p.Windings[i+1].To), tap: p.NetOf(w.To)}
 			i++
 		}
-		if touches(s.e1) || touches(s.e2) {
-			found = append(found, s)
-		}
+		out = append(out, s)
 	}
-	switch len(found) {
-	case 0:
-		return secondary{}, fmt.Errorf("vac is given but no rectifier diode is connected to its windings")
-	case 1:
-		return found[0], nil
-	}
-	return secondary{}, fmt.Errorf("vac is given but rectifiers hang on %d windings: pare estimates one rectifier winding per transformer", len(found))
+	return out
 }
 
 // windingR is the DC resistance in the conducting path: the rectifier
