@@ -134,7 +134,11 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 	if len(ch.Currents) > 0 {
 		fmt.Fprintln(w, "\ncurrents")
 		for _, c := range ch.Currents {
-			fmt.Fprintf(w, "  %-6s %-18s %s\n", c.Ref, c.What, amps(c.Amps))
+			a := amps(c.Amps)
+			if c.Unknown != "" {
+				a = c.Unknown
+			}
+			fmt.Fprintf(w, "  %-6s %-18s %s\n", c.Ref, c.What, a)
 		}
 	}
 	if len(ch.Resistors) > 0 {

@@ -52,6 +52,10 @@ type DevCurrent struct {
 	Ref  string  `json:"ref"`
 	What string  `json:"what"`
 	Amps float64 `json:"amps"`
+	// Unknown says why the current is not computed (Amps is then 0): a
+	// rectifier into a declared rail conducts in pulses from an AC winding
+	// the DC solve does not see.
+	Unknown string `json:"not_computed,omitempty"`
 }
 
 // Heat is the power in a resistor against its rating (0 when not given).
@@ -171,7 +175,7 @@ func (p *Point) chartPart(ch *Chart, part *graph.Part, mt Meter) error {
 func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 	add := func(what, pin string, sign float64) {
 		if part.Pin(pin) != nil {
-			ch.Currents = append(ch.Currents, DevCurrent{part.Ref, what, sign * p.Current(part.Ref, pin)})
+			ch.Currents = append(ch.Currents, DevCurrent{Ref: part.Ref, What: what, Amps: sign * p.Current(part.Ref, pin)})
 		}
 	}
 	if amps, ok := p.rectifierShare(part.Ref); ok {
@@ -180,7 +184,15 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 		// estimated rail's current, as a mean.
 		for _, pin := range []string{"a", "a1", "a2"} {
 			if part.Pin(pin) != nil {
-				ch.Currents = append(ch.Currents, DevCurrent{part.Ref, rectCurrentLabel[part.Kind][pin], amps})
+				ch.Currents = append(ch.Currents, DevCurrent{Ref: part.Ref, What: rectCurrentLabel[part.Kind][pin], Amps: amps})
+			}
+		}
+		return
+	}
+	if why := p.unsolvedRectifier(part); why != "" {
+		for _, pin := range []string{"a", "a1", "a2"} {
+			if part.Pin(pin) != nil {
+				ch.Currents = append(ch.Currents, DevCurrent{Ref: part.Ref, What: plainCurrentLabel[pin], Unknown: why})
 			}
 		}
 		return
@@ -221,6 +233,9 @@ var rectCurrentLabel = map[graph.Kind]map[string]string{
 	graph.Valve: {"a": "anode, mean (est.)", "a1": "anode 1, mean (est.)", "a2": "anode 2, mean (est.)"},
 	graph.Diode: {"a": "forward, mean (est.)"},
 }
+
+// plainCurrentLabel names a junction's current the DC solve gives.
+var plainCurrentLabel = map[string]string{"a": "anode current", "a1": "anode 1 current", "a2": "anode 2 current"}
 
 // rectifierShare is the mean current of each junction of a rectifier
 // part: the estimated rail's load, shared between the two conducting

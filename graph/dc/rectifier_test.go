@@ -173,3 +173,40 @@ func TestRectifierBadInput(t *testing.T) {
 		})
 	}
 }
+
+// TestRectifierCurrentNotComputed: a rectifier into a declared rail (no
+// vac) conducts in pulses from a winding the DC solve sees as a resistor;
+// the chart says its current is not computed instead of the solve's 0 A,
+// which reads as a dead rectifier (a working set draws its whole HT load
+// through it, common practice). A detector diode on a winding with its
+// cathode at chassis keeps its computed current.
+func TestRectifierCurrentNotComputed(t *testing.T) {
+	b, err := os.ReadFile("testdata/rectifier-direct.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := strings.NewReplacer(`vac = "560V", `, "", `ht = { role = "supply",`, `ht = { role = "supply", volts = 300,`,
+		`D1 = { diode = "signal", pins = ["det", "gnd"]`, `D1 = { diode = "signal", pins = ["hx", "gnd"]`).Replace(string(b))
+	c, err := graph.Parse("declared.toml", []byte(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	pt, err := Solve(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ch, err := pt.Chart(Meter{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := map[string]bool{}
+	for _, dc := range ch.Currents {
+		got[dc.Ref+" "+dc.What] = dc.Unknown != ""
+	}
+	want := map[string]bool{"V1 anode 1 current": true, "V1 anode 2 current": true, "D1 forward current": false}
+	for k, w := range want {
+		if g, ok := got[k]; !ok || g != w {
+			t.Errorf("%s: not computed %v (listed %v), want %v; chart currents %+v", k, g, ok, w, ch.Currents)
+		}
+	}
+}
