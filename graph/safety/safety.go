@@ -67,6 +67,10 @@ type Assessment struct {
 	// Evidence names what the choice rests on, in the order found
 	// ("valve V1", "rail above 50 V: ht 250 V"); empty for Unknown.
 	Evidence []string
+	// HotHeaters names each transformer winding that feeds a valve's
+	// heater and sits on the HT ("T9 winding r, V8's heater, on ht_res"):
+	// a directly heated rectifier's filament is its cathode, at full HT.
+	HotHeaters []string
 }
 
 // evidence is what Assess collects while walking the circuit once: one
@@ -77,9 +81,11 @@ type evidence struct {
 	mainsInputs                 []string // parts or nets that bring the mains in
 	mainsTransformers           []string
 	rectifiers                  []string
-	mainsRectifiers             []string // rectifiers with a pin on a mains net
-	chain                       []string // heaters in series, or a heater net above LowVolts
-	acdc                        []string // labels that say AC/DC outright
+	mainsRectifiers             []string        // rectifiers with a pin on a mains net
+	chain                       []string        // heaters in series, or a heater net above LowVolts
+	hot                         map[string]bool // nets at HT: rails above LowVolts, rectifier cathodes
+	hotHeaters                  []string        // heater windings on a hot net
+	acdc                        []string        // labels that say AC/DC outright
 	maxVolts                    float64
 }
 
@@ -89,7 +95,7 @@ func Assess(c *graph.Circuit) Assessment {
 		return Assessment{Class: Unknown}
 	}
 	ev := collect(c)
-	a := Assessment{MaxVolts: ev.maxVolts, Valves: len(ev.valves)}
+	a := Assessment{MaxVolts: ev.maxVolts, Valves: len(ev.valves), HotHeaters: ev.hotHeaters}
 	var unfed []string // a mains input that feeds no transformer
 	if len(ev.mainsTransformers) == 0 {
 		unfed = ev.mainsInputs
@@ -144,7 +150,7 @@ func summary(gs ...group) []string {
 }
 
 func collect(c *graph.Circuit) *evidence {
-	ev := &evidence{mainsNets: map[string]bool{}}
+	ev := &evidence{mainsNets: map[string]bool{}, hot: map[string]bool{}}
 	// Mains ports and parts first: a net they already name is not listed
 	// again on its own.
 	for _, p := range c.Parts {
@@ -193,7 +199,51 @@ func collect(c *graph.Circuit) *evidence {
 		partEvidence(ev, p, supply)
 	}
 	ev.chain = append(ev.chain, seriesHeaters(c)...)
+	ev.hotHeaters = hotHeaterWindings(c, ev.hot)
 	return ev
+}
+
+// hotHeaterWindings finds the transformer windings that feed a valve's
+// heater with an end on a net at HT. The filament of a directly heated
+// rectifier valve is its cathode, so its winding sits at the full HT: its
+// tags, leads and the valve's filament pins are live at HT though the
+// winding gives only a few volts (common practice: technicians are warned
+// of it). A heater winding returned to chassis is not listed.
+func hotHeaterWindings(c *graph.Circuit, hot map[string]bool) []string {
+	var out []string
+	for _, p := range c.Parts {
+		if p.Kind != graph.Transformer {
+			continue
+		}
+		for _, w := range p.Windings {
+			ends := []string{p.NetOf(w.From), p.NetOf(w.To)}
+			var on string
+			for _, e := range ends {
+				if hot[e] {
+					on = e
+				}
+			}
+			if on == "" {
+				continue
+			}
+			if v := heatedBy(c, ends); v != "" {
+				out = append(out, fmt.Sprintf("%s winding %s, %s's heater, on %s", p.Ref, w.Name, v, on))
+			}
+		}
+	}
+	return out
+}
+
+// heatedBy names the first valve with a heater pin on one of nets, or "".
+func heatedBy(c *graph.Circuit, nets []string) string {
+	for _, n := range nets {
+		for _, cn := range c.ConnsOf(n) {
+			if cn.Part.Kind == graph.Valve && graph.RoleOfPin(graph.Valve, cn.Pin) == graph.RoleHeater {
+				return cn.Part.Ref
+			}
+		}
+	}
+	return ""
 }
 
 // spreadMains follows the mains from the nets that bring it in through
@@ -251,6 +301,7 @@ func railEvidence(ev *evidence, n *graph.Net) {
 		ev.chain = append(ev.chain, fmt.Sprintf("heater net %s at %s V", n.Name, volts(n.Volts)))
 	case v > LowVolts:
 		ev.highRails = append(ev.highRails, what)
+		ev.hot[n.Name] = n.Role == graph.Supply
 	default:
 		ev.lowRails = append(ev.lowRails, what)
 	}
@@ -269,6 +320,7 @@ func partEvidence(ev *evidence, p *graph.Part, supply map[string]bool) {
 		// reservoir: a rectifier. One on a signal net is a detector.
 		if (p.Type == "diode" || p.Type == "double-diode") && supply[p.NetOf("k")] {
 			ev.rectifiers = append(ev.rectifiers, p.Ref)
+			ev.hot[p.NetOf("k")] = true // the HT it charges, declared or estimated
 			if onMains {
 				ev.mainsRectifiers = append(ev.mainsRectifiers, p.Ref)
 			}

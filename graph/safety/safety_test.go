@@ -1,6 +1,7 @@
 package safety
 
 import (
+	"os"
 	"path/filepath"
 	"regexp"
 	"strings"
@@ -261,3 +262,49 @@ func TestReadingsCaution(t *testing.T) {
 
 // liveWord finds "live" as a word (not inside "deliver").
 var liveWord = regexp.MustCompile(`(?i)\blive\b`)
+
+// TestHotHeaterWinding: a heater winding with an end on the HT (a directly
+// heated rectifier's filament is its cathode) gets its own caution line,
+// and only then (common practice: technicians are warned that the
+// rectifier's filament winding sits at the full HT).
+func TestHotHeaterWinding(t *testing.T) {
+	direct, err := os.ReadFile(filepath.Join(repo, "graph/dc/testdata/rectifier-direct.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct {
+		name, text string
+		want       string // the winding named, "" for none
+	}{
+		{"directly heated rectifier", string(direct), "T1 winding r, V1's heater, on ht"},
+		{"directly heated, HT declared", strings.Replace(string(direct), `role = "supply",`, `role = "supply", volts = 300,`, 1), "T1 winding r, V1's heater, on ht"},
+		// Near miss: the same rectifier indirectly heated from the 6.3 V
+		// winding returned to chassis: no winding at HT.
+		{"indirectly heated rectifier", strings.Replace(string(direct), `h1 = "ht", h2 = "fil"`, `h1 = "hx", h2 = "gnd"`, 1), ""},
+		// Near miss: valves heated from a chassis-returned winding, a
+		// semiconductor rectifier.
+		{"heaters to chassis", parallelNet, ""},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			c, err := graph.Parse(tc.name+".toml", []byte(tc.text))
+			if err != nil {
+				t.Fatal(err)
+			}
+			ca := For(c)
+			lines := strings.Join(ca.Lines, "\n")
+			has := strings.Contains(lines, "sits at the full HT")
+			if tc.want == "" {
+				if has || len(ca.HotHeaters) > 0 {
+					t.Errorf("caution speaks of a heater winding at HT: %q", ca.HotHeaters)
+				}
+				return
+			}
+			if !has || !strings.Contains(lines, tc.want) {
+				t.Errorf("caution lines lack the heater winding at HT %q:\n%s", tc.want, lines)
+			}
+			if !strings.Contains(lines, "licensed practice") {
+				t.Errorf("caution no longer defers to licensed practice")
+			}
+		})
+	}
+}

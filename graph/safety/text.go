@@ -39,6 +39,9 @@ func (a Assessment) Caution() Caution {
 	for _, l := range t.lines {
 		lines = append(lines, strings.ReplaceAll(l, "{volts}", volts(a.MaxVolts)))
 	}
+	if len(a.HotHeaters) > 0 {
+		lines = append(lines, fmt.Sprintf(hotHeaterLine, strings.Join(a.HotHeaters, "; ")))
+	}
 	lines = append(lines, codesLine, smallSignalLine)
 	sentence := t.sentence
 	if a.Class == MainsHT && a.Valves == 0 {
@@ -154,6 +157,11 @@ const (
 	acdcLine      = "AC/DC (live-chassis) sets can put mains on the chassis. Power them through an isolation transformer, and never clip an earthed scope ground to an unisolated chassis."
 	slowLine      = "Bring an old set up slowly (variac or a series lamp), and replace suspect mains-side capacitors and perished wiring first."
 )
+
+// hotHeaterLine warns of a heater winding at HT (a directly heated
+// rectifier's filament is its cathode): a few volts across it, the full HT
+// to chassis (common practice).
+const hotHeaterLine = "A heater winding here sits at the full HT (%s): a directly heated rectifier's filament is its cathode. Its tags, leads and the valve's heater pins are live at HT though the winding gives only a few volts: never treat it as a low-voltage heater supply or clip a meter to it as one."
 
 // mainsSentence is the MainsHT report sentence for a set without valves.
 const mainsSentence = "Mains-powered sets carry lethal voltages on the mains side and on any rail above 50 V; capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
