@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -21,6 +22,8 @@ var rectifierCases = []struct{ file, net, wave string }{
 	{"testdata/rectifier-valve.toml", "ht", "full-wave centre-tapped"},
 	{"testdata/rectifier-half.toml", "raw", "half-wave"},
 	{"testdata/rectifier-direct.toml", "ht", "full-wave centre-tapped"},
+	// The flagship's supply: directly heated rectifier valve, whole set's load.
+	{"../../examples/club-receiver.toml", "ht_res", "full-wave centre-tapped"},
 }
 
 // transientDeck is the rectifier and reservoir alone for an ngspice
@@ -74,8 +77,8 @@ func diode(b *strings.Builder, r rectifier, name, a, k string) {
 
 // TestRectifierAgainstNgspiceTransient checks each estimated rail against
 // an ngspice 39 transient of the same rectifier and reservoir with a
-// resistive load of the computed current (transientDeck, committed beside
-// the fixture as testdata/NAME.cir; -update rewrites them): the
+// resistive load of the computed current (transientDeck, committed as
+// testdata/NAME.cir; -update rewrites them): the
 // steady-state mean within 0.5 % and the ripple within 3 % (the estimate
 // steps the same equation; the margin is the time step). The
 // conduction-angle formula, the named cross-check, within 5 % of ngspice
@@ -99,7 +102,7 @@ func TestRectifierAgainstNgspiceTransient(t *testing.T) {
 			if v, _ := pt.Volts(tc.net); v != e.Volts {
 				t.Errorf("rail %s solved at %g V, estimate %g V", tc.net, v, e.Volts)
 			}
-			deck := committedDeck(t, strings.TrimSuffix(tc.file, ".toml")+".cir", transientDeck(pt.m.rects[0], *e))
+			deck := committedDeck(t, "testdata/"+strings.TrimSuffix(filepath.Base(tc.file), ".toml")+".cir", transientDeck(pt.m.rects[0], *e))
 			got := runOPList(t, bin, deck)
 			if len(got) != 2 {
 				t.Fatalf("ngspice printed %v, want the mean and the ripple", got)
