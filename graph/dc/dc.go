@@ -32,10 +32,11 @@ type Point struct {
 	Estimates []Estimate
 
 	m    *model
-	v    []float64     // free node voltages
-	sys  *system       // the healthy system, for meter readings
-	fsys *system       // one system shared by the faults that keep the topology
-	osc  *[]Oscillator // found on first use (oscillator.go)
+	v    []float64           // free node voltages
+	sys  *system             // the healthy system, for meter readings
+	fsys *system             // one system shared by the faults that keep the topology
+	sims map[Fault]simulated // each fault's solve, kept for the next Rank (simulated)
+	osc  *[]Oscillator       // found on first use (oscillator.go)
 }
 
 // NetV is the DC voltage of one net.

@@ -146,7 +146,7 @@ func (p *Point) Rank(rd *Readings) (*Diagnosis, error) {
 		f.AsStopped = f.Oscillator != nil && f.Oscillator.Shows && counts && math.Abs(d) <= 1
 	}
 	for _, f := range p.Faults() {
-		sim, err := p.Simulate(f)
+		sim, err := p.simulated(f)
 		if err != nil {
 			dg.Unsolved = append(dg.Unsolved, f)
 			continue
@@ -223,4 +223,25 @@ func (dg *Diagnosis) next(p *Point, rd *Readings) {
 		}
 	}
 	dg.NextMeter = rd.Meter
+}
+
+// simulated is one fault's solve, kept on the Point: a fault's circuit
+// does not depend on the readings, and with an estimated rail each solve
+// steps the reservoir through the mains (rectwave.go), so ranking several
+// sets of readings on one set solves each fault once.
+type simulated struct {
+	sim *Faulted
+	err error
+}
+
+func (p *Point) simulated(f Fault) (*Faulted, error) {
+	if s, ok := p.sims[f]; ok {
+		return s.sim, s.err
+	}
+	sim, err := p.Simulate(f)
+	if p.sims == nil {
+		p.sims = map[Fault]simulated{}
+	}
+	p.sims[f] = simulated{sim, err}
+	return sim, err
 }

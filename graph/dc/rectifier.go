@@ -66,6 +66,12 @@ type rectifier struct {
 	parts           []string // the rectifying diodes' refs
 	sec             string   // the rectifier winding's name (a centre-tapped one: its halves' stem)
 	dead            bool     // a fault stops it rectifying (railfault.go)
+	// warm is the last steady state found (rectwave.go): its cycle's start
+	// voltage and the formula's mean then, the next search's start.
+	warm struct {
+		set            bool
+		start, formula float64
+	}
 }
 
 // rippleHz is the ripple frequency: the mains for half-wave, twice it for
@@ -357,7 +363,8 @@ func (m *model) solveRails() ([]float64, string, int, error) {
 		moved := 0.0
 		parts := partCurrents(m, v)
 		m.estimates = m.estimates[:0]
-		for k, r := range m.rects {
+		for k := range m.rects {
+			r := &m.rects[k] // keeps its warm start across the rounds
 			e := r.at(m.drawn(parts, r.net))
 			moved = math.Max(moved, math.Abs(e.Volts-m.fixedV[m.rectFixed[k]]))
 			m.fixedV[m.rectFixed[k]] = e.Volts

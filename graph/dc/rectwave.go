@@ -21,51 +21,70 @@ import "math"
 // stepsPerCycle: steps per mains cycle (50 µs at 50 Hz; 1000 moves the mean by under 0.02 %).
 const stepsPerCycle = 400
 
+// sinTable is sin ωt at each step of a mains cycle.
+var sinTable = func() []float64 {
+	t := make([]float64, stepsPerCycle+1)
+	for n := range t {
+		t[n] = math.Sin(2 * math.Pi * float64(n) / stepsPerCycle)
+	}
+	return t
+}()
+
 // wave is the periodic steady state: mean, top and bottom of the reservoir.
 type wave struct{ mean, top, bottom float64 }
 
-// steady finds the reservoir's periodic steady state at load current i,
-// starting the search from v0.
+// steady finds the reservoir's periodic steady state at load current i:
+// the secant method on the start voltage v of one ripple cycle, the
+// cycle's end less v. The search starts from the last steady state this
+// rectifier found, moved by the formula's change (v0 is the formula's
+// mean at i); the rail iterations and a fault's bisection ask at nearby
+// currents, so it settles in two or three cycles. It stops at 1e-11 of the
+// peak (nanovolts), far below the microvolt the rail iterations settle to,
+// so the estimate does not depend on where the search started.
 func (r *rectifier) steady(i, v0 float64) wave {
-	period := func(start float64) (float64, wave) {
-		return r.cycle(i, start)
+	a := v0
+	if r.warm.set {
+		a = r.warm.start + v0 - r.warm.formula
 	}
-	a := math.Min(v0, r.peak)
-	fa, _ := period(a)
+	a = math.Max(math.Min(a, r.peak), 0)
+	fa, w := r.cycle(i, a)
 	fa -= a
 	b := a + fa // one cycle on: the first step of a fixed-point iteration
-	for n := 0; n < 30; n++ {
-		fb, w := period(b)
+	for n := 0; n < 30 && math.Abs(fa) >= 1e-11*r.peak; n++ {
+		var fb float64
+		fb, w = r.cycle(i, b)
 		fb -= b
-		if math.Abs(fb) < 1e-7*r.peak || fb == fa {
-			return w
+		if math.Abs(fb) < 1e-11*r.peak || fb == fa {
+			a = b
+			break
 		}
 		a, b, fa = b, b-fb*(b-a)/(fb-fa), fb
 		b = math.Max(math.Min(b, r.peak), 0)
 	}
-	_, w := period(b)
+	r.warm.set, r.warm.start, r.warm.formula = true, a, v0
 	return w
 }
 
-// cycle steps the reservoir through one mains cycle from v and returns
-// where it ends and the cycle's mean, top and bottom.
-
+// cycle steps the reservoir through one ripple cycle (half the mains cycle
+// full-wave: e(t) = Vp·|sin ωt| repeats) from v and returns where it ends
+// and the cycle's mean, top and bottom.
 func (r *rectifier) cycle(i, v float64) (float64, wave) {
 	h := 1 / (r.hz * stepsPerCycle)
+	steps := stepsPerCycle
+	if r.full {
+		steps /= 2
+	}
 	w := wave{top: v, bottom: v}
 	sum, u := 0.0, 0.0
-	for n := 1; n <= stepsPerCycle; n++ {
-		e := r.peak * math.Sin(2*math.Pi*float64(n)/stepsPerCycle)
-		if r.full {
-			e = math.Abs(e)
-		}
+	for n := 1; n <= steps; n++ {
+		e := r.peak * sinTable[n]
 		// Backward Euler: V = v + h·(j − i)/C and e − V = j·Rs + n·Vd(j).
 		j := r.junctionCurrent(e-v+h*i/r.c, r.rs+h/r.c, &u)
 		v += h * (j - i) / r.c
 		sum += v
 		w.top, w.bottom = math.Max(w.top, v), math.Min(w.bottom, v)
 	}
-	w.mean = sum / stepsPerCycle
+	w.mean = sum / float64(steps)
 	return v, w
 }
 
@@ -81,7 +100,12 @@ func (r *rectifier) junctionCurrent(b, res float64, u *float64) float64 {
 		return 0
 	}
 	n := float64(r.diodes)
-	hi := math.Min(b/n, r.drop(b/res))
+	hi := b / n // at most the whole drive across the junctions
+	if !r.valve {
+		// Shockley's exponential overflows far above the root: bound u by
+		// the current the resistance alone would pass.
+		hi = math.Min(hi, r.drop(b/res))
+	}
 	x := math.Min(math.Max(*u, 0), hi)
 	for k := 0; k < 100; k++ {
 		j, dj := r.junctionI(x)
