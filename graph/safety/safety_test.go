@@ -266,7 +266,7 @@ var liveWord = regexp.MustCompile(`(?i)\blive\b`)
 // TestHotHeaterWinding: a heater winding with an end on the HT (a directly
 // heated rectifier's filament is its cathode) gets its own caution line,
 // and only then (common practice: technicians are warned that the
-// rectifier's filament winding sits at the full HT).
+// rectifier's filament winding sits at the full HT; docs/references.md §9).
 func TestHotHeaterWinding(t *testing.T) {
 	direct, err := os.ReadFile(filepath.Join(repo, "graph/dc/testdata/rectifier-direct.toml"))
 	if err != nil {
