@@ -42,6 +42,7 @@ var figureNames = []figName{
 	{name: "track_err_max", label: "track err max"},
 	{name: "track_err_at", label: "track err at"},
 	{name: "track_fit", label: "fitted set tracks exactly at"},
+	{name: "track_bw", label: "signal tank bandwidth at worst"},
 	{name: "pad_c", label: "padder", group: suggestedDesign},
 	{name: "pad_l", label: "coil", group: suggestedDesign},
 	{name: "pad_trim", label: "trimmer", group: suggestedDesign},

@@ -90,7 +90,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	budget := &limit
 	var orig *world
 	if o.Full != nil {
-		orig = newWorld(o.Full, false, acg)
+		orig = newWorldJoined(o.Full, false, acg, switchJoins(o.Full))
 	}
 	order := signalOrder(reduced)
 	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)

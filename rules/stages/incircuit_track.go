@@ -38,8 +38,12 @@ type dialCurve func(th float64) (fs, fo float64, ok bool)
 // ends of the travel (index 0 at least capacitance).
 type trackWalk struct {
 	worst, worstAt float64
+	worstTh        float64 // the gang setting of the worst error
 	fits           []float64
 	fs, fo         [2]float64
+	// bwAtWorst is the signal tank's loaded −3 dB bandwidth in circuit at
+	// the worst setting (the solver's walk only; 0 when not found).
+	bwAtWorst float64
 }
 
 // walkDial walks curve at n+1 settings from least to full capacitance: the
@@ -63,7 +67,7 @@ func walkDial(curve dialCurve, ifHz float64, n, refine int) (trackWalk, bool) {
 			w.fs[k], w.fo[k] = fs, e+fs+ifHz
 		}
 		if i == 0 || math.Abs(e) > math.Abs(w.worst) {
-			w.worst, w.worstAt = e, fs
+			w.worst, w.worstAt, w.worstTh = e, fs, th
 		}
 		switch {
 		case e == 0:
@@ -196,7 +200,31 @@ func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackW
 		gosc.solved(th, fo)
 		return fs, fo, ok
 	}
-	return walkDial(curve, ifHz, trackSettings, trackRefine)
+	walk, ok := walkDial(curve, ifHz, trackSettings, trackRefine)
+	if ok {
+		walk.bwAtWorst = tankBandwidth(c, sn, walk.worstTh, walk.worstAt)
+	}
+	return walk, ok
+}
+
+// tankBandwidth is a tank's loaded −3 dB bandwidth in circuit c at gang
+// setting th, from the peak of its impedance near f: the band a signal
+// must fall in to be passed at no more than 3 dB down. 0 when a −3 dB
+// point is missing.
+func tankBandwidth(c *graph.Circuit, t tankNets, th, f float64) float64 {
+	r, err := tankResponse(c, t, gang{frac: th})
+	if err != nil {
+		return 0
+	}
+	f0, mag, ok := peakOf(r, f/trackNear, f*trackNear)
+	if !ok {
+		return 0
+	}
+	q := qOfPeak(r, f0, mag, f0/tankSearch, f0*tankSearch)
+	if math.IsNaN(q) || q <= 0 {
+		return 0
+	}
+	return f0 / q
 }
 
 // gangSection is the first ganged variable capacitor among caps, nil when

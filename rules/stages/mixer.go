@@ -358,12 +358,34 @@ func (t *tankModel) original(oc coilEnds, orig *world) *tankModel {
 }
 
 // findGangTank finds the other section of a gang and the tank it tunes: a
-// coil and the capacitors across the same two nets.
+// coil and the capacitors across the same two nets. Where the gang has
+// more than one signal section (aerial and RF tanks of a set with an RF
+// stage), it is the one furthest from the inputs: the tank that feeds the
+// mixer, whose pass-band the oscillator must land the IF in.
 func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *tankModel {
+	var best *tankModel
+	bestD := -1
+	dist := w.signalDist()
+	for _, t := range gangTanks(w, osc, exclude) {
+		d, ok := dist[t.gangRef(osc.Gang)]
+		if !ok {
+			d = 0
+		}
+		if d > bestD {
+			best, bestD = t, d
+		}
+	}
+	return best
+}
+
+// gangTanks are the tanks the other sections of osc's gang tune, in the
+// world's part order.
+func gangTanks(w *world, osc *graph.Part, exclude []*graph.Part) []*tankModel {
 	skip := map[*graph.Part]bool{}
 	for _, p := range exclude {
 		skip[p] = true
 	}
+	var out []*tankModel
 	for ci, p := range w.parts {
 		if p == osc || skip[p] || p.Gang != osc.Gang || p.Kind != graph.Capacitor || len(p.Pins) != 2 {
 			continue
@@ -391,10 +413,10 @@ func findGangTank(w *world, osc *graph.Part, exclude []*graph.Part) *tankModel {
 			}
 		}
 		if t.l > 0 {
-			return t
+			out = append(out, t)
 		}
 	}
-	return nil
+	return out
 }
 
 // coldBypass is how many times a tank's largest tuning capacitance a

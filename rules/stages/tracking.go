@@ -91,11 +91,30 @@ func (x *figCtx) trackingError(formula trackWalk, sv *trackWalk, ifHz float64, w
 		solved, worst = errFig(*sv, figure.BySolver(trackWhat, gangWalk)), *sv
 	}
 	x.putChecked(solved, check, why)
-	// Common practice, no source: tracking should stay well inside the IF
-	// pass-band; 2 % of the IF (9 kHz at 455 kHz) is taken as the line.
-	if math.Abs(worst.worst) > 0.02*ifHz {
-		x.flag("oscillator tracking is off by up to %s (at %s on the dial): check the padder and trimmers", hz(worst.worst), hz(worst.worstAt))
+	if sv != nil && sv.bwAtWorst > 0 {
+		x.put(figure.Figure{Name: "track_bw", Unit: figure.Hertz, Value: sv.bwAtWorst,
+			Origin: figure.BySolver("−3 dB width of |Z| across the signal tank at the setting of the worst error", "that gang setting")})
 	}
+	if why := mistracks(worst, ifHz); why != "" {
+		x.flag("oscillator tracking is off by up to %s (at %s on the dial): %s; check the padder and trimmers", hz(worst.worst), hz(worst.worstAt), why)
+	}
+}
+
+// mistracks says why a tracking error is too large, or "". Two lines,
+// either enough (common practice, no source): the error must stay well
+// inside the IF pass-band, 2 % of the IF (9 kHz at 455 kHz); and the
+// station the oscillator brings to the IF must fall inside the signal
+// tank's own −3 dB band, half its loaded bandwidth either side of its
+// peak, or the tank passes it more than 3 dB down.
+func mistracks(w trackWalk, ifHz float64) string {
+	e := math.Abs(w.worst)
+	switch {
+	case w.bwAtWorst > 0 && e > w.bwAtWorst/2:
+		return fmt.Sprintf("%s times the signal tank's loaded bandwidth there (%s in circuit), so the station heard lies outside that tank's −3 dB band and the set loses sensitivity", figure.Plain(e/w.bwAtWorst), hz(w.bwAtWorst))
+	case e > 0.02*ifHz:
+		return fmt.Sprintf("more than 2 %% of the IF (%s)", hz(0.02*ifHz))
+	}
+	return ""
 }
 
 // gangWalk is where the solver's tracking figures were solved.

@@ -63,19 +63,43 @@ type coil struct {
 const groundNet = 0
 
 func newWorld(c *graph.Circuit, full bool, acGround map[string]bool) *world {
+	return newWorldJoined(c, full, acGround, nil)
+}
+
+// newWorldJoined is newWorld with the nets of each set in join made one
+// (join maps a net to its set's representative; nil joins nothing).
+func newWorldJoined(c *graph.Circuit, full bool, acGround map[string]bool, join map[string]string) *world {
 	w := &world{c: c, full: full, netID: map[string]int{}, byKind: map[graph.Kind][]int{}}
 	w.names = append(w.names, "⏚")
 	w.role = append(w.role, graph.Ground)
+	folded := map[string]bool{}
 	for _, n := range c.Nets {
-		folded := n.Role == graph.Ground
+		f := n.Role == graph.Ground
 		if !full {
-			folded = n.Role.IsACGround() || acGround[n.Name]
+			f = n.Role.IsACGround() || acGround[n.Name]
 		}
-		if folded {
+		if f {
+			folded[n.Name] = true
+			if r, ok := join[n.Name]; ok {
+				folded[r] = true
+			}
+		}
+	}
+	repID := map[string]int{}
+	for _, n := range c.Nets {
+		r, joined := join[n.Name]
+		if folded[n.Name] || joined && folded[r] {
 			w.netID[n.Name] = groundNet
 			continue
 		}
+		if id, ok := repID[r]; joined && ok {
+			w.netID[n.Name] = id
+			continue
+		}
 		w.netID[n.Name] = len(w.names)
+		if joined {
+			repID[r] = w.netID[n.Name]
+		}
 		w.names = append(w.names, n.Name)
 		w.role = append(w.role, n.Role)
 	}
@@ -179,4 +203,36 @@ func (w *world) pinNet(i int, name string) int {
 		}
 	}
 	return -1
+}
+
+// switchJoins maps each net a switch at its set position joins to another
+// to the representative of the nets so joined: a closed contact is a wire,
+// so a tuned circuit reached through a wavechange wafer is one tank (as the
+// AC solver sees it, graph/ac's elaboration). Nets no closed contact
+// touches are absent.
+func switchJoins(c *graph.Circuit) map[string]string {
+	var sets graph.NamedSets
+	var touched []string
+	for _, p := range c.Parts {
+		pos := int(p.Set)
+		if p.Kind != graph.Switch || pos < 1 || pos > len(p.Closes) {
+			continue
+		}
+		for _, pr := range p.Closes[pos-1] {
+			a, b := p.NetOf(pr[0]), p.NetOf(pr[1])
+			if a == "" || b == "" || a == "nc" || b == "nc" {
+				continue
+			}
+			sets.Union(a, b)
+			touched = append(touched, a, b)
+		}
+	}
+	if len(touched) == 0 {
+		return nil
+	}
+	out := make(map[string]string, len(touched))
+	for _, n := range touched {
+		out[n] = sets.Find(n)
+	}
+	return out
 }

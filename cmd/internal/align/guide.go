@@ -97,6 +97,7 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 	g.IF, g.IFFrom = setIF(c, mix)
 	g.FM = fmDetector(sts) || g.IF >= fmIFMin
 	g.ifSteps(c, sts)
+	g.trapSteps(switched(c))
 	g.tracking(c, sts)
 	g.coverage(c, sts)
 	for i := range g.Steps {

@@ -22,6 +22,7 @@ import (
 // says plainly in the procedure why there are none: a ganged oscillator is
 // never left without its trimmers named.
 func (g *Guide) tracking(c *graph.Circuit, sts []stages.Stage) {
+	c = switched(c)
 	gangs := gangSections(c)
 	why := "pare recognised no oscillator tuned by the gang (no mixer-oscillator and no oscillator stage on " + refList(gangs) + ")"
 	mix := mixerStage(sts)
@@ -129,7 +130,7 @@ func (g *Guide) loopTracking(c *graph.Circuit, sts []stages.Stage, osc *stages.S
 	lo, hi, of := dialPoints(c, sigSt, sMin, sMax)
 	from := fmt.Sprintf("the customary tracking points at 6 %% and 91.5 %% of %s (common practice, docs/references.md §2); oscillator %s: loop, 0° of loop phase",
 		of, osc.Name)
-	g.trackSteps(c, ot, sig, lo, hi, from)
+	g.trackSteps(c, ot, lo, hi, from)
 	return ""
 }
 

@@ -20,6 +20,7 @@ const trackLimit = 0.02
 // coil.
 type tank struct {
 	gang, trimmer, padder, coil *graph.Part
+	aerial                      bool // a signal tank whose coil is on the aerial input
 }
 
 // trackingSteps adds the oscillator and aerial/RF tracking (common
@@ -32,7 +33,6 @@ func (g *Guide) trackingSteps(c *graph.Circuit, mix *stages.Stage) string {
 	if osc.gang == nil {
 		return mix.Name + " has no ganged tuning capacitor among its parts"
 	}
-	sig := sigTank(c, osc.gang)
 	lo, hi, from, why := g.trackPoints(mix)
 	if why != "" {
 		return why
@@ -40,13 +40,13 @@ func (g *Guide) trackingSteps(c *graph.Circuit, mix *stages.Stage) string {
 	g.ends(c, mix)
 	lo, hi, from = g.keepOnDial(c, lo, hi, from)
 	g.trackWarnings(mix, osc)
-	g.trackSteps(c, osc, sig, lo, hi, from)
+	g.trackSteps(c, osc, lo, hi, from)
 	return ""
 }
 
 // trackSteps adds the tracking steps proper at the low and high tracking
 // points lo and hi (dial frequencies; from says where they come from).
-func (g *Guide) trackSteps(c *graph.Circuit, osc, sig tank, lo, hi float64, from string) {
+func (g *Guide) trackSteps(c *graph.Circuit, osc tank, lo, hi float64, from string) {
 	g.aerialInto = "the aerial socket through a dummy aerial (common practice)"
 	if len(c.Inputs) > 0 {
 		g.aerialInto = fmt.Sprintf("the aerial input (net %s) through a dummy aerial (common practice)", c.Inputs[0])
@@ -57,14 +57,17 @@ func (g *Guide) trackSteps(c *graph.Circuit, osc, sig tank, lo, hi float64, from
 	if len(g.Steps)-first == 2 {
 		g.Repeat = append(g.Repeat, "repeat the two oscillator steps until both hold: each pulls the other (common practice)")
 	}
-	if sig.gang == nil {
-		return
-	}
-	first = len(g.Steps)
-	g.addEnd(sig.trimmer, "aerial trimmer", "aerial/RF", hi, from, "no aerial trimmer is captured on "+sig.gang.Ref+": the aerial circuit cannot be peaked at the high end")
-	g.addEnd(coreOf(sig.coil), "", "aerial/RF", lo, from, rfLowMissing(sig))
-	if len(g.Steps)-first == 2 {
-		g.Repeat = append(g.Repeat, "repeat the two aerial/RF steps until both peak (common practice)")
+	for _, t := range sigTanks(c, osc.gang) {
+		word := "aerial"
+		if !t.aerial {
+			word = "RF"
+		}
+		first = len(g.Steps)
+		g.addEnd(t.trimmer, word+" trimmer", "aerial/RF", hi, from, "no "+word+" trimmer is captured on "+t.gang.Ref+": its tuned circuit cannot be peaked at the high end")
+		g.addEnd(coreOf(t.coil), "", "aerial/RF", lo, from, rfLowMissing(t))
+		if len(g.Steps)-first == 2 {
+			g.Repeat = append(g.Repeat, "repeat the two "+word+" steps ("+t.gang.Ref+") until both peak (common practice)")
+		}
 	}
 }
 
@@ -134,10 +137,20 @@ func (g *Guide) ends(c *graph.Circuit, mix *stages.Stage) {
 	}
 }
 
-// trackWarnings says when the oscillator cannot track.
+// trackWarnings says when the oscillator cannot track: its error beyond
+// 2 % of the IF, or beyond half the signal tank's loaded bandwidth where
+// the stage solved it (track_bw: the station then lies outside that tank's
+// −3 dB band).
 func (g *Guide) trackWarnings(mix *stages.Stage, osc tank) {
 	e, ok := mix.Figures.Get("track_err_max")
-	if !ok || g.IF <= 0 || math.Abs(e.Value) <= trackLimit*g.IF {
+	if !ok || g.IF <= 0 {
+		return
+	}
+	limit, line := trackLimit*g.IF, "2 % of the IF, common practice"
+	if bw, ok := mix.Figures.Get("track_bw"); ok && bw.Value > 0 && bw.Value/2 < limit {
+		limit, line = bw.Value/2, fmt.Sprintf("half the signal tank's loaded bandwidth of %s there, in circuit: the station lies outside its −3 dB band", hz(bw.Value))
+	}
+	if math.Abs(e.Value) <= limit {
 		return
 	}
 	at := ""
@@ -145,10 +158,10 @@ func (g *Guide) trackWarnings(mix *stages.Stage, osc tank) {
 		at = " at " + hz(e.At.Value)
 	}
 	if osc.padder == nil {
-		g.Warnings = append(g.Warnings, fmt.Sprintf("this oscillator has no padder and pare's tracking error is %s%s, above %s (2 %% of the IF, common practice): it cannot track over the dial, whatever the trimmers", hz(e.Value), at, hz(trackLimit*g.IF)))
+		g.Warnings = append(g.Warnings, fmt.Sprintf("this oscillator has no padder and pare's tracking error is %s%s, above %s (%s): it cannot track over the dial, whatever the trimmers", hz(e.Value), at, hz(limit), line))
 		return
 	}
-	g.Warnings = append(g.Warnings, fmt.Sprintf("pare's tracking error for the parts as captured is %s%s, above %s (2 %% of the IF, common practice): the two-point alignment should bring it in; if it does not, check the padder %s's value", hz(e.Value), at, hz(trackLimit*g.IF), osc.padder.Ref))
+	g.Warnings = append(g.Warnings, fmt.Sprintf("the set mistracks: pare's tracking error for the parts as captured is %s%s, above %s (%s): the two-point alignment should bring it in; if it does not, check the padder %s's value", hz(e.Value), at, hz(limit), line, osc.padder.Ref))
 }
 
 // oscTank finds the mixer's oscillator gang section and what sits on it.
@@ -216,22 +229,34 @@ func farEnd(coil *graph.Part, net string) string {
 	return ""
 }
 
-// sigTank is the signal section ganged with the oscillator's.
+// sigTank is the first signal section ganged with the oscillator's.
 func sigTank(c *graph.Circuit, oscGang *graph.Part) tank {
-	var t tank
+	if ts := sigTanks(c, oscGang); len(ts) > 0 {
+		return ts[len(ts)-1]
+	}
+	return tank{}
+}
+
+// sigTanks are the signal sections ganged with the oscillator's, in the
+// order they are peaked (common practice: from the mixer back): RF tanks
+// first, the aerial tank (its coil on the aerial input) last.
+func sigTanks(c *graph.Circuit, oscGang *graph.Part) []tank {
+	var rf, aerial []tank
 	for _, p := range c.Parts {
-		if p != oscGang && p.Kind == graph.Capacitor && p.Gang == oscGang.Gang && p.Type == graph.CapVariable {
-			t.gang = p
-			break
+		if p == oscGang || p.Kind != graph.Capacitor || p.Gang != oscGang.Gang || p.Type != graph.CapVariable {
+			continue
 		}
+		t := tank{gang: p}
+		hot := hotNet(c, p)
+		t.trimmer = shuntTrimmer(c, hot, p)
+		t.coil = coilOn(c, hot)
+		if t.aerial = t.coil != nil && len(c.Inputs) > 0 && slices.Contains(netsOf(t.coil), c.Inputs[0]); t.aerial || len(c.Inputs) == 0 {
+			aerial = append(aerial, t)
+			continue
+		}
+		rf = append(rf, t)
 	}
-	if t.gang == nil {
-		return t
-	}
-	hot := hotNet(c, t.gang)
-	t.trimmer = shuntTrimmer(c, hot, t.gang)
-	t.coil = coilOn(c, hot)
-	return t
+	return append(rf, aerial...)
 }
 
 // hotNet is a gang section's net away from ground.
@@ -309,7 +334,7 @@ func lowMissing(t tank) string {
 		coil = t.coil.Ref
 	}
 	if t.padder != nil {
-		return fmt.Sprintf("the low end cannot be set: the padder %s is fixed and no adjustable core is captured on %s (add adjust = \"core\" if it has one)", t.padder.Ref, coil)
+		return fmt.Sprintf("the low end cannot be set: the padder %s is fixed and no adjustable core is captured on %s (add adjust = \"core\" if it has one): if the low end is off, check %s's value", t.padder.Ref, coil, t.padder.Ref)
 	}
 	return fmt.Sprintf("the low end cannot be set: no padder and no adjustable core is captured on %s", coil)
 }
@@ -317,6 +342,9 @@ func lowMissing(t tank) string {
 func rfLowMissing(t tank) string {
 	if t.coil == nil {
 		return "no aerial coil found on " + t.gang.Ref + ": the low end of the aerial circuit cannot be peaked"
+	}
+	if !t.aerial {
+		return fmt.Sprintf("no adjustable core is captured on the RF coil %s: the low end of %s's tuned circuit cannot be peaked (add adjust = \"core\" if it has one)", t.coil.Ref, t.gang.Ref)
 	}
 	return fmt.Sprintf("no adjustable core is captured on the aerial coil %s: on a ferrite rod the low end is peaked by sliding the winding along the rod (common practice); add adjust = \"core\" if the coil has a core", t.coil.Ref)
 }
