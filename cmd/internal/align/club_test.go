@@ -3,6 +3,8 @@ package align_test
 import (
 	"strings"
 	"testing"
+
+	"pare/cmd/internal/align"
 )
 
 // A three-gang set with an RF stage, a wavechange switch between every
@@ -39,5 +41,46 @@ func TestClubReceiverFullProcedure(t *testing.T) {
 		if !strings.Contains(warn, w) {
 			t.Errorf("no warning saying %q:\n%s", w, warn)
 		}
+	}
+}
+
+// The injection table's levels come from a linear model: rows that ask a
+// generator for less than 1 µV (common practice: a service generator's
+// least trustworthy level and about a valve set's noise at its first grid)
+// must say so, the table must say the AGC is ignored and how to hold it,
+// and a row whose level depends on a control must name its position (RV1,
+// the volume control, as captured at mid-travel: the loader's default
+// set = 0.5, docs/netlist.md). The club receiver's rows at V2's grid, V1's
+// grid and the aerial ask 0.04 µV, 0.002 µV and 8e-05 µV.
+func TestClubReceiverInjectionCaveats(t *testing.T) {
+	_, g := build(t, example("club-receiver"))
+	var text strings.Builder
+	if err := align.WriteText(&text, g); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(text.String(), "ignores the AGC: hold the AGC line") {
+		t.Errorf("the table does not say the AGC is ignored:\n%s", text.String())
+	}
+	low, vol := 0, false
+	for _, in := range g.Inject {
+		if in.Why != "" {
+			continue
+		}
+		below := in.Level < 1e-6
+		if says := strings.Contains(in.Caveat, "below 1 µV"); says != below {
+			t.Errorf("%s at %g V: caveat %q (below 1 µV: %v)", in.Where, in.Level, in.Caveat, below)
+		}
+		if below {
+			low++
+		}
+		if in.Band == "audio" && strings.Contains(in.Where, "detector") {
+			vol = strings.Contains(in.Caveat, "RV1 at 50 % of its travel")
+		}
+	}
+	if low < 3 {
+		t.Errorf("%d rows below 1 µV, want the 3 the review found (V2 grid, V1 grid, aerial)", low)
+	}
+	if !vol {
+		t.Errorf("the detector-load row does not state RV1's position")
 	}
 }

@@ -27,6 +27,9 @@ type Guide struct {
 	// Caution is the caution of the set's class for work on a live set
 	// (graph/safety): alignment and signal tracing are done switched on.
 	Caution []string
+	// AGC is the set's AGC line ("" when none is found): the injection
+	// table, a linear model, holds with it held at its no-signal voltage.
+	AGC string
 	// IF is the set's intermediate frequency in hertz (0: none known) and
 	// IFFrom where it was read ("S2 IF", "[freqs] if"); FM marks an FM IF
 	// strip (a discriminator or ratio detector recognised).
@@ -85,6 +88,7 @@ type End struct {
 func Build(title string, c *graph.Circuit, sts []stages.Stage, caution safety.Caution) *Guide {
 	g := procedure(c, sts)
 	g.Title, g.Caution = title, caution.Alignment()
+	g.AGC = agcNet(c)
 	g.Inject, g.InjectErr = injections(c, sts, g)
 	g.Hints = hintsFor(c, sts, g.IF)
 	return g

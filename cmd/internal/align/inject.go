@@ -38,6 +38,10 @@ type Injection struct {
 	// not be solved, or its result is no level a bench could meet); the
 	// other rows stand.
 	Why string
+	// Caveat says what the row's level assumes that the bench must set up
+	// (a control's position, the AGC held), or that the level is below
+	// what a generator gives; "" when nothing.
+	Caveat string
 }
 
 // Options is the AC solver's setting for the row.

@@ -45,7 +45,9 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	if p.mixer {
 		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF row before it is referred to this row's level"
 	}
-	in.Why = implausible(in)
+	if in.Why = implausible(in); in.Why == "" {
+		in.Caveat = caveats(c, in)
+	}
 	return in, nil
 }
 

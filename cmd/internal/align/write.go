@@ -35,7 +35,7 @@ func WriteText(w io.Writer, g *Guide) error {
 	for _, l := range closing {
 		fmt.Fprintf(&b, "%s\n", l)
 	}
-	fmt.Fprintf(&b, "\nSignal injection, from the output back to the input (levels from the AC solver on the whole circuit; %s):\n", sourceNote)
+	fmt.Fprintf(&b, "\nSignal injection, from the output back to the input (levels from the AC solver on the whole circuit; %s):\n", g.injectNote())
 	for i, in := range g.Inject {
 		fmt.Fprintf(&b, "  %d. %s\n", i+1, injectLine(in))
 	}
@@ -76,7 +76,7 @@ func WriteMarkdown(w io.Writer, g *Guide) error {
 	for _, l := range closing {
 		fmt.Fprintf(&b, "- %s\n", esc.Markdown(l))
 	}
-	fmt.Fprintf(&b, "\n### Signal injection\n\nFrom the output back to the input; levels from the AC solver on the whole circuit as captured; %s.\n\n", esc.Markdown(sourceNote))
+	fmt.Fprintf(&b, "\n### Signal injection\n\nFrom the output back to the input; levels from the AC solver on the whole circuit as captured; %s.\n\n", esc.Markdown(g.injectNote()))
 	if len(g.Inject) > 0 {
 		b.WriteString("| # | inject at | frequency | level | gives | stage gain |\n|---|---|---|---|---|---|\n")
 		for i, in := range g.Inject {
@@ -201,6 +201,18 @@ func gainCell(in Injection) string {
 // dummy aerial.
 const sourceNote = "each level is the voltage on the point itself, driven by a generator of zero source impedance (an ideal source in the solver); through a dummy aerial or a coupling capacitor the generator must be set higher, and the aerial circuit tunes a little lower"
 
+// injectNote is sourceNote, and for a set with an AGC line what the linear
+// model leaves out: the AGC would cut the gain of the controlled stages
+// as the signal grows, so the table holds for an AGC line held at its
+// no-signal voltage (common practice: clamp it to a bias supply or bridge
+// it to chassis through a few volts' battery).
+func (g *Guide) injectNote() string {
+	if g.AGC == "" {
+		return sourceNote
+	}
+	return sourceNote + fmt.Sprintf("; the model is linear and ignores the AGC: hold the AGC line (%s) at its no-signal voltage while injecting (common practice), or the levels before the detector come out higher", g.AGC)
+}
+
 func freqNote(in Injection) string {
 	if in.Tuned {
 		return fmt.Sprintf(" (set tuned to it: gang %.0f %% of the way from fully open to fully meshed)", in.Gang*100)
@@ -212,6 +224,9 @@ func gainText(in Injection) string {
 	s := fmt.Sprintf("×%s (%s) to %s", figure.Format(in.Gain, figure.Ratio, figure.Text), figure.Format(db(in.Gain), figure.Decibel, figure.Text), in.GainTo)
 	if in.GainNote != "" {
 		s += ", " + in.GainNote
+	}
+	if in.Caveat != "" {
+		s += "; " + in.Caveat
 	}
 	return s
 }
