@@ -23,7 +23,7 @@ var calcs map[string]calc
 
 func init() {
 	calcs = map[string]calc{
-		"tank":         {args: []string{"coil", "caps", "winding", "check"}, required: []string{"coil", "caps"}, wordArgs: []string{"winding", "check"}, fn: calcTank},
+		"tank":         {args: []string{"coil", "caps", "winding", "check", "other_caps"}, required: []string{"coil", "caps"}, wordArgs: []string{"winding", "check"}, fn: calcTank},
 		"hartley":      {args: []string{"coil", "caps"}, required: []string{"coil", "caps"}, fn: calcHartley},
 		"colpitts":     {args: []string{"coil", "c1", "c2"}, required: []string{"coil", "c1", "c2"}, fn: calcColpitts},
 		"clapp":        {args: []string{"coil", "c1", "c2", "c3"}, required: []string{"coil", "c1", "c2", "c3"}, fn: calcClapp},
@@ -40,7 +40,7 @@ func init() {
 		"coupling":     {args: []string{"c"}, required: []string{"c"}, fn: calcCoupling},
 		"value":        {args: []string{"part", "name"}, required: []string{"part", "name"}, wordArgs: []string{"name"}, fn: calcValue},
 		"ratio":        {args: []string{"xfmr"}, required: []string{"xfmr"}, fn: calcRatio},
-		"tuned-gain":   {args: []string{"device", "coil", "winding", "caps"}, required: []string{"device", "coil", "caps"}, wordArgs: []string{"winding"}, fn: calcTunedGain},
+		"tuned-gain":   {args: []string{"device", "coil", "winding", "caps", "secondary", "other_caps"}, required: []string{"device", "coil", "caps"}, netArgs: []string{"secondary"}, wordArgs: []string{"winding"}, fn: calcTunedGain},
 	}
 }
 

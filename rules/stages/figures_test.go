@@ -176,8 +176,15 @@ C1 = { c = "122.354p", pins = ["o", "ht"] }
 C2 = { c = "122.354p", pins = ["s", "gnd"] }`, "amp-tuned", "r_dyn_ohm", 285.885e3, 2e-5},
 	{"tuned gain", "fet", "", `@Q1(in, gnd, o)
 T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C1 = { c = "122.354p", pins = ["o", "ht"] }`, "amp-tuned", "gain", -1429.42, 2e-5},
+	// Both sides tuned: the gain is to the secondary, the next stage's
+	// input. Double-tuned transformer at its centre (handbook formula, from
+	// memory): |A| = gm·√(Rd1·Rd2)·X/(1 + X²), X = k·√(Q1·Q2) = 0.01·100 =
+	// 1 (critical coupling) → 5 mS · 285.885 kΩ / 2 = 714.71 (derived).
+	{"tuned gain to secondary", "fet", "", `@Q1(in, gnd, o)
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
 C1 = { c = "122.354p", pins = ["o", "ht"] }
-C2 = { c = "122.354p", pins = ["s", "gnd"] }`, "amp-tuned", "gain", -1429.42, 2e-5},
+C2 = { c = "122.354p", pins = ["s", "gnd"] }`, "amp-tuned", "gain", 714.712, 2e-5},
 	// Collector on a tap a third of the turns up (75 µH of 675 µH, fully
 	// coupled: n = √75/(√75+√300) = 1/3, derived): 38.6817 mS (§5, Ic 1 mA)
 	// × Rd/9 with Rd = 110 · 2π · 456.596 kHz · 675 µH = 213.014 kΩ → −915.53.

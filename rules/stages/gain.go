@@ -310,6 +310,9 @@ func calcTunedGain(x *figCtx) {
 		origin = byTunedGainNoRout
 	}
 	check := figure.Figure{Name: "gain", Unit: figure.Ratio, Value: -gm * parallel(rd*n*n, rOut), Origin: origin}
+	if x.tunedSecondaryGain(p, gm, rd*n*n, rOut, f0) {
+		return
+	}
 	sv, why := x.solveTunedGain(p, rd*n*n, rOut)
 	x.putChecked(sv, &check, why)
 }

@@ -69,6 +69,12 @@ func calcTank(x *figCtx) {
 	if !ok {
 		return
 	}
+	if restore, ok := x.uncoupleTuned(); ok {
+		// A transformer tuned on both sides is tuned as an aligner peaks
+		// each side: with the other's coupling out (calcDoubleTuned), so
+		// the pair's split is not read as this side's frequency.
+		defer restore()
+	}
 	x.tankFigures(c.ref, c.l, c.a, c.b, x.parts("caps"))
 	x.loadedQ(c.ref, c.q)
 	if x.word("check", "") == "if" {
@@ -225,3 +231,21 @@ func calcRatio(x *figCtx) {
 
 // sqrt is math.Sqrt for match.go, which joins tapped windings with it.
 func sqrt(x float64) float64 { return math.Sqrt(x) }
+
+// uncoupleTuned, where the figure names the other winding's tuning
+// capacitors (other_caps) and they are there, has the solver see the
+// coil's transformer with its windings uncoupled until restore is called.
+func (x *figCtx) uncoupleTuned() (restore func(), ok bool) {
+	names := x.spec.Args["coil"]
+	if len(x.parts("other_caps")) == 0 || len(names) == 0 {
+		return nil, false
+	}
+	i := x.index(names[0])
+	if i < 0 || len(x.m.coils[i]) < 2 {
+		return nil, false
+	}
+	ci := x.m.parts[i]
+	sub := x.sub
+	x.sub = withPart(x.solverCircuit(), x.w.uncoupled(ci, x.m.coils[i][0], x.m.coils[i][1]))
+	return func() { x.sub = sub }, true
+}
