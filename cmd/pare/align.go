@@ -72,5 +72,7 @@ func alignGuide(path string) (*align.Guide, error) {
 	if err != nil {
 		return nil, err
 	}
-	return align.Build(res.Title, res.Circuit, res.Stages, res.Caution), nil
+	g := align.Build(res.Title, res.Circuit, res.Stages, res.Caution)
+	g.AddBands(res.Circuit, res.Stages, res.BandRun)
+	return g, nil
 }

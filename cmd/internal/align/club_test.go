@@ -84,3 +84,28 @@ func TestClubReceiverInjectionCaveats(t *testing.T) {
 		t.Errorf("the detector-load row does not state RV1's position")
 	}
 }
+
+// Every band of a wavechange switch is aligned on its own after the IF
+// (common practice), with the trimmers that band switches in: on the club
+// receiver's LW (every wafer at 2) the oscillator trimmer TC5, the RF
+// trimmer TC3 and the aerial trimmer TC1, not the MW trimmers on the gang
+// sections themselves, at LW's own tracking points (below 300 kHz: LW as
+// captured tunes 149.5–284.8 kHz).
+func TestClubReceiverAlignsEveryBand(t *testing.T) {
+	r, g := build(t, example("club-receiver"))
+	g.AddBands(r.Circuit, r.Stages, r.BandRun)
+	var got []string
+	for _, s := range g.Steps {
+		if s.Band == "" {
+			continue
+		}
+		got = append(got, s.Phase+" "+s.Part)
+		if s.Freq <= 0 || s.Freq > 300e3 {
+			t.Errorf("band step %s at %g Hz, want a LW tracking point", s.Part, s.Freq)
+		}
+	}
+	want := []string{"oscillator TC5", "aerial/RF TC3", "aerial/RF TC1"}
+	if strings.Join(got, ", ") != strings.Join(want, ", ") {
+		t.Errorf("band steps %v, want %v\nwarnings: %v", got, want, g.Warnings)
+	}
+}

@@ -30,6 +30,9 @@ type Guide struct {
 	// AGC is the set's AGC line ("" when none is found): the injection
 	// table, a linear model, holds with it held at its no-signal voltage.
 	AGC string
+	// band are the parts the wavechange switch puts in circuit at its set
+	// position only (bandParts): a band's own trimmers.
+	band map[string]bool
 	// IF is the set's intermediate frequency in hertz (0: none known) and
 	// IFFrom where it was read ("S2 IF", "[freqs] if"); FM marks an FM IF
 	// strip (a discriminator or ratio detector recognised).
@@ -75,6 +78,9 @@ type Step struct {
 	Into            string // where the generator goes: "the mixer's grid (V1 g1, net osc_g)"
 	Watch           string // what to watch and for what
 	From            string // where the frequency comes from: "S2 track_fit"
+	// Band names the wavechange position the step is done at ("" for the
+	// set as captured): "band 2 (S1a, S1b at position 2)".
+	Band string
 }
 
 // End is what one end of the dial should show.

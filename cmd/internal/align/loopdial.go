@@ -22,6 +22,7 @@ import (
 // says plainly in the procedure why there are none: a ganged oscillator is
 // never left without its trimmers named.
 func (g *Guide) tracking(c *graph.Circuit, sts []stages.Stage) {
+	g.band = bandParts(c)
 	c = switched(c)
 	gangs := gangSections(c)
 	why := "pare recognised no oscillator tuned by the gang (no mixer-oscillator and no oscillator stage on " + refList(gangs) + ")"

@@ -51,6 +51,7 @@ func (g *Guide) trackSteps(c *graph.Circuit, osc tank, lo, hi float64, from stri
 	if len(c.Inputs) > 0 {
 		g.aerialInto = fmt.Sprintf("the aerial input (net %s) through a dummy aerial (common practice)", c.Inputs[0])
 	}
+	osc.trimmer = g.bandTrimmer(c, osc)
 	first := len(g.Steps)
 	g.addEnd(osc.trimmer, "oscillator trimmer", "oscillator", hi, from, "no oscillator trimmer is captured on "+osc.gang.Ref+": the high end of the dial cannot be set")
 	g.addEnd(lowSetter(osc), "", "oscillator", lo, from, lowMissing(osc))
@@ -58,6 +59,7 @@ func (g *Guide) trackSteps(c *graph.Circuit, osc tank, lo, hi float64, from stri
 		g.Repeat = append(g.Repeat, "repeat the two oscillator steps until both hold: each pulls the other (common practice)")
 	}
 	for _, t := range sigTanks(c, osc.gang) {
+		t.trimmer = g.bandTrimmer(c, t)
 		word := "aerial"
 		if !t.aerial {
 			word = "RF"
@@ -66,7 +68,7 @@ func (g *Guide) trackSteps(c *graph.Circuit, osc tank, lo, hi float64, from stri
 		g.addEnd(t.trimmer, word+" trimmer", "aerial/RF", hi, from, "no "+word+" trimmer is captured on "+t.gang.Ref+": its tuned circuit cannot be peaked at the high end")
 		g.addEnd(coreOf(t.coil), "", "aerial/RF", lo, from, rfLowMissing(t))
 		if len(g.Steps)-first == 2 {
-			g.Repeat = append(g.Repeat, "repeat the two "+word+" steps ("+t.gang.Ref+") until both peak (common practice)")
+			g.Repeat = append(g.Repeat, "repeat the two aerial/RF steps on "+t.gang.Ref+" ("+word+" trimmer and core) until both peak (common practice)")
 		}
 	}
 }
@@ -352,3 +354,25 @@ func rfLowMissing(t tank) string {
 func hz(v float64) string { return figure.Format(v, figure.Hertz, figure.Text) }
 
 func hzList(vs []float64) string { return figure.Points(vs, figure.Hertz, figure.Text) }
+
+// bandTrimmer is the trimmer to turn on tank t: of the trimmers on its
+// gang section's net, its coil's or its padder's, one the wavechange
+// switch puts in circuit with this band only (g.band) before one that is
+// in circuit on every band; else the tank's own.
+func (g *Guide) bandTrimmer(c *graph.Circuit, t tank) *graph.Part {
+	if t.trimmer != nil && g.band[t.trimmer.Ref] || len(g.band) == 0 || t.gang == nil {
+		return t.trimmer
+	}
+	nets := []string{hotNet(c, t.gang)}
+	for _, p := range []*graph.Part{t.coil, t.padder} {
+		if p != nil {
+			nets = append(nets, netsOf(p)...)
+		}
+	}
+	for _, p := range trimmersOn(c, nets) {
+		if p != t.padder && g.band[p.Ref] {
+			return p
+		}
+	}
+	return t.trimmer
+}

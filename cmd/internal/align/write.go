@@ -128,10 +128,14 @@ func (g *Guide) procedure() (intro string, items []item, closing []string) {
 			practice, order, hz(g.IF), g.IFFrom, kind, genWord(g.FM), flat, practice)
 	}
 	for i, s := range g.Steps {
-		it := item{n: s.N, text: fmt.Sprintf("%s, %s, %s: turn the %s.", s.Phase, hz(s.Freq), genAt(s), s.What),
+		phase := s.Phase
+		if s.Band != "" {
+			phase = cap1(s.Band) + ", " + s.Phase
+		}
+		it := item{n: s.N, text: fmt.Sprintf("%s, %s, %s: turn the %s.", phase, hz(s.Freq), genAt(s), s.What),
 			how: "How: " + s.Watch + " (frequency: " + s.From + ")."}
-		if i+1 == len(g.Steps) || g.Steps[i+1].Phase != s.Phase {
-			it.repeatsAfter = g.repeatFor(s.Phase)
+		if i+1 == len(g.Steps) || g.Steps[i+1].Phase != s.Phase || g.Steps[i+1].Band != s.Band {
+			it.repeatsAfter = g.repeatFor(s.Phase, s.Band)
 		}
 		items = append(items, it)
 	}
@@ -144,10 +148,16 @@ func (g *Guide) procedure() (intro string, items []item, closing []string) {
 	return intro, items, append(closing, warnLines(g.Warnings)...)
 }
 
-func (g *Guide) repeatFor(phase string) []string {
+// repeatFor are the repeat lines of a phase in a band ("" the set as
+// captured): a band's own lines start with its label.
+func (g *Guide) repeatFor(phase, band string) []string {
 	var out []string
 	for _, r := range g.Repeat {
-		if strings.Contains(r, phase) {
+		rest, inBand := strings.CutPrefix(r, band+": ")
+		if band == "" {
+			rest, inBand = r, !strings.HasPrefix(r, "band ")
+		}
+		if inBand && strings.Contains(rest, phase) {
 			out = append(out, cap1(r)+".")
 		}
 	}

@@ -58,6 +58,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 	n.DC = dcFrom(r)
 	if r.Stages != nil {
 		n.Align = align.Build(r.Title, r.Circuit, r.Stages, r.Caution)
+		n.Align.AddBands(r.Circuit, r.Stages, r.BandRun)
 	}
 	return n
 }

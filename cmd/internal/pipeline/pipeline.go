@@ -14,6 +14,7 @@ import (
 	"errors"
 	"fmt"
 	"path/filepath"
+	"sort"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -75,6 +76,10 @@ const (
 type Options struct {
 	Path  string // the netlist file
 	Until Phase  // last phase to run; 0 means PhaseSheets
+	// Positions sets switches (by ref) to a position other than the
+	// netlist's, as if the set's knob were turned before the run: the
+	// alignment of another band of a wavechange switch.
+	Positions map[string]int
 
 	// Reduction.
 	Level       rules.Level
@@ -119,6 +124,7 @@ func (e *Error) Unwrap() error { return e.Err }
 // Result is everything the pipeline made of one netlist. Fields of phases
 // that did not run are zero.
 type Result struct {
+	opts    Options // what the run was asked (BandRun reruns with them)
 	Path    string
 	Title   string // the netlist's title, or its file name
 	Circuit *graph.Circuit
@@ -171,9 +177,12 @@ func Run(o Options) (*Result, error) {
 	if until == 0 {
 		until = PhaseSheets
 	}
-	r := &Result{Path: o.Path, Level: o.Level, Compare: o.Compare}
+	r := &Result{Path: o.Path, Level: o.Level, Compare: o.Compare, opts: o}
 	c, err := graph.LoadFile(o.Path)
 	if err != nil {
+		return r, &Error{Phase: PhaseLoad, Err: err}
+	}
+	if err := setPositions(c, o.Positions); err != nil {
 		return r, &Error{Phase: PhaseLoad, Err: err}
 	}
 	r.Circuit, r.Title, r.Caution = c, c.Title, safety.For(c)
@@ -278,4 +287,37 @@ func (r *Result) compare(orig, reduced *graph.Circuit, memo *ac.Memo) (*ac.Repor
 	o := r.Compare
 	o.Memo = memo
 	return ac.Compare(orig, reduced, o)
+}
+
+// setPositions turns each named switch to its position.
+func setPositions(c *graph.Circuit, pos map[string]int) error {
+	refs := make([]string, 0, len(pos))
+	for ref := range pos {
+		refs = append(refs, ref)
+	}
+	sort.Strings(refs)
+	for _, ref := range refs {
+		p := c.Part(ref)
+		if p == nil || p.Kind != graph.Switch || pos[ref] < 1 || pos[ref] > len(p.Closes) {
+			return fmt.Errorf("%s: no switch with a position %d", ref, pos[ref])
+		}
+		p.Set = float64(pos[ref])
+	}
+	return nil
+}
+
+// BandRun reruns the pipeline that made r up to its stages with the
+// switches turned to the positions given, every other option the same:
+// another band of a wavechange switch, recognised as this one was.
+func (r *Result) BandRun(positions map[string]int) (*graph.Circuit, []stages.Stage, error) {
+	o := r.opts
+	o.Positions, o.Until, o.Verify, o.Views = positions, PhaseStages, false, nil
+	if o.Path == "" {
+		return nil, nil, fmt.Errorf("no netlist file to run again")
+	}
+	b, err := Run(o)
+	if err != nil {
+		return nil, nil, err
+	}
+	return b.Circuit, b.Stages, nil
 }
