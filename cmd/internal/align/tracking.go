@@ -244,9 +244,13 @@ func sigTank(c *graph.Circuit, oscGang *graph.Part) tank {
 // first, the aerial tank (its coil on the aerial input) last.
 func sigTanks(c *graph.Circuit, oscGang *graph.Part) []tank {
 	var rf, aerial []tank
+	oscHot := hotNet(c, oscGang)
 	for _, p := range c.Parts {
 		if p == oscGang || p.Kind != graph.Capacitor || p.Gang != oscGang.Gang || p.Type != graph.CapVariable {
 			continue
+		}
+		if hotNet(c, p) == oscHot {
+			continue // a section in parallel with the oscillator's (or switched onto it) tunes the same tank
 		}
 		t := tank{gang: p}
 		hot := hotNet(c, p)
