@@ -1,6 +1,7 @@
 package graph
 
 import (
+	"math"
 	"sort"
 
 	"pare/graph/value"
@@ -93,6 +94,22 @@ func (c *Circuit) BandOf(p *Part) value.Range {
 		return r.Band
 	}
 	return c.Band
+}
+
+// BandCentre is the geometric centre of the band a part works in (its
+// region's, else the default band, else the span of all bands; 1 kHz when
+// no band is declared): the frequency at which a coil's q is its Q, so the
+// solver's winding loss (graph/ac) and the reduction's judgements (rules)
+// take the same series resistance.
+func (c *Circuit) BandCentre(p *Part) float64 {
+	b := c.BandOf(p)
+	if b.Min <= 0 || b.Max <= 0 {
+		b = c.FullBand()
+	}
+	if b.Min <= 0 || b.Max <= 0 {
+		return 1e3
+	}
+	return math.Sqrt(b.Min * b.Max)
 }
 
 // Region returns the region with the given name, or nil.

@@ -11,8 +11,10 @@ import (
 // small against everything else the net sees towards AC ground. "Everything
 // else" is a lower bound (parallel combination of each terminal's least
 // impedance: resistors, coils, a cathode's (ra + RL)/(µ + 1), an anode's
-// ra …, from graph/device's model), so the judgement errs towards keeping a
-// capacitor. A capacitor that resonates
+// ra …, from graph/device's model; a winding tuned to AC ground at its far
+// end, a coil's cold end, counts as the tank's loss resistance over the
+// whole band, since the capacitor is in series with the tank), so the
+// judgement errs towards keeping a capacitor. A capacitor that resonates
 // with a coil on the same net inside or near the band is a tuned circuit and
 // never a bypass.
 var bypass = Rule{
@@ -57,7 +59,7 @@ func bypassGuard(x *Ctx, m *Plan) (bool, string) {
 			", inside or near the band " + hz(lo) + "–" + hz(hi) + ": a tuned circuit, not a bypass"
 	}
 	xc := 1 / (omega(lo) * capMin(p))
-	z, branches := x.LowerZ(net, lo, p)
+	z, branches := x.LowerZIn(net, lo, hi, p)
 	limit := x.ratio * z
 	at := "|Xc| at " + x.bandWhy(lo, from, p) + " = " + ohms(xc)
 	if math.IsInf(z, 1) {

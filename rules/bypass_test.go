@@ -192,3 +192,56 @@ func TestBypassRatioOption(t *testing.T) {
 		t.Fatalf("with ratio 0.5 the bypass should fire:\n%s", logText(log))
 	}
 }
+
+// A capacitor at the cold end of a tuned winding (the winding returned to a
+// feed, an AGC line say, through a resistor, with the capacitor to chassis)
+// is in series with the tank: the tuning capacitance goes from the hot end to
+// chassis, so the tank's loop closes through it. At resonance the loop's
+// reactances cancel and what is left is the coil's loss, R = ω0·L/Q
+// (derived: ω0 = 2π·√(150 kHz × 285 kHz), 2.3 mH, Q 60: 49.799 Ω), so the
+// capacitor's reactance at the band's low edge is judged against that, not
+// against ωL (2.1677 kΩ at 150 kHz, which took 10 nF as a bypass and
+// detuned the tank). Xc = 1/(2πfC) at 150 kHz (derived): 10 nF 106.10 Ω,
+// 200 nF 5.3052 Ω, 250 nF 4.2441 Ω, against 0.1 × 49.799 Ω ∥ 470 kΩ.
+func TestBypassColdEndOfTank(t *testing.T) {
+	cases := []struct {
+		c       string
+		grounds bool
+		xc      string
+	}{
+		{"10n", false, "106.1 Ω"},
+		{"200n", false, "5.3052 Ω"},
+		{"250n", true, "4.2441 Ω"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.c, func(t *testing.T) {
+			src := fmt.Sprintf(`
+band = "150k..285k"
+inputs = ["in"]
+outputs = ["out"]
+[nets]
+ht = { role = "supply", volts = 250 }
+[parts]
+C9 = { c = "10p", pins = ["in", "hot"] }
+L1 = { windings = { s = "2m3" }, q = 60, pins = { s1 = "hot", s2 = "cold" } }
+VC1 = { c = "12p..365p", pins = ["hot", "gnd"] }
+R1 = { r = "470k", pins = ["cold", "gnd"] }
+C1 = { c = %q, pins = ["cold", "gnd"] }
+V1 = { valve = "triode", pins = { a = "out", g1 = "hot", k = "gnd" }, gm = "2mA/V", ra = "10k" }
+R2 = { r = "47k", pins = ["out", "ht"] }
+`, tc.c)
+			_, log := reduceChecked(t, parse(t, src), Options{Level: LevelSignal})
+			text := logText(log)
+			var fired bool
+			for _, s := range stepsOf(log, "bypass") {
+				fired = fired || strings.Contains(s.Why, "C1 ")
+			}
+			if fired != tc.grounds {
+				t.Fatalf("bypass of C1 = %v, want %v\n%s", fired, tc.grounds, text)
+			}
+			if !strings.Contains(text, tc.xc) || !strings.Contains(text, "loss R 49.799 Ω") {
+				t.Errorf("the why should give |Xc| = %s against the loss R 49.799 Ω:\n%s", tc.xc, text)
+			}
+		})
+	}
+}

@@ -143,6 +143,18 @@ func (x *Ctx) LowerZ(net string, f float64, skip ...*graph.Part) (float64, strin
 // output electrode (commonBranch). The load itself is bounded without it,
 // so the look-ahead is one net deep and ends on any circuit.
 func (x *Ctx) lowerZ(net string, f float64, withLoad bool, skip ...*graph.Part) (float64, string) {
+	return x.lowerZIn(net, f, 0, withLoad, skip...)
+}
+
+// LowerZIn is LowerZ over the band lo..hi: a winding whose far end is tuned
+// to AC ground in that band counts as the tank's loop (tunedLoop), whose
+// reactances cancel at resonance, instead of its ωL at lo.
+func (x *Ctx) LowerZIn(net string, lo, hi float64, skip ...*graph.Part) (float64, string) {
+	return x.lowerZIn(net, lo, hi, true, skip...)
+}
+
+// lowerZIn is lowerZ; hi > 0 asks for the tuned-loop check over f..hi.
+func (x *Ctx) lowerZIn(net string, f, hi float64, withLoad bool, skip ...*graph.Part) (float64, string) {
 	y := 0.0
 	var texts, opens []string
 	for _, cn := range x.Conns(net) {
@@ -153,6 +165,9 @@ func (x *Ctx) lowerZ(net string, f float64, withLoad bool, skip ...*graph.Part) 
 		switch {
 		case cn.Part.Kind == graph.Inductor || cn.Part.Kind == graph.Transformer:
 			b = x.throughCoil(cn.Part, cn.Pin, net, f, b)
+			if loop, ok := x.tunedLoop(cn.Part, cn.Pin, net, f, hi); hi > 0 && ok && loop.z < b.z {
+				b = loop
+			}
 		case withLoad && cn.Part.IsActive() && graph.RoleOfPin(cn.Part.Kind, cn.Pin) == graph.RoleCommon:
 			b = x.commonBranch(cn.Part, cn.Pin, f)
 		}

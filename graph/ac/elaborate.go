@@ -298,7 +298,7 @@ func (nl *netlist) windings(c *graph.Circuit, p *graph.Part, node func(string) i
 		}
 		return
 	}
-	loss := device.WindingLoss(p, 2*math.Pi*bandCentre(c, p))
+	loss := device.WindingLoss(p, 2*math.Pi*c.BandCentre(p))
 	var ws []winding
 	index := map[string]int{}
 	for wi, w := range p.Windings {
@@ -347,16 +347,4 @@ func (nl *netlist) windings(c *graph.Circuit, p *graph.Part, node func(string) i
 	if len(g.winds) > 0 {
 		nl.groups = append(nl.groups, g)
 	}
-}
-
-// bandCentre is the geometric centre of the band a part works in.
-func bandCentre(c *graph.Circuit, p *graph.Part) float64 {
-	b := c.BandOf(p)
-	if b.Min <= 0 || b.Max <= 0 {
-		b = c.FullBand()
-	}
-	if b.Min <= 0 || b.Max <= 0 {
-		return 1e3 // no band at all: loss judged at 1 kHz
-	}
-	return math.Sqrt(b.Min * b.Max)
 }
