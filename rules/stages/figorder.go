@@ -71,6 +71,7 @@ var figureNames = []figName{
 	{name: "regen_loop", label: "reaction loop gain", inDB: true},
 	{name: "r_reflected", label: "reflected load"},
 	{name: "f_top_cut", label: "top-cut f"},
+	{name: "top_cut", label: "cut at band top", inDB: true},
 	{name: "q_mult", label: "Q multiplied by"},
 	{name: "k", label: "k"},
 	{name: "kc", label: "kc"},

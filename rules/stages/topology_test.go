@@ -622,6 +622,20 @@ R1 = { r = "1M", pins = ["g", "gnd"] }`,
 R2 = { r = "10k", pins = ["x", "gnd"] }
 C1 = { c = "10n", pins = ["w", "g"] }
 R1 = { r = "1M", pins = ["g", "gnd"] }`},
+	// A top-cut tone control across an anode: the capacitor in series with
+	// a pot strapped as a variable resistor to chassis (common practice).
+	{topology: "tone-top-cut", families: []string{"valve"}, want: "passive",
+		parts: `@Q1(g, gnd, a)
+R1 = { r = "470k", pins = ["g", "gnd"] }
+R2 = { r = "10k", pins = ["a", "ht"] }
+C1 = { c = "47n", pins = ["a", "m"] }
+RV1 = { pot = "50k", pins = ["m", "gnd", "gnd"] }`,
+		// A fixed resistor where the pot goes: a fixed top-cut, nothing to set.
+		nearMiss: `@Q1(g, gnd, a)
+R1 = { r = "470k", pins = ["g", "gnd"] }
+R2 = { r = "10k", pins = ["a", "ht"] }
+C1 = { c = "47n", pins = ["a", "m"] }
+R3 = { r = "50k", pins = ["m", "gnd"] }`},
 	{topology: "coupling-capacitor", families: []string{"valve"}, want: "passive",
 		parts: `C1 = { c = "22n", pins = ["in", "out"] }
 P1 = { port = "to the next stage", pins = ["out"] }`,
