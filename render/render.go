@@ -201,6 +201,27 @@ func (cfg Config) Fprint(w io.Writer, s *Sheet) error {
 	return err
 }
 
+// FprintFit draws the sheet as one piece, as Fprint does, and reports
+// whether that piece, printed with its smallest text MinTextMM high, is no
+// taller than paper p's printable area and no wider than widths of it side
+// by side: a caller that cuts a sheet onto p only when it is too big lays
+// it out once for both answers.
+func (cfg Config) FprintFit(s *Sheet, p *Paper, widths float64) ([]byte, bool, error) {
+	if cfg.Grid <= 0 {
+		cfg.Grid = 10
+	}
+	r, err := cfg.layout(s)
+	if err != nil {
+		return nil, false, err
+	}
+	var buf bytes.Buffer
+	d := &drawer{cfg: cfg, canvas: textSafe{svg.New(&buf)}, sheet: s, res: r}
+	pg := d.page()
+	cw, ch := p.content()
+	d.draw()
+	return buf.Bytes(), pg.W <= widths*cw && pg.H <= ch, nil
+}
+
 type drawer struct {
 	cfg    Config
 	canvas textSafe

@@ -23,7 +23,7 @@ type drawOpts struct {
 func init() {
 	register(&command{
 		name:    "draw",
-		args:    "FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--page A4|A3|letter|none] [--focus REF,...] [--level tidy|signal|ideal]",
+		args:    "FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--page auto|A4|A3|letter|none] [--focus REF,...] [--level tidy|signal|ideal]",
 		summary: "draw the signal-path sheet of a netlist as SVG",
 		detail: `Draws one sheet: the reduced circuit (the default), the full original
 circuit, or the original with the parts the reduction removed faded and the
@@ -39,19 +39,23 @@ wiring diagram. The file is written whole or not at all.
 --page fits the sheet to paper (landscape) with text at least 2.5 mm high:
 the stages flow into rows, with a pair of labelled off-row connectors where a
 net runs on in the next row, and the rows onto further sheets, each with a
-title block and the caution. The pages go to OUT-1.svg, OUT-2.svg ...`,
+title block and the caution. The pages go to OUT-1.svg, OUT-2.svg ...
+By default (--page auto) a sheet no longer than three A3 pages side by side
+at that text height stays one sheet in OUT.svg, and only a longer one, a
+whole set's, is cut onto A3 pages; with -o - (standard output) auto draws
+one sheet. --page none always draws one.`,
 		bind: typed(func(fs *flag.FlagSet, o *drawOpts) {
 			fs.StringVar(&o.out, "o", "", "write the SVG to this file (- for standard output)")
 			fs.StringVar(&o.view, "view", "reduced", "what to draw: reduced, full or faded")
 			fs.StringVar(&o.symbols, "symbols", "iec", "symbol style: iec (IEC 60617) or ieee (IEEE 315)")
 			fs.StringVar(&o.focus, "focus", "", "comma-separated refs or net names: reduce only the stage(s) around them")
 			fs.StringVar(&o.level, "level", "signal", "how far to reduce: tidy, signal or ideal")
-			fs.StringVar(&o.page, "page", "none", pageHelp)
+			fs.StringVar(&o.page, "page", autoPage, pageHelp)
 		}, runDraw),
 	})
 }
 
-const drawUsage = "usage: pare draw FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--page A4|A3|letter|none] [--focus REF,...] [--level tidy|signal|ideal]"
+const drawUsage = "usage: pare draw FILE -o OUT.svg [--view reduced|full|faded] [--symbols iec|ieee] [--page auto|A4|A3|letter|none] [--focus REF,...] [--level tidy|signal|ideal]"
 
 func runDraw(e *env, o *drawOpts, args []string) int {
 	if len(args) != 1 {
@@ -73,7 +77,7 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 		return exitBad
 	}
 	res, err := pipeline.Run(pipeline.Options{Path: path, Level: lvl, Focus: splitRefs(o.focus),
-		Views: []render.View{view}, Style: style, Page: paper})
+		Views: []render.View{view}, Style: style, Page: paper.page, Fit: paper.fit})
 	if loadFailed(e, path, err) {
 		return exitBad
 	}
@@ -87,7 +91,7 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 	case err != nil:
 		return reportErr(e, "pare draw", path, err)
 	}
-	if paper != nil {
+	if res.SheetFor(view).Paper != nil {
 		if err := writePages(e, o.out, path, res.SheetFor(view).Pages); err != nil {
 			fmt.Fprintf(e.stderr, "pare draw: %v\n", err)
 			return exitBad
@@ -103,19 +107,22 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 }
 
 // drawSettings reads the flags that say what to draw and how.
-func drawSettings(o *drawOpts) (render.View, render.Style, rules.Level, *render.Paper, error) {
+func drawSettings(o *drawOpts) (render.View, render.Style, rules.Level, paging, error) {
 	view, err := render.ParseView(o.view)
 	if err != nil {
-		return view, 0, 0, nil, fmt.Errorf("--view: %w", err)
+		return view, 0, 0, paging{}, fmt.Errorf("--view: %w", err)
 	}
 	style, err := render.ParseStyle(o.symbols)
 	if err != nil {
-		return view, style, 0, nil, fmt.Errorf("--symbols: %w", err)
+		return view, style, 0, paging{}, fmt.Errorf("--symbols: %w", err)
 	}
 	lvl, err := rules.ParseLevel(o.level)
 	if err != nil {
-		return view, style, lvl, nil, fmt.Errorf("--level: %w", err)
+		return view, style, lvl, paging{}, fmt.Errorf("--level: %w", err)
 	}
 	paper, err := parsePage(o.page)
+	if o.out == "-" {
+		paper.fit = nil // standard output takes one sheet: auto means none there
+	}
 	return view, style, lvl, paper, err
 }

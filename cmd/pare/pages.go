@@ -12,7 +12,24 @@ import (
 )
 
 // pageHelp is the --page flag's help, the same on every command that draws.
-const pageHelp = "paper to fit the sheets to, landscape: A4, A3, letter, or none for one long sheet"
+const pageHelp = "paper to fit the sheets to, landscape: A4, A3, letter; auto (one sheet unless it is longer than three A3 pages at 2.5 mm text, then rows on A3); or none for one long sheet"
+
+// autoPage is --page's default: a sheet no longer than three pages of
+// autoPaper side by side at text 2.5 mm high (pipeline.FitWidths) stays
+// one sheet as wide as its drawing; a bigger one (a whole set, one long
+// row of stages) is cut into rows on that paper. A3 landscape takes a
+// row of three or four stages at that text height, A4 one or two.
+const (
+	autoPage  = "auto"
+	autoPaper = "A3"
+)
+
+// paging is what --page asks for: a paper to cut every sheet onto (page),
+// or one to cut a sheet onto only when it does not fit one page of it
+// (fit); neither: one sheet.
+type paging struct {
+	page, fit *render.Paper
+}
 
 // Without --page a view is one file (reduced.svg); on paper it is one file
 // per page, numbered from 1 (reduced-1.svg, reduced-2.svg, ...), so the
@@ -41,8 +58,10 @@ func pageFile(single string, n int, paged bool) string {
 }
 
 // sheetFiles are the files of a drawn view and the note's entries for
-// them: caption and alternative text say which sheet of how many.
-func sheetFiles(sh *pipeline.Sheet, single string, paged bool, entry note.Sheet) ([]outFile, []note.Sheet) {
+// them: caption and alternative text say which sheet of how many. A view
+// drawn on paper takes numbered files, however many pages it filled.
+func sheetFiles(sh *pipeline.Sheet, single string, entry note.Sheet) ([]outFile, []note.Sheet) {
+	paged := sh.Paper != nil
 	var files []outFile
 	var entries []note.Sheet
 	for i, svg := range sh.Pages {
@@ -79,10 +98,14 @@ func writePages(e *env, out, input string, pages [][]byte) error {
 }
 
 // parsePage reads --page.
-func parsePage(s string) (*render.Paper, error) {
+func parsePage(s string) (paging, error) {
+	if strings.EqualFold(s, autoPage) {
+		p, err := render.ParsePaper(autoPaper)
+		return paging{fit: p}, err
+	}
 	p, err := render.ParsePaper(s)
 	if err != nil {
-		return nil, fmt.Errorf("--page: %w", err)
+		return paging{}, fmt.Errorf("--page: %w (or auto)", err)
 	}
-	return p, nil
+	return paging{page: p}, nil
 }

@@ -32,7 +32,7 @@ type runOpts struct {
 func init() {
 	register(&command{
 		name:    mainJob,
-		args:    "[-o DIR] [--level L] [--symbols iec|ieee] [--page A4|A3|letter|none] [--tol-db X] [--tol-deg X] [--no-verify] FILE_OR_DIR...",
+		args:    "[-o DIR] [--level L] [--symbols iec|ieee] [--page auto|A4|A3|letter|none] [--tol-db X] [--tol-deg X] [--no-verify] FILE_OR_DIR...",
 		summary: "the whole job: reduce, verify, recognise stages, draw the sheets, write the repair note",
 		detail: `Loads FILE and prints its transcription warnings, reduces it to its small-signal
 path (every step checked by AC analysis; a step that changes the signal is
@@ -41,7 +41,10 @@ recognises the stages, and writes into DIR (default: FILE without .toml, plus
 .pare): reduced.toml, reduced.svg, faded.svg and notes.md, a repair note that
 embeds the sheets, and notes.html, the same note as one page with the sheets
 inline (prints one sheet per page). --page fits the sheets to paper (see
-'pare help draw'): reduced-1.svg, reduced-2.svg ..., faded-1.svg ... Everything is made in memory first; on bad input nothing is
+'pare help draw'): reduced-1.svg, reduced-2.svg ..., faded-1.svg ... By
+default (--page auto) a view no longer than three A3 pages side by side with
+its text 2.5 mm high stays one sheet, and a longer one, a whole set's, is cut
+into rows on A3 pages; --page none keeps every view one sheet. Everything is made in memory first; on bad input nothing is
 written. Exit 0 when the reduction was verified, 1 when the verification
 failed or compared nothing (the files are still written, and the note says so),
 2 on bad input, 3 on an internal error. The folder DIR is replaced whole, in
@@ -62,7 +65,7 @@ whatever order the sets finish in; on a terminal a progress line counts them.`,
 			finiteVar(fs, &o.tolDB, "tol-db", 0, "verification tolerance in dB (0: the default 0.5 dB)")
 			finiteVar(fs, &o.tolDeg, "tol-deg", 0, "verification tolerance in degrees (0: the default 5°)")
 			fs.BoolVar(&o.noVerify, "no-verify", false, "skip the AC checks of each step and of the result")
-			fs.StringVar(&o.page, "page", "none", pageHelp)
+			fs.StringVar(&o.page, "page", autoPage, pageHelp)
 		}, runMain),
 	})
 }
@@ -84,7 +87,7 @@ type jobConfig struct {
 	symbols  string // the style's standard, for the note
 	compare  ac.CompareOptions
 	noVerify bool
-	paper    *render.Paper // nil: one sheet per view
+	paging   paging // the paper the sheets go on, or none
 }
 
 // outFile is one result file, complete in memory before anything is written.
@@ -189,7 +192,7 @@ func oneJob(e *env, path, dir string, cfg jobConfig) (int, pack) {
 // the reduced and faded sheets drawn.
 func jobOptions(path string, cfg jobConfig) pipeline.Options {
 	po := pipeline.Options{Path: path, Level: cfg.level, Verify: !cfg.noVerify, Compare: cfg.compare,
-		Views: []render.View{render.Reduced, render.Faded}, Style: cfg.style, Page: cfg.paper}
+		Views: []render.View{render.Reduced, render.Faded}, Style: cfg.style, Page: cfg.paging.page, Fit: cfg.paging.fit}
 	if cfg.noVerify {
 		po.StepCheck = pipeline.NoStepCheck
 	}
@@ -256,7 +259,7 @@ func configure(o *runOpts) (jobConfig, error) {
 	}
 	cfg.compare = ac.CompareOptions{TolDB: o.tolDB, TolDeg: o.tolDeg}
 	cfg.noVerify = o.noVerify
-	cfg.paper, err = parsePage(o.page)
+	cfg.paging, err = parsePage(o.page)
 	return cfg, err
 }
 
@@ -273,11 +276,10 @@ func mainJobOn(pr *pipeline.Result, cfg jobConfig) (*jobResult, error) {
 	if err != nil {
 		return nil, err
 	}
-	paged := cfg.paper != nil
-	redFiles, redEntries := sheetFiles(pr.SheetFor(render.Reduced), fileReducedSheet, paged, note.Sheet{
+	redFiles, redEntries := sheetFiles(pr.SheetFor(render.Reduced), fileReducedSheet, note.Sheet{
 		View: note.ViewReduced, Alt: "Reduced signal path of " + pr.Title,
 		Caption: "Reduced view, small-signal only: the parts that shape the signal, framed by stage."})
-	fadedFiles, fadedEntries := sheetFiles(pr.SheetFor(render.Faded), fileFadedSheet, paged, note.Sheet{
+	fadedFiles, fadedEntries := sheetFiles(pr.SheetFor(render.Faded), fileFadedSheet, note.Sheet{
 		View: note.ViewFaded, Alt: "Original circuit of " + pr.Title + " with the removed parts faded",
 		Caption: "Faded view: the whole original circuit; parts the reduction removed are faded, merged parts are marked with the part they went into."})
 	sheets := append(redFiles, fadedFiles...)

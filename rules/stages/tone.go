@@ -122,7 +122,7 @@ func toneAt(c *graph.Circuit, bare *ac.Response, net string, b value.Range) (ton
 	if math.IsNaN(top) || top == 0 {
 		return toneEnd{}, false
 	}
-	e := toneEnd{cutDB: db(top)}
+	e := toneEnd{cutDB: -db(top)} // how deep the cut goes, a positive number of decibels
 	e.fc, e.hasFC = bisectLog(func(f float64) (bool, bool) {
 		v := ratio(f)
 		return v >= 1/math.Sqrt2, !math.IsNaN(v)

@@ -11,8 +11,8 @@ import (
 // 10 kΩ ∥ the pentode's ra 1 MΩ = 9.901 kΩ) is exactly the handbook divider
 // H = (Rv + 1/jωC)/(R + Rv + 1/jωC), so the solver's figures must meet the
 // formula's: −3 dB where 1/(ωC) = √((R+Rv)² − 2Rv²) (derived), 342.01 Hz with
-// the 5 kΩ pot at nought and 258.17 Hz at full; at 20 kHz |H| is −35.341 dB
-// and −9.4805 dB (derived, the same divider).
+// the 5 kΩ pot at nought and 258.17 Hz at full; at 20 kHz the cut is 35.341 dB
+// and 9.4805 dB (derived, the same divider: −20·log10|H|).
 func TestToneTopCutFigures(t *testing.T) {
 	c := circuit(t, "valve", `V1 = { valve = "pentode", pins = { g1 = "in", k = "gnd", a = "a", g2 = "ht", g3 = "gnd" }, gm = "2m", ra = "1M" }
 R1 = { r = "470k", pins = ["in", "gnd"] }
@@ -31,7 +31,7 @@ RV1 = { pot = "5k", pins = ["m", "gnd", "gnd"] }`)
 		relative float64
 	}{
 		{"f_top_cut", figure.Hertz, 258.17, 342.01, 1e-4},
-		{"top_cut", figure.Decibel, -35.341, -9.4805, 1e-4},
+		{"top_cut", figure.Decibel, 9.4805, 35.341, 1e-4},
 	} {
 		f, ok := s.Figures.Get(tc.name)
 		if !ok || f.Range == nil {

@@ -107,7 +107,21 @@ type Options struct {
 	// Page is the paper the sheets are cut into rows and pages for; nil
 	// draws each view as one sheet as wide as its drawing.
 	Page *render.Paper
+	// Fit, with Page nil, is the paper a view is cut onto when it is too
+	// big for one sheet (FitWidths); a view that fits stays one sheet as
+	// wide as its drawing. Nil with Page nil: always one sheet.
+	Fit *render.Paper
 }
+
+// FitWidths is how long a view may be and stay one sheet under
+// Options.Fit: printed with its text render.MinTextMM high, no wider than
+// three of Fit's pages side by side and no taller than one. A section of
+// a set (a frequency changer, an IF strip and its audio: 0.45–1 m at that
+// scale on A3) stays one strip a screen shows zoomed to its height; a
+// whole set's chain of stages (1.6 m reduced, 2.8 m faded, the club
+// receiver) is no longer a sheet anyone reads in one piece, so it flows
+// into rows on pages. Our own choice, measured on the examples.
+const FitWidths = 3
 
 // Error is a failure of one phase. Its message is the underlying error's,
 // unchanged, so a command prints what it printed before the pipeline

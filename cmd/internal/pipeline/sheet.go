@@ -16,12 +16,14 @@ import (
 )
 
 // Sheet is one drawn view: what was drawn and the SVG it gave, one per
-// page (SVG is the first).
+// page (SVG is the first), and the paper it was cut onto (nil: one sheet
+// as wide as the drawing).
 type Sheet struct {
 	View  render.View
 	Sheet *render.Sheet
 	SVG   []byte
 	Pages [][]byte
+	Paper *render.Paper
 }
 
 // SheetFor returns the drawn sheet of a view, or nil if it was not asked for.
@@ -35,16 +37,41 @@ func (r *Result) SheetFor(v render.View) *Sheet {
 }
 
 func (r *Result) drawSheets(o Options) error {
-	cfg := render.Config{Style: o.Style, Page: o.Page}
 	for _, v := range o.Views {
 		s := r.Sheet(v)
-		pages, err := cfg.FprintPages(s)
+		sh, err := drawView(s, o)
 		if err != nil {
 			return &Error{Phase: PhaseSheets, View: v, Err: err}
 		}
-		r.Sheets = append(r.Sheets, Sheet{View: v, Sheet: s, SVG: pages[0], Pages: pages})
+		r.Sheets = append(r.Sheets, sh)
 	}
 	return nil
+}
+
+// drawView draws one view: on o.Page when one is asked for; with o.Fit,
+// as one sheet when it is small enough (FitWidths), else on Fit's pages (a
+// whole set's sheet is one very long row, which no printer takes and no
+// screen shows at a readable size); else as one sheet.
+func drawView(s *render.Sheet, o Options) (Sheet, error) {
+	sh := Sheet{View: s.View, Sheet: s, Paper: o.Page}
+	cfg := render.Config{Style: o.Style, Page: o.Page}
+	if o.Page == nil && o.Fit != nil {
+		one, fits, err := cfg.FprintFit(s, o.Fit, FitWidths)
+		if err != nil {
+			return sh, err
+		}
+		if fits {
+			sh.SVG, sh.Pages = one, [][]byte{one}
+			return sh, nil
+		}
+		cfg.Page, sh.Paper = o.Fit, o.Fit
+	}
+	pages, err := cfg.FprintPages(s)
+	if err != nil {
+		return sh, err
+	}
+	sh.SVG, sh.Pages = pages[0], pages
+	return sh, nil
 }
 
 // Sheet fills the sheet of a view from the result: the one place a sheet is
