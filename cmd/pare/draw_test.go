@@ -298,7 +298,9 @@ C2 = { c = "12p..365p", pins = ["tank", "gnd"] }
 
 // TestDrawMatchesMainJob: `pare draw` and the main job draw their sheets
 // from the one pipeline, so for every example the reduced and faded sheets
-// of both are the same bytes, and so is the committed example sheet.
+// of both are the same bytes, and so is the committed example sheet. A
+// view the job cut onto pages (a whole set's) is compared page by page
+// with `pare draw -o FILE.svg`, which cuts it the same way.
 func TestDrawMatchesMainJob(t *testing.T) {
 	for _, ex := range examples(t) {
 		job := cachedJob(t, ex)
@@ -309,6 +311,10 @@ func TestDrawMatchesMainJob(t *testing.T) {
 			view render.View
 			file string
 		}{{render.Reduced, fileReducedSheet}, {render.Faded, fileFadedSheet}} {
+			if _, err := os.Stat(filepath.Join(job.dir, sheet.file)); err != nil {
+				drawMatchesPages(t, ex, job.dir, sheet.view, sheet.file)
+				continue
+			}
 			drawn := string(cachedDraw(t, ex, sheet.view))
 			if written := readString(t, filepath.Join(job.dir, sheet.file)); drawn != written {
 				t.Errorf("%s: pare draw --view %s differs from the main job's %s", filepath.Base(ex), sheet.view, sheet.file)
@@ -316,6 +322,26 @@ func TestDrawMatchesMainJob(t *testing.T) {
 			if committed := readString(t, sheetName(ex, sheet.view)); drawn != committed {
 				t.Errorf("%s: the %s sheet differs from the committed example sheet", filepath.Base(ex), sheet.view)
 			}
+		}
+	}
+}
+
+// drawMatchesPages compares the pages of a view the main job wrote
+// (reduced-1.svg ...) with those `pare draw` writes with its defaults.
+func drawMatchesPages(t *testing.T, ex, dir string, v render.View, single string) {
+	t.Helper()
+	out := filepath.Join(t.TempDir(), single)
+	if code, _, errs := runJob(t, "draw", ex, "--view", v.String(), "-o", out); code != exitOK {
+		t.Fatalf("draw --view %s: exit %d: %s", v, code, errs)
+	}
+	pages, _ := filepath.Glob(filepath.Join(dir, strings.TrimSuffix(single, ".svg")+"-*.svg"))
+	if len(pages) == 0 {
+		t.Fatalf("%s: the main job wrote neither %s nor its pages", filepath.Base(ex), single)
+	}
+	for _, p := range pages {
+		drawn := readString(t, filepath.Join(filepath.Dir(out), filepath.Base(p)))
+		if drawn != readString(t, p) {
+			t.Errorf("%s: pare draw --view %s differs from the main job's %s", filepath.Base(ex), v, filepath.Base(p))
 		}
 	}
 }

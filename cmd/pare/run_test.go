@@ -44,6 +44,28 @@ func runJob(t *testing.T, args ...string) (int, string, string) {
 
 var resultFiles = []string{fileReducedNetlist, fileReducedSheet, fileFadedSheet, fileNote, fileNoteHTML}
 
+// packFiles are the files a main job's pack must hold: resultFiles, with a
+// view the job cut onto pages (a whole set's, under --page auto) as its
+// numbered pages instead of its one sheet, which must then hold at least one.
+func packFiles(t *testing.T, dir string) []string {
+	t.Helper()
+	var out []string
+	for _, f := range resultFiles {
+		if _, err := os.Stat(filepath.Join(dir, f)); err == nil || (f != fileReducedSheet && f != fileFadedSheet) {
+			out = append(out, f)
+			continue
+		}
+		pages, _ := filepath.Glob(filepath.Join(dir, strings.TrimSuffix(f, ".svg")+"-*.svg"))
+		if len(pages) == 0 {
+			out = append(out, f) // neither: the caller's check names the missing sheet
+		}
+		for _, p := range pages {
+			out = append(out, filepath.Base(p))
+		}
+	}
+	return out
+}
+
 // jobRun is one run of the main job on an example, kept for every test that
 // only reads its results: the job verifies every step by AC analysis, and
 // running it once per example keeps the package's tests quick.
@@ -105,7 +127,7 @@ func TestMainJobOnExamples(t *testing.T) {
 			if code != exitOK {
 				t.Fatalf("exit %d, want 0\nstdout:\n%s\nstderr:\n%s", code, stdout, stderr)
 			}
-			for _, f := range resultFiles {
+			for _, f := range packFiles(t, dir) {
 				st, err := os.Stat(filepath.Join(dir, f))
 				if err != nil || st.Size() == 0 {
 					t.Errorf("%s missing or empty: %v", f, err)
@@ -153,7 +175,7 @@ func TestMainJobOnExamples(t *testing.T) {
 				"small-signal only",
 				"## Stages", "| stage | what | family | parts | figures | flags |",
 				"## Reduction log", "## Verification", "**Verification passed**",
-				"](reduced.svg)", "](faded.svg)", "## Parts before → after",
+				"## Parts before → after",
 				// The voltage chart carries the live-set caution (common practice).
 				"## DC voltage chart", "taken with the set working", "| part | electrode | net | DC | meter reads |",
 				"| original | " + strconv.Itoa(len(full.Parts)) + " | " + strconv.Itoa(len(full.Nets)) + " |",
@@ -180,7 +202,13 @@ func TestMainJobOnExamples(t *testing.T) {
 			if n := len(logLine.FindAllString(md, -1)); n == 0 {
 				t.Errorf("no log line with a %s:line position", filepath.Base(ex))
 			}
-			for _, f := range []string{fileReducedSheet, fileFadedSheet} {
+			for _, f := range packFiles(t, dir) {
+				if !strings.HasSuffix(f, ".svg") {
+					continue
+				}
+				if !strings.Contains(md, "]("+f+")") {
+					t.Errorf("notes.md does not embed %s", f)
+				}
 				svg := readString(t, filepath.Join(dir, f))
 				if !strings.Contains(svg, `xmlns="http://www.w3.org/2000/svg"`) || !strings.Contains(svg, "</svg>") {
 					t.Errorf("%s is not a complete SVG document", f)
@@ -373,7 +401,10 @@ func TestMainJobDeterministic(t *testing.T) {
 			if code, _, stderr := runJob(t, ex, "-o", b); code == exitBad {
 				t.Fatalf("second run: %s", stderr)
 			}
-			for _, f := range resultFiles {
+			if fa, fb := packFiles(t, a), packFiles(t, b); strings.Join(fa, " ") != strings.Join(fb, " ") {
+				t.Errorf("two runs write %v and %v", fa, fb)
+			}
+			for _, f := range packFiles(t, a) {
 				if !bytes.Equal(readBytes(t, filepath.Join(a, f)), readBytes(t, filepath.Join(b, f))) {
 					t.Errorf("%s differs between two runs", f)
 				}
@@ -593,13 +624,15 @@ func readBytes(t *testing.T, p string) []byte {
 func readString(t *testing.T, p string) string { return string(readBytes(t, p)) }
 
 // BenchmarkMainJob times the whole job in memory (reduce with a per-step AC
-// check, compare, recognise, draw two sheets, write the note) per example.
+// check, compare, recognise, draw two sheets, write the note) per example,
+// with the job's defaults (the flagship's sheets cut onto pages), the
+// whole set club-receiver among them.
 func BenchmarkMainJob(b *testing.B) {
 	files, _ := filepath.Glob("../../examples/*.toml")
 	if len(files) == 0 {
 		b.Skip("no examples")
 	}
-	cfg, err := configure(&runOpts{level: "signal", symbols: "iec"})
+	cfg, err := configure(&runOpts{level: "signal", symbols: "iec", page: autoPage})
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -1,0 +1,113 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"slices"
+	"strings"
+	"testing"
+
+	"pare/cmd/internal/pipeline"
+	"pare/internal/golden"
+	"pare/render"
+	"pare/render/check"
+	"pare/rules"
+)
+
+// The flagship example: the club's whole receiver, the set a user captures
+// from a chassis, next to the sections the other examples are.
+const (
+	flagship     = "../../examples/club-receiver.toml"
+	flagshipPack = "../../examples/club-receiver.pack"
+	packRegen    = "look at the sheets as PNG, then go test ./cmd/pare -run TestFlagshipPack -update"
+)
+
+// TestFlagshipPack: the main job's whole pack for the flagship, with its
+// defaults, is byte-identical to the copy kept under examples/ (the
+// reduced netlist, every page of both views, both notes; -update rewrites
+// it), the job verifies, and the pack holds exactly those files. A whole
+// set is longer than three A3 pages at 2.5 mm text, so its views come as
+// pages (--page auto), while a section of a set keeps one sheet.
+func TestFlagshipPack(t *testing.T) {
+	job := cachedJob(t, flagship)
+	if job.code != exitOK {
+		t.Fatalf("main job: exit %d: %s", job.code, job.stderr)
+	}
+	got := dirNames(t, job.dir)
+	if *updateSheets {
+		if err := os.RemoveAll(flagshipPack); err != nil {
+			t.Fatal(err)
+		}
+	}
+	for _, name := range got {
+		data, err := os.ReadFile(filepath.Join(job.dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		golden.Check(t, filepath.Join(flagshipPack, name), data, *updateSheets, packRegen)
+	}
+	if want := dirNames(t, flagshipPack); !slices.Equal(got, want) {
+		t.Errorf("the pack holds %v; the kept copy %v (%s)", got, want, packRegen)
+	}
+	for _, want := range []string{"reduced-2.svg", "faded-2.svg"} {
+		if !slices.Contains(got, want) {
+			t.Errorf("a whole set's pack should come on pages: no %s in %v", want, got)
+		}
+	}
+	small := cachedJob(t, "../../examples/frequency-changer.toml")
+	if names := dirNames(t, small.dir); !slices.Contains(names, fileReducedSheet) || !slices.Contains(names, fileFadedSheet) {
+		t.Errorf("a section of a set should keep one sheet per view: %v", names)
+	}
+}
+
+// TestFlagshipStagesAndPages: every stage of the flagship is named (a
+// title with its placeholders filled, the tone control as one), and the
+// pages its pack is cut into are clean for the layout checker: no
+// overlap, wire through a symbol, broken net, and every off-row connector
+// paired.
+func TestFlagshipStagesAndPages(t *testing.T) {
+	res := sheetsOf(t, pipeline.Options{Path: flagship, Level: rules.LevelSignal})
+	var tone bool
+	for _, s := range res.Stages {
+		if s.Title == "" || strings.Contains(s.Title, "{") {
+			t.Errorf("stage %s (%s) is not named: %q", s.Name, s.Topology, s.Title)
+		}
+		tone = tone || s.Topology == "tone-top-cut"
+	}
+	if len(res.Stages) < 15 || !tone {
+		t.Errorf("%d stages, tone control named: %v", len(res.Stages), tone)
+	}
+	paper, err := render.ParsePaper(autoPaper)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, v := range []render.View{render.Reduced, render.Faded} {
+		pages, err := render.Config{Page: paper}.Geometries(res.Sheet(v))
+		if err != nil {
+			t.Fatalf("%s: %v", v, err)
+		}
+		for i, g := range pages {
+			for _, p := range check.Measure(g).Problems() {
+				t.Errorf("%s page %d: %s", v, i+1, p)
+			}
+		}
+		for _, p := range check.Connectors(pages) {
+			t.Errorf("%s: %s", v, p)
+		}
+	}
+}
+
+// dirNames lists a folder's files, sorted.
+func dirNames(t *testing.T, dir string) []string {
+	t.Helper()
+	entries, err := os.ReadDir(dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var out []string
+	for _, e := range entries {
+		out = append(out, e.Name())
+	}
+	slices.Sort(out)
+	return out
+}
