@@ -41,7 +41,10 @@ func TestSheetsInBrowser(t *testing.T) {
 			if r.code == exitBad {
 				t.Fatalf("main job failed: %s", r.stderr)
 			}
-			for _, sheet := range []string{fileReducedSheet, fileFadedSheet} {
+			for _, sheet := range packFiles(t, r.dir) {
+				if !strings.HasSuffix(sheet, ".svg") {
+					continue // a view on pages is every page of it
+				}
 				svgPath, err := filepath.Abs(filepath.Join(r.dir, sheet))
 				if err != nil {
 					t.Fatal(err)
@@ -207,7 +210,10 @@ func checkWellFormed(t *testing.T, path string) (w, h float64) {
 				t.Fatalf("%s: root element is {%s}%s, want an svg element in the SVG namespace", path, se.Name.Space, se.Name.Local)
 			}
 			for _, a := range se.Attr {
-				v, err := strconv.ParseFloat(strings.TrimSuffix(a.Value, "px"), 64)
+				v, err := strconv.ParseFloat(strings.TrimSuffix(strings.TrimSuffix(a.Value, "px"), "mm"), 64)
+				if strings.HasSuffix(a.Value, "mm") {
+					v *= 96 / 25.4 // a page on paper: CSS pixels, 96 to the inch (CSS Values and Units)
+				}
 				switch {
 				case a.Name.Local == "width" && err == nil:
 					w = v
