@@ -36,7 +36,7 @@ func init() {
 		"double-tuned": {args: []string{"xfmr", "caps1", "caps2"}, required: []string{"xfmr", "caps1", "caps2"}, fn: calcDoubleTuned},
 		"mixer":        {args: []string{"coil", "caps", "ift", "ift_caps", "winding"}, required: []string{"coil", "caps", "ift", "ift_caps"}, wordArgs: []string{"winding"}, fn: calcMixer},
 		"pi":           {args: []string{"c1", "coil", "c2"}, required: []string{"c1", "coil", "c2"}, fn: calcPi},
-		"smoothing":    {args: []string{"c1", "series", "c2"}, required: []string{"c1", "series", "c2"}, fn: calcSmoothing},
+		"smoothing":    {args: []string{"c1", "series", "c2"}, required: []string{"series", "c2"}, fn: calcSmoothing},
 		"coupling":     {args: []string{"c"}, required: []string{"c"}, fn: calcCoupling},
 		"value":        {args: []string{"part", "name"}, required: []string{"part", "name"}, wordArgs: []string{"name"}, fn: calcValue},
 		"ratio":        {args: []string{"xfmr"}, required: []string{"xfmr"}, fn: calcRatio},

@@ -214,7 +214,10 @@ C2 = { c = "10n", pins = ["g1", "gnd"] }`, "wien-bridge", "f_hz", 1591.55, 1e-5}
 	// Smoothing: 10 H with 32 µF → 1/(2π√(LC)) = 8.89703 Hz (derived).
 	{"smoothing", "valve", "", `C1 = { c = "32u", type = "electrolytic", pins = ["hv", "gnd"] }
 L1 = { l = "10", type = "choke", pins = ["hv", "ht"] }
-C2 = { c = "32u", type = "electrolytic", pins = ["ht", "gnd"] }`, "smoothing-filter", "f_c_hz", 8.89703, 1e-5},
+C2 = { c = "32u", type = "electrolytic", pins = ["ht", "gnd"] }
+D9 = { diode = "rectifier", pins = { a = "ac9", k = "hv" } }
+V9 = { valve = "triode", pins = { g1 = "gnd", k = "gnd", a = "a9" }, mu = 20, ra = "10k" }
+R9 = { r = "47k", pins = ["ht", "a9"] }`, "smoothing-filter", "f_c_hz", 8.89703, 1e-5},
 }
 
 func TestFigures(t *testing.T) {

@@ -20,8 +20,6 @@ var (
 	byPhaseGain  = figure.ByFormula("A ≥ 29")
 	byWien       = figure.ByFormula("f = 1/(2π√(R1R2C1C2))")
 	byWienGain   = figure.ByFormula("A ≥ 1 + R1/R2 + C2/C1")
-	byChoke      = figure.ByFormula("fc = 1/(2π√(LC2))")
-	bySmoothRC   = figure.ByFormula("fc = 1/(2πRC2)")
 	byLoadR      = figure.BySolver("resistance to AC ground, nodal analysis", "")
 	byLoadDC     = figure.BySolver("DC load through the set's DC paths, nodal analysis (the solver's detector takes rd = Rdc/2)", "")
 	byACDC       = figure.ByFormula("m ≈ Rac/Rdc")
@@ -189,63 +187,6 @@ func calcWien(x *figCtx) {
 	}
 	x.set("f", figure.Hertz, 1/(2*math.Pi*math.Sqrt(r1*r2*c1*c2)), byWien)
 	x.set("gain_min", figure.Ratio, 1+r1/r2+c2/c1, byWienGain)
-}
-
-// calcSmoothing: the second section's corner, 1/(2π√(LC2)) with a choke or
-// 1/(2πRC2) with a resistor (handbook formulas, from memory).
-func calcSmoothing(x *figCtx) {
-	s := x.part("series")
-	c2 := sumCap(x.parts("c2"), 1)
-	c1 := sumCap(x.parts("c1"), 1)
-	// The pattern is symmetric, so the match may have it either way round:
-	// the reservoir is the capacitor on the side that faces the rectifier
-	// or the supply input, and the corner is set by the other one.
-	if x.feeds(x.st.nets["out"]) > x.feeds(x.st.nets["in"]) {
-		c1, c2 = c2, c1
-	}
-	if s == nil || c2 <= 0 {
-		return
-	}
-	if x.solve {
-		x.checkSmoothing(x.st.nets["in"], x.st.nets["out"])
-	}
-	x.set("c_reservoir", figure.Farad, c1, byPartValue)
-	x.set("c_smoothing", figure.Farad, c2, byPartValue)
-	switch s.Kind {
-	case graph.Inductor:
-		x.set("f_c", figure.Hertz, resonance(s.Inductance(), c2), byChoke)
-	case graph.Resistor:
-		x.set("f_c", figure.Hertz, 1/(2*math.Pi*s.Value.Max*c2), bySmoothRC)
-	}
-}
-
-// feeds scores how surely a net is the supply input of a smoothing filter:
-// a rectifier (a diode) on it counts most, then a port (a battery, the
-// supply's connection), then a declared supply role; the declared voltage
-// breaks ties, since each filter section drops some. Higher is nearer the
-// source.
-func (x *figCtx) feeds(net string) float64 {
-	id, ok := x.w.netID[net]
-	if !ok || id == groundNet {
-		return math.Inf(-1)
-	}
-	score := 0.0
-	for _, ci := range x.w.conns[id] {
-		switch x.w.parts[ci].Kind {
-		case graph.Diode:
-			score = max(score, 4)
-		case graph.Port:
-			score = max(score, 2)
-		}
-	}
-	if n := x.w.c.Net(net); n != nil {
-		if n.Role == graph.Supply {
-			score = max(score, 1)
-		}
-		// volts add less than a step: a tie-break between like nets
-		score += math.Atan(math.Abs(n.Volts)) / math.Pi
-	}
-	return score
 }
 
 // calcCoupling: a series capacitor and the resistance it feeds, the

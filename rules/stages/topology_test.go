@@ -685,12 +685,44 @@ C1 = { c = "100u", type = "electrolytic", pins = ["out", "gnd"] }`},
 		parts: `C1 = { c = "32u", type = "electrolytic", pins = ["hv", "gnd"] }
 L1 = { l = "10", type = "choke", pins = ["hv", "ht"] }
 C2 = { c = "32u", type = "electrolytic", pins = ["ht", "gnd"] }
-R1 = { r = "10k", pins = ["in", "hv"] }`,
-		// A film capacitor after the choke: an RF filter, not smoothing.
+R1 = { r = "10k", pins = ["in", "hv"] }
+D9 = { diode = "rectifier", pins = { a = "ac9", k = "hv" } }
+V9 = { valve = "triode", pins = { g1 = "gnd", k = "gnd", a = "a9" }, mu = 20, ra = "10k" }
+R9 = { r = "47k", pins = ["ht", "a9"] }`,
+		// The same choke and capacitors feeding no stage's supply: their
+		// node goes only to a grid, a filter in a signal path.
 		nearMiss: `C1 = { c = "32u", type = "electrolytic", pins = ["hv", "gnd"] }
 L1 = { l = "10", type = "choke", pins = ["hv", "ht"] }
 C2 = { c = "100n", pins = ["ht", "gnd"] }
-R1 = { r = "10k", pins = ["in", "hv"] }`},
+R1 = { r = "10k", pins = ["in", "hv"] }
+V9 = { valve = "triode", pins = { g1 = "g9", k = "gnd", a = "gnd" }, mu = 20, ra = "10k" }
+R9 = { r = "1M", pins = ["ht", "g9"] }`},
+	// A decoupler: a resistor from a rail (here straight off a rectifier,
+	// with no capacitor before it) into a film capacitor whose node feeds
+	// an anode through its load.
+	{topology: "supply-filter-section", families: []string{"valve"}, want: "passive", full: true,
+		parts: `D9 = { diode = "rectifier", pins = { a = "ac9", k = "hv" } }
+R1 = { r = "1k", pins = ["hv", "ht"] }
+C2 = { c = "100n", pins = ["ht", "gnd"] }
+V9 = { valve = "triode", pins = { g1 = "gnd", k = "gnd", a = "a9" }, mu = 20, ra = "10k" }
+R9 = { r = "47k", pins = ["ht", "a9"] }`,
+		// Near misses: an RC low-pass from an anode into a grid leak (a
+		// filter in a signal path), and a top-cut capacitor across an
+		// anode load (the node is the anode itself); a cathode bias RC
+		// and a coupling capacitor have no series resistor into a shunt
+		// capacitor at all.
+		nearMiss: `D9 = { diode = "rectifier", pins = { a = "ac9", k = "hv" } }
+V8 = { valve = "triode", pins = { g1 = "gnd", k = "k8", a = "a8" }, mu = 20, ra = "10k" }
+R8 = { r = "47k", pins = ["hv", "a8"] }
+R1 = { r = "10k", pins = ["a8", "f"] }
+C2 = { c = "10n", pins = ["f", "gnd"] }
+C3 = { c = "10n", pins = ["f", "g7"] }
+R7 = { r = "1M", pins = ["g7", "gnd"] }
+R6 = { r = "1k", pins = ["k8", "gnd"] }
+C6 = { c = "25u", type = "electrolytic", pins = ["k8", "gnd"] }
+V9 = { valve = "triode", pins = { g1 = "g7", k = "gnd", a = "a9" }, mu = 20, ra = "10k" }
+R9 = { r = "47k", pins = ["hv", "a9"] }
+C9 = { c = "1n", pins = ["a9", "gnd"] }`},
 }
 
 // findAll recognises a fixture; power fixtures go in as the full circuit.

@@ -1,0 +1,320 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/figure"
+)
+
+// A supply filter section is a series resistor or choke from a supply (the
+// reservoir, a rail, the node of the section before) into a capacitor to
+// chassis whose node feeds a stage's supply: an anode, screen, collector or
+// drain through its load, or a screen directly. It is a smoothing filter
+// where a rectifier sits on its input, else a decoupling filter. The
+// capacitor may be of any kind and the section before may be there or not;
+// what tells it from an RC low-pass in a signal path is where its two ends
+// go, walked here through the circuit's DC paths.
+
+// filterWalkDepth bounds the DC walks from a filter's ends: a load, a
+// winding and a stopper deep, no further, so a walk does not wander through
+// the whole set back to a rail by another path.
+const filterWalkDepth = 3
+
+// dcPath says whether a part carries DC between its ends: resistors,
+// chokes, windings and pots (a capacitor does not), and a switch, whose
+// contacts join in some position (a band switch between an anode and the
+// coil it feeds on one band).
+func dcPath(p *graph.Part) bool {
+	switch p.Kind {
+	case graph.Resistor, graph.Inductor, graph.Transformer, graph.Pot, graph.Switch:
+		return true
+	}
+	return false
+}
+
+// reachesSource tells whether net is a supply or leads to one through DC
+// paths (not through skip, the filter's own series part): a declared supply
+// net (a battery's too) or a rectifier. A port alone is not one: a pick-up
+// socket is a port.
+func (x *figCtx) reachesSource(net int, skip int) bool {
+	return x.walkDC(net, skip, func(id int, ci int, pin int) bool {
+		if ci < 0 {
+			return x.w.role[id] == graph.Supply
+		}
+		p := x.w.parts[ci]
+		return p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p)
+	}, false)
+}
+
+// feedsStage is the device whose supply net feeds through DC paths (not
+// through skip): an output electrode behind at least one part (its load), or
+// a further grid (a screen) directly or behind one. nil when it feeds none,
+// and when net is itself an output electrode: a capacitor there is a
+// top-cut across a load, not a decoupler.
+func (x *figCtx) feedsStage(net int, skip int) *graph.Part {
+	for _, ci := range x.w.conns[net] {
+		for j, id := range x.w.pins[ci] {
+			if id == net && x.w.roles[ci][j] == graph.RoleOutput {
+				return nil
+			}
+		}
+	}
+	var dev *graph.Part
+	x.walkDC(net, skip, func(id int, ci int, pin int) bool {
+		if ci < 0 || pin < 0 {
+			return false
+		}
+		if p := x.w.parts[ci]; p.Kind == graph.Valve && isValveDiode(p) {
+			return false // a detector's or rectifier's anode is fed no supply
+		}
+		role := x.w.roles[ci][pin]
+		if role == graph.RoleGrid || role == graph.RoleOutput && id != net {
+			dev = x.w.parts[ci]
+			return true
+		}
+		return false
+	}, true)
+	return dev
+}
+
+// walkDC walks breadth first from net through DC paths, never through
+// skip, ground or (stopAtRails) another supply net, and asks hit of each
+// net reached (ci −1) and each terminal on it (ci, pin). It stops at the
+// first hit.
+func (x *figCtx) walkDC(net, skip int, hit func(id, ci, pin int) bool, stopAtRails bool) bool {
+	seen := map[int]bool{net: true}
+	frontier := []int{net}
+	for d := 0; d <= filterWalkDepth && len(frontier) > 0; d++ {
+		var next []int
+		for _, id := range frontier {
+			if hit(id, -1, -1) {
+				return true
+			}
+			for _, ci := range x.w.conns[id] {
+				for j, pid := range x.w.pins[ci] {
+					if pid == id && hit(id, ci, j) {
+						return true
+					}
+				}
+				if ci == skip || !dcPath(x.w.parts[ci]) {
+					continue
+				}
+				for _, o := range dcNeighbours(x.w.parts[ci], x.w.pins[ci], id) {
+					if o == groundNet || seen[o] || stopAtRails && x.w.role[o] == graph.Supply {
+						continue
+					}
+					seen[o] = true
+					next = append(next, o)
+				}
+			}
+		}
+		frontier = next
+	}
+	return false
+}
+
+// dcNeighbours are the nets a part joins to net by DC: every other
+// terminal of a two-terminal part or a pot, only the same winding's other
+// ends for a transformer (its windings are apart for DC).
+func dcNeighbours(p *graph.Part, ids []int, net int) []int {
+	if p.Kind != graph.Transformer {
+		return ids
+	}
+	pinOf := map[string]int{}
+	for j, pin := range p.Pins {
+		pinOf[pin.Name] = ids[j]
+	}
+	var out []int
+	for _, wd := range p.Windings {
+		a, okA := pinOf[wd.From]
+		b, okB := pinOf[wd.To]
+		if okA && okB && (a == net || b == net) {
+			out = append(out, a, b)
+		}
+	}
+	return out
+}
+
+// feeds scores how surely a net is the supply input of a filter section:
+// a rectifier on it counts most, then a port (a battery, the supply's
+// connection), then a declared supply role; the declared voltage breaks
+// ties, since each section drops some. Higher is nearer the source.
+func (x *figCtx) feeds(id int) float64 {
+	score := 0.0
+	for _, ci := range x.w.conns[id] {
+		switch p := x.w.parts[ci]; {
+		case p.Kind == graph.Diode, p.Kind == graph.Valve && isValveDiode(p):
+			score = max(score, 4)
+		case p.Kind == graph.Port:
+			score = max(score, 2)
+		}
+	}
+	if n := x.w.c.Net(x.w.names[id]); n != nil {
+		if n.Role == graph.Supply {
+			score = max(score, 1)
+		}
+		// volts add less than a step: a tie-break between like nets
+		score += math.Atan(math.Abs(n.Volts)) / math.Pi
+	}
+	return score
+}
+
+// supplyFilterNets are a match's input and output nets and the device its
+// output feeds, and whether the match is bound the other way round (the
+// pattern's two capacitors look alike, so the matcher keeps one binding of
+// them); ok false where it is not a supply filter section either way.
+func (x *figCtx) supplyFilterNets(s *graph.Part) (in, out int, dev *graph.Part, swapped, ok bool) {
+	si := x.partIndex(s)
+	in, okIn := x.w.netID[x.st.nets["in"]]
+	out, okOut := x.w.netID[x.st.nets["out"]]
+	if si < 0 || !okIn || !okOut || in == groundNet || out == groundNet {
+		return 0, 0, nil, false, false
+	}
+	if x.feeds(out) > x.feeds(in) {
+		in, out, swapped = out, in, true
+	}
+	if !x.reachesSource(in, si) {
+		return 0, 0, nil, false, false
+	}
+	if dev = x.feedsStage(out, si); dev == nil {
+		return 0, 0, nil, false, false
+	}
+	return in, out, dev, swapped, true
+}
+
+// filterResponse is V(out)/V(in) of the circuit as it is, in driven by an
+// ideal source: the AC ground of its two rails lifted, every other rail
+// kept (the section after a smoothing filter may itself be a declared rail).
+func filterResponse(c *graph.Circuit, in, out string) (*ac.Response, error) {
+	lifted := withPart(c, &graph.Part{})
+	lifted.Nets = make([]*graph.Net, len(c.Nets))
+	for i, n := range c.Nets {
+		lifted.Nets[i] = n
+		if (n.Name == in || n.Name == out) && n.Role != graph.Signal {
+			m := *n
+			m.Role = graph.Signal
+			lifted.Nets[i] = &m
+		}
+	}
+	return ac.NewTransfer(lifted, in, out, gangMid.options())
+}
+
+// filterCorner is where |V(out)/V(in)| falls 3 dB below its level at DC
+// (read at guess/100), searched from the highest point between guess/100
+// and 10·guess (a choke section peaks at its resonance) up to
+// guess·cornerSpan.
+func filterCorner(r *ac.Response, guess float64) (float64, bool) {
+	level := magnitude(r, guess/100)
+	if !(level > 0) {
+		return 0, false
+	}
+	top, best := guess/100, level
+	for i := 0; i <= 60; i++ {
+		f := guess / 100 * math.Pow(1000, float64(i)/60)
+		if m := magnitude(r, f); m > best {
+			top, best = f, m
+		}
+	}
+	return crossing(r, level/math.Sqrt2, top, guess*cornerSpan)
+}
+
+// attenuation is how far |V(out)/V(in)| lies below 1 at f, in decibels
+// (positive: the filter attenuates).
+func attenuation(r *ac.Response, f float64) (float64, bool) {
+	m := magnitude(r, f)
+	if !(m > 0) {
+		return 0, false
+	}
+	return -20 * math.Log10(m), true
+}
+
+// seriesAtten is the textbook attenuation of one section at f: X_C/R for a
+// resistor, X_C/(X_L − X_C) for a choke (handbook formulas, from memory),
+// in decibels; 0 and false below the choke's resonance, where it gives none.
+func seriesAtten(s *graph.Part, c, f float64) (float64, bool) {
+	xc := 1 / (2 * math.Pi * f * c)
+	switch s.Kind {
+	case graph.Resistor:
+		return 20 * math.Log10(math.Hypot(s.Value.Max, xc)/xc), true
+	case graph.Inductor:
+		xl := 2 * math.Pi * f * s.Inductance()
+		if xl <= xc {
+			return 0, false
+		}
+		return 20 * math.Log10((xl-xc)/xc), true
+	}
+	return 0, false
+}
+
+// rippleSource is the ripple frequency of the set's supply and the words
+// that say where it comes from: the mains frequency a transformer declares
+// (hz), else 50 Hz assumed; twice it where the rectifier is full-wave (two
+// or more diode paths into a reservoir), once for half-wave. ok is false
+// for a set with no rectifier (a battery set has no ripple).
+func (x *figCtx) rippleSource() (float64, string, bool) {
+	mains, said := 50.0, "50 Hz mains assumed (the set declares none)"
+	for _, p := range x.w.c.Parts {
+		if p.Kind == graph.Transformer && p.Params["hz"] > 0 {
+			mains, said = p.Params["hz"], fmt.Sprintf("%s Hz mains from %s", figure.Plain(p.Params["hz"]), p.Ref)
+			break
+		}
+	}
+	paths, rect := 0, ""
+	for ci, p := range x.w.parts {
+		n := 0
+		switch {
+		case p.Kind == graph.Diode:
+			n = 1
+		case p.Kind == graph.Valve && isValveDiode(p):
+			n = len(p.Pins) - 1 // its anodes; the cathode (or filament) is the rest
+		}
+		if n == 0 || !x.onReservoir(ci) {
+			continue
+		}
+		paths += n
+		if rect == "" {
+			rect = p.Ref
+		}
+	}
+	switch {
+	case paths == 0:
+		return 0, "", false
+	case paths == 1:
+		return mains, fmt.Sprintf("half-wave rectifier %s, %s", rect, said), true
+	}
+	return 2 * mains, fmt.Sprintf("full-wave rectifier %s, %s", rect, said), true
+}
+
+// reservoirMin is the least capacitance that makes a rectifier's load a
+// reservoir, not a detector's RF bypass (hundreds of picofarads): common
+// practice.
+const reservoirMin = 1e-6
+
+// onReservoir tells whether a diode has a terminal on a net with a
+// reservoir-sized capacitor to chassis.
+func (x *figCtx) onReservoir(ci int) bool {
+	for _, id := range x.w.pins[ci] {
+		if id == groundNet {
+			continue
+		}
+		for _, cj := range x.w.conns[id] {
+			q := x.w.parts[cj]
+			if q.Kind == graph.Capacitor && q.Value.Max >= reservoirMin && slicesHas(x.w.pins[cj], groundNet) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+func slicesHas(ids []int, v int) bool {
+	for _, id := range ids {
+		if id == v {
+			return true
+		}
+	}
+	return false
+}

@@ -1,0 +1,120 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/figure"
+)
+
+// The textbook figures of a supply filter section (handbook formulas, from
+// memory; docs/references.md §4): the corner of an RC section, the
+// resonance of a choke section, and one section's attenuation.
+var (
+	byChoke       = figure.ByFormula("f0 = 1/(2π√(LC2))")
+	bySmoothRC    = figure.ByFormula("fc = 1/(2πRC2)")
+	byAttenRC     = figure.ByFormula("A = √(R² + X_C²)/X_C")
+	byAttenChoke  = figure.ByFormula("A = (X_L − X_C)/X_C")
+	byRippleRule  = figure.ByFormula("f ripple = 2 × mains (full-wave), 1 × (half-wave)")
+	byFeedBandLow = figure.ByFormula("the lowest frequency of the fed stage's band")
+)
+
+// calcSmoothing: a supply filter section (supplyfilter.go), its series part
+// a resistor or a choke, its shunt capacitor of any kind, the capacitor
+// before it (the reservoir, or the section before's) there or not. A match
+// the wrong way round, or whose ends do not run from a supply into a
+// stage's feed, is none (the pattern's guard drops it). In circuit: the
+// −3 dB corner of V(out)/V(in) and the attenuation at the ripple frequency
+// and at the fed stage's lowest frequency, each with the section's
+// textbook figure beside it.
+func calcSmoothing(x *figCtx) {
+	s := x.part("series")
+	if s == nil || s.Kind != graph.Resistor && s.Kind != graph.Inductor {
+		return
+	}
+	in, out, dev, swapped, ok := x.supplyFilterNets(s)
+	if !ok {
+		return
+	}
+	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
+	if swapped {
+		c1, c2 = c2, c1
+	}
+	if c2 <= 0 {
+		return
+	}
+	if c1 > 0 {
+		x.set("c_reservoir", figure.Farad, c1, byPartValue)
+	}
+	x.set("c_smoothing", figure.Farad, c2, byPartValue)
+	guess := 1 / (2 * math.Pi * s.Value.Max * c2)
+	check := figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: guess, Origin: bySmoothRC}
+	if s.Kind == graph.Inductor {
+		guess = resonance(s.Inductance(), c2)
+		check = figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: guess, Origin: byChoke}
+	}
+	if !x.solve {
+		x.put(check)
+		return
+	}
+	x.checkSmoothing(x.netName(in), x.netName(out))
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s", dev.Ref))
+	x.filterInCircuit(s, c2, x.netName(in), x.netName(out), dev, check)
+}
+
+// filterInCircuit writes the solver's figures of a supply filter section on
+// the circuit as it is, its rail driven.
+func (x *figCtx) filterInCircuit(s *graph.Part, c2 float64, in, out string, dev *graph.Part, check figure.Figure) {
+	r, err := filterResponse(x.w.c, in, out)
+	if err != nil {
+		x.put(check)
+		x.st.Notes = append(x.st.Notes, "the solver could not drive "+in+": the corner is the formula's")
+		return
+	}
+	transfer := "V(" + out + ")/V(" + in + "), " + in + " driven"
+	if f, ok := filterCorner(r, check.Value); ok {
+		sv := &figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: f, Origin: figure.BySolver("−3 dB of "+transfer, "")}
+		x.putChecked(sv, &check, func() string {
+			if s.Kind == graph.Inductor {
+				return "the formula is the section's resonance; an LC section falls 3 dB only above it (√(1+√2) = 1.55 times it, undamped and unloaded)"
+			}
+			return fmt.Sprintf("the formula takes %s and the capacitor alone; in circuit what the node feeds loads it", s.Ref)
+		})
+	} else {
+		x.put(check)
+	}
+	if f, said, ok := x.rippleSource(); ok {
+		x.set("f_ripple", figure.Hertz, f, byRippleRule)
+		x.attenFigure("atten_ripple", s, c2, f, r, transfer)
+		x.st.Notes = append(x.st.Notes, "ripple from the "+said)
+	} else {
+		x.st.Notes = append(x.st.Notes, "no rectifier with a reservoir in the set: no ripple figure")
+	}
+	if band := x.w.c.BandOf(dev); band.Min > 0 {
+		x.set("f_feed", figure.Hertz, band.Min, byFeedBandLow)
+		x.attenFigure("atten_feed", s, c2, band.Min, r, transfer)
+	}
+}
+
+// attenFigure writes the solver's attenuation at f with the section's
+// textbook one beside it.
+func (x *figCtx) attenFigure(name string, s *graph.Part, c2, f float64, r *ac.Response, transfer string) {
+	db, ok := attenuation(r, f)
+	if !ok {
+		return
+	}
+	var check *figure.Figure
+	if v, ok := seriesAtten(s, c2, f); ok {
+		o := byAttenRC
+		if s.Kind == graph.Inductor {
+			o = byAttenChoke
+		}
+		check = &figure.Figure{Name: name, Unit: figure.Decibel, Value: v, Origin: o}
+	}
+	sv := &figure.Figure{Name: name, Unit: figure.Decibel, Value: db, Origin: figure.BySolver(transfer, hz(f))}
+	x.putChecked(sv, check, func() string {
+		return fmt.Sprintf("the formula takes %s and the capacitor alone, one section into nothing; in circuit the sections before and what the node feeds change it", s.Ref)
+	})
+}
