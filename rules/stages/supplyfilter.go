@@ -186,20 +186,53 @@ func (x *figCtx) supplyFilterNets(s *graph.Part) (in, out int, dev *graph.Part, 
 }
 
 // filterResponse is V(out)/V(in) of the circuit as it is, in driven by an
-// ideal source: the AC ground of its two rails lifted, every other rail
-// kept (the section after a smoothing filter may itself be a declared rail).
-func filterResponse(c *graph.Circuit, in, out string) (*ac.Response, error) {
-	lifted := withPart(c, &graph.Part{})
-	lifted.Nets = make([]*graph.Net, len(c.Nets))
-	for i, n := range c.Nets {
-		lifted.Nets[i] = n
-		if (n.Name == in || n.Name == out) && n.Role != graph.Signal {
-			m := *n
-			m.Role = graph.Signal
-			lifted.Nets[i] = &m
+// ideal source: the AC ground of its two rails lifted (the section after a
+// smoothing filter may itself be a declared rail), every other rail kept.
+// What lies beyond the driven rail cannot change the response, so only the
+// parts reached from out without passing in are solved: the transformer
+// and rectifier behind a reservoir (a mains primary left floating in a
+// drawing of the set) stay out of it.
+func (x *figCtx) filterResponse(in, out int) (*ac.Response, error) {
+	c := x.w.c
+	inName, outName := x.netName(in), x.netName(out)
+	keep := make([]bool, len(x.w.parts))
+	seen := map[int]bool{out: true, in: true, groundNet: true}
+	frontier := []int{out}
+	for len(frontier) > 0 {
+		var next []int
+		for _, id := range frontier {
+			for _, ci := range x.w.conns[id] {
+				if keep[ci] {
+					continue
+				}
+				keep[ci] = true
+				for _, o := range x.w.pins[ci] {
+					if !seen[o] {
+						seen[o] = true
+						next = append(next, o)
+					}
+				}
+			}
+		}
+		frontier = next
+	}
+	sub := withPart(c, &graph.Part{})
+	sub.Parts = nil
+	for ci, p := range x.w.parts {
+		if keep[ci] {
+			sub.Parts = append(sub.Parts, p)
 		}
 	}
-	return ac.NewTransfer(lifted, in, out, gangMid.options())
+	sub.Nets = make([]*graph.Net, len(c.Nets))
+	for i, n := range c.Nets {
+		sub.Nets[i] = n
+		if (n.Name == inName || n.Name == outName) && n.Role != graph.Signal {
+			m := *n
+			m.Role = graph.Signal
+			sub.Nets[i] = &m
+		}
+	}
+	return ac.NewTransfer(sub, inName, outName, gangMid.options())
 }
 
 // filterCorner is where |V(out)/V(in)| falls 3 dB below its level at DC

@@ -61,16 +61,17 @@ func calcSmoothing(x *figCtx) {
 	}
 	x.checkSmoothing(x.netName(in), x.netName(out))
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s", dev.Ref))
-	x.filterInCircuit(s, c2, x.netName(in), x.netName(out), dev, check)
+	x.filterInCircuit(s, c2, in, out, dev, check)
 }
 
 // filterInCircuit writes the solver's figures of a supply filter section on
 // the circuit as it is, its rail driven.
-func (x *figCtx) filterInCircuit(s *graph.Part, c2 float64, in, out string, dev *graph.Part, check figure.Figure) {
-	r, err := filterResponse(x.w.c, in, out)
+func (x *figCtx) filterInCircuit(s *graph.Part, c2 float64, inID, outID int, dev *graph.Part, check figure.Figure) {
+	in, out := x.netName(inID), x.netName(outID)
+	r, err := x.filterResponse(inID, outID)
 	if err != nil {
 		x.put(check)
-		x.st.Notes = append(x.st.Notes, "the solver could not drive "+in+": the corner is the formula's")
+		x.st.Notes = append(x.st.Notes, "the solver could not drive "+in+": the corner is the formula's ("+err.Error()+")")
 		return
 	}
 	transfer := "V(" + out + ")/V(" + in + "), " + in + " driven"
