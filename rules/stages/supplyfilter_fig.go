@@ -3,6 +3,7 @@ package stages
 import (
 	"fmt"
 	"math"
+	"sort"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -41,6 +42,7 @@ func calcSmoothing(x *figCtx) {
 	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
 	if swapped {
 		c1, c2 = c2, c1
+		x.claimInstead(x.parts("c2"), x.parts("c1"))
 	}
 	if c2 <= 0 {
 		return
@@ -118,4 +120,26 @@ func (x *figCtx) attenFigure(name string, s *graph.Part, c2, f float64, r *ac.Re
 	x.putChecked(sv, check, func() string {
 		return fmt.Sprintf("the formula takes %s and the capacitor alone, one section into nothing; in circuit the sections before and what the node feeds change it", s.Ref)
 	})
+}
+
+// claimInstead makes the stage hold the parts of take instead of those of
+// drop: the match bound the pattern's shared capacitor (the one before
+// the section) to the section's own, so the stage would claim the
+// reservoir and leave its smoothing capacitor to no one.
+func (x *figCtx) claimInstead(drop, take []*graph.Part) {
+	gone := map[string]bool{}
+	for _, p := range drop {
+		gone[p.Ref] = true
+	}
+	parts := x.st.Parts[:0]
+	for _, r := range x.st.Parts {
+		if !gone[r] {
+			parts = append(parts, r)
+		}
+	}
+	for _, p := range take {
+		parts = append(parts, p.Ref)
+	}
+	sort.Strings(parts)
+	x.st.Parts = parts
 }
