@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/rules"
 )
 
 func loadOsc(t *testing.T, name string) *graph.Circuit {
@@ -27,20 +28,42 @@ func TestOscillatorLoopFlags(t *testing.T) {
 		file, topology string
 		settings       int
 		flag           string // a flag that must be there ("" none of the loop flags)
+		reduced        bool   // found on the reduced circuit, as pare runs
 	}{
 		// A tickler's feedback rises with frequency (M·ω against a
 		// tank of falling dynamic resistance): too loose a coupling
 		// fails first at the low end of the dial (common practice).
-		{"tickler-valve-weak.toml", "tuned-grid-tickler", 5, "will not start: loop gain -1.3 dB at the low end of the dial"},
-		{"tickler-valve.toml", "tuned-grid-tickler", 5, "may squegg"},
-		{"edge-below-colpitts-bjt.toml", "colpitts-common-tap", 1, "Q1: loop phase 0° at 2.817 MHz, loop gain -0.5 dB at best (Q1's gm would have to rise 0.5 dB"},
-		{"edge-above-colpitts-bjt.toml", "colpitts-common-tap", 1, ""},
-		{"hartley-valve.toml", "hartley-common-tap", 1, ""},
+		{"tickler-valve-weak.toml", "tuned-grid-tickler", 5, "will not start: loop gain -1.3 dB at the low end of the dial", false},
+		{"tickler-valve.toml", "tuned-grid-tickler", 5, "may squegg", false},
+		{"edge-below-colpitts-bjt.toml", "colpitts-common-tap", 1, "Q1: loop phase 0° at 2.817 MHz, loop gain -0.5 dB at best (Q1's gm would have to rise 0.5 dB", false},
+		{"edge-above-colpitts-bjt.toml", "colpitts-common-tap", 1, "", false},
+		{"hartley-valve.toml", "hartley-common-tap", 1, "", false},
+		// The control electrode at AC ground (common base, grounded grid):
+		// named by their patterns, the loop confirming or refusing each.
+		// The base or grid is at AC ground only once the reduction has
+		// shorted its bypass, so these are found on the reduced circuit.
+		{"colpitts-cb-bjt.toml", "colpitts-grounded-control", 1, "", true},
+		{"colpitts-cb-valve.toml", "colpitts-grounded-control", 1, "", true},
+		{"edge-below-colpitts-cb-valve.toml", "colpitts-grounded-control", 1, "loop gain -0.8 dB at best", true},
+		{"hartley-cb-bjt.toml", "hartley-grounded-control", 1, "", true},
+		// A tickler in transistor form: the collector's winding feeds the
+		// tuned base winding back.
+		{"tickler-bjt.toml", "tuned-grid-tickler", 5, "", false},
 	}
 	for _, tc := range cases {
 		t.Run(tc.file, func(t *testing.T) {
 			c := loadOsc(t, tc.file)
-			st := stageOf(find(t, c, Options{}), tc.topology)
+			var found []Stage
+			if tc.reduced {
+				reduced, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
+				if err != nil {
+					t.Fatal(err)
+				}
+				found = find(t, reduced, Options{Full: c, ACGround: log.ACGround})
+			} else {
+				found = find(t, c, Options{})
+			}
+			st := stageOf(found, tc.topology)
 			if st == nil || len(st.Loop) != 1 {
 				t.Fatalf("no %s stage with one loop", tc.topology)
 			}

@@ -93,6 +93,31 @@ L1 = { l = "10u", pins = ["top", "bot"] }
 C2 = { c = "1n", pins = ["top", "gnd"] }
 C3 = { c = "100p", pins = ["g", "top"] }
 C4 = { c = "1n", pins = ["o", "bot"] }`},
+	// The control electrode at AC ground (common base, grounded grid or
+	// gate): the tank on the output, the divider's tap on the common.
+	{topology: "colpitts-grounded-control", families: allFamilies,
+		parts: `@Q1(gnd, k, top)
+L1 = { l = "10u", pins = ["top", "gnd"] }
+C1 = { c = "220p", pins = ["top", "k"] }
+C2 = { c = "1n", pins = ["k", "gnd"] }`,
+		// The divider's midpoint does not reach the common electrode.
+		nearMiss: `@Q1(gnd, k, top)
+R1 = { r = "1k", pins = ["k", "gnd"] }
+L1 = { l = "10u", pins = ["top", "gnd"] }
+C1 = { c = "220p", pins = ["top", "m"] }
+C2 = { c = "1n", pins = ["m", "gnd"] }`},
+	{topology: "hartley-grounded-control", families: allFamilies,
+		parts: `@Q1(gnd, k, top)
+L1 = { l = ["96u", "1u"], k = 0.9, pins = ["top", "tap", "gnd"] }
+C1 = { c = "150p", pins = ["top", "gnd"] }
+C4 = { c = "10n", pins = ["tap", "k"] }`,
+		// The tap bypassed to chassis, the common electrode on a resistor
+		// alone: no feedback from the coil.
+		nearMiss: `@Q1(gnd, k, top)
+L1 = { l = ["96u", "1u"], k = 0.9, pins = ["top", "tap", "gnd"] }
+C1 = { c = "150p", pins = ["top", "gnd"] }
+C4 = { c = "10n", pins = ["tap", "gnd"] }
+R2 = { r = "1k", pins = ["k", "gnd"] }`},
 	{topology: "clapp", families: allFamilies,
 		parts: `@Q1(top, k, ht)
 L1 = { l = "22u", pins = ["top", "m"] }
