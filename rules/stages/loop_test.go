@@ -46,6 +46,7 @@ func TestOscillatorLoopFlags(t *testing.T) {
 		{"colpitts-cb-valve.toml", "colpitts-grounded-control", 1, "", true},
 		{"edge-below-colpitts-cb-valve.toml", "colpitts-grounded-control", 1, "loop gain -0.8 dB at best", true},
 		{"hartley-cb-bjt.toml", "hartley-grounded-control", 1, "", true},
+		{"clapp-ce-bjt.toml", "clapp-grounded-tap", 1, "", true},
 		// A tickler in transistor form: the collector's winding feeds the
 		// tuned base winding back.
 		{"tickler-bjt.toml", "tuned-grid-tickler", 5, "", false},

@@ -130,6 +130,34 @@ L1 = { l = "22u", pins = ["top", "m"] }
 R3 = { r = "100", pins = ["m", "gnd"] }
 C2 = { c = "1n", pins = ["top", "k"] }
 C1 = { c = "1n", pins = ["k", "gnd"] }`},
+	{topology: "clapp-grounded-control", families: allFamilies,
+		parts: `@Q1(gnd, k, top)
+L1 = { l = "22u", pins = ["top", "m"] }
+C3 = { c = "100p", pins = ["m", "gnd"] }
+C1 = { c = "220p", pins = ["top", "k"] }
+C2 = { c = "1n", pins = ["k", "gnd"] }`,
+		// A resistor, not a capacitor, in series with the coil.
+		nearMiss: `@Q1(gnd, k, top)
+L1 = { l = "22u", pins = ["top", "m"] }
+R3 = { r = "100", pins = ["m", "gnd"] }
+C1 = { c = "220p", pins = ["top", "k"] }
+C2 = { c = "1n", pins = ["k", "gnd"] }`},
+	{topology: "clapp-grounded-tap", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+L1 = { l = "22u", pins = ["top", "m"] }
+C3 = { c = "100p", pins = ["m", "bot"] }
+C1 = { c = "1n", pins = ["bot", "gnd"] }
+C2 = { c = "1n", pins = ["top", "gnd"] }
+C4 = { c = "100p", pins = ["g", "top"] }
+C5 = { c = "1n", pins = ["o", "bot"] }`,
+		// A resistor, not a capacitor, in series with the coil.
+		nearMiss: `@Q1(g, gnd, o)
+L1 = { l = "22u", pins = ["top", "m"] }
+R3 = { r = "100", pins = ["m", "bot"] }
+C1 = { c = "1n", pins = ["bot", "gnd"] }
+C2 = { c = "1n", pins = ["top", "gnd"] }
+C4 = { c = "100p", pins = ["g", "top"] }
+C5 = { c = "1n", pins = ["o", "bot"] }`},
 	{topology: "tuned-grid-tickler", families: allFamilies,
 		parts: `@Q1(g, gnd, o)
 T1 = { windings = { p = "250u", t = "20u" }, k = 0.3, pins = { p1 = "top", p2 = "gnd", t1 = "o", t2 = "ht" } }
