@@ -186,7 +186,7 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 	}
 	var frames []render.Frame
 	for _, s := range found {
-		if sub[s.Name] {
+		if sub[s.Name] || filterSection(s, full) {
 			continue
 		}
 		set := map[string]bool{}
@@ -216,6 +216,24 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts})
 	}
 	return frames
+}
+
+// filterSection tells a supply filter section (a series resistor or choke
+// and its capacitors, found on the full circuit) from the stages a sheet
+// frames: its parts sit where the rail meets each stage's feed, often far
+// apart on the sheet, and a frame around them would sweep across the
+// stages between; the stage list and the note name it with its figures.
+func filterSection(s stages.Stage, full *graph.Circuit) bool {
+	if !s.Supply || full == nil {
+		return false
+	}
+	for _, ref := range s.Parts {
+		p := full.Part(ref)
+		if p == nil || p.Kind != graph.Resistor && p.Kind != graph.Inductor && p.Kind != graph.Capacitor {
+			return false
+		}
+	}
+	return len(s.Parts) > 0
 }
 
 // frameFigures is a frame's second line: the first n items of the stage's
