@@ -11,7 +11,7 @@ import (
 )
 
 // The textbook figures of a supply filter section (handbook formulas, from
-// memory; docs/references.md §4, §21): the corner of an RC section, the
+// memory; docs/references.md §4, §24): the corner of an RC section, the
 // resonance of a choke section, and one section's attenuation.
 var (
 	byChoke       = figure.ByFormula("f0 = 1/(2π√(LC2))")
