@@ -86,7 +86,9 @@ func TestReviewOscLoopFlags(t *testing.T) {
 func TestReviewOscReachIsBounded(t *testing.T) {
 	_, st := reduceGood(t, "review-audio-triode.toml")
 	for _, s := range st {
-		if slices.ContainsFunc(s.Flags, func(f string) bool { return strings.Contains(f, "will not start as drawn") || strings.Contains(f, "does not oscillate as drawn") }) {
+		if slices.ContainsFunc(s.Flags, func(f string) bool {
+			return strings.Contains(f, "will not start as drawn") || strings.Contains(f, "does not oscillate as drawn")
+		}) {
 			t.Errorf("%s: an audio amplifier flagged as an oscillator short of starting: %v", s.Name, s.Flags)
 		}
 	}
