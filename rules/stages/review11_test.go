@@ -174,3 +174,39 @@ func TestReviewOscWindingFormulaNotShown(t *testing.T) {
 		t.Errorf("%s: no note on the formula's figure: %q", s.Name, s.Notes)
 	}
 }
+
+// A heptode whose oscillator feedback runs through a reaction winding in
+// its g2 (oscillator anode) lead is a self-oscillating mixer found by its
+// loop, with the padder inside it. ngspice .ac on
+// testdata/good/review-osc/c2-heptode-loop.cir (the reviewer's deck, g2
+// current 0.5 mA/V × v(g1, k)): 0° at 1.021 MHz with the gang full, 3.255
+// MHz with it empty; the kicked transient c2-heptode-tran.cir grows. The
+// deck's margins (+8.6, +12.6 dB) rest on its own 20 kΩ g2 resistance and
+// no anode current, so only the frequencies and the sign are compared.
+func TestReviewOscHeptodeReactionInG2(t *testing.T) {
+	_, st := reduceGood(t, "review-osc-c2-heptode.toml")
+	var s *Stage
+	for i := range st {
+		if slices.Contains(st[i].Parts, "V1") && strings.HasPrefix(st[i].Title, "Self-oscillating mixer") {
+			s = &st[i]
+		}
+	}
+	if s == nil {
+		t.Fatalf("V1 not in a self-oscillating mixer: %s", topologies(st))
+	}
+	if !slices.Contains(s.Parts, "C2") {
+		t.Errorf("the padder C2 is not in the mixer: %v", s.Parts)
+	}
+	if len(s.Loop) == 0 {
+		t.Fatalf("%s: no loop", s.Name)
+	}
+	fMin, fMax, mMin, _, ok := s.Loop[0].Range()
+	if !ok || mMin <= 0 {
+		t.Fatalf("loop %+v: want margin above 0 dB across the dial", s.Loop[0])
+	}
+	for _, c := range []struct{ got, want float64 }{{fMin, 1.021e6}, {fMax, 3.255e6}} {
+		if math.Abs(c.got/c.want-1) > 0.002 {
+			t.Errorf("loop 0° at %.4g Hz, ngspice %.4g Hz", c.got, c.want)
+		}
+	}
+}
