@@ -40,7 +40,7 @@ func TestOscillatorLoopFlags(t *testing.T) {
 		{"hartley-valve.toml", "hartley-common-tap", 1, "", false},
 		// The Hartley pair straddles the threshold (−1.8 dB and +0.4 dB;
 		// the kicked ngspice transients in graph/ac decay and grow).
-		{"edge-below-hartley-valve.toml", "hartley-common-tap", 1, "does not oscillate as drawn: loop gain -1.8 dB at best", false},
+		{"edge-below-hartley-valve.toml", "hartley-common-tap", 1, "loop gain -1.8 dB at best (V1's gm would have to rise 1.8 dB (1.23×) to start): does not oscillate as drawn", false},
 		{"edge-above-hartley-valve.toml", "hartley-common-tap", 1, "", false},
 		// The control electrode at AC ground (common base, grounded grid):
 		// named by their patterns, the loop confirming or refusing each.
