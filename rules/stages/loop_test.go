@@ -95,8 +95,9 @@ func TestOscillatorLoopFlags(t *testing.T) {
 
 // An oscillator no pattern names is found by its loop: the converter whose
 // feedback reaches the emitter through a separate link winding, and the
-// Wien bridge whose first valve has the bridge's arm on its cathode. The
-// near miss is the same converter with the link winding reversed: negative
+// Wien bridge whose first valve has the bridge's arm on its cathode, with a
+// Wien pattern that knows only the grounded drawing in place of the
+// built-in one (which names the class: TestWienBridgeClass). The near miss is the same converter with the link winding reversed: negative
 // feedback, no 0° loop phase, no oscillator.
 func TestOscillatorFoundByLoop(t *testing.T) {
 	cases := []struct {
@@ -115,7 +116,7 @@ func TestOscillatorFoundByLoop(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			found := find(t, c, Options{})
+			found := find(t, c, Options{PatternDir: "testdata/wien-grounded-only"})
 			st := stageOf(found, loopTopology)
 			if tc.device == "" {
 				if st != nil {

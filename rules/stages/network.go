@@ -148,6 +148,15 @@ func sumCap(ps []*graph.Part, frac float64) float64 {
 	return t
 }
 
+// seriesR adds resistors in series.
+func seriesR(ps []*graph.Part) float64 {
+	t := 0.0
+	for _, p := range ps {
+		t += p.Value.Max
+	}
+	return t
+}
+
 // parallelR combines resistors in parallel.
 func parallelR(ps []*graph.Part) float64 {
 	g := 0.0

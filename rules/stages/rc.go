@@ -181,7 +181,10 @@ func calcPhaseShift(x *figCtx) {
 // calcWien: f = 1/(2π√(R1R2C1C2)); with equal arms the loop needs a gain of
 // 3 (handbook formula, from memory).
 func calcWien(x *figCtx) {
-	r1, c1, r2, c2 := parallelR(x.parts("r1")), sumCap(x.parts("c1"), 1), parallelR(x.parts("r2")), sumCap(x.parts("c2"), 1)
+	// The series arm's resistors add (one before the capacitor, one after:
+	// the order within a series arm does not matter); the parallel arm's
+	// resistors are in parallel.
+	r1, c1, r2, c2 := seriesR(x.parts("r1")), sumCap(x.parts("c1"), 1), parallelR(x.parts("r2")), sumCap(x.parts("c2"), 1)
 	if r1 <= 0 || r2 <= 0 || c1 <= 0 || c2 <= 0 {
 		return
 	}
