@@ -99,6 +99,9 @@ type Sheet struct {
 	View    View
 	Faded   map[string]bool   // refs drawn faded (removed by the reduction)
 	Merged  map[string]string // original ref -> ref of the reduced part it went into
+	// FadedPins are, per ref of a kept part, the pins the reduction dropped
+	// (heaters, static grids): drawn faded with their wires and locals.
+	FadedPins map[string]map[string]bool
 	Frames  []Frame
 	// Caution is the safety line printed under the drawing, as given
 	// (graph/safety words it for the set and the view). Empty: the
@@ -170,8 +173,12 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	// the sections turn together, reduced or not
 	o := layout.Options{Style: symbol.Style(cfg.Style), Links: true, Untangle: s.View == Reduced,
 		HideUnconnected: s.View == Reduced, Ties: s.Ties, Presets: s.Presets}
-	if s.View == Faded {
-		o.Faded, o.Merged = s.Faded, s.Merged
+	// The full and the faded view are one layout (the full sheet carries
+	// the reduction's faded and merged parts too): the full view draws it
+	// in plain ink, so the two show the same geometry.
+	if s.View != Reduced {
+		o.Faded, o.Merged, o.FadedPins = s.Faded, s.Merged, s.FadedPins
+		o.Plain = s.View == Full
 	}
 	if s.View != Reduced {
 		o.PinVolts = s.PinVolts

@@ -17,11 +17,17 @@ type cell struct {
 	locals []geom.Local
 	label  geom.Label
 	faded  bool
-	col    int
-	edge   int  // -1: an input flag at the left edge, +1: an output flag at the right edge
-	conn   bool // an off-row connector (rows.go), at its edge
-	turns  []symbol.Orient
-	turn   int // index of the chosen orientation in turns
+	// fadedPins are the pins the reduction dropped from a part it kept (a
+	// valve's heaters, a static grid): their locals and wires are faded.
+	fadedPins map[string]bool
+	// mark is the merge mark in the label ("→ VC1a"), left out of the
+	// text on a view that does not show what the reduction did.
+	mark  string
+	col   int
+	edge  int  // -1: an input flag at the left edge, +1: an output flag at the right edge
+	conn  bool // an off-row connector (rows.go), at its edge
+	turns []symbol.Orient
+	turn  int // index of the chosen orientation in turns
 }
 
 func (c *cell) footprint() geom.Rect {
@@ -129,7 +135,7 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 				l := localCandidates(p, ret, role, 6)[0]
 				best = &l
 			}
-			best.Owner, best.Faded = cl.ref, cl.faded
+			best.Owner, best.Faded = cl.ref, cl.faded || cl.fadedPins[p.Name]
 			cl.locals = append(cl.locals, *best)
 			obs.boxes = append(obs.boxes, best.Box)
 			obs.segs = append(obs.segs, best.Stub...)

@@ -29,7 +29,10 @@ func makeCells(c *graph.Circuit, o Options) []*cell {
 		}
 	}
 	for _, p := range c.Parts {
-		cl := &cell{part: p, ref: p.Ref, faded: o.Faded[p.Ref]}
+		cl := &cell{part: p, ref: p.Ref, faded: o.Faded[p.Ref], fadedPins: o.FadedPins[p.Ref]}
+		if to, ok := o.Merged[p.Ref]; ok && to != p.Ref {
+			cl.mark = mergeMark(to)
+		}
 		cl.label.Owner, cl.label.Faded = p.Ref, cl.faded
 		cl.label.Lines = labelLines(p, o)
 		out = append(out, cl)
@@ -107,7 +110,7 @@ func labelLines(p *graph.Part, o Options) []string {
 		second = append(second, "gang "+p.Gang)
 	}
 	if to, ok := o.Merged[p.Ref]; ok && to != p.Ref {
-		second = append(second, "\u2192 "+to)
+		second = append(second, mergeMark(to))
 	}
 	// A gang section drawn with its trimmer folded in is named by its gang
 	// and alignment mark already; the mark is for a fixed equivalent (a

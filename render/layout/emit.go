@@ -103,6 +103,7 @@ func (rt *router) emit(g *geom.Sheet) {
 		if !nr.ok || len(nr.cells) == 0 {
 			continue
 		}
+		rt.fadeRuns(id)
 		w, dots := rt.wire(id)
 		g.Wires = append(g.Wires, w)
 		g.Dots = append(g.Dots, dots...)

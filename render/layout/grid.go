@@ -123,7 +123,7 @@ func (rt *router) collectNets() {
 				byName[p.Net] = nr
 				names = append(names, p.Net)
 			}
-			nr.pins = append(nr.pins, wirePin{ref: cl.ref, pin: p, faded: cl.faded, cell: rt.index(p.At)})
+			nr.pins = append(nr.pins, wirePin{ref: cl.ref, pin: p, faded: cl.faded || cl.fadedPins[p.Name], cell: rt.index(p.At)})
 		}
 	}
 	sort.Strings(names)

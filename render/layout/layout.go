@@ -48,6 +48,14 @@ type Options struct {
 	// Faded refs are drawn faded; Merged maps a ref to the part it went into.
 	Faded  map[string]bool
 	Merged map[string]string
+	// FadedPins are, per ref of a part the reduction kept, the pins it
+	// dropped (heaters, a static grid): their locals and the wires that
+	// serve only them are faded.
+	FadedPins map[string]map[string]bool
+	// Plain lays the sheet out exactly as with Faded, FadedPins and Merged
+	// but draws nothing faded and no merge mark: the full view, which is
+	// the faded view's layout in plain ink (fade.go).
+	Plain  bool
 	Frames []Frame
 	// Links draws ganged sections joined by a dashed mechanical link.
 	Links bool

@@ -69,7 +69,7 @@ func placePinFigures(ly *state, g *geom.Sheet) {
 				left = append(left, p.Name+" "+v)
 				continue
 			}
-			figs = append(figs, geom.Label{Owner: cl.ref + "." + p.Name, Lines: []string{text}, Box: r, Faded: cl.faded, Small: true})
+			figs = append(figs, geom.Label{Owner: cl.ref + "." + p.Name, Lines: []string{text}, Box: r, Faded: cl.faded || cl.fadedPins[p.Name], Small: true})
 		}
 		trimDCLine(g, cl.ref, left)
 	}

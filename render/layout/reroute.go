@@ -90,8 +90,6 @@ func (rt *router) budget() int { return 200000 + 50*len(rt.ly.cells) }
 type saved struct {
 	cells []int
 	arms  []uint8
-	fe    []bool
-	fs    []bool
 }
 
 func (rt *router) save(id int) saved {
@@ -100,8 +98,6 @@ func (rt *router) save(id int) saved {
 	for _, c := range rt.nets[id].cells {
 		s.cells = append(s.cells, c)
 		s.arms = append(s.arms, rt.arms(c, net))
-		s.fe = append(s.fe, rt.faded(c, fFadedE))
-		s.fs = append(s.fs, rt.faded(c, fFadedS))
 	}
 	return s
 }
@@ -111,12 +107,6 @@ func (rt *router) restore(id int, s saved) {
 	for i, c := range s.cells {
 		if !rt.owns(c, net) || rt.arms(c, net) != s.arms[i] {
 			rt.addArm(c, net, s.arms[i])
-		}
-		if s.arms[i]&armE != 0 {
-			rt.setFaded(c, fFadedE, s.fe[i])
-		}
-		if s.arms[i]&armS != 0 {
-			rt.setFaded(c, fFadedS, s.fs[i])
 		}
 	}
 	rt.nets[id].cells = append([]int(nil), s.cells...)
@@ -256,8 +246,10 @@ func (rt *router) searchMargins() []int {
 	return []int{12}
 }
 
-// routeNet grows the net's tree from its first live pin, joining the nearest
-// pending pin each time, live pins before faded ones.
+// routeNet grows the net's tree from its first pin, joining the nearest
+// pending pin each time. Whether a pin is faded plays no part: the faded view
+// is the full view's wiring with the runs that serve only faded pins greyed
+// (fadeRuns), so the two views draw the same wires.
 func (rt *router) routeNet(id int) bool {
 	nr := rt.nets[id]
 	net := int32(id + 1)
@@ -267,9 +259,6 @@ func (rt *router) routeNet(id int) bool {
 	}
 	pins := append([]wirePin(nil), nr.pins...)
 	sort.SliceStable(pins, func(a, b int) bool {
-		if pins[a].faded != pins[b].faded {
-			return !pins[a].faded
-		}
 		pa, pb := pins[a].pin.At, pins[b].pin.At
 		if pa.X != pb.X {
 			return pa.X < pb.X
@@ -310,15 +299,11 @@ func (rt *router) routeNet(id int) bool {
 	return true
 }
 
-// nearestPending picks the pending pin nearest the tree, live pins first.
+// nearestPending picks the pending pin nearest the tree.
 func (rt *router) nearestPending(pending []wirePin, tree geom.Rect) int {
 	best, bestD := 0, math.MaxInt
 	for i, p := range pending {
-		if pending[i].faded && !pending[best].faded && bestD < math.MaxInt {
-			continue
-		}
-		d := rt.distRect(p.cell, tree)
-		if d < bestD || (!p.faded && pending[best].faded) {
+		if d := rt.distRect(p.cell, tree); d < bestD {
 			best, bestD = i, d
 		}
 	}
@@ -345,16 +330,6 @@ func (rt *router) commit(net int32, p wirePin, path []int) {
 		d := rt.dirBetween(a, b)
 		rt.addArm(a, net, 1<<d)
 		rt.addArm(b, net, 1<<opposite(d))
-		switch d {
-		case int(geom.Right):
-			rt.setFaded(a, fFadedE, p.faded)
-		case int(geom.Left):
-			rt.setFaded(b, fFadedE, p.faded)
-		case int(geom.Down):
-			rt.setFaded(a, fFadedS, p.faded)
-		default:
-			rt.setFaded(b, fFadedS, p.faded)
-		}
 	}
 	nr.cells = append(nr.cells, path...)
 }

@@ -132,6 +132,9 @@ func assemble(ly *state, w *wiring) *Result {
 		g.Links = ly.links(g)
 	}
 	placePinFigures(ly, g)
+	if ly.o.Plain {
+		plain(ly, res)
+	}
 	g.Bounds = bounds(g)
 	return res
 }

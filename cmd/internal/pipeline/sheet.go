@@ -91,13 +91,13 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		s.Frames = stageFrames(r.Stages, reduced, nil)
 		_, merged := FadedAndMerged(c, reduced)
 		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
-	case render.Full:
-		s.Circuit = c
-		s.Frames = stageFrames(r.Stages, reduced, c)
-		s.PinVolts = r.electrodeVolts()
-	case render.Faded:
+	case render.Full, render.Faded:
+		// one sheet for both: render lays the full view out with the
+		// faded parts known and draws it plain, so the faded view is the
+		// same layout greyed where the reduction took parts away
 		s.Circuit = c
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
+		s.FadedPins = droppedPins(c, reduced)
 		s.Frames = stageFrames(r.Stages, reduced, c)
 		s.PinVolts = r.electrodeVolts()
 	}
@@ -172,6 +172,32 @@ func FadedAndMerged(orig, reduced *graph.Circuit) (map[string]bool, map[string]s
 		}
 	}
 	return faded, merged
+}
+
+// droppedPins are, per part the reduction kept under its own ref, the pins
+// its reduced form no longer uses: gone (a valve's heaters, its shield) or
+// left on the not-connected net (a screen or suppressor made static).
+func droppedPins(orig, reduced *graph.Circuit) map[string]map[string]bool {
+	out := map[string]map[string]bool{}
+	for _, p := range orig.Parts {
+		rp := reduced.Part(p.Ref)
+		if rp == nil {
+			continue
+		}
+		on := map[string]string{}
+		for _, pn := range rp.Pins {
+			on[pn.Name] = pn.Net
+		}
+		for _, pn := range p.Pins {
+			if n, ok := on[pn.Name]; (!ok || n == graph.NotConnected) && pn.Net != graph.NotConnected {
+				if out[p.Ref] == nil {
+					out[p.Ref] = map[string]bool{}
+				}
+				out[p.Ref][pn.Name] = true
+			}
+		}
+	}
+	return out
 }
 
 // stageFrames makes one frame per top-level stage (sub-stages would draw
