@@ -102,7 +102,7 @@ type Sheet struct {
 	// FadedPins are, per ref of a kept part, the pins the reduction dropped
 	// (heaters, static grids): drawn faded with their wires and locals.
 	FadedPins map[string]map[string]bool
-	Frames  []Frame
+	Frames    []Frame
 	// Caution is the safety line printed under the drawing, as given
 	// (graph/safety words it for the set and the view). Empty: the
 	// circuit's own caution from graph/safety, so no sheet goes out
