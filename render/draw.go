@@ -202,8 +202,24 @@ func (d *drawer) wires() {
 			cv.Gend()
 		}
 	}
+	// a junction of faded runs only is faded too: a run ends at every
+	// junction, so a dot no live run ends at joins nothing black
+	live := map[geom.Pt]bool{}
+	for _, w := range g.Wires {
+		for i, s := range w.Segs {
+			if !w.Faded[i] {
+				live[s.A], live[s.B] = true, true
+			}
+		}
+	}
 	for _, dot := range g.Dots {
+		if live[dot] {
+			cv.Circle(d.X(dot.X), d.Y(dot.Y), 0.28*k, `class="f"`)
+			continue
+		}
+		cv.Group(`class="g"`)
 		cv.Circle(d.X(dot.X), d.Y(dot.Y), 0.28*k, `class="f"`)
+		cv.Gend()
 	}
 	for _, l := range g.Links {
 		var xs, ys []float64
