@@ -24,7 +24,8 @@
 // rails.go: the rail each pin returns to, its tag text and direction),
 // blocks.go, order.go and place.go (blocks, their order in a column, x and
 // y), frames.go and links.go (stage frames, gang links), sheet.go (one
-// placement routed and assembled), untangle.go (the search for fewer
+// placement routed and assembled), fade.go (the faded view's greying of
+// the full view's wires, and the plain full view), untangle.go (the search for fewer
 // crossings), rows.go (off-row connectors of a row of a paged sheet), and the router: grid.go (the grid and its costs), search.go
 // and queue.go (A*), reroute.go (net order, rip-up and reroute), emit.go
 // (wires, dots and flags).
