@@ -16,10 +16,10 @@ import (
 // both symbol styles (the IEEE 315 set changes shapes, and the reduced view
 // adds static grid stubs and gang links) and measures it with the sheet
 // checker: overlaps, wires through symbols, broken nets, bad junctions.
-// A reduced sheet must have none; on the full and faded views (whose layout
-// five fixtures still fail in either style, issue 12's item on the faded
-// view) the IEEE style must add no problem the IEC one does not have, and
-// the IEC ones are logged. TestDrawExamplesCheck does this for the examples.
+// A reduced sheet must have none; on the full and faded views (one layout,
+// render/layout/fade.go, which five fixtures still fail in either style)
+// the IEEE style must add no problem the IEC one does not have, and the
+// IEC ones are logged. TestDrawExamplesCheck does this for the examples.
 func TestFixtureSheetsCheck(t *testing.T) {
 	var files []string
 	for _, fam := range galleryFamilies {
