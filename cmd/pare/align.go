@@ -47,7 +47,7 @@ func runAlign(e *env, _ *alignOpts, args []string) int {
 		return exitBad
 	}
 	path := args[0]
-	g, err := alignGuide(path)
+	g, err := alignGuide(path, e.switches...)
 	if loadFailed(e, path, err) {
 		return exitBad
 	} else if err != nil {
@@ -65,8 +65,9 @@ func runAlign(e *env, _ *alignOpts, args []string) int {
 // step leaves the same reduced circuit), so `pare align` and the note's
 // Alignment section come from the same stages. Only the final comparison
 // and the sheets are left out: the guide reads neither.
-func alignGuide(path string) (*align.Guide, error) {
+func alignGuide(path string, switches ...pipeline.SwitchSetting) (*align.Guide, error) {
 	po := jobOptions(path, jobConfig{level: rules.LevelSignal})
+	po.Switches = switches
 	po.Until, po.Verify, po.Views = pipeline.PhaseStages, false, nil
 	res, err := pipeline.Run(po)
 	if err != nil {

@@ -34,7 +34,7 @@ func runCheck(e *env, o *checkOpts, args []string) int {
 	}
 	code := exitOK
 	for _, path := range args {
-		res, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseCheck})
+		res, err := e.pipeline(pipeline.Options{Path: path, Until: pipeline.PhaseCheck})
 		if loadFailed(e, path, err) {
 			code = exitBad
 			continue

@@ -67,7 +67,7 @@ func runDC(e *env, o *dcOpts, args []string) int {
 	}
 	// Stages name the oscillators; the chart stands without them if the
 	// reduction or the recognition fails (oscillatorNotes says so).
-	res, err := pipeline.Run(pipeline.Options{Path: args[0], Until: pipeline.PhaseStages, Level: rules.LevelSignal})
+	res, err := e.pipeline(pipeline.Options{Path: args[0], Until: pipeline.PhaseStages, Level: rules.LevelSignal})
 	if loadFailed(e, args[0], err) {
 		return exitBad
 	}

@@ -76,7 +76,7 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 	if !checkOutput(e, "pare draw", o.out, path) {
 		return exitBad
 	}
-	res, err := pipeline.Run(pipeline.Options{Path: path, Level: lvl, Focus: splitRefs(o.focus),
+	res, err := e.pipeline(pipeline.Options{Path: path, Level: lvl, Focus: splitRefs(o.focus),
 		Views: []render.View{view}, Style: style, Page: paper.page, Fit: paper.fit})
 	if loadFailed(e, path, err) {
 		return exitBad

@@ -5,6 +5,9 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"strings"
+
+	"pare/cmd/internal/pipeline"
 )
 
 // finite is a float flag that refuses NaN and the infinities when it is
@@ -35,4 +38,37 @@ func (f finite) Set(s string) error {
 func finiteVar(fs *flag.FlagSet, p *float64, name string, def float64, usage string) {
 	*p = def
 	fs.Var(finite{p}, name, usage)
+}
+
+// switchFlag collects --switch NAME=POSITION settings; it may be given
+// more than once (one per switch).
+type switchFlag struct{ p *[]pipeline.SwitchSetting }
+
+func (f switchFlag) String() string {
+	if f.p == nil {
+		return ""
+	}
+	var s []string
+	for _, x := range *f.p {
+		s = append(s, fmt.Sprintf("%s=%d", x.Name, x.Position))
+	}
+	return strings.Join(s, ",")
+}
+
+func (f switchFlag) Set(s string) error {
+	x, err := pipeline.ParseSwitchSetting(s)
+	if err != nil {
+		return err
+	}
+	*f.p = append(*f.p, x)
+	return nil
+}
+
+// switchFlagOn gives every command that reads a circuit the --switch
+// option; fmt writes the netlist as it stands and takes none.
+func switchFlagOn(fs *flag.FlagSet, c *command, p *[]pipeline.SwitchSetting) {
+	if c.name == "fmt" {
+		return
+	}
+	fs.Var(switchFlag{p}, "switch", "turn a switch for this run, NAME=POSITION (S1=2 turns S1, or every section S1a, S1b, …, to position 2); repeatable")
 }

@@ -18,6 +18,7 @@ import (
 	"sort"
 	"strings"
 
+	"pare/cmd/internal/pipeline"
 	"pare/graph"
 	"pare/internal/esc"
 )
@@ -75,6 +76,15 @@ func register(c *command) {
 type env struct {
 	stdout io.Writer
 	stderr io.Writer
+	// switches are the --switch settings of this invocation: every
+	// pipeline run of the command turns those switches (e.pipeline).
+	switches []pipeline.SwitchSetting
+}
+
+// pipeline runs the one pipeline with this invocation's switch settings.
+func (e *env) pipeline(o pipeline.Options) (*pipeline.Result, error) {
+	o.Switches = e.switches
+	return pipeline.Run(o)
 }
 
 func main() {
@@ -140,6 +150,7 @@ func dispatch(args []string, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("pare "+c.name, flag.ContinueOnError)
 	fs.SetOutput(io.Discard)
 	runBound := c.bind(fs)
+	switchFlagOn(fs, c, &e.switches)
 	pos, err := parseInterleaved(fs, rest)
 	if errors.Is(err, flag.ErrHelp) {
 		commandHelp(stdout, c)
@@ -206,6 +217,7 @@ func commandHelp(w io.Writer, c *command) {
 	}
 	fs := flag.NewFlagSet(c.name, flag.ContinueOnError)
 	c.bind(fs)
+	switchFlagOn(fs, c, new([]pipeline.SwitchSetting))
 	has := false
 	fs.VisitAll(func(*flag.Flag) { has = true })
 	if has {

@@ -95,7 +95,7 @@ func runReduce(e *env, o *reduceOpts, args []string) int {
 		if po.Focus = splitRefs(o.focus); len(po.Focus) == 0 {
 			// Said before the netlist is read, as it always was: a flag
 			// that names nothing is a usage error whatever the file holds.
-			if _, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseLoad}); loadFailed(e, path, err) {
+			if _, err := e.pipeline(pipeline.Options{Path: path, Until: pipeline.PhaseLoad}); loadFailed(e, path, err) {
 				return exitBad
 			}
 			fmt.Fprintln(e.stderr, "pare reduce: --focus names nothing")
@@ -105,7 +105,7 @@ func runReduce(e *env, o *reduceOpts, args []string) int {
 	if !o.check {
 		po.StepCheck = pipeline.NoStepCheck
 	}
-	res, err := pipeline.Run(po)
+	res, err := e.pipeline(po)
 	if loadFailed(e, path, err) {
 		return exitBad
 	}

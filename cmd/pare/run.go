@@ -147,7 +147,7 @@ func oneJob(e *env, path, dir string, cfg jobConfig) (int, pack) {
 		pk.code = exitBad
 		return exitBad, pk
 	}
-	pr, err := pipeline.Run(jobOptions(path, cfg))
+	pr, err := e.pipeline(jobOptions(path, cfg))
 	if loadFailed(e, path, err) {
 		pk.code = exitBad
 		return exitBad, pk

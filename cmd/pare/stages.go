@@ -79,7 +79,7 @@ func runStages(e *env, o *stagesOpts, args []string) int {
 		return exitBad
 	}
 	path := args[0]
-	res, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseStages, Level: lvl,
+	res, err := e.pipeline(pipeline.Options{Path: path, Until: pipeline.PhaseStages, Level: lvl,
 		PatternDir: o.patterns, StageLimit: o.limit})
 	if loadFailed(e, path, err) {
 		return exitBad

@@ -162,7 +162,7 @@ func runVerify(e *env, o *verifyOpts, args []string) int {
 	case !o.check:
 		po.StepCheck = pipeline.NoStepCheck
 	}
-	res, err := pipeline.Run(po)
+	res, err := e.pipeline(po)
 	if loadFailed(e, path, err) {
 		return exitBad
 	}
@@ -395,7 +395,7 @@ func circuitFor(e *env, cmd, path string, reduced bool, level string) (*graph.Ci
 		lvl, err := rules.ParseLevel(level)
 		if err != nil {
 			// Said after the file loads, as it always was.
-			if _, err := pipeline.Run(po); loadFailed(e, path, err) {
+			if _, err := e.pipeline(po); loadFailed(e, path, err) {
 				return nil, safety.Caution{}, exitBad
 			}
 			fmt.Fprintf(e.stderr, "pare %s: %v\n", cmd, err)
@@ -403,7 +403,7 @@ func circuitFor(e *env, cmd, path string, reduced bool, level string) (*graph.Ci
 		}
 		po.Until, po.Level = pipeline.PhaseReduce, lvl
 	}
-	res, err := pipeline.Run(po)
+	res, err := e.pipeline(po)
 	if loadFailed(e, path, err) {
 		return nil, safety.Caution{}, exitBad
 	}

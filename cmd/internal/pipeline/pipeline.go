@@ -80,6 +80,9 @@ type Options struct {
 	// netlist's, as if the set's knob were turned before the run: the
 	// alignment of another band of a wavechange switch.
 	Positions map[string]int
+	// Switches turns switches to a position for this run (switches.go),
+	// in place of the netlist's set.
+	Switches []SwitchSetting
 
 	// Reduction.
 	Level       rules.Level
@@ -197,6 +200,9 @@ func Run(o Options) (*Result, error) {
 		return r, &Error{Phase: PhaseLoad, Err: err}
 	}
 	if err := setPositions(c, o.Positions); err != nil {
+		return r, &Error{Phase: PhaseLoad, Err: err}
+	}
+	if err := applySwitches(c, o.Path, o.Switches); err != nil {
 		return r, &Error{Phase: PhaseLoad, Err: err}
 	}
 	r.Circuit, r.Title, r.Caution = c, c.Title, safety.For(c)
