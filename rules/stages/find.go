@@ -114,6 +114,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		}
 		return signal[i].Parts[0] < signal[j].Parts[0]
 	})
+	nameRoles(signal, reduced)
 	var out []Stage
 	n := 0
 	prefix := namePrefix(reduced, o.Full, len(signal)+len(power))
