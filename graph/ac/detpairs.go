@@ -144,13 +144,17 @@ func (ql *quantityList) detectorTransfers() (replaced map[string]bool) {
 			// The input's signal reaches the detector only where the two
 			// share a band: past a frequency changer the input's band is
 			// not the detector's, and the small-signal transfer there is
-			// leakage too (the regions' own pairs prove the IF).
-			instead := "the regions' own pairs cover the stages between"
+			// leakage too: the stages up to the frequency changer are
+			// compared instead (changer.go), the regions' own pairs prove
+			// the IF.
+			var instead string
 			if overlaps(ql.bandsAt(in), ql.bandsAt(d.ifNet)) {
 				if rin, ok := ql.mapped(in, ql.inputAlt(i)); ok {
 					ql.add(quantity{what: "transfer", from: in, to: d.ifNet, rFrom: rin, rTo: rIF, bands: ql.bandsAt(in)})
 					instead = fmt.Sprintf("V(%s)/V(%s) is compared there instead", d.ifNet, in)
 				}
+			} else {
+				instead = ql.frontEnd(in, i, d.ifNet)
 			}
 			for _, out := range ql.orig.Outputs {
 				if ql.pastDetector(in, out) {

@@ -47,6 +47,16 @@
 // travel and maximum unless Options.VarSet picks one setting. Responses more
 // than 80 dB below their peak count as that floor.
 //
+// Past an envelope detector the signal is audio (detpairs.go): the input to
+// output pair is replaced by the detector's audio net to each output over
+// the audio band and, where the input shares a band with the detector's IF
+// net, the input to that net. Where a frequency change lies between them
+// (the input's band is not the IF's), the input to the grid of the first
+// frequency changer is compared over the input's bands instead
+// (changer.go), so the aerial coupling and RF stages are proven; the
+// conversion itself is not (a linear model does not mix), and the note
+// says so and whether a region's pair starts at the changer's output.
+//
 // The equations are modified nodal analysis over complex frequency, solved by
 // a sparse LU after a reverse Cuthill–McKee ordering (sparse.go, order.go):
 // about O(N) per frequency point for ladders and chains of stages.
