@@ -32,6 +32,7 @@ const (
 	Henry
 	Ohm
 	Decibel
+	Watt
 )
 
 // units is the one table of what each unit means to the formatter: its SI
@@ -53,6 +54,7 @@ var units = [...]struct {
 	Henry:   {"henry", value.Henry, "_h", 4},
 	Ohm:     {"ohm", value.Ohm, "_ohm", 3},
 	Decibel: {"decibel", value.None, "_db", 3},
+	Watt:    {"watt", value.Watt, "_w", 3},
 }
 
 // Units lists every unit, for tests and documentation.

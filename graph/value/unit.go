@@ -17,6 +17,10 @@ const (
 	Second
 	Siemens
 	Ampere
+	// Watt is for figures pare computes (a dissipation, an output power);
+	// the netlist gives watts as plain numbers (pmax, watts), so it has no
+	// symbol or word to parse.
+	Watt
 )
 
 var unitInfo = [...]struct{ sym, name string }{
@@ -29,6 +33,7 @@ var unitInfo = [...]struct{ sym, name string }{
 	Second:  {"s", "second"},
 	Siemens: {"S", "siemens"},
 	Ampere:  {"A", "ampere"},
+	Watt:    {"W", "watt"},
 }
 
 func (u Unit) known() bool { return u >= 0 && int(u) < len(unitInfo) }

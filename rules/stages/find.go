@@ -10,6 +10,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/dc"
 	"pare/graph/figure"
 )
 
@@ -49,6 +50,10 @@ type Options struct {
 	// Library replaces the built-in library when set (tests, callers that
 	// load patterns once).
 	Library *Library
+	// DC is the operating point of Full (graph/dc), for the figures taken
+	// at the bias: an output valve's dissipation and power. nil leaves
+	// them out.
+	DC *dc.Point
 }
 
 // DefaultLimit is the default step budget: far above what the built-in
@@ -91,6 +96,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	var orig *world
 	if o.Full != nil {
 		orig = newWorldJoined(o.Full, false, acg, switchJoins(o.Full))
+		orig.op = o.DC
 	}
 	order := signalOrder(reduced)
 	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)

@@ -33,6 +33,10 @@ func calcOutputLoad(x *figCtx) {
 	z := n.Value * n.Value * spk.Value.Max
 	x.set("r_reflected", figure.Ohm, z, byReflected)
 	c, dev := x.part("cap"), x.part("device")
+	if dev != nil && x.solve {
+		x.outputGain(dev, n.Value, z)
+		x.outputPower(dev, z)
+	}
 	if c == nil {
 		return
 	}

@@ -5,6 +5,7 @@ package stages
 
 import (
 	"pare/graph"
+	"pare/graph/dc"
 )
 
 // world is the circuit as the matcher sees it: nets as small integers, every
@@ -22,7 +23,10 @@ type world struct {
 	byKind map[graph.Kind][]int
 	coils  [][]coil // part index → coils of a transformer
 	orig   *world   // the original circuit, folded the same way, when known
-	isEnd  []bool   // net id → a declared input or output of the circuit or a region
+	// op is the DC operating point of the original circuit (on the
+	// original's world), nil when it was not solved or not given.
+	op    *dc.Point
+	isEnd []bool // net id → a declared input or output of the circuit or a region
 	// onGround lists the parts with every terminal at AC ground (a reduced
 	// circuit has none; a full one has its decoupling).
 	onGround []int

@@ -289,8 +289,12 @@ func (r *Result) verify(o Options) error {
 
 // recognise is the one call of the stage finder in pare's commands.
 func (r *Result) recognise(o Options) error {
+	var op *dc.Point // an operating point that was not found gives no figures
+	if r.DCErr == nil {
+		op = r.DC
+	}
 	found, err := stages.Find(r.Reduced, stages.Options{
-		PatternDir: o.PatternDir, Full: r.Circuit, ACGround: r.Log.ACGround, Limit: o.StageLimit})
+		PatternDir: o.PatternDir, Full: r.Circuit, ACGround: r.Log.ACGround, Limit: o.StageLimit, DC: op})
 	if errors.Is(err, stages.ErrSearchLimit) {
 		r.StagesLimit = err.Error()
 	} else if err != nil {
