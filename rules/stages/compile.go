@@ -214,7 +214,7 @@ func isActiveDevice(d string) bool {
 // mergeAt combines the constraints of two pattern nets made one: ground is
 // the strongest (a shorted coupling to ground is ground), then signal, rail.
 func mergeAt(a, b string) string {
-	rank := map[string]int{"any": 0, "not-ground": 1, "rail": 2, "signal": 3, "ground": 4}
+	rank := map[string]int{"any": 0, "not-ground": 1, "rail": 2, "bias": 2, "signal": 3, "ground": 4}
 	if rank[b] > rank[a] {
 		return b
 	}

@@ -132,10 +132,21 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		name(top.Stage)
 		out = appendTree(out, top)
 	}
+	// Stages found on the original circuit that are not supplies (the AGC
+	// filter, whose line the reduction grounds) follow the signal stages.
 	for _, top := range power {
-		name(top.Stage)
-		markSupply(top)
-		out = appendTree(out, top)
+		if top.group != "power" {
+			name(top.Stage)
+			top.Notes = append(top.Notes, originalNote)
+			out = appendTree(out, top)
+		}
+	}
+	for _, top := range power {
+		if top.group == "power" {
+			name(top.Stage)
+			markSupply(top)
+			out = appendTree(out, top)
+		}
 	}
 	addLoops(loops, out)
 	loopCapacitors(loops, out)
@@ -148,6 +159,11 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 // so a reader who looks for it on the reduced sheet knows why it is not
 // there.
 const SupplyNote = "supply stage found on the full circuit; its parts are not on the reduced sheet"
+
+// originalNote goes with a signal-side stage found on the original
+// circuit: the reduction grounds its net for the signal, so its parts are
+// not on the reduced sheet either.
+const originalNote = "found on the original circuit: the reduction puts its line at AC ground for the signal, so its parts are not on the reduced sheet"
 
 // markSupply marks a stage found on the full circuit, and its sub-stages,
 // as a supply stage.

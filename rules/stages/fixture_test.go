@@ -43,6 +43,7 @@ band = "530k..1.6M"
 	src += strings.Join(extra, "\n") + `
 [nets]
 ht = { role = "supply", volts = 250 }
+agc_line = { role = "bias" }
 [parts]
 ` + expandDevices(parts, family) + "\n"
 	c, err := graph.Parse("fixture.toml", []byte(src))

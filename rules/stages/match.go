@@ -164,6 +164,10 @@ func (s *searcher) netFits(vn *vnet, net int) bool {
 		if net == groundNet {
 			return false
 		}
+	case "bias":
+		if w.role[net] != graph.Bias {
+			return false
+		}
 	}
 	// Degree: the circuit net carries at least as many parts as the
 	// pattern puts on it (parts are matched one to one).

@@ -240,7 +240,7 @@ func (ld *patLoader) net(path, name string, v any) {
 		kp := path + "." + k
 		switch k {
 		case "at":
-			n.At = ld.oneOf(kp, m[k], []string{"signal", "ground", "any", "rail", "not-ground"})
+			n.At = ld.oneOf(kp, m[k], []string{"signal", "ground", "any", "rail", "not-ground", "bias"})
 		case "outside":
 			n.Outside = ld.oneOf(kp, m[k], []string{"none", "some", "signal", "source"})
 		default:
@@ -278,8 +278,8 @@ func (ld *patLoader) crossCheck() {
 		if !used[n.Name] {
 			ld.errs.Add(n.Pos, "net %s is declared but no part uses it", n.Name)
 		}
-		if n.At == "rail" && p.Circuit != "full" {
-			ld.errs.Add(n.Pos, "at = \"rail\" needs circuit = \"full\": in a reduced circuit every rail is AC ground")
+		if (n.At == "rail" || n.At == "bias") && p.Circuit != "full" {
+			ld.errs.Add(n.Pos, "at = %q needs circuit = \"full\": in a reduced circuit every rail is AC ground", n.At)
 		}
 	}
 	parts := map[string]bool{}

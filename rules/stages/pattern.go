@@ -45,7 +45,8 @@ type PNet struct {
 	Name string
 	// At says what the bound net must be: "signal" (default, not AC ground),
 	// "ground" (AC ground), "any", and in full-circuit patterns "rail"
-	// (a supply, bias or heater net, not chassis).
+	// (a supply, bias or heater net, not chassis) and "bias" (a declared
+	// bias net: an AGC line).
 	At string
 	// Outside constrains the bound net's other connections: "" no constraint,
 	// "none" (only the pattern's parts touch it), "some" (something else

@@ -734,6 +734,19 @@ D1 = { diode = "rectifier", pins = ["x", "out"] }
 D2 = { diode = "rectifier", pins = ["y", "out"] }
 D3 = { diode = "rectifier", pins = ["gnd", "x"] }
 C1 = { c = "100u", type = "electrolytic", pins = ["out", "gnd"] }`},
+	// A detector's DC output into the declared AGC line (role bias), found on
+	// the original circuit; the near miss is the same RC fed by no detector
+	// (a feed from the line to a grid).
+	{topology: "agc-line-filter", families: []string{"valve"}, want: "passive", full: true,
+		parts: `T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "a", p2 = "ht", s1 = "det_a", s2 = "det" } }
+D1 = { diode = "signal", pins = ["det_a", "gnd"] }
+C2 = { c = "100p", pins = ["det", "gnd"] }
+R2 = { r = "470k", pins = ["det", "gnd"] }
+R1 = { r = "1M", pins = ["det", "agc_line"] }
+C1 = { c = "100n", pins = ["agc_line", "gnd"] }`,
+		nearMiss: `R1 = { r = "1M", pins = ["g", "agc_line"] }
+C1 = { c = "100n", pins = ["agc_line", "gnd"] }
+R2 = { r = "1M", pins = ["g", "gnd"] }`},
 	{topology: "smoothing-filter", families: []string{"valve"}, want: "passive", full: true,
 		parts: `C1 = { c = "32u", type = "electrolytic", pins = ["hv", "gnd"] }
 L1 = { l = "10", type = "choke", pins = ["hv", "ht"] }
