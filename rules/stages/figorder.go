@@ -72,6 +72,8 @@ var figureNames = []figName{
 	{name: "r_reflected", label: "reflected load"},
 	{name: "f_top_cut", label: "top-cut f"},
 	{name: "top_cut", label: "cut at band top", inDB: true},
+	{name: "f_notch", label: "notch f"},
+	{name: "notch_depth", label: "notch depth"},
 	{name: "p_out_class_a", label: "max output (class A)"},
 	{name: "p_anode", label: "anode dissipation"},
 	{name: "p_max", label: "pmax"},

@@ -16,10 +16,10 @@ func TestTunedAmplifierRoles(t *testing.T) {
 		want    map[string]string // stage → title prefix
 	}{
 		{"club-receiver.toml", map[string]string{
-			"ST2": "RF amplifier: tuned amplifier, tuned secondary",
-			"ST4": "1st IF amplifier: tuned amplifier, common cathode",
-			"ST5": "2nd IF amplifier: tuned amplifier, common cathode",
-			"ST3": "Self-oscillating mixer", // the changer itself takes no role
+			"ST3": "RF amplifier: tuned amplifier, tuned secondary",
+			"ST5": "1st IF amplifier: tuned amplifier, common cathode",
+			"ST6": "2nd IF amplifier: tuned amplifier, common cathode",
+			"ST4": "Self-oscillating mixer", // the changer itself takes no role
 		}},
 		// An IF strip captured alone: an IF amplifier, its place unknown.
 		{"if-detector-audio.toml", map[string]string{"S2": "IF amplifier: tuned amplifier"}},

@@ -618,6 +618,17 @@ C1 = { c = "10n", pins = ["a", "b"] }
 L1 = { l = "10", type = "choke", pins = ["b", "gnd"] }
 @Q2(b, gnd, o)
 R3 = { r = "47k", pins = ["o", "ht"] }`},
+	// An IF rejector across an aerial input; the near miss has a resistor on
+	// the coil–capacitor junction (a coupling network, not a trap).
+	{topology: "series-trap", families: []string{"valve"}, want: "passive",
+		parts: `R1 = { r = "10k", pins = ["in", "gnd"] }
+L1 = { l = "1m147", q = 60, pins = ["in", "m"] }
+C1 = { c = "100p", pins = ["m", "gnd"] }`,
+		nearMiss: `R1 = { r = "10k", pins = ["in", "gnd"] }
+L1 = { l = "1m147", q = 60, pins = ["in", "m"] }
+C1 = { c = "100p", pins = ["m", "gnd"] }
+R2 = { r = "1k", pins = ["m", "x"] }
+R3 = { r = "1k", pins = ["x", "gnd"] }`},
 	{topology: "agc-filter", families: []string{"valve"}, want: "passive",
 		parts: `D1 = { diode = "signal", pins = ["in", "det"] }
 C2 = { c = "100p", pins = ["det", "gnd"] }
