@@ -73,7 +73,7 @@ var figureNames = []figName{
 	{name: "f_top_cut", label: "top-cut f"},
 	{name: "top_cut", label: "cut at band top", inDB: true},
 	{name: "f_notch", label: "notch f"},
-	{name: "notch_depth", label: "notch depth"},
+	{name: "notch_depth", label: "notch depth", inDB: true},
 	{name: "p_out_class_a", label: "max output (class A)"},
 	{name: "p_anode", label: "anode dissipation"},
 	{name: "p_max", label: "pmax"},
