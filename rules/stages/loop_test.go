@@ -116,7 +116,7 @@ func TestOscillatorFoundByLoop(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			found := find(t, c, Options{PatternDir: "testdata/wien-grounded-only"})
+			found := find(t, c, Options{PatternDir: "testdata/patterns-wien-grounded-only"})
 			st := stageOf(found, loopTopology)
 			if tc.device == "" {
 				if st != nil {
