@@ -80,6 +80,23 @@ R1 = { r = "1k", pins = ["k", "gnd"] }
 L1 = { l = "4u7", pins = ["top", "gnd"] }
 C2 = { c = "1n", pins = ["top", "m"] }
 C1 = { c = "100p", pins = ["m", "gnd"] }`},
+	// The tank reaches the control electrode through a DC block and the
+	// divider's upper arm is on the device's side of it (a VFO with a base
+	// or grid bias network).
+	{topology: "colpitts-common-tap-blocked", families: allFamilies,
+		parts: `@Q1(g, k, ht)
+L1 = { l = "4u7", pins = ["top", "gnd"] }
+C5 = { c = "1n", pins = ["top", "g"] }
+C2 = { c = "220p", pins = ["g", "k"] }
+C1 = { c = "680p", pins = ["k", "gnd"] }`,
+		// The upper arm goes from the control electrode to chassis: no
+		// divider tap on the common electrode.
+		nearMiss: `@Q1(g, k, ht)
+R1 = { r = "1k", pins = ["k", "gnd"] }
+L1 = { l = "4u7", pins = ["top", "gnd"] }
+C5 = { c = "1n", pins = ["top", "g"] }
+C2 = { c = "220p", pins = ["g", "gnd"] }
+C1 = { c = "680p", pins = ["k", "gnd"] }`},
 	{topology: "colpitts-grounded-tap", families: allFamilies,
 		parts: `@Q1(g, gnd, o)
 L1 = { l = "10u", pins = ["top", "bot"] }
