@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"pare/cmd/internal/align"
 	"pare/cmd/internal/note"
 	"pare/cmd/internal/pipeline"
 	"pare/graph/ac"
@@ -192,7 +193,8 @@ func oneJob(e *env, path, dir string, cfg jobConfig) (int, pack) {
 // the reduced and faded sheets drawn.
 func jobOptions(path string, cfg jobConfig) pipeline.Options {
 	po := pipeline.Options{Path: path, Level: cfg.level, Verify: !cfg.noVerify, Compare: cfg.compare,
-		Views: []render.View{render.Reduced, render.Faded}, Style: cfg.style, Page: cfg.paging.page, Fit: cfg.paging.fit}
+		Views: []render.View{render.Reduced, render.Faded}, Style: cfg.style, Page: cfg.paging.page, Fit: cfg.paging.fit,
+		BandSets: align.BandSets}
 	if cfg.noVerify {
 		po.StepCheck = pipeline.NoStepCheck
 	}

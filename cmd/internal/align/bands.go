@@ -126,18 +126,16 @@ func bandParts(c *graph.Circuit) map[string]bool {
 // other position of its wavechange switch, each from a run of run with the
 // switches turned there. A band that does not run gets a warning.
 func (g *Guide) AddBands(c *graph.Circuit, sts []stages.Stage, run Runner) {
-	refs, n := bandSwitches(c, sts)
-	if len(refs) == 0 || run == nil {
+	if run == nil {
 		return
 	}
-	cur := int(c.Part(refs[0]).Set)
-	for pos := 1; pos <= n; pos++ {
-		if pos == cur {
-			continue
-		}
-		set := map[string]int{}
-		for _, r := range refs {
-			set[r] = pos
+	for _, set := range BandSets(c, sts) {
+		var refs []string // in the circuit's order, as bandSwitches found them
+		pos := 0
+		for _, p := range c.Parts {
+			if at, ok := set[p.Ref]; ok {
+				refs, pos = append(refs, p.Ref), at
+			}
 		}
 		label := fmt.Sprintf("band %d (%s at position %d)", pos, strings.Join(refs, ", "), pos)
 		bc, bsts, err := run(set)
@@ -147,6 +145,29 @@ func (g *Guide) AddBands(c *graph.Circuit, sts []stages.Stage, run Runner) {
 		}
 		g.addBand(label, bc, bsts)
 	}
+}
+
+// BandSets are the switch settings AddBands runs, one per band other than
+// the set's own, in position order: the main job starts their runs while
+// it draws (pipeline.Options.BandSets).
+func BandSets(c *graph.Circuit, sts []stages.Stage) []map[string]int {
+	refs, n := bandSwitches(c, sts)
+	if len(refs) == 0 {
+		return nil
+	}
+	var out []map[string]int
+	cur := int(c.Part(refs[0]).Set)
+	for pos := 1; pos <= n; pos++ {
+		if pos == cur {
+			continue
+		}
+		set := map[string]int{}
+		for _, r := range refs {
+			set[r] = pos
+		}
+		out = append(out, set)
+	}
+	return out
 }
 
 // addBand appends one band's tracking: its steps numbered on from the

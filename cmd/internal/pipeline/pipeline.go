@@ -83,6 +83,10 @@ type Options struct {
 	// Switches turns switches to a position for this run (switches.go),
 	// in place of the netlist's set.
 	Switches []SwitchSetting
+	// BandSets names, once the stages are found, the switch settings of
+	// the other bands a later step will ask BandRun for (align.BandSets):
+	// their runs start then, beside the drawing (bands.go).
+	BandSets func(*graph.Circuit, []stages.Stage) []map[string]int
 
 	// Reduction.
 	Level       rules.Level
@@ -141,7 +145,8 @@ func (e *Error) Unwrap() error { return e.Err }
 // Result is everything the pipeline made of one netlist. Fields of phases
 // that did not run are zero.
 type Result struct {
-	opts    Options // what the run was asked (BandRun reruns with them)
+	opts    Options             // what the run was asked (BandRun reruns with them)
+	bands   map[string]*bandRun // the other bands' runs started beside the drawing
 	Path    string
 	Title   string // the netlist's title, or its file name
 	Circuit *graph.Circuit
@@ -218,6 +223,7 @@ func Run(o Options) (*Result, error) {
 		{PhaseReduce, (*Result).reduce},
 		{PhaseVerify, (*Result).verify},
 		{PhaseStages, (*Result).recognise},
+		{PhaseStages, (*Result).startBands},
 		{PhaseSheets, (*Result).drawSheets},
 	}
 	for _, ph := range phases {
@@ -328,31 +334,4 @@ func setPositions(c *graph.Circuit, pos map[string]int) error {
 		p.Set = float64(pos[ref])
 	}
 	return nil
-}
-
-// BandRun reruns the pipeline that made r up to its stages with the
-// switches turned to the positions given, every other option the same:
-// another band of a wavechange switch, recognised as this one was.
-func (r *Result) BandRun(positions map[string]int) (*graph.Circuit, []stages.Stage, error) {
-	o := r.opts
-	o.Positions, o.Until, o.Views = positions, PhaseStages, nil
-	if o.Path == "" {
-		return nil, nil, fmt.Errorf("no netlist file to run again")
-	}
-	// The band's reduction is proven once as a whole (the comparison verify
-	// makes) instead of step by step: the rules are those the first run
-	// proved step by step, and one whole comparison costs a fraction of a
-	// proof per step (on a whole set, most of the main job). Only if the
-	// whole comparison fails is the band reduced again with every step
-	// proven, so an unsound step is refused as in any other run.
-	o.StepCheck, o.Verify = NoStepCheck, true
-	b, err := Run(o)
-	if err == nil && (b.CompareErr != nil || b.Report == nil || b.Report.Broken()) {
-		o.StepCheck, o.Verify = r.opts.StepCheck, false
-		b, err = Run(o)
-	}
-	if err != nil {
-		return nil, nil, err
-	}
-	return b.Circuit, b.Stages, nil
 }
