@@ -297,6 +297,20 @@ type Faulted struct {
 	m     *model
 	extra []branch
 	v     []float64
+	// read keeps each loaded reading: a meter's load is a nonlinear solve,
+	// and Rank asks every candidate for every reading, so ranking several
+	// sets of readings taken with the same meter solves each reading once.
+	read map[faultRead]readResult
+}
+
+type faultRead struct {
+	net string
+	mt  Meter
+}
+
+type readResult struct {
+	v   float64
+	err error
 }
 
 // Volts is the unloaded voltage of net in the faulty circuit.
@@ -311,9 +325,18 @@ func (fd *Faulted) Reading(net string, mt Meter) (float64, error) {
 	if t < 0 || mt.IsIdeal() {
 		return v, nil
 	}
+	k := faultRead{net, mt}
+	if r, ok := fd.read[k]; ok {
+		return r.v, r.err
+	}
 	s, err := fd.p.systemFor(fd.m, fd.extra)
 	if err != nil {
 		return 0, err
 	}
-	return s.reading(fd.v, t, v, mt)
+	r, err := s.reading(fd.v, t, v, mt)
+	if fd.read == nil {
+		fd.read = map[faultRead]readResult{}
+	}
+	fd.read[k] = readResult{r, err}
+	return r, err
 }

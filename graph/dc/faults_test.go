@@ -5,7 +5,9 @@ import (
 	"fmt"
 	"math"
 	"path/filepath"
+	"sort"
 	"strings"
+	"sync"
 	"testing"
 
 	"pare/internal/reftool"
@@ -23,72 +25,113 @@ const suiteOhmsPerVolt = 20e3
 // fault whose readings all lie within tolerance of the healthy chart cannot
 // be told from a healthy set and is listed, not counted; candidates with
 // the same score (an ambiguity group, Bandler and Salama 1985) share a rank.
+//
+// The files run side by side (one Point each: a Point's caches are not
+// shared between goroutines), and one ngspice process reads every fault of
+// a file (faultBatch), so the suite costs what the solves and the ranking
+// cost, not hundreds of process starts.
 func TestInjectedFaults(t *testing.T) {
 	if testing.Short() {
-		t.Skip("the injected-fault suite runs ngspice about 230 times")
+		t.Skip("the injected-fault suite runs ngspice once per file on every fault")
 	}
 	bin := reftool.Find(t, reftool.Ngspice)
-	var total, first, top3 int
-	var misses, hidden []string
-	for _, file := range dcFiles(t) {
-		if strings.Contains(file, "every-kind") {
-			continue // not a working circuit (its own header says so)
+	var tally faultTally
+	t.Run("files", func(t *testing.T) {
+		for _, file := range dcFiles(t) {
+			if strings.Contains(file, "every-kind") {
+				continue // not a working circuit (its own header says so)
+			}
+			t.Run(filepath.Base(file), func(t *testing.T) {
+				t.Parallel()
+				tally.add(injectFile(t, bin, file))
+			})
 		}
-		pt, err := Solve(load(t, file))
+	})
+	total, first, top3 := tally.total, tally.first, tally.top3
+	sort.Strings(tally.misses)
+	sort.Strings(tally.hidden)
+	t.Logf("%d detectable faults: first %d (%.1f %%), top three %d (%.1f %%); %d not detectable",
+		total, first, 100*float64(first)/float64(total), top3, 100*float64(top3)/float64(total), len(tally.hidden))
+	for _, m := range tally.misses {
+		t.Logf("miss: %s", m)
+	}
+	for _, h := range tally.hidden {
+		t.Logf("not detectable at the test points: %s", h)
+	}
+	if total == 0 || float64(first) < 0.9*float64(total) || float64(top3) < 0.98*float64(total) {
+		t.Errorf("ranking below the bar: first %d/%d, top three %d/%d (need 90 %% and 98 %%)", first, total, top3, total)
+	}
+}
+
+// faultTally is the suite's count, summed over the files.
+type faultTally struct {
+	sync.Mutex
+	total, first, top3 int
+	misses, hidden     []string
+}
+
+func (a *faultTally) add(b *faultTally) {
+	a.Lock()
+	defer a.Unlock()
+	a.total += b.total
+	a.first += b.first
+	a.top3 += b.top3
+	a.misses = append(a.misses, b.misses...)
+	a.hidden = append(a.hidden, b.hidden...)
+}
+
+// injectFile runs the suite on one file: every fault's deck in one ngspice
+// run, then pare's ranking of each fault's readings.
+func injectFile(t *testing.T, bin, file string) *faultTally {
+	pt, err := Solve(load(t, file))
+	if err != nil {
+		t.Fatal(err)
+	}
+	nets, ohms := suitePoints(t, pt)
+	var faults []Fault
+	var decks []string
+	for _, f := range pt.Faults() {
+		sim, err := pt.Simulate(f)
+		if err != nil {
+			t.Errorf("%s %s: %v", file, f, err)
+			continue
+		}
+		var deck bytes.Buffer
+		if err := sim.WriteSpiceReadings(&deck, nets, ohms); err != nil {
+			t.Fatal(err)
+		}
+		faults = append(faults, f)
+		decks = append(decks, deck.String())
+	}
+	out := &faultTally{}
+	for k, vals := range runFaultBatch(t, bin, decks, len(nets)) {
+		f := faults[k]
+		// ngspice .op has no oscillation: the readings are the stopped ones.
+		rd := &Readings{Tolerance: defaultTolerance, Stopped: true}
+		for i, n := range nets {
+			rd.List = append(rd.List, Reading{Key: n, Net: n, Volts: vals[i], Meter: Meter{Ohms: ohms[i]}})
+		}
+		dg, err := pt.Rank(rd)
 		if err != nil {
 			t.Fatal(err)
 		}
-		nets, ohms := suitePoints(t, pt)
-		for _, f := range pt.Faults() {
-			sim, err := pt.Simulate(f)
-			if err != nil {
-				t.Errorf("%s %s: %v", file, f, err)
-				continue
-			}
-			var deck bytes.Buffer
-			if err := sim.WriteSpiceReadings(&deck, nets, ohms); err != nil {
-				t.Fatal(err)
-			}
-			vals := runReadings(t, bin, deck.String(), len(nets))
-			// ngspice .op has no oscillation: the readings are the stopped ones.
-			rd := &Readings{Tolerance: defaultTolerance, Stopped: true}
-			for i, n := range nets {
-				rd.List = append(rd.List, Reading{Key: n, Net: n, Volts: vals[i], Meter: Meter{Ohms: ohms[i]}})
-			}
-			dg, err := pt.Rank(rd)
-			if err != nil {
-				t.Fatal(err)
-			}
-			name := filepath.Base(file) + ": " + f.String()
-			if !anyOutside(dg) {
-				hidden = append(hidden, name)
-				continue
-			}
-			total++
-			rank := rankOf(dg, f)
-			switch {
-			case rank == 1:
-				first++
-				top3++
-			case rank <= 3:
-				top3++
-				misses = append(misses, fmt.Sprintf("%s (rank %d, first %s)", name, rank, dg.Ranked[0].Fault))
-			default:
-				misses = append(misses, fmt.Sprintf("%s (rank %d, first %s)", name, rank, dg.Ranked[0].Fault))
-			}
+		name := filepath.Base(file) + ": " + f.String()
+		if !anyOutside(dg) {
+			out.hidden = append(out.hidden, name)
+			continue
 		}
+		out.total++
+		rank := rankOf(dg, f)
+		if rank <= 3 {
+			out.top3++
+		}
+		if rank == 1 {
+			out.first++
+			continue
+		}
+		out.misses = append(out.misses, fmt.Sprintf("%s (rank %d, first %s)", name, rank, dg.Ranked[0].Fault))
 	}
-	t.Logf("%d detectable faults: first %d (%.1f %%), top three %d (%.1f %%); %d not detectable",
-		total, first, 100*float64(first)/float64(total), top3, 100*float64(top3)/float64(total), len(hidden))
-	for _, m := range misses {
-		t.Logf("miss: %s", m)
-	}
-	for _, h := range hidden {
-		t.Logf("not detectable at the test points: %s", h)
-	}
-	if float64(first) < 0.9*float64(total) || float64(top3) < 0.98*float64(total) {
-		t.Errorf("ranking below the bar: first %d/%d, top three %d/%d (need 90 %% and 98 %%)", first, total, top3, total)
-	}
+	return out
 }
 
 // suitePoints are the standard test points: every electrode net that is not
@@ -145,13 +188,4 @@ func rankOf(dg *Diagnosis, f Fault) int {
 		}
 	}
 	return rank
-}
-
-func runReadings(t *testing.T, bin, deck string, n int) []float64 {
-	t.Helper()
-	got := runOPList(t, bin, deck)
-	if len(got) != n {
-		t.Fatalf("ngspice printed %d readings, want %d", len(got), n)
-	}
-	return got
 }
