@@ -66,7 +66,7 @@ func TestFlagshipPack(t *testing.T) {
 // overlap, wire through a symbol, broken net, and every off-row connector
 // paired.
 func TestFlagshipStagesAndPages(t *testing.T) {
-	res := sheetsOf(t, pipeline.Options{Path: flagship, Level: rules.LevelSignal})
+	res := cachedResult(t, flagship) // the layout and rail checks' run (sheetcache_test.go)
 	var tone bool
 	for _, s := range res.Stages {
 		if s.Title == "" || strings.Contains(s.Title, "{") {

@@ -10,11 +10,9 @@ import (
 	"strings"
 	"testing"
 
-	"pare/cmd/internal/pipeline"
 	"pare/render"
 	"pare/render/check"
 	"pare/render/geom"
-	"pare/rules"
 )
 
 // pagedSources are the circuits every paged check runs on: the examples and
@@ -107,7 +105,7 @@ func TestPagedWrapsWhenItMust(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		res := sheetsOf(t, pipeline.Options{Path: tc.file, Level: rules.LevelSignal})
+		res := cachedResult(t, tc.file) // one pipeline run per file and test binary (sheetcache_test.go)
 		s := res.Sheet(tc.view)
 		pages, err := render.Config{Page: paper}.FprintPages(s)
 		if err != nil {
