@@ -138,7 +138,7 @@ func (rt *router) blockObstacles() {
 	for _, cl := range rt.ly.cells {
 		rt.block(cl.shape.Box)
 		for _, l := range cl.locals {
-			rt.block(l.Box)
+			rt.blockLocal(l)
 			for _, s := range l.Stub {
 				rt.block(s.Box())
 			}
@@ -227,6 +227,25 @@ func (rt *router) neighbour(i, d int) int {
 
 // block marks every grid point inside or on the integer hull of r, so that
 // no wire between free points can enter r.
+// blockLocal blocks a local symbol's cells, across its pin's direction
+// only the grid lines the symbol really covers: a rail tag's bar and text
+// stand ±0.6 about their pin's line, and blocking every line they touch
+// closed the line of a wired pin between two tagged neighbours (a valve's
+// grid between two screen grids on a rail), leaving it no way out.
+func (rt *router) blockLocal(l geom.Local) {
+	b := l.Box
+	const m = 0.35 // the clearance a wire keeps from a tag beside its line
+	if l.Side == geom.Left || l.Side == geom.Right {
+		b.Y0, b.Y1 = math.Ceil(b.Y0-m), math.Floor(b.Y1+m)
+	} else {
+		b.X0, b.X1 = math.Ceil(b.X0-m), math.Floor(b.X1+m)
+	}
+	if b.Y0 > b.Y1 || b.X0 > b.X1 {
+		b = l.Box
+	}
+	rt.block(b)
+}
+
 func (rt *router) block(r geom.Rect) {
 	x0, x1 := int(math.Floor(r.X0+geom.Eps))-rt.x0, int(math.Ceil(r.X1-geom.Eps))-rt.x0
 	y0, y1 := int(math.Floor(r.Y0+geom.Eps))-rt.y0, int(math.Ceil(r.Y1-geom.Eps))-rt.y0
