@@ -16,6 +16,7 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	defer scratchPool.Put(sc)
 	u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: sc}
 	best := u.layout(nil, false)
+	u.budget = max(untangleBudget, untangleLayouts*best.w.pops)
 	if best.crossings > 0 && o.Untangle && len(best.ly.cells) <= maxRetryCells {
 		best = u.untangle(best)
 	}
@@ -69,6 +70,13 @@ const (
 	// layout on: a couple of layouts of a sheet crowded with long nets,
 	// dozens of a sheet of a few stages.
 	untangleBudget = 450000
+	// untangleLayouts is the least number of layouts the size of the
+	// plain one the search may route: on a sheet of many stages each
+	// layout costs more, and a fixed bound alone left the search a handful
+	// of tries, all spent on the first part's turns (a whole set's mixer
+	// kept two crossings the turn of its grid capacitor, the eleventh try,
+	// removes).
+	untangleLayouts = 10
 )
 
 // Keys of the search's turns map besides a ref (an index into the part's
@@ -99,7 +107,8 @@ type untangler struct {
 	// shortFirst routes the nets shortest first
 	shortFirst bool
 	sc         *scratch // the router's search memory, for every layout
-	pops       int      // the router's work so far, for untangleBudget
+	pops       int      // the router's work so far
+	budget     int      // the bound on pops: untangleBudget, or untangleLayouts plain layouts
 }
 
 // layout places the circuit with the given changes and routes it, unless
@@ -161,7 +170,7 @@ func (u *untangler) search(free bool) *routed {
 
 // try lays out the changes and keeps them if they leave fewer crossings.
 func (k *climb) try(trial map[string]int) {
-	if k.u.pops > untangleBudget {
+	if k.u.pops > k.u.budget {
 		return // deterministic work bound: the same input stops at the same place
 	}
 	if r := k.u.layout(trial, k.free); r.crossings < k.cur.crossings {
