@@ -16,7 +16,10 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	defer scratchPool.Put(sc)
 	u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: sc}
 	best := u.layout(nil, false)
-	u.budget = max(untangleBudget, untangleLayouts*best.w.pops)
+	u.budget = untangleBudget
+	if best.crossings <= fewCrossings {
+		u.budget = max(untangleBudget, untangleLayouts*best.w.pops)
+	}
 	if best.crossings > 0 && o.Untangle && len(best.ly.cells) <= maxRetryCells {
 		best = u.untangle(best)
 	}
@@ -71,12 +74,16 @@ const (
 	// dozens of a sheet of a few stages.
 	untangleBudget = 450000
 	// untangleLayouts is the least number of layouts the size of the
-	// plain one the search may route: on a sheet of many stages each
-	// layout costs more, and a fixed bound alone left the search a handful
-	// of tries, all spent on the first part's turns (a whole set's mixer
-	// kept two crossings the turn of its grid capacitor, the eleventh try,
-	// removes).
+	// plain one the search may route when the plain layout has at most
+	// fewCrossings crossings, the few that one or two changes remove: on a
+	// sheet of many stages each layout costs more, and the fixed bound
+	// alone left the search a handful of tries, all spent on the first
+	// part's turns (a whole set's mixer kept two crossings the turn of its
+	// grid capacitor, the eleventh try, removes). A sheet with dozens of
+	// crossings needs another placement, not a change or two, and keeps
+	// the fixed bound.
 	untangleLayouts = 10
+	fewCrossings    = 4
 )
 
 // Keys of the search's turns map besides a ref (an index into the part's
