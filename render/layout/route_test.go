@@ -437,3 +437,27 @@ func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
 	}
 	return cost, ok
 }
+
+// TestWiredPinBetweenRailTags: a wired pin between two neighbours on the
+// same side that end at rail tags (a valve's signal grid between two screen
+// grids on the HT, pins one grid step apart) keeps its line out between the
+// tags: a tag's bar and text stand ±0.6 about their own pin's line and must
+// not close the next line, or the net cannot be wired and is flagged.
+func TestWiredPinBetweenRailTags(t *testing.T) {
+	ht := &graph.Net{Name: "ht", Role: graph.Supply}
+	ly := handSheet(
+		box{"V1", geom.R(0, -2, 2, 2), []geom.Pin{pinAt("ht", 2, -1, geom.Right), pinAt("g", 2, 0, geom.Right), pinAt("ht", 2, 1, geom.Right)}},
+		box{"B1", geom.R(20, -1, 22, 1), []geom.Pin{pinAt("g", 20, 0, geom.Left)}},
+	)
+	v1 := ly.cells[0]
+	for _, p := range []geom.Pin{v1.shape.Pins[0], v1.shape.Pins[2]} {
+		l := localCandidates(p, ht, graph.Supply, 1)[0]
+		l.Owner = "V1"
+		v1.locals = append(v1.locals, l)
+	}
+	v1.shape.Pins = v1.shape.Pins[1:2] // the tagged pins are not wired
+	g, _ := routeSheet(ly, true)
+	if len(g.Failed) != 0 || len(g.Wires) != 1 {
+		t.Errorf("failed nets %v, %d wires: the grid's net must be wired between the tags", g.Failed, len(g.Wires))
+	}
+}
