@@ -34,8 +34,13 @@ func readSheets(t *testing.T) []string {
 // rules/stages/testdata/tuned-amp-to-if.toml, and the bench heptode's mixer
 // frame that now holds its oscillator), then by the oscillator fixtures with
 // the control electrode at AC ground, the common-emitter Clapp and the
-// supply-filter fixture.
-var misreadCeiling = struct{ beside, inLine int }{1082, 338}
+// supply-filter fixture (1082, 338); then to 1344 and 368 when the faded
+// view became the full view's layout (its count now equals the full
+// view's), multi-grid valves kept their static grids, the Wien sheets
+// became one two-device stage, and the oscillator review's six circuits
+// and near misses joined the gallery. The rise is the sheets issue's to
+// bring down: it is counted here so that it cannot grow unseen.
+var misreadCeiling = struct{ beside, inLine int }{1344, 368}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
