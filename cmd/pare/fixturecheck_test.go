@@ -17,7 +17,7 @@ import (
 // adds static grid stubs and gang links) and measures it with the sheet
 // checker: overlaps, wires through symbols, broken nets, bad junctions.
 // A reduced sheet must have none; on the full and faded views (one layout,
-// render/layout/fade.go, which five fixtures still fail in either style)
+// render/layout/fade.go, which some fixtures still fail in either style: they are logged)
 // the IEEE style must add no problem the IEC one does not have, and the
 // IEC ones are logged. TestDrawExamplesCheck does this for the examples.
 func TestFixtureSheetsCheck(t *testing.T) {
