@@ -19,7 +19,8 @@ import (
 // the low end cannot be set and the guide says to check C12. The set
 // mistracks by 33 kHz near 1 MHz (ngspice on
 // rules/stages/testdata/club-track/mw_track.cir), beyond half the RF tank's
-// bandwidth: the guide says so.
+// bandwidth: the guide says so, and, as only the high end can be set, it
+// does not promise that the alignment brings the error in.
 func TestClubReceiverFullProcedure(t *testing.T) {
 	_, g := build(t, example("club-receiver"))
 	var got []string
@@ -37,7 +38,7 @@ func TestClubReceiverFullProcedure(t *testing.T) {
 		}
 	}
 	warn := strings.Join(g.Warnings, "\n")
-	for _, w := range []string{"check C12's value", "the set mistracks", "loaded bandwidth"} {
+	for _, w := range []string{"check C12's value", "the set mistracks", "loaded bandwidth", "alignment cannot bring it in"} {
 		if !strings.Contains(warn, w) {
 			t.Errorf("no warning saying %q:\n%s", w, warn)
 		}

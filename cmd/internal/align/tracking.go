@@ -163,7 +163,13 @@ func (g *Guide) trackWarnings(mix *stages.Stage, osc tank) {
 		g.Warnings = append(g.Warnings, fmt.Sprintf("this oscillator has no padder and pare's tracking error is %s%s, above %s (%s): it cannot track over the dial, whatever the trimmers", hz(e.Value), at, hz(limit), line))
 		return
 	}
-	g.Warnings = append(g.Warnings, fmt.Sprintf("the set mistracks: pare's tracking error for the parts as captured is %s%s, above %s (%s): the two-point alignment should bring it in; if it does not, check the padder %s's value", hz(e.Value), at, hz(limit), line, osc.padder.Ref))
+	cure := fmt.Sprintf("the two-point alignment should bring it in; if it does not, check the padder %s's value", osc.padder.Ref)
+	if lowSetter(osc) == nil {
+		// Only the high end can be set: saying the alignment brings the
+		// error in would contradict the low-end step's own warning.
+		cure = fmt.Sprintf("alignment cannot bring it in, as only the high end can be set (the padder %s is fixed and no core is captured): after aligning, read the dial error near the low end and check %s's value", osc.padder.Ref, osc.padder.Ref)
+	}
+	g.Warnings = append(g.Warnings, fmt.Sprintf("the set mistracks: pare's tracking error for the parts as captured is %s%s, above %s (%s): %s", hz(e.Value), at, hz(limit), line, cure))
 }
 
 // oscTank finds the mixer's oscillator gang section and what sits on it.
