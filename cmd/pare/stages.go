@@ -139,7 +139,7 @@ func printStages(w io.Writer, res *pipeline.Result, unmatched []pipeline.Unmatch
 	if title == "" {
 		title = res.Path // the path as given, not its base name as on a sheet
 	}
-	fmt.Fprintf(w, "%s: %d stage(s), reduced at level %s\n\n", title, len(found), lvl)
+	fmt.Fprintf(w, "%s: %s, reduced at level %s\n\n", title, stageCount(found), lvl)
 	if len(found) > 0 {
 		nameW, topoW := len("stage"), len("topology")
 		for _, s := range found {
@@ -242,4 +242,21 @@ func wrap(s string, width int) []string {
 		}
 	}
 	return append(lines, cur)
+}
+
+// stageCount words how many stages were found the way the main job's
+// summary does: the stages in the signal chain, and, when some hold
+// stages of their own (a tank inside an oscillator), how many in all, so
+// the two reports of one set give the same number.
+func stageCount(found []stages.Stage) string {
+	top := 0
+	for _, s := range found {
+		if !strings.Contains(s.Name, ".") {
+			top++
+		}
+	}
+	if top == len(found) {
+		return fmt.Sprintf("%d stage(s)", top)
+	}
+	return fmt.Sprintf("%d stage(s), %d with the stages inside them", top, len(found))
 }
