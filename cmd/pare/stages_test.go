@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"math"
 	"os"
+	"pare/rules/stages"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -258,5 +259,27 @@ func TestStagesTrackingAndGainWording(t *testing.T) {
 	// inverse of its feedback ratio 2.13 (handbook condition, from memory).
 	if !strings.Contains(out, "gain needed to oscillate ≥ 0.47") || strings.Contains(out, "gain min") {
 		t.Errorf("the Colpitts gain threshold is not labelled as one:\n%s", out)
+	}
+}
+
+// The stages command counts stages as the main job's summary does (the
+// stages of the chain), with the total holding sub-stages beside it: one
+// set's two reports give the same number.
+func TestStageCountMatchesSummary(t *testing.T) {
+	for _, tc := range []struct {
+		names []string
+		want  string
+	}{
+		{[]string{"S1"}, "1 stage(s)"},
+		{[]string{"S1", "S2", "S2.1", "S2.2"}, "2 stage(s), 4 with the stages inside them"},
+		{nil, "0 stage(s)"},
+	} {
+		var found []stages.Stage
+		for _, n := range tc.names {
+			found = append(found, stages.Stage{Name: n})
+		}
+		if got := stageCount(found); got != tc.want {
+			t.Errorf("%v: %q, want %q", tc.names, got, tc.want)
+		}
 	}
 }
