@@ -4,12 +4,12 @@ import (
 	"encoding/json"
 	"math"
 	"os"
-	"pare/rules/stages"
 	"path/filepath"
 	"strings"
 	"testing"
 
 	"pare/cmd/internal/pipeline"
+	"pare/rules/stages"
 )
 
 // pare stages on the valve frequency changer: the mixer with its Hartley
