@@ -3,10 +3,8 @@ package dc
 import (
 	"bufio"
 	"bytes"
-	"context"
 	"fmt"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -44,19 +42,8 @@ func runFaultBatch(t *testing.T, bin string, decks []string, n int) [][]float64 
 	if err := os.WriteFile(path, []byte(ctl.String()), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	ctx, cancel := context.WithTimeout(context.Background(), 30*time.Second+time.Duration(len(decks))*time.Second)
-	defer cancel()
-	cmd := exec.CommandContext(ctx, bin, "-b", path)
-	cmd.Dir = dir
-	var out, errb bytes.Buffer
-	cmd.Stdout, cmd.Stderr = &out, &errb
-	if err := cmd.Run(); err != nil {
-		t.Fatalf("ngspice: %v\n%s", err, errb.String())
-	}
-	if strings.Contains(errb.String(), "Error") || strings.Contains(errb.String(), "singular") {
-		t.Fatalf("ngspice complained:\n%s", errb.String())
-	}
-	got := parseBatch(t, &out, len(decks))
+	out := runNgspice(t, bin, dir, path, 30*time.Second+time.Duration(len(decks))*time.Second)
+	got := parseBatch(t, out, len(decks))
 	for k, vals := range got {
 		if len(vals) != n {
 			t.Fatalf("ngspice printed %d readings for deck %d, want %d", len(vals), k, n)

@@ -66,20 +66,9 @@ func ngspiceValues(t *testing.T, bin, deck string) []named {
 	if err := os.WriteFile(path, []byte(deck), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	ctx, cancel := context.WithTimeout(context.Background(), 30*time.Second)
-	defer cancel()
-	cmd := exec.CommandContext(ctx, bin, "-b", path)
-	cmd.Dir = dir
-	var out, errb bytes.Buffer
-	cmd.Stdout, cmd.Stderr = &out, &errb
-	if err := cmd.Run(); err != nil {
-		t.Fatalf("ngspice: %v\n%s", err, errb.String())
-	}
-	if strings.Contains(errb.String(), "Error") || strings.Contains(errb.String(), "singular") {
-		t.Fatalf("ngspice complained:\n%s", errb.String())
-	}
+	out := runNgspice(t, bin, dir, path, 30*time.Second)
 	var got []named
-	sc := bufio.NewScanner(&out)
+	sc := bufio.NewScanner(out)
 	for sc.Scan() {
 		f := strings.Fields(sc.Text())
 		if len(f) == 3 && f[1] == "=" {
@@ -136,4 +125,24 @@ func TestAgainstNgspiceOP(t *testing.T) {
 			}
 		})
 	}
+}
+
+// runNgspice runs ngspice in batch mode on the deck at path (in dir) and
+// returns what it printed; it fails the test if ngspice fails, times out
+// or complains of an error or a singular matrix.
+func runNgspice(t *testing.T, bin, dir, path string, limit time.Duration) *bytes.Buffer {
+	t.Helper()
+	ctx, cancel := context.WithTimeout(context.Background(), limit)
+	defer cancel()
+	cmd := exec.CommandContext(ctx, bin, "-b", path)
+	cmd.Dir = dir
+	var out, errb bytes.Buffer
+	cmd.Stdout, cmd.Stderr = &out, &errb
+	if err := cmd.Run(); err != nil {
+		t.Fatalf("ngspice: %v\n%s", err, errb.String())
+	}
+	if strings.Contains(errb.String(), "Error") || strings.Contains(errb.String(), "singular") {
+		t.Fatalf("ngspice complained:\n%s", errb.String())
+	}
+	return &out
 }
