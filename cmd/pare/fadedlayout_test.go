@@ -3,8 +3,6 @@ package main
 import (
 	"path/filepath"
 	"reflect"
-	"runtime"
-	"sync"
 	"testing"
 
 	"pare/cmd/internal/pipeline"
@@ -25,31 +23,13 @@ import (
 // reduction drops a heater on a rail, which carries no signal: common
 // practice).
 func TestFadedIsFullLayout(t *testing.T) {
-	files := exampleFiles(t)
-	for _, fam := range galleryFamilies {
-		fs, err := filepath.Glob(filepath.Join(fam.dir, "*.toml"))
-		if err != nil || len(fs) == 0 {
-			t.Fatalf("no fixtures under %s", fam.dir)
-		}
-		files = append(files, fs...)
-	}
+	files := readSheets(t)
 	a4, err := render.ParsePaper("A4")
 	if err != nil {
 		t.Fatal(err)
 	}
 	errs := make([][]string, len(files))
-	var wg sync.WaitGroup
-	slots := make(chan struct{}, runtime.GOMAXPROCS(0))
-	for i, f := range files {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			slots <- struct{}{}
-			defer func() { <-slots }()
-			errs[i] = fadedAgainstFull(f, a4)
-		}()
-	}
-	wg.Wait()
+	eachAtOnce(len(files), func(i int) { errs[i] = fadedAgainstFull(files[i], a4) })
 	for i, es := range errs {
 		for _, e := range es {
 			t.Errorf("%s: %s", filepath.Base(files[i]), e)

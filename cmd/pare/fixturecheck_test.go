@@ -2,8 +2,6 @@ package main
 
 import (
 	"path/filepath"
-	"runtime"
-	"sync"
 	"testing"
 
 	"pare/cmd/internal/pipeline"
@@ -21,53 +19,38 @@ import (
 // the IEEE style must add no problem the IEC one does not have, and the
 // IEC ones are logged. TestDrawExamplesCheck does this for the examples.
 func TestFixtureSheetsCheck(t *testing.T) {
-	var files []string
-	for _, fam := range galleryFamilies {
-		fs, err := filepath.Glob(filepath.Join(fam.dir, "*.toml"))
-		if err != nil || len(fs) == 0 {
-			t.Fatalf("no fixtures under %s", fam.dir)
-		}
-		files = append(files, fs...)
-	}
+	files := galleryFixtures(t)
 	type finding struct{ file, what string }
 	found := make([][]finding, len(files))
 	logged := make([][]finding, len(files))
-	var wg sync.WaitGroup
-	slots := make(chan struct{}, runtime.GOMAXPROCS(0))
-	for i, f := range files {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			slots <- struct{}{}
-			defer func() { <-slots }()
-			res, err := pipeline.Run(pipeline.Options{Path: f, Level: rules.LevelSignal, Until: pipeline.PhaseStages})
-			if err != nil {
-				found[i] = append(found[i], finding{f, err.Error()})
-				return
-			}
-			for _, v := range drawViews {
-				iec := map[string]bool{}
-				for _, st := range []render.Style{render.IEC, render.IEEE} {
-					g, err := render.Config{Style: st}.Geometry(res.Sheet(v))
-					if err != nil {
-						found[i] = append(found[i], finding{f, err.Error()})
-						continue
-					}
-					for _, p := range check.Measure(g).Problems() {
-						switch {
-						case st == render.IEC && v != render.Reduced:
-							iec[p] = true
-							logged[i] = append(logged[i], finding{f, v.String() + ": " + p})
-						case st == render.IEEE && iec[p]:
-						default:
-							found[i] = append(found[i], finding{f, v.String() + " " + st.String() + ": " + p})
-						}
+	eachAtOnce(len(files), func(i int) {
+		f := files[i]
+		res, err := pipeline.Run(pipeline.Options{Path: f, Level: rules.LevelSignal, Until: pipeline.PhaseStages})
+		if err != nil {
+			found[i] = append(found[i], finding{f, err.Error()})
+			return
+		}
+		for _, v := range drawViews {
+			iec := map[string]bool{}
+			for _, st := range []render.Style{render.IEC, render.IEEE} {
+				g, err := render.Config{Style: st}.Geometry(res.Sheet(v))
+				if err != nil {
+					found[i] = append(found[i], finding{f, err.Error()})
+					continue
+				}
+				for _, p := range check.Measure(g).Problems() {
+					switch {
+					case st == render.IEC && v != render.Reduced:
+						iec[p] = true
+						logged[i] = append(logged[i], finding{f, v.String() + ": " + p})
+					case st == render.IEEE && iec[p]:
+					default:
+						found[i] = append(found[i], finding{f, v.String() + " " + st.String() + ": " + p})
 					}
 				}
 			}
-		}()
-	}
-	wg.Wait()
+		}
+	})
 	for _, fs := range logged {
 		for _, x := range fs {
 			t.Logf("%s: %s", filepath.Base(x.file), x.what)

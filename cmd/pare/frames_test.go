@@ -2,6 +2,8 @@ package main
 
 import (
 	"path/filepath"
+	"runtime"
+	"sync"
 	"testing"
 
 	"pare/render"
@@ -11,7 +13,15 @@ import (
 // fixtures of galleryFamilies (the review circuits, the oscillators, the
 // sets for the caution and the stage fixtures).
 func readSheets(t *testing.T) []string {
-	files := exampleFiles(t)
+	return append(exampleFiles(t), galleryFixtures(t)...)
+}
+
+// galleryFixtures are the fixtures of galleryFamilies, family by family;
+// a family with none fails the test (a moved folder would otherwise
+// leave its checks silently empty).
+func galleryFixtures(t *testing.T) []string {
+	t.Helper()
+	var files []string
 	for _, fam := range galleryFamilies {
 		more, err := filepath.Glob(filepath.Join(fam.dir, "*.toml"))
 		if err != nil || len(more) == 0 {
@@ -20,6 +30,23 @@ func readSheets(t *testing.T) []string {
 		files = append(files, more...)
 	}
 	return files
+}
+
+// eachAtOnce runs fn(i) for i in [0, n), as many at a time as there are
+// cores; each call writes only its own slot of whatever it fills.
+func eachAtOnce(n int, fn func(i int)) {
+	var wg sync.WaitGroup
+	slots := make(chan struct{}, runtime.GOMAXPROCS(0))
+	for i := 0; i < n; i++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			slots <- struct{}{}
+			defer func() { <-slots }()
+			fn(i)
+		}()
+	}
+	wg.Wait()
 }
 
 // misreadCeiling is how many wires beside another net's closer than two

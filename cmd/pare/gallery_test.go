@@ -5,9 +5,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
-	"runtime"
 	"strings"
-	"sync"
 	"testing"
 
 	"pare/cmd/internal/pipeline"
@@ -98,18 +96,7 @@ func TestGallery(t *testing.T) {
 // drawGallery runs the pipeline on every item, as many at a time as there
 // are cores, each to its sheets (the same bytes `pare draw` writes).
 func drawGallery(items []*galleryItem) {
-	var wg sync.WaitGroup
-	slots := make(chan struct{}, runtime.GOMAXPROCS(0))
-	for _, it := range items {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			slots <- struct{}{}
-			defer func() { <-slots }()
-			it.draw()
-		}()
-	}
-	wg.Wait()
+	eachAtOnce(len(items), func(i int) { items[i].draw() })
 }
 
 func (it *galleryItem) draw() {

@@ -17,17 +17,7 @@ import (
 
 // pagedSources are the circuits every paged check runs on: the examples and
 // the gallery's fixtures.
-func pagedSources(t *testing.T) []string {
-	files := exampleFiles(t)
-	for _, fam := range galleryFamilies {
-		more, err := filepath.Glob(filepath.Join(fam.dir, "*.toml"))
-		if err != nil || len(more) == 0 {
-			t.Fatalf("no fixtures under %s", fam.dir)
-		}
-		files = append(files, more...)
-	}
-	return files
-}
+func pagedSources(t *testing.T) []string { return readSheets(t) }
 
 // TestPagedSheetsCheck cuts every example and fixture onto A4 and checks
 // every page as a sheet of its own (no overlap, wire through a symbol,
