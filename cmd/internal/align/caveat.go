@@ -25,18 +25,29 @@ const (
 
 // caveats says what a solved row assumes that a bench does not give for
 // free: the controls whose setting its level depends on (at their set
-// positions), and a level below genFloor with what to do instead (the AGC
-// is said once for the table, Guide.injectNote).
-func caveats(c *graph.Circuit, in Injection) string {
+// positions), and for a level below genFloor why no level is given and
+// how to use the row's gain instead, holding the AGC line agc ("" when
+// the set has none).
+func caveats(c *graph.Circuit, in Injection, agc string) string {
 	var out []string
 	if pots := potsOnRow(c, in); len(pots) > 0 {
 		out = append(out, "assumes "+strings.Join(pots, " and ")+" (set positions as captured; the level changes with them)")
 	}
-	if in.Level > 0 && in.Level < genFloor {
-		out = append(out, fmt.Sprintf("below %s, the least a generator sets reliably and about the set's own noise (common practice): a linear model's figure; on the bench inject %s, expect more than the reference, and compare stages by their gain",
-			volts(genFloor), volts(genFloor)))
+	if in.BelowFloor {
+		out = append(out, floorMethod(in, agc))
 	}
 	return strings.Join(out, "; ")
+}
+
+// floorMethod is what a row below genFloor says in place of a level: why
+// there is none, and the bench method that uses its gain instead.
+func floorMethod(in Injection, agc string) string {
+	hold := ""
+	if agc != "" {
+		hold = fmt.Sprintf("; hold the AGC line (%s) at its no-signal voltage throughout, or the AGC hides the gain", agc)
+	}
+	return fmt.Sprintf("no level: the solved reference would ask less than %s, under the least a generator sets reliably and the set's own noise (common practice); on the bench set the generator, at this row's frequency, for a steady reading with it on %s, then move it here and turn it down until the reading is the same: it should come down by about this gain (if it comes down far less, the stage between is at fault)%s",
+		volts(genFloor), in.GainTo, hold)
 }
 
 // potsOnRow lists, as "RV1 at 50 % of its travel", each control whose

@@ -38,6 +38,11 @@ type Injection struct {
 	// not be solved, or its result is no level a bench could meet); the
 	// other rows stand.
 	Why string
+	// BelowFloor says the level is under genFloor: no generator sets it and
+	// the set's own noise hides it, so the row gives no level, only its
+	// stage gain and how to use it on the bench (Caveat). Level keeps the
+	// solver's figure for the rows referred to it.
+	BelowFloor bool
 	// Caveat says what the row's level assumes that the bench must set up
 	// (a control's position, the AGC held), or that the level is below
 	// what a generator gives; "" when nothing.
@@ -48,13 +53,14 @@ type Injection struct {
 func (in Injection) Options() ac.Options { return ac.Options{VarFrac: in.Gang, VarSet: true} }
 
 // Reference outputs (common practice, no source): 50 mW into a loudspeaker
-// is the customary standard output; 1 V at the detector or at a section's
-// output is a level a meter reads easily and a detector works well at. The
-// audio tone is the generators' customary 400 Hz.
+// is the customary standard output, with the carrier modulated 30 % at the
+// generators' customary 400 Hz; 1 V at a section's output is a level a
+// meter reads easily, kept for a set with no loudspeaker or no detector.
 const (
 	refSpeakerW = 0.05
 	refVolts    = 1.0
 	audioHz     = 400.0
+	modDepth    = 0.3
 )
 
 // point is an injection point before it is solved.
@@ -280,15 +286,13 @@ func reference(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injecti
 			}
 		}
 	case "IF":
-		if det := detectorStage(sts); det != nil {
-			if a := diodeAnode(c, *det); a != "" {
-				return a, refVolts, fmt.Sprintf("1 V of IF at the detector (%s)", a)
-			}
+		if net, level, what := carrierRef(c, sts, pts, rows); net != "" {
+			return net, level, what
 		}
 	case "RF":
 		for j := i + 1; j < len(pts); j++ {
 			if pts[j].mixer {
-				return pts[j].net, rows[j].Level, fmt.Sprintf("the mixer row's level on %s (conversion is no small-signal gain)", pts[j].net)
+				return pts[j].net, rows[j].Level / convFraction, fmt.Sprintf("the RF at the mixer's grid (%s) that gives the mixer row's IF, through a conversion gain estimated at a quarter of its IF gain (%s): an estimate, not solved", pts[j].net, convSource)
 			}
 		}
 	}
@@ -296,4 +300,42 @@ func reference(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injecti
 		return "", 0, ""
 	}
 	return c.Outputs[0], refVolts, fmt.Sprintf("1 V at the output (%s)", c.Outputs[0])
+}
+
+// detEfficiency is the peak detector's efficiency (audio peak over the
+// envelope's swing) the IF rows assume: 1, as pare's detector model does
+// (graph/device.DetectorRd, derived from the power balance at efficiency
+// 1); a valve diode into a load of some hundred kilohms gives 0.8–0.9
+// (from memory), so the bench needs a little more carrier than the rows.
+const detEfficiency = 1.0
+
+// convFraction is the mixer's conversion transconductance over its gm,
+// the estimate an RF row's reference rests on: the small-signal model has
+// no conversion gain, only the mixer's gain at the IF as an amplifier, so
+// the RF that gives the mixer row's IF is that row's level over this.
+const (
+	convFraction = 0.25
+	convSource   = "conversion transconductance about a quarter to a third of the valve's gm, a handbook rule from memory"
+)
+
+// carrierRef is the IF rows' reference: the carrier at the detector's
+// diode that, modulated modDepth, gives the audio the detector-load row
+// needs for the standard output (an envelope of RMS carrier Vc modulated m
+// gives m·Vc RMS of audio through a detector of efficiency 1). "" when
+// there is no solved detector row.
+func carrierRef(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injection) (string, float64, string) {
+	det := detectorStage(sts)
+	if det == nil {
+		return "", 0, ""
+	}
+	anode := diodeAnode(c, *det)
+	for j := range pts {
+		if !pts[j].detector || anode == "" || rows[j].Why != "" || rows[j].Level <= 0 {
+			continue
+		}
+		level := rows[j].Level / (modDepth * detEfficiency)
+		return anode, level, fmt.Sprintf("%s of carrier at the detector (%s), modulated 30 %% at 400 Hz: its audio, %s on %s (detector efficiency taken as 1, pare's detector model), gives %s",
+			volts(level), anode, volts(rows[j].Level), rows[j].Net, rows[j].RefWhat)
+	}
+	return "", 0, ""
 }

@@ -43,10 +43,11 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 		return in, err
 	}
 	if p.mixer {
-		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF row before it is referred to this row's level"
+		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF rows take it as a quarter of this gain (an estimate)"
 	}
 	if in.Why = implausible(in); in.Why == "" {
-		in.Caveat = caveats(c, in)
+		in.BelowFloor = in.Level < genFloor
+		in.Caveat = caveats(c, in, g.AGC)
 	}
 	return in, nil
 }

@@ -185,6 +185,9 @@ func injectLine(in Injection) string {
 	if in.Why != "" {
 		return fmt.Sprintf("%s on %s: %s %s: %s", in.Where, in.Net, in.Band, hz(in.Freq)+freqNote(in), in.Why)
 	}
+	if in.BelowFloor {
+		return fmt.Sprintf("%s on %s: %s %s: stage gain %s", in.Where, in.Net, in.Band, hz(in.Freq)+freqNote(in), gainText(in))
+	}
 	return fmt.Sprintf("%s on %s: %s %s at %s gives %s; stage gain %s",
 		in.Where, in.Net, in.Band, hz(in.Freq)+freqNote(in), volts(in.Level), in.RefWhat, gainText(in))
 }
@@ -192,7 +195,7 @@ func injectLine(in Injection) string {
 // levelCell and gainCell are a table row's level and gain, or for a row
 // pare gives no numbers for, a dash and why.
 func levelCell(in Injection) string {
-	if in.Why != "" {
+	if in.Why != "" || in.BelowFloor {
 		return "—"
 	}
 	return volts(in.Level)
