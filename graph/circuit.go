@@ -163,6 +163,10 @@ type Winding struct {
 	From string  `json:"from"` // pin names
 	To   string  `json:"to"`
 	Q    float64 `json:"q,omitempty"` // unloaded Q, 0 = lossless
+	// QAt is the frequency Q is referred to: the part's q_at, else the
+	// resonance of the tank the coil tunes (Circuit.ReferQ); 0 refers it
+	// to the centre of the part's band. Derived, so not written.
+	QAt float64 `json:"-"`
 	// Rdc is this winding's own DC resistance (graph/dc), 0 when the part's
 	// rdc (or the default) applies. A centre-tapped winding's halves have
 	// one each: the resistance from the tap to that end.

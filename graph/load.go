@@ -36,6 +36,7 @@ func Parse(file string, data []byte) (*Circuit, error) {
 		return nil, ld.errs
 	}
 	ld.c.Comments = ld.ix.comments
+	ld.c.ReferQ()
 	return ld.c, nil
 }
 

@@ -170,7 +170,7 @@ func paramUnit(name string) value.Unit {
 		return value.Volt
 	case "lm":
 		return value.Henry
-	case "hz":
+	case "hz", "q_at":
 		return value.Hertz
 	case "cm", "c0":
 		return value.Farad

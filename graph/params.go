@@ -34,6 +34,7 @@ var positiveParams = map[string]string{
 	"vac":  "the RMS voltage of the rectifier winding",
 	"hz":   "the mains frequency",
 	"rdc":  "the DC resistance of each winding",
+	"q_at": "the frequency the coil's q is stated at",
 	// The DC laws' own parameters (graph/dc, docs/devices.md).
 	"mu2":       "the screen's amplification factor µ2",
 	"vknee":     "the anode voltage scale of the knee",

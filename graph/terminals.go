@@ -185,8 +185,8 @@ var paramNames = map[Kind][]string{
 	FET:         {"gm", "rd", "idss", "vp", "vth", "k"}, // idss, vp: JFET; vth, k: MOSFET (loadpart.go checks which)
 	Diode:       {"rd", "off", "vf", "n", "is"},         // n, is: the Shockley law's ideality and saturation current (graph/dc)
 	Crystal:     {"rm", "lm", "cm", "c0", "q"},
-	Inductor:    {"q", "rdc"},
-	Transformer: {"q", "rdc", "vac", "hz"}, // vac, hz: a mains transformer's rectifier winding (graph/dc)
+	Inductor:    {"q", "q_at", "rdc"},              // q_at: the frequency q is stated at (graph/qref.go)
+	Transformer: {"q", "q_at", "rdc", "vac", "hz"}, // vac, hz: a mains transformer's rectifier winding (graph/dc)
 	// DC-only attributes (graph/dc): a resistor's power rating in watts, a
 	// capacitor's leakage resistance.
 	Resistor:  {"watts"},

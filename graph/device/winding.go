@@ -7,8 +7,10 @@ import (
 )
 
 // WindingLoss gives the series loss resistance of each of p's windings (in
-// p.Windings order) for a coil whose q is its unloaded Q at angular
-// frequency w0: R = w0·L/Q for a whole winding.
+// p.Windings order) for a coil whose q is its unloaded Q at the winding's
+// QAt (the part's q_at, or the resonance of the tank it tunes,
+// graph.Circuit.ReferQ), else at angular frequency w0 (the centre of its
+// band): R = w·L/Q for a whole winding.
 //
 // The sections of a tapped winding (two windings that share a pin: 1–t and
 // t–2, or NAME1–NAMEt and NAMEt–NAME2) are one coil, and q is the Q of that
@@ -21,9 +23,15 @@ import (
 // of its share of the wire (docs/devices.md, docs/references.md §16).
 func WindingLoss(p *graph.Part, w0 float64) []float64 {
 	r := make([]float64, len(p.Windings))
+	at := func(w graph.Winding) float64 {
+		if w.QAt > 0 {
+			return 2 * math.Pi * w.QAt
+		}
+		return w0
+	}
 	for i, w := range p.Windings {
 		if w.Q > 0 && w.L > 0 {
-			r[i] = w0 * w.L / w.Q
+			r[i] = at(w) * w.L / w.Q
 		}
 	}
 	for i := range p.Windings {
@@ -35,7 +43,7 @@ func WindingLoss(p *graph.Part, w0 float64) []float64 {
 			k := p.K(a.Name, b.Name)
 			sa, sb := math.Sqrt(a.L), math.Sqrt(b.L)
 			whole := a.L + b.L + 2*k*sa*sb
-			loss := w0 * whole / a.Q
+			loss := at(a) * whole / a.Q
 			r[i], r[j] = loss*sa/(sa+sb), loss*sb/(sa+sb)
 		}
 	}

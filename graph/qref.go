@@ -1,0 +1,226 @@
+package graph
+
+import (
+	"math"
+
+	"gonum.org/v1/gonum/mat"
+)
+
+// A coil's q is its unloaded Q at one frequency; the loss resistance that
+// stands for it (R = ω·L/q, graph/device.WindingLoss) depends on which. A
+// coil's Q is stated where it works: at the resonance of the tank it tunes.
+// Referring every coil to the centre of its region's band would misstate
+// a coil that tunes elsewhere: a long-wave coil in a set whose band is the
+// medium waves, or an IF trap at the aerial, whose loss sets its depth.
+
+// maxTuningC is the largest capacitance a coil is taken to tune with
+// (common practice, no source): the tuning capacitance of a receiver's
+// tanks, down to long waves, stays below a few nanofarads; a coil that
+// resonates only with more (an RF choke against its decoupler) tunes
+// nothing, and its q stays referred to its band's centre.
+const maxTuningC = 10e-9
+
+// ReferQ sets each winding's QAt, the frequency its q is referred to: the
+// part's q_at when the netlist gives one; else the geometric centre of the
+// range the part's tuned winding resonates over with its tuning
+// capacitance (the gang from fully open to fully meshed, a fixed capacitor
+// at its value), which the part's other windings share (they sit on the same
+// former, at the same frequency); else 0, and the loss falls back to the
+// centre of the band the part works in (Circuit.BandCentre). The loader
+// calls it once, so a reduced circuit, cloned from the loaded one, keeps the
+// same loss resistance for every coil.
+func (c *Circuit) ReferQ() {
+	for _, p := range c.Parts {
+		if len(p.Windings) == 0 {
+			continue
+		}
+		f := p.Params["q_at"]
+		if f <= 0 {
+			f = c.tankFreq(p)
+		}
+		for i := range p.Windings {
+			p.Windings[i].QAt = f
+		}
+	}
+}
+
+// tankFreq is the centre of the range the part's first tuned coil (a whole
+// tapped coil, or one winding) resonates over, 0 when no winding is tuned.
+func (c *Circuit) tankFreq(p *Part) float64 {
+	for _, coil := range coilsOf(p) {
+		a, b := p.NetOf(coil.from), p.NetOf(coil.to)
+		// A coil in series with a capacitor from a signal net to chassis
+		// (a series trap) tunes with it through whatever drives that net,
+		// which closes the loop: failing a capacitive path across the coil,
+		// each end in turn is taken as AC ground.
+		for _, held := range []string{"", a, b} {
+			nodes := c.capNodes(a, b, held)
+			lo, hi := capBetween(c, nodes, a, b, 0), capBetween(c, nodes, a, b, 1)
+			if lo > 0 && hi > 0 && hi <= maxTuningC && coil.l > 0 {
+				return 1 / (2 * math.Pi * math.Sqrt(coil.l*math.Sqrt(lo*hi)))
+			}
+		}
+	}
+	return 0
+}
+
+type coilEnds struct {
+	from, to string
+	l        float64
+}
+
+// coilsOf lists a part's coils end to end: a tapped inductor is one coil
+// (pins 1 and 2, its whole inductance); each winding of a transformer is
+// its own.
+func coilsOf(p *Part) []coilEnds {
+	if p.Kind == Inductor {
+		return []coilEnds{{"1", "2", p.Inductance()}}
+	}
+	out := make([]coilEnds, 0, len(p.Windings))
+	for _, w := range p.Windings {
+		out = append(out, coilEnds{w.From, w.To, w.L})
+	}
+	return out
+}
+
+// capNodes joins the nets that are one node for a coil between nets a and
+// b: AC-ground nets with each other, and the contacts a switch closes in
+// the position that reaches the coil (a coil behind a wavechange wafer
+// tunes with what that position switches in: its own padder and trimmers),
+// every other switch with as many positions in that position too, the rest
+// as set; held, when not "", joins AC ground too.
+func (c *Circuit) capNodes(a, b, held string) *NamedSets {
+	pos := 0
+	for _, p := range c.Parts {
+		for i, closes := range p.Closes {
+			for _, pr := range closes {
+				if n1, n2 := p.NetOf(pr[0]), p.NetOf(pr[1]); pos == 0 && (n1 == a || n1 == b || n2 == a || n2 == b) {
+					pos = i + 1
+				}
+			}
+		}
+	}
+	uf := &NamedSets{}
+	for _, n := range c.Nets {
+		uf.intern(n.Name)
+		if n.Role.IsACGround() {
+			uf.Union(" ground", n.Name)
+		}
+	}
+	if held != "" {
+		uf.Union(" ground", held)
+	}
+	for _, p := range c.Parts {
+		at := int(p.Set)
+		if pos > 0 && pos <= len(p.Closes) {
+			at = pos
+		}
+		if p.Kind != Switch || at < 1 || at > len(p.Closes) {
+			continue
+		}
+		for _, pr := range p.Closes[at-1] {
+			if n1, n2 := p.NetOf(pr[0]), p.NetOf(pr[1]); n1 != "" && n2 != "" {
+				uf.Union(n1, n2)
+			}
+		}
+	}
+	return uf
+}
+
+// capBetween is the capacitance between nets a and b through the
+// capacitors alone (the gang at frac of its travel): the network's nodal
+// solve with a held at 1 V and b at 0, the charge drawn from a. Resistors
+// and coils are left out: at a tank's frequency its capacitance is what
+// the capacitors give, bypasses acting as the shorts they are.
+func capBetween(c *Circuit, uf *NamedSets, a, b string, frac float64) float64 {
+	if a == "" || b == "" || uf.Find(a) == uf.Find(b) {
+		return 0
+	}
+	var edges []capEdge
+	adj := map[string][]int{}
+	for _, p := range c.Parts {
+		if p.Kind != Capacitor || len(p.Pins) != 2 || p.Pins[0].Net == "" || p.Pins[1].Net == "" {
+			continue
+		}
+		x, y := uf.Find(p.Pins[0].Net), uf.Find(p.Pins[1].Net)
+		if cv := p.Capacitance(frac); x != y && cv > 0 {
+			adj[x], adj[y] = append(adj[x], len(edges)), append(adj[y], len(edges))
+			edges = append(edges, capEdge{x, y, cv})
+		}
+	}
+	ra, rb := uf.Find(a), uf.Find(b)
+	// The free nodes: those the capacitors reach from a or b, in the order
+	// found (deterministic: parts are sorted).
+	index := map[string]int{}
+	queue := []string{ra, rb}
+	seen := map[string]bool{ra: true, rb: true}
+	for len(queue) > 0 {
+		n := queue[0]
+		queue = queue[1:]
+		for _, e := range adj[n] {
+			m := edges[e].x
+			if m == n {
+				m = edges[e].y
+			}
+			if !seen[m] {
+				seen[m] = true
+				index[m] = len(index)
+				queue = append(queue, m)
+			}
+		}
+	}
+	v := nodeVolts(edges, index, ra, rb)
+	q := 0.0
+	for _, e := range adj[ra] {
+		m := edges[e].x
+		if m == ra {
+			m = edges[e].y
+		}
+		vm := 0.0
+		if i, ok := index[m]; ok {
+			vm = v[i]
+		}
+		q += edges[e].c * (1 - vm)
+	}
+	return q
+}
+
+// capEdge is a capacitor between two nodes.
+type capEdge struct {
+	x, y string
+	c    float64
+}
+
+// nodeVolts solves the capacitor network for the free nodes' voltages
+// with node a at 1 V and node b at 0 (every free node is reached from one
+// of them, so the system is regular).
+func nodeVolts(edges []capEdge, index map[string]int, a, b string) []float64 {
+	n := len(index)
+	if n == 0 {
+		return nil
+	}
+	g := mat.NewDense(n, n, nil)
+	rhs := mat.NewVecDense(n, nil)
+	fixed := map[string]float64{a: 1, b: 0}
+	stamp := func(x, y string, cv float64) {
+		i, ok := index[x]
+		if !ok {
+			return
+		}
+		g.Set(i, i, g.At(i, i)+cv)
+		if j, ok := index[y]; ok {
+			g.Set(i, j, g.At(i, j)-cv)
+		} else {
+			rhs.SetVec(i, rhs.AtVec(i)+cv*fixed[y])
+		}
+	}
+	for _, e := range edges {
+		stamp(e.x, e.y, e.c)
+		stamp(e.y, e.x, e.c)
+	}
+	var v mat.VecDense
+	if err := v.SolveVec(g, rhs); err != nil {
+		return make([]float64, n)
+	}
+	return v.RawVector().Data
+}
