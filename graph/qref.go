@@ -20,15 +20,22 @@ import (
 // nothing, and its q stays referred to its band's centre.
 const maxTuningC = 10e-9
 
+// minTuningC is the least capacitance taken as tuning a coil: a picofarad,
+// below any trimmer's minimum (common practice, no source); less is the
+// rounding of a network whose capacitors do not reach across the coil.
+const minTuningC = 1e-12
+
 // ReferQ sets each winding's QAt, the frequency its q is referred to: the
-// part's q_at when the netlist gives one; else the geometric centre of the
-// range the part's tuned winding resonates over with its tuning
-// capacitance (the gang from fully open to fully meshed, a fixed capacitor
-// at its value), which the part's other windings share (they sit on the same
-// former, at the same frequency); else 0, and the loss falls back to the
-// centre of the band the part works in (Circuit.BandCentre). The loader
-// calls it once, so a reduced circuit, cloned from the loaded one, keeps the
-// same loss resistance for every coil.
+// part's q_at when the netlist gives one; else, for a part whose tuned
+// winding resonates with its tuning capacitance (the gang from fully open to
+// fully meshed, a fixed capacitor at its value) wholly outside the band the
+// part works in (an IF trap below a medium-wave band, a long-wave coil in a
+// set whose band is the medium waves), the geometric centre of its own
+// range, which the part's other windings share (they sit on the same former);
+// else 0: a coil that tunes inside its band, or tunes nothing, has its q
+// referred to that band's centre (Circuit.BandCentre). The loader calls it
+// once, so a reduced circuit, cloned from the loaded one, keeps the same
+// loss resistance for every coil.
 func (c *Circuit) ReferQ() {
 	for _, p := range c.Parts {
 		if len(p.Windings) == 0 {
@@ -36,7 +43,7 @@ func (c *Circuit) ReferQ() {
 		}
 		f := p.Params["q_at"]
 		if f <= 0 {
-			f = c.tankFreq(p)
+			f = c.ownRange(p)
 		}
 		for i := range p.Windings {
 			p.Windings[i].QAt = f
@@ -44,9 +51,27 @@ func (c *Circuit) ReferQ() {
 	}
 }
 
-// tankFreq is the centre of the range the part's first tuned coil (a whole
-// tapped coil, or one winding) resonates over, 0 when no winding is tuned.
-func (c *Circuit) tankFreq(p *Part) float64 {
+// ownRange is the geometric centre of the range the part's first tuned coil
+// resonates over when that range lies wholly outside the part's band (the
+// one BandCentre takes), else 0.
+func (c *Circuit) ownRange(p *Part) float64 {
+	lo, hi := c.tankRange(p)
+	if lo <= 0 {
+		return 0
+	}
+	b := c.BandOf(p)
+	if b.Min <= 0 || b.Max <= 0 {
+		b = c.FullBand()
+	}
+	if b.Min > 0 && hi >= b.Min && lo <= b.Max {
+		return 0
+	}
+	return math.Sqrt(lo * hi)
+}
+
+// tankRange is the range the part's first tuned coil (a whole tapped
+// coil, or one winding) resonates over, zeros when no winding is tuned.
+func (c *Circuit) tankRange(p *Part) (lo, hi float64) {
 	for _, coil := range coilsOf(p) {
 		a, b := p.NetOf(coil.from), p.NetOf(coil.to)
 		// A coil in series with a capacitor from a signal net to chassis
@@ -55,13 +80,14 @@ func (c *Circuit) tankFreq(p *Part) float64 {
 		// each end in turn is taken as AC ground.
 		for _, held := range []string{"", a, b} {
 			nodes := c.capNodes(a, b, held)
-			lo, hi := capBetween(c, nodes, a, b, 0), capBetween(c, nodes, a, b, 1)
-			if lo > 0 && hi > 0 && hi <= maxTuningC && coil.l > 0 {
-				return 1 / (2 * math.Pi * math.Sqrt(coil.l*math.Sqrt(lo*hi)))
+			cOpen, cMeshed := capBetween(c, nodes, a, b, 0), capBetween(c, nodes, a, b, 1)
+			if cOpen >= minTuningC && cMeshed >= minTuningC && cMeshed <= maxTuningC && coil.l > 0 {
+				f := func(cv float64) float64 { return 1 / (2 * math.Pi * math.Sqrt(coil.l*cv)) }
+				return f(cMeshed), f(cOpen)
 			}
 		}
 	}
-	return 0
+	return 0, 0
 }
 
 type coilEnds struct {
@@ -70,15 +96,30 @@ type coilEnds struct {
 }
 
 // coilsOf lists a part's coils end to end: a tapped inductor is one coil
-// (pins 1 and 2, its whole inductance); each winding of a transformer is
-// its own.
+// (pins 1 and 2, its whole inductance), and so are the two sections of a
+// tapped winding (L = La + Lb + 2k·√(La·Lb), device.WindingLoss's whole
+// coil); each other winding of a transformer that has a q is its own (a
+// winding given no q, a reaction or coupling winding, is no tank whose
+// loss matters).
 func coilsOf(p *Part) []coilEnds {
 	if p.Kind == Inductor {
 		return []coilEnds{{"1", "2", p.Inductance()}}
 	}
-	out := make([]coilEnds, 0, len(p.Windings))
-	for _, w := range p.Windings {
-		out = append(out, coilEnds{w.From, w.To, w.L})
+	var out []coilEnds
+	inPair := map[int]bool{}
+	for i, a := range p.Windings {
+		for j, b := range p.Windings {
+			if i != j && a.To == b.From && a.Q > 0 && b.Q > 0 {
+				k := p.K(a.Name, b.Name)
+				out = append(out, coilEnds{a.From, b.To, a.L + b.L + 2*k*math.Sqrt(a.L*b.L)})
+				inPair[i], inPair[j] = true, true
+			}
+		}
+	}
+	for i, w := range p.Windings {
+		if w.Q > 0 && !inPair[i] {
+			out = append(out, coilEnds{w.From, w.To, w.L})
+		}
 	}
 	return out
 }
@@ -103,7 +144,7 @@ func (c *Circuit) capNodes(a, b, held string) *NamedSets {
 	uf := &NamedSets{}
 	for _, n := range c.Nets {
 		uf.intern(n.Name)
-		if n.Role.IsACGround() {
+		if c.RoleOf(n.Name).IsACGround() {
 			uf.Union(" ground", n.Name)
 		}
 	}

@@ -280,9 +280,10 @@ func joinPins(uf *graph.NamedSets, p *graph.Part, a, b string) {
 
 // windings elaborates an inductor or transformer. Windings that no coupling
 // ties to another become series R–L elements; coupled ones form a group with
-// branch currents. Winding loss: Q is taken as the coil's Q at the centre of
-// the band the part works in (the geometric mean of its region's band edges),
-// giving a constant series resistance R = ω0·L/Q (device.WindingLoss; the
+// branch currents. Winding loss: Q is taken as the coil's Q at the frequency
+// it works at (its q_at, else the resonance of the tank it tunes,
+// graph.Circuit.ReferQ; failing both, the centre of its band), giving a
+// constant series resistance R = ω0·L/Q (device.WindingLoss; the
 // sections of a tapped winding share the loss of the whole coil). A constant R is what a
 // simulator deck can carry, so pare and the exported deck solve the same
 // circuit; over a tuning band the real Q of a coil is roughly flat, so a

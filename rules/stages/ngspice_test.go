@@ -137,15 +137,17 @@ K1 L1 L2 0.01`, "lin 8001 445k 465k")
 		t.Errorf("ngspice bandwidth %.1f Hz, stage's formula bw_hz %.1f Hz", hi-lo, want)
 	}
 	// In circuit: the solver takes a winding's Q as a series resistance
-	// ω0·L/Q at the middle of the fixture's band (√(530k·1.6M) = 920.87
-	// kHz, graph/ac), 57.860 Ω here; the deck says the same, and the
-	// stage's bw_hz is the −3 dB band of that.
+	// ω0·L/Q at the resonance of the tank it tunes, 455.0 kHz here, which
+	// lies outside the fixture's band (graph.Circuit.ReferQ; at the band's
+	// middle, 920.87 kHz, it would be 57.860 Ω): 2π·455.0 kHz·1 mH/100 =
+	// 28.588 Ω; the deck says the same, and the stage's bw_hz is the −3 dB
+	// band of that.
 	f, v = ngspiceSweep(t, `I1 0 in DC 0 AC 1
 L1 in p1 1m
-Rp p1 0 57.860
+Rp p1 0 28.588
 C1 in 0 122.354p
 L2 out s1 1m
-Rs s1 0 57.860
+Rs s1 0 28.588
 C2 out 0 122.354p
 K1 L1 L2 0.01`, "lin 8001 445k 465k")
 	if bw := band3dB(f, v); math.Abs(bw-fig(s.Figures, "bw_hz")) > 0.005*bw {
