@@ -2,6 +2,7 @@ package graph_test
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"pare/graph"
@@ -53,5 +54,29 @@ VC1 = { c = "12p..365p", pins = ["in", "gnd"], gang = "g" }`, "L1", 0},
 				t.Errorf("%s: %s %s q referred to %.6g Hz, want %.6g Hz", tc.name, tc.ref, w.Name, w.QAt, tc.want)
 			}
 		}
+	}
+}
+
+// TestQAtRoundTrip: q_at is written back canonically (after q, a frequency
+// in the letter code) and reads back to the same referred frequency.
+func TestQAtRoundTrip(t *testing.T) {
+	src := "band = \"530k..1.6M\"\n[nets]\ngnd = { role = \"ground\" }\n[parts]\nL1 = { q_at = 455000, q = 60, l = \"1m147\", pins = [\"in\", \"m\"] }\nC1 = { c = \"100p\", pins = [\"m\", \"gnd\"] }\n"
+	c, err := graph.Parse("q_at.toml", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, err := graph.Marshal(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(text), `q = 60, q_at = "455k"`) {
+		t.Errorf("q_at not written canonically:\n%s", text)
+	}
+	back, err := graph.Parse("back.toml", text)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := back.Part("L1").Windings[0].QAt; got != 455e3 {
+		t.Errorf("q_at reads back as %g Hz, want 455 kHz", got)
 	}
 }
