@@ -98,13 +98,14 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		orig = newWorldJoined(o.Full, false, acg, switchJoins(o.Full))
 		orig.op = o.DC
 	}
-	order := signalOrder(reduced)
-	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)
-	foldShunts(reduced, acg, signal, order)
 	loopCircuit := o.Full
 	if loopCircuit == nil {
 		loopCircuit = reduced
 	}
+	defer prefetchLoops(reduced, loopCircuit)()
+	order := signalOrder(reduced)
+	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)
+	foldShunts(reduced, acg, signal, order)
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
 	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
 	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
