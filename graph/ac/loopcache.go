@@ -142,3 +142,12 @@ func (ls *loopSystem) key(o LoopOptions, what uint64, extra ...float64) [sha256.
 	d.Sum(out[:0])
 	return out
 }
+
+// ForgetLoops drops every remembered loop search: for a long-lived caller
+// that is done with its circuits, and for tests that must see searches
+// solved, not remembered.
+func ForgetLoops() {
+	loopCache.Lock()
+	loopCache.m = map[[sha256.Size]byte]*loopEntry{}
+	loopCache.Unlock()
+}
