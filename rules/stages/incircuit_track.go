@@ -191,13 +191,11 @@ func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackW
 	c := quiet(x.solverCircuit())
 	gs, gosc := &follow{formula: sigF.f}, &follow{formula: oscF.f}
 	curve := func(th float64) (float64, float64, bool) {
-		fs, ok := tankAt(c, sn, th, gs.at(th))
-		if !ok {
-			return 0, 0, false
+		fs, fo, ok := pairAt(c, sn, on, th, gs.at(th), gosc.at(th))
+		if ok {
+			gs.solved(th, fs)
+			gosc.solved(th, fo)
 		}
-		fo, ok := tankAt(c, on, th, gosc.at(th))
-		gs.solved(th, fs)
-		gosc.solved(th, fo)
 		return fs, fo, ok
 	}
 	walk, ok := walkDial(curve, ifHz, trackSettings, trackRefine)
