@@ -16,11 +16,11 @@ import (
 // trimmers, the tank nearest the mixer first. L4 with C1 is 1.147 mH with
 // 100 pF: 469.9 kHz by f = 1/(2π√(LC)) (docs/references.md §1), within
 // 5 % of the 470 kHz IF. The padder C12 is fixed and L1 has no core, so
-// the low end cannot be set and the guide says to check C12. The set
-// mistracks by 33 kHz near 1 MHz (ngspice on
-// rules/stages/testdata/club-track/mw_track.cir), beyond half the RF tank's
-// bandwidth: the guide says so, and, as only the high end can be set, it
-// does not promise that the alignment brings the error in.
+// the low end cannot be set and the guide says to check C12. The set is a
+// three-point design: its worst tracking error is +6.87 kHz at the top of
+// the dial (ngspice on rules/stages/testdata/club-track/mw_pair_walk.cir),
+// inside half the RF tank's loaded bandwidth there, so the guide must not
+// call it mistracking.
 func TestClubReceiverFullProcedure(t *testing.T) {
 	_, g := build(t, example("club-receiver"))
 	var got []string
@@ -38,10 +38,11 @@ func TestClubReceiverFullProcedure(t *testing.T) {
 		}
 	}
 	warn := strings.Join(g.Warnings, "\n")
-	for _, w := range []string{"check C12's value", "the set mistracks", "loaded bandwidth", "alignment cannot bring it in"} {
-		if !strings.Contains(warn, w) {
-			t.Errorf("no warning saying %q:\n%s", w, warn)
-		}
+	if !strings.Contains(warn, "check C12's value") {
+		t.Errorf("no warning saying to check C12's value:\n%s", warn)
+	}
+	if strings.Contains(warn, "the set mistracks") {
+		t.Errorf("a set that tracks called mistracking:\n%s", warn)
 	}
 }
 
