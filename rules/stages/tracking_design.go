@@ -190,12 +190,16 @@ func nextAim(aim, fo, want, lastAim, lastFo float64) float64 {
 	return aim * want / fo
 }
 
+// settingRefine is the bisection steps of settingFor: 2⁻²⁴ of the travel
+// moves a broadcast signal tank by well under a hertz.
+const settingRefine = 24
+
 // settingFor is the gang setting where the signal tank stands at f in
 // circuit: bisection over the travel, the signal frequency falling as the
 // gang closes.
 func settingFor(c *graph.Circuit, sn, on tankNets, f float64, sigAt func(float64) float64) (float64, bool) {
 	lo, hi := 0.0, 1.0
-	for range 40 {
+	for range settingRefine {
 		mid := (lo + hi) / 2
 		fs, ok := tankAt(c, sn, mid, sigAt(mid))
 		if !ok {
