@@ -78,6 +78,7 @@ var misreadCeiling = struct{ beside, inLine int }{1344, 368}
 // and frame strays are reported.
 func TestSheetsReadAsDrawn(t *testing.T) {
 	beside, inLine := 0, 0
+	warmSheets(readSheets(t), "")
 	for _, f := range readSheets(t) {
 		for _, v := range drawViews {
 			for _, st := range []render.Style{render.IEC, render.IEEE} {
