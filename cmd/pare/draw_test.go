@@ -304,6 +304,7 @@ C2 = { c = "12p..365p", pins = ["tank", "gnd"] }
 // view the job cut onto pages (a whole set's) is compared page by page
 // with `pare draw -o FILE.svg`, which cuts it the same way.
 func TestDrawMatchesMainJob(t *testing.T) {
+	warmJobs(t, examples(t))
 	warmDraws(examples(t))
 	for _, ex := range examples(t) {
 		job := cachedJob(t, ex)

@@ -108,6 +108,12 @@ func cachedJob(t *testing.T, ex string) *jobRun {
 // unless -parallel is given: the kill test, the browser and the print
 // tests spend most of their time waiting on child processes and syncs, and
 // with one slot per core they would hold a core's share of the run idle.
+// warmJobs runs the main job on every file not yet run, as many at a time
+// as there are cores, for the tests that read the packs one after another.
+func warmJobs(t *testing.T, files []string) {
+	eachAtOnce(len(files), func(i int) { cachedJob(t, files[i]) })
+}
+
 func moreParallelSlots() {
 	flag.Parse()
 	set := false
