@@ -219,23 +219,35 @@ func (ly *state) arrange(b *block) {
 
 // stackChain stands the block's series pair beside its coil: the upper
 // part's top pin level with the coil's hot end, the lower part two steps
-// under it, labels to the right.
+// under it, on the coil's right unless its tap leaves on that side, labels
+// away from the coil.
 func (ly *state) stackChain(b *block) {
 	l := b.cells[0]
 	hot, _ := ends(l)
 	a, c := b.chain[0], b.chain[1]
+	left, right := sidePins(l)
+	// the coil's tap leaving on the right, the pair stands on its left, so
+	// the tap's wire does not cut between the hot ends; labels outwards
+	onLeft := right && !left
+	prefs := []geom.Dir{geom.Right, geom.Left, geom.Up, geom.Down}
+	if onLeft {
+		prefs = []geom.Dir{geom.Left, geom.Right, geom.Up, geom.Down}
+	}
 	for _, cl := range b.chain {
-		placeLabel(ly.c, cl, []geom.Dir{geom.Right, geom.Left, geom.Up, geom.Down})
+		placeLabel(ly.c, cl, prefs)
 	}
 	gap := float64(blockGap + 1)
-	if _, r := sidePins(l); r {
-		gap += 3
-	}
 	at, _ := ends(a)
-	a.move(geom.Pt{X: math.Ceil(b.fp.X1 + gap - a.footprint().X0), Y: hot.At.Y - at.At.Y})
+	dx := math.Ceil(b.fp.X1 + gap - a.footprint().X0)
+	if onLeft {
+		dx = math.Floor(b.fp.X0 - gap - a.footprint().X1)
+	} else if right {
+		dx += 3
+	}
+	a.move(geom.Pt{X: dx, Y: hot.At.Y - at.At.Y})
 	at, ab := ends(a)
 	ct, _ := ends(c)
-	dx := at.At.X - ct.At.X
+	dx = at.At.X - ct.At.X
 	dy := ab.At.Y + 2 - ct.At.Y
 	if fa, fc := a.footprint(), c.footprint().Move(geom.Pt{X: dx, Y: dy}); fc.Y0 < fa.Y1+1 {
 		dy += math.Ceil(fa.Y1 + 1 - fc.Y0)

@@ -11,8 +11,10 @@ import (
 // orient picks each cell's orientation by scoring where its pins point:
 // ground and bias down, rails up, signal pins towards the parts they lead to.
 // An orientation the untangle search fixed wins, if it keeps the symbol
-// upright.
+// upright; a padder and the part under it (padder.go) stand vertical, hot
+// end up, whatever the search tried.
 func (ly *state) orient() {
+	ups := ly.padderUps()
 	for _, cl := range ly.cells {
 		if cl.conn {
 			cl.shape = connectorShape(cl)
@@ -33,7 +35,9 @@ func (ly *state) orient() {
 		for i, o := range base.Turns {
 			s := base.Oriented(o)
 			score := ly.score(cl, s)
-			if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, cl.part, base.Oriented(base.Turns[t])) {
+			if up, ok := ups[cl.ref]; ok {
+				score += upBonus(s, up)
+			} else if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, cl.part, base.Oriented(base.Turns[t])) {
 				score = 0
 				if t == i {
 					score = 1
@@ -45,6 +49,17 @@ func (ly *state) orient() {
 		}
 		cl.shape = best
 	}
+}
+
+// upBonus outweighs every other score of a part's orientation when its pin
+// on net up points up: a padder's pair stands as its tank's C does.
+func upBonus(s symbol.Shape, up string) float64 {
+	for _, p := range s.Pins {
+		if p.Net == up && p.Dir == geom.Up {
+			return 100
+		}
+	}
+	return 0
 }
 
 // upright says whether a symbol keeps grounds and low rails from pointing
