@@ -11,8 +11,8 @@ import (
 // orient picks each cell's orientation by scoring where its pins point:
 // ground and bias down, rails up, signal pins towards the parts they lead to.
 // An orientation the untangle search fixed wins, if it keeps the symbol
-// upright; a padder and the part under it (padder.go) stand vertical, hot
-// end up, whatever the search tried.
+// upright; short of that, a padder and the part under it (padder.go) stand
+// vertical, hot end up.
 func (ly *state) orient() {
 	ups := ly.padderUps()
 	for _, cl := range ly.cells {
@@ -37,7 +37,8 @@ func (ly *state) orient() {
 			score := ly.score(cl, s)
 			if up, ok := ups[cl.ref]; ok {
 				score += upBonus(s, up)
-			} else if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, cl.part, base.Oriented(base.Turns[t])) {
+			}
+			if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, cl.part, base.Oriented(base.Turns[t])) {
 				score = 0
 				if t == i {
 					score = 1
