@@ -66,8 +66,10 @@ func eachAtOnce(n int, fn func(i int)) {
 // view's), multi-grid valves kept their static grids, the Wien sheets
 // became one two-device stage, and the oscillator review's six circuits
 // and near misses joined the gallery. The rise is the sheets issue's to
-// bring down: it is counted here so that it cannot grow unseen.
-var misreadCeiling = struct{ beside, inLine int }{1344, 368}
+// bring down: it is counted here so that it cannot grow unseen. Lowered to
+// 1340 and 366 when a tuned circuit stacked under another part stood clear
+// of its wires and a socket stood with the parts on its net.
+var misreadCeiling = struct{ beside, inLine int }{1340, 366}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
