@@ -81,6 +81,17 @@ type Step struct {
 	// Band names the wavechange position the step is done at ("" for the
 	// set as captured): "band 2 (S1a, S1b at position 2)".
 	Band string
+	// Sheets says where the drawn sheets mark the part ("the faded sheet 1
+	// of 8"); empty when no sheet was drawn with the guide (pare align).
+	Sheets string
+}
+
+// Locate fills each step's Sheets from where, which names the sheets a
+// part's mark is drawn on ("" for none).
+func (g *Guide) Locate(where func(ref string) string) {
+	for i := range g.Steps {
+		g.Steps[i].Sheets = where(g.Steps[i].Part)
+	}
 }
 
 // End is what one end of the dial should show.
@@ -122,9 +133,12 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 // Marks are the step numbers turned at each part of the circuit, by ref,
 // as a sheet labels them ("align 1, 2"; "align 3 sec, 4 pri" where two
 // windings of one transformer are turned): the parts of the circuit as
-// captured, in step order.
-func Marks(c *graph.Circuit, sts []stages.Stage) map[string]string {
+// captured, in step order, with every other band's steps from run (as
+// AddBands numbers them; nil: the set's own band only), so a band's own
+// trimmers, switched out as captured, carry their marks too.
+func Marks(c *graph.Circuit, sts []stages.Stage, run Runner) map[string]string {
 	g := procedure(c, sts)
+	g.AddBands(c, sts, run)
 	steps := map[string][]Step{}
 	var refs []string
 	for _, s := range g.Steps {
