@@ -81,17 +81,6 @@ type Step struct {
 	// Band names the wavechange position the step is done at ("" for the
 	// set as captured): "band 2 (S1a, S1b at position 2)".
 	Band string
-	// Sheets says where the drawn sheets mark the part ("the faded sheet 1
-	// of 8"); empty when no sheet was drawn with the guide (pare align).
-	Sheets string
-}
-
-// Locate fills each step's Sheets from where, which names the sheets a
-// part's mark is drawn on ("" for none).
-func (g *Guide) Locate(where func(ref string) string) {
-	for i := range g.Steps {
-		g.Steps[i].Sheets = where(g.Steps[i].Part)
-	}
 }
 
 // End is what one end of the dial should show.

@@ -133,7 +133,7 @@ func (g *Guide) procedure() (intro string, items []item, closing []string) {
 			phase = cap1(s.Band) + ", " + s.Phase
 		}
 		it := item{n: s.N, text: fmt.Sprintf("%s, %s, %s: turn the %s.", phase, hz(s.Freq), genAt(s), s.What),
-			how: "How: " + s.Watch + " (frequency: " + s.From + ")." + markedOn(s)}
+			how: "How: " + s.Watch + " (frequency: " + s.From + ")."}
 		if i+1 == len(g.Steps) || g.Steps[i+1].Phase != s.Phase || g.Steps[i+1].Band != s.Band {
 			it.repeatsAfter = g.repeatFor(s.Phase, s.Band)
 		}
@@ -265,13 +265,4 @@ func cap1(s string) string {
 		return s
 	}
 	return strings.ToUpper(s[:1]) + s[1:]
-}
-
-// markedOn is where the sheets mark a step's part, as a sentence after its
-// "How", or nothing when no sheet was drawn with the guide.
-func markedOn(s Step) string {
-	if s.Sheets == "" {
-		return ""
-	}
-	return " " + s.Part + " is marked on " + s.Sheets + "."
 }
