@@ -240,7 +240,11 @@ func TestStagesTrackingAndGainWording(t *testing.T) {
 	flat := strings.Join(strings.Fields(out), " ")
 	for _, want := range []string{
 		"fitted set tracks exactly at 590.6 kHz, 995.3 kHz and 1.457 MHz",
-		"suggested 3-point design: padder 356.3 pF, coil 134.5 µH, trimmer 37.28 pF, exact at 587.7 kHz, 1.06 MHz and 1.527 MHz",
+		// The design is iterated on the circuit until it tracks at the
+		// three points (the method checked against ngspice in rules/stages,
+		// TestThreePointDesignTracksInNgspice); the closed form alone gave
+		// 356.3 pF, 134.5 µH, 37.28 pF and missed in circuit.
+		"suggested 3-point design: padder 383 pF, coil 127.2 µH, trimmer 35.74 pF, exact at 587.7 kHz, 1.06 MHz and 1.527 MHz",
 	} {
 		if !strings.Contains(flat, want) {
 			t.Errorf("output lacks %q:\n%s", want, out)
