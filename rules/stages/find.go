@@ -104,7 +104,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	}
 	defer prefetchLoops(reduced, loopCircuit)()
 	order := signalOrder(reduced)
-	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)
+	signal, errSig := recognise(reduced, lib, false, acg, orig, nil, budget)
 	foldShunts(reduced, acg, signal, order)
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
 	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
@@ -112,7 +112,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	var power []*found
 	var errPow error
 	if o.Full != nil && errSig == nil {
-		power, errPow = recognise(o.Full, lib, true, nil, nil, budget)
+		power, errPow = recognise(o.Full, lib, true, nil, nil, o.DC, budget)
 	}
 	sort.SliceStable(signal, func(i, j int) bool {
 		a, b := order.of(signal[i].Parts), order.of(signal[j].Parts)
@@ -301,9 +301,12 @@ type found struct {
 	set  map[string]bool
 }
 
-func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, orig *world, budget *int) ([]*found, error) {
+// recognise matches the library's patterns of one kind (full: the power
+// supply's, on the original circuit, whose operating point is op) on c.
+func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, orig *world, op *dc.Point, budget *int) ([]*found, error) {
 	w := newWorld(c, full, acg)
 	w.orig = orig
+	w.op = op
 	s := &searcher{w: w, limit: *budget, partUsed: make([]bool, len(w.parts)), netOwner: make([]int, len(w.names)), seen: map[string]bool{}}
 	for i := range s.netOwner {
 		s.netOwner[i] = -1
