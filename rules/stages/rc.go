@@ -32,6 +32,7 @@ func calcRC(x *figCtx) {
 	c := sumCap(x.parts("c"), 1)
 	use := x.word("use", "")
 	if use == "detector" {
+		x.dropLineFeeds(x.parts("r"))
 		r = x.detectorLoad(r)
 	}
 	if r <= 0 || c <= 0 {
@@ -72,6 +73,35 @@ func calcRC(x *figCtx) {
 		x.checkAGC(tau)
 	case "detector":
 		x.checkDetector(fc)
+	}
+}
+
+// dropLineFeeds takes out of a detector's parts a resistor bound as its
+// load whose grounded end is a line the reduction put at AC ground (the
+// AGC line, a rail), not chassis: that resistor feeds the line (the AGC
+// filter's), it is no DC return of the detector, whose load figure
+// (detectorLoad) never counts it either.
+func (x *figCtx) dropLineFeeds(rs []*graph.Part) {
+	if x.w.orig == nil {
+		return
+	}
+	var drop []*graph.Part
+	for _, p := range rs {
+		op := x.w.orig.c.Part(p.Ref)
+		if op == nil {
+			continue
+		}
+		for _, pin := range p.Pins {
+			// grounded here, on a line in the circuit as drawn
+			on := op.NetOf(pin.Name)
+			if n := x.w.orig.c.Net(on); x.w.pinNet(x.partIndex(p), pin.Name) == groundNet && n != nil && n.Role != graph.Ground {
+				drop = append(drop, p)
+				break
+			}
+		}
+	}
+	if len(drop) > 0 {
+		x.claimInstead(drop, nil)
 	}
 }
 
