@@ -96,6 +96,8 @@ var figureNames = []figName{
 	{name: "f_feed", label: "fed stage's lowest f"},
 	{name: "atten_feed", label: "attenuation at fed stage's lowest f", inDB: true},
 	{name: "z_screen", label: "screen |Z| to chassis"},
+	{name: "c_in", label: "input C with Miller"},
+	{name: "gain_miller", label: "Miller gain |A|"},
 	{name: "z_screen_unbypassed", label: "screen |Z| without its bypass"},
 	{name: "l", working: true},
 	{name: "c", working: true},
