@@ -87,7 +87,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	}
 	switch v {
 	case render.Reduced:
-		s.Circuit = reduced
+		s.Circuit = r.withLineVolts(reduced)
 		s.Frames = stageFrames(r.Stages, reduced, nil)
 		_, merged := FadedAndMerged(c, reduced)
 		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
