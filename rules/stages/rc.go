@@ -77,10 +77,12 @@ func calcRC(x *figCtx) {
 }
 
 // dropLineFeeds takes out of a detector's parts a resistor bound as its
-// load whose grounded end is a line the reduction put at AC ground (the
-// AGC line, a rail), not chassis: that resistor feeds the line (the AGC
-// filter's), it is no DC return of the detector, whose load figure
-// (detectorLoad) never counts it either.
+// load whose grounded end is a declared bias line the reduction put at AC
+// ground (the AGC line), not chassis: that resistor feeds the line, the
+// AGC filter's (patterns/agc-line-filter.toml, on the original circuit,
+// holds it), and it is no DC return of the detector, whose load figure
+// (detectorLoad) never counts it either. A line that is only a bypassed
+// signal net has no stage to take the resistor, so it stays.
 func (x *figCtx) dropLineFeeds(rs []*graph.Part) {
 	if x.w.orig == nil {
 		return
@@ -94,7 +96,7 @@ func (x *figCtx) dropLineFeeds(rs []*graph.Part) {
 		for _, pin := range p.Pins {
 			// grounded here, on a line in the circuit as drawn
 			on := op.NetOf(pin.Name)
-			if n := x.w.orig.c.Net(on); x.w.pinNet(x.partIndex(p), pin.Name) == groundNet && n != nil && n.Role != graph.Ground {
+			if n := x.w.orig.c.Net(on); x.w.pinNet(x.partIndex(p), pin.Name) == groundNet && n != nil && n.Role == graph.Bias {
 				drop = append(drop, p)
 				break
 			}

@@ -3,6 +3,7 @@ package pipeline
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"pare/graph"
@@ -33,9 +34,13 @@ func (r *Result) withLineVolts(c *graph.Circuit) *graph.Circuit {
 			if v < 0 {
 				sign = "−" // U+2212 MINUS SIGN, as typeset
 			}
-			n.Volts = v
-			// four figures, as the DC chart prints it (note.Volts)
-			n.Label = strings.TrimSpace(n.Label + " " + sign + fmt.Sprintf("%.4g", math.Abs(v)) + " V")
+			// four figures, as the DC chart prints it (note.Volts); the
+			// voltage kept at the same figures, so the tag states it once
+			text := fmt.Sprintf("%.4g", math.Abs(v))
+			if r, err := strconv.ParseFloat(text, 64); err == nil {
+				n.Volts = math.Copysign(r, v)
+			}
+			n.Label = strings.TrimSpace(n.Label + " " + sign + text + " V")
 		}
 	}
 	return out
