@@ -203,8 +203,10 @@ func TestStagesLoneShunt(t *testing.T) {
 }
 
 // The transistor example's supply filter (C12 100 µF on the battery side,
-// R7 470 Ω, C10 47 µF): the solver's corner in circuit with the formula's
-// 1/(2π·470 Ω·47 µF) = 7.205 Hz beside it (derived from f = 1/(2πRC)),
+// R7 470 Ω, C10 47 µF, feeding the mixer's line alone: a decoupler, C10
+// its decoupling capacitor): the solver's corner in circuit with the
+// formula's 1/(2π·470 Ω·47 µF) = 7.205 Hz beside it (derived from
+// f = 1/(2πRC)),
 // printed after the signal stages under the supply heading, since the
 // reduction removes its parts.
 func TestStagesSupplyListedApart(t *testing.T) {
@@ -213,7 +215,7 @@ func TestStagesSupplyListedApart(t *testing.T) {
 		t.Fatalf("exit %d\n%s\n%s", code, out, errs)
 	}
 	flat := strings.Join(strings.Fields(out), " ")
-	for _, want := range []string{"formula fc = 1/(2πRC2) gives 7.205 Hz", "c reservoir 100 µF", "c smoothing 47 µF", supplyHeading} {
+	for _, want := range []string{"formula fc = 1/(2πRC2) gives 7.205 Hz", "c decoupling 47 µF", supplyHeading} {
 		if !strings.Contains(flat, want) {
 			t.Errorf("output lacks %q:\n%s", want, out)
 		}
