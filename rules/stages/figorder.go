@@ -93,6 +93,8 @@ var figureNames = []figName{
 	{name: "screen_drop", label: "drop across the screen feed (DC)"},
 	{name: "f_ripple", label: "ripple f"},
 	{name: "atten_ripple", label: "attenuation at ripple f", inDB: true},
+	{name: "ripple_in", label: "ripple p-p at the reservoir"},
+	{name: "hum_out", label: "hum p-p left at the output (fundamental)"},
 	{name: "f_feed", label: "fed stage's lowest f"},
 	{name: "atten_feed", label: "attenuation at fed stage's lowest f", inDB: true},
 	{name: "z_screen", label: "screen |Z| to chassis"},

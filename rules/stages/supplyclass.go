@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/ac"
 	"pare/graph/dc"
 	"pare/graph/figure"
 )
@@ -199,4 +200,37 @@ func (x *figCtx) screenFeedFigures(s *graph.Part, c2 []*graph.Part, in, out int,
 	}
 	x.flag("screen bypass of %s is not effective at %s: the screen sees %s to chassis in circuit, %.0f %% of the %s without it",
 		dev.Ref, hz(f), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text), 100*share, figure.Format(cmplx.Abs(zb), figure.Ohm, figure.Text))
+}
+
+// sawtoothFundamental is the share of a sawtooth's peak-to-peak swing its
+// fundamental has, peak to peak: 2/π (Fourier series of a sawtooth,
+// handbook). A reservoir's ripple is near a sawtooth, and a smoothing
+// section passes its harmonics less than the fundamental, so the hum left
+// at the output is about the fundamental's.
+const sawtoothFundamental = 2 / math.Pi
+
+// humOut is the hum left on the main filter's output: the ripple the DC
+// estimate gives at the reservoir on its input (graph/dc, the rectifier's
+// periodic steady state), its fundamental passed by the section as the
+// solver gives it at the ripple frequency. Nothing where the input is not
+// an estimated reservoir.
+func (x *figCtx) humOut(in, out int, r *ac.Response, f float64) {
+	op := x.dcPoint()
+	if op == nil {
+		return
+	}
+	inName := x.netName(in)
+	for _, e := range op.Estimates {
+		if e.Net != inName || !(e.Ripple > 0) {
+			continue
+		}
+		m := magnitude(r, f)
+		if !(m > 0) {
+			return
+		}
+		x.set("ripple_in", figure.Volt, e.Ripple, figure.BySolver("ripple p-p of the rectifier's estimate on "+inName, "DC operating point"))
+		x.set("hum_out", figure.Volt, e.Ripple*sawtoothFundamental*m,
+			figure.BySolver("2/π × ripple p-p × |V("+x.netName(out)+")/V("+inName+")|", hz(f)))
+		return
+	}
 }

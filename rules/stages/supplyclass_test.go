@@ -2,6 +2,7 @@ package stages
 
 import (
 	"math"
+	"slices"
 	"strings"
 	"testing"
 
@@ -26,6 +27,8 @@ func TestSupplyFilterClasses(t *testing.T) {
 		t.Fatal(err)
 	}
 	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround, DC: op})
+	// (the reservoir's ripple, 16.8 V p-p, is graph/dc's estimate, checked
+	// against an ngspice transient there: docs/references.md §18)
 	cases := []struct {
 		series, title string
 		has, hasNot   []string
@@ -53,6 +56,17 @@ func TestSupplyFilterClasses(t *testing.T) {
 	main := stageWith(st, "L3")
 	if got := fig(main.Figures, "c_reservoir_f"); got != 32e-6 {
 		t.Errorf("reservoir %g F, want C38 32 µF (on the rectifier)", got)
+	}
+	if !slices.Contains(main.Parts, "C38") {
+		t.Errorf("main filter parts %v: want its reservoir C38", main.Parts)
+	}
+	// hum left on HT: the estimate's ripple at the reservoir, its
+	// fundamental (2/π of a sawtooth's p-p, Fourier series, handbook)
+	// passed by the section as the solver gives it at 100 Hz
+	rip := fig(main.Figures, "ripple_in_v")
+	want := rip * 2 / math.Pi * math.Pow(10, -fig(main.Figures, "atten_ripple_db")/20)
+	if got := fig(main.Figures, "hum_out_v"); rip < 10 || math.Abs(got/want-1) > 1e-9 {
+		t.Errorf("hum %g V from ripple %g V, want %g V", got, rip, want)
 	}
 	if !strings.Contains(strings.Join(main.Notes, " "), "6 stages (V1, V2, V3, V4, V6 and V7)") {
 		t.Errorf("main filter notes %q: want the six stages it feeds", main.Notes)

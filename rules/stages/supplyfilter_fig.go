@@ -53,6 +53,11 @@ func calcSmoothing(x *figCtx) {
 	}
 	class, fed := x.filterClassOf(in, out, x.partIndex(s))
 	x.capRoles(class, in, c1, c2)
+	if class == mainSmoothing && c1 > 0 && x.rectifierOn(in) {
+		// the reservoir is the main filter's own: no other section ends
+		// on the rectifier, so the stage holds it
+		x.claimInstead(nil, c1p)
+	}
 	guess := 1 / (2 * math.Pi * s.Value.Max * c2)
 	check := figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: guess, Origin: bySmoothRC}
 	if s.Kind == graph.Inductor {
@@ -96,6 +101,9 @@ func (x *figCtx) filterInCircuit(s *graph.Part, c2 float64, inID, outID int, dev
 		x.set("f_ripple", figure.Hertz, f, byRippleRule)
 		x.attenFigure("atten_ripple", s, c2, f, r, transfer)
 		x.st.Notes = append(x.st.Notes, "ripple from the "+said)
+		if dev == nil {
+			x.humOut(inID, outID, r, f)
+		}
 	} else {
 		x.st.Notes = append(x.st.Notes, "no rectifier with a reservoir in the set: no ripple figure")
 	}
