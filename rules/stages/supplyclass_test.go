@@ -42,6 +42,9 @@ func TestSupplyFilterClasses(t *testing.T) {
 		if s == nil || s.Title != tc.title {
 			t.Fatalf("%s: %v, want %q", tc.series, s, tc.title)
 		}
+		if tc.title == screenFeedTitle && s.Topology != "screen-feed" {
+			t.Errorf("%s: topology %q, want screen-feed", tc.series, s.Topology)
+		}
 		for _, k := range tc.has {
 			if _, ok := s.Figures.Lookup(k); !ok {
 				t.Errorf("%s (%s): no %s in %v", tc.series, s.Title, k, s.Figures)

@@ -64,13 +64,16 @@ func calcSmoothing(x *figCtx) {
 		guess = resonance(s.Inductance(), c2)
 		check = figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: guess, Origin: byChoke}
 	}
+	if class == screenFeed {
+		// named for its job, not the pattern that found it
+		x.st.Topology, x.st.Title = screenFeedTopology, screenFeedTitle
+	}
 	if !x.solve {
 		x.put(check)
 		return
 	}
 	switch class {
 	case screenFeed:
-		x.st.Title = screenFeedTitle
 		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s's screen: %s drops the HT to it, %s holds it at AC ground", dev.Ref, s.Ref, refList(c2p)))
 		x.filterCorner(s, in, out, check)
 		x.screenFeedFigures(s, c2p, in, out, dev)
@@ -88,6 +91,10 @@ func calcSmoothing(x *figCtx) {
 // screenFeedTitle names a screen feed: the trade's screen feed resistor
 // (or dropper) and screen bypass capacitor.
 const screenFeedTitle = "Screen feed: dropper resistor and bypass capacitor"
+
+// screenFeedTopology is a screen feed's topology: the supply filter
+// patterns find it, its wiring says what it is.
+const screenFeedTopology = "screen-feed"
 
 // filterInCircuit writes the solver's figures of a supply filter section on
 // the circuit as it is, its rail driven; dev is the one stage a decoupler
