@@ -70,8 +70,9 @@ func eachAtOnce(n int, fn func(i int)) {
 // 1340 and 366 when a tuned circuit stacked under another part stood clear
 // of its wires and a socket stood with the parts on its net; 1338 and 370
 // when the club receiver gained the slug cores and band edge of a set that
-// aligns (its sheets drawn anew, four more wires in line).
-var misreadCeiling = struct{ beside, inLine int }{1338, 370}
+// aligns (its sheets drawn anew, four more wires in line); 372 in line
+// when its sheets gained the grid stopper's and the AGC filter's frames.
+var misreadCeiling = struct{ beside, inLine int }{1338, 372}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
