@@ -115,13 +115,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
 	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
 	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
-	sort.SliceStable(signal, func(i, j int) bool {
-		a, b := order.of(signal[i].Parts), order.of(signal[j].Parts)
-		if a != b {
-			return a < b
-		}
-		return signal[i].Parts[0] < signal[j].Parts[0]
-	})
+	inSignalOrder(signal, order)
 	nameRoles(signal, reduced)
 	var out []Stage
 	n := 0
@@ -130,18 +124,26 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		n++
 		s.Name = fmt.Sprintf("%s%d", prefix, n)
 	}
-	for _, top := range signal {
-		name(top.Stage)
-		out = appendTree(out, top)
-	}
 	// Stages found on the original circuit that are not supplies (the AGC
-	// filter, whose line the reduction grounds) follow the signal stages.
+	// filter, whose line the reduction grounds) take their place in signal
+	// order by the parts they keep on the reduced circuit (R16 hangs on the
+	// detector's load), so the sheet draws them beside the stage they hang
+	// on; one with no part left follows the signal stages.
+	onOriginal := map[*found]bool{}
+	all := append([]*found(nil), signal...)
 	for _, top := range power {
 		if top.group != "power" {
-			name(top.Stage)
-			top.Notes = append(top.Notes, originalNoteFor(top.Parts, reduced))
-			out = appendTree(out, top)
+			onOriginal[top] = true
+			all = append(all, top)
 		}
+	}
+	inSignalOrder(all, order)
+	for _, top := range all {
+		name(top.Stage)
+		if onOriginal[top] {
+			top.Notes = append(top.Notes, originalNoteFor(top.Parts, reduced))
+		}
+		out = appendTree(out, top)
 	}
 	for _, top := range power {
 		if top.group == "power" {
@@ -154,6 +156,18 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	loopCapacitors(loops, out)
 	dropContradicted(out)
 	return out, errors.Join(errSig, errPow)
+}
+
+// inSignalOrder sorts stages by their nearest part's distance from the inputs,
+// then by their first part, so the numbering follows the signal.
+func inSignalOrder(stages []*found, order order) {
+	sort.SliceStable(stages, func(i, j int) bool {
+		a, b := order.of(stages[i].Parts), order.of(stages[j].Parts)
+		if a != b {
+			return a < b
+		}
+		return stages[i].Parts[0] < stages[j].Parts[0]
+	})
 }
 
 // heldOnOriginal are the parts of the stages found on the original circuit

@@ -124,7 +124,7 @@ func TestEveryBandMarkedOnTheOriginal(t *testing.T) {
 			t.Errorf("step %d: %s is not on %s", s.N, s.Part, where)
 		}
 	}
-	if bands != 3 {
-		t.Errorf("%d steps of the other band, want LW's three (TC5, TC3, TC1)", bands)
+	if bands != 6 {
+		t.Errorf("%d steps of the other band, want LW's six (TC5, L2, TC3, T4, TC1, T2)", bands)
 	}
 }
