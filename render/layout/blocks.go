@@ -224,18 +224,30 @@ func (ly *state) stackChain(b *block) {
 	l := b.cells[0]
 	hot, _ := ends(l)
 	a, c := b.chain[0], b.chain[1]
+	// the pair stands on the side away from the coil's tap, if it has
+	// one on its right only, so the tap's wire leaves the block clear
+	sl, sr := sidePins(l)
+	onLeft := sr && !sl
+	prefs := []geom.Dir{geom.Right, geom.Left, geom.Up, geom.Down}
+	if onLeft {
+		prefs = []geom.Dir{geom.Left, geom.Right, geom.Up, geom.Down}
+	}
 	for _, cl := range b.chain {
-		placeLabel(ly.c, cl, []geom.Dir{geom.Right, geom.Left, geom.Up, geom.Down})
+		placeLabel(ly.c, cl, prefs)
 	}
 	gap := float64(blockGap + 1)
-	if _, r := sidePins(l); r {
+	if sr && !onLeft {
 		gap += 3
 	}
-	at, _ := ends(a)
-	a.move(geom.Pt{X: math.Ceil(b.fp.X1 + gap - a.footprint().X0), Y: hot.At.Y - at.At.Y})
+	top, _ := ends(a)
+	dx := math.Ceil(b.fp.X1 + gap - a.footprint().X0)
+	if onLeft {
+		dx = math.Floor(b.fp.X0 - gap - a.footprint().X1)
+	}
+	a.move(geom.Pt{X: dx, Y: hot.At.Y - top.At.Y})
 	at, ab := ends(a)
 	ct, _ := ends(c)
-	dx := at.At.X - ct.At.X
+	dx = at.At.X - ct.At.X
 	dy := ab.At.Y + 2 - ct.At.Y
 	if fa, fc := a.footprint(), c.footprint().Move(geom.Pt{X: dx, Y: dy}); fc.Y0 < fa.Y1+1 {
 		dy += math.Ceil(fa.Y1 + 1 - fc.Y0)

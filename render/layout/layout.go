@@ -41,6 +41,9 @@ import (
 type Frame struct {
 	Title, Subtitle string
 	Parts           []string
+	// Places are the stage's templates (template.go): each one's parts
+	// round its anchor, the templates one after another.
+	Places []Place
 }
 
 // Options says what to draw.
@@ -162,6 +165,9 @@ type state struct {
 	free     bool // no common signal line: every part lines up along its nets
 	// shortFirst routes the nets shortest first rather than most pins first
 	shortFirst bool
+	// slot is, per ref a stage template places, where (template.go), for
+	// orienting it before the template moves it
+	slot map[string]tplSlot
 	// frameStage is the stage (index into Options.Frames) of each frame drawn
 	frameStage []int
 }

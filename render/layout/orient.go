@@ -13,6 +13,8 @@ import (
 // An orientation the untangle search fixed wins, if it keeps the symbol
 // upright.
 func (ly *state) orient() {
+	stands := ly.stands()
+	ly.slot = ly.templateSlots()
 	for _, cl := range ly.cells {
 		if cl.conn {
 			cl.shape = connectorShape(cl)
@@ -43,8 +45,27 @@ func (ly *state) orient() {
 				best, bestScore, cl.turn = s, score, i
 			}
 		}
+		if _, fixed := ly.turns[cl.ref]; !fixed && stands[cl.ref] != "" && standOf(best) != stands[cl.ref] {
+			best = ly.standing(cl, base, best, stands[cl.ref])
+		}
 		cl.shape = best
 	}
+}
+
+// standing is the best-scoring upright orientation of a cell that runs the
+// way its stage template asks, or best when none does.
+func (ly *state) standing(cl *cell, base, best symbol.Shape, stand string) symbol.Shape {
+	bestScore := math.Inf(-1)
+	for i, o := range base.Turns {
+		s := base.Oriented(o)
+		if standOf(s) != stand || !upright(ly.c, cl.part, s) {
+			continue
+		}
+		if score := ly.score(cl, s); score > bestScore+1e-9 {
+			best, bestScore, cl.turn = s, score, i
+		}
+	}
+	return best
 }
 
 // upright says whether a symbol keeps grounds and low rails from pointing
@@ -85,7 +106,7 @@ func (ly *state) score(cl *cell, s symbol.Shape) float64 {
 	if signal == len(s.Pins) && horizontalSignal == signal {
 		score += 1 // a part in the signal path lies along it
 	}
-	return score
+	return score + ly.hangScore(cl, s)
 }
 
 // railScore rates a rail pin pointing in direction d where it should point
@@ -109,6 +130,9 @@ func (ly *state) towards(cl *cell, p geom.Pin) float64 {
 	if others > 0 {
 		tot := n*(others+1) - here
 		n = tot / others
+	}
+	if t, ok := ly.slot[cl.ref]; ok {
+		here = t.col // where its stage template will put it
 	}
 	switch {
 	case n < here-0.01:
