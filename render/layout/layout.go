@@ -168,6 +168,9 @@ type state struct {
 	// slot is, per ref a stage template places, where (template.go), for
 	// orienting it before the template moves it
 	slot map[string]tplSlot
+	// tplMoved are the refs a template moved; tplOff those whose template
+	// is not let orient them (a first placement left them where they were)
+	tplMoved, tplOff map[string]bool
 	// frameStage is the stage (index into Options.Frames) of each frame drawn
 	frameStage []int
 }

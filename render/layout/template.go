@@ -64,6 +64,7 @@ func (ly *state) templates(cols [][]*block) {
 		}
 	}
 	moved := map[*block]bool{}
+	ly.tplMoved = map[string]bool{}
 	for fi, f := range ly.o.Frames {
 		// each template starts with its anchor's own place
 		start := 0
@@ -92,7 +93,7 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 	seen := map[*block]bool{anchor: true}
 	for _, p := range places {
 		b := blockOf[p.Ref]
-		if b == nil || seen[b] || moved[b] || !ly.movable(b, stage) {
+		if b == nil || seen[b] || moved[b] || !ly.movable(b, stage, placeOf) {
 			continue
 		}
 		if first, ok := placeOf[b.cells[0].ref]; ok {
@@ -114,14 +115,22 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 		if s.keep {
 			s.b.move(s.d)
 			moved[s.b] = true
+			for _, cl := range append(append([]*cell{}, s.b.cells...), s.b.chain...) {
+				ly.tplMoved[cl.ref] = true
+			}
 		}
 	}
 }
 
-// movable says whether a template may move a block: every part in it is of
-// this stage and none is a flag or connector at the sheet's edge.
-func (ly *state) movable(b *block, stage int) bool {
+// movable says whether a template may move a block: every part in it is
+// one the template places (a block that holds another part too, a second
+// tank's coil stacked beside this one, stays where the generic placement
+// put it), of this stage, and none is a flag or connector at the edge.
+func (ly *state) movable(b *block, stage int, placed map[string]Place) bool {
 	for _, cl := range append(append([]*cell{}, b.cells...), b.chain...) {
+		if _, ok := placed[cl.ref]; !ok {
+			return false
+		}
 		if s, ok := ly.stageOf[cl.ref]; !ok || s != stage || cl.edge != 0 || cl.conn {
 			return false
 		}
@@ -293,7 +302,7 @@ func (ly *state) stands() map[string]string {
 	out := map[string]string{}
 	for _, f := range ly.o.Frames {
 		for _, p := range f.Places {
-			if _, ok := out[p.Ref]; !ok && p.Stand != "" {
+			if _, ok := out[p.Ref]; !ok && p.Stand != "" && !ly.tplOff[p.Ref] {
 				out[p.Ref] = p.Stand
 			}
 		}
@@ -337,7 +346,7 @@ func (ly *state) templateSlots() map[string]tplSlot {
 	for _, f := range ly.o.Frames {
 		for _, p := range f.Places {
 			a := byRef[p.Anchor]
-			if _, done := out[p.Ref]; a == nil || done || p.Ref == p.Anchor {
+			if _, done := out[p.Ref]; a == nil || done || p.Ref == p.Anchor || ly.tplOff[p.Ref] {
 				continue
 			}
 			out[p.Ref] = tplSlot{col: float64(a.col + p.Col), row: p.Row, anchor: a}
@@ -378,4 +387,28 @@ func (ly *state) anchorNet(a *cell, net string) bool {
 		}
 	}
 	return false
+}
+
+// templateMisses are the refs a template would orient that it left where
+// the generic placement put them (its slot refused, its block shared with
+// a part the template does not place), with those already left out: they
+// are oriented as the generic placement would orient them.
+func (ly *state) templateMisses() map[string]bool {
+	var miss []string
+	for ref := range ly.slot {
+		if !ly.tplMoved[ref] {
+			miss = append(miss, ref)
+		}
+	}
+	if len(miss) == 0 {
+		return nil
+	}
+	out := map[string]bool{}
+	for r := range ly.tplOff {
+		out[r] = true
+	}
+	for _, r := range miss {
+		out[r] = true
+	}
+	return out
 }
