@@ -83,8 +83,8 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 	if anchor == nil || len(anchor.cells) != 1 || len(anchor.chain) > 0 {
 		return
 	}
-	// a block of several parts (a tank's L and C) takes the slot of its
-	// first part (the coil), else of the first of its parts listed
+	// a block of several parts (a tank's L and C) takes the slot of the
+	// first of its parts the template lists
 	placeOf := map[string]Place{}
 	for _, p := range places {
 		placeOf[p.Ref] = p
@@ -95,9 +95,6 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 		b := blockOf[p.Ref]
 		if b == nil || seen[b] || moved[b] || !ly.movable(b, stage, placeOf) {
 			continue
-		}
-		if first, ok := placeOf[b.cells[0].ref]; ok {
-			p = first
 		}
 		seen[b] = true
 		if (p.Col == 0 && p.Row == 0) || max(p.Col, -p.Col, p.Row, -p.Row) > slotReach {

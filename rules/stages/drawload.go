@@ -4,6 +4,12 @@
 
 package stages
 
+import (
+	"sort"
+
+	"pare/graph"
+)
+
 // Place is where one part of a stage is drawn relative to the stage's
 // anchor (its active part, the entry at column 0, row 0): Col counts slots
 // to the right (negative: left, towards the input), Row slots down
@@ -57,6 +63,22 @@ func (ld *patLoader) draw(k string, v any) {
 		ld.p.Draw = append(ld.p.Draw, pl)
 		ld.p.drawPos = append(ld.p.drawPos, ld.at.Key(path))
 	}
+	// the file's order, not the names': a block of several parts (a
+	// tank's coil and capacitors) takes the slot of the first listed
+	idx := make([]int, len(ld.p.Draw))
+	for i := range idx {
+		idx[i] = i
+	}
+	pos := ld.p.drawPos
+	sort.SliceStable(idx, func(a, b int) bool {
+		pa, pb := pos[idx[a]], pos[idx[b]]
+		return pa.Line < pb.Line || pa.Line == pb.Line && pa.Col < pb.Col
+	})
+	draw, at := make([]Place, len(idx)), make([]graph.Pos, len(idx))
+	for i, j := range idx {
+		draw[i], at[i] = ld.p.Draw[j], pos[j]
+	}
+	ld.p.Draw, ld.p.drawPos = draw, at
 }
 
 // slot reads a column or row offset: a whole number within maxSlot.
