@@ -168,6 +168,9 @@ type state struct {
 	// slot is, per ref a stage template places, where (template.go), for
 	// orienting it before the template moves it
 	slot map[string]tplSlot
+	// slotNetSum sums, per net, the columns of its pins' parts, a templated
+	// part's at its slot
+	slotNetSum map[string]float64
 	// tplMoved are the refs a template moved; tplOff those whose template
 	// is not let orient them (a first placement left them where they were)
 	tplMoved, tplOff map[string]bool

@@ -15,6 +15,7 @@ import (
 func (ly *state) orient() {
 	stands := ly.stands()
 	ly.slot = ly.templateSlots()
+	ly.slotNetSum = ly.slotNets()
 	for _, cl := range ly.cells {
 		if cl.conn {
 			cl.shape = connectorShape(cl)
@@ -131,8 +132,11 @@ func (ly *state) towards(cl *cell, p geom.Pin) float64 {
 		tot := n*(others+1) - here
 		n = tot / others
 	}
-	if t, ok := ly.slot[cl.ref]; ok {
-		here = t.col // where its stage template will put it
+	if t, ok := ly.slot[cl.ref]; ok && others > 0 {
+		// where its stage template will put it, and its neighbours
+		// where theirs will
+		here = t.col
+		n = (ly.slotNetSum[p.Net] - here) / others
 	}
 	switch {
 	case n < here-0.01:

@@ -352,6 +352,24 @@ func (ly *state) templateSlots() map[string]tplSlot {
 	return out
 }
 
+// slotNets sums, per net, the columns of the parts on it, pin by pin as
+// netColumns counts them, a templated part's at its slot's column.
+func (ly *state) slotNets() map[string]float64 {
+	sum := map[string]float64{}
+	for _, cl := range ly.cells {
+		c := float64(cl.col)
+		if t, ok := ly.slot[cl.ref]; ok {
+			c = t.col
+		}
+		for _, pn := range cl.part.Pins {
+			if pn.Net != notConnected {
+				sum[pn.Net] += c
+			}
+		}
+	}
+	return sum
+}
+
 // hangScore favours, for a part its template stands upright beside or
 // below its anchor, the turn whose pin on one of the anchor's wires points
 // up to it (down to it from a row above): the part hangs from the wire
