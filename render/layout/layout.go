@@ -23,7 +23,9 @@
 // cell.go and labels.go (local ground and rail symbols, label candidates;
 // rails.go: the rail each pin returns to, its tag text and direction),
 // blocks.go, order.go and place.go (blocks, their order in a column, x and
-// y), frames.go and links.go (stage frames, gang links), sheet.go (one
+// y), template.go and template_orient.go (a recognised stage's parts moved
+// to the slots its pattern's drawing template gives round its active
+// part, and oriented for them), frames.go and links.go (stage frames, gang links), sheet.go (one
 // placement routed and assembled), fade.go (the faded view's greying of
 // the full view's wires, and the plain full view), untangle.go (the search for fewer
 // crossings), rows.go (off-row connectors of a row of a paged sheet), and the router: grid.go (the grid and its costs), search.go
