@@ -224,10 +224,12 @@ func (ly *state) stackChain(b *block) {
 	l := b.cells[0]
 	hot, _ := ends(l)
 	a, c := b.chain[0], b.chain[1]
-	// the pair stands on the side away from the coil's tap, if it has
-	// one on its right only, so the tap's wire leaves the block clear
+	// a coil a stage template places (its tap turned towards the device)
+	// has the pair on the side away from its tap, if it has one on its
+	// right only, so the tap's wire leaves the block clear
 	sl, sr := sidePins(l)
-	onLeft := sr && !sl
+	_, templated := ly.slot[l.ref]
+	onLeft := templated && sr && !sl
 	prefs := []geom.Dir{geom.Right, geom.Left, geom.Up, geom.Down}
 	if onLeft {
 		prefs = []geom.Dir{geom.Left, geom.Right, geom.Up, geom.Down}
