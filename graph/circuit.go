@@ -138,7 +138,12 @@ type Net struct {
 	Role  Role    `json:"role"`
 	Volts float64 `json:"volts,omitempty"` // DC voltage of a supply or bias net
 	Label string  `json:"label,omitempty"` // text for the drawing, e.g. "HT +250 V"
-	Pos   Pos     `json:"-"`               // where it was declared or first used
+	// Fed is, for a decoupled line a reduction made a rail of its own
+	// (MarkDecoupled), the rail that feeds it through a resistor or choke;
+	// its DC voltage is its own, lower by the drop, which only the DC
+	// solution knows.
+	Fed string `json:"fed,omitempty"`
+	Pos Pos    `json:"-"` // where it was declared or first used
 	// Declared is set for a net written in [nets], so that the writer keeps
 	// an entry the user wrote even when it only restates the default.
 	Declared bool `json:"-"`

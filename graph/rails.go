@@ -2,8 +2,10 @@ package graph
 
 import (
 	"math"
+	"regexp"
 	"sort"
 	"strconv"
+	"strings"
 )
 
 // IsRail reports whether a net of this role is a rail: a supply, bias or
@@ -50,13 +52,14 @@ func (c *Circuit) ReturnOf(pin Pin) *Net {
 // ground a rail of its own when a resistor or choke feeds it from a rail: a
 // decoupled B+ line, a screen feed, a collector or emitter fed from the
 // supply through a resistor, but not a divider's tap (a resistor or choke
-// to chassis as well: a bias point). It takes the supply role and, unless it has a
-// label, the label of the rail that feeds it ("HT +250 V"), so that the join
-// keeps on every terminal that the return is to that rail, not to chassis.
-// Its own DC voltage is the rail's less the drop, which only the DC
-// solution knows; a reduced sheet shows the small-signal returns, as its
-// caution says, and the full sheet the feed. The first feed by part ref
-// wins; it reports whether it marked.
+// to chassis as well: a bias point). It takes the supply role, records the
+// rail that feeds it (Fed) and, unless it has a label, that rail's name
+// without its voltage ("HT" from "HT +250 V"), so that the join keeps on
+// every terminal that the return is to that line, not to chassis. Its own
+// DC voltage is the rail's less the drop, which only the DC solution
+// knows: a tag that copied the rail's would state a voltage the line does
+// not have, so the caller that has the solution adds it. The first feed by
+// part ref wins; it reports whether it marked.
 func (c *Circuit) MarkDecoupled(net string) bool {
 	n := c.Net(net)
 	if n == nil || n.Role != Signal {
@@ -80,11 +83,28 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 		return false
 	}
 	n.Role = Supply
+	n.Fed = from.Name
 	if n.Label == "" {
-		n.Label = railLabel(from)
+		n.Label = WithoutVolts(railLabel(from))
 	}
 	return true
 }
+
+// WithoutVolts is a rail's label with its stated voltage taken out ("HT"
+// from "HT +250 V"): the name of the line, for a line fed from it at a
+// voltage of its own. The voltage is the first signed or plain number of
+// volts in the label (declared or not: a label may state what the net
+// does not). A label that is only the voltage leaves "".
+func WithoutVolts(label string) string {
+	loc := statedVolts.FindStringIndex(label)
+	if loc == nil {
+		return label
+	}
+	return strings.Join(strings.Fields(label[:loc[0]]+" "+label[loc[1]:]), " ")
+}
+
+// statedVolts is a voltage as a label states it: "+250 V", "−6V", "250 V".
+var statedVolts = regexp.MustCompile(`[+−-]?[0-9]+(?:\.[0-9]+)?\s?V\b`)
 
 // dcNeighbour is the far terminal of a resistor or choke on a net: the
 // parts that carry a DC feed.

@@ -48,11 +48,12 @@ func TestJoinRemembersRails(t *testing.T) {
 		{"HT side of the same part", [][2]string{{"ht", "b2"}, {"gnd", "ht"}}, [2]string{"R2", "2"}, "ht", 250, "HT +250 V"},
 		{"a bypassed signal net", [][2]string{{"mark", "x"}, {"gnd", "x"}}, [2]string{"R4", "2"}, "", 0, ""},
 		// d is fed from HT by R5 and bypassed: a decoupled line, named after
-		// its rail; its own voltage is not declared
-		{"a decoupled line", [][2]string{{"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT +250 V"},
+		// its rail without the rail's voltage: its own is lower by R5's
+		// drop, which only the DC solution knows
+		{"a decoupled line", [][2]string{{"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT"},
 		// t is a divider's tap (R7 from HT, R8 to chassis): a bias point
 		{"a divider's tap", [][2]string{{"mark", "t"}, {"gnd", "t"}}, [2]string{"C3", "1"}, "", 0, ""},
-		{"a decoupled line after HT went", [][2]string{{"gnd", "ht"}, {"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT +250 V"},
+		{"a decoupled line after HT went", [][2]string{{"gnd", "ht"}, {"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT"},
 	}
 	for _, tc := range tests {
 		c, err := Parse("rails.toml", []byte(railsNetlist))
@@ -85,5 +86,37 @@ func TestJoinRemembersRails(t *testing.T) {
 	c.JoinNets("gnd", "ht")
 	if len(c.Rails) != 2 || c.Rails[0].Name != "b2" || c.Rails[1].Name != "ht" || c.Rails[1].Label != "HT +250 V" {
 		t.Errorf("Rails = %+v, want b2 and ht, sorted, with their labels", c.Rails)
+	}
+}
+
+// A decoupled line is named after the rail that feeds it without that
+// rail's voltage, whether the voltage is declared or only written in the
+// label; a label with no voltage is left whole.
+func TestWithoutVolts(t *testing.T) {
+	for _, tc := range []struct{ in, want string }{
+		{"HT +250 V", "HT"},
+		{"B+ 2 (decoupled)", "B+ 2 (decoupled)"},
+		{"+9 V", ""},
+		{"−6V bias", "bias"},
+		{"HT 250 V line", "HT line"},
+	} {
+		if got := WithoutVolts(tc.in); got != tc.want {
+			t.Errorf("WithoutVolts(%q) = %q, want %q", tc.in, got, tc.want)
+		}
+	}
+}
+
+// MarkDecoupled records the rail that feeds the line, so the sheet can tag
+// it with its own solved voltage.
+func TestMarkDecoupledRecordsFeed(t *testing.T) {
+	c, err := Parse("rails.toml", []byte(railsNetlist))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !c.MarkDecoupled("d") {
+		t.Fatal("d not marked")
+	}
+	if n := c.Net("d"); n.Fed != "ht" || n.Label != "HT" || n.Volts != 0 {
+		t.Errorf("d: fed %q label %q volts %g, want fed ht, label HT, no voltage", n.Fed, n.Label, n.Volts)
 	}
 }

@@ -61,18 +61,12 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	if s == nil || s.Circuit == nil {
 		return nil, fmt.Errorf("render: no circuit to draw")
 	}
-	cw, ch := cfg.Page.content()
-	bs := blocks(s, layout.Extents(s.Circuit, cfg.options(s)))
-	rows := [][]block{bs}
-	// a row grows in routing, and its connectors take room at both edges
-	if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack {
-		rows = splitRows(bs, cw-rowSlack)
-	}
-	avail := ch - 1 - cfg.footReserve(s)
-	laid, err := cfg.layoutRows(s, rows, cw, avail)
+	_, laid, err := cfg.flowRows(s)
 	if err != nil {
 		return nil, err
 	}
+	_, ch := cfg.Page.content()
+	avail := ch - 1 - cfg.footReserve(s)
 	var pages []*layout.Result
 	y := 0.0
 	for _, r := range laid {
@@ -87,32 +81,86 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	return pages, nil
 }
 
+// flowRows cuts the sheet into rows that fill the page's width in signal
+// order and lays each out: the rows and their layouts.
+func (cfg Config) flowRows(s *Sheet) ([][]block, []*layout.Result, error) {
+	cw, ch := cfg.Page.content()
+	bs := blocks(s, layout.Extents(s.Circuit, cfg.options(s)))
+	rows := [][]block{bs}
+	// a row grows in routing, and its connectors take room at both edges
+	if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack {
+		rows = splitRows(bs, cw-rowSlack)
+	}
+	return cfg.layoutRows(s, rows, cw, ch-1-cfg.footReserve(s))
+}
+
 // layoutRows lays out each row in turn (the sheet itself when there is
 // one row), moving a row's last stretch on to the next row while it comes
-// out wider or taller than the page and can be cut. A row's connectors
-// depend only on which nets the rows before it and after it hold, so
-// moving stretches between later rows never changes a row already laid
-// out: each row is laid out once plus once per stretch it gives away.
-func (cfg Config) layoutRows(s *Sheet, rows [][]block, cw, ch float64) ([]*layout.Result, error) {
+// out wider or taller than the page and can be cut, and taking the next
+// row's first stretch while the row still has room for it: the placement
+// without routing overstates a row's width (the gaps of the whole sheet),
+// so only a routed row says whether the next stage fits beside it. A row's
+// connectors depend only on which nets the rows before it and after it
+// hold, so moving stretches between later rows never changes a row already
+// laid out: each row is laid out once plus once per stretch it gives away
+// or tries to take.
+func (cfg Config) layoutRows(s *Sheet, rows [][]block, cw, ch float64) ([][]block, []*layout.Result, error) {
 	var out []*layout.Result
 	for i := 0; i < len(rows); i++ {
+		var r *layout.Result
+		peeled := false
 		for {
-			rs := s
-			if len(rows) > 1 {
-				rs = rowSheets(s, rowRefs(rows))[i]
+			var err error
+			if r, err = cfg.layoutRow(s, rows, i); err != nil {
+				return nil, nil, err
 			}
-			r, err := cfg.layout(rs)
-			if err != nil {
-				return nil, err
-			}
-			if b := r.Geom.Bounds; len(rows[i]) == 1 || (b.W() <= cw && b.H() <= ch) {
-				out = append(out, r)
+			if len(rows[i]) == 1 || fits(r, cw, ch) {
 				break
 			}
-			rows = peel(rows, i)
+			rows, peeled = peel(rows, i), true
 		}
+		for !peeled && i+1 < len(rows) && fits(r, cw, ch) {
+			grown := pull(rows, i)
+			if span(grown[i]) > cw {
+				break
+			}
+			g, err := cfg.layoutRow(s, grown, i)
+			if err != nil {
+				return nil, nil, err
+			}
+			if !fits(g, cw, ch) {
+				break
+			}
+			rows, r = grown, g
+		}
+		out = append(out, r)
 	}
-	return out, nil
+	return rows, out, nil
+}
+
+// layoutRow lays out row i of rows: the sheet itself when it is the only row.
+func (cfg Config) layoutRow(s *Sheet, rows [][]block, i int) (*layout.Result, error) {
+	if len(rows) == 1 {
+		return cfg.layout(s)
+	}
+	return cfg.layout(rowSheets(s, rowRefs(rows))[i])
+}
+
+// fits says whether a laid-out row goes on a page's printable area.
+func fits(r *layout.Result, cw, ch float64) bool {
+	b := r.Geom.Bounds
+	return b.W() <= cw && b.H() <= ch
+}
+
+// span is the width a row's stretches take side by side without the gaps
+// between them: less than the row needs once routed, so a row whose span
+// is wider than the page need not be tried.
+func span(r []block) float64 {
+	w := 0.0
+	for _, b := range r {
+		w += b.x1 - b.x0
+	}
+	return w
 }
 
 // rowSlack is the width, in grid units, a row keeps free of its parts'

@@ -141,6 +141,23 @@ func peel(rows [][]block, i int) [][]block {
 	return append(out, moved)
 }
 
+// pull moves the first stretch of row i+1 (with the ports that follow it)
+// to the end of row i, dropping row i+1 when nothing is left of it: row i
+// came out with room to spare.
+func pull(rows [][]block, i int) [][]block {
+	next := rows[i+1]
+	k := 1
+	for k < len(next) && next[k].port {
+		k++
+	}
+	out := append([][]block{}, rows[:i]...)
+	out = append(out, append(append([]block{}, rows[i]...), next[:k]...))
+	if k < len(next) {
+		out = append(out, append([]block{}, next[k:]...))
+	}
+	return append(out, rows[i+2:]...)
+}
+
 // rowRefs are the parts of each row.
 func rowRefs(rows [][]block) []map[string]bool {
 	out := make([]map[string]bool, len(rows))

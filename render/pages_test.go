@@ -159,3 +159,56 @@ func TestFurnitureInColumns(t *testing.T) {
 		}
 	}
 }
+
+// TestRowsFillThePage: stages flow into rows in signal order, and a row
+// ends only where the next stretch does not fit beside it once routed
+// (common practice: a printed sheet is filled left to right before the next
+// row starts). The placement without routing overstates a row's width (the
+// gaps of the whole sheet), so a rule on it alone left rows with room for a
+// whole stage: the club receiver framed by its regions on A3 ended a row
+// 128 units wide with the next stretch beside it, on a page 136 wide.
+func TestRowsFillThePage(t *testing.T) {
+	regions := func(path string) func() *Sheet {
+		return func() *Sheet {
+			c := load(t, path)
+			s := &Sheet{Circuit: c, View: Reduced}
+			for _, r := range c.Regions {
+				s.Frames = append(s.Frames, Frame{Title: r.Name, Parts: r.Parts})
+			}
+			return s
+		}
+	}
+	for _, tc := range []struct {
+		name, paper string
+		sheet       func() *Sheet
+	}{
+		{"chain of 5", "A3", func() *Sheet { return chainSheet(5) }},
+		{"chain of 4", "A4", func() *Sheet { return chainSheet(4) }},
+		{"club-receiver", "A3", regions("../examples/club-receiver.toml")},
+	} {
+		p, _ := ParsePaper(tc.paper)
+		cfg := Config{Page: p}
+		s := tc.sheet()
+		rows, laid, err := cfg.flowRows(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		cw, ch := p.content()
+		ch -= 1 + cfg.footReserve(s)
+		t.Logf("%s on %s: %d rows", tc.name, tc.paper, len(rows))
+		for i := 0; i+1 < len(rows); i++ {
+			if !fits(laid[i], cw, ch) && len(rows[i]) > 1 {
+				t.Errorf("%s on %s: row %d is %.0f × %.0f, beyond the page", tc.name, tc.paper, i+1,
+					laid[i].Geom.Bounds.W(), laid[i].Geom.Bounds.H())
+			}
+			g, err := cfg.layoutRow(s, pull(rows, i), i)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if fits(g, cw, ch) {
+				t.Errorf("%s on %s: row %d of %d ends with room for the next stretch (%.0f units wide with it, the page %.0f)",
+					tc.name, tc.paper, i+1, len(rows), g.Geom.Bounds.W(), cw)
+			}
+		}
+	}
+}

@@ -1,17 +1,23 @@
 package main
 
 import (
+	"bytes"
 	"context"
+	"encoding/base64"
+	"encoding/json"
 	"encoding/xml"
 	"errors"
 	"fmt"
+	"html"
 	"image"
 	"image/png"
 	"io"
 	"math"
+	"net/url"
 	"os"
 	"os/exec"
 	"path/filepath"
+	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -28,34 +34,58 @@ func findChromium(t *testing.T) string {
 }
 
 // TestSheetsInBrowser draws every example's sheets in headless Chromium and
-// checks the screenshot shows the drawing: a browser is what a reader opens
+// checks the browser shows the drawing: a browser is what a reader opens
 // the sheets and the note in, and it rejects SVG that a lenient converter
 // would still draw (a missing namespace shows as an XML tree, or nothing).
+// One browser run measures every sheet (a browser start costs about a CPU
+// second); each sheet is still judged on its own.
 func TestSheetsInBrowser(t *testing.T) {
 	t.Parallel() // files and runs of its own only (sheetcache_test.go)
 	browser := findChromium(t)
+	type exampleSheets struct {
+		name   string
+		sheets []string
+		shots  []browserSheet
+	}
+	var all []*exampleSheets
+	var shots []browserSheet
 	for _, ex := range examples(t) {
-		name := strings.TrimSuffix(filepath.Base(ex), ".toml")
-		t.Run(name, func(t *testing.T) {
-			r := cachedJob(t, ex)
-			if r.code == exitBad {
-				t.Fatalf("main job failed: %s", r.stderr)
+		e := &exampleSheets{name: strings.TrimSuffix(filepath.Base(ex), ".toml")}
+		r := cachedJob(t, ex)
+		if r.code == exitBad {
+			t.Fatalf("%s: main job failed: %s", e.name, r.stderr)
+		}
+		for _, sheet := range packFiles(t, r.dir) {
+			if !strings.HasSuffix(sheet, ".svg") {
+				continue // a view on pages is every page of it
 			}
-			for _, sheet := range packFiles(t, r.dir) {
-				if !strings.HasSuffix(sheet, ".svg") {
-					continue // a view on pages is every page of it
-				}
-				svgPath, err := filepath.Abs(filepath.Join(r.dir, sheet))
-				if err != nil {
-					t.Fatal(err)
-				}
-				for _, p := range judgeInBrowser(t, browser, svgPath, svgPath) {
+			svgPath, err := filepath.Abs(filepath.Join(r.dir, sheet))
+			if err != nil {
+				t.Fatal(err)
+			}
+			e.sheets = append(e.sheets, sheet)
+			e.shots = append(e.shots, browserSheet{svg: svgPath, ref: svgPath})
+		}
+		all = append(all, e)
+		shots = append(shots, e.shots...)
+	}
+	problems := judgeInBrowser(t, browser, shots)
+	for _, e := range all {
+		mine := problems[:len(e.shots)]
+		problems = problems[len(e.shots):]
+		t.Run(e.name, func(t *testing.T) {
+			for i, sheet := range e.sheets {
+				for _, p := range mine[i] {
 					t.Errorf("%s: %s", sheet, p)
 				}
 			}
 		})
 	}
 }
+
+// browserSheet is one sheet to show in the browser: the SVG at svg
+// (absolute), judged against librsvg's rendering of ref (the sheet as meant).
+type browserSheet struct{ svg, ref string }
 
 // The least ink and dark fractions of a sheet that shows a drawing, read
 // from librsvg's rendering at the sheet's own size (common practice for
@@ -79,48 +109,62 @@ const minOfReference = 0.5
 // 9420-unit faded sheet of the whole set in one piece.
 const maxShot = 12000
 
-// judgeInBrowser shoots the SVG at svgPath (absolute) in the browser, the
-// way the note embeds it, and returns what is wrong with the screenshot,
-// judged against librsvg's rendering of refPath (the sheet as meant) at the
-// same pixel size: the reference must show a drawing, and the browser must
-// show about as much of it.
-func judgeInBrowser(t *testing.T, browser, svgPath, refPath string) []string {
+// judgeInBrowser shows every sheet in one browser run, the way the note
+// embeds it, and returns what is wrong with each, judged against librsvg's
+// rendering of its ref at the same pixel size: the reference must show a
+// drawing, and the browser must show about as much of it.
+func judgeInBrowser(t *testing.T, browser string, sheets []browserSheet) [][]string {
 	t.Helper()
-	w, h := checkWellFormed(t, refPath)
-	scale := math.Min(1, maxShot/math.Max(w, h))
-	pw, ph := int(math.Ceil(w*scale)), int(math.Ceil(h*scale))
 	work := t.TempDir()
-	// The sheet goes into the page as an image: a browser draws an SVG
-	// image only when it is a proper SVG document (namespace, size), where
-	// loading the file directly would still show an XML tree.
-	page := imagePage(t, work, svgPath)
-	shot := filepath.Join(work, "shot.png")
-	screenshot(t, browser, page, shot, pw, ph)
-	ref := filepath.Join(work, "ref.png")
-	rsvgPNG(t, refPath, ref, pw)
-	ink, dark := inkOf(t, shot)
-	refInk, refDark := inkOf(t, ref)
-	t.Logf("%s: %.0f×%.0f shot at %d×%d: %.2f%% ink, %.2f%% dark (librsvg %.2f%%, %.2f%%)",
-		filepath.Base(svgPath), w, h, pw, ph, 100*ink, 100*dark, 100*refInk, 100*refDark)
-	var problems []string
-	if refInk < minInk || refDark < minDark {
-		problems = append(problems, fmt.Sprintf("the sheet draws only %.2f%% ink, %.2f%% dark pixels: blank sheet?", 100*refInk, 100*refDark))
+	rsvg := reftool.Find(t, reftool.Rsvg)
+	sizes := make([]browserSize, len(sheets))
+	for i, s := range sheets {
+		w, h := checkWellFormed(t, s.ref)
+		scale := math.Min(1, maxShot/math.Max(w, h))
+		sizes[i] = browserSize{w, h, int(math.Ceil(w * scale)), int(math.Ceil(h * scale))}
 	}
-	if ink < minOfReference*refInk || dark < minOfReference*refDark {
-		problems = append(problems, fmt.Sprintf("the browser shows %.2f%% ink, %.2f%% dark pixels of the sheet's %.2f%%, %.2f%%: not drawn as an image?",
-			100*ink, 100*dark, 100*refInk, 100*refDark))
+	refs := make([][2]float64, len(sheets))
+	errs := make([]error, len(sheets))
+	eachAtOnce(len(sheets), func(i int) { // librsvg runs while the browser does
+		ref := filepath.Join(work, fmt.Sprintf("ref-%d.png", i))
+		if errs[i] = rsvgPNG(rsvg, sheets[i].ref, ref, sizes[i].pw); errs[i] == nil {
+			refs[i][0], refs[i][1], errs[i] = inkOfFile(ref)
+		}
+	})
+	shots := browserShots(t, browser, work, sheets, sizes)
+	out := make([][]string, len(sheets))
+	for i, s := range sheets {
+		if errs[i] != nil {
+			t.Fatal(errs[i])
+		}
+		ink, dark := countInk(shots[i])
+		refInk, refDark := refs[i][0], refs[i][1]
+		t.Logf("%s: %.0f×%.0f shown at %d×%d: %.2f%% ink, %.2f%% dark (librsvg %.2f%%, %.2f%%)",
+			filepath.Base(s.svg), sizes[i].w, sizes[i].h, sizes[i].pw, sizes[i].ph, 100*ink, 100*dark, 100*refInk, 100*refDark)
+		if refInk < minInk || refDark < minDark {
+			out[i] = append(out[i], fmt.Sprintf("the sheet draws only %.2f%% ink, %.2f%% dark pixels: blank sheet?", 100*refInk, 100*refDark))
+		}
+		if ink < minOfReference*refInk || dark < minOfReference*refDark {
+			out[i] = append(out[i], fmt.Sprintf("the browser shows %.2f%% ink, %.2f%% dark pixels of the sheet's %.2f%%, %.2f%%: not drawn as an image?",
+				100*ink, 100*dark, 100*refInk, 100*refDark))
+		}
 	}
-	return problems
+	return out
+}
+
+// browserSize is a sheet's own size and the pixel size it is shown at.
+type browserSize struct {
+	w, h   float64
+	pw, ph int
 }
 
 // rsvgPNG renders the SVG with librsvg, width px wide on white, into png.
-func rsvgPNG(t *testing.T, svg, png string, width int) {
-	t.Helper()
-	rsvg := reftool.Find(t, reftool.Rsvg)
+func rsvgPNG(rsvg, svg, png string, width int) error {
 	out, err := exec.Command(rsvg, "-b", "white", "-w", strconv.Itoa(width), "-a", "-o", png, svg).CombinedOutput()
 	if err != nil {
-		t.Fatalf("rsvg-convert %s: %v\n%s", svg, err, out)
+		return fmt.Errorf("rsvg-convert %s: %v\n%s", svg, err, out)
 	}
+	return nil
 }
 
 // TestBrowserCheckCatchesBrokenSheet shows the browser check can fail: the
@@ -152,17 +196,22 @@ func TestBrowserCheckCatchesBrokenSheet(t *testing.T) {
 		{"no namespace", broken, true},
 		{"blank", blank, false},
 	}
+	var sheets []browserSheet
 	for _, tc := range tests {
+		path := filepath.Join(t.TempDir(), "sheet.svg")
+		if err := os.WriteFile(path, []byte(tc.svg), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		ref := path
+		if tc.againstGood {
+			ref = good
+		}
+		sheets = append(sheets, browserSheet{svg: path, ref: ref})
+	}
+	problems := judgeInBrowser(t, browser, sheets)
+	for i, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			path := filepath.Join(t.TempDir(), "sheet.svg")
-			if err := os.WriteFile(path, []byte(tc.svg), 0o644); err != nil {
-				t.Fatal(err)
-			}
-			ref := path
-			if tc.againstGood {
-				ref = good
-			}
-			if p := judgeInBrowser(t, browser, path, ref); len(p) == 0 {
+			if p := problems[i]; len(p) == 0 {
 				t.Errorf("the %s sheet passed the check", tc.name)
 			} else {
 				t.Logf("caught: %s", p)
@@ -171,14 +220,38 @@ func TestBrowserCheckCatchesBrokenSheet(t *testing.T) {
 	}
 }
 
-// imagePage writes a page into dir that shows the SVG at svgPath (absolute)
-// as an image across the window's width, and returns the page's path.
-func imagePage(t *testing.T, dir, svgPath string) string {
+// measurePage writes a page into dir that shows each sheet as an image
+// (a browser draws an SVG image only when it is a proper SVG document,
+// namespace and size, where loading the file directly would still show an
+// XML tree) and, once all are loaded, draws each onto a white canvas at its
+// pixel size and lists the canvases as PNG data URLs, in order, in the
+// element #shots, where --dump-dom prints them. A sheet the browser cannot
+// show as an image leaves its canvas white, with the error beside it.
+func measurePage(t *testing.T, dir string, sheets []browserSheet, sizes []browserSize) string {
 	t.Helper()
+	var b strings.Builder
+	b.WriteString(`<!DOCTYPE html><html><body style="margin:0;background:#fff">` + "\n")
+	for i, s := range sheets {
+		fmt.Fprintf(&b, `<img style="display:block" width="%d" height="%d" src="%s">`+"\n",
+			sizes[i].pw, sizes[i].ph, html.EscapeString((&url.URL{Scheme: "file", Path: s.svg}).String()))
+	}
+	b.WriteString(`<pre id="shots"></pre><script>
+window.addEventListener("load", function () {
+  var out = [];
+  document.querySelectorAll("img").forEach(function (im) {
+    var c = document.createElement("canvas"), g = c.getContext("2d"), r = {};
+    c.width = +im.getAttribute("width"); c.height = +im.getAttribute("height");
+    g.fillStyle = "#fff"; g.fillRect(0, 0, c.width, c.height);
+    try { g.drawImage(im, 0, 0, c.width, c.height); } catch (e) { r.error = String(e); }
+    r.png = c.toDataURL("image/png");
+    out.push(r);
+  });
+  document.getElementById("shots").textContent = JSON.stringify(out);
+});
+</script></body></html>
+`)
 	page := filepath.Join(dir, "page.html")
-	html := `<!DOCTYPE html><html><body style="margin:0;background:#fff">` +
-		`<img style="display:block;width:100vw" src="file://` + svgPath + `"></body></html>`
-	if err := os.WriteFile(page, []byte(html), 0o644); err != nil {
+	if err := os.WriteFile(page, []byte(b.String()), 0o644); err != nil {
 		t.Fatal(err)
 	}
 	return page
@@ -232,65 +305,94 @@ func checkWellFormed(t *testing.T, path string) (w, h float64) {
 	return w, h
 }
 
-// screenshot loads a page in headless Chromium (flags as in
-// docs/references.md §15) with a fresh profile, removed afterwards, and a
-// time limit so a hung browser cannot hang the test run.
-func screenshot(t *testing.T, browser, page, png string, w, h int) {
+// browserShots shows the sheets in one headless Chromium run (flags as in
+// docs/references.md §15, with file pages allowed to read the sheets' pixels)
+// with a fresh profile, removed afterwards, and a time limit so a hung
+// browser cannot hang the test run; it returns each sheet as the browser
+// drew it.
+func browserShots(t *testing.T, browser, dir string, sheets []browserSheet, sizes []browserSize) []image.Image {
 	t.Helper()
-	abs, err := filepath.Abs(page)
-	if err != nil {
-		t.Fatal(err)
-	}
-	size := fmt.Sprintf("--window-size=%d,%d", w, h)
+	page := measurePage(t, dir, sheets, sizes)
 	profile, err := os.MkdirTemp("", "pare-chromium-")
 	if err != nil {
 		t.Fatal(err)
 	}
 	defer os.RemoveAll(profile)
-	ctx, cancel := context.WithTimeout(context.Background(), 60*time.Second)
+	ctx, cancel := context.WithTimeout(context.Background(), 120*time.Second)
 	defer cancel()
 	cmd := exec.CommandContext(ctx, browser,
 		"--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
 		"--disable-background-networking", "--disable-component-update", "--disable-sync",
-		"--hide-scrollbars", "--log-level=3",
-		"--user-data-dir="+profile, size,
-		"--screenshot="+png, "file://"+abs)
+		"--log-level=3", "--allow-file-access-from-files",
+		"--user-data-dir="+profile, "--dump-dom", "file://"+page)
 	cmd.WaitDelay = 5 * time.Second // the browser's helpers may hold the pipes open
-	out, err := cmd.CombinedOutput()
+	var stderr strings.Builder
+	cmd.Stderr = &stderr
+	out, err := cmd.Output()
 	if ctx.Err() != nil {
 		t.Fatalf("chromium did not finish within the time limit on %s", page)
 	}
 	if err != nil {
-		t.Fatalf("chromium failed on %s: %v\n%s", page, err, out)
+		t.Fatalf("chromium failed on %s: %v\n%s", page, err, stderr.String())
 	}
-	// A page that fails to load still exits 0 and writes nothing.
-	if _, err := os.Stat(png); err != nil {
-		t.Fatalf("chromium wrote no screenshot of %s:\n%s", page, out)
+	// A page that fails to load still exits 0: the list must be there, whole.
+	m := regexp.MustCompile(`<pre id="shots">([^<]*)</pre>`).FindSubmatch(out)
+	if m == nil {
+		t.Fatalf("chromium showed no measurements of %s:\n%.2000s", page, stderr.String())
 	}
+	var shots []struct{ PNG, Error string }
+	if err := json.Unmarshal([]byte(html.UnescapeString(string(m[1]))), &shots); err != nil || len(shots) != len(sheets) {
+		t.Fatalf("chromium's list of %d sheets: %d entries, %v", len(sheets), len(shots), err)
+	}
+	imgs := make([]image.Image, len(shots))
+	for i, s := range shots {
+		if s.Error != "" {
+			t.Logf("%s: the browser did not draw it: %s", filepath.Base(sheets[i].svg), s.Error)
+		}
+		data, err := base64.StdEncoding.DecodeString(strings.TrimPrefix(s.PNG, "data:image/png;base64,"))
+		if err != nil {
+			t.Fatalf("%s: the browser's picture: %v", sheets[i].svg, err)
+		}
+		if imgs[i], err = png.Decode(bytes.NewReader(data)); err != nil {
+			t.Fatalf("%s: the browser's picture: %v", sheets[i].svg, err)
+		}
+		if b := imgs[i].Bounds(); b.Dx() != sizes[i].pw || b.Dy() != sizes[i].ph {
+			t.Fatalf("%s: the browser drew %v, want %d×%d", sheets[i].svg, b.Size(), sizes[i].pw, sizes[i].ph)
+		}
+	}
+	return imgs
 }
 
-// inkOf returns the fractions of pixels that are not white and that are
-// dark (all channels below 40 % of full scale).
-func inkOf(t *testing.T, path string) (float64, float64) {
-	t.Helper()
+// inkOfFile returns the fractions of a PNG's pixels that are not white
+// and that are dark (countInk).
+func inkOfFile(path string) (float64, float64, error) {
 	f, err := os.Open(path)
 	if err != nil {
-		t.Fatal(err)
+		return 0, 0, err
 	}
 	defer f.Close()
 	img, err := png.Decode(f)
 	if err != nil {
-		t.Fatalf("%s: %v", path, err)
+		return 0, 0, fmt.Errorf("%s: %v", path, err)
 	}
-	return countInk(img)
+	ink, dark := countInk(img)
+	return ink, dark, nil
 }
 
+// countInk returns the fractions of pixels that are not white and that are
+// dark (all channels below 40 % of full scale).
 func countInk(img image.Image) (float64, float64) {
 	b := img.Bounds()
 	ink, dark := 0, 0
+	// At boxes every pixel in an interface; RGBA64At gives the same
+	// values without, on the image types png.Decode returns.
+	at := func(x, y int) (r, g, b, a uint32) { return img.At(x, y).RGBA() }
+	if i64, ok := img.(image.RGBA64Image); ok {
+		at = func(x, y int) (r, g, b, a uint32) { return i64.RGBA64At(x, y).RGBA() }
+	}
 	for y := b.Min.Y; y < b.Max.Y; y++ {
 		for x := b.Min.X; x < b.Max.X; x++ {
-			r, g, bl, _ := img.At(x, y).RGBA()
+			r, g, bl, _ := at(x, y)
 			if r < 0xf000 || g < 0xf000 || bl < 0xf000 {
 				ink++
 			}

@@ -39,6 +39,7 @@ func exampleFiles(t testing.TB) []string {
 // reduced sheets must have no crossing inside a stage frame and no crowded
 // wires.
 func TestDrawExamplesCheck(t *testing.T) {
+	warmSheets(exampleFiles(t), "")
 	for _, f := range exampleFiles(t) {
 		for _, v := range drawViews {
 			for _, st := range []render.Style{render.IEC, render.IEEE} {
@@ -111,6 +112,7 @@ func sheetName(toml string, v render.View) string {
 // run is the main job's, compared in TestDrawMatchesMainJob, so only the
 // full view is drawn twice here.
 func TestDrawExampleSheets(t *testing.T) {
+	warmDraws(exampleFiles(t))
 	for _, f := range exampleFiles(t) {
 		for _, v := range drawViews {
 			out := cachedDraw(t, f, v)
@@ -302,6 +304,8 @@ C2 = { c = "12p..365p", pins = ["tank", "gnd"] }
 // view the job cut onto pages (a whole set's) is compared page by page
 // with `pare draw -o FILE.svg`, which cuts it the same way.
 func TestDrawMatchesMainJob(t *testing.T) {
+	warmJobs(t, examples(t))
+	warmDraws(examples(t))
 	for _, ex := range examples(t) {
 		job := cachedJob(t, ex)
 		if job.code == exitBad {

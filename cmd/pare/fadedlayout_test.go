@@ -9,7 +9,6 @@ import (
 	"pare/graph"
 	"pare/render"
 	"pare/render/geom"
-	"pare/rules"
 )
 
 // TestFadedIsFullLayout: the faded view is the full view's layout greyed
@@ -24,12 +23,9 @@ import (
 // practice).
 func TestFadedIsFullLayout(t *testing.T) {
 	files := readSheets(t)
-	a4, err := render.ParsePaper("A4")
-	if err != nil {
-		t.Fatal(err)
-	}
+	warmSheets(files, "A4") // the sheets, shared with the layout and paging checks
 	errs := make([][]string, len(files))
-	eachAtOnce(len(files), func(i int) { errs[i] = fadedAgainstFull(files[i], a4) })
+	eachAtOnce(len(files), func(i int) { errs[i] = fadedAgainstFull(files[i], "A4") })
 	for i, es := range errs {
 		for _, e := range es {
 			t.Errorf("%s: %s", filepath.Base(files[i]), e)
@@ -38,16 +34,20 @@ func TestFadedIsFullLayout(t *testing.T) {
 }
 
 // fadedAgainstFull lists how the faded view of one file departs from its
-// full view.
-func fadedAgainstFull(f string, paper *render.Paper) []string {
-	res, err := pipeline.Run(pipeline.Options{Path: f, Level: rules.LevelSignal, Until: pipeline.PhaseStages})
+// full view, on one sheet and on paper. The file's entry in the sheet cache
+// is locked while it reads them (sheetcache_test.go).
+func fadedAgainstFull(f string, paper string) []string {
+	fs := fileEntry(f)
+	fs.Lock()
+	defer fs.Unlock()
+	res, err := fs.result(f)
 	if err != nil {
 		return []string{err.Error()}
 	}
 	var out []string
-	for _, cfg := range []render.Config{{}, {Page: paper}} {
-		full, err1 := cfg.Geometries(res.Sheet(render.Full))
-		faded, err2 := cfg.Geometries(res.Sheet(render.Faded))
+	for _, onPaper := range []bool{false, true} {
+		full, err1 := fs.geometries(f, render.Full, onPaper, paper)
+		faded, err2 := fs.geometries(f, render.Faded, onPaper, paper)
 		if err1 != nil || err2 != nil {
 			return append(out, "not drawn: "+errString(err1, err2))
 		}
@@ -57,8 +57,8 @@ func fadedAgainstFull(f string, paper *render.Paper) []string {
 		}
 		for k := range full {
 			where := "sheet"
-			if cfg.Page != nil {
-				where = "A4 page " + string(rune('1'+k))
+			if onPaper {
+				where = paper + " page " + string(rune('1'+k))
 			}
 			out = append(out, sameGeometry(where, full[k], faded[k])...)
 			out = append(out, fadedAsDropped(where, res, faded[k])...)

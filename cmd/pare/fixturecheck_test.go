@@ -4,10 +4,7 @@ import (
 	"path/filepath"
 	"testing"
 
-	"pare/cmd/internal/pipeline"
 	"pare/render"
-	"pare/render/check"
-	"pare/rules"
 )
 
 // TestFixtureSheetsCheck lays out every gallery fixture in every view and
@@ -25,20 +22,15 @@ func TestFixtureSheetsCheck(t *testing.T) {
 	logged := make([][]finding, len(files))
 	eachAtOnce(len(files), func(i int) {
 		f := files[i]
-		res, err := pipeline.Run(pipeline.Options{Path: f, Level: rules.LevelSignal, Until: pipeline.PhaseStages})
-		if err != nil {
-			found[i] = append(found[i], finding{f, err.Error()})
-			return
-		}
 		for _, v := range drawViews {
 			iec := map[string]bool{}
-			for _, st := range []render.Style{render.IEC, render.IEEE} {
-				g, err := render.Config{Style: st}.Geometry(res.Sheet(v))
+			for _, st := range bothStyles {
+				s, err := laidOut(f, v, st) // shared with the other layout checks (sheetcache_test.go)
 				if err != nil {
 					found[i] = append(found[i], finding{f, err.Error()})
 					continue
 				}
-				for _, p := range check.Measure(g).Problems() {
+				for _, p := range s.report.Problems() {
 					switch {
 					case st == render.IEC && v != render.Reduced:
 						iec[p] = true

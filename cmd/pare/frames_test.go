@@ -66,11 +66,16 @@ func eachAtOnce(n int, fn func(i int)) {
 // view's), multi-grid valves kept their static grids, the Wien sheets
 // became one two-device stage, and the oscillator review's six circuits
 // and near misses joined the gallery. The rise is the sheets issue's to
-// bring down: it is counted here so that it cannot grow unseen. Stage
-// templates on reduced sheets (the trade's arrangement of each recognised
-// stage round its device, render/layout/template.go) brought them down to
-// 1312 and 358.
-var misreadCeiling = struct{ beside, inLine int }{1312, 358}
+// bring down: it is counted here so that it cannot grow unseen. Lowered to
+// 1340 and 366 when a tuned circuit stacked under another part stood clear
+// of its wires and a socket stood with the parts on its net; 1338 and 370
+// when the club receiver gained the slug cores and band edge of a set that
+// aligns (its sheets drawn anew, four more wires in line); 372 in line
+// when its sheets gained the grid stopper's and the AGC filter's frames.
+// Stage templates on reduced sheets (the trade's arrangement of each
+// recognised stage round its device, render/layout/template.go) brought
+// them down to 1306 and 366.
+var misreadCeiling = struct{ beside, inLine int }{1306, 366}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
@@ -81,6 +86,7 @@ var misreadCeiling = struct{ beside, inLine int }{1312, 358}
 // and frame strays are reported.
 func TestSheetsReadAsDrawn(t *testing.T) {
 	beside, inLine := 0, 0
+	warmSheets(readSheets(t), "")
 	for _, f := range readSheets(t) {
 		for _, v := range drawViews {
 			for _, st := range []render.Style{render.IEC, render.IEEE} {

@@ -88,7 +88,10 @@ func (e *env) pipeline(o pipeline.Options) (*pipeline.Result, error) {
 }
 
 func main() {
-	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+	stop := startProfile()
+	code := run(os.Args[1:], os.Stdout, os.Stderr)
+	stop()
+	os.Exit(code)
 }
 
 // run executes one pare invocation and returns its exit code.

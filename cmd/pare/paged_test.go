@@ -27,17 +27,16 @@ func pagedSources(t *testing.T) []string { return readSheets(t) }
 // examples to none) has its pages' findings logged, not failed: cutting
 // cannot be blamed for them.
 func TestPagedSheetsCheck(t *testing.T) {
-	a4, _ := render.ParsePaper("A4")
+	warmSheets(pagedSources(t), "A4")
 	for _, f := range pagedSources(t) {
-		res := cachedResult(t, f)
 		for _, v := range galleryViews {
 			report := t.Errorf
 			if n := len(cachedSheet(t, f, v, render.IEC).report.Problems()); n > 0 {
 				report = t.Logf
 			}
-			pages, err := render.Config{Page: a4}.Geometries(res.Sheet(v))
+			pages, err := cachedPages(f, v, "A4")
 			if err != nil {
-				t.Fatalf("%s %s: %v", f, v, err)
+				t.Fatal(err)
 			}
 			for i, g := range pages {
 				for _, p := range check.Measure(g).Problems() {

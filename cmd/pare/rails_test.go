@@ -58,6 +58,7 @@ func TestNoEarthOnRails(t *testing.T) {
 		t.Skip("draws every fixture in every view")
 	}
 	earthOnRail, tags, loose := 0, 0, 0
+	warmSheets(railSheetFiles(t), "")
 	for _, f := range railSheetFiles(t) {
 		res := cachedResult(t, f)
 		for _, v := range drawViews {

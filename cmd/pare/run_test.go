@@ -3,11 +3,13 @@ package main
 import (
 	"bytes"
 	"errors"
+	"flag"
 	"fmt"
 	"math"
 	"os"
 	"path/filepath"
 	"regexp"
+	"runtime"
 	"strconv"
 	"strings"
 	"sync"
@@ -102,10 +104,30 @@ func cachedJob(t *testing.T, ex string) *jobRun {
 	return r
 }
 
+// moreParallelSlots lets two more parallel tests run than there are cores,
+// unless -parallel is given: the kill test, the browser and the print
+// tests spend most of their time waiting on child processes and syncs, and
+// with one slot per core they would hold a core's share of the run idle.
+// warmJobs runs the main job on every file not yet run, as many at a time
+// as there are cores, for the tests that read the packs one after another.
+func warmJobs(t *testing.T, files []string) {
+	eachAtOnce(len(files), func(i int) { cachedJob(t, files[i]) })
+}
+
+func moreParallelSlots() {
+	flag.Parse()
+	set := false
+	flag.Visit(func(f *flag.Flag) { set = set || f.Name == "test.parallel" })
+	if !set {
+		flag.Set("test.parallel", strconv.Itoa(runtime.GOMAXPROCS(0)+2))
+	}
+}
+
 func TestMain(m *testing.M) {
 	if args, ok := killChildArgs(); ok { // the kill test's child: one main job
 		os.Exit(run(args, os.Stdout, os.Stderr))
 	}
+	moreParallelSlots()
 	code := m.Run()
 	if jobRoot.dir != "" {
 		os.RemoveAll(jobRoot.dir)

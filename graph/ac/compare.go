@@ -210,8 +210,8 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	cp := &comparer{o: o, settings: settings, marks: append(landmarks(orig), landmarks(reduced)...),
 		circuits: [2]*graph.Circuit{orig, reduced}, dc: dc, models: map[modelKey]*modelOrErr{}}
 	var silent []string
-	for _, q := range qs {
-		worst, out, err := cp.quantity(q)
+	for i, r := range cp.runQuantities(qs) {
+		q, worst, out, err := qs[i], r.worst, r.out, r.err
 		switch {
 		case err != nil:
 			return nil, err
@@ -283,8 +283,17 @@ type comparer struct {
 }
 
 // probe builds the probe of a quantity in circuit ci (0 original, 1 reduced)
-// at setting si.
+// at setting si, with the memo's responses of its system.
 func (cp *comparer) probe(ci, si int, what, from, to string) (*probe, error) {
+	p, err := cp.newProbe(ci, si, what, from, to)
+	if err == nil && cp.o.Memo != nil {
+		cp.o.Memo.attach(ci, p)
+	}
+	return p, err
+}
+
+// newProbe is probe without the memo.
+func (cp *comparer) newProbe(ci, si int, what, from, to string) (*probe, error) {
 	k := modelKey{ci, si}
 	me := cp.models[k]
 	if me == nil {
@@ -297,21 +306,18 @@ func (cp *comparer) probe(ci, si int, what, from, to string) (*probe, error) {
 	if me.err != nil {
 		return nil, me.err
 	}
-	p, err := newProbe(me.m, what, from, to)
-	if err == nil && cp.o.Memo != nil {
-		cp.o.Memo.attach(ci, p)
-	}
-	return p, err
+	return newProbe(me.m, what, from, to)
 }
 
-// quantity sweeps one quantity at every setting and returns its worst pair.
-func (cp *comparer) quantity(q quantity) (Pair, outcome, error) {
+// quantity sweeps one quantity at every setting and returns its worst pair;
+// get gives it the probes (comparer.probe, or ones built ahead).
+func (cp *comparer) quantity(q quantity, get func(ci, si int, what, from, to string) (*probe, error)) (Pair, outcome, error) {
 	o := cp.o
 	worst := Pair{From: q.from, To: q.to, What: q.what}
 	bestScore := -1.0
 	silent := 0
 	for si, st := range cp.settings {
-		po, err := cp.probe(0, si, q.what, q.from, q.to)
+		po, err := get(0, si, q.what, q.from, q.to)
 		var fe *FloatingError
 		if err != nil && q.what == "impedance" && errors.As(err, &fe) && contains(fe.Nets, q.from) {
 			// Nothing loads the net (an input into a grid alone): its
@@ -321,7 +327,7 @@ func (cp *comparer) quantity(q quantity) (Pair, outcome, error) {
 		if err != nil {
 			return worst, outCompared, fmt.Errorf("original circuit: %s: %w", worst.Label(), err)
 		}
-		pr, err := cp.probe(1, si, q.what, q.rFrom, q.rTo)
+		pr, err := get(1, si, q.what, q.rFrom, q.rTo)
 		if err != nil {
 			worst.Error = "reduced circuit cannot be solved: " + err.Error()
 			worst.Setting = st.label

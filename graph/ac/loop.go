@@ -260,6 +260,19 @@ func (l *Loops) Find(ref string, o LoopOptions) (Loop, error) {
 	if err != nil {
 		return res, err
 	}
+	e := cachedLoop(ls.key(o, 0), func(e *loopEntry) bool {
+		e.loop, err = ls.find(o)
+		return err == nil
+	})
+	res.Crossings, res.F, res.MarginDB = slices.Clone(e.loop.Crossings), e.loop.F, e.loop.MarginDB
+	return res, err
+}
+
+// find is the search of Find on the loop system ls, solved afresh: the
+// result, with neither Ref nor Frac set, is a function of ls and o alone
+// (loopKey).
+func (ls *loopSystem) find(o LoopOptions) (Loop, error) {
+	var res Loop
 	grid, err := searchGrid(ls, o)
 	if err != nil {
 		return res, err

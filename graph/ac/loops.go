@@ -51,5 +51,13 @@ func (l *Loops) Pole(ref string, f float64, o Options) (complex128, error) {
 	if err != nil {
 		return 0, err
 	}
-	return ls.pole(f, 1)
+	var p complex128
+	e := cachedLoop(ls.key(LoopOptions{}, 1, f), func(e *loopEntry) bool {
+		e.pole, err = ls.pole(f, 1)
+		return err == nil
+	})
+	if err != nil {
+		return p, err
+	}
+	return e.pole, nil
 }

@@ -7,6 +7,7 @@ import (
 	"crypto/sha256"
 	"encoding/binary"
 	"math"
+	"sync"
 )
 
 // Memo keeps the responses a comparison solved so that the next comparison
@@ -28,6 +29,7 @@ import (
 // of the other are dropped, so the memo holds about one set of responses
 // per group of parts and never grows with the number of steps.
 type Memo struct {
+	mu     sync.Mutex // series, when quantities run side by side
 	series map[[sha256.Size]byte]map[float64]complex128
 	// used lists the digests each circuit's probes used in the comparison
 	// since the last Settle.
@@ -78,6 +80,63 @@ func (m *Memo) attach(ci int, p *probe) {
 	}
 	m.used[ci] = append(m.used[ci], k)
 	p.memo = h
+}
+
+// memoTxn is what one quantity did to the memo while quantities ran side
+// by side (comparepar.go): the systems it attached (and whether it made
+// their entry) and the responses it added, so that finish can keep or undo
+// them.
+type memoTxn struct {
+	attached []memoAttach
+	writes   []memoWrite
+}
+
+type memoAttach struct {
+	ci      int
+	key     [sha256.Size]byte
+	created bool
+}
+
+type memoWrite struct {
+	h map[float64]complex128
+	f float64
+}
+
+// attachTxn is attach for a quantity running beside others: the digest is
+// the probe's, worked out ahead; the use is logged in t, not yet in used.
+func (m *Memo) attachTxn(ci int, p *probe, key [sha256.Size]byte, t *memoTxn) {
+	m.mu.Lock()
+	h := m.series[key]
+	created := h == nil
+	if created {
+		h = map[float64]complex128{}
+		m.series[key] = h
+	}
+	m.mu.Unlock()
+	t.attached = append(t.attached, memoAttach{ci, key, created})
+	p.memo, p.txn = h, t
+}
+
+// finish keeps what t did (the uses go into used, as attach would have put
+// them) or undoes it: its responses are taken out and the entries it made
+// dropped. Only quantities the sequential loop would not have run are
+// undone, and every later user of an entry one of them made is undone too
+// (they run in one group, in order), so nothing kept depends on them.
+func (m *Memo) finish(t *memoTxn, keep bool) {
+	if keep {
+		for _, a := range t.attached {
+			m.used[a.ci] = append(m.used[a.ci], a.key)
+		}
+		return
+	}
+	for _, w := range t.writes {
+		delete(w.h, w.f)
+	}
+	for _, a := range t.attached {
+		if a.created {
+			delete(m.series, a.key)
+		}
+	}
 }
 
 // digest hashes everything the probe's response depends on: the block's

@@ -24,6 +24,16 @@ type probe struct {
 	// memo holds the responses of this very system solved before (Memo);
 	// nil without a memo.
 	memo map[float64]complex128
+	// txn logs what this probe adds to memo when its quantity runs beside
+	// others (comparepar.go); nil otherwise.
+	txn *memoTxn
+}
+
+// wrote logs that the probe's response at f went into its memo.
+func (p *probe) wrote(f float64) {
+	if p.txn != nil && p.memo != nil {
+		p.txn.writes = append(p.txn.writes, memoWrite{p.memo, f})
+	}
 }
 
 // newProbe builds the system of one response of the model: the block of

@@ -92,6 +92,7 @@ func (sw *pairSweep) eval(fs []float64) (bool, error) {
 				return true, err
 			}
 			sw.ho[f] = a
+			sw.po.wrote(f)
 		}
 		if _, done := sw.hr[f]; !done {
 			b, err := sw.pr.at(f)
@@ -99,6 +100,7 @@ func (sw *pairSweep) eval(fs []float64) (bool, error) {
 				return false, err
 			}
 			sw.hr[f] = b
+			sw.pr.wrote(f)
 		}
 	}
 	return false, nil

@@ -33,6 +33,7 @@ const (
 	Ohm
 	Decibel
 	Watt
+	Volt
 )
 
 // units is the one table of what each unit means to the formatter: its SI
@@ -55,6 +56,7 @@ var units = [...]struct {
 	Ohm:     {"ohm", value.Ohm, "_ohm", 3},
 	Decibel: {"decibel", value.None, "_db", 3},
 	Watt:    {"watt", value.Watt, "_w", 3},
+	Volt:    {"volt", value.Volt, "_v", 3},
 }
 
 // Units lists every unit, for tests and documentation.

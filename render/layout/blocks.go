@@ -219,17 +219,16 @@ func (ly *state) arrange(b *block) {
 
 // stackChain stands the block's series pair beside its coil: the upper
 // part's top pin level with the coil's hot end, the lower part two steps
-// under it, labels to the right.
+// under it, on the coil's right unless its tap leaves on that side, labels
+// away from the coil.
 func (ly *state) stackChain(b *block) {
 	l := b.cells[0]
 	hot, _ := ends(l)
 	a, c := b.chain[0], b.chain[1]
-	// a coil a stage template places (its tap turned towards the device)
-	// has the pair on the side away from its tap, if it has one on its
-	// right only, so the tap's wire leaves the block clear
-	sl, sr := sidePins(l)
-	_, templated := ly.slot[l.ref]
-	onLeft := templated && sr && !sl
+	left, right := sidePins(l)
+	// the coil's tap leaving on the right, the pair stands on its left, so
+	// the tap's wire does not cut between the hot ends; labels outwards
+	onLeft := right && !left
 	prefs := []geom.Dir{geom.Right, geom.Left, geom.Up, geom.Down}
 	if onLeft {
 		prefs = []geom.Dir{geom.Left, geom.Right, geom.Up, geom.Down}
@@ -238,15 +237,14 @@ func (ly *state) stackChain(b *block) {
 		placeLabel(ly.c, cl, prefs)
 	}
 	gap := float64(blockGap + 1)
-	if sr && !onLeft {
-		gap += 3
-	}
-	top, _ := ends(a)
+	at, _ := ends(a)
 	dx := math.Ceil(b.fp.X1 + gap - a.footprint().X0)
 	if onLeft {
 		dx = math.Floor(b.fp.X0 - gap - a.footprint().X1)
+	} else if right {
+		dx += 3
 	}
-	a.move(geom.Pt{X: dx, Y: hot.At.Y - top.At.Y})
+	a.move(geom.Pt{X: dx, Y: hot.At.Y - at.At.Y})
 	at, ab := ends(a)
 	ct, _ := ends(c)
 	dx = at.At.X - ct.At.X

@@ -2,6 +2,7 @@ package layout
 
 import (
 	"sort"
+	"strings"
 
 	"pare/graph"
 )
@@ -17,6 +18,10 @@ func (ly *state) assignColumns() {
 		if cl.edge == 0 {
 			keys[key{st[cl.ref], ly.column(cl)}] = true
 		}
+	}
+	tail := ly.besideNet(st)
+	for _, s := range tail {
+		keys[key{s, tailRank}] = true
 	}
 	list := make([]key, 0, len(keys))
 	for k := range keys {
@@ -38,12 +43,82 @@ func (ly *state) assignColumns() {
 			cl.col = 0
 		case 1:
 			cl.col = len(list) + 1
+			if s, ok := tail[cl]; ok {
+				cl.col = colOf[key{s, tailRank}]
+			}
 		default:
 			cl.col = colOf[key{st[cl.ref], ly.column(cl)}]
 		}
 	}
 	ly.netColumns()
 	ly.stageOf = st
+}
+
+// tailRank is the column key, within a stage, of the ports that stand
+// after the stage's last layer.
+const tailRank = 1 << 30
+
+// besideNet gives each port on the right (a socket, a part of the set) the
+// stage it stands after: the last stage with a part on its net, when every
+// later stage is a branch (branches). A branch's place follows the net it
+// hangs on: a loudspeaker's extension socket stands with the loudspeaker,
+// and a tone control hanging on the output valve's anode no longer stands
+// between them as if in series. The output flags, where the signal leaves
+// the sheet, stay at its right edge.
+func (ly *state) besideNet(st map[string]int) map[*cell]int {
+	out := map[*cell]int{}
+	byNet := ly.cellsByNet()
+	branch := ly.branches(st, byNet)
+	for _, cl := range ly.cells {
+		if cl.edge != 1 || cl.conn || len(cl.part.Pins) != 1 || strings.HasPrefix(cl.ref, outRef) {
+			continue
+		}
+		s := -1
+		for _, nb := range byNet[cl.part.Pins[0].Net] {
+			if v, ok := st[nb.ref]; ok && nb.edge == 0 {
+				s = max(s, v)
+			}
+		}
+		if s >= 0 && s+1 < len(branch) && branch[s+1] {
+			out[cl] = s
+		}
+	}
+	return out
+}
+
+// branches says, for each framed stage, whether it and every framed stage
+// after it hang on earlier stages only: each net a part of theirs shares
+// with a part outside the stage belongs to an earlier stage, and no later
+// stage, flag or port takes the signal on from them.
+func (ly *state) branches(st map[string]int, byNet map[string][]*cell) []bool {
+	n := len(ly.o.Frames)
+	own := make([]bool, n) // the stage hangs on earlier stages only
+	for i := range own {
+		own[i] = true
+	}
+	for _, cls := range byNet {
+		lo, hi := n, -1 // the stages of the net's parts
+		edge := false
+		for _, cl := range cls {
+			if s, ok := st[cl.ref]; ok && cl.edge == 0 {
+				lo, hi = min(lo, s), max(hi, s)
+			} else {
+				edge = true
+			}
+		}
+		for _, cl := range cls {
+			if s, ok := st[cl.ref]; ok && cl.edge == 0 && s < n && (edge || s == lo && hi > s) {
+				own[s] = false // the net leaves the stage other than to an earlier one
+			}
+		}
+	}
+	out := make([]bool, n)
+	tail := true
+	for i := n - 1; i >= 0; i-- {
+		tail = tail && own[i]
+		out[i] = tail
+	}
+	return out
 }
 
 // stages gives every part a stage (an index into Options.Frames): its own

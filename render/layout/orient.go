@@ -11,11 +11,13 @@ import (
 // orient picks each cell's orientation by scoring where its pins point:
 // ground and bias down, rails up, signal pins towards the parts they lead to.
 // An orientation the untangle search fixed wins, if it keeps the symbol
-// upright.
+// upright; short of that, a padder and the part under it (padder.go) stand
+// vertical, hot end up.
 func (ly *state) orient() {
 	stands := ly.stands()
 	ly.slot = ly.templateSlots()
 	ly.slotNetSum = ly.slotNets()
+	ups := ly.padderUps()
 	for _, cl := range ly.cells {
 		if cl.conn {
 			cl.shape = connectorShape(cl)
@@ -36,6 +38,9 @@ func (ly *state) orient() {
 		for i, o := range base.Turns {
 			s := base.Oriented(o)
 			score := ly.score(cl, s)
+			if up, ok := ups[cl.ref]; ok {
+				score += upBonus(s, up)
+			}
 			if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, cl.part, base.Oriented(base.Turns[t])) {
 				score = 0
 				if t == i {
@@ -67,6 +72,17 @@ func (ly *state) standing(cl *cell, base, best symbol.Shape, stand string) symbo
 		}
 	}
 	return best
+}
+
+// upBonus outweighs every other score of a part's orientation when its pin
+// on net up points up: a padder's pair stands as its tank's C does.
+func upBonus(s symbol.Shape, up string) float64 {
+	for _, p := range s.Pins {
+		if p.Net == up && p.Dir == geom.Up {
+			return 100
+		}
+	}
+	return 0
 }
 
 // upright says whether a symbol keeps grounds and low rails from pointing

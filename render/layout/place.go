@@ -110,13 +110,17 @@ func (ly *state) placeRows(cols [][]*block) {
 	pinY := map[string]float64{}
 	for _, col := range cols {
 		bottom := math.Inf(-1)
+		var above *block
 		for _, b := range col {
 			dy := math.Round(ly.rowOf(b, pinY))
 			if b.fp.Y0+dy < bottom+rowGap {
 				dy = math.Ceil(bottom + rowGap - b.fp.Y0)
 			}
 			b.move(geom.Pt{Y: dy})
-			bottom = b.fp.Y1
+			if above != nil {
+				b.move(geom.Pt{Y: ly.laneGap(above, b)})
+			}
+			bottom, above = b.fp.Y1, b
 			for _, cl := range b.cells {
 				for _, p := range cl.shape.Pins {
 					if _, ok := pinY[p.Net]; !ok {
@@ -154,4 +158,35 @@ func (ly *state) rowOf(b *block, pinY map[string]float64) float64 {
 		}
 	}
 	return 0
+}
+
+// laneGap is how much further down block b must stand under the block
+// above it so that the wires leaving the upper block's downward pins and
+// those leaving b's upward pins, on other nets and in other columns, run
+// two grid steps apart: one step apart, two unrelated wires read as one
+// (render/check's reader).
+func (ly *state) laneGap(above, b *block) float64 {
+	wired := func(bl *block, d geom.Dir) []geom.Pin {
+		var out []geom.Pin
+		for _, cl := range append(append([]*cell{}, bl.cells...), bl.chain...) {
+			for _, p := range cl.shape.Pins {
+				if p.Dir == d && p.Net != notConnected && !ly.c.RoleOf(p.Net).IsACGround() {
+					out = append(out, p)
+				}
+			}
+		}
+		return out
+	}
+	if len(b.cells)+len(b.chain) < 2 {
+		return 0 // a lone part's lead rises a step; a tank's bridge runs across
+	}
+	need := 0.0
+	for _, d := range wired(above, geom.Down) {
+		for _, u := range wired(b, geom.Up) {
+			if d.Net != u.Net && d.At.X != u.At.X && u.At.Y-d.At.Y < 4 {
+				need = max(need, 4-(u.At.Y-d.At.Y))
+			}
+		}
+	}
+	return need
 }

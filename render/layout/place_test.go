@@ -68,6 +68,28 @@ L1 = { l = "128u", tap = 0.1, pins = ["tank", "k", "gnd"] }
 C3 = { c = "380p", pins = ["tank", "pad"] }
 VC1 = { c = "53p..406p", pins = ["pad", "gnd"], gang = "tune" }
 `
+	// paddedMixer: a self-oscillating pentode mixer, the signal on its grid
+	// through a small capacitor, the cathode on a tap of the oscillator coil
+	// (written cold end first), the padder between the coil's hot end and the
+	// tuning capacitor, an IF transformer in the anode.
+	paddedMixer = `title = "padded mixer"
+band = "1M..2M"
+inputs = ["in"]
+outputs = ["if"]
+[nets]
+ht = { role = "supply", volts = 250, label = "HT +250 V" }
+[parts]
+C1 = { c = "10p", pins = ["in", "g"] }
+C2 = { c = "100p", pins = ["tank", "g"] }
+R1 = { r = "47k", pins = ["g", "gnd"] }
+L1 = { l = "127u", tap = 0.12, pins = ["gnd", "k", "tank"] }
+C3 = { c = "380p", pins = ["tank", "pad"] }
+VC1 = { c = "47p..400p", pins = ["pad", "gnd"], gang = "tune" }
+V1 = { valve = "pentode", pins = { a = "a", g1 = "g", g2 = "nc", g3 = "nc", k = "k" } }
+T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "a", p2 = "ht", s1 = "if", s2 = "gnd" } }
+C4 = { c = "100p", pins = ["a", "ht"] }
+C5 = { c = "100p", pins = ["if", "gnd"] }
+`
 	// coupledStages: a transformer between two transistors, a pot and a
 	// switch on the output, to give the placement a mix of kinds.
 	coupledStages = `title = "coupled"
@@ -229,26 +251,64 @@ func TestTankSideBySide(t *testing.T) {
 }
 
 // TestPadderBesideTheCoil: a padder in series with the tuning capacitor
-// stands beside the coil, its top level with the coil's hot end, the tuning
-// capacitor under it (common practice: a tuned circuit's L and C side by
-// side, joined at the top).
+// stands beside the coil, its top level with the coil's hot end and joined
+// to it by one straight wire, the tuning capacitor straight under it (common
+// practice: a tuned circuit's L and C side by side, joined at the top),
+// whichever way round the coil's pins are written and whether the tap
+// leaves on the side the pair would take. In the mixer the padder, between
+// two signal nets, once lay along the signal path, its tank reached by a
+// loop round the stage.
 func TestPadderBesideTheCoil(t *testing.T) {
-	res, err := Layout(parse(t, paddedTank), Options{Untangle: true})
-	if err != nil {
-		t.Fatal(err)
-	}
-	pin := map[string]geom.Pt{}
-	for _, s := range res.Geom.Symbols {
-		for _, p := range s.Pins {
-			pin[s.Ref+"."+p.Name] = p.At
+	coldFirst := strings.Replace(paddedTank, `pins = ["tank", "k", "gnd"]`, `pins = ["gnd", "k", "tank"]`, 1)
+	for _, tc := range []struct {
+		name, src, hot string
+		untangle       bool
+	}{
+		{"hot end first", paddedTank, "L1.1", true},
+		{"cold end first", coldFirst, "L1.2", true},
+		{"mixer", paddedMixer, "L1.2", false},
+		{"mixer, untangled", paddedMixer, "L1.2", true},
+	} {
+		res, err := Layout(parse(t, tc.src), Options{Untangle: tc.untangle})
+		if err != nil {
+			t.Fatal(err)
+		}
+		pin := map[string]geom.Pt{}
+		for _, s := range res.Geom.Symbols {
+			for _, p := range s.Pins {
+				pin[s.Ref+"."+p.Name] = p.At
+			}
+		}
+		hot, pad := pin[tc.hot], pin["C3.1"]
+		if hot.Y != pad.Y || pad.X == hot.X || max(pad.X-hot.X, hot.X-pad.X) > 10 {
+			t.Errorf("%s: padder's top pin at %v, coil's hot end at %v: want it level, beside", tc.name, pad, hot)
+		}
+		if !bridged(res.Geom, "tank", hot, pad) {
+			t.Errorf("%s: the coil's hot end %v and the padder's top %v are not joined straight across the top", tc.name, hot, pad)
+		}
+		if low, tune := pin["C3.2"], pin["VC1.1"]; tune.X != low.X || tune.Y <= low.Y {
+			t.Errorf("%s: tuning capacitor's top pin at %v, padder's lower pin at %v: want it straight under", tc.name, tune, low)
 		}
 	}
-	if hot, pad := pin["L1.1"], pin["C3.1"]; hot.Y != pad.Y || pad.X <= hot.X {
-		t.Errorf("padder's top pin at %v, coil's hot end at %v: want it level, to the right", pad, hot)
+}
+
+// bridged says whether net's wire joins two pins level with each other
+// across the top: runs at their height or a step or two above cover the
+// whole way from one to the other.
+func bridged(g geom.Sheet, net string, a, b geom.Pt) bool {
+	lo, hi := min(a.X, b.X), max(a.X, b.X)
+	for grew := true; grew && lo < hi; {
+		grew = false
+		for _, w := range g.Wires {
+			for _, s := range w.Segs {
+				top := w.Net == net && s.A.Y == s.B.Y && s.A.Y <= a.Y && s.A.Y >= a.Y-2
+				if top && min(s.A.X, s.B.X) <= lo && max(s.A.X, s.B.X) > lo {
+					lo, grew = max(s.A.X, s.B.X), true
+				}
+			}
+		}
 	}
-	if low, tune := pin["C3.2"], pin["VC1.1"]; tune.X != low.X || tune.Y <= low.Y {
-		t.Errorf("tuning capacitor's top pin at %v, padder's lower pin at %v: want it straight under", tune, low)
-	}
+	return lo >= hi
 }
 
 // TestGangLink: ganged sections are joined by a dashed mechanical link from

@@ -3,6 +3,7 @@ package stages
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math"
 	"slices"
 	"sort"
@@ -103,21 +104,22 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		orig = newWorldJoined(o.Full, false, acg, switchJoins(o.Full))
 		orig.op = o.DC
 	}
-	order := signalOrder(reduced)
-	signal, errSig := recognise(reduced, lib, false, acg, orig, budget)
-	foldShunts(reduced, acg, signal, order)
 	loopCircuit := o.Full
 	if loopCircuit == nil {
 		loopCircuit = reduced
 	}
-	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
-	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
-	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
+	defer prefetchLoops(reduced, loopCircuit)()
+	order := signalOrder(reduced)
+	signal, errSig := recognise(reduced, lib, false, acg, orig, nil, budget)
 	var power []*found
 	var errPow error
 	if o.Full != nil && errSig == nil {
-		power, errPow = recognise(o.Full, lib, true, nil, nil, budget)
+		power, errPow = recognise(o.Full, lib, true, nil, nil, o.DC, budget)
 	}
+	foldShunts(reduced, acg, signal, order, heldOnOriginal(power))
+	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
+	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
+	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
 	sort.SliceStable(signal, func(i, j int) bool {
 		a, b := order.of(signal[i].Parts), order.of(signal[j].Parts)
 		if a != b {
@@ -142,7 +144,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	for _, top := range power {
 		if top.group != "power" {
 			name(top.Stage)
-			top.Notes = append(top.Notes, originalNote)
+			top.Notes = append(top.Notes, originalNoteFor(top.Parts, reduced))
 			out = appendTree(out, top)
 		}
 	}
@@ -159,6 +161,20 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	return out, errors.Join(errSig, errPow)
 }
 
+// heldOnOriginal are the parts of the stages found on the original circuit
+// that are not supplies (the AGC filter).
+func heldOnOriginal(power []*found) map[string]bool {
+	held := map[string]bool{}
+	for _, f := range power {
+		if f.group != "power" {
+			for r := range f.set {
+				held[r] = true
+			}
+		}
+	}
+	return held
+}
+
 // SupplyNote goes with every supply stage (a smoothing filter, a
 // rectifier), found on the full circuit: the reduction removes its parts,
 // so a reader who looks for it on the reduced sheet knows why it is not
@@ -169,6 +185,23 @@ const SupplyNote = "supply stage found on the full circuit; its parts are not on
 // circuit: the reduction grounds its net for the signal, so its parts are
 // not on the reduced sheet either.
 const originalNote = "found on the original circuit: the reduction puts its line at AC ground for the signal, so its parts are not on the reduced sheet"
+
+// originalNoteFor is originalNote, or where some of the stage's parts do
+// stay on the reduced sheet (the AGC filter's resistor, from the detector
+// to the grounded line), the note that says which.
+func originalNoteFor(parts []string, reduced *graph.Circuit) string {
+	var kept []string
+	for _, r := range parts {
+		if reduced.Part(r) != nil {
+			kept = append(kept, r)
+		}
+	}
+	if len(kept) == 0 {
+		return originalNote
+	}
+	return "found on the original circuit: the reduction puts its line at AC ground for the signal, so of its parts only " +
+		strings.Join(kept, ", ") + map[bool]string{true: " stays", false: " stay"}[len(kept) == 1] + " on the reduced sheet"
+}
 
 // markSupply marks a stage found on the full circuit, and its sub-stages,
 // as a supply stage.
@@ -221,10 +254,12 @@ func stageLike(ref string) bool {
 // signal net to AC ground (a grid leak, an anode or speaker load, a return)
 // to the stage it loads: the first stage in signal order with a part on its
 // signal net, that is the one feeding the net. A lone resistor is no stage of
-// its own; one next to no stage stays unmatched.
-func foldShunts(c *graph.Circuit, acg map[string]bool, tops []*found, ord order) {
+// its own; one next to no stage stays unmatched, and one a stage found on
+// the original circuit holds (held: the AGC filter's resistor, which runs
+// from the detector to the line the reduction grounds) stays that stage's.
+func foldShunts(c *graph.Circuit, acg map[string]bool, tops []*found, ord order, held map[string]bool) {
 	ground := func(net string) bool { return acg[net] || c.RoleOf(net).IsACGround() }
-	claimed := map[string]bool{}
+	claimed := maps.Clone(held)
 	for _, f := range tops {
 		for r := range f.set {
 			claimed[r] = true
@@ -305,9 +340,12 @@ type found struct {
 	set  map[string]bool
 }
 
-func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, orig *world, budget *int) ([]*found, error) {
+// recognise matches the library's patterns of one kind (full: the power
+// supply's, on the original circuit, whose operating point is op) on c.
+func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, orig *world, op *dc.Point, budget *int) ([]*found, error) {
 	w := newWorld(c, full, acg)
 	w.orig = orig
+	w.op = op
 	s := &searcher{w: w, limit: *budget, partUsed: make([]bool, len(w.parts)), netOwner: make([]int, len(w.names)), seen: map[string]bool{}}
 	for i := range s.netOwner {
 		s.netOwner[i] = -1

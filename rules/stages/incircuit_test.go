@@ -226,6 +226,7 @@ var formulaOnly = map[[2]string]string{
 	{"hartley-common-tap", "grid_f_c"}:     "an oscillator's grid-leak bias time constant, not a corner the signal passes",
 	{"self-oscillating-mixer", "grid_f_c"}: "an oscillator's grid-leak bias time constant, not a corner the signal passes",
 	{"grid-leak-detector-reaction", "f_c"}: "a grid-leak detector rectifies at the grid: the time constant of a DC level",
+	{"grid-stopper", "f_c"}:                "the solver has no interelectrode capacitances: the stopper's corner is a check value on typical ones, its Miller gain the solver's",
 	// A mixer found by its loop: osc_f is the solver's (the loop's 0°
 	// frequency across the gang) and sig_f follows from it; their formula
 	// check is the tank's f = 1/(2π√(LC)) when a pattern names the tank the

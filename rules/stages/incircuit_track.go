@@ -175,29 +175,18 @@ func (g *follow) solved(th, f float64) { g.lastTh, g.last = th, f }
 // the guesses where to look. ok is false when either tank is not found in
 // the reduced circuit or a peak is missing.
 func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackWalk, bool) {
-	gangCap := gangSection(osc.caps)
-	if !x.solve || gangCap == nil {
+	tp, ok := x.trackPair(osc)
+	if !ok {
 		return trackWalk{}, false
 	}
-	sig := findGangTank(x.w, gangCap, osc.caps)
-	if sig == nil {
-		return trackWalk{}, false
-	}
-	on, ok1 := x.tankNetsOf(osc.a, osc.b)
-	sn, ok2 := x.tankNetsOf(sig.a, sig.b)
-	if !ok1 || !ok2 {
-		return trackWalk{}, false
-	}
-	c := quiet(x.solverCircuit())
+	c, sn, on := tp.c, tp.sn, tp.on
 	gs, gosc := &follow{formula: sigF.f}, &follow{formula: oscF.f}
 	curve := func(th float64) (float64, float64, bool) {
-		fs, ok := tankAt(c, sn, th, gs.at(th))
-		if !ok {
-			return 0, 0, false
+		fs, fo, ok := pairAt(c, sn, on, th, gs.at(th), gosc.at(th))
+		if ok {
+			gs.solved(th, fs)
+			gosc.solved(th, fo)
 		}
-		fo, ok := tankAt(c, on, th, gosc.at(th))
-		gs.solved(th, fs)
-		gosc.solved(th, fo)
 		return fs, fo, ok
 	}
 	walk, ok := walkDial(curve, ifHz, trackSettings, trackRefine)
@@ -205,6 +194,33 @@ func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackW
 		walk.bwAtWorst = tankBandwidth(c, sn, walk.worstTh, walk.worstAt)
 	}
 	return walk, ok
+}
+
+// trackPairs is the circuit the tracking walk solves (the solver's,
+// devices quiet) and its two tanks' nets.
+type trackPairs struct {
+	c      *graph.Circuit
+	sn, on tankNets
+}
+
+// trackPair finds the signal tank ganged to the oscillator tank osc in the
+// reduced circuit and names both for the solver; ok is false when the
+// solver is off or either is missing.
+func (x *figCtx) trackPair(osc *tankModel) (trackPairs, bool) {
+	gangCap := gangSection(osc.caps)
+	if !x.solve || gangCap == nil {
+		return trackPairs{}, false
+	}
+	sig := findGangTank(x.w, gangCap, osc.caps)
+	if sig == nil {
+		return trackPairs{}, false
+	}
+	on, ok1 := x.tankNetsOf(osc.a, osc.b)
+	sn, ok2 := x.tankNetsOf(sig.a, sig.b)
+	if !ok1 || !ok2 {
+		return trackPairs{}, false
+	}
+	return trackPairs{c: quiet(x.solverCircuit()), sn: sn, on: on}, true
 }
 
 // tankBandwidth is a tank's loaded −3 dB bandwidth in circuit c at gang

@@ -57,8 +57,10 @@ func TestCouplingCornerUsesLoadSide(t *testing.T) {
 
 // The smoothing filter of the transistor example runs vcc (C12 100 µF, on
 // the battery port and the declared supply) → R7 470 Ω → vcc_mix (C10
-// 47 µF): C12 is the reservoir, C10 the smoothing capacitor, and the corner
-// is 1/(2π·R7·C10) = 7.205 Hz (derived from f = 1/(2πRC)). The stage is on
+// 47 µF), which feeds the mixer's line alone: a decoupler, C10 its
+// decoupling capacitor (C12 is the battery line's, not the section's; no
+// rectifier, so no reservoir), and the corner is 1/(2π·R7·C10) =
+// 7.205 Hz (derived from f = 1/(2πRC)). The stage is on
 // the full circuit only, so it comes after every signal stage, marked.
 func TestSmoothingFilterFacesTheSupply(t *testing.T) {
 	full, reduced, log := reduceExample(t, "transistor-front-end.toml")
@@ -71,8 +73,7 @@ func TestSmoothingFilterFacesTheSupply(t *testing.T) {
 		key  string
 		want float64
 	}{
-		{"c_reservoir_f", 100e-6},                   // C12, on vcc with the battery port
-		{"c_smoothing_f", 47e-6},                    // C10, on vcc_mix
+		{"c_decoupling_f", 47e-6},                   // C10, on vcc_mix
 		{"f_c_hz", 1 / (2 * math.Pi * 470 * 47e-6)}, // derived from f = 1/(2πRC)
 	} {
 		if got, _ := formulaOf(sm.Figures, c.key); math.Abs(got-c.want) > 1e-3*c.want {

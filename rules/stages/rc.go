@@ -32,6 +32,7 @@ func calcRC(x *figCtx) {
 	c := sumCap(x.parts("c"), 1)
 	use := x.word("use", "")
 	if use == "detector" {
+		x.dropLineFeeds(x.parts("r"))
 		r = x.detectorLoad(r)
 	}
 	if r <= 0 || c <= 0 {
@@ -72,6 +73,37 @@ func calcRC(x *figCtx) {
 		x.checkAGC(tau)
 	case "detector":
 		x.checkDetector(fc)
+	}
+}
+
+// dropLineFeeds takes out of a detector's parts a resistor bound as its
+// load whose grounded end is a declared bias line the reduction put at AC
+// ground (the AGC line), not chassis: that resistor feeds the line, the
+// AGC filter's (patterns/agc-line-filter.toml, on the original circuit,
+// holds it), and it is no DC return of the detector, whose load figure
+// (detectorLoad) never counts it either. A line that is only a bypassed
+// signal net has no stage to take the resistor, so it stays.
+func (x *figCtx) dropLineFeeds(rs []*graph.Part) {
+	if x.w.orig == nil {
+		return
+	}
+	var drop []*graph.Part
+	for _, p := range rs {
+		op := x.w.orig.c.Part(p.Ref)
+		if op == nil {
+			continue
+		}
+		for _, pin := range p.Pins {
+			// grounded here, on a line in the circuit as drawn
+			on := op.NetOf(pin.Name)
+			if n := x.w.orig.c.Net(on); x.w.pinNet(x.partIndex(p), pin.Name) == groundNet && n != nil && n.Role == graph.Bias {
+				drop = append(drop, p)
+				break
+			}
+		}
+	}
+	if len(drop) > 0 {
+		x.claimInstead(drop, nil)
 	}
 }
 

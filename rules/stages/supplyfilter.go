@@ -46,7 +46,7 @@ func (x *figCtx) reachesSource(net int, skip int) bool {
 		}
 		p := x.w.parts[ci]
 		return p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p)
-	}, false)
+	}, nil)
 }
 
 // feedsStage is the device whose supply net feeds through DC paths (not
@@ -76,15 +76,18 @@ func (x *figCtx) feedsStage(net int, skip int) *graph.Part {
 			return true
 		}
 		return false
-	}, true)
+	}, x.notRail)
 	return dev
 }
 
+// notRail lets a walk into any net but a declared supply.
+func (x *figCtx) notRail(id int) bool { return x.w.role[id] != graph.Supply }
+
 // walkDC walks breadth first from net through DC paths, never through
-// skip, ground or (stopAtRails) another supply net, and asks hit of each
+// skip, ground or a net enter refuses (nil: none), and asks hit of each
 // net reached (ci −1) and each terminal on it (ci, pin). It stops at the
 // first hit.
-func (x *figCtx) walkDC(net, skip int, hit func(id, ci, pin int) bool, stopAtRails bool) bool {
+func (x *figCtx) walkDC(net, skip int, hit func(id, ci, pin int) bool, enter func(id int) bool) bool {
 	seen := map[int]bool{net: true}
 	frontier := []int{net}
 	for d := 0; d <= filterWalkDepth && len(frontier) > 0; d++ {
@@ -103,7 +106,7 @@ func (x *figCtx) walkDC(net, skip int, hit func(id, ci, pin int) bool, stopAtRai
 					continue
 				}
 				for _, o := range dcNeighbours(x.w.parts[ci], x.w.pins[ci], id) {
-					if o == groundNet || seen[o] || stopAtRails && x.w.role[o] == graph.Supply {
+					if o == groundNet || seen[o] || enter != nil && !enter(o) {
 						continue
 					}
 					seen[o] = true

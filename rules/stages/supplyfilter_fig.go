@@ -20,16 +20,19 @@ var (
 	byAttenChoke  = figure.ByFormula("A = (X_L − X_C)/X_C")
 	byRippleRule  = figure.ByFormula("f ripple = 2 × mains (full-wave), 1 × (half-wave)")
 	byFeedBandLow = figure.ByFormula("the lowest frequency of the fed stage's band")
+	byReactanceC  = figure.ByFormula("X_C = 1/(2πfC)")
 )
 
 // calcSmoothing: a supply filter section (supplyfilter.go), its series part
 // a resistor or a choke, its shunt capacitor of any kind, the capacitor
 // before it (the reservoir, or the section before's) there or not. A match
 // the wrong way round, or whose ends do not run from a supply into a
-// stage's feed, is none (the pattern's guard drops it). In circuit: the
-// −3 dB corner of V(out)/V(in) and the attenuation at the ripple frequency
-// and at the fed stage's lowest frequency, each with the section's
-// textbook figure beside it.
+// stage's feed, is none (the pattern's guard drops it). Its class
+// (supplyclass.go) says which figures it has: in circuit, the −3 dB corner
+// of V(out)/V(in) and the attenuation at the ripple frequency for the main
+// filter and a decoupler, and at the fed stage's lowest frequency for a
+// decoupler, each with the section's textbook figure beside it; a screen
+// feed's DC drop and bypass.
 func calcSmoothing(x *figCtx) {
 	s := x.part("series")
 	if s == nil || s.Kind != graph.Resistor && s.Kind != graph.Inductor {
@@ -39,42 +42,97 @@ func calcSmoothing(x *figCtx) {
 	if !ok {
 		return
 	}
-	c1, c2 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1)
+	c1p, c2p := x.parts("c1"), x.parts("c2")
 	if swapped {
-		c1, c2 = c2, c1
+		c1p, c2p = c2p, c1p
 		x.claimInstead(x.parts("c2"), x.parts("c1"))
 	}
+	c1, c2 := sumCap(c1p, 1), sumCap(c2p, 1)
 	if c2 <= 0 {
 		return
 	}
-	if c1 > 0 {
-		x.set("c_reservoir", figure.Farad, c1, byPartValue)
+	class, fed := x.filterClassOf(in, out, x.partIndex(s))
+	x.capRoles(class, in, c1, c2)
+	if class == mainSmoothing && c1 > 0 && x.rectifierOn(in) {
+		// the reservoir is the main filter's own: no other section ends
+		// on the rectifier, so the stage holds it
+		x.claimInstead(nil, c1p)
 	}
-	x.set("c_smoothing", figure.Farad, c2, byPartValue)
 	guess := 1 / (2 * math.Pi * s.Value.Max * c2)
 	check := figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: guess, Origin: bySmoothRC}
 	if s.Kind == graph.Inductor {
 		guess = resonance(s.Inductance(), c2)
 		check = figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: guess, Origin: byChoke}
 	}
+	if class == screenFeed {
+		// named for its job, not the pattern that found it
+		x.st.Topology, x.st.Title = screenFeedTopology, screenFeedTitle
+	}
 	if !x.solve {
 		x.put(check)
 		return
 	}
-	x.checkSmoothing(x.netName(in), x.netName(out))
-	x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s", dev.Ref))
-	x.filterInCircuit(s, c2, in, out, dev, check)
+	switch class {
+	case screenFeed:
+		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s's screen: %s drops the HT to it, %s holds it at AC ground", dev.Ref, s.Ref, refList(c2p)))
+		x.filterCorner(s, in, out, check)
+		x.screenFeedFigures(s, c2p, in, out, dev)
+	case mainSmoothing:
+		x.checkSmoothing(x.netName(in), x.netName(out))
+		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds the supply line of %d stages (%s), so its figure is the ripple's, not one stage's frequency", len(fed), refList(fed)))
+		x.filterInCircuit(s, c2, in, out, nil, check)
+	default:
+		x.checkSmoothing(x.netName(in), x.netName(out))
+		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s", dev.Ref))
+		x.filterInCircuit(s, c2, in, out, dev, check)
+	}
 }
 
+// screenFeedTitle names a screen feed: the trade's screen feed resistor
+// (or dropper) and screen bypass capacitor.
+const screenFeedTitle = "Screen feed: dropper resistor and bypass capacitor"
+
+// screenFeedTopology is a screen feed's topology: the supply filter
+// patterns find it, its wiring says what it is.
+const screenFeedTopology = "screen-feed"
+
 // filterInCircuit writes the solver's figures of a supply filter section on
-// the circuit as it is, its rail driven.
+// the circuit as it is, its rail driven; dev is the one stage a decoupler
+// feeds (nil for the main filter: no attenuation at one stage's frequency).
 func (x *figCtx) filterInCircuit(s *graph.Part, c2 float64, inID, outID int, dev *graph.Part, check figure.Figure) {
+	r, transfer, ok := x.filterCorner(s, inID, outID, check)
+	if !ok {
+		return
+	}
+	if f, said, ok := x.rippleSource(); ok {
+		x.set("f_ripple", figure.Hertz, f, byRippleRule)
+		x.attenFigure("atten_ripple", s, c2, f, r, transfer)
+		x.st.Notes = append(x.st.Notes, "ripple from the "+said)
+		if dev == nil {
+			x.humOut(inID, outID, r, f)
+		}
+	} else {
+		x.st.Notes = append(x.st.Notes, "no rectifier with a reservoir in the set: no ripple figure")
+	}
+	if dev == nil {
+		return
+	}
+	if band := x.w.c.BandOf(dev); band.Min > 0 {
+		x.set("f_feed", figure.Hertz, band.Min, byFeedBandLow)
+		x.attenFigure("atten_feed", s, c2, band.Min, r, transfer)
+	}
+}
+
+// filterCorner writes the section's −3 dB corner in circuit, its rail
+// driven, with the formula's beside it, and returns the response; ok false
+// (the formula's corner written) where the solver cannot drive the rail.
+func (x *figCtx) filterCorner(s *graph.Part, inID, outID int, check figure.Figure) (*ac.Response, string, bool) {
 	in, out := x.netName(inID), x.netName(outID)
 	r, err := x.filterResponse(inID, outID)
 	if err != nil {
 		x.put(check)
 		x.st.Notes = append(x.st.Notes, "the solver could not drive "+in+": the corner is the formula's ("+err.Error()+")")
-		return
+		return nil, "", false
 	}
 	transfer := "V(" + out + ")/V(" + in + "), " + in + " driven"
 	if f, ok := filterCorner(r, check.Value); ok {
@@ -88,17 +146,7 @@ func (x *figCtx) filterInCircuit(s *graph.Part, c2 float64, inID, outID int, dev
 	} else {
 		x.put(check)
 	}
-	if f, said, ok := x.rippleSource(); ok {
-		x.set("f_ripple", figure.Hertz, f, byRippleRule)
-		x.attenFigure("atten_ripple", s, c2, f, r, transfer)
-		x.st.Notes = append(x.st.Notes, "ripple from the "+said)
-	} else {
-		x.st.Notes = append(x.st.Notes, "no rectifier with a reservoir in the set: no ripple figure")
-	}
-	if band := x.w.c.BandOf(dev); band.Min > 0 {
-		x.set("f_feed", figure.Hertz, band.Min, byFeedBandLow)
-		x.attenFigure("atten_feed", s, c2, band.Min, r, transfer)
-	}
+	return r, transfer, true
 }
 
 // attenFigure writes the solver's attenuation at f with the section's

@@ -635,6 +635,21 @@ C1 = { c = "10n", pins = ["a", "b"] }
 L1 = { l = "10", type = "choke", pins = ["b", "gnd"] }
 @Q2(b, gnd, o)
 R3 = { r = "47k", pins = ["o", "ht"] }`},
+	// A grid (base, gate) stopper: a small resistor straight at the
+	// control electrode, the grid leak on its far side (common practice).
+	{topology: "grid-stopper", families: allFamilies,
+		parts: `C1 = { c = "10n", pins = ["in", "b"] }
+R1 = { r = "470k", pins = ["b", "gnd"] }
+R3 = { r = "1k", pins = ["b", "g"] }
+@Q1(g, gnd, o)
+R2 = { r = "10k", pins = ["o", "ht"] }`,
+		// The leak sits on the grid itself: R3 feeds a grid that something
+		// else also holds, a series section, not a stopper.
+		nearMiss: `C1 = { c = "10n", pins = ["in", "b"] }
+R1 = { r = "470k", pins = ["g", "gnd"] }
+R3 = { r = "1k", pins = ["b", "g"] }
+@Q1(g, gnd, o)
+R2 = { r = "10k", pins = ["o", "ht"] }`},
 	// An IF rejector across an aerial input; the near miss has a resistor on
 	// the coil–capacitor junction (a coupling network, not a trap).
 	{topology: "series-trap", families: []string{"valve"}, want: "passive",

@@ -55,6 +55,9 @@ func (x *figCtx) tracking(osc *tankModel, oc coilEnds, ifHz float64) {
 	x.trackingFits(formula, sv, why)
 	x.trackingNote(gangCap.Ref+" and "+sig.gangRef(gangCap.Gang), formula, sv, sig)
 	x.suggestDesign(sig, gangCap.Gang, ifHz, sv)
+	if sv != nil {
+		x.designInCircuit(osc, oc, gangCap, sig, ifHz, *sv)
+	}
 }
 
 // trackWhy says what each coil resonates with in circuit at least
@@ -224,11 +227,22 @@ type Padding struct{ L, Trimmer, Padder float64 }
 // 1/(Cg+Ct2) + 1/Cp = ωo²L2. Differences eliminate Cp; the ratio of the two
 // differences is one equation in Ct2, solved by bisection; L2 and Cp follow.
 func ThreePoint(ls, ct, ifHz float64, pts [3]float64) (Padding, error) {
-	var cg, a [3]float64
+	var cg, fo [3]float64
 	for i, f := range pts {
 		w := 2 * math.Pi * f
 		cg[i] = 1/(w*w*ls) - ct
-		wo := 2 * math.Pi * (f + ifHz)
+		fo[i] = f + ifHz
+	}
+	return threePointAt(cg, fo)
+}
+
+// threePointAt solves the oscillator coil, trimmer and padder that put the
+// oscillator at fo[i] with the gang section at cg[i], i = 0..2 (the
+// elimination ThreePoint describes).
+func threePointAt(cg, fo [3]float64) (Padding, error) {
+	var a [3]float64
+	for i, f := range fo {
+		wo := 2 * math.Pi * f
 		a[i] = wo * wo
 	}
 	lower := math.Min(cg[0], math.Min(cg[1], cg[2]))

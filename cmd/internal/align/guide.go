@@ -122,9 +122,12 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 // Marks are the step numbers turned at each part of the circuit, by ref,
 // as a sheet labels them ("align 1, 2"; "align 3 sec, 4 pri" where two
 // windings of one transformer are turned): the parts of the circuit as
-// captured, in step order.
-func Marks(c *graph.Circuit, sts []stages.Stage) map[string]string {
+// captured, in step order, with every other band's steps from run (as
+// AddBands numbers them; nil: the set's own band only), so a band's own
+// trimmers, switched out as captured, carry their marks too.
+func Marks(c *graph.Circuit, sts []stages.Stage, run Runner) map[string]string {
 	g := procedure(c, sts)
+	g.AddBands(c, sts, run)
 	steps := map[string][]Step{}
 	var refs []string
 	for _, s := range g.Steps {

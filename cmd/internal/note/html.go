@@ -121,6 +121,13 @@ func hSheets(b *bytes.Buffer, n *Note, svgs map[string][]byte) error {
 	if hasViews(n.Sheets) {
 		b.WriteString("<p>Point at a part on the reduced sheet: the original parts it stands for light up on the faded sheet (and a part on the faded sheet lights up the reduced part it went into).</p>\n")
 	}
+	if len(n.AlignMarks) > 0 {
+		fmt.Fprintf(b, "<p>%s</p>\n<ul>\n", h(alignMarksIntro))
+		for _, l := range n.AlignMarks {
+			fmt.Fprintf(b, "<li>%s</li>\n", h(l))
+		}
+		b.WriteString("</ul>\n")
+	}
 	b.WriteString("</div>\n")
 	seen := map[string]int{}
 	for i, s := range n.Sheets {

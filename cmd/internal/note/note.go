@@ -48,6 +48,10 @@ type Note struct {
 	// Align is the alignment and signal-tracing guide (cmd/internal/align);
 	// nil when the stages were not found.
 	Align *align.Guide
+	// AlignMarks say on which sheet each part the alignment turns is marked,
+	// one line a part in step order ("T7, steps 1 and 2: the reduced sheet
+	// 2 of 3 and the faded sheet 5 of 8").
+	AlignMarks []string
 }
 
 type PartCount struct{ Parts, Nets int }
@@ -254,6 +258,13 @@ func writeSheets(b *bytes.Buffer, n *Note) {
 		return
 	}
 	b.WriteString("## Sheets\n\n")
+	if len(n.AlignMarks) > 0 {
+		b.WriteString(alignMarksIntro + "\n\n")
+		for _, l := range n.AlignMarks {
+			fmt.Fprintf(b, "- %s\n", mdText(l))
+		}
+		b.WriteString("\n")
+	}
 	for _, s := range n.Sheets {
 		fmt.Fprintf(b, "![%s](%s)\n\n", mdText(s.Alt), s.File)
 		if s.Caption != "" {

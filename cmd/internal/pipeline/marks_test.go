@@ -1,6 +1,7 @@
 package pipeline
 
 import (
+	"fmt"
 	"path/filepath"
 	"slices"
 	"strconv"
@@ -80,4 +81,50 @@ func markWords(s align.Step, ref string) []string {
 		w = append(w, "("+s.Part+")")
 	}
 	return w
+}
+
+// TestEveryBandMarkedOnTheOriginal: a set with a wavechange switch is
+// aligned band by band (common practice), and a band's own trimmers are
+// parts of the original even where the captured switch position leaves
+// them out: the faded and full views mark every step of every band at the
+// part turned, the club receiver's LW trimmers TC1, TC3 and TC5 too, and
+// MarkedOn names the page of the faded sheet that holds each, as the note
+// says it.
+func TestEveryBandMarkedOnTheOriginal(t *testing.T) {
+	a3, _ := render.ParsePaper("A3")
+	r, err := Run(Options{Path: example("club-receiver"), Level: rules.LevelSignal, Views: []render.View{render.Faded},
+		Page: a3, BandSets: align.BandSets})
+	if err != nil {
+		t.Fatal(err)
+	}
+	g := align.Build(r.Title, r.Circuit, r.Stages, r.Caution)
+	g.AddBands(r.Circuit, r.Stages, r.BandRun)
+	sh := r.SheetFor(render.Faded)
+	bands := 0
+	for _, s := range g.Steps {
+		if s.Band != "" {
+			bands++
+		}
+		var nums []string // "align 1 sec, 2 pri": 1, 2
+		for _, n := range strings.Split(strings.TrimPrefix(sh.Sheet.Marks[s.Part], "align "), ", ") {
+			if f := strings.Fields(n); len(f) > 0 {
+				nums = append(nums, f[0])
+			}
+		}
+		if !slices.Contains(nums, strconv.Itoa(s.N)) {
+			t.Errorf("step %d (%s %s): %s marked %q on the faded view", s.N, s.Band, s.Part, s.Part, sh.Sheet.Marks[s.Part])
+		}
+		where := r.MarkedOn(s.Part)
+		var page int
+		if _, err := fmt.Sscanf(where, "the faded sheet %d of", &page); err != nil || page < 1 || page > len(sh.Pages) {
+			t.Errorf("step %d: %s marked on %q", s.N, s.Part, where)
+			continue
+		}
+		if !strings.Contains(string(sh.Pages[page-1]), `data-ref="`+render.RefToken(s.Part)+`"`) {
+			t.Errorf("step %d: %s is not on %s", s.N, s.Part, where)
+		}
+	}
+	if bands != 3 {
+		t.Errorf("%d steps of the other band, want LW's three (TC5, TC3, TC1)", bands)
+	}
 }

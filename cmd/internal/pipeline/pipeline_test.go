@@ -160,8 +160,11 @@ func TestCautionFromTheOriginal(t *testing.T) {
 			t.Errorf("%s sheet caution %q, want %q", s.View, s.Sheet.Caution, want)
 		}
 	}
+	// the reduced sheet's circuit is the reduced one, or its copy with the
+	// decoupled lines' own voltages on their tags (railvolts.go)
+	rs := res.SheetFor(render.Reduced).Sheet.Circuit
 	if res.SheetFor(render.Full) == nil || res.SheetFor(render.Faded).Sheet.Circuit != res.Circuit ||
-		res.SheetFor(render.Reduced).Sheet.Circuit != res.Reduced {
+		rs != res.Reduced && (len(rs.Parts) != len(res.Reduced.Parts) || len(rs.Nets) != len(res.Reduced.Nets)) {
 		t.Error("sheets do not show the circuits of their views")
 	}
 }

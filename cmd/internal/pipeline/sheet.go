@@ -87,7 +87,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	}
 	switch v {
 	case render.Reduced:
-		s.Circuit = reduced
+		s.Circuit = r.withLineVolts(reduced)
 		s.Frames = stageFrames(r.Stages, reduced, nil)
 		_, merged := FadedAndMerged(c, reduced)
 		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
@@ -122,8 +122,14 @@ func (r *Result) alignMarks(v render.View) map[string]string {
 	if r.Stages == nil {
 		return nil
 	}
-	marks := align.Marks(r.Circuit, r.Stages)
-	if v != render.Reduced || len(marks) == 0 {
+	if v != render.Reduced {
+		// the original shows every band's trimmers: their marks too, from
+		// the other bands' runs (a band's own parts are switched out of the
+		// reduced circuit and not on the reduced view)
+		return align.Marks(r.Circuit, r.Stages, r.BandRun)
+	}
+	marks := align.Marks(r.Circuit, r.Stages, nil)
+	if len(marks) == 0 {
 		return marks
 	}
 	_, merged := FadedAndMerged(r.Circuit, r.Reduced)

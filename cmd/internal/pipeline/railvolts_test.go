@@ -1,0 +1,45 @@
+package pipeline
+
+import (
+	"fmt"
+	"testing"
+
+	"pare/render"
+	"pare/rules"
+)
+
+// On the club receiver's reduced sheet each decoupled line is tagged with
+// its own DC voltage, the operating point's as the DC chart prints it
+// (four figures), not the voltage in the label of the rail that feeds it
+// ("HT +250 V"): R11 drops the HT to 241.2 V on ht_if1 (graph/dc, checked
+// against ngspice .op in graph/dc's tests, docs/dc.md).
+func TestDecoupledLinesCarryTheirOwnVolts(t *testing.T) {
+	res, err := Run(Options{Path: "../../../examples/club-receiver.toml", Until: PhaseStages, Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := res.Sheet(render.Reduced).Circuit
+	tagged := 0
+	for _, name := range []string{"ht_if1", "ht_if2", "ht_rf", "ht_mix", "ht_pre"} {
+		var label string
+		for _, n := range append(c.Nets, c.Rails...) {
+			if n.Name == name {
+				label = n.Label
+			}
+		}
+		if label == "" {
+			continue // joined away without a tag on this sheet
+		}
+		tagged++
+		v, ok := res.DC.Volts(name)
+		if want := fmt.Sprintf("HT +%.4g V", v); !ok || label != want {
+			t.Errorf("%s tagged %q, want %q (its own DC voltage)", name, label, want)
+		}
+	}
+	if tagged == 0 {
+		t.Fatal("no decoupled line on the reduced sheet")
+	}
+	if n := res.Reduced.Net("ht_if1"); n != nil && n.Label != "HT" {
+		t.Errorf("the reduced circuit itself changed: ht_if1 label %q", n.Label)
+	}
+}

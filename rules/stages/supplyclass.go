@@ -1,0 +1,236 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+	"sort"
+	"strings"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/dc"
+	"pare/graph/figure"
+)
+
+// A supply filter section is one of three jobs, read from its wiring (not
+// from its values or its refs):
+//   - the main smoothing filter: a rectifier sits on its input, or its
+//     output feeds the supply lines of several stages (directly or through
+//     their decouplers); its figures are the ripple's, since it serves the
+//     whole line and no one stage's frequency;
+//   - a screen feed: the output is a screen grid itself, a dropper resistor
+//     and its bypass capacitor; its figures are the DC drop and whether the
+//     bypass holds the screen at AC ground at the stage's frequency;
+//   - a decoupler: it feeds one stage's supply through that stage's load;
+//     its figures are the attenuation at the ripple and at that stage's
+//     frequency.
+type filterClass int
+
+const (
+	mainSmoothing filterClass = iota
+	decoupler
+	screenFeed
+)
+
+// filterClassOf tells what the section from in to out does; fed are the
+// stages its output feeds.
+func (x *figCtx) filterClassOf(in, out, skip int) (filterClass, []*graph.Part) {
+	fed := x.fedStages(out, skip)
+	switch {
+	case x.rectifierOn(in) || len(fed) > 1:
+		return mainSmoothing, fed
+	case x.onScreen(out):
+		return screenFeed, fed
+	}
+	return decoupler, fed
+}
+
+// rectifierOn tells whether a diode or a valve diode has a terminal on id.
+func (x *figCtx) rectifierOn(id int) bool {
+	for _, ci := range x.w.conns[id] {
+		if p := x.w.parts[ci]; p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p) {
+			return true
+		}
+	}
+	return false
+}
+
+// onScreen tells whether a further grid (a screen) of an amplifying valve
+// sits on id itself.
+func (x *figCtx) onScreen(id int) bool {
+	for _, ci := range x.w.conns[id] {
+		if p := x.w.parts[ci]; p.Kind != graph.Valve || isValveDiode(p) {
+			continue
+		}
+		for j, pid := range x.w.pins[ci] {
+			if pid == id && x.w.roles[ci][j] == graph.RoleGrid {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// fedStages are the devices whose supply out feeds through DC paths (not
+// through skip): an output electrode or a further grid, directly or
+// behind a load or a decoupler. The walk never climbs to a net nearer the
+// source than out (feeds), so a decoupler's walk does not run back up the
+// line to every other stage.
+func (x *figCtx) fedStages(out, skip int) []*graph.Part {
+	var fed []*graph.Part
+	seen := map[string]bool{}
+	level := x.feeds(out)
+	x.walkDC(out, skip, func(id, ci, pin int) bool {
+		if ci < 0 || pin < 0 {
+			return false
+		}
+		p := x.w.parts[ci]
+		if p.Kind == graph.Valve && isValveDiode(p) || seen[p.Ref] {
+			return false
+		}
+		if role := x.w.roles[ci][pin]; role == graph.RoleGrid || role == graph.RoleOutput && id != out {
+			seen[p.Ref] = true
+			fed = append(fed, p)
+		}
+		return false
+	}, func(id int) bool { return x.feeds(id) <= level })
+	// refs in their natural order (V2 before V10), not the walk's
+	sort.Slice(fed, func(i, j int) bool {
+		a, b := fed[i].Ref, fed[j].Ref
+		return len(a) < len(b) || len(a) == len(b) && a < b
+	})
+	return fed
+}
+
+// refList names parts in the order given: "V1, V2 and V3".
+func refList(ps []*graph.Part) string {
+	refs := make([]string, len(ps))
+	for i, p := range ps {
+		refs[i] = p.Ref
+	}
+	if len(refs) < 2 {
+		return strings.Join(refs, "")
+	}
+	return strings.Join(refs[:len(refs)-1], ", ") + " and " + refs[len(refs)-1]
+}
+
+// capRoles names a section's capacitors by what they do in its class: the
+// reservoir (the first capacitor after a rectifier) and the smoothing
+// capacitor of the main filter, or its input capacitor where no rectifier
+// sits on it; a decoupling capacitor; a screen bypass capacitor. A
+// decoupler's or screen feed's input capacitor belongs to the line before
+// it, so it is not the section's figure.
+func (x *figCtx) capRoles(class filterClass, in int, c1, c2 float64) {
+	switch class {
+	case mainSmoothing:
+		if c1 > 0 && x.rectifierOn(in) {
+			x.set("c_reservoir", figure.Farad, c1, byPartValue)
+		} else if c1 > 0 {
+			x.set("c_input", figure.Farad, c1, byPartValue)
+		}
+		x.set("c_smoothing", figure.Farad, c2, byPartValue)
+	case decoupler:
+		x.set("c_decoupling", figure.Farad, c2, byPartValue)
+	case screenFeed:
+		x.set("c_screen_bypass", figure.Farad, c2, byPartValue)
+	}
+}
+
+// dcPoint is the operating point of the original circuit, nil if unknown.
+func (x *figCtx) dcPoint() *dc.Point {
+	if x.w.op != nil {
+		return x.w.op
+	}
+	if x.w.orig != nil {
+		return x.w.orig.op
+	}
+	return nil
+}
+
+// screenBypassMax is the share of the screen's feed impedance the bypass
+// may leave at the stage's lowest frequency and still be called effective:
+// a tenth (common practice, no source: the screen then carries a tenth of
+// the signal it would unbypassed, about 20 dB of degeneration removed).
+const screenBypassMax = 0.1
+
+// screenFeedFigures writes a screen feed's figures: the DC drop across the
+// dropper at the operating point, and, at the fed stage's lowest
+// frequency, the screen's impedance to chassis in circuit with and
+// without its bypass (the solver's), the bypass's own reactance
+// 1/(2πfC) as the check.
+func (x *figCtx) screenFeedFigures(s *graph.Part, c2 []*graph.Part, in, out int, dev *graph.Part) {
+	inName, outName := x.netName(in), x.netName(out)
+	if op := x.dcPoint(); op != nil {
+		vi, ok1 := op.Volts(inName)
+		vo, ok2 := op.Volts(outName)
+		if ok1 && ok2 {
+			x.set("screen_drop", figure.Volt, vi-vo, figure.BySolver("V("+inName+") − V("+outName+") at the", "DC operating point"))
+			x.set("screen_v", figure.Volt, vo, figure.BySolver("V("+outName+") at the", "DC operating point"))
+		}
+	}
+	f := x.w.c.BandOf(dev).Min
+	if !(f > 0) {
+		return
+	}
+	x.set("f_feed", figure.Hertz, f, byFeedBandLow)
+	c := x.solverCircuit()
+	bare := c
+	for _, p := range c2 {
+		bare = without(bare, p.Ref)
+	}
+	zb, okB := impedanceAt(bare, outName, f)
+	z, ok := impedanceAt(c, outName, f)
+	if !okB || !ok {
+		x.st.Notes = append(x.st.Notes, "the solver could not take the screen's impedance at "+hz(f))
+		return
+	}
+	x.set("z_screen_unbypassed", figure.Ohm, cmplx.Abs(zb), figure.BySolver("|Z("+outName+")| without the bypass", hz(f)))
+	xc := 1 / (2 * math.Pi * f * sumCap(c2, 1))
+	sv := &figure.Figure{Name: "z_screen", Unit: figure.Ohm, Value: cmplx.Abs(z), Origin: figure.BySolver("|Z("+outName+")|", hz(f))}
+	check := &figure.Figure{Name: "z_screen", Unit: figure.Ohm, Value: xc, Origin: byReactanceC}
+	x.putChecked(sv, check, func() string {
+		return fmt.Sprintf("the formula takes the bypass alone; in circuit %s and the screen lie across it", s.Ref)
+	})
+	share := cmplx.Abs(z) / cmplx.Abs(zb)
+	if share <= screenBypassMax {
+		x.st.Notes = append(x.st.Notes, fmt.Sprintf("the bypass holds %s's screen at AC ground at %s: %s to chassis in circuit against %s without it",
+			dev.Ref, hz(f), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text), figure.Format(cmplx.Abs(zb), figure.Ohm, figure.Text)))
+		return
+	}
+	x.flag("screen bypass of %s is not effective at %s: the screen sees %s to chassis in circuit, %.0f %% of the %s without it",
+		dev.Ref, hz(f), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text), 100*share, figure.Format(cmplx.Abs(zb), figure.Ohm, figure.Text))
+}
+
+// sawtoothFundamental is the share of a sawtooth's peak-to-peak swing its
+// fundamental has, peak to peak: 2/π (Fourier series of a sawtooth,
+// handbook). A reservoir's ripple is near a sawtooth, and a smoothing
+// section passes its harmonics less than the fundamental, so the hum left
+// at the output is about the fundamental's.
+const sawtoothFundamental = 2 / math.Pi
+
+// humOut is the hum left on the main filter's output: the ripple the DC
+// estimate gives at the reservoir on its input (graph/dc, the rectifier's
+// periodic steady state), its fundamental passed by the section as the
+// solver gives it at the ripple frequency. Nothing where the input is not
+// an estimated reservoir.
+func (x *figCtx) humOut(in, out int, r *ac.Response, f float64) {
+	op := x.dcPoint()
+	if op == nil {
+		return
+	}
+	inName := x.netName(in)
+	for _, e := range op.Estimates {
+		if e.Net != inName || !(e.Ripple > 0) {
+			continue
+		}
+		m := magnitude(r, f)
+		if !(m > 0) {
+			return
+		}
+		x.set("ripple_in", figure.Volt, e.Ripple, figure.BySolver("ripple p-p of the rectifier's estimate on "+inName, "DC operating point"))
+		x.set("hum_out", figure.Volt, e.Ripple*sawtoothFundamental*m,
+			figure.BySolver("2/π × ripple p-p × |V("+x.netName(out)+")/V("+inName+")|", hz(f)))
+		return
+	}
+}
