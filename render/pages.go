@@ -195,7 +195,7 @@ func rowSheets(s *Sheet, rows []map[string]bool) []*Sheet {
 		sub.Circuit = subCircuit(s.Circuit, r)
 		sub.Frames = nil
 		for _, f := range s.Frames {
-			g := Frame{Title: f.Title, Subtitle: f.Subtitle}
+			g := Frame{Title: f.Title, Subtitle: f.Subtitle, Places: f.Places}
 			for _, p := range f.Parts {
 				if r[p] {
 					g.Parts = append(g.Parts, p)

@@ -90,7 +90,13 @@ func (v View) String() string {
 type Frame struct {
 	Title, Subtitle string
 	Parts           []string
+	// Places are the stage's drawing templates, its own and its
+	// sub-stages', each one's parts round its anchor (layout.Place).
+	Places []Place
 }
+
+// Place is one part of a stage's drawing template (see layout.Place).
+type Place = layout.Place
 
 // Sheet is what to draw.
 type Sheet struct {
@@ -186,7 +192,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	o.Marks = s.Marks
 	o.Continues = s.continues
 	for _, f := range s.Frames {
-		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts})
+		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts, Places: f.Places})
 	}
 	return o
 }

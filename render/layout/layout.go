@@ -23,7 +23,9 @@
 // cell.go and labels.go (local ground and rail symbols, label candidates;
 // rails.go: the rail each pin returns to, its tag text and direction),
 // blocks.go, order.go and place.go (blocks, their order in a column, x and
-// y), frames.go and links.go (stage frames, gang links), sheet.go (one
+// y), template.go and template_orient.go (a recognised stage's parts moved
+// to the slots its pattern's drawing template gives round its active
+// part, and oriented for them), frames.go and links.go (stage frames, gang links), sheet.go (one
 // placement routed and assembled), fade.go (the faded view's greying of
 // the full view's wires, and the plain full view), untangle.go (the search for fewer
 // crossings), rows.go (off-row connectors of a row of a paged sheet), and the router: grid.go (the grid and its costs), search.go
@@ -41,6 +43,9 @@ import (
 type Frame struct {
 	Title, Subtitle string
 	Parts           []string
+	// Places are the stage's templates (template.go): each one's parts
+	// round its anchor, the templates one after another.
+	Places []Place
 }
 
 // Options says what to draw.
@@ -162,6 +167,15 @@ type state struct {
 	free     bool // no common signal line: every part lines up along its nets
 	// shortFirst routes the nets shortest first rather than most pins first
 	shortFirst bool
+	// slot is, per ref a stage template places, where (template.go), for
+	// orienting it before the template moves it
+	slot map[string]tplSlot
+	// slotNetSum sums, per net, the columns of its pins' parts, a templated
+	// part's at its slot
+	slotNetSum map[string]float64
+	// tplMoved are the refs a template moved; tplOff those whose template
+	// is not let orient them (a first placement left them where they were)
+	tplMoved, tplOff map[string]bool
 	// frameStage is the stage (index into Options.Frames) of each frame drawn
 	frameStage []int
 }

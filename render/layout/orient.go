@@ -14,6 +14,9 @@ import (
 // upright; short of that, a padder and the part under it (padder.go) stand
 // vertical, hot end up.
 func (ly *state) orient() {
+	stands := ly.stands()
+	ly.slot = ly.templateSlots()
+	ly.slotNetSum = ly.slotNets()
 	ups := ly.padderUps()
 	for _, cl := range ly.cells {
 		if cl.conn {
@@ -48,8 +51,27 @@ func (ly *state) orient() {
 				best, bestScore, cl.turn = s, score, i
 			}
 		}
+		if _, fixed := ly.turns[cl.ref]; !fixed && stands[cl.ref] != "" && standOf(best) != stands[cl.ref] {
+			best = ly.standing(cl, base, best, stands[cl.ref])
+		}
 		cl.shape = best
 	}
+}
+
+// standing is the best-scoring upright orientation of a cell that runs the
+// way its stage template asks, or best when none does.
+func (ly *state) standing(cl *cell, base, best symbol.Shape, stand string) symbol.Shape {
+	bestScore := math.Inf(-1)
+	for i, o := range base.Turns {
+		s := base.Oriented(o)
+		if standOf(s) != stand || !upright(ly.c, cl.part, s) {
+			continue
+		}
+		if score := ly.score(cl, s); score > bestScore+1e-9 {
+			best, bestScore, cl.turn = s, score, i
+		}
+	}
+	return best
 }
 
 // upBonus outweighs every other score of a part's orientation when its pin
@@ -101,7 +123,7 @@ func (ly *state) score(cl *cell, s symbol.Shape) float64 {
 	if signal == len(s.Pins) && horizontalSignal == signal {
 		score += 1 // a part in the signal path lies along it
 	}
-	return score
+	return score + ly.hangScore(cl, s)
 }
 
 // railScore rates a rail pin pointing in direction d where it should point
@@ -125,6 +147,12 @@ func (ly *state) towards(cl *cell, p geom.Pin) float64 {
 	if others > 0 {
 		tot := n*(others+1) - here
 		n = tot / others
+	}
+	if t, ok := ly.slot[cl.ref]; ok && others > 0 {
+		// where its stage template will put it, and its neighbours
+		// where theirs will
+		here = t.col
+		n = (ly.slotNetSum[p.Net] - here) / others
 	}
 	switch {
 	case n < here-0.01:

@@ -23,6 +23,7 @@ func (ly *state) place() {
 	ly.order(cols)
 	ly.placeColumns(cols)
 	ly.placeRows(cols)
+	ly.templates(cols)
 	ly.makeFrames()
 }
 

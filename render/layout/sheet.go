@@ -10,9 +10,20 @@ import (
 
 // place puts the circuit's symbols, locals, labels and frames in place,
 // with some orientations fixed (index into each symbol's Turns).
+// A stage template's part that keeps its generic place is laid out again
+// without the template's say in its orientation (template.go).
 func place(c *graph.Circuit, o Options, turns map[string]int, free bool) *state {
+	ly := placeOnce(c, o, turns, free, nil)
+	if off := ly.templateMisses(); len(off) > 0 {
+		ly = placeOnce(c, o, turns, free, off)
+	}
+	return ly
+}
+
+// placeOnce is one placement; off are refs whose templates do not orient them.
+func placeOnce(c *graph.Circuit, o Options, turns map[string]int, free bool, off map[string]bool) *state {
 	cells := makeCells(c, o)
-	ly := &state{c: c, o: o, cells: cells, turns: turns, crossing: map[string]bool{}, free: free}
+	ly := &state{c: c, o: o, cells: cells, turns: turns, crossing: map[string]bool{}, free: free, tplOff: off}
 	if len(cells) == 0 {
 		return ly
 	}

@@ -34,6 +34,11 @@ type Stage struct {
 	// Loop is the loop gain of an oscillator's or mixer's device across the
 	// dial (loop.go), solved on the original circuit with every load.
 	Loop []Loop `json:"loop,omitempty"`
+	// Draw is where the stage's parts stand when drawn, relative to its
+	// anchor (the first entry, at column 0, row 0), from its pattern's
+	// [draw] template by circuit ref; empty without a template. Drawing
+	// data, not a fact about the circuit: it is not in the JSON.
+	Draw []Place `json:"-"`
 
 	group    string
 	nets     map[string]string // pattern net → circuit net
@@ -486,6 +491,7 @@ func evaluate(w *world, m *match, solve bool) *Stage {
 		}
 	}
 	sort.Strings(st.Parts)
+	st.Draw = drawPlaces(w, m)
 	for vi, vn := range m.v.nets {
 		if m.nets[vi] < 0 {
 			continue // only absent optional parts touched it

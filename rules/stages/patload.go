@@ -15,7 +15,7 @@ import (
 var deviceKinds = []string{"active", "valve", "bjt", "fet", "resistor", "capacitor", "inductor",
 	"tapped-coil", "transformer", "diode", "double-diode", "crystal", "element", "pot", "loudspeaker"}
 
-var patternKeys = []string{"id", "title", "titles", "group", "circuit", "rank", "inner", "families", "context", "nets", "parts", "figure", "guard", "note"}
+var patternKeys = []string{"id", "title", "titles", "group", "circuit", "rank", "inner", "families", "context", "nets", "parts", "figure", "guard", "note", "draw"}
 
 var netKeys = []string{"at", "outside"}
 
@@ -105,6 +105,7 @@ func (ld *patLoader) pattern(raw map[string]any) {
 	}
 	ld.required()
 	ld.crossCheck()
+	ld.checkDraw()
 	if len(ld.errs) == 0 {
 		if err := ld.p.compile(); err != nil {
 			ld.errs.Add(ld.p.Pos, "%v", err)
@@ -157,6 +158,8 @@ func (ld *patLoader) topKey(k string, v any) {
 		for i, t := range tables(v) {
 			ld.guard(fmt.Sprintf("guard[%d]", i), t)
 		}
+	case "draw":
+		ld.draw(k, v)
 	default:
 		ld.unknown(k, k, patternKeys)
 	}

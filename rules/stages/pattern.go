@@ -35,7 +35,12 @@ type Pattern struct {
 	Parts   []PPart
 	Figures []FigureSpec
 	Guards  []Guard
-	Pos     graph.Pos // where the pattern's id was written
+	// Draw is the stage's drawing template (drawload.go): where each part
+	// stands relative to the anchor, the part at column 0, row 0.
+	Draw []Place
+	Pos  graph.Pos // where the pattern's id was written
+
+	drawPos []graph.Pos // where each Draw entry was written
 
 	variants []*variant
 }

@@ -211,7 +211,9 @@ func droppedPins(orig, reduced *graph.Circuit) map[string]map[string]bool {
 // frame holds the original parts its reduced parts stand for.
 func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Frame {
 	sub := map[string]bool{}
+	byName := map[string]stages.Stage{}
 	for _, s := range found {
+		byName[s.Name] = s
 		for _, c := range s.Contains {
 			sub[c] = true
 		}
@@ -245,7 +247,8 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 			parts = append(parts, ref)
 		}
 		sort.Strings(parts)
-		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts})
+		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts,
+			Places: framePlaces(s, byName, reduced, full)})
 	}
 	return frames
 }

@@ -1,0 +1,294 @@
+package layout
+
+import (
+	"math"
+
+	"pare/render/geom"
+)
+
+// Stage templates: a recognised stage's parts drawn where the trade draws
+// them round its active part (the tank beside the valve, the load above
+// the anode, the cathode resistor and bypass below), from the stage
+// pattern's [draw] table (docs/patterns.md). The generic placement runs
+// first; the template then moves each of the stage's blocks to its slot
+// round the anchor, a grid of columns and rows sized by the blocks in
+// them, and a block whose slot would touch another block, or stretch the
+// stage's frame over another stage or an unframed part, keeps its generic
+// place. The router then wires the result as any other placement.
+
+// Place is one part of a stage template: Ref drawn Col slots right and Row
+// slots down of Anchor (the stage's active part, whose own place is Col 0,
+// Row 0). Stand, when set, is "vertical" or "horizontal": the way a
+// two-terminal part runs.
+type Place struct {
+	Ref, Anchor string
+	Col, Row    int
+	Stand       string
+}
+
+// Gaps between a template's slots, in grid steps: as between the generic
+// placement's columns and stacked blocks.
+const (
+	slotGapX = colGap + 1
+	slotGapY = rowGap
+)
+
+// slotReach bounds a template's columns and rows either side of its
+// anchor (the pattern language allows as many); a place beyond is ignored.
+const slotReach = 4
+
+// slotted is a block a template moves, with its slot and where it goes.
+type slotted struct {
+	b        *block
+	col, row int
+	d        geom.Pt
+	keep     bool // false once the slot is refused: the block stays put
+}
+
+// templates applies every frame's templates, frame by frame, each
+// template in the order the frame lists them (a stage's own before its
+// sub-stages'); a block moved once is not moved again.
+func (ly *state) templates(cols [][]*block) {
+	blockOf := map[string]*block{}
+	var all []*block
+	for _, col := range cols {
+		for _, b := range col {
+			all = append(all, b)
+			for _, cl := range b.cells {
+				blockOf[cl.ref] = b
+			}
+			for _, cl := range b.chain {
+				blockOf[cl.ref] = b
+			}
+		}
+	}
+	moved := map[*block]bool{}
+	ly.tplMoved = map[string]bool{}
+	for fi, f := range ly.o.Frames {
+		// each template starts with its anchor's own place
+		start := 0
+		for i := 1; i <= len(f.Places); i++ {
+			if i == len(f.Places) || f.Places[i].Ref == f.Places[i].Anchor {
+				ly.template(fi, f.Places[start:i], blockOf, all, moved)
+				start = i
+			}
+		}
+	}
+}
+
+// template places one stage template's blocks round its anchor's block.
+func (ly *state) template(stage int, places []Place, blockOf map[string]*block, all []*block, moved map[*block]bool) {
+	anchor := blockOf[places[0].Anchor]
+	if anchor == nil || len(anchor.cells) != 1 || len(anchor.chain) > 0 {
+		return
+	}
+	// a block of several parts (a tank's L and C) takes the slot of the
+	// first of its parts the template lists
+	placeOf := map[string]Place{}
+	for _, p := range places {
+		placeOf[p.Ref] = p
+	}
+	var slots []*slotted
+	seen := map[*block]bool{anchor: true}
+	for _, p := range places {
+		b := blockOf[p.Ref]
+		if b == nil || seen[b] || moved[b] || !ly.movable(b, stage, placeOf) {
+			continue
+		}
+		seen[b] = true
+		if (p.Col == 0 && p.Row == 0) || max(p.Col, -p.Col, p.Row, -p.Row) > slotReach {
+			continue
+		}
+		slots = append(slots, &slotted{b: b, col: p.Col, row: p.Row, keep: true})
+	}
+	if len(slots) == 0 {
+		return
+	}
+	ly.slotMoves(anchor, slots)
+	ly.makeRoom(stage, slots, all)
+	ly.refuseCollisions(stage, slots, all)
+	for _, s := range slots {
+		if s.keep {
+			s.b.move(s.d)
+			moved[s.b] = true
+			for _, cl := range append(append([]*cell{}, s.b.cells...), s.b.chain...) {
+				ly.tplMoved[cl.ref] = true
+			}
+		}
+	}
+}
+
+// movable says whether a template may move a block: every part in it is
+// one the template places (a block that holds another part too, a second
+// tank's coil stacked beside this one, stays where the generic placement
+// put it), of this stage, and none is a flag or connector at the edge.
+func (ly *state) movable(b *block, stage int, placed map[string]Place) bool {
+	for _, cl := range append(append([]*cell{}, b.cells...), b.chain...) {
+		if _, ok := placed[cl.ref]; !ok {
+			return false
+		}
+		if s, ok := ly.stageOf[cl.ref]; !ok || s != stage || cl.edge != 0 || cl.conn {
+			return false
+		}
+	}
+	return true
+}
+
+// slotMoves sets each block's move to its slot: columns and rows as wide
+// and tall as their widest and tallest block, packed outwards from the
+// anchor's with the gaps; a block narrower than its column keeps to the
+// anchor's side of it, one in the anchor's column is centred on the anchor, one in the anchor's row keeps the height the generic placement
+// gave it (level with the wire it hangs from), and the rows above and
+// below clear that row.
+func (ly *state) slotMoves(anchor *block, slots []*slotted) {
+	w, h := map[int]float64{0: anchor.fp.W()}, map[int]float64{}
+	row0 := anchor.fp
+	for _, s := range slots {
+		w[s.col] = math.Max(w[s.col], s.b.fp.W())
+		if s.row == 0 {
+			s.d.Y = ly.levelWith(anchor.cells[0], s.b)
+			row0 = row0.Union(s.b.fp.Move(s.d))
+		} else {
+			h[s.row] = math.Max(h[s.row], s.b.fp.H())
+		}
+	}
+	mid := (anchor.fp.X0 + anchor.fp.X1) / 2
+	cx := centres(w, mid-w[0]/2, mid+w[0]/2, slotGapX)
+	cy := centres(h, row0.Y0, row0.Y1, slotGapY)
+	for _, s := range slots {
+		// a block narrower than its column keeps to the anchor's side
+		slack := (w[s.col] - s.b.fp.W()) / 2
+		switch {
+		case s.col < 0:
+			s.d.X = math.Round(cx[s.col] + slack - (s.b.fp.X0+s.b.fp.X1)/2)
+		case s.col > 0:
+			s.d.X = math.Round(cx[s.col] - slack - (s.b.fp.X0+s.b.fp.X1)/2)
+		default:
+			s.d.X = math.Round(cx[s.col] - (s.b.fp.X0+s.b.fp.X1)/2)
+		}
+		if s.row != 0 {
+			s.d.Y = math.Round(cy[s.row] - (s.b.fp.Y0+s.b.fp.Y1)/2)
+		}
+	}
+}
+
+// levelWith is how far a block in the anchor's row moves down to put its
+// first pin on one of the anchor's wires level with the anchor's pin
+// there (a grid leak's top on the grid wire); 0, where the generic
+// placement put it, when it has none.
+func (ly *state) levelWith(a *cell, b *block) float64 {
+	for _, cl := range b.cells {
+		for _, p := range cl.shape.Pins {
+			if !ly.anchorNet(a, p.Net) {
+				continue
+			}
+			for _, q := range a.shape.Pins {
+				if q.Net == p.Net {
+					return q.At.Y - p.At.Y
+				}
+			}
+		}
+	}
+	return 0
+}
+
+// centres lays slots of the given sizes out either side of slot 0, which
+// spans lo to hi, each next one gap beyond the last, and gives each slot's
+// centre; an empty slot between takes the gap alone.
+func centres(size map[int]float64, lo, hi, gap float64) map[int]float64 {
+	out := map[int]float64{0: (lo + hi) / 2}
+	up, down := hi, lo
+	for i := 1; i <= slotReach; i++ {
+		out[i] = up + gap + size[i]/2
+		up += gap + size[i]
+		out[-i] = down - gap - size[-i]/2
+		down -= gap + size[-i]
+	}
+	return out
+}
+
+// makeRoom widens the sheet where a template's slots reach past its
+// stage's parts: everything from the stage's left edge on moves right by
+// what the slots need on the left, and everything right of the stage by
+// what they need on the right, so the gaps between stages stay as the
+// generic placement left them.
+func (ly *state) makeRoom(stage int, slots []*slotted, all []*block) {
+	extent, reach := geom.Rect{}, geom.Rect{}
+	for _, b := range all {
+		if ly.blockStage(b) == stage {
+			extent = extent.Union(b.fp)
+		}
+	}
+	for _, s := range slots {
+		reach = reach.Union(s.b.fp.Move(s.d))
+	}
+	if extent == (geom.Rect{}) || reach == (geom.Rect{}) {
+		return
+	}
+	if left := math.Ceil(extent.X0 - reach.X0); left > 0 {
+		for _, b := range all {
+			if b.fp.X0 >= extent.X0 {
+				b.move(geom.Pt{X: left})
+			}
+		}
+		extent = extent.Move(geom.Pt{X: left})
+		reach = reach.Move(geom.Pt{X: left})
+	}
+	if right := math.Ceil(reach.X1 - extent.X1); right > 0 {
+		for _, b := range all {
+			if ly.blockStage(b) != stage && b.fp.X0 >= extent.X1 {
+				b.move(geom.Pt{X: right})
+			}
+		}
+	}
+}
+
+// refuseCollisions refuses the slots that would touch another block or
+// stretch the stage's frame over a part of another stage or none,
+// refusing one at a time, the last listed first, until the rest fit.
+func (ly *state) refuseCollisions(stage int, slots []*slotted, all []*block) {
+	at := func(b *block) geom.Rect {
+		for _, s := range slots {
+			if s.b == b && s.keep {
+				return b.fp.Move(s.d)
+			}
+		}
+		return b.fp
+	}
+	for {
+		frame := geom.Rect{}
+		for _, b := range all {
+			if ly.blockStage(b) == stage {
+				frame = frame.Union(at(b))
+			}
+		}
+		bad := -1
+		for i, s := range slots {
+			if !s.keep {
+				continue
+			}
+			r := at(s.b).Inset(1)
+			for _, o := range all {
+				if o == s.b {
+					continue
+				}
+				other := ly.blockStage(o) != stage
+				if at(o).Overlaps(r) || other && at(o).Overlaps(frame.Inset(framePad+1)) {
+					bad = i
+				}
+			}
+		}
+		if bad < 0 {
+			return
+		}
+		slots[bad].keep = false
+	}
+}
+
+// blockStage is the stage of a block's first part, -1 for none.
+func (ly *state) blockStage(b *block) int {
+	if s, ok := ly.stageOf[b.cells[0].ref]; ok && b.cells[0].edge == 0 {
+		return s
+	}
+	return -1
+}

@@ -1,0 +1,146 @@
+package layout
+
+import (
+	"pare/render/geom"
+	"pare/render/symbol"
+)
+
+// How a stage template orients the parts it places, before it moves them
+// (template.go): each two-terminal part the way its entry stands, its
+// signal pins towards where its neighbours' slots are, and a part beside
+// or below its anchor hanging from the anchor's wire. A part the template
+// then leaves where it was is laid out again without its say.
+
+// stands are the ways the templates ask two-terminal parts to run, by ref.
+func (ly *state) stands() map[string]string {
+	out := map[string]string{}
+	for _, f := range ly.o.Frames {
+		for _, p := range f.Places {
+			if _, ok := out[p.Ref]; !ok && p.Stand != "" && !ly.tplOff[p.Ref] {
+				out[p.Ref] = p.Stand
+			}
+		}
+	}
+	return out
+}
+
+// standOf is how a two-terminal shape runs: "vertical", "horizontal", or
+// "" for any other shape.
+func standOf(s symbol.Shape) string {
+	if len(s.Pins) != 2 {
+		return ""
+	}
+	a, b := s.Pins[0].Dir, s.Pins[1].Dir
+	switch {
+	case (a == geom.Up || a == geom.Down) && (b == geom.Up || b == geom.Down):
+		return "vertical"
+	case (a == geom.Left || a == geom.Right) && (b == geom.Left || b == geom.Right):
+		return "horizontal"
+	}
+	return ""
+}
+
+// tplSlot is where a stage template puts a part: the column (its anchor's
+// plus its slot's) and the row of its slot, and its anchor.
+type tplSlot struct {
+	col    float64
+	row    int
+	anchor *cell
+}
+
+// templateSlots is, per ref a stage template places, its slot: the side
+// of its neighbours it will stand on and the wire it hangs from, which its
+// orientation is chosen for (orient.go) before the template moves it.
+func (ly *state) templateSlots() map[string]tplSlot {
+	byRef := map[string]*cell{}
+	for _, cl := range ly.cells {
+		byRef[cl.ref] = cl
+	}
+	out := map[string]tplSlot{}
+	for _, f := range ly.o.Frames {
+		for _, p := range f.Places {
+			a := byRef[p.Anchor]
+			if _, done := out[p.Ref]; a == nil || done || p.Ref == p.Anchor || ly.tplOff[p.Ref] {
+				continue
+			}
+			out[p.Ref] = tplSlot{col: float64(a.col + p.Col), row: p.Row, anchor: a}
+		}
+	}
+	return out
+}
+
+// slotNets sums, per net, the columns of the parts on it, pin by pin as
+// netColumns counts them, a templated part's at its slot's column.
+func (ly *state) slotNets() map[string]float64 {
+	sum := map[string]float64{}
+	for _, cl := range ly.cells {
+		c := float64(cl.col)
+		if t, ok := ly.slot[cl.ref]; ok {
+			c = t.col
+		}
+		for _, pn := range cl.part.Pins {
+			if pn.Net != notConnected {
+				sum[pn.Net] += c
+			}
+		}
+	}
+	return sum
+}
+
+// hangScore favours, for a part its template stands upright beside or
+// below its anchor, the turn whose pin on one of the anchor's wires points
+// up to it (down to it from a row above): the part hangs from the wire
+// into the grid, or rises from the tank to it, as drawn in the trade.
+func (ly *state) hangScore(cl *cell, s symbol.Shape) float64 {
+	t, ok := ly.slot[cl.ref]
+	if !ok || standOf(s) != "vertical" {
+		return 0
+	}
+	want := geom.Up
+	if t.row < 0 {
+		want = geom.Down
+	}
+	for _, p := range s.Pins {
+		if p.Dir == want && ly.anchorNet(t.anchor, p.Net) {
+			return 3
+		}
+	}
+	return 0
+}
+
+// anchorNet says whether net is a wired net of the anchor's.
+func (ly *state) anchorNet(a *cell, net string) bool {
+	if net == "" || net == notConnected || ly.c.RoleOf(net).IsACGround() {
+		return false
+	}
+	for _, pn := range a.part.Pins {
+		if pn.Net == net {
+			return true
+		}
+	}
+	return false
+}
+
+// templateMisses are the refs a template would orient that it left where
+// the generic placement put them (its slot refused, its block shared with
+// a part the template does not place), with those already left out: they
+// are oriented as the generic placement would orient them.
+func (ly *state) templateMisses() map[string]bool {
+	var miss []string
+	for ref := range ly.slot {
+		if !ly.tplMoved[ref] {
+			miss = append(miss, ref)
+		}
+	}
+	if len(miss) == 0 {
+		return nil
+	}
+	out := map[string]bool{}
+	for r := range ly.tplOff {
+		out[r] = true
+	}
+	for _, r := range miss {
+		out[r] = true
+	}
+	return out
+}
