@@ -235,16 +235,26 @@ func (rt *router) ripUp(id int) {
 }
 
 // searchMargins are the windows a connection is searched in, round the
-// tree's and the pin's box: near first, then wider, then the whole sheet.
+// tree's and the pin's box: near first, then wider, then about a page
+// round it (the whole sheet of a sheet no bigger). Never the whole of a
+// large sheet: a connection that no page-sized window round its own pins
+// holds is better drawn as a pair of net-name flags than as a wire across
+// the sheet, and a failed search over the whole grid of a whole set costs
+// as much as routing a stage (docs/performance.md, "Whole sets").
 func (rt *router) searchMargins() []int {
 	if !rt.wide {
-		return []int{6, 20, 1 << 20}
+		return []int{6, 20, pageMargin}
 	}
 	if len(rt.ly.cells) <= 300 {
 		return []int{12, 40} // small sheets can afford to look far
 	}
 	return []int{12}
 }
+
+// pageMargin is the widest margin a connection is searched in, in grid
+// units: half an A3 sheet's printable width at the smallest text (render's
+// pages), so the widest window is at least a page across.
+const pageMargin = 68
 
 // routeNet grows the net's tree from its first pin, joining the nearest
 // pending pin each time. Whether a pin is faded plays no part: the faded view
