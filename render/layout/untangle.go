@@ -16,10 +16,7 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	defer scratchPool.Put(sc)
 	u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: sc}
 	best := u.layout(nil, false)
-	u.budget = untangleBudget
-	if best.crossings <= fewCrossings {
-		u.budget = max(untangleBudget, untangleLayouts*best.w.pops)
-	}
+	u.plan(best)
 	if best.crossings > 0 && o.Untangle && len(best.ly.cells) <= maxRetryCells {
 		best = u.untangle(best)
 	}
@@ -31,12 +28,25 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 // stamping a new generation, so nothing left in it can be read again.
 var scratchPool = sync.Pool{New: func() any { return new(scratch) }}
 
+// plan sets the search's work budget from the plain layout: untangleBudget,
+// or for a sheet with few crossings untangleLayouts layouts the plain
+// one's size.
+func (u *untangler) plan(plain *routed) {
+	u.budget = untangleBudget
+	if plain.crossings <= fewCrossings {
+		u.budget = max(untangleBudget, untangleLayouts*plain.w.pops)
+	}
+}
+
 // untangle looks for a layout with fewer crossings than the plain one.
 func (u *untangler) untangle(plain *routed) *routed {
 	// Crossings left after rerouting come from the placement. The layout
 	// with every part lined up along its nets (rather than the signal path
 	// on one line) is the first thing to try: when it has no crossing it
 	// is taken as it is.
+	if u.pops > 2*u.budget {
+		return plain // a sheet whose plain layout alone is more than its search may spend
+	}
 	lined := u.layout(nil, true)
 	if lined.crossings == 0 {
 		return lined
@@ -54,6 +64,9 @@ func (u *untangler) untangle(plain *routed) *routed {
 	// the other order, shortest first: on a sheet crowded with long nets
 	// that often leaves far fewer crossings (a short net has few ways to
 	// go, a long one can go round).
+	if u.pops > 2*u.budget {
+		return best
+	}
 	u.shortFirst = true
 	if r := u.layout(nil, lined.crossings < plain.crossings); r.crossings < best.crossings {
 		best = r

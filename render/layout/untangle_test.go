@@ -87,7 +87,9 @@ func TestSamplerRoutesOnce(t *testing.T) {
 	c := loadFixture(t, "../testdata/all-symbols.toml")
 	o := reducedOptions(c, 0)
 	u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: new(scratch)}
-	best := u.untangle(u.layout(nil, false))
+	plain := u.layout(nil, false)
+	u.plan(plain)
+	best := u.untangle(plain)
 	if len(u.seen) > 6 {
 		t.Errorf("%d placements routed; the budget allows a few", len(u.seen))
 	}
