@@ -223,6 +223,9 @@ func (cfg Config) FprintFit(s *Sheet, p *Paper, widths float64) ([]byte, bool, e
 	if cfg.Grid <= 0 {
 		cfg.Grid = 10
 	}
+	if s != nil && s.Circuit != nil && placedTooBig(s, cfg.options(s), p, widths) {
+		return nil, false, nil
+	}
 	r, err := cfg.layout(s)
 	if err != nil {
 		return nil, false, err
@@ -233,6 +236,20 @@ func (cfg Config) FprintFit(s *Sheet, p *Paper, widths float64) ([]byte, bool, e
 	cw, ch := p.content()
 	d.draw()
 	return buf.Bytes(), pg.W <= widths*cw && pg.H <= ch, nil
+}
+
+// placedTooBig says whether the sheet's parts, placed but not yet routed,
+// already take more than widths of paper p side by side or more than its
+// height, by more than rowSlack: routing only adds to a sheet, so it could
+// not fit, and a whole set's sheet (hundreds of parts, routed only to be
+// cut into rows after) is not routed at all.
+func placedTooBig(s *Sheet, o layout.Options, p *Paper, widths float64) bool {
+	b := geom.Rect{}
+	for _, r := range layout.Extents(s.Circuit, o) {
+		b = b.Union(r) // min and max: the map's order does not matter
+	}
+	cw, ch := p.content()
+	return b.W() > widths*cw+rowSlack || b.H() > ch+rowSlack
 }
 
 type drawer struct {
