@@ -44,8 +44,10 @@ func (u *untangler) untangle(plain *routed) *routed {
 	// with every part lined up along its nets (rather than the signal path
 	// on one line) is the first thing to try: when it has no crossing it
 	// is taken as it is.
-	if u.pops > 2*u.budget {
-		return plain // a sheet whose plain layout alone is more than its search may spend
+	if u.pops > u.budget {
+		// a crowded sheet whose plain layout alone took more than the
+		// search may spend (a long row of a whole set): routed once
+		return plain
 	}
 	lined := u.layout(nil, true)
 	if lined.crossings == 0 {
@@ -65,7 +67,7 @@ func (u *untangler) untangle(plain *routed) *routed {
 	// that often leaves far fewer crossings (a short net has few ways to
 	// go, a long one can go round).
 	if u.pops > 2*u.budget {
-		return best
+		return best // the search and the lined-up layout took twice the budget
 	}
 	u.shortFirst = true
 	if r := u.layout(nil, lined.crossings < plain.crossings); r.crossings < best.crossings {
