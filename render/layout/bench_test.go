@@ -3,6 +3,8 @@ package layout
 import (
 	"fmt"
 	"path/filepath"
+	"regexp"
+	"slices"
 	"strings"
 	"syscall"
 	"testing"
@@ -118,6 +120,63 @@ func BenchmarkSynth(b *testing.B) {
 			benchLayout(b, bank, Options{Links: true})
 		})
 	}
+}
+
+// BenchmarkBankChannels: a receiver bank of about 2,000 parts routed as
+// the pages of a whole set are, each channel a sheet of its own (full view,
+// gang links): the total for the bank, which should grow with the number
+// of channels and stay under a second of CPU at 2,000 parts.
+func BenchmarkBankChannels(b *testing.B) {
+	src, err := synth.Bank(2000, 1)
+	if err != nil {
+		b.Fatal(err)
+	}
+	bank, err := graph.Parse("bank.toml", src)
+	if err != nil {
+		b.Fatal(err)
+	}
+	sheets := channelSheets(bank)
+	b.ResetTimer()
+	c0 := cpuNow()
+	for i := 0; i < b.N; i++ {
+		for _, c := range sheets {
+			if _, err := Layout(c, Options{Links: true}); err != nil {
+				b.Fatal(err)
+			}
+		}
+	}
+	b.ReportMetric(float64(cpuNow()-c0)/1e6/float64(b.N), "cpu-ms/op")
+	b.ReportMetric(float64(len(sheets)), "sheets")
+}
+
+// channelSheets cuts a synthetic bank into its channels: a part's channel
+// is its number's hundreds (synth numbers R4 of channel 3 as R304).
+func channelSheets(bank *graph.Circuit) []*graph.Circuit {
+	num := regexp.MustCompile(`^[A-Za-z]+(\d+)`)
+	chanOf := func(ref string) string {
+		m := num.FindStringSubmatch(ref)
+		if m == nil || len(m[1]) < 3 {
+			return ""
+		}
+		return m[1][:len(m[1])-2]
+	}
+	var keys []string
+	for _, p := range bank.Parts {
+		if k := chanOf(p.Ref); !slices.Contains(keys, k) {
+			keys = append(keys, k)
+		}
+	}
+	var out []*graph.Circuit
+	for _, k := range keys {
+		c := bank.Clone()
+		for _, p := range bank.Parts {
+			if chanOf(p.Ref) != k {
+				c.RemovePart(p.Ref)
+			}
+		}
+		out = append(out, c)
+	}
+	return out
 }
 
 // stageChain builds a chain of RC-coupled common-cathode triode stages
