@@ -212,3 +212,21 @@ func TestRowsFillThePage(t *testing.T) {
 		}
 	}
 }
+
+// TestFitDoesNotRouteWhatCannotFit: a sheet whose parts, placed but not
+// routed, are already wider than the paper widths allowed is reported as
+// not fitting without being routed and drawn (no bytes): the main job's
+// one-sheet try of a whole set's sheet routed hundreds of parts only to
+// cut them into rows after. A sheet that fits is drawn as before.
+func TestFitDoesNotRouteWhatCannotFit(t *testing.T) {
+	a4 := &Papers[0]
+	cfg := Config{}
+	one, fits, err := cfg.FprintFit(chainSheet(40), a4, 1)
+	if err != nil || fits || one != nil {
+		t.Errorf("240 parts on one A4 width: %d bytes, fits %v, %v; want no drawing, not fitting", len(one), fits, err)
+	}
+	one, fits, err = cfg.FprintFit(chainSheet(1), a4, 1)
+	if err != nil || !fits || len(one) == 0 {
+		t.Errorf("one stage on A4: %d bytes, fits %v, %v; want a drawing that fits", len(one), fits, err)
+	}
+}

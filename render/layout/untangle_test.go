@@ -98,3 +98,28 @@ func TestSamplerRoutesOnce(t *testing.T) {
 		t.Error("two runs of the search differ")
 	}
 }
+
+// TestCrowdedSheetRoutedOnce: a sheet whose plain layout alone took more
+// than the search's budget (here a budget of one state, standing in for a
+// long crowded row of a whole set) is routed once: the lined-up and the
+// shortest-first layouts are not begun. With room in the budget both are.
+func TestCrowdedSheetRoutedOnce(t *testing.T) {
+	c := loadFixture(t, "../testdata/all-symbols.toml")
+	o := reducedOptions(c, 0)
+	for _, tc := range []struct {
+		budget, want int
+	}{
+		{1, 1},              // over budget after the plain layout: that one only
+		{untangleBudget, 3}, // as Layout runs it: plain, lined up, shortest first
+	} {
+		u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: new(scratch), budget: tc.budget}
+		plain := u.layout(nil, false)
+		if plain.crossings == 0 {
+			t.Fatal("the sampler's plain layout has no crossing; the test needs one")
+		}
+		u.untangle(plain)
+		if len(u.seen) != tc.want {
+			t.Errorf("budget %d: %d placements routed, want %d", tc.budget, len(u.seen), tc.want)
+		}
+	}
+}
