@@ -39,9 +39,14 @@ const (
 	// series heater chain, a rectifier on the mains input, or a mains input
 	// that feeds no transformer (an AC/DC or "universal" set).
 	LiveChassis
+	// BatteryValve: valves, every source a battery (the netlist names a
+	// battery), and nothing from the mains: no mains input or transformer,
+	// no rectifier, no heater chain. Its HT (45–135 V) can still shock,
+	// and HT on the filament line blows every valve.
+	BatteryValve
 )
 
-var classNames = [...]string{Unknown: "unknown", Battery: "battery", MainsHT: "mains-ht", LiveChassis: "live-chassis"}
+var classNames = [...]string{Unknown: "unknown", Battery: "battery", MainsHT: "mains-ht", LiveChassis: "live-chassis", BatteryValve: "battery-valve"}
 
 // String gives the class's name as tests and JSON show it.
 func (c Class) String() string {
@@ -86,6 +91,7 @@ type evidence struct {
 	hot                         map[string]bool // nets at HT: rails above LowVolts, rectifier cathodes
 	hotHeaters                  []string        // heater windings on a hot net
 	acdc                        []string        // labels that say AC/DC outright
+	batteries                   []string        // nets, ports and parts a label calls a battery
 	maxVolts                    float64
 }
 
@@ -107,6 +113,11 @@ func Assess(c *graph.Circuit) Assessment {
 			group{"said AC/DC by", ev.acdc}, group{"series heaters:", ev.chain},
 			group{"rectifier(s) on the mains:", ev.mainsRectifiers}, group{"mains input(s) with no mains transformer:", unfed},
 			group{"valve(s)", ev.valves}, group{"rail(s) above 50 V:", ev.highRails})
+	case len(ev.valves) > 0 && len(ev.batteries) > 0 && len(ev.mainsInputs)+len(ev.mainsTransformers)+len(ev.rectifiers) == 0:
+		a.Class = BatteryValve
+		a.Evidence = summary(
+			group{"valve(s)", ev.valves}, group{"battery source(s):", ev.batteries})
+		a.Evidence = append(a.Evidence, "no mains input, mains transformer or rectifier")
 	case len(ev.valves)+len(ev.highRails)+len(ev.mainsInputs)+len(ev.mainsTransformers)+len(ev.rectifiers) > 0:
 		a.Class = MainsHT
 		a.Evidence = summary(
@@ -169,6 +180,9 @@ func collect(c *graph.Circuit) *evidence {
 		if saysACDC(p.Label) {
 			ev.acdc = append(ev.acdc, p.Ref)
 		}
+		if (p.Kind == graph.Port || p.Kind == graph.Generic) && batteryWord.MatchString(p.Label) {
+			ev.batteries = append(ev.batteries, p.Ref)
+		}
 	}
 	for _, n := range c.Nets {
 		if n.Role == graph.Supply || n.Role == graph.Bias || n.Role == graph.Heater {
@@ -183,6 +197,9 @@ func collect(c *graph.Circuit) *evidence {
 		}
 		if saysACDC(n.Label) {
 			ev.acdc = append(ev.acdc, "net "+n.Name)
+		}
+		if n.Role != graph.Signal && (batteryWord.MatchString(n.Name) || batteryWord.MatchString(n.Label)) {
+			ev.batteries = append(ev.batteries, "net "+n.Name)
 		}
 	}
 	if saysACDC(c.Title) {
@@ -397,6 +414,9 @@ var (
 	mainsAC             = regexp.MustCompile(`(?i)\b(\d{3})\s*v\s*(~|ac\b|a\.c\.)`)
 	offSheetTransformer = regexp.MustCompile(`(?i)transformer`)
 	acdcWord            = regexp.MustCompile(`(?i)\bac\s*[/-]\s*dc\b|\buniversal\b`)
+	// batteryWord finds a battery named as a source ("HT +90 V battery",
+	// "LT cell", "B+ batt"); a battery set's supplies say so.
+	batteryWord = regexp.MustCompile(`(?i)\bbatt(ery|eries)?\b|\bcells?\b`)
 )
 
 func saysMains(s string) bool {

@@ -124,6 +124,18 @@ func TestAssess(t *testing.T) {
 		{name: "mains stopped by a lamp", text: strings.NewReplacer(`d = "mains_n"`, `d = "nc"`, `"fuse 1 A"`, `"dial lamp"`).Replace(switchedNet),
 			want: LiveChassis, because: "mains inputs"},
 		{name: "the whole club receiver", file: "examples/club-receiver.toml", want: MainsHT, because: "mains transformer T9"},
+		// A valve set whose HT rail is called a battery and nothing comes
+		// from the mains: the battery valve caution, not the mains one.
+		{name: "battery valve portable", file: "testdata/good/review17-battery.toml", want: BatteryValve, because: "battery sources: B1, B2, net ht"},
+		{name: "battery valve strip", text: strings.Replace(parallelNet, "[parts]", "[nets]\nht = { role = \"supply\", volts = 90, label = \"HT battery\" }\n[parts]", 1),
+			want: BatteryValve, because: "no mains input, mains transformer or rectifier"},
+		// Near misses: a battery named but a mains transformer (a mains /
+		// battery set) or a rectifier on the HT: the mains caution stays.
+		{name: "battery named beside a mains transformer", text: strings.NewReplacer("[nets]\n", "[nets]\nlt = { role = \"heater\", volts = 1.4, label = \"LT cell\" }\n",
+			"[parts]\n", "[parts]\nV1 = { valve = \"triode\", pins = { a = \"out\", g1 = \"in\", k = \"gnd\", h1 = \"lt\", h2 = \"gnd\" } }\n").Replace(switchedNet),
+			want: MainsHT, because: "mains transformer T1"},
+		{name: "battery named, AC/DC chain", text: strings.Replace(chainNet, "[parts]", "[nets]\nht = { role = \"supply\", volts = 90, label = \"HT battery\" }\n[parts]", 1),
+			want: LiveChassis, because: "series heaters"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			var c *graph.Circuit

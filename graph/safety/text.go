@@ -121,7 +121,7 @@ const (
 // line about the reduced diagram does not apply to a chart of the whole
 // set).
 func (c Caution) Readings() []string {
-	if c.Class == Battery {
+	if c.Class == Battery || c.Class == BatteryValve {
 		return c.live(batteryLiveLine)
 	}
 	return c.live(liveLine)
@@ -205,6 +205,20 @@ var texts = [...]classText{
 		},
 		sheet:    "Caution: battery set ({volts} V): low voltage, but check any mains adaptor or bench supply before connecting and never short the battery. Follow local codes and licensed practice.",
 		sentence: "A battery set is low voltage, but a mains adaptor or bench supply can be faulty and a shorted battery can burn: check the supply before connecting and follow local codes and licensed practice.",
+	},
+	BatteryValve: {
+		heading: "Caution: a battery valve set: its HT battery can shock and burn, and HT reaching the filament line blows every valve.",
+		// Common practice for battery valve sets (docs/references.md §9):
+		// the HT battery is the hazard to the worker, the 1.4 V filaments
+		// the hazard to the set.
+		lines: []string{
+			"The HT battery ({volts} V here) can give a shock and, shorted by a probe or a solder bridge, burns: treat its leads as live HT and work one-handed.",
+			"Disconnect the HT battery before you work on the set or solder. To power up, connect the LT (filament) battery first and the HT last; disconnect the HT first.",
+			"HT reaching the filament line (a plug in the wrong socket, a slipped probe, a shorted capacitor) blows every valve's filament at once: check the battery plugs and leads with a meter before you connect them.",
+			"A mains HT/LT supply used in place of the batteries is mains equipment: check it and its output voltages before connecting.",
+		},
+		sheet:    "Caution: battery valve set ({volts} V HT): the HT can shock, and HT on the filament line blows every valve. Disconnect the HT battery before working; follow local codes and licensed practice.",
+		sentence: "A battery valve set's HT battery can shock and burn, and HT reaching the filament line blows every valve: disconnect the HT battery before working and follow local codes and licensed practice.",
 	},
 	Unknown: {
 		heading: "Caution: the netlist does not show what powers this set; treat it as mains-powered equipment, which can kill.",
