@@ -287,9 +287,10 @@ func seriesAtten(s *graph.Part, c, f float64) (float64, bool) {
 
 // rippleSource is the ripple frequency of the set's supply and the words
 // that say where it comes from: the mains frequency a transformer declares
-// (hz), else 50 Hz assumed; twice it where the rectifier is full-wave (two
-// or more diode paths into a reservoir), once for half-wave. ok is false
-// for a set with no rectifier (a battery set has no ripple).
+// (hz), else 50 Hz assumed; twice it where the rectifier is full-wave (a
+// centre-tapped pair or a bridge), once for half-wave (rectWave reads
+// which from the wiring). ok is false for a set with no rectifier (a
+// battery set has no ripple).
 func (x *figCtx) rippleSource() (float64, string, bool) {
 	mains, said := 50.0, "50 Hz mains assumed (the set declares none)"
 	for _, p := range x.w.c.Parts {
@@ -298,30 +299,84 @@ func (x *figCtx) rippleSource() (float64, string, bool) {
 			break
 		}
 	}
-	paths, rect := 0, ""
+	wave, rect := x.rectWave()
+	switch wave {
+	case noRectifier:
+		return 0, "", false
+	case halfWave:
+		return mains, fmt.Sprintf("half-wave rectifier %s (one anode path, one pulse per mains cycle), %s", rect, said), true
+	case bridgeWave:
+		return 2 * mains, fmt.Sprintf("bridge rectifier %s, %s", rect, said), true
+	}
+	return 2 * mains, fmt.Sprintf("full-wave rectifier %s (two anodes on the winding's ends), %s", rect, said), true
+}
+
+// A rectifier's wiring, as rectWave reads it.
+type waveKind int
+
+const (
+	noRectifier waveKind = iota
+	halfWave             // one anode path into the reservoir: one pulse per mains cycle
+	fullWave             // two anodes on the two ends of a centre-tapped winding
+	bridgeWave           // two paths in and two return diodes from chassis
+)
+
+// rectWave reads how the rectifier is wired, never its part's type: the
+// distinct nets that feed a reservoir through a junction (a diode, or each
+// anode of a valve diode; anodes strapped together are one path, and a
+// valve's heater pins are no path at all) are its sources. One source is
+// half-wave; two are full-wave, a bridge when two more junctions return
+// from chassis to those sources. ref is the first rectifier found.
+func (x *figCtx) rectWave() (waveKind, string) {
+	type junction struct{ a, k int }
+	var all []junction
+	sources, ref := map[int]bool{}, ""
 	for ci, p := range x.w.parts {
-		n := 0
-		switch {
-		case p.Kind == graph.Diode:
-			n = 1
-		case p.Kind == graph.Valve && isValveDiode(p):
-			n = len(p.Pins) - 1 // its anodes; the cathode (or filament) is the rest
-		}
-		if n == 0 || !x.onReservoir(ci) {
+		if !(p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p)) {
 			continue
 		}
-		paths += n
-		if rect == "" {
-			rect = p.Ref
+		k, anodes := -1, []int{}
+		for j, pin := range p.Pins {
+			switch pin.Name {
+			case "k":
+				k = x.w.pins[ci][j]
+			case "a", "a1", "a2":
+				anodes = append(anodes, x.w.pins[ci][j])
+			}
+		}
+		for _, a := range anodes {
+			all = append(all, junction{a, k})
+			src := -1
+			switch {
+			case k >= 0 && x.isReservoir(k):
+				src = a // a positive supply: the cathode charges the reservoir
+			case x.isReservoir(a):
+				src = k // a negative supply: the anode draws it down
+			}
+			if src >= 0 && src != groundNet {
+				sources[src] = true
+				if ref == "" {
+					ref = p.Ref
+				}
+			}
 		}
 	}
 	switch {
-	case paths == 0:
-		return 0, "", false
-	case paths == 1:
-		return mains, fmt.Sprintf("half-wave rectifier %s, %s", rect, said), true
+	case len(sources) == 0:
+		return noRectifier, ""
+	case len(sources) == 1:
+		return halfWave, ref
 	}
-	return 2 * mains, fmt.Sprintf("full-wave rectifier %s, %s", rect, said), true
+	returns := 0
+	for _, j := range all {
+		if j.a == groundNet && sources[j.k] || j.k == groundNet && sources[j.a] {
+			returns++
+		}
+	}
+	if returns >= 2 {
+		return bridgeWave, ref
+	}
+	return fullWave, ref
 }
 
 // reservoirMin is the least capacitance that makes a rectifier's load a
@@ -329,18 +384,16 @@ func (x *figCtx) rippleSource() (float64, string, bool) {
 // practice.
 const reservoirMin = 1e-6
 
-// onReservoir tells whether a diode has a terminal on a net with a
-// reservoir-sized capacitor to chassis.
-func (x *figCtx) onReservoir(ci int) bool {
-	for _, id := range x.w.pins[ci] {
-		if id == groundNet {
-			continue
-		}
-		for _, cj := range x.w.conns[id] {
-			q := x.w.parts[cj]
-			if q.Kind == graph.Capacitor && q.Value.Max >= reservoirMin && slicesHas(x.w.pins[cj], groundNet) {
-				return true
-			}
+// isReservoir tells whether id (not chassis) has a reservoir-sized
+// capacitor to chassis.
+func (x *figCtx) isReservoir(id int) bool {
+	if id == groundNet {
+		return false
+	}
+	for _, cj := range x.w.conns[id] {
+		q := x.w.parts[cj]
+		if q.Kind == graph.Capacitor && q.Value.Max >= reservoirMin && slicesHas(x.w.pins[cj], groundNet) {
+			return true
 		}
 	}
 	return false
