@@ -164,7 +164,7 @@ func paramUnit(name string) value.Unit {
 		return value.Siemens
 	case "ra", "rd", "ro", "rpi", "rm", "rdc", "leak":
 		return value.Ohm
-	case "ic", "ia", "idss", "is":
+	case "ic", "ia", "idss", "is", "ih":
 		return value.Ampere
 	case "vbe", "vp", "vf", "vth", "vac", "vknee":
 		return value.Volt

@@ -180,7 +180,9 @@ var paramNames = map[Kind][]string{
 	// rd, off, perveance: a valve diode's; mu2, share, vknee: a screen-grid
 	// valve's DC law; kg: grid current; gmo: a pentagrid converter's g1-to-g2
 	// transconductance (loadpart.go checks which).
-	Valve:       {"gm", "gmo", "ra", "mu", "rd", "off", "ia", "pmax", "mu2", "share", "vknee", "kg", "perveance"},
+	// ih: the heater's rated current (graph/dc: a series heater chain's
+	// dropper).
+	Valve:       {"gm", "gmo", "ra", "mu", "rd", "off", "ia", "pmax", "mu2", "share", "vknee", "kg", "perveance", "ih"},
 	BJT:         {"beta", "ic", "gm", "ro", "rpi", "vbe"},
 	FET:         {"gm", "rd", "idss", "vp", "vth", "k"}, // idss, vp: JFET; vth, k: MOSFET (loadpart.go checks which)
 	Diode:       {"rd", "off", "vf", "n", "is"},         // n, is: the Shockley law's ideality and saturation current (graph/dc)

@@ -134,11 +134,7 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 	if len(ch.Currents) > 0 {
 		fmt.Fprintln(w, "\ncurrents")
 		for _, c := range ch.Currents {
-			a := amps(c.Amps)
-			if c.Unknown != "" {
-				a = c.Unknown
-			}
-			fmt.Fprintf(w, "  %-6s %-18s %s\n", c.Ref, c.What, a)
+			fmt.Fprintf(w, "  %-6s %-18s %s\n", c.Ref, c.What, amps(c.Amps))
 		}
 	}
 	if len(ch.Resistors) > 0 {
@@ -148,7 +144,11 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 			if h.Rating > 0 {
 				rating = fmt.Sprintf("rated %.3g W", h.Rating)
 			}
-			fmt.Fprintf(w, "  %-6s %10s   %s\n", h.Ref, watts(h.Watts), rating)
+			note := ""
+			if h.Note != "" {
+				note = "   " + h.Note
+			}
+			fmt.Fprintf(w, "  %-6s %10s   %s%s\n", h.Ref, watts(h.Watts), rating, note)
 		}
 	}
 	if len(ch.Warnings) > 0 {

@@ -52,10 +52,6 @@ type DevCurrent struct {
 	Ref  string  `json:"ref"`
 	What string  `json:"what"`
 	Amps float64 `json:"amps"`
-	// Unknown says why the current is not computed (Amps is then 0): a
-	// rectifier into a declared rail conducts in pulses from an AC winding
-	// the DC solve does not see.
-	Unknown string `json:"not_computed,omitempty"`
 }
 
 // Heat is the power in a resistor against its rating (0 when not given).
@@ -63,6 +59,9 @@ type Heat struct {
 	Ref    string  `json:"ref"`
 	Watts  float64 `json:"watts"`
 	Rating float64 `json:"rating,omitempty"`
+	// Note says where Watts come from when not from the DC solve: a
+	// resistor in a heater chain (heaterchain.go), or why they are unknown.
+	Note string `json:"note,omitempty"`
 }
 
 // electrode names test points in the trade's words.
@@ -162,7 +161,14 @@ func (p *Point) chartPart(ch *Chart, part *graph.Part, mt Meter) error {
 			w = pd.Watts
 		}
 		rating, _ := part.Param("watts")
-		ch.Resistors = append(ch.Resistors, Heat{Ref: part.Ref, Watts: w, Rating: rating})
+		h := Heat{Ref: part.Ref, Watts: w, Rating: rating}
+		if part.Kind == graph.Resistor {
+			if hw, note, ok := p.heaterChainHeat(part); ok {
+				h.Watts, h.Note = w+hw, note
+				w = h.Watts
+			}
+		}
+		ch.Resistors = append(ch.Resistors, h)
 		if rating > 0 && w > rating {
 			ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s dissipates %.3g W against its %.3g W rating", part.Ref, w, rating))
 		}
@@ -189,10 +195,12 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 		}
 		return
 	}
-	if why := p.unsolvedRectifier(part); why != "" {
-		for _, pin := range []string{"a", "a1", "a2"} {
-			if part.Pin(pin) != nil {
-				ch.Currents = append(ch.Currents, DevCurrent{Ref: part.Ref, What: plainCurrentLabel[pin], Unknown: why})
+	if shares, ok := p.railFedShare(part); ok {
+		// A rectifier into a declared rail: its mean is the rail's draw
+		// (railfed.go), not the solve's 0 A, which reads as a dead rectifier.
+		for _, pin := range rectAnodes {
+			if amps, ok := shares[pin]; ok {
+				ch.Currents = append(ch.Currents, DevCurrent{Ref: part.Ref, What: drawCurrentLabel[part.Kind][pin], Amps: amps})
 			}
 		}
 		return
@@ -234,8 +242,12 @@ var rectCurrentLabel = map[graph.Kind]map[string]string{
 	graph.Diode: {"a": "forward, mean (est.)"},
 }
 
-// plainCurrentLabel names a junction's current the DC solve gives.
-var plainCurrentLabel = map[string]string{"a": "anode current", "a1": "anode 1 current", "a2": "anode 2 current"}
+// drawCurrentLabel names a rectifier junction's mean current taken from
+// the declared rail's draw.
+var drawCurrentLabel = map[graph.Kind]map[string]string{
+	graph.Valve: {"a": "anode, mean (draw)", "a1": "anode 1, mean (draw)", "a2": "anode 2, mean (draw)"},
+	graph.Diode: {"a": "forward, mean (draw)"},
+}
 
 // rectifierShare is the mean current of each junction of a rectifier
 // part: the estimated rail's load, shared between the two conducting

@@ -1,8 +1,6 @@
 package dc
 
 import (
-	"fmt"
-
 	"pare/graph"
 )
 
@@ -140,27 +138,4 @@ func (p *Point) PositiveEarth() bool {
 		n++
 	}
 	return n > 0
-}
-
-// unsolvedRectifier says why a rectifier's current is not computed, or ""
-// when it is: a diode or valve diode with an anode on a transformer winding
-// and its cathode on a declared rail rectifies mains in pulses the DC solve
-// cannot see (the winding is a resistor to it), and no estimate gives its
-// mean: the solve's 0 A would read as a dead rectifier.
-func (p *Point) unsolvedRectifier(part *graph.Part) string {
-	if part.Kind != graph.Diode && (part.Kind != graph.Valve || part.IsActive()) {
-		return ""
-	}
-	k := part.NetOf("k")
-	if k == "" || p.Circuit.RoleOf(k) != graph.Supply || p.m.netTerm[k] >= 0 || p.estimateFor(k) != nil {
-		return ""
-	}
-	for _, an := range []string{"a", "a1", "a2"} {
-		for _, c := range p.Circuit.ConnsOf(part.NetOf(an)) {
-			if c.Part.Kind == graph.Transformer {
-				return fmt.Sprintf("not computed: %s rectifies %s's AC into the declared rail %s (give %s its vac for an estimate)", part.Ref, c.Part.Ref, k, c.Part.Ref)
-			}
-		}
-	}
-	return ""
 }
