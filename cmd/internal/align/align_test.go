@@ -285,7 +285,7 @@ func TestHints(t *testing.T) {
 		want, not map[string]string // fault → stages
 	}{
 		{"if-detector-audio",
-			map[string]string{"detuned IF transformer (cores moved, a tuning capacitor gone low)": "S1, S2", "open cathode or emitter bypass": "S7", "leaky coupling capacitor": "S6, S8"},
+			map[string]string{"detuned IF transformer (cores moved, a tuning capacitor gone low)": "S1, S2", "open cathode or emitter bypass": "S8", "leaky coupling capacitor": "S7, S9"},
 			nil},
 		{"frequency-changer",
 			map[string]string{"dead oscillator": "S2", "detuned IF transformer (cores moved, a tuning capacitor gone low)": "S2.2"},
