@@ -158,6 +158,9 @@ type Result struct {
 	// circuit that makes its own signal needs no input): they do not fail
 	// `check --strict`.
 	Notes graph.ErrorList
+	// Retuned are the declared bands a switch setting moved to the tanks
+	// it switches in (graph.RetuneBands): the proof sweeps those.
+	Retuned []graph.Retuned
 
 	Level   rules.Level
 	Reduced *graph.Circuit
@@ -204,12 +207,14 @@ func Run(o Options) (*Result, error) {
 	if err != nil {
 		return r, &Error{Phase: PhaseLoad, Err: err}
 	}
+	was := setAt(c)
 	if err := setPositions(c, o.Positions); err != nil {
 		return r, &Error{Phase: PhaseLoad, Err: err}
 	}
 	if err := applySwitches(c, o.Path, o.Switches); err != nil {
 		return r, &Error{Phase: PhaseLoad, Err: err}
 	}
+	r.Retuned = c.RetuneBands(was)
 	r.Circuit, r.Title, r.Caution = c, c.Title, safety.For(c)
 	if r.Title == "" {
 		r.Title = filepath.Base(o.Path)
@@ -290,6 +295,11 @@ func (r *Result) verify(o Options) error {
 	}
 	r.Verified = true
 	r.Report, r.CompareErr = r.compare(r.Circuit, r.Reduced, nil)
+	if r.Report != nil {
+		for _, t := range r.Retuned {
+			r.Report.Notes = append(r.Report.Notes, t.String())
+		}
+	}
 	return nil
 }
 
@@ -317,6 +327,17 @@ func (r *Result) compare(orig, reduced *graph.Circuit, memo *ac.Memo) (*ac.Repor
 	o := r.Compare
 	o.Memo = memo
 	return ac.Compare(orig, reduced, o)
+}
+
+// setAt records each switch's position as the netlist sets it.
+func setAt(c *graph.Circuit) map[string]int {
+	out := map[string]int{}
+	for _, p := range c.Parts {
+		if p.Kind == graph.Switch {
+			out[p.Ref] = int(p.Set)
+		}
+	}
+	return out
 }
 
 // setPositions turns each named switch to its position.

@@ -66,3 +66,36 @@ func TestParseSwitchSetting(t *testing.T) {
 		}
 	}
 }
+
+// With the wavechange switch on LW the proof compares the front end where
+// the LW coils work: the example's header gives LW as 150 kHz to 290 kHz
+// (handbook f = 1/(2π√(LC)): 2.3 mH with 134 pF fully open gives 287 kHz),
+// not the MW band the netlist declares. On the netlist's own position no
+// band moves.
+func TestSwitchedBandIsProvenWhereItTunes(t *testing.T) {
+	path := filepath.Join("..", "..", "..", "examples", "club-receiver.toml")
+	r, err := Run(Options{Path: path, Until: PhaseLoad})
+	if err != nil || len(r.Retuned) != 0 {
+		t.Fatalf("netlist position: retuned %v (err %v), want none", r.Retuned, err)
+	}
+	r, err = Run(Options{Path: path, Until: PhaseVerify, Verify: true, StepCheck: NoStepCheck, Switches: []SwitchSetting{{"S1", 2}}})
+	if err != nil || r.Report == nil {
+		t.Fatalf("S1=2: %v", err)
+	}
+	found := false
+	for _, p := range r.Report.Pairs {
+		if p.Label() != "V(mix_tank)/V(aerial)" {
+			continue
+		}
+		found = true
+		if p.AtHz < 145e3 || p.AtHz > 295e3 || !strings.HasPrefix(p.Bands, "150 kHz") {
+			t.Errorf("S1=2: front end compared over %s (worst at %.0f Hz), want LW's 150–290 kHz", p.Bands, p.AtHz)
+		}
+	}
+	if !found {
+		t.Errorf("S1=2: the front end's transfer was not compared: %v", r.Report.Pairs)
+	}
+	if !strings.Contains(strings.Join(r.Report.Notes, "\n"), "instead of the declared 540 kHz–1.6 MHz") {
+		t.Errorf("S1=2: the proof does not say its band moved: %q", r.Report.Notes)
+	}
+}
