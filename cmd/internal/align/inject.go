@@ -47,6 +47,9 @@ type Injection struct {
 	// (a control's position, the AGC held), or that the level is below
 	// what a generator gives; "" when nothing.
 	Caveat string
+	// Broken names the devices whose oscillator loop the row was solved
+	// with broken (rfloop.go); Circuit rebuilds the circuit so.
+	Broken []string
 }
 
 // Options is the AC solver's setting for the row.

@@ -27,10 +27,13 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	if in.RefLevel == 0 {
 		return in, fmt.Errorf("not computed: its level is referred to the row at %s, which pare could not compute", in.RefNet)
 	}
+	sc, broken := c, []string(nil)
 	if p.band == "RF" {
-		in.Gang, in.Tuned = peakGang(c, p.net, in.RefNet, in.Freq), true
+		sc, broken = loopsBroken(c, sts)
+		in.Broken = broken
+		in.Gang, in.Tuned = peakGang(sc, p.net, tuneNet(sc, sts, p.net, in.RefNet), in.Freq), true
 	}
-	h, err := Response(c, in.Net, in.RefNet, in.Freq, in.Gang)
+	h, err := Response(sc, in.Net, in.RefNet, in.Freq, in.Gang)
 	if err != nil {
 		return in, err
 	}
@@ -39,8 +42,17 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	}
 	in.Level = in.RefLevel / h
 	in.GainTo = gainTarget(pts, i, in.RefNet)
-	if in.Gain, err = Response(c, in.Net, in.GainTo, in.Freq, in.Gang); err != nil {
+	if in.Gain, err = Response(sc, in.Net, in.GainTo, in.Freq, in.Gang); err != nil {
 		return in, err
+	}
+	if len(broken) > 0 {
+		closed, err := Response(c, in.Net, in.GainTo, in.Freq, in.Gang)
+		if err != nil {
+			return in, err
+		}
+		if math.Abs(closed/in.Gain-1) > loopShift {
+			in.GainNote = loopNote(broken, closed)
+		}
 	}
 	if p.mixer {
 		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF rows take it as a quarter of this gain (an estimate)"
@@ -48,6 +60,9 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	if in.Why = implausible(in); in.Why == "" {
 		in.BelowFloor = in.Level < genFloor
 		in.Caveat = caveats(c, in, g.AGC)
+		if len(broken) > 0 && !in.BelowFloor && in.GainNote == "" {
+			in.GainNote = levelLoopNote(broken)
+		}
 	}
 	return in, nil
 }
