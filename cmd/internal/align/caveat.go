@@ -31,7 +31,7 @@ const (
 func caveats(c *graph.Circuit, in Injection, agc string) string {
 	var out []string
 	if pots := potsOnRow(c, in); len(pots) > 0 {
-		out = append(out, "assumes "+strings.Join(pots, " and ")+" (set positions as captured; the level changes with them)")
+		out = append(out, "assumes "+strings.Join(pots, " and ")+" (set as captured; the netlist gives a wiper's share of the resistance, not a law, so on a log-law control that is well past mid-rotation): the level depends on the control's setting, so read this row for the ratio, with the control where the table assumes")
 	}
 	if in.BelowFloor {
 		out = append(out, floorMethod(in, agc))
@@ -50,7 +50,9 @@ func floorMethod(in Injection, agc string) string {
 		volts(genFloor), in.GainTo, hold)
 }
 
-// potsOnRow lists, as "RV1 at 50 % of its travel", each control whose
+// potsOnRow lists, as "RV1 with its wiper at 50 % of the track's
+// resistance" (a pot's set, docs/netlist.md: no taper is captured, so
+// pare cannot say where a log-law knob stands), each control whose
 // wiper changes the row's response by more than potSens when moved by
 // potStep (the AC solver on the whole circuit, the rest as captured).
 func potsOnRow(c *graph.Circuit, in Injection) []string {
@@ -73,7 +75,7 @@ func potsOnRow(c *graph.Circuit, in Injection) []string {
 		if err != nil || math.Abs(h-base) <= potSens*base {
 			continue
 		}
-		out = append(out, fmt.Sprintf("%s at %.0f %% of its travel", p.Ref, p.Set*100))
+		out = append(out, fmt.Sprintf("%s with its wiper at %.0f %% of the track's resistance", p.Ref, p.Set*100))
 	}
 	return out
 }

@@ -337,7 +337,7 @@ func carrierRef(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Inject
 			continue
 		}
 		level := rows[j].Level / (modDepth * detEfficiency)
-		return anode, level, fmt.Sprintf("%s of carrier at the detector (%s), modulated 30 %% at 400 Hz: its audio, %s on %s (detector efficiency taken as 1, pare's detector model), gives %s",
+		return anode, level, fmt.Sprintf("%s of carrier at the detector (%s), modulated 30 %% at 400 Hz: its audio, %s on %s (detector efficiency taken as 1, pare's detector model: a valve diode gives about 0.8–0.9, so the bench needs a little more carrier), gives %s",
 			volts(level), anode, volts(rows[j].Level), rows[j].Net, rows[j].RefWhat)
 	}
 	return "", 0, ""

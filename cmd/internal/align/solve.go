@@ -59,7 +59,7 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	}
 	if in.Why = implausible(in); in.Why == "" {
 		in.BelowFloor = in.Level < genFloor
-		in.Caveat = caveats(c, in, g.AGC)
+		in.Caveat = caveats(sc, in, g.AGC)
 		if len(broken) > 0 && !in.BelowFloor && in.GainNote == "" {
 			in.GainNote = levelLoopNote(broken)
 		}
