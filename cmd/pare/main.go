@@ -15,6 +15,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime/debug"
 	"sort"
 	"strings"
 
@@ -88,10 +89,27 @@ func (e *env) pipeline(o pipeline.Options) (*pipeline.Result, error) {
 }
 
 func main() {
+	tuneCollector()
 	stop := startProfile()
 	code := run(os.Args[1:], os.Stdout, os.Stderr)
 	stop()
 	os.Exit(code)
+}
+
+// tuneCollector lets the heap grow to five times what is live before the
+// collector runs (GOGC 400), unless the user set GOGC: one run is a short
+// batch whose live heap is tens of megabytes, and at the default the
+// collector's preemption of the solver's inner loops cost the main job on
+// the flagship a quarter of its CPU (3.0 s against 2.3 s, same output).
+// A soft limit of 1 GiB brings the default pace back on very large sets.
+func tuneCollector() {
+	if _, set := os.LookupEnv("GOGC"); set {
+		return
+	}
+	debug.SetGCPercent(400)
+	if _, set := os.LookupEnv("GOMEMLIMIT"); !set {
+		debug.SetMemoryLimit(1 << 30)
+	}
 }
 
 // run executes one pare invocation and returns its exit code.
