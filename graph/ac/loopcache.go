@@ -2,7 +2,6 @@ package ac
 
 import (
 	"crypto/sha256"
-	"encoding/binary"
 	"math"
 	"sync"
 )
@@ -90,17 +89,8 @@ func solveUncached(solve func(e *loopEntry) bool) *loopEntry {
 // numbers (a pole's frequency and scale) after them.
 func (ls *loopSystem) key(o LoopOptions, what uint64, extra ...float64) [sha256.Size]byte {
 	s := ls.s
-	d := sha256.New()
-	var buf []byte
-	put := func(vs ...uint64) {
-		for _, v := range vs {
-			buf = binary.LittleEndian.AppendUint64(buf, v)
-		}
-		if len(buf) > 4096 {
-			d.Write(buf)
-			buf = buf[:0]
-		}
-	}
+	var d digest
+	put := d.put
 	f := math.Float64bits
 	unk := func(node int) uint64 { return uint64(int64(s.unk[node])) }
 	inv := uint64(0)
@@ -137,10 +127,7 @@ func (ls *loopSystem) key(o LoopOptions, what uint64, extra ...float64) [sha256.
 			put(f(p.l), f(p.C))
 		}
 	}
-	d.Write(buf)
-	var out [sha256.Size]byte
-	d.Sum(out[:0])
-	return out
+	return d.sum()
 }
 
 // ForgetLoops drops every remembered loop search: for a long-lived caller

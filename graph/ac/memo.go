@@ -5,7 +5,6 @@ package ac
 
 import (
 	"crypto/sha256"
-	"encoding/binary"
 	"math"
 	"sync"
 )
@@ -161,17 +160,8 @@ func (p *probe) digest() [sha256.Size]byte {
 		}
 		return math.MaxUint64 // ground or held
 	}
-	d := sha256.New()
-	var buf []byte
-	put := func(vs ...uint64) {
-		for _, v := range vs {
-			buf = binary.LittleEndian.AppendUint64(buf, v)
-		}
-		if len(buf) > 4096 {
-			d.Write(buf)
-			buf = buf[:0]
-		}
-	}
+	var d digest
+	put := d.put
 	f := math.Float64bits
 	imp := uint64(0)
 	if p.impedance {
@@ -195,8 +185,5 @@ func (p *probe) digest() [sha256.Size]byte {
 			put(uint64(m.i), uint64(m.j), f(m.k), f(m.m))
 		}
 	}
-	d.Write(buf)
-	var out [sha256.Size]byte
-	d.Sum(out[:0])
-	return out
+	return d.sum()
 }
