@@ -107,7 +107,7 @@ func (ly *state) columnStages(cols [][]*block) []int {
 // already placed on the same net, else stacked under the block above;
 // blocks in a column keep their order.
 func (ly *state) placeRows(cols [][]*block) {
-	pinY := map[string]float64{}
+	pinY := map[string]geom.Pin{}
 	for _, col := range cols {
 		bottom := math.Inf(-1)
 		var above *block
@@ -124,7 +124,7 @@ func (ly *state) placeRows(cols [][]*block) {
 			for _, cl := range b.cells {
 				for _, p := range cl.shape.Pins {
 					if _, ok := pinY[p.Net]; !ok {
-						pinY[p.Net] = p.At.Y
+						pinY[p.Net] = p
 					}
 				}
 			}
@@ -136,8 +136,9 @@ func (ly *state) placeRows(cols [][]*block) {
 // (active parts, series parts, transformers) put their first wired left pin
 // on the sheet's signal line, y = 0, so a long chain does not climb stage by
 // stage; other blocks line a pin up with one placed on its net, looking at
-// left pins first, then up, down and right.
-func (ly *state) rowOf(b *block, pinY map[string]float64) float64 {
+// left pins first, then up, down and right, and standing off that level
+// by hangOff when the two pins face different ways.
+func (ly *state) rowOf(b *block, pinY map[string]geom.Pin) float64 {
 	if cl := b.cells[0]; !ly.free && len(b.cells) == 1 && !isVertical(cl) {
 		for _, p := range cl.shape.Pins {
 			if p.Dir == geom.Left && !ly.c.RoleOf(p.Net).IsACGround() {
@@ -151,13 +152,39 @@ func (ly *state) rowOf(b *block, pinY map[string]float64) float64 {
 				if p.Dir != d {
 					continue
 				}
-				if y, ok := pinY[p.Net]; ok && !ly.c.RoleOf(p.Net).IsACGround() {
-					return y - p.At.Y
+				if q, ok := pinY[p.Net]; ok && !ly.c.RoleOf(p.Net).IsACGround() {
+					return q.At.Y - p.At.Y + hangOff(q.Dir, d)
 				}
 			}
 		}
 	}
 	return 0
+}
+
+// hangOff is how far below (above) the level of a placed pin leaving the
+// way placed a block's pin leaving upwards (downwards) stands, so that the
+// wire reaches it with a plain T or bend: level with a pin on a horizontal
+// wire, an upward pin would have the wire climb over it and come down (a
+// loudspeaker on its secondary's wire drew a bump that ran one step under
+// the anode's wire above it); level with a downward pin, the wire would
+// turn back on itself. Pins leaving the same way, or sideways, stay level.
+func hangOff(placed, d geom.Dir) float64 {
+	sign := 0.0
+	switch d {
+	case geom.Up:
+		sign = 1
+	case geom.Down:
+		sign = -1
+	default:
+		return 0
+	}
+	switch placed {
+	case d:
+		return 0
+	case geom.Left, geom.Right:
+		return sign
+	}
+	return 2 * sign
 }
 
 // laneGap is how much further down block b must stand under the block
