@@ -22,6 +22,13 @@ const (
 	// away: at print size the two lines blur into one, so a wire keeps a
 	// grid step of clear space when a short detour allows
 	nearCost = 3
+	// a bend where the wire's run stops short in line with another net's
+	// wire, across a gap of at most inLineReach steps: the reader sees one
+	// wire broken, the two nets joined (render/check counts gaps up to six
+	// steps; looking further, or at the run a bend starts, cost the router
+	// more than its budget on the symbol bench)
+	inLineCost  = 3
+	inLineReach = 3
 	// a step through a stage frame's edge: a wire of the stage stays inside
 	// its frame rather than run round outside it
 	edgeCost = 6
@@ -172,6 +179,26 @@ func (rt *router) reservePins() {
 			if e >= 0 && rt.g[e].flags&fBlocked == 0 && rt.g[e].resv == 0 {
 				rt.g[e].resv = int32(id + 1)
 			}
+			rt.markLead(wp.cell, e, int(wp.pin.Dir))
+		}
+	}
+}
+
+// markLead marks the grid lines either side of a pin's lead (its tip and
+// the point just outside) as crowded for wires running the lead's way: the
+// lead leaves that way whatever its net's route, so a wire laid there first
+// would run one step beside it (render/check's reader reads the two as
+// one).
+func (rt *router) markLead(tip, out, d int) {
+	hug := fHugH << (d & 1)
+	for _, c := range []int{tip, out} {
+		if c < 0 {
+			continue
+		}
+		for _, side := range []int{(d + 1) & 3, (d + 3) & 3} {
+			if n := rt.neighbour(c, side); n >= 0 {
+				rt.g[n].flags |= hug
+			}
 		}
 	}
 }
@@ -196,6 +223,26 @@ func (rt *router) markHugs(b geom.Rect) {
 			set(int(math.Ceil(ex)), y, fHugV)
 		}
 	}
+}
+
+// inLineAt says whether another net's wire runs along direction d's axis
+// within inLineReach steps of point (x, y) that way, with no symbol between.
+func (rt *router) inLineAt(net int32, x, y, d int) bool {
+	along := alongArms[d]
+	for i := 1; i <= inLineReach; i++ {
+		x, y = x+dirStep[d][0], y+dirStep[d][1]
+		if x < 0 || y < 0 || x >= rt.w || y >= rt.h {
+			return false
+		}
+		g := &rt.g[y*rt.w+x]
+		if g.own[0] == net || g.flags&fBlocked != 0 {
+			return false
+		}
+		if g.runsAlong(along, net) {
+			return true
+		}
+	}
+	return false
 }
 
 // runsAlong says whether another net's wire at this cell has an arm along

@@ -428,12 +428,16 @@ func TestQueueOrder(t *testing.T) {
 }
 
 // stepCost is the whole cost of a step as the search adds it up: a plain
-// step, a bend where the direction changes, and the step's extras.
+// step, a bend where the direction changes (more where the run it ends
+// stops in line with another net's wire), and the step's extras.
 func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
 	extra, ok := rt.stepExtra(net, c, n, nx, ny, nd)
 	cost := stepCost + extra
 	if nd != d {
 		cost += bendCost
+		if rt.inLineAt(net, c%rt.w, c/rt.w, d) {
+			cost += inLineCost
+		}
 	}
 	return cost, ok
 }

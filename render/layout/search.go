@@ -149,6 +149,7 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 	if y == k.win.y1 {
 		dirs &^= 1 << geom.Down
 	}
+	ended := 0 // 1: the run ending at c is clear, 2: it stops in line
 	for ; dirs != 0; dirs &= dirs - 1 {
 		nd := bits.TrailingZeros8(dirs)
 		ns := s0 + k.stateAt[nd] + nd
@@ -160,6 +161,19 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 		seen := nsi.stamp>>2 == gen
 		if seen && nsi.g <= least {
 			continue // reached as cheaply already, whatever this step costs
+		}
+		if nd != d && c != k.pinCell {
+			// the run ending here in line with another net's wire
+			// across a short gap (looked up once per point)
+			if ended == 0 {
+				ended = 1
+				if rt.inLineAt(k.net, x, y, d) {
+					ended = 2
+				}
+			}
+			if ended == 2 {
+				least += inLineCost
+			}
 		}
 		n := c + k.cellAt[nd]
 		extra, ok := rt.stepExtra(k.net, c, n, x+dirStep[nd][0], y+dirStep[nd][1], nd)
