@@ -26,7 +26,7 @@ func TestFrontEndComparedUpToTheChanger(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if p, ok := pairLabels(rep)["V(osc_g)/V(aerial)"]; !ok || p.Bands != "530 kHz–1.6 MHz" {
+	if p, ok := pairLabels(rep)["V(osc_g)/V(aerial)"]; !ok || p.Bands != "540 kHz–1.6 MHz" {
 		t.Errorf("the front end is not compared up to the mixer grid over the signal band: %v (present %v)", p.Bands, ok)
 	}
 	notes := strings.Join(rep.Notes, "\n")
