@@ -43,6 +43,9 @@ type Stage struct {
 	group    string
 	nets     map[string]string // pattern net → circuit net
 	figRanks []figRank         // beside Figures: each one's place in the one order (figorder.go)
+	// unconfirmed says why a stage named by its shape is not borne out in
+	// circuit (confirmTank); such a stage is dropped.
+	unconfirmed string
 }
 
 // Options steer Find.
@@ -432,7 +435,7 @@ func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, o
 		}
 	}
 	sortTree(tops)
-	solveFigures(w, tops)
+	tops = solveFigures(w, tops)
 	return tops, runErr
 }
 

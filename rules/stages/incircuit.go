@@ -312,11 +312,18 @@ func quietPart(p *graph.Part) *graph.Part {
 // solve, and only a stage a person will read is solved. A stage whose
 // guard the solver's figures fail keeps its formulas' figures: the guard
 // chose it on them.
-func solveFigures(w *world, level []*found) {
+func solveFigures(w *world, level []*found) []*found {
+	kept := level[:0]
 	for _, f := range level {
-		if st := evaluate(w, f.m, true); st != nil {
+		st := evaluate(w, f.m, true)
+		if st != nil && st.unconfirmed != "" {
+			continue // named by its shape, not borne out in circuit (confirmTank)
+		}
+		if st != nil {
 			f.Title, f.Figures, f.figRanks, f.Flags, f.Notes = st.Title, st.Figures, st.figRanks, st.Flags, st.Notes
 		}
-		solveFigures(w, f.subs)
+		f.subs = solveFigures(w, f.subs)
+		kept = append(kept, f)
 	}
+	return kept
 }

@@ -51,6 +51,30 @@ func (x *figCtx) checkTuned(t tankPeaks, ok bool) {
 	}
 }
 
+// confirmTank: a stage named a tuned circuit (group "tuned": a tuned
+// winding, an LC tank) is one only if it behaves as one in circuit, a peak
+// in the impedance across its coil with a Q of tunedMinQ or more. A
+// capacitor across an output transformer's primary (a top cut) has the
+// shape of a tuned winding, but the loudspeaker reflected into the
+// primary damps the pair to a Q well below 1: it is no tuned circuit, and
+// the stage is dropped (solveFigures), its parts left to the stage that
+// holds them. Without the solver nothing is judged.
+func (x *figCtx) confirmTank(coil string) {
+	if !x.solve || x.st.group != "tuned" {
+		return
+	}
+	q := math.NaN()
+	if x.tankOK && len(x.tank.q) > 0 {
+		q = x.tank.q[len(x.tank.q)/2]
+	}
+	switch {
+	case !x.tankOK:
+		x.st.unconfirmed = "no peak in the impedance across " + coil + " near its formula resonance"
+	case math.IsNaN(q) || q < tunedMinQ:
+		x.st.unconfirmed = fmt.Sprintf("the peak across %s has a Q of %s in circuit, below the %d a tuned circuit has", coil, qText(q), tunedMinQ)
+	}
+}
+
 func qText(q float64) string {
 	if math.IsNaN(q) {
 		return "less than 0.5 (no −3 dB points either side)"

@@ -277,7 +277,7 @@ func mixerTitle(w *world, dev *graph.Part, through, family string) string {
 // connected the wrong way round as captured); the last two are flagged
 // "does not oscillate as drawn". A device with no such loop stays an
 // injected mixer.
-func selfOscillating(w *world, lp *ac.Loops, acg map[string]bool, p *graph.Part, f *found, claimed map[string]*found, gone map[*found]bool) {
+func selfOscillating(w *world, lp *ac.Loops, acg map[string]bool, p *graph.Part, f *found, tops []*found, claimed map[string]*found, gone map[*found]bool) {
 	if !p.IsActive() || hasLoop(f.Stage, p.Ref) {
 		return
 	}
@@ -313,7 +313,11 @@ func selfOscillating(w *world, lp *ac.Loops, acg map[string]bool, p *graph.Part,
 	from := func(pin graph.Pin) bool {
 		return graph.RoleOfPin(p.Kind, pin.Name) == graph.RoleControl || tnets[pin.Net]
 	}
-	for _, r := range loopPartsFrom(w.c, acg, p, through, claimed, gone, from) {
+	tank := tankOn(tops, through, f)
+	if tank != nil {
+		gone[tank] = true // its parts are the oscillator's, gathered below
+	}
+	for _, r := range append(loopPartsFrom(w.c, acg, p, through, claimed, gone, from), tankParts(tank)...) {
 		if !f.set[r] {
 			f.set[r] = true
 			claimed[r] = f
@@ -350,4 +354,26 @@ func drawnConverter(w *world, lc *graph.Circuit, dev *graph.Part, l Loop, tops [
 	}
 	_, _, tuned := loopTank(w, through)
 	return tuned
+}
+
+// tankOn is the top-level tuned stage other than f that a pattern found
+// on the oscillator's feedback transformer ref (a winding with only its
+// trimmer across it). That winding is the oscillator's tank, whose padder
+// and gang section the mixer holds too, so a "Single-tuned transformer" on
+// part of it would claim a resonance the set never has: the mixer takes
+// its parts, and its own figures solve the whole tank across the dial.
+func tankOn(tops []*found, ref string, f *found) *found {
+	for _, t := range tops {
+		if t != f && t.group == "tuned" && t.set[ref] {
+			return t
+		}
+	}
+	return nil
+}
+
+func tankParts(t *found) []string {
+	if t == nil {
+		return nil
+	}
+	return t.Parts
 }

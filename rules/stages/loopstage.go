@@ -40,7 +40,7 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 	w.orig = orig
 	for _, p := range c.Parts {
 		if f := claimed[p.Ref]; f != nil && injectedMixer(f.Topology) {
-			selfOscillating(w, lp, acg, p, f, claimed, gone)
+			selfOscillating(w, lp, acg, p, f, tops, claimed, gone)
 			continue
 		}
 		if !p.IsActive() || named[p.Ref] || claimed[p.Ref] != nil && hasLoop(claimed[p.Ref].Stage, p.Ref) {

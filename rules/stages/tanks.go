@@ -77,6 +77,7 @@ func calcTank(x *figCtx) {
 	}
 	x.tankFigures(c.ref, c.l, c.a, c.b, x.parts("caps"))
 	x.loadedQ(c.ref, c.q)
+	x.confirmTank(c.ref)
 	if x.word("check", "") == "if" {
 		if f, ok := x.get("f"); ok && f.Range == nil {
 			x.checkIF(c.ref, f.Value)

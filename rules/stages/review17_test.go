@@ -1,0 +1,67 @@
+package stages
+
+import (
+	"path/filepath"
+	"slices"
+	"strings"
+	"testing"
+
+	"pare/graph"
+	"pare/rules"
+)
+
+// The blind review 17 wrote three sets of its own; copies of its circuits
+// are in testdata/review17/ beside this file.
+
+func reduceReview17(t *testing.T, name string) []Stage {
+	t.Helper()
+	c, err := graph.LoadFile(filepath.Join("testdata", "review17", name))
+	if err != nil {
+		t.Fatalf("%s: %v", name, err)
+	}
+	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatalf("reduce %s: %v", name, err)
+	}
+	return find(t, r, Options{Full: c, ACGround: log.ACGround})
+}
+
+// A shape that looks like a tuned winding is one only by its behaviour.
+// In the AC/DC set the oscillator coil T2 with its trimmer TC2 alone
+// (f = 1/(2π√(LC)) = 4.48 MHz, handbook formula) is part of the
+// oscillator's tank, whose padder C3 and gang section VC1b the mixer holds:
+// the mixer takes the trimmer too. C20 across the output transformer's
+// primary is a top cut: the primary's 8 H with the loudspeaker reflected
+// (n² · 3 Ω, n = √(8 H/3 mH) = 51.6, so 8 kΩ) in parallel with the
+// pentode's ra 30 kΩ, R = 6.3 kΩ, gives Q = R·√(C/L) = 0.22 (handbook
+// formula for a parallel RLC), far below a tuned circuit's.
+func TestReview17TunedByBehaviour(t *testing.T) {
+	st := reduceReview17(t, "acdc-superhet.toml")
+	for _, s := range st {
+		if s.Topology == "tuned-winding" {
+			t.Errorf("%s %s: a tuned winding on %v", s.Name, s.Title, s.Parts)
+		}
+	}
+	osc := topWith(st, "T2")
+	if osc == nil {
+		t.Fatalf("no stage holds T2: %s", topologies(st))
+	}
+	for _, r := range []string{"TC2", "C3", "VC1b"} {
+		if !slices.Contains(osc.Parts, r) {
+			t.Errorf("%s (%s) lacks %s of the oscillator tank: %v", osc.Name, osc.Topology, r, osc.Parts)
+		}
+	}
+	if out := topWith(st, "T5"); out == nil || !slices.Contains(out.Parts, "C20") {
+		t.Errorf("C20 not in the output stage: %s", topologies(st))
+	}
+}
+
+// topWith is the top-level stage that holds part ref, nil when none does.
+func topWith(st []Stage, ref string) *Stage {
+	for i := range st {
+		if !strings.Contains(st[i].Name, ".") && slices.Contains(st[i].Parts, ref) {
+			return &st[i]
+		}
+	}
+	return nil
+}
