@@ -53,12 +53,14 @@ func (x *figCtx) checkTuned(t tankPeaks, ok bool) {
 
 // confirmTank: a stage named a tuned circuit (group "tuned": a tuned
 // winding, an LC tank) is one only if it behaves as one in circuit, a peak
-// in the impedance across its coil with a Q of tunedMinQ or more. A
-// capacitor across an output transformer's primary (a top cut) has the
-// shape of a tuned winding, but the loudspeaker reflected into the
-// primary damps the pair to a Q well below 1: it is no tuned circuit, and
-// the stage is dropped (solveFigures), its parts left to the stage that
-// holds them. Without the solver nothing is judged.
+// in the impedance across its coil near its formula resonance, with a Q
+// of tankMinQ or more. A winding with only its trimmer across it, when a
+// padder and gang section tune it too, shows no peak near the trimmer's
+// resonance: it is part of a larger tank, not a tank. A capacitor across
+// an output transformer's primary (a top cut) has the shape of a tuned
+// winding, but the loudspeaker reflected into the primary damps the pair
+// to a Q well below 1. Such a stage is dropped (solveFigures), its parts
+// left to the stage that holds them. Without the solver nothing is judged.
 func (x *figCtx) confirmTank(coil string) {
 	if !x.solve || x.st.group != "tuned" {
 		return
@@ -70,10 +72,18 @@ func (x *figCtx) confirmTank(coil string) {
 	switch {
 	case !x.tankOK:
 		x.st.unconfirmed = "no peak in the impedance across " + coil + " near its formula resonance"
-	case math.IsNaN(q) || q < tunedMinQ:
-		x.st.unconfirmed = fmt.Sprintf("the peak across %s has a Q of %s in circuit, below the %d a tuned circuit has", coil, qText(q), tunedMinQ)
+	case math.IsNaN(q) || q < tankMinQ:
+		x.st.unconfirmed = fmt.Sprintf("the peak across %s has a Q of %s in circuit, below the %d a tuned circuit has", coil, qText(q), tankMinQ)
 	}
 }
+
+// tankMinQ is the least loaded Q of a tank named a tuned circuit: below 1
+// its −3 dB bandwidth is wider than its centre frequency, so it selects
+// nothing (common practice, no source). It is lower than tunedMinQ, the
+// tuned amplifier's, because a tank inside an oscillator is solved with
+// the device quiet, its input damping the tank that the running loop
+// makes up for (a tickler oscillator's base winding shows Q 1.8 so).
+const tankMinQ = 1
 
 func qText(q float64) string {
 	if math.IsNaN(q) {
