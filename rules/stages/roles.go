@@ -27,6 +27,7 @@ const ifRoleTol = 0.05
 // nameRoles prefixes the titles of the tuned amplifiers among tops, which
 // are in signal order, with their role in the signal path.
 func nameRoles(tops []*found, c *graph.Circuit) {
+	nameAerial(tops)
 	var changer *found
 	nIF := 0
 	for _, f := range tops {
@@ -132,4 +133,27 @@ func ordinal(n int) string {
 		}
 	}
 	return fmt.Sprintf("%d%s", n, suffix)
+}
+
+// nameAerial names the aerial circuit: the first tuned stage (group
+// "tuned") in signal order when no amplifier, mixer or oscillator comes
+// before it, a frequency changer comes after it and the gang tunes it in
+// circuit (its solved f a range across the travel). The trade calls it
+// the aerial circuit (aerial coil and its gang section), not a
+// "single-tuned transformer" like an interstage coupling.
+func nameAerial(tops []*found) {
+	for _, f := range tops {
+		switch f.group {
+		case "amplifier", "mixer", "oscillator":
+			return
+		case "tuned":
+			fig, ok := f.Figures.Get("f")
+			if !ok || fig.Origin.Source != figure.Solver || fig.Range == nil || fig.Range.Max <= fig.Range.Min || !changerAfter(tops, f) {
+				return
+			}
+			f.Title = withRole("Aerial circuit", f.Title)
+			f.Notes = append(f.Notes, "named aerial circuit: the first tuned circuit from the input, tuned across the dial by the gang in circuit, with no amplifier before the frequency changer that follows")
+			return
+		}
+	}
 }

@@ -262,7 +262,7 @@ func sigTanks(c *graph.Circuit, oscGang *graph.Part) []tank {
 		hot := hotNet(c, p)
 		t.trimmer = shuntTrimmer(c, hot, p)
 		t.coil = coilOn(c, hot)
-		if t.aerial = t.coil != nil && len(c.Inputs) > 0 && slices.Contains(netsOf(t.coil), c.Inputs[0]); t.aerial || len(c.Inputs) == 0 {
+		if t.aerial = t.coil != nil && len(c.Inputs) > 0 && fedFromAerial(c, t.coil, c.Inputs[0]); t.aerial || len(c.Inputs) == 0 {
 			aerial = append(aerial, t)
 			continue
 		}
@@ -385,4 +385,46 @@ func (g *Guide) bandTrimmer(c *graph.Circuit, t tank) *graph.Part {
 		}
 	}
 	return t.trimmer
+}
+
+// aerialReach is how many passive parts may stand in series between the
+// aerial input and the aerial coil: an isolating capacitor (an AC/DC set
+// keeps the live chassis off the aerial so), a series resistor, an IF trap.
+const aerialReach = 2
+
+// fedFromAerial tells whether coil is fed from the aerial input net in
+// through passive two-terminal parts alone (at most aerialReach of them,
+// never through AC ground): its tank is the aerial circuit, whose trimmer
+// is the aerial trimmer; a coil fed from a device (an RF stage) is an RF
+// coil.
+func fedFromAerial(c *graph.Circuit, coil *graph.Part, in string) bool {
+	target := netsOf(coil)
+	seen := map[string]bool{in: true}
+	frontier := []string{in}
+	for hop := 0; hop <= aerialReach && len(frontier) > 0; hop++ {
+		var next []string
+		for _, n := range frontier {
+			if slices.Contains(target, n) {
+				return true
+			}
+			for _, p := range c.Parts {
+				if len(p.Pins) != 2 || !passiveSeries(p) {
+					continue
+				}
+				for i, pin := range p.Pins {
+					o := p.Pins[1-i].Net
+					if pin.Net == n && !seen[o] && !c.RoleOf(o).IsACGround() {
+						seen[o] = true
+						next = append(next, o)
+					}
+				}
+			}
+		}
+		frontier = next
+	}
+	return false
+}
+
+func passiveSeries(p *graph.Part) bool {
+	return p.Kind == graph.Capacitor || p.Kind == graph.Resistor || p.Kind == graph.Inductor
 }
