@@ -35,6 +35,17 @@ C1 = { c = "12p..365p", pins = ["t", "gnd"] }`,
 		nearMiss: `T1 = { windings = { p = "230u", s = "10u" }, k = 0.3, pins = { p1 = "t", p2 = "gnd", s1 = "b", s2 = "gnd" } }
 C1 = { c = "12p..365p", pins = ["t", "x"] }
 R1 = { r = "1k", pins = ["x", "gnd"] }`},
+	// The winding returned to chassis through a bypass (an AGC-fed
+	// aerial secondary): the same tank.
+	{topology: "tuned-winding", families: []string{"valve"}, want: "passive",
+		parts: `T1 = { windings = { p = "30u", s = "230u" }, k = 0.2, pins = { p1 = "a", p2 = "gnd", s1 = "t", s2 = "r" } }
+C1 = { c = "12p..365p", pins = ["t", "gnd"] }
+C2 = { c = "50n", pins = ["r", "gnd"] }`,
+		// The return through 100 pF is no bypass: part of a series
+		// circuit, not the tank's return.
+		nearMiss: `T1 = { windings = { p = "30u", s = "230u" }, k = 0.2, pins = { p1 = "a", p2 = "gnd", s1 = "t", s2 = "r" } }
+C1 = { c = "12p..365p", pins = ["t", "gnd"] }
+C2 = { c = "100p", pins = ["r", "gnd"] }`},
 	{topology: "double-tuned", families: []string{"valve"}, want: "passive",
 		parts: `T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "a", p2 = "ht", s1 = "g", s2 = "gnd" } }
 C1 = { c = "122p", pins = ["a", "ht"] }
