@@ -3,6 +3,7 @@ package stages
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"pare/graph"
@@ -44,7 +45,7 @@ func (x *figCtx) solveTank(a, b int, lo, hi float64) (tankPeaks, bool) {
 	if t.net == "" || !(lo > 0) || !(hi >= lo) || math.IsInf(hi, 0) {
 		return t, false
 	}
-	c := quiet(x.solverCircuit())
+	c := freeInputs(quiet(x.solverCircuit()), t.net, x.netName(b))
 	for _, g := range t.gs {
 		var r *ac.Response
 		var err error
@@ -132,5 +133,25 @@ func refsOf(ps []*graph.Part) []string {
 	for i, p := range ps {
 		out[i] = p.Ref
 	}
+	return out
+}
+
+// freeInputs is c without the declared inputs among nets: the solver holds
+// every other input at 0 V while it probes across a coil, and a tank that
+// is itself the input (a frame aerial, whose loop the signal is induced
+// in, returned to chassis through a bypass) would be shorted so. Its
+// resonance is the tank's own, as a dip meter finds it.
+func freeInputs(c *graph.Circuit, nets ...string) *graph.Circuit {
+	var kept []string
+	for _, in := range c.Inputs {
+		if !slices.Contains(nets, in) {
+			kept = append(kept, in)
+		}
+	}
+	if len(kept) == len(c.Inputs) {
+		return c
+	}
+	out := withPart(c, &graph.Part{})
+	out.Inputs = kept
 	return out
 }

@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/graph/figure"
 	"pare/rules"
 )
 
@@ -85,5 +86,27 @@ func TestReview17AerialCircuit(t *testing.T) {
 	f, ok := s.Figures.Get("f")
 	if !ok || f.Range == nil || math.Abs(f.Range.Min/538e3-1) > 0.03 || math.Abs(f.Range.Max/2020e3-1) > 0.03 {
 		t.Errorf("%s f %+v (ok %v), want about 538 kHz–2.02 MHz", s.Name, f, ok)
+	}
+}
+
+// A frame aerial is a tuned loop: L1 (260 µH) across the gang section
+// VC1a at the first grid, returned to chassis through the AGC bypass C1
+// (50 nF). It is the aerial circuit, not a pi network, whose capacitors
+// sit within a factor of about 30 of each other (here 50 nF against at
+// most 364 pF). f = 1/(2π√(LC)) with 24–364 pF (VC1a with the trimmer the
+// reduction joins to it) in series with the 50 nF bypass, 24.0–361.4 pF,
+// gives 519.2 kHz–2.015 MHz (handbook formula).
+func TestReview17FrameAerial(t *testing.T) {
+	st := reduceReview17(t, "battery-portable.toml")
+	s := topWith(st, "L1")
+	if s == nil || !slices.Contains(s.Parts, "VC1a") {
+		t.Fatalf("no stage holds the frame L1 with VC1a: %s", topologies(st))
+	}
+	if s.Topology != "lc-tank" || !strings.HasPrefix(s.Title, "Aerial circuit: ") {
+		t.Errorf("%s %s (%s), want the aerial circuit", s.Name, s.Title, s.Topology)
+	}
+	f, ok := s.Figures.Get("f")
+	if !ok || f.Origin.Source != figure.Solver || f.Range == nil || math.Abs(f.Range.Min/519.2e3-1) > 0.02 || math.Abs(f.Range.Max/2.015e6-1) > 0.02 {
+		t.Errorf("%s f %+v (ok %v), want 519.2 kHz–2.015 MHz in circuit", s.Name, f, ok)
 	}
 }

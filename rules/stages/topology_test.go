@@ -28,6 +28,16 @@ C1 = { c = "100p", pins = ["gnd", "t"] }`,
 		// The same coil and capacitor in series: a series circuit, not a tank.
 		nearMiss: `L1 = { l = "253u", pins = ["in", "m"] }
 C1 = { c = "100p", pins = ["m", "gnd"] }`},
+	// A frame aerial returned to chassis through the AGC bypass: the same
+	// tank, not a pi network (its capacitors 200 times apart).
+	{topology: "lc-tank", families: []string{"valve"}, want: "passive",
+		parts: `L1 = { l = "260u", pins = ["t", "r"] }
+C1 = { c = "12p..365p", pins = ["t", "gnd"] }
+C2 = { c = "50n", pins = ["r", "gnd"] }`,
+		// The return through 100 pF is no bypass.
+		nearMiss: `L1 = { l = "260u", pins = ["t", "r"] }
+C1 = { c = "12p..365p", pins = ["t", "gnd"] }
+C2 = { c = "100p", pins = ["r", "gnd"] }`},
 	{topology: "tuned-winding", families: []string{"valve"}, want: "passive",
 		parts: `T1 = { windings = { p = "230u", s = "10u" }, k = 0.3, pins = { p1 = "t", p2 = "gnd", s1 = "b", s2 = "gnd" } }
 C1 = { c = "12p..365p", pins = ["t", "gnd"] }`,
