@@ -89,6 +89,28 @@ func TestReview17AerialCircuit(t *testing.T) {
 	}
 }
 
+// The aerial circuit keeps its name behind a fixed-tuned IF trap at the
+// aerial and ahead of an RF stage (common practice: the aerial coil with
+// its gang section is the aerial circuit whatever follows it): the club
+// receiver's T1 with VC1a, after the series trap L4/C1.
+func TestAerialCircuitBehindTrap(t *testing.T) {
+	c, err := graph.LoadFile(filepath.Join("..", "..", "examples", "club-receiver.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatal(err)
+	}
+	st := find(t, r, Options{Full: c, ACGround: log.ACGround})
+	if s := topWith(st, "T1"); s == nil || !strings.HasPrefix(s.Title, "Aerial circuit: ") {
+		t.Errorf("T1's stage is not the aerial circuit: %s", topologies(st))
+	}
+	if s := topWith(st, "L4"); s == nil || strings.HasPrefix(s.Title, "Aerial circuit") {
+		t.Errorf("the trap L4 is not its own stage, or is called the aerial circuit: %s", topologies(st))
+	}
+}
+
 // A frame aerial is a tuned loop: L1 (260 µH) across the gang section
 // VC1a at the first grid, returned to chassis through the AGC bypass C1
 // (50 nF). It is the aerial circuit, not a pi network, whose capacitors

@@ -135,8 +135,9 @@ func ordinal(n int) string {
 	return fmt.Sprintf("%d%s", n, suffix)
 }
 
-// nameAerial names the aerial circuit: the first tuned stage (group
-// "tuned") in signal order when no amplifier, mixer or oscillator comes
+// nameAerial names the aerial circuit: the first gang-tuned stage (group
+// "tuned"; a fixed-tuned one before it, such as an IF trap, is passed
+// over) in signal order when no amplifier, mixer or oscillator comes
 // before it, a frequency changer comes after it and the gang tunes it in
 // circuit (its solved f a range across the travel). The trade calls it
 // the aerial circuit (aerial coil and its gang section), not a
@@ -148,11 +149,14 @@ func nameAerial(tops []*found) {
 			return
 		case "tuned":
 			fig, ok := f.Figures.Get("f")
-			if !ok || fig.Origin.Source != figure.Solver || fig.Range == nil || fig.Range.Max <= fig.Range.Min || !changerAfter(tops, f) {
+			if !ok || fig.Origin.Source != figure.Solver || fig.Range == nil || fig.Range.Max <= fig.Range.Min {
+				continue // fixed-tuned (an IF trap at the aerial): the gang's circuit may follow
+			}
+			if !changerAfter(tops, f) {
 				return
 			}
 			f.Title = withRole("Aerial circuit", f.Title)
-			f.Notes = append(f.Notes, "named aerial circuit: the first tuned circuit from the input, tuned across the dial by the gang in circuit, with no amplifier before the frequency changer that follows")
+			f.Notes = append(f.Notes, "named aerial circuit: the first circuit from the input that the gang tunes across the dial in circuit, with no amplifier before it and a frequency changer after it")
 			return
 		}
 	}
