@@ -89,11 +89,11 @@ func TestReview17AerialCircuit(t *testing.T) {
 	}
 }
 
-// The aerial circuit keeps its name behind a fixed-tuned IF trap at the
+// Role names on the flagship. The aerial circuit keeps its name behind a fixed-tuned IF trap at the
 // aerial and ahead of an RF stage (common practice: the aerial coil with
 // its gang section is the aerial circuit whatever follows it): the club
 // receiver's T1 with VC1a, after the series trap L4/C1.
-func TestAerialCircuitBehindTrap(t *testing.T) {
+func TestFlagshipRoleNames(t *testing.T) {
 	c, err := graph.LoadFile(filepath.Join("..", "..", "examples", "club-receiver.toml"))
 	if err != nil {
 		t.Fatal(err)
@@ -108,6 +108,15 @@ func TestAerialCircuitBehindTrap(t *testing.T) {
 	}
 	if s := topWith(st, "L4"); s == nil || strings.HasPrefix(s.Title, "Aerial circuit") {
 		t.Errorf("the trap L4 is not its own stage, or is called the aerial circuit: %s", topologies(st))
+	}
+	// After the detector, the preamplifier V6 (gain 56.9 in circuit; the
+	// flagship's header, ngspice 56.88 in the first flagship review) is
+	// the audio amplifier; the output stage V7 keeps its own name.
+	if s := topWith(st, "V6"); s == nil || !strings.HasPrefix(s.Title, "Audio amplifier: ") {
+		t.Errorf("V6's stage is not named the audio amplifier: %s", topologies(st))
+	}
+	if s := topWith(st, "V7"); s == nil || strings.HasPrefix(s.Title, "Audio amplifier") {
+		t.Errorf("the output stage V7 is named an audio amplifier: %s", topologies(st))
 	}
 }
 

@@ -28,6 +28,7 @@ const ifRoleTol = 0.05
 // are in signal order, with their role in the signal path.
 func nameRoles(tops []*found, c *graph.Circuit) {
 	nameAerial(tops)
+	nameAudio(tops)
 	var changer *found
 	nIF := 0
 	for _, f := range tops {
@@ -133,6 +134,30 @@ func ordinal(n int) string {
 		}
 	}
 	return fmt.Sprintf("%d%s", n, suffix)
+}
+
+// nameAudio names an amplifier after the detector that is not the output
+// stage (the trade's audio or AF amplifier, the preamplifier before the
+// output valve), when the solver gives it a voltage gain above 1: a
+// follower or a stage that loses signal keeps its topology's name alone.
+func nameAudio(tops []*found) {
+	detected := false
+	for _, f := range tops {
+		if f.group == "detector" {
+			detected = true
+			continue
+		}
+		if !detected || f.group != "amplifier" || f.Topology == "output-transformer" {
+			continue
+		}
+		g, ok := f.Figures.Get("gain")
+		if !ok || g.Origin.Source != figure.Solver || math.Abs(g.Value) <= 1 {
+			continue
+		}
+		f.Title = withRole("Audio amplifier", f.Title)
+		f.Notes = append(f.Notes, fmt.Sprintf("named audio amplifier: after the detector, not the output stage, voltage gain %s in circuit",
+			figure.Format(math.Abs(g.Value), figure.Ratio, figure.Text)))
+	}
 }
 
 // nameAerial names the aerial circuit: the first gang-tuned stage (group
