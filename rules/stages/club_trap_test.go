@@ -9,7 +9,6 @@ import (
 	"testing"
 
 	"pare/graph"
-	"pare/rules"
 )
 
 // The club receiver's IF trap and long-wave aerial tank, with each coil's q
@@ -58,11 +57,7 @@ func clubStages(t *testing.T, lw bool) []Stage {
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
-	if err != nil {
-		t.Fatal(err)
-	}
-	return find(t, r, Options{Full: c, ACGround: log.ACGround})
+	return findReduced(t, c)
 }
 
 func checkFig(t *testing.T, s *Stage, name string, want, tol float64) {

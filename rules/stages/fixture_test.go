@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/rules"
 )
 
 // Fixtures are reduced circuits written as netlist part lines. An amplifying
@@ -60,6 +61,17 @@ func find(t testing.TB, c *graph.Circuit, o Options) []Stage {
 		t.Fatalf("Find: %v", err)
 	}
 	return st
+}
+
+// findReduced reduces c at the signal level and finds its stages with the
+// original beside it, as the main job does (AC grounds from the log).
+func findReduced(t testing.TB, c *graph.Circuit) []Stage {
+	t.Helper()
+	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatalf("reduce: %v", err)
+	}
+	return find(t, r, Options{Full: c, ACGround: log.ACGround})
 }
 
 func stageOf(stages []Stage, topology string) *Stage {

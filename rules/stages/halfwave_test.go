@@ -12,7 +12,6 @@ import (
 
 	"pare/graph"
 	"pare/internal/reftool"
-	"pare/rules"
 )
 
 // TestHalfWaveRipple: the ripple frequency follows the rectifier's wiring,
@@ -62,11 +61,7 @@ func TestFullWaveRippleStays(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	reduced, log, err := rules.Reduce(full, rules.Options{Level: rules.LevelSignal})
-	if err != nil {
-		t.Fatal(err)
-	}
-	st := find(t, reduced, Options{Full: full, ACGround: log.ACGround})
+	st := findReduced(t, full)
 	bin := reftool.Find(t, reftool.Ngspice)
 	// The reviewer's deck, as committed: its .control block ends without
 	// quit, so ngspice exits 1 after printing; the printed value decides.

@@ -9,7 +9,6 @@ import (
 	"testing"
 
 	"pare/graph"
-	"pare/rules"
 )
 
 // clubVariant is the club receiver with its MW oscillator coil L1, padder
@@ -37,11 +36,7 @@ func clubVariant(t *testing.T, l1, cp, tc6 string) *Stage {
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
-	if err != nil {
-		t.Fatal(err)
-	}
-	mix := stageOf(find(t, r, Options{Full: c, ACGround: log.ACGround}), "self-oscillating-mixer")
+	mix := stageOf(findReduced(t, c), "self-oscillating-mixer")
 	if mix == nil {
 		t.Fatal("no self-oscillating mixer")
 	}

@@ -9,7 +9,6 @@ import (
 
 	"pare/graph"
 	"pare/graph/figure"
-	"pare/rules"
 )
 
 // The blind review 17 wrote three sets of its own; copies of its circuits
@@ -21,11 +20,7 @@ func reduceReview17(t *testing.T, name string) []Stage {
 	if err != nil {
 		t.Fatalf("%s: %v", name, err)
 	}
-	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
-	if err != nil {
-		t.Fatalf("reduce %s: %v", name, err)
-	}
-	return find(t, r, Options{Full: c, ACGround: log.ACGround})
+	return findReduced(t, c)
 }
 
 // A shape that looks like a tuned winding is one only by its behaviour.
@@ -98,11 +93,7 @@ func TestFlagshipRoleNames(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
-	if err != nil {
-		t.Fatal(err)
-	}
-	st := find(t, r, Options{Full: c, ACGround: log.ACGround})
+	st := findReduced(t, c)
 	if s := topWith(st, "T1"); s == nil || !strings.HasPrefix(s.Title, "Aerial circuit: ") {
 		t.Errorf("T1's stage is not the aerial circuit: %s", topologies(st))
 	}
