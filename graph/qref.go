@@ -190,26 +190,7 @@ func capBetween(c *Circuit, uf *NamedSets, a, b string, frac float64) float64 {
 		}
 	}
 	ra, rb := uf.Find(a), uf.Find(b)
-	// The free nodes: those the capacitors reach from a or b, in the order
-	// found (deterministic: parts are sorted).
-	index := map[string]int{}
-	queue := []string{ra, rb}
-	seen := map[string]bool{ra: true, rb: true}
-	for len(queue) > 0 {
-		n := queue[0]
-		queue = queue[1:]
-		for _, e := range adj[n] {
-			m := edges[e].x
-			if m == n {
-				m = edges[e].y
-			}
-			if !seen[m] {
-				seen[m] = true
-				index[m] = len(index)
-				queue = append(queue, m)
-			}
-		}
-	}
+	index := bridgingNodes(edges, adj, ra, rb)
 	v := nodeVolts(edges, index, ra, rb)
 	q := 0.0
 	for _, e := range adj[ra] {
@@ -217,13 +198,62 @@ func capBetween(c *Circuit, uf *NamedSets, a, b string, frac float64) float64 {
 		if m == ra {
 			m = edges[e].y
 		}
-		vm := 0.0
+		// A neighbour off the bridging islands is b (0 V) or sits in an
+		// island that reaches only a, at a's 1 V.
+		vm := 1.0
 		if i, ok := index[m]; ok {
 			vm = v[i]
+		} else if m == rb {
+			vm = 0
 		}
 		q += edges[e].c * (1 - vm)
 	}
 	return q
+}
+
+// bridgingNodes numbers the free nodes whose capacitors carry charge from
+// a to b: the islands of capacitor-joined nodes (a and b left out) that
+// touch both. An island touching only a sits at a's potential and one
+// touching only b draws nothing from a, so neither changes the charge;
+// leaving them out keeps the solve to the few nodes of the tank itself
+// where a whole set's chassis would join every stage's bypasses into one
+// system. Nodes are numbered in the order found (deterministic: parts are
+// sorted).
+func bridgingNodes(edges []capEdge, adj map[string][]int, ra, rb string) map[string]int {
+	other := func(e int, n string) string {
+		if edges[e].x == n {
+			return edges[e].y
+		}
+		return edges[e].x
+	}
+	index := map[string]int{}
+	seen := map[string]bool{ra: true, rb: true}
+	for _, e0 := range adj[ra] {
+		start := other(e0, ra)
+		if seen[start] {
+			continue
+		}
+		seen[start] = true
+		island, touchesB := []string{start}, false
+		for i := 0; i < len(island); i++ {
+			for _, e := range adj[island[i]] {
+				m := other(e, island[i])
+				if m == rb {
+					touchesB = true
+				}
+				if !seen[m] {
+					seen[m] = true
+					island = append(island, m)
+				}
+			}
+		}
+		if touchesB {
+			for _, n := range island {
+				index[n] = len(index)
+			}
+		}
+	}
+	return index
 }
 
 // capEdge is a capacitor between two nodes.

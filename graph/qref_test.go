@@ -25,6 +25,14 @@ func TestReferQ(t *testing.T) {
 	}{
 		{"530k..1.6M", "series trap from the input", `L1 = { l = "1m147", q = 60, pins = ["in", "m"] }
 C1 = { c = "100p", pins = ["m", "gnd"] }`, "L1", f(1.147e-3, 100e-12)}, // 469.94 kHz
+		{"530k..1.6M", "series trap beside islands of capacitors reaching one end only", `L1 = { l = "1m147", q = 60, pins = ["in", "m"] }
+C1 = { c = "80p", pins = ["m", "gnd"] }
+C5 = { c = "1n", pins = ["m", "x"] }
+C6 = { c = "2n", pins = ["x", "y"] }
+C7 = { c = "100n", pins = ["gnd", "z"] }
+C8 = { c = "47n", pins = ["z", "zz"] }
+C9 = { c = "40p", pins = ["m", "w"] }
+C10 = { c = "40p", pins = ["w", "gnd"] }`, "L1", f(1.147e-3, 80e-12+ser(40e-12, 40e-12))},
 		{"530k..1.6M", "declared q_at", `L1 = { l = "1m147", q = 60, q_at = "455k", pins = ["in", "m"] }
 C1 = { c = "100p", pins = ["m", "gnd"] }`, "L1", 455e3},
 		{"150k..300k", "gang through a padder, tapped coil", `L1 = { l = "127u", tap = 0.12, q = 90, pins = ["gnd", "k", "t"] }
