@@ -46,10 +46,11 @@ func (x *figCtx) filterClassOf(in, out, skip int) (filterClass, []*graph.Part) {
 	return decoupler, fed
 }
 
-// rectifierOn tells whether a diode or a valve diode has a terminal on id.
+// rectifierOn tells whether a power rectifier (isPowerRectifier) has a
+// terminal on id.
 func (x *figCtx) rectifierOn(id int) bool {
 	for _, ci := range x.w.conns[id] {
-		if p := x.w.parts[ci]; p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p) {
+		if x.isPowerRectifier(ci) {
 			return true
 		}
 	}

@@ -37,16 +37,53 @@ func dcPath(p *graph.Part) bool {
 
 // reachesSource tells whether net is a supply or leads to one through DC
 // paths (not through skip, the filter's own series part): a declared supply
-// net (a battery's too) or a rectifier. A port alone is not one: a pick-up
-// socket is a port.
+// net (a battery's too), a bias rail that declares its volts (a grid-bias
+// battery or supply), or a power rectifier. A port alone is not one: a
+// pick-up socket is a port. An AGC line (a bias rail with no volts) and a
+// signal detector's diode deliver no power, so a resistor and capacitor fed
+// from them (an AGC filter, a coil's AGC feed and its cold-end bypass) are
+// no supply filter.
 func (x *figCtx) reachesSource(net int, skip int) bool {
 	return x.walkDC(net, skip, func(id int, ci int, pin int) bool {
 		if ci < 0 {
-			return x.w.role[id] == graph.Supply
+			return x.isSourceNet(id)
 		}
-		p := x.w.parts[ci]
-		return p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p)
+		return x.isPowerRectifier(ci)
 	}, nil)
+}
+
+// isSourceNet tells whether a net is itself a source of power: a declared
+// supply, or a bias rail with declared volts.
+func (x *figCtx) isSourceNet(id int) bool {
+	switch x.w.role[id] {
+	case graph.Supply:
+		return true
+	case graph.Bias:
+		n := x.w.c.Net(x.w.names[id])
+		return n != nil && n.Volts != 0
+	}
+	return false
+}
+
+// isPowerRectifier tells whether part ci is a rectifier that feeds a
+// supply: a diode the netlist types "rectifier", or a diode or valve diode
+// with a reservoir-sized capacitor on one of its terminals. A signal
+// detector's load is hundreds of picofarads (reservoirMin), so a detector
+// feeding an AGC line is not one.
+func (x *figCtx) isPowerRectifier(ci int) bool {
+	p := x.w.parts[ci]
+	if p.Kind == graph.Diode && p.Type == "rectifier" {
+		return true
+	}
+	if p.Kind != graph.Diode && !(p.Kind == graph.Valve && isValveDiode(p)) {
+		return false
+	}
+	for _, id := range x.w.pins[ci] {
+		if x.isReservoir(id) {
+			return true
+		}
+	}
+	return false
 }
 
 // feedsStage is the device whose supply net feeds through DC paths (not
