@@ -117,6 +117,12 @@ func toneAt(c *graph.Circuit, bare *ac.Response, net string, b value.Range) (ton
 	if err != nil {
 		return toneEnd{}, false
 	}
+	return cutOf(r, bare, b)
+}
+
+// cutOf compares an impedance with the control (r) and without it (bare)
+// over the band b: the −3 dB point, if inside, and the cut at the top.
+func cutOf(r, bare *ac.Response, b value.Range) (toneEnd, bool) {
 	ratio := func(f float64) float64 { return magnitude(r, f) / magnitude(bare, f) }
 	top := ratio(b.Max)
 	if math.IsNaN(top) || top == 0 {

@@ -403,6 +403,25 @@ T1 = { windings = { p = ["10", "10"], s = "0.1" }, k = 0.95, pins = { p1 = "a1",
 C1 = { c = "10n", pins = ["in", "g1"] }
 C2 = { c = "10n", pins = ["inb", "g2"] }
 T1 = { windings = { p = "20", s = "0.1" }, k = 0.95, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }`},
+	// A capacitor from output to output across a push-pull primary cuts
+	// the treble the pair drives into it; it couples nothing.
+	{topology: "top-cut-push-pull", families: allFamilies, want: "passive",
+		parts: `@Q1(g1, gnd, a1)
+@Q2(g2, gnd, a2)
+C1 = { c = "10n", pins = ["in", "g1"] }
+C2 = { c = "10n", pins = ["inb", "g2"] }
+T1 = { windings = { p = ["10", "10"], s = "0.1" }, k = 0.95, pins = { p1 = "a1", pt = "ht", p2 = "a2", s1 = "spk", s2 = "gnd" } }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }
+C3 = { c = "10n", pins = ["a1", "a2"] }`,
+		// A capacitor from the output into the next device's control
+		// electrode couples the signal on: no top cut.
+		nearMiss: `@Q1(g1, gnd, a1)
+@Q2(g2, gnd, a2)
+C1 = { c = "10n", pins = ["in", "g1"] }
+T1 = { windings = { p = ["10", "10"], s = "0.1" }, k = 0.95, pins = { p1 = "a1", pt = "ht", p2 = "x", s1 = "spk", s2 = "gnd" } }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }
+C3 = { c = "10n", pins = ["a1", "g2"] }
+R2 = { r = "470k", pins = ["g2", "gnd"] }`},
 	{topology: "self-oscillating-mixer", families: allFamilies, extra: `[freqs]
 if = "470k"`,
 		parts: `@Q1(g, tap, o)
