@@ -294,7 +294,8 @@ func (nl *netlist) windings(c *graph.Circuit, p *graph.Part, node func(string) i
 		if p.Value.Max > 0 {
 			a, b := node(p.NetOf("1")), node(p.NetOf("2"))
 			if a >= 0 && b >= 0 && a != b {
-				nl.prims = append(nl.prims, prim{kind: primRL, ref: p.Ref, a: a, b: b, l: p.Value.Max})
+				r, _ := p.Param("rdc") // a choke's declared copper, in series (device.WindingRdc)
+				nl.prims = append(nl.prims, prim{kind: primRL, ref: p.Ref, a: a, b: b, r: max(r, 0), l: p.Value.Max})
 			}
 		}
 		return

@@ -47,5 +47,27 @@ func WindingLoss(p *graph.Part, w0 float64) []float64 {
 			r[i], r[j] = loss*sa/(sa+sb), loss*sb/(sa+sb)
 		}
 	}
+	for i, w := range p.Windings {
+		r[i] = math.Max(r[i], WindingRdc(p, w))
+	}
 	return r
+}
+
+// WindingRdc is the DC resistance the netlist declares for a winding (its
+// own rdc, else the part's), 0 when none is declared. The copper is in
+// series with the winding at every frequency, so the small-signal model
+// never takes less loss than it: at audio, where ω·L/Q of an output
+// transformer or a choke is a fraction of an ohm, the copper is the loss
+// (an output transformer's primary resistance costs gain and raises the
+// anode load; handbook transformer equivalent circuit, from memory). At
+// radio frequencies ω·L/Q already includes the copper and is the larger. A
+// default used for DC work (graph/dc) is not a declaration and is left out.
+func WindingRdc(p *graph.Part, w graph.Winding) float64 {
+	if w.Rdc > 0 {
+		return w.Rdc
+	}
+	if v, ok := p.Param("rdc"); ok && v > 0 {
+		return v
+	}
+	return 0
 }
