@@ -64,6 +64,7 @@ type model struct {
 	caps     []branch // capacitors: open, with their leakage (g may be 0); pairs kept for faults
 	origins  []Origin
 	warnings []string
+	unheld   []string // supply nets that declare no volts and are not estimated
 	gmin     float64
 	// Rails estimated from a captured rectifier (rectifier.go): the
 	// rectifier, the index of its reservoir net in fixedV, and the last
@@ -204,7 +205,7 @@ func (m *model) assignNodes(c *graph.Circuit, uf *graph.NamedSets) error {
 		}
 		m.netTerm[n.Name] = t
 		if _, est := estimated[n.Name]; !est && n.Role == graph.Supply && n.Volts == 0 {
-			m.warnings = append(m.warnings, fmt.Sprintf("rail %s declares no volts: it is solved as an ordinary net", n.Name))
+			m.unheld = append(m.unheld, n.Name) // a note only when no rail feeds it (Solve)
 		}
 	}
 	return nil

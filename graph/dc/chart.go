@@ -217,6 +217,7 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 		if part.Type != "triode" {
 			add("screen current", "g2", 1)
 		}
+		p.declaredCurrent(ch, part, "ia", "a", "anode")
 		pd := p.Part(part.Ref)
 		if pmax, ok := part.Param("pmax"); ok && pd != nil {
 			va, _ := p.Volts(part.NetOf("a"))
@@ -229,6 +230,7 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 	case graph.BJT:
 		add("collector current", "c", 1)
 		add("base current", "b", 1)
+		p.declaredCurrent(ch, part, "ic", "c", "collector")
 	case graph.FET:
 		add("drain current", "d", 1)
 	case graph.Diode:
@@ -303,4 +305,49 @@ func (p *Point) railCurrent(net string) float64 {
 		}
 	}
 	return total
+}
+
+// currentSpread is how far a solved anode or collector current may stand
+// from the one the netlist declares before the chart says so: production
+// valves and transistors spread by some ±20–30 % about their published
+// operating point (common practice, no source).
+const currentSpread = 0.3
+
+// cutOff is the share of the declared current under which a part is taken
+// as cut off rather than merely off its operating point.
+const cutOff = 0.01
+
+// declaredCurrent warns when the solved current into pin differs from the
+// netlist's key (ia, ic) by more than currentSpread. The declared value is
+// where the part's gm is stated and, on a service sheet, the current it
+// should run at; a solve far from it says the bias network as captured, or
+// the declared figures, are not those of the set (a wrong cathode or
+// emitter resistor, a screen feed, a value misread), and the small-signal
+// figures taken at the bias move with it.
+func (p *Point) declaredCurrent(ch *Chart, part *graph.Part, key, pin, what string) {
+	want, ok := part.Param(key)
+	if !ok || want <= 0 || part.Pin(pin) == nil {
+		return
+	}
+	got := math.Abs(p.Current(part.Ref, pin))
+	if got < cutOff*want {
+		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s %s current solves to nothing (the part is cut off as captured) against the %s the netlist gives as %s: check its bias feed (a base or grid bias network left out, or an idle current set by a preset the capture does not give)",
+			part.Ref, what, ampsText(want), key))
+		return
+	}
+	if off := got/want - 1; math.Abs(off) > currentSpread {
+		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s %s current solves to %s, %+.0f %% from the %s the netlist gives as %s: check the bias network as captured (cathode or emitter resistor, screen or base feed) and the declared figures against the part's data",
+			part.Ref, what, ampsText(got), 100*off, ampsText(want), key))
+	}
+}
+
+// ampsText is a current with three significant figures and its unit.
+func ampsText(a float64) string {
+	switch {
+	case a >= 1:
+		return fmt.Sprintf("%.3g A", a)
+	case a >= 1e-3:
+		return fmt.Sprintf("%.3g mA", a*1e3)
+	}
+	return fmt.Sprintf("%.3g µA", a*1e6)
 }

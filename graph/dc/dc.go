@@ -11,6 +11,7 @@
 package dc
 
 import (
+	"fmt"
 	"errors"
 	"math"
 	"sort"
@@ -65,7 +66,26 @@ func Solve(c *graph.Circuit) (*Point, error) {
 	pt.Estimates = append([]Estimate(nil), m.estimates...)
 	sort.Slice(pt.Estimates, func(i, j int) bool { return pt.Estimates[i].Net < pt.Estimates[j].Net })
 	pt.fill()
+	pt.noteUnheldRails()
 	return pt, nil
+}
+
+// noteUnheldRails: a supply net that declares no volts is solved as an
+// ordinary net. Fed from a rail through a choke, resistor or winding (the
+// HT after the smoothing choke) that is what it is, and the chart lists it
+// among the supply test points with what feeds it; only a rail nothing
+// feeds so gets a note, since its volts then rest on whatever else
+// reaches it.
+func (p *Point) noteUnheldRails() {
+	fed := map[string]bool{}
+	for _, sp := range p.supplyWalk() {
+		fed[sp.Net] = true
+	}
+	for _, name := range p.m.unheld {
+		if !fed[name] {
+			p.Notes = append(p.Notes, fmt.Sprintf("rail %s declares no volts and no rail feeds it through a resistor, choke or winding: it is solved as an ordinary net", name))
+		}
+	}
 }
 
 // solve runs the strategies in turn. start, when given, is a warm start (a

@@ -26,6 +26,21 @@ type SupplyPoint struct {
 // supplyPoints walks from the rails along feed resistors and coils, in
 // part order, so the list reads from the reservoir outwards.
 func (p *Point) supplyPoints(mt Meter) ([]SupplyPoint, error) {
+	out := p.supplyWalk()
+	for i := range out {
+		v, _ := p.Volts(out[i].Net)
+		r, err := p.Reading(out[i].Net, mt)
+		if err != nil {
+			return nil, err
+		}
+		out[i].Volts, out[i].Reading = clean(v), clean(r)
+	}
+	return out, nil
+}
+
+// supplyWalk is the supply points in the order supplyPoints lists them,
+// without their voltages.
+func (p *Point) supplyWalk() []SupplyPoint {
 	var out []SupplyPoint
 	fed := map[string]bool{}
 	var frontier []string
@@ -39,12 +54,6 @@ func (p *Point) supplyPoints(mt Meter) ([]SupplyPoint, error) {
 		var next []string
 		for _, from := range frontier {
 			for _, sp := range p.fedFrom(from, fed) {
-				v, _ := p.Volts(sp.Net)
-				r, err := p.Reading(sp.Net, mt)
-				if err != nil {
-					return nil, err
-				}
-				sp.Volts, sp.Reading = clean(v), clean(r)
 				fed[sp.Net] = true
 				out = append(out, sp)
 				next = append(next, sp.Net)
@@ -52,7 +61,7 @@ func (p *Point) supplyPoints(mt Meter) ([]SupplyPoint, error) {
 		}
 		frontier = next
 	}
-	return out, nil
+	return out
 }
 
 // fedFrom lists the supply points one feed part away from net from.
