@@ -11,8 +11,8 @@
 package dc
 
 import (
-	"fmt"
 	"errors"
+	"fmt"
 	"math"
 	"sort"
 
