@@ -61,7 +61,7 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	if s == nil || s.Circuit == nil {
 		return nil, fmt.Errorf("render: no circuit to draw")
 	}
-	_, laid, err := cfg.flowRows(s)
+	_, _, laid, err := cfg.flowRows(s)
 	if err != nil {
 		return nil, err
 	}
@@ -82,68 +82,153 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 }
 
 // flowRows cuts the sheet into rows that fill the page's width in signal
-// order and lays each out: the rows and their layouts.
-func (cfg Config) flowRows(s *Sheet) ([][]block, []*layout.Result, error) {
+// order and lays each out: the flow, where each row ends, and the rows'
+// layouts.
+func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 	cw, ch := cfg.Page.content()
 	bs := blocks(s, layout.Extents(s.Circuit, cfg.options(s)))
-	rows := [][]block{bs}
+	f := newFlow(cfg, s, bs)
+	ends := []int{len(bs)}
 	// a row grows in routing, and its connectors take room at both edges
 	if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack {
-		rows = splitRows(bs, cw-rowSlack)
+		ends = splitRows(bs, cw-rowSlack)
 	}
-	return cfg.layoutRows(s, rows, cw, ch-1-cfg.footReserve(s))
+	ends, laid, err := f.layoutRows(ends, cw, ch-1-cfg.footReserve(s))
+	return f, ends, laid, err
+}
+
+// splitRows packs the blocks into rows no wider than width, in signal
+// order, and returns where each row ends; a block wider than a row gets a
+// row of its own.
+func splitRows(bs []block, width float64) []int {
+	var ends []int
+	x0 := 0.0
+	for i, b := range bs {
+		if i == 0 || (b.x1-x0 > width && !b.port) {
+			if i > 0 {
+				ends = append(ends, i)
+			}
+			x0 = b.x0
+		}
+	}
+	return append(ends, len(bs))
+}
+
+// start is where row i begins, given where each row ends.
+func start(ends []int, i int) int {
+	if i == 0 {
+		return 0
+	}
+	return ends[i-1]
 }
 
 // layoutRows lays out each row in turn (the sheet itself when there is
-// one row), moving a row's last stretch on to the next row while it comes
-// out wider or taller than the page and can be cut, and taking the next
-// row's first stretch while the row still has room for it: the placement
-// without routing overstates a row's width (the gaps of the whole sheet),
-// so only a routed row says whether the next stage fits beside it. A row's
-// connectors depend only on which nets the rows before it and after it
-// hold, so moving stretches between later rows never changes a row already
-// laid out: each row is laid out once plus once per stretch it gives away
-// or tries to take.
-func (cfg Config) layoutRows(s *Sheet, rows [][]block, cw, ch float64) ([][]block, []*layout.Result, error) {
+// one row), cutting a row's last stretches off to the next row while it
+// comes out wider or taller than the page and can be cut, and taking the
+// next row's first stretch while the row still has room for it: the
+// placement without routing overstates a row's width (the gaps of the
+// whole sheet), so only a routed row says whether the next stage fits
+// beside it. A row's connectors depend only on which stretches come before
+// and after it, so moving stretches between later rows never changes a
+// row already laid out.
+//
+// A row too wide is cut where its stretches' placed widths, scaled by what
+// routing made of the whole row, say it fits: several stretches at once on
+// a row the first cut overfilled, where cutting one at a time laid the row
+// out once per stretch. A row cut by more than one stretch then takes
+// stretches back while they fit, so every row still ends only where the
+// next stretch does not fit beside it.
+func (f *flow) layoutRows(ends []int, cw, ch float64) ([]int, []*layout.Result, error) {
 	var out []*layout.Result
-	for i := 0; i < len(rows); i++ {
+	for i := 0; i < len(ends); i++ {
 		var r *layout.Result
-		peeled := false
+		known := false // the row with one more stretch is known not to fit
 		for {
+			a, b := start(ends, i), ends[i]
 			var err error
-			if r, err = cfg.layoutRow(s, rows, i); err != nil {
+			if r, err = f.layout(a, b); err != nil {
 				return nil, nil, err
 			}
-			if len(rows[i]) == 1 || fits(r, cw, ch) {
+			if b-a == 1 || fits(r, cw, ch) {
 				break
 			}
-			rows, peeled = peel(rows, i), true
+			c := f.cut(a, b, r, cw)
+			known = c == peelCut(f.bs, a, b)
+			ends = moveEnd(ends, i, c)
 		}
-		for !peeled && i+1 < len(rows) && fits(r, cw, ch) {
-			grown := pull(rows, i)
-			if span(grown[i]) > cw {
+		for !known && i+1 < len(ends) && fits(r, cw, ch) {
+			a, grown := start(ends, i), pullEnd(f.bs, ends, i)
+			if span(f.bs[a:grown]) > cw {
 				break
 			}
-			g, err := cfg.layoutRow(s, grown, i)
+			g, err := f.layout(a, grown)
 			if err != nil {
 				return nil, nil, err
 			}
 			if !fits(g, cw, ch) {
 				break
 			}
-			rows, r = grown, g
+			ends, r = moveEnd(ends, i, grown), g
 		}
 		out = append(out, r)
 	}
-	return rows, out, nil
+	return ends, out, nil
 }
 
-// layoutRow lays out row i of rows: the sheet itself when it is the only row.
-func (cfg Config) layoutRow(s *Sheet, rows [][]block, i int) (*layout.Result, error) {
-	if len(rows) == 1 {
-		return cfg.layout(s)
+// peelCut is where the row [a, b) ends once its last stretch goes to the
+// next row: a port stays with the stretch before it.
+func peelCut(bs []block, a, b int) int {
+	c := b - 1
+	for c > a+1 && bs[c].port {
+		c--
 	}
-	return cfg.layout(rowSheets(s, rowRefs(rows))[i])
+	return c
+}
+
+// pullEnd is where row i ends once it takes the next row's first stretch
+// and the ports that follow it.
+func pullEnd(bs []block, ends []int, i int) int {
+	e := ends[i] + 1
+	for e < ends[i+1] && bs[e].port {
+		e++
+	}
+	return e
+}
+
+// cut is where the row [a, b), laid out as r and too big for the page,
+// is cut: when too wide, the last cut whose stretches' placed extent,
+// scaled by how much wider routing made the whole row than its placed
+// extent, fits the page's width; else one stretch off (a row too tall).
+func (f *flow) cut(a, b int, r *layout.Result, cw float64) int {
+	one := peelCut(f.bs, a, b)
+	w := r.Geom.Bounds.W()
+	est := f.bs[b-1].x1 - f.bs[a].x0
+	if w <= cw || est <= 0 {
+		return one
+	}
+	scale := w / est
+	for c := one; c > a+1; c-- {
+		if !f.bs[c].port && (f.bs[c-1].x1-f.bs[a].x0)*scale <= cw {
+			return c
+		}
+	}
+	return a + 1
+}
+
+// moveEnd ends row i at e: stretches cut off go to the start of the next
+// row (a new row after the last), stretches taken come from it, and a next
+// row left empty is dropped.
+func moveEnd(ends []int, i, e int) []int {
+	old := ends[i]
+	out := append([]int{}, ends...)
+	out[i] = e
+	switch {
+	case e < old && i+1 == len(ends):
+		out = append(out, old)
+	case e > old && i+1 < len(ends) && out[i+1] == e:
+		out = append(out[:i+1], out[i+2:]...)
+	}
+	return out
 }
 
 // fits says whether a laid-out row goes on a page's printable area.

@@ -7,7 +7,6 @@ import (
 
 	"pare/graph"
 	"pare/render/geom"
-	"pare/render/layout"
 	"pare/render/symbol"
 )
 
@@ -65,20 +64,28 @@ type block struct {
 	x0, x1 float64
 	refs   []string
 	port   bool
+	ch     int // the channel it belongs to (channels), 0 on a set of one
 }
 
-// blocks are the uncuttable stretches of a sheet left to right, from a
-// placement without routing.
+// blocks are the uncuttable stretches of a sheet in signal order, from a
+// placement without routing: channel after channel, each left to right,
+// with x measured as if the channels stood in one line (a channel's x
+// shifted to start channelGap after the last one's end), so the widths
+// and gaps of a run of stretches read as on one row.
 func blocks(s *Sheet, ext map[string]geom.Rect) []block {
+	chOf := channels(s.Circuit)
 	framed := map[string]bool{}
 	var bs []block
 	add := func(refs []string) {
-		b := block{x0: 1e18, x1: -1e18}
+		b := block{x0: 1e18, x1: -1e18, ch: -1}
 		for _, r := range refs {
 			if e, ok := ext[r]; ok && !framed[r] {
 				framed[r] = true
 				b.refs = append(b.refs, r)
 				b.x0, b.x1 = min(b.x0, e.X0), max(b.x1, e.X1)
+				if c := chOf[r]; b.ch < 0 || c < b.ch {
+					b.ch = c
+				}
 			}
 		}
 		if len(b.refs) > 0 {
@@ -94,175 +101,77 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 			bs[n-1].port = true
 		}
 	}
-	sort.SliceStable(bs, func(i, j int) bool { return bs[i].x0 < bs[j].x0 })
-	// stretches that overlap in x cannot be cut apart
+	sort.SliceStable(bs, func(i, j int) bool {
+		if bs[i].ch != bs[j].ch {
+			return bs[i].ch < bs[j].ch
+		}
+		return bs[i].x0 < bs[j].x0
+	})
+	// stretches of a channel that overlap in x cannot be cut apart
 	var out []block
 	for _, b := range bs {
-		if n := len(out); n > 0 && b.x0 < out[n-1].x1 {
+		if n := len(out); n > 0 && b.ch == out[n-1].ch && b.x0 < out[n-1].x1 {
 			out[n-1].x1 = max(out[n-1].x1, b.x1)
 			out[n-1].refs = append(out[n-1].refs, b.refs...)
 			continue
 		}
 		out = append(out, b)
 	}
-	return out
-}
-
-// splitRows packs the blocks into rows no wider than width, in signal
-// order; a block wider than a row gets a row of its own.
-func splitRows(bs []block, width float64) [][]block {
-	var rows [][]block
-	x0 := 0.0
-	for _, b := range bs {
-		if len(rows) == 0 || (b.x1-x0 > width && !b.port) {
-			rows = append(rows, nil)
-			x0 = b.x0
+	shift := 0.0
+	for i := range out {
+		if i > 0 && out[i].ch != out[i-1].ch {
+			shift = out[i-1].x1 + channelGap - out[i].x0
 		}
-		rows[len(rows)-1] = append(rows[len(rows)-1], b)
-	}
-	return rows
-}
-
-// peel moves the last stretch of row i to the start of the next row (a
-// new row after the last): the row came out wider or taller than the page
-// once routed. Rows stay as full as they can, so a sheet takes few pages.
-func peel(rows [][]block, i int) [][]block {
-	r := rows[i]
-	cut := len(r) - 1
-	for cut > 1 && r[cut].port {
-		cut--
-	}
-	out := append([][]block{}, rows[:i]...)
-	out = append(out, r[:cut])
-	moved := append([]block{}, r[cut:]...)
-	if i+1 < len(rows) {
-		return append(append(out, append(moved, rows[i+1]...)), rows[i+2:]...)
-	}
-	return append(out, moved)
-}
-
-// pull moves the first stretch of row i+1 (with the ports that follow it)
-// to the end of row i, dropping row i+1 when nothing is left of it: row i
-// came out with room to spare.
-func pull(rows [][]block, i int) [][]block {
-	next := rows[i+1]
-	k := 1
-	for k < len(next) && next[k].port {
-		k++
-	}
-	out := append([][]block{}, rows[:i]...)
-	out = append(out, append(append([]block{}, rows[i]...), next[:k]...))
-	if k < len(next) {
-		out = append(out, append([]block{}, next[k:]...))
-	}
-	return append(out, rows[i+2:]...)
-}
-
-// rowRefs are the parts of each row.
-func rowRefs(rows [][]block) []map[string]bool {
-	out := make([]map[string]bool, len(rows))
-	for i, r := range rows {
-		out[i] = map[string]bool{}
-		for _, b := range r {
-			for _, ref := range b.refs {
-				out[i][ref] = true
-			}
-		}
+		out[i].x0 += shift
+		out[i].x1 += shift
 	}
 	return out
 }
 
-// rowSheets are the rows as sheets of their own: the circuit cut to the
-// row's parts, its frames, and an off-row connector for every net that
-// runs on in another row.
-func rowSheets(s *Sheet, rows []map[string]bool) []*Sheet {
-	rowsOf := map[string][]int{}
-	for i, r := range rows {
-		for _, p := range s.Circuit.Parts {
-			if !r[p.Ref] {
-				continue
-			}
-			for _, pn := range p.Pins {
-				if l := rowsOf[pn.Net]; len(l) == 0 || l[len(l)-1] != i {
-					rowsOf[pn.Net] = append(l, i)
-				}
-			}
-		}
-	}
-	out := make([]*Sheet, len(rows))
-	for i, r := range rows {
-		sub := *s
-		sub.Circuit = subCircuit(s.Circuit, r)
-		sub.Frames = nil
-		for _, f := range s.Frames {
-			g := Frame{Title: f.Title, Subtitle: f.Subtitle, Places: f.Places}
-			for _, p := range f.Parts {
-				if r[p] {
-					g.Parts = append(g.Parts, p)
-				}
-			}
-			if len(g.Parts) > 0 {
-				sub.Frames = append(sub.Frames, g)
-			}
-		}
-		sub.continues = continues(sub.Circuit, rowsOf, i)
-		out[i] = &sub
-	}
-	return out
-}
+// channelGap is the gap, in grid units, taken between the last stretch of
+// one channel and the first of the next when the stretches are measured
+// in one line: about the gap between two stages of a placed sheet.
+const channelGap = 8
 
-// continues are the off-row connectors of row i: the wired nets of its parts
-// that other rows share, incoming from an earlier row, outgoing to a later.
-func continues(c *graph.Circuit, rowsOf map[string][]int, i int) []layout.Continuation {
-	var nets []string
-	seen := map[string]bool{}
+// channels numbers the parts of a circuit by the channel they are on: the
+// parts joined by wired nets that are not at AC ground, numbered in the
+// order of the first input each group holds (the netlist's order). A set
+// of several receivers side by side (a bank) is drawn channel after
+// channel, each in the order its signal passes, rather than stage type by
+// stage type across channels as the whole sheet's layered placement puts
+// them. Parts of a group with no input (a supply, a heater chain), and
+// every part of a set with one channel or none, are on channel 0: a
+// single set keeps the order of its placement.
+func channels(c *graph.Circuit) map[string]int {
+	var sets graph.NamedSets
+	wired := func(n string) bool { return n != "" && n != "nc" && !c.RoleOf(n).IsACGround() }
+	first := map[string]string{} // part ref → one of its wired nets
 	for _, p := range c.Parts {
 		for _, pn := range p.Pins {
-			n := pn.Net
-			if n == "" || n == "nc" || seen[n] || c.RoleOf(n).IsACGround() || len(rowsOf[n]) < 2 {
+			if !wired(pn.Net) {
 				continue
 			}
-			seen[n] = true
-			nets = append(nets, n)
-		}
-	}
-	sort.Strings(nets)
-	var out []layout.Continuation
-	for _, n := range nets {
-		l := rowsOf[n]
-		if l[0] < i {
-			out = append(out, layout.Continuation{Net: n, Label: n, In: true})
-		}
-		if l[len(l)-1] > i {
-			out = append(out, layout.Continuation{Net: n, Label: n})
-		}
-	}
-	return out
-}
-
-// subCircuit is the circuit cut to some parts: its nets and rails as they
-// are, the inputs and outputs that still have a part on them.
-func subCircuit(c *graph.Circuit, keep map[string]bool) *graph.Circuit {
-	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
-		Nets: c.Nets, Rails: c.Rails}
-	on := map[string]bool{}
-	for _, p := range c.Parts {
-		if keep[p.Ref] {
-			sub.Parts = append(sub.Parts, p)
-			for _, pn := range p.Pins {
-				on[pn.Net] = true
+			if f, ok := first[p.Ref]; ok {
+				sets.Union(f, pn.Net)
+			} else {
+				first[p.Ref] = pn.Net
 			}
 		}
 	}
+	rank := map[string]int{}
 	for _, n := range c.Inputs {
-		if on[n] {
-			sub.Inputs = append(sub.Inputs, n)
+		if g := sets.Find(n); wired(n) {
+			if _, ok := rank[g]; !ok {
+				rank[g] = len(rank)
+			}
 		}
 	}
-	for _, n := range c.Outputs {
-		if on[n] {
-			sub.Outputs = append(sub.Outputs, n)
-		}
+	out := make(map[string]int, len(first))
+	if len(rank) < 2 {
+		return out
 	}
-	return sub
+	for ref, n := range first {
+		out[ref] = rank[sets.Find(n)]
+	}
+	return out
 }

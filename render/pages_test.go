@@ -189,25 +189,25 @@ func TestRowsFillThePage(t *testing.T) {
 		p, _ := ParsePaper(tc.paper)
 		cfg := Config{Page: p}
 		s := tc.sheet()
-		rows, laid, err := cfg.flowRows(s)
+		f, ends, laid, err := cfg.flowRows(s)
 		if err != nil {
 			t.Fatal(err)
 		}
 		cw, ch := p.content()
 		ch -= 1 + cfg.footReserve(s)
-		t.Logf("%s on %s: %d rows", tc.name, tc.paper, len(rows))
-		for i := 0; i+1 < len(rows); i++ {
-			if !fits(laid[i], cw, ch) && len(rows[i]) > 1 {
+		t.Logf("%s on %s: %d rows", tc.name, tc.paper, len(ends))
+		for i := 0; i+1 < len(ends); i++ {
+			if !fits(laid[i], cw, ch) && ends[i]-start(ends, i) > 1 {
 				t.Errorf("%s on %s: row %d is %.0f × %.0f, beyond the page", tc.name, tc.paper, i+1,
 					laid[i].Geom.Bounds.W(), laid[i].Geom.Bounds.H())
 			}
-			g, err := cfg.layoutRow(s, pull(rows, i), i)
+			g, err := f.layout(start(ends, i), pullEnd(f.bs, ends, i))
 			if err != nil {
 				t.Fatal(err)
 			}
 			if fits(g, cw, ch) {
 				t.Errorf("%s on %s: row %d of %d ends with room for the next stretch (%.0f units wide with it, the page %.0f)",
-					tc.name, tc.paper, i+1, len(rows), g.Geom.Bounds.W(), cw)
+					tc.name, tc.paper, i+1, len(ends), g.Geom.Bounds.W(), cw)
 			}
 		}
 	}

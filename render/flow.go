@@ -1,0 +1,171 @@
+package render
+
+import (
+	"sort"
+
+	"pare/graph"
+	"pare/render/layout"
+)
+
+// flow is a sheet's stretches (blocks, in signal order) being cut into
+// rows. A row is a run of stretches [a, b): its parts, its frames and its
+// off-row connectors follow from a and b alone (a net comes in from an
+// earlier row when a stretch before a holds it, goes on to a later one
+// when a stretch from b on does), so a row is laid out once however often
+// the cutting asks for it.
+type flow struct {
+	cfg         Config
+	s           *Sheet
+	bs          []block
+	first, last map[string]int // wired net → the first and last stretch holding one of its parts
+	part        map[string]*graph.Part
+	at          map[string]int // part ref → its place in the circuit's (sorted) parts
+	frameSpan   [][2]int       // per frame: the first and last stretch holding its parts
+	blockOf     map[string]int // part ref → its stretch
+	laid        map[[2]int]*layout.Result
+}
+
+func newFlow(cfg Config, s *Sheet, bs []block) *flow {
+	f := &flow{cfg: cfg, s: s, bs: bs, first: map[string]int{}, last: map[string]int{},
+		part: map[string]*graph.Part{}, at: map[string]int{}, blockOf: map[string]int{},
+		laid: map[[2]int]*layout.Result{}}
+	for i, p := range s.Circuit.Parts {
+		f.part[p.Ref], f.at[p.Ref] = p, i
+	}
+	for i, b := range bs {
+		for _, ref := range b.refs {
+			f.blockOf[ref] = i
+			p := f.part[ref]
+			if p == nil {
+				continue
+			}
+			for _, pn := range p.Pins {
+				if _, ok := f.first[pn.Net]; !ok {
+					f.first[pn.Net] = i
+				}
+				f.last[pn.Net] = i
+			}
+		}
+	}
+	for _, fr := range s.Frames {
+		sp := [2]int{len(bs), -1}
+		for _, ref := range fr.Parts {
+			if i, ok := f.blockOf[ref]; ok {
+				sp = [2]int{min(sp[0], i), max(sp[1], i)}
+			}
+		}
+		f.frameSpan = append(f.frameSpan, sp)
+	}
+	return f
+}
+
+// layout lays out the row of stretches [a, b), the sheet itself when the
+// row holds them all; a row asked for again is not laid out again.
+func (f *flow) layout(a, b int) (*layout.Result, error) {
+	if r, ok := f.laid[[2]int{a, b}]; ok {
+		return r, nil
+	}
+	sh := f.s
+	if a > 0 || b < len(f.bs) {
+		sh = f.sheet(a, b)
+	}
+	r, err := f.cfg.layout(sh)
+	if err != nil {
+		return nil, err
+	}
+	f.laid[[2]int{a, b}] = r
+	return r, nil
+}
+
+// sheet is the row [a, b) as a sheet of its own: the circuit cut to the
+// row's parts, its frames, and an off-row connector for every net that
+// runs on in another row. It costs the row's size (and a look at each
+// frame's span), not the whole sheet's.
+func (f *flow) sheet(a, b int) *Sheet {
+	sub := *f.s
+	keep := map[string]bool{}
+	var parts []*graph.Part
+	for _, bl := range f.bs[a:b] {
+		for _, ref := range bl.refs {
+			if p := f.part[ref]; p != nil && !keep[ref] {
+				keep[ref] = true
+				parts = append(parts, p)
+			}
+		}
+	}
+	sort.Slice(parts, func(i, j int) bool { return f.at[parts[i].Ref] < f.at[parts[j].Ref] })
+	sub.Circuit = subCircuit(f.s.Circuit, parts)
+	sub.Frames = nil
+	for k, fr := range f.s.Frames {
+		if sp := f.frameSpan[k]; sp[1] < a || sp[0] >= b {
+			continue
+		}
+		g := Frame{Title: fr.Title, Subtitle: fr.Subtitle, Places: fr.Places}
+		for _, p := range fr.Parts {
+			if keep[p] {
+				g.Parts = append(g.Parts, p)
+			}
+		}
+		if len(g.Parts) > 0 {
+			sub.Frames = append(sub.Frames, g)
+		}
+	}
+	sub.continues = f.continues(parts, a, b)
+	return &sub
+}
+
+// continues are the off-row connectors of the row [a, b) of these parts:
+// the wired nets of its parts that other rows share, incoming from an
+// earlier row, outgoing to a later. A net's role is read on the whole
+// circuit (the row's shares its nets), whose index is built once.
+func (f *flow) continues(parts []*graph.Part, a, b int) []layout.Continuation {
+	c := f.s.Circuit
+	var nets []string
+	seen := map[string]bool{}
+	for _, p := range parts {
+		for _, pn := range p.Pins {
+			n := pn.Net
+			if n == "" || n == "nc" || seen[n] || (f.first[n] >= a && f.last[n] < b) || c.RoleOf(n).IsACGround() {
+				continue
+			}
+			seen[n] = true
+			nets = append(nets, n)
+		}
+	}
+	sort.Strings(nets)
+	var out []layout.Continuation
+	for _, n := range nets {
+		if f.first[n] < a {
+			out = append(out, layout.Continuation{Net: n, Label: n, In: true})
+		}
+		if f.last[n] >= b {
+			out = append(out, layout.Continuation{Net: n, Label: n})
+		}
+	}
+	return out
+}
+
+// subCircuit is the circuit cut to some of its parts (in its order): its
+// nets and rails as they are, the inputs and outputs that still have a
+// part on them.
+func subCircuit(c *graph.Circuit, parts []*graph.Part) *graph.Circuit {
+	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
+		Nets: c.Nets, Rails: c.Rails, Parts: parts}
+	on := map[string]bool{}
+	for _, p := range parts {
+		for _, pn := range p.Pins {
+			on[pn.Net] = true
+		}
+	}
+	for _, n := range c.Inputs {
+		if on[n] {
+			sub.Inputs = append(sub.Inputs, n)
+		}
+	}
+	for _, n := range c.Outputs {
+		if on[n] {
+			sub.Outputs = append(sub.Outputs, n)
+		}
+	}
+	return sub
+}
