@@ -152,9 +152,16 @@ func (f *flow) layoutRows(ends []int, cw, ch float64) ([]int, []*layout.Result, 
 			if b-a == 1 || fits(r, cw, ch) {
 				break
 			}
-			c := f.cut(a, b, r, cw)
+			c, scale := f.cut(a, b, r, cw)
 			known = c == peelCut(f.bs, a, b)
 			ends = moveEnd(ends, i, c)
+			if scale > 0 {
+				// the rows after start afresh from the same measure,
+				// rather than each taking the last one's overflow
+				for k, e := range splitRows(f.bs[c:], cw/scale) {
+					ends = append(ends[:i+1+k], c+e)
+				}
+			}
 		}
 		for !known && i+1 < len(ends) && fits(r, cw, ch) {
 			a, grown := start(ends, i), pullEnd(f.bs, ends, i)
@@ -196,23 +203,24 @@ func pullEnd(bs []block, ends []int, i int) int {
 }
 
 // cut is where the row [a, b), laid out as r and too big for the page,
-// is cut: when too wide, the last cut whose stretches' placed extent,
-// scaled by how much wider routing made the whole row than its placed
-// extent, fits the page's width; else one stretch off (a row too tall).
-func (f *flow) cut(a, b int, r *layout.Result, cw float64) int {
+// is cut, and the scale from placed to routed width it judged by: when too
+// wide, the last cut whose stretches' placed extent, scaled by how much
+// wider routing made the whole row than its placed extent, fits the
+// page's width; else one stretch off (a row too tall), and no scale.
+func (f *flow) cut(a, b int, r *layout.Result, cw float64) (int, float64) {
 	one := peelCut(f.bs, a, b)
 	w := r.Geom.Bounds.W()
 	est := f.bs[b-1].x1 - f.bs[a].x0
 	if w <= cw || est <= 0 {
-		return one
+		return one, 0
 	}
 	scale := w / est
 	for c := one; c > a+1; c-- {
 		if !f.bs[c].port && (f.bs[c-1].x1-f.bs[a].x0)*scale <= cw {
-			return c
+			return c, scale
 		}
 	}
-	return a + 1
+	return a + 1, scale
 }
 
 // moveEnd ends row i at e: stretches cut off go to the start of the next

@@ -69,9 +69,8 @@ type block struct {
 
 // blocks are the uncuttable stretches of a sheet in signal order, from a
 // placement without routing: channel after channel, each left to right,
-// with x measured as if the channels stood in one line (a channel's x
-// shifted to start channelGap after the last one's end), so the widths
-// and gaps of a run of stretches read as on one row.
+// with x measured as if the channels stood in one line (inLine), so the
+// widths and gaps of a run of stretches read as on one row.
 func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 	chOf := channels(s.Circuit)
 	framed := map[string]bool{}
@@ -117,20 +116,65 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		}
 		out = append(out, b)
 	}
-	shift := 0.0
-	for i := range out {
-		if i > 0 && out[i].ch != out[i-1].ch {
-			shift = out[i-1].x1 + channelGap - out[i].x0
-		}
-		out[i].x0 += shift
-		out[i].x1 += shift
+	if len(out) > 0 && out[len(out)-1].ch > 0 {
+		inLine(out)
+		out = leadingPorts(out)
 	}
 	return out
 }
 
-// channelGap is the gap, in grid units, taken between the last stretch of
-// one channel and the first of the next when the stretches are measured
-// in one line: about the gap between two stages of a placed sheet.
+// leadingPorts joins the ports that open a channel (its input sockets) to
+// the channel's first stretch, of a sheet of several channels: a port is
+// otherwise held to the stretch before it, which is the last channel's
+// end, and a row with room to spare took the next channel's socket alone.
+func leadingPorts(bs []block) []block {
+	var out []block
+	lead := 0 // ports opening the channel, at the end of out
+	for i, b := range bs {
+		if i == 0 || b.ch != bs[i-1].ch {
+			lead = 0
+		}
+		if lead > 0 && !b.port {
+			n := len(out) - lead
+			for _, p := range out[n:] {
+				b.refs = append(append([]string{}, p.refs...), b.refs...)
+				b.x0 = min(b.x0, p.x0)
+			}
+			out, lead = out[:n], -1
+		}
+		out = append(out, b)
+		if b.port && lead >= 0 && (i == 0 || b.ch != bs[i-1].ch || lead > 0) {
+			lead++
+		}
+	}
+	return out
+}
+
+// inLine measures the stretches of several channels as if they stood in
+// one line: each channel after the last one's end, a gap no wider than
+// channelGap between stretches (the whole sheet's gaps are as wide as the
+// widest channel's part in each column, and it puts every channel's ports
+// at its edges).
+func inLine(bs []block) {
+	end, was := 0.0, 0.0 // where the last stretch ends, in line and as placed
+	for i := range bs {
+		w, gap := bs[i].x1-bs[i].x0, float64(channelGap)
+		switch {
+		case i == 0:
+			gap = 0
+		case bs[i].ch == bs[i-1].ch:
+			gap = min(gap, max(0, bs[i].x0-was))
+		}
+		was = bs[i].x1
+		bs[i].x0 = end + gap
+		bs[i].x1 = bs[i].x0 + w
+		end = bs[i].x1
+	}
+}
+
+// channelGap is the widest gap, in grid units, between two stretches of a
+// sheet of several channels measured in one line: about the gap between
+// two stages of a placed chain.
 const channelGap = 8
 
 // channels numbers the parts of a circuit by the channel they are on: the
