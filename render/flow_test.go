@@ -106,3 +106,17 @@ func atoi(t *testing.T, s string) int {
 	}
 	return n
 }
+
+// go test -bench DrawPaged ./render: a bank of 8 chains of 20 triode
+// stages (about 1,000 parts) cut into rows on A3 pages, the flow of a
+// whole set's sheet (docs/performance.md, "Rows of a paged sheet").
+func BenchmarkDrawPaged(b *testing.B) {
+	s := bankSheet(8, 20)
+	cfg := Config{Page: &Papers[1]}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := cfg.FprintPages(s); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
