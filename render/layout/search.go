@@ -24,6 +24,7 @@ type scratch struct {
 	st  []stateInfo
 	gen uint32
 	q   stateQueue
+	key []byte // memoKey's buffer
 }
 
 // next starts a new search over n states.
@@ -81,7 +82,7 @@ type seek struct {
 	pinCell int
 	to      aim
 	win     window
-	ww      int    // the window's width
+	shift   uint   // rows of the window's points are numbered 1<<shift apart
 	cellAt  [4]int // grid index step in each direction
 	stateAt [4]int // state number step (of the point) in each direction
 }
@@ -91,18 +92,34 @@ type seek struct {
 //
 // States are numbered inside the window, row by row as on the grid, so the
 // search's memory is as small as its window (and stays in the cache) while
-// state numbers keep the grid's order, which the queue's ties follow.
+// state numbers keep the grid's order, which the queue's ties follow. A row
+// is numbered from a power of two (the window's width rounded up), which
+// keeps that order and turns a state's number back into its point with a
+// shift and a mask instead of a division.
 func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int {
-	sc := rt.sc
-	k := seek{net: net, pinCell: p.cell, win: win, ww: win.x1 - win.x0 + 1,
+	k := seek{net: net, pinCell: p.cell, win: win, shift: uint(bits.Len(uint(win.x1 - win.x0))),
 		to: aim{int(tree.X0) - rt.x0, int(tree.Y0) - rt.y0, int(tree.X1) - rt.x0, int(tree.Y1) - rt.y0}}
 	for d, st := range dirStep {
 		k.cellAt[d] = st[0] + st[1]*rt.w
-		k.stateAt[d] = 4 * (st[0] + st[1]*k.ww)
+		k.stateAt[d] = 4 * (st[0] + st[1]<<k.shift)
 	}
-	sc.next(4 * k.ww * (win.y1 - win.y0 + 1))
+	key := rt.memoKey(&k, p)
+	if e, ok := memoGet(key); ok {
+		rt.pops += e.pops
+		return rt.fromWindow(e.path, win)
+	}
+	pops := rt.pops
+	path := rt.astar(&k, p)
+	memoPut(key, memoEntry{path: rt.toWindow(path, win), pops: rt.pops - pops})
+	return path
+}
+
+// astar is the search itself (search's comment).
+func (rt *router) astar(k *seek, p wirePin) []int {
+	sc, net, win := rt.sc, k.net, k.win
+	sc.next(4 * (win.y1 - win.y0 + 1) << k.shift)
 	px, py := p.cell%rt.w, p.cell/rt.w
-	start := int32(((py-win.y0)*k.ww+px-win.x0)*4 + int(p.pin.Dir))
+	start := int32(((py-win.y0)<<k.shift+px-win.x0)*4 + int(p.pin.Dir))
 	sc.st[start] = stateInfo{stamp: sc.gen << 2, g: 0}
 	sc.q.push(k.to.estimate(px, py), start)
 	for sc.q.len() > 0 {
@@ -110,16 +127,15 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 		rt.pops++
 		lc, d := int(uint32(s)>>2), int(s&3)
 		g := sc.st[s].g
-		ly := lc / k.ww
-		x, y := lc-ly*k.ww+win.x0, ly+win.y0
+		x, y := lc&(1<<k.shift-1)+win.x0, lc>>k.shift+win.y0
 		if f != g+k.to.estimate(x, y) {
 			continue // stale entry: the state was reached more cheaply since
 		}
 		c := y*rt.w + x
 		if c != p.cell && rt.owns(c, net) {
-			return rt.path(int(s), int(start), win)
+			return rt.path(k, int(s), int(start))
 		}
-		rt.expand(&k, c, int(s)&^3, x, y, d, g)
+		rt.expand(k, c, int(s)&^3, x, y, d, g)
 	}
 	return nil
 }
@@ -247,17 +263,20 @@ func (rt *router) stepExtra(net int32, c, n, nx, ny, nd int) (int32, bool) {
 }
 
 // path lists the cells from the pin (state start) to state s, both
-// numbered in the window.
-func (rt *router) path(s, start int, win window) []int {
-	ww := win.x1 - win.x0 + 1
+// numbered in the search's window.
+func (rt *router) path(k *seek, s, start int) []int {
+	cell := func(s int) int {
+		lc := s >> 2
+		return (lc>>k.shift+k.win.y0)*rt.w + lc&(1<<k.shift-1) + k.win.x0
+	}
 	var out []int
 	for s != start {
-		lc, d := s/4, s%4
-		out = append(out, (lc/ww+win.y0)*rt.w+lc%ww+win.x0)
-		prev := lc - dirStep[d][0] - dirStep[d][1]*ww
+		d := s & 3
+		out = append(out, cell(s))
+		prev := s>>2 - dirStep[d][0] - dirStep[d][1]<<k.shift
 		s = prev*4 + int(rt.sc.st[s].stamp&3)
 	}
-	out = append(out, (start/4/ww+win.y0)*rt.w+start/4%ww+win.x0)
+	out = append(out, cell(start))
 	for i, j := 0, len(out)-1; i < j; i, j = i+1, j-1 {
 		out[i], out[j] = out[j], out[i]
 	}

@@ -15,12 +15,19 @@ func Layout(c *graph.Circuit, o Options) (*Result, error) {
 	sc := scratchPool.Get().(*scratch)
 	defer scratchPool.Put(sc)
 	u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: sc}
+	best := u.run()
+	return assemble(best.ly, best.w), nil
+}
+
+// run is the plain layout and, where the options ask and it has crossings,
+// the untangle search.
+func (u *untangler) run() *routed {
 	best := u.layout(nil, false)
 	u.plan(best)
-	if best.crossings > 0 && o.Untangle && len(best.ly.cells) <= maxRetryCells {
+	if best.crossings > 0 && u.o.Untangle && len(best.ly.cells) <= maxRetryCells {
 		best = u.untangle(best)
 	}
-	return assemble(best.ly, best.w), nil
+	return best
 }
 
 // scratchPool keeps the router's search memory from one sheet to the next
