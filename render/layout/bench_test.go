@@ -21,7 +21,9 @@ import (
 //	go test -run XXX -bench . -benchtime 5x ./render/layout/
 //
 // Besides wall time each reports the process's CPU time per layout
-// (cpu-ms/op, from getrusage), which a shared machine disturbs less.
+// (cpu-ms/op, from getrusage), which a shared machine disturbs less. The
+// search memo is emptied before each operation, which is timed as a fresh
+// process would run it.
 
 func loadFixture(tb testing.TB, path string) *graph.Circuit {
 	tb.Helper()
@@ -53,6 +55,7 @@ func benchLayout(b *testing.B, c *graph.Circuit, o Options) {
 	b.ResetTimer()
 	c0 := cpuNow()
 	for i := 0; i < b.N; i++ {
+		resetMemo() // each layout as a fresh process makes it
 		if _, err := Layout(c, o); err != nil {
 			b.Fatal(err)
 		}
@@ -139,6 +142,7 @@ func BenchmarkBankChannels(b *testing.B) {
 	b.ResetTimer()
 	c0 := cpuNow()
 	for i := 0; i < b.N; i++ {
+		resetMemo() // each run as a fresh process makes it
 		for _, c := range sheets {
 			if _, err := Layout(c, Options{Links: true}); err != nil {
 				b.Fatal(err)

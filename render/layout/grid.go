@@ -225,26 +225,6 @@ func (rt *router) markHugs(b geom.Rect) {
 	}
 }
 
-// inLineAt says whether another net's wire runs along direction d's axis
-// within inLineReach steps of point (x, y) that way, with no symbol between.
-func (rt *router) inLineAt(net int32, x, y, d int) bool {
-	along := alongArms[d]
-	for i := 1; i <= inLineReach; i++ {
-		x, y = x+dirStep[d][0], y+dirStep[d][1]
-		if x < 0 || y < 0 || x >= rt.w || y >= rt.h {
-			return false
-		}
-		g := &rt.g[y*rt.w+x]
-		if g.own[0] == net || g.flags&fBlocked != 0 {
-			return false
-		}
-		if g.runsAlong(along, net) {
-			return true
-		}
-	}
-	return false
-}
-
 // runsAlong says whether another net's wire at this cell has an arm along
 // the given axis: a wire stepping beside it would be crowded (the search's
 // stepExtra).

@@ -1,7 +1,7 @@
 package layout
 
 import (
-	"crypto/sha256"
+	"hash/maphash"
 	"sync"
 )
 
@@ -33,6 +33,9 @@ const searchMemoMax = 1 << 16
 // memoMargin is how far beyond its window a search reads the grid.
 const memoMargin = inLineReach
 
+// memoKey is a search's digest.
+type memoKey [2]uint64
+
 type memoEntry struct {
 	path []int32 // window-relative point numbers, pin first; nil: no path
 	pops int
@@ -40,14 +43,14 @@ type memoEntry struct {
 
 var searchMemo = struct {
 	sync.Mutex
-	m map[[sha256.Size]byte]memoEntry
-}{m: map[[sha256.Size]byte]memoEntry{}}
+	m map[memoKey]memoEntry
+}{m: map[memoKey]memoEntry{}}
 
 // memoOff turns the memo off (the test that proves it changes nothing).
 var memoOff bool
 
-// memoKey is the digest of everything the search (net, p, k) reads.
-func (rt *router) memoKey(k *seek, p wirePin) [sha256.Size]byte {
+// searchKey is the digest of everything the search (k, from pin p) reads.
+func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 	win := k.win
 	b := rt.sc.key[:0]
 	wide := byte(0)
@@ -62,18 +65,48 @@ func (rt *router) memoKey(k *seek, p wirePin) [sha256.Size]byte {
 	b = append(b, wide)
 	net := k.net
 	for y := win.y0 - memoMargin; y <= win.y1+memoMargin; y++ {
+		if y < 0 || y >= rt.h {
+			for x := win.x0 - memoMargin; x <= win.x1+memoMargin; x++ {
+				b = append(b, offGrid)
+			}
+			continue
+		}
+		row := rt.g[y*rt.w : (y+1)*rt.w]
 		for x := win.x0 - memoMargin; x <= win.x1+memoMargin; x++ {
-			if x < 0 || y < 0 || x >= rt.w || y >= rt.h {
-				b = append(b, 0xff, 0, 0, 0) // off the grid
+			if x < 0 || x >= rt.w {
+				b = append(b, offGrid)
 				continue
 			}
-			g := &rt.g[y*rt.w+x]
-			b = append(b, whose(g.own[0], net)|whose(g.own[1], net)<<2|whose(g.resv, net)<<4,
-				g.arm[0], g.arm[1], g.flags&^(fFadedE|fFadedS))
+			g := &row[x]
+			fl := g.flags &^ (fFadedE | fFadedS)
+			if g.own[0]|g.own[1]|g.resv == 0 && g.arm[0]|g.arm[1] == 0 {
+				b = append(b, fl) // no wire, nothing reserved: most of the grid
+				continue
+			}
+			b = append(b, withNets|whose(g.own[0], net)|whose(g.own[1], net)<<2|whose(g.resv, net)<<4,
+				g.arm[0]|g.arm[1]<<4, fl)
 		}
 	}
 	rt.sc.key = b
-	return sha256.Sum256(b)
+	return digest(b)
+}
+
+// The key's point codes: a point without wire or reservation is its flags
+// alone (below 0x40: the faded flags are left out); one with them is
+// withNets and whose nets are there, then its arms and its flags; a point
+// off the grid is offGrid.
+const (
+	withNets = 0x80
+	offGrid  = 0xc0
+)
+
+// memoSeeds seed the key's two 64-bit hashes (a digest of 128 bits: two
+// different searches meeting on one key is as likely as guessing it). The
+// seeds are the process's own, as the memo is.
+var memoSeeds = [2]maphash.Seed{maphash.MakeSeed(), maphash.MakeSeed()}
+
+func digest(b []byte) memoKey {
+	return memoKey{maphash.Bytes(memoSeeds[0], b), maphash.Bytes(memoSeeds[1], b)}
 }
 
 // whose classes a net number as the search sees it: none, its own, another.
@@ -87,7 +120,15 @@ func whose(v, net int32) byte {
 	return 2
 }
 
-func memoGet(key [sha256.Size]byte) (memoEntry, bool) {
+// resetMemo empties the memo (benchmarks time a layout as a fresh process
+// makes it).
+func resetMemo() {
+	searchMemo.Lock()
+	searchMemo.m = map[memoKey]memoEntry{}
+	searchMemo.Unlock()
+}
+
+func memoGet(key memoKey) (memoEntry, bool) {
 	if memoOff {
 		return memoEntry{}, false
 	}
@@ -97,13 +138,13 @@ func memoGet(key [sha256.Size]byte) (memoEntry, bool) {
 	return e, ok
 }
 
-func memoPut(key [sha256.Size]byte, e memoEntry) {
+func memoPut(key memoKey, e memoEntry) {
 	if memoOff {
 		return
 	}
 	searchMemo.Lock()
 	if len(searchMemo.m) >= searchMemoMax {
-		searchMemo.m = map[[sha256.Size]byte]memoEntry{}
+		searchMemo.m = map[memoKey]memoEntry{}
 	}
 	searchMemo.m[key] = e
 	searchMemo.Unlock()

@@ -48,9 +48,7 @@ func TestMemoChangesNothing(t *testing.T) {
 		memoOff = true
 		want, wantPops := layoutPops(t, s.c, s.o)
 		memoOff = false
-		searchMemo.Lock()
-		searchMemo.m = map[[32]byte]memoEntry{}
-		searchMemo.Unlock()
+		resetMemo()
 		for _, run := range []string{"memo starting empty", "memo holding every search"} {
 			got, pops := layoutPops(t, s.c, s.o)
 			if !reflect.DeepEqual(got, want) {

@@ -431,11 +431,13 @@ func TestQueueOrder(t *testing.T) {
 // step, a bend where the direction changes (more where the run it ends
 // stops in line with another net's wire), and the step's extras.
 func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
-	extra, ok := rt.stepExtra(net, c, n, nx, ny, nd)
+	k := &seek{net: net}
+	k.onGrid(rt)
+	extra, ok := k.stepExtra(c, n, nx, ny, nd)
 	cost := stepCost + extra
 	if nd != d {
 		cost += bendCost
-		if rt.inLineAt(net, c%rt.w, c/rt.w, d) {
+		if k.inLineAt(c%rt.w, c/rt.w, d) {
 			cost += inLineCost
 		}
 	}

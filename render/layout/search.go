@@ -24,7 +24,7 @@ type scratch struct {
 	st  []stateInfo
 	gen uint32
 	q   stateQueue
-	key []byte // memoKey's buffer
+	key []byte // searchKey's buffer
 }
 
 // next starts a new search over n states.
@@ -85,6 +85,14 @@ type seek struct {
 	shift   uint   // rows of the window's points are numbered 1<<shift apart
 	cellAt  [4]int // grid index step in each direction
 	stateAt [4]int // state number step (of the point) in each direction
+	// the search's memory and the grid, held here so that the inner loop
+	// reads them from one place
+	st    []stateInfo
+	gen   uint32
+	grid  []gridCell
+	w, h  int
+	q     *stateQueue
+	cross int32 // a crossing's price: crossCost, or wideCrossCost
 }
 
 // search is A* from a pending pin to the net's tree, inside a window of the
@@ -103,7 +111,7 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 		k.cellAt[d] = st[0] + st[1]*rt.w
 		k.stateAt[d] = 4 * (st[0] + st[1]<<k.shift)
 	}
-	key := rt.memoKey(&k, p)
+	key := rt.searchKey(&k, p)
 	if e, ok := memoGet(key); ok {
 		rt.pops += e.pops
 		return rt.fromWindow(e.path, win)
@@ -118,37 +126,53 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 func (rt *router) astar(k *seek, p wirePin) []int {
 	sc, net, win := rt.sc, k.net, k.win
 	sc.next(4 * (win.y1 - win.y0 + 1) << k.shift)
+	k.onGrid(rt)
+	k.st, k.gen, k.q = sc.st, sc.gen, &sc.q
+	sh := k.shift & 63
+	mask := 1<<sh - 1
 	px, py := p.cell%rt.w, p.cell/rt.w
-	start := int32(((py-win.y0)<<k.shift+px-win.x0)*4 + int(p.pin.Dir))
-	sc.st[start] = stateInfo{stamp: sc.gen << 2, g: 0}
-	sc.q.push(k.to.estimate(px, py), start)
-	for sc.q.len() > 0 {
-		f, s := sc.q.pop()
-		rt.pops++
+	start := int32(((py-win.y0)<<sh+px-win.x0)*4 + int(p.pin.Dir))
+	st, grid, q := k.st, k.grid, k.q
+	st[start] = stateInfo{stamp: k.gen << 2, g: 0}
+	q.push(k.to.estimate(px, py), start)
+	pops := 0
+	defer func() { rt.pops += pops }()
+	for q.n > 0 {
+		f, s := q.pop()
+		pops++
 		lc, d := int(uint32(s)>>2), int(s&3)
-		g := sc.st[s].g
-		x, y := lc&(1<<k.shift-1)+win.x0, lc>>k.shift+win.y0
+		g := st[s].g
+		x, y := lc&mask+win.x0, lc>>sh+win.y0
 		if f != g+k.to.estimate(x, y) {
 			continue // stale entry: the state was reached more cheaply since
 		}
-		c := y*rt.w + x
-		if c != p.cell && rt.owns(c, net) {
+		c := y*k.w + x
+		if o := grid[c].own; c != p.cell && (o[0] == net || o[1] == net) {
 			return rt.path(k, int(s), int(start))
 		}
-		rt.expand(k, c, int(s)&^3, x, y, d, g)
+		k.expand(c, int(s)&^3, x, y, d, g)
 	}
 	return nil
 }
 
+// onGrid points the search at the router's grid and crossing price.
+func (k *seek) onGrid(rt *router) {
+	k.grid, k.w, k.h = rt.g, rt.w, rt.h
+	k.cross = crossCost
+	if rt.wide {
+		k.cross = wideCrossCost
+	}
+}
+
 // expand pushes the states one step on from point c (at x, y; its states
 // numbered from s0 in the window), reached at cost g moving in direction d.
-func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
-	st, gen := rt.sc.st, rt.sc.gen
+func (k *seek) expand(c, s0, x, y, d int, g int32) {
+	st, gen, net := k.st, k.gen, k.net
 	var dirs uint8 // the directions a wire may leave c in
-	switch {
+	switch o := k.grid[c].own; {
 	case c == k.pinCell:
 		dirs = 1 << d // a wire leaves its pin straight out
-	case rt.foreign(c, k.net):
+	case (o[0] != 0 && o[0] != net) || (o[1] != 0 && o[1] != net):
 		dirs = 1 << d // a crossing goes straight over
 	default:
 		dirs = 0xf &^ (1 << (d ^ 2)) // never back
@@ -167,7 +191,7 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 	}
 	ended := 0 // 1: the run ending at c is clear, 2: it stops in line
 	for ; dirs != 0; dirs &= dirs - 1 {
-		nd := bits.TrailingZeros8(dirs)
+		nd := bits.TrailingZeros8(dirs) & 3
 		ns := s0 + k.stateAt[nd] + nd
 		nsi := &st[ns]
 		least := g + stepCost // the step costs at least this much
@@ -183,7 +207,7 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 			// across a short gap (looked up once per point)
 			if ended == 0 {
 				ended = 1
-				if rt.inLineAt(k.net, x, y, d) {
+				if k.inLineAt(x, y, d) {
 					ended = 2
 				}
 			}
@@ -191,8 +215,8 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 				least += inLineCost
 			}
 		}
-		n := c + k.cellAt[nd]
-		extra, ok := rt.stepExtra(k.net, c, n, x+dirStep[nd][0], y+dirStep[nd][1], nd)
+		nx, ny := x+dirStep[nd][0], y+dirStep[nd][1]
+		extra, ok := k.stepExtra(c, c+k.cellAt[nd], nx, ny, nd)
 		if !ok {
 			continue
 		}
@@ -201,7 +225,7 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 			continue
 		}
 		*nsi = stateInfo{stamp: gen<<2 | uint32(d), g: cost}
-		rt.sc.q.push(cost+k.to.estimate(x+dirStep[nd][0], y+dirStep[nd][1]), int32(ns))
+		k.q.push(cost+k.to.estimate(nx, ny), int32(ns))
 	}
 }
 
@@ -209,8 +233,8 @@ func (rt *router) expand(k *seek, c, s0, x, y, d int, g int32) {
 // direction nd costs beyond a plain step and bend, or false where the wire
 // may not go. It is the search's innermost work, so the grid's tests
 // (crowded, cutsFrame) are written out here on the record already loaded.
-func (rt *router) stepExtra(net int32, c, n, nx, ny, nd int) (int32, bool) {
-	grid := rt.g
+func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
+	grid, net := k.grid, k.net
 	g := &grid[n]
 	extra := int32(0)
 	if g.own[0] == net || g.own[1] == net {
@@ -229,11 +253,7 @@ func (rt *router) stepExtra(net int32, c, n, nx, ny, nd int) (int32, bool) {
 			if g.own[1] != 0 || g.arm[0] != alongArms[(nd+1)&3] {
 				return 0, false
 			}
-			if rt.wide {
-				extra += wideCrossCost
-			} else {
-				extra += crossCost
-			}
+			extra += k.cross
 		}
 	}
 	// crowded: along a frame edge, or beside another net's wire running the
@@ -241,9 +261,9 @@ func (rt *router) stepExtra(net int32, c, n, nx, ny, nd int) (int32, bool) {
 	axis := nd & 1
 	near := g.flags&(fHugH<<axis) != 0
 	if !near {
-		side, lo, hi := rt.w, ny > 0, ny < rt.h-1
+		side, lo, hi := k.w, ny > 0, ny < k.h-1
 		if axis == 1 {
-			side, lo, hi = 1, nx > 0, nx < rt.w-1
+			side, lo, hi = 1, nx > 0, nx < k.w-1
 		}
 		along := alongArms[nd]
 		near = (lo && grid[n-side].runsAlong(along, net)) || (hi && grid[n+side].runsAlong(along, net))
@@ -260,6 +280,27 @@ func (rt *router) stepExtra(net int32, c, n, nx, ny, nd int) (int32, bool) {
 		extra += edgeCost
 	}
 	return extra, true
+}
+
+// inLineAt says whether another net's wire runs along direction d's axis
+// within inLineReach steps of point (x, y) that way, with no symbol between.
+func (k *seek) inLineAt(x, y, d int) bool {
+	along, net := alongArms[d], k.net
+	dx, dy := dirStep[d][0], dirStep[d][1]
+	for i := 1; i <= inLineReach; i++ {
+		x, y = x+dx, y+dy
+		if x < 0 || y < 0 || x >= k.w || y >= k.h {
+			return false
+		}
+		g := &k.grid[y*k.w+x]
+		if g.own[0] == net || g.flags&fBlocked != 0 {
+			return false
+		}
+		if g.runsAlong(along, net) {
+			return true
+		}
+	}
+	return false
 }
 
 // path lists the cells from the pin (state start) to state s, both
