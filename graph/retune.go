@@ -71,20 +71,21 @@ func (c *Circuit) RetuneBands(was map[string]int) []Retuned {
 	}
 	repl := map[value.Range]*span{}
 	var order []value.Range
+	t := newTuner(c)
 	for _, p := range c.Parts {
 		old, now := was[p.Ref], int(p.Set)
 		if p.Kind != Switch || old == now || old < 1 || now < 1 || old > len(p.Closes) || now > len(p.Closes) {
 			continue
 		}
 		outNets, inNets := contactNets(p, old, now), contactNets(p, now, old)
-		for _, q := range c.tunedOn(outNets) {
-			lo, hi := c.tankRange(q)
+		for _, q := range t.tunedOn(outNets) {
+			lo, hi := t.tankRange(q)
 			b := c.BandOf(q)
 			if b.Min <= 0 || hi < b.Min || lo > b.Max {
 				continue
 			}
-			for _, n := range c.tunedOn(inNets) {
-				nlo, nhi := c.tankRange(n)
+			for _, n := range t.tunedOn(inNets) {
+				nlo, nhi := t.tankRange(n)
 				s := repl[b]
 				if s == nil {
 					s = &span{lo: nlo, hi: nhi}
@@ -144,14 +145,17 @@ func contactNets(p *Part, at, other int) []string {
 
 // tunedOn are the parts with a pin on one of the nets whose coil tunes
 // with the capacitance around it (tankRange finds a range).
-func (c *Circuit) tunedOn(nets []string) []*Part {
+func (t *tuner) tunedOn(nets []string) []*Part {
 	var out []*Part
-	for _, p := range c.Parts {
+	for _, p := range t.c.Parts {
 		if p.Kind == Switch || (p.Kind != Inductor && len(p.Windings) == 0) {
 			continue
 		}
 		on := slices.ContainsFunc(p.Pins, func(pin Pin) bool { return slices.Contains(nets, pin.Net) })
-		if lo, _ := c.tankRange(p); on && lo > 0 {
+		if !on {
+			continue
+		}
+		if lo, _ := t.tankRange(p); lo > 0 {
 			out = append(out, p)
 		}
 	}
