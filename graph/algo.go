@@ -49,6 +49,17 @@ func (w *Walk) PartDist(p *Part) (int, bool) { d, ok := w.part[p]; return d, ok 
 // NetDist is a net's distance, and whether a walk reached it.
 func (w *Walk) NetDist(net string) (int, bool) { d, ok := w.net[net]; return d, ok }
 
+// Parts lists the parts the walks reached, in the view's order: what a
+// loop over every part asking PartDist finds, at the cost of the walk.
+func (w *Walk) Parts() []*Part {
+	out := make([]*Part, 0, len(w.part))
+	for p := range w.part {
+		out = append(out, p)
+	}
+	slices.SortFunc(out, func(a, b *Part) int { return int(w.v.partID[a] - w.v.partID[b]) })
+	return out
+}
+
 // rooted adds one node to a view, joined to the starting nets, so that one
 // breadth-first walk starts from all of them at once.
 type rooted struct {

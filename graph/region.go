@@ -140,3 +140,67 @@ func (c *Circuit) FullBand() value.Range {
 	}
 	return b
 }
+
+// RegionIndex answers RegionOf and BandOf for many parts of one circuit
+// at once: a whole set has a region per channel, and each RegionOf walks
+// every region's lists, so a lookup per net or part made a comparison
+// quadratic in the set. It is a snapshot of the regions' lists: take it
+// after the last edit of the regions and before the lookups.
+type RegionIndex struct {
+	c     *Circuit
+	byRef map[string]int // a part ref or origin: the first region naming it
+	byNet map[string]int // a net: the first region naming it
+}
+
+// RegionIndex takes the snapshot of c's regions.
+func (c *Circuit) RegionIndex() *RegionIndex {
+	x := &RegionIndex{c: c, byRef: map[string]int{}, byNet: map[string]int{}}
+	for i, r := range c.Regions {
+		for _, ref := range r.Parts {
+			if _, ok := x.byRef[ref]; !ok {
+				x.byRef[ref] = i
+			}
+		}
+		for _, n := range r.Nets {
+			if _, ok := x.byNet[n]; !ok {
+				x.byNet[n] = i
+			}
+		}
+	}
+	return x
+}
+
+// RegionOf is Circuit.RegionOf: the first region naming the part or one
+// of its origins, else the first naming one of its nets, else nil.
+func (x *RegionIndex) RegionOf(p *Part) *Region {
+	best := -1
+	pick := func(i int, ok bool) {
+		if ok && (best < 0 || i < best) {
+			best = i
+		}
+	}
+	i, ok := x.byRef[p.Ref]
+	pick(i, ok)
+	for _, o := range p.From {
+		i, ok := x.byRef[o]
+		pick(i, ok)
+	}
+	if best < 0 {
+		for _, pin := range p.Pins {
+			i, ok := x.byNet[pin.Net]
+			pick(i, ok)
+		}
+	}
+	if best < 0 {
+		return nil
+	}
+	return x.c.Regions[best]
+}
+
+// BandOf is Circuit.BandOf through the index.
+func (x *RegionIndex) BandOf(p *Part) value.Range {
+	if r := x.RegionOf(p); r != nil {
+		return r.Band
+	}
+	return x.c.Band
+}

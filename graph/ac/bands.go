@@ -94,21 +94,30 @@ func addBand(list []value.Range, b value.Range) []value.Range {
 // bypass capacitors were never meant to bypass.
 func netBands(c *graph.Circuit) func(net string) []value.Range {
 	all := bandsOf(c)
+	// The regions holding each net, read once: a whole set has a region
+	// per channel, and scanning them all per net made a comparison
+	// quadratic in the set.
+	held := map[string][]value.Range{}
+	for _, r := range c.Regions {
+		if r.Input != "" {
+			held[r.Input] = append(held[r.Input], r.Band)
+		}
+		if r.Output != "" {
+			held[r.Output] = append(held[r.Output], r.Band)
+		}
+		for _, n := range r.Nets {
+			held[n] = append(held[n], r.Band)
+		}
+	}
+	rx := c.RegionIndex()
 	return func(net string) []value.Range {
 		var out []value.Range
-		for _, r := range c.Regions {
-			if r.Input == net || r.Output == net {
-				out = addBand(out, r.Band)
-			}
-			for _, n := range r.Nets {
-				if n == net {
-					out = addBand(out, r.Band)
-				}
-			}
+		for _, b := range held[net] {
+			out = addBand(out, b)
 		}
 		for _, cn := range c.ConnsOf(net) {
 			if cn.Part.Kind != graph.Port {
-				out = addBand(out, c.BandOf(cn.Part))
+				out = addBand(out, rx.BandOf(cn.Part))
 			}
 		}
 		if len(out) == 0 {

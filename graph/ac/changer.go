@@ -25,13 +25,13 @@ type changer struct {
 // (its net shares a band with the detector's IF net: a part of the IF
 // region hangs on it): the valve or transistor whose anode or collector is
 // the first at the IF. ok is false when no device is found.
-func frequencyChanger(c *graph.Circuit, bandsAt func(string) []value.Range, in, ifNet string) (changer, bool) {
-	w := graph.NewWalk(c.View())
+func frequencyChanger(c *graph.Circuit, v *graph.View, bandsAt func(string) []value.Range, in, ifNet string) (changer, bool) {
+	w := graph.NewWalk(v)
 	w.Follow = func(net string) bool { return !c.RoleOf(net).IsACGround() }
 	w.FromNets([]string{in}, 0)
 	var best changer
 	bestD := -1
-	for _, p := range c.Parts {
+	for _, p := range w.Parts() { // what the walk reached: one channel of a set, not the set
 		if p.Kind != graph.Valve && p.Kind != graph.BJT && p.Kind != graph.FET {
 			continue
 		}
@@ -88,7 +88,10 @@ func nearestElectrode(c *graph.Circuit, w *graph.Walk, p *graph.Part) string {
 // entry over the input's bands, and returns what the note says instead of
 // the input-to-output pair.
 func (ql *quantityList) frontEnd(in string, i int, ifNet string) string {
-	ch, ok := frequencyChanger(ql.orig, ql.bandsAt, in, ifNet)
+	if ql.view == nil {
+		ql.view = ql.orig.View()
+	}
+	ch, ok := frequencyChanger(ql.orig, ql.view, ql.bandsAt, in, ifNet)
 	if !ok {
 		return "no frequency changer was found between them, so nothing compares the stages from the input to the IF"
 	}

@@ -123,10 +123,11 @@ func (ql *quantityList) audioBands(nets ...string) []value.Range {
 func (ql *quantityList) detectorTransfers() (replaced map[string]bool) {
 	replaced = map[string]bool{}
 	dets := detectors(ql.orig)
+	joined := joinedNets(ql.orig)
 	for _, d := range dets {
 		rAudio, okA := ql.mapped(d.audioNet, noAlt)
 		for j, out := range ql.orig.Outputs {
-			if out == d.audioNet || !okA {
+			if out == d.audioNet || !okA || !joined(out, d.audioNet) {
 				continue
 			}
 			if rout, ok := ql.mapped(out, ql.outputAlt(j)); ok {
@@ -138,7 +139,7 @@ func (ql *quantityList) detectorTransfers() (replaced map[string]bool) {
 		}
 		rIF, okI := ql.mapped(d.ifNet, noAlt)
 		for i, in := range ql.orig.Inputs {
-			if in == d.ifNet || !okI {
+			if in == d.ifNet || !okI || !joined(in, d.ifNet) {
 				continue
 			}
 			// The input's signal reaches the detector only where the two
@@ -157,7 +158,7 @@ func (ql *quantityList) detectorTransfers() (replaced map[string]bool) {
 				instead = ql.frontEnd(in, i, d.ifNet)
 			}
 			for _, out := range ql.orig.Outputs {
-				if ql.pastDetector(in, out) {
+				if joined(out, d.audioNet) && ql.pastDetector(in, out) {
 					replaced[in+"\x00"+out] = true
 					ql.rep.Notes = append(ql.rep.Notes, fmt.Sprintf("V(%s)/V(%s) not compared over %s: past detector %s the signal there is only the IF the detector leaks (a resistor in the model), not signal; %s",
 						out, in, bandsText(ql.bandsAt(in)), d.ref, instead))
@@ -166,6 +167,32 @@ func (ql *quantityList) detectorTransfers() (replaced map[string]bool) {
 		}
 	}
 	return replaced
+}
+
+// joinedNets says whether two nets of c are joined through parts without
+// passing an AC-ground net or "nc": the only nets a signal between them can
+// take. A detector's pairs are those of the inputs and outputs joined to
+// it: on a set of many channels, which share only AC ground, a detector
+// has nothing to say about another channel's input or output (their
+// transfer is zero by structure, which the comparison notes once), and
+// listing every detector against every input and output made the notes
+// grow with the cube of the channels.
+func joinedNets(c *graph.Circuit) func(a, b string) bool {
+	uf := &graph.NamedSets{}
+	for _, p := range c.Parts {
+		first := ""
+		for _, pin := range p.Pins {
+			if !usable(pin.Net) || c.RoleOf(pin.Net).IsACGround() {
+				continue
+			}
+			if first == "" {
+				first = pin.Net
+				continue
+			}
+			uf.Union(first, pin.Net)
+		}
+	}
+	return func(a, b string) bool { return uf.Find(a) == uf.Find(b) }
 }
 
 // pastDetector: the output works only at audio and the input only above

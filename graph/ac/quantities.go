@@ -44,6 +44,7 @@ type quantityList struct {
 	seen          map[string]bool
 	qs            []quantity
 	skip          map[string]bool // input\x00output transfers judged past a detector (detpairs.go)
+	view          *graph.View     // the original's, for the walks to frequency changers (changer.go)
 }
 
 // mapped finds a net of the original in the reduced circuit: under its own
