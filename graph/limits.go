@@ -21,9 +21,21 @@ const (
 	MaxDepth = 16
 	// MaxParts bounds the parts of one netlist.
 	MaxParts = 20000
-	// MaxTerminalsPerNet bounds the pins on one net: rules and the stage
-	// matcher look at pairs of a net's terminals.
+	// MaxTerminalsPerNet bounds the pins on one signal net. A merge of
+	// parts across the same two nets is a step per pair of parts, each
+	// read from the quieter net and proven, so a signal net with many
+	// terminals costs the square of them: 2,500 capacitors on one signal
+	// net took seconds and nearly a gigabyte to reduce. No real signal net
+	// has more than a few dozen terminals.
 	MaxTerminalsPerNet = 5000
+	// MaxTerminalsPerACGroundNet bounds the pins on a net at AC ground
+	// (chassis, a supply rail, a heater or bias line). Every stage of a set
+	// returns to them, so they grow with the set (10,000 parts put some
+	// 5,100 terminals on the chassis); the rules and the stage matcher
+	// read such a net only from its other end (the quieter net of a part,
+	// an electrode's own net), never pair its terminals, so they are
+	// bounded as the parts are: a terminal per part.
+	MaxTerminalsPerACGroundNet = MaxParts
 )
 
 // ReadFile reads a netlist or pattern file, refusing what is not a regular
@@ -174,7 +186,9 @@ func (d *depthScanner) skipString(q byte) {
 }
 
 // checkCounts refuses a netlist with more parts than MaxParts or a net with
-// more terminals than MaxTerminalsPerNet, at the first entry past the limit.
+// more terminals than its limit (MaxTerminalsPerNet for a signal net,
+// MaxTerminalsPerACGroundNet for one at AC ground), at the first entry past
+// the limit.
 func (ld *loader) checkCounts() {
 	c := ld.c
 	// Count in source order, so that "the first entry past the limit" is
@@ -188,8 +202,15 @@ func (ld *loader) checkCounts() {
 	for _, p := range byPos {
 		for _, pin := range p.Pins {
 			count[pin.Net]++
-			if count[pin.Net] == MaxTerminalsPerNet+1 {
-				ld.errs.Add(pin.Pos, "net %s has more than %d terminals: pare reads nets of up to %d", pin.Net, MaxTerminalsPerNet, MaxTerminalsPerNet)
+			if count[pin.Net] <= MaxTerminalsPerNet {
+				continue
+			}
+			switch ground := c.RoleOf(pin.Net).IsACGround(); {
+			case !ground && count[pin.Net] == MaxTerminalsPerNet+1:
+				ld.errs.Add(pin.Pos, "net %s has more than %d terminals: pare reads signal nets of up to %d (a net at AC ground, chassis or a rail, may have %d)",
+					pin.Net, MaxTerminalsPerNet, MaxTerminalsPerNet, MaxTerminalsPerACGroundNet)
+			case ground && count[pin.Net] == MaxTerminalsPerACGroundNet+1:
+				ld.errs.Add(pin.Pos, "net %s has more than %d terminals: pare reads nets at AC ground of up to %d", pin.Net, MaxTerminalsPerACGroundNet, MaxTerminalsPerACGroundNet)
 			}
 		}
 	}

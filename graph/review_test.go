@@ -79,3 +79,27 @@ func TestTerminalLimitPosition(t *testing.T) {
 	// so the 5001st is C5001 on line 5005, its "b" (the quote) at column 29.
 	wantError(t, "star", b.String(), "5005:29", "net b has more than 5000 terminals")
 }
+
+// TestACGroundTerminalLimit: a net at AC ground may hold a terminal per
+// part (a whole set's chassis: 10,000 parts put some 5,100 terminals on
+// it, internal/synth's bank), past MaxTerminalsPerNet, and is refused at
+// the first terminal past MaxTerminalsPerACGroundNet, with its position.
+// Capacitors with both ends on the chassis put two terminals a line on it.
+func TestACGroundTerminalLimit(t *testing.T) {
+	const head = "band = \"1k..10k\"\ninputs = [\"a\"]\noutputs = [\"b\"]\n[parts]\nR1 = { r = \"1k\", pins = [\"a\",\"b\"] }\n"
+	build := func(lines int) string {
+		var b strings.Builder
+		b.WriteString(head)
+		for i := 2; i < lines+2; i++ {
+			b.WriteString("C" + itoa(i) + " = { c = \"1n\", pins = [\"gnd\",\"gnd\"] }\n")
+		}
+		return b.String()
+	}
+	// Past the signal nets' limit, within the chassis's: it loads.
+	if _, err := Parse("chassis.toml", []byte(build(MaxTerminalsPerNet))); err != nil {
+		t.Fatalf("%d terminals on the chassis: %v", 2*MaxTerminalsPerNet, err)
+	}
+	// The chassis's 20,001st terminal is the first pin of the 10,001st
+	// capacitor, C10002 on line 10006 (R1 on line 5), "gnd" at column 30.
+	wantError(t, "chassis", build(MaxTerminalsPerACGroundNet/2+1), "10006:30", "net gnd has more than 20000 terminals")
+}

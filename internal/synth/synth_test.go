@@ -9,9 +9,11 @@ import (
 
 // The bank loads without errors or warnings at every size, has about the
 // parts asked for, one input and one output per channel, and the same size
-// and seed give the same bytes.
+// and seed give the same bytes. At 10,000 parts the chassis holds more
+// terminals than a signal net may (graph.MaxTerminalsPerNet): a net at AC
+// ground may hold a terminal per part, so the whole set loads.
 func TestBankLoadsAndRepeats(t *testing.T) {
-	for _, n := range []int{100, 1000} {
+	for _, n := range []int{100, 1000, 10000} {
 		a, err := Bank(n, 1)
 		if err != nil {
 			t.Fatal(err)
@@ -48,6 +50,22 @@ func TestBankLoadsAndRepeats(t *testing.T) {
 	b, _ := Bank(1000, 2)
 	if bytes.Equal(a, b) {
 		t.Error("seeds 1 and 2 give the same bank")
+	}
+}
+
+// The RC ladder of bench/run.sh's pairing with ngspice loads at its size,
+// 10,000 sections: its ground holds a capacitor of every section.
+func TestLadderLoads(t *testing.T) {
+	src, err := Ladder(10000)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := graph.Parse("ladder.toml", src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(c.Parts) != 20000 || len(c.ConnsOf("gnd")) != 10000 {
+		t.Errorf("%d parts, %d terminals on gnd; want 20000 and 10000", len(c.Parts), len(c.ConnsOf("gnd")))
 	}
 }
 
