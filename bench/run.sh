@@ -5,7 +5,9 @@
 #   bash bench/run.sh [SIZES] [PHASES]
 #   SIZES  parts per bank, comma-separated (default 100,1000,10000)
 #   PHASES of load,reduce,proof,verify,stages,draw,main (default all);
-#          proof is `reduce --check`: the main job's step proofs, without drawing
+#          reduce is `reduce --check=false`: the reduction with no step proven;
+#          proof is `reduce`, which proves every step as the main job does,
+#          without drawing (verify and stages prove the steps too)
 #   PARE_BENCH_BIN      time this pare binary instead of building the worktree's
 #   PARE_BENCH_TIMEOUT  seconds before a run is given up (default 600)
 #   PARE_BENCH_LADDER   RC ladder sections for the sweep pairing (default 10000; 0 skips)
@@ -43,8 +45,8 @@ run() {
 args_of() { # phase file
 	case $1 in
 	load) echo "check $2" ;;
-	reduce) echo "reduce $2 -o $work/r.toml" ;;
-	proof) echo "reduce $2 --check -o $work/r.toml" ;;
+	reduce) echo "reduce $2 --check=false -o $work/r.toml" ;;
+	proof) echo "reduce $2 -o $work/r.toml" ;;
 	verify) echo "verify $2" ;;
 	stages) echo "stages $2" ;;
 	draw) echo "draw $2 -o $work/d.svg" ;;
