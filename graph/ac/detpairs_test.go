@@ -91,3 +91,35 @@ func TestDetectorAudioPairAgainstNgspice(t *testing.T) {
 		}
 	}
 }
+
+// TestDetectorPairsStayInTheirCopy: a detector's pairs are those of the
+// inputs and outputs joined to it. In n renamed copies of the IF strip
+// (synth.Copies: joined only through AC ground) each copy's detector is
+// noted against its own copy's input and output alone, so the notes about
+// detectors number n times those of one copy; listing every detector
+// against every input and output gave n² times, and on a bank of a hundred
+// channels hundreds of thousands of notes about transfers that are zero
+// by structure.
+func TestDetectorPairsStayInTheirCopy(t *testing.T) {
+	count := func(n int) int {
+		c := copies(t, "../../examples/if-detector-audio.toml", n)
+		r, err := Compare(c, c.Clone(), CompareOptions{Points: 20})
+		if err != nil {
+			t.Fatal(err)
+		}
+		k := 0
+		for _, note := range r.Notes {
+			if strings.Contains(note, "past detector") {
+				k++
+			}
+		}
+		return k
+	}
+	one := count(1)
+	if one == 0 {
+		t.Fatal("one copy of the IF strip: no note about its detector")
+	}
+	if three := count(3); three != 3*one {
+		t.Errorf("three copies: %d notes about detectors, want 3 × %d", three, one)
+	}
+}
