@@ -204,3 +204,18 @@ func (x *RegionIndex) BandOf(p *Part) value.Range {
 	}
 	return x.c.Band
 }
+
+// Joined follows Circuit.JoinNets(keep, gone), which renames gone to keep
+// in every region's nets: keep is then named first by whichever region
+// named either first. It keeps the index current across a join without
+// reading the regions again.
+func (x *RegionIndex) Joined(keep, gone string) {
+	g, ok := x.byNet[gone]
+	if !ok {
+		return
+	}
+	delete(x.byNet, gone)
+	if k, ok := x.byNet[keep]; !ok || g < k {
+		x.byNet[keep] = g
+	}
+}

@@ -17,7 +17,10 @@ func (x *Ctx) bandOn(parts []*graph.Part, nets ...string) (lo, hi float64, from 
 		if p.Kind == graph.Port {
 			return
 		}
-		b := x.c.BandOf(p)
+		b := x.c.Band
+		if r := x.regionOf(p); r != nil {
+			b = r.Band
+		}
 		if b.Max <= 0 || b.Min <= 0 {
 			x.fail(p.Pos, "%s: no band of interest for this part (it is in no region, and the file has no top-level band): add band = \"LOW..HIGH\" or put %s in a region", p.Ref, p.Ref)
 			ok = false
@@ -50,7 +53,7 @@ func (x *Ctx) bandWhy(lo float64, from *graph.Part, self *graph.Part) string {
 		return s
 	}
 	where := "the default band"
-	if r := x.c.RegionOf(from); r != nil {
+	if r := x.regionOf(from); r != nil {
 		where = "region " + r.Name
 	}
 	if from != self {

@@ -24,6 +24,12 @@ type Ctx struct {
 	// focusPorts are the ports a focus cut made: they mark where the
 	// signal enters and leaves the stage even when no declared end is left.
 	focusPorts map[string]bool
+	// rx indexes rxOf's regions for the band judgements: a whole set has a
+	// region per channel, and walking them all per part made the
+	// reduction quadratic in the set. A join renames nets in the regions'
+	// lists, which Join follows; a refused step puts another circuit in c.
+	rx   *graph.RegionIndex
+	rxOf *graph.Circuit
 }
 
 func newCtx(c *graph.Circuit, ratio float64, level Level) *Ctx {
@@ -107,7 +113,21 @@ func (x *Ctx) Unconnect(p *graph.Part, name string) {
 // Join moves every terminal on net gone onto net keep and deletes gone,
 // with graph.Circuit.JoinNets' rules for roles, labels, inputs, outputs and
 // regions.
-func (x *Ctx) Join(keep, gone string) { x.c.JoinNets(keep, gone) }
+func (x *Ctx) Join(keep, gone string) {
+	x.c.JoinNets(keep, gone)
+	if x.rx != nil && x.rxOf == x.c {
+		x.rx.Joined(keep, gone)
+	}
+}
+
+// regionOf is the region a part of the circuit being reduced works in
+// (graph.Circuit.RegionOf), through the index of its regions.
+func (x *Ctx) regionOf(p *graph.Part) *graph.Region {
+	if x.rx == nil || x.rxOf != x.c {
+		x.rx, x.rxOf = x.c.RegionIndex(), x.c
+	}
+	return x.rx.RegionOf(p)
+}
 
 // GroundNet joins a net to the ground net and remembers it as AC ground. A
 // net fed from a rail through a resistor or choke is marked as a decoupled

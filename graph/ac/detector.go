@@ -28,6 +28,11 @@ type dcNet struct {
 	n       int
 	entries []Entry
 	loads   map[[2]string]float64 // load's answers so far
+	// The network factored once for every load asked of it: a whole set
+	// has a detector per channel, and a factorization per detector made
+	// keeping their loads quadratic in the set.
+	fac    *realFactors
+	facErr error
 }
 
 // leak is a conductance from every node to the return, far below any
@@ -158,7 +163,13 @@ func (d *dcNet) solveLoad(na, nb int) float64 {
 	if nb >= 0 {
 		rhs[nb] = -1
 	}
-	v, err := SolveReal(d.n, d.entries, rhs)
+	if d.fac == nil && d.facErr == nil {
+		d.fac, d.facErr = factorReal(d.n, d.entries)
+	}
+	if d.facErr != nil {
+		return math.Inf(1)
+	}
+	v, err := d.fac.solve(rhs)
 	if err != nil {
 		return math.Inf(1)
 	}

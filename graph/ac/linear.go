@@ -29,8 +29,25 @@ func SolveReal(n int, entries []Entry, b []float64) ([]float64, error) {
 	if len(b) != n {
 		return nil, fmt.Errorf("right-hand side of length %d for %d unknowns", len(b), n)
 	}
+	f, err := factorReal(n, entries)
+	if err != nil {
+		return nil, err
+	}
+	return f.solve(b)
+}
+
+// realFactors is a real system ordered and factored once, for as many
+// right-hand sides as a caller has: each solve is what SolveReal gives for
+// it, to the bit, at the cost of the substitutions alone.
+type realFactors struct {
+	n    int
+	perm []int
+	f    *lu
+}
+
+func factorReal(n int, entries []Entry) (*realFactors, error) {
 	if n == 0 {
-		return []float64{}, nil
+		return &realFactors{}, nil
 	}
 	for _, e := range entries {
 		if e.Row < 0 || e.Row >= n || e.Col < 0 || e.Col >= n {
@@ -51,14 +68,25 @@ func SolveReal(n int, entries []Entry, b []float64) ([]float64, error) {
 		}
 		return nil, err
 	}
-	x := make([]complex128, n)
-	for i, v := range b {
-		x[perm[i]] = complex(v, 0)
+	return &realFactors{n: n, perm: perm, f: f}, nil
+}
+
+// solve solves for one right-hand side of length n; b is not changed.
+func (r *realFactors) solve(b []float64) ([]float64, error) {
+	if len(b) != r.n {
+		return nil, fmt.Errorf("right-hand side of length %d for %d unknowns", len(b), r.n)
 	}
-	f.solve(x, make([]complex128, n))
-	out := make([]float64, n)
+	if r.n == 0 {
+		return []float64{}, nil
+	}
+	x := make([]complex128, r.n)
+	for i, v := range b {
+		x[r.perm[i]] = complex(v, 0)
+	}
+	r.f.solve(x, make([]complex128, r.n))
+	out := make([]float64, r.n)
 	for i := range out {
-		v := real(x[perm[i]])
+		v := real(x[r.perm[i]])
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			return nil, ErrSingular
 		}
