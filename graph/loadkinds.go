@@ -207,6 +207,13 @@ func (ld *loader) switchPart(path string, p *Part, m map[string]any) {
 			break
 		}
 		ep := fmt.Sprintf("%s.closes[%d]", path, i)
+		if _, nested := e.([]any); nested {
+			// A list per position reads naturally but is not the format; say how an open
+			// position is written, which is what a user writing [] was after.
+			ld.errVal(ep, "each position is one string of its closed contact pairs, not a list: "+
+				"write \"1-2\" (or \"1-2 3-4\" for two pairs), and \"\" for a position that closes nothing")
+			continue
+		}
 		for _, pair := range strings.Fields(ld.str(ep, e)) {
 			a, b, ok := strings.Cut(pair, "-")
 			if !ok || a == "" || b == "" {
