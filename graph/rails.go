@@ -52,20 +52,25 @@ func (c *Circuit) ReturnOf(pin Pin) *Net {
 // ground a rail of its own when a resistor or choke feeds it from a rail: a
 // decoupled B+ line, a screen feed, a collector or emitter fed from the
 // supply through a resistor, but not a divider's tap (a resistor or choke
-// to chassis as well: a bias point). It takes the supply role, records the
-// rail that feeds it (Fed) and, unless it has a label, that rail's name
-// without its voltage ("HT" from "HT +250 V"), so that the join keeps on
-// every terminal that the return is to that line, not to chassis. Its own
-// DC voltage is the rail's less the drop, which only the DC solution
-// knows: a tag that copied the rail's would state a voltage the line does
-// not have, so the caller that has the solution adds it. The first feed by
-// part ref wins; it reports whether it marked.
+// to chassis as well: a bias point). It records the rail that feeds it
+// (Fed) and, unless it has a label, names it by that rail without the
+// rail's voltage and the part it comes through ("HT via R4" from "HT
+// +250 V"): the line is not that rail, and a tag that read "HT" would
+// claim the rail itself. Its own DC voltage is the rail's less the drop,
+// which only the DC solution knows: a tag that copied the rail's would
+// state a voltage the line does not have, so the caller that has the
+// solution adds it. A line fed from a bias rail, or one whose DC paths
+// reach device electrodes and only control ones (a base bias and AGC line),
+// carries no supply current: it takes the bias role and is named a bias
+// line, never after the supply it is fed from. The first feed by part ref
+// wins; it reports whether it marked.
 func (c *Circuit) MarkDecoupled(net string) bool {
 	n := c.Net(net)
 	if n == nil || n.Role != Signal {
 		return false
 	}
 	var from *Net
+	via := ""
 	for _, cn := range c.ConnsOf(net) {
 		other, ok := dcNeighbour(cn)
 		if !ok || other.Net == net || !c.RoleOf(other.Net).IsACGround() {
@@ -76,18 +81,79 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 			return false // a leg to chassis too: a bias divider's tap, not a supply line
 		}
 		if from == nil {
-			from = ret
+			from, via = ret, cn.Part.Ref
 		}
 	}
 	if from == nil {
 		return false
 	}
 	n.Role = Supply
+	name := WithoutVolts(railLabel(from))
+	if from.Role == Bias || c.feedsOnlyControl(net) {
+		n.Role, name = Bias, "bias"
+	}
 	n.Fed = from.Name
 	if n.Label == "" {
-		n.Label = WithoutVolts(railLabel(from))
+		n.Label = strings.TrimSpace(name + " via " + via)
 	}
 	return true
+}
+
+// feedsOnlyControl reports whether the device electrodes a line reaches,
+// on itself and one DC part away (a resistor, a choke, a transformer
+// winding) on nets that carry signal, are all control electrodes (a base,
+// a control grid): a line that feeds only those delivers no supply
+// current, it sets a bias (and, fed from a detector, is the AGC line). A
+// line that reaches no electrode at all is not judged here.
+func (c *Circuit) feedsOnlyControl(net string) bool {
+	nets := []string{net}
+	for _, cn := range c.ConnsOf(net) {
+		other, ok := dcNeighbour(cn)
+		if !ok {
+			other, ok = windingEnd(cn)
+		}
+		if ok && other.Net != net && !c.RoleOf(other.Net).IsACGround() {
+			nets = append(nets, other.Net)
+		}
+	}
+	control, supplied := false, false
+	for _, nn := range nets {
+		for _, cn := range c.ConnsOf(nn) {
+			if !cn.Part.IsActive() {
+				continue
+			}
+			switch RoleOfPin(cn.Part.Kind, cn.Pin) {
+			case RoleControl:
+				control = true
+			case RoleOutput, RoleGrid, RoleCommon:
+				supplied = true
+			}
+		}
+	}
+	return control && !supplied
+}
+
+// windingEnd is the far end of the transformer winding a terminal is on.
+func windingEnd(cn Conn) (Pin, bool) {
+	p := cn.Part
+	if p.Kind != Transformer {
+		return Pin{}, false
+	}
+	for _, w := range p.Windings {
+		far := ""
+		switch cn.Pin {
+		case w.From:
+			far = w.To
+		case w.To:
+			far = w.From
+		default:
+			continue
+		}
+		if pn := p.Pin(far); pn != nil {
+			return *pn, true
+		}
+	}
+	return Pin{}, false
 }
 
 // WithoutVolts is a rail's label with its stated voltage taken out ("HT"

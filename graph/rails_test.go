@@ -48,12 +48,13 @@ func TestJoinRemembersRails(t *testing.T) {
 		{"HT side of the same part", [][2]string{{"ht", "b2"}, {"gnd", "ht"}}, [2]string{"R2", "2"}, "ht", 250, "HT +250 V"},
 		{"a bypassed signal net", [][2]string{{"mark", "x"}, {"gnd", "x"}}, [2]string{"R4", "2"}, "", 0, ""},
 		// d is fed from HT by R5 and bypassed: a decoupled line, named after
-		// its rail without the rail's voltage: its own is lower by R5's
-		// drop, which only the DC solution knows
-		{"a decoupled line", [][2]string{{"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT"},
+		// its rail without the rail's voltage (its own is lower by R5's
+		// drop, which only the DC solution knows) and the part it comes
+		// through, so the tag does not claim to be HT itself
+		{"a decoupled line", [][2]string{{"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT via R5"},
 		// t is a divider's tap (R7 from HT, R8 to chassis): a bias point
 		{"a divider's tap", [][2]string{{"mark", "t"}, {"gnd", "t"}}, [2]string{"C3", "1"}, "", 0, ""},
-		{"a decoupled line after HT went", [][2]string{{"gnd", "ht"}, {"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT"},
+		{"a decoupled line after HT went", [][2]string{{"gnd", "ht"}, {"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT via R5"},
 	}
 	for _, tc := range tests {
 		c, err := Parse("rails.toml", []byte(railsNetlist))
@@ -116,7 +117,63 @@ func TestMarkDecoupledRecordsFeed(t *testing.T) {
 	if !c.MarkDecoupled("d") {
 		t.Fatal("d not marked")
 	}
-	if n := c.Net("d"); n.Fed != "ht" || n.Label != "HT" || n.Volts != 0 {
-		t.Errorf("d: fed %q label %q volts %g, want fed ht, label HT, no voltage", n.Fed, n.Label, n.Volts)
+	if n := c.Net("d"); n.Fed != "ht" || n.Label != "HT via R5" || n.Volts != 0 || n.Role != Supply {
+		t.Errorf("d: fed %q label %q volts %g role %s, want fed ht, label HT via R5, no voltage, supply", n.Fed, n.Label, n.Volts, n.Role)
+	}
+}
+
+// biasLineNetlist: a transistor IF stage's base fed through its input
+// winding from a line that a resistor feeds from the decoupled supply and
+// another from the detector (a simple AGC), the line bypassed to chassis;
+// and a collector line fed the same way (invented values).
+const biasLineNetlist = `title = "bias line"
+band = "440k..470k"
+inputs = ["in"]
+outputs = ["c"]
+
+[nets]
+vcc = { role = "supply", volts = 6, label = "battery 6 V" }
+vb = { role = "bias", volts = -2 }
+
+[parts]
+T1 = { windings = { p = "400u", s = "10u" }, k = 0.15, pins = { p1 = "in", p2 = "gnd", s1 = "b", s2 = "agc" } }
+Q1 = { bjt = "npn", pins = { b = "b", c = "c", e = "gnd" } }
+R1 = { r = "68k", pins = ["vcc", "agc"] }
+R2 = { r = "4k7", pins = ["agc", "det"] }
+C1 = { c = "47n", pins = ["agc", "gnd"] }
+D1 = { diode = "signal", pins = ["det", "c"] }
+R3 = { r = "1k", pins = ["vcc", "cd"] }
+R4 = { r = "2k2", pins = ["cd", "c"] }
+C2 = { c = "47n", pins = ["cd", "gnd"] }
+R5 = { r = "1M", pins = ["vb", "gb"] }
+R6 = { r = "10k", pins = ["gb", "in"] }
+C3 = { c = "47n", pins = ["gb", "gnd"] }
+`
+
+// A line whose DC paths reach only control electrodes (a base through its
+// winding), or that a bias rail feeds, sets a bias: it is a bias line, not
+// a supply line, and its tag must not name the battery it is fed from
+// (a blind review's IF strip tagged its AGC line "battery … +0.72 V").
+// A line that feeds a collector through its load stays a supply line.
+func TestMarkDecoupledBiasLine(t *testing.T) {
+	for _, tc := range []struct {
+		net, label string
+		role       Role
+	}{
+		{"agc", "bias via R1", Bias},
+		{"cd", "battery via R3", Supply},
+		{"gb", "bias via R5", Bias},
+	} {
+		c, err := Parse("bias.toml", []byte(biasLineNetlist))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !c.MarkDecoupled(tc.net) {
+			t.Errorf("%s not marked", tc.net)
+			continue
+		}
+		if n := c.Net(tc.net); n.Role != tc.role || n.Label != tc.label {
+			t.Errorf("%s: role %s label %q, want %s %q", tc.net, n.Role, n.Label, tc.role, tc.label)
+		}
 	}
 }
