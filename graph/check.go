@@ -252,10 +252,11 @@ func checkGangs(c *Circuit) ErrorList {
 			gangs[p.Gang] = append(gangs[p.Gang], p)
 		}
 	}
+	loose := looseVariables(c)
 	for _, g := range sortedKeys(gangs) {
 		ps := gangs[g]
-		if len(ps) == 1 {
-			w.Add(ps[0].Pos, "gang %q has only one member (%s): the other section's gang mark is missing?", g, ps[0].Ref)
+		if len(ps) == 1 && len(loose) > 0 {
+			w.Add(ps[0].Pos, "gang %q has only one member (%s), and %s is a variable capacitor in no gang: its gang mark is missing?", g, ps[0].Ref, strings.Join(loose, ", "))
 		}
 		for _, p := range ps {
 			if p.Kind != Capacitor || p.Type != CapVariable {
@@ -335,4 +336,40 @@ func bareCapacitor(p *Part) string {
 	n := strconv.FormatFloat(p.Value.Max, 'g', -1, 64)
 	return fmt.Sprintf("%s = %s F: a capacitor written without a unit is read in farads (did you mean %s µF? write \"%su\")",
 		p.Ref, n, n, n)
+}
+
+// CheckNotes is what the check finds worth saying that is no mistake: a
+// gang of one tuning capacitor, where no other variable capacitor stands
+// outside a gang, is a set with one tuned circuit (a VFO, a TRF with one
+// section), normal, not a lost gang mark. Where such a capacitor does
+// stand alone, Check warns instead.
+func CheckNotes(c *Circuit) ErrorList {
+	var n ErrorList
+	if len(looseVariables(c)) > 0 {
+		return n
+	}
+	gangs := map[string][]*Part{}
+	for _, p := range c.Parts {
+		if p.Gang != "" {
+			gangs[p.Gang] = append(gangs[p.Gang], p)
+		}
+	}
+	for _, g := range sortedKeys(gangs) {
+		if ps := gangs[g]; len(ps) == 1 {
+			n.Add(ps[0].Pos, "gang %q has one member (%s): a single tuning capacitor; if it has more sections, give them the same gang", g, ps[0].Ref)
+		}
+	}
+	return n
+}
+
+// looseVariables are the variable capacitors (not trimmers) in no gang,
+// by ref: a section whose gang mark may have been lost.
+func looseVariables(c *Circuit) []string {
+	var refs []string
+	for _, p := range c.Parts {
+		if p.Kind == Capacitor && p.Type == CapVariable && p.Gang == "" {
+			refs = append(refs, p.Ref)
+		}
+	}
+	return refs
 }

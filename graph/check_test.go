@@ -46,3 +46,40 @@ func TestCheckWarnings(t *testing.T) {
 		})
 	}
 }
+
+// A gang of one tuning capacitor is normal where no other variable
+// capacitor stands outside a gang (a single-section VFO capacitor: common
+// practice); it is a note, not a warning. With a loose variable capacitor
+// beside it the lost mark is likely, and Check warns
+// (testdata/warn/gang-one-member.toml).
+func TestGangOfOneIsANote(t *testing.T) {
+	const vfo = `title = "one-section VFO tank"
+band = "3.4M..4.1M"
+[parts]
+L1 = { l = "4u7", pins = ["tank", "gnd"] }
+C1 = { c = "10p..60p", gang = "vfo", pins = ["tank", "gnd"] }
+TC1 = { c = "3p..30p", set = "15p", pins = ["tank", "gnd"] }
+P1 = { port = "to grid", pins = ["tank"] }
+`
+	for _, tc := range []struct {
+		name, text   string
+		warns, notes int
+	}{
+		{"single section", vfo, 0, 1},
+		{"a loose section beside it", vfo + `C2 = { c = "10p..60p", pins = ["tank", "gnd"] }` + "\n", 1, 0},
+	} {
+		c, err := Parse("vfo.toml", []byte(tc.text))
+		if err != nil {
+			t.Fatal(err)
+		}
+		warns := 0
+		for _, w := range Check(c) {
+			if strings.Contains(w.Msg, "gang") {
+				warns++
+			}
+		}
+		if notes := len(CheckNotes(c)); warns != tc.warns || notes != tc.notes {
+			t.Errorf("%s: %d gang warnings, %d notes, want %d and %d", tc.name, warns, notes, tc.warns, tc.notes)
+		}
+	}
+}

@@ -244,6 +244,7 @@ func Run(o Options) (*Result, error) {
 
 func (r *Result) check(Options) error {
 	r.Warnings = graph.Check(r.Circuit)
+	r.Notes = append(r.Notes, graph.CheckNotes(r.Circuit)...)
 	r.weighNoInput()
 	return nil
 }
