@@ -448,6 +448,12 @@ func place(level *[]*found, f *found, parent *found) {
 	if inside, _ := relation(f.set, parent.set); !inside || !f.m.v.p.Inner || f.group == parent.group || len(f.set) == len(parent.set) {
 		return
 	}
+	if sharesCoil(f, parent) && parent.group == "oscillator" {
+		// an oscillator's figures already give its tank's resonance with
+		// every capacitor of the tank counted; a tank stage inside it would
+		// repeat f on part of them (a Colpitts' gang without the divider)
+		return
+	}
 	for _, t := range *level {
 		if _, overlap := relation(f.set, t.set); overlap {
 			place(&t.subs, f, t)
@@ -630,6 +636,33 @@ func Unmatched(c *graph.Circuit, stages []Stage) []string {
 	for _, p := range c.Parts {
 		if !claimed[p.Ref] && p.Kind != graph.Port {
 			out = append(out, p.Ref)
+		}
+	}
+	return out
+}
+
+// sharesCoil reports whether two stages' figures are calculated on the
+// same coil (the circuit part each pattern's `coil` argument binds; both
+// stages come from one search, so one numbering of parts).
+func sharesCoil(a, b *found) bool {
+	ca := figureCoils(a)
+	for i := range figureCoils(b) {
+		if ca[i] {
+			return true
+		}
+	}
+	return false
+}
+
+func figureCoils(f *found) map[int]bool {
+	out := map[int]bool{}
+	for _, spec := range f.m.v.p.Figures {
+		for _, name := range spec.Args["coil"] {
+			for i, vp := range f.m.v.parts {
+				if vp.pp.Name == name && f.m.parts[i] >= 0 {
+					out[f.m.parts[i]] = true
+				}
+			}
 		}
 	}
 	return out

@@ -10,18 +10,19 @@ import (
 // The formulas of tuned circuits and oscillator tanks, by the names a
 // figure's origin gives them (docs/references.md §1, §3; handbook formulas).
 var (
-	byResonance  = figure.ByFormula("f = 1/(2π√(LC))")
-	byTankC      = figure.BySolver("capacitance across the coil, nodal analysis", "")
-	byHartleyL   = figure.ByFormula("L = L1 + L2 + 2M, M = k√(L1L2)")
-	byColpitts   = figure.ByFormula("Ceff = C1C2/(C1+C2)")
-	byClapp      = figure.ByFormula("1/Ceff = 1/C1 + 1/C2 + 1/C3")
-	byFeedback   = figure.ByFormula("β = C1/C2")
-	byColpittsA  = figure.ByFormula("A ≥ C2/C1")
-	byPi         = figure.ByFormula("f = 1/(2π√(L·C1C2/(C1+C2)))")
-	byPiStep     = figure.ByFormula("Z2/Z1 ≈ (C2/C1)²")
-	byTurnsRatio = figure.ByFormula("n = √(L1/L2)")
-	byPartValue  = figure.FromNetlist("part value")
-	byCoilL      = figure.FromNetlist("coil inductance end to end (L1 + L2 + 2M for a tapped coil)")
+	byResonance     = figure.ByFormula("f = 1/(2π√(LC))")
+	byTankC         = figure.BySolver("capacitance across the coil, nodal analysis", "")
+	byHartleyL      = figure.ByFormula("L = L1 + L2 + 2M, M = k√(L1L2)")
+	byColpitts      = figure.ByFormula("Ceff = C1C2/(C1+C2)")
+	byColpittsTuned = figure.ByFormula("Ceff = Ct + C1C2/(C1+C2)")
+	byClapp         = figure.ByFormula("1/Ceff = 1/C1 + 1/C2 + 1/C3")
+	byFeedback      = figure.ByFormula("β = C1/C2")
+	byColpittsA     = figure.ByFormula("A ≥ C2/C1")
+	byPi            = figure.ByFormula("f = 1/(2π√(L·C1C2/(C1+C2)))")
+	byPiStep        = figure.ByFormula("Z2/Z1 ≈ (C2/C1)²")
+	byTurnsRatio    = figure.ByFormula("n = √(L1/L2)")
+	byPartValue     = figure.FromNetlist("part value")
+	byCoilL         = figure.FromNetlist("coil inductance end to end (L1 + L2 + 2M for a tapped coil)")
 )
 
 // resonance is f = 1/(2π√(LC)) (docs/references.md §1, handbook formula).
@@ -114,7 +115,11 @@ func calcHartley(x *figCtx) {
 
 // calcColpitts: Ceff = C1C2/(C1+C2); feedback fraction β = C1/C2 with C1
 // across the output and C2 across the input, so the loop needs |A| ≥ C2/C1
-// (docs/references.md §3).
+// (docs/references.md §3). A tuning capacitor across the coil (`tune`: a
+// VFO's gang section with its trimmer) adds to the divider's series pair:
+// Ceff = Ct + C1C2/(C1+C2) is then what the coil resonates with, a range
+// over the gang, and the resonance formula counts it; the divider alone
+// would print a capacitance the tank does not have.
 func calcColpitts(x *figCtx) {
 	coil, ok := x.coil("coil")
 	l := coil.l
@@ -122,12 +127,30 @@ func calcColpitts(x *figCtx) {
 	if !ok || c1 <= 0 || c2 <= 0 {
 		return
 	}
-	ceff := c1 * c2 / (c1 + c2)
 	x.set("l", figure.Henry, l, byCoilL)
-	x.set("c_eff", figure.Farad, ceff, byColpitts)
+	tune := x.parts("tune")
+	ceffAt := func(frac float64) float64 { return sumCap(tune, frac) + c1*c2/(c1+c2) }
+	switch {
+	case len(tune) == 0:
+		x.set("c_eff", figure.Farad, ceffAt(1), byColpitts)
+	case hasVariable(tune) && ceffAt(1) > ceffAt(0)*1.0001:
+		x.span("c_eff", figure.Farad, ceffAt(0), ceffAt(1), byColpittsTuned)
+	default:
+		x.set("c_eff", figure.Farad, ceffAt(1), byColpittsTuned)
+	}
 	x.set("feedback", figure.Ratio, c1/c2, byFeedback)
 	x.set("gain_min", figure.Ratio, c2/c1, byColpittsA)
-	x.fixedResonance("f", coil, resonance(l, ceff), byResonance, x.parts("c1"), x.parts("c2"))
+	var refs []string
+	for _, cs := range [][]*graph.Part{tune, x.parts("c1"), x.parts("c2")} {
+		refs = append(refs, refsOf(cs)...)
+	}
+	formulaAt := func(frac float64) float64 {
+		if !hasVariable(tune) {
+			frac = 1
+		}
+		return resonance(l, ceffAt(frac))
+	}
+	x.resonanceFigure("f", coil.ref, coil.l, coil.a, coil.b, formulaAt, byResonance, refs)
 }
 
 // fixedResonance is a tank's f from a formula on a fixed capacitance (the
