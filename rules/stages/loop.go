@@ -295,9 +295,45 @@ func addLoops(lp *ac.Loops, out []Stage) {
 			st.Loop = append(st.Loop, l)
 			loopFrequencyFigure(st, l)
 			st.Flags = append(st.Flags, loopFlags(c, st, l)...)
+			if f := swappedWindingFlag(lp, st, l); f != "" {
+				st.Flags = append(st.Flags, f)
+			}
 		}
 		slices.Sort(st.Flags)
 	}
+}
+
+// swappedWindingFlag says, for an oscillator a pattern names whose loop
+// does not start and whose feedback runs through a transformer, what the
+// loop would give with the feedback's sign turned over, where that starts
+// it: a reaction winding connected the wrong way round, the commonest
+// fault of a tickler oscillator after a rewind or a careless capture
+// (common practice). The same sentence as a regenerative detector's and a
+// converter's.
+func swappedWindingFlag(lp *ac.Loops, st *Stage, l Loop) string {
+	if _, _, _, best, ok := l.Range(); ok && best >= 0 || st.group != "oscillator" {
+		return ""
+	}
+	var xfmr string
+	for _, r := range st.Parts {
+		if p := lp.Circuit().Part(r); p != nil && p.Kind == graph.Transformer {
+			xfmr = r
+			break
+		}
+	}
+	if xfmr == "" {
+		return ""
+	}
+	turned, err := loopTurned(lp, l.Device, true)
+	if err != nil {
+		return ""
+	}
+	fMin, fMax, _, best, ok := turned.Range()
+	if !ok || best < 0 {
+		return ""
+	}
+	return fmt.Sprintf("a winding of %s connected the wrong way round as captured: with its ends swapped the loop would give %+.1f dB at best, %s–%s (%s)",
+		xfmr, best, hzText(fMin), hzText(fMax), l.Device)
 }
 
 // injectedMixers are the mixers fed by a separate oscillator: their valve

@@ -54,6 +54,16 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 		if !ok || mMax < loopReachDB && (claimed[p.Ref] != nil || !drawnConverter(w, lc, p, l, tops)) {
 			continue
 		}
+		if f := claimed[p.Ref]; mMax >= 0 && amplifierOf(c, f, tops, p.Ref) {
+			// Named an amplifier by its shape (a shunt-fed anode load, a
+			// bypassed cathode) but its loop runs: it is an oscillator,
+			// and a title that said gain would mislead; the loop's stage
+			// takes its parts.
+			gone[f] = true
+			for _, r := range f.Parts {
+				delete(claimed, r)
+			}
+		}
 		if f, in := claimed[p.Ref]; in {
 			f.Flags = append(f.Flags, claimedLoopFlags(lc, l)...)
 			if mMax >= 0 {
@@ -72,6 +82,20 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 		out = append(out, f)
 	}
 	return out, gone
+}
+
+// amplifierOf reports whether f is a top-level amplifier stage whose only
+// active part is dev: the stage is then dev's and nothing else's.
+func amplifierOf(c *graph.Circuit, f *found, tops []*found, dev string) bool {
+	if f == nil || f.group != "amplifier" || !slices.Contains(tops, f) {
+		return false
+	}
+	for _, r := range f.Parts {
+		if q := c.Part(r); r != dev && q != nil && q.IsActive() {
+			return false
+		}
+	}
+	return true
 }
 
 // loopReachDB is how far below 0 dB a loop that reaches 0° of loop phase

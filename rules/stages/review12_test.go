@@ -2,7 +2,10 @@ package stages
 
 import (
 	"math"
+	"os"
 	"path/filepath"
+	"slices"
+	"strings"
 	"testing"
 
 	"pare/graph"
@@ -49,6 +52,81 @@ func TestReview12ColpittsTankCountsTheGang(t *testing.T) {
 	for _, s := range st {
 		if s.Topology == "lc-tank" {
 			t.Errorf("%s: a tank stage inside the oscillator: %v", s.Name, s.Parts)
+		}
+	}
+}
+
+// review12Text is a review 12 circuit's text with the replacements made
+// (old, new pairs), each of which must apply: a variant of the reviewer's
+// own circuit.
+func review12Text(t *testing.T, name string, repl ...string) *graph.Circuit {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join("..", "..", "testdata", "review12", name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(data)
+	for i := 0; i+1 < len(repl); i += 2 {
+		if !strings.Contains(s, repl[i]) {
+			t.Fatalf("%s: %q not in the circuit", name, repl[i])
+		}
+		s = strings.Replace(s, repl[i], repl[i+1], 1)
+	}
+	c, err := graph.Parse(name, []byte(s))
+	if err != nil {
+		t.Fatalf("%s: %v", name, err)
+	}
+	return c
+}
+
+// The triode of review 12's triode-heptode is a tuned-grid oscillator
+// with its reaction winding shunt-fed (anode load R6 to HT, the winding
+// through C11) and a padder C9 at the tank's cold end: a tickler
+// oscillator, its tank f = 1/(2π√(LC)) with L 120 µH and C 47–400 pF in
+// series with 470 pF (42.7–216.1 pF): 988.3 kHz–2.223 MHz (handbook
+// formula, docs/references.md §29). Whatever the shape, a device whose loop
+// runs is never titled an amplifier: with a stopper in the feed (no
+// pattern names that) it is the oscillator found by its loop. With the
+// reaction winding's ends swapped the loop does not start, and the stage
+// says what the swap back would give, as for a regenerative detector.
+func TestReview12ShuntFedTickler(t *testing.T) {
+	tests := []struct {
+		name     string
+		repl     []string
+		topology string
+		flag     string
+	}{
+		{"as drawn", nil, "tuned-grid-tickler", ""},
+		{"stopper in the feed", []string{`C11 = { c = "220p", pins = ["osc_a", "rw"]`, `R7 = { r = "100R", pins = ["rw", "rw2"] }
+C11 = { c = "220p", pins = ["osc_a", "rw2"]`}, "oscillator-loop", ""},
+		{"winding reversed", []string{`s1 = "gnd", s2 = "rw"`, `s1 = "rw", s2 = "gnd"`}, "tuned-grid-tickler",
+			"a winding of T3 connected the wrong way round as captured: with its ends swapped the loop would give +"},
+	}
+	for _, tc := range tests {
+		st := findReduced(t, review12Text(t, "c03.toml", tc.repl...))
+		osc := topWith(st, "V1a")
+		if osc == nil || osc.Topology != tc.topology {
+			t.Errorf("%s: V1a's stage %+v, want %s: %s", tc.name, osc, tc.topology, topologies(st))
+			continue
+		}
+		if strings.HasPrefix(osc.Topology, "amp-") || strings.Contains(osc.Title, "mplifier") {
+			t.Errorf("%s: an oscillating triode titled %q", tc.name, osc.Title)
+		}
+		if tc.flag != "" && !slices.ContainsFunc(osc.Flags, func(f string) bool { return strings.HasPrefix(f, tc.flag) }) {
+			t.Errorf("%s: no flag %q in %q", tc.name, tc.flag, osc.Flags)
+		}
+		if tc.topology != "tuned-grid-tickler" {
+			continue
+		}
+		f, ok := osc.Figures.Get("f")
+		if !ok || f.Check == nil || f.Check.Range == nil ||
+			math.Abs(f.Check.Range.Min-988.3e3) > 1e3 || math.Abs(f.Check.Range.Max-2.223e6) > 2e3 {
+			t.Errorf("%s: tank f %+v, want the formula's 988.3 kHz–2.223 MHz", tc.name, f)
+		}
+		// ngspice .ac on the tank alone, rules/stages/testdata/review12/c03-tank.cir:
+		// peaks at 988.4 kHz (400 pF) and 2.2226 MHz (47 pF)
+		if f.Range == nil || math.Abs(f.Range.Min-988.4e3)/988.4e3 > 0.005 || math.Abs(f.Range.Max-2.2226e6)/2.2226e6 > 0.005 {
+			t.Errorf("%s: tank f in circuit %+v, want ngspice's 988.4 kHz–2.2226 MHz within 0.5 %%", tc.name, f.Range)
 		}
 	}
 }

@@ -208,6 +208,25 @@ T1 = { windings = { p = "250u", t = "20u" }, k = 0.3, pins = { p1 = "top", p2 = 
 R3 = { r = "1k", pins = ["x", "gnd"] }
 C1 = { c = "100p", pins = ["top", "gnd"] }
 C2 = { c = "100p", pins = ["g", "top"] }`},
+	// Shunt-fed: the output fed through its load from HT, the reaction
+	// winding through a blocking capacitor, a padder at the tank's cold end.
+	{topology: "tuned-grid-tickler", families: allFamilies,
+		parts: `@Q1(g, gnd, o)
+R2 = { r = "33k", pins = ["o", "ht"] }
+C3 = { c = "220p", pins = ["o", "rw"] }
+T1 = { windings = { p = "120u", t = "40u" }, k = 0.35, pins = { p1 = "top", p2 = "pad", t1 = "gnd", t2 = "rw" } }
+C4 = { c = "470p", pins = ["pad", "gnd"] }
+C1 = { c = "12p..365p", pins = ["top", "gnd"] }
+C2 = { c = "47p", pins = ["g", "top"] }`,
+		// The winding's feed ends in a resistor to chassis, not at the output.
+		nearMiss: `@Q1(g, gnd, o)
+R2 = { r = "33k", pins = ["o", "ht"] }
+C3 = { c = "220p", pins = ["x", "rw"] }
+R3 = { r = "1k", pins = ["x", "gnd"] }
+T1 = { windings = { p = "120u", t = "40u" }, k = 0.35, pins = { p1 = "top", p2 = "pad", t1 = "gnd", t2 = "rw" } }
+C4 = { c = "470p", pins = ["pad", "gnd"] }
+C1 = { c = "12p..365p", pins = ["top", "gnd"] }
+C2 = { c = "47p", pins = ["g", "top"] }`},
 	{topology: "tuned-output-tickler", families: allFamilies,
 		parts: `@Q1(g, gnd, o)
 T1 = { windings = { p = "250u", f = "20u" }, k = 0.3, pins = { p1 = "o", p2 = "ht", f1 = "g", f2 = "gnd" } }
