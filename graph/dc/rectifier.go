@@ -41,14 +41,17 @@ const rectifierMethod = "capacitor-input filter: the reservoir's periodic steady
 // Estimate is a rail pare estimates from a captured rectifier and reservoir
 // instead of holding it at declared volts.
 type Estimate struct {
-	Net         string  `json:"net"`
-	Volts       float64 `json:"volts"`     // mean DC at the reservoir
-	Formula     float64 `json:"formula"`   // the conduction-angle formula's mean, the cross-check
-	Ripple      float64 `json:"ripple_pp"` // peak-to-peak ripple at the reservoir
-	Amps        float64 `json:"amps"`      // the load current the estimate is taken at
-	Peak        float64 `json:"peak"`      // √2·Vac across the conducting path, open circuit
-	Drop        float64 `json:"drop"`      // peak less the reservoir's top: diodes and winding
-	Wave        string  `json:"wave"`      // "half-wave", "full-wave centre-tapped", "full-wave bridge"
+	Net     string  `json:"net"`
+	Volts   float64 `json:"volts"`     // mean DC at the reservoir
+	Formula float64 `json:"formula"`   // the conduction-angle formula's mean, the cross-check
+	Ripple  float64 `json:"ripple_pp"` // peak-to-peak ripple at the reservoir
+	// Fundamental is the ripple's fundamental (at the ripple frequency),
+	// peak to peak, from the steady state's own waveform.
+	Fundamental float64 `json:"ripple_fundamental_pp"`
+	Amps        float64 `json:"amps"` // the load current the estimate is taken at
+	Peak        float64 `json:"peak"` // √2·Vac across the conducting path, open circuit
+	Drop        float64 `json:"drop"` // peak less the reservoir's top: diodes and winding
+	Wave        string  `json:"wave"` // "half-wave", "full-wave centre-tapped", "full-wave bridge"
 	Transformer string  `json:"transformer"`
 	Method      string  `json:"method"`
 }
@@ -106,7 +109,7 @@ func (r *rectifier) at(i float64) Estimate {
 	}
 	e.Formula = r.formula(i)
 	w := r.steady(i, e.Formula)
-	e.Volts, e.Ripple, e.Drop = math.Max(w.mean, 0), w.top-w.bottom, r.peak-w.top
+	e.Volts, e.Ripple, e.Drop, e.Fundamental = math.Max(w.mean, 0), w.top-w.bottom, r.peak-w.top, w.fundamental
 	return e
 }
 

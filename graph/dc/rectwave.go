@@ -30,8 +30,13 @@ var sinTable = func() []float64 {
 	return t
 }()
 
-// wave is the periodic steady state: mean, top and bottom of the reservoir.
-type wave struct{ mean, top, bottom float64 }
+// wave is the periodic steady state: mean, top and bottom of the
+// reservoir, and its fundamental's peak-to-peak swing at the ripple
+// frequency (the Fourier coefficient of the stepped cycle: a reservoir's
+// ripple is no sawtooth, its fast recharge puts more of the swing in the
+// fundamental than a sawtooth's 2/π, and the fundamental is what a
+// smoothing section passes most of).
+type wave struct{ mean, top, bottom, fundamental float64 }
 
 // steady finds the reservoir's periodic steady state at load current i:
 // the secant method on the start voltage v of one ripple cycle, the
@@ -76,15 +81,22 @@ func (r *rectifier) cycle(i, v float64) (float64, wave) {
 	}
 	w := wave{top: v, bottom: v}
 	sum, u := 0.0, 0.0
+	re, im := 0.0, 0.0
+	per := stepsPerCycle / steps // mains steps per ripple step in sinTable
 	for n := 1; n <= steps; n++ {
 		e := r.peak * sinTable[n]
 		// Backward Euler: V = v + h·(j − i)/C and e − V = j·Rs + n·Vd(j).
 		j := r.junctionCurrent(e-v+h*i/r.c, r.rs+h/r.c, &u)
 		v += h * (j - i) / r.c
 		sum += v
+		k := (n * per) % stepsPerCycle
+		re += v * sinTable[(k+stepsPerCycle/4)%stepsPerCycle] // cos of the ripple phase
+		im += v * sinTable[k]
 		w.top, w.bottom = math.Max(w.top, v), math.Min(w.bottom, v)
 	}
 	w.mean = sum / float64(steps)
+	// amplitude 2/N·|Σ v·e^(−jθ)|, twice that peak to peak
+	w.fundamental = 4 * math.Hypot(re, im) / float64(steps)
 	return v, w
 }
 

@@ -54,7 +54,7 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 		if !ok || mMax < loopReachDB && (claimed[p.Ref] != nil || !drawnConverter(w, lc, p, l, tops)) {
 			continue
 		}
-		if f := claimed[p.Ref]; mMax >= 0 && amplifierOf(c, f, tops, p.Ref) {
+		if f := claimed[p.Ref]; mMax >= 0 && amplifierOf(c, f, tops, p.Ref) && !sharedLoop(lp, c, p.Ref, l) {
 			// Named an amplifier by its shape (a shunt-fed anode load, a
 			// bypassed cathode) but its loop runs: it is an oscillator,
 			// and a title that said gain would mislead; the loop's stage
@@ -97,6 +97,36 @@ func amplifierOf(c *graph.Circuit, f *found, tops []*found, dev string) bool {
 	}
 	return true
 }
+
+// sharedLoop reports whether another active part's loop runs at the
+// frequency dev's does: one loop through two devices (a Wien bridge's
+// second valve, an amplifier inside another's feedback path), where dev
+// is an amplifier in the oscillator's loop, a stage of its own, and not a
+// second oscillator. Each device's return ratio crosses 0° where the
+// other's loading puts it, a little apart (1.2 % on testdata/osc/wien-bjt),
+// so the frequencies need only agree within sharedLoopTol.
+func sharedLoop(lp *ac.Loops, c *graph.Circuit, dev string, l Loop) bool {
+	fMin, fMax, _, _, _ := l.Range()
+	for _, q := range c.Parts {
+		if q.Ref == dev || !q.IsActive() {
+			continue
+		}
+		ql, err := loopOf(lp, q.Ref)
+		if err != nil {
+			continue
+		}
+		qMin, qMax, _, qBest, ok := ql.Range()
+		if ok && qBest >= 0 && qMin <= fMax*(1+sharedLoopTol) && qMax >= fMin*(1-sharedLoopTol) {
+			return true
+		}
+	}
+	return false
+}
+
+// sharedLoopTol: two devices' 0° points within 5 % are taken as one loop
+// (common practice, no source: independent oscillators of one set, a local
+// oscillator and a BFO, sit far further apart).
+const sharedLoopTol = 0.05
 
 // loopReachDB is how far below 0 dB a loop that reaches 0° of loop phase
 // is still reported: −10 dB, a gm about three times short. That is within
