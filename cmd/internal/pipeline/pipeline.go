@@ -158,6 +158,10 @@ type Result struct {
 	// circuit that makes its own signal needs no input): they do not fail
 	// `check --strict`.
 	Notes graph.ErrorList
+	// base is the circuit the small-signal work starts from (acBase);
+	// reservoirNotes say which estimated reservoirs it made supplies.
+	base           *graph.Circuit
+	reservoirNotes []string
 	// Retuned are the declared bands a switch setting moved to the tanks
 	// it switches in (graph.RetuneBands): the proof sweeps those.
 	Retuned []graph.Retuned
@@ -278,7 +282,7 @@ func (r *Result) reduce(o Options) error {
 	}
 	// Reduce promises not to touch its input; the clone keeps the original
 	// pristine for the comparison and the faded sheet even if it slipped.
-	reduced, log, err := rules.Reduce(r.Circuit.Clone(), ro)
+	reduced, log, err := rules.Reduce(r.acBase().Clone(), ro)
 	if err != nil {
 		return &Error{Phase: PhaseReduce, Err: err}
 	}
@@ -295,11 +299,12 @@ func (r *Result) verify(o Options) error {
 		return nil
 	}
 	r.Verified = true
-	r.Report, r.CompareErr = r.compare(r.Circuit, r.Reduced, nil)
+	r.Report, r.CompareErr = r.compare(r.acBase(), r.Reduced, nil)
 	if r.Report != nil {
 		for _, t := range r.Retuned {
 			r.Report.Notes = append(r.Report.Notes, t.String())
 		}
+		r.Report.Notes = append(r.Report.Notes, r.reservoirNotes...)
 	}
 	return nil
 }

@@ -36,7 +36,7 @@ func (r *Result) stepChecker(mode StepCheck, whole bool) func(before, after *gra
 	return func(before, after *graph.Circuit, st *rules.Step) error {
 		ref := before
 		if mode == AgainstOriginal {
-			ref = r.Circuit
+			ref = r.acBase()
 		} else if !whole {
 			// Against the previous circuit only the groups of parts the
 			// step touched can differ (local.go): compare those.
