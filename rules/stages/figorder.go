@@ -48,6 +48,11 @@ var figureNames = []figName{
 	{name: "pad_trim", label: "trimmer", group: suggestedDesign},
 	{name: "track_f", label: "exact at", group: suggestedDesign},
 	{name: "gain", label: "gain"},
+	// beside a gain to a tuned secondary: the gain at the device's own
+	// output electrode, named for the electrode a repairer probes
+	{name: "gain_anode", label: "anode gain"},
+	{name: "gain_collector", label: "collector gain"},
+	{name: "gain_drain", label: "drain gain"},
 	{name: "load_f", label: "load tuned f"},
 	// The tuned load's Q: the prefix's word before "loaded Q" would read
 	// "load loaded Q".

@@ -57,11 +57,57 @@ func (x *figCtx) tunedSecondaryGain(p *graph.Part, gm, rdn2, rOut, f0 float64) b
 	x.putChecked(sv, check, func() string {
 		return "the formula takes each winding's own Q and the coupling as captured; in circuit what the secondary feeds and the strays load the pair"
 	})
+	x.anodeGain(c, in, r, f, at)
 	old, _ := x.get("load_f")
 	lf := figure.Figure{Name: "load_f", Unit: figure.Hertz, Value: f,
 		Origin: figure.BySolver(fmt.Sprintf("peak of |V(%s)/V(%s)|: the transformer's pass-band centre", sec, in), at)}
 	x.putChecked(&lf, old.Check, nil)
 	return true
+}
+
+// anodeGain puts the gain to the device's own output electrode at the
+// secondary's peak f beside the gain to the secondary: the two differ by
+// the transformer's step, and a gain that a repairer measures at the anode
+// (or collector) must not be read off the secondary's (review 12's IF
+// strip: 144 to the detector winding, 202 at the anode).
+func (x *figCtx) anodeGain(c *graph.Circuit, in string, _ *ac.Response, f float64, at string) {
+	out := x.deviceNet("output")
+	if out == "" || c.Net(out) == nil {
+		return
+	}
+	r, err := ac.NewTransfer(c, in, out, gangMid.options())
+	if err != nil {
+		return
+	}
+	h, err := r.At(f)
+	if err != nil || cmplx.IsNaN(h) || cmplx.IsInf(h) {
+		return
+	}
+	dev := x.part("device")
+	if dev == nil {
+		return
+	}
+	name := map[graph.Kind]string{graph.Valve: "gain_anode", graph.BJT: "gain_collector", graph.FET: "gain_drain"}[dev.Kind]
+	if name == "" {
+		return
+	}
+	x.put(figure.Figure{Name: name, Unit: figure.Ratio, Value: cmplx.Abs(h),
+		Origin: figure.BySolver("|V("+out+")/V("+in+")| at the secondary's peak, the device's own output electrode", at)})
+}
+
+// deviceNet is the circuit net of the figure's device's terminal of role
+// key ("control", "common", "output"), "" when it has none.
+func (x *figCtx) deviceNet(key string) string {
+	i := x.index(x.spec.Args["device"][0])
+	if i < 0 {
+		return ""
+	}
+	for _, pin := range x.m.v.parts[i].pp.Pins {
+		if pin.Key == key {
+			return x.st.nets[pin.Net]
+		}
+	}
+	return ""
 }
 
 // pairFormula is byPairGain's value: the primary winding's and the

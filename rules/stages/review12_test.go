@@ -160,3 +160,28 @@ func TestReview12HumIsTheRipplesFundamental(t *testing.T) {
 		t.Errorf("hum at ht2 %.3g V p-p, ngspice 44.8 mV: more than 3 %% apart", got)
 	}
 }
+
+// A tuned amplifier into a double-tuned can hands the next stage the
+// secondary's voltage: review 12's IF strip's gain 144 runs from V1's grid
+// to the detector winding (ngspice 144.4 at 465.18 kHz on the reviewer's
+// testdata/review12/spice/c05.cir), and the anode gain beside it, the one a
+// repairer probes, is 201.8 at 465 kHz there (docs/references.md §29).
+func TestReview12AnodeGainBesideTheSecondarys(t *testing.T) {
+	st := reduceReview12(t, "c05.toml")
+	amp := stageOf(st, "amp-tuned")
+	if amp == nil {
+		t.Fatalf("no tuned amplifier: %s", topologies(st))
+	}
+	for _, tc := range []struct {
+		name string
+		want float64
+	}{
+		{"gain", 144.4},
+		{"gain_anode", 201.8},
+	} {
+		f, ok := amp.Figures.Get(tc.name)
+		if !ok || math.Abs(f.Value-tc.want) > 0.01*tc.want {
+			t.Errorf("%s = %+v, want ngspice's %g within 1 %%", tc.name, f, tc.want)
+		}
+	}
+}
