@@ -10,7 +10,7 @@ import (
 
 // The reservoir's ripple on review 12's mains supply (250-0-250 V, valve
 // rectifier, 32 µF, choke filter): the reviewer's ngspice transient
-// (testdata/review12/spice/c08.cir, docs/references.md §29) gives 6.69 V
+// (testdata/review12/spice/c08.cir, docs/references.md §30) gives 6.69 V
 // p-p (303.87 − 297.18 V) whose fundamental at 100 Hz is 2 × 2.810 V =
 // 5.62 V p-p, 0.84 of the swing: not a sawtooth's 2/π (4.26 V), which read
 // the hum left after the filter 25 % low. The estimate's own waveform gives

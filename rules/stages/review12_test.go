@@ -29,7 +29,7 @@ func reduceReview12(t *testing.T, name string) []Stage {
 // A Colpitts VFO's tank is its coil with the gang section and trimmer
 // across it and the divider's series pair: c eff is all of it, C1 10–60 pF
 // + TC1 15 pF + 680 pF·680 pF/1360 pF = 365–415 pF (handbook Colpitts
-// formula, docs/references.md §29), so the resonance formula agrees with
+// formula, docs/references.md §30), so the resonance formula agrees with
 // the solver; the divider alone (340 pF) is not what the coil sees. The
 // solver's f is checked against the reviewer's ngspice (3.610 and
 // 3.849 MHz, testdata/review12/spice/c01.cir); no tank stage inside the
@@ -86,7 +86,7 @@ func review12Text(t *testing.T, name string, repl ...string) *graph.Circuit {
 // through C11) and a padder C9 at the tank's cold end: a tickler
 // oscillator, its tank f = 1/(2π√(LC)) with L 120 µH and C 47–400 pF in
 // series with 470 pF (42.7–216.1 pF): 988.3 kHz–2.223 MHz (handbook
-// formula, docs/references.md §29). Whatever the shape, a device whose loop
+// formula, docs/references.md §30). Whatever the shape, a device whose loop
 // runs is never titled an amplifier: with a stopper in the feed (no
 // pattern names that) it is the oscillator found by its loop. With the
 // reaction winding's ends swapped the loop does not start, and the stage
@@ -137,7 +137,7 @@ C11 = { c = "220p", pins = ["osc_a", "rw2"]`}, "oscillator-loop", ""},
 // ripple's fundamental through the choke filter: the reviewer's ngspice
 // transient (testdata/review12/spice/c08.cir) gives 2 × 22.40 mV =
 // 44.8 mV p-p at 100 Hz on ht2; with a sawtooth's 2/π of the ripple pare
-// said 33.8 mV (docs/references.md §29).
+// said 33.8 mV (docs/references.md §30).
 func TestReview12HumIsTheRipplesFundamental(t *testing.T) {
 	c, err := graph.LoadFile(filepath.Join("..", "..", "testdata", "review12", "c08.toml"))
 	if err != nil {
@@ -165,7 +165,7 @@ func TestReview12HumIsTheRipplesFundamental(t *testing.T) {
 // secondary's voltage: review 12's IF strip's gain 144 runs from V1's grid
 // to the detector winding (ngspice 144.4 at 465.18 kHz on the reviewer's
 // testdata/review12/spice/c05.cir), and the anode gain beside it, the one a
-// repairer probes, is 201.8 at 465 kHz there (docs/references.md §29).
+// repairer probes, is 201.8 at 465 kHz there (docs/references.md §30).
 func TestReview12AnodeGainBesideTheSecondarys(t *testing.T) {
 	st := reduceReview12(t, "c05.toml")
 	amp := stageOf(st, "amp-tuned")
