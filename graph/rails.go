@@ -89,6 +89,9 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 	}
 	n.Role = Supply
 	name := WithoutVolts(railLabel(from))
+	if name == "" {
+		name = from.Name // a rail named only by its voltage ("+9 V"): its net's name
+	}
 	if from.Role == Bias || c.feedsOnlyControl(net) {
 		n.Role, name = Bias, "bias"
 	}
