@@ -59,10 +59,11 @@ func (c *Circuit) ReturnOf(pin Pin) *Net {
 // claim the rail itself. Its own DC voltage is the rail's less the drop,
 // which only the DC solution knows: a tag that copied the rail's would
 // state a voltage the line does not have, so the caller that has the
-// solution adds it. A line fed from a bias rail, or one whose DC paths
-// reach device electrodes and only control ones (a base bias and AGC line),
-// carries no supply current: it takes the bias role and is named a bias
-// line, never after the supply it is fed from. The first feed by part ref
+// solution adds it. A line fed from a bias rail takes the bias role and
+// that rail's name; one whose DC paths reach device electrodes and only
+// control ones (a base bias and AGC line) carries no supply current: it
+// takes the bias role and is named a bias line, never after the supply it
+// is fed from. The first feed by part ref
 // wins; it reports whether it marked.
 func (c *Circuit) MarkDecoupled(net string) bool {
 	n := c.Net(net)
@@ -92,7 +93,10 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 	if name == "" {
 		name = from.Name // a rail named only by its voltage ("+9 V"): its net's name
 	}
-	if from.Role == Bias || c.feedsOnlyControl(net) {
+	switch {
+	case from.Role == Bias:
+		n.Role = Bias // fed from a bias rail (an AGC line's filter): named after it
+	case c.feedsOnlyControl(net):
 		n.Role, name = Bias, "bias"
 	}
 	n.Fed = from.Name

@@ -162,7 +162,7 @@ func TestMarkDecoupledBiasLine(t *testing.T) {
 	}{
 		{"agc", "bias via R1", Bias},
 		{"cd", "battery via R3", Supply},
-		{"gb", "bias via R5", Bias},
+		{"gb", "vb via R5", Bias},
 	} {
 		c, err := Parse("bias.toml", []byte(biasLineNetlist))
 		if err != nil {
