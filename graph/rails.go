@@ -100,7 +100,13 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 		n.Role, name = Bias, "bias"
 	}
 	n.Fed = from.Name
-	if n.Label == "" {
+	switch {
+	case n.Label != "":
+	case from.Fed != "" && strings.Contains(name, " via "):
+		// fed from a line that is fed itself: the chain of parts from
+		// the rail ("vcc via R10, R4"), not "via" twice
+		n.Label = name + ", " + via
+	default:
 		n.Label = strings.TrimSpace(name + " via " + via)
 	}
 	return true

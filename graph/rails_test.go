@@ -26,6 +26,8 @@ R6 = { r = "100k", pins = ["d", "a"] }
 R7 = { r = "47k", pins = ["ht", "t"] }
 R8 = { r = "10k", pins = ["t", "gnd"] }
 C3 = { c = "10u", pins = ["t", "b"] }
+R9 = { r = "1k", pins = ["d", "e"] }
+C4 = { c = "10u", pins = ["b", "e"] }
 `
 
 // TestJoinRemembersRails: a terminal moved off a rail by a join keeps the
@@ -54,6 +56,8 @@ func TestJoinRemembersRails(t *testing.T) {
 		{"a decoupled line", [][2]string{{"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT via R5"},
 		// t is a divider's tap (R7 from HT, R8 to chassis): a bias point
 		{"a divider's tap", [][2]string{{"mark", "t"}, {"gnd", "t"}}, [2]string{"C3", "1"}, "", 0, ""},
+		// e is fed from the decoupled line d through R9: the chain from HT
+		{"a line fed from a decoupled line", [][2]string{{"mark", "d"}, {"gnd", "d"}, {"mark", "e"}, {"gnd", "e"}}, [2]string{"C4", "2"}, "e", 0, "HT via R5, R9"},
 		{"a decoupled line after HT went", [][2]string{{"gnd", "ht"}, {"mark", "d"}, {"gnd", "d"}}, [2]string{"R6", "1"}, "d", 0, "HT via R5"},
 	}
 	for _, tc := range tests {
