@@ -100,7 +100,7 @@ func (f *flow) sheet(a, b int) *Sheet {
 		if sp := f.frameSpan[k]; sp[1] < a || sp[0] >= b {
 			continue
 		}
-		g := Frame{Title: fr.Title, Subtitle: fr.Subtitle, Places: fr.Places}
+		g := Frame{Title: fr.Title, Subtitle: fr.Subtitle, Places: fr.Places, Joined: fr.Joined}
 		for _, p := range fr.Parts {
 			if keep[p] {
 				g.Parts = append(g.Parts, p)

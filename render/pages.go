@@ -75,8 +75,11 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 	chOf := channels(s.Circuit)
 	framed := map[string]bool{}
 	var bs []block
-	add := func(refs []string) {
+	add := func(refs []string, joined bool) {
 		b := block{x0: 1e18, x1: -1e18, ch: -1}
+		if n := len(bs); joined && n > 0 {
+			b, bs = bs[n-1], bs[:n-1]
+		}
 		for _, r := range refs {
 			if e, ok := ext[r]; ok && !framed[r] {
 				framed[r] = true
@@ -91,11 +94,11 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 			bs = append(bs, b)
 		}
 	}
-	for _, f := range s.Frames {
-		add(f.Parts)
+	for i, f := range s.Frames {
+		add(f.Parts, f.Joined && i > 0)
 	}
 	for _, p := range s.Circuit.Parts {
-		add([]string{p.Ref})
+		add([]string{p.Ref}, false)
 		if n := len(bs); n > 0 && bs[n-1].refs[0] == p.Ref && p.Kind == graph.Port {
 			bs[n-1].port = true
 		}

@@ -7,8 +7,10 @@ import (
 	"strings"
 	"testing"
 
+	"pare/graph"
 	"pare/internal/golden"
 	"pare/render/check"
+	"pare/render/geom"
 	"pare/render/symbol"
 )
 
@@ -235,5 +237,32 @@ func TestFitDoesNotRouteWhatCannotFit(t *testing.T) {
 	one, fits, err = cfg.FprintFit(chainSheet(1), a4, 1)
 	if err != nil || !fits || len(one) == 0 {
 		t.Errorf("one stage on A4: %d bytes, fits %v, %v; want a drawing that fits", len(one), fits, err)
+	}
+}
+
+// TestJoinedFramesAreOneStretch: a frame joined to the one before it (a
+// supply's smoothing filter after its rectifier) is never cut from it, even
+// with a gap between them where a row could end; unjoined, the two are
+// stretches of their own.
+func TestJoinedFramesAreOneStretch(t *testing.T) {
+	c := &graph.Circuit{Parts: []*graph.Part{{Ref: "C1"}, {Ref: "L1"}, {Ref: "V1"}}}
+	ext := map[string]geom.Rect{
+		"V1": geom.R(0, 0, 10, 10),
+		"C1": geom.R(20, 0, 30, 10),
+		"L1": geom.R(30, 0, 40, 10),
+	}
+	for _, joined := range []bool{false, true} {
+		s := &Sheet{Circuit: c, Frames: []Frame{
+			{Title: "ST2 rectifier", Parts: []string{"V1"}},
+			{Title: "ST1 filter", Parts: []string{"C1", "L1"}, Joined: joined},
+		}}
+		bs := blocks(s, ext)
+		want := 2
+		if joined {
+			want = 1
+		}
+		if len(bs) != want {
+			t.Errorf("joined %v: %d stretches, want %d", joined, len(bs), want)
+		}
 	}
 }

@@ -93,6 +93,10 @@ type Frame struct {
 	// Places are the stage's drawing templates, its own and its
 	// sub-stages', each one's parts round its anchor (layout.Place).
 	Places []Place
+	// Joined keeps the frame on one stretch with the frame before it: the
+	// rows of a page never cut between them (a supply's smoothing filter
+	// and its rectifier, drawn as one piece).
+	Joined bool
 }
 
 // Place is one part of a stage's drawing template (see layout.Place).

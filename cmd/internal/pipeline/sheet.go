@@ -95,10 +95,10 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		// one sheet for both: render lays the full view out with the
 		// faded parts known and draws it plain, so the faded view is the
 		// same layout greyed where the reduction took parts away
-		s.Circuit = c
+		s.Frames = stageFrames(r.Stages, reduced, c)
+		s.Circuit = wiredReservoir(c, s.Frames)
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
 		s.FadedPins = droppedPins(c, reduced)
-		s.Frames = stageFrames(r.Stages, reduced, c)
 		s.PinVolts = r.electrodeVolts()
 	}
 	s.Marks = r.alignMarks(v)
@@ -218,9 +218,11 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 			sub[c] = true
 		}
 	}
+	hosts := supplyHosts(found, full)
 	var frames []render.Frame
+	var names []string
 	for _, s := range found {
-		if sub[s.Name] || filterSection(s, full) {
+		if sub[s.Name] || filterSection(s, full) && hosts[s.Name] == "" {
 			continue
 		}
 		set := map[string]bool{}
@@ -249,8 +251,9 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 		sort.Strings(parts)
 		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts,
 			Places: framePlaces(s, byName, reduced, full)})
+		names = append(names, s.Name)
 	}
-	return frames
+	return joinSupply(frames, names, hosts)
 }
 
 // filterSection tells a supply filter section (a series resistor or choke
@@ -258,6 +261,7 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 // frames: its parts sit where the rail meets each stage's feed, often far
 // apart on the sheet, and a frame around them would sweep across the
 // stages between; the stage list and the note name it with its figures.
+// A section on the rectifier's output is the exception (supplyHosts).
 func filterSection(s stages.Stage, full *graph.Circuit) bool {
 	if !s.Supply || full == nil {
 		return false
