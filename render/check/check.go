@@ -43,6 +43,9 @@ type Report struct {
 	// InLine are wires of two nets on one line with a short empty gap
 	// between their ends: they read as one wire.
 	InLine []string
+	// EndsNear are symbols' ends (a pin, a flag's tip) within a grid step
+	// of a wire of a net the symbol has no pin on: they read as joined.
+	EndsNear []string
 	// LongWires are nets wired much longer than their stage is wide
 	// (reported, not a fault).
 	LongWires      []string
@@ -65,9 +68,10 @@ func (r *Report) Problems() []string {
 
 // Misreadings lists what a reader would take for a connection that is not
 // there: unrelated wires beside each other closer than apartMin, or in line
-// across a short gap, and a frame holding another stage's part.
+// across a short gap, a symbol's end close to an unrelated wire, and a frame
+// holding another stage's part.
 func (r *Report) Misreadings() []string {
-	return append(append(append([]string{}, r.Beside...), r.InLine...), r.FrameIntruders...)
+	return append(append(append(append([]string{}, r.Beside...), r.InLine...), r.EndsNear...), r.FrameIntruders...)
 }
 
 // Crowding lists the readability findings that are not fatal to the
@@ -152,10 +156,11 @@ func Measure(g *geom.Sheet) *Report {
 	r.frameIntruders(g)
 	r.closeWires(segs)
 	r.misreadings(segs, boxes, &bix)
+	r.endsNear(g, segs)
 	r.longWires(g)
 	r.crossings(g, segs)
 	r.connectivity(g, segs)
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.LongWires, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.LongWires, r.Connectivity, r.Junctions} {
 		sort.Strings(l)
 	}
 	return r

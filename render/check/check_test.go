@@ -154,6 +154,21 @@ func TestFindings(t *testing.T) {
 		{"a gap long enough to read as two wires", func(g *geom.Sheet) {
 			g.Wires = append(g.Wires, wire("m", seg(-12, 6, -6, 6)), wire("n", seg(4, 0, 4, 6), seg(4, 6, 0.5, 6)))
 		}, "", func(r *Report) []string { return r.InLine }},
+		// a flag P1 on net s, its tip at 27,0, and a wire of m turning just
+		// beyond it (the extension socket that read as feeding the tone
+		// control)
+		{"a wire one step past a flag's tip", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
+			g.Wires = append(g.Wires, wire("m", seg(28, -3, 28, 0), seg(28, 0, 32, 0)))
+		}, "P1's end (27,0) is 1 from a wire of m", func(r *Report) []string { return r.EndsNear }},
+		{"a wire two steps past a flag's tip", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
+			g.Wires = append(g.Wires, wire("m", seg(29, -3, 29, 0), seg(29, 0, 32, 0)))
+		}, "", func(r *Report) []string { return r.EndsNear }},
+		{"the flag's own net beside its tip", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
+			g.Wires = append(g.Wires, wire("s", seg(28, -3, 28, 0)))
+		}, "", func(r *Report) []string { return r.EndsNear }},
 		{"a wire round the sheet", func(g *geom.Sheet) {
 			g.Frames = []geom.Frame{{Box: geom.Rect{X0: 9, Y0: -2, X1: 15, Y1: 2}, Parts: []string{"R2"}}}
 			g.Wires[0].Segs = []geom.Seg{seg(4, 0, 4, 10), seg(4, 10, 10, 10), seg(10, 10, 10, 0)}

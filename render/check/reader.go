@@ -23,6 +23,9 @@ const (
 	// longWire is how many times its stage's width a net's wire may run
 	// before it is reported as a long way round.
 	longWire = 3.0
+	// endNear is the distance, in grid steps, within which a wire passing
+	// a symbol's end reads as joined to it.
+	endNear = 1.0
 )
 
 // misreadings finds wires a reader would take as joined: parallel wires of
@@ -139,4 +142,76 @@ func TextHeights(g *geom.Sheet, mmPerUnit, smallScale, minMM float64) []string {
 		}
 	}
 	return out
+}
+
+// endsNear finds a symbol's end within a grid step of a wire of a net the
+// symbol has no pin on: the eye joins a lead, a flag's tip or a body's side
+// to a wire that close (a socket's flag whose tip stopped one step short of
+// the tone control's wire read as feeding it). A symbol's ends are its pins
+// and, on a side of its box with no pin, that side's middle (a flag's tip).
+func (r *Report) endsNear(g *geom.Sheet, segs []netSeg) {
+	var six bucketed
+	for i, s := range segs {
+		six.add(i, s.seg.Box())
+	}
+	for _, s := range g.Symbols {
+		mine := map[string]bool{}
+		for _, p := range s.Pins {
+			mine[p.Net] = true
+		}
+		for _, e := range symbolEnds(s) {
+			for _, j := range six.near(geom.Rect{X0: e.X, Y0: e.Y, X1: e.X, Y1: e.Y}.Inset(endNear)) {
+				w := segs[j]
+				if mine[w.net] || w.net == notConnected {
+					continue
+				}
+				if d := pointSeg(e, w.seg); d > geom.Eps && d < endNear+geom.Eps {
+					r.EndsNear = append(r.EndsNear, fmt.Sprintf("%s's end %s is %g from a wire of %s %s-%s", s.Ref, pt(e), d, w.net, pt(w.seg.A), pt(w.seg.B)))
+					break
+				}
+			}
+		}
+	}
+}
+
+// symbolEnds are a symbol's pins and the middles of its box's sides that
+// hold no pin.
+func symbolEnds(s geom.Symbol) []geom.Pt {
+	b := s.Box
+	mid := []geom.Pt{{X: b.X0, Y: (b.Y0 + b.Y1) / 2}, {X: b.X1, Y: (b.Y0 + b.Y1) / 2}, {X: (b.X0 + b.X1) / 2, Y: b.Y0}, {X: (b.X0 + b.X1) / 2, Y: b.Y1}}
+	side := func(p geom.Pt) int {
+		switch {
+		case math.Abs(p.X-b.X0) < geom.Eps:
+			return 0
+		case math.Abs(p.X-b.X1) < geom.Eps:
+			return 1
+		case math.Abs(p.Y-b.Y0) < geom.Eps:
+			return 2
+		case math.Abs(p.Y-b.Y1) < geom.Eps:
+			return 3
+		}
+		return -1
+	}
+	pinned := [4]bool{}
+	var out []geom.Pt
+	for _, p := range s.Pins {
+		out = append(out, p.At)
+		if k := side(p.At); k >= 0 {
+			pinned[k] = true
+		}
+	}
+	for k, m := range mid {
+		if !pinned[k] {
+			out = append(out, m)
+		}
+	}
+	return out
+}
+
+// pointSeg is the distance from p to the segment s.
+func pointSeg(p geom.Pt, s geom.Seg) float64 {
+	b := s.Box()
+	x := math.Max(b.X0, math.Min(p.X, b.X1))
+	y := math.Max(b.Y0, math.Min(p.Y, b.Y1))
+	return math.Hypot(p.X-x, p.Y-y)
 }

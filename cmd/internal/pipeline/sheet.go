@@ -95,8 +95,8 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		// one sheet for both: render lays the full view out with the
 		// faded parts known and draws it plain, so the faded view is the
 		// same layout greyed where the reduction took parts away
+		s.Circuit = c
 		s.Frames = stageFrames(r.Stages, reduced, c)
-		s.Circuit = wiredReservoir(c, s.Frames)
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
 		s.FadedPins = droppedPins(c, reduced)
 		s.PinVolts = r.electrodeVolts()
