@@ -5,6 +5,7 @@ import (
 	"sort"
 
 	"pare/render/geom"
+	"pare/render/symbol"
 )
 
 // Routing costs, in grid steps: a bend costs three steps, a crossing thirty,
@@ -153,6 +154,7 @@ func (rt *router) blockObstacles() {
 		if len(cl.label.Lines) > 0 {
 			rt.block(cl.label.Box)
 		}
+		rt.blockTip(cl.shape)
 	}
 	for _, f := range rt.ly.frames {
 		rt.block(f.Title.Box)
@@ -271,6 +273,30 @@ func (rt *router) blockLocal(l geom.Local) {
 		b = l.Box
 	}
 	rt.block(b)
+}
+
+// blockTip blocks the grid point one step beyond the far end of a symbol
+// with one pin (a flag, a socket), on the pin's line: another net's wire
+// passing there would meet the tip end on and read as its continuation (a
+// socket flag whose tip stopped one step short of the tone control's wire
+// read as feeding it).
+func (rt *router) blockTip(sh symbol.Shape) {
+	if len(sh.Pins) != 1 {
+		return
+	}
+	p, b := sh.Pins[0], sh.Box
+	var at geom.Pt
+	switch p.Dir {
+	case geom.Left:
+		at = geom.Pt{X: b.X1 + 1, Y: p.At.Y}
+	case geom.Right:
+		at = geom.Pt{X: b.X0 - 1, Y: p.At.Y}
+	case geom.Up:
+		at = geom.Pt{X: p.At.X, Y: b.Y1 + 1}
+	default:
+		at = geom.Pt{X: p.At.X, Y: b.Y0 - 1}
+	}
+	rt.block(geom.Rect{X0: at.X, Y0: at.Y, X1: at.X, Y1: at.Y})
 }
 
 func (rt *router) block(r geom.Rect) {
