@@ -97,7 +97,19 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 	for i, f := range s.Frames {
 		add(f.Parts, f.Joined && i > 0)
 	}
+	blockOf := map[string]int{}
+	for i, b := range bs {
+		for _, r := range b.refs {
+			blockOf[r] = i
+		}
+	}
+	with := beside(s.Circuit, blockOf)
 	for _, p := range s.Circuit.Parts {
+		if i, ok := with[p.Ref]; ok && !framed[p.Ref] && ext[p.Ref] != (geom.Rect{}) {
+			framed[p.Ref] = true
+			bs[i].refs = append(bs[i].refs, p.Ref)
+			continue
+		}
 		add([]string{p.Ref}, false)
 		if n := len(bs); n > 0 && bs[n-1].refs[0] == p.Ref && p.Kind == graph.Port {
 			bs[n-1].port = true
@@ -122,6 +134,53 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 	if len(out) > 0 && out[len(out)-1].ch > 0 {
 		inLine(out)
 		out = leadingPorts(out)
+	}
+	return out
+}
+
+// beside gives the unframed parts wired only among themselves and to one
+// frame's stretch (chassis, rails and ports aside) that stretch: a mains
+// switch, fuse and capacitor across the transformer's primary go on the
+// rectifier's row, not on the row before it with connectors to the
+// primary. Their x spans are left out of the stretch's: the row lays them
+// out afresh, and a span reaching back would swallow the stretches
+// between.
+func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
+	free := func(p *graph.Part) bool { _, in := blockOf[p.Ref]; return !in && p.Kind != graph.Port }
+	seen := map[string]bool{}
+	out := map[string]int{}
+	for _, p := range c.Parts {
+		if seen[p.Ref] || !free(p) {
+			continue
+		}
+		group, at, ok := []string{}, -1, true
+		queue := []*graph.Part{p}
+		seen[p.Ref] = true
+		for len(queue) > 0 {
+			q := queue[0]
+			queue = queue[1:]
+			group = append(group, q.Ref)
+			for _, pn := range q.Pins {
+				if pn.Net == "" || pn.Net == graph.NotConnected || c.RoleOf(pn.Net).IsACGround() {
+					continue
+				}
+				for _, cn := range c.ConnsOf(pn.Net) {
+					r := cn.Part
+					if i, in := blockOf[r.Ref]; in {
+						ok = ok && (at < 0 || at == i)
+						at = i
+					} else if free(r) && !seen[r.Ref] {
+						seen[r.Ref] = true
+						queue = append(queue, r)
+					}
+				}
+			}
+		}
+		if ok && at >= 0 {
+			for _, r := range group {
+				out[r] = at
+			}
+		}
 	}
 	return out
 }

@@ -266,3 +266,47 @@ func TestJoinedFramesAreOneStretch(t *testing.T) {
 		}
 	}
 }
+
+// TestUnframedPartsGoWithTheirStage: unframed parts wired only among
+// themselves and to one frame's parts (a mains switch and a capacitor
+// across a transformer's primary) stay on that frame's stretch, wherever
+// the placement put them; a part wired to two frames' parts is a stretch
+// of its own.
+func TestUnframedPartsGoWithTheirStage(t *testing.T) {
+	pins := func(nets ...string) []graph.Pin {
+		var out []graph.Pin
+		for i, n := range nets {
+			out = append(out, graph.Pin{Name: fmt.Sprint(i + 1), Net: n})
+		}
+		return out
+	}
+	c := &graph.Circuit{Parts: []*graph.Part{
+		{Ref: "C1", Kind: graph.Capacitor, Pins: pins("p", "q")},
+		{Ref: "R1", Kind: graph.Resistor, Pins: pins("a", "b")},
+		{Ref: "S1", Kind: graph.Switch, Pins: pins("q", "m")},
+		{Ref: "T1", Kind: graph.Transformer, Pins: pins("p", "q", "s", "gnd")},
+		{Ref: "V1", Kind: graph.Valve, Pins: pins("a", "x")},
+		{Ref: "V2", Kind: graph.Valve, Pins: pins("s", "b")},
+	}}
+	c.Sort()
+	ext := map[string]geom.Rect{
+		"C1": geom.R(0, 0, 4, 2), "S1": geom.R(5, 0, 8, 2), "V1": geom.R(20, 0, 24, 4),
+		"R1": geom.R(30, 0, 34, 2), "T1": geom.R(40, 0, 44, 4), "V2": geom.R(50, 0, 54, 4),
+	}
+	s := &Sheet{Circuit: c, Frames: []Frame{
+		{Title: "ST1 amplifier", Parts: []string{"V1"}},
+		{Title: "ST2 rectifier", Parts: []string{"T1", "V2"}},
+	}}
+	got := map[string]int{}
+	for i, b := range blocks(s, ext) {
+		for _, r := range b.refs {
+			got[r] = i
+		}
+	}
+	if got["C1"] != got["T1"] || got["S1"] != got["T1"] {
+		t.Errorf("C1 and S1 on stretches %d and %d, T1's is %d: want them with T1", got["C1"], got["S1"], got["T1"])
+	}
+	if got["R1"] == got["V1"] || got["R1"] == got["T1"] {
+		t.Errorf("R1, wired to two stages, joined stretch %d", got["R1"])
+	}
+}
