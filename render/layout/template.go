@@ -3,7 +3,6 @@ package layout
 import (
 	"math"
 
-	"pare/graph"
 	"pare/render/geom"
 )
 
@@ -100,7 +99,7 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 		if (p.Col == 0 && p.Row == 0) || max(p.Col, -p.Col, p.Row, -p.Row) > slotReach {
 			continue
 		}
-		slots = append(slots, &slotted{b: b, col: ly.windingSide(anchor, b, p.Col), row: p.Row, keep: true})
+		slots = append(slots, &slotted{b: b, col: p.Col, row: p.Row, keep: true})
 	}
 	if len(slots) == 0 {
 		return
@@ -292,42 +291,4 @@ func (ly *state) blockStage(b *block) int {
 		return s
 	}
 	return -1
-}
-
-// windingSide is the column a block takes beside a transformer anchor: a
-// template says which side a winding's part stands (a tuning capacitor
-// right of the winding it tunes), but which of the symbol's sides holds
-// that winding depends on the circuit (an aerial coil tuned on its
-// primary, an IF can on its secondary), so a part wired to the anchor only
-// through pins on the other side takes the mirrored column: the capacitor
-// stands beside its own winding, not across the symbol from it. Other
-// anchors keep the template's column.
-func (ly *state) windingSide(anchor, b *block, col int) int {
-	a := anchor.cells[0]
-	if col == 0 || a.part == nil || a.part.Kind != graph.Transformer {
-		return col
-	}
-	nets := map[string]bool{}
-	for _, cl := range append(append([]*cell{}, b.cells...), b.chain...) {
-		for _, p := range cl.shape.Pins {
-			if !ly.c.RoleOf(p.Net).IsACGround() {
-				nets[p.Net] = true
-			}
-		}
-	}
-	want, other := geom.Right, geom.Left // the side col points to
-	if col < 0 {
-		want, other = other, want
-	}
-	mine, across := false, false
-	for _, p := range a.shape.Pins {
-		if nets[p.Net] {
-			mine = mine || p.Dir == want
-			across = across || p.Dir == other
-		}
-	}
-	if across && !mine {
-		return -col
-	}
-	return col
 }
