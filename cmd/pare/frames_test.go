@@ -83,9 +83,10 @@ func eachAtOnce(n int, fn func(i int)) {
 // learned it; 40 once a one-pin symbol's tip kept the point beyond it free
 // (the rest are transformer leads over a passing wire), and the supply's
 // smoothing section framed beside its rectifier took the others to 1452
-// and 294; after the rebase onto the output transformer's copper and the
-// output stage's cathode template, 1456, 290 and 40.
-var misreadCeiling = struct{ beside, inLine, endsNear int }{1456, 290, 40}
+// and 294; after the rebases onto main (the output transformer's copper,
+// the banks flowing channel by channel) and the output stage's cathode
+// template, 1460, 298 and 40.
+var misreadCeiling = struct{ beside, inLine, endsNear int }{1460, 298, 40}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
