@@ -117,10 +117,10 @@ C2 = { c = "122.354p", pins = ["g", "gnd"] }`, "double-tuned", "kc", 0.0102062, 
 	// No IF declared: the IF transformer's own tuning (455 kHz, §1) is used.
 	{"mixer IF from IFT", "valve", "", mixerRef, "self-oscillating-mixer", "if_hz", 455e3, 1e-5},
 	// docs/references.md §4: AGC 1 MΩ × 0.1 µF → 0.1 s, 1.59155 Hz.
-	{"agc tau", "valve", "", `R1 = { r = "1M", pins = ["det", "agc"] }
-C1 = { c = "100n", pins = ["agc", "gnd"] }`, "agc-filter", "tau_s", 0.1, 1e-9},
-	{"agc corner", "valve", "", `R1 = { r = "1M", pins = ["det", "agc"] }
-C1 = { c = "100n", pins = ["agc", "gnd"] }`, "agc-filter", "f_c_hz", 1.59155, 1e-5},
+	// The detector's diode feeds it and the line returns a grid (an AGC
+	// filter is confirmed by that wiring, rcagc.go).
+	{"agc tau", "valve", "", agcRef, "agc-filter", "tau_s", 0.1, 1e-9},
+	{"agc corner", "valve", "", agcRef, "agc-filter", "f_c_hz", 1.59155, 1e-5},
 	// docs/references.md §4: coupling 10 nF into 470 kΩ → 4.7 ms, 33.8628 Hz.
 	{"coupling corner", "valve", "", `@Q1(in, gnd, a)
 R2 = { r = "47k", pins = ["a", "ht"] }
@@ -219,6 +219,15 @@ D9 = { diode = "rectifier", pins = { a = "ac9", k = "hv" } }
 V9 = { valve = "triode", pins = { g1 = "gnd", k = "gnd", a = "a9" }, mu = 20, ra = "10k" }
 R9 = { r = "47k", pins = ["ht", "a9"] }`, "smoothing-filter", "f_c_hz", 8.89703, 1e-5},
 }
+
+// agcRef is an AGC filter as a set wires it: the detector's diode on the
+// resistor's far end, the line into a grid return (1 MΩ × 100 nF).
+const agcRef = `D1 = { diode = "signal", pins = ["in", "det"] }
+R1 = { r = "1M", pins = ["det", "agc"] }
+C1 = { c = "100n", pins = ["agc", "gnd"] }
+R3 = { r = "2M2", pins = ["agc", "g"] }
+@Q1(g, gnd, a)
+R9 = { r = "47k", pins = ["a", "ht"] }`
 
 func TestFigures(t *testing.T) {
 	for _, tc := range figureCases {

@@ -44,6 +44,9 @@ func calcRC(x *figCtx) {
 	if use == "coupling" && x.upstream(x.parts("r"), x.parts("c")) {
 		return // the resistor is the source's (an anode load, a source resistor): no figures, the guard drops the match
 	}
+	if use == "agc" && !x.agcConfirmed(x.parts("r"), x.parts("c")) {
+		return // no detector feeds it or no grid or base return takes the line: no figures, the guard drops the match
+	}
 	tau := r * c
 	fc := 1 / (2 * math.Pi * tau)
 	x.set("tau", figure.Second, tau, byTau)

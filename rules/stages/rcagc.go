@@ -29,8 +29,8 @@ func calcAGCLine(x *figCtx) {
 	if from == line {
 		from = r.NetOf("2")
 	}
-	if line == "" || !fedByDetector(x.w.c, from) {
-		return // not the detector's output: a feed from the line, no figures, the guard drops it
+	if line == "" || !fedByDetector(x.w.c, from) || !reachesControl(x.w.c, line, r.Ref) {
+		return // not the detector's output, or a line that biases no grid or base: no figures, the guard drops it
 	}
 	formula := &figure.Figure{Name: "tau", Unit: figure.Second, Value: r.Value.Max * c.Capacitance(0.5), Origin: byTau}
 	sv := solvedLag(x.w.c, from, line)
@@ -121,4 +121,92 @@ func solvedLag(c *graph.Circuit, from, to string) *figure.Figure {
 	fc := math.Sqrt(lo * hi)
 	return &figure.Figure{Name: "tau", Unit: figure.Second, Value: 1 / (2 * math.Pi * fc),
 		Origin: figure.BySolver("1/(2π·fc), fc the −3 dB point of V("+to+")/V("+from+")", hz(fc))}
+}
+
+// agcConfirmed tells whether a series resistor into a capacitor to chassis
+// is an AGC filter by its wiring, on the circuit as drawn when it is known:
+// a detector's DC output feeds the resistor (a diode on its far net, or at
+// the other end of a winding from it), and the line the capacitor holds
+// runs through DC paths (resistors, coils, windings, pot tracks; never
+// back through the filter's resistor) to the control electrode of an
+// amplifying device, the grid or base return the control voltage biases.
+// An RC with a long time constant in an emitter lead, a supply line or an
+// oscillator's network has neither, whatever its time constant says.
+func (x *figCtx) agcConfirmed(rs, cs []*graph.Part) bool {
+	if len(rs) != 1 || len(cs) != 1 {
+		return false
+	}
+	c := x.w.c
+	if x.w.orig != nil {
+		c = x.w.orig.c
+	}
+	r, cp := c.Part(rs[0].Ref), c.Part(cs[0].Ref)
+	if r == nil || cp == nil || len(r.Pins) != 2 {
+		return false
+	}
+	line := sharedNet(r, cp)
+	if line == "" {
+		return false
+	}
+	from := r.NetOf(r.Pins[0].Name)
+	if from == line {
+		from = r.NetOf(r.Pins[1].Name)
+	}
+	return fedByDetector(c, from) && reachesControl(c, line, r.Ref)
+}
+
+// reachesControl walks from net through the parts that pass DC (resistors,
+// inductors, windings, pot tracks), never through skip nor into AC-ground
+// nets other than a declared bias line, and tells whether it meets the
+// control electrode of an amplifying device.
+func reachesControl(c *graph.Circuit, net, skip string) bool {
+	seen := map[string]bool{net: true}
+	queue := []string{net}
+	for len(queue) > 0 {
+		n := queue[0]
+		queue = queue[1:]
+		for _, cn := range c.ConnsOf(n) {
+			p := cn.Part
+			if p.IsActive() && graph.RoleOfPin(p.Kind, cn.Pin) == graph.RoleControl {
+				return true
+			}
+			if p.Ref == skip {
+				continue
+			}
+			for _, next := range dcEnds(p, cn.Pin) {
+				role := c.RoleOf(next)
+				if seen[next] || next == "" || role.IsACGround() && role != graph.Bias {
+					continue
+				}
+				seen[next] = true
+				queue = append(queue, next)
+			}
+		}
+	}
+	return false
+}
+
+// dcEnds are the nets a part joins to pin's net for DC: a resistor's
+// or inductor's other end, a pot's other terminals, the other ends of the
+// windings the pin belongs to.
+func dcEnds(p *graph.Part, pin string) []string {
+	var out []string
+	switch p.Kind {
+	case graph.Resistor, graph.Inductor, graph.Pot:
+		for _, q := range p.Pins {
+			if q.Name != pin {
+				out = append(out, q.Net)
+			}
+		}
+	case graph.Transformer:
+		for _, w := range p.Windings {
+			switch pin {
+			case w.From:
+				out = append(out, p.NetOf(w.To))
+			case w.To:
+				out = append(out, p.NetOf(w.From))
+			}
+		}
+	}
+	return out
 }

@@ -720,16 +720,42 @@ L1 = { l = "1m147", q = 60, pins = ["in", "m"] }
 C1 = { c = "100p", pins = ["m", "gnd"] }
 R2 = { r = "1k", pins = ["m", "x"] }
 R3 = { r = "1k", pins = ["x", "gnd"] }`},
+	// An AGC filter is confirmed by its wiring: the detector's diode feeds
+	// the resistor and the line runs on to a grid (base) return.
 	{topology: "agc-filter", families: []string{"valve"}, want: "passive",
 		parts: `D1 = { diode = "signal", pins = ["in", "det"] }
 C2 = { c = "100p", pins = ["det", "gnd"] }
 R1 = { r = "1M", pins = ["det", "agc"] }
-C1 = { c = "100n", pins = ["agc", "gnd"] }`,
+C1 = { c = "100n", pins = ["agc", "gnd"] }
+R3 = { r = "2M2", pins = ["agc", "g"] }
+@Q1(g, gnd, a)
+R9 = { r = "47k", pins = ["a", "ht"] }`,
 		// 22 kΩ × 1 nF: far too quick for an AGC line.
 		nearMiss: `D1 = { diode = "signal", pins = ["in", "det"] }
 C2 = { c = "100p", pins = ["det", "gnd"] }
 R1 = { r = "22k", pins = ["det", "agc"] }
-C1 = { c = "1n", pins = ["agc", "gnd"] }`},
+C1 = { c = "1n", pins = ["agc", "gnd"] }
+R3 = { r = "2M2", pins = ["agc", "g"] }
+@Q1(g, gnd, a)
+R9 = { r = "47k", pins = ["a", "ht"] }`},
+	// The same wiring in all families (the device the line biases is a
+	// valve, a BJT or a FET).
+	{topology: "agc-filter", families: allFamilies, want: "passive",
+		parts: `D1 = { diode = "signal", pins = ["in", "det"] }
+C2 = { c = "100p", pins = ["det", "gnd"] }
+R1 = { r = "1M", pins = ["det", "agc"] }
+C1 = { c = "100n", pins = ["agc", "gnd"] }
+R3 = { r = "2M2", pins = ["agc", "g"] }
+@Q1(g, gnd, a)
+R9 = { r = "47k", pins = ["a", "ht"] }`,
+		// A long time constant with neither a detector nor a grid return:
+		// a part-bypass in an emitter lead (220 Ω + 47 µF = 10.3 ms, the
+		// blind review's record-player preamp) is no AGC filter.
+		nearMiss: `@Q1(in, e, a)
+R9 = { r = "4k7", pins = ["a", "ht"] }
+R10 = { r = "1k", pins = ["e", "gnd"] }
+R11 = { r = "220", pins = ["e", "eb"] }
+C9 = { c = "47u", type = "electrolytic", pins = ["eb", "gnd"] }`},
 	// The audio of an FM set (IF 10.7 MHz, from memory the usual FM IF):
 	// 47 kΩ × 1 nF = 47 µs, within ±20 % of 50 µs (derived from τ = RC).
 	{topology: "de-emphasis", families: []string{"valve"}, want: "passive", extra: `[freqs]
@@ -845,7 +871,9 @@ D1 = { diode = "signal", pins = ["det_a", "gnd"] }
 C2 = { c = "100p", pins = ["det", "gnd"] }
 R2 = { r = "470k", pins = ["det", "gnd"] }
 R1 = { r = "1M", pins = ["det", "agc_line"] }
-C1 = { c = "100n", pins = ["agc_line", "gnd"] }`,
+C1 = { c = "100n", pins = ["agc_line", "gnd"] }
+R3 = { r = "2M2", pins = ["agc_line", "g"] }
+V1 = { valve = "triode", pins = { g1 = "g", k = "gnd", a = "ht" }, mu = 20, ra = "10k" }`,
 		nearMiss: `R1 = { r = "1M", pins = ["g", "agc_line"] }
 C1 = { c = "100n", pins = ["agc_line", "gnd"] }
 R2 = { r = "1M", pins = ["g", "gnd"] }`},
