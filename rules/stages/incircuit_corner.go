@@ -58,7 +58,7 @@ func (x *figCtx) couplingCorner(p *graph.Part, up, down int, r, c float64) {
 	}
 	sv := &figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: f,
 		Origin: figure.BySolver("−3 dB of V("+downNet+")/V("+upNet+")", gangMid.at)}
-	x.putChecked(sv, &check, func() string {
+	why := func() string {
 		load := 1 / (2 * math.Pi * f * c)
 		beyond := "what lies beyond draws current too"
 		if refs := x.devicesOn(down); len(refs) > 0 {
@@ -66,8 +66,43 @@ func (x *figCtx) couplingCorner(p *graph.Part, up, down int, r, c float64) {
 		}
 		return fmt.Sprintf("in circuit %s works into about %s, not the %s of resistors to AC ground the formula takes: %s",
 			p.Ref, figure.Format(load, figure.Ohm, figure.Text), figure.Format(r, figure.Ohm, figure.Text), beyond)
-	})
+	}
+	x.putChecked(sv, &check, why)
+	x.cornerTau(sv)
+	// The resistance the capacitor works into, as the corner shows it:
+	// R = 1/(2π·fc·C); the resistors to AC ground are its formula.
+	rin := &figure.Figure{Name: "r_in", Unit: figure.Ohm, Value: 1 / (2 * math.Pi * f * c),
+		Origin: figure.BySolver("1/(2π·fc·C), fc the −3 dB point of V("+downNet+")/V("+upNet+")", gangMid.at)}
+	x.putChecked(rin, &figure.Figure{Name: "r_in", Unit: figure.Ohm, Value: r, Origin: byResistorsToGround}, sameLoading)
 }
+
+// cornerTau makes a stage's time constant the one its corner in circuit
+// gives, τ = 1/(2π·fc), the solver's, with τ = RC of the parts alone
+// beside it as its formula: a corner of the circuit printed beside a time
+// constant of the parts alone contradicted it wherever what follows loads
+// the network (a coupling capacitor into a transistor's input: fc 90.6 Hz
+// beside τ 0.475 s, which is 0.34 Hz).
+func (x *figCtx) cornerTau(fc *figure.Figure) {
+	rc, ok := x.get("tau")
+	if !ok || fc == nil || !(fc.Value > 0) {
+		return
+	}
+	sv := &figure.Figure{Name: "tau", Unit: figure.Second, Value: 1 / (2 * math.Pi * fc.Value),
+		Origin: figure.BySolver("1/(2π·fc), fc the in-circuit corner", fc.Origin.At)}
+	check := rc
+	if rc.Check != nil {
+		check = *rc.Check // already solved once: keep the formula
+	}
+	x.putChecked(sv, &check, sameLoading)
+}
+
+// byResistorsToGround is the formula of a coupling capacitor's load: the
+// resistors from its far side to AC ground, nothing beyond them.
+var byResistorsToGround = figure.ByFormula("R = the resistors from its far side to AC ground")
+
+// sameLoading is why a time constant or input resistance read from the
+// corner parts from its formula: the reason given for the corner.
+func sameLoading() string { return "the loading that moves f c" }
 
 // devicesOn lists the amplifying parts with a pin on a folded net.
 func (x *figCtx) devicesOn(net int) []string {
@@ -159,7 +194,9 @@ func (x *figCtx) rcCorner(rp, cp *graph.Part, fc float64, highPass bool) {
 	}
 	sv := &figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: f,
 		Origin: figure.BySolver("−3 dB of V("+outNet+")/V("+inNet+")", gangMid.at)}
-	x.putChecked(sv, &check, func() string {
+	why := func() string {
 		return fmt.Sprintf("the formula takes %s and %s alone; in circuit what follows loads the section", rp.Ref, cp.Ref)
-	})
+	}
+	x.putChecked(sv, &check, why)
+	x.cornerTau(sv)
 }

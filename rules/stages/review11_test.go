@@ -35,7 +35,7 @@ func TestReviewOscCouplingReadsLoadSide(t *testing.T) {
 			if s == nil {
 				t.Fatalf("no stage holds %s: %s", tc.cap, topologies(st))
 			}
-			r, ok := s.Figures.Lookup("r_in_ohm")
+			r, ok := formulaOf(s.Figures, "r_in_ohm") // the resistors to AC ground, the corner's formula
 			if !ok || math.Abs(r/tc.rIn-1) > 0.01 {
 				t.Errorf("%s %s: r in %v (ok %v), want %v", s.Name, tc.cap, r, ok, tc.rIn)
 			}

@@ -228,8 +228,16 @@ C2 = { c = "365p", pins = ["t", "gnd"] }`, 0, 0, 0, "no resistance to feed: no c
 					}
 					return
 				}
-				if !within(fc, tc.fc, 1e-5) || !within(fig(s.Figures, "tau_s"), tc.tau, 1e-9) || !within(fig(s.Figures, "r_in_ohm"), tc.rIn, 1e-9) {
-					t.Errorf("fc %g τ %g R %g, want %g, %g, %g (%s)", fc, fig(s.Figures, "tau_s"), fig(s.Figures, "r_in_ohm"), tc.fc, tc.tau, tc.rIn, tc.source)
+				tau, _ := formulaOf(s.Figures, "tau_s")
+				rIn, _ := formulaOf(s.Figures, "r_in_ohm")
+				if !within(fc, tc.fc, 1e-5) || !within(tau, tc.tau, 1e-6) || !within(rIn, tc.rIn, 1e-6) {
+					t.Errorf("fc %g τ %g R %g, want %g, %g, %g (%s)", fc, tau, rIn, tc.fc, tc.tau, tc.rIn, tc.source)
+				}
+				// The figures shown agree with each other: τ = 1/(2π·fc)
+				// and fc = 1/(2π·R·C), all three of the circuit.
+				f, t0, r := fig(s.Figures, "f_c_hz"), fig(s.Figures, "tau_s"), fig(s.Figures, "r_in_ohm")
+				if !within(2*math.Pi*f*t0, 1, 1e-9) || !within(2*math.Pi*f*r*10e-9, 1, 1e-9) {
+					t.Errorf("shown f c %g Hz, τ %g s, r in %g Ω disagree (1/(2πτ) = %g Hz)", f, t0, r, 1/(2*math.Pi*t0))
 				}
 			})
 		}
