@@ -77,6 +77,8 @@ var figureNames = []figName{
 	{name: "r_reflected", label: "reflected load"},
 	{name: "f_top_cut", label: "top-cut f"},
 	{name: "top_cut", label: "cut at band top", inDB: true},
+	{name: "z_load", label: "load |Z| across the band"},
+	{name: "f_zobel", label: "Zobel takes over above"},
 	{name: "f_notch", label: "notch f"},
 	{name: "notch_depth", label: "notch depth", inDB: true},
 	{name: "p_out_class_a", label: "max output (class A)"},

@@ -1,6 +1,7 @@
 package stages
 
 import (
+	"math"
 	"testing"
 
 	"pare/graph"
@@ -72,5 +73,51 @@ func TestReview12NoAGCFilterWithoutDetector(t *testing.T) {
 		for _, f := range review12Candidates(t, file, "agc-filter") {
 			t.Errorf("%s: an AGC filter %v matched in an oscillator with no detector", file, f.Parts)
 		}
+	}
+}
+
+// c07's Zobel (R8 10 Ω + C4 100 nF across SP1 8 Ω) is a Zobel, not an RC
+// low-pass section: the load the output sees stays near 8 Ω across the
+// band. ngspice .ac on testdata/review12/c07-zobel-load.cir: 7.9498 Ω at
+// 12 kHz to 8.0000 Ω at 60 Hz (docs/references.md §29); its corner
+// 1/(2πRC) = 159.15 kHz (handbook formula).
+func TestReview12Zobel(t *testing.T) {
+	st := review12(t, "c07.toml")
+	s := stageOf(st, "zobel")
+	if s == nil {
+		t.Fatalf("no Zobel: %s", topologies(st))
+	}
+	if z, ok := s.Figures.Get("z_load"); !ok || z.Range == nil || !within(z.Range.Min, 7.9498, 2e-4) || !within(z.Range.Max, 8.0, 2e-4) {
+		t.Errorf("load |Z| %+v, want ngspice's 7.9498–8.0000 Ω", z)
+	}
+	if f := fig(s.Figures, "f_zobel_hz"); !within(f, 159155, 1e-4) {
+		t.Errorf("Zobel corner %g Hz, want 159.15 kHz", f)
+	}
+	if stageOf(st, "rc-low-pass") != nil {
+		t.Errorf("an RC low-pass section is still named: %s", topologies(st))
+	}
+}
+
+// The figures of one coupling stage agree: c09's S1 printed "f c 90.6 Hz,
+// tau 0.475 s", the corner of the circuit beside the time constant of the
+// part and its resistors alone (1/(2π·0.475 s) = 0.335 Hz). Now τ and r in
+// are read from the corner in circuit, τ = RC and the resistors to AC
+// ground kept as their formulas (docs/references.md §29).
+func TestReview12CornerAgreesWithTau(t *testing.T) {
+	for _, file := range []string{"c07.toml", "c09.toml"} {
+		for _, s := range review12(t, file) {
+			f, okF := s.Figures.Get("f_c")
+			tau, okT := s.Figures.Get("tau")
+			if !okF || !okT || f.Range != nil || tau.Range != nil {
+				continue
+			}
+			if !within(2*math.Pi*f.Value*tau.Value, 1, 1e-6) {
+				t.Errorf("%s %s %v: f c %g Hz beside τ %g s (1/(2πτ) = %g Hz)", file, s.Name, s.Parts, f.Value, tau.Value, 1/(2*math.Pi*tau.Value))
+			}
+		}
+	}
+	s := stageWith(review12(t, "c09.toml"), "C1")
+	if r := fig(s.Figures, "r_in_ohm"); !within(r, 1756, 0.01) {
+		t.Errorf("C1 works into %g Ω, want 1.756 kΩ (1/(2π·90.63 Hz·1 µF))", r)
 	}
 }
