@@ -2,6 +2,7 @@ package stages
 
 import (
 	"math"
+	"slices"
 	"testing"
 
 	"pare/graph"
@@ -119,5 +120,27 @@ func TestReview12CornerAgreesWithTau(t *testing.T) {
 	s := stageWith(review12(t, "c09.toml"), "C1")
 	if r := fig(s.Figures, "r_in_ohm"); !within(r, 1756, 0.01) {
 		t.Errorf("C1 works into %g Ω, want 1.756 kΩ (1/(2π·90.63 Hz·1 µF))", r)
+	}
+}
+
+// c07's output pair (TR2 NPN, TR3 PNP, D1 D2 and the preset RV1 between
+// the bases, R6 R7 0.47 Ω to the mid-point) is a complementary follower
+// pair, not a coupling capacitor and parts in no stage. Its gain from the
+// driven base (c1, TR1's collector) to the mid-point at mid-band: ngspice
+// .ac on testdata/review12/c07-pair-gain.cir (the reviewer's linear deck
+// at 848.53 Hz) 0.86856 (docs/references.md §29).
+func TestReview12ComplementaryPair(t *testing.T) {
+	st := review12(t, "c07.toml")
+	s := stageOf(st, "complementary-pair-preset")
+	if s == nil {
+		t.Fatalf("no complementary pair: %s", topologies(st))
+	}
+	for _, ref := range []string{"TR2", "TR3", "D1", "D2", "RV1", "R6", "R7"} {
+		if !slices.Contains(s.Parts, ref) {
+			t.Errorf("pair %v lacks %s", s.Parts, ref)
+		}
+	}
+	if g := fig(s.Figures, "gain"); !within(g, 0.86856, 1e-3) {
+		t.Errorf("pair gain %g, want ngspice's 0.86856", g)
 	}
 }

@@ -848,6 +848,27 @@ T1 = { windings = { p = "20", s = "20m" }, k = 0.99, pins = { p1 = "ht", p2 = "a
 LS1 = { spk = "8R", pins = ["spk", "gnd"] }
 C4 = { c = "100n", pins = ["spk", "z"] }
 R8 = { r = "100", pins = ["z", "gnd"] }`},
+	// A complementary pair of emitter followers, two diodes between the
+	// bases (the driver's collector on the PNP's base).
+	{topology: "complementary-pair", families: []string{"bjt"}, want: "bjt",
+		parts: complementaryPair + `
+D1 = { diode = "signal", pins = ["bn", "dm"] }
+D2 = { diode = "signal", pins = ["dm", "bp"] }`,
+		// Two NPNs in the same places: not complementary (a
+		// quasi-complementary stage needs its own driver pair).
+		nearMiss: strings.Replace(complementaryPair, `bjt = "pnp"`, `bjt = "npn"`, 1) + `
+D1 = { diode = "signal", pins = ["bn", "dm"] }
+D2 = { diode = "signal", pins = ["dm", "bp"] }`},
+	// The same with a standing-current preset strapped as a rheostat.
+	{topology: "complementary-pair-preset", families: []string{"bjt"}, want: "bjt",
+		parts: complementaryPair + `
+D1 = { diode = "signal", pins = ["bn", "dm"] }
+RV1 = { pot = "220R", set = 0.3, pins = ["dm", "bp", "bp"] }`,
+		// The preset from a base to chassis: a base bias divider, not a
+		// network between the bases.
+		nearMiss: complementaryPair + `
+D1 = { diode = "signal", pins = ["bn", "bp"] }
+RV1 = { pot = "220R", set = 0.3, pins = ["bp", "gnd", "gnd"] }`},
 	{topology: "coupling-capacitor", families: []string{"valve"}, want: "passive",
 		parts: `C1 = { c = "22n", pins = ["in", "out"] }
 P1 = { port = "to the next stage", pins = ["out"] }`,
@@ -951,6 +972,18 @@ V9 = { valve = "triode", pins = { g1 = "g7", k = "gnd", a = "a9" }, mu = 20, ra 
 R9 = { r = "47k", pins = ["hv", "a9"] }
 C9 = { c = "1n", pins = ["a9", "gnd"] }`},
 }
+
+// complementaryPair is an NPN and a PNP emitter follower into one output,
+// with a driver on the PNP's base; the bias network between the bases is
+// each case's own.
+const complementaryPair = `Q1 = { bjt = "npn", beta = 60, ic = "20m", pins = { b = "bn", c = "ht", e = "en" } }
+Q2 = { bjt = "pnp", beta = 60, ic = "20m", pins = { b = "bp", c = "gnd", e = "ep" } }
+R6 = { r = "0R47", pins = ["en", "out"] }
+R7 = { r = "0R47", pins = ["ep", "out"] }
+R1 = { r = "1k", pins = ["ht", "bn"] }
+Q3 = { bjt = "npn", beta = 150, ic = "5m", pins = { b = "in", c = "bp", e = "gnd" } }
+C3 = { c = "470u", pins = ["out", "spk"] }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }`
 
 // audioRegion puts a fixture's parts in an audio band (the fixture's own
 // band is the medium wave).
