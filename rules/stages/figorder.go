@@ -67,6 +67,8 @@ var figureNames = []figName{
 	{name: "r_load", label: "r load"},
 	{name: "r_load_ac", label: "r load AC"},
 	{name: "ac_dc_ratio", label: "AC/DC load"},
+	{name: "r_boot", label: "bootstrapped load"},
+	{name: "r_load_plain", label: "the same without the bootstrap"},
 	{name: "r_out", label: "r out"},
 	{name: "r_in", label: "r in"},
 	{name: "r", label: "r"},

@@ -144,3 +144,37 @@ func TestReview12ComplementaryPair(t *testing.T) {
 		t.Errorf("pair gain %g, want ngspice's 0.86856", g)
 	}
 }
+
+// c07's driver TR1 with its bootstrapped collector load (R4 + R5, C2 from
+// the tap to the mid-point) is a driver stage, not "RC coupling" of C2
+// and R5. In circuit, TR1 made quiet and 1 A into c1 at 848.53 Hz: R4
+// presents 15.715 kΩ with the bootstrap, 2.000 kΩ with C2 open; the
+// driver's whole load is 524.84 Ω (the output pair's input sets it); its
+// gain V(c1)/V(b1) is −5.0828. ngspice .ac on
+// testdata/review12/c07-boot.cir, c07-noboot.cir and c07-pair-gain.cir
+// (docs/references.md §29).
+func TestReview12Bootstrap(t *testing.T) {
+	st := review12(t, "c07.toml")
+	s := stageOf(st, "bootstrapped-load")
+	if s == nil {
+		t.Fatalf("no bootstrapped driver: %s", topologies(st))
+	}
+	for _, ref := range []string{"TR1", "R1", "R4", "R5", "C2"} {
+		if !slices.Contains(s.Parts, ref) {
+			t.Errorf("driver %v lacks %s", s.Parts, ref)
+		}
+	}
+	for _, tc := range []struct {
+		key  string
+		want float64
+	}{
+		{"r_boot_ohm", 15714.83},
+		{"r_load_plain_ohm", 2000},
+		{"r_load_ohm", 524.8425},
+		{"gain", -5.0828},
+	} {
+		if got := fig(s.Figures, tc.key); !within(got, tc.want, 1e-3) {
+			t.Errorf("%s %g, want ngspice's %g", tc.key, got, tc.want)
+		}
+	}
+}

@@ -869,6 +869,26 @@ RV1 = { pot = "220R", set = 0.3, pins = ["dm", "bp", "bp"] }`,
 		nearMiss: complementaryPair + `
 D1 = { diode = "signal", pins = ["bn", "bp"] }
 RV1 = { pot = "220R", set = 0.3, pins = ["bp", "gnd", "gnd"] }`},
+	// A driver's load split in two, the tap lifted by a capacitor from the
+	// follower its output drives: a bootstrapped load.
+	{topology: "bootstrapped-load", families: allFamilies, want: "passive",
+		parts: `@Q1(in, k, a)
+R1 = { r = "1k", pins = ["k", "gnd"] }
+R4 = { r = "10k", pins = ["a", "boot"] }
+R5 = { r = "10k", pins = ["boot", "ht"] }
+@Q2(a, out, ht)
+R9 = { r = "4k7", pins = ["out", "gnd"] }
+C2 = { c = "10u", pins = ["boot", "out"] }`,
+		// The capacitor takes the tap to a divider that does not follow
+		// the signal: the load stays about the resistors' own.
+		nearMiss: `@Q1(in, k, a)
+R1 = { r = "1k", pins = ["k", "gnd"] }
+R4 = { r = "10k", pins = ["a", "boot"] }
+R5 = { r = "10k", pins = ["boot", "ht"] }
+@Q2(a, out, ht)
+R9 = { r = "4k7", pins = ["out", "gnd"] }
+C2 = { c = "10u", pins = ["boot", "x"] }
+R8 = { r = "100", pins = ["x", "gnd"] }`},
 	{topology: "coupling-capacitor", families: []string{"valve"}, want: "passive",
 		parts: `C1 = { c = "22n", pins = ["in", "out"] }
 P1 = { port = "to the next stage", pins = ["out"] }`,
