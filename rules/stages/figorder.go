@@ -79,6 +79,8 @@ var figureNames = []figName{
 	{name: "r_reflected", label: "reflected load"},
 	{name: "f_top_cut", label: "top-cut f"},
 	{name: "top_cut", label: "cut at band top", inDB: true},
+	{name: "f_rolloff", label: "rolls the gain off above"},
+	{name: "cut_top", label: "cut at band top", inDB: true},
 	{name: "z_load", label: "load |Z| across the band"},
 	{name: "f_zobel", label: "Zobel takes over above"},
 	{name: "f_notch", label: "notch f"},

@@ -178,3 +178,23 @@ func TestReview12Bootstrap(t *testing.T) {
 		}
 	}
 }
+
+// c07's C6 (100 pF, TR1's collector to its base) is a stability
+// capacitor, not a coupling capacitor. With the input freed and 1 A into
+// the base, the collector's response with C6 against without it falls
+// 3 dB at 64.50 kHz and is −0.1735 dB at 12 kHz: ngspice .ac on
+// testdata/review12/c07-miller.cir and c07-nomiller.cir
+// (docs/references.md §29).
+func TestReview12StabilityCapacitor(t *testing.T) {
+	st := review12(t, "c07.toml")
+	s := stageWith(st, "C6")
+	if s == nil || s.Topology != "feedback-capacitor" {
+		t.Fatalf("C6 in %v, want a stability capacitor: %s", s, topologies(st))
+	}
+	if f := fig(s.Figures, "f_rolloff_hz"); !within(f, 64503, 2e-3) {
+		t.Errorf("roll-off %g Hz, want ngspice's 64.50 kHz", f)
+	}
+	if d := fig(s.Figures, "cut_top_db"); !within(d, 0.1735, 2e-3) {
+		t.Errorf("cut at 12 kHz %g dB, want ngspice's 0.1735 dB", d)
+	}
+}

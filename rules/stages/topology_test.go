@@ -889,6 +889,22 @@ R5 = { r = "10k", pins = ["boot", "ht"] }
 R9 = { r = "4k7", pins = ["out", "gnd"] }
 C2 = { c = "10u", pins = ["boot", "x"] }
 R8 = { r = "100", pins = ["x", "gnd"] }`},
+	// A capacitor from a device's output to its own control electrode
+	// rolls its gain off above an audio band (the solver, its base fed a
+	// current: 10 pF times the Miller gain against the base's resistors).
+	{topology: "feedback-capacitor", families: []string{"bjt", "fet"}, extra: millerRegion,
+		parts: `C1 = { c = "10n", pins = ["in", "b"] }
+R2 = { r = "10k", pins = ["b", "gnd"] }
+@Q1(b, gnd, c)
+R3 = { r = "1k", pins = ["c", "ht"] }
+C6 = { c = "10p", pins = ["c", "b"] }`,
+		// 1 nF cuts well inside the band: a top cut, not a stability
+		// capacitor.
+		nearMiss: `C1 = { c = "10n", pins = ["in", "b"] }
+R2 = { r = "10k", pins = ["b", "gnd"] }
+@Q1(b, gnd, c)
+R3 = { r = "1k", pins = ["c", "ht"] }
+C6 = { c = "1n", pins = ["c", "b"] }`},
 	{topology: "coupling-capacitor", families: []string{"valve"}, want: "passive",
 		parts: `C1 = { c = "22n", pins = ["in", "out"] }
 P1 = { port = "to the next stage", pins = ["out"] }`,
@@ -1004,6 +1020,11 @@ R1 = { r = "1k", pins = ["ht", "bn"] }
 Q3 = { bjt = "npn", beta = 150, ic = "5m", pins = { b = "in", c = "bp", e = "gnd" } }
 C3 = { c = "470u", pins = ["out", "spk"] }
 LS1 = { spk = "8R", pins = ["spk", "gnd"] }`
+
+// millerRegion puts a stage's device and its feedback capacitor in an
+// audio band.
+const millerRegion = `[regions]
+audio = { band = "60..12k", parts = ["Q1", "C6"] }`
 
 // audioRegion puts a fixture's parts in an audio band (the fixture's own
 // band is the medium wave).
