@@ -198,3 +198,19 @@ func TestReview12StabilityCapacitor(t *testing.T) {
 		t.Errorf("cut at 12 kHz %g dB, want ngspice's 0.1735 dB", d)
 	}
 }
+
+// c09's recovery stage TR2 (R9 4.7 kΩ load, R10 1 kΩ in the emitter,
+// bypassed through R11 220 Ω + C9 47 µF) is an amplifier, its R11/C9 part
+// of it: no AGC filter, no RC section, no transistor in no stage.
+func TestReview12SeriesBypassedAmplifier(t *testing.T) {
+	st := review12(t, "c09.toml")
+	s := stageWith(st, "TR2")
+	if s == nil || s.Topology != "amp-common-series-bypassed" {
+		t.Fatalf("TR2 in %v: %s", s, topologies(st))
+	}
+	for _, ref := range []string{"R10", "R11", "C9", "R9"} {
+		if !slices.Contains(s.Parts, ref) {
+			t.Errorf("TR2's stage %v lacks %s", s.Parts, ref)
+		}
+	}
+}

@@ -905,6 +905,23 @@ R2 = { r = "10k", pins = ["b", "gnd"] }
 @Q1(b, gnd, c)
 R3 = { r = "1k", pins = ["c", "ht"] }
 C6 = { c = "1n", pins = ["c", "b"] }`},
+	// The common resistor bypassed through a resistor in series with the
+	// capacitor (the blind review's recovery stage: 1 kΩ ∥ (220 Ω + 47 µF)).
+	{topology: "amp-common-series-bypassed", families: allFamilies,
+		parts: `@Q1(in, e, o)
+R9 = { r = "4k7", pins = ["o", "ht"] }
+R10 = { r = "1k", pins = ["e", "gnd"] }
+R11 = { r = "220", pins = ["e", "eb"] }
+C9 = { c = "47u", type = "electrolytic", pins = ["eb", "gnd"] }`,
+		// The series resistor's far end feeds a grid too: no bypass branch
+		// of the common lead alone.
+		nearMiss: `@Q1(in, e, o)
+R9 = { r = "4k7", pins = ["o", "ht"] }
+R10 = { r = "1k", pins = ["e", "gnd"] }
+R11 = { r = "220", pins = ["e", "eb"] }
+C9 = { c = "47u", type = "electrolytic", pins = ["eb", "gnd"] }
+@Q2(eb, gnd, o2)
+R12 = { r = "4k7", pins = ["o2", "ht"] }`},
 	{topology: "coupling-capacitor", families: []string{"valve"}, want: "passive",
 		parts: `C1 = { c = "22n", pins = ["in", "out"] }
 P1 = { port = "to the next stage", pins = ["out"] }`,
