@@ -214,3 +214,38 @@ func TestReview12SeriesBypassedAmplifier(t *testing.T) {
 		}
 	}
 }
+
+// c09's passive bass and treble network (R4, RV1 with C4 and C5, R5, R6;
+// C6, RV2, C7) is one stage with the solver's boost and cut at the band's
+// ends, not four coupling boxes. Driven at tc_in, loaded by TR2 as pare
+// models it: ngspice .ac on testdata/review12/c09-tone-*.cir gives the
+// level at 632.46 Hz with both pots at mid −23.1104 dB, and against it
+// at 20 Hz +15.7280 dB (RV1 at 0) and −20.4411 dB (RV1 at 1), at 20 kHz
+// +21.6441 dB (RV2 at 0) and −20.4821 dB (RV2 at 1) (docs/references.md
+// §29).
+func TestReview12ToneControl(t *testing.T) {
+	st := review12(t, "c09.toml")
+	s := stageOf(st, "tone-bass-treble")
+	if s == nil {
+		t.Fatalf("no bass and treble control: %s", topologies(st))
+	}
+	for _, tc := range []struct {
+		key  string
+		want float64
+	}{
+		{"loss_mid_db", -23.1104},
+		{"bass_min_db", -20.4411},
+		{"bass_max_db", 15.7280},
+		{"treble_min_db", -20.4821},
+		{"treble_max_db", 21.6441},
+	} {
+		if got, ok := s.Figures.Lookup(tc.key); !ok || math.Abs(got-tc.want) > 0.002 {
+			t.Errorf("%s %g (ok %v), want ngspice's %g", tc.key, got, ok, tc.want)
+		}
+	}
+	for _, ref := range []string{"C4", "C5", "C6", "C7", "RV1", "RV2"} {
+		if o := stageWith(st, ref); o != s {
+			t.Errorf("%s is in %v, not the tone control", ref, o)
+		}
+	}
+}

@@ -922,6 +922,34 @@ R11 = { r = "220", pins = ["e", "eb"] }
 C9 = { c = "47u", type = "electrolytic", pins = ["eb", "gnd"] }
 @Q2(eb, gnd, o2)
 R12 = { r = "4k7", pins = ["o2", "ht"] }`},
+	// The passive bass and treble network of the blind review's record
+	// player (ngspice on its own circuit: bass −20.4…+15.7 dB at 20 Hz,
+	// TestReview12ToneControl).
+	{topology: "tone-bass-treble", families: []string{"valve"}, want: "passive", extra: toneRegion,
+		parts: `R4 = { r = "10k", pins = ["in", "ba"] }
+RV1 = { pot = "100k", set = 0.5, pins = ["ba", "bx", "bb"] }
+R5 = { r = "1k", pins = ["bb", "gnd"] }
+C4 = { c = "22n", pins = ["ba", "bx"] }
+C5 = { c = "220n", pins = ["bx", "bb"] }
+R6 = { r = "10k", pins = ["bx", "out"] }
+C6 = { c = "2n2", pins = ["in", "ta"] }
+RV2 = { pot = "100k", set = 0.5, pins = ["ta", "out", "tb"] }
+C7 = { c = "22n", pins = ["tb", "gnd"] }
+C8 = { c = "1u", pins = ["out", "g"] }
+R8 = { r = "100k", pins = ["g", "gnd"] }`,
+		// Bass capacitors of 10 µF short the bass pot's track at every
+		// frequency of the band: it controls nothing.
+		nearMiss: `R4 = { r = "10k", pins = ["in", "ba"] }
+RV1 = { pot = "100k", set = 0.5, pins = ["ba", "bx", "bb"] }
+R5 = { r = "1k", pins = ["bb", "gnd"] }
+C4 = { c = "10u", pins = ["ba", "bx"] }
+C5 = { c = "10u", pins = ["bx", "bb"] }
+R6 = { r = "10k", pins = ["bx", "out"] }
+C6 = { c = "2n2", pins = ["in", "ta"] }
+RV2 = { pot = "100k", set = 0.5, pins = ["ta", "out", "tb"] }
+C7 = { c = "22n", pins = ["tb", "gnd"] }
+C8 = { c = "1u", pins = ["out", "g"] }
+R8 = { r = "100k", pins = ["g", "gnd"] }`},
 	{topology: "coupling-capacitor", families: []string{"valve"}, want: "passive",
 		parts: `C1 = { c = "22n", pins = ["in", "out"] }
 P1 = { port = "to the next stage", pins = ["out"] }`,
@@ -1037,6 +1065,10 @@ R1 = { r = "1k", pins = ["ht", "bn"] }
 Q3 = { bjt = "npn", beta = 150, ic = "5m", pins = { b = "in", c = "bp", e = "gnd" } }
 C3 = { c = "470u", pins = ["out", "spk"] }
 LS1 = { spk = "8R", pins = ["spk", "gnd"] }`
+
+// toneRegion puts a tone network in the audio band.
+const toneRegion = `[regions]
+audio = { band = "20..20k", parts = ["RV1", "RV2"] }`
 
 // millerRegion puts a stage's device and its feedback capacitor in an
 // audio band.
