@@ -80,4 +80,3 @@ func calcBassTreble(x *figCtx) {
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("solved with %s driven from a stiff source and %s loaded as it sits; the stage before adds its own output resistance",
 		in, out))
 }
-
