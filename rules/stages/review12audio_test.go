@@ -80,7 +80,7 @@ func TestReview12NoAGCFilterWithoutDetector(t *testing.T) {
 // c07's Zobel (R8 10 Ω + C4 100 nF across SP1 8 Ω) is a Zobel, not an RC
 // low-pass section: the load the output sees stays near 8 Ω across the
 // band. ngspice .ac on testdata/review12/c07-zobel-load.cir: 7.9498 Ω at
-// 12 kHz to 8.0000 Ω at 60 Hz (docs/references.md §30); its corner
+// 12 kHz to 8.0000 Ω at 60 Hz (docs/references.md §31); its corner
 // 1/(2πRC) = 159.15 kHz (handbook formula).
 func TestReview12Zobel(t *testing.T) {
 	st := review12(t, "c07.toml")
@@ -103,7 +103,7 @@ func TestReview12Zobel(t *testing.T) {
 // tau 0.475 s", the corner of the circuit beside the time constant of the
 // part and its resistors alone (1/(2π·0.475 s) = 0.335 Hz). Now τ and r in
 // are read from the corner in circuit, τ = RC and the resistors to AC
-// ground kept as their formulas (docs/references.md §30).
+// ground kept as their formulas (docs/references.md §31).
 func TestReview12CornerAgreesWithTau(t *testing.T) {
 	for _, file := range []string{"c07.toml", "c09.toml"} {
 		for _, s := range review12(t, file) {
@@ -128,7 +128,7 @@ func TestReview12CornerAgreesWithTau(t *testing.T) {
 // pair, not a coupling capacitor and parts in no stage. Its gain from the
 // driven base (c1, TR1's collector) to the mid-point at mid-band: ngspice
 // .ac on testdata/review12/c07-pair-gain.cir (the reviewer's linear deck
-// at 848.53 Hz) 0.86856 (docs/references.md §30).
+// at 848.53 Hz) 0.86856 (docs/references.md §31).
 func TestReview12ComplementaryPair(t *testing.T) {
 	st := review12(t, "c07.toml")
 	s := stageOf(st, "complementary-pair-preset")
@@ -152,7 +152,7 @@ func TestReview12ComplementaryPair(t *testing.T) {
 // driver's whole load is 524.84 Ω (the output pair's input sets it); its
 // gain V(c1)/V(b1) is −5.0828. ngspice .ac on
 // testdata/review12/c07-boot.cir, c07-noboot.cir and c07-pair-gain.cir
-// (docs/references.md §30).
+// (docs/references.md §31).
 func TestReview12Bootstrap(t *testing.T) {
 	st := review12(t, "c07.toml")
 	s := stageOf(st, "bootstrapped-load")
@@ -184,7 +184,7 @@ func TestReview12Bootstrap(t *testing.T) {
 // the base, the collector's response with C6 against without it falls
 // 3 dB at 64.50 kHz and is −0.1735 dB at 12 kHz: ngspice .ac on
 // testdata/review12/c07-miller.cir and c07-nomiller.cir
-// (docs/references.md §30).
+// (docs/references.md §31).
 func TestReview12StabilityCapacitor(t *testing.T) {
 	st := review12(t, "c07.toml")
 	s := stageWith(st, "C6")
@@ -222,7 +222,7 @@ func TestReview12SeriesBypassedAmplifier(t *testing.T) {
 // level at 632.46 Hz with both pots at mid −23.1104 dB, and against it
 // at 20 Hz +15.7280 dB (RV1 at 0) and −20.4411 dB (RV1 at 1), at 20 kHz
 // +21.6441 dB (RV2 at 0) and −20.4821 dB (RV2 at 1) (docs/references.md
-// §30).
+// §31).
 func TestReview12ToneControl(t *testing.T) {
 	st := review12(t, "c09.toml")
 	s := stageOf(st, "tone-bass-treble")
