@@ -85,8 +85,14 @@ func eachAtOnce(n int, fn func(i int)) {
 // smoothing section framed beside its rectifier took the others to 1452
 // and 294; after the rebases onto main (the output transformer's copper,
 // the banks flowing channel by channel) and the output stage's cathode
-// template, 1460, 298 and 40.
-var misreadCeiling = struct{ beside, inLine, endsNear int }{1460, 298, 40}
+// template, 1460, 298 and 40. Review 12's naming work then lengthened
+// every decoupled line's tag ("HT via R4 +241 V", "AGC line via R5") and
+// framed new audio stages (Zobel, complementary pair, bootstrap, bass and
+// treble), each moving the routes round them: 1480, 288 and 48, the one
+// time the ceiling rose, for tags that say what the line is; the tank
+// placement kept on its own branch (h/tanklayout: 1236, 278, 24) is the
+// way back down.
+var misreadCeiling = struct{ beside, inLine, endsNear int }{1480, 288, 48}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
