@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"pare/graph"
+	"pare/graph/value"
 )
 
 // Chart is the voltage chart of a set: the DC voltages at the trade's test
@@ -332,22 +333,11 @@ func (p *Point) declaredCurrent(ch *Chart, part *graph.Part, key, pin, what stri
 	got := math.Abs(p.Current(part.Ref, pin))
 	if got < cutOff*want {
 		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s %s current solves to nothing (the part is cut off as captured) against the %s the netlist gives as %s: check its bias feed (a base or grid bias network left out, or an idle current set by a preset the capture does not give)",
-			part.Ref, what, ampsText(want), key))
+			part.Ref, what, value.FormatPrec(want, value.Ampere, value.Symbol, 3), key))
 		return
 	}
 	if off := got/want - 1; math.Abs(off) > currentSpread {
 		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s %s current solves to %s, %+.0f %% from the %s the netlist gives as %s: check the bias network as captured (cathode or emitter resistor, screen or base feed) and the declared figures against the part's data",
-			part.Ref, what, ampsText(got), 100*off, ampsText(want), key))
+			part.Ref, what, value.FormatPrec(got, value.Ampere, value.Symbol, 3), 100*off, value.FormatPrec(want, value.Ampere, value.Symbol, 3), key))
 	}
-}
-
-// ampsText is a current with three significant figures and its unit.
-func ampsText(a float64) string {
-	switch {
-	case a >= 1:
-		return fmt.Sprintf("%.3g A", a)
-	case a >= 1e-3:
-		return fmt.Sprintf("%.3g mA", a*1e3)
-	}
-	return fmt.Sprintf("%.3g µA", a*1e6)
 }
