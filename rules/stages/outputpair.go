@@ -3,10 +3,8 @@ package stages
 import (
 	"fmt"
 	"math"
-	"math/cmplx"
 
 	"pare/graph"
-	"pare/graph/ac"
 	"pare/graph/figure"
 )
 
@@ -44,17 +42,9 @@ func calcComplementary(x *figCtx) {
 		return
 	}
 	f := math.Sqrt(band.Min * band.Max)
-	r, err := ac.NewTransfer(c, in, out, gangMid.options())
-	if err != nil {
+	g, ok := transferAt(c, in, out, f)
+	if !ok {
 		return
-	}
-	h, err := r.At(f)
-	if err != nil || cmplx.IsNaN(h) || cmplx.IsInf(h) {
-		return
-	}
-	g := cmplx.Abs(h)
-	if real(h) < 0 {
-		g = -g
 	}
 	if g < pairMinGain || g > pairMaxGain {
 		x.st.unconfirmed = fmt.Sprintf("the pair's gain from %s to %s is %s in circuit, not a follower's", in, out, figure.Plain(g))

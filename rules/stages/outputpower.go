@@ -2,10 +2,8 @@ package stages
 
 import (
 	"math"
-	"math/cmplx"
 
 	"pare/graph"
-	"pare/graph/ac"
 	"pare/graph/figure"
 )
 
@@ -51,15 +49,11 @@ func (x *figCtx) outputGain(dev *graph.Part, n, z float64) {
 		return
 	}
 	f := math.Sqrt(band.Min * band.Max)
-	r, err := ac.NewTransfer(c, in, out, gangMid.options())
-	if err != nil {
+	g, ok := transferAt(c, in, out, f)
+	if !ok {
 		return
 	}
-	h, err := r.At(f)
-	if err != nil || cmplx.IsNaN(h) || cmplx.IsInf(h) {
-		return
-	}
-	sv := &figure.Figure{Name: "gain", Unit: figure.Ratio, Value: cmplx.Abs(h),
+	sv := &figure.Figure{Name: "gain", Unit: figure.Ratio, Value: math.Abs(g),
 		Origin: figure.BySolver("V("+out+")/V("+in+")", hz(f)+", "+gangMid.at)}
 	var check *figure.Figure
 	if d := deviceOf(dev); d.gm > 0 && n > 0 {
