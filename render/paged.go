@@ -3,6 +3,7 @@ package render
 import (
 	"bytes"
 	"fmt"
+	"sort"
 
 	svg "github.com/ajstarks/svgo/float"
 
@@ -84,17 +85,57 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 // flowRows cuts the sheet into rows that fill the page's width in signal
 // order and lays each out: the flow, where each row ends, and the rows'
 // layouts.
+//
+// A stretch joined from several (a smoothing frame after its rectifier,
+// frames overlapping in the whole sheet's placement) that is a row of its
+// own and still too big for the page is cut into its pieces, and the sheet
+// flowed afresh: a cut between two frames there is the price of text at
+// MinTextMM, which a row drawn smaller than the page's scale would lose.
 func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 	cw, ch := cfg.Page.content()
+	ch -= 1 + cfg.footReserve(s)
 	bs := blocks(s, layout.Extents(s.Circuit, cfg.options(s)))
-	f := newFlow(cfg, s, bs)
-	ends := []int{len(bs)}
-	// a row grows in routing, and its connectors take room at both edges
-	if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack {
-		ends = splitRows(bs, cw-rowSlack)
+	for {
+		f := newFlow(cfg, s, bs)
+		ends := []int{len(bs)}
+		// a row grows in routing, and its connectors take room at both edges
+		if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack {
+			ends = splitRows(bs, cw-rowSlack)
+		}
+		ends, laid, err := f.layoutRows(ends, cw, ch)
+		if err != nil {
+			return nil, nil, nil, err
+		}
+		more := pieceOut(bs, ends, laid, cw, ch)
+		if more == nil {
+			return f, ends, laid, nil
+		}
+		bs = more
 	}
-	ends, laid, err := f.layoutRows(ends, cw, ch-1-cfg.footReserve(s))
-	return f, ends, laid, err
+}
+
+// pieceOut is the stretches with every one that is a row of its own too
+// big for the page and has pieces replaced by them; nil when there is none.
+func pieceOut(bs []block, ends []int, laid []*layout.Result, cw, ch float64) []block {
+	var out []block
+	cut := false
+	for i := range ends {
+		a, b := start(ends, i), ends[i]
+		if b-a == 1 && len(bs[a].pieces) > 1 && !fits(laid[i], cw, ch) {
+			// left to right as placed: a port joined by overlap goes
+			// with the piece it stands after
+			ps := append([]block{}, bs[a].pieces...)
+			sort.SliceStable(ps, func(i, j int) bool { return ps[i].x0 < ps[j].x0 })
+			out = append(out, ps...)
+			cut = true
+			continue
+		}
+		out = append(out, bs[a:b]...)
+	}
+	if !cut {
+		return nil
+	}
+	return out
 }
 
 // splitRows packs the blocks into rows no wider than width, in signal

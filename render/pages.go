@@ -65,6 +65,27 @@ type block struct {
 	refs   []string
 	port   bool
 	ch     int // the channel it belongs to (channels), 0 on a set of one
+	// pieces are the stretches this one was joined from (a supply's
+	// smoothing frame after its rectifier, frames overlapping in x), in
+	// signal order, when there are several: a stretch too big for the
+	// page on its own is cut between them (pieces), never through a
+	// frame.
+	pieces []block
+}
+
+// join is the stretch a followed by b, remembering both as pieces.
+func join(a, b block) block {
+	return block{x0: min(a.x0, b.x0), x1: max(a.x1, b.x1), port: a.port, ch: min(a.ch, b.ch),
+		refs:   append(append([]string{}, a.refs...), b.refs...),
+		pieces: append(append([]block{}, a.split()...), b.split()...)}
+}
+
+// split is the stretch as its pieces, itself when it has none.
+func (b block) split() []block {
+	if len(b.pieces) == 0 {
+		return []block{b}
+	}
+	return b.pieces
 }
 
 // blocks are the uncuttable stretches of a sheet in signal order, from a
@@ -77,9 +98,6 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 	var bs []block
 	add := func(refs []string, joined bool) {
 		b := block{x0: 1e18, x1: -1e18, ch: -1}
-		if n := len(bs); joined && n > 0 {
-			b, bs = bs[n-1], bs[:n-1]
-		}
 		for _, r := range refs {
 			if e, ok := ext[r]; ok && !framed[r] {
 				framed[r] = true
@@ -90,7 +108,12 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 				}
 			}
 		}
-		if len(b.refs) > 0 {
+		n := len(bs)
+		switch {
+		case len(b.refs) == 0:
+		case joined && n > 0:
+			bs[n-1] = join(bs[n-1], b)
+		default:
 			bs = append(bs, b)
 		}
 	}
@@ -108,6 +131,10 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		if i, ok := with[p.Ref]; ok && !framed[p.Ref] && ext[p.Ref] != (geom.Rect{}) {
 			framed[p.Ref] = true
 			bs[i].refs = append(bs[i].refs, p.Ref)
+			if len(bs[i].pieces) > 0 {
+				k := pieceOf(s.Circuit, bs[i].pieces, p)
+				bs[i].pieces[k].refs = append(bs[i].pieces[k].refs, p.Ref)
+			}
 			continue
 		}
 		add([]string{p.Ref}, false)
@@ -121,21 +148,46 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		}
 		return bs[i].x0 < bs[j].x0
 	})
-	// stretches of a channel that overlap in x cannot be cut apart
+	// stretches of a channel that overlap in x are cut apart only when
+	// together they do not fit a page (pieces)
 	var out []block
 	for _, b := range bs {
 		if n := len(out); n > 0 && b.ch == out[n-1].ch && b.x0 < out[n-1].x1 {
-			out[n-1].x1 = max(out[n-1].x1, b.x1)
-			out[n-1].refs = append(out[n-1].refs, b.refs...)
+			out[n-1] = join(out[n-1], b)
 			continue
 		}
 		out = append(out, b)
 	}
 	if len(out) > 0 && out[len(out)-1].ch > 0 {
 		inLine(out)
-		out = leadingPorts(out)
 	}
-	return out
+	return leadingPorts(out)
+}
+
+// pieceOf is the piece of a joined stretch an unframed part riding on it
+// (beside) goes with: the first that holds a part sharing a wired net with
+// it, else the first.
+func pieceOf(c *graph.Circuit, pieces []block, p *graph.Part) int {
+	at := map[string]int{}
+	for k, pc := range pieces {
+		for _, r := range pc.refs {
+			if _, ok := at[r]; !ok {
+				at[r] = k
+			}
+		}
+	}
+	best := -1
+	for _, pn := range p.Pins {
+		if pn.Net == "" || pn.Net == graph.NotConnected || c.RoleOf(pn.Net).IsACGround() {
+			continue
+		}
+		for _, cn := range c.ConnsOf(pn.Net) {
+			if k, ok := at[cn.Part.Ref]; ok && (best < 0 || k < best) {
+				best = k
+			}
+		}
+	}
+	return max(best, 0)
 }
 
 // beside gives the unframed parts wired only among themselves and to one
@@ -186,9 +238,11 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 }
 
 // leadingPorts joins the ports that open a channel (its input sockets) to
-// the channel's first stretch, of a sheet of several channels: a port is
-// otherwise held to the stretch before it, which is the last channel's
-// end, and a row with room to spare took the next channel's socket alone.
+// the channel's first stretch: a port is otherwise held to the stretch
+// before it, which on a sheet of several channels is the last channel's
+// end (a row with room to spare took the next channel's socket alone),
+// and on the first row nothing, so a row too wide was cut after the input
+// socket, leaving it alone on a row with a connector to the next.
 func leadingPorts(bs []block) []block {
 	var out []block
 	lead := 0 // ports opening the channel, at the end of out
@@ -198,10 +252,15 @@ func leadingPorts(bs []block) []block {
 		}
 		if lead > 0 && !b.port {
 			n := len(out) - lead
-			for _, p := range out[n:] {
-				b.refs = append(append([]string{}, p.refs...), b.refs...)
-				b.x0 = min(b.x0, p.x0)
+			p := out[n]
+			for _, q := range out[n+1:] {
+				p = join(p, q)
 			}
+			// the ports are pieces: a stretch too big for the page with
+			// them gives them a row of their own rather than small text
+			x1, port := b.x1, b.port
+			b = join(p, b)
+			b.x1, b.port = x1, port
 			out, lead = out[:n], -1
 		}
 		out = append(out, b)
@@ -228,9 +287,17 @@ func inLine(bs []block) {
 			gap = min(gap, max(0, bs[i].x0-was))
 		}
 		was = bs[i].x1
-		bs[i].x0 = end + gap
+		shift := end + gap - bs[i].x0
+		bs[i].x0 += shift
 		bs[i].x1 = bs[i].x0 + w
 		end = bs[i].x1
+		if len(bs[i].pieces) > 0 {
+			bs[i].pieces = append([]block{}, bs[i].pieces...)
+			for k := range bs[i].pieces {
+				bs[i].pieces[k].x0 += shift
+				bs[i].pieces[k].x1 += shift
+			}
+		}
 	}
 }
 
