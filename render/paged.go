@@ -39,7 +39,9 @@ func (cfg Config) FprintPages(s *Sheet) ([][]byte, error) {
 }
 
 // Geometries are the drawn geometry of each page (one without a page),
-// for the checker.
+// for the checker; a page's carries the millimetres a grid unit prints at
+// (PageMM), so the checker sees text the page drew smaller than the
+// paper's scale.
 func (cfg Config) Geometries(s *Sheet) ([]*geom.Sheet, error) {
 	if cfg.Page == nil {
 		g, err := cfg.Geometry(s)
@@ -52,6 +54,8 @@ func (cfg Config) Geometries(s *Sheet) ([]*geom.Sheet, error) {
 	out := make([]*geom.Sheet, len(pages))
 	for i, r := range pages {
 		out[i] = &r.Geom
+		pg := (&drawer{cfg: cfg, sheet: s, res: r}).pagedPage(i+1, len(pages))
+		out[i].PageMM = mmPerUnit() * pg.textMM / MinTextMM
 	}
 	return out, nil
 }

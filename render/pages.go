@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/render/check"
 	"pare/render/geom"
 	"pare/render/symbol"
 )
@@ -40,9 +41,10 @@ func ParsePaper(s string) (*Paper, error) {
 
 // Text on paper: the smallest text pare sets (the small class, SmallScale
 // of a label) is at least MinTextMM high, the smallest character height
-// IEC 61082-1 and ISO 3098 allow on a drawing (taken as the font size).
+// IEC 61082-1 and ISO 3098 allow on a drawing (taken as the font size); the
+// checker holds the number, and reports a page's text under it.
 const (
-	MinTextMM = 2.5
+	MinTextMM = check.MinTextMM
 	marginMM  = 10  // a printer's unprintable edge, common practice
 	rowGap    = 4.0 // grid units between rows on a page
 )

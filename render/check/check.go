@@ -11,6 +11,7 @@ import (
 	"sort"
 
 	"pare/render/geom"
+	"pare/render/symbol"
 )
 
 // Report is what Measure found. The string lists hold one line per problem,
@@ -48,7 +49,11 @@ type Report struct {
 	EndsNear []string
 	// LongWires are nets wired much longer than their stage is wide
 	// (reported, not a fault).
-	LongWires      []string
+	LongWires []string
+	// SmallText are labels of a page of paper (geom.Sheet.PageMM) that
+	// print under MinTextMM: a page drawn smaller than the paper's scale
+	// to hold a row the page flow could not cut.
+	SmallText      []string
 	Crossings      int   // wire–wire crossings of different nets
 	FrameCrossings []int // crossings inside each frame, in frame order
 	Bends          int   // bends over all wires
@@ -57,10 +62,10 @@ type Report struct {
 }
 
 // Problems lists every fatal finding: overlaps, wires through symbols,
-// broken connectivity, bad junctions.
+// broken connectivity, bad junctions, text on paper under MinTextMM.
 func (r *Report) Problems() []string {
 	var out []string
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.Connectivity, r.Junctions, r.SmallText} {
 		out = append(out, l...)
 	}
 	return out
@@ -160,6 +165,9 @@ func Measure(g *geom.Sheet) *Report {
 	r.longWires(g)
 	r.crossings(g, segs)
 	r.connectivity(g, segs)
+	if g.PageMM > 0 {
+		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)
+	}
 	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.LongWires, r.Connectivity, r.Junctions} {
 		sort.Strings(l)
 	}

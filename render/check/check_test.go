@@ -223,3 +223,24 @@ func TestTextHeights(t *testing.T) {
 		t.Errorf("at 2 mm a unit: %q, want both labels", p)
 	}
 }
+
+// TestSmallTextIsAProblem: a page of paper (PageMM set) whose labels print
+// under the 2.5 mm of IEC 61082-1 and ISO 3098 is a fatal finding of the
+// checker; the same sheet at the paper's scale (2.94 mm a unit, 2.5 mm
+// small text), or with no paper (PageMM 0: no size on paper), is not.
+func TestSmallTextIsAProblem(t *testing.T) {
+	cases := []struct {
+		pageMM float64
+		want   int
+	}{
+		{0, 0}, {2.5 / 0.85, 0}, {2.2, 2}, {1.5, 2},
+	}
+	for _, tc := range cases {
+		g := &geom.Sheet{Labels: []geom.Label{{Lines: []string{"R1 4k7"}, Box: geom.Rect{X1: 6, Y1: 1}},
+			{Lines: []string{"gang tune"}, Small: true, Box: geom.Rect{Y0: 5, X1: 9, Y1: 6}}}, PageMM: tc.pageMM}
+		r := Measure(g)
+		if len(r.SmallText) != tc.want || len(r.Problems()) != tc.want {
+			t.Errorf("%g mm a unit: small text %q, problems %q; want %d", tc.pageMM, r.SmallText, r.Problems(), tc.want)
+		}
+	}
+}

@@ -126,6 +126,11 @@ func (r *Report) longWires(g *geom.Sheet) {
 	}
 }
 
+// MinTextMM is the smallest text height on paper, in millimetres: the
+// smallest character height IEC 61082-1 and ISO 3098 allow on a drawing
+// (taken as the font size).
+const MinTextMM = 2.5
+
 // TextHeights lists the labels of a sheet whose text would print smaller
 // than minMM at mmPerUnit millimetres per grid unit (labels are set one
 // grid unit high, small lines at smallScale of that), for a sheet put on

@@ -195,4 +195,9 @@ type Sheet struct {
 	Bounds  Rect // the drawing, without the sheet furniture
 	// Failed names the nets drawn with net-name flags instead of wires.
 	Failed []string
+	// PageMM is, for a page of paper, the millimetres one grid unit prints
+	// at (smaller than the paper's scale when the page is drawn smaller to
+	// hold a row too big for it); 0 for a sheet as wide as its drawing,
+	// which has no size on paper.
+	PageMM float64
 }
