@@ -40,10 +40,10 @@ wiring diagram. The file is written whole or not at all.
 the stages flow into rows, with a pair of labelled off-row connectors where a
 net runs on in the next row, and the rows onto further sheets, each with a
 title block and the caution. The pages go to OUT-1.svg, OUT-2.svg ...
-By default (--page auto) a sheet no longer than three A3 pages side by side
-at that text height stays one sheet in OUT.svg, and only a longer one, a
-whole set's, is cut onto A3 pages; with -o - (standard output) auto draws
-one sheet. --page none always draws one.`,
+By default (--page auto) a sheet that fits one A3 page at that text height
+stays one sheet in OUT.svg, and a longer one flows into rows on A3 pages;
+standard output (-o -) takes a drawing of one page only. --page none always
+draws one long sheet.`,
 		bind: typed(func(fs *flag.FlagSet, o *drawOpts) {
 			fs.StringVar(&o.out, "o", "", "write the SVG to this file (- for standard output)")
 			fs.StringVar(&o.view, "view", "reduced", "what to draw: reduced, full or faded")
@@ -121,8 +121,5 @@ func drawSettings(o *drawOpts) (render.View, render.Style, rules.Level, paging, 
 		return view, style, lvl, paging{}, fmt.Errorf("--level: %w", err)
 	}
 	paper, err := parsePage(o.page)
-	if o.out == "-" {
-		paper.fit = nil // standard output takes one sheet: auto means none there
-	}
 	return view, style, lvl, paper, err
 }

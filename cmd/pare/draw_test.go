@@ -104,7 +104,10 @@ func sheetName(toml string, v render.View) string {
 	return strings.TrimSuffix(toml, ".toml") + "." + v.String() + ".svg"
 }
 
-// TestDrawExampleSheets runs `pare draw` on every example in every view and
+// TestDrawExampleSheets runs `pare draw --page none` (the whole sheet in
+// one piece, for a screen: the README shows them; the pages --page auto
+// cuts for paper are the main job's, TestDrawMatchesMainJob) on every
+// example in every view and
 // compares with the sheets committed under examples/ (byte-identical; run
 // with -update to regenerate), checks the SVG is well-formed XML with the
 // SVG namespace, and renders it with rsvg-convert. A second run must give
@@ -124,7 +127,7 @@ func TestDrawExampleSheets(t *testing.T) {
 				continue
 			}
 			var again bytes.Buffer
-			run([]string{"draw", f, "-o", "-", "--view", v.String()}, &again, io.Discard)
+			run([]string{"draw", f, "-o", "-", "--view", v.String(), "--page", "none"}, &again, io.Discard)
 			if !bytes.Equal(again.Bytes(), out) {
 				t.Errorf("%s %s: two runs differ", f, v)
 			}

@@ -26,8 +26,8 @@ const (
 // defaults, is byte-identical to the copy kept under examples/ (the
 // reduced netlist, every page of both views, both notes; -update rewrites
 // it), the job verifies, and the pack holds exactly those files. A whole
-// set is longer than three A3 pages at 2.5 mm text, so its views come as
-// pages (--page auto), while a section of a set keeps one sheet.
+// set is wider than one A3 page at 2.5 mm text, so its views come as
+// pages (--page auto), as a section of a set wider than that does.
 func TestFlagshipPack(t *testing.T) {
 	job := cachedJob(t, flagship)
 	if job.code != exitOK {

@@ -10,43 +10,67 @@ import (
 	"strings"
 	"testing"
 
+	"pare/cmd/internal/pipeline"
 	"pare/render"
 	"pare/render/check"
 	"pare/render/geom"
+	"pare/rules"
 )
 
 // pagedSources are the circuits every paged check runs on: the examples and
 // the gallery's fixtures.
 func pagedSources(t *testing.T) []string { return readSheets(t) }
 
-// TestPagedSheetsCheck cuts every example and fixture onto A4 and checks
-// every page as a sheet of its own (no overlap, wire through a symbol,
-// label overlap, frame cut or broken net) and every view's off-row
-// connectors as pairs. A fixture whose one long sheet has findings already
-// (some faded views of the fixtures; TestDrawExamplesCheck holds only the
-// examples to none) has its pages' findings logged, not failed: cutting
-// cannot be blamed for them.
+// TestPagedSheetsCheck cuts every example and fixture onto A3 (the paper
+// --page auto flows a sheet onto) and A4 and checks every page as a sheet
+// of its own (no overlap, wire through a symbol, label overlap, frame cut,
+// broken net, or text printing under 2.5 mm at the page's scale, IEC
+// 61082-1) and every view's off-row connectors as pairs. A fixture whose
+// one long sheet has findings already (some faded views of the fixtures;
+// TestDrawExamplesCheck holds only the examples to none) has its pages'
+// other findings logged, not failed: cutting cannot be blamed for them.
+// On A4 small text is logged: a stage frame wider or taller than A4 holds
+// at 2.5 mm (a whole frequency changer, a supply with its mains switch) is
+// never cut through, so its page is drawn smaller; A3 holds every stage of
+// the examples and fixtures.
 func TestPagedSheetsCheck(t *testing.T) {
+	warmSheets(pagedSources(t), "A3")
 	warmSheets(pagedSources(t), "A4")
-	for _, f := range pagedSources(t) {
-		for _, v := range galleryViews {
-			report := t.Errorf
-			if n := len(cachedSheet(t, f, v, render.IEC).report.Problems()); n > 0 {
-				report = t.Logf
-			}
-			pages, err := cachedPages(f, v, "A4")
-			if err != nil {
-				t.Fatal(err)
-			}
-			for i, g := range pages {
-				for _, p := range check.Measure(g).Problems() {
-					report("%s %s page %d: %s", filepath.Base(f), v, i+1, p)
-				}
-			}
-			for _, p := range check.Connectors(pages) {
-				t.Errorf("%s %s: %s", filepath.Base(f), v, p)
+	for _, paper := range []string{"A3", "A4"} {
+		for _, f := range pagedSources(t) {
+			for _, v := range galleryViews {
+				checkPages(t, f, v, paper)
 			}
 		}
+	}
+}
+
+// checkPages is TestPagedSheetsCheck on one view of one file on one paper.
+func checkPages(t *testing.T, f string, v render.View, paper string) {
+	t.Helper()
+	report, small := t.Errorf, t.Errorf
+	if n := len(cachedSheet(t, f, v, render.IEC).report.Problems()); n > 0 {
+		report = t.Logf
+	}
+	if paper != "A3" {
+		small = t.Logf
+	}
+	pages, err := cachedPages(f, v, paper)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, g := range pages {
+		r := check.Measure(g)
+		for _, p := range r.SmallText {
+			small("%s %s on %s page %d: %s", filepath.Base(f), v, paper, i+1, p)
+		}
+		r.SmallText = nil
+		for _, p := range r.Problems() {
+			report("%s %s on %s page %d: %s", filepath.Base(f), v, paper, i+1, p)
+		}
+	}
+	for _, p := range check.Connectors(pages) {
+		t.Errorf("%s %s on %s: %s", filepath.Base(f), v, paper, p)
 	}
 }
 
@@ -81,11 +105,14 @@ func TestPagedWrapsWhenItMust(t *testing.T) {
 		view        render.View
 		manyPages   bool
 	}{
-		// 2,600 units wide reduced (examples/*.reduced.svg): 260 grid
-		// units, an A4 page holds 94 (277 mm at 2.94 mm a unit)
-		{"A4", "../../examples/frequency-changer.toml", render.Reduced, true},
+		// 2,210 units wide faded (examples/*.faded.svg): 221 grid units,
+		// an A3 page holds 136 (400 mm at 2.94 mm a unit), A4 94; every
+		// stage of these fits the paper at 2.5 mm text; the review-12
+		// preamplifier is one row 2,640 wide, each stage narrower than
+		// letter's 88 units
+		{"A3", "../../examples/frequency-changer.toml", render.Faded, true},
 		{"A3", "../../examples/if-detector-audio.toml", render.Faded, true},
-		{"letter", "../../examples/transistor-front-end.toml", render.Reduced, true},
+		{"letter", "../../testdata/review12/c09.toml", render.Reduced, true},
 		// a 43-unit-wide stage fixture (docs/gallery): far narrower than A4
 		{"A4", "../../rules/stages/testdata/incircuit-pair.toml", render.Reduced, false},
 	}
@@ -110,7 +137,7 @@ func TestPagedWrapsWhenItMust(t *testing.T) {
 				t.Errorf("%s page %d: not %s mm", tc.file, i+1, want)
 			}
 			if mm := smallTextMM(t, svg); mm < render.MinTextMM-1e-9 {
-				t.Logf("%s page %d: text %.2f mm (a row wider than the page)", tc.file, i+1, mm)
+				t.Errorf("%s page %d: text %.2f mm on %s, want at least %g", tc.file, i+1, mm, tc.paper, render.MinTextMM)
 			}
 			n := sheetNOf.FindSubmatch(svg)
 			if n == nil || string(n[1]) != strconv.Itoa(i+1) || string(n[2]) != strconv.Itoa(len(pages)) {
@@ -218,4 +245,44 @@ func sortedCopy(s []string) []string {
 	out := append([]string(nil), s...)
 	sort.Strings(out)
 	return out
+}
+
+// TestAutoPagesPrintLegibly: the sheets a blind review found printed as
+// one row far wider than a page (review 12: a frequency changer 2,360
+// units wide, an IF strip with detector and AGC, a transistor preamplifier
+// with tone control) come out of the default (--page auto) as rows on A3
+// pages, each page's smallest text at least 2.5 mm on paper (IEC 61082-1),
+// with their stages whole. The transistor IF strip's (c04) reduced view is
+// left out: its first stage alone is wider than A3 at that scale (its rail
+// tags), which no cut between stages can mend.
+func TestAutoPagesPrintLegibly(t *testing.T) {
+	a3, _ := render.ParsePaper("A3")
+	cases := []struct {
+		file  string
+		views []render.View
+	}{
+		{"c03", []render.View{render.Reduced, render.Faded}},
+		{"c04", []render.View{render.Faded}},
+		{"c05", []render.View{render.Reduced, render.Faded}},
+		{"c09", []render.View{render.Reduced, render.Faded}},
+	}
+	for _, tc := range cases {
+		file := filepath.Join("../../testdata/review12", tc.file+".toml")
+		res, err := pipeline.Run(pipeline.Options{Path: file, Level: rules.LevelSignal, Views: tc.views, Fit: a3})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, v := range tc.views {
+			sh := res.SheetFor(v)
+			if sh.Paper == nil {
+				t.Errorf("%s %s: one sheet, want rows on A3", tc.file, v)
+				continue
+			}
+			for i, svg := range sh.Pages {
+				if mm := smallTextMM(t, svg); mm < render.MinTextMM-1e-9 {
+					t.Errorf("%s %s page %d: text %.2f mm, want at least %g", tc.file, v, i+1, mm, render.MinTextMM)
+				}
+			}
+		}
+	}
 }

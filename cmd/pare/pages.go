@@ -12,13 +12,13 @@ import (
 )
 
 // pageHelp is the --page flag's help, the same on every command that draws.
-const pageHelp = "paper to fit the sheets to, landscape: A4, A3, letter; auto (one sheet unless it is longer than three A3 pages at 2.5 mm text, then rows on A3); or none for one long sheet"
+const pageHelp = "paper to fit the sheets to, landscape: A4, A3, letter; auto (one sheet when it fits one A3 page at 2.5 mm text, else rows on A3 pages); or none for one long sheet"
 
-// autoPage is --page's default: a sheet no longer than three pages of
-// autoPaper side by side at text 2.5 mm high (pipeline.FitWidths) stays
-// one sheet as wide as its drawing; a bigger one (a whole set, one long
-// row of stages) is cut into rows on that paper. A3 landscape takes a
-// row of three or four stages at that text height, A4 one or two.
+// autoPage is --page's default: a sheet that fits one page of autoPaper
+// at text 2.5 mm high (pipeline.FitWidths) stays one sheet as wide as its
+// drawing; a bigger one (a row of stages, a whole set) flows into rows on
+// that paper, so it prints at that text height. A3 landscape takes a row
+// of two to four stages at that text height, A4 one or two.
 const (
 	autoPage  = "auto"
 	autoPaper = "A3"

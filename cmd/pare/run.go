@@ -43,9 +43,9 @@ recognises the stages, and writes into DIR (default: FILE without .toml, plus
 embeds the sheets, and notes.html, the same note as one page with the sheets
 inline (prints one sheet per page). --page fits the sheets to paper (see
 'pare help draw'): reduced-1.svg, reduced-2.svg ..., faded-1.svg ... By
-default (--page auto) a view no longer than three A3 pages side by side with
-its text 2.5 mm high stays one sheet, and a longer one, a whole set's, is cut
-into rows on A3 pages; --page none keeps every view one sheet. Everything is made in memory first; on bad input nothing is
+default (--page auto) a view that fits one A3 page with its text 2.5 mm high
+stays one sheet, and a longer one flows into rows on A3 pages; --page none
+keeps every view one sheet. Everything is made in memory first; on bad input nothing is
 written. Exit 0 when the reduction was verified, 1 when the verification
 failed or compared nothing (the files are still written, and the note says so),
 2 on bad input, 3 on an internal error. The folder DIR is replaced whole, in

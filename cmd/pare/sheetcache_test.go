@@ -209,7 +209,9 @@ func warmSheets(files []string, paper string) {
 	})
 }
 
-// cachedDraw is the output of `pare draw FILE --view V -o -`, run once.
+// cachedDraw is the output of `pare draw FILE --view V -o - --page none`
+// (the whole sheet, as the committed example sheets show it on a screen),
+// run once.
 func cachedDraw(t *testing.T, file string, v render.View) []byte {
 	t.Helper()
 	out, err := drawOnce(file, v)
@@ -222,8 +224,8 @@ func cachedDraw(t *testing.T, file string, v render.View) []byte {
 func drawOnce(file string, v render.View) ([]byte, error) {
 	return sheetCache.drawn.get(drawKey{file, v}, func() ([]byte, error) {
 		var out, errb bytes.Buffer
-		if code := run([]string{"draw", file, "-o", "-", "--view", v.String()}, &out, &errb); code != exitOK {
-			return nil, fmt.Errorf("pare draw %s --view %s: exit %d: %s", file, v, code, errb.String())
+		if code := run([]string{"draw", file, "-o", "-", "--view", v.String(), "--page", "none"}, &out, &errb); code != exitOK {
+			return nil, fmt.Errorf("pare draw %s --view %s --page none: exit %d: %s", file, v, code, errb.String())
 		}
 		return out.Bytes(), nil
 	})

@@ -122,13 +122,12 @@ type Options struct {
 
 // FitWidths is how long a view may be and stay one sheet under
 // Options.Fit: printed with its text render.MinTextMM high, no wider than
-// three of Fit's pages side by side and no taller than one. A section of
-// a set (a frequency changer, an IF strip and its audio: 0.45–1 m at that
-// scale on A3) stays one strip a screen shows zoomed to its height; a
-// whole set's chain of stages (1.6 m reduced, 2.8 m faded, the club
-// receiver) is no longer a sheet anyone reads in one piece, so it flows
-// into rows on pages. Our own choice, measured on the examples.
-const FitWidths = 3
+// one of Fit's pages and no taller. A longer one flows into rows on Fit's
+// pages, so every sheet a job writes prints at that text height on its
+// paper: a single row of a section of a set (a frequency changer at
+// 0.5–0.7 m on A3 at that scale) printed on one page was text under 2 mm,
+// too small to read at the bench.
+const FitWidths = 1
 
 // Error is a failure of one phase. Its message is the underlying error's,
 // unchanged, so a command prints what it printed before the pipeline
