@@ -54,9 +54,16 @@ func TestFlagshipPack(t *testing.T) {
 			t.Errorf("a whole set's pack should come on pages: no %s in %v", want, got)
 		}
 	}
-	small := cachedJob(t, "../../examples/frequency-changer.toml")
+	// a section of a set one row wider than an A3 page (the frequency
+	// changer: 182 grid units reduced, A3 holds 136) flows into rows too;
+	// a single stage (43 units) keeps one sheet per view
+	section := cachedJob(t, "../../examples/frequency-changer.toml")
+	if names := dirNames(t, section.dir); !slices.Contains(names, "reduced-1.svg") || !slices.Contains(names, "faded-1.svg") {
+		t.Errorf("a section of a set wider than A3 should come on A3 pages: %v", names)
+	}
+	small := cachedJob(t, "../../rules/stages/testdata/incircuit-pair.toml")
 	if names := dirNames(t, small.dir); !slices.Contains(names, fileReducedSheet) || !slices.Contains(names, fileFadedSheet) {
-		t.Errorf("a section of a set should keep one sheet per view: %v", names)
+		t.Errorf("a single stage should keep one sheet per view: %v (%s)", names, small.stderr)
 	}
 }
 
