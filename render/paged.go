@@ -14,28 +14,38 @@ import (
 // FprintPages draws the sheet on cfg.Page: one SVG per page, in order.
 // Without a page it is the one sheet Fprint draws.
 func (cfg Config) FprintPages(s *Sheet) ([][]byte, error) {
+	pages, _, err := cfg.FprintPagesText(s)
+	return pages, err
+}
+
+// FprintPagesText is FprintPages and the height on paper, in millimetres,
+// of each page's smallest text: MinTextMM, less on a page drawn smaller to
+// hold a stage too big for it (never cut through), which the caller tells
+// its user; 0 for the one sheet drawn without a page.
+func (cfg Config) FprintPagesText(s *Sheet) ([][]byte, []float64, error) {
 	if cfg.Grid <= 0 {
 		cfg.Grid = 10
 	}
 	if cfg.Page == nil {
 		var b bytes.Buffer
 		if err := cfg.Fprint(&b, s); err != nil {
-			return nil, err
+			return nil, nil, err
 		}
-		return [][]byte{b.Bytes()}, nil
+		return [][]byte{b.Bytes()}, []float64{0}, nil
 	}
 	pages, err := cfg.pageResults(s)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	out := make([][]byte, len(pages))
+	mm := make([]float64, len(pages))
 	for i, r := range pages {
 		var buf bytes.Buffer
 		d := &drawer{cfg: cfg, canvas: textSafe{svg.New(&buf)}, sheet: s, res: r}
-		d.drawPaged(i+1, len(pages))
+		mm[i] = d.drawPaged(i+1, len(pages))
 		out[i] = buf.Bytes()
 	}
-	return out, nil
+	return out, mm, nil
 }
 
 // Geometries are the drawn geometry of each page (one without a page),

@@ -12,8 +12,9 @@ import (
 // drawPaged writes page n of m: the drawing at the top left under the
 // header, the caution at the foot on the left and the title block at the
 // foot on the right, on a sheet of the page's proportions sized so that the
-// text prints at MinTextMM (larger only when a row does not fit).
-func (d *drawer) drawPaged(n, m int) {
+// text prints at MinTextMM (larger only when a row does not fit). It
+// returns the height of the page's smallest text on paper.
+func (d *drawer) drawPaged(n, m int) float64 {
 	pg := d.pagedPage(n, m)
 	d.start(pg)
 	d.frames()
@@ -23,6 +24,7 @@ func (d *drawer) drawPaged(n, m int) {
 	d.labels()
 	d.titleBlock(pg)
 	d.canvas.End()
+	return pg.textMM
 }
 
 // foot is the footer of a paged sheet: the caution wrapped beside the

@@ -91,6 +91,7 @@ func runDraw(e *env, o *drawOpts, args []string) int {
 	case err != nil:
 		return reportErr(e, "pare draw", path, err)
 	}
+	noteSmallText(e, "pare draw", res.Sheets)
 	if res.SheetFor(view).Paper != nil {
 		if err := writePages(e, o.out, path, res.SheetFor(view).Pages); err != nil {
 			fmt.Fprintf(e.stderr, "pare draw: %v\n", err)

@@ -286,3 +286,31 @@ func TestAutoPagesPrintLegibly(t *testing.T) {
 		}
 	}
 }
+
+// TestSmallTextNote: a page drawn smaller than its paper's scale (the
+// frequency changer's mixer frame, about 105 grid units wide, on A4's 94)
+// is still written, and pare says on standard error which page prints its
+// text under 2.5 mm; a sheet whose pages all print at 2.5 mm (the review's
+// frequency changer on the default A3) draws without a word.
+func TestSmallTextNote(t *testing.T) {
+	cases := []struct {
+		file, page string
+		note       bool
+	}{
+		{"../../examples/frequency-changer.toml", "A4", true},
+		{"../../testdata/review12/c03.toml", "auto", false},
+	}
+	for _, tc := range cases {
+		out := filepath.Join(t.TempDir(), "s.svg")
+		code, _, errs := runJob(t, "draw", tc.file, "--page", tc.page, "-o", out)
+		if code != exitOK {
+			t.Fatalf("%s on %s: exit %d: %s", tc.file, tc.page, code, errs)
+		}
+		if got := strings.Contains(errs, "prints its text"); got != tc.note {
+			t.Errorf("%s on %s: note %v, want %v: %q", tc.file, tc.page, got, tc.note, errs)
+		}
+		if pages, _ := filepath.Glob(strings.TrimSuffix(out, ".svg") + "-*.svg"); len(pages) == 0 {
+			t.Errorf("%s on %s: no pages written", tc.file, tc.page)
+		}
+	}
+}

@@ -109,3 +109,18 @@ func parsePage(s string) (paging, error) {
 	}
 	return paging{page: p}, nil
 }
+
+// noteSmallText tells the user of each page that prints its text under
+// render.MinTextMM: a stage bigger than the paper holds at that height is
+// never cut through, so its page is drawn smaller. The sheets are still
+// written; a larger paper or --page none shows the stage at full size.
+func noteSmallText(e *env, cmd string, sheets []pipeline.Sheet) {
+	for _, sh := range sheets {
+		for i, mm := range sh.TextMM {
+			if mm < render.MinTextMM-1e-9 && sh.Paper != nil {
+				fmt.Fprintf(e.stderr, "%s: note: the %s sheet's page %d of %d prints its text %.2f mm high, under %g mm: a stage on it is bigger than a page of %s at that height (stages are never cut)\n",
+					cmd, sh.View, i+1, len(sh.Pages), mm, render.MinTextMM, sh.Paper.Name)
+			}
+		}
+	}
+}

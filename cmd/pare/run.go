@@ -159,6 +159,7 @@ func oneJob(e *env, path, dir string, cfg jobConfig) (int, pack) {
 	}
 	var res *jobResult
 	if err == nil {
+		noteSmallText(e, "pare "+mainJob, pr.Sheets)
 		res, err = mainJobOn(pr, cfg)
 	}
 	if err != nil {

@@ -24,6 +24,10 @@ type Sheet struct {
 	SVG   []byte
 	Pages [][]byte
 	Paper *render.Paper
+	// TextMM is the height on paper of each page's smallest text
+	// (render.MinTextMM, less on a page holding a stage too big for the
+	// paper); nil for one sheet as wide as its drawing.
+	TextMM []float64
 }
 
 // SheetFor returns the drawn sheet of a view, or nil if it was not asked for.
@@ -66,11 +70,14 @@ func drawView(s *render.Sheet, o Options) (Sheet, error) {
 		}
 		cfg.Page, sh.Paper = o.Fit, o.Fit
 	}
-	pages, err := cfg.FprintPages(s)
+	pages, mm, err := cfg.FprintPagesText(s)
 	if err != nil {
 		return sh, err
 	}
 	sh.SVG, sh.Pages = pages[0], pages
+	if cfg.Page != nil {
+		sh.TextMM = mm
+	}
 	return sh, nil
 }
 
