@@ -147,14 +147,25 @@ func (f *flow) continues(parts []*graph.Part, a, b int) []layout.Continuation {
 
 // subCircuit is the circuit cut to some of its parts (in its order): its
 // nets and rails as they are, the inputs and outputs that still have a
-// part on them.
+// part on them. An input or output whose port part is on another row is
+// left out: the layout draws a flag for an end no port sits on, and the
+// row's off-row connector already leads to the port (a row held the
+// output's flag and the connector to the port's row side by side).
 func subCircuit(c *graph.Circuit, parts []*graph.Part) *graph.Circuit {
 	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
 		Nets: c.Nets, Rails: c.Rails, Parts: parts}
-	on := map[string]bool{}
+	on, kept := map[string]bool{}, map[string]bool{}
 	for _, p := range parts {
+		kept[p.Ref] = true
 		for _, pn := range p.Pins {
 			on[pn.Net] = true
+		}
+	}
+	for _, p := range c.Parts {
+		if p.Kind == graph.Port && !kept[p.Ref] {
+			for _, pn := range p.Pins {
+				delete(on, pn.Net)
+			}
 		}
 	}
 	for _, n := range c.Inputs {

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"pare/cmd/internal/pipeline"
@@ -56,12 +57,12 @@ func FuzzMainJob(f *testing.F) {
 			if err := fuzzgen.Inert(file.name, string(file.data)); err != nil {
 				t.Fatal(err)
 			}
-			switch file.name {
-			case fileReducedSheet, fileFadedSheet:
+			switch {
+			case strings.HasSuffix(file.name, ".svg"): // one sheet or a page of a view
 				if err := fuzzgen.WellFormedXML(file.name, file.data); err != nil {
 					t.Fatal(err)
 				}
-			case fileReducedNetlist:
+			case file.name == fileReducedNetlist:
 				if _, err := graph.Parse(file.name, file.data); err != nil {
 					t.Fatalf("reduced netlist does not load: %v", err)
 				}

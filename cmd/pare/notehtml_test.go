@@ -72,8 +72,10 @@ func TestNotePrintsOneSheetPerPage(t *testing.T) {
 	}
 	page := readString(t, filepath.Join(r.dir, fileNoteHTML))
 	sheets := len(sheetFigure.FindAllString(page, -1))
-	if sheets != 2 {
-		t.Fatalf("notes.html holds %d sheets, want reduced and faded", sheets)
+	// the reduced and faded views, each one sheet or its A3 pages
+	files, _ := filepath.Glob(filepath.Join(r.dir, "*.svg"))
+	if sheets != len(files) || sheets < 2 {
+		t.Fatalf("notes.html holds %d sheets, want the pack's %d (reduced and faded)", sheets, len(files))
 	}
 	work := t.TempDir()
 	marked := strings.Replace(page, "</style>", ".n-sheet svg{outline:1mm solid #f00;outline-offset:-1mm}</style>", 1)
@@ -243,14 +245,15 @@ func checkSheetPage(img image.Image, box image.Rectangle) string {
 }
 
 // hoverProbe is appended to a copy of notes.html: it points at every part
-// of both sheets in turn (the events a mouse sends) and writes what lit up
+// of both views (each one sheet or its pages) in turn (the events a mouse sends) and writes what lit up
 // on the other sheet into an attribute of the body, which --dump-dom shows.
 const hoverProbe = `<script>
 (function(){
+function sel(id,c){return 'figure[id="'+id+'"] '+c+',figure[id^="'+id+'-p"] '+c}
 function probe(from,to){var out=[];
-document.querySelectorAll("#"+from+" .part").forEach(function(g){
+document.querySelectorAll(sel(from,".part")).forEach(function(g){
 g.dispatchEvent(new MouseEvent("mouseenter"));
-var lit=[].map.call(document.querySelectorAll("#"+to+" .part.hl"),function(e){return e.getAttribute("data-ref")}).sort();
+var lit=[].map.call(document.querySelectorAll(sel(to,".part.hl")),function(e){return e.getAttribute("data-ref")}).sort();
 g.dispatchEvent(new MouseEvent("mouseleave"));
 out.push(g.getAttribute("data-ref")+"="+lit.join(","));});
 return out.join(" ")}
