@@ -80,18 +80,22 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	_, ch := cfg.Page.content()
+	cw, ch := cfg.Page.content()
 	avail := ch - 1 - cfg.footReserve(s)
 	var pages []*layout.Result
-	y := 0.0
+	y, alone := 0.0, false
 	for _, r := range laid {
 		b := r.Geom.Bounds
-		if len(pages) == 0 || y+b.H() > avail {
+		// a row too big for the page (a stage never cut) has a page of
+		// its own, drawn smaller: the rows beside it keep the paper's scale
+		big := b.W() > cw || b.H() > avail
+		if len(pages) == 0 || y+b.H() > avail || big || alone {
 			pages = append(pages, &layout.Result{})
 			y = 0
 		}
 		pages[len(pages)-1].Add(r.Moved(geom.Pt{X: -b.X0, Y: y - b.Y0}))
 		y += b.H() + rowGap
+		alone = big
 	}
 	return pages, nil
 }
@@ -135,7 +139,7 @@ func pieceOut(bs []block, ends []int, laid []*layout.Result, cw, ch float64) []b
 	cut := false
 	for i := range ends {
 		a, b := start(ends, i), ends[i]
-		if b-a == 1 && len(bs[a].pieces) > 1 && !fits(laid[i], cw, ch) {
+		if b-a == 1 && len(bs[a].pieces) > 1 && !fits(laid[i], cw, ch) && !onlyPortsHelp(bs[a], laid[i], cw) {
 			// left to right as placed: a port joined by overlap goes
 			// with the piece it stands after
 			ps := append([]block{}, bs[a].pieces...)
@@ -150,6 +154,24 @@ func pieceOut(bs []block, ends []int, laid []*layout.Result, cw, ch float64) []b
 		return nil
 	}
 	return out
+}
+
+// onlyPortsHelp says whether cutting a stretch into its pieces would only
+// take ports off a frame that, by the stretch's placed widths scaled by
+// what routing made of it, is still wider than the page: the sockets
+// would stand alone on a row of their own, and the frame be drawn smaller
+// all the same.
+func onlyPortsHelp(b block, r *layout.Result, cw float64) bool {
+	rest, ports := 0, 0.0
+	for _, p := range b.pieces {
+		if p.port {
+			ports += p.x1 - p.x0
+		} else {
+			rest++
+		}
+	}
+	w, placed := r.Geom.Bounds.W(), b.x1-b.x0
+	return rest == 1 && placed > 0 && w-ports*w/placed > cw
 }
 
 // splitRows packs the blocks into rows no wider than width, in signal
