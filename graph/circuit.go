@@ -107,6 +107,8 @@ type Circuit struct {
 	// ix is the connection index (index.go), built on first use and kept
 	// current by the editing API (edit.go).
 	ix *Index
+	// jr is the journal recording the edits, if one runs (journal.go).
+	jr *Journal
 }
 
 // Comment holds the comment lines above a key and the comment after it on its line.

@@ -51,15 +51,37 @@ func (c *Circuit) IsEnd(net string) bool {
 // AddPart inserts a part in sorted place and creates any net its pins name
 // that does not exist yet (with the default role for its name).
 func (c *Circuit) AddPart(p *Part) {
+	c.journal().savePart(p.Ref)
+	for _, pin := range p.Pins {
+		c.EnsureNet(pin.Net, pin.Pos)
+	}
+	c.placePart(p)
+}
+
+// placePart inserts a part in sorted place and indexes its terminals; the
+// nets it names must exist.
+func (c *Circuit) placePart(p *Part) {
 	ix := c.index()
 	i := sort.Search(len(c.Parts), func(i int) bool { return c.Parts[i].Ref >= p.Ref })
 	c.Parts = append(c.Parts, nil)
 	copy(c.Parts[i+1:], c.Parts[i:])
 	c.Parts[i] = p
-	ix.parts[p.Ref] = p
+	ix.addPart(p)
 	for _, pin := range p.Pins {
-		c.EnsureNet(pin.Net, pin.Pos)
 		ix.addConn(pin.Net, Conn{Part: p, Pin: pin.Name})
+	}
+}
+
+// unplacePart takes a part out of Parts and the index, leaving its nets.
+func (c *Circuit) unplacePart(p *Part) {
+	ix := c.index()
+	i := sort.Search(len(c.Parts), func(i int) bool { return c.Parts[i].Ref >= p.Ref })
+	if i < len(c.Parts) && c.Parts[i] == p {
+		c.Parts = append(c.Parts[:i], c.Parts[i+1:]...)
+	}
+	ix.delPart(p)
+	for _, pin := range p.Pins {
+		ix.delConn(pin.Net, p, pin.Name)
 	}
 }
 
@@ -72,9 +94,10 @@ func (c *Circuit) RemovePart(ref string) (dropped []string, ok bool) {
 	if i == len(c.Parts) || c.Parts[i].Ref != ref {
 		return nil, false
 	}
+	c.journal().savePart(ref)
 	p := c.Parts[i]
 	c.Parts = append(c.Parts[:i], c.Parts[i+1:]...)
-	delete(ix.parts, ref)
+	ix.delPart(p)
 	for _, pin := range p.Pins {
 		if ix.delConn(pin.Net, p, pin.Name) && c.PruneNet(pin.Net) {
 			dropped = append(dropped, pin.Net)
@@ -93,6 +116,7 @@ func (c *Circuit) DropPin(ref, pin string) (dropped []string) {
 	}
 	for i, pn := range p.Pins {
 		if pn.Name == pin {
+			c.journal().savePart(ref)
 			p.Pins = append(p.Pins[:i], p.Pins[i+1:]...)
 			if c.index().delConn(pn.Net, p, pin) && c.PruneNet(pn.Net) {
 				dropped = append(dropped, pn.Net)
@@ -115,6 +139,7 @@ func (c *Circuit) Unconnect(ref, pin string) (dropped []string) {
 	}
 	for i, pn := range p.Pins {
 		if pn.Name == pin && pn.Net != NotConnected {
+			c.journal().savePart(ref)
 			p.Pins[i].Net = NotConnected
 			if c.index().delConn(pn.Net, p, pin) && c.PruneNet(pn.Net) {
 				dropped = append(dropped, pn.Net)
@@ -134,13 +159,19 @@ func (c *Circuit) EnsureNet(name string, pos Pos) *Net {
 	if n := ix.nets[name]; n != nil {
 		return n
 	}
+	c.journal().saveNet(name)
 	n := &Net{Name: name, Role: DefaultRole(name), Pos: pos}
-	i := sort.Search(len(c.Nets), func(i int) bool { return c.Nets[i].Name >= name })
+	c.placeNet(n)
+	return n
+}
+
+// placeNet inserts a net in sorted place and indexes it.
+func (c *Circuit) placeNet(n *Net) {
+	i := sort.Search(len(c.Nets), func(i int) bool { return c.Nets[i].Name >= n.Name })
 	c.Nets = append(c.Nets, nil)
 	copy(c.Nets[i+1:], c.Nets[i:])
 	c.Nets[i] = n
-	ix.nets[name] = n
-	return n
+	c.index().nets[n.Name] = n
 }
 
 // DefaultRole is the role of a net nobody declared: "gnd", "0" and "chassis"
@@ -179,6 +210,7 @@ func (c *Circuit) deleteNet(name string) bool {
 	if i == len(c.Nets) || c.Nets[i].Name != name {
 		return false
 	}
+	c.journal().saveNet(name)
 	c.Nets = append(c.Nets[:i], c.Nets[i+1:]...)
 	delete(c.index().nets, name)
 	return true

@@ -27,6 +27,9 @@ type Index struct {
 	parts map[string]*Part
 	nets  map[string]*Net
 	conns map[string][]Conn // sorted by connLess
+	// kinds holds the parts of each kind by ref, for the questions a
+	// whole set's reduction asks of a few parts of a kind (its crystals).
+	kinds map[Kind]map[string]*Part
 }
 
 // NewIndex builds the index of parts and nets from scratch. Nets named only
@@ -37,12 +40,13 @@ func NewIndex(parts []*Part, nets []*Net) *Index {
 		parts: make(map[string]*Part, len(parts)),
 		nets:  make(map[string]*Net, len(nets)),
 		conns: make(map[string][]Conn, len(nets)),
+		kinds: map[Kind]map[string]*Part{},
 	}
 	for _, n := range nets {
 		ix.nets[n.Name] = n
 	}
 	for _, p := range parts {
-		ix.parts[p.Ref] = p
+		ix.addPart(p)
 		for _, pin := range p.Pins {
 			ix.conns[pin.Net] = append(ix.conns[pin.Net], Conn{Part: p, Pin: pin.Name})
 		}
@@ -82,6 +86,34 @@ func (ix *Index) NetNames() []string {
 		}
 	}
 	sort.Strings(out)
+	return out
+}
+
+func (ix *Index) addPart(p *Part) {
+	ix.parts[p.Ref] = p
+	m := ix.kinds[p.Kind]
+	if m == nil {
+		m = map[string]*Part{}
+		ix.kinds[p.Kind] = m
+	}
+	m[p.Ref] = p
+}
+
+func (ix *Index) delPart(p *Part) {
+	delete(ix.parts, p.Ref)
+	if m := ix.kinds[p.Kind]; m[p.Ref] == p {
+		delete(m, p.Ref)
+	}
+}
+
+// OfKind lists the parts of a kind, by ref.
+func (ix *Index) OfKind(k Kind) []*Part {
+	m := ix.kinds[k]
+	out := make([]*Part, 0, len(m))
+	for _, p := range m {
+		out = append(out, p)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Ref < out[j].Ref })
 	return out
 }
 

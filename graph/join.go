@@ -11,7 +11,9 @@ func (c *Circuit) JoinNets(keep, gone string) {
 		return
 	}
 	ix := c.index()
+	jr := c.journal()
 	k := c.EnsureNet(keep, Pos{})
+	jr.saveNet(keep)
 	rail := c.retireRail(ix.nets[gone])
 	if g := ix.nets[gone]; g != nil {
 		if roleRank(g.Role) > roleRank(k.Role) {
@@ -22,6 +24,7 @@ func (c *Circuit) JoinNets(keep, gone string) {
 		}
 	}
 	for _, cn := range ix.conns[gone] {
+		jr.savePart(cn.Part.Ref)
 		for i := range cn.Part.Pins {
 			if pn := &cn.Part.Pins[i]; pn.Net == gone && pn.Name == cn.Pin {
 				pn.Net = keep
@@ -32,32 +35,75 @@ func (c *Circuit) JoinNets(keep, gone string) {
 		}
 	}
 	ix.moveConns(keep, gone)
-	rename := func(list []string) []string {
-		out := list[:0]
-		seen := map[string]bool{}
-		for _, n := range list {
-			if n == gone {
-				n = keep
-			}
-			if !seen[n] {
-				seen[n] = true
-				out = append(out, n)
-			}
-		}
-		return out
+	if renames(c.Inputs, gone) || renames(c.Outputs, gone) {
+		jr.saveEnds()
+		c.Inputs = rename(c.Inputs, keep, gone)
+		c.Outputs = rename(c.Outputs, keep, gone)
 	}
-	c.Inputs = rename(c.Inputs)
-	c.Outputs = rename(c.Outputs)
 	for _, r := range c.Regions {
+		if r.Input != gone && r.Output != gone && !renames(r.Nets, gone) {
+			continue
+		}
+		jr.saveRegion(r)
 		if r.Input == gone {
 			r.Input = keep
 		}
 		if r.Output == gone {
 			r.Output = keep
 		}
-		r.Nets = rename(r.Nets)
+		r.Nets = rename(r.Nets, keep, gone)
 	}
 	c.deleteNet(gone)
+}
+
+// rename renames gone to keep in a list of nets, in place, keeping the
+// first of any names the list then holds twice.
+func rename(list []string, keep, gone string) []string {
+	out := list[:0]
+	seen := map[string]bool{}
+	for _, n := range list {
+		if n == gone {
+			n = keep
+		}
+		if !seen[n] {
+			seen[n] = true
+			out = append(out, n)
+		}
+	}
+	return out
+}
+
+// renames reports whether rename would change a list: it names gone, or
+// holds a name twice. Every join of a reduction asks this of every region,
+// and most lists are empty or short and name neither.
+func renames(list []string, gone string) bool {
+	switch len(list) {
+	case 0:
+		return false
+	case 1:
+		return list[0] == gone
+	}
+	if len(list) <= 16 {
+		for i, n := range list {
+			if n == gone {
+				return true
+			}
+			for _, m := range list[:i] {
+				if m == n {
+					return true
+				}
+			}
+		}
+		return false
+	}
+	seen := make(map[string]bool, len(list))
+	for _, n := range list {
+		if n == gone || seen[n] {
+			return true
+		}
+		seen[n] = true
+	}
+	return false
 }
 
 // roleRank orders roles by how strongly they hold a net: ground over

@@ -24,6 +24,7 @@ func (c *Circuit) retireRail(gone *Net) string {
 	if i < len(c.Rails) && c.Rails[i].Name == gone.Name {
 		return gone.Name
 	}
+	c.journal().saveRails()
 	n := *gone
 	c.Rails = append(c.Rails, nil)
 	copy(c.Rails[i+1:], c.Rails[i:])
@@ -88,6 +89,7 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 	if from == nil {
 		return false
 	}
+	c.journal().saveNet(net)
 	n.Role = Supply
 	name := WithoutVolts(railLabel(from))
 	if name == "" {

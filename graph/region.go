@@ -22,7 +22,7 @@ func (c *Circuit) Sort() {
 // must leave the loaded circuit as it was.
 func (c *Circuit) Clone() *Circuit {
 	d := *c
-	d.ix = nil // the clone builds its own on first use
+	d.ix, d.jr = nil, nil // the clone builds its own index on first use, and records nothing
 	d.Freqs = make(map[string]float64, len(c.Freqs))
 	for k, v := range c.Freqs {
 		d.Freqs[k] = v

@@ -19,8 +19,11 @@ type Ctx struct {
 	level    Level
 	dropped  []string        // nets the edits of the current step deleted
 	grounded map[string]bool // nets (by the names they had) joined to ground
-	errs     graph.ErrorList
-	errSeen  map[string]bool
+	// newGround lists the nets the current step added to grounded, for
+	// undoing a refused step.
+	newGround []string
+	errs      graph.ErrorList
+	errSeen   map[string]bool
 	// focusPorts are the ports a focus cut made: they mark where the
 	// signal enters and leaves the stage even when no declared end is left.
 	focusPorts map[string]bool
@@ -120,6 +123,20 @@ func (x *Ctx) Join(keep, gone string) {
 	}
 }
 
+// undo puts the circuit back as it was before a refused step
+// (graph.Journal.Undo) with what the context keeps beside it: a refused
+// step grounded nothing, so the log's AC-ground list (and the note's "At
+// AC ground") must not name its nets, and the index of the regions, which
+// followed the step's joins, is taken afresh.
+func (x *Ctx) undo(jr *graph.Journal) {
+	jr.Undo()
+	for _, n := range x.newGround {
+		delete(x.grounded, n)
+	}
+	x.newGround = x.newGround[:0]
+	x.rx, x.rxOf = nil, nil
+}
+
 // regionOf is the region a part of the circuit being reduced works in
 // (graph.Circuit.RegionOf), through the index of its regions.
 func (x *Ctx) regionOf(p *graph.Part) *graph.Region {
@@ -135,7 +152,10 @@ func (x *Ctx) regionOf(p *graph.Part) *graph.Region {
 // drawn returning to that rail, not to chassis.
 func (x *Ctx) GroundNet(net string) string {
 	g := x.ground()
-	x.grounded[net] = true
+	if !x.grounded[net] {
+		x.grounded[net] = true
+		x.newGround = append(x.newGround, net)
+	}
 	x.c.MarkDecoupled(net)
 	x.Join(g, net)
 	return g

@@ -4,7 +4,6 @@ import (
 	"crypto/sha256"
 	"errors"
 	"fmt"
-	"maps"
 	"sort"
 	"strings"
 
@@ -285,10 +284,14 @@ func (dr *driver) try(r *Rule, m *Plan) (bool, error) {
 			}
 		}
 	}
-	var before *graph.Circuit
-	var groundedBefore map[string]bool
+	// A step to be proven is journaled, not preceded by a copy of the
+	// circuit: the proof reads the circuit before the step from the
+	// journal, and a refused step is undone in place, at the cost of what
+	// the step touched rather than of the whole set.
+	var jr *graph.Journal
 	if dr.o.Check != nil {
-		before, groundedBefore = dr.x.c.Clone(), maps.Clone(dr.x.grounded)
+		jr = dr.x.c.StartJournal()
+		dr.x.newGround = dr.x.newGround[:0]
 	}
 	dr.x.dropped = nil
 	st := r.Apply(dr.x, m)
@@ -299,12 +302,10 @@ func (dr *driver) try(r *Rule, m *Plan) (bool, error) {
 	st.Dropped = append(st.Dropped, dr.x.dropped...)
 	sort.Strings(st.Dropped)
 	dr.x.dropped = nil
-	if dr.o.Check != nil {
-		if err := dr.o.Check(before, dr.x.c, &st); err != nil {
-			dr.x.c = before // a clone: its index is built afresh on first use
-			// A refused step grounded nothing: the log's AC-ground list
-			// (and the note's "At AC ground") must not name its net.
-			dr.x.grounded = groundedBefore
+	if jr != nil {
+		jr.Stop()
+		if err := dr.o.Check(jr, &st); err != nil {
+			dr.x.undo(jr)
 			st.Refused = err.Error()
 			st.N = len(dr.log.Steps) + 1
 			dr.log.Steps = append(dr.log.Steps, st)

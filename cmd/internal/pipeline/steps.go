@@ -28,19 +28,23 @@ type Step struct {
 // to the rounding of the LU's pivot history, which only moves where a
 // deviation of 10⁻¹⁴ dB peaks; AgainstOriginal prints every step's worst
 // pair (`verify --steps`), so it solves afresh and prints what it always did.
-func (r *Result) stepChecker(mode StepCheck, whole bool) func(before, after *graph.Circuit, st *rules.Step) error {
+func (r *Result) stepChecker(mode StepCheck, whole bool) func(j *graph.Journal, st *rules.Step) error {
 	var memo *ac.Memo
 	if mode == AgainstPrevious {
 		memo = ac.NewMemo()
 	}
-	return func(before, after *graph.Circuit, st *rules.Step) error {
-		ref := before
-		if mode == AgainstOriginal {
-			ref = r.acBase()
-		} else if !whole {
+	return func(j *graph.Journal, st *rules.Step) error {
+		var ref, after *graph.Circuit
+		switch {
+		case mode == AgainstOriginal:
+			ref, after = r.acBase(), j.Circuit()
+		case whole:
+			ref, after = j.Before(), j.Circuit()
+		default:
 			// Against the previous circuit only the groups of parts the
-			// step touched can differ (local.go): compare those.
-			b, a, _, none := localPair(before, after)
+			// step touched can differ (local.go): compare those, found
+			// from the step's journal (localjournal.go).
+			b, a, _, none := localJournal(j)
 			if none {
 				return nil
 			}
