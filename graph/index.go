@@ -148,9 +148,10 @@ func (ix *Index) delConn(net string, p *Part, pin string) (empty bool) {
 
 // moveConns puts every terminal of net gone on net keep. Ground collects
 // most terminals of a circuit and is joined to over and over, so the short
-// list is merged into the long one in place, from the back: only the
-// entries after the first insertion point move, and nothing is allocated
-// once the slice has grown.
+// list is merged into the long one in place, from the back: each entry of
+// the short list finds its place by binary search and the entries after it
+// move up as one block, so a join costs a copy of the tail, not a
+// comparison per entry, and nothing is allocated once the slice has grown.
 func (ix *Index) moveConns(keep, gone string) {
 	b := ix.conns[gone]
 	delete(ix.conns, gone)
@@ -160,15 +161,15 @@ func (ix *Index) moveConns(keep, gone string) {
 	a := ix.conns[keep]
 	n := len(a)
 	a = append(a, b...) // room; the tail is overwritten by the merge below
-	i, j := n-1, len(b)-1
-	for k := len(a) - 1; j >= 0; k-- {
-		if i >= 0 && connLess(b[j], a[i]) {
-			a[k] = a[i]
-			i--
-		} else {
-			a[k] = b[j]
-			j--
-		}
+	end := n            // a[:end] holds the entries of keep not yet moved
+	for j := len(b) - 1; j >= 0; j-- {
+		cn := b[j]
+		// the first entry of a[:end] that sorts after cn (an equal one
+		// stays before it, as the merge always kept it)
+		i := sort.Search(end, func(k int) bool { return connLess(cn, a[k]) })
+		copy(a[i+j+1:end+j+1], a[i:end])
+		a[i+j] = cn
+		end = i
 	}
 	ix.conns[keep] = a
 }

@@ -33,6 +33,9 @@ type Ctx struct {
 	// lists, which Join follows; a refused step puts another circuit in c.
 	rx   *graph.RegionIndex
 	rxOf *graph.Circuit
+	// ends is the set of declared ends of endsOf for IsEnd, kept by Join.
+	ends   map[string]bool
+	endsOf *graph.Circuit
 }
 
 func newCtx(c *graph.Circuit, ratio float64, level Level) *Ctx {
@@ -62,8 +65,24 @@ func (x *Ctx) RoleOf(name string) graph.Role { return x.c.RoleOf(name) }
 func (x *Ctx) IsACGround(net string) bool { return x.RoleOf(net).IsACGround() }
 
 // IsEnd reports whether a net is a declared signal input or output of the
-// circuit or of a region (graph.Circuit.IsEnd).
-func (x *Ctx) IsEnd(net string) bool { return x.c.IsEnd(net) }
+// circuit or of a region (graph.Circuit.IsEnd). The rules ask it of nearly
+// every part they are offered, and a whole set declares ends per channel:
+// the answer comes from a set of the ends, taken once and kept by Join.
+func (x *Ctx) IsEnd(net string) bool {
+	if x.endsOf != x.c {
+		x.ends, x.endsOf = map[string]bool{}, x.c
+		for _, n := range x.c.Inputs {
+			x.ends[n] = true
+		}
+		for _, n := range x.c.Outputs {
+			x.ends[n] = true
+		}
+		for _, r := range x.c.Regions {
+			x.ends[r.Input], x.ends[r.Output] = true, true
+		}
+	}
+	return x.ends[net]
+}
 
 // Ends gives the nets of a two-terminal part's first two pins, swapped when flip is set.
 func Ends(p *graph.Part, flip bool) (string, string) {
@@ -121,6 +140,10 @@ func (x *Ctx) Join(keep, gone string) {
 	if x.rx != nil && x.rxOf == x.c {
 		x.rx.Joined(keep, gone)
 	}
+	if x.endsOf == x.c && keep != gone && x.ends[gone] {
+		delete(x.ends, gone) // JoinNets renamed gone to keep in every end
+		x.ends[keep] = true
+	}
 }
 
 // undo puts the circuit back as it was before a refused step
@@ -135,7 +158,12 @@ func (x *Ctx) undo(jr *graph.Journal) {
 	}
 	x.newGround = x.newGround[:0]
 	x.rx, x.rxOf = nil, nil
+	x.endsMoved()
 }
+
+// endsMoved drops the set of ends after a direct write to the circuit's
+// end lists (the focus cut, the finish), which Join does not see.
+func (x *Ctx) endsMoved() { x.ends, x.endsOf = nil, nil }
 
 // regionOf is the region a part of the circuit being reduced works in
 // (graph.Circuit.RegionOf), through the index of its regions.

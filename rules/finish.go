@@ -31,6 +31,7 @@ func finish(x *Ctx, log *Log) {
 			r.Output = ""
 		}
 	}
+	x.endsMoved()
 	c.PruneNets()
 	for _, n := range x.orig.Nets {
 		if n.Role.IsACGround() || x.grounded[n.Name] {

@@ -36,6 +36,7 @@ func focusCut(x *Ctx, names []string, log *Log) error {
 		labels[n] = portLabel(x, n, in)
 	}
 	c.Inputs, c.Outputs = focusEnds(x, in, crossing, isGround)
+	x.endsMoved()
 	st := applyCut(x, seeds, in, crossing, labels)
 	st.N = len(log.Steps) + 1
 	log.Steps = append(log.Steps, st)

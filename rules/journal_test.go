@@ -53,7 +53,7 @@ func TestJournalMatchesCopies(t *testing.T) {
 				want = snapshot(t, j.Circuit())
 				return nil
 			}
-			r, _, err := Reduce(c, Options{Level: lvl, Check: check})
+			r, _, err := Reduce(c, Options{Level: lvl, Check: check, Rules: append(Table(), endsProbe(t, path))})
 			if err != nil {
 				continue // a fixture a level refuses: nothing to compare
 			}
@@ -98,4 +98,24 @@ func checkBeforeLookups(t *testing.T, j *graph.Journal, before *graph.Circuit) {
 			}
 		}
 	}
+}
+
+// endsProbe is a rule that never matches: offered the whole circuit once
+// per sweep, it holds the context's set of ends (Ctx.IsEnd, kept by Join
+// and dropped by an undo) to the circuit's own lists.
+func endsProbe(t *testing.T, path string) Rule {
+	return Rule{Name: "ends probe", Level: LevelTidy, Whole: true,
+		Match: func(x *Ctx, _ Anchor) *Plan {
+			names := []string{""}
+			for _, n := range x.c.Nets {
+				names = append(names, n.Name)
+			}
+			for _, n := range names {
+				if x.IsEnd(n) != x.c.IsEnd(n) {
+					t.Fatalf("%s: IsEnd(%q) = %v, the circuit's lists say %v", path, n, x.IsEnd(n), x.c.IsEnd(n))
+				}
+			}
+			return nil
+		},
+		Apply: func(*Ctx, *Plan) Step { return Step{} }}
 }
