@@ -56,10 +56,9 @@ func (t *tuner) ownRange(p *Part) float64 {
 	if lo <= 0 {
 		return 0
 	}
-	c := t.c
-	b := c.BandOf(p)
+	b := t.rx.BandOf(p)
 	if b.Min <= 0 || b.Max <= 0 {
-		b = c.FullBand()
+		b = t.c.FullBand()
 	}
 	if b.Min > 0 && hi >= b.Min && lo <= b.Max {
 		return 0

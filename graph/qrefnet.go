@@ -19,6 +19,9 @@ type tuner struct {
 	c     *Circuit
 	first map[string]switchUse // net: the first switch contact reaching it
 	views map[int]*capView     // by switch position (0: each switch as set)
+	// rx indexes the regions for the band of each coil: a whole set has
+	// regions per channel, and a walk over them per coil was quadratic.
+	rx *RegionIndex
 }
 
 // switchUse is a switch contact pair reaching a net: its place in the
@@ -26,7 +29,7 @@ type tuner struct {
 type switchUse struct{ order, pos int }
 
 func newTuner(c *Circuit) *tuner {
-	t := &tuner{c: c, first: map[string]switchUse{}, views: map[int]*capView{}}
+	t := &tuner{c: c, first: map[string]switchUse{}, views: map[int]*capView{}, rx: c.RegionIndex()}
 	order := 0
 	for _, p := range c.Parts {
 		for i, closes := range p.Closes {
