@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/internal/synth"
 )
 
 // chainOfStages writes a netlist of n resistance-coupled pentode stages with
@@ -78,5 +79,40 @@ func TestChainReduces(t *testing.T) {
 	// per stage: V, merged grid leak, merged anode load, coupling C = 4; plus the last grid leak
 	if len(r.Parts) != 3*4+1 {
 		t.Fatalf("want 13 parts, got %d:\n%s\n%s", len(r.Parts), written(t, r), logText(log))
+	}
+}
+
+// BenchmarkReduceBank reduces synthetic receiver banks (internal/synth,
+// seed 1) of about 1,000, 5,000 and 10,000 parts at the signal level, with
+// no step proven and with every step journaled for a proof that accepts it
+// (the engine's share of the main job's proven reduction: the journal, the
+// undo bookkeeping, no AC solve). Both should grow about linearly:
+//
+//	go test -run XXX -bench ReduceBank -benchtime 1x ./rules/
+func BenchmarkReduceBank(b *testing.B) {
+	for _, parts := range []int{1000, 5000, 10000} {
+		src, err := synth.Bank(parts, 1)
+		if err != nil {
+			b.Fatal(err)
+		}
+		c, err := graph.Parse("bank.toml", src)
+		if err != nil {
+			b.Fatal(err)
+		}
+		for _, journaled := range []bool{false, true} {
+			o := Options{Level: LevelSignal}
+			name := fmt.Sprintf("%d", parts)
+			if journaled {
+				name += "/journaled"
+				o.Check = func(j *graph.Journal, _ *Step) error { _ = j.Parts(); return nil }
+			}
+			b.Run(name, func(b *testing.B) {
+				for i := 0; i < b.N; i++ {
+					if _, _, err := Reduce(c, o); err != nil {
+						b.Fatal(err)
+					}
+				}
+			})
+		}
 	}
 }
