@@ -26,7 +26,13 @@ func connLess(a, b Conn) bool {
 type Index struct {
 	parts map[string]*Part
 	nets  map[string]*Net
-	conns map[string][]Conn // sorted by connLess
+	conns map[string][]Conn // sorted by connLess, unless the net is in unsorted
+	// unsorted holds the long lists (lazyLen terminals or more) that edits
+	// changed since they were last read: ground holds most terminals of a
+	// whole set and is edited on nearly every step, so its list is edited
+	// in any order and sorted when it is next read (Conns), not kept sorted
+	// at the cost of moving it all on every edit.
+	unsorted map[string]bool
 	// kinds holds the parts of each kind by ref, for the questions a
 	// whole set's reduction asks of a few parts of a kind (its crystals).
 	kinds map[Kind]map[string]*Part
@@ -37,10 +43,11 @@ type Index struct {
 // flags a drawing adds for its ends) may be indexed the same way.
 func NewIndex(parts []*Part, nets []*Net) *Index {
 	ix := &Index{
-		parts: make(map[string]*Part, len(parts)),
-		nets:  make(map[string]*Net, len(nets)),
-		conns: make(map[string][]Conn, len(nets)),
-		kinds: map[Kind]map[string]*Part{},
+		parts:    make(map[string]*Part, len(parts)),
+		nets:     make(map[string]*Net, len(nets)),
+		conns:    make(map[string][]Conn, len(nets)),
+		unsorted: map[string]bool{},
+		kinds:    map[Kind]map[string]*Part{},
 	}
 	for _, n := range nets {
 		ix.nets[n.Name] = n
@@ -61,7 +68,22 @@ func NewIndex(parts []*Part, nets []*Net) *Index {
 
 // Conns lists the terminals on a net by part ref, then pin name. The slice
 // belongs to the index: read it, do not keep it across an edit.
-func (ix *Index) Conns(net string) []Conn { return ix.conns[net] }
+func (ix *Index) Conns(net string) []Conn {
+	if ix.unsorted[net] {
+		list := ix.conns[net]
+		sort.Slice(list, func(i, j int) bool { return connLess(list[i], list[j]) })
+		delete(ix.unsorted, net)
+	}
+	return ix.conns[net]
+}
+
+// Count is the number of terminals on a net, len(Conns(net)) without
+// putting a long list in order.
+func (ix *Index) Count(net string) int { return len(ix.conns[net]) }
+
+// lazyLen is the length from which a net's list is edited in any order
+// and sorted when read (Index.unsorted).
+const lazyLen = 64
 
 // Part returns the part with the given ref, or nil.
 func (ix *Index) Part(ref string) *Part { return ix.parts[ref] }
@@ -119,6 +141,11 @@ func (ix *Index) OfKind(k Kind) []*Part {
 
 func (ix *Index) addConn(net string, cn Conn) {
 	list := ix.conns[net]
+	if len(list) >= lazyLen || ix.unsorted[net] {
+		ix.conns[net] = append(list, cn)
+		ix.unsorted[net] = true
+		return
+	}
 	i := sort.Search(len(list), func(i int) bool { return !connLess(list[i], cn) })
 	list = append(list, Conn{})
 	copy(list[i+1:], list[i:])
@@ -130,16 +157,33 @@ func (ix *Index) addConn(net string, cn Conn) {
 // empty (its entry is then gone from the index).
 func (ix *Index) delConn(net string, p *Part, pin string) (empty bool) {
 	list := ix.conns[net]
-	key := Conn{Part: p, Pin: pin}
-	i := sort.Search(len(list), func(i int) bool { return !connLess(list[i], key) })
-	for ; i < len(list) && list[i].Part.Ref == p.Ref; i++ { // sorted by ref and pin: a short look
-		if list[i].Part == p && list[i].Pin == pin {
-			list = append(list[:i], list[i+1:]...)
-			break
+	if len(list) >= lazyLen || ix.unsorted[net] {
+		// a long list: the last entry takes the place of the one that
+		// goes. The search runs from the end, where the terminals a join
+		// or an add just put are, which a reduction often removes next
+		// (a bypass capacitor once its net is grounded).
+		for i := len(list) - 1; i >= 0; i-- {
+			if list[i].Part == p && list[i].Pin == pin {
+				last := len(list) - 1
+				list[i], list[last] = list[last], Conn{}
+				list = list[:last]
+				ix.unsorted[net] = true
+				break
+			}
+		}
+	} else {
+		key := Conn{Part: p, Pin: pin}
+		i := sort.Search(len(list), func(i int) bool { return !connLess(list[i], key) })
+		for ; i < len(list) && list[i].Part.Ref == p.Ref; i++ { // sorted by ref and pin: a short look
+			if list[i].Part == p && list[i].Pin == pin {
+				list = append(list[:i], list[i+1:]...)
+				break
+			}
 		}
 	}
 	if len(list) == 0 {
 		delete(ix.conns, net)
+		delete(ix.unsorted, net)
 		return true
 	}
 	ix.conns[net] = list
@@ -147,18 +191,25 @@ func (ix *Index) delConn(net string, p *Part, pin string) (empty bool) {
 }
 
 // moveConns puts every terminal of net gone on net keep. Ground collects
-// most terminals of a circuit and is joined to over and over, so the short
-// list is merged into the long one in place, from the back: each entry of
-// the short list finds its place by binary search and the entries after it
-// move up as one block, so a join costs a copy of the tail, not a
-// comparison per entry, and nothing is allocated once the slice has grown.
+// most terminals of a circuit and is joined to over and over: a long list
+// takes the short one at its end, to be sorted when read (unsorted); short
+// ones are merged in place, from the back, each entry of the short list
+// finding its place by binary search and the entries after it moving up as
+// one block.
 func (ix *Index) moveConns(keep, gone string) {
 	b := ix.conns[gone]
 	delete(ix.conns, gone)
 	if len(b) == 0 {
+		delete(ix.unsorted, gone)
 		return
 	}
 	a := ix.conns[keep]
+	if len(a)+len(b) >= lazyLen || ix.unsorted[keep] || ix.unsorted[gone] {
+		ix.conns[keep] = append(a, b...)
+		ix.unsorted[keep] = true
+		delete(ix.unsorted, gone)
+		return
+	}
 	n := len(a)
 	a = append(a, b...) // room; the tail is overwritten by the merge below
 	end := n            // a[:end] holds the entries of keep not yet moved

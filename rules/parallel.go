@@ -22,11 +22,13 @@ var parallel = Rule{
 		if na == nb || na == "nc" || nb == "nc" {
 			return nil
 		}
-		side := x.Conns(na) // scan the quieter net: a part to ground must not walk all of ground
-		if len(x.Conns(nb)) < len(side) {
-			side = x.Conns(nb)
+		// scan the quieter net: a part to ground must not walk all of
+		// ground, nor have its list put in order (Index.Count)
+		side := na
+		if ix := x.c.Index(); ix.Count(nb) < ix.Count(na) {
+			side = nb
 		}
-		for _, cn := range side {
+		for _, cn := range x.Conns(side) {
 			q := cn.Part
 			if q == p || !plainTwoTerminal(q) {
 				continue
