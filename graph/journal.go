@@ -29,6 +29,9 @@ type Journal struct {
 	endsSet  bool
 	rails    []*Net
 	railsSet bool
+	// savedOn holds the saved parts by the nets of their pins, for
+	// BeforeConns; built on first use, dropped by a later save.
+	savedOn map[string][]*Part
 }
 
 // StartJournal begins recording the edits of c; a journal already running
@@ -66,6 +69,7 @@ func (j *Journal) savePart(ref string) {
 	if _, ok := j.parts[ref]; ok {
 		return
 	}
+	j.savedOn = nil
 	p := j.c.index().parts[ref]
 	if p == nil {
 		j.parts[ref] = nil
@@ -150,18 +154,41 @@ func (j *Journal) BeforeNet(name string) *Net {
 }
 
 // BeforeConns lists the terminals that were on a net when the journal
-// started, by ref then pin (the order of Circuit.ConnsOf).
+// started, by ref then pin (the order of Circuit.ConnsOf). On a net the
+// edits did not reach it is the circuit's own list: read it, do not keep
+// it across an edit.
 func (j *Journal) BeforeConns(net string) []Conn {
+	now := j.c.index().Conns(net)
+	if j.savedOn == nil {
+		// a step that grounds a rail touches a part in every channel:
+		// the saved parts by net, once, rather than all of them per net
+		j.savedOn = map[string][]*Part{}
+		for _, p := range j.parts {
+			if p == nil {
+				continue
+			}
+			for _, pin := range p.Pins {
+				if l := j.savedOn[pin.Net]; len(l) == 0 || l[len(l)-1] != p {
+					j.savedOn[pin.Net] = append(l, p)
+				}
+			}
+		}
+	}
+	was := j.savedOn[net]
+	reached := len(was) > 0
+	for i := 0; i < len(now) && !reached; i++ {
+		_, reached = j.parts[now[i].Part.Ref]
+	}
+	if !reached {
+		return now
+	}
 	var out []Conn
-	for _, cn := range j.c.index().conns[net] {
+	for _, cn := range now {
 		if _, touched := j.parts[cn.Part.Ref]; !touched {
 			out = append(out, cn)
 		}
 	}
-	for _, p := range j.parts {
-		if p == nil {
-			continue
-		}
+	for _, p := range was {
 		for _, pin := range p.Pins {
 			if pin.Net == net {
 				out = append(out, Conn{Part: p, Pin: pin.Name})
