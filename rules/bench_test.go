@@ -104,7 +104,7 @@ func BenchmarkReduceBank(b *testing.B) {
 			name := fmt.Sprintf("%d", parts)
 			if journaled {
 				name += "/journaled"
-				o.Check = func(j *graph.Journal, _ *Step) error { _ = j.Parts(); return nil }
+				o.CheckStep = func(j *graph.Journal, _ *Step) error { _ = j.Parts(); return nil }
 			}
 			b.Run(name, func(b *testing.B) {
 				for i := 0; i < b.N; i++ {

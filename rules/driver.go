@@ -289,7 +289,7 @@ func (dr *driver) try(r *Rule, m *Plan) (bool, error) {
 	// journal, and a refused step is undone in place, at the cost of what
 	// the step touched rather than of the whole set.
 	var jr *graph.Journal
-	if dr.o.Check != nil {
+	if dr.o.Check != nil || dr.o.CheckStep != nil {
 		jr = dr.x.c.StartJournal()
 		dr.x.newGround = dr.x.newGround[:0]
 	}
@@ -304,7 +304,7 @@ func (dr *driver) try(r *Rule, m *Plan) (bool, error) {
 	dr.x.dropped = nil
 	if jr != nil {
 		jr.Stop()
-		if err := dr.o.Check(jr, &st); err != nil {
+		if err := dr.check(jr, &st); err != nil {
 			dr.x.undo(jr)
 			st.Refused = err.Error()
 			st.N = len(dr.log.Steps) + 1
@@ -317,6 +317,20 @@ func (dr *driver) try(r *Rule, m *Plan) (bool, error) {
 	dr.log.Steps = append(dr.log.Steps, st)
 	dr.hits[r.Name]++
 	return true, nil
+}
+
+// check runs the step's proofs: CheckStep on the journal, then Check on
+// the circuits before and after.
+func (dr *driver) check(jr *graph.Journal, st *Step) error {
+	if dr.o.CheckStep != nil {
+		if err := dr.o.CheckStep(jr, st); err != nil {
+			return err
+		}
+	}
+	if dr.o.Check != nil {
+		return dr.o.Check(jr.Before(), jr.Circuit(), st)
+	}
+	return nil
 }
 
 // declined collects the near misses of the final circuit: matches whose

@@ -22,12 +22,20 @@ type Options struct {
 	// Focus names parts (refs) or nets; the reduction keeps only the stage(s)
 	// around them and turns the nets that cross the cut into ports.
 	Focus []string
-	// Check, when set, is called after each tentative step with the
-	// journal of its edits, which holds the circuit after the step
-	// (Journal.Circuit) and what it was before (Journal.Before and the
-	// lookups beside it); a non-nil error refuses the step: it is undone,
-	// it is logged with Refused = err.Error(), and it is not retried.
-	Check func(j *graph.Journal, step *Step) error
+	// Check, when set, is called with the circuit before and after each
+	// tentative step; a non-nil error refuses the step: it is undone, it is
+	// logged with Refused = err.Error(), and it is not retried. The circuit
+	// before shares the parts and nets the step left alone with the one
+	// after (graph.Journal.Before): read both, keep neither. Building it
+	// walks the circuit: a proof of every step of a whole set uses
+	// CheckStep.
+	Check func(before, after *graph.Circuit, step *Step) error
+	// CheckStep is Check given the journal of the step's edits, which holds
+	// the circuit after the step (Journal.Circuit) and answers what it was
+	// before at the cost of what the step touched (Journal.BeforePart,
+	// BeforeNet, BeforeConns). When both are set, CheckStep runs first and
+	// either can refuse the step.
+	CheckStep func(j *graph.Journal, step *Step) error
 	// Rules replaces the built-in table (nil: Table()).
 	Rules []Rule
 	// MaxSteps bounds the number of steps; 0 means 10 per part and net, plus 100.

@@ -82,7 +82,10 @@ func TestBadRatio(t *testing.T) {
 func TestCheckRefuses(t *testing.T) {
 	c := parse(t, gridNet("100..20k", "1k", "25u", `["x", "gnd"]`, ""))
 	calls := 0
-	r, log, err := Reduce(c, Options{Level: LevelSignal, Check: func(j *graph.Journal, st *Step) error {
+	r, log, err := Reduce(c, Options{Level: LevelSignal, Check: func(before, after *graph.Circuit, st *Step) error {
+		if before == nil || after == nil {
+			t.Fatal("Check was not given both circuits")
+		}
 		if st.Rule == "bypass" {
 			calls++
 			return errors.New("transfer in→out changes by 3 dB")
@@ -185,7 +188,7 @@ func TestRefusalRestoresCleanly(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		r, log, err := Reduce(c, Options{Level: LevelSignal, Check: func(j *graph.Journal, st *Step) error {
+		r, log, err := Reduce(c, Options{Level: LevelSignal, CheckStep: func(j *graph.Journal, st *Step) error {
 			if err := invariants(j.Circuit()); err != nil {
 				t.Fatalf("%s: invariant broken after %s: %v", path, st.Rule, err)
 			}

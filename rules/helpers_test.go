@@ -26,7 +26,7 @@ func parse(t testing.TB, src string) *graph.Circuit {
 // the compiler runs checkFunc after each pass when checking is on).
 func reduceChecked(t testing.TB, c *graph.Circuit, o Options) (*graph.Circuit, *Log) {
 	t.Helper()
-	o.Check = func(j *graph.Journal, st *Step) error {
+	o.CheckStep = func(j *graph.Journal, st *Step) error {
 		after := j.Circuit()
 		if err := invariants(after); err != nil {
 			t.Fatalf("invariant broken after step %q (%s): %v", st.Rule, st.Why, err)

@@ -53,7 +53,7 @@ func TestJournalMatchesCopies(t *testing.T) {
 				want = snapshot(t, j.Circuit())
 				return nil
 			}
-			r, _, err := Reduce(c, Options{Level: lvl, Check: check, Rules: append(Table(), endsProbe(t, path))})
+			r, _, err := Reduce(c, Options{Level: lvl, CheckStep: check, Rules: append(Table(), endsProbe(t, path))})
 			if err != nil {
 				continue // a fixture a level refuses: nothing to compare
 			}

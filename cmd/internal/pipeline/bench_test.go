@@ -54,7 +54,7 @@ func BenchmarkStepCut(b *testing.B) {
 		}
 		b.Run(fmt.Sprint(parts), func(b *testing.B) {
 			for i := 0; i < b.N; i++ {
-				if _, _, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal, Check: check}); err != nil {
+				if _, _, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal, CheckStep: check}); err != nil {
 					b.Fatal(err)
 				}
 			}

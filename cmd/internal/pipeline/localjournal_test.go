@@ -62,7 +62,7 @@ func TestLocalJournalIsLocalPair(t *testing.T) {
 				}
 				return nil
 			}
-			if _, _, err := rules.Reduce(c, rules.Options{Level: lvl, Check: check}); err != nil {
+			if _, _, err := rules.Reduce(c, rules.Options{Level: lvl, CheckStep: check}); err != nil {
 				t.Fatalf("%s: %v", p, err)
 			}
 		}

@@ -277,7 +277,7 @@ func (r *Result) reduce(o Options) error {
 	ac.KeepDetectorLoads(r.Circuit)
 	ro := rules.Options{Level: o.Level, Focus: o.Focus, BypassRatio: o.BypassRatio}
 	if o.StepCheck != NoStepCheck {
-		ro.Check = r.stepChecker(o.StepCheck, o.wholeSteps)
+		ro.CheckStep = r.stepChecker(o.StepCheck, o.wholeSteps)
 	}
 	// Reduce promises not to touch its input; the clone keeps the original
 	// pristine for the comparison and the faded sheet even if it slipped.
