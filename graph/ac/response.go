@@ -25,21 +25,7 @@ type Response struct {
 // NewTransfer is V(out)/V(in) with in driven by an ideal 1 V source, as
 // Transfer solves it.
 func NewTransfer(c *graph.Circuit, in, out string, o Options) (*Response, error) {
-	nl, n, m, err := elaborateTwo(c, o, in, out)
-	if err != nil {
-		return nil, err
-	}
-	if n == 0 {
-		return nil, fmt.Errorf("input %s is at AC ground: it cannot be driven", in)
-	}
-	s, err := newSystem(nl, n, otherInputs(c, nl, n)...)
-	if err != nil {
-		return nil, err
-	}
-	if m != 0 && m != n && s.unk[m] < 0 {
-		return nil, fmt.Errorf("output %s is not connected to any part the small-signal model sees", out)
-	}
-	return &Response{s: s, in: n, out: m, zero: m == 0}, nil
+	return NewResponses(c).Transfer(in, out, o)
 }
 
 // NewTransimpedance is V(out)/I for a current I of 1 A driven into net in
@@ -49,21 +35,7 @@ func NewTransfer(c *graph.Circuit, in, out string, o Options) (*Response, error)
 // its damping, which an ideal voltage source would short. With out = in it
 // is the driving-point impedance (Impedance).
 func NewTransimpedance(c *graph.Circuit, in, out string, o Options) (*Response, error) {
-	nl, n, m, err := elaborateTwo(c, o, in, out)
-	if err != nil {
-		return nil, err
-	}
-	if n == 0 || m == 0 {
-		return &Response{zero: true}, nil // into AC ground, or read there
-	}
-	s, err := newSystem(nl, -1, otherInputs(c, nl, n)...)
-	if err != nil {
-		return nil, err
-	}
-	if s.unk[n] < 0 || s.unk[m] < 0 {
-		return nil, fmt.Errorf("net %s or %s is not connected to any part the small-signal model sees", in, out)
-	}
-	return &Response{s: s, in: n, out: m, current: true}, nil
+	return NewResponses(c).Transimpedance(in, out, o)
 }
 
 // NewAcross is the impedance between nets a and b: V(a) − V(b) for 1 A
@@ -72,24 +44,7 @@ func NewTransimpedance(c *graph.Circuit, in, out string, o Options) (*Response, 
 // end is at AC ground (a secondary whose cold end returns through a
 // capacitor); with b at AC ground it is the driving-point impedance of a.
 func NewAcross(c *graph.Circuit, a, b string, o Options) (*Response, error) {
-	nl, n, m, err := elaborateTwo(c, o, a, b)
-	if err != nil {
-		return nil, err
-	}
-	if n == 0 {
-		n, m = m, n
-	}
-	if n == 0 || n == m {
-		return &Response{zero: true}, nil
-	}
-	s, err := newSystem(nl, -1, otherInputs(c, nl, -1)...)
-	if err != nil {
-		return nil, err
-	}
-	if s.unk[n] < 0 || m != 0 && s.unk[m] < 0 {
-		return nil, fmt.Errorf("net %s or %s is not connected to any part the small-signal model sees", a, b)
-	}
-	return &Response{s: s, in: n, out: n, back: m, current: true}, nil
+	return NewResponses(c).Across(a, b, o)
 }
 
 func twoNodes(c *graph.Circuit, nl *netlist, in, out string) (int, int, error) {

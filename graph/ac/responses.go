@@ -1,0 +1,152 @@
+package ac
+
+import (
+	"fmt"
+	"slices"
+
+	"pare/graph"
+)
+
+// Responses builds many single responses of one circuit, which must not
+// change while it is in use. The circuit is elaborated once per gang
+// setting for all of them, with one DC view (a set's diode detectors make
+// each elaboration a DC solve without it), and each response is solved on
+// the blocks of the matrix its source drives and its output is read in:
+// nets at AC ground cut a set into blocks that no stamp joins (model.go),
+// and a block the source does not reach carries no current, so its
+// voltages are zero whether it is solved or not. A block's numbers are
+// those it has inside the whole matrix, to the last bit (assemble), so a
+// response costs the size of its block, not of the circuit, and reads the
+// same digits.
+type Responses struct {
+	c      *graph.Circuit
+	dc     dcShare
+	models map[[2]float64]respModel
+}
+
+type respModel struct {
+	m   *model
+	err error
+}
+
+// NewResponses prepares the responses of circuit c.
+func NewResponses(c *graph.Circuit) *Responses {
+	return &Responses{c: c, models: map[[2]float64]respModel{}}
+}
+
+// model is c elaborated and indexed at setting o; settings with
+// terminations are elaborated afresh.
+func (rs *Responses) model(o Options) (*model, error) {
+	if o.Terminate != nil {
+		return newModel(rs.c, o, &rs.dc)
+	}
+	set := 0.0
+	if o.VarSet {
+		set = 1
+	}
+	k := [2]float64{set, o.VarFrac}
+	e, ok := rs.models[k]
+	if !ok {
+		e.m, e.err = newModel(rs.c, o, &rs.dc)
+		rs.models[k] = e
+	}
+	return e.m, e.err
+}
+
+// nodes elaborates at o and finds the solver nodes of nets a and b.
+func (rs *Responses) nodes(o Options, a, b string) (*model, int, int, error) {
+	m, err := rs.model(o)
+	if err != nil {
+		return nil, 0, 0, err
+	}
+	n, k, err := twoNodes(rs.c, m.nl, a, b)
+	return m, n, k, err
+}
+
+// Transfer is NewTransfer of the circuit.
+func (rs *Responses) Transfer(in, out string, o Options) (*Response, error) {
+	m, n, k, err := rs.nodes(o, in, out)
+	if err != nil {
+		return nil, err
+	}
+	if n == 0 {
+		return nil, fmt.Errorf("input %s is at AC ground: it cannot be driven", in)
+	}
+	held := otherInputs(rs.c, m.nl, n)
+	isHeld := heldSet(len(m.nl.nodes), n, held)
+	if err := m.floating(n, held, isHeld); err != nil {
+		return nil, err
+	}
+	if k != 0 && k != n && (!m.used[k] || isHeld[k]) {
+		return nil, fmt.Errorf("output %s is not connected to any part the small-signal model sees", out)
+	}
+	sub := m.component(n, isHeld)
+	if _, reached := slices.BinarySearch(sub.nodes, k); k != 0 && k != n && !reached {
+		return &Response{zero: true}, nil // no stamp joins out to in: 0 by structure
+	}
+	s := assemble(m.nl, n, isHeld, sub)
+	return &Response{s: s, in: n, out: k, zero: k == 0}, nil
+}
+
+// Transimpedance is NewTransimpedance of the circuit.
+func (rs *Responses) Transimpedance(in, out string, o Options) (*Response, error) {
+	m, n, k, err := rs.nodes(o, in, out)
+	if err != nil {
+		return nil, err
+	}
+	if n == 0 || k == 0 {
+		return &Response{zero: true}, nil // into AC ground, or read there
+	}
+	held := otherInputs(rs.c, m.nl, n)
+	isHeld := heldSet(len(m.nl.nodes), -1, held)
+	if err := m.floating(-1, held, isHeld); err != nil {
+		return nil, err
+	}
+	if !m.used[n] || isHeld[n] || !m.used[k] || isHeld[k] {
+		return nil, fmt.Errorf("net %s or %s is not connected to any part the small-signal model sees", in, out)
+	}
+	sub := m.component(n, isHeld)
+	if _, reached := slices.BinarySearch(sub.nodes, k); !reached {
+		return &Response{zero: true}, nil
+	}
+	s := assemble(m.nl, -1, isHeld, sub)
+	return &Response{s: s, in: n, out: k, current: true}, nil
+}
+
+// Across is NewAcross of the circuit.
+func (rs *Responses) Across(a, b string, o Options) (*Response, error) {
+	m, n, k, err := rs.nodes(o, a, b)
+	if err != nil {
+		return nil, err
+	}
+	if n == 0 {
+		n, k = k, n
+	}
+	if n == 0 || n == k {
+		return &Response{zero: true}, nil
+	}
+	held := otherInputs(rs.c, m.nl, -1)
+	isHeld := heldSet(len(m.nl.nodes), -1, held)
+	if err := m.floating(-1, held, isHeld); err != nil {
+		return nil, err
+	}
+	if !m.used[n] || isHeld[n] || k != 0 && (!m.used[k] || isHeld[k]) {
+		return nil, fmt.Errorf("net %s or %s is not connected to any part the small-signal model sees", a, b)
+	}
+	sub := m.component(n, isHeld)
+	if _, reached := slices.BinarySearch(sub.nodes, k); k != 0 && !reached {
+		// The current leaves through another block: both are driven.
+		other := m.component(k, isHeld)
+		sub = &part{nodes: merged(sub.nodes, other.nodes), prims: merged(sub.prims, other.prims),
+			groups: merged(sub.groups, other.groups)}
+	}
+	s := assemble(m.nl, -1, isHeld, sub)
+	return &Response{s: s, in: n, out: n, back: k, current: true}, nil
+}
+
+// merged is the sorted union of two disjoint sorted lists.
+func merged(a, b []int) []int {
+	out := slices.Concat(a, b)
+	slices.Sort(out)
+	return out
+}
