@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -40,8 +41,7 @@ func (x *figCtx) tracking(osc *tankModel, oc coilEnds, ifHz float64) {
 	if sig == nil {
 		return
 	}
-	formula, ok := walkDial(func(th float64) (float64, float64, bool) { return sig.f(th), model.f(th), true },
-		ifHz, trackingScan, trackingFormulaRefine)
+	formula, ok := formulaWalk(sig, model, ifHz)
 	if !ok {
 		return
 	}
@@ -58,6 +58,43 @@ func (x *figCtx) tracking(osc *tankModel, oc coilEnds, ifHz float64) {
 	if sv != nil {
 		x.designInCircuit(osc, oc, gangCap, sig, ifHz, *sv)
 	}
+}
+
+// formulaWalk is the formula's tracking walk of the signal tank sig and
+// the oscillator tank osc (both on the same world), remembered on that
+// world: the candidates the pattern search evaluates for one mixer (a
+// pattern per topology, several bindings each) walk the same two tanks,
+// each walk some 2,000 settings of two capacitor networks, and the walk
+// depends on nothing but the tanks and the IF.
+func formulaWalk(sig, osc *tankModel, ifHz float64) (trackWalk, bool) {
+	k := formulaWalkKey{sig: sig.key(), osc: osc.key(), ifHz: ifHz}
+	w := osc.w
+	if e, ok := w.walks[k]; ok {
+		return cloneWalk(e.walk), e.ok
+	}
+	walk, ok := walkDial(func(th float64) (float64, float64, bool) { return sig.f(th), osc.f(th), true },
+		ifHz, trackingScan, trackingFormulaRefine)
+	if w.walks == nil {
+		w.walks = map[formulaWalkKey]walkMemo{}
+	}
+	w.walks[k] = walkMemo{walk: walk, ok: ok}
+	return cloneWalk(walk), ok
+}
+
+type formulaWalkKey struct {
+	sig, osc string
+	ifHz     float64
+}
+
+type walkMemo struct {
+	walk trackWalk
+	ok   bool
+}
+
+// cloneWalk is a copy of w that shares nothing with it.
+func cloneWalk(w trackWalk) trackWalk {
+	w.fits = slices.Clone(w.fits)
+	return w
 }
 
 // trackWhy says what each coil resonates with in circuit at least

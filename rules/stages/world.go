@@ -34,6 +34,9 @@ type world struct {
 	roles    [][]graph.TermRole  // part index → role per pin
 	index    map[*graph.Part]int // part → its index
 	dist     order               // part ref → distance from the inputs, built on first use
+	// walks are the formula's tracking walks done on this world
+	// (formulaWalk), by the tanks they walk.
+	walks map[formulaWalkKey]walkMemo
 }
 
 // signalDist is each part's breadth-first distance from the circuit's
