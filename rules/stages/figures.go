@@ -70,6 +70,9 @@ type figCtx struct {
 	// solved: a tuned amplifier's name is checked on its load's.
 	tank   tankPeaks
 	tankOK bool
+	// pair is the tracking pair found for the stage's oscillator tank
+	// (trackPair), nil before the first ask.
+	pair *trackPairMemo
 }
 
 // put records a figure on the stage under the pattern's prefix ("osc" makes

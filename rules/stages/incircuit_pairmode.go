@@ -3,7 +3,6 @@ package stages
 import (
 	"math"
 
-	"pare/graph"
 	"pare/graph/ac"
 )
 
@@ -35,7 +34,7 @@ const pairWindow = 1.5
 // ratio |Zsig|/|Zosc|, the oscillator the smallest. A tank's own
 // resonance is where its impedance stands highest against its partner's.
 // ok is false when a tank is not found or both still share one.
-func pairAt(c *graph.Circuit, sn, on tankNets, th, gs, gosc float64) (fs, fo float64, ok bool) {
+func pairAt(c *ac.Responses, sn, on tankNets, th, gs, gosc float64) (fs, fo float64, ok bool) {
 	fs, ok1 := tankAt(c, sn, th, gs)
 	fo, ok2 := tankAt(c, on, th, gosc)
 	if !ok1 || !ok2 {

@@ -119,12 +119,16 @@ func (x *figCtx) tankNetsOf(a, b int) (tankNets, bool) {
 }
 
 // tankResponse is the impedance across a tank at gang setting g: from its
-// hot end to ground, or across both ends where neither is ground.
-func tankResponse(c *graph.Circuit, t tankNets, g gang) (*ac.Response, error) {
+// hot end to ground, or across both ends where neither is ground. rs is
+// the circuit the tank is solved in, elaborated once per gang setting for
+// every tank and search that asks (a walk over the dial solves two tanks
+// at each of its settings, and a design's bisection comes back to the
+// walk's settings).
+func tankResponse(rs *ac.Responses, t tankNets, g gang) (*ac.Response, error) {
 	if t.other == "" {
-		return ac.NewTransimpedance(c, t.hot, t.hot, g.options())
+		return rs.Transimpedance(t.hot, t.hot, g.options())
 	}
-	return ac.NewAcross(c, t.hot, t.other, g.options())
+	return rs.Across(t.hot, t.other, g.options())
 }
 
 // tankAt is a tank's resonance in circuit c at gang setting frac: the peak
@@ -132,8 +136,8 @@ func tankResponse(c *graph.Circuit, t tankNets, g gang) (*ac.Response, error) {
 // it, then 1.5, then tankSearch. The nearest first: the other tank's
 // resonance shows through the coupling between them (strongest where a
 // winding has no loss), and can stand higher than this one's own.
-func tankAt(c *graph.Circuit, t tankNets, frac, guess float64) (float64, bool) {
-	r, err := tankResponse(c, t, gang{frac: frac})
+func tankAt(rs *ac.Responses, t tankNets, frac, guess float64) (float64, bool) {
+	r, err := tankResponse(rs, t, gang{frac: frac})
 	if err != nil || !(guess > 0) {
 		return 0, false
 	}
@@ -179,10 +183,10 @@ func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackW
 	if !ok {
 		return trackWalk{}, false
 	}
-	c, sn, on := tp.c, tp.sn, tp.on
+	rs, sn, on := tp.rs, tp.sn, tp.on
 	gs, gosc := &follow{formula: sigF.f}, &follow{formula: oscF.f}
 	curve := func(th float64) (float64, float64, bool) {
-		fs, fo, ok := pairAt(c, sn, on, th, gs.at(th), gosc.at(th))
+		fs, fo, ok := pairAt(rs, sn, on, th, gs.at(th), gosc.at(th))
 		if ok {
 			gs.solved(th, fs)
 			gosc.solved(th, fo)
@@ -191,22 +195,40 @@ func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackW
 	}
 	walk, ok := walkDial(curve, ifHz, trackSettings, trackRefine)
 	if ok {
-		walk.bwAtWorst = tankBandwidth(c, sn, walk.worstTh, walk.worstAt)
+		walk.bwAtWorst = tankBandwidth(rs, sn, walk.worstTh, walk.worstAt)
 	}
 	return walk, ok
 }
 
 // trackPairs is the circuit the tracking walk solves (the solver's,
-// devices quiet) and its two tanks' nets.
+// devices quiet), its responses and its two tanks' nets.
 type trackPairs struct {
 	c      *graph.Circuit
+	rs     *ac.Responses
 	sn, on tankNets
 }
 
 // trackPair finds the signal tank ganged to the oscillator tank osc in the
 // reduced circuit and names both for the solver; ok is false when the
-// solver is off or either is missing.
+// solver is off or either is missing. The walk and the design ask for the
+// same pair and share its circuit's responses.
 func (x *figCtx) trackPair(osc *tankModel) (trackPairs, bool) {
+	if x.pair == nil || x.pair.osc != osc {
+		tp, ok := x.findTrackPair(osc)
+		x.pair = &trackPairMemo{osc: osc, tp: tp, ok: ok}
+	}
+	return x.pair.tp, x.pair.ok
+}
+
+// trackPairMemo is the pair trackPair found for an oscillator tank.
+type trackPairMemo struct {
+	osc *tankModel
+	tp  trackPairs
+	ok  bool
+}
+
+// findTrackPair is trackPair, found afresh.
+func (x *figCtx) findTrackPair(osc *tankModel) (trackPairs, bool) {
 	gangCap := gangSection(osc.caps)
 	if !x.solve || gangCap == nil {
 		return trackPairs{}, false
@@ -220,15 +242,16 @@ func (x *figCtx) trackPair(osc *tankModel) (trackPairs, bool) {
 	if !ok1 || !ok2 {
 		return trackPairs{}, false
 	}
-	return trackPairs{c: quiet(x.solverCircuit()), sn: sn, on: on}, true
+	c := quiet(x.solverCircuit())
+	return trackPairs{c: c, rs: ac.NewResponses(c), sn: sn, on: on}, true
 }
 
 // tankBandwidth is a tank's loaded −3 dB bandwidth in circuit c at gang
 // setting th, from the peak of its impedance near f: the band a signal
 // must fall in to be passed at no more than 3 dB down. 0 when a −3 dB
 // point is missing.
-func tankBandwidth(c *graph.Circuit, t tankNets, th, f float64) float64 {
-	r, err := tankResponse(c, t, gang{frac: th})
+func tankBandwidth(rs *ac.Responses, t tankNets, th, f float64) float64 {
+	r, err := tankResponse(rs, t, gang{frac: th})
 	if err != nil {
 		return 0
 	}

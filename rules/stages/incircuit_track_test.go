@@ -5,6 +5,8 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"pare/graph/ac"
 )
 
 // frequencyChangerDeck is the example frequency changer's reduced circuit
@@ -80,7 +82,7 @@ func TestTrackingInCircuitAgainstNgspice(t *testing.T) {
 	for _, th := range ths {
 		var got [2]float64
 		for i, net := range []string{"rf_tank", "osc_tank"} {
-			f, ok := tankAt(q, tankNets{hot: net}, th, 1.2e6)
+			f, ok := tankAt(ac.NewResponses(q), tankNets{hot: net}, th, 1.2e6)
 			if !ok {
 				t.Fatalf("%s at gang %.2f: no peak from pare's solver", net, th)
 			}

@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"pare/graph"
+	"pare/graph/ac"
 	"pare/graph/figure"
 	"pare/graph/value"
 )
@@ -139,10 +140,11 @@ type inCircuitDesign struct {
 // tank at the three signal frequencies pts. sigAt guesses the signal
 // tank's frequency at a gang setting. ok is false where a setting or a
 // tank is not found or the closed form has no solution.
-func solveDesign(c *graph.Circuit, sn, on tankNets, d designParts, pts [3]float64, ifHz float64, sigAt func(float64) float64) (inCircuitDesign, bool) {
+func solveDesign(tp trackPairs, d designParts, pts [3]float64, ifHz float64, sigAt func(float64) float64) (inCircuitDesign, bool) {
+	sn, on := tp.sn, tp.on
 	var th, cg, target [3]float64
 	for i, f := range pts {
-		t, ok := settingFor(c, sn, on, f, sigAt)
+		t, ok := settingFor(tp.rs, sn, on, f, sigAt)
 		if !ok {
 			return inCircuitDesign{}, false
 		}
@@ -157,7 +159,7 @@ func solveDesign(c *graph.Circuit, sn, on tankNets, d designParts, pts [3]float6
 		if err != nil {
 			return inCircuitDesign{}, false
 		}
-		withDesign := d.apply(c, p)
+		withDesign := ac.NewResponses(d.apply(tp.c, p))
 		out = inCircuitDesign{p: p}
 		for i := range th {
 			fs, fo, ok := pairAt(withDesign, sn, on, th[i], pts[i], p.OscillatorAt(cg[i]))
@@ -197,7 +199,7 @@ const settingRefine = 24
 // settingFor is the gang setting where the signal tank stands at f in
 // circuit: bisection over the travel, the signal frequency falling as the
 // gang closes.
-func settingFor(c *graph.Circuit, sn, on tankNets, f float64, sigAt func(float64) float64) (float64, bool) {
+func settingFor(c *ac.Responses, sn, on tankNets, f float64, sigAt func(float64) float64) (float64, bool) {
 	lo, hi := 0.0, 1.0
 	for range settingRefine {
 		mid := (lo + hi) / 2
@@ -234,7 +236,7 @@ func (x *figCtx) designInCircuit(osc *tankModel, oc coilEnds, section *graph.Par
 	// the signal tank's guess: its formula scaled to the walk's two ends
 	r0, r1 := sv.fs[0]/sig.f(0), sv.fs[1]/sig.f(1)
 	sigAt := func(th float64) float64 { return sig.f(th) * (r0 + th*(r1-r0)) }
-	des, ok := solveDesign(tp.c, tp.sn, tp.on, d, TrackingPoints(sv.fs[1], sv.fs[0]), ifHz, sigAt)
+	des, ok := solveDesign(tp, d, TrackingPoints(sv.fs[1], sv.fs[0]), ifHz, sigAt)
 	if !ok {
 		return
 	}
