@@ -13,7 +13,7 @@ type Loops struct {
 }
 
 type nlOrErr struct {
-	nl  *netlist
+	m   *model // the netlist indexed once for every device's block
 	err error
 }
 
@@ -36,13 +36,13 @@ func (l *Loops) system(ref string, o Options) (*loopSystem, error) {
 	k := [2]float64{set, o.VarFrac}
 	e, ok := l.nls[k]
 	if !ok {
-		e.nl, e.err = elaborateShared(l.c, o, &l.dc)
+		e.m, e.err = newModel(l.c, o, &l.dc)
 		l.nls[k] = e
 	}
 	if e.err != nil {
 		return nil, e.err
 	}
-	return loopSystemOf(l.c, e.nl, ref)
+	return loopSystemIn(l.c, e.m, ref)
 }
 
 // Pole is the package's Pole of part ref.

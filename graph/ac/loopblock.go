@@ -1,0 +1,140 @@
+package ac
+
+import (
+	"fmt"
+	"slices"
+
+	"pare/graph"
+)
+
+// A device's loop system cut from the model of the whole circuit at one
+// setting, indexed once for every device (Loops), instead of a copy of
+// the netlist without the device's sources indexed afresh per device:
+// at a set of a thousand parts that index was most of a loop system's
+// cost, and every device at every gang setting built one.
+
+// loopSystemIn is loopSystemOf of part ref on the indexed model m of the
+// whole netlist: the same system, stamp for stamp. The device's controlled
+// sources are left out of the block search and of the stamps, and a node
+// only they touch counts as unused, as in the copy without them.
+func loopSystemIn(c *graph.Circuit, m *model, ref string) (*loopSystem, error) {
+	nl := m.nl
+	idx := slices.IndexFunc(nl.prims, func(p prim) bool { return p.kind == primVCCS && p.ref == ref })
+	if idx < 0 {
+		if c.Part(ref) == nil {
+			return nil, fmt.Errorf("no part %s in %s", ref, circuitName(c))
+		}
+		return nil, fmt.Errorf("%s has no controlled source in the small-signal model (not an amplifying part, or its output is shorted to its common terminal)", ref)
+	}
+	src := nl.prims[idx]
+	removed := map[int32]bool{}
+	var srcs []loopSource
+	for i, p := range nl.prims {
+		if p.kind == primVCCS && p.ref == ref && p.c == src.c && p.d == src.d {
+			srcs = append(srcs, loopSource{gm: p.v, a: p.a, b: p.b})
+			removed[int32(i)] = true
+		}
+	}
+	used := func(n int) bool {
+		if len(m.nodeGroups[n]) > 0 {
+			return true
+		}
+		for _, i := range m.nodePrims[n] {
+			if !removed[i] {
+				return true
+			}
+		}
+		return false
+	}
+	held := otherInputs(c, nl, -1)
+	isHeld := heldSet(len(nl.nodes), -1, held)
+	if err := m.floatingUsed(held, isHeld, used); err != nil {
+		return nil, err
+	}
+	reach := []int{src.c, src.d}
+	for _, q := range srcs {
+		reach = append(reach, q.a, q.b)
+	}
+	var seeds []int
+	for _, n := range reach {
+		if n > 0 && !isHeld[n] && used(n) && !slices.Contains(seeds, n) {
+			seeds = append(seeds, n)
+		}
+	}
+	sub := m.blockWithout(seeds, isHeld, removed)
+	s := assemble(nl, -1, isHeld, sub)
+	return &loopSystem{s: s, srcs: srcs, sign: 1, c: src.c, d: src.d}, nil
+}
+
+// floatingUsed is floating with nothing driven, for the netlist without
+// the primitives that leave the nodes used reports unused: the same nets
+// in the same order as the index of that netlist would give (conduction
+// never counts a controlled source, so only which nodes are used differs).
+func (m *model) floatingUsed(held []int, isHeld []bool, used func(int) bool) error {
+	err := m.floating(-1, held, isHeld)
+	fe, ok := err.(*FloatingError)
+	if !ok {
+		return err
+	}
+	var nets []string
+	for _, i := range m.adrift {
+		if slices.Contains(fe.Nets, m.nl.nodes[i]) && used(i) {
+			nets = append(nets, m.nl.nodes[i])
+		}
+	}
+	if len(nets) == 0 {
+		return nil
+	}
+	return &FloatingError{Nets: nets}
+}
+
+// blockWithout is the union of the blocks of the seeds (component), the
+// primitives in removed neither followed nor listed.
+func (m *model) blockWithout(seeds []int, isHeld []bool, removed map[int32]bool) *part {
+	m.gen++
+	g := m.gen
+	sub := &part{}
+	var queue []int
+	visit := func(n int) {
+		if n > 0 && !isHeld[n] && m.nodeMark[n] != g {
+			m.nodeMark[n] = g
+			queue = append(queue, n)
+		}
+	}
+	for _, n := range seeds {
+		visit(n)
+	}
+	for h := 0; h < len(queue); h++ {
+		v := queue[h]
+		sub.nodes = append(sub.nodes, v)
+		for _, i := range m.nodePrims[v] {
+			if m.primMark[i] == g || removed[i] {
+				continue
+			}
+			m.primMark[i] = g
+			sub.prims = append(sub.prims, int(i))
+			p := &m.nl.prims[i]
+			visit(p.a)
+			visit(p.b)
+			if p.kind == primVCCS {
+				visit(p.c)
+				visit(p.d)
+			}
+		}
+		for _, i := range m.nodeGroups[v] {
+			if m.grMark[i] == g {
+				continue
+			}
+			m.grMark[i] = g
+			sub.groups = append(sub.groups, int(i))
+			for _, w := range m.nl.groups[i].winds {
+				visit(w.a)
+				visit(w.b)
+			}
+		}
+	}
+	slices.Sort(sub.nodes)
+	slices.Sort(sub.prims)
+	slices.Sort(sub.groups)
+	return sub
+}
