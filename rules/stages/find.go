@@ -367,6 +367,17 @@ func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, o
 	for i := range s.netOwner {
 		s.netOwner[i] = -1
 	}
+	s.eval = func(m *match) *found {
+		st := evaluate(w, m, false)
+		if st == nil {
+			return nil
+		}
+		set := map[string]bool{}
+		for _, r := range st.Parts {
+			set[r] = true
+		}
+		return &found{Stage: st, m: m, set: set}
+	}
 	var runErr error
 	for _, p := range lib.Patterns {
 		if (p.Circuit == "full") != full {
@@ -383,18 +394,7 @@ func recognise(c *graph.Circuit, lib *Library, full bool, acg map[string]bool, o
 		}
 	}
 	*budget -= s.steps
-	var cands []*found
-	for _, m := range s.found {
-		st := evaluate(w, m, false)
-		if st == nil {
-			continue
-		}
-		set := map[string]bool{}
-		for _, r := range st.Parts {
-			set[r] = true
-		}
-		cands = append(cands, &found{Stage: st, m: m, set: set})
-	}
+	cands := s.cands
 	// The overlap rule: larger first, then the more specific pattern, then
 	// pattern id and refs, so the outcome never depends on search order.
 	sort.SliceStable(cands, func(i, j int) bool {

@@ -30,8 +30,16 @@ type searcher struct {
 	partUsed []bool
 	netOwner []int // circuit net → vnet bound to it, -1 none (ground is shared)
 	found    []*match
-	seen     map[string]bool
-	scratch  [][]binding // per search depth, reused
+	// eval, when set, evaluates a match as it is found (its formulas'
+	// figures and its pattern's guards) and keeps it, in cands, only if
+	// it passes: nil keeps every match. A pattern loose enough to match
+	// every pair of parts on a shared rail (a supply filter section: any
+	// element and any capacitor to ground on one net) then holds the
+	// sections that are sections, not every pair it tried.
+	eval    func(*match) *found
+	cands   []*found
+	seen    map[string]bool
+	scratch [][]binding // per search depth, reused
 }
 
 func (s *searcher) run(v *variant) error {
@@ -246,6 +254,13 @@ func (s *searcher) complete(m *match) {
 		bind: append([]int(nil), m.bind...), coils: make([][]int, len(m.coils)), refs: refs}
 	for i, c := range m.coils {
 		cp.coils[i] = append([]int(nil), c...)
+	}
+	if s.eval != nil {
+		f := s.eval(cp)
+		if f == nil {
+			return // its pattern's figures or guards refuse it: not held
+		}
+		s.cands = append(s.cands, f)
 	}
 	s.found = append(s.found, cp)
 }
