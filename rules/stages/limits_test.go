@@ -71,3 +71,26 @@ func TestPatternFolderRefusesOddFiles(t *testing.T) {
 		}
 	}
 }
+
+// A supply rail shared by many stages, each fed through its own resistor
+// and decoupled on its own side, with a bypass capacitor per stage on the
+// rail: the supply filter section pattern (any element, a capacitor to
+// ground on one end) tries every resistor with every bypass, 142 × 142 =
+// 20,164 pairs (counted by the product rule), nearly all the wrong way
+// round. The bound counts what the pattern's guards pass, so the search
+// ends without the limit's error; before, it held every pair it tried and
+// stopped at 20,000, as on the 5,020-part bank.
+func TestSharedRailIsNotTheLimit(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("band = \"1k..2k\"\ninputs = [\"in\"]\noutputs = [\"o1\"]\n[nets]\nvcc = { role = \"supply\", volts = 9 }\n[parts]\nR999 = { r = \"1k\", pins = [\"in\", \"gnd\"] }\n")
+	for k := 1; k <= 142; k++ {
+		fmt.Fprintf(&b, "R%d = { r = \"%dk\", pins = [\"vcc\", \"o%d\"] }\nC%d = { c = \"10n\", pins = [\"o%d\", \"gnd\"] }\nC%d = { c = \"100u\", pins = [\"vcc\", \"gnd\"] }\n", k, k, k, k, k, 1000+k)
+	}
+	c, err := graph.Parse("rail.toml", []byte(b.String()))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Find(c, Options{Full: c}); err != nil {
+		t.Fatalf("got %v, want no limit on a shared rail", err)
+	}
+}
