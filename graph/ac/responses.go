@@ -22,6 +22,9 @@ type Responses struct {
 	c      *graph.Circuit
 	dc     dcShare
 	models map[[2]float64]respModel
+	// base is the first setting elaborated; the others are made from it
+	// (atSetting).
+	base *model
 }
 
 type respModel struct {
@@ -47,10 +50,55 @@ func (rs *Responses) model(o Options) (*model, error) {
 	k := [2]float64{set, o.VarFrac}
 	e, ok := rs.models[k]
 	if !ok {
-		e.m, e.err = newModel(rs.c, o, &rs.dc)
+		if rs.base != nil {
+			e.m = rs.base.atSetting(o)
+		}
+		if e.m == nil {
+			e.m, e.err = newModel(rs.c, o, &rs.dc)
+		}
+		if rs.base == nil && e.err == nil && capsStamped(rs.c, o) {
+			rs.base = e.m
+		}
 		rs.models[k] = e
 	}
 	return e.m, e.err
+}
+
+// atSetting is the model m of the same circuit at gang setting o, made
+// from m's netlist with each capacitor's value taken at o: the setting
+// moves nothing else an elaboration stamps (windings, devices, detector
+// loads and joined nets do not depend on it), and a capacitor's value is
+// p.Capacitance, as the stamper takes it, so the netlist is the one an
+// elaboration at o gives, value for value. nil where a capacitor is
+// stamped at one setting and not at the other (a span from zero), which
+// changes the netlist's shape: that setting is elaborated afresh.
+func (m *model) atSetting(o Options) *model {
+	frac := 0.5
+	if o.VarSet {
+		frac = o.VarFrac
+	}
+	if !capsStamped(m.c, o) {
+		return nil
+	}
+	caps := map[string]*graph.Part{}
+	for _, p := range m.c.Parts {
+		if p.Kind == graph.Capacitor {
+			caps[p.Ref] = p
+		}
+	}
+	nl := *m.nl
+	nl.prims = slices.Clone(m.nl.prims)
+	for i := range nl.prims {
+		q := &nl.prims[i]
+		if p := caps[q.ref]; p != nil && q.kind == primC {
+			q.v = p.Capacitance(frac)
+		}
+	}
+	out := *m
+	out.nl = &nl
+	n := len(nl.nodes)
+	out.gen, out.nodeMark, out.primMark, out.grMark = 0, make([]int, n), make([]int, len(nl.prims)), make([]int, len(nl.groups))
+	return &out
 }
 
 // nodes elaborates at o and finds the solver nodes of nets a and b.
@@ -149,4 +197,22 @@ func merged(a, b []int) []int {
 	out := slices.Concat(a, b)
 	slices.Sort(out)
 	return out
+}
+
+// capsStamped tells whether every capacitor of c has a value above zero at
+// setting o (an elaboration stamps it there), and o is a setting.
+func capsStamped(c *graph.Circuit, o Options) bool {
+	frac := 0.5
+	if o.VarSet {
+		frac = o.VarFrac
+	}
+	if !(frac >= 0 && frac <= 1) {
+		return false // elaborate's own message
+	}
+	for _, p := range c.Parts {
+		if p.Kind == graph.Capacitor && !(p.Capacitance(frac) > 0) {
+			return false
+		}
+	}
+	return true
 }
