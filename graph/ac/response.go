@@ -96,14 +96,3 @@ func Transimpedance(c *graph.Circuit, in, out string, freqs []float64, o Options
 	}
 	return res, nil
 }
-
-// elaborateTwo elaborates the circuit and finds the solver nodes of two nets:
-// the first step of every single response.
-func elaborateTwo(c *graph.Circuit, o Options, a, b string) (*netlist, int, int, error) {
-	nl, err := elaborate(c, o)
-	if err != nil {
-		return nil, 0, 0, err
-	}
-	n, m, err := twoNodes(c, nl, a, b)
-	return nl, n, m, err
-}
