@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"strings"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -306,18 +305,6 @@ type tankModel struct {
 	l    float64
 	a, b int
 	caps []*graph.Part
-}
-
-// key names what the tank's formula reads on its world: its coil's
-// inductance to the bit, its ends and its capacitors (the parts
-// themselves, by address: the key lives only as long as the world).
-func (t *tankModel) key() string {
-	var b strings.Builder
-	fmt.Fprintf(&b, "%x %d %d", math.Float64bits(t.l), t.a, t.b)
-	for _, p := range t.caps {
-		fmt.Fprintf(&b, " %p", p)
-	}
-	return b.String()
 }
 
 // gangRef names the tank's section of the gang.

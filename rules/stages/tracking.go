@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strings"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -79,6 +80,18 @@ func formulaWalk(sig, osc *tankModel, ifHz float64) (trackWalk, bool) {
 	}
 	w.walks[k] = walkMemo{walk: walk, ok: ok}
 	return cloneWalk(walk), ok
+}
+
+// key names what the tank's formula reads on its world: its coil's
+// inductance to the bit, its ends and its capacitors (the parts
+// themselves, by address: the key lives only as long as the world).
+func (t *tankModel) key() string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%x %d %d", math.Float64bits(t.l), t.a, t.b)
+	for _, p := range t.caps {
+		fmt.Fprintf(&b, " %p", p)
+	}
+	return b.String()
 }
 
 type formulaWalkKey struct {
