@@ -116,7 +116,7 @@ func (cp *comparer) build(qs []quantity) [][][2]builtProbe {
 				b := &built[i][si][ci]
 				b.p, b.err = cp.newProbe(ci, si, q.what, ft[0], ft[1])
 				if b.err == nil && cp.o.Memo != nil && memoTakes(b.p) {
-					b.key = b.p.digest()
+					b.key = b.p.key()
 				}
 			}
 		}

@@ -71,7 +71,7 @@ func (m *Memo) attach(ci int, p *probe) {
 	if p.zero || p.silent {
 		return
 	}
-	k := p.digest()
+	k := p.key()
 	h := m.series[k]
 	if h == nil {
 		h = map[float64]complex128{}

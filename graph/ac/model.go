@@ -31,6 +31,9 @@ type model struct {
 	// Marks for the block search, by generation: no clearing per probe.
 	gen                        int
 	nodeMark, primMark, grMark []int
+	// sources holds, per node, what every probe from it shares (sourceAt).
+	sources map[int]*source
+	inputs  []int // the nodes of the declared inputs, in their order
 }
 
 // newModel elaborates c at the setting o, with c's DC view shared through dc.
@@ -68,6 +71,11 @@ func indexModel(c *graph.Circuit, nl *netlist) *model {
 		}
 	}
 	m.conduction()
+	for _, in := range c.Inputs {
+		if n, ok := nl.netNode[in]; ok {
+			m.inputs = append(m.inputs, n)
+		}
+	}
 	return m
 }
 
@@ -177,4 +185,60 @@ func (m *model) component(start int, isHeld []bool) *part {
 	slices.Sort(sub.prims)
 	slices.Sort(sub.groups)
 	return sub
+}
+
+// source is what every probe from one node of a model shares: the other
+// declared inputs, held at 0 V while the node is driven or measured, and
+// the block of the matrix the node lies in. A whole set compares every
+// input with every output, so the probes from one input are as many as
+// there are outputs (and three settings of each): their held set and block
+// search, each the size of the circuit or of the block, are made once.
+type source struct {
+	held   []int
+	isHeld []bool
+	sub    *part
+	// float holds floating's verdict with the node driven ([0]) and with
+	// nothing driven ([1]), once asked.
+	float     [2]error
+	floatDone [2]bool
+}
+
+// sourceAt returns the shared part of the probes from node (not ground).
+func (m *model) sourceAt(node int) *source {
+	if src := m.sources[node]; src != nil {
+		return src
+	}
+	if m.sources == nil {
+		m.sources = map[int]*source{}
+	}
+	var held []int
+	for _, n := range m.inputs {
+		if n != node {
+			held = append(held, n)
+		}
+	}
+	src := &source{held: held, isHeld: heldSet(len(m.nl.nodes), node, held)}
+	m.sources[node] = src
+	return src
+}
+
+// floating is model.floating for the source's node driven (driven true)
+// or for nothing driven, worked out once each.
+func (src *source) floating(m *model, node int, driven bool) error {
+	k, d := 1, -1
+	if driven {
+		k, d = 0, node
+	}
+	if !src.floatDone[k] {
+		src.float[k], src.floatDone[k] = m.floating(d, src.held, src.isHeld), true
+	}
+	return src.float[k]
+}
+
+// block is the block of the matrix the source's node lies in (component).
+func (src *source) block(m *model, node int) *part {
+	if src.sub == nil {
+		src.sub = m.component(node, src.isHeld)
+	}
+	return src.sub
 }

@@ -4,6 +4,7 @@
 package ac
 
 import (
+	"crypto/sha256"
 	"fmt"
 	"math"
 	"math/cmplx"
@@ -27,6 +28,16 @@ type probe struct {
 	// txn logs what this probe adds to memo when its quantity runs beside
 	// others (comparepar.go); nil otherwise.
 	txn *memoTxn
+	sum *[sha256.Size]byte // digest, once worked out (key)
+}
+
+// key is the probe's digest (memo.go), worked out once.
+func (p *probe) key() [sha256.Size]byte {
+	if p.sum == nil {
+		d := p.digest()
+		p.sum = &d
+	}
+	return *p.sum
 }
 
 // wrote logs that the probe's response at f went into its memo.
@@ -48,15 +59,14 @@ func newProbe(m *model, what, from, to string) (*probe, error) {
 		if fromNode == 0 {
 			return &probe{zero: true}, nil
 		}
-		held := otherInputs(c, nl, fromNode)
-		isHeld := heldSet(len(nl.nodes), -1, held)
-		if err := m.floating(-1, held, isHeld); err != nil {
+		src := m.sourceAt(fromNode)
+		if err := src.floating(m, fromNode, false); err != nil {
 			return nil, err
 		}
 		if !m.used[fromNode] {
 			return nil, fmt.Errorf("net %s is not connected to any part the small-signal model sees", from)
 		}
-		return &probe{block: block{nl: nl, driven: -1, isHeld: isHeld, sub: m.component(fromNode, isHeld)},
+		return &probe{block: block{nl: nl, driven: -1, isHeld: src.isHeld, sub: src.block(m, fromNode)},
 			node: fromNode, impedance: true}, nil
 	}
 	if fromNode == 0 {
@@ -66,15 +76,15 @@ func newProbe(m *model, what, from, to string) (*probe, error) {
 	if err != nil {
 		return nil, err
 	}
-	held := otherInputs(c, nl, fromNode)
-	isHeld := heldSet(len(nl.nodes), fromNode, held)
-	if err := m.floating(fromNode, held, isHeld); err != nil {
+	src := m.sourceAt(fromNode)
+	if err := src.floating(m, fromNode, true); err != nil {
 		return nil, err
 	}
+	isHeld := src.isHeld
 	if toNode != 0 && toNode != fromNode && (!m.used[toNode] || isHeld[toNode]) {
 		return nil, fmt.Errorf("output %s is not connected to any part the small-signal model sees", to)
 	}
-	sub := m.component(fromNode, isHeld)
+	sub := src.block(m, fromNode)
 	// The output is an unknown of the block when the search reached it
 	// (the driven node itself is reached but not an unknown).
 	_, reached := slices.BinarySearch(sub.nodes, toNode)
