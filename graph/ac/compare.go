@@ -7,6 +7,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"pare/graph"
 	"pare/graph/value"
@@ -208,7 +209,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 		}
 	}
 	cp := &comparer{o: o, settings: settings, marks: append(landmarks(orig), landmarks(reduced)...),
-		circuits: [2]*graph.Circuit{orig, reduced}, dc: dc, models: map[modelKey]*modelOrErr{}}
+		circuits: [2]*graph.Circuit{orig, reduced}, dc: dc, models: map[modelKey]*modelOrErr{}, swept: map[sweepKey]pairResult{}}
 	var silent []string
 	for i, r := range cp.runQuantities(qs) {
 		q, worst, out, err := qs[i], r.worst, r.out, r.err
@@ -280,6 +281,8 @@ type comparer struct {
 	circuits [2]*graph.Circuit
 	dc       [2]*dcShare // each circuit's DC view, the same at every setting
 	models   map[modelKey]*modelOrErr
+	mu       sync.Mutex // swept, when quantities run side by side
+	swept    map[sweepKey]pairResult
 }
 
 // probe builds the probe of a quantity in circuit ci (0 original, 1 reduced)
@@ -337,7 +340,7 @@ func (cp *comparer) quantity(q quantity, get func(ci, si int, what, from, to str
 			silent++
 			continue
 		}
-		p, err := sweepPair(po, pr, q.bands, o.Points, o.TolDB, o.TolDeg, cp.marks)
+		p, err := cp.sweep(po, pr, q.bands)
 		if err != nil {
 			if p.origFailed {
 				return worst, outCompared, fmt.Errorf("original circuit: %s: %w", worst.Label(), err)

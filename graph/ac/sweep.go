@@ -4,6 +4,8 @@
 package ac
 
 import (
+	"crypto/sha256"
+	"encoding/binary"
 	"math"
 	"math/cmplx"
 	"slices"
@@ -202,4 +204,53 @@ func (sw *pairSweep) worst(tolDB, tolDeg float64) pairResult {
 		}
 	}
 	return res
+}
+
+// sweepKey names one sweep: the systems of both responses (their digests,
+// memo.go) and the bands.
+type sweepKey struct {
+	o, r  [sha256.Size]byte
+	bands string
+}
+
+// sweep is sweepPair for one quantity at one setting, done once for each
+// pair of systems and bands. A sweep is a function of the equations of its
+// two systems: each probe's system is assembled from exactly what its
+// digest covers and solved at the frequencies the sweep picks from its own
+// results, in the same order, from the same first point (so with the same
+// pivots), or read from a memo that the first such sweep filled with the
+// very values it used. A quantity whose blocks hold no gang section is
+// therefore the same sweep at every setting, and so are two channels built
+// alike: the result is taken, not solved again. Failures are not kept (a
+// failed sweep ends its quantity, and with a memo its half-filled entries
+// would be read by a sweep that starts elsewhere).
+func (cp *comparer) sweep(po, pr *probe, bands []value.Range) (pairResult, error) {
+	o := cp.o
+	if po.zero || pr.zero {
+		return sweepPair(po, pr, bands, o.Points, o.TolDB, o.TolDeg, cp.marks)
+	}
+	k := sweepKey{po.key(), pr.key(), bandsKey(bands)}
+	cp.mu.Lock()
+	res, done := cp.swept[k]
+	cp.mu.Unlock()
+	if done {
+		return res, nil
+	}
+	res, err := sweepPair(po, pr, bands, o.Points, o.TolDB, o.TolDeg, cp.marks)
+	if err == nil {
+		cp.mu.Lock()
+		cp.swept[k] = res
+		cp.mu.Unlock()
+	}
+	return res, err
+}
+
+// bandsKey is the bands to the bit, as a map key.
+func bandsKey(bands []value.Range) string {
+	b := make([]byte, 0, 16*len(bands))
+	for _, r := range bands {
+		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(r.Min))
+		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(r.Max))
+	}
+	return string(b)
 }
