@@ -60,6 +60,7 @@ type lu struct {
 	ui []int
 	ux []complex128
 	ud []complex128 // 1/U(k,k): solves multiply, division is far slower
+	ai []int        // the step of each entry of A's rows, for refactor
 
 	x      []complex128 // work vector
 	mark   []int
@@ -136,7 +137,7 @@ func (f *lu) factor(a *csc) error {
 		if diagAbs >= pivotTol*bestAbs && diagAbs > 0 {
 			best = j
 		}
-		inv := 1 / x[best]
+		inv := recip(x[best])
 		f.ud[k] = inv
 		f.pinv[best] = k
 		f.prow[k] = best
@@ -156,6 +157,10 @@ func (f *lu) factor(a *csc) error {
 	}
 	for t, r := range f.ui {
 		f.ui[t] = f.pinv[r]
+	}
+	f.ai = f.ai[:0]
+	for _, r := range a.i {
+		f.ai = append(f.ai, f.pinv[r])
 	}
 	f.ready = true
 	return nil
@@ -224,10 +229,11 @@ func (f *lu) reachOf(a *csc, j int) {
 // kept pivot has become too small, and the caller factors afresh.
 func (f *lu) refactor(a *csc) error {
 	x := f.x // indexed by step here
+	ai := f.ai[:len(a.i)]
 	for k := 0; k < f.n; k++ {
 		j := f.q[k]
 		for t := a.p[j]; t < a.p[j+1]; t++ {
-			x[f.pinv[a.i[t]]] += a.x[t]
+			x[ai[t]] += a.x[t]
 		}
 		for t := f.up[k]; t < f.up[k+1]; t++ {
 			s := f.ui[t]
@@ -258,7 +264,7 @@ func (f *lu) refactor(a *csc) error {
 			}
 			return errStalePivot
 		}
-		inv := 1 / piv
+		inv := recip(piv)
 		f.ud[k] = inv
 		for m := f.lp[k]; m < f.lp[k+1]; m++ {
 			r := f.li[m]
@@ -322,4 +328,25 @@ func fill[T any](s []T, n int, v T) []T {
 		s[i] = v
 	}
 	return s
+}
+
+// recip is 1/m to the bit as Go's complex division gives it (Smith's
+// algorithm, the runtime's complex128div with a numerator of 1), without the
+// call and the special-value checks for a finite, non-zero m: the LU takes
+// a pivot's reciprocal once per column at every frequency point. Every
+// operation of the division is kept, the ones by the numerator's 1 and 0
+// included, so signed zeros come out as they do there.
+func recip(m complex128) complex128 {
+	re, im := real(m), imag(m)
+	if m == 0 || math.IsInf(re, 0) || math.IsInf(im, 0) || re != re || im != im {
+		return 1 / m
+	}
+	if math.Abs(re) >= math.Abs(im) {
+		ratio := im / re
+		denom := re + ratio*im
+		return complex(1/denom, (0-ratio)/denom)
+	}
+	ratio := re / im
+	denom := im + ratio*re
+	return complex((ratio+0)/denom, -1/denom)
 }

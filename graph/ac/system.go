@@ -50,9 +50,9 @@ func (k coef) at(w float64) complex128 {
 	case valJW:
 		return complex(0, w*k.a)
 	case valRL:
-		return 1 / complex(k.a, w*k.b)
+		return recip(complex(k.a, w*k.b))
 	case valRLC:
-		return 1 / complex(k.a, w*k.b-1/(w*k.c))
+		return recip(complex(k.a, w*k.b-1/(w*k.c)))
 	case valZ:
 		return complex(k.a, w*k.b)
 	}
@@ -79,6 +79,7 @@ type system struct {
 	f      *lu
 	b, y   []complex128
 	vals   []complex128 // coefficient values at the current frequency
+	fixed  *statics     // solveAt's constant sums, from its first call
 }
 
 const (
@@ -365,20 +366,20 @@ func dedupe(a []int) []int {
 // is left in s.b, indexed by unknown.
 func (s *system) solveAt(f float64) error {
 	w := 2 * math.Pi * f
-	for i := range s.a.x {
-		s.a.x[i] = 0
-	}
-	for i := range s.b {
-		s.b[i] = 0
-	}
-	if len(s.vals) != len(s.coefs) {
+	if s.fixed == nil {
 		s.vals = make([]complex128, len(s.coefs))
+		for i, k := range s.coefs {
+			s.vals[i] = k.at(w)
+		}
+		s.fixed = s.makeStatics(s.vals)
 	}
-	vals := s.vals
-	for i, k := range s.coefs {
-		vals[i] = k.at(w)
+	fx, vals := s.fixed, s.vals
+	copy(s.a.x, fx.ax)
+	copy(s.b, fx.b)
+	for _, i := range fx.coefs {
+		vals[i] = s.coefs[i].at(w)
 	}
-	for _, st := range s.stamps {
+	for _, st := range fx.stamps {
 		v := vals[st.val]
 		if st.neg {
 			v = -v
@@ -411,6 +412,18 @@ func (s *system) solveRHS(f float64) error {
 		return nil
 	}
 	s.f.solve(s.b, s.y)
+	// x−x is 0 for a finite x and NaN for an infinite or NaN one: one
+	// subtraction per part instead of the four tests of IsNaN and IsInf.
+	bad := false
+	for _, v := range s.b {
+		if d := v - v; d != 0 {
+			bad = true
+			break
+		}
+	}
+	if !bad {
+		return nil
+	}
 	for i, v := range s.b {
 		if cmplx.IsNaN(v) || cmplx.IsInf(v) {
 			return fmt.Errorf("no finite solution at %s for the %s", hz(f), s.what[i])
