@@ -1,0 +1,55 @@
+package ac
+
+import (
+	"testing"
+
+	"pare/graph"
+	"pare/internal/synth"
+)
+
+// BenchmarkSolveBlock is the cost of one frequency point of the proof: one
+// block of the 1,000-part bank (a channel's input impedance, about 30
+// unknowns) assembled, factored and solved at 400 points across its band,
+// as a pair sweep solves it. Reported per point:
+//
+//	go test -run XXX -bench SolveBlock -cpu 1 ./graph/ac/
+func BenchmarkSolveBlock(b *testing.B) {
+	src, err := synth.Bank(1000, 1)
+	if err != nil {
+		b.Fatal(err)
+	}
+	c, err := graph.Parse("bank.toml", src)
+	if err != nil {
+		b.Fatal(err)
+	}
+	m, err := newModel(c, Options{VarSet: true, VarFrac: 0.5}, &dcShare{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	freqs := logSweep(c.Band.Min, c.Band.Max, 400)
+	for _, what := range []struct{ name, what, from, to string }{
+		{"impedance", "impedance", c.Inputs[0], ""},
+		{"transfer", "transfer", c.Inputs[0], c.Outputs[0]},
+	} {
+		b.Run(what.name, func(b *testing.B) {
+			cpu0 := cpuTime()
+			for i := 0; i < b.N; i++ {
+				p, err := newProbe(m, what.what, what.from, what.to)
+				if err != nil {
+					b.Fatal(err)
+				}
+				for _, f := range freqs {
+					if _, err := p.at(f); err != nil {
+						b.Fatal(err)
+					}
+				}
+				if i == 0 {
+					b.ReportMetric(float64(p.s.n), "unknowns")
+				}
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(len(freqs)), "ns/point")
+			// CPU time too: on a shared machine the wall clock measures the neighbours.
+			b.ReportMetric(float64((cpuTime()-cpu0).Nanoseconds())/float64(b.N)/float64(len(freqs)), "cpu-ns/point")
+		})
+	}
+}
