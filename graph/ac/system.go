@@ -412,11 +412,11 @@ func (s *system) solveRHS(f float64) error {
 		return nil
 	}
 	s.f.solve(s.b, s.y)
-	// x−x is 0 for a finite x and NaN for an infinite or NaN one: one
-	// subtraction per part instead of the four tests of IsNaN and IsInf.
+	// One comparison per part (false for an infinite or NaN one) instead
+	// of the four tests of IsNaN and IsInf; they name the unknown after.
 	bad := false
 	for _, v := range s.b {
-		if d := v - v; d != 0 {
+		if !(math.Abs(real(v)) <= math.MaxFloat64 && math.Abs(imag(v)) <= math.MaxFloat64) {
 			bad = true
 			break
 		}
