@@ -339,8 +339,8 @@ func span(r []block) float64 {
 const rowSlack = 16
 
 // footReserve is the height the footer of a paged sheet takes: the title
-// block or the caution, whichever is taller.
+// block or the caution, whichever is taller, the same on every page.
 func (cfg Config) footReserve(s *Sheet) float64 {
 	d := &drawer{cfg: cfg, sheet: s}
-	return d.foot(1, 1).h
+	return d.footLayout().h
 }

@@ -3,6 +3,7 @@ package render
 import (
 	"fmt"
 	"math"
+
 	"pare/graph/figure"
 
 	"pare/render/layout"
@@ -31,46 +32,73 @@ func (d *drawer) drawPaged(n, m int) float64 {
 // title block, and its height.
 type foot struct {
 	caution   []string
-	block     [][]string // the title block's columns: the sheet, then the furniture
+	block     [][]string // the title block's columns: the sheet, then the legend
 	colW      []float64
 	blockW, h float64
 }
 
-// cautionMin is the narrowest the caution beside the title block is
-// wrapped, in characters.
-const cautionMin = 30
+// The title block of a paged sheet has one size whatever the set: the
+// sheet's own column (set, sheet n of m, view and band, symbols) and at
+// most legendCols columns of legendRows lines for the legend lines about
+// what the page draws. A page whose own list is longer says how many lines
+// more, which the repair note lists whole. A block that listed every
+// region, tuning and switch of the set on every page took the drawing's
+// room on each: at 5,000 parts a page held one row, and the set took
+// twenty times the pages.
+const (
+	legendRows = 4  // the sheet's own column is four lines
+	legendCols = 3  // at most; fewer where the paper is narrow
+	blockChars = 40 // a legend column's width in characters: a longer line wraps
+	titleChars = 60 // the set's title, cut beyond with an ellipsis
+	cautionMin = 30 // the narrowest the caution beside the block is wrapped, in characters
+)
 
-// foot lays out the footer of page n of m on the page's printable width.
-// The furniture (regions, tuning, switch positions) is set in as many
-// columns as the width leaves beside a caution of cautionMin characters,
-// no taller than it must be: every line of footer is a line the drawing
-// cannot use, and a page holds another row only where the footer is short.
-func (d *drawer) foot(n, m int) foot {
+// footLayout is what every page of the sheet shares: the legend's columns,
+// the caution wrapped beside the widest block, and the footer's height.
+type footLayout struct {
+	cols    int
+	caution []string
+	h       float64
+}
+
+// footLayout fits the block to the page's printable width: as many legend
+// columns (up to legendCols, and no more than the sheet's whole legend
+// fills) as leave cautionMin characters for the caution beside the
+// sheet's own column.
+func (d *drawer) footLayout() footLayout {
 	cw, _ := d.cfg.Page.content()
 	small := symbol.CharW * furnitureW
-	lines := d.blockLines(n, m)
-	var f foot
-	for k := 1; ; k++ {
-		g := foot{block: append([][]string{lines[0]}, split(lines[1], k)...)}
-		g.colW = make([]float64, len(g.block))
-		for c, col := range g.block {
-			for _, l := range col {
-				g.colW[c] = math.Max(g.colW[c], symbol.TextWidth(l)*furnitureW+1)
-			}
-			g.blockW += g.colW[c]
-		}
-		if k > 1 && (g.blockW > cw-cautionMin*small-2 || g.rows() >= f.rows()) {
-			break
-		}
-		f = g
-		if k >= len(lines[1]) {
-			break
-		}
+	headW := 0.0
+	for _, l := range d.sheetLines(9999, 9999) {
+		headW = math.Max(headW, symbol.TextWidth(l)*furnitureW+1)
 	}
-	wrapAt := int(math.Max(cautionMin, (cw-f.blockW-2)/small))
-	f.caution = layout.WrapWords(d.caution(), wrapAt)
+	colW := blockChars*small + 1
+	cols := max(1, min(legendCols, int((cw-headW-cautionMin*small-2)/colW)))
+	// no wider than the whole legend needs: the caution takes the rest
+	rows := 0
+	for _, l := range d.allLegend() {
+		rows += len(wrapLegend(l, legendRows))
+	}
+	cols = min(cols, (rows+legendRows-1)/legendRows)
+	wrapAt := int(math.Max(cautionMin, (cw-headW-float64(cols)*colW-2)/small))
+	caution := layout.WrapWords(d.caution(), wrapAt)
 	lineH := symbol.LineH * furnitureW
-	f.h = float64(max(len(f.caution), f.rows()))*lineH + 1.6
+	return footLayout{cols: cols, caution: caution, h: float64(max(len(caution), legendRows))*lineH + 1.6}
+}
+
+// foot lays out the footer of page n of m: the shared layout with the
+// page's own legend in its columns.
+func (d *drawer) foot(n, m int) foot {
+	fl := d.footLayout()
+	legend := fitLegend(d.pageLegend(), fl.cols, legendRows)
+	f := foot{caution: fl.caution, h: fl.h, block: append([][]string{d.sheetLines(n, m)}, legend...)}
+	f.colW = make([]float64, len(f.block))
+	for c, col := range f.block {
+		for _, l := range col {
+			f.colW[c] = math.Max(f.colW[c], symbol.TextWidth(l)*furnitureW+1)
+		}
+		f.blockW += f.colW[c]
+	}
 	return f
 }
 
@@ -83,21 +111,126 @@ func (f foot) rows() int {
 	return n
 }
 
-// split cuts lines into k columns of equal length, in reading order down
-// each column.
-func split(lines []string, k int) [][]string {
-	per := (len(lines) + k - 1) / max(k, 1)
-	var out [][]string
-	for i := 0; i < len(lines); i += per {
-		out = append(out, lines[i:min(i+per, len(lines))])
+// allLegend is every legend line of the sheet.
+func (d *drawer) allLegend() []string {
+	if d.sheet.Legend == nil {
+		return d.sheet.Furniture
+	}
+	out := make([]string, len(d.sheet.Legend))
+	for i, l := range d.sheet.Legend {
+		out[i] = l.Text
 	}
 	return out
 }
 
-// blockLines are the title block: the set, the sheet's number, the view
-// with the band of interest and the symbol style; beside them the sheet's furniture (bands, IF,
-// tuning, level).
-func (d *drawer) blockLines(n, m int) [2][]string {
+// pageLegend is the legend lines about what the page draws: first those
+// about every page (the IF, the reduction level), then each whose parts
+// include one drawn here, in the sheet's order. A sheet without a legend
+// has its furniture on every page.
+func (d *drawer) pageLegend() []string {
+	if d.sheet.Legend == nil {
+		return d.sheet.Furniture
+	}
+	here := map[string]bool{}
+	if d.res != nil {
+		for _, p := range d.res.Placed {
+			here[p.Ref] = true
+		}
+	}
+	var all, own []string
+	for _, l := range d.sheet.Legend {
+		if len(l.Parts) == 0 {
+			all = append(all, l.Text)
+			continue
+		}
+		for _, r := range l.Parts {
+			if here[r] {
+				own = append(own, l.Text)
+				break
+			}
+		}
+	}
+	return append(all, own...)
+}
+
+// fitLegend sets the legend lines in at most cols columns of rows lines:
+// a line wider than a column wraps, never from one column into the next;
+// when they do not all fit, the last row says how many are left out (the
+// repair note lists them all).
+func fitLegend(lines []string, cols, rows int) [][]string {
+	items := make([][]string, len(lines))
+	for i, l := range lines {
+		items[i] = wrapLegend(l, rows)
+	}
+	out, n := pack(items, cols, rows, rows)
+	if n == len(items) {
+		return out
+	}
+	out, n = pack(items, cols, rows, rows-1)
+	more := fmt.Sprintf("+%d more in the repair note's Legend", len(items)-n)
+	if len(out) < cols {
+		return append(out, []string{more})
+	}
+	out[len(out)-1] = append(out[len(out)-1], more)
+	return out
+}
+
+// pack fills up to cols columns of rows lines (the last of last lines)
+// with the items in order, an item whole in one column, and says how many
+// it placed. An item taller than an empty column is cut to it.
+func pack(items [][]string, cols, rows, last int) ([][]string, int) {
+	var out [][]string
+	var col []string
+	n := 0
+	for n < len(items) && len(out) < cols {
+		limit := rows
+		if len(out) == cols-1 {
+			limit = last
+		}
+		it := items[n]
+		if len(col) == 0 && len(it) > limit {
+			it = it[:limit]
+		}
+		if len(col)+len(it) > limit {
+			out, col = append(out, col), nil
+			continue
+		}
+		col = append(col, it...)
+		n++
+	}
+	if len(col) > 0 {
+		out = append(out, col)
+	}
+	return out, n
+}
+
+// wrapLegend wraps a legend line at blockChars in at most rows rows (kept
+// in one column, so the rows read on); what is left over, or a word longer
+// than a row, is cut with an ellipsis.
+func wrapLegend(l string, rows int) []string {
+	out := layout.WrapWords(l, blockChars)
+	if len(out) > rows {
+		out[rows-1] += "…"
+		out = out[:rows]
+	}
+	for i := range out {
+		out[i] = cut(out[i], blockChars)
+	}
+	return out
+}
+
+// cut shortens s to n characters, the last an ellipsis.
+func cut(s string, n int) string {
+	r := []rune(s)
+	if len(r) <= n {
+		return s
+	}
+	return string(r[:n-1]) + "…"
+}
+
+// sheetLines are the title block's own column: the set, the sheet's
+// number, the view with the band of interest and the symbol style.
+func (d *drawer) sheetLines(n, m int) []string {
 	style := "IEC 60617"
 	if d.cfg.Style == IEEE {
 		style = "IEEE 315"
@@ -106,7 +239,7 @@ func (d *drawer) blockLines(n, m int) [2][]string {
 	if b := d.sheet.Circuit.Band; b.Max > 0 {
 		view += ", band " + figure.FormatRange(b, figure.Hertz, figure.Sheet)
 	}
-	return [2][]string{{d.title(), fmt.Sprintf("sheet %d of %d", n, m), view, "symbols: " + style}, d.sheet.Furniture}
+	return []string{cut(d.title(), titleChars), fmt.Sprintf("sheet %d of %d", n, m), view, "symbols: " + style}
 }
 
 // pagedPage sizes page n of m: the paper's proportions, one grid unit

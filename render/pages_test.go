@@ -12,7 +12,6 @@ import (
 	"pare/internal/golden"
 	"pare/render/check"
 	"pare/render/geom"
-	"pare/render/symbol"
 )
 
 // chainSheet is a chain of triode stages, each framed: 6 parts a stage.
@@ -116,46 +115,6 @@ func TestChainPages(t *testing.T) {
 		file := filepath.Join("testdata", fmt.Sprintf("chain-a4-%d.svg", i+1))
 		golden.Check(t, file, svg, *update, "look at the PNG, then go test ./render -update")
 		renders(t, file)
-	}
-}
-
-// TestFurnitureInColumns: a long furniture list (regions, tuning, switch
-// positions: 16 lines) is set in columns beside the sheet's own four lines
-// of title block, so the footer is at most six lines high on any paper (the
-// narrowest, letter, leaves room for three columns beside the caution) and
-// the sheet takes no more pages than without it; every line is printed, in
-// order.
-func TestFurnitureInColumns(t *testing.T) {
-	for _, name := range []string{"A4", "A3", "letter"} {
-		p, _ := ParsePaper(name)
-		cfg := Config{Page: p}
-		bare, err := cfg.FprintPages(chainSheet(4))
-		if err != nil {
-			t.Fatal(err)
-		}
-		s := chainSheet(4)
-		for i := 1; i <= 16; i++ {
-			s.Furniture = append(s.Furniture, fmt.Sprintf("Switch S%d at position 1 of 2", i))
-		}
-		d := &drawer{cfg: cfg, sheet: s}
-		if h := d.foot(1, 1).h; h > 6*symbol.LineH*furnitureW+1.6+1e-9 {
-			t.Errorf("%s: a footer %.1f units high for 4 lines of title and 16 of furniture", name, h)
-		}
-		pages, err := cfg.FprintPages(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if len(pages) != len(bare) {
-			t.Errorf("%s: %d pages with the furniture, %d without", name, len(pages), len(bare))
-		}
-		last := -1
-		for i := 1; i <= 16; i++ {
-			at := bytes.Index(pages[0], []byte(fmt.Sprintf(">Switch S%d at", i)))
-			if at < last {
-				t.Errorf("%s: furniture line %d missing or out of order", name, i)
-			}
-			last = at
-		}
 	}
 }
 

@@ -99,6 +99,15 @@ type Frame struct {
 	Joined bool
 }
 
+// Legend is one line of a paged sheet's title block and the parts of the
+// circuit drawn it concerns (a region's parts, a tuned stage's, a switch
+// and its neighbours); none: the line concerns every page (the IF, the
+// reduction level).
+type Legend struct {
+	Text  string
+	Parts []string
+}
+
 // Place is one part of a stage's drawing template (see layout.Place).
 type Place = layout.Place
 
@@ -120,6 +129,11 @@ type Sheet struct {
 	Caution string
 	// Furniture holds lines for the sheet's info block: IF, tuning range, level.
 	Furniture []string
+	// Legend is the furniture line by line with the parts each line
+	// concerns, for the title block of a paged sheet: a page lists only the
+	// lines about what is drawn on it (pagedraw.go). Nil: every line of
+	// Furniture concerns every page.
+	Legend []Legend
 	// PinVolts holds per ref and pin the DC voltage at an electrode, drawn
 	// small beside the pin on the full and faded views (never on a reduced
 	// one).
