@@ -1,7 +1,6 @@
 package pipeline
 
 import (
-	"fmt"
 	"math"
 	"pare/cmd/internal/align"
 	"sort"
@@ -11,7 +10,6 @@ import (
 	"pare/graph/dc"
 	"pare/graph/figure"
 	"pare/render"
-	"pare/rules"
 	"pare/rules/stages"
 )
 
@@ -88,9 +86,10 @@ func drawView(s *render.Sheet, o Options) (Sheet, error) {
 // the circuit drawn.
 func (r *Result) Sheet(v render.View) *render.Sheet {
 	c, reduced := r.Circuit, r.Reduced
+	items := furniture(c, r.Stages, r.Level)
 	s := &render.Sheet{
 		Title: r.Title, View: v, Caution: r.Caution.Sheet(v == render.Reduced),
-		Furniture: Furniture(c, r.Stages, r.Level),
+		Furniture: furnitureText(items),
 	}
 	switch v {
 	case render.Reduced:
@@ -109,8 +108,10 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		s.PinVolts = r.electrodeVolts()
 	}
 	s.Marks = r.alignMarks(v)
+	s.Legend = legend(items, s.Circuit, reduced, v == render.Reduced)
 	if len(s.PinVolts) > 0 {
 		s.Furniture = append(s.Furniture, PinLegend)
+		s.Legend = append(s.Legend, render.Legend{Text: PinLegend})
 	}
 	return s
 }
@@ -288,44 +289,6 @@ func filterSection(s stages.Stage, full *graph.Circuit) bool {
 func frameFigures(figs figure.List, n int) string {
 	items := figure.Items(figs, figure.Sheet)
 	return strings.Join(items[:min(n, len(items))], ", ")
-}
-
-// Furniture is the sheet's information block, which the note repeats under
-// its title: regions, named frequencies, tuning ranges, switch positions and
-// the reduction level.
-func Furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []string {
-	var lines []string
-	for _, r := range c.Regions {
-		if r.Band.Max > 0 {
-			lines = append(lines, "Region "+r.Name+": "+figure.FormatRange(r.Band, figure.Hertz, figure.Sheet))
-		}
-	}
-	names := make([]string, 0, len(c.Freqs))
-	for k := range c.Freqs {
-		names = append(names, k)
-	}
-	sort.Strings(names)
-	for _, k := range names {
-		label := k
-		if strings.EqualFold(k, "if") {
-			label = "IF"
-		}
-		lines = append(lines, label+" "+figure.Format(c.Freqs[k], figure.Hertz, figure.Sheet))
-	}
-	for _, s := range found {
-		if f, ok := s.Figures.Get("f"); ok && f.Range != nil && f.Range.Max > f.Range.Min {
-			lines = append(lines, "Tuning "+s.Name+": "+f.Text(figure.Sheet))
-		}
-	}
-	// A reduced sheet holds for one setting of each switch only (the
-	// reduction replaces a switch by the contacts closed in its set
-	// position), so the sheet says which.
-	for _, p := range c.Parts {
-		if p.Kind == graph.Switch {
-			lines = append(lines, fmt.Sprintf("Switch %s at position %d of %d", p.Ref, int(p.Set), len(p.Closes)))
-		}
-	}
-	return append(lines, "Reduction level "+lvl.String())
 }
 
 // electrodeVolts gives each active part's electrode voltages for the full
