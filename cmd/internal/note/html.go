@@ -42,7 +42,10 @@ func WriteHTML(w io.Writer, n *Note, svgs map[string][]byte) error {
 	if n.CircuitNote != "" {
 		fmt.Fprintf(&b, "<p>%s</p>\n", h(n.CircuitNote))
 	}
-	hList(&b, n.Furniture)
+	if len(n.Furniture) > 0 {
+		fmt.Fprintf(&b, "<h2 id=\"n-legend\">Legend</h2>\n<p>%s</p>\n", h(legendIntro))
+		hList(&b, n.Furniture)
+	}
 	hVerdict(&b, n)
 	hFindings(&b, n)
 	if err := hSheets(&b, n, svgs); err != nil {

@@ -158,6 +158,11 @@ type Caution struct {
 	Basis   string
 }
 
+// legendIntro opens the note's legend: the one place the whole list is
+// (a page's title block lists only the lines about what it draws, and
+// says how many more when they do not fit).
+const legendIntro = "The set's bands, regions, tuning ranges and switch positions, whole: each page of a sheet cut onto paper lists those about what it draws."
+
 // Write writes the repair note. Output depends only on n, so the same
 // run gives the same bytes.
 func Write(w io.Writer, n *Note) error {
@@ -176,6 +181,7 @@ func Write(w io.Writer, n *Note) error {
 		fmt.Fprintf(&b, "%s\n\n", mdText(n.CircuitNote))
 	}
 	if len(n.Furniture) > 0 {
+		b.WriteString("## Legend\n\n" + legendIntro + "\n\n")
 		for _, f := range n.Furniture {
 			fmt.Fprintf(&b, "- %s\n", mdText(f))
 		}
