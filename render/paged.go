@@ -39,9 +39,10 @@ func (cfg Config) FprintPagesText(s *Sheet) ([][]byte, []float64, error) {
 	}
 	out := make([][]byte, len(pages))
 	mm := make([]float64, len(pages))
+	sf := (&drawer{cfg: cfg, sheet: s}).sharedFoot()
 	for i, r := range pages {
 		var buf bytes.Buffer
-		d := &drawer{cfg: cfg, canvas: textSafe{svg.New(&buf)}, sheet: s, res: r}
+		d := &drawer{cfg: cfg, canvas: textSafe{svg.New(&buf)}, sheet: s, res: r, shared: sf}
 		mm[i] = d.drawPaged(i+1, len(pages))
 		out[i] = buf.Bytes()
 	}
@@ -62,9 +63,10 @@ func (cfg Config) Geometries(s *Sheet) ([]*geom.Sheet, error) {
 		return nil, err
 	}
 	out := make([]*geom.Sheet, len(pages))
+	sf := (&drawer{cfg: cfg, sheet: s}).sharedFoot()
 	for i, r := range pages {
 		out[i] = &r.Geom
-		pg := (&drawer{cfg: cfg, sheet: s, res: r}).pagedPage(i+1, len(pages))
+		pg := (&drawer{cfg: cfg, sheet: s, res: r, shared: sf}).pagedPage(i+1, len(pages))
 		out[i].PageMM = mmPerUnit() * pg.textMM / MinTextMM
 	}
 	return out, nil
@@ -342,5 +344,5 @@ const rowSlack = 16
 // block or the caution, whichever is taller, the same on every page.
 func (cfg Config) footReserve(s *Sheet) float64 {
 	d := &drawer{cfg: cfg, sheet: s}
-	return d.footLayout().h
+	return d.sharedFoot().layout.h
 }

@@ -3,6 +3,7 @@ package render
 import (
 	"fmt"
 	"math"
+	"sort"
 
 	"pare/graph/figure"
 
@@ -75,11 +76,13 @@ func (d *drawer) footLayout() footLayout {
 	colW := blockChars*small + 1
 	cols := max(1, min(legendCols, int((cw-headW-cautionMin*small-2)/colW)))
 	// no wider than the whole legend needs: the caution takes the rest
-	rows := 0
-	for _, l := range d.allLegend() {
-		rows += len(wrapLegend(l, legendRows))
+	all := d.allLegend()
+	items := make([][]string, len(all))
+	for i, l := range all {
+		items[i] = wrapLegend(l, legendRows)
 	}
-	cols = min(cols, (rows+legendRows-1)/legendRows)
+	need, _ := pack(items, legendCols, legendRows, legendRows)
+	cols = min(cols, len(need))
 	wrapAt := int(math.Max(cautionMin, (cw-headW-float64(cols)*colW-2)/small))
 	caution := layout.WrapWords(d.caution(), wrapAt)
 	lineH := symbol.LineH * furnitureW
@@ -89,7 +92,7 @@ func (d *drawer) footLayout() footLayout {
 // foot lays out the footer of page n of m: the shared layout with the
 // page's own legend in its columns.
 func (d *drawer) foot(n, m int) foot {
-	fl := d.footLayout()
+	fl := d.sharedFoot().layout
 	legend := fitLegend(d.pageLegend(), fl.cols, legendRows)
 	f := foot{caution: fl.caution, h: fl.h, block: append([][]string{d.sheetLines(n, m)}, legend...)}
 	f.colW = make([]float64, len(f.block))
@@ -123,6 +126,29 @@ func (d *drawer) allLegend() []string {
 	return out
 }
 
+// sharedFoot is what every page's footer of a paged sheet shares: the
+// layout, and per ref the legend lines about it, so that a page finds its
+// lines from its own parts (work growing with the page, not the set).
+type sharedFoot struct {
+	layout footLayout
+	at     map[string][]int // ref -> indexes into Sheet.Legend
+}
+
+// sharedFoot is the drawer's shared footer, worked out when not given.
+func (d *drawer) sharedFoot() *sharedFoot {
+	if d.shared != nil {
+		return d.shared
+	}
+	sf := &sharedFoot{layout: d.footLayout(), at: map[string][]int{}}
+	for i, l := range d.sheet.Legend {
+		for _, r := range l.Parts {
+			sf.at[r] = append(sf.at[r], i)
+		}
+	}
+	d.shared = sf
+	return sf
+}
+
 // pageLegend is the legend lines about what the page draws: first those
 // about every page (the IF, the reduction level), then each whose parts
 // include one drawn here, in the sheet's order. A sheet without a legend
@@ -131,26 +157,30 @@ func (d *drawer) pageLegend() []string {
 	if d.sheet.Legend == nil {
 		return d.sheet.Furniture
 	}
-	here := map[string]bool{}
-	if d.res != nil {
-		for _, p := range d.res.Placed {
-			here[p.Ref] = true
-		}
-	}
-	var all, own []string
+	var out []string
 	for _, l := range d.sheet.Legend {
 		if len(l.Parts) == 0 {
-			all = append(all, l.Text)
-			continue
+			out = append(out, l.Text)
 		}
-		for _, r := range l.Parts {
-			if here[r] {
-				own = append(own, l.Text)
-				break
+	}
+	seen := map[int]bool{}
+	var own []int
+	if d.res != nil {
+		at := d.sharedFoot().at
+		for _, p := range d.res.Placed {
+			for _, i := range at[p.Ref] {
+				if !seen[i] {
+					seen[i] = true
+					own = append(own, i)
+				}
 			}
 		}
 	}
-	return append(all, own...)
+	sort.Ints(own)
+	for _, i := range own {
+		out = append(out, d.sheet.Legend[i].Text)
+	}
+	return out
 }
 
 // fitLegend sets the legend lines in at most cols columns of rows lines:

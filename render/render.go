@@ -276,6 +276,9 @@ type drawer struct {
 	sheet  *Sheet
 	res    *layout.Result
 	ox, oy float64 // sheet position of grid origin, in grid units
+	// shared is what every page of a paged sheet's footer shares, worked
+	// out once for the sheet (nil: worked out on demand)
+	shared *sharedFoot
 }
 
 // Sheet furniture sizes, in grid units.
