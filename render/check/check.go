@@ -53,7 +53,10 @@ type Report struct {
 	// SmallText are labels of a page of paper (geom.Sheet.PageMM) that
 	// print under MinTextMM: a page drawn smaller than the paper's scale
 	// to hold a row the page flow could not cut.
-	SmallText      []string
+	SmallText []string
+	// FarTanks are capacitors across a winding drawn more than tankReach
+	// grid steps from it: a tuned circuit's L and C stand side by side.
+	FarTanks       []string
 	Crossings      int   // wire–wire crossings of different nets
 	FrameCrossings []int // crossings inside each frame, in frame order
 	Bends          int   // bends over all wires
@@ -163,12 +166,13 @@ func Measure(g *geom.Sheet) *Report {
 	r.misreadings(segs, boxes, &bix)
 	r.endsNear(g, segs)
 	r.longWires(g)
+	r.farTanks(g)
 	r.crossings(g, segs)
 	r.connectivity(g, segs)
 	if g.PageMM > 0 {
 		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)
 	}
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.LongWires, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions} {
 		sort.Strings(l)
 	}
 	return r

@@ -122,6 +122,13 @@ type Symbol struct {
 	Box   Rect // body and leads; pins lie on its edge
 	Pins  []Pin
 	Faded bool
+	// Kind is the part's kind ("capacitor", "transformer", ...; empty for
+	// the sheet's own flags and connectors), Type its sub-type
+	// ("electrolytic", "choke"), and Windings the end pins of
+	// each coil of a coil or transformer: what the checker needs to find a
+	// capacitor across a winding.
+	Kind, Type string
+	Windings   [][2]string
 }
 
 // LocalKind is the kind of a symbol drawn at a pin instead of a wire.

@@ -17,9 +17,12 @@ type block struct {
 	// the other (a padder over its tuning capacitor): a tuned circuit
 	// whose C is two parts still stands beside its L
 	chain []*cell
-	col   int
-	fp    geom.Rect // footprint in block coordinates
-	pos   float64   // barycentre key while ordering
+	// tank says the chain holds the capacitors across the block's winding
+	// (tankplace.go), each standing beside the winding it tunes
+	tank bool
+	col  int
+	fp   geom.Rect // footprint in block coordinates
+	pos  float64   // barycentre key while ordering
 }
 
 // outer returns the two end pins of a part that can stand in parallel with
@@ -122,6 +125,7 @@ func (ly *state) blocks() [][]*block {
 			inChain[cl] = true
 		}
 	}
+	tanks, held := ly.tankBlocks(chains)
 	nCols := 0
 	for _, cl := range ly.cells {
 		nCols = max(nCols, cl.col+1)
@@ -129,7 +133,11 @@ func (ly *state) blocks() [][]*block {
 	cols := make([][]*block, nCols)
 	group := map[string]*block{}
 	for _, cl := range ly.cells {
-		if inChain[cl] {
+		if b, ok := tanks[cl]; ok {
+			cols[cl.col] = append(cols[cl.col], b)
+			continue
+		}
+		if inChain[cl] || held[cl] {
 			continue
 		}
 		if ch, ok := chains[cl]; ok {
@@ -212,7 +220,10 @@ func (ly *state) arrange(b *block) {
 		x = fp.X1
 		b.fp = b.fp.Union(fp)
 	}
-	if len(b.chain) == 2 {
+	switch {
+	case b.tank:
+		ly.standTank(b)
+	case len(b.chain) == 2:
 		ly.stackChain(b)
 	}
 }

@@ -169,6 +169,14 @@ func (ly *state) stages() map[string]int {
 			}
 		}
 	}
+	for cp, t := range ly.tankOf {
+		// a tank capacitor no frame holds stands in its winding's stage
+		if _, framed := stageOf(cp); !framed {
+			if s, ok := st[t.coil.ref]; ok {
+				st[cp.ref] = s
+			}
+		}
+	}
 	for _, cl := range ly.cells {
 		if _, ok := st[cl.ref]; !ok && cl.edge == 0 {
 			st[cl.ref] = len(ly.o.Frames)

@@ -178,6 +178,8 @@ type state struct {
 	tplMoved, tplOff map[string]bool
 	// frameStage is the stage (index into Options.Frames) of each frame drawn
 	frameStage []int
+	// tankOf is, per capacitor across a winding, the winding (tankplace.go)
+	tankOf map[*cell]tankAt
 }
 
 // signalNets of a cell: the nets of its pins that are wired.

@@ -56,6 +56,7 @@ func (ly *state) orient() {
 		}
 		cl.shape = best
 	}
+	ly.orientTanks()
 }
 
 // standing is the best-scoring upright orientation of a cell that runs the

@@ -20,6 +20,8 @@ func (ly *state) rank() {
 			rank[cl.ref] += d
 		}
 	}
+	ly.tankOf = ly.findTanks()
+	ly.tankRanks(rank)
 	ly.rankOf = rank
 	ly.portSides(byNet)
 	ly.assignColumns()

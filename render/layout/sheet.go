@@ -127,7 +127,11 @@ func assemble(ly *state, w *wiring) *Result {
 	g := &res.Geom
 	for _, cl := range ly.cells {
 		res.Placed = append(res.Placed, Placed{Ref: cl.ref, Part: realPart(cl), Shape: cl.shape, Faded: cl.faded})
-		g.Symbols = append(g.Symbols, geom.Symbol{Ref: cl.ref, Box: cl.shape.Box, Pins: cl.shape.Pins, Faded: cl.faded})
+		sym := geom.Symbol{Ref: cl.ref, Box: cl.shape.Box, Pins: cl.shape.Pins, Faded: cl.faded}
+		if p := realPart(cl); p != nil && !cl.conn {
+			sym.Kind, sym.Type, sym.Windings = string(p.Kind), p.Type, WindingEnds(p)
+		}
+		g.Symbols = append(g.Symbols, sym)
 		g.Locals = append(g.Locals, cl.locals...)
 		if len(cl.label.Lines) > 0 {
 			g.Labels = append(g.Labels, cl.label)

@@ -79,7 +79,7 @@ func (ly *state) templates(cols [][]*block) {
 // template places one stage template's blocks round its anchor's block.
 func (ly *state) template(stage int, places []Place, blockOf map[string]*block, all []*block, moved map[*block]bool) {
 	anchor := blockOf[places[0].Anchor]
-	if anchor == nil || len(anchor.cells) != 1 || len(anchor.chain) > 0 {
+	if anchor == nil || len(anchor.cells) != 1 || len(anchor.chain) > 0 && !anchor.tank {
 		return
 	}
 	// a block of several parts (a tank's L and C) takes the slot of the
@@ -124,7 +124,7 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 // put it), of this stage, and none is a flag or connector at the edge.
 func (ly *state) movable(b *block, stage int, placed map[string]Place) bool {
 	for _, cl := range append(append([]*cell{}, b.cells...), b.chain...) {
-		if _, ok := placed[cl.ref]; !ok {
+		if _, ok := placed[cl.ref]; !ok && !ly.tankFollows(cl, b) {
 			return false
 		}
 		if s, ok := ly.stageOf[cl.ref]; !ok || s != stage || cl.edge != 0 || cl.conn {

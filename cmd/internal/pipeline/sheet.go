@@ -93,8 +93,8 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	}
 	switch v {
 	case render.Reduced:
-		s.Circuit = r.withLineVolts(reduced)
-		s.Frames = stageFrames(r.Stages, reduced, nil)
+		s.Circuit = r.withLineVolts(r.withSupplyReturns(reduced))
+		s.Frames = tankFrames(stageFrames(r.Stages, reduced, nil), s.Circuit)
 		_, merged := FadedAndMerged(c, reduced)
 		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
 	case render.Full, render.Faded:
@@ -102,7 +102,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		// faded parts known and draws it plain, so the faded view is the
 		// same layout greyed where the reduction took parts away
 		s.Circuit = c
-		s.Frames = stageFrames(r.Stages, reduced, c)
+		s.Frames = tankFrames(stageFrames(r.Stages, reduced, c), c)
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
 		s.FadedPins = droppedPins(c, reduced)
 		s.PinVolts = r.electrodeVolts()

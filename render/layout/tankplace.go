@@ -1,0 +1,337 @@
+package layout
+
+import (
+	"math"
+
+	"pare/graph"
+	"pare/render/geom"
+	"pare/render/symbol"
+)
+
+// tankReach is how much further out than the nearest place a tank
+// capacitor may stand beside its winding (render/check reports one more
+// than six grid steps from its winding).
+const tankReach = 6
+
+// tankAt is a capacitor's winding (tanks.go): the coil's cell, the
+// winding's end pins and, for one across the winding and its padder, the
+// end it shares.
+type tankAt struct {
+	coil *cell
+	ends [2]string
+	hot  string
+}
+
+// findTanks maps each capacitor across a winding to its winding, among
+// the sheet's cells.
+func (ly *state) findTanks() map[*cell]tankAt {
+	byRef := map[string]*cell{}
+	for _, cl := range ly.cells {
+		if cl.edge == 0 && !cl.conn {
+			byRef[cl.ref] = cl
+		}
+	}
+	out := map[*cell]tankAt{}
+	for _, t := range Tanks(ly.c) {
+		cp, coil := byRef[t.Cap], byRef[t.Coil]
+		if cp != nil && coil != nil {
+			out[cp] = tankAt{coil: coil, ends: t.Ends, hot: t.Hot}
+		}
+	}
+	return out
+}
+
+// tankRanks puts each tank capacitor in its winding's layer, never as a
+// shunt before an active part: it stands beside the coil.
+func (ly *state) tankRanks(rank map[string]int) {
+	for cp, t := range ly.tankOf {
+		if r, ok := rank[t.coil.ref]; ok {
+			rank[cp.ref] = r
+			delete(ly.before, cp.ref)
+		}
+	}
+}
+
+// orientTanks turns each tank capacitor parallel to its winding, its pin
+// on the winding's upper (left) end up (left), unless that would point a
+// ground or low rail up: then it keeps its own turn and still stands
+// beside the winding.
+func (ly *state) orientTanks() {
+	for _, cp := range ly.tankCells() {
+		t := ly.tankOf[cp]
+		if _, fixed := ly.turns[cp.ref]; fixed {
+			continue
+		}
+		top, bottom := t.coil.shape.Pin(t.ends[0]), t.coil.shape.Pin(t.ends[1])
+		if top == nil || bottom == nil {
+			continue
+		}
+		vertical := top.At.X == bottom.At.X
+		if vertical && top.At.Y > bottom.At.Y || !vertical && top.At.X > bottom.At.X {
+			top, bottom = bottom, top
+		}
+		upNet := top.Net
+		if t.hot != "" && t.hot != top.Name {
+			continue // across the winding and its padder from the lower end
+		}
+		base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.o.marksOf(cp.part))
+		want := geom.Up
+		if !vertical {
+			want = geom.Left
+		}
+		for i, o := range base.Turns {
+			s := base.Oriented(o)
+			if !groundDown(ly.c, cp.part, s) {
+				continue
+			}
+			for _, p := range s.Pins {
+				if ly.sameNet(p.Net, upNet) && p.Dir == want {
+					cp.shape, cp.turn = s, i
+				}
+			}
+		}
+	}
+}
+
+// sameNet says whether two nets are one for a tank: the same net, or both
+// at AC ground.
+func (ly *state) sameNet(a, b string) bool {
+	return a == b || ly.c.RoleOf(a).IsACGround() && ly.c.RoleOf(b).IsACGround()
+}
+
+// tankCells are the tank capacitors in cell order.
+func (ly *state) tankCells() []*cell {
+	var out []*cell
+	for _, cl := range ly.cells {
+		if _, ok := ly.tankOf[cl]; ok {
+			out = append(out, cl)
+		}
+	}
+	return out
+}
+
+// tankBlocks makes a block of each winding with capacitors across it: an
+// upright two-terminal or tapped coil stands among its capacitors side by
+// side (arrange), a transformer or a coil lying down has them beside its
+// winding (standTank). It returns the blocks and the cells they hold.
+func (ly *state) tankBlocks(chains map[*cell][]*cell) (map[*cell]*block, map[*cell]bool) {
+	byCoil := map[*cell][]*cell{}
+	var coils []*cell
+	for _, cp := range ly.tankCells() {
+		t := ly.tankOf[cp]
+		if _, ok := byCoil[t.coil]; !ok {
+			coils = append(coils, t.coil)
+		}
+		byCoil[t.coil] = append(byCoil[t.coil], cp)
+	}
+	blocks := map[*cell]*block{}
+	held := map[*cell]bool{}
+	for _, coil := range coils {
+		caps := byCoil[coil]
+		b := &block{cells: []*cell{coil}, col: coil.col, chain: chains[coil]}
+		side := coil.part.Kind != graph.Transformer && isVertical(coil) && len(b.chain) == 0
+		for _, cp := range caps {
+			side = side && isVertical(cp)
+		}
+		if side {
+			b.cells = append(b.cells, caps...)
+		} else {
+			b.chain, b.tank = caps, true
+		}
+		blocks[coil] = b
+		held[coil] = true
+		for _, cl := range append(append([]*cell{}, caps...), chains[coil]...) {
+			cl.col = coil.col
+			held[cl] = true
+		}
+	}
+	return blocks, held
+}
+
+// standTank stands each capacitor of a tank block beside its winding, on
+// the winding's outer side (left of a transformer's left coils, right of
+// its right ones; above a coil lying down), its upper pin a step below
+// the winding's upper pin so the wire from it turns down into the
+// capacitor, labels outwards. Where the winding's own rail tags fill that
+// side, a capacitor whose far end is a rail drawn upwards stands over
+// the winding's upper end instead, hanging from it; short of both, it
+// stands clear of the block.
+func (ly *state) standTank(b *block) {
+	coil := b.cells[0]
+	taken := []geom.Rect{coil.shape.Box, coil.label.Box}
+	for _, l := range coil.locals {
+		taken = append(taken, l.Box)
+	}
+	for _, cp := range b.chain {
+		t := ly.tankOf[cp]
+		p1, p2 := coil.shape.Pin(t.ends[0]), coil.shape.Pin(t.ends[1])
+		if p1 == nil || p2 == nil {
+			continue
+		}
+		if p1.At.Y > p2.At.Y || p1.At.Y == p2.At.Y && p1.At.X > p2.At.X {
+			p1, p2 = p2, p1
+		}
+		dir := p1.Dir
+		switch {
+		case dir == geom.Left || dir == geom.Right:
+		case p1.At.X == p2.At.X: // an upright coil's ends: beside it, right
+			dir = geom.Right
+		default: // a coil lying down: above it
+			dir = geom.Up
+		}
+		if !ly.besideWinding(cp, p1, p2, dir, taken) && !ly.overWinding(cp, p1, dir, taken) {
+			ly.clearOf(cp, b, dir)
+		}
+		taken = append(taken, cp.shape.Box, cp.label.Box)
+		for _, l := range cp.locals {
+			taken = append(taken, l.Box)
+		}
+		b.fp = b.fp.Union(cp.footprint())
+	}
+}
+
+// clashes says whether any of a cell's boxes overlaps a taken one.
+func clashes(cl *cell, taken []geom.Rect) bool {
+	boxes := []geom.Rect{cl.shape.Box, cl.label.Box}
+	for _, l := range cl.locals {
+		boxes = append(boxes, l.Box)
+	}
+	for _, a := range boxes {
+		if a == (geom.Rect{}) {
+			continue
+		}
+		for _, t := range taken {
+			if t != (geom.Rect{}) && a.Inset(-0.2).Overlaps(t) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// besideWinding tries the capacitor beside the winding, two steps out
+// from its pins and up to tankReach further, and keeps the first place
+// clear of the block.
+func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, taken []geom.Rect) bool {
+	prefs := []geom.Dir{dir, geom.Down, geom.Up, opposite4(dir)}
+	if dir == geom.Up {
+		prefs = []geom.Dir{geom.Up, geom.Right, geom.Left, geom.Down}
+	}
+	placeLabel(ly.c, cp, prefs)
+	top, bot := ends2(cp)
+	for k := 0.0; k <= tankReach; k++ {
+		var d geom.Pt
+		switch dir {
+		case geom.Left:
+			d = geom.Pt{X: p1.At.X - 2 - k - cp.shape.Box.X1, Y: p1.At.Y + 1 - top.At.Y}
+		case geom.Right:
+			d = geom.Pt{X: p1.At.X + 2 + k - cp.shape.Box.X0, Y: p1.At.Y + 1 - top.At.Y}
+		default:
+			d = geom.Pt{X: p1.At.X - top.At.X, Y: math.Min(p1.At.Y, p2.At.Y) - 2 - k - cp.shape.Box.Y1}
+		}
+		d.X = math.Round(d.X)
+		if dir != geom.Up && p2.At.Y-p1.At.Y >= 6 {
+			// a long winding: the capacitor centred on it
+			d.Y = math.Round((p1.At.Y+p2.At.Y)/2 - (top.At.Y+bot.At.Y)/2)
+		}
+		cp.move(d)
+		if !clashes(cp, taken) {
+			return true
+		}
+		cp.move(geom.Pt{X: -d.X, Y: -d.Y})
+	}
+	return false
+}
+
+// overWinding stands the capacitor over the winding's upper end, hanging
+// from it, when its other end is a rail drawn upwards (a transistor IF
+// can's capacitor to the supply): the rail tag on top, as the trade draws
+// a decoupled winding's cold end.
+func (ly *state) overWinding(cp *cell, p1 *geom.Pin, dir geom.Dir, taken []geom.Rect) bool {
+	if dir != geom.Left && dir != geom.Right {
+		return false
+	}
+	base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.o.marksOf(cp.part))
+	for i, o := range base.Turns {
+		s := base.Oriented(o)
+		var hot, rail *geom.Pin
+		for k := range s.Pins {
+			p := &s.Pins[k]
+			if p.Net == p1.Net && p.Dir == geom.Down {
+				hot = p
+			} else if want, ok := railWant(ly.c, cp.part, *p); ok && want == geom.Up && p.Dir == geom.Up && ly.c.RoleOf(p.Net).IsACGround() {
+				rail = p
+			}
+		}
+		if hot == nil || rail == nil {
+			continue
+		}
+		old, oldTurn, oldLocals, oldLabel := cp.shape, cp.turn, cp.locals, cp.label
+		cp.shape, cp.turn, cp.locals = s, i, nil
+		buildLocals(ly.c, cp)
+		side := dir
+		placeLabel(ly.c, cp, []geom.Dir{side, opposite4(side), geom.Up, geom.Down})
+		step := -1.0
+		if dir == geom.Right {
+			step = 1
+		}
+		for k := 3.0; k <= tankReach; k++ {
+			d := geom.Pt{X: math.Round(p1.At.X + step*k - hot.At.X), Y: p1.At.Y - 1 - hot.At.Y}
+			cp.move(d)
+			if !clashes(cp, taken) {
+				return true
+			}
+			cp.move(geom.Pt{X: -d.X, Y: -d.Y})
+		}
+		cp.shape, cp.turn, cp.locals, cp.label = old, oldTurn, oldLocals, oldLabel
+	}
+	return false
+}
+
+// clearOf stands the capacitor clear of the whole block on its side, as
+// near as it goes.
+func (ly *state) clearOf(cp *cell, b *block, dir geom.Dir) {
+	fp := cp.footprint()
+	var d geom.Pt
+	switch dir {
+	case geom.Left:
+		d.X = math.Floor(b.fp.X0 - 1 - fp.X1)
+	case geom.Right:
+		d.X = math.Ceil(b.fp.X1 + 1 - fp.X0)
+	default:
+		d.Y = math.Floor(b.fp.Y0 - 1 - fp.Y1)
+	}
+	cp.move(d)
+}
+
+// ends2 is a two-terminal cell's upper (left) pin and lower (right) one.
+func ends2(cl *cell) (a, b *geom.Pin) {
+	a, b = &cl.shape.Pins[0], &cl.shape.Pins[1]
+	if a.At.Y > b.At.Y || a.At.Y == b.At.Y && a.At.X > b.At.X {
+		a, b = b, a
+	}
+	return a, b
+}
+
+func opposite4(d geom.Dir) geom.Dir { return geom.Dir((int(d) + 2) % 4) }
+
+// tankFollows says whether a cell of block b is a capacitor across the
+// block's winding: a stage template that places the winding moves its
+// tank with it, listed or not (a Colpitts template places the coil, the
+// tuning capacitor beside it is the set's own).
+func (ly *state) tankFollows(cl *cell, b *block) bool {
+	t, ok := ly.tankOf[cl]
+	return ok && t.coil == b.cells[0]
+}
+
+// groundDown says whether no pin of a symbol returning to chassis or a
+// low rail points up. A tank capacitor may point its HT end down, as the
+// winding's cold end beside it does.
+func groundDown(c *graph.Circuit, part *graph.Part, s symbol.Shape) bool {
+	for _, p := range s.Pins {
+		if want, ok := railWant(c, part, p); ok && c.RoleOf(p.Net).IsACGround() && want == geom.Down && p.Dir == geom.Up {
+			return false
+		}
+	}
+	return true
+}
