@@ -34,14 +34,17 @@ func (r *Report) farTanks(g *geom.Sheet) {
 			onNet[p.Net] = append(onNet[p.Net], i)
 		}
 	}
-	// returns: the net goes to AC ground through a capacitor other than
-	// not, and holds nothing but resistors and capacitors besides coil
+	// returns: the net goes to AC ground through a fixed capacitor other
+	// than not, and holds nothing but resistors and fixed capacitors
+	// besides coil (a padder, a decoupled cold end)
 	returns := func(net string, coil, not int) bool {
 		found := false
 		for _, i := range onNet[net] {
 			s := g.Symbols[i]
 			switch {
 			case i == coil || i == not || s.Kind == "resistor":
+			case s.Kind == "capacitor" && (s.Type == "variable" || s.Type == "trimmer"):
+				return false // the hot end a gang section or trimmer tunes
 			case s.Kind == "capacitor" && len(s.Pins) == 2:
 				found = found || acg[s.Pins[0].Net] || acg[s.Pins[1].Net]
 			default:

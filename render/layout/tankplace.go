@@ -55,13 +55,11 @@ func (ly *state) tankRanks(rank map[string]int) {
 // orientTanks turns each tank capacitor parallel to its winding, its pin
 // on the winding's upper (left) end up (left), unless that would point a
 // ground or low rail up: then it keeps its own turn and still stands
-// beside the winding.
+// beside the winding. The untangle search's turns do not apply: a
+// capacitor lying across a winding's side reads as a series part.
 func (ly *state) orientTanks() {
 	for _, cp := range ly.tankCells() {
 		t := ly.tankOf[cp]
-		if _, fixed := ly.turns[cp.ref]; fixed {
-			continue
-		}
 		top, bottom := t.coil.shape.Pin(t.ends[0]), t.coil.shape.Pin(t.ends[1])
 		if top == nil || bottom == nil {
 			continue
@@ -162,8 +160,14 @@ func (ly *state) standTank(b *block) {
 	for _, l := range coil.locals {
 		taken = append(taken, l.Box)
 	}
-	for _, cp := range b.chain {
+	for i, cp := range b.chain {
 		t := ly.tankOf[cp]
+		// another capacitor on this winding stands further out: this
+		// one's label goes under it, out of the way
+		inner := false
+		for _, later := range b.chain[i+1:] {
+			inner = inner || ly.tankOf[later].ends == t.ends
+		}
 		p1, p2 := coil.shape.Pin(t.ends[0]), coil.shape.Pin(t.ends[1])
 		if p1 == nil || p2 == nil {
 			continue
@@ -179,7 +183,7 @@ func (ly *state) standTank(b *block) {
 		default: // a coil lying down: above it
 			dir = geom.Up
 		}
-		if !ly.besideWinding(cp, p1, p2, dir, taken) && !ly.overWinding(cp, p1, dir, taken) {
+		if !ly.besideWinding(cp, p1, p2, dir, inner, taken) && !ly.overWinding(cp, p1, dir, taken) {
 			ly.clearOf(cp, b, dir)
 		}
 		taken = append(taken, cp.shape.Box, cp.label.Box)
@@ -212,9 +216,12 @@ func clashes(cl *cell, taken []geom.Rect) bool {
 // besideWinding tries the capacitor beside the winding, two steps out
 // from its pins and up to tankReach further, and keeps the first place
 // clear of the block.
-func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, taken []geom.Rect) bool {
+func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, inner bool, taken []geom.Rect) bool {
 	prefs := []geom.Dir{dir, geom.Down, geom.Up, opposite4(dir)}
-	if dir == geom.Up {
+	switch {
+	case inner && dir != geom.Up:
+		prefs = []geom.Dir{geom.Down, geom.Up, dir, opposite4(dir)}
+	case dir == geom.Up:
 		prefs = []geom.Dir{geom.Up, geom.Right, geom.Left, geom.Down}
 	}
 	placeLabel(ly.c, cp, prefs)

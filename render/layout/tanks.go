@@ -86,9 +86,10 @@ func Tanks(c *graph.Circuit) []TankCap {
 func wired(n string) bool { return n != "" && n != notConnected }
 
 // returns says whether a winding's cold-end net returns to AC ground
-// through a capacitor other than cp and carries only resistors and
-// capacitors besides the winding: a padder or a decoupled cold end, not a
-// pi network's far side (which feeds a device, a port or another winding).
+// through a fixed capacitor other than cp and carries only resistors and
+// fixed capacitors besides the winding: a padder or a decoupled cold end,
+// not a pi network's far side (which feeds a device, a port or another
+// winding), nor the hot end a gang section or trimmer tunes.
 func returns(c *graph.Circuit, onNet map[string][]*graph.Part, coil, cp *graph.Part, net string) bool {
 	if c.RoleOf(net).IsACGround() {
 		return false
@@ -98,6 +99,8 @@ func returns(c *graph.Circuit, onNet map[string][]*graph.Part, coil, cp *graph.P
 		switch {
 		case p == coil || p == cp:
 		case p.Kind == graph.Resistor:
+		case p.Kind == graph.Capacitor && len(p.Pins) == 2 && (p.Type == graph.CapVariable || p.Type == graph.CapTrimmer):
+			return false // a gang section or trimmer: the tank's hot end
 		case p.Kind == graph.Capacitor && len(p.Pins) == 2:
 			other := p.Pins[0].Net
 			if other == net {

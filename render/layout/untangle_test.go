@@ -110,7 +110,7 @@ func TestCrowdedSheetRoutedOnce(t *testing.T) {
 		budget, want int
 	}{
 		{1, 1},              // over budget after the plain layout: that one only
-		{untangleBudget, 3}, // as Layout runs it: plain, lined up, shortest first
+		{untangleBudget, 3}, // as Layout runs it: plain, lined up, shortest first (and single changes while the budget lasts)
 	} {
 		u := &untangler{c: c, o: o, seen: map[string]*wiring{}, sc: new(scratch), budget: tc.budget}
 		plain := u.layout(nil, false)
@@ -118,7 +118,7 @@ func TestCrowdedSheetRoutedOnce(t *testing.T) {
 			t.Fatal("the sampler's plain layout has no crossing; the test needs one")
 		}
 		u.untangle(plain)
-		if len(u.seen) != tc.want {
+		if len(u.seen) != tc.want && (tc.budget == 1 || len(u.seen) < tc.want) {
 			t.Errorf("budget %d: %d placements routed, want %d", tc.budget, len(u.seen), tc.want)
 		}
 	}

@@ -39,7 +39,7 @@ func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
 			}
 			out.Part(p.Ref).Pins[i].Rail = was
 			if out.Net(was) == nil && !hasRail(out, was) {
-				n := graph.Net{Name: was, Role: graph.Supply, Fed: from, Label: lineLabel(r.Circuit, was)}
+				n := graph.Net{Name: was, Role: graph.Supply, Fed: from, Label: lineLabel(r.Circuit, lines, was)}
 				out.Rails = append(out.Rails, &n)
 				sort.Slice(out.Rails, func(a, b int) bool { return out.Rails[a].Name < out.Rails[b].Name })
 			}
@@ -60,11 +60,19 @@ func hasRail(c *graph.Circuit, name string) bool {
 	return false
 }
 
-// lineLabel is a supply line's tag: its own label, else its name in
-// capitals ("HT3"), as a service sheet names an undeclared line.
-func lineLabel(c *graph.Circuit, net string) string {
-	if n := c.Net(net); n != nil && n.Label != "" {
-		return graph.WithoutVolts(n.Label)
+// lineLabel is a supply line's tag: its own label, else that of the
+// nearest labelled line feeding it ("HT2 smoothed" for a line decoupled
+// from it), without a voltage; else its name in capitals ("HT3"), as a
+// service sheet names an undeclared line.
+func lineLabel(c *graph.Circuit, lines map[string]string, net string) string {
+	for n, seen := net, map[string]bool{}; !seen[n]; n = lines[n] {
+		seen[n] = true
+		if nn := c.Net(n); nn != nil && nn.Label != "" {
+			return graph.WithoutVolts(nn.Label)
+		}
+		if _, ok := lines[n]; !ok {
+			break
+		}
 	}
 	return strings.ToUpper(net)
 }
