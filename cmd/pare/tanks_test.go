@@ -8,7 +8,7 @@ import (
 
 // TestTanksBesideWindings: a tuned circuit's L and C stand side by side
 // (common practice; ../shared/DRAWING-NOTES.md): render/check's FarTanks
-// lists each capacitor across a winding drawn more than six grid steps
+// lists each capacitor across a winding drawn more than eight grid steps
 // from it. Every view of every example must have none; the fixtures'
 // (the gallery's and the sheets review's circuits, testdata/review12) are
 // logged, so a class the placement does not yet stand together shows.

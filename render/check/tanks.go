@@ -8,13 +8,14 @@ import (
 )
 
 // tankReach is the farthest, in grid steps, a capacitor across a winding
-// may stand from it: the trade draws a tuned circuit's L and C side by
-// side (common practice), a wire's run and a label apart at most.
-const tankReach = 6.0
+// may stand from it, or from another capacitor standing beside the same
+// winding: the trade draws a tuned circuit's L and C side by side (common
+// practice), a wire's run, a rail tag and a label apart at most.
+const tankReach = 8.0
 
 // farTanks reports each capacitor across a winding drawn more than
 // tankReach from it, measured from the capacitor's body to the winding's
-// pins. A capacitor is across a winding when its nets are the winding's
+// pins, unless it stands that near another capacitor of the same tank. A capacitor is across a winding when its nets are the winding's
 // two ends (nets at AC ground, those with a ground or rail symbol,
 // counting as one), or one end and AC ground while the other end returns
 // to AC ground through another capacitor and carries only resistors and
@@ -54,6 +55,12 @@ func (r *Report) farTanks(g *geom.Sheet) {
 		return found && !acg[net]
 	}
 	used := map[int]bool{}
+	type tankCap struct {
+		cap, coil int
+		w         [2]string
+		gap       float64
+	}
+	var found []tankCap
 	for ci, coil := range g.Symbols {
 		if coil.Type == "choke" {
 			continue
@@ -82,10 +89,31 @@ func (r *Report) farTanks(g *geom.Sheet) {
 				if coil.Kind != "transformer" {
 					span = coil.Box
 				}
-				if d := rectGap(s.Box, span); d > tankReach+geom.Eps {
-					r.FarTanks = append(r.FarTanks, fmt.Sprintf("capacitor %s across %s's winding %s-%s stands %g from it", s.Ref, coil.Ref, w[0], w[1], d))
-				}
+				found = append(found, tankCap{k, ci, w, rectGap(s.Box, span)})
 			}
+		}
+	}
+	// a capacitor beside another that stands beside the same winding (a
+	// trimmer beside the gang section) is part of the tank too
+	near := map[int]bool{}
+	for grown := true; grown; {
+		grown = false
+		for _, a := range found {
+			if near[a.cap] {
+				continue
+			}
+			ok := a.gap <= tankReach+geom.Eps
+			for _, b := range found {
+				ok = ok || near[b.cap] && b.coil == a.coil && b.w == a.w && rectGap(g.Symbols[a.cap].Box, g.Symbols[b.cap].Box) <= tankReach+geom.Eps
+			}
+			if ok {
+				near[a.cap], grown = true, true
+			}
+		}
+	}
+	for _, a := range found {
+		if !near[a.cap] {
+			r.FarTanks = append(r.FarTanks, fmt.Sprintf("capacitor %s across %s's winding %s-%s stands %g from it", g.Symbols[a.cap].Ref, g.Symbols[a.coil].Ref, a.w[0], a.w[1], a.gap))
 		}
 	}
 }

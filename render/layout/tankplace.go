@@ -10,7 +10,7 @@ import (
 
 // tankReach is how much further out than the nearest place a tank
 // capacitor may stand beside its winding (render/check reports one more
-// than six grid steps from its winding).
+// than eight grid steps from its winding).
 const tankReach = 6
 
 // tankAt is a capacitor's winding (tanks.go): the coil's cell, the
@@ -220,7 +220,9 @@ func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, inner b
 	prefs := []geom.Dir{dir, geom.Down, geom.Up, opposite4(dir)}
 	switch {
 	case inner && dir != geom.Up:
-		prefs = []geom.Dir{geom.Down, geom.Up, dir, opposite4(dir)}
+		// under its ground or rail symbol, however far: beside it stands
+		// the next capacitor
+		prefs = []geom.Dir{geom.Down}
 	case dir == geom.Up:
 		prefs = []geom.Dir{geom.Up, geom.Right, geom.Left, geom.Down}
 	}
