@@ -169,6 +169,7 @@ func (ly *state) stages() map[string]int {
 			}
 		}
 	}
+	ly.railStages(st, stageOf)
 	for cp, t := range ly.tankOf {
 		// a tank capacitor no frame holds stands in its winding's stage
 		if _, framed := stageOf(cp); !framed {

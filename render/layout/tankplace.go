@@ -150,7 +150,8 @@ func (ly *state) tankBlocks(chains map[*cell][]*cell) (map[*cell]*block, map[*ce
 // the winding's outer side (left of a transformer's left coils, right of
 // its right ones; above a coil lying down), its upper pin a step below
 // the winding's upper pin so the wire from it turns down into the
-// capacitor, labels outwards. Where the winding's own rail tags fill that
+// capacitor (levelTo: whichever of its pins is wired, from the side it
+// faces), labels outwards. Where the winding's own rail tags fill that
 // side, a capacitor whose far end is a rail drawn upwards stands over
 // the winding's upper end instead, hanging from it; short of both, it
 // stands clear of the block.
@@ -239,7 +240,13 @@ func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, inner b
 			d = geom.Pt{X: p1.At.X - top.At.X, Y: math.Min(p1.At.Y, p2.At.Y) - 2 - k - cp.shape.Box.Y1}
 		}
 		d.X = math.Round(d.X)
-		if dir != geom.Up && p2.At.Y-p1.At.Y >= 6 {
+		if dir != geom.Up {
+			if y, ok := ly.levelTo(cp, p1, p2); ok {
+				d.Y = y
+			}
+		}
+		wiredBoth := !ly.c.RoleOf(p1.Net).IsACGround() && !ly.c.RoleOf(p2.Net).IsACGround()
+		if dir != geom.Up && wiredBoth && p2.At.Y-p1.At.Y >= 6 {
 			// a long winding: the capacitor centred on it
 			d.Y = math.Round((p1.At.Y+p2.At.Y)/2 - (top.At.Y+bot.At.Y)/2)
 		}
@@ -343,4 +350,67 @@ func groundDown(c *graph.Circuit, part *graph.Part, s symbol.Shape) bool {
 		}
 	}
 	return true
+}
+
+// railStages gives each part that only touches rails (a heater bypass, a
+// rail's capacitor) and that no frame holds the stage of the part railLayers
+// stood it beside: the lowest-ranked part sharing a rail with it, so it
+// stands next to that part's electrode, not after every frame (a heater
+// bypass was drawn beyond the loudspeaker, outside any frame).
+func (ly *state) railStages(st map[string]int, framed func(*cell) (int, bool)) {
+	onNet := map[string][]*cell{}
+	for _, cl := range ly.cells {
+		for _, pn := range cl.part.Pins {
+			if wired(pn.Net) && ly.c.RoleOf(pn.Net) != graph.Ground {
+				onNet[pn.Net] = append(onNet[pn.Net], cl)
+			}
+		}
+	}
+	for _, cl := range ly.cells {
+		if _, ok := st[cl.ref]; ok || cl.edge != 0 || cl.conn || len(ly.signalNets(cl)) > 0 {
+			continue
+		}
+		if _, ok := framed(cl); ok {
+			continue
+		}
+		var best *cell
+		for _, pn := range cl.part.Pins {
+			for _, nb := range onNet[pn.Net] {
+				if _, ok := st[nb.ref]; !ok || nb == cl || len(ly.signalNets(nb)) == 0 {
+					continue
+				}
+				if best == nil || ly.rankOf[nb.ref] < ly.rankOf[best.ref] {
+					best = nb
+				}
+			}
+		}
+		if best != nil {
+			st[cl.ref] = st[best.ref]
+		}
+	}
+}
+
+// levelTo is how far a capacitor standing beside a winding moves down so
+// that its pin on a wired end of the winding (the upper end first) stands
+// a step past that end's pin the way the capacitor's pin points: the wire
+// from the winding runs out and turns into the capacitor's pin from the
+// side it faces.
+func (ly *state) levelTo(cp *cell, p1, p2 *geom.Pin) (float64, bool) {
+	for _, p := range []*geom.Pin{p1, p2} {
+		if ly.c.RoleOf(p.Net).IsACGround() {
+			continue
+		}
+		for _, q := range cp.shape.Pins {
+			if q.Net != p.Net {
+				continue
+			}
+			switch q.Dir {
+			case geom.Up:
+				return p.At.Y + 1 - q.At.Y, true
+			case geom.Down:
+				return p.At.Y - 1 - q.At.Y, true
+			}
+		}
+	}
+	return 0, false
 }
