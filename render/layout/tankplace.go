@@ -23,7 +23,8 @@ type tankAt struct {
 }
 
 // findTanks maps each capacitor across a winding to its winding, among
-// the sheet's cells.
+// the sheet's cells, unless the frames given put the two in different
+// stages (the pipeline puts them in one, tankFrames).
 func (ly *state) findTanks() map[*cell]tankAt {
 	byRef := map[string]*cell{}
 	for _, cl := range ly.cells {
@@ -31,9 +32,22 @@ func (ly *state) findTanks() map[*cell]tankAt {
 			byRef[cl.ref] = cl
 		}
 	}
+	frame := map[string]int{}
+	for i, f := range ly.o.Frames {
+		for _, r := range f.Parts {
+			if _, ok := frame[r]; !ok {
+				frame[r] = i
+			}
+		}
+	}
 	out := map[*cell]tankAt{}
 	for _, t := range Tanks(ly.c) {
 		cp, coil := byRef[t.Cap], byRef[t.Coil]
+		fc, okc := frame[t.Coil]
+		fk, okk := frame[t.Cap]
+		if okc && okk && fc != fk {
+			continue // framed apart by the caller: each stands in its own frame
+		}
 		if cp != nil && coil != nil {
 			out[cp] = tankAt{coil: coil, ends: t.Ends, hot: t.Hot}
 		}
@@ -117,6 +131,9 @@ func (ly *state) tankBlocks(chains map[*cell][]*cell) (map[*cell]*block, map[*ce
 	var coils []*cell
 	for _, cp := range ly.tankCells() {
 		t := ly.tankOf[cp]
+		if !ly.facesWinding(cp, t) {
+			continue
+		}
 		if _, ok := byCoil[t.coil]; !ok {
 			coils = append(coils, t.coil)
 		}
@@ -413,4 +430,35 @@ func (ly *state) levelTo(cp *cell, p1, p2 *geom.Pin) (float64, bool) {
 		}
 	}
 	return 0, false
+}
+
+// inTank says whether a cell is a tank capacitor: the untangle search
+// leaves it alone, since it turns and moves with its winding.
+func (ly *state) inTank(cl *cell) bool {
+	_, ok := ly.tankOf[cl]
+	return ok
+}
+
+// facesWinding says whether a tank capacitor could be turned the way its
+// winding runs (orientTanks): one whose winding has its chassis end on
+// top stands as a shunt of its own in the winding's column, under it (a
+// block beside a winding drawn chassis-up rearranged a mixer's stage into a
+// crossing).
+func (ly *state) facesWinding(cp *cell, t tankAt) bool {
+	top, bottom := t.coil.shape.Pin(t.ends[0]), t.coil.shape.Pin(t.ends[1])
+	if top == nil || bottom == nil || top.At.X != bottom.At.X {
+		return true
+	}
+	if top.At.Y > bottom.At.Y {
+		top = bottom
+	}
+	if ly.c.RoleOf(top.Net) != graph.Ground {
+		return true // a rail or signal end on top: beside it, facing it or not
+	}
+	for _, p := range cp.shape.Pins {
+		if ly.sameNet(p.Net, top.Net) && p.Dir == geom.Up {
+			return true
+		}
+	}
+	return false
 }

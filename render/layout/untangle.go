@@ -213,8 +213,8 @@ func (k *climb) try(trial map[string]int) {
 func (k *climb) singles() {
 	for pass := 0; pass < 2 && k.cur.crossings > 0; pass++ {
 		for _, cl := range k.cur.ly.cells {
-			if !k.cur.ly.crossing[cl.ref] || k.cur.crossings == 0 {
-				continue
+			if !k.cur.ly.crossing[cl.ref] || k.cur.crossings == 0 || k.cur.ly.inTank(cl) {
+				continue // a tank capacitor turns and moves with its winding
 			}
 			n := len(cl.turns)
 			for t := 0; t <= n+2 && k.u.tried < maxRetries && k.cur.crossings > 0; t++ {
@@ -246,7 +246,7 @@ func (k *climb) pairs() {
 		if k.cur.crossings == 0 || pairs >= maxPairTries {
 			break
 		}
-		if !k.cur.ly.crossing[a.ref] || len(a.turns) < 2 {
+		if !k.cur.ly.crossing[a.ref] || len(a.turns) < 2 || k.cur.ly.inTank(a) {
 			continue
 		}
 		for t := range a.turns {
@@ -254,7 +254,7 @@ func (k *climb) pairs() {
 				continue
 			}
 			for _, b := range k.cur.ly.cells {
-				if b == a || b.edge != 0 || pairs >= maxPairTries || k.cur.crossings == 0 || !shareNet(k.cur.ly, a, b) {
+				if b == a || b.edge != 0 || pairs >= maxPairTries || k.cur.crossings == 0 || !shareNet(k.cur.ly, a, b) || k.cur.ly.inTank(b) {
 					continue
 				}
 				pairs++
