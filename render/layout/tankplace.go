@@ -48,6 +48,9 @@ func (ly *state) findTanks() map[*cell]tankAt {
 		if okc && okk && fc != fk {
 			continue // framed apart by the caller: each stands in its own frame
 		}
+		if coil != nil && coil.part.Kind == graph.Transformer && ly.c.RoleOf(coil.part.NetOf(t.Ends[0])) == graph.Ground {
+			continue // a winding drawn chassis end up: its capacitor stays a shunt (facesWinding)
+		}
 		if cp != nil && coil != nil {
 			out[cp] = tankAt{coil: coil, ends: t.Ends, hot: t.Hot}
 		}
@@ -177,7 +180,17 @@ func (ly *state) standTank(b *block) {
 	taken := []geom.Rect{coil.shape.Box, coil.label.Box}
 	for _, l := range coil.locals {
 		taken = append(taken, l.Box)
+		for _, st := range l.Stub {
+			taken = append(taken, st.Box())
+		}
 	}
+	for _, p := range coil.shape.Pins {
+		// the way out of each wired pin (a tap's lead) stays free
+		if !ly.c.RoleOf(p.Net).IsACGround() {
+			taken = append(taken, corridor(p))
+		}
+	}
+
 	for i, cp := range b.chain {
 		t := ly.tankOf[cp]
 		// another capacitor on this winding stands further out: this
@@ -207,6 +220,9 @@ func (ly *state) standTank(b *block) {
 		taken = append(taken, cp.shape.Box, cp.label.Box)
 		for _, l := range cp.locals {
 			taken = append(taken, l.Box)
+			for _, st := range l.Stub {
+				taken = append(taken, st.Box())
+			}
 		}
 		b.fp = b.fp.Union(cp.footprint())
 	}
@@ -217,6 +233,9 @@ func clashes(cl *cell, taken []geom.Rect) bool {
 	boxes := []geom.Rect{cl.shape.Box, cl.label.Box}
 	for _, l := range cl.locals {
 		boxes = append(boxes, l.Box)
+		for _, st := range l.Stub {
+			boxes = append(boxes, st.Box().Inset(0.1))
+		}
 	}
 	for _, a := range boxes {
 		if a == (geom.Rect{}) {
