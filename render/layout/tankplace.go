@@ -145,6 +145,13 @@ func (ly *state) tankBlocks(chains map[*cell][]*cell) (map[*cell]*block, map[*ce
 	blocks := map[*cell]*block{}
 	held := map[*cell]bool{}
 	for _, coil := range coils {
+		if len(chains[coil]) > 0 {
+			// a padder chain stands beside this coil already (stackChain):
+			// a tank block would drop the chain and leave its parts on
+			// top of each other, so the capacitors across it stand as
+			// their own blocks in its layer
+			continue
+		}
 		caps := byCoil[coil]
 		b := &block{cells: []*cell{coil}, col: coil.col, chain: chains[coil]}
 		side := coil.part.Kind != graph.Transformer && isVertical(coil) && len(b.chain) == 0
