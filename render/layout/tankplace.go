@@ -48,7 +48,7 @@ func (ly *state) findTanks() map[*cell]tankAt {
 		if okc && okk && fc != fk {
 			continue // framed apart by the caller: each stands in its own frame
 		}
-		if coil != nil && coil.part.Kind == graph.Transformer && ly.endRole(coil.part, t.Ends[0]) == graph.Ground {
+		if coil != nil && coil.part.Kind == graph.Transformer && ly.c.RoleOf(coil.part.NetOf(t.Ends[0])) == graph.Ground {
 			continue // a winding drawn chassis end up: its capacitor stays a shunt (facesWinding)
 		}
 		if cp != nil && coil != nil {
@@ -465,19 +465,6 @@ func (ly *state) inTank(cl *cell) bool {
 	return ok
 }
 
-// endRole is the role a winding end is drawn for: the supply line it
-// returns to when the sheet tags it with one (a decoupled line the
-// reduction took to AC ground), else its net's role. Only an end drawn to
-// chassis is a winding's chassis end.
-func (ly *state) endRole(p *graph.Part, pin string) graph.Role {
-	if pn := p.Pin(pin); pn != nil && pn.Rail != "" {
-		if n := ly.c.ReturnOf(*pn); n != nil && n.Role.IsRail() {
-			return n.Role
-		}
-	}
-	return ly.c.RoleOf(p.NetOf(pin))
-}
-
 // facesWinding says whether a tank capacitor could be turned the way its
 // winding runs (orientTanks): one whose winding has its chassis end on
 // top stands as a shunt of its own in the winding's column, under it (a
@@ -491,7 +478,7 @@ func (ly *state) facesWinding(cp *cell, t tankAt) bool {
 	if top.At.Y > bottom.At.Y {
 		top = bottom
 	}
-	if pinRole(ly.c, t.coil.part, *top) != graph.Ground {
+	if ly.c.RoleOf(top.Net) != graph.Ground {
 		return true // a rail or signal end on top: beside it, facing it or not
 	}
 	for _, p := range cp.shape.Pins {
