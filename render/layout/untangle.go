@@ -2,6 +2,7 @@ package layout
 
 import (
 	"fmt"
+	"sort"
 	"sync"
 
 	"pare/graph"
@@ -242,7 +243,14 @@ func (k *climb) singles() {
 // together with a part it is wired to moved to the bottom of its column.
 func (k *climb) pairs() {
 	pairs := 0
-	for _, a := range k.cur.ly.cells {
+	// parts of more than two pins first: mirroring a transformer or
+	// turning a valve moves which side each of its nets leaves, where
+	// turning a two-terminal part mostly moves its label, and the tries
+	// are few (a self-oscillating mixer's crossing went on a capacitor's
+	// eight turns before its transformer was mirrored)
+	order := append([]*cell(nil), k.cur.ly.cells...)
+	sort.SliceStable(order, func(i, j int) bool { return len(order[i].shape.Pins) > 2 && len(order[j].shape.Pins) <= 2 })
+	for _, a := range order {
 		if k.cur.crossings == 0 || pairs >= maxPairTries {
 			break
 		}
