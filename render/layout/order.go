@@ -37,6 +37,11 @@ func (ly *state) order(cols [][]*block) {
 	for _, col := range cols {
 		rank := func(b *block) int {
 			k := kindRank(b)
+			if len(ly.signalNets(b.cells[0])) == 0 && b.cells[0].edge == 0 {
+				// a part on rails only (a battery, a heater bypass) stands
+				// under the signal path's parts, not among them
+				k = 3
+			}
 			if _, sunk := ly.turns[sinkKey+b.cells[0].ref]; sunk {
 				k += 3
 			}
