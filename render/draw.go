@@ -364,7 +364,10 @@ func (d *drawer) local(l geom.Local) {
 			d.prim(p)
 		}
 	case geom.LocalRail:
-		horizontal := l.Stub[0].A.X == l.Stub[0].B.X
+		// the bar lies across the stub's last run (a tank winding's tag
+		// may turn down beside its capacitor)
+		last := l.Stub[len(l.Stub)-1]
+		horizontal := last.A.X == last.B.X
 		for _, p := range symbol.RailBar(l.At, horizontal) {
 			d.prim(p)
 		}

@@ -89,10 +89,12 @@ func eachAtOnce(n int, fn func(i int)) {
 // every decoupled line's tag ("HT via R4 +241 V", "AGC line via R5") and
 // framed new audio stages (Zobel, complementary pair, bootstrap, bass and
 // treble), each moving the routes round them: 1480, 288 and 48, the one
-// time the ceiling rose, for tags that say what the line is; the tank
-// placement kept on its own branch (h/tanklayout: 1236, 278, 24) is the
-// way back down.
-var misreadCeiling = struct{ beside, inLine, endsNear int }{1480, 288, 48}
+// time the ceiling rose, for tags that say what the line is. Tuned
+// circuits drawn as one unit (each capacitor across a winding beside it,
+// render/layout tankplace.go; a winding's rail tag turned out of its
+// capacitor's way, tankretag.go) and parts on rails only kept under their
+// stage's signal path took them to 1222, 282 and 18.
+var misreadCeiling = struct{ beside, inLine, endsNear int }{1222, 282, 18}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame

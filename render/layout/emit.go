@@ -92,7 +92,9 @@ func (rt *router) free(l geom.Local, id int) bool {
 		}
 	}
 	pinCell := rt.index(l.Stub[0].A)
-	check(l.Stub[0].Box(), pinCell)
+	for _, st := range l.Stub { // a rail tag's stub may turn (tankretag.go)
+		check(st.Box(), pinCell)
+	}
 	check(l.Box, pinCell)
 	return ok
 }

@@ -88,3 +88,41 @@ func railText(n *graph.Net, name string) string {
 	}
 	return name
 }
+
+// railStages gives each part that only touches rails (a heater bypass, a
+// rail's capacitor) and that no frame holds the stage of the part railLayers
+// stood it beside: the lowest-ranked part sharing a rail with it, so it
+// stands next to that part's electrode, not after every frame (a heater
+// bypass was drawn beyond the loudspeaker, outside any frame).
+func (ly *state) railStages(st map[string]int, framed func(*cell) (int, bool)) {
+	onNet := map[string][]*cell{}
+	for _, cl := range ly.cells {
+		for _, pn := range cl.part.Pins {
+			if wired(pn.Net) && ly.c.RoleOf(pn.Net) != graph.Ground {
+				onNet[pn.Net] = append(onNet[pn.Net], cl)
+			}
+		}
+	}
+	for _, cl := range ly.cells {
+		if _, ok := st[cl.ref]; ok || cl.edge != 0 || cl.conn || len(ly.signalNets(cl)) > 0 {
+			continue
+		}
+		if _, ok := framed(cl); ok {
+			continue
+		}
+		var best *cell
+		for _, pn := range cl.part.Pins {
+			for _, nb := range onNet[pn.Net] {
+				if _, ok := st[nb.ref]; !ok || nb == cl || len(ly.signalNets(nb)) == 0 {
+					continue
+				}
+				if best == nil || ly.rankOf[nb.ref] < ly.rankOf[best.ref] {
+					best = nb
+				}
+			}
+		}
+		if best != nil {
+			st[cl.ref] = st[best.ref]
+		}
+	}
+}

@@ -48,9 +48,6 @@ func (ly *state) findTanks() map[*cell]tankAt {
 		if okc && okk && fc != fk {
 			continue // framed apart by the caller: each stands in its own frame
 		}
-		if coil != nil && coil.part.Kind == graph.Transformer && ly.c.RoleOf(coil.part.NetOf(t.Ends[0])) == graph.Ground {
-			continue // a winding drawn chassis end up: its capacitor stays a shunt (facesWinding)
-		}
 		if cp != nil && coil != nil {
 			out[cp] = tankAt{coil: coil, ends: t.Ends, hot: t.Hot}
 		}
@@ -86,8 +83,10 @@ func (ly *state) orientTanks() {
 			top, bottom = bottom, top
 		}
 		upNet := top.Net
-		if t.hot != "" && t.hot != top.Name {
-			continue // across the winding and its padder from the lower end
+		if t.hot != "" && (t.hot != top.Name || !vertical) {
+			// across the winding and its padder from the lower end, or
+			// from one end of a coil lying down to chassis: a shunt
+			continue
 		}
 		base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.o.marksOf(cp.part))
 		want := geom.Up
@@ -173,31 +172,19 @@ func (ly *state) tankBlocks(chains map[*cell][]*cell) (map[*cell]*block, map[*ce
 	return blocks, held
 }
 
-// standTank stands each capacitor of a tank block beside its winding, on
-// the winding's outer side (left of a transformer's left coils, right of
-// its right ones; above a coil lying down), its upper pin a step below
-// the winding's upper pin so the wire from it turns down into the
-// capacitor (levelTo: whichever of its pins is wired, from the side it
-// faces), labels outwards. Where the winding's own rail tags fill that
-// side, a capacitor whose far end is a rail drawn upwards stands over
-// the winding's upper end instead, hanging from it; short of both, it
-// stands clear of the block.
+// standTank stands each capacitor of a tank block by its winding, at the
+// first of these places clear of the block (tankTaken): under the lower
+// end of a transformer winding drawn chassis end up (underWinding); beside
+// the winding on its outer side (left of a transformer's left coils,
+// right of its right ones; above a coil lying down), its upper pin a step
+// below the winding's upper pin so the wire from it turns down into the
+// capacitor (besideWinding, levelTo); over the winding's upper end,
+// hanging from it, when its far end is a rail drawn upwards
+// (overWinding); under the lower end; beside the winding with the
+// winding's own rail tags on that side turned out of its way
+// (besideRetagged). Short of all of them it stands clear of the block.
 func (ly *state) standTank(b *block) {
 	coil := b.cells[0]
-	taken := []geom.Rect{coil.shape.Box, coil.label.Box}
-	for _, l := range coil.locals {
-		taken = append(taken, l.Box)
-		for _, st := range l.Stub {
-			taken = append(taken, st.Box())
-		}
-	}
-	for _, p := range coil.shape.Pins {
-		// the way out of each wired pin (a tap's lead) stays free
-		if !ly.c.RoleOf(p.Net).IsACGround() {
-			taken = append(taken, corridor(p))
-		}
-	}
-
 	for i, cp := range b.chain {
 		t := ly.tankOf[cp]
 		// another capacitor on this winding stands further out: this
@@ -221,15 +208,16 @@ func (ly *state) standTank(b *block) {
 		default: // a coil lying down: above it
 			dir = geom.Up
 		}
-		if !ly.besideWinding(cp, p1, p2, dir, inner, taken) && !ly.overWinding(cp, p1, dir, taken) {
+		taken := ly.tankTaken(b, cp, nil)
+		up := ly.chassisUp(coil, p1, p2)
+		switch {
+		case up && ly.underWinding(cp, p2, taken):
+		case ly.besideWinding(cp, p1, p2, dir, inner, taken):
+		case ly.overWinding(cp, p1, dir, taken):
+		case !up && ly.underWinding(cp, p2, taken):
+		case ly.besideRetagged(b, cp, p1, p2, dir, inner):
+		default:
 			ly.clearOf(cp, b, dir)
-		}
-		taken = append(taken, cp.shape.Box, cp.label.Box)
-		for _, l := range cp.locals {
-			taken = append(taken, l.Box)
-			for _, st := range l.Stub {
-				taken = append(taken, st.Box())
-			}
 		}
 		b.fp = b.fp.Union(cp.footprint())
 	}
@@ -249,7 +237,9 @@ func clashes(cl *cell, taken []geom.Rect) bool {
 			continue
 		}
 		for _, t := range taken {
-			if t != (geom.Rect{}) && a.Inset(-0.2).Overlaps(t) {
+			// touching is fine, any overlap is not: the sheet checker
+			// reports a label reaching 0.12 into a capacitor's box
+			if t != (geom.Rect{}) && a.Overlaps(t) {
 				return true
 			}
 		}
@@ -302,67 +292,6 @@ func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, inner b
 	return false
 }
 
-// overWinding stands the capacitor over the winding's upper end, hanging
-// from it, when its other end is a rail drawn upwards (a transistor IF
-// can's capacitor to the supply): the rail tag on top, as the trade draws
-// a decoupled winding's cold end.
-func (ly *state) overWinding(cp *cell, p1 *geom.Pin, dir geom.Dir, taken []geom.Rect) bool {
-	if dir != geom.Left && dir != geom.Right {
-		return false
-	}
-	base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.o.marksOf(cp.part))
-	for i, o := range base.Turns {
-		s := base.Oriented(o)
-		var hot, rail *geom.Pin
-		for k := range s.Pins {
-			p := &s.Pins[k]
-			if p.Net == p1.Net && p.Dir == geom.Down {
-				hot = p
-			} else if want, ok := railWant(ly.c, cp.part, *p); ok && want == geom.Up && p.Dir == geom.Up && ly.c.RoleOf(p.Net).IsACGround() {
-				rail = p
-			}
-		}
-		if hot == nil || rail == nil {
-			continue
-		}
-		old, oldTurn, oldLocals, oldLabel := cp.shape, cp.turn, cp.locals, cp.label
-		cp.shape, cp.turn, cp.locals = s, i, nil
-		buildLocals(ly.c, cp)
-		side := dir
-		placeLabel(ly.c, cp, []geom.Dir{side, opposite4(side), geom.Up, geom.Down})
-		step := -1.0
-		if dir == geom.Right {
-			step = 1
-		}
-		for k := 3.0; k <= tankReach; k++ {
-			d := geom.Pt{X: math.Round(p1.At.X + step*k - hot.At.X), Y: p1.At.Y - 1 - hot.At.Y}
-			cp.move(d)
-			if !clashes(cp, taken) {
-				return true
-			}
-			cp.move(geom.Pt{X: -d.X, Y: -d.Y})
-		}
-		cp.shape, cp.turn, cp.locals, cp.label = old, oldTurn, oldLocals, oldLabel
-	}
-	return false
-}
-
-// clearOf stands the capacitor clear of the whole block on its side, as
-// near as it goes.
-func (ly *state) clearOf(cp *cell, b *block, dir geom.Dir) {
-	fp := cp.footprint()
-	var d geom.Pt
-	switch dir {
-	case geom.Left:
-		d.X = math.Floor(b.fp.X0 - 1 - fp.X1)
-	case geom.Right:
-		d.X = math.Ceil(b.fp.X1 + 1 - fp.X0)
-	default:
-		d.Y = math.Floor(b.fp.Y0 - 1 - fp.Y1)
-	}
-	cp.move(d)
-}
-
 // ends2 is a two-terminal cell's upper (left) pin and lower (right) one.
 func ends2(cl *cell) (a, b *geom.Pin) {
 	a, b = &cl.shape.Pins[0], &cl.shape.Pins[1]
@@ -393,44 +322,6 @@ func groundDown(c *graph.Circuit, part *graph.Part, s symbol.Shape) bool {
 		}
 	}
 	return true
-}
-
-// railStages gives each part that only touches rails (a heater bypass, a
-// rail's capacitor) and that no frame holds the stage of the part railLayers
-// stood it beside: the lowest-ranked part sharing a rail with it, so it
-// stands next to that part's electrode, not after every frame (a heater
-// bypass was drawn beyond the loudspeaker, outside any frame).
-func (ly *state) railStages(st map[string]int, framed func(*cell) (int, bool)) {
-	onNet := map[string][]*cell{}
-	for _, cl := range ly.cells {
-		for _, pn := range cl.part.Pins {
-			if wired(pn.Net) && ly.c.RoleOf(pn.Net) != graph.Ground {
-				onNet[pn.Net] = append(onNet[pn.Net], cl)
-			}
-		}
-	}
-	for _, cl := range ly.cells {
-		if _, ok := st[cl.ref]; ok || cl.edge != 0 || cl.conn || len(ly.signalNets(cl)) > 0 {
-			continue
-		}
-		if _, ok := framed(cl); ok {
-			continue
-		}
-		var best *cell
-		for _, pn := range cl.part.Pins {
-			for _, nb := range onNet[pn.Net] {
-				if _, ok := st[nb.ref]; !ok || nb == cl || len(ly.signalNets(nb)) == 0 {
-					continue
-				}
-				if best == nil || ly.rankOf[nb.ref] < ly.rankOf[best.ref] {
-					best = nb
-				}
-			}
-		}
-		if best != nil {
-			st[cl.ref] = st[best.ref]
-		}
-	}
 }
 
 // levelTo is how far a capacitor standing beside a winding moves down so
@@ -472,14 +363,22 @@ func (ly *state) inTank(cl *cell) bool {
 // crossing).
 func (ly *state) facesWinding(cp *cell, t tankAt) bool {
 	top, bottom := t.coil.shape.Pin(t.ends[0]), t.coil.shape.Pin(t.ends[1])
-	if top == nil || bottom == nil || top.At.X != bottom.At.X {
+	if top == nil || bottom == nil {
 		return true
+	}
+	if top.At.X != bottom.At.X {
+		// a coil lying down: a capacitor from one of its ends to chassis
+		// is that end's shunt, standing in the coil's layer on its own
+		return t.hot == ""
 	}
 	if top.At.Y > bottom.At.Y {
 		top = bottom
 	}
-	if ly.c.RoleOf(top.Net) != graph.Ground {
-		return true // a rail or signal end on top: beside it, facing it or not
+	if ly.c.RoleOf(top.Net) != graph.Ground || t.coil.part.Kind == graph.Transformer {
+		// a rail or signal end on top: beside it, facing it or not; a
+		// transformer's winding drawn chassis end up: hanging under its
+		// lower end (underWinding)
+		return true
 	}
 	for _, p := range cp.shape.Pins {
 		if ly.sameNet(p.Net, top.Net) && p.Dir == geom.Up {
