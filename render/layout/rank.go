@@ -22,6 +22,7 @@ func (ly *state) rank() {
 	}
 	ly.tankOf = ly.findTanks()
 	ly.tankRanks(rank)
+	ly.coldUnder(rank)
 	ly.rankOf = rank
 	ly.portSides(byNet)
 	ly.assignColumns()

@@ -165,3 +165,79 @@ func chainEnds(ws []graph.Winding) [][2]string {
 	}
 	return out
 }
+
+// coldUnder puts the faded shunts on a tuned winding's dead-end cold end
+// (an AGC line's capacitor and resistor to chassis) in the winding's
+// layer, to stand under it, as commonUnder does for a cathode's parts.
+// Ranked one layer on from the winding they took a column of their own
+// beyond the tank, which stands in the winding's layer (tankRanks), and
+// widened the stage: a self-oscillating mixer's IF can had its AGC
+// decoupler right of its secondary's capacitor and outgrew an A3 page at
+// 2.5 mm text. A cold end is a winding end that is not AC ground and
+// carries besides the winding and its tank capacitors only two-terminal
+// resistors and fixed capacitors to chassis. An end fed from a rail or
+// running on to another stage is left alone (moved, a feed's parts pulled
+// its rail's wires across the stage), and so are the parts of a reduced
+// sheet, which draws the signal path's own parts where they were.
+func (ly *state) coldUnder(rank map[string]int) {
+	tuned := map[*cell]bool{}
+	for _, t := range ly.tankOf {
+		tuned[t.coil] = true
+	}
+	onNet := ly.cellsByNet()
+	for _, coil := range ly.cells {
+		r, ok := rank[coil.ref]
+		if !tuned[coil] || !ok {
+			continue
+		}
+		for _, ends := range WindingEnds(coil.part) {
+			for _, end := range ends {
+				for _, cl := range ly.coldShunts(coil, coil.part.NetOf(end), onNet) {
+					rank[cl.ref] = r
+					delete(ly.before, cl.ref)
+				}
+			}
+		}
+	}
+}
+
+// coldShunts are the faded shunts to chassis on a winding's end net when
+// that net is a dead-end cold end (coldUnder), else none.
+func (ly *state) coldShunts(coil *cell, net string, onNet map[string][]*cell) []*cell {
+	if !wired(net) || ly.c.RoleOf(net).IsACGround() {
+		return nil
+	}
+	var out []*cell
+	for _, cl := range onNet[net] {
+		p := cl.part
+		switch {
+		case cl == coil:
+			continue
+		case cl.edge != 0 || cl.conn:
+			return nil
+		case p.Kind == graph.Resistor:
+		case p.Kind == graph.Capacitor && p.Type != graph.CapVariable && p.Type != graph.CapTrimmer:
+		default:
+			return nil
+		}
+		if _, tank := ly.tankOf[cl]; tank {
+			continue
+		}
+		if len(p.Pins) != 2 {
+			return nil
+		}
+		other := p.Pins[0].Net
+		if other == net {
+			other = p.Pins[1].Net
+		}
+		if ly.c.RoleOf(other) != graph.Ground {
+			// a feed from a rail or on to another stage: the end is not
+			// a dead end, its parts stay in their own layer
+			return nil
+		}
+		if cl.faded {
+			out = append(out, cl)
+		}
+	}
+	return out
+}
