@@ -13,6 +13,10 @@ import (
 // than eight grid steps from its winding).
 const tankReach = 6
 
+// labelUnderGap is how far under a tank capacitor's body its label may
+// stand (below its chassis symbol) before it goes back beside it.
+const labelUnderGap = 4
+
 // tankAt is a capacitor's winding (tanks.go): the coil's cell, the
 // winding's end pins and, for one across the winding and its padder, the
 // end it shares.
@@ -285,11 +289,33 @@ func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, inner b
 		}
 		cp.move(d)
 		if !clashes(cp, taken) {
+			if dir == geom.Left && ly.c.RoleOf(bot.Net) == graph.Ground && cp.part.Type == graph.CapTrimmer && p2.At.Y >= ly.tankOf[cp].coil.shape.Box.Y1 {
+				// a trimmer left of its coil's lowest winding, to chassis
+				ly.labelUnder(cp, taken)
+			}
 			return true
 		}
 		cp.move(geom.Pt{X: -d.X, Y: -d.Y})
 	}
 	return false
+}
+
+// labelUnder moves the label of a trimmer standing left of its winding,
+// its lower end at chassis, from its outer side to under its chassis
+// symbol when that place is close and clear of the block: on the outer
+// side its two lines (value, alignment step) widened the column by their
+// width (a self-oscillating mixer's stage outgrew an A3 page at 2.5 mm
+// text); under it they take height. The trimmer itself stays where it
+// stands. Only a trimmer, and only under the coil's lowest winding: with
+// fixed capacitors too (an IF can's) and under a winding with another
+// below it (a link winding's tag), the moved labels turned the untangle
+// search elsewhere and more wires read as joined (misreadCeiling).
+func (ly *state) labelUnder(cp *cell, taken []geom.Rect) {
+	side := cp.label
+	placeLabel(ly.c, cp, []geom.Dir{geom.Down})
+	if cp.label.Box.Y0-cp.shape.Box.Y1 > labelUnderGap || clashes(cp, taken) {
+		cp.label = side
+	}
 }
 
 // ends2 is a two-terminal cell's upper (left) pin and lower (right) one.
