@@ -92,49 +92,12 @@ func (m *model) floatingUsed(held []int, isHeld []bool, used func(int) bool) err
 // primitives in removed neither followed nor listed.
 func (m *model) blockWithout(seeds []int, isHeld []bool, removed map[int32]bool) *part {
 	m.gen++
-	g := m.gen
-	sub := &part{}
 	var queue []int
-	visit := func(n int) {
-		if n > 0 && !isHeld[n] && m.nodeMark[n] != g {
-			m.nodeMark[n] = g
+	for _, n := range seeds {
+		if n > 0 && !isHeld[n] && m.nodeMark[n] != m.gen {
+			m.nodeMark[n] = m.gen
 			queue = append(queue, n)
 		}
 	}
-	for _, n := range seeds {
-		visit(n)
-	}
-	for h := 0; h < len(queue); h++ {
-		v := queue[h]
-		sub.nodes = append(sub.nodes, v)
-		for _, i := range m.nodePrims[v] {
-			if m.primMark[i] == g || removed[i] {
-				continue
-			}
-			m.primMark[i] = g
-			sub.prims = append(sub.prims, int(i))
-			p := &m.nl.prims[i]
-			visit(p.a)
-			visit(p.b)
-			if p.kind == primVCCS {
-				visit(p.c)
-				visit(p.d)
-			}
-		}
-		for _, i := range m.nodeGroups[v] {
-			if m.grMark[i] == g {
-				continue
-			}
-			m.grMark[i] = g
-			sub.groups = append(sub.groups, int(i))
-			for _, w := range m.nl.groups[i].winds {
-				visit(w.a)
-				visit(w.b)
-			}
-		}
-	}
-	slices.Sort(sub.nodes)
-	slices.Sort(sub.prims)
-	slices.Sort(sub.groups)
-	return sub
+	return m.flood(queue, isHeld, removed)
 }

@@ -142,10 +142,17 @@ func (m *model) floating(driven int, held []int, isHeld []bool) error {
 // right-hand side), so the search starts there all the same.
 func (m *model) component(start int, isHeld []bool) *part {
 	m.gen++
+	m.nodeMark[start] = m.gen
+	return m.flood([]int{start}, isHeld, nil)
+}
+
+// flood grows a block from the nodes queued (already marked with m.gen):
+// every node a stamp or a winding group joins to one in the block, ground
+// and held nodes left out, the primitives in removed neither followed nor
+// listed. component and blockWithout share it.
+func (m *model) flood(queue []int, isHeld []bool, removed map[int32]bool) *part {
 	g := m.gen
 	sub := &part{}
-	queue := []int{start}
-	m.nodeMark[start] = g
 	visit := func(n int) {
 		if n > 0 && !isHeld[n] && m.nodeMark[n] != g {
 			m.nodeMark[n] = g
@@ -156,7 +163,7 @@ func (m *model) component(start int, isHeld []bool) *part {
 		v := queue[h]
 		sub.nodes = append(sub.nodes, v)
 		for _, i := range m.nodePrims[v] {
-			if m.primMark[i] == g {
+			if m.primMark[i] == g || removed[i] {
 				continue
 			}
 			m.primMark[i] = g
