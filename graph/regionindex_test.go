@@ -26,11 +26,7 @@ func TestRegionIndexAgrees(t *testing.T) {
 		}
 		circuits = append(circuits, c)
 	}
-	src, err := synth.Bank(1000, 1)
-	if err != nil {
-		t.Fatal(err)
-	}
-	bank, err := graph.Parse("bank.toml", src)
+	bank, err := synth.BankCircuit(1000, 1)
 	if err != nil {
 		t.Fatal(err)
 	}

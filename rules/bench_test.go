@@ -91,11 +91,7 @@ func TestChainReduces(t *testing.T) {
 //	go test -run XXX -bench ReduceBank -benchtime 1x ./rules/
 func BenchmarkReduceBank(b *testing.B) {
 	for _, parts := range []int{1000, 5000, 10000} {
-		src, err := synth.Bank(parts, 1)
-		if err != nil {
-			b.Fatal(err)
-		}
-		c, err := graph.Parse("bank.toml", src)
+		c, err := synth.BankCircuit(parts, 1)
 		if err != nil {
 			b.Fatal(err)
 		}

@@ -207,11 +207,7 @@ func BenchmarkCompareExample(b *testing.B) {
 //	go test -run XXX -bench CompareBank -benchtime 1x -cpu 1 ./graph/ac/
 func BenchmarkCompareBank(b *testing.B) {
 	for _, parts := range []int{100, 1000, 10000} {
-		src, err := synth.Bank(parts, 1)
-		if err != nil {
-			b.Fatal(err)
-		}
-		c, err := graph.Parse("bank.toml", src)
+		c, err := synth.BankCircuit(parts, 1)
 		if err != nil {
 			b.Fatal(err)
 		}

@@ -3,7 +3,6 @@ package ac
 import (
 	"testing"
 
-	"pare/graph"
 	"pare/internal/synth"
 )
 
@@ -14,11 +13,7 @@ import (
 //
 //	go test -run XXX -bench SolveBlock -cpu 1 ./graph/ac/
 func BenchmarkSolveBlock(b *testing.B) {
-	src, err := synth.Bank(1000, 1)
-	if err != nil {
-		b.Fatal(err)
-	}
-	c, err := graph.Parse("bank.toml", src)
+	c, err := synth.BankCircuit(1000, 1)
 	if err != nil {
 		b.Fatal(err)
 	}

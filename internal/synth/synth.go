@@ -40,6 +40,16 @@ func Load(t Template) (*graph.Circuit, error) {
 	return graph.Parse(name, src)
 }
 
+// BankCircuit is Bank loaded: the circuit every benchmark and test of a
+// whole set starts from.
+func BankCircuit(parts int, seed uint64) (*graph.Circuit, error) {
+	src, err := Bank(parts, seed)
+	if err != nil {
+		return nil, err
+	}
+	return graph.Parse("bank.toml", src)
+}
+
 // Bank returns the netlist of a receiver bank of about parts parts: as
 // many channels as fit, each a superhet or (one time in four, as the seed
 // draws it) a portable front end, with resistor values jittered by one

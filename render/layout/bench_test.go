@@ -112,11 +112,7 @@ func BenchmarkSynth(b *testing.B) {
 	})
 	for _, n := range []int{200, 2000} {
 		b.Run(fmt.Sprintf("bank-%d/full", n), func(b *testing.B) {
-			src, err := synth.Bank(n, 1)
-			if err != nil {
-				b.Fatal(err)
-			}
-			bank, err := graph.Parse("bank.toml", src)
+			bank, err := synth.BankCircuit(n, 1)
 			if err != nil {
 				b.Fatal(err)
 			}
@@ -130,11 +126,7 @@ func BenchmarkSynth(b *testing.B) {
 // gang links): the total for the bank, which should grow with the number
 // of channels and stay under a second of CPU at 2,000 parts.
 func BenchmarkBankChannels(b *testing.B) {
-	src, err := synth.Bank(2000, 1)
-	if err != nil {
-		b.Fatal(err)
-	}
-	bank, err := graph.Parse("bank.toml", src)
+	bank, err := synth.BankCircuit(2000, 1)
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -40,11 +40,7 @@ func BenchmarkStepProof(b *testing.B) {
 //	go test -run XXX -bench StepCut -benchtime 1x ./cmd/internal/pipeline/
 func BenchmarkStepCut(b *testing.B) {
 	for _, parts := range []int{1000, 5000, 10000} {
-		src, err := synth.Bank(parts, 1)
-		if err != nil {
-			b.Fatal(err)
-		}
-		c, err := graph.Parse("bank.toml", src)
+		c, err := synth.BankCircuit(parts, 1)
 		if err != nil {
 			b.Fatal(err)
 		}
