@@ -1,11 +1,8 @@
 package ac
 
 import (
-	"path/filepath"
 	"reflect"
 	"testing"
-
-	"pare/graph"
 )
 
 // A setting made from another setting's netlist (atSetting) is the
@@ -14,21 +11,9 @@ import (
 // the middle and a setting between. Derived from the code it stands in
 // for: the two must not differ by a bit.
 func TestAtSettingIsElaboration(t *testing.T) {
-	files, err := filepath.Glob("../../examples/*.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	more, _ := filepath.Glob("../../testdata/osc/*.toml")
-	files = append(files, more...)
-	if len(files) < 5 {
-		t.Fatalf("only %d circuits found", len(files))
-	}
 	checked := 0
-	for _, f := range files {
-		c, err := graph.LoadFile(f)
-		if err != nil {
-			t.Fatal(err)
-		}
+	for _, lc := range loopCircuits(t, 5) {
+		f, c := lc.file, lc.c
 		rs := NewResponses(c)
 		if _, err := rs.model(Options{VarFrac: 0.5, VarSet: true}); err != nil || rs.base == nil {
 			continue // nothing to make other settings from
