@@ -91,7 +91,7 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 	}
 	c.journal().saveNet(net)
 	n.Role = Supply
-	name := WithoutVolts(railLabel(from))
+	name := withoutRemarks(WithoutVolts(railLabel(from)))
 	if name == "" {
 		name = from.Name // a rail named only by its voltage ("+9 V"): its net's name
 	}
@@ -183,6 +183,26 @@ func WithoutVolts(label string) string {
 	}
 	return strings.Join(strings.Fields(label[:loc[0]]+" "+label[loc[1]:]), " ")
 }
+
+// withoutRemarks is a rail's label without its bracketed remarks ("HT1"
+// from "HT1 (reservoir)", "battery" from "battery (neg. earth drawn
+// positive)"): a remark describes the rail itself, not a line fed from it
+// through a resistor, which is no reservoir, and the tag stays short.
+// A label that is only a remark keeps it.
+func withoutRemarks(label string) string {
+	out := label
+	for remark.MatchString(out) { // nested remarks, inside out
+		out = remark.ReplaceAllString(out, " ")
+	}
+	out = strings.Join(strings.Fields(out), " ")
+	if out == "" {
+		return label
+	}
+	return out
+}
+
+// remark is a bracketed aside in a label, innermost brackets only.
+var remark = regexp.MustCompile(`\([^()]*\)`)
 
 // statedVolts is a voltage as a label states it: "+250 V", "−6V", "250 V".
 var statedVolts = regexp.MustCompile(`[+−-]?[0-9]+(?:\.[0-9]+)?\s?V\b`)

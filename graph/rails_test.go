@@ -1,6 +1,9 @@
 package graph
 
-import "testing"
+import (
+	"strings"
+	"testing"
+)
 
 // railsNetlist has a main HT rail, a decoupled B+ line declared as a rail of
 // its own, a negative bias rail and a signal net (invented values).
@@ -178,6 +181,37 @@ func TestMarkDecoupledBiasLine(t *testing.T) {
 		}
 		if n := c.Net(tc.net); n.Role != tc.role || n.Label != tc.label {
 			t.Errorf("%s: role %s label %q, want %s %q", tc.net, n.Role, n.Label, tc.role, tc.label)
+		}
+	}
+}
+
+// A decoupled line is named for the rail that feeds it without the rail
+// label's bracketed remarks: a line fed through a resistor from "HT1 +265 V
+// (reservoir)" is no reservoir (a blind review's output stage), and "-6 V
+// battery (neg. earth drawn positive)" made a 50-character tag beside every
+// winding end of another review circuit's IF stage.
+func TestDecoupledTagDropsRemarks(t *testing.T) {
+	for _, tc := range []struct{ label, want string }{
+		{"HT1 +265 V (reservoir)", "HT1 via R5"},
+		{"-6 V battery (neg. earth drawn positive)", "battery via R5"},
+		{"HT (main (smoothed)) +250 V", "HT via R5"},
+		{"HT +250 V", "HT via R5"},
+		{"(reservoir)", "(reservoir) via R5"},
+	} {
+		const ht = `label = "HT +250 V"`
+		if !strings.Contains(railsNetlist, ht) {
+			t.Fatal("rails netlist has no HT label to replace")
+		}
+		src := strings.Replace(railsNetlist, ht, `label = "`+tc.label+`"`, 1)
+		c, err := Parse("rails.toml", []byte(src))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !c.MarkDecoupled("d") {
+			t.Fatalf("%q: d not marked", tc.label)
+		}
+		if got := c.Net("d").Label; got != tc.want {
+			t.Errorf("rail %q: line tagged %q, want %q", tc.label, got, tc.want)
 		}
 	}
 }

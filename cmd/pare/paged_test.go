@@ -252,9 +252,9 @@ func sortedCopy(s []string) []string {
 // units wide, an IF strip with detector and AGC, a transistor preamplifier
 // with tone control) come out of the default (--page auto) as rows on A3
 // pages, each page's smallest text at least 2.5 mm on paper (IEC 61082-1),
-// with their stages whole. The transistor IF strip's (c04) reduced view is
-// left out: its first stage alone is wider than A3 at that scale (its rail
-// tags), which no cut between stages can mend.
+// with their stages whole. The transistor IF strip's (c04) reduced view
+// is held too: its first stage was wider than A3 at that scale until its
+// tank capacitors stood beside their windings.
 func TestAutoPagesPrintLegibly(t *testing.T) {
 	a3, _ := render.ParsePaper("A3")
 	cases := []struct {
@@ -262,7 +262,7 @@ func TestAutoPagesPrintLegibly(t *testing.T) {
 		views []render.View
 	}{
 		{"c03", []render.View{render.Reduced, render.Faded}},
-		{"c04", []render.View{render.Faded}},
+		{"c04", []render.View{render.Reduced, render.Faded}},
 		{"c05", []render.View{render.Reduced, render.Faded}},
 		{"c09", []render.View{render.Reduced, render.Faded}},
 	}
