@@ -17,21 +17,7 @@ import (
 // whichever way each step is proven (the independence of groups joined only
 // through AC ground: superposition, common practice).
 func TestLocalStepProofIsWhole(t *testing.T) {
-	paths, _ := filepath.Glob("../../../examples/*.toml")
-	good, _ := filepath.Glob("../../../testdata/good/*.toml")
-	paths = append(paths, good...)
-	if !testing.Short() {
-		src, err := os.ReadFile("../../../examples/transistor-front-end.toml")
-		if err != nil {
-			t.Fatal(err)
-		}
-		two, err := synth.Copies(src, 2)
-		if err != nil {
-			t.Fatal(err)
-		}
-		paths = append(paths, writeTemp(t, "two.toml", string(two)))
-	}
-	paths = append(paths, writeTemp(t, "edge.toml", edgeCoupling))
+	paths := stepProofSets(t, !testing.Short())
 	for _, p := range paths {
 		for _, lvl := range []rules.Level{rules.LevelSignal, rules.LevelIdeal} {
 			o := Options{Path: p, Until: PhaseReduce, Level: lvl, StepCheck: AgainstPrevious}
@@ -148,4 +134,26 @@ func TestLocalPairLeavesNCApart(t *testing.T) {
 			t.Errorf("%s of another copy is in the local comparison", p.Ref)
 		}
 	}
+}
+
+// stepProofSets is what the local step proof is held to the whole one on:
+// every example, the test fixtures, the edge-coupled pair and, with
+// copies, two copies of the portable front end side by side.
+func stepProofSets(t *testing.T, copies bool) []string {
+	t.Helper()
+	paths, _ := filepath.Glob("../../../examples/*.toml")
+	good, _ := filepath.Glob("../../../testdata/good/*.toml")
+	paths = append(paths, good...)
+	if copies {
+		src, err := os.ReadFile("../../../examples/transistor-front-end.toml")
+		if err != nil {
+			t.Fatal(err)
+		}
+		two, err := synth.Copies(src, 2)
+		if err != nil {
+			t.Fatal(err)
+		}
+		paths = append(paths, writeTemp(t, "two.toml", string(two)))
+	}
+	return append(paths, writeTemp(t, "edge.toml", edgeCoupling))
 }

@@ -3,8 +3,6 @@ package pipeline
 import (
 	"encoding/json"
 	"errors"
-	"os"
-	"path/filepath"
 	"testing"
 
 	"pare/graph"
@@ -19,18 +17,7 @@ import (
 // bank, with every fourth step refused (so that steps start from a circuit
 // a refusal put back).
 func TestLocalJournalIsLocalPair(t *testing.T) {
-	paths, _ := filepath.Glob("../../../examples/*.toml")
-	good, _ := filepath.Glob("../../../testdata/good/*.toml")
-	paths = append(paths, good...)
-	src, err := os.ReadFile("../../../examples/transistor-front-end.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	two, err := synth.Copies(src, 2)
-	if err != nil {
-		t.Fatal(err)
-	}
-	paths = append(paths, writeTemp(t, "two.toml", string(two)), writeTemp(t, "edge.toml", edgeCoupling))
+	paths := stepProofSets(t, true)
 	if !testing.Short() {
 		bank, err := synth.Bank(200, 1)
 		if err != nil {
