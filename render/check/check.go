@@ -56,7 +56,10 @@ type Report struct {
 	SmallText []string
 	// FarTanks are capacitors across a winding drawn more than tankReach
 	// grid steps from it: a tuned circuit's L and C stand side by side.
-	FarTanks       []string
+	FarTanks []string
+	// MixerOrder are frequency changers drawn out of the trade's order: an
+	// IF transformer left of its mixer, an oscillator coil not below it.
+	MixerOrder     []string
 	Crossings      int   // wire–wire crossings of different nets
 	FrameCrossings []int // crossings inside each frame, in frame order
 	Bends          int   // bends over all wires
@@ -167,6 +170,7 @@ func Measure(g *geom.Sheet) *Report {
 	r.endsNear(g, segs)
 	r.longWires(g)
 	r.farTanks(g)
+	r.mixerOrder(g)
 	r.crossings(g, segs)
 	r.connectivity(g, segs)
 	if g.PageMM > 0 {

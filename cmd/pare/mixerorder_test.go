@@ -1,0 +1,96 @@
+package main
+
+import (
+	"fmt"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"pare/render"
+	"pare/render/check"
+	"pare/render/geom"
+)
+
+// mixerSheets are the frequency changers: the examples that hold one, the
+// oscillator fixtures' mixers (self-oscillating valve and transistor
+// converters, heptode with reaction), the stage fixtures' converters and
+// the sheets review's triode-heptode with a separate oscillator (c03) and
+// five-valve superhet (c10).
+func mixerSheets(t *testing.T) []string {
+	t.Helper()
+	files := []string{
+		"../../examples/club-receiver.toml",
+		"../../examples/frequency-changer.toml",
+		"../../examples/transistor-front-end.toml",
+		"../../testdata/review12/c03.toml",
+		"../../testdata/review12/c10.toml",
+	}
+	for _, g := range []string{"../../testdata/osc/mixer-*.toml", "../../rules/stages/testdata/converter-*.toml"} {
+		more, err := filepath.Glob(g)
+		if err != nil || len(more) == 0 {
+			t.Fatalf("no fixtures %s: %v", g, err)
+		}
+		files = append(files, more...)
+	}
+	return files
+}
+
+// TestMixerFramesInOrder: a frequency changer reads as the trade draws it
+// (common practice, ../shared/DRAWING-NOTES.md): the mixer in the middle,
+// the IF transformer on its right, the oscillator coil below it
+// (render/check's MixerOrder). The reduced sheets, where the stage
+// templates place the stage, must have no finding; the faded ones (the
+// generic placement of the whole circuit) and the crossings inside every
+// mixer frame are logged.
+func TestMixerFramesInOrder(t *testing.T) {
+	files := mixerSheets(t)
+	warmSheets(files, "A3")
+	var found, crossings int
+	for _, f := range files {
+		for _, v := range []render.View{render.Reduced, render.Faded} {
+			// the whole sheet in both symbol styles and its A3 pages
+			// (IEC), as `pare FILE -o DIR` cuts a sheet too big for one
+			var sheets []*geom.Sheet
+			var names []string
+			for _, st := range bothStyles {
+				sheets = append(sheets, cachedSheet(t, f, v, st).g)
+				names = append(names, st.String())
+			}
+			pages, err := cachedPages(f, v, "A3")
+			if err != nil {
+				t.Fatal(err)
+			}
+			for i, g := range pages {
+				sheets = append(sheets, g)
+				names = append(names, fmt.Sprintf("A3 page %d", i+1))
+			}
+			for i, g := range sheets {
+				r := check.Measure(g)
+				where := fmt.Sprintf("%s %s %s", filepath.Base(f), v, names[i])
+				for _, p := range r.MixerOrder {
+					if v == render.Reduced {
+						t.Errorf("%s: %s", where, p)
+					} else {
+						t.Logf("%s: %s", where, p)
+					}
+					found++
+				}
+				crossings += mixerCrossings(t, where, g, r)
+			}
+		}
+	}
+	t.Logf("mixers out of order: %d; crossings inside mixer frames: %d", found, crossings)
+}
+
+// mixerCrossings logs and counts the crossings inside g's mixer frames.
+func mixerCrossings(t *testing.T, where string, g *geom.Sheet, r *check.Report) int {
+	n := 0
+	for i, c := range r.FrameCrossings {
+		title := g.Frames[i].Title.Lines
+		if len(title) > 0 && strings.Contains(strings.ToLower(title[0]), "mixer") && c > 0 {
+			t.Logf("%s: %d crossing(s) in %q", where, c, title[0])
+			n += c
+		}
+	}
+	return n
+}
