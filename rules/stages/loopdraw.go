@@ -79,11 +79,13 @@ func touchesDevice(c *graph.Circuit, q, dev *graph.Part) bool {
 // tankPlaces are the slots of the capacitors that tune the oscillator
 // coil's winding (the coil at column 0, row 1). With the gang section
 // across the winding, it and the capacitors on its hot end (a trimmer)
-// stand left of the coil and the rest (a padder at the cold end) below
-// it. With a padder in series between the winding and the gang section,
-// the padder stands left of the coil, hanging from its hot end, and the
-// gang section with its trimmer below the padder, so the chain reads
-// straight down to chassis.
+// stand left of the coil, and the rest (a padder at the cold end) lies
+// below it, from the cold end across to chassis (stood upright, its lead
+// ran a step under the coil's ends, and a wire crossing the stage there
+// read as joined to them). With a padder in series between the winding
+// and the gang section, the padder stands left of the coil, hanging from
+// its hot end, and the gang section with its trimmer below the padder,
+// so the chain reads straight down to chassis.
 func tankPlaces(w *world, through string) []Place {
 	oc, caps, ok := loopTank(w, through)
 	gang := gangSection(caps)
@@ -99,21 +101,21 @@ func tankPlaces(w *world, through string) []Place {
 	ends := map[string]bool{w.names[oc.a]: true, w.names[oc.b]: true}
 	on := func(c *graph.Part, nets map[string]bool) bool { return touches(c, nets) }
 	var out []Place
-	put := func(c *graph.Part, col, row int) {
-		out = append(out, Place{Part: c.Ref, Col: col, Row: row, Stand: "vertical"})
+	put := func(c *graph.Part, col, row int, stand string) {
+		out = append(out, Place{Part: c.Ref, Col: col, Row: row, Stand: stand})
 	}
 	for _, c := range caps {
 		switch {
 		case ends[hot] && on(c, map[string]bool{hot: true}):
-			put(c, -1, 1) // the gang section and its trimmer
+			put(c, -1, 1, "vertical") // the gang section and its trimmer
 		case ends[hot]:
-			put(c, 0, 2) // a padder at the cold end
+			put(c, 0, 2, "horizontal") // a padder at the cold end
 		case on(c, ends) && on(c, map[string]bool{hot: true}):
-			put(c, -1, 1) // a series padder
+			put(c, -1, 1, "vertical") // a series padder
 		case on(c, map[string]bool{hot: true}):
-			put(c, -1, 2) // the gang section beyond it and its trimmer
+			put(c, -1, 2, "vertical") // the gang section beyond it and its trimmer
 		default:
-			put(c, 0, 2)
+			put(c, 0, 2, "vertical")
 		}
 	}
 	// the slots in the order they stack, so a collision refuses the last
