@@ -14,6 +14,7 @@ type statics struct {
 	ax, b  []complex128 // the constant sums; 0 in the slots and rows redone
 	stamps []stamp      // the stamps of the slots and rows redone, in order
 	coefs  []int32      // the coefficients that vary with frequency
+	varOf  []int32      // each coefficient's place in coefs, or -1 (batch.go)
 }
 
 // makeStatics splits s's stamps into the constant sums and the rest; vals
@@ -21,8 +22,11 @@ type statics struct {
 // the same at all).
 func (s *system) makeStatics(vals []complex128) *statics {
 	st := &statics{ax: make([]complex128, len(s.a.x)), b: make([]complex128, s.n)}
+	st.varOf = make([]int32, len(s.coefs))
 	for i, k := range s.coefs {
+		st.varOf[i] = -1
 		if k.kind != valConst {
+			st.varOf[i] = int32(len(st.coefs))
 			st.coefs = append(st.coefs, int32(i))
 		}
 	}

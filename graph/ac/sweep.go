@@ -79,33 +79,113 @@ type pairSweep struct {
 	floor  float64   // the floor dd and dp were taken at (NaN: none yet)
 	fresh  []bool    // points whose dd and dp are not yet taken
 	spare  []float64 // the merge's scratch space
+
+	// eval's scratch space: the points without repeats, those each side
+	// solves and their responses.
+	seen map[float64]bool
+	uniq []float64
+	need [2][]float64
+	got  [2][]complex128
 }
 
 // eval solves both circuits at the frequencies not yet visited (a memo may
 // already hold one side, or both when the two systems are the same); on an
 // error it says whether the original (rather than the reduced) failed.
-// Points are solved in the order given: a system's pivots are chosen at
-// the first frequency it is factored at.
+//
+// The result is that of a loop over the points in the order given, the
+// original's response then the reduced one's, stopping at the first
+// failure: each probe solves its points in that order (a system's pivots
+// are chosen at the first frequency it is factored at), a run at a time
+// (atMany), and the maps keep what that loop would have put in them.
 func (sw *pairSweep) eval(fs []float64) (bool, error) {
-	for _, f := range fs {
-		if _, done := sw.ho[f]; !done {
-			a, err := sw.po.at(f)
-			if err != nil {
-				return true, err
-			}
-			sw.ho[f] = a
-			sw.po.wrote(f)
+	fs = sw.firstOfEach(fs)
+	needO := missing(fs, sw.ho, sw.need[0][:0])
+	vo := fitC(&sw.got[0], len(needO))
+	nO, errO := sw.po.atMany(needO, vo)
+	for i, f := range needO[:nO] {
+		sw.ho[f] = vo[i]
+	}
+	stop := len(fs) // the loop reached the reduced side of these points
+	if errO != nil {
+		stop = slices.Index(fs, needO[nO])
+	}
+	needR := missing(fs[:stop], sw.hr, sw.need[1][:0]) // none when both maps are one
+	vr := fitC(&sw.got[1], len(needR))
+	nR, errR := sw.pr.atMany(needR, vr)
+	for i, f := range needR[:nR] {
+		sw.hr[f] = vr[i]
+	}
+	if errR != nil {
+		// The loop stopped at this point's reduced side: the original's
+		// later points were never solved.
+		kept := countWithin(needO[:nO], fs[:slices.Index(fs, needR[nR])+1])
+		for _, f := range needO[kept:nO] {
+			delete(sw.ho, f)
 		}
-		if _, done := sw.hr[f]; !done {
-			b, err := sw.pr.at(f)
-			if err != nil {
-				return false, err
-			}
-			sw.hr[f] = b
-			sw.pr.wrote(f)
-		}
+		nO = kept
+	}
+	for _, f := range needO[:nO] {
+		sw.po.wrote(f)
+	}
+	for _, f := range needR[:nR] {
+		sw.pr.wrote(f)
+	}
+	sw.need = [2][]float64{needO, needR}
+	switch {
+	case errR != nil:
+		return false, errR
+	case errO != nil:
+		return true, errO
 	}
 	return false, nil
+}
+
+// firstOfEach is fs without repeats, each frequency where it first appears.
+func (sw *pairSweep) firstOfEach(fs []float64) []float64 {
+	if sw.seen == nil {
+		sw.seen = map[float64]bool{}
+	}
+	clear(sw.seen)
+	out := sw.uniq[:0]
+	for _, f := range fs {
+		if !sw.seen[f] {
+			sw.seen[f] = true
+			out = append(out, f)
+		}
+	}
+	sw.uniq = out
+	return out
+}
+
+// missing appends to out the frequencies of fs that h does not hold.
+func missing(fs []float64, h map[float64]complex128, out []float64) []float64 {
+	for _, f := range fs {
+		if _, done := h[f]; !done {
+			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// countWithin counts the leading frequencies of sub (taken from fs in
+// order) that lie in the prefix fs.
+func countWithin(sub, fs []float64) int {
+	j := 0
+	for _, f := range fs {
+		if j < len(sub) && sub[j] == f {
+			j++
+		}
+	}
+	return j
+}
+
+// fitC returns *s with length n, reusing its space.
+func fitC(s *[]complex128, n int) []complex128 {
+	if cap(*s) < n {
+		*s = make([]complex128, n)
+	}
+	*s = (*s)[:n]
+	return *s
 }
 
 // merge adds the points of add (solved by eval; in any order, repeats
