@@ -110,3 +110,49 @@ func runMatches(t *testing.T, m *model, q quantity, fs []float64) (int, int) {
 	}
 	return repivots, n
 }
+
+// TestSameSystemSweep: two probes of one system, swept in full as two
+// (sweepPair: the coarse grid and every refinement round, each side solved
+// apart), give exactly the pair sweepSame gives from the coarse grid
+// alone: 0 dB and 0° at the first point. Over every quantity of the
+// examples and fixtures at three gang settings.
+func TestSameSystemSweep(t *testing.T) {
+	files := append([]string{"testdata/two-inputs.toml", "testdata/hartley-xtal.toml", "testdata/if-pair.toml"}, exampleFiles(t)...)
+	swept := 0
+	for _, file := range files {
+		c := load(t, file)
+		marks := landmarks(c)
+		for _, frac := range []float64{0, 0.5, 1} {
+			m, err := newModel(c, Options{VarSet: true, VarFrac: frac}, &dcShare{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, q := range quantities(c, c, &Report{}) {
+				po, err1 := newProbe(m, q.what, q.from, q.to)
+				pr, err2 := newProbe(m, q.what, q.from, q.to)
+				ps, err3 := newProbe(m, q.what, q.from, q.to)
+				if err1 != nil || err2 != nil || err3 != nil || po.zero || po.silent {
+					continue
+				}
+				if po.key() != pr.key() {
+					t.Fatalf("%s: %s %s→%s: two probes of one system have different digests", file, q.what, q.from, q.to)
+				}
+				want, err := sweepPair(po, pr, q.bands, 100, DefaultTolDB, DefaultTolDeg, marks)
+				if err != nil {
+					t.Fatal(err)
+				}
+				got, err := sweepSame(ps, q.bands, 100, marks)
+				if err != nil {
+					t.Fatal(err)
+				}
+				if got != want {
+					t.Errorf("%s: %s %s→%s: sweepSame %+v, sweepPair %+v", file, q.what, q.from, q.to, got, want)
+				}
+				swept++
+			}
+		}
+	}
+	if swept == 0 {
+		t.Fatal("no quantity swept")
+	}
+}
