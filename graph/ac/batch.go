@@ -103,17 +103,15 @@ func (p *probe) run(fs []float64, out []complex128, sc *runScratch) (int, error)
 	if u := s.unk[p.node]; u >= 0 {
 		read = s.f.stepOf(u)
 	}
+	done, err := s.finiteRun(fs, done, r)
 	for i := 0; i < done; i++ {
-		if err := s.finiteRun(fs[i], i, r); err != nil {
-			return i, err
-		}
 		if read >= 0 {
 			out[i] = r.y[read*n+i]
 		} else {
 			out[i] = s.voltage(p.node) // driven (1) or ground (0)
 		}
 	}
-	return done, nil
+	return done, err
 }
 
 // assembleRun is solveAt's assembly at every point of fs: the matrix
@@ -203,19 +201,30 @@ func addConst(dst []complex128, v complex128, st stamp) {
 	}
 }
 
-// finiteRun is solveRHS's test of point i's solution, with its message.
-func (s *system) finiteRun(f float64, i int, r *luRun) error {
-	bad := -1 // the first unknown not finite, in the unknowns' order
-	for k, q := range s.f.q {
-		v := r.y[k*r.w+i]
-		if !(math.Abs(real(v)) <= math.MaxFloat64 && math.Abs(imag(v)) <= math.MaxFloat64) && (bad < 0 || q < bad) {
-			bad = q // NaN or infinite
+// finiteRun is solveRHS's test of the first n points' solutions, with its
+// message: the first point with an unknown that is NaN or infinite, and
+// the first such unknown in the unknowns' order.
+func (s *system) finiteRun(fs []float64, n int, r *luRun) (int, error) {
+	first := n
+	for k := range s.f.q {
+		for i, v := range r.y[k*r.w:][:first] {
+			if !(math.Abs(real(v)) <= math.MaxFloat64 && math.Abs(imag(v)) <= math.MaxFloat64) {
+				first = i
+				break
+			}
 		}
 	}
-	if bad < 0 {
-		return nil
+	if first == n {
+		return n, nil
 	}
-	return fmt.Errorf("no finite solution at %s for the %s", hz(f), s.what[bad])
+	bad := -1
+	for k, q := range s.f.q {
+		v := r.y[k*r.w+first]
+		if !(math.Abs(real(v)) <= math.MaxFloat64 && math.Abs(imag(v)) <= math.MaxFloat64) && (bad < 0 || q < bad) {
+			bad = q
+		}
+	}
+	return first, fmt.Errorf("no finite solution at %s for the %s", hz(fs[first]), s.what[bad])
 }
 
 // stepOf is the step at which unknown u is factored.

@@ -27,10 +27,12 @@ type luRun struct {
 	maxL       []float64 // pivotRun's largest candidate below each pivot
 }
 
-// size makes the run's arrays fit f's factors at width w, zeroed.
+// size makes the run's arrays fit f's factors at width w. Only the work
+// vector starts zeroed: every other entry a run reads it writes first.
 func (r *luRun) size(f *lu, w int) {
 	r.w = w
 	r.x = fit(r.x, f.n*w)
+	clear(r.x)
 	r.lx = fit(r.lx, len(f.li)*w)
 	r.ux = fit(r.ux, len(f.ui)*w)
 	r.ud = fit(r.ud, f.n*w)
@@ -41,14 +43,12 @@ func (r *luRun) size(f *lu, w int) {
 	}
 }
 
-// fit returns s with length n, zeroed.
+// fit returns s with length n, its contents undefined.
 func fit(s []complex128, n int) []complex128 {
 	if cap(s) < n {
 		return make([]complex128, n)
 	}
-	s = s[:n]
-	clear(s)
-	return s
+	return s[:n]
 }
 
 // refactorRun is refactor for the first n points of the run, whose matrix
