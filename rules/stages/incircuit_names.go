@@ -115,9 +115,12 @@ func (x *figCtx) checkFollower(p *graph.Part) {
 		figure.Plain(g.Value), hz(f), electrodeWord(p), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text)))
 }
 
-// checkSmoothing keeps "smoothing" where a rectifier feeds the filter: a
-// diode or a valve diode on either of its nets. A battery set's
-// decoupling has none.
+// checkSmoothing keeps "smoothing" where a power rectifier
+// (isPowerRectifier, the walk the ripple note's rectifier is found by) sits
+// on either of the filter's nets. A battery set's decoupling has none; a
+// mains set's decoupler takes a line a section before it has smoothed, and
+// says so, naming the rectifier its ripple note names, so the two notes
+// tell one story.
 func (x *figCtx) checkSmoothing(nets ...string) {
 	for _, name := range nets {
 		id, ok := x.w.netID[name]
@@ -125,10 +128,14 @@ func (x *figCtx) checkSmoothing(nets ...string) {
 			continue
 		}
 		for _, ci := range x.w.conns[id] {
-			if p := x.w.parts[ci]; p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p) {
+			if x.isPowerRectifier(ci) {
 				return
 			}
 		}
+	}
+	if _, rect := x.rectWave(); rect != "" {
+		x.rename("smooth", fmt.Sprintf("named a decoupling filter: the rectifier %s is not on its nets, it takes the supply after a section before it, so it filters a supply, it does not smooth one", rect))
+		return
 	}
 	x.rename("smooth", "named a decoupling filter: no rectifier feeds it, so it filters a supply, it does not smooth one")
 }
