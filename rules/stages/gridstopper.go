@@ -15,7 +15,11 @@ import (
 // input capacitance: fc = 1/(2πR·Cin), Cin = Cin0 + (1 + |A|)·Cf (the
 // Miller effect, handbook formula, from memory), A the device's gain from
 // its control electrode to its output electrode as the solver gives it in
-// circuit at the top of the band. The solver has no interelectrode
+// circuit at the top of the band, the electrode held by the source and the
+// stopper itself taken out: left in, the stopper would carry the held
+// grid's signal back into the driver (a cathodyne's low cathode, the other
+// half of a push-pull pair through the splitter), and the figure would
+// count that as the valve's gain. The solver has no interelectrode
 // capacitances, so Cin0 and Cf are the typical ones below and the corner
 // is a check value, said to rest on them.
 func init() {
@@ -55,9 +59,9 @@ func calcStopper(x *figCtx) {
 	cin, cf, what := inputCaps(dev)
 	gain := 0.0
 	band := x.w.c.BandOf(dev)
-	if a, ok := x.controlGain(dev, band.Max); ok {
+	if a, ok := x.controlGain(dev, r, band.Max); ok {
 		gain = a
-		x.set("gain_miller", figure.Ratio, a, figure.BySolver("|V(output)/V(control)| of "+dev.Ref, hz(band.Max)))
+		x.set("gain_miller", figure.Ratio, a, figure.BySolver("|V(output)/V(control)| of "+dev.Ref+" with "+r.Ref+" out", hz(band.Max)))
 	}
 	c := cin + (1+gain)*cf
 	fc := 1 / (2 * math.Pi * r.Value.Max * c)
@@ -72,8 +76,9 @@ func calcStopper(x *figCtx) {
 }
 
 // controlGain is |V(output)/V(control)| of dev at f in circuit, the
-// control electrode driven: the gain the Miller effect multiplies.
-func (x *figCtx) controlGain(dev *graph.Part, f float64) (float64, bool) {
+// control electrode driven and its stopper out: the gain the Miller effect
+// multiplies.
+func (x *figCtx) controlGain(dev, stopper *graph.Part, f float64) (float64, bool) {
 	if !x.solve || !(f > 0) {
 		return 0, false
 	}
@@ -89,7 +94,7 @@ func (x *figCtx) controlGain(dev *graph.Part, f float64) (float64, bool) {
 	if ctl == "" || out == "" {
 		return 0, false
 	}
-	resp, err := ac.NewTransfer(x.solverCircuit(), ctl, out, gangMid.options())
+	resp, err := ac.NewTransfer(without(x.solverCircuit(), stopper.Ref), ctl, out, gangMid.options())
 	if err != nil {
 		return 0, false
 	}

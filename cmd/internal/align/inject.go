@@ -70,6 +70,10 @@ const (
 type point struct {
 	net, where, band string
 	mixer, detector  bool
+	// halves names the stage whose parallel halves this point drives one
+	// of (a push-pull pair: halves), "" for none: its gain is taken past
+	// the other half, never to it.
+	halves string
 	// unmodelled says why the solver's figure at this point is not the
 	// stage's (a grid the device model does not drive).
 	unmodelled string
@@ -113,9 +117,12 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	}
 	mixer := mixerDevice(c, sts, g.IF)
 	osc := oscillatorOnly(sts, mixer)
+	half := halves(c, sts)
 	device := func(p *graph.Part) {
 		if p != nil && !osc[p.Ref] {
-			add(controlPoint(c, p, p == mixer))
+			pt := controlPoint(c, p, p == mixer)
+			pt.halves = half[p.Ref]
+			add(pt)
 		}
 	}
 	for _, s := range sts {
@@ -137,6 +144,39 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	slices.SortStableFunc(pts, func(a, b point) int { return dist(a.net) - dist(b.net) })
 	classify(c, pts, g, mixer != nil)
 	return pts
+}
+
+// halves maps each active device that is one of a stage's parallel halves
+// to that stage's name: two active devices of one stage whose common
+// electrodes (cathodes, emitters, sources) share a net (a push-pull pair, a
+// complementary pair, a long-tailed pair). The signal reaches them side by
+// side, never one from the other's control electrode, so one half's
+// injection row gains to what follows the pair, not to the other half.
+func halves(c *graph.Circuit, sts []stages.Stage) map[string]string {
+	out := map[string]string{}
+	for _, s := range sts {
+		byCommon := map[string][]string{}
+		for _, ref := range s.Parts {
+			p := c.Part(ref)
+			if p == nil || !p.IsActive() {
+				continue
+			}
+			if n := p.NetOf(p.PinWithRole(graph.RoleCommon)); n != "" {
+				byCommon[n] = append(byCommon[n], ref)
+			}
+		}
+		for _, refs := range byCommon {
+			if len(refs) < 2 {
+				continue
+			}
+			for _, ref := range refs {
+				if out[ref] == "" {
+					out[ref] = s.Name
+				}
+			}
+		}
+	}
+	return out
 }
 
 // controlPoint is an active part's control electrode (the mixer's signal

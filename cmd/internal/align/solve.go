@@ -102,9 +102,13 @@ func Response(c *graph.Circuit, in, out string, f, frac float64) (float64, error
 }
 
 // gainTarget is the next point toward the output in the same band (an RF
-// row's band ends at the mixer), else the reference net.
+// row's band ends at the mixer), else the reference net; the other half of
+// a parallel pair (point.halves) is no next point.
 func gainTarget(pts []point, i int, ref string) string {
 	for j := i + 1; j < len(pts); j++ {
+		if pts[i].halves != "" && pts[j].halves == pts[i].halves {
+			continue
+		}
 		if pts[j].band == pts[i].band || (pts[i].band == "RF" && pts[j].mixer) {
 			return pts[j].net
 		}
