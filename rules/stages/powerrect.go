@@ -253,3 +253,61 @@ func slicesHas(ids []int, v int) bool {
 	}
 	return false
 }
+
+// Detector is a signal diode found by its wiring alone (for a command
+// whose detector no pattern matched): Ref the diode or valve diode fed from
+// a tuned signal winding's end, Load the net its audio and DC appear on.
+type Detector struct{ Ref, Load string }
+
+// Detectors are the circuit's diodes fed from a tuned signal winding
+// (tunedSignalWinding), in the circuit's order. The load is the diode's far
+// side, or, where that is chassis or held there by a bypass (a valve
+// diode's cathode beside its triode's), the winding's other end: the load
+// then sits below the winding (common practice).
+func Detectors(c *graph.Circuit) []Detector {
+	x := &figCtx{w: newWorld(c, true, nil)}
+	var out []Detector
+	for ci, p := range x.w.parts {
+		if p.Kind != graph.Diode && !(p.Kind == graph.Valve && isValveDiode(p)) {
+			continue
+		}
+		for _, j := range x.junctions(ci) {
+			feed, far := j.a, j.k
+			if !x.tunedSignalWinding(feed) {
+				feed, far = j.k, j.a
+			}
+			if feed < 0 || far < 0 || !x.tunedSignalWinding(feed) {
+				continue
+			}
+			load := far
+			if far == groundNet || x.isReservoir(far) {
+				load = x.windingOtherEnd(feed)
+			}
+			if load > groundNet {
+				out = append(out, Detector{Ref: p.Ref, Load: x.w.names[load]})
+				break
+			}
+		}
+	}
+	return out
+}
+
+// windingOtherEnd is the far end of the tuned winding id is an end of, −1
+// where there is none.
+func (x *figCtx) windingOtherEnd(id int) int {
+	for _, ci := range x.w.conns[id] {
+		if x.w.parts[ci].Kind != graph.Transformer {
+			continue
+		}
+		for _, cl := range x.w.coils[ci] {
+			a, b := x.pinNet(ci, cl.pins[0]), x.pinNet(ci, cl.pins[len(cl.pins)-1])
+			switch id {
+			case a:
+				return b
+			case b:
+				return a
+			}
+		}
+	}
+	return -1
+}

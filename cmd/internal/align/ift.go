@@ -75,7 +75,7 @@ func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 	// An FM detector's transformer: its primary is peaked with the IF cans,
 	// its secondary set last for zero (common practice).
 	var zero []adjuster
-	if det := detectorStage(sts); g.FM && det != nil {
+	if det := detectorStage(c, sts); g.FM && det != nil {
 		if t := transformerIn(c, *det); t != nil {
 			var peak []adjuster
 			peak, zero = splitSecondary(c, t)
@@ -123,7 +123,7 @@ func splitSecondary(c *graph.Circuit, t *graph.Part) (peak, zero []adjuster) {
 
 // detectorOut is the detector's audio output net, for the zero setting.
 func detectorOut(c *graph.Circuit, sts []stages.Stage) string {
-	if det := detectorStage(sts); det != nil {
+	if det := detectorStage(c, sts); det != nil {
 		return detectorLoad(c, *det)
 	}
 	return "the audio output"
@@ -232,7 +232,7 @@ func trimmersOn(c *graph.Circuit, nets []string) []*graph.Part {
 // strip the detector's DC; a section without the detector its IF output.
 func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool) string {
 	agc := agcNet(c)
-	det := detectorStage(sts)
+	det := detectorStage(c, sts)
 	switch {
 	case fm:
 		return "the DC across the ratio detector's load (or the discriminator's limiter grid) for a maximum"
@@ -258,14 +258,4 @@ func agcNet(c *graph.Circuit) string {
 		}
 	}
 	return ""
-}
-
-func detectorStage(sts []stages.Stage) *stages.Stage {
-	for i := range sts {
-		t := sts[i].Topology
-		if strings.Contains(t, "detector") || strings.Contains(t, "discriminator") {
-			return &sts[i]
-		}
-	}
-	return nil
 }

@@ -137,6 +137,11 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 			device(c.Part(ref))
 		}
 	}
+	if !slices.ContainsFunc(pts, func(p point) bool { return p.detector }) {
+		if s := detectorStage(c, sts); s != nil {
+			add(point{net: detectorLoad(c, *s), where: s.Name + " detector load", detector: true})
+		}
+	}
 	for _, p := range c.Parts {
 		device(p)
 	}
@@ -367,7 +372,7 @@ const (
 // gives m·Vc RMS of audio through a detector of efficiency 1). "" when
 // there is no solved detector row.
 func carrierRef(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injection) (string, float64, string) {
-	det := detectorStage(sts)
+	det := detectorStage(c, sts)
 	if det == nil {
 		return "", 0, ""
 	}

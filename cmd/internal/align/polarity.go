@@ -13,7 +13,7 @@ import (
 // detectorSign is +1 when the detector's load sits on its diode's cathode,
 // -1 when on the anode side, 0 when there is no diode detector.
 func detectorSign(c *graph.Circuit, sts []stages.Stage) int {
-	det := detectorStage(sts)
+	det := detectorStage(c, sts)
 	if det == nil {
 		return 0
 	}

@@ -3,7 +3,10 @@ package align_test
 import (
 	"math"
 	"path/filepath"
+	"strings"
 	"testing"
+
+	"pare/cmd/internal/align"
 )
 
 func review13(name string) string {
@@ -35,5 +38,35 @@ func TestReview13PushPullHalvesAreParallel(t *testing.T) {
 	}
 	if !found {
 		t.Fatalf("no row at V2's grid: %+v", g.Inject)
+	}
+}
+
+// A double-diode-triode's signal diode on the IF can's tuned secondary is
+// the detector even where no detector pattern matched it (its load returns
+// to the triode's bypassed cathode): the IF cans are peaked on the AGC line
+// or the detector's DC, never "the IF at" the audio output (common
+// practice), and every row after the detector injects audio. The V1 grid
+// row's gain to the diode is the reviewer's ngspice IF gain,
+// testdata/review13/spice/a03_if.cir: 41.990 dB at 465 kHz, ×125.6.
+func TestReview13DetectorFoundByItsWiring(t *testing.T) {
+	_, g := build(t, review13("a03"))
+	for _, s := range g.Steps {
+		if s.Phase == "IF" && (strings.Contains(s.Watch, "audio_out") || !strings.Contains(s.Watch, "AGC line (agc)")) {
+			t.Errorf("IF step %s watches %q", s.Part, s.Watch)
+		}
+	}
+	rows := map[string]align.Injection{}
+	for _, in := range g.Inject {
+		rows[in.Net] = in
+	}
+	for _, net := range []string{"tri_g", "det_out"} {
+		if in, ok := rows[net]; !ok || in.Band != "audio" || in.Freq != 400 {
+			t.Errorf("row on %s: %+v, want audio at 400 Hz", net, in)
+		}
+	}
+	v1, ok := rows["if_g"]
+	want := math.Pow(10, 41.990/20) // ngspice, above
+	if !ok || v1.Band != "IF" || v1.GainTo != "det_a" || math.Abs(v1.Gain-want)/want > 0.01 {
+		t.Errorf("V1 grid row %+v, want IF gain ×%.4g to det_a", v1, want)
 	}
 }
