@@ -4,6 +4,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -144,5 +145,45 @@ func TestReview13MillerGainIsTheValvesOwn(t *testing.T) {
 	}
 	if len(want) > 0 {
 		t.Errorf("no stopper stage for %v: %s", want, topologies(st))
+	}
+}
+
+// A tuning capacitor across a Colpitts VFO's coil belongs to the tank,
+// with or without a gang key: a01's VC1 (10–200 pF, merged with the
+// trimmer TC1 at 12 pF: 22–212 pF) is in the oscillator's stage, no stage
+// of its own, and c eff counts it: Ceff = Ct + C1C2/(C1+C2) = 22–212 pF +
+// 277.9 pF = 299.9–489.9 pF (handbook Colpitts formula, docs/references.md
+// §30). The resonance formula on it then agrees with the reviewer's
+// ngspice within 0.5 %: 1.0193 and 1.3024 MHz
+// (testdata/review13/spice/a01_212p.cir, a01_22p.cir).
+func TestReview13TuningCapacitorInTheTank(t *testing.T) {
+	for _, tt := range []struct {
+		name string
+		repl []string
+	}{
+		{"as captured", nil},
+		{"with a gang key", []string{`VC1 = { c = "10p..200p",`, `VC1 = { c = "10p..200p", gang = "A",`}},
+	} {
+		t.Run(tt.name, func(t *testing.T) {
+			st := findReduced(t, review13(t, "a01.toml", tt.repl...))
+			osc := stageOf(st, "colpitts-grounded-tap")
+			if osc == nil || !slices.Contains(osc.Parts, "VC1") {
+				t.Fatalf("no Colpitts holding VC1: %s", topologies(st))
+			}
+			for _, s := range st {
+				if s.Name != osc.Name && slices.Contains(s.Parts, "VC1") {
+					t.Errorf("VC1 also in %s %s", s.Name, s.Topology)
+				}
+			}
+			c, ok := osc.Figures.Get("c_eff")
+			if !ok || c.Range == nil || math.Abs(c.Range.Min-299.9e-12) > 0.1e-12 || math.Abs(c.Range.Max-489.9e-12) > 0.1e-12 {
+				t.Errorf("c eff %+v, want 299.9–489.9 pF", c)
+			}
+			f, ok := osc.Figures.Get("f")
+			if !ok || f.Check == nil || f.Check.Range == nil ||
+				math.Abs(f.Check.Range.Min-1.0193e6)/1.0193e6 > 0.005 || math.Abs(f.Check.Range.Max-1.3024e6)/1.3024e6 > 0.005 {
+				t.Errorf("f's formula %+v, ngspice gives 1.0193–1.3024 MHz", f.Check)
+			}
+		})
 	}
 }

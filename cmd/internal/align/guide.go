@@ -76,8 +76,11 @@ type Step struct {
 	// frequency expected there.
 	Freq, Dial, Osc float64
 	Into            string // where the generator goes: "the mixer's grid (V1 g1, net osc_g)"
-	Watch           string // what to watch and for what
-	From            string // where the frequency comes from: "S2 track_fit"
+	// Counter, for a lone oscillator's coverage (vfo.go), is where a
+	// frequency counter reads it: no generator is used.
+	Counter string
+	Watch   string // what to watch and for what
+	From    string // where the frequency comes from: "S2 track_fit"
 	// Band names the wavechange position the step is done at ("" for the
 	// set as captured): "band 2 (S1a, S1b at position 2)".
 	Band string
@@ -109,6 +112,7 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 	g.ifSteps(c, sts)
 	g.trapSteps(switched(c))
 	g.tracking(c, sts)
+	g.calibrate(c, sts)
 	g.coverage(c, sts)
 	for i := range g.Steps {
 		g.Steps[i].N = i + 1

@@ -70,3 +70,28 @@ func TestReview13DetectorFoundByItsWiring(t *testing.T) {
 		t.Errorf("V1 grid row %+v, want IF gain ×%.4g to det_a", v1, want)
 	}
 }
+
+// A lone VFO with a trimmer across its tank and a slug-tuned coil is
+// aligned by its coverage (common practice: the trimmer at the high end,
+// the core at the low end, repeated): a01 declares 1–1.3 MHz and runs, as
+// captured, 1.019–1.302 MHz (the reviewer's ngspice: 1.0193 and 1.3024 MHz,
+// testdata/review13/spice/a01_loop_22p.cir, a01_loop_212p.cir), within the
+// 5 % a trimmer and core pull, so the steps set the declared ends.
+func TestReview13LoneOscillatorCoverage(t *testing.T) {
+	_, g := build(t, review13("a01"))
+	if g.Nothing != "" {
+		t.Fatalf("nothing to align: %s", g.Nothing)
+	}
+	want := []struct {
+		part string
+		f    float64
+	}{{"TC1", 1.3e6}, {"L1", 1e6}}
+	if len(g.Steps) != len(want) {
+		t.Fatalf("steps %+v, want TC1 at 1.3 MHz and L1's core at 1 MHz", g.Steps)
+	}
+	for i, w := range want {
+		if s := g.Steps[i]; s.Part != w.part || s.Freq != w.f || s.Counter != "net osc_out" {
+			t.Errorf("step %d: %+v, want %s at %g Hz read at net osc_out", i+1, s, w.part, w.f)
+		}
+	}
+}

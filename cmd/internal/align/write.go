@@ -171,7 +171,12 @@ func genWord(fm bool) string {
 	return "modulated 30 % at 400 Hz"
 }
 
-func genAt(s Step) string { return "generator into " + s.Into }
+func genAt(s Step) string {
+	if s.Counter != "" {
+		return "no generator, a frequency counter on " + s.Counter
+	}
+	return "generator into " + s.Into
+}
 
 func warnLines(ws []string) []string {
 	var out []string
