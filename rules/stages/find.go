@@ -334,6 +334,7 @@ func appendTree(out []Stage, s *found) []Stage {
 		c.Name = fmt.Sprintf("%s.%d", s.Name, i+1)
 		s.Contains = append(s.Contains, c.Name)
 	}
+	noteIFTuning(s)
 	out = append(out, s.public())
 	for _, c := range subs {
 		out = appendTree(out, c)
