@@ -13,7 +13,8 @@ import (
 
 // The blind review 13 wrote five valve circuits, kept under testdata/review13/
 // at the repository's top with the reviewer's ngspice decks in
-// testdata/review13/spice/.
+// testdata/review13/spice/. Their check values are listed in
+// docs/references.md §32.
 
 // review13 is a review 13 circuit with the replacements made (old, new
 // pairs), each of which must apply.

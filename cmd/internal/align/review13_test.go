@@ -9,6 +9,8 @@ import (
 	"pare/cmd/internal/align"
 )
 
+// review13 is a circuit of the blind review 13 (testdata/review13/); the
+// check values below are listed in docs/references.md §32.
 func review13(name string) string {
 	return filepath.Join("..", "..", "..", "testdata", "review13", name+".toml")
 }
