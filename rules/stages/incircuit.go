@@ -87,57 +87,6 @@ func magnitude(r *ac.Response, f float64) float64 {
 	return cmplx.Abs(h)
 }
 
-// peakPoints is the number of points of each pass of a peak search, and
-// peakPasses the passes: each narrows the span to two cells of the last,
-// a tenth, so four passes over a span of a factor of nine leave cells of
-// 10⁻⁴ in log f, and the parabola through the best three a good deal
-// less (enough to meet ngspice to 2·10⁻⁶).
-const (
-	peakPoints = 21
-	peakPasses = 4
-)
-
-// peakOf finds the frequency in lo..hi where |r| is largest: a log grid over
-// the span, then finer grids over the cells either side of the best
-// point, then a parabola through the best three (in log f and dB). ok is
-// false when the largest value sits on an end of lo..hi (no peak inside)
-// or the solver fails.
-func peakOf(r *ac.Response, lo, hi float64) (f, mag float64, ok bool) {
-	a, b := math.Log(lo), math.Log(hi)
-	for pass := 0; pass < peakPasses; pass++ {
-		step := (b - a) / (peakPoints - 1)
-		best, bestMag := -1, -1.0
-		mags := make([]float64, peakPoints)
-		for i := range mags {
-			mags[i] = magnitude(r, math.Exp(a+float64(i)*step))
-			if math.IsNaN(mags[i]) {
-				return 0, 0, false
-			}
-			if mags[i] > bestMag {
-				best, bestMag = i, mags[i]
-			}
-		}
-		if pass == 0 && (best == 0 || best == peakPoints-1) {
-			return 0, 0, false
-		}
-		if pass < peakPasses-1 {
-			lo := max(best-1, 0)
-			hi := min(best+1, peakPoints-1)
-			a, b = a+float64(lo)*step, a+float64(hi)*step
-			continue
-		}
-		x := a + float64(best)*step
-		if best > 0 && best < peakPoints-1 {
-			y0, y1, y2 := db(mags[best-1]), db(mags[best]), db(mags[best+1])
-			if den := y0 - 2*y1 + y2; den < 0 {
-				x += 0.5 * step * (y0 - y2) / den
-			}
-		}
-		return math.Exp(x), magnitude(r, math.Exp(x)), true
-	}
-	return 0, 0, false
-}
-
 func db(v float64) float64 { return 20 * math.Log10(v) }
 
 // crossing finds, by bisection in log f, where |r| passes level between
