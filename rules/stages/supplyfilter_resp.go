@@ -27,19 +27,31 @@ func (x *figCtx) filterResponse(in, out int) (*ac.Response, error) {
 	}
 	sub := withPart(c, &graph.Part{})
 	sub.Parts = nil
+	touched := map[string]bool{inName: true, outName: true}
 	for ci, p := range x.w.parts {
 		if keep[ci] {
 			sub.Parts = append(sub.Parts, p)
+			for _, pin := range p.Pins {
+				touched[pin.Net] = true
+			}
 		}
 	}
-	sub.Nets = make([]*graph.Net, len(c.Nets))
-	for i, n := range c.Nets {
-		sub.Nets[i] = n
+	// Only the nets the kept parts touch, in the circuit's order: the
+	// solver numbers nets by name, so the section's nodes keep their
+	// order and its matrix its every number, and the elaboration no
+	// longer walks every net of the set for each section (which grew with
+	// the square of the set).
+	sub.Nets = nil
+	for _, n := range c.Nets {
+		if !touched[n.Name] {
+			continue
+		}
 		if (n.Name == inName || n.Name == outName) && n.Role != graph.Signal {
 			m := *n
 			m.Role = graph.Signal
-			sub.Nets[i] = &m
+			n = &m
 		}
+		sub.Nets = append(sub.Nets, n)
 	}
 	return ac.NewTransfer(sub, inName, outName, gangMid.options())
 }
