@@ -132,8 +132,27 @@ func (rs *Responses) Transfer(in, out string, o Options) (*Response, error) {
 	if _, reached := slices.BinarySearch(sub.nodes, k); k != 0 && k != n && !reached {
 		return &Response{zero: true}, nil // no stamp joins out to in: 0 by structure
 	}
+	if k != 0 && k != n {
+		sub = m.outPiece(n, k, isHeld)
+	}
 	s := assemble(m.nl, n, isHeld, sub)
 	return &Response{s: s, in: n, out: k, zero: k == 0}, nil
+}
+
+// outPiece is the piece of the block driven from n that holds out (k): the
+// block without n, whose voltage the source fixes, falls apart into pieces
+// no stamp joins but through n, and the others cannot move V(k). A supply
+// rail driven to read one decoupler's response otherwise brings in every
+// stage it feeds (all 22 channels of the 1,010-part bank). The piece holds
+// every primitive and winding group at its nodes, those that join it to n
+// included, and assemble orders each connected piece of the pattern on
+// its own, so its system is the block it is inside the whole, to the bit.
+func (m *model) outPiece(n, k int, isHeld []bool) *part {
+	n0 := isHeld[n]
+	isHeld[n] = true // not followed: the source's node
+	sub := m.component(k, isHeld)
+	isHeld[n] = n0
+	return sub
 }
 
 // Transimpedance is NewTransimpedance of the circuit.
