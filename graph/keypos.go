@@ -3,26 +3,46 @@ package graph
 import (
 	"strconv"
 	"strings"
+	"unicode/utf8"
 )
 
 // keyIndex maps key paths ("parts.R1.pins[0]") to where the key and its value
 // were written. The TOML decoder gives values without positions, so after it
 // has accepted a file we walk the text once more to learn where each key
 // stands; every later message can then name file:line:col.
+//
+// One map holds both places of a path, as line and column numbers without
+// the file name (every entry has the same file): a netlist of ten thousand
+// parts has some fifty thousand paths, and two maps of whole positions
+// were a fifth of its load (docs/performance.md, "Loading").
 type keyIndex struct {
 	file     string
-	keys     map[string]Pos // position of the key itself
-	vals     map[string]Pos // position of the first character of its value
+	at       map[string]keyAt
 	comments map[string]Comment
 }
 
+// keyAt is where a path's key and value stand. An array element has a value
+// and no key (keyLine 0); a path has no value position only when the scanner
+// met its key and then lost its way in text the decoder accepted.
+type keyAt struct {
+	keyLine, keyCol, valLine, valCol int32
+}
+
+func (a keyAt) hasKey() bool { return a.keyLine > 0 }
+func (a keyAt) hasVal() bool { return a.valLine > 0 }
+
+func (ix *keyIndex) pos(line, col int32) Pos {
+	return Pos{File: ix.file, Line: int(line), Col: int(col)}
+}
+
 func (ix *keyIndex) key(path string) Pos {
-	if p, ok := ix.keys[path]; ok {
-		return p
+	a, ok := ix.at[path]
+	if ok && a.hasKey() {
+		return ix.pos(a.keyLine, a.keyCol)
 	}
 	// An array element has no key: fall back to its value, then to the parent.
-	if p, ok := ix.vals[path]; ok {
-		return p
+	if ok && a.hasVal() {
+		return ix.pos(a.valLine, a.valCol)
 	}
 	if i := strings.LastIndexAny(path, ".["); i > 0 {
 		return ix.key(path[:i])
@@ -31,10 +51,16 @@ func (ix *keyIndex) key(path string) Pos {
 }
 
 func (ix *keyIndex) val(path string) Pos {
-	if p, ok := ix.vals[path]; ok {
-		return p
+	if a, ok := ix.at[path]; ok && a.hasVal() {
+		return ix.pos(a.valLine, a.valCol)
 	}
 	return ix.key(path)
+}
+
+// written tells whether the file gave path a value (a key or an element).
+func (ix *keyIndex) written(path string) bool {
+	a, ok := ix.at[path]
+	return ok && a.hasVal()
 }
 
 // KeyPositions tells where each key of a TOML text was written, for other
@@ -54,7 +80,7 @@ func (k *KeyPositions) Key(path string) Pos { return k.ix.key(path) }
 func (k *KeyPositions) Value(path string) Pos { return k.ix.val(path) }
 
 type keyScanner struct {
-	src     []rune
+	src     string
 	i       int
 	line    int
 	col     int
@@ -67,34 +93,50 @@ type keyScanner struct {
 
 // indexKeys scans TOML text that the decoder has already accepted.
 func indexKeys(file string, src string) *keyIndex {
-	ix := &keyIndex{file: file, keys: map[string]Pos{}, vals: map[string]Pos{}, comments: map[string]Comment{}}
-	s := &keyScanner{src: []rune(src), line: 1, col: 1, ix: ix, arrays: map[string]int{}}
+	ix := &keyIndex{file: file, at: make(map[string]keyAt, pathsAbout(src)), comments: map[string]Comment{}}
+	s := &keyScanner{src: src, line: 1, col: 1, ix: ix, arrays: map[string]int{}}
 	s.document()
 	return ix
 }
 
+// pathsAbout is about the number of paths a text holds, to size the map once
+// rather than grow it: a key has an equals sign, an array element a comma or
+// a closing bracket after it. Counting bytes costs a thousandth of the scan.
+func pathsAbout(src string) int {
+	return strings.Count(src, "=") + strings.Count(src, ",") + strings.Count(src, "]")
+}
+
 func (s *keyScanner) pos() Pos { return Pos{File: s.ix.file, Line: s.line, Col: s.col} }
 
-func (s *keyScanner) peek() rune {
+// peek is the byte at the scanner: every character the scanner decides on
+// is ASCII, and a byte of a longer character is none of them.
+func (s *keyScanner) peek() byte {
 	if s.i < len(s.src) {
 		return s.src[s.i]
 	}
 	return 0
 }
 
-func (s *keyScanner) next() rune {
+// next steps over one character; columns count characters, as they did
+// when the scanner walked the text's runes (a byte that is no UTF-8 is one).
+func (s *keyScanner) next() {
 	if s.i >= len(s.src) {
-		return 0
+		return
 	}
-	r := s.src[s.i]
-	s.i++
-	if r == '\n' {
+	c := s.src[s.i]
+	switch {
+	case c == '\n':
+		s.i++
 		s.line++
 		s.col = 1
-	} else {
-		s.col++
+		return
+	case c < utf8.RuneSelf:
+		s.i++
+	default:
+		_, size := utf8.DecodeRuneInString(s.src[s.i:])
+		s.i += size
 	}
-	return r
+	s.col++
 }
 
 func (s *keyScanner) skipSpace() {
@@ -118,13 +160,15 @@ func (s *keyScanner) skipBlank() {
 	}
 }
 
+// comment reads a comment to the end of its line. Its text is a copy, so
+// a circuit that keeps its comments does not keep the whole file.
 func (s *keyScanner) comment() string {
 	s.next() // '#'
 	start := s.i
 	for s.i < len(s.src) && s.src[s.i] != '\n' {
 		s.next()
 	}
-	return strings.TrimRight(string(s.src[start:s.i]), "\r")
+	return strings.Clone(strings.TrimRight(s.src[start:s.i], "\r"))
 }
 
 func (s *keyScanner) document() {
@@ -146,7 +190,7 @@ func (s *keyScanner) statement(table string) string {
 	s.skipSpace()
 	switch r := s.peek(); {
 	case r == '\n':
-		if len(s.pending) > 0 && len(s.ix.keys) == 0 && s.blankLine() {
+		if len(s.pending) > 0 && len(s.ix.at) == 0 && s.blankLine() {
 			// Comments at the top of the file, parted from the first key by
 			// a blank line, describe the file: they stay at the top.
 			s.ix.comments[HeaderComment] = Comment{Above: s.pending}
@@ -168,7 +212,7 @@ func (s *keyScanner) statement(table string) string {
 			arr = true
 		}
 		s.skipSpace()
-		table = strings.Join(s.keyParts(), ".")
+		table = s.keyPath()
 		s.skipSpace()
 		s.next()
 		if arr {
@@ -184,11 +228,9 @@ func (s *keyScanner) statement(table string) string {
 		s.last = table
 	default:
 		at := s.pos()
-		path := join(table, strings.Join(s.keyParts(), "."))
+		path := join(table, s.keyPath())
 		if s.blank && s.last != table { // not the first entry of its table
-			c := s.ix.comments[path]
-			c.Blank = true
-			s.ix.comments[path] = c
+			s.note(path, func(c *Comment) { c.Blank = true })
 		}
 		s.blank = false
 		s.skipSpace()
@@ -202,9 +244,8 @@ func (s *keyScanner) statement(table string) string {
 	}
 	s.skipSpace()
 	if s.peek() == '#' {
-		c := s.ix.comments[s.lastPath()]
-		c.After = s.comment()
-		s.ix.comments[s.lastPath()] = c
+		after := s.comment()
+		s.note(s.last, func(c *Comment) { c.After = after })
 	}
 	// Anything else on the line is not expected in valid TOML; skip it.
 	for s.peek() != '\n' && s.i < len(s.src) {
@@ -212,8 +253,6 @@ func (s *keyScanner) statement(table string) string {
 	}
 	return table
 }
-
-func (s *keyScanner) lastPath() string { return s.last }
 
 // blankLine reports whether the line the scanner stands at the end of holds
 // nothing but white space.
@@ -231,17 +270,33 @@ func (s *keyScanner) blankLine() bool {
 const HeaderComment = ""
 
 func (s *keyScanner) record(path string, key, val Pos) {
-	if _, dup := s.ix.keys[path]; !dup {
-		s.ix.keys[path] = key
-		s.ix.vals[path] = val
+	if a, dup := s.ix.at[path]; !dup || !a.hasKey() {
+		s.ix.at[path] = keyAt{int32(key.Line), int32(key.Col), int32(val.Line), int32(val.Col)}
 	}
 	if len(s.pending) > 0 {
-		c := s.ix.comments[path]
-		c.Above = append(c.Above, s.pending...)
-		s.ix.comments[path] = c
+		pending := s.pending
+		s.note(path, func(c *Comment) { c.Above = append(c.Above, pending...) })
 		s.pending = nil
 	}
 	s.last = path
+}
+
+// element records where an array element's value starts (it has no key).
+func (s *keyScanner) element(path string, val Pos) {
+	a := s.ix.at[path]
+	a.valLine, a.valCol = int32(val.Line), int32(val.Col)
+	s.ix.at[path] = a
+}
+
+// note changes the comments kept for path. A new entry's path is a copy:
+// a path may be a piece of the file's text, which the circuit need not keep.
+func (s *keyScanner) note(path string, change func(*Comment)) {
+	c, ok := s.ix.comments[path]
+	if !ok {
+		path = strings.Clone(path)
+	}
+	change(&c)
+	s.ix.comments[path] = c
 }
 
 func join(a, b string) string {
@@ -254,29 +309,38 @@ func join(a, b string) string {
 	return a + "." + b
 }
 
-// keyParts reads a possibly dotted, possibly quoted key.
-func (s *keyScanner) keyParts() []string {
-	var parts []string
-	for {
+// keyPath reads a possibly dotted, possibly quoted key and returns it with
+// its parts joined by dots. A bare key of one part is a piece of the text,
+// not a copy.
+func (s *keyScanner) keyPath() string {
+	s.skipSpace()
+	first := s.keyPart()
+	s.skipSpace()
+	if s.peek() != '.' {
+		return first
+	}
+	parts := []string{first}
+	for s.peek() == '.' {
+		s.next()
 		s.skipSpace()
-		switch s.peek() {
-		case '"':
-			parts = append(parts, s.basicString())
-		case '\'':
-			parts = append(parts, s.literalString())
-		default:
-			start := s.i
-			for isBareKey(s.peek()) {
-				s.next()
-			}
-			parts = append(parts, string(s.src[start:s.i]))
-		}
+		parts = append(parts, s.keyPart())
 		s.skipSpace()
-		if s.peek() != '.' {
-			return parts
-		}
+	}
+	return strings.Join(parts, ".")
+}
+
+func (s *keyScanner) keyPart() string {
+	switch s.peek() {
+	case '"':
+		return s.basicString(true)
+	case '\'':
+		return s.literalString()
+	}
+	start := s.i
+	for isBareKey(rune(s.peek())) {
 		s.next()
 	}
+	return s.src[start:s.i]
 }
 
 func isBareKey(r rune) bool {
@@ -295,7 +359,7 @@ func (s *keyScanner) value(path string) {
 			}
 			start := s.i
 			at := s.pos()
-			p := join(path, strings.Join(s.keyParts(), "."))
+			p := join(path, s.keyPath())
 			s.skipSpace()
 			if s.peek() == '=' {
 				s.next()
@@ -321,8 +385,7 @@ func (s *keyScanner) value(path string) {
 			}
 			start := s.i
 			p := path + "[" + strconv.Itoa(n) + "]"
-			at := s.pos()
-			s.ix.vals[p] = at
+			s.element(p, s.pos())
 			s.value(p)
 			s.skipBlank()
 			if s.peek() == ',' {
@@ -333,13 +396,13 @@ func (s *keyScanner) value(path string) {
 			}
 		}
 	case '"':
-		s.basicString()
+		s.basicString(false)
 	case '\'':
 		s.literalString()
 	default:
 		for {
-			r := s.peek()
-			if r == 0 || r == ',' || r == '}' || r == ']' || r == '\n' || r == '#' {
+			c := s.peek()
+			if c == 0 || c == ',' || c == '}' || c == ']' || c == '\n' || c == '#' {
 				return
 			}
 			s.next()
@@ -347,7 +410,10 @@ func (s *keyScanner) value(path string) {
 	}
 }
 
-func (s *keyScanner) basicString() string {
+// basicString steps over a string in double quotes; with want it returns
+// the string's text (a key's), else nothing (a value's: the decoder has
+// read it already).
+func (s *keyScanner) basicString(want bool) string {
 	if s.hasPrefix(`"""`) {
 		s.next()
 		s.next()
@@ -357,7 +423,11 @@ func (s *keyScanner) basicString() string {
 			if s.peek() == '\\' {
 				s.next()
 			}
-			b.WriteRune(s.next())
+			start := s.i
+			s.next()
+			if want {
+				b.WriteString(s.src[start:s.i])
+			}
 		}
 		s.next()
 		s.next()
@@ -365,7 +435,7 @@ func (s *keyScanner) basicString() string {
 		for s.peek() == '"' { // up to two quotes may close a multi-line string
 			s.next()
 		}
-		return b.String()
+		return runeString(b.String())
 	}
 	s.next()
 	start := s.i
@@ -375,8 +445,15 @@ func (s *keyScanner) basicString() string {
 		}
 		s.next()
 	}
-	raw := string(s.src[start:s.i])
+	end := s.i
 	s.next()
+	if !want {
+		return ""
+	}
+	raw := runeString(s.src[start:end])
+	if strings.IndexByte(raw, '\\') < 0 {
+		return raw // nothing to unquote
+	}
 	if u, err := strconv.Unquote(`"` + raw + `"`); err == nil {
 		return u
 	}
@@ -392,7 +469,7 @@ func (s *keyScanner) literalString() string {
 		for s.peek() != 0 && !s.hasPrefix(`'''`) {
 			s.next()
 		}
-		out := string(s.src[start:s.i])
+		out := runeString(s.src[start:s.i])
 		s.next()
 		s.next()
 		s.next()
@@ -407,20 +484,18 @@ func (s *keyScanner) literalString() string {
 	for s.peek() != 0 && s.peek() != '\'' && s.peek() != '\n' {
 		s.next()
 	}
-	out := string(s.src[start:s.i])
+	out := runeString(s.src[start:s.i])
 	s.next()
 	return out
 }
 
-func (s *keyScanner) hasPrefix(p string) bool {
-	rp := []rune(p)
-	if s.i+len(rp) > len(s.src) {
-		return false
+func (s *keyScanner) hasPrefix(p string) bool { return strings.HasPrefix(s.src[s.i:], p) }
+
+// runeString is s with each byte that is no UTF-8 made U+FFFD, as reading
+// the text as runes made it (text the decoder accepted is UTF-8 throughout).
+func runeString(s string) string {
+	if utf8.ValidString(s) {
+		return s
 	}
-	for k, r := range rp {
-		if s.src[s.i+k] != r {
-			return false
-		}
-	}
-	return true
+	return string([]rune(s))
 }

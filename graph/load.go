@@ -241,11 +241,11 @@ func (ld *loader) finish() {
 		}
 		checkNet(rp+".input", r.Input, "region input")
 		checkNet(rp+".output", r.Output, "region output")
-		if _, given := ld.ix.vals[rp+".band"]; given && !ld.bad[rp+".band"] && r.Band.Min <= 0 {
+		if given := ld.ix.written(rp + ".band"); given && !ld.bad[rp+".band"] && r.Band.Min <= 0 {
 			ld.errVal(rp+".band", "region %s: a band must start above 0 Hz", r.Name)
 		}
 	}
-	if _, given := ld.ix.vals["band"]; given && !ld.bad["band"] && c.Band.Min <= 0 {
+	if given := ld.ix.written("band"); given && !ld.bad["band"] && c.Band.Min <= 0 {
 		ld.errVal("band", "the band must start above 0 Hz (reactances are judged at its low edge)")
 	}
 	for _, n := range c.Nets {

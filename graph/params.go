@@ -139,7 +139,7 @@ func (ld *loader) checkWindings(path string, p *Part) {
 // halves NAMEa and NAMEb run from NAME1 and NAMEt).
 func (ld *loader) windingPath(path string, p *Part, w Winding) string {
 	if p.Kind == Inductor {
-		if _, tapped := ld.ix.vals[path+".tap"]; tapped {
+		if ld.ix.written(path + ".tap") {
 			return path + ".tap"
 		}
 		return path + ".l"
@@ -164,7 +164,7 @@ func (ld *loader) checkCoupling(path string, p *Part) {
 	ok := true
 	for _, c := range p.Coupling {
 		at := kp
-		if _, written := ld.ix.vals[kp+"."+c.A+"-"+c.B]; written {
+		if ld.ix.written(kp + "." + c.A + "-" + c.B) {
 			at = kp + "." + c.A + "-" + c.B
 		}
 		pair := [2]string{min(c.A, c.B), max(c.A, c.B)}
