@@ -191,6 +191,9 @@ func (d *depthScanner) skipString(q byte) {
 // the limit.
 func (ld *loader) checkCounts() {
 	c := ld.c
+	if len(c.Parts) <= MaxParts && !ld.netTooLarge() {
+		return
+	}
 	// Count in source order, so that "the first entry past the limit" is
 	// the one a reader finds by scrolling down, not the one that happens
 	// to come first in the order of reference designators.
@@ -214,4 +217,22 @@ func (ld *loader) checkCounts() {
 			}
 		}
 	}
+}
+
+// netTooLarge tells whether some net has more terminals than checkCounts
+// allows it: the counts in any order, so that a netlist within its limits,
+// nearly every one, is not put in source order only to find nothing.
+func (ld *loader) netTooLarge() bool {
+	count := make(map[string]int, len(ld.c.Nets))
+	for _, p := range ld.c.Parts {
+		for _, pin := range p.Pins {
+			count[pin.Net]++
+		}
+	}
+	for net, n := range count {
+		if n > MaxTerminalsPerNet && (n > MaxTerminalsPerACGroundNet || !ld.c.RoleOf(net).IsACGround()) {
+			return true
+		}
+	}
+	return false
 }

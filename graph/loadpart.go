@@ -4,7 +4,6 @@
 package graph
 
 import (
-	"regexp"
 	"sort"
 	"strings"
 	"unicode/utf8"
@@ -34,8 +33,6 @@ var capTypes = []string{CapFixed, CapElectrolytic, CapVariable, CapTrimmer}
 
 var indTypes = []string{IndPlain, IndChoke}
 
-var refPattern = regexp.MustCompile(`^[A-Za-z]+[0-9]+[A-Za-z]?$`)
-
 func (ld *loader) part(path, ref string, v any) {
 	p := &Part{Ref: ref, Pos: ld.ix.key(path)}
 	m, ok := v.(map[string]any)
@@ -43,8 +40,9 @@ func (ld *loader) part(path, ref string, v any) {
 		ld.errVal(path, "part %s must be an inline table such as { r = \"47k\", pins = [\"a\", \"b\"] }", ref)
 		return
 	}
+	keys := sortedKeys(m)
 	var kindKey string
-	for _, k := range sortedKeys(m) {
+	for _, k := range keys {
 		if kk, ok := kindKeys[k]; ok {
 			if kindKey != "" {
 				ld.errKey(path+"."+k, "part %s has two kind keys, %q and %q: use one", ref, kindKey, k)
@@ -57,61 +55,75 @@ func (ld *loader) part(path, ref string, v any) {
 		ld.errKey(path, "part %s has no kind key: give one of %s", ref, strings.Join(sortedKeys(kindKeys), ", "))
 		return
 	}
-	known := append(append(append([]string(nil), commonKeys...), extraKeys[p.Kind]...), ParamNames(p.Kind)...)
-	known = append(known, kindKey)
-	for _, k := range sortedKeys(m) {
-		if !contains(known, k) {
-			kp := path + "." + k
+	for _, k := range keys {
+		if !knownPartKey(p.Kind, kindKey, k) {
 			if _, isKind := kindKeys[k]; isKind {
 				continue // reported above
 			}
-			ld.unknown(kp, k, known)
+			ld.unknown(path+"."+k, k, knownPartKeys(p.Kind, kindKey))
 		}
 	}
 	ld.kindValue(path, p, kindKey, m)
-	for _, k := range sortedKeys(m) {
-		kp := path + "." + k
-		x := m[k]
-		switch k {
-		case "tol":
-			if s, ok := x.(string); ok {
-				t, err := value.ParseTolerance(s)
-				if err != nil {
-					ld.errVal(kp, "tol: %v", err)
-				}
-				p.Tol = t
-			} else {
-				ld.errVal(kp, "tol must be a string such as \"5%%\"")
-			}
-		case "rating":
-			p.Rating = ld.num(kp, x, value.Volt)
-		case "gang":
-			p.Gang = ld.str(kp, x)
-		case "keep":
-			p.Keep = ld.boolean(kp, x)
-		case "note":
-			p.Note = ld.str(kp, x)
-		case "envelope":
-			p.Envelope = ld.str(kp, x)
-		case "from":
-			p.From = ld.strList(kp, x)
-			sort.Strings(p.From)
-		case "adjust":
-			ld.adjust(kp, p, x)
-		default:
-			if contains(ParamNames(p.Kind), k) {
-				if p.Params == nil {
-					p.Params = map[string]float64{}
-				}
-				p.Params[k] = ld.num(kp, x, paramUnit(k))
-			}
-		}
+	for _, k := range keys {
+		ld.partKey(path, p, k, m[k])
 	}
 	ld.pins(path, p, m["pins"])
-	if !refPattern.MatchString(ref) {
+	if !isRefDesignator(ref) {
 		ld.errKey(path, "malformed reference designator %q: write letters then a number, e.g. R12, C3, V1a", ref)
 	}
 	ld.c.Parts = append(ld.c.Parts, p)
+}
+
+// knownPartKeys are the keys a part of kind k chosen by kindKey accepts, in
+// the order a message lists them.
+func knownPartKeys(k Kind, kindKey string) []string {
+	known := append(append(append([]string(nil), commonKeys...), extraKeys[k]...), ParamNames(k)...)
+	return append(known, kindKey)
+}
+
+// knownPartKey tells whether knownPartKeys(k, kindKey) holds key: asked of
+// every key of every part, so without building the list.
+func knownPartKey(k Kind, kindKey, key string) bool {
+	return key == kindKey || contains(commonKeys, key) || contains(extraKeys[k], key) || contains(ParamNames(k), key)
+}
+
+// partKey reads one of a part's common keys or device parameters; the kind
+// key, type, pins and the kind's settings are read elsewhere.
+func (ld *loader) partKey(path string, p *Part, k string, x any) {
+	switch k {
+	case "tol":
+		if s, ok := x.(string); ok {
+			t, err := value.ParseTolerance(s)
+			if err != nil {
+				ld.errVal(path+"."+k, "tol: %v", err)
+			}
+			p.Tol = t
+		} else {
+			ld.errVal(path+"."+k, "tol must be a string such as \"5%%\"")
+		}
+	case "rating":
+		p.Rating = ld.num(path+"."+k, x, value.Volt)
+	case "gang":
+		p.Gang = ld.str(path+"."+k, x)
+	case "keep":
+		p.Keep = ld.boolean(path+"."+k, x)
+	case "note":
+		p.Note = ld.str(path+"."+k, x)
+	case "envelope":
+		p.Envelope = ld.str(path+"."+k, x)
+	case "from":
+		p.From = ld.strList(path+"."+k, x)
+		sort.Strings(p.From)
+	case "adjust":
+		ld.adjust(path+"."+k, p, x)
+	default:
+		if contains(ParamNames(p.Kind), k) {
+			if p.Params == nil {
+				p.Params = map[string]float64{}
+			}
+			p.Params[k] = ld.num(path+"."+k, x, paramUnit(k))
+		}
+	}
 }
 
 // valveParams refuses the parameters that do not fit the valve's type: a
@@ -267,9 +279,6 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 	}
 }
 
-// bareNumber is a value written as digits alone, no unit and no prefix.
-var bareNumber = regexp.MustCompile(`^\s*[0-9]*\.?[0-9]+([eE][-+]?[0-9]+)?\s*$`)
-
 // isBare tells whether a value was written as a bare number: a TOML number,
 // or a string of digits alone ("0.05").
 func isBare(v any) bool {
@@ -277,7 +286,7 @@ func isBare(v any) bool {
 	case int64, float64:
 		return true
 	case string:
-		return bareNumber.MatchString(t)
+		return isBareNumber(t)
 	}
 	return false
 }

@@ -5,7 +5,6 @@ package graph
 
 import (
 	"fmt"
-	"regexp"
 	"sort"
 	"strconv"
 	"strings"
@@ -29,7 +28,7 @@ func (ld *loader) pins(path string, p *Part, v any) {
 			return
 		}
 		for i, e := range t {
-			ep := fmt.Sprintf("%s[%d]", pp, i)
+			ep := pp + "[" + strconv.Itoa(i) + "]"
 			net := ld.netName(ep, e)
 			p.Pins = append(p.Pins, Pin{Name: names[i], Net: net, Pos: ld.ix.val(ep)})
 		}
@@ -171,15 +170,13 @@ func sortPins(p *Part) {
 	})
 }
 
-var netPattern = regexp.MustCompile(`^[A-Za-z0-9_+\-.]+$`)
-
 func (ld *loader) netName(path string, v any) string {
 	s, ok := v.(string)
 	if !ok {
 		ld.errVal(path, "a pin's net must be a name in quotes, not %s", typeName(v))
 		return ""
 	}
-	if !netPattern.MatchString(s) {
+	if !isNetName(s) {
 		ld.errVal(path, "net name %q: use letters, digits and _ + - . only", s)
 	}
 	return s
