@@ -69,6 +69,7 @@ func alignGuide(path string, switches ...pipeline.SwitchSetting) (*align.Guide, 
 	po := jobOptions(path, jobConfig{level: rules.LevelSignal})
 	po.Switches = switches
 	po.Until, po.Verify, po.Views = pipeline.PhaseStages, false, nil
+	po.Loaded = loaded
 	res, err := pipeline.Run(po)
 	if err != nil {
 		return nil, err

@@ -38,7 +38,7 @@ func runFmt(e *env, o *fmtOpts, args []string) int {
 		return exitBad
 	}
 	path := args[0]
-	res, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseLoad})
+	res, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseLoad, Loaded: loaded})
 	if loadFailed(e, path, err) {
 		return exitBad
 	}

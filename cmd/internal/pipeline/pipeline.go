@@ -87,6 +87,10 @@ type Options struct {
 	// the other bands a later step will ask BandRun for (align.BandSets):
 	// their runs start then, beside the drawing (bands.go).
 	BandSets func(*graph.Circuit, []stages.Stage) []map[string]int
+	// Loaded, when set, is called once the file is read, loaded or
+	// refused, before any other phase: the command's moment to change
+	// what suits loading (the collector, cmd/pare/main.go) back.
+	Loaded func()
 
 	// Reduction.
 	Level       rules.Level
@@ -207,6 +211,9 @@ func Run(o Options) (*Result, error) {
 	}
 	r := &Result{Path: o.Path, Level: o.Level, Compare: o.Compare, opts: o}
 	c, err := graph.LoadFile(o.Path)
+	if o.Loaded != nil {
+		o.Loaded()
+	}
 	if err != nil {
 		return r, &Error{Phase: PhaseLoad, Err: err}
 	}
