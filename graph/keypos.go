@@ -18,15 +18,24 @@ import (
 type keyIndex struct {
 	file     string
 	at       map[string]keyAt
+	elems    []elemAt // the elements of keyed arrays, each array's in a run (keyAt.elems)
+	rescans  bool     // a keyed array was scanned twice: its elements went to the map too
 	comments map[string]Comment
 }
 
 // keyAt is where a path's key and value stand. An array element has a value
 // and no key (keyLine 0); a path has no value position only when the scanner
-// met its key and then lost its way in text the decoder accepted.
+// met its key and then lost its way in text the decoder accepted. The
+// elements of an array written under a key (pins = ["a", "b"]) are not
+// paths of their own but a run of elems: two of the five paths of a
+// two-pin part.
 type keyAt struct {
 	keyLine, keyCol, valLine, valCol int32
+	elems, nElems                    int32 // the array's run in keyIndex.elems
 }
+
+// elemAt is where an element of a keyed array starts.
+type elemAt struct{ line, col int32 }
 
 func (a keyAt) hasKey() bool { return a.keyLine > 0 }
 func (a keyAt) hasVal() bool { return a.valLine > 0 }
@@ -35,8 +44,40 @@ func (ix *keyIndex) pos(line, col int32) Pos {
 	return Pos{File: ix.file, Line: int(line), Col: int(col)}
 }
 
-func (ix *keyIndex) key(path string) Pos {
+// lookup finds what the scanner recorded for path, a path of its own or an
+// element of a keyed array (path ends in [i]).
+func (ix *keyIndex) lookup(path string) (keyAt, bool) {
+	if a, ok := ix.at[path]; ok {
+		return a, true
+	}
+	n := len(path)
+	if n < 3 || path[n-1] != ']' {
+		return keyAt{}, false
+	}
+	open := strings.LastIndexByte(path, '[')
+	digits := path[open+1 : n-1]
+	if open <= 0 || digits == "" || !isDigit(digits[0]) || (digits[0] == '0' && len(digits) > 1) {
+		return keyAt{}, false // only the spelling strconv.Itoa gives names an element
+	}
+	i, err := strconv.Atoi(digits)
+	if err != nil {
+		return keyAt{}, false
+	}
+	return ix.element(path[:open], i)
+}
+
+// element is the i-th element of the keyed array at path, from its run.
+func (ix *keyIndex) element(path string, i int) (keyAt, bool) {
 	a, ok := ix.at[path]
+	if !ok || i < 0 || i >= int(a.nElems) {
+		return keyAt{}, false
+	}
+	e := ix.elems[int(a.elems)+i]
+	return keyAt{valLine: e.line, valCol: e.col}, true
+}
+
+func (ix *keyIndex) key(path string) Pos {
+	a, ok := ix.lookup(path)
 	if ok && a.hasKey() {
 		return ix.pos(a.keyLine, a.keyCol)
 	}
@@ -51,15 +92,26 @@ func (ix *keyIndex) key(path string) Pos {
 }
 
 func (ix *keyIndex) val(path string) Pos {
-	if a, ok := ix.at[path]; ok && a.hasVal() {
+	if a, ok := ix.lookup(path); ok && a.hasVal() {
 		return ix.pos(a.valLine, a.valCol)
 	}
 	return ix.key(path)
 }
 
+// elemVal is val(path + "[i]") without making the path: where the i-th
+// element of the array at path starts.
+func (ix *keyIndex) elemVal(path string, i int) Pos {
+	if !ix.rescans {
+		if a, ok := ix.element(path, i); ok {
+			return ix.pos(a.valLine, a.valCol)
+		}
+	}
+	return ix.val(path + "[" + strconv.Itoa(i) + "]")
+}
+
 // written tells whether the file gave path a value (a key or an element).
 func (ix *keyIndex) written(path string) bool {
-	a, ok := ix.at[path]
+	a, ok := ix.lookup(path)
 	return ok && a.hasVal()
 }
 
@@ -89,6 +141,7 @@ type keyScanner struct {
 	blank   bool           // a blank line since the last statement
 	last    string         // the path recorded last, for a comment after it on its line
 	arrays  map[string]int // [[name]] headers seen so far
+	stack   []elemAt       // elements of the keyed arrays being read
 }
 
 // indexKeys scans TOML text that the decoder has already accepted.
@@ -100,10 +153,11 @@ func indexKeys(file string, src string) *keyIndex {
 }
 
 // pathsAbout is about the number of paths a text holds, to size the map once
-// rather than grow it: a key has an equals sign, an array element a comma or
-// a closing bracket after it. Counting bytes costs a thousandth of the scan.
+// rather than grow it: a key has an equals sign, a table header or an array
+// inside an array a bracket (a keyed array's elements are no paths).
+// Counting bytes costs a thousandth of the scan.
 func pathsAbout(src string) int {
-	return strings.Count(src, "=") + strings.Count(src, ",") + strings.Count(src, "]")
+	return strings.Count(src, "=") + strings.Count(src, "[")
 }
 
 func (s *keyScanner) pos() Pos { return Pos{File: s.ix.file, Line: s.line, Col: s.col} }
@@ -239,7 +293,7 @@ func (s *keyScanner) statement(table string) string {
 		}
 		s.skipSpace()
 		s.record(path, at, s.pos())
-		s.value(path)
+		s.value(path, true)
 		s.last = path
 	}
 	s.skipSpace()
@@ -271,7 +325,7 @@ const HeaderComment = ""
 
 func (s *keyScanner) record(path string, key, val Pos) {
 	if a, dup := s.ix.at[path]; !dup || !a.hasKey() {
-		s.ix.at[path] = keyAt{int32(key.Line), int32(key.Col), int32(val.Line), int32(val.Col)}
+		s.ix.at[path] = keyAt{keyLine: int32(key.Line), keyCol: int32(key.Col), valLine: int32(val.Line), valCol: int32(val.Col)}
 	}
 	if len(s.pending) > 0 {
 		pending := s.pending
@@ -347,7 +401,9 @@ func isBareKey(r rune) bool {
 	return r == '_' || r == '-' || (r >= 'a' && r <= 'z') || (r >= 'A' && r <= 'Z') || (r >= '0' && r <= '9')
 }
 
-func (s *keyScanner) value(path string) {
+// value steps over the value of path; keyed says path was recorded under a
+// key, so an array there keeps its elements as a run (keyAt.elems).
+func (s *keyScanner) value(path string, keyed bool) {
 	switch s.peek() {
 	case '{':
 		s.next()
@@ -366,7 +422,7 @@ func (s *keyScanner) value(path string) {
 			}
 			s.skipBlank()
 			s.record(p, at, s.pos())
-			s.value(p)
+			s.value(p, true)
 			s.skipBlank()
 			if s.peek() == ',' {
 				s.next()
@@ -377,24 +433,20 @@ func (s *keyScanner) value(path string) {
 		}
 	case '[':
 		s.next()
-		for n := 0; ; n++ {
-			s.skipBlank()
-			if s.peek() == ']' || s.i >= len(s.src) {
-				s.next()
-				return
-			}
-			start := s.i
-			p := path + "[" + strconv.Itoa(n) + "]"
-			s.element(p, s.pos())
-			s.value(p)
-			s.skipBlank()
-			if s.peek() == ',' {
-				s.next()
-			}
-			if s.i == start {
-				return // as above: never loop on text the scanner cannot place
-			}
+		if a := s.ix.at[path]; keyed && a.nElems == 0 {
+			base := len(s.stack)
+			s.array(path, true)
+			a = s.ix.at[path]
+			a.elems, a.nElems = int32(len(s.ix.elems)), int32(len(s.stack)-base)
+			s.ix.elems = append(s.ix.elems, s.stack[base:]...)
+			s.ix.at[path] = a
+			s.stack = s.stack[:base]
+			return
 		}
+		if keyed {
+			s.ix.rescans = true
+		}
+		s.array(path, false)
 	case '"':
 		s.basicString(false)
 	case '\'':
@@ -406,6 +458,37 @@ func (s *keyScanner) value(path string) {
 				return
 			}
 			s.next()
+		}
+	}
+}
+
+// array steps over the elements of the array at path, its '[' read. With
+// run, each element's place goes on the stack and only a table or array
+// in it is given a path; else each element is a path of its own.
+func (s *keyScanner) array(path string, run bool) {
+	for n := 0; ; n++ {
+		s.skipBlank()
+		if s.peek() == ']' || s.i >= len(s.src) {
+			s.next()
+			return
+		}
+		start := s.i
+		p := ""
+		if c := s.peek(); !run || c == '{' || c == '[' {
+			p = path + "[" + strconv.Itoa(n) + "]"
+		}
+		if run {
+			s.stack = append(s.stack, elemAt{int32(s.line), int32(s.col)})
+		} else {
+			s.element(p, s.pos())
+		}
+		s.value(p, false)
+		s.skipBlank()
+		if s.peek() == ',' {
+			s.next()
+		}
+		if s.i == start {
+			return // as above: never loop on text the scanner cannot place
 		}
 	}
 }

@@ -1,6 +1,9 @@
 package graph
 
 import (
+	"os"
+	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -65,6 +68,48 @@ func TestKeyScannerTerminates(t *testing.T) {
 		case <-done:
 		case <-time.After(5 * time.Second):
 			t.Fatalf("scanner did not finish on %q", in)
+		}
+	}
+}
+
+// TestElementRuns: an element of a keyed array, kept in its array's run
+// rather than as a path, is found by its path (name[i]) and by elemVal as
+// it was when every element was a path: on every example and fixture, and
+// on text that writes a keyed array twice (the decoder refuses it, the
+// scanner still reads it: the second array's elements win, the first's
+// beyond them stay).
+func TestElementRuns(t *testing.T) {
+	files, _ := filepath.Glob("../examples/*.toml")
+	more, _ := filepath.Glob("../testdata/*/*.toml")
+	srcs := map[string]string{"twice": "a = [1, 2, 3]\na = [\n 4]\nb = { c = [[5], [6, 7]] }\n"}
+	for _, f := range append(files, more...) {
+		data, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		srcs[f] = string(data)
+	}
+	for name, src := range srcs {
+		ix := indexKeys(name, src)
+		for path, a := range ix.at {
+			for i := 0; i < int(a.nElems)+1; i++ {
+				ep := path + "[" + strconv.Itoa(i) + "]"
+				if got, want := ix.elemVal(path, i), ix.val(ep); got != want {
+					t.Errorf("%s: elemVal(%s, %d) = %v, val = %v", name, path, i, got, want)
+				}
+				if _, ok := ix.lookup(ep); ok != (i < int(a.nElems)) && !ix.rescans {
+					t.Errorf("%s: %s found %v with %d elements", name, ep, ok, a.nElems)
+				}
+				if _, ok := ix.lookup(path + "[0" + strconv.Itoa(i) + "]"); ok {
+					t.Errorf("%s: %s[0%d] found: only Itoa's spelling names an element", name, path, i)
+				}
+			}
+		}
+	}
+	ix := indexKeys("twice", srcs["twice"])
+	for path, want := range map[string][2]int{"a[0]": {3, 2}, "a[1]": {1, 9}, "a[2]": {1, 12}, "b.c[1]": {4, 17}, "b.c[1][1]": {4, 21}} {
+		if p := ix.val(path); p.Line != want[0] || p.Col != want[1] {
+			t.Errorf("twice: %s at %d:%d, want %d:%d", path, p.Line, p.Col, want[0], want[1])
 		}
 	}
 }
