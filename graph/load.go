@@ -26,11 +26,24 @@ func Parse(file string, data []byte) (*Circuit, error) {
 	if err := CheckTOML(file, data); err != nil {
 		return nil, err
 	}
+	// The key positions are scanned beside the decoder, on another core:
+	// the scanner ends on any text (TestKeyScannerTerminates), and its
+	// index is dropped if the decoder refuses the file.
+	src := string(data)
+	scanned := make(chan *keyIndex, 1)
+	go scanBeside(file, src, scanned)
 	var raw map[string]any
-	if _, err := toml.Decode(string(data), &raw); err != nil {
+	_, err := toml.Decode(src, &raw)
+	ix := <-scanned
+	if err != nil {
 		return nil, DecodeError(file, data, err)
 	}
-	ld := &loader{ix: indexKeys(file, string(data)), c: &Circuit{File: file, Freqs: map[string]float64{}}}
+	if ix == nil {
+		// The scanner failed on text the decoder accepted: scan again
+		// here, where a failure shows as it did before the scan moved.
+		ix = indexKeys(file, src)
+	}
+	ld := &loader{ix: ix, c: &Circuit{File: file, Freqs: map[string]float64{}}}
 	ld.circuit(raw)
 	if err := ld.errs.Err(); err != nil {
 		ld.errs.Sort()
@@ -39,6 +52,18 @@ func Parse(file string, data []byte) (*Circuit, error) {
 	ld.c.Comments = ld.ix.comments
 	ld.c.ReferQ()
 	return ld.c, nil
+}
+
+// scanBeside sends the key index of src, or nil if the scanner failed: a
+// failure on another goroutine would end the process, and on text the
+// decoder refuses the index is not wanted.
+func scanBeside(file, src string, out chan<- *keyIndex) {
+	defer func() {
+		if recover() != nil {
+			out <- nil
+		}
+	}()
+	out <- indexKeys(file, src)
 }
 
 type loader struct {
