@@ -76,3 +76,48 @@ func isBareNumber(s string) bool {
 	}
 	return i == len(s)
 }
+
+// skipWhite is the index after the white space (\s in Go's expressions)
+// that starts at i.
+func skipWhite(s string, i int) int {
+	for i < len(s) && (s[i] == ' ' || s[i] == '\t' || s[i] == '\n' || s[i] == '\f' || s[i] == '\r') {
+		i++
+	}
+	return i
+}
+
+// looksDashRange: a value, maybe a unit, then a dash and a digit: a span
+// written with a dash ("530k-1700k"), a slip for ".."; the expression
+// ^\s*[0-9][0-9.]*\s*[A-Za-z\u00b5\u03a9]*\s*[-\u2013]\s*[0-9], asked of every
+// capacitor's value.
+func looksDashRange(s string) bool {
+	i := skipWhite(s, 0)
+	if i >= len(s) || !isDigit(s[i]) {
+		return false
+	}
+	for i++; i < len(s) && (isDigit(s[i]) || s[i] == '.'); i++ {
+	}
+	i = skipWhite(s, i)
+	for i < len(s) {
+		switch {
+		case isLetter(s[i]):
+			i++
+		case strings.HasPrefix(s[i:], "\u00b5"), strings.HasPrefix(s[i:], "\u03a9"):
+			i += 2
+		default:
+			goto dash
+		}
+	}
+dash:
+	i = skipWhite(s, i)
+	switch {
+	case i < len(s) && s[i] == '-':
+		i++
+	case strings.HasPrefix(s[i:], "\u2013"):
+		i += len("\u2013")
+	default:
+		return false
+	}
+	i = skipWhite(s, i)
+	return i < len(s) && isDigit(s[i])
+}

@@ -5,7 +5,6 @@ package graph
 
 import (
 	"fmt"
-	"regexp"
 	"strconv"
 	"strings"
 
@@ -110,12 +109,9 @@ func normaliseUnit(s string, u value.Unit) string {
 	return s
 }
 
-// dashRange matches a span written with a dash ("530k-1700k"), a slip for "..".
-var dashRange = regexp.MustCompile(`^\s*[0-9][0-9.]*\s*[A-Za-zµΩ]*\s*[-–]\s*[0-9]`)
-
 func (ld *loader) rng(path string, v any, u value.Unit) value.Range {
 	if s, ok := v.(string); ok && !strings.Contains(s, "..") && !strings.Contains(s, "\u2026") {
-		if dashRange.MatchString(s) && !isOneValue(s, u) {
+		if looksDashRange(s) && !isOneValue(s, u) {
 			ld.errVal(path, "%s: %q: write a range with \"..\" between the two values, e.g. \"530k..1700k\"", lastKey(path), s)
 			return value.Range{}
 		}
