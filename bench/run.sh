@@ -84,10 +84,17 @@ done
 if [ "$ladder" -gt 0 ] && command -v ngspice >/dev/null; then
 	"$work/gen" -ladder "$ladder" >"$work/ladder.toml"
 	"$work/pare" spice "$work/ladder.toml" -o "$work/ladder.cir" >/dev/null
-	echo "# RC ladder, $ladder sections: whole processes, paired (pare sweep 101 points; ngspice -b on pare's own deck)"
-	for i in 1 2 3; do
-		p=$(/usr/bin/time -f '%e %M' "$work/pare" sweep "$work/ladder.toml" 2>&1 >/dev/null | tail -n 1)
-		s=$(cd "$work" && /usr/bin/time -f '%e %M' ngspice -b ladder.cir 2>&1 >/dev/null | tail -n 1)
-		echo "run $i: pare ${p% *} s (${p#* } KB), ngspice ${s% *} s (${s#* } KB)"
+	echo "# RC ladder, $ladder sections: whole processes, paired (pare sweep 101 points; ngspice -b on pare's own deck); CPU is user + system"
+	# timed NAME CMD...: prints "NAME wall W s, cpu C s, peak M MB".
+	timed() {
+		local name=$1
+		shift
+		/usr/bin/time -f '%e %U %S %M' -o "$work/pair.txt" "$@" >/dev/null 2>&1
+		awk -v n="$name" '{ printf "%s wall %.2f s, cpu %.2f s, peak %.0f MB", n, $1, $2 + $3, $4 / 1024 }' "$work/pair.txt"
+	}
+	for i in 1 2 3 4 5; do
+		p=$(timed pare "$work/pare" sweep "$work/ladder.toml")
+		s=$(cd "$work" && timed ngspice ngspice -b ladder.cir)
+		echo "pair $i (load $(cut -d' ' -f1 /proc/loadavg)): $p; $s"
 	done
 fi
