@@ -14,7 +14,8 @@ import (
 // One map holds both places of a path, as line and column numbers without
 // the file name (every entry has the same file): a netlist of ten thousand
 // parts has some fifty thousand paths, and two maps of whole positions
-// were a fifth of its load (docs/performance.md, "Loading").
+// were a fifth of its load (docs/performance.md, "Loading, and `pare
+// sweep` against ngspice").
 type keyIndex struct {
 	file     string
 	at       map[string]keyAt

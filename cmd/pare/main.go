@@ -112,8 +112,9 @@ func main() {
 // it on): loading builds the decoder's tables and the key positions, all
 // garbage once the circuit is made, and collecting while they grow marked
 // them twice over, some 90 ms of CPU in the 0.8 s of `pare sweep` on the
-// 10,000-section ladder (docs/performance.md, "Loading"). The limit still
-// holds: near it the collector runs whatever the percentage says.
+// 10,000-section ladder (docs/performance.md, "Loading, and `pare sweep`
+// against ngspice"). The limit still holds: near it the collector runs
+// whatever the percentage says.
 func tuneCollector() {
 	if _, set := os.LookupEnv("GOGC"); set {
 		return
