@@ -3,6 +3,7 @@ package render
 import (
 	"bytes"
 	"fmt"
+	"math"
 	"sort"
 
 	svg "github.com/ajstarks/svgo/float"
@@ -78,28 +79,54 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	if s == nil || s.Circuit == nil {
 		return nil, fmt.Errorf("render: no circuit to draw")
 	}
-	_, _, laid, err := cfg.flowRows(s)
+	f, ends, laid, err := cfg.flowRows(s)
 	if err != nil {
 		return nil, err
 	}
 	cw, ch := cfg.Page.content()
 	avail := ch - 1 - cfg.footReserve(s)
+	loose := looseRow(f.bs, ends)
 	var pages []*layout.Result
-	y, alone := 0.0, false
-	for _, r := range laid {
+	var ys []float64 // where the next row goes on each page; +Inf on a page kept alone
+	for i, r := range laid {
+		if i == loose {
+			continue
+		}
 		b := r.Geom.Bounds
 		// a row too big for the page (a stage never cut) has a page of
 		// its own, drawn smaller: the rows beside it keep the paper's scale
 		big := b.W() > cw || b.H() > avail
-		if len(pages) == 0 || y+b.H() > avail || big || alone {
-			pages = append(pages, &layout.Result{})
-			y = 0
+		if n := len(ys); n == 0 || ys[n-1]+b.H() > avail || big {
+			pages, ys = append(pages, &layout.Result{}), append(ys, 0)
 		}
-		pages[len(pages)-1].Add(r.Moved(geom.Pt{X: -b.X0, Y: y - b.Y0}))
-		y += b.H() + rowGap
-		alone = big
+		n := len(ys) - 1
+		pages[n].Add(r.Moved(geom.Pt{X: -b.X0, Y: ys[n] - b.Y0}))
+		ys[n] += b.H() + rowGap
+		if big {
+			ys[n] = math.Inf(1)
+		}
+	}
+	if loose >= 0 {
+		pages = stackLoose(pages, ys, laid[loose], avail)
 	}
 	return pages, nil
+}
+
+// stackLoose puts the row of loose parts (hostLoose found no row to take
+// them) under the rows of the last page with room for it, else on a page
+// of its own: out of signal order it costs nothing, a page of its own a
+// sheet with no stage on it.
+func stackLoose(pages []*layout.Result, ys []float64, r *layout.Result, avail float64) []*layout.Result {
+	b := r.Geom.Bounds
+	k := len(pages) - 1
+	for k >= 0 && ys[k]+b.H() > avail {
+		k--
+	}
+	if k < 0 {
+		pages, ys, k = append(pages, &layout.Result{}), append(ys, 0), len(pages)
+	}
+	pages[k].Add(r.Moved(geom.Pt{X: -b.X0, Y: ys[k] - b.Y0}))
+	return pages
 }
 
 // flowRows cuts the sheet into rows that fill the page's width in signal
@@ -128,7 +155,7 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 		}
 		more := pieceOut(bs, ends, laid, cw, ch)
 		if more == nil {
-			return f, ends, laid, nil
+			return cfg.hostLoose(f, ends, laid, cw, ch)
 		}
 		bs = more
 	}

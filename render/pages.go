@@ -66,7 +66,8 @@ type block struct {
 	x0, x1 float64
 	refs   []string
 	port   bool
-	ch     int // the channel it belongs to (channels), 0 on a set of one
+	ch     int  // the channel it belongs to (channels), 0 on a set of one
+	loose  bool // the parts wired to no stretch nor to the signal path's ends (beside)
 	// pieces are the stretches this one was joined from (a supply's
 	// smoothing frame after its rectifier, frames overlapping in x), in
 	// signal order, when there are several: a stretch too big for the
@@ -129,14 +130,22 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		}
 	}
 	with := beside(s.Circuit, blockOf)
+	var loose, sockets []*graph.Part
 	for _, p := range s.Circuit.Parts {
-		if i, ok := with[p.Ref]; ok && !framed[p.Ref] && ext[p.Ref] != (geom.Rect{}) {
+		if framed[p.Ref] || ext[p.Ref] == (geom.Rect{}) {
+			continue
+		}
+		if i, ok := with[p.Ref]; ok {
 			framed[p.Ref] = true
-			bs[i].refs = append(bs[i].refs, p.Ref)
-			if len(bs[i].pieces) > 0 {
-				k := pieceOf(s.Circuit, bs[i].pieces, p)
-				bs[i].pieces[k].refs = append(bs[i].pieces[k].refs, p.Ref)
+			if i < 0 {
+				loose = append(loose, p)
+			} else {
+				ride(s.Circuit, &bs[i], p)
 			}
+			continue
+		}
+		if p.Kind == graph.Port && !opens(s.Circuit, p) {
+			sockets = append(sockets, p)
 			continue
 		}
 		add([]string{p.Ref}, false)
@@ -160,6 +169,8 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		}
 		out = append(out, b)
 	}
+	out = looseLast(out, loose, ext)
+	out = homeSockets(s.Circuit, out, sockets, ext)
 	if len(out) > 0 && out[len(out)-1].ch > 0 {
 		inLine(out)
 	}
@@ -198,8 +209,15 @@ func pieceOf(c *graph.Circuit, pieces []block, p *graph.Part) int {
 // rectifier's row, not on the row before it with connectors to the
 // primary. Their x spans are left out of the stretch's: the row lays them
 // out afresh, and a span reaching back would swallow the stretches
-// between.
+// between. Parts wired to no stretch at all and to neither end of the
+// signal path (a heater bypass, a dial lamp, an AGC feed resistor from a
+// socket to the AGC line) are loose (-1): on a sheet with stages they have
+// no place in signal order (looseLast).
 func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
+	ends := map[string]bool{}
+	for _, n := range append(append([]string{}, c.Inputs...), c.Outputs...) {
+		ends[n] = true
+	}
 	free := func(p *graph.Part) bool { _, in := blockOf[p.Ref]; return !in && p.Kind != graph.Port }
 	seen := map[string]bool{}
 	out := map[string]int{}
@@ -207,7 +225,7 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 		if seen[p.Ref] || !free(p) {
 			continue
 		}
-		group, at, ok := []string{}, -1, true
+		group, at, ok, signal := []string{}, -1, true, false
 		queue := []*graph.Part{p}
 		seen[p.Ref] = true
 		for len(queue) > 0 {
@@ -218,6 +236,7 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 				if pn.Net == "" || pn.Net == graph.NotConnected || c.RoleOf(pn.Net).IsACGround() {
 					continue
 				}
+				signal = signal || ends[pn.Net]
 				for _, cn := range c.ConnsOf(pn.Net) {
 					r := cn.Part
 					if i, in := blockOf[r.Ref]; in {
@@ -230,7 +249,10 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 				}
 			}
 		}
-		if ok && at >= 0 {
+		if at < 0 && (signal || len(blockOf) == 0) {
+			continue
+		}
+		if ok {
 			for _, r := range group {
 				out[r] = at
 			}
