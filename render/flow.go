@@ -136,10 +136,10 @@ func (f *flow) continues(parts []*graph.Part, a, b int) []layout.Continuation {
 	var out []layout.Continuation
 	for _, n := range nets {
 		if f.first[n] < a {
-			out = append(out, layout.Continuation{Net: n, Label: n, In: true})
+			out = append(out, layout.Continuation{Net: n, Label: f.connectorLabel(n), In: true})
 		}
 		if f.last[n] >= b {
-			out = append(out, layout.Continuation{Net: n, Label: n})
+			out = append(out, layout.Continuation{Net: n, Label: f.connectorLabel(n)})
 		}
 	}
 	return out
