@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/render/check"
 )
 
 // numberedChain is chainSheet(stages) with every signal net renamed to a
@@ -72,7 +73,7 @@ func TestConnectorsNameWhatTheReaderFinds(t *testing.T) {
 		}
 		label := map[string]string{}
 		for i := range ends {
-			for _, k := range f.sheet(start(ends, i), ends[i]).continues {
+			for _, k := range f.sheet(start(ends, i), ends[i], false).continues {
 				if !tc.want(k.Label) {
 					t.Errorf("%s row %d: connector of %s says %q", tc.name, i+1, k.Net, k.Label)
 				}
@@ -85,5 +86,65 @@ func TestConnectorsNameWhatTheReaderFinds(t *testing.T) {
 		if len(label) == 0 {
 			t.Errorf("%s: no off-row connector", tc.name)
 		}
+	}
+}
+
+// TestLineFedOnIsNotLedAcrossARow: a line every stage takes (an AGC line)
+// leaves the row it starts on by one outgoing connector and enters each
+// later row by an incoming one with the same label; a row it only passes
+// through does not lead it on from its left edge to its right (the review
+// of issue 12: off-row leads looping over a whole row). The connectors
+// still pair up across the pages.
+func TestLineFedOnIsNotLedAcrossARow(t *testing.T) {
+	s := chainSheet(3)
+	c := &graph.Circuit{Title: s.Circuit.Title, Inputs: s.Circuit.Inputs, Outputs: s.Circuit.Outputs}
+	c.EnsureNet("gnd", graph.Pos{})
+	ht := c.EnsureNet("ht", graph.Pos{})
+	ht.Role, ht.Volts, ht.Label = graph.Supply, 250, "HT +250 V"
+	for _, p := range s.Circuit.Parts {
+		c.AddPart(p)
+	}
+	for i := range s.Frames {
+		ref := fmt.Sprintf("R%dx", i+1)
+		c.AddPart(&graph.Part{Ref: ref, Kind: graph.Resistor, Value: rangeOf(1e6),
+			Pins: []graph.Pin{{Name: "1", Net: fmt.Sprintf("g%d", i+1)}, {Name: "2", Net: "agc"}}})
+		s.Frames[i].Parts = append(s.Frames[i].Parts, ref)
+	}
+	s.Circuit = c
+	a4, _ := ParsePaper("A4")
+	cfg := Config{Page: a4}
+	f, ends, laid, err := cfg.flowRows(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(ends) < 3 {
+		t.Fatalf("three stages on A4 in %d row(s), want one a row", len(ends))
+	}
+	outs := 0
+	for i := range ends {
+		in := map[string]bool{}
+		for _, k := range f.sheet(start(ends, i), ends[i], false).continues {
+			if k.In {
+				in[k.Net] = true
+			}
+		}
+		for _, k := range f.sheet(start(ends, i), ends[i], false).continues {
+			if !k.In && in[k.Net] && len(laid[i].Geom.Failed) == 0 {
+				t.Errorf("row %d: %s comes in and goes on", i+1, k.Net)
+			}
+			if !k.In && k.Net == "agc" {
+				outs++
+			}
+		}
+	}
+	if outs != 1 {
+		t.Errorf("agc leaves %d rows, want the one it starts on", outs)
+	}
+	gs, err := cfg.Geometries(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, p := range check.Connectors(gs) {
+		t.Error(p)
 	}
 }

@@ -65,13 +65,32 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 	if r, ok := f.laid[[2]int{a, b}]; ok {
 		return r, nil
 	}
-	sh := f.s
-	if a > 0 || b < len(f.bs) {
-		sh = f.sheet(a, b)
+	if a == 0 && b == len(f.bs) {
+		r, err := f.cfg.layout(f.s)
+		if err != nil {
+			return nil, err
+		}
+		f.laid[[2]int{a, b}] = r
+		return r, nil
 	}
+	sh := f.sheet(a, b, false)
 	r, err := f.cfg.layout(sh)
 	if err != nil {
 		return nil, err
+	}
+	// a net that comes in and goes on ends at its incoming connector
+	// (continues); where the router then fails a net the row is laid out
+	// again with the outgoing ends, and the one with fewer flags kept
+	if len(r.Geom.Failed) > 0 {
+		if again := f.sheet(a, b, true); len(again.continues) > len(sh.continues) {
+			o, err := f.cfg.layout(again)
+			if err != nil {
+				return nil, err
+			}
+			if len(o.Geom.Failed) < len(r.Geom.Failed) {
+				r = o
+			}
+		}
 	}
 	f.laid[[2]int{a, b}] = r
 	return r, nil
@@ -81,7 +100,7 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 // row's parts, its frames, and an off-row connector for every net that
 // runs on in another row. It costs the row's size (and a look at each
 // frame's span), not the whole sheet's.
-func (f *flow) sheet(a, b int) *Sheet {
+func (f *flow) sheet(a, b int, through bool) *Sheet {
 	sub := *f.s
 	keep := map[string]bool{}
 	var parts []*graph.Part
@@ -110,15 +129,19 @@ func (f *flow) sheet(a, b int) *Sheet {
 			sub.Frames = append(sub.Frames, g)
 		}
 	}
-	sub.continues = f.continues(parts, a, b)
+	sub.continues = f.continues(parts, a, b, through)
 	return &sub
 }
 
 // continues are the off-row connectors of the row [a, b) of these parts:
 // the wired nets of its parts that other rows share, incoming from an
-// earlier row, outgoing to a later. A net's role is read on the whole
-// circuit (the row's shares its nets), whose index is built once.
-func (f *flow) continues(parts []*graph.Part, a, b int) []layout.Continuation {
+// earlier row, outgoing to a later. A net that comes in from an earlier row
+// goes out again only when through is set: every later row takes it from
+// the same label, as a line fed to several sheets is, rather than by a lead
+// from the row's left edge to its right looping over the stages between
+// (an AGC line across a frequency changer's row). A net's role is read on
+// the whole circuit (the row's shares its nets), whose index is built once.
+func (f *flow) continues(parts []*graph.Part, a, b int, through bool) []layout.Continuation {
 	c := f.s.Circuit
 	var nets []string
 	seen := map[string]bool{}
@@ -138,7 +161,7 @@ func (f *flow) continues(parts []*graph.Part, a, b int) []layout.Continuation {
 		if f.first[n] < a {
 			out = append(out, layout.Continuation{Net: n, Label: f.connectorLabel(n), In: true})
 		}
-		if f.last[n] >= b {
+		if f.last[n] >= b && (through || f.first[n] >= a) {
 			out = append(out, layout.Continuation{Net: n, Label: f.connectorLabel(n)})
 		}
 	}
