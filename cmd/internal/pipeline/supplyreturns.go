@@ -12,9 +12,11 @@ import (
 // that line, not to chassis: only ground nets get the earth symbol
 // (docs/netlist.md). A line is a net the original circuit feeds with power
 // (a declared supply, or a reservoir the DC solution estimates from a
-// captured rectifier) directly or through series chokes, and resistors
-// into a net with no resistor or choke to chassis (a divider's tap is a
-// bias point, not a supply line). An anode load fed from an undeclared
+// captured rectifier) directly or through series chokes and resistors; a
+// net with a resistor or choke to chassis as well is a line only when it
+// carries supply current on (carriesSupply): a smoothed HT with a bleeder
+// and a dummy load is a supply line, a divider's tap that sets a base or
+// grid bias is a bias point. An anode load fed from an undeclared
 // rectifier's decoupled line was drawn to a chassis symbol. The circuit is
 // copied only when a terminal changes.
 func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
@@ -30,7 +32,7 @@ func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
 		}
 		for i, pn := range p.Pins {
 			was := orig.NetOf(pn.Name)
-			from, ok := lines[was]
+			ln, ok := lines[was]
 			if !ok || pn.Rail != "" || pn.Net == was || !c.RoleOf(pn.Net).IsACGround() || c.RoleOf(pn.Net).IsRail() {
 				continue
 			}
@@ -39,7 +41,7 @@ func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
 			}
 			out.Part(p.Ref).Pins[i].Rail = was
 			if out.Net(was) == nil && !hasRail(out, was) {
-				n := graph.Net{Name: was, Role: graph.Supply, Fed: from, Label: lineLabel(r.Circuit, lines, was)}
+				n := graph.Net{Name: was, Role: graph.Supply, Fed: ln.from, Label: lineLabel(r.Circuit, lines, was)}
 				out.Rails = append(out.Rails, &n)
 				sort.Slice(out.Rails, func(a, b int) bool { return out.Rails[a].Name < out.Rails[b].Name })
 			}
@@ -60,33 +62,42 @@ func hasRail(c *graph.Circuit, name string) bool {
 	return false
 }
 
-// lineLabel is a supply line's tag: its own label, else that of the
-// nearest labelled line feeding it ("HT2 smoothed" for a line decoupled
-// from it), without a voltage; else its name in capitals ("HT3"), as a
-// service sheet names an undeclared line.
-func lineLabel(c *graph.Circuit, lines map[string]string, net string) string {
-	for n, seen := net, map[string]bool{}; !seen[n]; n = lines[n] {
-		seen[n] = true
-		if nn := c.Net(n); nn != nil && nn.Label != "" {
-			return graph.WithoutVolts(nn.Label)
-		}
-		if _, ok := lines[n]; !ok {
-			break
-		}
+// lineLabel is a supply line's tag, as a decoupled rail's is named
+// (graph.Circuit.MarkDecoupled): its own label; else the line feeding it,
+// by that line's label without a voltage or its name in capitals, and the
+// part it comes through ("HT via R2", "HT2 via R2"), since the line is not
+// the one feeding it and its own voltage is added from the operating point;
+// a reservoir, fed by no part, by its label or its name in capitals
+// ("HT_RES"), as a service sheet names an undeclared line.
+func lineLabel(c *graph.Circuit, lines map[string]supplyLine, net string) string {
+	if nn := c.Net(net); nn != nil && nn.Label != "" {
+		return graph.WithoutVolts(nn.Label)
 	}
-	return strings.ToUpper(net)
+	ln := lines[net]
+	if ln.via == "" {
+		return strings.ToUpper(net)
+	}
+	name := strings.ToUpper(ln.from)
+	if nn := c.Net(ln.from); nn != nil && nn.Label != "" {
+		name = graph.WithoutVolts(nn.Label)
+	}
+	return name + " via " + ln.via
 }
 
+// A supplyLine is an undeclared net that carries a supply: the net it is
+// fed from (itself for a reservoir) and the part it comes through.
+type supplyLine struct{ from, via string }
+
 // supplyLines maps each undeclared net of the original circuit that
-// carries a supply to the net it is fed from (itself for a reservoir).
-func (r *Result) supplyLines() map[string]string {
+// carries a supply to the net it is fed from and the part between.
+func (r *Result) supplyLines() map[string]supplyLine {
 	c := r.Circuit
-	out := map[string]string{}
+	out := map[string]supplyLine{}
 	var queue []string
 	if r.DC != nil {
 		for _, e := range r.DC.Estimates {
 			if n := c.Net(e.Net); n != nil && n.Role == graph.Signal {
-				out[e.Net] = e.Net
+				out[e.Net] = supplyLine{from: e.Net}
 				queue = append(queue, e.Net)
 			}
 		}
@@ -112,10 +123,10 @@ func (r *Result) supplyLines() map[string]string {
 			if _, seen := out[next]; seen || nn == nil || nn.Role != graph.Signal {
 				continue
 			}
-			if p.Kind == graph.Resistor && legToChassis(c, next) {
+			if p.Kind == graph.Resistor && legToChassis(c, next) && !carriesSupply(c, next, net) {
 				continue
 			}
-			out[next] = net
+			out[next] = supplyLine{from: net, via: p.Ref}
 			queue = append(queue, next)
 		}
 	}
@@ -134,6 +145,37 @@ func legToChassis(c *graph.Circuit, net string) bool {
 		for _, pn := range p.Pins {
 			if pn.Net != net && c.RoleOf(pn.Net) == graph.Ground {
 				return true
+			}
+		}
+	}
+	return false
+}
+
+// carriesSupply says whether a net fed from feed passes supply current on:
+// whether the resistors and chokes it reaches over undeclared nets, not
+// back through feed nor through chassis or a rail, end at a device's
+// output, common or further grid (an anode, a screen, a collector). A
+// divider's tap reaches only control electrodes (a base, a grid), or none.
+func carriesSupply(c *graph.Circuit, net, feed string) bool {
+	seen := map[string]bool{net: true, feed: true}
+	for queue := []string{net}; len(queue) > 0; queue = queue[1:] {
+		for _, cn := range c.ConnsOf(queue[0]) {
+			p := cn.Part
+			if p.IsActive() {
+				switch graph.RoleOfPin(p.Kind, cn.Pin) {
+				case graph.RoleOutput, graph.RoleGrid, graph.RoleCommon:
+					return true
+				}
+				continue
+			}
+			if (p.Kind != graph.Resistor && p.Kind != graph.Inductor) || len(p.Pins) != 2 {
+				continue
+			}
+			for _, pn := range p.Pins {
+				if nn := c.Net(pn.Net); !seen[pn.Net] && nn != nil && nn.Role == graph.Signal {
+					seen[pn.Net] = true
+					queue = append(queue, pn.Net)
+				}
 			}
 		}
 	}
