@@ -1,7 +1,6 @@
 package pipeline
 
 import (
-	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -27,20 +26,18 @@ func (r *Result) withLineVolts(c *graph.Circuit) *graph.Circuit {
 				continue
 			}
 			v, ok := r.DC.Volts(n.Name)
-			if !ok || v == 0 || math.IsNaN(v) || math.IsInf(v, 0) {
+			text, tagged := tagVolts(v)
+			if !ok || !tagged {
 				continue
 			}
-			sign := "+"
-			if v < 0 {
-				sign = "−" // U+2212 MINUS SIGN, as typeset
-			}
-			// four figures, as the DC chart prints it (note.Volts); the
-			// voltage kept at the same figures, so the tag states it once
-			text := fmt.Sprintf("%.4g", math.Abs(v))
 			if r, err := strconv.ParseFloat(text, 64); err == nil {
-				n.Volts = math.Copysign(r, v)
+				n.Volts = r // the voltage kept as printed, so the tag states it once
 			}
-			n.Label = strings.TrimSpace(n.Label + " " + sign + text + " V")
+			text = strings.Replace(text, "-", "−", 1) // U+2212 MINUS SIGN, as typeset
+			if v > 0 {
+				text = "+" + text
+			}
+			n.Label = strings.TrimSpace(n.Label + " " + text + " V")
 		}
 	}
 	return out
@@ -56,3 +53,24 @@ func hasFedLine(c *graph.Circuit) bool {
 	}
 	return false
 }
+
+// tagVolts is a line's DC voltage as its tag prints it: rounded to
+// tagFigures significant figures in plain notation ("242.7", "1235"), never
+// in exponent form, signed by the caller. A voltage that is zero to rounding (under the
+// chart's half millivolt, note.Volts: an AGC line at rest solves to
+// 5.785e-28 V) or that the solution does not give is not printed: the
+// line keeps its name alone, as one the solver holds at exactly 0 V does.
+func tagVolts(v float64) (string, bool) {
+	if math.IsNaN(v) || math.IsInf(v, 0) || math.Abs(v) < 5e-4 {
+		return "", false
+	}
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', tagFigures, 64), 64)
+	return strconv.FormatFloat(r, 'f', -1, 64), true
+}
+
+// tagFigures is the significant figures of a line's tag: four, as the DC
+// chart prints a voltage (note.Volts). Three, as a sheet's other figures
+// have, shortens the tags, and the layout round them read worse: on the
+// gallery, wires beside another net's 1220 → 1226 and symbol ends near
+// another net's wire 18 → 26 (TestSheetsReadAsDrawn, measured when tried).
+const tagFigures = 4
