@@ -66,6 +66,9 @@ func (s *searcher) accepts(vp *vpart, ci int) bool {
 	if len(pp.Types) > 0 && !contains(pp.Types, p.Type) {
 		return false
 	}
+	if pp.DCBlock && !s.w.blocksDC(ci) {
+		return false
+	}
 	if pp.Min > 0 || pp.Max > 0 {
 		v := p.Value.Max
 		if p.Kind == graph.Inductor {
@@ -262,4 +265,60 @@ func (s *searcher) transformerBindings(pp *PPart, ci int, out []binding) []bindi
 	}
 	rec(0)
 	return out
+}
+
+// bypassRatio is how much larger than a capacitor another one from its end
+// to AC ground must be to hold that end at AC ground for it: the signal it
+// passes to that end is at most C/Cshunt, under −60 dB at 1000 at every
+// frequency (a capacitive divider), whatever the band. A top-coupling
+// capacitor into a tank (1–10 pF into 100–500 pF, a ratio under 500) stays
+// a coupling; an IF bypass into a cathode that a 25 µF bypass holds
+// (100 pF, a ratio of 250,000) does not.
+const bypassRatio = 1000
+
+// blocksDC reports whether a two-terminal capacitor couples signal between
+// two stages as a DC block: no resistor, coil or pot track straight across
+// it (a capacitor across a resistor bypasses it, as a cathode bypass across
+// the upper part of a split cathode resistor does) and neither end held at
+// AC ground by a capacitor to ground bypassRatio times larger (a bypass or
+// decoupling capacitor from a signal node to a bypassed cathode or line).
+func (w *world) blocksDC(ci int) bool {
+	p := w.parts[ci]
+	if len(w.pins[ci]) != 2 || !(p.Value.Max > 0) {
+		return true
+	}
+	a, b := w.pins[ci][0], w.pins[ci][1]
+	for _, end := range []int{a, b} {
+		for _, j := range w.conns[end] {
+			q := w.parts[j]
+			if j == ci || len(w.pins[j]) < 2 {
+				continue
+			}
+			switch q.Kind {
+			case graph.Resistor, graph.Inductor, graph.Pot:
+				if end == a && w.joins(j, a, b) {
+					return false
+				}
+			case graph.Capacitor:
+				other := w.pins[j][0]
+				if other == end {
+					other = w.pins[j][1]
+				}
+				if len(w.pins[j]) == 2 && other == groundNet && end != groundNet && q.Value.Max >= bypassRatio*p.Value.Max {
+					return false
+				}
+			}
+		}
+	}
+	return true
+}
+
+// joins reports whether part j has terminals on both nets a and b.
+func (w *world) joins(j, a, b int) bool {
+	onA, onB := false, false
+	for _, n := range w.pins[j] {
+		onA = onA || n == a
+		onB = onB || n == b
+	}
+	return onA && onB
 }

@@ -119,10 +119,14 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	if o.Full != nil && errSig == nil {
 		power, errPow = recognise(o.Full, lib, true, nil, nil, o.DC, budget)
 	}
-	foldShunts(reduced, acg, signal, order, heldOnOriginal(power))
+	held := heldOnOriginal(power)
+	folded := foldShunts(reduced, acg, signal, order, held)
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
 	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
 	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
+	signal = append(signal, deviceStages(reduced, acg, signal, held)...)
+	refold(reduced, signal, folded)
+	signal = nestStoppers(reduced, signal)
 	inSignalOrder(signal, order)
 	nameRoles(signal, reduced)
 	var out []Stage
@@ -274,7 +278,8 @@ func stageLike(ref string) bool {
 // its own; one next to no stage stays unmatched, and one a stage found on
 // the original circuit holds (held: the AGC filter's resistor, which runs
 // from the detector to the line the reduction grounds) stays that stage's.
-func foldShunts(c *graph.Circuit, acg map[string]bool, tops []*found, ord order, held map[string]bool) {
+func foldShunts(c *graph.Circuit, acg map[string]bool, tops []*found, ord order, held map[string]bool) (folded map[string]bool) {
+	folded = map[string]bool{}
 	ground := func(net string) bool { return acg[net] || c.RoleOf(net).IsACGround() }
 	claimed := maps.Clone(held)
 	for _, f := range tops {
@@ -323,7 +328,9 @@ func foldShunts(c *graph.Circuit, acg map[string]bool, tops []*found, ord order,
 		sort.Strings(best.Parts)
 		best.set[p.Ref] = true
 		claimed[p.Ref] = true
+		folded[p.Ref] = true
 	}
+	return folded
 }
 
 // appendTree adds a stage and, depth first, its sub-stages named after it.

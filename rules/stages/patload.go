@@ -19,7 +19,7 @@ var patternKeys = []string{"id", "title", "titles", "group", "circuit", "rank", 
 
 var netKeys = []string{"at", "outside"}
 
-var partKeys = []string{"device", "type", "optional", "pins", "windings", "min", "max", "shared"}
+var partKeys = []string{"device", "type", "optional", "pins", "windings", "min", "max", "shared", "dc_block"}
 
 var activeKeys = []string{"control", "common", "output", "grid"}
 

@@ -38,6 +38,13 @@ func (ld *patLoader) part(path, name string, v any) {
 		}
 		pp.Shared = b
 	}
+	if db, ok := m["dc_block"]; ok {
+		b, isBool := db.(bool)
+		if !isBool || pp.Device != "capacitor" {
+			ld.fail(path+".dc_block", "dc_block must be true or false, on a capacitor")
+		}
+		pp.DCBlock = b
+	}
 	if o, ok := m["optional"]; ok {
 		pp.Optional = ld.oneOf(path+".optional", o, []string{"open", "short"})
 	}

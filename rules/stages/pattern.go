@@ -79,7 +79,11 @@ type PPart struct {
 	// Shared parts take part in the match but are not claimed by the stage:
 	// an IF transformer is the load of one stage and the source of the next.
 	Shared bool
-	Pos    graph.Pos
+	// DCBlock: the capacitor couples signal between two stages, a DC block
+	// (world.blocksDC): no resistor or coil straight across it, neither
+	// end held at AC ground by a far larger capacitor (a bypass).
+	DCBlock bool
+	Pos     graph.Pos
 }
 
 // PPin binds one terminal of a pattern part to a pattern net.
