@@ -63,13 +63,14 @@ func isDevice(p *graph.Part) bool {
 }
 
 // refold moves each resistor foldShunts gave a stage by signal order alone
-// (folded) to the stage holding the device it serves best: the oscillator
-// triode's grid leak beside that triode, not in the mixer whose injector
-// grid shares its net; a splitter's anode load beside the splitter, not in
-// the coupling stage its anode feeds. A stage already holding a device
-// served as well keeps it, and a stage of no device (a coupling
-// capacitor, a tuned winding) keeps a grid leak: the capacitor and the
-// leak are one coupling, as the rc-coupling pattern has them.
+// (folded) to the stage holding the device whose output or common
+// electrode it serves (a splitter's anode load from the coupling its anode
+// feeds, electrodeRank 0), unless its stage holds such a device already.
+// A grid leak stays where signal order put it: a coupling capacitor and
+// its leak are one coupling, as the rc-coupling pattern has them, and an
+// oscillator's grid leak on the net of a mixer's injector grid, moved to
+// the oscillator, left the gallery's triode-heptode sheets reading worse
+// (review-osc-c2b full and faded: wires in line across a gap 6 → 20).
 func refold(c *graph.Circuit, tops []*found, folded map[string]bool) {
 	claimed, _ := claims(tops)
 	for _, ref := range slices.Sorted(maps.Keys(folded)) {
@@ -79,7 +80,7 @@ func refold(c *graph.Circuit, tops []*found, folded map[string]bool) {
 		}
 		best, rank := from, holderRank(c, from, ref)
 		for _, f := range tops {
-			if r := holderRank(c, f, ref); r < rank && (r == 0 || holderRank(c, from, ref) < 3) {
+			if r := holderRank(c, f, ref); r < rank && r == 0 {
 				best, rank = f, r
 			}
 		}

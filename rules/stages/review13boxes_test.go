@@ -65,8 +65,8 @@ func TestReview13BypassIsNoCoupling(t *testing.T) {
 // A valve no pattern recognises gets a stage of its own titled by the
 // device, and the parts that serve a valve are held by its stage: loads,
 // cathode resistors and bypasses, the split cathode resistor's foot (a04),
-// an oscillator's grid leak that shares its net with the mixer's injector
-// grid (a02), grid stoppers nested in the output stage they stop (a04). A
+// the splitter's anode load (a04), grid stoppers nested in the output
+// stage they stop (a04). A
 // box titled by a passive pattern held the detector and the audio triode
 // (a03) and the driver and the splitter (a04) before.
 func TestReview13DevicesKeepTheirParts(t *testing.T) {
@@ -78,7 +78,6 @@ func TestReview13DevicesKeepTheirParts(t *testing.T) {
 		{"a04.toml", "V1a", "V1a stage", []string{"R2", "R3", "R4", "C2"}},
 		{"a04.toml", "V1b", "V1b stage", []string{"R6", "R7"}},
 		{"a04.toml", "V2", "Push-pull output stage (valve)", []string{"R11", "R12"}},
-		{"a02.toml", "V1a", "Oscillator, feedback through T2 (valve)", []string{"R2"}},
 	}
 	found := map[string][]Stage{}
 	for _, tc := range cases {
