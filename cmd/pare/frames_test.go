@@ -94,7 +94,7 @@ func eachAtOnce(n int, fn func(i int)) {
 // render/layout tankplace.go; a winding's rail tag turned out of its
 // capacitor's way, tankretag.go) and parts on rails only kept under their
 // stage's signal path took them to 1222, 282 and 18.
-var misreadCeiling = struct{ beside, inLine, endsNear int }{1194, 260, 14}
+var misreadCeiling = struct{ beside, inLine, endsNear int }{1188, 260, 14}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
