@@ -317,7 +317,7 @@ func selfOscillating(w *world, lp *ac.Loops, acg map[string]bool, p *graph.Part,
 	if tank != nil {
 		gone[tank] = true // its parts are the oscillator's, gathered below
 	}
-	for _, r := range append(loopPartsFrom(w.c, acg, p, through, claimed, gone, from), tankParts(tank)...) {
+	for _, r := range append(loopPartsFrom(w.c, acg, p, through, claimed, gone, from, nil), tankParts(tank)...) {
 		if !f.set[r] {
 			f.set[r] = true
 			claimed[r] = f

@@ -189,7 +189,16 @@ func claims(tops []*found) (claimed map[string]*found, named map[string]bool) {
 func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, l Loop, tops []*found, claimed map[string]*found, gone map[*found]bool) *found {
 	c := w.c
 	through := feedbackThrough(lc, p.Ref, l)
-	parts := loopParts(c, acg, p, through, claimed, gone)
+	var parts []string
+	fb, rc := rcNet{}, false
+	if through == "" {
+		fb, rc = rcFeedback(c, lc, groundOf(c, acg), p)
+	}
+	if rc {
+		parts = rcLoopParts(c, acg, p, fb, claimed, gone)
+	} else {
+		parts = loopParts(c, acg, p, through, claimed, gone)
+	}
 	word := through
 	if word == "" {
 		word = "an RC network"
@@ -197,6 +206,9 @@ func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, 
 	st := &Stage{Topology: loopTopology, group: "oscillator", Family: deviceFamily(p),
 		Parts: parts, Figures: figure.List{}, Loop: []Loop{l}}
 	st.Title = expandTitle("Oscillator, feedback through "+word+" ({family})", st.Family)
+	if _, _, _, _, runs := l.Range(); rc && runs && fb.sections >= phaseShiftSections {
+		phaseShiftStage(st, p, l, fb)
+	}
 	f := &found{Stage: st, set: map[string]bool{}}
 	// The tank the feedback transformer tunes, named by its own pattern,
 	// is the oscillator's sub-stage, as a tank found inside a Hartley is.
@@ -239,13 +251,19 @@ const loopHops = 2
 // input, an amplifier in the loop (a Wien bridge's second valve) is a stage
 // of its own.
 func loopParts(c *graph.Circuit, acg map[string]bool, dev *graph.Part, through string, claimed map[string]*found, gone map[*found]bool) []string {
-	return loopPartsFrom(c, acg, dev, through, claimed, gone, func(graph.Pin) bool { return true })
+	return loopPartsFrom(c, acg, dev, through, claimed, gone, func(graph.Pin) bool { return true }, nil)
 }
 
-// loopPartsFrom is loopParts gathering from the device's pins from says:
-// a mixer's signal grid leads to the aerial circuit, not the oscillator.
-func loopPartsFrom(c *graph.Circuit, acg map[string]bool, dev *graph.Part, through string, claimed map[string]*found, gone map[*found]bool, from func(graph.Pin) bool) []string {
-	ground := func(net string) bool { return acg[net] || c.RoleOf(net).IsACGround() }
+// groundOf says which nets of c are AC ground, with the nets acg names.
+func groundOf(c *graph.Circuit, acg map[string]bool) func(string) bool {
+	return func(net string) bool { return acg[net] || c.RoleOf(net).IsACGround() }
+}
+
+// loopPartsFrom is loopParts gathering from the device's pins from says
+// (a mixer's signal grid leads to the aerial circuit, not the oscillator)
+// and leaving out the parts skip says (nil: none).
+func loopPartsFrom(c *graph.Circuit, acg map[string]bool, dev *graph.Part, through string, claimed map[string]*found, gone map[*found]bool, from func(graph.Pin) bool, skip func(*graph.Part) bool) []string {
+	ground := groundOf(c, acg)
 	nets := map[string]bool{}
 	in := map[string]bool{dev.Ref: true}
 	addNets := func(q *graph.Part) {
@@ -270,7 +288,7 @@ func loopPartsFrom(c *graph.Circuit, acg map[string]bool, dev *graph.Part, throu
 	for range loopHops {
 		var grown []*graph.Part
 		for _, q := range c.Parts {
-			if in[q.Ref] || q.IsActive() || !touches(q, nets) || !takeable(q) {
+			if in[q.Ref] || q.IsActive() || !touches(q, nets) || !takeable(q) || skip != nil && skip(q) {
 				continue
 			}
 			in[q.Ref] = true
