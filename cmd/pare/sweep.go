@@ -42,7 +42,10 @@ fraction of the travel. --from defaults to the first input, --to to the first
 output.
 
 The numbers are those of pare's small-signal models (documented in the
-graph/ac package): no DC conditions, no overload.`,
+graph/ac package), each transistor and valve taken at the circuit's DC
+operating point where the netlist gives only its characteristic (the same
+bias the main job and the stage figures use; a part left at the model's
+default bias is said on standard error): no overload.`,
 		bind: typed(func(fs *flag.FlagSet, o *sweepOpts) {
 			fs.StringVar(&o.from, "from", "", "driven net (default: the first input; with none declared, the control of the oscillator or of the first active part)")
 			fs.StringVar(&o.to, "to", "", "observed net (default: the first output)")

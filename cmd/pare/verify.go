@@ -387,15 +387,19 @@ func reportReduceError(e *env, cmd, path string, err error) int {
 	return reportErr(e, "pare "+cmd, path, err)
 }
 
-// circuitFor loads a file and reduces it when asked: the circuit sweep and
-// spice work on, with the caution of the original set.
+// circuitFor loads a file, takes the small-signal figures the netlist
+// leaves open at its DC operating point (the same bias the main job, the
+// reduction and the stage figures use) and reduces it when asked: the
+// circuit sweep and spice work on, with the caution of the original set.
+// A part left at the device model's default bias is said on standard
+// error.
 func circuitFor(e *env, cmd, path string, reduced bool, level string) (*graph.Circuit, safety.Caution, int) {
-	po := pipeline.Options{Path: path, Until: pipeline.PhaseLoad}
+	po := pipeline.Options{Path: path, Until: pipeline.PhaseBias}
 	if reduced {
 		lvl, err := rules.ParseLevel(level)
 		if err != nil {
 			// Said after the file loads, as it always was.
-			if _, err := e.pipeline(po); loadFailed(e, path, err) {
+			if _, err := e.pipeline(pipeline.Options{Path: path, Until: pipeline.PhaseLoad}); loadFailed(e, path, err) {
 				return nil, safety.Caution{}, exitBad
 			}
 			fmt.Fprintf(e.stderr, "pare %s: %v\n", cmd, err)
@@ -410,8 +414,12 @@ func circuitFor(e *env, cmd, path string, reduced bool, level string) (*graph.Ci
 	if err != nil {
 		return nil, safety.Caution{}, reportReduceError(e, cmd, path, err)
 	}
+	c := res.Circuit
 	if reduced {
-		return res.Reduced, res.Caution, exitOK
+		c = res.Reduced
 	}
-	return res.Circuit, res.Caution, exitOK
+	if msg := res.BiasNote(c); msg != "" {
+		fmt.Fprintf(e.stderr, "pare %s: %s: %s\n", cmd, path, msg)
+	}
+	return c, res.Caution, exitOK
 }

@@ -87,7 +87,7 @@ var outputPrefix = [...]string{
 	ReduceLog:    "Small-signal equivalent only: not a wiring diagram, no DC voltages.",
 	Comparison:   "Small-signal comparison only: no DC conditions.",
 	StageFigures: "Figures are small-signal values from the reduced circuit, not DC voltages.",
-	SweepModel:   "Small-signal model only: no DC conditions, no overload.",
+	SweepModel:   "Small-signal model only, at the DC operating point: no overload.",
 }
 
 // Report is the caution printed under a text report (and in its JSON).

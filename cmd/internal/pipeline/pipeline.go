@@ -33,13 +33,15 @@ type Phase int
 const (
 	PhaseLoad   Phase = iota + 1 // read and parse the netlist
 	PhaseCheck                   // transcription warnings (graph.Check)
+	PhaseBias                    // the DC operating point, and the small-signal figures taken at it
 	PhaseReduce                  // the rewrite rules, with the step checks asked for
 	PhaseVerify                  // the AC comparison of the reduced circuit with the original
 	PhaseStages                  // stage recognition on the reduced circuit
 	PhaseSheets                  // sheets laid out and drawn as SVG
 )
 
-var phaseNames = [...]string{PhaseLoad: "load", PhaseCheck: "check", PhaseReduce: "reduce",
+var phaseNames = [...]string{PhaseLoad: "load", PhaseCheck: "check", PhaseBias: "bias",
+	PhaseReduce: "reduce",
 	PhaseVerify: "verify", PhaseStages: "stages", PhaseSheets: "sheets"}
 
 func (p Phase) String() string {
@@ -234,7 +236,7 @@ func Run(o Options) (*Result, error) {
 		fn func(*Result, Options) error
 	}{
 		{PhaseCheck, (*Result).check},
-		{PhaseReduce, (*Result).bias},
+		{PhaseBias, (*Result).bias},
 		{PhaseReduce, (*Result).reduce},
 		{PhaseVerify, (*Result).verify},
 		{PhaseStages, (*Result).recognise},
