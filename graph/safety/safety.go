@@ -69,6 +69,10 @@ type Assessment struct {
 	MaxVolts float64
 	// Valves counts the valves (sections of one envelope each count).
 	Valves int
+	// Mains is set when the netlist shows a mains input or a mains
+	// transformer: the caution then speaks of the mains side, whatever
+	// the set's own rails are.
+	Mains bool
 	// Evidence names what the choice rests on, in the order found
 	// ("valve V1", "rail above 50 V: ht 250 V"); empty for Unknown.
 	Evidence []string
@@ -101,7 +105,8 @@ func Assess(c *graph.Circuit) Assessment {
 		return Assessment{Class: Unknown}
 	}
 	ev := collect(c)
-	a := Assessment{MaxVolts: ev.maxVolts, Valves: len(ev.valves), HotHeaters: ev.hotHeaters}
+	a := Assessment{MaxVolts: ev.maxVolts, Valves: len(ev.valves), HotHeaters: ev.hotHeaters,
+		Mains: len(ev.mainsInputs)+len(ev.mainsTransformers) > 0}
 	var unfed []string // a mains input that feeds no transformer
 	if len(ev.mainsTransformers) == 0 {
 		unfed = ev.mainsInputs

@@ -320,3 +320,52 @@ func TestHotHeaterWinding(t *testing.T) {
 		})
 	}
 }
+
+// TestCautionFitsTheSet: the caution speaks of what the set has. A
+// transistor set run from a mains transformer (the review's 16 V set,
+// testdata/review13/b05.toml) got the valve set's "mains and valve HT can
+// kill … HT typically 200–400 V": its mains side is the danger, its rails
+// are not HT. Valve HT only where there are valves; the mains side where
+// the netlist shows a mains input (common practice; docs/references.md §9).
+func TestCautionFitsTheSet(t *testing.T) {
+	valveWords := regexp.MustCompile(`(?i)\bvalve|\bHT\b|200–400`)
+	for _, tc := range []struct {
+		name, file, text string
+		mains, valveHT   bool
+	}{
+		{name: "mains transistor set", file: "testdata/review13/b05.toml", mains: true},
+		{name: "mains transistor amplifier", file: "testdata/safety/mains-transistor.toml", mains: true},
+		{name: "transistor on 90 V", text: highRailNet},
+		{name: "valve set", file: "examples/frequency-changer.toml", valveHT: true},
+		{name: "mains valve set", file: "examples/club-receiver.toml", mains: true, valveHT: true},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			var c *graph.Circuit
+			var err error
+			if tc.file != "" {
+				c, err = graph.LoadFile(filepath.Join(repo, tc.file))
+			} else {
+				c, err = graph.Parse(tc.name+".toml", []byte(tc.text))
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			ca := For(c)
+			all := []string{ca.Heading, ca.Sheet(false), ca.Report(SweepModel)}
+			all = append(all, ca.Lines...)
+			text := strings.Join(all, "\n")
+			if got := valveWords.MatchString(text); got != tc.valveHT {
+				t.Errorf("speaks of valve HT: %v, want %v\n%s", got, tc.valveHT, text)
+			}
+			if tc.valveHT {
+				return // the valve set's own text, held by TestCautionTexts
+			}
+			if got := strings.Contains(text, "mains transformer's primary"); got != tc.mains {
+				t.Errorf("names the mains side: %v, want %v\n%s", got, tc.mains, text)
+			}
+			if !tc.mains && strings.Contains(strings.ToLower(ca.Heading+ca.Sheet(false)), "mains") {
+				t.Errorf("a set with no mains input shown is cautioned about the mains:\n%s", text)
+			}
+		})
+	}
+}

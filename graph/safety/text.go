@@ -35,6 +35,9 @@ func (a Assessment) Caution() Caution {
 	if a.Class >= 0 && int(a.Class) < len(texts) {
 		t = texts[a.Class]
 	}
+	if a.Class == MainsHT && a.Valves == 0 {
+		t = a.solidState()
+	}
 	lines := make([]string, 0, len(t.lines)+2)
 	for _, l := range t.lines {
 		lines = append(lines, strings.ReplaceAll(l, "{volts}", volts(a.MaxVolts)))
@@ -43,15 +46,51 @@ func (a Assessment) Caution() Caution {
 		lines = append(lines, fmt.Sprintf(hotHeaterLine, strings.Join(a.HotHeaters, "; ")))
 	}
 	lines = append(lines, codesLine, smallSignalLine)
-	sentence := t.sentence
-	if a.Class == MainsHT && a.Valves == 0 {
-		sentence = mainsSentence // a mains transformer or a high rail, no valve
-	}
 	return Caution{
 		Assessment: a, Heading: t.heading, Lines: lines,
 		sheet:    strings.ReplaceAll(t.sheet, "{volts}", volts(a.MaxVolts)),
-		sentence: sentence,
+		sentence: t.sentence,
 	}
+}
+
+// solidState is the MainsHT caution of a set without valves (a mains
+// transistor set, or a transistor stage on a rail above 50 V): the mains
+// side where the netlist shows one, the rails for what they are. The
+// valve set's text ("mains and valve HT", "HT typically 200–400 V") said
+// of a 16 V transistor set run from a mains transformer is wrong, and a
+// caution that is wrong about the set teaches its reader to skip it.
+func (a Assessment) solidState() classText {
+	t := classText{sentence: mainsSentence}
+	high := a.MaxVolts > LowVolts
+	switch {
+	case a.Mains && high:
+		t.heading = "Caution: mains-powered equipment with a rail above 50 V: both can kill."
+		t.sheet = "Caution: the mains side and the {volts} V rail can kill; capacitors stay charged after switch-off. Follow local codes and licensed practice."
+	case a.Mains:
+		t.heading = "Caution: mains-powered equipment can kill: its mains side is at mains potential whenever it is plugged in."
+		t.sheet = "Caution: mains-powered: the mains input, fuse, switch and transformer primary can kill. Unplug before touching them; follow local codes and licensed practice."
+	case high:
+		t.heading = "Caution: a rail above 50 V can give a dangerous shock."
+		t.sheet = "Caution: the {volts} V rail can give a dangerous shock; capacitors stay charged after switch-off. Follow local codes and licensed practice."
+		t.sentence = highRailSentence
+	default:
+		// A rectifier with nothing shown feeding it: the mains until
+		// checked, as for a netlist that shows nothing.
+		t.heading = "Caution: the netlist shows a rectifier but not what feeds it; treat its input as the mains, which can kill, until you have checked."
+		t.sheet = "Caution: a rectifier is shown but not its feed; treat it as mains-powered until checked. Follow local codes and licensed practice."
+	}
+	if a.Mains {
+		t.lines = append(t.lines, mainsSideLine)
+	}
+	if high {
+		t.lines = append(t.lines, highRailLine, reservoirLine)
+	} else {
+		t.lines = append(t.lines, lowSideLine)
+	}
+	if a.Mains {
+		t.lines = append(t.lines, slowLine)
+	}
+	return t
 }
 
 // Basis says what the choice was made from, for the note: "Chosen from the
@@ -165,6 +204,18 @@ const hotHeaterLine = "A heater winding here sits at the full HT (%s): a directl
 
 // mainsSentence is the MainsHT report sentence for a set without valves.
 const mainsSentence = "Mains-powered sets carry lethal voltages on the mains side and on any rail above 50 V; capacitors stay charged after switch-off. Use an isolation transformer and follow local codes and licensed practice."
+
+// The lines of a set without valves (common practice; docs/references.md
+// §9): the mains side of a transformer set is at mains potential while it
+// is plugged in, switched on or not (a single-pole switch may break only
+// the neutral); a rail above the extra-low-voltage band can shock; a low
+// rail cannot, but its reservoir shorted burns.
+const (
+	highRailSentence = "A rail above 50 V can give a dangerous shock, and capacitors stay charged after switch-off. Follow local codes and licensed practice."
+	mainsSideLine    = "The mains input, its fuse and switch and the mains transformer's primary are at mains potential whenever the set is plugged in, switched on or not: unplug it before you touch them, and keep the mains side covered while you work on the rest."
+	highRailLine     = "A rail of {volts} V is above the 50 V extra-low-voltage band and can give a dangerous shock: work one-handed, never when wet or standing on a conductive floor."
+	lowSideLine      = "The rails are low voltage, but a reservoir capacitor or a rectifier shorted by a probe or a solder bridge can deliver a large current and burn."
+)
 
 // classText is what one class says; {volts} stands for the highest
 // declared rail.

@@ -254,8 +254,21 @@ func (x *figCtx) designInCircuit(osc *tankModel, oc coilEnds, section *graph.Par
 		x.putChecked(&figure.Figure{Name: f.name, Unit: f.unit, Value: f.v, Origin: byDesignInC}, &check, nil)
 	}
 	x.put(figure.Figure{Name: "track_f", Unit: figure.Hertz, Points: des.pts[:], Origin: byDesignInC})
-	x.st.Notes = append(x.st.Notes, fmt.Sprintf("suggested design: solved in circuit, it tracks within %s at %s; the closed form on the oscillator tank's own parts, aimed at the same points, would miss by up to %s in circuit (what the grid capacitor, the injection and the valve put across the coil)",
-		hz(des.residual), hzList(des.pts[:]), hz(des.closed)))
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("suggested design: solved in circuit, it tracks within %s at %s; the closed form on the oscillator tank's own parts, aimed at the same points, would miss by up to %s in circuit (what %s put across the coil)",
+		hz(des.residual), hzList(des.pts[:]), hz(des.closed), acrossCoil(x.st.Family)))
+}
+
+// acrossCoil names what an oscillator's device and its coupling put
+// across its coil, in the words of the device's kind: a transistor has a
+// base and its coupling capacitor, not a grid capacitor.
+func acrossCoil(family string) string {
+	switch family {
+	case "bjt":
+		return "the base coupling capacitor, the injection and the transistor"
+	case "fet":
+		return "the gate capacitor, the injection and the FET"
+	}
+	return "the grid capacitor, the injection and the valve"
 }
 
 // scaledCoil is coil with its inductance times k: a tapped coil's sections

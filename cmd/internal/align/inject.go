@@ -340,7 +340,8 @@ func reference(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injecti
 	case "RF":
 		for j := i + 1; j < len(pts); j++ {
 			if pts[j].mixer {
-				return pts[j].net, rows[j].Level / convFraction, fmt.Sprintf("the RF at the mixer's grid (%s) that gives the mixer row's IF, through a conversion gain estimated at a quarter of its IF gain (%s): an estimate, not solved", pts[j].net, convSource)
+				word, dev := mixerWords(c, pts[j].net)
+				return pts[j].net, rows[j].Level / convFraction, fmt.Sprintf("the RF at the mixer's %s (%s) that gives the mixer row's IF, through a conversion gain estimated at a quarter of its IF gain (conversion transconductance about a quarter to a third of the %s's gm, %s): an estimate, not solved", word, pts[j].net, dev, convSource)
 			}
 		}
 	}
@@ -363,8 +364,30 @@ const detEfficiency = 1.0
 // the RF that gives the mixer row's IF is that row's level over this.
 const (
 	convFraction = 0.25
-	convSource   = "conversion transconductance about a quarter to a third of the valve's gm, a handbook rule from memory"
+	convSource   = "a handbook rule from memory"
 )
+
+// mixerWords names the control electrode on net and the kind of the device
+// it drives, for the RF rows' reference: a transistor mixer's base and
+// gm are not a valve's grid and gm. Without a device there, the valve's
+// words, as before.
+func mixerWords(c *graph.Circuit, net string) (control, device string) {
+	for _, cn := range c.ConnsOf(net) {
+		p := cn.Part
+		if graph.RoleOfPin(p.Kind, cn.Pin) != graph.RoleControl {
+			continue
+		}
+		switch p.Kind {
+		case graph.BJT:
+			return "base", "transistor"
+		case graph.FET:
+			return "gate", "FET"
+		case graph.Valve:
+			return "grid", "valve"
+		}
+	}
+	return "grid", "valve"
+}
 
 // carrierRef is the IF rows' reference: the carrier at the detector's
 // diode that, modulated modDepth, gives the audio the detector-load row
