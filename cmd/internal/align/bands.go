@@ -145,6 +145,10 @@ func (g *Guide) AddBands(c *graph.Circuit, sts []stages.Stage, run Runner) {
 		}
 		g.addBand(label, bc, bsts)
 	}
+	// A band's steps turn parts the set's own band left out: name only
+	// what no band turns.
+	g.LeftOut = nil
+	g.account(switched(c), sts)
 }
 
 // BandSets are the switch settings AddBands runs, one per band other than

@@ -50,6 +50,9 @@ type Guide struct {
 	// TrackNote says plainly why a set with ganged tuning has no tracking
 	// steps, and what to turn instead; empty when the steps are there.
 	TrackNote string
+	// LeftOut names each trimmer and adjustable core no step turns, with
+	// why and what the trade turns it for (account.go).
+	LeftOut []string
 	// Nothing is set, with the reason, when there is nothing to align.
 	Nothing string
 	// Inject is the signal-injection table from the output back to the
@@ -117,8 +120,9 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 	for i := range g.Steps {
 		g.Steps[i].N = i + 1
 	}
+	g.account(switched(c), sts)
 	if len(g.Steps) == 0 {
-		g.Nothing = nothingReason(c, sts, g.IF)
+		g.Nothing = g.nothingReason(c, sts)
 	}
 	return g
 }
@@ -199,8 +203,11 @@ func fmDetector(sts []stages.Stage) bool {
 	return false
 }
 
-// nothingReason says why a circuit has nothing to align.
-func nothingReason(c *graph.Circuit, sts []stages.Stage, ifHz float64) string {
+// nothingReason says why a circuit has no numbered steps: nothing to
+// align at all, or no step pare could work out for the adjusters the
+// tracking note and LeftOut name.
+func (g *Guide) nothingReason(c *graph.Circuit, sts []stages.Stage) string {
+	ifHz := g.IF
 	trimmers, cores := 0, 0
 	for _, p := range c.Parts {
 		if p.Type == graph.CapTrimmer {
@@ -214,6 +221,9 @@ func nothingReason(c *graph.Circuit, sts []stages.Stage, ifHz float64) string {
 	}
 	if len(ifTransformers(c, sts, ifHz)) == 0 && mixerStage(sts) == nil {
 		why += ", and pare recognised no IF transformer and no frequency changer"
+	}
+	if trimmers+cores > 0 {
+		return "no numbered steps: " + why + "; what to turn by the usual method is said below."
 	}
 	return "nothing to align: " + why + "."
 }

@@ -43,7 +43,7 @@ func ifTransformers(c *graph.Circuit, sts []stages.Stage, ifHz float64) []*graph
 			out = append(out, p)
 		}
 	}
-	return orderCans(c, out)
+	return orderCans(c, append(out, solvedCans(c, sts, ifHz, out)...))
 }
 
 func tunedAt(s stages.Stage, ifHz float64) bool {

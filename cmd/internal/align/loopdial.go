@@ -41,7 +41,9 @@ func (g *Guide) tracking(c *graph.Circuit, sts []stages.Stage) {
 			return
 		}
 	}
-	if len(gangs) < 2 || g.IF <= 0 {
+	// A set with no IF known (a tuned RF stage or a TRF set captured
+	// alone) still has its ganged circuits to set against each other.
+	if len(gangs) < 2 {
 		return
 	}
 	g.TrackNote = fmt.Sprintf("tracking steps not generated: %s; adjust by the usual method (common practice): %s", why, usualMethod(c, gangs))

@@ -97,3 +97,68 @@ func TestReview13LoneOscillatorCoverage(t *testing.T) {
 		}
 	}
 }
+
+// TestEveryAdjusterAccountedFor: every trimmer and adjustable core the set
+// has is turned by a step or named with why it has none (common practice:
+// an alignment procedure covers every adjustment of the set). The review
+// found "nothing to align" for an RF stage with two trimmers, two cores
+// and a gang (b02) and for a VFO with a trimmer and a slug-tuned coil
+// (a01), and the IF strip's first can T1 left out (b03).
+func TestEveryAdjusterAccountedFor(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		want []string // pieces the guide must say
+	}{
+		{"b02", []string{"on VC1a TC1 at the high end and the core of T1 at the low end", "on VC1b TC2 at the high end and the core of T2 at the low end"}},
+		{"a01", []string{"set the top of the range to 1.3 MHz with trimmer TC1", "the bottom to 1 MHz with the core of L1"}},
+		{"b03", nil},
+		{"b05", nil},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			r, g := build(t, review13(tc.name))
+			turned := map[string]bool{}
+			for _, s := range g.Steps {
+				turned[s.Part] = true
+			}
+			said := g.TrackNote + "\n" + strings.Join(g.LeftOut, "\n") + "\n" + strings.Join(g.Warnings, "\n")
+			for _, p := range r.Circuit.Parts {
+				if p.Type != "trimmer" && len(p.Adjust) == 0 || turned[p.Ref] {
+					continue
+				}
+				if !regexp.MustCompile(`\b` + p.Ref + `\b`).MatchString(said) {
+					t.Errorf("%s is adjustable but neither turned nor named:\n%s", p.Ref, said)
+				}
+			}
+			for _, w := range tc.want {
+				if !strings.Contains(said, w) {
+					t.Errorf("guide lacks %q:\n%s", w, said)
+				}
+			}
+			if strings.HasPrefix(g.Nothing, "nothing to align") {
+				t.Errorf("said %q of a set with adjusters", g.Nothing)
+			}
+		})
+	}
+}
+
+// TestFirstCanFedFromTheMixer: b03's first IF can T1 hangs on the input
+// port (the mixer's collector), held by no stage; the solver finds its
+// primary resonant at the IF (675 µH, the tapped winding's sections fully
+// coupled, with 180 pF: 456.7 kHz, derived from f = 1/(2π√(LC))), so its
+// core is the procedure's last IF step and the generator goes to the
+// strip's input, not to Q1's base (Q1 is fed by T1, not feeding it).
+func TestFirstCanFedFromTheMixer(t *testing.T) {
+	_, g := build(t, review13("b03"))
+	var cans []string
+	for _, s := range g.Steps {
+		if s.Phase == "IF" {
+			cans = append(cans, s.Part)
+			if !strings.Contains(s.Into, "net mix_c") {
+				t.Errorf("step %d: generator into %q, want the strip's input mix_c", s.N, s.Into)
+			}
+		}
+	}
+	if strings.Join(cans, " ") != "T3 T2 T1" {
+		t.Errorf("IF steps turn %v, want T3 T2 T1 (detector back to the mixer)", cans)
+	}
+}

@@ -184,6 +184,34 @@ func oscTank(c *graph.Circuit, mix *stages.Stage) tank {
 	if t.gang == nil {
 		return t
 	}
+	return tankOn(c, t.gang)
+}
+
+// tankOn is the tuned circuit of the variable capacitor vc (a gang section
+// or a single tuning capacitor): the trimmer across it, the padder in
+// series, the coil.
+func tankOn(c *graph.Circuit, vc *graph.Part) tank {
+	t := tank{gang: vc}
+	if ends := netsOf(vc); len(ends) == 2 && !c.RoleOf(ends[0]).IsACGround() && !c.RoleOf(ends[1]).IsACGround() {
+		// A tank off ground (a Colpitts tank between grid and anode): a
+		// trimmer across the capacitor's own two nets is in shunt, never
+		// a padder, and the coil is the one across them.
+		for _, p := range trimmersOn(c, ends) {
+			if p != vc && slices.Contains(netsOf(p), ends[0]) && slices.Contains(netsOf(p), ends[1]) {
+				t.trimmer = p
+				break
+			}
+		}
+		for _, p := range c.Parts {
+			if (p.Kind == graph.Inductor || p.Kind == graph.Transformer) && slices.Contains(netsOf(p), ends[0]) && slices.Contains(netsOf(p), ends[1]) {
+				t.coil = p
+				break
+			}
+		}
+		if t.coil != nil || t.trimmer != nil {
+			return t
+		}
+	}
 	hot := hotNet(c, t.gang)
 	t.trimmer = shuntTrimmer(c, hot, t.gang)
 	t.padder = seriesCap(c, hot, t.gang)

@@ -113,6 +113,7 @@ func (g *Guide) procedure() (intro string, items []item, closing []string) {
 		if g.TrackNote != "" {
 			closing = append(closing, cap1(g.TrackNote)+".")
 		}
+		closing = append(closing, g.leftOutLines()...)
 		return cap1(g.Nothing), nil, append(closing, warnLines(g.Warnings)...)
 	}
 	if g.IF > 0 {
@@ -142,10 +143,20 @@ func (g *Guide) procedure() (intro string, items []item, closing []string) {
 	if g.TrackNote != "" {
 		closing = append(closing, cap1(g.TrackNote)+".")
 	}
+	closing = append(closing, g.leftOutLines()...)
 	for _, e := range g.Ends {
 		closing = append(closing, fmt.Sprintf("Dial end, %s: the set tunes %s, oscillator at %s.", e.Where, hz(e.Sig), hz(e.Osc)))
 	}
 	return intro, items, append(closing, warnLines(g.Warnings)...)
+}
+
+// leftOutLines are the LeftOut entries as closing lines.
+func (g *Guide) leftOutLines() []string {
+	var out []string
+	for _, l := range g.LeftOut {
+		out = append(out, cap1(l)+".")
+	}
+	return out
 }
 
 // repeatFor are the repeat lines of a phase in a band ("" the set as
