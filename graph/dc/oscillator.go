@@ -1,6 +1,7 @@
 package dc
 
 import (
+	"math"
 	"sort"
 
 	"pare/graph"
@@ -81,10 +82,45 @@ func (p *Point) Oscillators() []Oscillator {
 			out = append(out, best)
 		}
 	}
+	out = ownLoops(bc, out)
 	for i := range out {
 		out[i].Shifts = append(out[i].Shifts, p.drivenShifts(out[i])...)
 	}
 	p.osc = &out
+	return out
+}
+
+// ownLoops drops each device whose loop is another's seen through it: it
+// closes no loop by its own gain (ac.OwnLoop) while another listed device
+// does, near its frequency (an RC oscillator's loop read at the follower
+// its collector feeds). Two devices neither of which closes a loop alone
+// (a Wien bridge's pair) both stay: the loop is theirs together.
+func ownLoops(bc *graph.Circuit, list []Oscillator) []Oscillator {
+	if len(list) < 2 {
+		return list
+	}
+	own := map[string]bool{}
+	ownOf := func(o Oscillator) bool {
+		v, ok := own[o.Ref]
+		if !ok {
+			v, _ = ac.OwnLoop(bc, o.Ref, ac.LoopOptions{Options: ac.Options{VarFrac: 0.5, VarSet: true}})
+			own[o.Ref] = v
+		}
+		return v
+	}
+	var out []Oscillator
+	for _, o := range list {
+		inherited := false
+		for _, q := range list {
+			if q.Ref != o.Ref && math.Abs(math.Log(q.F/o.F)) < math.Log(ac.InheritedSpan) && ownOf(q) && !ownOf(o) {
+				inherited = true
+				break
+			}
+		}
+		if !inherited {
+			out = append(out, o)
+		}
+	}
 	return out
 }
 

@@ -54,6 +54,12 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 		if !ok || mMax < loopReachDB && (claimed[p.Ref] != nil || !drawnConverter(w, lc, p, l, tops)) {
 			continue
 		}
+		if inheritedLoop(lp, c, p.Ref, l) {
+			// Another device's oscillation seen through this one (a
+			// follower on an RC oscillator's collector): the loop is
+			// that device's, and its stage says so.
+			continue
+		}
 		if f := claimed[p.Ref]; mMax >= 0 && amplifierOf(c, f, tops, p.Ref) && !sharedLoop(lp, c, p.Ref, l) {
 			// Named an amplifier by its shape (a shunt-fed anode load, a
 			// bypassed cathode) but its loop runs: it is an oscillator,
@@ -117,6 +123,42 @@ func sharedLoop(lp *ac.Loops, c *graph.Circuit, dev string, l Loop) bool {
 		}
 		qMin, qMax, _, qBest, ok := ql.Range()
 		if ok && qBest >= 0 && qMin <= fMax*(1+sharedLoopTol) && qMax >= fMin*(1-sharedLoopTol) {
+			return true
+		}
+	}
+	return false
+}
+
+// inheritedLoop reports whether dev's loop is another device's seen
+// through it: dev closes no loop by its own gain (ac.OwnLoop, the others
+// made passive) while another active part whose 0° point is within
+// ac.InheritedSpan of dev's does, and that part's loop runs (margin 0 dB
+// or more). An emitter follower fed from an RC oscillator's collector was
+// flagged "oscillates … +26.4 dB … may squegg" for the oscillator's loop.
+func inheritedLoop(lp *ac.Loops, c *graph.Circuit, dev string, l Loop) bool {
+	fMin, fMax, _, _, _ := l.Range()
+	opts := ac.LoopOptions{Options: ac.Options{VarFrac: 0.5, VarSet: true}}
+	var own *bool
+	for _, q := range c.Parts {
+		if q.Ref == dev || !q.IsActive() {
+			continue
+		}
+		ql, err := loopOf(lp, q.Ref)
+		if err != nil {
+			continue
+		}
+		qMin, qMax, _, qBest, ok := ql.Range()
+		if !ok || qBest < 0 || qMin > fMax*ac.InheritedSpan || qMax < fMin/ac.InheritedSpan {
+			continue
+		}
+		if own == nil {
+			v, _ := ac.OwnLoop(lp.Circuit(), dev, opts)
+			own = &v
+		}
+		if *own {
+			return false
+		}
+		if qOwn, _ := ac.OwnLoop(lp.Circuit(), q.Ref, opts); qOwn {
 			return true
 		}
 	}

@@ -75,6 +75,24 @@ var hintTable = []hintRow{
 		"strong signals overload: the output stops rising with level long before the IF rows' reference"},
 }
 
+// ownOutput is the injection wording of the oscillator faults for an
+// oscillator that is the circuit's output (common practice: an oscillator
+// is checked running on an oscilloscope or a counter; injection cannot
+// stand in for it).
+var ownOutput = map[string]string{
+	"dead oscillator": "nothing at {out}; no injection row stands in for an oscillator: look at {out} on an oscilloscope or a counter",
+	"open or failing capacitor in an oscillator's loop (a padder, a feedback or DC-blocking capacitor)": "nothing at {out} (the oscillator stops), or its frequency on a counter moves away from the loop's figure",
+}
+
+// outputName is the circuit's first output for a hint, "the output" when
+// none is declared.
+func outputName(c *graph.Circuit) string {
+	if len(c.Outputs) > 0 {
+		return "the output (" + c.Outputs[0] + ")"
+	}
+	return "the output"
+}
+
 // hintsFor are the hints for the stages the circuit has, in stage order;
 // a sub-stage does not repeat a fault its parent already shows.
 func hintsFor(c *graph.Circuit, sts []stages.Stage, ifHz float64) []Hint {
@@ -90,6 +108,12 @@ func hintsFor(c *graph.Circuit, sts []stages.Stage, ifHz float64) []Hint {
 				continue
 			}
 			row.readings = readingsFor(row, family, det)
+			if alone, ok := ownOutput[row.fault]; ok && ifHz <= 0 && mixerStage(sts) == nil {
+				// No IF and no mixer: the oscillator is the circuit's
+				// own output (a test-tone board, a VFO), not a local
+				// oscillator; there are no RF rows and no dial.
+				row.inject = strings.ReplaceAll(alone, "{out}", outputName(c))
+			}
 			out = addHint(out, s, row)
 		}
 	}

@@ -2,8 +2,12 @@ package align_test
 
 import (
 	"bytes"
+	"math"
+	"pare/cmd/internal/note"
+	"pare/rules/stages"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strings"
 	"testing"
 
@@ -49,5 +53,59 @@ func TestDeviceWordsFollowTheKind(t *testing.T) {
 				t.Errorf("no \"mixer's base\" in the transistor set's guide:\n%s", text)
 			}
 		})
+	}
+}
+
+// TestOscillatorOwnsItsLoop (docs/references.md §33): b01 is an RC
+// phase-shift oscillator Q1 with an emitter-follower buffer Q2 fed through
+// C5. Q2's return ratio crosses 0° near Q1's frequency with a large
+// "margin" only because Q1's loop is closed: with Q1 made passive Q2
+// closes no loop. The follower was flagged "Q2 oscillates … +26.4 dB …
+// may squegg"; the loop is Q1's alone. Q1's loop is checked against the
+// reviewer's ngspice return-ratio deck with its resistors written in plain
+// SPICE (testdata/review13/spice/b01_loop_values.cir: 0° at 586.777 Hz,
+// |T| +1.932 dB; the deck as sent read "5k6" as 5 kΩ and gave 604.4 Hz).
+// The oscillator's frequency is in the note's stage table, and its
+// symptoms speak of its output, not of RF rows and a dial.
+func TestOscillatorOwnsItsLoop(t *testing.T) {
+	r, g := build(t, review13("b01"))
+	var q1 *stages.Loop
+	for _, s := range r.Stages {
+		for i, l := range s.Loop {
+			if l.Device == "Q2" {
+				t.Errorf("%s carries a loop of the follower Q2: %s", s.Name, stages.LoopLine(l))
+			}
+			if l.Device == "Q1" {
+				q1 = &s.Loop[i]
+			}
+		}
+		for _, f := range s.Flags {
+			if strings.Contains(f, "Q2 oscillates") || strings.Contains(f, "squegg") && slices.Contains(s.Parts, "Q2") {
+				t.Errorf("%s: %s", s.Name, f)
+			}
+		}
+	}
+	if q1 == nil {
+		t.Fatal("no loop for Q1")
+	}
+	fMin, _, mMin, _, ok := q1.Range()
+	if !ok || math.Abs(fMin/586.777-1) > 1e-3 || math.Abs(mMin-1.932) > 0.05 {
+		t.Errorf("Q1's loop %s, want 586.777 Hz, +1.932 dB (ngspice)", stages.LoopLine(*q1))
+	}
+	for _, o := range r.DC.Oscillators() {
+		if o.Ref == "Q2" {
+			t.Errorf("the DC chart's oscillators list the follower Q2 (%.1f Hz)", o.F)
+		}
+	}
+	n := note.FromResult(r, note.Meta{})
+	for _, s := range n.Stages {
+		if s.Name == "S1" && !strings.Contains(s.Figures, "586.8 Hz") {
+			t.Errorf("S1's figures in the note %q lack the oscillator's frequency", s.Figures)
+		}
+	}
+	for _, h := range g.Hints {
+		if strings.Contains(h.Inject, "RF row") || strings.Contains(h.Inject, "dial") {
+			t.Errorf("symptom %q of an audio oscillator speaks of RF rows or a dial: %q", h.Fault, h.Inject)
+		}
 	}
 }

@@ -5,6 +5,7 @@ import (
 	"path/filepath"
 	"slices"
 	"sort"
+	"strings"
 
 	"pare/cmd/internal/pipeline"
 	"pare/graph"
@@ -140,8 +141,23 @@ func noteStages(found []stages.Stage) []Stage {
 			Checks:  figure.Checks(s.Figures, figure.Text),
 			Notes:   s.Notes,
 		}
+		if out[i].Figures == "" {
+			// An oscillator found by its loop has its frequency in the
+			// loop, not among its figures: the table showed "–" for it.
+			out[i].Figures = loopLines(s.Loop)
+		}
 	}
 	return out
+}
+
+// loopLines are a stage's loops as `pare stages` words them, one after
+// another.
+func loopLines(ls []stages.Loop) string {
+	var out []string
+	for _, l := range ls {
+		out = append(out, stages.LoopLine(l))
+	}
+	return strings.Join(out, "; ")
 }
 
 func noteSteps(steps []rules.Step) []Step {

@@ -46,7 +46,7 @@ func sampleNote() *Note {
 // valveCaution is the caution graph/safety words for a valve set with a
 // 250 V rail, as the main job hands it to the note.
 func valveCaution() Caution {
-	c := safety.Assessment{Class: safety.MainsHT, MaxVolts: 250, Evidence: []string{"valves V1"}}.Caution()
+	c := safety.Assessment{Class: safety.MainsHT, MaxVolts: 250, Valves: 1, Evidence: []string{"valves V1"}}.Caution()
 	return Caution{Heading: c.Heading, Lines: c.Lines, Basis: c.Basis()}
 }
 
