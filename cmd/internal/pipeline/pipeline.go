@@ -271,6 +271,10 @@ func (r *Result) bias(Options) error {
 	if r.DCErr != nil {
 		return nil
 	}
+	if ws := r.labelWarnings(); len(ws) > 0 {
+		r.Warnings = append(r.Warnings, ws...)
+		r.Warnings.Sort()
+	}
 	if biased, filled := r.DC.Biased(); len(filled) > 0 {
 		r.Circuit, r.Biased = biased, filled
 	}
