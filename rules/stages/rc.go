@@ -276,6 +276,9 @@ func (x *figCtx) downstream(ci int) (down int, r float64, ok bool) {
 		}
 		// a side nothing else reaches from the inputs is downstream (MaxInt)
 		sides[i].d, sides[i].r = x.netDist(net, ci), resistanceToGround(x.w, net)
+		if sides[i].r <= 0 {
+			sides[i].r = speakerLoad(x.w, net)
+		}
 	}
 	down = -1
 	switch {
@@ -294,6 +297,32 @@ func (x *figCtx) downstream(ci int) (down int, r float64, ok bool) {
 		return -1, 0, true
 	}
 	return down, sides[down].r, true
+}
+
+// speakerLoad is the rated impedance of a loudspeaker from net to AC
+// ground, 0 when none: what a capacitor coupling a loudspeaker feeds (its
+// rating is its nominal impedance, common practice). The resistive walk
+// holds resistors and pots only, so a coupling capacitor into an 8 Ω
+// speaker was said to feed "the resistance beyond … not in this circuit".
+func speakerLoad(w *world, net int) float64 {
+	r := 0.0
+	for _, ci := range w.conns[net] {
+		p := w.parts[ci]
+		if p.Kind != graph.Loudspeaker || len(w.pins[ci]) != 2 || p.Value.Max <= 0 {
+			continue
+		}
+		if other := w.pins[ci][0]; other == net && w.pins[ci][1] == groundNet || other == groundNet && w.pins[ci][1] == net {
+			r = parallelOf(r, p.Value.Max)
+		}
+	}
+	return r
+}
+
+func parallelOf(a, b float64) float64 {
+	if a <= 0 {
+		return b
+	}
+	return a * b / (a + b)
 }
 
 // noteOpenPort notes a coupling capacitor that feeds a port (a connection

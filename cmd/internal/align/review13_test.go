@@ -3,6 +3,7 @@ package align_test
 import (
 	"math"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 

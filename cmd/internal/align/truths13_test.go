@@ -109,3 +109,32 @@ func TestOscillatorOwnsItsLoop(t *testing.T) {
 		}
 	}
 }
+
+// TestCouplingIntoLoudspeaker: b04's C5 (470 µF) couples the output to
+// LS1, 8 Ω to chassis; the note said "the resistance beyond is not in this
+// circuit" because the resistive walk saw only resistors. The corner is
+// that of 470 µF into 8 Ω: 42.33 Hz (derived from fc = 1/(2πRC),
+// docs/references.md §4; the loudspeaker's rating its nominal impedance,
+// common practice).
+func TestCouplingIntoLoudspeaker(t *testing.T) {
+	r, _ := build(t, review13("b04"))
+	for _, s := range r.Stages {
+		if !slices.Contains(s.Parts, "C5") {
+			continue
+		}
+		for _, n := range s.Notes {
+			if strings.Contains(n, "not in this circuit") {
+				t.Errorf("%s: %s", s.Name, n)
+			}
+		}
+		f, ok := s.Figures.Get("f_c")
+		if !ok {
+			t.Fatalf("%s has no corner: %v", s.Name, s.Figures)
+		}
+		if f.Check == nil || math.Abs(f.Check.Value/42.33-1) > 0.01 {
+			t.Errorf("%s corner formula %v, want 42.33 Hz", s.Name, f.Check)
+		}
+		return
+	}
+	t.Fatal("no stage holds C5")
+}
