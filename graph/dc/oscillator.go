@@ -103,7 +103,8 @@ func ownLoops(bc *graph.Circuit, list []Oscillator) []Oscillator {
 	ownOf := func(o Oscillator) bool {
 		v, ok := own[o.Ref]
 		if !ok {
-			v, _ = ac.OwnLoop(bc, o.Ref, ac.LoopOptions{Options: ac.Options{VarFrac: 0.5, VarSet: true}})
+			// near its crossing: the others' loading moves it a little
+			v, _ = ac.OwnLoop(bc, o.Ref, ac.LoopOptions{Options: ac.Options{VarFrac: 0.5, VarSet: true}, From: o.F / 2, To: o.F * 2})
 			own[o.Ref] = v
 		}
 		return v

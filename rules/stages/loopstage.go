@@ -54,7 +54,7 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 		if !ok || mMax < loopReachDB && (claimed[p.Ref] != nil || !drawnConverter(w, lc, p, l, tops)) {
 			continue
 		}
-		if inheritedLoop(lp, c, p.Ref, l) {
+		if mMax >= 0 && inheritedLoop(lp, c, p.Ref, l) {
 			// Another device's oscillation seen through this one (a
 			// follower on an RC oscillator's collector): the loop is
 			// that device's, and its stage says so.
@@ -137,8 +137,13 @@ func sharedLoop(lp *ac.Loops, c *graph.Circuit, dev string, l Loop) bool {
 // flagged "oscillates … +26.4 dB … may squegg" for the oscillator's loop.
 func inheritedLoop(lp *ac.Loops, c *graph.Circuit, dev string, l Loop) bool {
 	fMin, fMax, _, _, _ := l.Range()
-	opts := ac.LoopOptions{Options: ac.Options{VarFrac: 0.5, VarSet: true}}
-	var own *bool
+	// Its own loop, if it has one, sits near the crossing it shows (the
+	// others' loading moves it a few per cent): searched an octave either
+	// side, first, as a device with a loop of its own needs nothing more.
+	opts := ac.LoopOptions{Options: ac.Options{VarFrac: 0.5, VarSet: true}, From: fMin / 2, To: fMax * 2}
+	if own, _ := ac.OwnLoop(lp.Circuit(), dev, opts); own {
+		return false
+	}
 	for _, q := range c.Parts {
 		if q.Ref == dev || !q.IsActive() {
 			continue
@@ -150,13 +155,6 @@ func inheritedLoop(lp *ac.Loops, c *graph.Circuit, dev string, l Loop) bool {
 		qMin, qMax, _, qBest, ok := ql.Range()
 		if !ok || qBest < 0 || qMin > fMax*ac.InheritedSpan || qMax < fMin/ac.InheritedSpan {
 			continue
-		}
-		if own == nil {
-			v, _ := ac.OwnLoop(lp.Circuit(), dev, opts)
-			own = &v
-		}
-		if *own {
-			return false
 		}
 		if qOwn, _ := ac.OwnLoop(lp.Circuit(), q.Ref, opts); qOwn {
 			return true
