@@ -111,7 +111,7 @@ func TestEveryAdjusterAccountedFor(t *testing.T) {
 		want []string // pieces the guide must say
 	}{
 		{"b02", []string{"on VC1a TC1 at the high end and the core of T1 at the low end", "on VC1b TC2 at the high end and the core of T2 at the low end"}},
-		{"a01", []string{"set the top of the range to 1.3 MHz with trimmer TC1", "the bottom to 1 MHz with the core of L1"}},
+		{"a01", nil}, // its lone oscillator's steps turn both (TestReview13LoneOscillatorCoverage)
 		{"b03", nil},
 		{"b05", nil},
 	} {
