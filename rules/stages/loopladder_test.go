@@ -17,8 +17,9 @@ import (
 // own), c02's second shunt is a preset and a resistor in series (R6 was in
 // no stage). b01's buffer coupling C5 and base bias R11 ≡ R11, R12 lead to
 // Q2, not back to Q1's base: they are not the oscillator's. The loop runs
-// where ngspice finds it: .ac on testdata/review13/spice/b01_loop.cir gives
-// 0° at 604.4 Hz, +1.70 dB (review 13); on testdata/review12/spice/c02loop.cir
+// where ngspice finds it: .ac on testdata/review13/spice/b01_loop_values.cir
+// gives 0° at 586.777 Hz, +1.932 dB (the reviewer's b01_loop.cir read "5k6"
+// as 5 kΩ and gave 604.4 Hz); on testdata/review12/spice/c02loop.cir
 // 677.83 Hz, +7.25 dB (review 12); within 5 % (pare's DC point differs a
 // little from the deck's).
 func TestPhaseShiftLadderByLoop(t *testing.T) {
@@ -27,7 +28,7 @@ func TestPhaseShiftLadderByLoop(t *testing.T) {
 		spiceHz      float64
 		holds, not   []string
 	}{
-		{"../../testdata/review13/b01.toml", "Q1", 604.4,
+		{"../../testdata/review13/b01.toml", "Q1", 586.777,
 			[]string{"C1", "C2", "C3", "R6", "R7", "R8", "R3"}, []string{"C5", "R11", "Q2"}},
 		{"../../testdata/review12/c02.toml", "TR1", 677.83,
 			[]string{"C2", "C3", "C4", "R5", "RV2", "R6"}, nil},
