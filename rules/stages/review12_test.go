@@ -63,7 +63,15 @@ func TestReview12ColpittsTankCountsTheGang(t *testing.T) {
 // own circuit.
 func review12Text(t *testing.T, name string, repl ...string) *graph.Circuit {
 	t.Helper()
-	data, err := os.ReadFile(filepath.Join("..", "..", "testdata", "review12", name))
+	return reviewCircuit(t, "review12", name, repl...)
+}
+
+// reviewCircuit is a blind review's circuit (testdata/DIR/NAME at the
+// repository's top) with the replacements made (old, new pairs), each of
+// which must apply.
+func reviewCircuit(t *testing.T, dir, name string, repl ...string) *graph.Circuit {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join("..", "..", "testdata", dir, name))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -2,8 +2,6 @@ package stages
 
 import (
 	"math"
-	"os"
-	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
@@ -20,22 +18,7 @@ import (
 // pairs), each of which must apply.
 func review13(t *testing.T, name string, repl ...string) *graph.Circuit {
 	t.Helper()
-	data, err := os.ReadFile(filepath.Join("..", "..", "testdata", "review13", name))
-	if err != nil {
-		t.Fatal(err)
-	}
-	s := string(data)
-	for i := 0; i+1 < len(repl); i += 2 {
-		if !strings.Contains(s, repl[i]) {
-			t.Fatalf("%s: %q not in the circuit", name, repl[i])
-		}
-		s = strings.Replace(s, repl[i], repl[i+1], 1)
-	}
-	c, err := graph.Parse(name, []byte(s))
-	if err != nil {
-		t.Fatalf("%s: %v", name, err)
-	}
-	return c
+	return reviewCircuit(t, "review13", name, repl...)
 }
 
 // notesOf are every supply stage's notes, one per line, with its name.
