@@ -138,16 +138,7 @@ func TestAssess(t *testing.T) {
 			want: LiveChassis, because: "series heaters"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			var c *graph.Circuit
-			var err error
-			if tc.file != "" {
-				c, err = graph.LoadFile(filepath.Join(repo, tc.file))
-			} else {
-				c, err = graph.Parse(tc.name+".toml", []byte(tc.text))
-			}
-			if err != nil {
-				t.Fatal(err)
-			}
+			c := caseCircuit(t, tc.file, tc.name, tc.text)
 			a := Assess(c)
 			if a.Class != tc.want {
 				t.Fatalf("class %s, want %s (evidence %q)", a.Class, tc.want, a.Evidence)
@@ -340,16 +331,7 @@ func TestCautionFitsTheSet(t *testing.T) {
 		{name: "mains valve set", file: "examples/club-receiver.toml", mains: true, valveHT: true},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			var c *graph.Circuit
-			var err error
-			if tc.file != "" {
-				c, err = graph.LoadFile(filepath.Join(repo, tc.file))
-			} else {
-				c, err = graph.Parse(tc.name+".toml", []byte(tc.text))
-			}
-			if err != nil {
-				t.Fatal(err)
-			}
+			c := caseCircuit(t, tc.file, tc.name, tc.text)
 			ca := For(c)
 			all := []string{ca.Heading, ca.Sheet(false), ca.Report(SweepModel)}
 			all = append(all, ca.Lines...)
@@ -368,4 +350,21 @@ func TestCautionFitsTheSet(t *testing.T) {
 			}
 		})
 	}
+}
+
+// caseCircuit is a table case's circuit: the repository's file when one is
+// named, else the case's own text.
+func caseCircuit(t *testing.T, file, name, text string) *graph.Circuit {
+	t.Helper()
+	var c *graph.Circuit
+	var err error
+	if file != "" {
+		c, err = graph.LoadFile(filepath.Join(repo, file))
+	} else {
+		c, err = graph.Parse(name+".toml", []byte(text))
+	}
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c
 }

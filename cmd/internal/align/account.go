@@ -88,21 +88,7 @@ func switchedOut(c *graph.Circuit) map[string]bool {
 			}
 		}
 	}
-	out := map[string]bool{}
-	if len(open) == 0 {
-		return out
-	}
-	for _, p := range c.Parts {
-		if p.Kind == graph.Switch {
-			continue
-		}
-		for _, pin := range p.Pins {
-			if open[pin.Net] {
-				out[p.Ref] = true
-			}
-		}
-	}
-	return out
+	return partsOnNets(c, open)
 }
 
 // tankLine says how the usual method sets one tuned circuit's range (common

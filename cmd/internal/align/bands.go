@@ -108,7 +108,16 @@ func bandParts(c *graph.Circuit) map[string]bool {
 			}
 		}
 	}
+	return partsOnNets(c, nets)
+}
+
+// partsOnNets are the parts other than switches with a pin on one of the
+// nets: what a switch's contacts put in or take out of circuit.
+func partsOnNets(c *graph.Circuit, nets map[string]bool) map[string]bool {
 	out := map[string]bool{}
+	if len(nets) == 0 {
+		return out
+	}
 	for _, p := range c.Parts {
 		if p.Kind == graph.Switch {
 			continue
