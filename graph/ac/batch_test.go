@@ -137,7 +137,7 @@ func TestSameSystemSweep(t *testing.T) {
 				if po.key() != pr.key() {
 					t.Fatalf("%s: %s %s→%s: two probes of one system have different digests", file, q.what, q.from, q.to)
 				}
-				want, err := sweepPair(po, pr, q.bands, 100, DefaultTolDB, DefaultTolDeg, marks)
+				want, err := sweepPair(po, pr, q.bands, CompareOptions{Points: 100, TolDB: DefaultTolDB, TolDeg: DefaultTolDeg}, marks)
 				if err != nil {
 					t.Fatal(err)
 				}

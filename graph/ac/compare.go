@@ -22,6 +22,10 @@ type CompareOptions struct {
 	// same systems and keeps this one's for later (memo.go); the caller
 	// settles it after each comparison.
 	Memo *Memo `json:"-"`
+	// AboveRounding, when set, refines the deviation only around its peaks
+	// above the solver's rounding (roundingDB, roundingDeg): for the proof
+	// of one step among many, where only the verdict counts (rounding.go).
+	AboveRounding bool `json:"-"`
 }
 
 // Default tolerances: half a decibel and five degrees, well inside what a

@@ -153,14 +153,14 @@ func phaseDiff(a, b complex128) float64 {
 	return d * 180 / math.Pi
 }
 
-// peaks returns the indices of the largest local maxima of m (ends count),
-// at most n of them, largest first, ties by index.
-func peaks(m []float64, n int) []int {
+// peaks returns the indices of the largest local maxima of m (ends count)
+// above the value above, at most n of them, largest first, ties by index.
+func peaks(m []float64, n int, above float64) []int {
 	var idx []int
 	for i := range m {
 		left := i == 0 || m[i] >= m[i-1]
 		right := i == len(m)-1 || m[i] >= m[i+1]
-		if left && right && m[i] > 0 {
+		if left && right && m[i] > above {
 			idx = append(idx, i)
 		}
 	}

@@ -14,8 +14,12 @@ import (
 )
 
 // sweepPair runs the coarse sweep and the refinement for one quantity.
-func sweepPair(po, pr *probe, bands []value.Range, points int, tolDB, tolDeg float64, marks []float64) (pairResult, error) {
+func sweepPair(po, pr *probe, bands []value.Range, o CompareOptions, marks []float64) (pairResult, error) {
+	points, tolDB, tolDeg := o.Points, o.TolDB, o.TolDeg
 	sw := &pairSweep{po: po, pr: pr, ho: po.memo, hr: pr.memo, floor: math.NaN()}
+	if o.AboveRounding {
+		sw.ddMin, sw.dpMin = roundingDB, roundingDeg
+	}
 	if sw.ho == nil {
 		sw.ho = map[float64]complex128{}
 	}
@@ -100,6 +104,9 @@ func coarseGrid(bands []value.Range, points int, marks []float64) []float64 {
 type pairSweep struct {
 	po, pr *probe
 	ho, hr map[float64]complex128
+	// ddMin and dpMin: deviation peaks at or below these are not refined
+	// (CompareOptions.AboveRounding); zero refines every peak.
+	ddMin, dpMin float64
 
 	freqs  []float64
 	vo, vr []complex128
@@ -285,8 +292,12 @@ func (sw *pairSweep) refinePoints() []float64 {
 	var add []float64
 	sw.deviations()
 	freqs := sw.freqs
-	for _, m := range [][]float64{sw.mo, sw.mr, sw.dd, sw.dp} {
-		for _, i := range peaks(m, maxPeaks) {
+	series := [...]struct {
+		m     []float64
+		above float64
+	}{{sw.mo, 0}, {sw.mr, 0}, {sw.dd, sw.ddMin}, {sw.dp, sw.dpMin}}
+	for _, se := range series {
+		for _, i := range peaks(se.m, maxPeaks, se.above) {
 			if i > 0 {
 				add = append(add, logSweepInner(freqs[i-1], freqs[i], per)...)
 			}
@@ -337,7 +348,7 @@ type sweepKey struct {
 func (cp *comparer) sweep(po, pr *probe, bands []value.Range) (pairResult, error) {
 	o := cp.o
 	if po.zero || pr.zero {
-		return sweepPair(po, pr, bands, o.Points, o.TolDB, o.TolDeg, cp.marks)
+		return sweepPair(po, pr, bands, o, cp.marks)
 	}
 	k := sweepKey{po.key(), pr.key(), bandsKey(bands)}
 	cp.mu.Lock()
@@ -350,7 +361,7 @@ func (cp *comparer) sweep(po, pr *probe, bands []value.Range) (pairResult, error
 	if k.o == k.r {
 		res, err = sweepSame(po, bands, o.Points, cp.marks)
 	} else {
-		res, err = sweepPair(po, pr, bands, o.Points, o.TolDB, o.TolDeg, cp.marks)
+		res, err = sweepPair(po, pr, bands, o, cp.marks)
 	}
 	if err == nil {
 		cp.mu.Lock()

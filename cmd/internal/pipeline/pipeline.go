@@ -339,11 +339,15 @@ func (r *Result) recognise(o Options) error {
 }
 
 // compare is the one call of the AC comparison in pare's commands: the
-// final proof and every step check go through it. The step checks lend it
-// their memo of solved responses; the final proof solves afresh.
+// final proof and every step check go through it. The step checks against
+// the previous circuit lend it their memo of solved responses and, since
+// only their verdict counts, leave the deviation's rounding unrefined
+// (ac.CompareOptions.AboveRounding); the final proof solves afresh and
+// searches every peak.
 func (r *Result) compare(orig, reduced *graph.Circuit, memo *ac.Memo) (*ac.Report, error) {
 	o := r.Compare
 	o.Memo = memo
+	o.AboveRounding = memo != nil
 	return ac.Compare(orig, reduced, o)
 }
 
