@@ -214,6 +214,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	}
 	cp := &comparer{o: o, settings: settings, marks: append(landmarks(orig), landmarks(reduced)...),
 		circuits: [2]*graph.Circuit{orig, reduced}, dc: dc, models: map[modelKey]*modelOrErr{}, swept: map[sweepKey]pairResult{}}
+	cp.plan = planKey(o, cp.marks)
 	var silent []string
 	for i, r := range cp.runQuantities(qs) {
 		q, worst, out, err := qs[i], r.worst, r.out, r.err
@@ -236,6 +237,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 		}
 		rep.Pairs = append(rep.Pairs, worst)
 	}
+	o.Memo.keepSweeps(cp.swept) // every quantity ran: their sweeps are the loop's
 	if len(silent) > 0 {
 		rep.Notes = append(rep.Notes, silentNote(silent))
 	}
@@ -287,6 +289,7 @@ type comparer struct {
 	models   map[modelKey]*modelOrErr
 	mu       sync.Mutex // swept, when quantities run side by side
 	swept    map[sweepKey]pairResult
+	plan     string // planKey of the options and marks
 }
 
 // probe builds the probe of a quantity in circuit ci (0 original, 1 reduced)

@@ -33,11 +33,41 @@ type Memo struct {
 	// used lists the digests each circuit's probes used in the comparison
 	// since the last Settle.
 	used [2][][sha256.Size]byte
+	// sweeps are the results of the sweeps of the comparisons so far, by
+	// their two systems, bands and plan (comparer.sweep): a sweep is a
+	// function of those. Settle leaves them: they are few (one per pair
+	// of systems a step made), and the channels of a set built alike
+	// sweep the same pairs step after step.
+	sweeps map[sweepKey]pairResult
 }
 
 // NewMemo returns an empty memo for a run of comparisons.
 func NewMemo() *Memo {
-	return &Memo{series: map[[sha256.Size]byte]map[float64]complex128{}}
+	return &Memo{series: map[[sha256.Size]byte]map[float64]complex128{}, sweeps: map[sweepKey]pairResult{}}
+}
+
+// sweep is the result of a sweep an earlier comparison made; false
+// without a memo. The comparisons run one after the other, so sweeps does
+// not change while one reads it.
+func (m *Memo) sweep(k sweepKey) (pairResult, bool) {
+	if m == nil {
+		return pairResult{}, false
+	}
+	res, ok := m.sweeps[k]
+	return res, ok
+}
+
+// keepSweeps keeps the sweeps of a comparison that ran every quantity (one
+// that stopped at a failure keeps none: which of its quantities ran beside
+// the failing one depends on the schedule, and the memo must hold only what
+// the sequential loop would have made).
+func (m *Memo) keepSweeps(swept map[sweepKey]pairResult) {
+	if m == nil {
+		return
+	}
+	for k, res := range swept {
+		m.sweeps[k] = res
+	}
 }
 
 // Settle ends one comparison: the responses of the original (keepOrig) and

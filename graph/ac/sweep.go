@@ -328,10 +328,11 @@ func (sw *pairSweep) worst(tolDB, tolDeg float64) pairResult {
 }
 
 // sweepKey names one sweep: the systems of both responses (their digests,
-// memo.go) and the bands.
+// memo.go), the bands and the comparison's plan (comparer.plan).
 type sweepKey struct {
 	o, r  [sha256.Size]byte
 	bands string
+	plan  string
 }
 
 // sweep is sweepPair for one quantity at one setting, done once for each
@@ -344,13 +345,18 @@ type sweepKey struct {
 // therefore the same sweep at every setting, and so are two channels built
 // alike: the result is taken, not solved again. Failures are not kept (a
 // failed sweep ends its quantity, and with a memo its half-filled entries
-// would be read by a sweep that starts elsewhere).
+// would be read by a sweep that starts elsewhere). With a Memo, the sweeps
+// of the comparisons before are taken too (Memo.sweeps): a step proof
+// sweeps again what an earlier step of another channel built alike swept.
 func (cp *comparer) sweep(po, pr *probe, bands []value.Range) (pairResult, error) {
 	o := cp.o
 	if po.zero || pr.zero {
 		return sweepPair(po, pr, bands, o, cp.marks)
 	}
-	k := sweepKey{po.key(), pr.key(), bandsKey(bands)}
+	k := sweepKey{po.key(), pr.key(), bandsKey(bands), cp.plan}
+	if res, done := o.Memo.sweep(k); done {
+		return res, nil
+	}
 	cp.mu.Lock()
 	res, done := cp.swept[k]
 	cp.mu.Unlock()
@@ -377,6 +383,23 @@ func bandsKey(bands []value.Range) string {
 	for _, r := range bands {
 		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(r.Min))
 		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(r.Max))
+	}
+	return string(b)
+}
+
+// planKey is everything of a comparison that a sweep depends on besides its
+// systems and bands, to the bit, as a map key: the points per band, the
+// tolerances, whether rounding is refined, and the landmark frequencies.
+func planKey(o CompareOptions, marks []float64) string {
+	b := make([]byte, 0, 32+8*len(marks))
+	b = binary.LittleEndian.AppendUint64(b, uint64(o.Points))
+	b = binary.LittleEndian.AppendUint64(b, math.Float64bits(o.TolDB))
+	b = binary.LittleEndian.AppendUint64(b, math.Float64bits(o.TolDeg))
+	if o.AboveRounding {
+		b = append(b, 1)
+	}
+	for _, f := range marks {
+		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(f))
 	}
 	return string(b)
 }
