@@ -169,6 +169,11 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		}
 		out = append(out, b)
 	}
+	if moved := false; len(out) > 0 {
+		if out, moved = branchesBeside(s.Circuit, out); moved {
+			inLine(out)
+		}
+	}
 	out = looseLast(out, loose, ext)
 	out = homeSockets(s.Circuit, out, sockets, ext)
 	if len(out) > 0 && out[len(out)-1].ch > 0 {

@@ -17,13 +17,15 @@ const (
 )
 
 // place orders the blocks in each column, then gives columns their x and
-// blocks their y, and draws the stage frames round their parts.
+// blocks their y, puts the rail sockets under them (feet.go), and draws
+// the stage frames round their parts.
 func (ly *state) place() {
-	cols := ly.blocks()
+	cols, feet := ly.footSockets(ly.blocks())
 	ly.order(cols)
 	ly.placeColumns(cols)
 	ly.placeRows(cols)
 	ly.templates(cols)
+	ly.placeFeet(feet)
 	ly.makeFrames()
 }
 
