@@ -69,9 +69,10 @@ func TestSmallSetsInOnePiece(t *testing.T) {
 
 // TestRailSocketsAtTheFoot: on every review circuit's faded view, drawn as
 // one sheet, a socket none of whose pins is wired (a supply, heater or AGC
-// line brought in, drawn with its rail's tag) stands under the drawing,
-// not in a column of the signal's order: there it was as wide as its name
-// and pushed small sets past a page's width.
+// line brought in, drawn with its rail's tag) stands under the parts of
+// the first stages, none of them under it, not in a column of its own
+// beside the input: there it was as wide as its name and pushed small
+// sets past a page's width.
 func TestRailSocketsAtTheFoot(t *testing.T) {
 	var files []string
 	for _, dir := range []string{"review13", "review12"} {
@@ -94,18 +95,24 @@ func TestRailSocketsAtTheFoot(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		bottom := -1e18
 		for _, sym := range s.g.Symbols {
 			if !sockets[sym.Ref] {
-				bottom = max(bottom, sym.Box.Y1)
+				continue
 			}
-		}
-		for _, sym := range s.g.Symbols {
-			if sockets[sym.Ref] {
-				seen++
-				if sym.Box.Y0 < bottom {
-					t.Errorf("%s faded: rail socket %s at y %.1f, above the drawing's foot at %.1f", filepath.Base(f), sym.Ref, sym.Box.Y0, bottom)
+			seen++
+			above, below := 0, []string{}
+			for _, o := range s.g.Symbols {
+				if sockets[o.Ref] || o.Box.X1 <= sym.Box.X0 || o.Box.X0 >= sym.Box.X1 {
+					continue
 				}
+				if o.Box.Y1 <= sym.Box.Y0 {
+					above++
+				} else {
+					below = append(below, o.Ref)
+				}
+			}
+			if above == 0 || len(below) > 0 {
+				t.Errorf("%s faded: rail socket %s has %d part(s) above it and %v beside or under it, want it under the first stages", filepath.Base(f), sym.Ref, above, below)
 			}
 		}
 	}

@@ -56,6 +56,21 @@ func (ly *state) footSockets(cols [][]*block) ([][]*block, []*block) {
 	return cols, feet
 }
 
+// footWidth is the width of column i without the rail sockets taken out of
+// it, w, narrowed from its width with them by whole grid steps only: the
+// columns after it then move by whole steps, which keeps every part's
+// rounding to the grid, so the sheet is the one it was, shifted, and
+// routed as it was.
+func footWidth(w float64, i int, feet []*block) float64 {
+	with := w
+	for _, b := range feet {
+		if b.col == i {
+			with = math.Max(with, b.fp.W())
+		}
+	}
+	return with - math.Floor(with-w)
+}
+
 // onlyRailSockets says whether every part of a block is a rail socket.
 func (ly *state) onlyRailSockets(b *block) bool {
 	if len(b.cells) == 0 || len(b.chain) > 0 {
@@ -69,18 +84,28 @@ func (ly *state) onlyRailSockets(b *block) bool {
 	return true
 }
 
-// placeFeet sets the rail sockets side by side in a line footGap under
-// everything else placed, from its left edge, in the order their columns
-// held them (the netlist's order within a column).
+// placeFeet sets the rail sockets side by side in a line from the
+// drawing's left edge, in the order their columns held them (the
+// netlist's order within a column), footGap under the parts placed above
+// that line's span, a column's gap either side, and the frames there
+// (never inside a stage's frame, nor with a tag against its edge):
+// under the first stages, where the sheet is seldom at its deepest, so the
+// line seldom makes it taller. The frames are drawn before it: a rail
+// socket is in none.
 func (ly *state) placeFeet(feet []*block) {
 	if len(feet) == 0 {
 		return
 	}
 	in := map[*cell]bool{}
-	for _, b := range feet {
+	span := 0.0
+	for i, b := range feet {
 		for _, cl := range b.cells {
 			in[cl] = true
 		}
+		if i > 0 {
+			span += colGap
+		}
+		span += b.fp.W()
 	}
 	all := geom.Rect{}
 	for _, cl := range ly.cells {
@@ -88,9 +113,21 @@ func (ly *state) placeFeet(feet []*block) {
 			all = all.Union(cl.footprint())
 		}
 	}
-	x, y := all.X0, all.Y1+footGap
-	if all == (geom.Rect{}) {
-		x, y = 0, 0
+	x := all.X0
+	bottom := math.Inf(-1)
+	for _, cl := range ly.cells {
+		if fp := cl.footprint(); !in[cl] && fp.X1 > x && fp.X0 < x+span+colGap {
+			bottom = math.Max(bottom, fp.Y1)
+		}
+	}
+	for _, f := range ly.frames {
+		if f.Box.X1 > x && f.Box.X0 < x+span+colGap {
+			bottom = math.Max(bottom, f.Box.Y1)
+		}
+	}
+	y := bottom + footGap
+	if math.IsInf(bottom, -1) {
+		y = all.Y0
 	}
 	for _, b := range feet {
 		d := geom.Pt{X: math.Round(x - b.fp.X0), Y: math.Round(y - b.fp.Y0)}

@@ -22,17 +22,18 @@ const (
 func (ly *state) place() {
 	cols, feet := ly.footSockets(ly.blocks())
 	ly.order(cols)
-	ly.placeColumns(cols)
+	ly.placeColumns(cols, feet)
 	ly.placeRows(cols)
 	ly.templates(cols)
-	ly.placeFeet(feet)
 	ly.makeFrames()
+	ly.placeFeet(feet)
 }
 
 // placeColumns sets the columns side by side, each block centred in its
 // column, with a gap for the routing tracks the column's nets need and
-// more between stages (enough for a frame title wider than its parts).
-func (ly *state) placeColumns(cols [][]*block) {
+// more between stages (enough for a frame title wider than its parts); a
+// column the rail sockets left is as narrow as footWidth allows.
+func (ly *state) placeColumns(cols [][]*block, feet []*block) {
 	spans := ly.trackSpans(len(cols))
 	colStage := ly.columnStages(cols)
 	x := 0.0
@@ -43,6 +44,7 @@ func (ly *state) placeColumns(cols [][]*block) {
 		for _, b := range col {
 			w = math.Max(w, b.fp.W())
 		}
+		w = footWidth(w, i, feet)
 		if s := colStage[i]; s >= 0 {
 			if _, ok := stageStart[s]; !ok {
 				stageStart[s] = x
