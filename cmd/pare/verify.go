@@ -394,7 +394,9 @@ func reportReduceError(e *env, cmd, path string, err error) int {
 // A part left at the device model's default bias is said on standard
 // error.
 func circuitFor(e *env, cmd, path string, reduced bool, level string) (*graph.Circuit, safety.Caution, int) {
-	po := pipeline.Options{Path: path, Until: pipeline.PhaseBias}
+	// The original circuit is all the caller reads; the reduction also
+	// reads the operating point (the rails a rectifier gives, acBase).
+	po := pipeline.Options{Path: path, Until: pipeline.PhaseBias, CircuitOnly: !reduced}
 	if reduced {
 		lvl, err := rules.ParseLevel(level)
 		if err != nil {

@@ -22,6 +22,21 @@ import (
 // Diodes are left alone: a detector conducts on the signal's peaks, so its
 // small-signal resistance is not a property of the DC bias.
 
+// Fills says whether Biased can fill any figure of c: only transistors,
+// FETs and valves take figures at the bias (the devices Biased looks at are
+// built from those kinds alone), so on a circuit of none the operating
+// point changes nothing the small-signal model reads, and a command that
+// wants only the biased circuit need not solve it (TestFillsOnlyDevices).
+func Fills(c *graph.Circuit) bool {
+	for _, p := range c.Parts {
+		switch p.Kind {
+		case graph.BJT, graph.FET, graph.Valve:
+			return true
+		}
+	}
+	return false
+}
+
 // Biased returns c with the missing small-signal figures taken at the
 // operating point, and where each came from.
 func (p *Point) Biased() (*graph.Circuit, []Origin) {

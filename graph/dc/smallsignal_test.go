@@ -3,8 +3,10 @@ package dc
 import (
 	"bytes"
 	"math"
+	"path/filepath"
 	"testing"
 
+	"pare/graph"
 	"pare/internal/reftool"
 )
 
@@ -52,5 +54,52 @@ func TestBiasedAgainstNgspice(t *testing.T) {
 		if _, o := pt.Biased(); len(o) != 0 {
 			t.Errorf("%s: figures filled although given: %+v", f, o)
 		}
+	}
+}
+
+// TestFillsOnlyDevices holds Fills to what Biased does: on every example
+// and fixture netlist of the repository whose operating point is found, a
+// circuit Fills calls bare of devices has no figure filled, and every
+// device the solver built for Biased to look at is a part of a kind Fills
+// counts. Both answers occur (the test cannot pass on one side alone).
+func TestFillsOnlyDevices(t *testing.T) {
+	var files []string
+	for _, pat := range []string{"../../examples/*.toml", "../../testdata/*/*.toml", "../../testdata/*/*/*.toml", "testdata/*.toml"} {
+		m, err := filepath.Glob(pat)
+		if err != nil {
+			t.Fatal(err)
+		}
+		files = append(files, m...)
+	}
+	bare, filled := 0, 0
+	for _, f := range files {
+		c, err := graph.LoadFile(f)
+		if err != nil {
+			continue // the bad-input fixtures
+		}
+		pt, err := Solve(c)
+		if err != nil {
+			continue
+		}
+		for _, d := range pt.m.devices {
+			if d.kind != devBJT && d.kind != devFET && d.kind != devValve {
+				continue
+			}
+			if k := c.Part(d.ref).Kind; k != graph.BJT && k != graph.FET && k != graph.Valve {
+				t.Errorf("%s: %s is a device Biased reads, of kind %v", f, d.ref, k)
+			}
+		}
+		_, origins := pt.Biased()
+		switch {
+		case !Fills(c) && len(origins) > 0:
+			t.Errorf("%s: Fills says no device, Biased filled %+v", f, origins)
+		case !Fills(c):
+			bare++
+		case len(origins) > 0:
+			filled++
+		}
+	}
+	if bare == 0 || filled == 0 {
+		t.Errorf("%d circuits without devices, %d with figures filled: want some of each", bare, filled)
 	}
 }
