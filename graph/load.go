@@ -6,8 +6,6 @@ import (
 	"strconv"
 	"strings"
 
-	"github.com/BurntSushi/toml"
-
 	"pare/graph/value"
 )
 
@@ -32,8 +30,7 @@ func Parse(file string, data []byte) (*Circuit, error) {
 	src := string(data)
 	scanned := make(chan *keyIndex, 1)
 	go scanBeside(file, src, scanned)
-	var raw map[string]any
-	_, err := toml.Decode(src, &raw)
+	raw, err := decodeTOML(src)
 	ix := <-scanned
 	if err != nil {
 		return nil, DecodeError(file, data, err)
