@@ -365,6 +365,15 @@ func dedupe(a []int) []int {
 // solveAt assembles and solves the system at frequency f (Hz); the solution
 // is left in s.b, indexed by unknown.
 func (s *system) solveAt(f float64) error {
+	s.assembleAt(f)
+	if s.n == 0 {
+		return nil
+	}
+	return s.factor(f)
+}
+
+// assembleAt fills the matrix and the right-hand side at frequency f.
+func (s *system) assembleAt(f float64) {
 	w := 2 * math.Pi * f
 	if s.fixed == nil {
 		s.vals = make([]complex128, len(s.coefs))
@@ -390,10 +399,6 @@ func (s *system) solveAt(f float64) error {
 			s.b[st.rhs] -= v // driven node at 1 V
 		}
 	}
-	if s.n == 0 {
-		return nil
-	}
-	return s.factor(f)
 }
 
 func (s *system) factor(f float64) error {
@@ -511,19 +516,13 @@ func transferMany(c *graph.Circuit, in string, outs []string, freqs []float64, o
 	for i := range res {
 		res[i] = make([]complex128, len(freqs))
 	}
-	for k, f := range freqs {
-		if !(f > 0) || math.IsInf(f, 0) {
-			return nil, fmt.Errorf("frequency %g: must be a positive number of hertz", f)
-		}
-		if err := s.solveAt(f); err != nil {
-			return nil, err
-		}
-		if err := s.solveRHS(f); err != nil {
-			return nil, err
-		}
+	err = sweepPoints(s, freqs, nil, func(k int, s *system) {
 		for i, n := range outNodes {
 			res[i][k] = s.voltage(n)
 		}
+	})
+	if err != nil {
+		return nil, err
 	}
 	return res, nil
 }
@@ -564,21 +563,14 @@ func Impedance(c *graph.Circuit, net string, freqs []float64, o Options) ([]comp
 	if s.unk[n] < 0 {
 		return nil, fmt.Errorf("net %s is not connected to any part the small-signal model sees: its impedance is unbounded", net)
 	}
-	for k, f := range freqs {
-		if !(f > 0) || math.IsInf(f, 0) {
-			return nil, fmt.Errorf("frequency %g: must be a positive number of hertz", f)
-		}
-		if err := s.solveAt(f); err != nil {
-			return nil, err
-		}
-		for i := range s.b {
-			s.b[i] = 0
-		}
+	// The net is driven with 1 A: the right-hand side is that alone.
+	drive := func(s *system) {
+		clear(s.b)
 		s.b[s.unk[n]] = 1
-		if err := s.solveRHS(f); err != nil {
-			return nil, err
-		}
-		out[k] = s.voltage(n)
+	}
+	err = sweepPoints(s, freqs, drive, func(k int, s *system) { out[k] = s.voltage(n) })
+	if err != nil {
+		return nil, err
 	}
 	return out, nil
 }
