@@ -93,10 +93,13 @@ type Options struct {
 	// refused, before any other phase: the command's moment to change
 	// what suits loading (the collector, cmd/pare/main.go) back.
 	Loaded func()
-	// CircuitOnly says the command reads nothing of the bias phase but the
-	// circuit it leaves (pare sweep and pare spice of the original): the
-	// operating point is then solved only when it can fill a figure in
-	// (dc.Fills), and Result.DC stays nil otherwise.
+	// CircuitOnly says the command reads nothing of the result but the
+	// circuit the bias phase leaves and its caution (pare sweep and pare
+	// spice of the original): the check's warnings and notes are not
+	// worked out (the check only reads the circuit, and for a set with no
+	// input it searches for an oscillator's loop), and the operating point
+	// is solved only when it can fill a figure in (dc.Fills); Result.DC
+	// stays nil otherwise.
 	CircuitOnly bool
 
 	// Reduction.
@@ -259,7 +262,10 @@ func Run(o Options) (*Result, error) {
 	return r, nil
 }
 
-func (r *Result) check(Options) error {
+func (r *Result) check(o Options) error {
+	if o.CircuitOnly {
+		return nil
+	}
 	r.Warnings = graph.Check(r.Circuit)
 	r.Notes = append(r.Notes, graph.CheckNotes(r.Circuit)...)
 	r.weighNoInput()
