@@ -277,6 +277,15 @@ func (f *lu) refactor(a *csc) error {
 
 // solve overwrites b (indexed by unknown) with A⁻¹·b, using y as scratch of length n.
 func (f *lu) solve(b, y []complex128) {
+	f.forward(b, y)
+	f.backward(y, 0)
+	for k := 0; k < f.n; k++ {
+		b[f.q[k]] = y[k]
+	}
+}
+
+// forward permutes b into y and solves L·y = P·b in place.
+func (f *lu) forward(b, y []complex128) {
 	for k := 0; k < f.n; k++ {
 		y[k] = b[f.prow[k]]
 	}
@@ -289,18 +298,21 @@ func (f *lu) solve(b, y []complex128) {
 			y[f.li[t]] -= f.lx[t] * v
 		}
 	}
-	for k := f.n - 1; k >= 0; k-- {
+}
+
+// backward solves U·x = y in place, from the last step down to step from:
+// the steps below it are left part done (a step's value is final once its
+// column is reached, and later columns only change lower steps).
+func (f *lu) backward(y []complex128, from int) {
+	for k := f.n - 1; k >= from; k-- {
 		v := y[k] * f.ud[k]
 		y[k] = v
-		if v == 0 {
+		if v == 0 || k == from {
 			continue
 		}
 		for t := f.up[k]; t < f.up[k+1]; t++ {
 			y[f.ui[t]] -= f.ux[t] * v
 		}
-	}
-	for k := 0; k < f.n; k++ {
-		b[f.q[k]] = y[k]
 	}
 }
 

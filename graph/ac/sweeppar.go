@@ -31,11 +31,13 @@ var parallelWork = 200_000
 //
 // would, stopping at the first error; rhs (may be nil) sets the
 // right-hand side after the matrix is assembled; read takes a point's
-// solution from the system it was solved on.
-func sweepPoints(s *system, freqs []float64, rhs func(*system), read func(int, *system)) error {
+// solution from the system it was solved on, and reads only unknowns of
+// the steps from `from` up (solveRHSFrom: the others may be left unsolved).
+func sweepPoints(s *system, freqs []float64, from int, rhs func(*system), read func(int, *system)) error {
+	sw := &pointSweep{freqs: freqs, from: from, rhs: rhs, read: read}
 	cores := runtime.GOMAXPROCS(0)
 	if cores < 2 || s.n == 0 || len(freqs) < 8 || s.n*len(freqs) < parallelWork {
-		return sweepFrom(s, freqs, 0, rhs, read)
+		return sw.loop(s, 0)
 	}
 	bad := len(freqs) // the first frequency that is no frequency
 	for k, f := range freqs {
@@ -45,84 +47,96 @@ func sweepPoints(s *system, freqs []float64, rhs func(*system), read func(int, *
 		}
 	}
 	if bad == 0 {
-		return sweepFrom(s, freqs, 0, rhs, read)
+		return sw.loop(s, 0)
 	}
-	if err := solvePoint(s, freqs[0], rhs); err != nil {
+	if err := sw.point(s, 0); err != nil {
 		return err
 	}
 	read(0, s)
-	done := make([]bool, bad)
-	errs := make([]error, bad)
+	sw.done = make([]bool, bad)
+	sw.errs = make([]error, bad)
 	finished := make(chan struct{}, cores)
 	for w := 1; w < cores; w++ {
 		t := s.twin() // before s solves again
 		go func() {
-			refactorPoints(t, freqs, w, cores, bad, done, errs, rhs, read)
+			sw.refactorPoints(t, w, cores, bad)
 			finished <- struct{}{}
 		}()
 	}
-	refactorPoints(s, freqs, 0, cores, bad, done, errs, rhs, read)
+	sw.refactorPoints(s, 0, cores, bad)
 	for w := 1; w < cores; w++ {
 		<-finished
 	}
 	for k := 1; k < bad; k++ {
 		switch {
-		case errs[k] != nil:
-			return errs[k]
-		case !done[k]:
+		case sw.errs[k] != nil:
+			return sw.errs[k]
+		case !sw.done[k]:
 			// A stale pivot, or a point after one on its core: the loop
 			// from here, with the pivots it would hold here.
-			return sweepFrom(s, freqs, k, rhs, read)
+			return sw.loop(s, k)
 		}
 	}
-	return sweepFrom(s, freqs, bad, rhs, read)
+	return sw.loop(s, bad)
+}
+
+// pointSweep is one sweepPoints: its points, what it reads, and which
+// points the cores finished (done) or failed at (errs).
+type pointSweep struct {
+	freqs []float64
+	from  int
+	rhs   func(*system)
+	read  func(int, *system)
+	done  []bool
+	errs  []error
 }
 
 // refactorPoints solves the points first+1, first+1+step, … below end on s
 // with the pivots it holds, marking each done; it stops at a stale pivot
 // (leaving the point not done) or at an error (kept in errs).
-func refactorPoints(s *system, freqs []float64, first, step, end int, done []bool, errs []error, rhs func(*system), read func(int, *system)) {
+func (sw *pointSweep) refactorPoints(s *system, first, step, end int) {
 	for k := first + 1; k < end; k += step {
-		f := freqs[k]
+		f := sw.freqs[k]
 		s.assembleAt(f)
-		if rhs != nil {
-			rhs(s)
+		if sw.rhs != nil {
+			sw.rhs(s)
 		}
 		if err := s.f.refactor(&s.a); err != nil {
 			return
 		}
-		if err := s.solveRHS(f); err != nil {
-			errs[k] = err
+		if err := s.solveRHSFrom(f, sw.from); err != nil {
+			sw.errs[k] = err
 			return
 		}
-		read(k, s)
-		done[k] = true
+		sw.read(k, s)
+		sw.done[k] = true
 	}
 }
 
-// sweepFrom is the one-by-one loop from point k on.
-func sweepFrom(s *system, freqs []float64, k int, rhs func(*system), read func(int, *system)) error {
-	for ; k < len(freqs); k++ {
-		if err := solvePoint(s, freqs[k], rhs); err != nil {
+// loop is the one-by-one loop from point k on.
+func (sw *pointSweep) loop(s *system, k int) error {
+	for ; k < len(sw.freqs); k++ {
+		if err := sw.point(s, k); err != nil {
 			return err
 		}
-		read(k, s)
+		sw.read(k, s)
 	}
 	return nil
 }
 
-// solvePoint checks f and solves s at it.
-func solvePoint(s *system, f float64, rhs func(*system)) error {
+// point checks the frequency of point k and solves s at it.
+func (sw *pointSweep) point(s *system, k int) error {
+	f := sw.freqs[k]
 	if !validHz(f) {
 		return fmt.Errorf("frequency %g: must be a positive number of hertz", f)
 	}
 	if err := s.solveAt(f); err != nil {
 		return err
 	}
-	if rhs != nil {
-		rhs(s)
+	if sw.rhs != nil {
+		sw.rhs(s)
 	}
-	return s.solveRHS(f)
+	return s.solveRHSFrom(f, sw.from)
 }
 
 func validHz(f float64) bool { return f > 0 && !math.IsInf(f, 0) }
@@ -135,6 +149,7 @@ func (s *system) twin() *system {
 	t.a.x = make([]complex128, len(s.a.x))
 	t.b = make([]complex128, len(s.b))
 	t.y = make([]complex128, len(s.y))
+	t.bound = nil
 	t.vals = append([]complex128(nil), s.vals...)
 	f := *s.f
 	f.lx = append([]complex128(nil), s.f.lx...)

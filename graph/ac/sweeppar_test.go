@@ -1,6 +1,7 @@
 package ac
 
 import (
+	"fmt"
 	"math"
 	"path/filepath"
 	"runtime"
@@ -12,7 +13,8 @@ import (
 
 // TestSweepPointsIsLoop: on every example and fixture circuit, a transfer
 // and an impedance swept with the points shared between cores (however
-// small the system) give the one-by-one loop's numbers to the bit and its
+// small the system) and only the unknowns read solved (solveRHSFrom) give
+// the voltages of the one-by-one loop of whole solves to the bit, and its
 // error, also with a frequency that is no frequency midway; the loop
 // chooses fresh pivots after the first point on some of them, so the
 // handover from the cores back to the loop is exercised.
@@ -51,20 +53,30 @@ func TestSweepPointsIsLoop(t *testing.T) {
 		if !ok || node == 0 {
 			continue
 		}
+		out := graph.FarthestNet(c, in)
+		outNode, ok := nl.netNode[out]
+		if out == "" || !ok {
+			continue
+		}
 		for _, fs := range [][]float64{freqs, broken} {
 			for _, driven := range []int{node, -1} {
 				var rhs func(*system)
 				if driven < 0 {
 					rhs = func(s *system) { clear(s.b); s.b[s.unk[node]] = 1 }
 				}
+				read := []int{outNode, node}
 				one, err := newSystem(nl, driven)
 				if err != nil || one.unk[node] == unkGround {
 					continue
 				}
 				two, _ := newSystem(nl, driven)
-				want, renewed, wantErr := loopAll(one, fs, rhs)
-				got := make([]complex128, len(one.b)*len(fs))
-				gotErr := sweepPoints(two, fs, rhs, func(k int, s *system) { copy(got[k*len(s.b):], s.b) })
+				want, renewed, wantErr := loopAll(one, fs, rhs, read)
+				got := make([]complex128, len(read)*len(fs))
+				gotErr := sweepPoints(two, fs, two.lowestStep(read), rhs, func(k int, s *system) {
+					for i, n := range read {
+						got[k*len(read)+i] = s.voltage(n)
+					}
+				})
 				if (wantErr == nil) != (gotErr == nil) || wantErr != nil && wantErr.Error() != gotErr.Error() {
 					t.Errorf("%s: error %v, the loop's %v", f, gotErr, wantErr)
 				}
@@ -82,14 +94,24 @@ func TestSweepPointsIsLoop(t *testing.T) {
 	}
 }
 
-// loopAll is the one-by-one loop, with every point's solution and the
-// number of points where the pivots were chosen afresh.
-func loopAll(s *system, freqs []float64, rhs func(*system)) ([]complex128, int, error) {
-	out := make([]complex128, len(s.b)*len(freqs))
+// loopAll is the one-by-one loop with whole solves, with the voltages of
+// the nodes read at every point and the number of points where the pivots
+// were chosen afresh.
+func loopAll(s *system, freqs []float64, rhs func(*system), read []int) ([]complex128, int, error) {
+	out := make([]complex128, len(read)*len(freqs))
 	renewed := 0
 	var prow []int
 	for k, f := range freqs {
-		if err := solvePoint(s, f, rhs); err != nil {
+		if !validHz(f) {
+			return nil, renewed, fmt.Errorf("frequency %g: must be a positive number of hertz", f)
+		}
+		if err := s.solveAt(f); err != nil {
+			return nil, renewed, err
+		}
+		if rhs != nil {
+			rhs(s)
+		}
+		if err := s.solveRHS(f); err != nil {
 			return nil, renewed, err
 		}
 		if k > 0 && s.n > 0 && !slices.Equal(prow, s.f.prow) {
@@ -98,7 +120,9 @@ func loopAll(s *system, freqs []float64, rhs func(*system)) ([]complex128, int, 
 		if s.n > 0 {
 			prow = append(prow[:0], s.f.prow...)
 		}
-		copy(out[k*len(s.b):], s.b)
+		for i, n := range read {
+			out[k*len(read)+i] = s.voltage(n)
+		}
 	}
 	return out, renewed, nil
 }

@@ -80,6 +80,7 @@ type system struct {
 	b, y   []complex128
 	vals   []complex128 // coefficient values at the current frequency
 	fixed  *statics     // solveAt's constant sums, from its first call
+	bound  []float64    // solveRHSFrom's scratch
 }
 
 const (
@@ -417,6 +418,11 @@ func (s *system) solveRHS(f float64) error {
 		return nil
 	}
 	s.f.solve(s.b, s.y)
+	return s.finite(f)
+}
+
+// finite refuses a solution with an unknown infinite or NaN.
+func (s *system) finite(f float64) error {
 	// One comparison per part (false for an infinite or NaN one) instead
 	// of the four tests of IsNaN and IsInf; they name the unknown after.
 	bad := false
@@ -435,6 +441,39 @@ func (s *system) solveRHS(f float64) error {
 		}
 	}
 	return nil
+}
+
+// solveRHSFrom is solveRHS for a caller that reads only the unknowns at
+// steps from `from` up (solvepart.go): those come out the same to the bit,
+// and the rest are solved only when the bound cannot show them finite.
+func (s *system) solveRHSFrom(f float64, from int) error {
+	if s.n == 0 {
+		return nil
+	}
+	if len(s.bound) != s.n {
+		s.bound = make([]float64, s.n)
+	}
+	if s.f.solvePart(s.b, s.y, from, s.bound) {
+		return nil
+	}
+	return s.finite(f)
+}
+
+// lowestStep is the lowest factorisation step of the unknowns of nodes
+// (ground and the driven node have none); s.n when none has one.
+func (s *system) lowestStep(nodes []int) int {
+	from := s.n
+	if s.n == 0 {
+		return from
+	}
+	for k, u := range s.f.q {
+		for _, n := range nodes {
+			if s.unk[n] == u {
+				from = min(from, k)
+			}
+		}
+	}
+	return from
 }
 
 // voltage returns the solved voltage of a node.
@@ -516,7 +555,7 @@ func transferMany(c *graph.Circuit, in string, outs []string, freqs []float64, o
 	for i := range res {
 		res[i] = make([]complex128, len(freqs))
 	}
-	err = sweepPoints(s, freqs, nil, func(k int, s *system) {
+	err = sweepPoints(s, freqs, s.lowestStep(outNodes), nil, func(k int, s *system) {
 		for i, n := range outNodes {
 			res[i][k] = s.voltage(n)
 		}
@@ -568,7 +607,7 @@ func Impedance(c *graph.Circuit, net string, freqs []float64, o Options) ([]comp
 		clear(s.b)
 		s.b[s.unk[n]] = 1
 	}
-	err = sweepPoints(s, freqs, drive, func(k int, s *system) { out[k] = s.voltage(n) })
+	err = sweepPoints(s, freqs, s.lowestStep([]int{n}), drive, func(k int, s *system) { out[k] = s.voltage(n) })
 	if err != nil {
 		return nil, err
 	}
