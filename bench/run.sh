@@ -11,6 +11,9 @@
 #   PARE_BENCH_BIN      time this pare binary instead of building the worktree's
 #   PARE_BENCH_TIMEOUT  seconds before a run is given up (default 600)
 #   PARE_BENCH_LADDER   RC ladder sections for the sweep pairing (default 10000; 0 skips)
+#   PARE_BENCH_BASE     a pare binary from before a change, timed beside pare and
+#                       ngspice in each round of the sweep pairing
+#   PARE_BENCH_ROUNDS   rounds of the sweep pairing (default 5)
 #
 # For each size and phase it prints the wall time, the time per part, the
 # peak resident memory, the time as a multiple of the load of the same file
@@ -92,9 +95,13 @@ if [ "$ladder" -gt 0 ] && command -v ngspice >/dev/null; then
 		/usr/bin/time -f '%e %U %S %M' -o "$work/pair.txt" "$@" >/dev/null 2>&1
 		awk -v n="$name" '{ printf "%s wall %.2f s, cpu %.2f s, peak %.0f MB", n, $1, $2 + $3, $4 / 1024 }' "$work/pair.txt"
 	}
-	for i in 1 2 3 4 5; do
+	for i in $(seq "${PARE_BENCH_ROUNDS:-5}"); do
+		b=""
+		if [ -n "${PARE_BENCH_BASE:-}" ]; then
+			b="$(timed base "$PARE_BENCH_BASE" sweep "$work/ladder.toml"); "
+		fi
 		p=$(timed pare "$work/pare" sweep "$work/ladder.toml")
 		s=$(cd "$work" && timed ngspice ngspice -b ladder.cir)
-		echo "pair $i (load $(cut -d' ' -f1 /proc/loadavg)): $p; $s"
+		echo "pair $i (load $(cut -d' ' -f1 /proc/loadavg)): $b$p; $s"
 	done
 fi
