@@ -8,12 +8,11 @@ import "math"
 // a solution with any unknown infinite or NaN, so every unknown was solved.
 // In the back substitution the unknowns of the steps below the lowest one
 // read only feed each other; they need not be worked out when they are
-// shown to be finite without it. A bound does that: with |z| read as
-// |re z| + |im z| (a norm that is sub-multiplicative and a sum's
-// magnitude at most the sum of the magnitudes), the same column sweep in
-// real numbers over the magnitudes of y, U and 1/diag(U), each magnitude
-// and each unknown's bound raised to at least boundFloor, bounds every unknown's magnitude
-// from above; each of its operations stays within rounding of the exact
+// shown to be finite without it. A bound does that: the same column sweep
+// in real numbers over upper bounds of the moduli of y, U and 1/diag(U)
+// (|ab| = |a||b|, |a+b| ≤ |a|+|b|), each modulus and each unknown's bound
+// raised to at least boundFloor, bounds every unknown's modulus from
+// above; each of its operations stays within rounding of the exact
 // bound (a relative 2⁻⁵³ a step), and below boundLimit that rounding,
 // compounded over any number of steps pare solves, keeps the unknowns far
 // from the largest double, so none of them is infinite or NaN. Where the
@@ -54,33 +53,45 @@ func (f *lu) solvePart(b, y []complex128, from int, bound []float64) bool {
 	return true
 }
 
-// finiteBound runs the back substitution on magnitudes (norm1, floored at
+// finiteBound runs the back substitution on moduli (modBound, floored at
 // boundFloor) and tells whether every bound stays at most boundLimit.
 func (f *lu) finiteBound(y []complex128, r []float64) bool {
 	for k := 0; k < f.n; k++ {
-		r[k] = norm1(y[k])
+		r[k] = modBound(y[k])
 	}
 	for k := f.n - 1; k >= 0; k-- {
 		// A product of two floored values may underflow: floored again,
 		// it is still at least the exact one.
-		x := max(r[k]*norm1(f.ud[k]), boundFloor)
+		x := max(r[k]*modBound(f.ud[k]), boundFloor)
 		if !(x <= boundLimit) {
 			return false
 		}
 		for t := f.up[k]; t < f.up[k+1]; t++ {
-			r[f.ui[t]] += norm1(f.ux[t]) * x
+			r[f.ui[t]] += modBound(f.ux[t]) * x
 		}
 	}
 	return true
 }
 
-// norm1 is an upper bound of |re v| + |im v| of at least boundFloor,
-// worked out without arithmetic on subnormal numbers: twice the larger
-// part (NaN stays NaN, and infinite infinite).
-func norm1(v complex128) float64 {
+// modBound is an upper bound of the modulus |v| of at least boundFloor, within a relative
+// 2⁻⁴⁹ of the modulus when |v| is above it, worked out without arithmetic
+// on subnormal numbers (NaN stays NaN, and infinite infinite). The modulus
+// itself, not |re|+|im|: along a ladder the bound multiplies a step's
+// magnitudes thousands of times over, and a factor up to √2 a step (or
+// the 2 of twice the larger part) made it overflow where the unknowns
+// decay.
+func modBound(v complex128) float64 {
 	re, im := math.Abs(real(v)), math.Abs(imag(v))
 	if re != re || im != im {
 		return math.NaN()
 	}
-	return 2 * max(re, im, boundFloor)
+	m, s := max(re, im), min(re, im)
+	switch {
+	case m < boundFloor:
+		return 2 * boundFloor // |v| ≤ √2·m
+	case s < m*0x1p-30:
+		return m * (1 + 0x1p-49) // |v| ≤ m·√(1+2⁻⁶⁰)
+	}
+	q := s / m
+	return m * math.Sqrt(1+q*q) * (1 + 0x1p-49)
 }
