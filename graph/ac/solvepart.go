@@ -32,6 +32,39 @@ const boundFloor = 0x1p-900
 // rounding far inside the largest double.
 const boundLimit = math.MaxFloat64 / (1 << 30)
 
+// solveRHSFrom is solveRHS for a caller that reads only the unknowns at
+// steps from `from` up (solvepart.go): those come out the same to the bit,
+// and the rest are solved only when the bound cannot show them finite.
+func (s *system) solveRHSFrom(f float64, from int) error {
+	if s.n == 0 {
+		return nil
+	}
+	if len(s.bound) != s.n {
+		s.bound = make([]float64, s.n)
+	}
+	if s.f.solvePart(s.b, s.y, from, s.bound) {
+		return nil
+	}
+	return s.finite(f)
+}
+
+// lowestStep is the lowest factorisation step of the unknowns of nodes
+// (ground and the driven node have none); s.n when none has one.
+func (s *system) lowestStep(nodes []int) int {
+	from := s.n
+	if s.n == 0 {
+		return from
+	}
+	for k, u := range s.f.q {
+		for _, n := range nodes {
+			if s.unk[n] == u {
+				from = min(from, k)
+			}
+		}
+	}
+	return from
+}
+
 // solvePart solves like solve, but when the bound shows every unknown
 // finite it works out only the steps from `from` up and reports true: b then
 // holds the solution at those steps (through q) and is stale elsewhere. On

@@ -443,39 +443,6 @@ func (s *system) finite(f float64) error {
 	return nil
 }
 
-// solveRHSFrom is solveRHS for a caller that reads only the unknowns at
-// steps from `from` up (solvepart.go): those come out the same to the bit,
-// and the rest are solved only when the bound cannot show them finite.
-func (s *system) solveRHSFrom(f float64, from int) error {
-	if s.n == 0 {
-		return nil
-	}
-	if len(s.bound) != s.n {
-		s.bound = make([]float64, s.n)
-	}
-	if s.f.solvePart(s.b, s.y, from, s.bound) {
-		return nil
-	}
-	return s.finite(f)
-}
-
-// lowestStep is the lowest factorisation step of the unknowns of nodes
-// (ground and the driven node have none); s.n when none has one.
-func (s *system) lowestStep(nodes []int) int {
-	from := s.n
-	if s.n == 0 {
-		return from
-	}
-	for k, u := range s.f.q {
-		for _, n := range nodes {
-			if s.unk[n] == u {
-				from = min(from, k)
-			}
-		}
-	}
-	return from
-}
-
 // voltage returns the solved voltage of a node.
 func (s *system) voltage(node int) complex128 {
 	switch u := s.unk[node]; {
