@@ -33,6 +33,9 @@ type Guide struct {
 	// band are the parts the wavechange switch puts in circuit at its set
 	// position only (bandParts): a band's own trimmers.
 	band map[string]bool
+	// det is the detector's sides as wired (detSides), with the DC
+	// solver's word on them once Build has asked it; nil without one.
+	det *detSides
 	// IF is the set's intermediate frequency in hertz (0: none known) and
 	// IFFrom where it was read ("S2 IF", "[freqs] if"); FM marks an FM IF
 	// strip (a discriminator or ratio detector recognised).
@@ -101,8 +104,9 @@ func Build(title string, c *graph.Circuit, sts []stages.Stage, caution safety.Ca
 	g := procedure(c, sts)
 	g.Title, g.Caution = title, caution.Alignment()
 	g.AGC = agcNet(c)
+	g.confirmDetector(c)
 	g.Inject, g.InjectErr = injections(c, sts, g)
-	g.Hints = hintsFor(c, sts, g.IF)
+	g.Hints = hintsFor(c, sts, g.IF, g.det)
 	return g
 }
 
@@ -111,6 +115,7 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 	g := &Guide{}
 	mix := mixerStage(sts)
 	g.IF, g.IFFrom = setIF(c, mix)
+	g.det = detectorSides(c, sts)
 	g.FM = fmDetector(sts) || g.IF >= fmIFMin
 	g.ifSteps(c, sts)
 	g.trapSteps(switched(c))

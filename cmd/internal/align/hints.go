@@ -28,6 +28,10 @@ type hintRow struct {
 	inject   string
 }
 
+// openDetector is the detector's fault, whose readings quote the DC
+// solver's figure for the detector load where it has one.
+const openDetector = "open detector diode or load"
+
 var hintTable = []hintRow{
 	{[]string{"hartley", "colpitts", "clapp", "tickler", "pierce", "self-oscillating-mixer"}, false,
 		"dead oscillator",
@@ -58,7 +62,7 @@ var hintTable = []hintRow{
 		"DC readings normal",
 		"injection after the capacitor works, before it nothing (or a faint signal by stray capacity)"},
 	{[]string{"detector"}, false,
-		"open detector diode or load",
+		openDetector,
 		"no DC on the detector load and the AGC line with a carrier in",
 		"the IF rows reach the detector at their level, the audio rows work, yet no audio comes from an IF injection"},
 	{[]string{"discriminator", "ratio-detector"}, false,
@@ -95,9 +99,9 @@ func outputName(c *graph.Circuit) string {
 
 // hintsFor are the hints for the stages the circuit has, in stage order;
 // a sub-stage does not repeat a fault its parent already shows.
-func hintsFor(c *graph.Circuit, sts []stages.Stage, ifHz float64) []Hint {
+func hintsFor(c *graph.Circuit, sts []stages.Stage, ifHz float64, sides *detSides) []Hint {
 	var out []Hint
-	family, det := setFamily(c), detectorSign(c, sts)
+	family, det := setFamily(c), sides.signOf()
 	for _, s := range sts {
 		if s.Supply {
 			continue
@@ -108,6 +112,9 @@ func hintsFor(c *graph.Circuit, sts []stages.Stage, ifHz float64) []Hint {
 				continue
 			}
 			row.readings = readingsFor(row, family, det)
+			if w := sides.dcWords(); w != "" && row.fault == openDetector {
+				row.readings += " (healthy: " + w + ")"
+			}
 			if alone, ok := ownOutput[row.fault]; ok && ifHz <= 0 && mixerStage(sts) == nil {
 				// No IF and no mixer: the oscillator is the circuit's
 				// own output (a test-tone board, a VFO), not a local

@@ -123,8 +123,8 @@ func splitSecondary(c *graph.Circuit, t *graph.Part) (peak, zero []adjuster) {
 
 // detectorOut is the detector's audio output net, for the zero setting.
 func detectorOut(c *graph.Circuit, sts []stages.Stage) string {
-	if det := detectorStage(c, sts); det != nil {
-		return detectorLoad(c, *det)
+	if det := detectorSides(c, sts); det != nil {
+		return det.load
 	}
 	return "the audio output"
 }
@@ -239,7 +239,7 @@ func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool) string {
 	case det != nil && agc != "":
 		return fmt.Sprintf("the DC on the AGC line (%s) for %s, or the output meter for a maximum", agc, agcReading(c, sts, agc))
 	case det != nil:
-		return fmt.Sprintf("the detector's DC (%s) for its largest reading, or the output meter for a maximum", det.Name)
+		return fmt.Sprintf("the detector's DC (%s%s) for its %s reading, or the output meter for a maximum", det.Name, detOn(c, sts), detWord(detectorSign(c, sts)))
 	case len(c.Outputs) > 0:
 		w := fmt.Sprintf("the IF at %s on an RF voltmeter or scope for a maximum", c.Outputs[0])
 		if agc != "" {
@@ -248,6 +248,27 @@ func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool) string {
 		return w
 	}
 	return "the output meter for a maximum"
+}
+
+// detOn names the detector's load net for the IF steps (", on det_out"),
+// "" when its sides cannot be told.
+func detOn(c *graph.Circuit, sts []stages.Stage) string {
+	if d := detectorSides(c, sts); d != nil && d.load != "" {
+		return ", on " + d.load
+	}
+	return ""
+}
+
+// detWord is the reading a detector's DC peaks at: its most negative where
+// its load goes negative with a carrier, most positive where positive.
+func detWord(sign int) string {
+	switch {
+	case sign < 0:
+		return "most negative"
+	case sign > 0:
+		return "most positive"
+	}
+	return "largest"
 }
 
 // agcNet is the AGC line: a bias net named or labelled AGC.

@@ -2,7 +2,6 @@ package align
 
 import (
 	"fmt"
-	"math"
 	"slices"
 	"strings"
 
@@ -54,17 +53,6 @@ type Injection struct {
 
 // Options is the AC solver's setting for the row.
 func (in Injection) Options() ac.Options { return ac.Options{VarFrac: in.Gang, VarSet: true} }
-
-// Reference outputs (common practice, no source): 50 mW into a loudspeaker
-// is the customary standard output, with the carrier modulated 30 % at the
-// generators' customary 400 Hz; 1 V at a section's output is a level a
-// meter reads easily, kept for a set with no loudspeaker or no detector.
-const (
-	refSpeakerW = 0.05
-	refVolts    = 1.0
-	audioHz     = 400.0
-	modDepth    = 0.3
-)
 
 // point is an injection point before it is solved.
 type point struct {
@@ -130,17 +118,17 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 			continue
 		}
 		if isDetector(s) {
-			add(point{net: detectorLoad(c, s), where: s.Name + " detector load", detector: true})
+			if g.det != nil {
+				add(point{net: g.det.load, where: g.det.stage.Name + " detector load", detector: true})
+			}
 			continue
 		}
 		for _, ref := range s.Parts {
 			device(c.Part(ref))
 		}
 	}
-	if !slices.ContainsFunc(pts, func(p point) bool { return p.detector }) {
-		if s := detectorStage(c, sts); s != nil {
-			add(point{net: detectorLoad(c, *s), where: s.Name + " detector load", detector: true})
-		}
+	if !slices.ContainsFunc(pts, func(p point) bool { return p.detector }) && g.det != nil {
+		add(point{net: g.det.load, where: g.det.stage.Name + " detector load", detector: true})
 	}
 	for _, p := range c.Parts {
 		device(p)
@@ -265,148 +253,4 @@ func portOn(c *graph.Circuit, net string) string {
 		}
 	}
 	return "the input"
-}
-
-// detectorLoad is the net the detector's load sits on: a net of the
-// detector stage that is neither AC ground nor the diode's anode.
-func detectorLoad(c *graph.Circuit, s stages.Stage) string {
-	anode := diodeAnode(c, s)
-	// An FM detector's audio leaves by the secondary's centre tap; an AM
-	// diode's by its cathode unless that is at AC ground (the load then
-	// sits at the winding's cold end).
-	for _, want := range []struct {
-		kind graph.Kind
-		pin  string
-	}{{graph.Transformer, "st"}, {graph.Diode, "k"}} {
-		for _, ref := range s.Parts {
-			p := c.Part(ref)
-			if p == nil || p.Kind != want.kind {
-				continue
-			}
-			if n := p.NetOf(want.pin); n != "" && !c.RoleOf(n).IsACGround() {
-				return n
-			}
-		}
-	}
-	for _, ref := range s.Parts {
-		p := c.Part(ref)
-		if p == nil || p.Kind == graph.Valve || p.Kind == graph.Diode {
-			continue
-		}
-		for _, n := range netsOf(p) {
-			if n != anode && !c.RoleOf(n).IsACGround() {
-				return n
-			}
-		}
-	}
-	return ""
-}
-
-// diodeAnode is the detector diode's anode net.
-func diodeAnode(c *graph.Circuit, s stages.Stage) string {
-	for _, ref := range s.Parts {
-		p := c.Part(ref)
-		if p == nil {
-			continue
-		}
-		switch {
-		case p.Kind == graph.Diode:
-			return p.NetOf("a")
-		case p.Kind == graph.Valve && !p.IsActive():
-			for _, a := range []string{"a", "a1", "a2"} {
-				if n := p.NetOf(a); n != "" {
-					return n
-				}
-			}
-		}
-	}
-	return ""
-}
-
-// reference is what a row of a band is solved to give.
-func reference(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injection, i int) (net string, level float64, what string) {
-	switch pts[i].band {
-	case "audio":
-		for _, p := range c.Parts {
-			if p.Kind == graph.Loudspeaker && p.Value.Max > 0 {
-				hot := hotNet(c, p)
-				return hot, math.Sqrt(refSpeakerW * p.Value.Max), fmt.Sprintf("50 mW into the loudspeaker %s", p.Ref)
-			}
-		}
-	case "IF":
-		if net, level, what := carrierRef(c, sts, pts, rows); net != "" {
-			return net, level, what
-		}
-	case "RF":
-		for j := i + 1; j < len(pts); j++ {
-			if pts[j].mixer {
-				word, dev := mixerWords(c, pts[j].net)
-				return pts[j].net, rows[j].Level / convFraction, fmt.Sprintf("the RF at the mixer's %s (%s) that gives the mixer row's IF, through a conversion gain estimated at a quarter of its IF gain (conversion transconductance about a quarter to a third of the %s's gm, %s): an estimate, not solved", word, pts[j].net, dev, convSource)
-			}
-		}
-	}
-	if len(c.Outputs) == 0 {
-		return "", 0, ""
-	}
-	return c.Outputs[0], refVolts, fmt.Sprintf("1 V at the output (%s)", c.Outputs[0])
-}
-
-// detEfficiency is the peak detector's efficiency (audio peak over the
-// envelope's swing) the IF rows assume: 1, as pare's detector model does
-// (graph/device.DetectorRd, derived from the power balance at efficiency
-// 1); a valve diode into a load of some hundred kilohms gives 0.8–0.9
-// (from memory), so the bench needs a little more carrier than the rows.
-const detEfficiency = 1.0
-
-// convFraction is the mixer's conversion transconductance over its gm,
-// the estimate an RF row's reference rests on: the small-signal model has
-// no conversion gain, only the mixer's gain at the IF as an amplifier, so
-// the RF that gives the mixer row's IF is that row's level over this.
-const (
-	convFraction = 0.25
-	convSource   = "a handbook rule from memory"
-)
-
-// mixerWords names the control electrode on net and the kind of the device
-// it drives, for the RF rows' reference: a transistor mixer's base and
-// gm are not a valve's grid and gm. Without a device there, the valve's
-// words, as before.
-func mixerWords(c *graph.Circuit, net string) (control, device string) {
-	for _, cn := range c.ConnsOf(net) {
-		p := cn.Part
-		if graph.RoleOfPin(p.Kind, cn.Pin) != graph.RoleControl {
-			continue
-		}
-		switch p.Kind {
-		case graph.BJT:
-			return "base", "transistor"
-		case graph.FET:
-			return "gate", "FET"
-		case graph.Valve:
-			return "grid", "valve"
-		}
-	}
-	return "grid", "valve"
-}
-
-// carrierRef is the IF rows' reference: the carrier at the detector's
-// diode that, modulated modDepth, gives the audio the detector-load row
-// needs for the standard output (an envelope of RMS carrier Vc modulated m
-// gives m·Vc RMS of audio through a detector of efficiency 1). "" when
-// there is no solved detector row.
-func carrierRef(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injection) (string, float64, string) {
-	det := detectorStage(c, sts)
-	if det == nil {
-		return "", 0, ""
-	}
-	anode := diodeAnode(c, *det)
-	for j := range pts {
-		if !pts[j].detector || anode == "" || rows[j].Why != "" || rows[j].Level <= 0 {
-			continue
-		}
-		level := rows[j].Level / (modDepth * detEfficiency)
-		return anode, level, fmt.Sprintf("%s of carrier at the detector (%s), modulated 30 %% at 400 Hz: its audio, %s on %s (detector efficiency taken as 1, pare's detector model: a valve diode gives about 0.8–0.9, so the bench needs a little more carrier), gives %s",
-			volts(level), anode, volts(rows[j].Level), rows[j].Net, rows[j].RefWhat)
-	}
-	return "", 0, ""
 }

@@ -10,25 +10,21 @@ import (
 // one loaded at its anode side negative (common practice: a valve set's
 // detector and AGC go negative, many NPN portables' positive).
 
-// detectorSign is +1 when the detector's load sits on its diode's cathode,
-// -1 when on the anode side, 0 when there is no diode detector.
+// detectorSign is the sign of the detector load's DC with a carrier in
+// (detSides: +1 positive, −1 negative), 0 when there is no detector.
 func detectorSign(c *graph.Circuit, sts []stages.Stage) int {
-	det := detectorStage(c, sts)
-	if det == nil {
+	return detectorSides(c, sts).signOf()
+}
+
+// signOf is the detector's sign, the DC solver's where it showed one.
+func (d *detSides) signOf() int {
+	switch {
+	case d == nil:
 		return 0
+	case d.dc != nil && d.dc.Sign != 0:
+		return d.dc.Sign
 	}
-	load := detectorLoad(c, *det)
-	for _, ref := range det.Parts {
-		p := c.Part(ref)
-		if p == nil || !(p.Kind == graph.Diode || p.Kind == graph.Valve && !p.IsActive()) || load == "" {
-			continue
-		}
-		if p.NetOf("k") == load {
-			return 1
-		}
-		return -1
-	}
-	return 0
+	return d.sign
 }
 
 // agcSign is the sign of the AGC line's declared DC (0: not declared).
@@ -109,7 +105,7 @@ var readingVariants = map[string]map[string]string{
 		"bjt":   "the next base is pulled off its bias; that stage's collector voltage drops",
 		"fet":   "the next gate sits off its bias; that stage's drain voltage drops",
 	},
-	"open detector diode or load": {
+	openDetector: {
 		"negative": "no negative DC on the detector load and the AGC line with a carrier in",
 		"positive": "no positive DC on the detector load and the AGC line with a carrier in",
 	},

@@ -16,7 +16,7 @@ import (
 func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injection, i int, g *Guide) (Injection, error) {
 	p := pts[i]
 	in := Injection{Net: p.net, Where: p.where, Band: p.band, Gang: 0.5}
-	in.RefNet, in.RefLevel, in.RefWhat = reference(c, sts, pts, rows, i)
+	in.RefNet, in.RefLevel, in.RefWhat = reference(c, sts, pts, rows, i, g.det)
 	if in.RefNet == "" {
 		return in, fmt.Errorf("no output declared to refer the level to")
 	}
@@ -75,17 +75,24 @@ const (
 	maxGain     = 1e5
 )
 
-// implausible says why a row's numbers cannot be met on the bench: the
-// capture, not the set, is then at fault, and the row says so instead of
-// quoting the numbers.
+// implausible says why a row's numbers cannot be met on the bench. A
+// level past what a generator gives is either the reference asking more
+// than this point can be driven to give (the stage gains, by the solver:
+// the row then says what a generator's volt here does give) or, where the
+// solver shows next to nothing passing on, a capture whose bias or wiring
+// is at fault.
 func implausible(in Injection) string {
 	switch {
 	case in.Gain == 0 || math.IsNaN(in.Gain) || math.IsInf(in.Gain, 0):
 		return fmt.Sprintf("no figure: nothing reaches %s from here in the small-signal circuit", in.GainTo)
 	case in.Gain > maxGain:
 		return fmt.Sprintf("no figure: the gain to %s would be ×%.3g, not finite on a real set: a tuned circuit in the capture has no loss (give its coil a q)", in.GainTo, in.Gain)
+	case in.Level > maxGenVolts && in.Gain >= 1:
+		return fmt.Sprintf("no figure: the reference (%s) would take %s here, more than a generator gives, though the stage gains ×%.3g to %s (AC solver): it asks more than the stages after this point deliver from a generator; 1 V here gives %s at %s",
+			in.RefWhat, volts(in.Level), in.Gain, in.GainTo, volts(in.RefLevel/in.Level), in.RefNet)
 	case in.Level > maxGenVolts:
-		return fmt.Sprintf("no figure: it would take %s, more than a generator gives: as captured next to nothing passes (see pare dc for the bias)", volts(in.Level))
+		return fmt.Sprintf("no figure: the reference (%s) would take %s here, more than a generator gives: the solver passes only ×%.3g from here to %s and ×%.3g to %s, next to nothing as captured (see pare dc for the bias)",
+			in.RefWhat, volts(in.Level), in.RefLevel/in.Level, in.RefNet, in.Gain, in.GainTo)
 	}
 	return ""
 }
