@@ -30,9 +30,14 @@ stages): the IF, the tracking points, the oscillator and signal ranges.
 Then the signal-injection table, from the output back to the input: at each
 stage's control electrode (and the detector's load) the frequency (400 Hz
 audio, the IF, or RF in band with the set tuned to it) and the generator level
-that gives the stated reference output (50 mW into the loudspeaker, else 1 V
-at the detector or the output), solved by the AC solver on the whole circuit
-as captured, with the gain each stage should show. Last, what common faults
+that gives the stated reference output (50 mW into the loudspeaker, the
+trade's standard output; where the output is a volume control or the detector
+load, the audio a detector gives from its usual carrier; else 1 V at the
+output), the IF rows' carrier at the detector kept within what a detector
+handles in use, solved by the AC solver on the whole circuit as captured, with
+the gain each stage should show. The detector's load and the carrier's side
+are read from its wiring, whichever way round the diode is, and its DC with a
+carrier from the DC solver. Last, what common faults
 of each kind of stage look like in the readings and in the table.
 
 Cores are captured with adjust = "core" or adjust = ["p", "s"] on a coil or

@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/cmplx"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -48,7 +49,19 @@ func TestIFRowsReferToStandardOutput(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			audio := in.Level * cmplx.Abs(h[0]) * 0.3 * cmplx.Abs(a[0])
+			// A carrier outside what the detector handles in use
+			// (docs/references.md §34: 1–15 V on a valve set, 0.2–2 V
+			// on a transistor set, from memory) is not aimed at: the
+			// rows take the range's edge and say the volume is set for
+			// the standard output.
+			carrier := in.Level * cmplx.Abs(h[0])
+			if edge := strings.Contains(in.RefWhat, "with the volume turned down") || strings.Contains(in.RefWhat, "more than the detector handles"); edge {
+				if math.Abs(carrier/in.RefLevel-1) > 1e-6 || !slices.Contains([]float64{0.2, 1, 2, 15}, in.RefLevel) {
+					t.Errorf("%s %s: %g V of carrier, reference %g V, want a range's edge", name, in.Net, carrier, in.RefLevel)
+				}
+				continue
+			}
+			audio := carrier * 0.3 * cmplx.Abs(a[0])
 			if p := audio * audio / spk.Value.Max; math.Abs(10*math.Log10(p/0.05)) > 0.5 {
 				t.Errorf("%s %s: %g V of IF gives %g W in %s, want 50 mW", name, in.Net, in.Level, p, spk.Ref)
 			}

@@ -22,21 +22,22 @@ const (
 )
 
 // detLevels are the RMS carrier levels at an AM detector in use (from
-// memory, no source): the level it sees on an ordinary station, and the
-// most it handles before the IF stage feeding it or the diode's own
+// memory, no source): the least it detects in proportion (below it a
+// diode's curve makes it a square-law detector, giving less audio), the
+// level it sees on an ordinary station, and the most it handles before the IF stage feeding it or the diode's own
 // loading distorts. A transistor set's signal diode works on a few hundred
 // millivolts to a couple of volts; a valve set's diode on volts.
 // efficiency is what the rows say of the detector's efficiency.
 type detLevels struct {
-	normal, most float64
-	set          string // "a transistor set's", for the row's words
-	efficiency   string
+	least, normal, most float64
+	set                 string // "a transistor set's", for the row's words
+	efficiency          string
 }
 
 var (
-	transistorDet = detLevels{normal: 0.5, most: 2, set: "a transistor set's",
+	transistorDet = detLevels{least: 0.2, normal: 0.5, most: 2, set: "a transistor set's",
 		efficiency: "detector efficiency taken as 1, pare's detector model: a signal diode gives about 0.8–0.9, so the bench needs a little more carrier"}
-	valveDet = detLevels{normal: 3, most: 15, set: "a valve set's",
+	valveDet = detLevels{least: 1, normal: 3, most: 15, set: "a valve set's",
 		efficiency: "detector efficiency taken as 1, pare's detector model: a valve diode gives about 0.8–0.9, so the bench needs a little more carrier"}
 )
 
@@ -54,7 +55,7 @@ func reference(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injecti
 	switch pts[i].band {
 	case "audio":
 		if spk := loudspeaker(c); spk != nil {
-			return hotNet(c, spk), math.Sqrt(refSpeakerW * spk.Value.Max), fmt.Sprintf("50 mW into the loudspeaker %s", spk.Ref)
+			return hotNet(c, spk), math.Sqrt(refSpeakerW * spk.Value.Max), fmt.Sprintf("50 mW into the loudspeaker %s (the standard output, common practice)", spk.Ref)
 		}
 		if net, level, what := detectorAudioRef(c, pts, det); net != "" {
 			return net, level, what
@@ -188,6 +189,14 @@ func carrierRef(c *graph.Circuit, pts []point, rows []Injection, det *detSides) 
 	if passiveAfter(c, pts, det) {
 		return det.feed, level, fmt.Sprintf("%s of carrier at the detector (%s), modulated 30 %% at 400 Hz, %s usual carrier at the detector (from memory): its audio, %s on %s (%s), gives %s at the output (%s)",
 			volts(level), det.feed, lv.set, volts(rows[j].Level), rows[j].Net, effNote, volts(rows[j].RefLevel), rows[j].RefNet)
+	}
+	if level < lv.least {
+		// So little carrier gives the reference only with the controls
+		// as captured; a diode detects it in a square law, far below the
+		// model's efficiency. The rows take the least it detects in
+		// proportion, with the volume turned down to the reference.
+		return det.feed, lv.least, fmt.Sprintf("%s of carrier at the detector (%s), modulated 30 %% at 400 Hz, the least %s detector works on in proportion (from memory): its audio, %s on %s (%s), gives %s with the volume turned down; as captured that would take only %s of carrier, where a diode detects far less than the model's efficiency",
+			volts(lv.least), det.feed, lv.set, volts(lv.least*modDepth*detEfficiency), rows[j].Net, effNote, rows[j].RefWhat, volts(level))
 	}
 	return det.feed, level, fmt.Sprintf("%s of carrier at the detector (%s), modulated 30 %% at 400 Hz: its audio, %s on %s (%s), gives %s",
 		volts(level), det.feed, volts(rows[j].Level), rows[j].Net, effNote, rows[j].RefWhat)
