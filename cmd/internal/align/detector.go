@@ -76,13 +76,53 @@ func detectorSides(c *graph.Circuit, sts []stages.Stage) *detSides {
 	if d := fmSides(c, det); d != nil {
 		return d
 	}
+	var first *graph.Part
 	for _, ref := range det.Parts {
 		p := c.Part(ref)
 		if p == nil || !(p.Kind == graph.Diode || p.Kind == graph.Valve && !p.IsActive()) {
 			continue
 		}
+		if first == nil {
+			first = p
+		}
 		for _, a := range anodePins(p) {
 			if d := junctionSides(c, det, p, a); d != nil {
+				return d
+			}
+		}
+	}
+	return plainSides(c, det, first)
+}
+
+// plainSides is the detector's load where its wiring tells no feed from
+// load (a diode on no winding with load parts on both sides), or where it
+// has no diode (a grid-leak detector: the valve's grid circuit is its
+// load): the diode's cathode unless that is at AC ground, else a net of
+// the stage's other parts that is neither AC ground nor the anode. Its
+// sign is the diode's (0 for no diode); the carrier's side is left
+// unnamed, so the IF rows keep the plain output reference.
+func plainSides(c *graph.Circuit, det *stages.Stage, diode *graph.Part) *detSides {
+	d := &detSides{stage: det}
+	anode := ""
+	if diode != nil {
+		d.diode, d.anode = diode.Ref, anodePins(diode)[0]
+		anode = diode.NetOf(d.anode)
+		if k := diode.NetOf("k"); k != "" && !c.RoleOf(k).IsACGround() {
+			d.load, d.sign = k, 1
+			return d
+		}
+	}
+	for _, ref := range det.Parts {
+		p := c.Part(ref)
+		if p == nil || p.Kind == graph.Valve || p.Kind == graph.Diode {
+			continue
+		}
+		for _, n := range netsOf(p) {
+			if n != anode && !c.RoleOf(n).IsACGround() {
+				d.load = n
+				if diode != nil {
+					d.sign = -1
+				}
 				return d
 			}
 		}

@@ -91,8 +91,12 @@ func implausible(in Injection) string {
 		return fmt.Sprintf("no figure: the reference (%s) would take %s here, more than a generator gives, though the stage gains ×%.3g to %s (AC solver): it asks more than the stages after this point deliver from a generator; 1 V here gives %s at %s",
 			in.RefWhat, volts(in.Level), in.Gain, in.GainTo, volts(in.RefLevel/in.Level), in.RefNet)
 	case in.Level > maxGenVolts:
-		return fmt.Sprintf("no figure: the reference (%s) would take %s here, more than a generator gives: the solver passes only ×%.3g from here to %s and ×%.3g to %s, next to nothing as captured (see pare dc for the bias)",
-			in.RefWhat, volts(in.Level), in.RefLevel/in.Level, in.RefNet, in.Gain, in.GainTo)
+		to := ""
+		if in.GainTo != in.RefNet {
+			to = fmt.Sprintf(" and ×%.3g to %s", in.Gain, in.GainTo)
+		}
+		return fmt.Sprintf("no figure: the reference (%s) would take %s here, more than a generator gives: the solver passes only ×%.3g from here to %s%s, next to nothing as captured (see pare dc for the bias)",
+			in.RefWhat, volts(in.Level), in.RefLevel/in.Level, in.RefNet, to)
 	}
 	return ""
 }
