@@ -23,12 +23,14 @@ type flow struct {
 	frameSpan   [][2]int       // per frame: the first and last stretch holding its parts
 	blockOf     map[string]int // part ref → its stretch
 	laid        map[[2]int]*layout.Result
+	supplyFlow  map[string]int // the whole sheet's (layout.SupplyFlow)
 }
 
 func newFlow(cfg Config, s *Sheet, bs []block) *flow {
 	f := &flow{cfg: cfg, s: s, bs: bs, first: map[string]int{}, last: map[string]int{},
 		part: map[string]*graph.Part{}, at: map[string]int{}, blockOf: map[string]int{},
 		laid: map[[2]int]*layout.Result{}}
+	f.supplyFlow = layout.SupplyFlow(s.Circuit, cfg.options(s))
 	for i, p := range s.Circuit.Parts {
 		f.part[p.Ref], f.at[p.Ref] = p, i
 	}
@@ -119,7 +121,7 @@ func (f *flow) sheet(a, b int, through bool) *Sheet {
 		if sp := f.frameSpan[k]; sp[1] < a || sp[0] >= b {
 			continue
 		}
-		g := Frame{Title: fr.Title, Subtitle: fr.Subtitle, Places: fr.Places, Joined: fr.Joined}
+		g := Frame{Title: fr.Title, Subtitle: fr.Subtitle, Places: fr.Places, Joined: fr.Joined, Supply: fr.Supply}
 		for _, p := range fr.Parts {
 			if keep[p] {
 				g.Parts = append(g.Parts, p)
@@ -130,6 +132,7 @@ func (f *flow) sheet(a, b int, through bool) *Sheet {
 		}
 	}
 	sub.continues = f.continues(parts, a, b, through)
+	sub.supplyFlow = f.supplyFlow
 	return &sub
 }
 

@@ -97,6 +97,10 @@ type Frame struct {
 	// rows of a page never cut between them (a supply's smoothing filter
 	// and its rectifier, drawn as one piece).
 	Joined bool
+	// Supply marks a power supply's stage (a rectifier, the smoothing
+	// section on its output): its parts are laid out along the supply's
+	// own flow, mains to rails (layout.Frame.Supply).
+	Supply bool
 }
 
 // Legend is one line of a paged sheet's title block and the parts of the
@@ -151,6 +155,10 @@ type Sheet struct {
 	// continues are a row's off-row connectors when a paged sheet is cut
 	// into rows (pages.go).
 	continues []layout.Continuation
+	// supplyFlow is, on a row of a paged sheet, the whole sheet's supply
+	// flow (layout.SupplyFlow), so a row holding part of a supply draws it
+	// in the whole supply's order.
+	supplyFlow map[string]int
 }
 
 // Tie is where a static valve electrode is held (render/symbol).
@@ -209,8 +217,9 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	}
 	o.Marks = s.Marks
 	o.Continues = s.continues
+	o.SupplyFlow = s.supplyFlow
 	for _, f := range s.Frames {
-		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts, Places: f.Places})
+		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts, Places: f.Places, Supply: f.Supply})
 	}
 	return o
 }

@@ -162,7 +162,7 @@ func (ly *state) stages() map[string]int {
 		queue = queue[1:]
 		for _, n := range ly.signalNets(cl) {
 			for _, nb := range byNet[n] {
-				if _, ok := st[nb.ref]; !ok && nb.edge == 0 {
+				if _, ok := st[nb.ref]; !ok && nb.edge == 0 && ly.takes(st[cl.ref], nb) {
 					st[nb.ref] = st[cl.ref]
 					queue = append(queue, nb)
 				}
@@ -184,6 +184,17 @@ func (ly *state) stages() map[string]int {
 		}
 	}
 	return st
+}
+
+// takes says whether stage s takes in the unframed neighbour nb: a supply
+// frame only the parts ranked along its flow (supplyflow.go), so a
+// decoupler between the HT line and a stage's feed stands with the stage
+// it feeds.
+func (ly *state) takes(s int, nb *cell) bool {
+	if s >= len(ly.o.Frames) || !ly.o.Frames[s].Supply {
+		return true
+	}
+	return ly.supplyRanked[nb.ref]
 }
 
 // netColumns records each net's mean column and number of pins, what the

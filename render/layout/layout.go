@@ -46,6 +46,12 @@ type Frame struct {
 	// Places are the stage's templates (template.go): each one's parts
 	// round its anchor, the templates one after another.
 	Places []Place
+	// Supply marks a power supply's stage: its parts, and the unframed
+	// mains parts before its transformer, are ranked along the supply's
+	// own flow (mains, transformer, rectifier, reservoir, smoothing) rather
+	// than by their distance from the signal input, and a four-diode bridge
+	// is drawn as the trade's diamond (supplyflow.go).
+	Supply bool
 }
 
 // Options says what to draw.
@@ -93,6 +99,9 @@ type Options struct {
 	// Continues are the nets of a row that run on in another row: each
 	// ends at an off-row connector at the row's edge (rows.go).
 	Continues []Continuation
+	// SupplyFlow gives, on a row of a paged sheet, each supply part's step
+	// along the whole sheet's supply flow (SupplyFlow); nil: found here.
+	SupplyFlow map[string]int
 }
 
 // notConnected is the netlist format's net for a terminal that is really not
@@ -180,6 +189,14 @@ type state struct {
 	frameStage []int
 	// tankOf is, per capacitor across a winding, the winding (tankplace.go)
 	tankOf map[*cell]tankAt
+	// bridges are the four-diode bridges of the supply frames, drawn as
+	// diamonds; supplyPorts the mains ports that open a supply's flow
+	// rather than stand at the sheet's edge (supplyflow.go)
+	bridges     []bridge
+	supplyPorts map[string]bool
+	// supplyRanked are the refs ranked along a supply's flow: the only
+	// unframed parts a supply frame's stage is passed on to (stages)
+	supplyRanked map[string]bool
 }
 
 // signalNets of a cell: the nets of its pins that are wired.

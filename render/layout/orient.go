@@ -54,9 +54,27 @@ func (ly *state) orient() {
 		if _, fixed := ly.turns[cl.ref]; !fixed && stands[cl.ref] != "" && standOf(best) != stands[cl.ref] {
 			best = ly.standing(cl, base, best, stands[cl.ref])
 		}
+		if ly.bridgeDiode(cl) {
+			best = ly.alongDiamond(cl, base, best)
+		}
 		cl.shape = best
 	}
 	ly.orientTanks()
+}
+
+// alongDiamond is a bridge diode's orientation on its side of the
+// diamond (supplyflow.go): lying along the flow, anode left, cathode right.
+func (ly *state) alongDiamond(cl *cell, base, best symbol.Shape) symbol.Shape {
+	for i, o := range base.Turns {
+		s := base.Oriented(o)
+		for _, p := range s.Pins {
+			if p.Name == "a" && p.Dir == geom.Left {
+				cl.turn = i
+				return s
+			}
+		}
+	}
+	return best
 }
 
 // standing is the best-scoring upright orientation of a cell that runs the

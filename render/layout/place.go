@@ -24,6 +24,7 @@ func (ly *state) place() {
 	ly.order(cols)
 	ly.placeColumns(cols, feet)
 	ly.placeRows(cols)
+	ly.diamonds(cols)
 	ly.templates(cols)
 	ly.makeFrames()
 	ly.placeFeet(feet)

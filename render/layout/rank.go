@@ -13,6 +13,7 @@ func (ly *state) rank() {
 	byNet := ly.cellsByNet()
 	rank := ly.signalRank()
 	ly.railLayers(rank)
+	ly.supplyRanks(rank)
 	ly.commonUnder(rank)
 	ly.before = ly.controlShunts(rank)
 	for _, cl := range ly.cells {
@@ -190,7 +191,7 @@ func (ly *state) portSides(byNet map[string][]*cell) {
 		inputs[n] = true
 	}
 	for _, cl := range ly.cells {
-		if cl.part.Kind != graph.Port || cl.edge != 0 || len(cl.part.Pins) == 0 {
+		if cl.part.Kind != graph.Port || cl.edge != 0 || len(cl.part.Pins) == 0 || ly.supplyPorts[cl.ref] {
 			continue
 		}
 		net := cl.part.Pins[0].Net

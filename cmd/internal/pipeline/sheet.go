@@ -258,7 +258,7 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 		}
 		sort.Strings(parts)
 		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts,
-			Places: framePlaces(s, byName, reduced, full)})
+			Places: framePlaces(s, byName, reduced, full), Supply: s.Supply})
 		names = append(names, s.Name)
 	}
 	return joinSupply(frames, names, hosts)
