@@ -148,6 +148,17 @@ func (d *drawer) frames() {
 	cv.Gend()
 }
 
+// flagTitle is a symbol's hover title: its ref, or for one of the sheet's
+// own flags ("@in:NET", "@out:NET", a supply rail's "@rail:NET") the net.
+func flagTitle(ref string) string {
+	if strings.HasPrefix(ref, "@") {
+		if i := strings.Index(ref, ":"); i > 0 {
+			return ref[i+1:]
+		}
+	}
+	return ref
+}
+
 // parts draws each placed symbol in its own group carrying its ref, so a
 // viewer can pick a part out of the SVG; faded parts get the grey class.
 func (d *drawer) parts() {
@@ -159,7 +170,7 @@ func (d *drawer) parts() {
 			cls += " g"
 		}
 		cv.Group(`class="`+cls+`"`, `data-ref="`+attr(pl.Ref)+`"`)
-		cv.Title(strings.TrimPrefix(strings.TrimPrefix(pl.Ref, "@in:"), "@out:"))
+		cv.Title(flagTitle(pl.Ref))
 		for _, pr := range pl.Shape.Prims {
 			d.prim(pr)
 		}

@@ -26,6 +26,11 @@ func (ly *state) orient() {
 		base := symbol.ForMarked(ly.o.drawnPart(cl.part), ly.o.Style, ly.o.marksOf(cl.part))
 		if cl.part.Kind == graph.Port && len(cl.part.Pins) == 1 {
 			in := cl.edge <= 0
+			if ly.supplyPorts[cl.ref] {
+				// in the supply's flow: a mains port before what it
+				// feeds, a port taking a line on after it
+				in = ly.netCol[cl.part.Pins[0].Net] >= float64(cl.col)
+			}
 			base = symbol.Flag(cl.part.Label, in)
 			for i := range base.Pins {
 				base.Pins[i].Net = cl.part.Pins[0].Net

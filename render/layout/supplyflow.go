@@ -166,17 +166,10 @@ func (ly *state) supplyRanks(rank map[string]int) {
 	for r, e := range down {
 		ly.supplyRanked[r] = true
 		rank[r] = base + far + e
-		if !ly.supplyPorts[r] {
-			last = max(last, e)
-		}
+		last = max(last, e)
 	}
 	for r := range in {
 		if _, ok := down[r]; !ok && r != t.ref {
-			rank[r] = base + far + last + 1
-		}
-	}
-	for r := range down {
-		if ly.supplyPorts[r] {
 			rank[r] = base + far + last + 1
 		}
 	}
@@ -327,7 +320,9 @@ func (ly *state) downstream(t *cell, sec map[string]bool, in map[string]*cell) m
 			hi = max(hi, netAt[n])
 		}
 		switch {
-		case minus[cl]:
+		case minus[cl] || cl.part.Kind == graph.Port:
+			// a port taking the line on to a stage cut away stands
+			// after the parts across the line, before the next section
 			out[r] = 3*lo + 2
 		case hi > lo:
 			out[r] = 3*lo + 3

@@ -1,10 +1,12 @@
 package pipeline
 
 import (
+	"fmt"
 	"path/filepath"
 	"strings"
 	"testing"
 
+	"pare/graph"
 	"pare/render"
 	"pare/render/check"
 	"pare/render/geom"
@@ -72,6 +74,7 @@ func TestSupplyDrawnInFlowOrder(t *testing.T) {
 				}
 			}
 		}
+		checkChainWired(t, name, g, r.Circuit, tc.flow)
 		if tc.bridge {
 			checkDiamond(t, name, at, tc.minus, tc.plus)
 			checkSupplyCrossings(t, name+" whole sheet", g)
@@ -120,6 +123,40 @@ func checkDiamond(t *testing.T, name string, at map[string]placed, minus, plus [
 		t.Errorf("%s: bridge lines: %s/%s at y %g/%g, %s/%s at y %g/%g", name, minus[0], plus[0], m0.Y, p0.Y, minus[1], plus[1], m1.Y, p1.Y)
 	}
 }
+
+// checkChainWired: from the rectifier on, every pin of the supply's steps
+// on a wired net or a supply rail (not chassis, not a heater) ends a wire: the reservoir, the smoothing parts and the
+// rails' first capacitors joined along the line, a declared rail's tag
+// once at its end rather than at each part (b05 drew C30, R34 and C31
+// standing alone between "reservoir" and "+12 V" tags).
+func checkChainWired(t *testing.T, name string, g *geom.Sheet, c *graph.Circuit, flow [][]string) {
+	t.Helper()
+	ends := map[string]bool{}
+	for _, w := range g.Wires {
+		for _, sg := range w.Segs {
+			ends[pt(sg.A)], ends[pt(sg.B)] = true, true
+		}
+	}
+	for _, step := range flow[1:] {
+		for _, ref := range step {
+			if p := c.Part(ref); p == nil || p.Kind == graph.Transformer {
+				continue
+			}
+			for _, sy := range g.Symbols {
+				if sy.Ref != ref {
+					continue
+				}
+				for _, pn := range sy.Pins {
+					if role := c.RoleOf(pn.Net); (role == graph.Supply || !role.IsACGround()) && !ends[pt(pn.At)] {
+						t.Errorf("%s: %s's pin %s (%s) ends no wire", name, ref, pn.Name, pn.Net)
+					}
+				}
+			}
+		}
+	}
+}
+
+func pt(p geom.Pt) string { return fmt.Sprintf("%g,%g", p.X, p.Y) }
 
 // checkSupplyCrossings: no wire crossing inside a supply frame.
 func checkSupplyCrossings(t *testing.T, name string, g *geom.Sheet) {
