@@ -148,12 +148,18 @@ func (d *drawer) frames() {
 	cv.Gend()
 }
 
+// RailFlag is the ref prefix of the flag a supply's rail, wired along its
+// smoothing chain, ends at where it goes on to other stages (the pipeline
+// adds it to the full and faded sheets' circuit); "@" cannot begin a
+// netlist ref, so it never meets a part of the circuit.
+const RailFlag = "@rail:"
+
 // flagTitle is a symbol's hover title: its ref, or for one of the sheet's
 // own flags ("@in:NET", "@out:NET", a supply rail's "@rail:NET") the net.
 func flagTitle(ref string) string {
-	if strings.HasPrefix(ref, "@") {
-		if i := strings.Index(ref, ":"); i > 0 {
-			return ref[i+1:]
+	for _, pre := range []string{"@in:", "@out:", RailFlag} {
+		if strings.HasPrefix(ref, pre) {
+			return ref[len(pre):]
 		}
 	}
 	return ref

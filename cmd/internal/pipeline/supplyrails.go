@@ -5,11 +5,6 @@ import (
 	"pare/render"
 )
 
-// RailTag is the ref prefix of the flag a supply's wired rail ends at on
-// the full and faded sheets (supplyRailsWired); "@" cannot begin a
-// netlist ref, so it never meets a part of the circuit.
-const RailTag = "@rail:"
-
 // supplyRailsWired is the circuit for the full and faded sheets with each
 // declared supply rail wired through the supply that makes it: a
 // technician draws the reservoir, the smoothing resistor or choke and the
@@ -86,7 +81,7 @@ func wireRail(c *graph.Circuit, n *graph.Net, in map[string]bool, goesOn bool, f
 	if !goesOn {
 		return
 	}
-	ref := RailTag + n.Name
+	ref := render.RailFlag + n.Name
 	c.Parts = append(c.Parts, &graph.Part{Ref: ref, Kind: graph.Port, Label: label, Pins: []graph.Pin{{Name: "1", Net: name}}})
 	if allFaded && faded != nil {
 		faded[ref] = true
