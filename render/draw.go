@@ -5,6 +5,7 @@ import (
 	"math"
 	"strings"
 
+	"pare/graph"
 	"pare/render/geom"
 	"pare/render/layout"
 	"pare/render/symbol"
@@ -153,6 +154,10 @@ func (d *drawer) frames() {
 // adds it to the full and faded sheets' circuit); "@" cannot begin a
 // netlist ref, so it never meets a part of the circuit.
 const RailFlag = "@rail:"
+
+// RailText is the tag a rail's pins carry on a sheet: its label, its
+// voltage, or both.
+func RailText(n *graph.Net) string { return layout.RailText(n) }
 
 // flagTitle is a symbol's hover title: its ref, or for one of the sheet's
 // own flags ("@in:NET", "@out:NET", a supply rail's "@rail:NET") the net.

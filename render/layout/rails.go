@@ -63,6 +63,9 @@ func railWant(c *graph.Circuit, part *graph.Part, p geom.Pin) (geom.Dir, bool) {
 // voltage ("HT +250 V"; the voltage is added in brackets when the label does
 // not state it), else the signed voltage ("+9 V", "−6 V"), else the net's
 // name. The text is the netlist's; the writer escapes it for SVG.
+// RailText is the tag a rail's pins carry on a sheet (railText).
+func RailText(n *graph.Net) string { return railText(n, n.Name) }
+
 func railText(n *graph.Net, name string) string {
 	if n == nil {
 		return name

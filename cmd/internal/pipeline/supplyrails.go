@@ -61,10 +61,7 @@ func wireRail(c *graph.Circuit, n *graph.Net, in map[string]bool, goesOn bool, f
 	for c.Net(name) != nil {
 		name += "_"
 	}
-	label := n.Label
-	if label == "" {
-		label = n.Name
-	}
+	label := render.RailText(n) // the tag its pins carried
 	allFaded := true
 	for _, p := range c.Parts {
 		if !in[p.Ref] {
