@@ -53,6 +53,8 @@ var figureNames = []figName{
 	{name: "gain_anode", label: "anode gain"},
 	{name: "gain_collector", label: "collector gain"},
 	{name: "gain_drain", label: "drain gain"},
+	// a driver's gain to the other half of a push-pull pair
+	{name: "gain_other_half", label: "gain to the other half"},
 	{name: "load_f", label: "load tuned f"},
 	// The tuned load's Q: the prefix's word before "loaded Q" would read
 	// "load loaded Q".
@@ -69,6 +71,8 @@ var figureNames = []figName{
 	{name: "ac_dc_ratio", label: "AC/DC load"},
 	{name: "r_boot", label: "bootstrapped load"},
 	{name: "r_load_plain", label: "the same without the bootstrap"},
+	{name: "r_unbypassed", label: "unbypassed common R"},
+	{name: "gain_bypass_open", label: "gain with the bypass open"},
 	{name: "r_out", label: "r out"},
 	{name: "r_in", label: "r in"},
 	{name: "r", label: "r"},

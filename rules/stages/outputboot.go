@@ -38,15 +38,28 @@ func calcBootstrap(x *figCtx) {
 		return
 	}
 	boot := sharedNet(ra, rb)
-	top := ra.NetOf(ra.Pins[0].Name)
-	if top == boot {
-		top = ra.NetOf(ra.Pins[1].Name)
-	}
+	top := farEnd(ra, boot)
 	drv, out := drivingDevice(x.w.c, top)
+	if drv == nil && !x.w.c.RoleOf(farEnd(rb, boot)).IsACGround() {
+		// the two halves are alike to the matcher: with the lower end on a
+		// decoupled line, not chassis, the driver may be beyond either
+		ra, rb = rb, ra
+		top = farEnd(ra, boot)
+		drv, out = drivingDevice(x.w.c, top)
+	}
 	if drv == nil {
 		return // no driver reaches the load: no figures, the guard drops the match
 	}
-	x.claimInstead(nil, append([]*graph.Part{drv}, commonResistors(x.w.c, drv)...))
+	lead := commonLeadOf(x.w.c, drv)
+	take := append([]*graph.Part{drv}, lead.parts...)
+	if rail := farEnd(rb, boot); !x.w.c.RoleOf(rail).IsACGround() {
+		// the driver's own decoupled line: its resistor from the rail and
+		// its capacitor serve this load alone, not an RC section of their own
+		if caps, rs, ok := footOf(x.w.c, rail, rb); ok && len(caps) > 0 {
+			take = append(append(take, caps...), rs...)
+		}
+	}
+	x.claimInstead(nil, take)
 	x.set("r_load_plain", figure.Ohm, ra.Value.Max+rb.Value.Max, byBootPlain)
 	if !x.solve {
 		return
@@ -73,8 +86,9 @@ func calcBootstrap(x *figCtx) {
 		Origin: figure.BySolver("|Z("+out+")|: everything the driver's output sees, the next stage's input too", at)})
 	ctl := drv.NetOf(drv.PinWithRole(graph.RoleControl))
 	if g, ok := transferAt(x.solverCircuit(), ctl, out, f); ok && ctl != "" {
-		x.put(figure.Figure{Name: "gain", Unit: figure.Ratio, Value: g,
-			Origin: figure.BySolver("V("+out+")/V("+ctl+")", hz(f)+", "+gangMid.at)})
+		check, why := x.partBypass(drv, lead, ctl, out, f, g, whole)
+		x.putChecked(&figure.Figure{Name: "gain", Unit: figure.Ratio, Value: g,
+			Origin: figure.BySolver("V("+out+")/V("+ctl+")", hz(f)+", "+gangMid.at)}, check, why)
 	}
 	if with < bootMinRatio*plain {
 		x.st.unconfirmed = fmt.Sprintf("%s raises the load %s presents to %s only from %s to %s in circuit", cb.Ref, ra.Ref, drv.Ref,
@@ -85,6 +99,14 @@ func calcBootstrap(x *figCtx) {
 		x.st.Notes = append(x.st.Notes, fmt.Sprintf("the bootstrap lifts %s's load to %s, but what else %s feeds (the next stage's input) brings the whole load down to %s",
 			ra.Ref, figure.Format(with, figure.Ohm, figure.Text), out, figure.Format(whole, figure.Ohm, figure.Text)))
 	}
+}
+
+// farEnd is the net of a two-pin part that is not net.
+func farEnd(p *graph.Part, net string) string {
+	if n := p.NetOf(p.Pins[0].Name); n != net {
+		return n
+	}
+	return p.NetOf(p.Pins[1].Name)
 }
 
 // transferAt is V(out)/V(in) at f with in driven, signed by its real
@@ -177,26 +199,4 @@ func drivingDevice(c *graph.Circuit, net string) (*graph.Part, string) {
 		frontier = next
 	}
 	return nil, ""
-}
-
-// commonResistors are the resistors from a device's common electrode to
-// AC ground (an unbypassed emitter resistor), when nothing but such
-// resistors and the device is on that net.
-func commonResistors(c *graph.Circuit, dev *graph.Part) []*graph.Part {
-	net := dev.NetOf(dev.PinWithRole(graph.RoleCommon))
-	if net == "" || c.RoleOf(net).IsACGround() {
-		return nil
-	}
-	var out []*graph.Part
-	for _, cn := range c.ConnsOf(net) {
-		p := cn.Part
-		switch {
-		case p == dev:
-		case p.Kind == graph.Resistor && len(p.Pins) == 2 && c.RoleOf(p.Pins[0].Net).IsACGround() != c.RoleOf(p.Pins[1].Net).IsACGround():
-			out = append(out, p)
-		default:
-			return nil
-		}
-	}
-	return out
 }

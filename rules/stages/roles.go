@@ -147,7 +147,8 @@ func nameAudio(tops []*found) {
 			detected = true
 			continue
 		}
-		if !detected || f.group != "amplifier" || f.Topology == "output-transformer" {
+		if !detected || f.group != "amplifier" || f.Topology == "output-transformer" || strings.HasPrefix(f.Title, "Driver") {
+			// a driver's title names its role already
 			continue
 		}
 		g, ok := f.Figures.Get("gain")
