@@ -889,6 +889,74 @@ R5 = { r = "10k", pins = ["boot", "ht"] }
 R9 = { r = "4k7", pins = ["out", "gnd"] }
 C2 = { c = "10u", pins = ["boot", "x"] }
 R8 = { r = "100", pins = ["x", "gnd"] }`},
+	// The same load returned to the driver's own decoupled line (a
+	// resistor from the rail, a capacitor to chassis), the driver's
+	// emitter part-bypassed: one driver stage, decoupler and lead with it.
+	{topology: "bootstrapped-load", families: allFamilies, want: "passive",
+		parts: `@Q1(in, k, a)
+R1 = { r = "47", pins = ["k", "kb"] }
+R2 = { r = "220", pins = ["kb", "gnd"] }
+C1 = { c = "220u", pins = ["kb", "gnd"] }
+R4 = { r = "10k", pins = ["a", "boot"] }
+R5 = { r = "10k", pins = ["boot", "vd"] }
+R6 = { r = "100", pins = ["ht", "vd"] }
+C3 = { c = "100u", pins = ["vd", "gnd"] }
+@Q2(a, out, ht)
+R9 = { r = "4k7", pins = ["out", "gnd"] }
+C2 = { c = "10u", pins = ["boot", "out"] }`,
+		// The capacitor takes the tap to a divider that does not follow:
+		// the decoupled line changes nothing of that.
+		nearMiss: `@Q1(in, k, a)
+R1 = { r = "1k", pins = ["k", "gnd"] }
+R4 = { r = "10k", pins = ["a", "boot"] }
+R5 = { r = "10k", pins = ["boot", "vd"] }
+R6 = { r = "100", pins = ["ht", "vd"] }
+C3 = { c = "100u", pins = ["vd", "gnd"] }
+@Q2(a, out, ht)
+R9 = { r = "4k7", pins = ["out", "gnd"] }
+C2 = { c = "10u", pins = ["boot", "x"] }
+R8 = { r = "100", pins = ["x", "gnd"] }`},
+	// A push-pull pair with an emitter (cathode) resistor of its own in
+	// each device's common lead.
+	{topology: "push-pull", families: allFamilies,
+		parts: `@Q1(g1, k1, a1)
+@Q2(g2, k2, a2)
+R1 = { r = "2R2", pins = ["k1", "gnd"] }
+R2 = { r = "2R2", pins = ["k2", "gnd"] }
+C1 = { c = "10n", pins = ["in", "g1"] }
+C2 = { c = "10n", pins = ["inb", "g2"] }
+T1 = { windings = { p = ["10", "10"], s = "0.1" }, k = 0.95, pins = { p1 = "a1", pt = "ht", p2 = "a2", s1 = "spk", s2 = "gnd" } }`,
+		// Both on one end of an untapped primary: parallel, resistors or not.
+		nearMiss: `@Q1(g1, k1, a)
+@Q2(g2, k2, a)
+R1 = { r = "2R2", pins = ["k1", "gnd"] }
+R2 = { r = "2R2", pins = ["k2", "gnd"] }
+C1 = { c = "10n", pins = ["in", "g1"] }
+C2 = { c = "10n", pins = ["inb", "g2"] }
+T1 = { windings = { p = "20", s = "0.1" }, k = 0.95, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }`},
+	// A driver into a driver transformer whose centre-tapped secondary
+	// feeds the two bases (grids) of a push-pull pair in antiphase.
+	{topology: "driver-transformer", families: allFamilies, extra: driverRegion,
+		parts: driverPair + `
+T1 = { windings = { p = "3", s = ["400m", "400m"] }, k = 0.95, pins = { p1 = "ht", p2 = "a", s1 = "b1", st = "gnd", s2 = "b2" } }`,
+		// The secondary's far end goes to a resistor, not the pair's
+		// second device: a transformer coupling into one device.
+		nearMiss: driverPair + `
+T1 = { windings = { p = "3", s = ["400m", "400m"] }, k = 0.95, pins = { p1 = "ht", p2 = "a", s1 = "b1", st = "gnd", s2 = "x" } }
+R7 = { r = "1k", pins = ["x", "gnd"] }`},
+	// A small capacitor from the far end of a tuned amplifier's output
+	// winding back to its control electrode (named neutralising or not
+	// by the solver: TestWindingFeedbackPhase).
+	{topology: "winding-feedback-capacitor", families: allFamilies,
+		parts: neutralised + `
+C3 = { c = "5p", pins = ["x", "b"] }`,
+		// The capacitor goes to a winding the device's output does not
+		// drive: a coupling, not feedback from its own output.
+		nearMiss: neutralised + `
+T2 = { windings = { p = "200u", s = "20u" }, k = 0.3, pins = { p1 = "ht", p2 = "y", s1 = "z", s2 = "gnd" } }
+R4 = { r = "10k", pins = ["y", "ht"] }
+R5 = { r = "1k", pins = ["z", "gnd"] }
+C3 = { c = "5p", pins = ["z", "b"] }`},
 	// A capacitor from a device's output to its own control electrode
 	// rolls its gain off above an audio band (the solver, its base fed a
 	// current: 10 pF times the Miller gain against the base's resistors).
@@ -1065,6 +1133,33 @@ R1 = { r = "1k", pins = ["ht", "bn"] }
 Q3 = { bjt = "npn", beta = 150, ic = "5m", pins = { b = "in", c = "bp", e = "gnd" } }
 C3 = { c = "470u", pins = ["out", "spk"] }
 LS1 = { spk = "8R", pins = ["spk", "gnd"] }`
+
+// driverPair is a driver with a part-bypassed common lead and a push-pull
+// pair on an output transformer; the fixture adds the driver transformer.
+const driverPair = `@Q1(in, k, a)
+R1 = { r = "47", pins = ["k", "kb"] }
+R2 = { r = "560", pins = ["kb", "gnd"] }
+C1 = { c = "100u", pins = ["kb", "gnd"] }
+@Q2(b1, e1, c1)
+@Q3(b2, e2, c2)
+R5 = { r = "2R2", pins = ["e1", "gnd"] }
+R6 = { r = "2R2", pins = ["e2", "gnd"] }
+T2 = { windings = { p = ["100m", "100m"], s = "8m" }, k = 0.98, pins = { p1 = "c1", pt = "ht", p2 = "c2", s1 = "gnd", s2 = "spk" } }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }`
+
+// driverRegion puts the driver and its pair in an audio band.
+const driverRegion = `[regions]
+audio = { band = "60..8k", parts = ["Q1", "Q2", "Q3", "T1", "T2"] }`
+
+// neutralised is a tuned amplifier whose output winding's secondary end x
+// is in antiphase with its output electrode (p1 and s1 the windings'
+// like ends, x on s1 and the output on p2).
+const neutralised = `C1 = { c = "10n", pins = ["in", "b"] }
+R2 = { r = "10k", pins = ["b", "gnd"] }
+@Q1(b, gnd, c)
+T1 = { windings = { p = "200u", s = "20u" }, k = 0.3, pins = { p1 = "ht", p2 = "c", s1 = "x", s2 = "gnd" } }
+C2 = { c = "250p", pins = ["c", "ht"] }
+R3 = { r = "1k", pins = ["x", "gnd"] }`
 
 // toneRegion puts a tone network in the audio band.
 const toneRegion = `[regions]

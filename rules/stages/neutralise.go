@@ -1,0 +1,123 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+	"slices"
+
+	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/figure"
+	"pare/graph/value"
+)
+
+// A neutralising capacitor (patterns/winding-feedback-capacitor.toml): from a
+// winding of the transformer a device's output electrode works into back
+// to the device's control electrode, feeding back antiphase what the
+// device's internal capacitance feeds in phase. The AC solver's device
+// models have no internal capacitance, so the check puts the device
+// class's typical one (inputCaps, from memory) from output to control
+// electrode in a copy of the circuit and compares the reverse transfer
+// |V(control)/V(output)| at the stage's mid-band with the capacitor in and
+// taken out: it neutralises where its own feedback is in antiphase with
+// the internal capacitance's. In phase (a link wired the wrong way round)
+// it adds to that feedback: the stage is named a feedback capacitor and
+// flagged, never "neutralising" nor a coupling between two stages.
+func init() {
+	calcs["neutralising"] = calc{args: []string{"device", "c"}, required: []string{"device", "c"}, fn: calcNeutralising}
+}
+
+func calcNeutralising(x *figCtx) {
+	q, cn := x.part("device"), x.part("c")
+	if q == nil || cn == nil {
+		return
+	}
+	ctl := q.NetOf(q.PinWithRole(graph.RoleControl))
+	out := q.NetOf(q.PinWithRole(graph.RoleOutput))
+	w := farEnd(cn, ctl)
+	xf := outputWindingOn(x.w.c, out, w)
+	if xf == nil {
+		return // the far end is on no winding the output drives: the guard drops the match
+	}
+	x.set("c_neutralising", figure.Farad, cn.Value.Max, figure.FromNetlist(cn.Ref))
+	if !x.solve {
+		return
+	}
+	b := x.w.c.BandOf(q)
+	if b.Min <= 0 || b.Max < b.Min {
+		return
+	}
+	f := math.Sqrt(b.Min * b.Max)
+	_, cf, what := inputCaps(q)
+	base := x.solverCircuit()
+	withCf := base.Clone()
+	withCf.AddPart(&graph.Part{Ref: q.Ref + "~cf", Kind: graph.Capacitor, Type: graph.CapFixed,
+		Value: value.Range{Min: cf, Max: cf}, Pins: []graph.Pin{{Name: "1", Net: out}, {Name: "2", Net: ctl}}})
+	hn, ok1 := reverseAt(base, out, ctl, f)                     // with the capacitor's own feedback
+	hcf, ok2 := reverseAt(without(withCf, cn.Ref), out, ctl, f) // with the internal capacitance's instead
+	hboth, ok3 := reverseAt(withCf, out, ctl, f)
+	h0, ok4 := reverseAt(without(base, cn.Ref), out, ctl, f) // what reaches the control electrode by other ways
+	if !ok1 || !ok2 || !ok3 || !ok4 {
+		return
+	}
+	hn, hcf = hn-h0, hcf-h0
+	if hcf == 0 {
+		return
+	}
+	at := fmt.Sprintf("%s, %s's internal capacitance taken as %s %s", hz(f), q.Ref, what, figure.Format(cf, figure.Farad, figure.Text))
+	name, cfText := "c_cancelled", figure.Format(cf, figure.Farad, figure.Text)
+	x.st.Title = expandTitle("Neutralising capacitor, from the antiphase winding back to the {control} ({family})", x.st.Family)
+	if real(hn*cmplx.Conj(hcf)) >= 0 {
+		// in phase with the output: it adds to the internal feedback
+		name = "c_added"
+		x.st.Title = expandTitle("Feedback capacitor from the output winding to the {control}, in phase with the {output} ({family})", x.st.Family)
+		x.flag("%s feeds %s's %s back from %s in phase with its %s: it adds to the internal capacitance's feedback, it does not neutralise (a link or winding connected the wrong way round?)",
+			cn.Ref, q.Ref, controlWord(q), xf.Ref, outputWord(q))
+	}
+	x.put(figure.Figure{Name: name, Unit: figure.Farad, Value: cf * cmplx.Abs(hn) / cmplx.Abs(hcf),
+		Origin: figure.BySolver(cn.Ref+"'s reverse transfer V("+ctl+")/V("+out+") over that of "+cfText+" from "+out+" to "+ctl+", times "+cfText, hz(f))})
+	x.put(figure.Figure{Name: "rev_transfer", Unit: figure.Ratio, Value: cmplx.Abs(hboth),
+		Origin: figure.BySolver("|V("+ctl+")/V("+out+")| with "+out+" driven", at)})
+	x.put(figure.Figure{Name: "rev_transfer_open", Unit: figure.Ratio, Value: cmplx.Abs(hcf),
+		Origin: figure.BySolver("the same with "+cn.Ref+" taken out", at)})
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("compared with %s %s from %s's %s to %s (the solver's model has none)",
+		what, cfText, q.Ref, outputWord(q), controlWord(q)))
+}
+
+// outputWindingOn is the transformer with a pin on net w and a pin on the
+// output net out (another winding, or the same one tapped), w not out;
+// nil when there is none or more than one.
+func outputWindingOn(c *graph.Circuit, out, w string) *graph.Part {
+	if w == out || w == "" || c.RoleOf(w).IsACGround() {
+		return nil
+	}
+	var found *graph.Part
+	for _, cn := range c.ConnsOf(w) {
+		p := cn.Part
+		if p.Kind != graph.Transformer || p == found {
+			continue
+		}
+		if !slices.ContainsFunc(p.Pins, func(pn graph.Pin) bool { return pn.Net == out }) {
+			continue
+		}
+		if found != nil {
+			return nil
+		}
+		found = p
+	}
+	return found
+}
+
+// reverseAt is V(to)/V(from) at f with from driven.
+func reverseAt(c *graph.Circuit, from, to string, f float64) (complex128, bool) {
+	r, err := ac.NewTransfer(c, from, to, gangMid.options())
+	if err != nil {
+		return 0, false
+	}
+	h, err := r.At(f)
+	if err != nil || cmplx.IsNaN(h) || cmplx.IsInf(h) {
+		return 0, false
+	}
+	return h, true
+}
