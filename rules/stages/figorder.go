@@ -53,6 +53,11 @@ var figureNames = []figName{
 	{name: "gain_anode", label: "anode gain"},
 	{name: "gain_collector", label: "collector gain"},
 	{name: "gain_drain", label: "drain gain"},
+	// a phase splitter's other output
+	{name: "gain_cathode", label: "cathode gain"},
+	{name: "gain_emitter", label: "emitter gain"},
+	{name: "gain_source", label: "source gain"},
+	{name: "load_ratio", label: "load ratio", working: true},
 	// a driver's gain to the other half of a push-pull pair
 	{name: "gain_other_half", label: "gain to the other half"},
 	{name: "load_f", label: "load tuned f"},

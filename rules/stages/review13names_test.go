@@ -196,3 +196,19 @@ func TestReview13C35Figures(t *testing.T) {
 		t.Errorf("rev_transfer_open = %g, ngspice 3.4880e-4", got)
 	}
 }
+
+// a04's V1b: a cathodyne, its two outputs the solver's. ngspice .ac on
+// testdata/review13/spice/a04_splitter.cir (the reviewer's deck, loop
+// closed, 670.8 Hz): V(pi_a)/V(drv_a) −0.93999, V(pi_k)/V(drv_a) 0.96718.
+func TestReview13Cathodyne(t *testing.T) {
+	st := findBiased(t, review13(t, "a04.toml"))
+	s := stageOf(st, "cathodyne")
+	if s == nil || !slices.Contains(s.Parts, "V1b") {
+		t.Fatalf("no cathodyne with V1b: %s", topologies(st))
+	}
+	for key, want := range map[string]float64{"gain_anode": -0.93999, "gain_cathode": 0.96718} {
+		if got := fig(s.Figures, key); !within(got, want, 0.005) {
+			t.Errorf("%s = %g, ngspice %g", key, got, want)
+		}
+	}
+}

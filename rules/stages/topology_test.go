@@ -957,6 +957,23 @@ T2 = { windings = { p = "200u", s = "20u" }, k = 0.3, pins = { p1 = "ht", p2 = "
 R4 = { r = "10k", pins = ["y", "ht"] }
 R5 = { r = "1k", pins = ["z", "gnd"] }
 C3 = { c = "5p", pins = ["z", "b"] }`},
+	// Equal loads in the output and common leads, both outputs coupled
+	// on to the grids of a pair: a cathodyne phase splitter.
+	{topology: "cathodyne", families: allFamilies,
+		parts: `@Q1(in, k, a)
+R1 = { r = "47k", pins = ["a", "ht"] }
+R2 = { r = "47k", pins = ["k", "gnd"] }
+C1 = { c = "100n", pins = ["a", "g1"] }
+R3 = { r = "470k", pins = ["g1", "gnd"] }
+C2 = { c = "100n", pins = ["k", "g2"] }
+R4 = { r = "470k", pins = ["g2", "gnd"] }`,
+		// The same device with the common lead's signal going nowhere: a
+		// degenerated amplifier, not a splitter.
+		nearMiss: `@Q1(in, k, a)
+R1 = { r = "47k", pins = ["a", "ht"] }
+R2 = { r = "47k", pins = ["k", "gnd"] }
+C1 = { c = "100n", pins = ["a", "g1"] }
+R3 = { r = "470k", pins = ["g1", "gnd"] }`},
 	// A capacitor from a device's output to its own control electrode
 	// rolls its gain off above an audio band (the solver, its base fed a
 	// current: 10 pF times the Miller gain against the base's resistors).
