@@ -76,7 +76,8 @@ func TestReview13DevicesKeepTheirParts(t *testing.T) {
 	}{
 		{"a03.toml", "V2b", "V2b stage", []string{"R10", "R11", "C17"}},
 		{"a04.toml", "V1a", "V1a stage", []string{"R2", "R3", "R4", "C2"}},
-		{"a04.toml", "V1b", "V1b stage", []string{"R6", "R7"}},
+		// the splitter is named for its work (TestReview13Cathodyne)
+		{"a04.toml", "V1b", "Cathodyne phase splitter (valve)", []string{"R6", "R7"}},
 		{"a04.toml", "V2", "Push-pull output stage (valve)", []string{"R11", "R12"}},
 	}
 	found := map[string][]Stage{}
