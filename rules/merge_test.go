@@ -203,3 +203,43 @@ R8 = { r = "10k", pins = ["o", "gnd"] }
 		})
 	}
 }
+
+// Two resistors in parallel once their far ends are both AC ground (a
+// 33 kΩ bias resistor to a bypassed bias point, a 330 Ω feed from the
+// supply): the merged part says what the one carrying the current says,
+// its note and the rail its terminal returns to, whichever ref survives
+// (review 13's b02: common practice, the smaller resistor sets the pair).
+func TestParallelTakesTheDominantMember(t *testing.T) {
+	src := `band = "530k..1.6M"
+inputs = ["in"]
+[nets]
+vcc = { role = "supply", volts = 9, label = "+9 V" }
+agc = { role = "bias", volts = 1.4, label = "AGC line" }
+[parts]
+P1 = { port = "AGC in", pins = ["agc"] }
+R1 = { r = "33k", pins = ["line", "bias"], note = "base bias, upper" }
+R2 = { r = "4k7", pins = ["bias", "agc"], note = "base bias from the AGC line" }
+C1 = { c = "47n", pins = ["bias", "gnd"] }
+R4 = { r = "330R", pins = ["vcc", "line"], note = "supply feed" }
+C9 = { c = "1n", pins = ["in", "line"] }
+R9 = { r = "100k", pins = ["in", "gnd"] }
+`
+	r, log := reduceChecked(t, parse(t, src), Options{Level: LevelSignal})
+	var m *graph.Part
+	for _, st := range stepsOf(log, "parallel") {
+		if p := r.Part(st.Result); p != nil && p.Kind == graph.Resistor && len(p.From) == 2 {
+			m = p
+		}
+	}
+	if m == nil {
+		t.Fatalf("R1 and R4 not merged:\n%s", logText(log))
+	}
+	if m.Note != "supply feed" {
+		t.Errorf("merged %s note %q, want R4's", m.Ref, m.Note)
+	}
+	for _, pn := range m.Pins {
+		if pn.Net != "line" && pn.Rail != "vcc" {
+			t.Errorf("merged %s returns to rail %q, want vcc (R4's)", m.Ref, pn.Rail)
+		}
+	}
+}

@@ -62,6 +62,7 @@ var parallel = Rule{
 			}
 		}
 		r.From = origins(s, o)
+		takeDominant(r, s, o)
 		why := x.describe(s) + " ∥ " + x.describe(o) + " = " + mergedValue(r) + note + exact
 		merged := r.From
 		x.Remove(s)
@@ -69,4 +70,47 @@ var parallel = Rule{
 		x.Add(r)
 		return Step{Merged: merged, Result: r.Ref, Why: why}
 	},
+}
+
+// takeDominant gives the merged part r what its dominant member says: the
+// rail each terminal returns to, and for a resistor or coil its note. The
+// merged part keeps the survivor's ref, but a 33 kΩ bias resistor across a
+// 330 Ω supply feed is the feed (review 13's b02: "R1 327R ≡ R1, R4" kept
+// R1's note and its tag "AGC line via R2" though R4 brings +9 V).
+func takeDominant(r, s, o *graph.Part) {
+	d := dominant(s, o)
+	if d == s {
+		return
+	}
+	for i := range r.Pins {
+		for _, q := range d.Pins {
+			if q.Net == r.Pins[i].Net {
+				r.Pins[i].Rail = q.Rail
+			}
+		}
+	}
+	if r.Kind != graph.Capacitor {
+		r.Note = d.Note
+	}
+}
+
+// dominant is the member of a parallel pair that carries most of the
+// current: the smaller resistance or inductance, the larger capacitance;
+// s on a tie.
+func dominant(s, o *graph.Part) *graph.Part {
+	switch s.Kind {
+	case graph.Capacitor:
+		if o.Value.Max > s.Value.Max {
+			return o
+		}
+	case graph.Inductor:
+		if o.Inductance() < s.Inductance() {
+			return o
+		}
+	default:
+		if o.Value.Max < s.Value.Max {
+			return o
+		}
+	}
+	return s
 }
