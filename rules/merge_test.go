@@ -234,8 +234,8 @@ R9 = { r = "100k", pins = ["in", "gnd"] }
 	if m == nil {
 		t.Fatalf("R1 and R4 not merged:\n%s", logText(log))
 	}
-	if m.Note != "supply feed" {
-		t.Errorf("merged %s note %q, want R4's", m.Ref, m.Note)
+	if m.Ref != "R4" || m.Note != "supply feed" {
+		t.Errorf("merged %s note %q, want R4's ref and note", m.Ref, m.Note)
 	}
 	for _, pn := range m.Pins {
 		if pn.Net != "line" && pn.Rail != "vcc" {

@@ -72,25 +72,31 @@ var parallel = Rule{
 	},
 }
 
-// takeDominant gives the merged part r what its dominant member says: the
-// rail each terminal returns to, and for a resistor or coil its note. The
-// merged part keeps the survivor's ref, but a 33 kΩ bias resistor across a
-// 330 Ω supply feed is the feed (review 13's b02: "R1 327R ≡ R1, R4" kept
-// R1's note and its tag "AGC line via R2" though R4 brings +9 V).
+// takeDominant gives the merged part r what its dominant member says
+// where the two members return to different lines: the rail each terminal
+// returns to, and for a resistor or coil its ref and note. The merged part
+// otherwise keeps the survivor's ref, but a 33 kΩ bias resistor from an AGC-fed bias point
+// across a 330 Ω feed from the supply is the feed (review 13's b02: "R1
+// 327R ≡ R1, R4" kept R1's note and its tag "AGC line via R2" though R4
+// brings +9 V). A divider's two halves, one to a line and one to chassis,
+// keep the line's tag: the reader sees where the bias comes from.
 func takeDominant(r, s, o *graph.Part) {
 	d := dominant(s, o)
 	if d == s {
 		return
 	}
+	swapped := false
 	for i := range r.Pins {
 		for _, q := range d.Pins {
-			if q.Net == r.Pins[i].Net {
-				r.Pins[i].Rail = q.Rail
+			if q.Net == r.Pins[i].Net && q.Rail != "" && r.Pins[i].Rail != "" && q.Rail != r.Pins[i].Rail {
+				r.Pins[i].Rail, swapped = q.Rail, true
 			}
 		}
 	}
-	if r.Kind != graph.Capacitor {
-		r.Note = d.Note
+	if swapped && r.Kind != graph.Capacitor {
+		// named after the member it now speaks for: a tag "AGC via R5" must
+		// name the resistor the AGC comes through
+		r.Ref, r.Note, r.Pos = d.Ref, d.Note, d.Pos
 	}
 }
 
