@@ -38,27 +38,13 @@ func calcBootstrap(x *figCtx) {
 		return
 	}
 	boot := sharedNet(ra, rb)
-	top := farEnd(ra, boot)
-	drv, out := drivingDevice(x.w.c, top)
-	if drv == nil && !x.w.c.RoleOf(farEnd(rb, boot)).IsACGround() {
-		// the two halves are alike to the matcher: with the lower end on a
-		// decoupled line, not chassis, the driver may be beyond either
-		ra, rb = rb, ra
-		top = farEnd(ra, boot)
-		drv, out = drivingDevice(x.w.c, top)
-	}
+	ra, rb, top, drv, out := bootDriver(x.w.c, ra, rb, boot)
 	if drv == nil {
 		return // no driver reaches the load: no figures, the guard drops the match
 	}
 	lead := commonLeadOf(x.w.c, drv)
 	take := append([]*graph.Part{drv}, lead.parts...)
-	if rail := farEnd(rb, boot); !x.w.c.RoleOf(rail).IsACGround() {
-		// the driver's own decoupled line: its resistor from the rail and
-		// its capacitor serve this load alone, not an RC section of their own
-		if caps, rs, ok := footOf(x.w.c, rail, rb); ok && len(caps) > 0 {
-			take = append(append(take, caps...), rs...)
-		}
-	}
+	take = append(take, decoupledLine(x.w.c, rb, boot)...)
 	x.claimInstead(nil, take)
 	x.set("r_load_plain", figure.Ohm, ra.Value.Max+rb.Value.Max, byBootPlain)
 	if !x.solve {
@@ -99,6 +85,36 @@ func calcBootstrap(x *figCtx) {
 		x.st.Notes = append(x.st.Notes, fmt.Sprintf("the bootstrap lifts %s's load to %s, but what else %s feeds (the next stage's input) brings the whole load down to %s",
 			ra.Ref, figure.Format(with, figure.Ohm, figure.Text), out, figure.Format(whole, figure.Ohm, figure.Text)))
 	}
+}
+
+// bootDriver finds the driver beyond the load resistor ra from the tap
+// boot; the two halves are alike to the matcher, so with rb's far end on a
+// decoupled line, not chassis, the driver may be beyond either, and the
+// halves come back in order (ra the driver's side) with the load's top.
+func bootDriver(c *graph.Circuit, ra, rb *graph.Part, boot string) (ra2, rb2 *graph.Part, top string, drv *graph.Part, out string) {
+	top = farEnd(ra, boot)
+	drv, out = drivingDevice(c, top)
+	if drv == nil && !c.RoleOf(farEnd(rb, boot)).IsACGround() {
+		ra, rb = rb, ra
+		top = farEnd(ra, boot)
+		drv, out = drivingDevice(c, top)
+	}
+	return ra, rb, top, drv, out
+}
+
+// decoupledLine is the resistor from the rail and the capacitor to chassis
+// of the driver's own decoupled line where rb ends on one: they serve this
+// load alone, not an RC section of their own. None where rb ends on chassis.
+func decoupledLine(c *graph.Circuit, rb *graph.Part, boot string) []*graph.Part {
+	rail := farEnd(rb, boot)
+	if c.RoleOf(rail).IsACGround() {
+		return nil
+	}
+	caps, rs, ok := footOf(c, rail, rb)
+	if !ok || len(caps) == 0 {
+		return nil
+	}
+	return append(caps, rs...)
 }
 
 // farEnd is the net of a two-pin part that is not net.
