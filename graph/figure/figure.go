@@ -122,6 +122,10 @@ type Origin struct {
 	// At is, for the solver, the sweep point and gang setting solved at
 	// ("54.8 kHz, gang at mid travel"); empty otherwise.
 	At string
+	// Piece is, for the solver on a piece of a large set rather than the
+	// whole circuit, the piece and why its cut does not move the figure
+	// (rules/stages piece.go); empty for a whole-circuit solve.
+	Piece string
 }
 
 // String is the origin as one phrase: "formula f = 1/(2π√(LC))",
@@ -133,6 +137,9 @@ func (o Origin) String() string {
 	}
 	if o.At != "" {
 		s += " at " + o.At
+	}
+	if o.Piece != "" {
+		s += ", " + o.Piece
 	}
 	return s
 }

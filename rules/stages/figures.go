@@ -63,6 +63,9 @@ type figCtx struct {
 	st   *Stage
 	spec FigureSpec
 	sub  *graph.Circuit // what the solver sees of the circuit (solverCircuit), built on first use
+	// cut is the piece of a large set the figures are solved on
+	// (piece.go); nil solves them in the whole circuit.
+	cut *graph.Circuit
 	// solve: solve the figures in circuit (a stage kept); a candidate has
 	// its formulas' alone (solveFigures).
 	solve bool

@@ -496,7 +496,11 @@ func relation(a, b map[string]bool) (inside, overlap bool) {
 // when a guard rejects it or the pattern does not serve the family matched.
 // With solve, the figures are the solver's in circuit, the formulas
 // beside them; without, the formulas' alone.
-func evaluate(w *world, m *match, solve bool) *Stage {
+func evaluate(w *world, m *match, solve bool) *Stage { return evaluateOn(w, m, solve, nil) }
+
+// evaluateOn is evaluate with the figures solved on cut, a piece of a large
+// set (piece.go); nil solves them as solverCircuit chooses.
+func evaluateOn(w *world, m *match, solve bool, cut *graph.Circuit) *Stage {
 	p := m.v.p
 	st := &Stage{Topology: p.ID, group: p.Group, nets: map[string]string{}}
 	for i, vp := range m.v.parts {
@@ -536,7 +540,7 @@ func evaluate(w *world, m *match, solve bool) *Stage {
 		title = t
 	}
 	st.Title = expandTitle(title, st.Family)
-	x := &figCtx{w: w, m: m, st: st, solve: solve}
+	x := &figCtx{w: w, m: m, st: st, solve: solve, cut: cut}
 	for _, f := range p.Figures {
 		x.spec = f
 		calcs[f.Calc].fn(x)

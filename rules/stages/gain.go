@@ -3,7 +3,6 @@ package stages
 import (
 	"fmt"
 	"math"
-	"sort"
 
 	"pare/graph"
 	model "pare/graph/device"
@@ -204,62 +203,6 @@ func (x *figCtx) load() float64 {
 		}
 	}
 	return parallelR(rs)
-}
-
-// neighbourhood is the stage with every part within depth steps of it
-// through nets that are not AC ground: its load and what drives it, without
-// the rest of a large set, so a cross-check costs the same in a 5,000-part
-// circuit as in a one-stage sheet.
-func (x *figCtx) neighbourhood(depth int) *graph.Circuit {
-	in := map[int]bool{}
-	frontier := append([]int(nil), x.m.parts...)
-	for _, ci := range frontier {
-		in[ci] = true
-	}
-	for d := 0; d < depth; d++ {
-		var next []int
-		for _, ci := range frontier {
-			for _, id := range x.w.pins[ci] {
-				if id == groundNet {
-					continue
-				}
-				for _, cj := range x.w.conns[id] {
-					if !in[cj] {
-						in[cj] = true
-						next = append(next, cj)
-					}
-				}
-			}
-		}
-		frontier = next
-	}
-	c := x.w.c
-	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
-		DetectorLoads: c.DetectorLoads}
-	idx := make([]int, 0, len(in))
-	for ci := range in {
-		idx = append(idx, ci)
-	}
-	sort.Ints(idx) // the circuit's parts are sorted by ref, so this keeps them sorted
-	used := map[string]bool{}
-	var names []string
-	for _, ci := range idx {
-		p := x.w.parts[ci]
-		sub.Parts = append(sub.Parts, p)
-		for _, pin := range p.Pins {
-			if !used[pin.Net] {
-				used[pin.Net] = true
-				names = append(names, pin.Net)
-			}
-		}
-	}
-	sort.Strings(names)
-	for _, name := range names {
-		if n := c.Net(name); n != nil {
-			sub.Nets = append(sub.Nets, n)
-		}
-	}
-	return sub
 }
 
 // calcTunedGain: a tuned stage's load at resonance is the tank's dynamic

@@ -18,23 +18,17 @@ import (
 // (figure.Figure.Check), with words for why the two part where they
 // differ by more than figure.CheckAgreement.
 
-// wholeCircuitParts is the size up to which a stage is solved in the whole
-// reduced circuit; a larger set is cut to the parts within solverDepth
-// steps of the stage (neighbourhood), so a figure costs the same in a
-// 5,000-part set as in a one-stage sheet. Four steps reach from a stage's
-// output through a coupling capacitor to the next device and its
-// emitter or cathode parts, which set what that device draws.
-const (
-	wholeCircuitParts = 400
-	solverDepth       = 4
-)
-
-// solverCircuit is the circuit a stage's figures are solved in.
+// solverCircuit is the circuit a stage's figures are solved in: the whole
+// reduced circuit up to wholeCircuitParts, else the piece the stage was
+// given (piece.go), which solveFigures chooses and confirms.
 func (x *figCtx) solverCircuit() *graph.Circuit {
 	if x.sub == nil {
-		if len(x.w.parts) <= wholeCircuitParts {
+		switch {
+		case len(x.w.parts) <= wholeCircuitParts:
 			x.sub = x.w.c
-		} else {
+		case x.cut != nil:
+			x.sub = x.cut
+		default: // a solve outside solveFigures: the first piece, unconfirmed
 			x.sub = x.neighbourhood(solverDepth)
 		}
 	}
@@ -264,7 +258,7 @@ func quietPart(p *graph.Part) *graph.Part {
 func solveFigures(w *world, level []*found) []*found {
 	kept := level[:0]
 	for _, f := range level {
-		st := evaluate(w, f.m, true)
+		st := evaluatePiece(w, f.m)
 		if st != nil && st.unconfirmed != "" {
 			continue // named by its shape, not borne out in circuit (confirmTank)
 		}
