@@ -6,6 +6,7 @@ package stages
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 
 	"pare/graph"
@@ -37,44 +38,64 @@ const pieceAgree = 1e-5
 // does not hold at AC ground, when they close within wholeCircuitParts —
 // the solver's matrix has no entry joining them to the rest, so the piece's
 // figures are the whole circuit's, exactly; else (b) the parts within
-// solverDepth steps, accepted only when the piece twice as deep gives the
-// same figures to pieceAgree, and widened until one does or the piece
+// solverDepth steps, accepted only when its figures stay within pieceAgree
+// with the nets at its edge left open and with them held at AC ground,
+// the two extremes of what the rest of the set can hang on them; where
+// they part, the piece is made twice as deep, until they agree or it
 // closes (up to the whole circuit). Each solver figure's origin says which
 // (figure.Origin.Piece).
 func evaluatePiece(w *world, m *match) *Stage {
 	if len(w.parts) <= wholeCircuitParts {
 		return evaluate(w, m, true)
 	}
-	if c, ok := w.piece(m.parts, -1, wholeCircuitParts); ok {
+	if c, edge := w.piece(m.parts, -1, wholeCircuitParts); edge == nil && c != nil {
 		st := evaluateOn(w, m, true, c)
 		markPiece(st, fmt.Sprintf("on a piece of %d parts cut only at AC ground: exact", len(c.Parts)))
 		return st
 	}
-	depth, widened := solverDepth, false
-	c, closed := w.piece(m.parts, depth, len(w.parts))
-	st := evaluateOn(w, m, true, c)
-	for !closed {
-		wider, wclosed := w.piece(m.parts, 2*depth, len(w.parts))
-		if len(wider.Parts) == len(c.Parts) {
-			break // nothing more to reach: a cut the solver does not hold (piece)
+	last := 0
+	for depth := solverDepth; ; depth *= 2 {
+		c, edge := w.piece(m.parts, depth, len(w.parts))
+		if c == nil || len(c.Parts) == last || edge != nil && len(edge) == 0 {
+			// not closed, and nothing more to reach or a cut the solver does
+			// not hold (piece): solved on all it reaches, as it
+			// stands, and said so
+			c, _ = w.piece(m.parts, -1, len(w.parts))
+			st := evaluateOn(w, m, true, c)
+			markPiece(st, fmt.Sprintf("on a piece of %d parts, all the stage reaches short of AC ground, not proven exact (a net a reduction grounded, or a detector without its kept DC load)", len(c.Parts)))
+			return st
 		}
-		next := evaluateOn(w, m, true, wider)
-		if sameFigures(st, next) {
-			markPiece(next, fmt.Sprintf("on a piece of %d parts within %d steps, confirmed: the %d within %d steps give the same to %g",
-				len(wider.Parts), 2*depth, len(c.Parts), depth, pieceAgree))
-			return next
+		st := evaluateOn(w, m, true, c)
+		if edge == nil {
+			how := fmt.Sprintf("on a piece of %d parts cut only at AC ground: exact", len(c.Parts))
+			if depth > solverDepth {
+				how += ", widened to it as smaller pieces' edges moved the figures"
+			}
+			markPiece(st, how)
+			return st
 		}
-		st, c, closed, depth, widened = next, wider, wclosed, 2*depth, true
+		if sameFigures(st, evaluateOn(w, m, true, heldAt(c, edge))) {
+			markPiece(st, fmt.Sprintf("on a piece of %d parts within %d steps, confirmed: its %d edge nets open or at AC ground give the same to %g",
+				len(c.Parts), depth, len(edge), pieceAgree))
+			return st
+		}
+		last = len(c.Parts)
 	}
-	how := fmt.Sprintf("on a piece of %d parts cut only at AC ground: exact", len(c.Parts))
-	switch {
-	case !closed:
-		how = fmt.Sprintf("on a piece of %d parts, all the stage reaches short of AC ground, not proven exact (a net a reduction grounded, or a detector without its kept DC load)", len(c.Parts))
-	case widened:
-		how += ", widened to it: smaller pieces moved the figures"
+}
+
+// heldAt is c with the nets edge held at AC ground.
+func heldAt(c *graph.Circuit, edge []string) *graph.Circuit {
+	out := withPart(c, &graph.Part{})
+	out.Nets = make([]*graph.Net, len(c.Nets))
+	for i, n := range c.Nets {
+		out.Nets[i] = n
+		if slices.Contains(edge, n.Name) {
+			h := *n
+			h.Role = graph.Ground
+			out.Nets[i] = &h
+		}
 	}
-	markPiece(st, how)
-	return st
+	return out
 }
 
 // markPiece records on every solver figure of st the piece it was solved on.
@@ -147,18 +168,24 @@ func (x *figCtx) neighbourhood(depth int) *graph.Circuit {
 
 // piece is the circuit of the parts within depth steps of the parts from
 // (depth < 0: no bound) through nets the solver does not hold at AC
-// ground. closed tells whether no net of the piece, other than one the
-// solver holds at AC ground, reaches a part outside it: then the solver's
+// ground, with its edge: the nets, sorted, other than one the solver holds
+// at AC ground, that reach a part outside it. With no edge the solver's
 // matrix for the piece is the whole circuit's block, and what is solved on
-// it is exact. A search that passes limit parts stops, unclosed.
-func (w *world) piece(from []int, depth, limit int) (c *graph.Circuit, closed bool) {
+// it is exact. A search that passes limit parts gives no piece (nil).
+// edge is nil only for a piece that is exact: one on a net the matcher
+// folds but the solver does not, or with a detector whose DC load the
+// solver would take from the piece, has a non-nil empty edge.
+func (w *world) piece(from []int, depth, limit int) (c *graph.Circuit, edge []string) {
 	in := w.near(from, depth, limit, true)
-	closed = len(in) <= limit && w.reachesNoMore(in)
-	idx := sortedParts(in)
-	if closed && (w.softGround(idx) || w.unkeptDetector(idx)) {
-		closed = false
+	if len(in) > limit {
+		return nil, nil
 	}
-	return w.pieceCircuit(idx), closed
+	idx := sortedParts(in)
+	edge = w.edge(idx, in)
+	if edge == nil && (w.softGround(idx) || w.unkeptDetector(idx)) {
+		edge = []string{}
+	}
+	return w.pieceCircuit(idx), edge
 }
 
 // near is the parts within depth steps of from (depth < 0: no bound),
@@ -202,22 +229,26 @@ func sortedParts(in map[int]bool) []int {
 	return idx
 }
 
-// reachesNoMore tells whether no net of the parts of in, other than one
-// the solver holds at AC ground, leads to a part outside in.
-func (w *world) reachesNoMore(in map[int]bool) bool {
-	for ci := range in {
-		for _, id := range w.pins[ci] {
+// edge is the names, sorted, of the nets of the parts idx (the parts of
+// in), other than one the solver holds at AC ground, that lead to a part
+// outside in; nil when none does.
+func (w *world) edge(idx []int, in map[int]bool) []string {
+	var names []string
+	for _, ci := range idx {
+		for j, id := range w.pins[ci] {
 			if id == groundNet || w.role[id].IsACGround() {
 				continue
 			}
 			for _, cj := range w.conns[id] {
 				if !in[cj] {
-					return false
+					names = append(names, w.parts[ci].Pins[j].Net)
+					break
 				}
 			}
 		}
 	}
-	return true
+	slices.Sort(names)
+	return slices.Compact(names)
 }
 
 // softGround tells whether a part of idx sits on a net the matcher folds
