@@ -97,7 +97,11 @@ func eachAtOnce(n int, fn func(i int)) {
 // its own flow (mains to rails, a bridge as a diamond, its rails wired
 // along the smoothing chain, render/layout supplyflow.go) took 1188, 260
 // and 14 to 1180, 256 and 10.
-var misreadCeiling = struct{ beside, inLine, endsNear int }{1180, 256, 10}
+// The checker then learned two more (issue 12's blind review): wire ends
+// in line two grid steps or less apart with a part only beside the gap
+// (endsInLine, 186 when learned) and crossings under two steps from a
+// junction dot of either net (nearDots, 92).
+var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots int }{1180, 256, 10, 186, 92}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
@@ -107,7 +111,7 @@ var misreadCeiling = struct{ beside, inLine, endsNear int }{1180, 256, 10}
 // more numerous than misreadCeiling. Every finding is logged; long wires
 // and frame strays are reported.
 func TestSheetsReadAsDrawn(t *testing.T) {
-	beside, inLine, endsNear := 0, 0, 0
+	beside, inLine, endsNear, nearDots, endsInLine := 0, 0, 0, 0, 0
 	warmSheets(readSheets(t), "")
 	for _, f := range readSheets(t) {
 		for _, v := range drawViews {
@@ -119,7 +123,9 @@ func TestSheetsReadAsDrawn(t *testing.T) {
 				beside += len(r.Beside)
 				inLine += len(r.InLine)
 				endsNear += len(r.EndsNear)
-				for _, l := range [][]string{r.Beside, r.InLine, r.EndsNear, r.LongWires, r.FrameStrays} {
+				nearDots += len(r.NearDots)
+				endsInLine += len(r.EndsInLine)
+				for _, l := range [][]string{r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LongWires, r.FrameStrays} {
 					for _, p := range l {
 						t.Logf("%s %s %s: %s", filepath.Base(f), v, st, p)
 					}
@@ -127,8 +133,13 @@ func TestSheetsReadAsDrawn(t *testing.T) {
 			}
 		}
 	}
+	t.Logf("wire ends in line beside a part: %d (ceiling %d); crossings near a junction dot: %d (ceiling %d)", endsInLine, misreadCeiling.endsInLine, nearDots, misreadCeiling.nearDots)
 	t.Logf("wires beside another net's: %d (ceiling %d); in line across a gap: %d (ceiling %d); symbol ends near another net's wire: %d (ceiling %d)",
 		beside, misreadCeiling.beside, inLine, misreadCeiling.inLine, endsNear, misreadCeiling.endsNear)
+	if endsInLine > misreadCeiling.endsInLine || nearDots > misreadCeiling.nearDots {
+		t.Errorf("more wire ends in line beside a part (%d, ceiling %d) or crossings near a junction dot (%d, ceiling %d); the log lists them",
+			endsInLine, misreadCeiling.endsInLine, nearDots, misreadCeiling.nearDots)
+	}
 	if beside > misreadCeiling.beside || inLine > misreadCeiling.inLine || endsNear > misreadCeiling.endsNear {
 		t.Errorf("more wires that read as joined: %d beside (ceiling %d), %d in line (ceiling %d), %d symbol ends near (ceiling %d); the log lists them",
 			beside, misreadCeiling.beside, inLine, misreadCeiling.inLine, endsNear, misreadCeiling.endsNear)

@@ -47,6 +47,14 @@ type Report struct {
 	// EndsNear are symbols' ends (a pin, a flag's tip) within a grid step
 	// of a wire of a net the symbol has no pin on: they read as joined.
 	EndsNear []string
+	// EndsInLine are wires of two nets on one line whose ends are endGap
+	// grid steps or less apart with a part beside the gap but none across
+	// it (InLine passes them): they read as one wire all the same.
+	EndsInLine []string
+	// NearDots are crossings of two nets' wires closer than dotClear to a
+	// junction dot of either net: the eye takes the crossing for part of
+	// the junction.
+	NearDots []string
 	// LongWires are nets wired much longer than their stage is wide
 	// (reported, not a fault).
 	LongWires []string
@@ -82,7 +90,7 @@ func (r *Report) Problems() []string {
 // across a short gap, a symbol's end close to an unrelated wire, and a frame
 // holding another stage's part.
 func (r *Report) Misreadings() []string {
-	return append(append(append(append([]string{}, r.Beside...), r.InLine...), r.EndsNear...), r.FrameIntruders...)
+	return append(append(append(append(append(append([]string{}, r.Beside...), r.InLine...), r.EndsNear...), r.EndsInLine...), r.NearDots...), r.FrameIntruders...)
 }
 
 // Crowding lists the readability findings that are not fatal to the
@@ -171,12 +179,12 @@ func Measure(g *geom.Sheet) *Report {
 	r.longWires(g)
 	r.farTanks(g)
 	r.mixerOrder(g)
-	r.crossings(g, segs)
+	r.nearDots(g, segs, r.crossings(g, segs))
 	r.connectivity(g, segs)
 	if g.PageMM > 0 {
 		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)
 	}
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions} {
 		sort.Strings(l)
 	}
 	return r
@@ -351,9 +359,17 @@ func first(l []string) string {
 	return l[0]
 }
 
+// crossing is where two nets' wires cross.
+type crossing struct {
+	at   geom.Pt
+	a, b string
+}
+
 // crossings counts perpendicular crossings of different nets and reports any
-// other contact between them (overlap, a T onto another net's wire).
-func (r *Report) crossings(g *geom.Sheet, segs []netSeg) {
+// other contact between them (overlap, a T onto another net's wire); it
+// returns the crossings.
+func (r *Report) crossings(g *geom.Sheet, segs []netSeg) []crossing {
+	var xs []crossing
 	r.FrameCrossings = make([]int, len(g.Frames))
 	var six bucketed
 	for i, s := range segs {
@@ -383,6 +399,7 @@ func (r *Report) crossings(g *geom.Sheet, segs []netSeg) {
 				continue
 			}
 			r.Crossings++
+			xs = append(xs, crossing{p, a.net, b.net})
 			for k, f := range g.Frames {
 				if f.Box.Contains(p) {
 					r.FrameCrossings[k]++
@@ -390,4 +407,5 @@ func (r *Report) crossings(g *geom.Sheet, segs []netSeg) {
 			}
 		}
 	}
+	return xs
 }

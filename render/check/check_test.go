@@ -154,6 +154,32 @@ func TestFindings(t *testing.T) {
 		{"a gap long enough to read as two wires", func(g *geom.Sheet) {
 			g.Wires = append(g.Wires, wire("m", seg(-12, 6, -6, 6)), wire("n", seg(4, 0, 4, 6), seg(4, 6, 0.5, 6)))
 		}, "", func(r *Report) []string { return r.InLine }},
+		// net p runs along y=20 and turns down to C1's top pin at (24,21);
+		// net q starts a step further along the same line (the screen and
+		// decoupling lines that met end to end at a capacitor)
+		{"a wire starting a step past another's turn to a part", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("C1", 23.4, 21, 24.6, 25, pin("1", "p", 24, 21, geom.Up)))
+			g.Wires = append(g.Wires, wire("p", seg(18, 20, 24, 20), seg(24, 20, 24, 21)), wire("q", seg(25, 20, 30, 20)))
+		}, "end in line 1 apart beside a part", func(r *Report) []string { return r.EndsInLine }},
+		{"three steps past another's turn to a part", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("C1", 23.4, 21, 24.6, 25, pin("1", "p", 24, 21, geom.Up)))
+			g.Wires = append(g.Wires, wire("p", seg(18, 20, 24, 20), seg(24, 20, 24, 21)), wire("q", seg(27, 20, 30, 20)))
+		}, "", func(r *Report) []string { return r.EndsInLine }},
+		{"a part across the line between two wire ends", func(g *geom.Sheet) {
+			g.Wires = append(g.Wires, wire("a", seg(-3, 0, 0, 0)), wire("b", seg(14, 0, 17, 0)))
+		}, "", func(r *Report) []string { return r.EndsInLine }},
+		// net n branches down at (6,0); m crosses n at x=7, a step from
+		// the dot (the wire that crossed a base line near its junction)
+		{"a crossing a step from a junction dot", func(g *geom.Sheet) {
+			g.Wires[0].Segs = append(g.Wires[0].Segs, seg(6, 0, 6, 3))
+			g.Dots = []geom.Pt{{X: 6, Y: 0}}
+			g.Wires = append(g.Wires, wire("m", seg(7, -3, 7, 2)))
+		}, "cross at (7,0), 1 from a junction dot at (6,0)", func(r *Report) []string { return r.NearDots }},
+		{"a crossing two steps from a junction dot", func(g *geom.Sheet) {
+			g.Wires[0].Segs = append(g.Wires[0].Segs, seg(6, 0, 6, 3))
+			g.Dots = []geom.Pt{{X: 6, Y: 0}}
+			g.Wires = append(g.Wires, wire("m", seg(8, -3, 8, 2)))
+		}, "", func(r *Report) []string { return r.NearDots }},
 		// a flag P1 on net s, its tip at 27,0, and a wire of m turning just
 		// beyond it (the extension socket that read as feeding the tone
 		// control)

@@ -20,18 +20,29 @@ const (
 	// them that still reads as one wire broken (a supply stub in line with
 	// an input line 4.5 steps away was read as joined to it).
 	inLineGap = 6.0
+	// endGap is the longest gap, in grid steps, across which two
+	// collinear wire ends read as one wire even with a part beside the gap
+	// (only a part standing across the line parts them).
+	endGap = 2.0
 	// longWire is how many times its stage's width a net's wire may run
 	// before it is reported as a long way round.
 	longWire = 3.0
 	// endNear is the distance, in grid steps, within which a wire passing
 	// a symbol's end reads as joined to it.
 	endNear = 1.0
+	// dotClear is the least distance, in grid steps, between a crossing
+	// and a junction dot of either crossing net: nearer, the crossing reads
+	// as part of the junction (a wire crossing a base line a grid step
+	// from its dot was read as joined to it).
+	dotClear = 2.0
 )
 
 // misreadings finds wires a reader would take as joined: parallel wires of
 // different nets closer than apartMin that overlap in extent (a bus or one
-// thick line), and collinear wires of different nets whose facing ends are
-// less than inLineGap apart with no symbol between them (one wire). Local
+// thick line), collinear wires of different nets whose facing ends are
+// less than inLineGap apart with no symbol between them (one wire), and,
+// counted apart, those whose ends are endGap or less apart with a part
+// only beside the gap (one wire all the same). Local
 // symbols' stubs count as wire: a supply stub in line with a signal wire
 // reads as the same line.
 func (r *Report) misreadings(segs []netSeg, boxes []box, bix *bucketed) {
@@ -51,11 +62,11 @@ func (r *Report) misreadings(segs []netSeg, boxes []box, bix *bucketed) {
 				r.Beside = append(r.Beside, fmt.Sprintf("wires of %s %s-%s and %s %s-%s run %g apart for %g", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), gap, run))
 			case gap < geom.Eps && run < -geom.Eps && -run < inLineGap-geom.Eps && a.seg.Horizontal() == b.seg.Horizontal():
 				gap := between(a.seg, b.seg)
-				if blocked(gap, boxes, bix) {
-					continue
-				}
-				{
+				switch {
+				case !blocked(gap, boxes, bix):
 					r.InLine = append(r.InLine, fmt.Sprintf("wires of %s %s-%s and %s %s-%s lie in line %g apart", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), -run))
+				case -run < endGap+geom.Eps && !crossed(gap, boxes, bix):
+					r.EndsInLine = append(r.EndsInLine, fmt.Sprintf("wires of %s %s-%s and %s %s-%s end in line %g apart beside a part", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), -run))
 				}
 			}
 		}
@@ -87,11 +98,41 @@ func between(a, b geom.Seg) geom.Seg {
 // blocked reports whether a symbol or local symbol stands in the gap (or at
 // either end of it, as a part between two wires does): the eye then sees
 // two wires meeting a part, not one wire. A part beside the gap, within a
-// grid step, counts too: the wire ends read as its leads.
+// grid step, counts too: the wire ends read as its leads, unless the gap is
+// short (crossed, below).
 func blocked(gap geom.Seg, boxes []box, bix *bucketed) bool {
 	near := gap.Box().Inset(1)
 	for _, j := range bix.near(near) {
 		if b := boxes[j].r; near.X0 <= b.X1+geom.Eps && b.X0 <= near.X1+geom.Eps && near.Y0 <= b.Y1+geom.Eps && b.Y0 <= near.Y1+geom.Eps {
+			return true
+		}
+	}
+	return false
+}
+
+// crossed reports whether a symbol or local symbol stands across the gap's
+// line inside the gap (a part between two wires, its leads ending them),
+// or lies against the line along the whole gap (a transformer whose two
+// windings' top leads end the wires). Across a gap of endGap steps or less
+// nothing else parts the two wires: a capacitor hanging below the corner
+// where one wire turns to it, or an earth symbol under a stub's end, does
+// not stop the line reading on into a wire that starts a step or two
+// further along (the blind reviewers read a screen line and a decoupling
+// line meeting end to end at such a capacitor as one wire, and an earth
+// stub as running on into the wire beyond it).
+func crossed(gap geom.Seg, boxes []box, bix *bucketed) bool {
+	g := gap.Box()
+	for _, j := range bix.near(g.Inset(geom.Eps)) {
+		b := boxes[j].r
+		lo, hi, at, b0, b1 := g.X0, g.X1, g.Y0, b.Y0, b.Y1 // along the gap; across it
+		blo, bhi := b.X0, b.X1
+		if !gap.Horizontal() {
+			lo, hi, at, b0, b1, blo, bhi = g.Y0, g.Y1, g.X0, b.X0, b.X1, b.Y0, b.Y1
+		}
+		if blo > hi+geom.Eps || bhi < lo-geom.Eps || b0 > at+geom.Eps || b1 < at-geom.Eps {
+			continue // off the gap
+		}
+		if (b0 < at-geom.Eps && at+geom.Eps < b1) || (blo <= lo+geom.Eps && hi <= bhi+geom.Eps) {
 			return true
 		}
 	}
@@ -219,4 +260,33 @@ func pointSeg(p geom.Pt, s geom.Seg) float64 {
 	x := math.Max(b.X0, math.Min(p.X, b.X1))
 	y := math.Max(b.Y0, math.Min(p.Y, b.Y1))
 	return math.Hypot(p.X-x, p.Y-y)
+}
+
+// nearDots finds crossings closer than dotClear to a junction dot of either
+// crossing net.
+func (r *Report) nearDots(g *geom.Sheet, segs []netSeg, xs []crossing) {
+	var six, dix bucketed
+	for i, s := range segs {
+		six.add(i, s.seg.Box())
+	}
+	nets := make([]map[string]bool, len(g.Dots)) // the nets through each dot
+	for i, d := range g.Dots {
+		here := geom.Rect{X0: d.X, Y0: d.Y, X1: d.X, Y1: d.Y}
+		dix.add(i, here)
+		nets[i] = map[string]bool{}
+		for _, j := range six.near(here) {
+			if pointSeg(d, segs[j].seg) < geom.Eps {
+				nets[i][segs[j].net] = true
+			}
+		}
+	}
+	for _, x := range xs {
+		for _, i := range dix.near(geom.Rect{X0: x.at.X, Y0: x.at.Y, X1: x.at.X, Y1: x.at.Y}.Inset(dotClear)) {
+			d := g.Dots[i]
+			if dd := math.Hypot(d.X-x.at.X, d.Y-x.at.Y); dd < dotClear-geom.Eps && (nets[i][x.a] || nets[i][x.b]) {
+				r.NearDots = append(r.NearDots, fmt.Sprintf("wires of %s and %s cross at %s, %g from a junction dot at %s", x.a, x.b, pt(x.at), dd, pt(d)))
+				break
+			}
+		}
+	}
 }
