@@ -100,8 +100,11 @@ func eachAtOnce(n int, fn func(i int)) {
 // The checker then learned two more (issue 12's blind review): wire ends
 // in line two grid steps or less apart with a part only beside the gap
 // (endsInLine, 186 when learned) and crossings under two steps from a
-// junction dot of either net (nearDots, 92).
-var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots int }{1180, 256, 10, 186, 92}
+// junction dot of either net (nearDots, 92). The router then learned the
+// same rules as costs (a run stopping or starting within two steps in line
+// with another net's wire, pin or stub; a crossing beside a junction; a
+// step beside another net's pin tip): 1076, 180, 10, 114 and 58.
+var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots int }{1076, 180, 10, 114, 58}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame

@@ -30,6 +30,23 @@ const (
 	// more than its budget on the symbol bench)
 	inLineCost  = 3
 	inLineReach = 3
+	// a bend where the wire's run stops, or where its next run starts,
+	// within closeReach steps in line with another net's wire, terminal,
+	// junction or local symbol's stub: the two ends read as one wire (the
+	// blind reviewers read an earth stub running on into the wire a step
+	// beyond it, and an emitter lead stopping a step above another net's
+	// junction, as joined); render/check counts such ends up to two steps
+	// apart even with a part beside the gap
+	closeCost  = 15
+	closeReach = 2
+	// a crossing within a step (diagonals too) of a junction of either net,
+	// or a wire joining its net's tree (a new junction) beside a crossing:
+	// the crossing reads as part of the junction (render/check counts
+	// crossings nearer a dot than two grid steps)
+	dotCost = 20
+	// a step beside another net's pin tip (across its lead): the tip reads
+	// as joined to a wire that close (render/check's symbol ends near)
+	tipCost = 20
 	// a step through a stage frame's edge: a wire of the stage stays inside
 	// its frame rather than run round outside it
 	edgeCost = 6
@@ -50,14 +67,16 @@ func opposite(d int) int { return d ^ 2 }
 
 // Grid cell flags.
 const (
-	fBlocked uint8 = 1 << iota // a symbol, local, label or title: no wire
-	fPin                       // a pin tip: only its own net's wire starts here
-	fHugH                      // half a step from a frame edge running horizontally
-	fHugV                      // half a step from a frame edge running vertically
-	fCutE                      // the step east passes through a frame edge
-	fCutS                      // the step south passes through a frame edge
-	fFadedE                    // the wire step east is drawn faded
-	fFadedS                    // the wire step south is drawn faded
+	fBlocked uint16 = 1 << iota // a symbol, local, label or title: no wire
+	fPin                        // a pin tip: only its own net's wire starts here
+	fHugH                       // half a step from a frame edge running horizontally
+	fHugV                       // half a step from a frame edge running vertically
+	fCutE                       // the step east passes through a frame edge
+	fCutS                       // the step south passes through a frame edge
+	fFadedE                     // the wire step east is drawn faded
+	fFadedS                     // the wire step south is drawn faded
+	fStub                       // a local symbol's stub (blocked too)
+	fNearPin                    // beside a pin tip (whose net the search looks up)
 )
 
 // gridCell is one grid point: the nets whose wires use it (two where wires
@@ -68,7 +87,7 @@ type gridCell struct {
 	own   [2]int32
 	resv  int32
 	arm   [2]uint8
-	flags uint8
+	flags uint16
 }
 
 type wirePin struct {
@@ -149,6 +168,7 @@ func (rt *router) blockObstacles() {
 			rt.blockLocal(l)
 			for _, s := range l.Stub {
 				rt.block(s.Box())
+				rt.mark(s.Box(), fStub)
 			}
 		}
 		if len(cl.label.Lines) > 0 {
@@ -170,6 +190,11 @@ func (rt *router) reservePins() {
 			g := &rt.g[wp.cell]
 			g.flags = g.flags&^fBlocked | fPin
 			g.resv = int32(id + 1)
+			for d := range dirStep {
+				if n := rt.neighbour(wp.cell, d); n >= 0 {
+					rt.g[n].flags |= fNearPin
+				}
+			}
 		}
 	}
 	for id, nr := range rt.nets {
@@ -207,7 +232,7 @@ func (rt *router) markLead(tip, out, d int) {
 
 // markHugs marks the grid lines on either side of a frame's edges.
 func (rt *router) markHugs(b geom.Rect) {
-	set := func(x, y int, f uint8) {
+	set := func(x, y int, f uint16) {
 		x, y = x-rt.x0, y-rt.y0
 		if x >= 0 && y >= 0 && x < rt.w && y < rt.h {
 			rt.g[y*rt.w+x].flags |= f
@@ -299,12 +324,15 @@ func (rt *router) blockTip(sh symbol.Shape) {
 	rt.block(geom.Rect{X0: at.X, Y0: at.Y, X1: at.X, Y1: at.Y})
 }
 
-func (rt *router) block(r geom.Rect) {
+func (rt *router) block(r geom.Rect) { rt.mark(r, fBlocked) }
+
+// mark sets flag f on every grid point inside or on the integer hull of r.
+func (rt *router) mark(r geom.Rect, f uint16) {
 	x0, x1 := int(math.Floor(r.X0+geom.Eps))-rt.x0, int(math.Ceil(r.X1-geom.Eps))-rt.x0
 	y0, y1 := int(math.Floor(r.Y0+geom.Eps))-rt.y0, int(math.Ceil(r.Y1-geom.Eps))-rt.y0
 	for y := max(y0, 0); y <= min(y1, rt.h-1); y++ {
 		for x := max(x0, 0); x <= min(x1, rt.w-1); x++ {
-			rt.g[y*rt.w+x].flags |= fBlocked
+			rt.g[y*rt.w+x].flags |= f
 		}
 	}
 }
@@ -341,7 +369,7 @@ func (rt *router) addArm(i int, net int32, bit uint8) {
 }
 
 // setFaded records whether the step east (or south) of cell i is faded.
-func (rt *router) setFaded(i int, f uint8, faded bool) {
+func (rt *router) setFaded(i int, f uint16, faded bool) {
 	if faded {
 		rt.g[i].flags |= f
 	} else {
@@ -349,4 +377,4 @@ func (rt *router) setFaded(i int, f uint8, faded bool) {
 	}
 }
 
-func (rt *router) faded(i int, f uint8) bool { return rt.g[i].flags&f != 0 }
+func (rt *router) faded(i int, f uint16) bool { return rt.g[i].flags&f != 0 }

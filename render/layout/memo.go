@@ -11,10 +11,11 @@ import (
 // took off its queue) is a function of what it reads: its window's size,
 // where the pin and the tree's box stand in it, whether crossings cost
 // their wide price, and the grid within three steps of the window (the
-// in-line test looks three steps on, the crowding test one step aside). Of
+// in-line test looks three steps on, the crowding, pin tip and junction
+// tests one step aside). Of
 // a grid point it reads only whether each net there, and the net reserved
 // there, is its own, another or none, the arms, and the flags other than
-// the faded ones. The same search comes up again and again: a pair of
+// the faded ones (beside a pin tip is read from the tips themselves). The same search comes up again and again: a pair of
 // crossing nets rerouted in round after round of uncross, every trial
 // layout of the untangle search (one part turned, the rest of the sheet the
 // same), and every row of a page laid out once more with a stretch more or
@@ -78,7 +79,7 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 				continue
 			}
 			g := &row[x]
-			fl := g.flags &^ (fFadedE | fFadedS)
+			fl := byte(g.flags&0x3f) | byte(g.flags&fStub>>2) // the faded flags left out
 			if g.own[0]|g.own[1]|g.resv == 0 && g.arm[0]|g.arm[1] == 0 {
 				b = append(b, fl) // no wire, nothing reserved: most of the grid
 				continue
@@ -92,7 +93,7 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 }
 
 // The key's point codes: a point without wire or reservation is its flags
-// alone (below 0x40: the faded flags are left out); one with them is
+// alone (below 0x80: the faded flags are left out, a stub's is 0x40); one with them is
 // withNets and whose nets are there, then its arms and its flags; a point
 // off the grid is offGrid.
 const (

@@ -431,7 +431,8 @@ func TestQueueOrder(t *testing.T) {
 
 // stepCost is the whole cost of a step as the search adds it up: a plain
 // step, a bend where the direction changes (more where the run it ends
-// stops in line with another net's wire), and the step's extras.
+// stops, or the run it starts begins, in line with another net's wire),
+// and the step's extras.
 func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
 	k := &seek{net: net}
 	k.onGrid(rt)
@@ -439,8 +440,9 @@ func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
 	cost := stepCost + extra
 	if nd != d {
 		cost += bendCost
-		if k.inLineAt(c%rt.w, c/rt.w, d) {
-			cost += inLineCost
+		cost += lineCosts[k.ahead(c%rt.w, c/rt.w, d, inLineReach)]
+		if k.ahead(c%rt.w, c/rt.w, nd^2, closeReach) == inLineClose {
+			cost += closeCost
 		}
 	}
 	return cost, ok

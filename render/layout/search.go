@@ -189,7 +189,7 @@ func (k *seek) expand(c, s0, x, y, d int, g int32) {
 	if y == k.win.y1 {
 		dirs &^= 1 << geom.Down
 	}
-	ended := 0 // 1: the run ending at c is clear, 2: it stops in line
+	ended := int8(-1) // what lies in line ahead of the run ending at c (looked up once)
 	for ; dirs != 0; dirs &= dirs - 1 {
 		nd := bits.TrailingZeros8(dirs) & 3
 		ns := s0 + k.stateAt[nd] + nd
@@ -204,15 +204,14 @@ func (k *seek) expand(c, s0, x, y, d int, g int32) {
 		}
 		if nd != d && c != k.pinCell {
 			// the run ending here in line with another net's wire
-			// across a short gap (looked up once per point)
-			if ended == 0 {
-				ended = 1
-				if k.inLineAt(x, y, d) {
-					ended = 2
-				}
+			// across a short gap, and the run starting here with its
+			// back to one
+			if ended < 0 {
+				ended = k.ahead(x, y, d, inLineReach)
 			}
-			if ended == 2 {
-				least += inLineCost
+			least += lineCosts[ended]
+			if k.ahead(x, y, nd^2, closeReach) == inLineClose {
+				least += closeCost
 			}
 		}
 		nx, ny := x+dirStep[nd][0], y+dirStep[nd][1]
@@ -244,6 +243,12 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 		if g.own[1] != 0 || g.arm[0]&(1<<(nd^2)) != 0 || bits.OnesCount8(g.arm[0]) >= 3 {
 			return 0, false
 		}
+		if bits.OnesCount8(g.arm[0]) == 2 && k.crossingBeside(n, nx, ny) {
+			extra += dotCost // a new junction beside a crossing
+		}
+		if g.arm[0]&(1<<nd) == 0 && k.ahead(nx, ny, nd, closeReach) == inLineClose {
+			extra += closeCost // the wire's last run points on at another net's end
+		}
 	} else {
 		if g.flags&(fBlocked|fPin) != 0 || (g.resv != 0 && g.resv != net) {
 			return 0, false
@@ -254,6 +259,12 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 				return 0, false
 			}
 			extra += k.cross
+			if k.junctionBeside(n, nx, ny) {
+				extra += dotCost
+			}
+		}
+		if g.flags&fNearPin != 0 && k.foreignTipBeside(nx, ny) {
+			extra += tipCost
 		}
 	}
 	// crowded: along a frame edge, or beside another net's wire running the
@@ -282,25 +293,43 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 	return extra, true
 }
 
-// inLineAt says whether another net's wire runs along direction d's axis
-// within inLineReach steps of point (x, y) that way, with no symbol between.
-func (k *seek) inLineAt(x, y, d int) bool {
+// What lies in line beyond the end of a run, as ahead finds it.
+var lineCosts = [3]int32{0, inLineCost, closeCost}
+
+const (
+	inLineClear = iota
+	inLineFar   // another net's wire running the same way, inLineReach steps on
+	inLineClose // another net's wire, terminal or stub, closeReach steps on or less
+)
+
+// ahead says what lies in line beyond point (x, y) in direction d, up to
+// reach steps on, with no symbol between: within closeReach steps any other
+// net's wire (along or across: a run stopping a step short of a wire reads
+// as a T into it), pin tip or local symbol's stub is close; further, a wire
+// running along d's axis is far.
+func (k *seek) ahead(x, y, d, reach int) int8 {
 	along, net := alongArms[d], k.net
 	dx, dy := dirStep[d][0], dirStep[d][1]
-	for i := 1; i <= inLineReach; i++ {
+	for i := 1; i <= reach; i++ {
 		x, y = x+dx, y+dy
 		if x < 0 || y < 0 || x >= k.w || y >= k.h {
-			return false
+			return inLineClear
 		}
 		g := &k.grid[y*k.w+x]
-		if g.own[0] == net || g.flags&fBlocked != 0 {
-			return false
+		if g.own[0] == net || g.own[1] == net {
+			return inLineClear
+		}
+		if i <= closeReach && (g.flags&fStub != 0 || g.own[0] != 0 || (g.flags&fPin != 0 && g.resv != net)) {
+			return inLineClose
+		}
+		if g.flags&fBlocked != 0 {
+			return inLineClear
 		}
 		if g.runsAlong(along, net) {
-			return true
+			return inLineFar
 		}
 	}
-	return false
+	return inLineClear
 }
 
 // path lists the cells from the pin (state start) to state s, both
@@ -322,4 +351,51 @@ func (rt *router) path(k *seek, s, start int) []int {
 		out[i], out[j] = out[j], out[i]
 	}
 	return out
+}
+
+// around calls f on the grid indices of the up to eight points round n (at
+// nx, ny) until it returns true.
+func (k *seek) around(n, nx, ny int, f func(g *gridCell) bool) bool {
+	for dy := -1; dy <= 1; dy++ {
+		if ny+dy < 0 || ny+dy >= k.h {
+			continue
+		}
+		for dx := -1; dx <= 1; dx++ {
+			if (dx != 0 || dy != 0) && nx+dx >= 0 && nx+dx < k.w && f(&k.grid[n+dy*k.w+dx]) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// junctionBeside says whether a crossing at n would stand beside a
+// junction: another net's point with three arms, or any point of the
+// wire's own net (the tree it joins, where a new junction may come).
+func (k *seek) junctionBeside(n, nx, ny int) bool {
+	net := k.net
+	return k.around(n, nx, ny, func(g *gridCell) bool {
+		return g.own[0] == net || g.own[1] == net ||
+			(g.own[0] != 0 && bits.OnesCount8(g.arm[0]) >= 3) || (g.own[1] != 0 && bits.OnesCount8(g.arm[1]) >= 3)
+	})
+}
+
+// crossingBeside says whether a point beside n holds a crossing.
+func (k *seek) crossingBeside(n, nx, ny int) bool {
+	return k.around(n, nx, ny, func(g *gridCell) bool { return g.own[1] != 0 })
+}
+
+// foreignTipBeside says whether a pin tip of another net is a step from
+// point nx, ny.
+func (k *seek) foreignTipBeside(nx, ny int) bool {
+	for _, st := range dirStep {
+		x, y := nx+st[0], ny+st[1]
+		if x < 0 || y < 0 || x >= k.w || y >= k.h {
+			continue
+		}
+		if g := &k.grid[y*k.w+x]; g.flags&fPin != 0 && g.resv != k.net {
+			return true
+		}
+	}
+	return false
 }
