@@ -64,12 +64,24 @@ func (c *Circuit) ReturnOf(pin Pin) *Net {
 // that rail's name; one whose DC paths reach device electrodes and only
 // control ones (a base bias and AGC line) carries no supply current: it
 // takes the bias role and is named a bias line, never after the supply it
-// is fed from. The first feed by part ref
-// wins; it reports whether it marked.
+// is fed from. A line a detector feeds through a resistor that biases a
+// controlled stage is the AGC line (AGCFeed): bias role, "AGC line", fed
+// from the detector's net. The first feed by part ref wins; it reports
+// whether it marked.
 func (c *Circuit) MarkDecoupled(net string) bool {
 	n := c.Net(net)
 	if n == nil || n.Role != Signal {
 		return false
+	}
+	if det, _, ok := c.AGCFeed(net); ok {
+		// a detector feeds it and it biases a controlled stage: the AGC
+		// line, whatever rail a standing-bias resistor also brings in
+		c.journal().saveNet(net)
+		n.Role, n.Fed = Bias, det
+		if n.Label == "" {
+			n.Label = "AGC line"
+		}
+		return true
 	}
 	var from *Net
 	via := ""

@@ -161,13 +161,16 @@ C3 = { c = "47n", pins = ["gb", "gnd"] }
 // winding), or that a bias rail feeds, sets a bias: it is a bias line, not
 // a supply line, and its tag must not name the battery it is fed from
 // (a blind review's IF strip tagged its AGC line "battery … +0.72 V").
+// Fed through R2 from the detector D1's load, agc is the AGC line and is
+// tagged so (graph.Circuit.AGCFeed), though R1 brings a standing bias from
+// the battery.
 // A line that feeds a collector through its load stays a supply line.
 func TestMarkDecoupledBiasLine(t *testing.T) {
 	for _, tc := range []struct {
 		net, label string
 		role       Role
 	}{
-		{"agc", "bias via R1", Bias},
+		{"agc", "AGC line", Bias},
 		{"cd", "battery via R3", Supply},
 		{"gb", "vb via R5", Bias},
 	} {

@@ -78,6 +78,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	if reduced == nil {
 		return nil, errors.New("stages: no circuit to recognise")
 	}
+	full := withAGCLines(o.Full, reduced)
 	reduced = withDetectorLoads(reduced, o.Full)
 	lib := o.Library
 	if lib == nil {
@@ -104,7 +105,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	budget := &limit
 	var orig *world
 	if o.Full != nil {
-		orig = newWorldJoined(o.Full, false, acg, switchJoins(o.Full))
+		orig = newWorldJoined(full, false, acg, switchJoins(full))
 		orig.op = o.DC
 	}
 	loopCircuit := o.Full
@@ -117,7 +118,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	var power []*found
 	var errPow error
 	if o.Full != nil && errSig == nil {
-		power, errPow = recognise(o.Full, lib, true, nil, nil, o.DC, budget)
+		power, errPow = recognise(full, lib, true, nil, nil, o.DC, budget)
 	}
 	held := heldOnOriginal(power)
 	folded := foldShunts(reduced, acg, signal, order, held)

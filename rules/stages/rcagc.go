@@ -29,7 +29,7 @@ func calcAGCLine(x *figCtx) {
 	if from == line {
 		from = r.NetOf("2")
 	}
-	if line == "" || !fedByDetector(x.w.c, from) || !reachesControl(x.w.c, line, r.Ref) {
+	if line == "" || !detectorToLine(x.w.c, from, line, r.Ref) || !reachesControl(x.w.c, line, r.Ref) {
 		return // not the detector's output, or a line that biases no grid or base: no figures, the guard drops it
 	}
 	formula := &figure.Figure{Name: "tau", Unit: figure.Second, Value: r.Value.Max * c.Capacitance(0.5), Origin: byTau}
@@ -52,34 +52,6 @@ func sharedNet(a, b *graph.Part) string {
 		}
 	}
 	return ""
-}
-
-// fedByDetector tells whether a diode sits on net, or on the far end of a
-// winding from it (the load in the cold end of the IF winding).
-func fedByDetector(c *graph.Circuit, net string) bool {
-	diodeOn := func(n string) bool {
-		for _, cn := range c.ConnsOf(n) {
-			if cn.Part.Kind == graph.Diode || cn.Part.Kind == graph.Valve && !cn.Part.IsActive() {
-				return true
-			}
-		}
-		return false
-	}
-	if diodeOn(net) {
-		return true
-	}
-	for _, cn := range c.ConnsOf(net) {
-		if cn.Part.Kind != graph.Transformer {
-			continue
-		}
-		for _, w := range cn.Part.Windings {
-			ends := [2]string{cn.Part.NetOf(w.Name + "1"), cn.Part.NetOf(w.Name + "2")}
-			if ends[0] == net && diodeOn(ends[1]) || ends[1] == net && diodeOn(ends[0]) {
-				return true
-			}
-		}
-	}
-	return false
 }
 
 // solvedLag is the time constant of the low-pass from one net to another
@@ -152,7 +124,16 @@ func (x *figCtx) agcConfirmed(rs, cs []*graph.Part) bool {
 	if from == line {
 		from = r.NetOf(r.Pins[1].Name)
 	}
-	return fedByDetector(c, from) && reachesControl(c, line, r.Ref)
+	return detectorToLine(c, from, line, r.Ref) && reachesControl(c, line, r.Ref)
+}
+
+// detectorToLine tells whether resistor r runs from a detector's DC output
+// to a line after it: from carries the detector's output (its load, or the
+// far end of the IF filter after it: graph.Circuit.DetectorFeeds, never
+// counting r itself) and the line has no detector on it, so the pair does
+// not run backwards from the IF filter onto the detector's own load.
+func detectorToLine(c *graph.Circuit, from, line, r string) bool {
+	return c.DetectorFeeds(from, r) && !c.DetectorOn(line)
 }
 
 // reachesControl walks from net through the parts that pass DC (resistors,
@@ -206,6 +187,55 @@ func dcEnds(p *graph.Part, pin string) []string {
 			case w.To:
 				out = append(out, p.NetOf(w.From))
 			}
+		}
+	}
+	return out
+}
+
+// withAGCLines is full with each net the reduction took for an AGC line
+// (graph.Circuit.AGCFeed: it marked the net a bias rail fed from the
+// detector as it tied it to AC ground) given the bias role an AGC line
+// declared in the netlist has, so that on the circuit as drawn the AGC
+// filter is found on it (patterns/agc-line-filter.toml) and the detector
+// gives up its feed resistor, whether or not the netlist declares the
+// line. full is copied only when there is a line to mark.
+func withAGCLines(full, reduced *graph.Circuit) *graph.Circuit {
+	if full == nil || reduced == nil {
+		return full
+	}
+	bias := map[string]bool{}
+	for _, list := range [][]*graph.Net{reduced.Nets, reduced.Rails} {
+		for _, n := range list {
+			if n.Role == graph.Bias {
+				bias[n.Name] = true
+			}
+		}
+	}
+	var lines []*graph.Net
+	for _, list := range [][]*graph.Net{reduced.Nets, reduced.Rails} {
+		for _, n := range list {
+			if n.Role != graph.Bias || n.Fed == "" || bias[n.Fed] {
+				// not a line, or one fed from the line (a grid's or base's
+				// decoupled feed), which stays as drawn: the solver's time
+				// constant of the line counts the capacitors there
+				continue
+			}
+			if fn := full.Net(n.Name); fn != nil && fn.Role == graph.Signal {
+				if _, _, ok := full.AGCFeed(n.Name); ok {
+					lines = append(lines, n)
+				}
+			}
+		}
+	}
+	if len(lines) == 0 {
+		return full
+	}
+	out := full.Clone()
+	for _, n := range lines {
+		fn := out.Net(n.Name)
+		fn.Role = graph.Bias
+		if fn.Label == "" {
+			fn.Label = n.Label
 		}
 	}
 	return out

@@ -96,6 +96,22 @@ func (x *figCtx) feedsStage(net int, skip int) *graph.Part {
 	return dev
 }
 
+// onAGCLine tells whether a net is an AGC line: a bias net with no volts
+// of its own, or one a detector feeds through a resistor that biases a
+// controlled stage (graph.Circuit.AGCFeed). A section into or out of it
+// (a standing-bias resistor from a rail and the line's capacitor, the
+// line's decoupling at a winding's cold end) carries a control voltage,
+// no supply current.
+func (x *figCtx) onAGCLine(id int) bool {
+	name := x.w.names[id]
+	if x.w.role[id] == graph.Bias {
+		n := x.w.c.Net(name)
+		return n == nil || n.Volts == 0
+	}
+	_, _, ok := x.w.c.AGCFeed(name)
+	return ok
+}
+
 // notRail lets a walk into any net but a declared supply.
 func (x *figCtx) notRail(id int) bool { return x.w.role[id] != graph.Supply }
 
@@ -194,6 +210,9 @@ func (x *figCtx) supplyFilterNets(s *graph.Part) (in, out int, dev *graph.Part, 
 	}
 	if x.feeds(out) > x.feeds(in) {
 		in, out, swapped = out, in, true
+	}
+	if x.onAGCLine(in) || x.onAGCLine(out) {
+		return 0, 0, nil, false, false
 	}
 	if !x.reachesSource(in, si) {
 		return 0, 0, nil, false, false
