@@ -102,12 +102,11 @@ func eachAtOnce(n int, fn func(i int)) {
 // (endsInLine, 186 when learned) and crossings under two steps from a
 // junction dot of either net (nearDots, 92). The router then learned the
 // same rules as costs (a run stopping or starting within two steps in line
-// with another net's wire, pin or stub; a crossing beside a junction; a
-// step beside another net's pin tip): 1076, 180, 10, 114 and 58; 1084
-// and 184 once the valve IF strip's AGC line was found by its wiring (its
-// tag and filter stage move the routes round R3: the AGC wire now passes
-// under the screen feed's loop, in line with it three steps apart).
-var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots int }{1084, 184, 10, 114, 58}
+// with another net's wire, pin or stub; a crossing beside a junction, or a
+// junction made beside one; a step beside another net's pin tip), with the
+// AGC line found by its wiring moving the valve IF strip's routes round its
+// tag and filter stage: 1186, 202, 10, 102 and 40.
+var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots int }{1186, 202, 10, 102, 40}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame

@@ -32,11 +32,12 @@ const (
 	inLineReach = 3
 	// a bend where the wire's run stops, or where its next run starts,
 	// within closeReach steps in line with another net's wire, terminal,
-	// junction or local symbol's stub: the two ends read as one wire (the
-	// blind reviewers read an earth stub running on into the wire a step
-	// beyond it, and an emitter lead stopping a step above another net's
-	// junction, as joined); render/check counts such ends up to two steps
-	// apart even with a part beside the gap
+	// junction or local symbol's stub, or where a wire's last run into its
+	// tree points on at one: the two ends read as one wire (the blind
+	// reviewers read an earth stub running on into the wire a step beyond
+	// it as joined); render/check counts such ends up to two steps apart
+	// even with a part beside the gap. While crossings are removed (wide
+	// windows) it costs no more than inLineCost: a crossing is worse.
 	closeCost  = 15
 	closeReach = 2
 	// a crossing within a step (diagonals too) of a junction of either net,

@@ -440,9 +440,9 @@ func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
 	cost := stepCost + extra
 	if nd != d {
 		cost += bendCost
-		cost += lineCosts[k.ahead(c%rt.w, c/rt.w, d, inLineReach)]
+		cost += k.lines[k.ahead(c%rt.w, c/rt.w, d, inLineReach)]
 		if k.ahead(c%rt.w, c/rt.w, nd^2, closeReach) == inLineClose {
-			cost += closeCost
+			cost += k.lines[inLineClose]
 		}
 	}
 	return cost, ok

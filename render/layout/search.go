@@ -92,7 +92,8 @@ type seek struct {
 	grid  []gridCell
 	w, h  int
 	q     *stateQueue
-	cross int32 // a crossing's price: crossCost, or wideCrossCost
+	cross int32    // a crossing's price: crossCost, or wideCrossCost
+	lines [3]int32 // a run's end's price by what lies in line beyond it
 }
 
 // search is A* from a pending pin to the net's tree, inside a window of the
@@ -158,9 +159,11 @@ func (rt *router) astar(k *seek, p wirePin) []int {
 // onGrid points the search at the router's grid and crossing price.
 func (k *seek) onGrid(rt *router) {
 	k.grid, k.w, k.h = rt.g, rt.w, rt.h
-	k.cross = crossCost
+	k.cross, k.lines = crossCost, lineCosts
 	if rt.wide {
-		k.cross = wideCrossCost
+		// removing a crossing comes first: a wire may end in line
+		// close to another rather than cross it
+		k.cross, k.lines = wideCrossCost, [3]int32{0, inLineCost, inLineCost}
 	}
 }
 
@@ -209,9 +212,9 @@ func (k *seek) expand(c, s0, x, y, d int, g int32) {
 			if ended < 0 {
 				ended = k.ahead(x, y, d, inLineReach)
 			}
-			least += lineCosts[ended]
+			least += k.lines[ended]
 			if k.ahead(x, y, nd^2, closeReach) == inLineClose {
-				least += closeCost
+				least += k.lines[inLineClose]
 			}
 		}
 		nx, ny := x+dirStep[nd][0], y+dirStep[nd][1]
@@ -247,7 +250,7 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 			extra += dotCost // a new junction beside a crossing
 		}
 		if g.arm[0]&(1<<nd) == 0 && k.ahead(nx, ny, nd, closeReach) == inLineClose {
-			extra += closeCost // the wire's last run points on at another net's end
+			extra += k.lines[inLineClose] // the wire's last run points on at another net's end
 		}
 	} else {
 		if g.flags&(fBlocked|fPin) != 0 || (g.resv != 0 && g.resv != net) {
@@ -303,10 +306,11 @@ const (
 )
 
 // ahead says what lies in line beyond point (x, y) in direction d, up to
-// reach steps on, with no symbol between: within closeReach steps any other
-// net's wire (along or across: a run stopping a step short of a wire reads
-// as a T into it), pin tip or local symbol's stub is close; further, a wire
-// running along d's axis is far.
+// reach steps on, with no symbol between: within closeReach steps another
+// net's wire running along d's axis, pin tip or local symbol's stub is
+// close; further, such a wire is far. (A wire across the line within
+// closeReach was priced too, as a T the run seems to make into it: the
+// detours that drew crossed the wires of a planar mixer stage.)
 func (k *seek) ahead(x, y, d, reach int) int8 {
 	along, net := alongArms[d], k.net
 	dx, dy := dirStep[d][0], dirStep[d][1]
@@ -319,7 +323,7 @@ func (k *seek) ahead(x, y, d, reach int) int8 {
 		if g.own[0] == net || g.own[1] == net {
 			return inLineClear
 		}
-		if i <= closeReach && (g.flags&fStub != 0 || g.own[0] != 0 || (g.flags&fPin != 0 && g.resv != net)) {
+		if i <= closeReach && (g.flags&fStub != 0 || g.runsAlong(along, net) || (g.flags&fPin != 0 && g.resv != net)) {
 			return inLineClose
 		}
 		if g.flags&fBlocked != 0 {
