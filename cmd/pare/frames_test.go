@@ -105,8 +105,10 @@ func eachAtOnce(n int, fn func(i int)) {
 // with another net's wire, pin or stub; a crossing beside a junction, or a
 // junction made beside one; a step beside another net's pin tip), with the
 // AGC line found by its wiring moving the valve IF strip's routes round its
-// tag and filter stage: 1186, 202, 10, 102 and 40.
-var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots int }{1186, 202, 10, 102, 40}
+// tag and filter stage: 1186, 202, 10, 102 and 40. Joined with the supply
+// drawn in its flow and the active stages named by their work (their frames
+// move the routes): 1170, 194, 10, 106 and 36.
+var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots int }{1170, 194, 10, 106, 36}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
