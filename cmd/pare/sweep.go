@@ -91,9 +91,9 @@ func runSweep(e *env, o *sweepOpts, args []string) int {
 		return exitBad
 	}
 	if o.impedance {
-		sw.h, err = ac.Impedance(c, sw.from, sw.freqs, setting)
+		sw.h, sw.lost, err = ac.ImpedanceChecked(c, sw.from, sw.freqs, setting)
 	} else {
-		sw.h, err = ac.Transfer(c, sw.from, sw.to, sw.freqs, setting)
+		sw.h, sw.lost, err = ac.TransferChecked(c, sw.from, sw.to, sw.freqs, setting)
 	}
 	if err != nil {
 		fmt.Fprintf(e.stderr, "pare sweep: %s: %v\n", path, err)
@@ -119,7 +119,22 @@ type sweep struct {
 	chosen   []string // what pare chose for a net the file does not declare, said before the table
 	freqs    []float64
 	h        []complex128
+	lost     []ac.Beyond // points whose figure is beyond the solve's resolution
 }
+
+// anyLost tells whether some point is beyond the solve's resolution.
+func (sw *sweep) anyLost() bool {
+	for _, l := range sw.lost {
+		if l.Lost {
+			return true
+		}
+	}
+	return false
+}
+
+// belowDB is a lost point's bound as printed: whole decibels, rounded up
+// so that it stays a bound.
+func belowDB(l ac.Beyond) string { return strconv.FormatFloat(math.Ceil(l.BelowDB), 'f', 0, 64) }
 
 // sweepSpan picks the nets (the first input and output unless given) and
 // the frequencies: --band, or the bands of the driven net. A non-empty
@@ -184,18 +199,34 @@ func sweepSpan(c *graph.Circuit, path string, o *sweepOpts) (*sweep, string) {
 	return sw, ""
 }
 
+// sweepCSV prints the sweep as comma-separated values. Where some point is
+// beyond the solve's resolution a fourth column, below_db, holds its bound
+// (its magnitude and phase are left empty), and is empty on the others; a
+// sweep resolved throughout has the three columns only.
 func sweepCSV(b *bytes.Buffer, sw *sweep, impedance bool) {
+	head := "freq_hz,mag_db,phase_deg"
 	if impedance {
-		fmt.Fprintln(b, "freq_hz,mag_ohm,phase_deg")
-	} else {
-		fmt.Fprintln(b, "freq_hz,mag_db,phase_deg")
+		head = "freq_hz,mag_ohm,phase_deg"
 	}
+	lost := sw.anyLost()
+	if lost {
+		head += ",below_db"
+	}
+	fmt.Fprintln(b, head)
 	for i, f := range sw.freqs {
+		if lost && sw.lost[i].Lost {
+			fmt.Fprintf(b, "%s,,,%s\n", g(f, 9), belowDB(sw.lost[i]))
+			continue
+		}
 		m := cmplx.Abs(sw.h[i])
 		if !impedance {
 			m = dB(sw.h[i])
 		}
-		fmt.Fprintf(b, "%s,%s,%s\n", g(f, 9), g(m, 9), g(phaseDeg(sw.h[i]), 7))
+		tail := "\n"
+		if lost {
+			tail = ",\n"
+		}
+		fmt.Fprintf(b, "%s,%s,%s%s", g(f, 9), g(m, 9), g(phaseDeg(sw.h[i]), 7), tail)
 	}
 }
 
@@ -222,14 +253,39 @@ func sweepTable(b *bytes.Buffer, c *graph.Circuit, path string, sw *sweep, o *sw
 	if o.impedance {
 		fmt.Fprintf(b, "%14s  %14s  %10s  %10s\n", "frequency", "|Z|", "dB re 1 Ω", "phase °")
 		for i, f := range sw.freqs {
+			if sw.lost[i].Lost {
+				fmt.Fprintf(b, "%14s  %14s  %10s  %10s\n", ac.FormatHz(f), "unresolved", "< "+belowDB(sw.lost[i]), "")
+				continue
+			}
 			fmt.Fprintf(b, "%14s  %14s  %10.3f  %10.2f\n", ac.FormatHz(f), value.Format(cmplx.Abs(sw.h[i]), value.Ohm, value.Symbol), dB(sw.h[i]), phaseDeg(sw.h[i]))
 		}
+		lostNote(b, sw)
 		return
 	}
 	fmt.Fprintf(b, "%14s  %10s  %10s\n", "frequency", "dB", "phase °")
 	for i, f := range sw.freqs {
+		if sw.lost[i].Lost {
+			fmt.Fprintf(b, "%14s  %10s  %10s\n", ac.FormatHz(f), "< "+belowDB(sw.lost[i]), "unresolved")
+			continue
+		}
 		fmt.Fprintf(b, "%14s  %10.3f  %10.2f\n", ac.FormatHz(f), dB(sw.h[i]), phaseDeg(sw.h[i]))
 	}
+	lostNote(b, sw)
+}
+
+// lostNote says, under a table with points beyond the solve's resolution,
+// what their rows mean.
+func lostNote(b *bytes.Buffer, sw *sweep) {
+	n := 0
+	for _, l := range sw.lost {
+		if l.Lost {
+			n++
+		}
+	}
+	if n == 0 {
+		return
+	}
+	fmt.Fprintf(b, "%d of %d points are beyond the solver's resolution: the response there is too small for double precision (the solve underflows), so no magnitude or phase is given, only a bound (\"< -N\": below -N dB)\n", n, len(sw.freqs))
 }
 
 func atLabel(s string) string {

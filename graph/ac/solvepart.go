@@ -42,10 +42,18 @@ func (s *system) solveRHSFrom(f float64, from int) error {
 	if len(s.bound) != s.n {
 		s.bound = make([]float64, s.n)
 	}
-	if s.f.solvePart(s.b, s.y, from, s.bound) {
-		return nil
+	if s.watch != nil {
+		s.watch.keep(s.b)
 	}
-	return s.finite(f)
+	if !s.f.solvePart(s.b, s.y, from, s.bound) {
+		if err := s.finite(f); err != nil {
+			return err
+		}
+	}
+	if s.watch != nil {
+		s.watch.check(s, from)
+	}
+	return nil
 }
 
 // lowestStep is the lowest factorisation step of the unknowns of nodes

@@ -150,6 +150,9 @@ func (s *system) twin() *system {
 	t.b = make([]complex128, len(s.b))
 	t.y = make([]complex128, len(s.y))
 	t.bound = nil
+	if s.watch != nil {
+		t.watch = &watch{}
+	}
 	t.vals = append([]complex128(nil), s.vals...)
 	f := *s.f
 	f.lx = append([]complex128(nil), s.f.lx...)

@@ -81,6 +81,7 @@ type system struct {
 	vals   []complex128 // coefficient values at the current frequency
 	fixed  *statics     // solveAt's constant sums, from its first call
 	bound  []float64    // solveRHSFrom's scratch
+	watch  *watch       // the check of what the solve resolves (resolution.go); nil: none
 }
 
 const (
@@ -492,6 +493,13 @@ func Transfer(c *graph.Circuit, in, out string, freqs []float64, o Options) ([]c
 
 // transferMany solves once per frequency for several outputs.
 func transferMany(c *graph.Circuit, in string, outs []string, freqs []float64, o Options) ([][]complex128, error) {
+	return transferWatched(c, in, outs, freqs, o, nil)
+}
+
+// transferWatched is transferMany that, given lost (one slice of len(freqs)
+// per output), also says at each point whether the solve resolves each
+// output (resolution.go).
+func transferWatched(c *graph.Circuit, in string, outs []string, freqs []float64, o Options, lost [][]Beyond) ([][]complex128, error) {
 	nl, err := elaborate(c, o)
 	if err != nil {
 		return nil, err
@@ -522,9 +530,15 @@ func transferMany(c *graph.Circuit, in string, outs []string, freqs []float64, o
 	for i := range res {
 		res[i] = make([]complex128, len(freqs))
 	}
+	if lost != nil {
+		s.watch = &watch{}
+	}
 	err = sweepPoints(s, freqs, s.lowestStep(outNodes), nil, func(k int, s *system) {
 		for i, n := range outNodes {
 			res[i][k] = s.voltage(n)
+			if lost != nil {
+				lost[i][k] = s.beyond(n)
+			}
 		}
 	})
 	if err != nil {
@@ -550,6 +564,12 @@ func otherInputs(c *graph.Circuit, nl *netlist, skip int) []int {
 // voltage a 1 A source into net produces, with the circuit's other declared
 // inputs held at 0 V by their ideal sources and nothing else driven.
 func Impedance(c *graph.Circuit, net string, freqs []float64, o Options) ([]complex128, error) {
+	return impedance(c, net, freqs, o, nil)
+}
+
+// impedance is Impedance that, given lost (of len(freqs)), also says at
+// each point whether the solve resolves it (resolution.go).
+func impedance(c *graph.Circuit, net string, freqs []float64, o Options, lost []Beyond) ([]complex128, error) {
 	nl, err := elaborate(c, o)
 	if err != nil {
 		return nil, err
@@ -574,7 +594,15 @@ func Impedance(c *graph.Circuit, net string, freqs []float64, o Options) ([]comp
 		clear(s.b)
 		s.b[s.unk[n]] = 1
 	}
-	err = sweepPoints(s, freqs, s.lowestStep([]int{n}), drive, func(k int, s *system) { out[k] = s.voltage(n) })
+	if lost != nil {
+		s.watch = &watch{}
+	}
+	err = sweepPoints(s, freqs, s.lowestStep([]int{n}), drive, func(k int, s *system) {
+		out[k] = s.voltage(n)
+		if lost != nil {
+			lost[k] = s.beyond(n)
+		}
+	})
 	if err != nil {
 		return nil, err
 	}
