@@ -38,11 +38,14 @@ import (
 // is not looked for: the factors' rounding would need a second solve at
 // every point, which the sweep's speed does not leave room for.
 
-// tinyLevel: a value in the work vector at or below it may have met
-// underflow in a product with an LU entry (MNA entries, conductances and
-// susceptances, span far less than the 2¹²² between it and the smallest
-// normal number).
-const tinyLevel = 0x1p-900
+// tinyLevel: a value in the work vector with both parts below it may have
+// met underflow in a product with an LU entry (MNA entries, conductances
+// and susceptances, span far less than the 2¹²² between it and the
+// smallest normal number). It is boundFloor, below which the bound of the
+// partial solve (solvepart.go) raises every modulus: that pass sees each
+// value of the forward pass already, and notes a tiny one at the cost of a
+// comparison.
+const tinyLevel = boundFloor
 
 // resolvedRel is how close the two solves must agree, relative to the
 // unknown, for it to count as resolved: 2⁻²⁰ (10⁻⁶), below the printed
@@ -87,87 +90,123 @@ func ImpedanceChecked(c *graph.Circuit, net string, freqs []float64, o Options) 
 	return z, lost, nil
 }
 
-// watch is one system's check: the point's right-hand side, the scaled
-// solve's space and its result.
+// watch is one system's check: what the solve overwrites of the point's
+// right-hand side, what the solve held, and the scaled solve's space and
+// result.
 type watch struct {
-	b0, b2, y2 []complex128
-	shift      int  // the scaling of b2; 0: the point needed no second solve
-	wide       bool // a second solve was needed and no scaling had room
+	saved  []complex128 // b at the steps read (or all of b when every step is)
+	b2, y2 []complex128
+	from   int  // the lowest step read
+	all    bool // saved is all of b
+	tiny   bool // a nonzero value with both parts at or below tinyLevel was seen
+	gone   bool // the solve took the whole path and b was not saved: no second solve
+	shift  int  // the scaling of b2; 0: not solved again (yet)
+	wide   bool // no scaling had room
 }
 
-// keep saves the right-hand side before the solve overwrites it.
-func (w *watch) keep(b []complex128) { w.b0 = append(w.b0[:0], b...) }
-
-// check runs after the solve of a point (solveRHSFrom, unknowns read at
-// steps from `from` up): when the work vector holds a tiny value, it
-// solves again scaled into b2.
-func (w *watch) check(s *system, from int) {
-	w.shift, w.wide = 0, false
-	top, tiny := span(w.b0, 0, false)
-	top, tiny = span(s.y, top, tiny)
-	if !tiny || top == 0 {
+// keep saves what the solve will overwrite of the right-hand side: the
+// entries of the steps read (the partial solve leaves the rest of b as it
+// was), or all of it when every step is read.
+func (w *watch) keep(s *system, from int) {
+	w.from, w.all = from, from <= 0
+	if w.all {
+		w.saved = append(w.saved[:0], s.b...)
 		return
 	}
+	w.saved = w.saved[:0]
+	for k := from; k < s.f.n; k++ {
+		w.saved = append(w.saved, s.b[s.f.q[k]])
+	}
+}
+
+// check runs after the solve of a point (solveRHSFrom; part: it took the
+// partial path) and notes whether the work vector ran tiny; the second
+// solve is left to beyond, which needs it only for a read unknown that is
+// a normal number.
+func (w *watch) check(s *system, part bool) {
+	w.shift, w.wide = 0, false
+	w.gone = !part && !w.all
+	if part {
+		w.tiny = s.f.tiny
+		return
+	}
+	_, w.tiny = span(s.y, 0, false)
+}
+
+// again solves the point again with the right-hand side times 2^shift
+// into b2 (once a point).
+func (w *watch) again(s *system) {
+	if w.shift != 0 || w.wide {
+		return
+	}
+	f, n := s.f, len(s.b)
+	b2, y2 := fitC(&w.b2, n), fitC(&w.y2, n)
+	if w.all {
+		copy(b2, w.saved)
+	} else {
+		copy(b2, s.b)
+		for k := w.from; k < f.n; k++ {
+			b2[f.q[k]] = w.saved[k-w.from]
+		}
+	}
+	top, _ := span(b2, 0, false)
+	top, _ = span(s.y, top, false)
 	// 100 binary orders of room for the partial sums above the largest
 	// magnitude seen.
 	shift := min(maxShift, math.Ilogb(math.MaxFloat64/top)-100)
-	if shift < minShift {
+	if w.gone || top == 0 || shift < minShift {
 		w.wide = true
 		return
 	}
-	n := len(w.b0)
-	b2, y2 := fitC(&w.b2, n), fitC(&w.y2, n)
-	for i, v := range w.b0 {
+	for i, v := range b2 {
 		b2[i] = complex(math.Ldexp(real(v), shift), math.Ldexp(imag(v), shift))
 	}
-	f := s.f
 	f.forward(b2, y2)
-	f.backward(y2, from)
-	for k := from; k < f.n; k++ {
+	f.backward(y2, w.from)
+	for k := w.from; k < f.n; k++ {
 		b2[f.q[k]] = y2[k]
 	}
 	w.shift = shift
 }
 
 // span is the largest max(|re|,|im|) in v (at least top), and whether any
-// nonzero one is at most tinyLevel (or tiny already).
+// nonzero one is below tinyLevel (or tiny already).
 func span(v []complex128, top float64, tiny bool) (float64, bool) {
 	for _, x := range v {
 		m := max(math.Abs(real(x)), math.Abs(imag(x)))
 		top = max(top, m)
-		if m <= tinyLevel && m != 0 {
+		if m < tinyLevel && m != 0 {
 			tiny = true
 		}
 	}
 	return top, tiny
 }
 
+// minNormalDB is the smallest normal double in dB: a subnormal unknown
+// has lost bits, and one that underflowed is below it.
+var minNormalDB = 20 * math.Log10(0x1p-1022)
+
 // beyond says whether the solved voltage of node is beyond the solve's
 // resolution at the point just solved.
 func (s *system) beyond(node int) Beyond {
 	w, u := s.watch, s.unk[node]
-	if w == nil || u < 0 {
+	if w == nil || u < 0 || !w.tiny {
 		return Beyond{}
 	}
 	x := s.b[u]
-	if w.wide {
-		// No second solve: a subnormal or zero unknown is lost.
-		if m := cmplx.Abs(x); m < 0x1p-1022 {
-			return Beyond{Lost: true, BelowDB: 20 * math.Log10(0x1p-1022)}
-		}
-		return Beyond{}
+	if max(math.Abs(real(x)), math.Abs(imag(x))) < 0x1p-1022 {
+		// Subnormal, or zero after values ran tiny: below the normal
+		// range, with bits lost (an unknown the source does not reach is
+		// zero too; it is told apart only where no value ran tiny).
+		return Beyond{Lost: true, BelowDB: minNormalDB}
 	}
-	if w.shift == 0 {
-		return Beyond{}
+	w.again(s)
+	if w.wide {
+		return Beyond{} // a normal number, and no room to look further
 	}
 	xs := complex(math.Ldexp(real(x), w.shift), math.Ldexp(imag(x), w.shift))
 	m, d := cmplx.Abs(xs), cmplx.Abs(xs-w.b2[u])
-	if m == 0 && d == 0 {
-		// Zero both ways after values ran tiny: it underflowed even at
-		// 2^shift. (An unknown the source does not reach is zero too; it
-		// is told apart only where no value in the solve ran tiny.)
-		d = 0x1p-1074
-	} else if d <= m*resolvedRel {
+	if d <= m*resolvedRel {
 		return Beyond{}
 	}
 	if math.IsNaN(d) || math.IsInf(d, 0) {

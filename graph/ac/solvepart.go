@@ -43,15 +43,16 @@ func (s *system) solveRHSFrom(f float64, from int) error {
 		s.bound = make([]float64, s.n)
 	}
 	if s.watch != nil {
-		s.watch.keep(s.b)
+		s.watch.keep(s, from)
 	}
-	if !s.f.solvePart(s.b, s.y, from, s.bound) {
+	part := s.f.solvePart(s.b, s.y, from, s.bound)
+	if !part {
 		if err := s.finite(f); err != nil {
 			return err
 		}
 	}
 	if s.watch != nil {
-		s.watch.check(s, from)
+		s.watch.check(s, part)
 	}
 	return nil
 }
@@ -95,11 +96,20 @@ func (f *lu) solvePart(b, y []complex128, from int, bound []float64) bool {
 }
 
 // finiteBound runs the back substitution on moduli (modBound, floored at
-// boundFloor) and tells whether every bound stays at most boundLimit.
+// boundFloor) and tells whether every bound stays at most boundLimit. It
+// notes in f.tiny whether the forward pass left a nonzero value with both
+// parts below boundFloor.
 func (f *lu) finiteBound(y []complex128, r []float64) bool {
+	tiny := false
 	for k := 0; k < f.n; k++ {
 		r[k] = modBound(y[k])
+		// Raised to the floor: a nonzero value that low is tiny
+		// (resolution.go).
+		if r[k] == 2*boundFloor && y[k] != 0 {
+			tiny = true
+		}
 	}
+	f.tiny = tiny
 	for k := f.n - 1; k >= 0; k-- {
 		// A product of two floored values may underflow: floored again,
 		// it is still at least the exact one.

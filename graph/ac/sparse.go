@@ -69,6 +69,7 @@ type lu struct {
 	frames []frame
 	gen    int
 	ready  bool
+	tiny   bool // finiteBound's note of a tiny value (resolution.go)
 }
 
 // frame is one level of the depth-first search in reachOf.
