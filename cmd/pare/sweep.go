@@ -45,7 +45,16 @@ The numbers are those of pare's small-signal models (documented in the
 graph/ac package), each transistor and valve taken at the circuit's DC
 operating point where the netlist gives only its characteristic (the same
 bias the main job and the stage figures use; a part left at the model's
-default bias is said on standard error): no overload.`,
+default bias is said on standard error): no overload.
+
+A response too small for double precision (a long ladder's, thousands of
+decibels down: the solve's unknowns underflow) has no figure: its row reads
+"< -N  unresolved", a bound in dB and no phase, and a line under the table
+counts such points. In --csv their magnitude and phase are empty and a
+fourth column, below_db, holds the bound (the column is there only when
+some point needs it). pare finds such points by solving again with the
+source scaled by a power of two, which changes no digit where nothing
+underflowed.`,
 		bind: typed(func(fs *flag.FlagSet, o *sweepOpts) {
 			fs.StringVar(&o.from, "from", "", "driven net (default: the first input; with none declared, the control of the oscillator or of the first active part)")
 			fs.StringVar(&o.to, "to", "", "observed net (default: the first output)")
@@ -134,7 +143,9 @@ func (sw *sweep) anyLost() bool {
 
 // belowDB is a lost point's bound as printed: whole decibels, rounded up
 // so that it stays a bound.
-func belowDB(l ac.Beyond) string { return strconv.FormatFloat(math.Ceil(l.BelowDB), 'f', 0, 64) }
+func belowDB(l ac.Beyond) string {
+	return strconv.FormatFloat(math.Ceil(l.BelowDB), 'f', 0, 64)
+}
 
 // sweepSpan picks the nets (the first input and output unless given) and
 // the frequencies: --band, or the bands of the driven net. A non-empty

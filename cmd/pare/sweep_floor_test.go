@@ -14,9 +14,9 @@ import (
 // every point above about 170 Hz (the smallest numbers a double holds). A
 // point the solve does not resolve now reads as a bound in the table and
 // in CSV (empty magnitude and phase, below_db), and a resolved one keeps
-// its figure: −4863.930 dB at 100 Hz, as ngspice 42 (Debian) prints on
+// its figure: −4863.930 dB at 100 Hz, as ngspice-39 (Debian) prints on
 // pare's deck (−4863.93004 dB) and the ladder's closed form gives
-// (docs/references.md §35).
+// (docs/references.md §36).
 func TestSweepSaysBeyondResolution(t *testing.T) {
 	src, err := synth.Ladder(10000)
 	if err != nil {
@@ -64,7 +64,7 @@ func TestSweepSaysBeyondResolution(t *testing.T) {
 	closed := map[string]float64{"316.227766": -8658.999, "1000": -15430.107}
 	for _, r := range rows[2:] {
 		b, err := strconv.ParseFloat(r[3], 64)
-		// The closed form (§35): −8659.0 dB at 316 Hz, −15430.1 dB at
+		// The closed form (§36): −8659.0 dB at 316 Hz, −15430.1 dB at
 		// 1 kHz; the bound lies between it and the smallest normal double.
 		if r[1] != "" || r[2] != "" || err != nil || b > -6153 || b < closed[r[0]] {
 			t.Errorf("row %v: want empty magnitude and phase and a bound below -6153 dB", r)

@@ -16,7 +16,7 @@ import (
 // matrix is M = [[1+ZY, Z], [Y, 1]]; with det M = 1 its eigenvalues are
 // e^±γ, cosh γ = 1 + ZY/2, and the A element of Mⁿ is
 // ((1+ZY)·sinh nγ − sinh (n−1)γ)/sinh γ = V(in)/V(out) (two-port cascade
-// and image-parameter theory, common practice; docs/references.md §35).
+// and image-parameter theory, common practice; docs/references.md §36).
 func ladderDB(n int, r, c, f float64) (float64, float64) {
 	zy := complex(0, 2*math.Pi*f*r*c)
 	g := cmplx.Acosh(1 + zy/2)
@@ -39,7 +39,7 @@ func ladderDB(n int, r, c, f float64) (float64, float64) {
 // the sweep's printed digits, and one it does not hold is said to be beyond
 // the solve's resolution with a bound above the closed form, where the
 // solve used to print the smallest numbers a double has (−6159.074 dB at
-// 200 Hz on 10,000 sections) with a phase that was rounding. ngspice 42
+// 200 Hz on 10,000 sections) with a phase that was rounding. ngspice-39
 // (Debian) on `pare spice` of the 10,000-section ladder, `ac lin 1 F F`:
 // −1533.63053 dB, −1.3203394 rad at 10 Hz; −4863.93004 dB at 100 Hz;
 // −6125.82084 dB at 158.489319 Hz (the same figures); −6449.22 dB at
