@@ -78,9 +78,7 @@ func pushPullPairs(c *graph.Circuit) [][]string {
 			if a.Kind != b.Kind {
 				continue
 			}
-			ca, cb := pinNet(a, commonPins), pinNet(b, commonPins)
-			shared := ca != "" && ca == cb && !c.RoleOf(ca).IsACGround()
-			if !shared && oneWinding(c, pinNet(a, controlPins), pinNet(b, controlPins)) == nil {
+			if !drivenTogether(c, a, b) {
 				continue
 			}
 			if t := oneWinding(c, pinNet(a, outputPins), pinNet(b, outputPins)); t != nil {
@@ -91,8 +89,61 @@ func pushPullPairs(c *graph.Circuit) [][]string {
 	return out
 }
 
-// oneWinding is a transformer with pins on both nets, two different nets
-// that carry signal, nil when there is none.
+// drivenTogether says whether two active parts are driven as the halves
+// of one pair: they share an emitter or cathode net that is not at AC
+// ground (a long tail, a shared cathode resistor), their control
+// electrodes are on the two ends of one winding (a centre-tapped driver
+// secondary), or each control electrode is fed, directly or through one
+// capacitor, from another electrode of one third device (a phase
+// splitter's anode and cathode).
+func drivenTogether(c *graph.Circuit, a, b *graph.Part) bool {
+	ca, cb := pinNet(a, commonPins), pinNet(b, commonPins)
+	if ca != "" && ca == cb && !c.RoleOf(ca).IsACGround() {
+		return true
+	}
+	ga, gb := pinNet(a, controlPins), pinNet(b, controlPins)
+	if oneWinding(c, ga, gb) != nil {
+		return true
+	}
+	fa, fb := feeders(c, ga), feeders(c, gb)
+	for k, pa := range fa {
+		if pb, ok := fb[k]; ok && pa != pb {
+			return true
+		}
+	}
+	return false
+}
+
+// feeders are the active parts whose electrodes reach a net directly or
+// through one capacitor, by ref, each with the electrode's pin name.
+func feeders(c *graph.Circuit, n string) map[string]string {
+	out := map[string]string{}
+	if n == "" || c.RoleOf(n).IsACGround() {
+		return out
+	}
+	var walk func(net string, hop bool)
+	walk = func(net string, hop bool) {
+		for _, cn := range c.ConnsOf(net) {
+			p := cn.Part
+			switch {
+			case p.IsActive() && !controlPins[cn.Pin]:
+				out[p.Ref] = cn.Pin
+			case hop && p.Kind == graph.Capacitor && len(p.Pins) == 2:
+				for _, pn := range p.Pins {
+					if pn.Net != net && !c.RoleOf(pn.Net).IsACGround() {
+						walk(pn.Net, false)
+					}
+				}
+			}
+		}
+	}
+	walk(n, true)
+	return out
+}
+
+// oneWinding is a transformer with the two ends of one winding (pins named
+// alike but for a closing 1 and 2) on two different nets that carry
+// signal, nil when there is none.
 func oneWinding(c *graph.Circuit, n1, n2 string) *graph.Part {
 	if n1 == "" || n2 == "" || n1 == n2 || c.RoleOf(n1).IsACGround() || c.RoleOf(n2).IsACGround() {
 		return nil
@@ -103,12 +154,22 @@ func oneWinding(c *graph.Circuit, n1, n2 string) *graph.Part {
 			continue
 		}
 		for _, pn := range t.Pins {
-			if pn.Net == n2 {
+			if pn.Net == n2 && windingEnds(cn.Pin, pn.Name) {
 				return t
 			}
 		}
 	}
 	return nil
+}
+
+// windingEnds says whether two pin names are the two ends of one winding
+// (p1 and p2, s1 and s2; a tap is pt).
+func windingEnds(x, y string) bool {
+	if len(x) < 2 || len(x) != len(y) || x[:len(x)-1] != y[:len(y)-1] {
+		return false
+	}
+	e := x[len(x)-1:] + y[len(y)-1:]
+	return e == "12" || e == "21"
 }
 
 // acrossMax is the most parts a network across a loudspeaker holds: a
