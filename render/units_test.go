@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/render/geom"
 )
 
 // TestUnitsByWiring: the groups a page cut must not separate are found by
@@ -114,5 +115,69 @@ R2 = { r = "10k", pins = ["spk", "in"] }
 		if got := units(c); !reflect.DeepEqual(got, tc.want) {
 			t.Errorf("%s: units %v, want %v", tc.name, got, tc.want)
 		}
+	}
+}
+
+// TestUnitsOneStretch: the stretches a sheet is cut between keep a unit in
+// one, however the frames and the whole sheet's placement split it: halves
+// of a pair framed as two stages with the bias network placed between
+// them, and a Zobel placed left of the stage before its loudspeaker (a
+// branch hung on a later stretch, which branchesBeside leaves in place).
+// On the six-transistor set the review found Q6 a page after Q5, and the
+// Zobel a page away from its loudspeaker, both by such placements.
+func TestUnitsOneStretch(t *testing.T) {
+	c, err := graph.Parse("classb.toml", []byte(`
+band = "60..8k"
+inputs = ["in"]
+outputs = ["spk"]
+[nets]
+vcc = { role = "supply", volts = 9 }
+[parts]
+T1 = { windings = { p = "3", s = ["0.4", "0.4"] }, k = 0.95, pins = { p1 = "vcc", p2 = "in", s1 = "b1", st = "bias", s2 = "b2" } }
+R1 = { r = "100", pins = ["bias", "gnd"] }
+C1 = { c = "100u", pins = ["bias", "gnd"] }
+Q1 = { bjt = "npn", pins = { b = "b1", c = "c1", e = "e1" } }
+Q2 = { bjt = "npn", pins = { b = "b2", c = "c2", e = "e2" } }
+R2 = { r = "2R2", pins = ["e1", "gnd"] }
+R3 = { r = "2R2", pins = ["e2", "gnd"] }
+T2 = { windings = { p = ["0.1", "0.1"], s = "8m" }, k = 0.98, pins = { p1 = "c1", pt = "vcc", p2 = "c2", s1 = "gnd", s2 = "spk" } }
+R4 = { r = "10R", pins = ["spk", "zb"] }
+C2 = { c = "47n", pins = ["zb", "gnd"] }
+R5 = { r = "1k", pins = ["spk", "in"] }
+LS1 = { spk = "8", pins = ["spk", "gnd"] }
+`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := &Sheet{Circuit: c, View: Reduced, Frames: []Frame{
+		{Title: "S1", Parts: []string{"T1"}},
+		{Title: "S2", Parts: []string{"Q1", "R2"}},
+		{Title: "S3", Parts: []string{"R1", "C1"}},
+		{Title: "S4", Parts: []string{"Q2", "R3", "T2"}},
+		{Title: "S5", Parts: []string{"R4", "C2"}},
+		{Title: "S6", Parts: []string{"R5"}},
+		{Title: "S7", Parts: []string{"LS1"}},
+	}}
+	ext := map[string]geom.Rect{}
+	for i, f := range s.Frames {
+		for _, r := range f.Parts {
+			ext[r] = geom.Rect{X0: float64(20 * i), Y0: 0, X1: float64(20*i + 10), Y1: 10}
+		}
+	}
+	stretchOf := map[string]int{}
+	for i, b := range blocks(s, ext) {
+		for _, r := range b.refs {
+			stretchOf[r] = i
+		}
+	}
+	for _, u := range [][]string{{"Q1", "Q2", "T2"}, {"LS1", "T2"}, {"LS1", "R4", "C2"}} {
+		for _, r := range u {
+			if stretchOf[r] != stretchOf[u[0]] {
+				t.Errorf("%s in stretch %d, %s in stretch %d: %v is one unit", r, stretchOf[r], u[0], stretchOf[u[0]], u)
+			}
+		}
+	}
+	if stretchOf["R5"] == stretchOf["LS1"] {
+		t.Errorf("R5 (feedback from the speaker to the input, not across it) joined to the speaker's stretch")
 	}
 }

@@ -10,10 +10,14 @@ import (
 // stand on one page: the two halves of a push-pull output (devices sharing
 // a cathode or emitter net, or driven from the two ends of one winding,
 // feeding the two ends of one output winding), and a network across a
-// loudspeaker with the loudspeaker. The blind review found Q6 on the
-// supply's page and Q5 on the page before (b05 with its AGC bias, faded),
-// and the Zobel network R13, C6 on page 2 with the output pair while the
-// loudspeaker it is across stood on page 1 (b04, faded). Common practice:
+// loudspeaker with the loudspeaker, and the loudspeaker with the output
+// transformer it is on. The blind review found Q6 on the supply's page and
+// Q5 on the page before (b05 with its AGC bias, faded), and the Zobel
+// network R13, C6 on page 2 while the loudspeaker it is across stood on
+// page 1 (b04, faded); the stage frames have changed since, so the rule
+// that holds these together (render's units, tested on a placement that
+// splits them in TestUnitsOneStretch) is held here on every review
+// circuit with such a unit. Common practice:
 // a push-pull pair is drawn mirrored about its output transformer, a
 // Zobel across the speaker it loads.
 func TestUnitsOnOnePage(t *testing.T) {
@@ -35,6 +39,9 @@ func TestUnitsOnOnePage(t *testing.T) {
 		{"b05", render.Faded, []string{"T7", "LS1"}, "loudspeaker on its output transformer's secondary"},
 		{"a04", render.Faded, []string{"T1", "LS1"}, "loudspeaker on its output transformer's secondary"},
 		{"c07", render.Faded, []string{"SP1", "R8", "C4"}, "Zobel across the loudspeaker"},
+		{"c06", render.Faded, []string{"T1", "SP1"}, "loudspeaker on its output transformer's secondary"},
+		{"c10", render.Faded, []string{"T5", "SP1"}, "loudspeaker on its output transformer's secondary"},
+		{"c10", render.Reduced, []string{"T5", "SP1"}, "loudspeaker on its output transformer's secondary"},
 	}
 	for _, tc := range cases {
 		f := reviewFile(tc.file)
