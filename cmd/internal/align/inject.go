@@ -89,8 +89,9 @@ func injections(c *graph.Circuit, sts []stages.Stage, g *Guide) ([]Injection, st
 
 // injectionPoints are the points in signal order: the declared input, then
 // each active device's control electrode (the trade injects on grids,
-// bases and gates) and the detector's load, ordered by their distance from
-// the input; a device no stage claimed is placed by its distance too.
+// bases and gates) and the detector's load, along the signal path from the
+// input (chainOrder); a point the path does not reach keeps its place by
+// its distance from the input.
 func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	var pts []point
 	seen := map[string]bool{}
@@ -135,6 +136,7 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	}
 	dist := netDistances(c)
 	slices.SortStableFunc(pts, func(a, b point) int { return dist(a.net) - dist(b.net) })
+	pts = chainOrder(c, pts, g, mixer != nil)
 	classify(c, pts, g, mixer != nil)
 	return pts
 }
@@ -154,7 +156,7 @@ func halves(c *graph.Circuit, sts []stages.Stage) map[string]string {
 			if p == nil || !p.IsActive() {
 				continue
 			}
-			if n := p.NetOf(p.PinWithRole(graph.RoleCommon)); n != "" {
+			for _, n := range commonNets(c, s, p) {
 				byCommon[n] = append(byCommon[n], ref)
 			}
 		}
@@ -167,6 +169,32 @@ func halves(c *graph.Circuit, sts []stages.Stage) map[string]string {
 					out[ref] = s.Name
 				}
 			}
+		}
+	}
+	return out
+}
+
+// commonNets are the nets p's common electrode reaches through the
+// stage's own resistors (none, one): its own net and, where each half has
+// an emitter or cathode resistor of its own (a complementary pair with
+// 1 Ω emitter resistors), the net those resistors share.
+func commonNets(c *graph.Circuit, s stages.Stage, p *graph.Part) []string {
+	n := p.NetOf(p.PinWithRole(graph.RoleCommon))
+	if n == "" || c.RoleOf(n).IsACGround() {
+		return nil
+	}
+	out := []string{n}
+	for _, ref := range s.Parts {
+		r := c.Part(ref)
+		if r == nil || r.Kind != graph.Resistor || len(r.Pins) != 2 {
+			continue
+		}
+		a, b := r.Pins[0].Net, r.Pins[1].Net
+		if a != n {
+			a, b = b, a
+		}
+		if a == n && b != n && !c.RoleOf(b).IsACGround() && !slices.Contains(out, b) {
+			out = append(out, b)
 		}
 	}
 	return out
