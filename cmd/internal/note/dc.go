@@ -19,11 +19,16 @@ const Meter = "20k/V"
 
 // DC is the note's voltage chart, as text.
 type DC struct {
-	Err         string // set when the operating point was not found
-	Meter       string
-	Rows        []DCRow
-	Caution     []string // the live-set caution (graph/safety)
-	Notes       []string // oscillators, warnings, figures taken at the bias
+	Err     string // set when the operating point was not found
+	Meter   string
+	Rows    []DCRow
+	Caution []string // the live-set caution (graph/safety)
+	Notes   []string // oscillators, warnings, figures taken at the bias
+	// Warnings are the chart's warnings (a current far from the declared
+	// one, a rating exceeded, a reversed electrolytic), in the chart's
+	// order: also among Notes, and listed with the figures to check at the
+	// note's top, where a repairer reads first.
+	Warnings    []string
 	Oscillators []string
 }
 
@@ -74,6 +79,7 @@ func dcFrom(r *pipeline.Result) DC {
 	}
 	d.Oscillators = OscillatorNotes(r.Stages, r.DC)
 	d.Notes = append(d.Notes, ch.Warnings...)
+	d.Warnings = ch.Warnings
 	for _, o := range r.Biased {
 		d.Notes = append(d.Notes, fmt.Sprintf("%s %s = %.4g %s taken at this operating point (%s).", o.Ref, o.Param, o.Value, o.Unit, o.From))
 	}

@@ -60,10 +60,13 @@ func hFindings(b *bytes.Buffer, n *Note) {
 			lines = append(lines, fmt.Sprintf("<li><b>%s</b> %s: %s</li>", h(s.Name), h(s.Title), h(f)))
 		}
 	}
+	for _, w := range n.DC.Warnings {
+		lines = append(lines, fmt.Sprintf("<li><b>%s</b>: %s</li>", h(dcFinding), h(w)))
+	}
 	if len(lines) == 0 {
 		return
 	}
-	b.WriteString("<p><b>Figures to check</b> (flagged by pare from the part values; each is also in the stage table):</p>\n<ul>\n")
+	b.WriteString("<p><b>Figures to check</b> " + h(findingsLead(n)) + ":</p>\n<ul>\n")
 	b.WriteString(strings.Join(lines, "\n"))
 	b.WriteString("\n</ul>\n")
 }

@@ -241,6 +241,18 @@ func writeVerdict(b *bytes.Buffer, n *Note) {
 	}
 }
 
+// dcFinding heads a DC chart warning among the figures to check.
+const dcFinding = "DC operating point"
+
+// findingsLead says where the figures to check come from: the stage table
+// alone, or the DC voltage chart too when it warns.
+func findingsLead(n *Note) string {
+	if len(n.DC.Warnings) > 0 {
+		return "(flagged by pare from the part values; each is also in the stage table or under the DC voltage chart)"
+	}
+	return "(flagged by pare from the part values; each is also in the stage table)"
+}
+
 // writeFindings lists, right under the verdict, the figures pare found
 // questionable (an oscillator that misses the band, an IF can tuned off the
 // IF, poor tracking): what a repairer wants to see before any table.
@@ -251,10 +263,13 @@ func writeFindings(b *bytes.Buffer, n *Note) {
 			lines = append(lines, fmt.Sprintf("- **%s** %s: %s", mdText(s.Name), mdText(s.Title), mdText(f)))
 		}
 	}
+	for _, w := range n.DC.Warnings {
+		lines = append(lines, fmt.Sprintf("- **%s**: %s", dcFinding, mdText(w)))
+	}
 	if len(lines) == 0 {
 		return
 	}
-	b.WriteString("**Figures to check** (flagged by pare from the part values; each is also in the stage table):\n\n")
+	b.WriteString("**Figures to check** " + findingsLead(n) + ":\n\n")
 	b.WriteString(strings.Join(lines, "\n"))
 	b.WriteString("\n\n")
 }

@@ -248,3 +248,47 @@ func TestDCChart(t *testing.T) {
 		t.Errorf("a failed chart must say why:\n%s", b.String())
 	}
 }
+
+// A warning of the DC chart (a standing current far from the declared one,
+// review 14's b04: 83.6 mA solved against 15 mA) is a figure to check: it
+// stands in the list under the verdict, in both notes, as well as under
+// the chart; a note whose chart warns of nothing keeps the list as it was.
+func TestDCWarningsAmongFindings(t *testing.T) {
+	const warn = "Q2 collector current solves to 83.6 mA, +457 % from the 15 mA the netlist gives as ic"
+	for _, tc := range []struct {
+		name     string
+		warnings []string
+		want     []string // in the findings, before the sheets
+		lead     string
+	}{
+		{"none", nil, nil, "each is also in the stage table):"},
+		{"current", []string{warn}, []string{"- **DC operating point**: " + warn}, "each is also in the stage table or under the DC voltage chart):"},
+	} {
+		n := sampleNote()
+		n.DC.Warnings = tc.warnings
+		n.DC.Notes = tc.warnings
+		out := writeToString(t, n)
+		end := strings.Index(out, "## Sheets")
+		if end < 0 {
+			end = len(out)
+		}
+		top := out[:end]
+		if !strings.Contains(top, tc.lead) {
+			t.Errorf("%s: findings lead %q missing:\n%s", tc.name, tc.lead, top)
+		}
+		for _, w := range tc.want {
+			if !strings.Contains(top, w) {
+				t.Errorf("%s: %q not among the figures to check:\n%s", tc.name, w, top)
+			}
+		}
+		if tc.want == nil && strings.Contains(top, "DC operating point") {
+			t.Errorf("%s: a DC finding with no warning", tc.name)
+		}
+		html := writeHTMLString(t, n)
+		for _, w := range tc.warnings {
+			if !strings.Contains(html, "<li><b>DC operating point</b>: "+w) {
+				t.Errorf("%s: the HTML note's findings lack %q", tc.name, w)
+			}
+		}
+	}
+}
