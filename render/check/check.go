@@ -67,7 +67,10 @@ type Report struct {
 	FarTanks []string
 	// MixerOrder are frequency changers drawn out of the trade's order: an
 	// IF transformer left of its mixer, an oscillator coil not below it.
-	MixerOrder     []string
+	MixerOrder []string
+	// FeedOrder are transformers drawn left of the device whose output
+	// feeds them: the signal read right to left.
+	FeedOrder      []string
 	Crossings      int   // wire–wire crossings of different nets
 	FrameCrossings []int // crossings inside each frame, in frame order
 	Bends          int   // bends over all wires
@@ -179,6 +182,7 @@ func Measure(g *geom.Sheet) *Report {
 	r.longWires(g)
 	r.farTanks(g)
 	r.mixerOrder(g)
+	r.feedOrder(g)
 	r.nearDots(g, segs, r.crossings(g, segs))
 	r.connectivity(g, segs)
 	if g.PageMM > 0 {

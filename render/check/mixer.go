@@ -19,33 +19,7 @@ import (
 // its nets. A frame with no single device, or without the part looked for,
 // says nothing about it.
 func (r *Report) mixerOrder(g *geom.Sheet) {
-	acg := map[string]bool{}
-	for _, l := range g.Locals {
-		if l.Kind == geom.LocalGround || l.Kind == geom.LocalRail {
-			acg[l.Net] = true
-		}
-	}
-	tuned := map[string]bool{} // nets a gang section tunes, not AC ground
-	padded := map[string]bool{}
-	for _, s := range g.Symbols {
-		if s.Kind == "capacitor" && s.Type == "variable" {
-			for _, p := range s.Pins {
-				tuned[p.Net] = !acg[p.Net]
-			}
-		}
-	}
-	// and the coil's end of a padder in series with the gang section
-	for _, s := range g.Symbols {
-		if s.Kind == "capacitor" && s.Type != "variable" && len(s.Pins) == 2 {
-			a, b := s.Pins[0].Net, s.Pins[1].Net
-			if tuned[a] && !acg[b] && !tuned[b] || tuned[b] && !acg[a] && !tuned[a] {
-				padded[a], padded[b] = true, true
-			}
-		}
-	}
-	for n := range padded {
-		tuned[n] = true
-	}
+	tuned := gangTuned(g)
 	byRef := map[string]*geom.Symbol{}
 	for i := range g.Symbols {
 		byRef[g.Symbols[i].Ref] = &g.Symbols[i]
@@ -97,3 +71,37 @@ func mixerTitle(title string) bool {
 }
 
 func centre(r geom.Rect) geom.Pt { return geom.Pt{X: (r.X0 + r.X1) / 2, Y: (r.Y0 + r.Y1) / 2} }
+
+// gangTuned are the nets a gang section tunes that are not AC ground (a
+// local ground or rail symbol stands on them), and the coil's end of a
+// padder in series with a gang section: the nets of an oscillator or
+// signal-frequency tank.
+func gangTuned(g *geom.Sheet) map[string]bool {
+	acg := map[string]bool{}
+	for _, l := range g.Locals {
+		if l.Kind == geom.LocalGround || l.Kind == geom.LocalRail {
+			acg[l.Net] = true
+		}
+	}
+	tuned := map[string]bool{}
+	padded := map[string]bool{}
+	for _, s := range g.Symbols {
+		if s.Kind == "capacitor" && s.Type == "variable" {
+			for _, p := range s.Pins {
+				tuned[p.Net] = !acg[p.Net]
+			}
+		}
+	}
+	for _, s := range g.Symbols {
+		if s.Kind == "capacitor" && s.Type != "variable" && len(s.Pins) == 2 {
+			a, b := s.Pins[0].Net, s.Pins[1].Net
+			if tuned[a] && !acg[b] && !tuned[b] || tuned[b] && !acg[a] && !tuned[a] {
+				padded[a], padded[b] = true, true
+			}
+		}
+	}
+	for n := range padded {
+		tuned[n] = true
+	}
+	return tuned
+}
