@@ -24,19 +24,21 @@ var outputPins = map[string][]string{
 // anode wire backwards over the stage (mixerOrder's IF-transformer rule,
 // for every stage). A transformer with a winding on a net a gang section
 // tunes is an oscillator's or a signal tank's coil, drawn below its device,
-// and is left out; so is one not level with the device (a part on another
+// and is left out; so is an output on a net a ground or rail symbol
+// stands on (a collector at chassis feeds nothing: every part there shares
+// the net), and a transformer not level with the device (a part on another
 // row of a page is placed by the page flow, not by this order). A
 // transformer counts as level when its box reaches into the band one
 // device height above and below the device's box.
 func (r *Report) feedOrder(g *geom.Sheet) {
-	tuned := gangTuned(g)
+	tuned, acg := gangTuned(g), acGround(g)
 	for _, d := range g.Symbols {
 		outs := outputPins[d.Kind]
 		if outs == nil || d.Kind == "valve" && !gridded(d) {
 			continue
 		}
 		for _, dp := range d.Pins {
-			if !slices.Contains(outs, dp.Name) {
+			if !slices.Contains(outs, dp.Name) || acg[dp.Net] {
 				continue
 			}
 			for _, t := range g.Symbols {

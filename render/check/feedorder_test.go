@@ -10,6 +10,11 @@ import (
 // transformer T1 with its primary on the anode net at (tx, ty); tuned puts
 // a gang section VC1 on T1's secondary; diode makes V1 a diode (no grid).
 func feedSheet(tx, ty float64, tuned, diode bool) *geom.Sheet {
+	return feedSheetOn("a", tx, ty, tuned, diode)
+}
+
+// feedSheetOn is feedSheet with the anode and T1's primary on net out.
+func feedSheetOn(anode string, tx, ty float64, tuned, diode bool) *geom.Sheet {
 	sym := func(ref, kind string, x, y float64, pins ...string) geom.Symbol {
 		s := geom.Symbol{Ref: ref, Kind: kind, Box: geom.R(x-2, y-2, x+2, y+2)}
 		for i := 0; i+1 < len(pins); i += 2 {
@@ -17,12 +22,12 @@ func feedSheet(tx, ty float64, tuned, diode bool) *geom.Sheet {
 		}
 		return s
 	}
-	v := sym("V1", "valve", 10, 0, "a", "a", "g1", "in", "k", "gnd")
+	v := sym("V1", "valve", 10, 0, "a", anode, "g1", "in", "k", "gnd")
 	if diode {
-		v = sym("V1", "valve", 10, 0, "a", "a", "k", "gnd")
+		v = sym("V1", "valve", 10, 0, "a", anode, "k", "gnd")
 	}
 	g := &geom.Sheet{
-		Symbols: []geom.Symbol{v, sym("T1", "transformer", tx, ty, "p1", "a", "p2", "ht", "s1", "out", "s2", "gnd")},
+		Symbols: []geom.Symbol{v, sym("T1", "transformer", tx, ty, "p1", anode, "p2", "ht", "s1", "out", "s2", "gnd")},
 		Locals:  []geom.Local{{Kind: geom.LocalGround, Net: "gnd"}, {Kind: geom.LocalRail, Net: "ht"}},
 	}
 	if tuned {
@@ -51,6 +56,12 @@ func TestFeedOrder(t *testing.T) {
 		{"left, on another row", -10, 40, false, false, 0},
 		{"left, gang-tuned", -10, 0, true, false, 0},
 		{"left of a diode", -10, 0, false, true, 0},
+	}
+	// an output on a rail feeds every part there: no order to read
+	r := &Report{}
+	r.feedOrder(feedSheetOn("ht", -10, 0, false, false))
+	if len(r.FeedOrder) != 0 {
+		t.Errorf("output on a rail: %v, want none", r.FeedOrder)
 	}
 	for _, c := range cases {
 		r := &Report{}

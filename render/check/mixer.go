@@ -77,12 +77,7 @@ func centre(r geom.Rect) geom.Pt { return geom.Pt{X: (r.X0 + r.X1) / 2, Y: (r.Y0
 // padder in series with a gang section: the nets of an oscillator or
 // signal-frequency tank.
 func gangTuned(g *geom.Sheet) map[string]bool {
-	acg := map[string]bool{}
-	for _, l := range g.Locals {
-		if l.Kind == geom.LocalGround || l.Kind == geom.LocalRail {
-			acg[l.Net] = true
-		}
-	}
+	acg := acGround(g)
 	tuned := map[string]bool{}
 	padded := map[string]bool{}
 	for _, s := range g.Symbols {
@@ -104,4 +99,15 @@ func gangTuned(g *geom.Sheet) map[string]bool {
 		tuned[n] = true
 	}
 	return tuned
+}
+
+// acGround are the nets a local ground or rail symbol stands on.
+func acGround(g *geom.Sheet) map[string]bool {
+	acg := map[string]bool{}
+	for _, l := range g.Locals {
+		if l.Kind == geom.LocalGround || l.Kind == geom.LocalRail {
+			acg[l.Net] = true
+		}
+	}
+	return acg
 }
