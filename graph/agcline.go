@@ -30,6 +30,11 @@ func (c *Circuit) AGCFeed(net string) (from, via string, ok bool) {
 	if c.DetectorOn(net) {
 		return "", "", false // the detector's own load, not a line after it
 	}
+	if c.notSignal(net) {
+		// a supply rail or chassis: a standing-bias resistor from the rail
+		// to the AGC line does not make the rail the line
+		return "", "", false
+	}
 	for _, cn := range c.ConnsOf(net) {
 		p := cn.Part
 		if p.Kind != Resistor || len(p.Pins) != 2 {

@@ -28,11 +28,12 @@ func TestReview13AGCFilterAndLine(t *testing.T) {
 		r, c      string   // the AGC filter's resistor and capacitor
 		line      string   // the AGC line
 		notSupply []string // parts no supply filter may hold
+		smoothing []string // parts the set's own smoothing filter holds
 	}{
-		{"b03.toml", "R10", "C12", "agc", []string{"C12", "C2", "R2"}},
-		{"b03-agc-bias.toml", "R10", "C12", "agc", []string{"C12", "C2", "R2"}},
-		{"b05.toml", "R12", "C37", "agc", []string{"C37", "C9", "R13", "R6"}},
-		{"b05-agc-bias.toml", "R12", "C37", "agc", []string{"C37", "C9", "R13", "R6"}},
+		{"b03.toml", "R10", "C12", "agc", []string{"C12", "C2", "R2"}, nil},
+		{"b03-agc-bias.toml", "R10", "C12", "agc", []string{"C12", "C2", "R2"}, nil},
+		{"b05.toml", "R12", "C37", "agc", []string{"C37", "C9", "R13", "R6"}, []string{"C30", "C31", "R34"}},
+		{"b05-agc-bias.toml", "R12", "C37", "agc", []string{"C37", "C9", "R13", "R6"}, []string{"C30", "C31", "R34"}},
 	}
 	for _, tc := range cases {
 		t.Run(tc.file, func(t *testing.T) {
@@ -57,6 +58,11 @@ func TestReview13AGCFilterAndLine(t *testing.T) {
 			if !ok || tau.Value < 0.01 {
 				t.Errorf("AGC filter tau %+v: want the solver's, 10 ms or more", tau)
 			}
+			// the rail a standing-bias resistor brings into the AGC line is
+			// still a supply: its own smoothing filter stays one
+			if tc.smoothing != nil && !holdsAll(st, "smoothing-filter", tc.smoothing) {
+				t.Errorf("no smoothing filter holds %v: %s", tc.smoothing, topologies(st))
+			}
 			for _, s := range st {
 				if s.Topology != "agc-line-filter" && slices.Contains(s.Parts, tc.r) {
 					t.Errorf("%s (%s) holds the AGC filter's resistor %s: %v", s.Name, s.Topology, tc.r, s.Parts)
@@ -71,6 +77,23 @@ func TestReview13AGCFilterAndLine(t *testing.T) {
 			}
 		})
 	}
+}
+
+// holdsAll tells whether a stage of the topology holds every one of refs.
+func holdsAll(st []Stage, topology string, refs []string) bool {
+	for _, s := range st {
+		if s.Topology != topology {
+			continue
+		}
+		all := true
+		for _, r := range refs {
+			all = all && slices.Contains(s.Parts, r)
+		}
+		if all {
+			return true
+		}
+	}
+	return false
 }
 
 // reducedNet is a net of a reduced circuit by name: a live one, or a rail
