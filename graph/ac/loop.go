@@ -117,7 +117,7 @@ func loopSystemOf(c *graph.Circuit, nl *netlist, ref string) (*loopSystem, error
 		cp.prims = append(cp.prims, p)
 	}
 	m := indexModel(c, &cp)
-	held := otherInputs(c, &cp, -1)
+	held := loopHeld(c, &cp, srcs, src.c, src.d)
 	isHeld := heldSet(len(cp.nodes), -1, held)
 	if err := m.floating(-1, held, isHeld); err != nil {
 		return nil, err

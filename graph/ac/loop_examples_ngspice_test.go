@@ -36,6 +36,10 @@ func TestExampleLoopsAgainstNgspiceTransient(t *testing.T) {
 		// mode near the first beats with it over the fit. The top end is
 		// checked whole.
 		{"../../rules/stages/testdata/converter-link.toml", "Q1", []float64{0}, false},
+		// Inputs declared at the control electrode, left free in the loop
+		// (loopheld.go): the transient deck holds what the search holds.
+		{"../../testdata/review14/b01.toml", "Q1", []float64{0.5}, false},
+		{"../../rules/stages/testdata/fet-colpitts-vfo.toml", "Q1", []float64{0.5}, false},
 	} {
 		for _, gang := range tc.gangs {
 			t.Run(fmt.Sprintf("%s/%s/gang%.1f", filepath.Base(tc.file), tc.ref, gang), func(t *testing.T) {

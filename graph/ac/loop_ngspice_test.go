@@ -165,7 +165,14 @@ func tranDeck(t *testing.T, c *graph.Circuit, o Options, r tranRun, reltol strin
 	for _, g := range nl.groups {
 		sw.group(g)
 	}
-	for i, n := range otherInputs(c, nl, -1) {
+	var srcs []loopSource
+	for _, p := range nl.prims {
+		if p.kind == primVCCS && p.ref == r.ref && p.c == src.c && p.d == src.d {
+			srcs = append(srcs, loopSource{gm: p.v, a: p.a, b: p.b})
+		}
+	}
+	// The inputs the loop search holds: none on the device's own nets.
+	for i, n := range loopHeld(c, nl, srcs, src.c, src.d) {
 		sw.line("Vheld%d %s 0 DC 0", i+1, sw.nodes[n])
 	}
 	kick := src.c

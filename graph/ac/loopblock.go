@@ -46,7 +46,7 @@ func loopSystemIn(c *graph.Circuit, m *model, ref string) (*loopSystem, error) {
 		}
 		return false
 	}
-	held := otherInputs(c, nl, -1)
+	held := loopHeld(c, nl, srcs, src.c, src.d)
 	isHeld := heldSet(len(nl.nodes), -1, held)
 	if err := m.floatingUsed(held, isHeld, used); err != nil {
 		return nil, err

@@ -294,6 +294,7 @@ func addLoops(lp *ac.Loops, out []Stage) {
 			}
 			st.Loop = append(st.Loop, l)
 			loopFrequencyFigure(st, l)
+			checkLeadTitle(c, st, l)
 			st.Flags = append(st.Flags, loopFlags(c, st, l)...)
 			if f := swappedWindingFlag(lp, st, l); f != "" {
 				st.Flags = append(st.Flags, f)

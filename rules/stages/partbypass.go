@@ -109,7 +109,9 @@ func byPartBypass(valve bool) figure.Origin {
 // (netlist), the solver's gain from ctl to out with the bypass open, and the
 // handbook's gain on the unbypassed part with the solver's load rl as the
 // check of the solver's gain g. A bypass that does not raise the gain by
-// partBypassMin gets a note, not the claim.
+// partBypassMin gets a note, not the claim, and so does one whose gain
+// comes within bypassAgreement of the whole lead's tied to AC ground (the
+// claim is that part of the lead is left unbypassed).
 func (x *figCtx) partBypass(dev *graph.Part, lead commonLead, ctl, out string, f, g, rl float64) (*figure.Figure, func() string) {
 	if lead.ru == nil || !x.solve {
 		return nil, nil
@@ -123,10 +125,18 @@ func (x *figCtx) partBypass(dev *graph.Part, lead commonLead, ctl, out string, f
 	if go_, ok := transferAt(open, ctl, out, f); ok {
 		x.put(figure.Figure{Name: "gain_bypass_open", Unit: figure.Ratio, Value: go_,
 			Origin: figure.BySolver("V("+out+")/V("+ctl+") with "+refs+" open", hz(f))})
-		if math.Abs(g) < partBypassMin*math.Abs(go_) {
+		k := dev.NetOf(dev.PinWithRole(graph.RoleCommon))
+		full, fullOK := transferAt(wholeBypass(x.solverCircuit(), k, lead.caps), ctl, out, f)
+		switch {
+		case math.Abs(g) < partBypassMin*math.Abs(go_):
 			x.st.Notes = append(x.st.Notes, fmt.Sprintf("%s raises the gain only from %s to %s in circuit: the bypass does little at %s",
 				refs, figure.Format(go_, figure.Ratio, figure.Text), figure.Format(g, figure.Ratio, figure.Text), hz(f)))
-		} else {
+		case fullOK && math.Abs(g) >= (1-bypassAgreement)*math.Abs(full):
+			// Part-bypassed says part of the lead is left: here the gain
+			// is the whole lead's bypassed, so nothing of it is.
+			x.st.Notes = append(x.st.Notes, fmt.Sprintf("the gain in circuit, %s at %s, is within %.0f %% of the %s with the whole %s lead tied to AC ground: the unbypassed %s changes nothing there, so the lead is not named part-bypassed",
+				figure.Format(g, figure.Ratio, figure.Text), hz(f), 100*bypassAgreement, figure.Format(full, figure.Ratio, figure.Text), electrodeWord(dev), lead.ru.Ref))
+		default:
 			x.st.Title = withClause(x.st.Title, electrodeWord(dev)+" part-bypassed")
 		}
 	}
