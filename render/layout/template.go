@@ -127,7 +127,9 @@ func (ly *state) movable(b *block, stage int, placed map[string]Place) bool {
 		if _, ok := placed[cl.ref]; !ok && !ly.tankFollows(cl, b) {
 			return false
 		}
-		if s, ok := ly.stageOf[cl.ref]; !ok || s != stage || cl.edge != 0 || cl.conn {
+		// a part of no stage (a bypass no pattern claimed) moves with
+		// the stage whose template places it
+		if s, ok := ly.stageOf[cl.ref]; ok && s != stage || cl.edge != 0 || cl.conn {
 			return false
 		}
 	}

@@ -28,6 +28,9 @@ func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *
 		}
 	}
 	walk(s)
+	if s.Topology == "push-pull" {
+		out = pairPlaces(out, s.Parts, reduced)
+	}
 	return out
 }
 

@@ -1,0 +1,129 @@
+package pipeline
+
+import (
+	"slices"
+
+	"pare/graph"
+	"pare/render"
+)
+
+// pairPlaces extends a push-pull stage's template (the two devices one
+// above the other, the output transformer between their output electrodes)
+// with the parts the pattern does not name but the stage holds, where the
+// trade draws them: each device's stopper in line with its control pin,
+// just left of it, so the stopper reads as at the holder; and the shared
+// common-electrode network between the two devices, the halves mirrored
+// about it. Only a stage whose template places a second device straight
+// below the first (row 2) is a pair; any other template is returned as is.
+func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []render.Place {
+	if len(places) == 0 {
+		return places
+	}
+	devs := map[int]*graph.Part{0: c.Part(places[0].Ref)}
+	placed := map[string]bool{}
+	for _, p := range places {
+		placed[p.Ref] = true
+		if q := c.Part(p.Ref); q != nil && p.Col == 0 && p.Row == 2 && isDevice(q) {
+			devs[2] = q
+		}
+	}
+	if devs[0] == nil || devs[2] == nil || !isDevice(devs[0]) {
+		return places
+	}
+	common := [2]string{netOf(devs[0], graph.RoleCommon), netOf(devs[2], graph.RoleCommon)}
+	out := slices.Clone(places)
+	anchor := places[0].Anchor
+	add := func(ref string, col, row int, stand string) {
+		placed[ref] = true
+		out = append(out, render.Place{Ref: ref, Anchor: anchor, Col: col, Row: row, Stand: stand})
+	}
+	for _, row := range []int{0, 2} {
+		if r := stopperOf(c, devs[row], parts, placed); r != "" {
+			add(r, -1, row, "horizontal")
+		}
+	}
+	// the shared cathode (emitter) network: parts on a common net of both
+	// halves, to AC ground, between the devices; a bypass no pattern
+	// claimed goes with its resistor (the drawing leaves another stage's
+	// part where it is)
+	for _, q := range c.Parts {
+		ref := q.Ref
+		if placed[ref] || len(q.Pins) != 2 || common[0] == "" {
+			continue
+		}
+		on := q.Pins[0].Net == common[0] || q.Pins[1].Net == common[0]
+		if common[0] == common[1] && on && touchesGround(c, q) {
+			add(ref, 0, 1, "vertical")
+		}
+	}
+	// a feed shared by both halves (a screen-grid resistor from the
+	// supply) above the transformer, clear of the pair
+	for _, ref := range parts {
+		q := c.Part(ref)
+		if q != nil && !placed[ref] && len(q.Pins) == 2 && sharedFeed(c, q, devs[0], devs[2]) {
+			add(ref, 1, -1, "vertical")
+		}
+	}
+	return out
+}
+
+// sharedFeed says whether two-terminal q joins a net both devices have a
+// pin on, other than their common electrode's, to AC ground (a supply).
+func sharedFeed(c *graph.Circuit, q, d1, d2 *graph.Part) bool {
+	on := func(d *graph.Part, net string) bool {
+		for _, p := range d.Pins {
+			if p.Net == net && graph.RoleOfPin(d.Kind, p.Name) != graph.RoleCommon {
+				return true
+			}
+		}
+		return false
+	}
+	shared, supply := false, false
+	for _, p := range q.Pins {
+		shared = shared || on(d1, p.Net) && on(d2, p.Net)
+		supply = supply || c.RoleOf(p.Net).IsACGround()
+	}
+	return shared && supply
+}
+
+// stopperOf is the stage's resistor in series with dev's control
+// electrode: one pin on the control net, the other off AC ground, and
+// nothing else but dev on the control net.
+
+func stopperOf(c *graph.Circuit, dev *graph.Part, parts []string, placed map[string]bool) string {
+	g := netOf(dev, graph.RoleControl)
+	if g == "" {
+		return ""
+	}
+	for _, ref := range parts {
+		q := c.Part(ref)
+		if q == nil || placed[ref] || q.Kind != graph.Resistor || len(q.Pins) != 2 || touchesGround(c, q) {
+			continue
+		}
+		if (q.Pins[0].Net == g || q.Pins[1].Net == g) && len(c.ConnsOf(g)) == 2 {
+			return ref
+		}
+	}
+	return ""
+}
+
+func isDevice(p *graph.Part) bool {
+	return p.PinWithRole(graph.RoleControl) != "" && p.PinWithRole(graph.RoleOutput) != ""
+}
+
+// netOf is the net of p's first terminal of the role, "" if none.
+func netOf(p *graph.Part, r graph.TermRole) string {
+	if pin := p.Pin(p.PinWithRole(r)); pin != nil {
+		return pin.Net
+	}
+	return ""
+}
+
+func touchesGround(c *graph.Circuit, q *graph.Part) bool {
+	for _, p := range q.Pins {
+		if c.RoleOf(p.Net).IsACGround() {
+			return true
+		}
+	}
+	return false
+}
