@@ -23,6 +23,7 @@ func TestPushPullDrawnSymmetric(t *testing.T) {
 	}{
 		{"../../testdata/review14/a04.toml", 2},
 		{"../../testdata/review13/a04.toml", 2},
+		{"../../testdata/review13/b05.toml", 0},
 	}
 	// stopperReach: a stopper's grid end in the column next to the
 	// valve, one slot gap and the valve's label away (11 grid units
@@ -98,11 +99,11 @@ func pushPullFrame(g *geom.Sheet) *geom.Frame {
 	return nil
 }
 
-// controlPin is a valve's first grid or a transistor's base, nil for any
+// controlPin is a valve's first grid, a transistor's base or a FET's gate, nil for any
 // other symbol.
 func controlPin(s geom.Symbol) *geom.Pin {
 	for i, p := range s.Pins {
-		if (s.Kind == "valve" && p.Name == "g1") || (s.Kind == "transistor" && p.Name == "b") {
+		if (s.Kind == "valve" && p.Name == "g1") || (s.Kind == "bjt" && p.Name == "b") || (s.Kind == "fet" && p.Name == "g") {
 			return &s.Pins[i]
 		}
 	}
