@@ -128,7 +128,7 @@ func parse(t string, want Unit) (float64, string, error) {
 	neg, i := readSign(t)
 	n := readDigits(t, i)
 	if n.intDigits == "" && n.fracDigits == "" {
-		return 0, "not a number", ErrSyntax
+		return 0, notNumber(t, want), ErrSyntax
 	}
 	if msg, err := n.readExponent(t); err != nil {
 		return 0, msg, err
@@ -371,4 +371,31 @@ func oldMarkingHint(rest, num string) string {
 // their meaning; after m ("10 mhz") milli and mega cannot be told apart.
 func foldsTo(prefix rune, tail string, want Unit) bool {
 	return strings.ContainsRune("pnuµk", prefix) && want != None && strings.EqualFold(tail, want.Symbol())
+}
+
+// unitExample is a value of each unit as it may be written, so a refusal
+// can show an accepted form rather than only say what is wrong.
+var unitExample = map[Unit]string{
+	Ohm: "4k7", Farad: "100n", Henry: "10m", Volt: "275V", Hertz: "455k",
+	Second: "47m", Siemens: "2m", Ampere: "36m", Watt: "12",
+}
+
+// notNumber says what a value must look like and, where one word of the
+// text reads as a value of the wanted unit on its own (a rating copied
+// with its class and a mains sign, "X2 275V~"), offers that word.
+func notNumber(t string, want Unit) string {
+	msg := "not a number"
+	for _, w := range strings.Fields(t) {
+		w = strings.TrimFunc(w, func(r rune) bool { return !unicode.IsLetter(r) && !unicode.IsDigit(r) && r != '.' })
+		if w == "" || w == t || !isDigit(w[0]) {
+			continue
+		}
+		if _, _, kind := parse(w, want); kind == nil {
+			return fmt.Sprintf("%s; did you mean %q?", msg, w)
+		}
+	}
+	if ex, ok := unitExample[want]; ok {
+		return fmt.Sprintf("%s: write a number with an optional SI prefix or code letter and unit, as %q", msg, ex)
+	}
+	return msg
 }

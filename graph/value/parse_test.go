@@ -113,8 +113,15 @@ func TestParseErrors(t *testing.T) {
 	}{
 		{"", Ohm, `empty value`, ErrSyntax},
 		{"   ", Ohm, `empty value`, ErrSyntax},
-		{"abc", Ohm, `value "abc": not a number`, ErrSyntax},
-		{"R", Ohm, `value "R": not a number`, ErrSyntax},
+		{"abc", Ohm, `value "abc": not a number: write a number with an optional SI prefix or code letter and unit, as "4k7"`, ErrSyntax},
+		{"R", Ohm, `value "R": not a number: write a number with an optional SI prefix or code letter and unit, as "4k7"`, ErrSyntax},
+		// A capacitor's class and the mains sign copied from its body with
+		// the voltage (common practice on suppression capacitors).
+		{"X2 275V~", Volt, `value "X2 275V~": not a number; did you mean "275V"?`, ErrSyntax},
+		{"Y1 250 V~", Volt, `value "Y1 250 V~": not a number; did you mean "250"?`, ErrSyntax},
+		{"V~", Volt, `value "V~": not a number: write a number with an optional SI prefix or code letter and unit, as "275V"`, ErrSyntax},
+		{"about 4k7", Ohm, `value "about 4k7": not a number; did you mean "4k7"?`, ErrSyntax},
+		{"X2 275V~", Ohm, `value "X2 275V~": not a number: write a number with an optional SI prefix or code letter and unit, as "4k7"`, ErrSyntax},
 		{"4k7k", Ohm, `value "4k7k": extra multiplier "k" after "4k7": the code letter already scales the number`, ErrSyntax},
 		{"4,7k", Ohm, `value "4,7k": use a point or the letter code (4k7), not a comma`, ErrSyntax},
 		{"2,2n", Farad, `value "2,2n": use a point or the letter code (2n2), not a comma`, ErrSyntax},
