@@ -3,6 +3,7 @@ package stages
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -17,7 +18,7 @@ import (
 // stage takes it) and the solver gives the two outputs in antiphase,
 // within splitBalance of each other.
 func init() {
-	calcs["splitter"] = calc{args: []string{"device", "load", "cathode"}, required: []string{"device", "load", "cathode"}, fn: calcSplitter}
+	calcs["splitter"] = calc{args: []string{"device", "load", "cathode", "bias"}, required: []string{"device", "load", "cathode"}, fn: calcSplitter}
 }
 
 // splitBalance is the most the two outputs may differ, as a ratio: 1.3
@@ -33,7 +34,7 @@ func calcSplitter(x *figCtx) {
 		return
 	}
 	k := q.NetOf(q.PinWithRole(graph.RoleCommon))
-	if !takenOn(x.w.c, k, rk, q) {
+	if !takenOn(x.w.c, k, q, rk, x.part("bias")) {
 		return // nothing takes the common electrode's signal: a degenerated amplifier
 	}
 	x.set("load_ratio", figure.Ratio, rl.Value.Max/rk.Value.Max, byLoadRatio)
@@ -66,12 +67,13 @@ func calcSplitter(x *figCtx) {
 }
 
 // takenOn says whether a part other than the device and the common lead's
-// resistor, and not a resistor or capacitor to AC ground, is on net k: the
+// own resistors (the load, and the bias resistor above it where there is
+// one), and not a resistor or capacitor to AC ground, is on net k: the
 // coupling that takes the common electrode's signal on.
-func takenOn(c *graph.Circuit, k string, rk, q *graph.Part) bool {
+func takenOn(c *graph.Circuit, k string, q *graph.Part, own ...*graph.Part) bool {
 	for _, cn := range c.ConnsOf(k) {
 		p := cn.Part
-		if p == rk || p == q {
+		if p == q || slices.Contains(own, p) {
 			continue
 		}
 		if a, b, ok := passiveEnds(p); ok && (c.RoleOf(a).IsACGround() || c.RoleOf(b).IsACGround()) {

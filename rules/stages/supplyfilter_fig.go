@@ -79,7 +79,7 @@ func calcSmoothing(x *figCtx) {
 		x.screenFeedFigures(s, c2p, in, out, dev)
 	case mainSmoothing:
 		x.checkSmoothing(x.netName(in), x.netName(out))
-		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds the supply line of %d stages (%s), so its figure is the ripple's, not one stage's frequency", len(fed), refList(fed)))
+		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds the supply line of %s (%s), so its figure is the ripple's, not one stage's frequency", stagesCount(len(fed)), refList(fed)))
 		x.filterInCircuit(s, c2, in, out, nil, check)
 	default:
 		x.checkSmoothing(x.netName(in), x.netName(out))
@@ -190,4 +190,12 @@ func (x *figCtx) claimInstead(drop, take []*graph.Part) {
 	}
 	sort.Strings(parts)
 	x.st.Parts = parts
+}
+
+// stagesCount reads "1 stage", "2 stages": a note is a sentence.
+func stagesCount(n int) string {
+	if n == 1 {
+		return "1 stage"
+	}
+	return fmt.Sprintf("%d stages", n)
 }

@@ -974,6 +974,30 @@ R1 = { r = "47k", pins = ["a", "ht"] }
 R2 = { r = "47k", pins = ["k", "gnd"] }
 C1 = { c = "100n", pins = ["a", "g1"] }
 R3 = { r = "470k", pins = ["g1", "gnd"] }`},
+	// The usual cathodyne: the bias resistor between the cathode and the
+	// load's top, the grid leak returned to their junction so the two
+	// resistors cannot merge (handbook split-load inverter, from memory).
+	{topology: "cathodyne", families: allFamilies,
+		parts: `C3 = { c = "47n", pins = ["in", "g"] }
+@Q1(g, k, a)
+R1 = { r = "47k", pins = ["a", "ht"] }
+R5 = { r = "1k5", pins = ["k", "kj"] }
+R2 = { r = "47k", pins = ["kj", "gnd"] }
+R6 = { r = "1M", pins = ["g", "kj"] }
+C1 = { c = "100n", pins = ["a", "g1"] }
+R3 = { r = "470k", pins = ["g1", "gnd"] }
+C2 = { c = "100n", pins = ["k", "g2"] }
+R4 = { r = "470k", pins = ["g2", "gnd"] }`,
+		// The same with the cathode's signal going nowhere: a degenerated
+		// amplifier whose bias resistor is no coupling.
+		nearMiss: `C3 = { c = "47n", pins = ["in", "g"] }
+@Q1(g, k, a)
+R1 = { r = "47k", pins = ["a", "ht"] }
+R5 = { r = "1k5", pins = ["k", "kj"] }
+R2 = { r = "47k", pins = ["kj", "gnd"] }
+R6 = { r = "1M", pins = ["g", "kj"] }
+C1 = { c = "100n", pins = ["a", "g1"] }
+R3 = { r = "470k", pins = ["g1", "gnd"] }`},
 	// A capacitor from a device's output to its own control electrode
 	// rolls its gain off above an audio band (the solver, its base fed a
 	// current: 10 pF times the Miller gain against the base's resistors).
