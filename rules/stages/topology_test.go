@@ -353,6 +353,33 @@ R1 = { r = "4k7", pins = ["o", "ht"] }
 R2 = { r = "100", pins = ["k", "kb"] }
 R3 = { r = "1k", pins = ["kb", "gnd"] }
 C1 = { c = "22u", pins = ["k", "gnd"] }`},
+	// Two inverting stages, the second's output brought back across the
+	// first's unbypassed common resistor: overall negative feedback (the
+	// solver shows the loop lowering the gain; handbook, from memory).
+	{topology: "amp-common-feedback", families: allFamilies,
+		parts: `@Q1(in, k, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+R2 = { r = "100", pins = ["k", "kb"] }
+R3 = { r = "1k", pins = ["kb", "gnd"] }
+C1 = { c = "22u", pins = ["kb", "gnd"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, gnd, out)
+R5 = { r = "4k7", pins = ["out", "ht"] }
+R6 = { r = "10k", pins = ["out", "k"] }`,
+		// The second stage a follower: the signal comes back in phase
+		// with the first's output, so the loop raises the gain (positive
+		// feedback), which the solver shows.
+		nearMiss: `@Q1(in, k, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+R2 = { r = "100", pins = ["k", "kb"] }
+R3 = { r = "1k", pins = ["kb", "gnd"] }
+C1 = { c = "22u", pins = ["kb", "gnd"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, out, ht)
+R5 = { r = "4k7", pins = ["out", "gnd"] }
+R6 = { r = "100k", pins = ["out", "k"] }`},
 	{topology: "amp-follower", families: allFamilies,
 		parts: `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`,

@@ -1,0 +1,50 @@
+package stages
+
+import (
+	"math"
+	"slices"
+	"testing"
+)
+
+// Review 14's push-pull amplifier (testdata/review14/a04.toml): V1's
+// partly bypassed cathode takes the overall feedback from the speaker
+// winding, and V2 is a cathodyne whose grid leak returns to its bias
+// junction. The cathode network is V1's stage, not an RC low-pass, and
+// the feedback figures are the solver's, against ngspice on the
+// reviewer's deck (docs/references.md §37).
+func TestReview14FeedbackAndSplitter(t *testing.T) {
+	c := reviewCircuit(t, "review14", "a04.toml")
+	stages := findBiased(t, c)
+	if s := stageOf(stages, "rc-low-pass"); s != nil {
+		t.Errorf("a cathode network named %q: %v", s.Title, s.Parts)
+	}
+	fb := stageOf(stages, "amp-common-feedback")
+	if fb == nil {
+		t.Fatalf("no overall feedback stage; found %s", topologies(stages))
+	}
+	for _, ref := range []string{"V1", "R4", "R5", "C2", "R14"} {
+		if !slices.Contains(fb.Parts, ref) {
+			t.Errorf("%s not in %s %v", ref, fb.Name, fb.Parts)
+		}
+	}
+	// ngspice-39 on a04_amp.cir at 670.8 Hz (√(30·15k), the band's mid):
+	// V(spk)/V(v1_g) 28.5656 closed, 178.598 with R14's far end at
+	// chassis; 20·log10 of their ratio 15.92 dB (pare works on the reduced
+	// circuit, driver decoupling at AC ground: within 0.5 %).
+	for _, w := range []struct {
+		name string
+		want float64
+	}{{"gain_closed_loop", 28.5656}, {"gain_open_loop", 178.598}, {"nfb", 15.92}} {
+		f, ok := fb.Figures.Get(w.name)
+		if !ok {
+			t.Errorf("no %s; figures %v", w.name, fb.Figures)
+			continue
+		}
+		if math.Abs(math.Abs(f.Value)-w.want) > 0.005*w.want {
+			t.Errorf("%s %.4g, ngspice %.4g", w.name, f.Value, w.want)
+		}
+	}
+	if s := stageOf(stages, "cathodyne"); s == nil || !slices.Contains(s.Parts, "V2") || !slices.Contains(s.Parts, "R8") {
+		t.Errorf("V2 not a cathodyne with its bias resistor; found %s", topologies(stages))
+	}
+}
