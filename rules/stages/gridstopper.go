@@ -15,10 +15,13 @@ import (
 // input capacitance: fc = 1/(2πR·Cin), Cin = Cin0 + (1 + |A|)·Cf (the
 // Miller effect, handbook formula, from memory), A the device's gain from
 // its control electrode to its output electrode as the solver gives it in
-// circuit at the top of the band, the electrode held by the source and the
-// stopper itself taken out: left in, the stopper would carry the held
-// grid's signal back into the driver (a cathodyne's low cathode, the other
-// half of a push-pull pair through the splitter), and the figure would
+// circuit at the top of the band: the ratio of its output and control
+// electrodes' voltages with the set driven from its input, as the device
+// works (a push-pull half driven alone sees another load than with its
+// partner in antiphase, and outside the overall feedback); only where no
+// input reaches it is the electrode held by the source and the stopper
+// taken out (left in, the stopper would carry the held grid's signal back
+// into the driver, and the figure would
 // count that as the valve's gain. The solver has no interelectrode
 // capacitances, so Cin0 and Cf are the typical ones below and the corner
 // is a check value, said to rest on them.
@@ -59,9 +62,9 @@ func calcStopper(x *figCtx) {
 	cin, cf, what := inputCaps(dev)
 	gain := 0.0
 	band := x.w.c.BandOf(dev)
-	if a, ok := x.controlGain(dev, r, band.Max); ok {
+	if a, how, ok := x.controlGain(dev, r, band.Max); ok {
 		gain = a
-		x.set("gain_miller", figure.Ratio, a, figure.BySolver("|V(output)/V(control)| of "+dev.Ref+" with "+r.Ref+" out", hz(band.Max)))
+		x.set("gain_miller", figure.Ratio, a, figure.BySolver("|V(output)/V(control)| of "+dev.Ref+" "+how, hz(band.Max)))
 	}
 	c := cin + (1+gain)*cf
 	fc := 1 / (2 * math.Pi * r.Value.Max * c)
@@ -75,12 +78,15 @@ func calcStopper(x *figCtx) {
 	}
 }
 
-// controlGain is |V(output)/V(control)| of dev at f in circuit, the
-// control electrode driven and its stopper out: the gain the Miller effect
-// multiplies.
-func (x *figCtx) controlGain(dev, stopper *graph.Part, f float64) (float64, bool) {
+// controlGain is |V(output)/V(control)| of dev at f in circuit: the gain
+// the Miller effect multiplies. Where the circuit has a declared input that
+// reaches the control electrode, it is the ratio of the two electrodes'
+// voltages with the set driven from there, as the valve works (a push-pull
+// half driven in antiphase with its partner, inside any overall feedback);
+// else the control electrode is driven itself, its stopper out.
+func (x *figCtx) controlGain(dev, stopper *graph.Part, f float64) (a float64, from string, ok bool) {
 	if !x.solve || !(f > 0) {
-		return 0, false
+		return 0, "", false
 	}
 	var ctl, out string
 	for _, pin := range dev.Pins {
@@ -92,15 +98,47 @@ func (x *figCtx) controlGain(dev, stopper *graph.Part, f float64) (float64, bool
 		}
 	}
 	if ctl == "" || out == "" {
-		return 0, false
+		return 0, "", false
 	}
-	resp, err := ac.NewTransfer(without(x.solverCircuit(), stopper.Ref), ctl, out, gangMid.options())
+	if a, in, ok := x.workingRatio(ctl, out, f); ok {
+		return a, "with the set driven from " + in, true
+	}
+	a, ok = transferMag(without(x.solverCircuit(), stopper.Ref), ctl, out, f)
+	return a, "with " + stopper.Ref + " out", ok
+}
+
+// workingRatio is |V(out)/V(ctl)| with the circuit driven from its first
+// declared input, and that input's net; not ok where the input does not
+// reach ctl.
+func (x *figCtx) workingRatio(ctl, out string, f float64) (float64, string, bool) {
+	c := x.solverCircuit()
+	if len(c.Inputs) == 0 || c.Inputs[0] == ctl {
+		return 0, "", false
+	}
+	in := c.Inputs[0]
+	hc, ok1 := transferComplex(c, in, ctl, f)
+	ho, ok2 := transferComplex(c, in, out, f)
+	if !ok1 || !ok2 || cmplx.Abs(hc) < 1e-9*cmplx.Abs(ho) || cmplx.Abs(hc) == 0 {
+		return 0, "", false
+	}
+	return cmplx.Abs(ho / hc), in, true
+}
+
+// transferMag is |V(out)/V(in)| at f with in driven.
+func transferMag(c *graph.Circuit, in, out string, f float64) (float64, bool) {
+	h, ok := transferComplex(c, in, out, f)
+	return cmplx.Abs(h), ok
+}
+
+// transferComplex is V(out)/V(in) at f with in driven.
+func transferComplex(c *graph.Circuit, in, out string, f float64) (complex128, bool) {
+	resp, err := ac.NewTransfer(c, in, out, gangMid.options())
 	if err != nil {
 		return 0, false
 	}
 	v, err := resp.At(f)
-	if err != nil || cmplx.IsNaN(v) {
+	if err != nil || cmplx.IsNaN(v) || cmplx.IsInf(v) {
 		return 0, false
 	}
-	return cmplx.Abs(v), true
+	return v, true
 }

@@ -47,4 +47,19 @@ func TestReview14FeedbackAndSplitter(t *testing.T) {
 	if s := stageOf(stages, "cathodyne"); s == nil || !slices.Contains(s.Parts, "V2") || !slices.Contains(s.Parts, "R8") {
 		t.Errorf("V2 not a cathodyne with its bias resistor; found %s", topologies(stages))
 	}
+	// The output pentode's Miller gain is its anode over its grid as it
+	// works, both halves driven in antiphase inside the loop: ngspice-39 on
+	// a04_miller.cir gives |V(v3_a)/V(v3_g)| 5.4682 at 15 kHz (the band's
+	// top), not the 2.9 of V3's grid driven alone.
+	for _, s := range stages {
+		if s.Topology != "grid-stopper" || !slices.Contains(s.Parts, "R12") {
+			continue
+		}
+		f, ok := s.Figures.Get("gain_miller")
+		if !ok || math.Abs(f.Value-5.4682) > 0.005*5.4682 {
+			t.Errorf("R12's Miller gain %v (ok %v), ngspice 5.468", f.Value, ok)
+		}
+		return
+	}
+	t.Errorf("no grid stopper R12; found %s", topologies(stages))
 }
