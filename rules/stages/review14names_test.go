@@ -3,6 +3,7 @@ package stages
 import (
 	"math"
 	"slices"
+	"strings"
 	"testing"
 )
 
@@ -62,4 +63,26 @@ func TestReview14FeedbackAndSplitter(t *testing.T) {
 		return
 	}
 	t.Errorf("no grid stopper R12; found %s", topologies(stages))
+}
+
+// Review 14's frequency changer (testdata/review14/a02.toml): the 100 nF
+// AGC decoupler at the aerial winding's cold end is in the tank's loop
+// but is a bypass to AC ground, 274 times the gang's 365 pF: the formula's
+// words name only the gang section (common practice).
+func TestReview14TankCountsNoBypass(t *testing.T) {
+	c := reviewCircuit(t, "review14", "a02.toml")
+	for _, s := range findBiased(t, c) {
+		if !slices.Contains(s.Parts, "VC1a") || !slices.Contains(s.Parts, "C1") {
+			continue
+		}
+		f, ok := s.Figures.Get("f")
+		if !ok {
+			t.Fatalf("%s %v: no f", s.Name, s.Parts)
+		}
+		if !strings.Contains(f.Why, "(VC1a)") {
+			t.Errorf("%s: %q counts the decoupler C1 among the tank's capacitors", s.Name, f.Why)
+		}
+		return
+	}
+	t.Error("no aerial tank with VC1a and C1")
 }

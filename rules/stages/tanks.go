@@ -53,7 +53,29 @@ func (x *figCtx) tankFigures(ref string, l float64, a, b int, caps []*graph.Part
 		}
 		return resonance(l, capBetween(x.w, caps, a, b, frac))
 	}
-	x.resonanceFigure("f", ref, l, a, b, formulaAt, byResonance, refsOf(caps))
+	x.resonanceFigure("f", ref, l, a, b, formulaAt, byResonance, tuningRefs(caps, cmax))
+}
+
+// tankBypassRatio is how many times a tank's largest capacitance a
+// capacitor in its loop must be to be a bypass, not a tuning capacitor:
+// 100, so in series with the tuning it moves the tank's C (and f) by under
+// 1 %, inside the formula check's 2 % (common practice: a 100 nF decoupler
+// at the cold end of a winding tuned by a few hundred pF).
+const tankBypassRatio = 100
+
+// tuningRefs lists the capacitors that tune a tank of capacitance c: one
+// tankBypassRatio times c or more (an AGC or supply decoupler at a
+// winding's cold end, in series with the tuning) is a bypass to AC ground,
+// not one of the tank's own.
+func tuningRefs(caps []*graph.Part, c float64) []string {
+	var out []string
+	for _, p := range caps {
+		if c > 0 && p.Capacitance(1) >= tankBypassRatio*c {
+			continue
+		}
+		out = append(out, p.Ref)
+	}
+	return out
 }
 
 func hasVariable(caps []*graph.Part) bool {
