@@ -14,7 +14,7 @@ import (
 // unbypassed part Ru of the stage's lead. The feedback in decibels is how
 // far the loop lowers the gain from the stage's control electrode to Rf's
 // far end: 20·log10(A open / A closed) = 20·log10(1 + Aβ) (handbook
-// feedback amplifier, from memory; docs/references.md §37), with the loop
+// feedback amplifier, from memory; docs/references.md §38), with the loop
 // opened the usual loaded way: Rf's far end put at chassis, so the lead
 // and the output keep the load Rf puts on them.
 func init() {

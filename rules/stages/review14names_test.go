@@ -12,7 +12,7 @@ import (
 // winding, and V2 is a cathodyne whose grid leak returns to its bias
 // junction. The cathode network is V1's stage, not an RC low-pass, and
 // the feedback figures are the solver's, against ngspice on the
-// reviewer's deck (docs/references.md §37).
+// reviewer's deck (docs/references.md §38).
 func TestReview14FeedbackAndSplitter(t *testing.T) {
 	c := reviewCircuit(t, "review14", "a04.toml")
 	stages := findBiased(t, c)
