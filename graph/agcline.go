@@ -150,6 +150,9 @@ func (c *Circuit) biasesControl(net, skip string) bool {
 					continue
 				}
 				far, ok := dcNeighbour(cn)
+				if ok && c.RoleOf(far.Net).IsACGround() && c.returnsControl(far, n) {
+					control = true // a base return joined away, named as fed from here
+				}
 				if !ok {
 					far, ok = windingEnd(cn)
 				}
@@ -176,4 +179,66 @@ func (c *Circuit) biasesControl(net, skip string) bool {
 func (c *Circuit) notSignal(net string) bool {
 	r := c.RoleOf(net)
 	return r.IsACGround() && r != Bias
+}
+
+// agcBranch tells whether net is a base or grid return the AGC line feeds
+// through a resistor: net reaches control electrodes only (feedsOnlyControl)
+// and a resistor joins it to the AGC line, still live (AGCFeed on the far
+// net, through another resistor than this one: not the detector's side of
+// the line's own filter) or already joined away (a rail of the bias role
+// fed from a detector's output, or a declared bias net). A standing-bias
+// resistor from a supply may feed the same net: the control voltage is
+// what the line carries, so it is named after the line ("AGC line via R2"),
+// never "bias via R1". It gives the line's net, its name and the resistor.
+func (c *Circuit) agcBranch(net string) (line, name, via string, ok bool) {
+	if !c.feedsOnlyControl(net) {
+		return "", "", "", false
+	}
+	for _, cn := range c.ConnsOf(net) {
+		if cn.Part.Kind != Resistor {
+			continue
+		}
+		far, ok := dcNeighbour(cn)
+		if !ok || far.Net == net {
+			continue
+		}
+		if !c.RoleOf(far.Net).IsACGround() {
+			if _, feed, ok := c.AGCFeed(far.Net); ok && feed != cn.Part.Ref {
+				return far.Net, agcLineName, cn.Part.Ref, true
+			}
+			continue
+		}
+		if r := c.ReturnOf(far); r != nil && c.isAGCRail(r) {
+			return r.Name, withoutRemarks(WithoutVolts(railLabel(r))), cn.Part.Ref, true
+		}
+	}
+	return "", "", "", false
+}
+
+// agcLineName is the tag of an AGC line found by its wiring.
+const agcLineName = "AGC line"
+
+// isAGCRail tells whether a rail a reduction joined away is an AGC line: of
+// the bias role and fed from a net that carries a detector's output
+// (MarkDecoupled set it so), or a bias net the netlist declares.
+func (c *Circuit) isAGCRail(r *Net) bool {
+	if r.Role != Bias {
+		return false
+	}
+	if r.Declared {
+		return true
+	}
+	return r.Fed != "" && c.Net(r.Fed) != nil && c.DetectorFeeds(r.Fed, "")
+}
+
+// returnsControl tells whether a terminal a reduction moved off a base or
+// grid return is on a line fed from net that reaches control electrodes
+// only: MarkDecoupled named it so (agcBranch) before it joined it to AC
+// ground, when the line's way to the base still ran through it.
+func (c *Circuit) returnsControl(far Pin, net string) bool {
+	if far.Rail == "" {
+		return false
+	}
+	r := c.ReturnOf(far)
+	return r != nil && r.Role == Bias && r.Fed == net
 }

@@ -66,8 +66,10 @@ func (c *Circuit) ReturnOf(pin Pin) *Net {
 // takes the bias role and is named a bias line, never after the supply it
 // is fed from. A line a detector feeds through a resistor that biases a
 // controlled stage is the AGC line (AGCFeed): bias role, "AGC line", fed
-// from the detector's net. The first feed by part ref wins; it reports
-// whether it marked.
+// from the detector's net, and a base return the line feeds through a
+// resistor is named after the line (agcBranch). Of several rails feeding
+// the line the one that supplies its current names it (railFeed); it
+// reports whether it marked.
 func (c *Circuit) MarkDecoupled(net string) bool {
 	n := c.Net(net)
 	if n == nil || n.Role != Signal {
@@ -83,22 +85,18 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 		}
 		return true
 	}
-	var from *Net
-	via := ""
-	for _, cn := range c.ConnsOf(net) {
-		other, ok := dcNeighbour(cn)
-		if !ok || other.Net == net || !c.RoleOf(other.Net).IsACGround() {
-			continue
+	if line, name, via, ok := c.agcBranch(net); ok {
+		// a base or grid return the AGC line feeds: the line's, whatever
+		// standing bias a supply adds
+		c.journal().saveNet(net)
+		n.Role, n.Fed = Bias, line
+		if n.Label == "" {
+			n.Label = name + " via " + via
 		}
-		ret := c.ReturnOf(other)
-		if ret == nil || !ret.Role.IsRail() {
-			return false // a leg to chassis too: a bias divider's tap, not a supply line
-		}
-		if from == nil {
-			from, via = ret, cn.Part.Ref
-		}
+		return true
 	}
-	if from == nil {
+	from, via, ok := c.railFeed(net)
+	if !ok {
 		return false
 	}
 	c.journal().saveNet(net)
