@@ -73,3 +73,45 @@ func railOrNet(c *graph.Circuit, name string) *graph.Net {
 	}
 	return c.Net(name)
 }
+
+// The tags of the lines the main job grounds name what feeds them: a
+// decoupled collector supply by the rail that supplies its current through
+// its decoupling resistor (b02's RF transformer cold end, vcc_rf, was
+// "AGC line via R2, R1", named after the far end of the base bias
+// resistor R1; b05's IFT1 cold end, vcc_mix, was no line at all, its bias
+// chain R1-R2 to chassis taken for a divider, and drawn as chassis), and a
+// base return the AGC line feeds by the line (b03's q1_bias was "bias via
+// R1"). Circuit: the reviewer's, testdata/review14; the feeds are the
+// netlists' own (R5 1 kΩ from +9 V against R1 82 kΩ to the base).
+func TestReview14LineTags(t *testing.T) {
+	cases := []struct{ file, net, label, fed string }{
+		{"review14/b02.toml", "vcc_rf", "vcc via R5", "vcc"},
+		{"review14/b02.toml", "q1_bias", "AGC line via R2", "agc"},
+		{"review14/b03.toml", "q1_bias", "AGC line via R2", "agc"},
+		{"review14/b03.toml", "vcc_d1", "vcc via R9", "vcc"},
+		{"review14/b05.toml", "vcc_mix", "battery via R30", "batt"},
+		{"review14/b05.toml", "q2_bias", "AGC line via R6", "agc"},
+		{"review14/b05.toml", "vcc_if", "battery via R31", "batt"},
+		{"review13/b03.toml", "agc_if", "AGC line via R2", "agc"},
+		{"review13/b05.toml", "vcc_if", "vcc via R11", "vcc"},
+	}
+	jobs := map[string]*pipeline.Result{}
+	for _, tc := range cases {
+		t.Run(tc.file+"/"+tc.net, func(t *testing.T) {
+			job := jobs[tc.file]
+			if job == nil {
+				po := jobOptions(filepath.Join("..", "..", "testdata", tc.file), jobConfig{level: rules.LevelSignal})
+				po.Until = pipeline.PhaseReduce
+				var err error
+				if job, err = pipeline.Run(po); err != nil {
+					t.Fatalf("main job: %v", err)
+				}
+				jobs[tc.file] = job
+			}
+			n := railOrNet(job.Reduced, tc.net)
+			if n == nil || n.Label != tc.label || n.Fed != tc.fed {
+				t.Errorf("%s after the reduction: %+v, want %q fed from %s", tc.net, n, tc.label, tc.fed)
+			}
+		})
+	}
+}
