@@ -121,15 +121,16 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 			if (role == graph.Ground) != (pass == 0) {
 				continue
 			}
-			var best *geom.Local
-			for s := 1.0; s <= 6 && best == nil; s++ {
-				for _, l := range localCandidates(p, ret, role, s) {
-					if !obs.hits(l.Box.Inset(0.15), l.Stub) {
-						ll := l
-						best = &ll
-						break
-					}
-				}
+			// On a mains transformer (one declaring its mains frequency)
+			// the earth of a winding's end keeps off the next winding's
+			// lane: hung over the primary it read as the live primary
+			// tied to chassis. Elsewhere the shortest stub stays, as the
+			// moved earths crowded other sheets' wires into line.
+			_, mains := cl.part.Params["hz"]
+			sideways := p.Dir == geom.Left || p.Dir == geom.Right
+			best := firstClear(obs, wired, p, ret, role, mains && cl.part.Kind == graph.Transformer && role == graph.Ground && sideways)
+			if best == nil {
+				best = firstClear(obs, wired, p, ret, role, false)
 			}
 			if best == nil {
 				l := localCandidates(p, ret, role, 6)[0]
@@ -141,6 +142,51 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 			obs.segs = append(obs.segs, best.Stub...)
 		}
 	}
+}
+
+// firstClear is the first candidate local symbol for pin p, shortest stub
+// first, that keeps clear of the obstacles and, when lanes is set, stays
+// more than a grid step from the line out of every other wired pin of the
+// cell: an earth hung from a winding's end one step above the next
+// winding's pin sat on that winding's wire and its junction dot, so the
+// wire read as earthed.
+func firstClear(obs *obstacles, wired []geom.Pin, p geom.Pin, ret *graph.Net, role graph.Role, lanes bool) *geom.Local {
+	for s := 1.0; s <= 6; s++ {
+		for _, l := range localCandidates(p, ret, role, s) {
+			turnedUp := l.Kind == geom.LocalGround && !l.Down && (p.Dir == geom.Left || p.Dir == geom.Right)
+			if obs.hits(l.Box.Inset(0.15), l.Stub) || (lanes && nearLane(l, wired, p.Net)) || (!lanes && turnedUp) {
+				// an earth turned up only to keep off a lane: the
+				// plain way down is the better drawing otherwise
+				continue
+			}
+			return &l
+		}
+	}
+	return nil
+}
+
+// nearLane says whether local l's symbol comes within half a grid step,
+// or its stub's turn within two, of the line six steps straight out of a
+// wired pin of another net: the wire that leaves there would run under
+// the bars, or meet the stub end on and read as its continuation.
+func nearLane(l geom.Local, wired []geom.Pin, net string) bool {
+	near := l.Box.Inset(0.5)
+	for _, q := range wired {
+		if q.Net == net {
+			continue
+		}
+		st := q.Dir.Step()
+		lane := geom.R(q.At.X, q.At.Y, q.At.X+6*st.X, q.At.Y+6*st.Y)
+		if near.Overlaps(lane) {
+			return true
+		}
+		for _, s := range l.Stub[1:] {
+			if s.Box().Inset(2).Overlaps(lane) {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // localCandidates lists the ways a local symbol can hang from pin p with a
@@ -164,6 +210,16 @@ func localCandidates(p geom.Pin, ret *graph.Net, role graph.Role, s float64) []g
 			at := geom.Pt{X: end.X, Y: end.Y + 1}
 			l.Stub = []geom.Seg{{A: p.At, B: end}, {A: end, B: at}}
 			l.At, l.Down = at, true
+			// the same turned up, for a pin whose neighbour below
+			// leaves no room under the bars
+			up := base
+			up.Kind = geom.LocalGround
+			top := geom.Pt{X: end.X, Y: end.Y - 1}
+			up.Stub = []geom.Seg{{A: p.At, B: end}, {A: end, B: top}}
+			up.At = top
+			_, l.Box = symbol.Ground(l.At, false, symbol.IEC)
+			_, up.Box = symbol.Ground(up.At, true, symbol.IEC)
+			return []geom.Local{l, up}
 		}
 		_, l.Box = symbol.Ground(l.At, !l.Down, symbol.IEC) // the box is the same in both styles
 		return []geom.Local{l}
