@@ -27,6 +27,12 @@ type Report struct {
 	// another stage: a frame says "these parts are this stage", so one
 	// enclosing another stage's transistor tells a wrong story.
 	FrameIntruders []string
+	// ForeignFrames are wires running through a stage's frame that holds
+	// none of their net's pins: the wire reads as part of that stage.
+	ForeignFrames []string
+	// WireBoxes are nets whose wires run along three or four sides of a
+	// stage title or a part: a box the eye reads as a loop round it.
+	WireBoxes []string
 	// FrameStrays are symbols of parts in no stage inside a frame: not
 	// wrong (the part belongs to no other stage), but worth a look.
 	FrameStrays []string
@@ -184,6 +190,8 @@ func Measure(g *geom.Sheet) *Report {
 	r.labels(g, boxes, &bix, segs)
 	r.frameEdges(g, boxes, segs)
 	r.frameIntruders(g)
+	r.foreignFrames(g)
+	r.wireBoxes(g)
 	r.closeWires(segs)
 	r.misreadings(segs, boxes, &bix)
 	r.endsNear(g, segs)
@@ -197,7 +205,7 @@ func Measure(g *geom.Sheet) *Report {
 	if g.PageMM > 0 {
 		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)
 	}
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions} {
 		sort.Strings(l)
 	}
 	return r

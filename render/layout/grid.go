@@ -51,6 +51,10 @@ const (
 	// a step through a stage frame's edge: a wire of the stage stays inside
 	// its frame rather than run round outside it
 	edgeCost = 6
+	// a step inside a stage frame that holds none of the net's pins: the
+	// wire would read as part of that stage (render/check's foreign
+	// frames); a crossing still costs more than a short passage
+	foreignCost = 3
 )
 
 // arm bits: which neighbours a wire cell connects to
@@ -80,6 +84,13 @@ const (
 	fNearPin                    // beside a pin tip (whose net the search looks up)
 )
 
+// frameShift is where a cell's flags keep the number (1 to maxFrameMarks) of
+// the stage frame whose interior holds it; 0 is none.
+const (
+	frameShift    = 10
+	maxFrameMarks = 63
+)
+
 // gridCell is one grid point: the nets whose wires use it (two where wires
 // cross), their arms, the net reserved there (a pin tip and the point just
 // outside it) and the flags above. Kept together so that the search reads
@@ -103,6 +114,7 @@ type netRoute struct {
 	pins  []wirePin
 	cells []int // cells the net's wires use, in the order they were laid
 	ok    bool
+	home  uint64 // the marked frames (bit n-1 for frame n) holding a pin of the net
 }
 
 // router is a grid of cells one grid step apart over the sheet.
@@ -177,9 +189,37 @@ func (rt *router) blockObstacles() {
 		}
 		rt.blockTip(cl.shape)
 	}
-	for _, f := range rt.ly.frames {
+	for i, f := range rt.ly.frames {
 		rt.block(f.Title.Box)
 		rt.markHugs(f.Box)
+		if i < maxFrameMarks {
+			rt.markFrame(i+1, f.Box)
+		}
+	}
+}
+
+// markCells gives the cells inside b the frame number n.
+func (rt *router) markCells(b geom.Rect, n int) {
+	for y := int(math.Ceil(b.Y0)); y <= int(math.Floor(b.Y1)); y++ {
+		for x := int(math.Ceil(b.X0)); x <= int(math.Floor(b.X1)); x++ {
+			if x-rt.x0 >= 0 && y-rt.y0 >= 0 && x-rt.x0 < rt.w && y-rt.y0 < rt.h {
+				g := &rt.g[(y-rt.y0)*rt.w+x-rt.x0]
+				g.flags = g.flags&(1<<frameShift-1) | uint16(n)<<frameShift
+			}
+		}
+	}
+}
+
+// markFrame numbers the cells inside frame n's box, and marks it home to
+// every net with a pin there.
+func (rt *router) markFrame(n int, b geom.Rect) {
+	rt.markCells(b, n)
+	for _, nr := range rt.nets {
+		for _, wp := range nr.pins {
+			if b.Contains(wp.pin.At) {
+				nr.home |= 1 << (n - 1)
+			}
+		}
 	}
 }
 

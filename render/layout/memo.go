@@ -80,7 +80,11 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 			}
 			g := &row[x]
 			fl := byte(g.flags&0x3f) | byte(g.flags&fStub>>2) // the faded flags left out
-			if g.own[0]|g.own[1]|g.resv == 0 && g.arm[0]|g.arm[1] == 0 {
+			foreign := k.foreign(g)
+			if foreign {
+				fl |= 0x80 // only in the long form, whose third byte it is
+			}
+			if g.own[0]|g.own[1]|g.resv == 0 && g.arm[0]|g.arm[1] == 0 && !foreign {
 				b = append(b, fl) // no wire, nothing reserved: most of the grid
 				continue
 			}

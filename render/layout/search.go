@@ -93,6 +93,7 @@ type seek struct {
 	w, h  int
 	q     *stateQueue
 	cross int32    // a crossing's price: crossCost, or wideCrossCost
+	home  uint64   // the frames holding the net's pins (netRoute.home)
 	lines [3]int32 // a run's end's price by what lies in line beyond it
 }
 
@@ -106,7 +107,7 @@ type seek struct {
 // keeps that order and turns a state's number back into its point with a
 // shift and a mask instead of a division.
 func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int {
-	k := seek{net: net, pinCell: p.cell, win: win, shift: uint(bits.Len(uint(win.x1 - win.x0))),
+	k := seek{net: net, home: rt.nets[net-1].home, pinCell: p.cell, win: win, shift: uint(bits.Len(uint(win.x1 - win.x0))),
 		to: aim{int(tree.X0) - rt.x0, int(tree.Y0) - rt.y0, int(tree.X1) - rt.x0, int(tree.Y1) - rt.y0}}
 	for d, st := range dirStep {
 		k.cellAt[d] = st[0] + st[1]*rt.w
@@ -293,7 +294,17 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 	if at.flags&(fCutE<<axis) != 0 {
 		extra += edgeCost
 	}
+	if k.foreign(g) {
+		extra += foreignCost
+	}
 	return extra, true
+}
+
+// foreign says whether the cell lies inside a stage frame holding none of
+// the net's pins.
+func (k *seek) foreign(g *gridCell) bool {
+	fr := g.flags >> frameShift
+	return fr != 0 && k.home&(1<<(fr-1)) == 0
 }
 
 // What lies in line beyond the end of a run, as ahead finds it.

@@ -1,0 +1,66 @@
+package main
+
+import (
+	"fmt"
+	"path/filepath"
+	"testing"
+
+	"pare/render"
+	"pare/render/check"
+)
+
+// wireBoxCeiling is how many wires run through a stage frame holding none
+// of their net's pins, and how many run on three sides of a stage title or
+// a part (render/check's ForeignFrames and WireBoxes), over the gallery and
+// the blind-review circuits of testdata/review14, whole sheets (every view,
+// both styles) and A3 pages (every view, IEC), as measured when the checker
+// learned them. A change may lower these, never raise them.
+var wireBoxCeiling = struct{ foreign, boxes int }{88, 337}
+
+// TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
+// its net has a pin there (a frame says "these parts are this stage"), and
+// no wire boxes a stage title or a part in (a title framed by a wire reads
+// as a part; a part in a wire box as a loop of its own). Both counts stay
+// under wireBoxCeiling; every finding is logged.
+func TestWiresKeepOutOfFrames(t *testing.T) {
+	review, err := filepath.Glob("../../testdata/review14/*.toml")
+	if err != nil || len(review) == 0 {
+		t.Fatalf("no review circuits: %v", err)
+	}
+	files := append(readSheets(t), review...)
+	warmSheets(files, "A3")
+	foreign, boxes := 0, 0
+	count := func(where string, r *check.Report) {
+		foreign += len(r.ForeignFrames)
+		boxes += len(r.WireBoxes)
+		for _, l := range [][]string{r.ForeignFrames, r.WireBoxes} {
+			for _, p := range l {
+				t.Logf("%s: %s", where, p)
+			}
+		}
+	}
+	for _, f := range files {
+		for _, v := range drawViews {
+			for _, st := range []render.Style{render.IEC, render.IEEE} {
+				count(fmt.Sprintf("%s %v %v", filepath.Base(f), v, st), cachedSheet(t, f, v, st).report)
+			}
+			pages, err := cachedPages(f, v, "A3")
+			if err != nil {
+				t.Fatal(err)
+			}
+			for i, pg := range pages {
+				count(pageName(f, v, i), check.Measure(pg))
+			}
+		}
+	}
+	t.Logf("wires through a foreign frame: %d (ceiling %d); wire boxes round a title or part: %d (ceiling %d)",
+		foreign, wireBoxCeiling.foreign, boxes, wireBoxCeiling.boxes)
+	if foreign > wireBoxCeiling.foreign || boxes > wireBoxCeiling.boxes {
+		t.Errorf("more wires through foreign frames (%d, ceiling %d) or wire boxes (%d, ceiling %d); the log lists them",
+			foreign, wireBoxCeiling.foreign, boxes, wireBoxCeiling.boxes)
+	}
+}
+
+func pageName(f string, v render.View, i int) string {
+	return fmt.Sprintf("%s %v page %d", filepath.Base(f), v, i+1)
+}

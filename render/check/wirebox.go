@@ -1,0 +1,141 @@
+package check
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"pare/render/geom"
+)
+
+// A frame tells the reader "these parts are one stage": a wire of a net with
+// no pin inside it that runs through it reads as part of that stage. And a
+// wire running on three sides of a stage title or a part draws a box round
+// it: the title reads as a part, the part as sitting in a loop of its own.
+
+// boxReach is how far (grid steps) from a title's or part's box a wire may
+// run and still count as running along that side, and boxCover how much of
+// the side it must run along.
+const (
+	boxReach = 3.5
+	boxCover = 0.5
+)
+
+// foreignFrames finds wires running through the interior of a frame that
+// holds no pin of their net: one finding per net and frame.
+func (r *Report) foreignFrames(g *geom.Sheet) {
+	for k, f := range g.Frames {
+		home := map[string]bool{}
+		for _, s := range g.Symbols {
+			for _, p := range s.Pins {
+				if f.Box.Contains(p.At) {
+					home[p.Net] = true
+				}
+			}
+		}
+		for _, l := range g.Locals {
+			if f.Box.Contains(l.At) {
+				home[l.Net] = true
+			}
+		}
+		in := f.Box.Inset(-0.25) // the interior, clear of wires hugging the edge
+		name := fmt.Sprintf("frame %d %q", k+1, first(f.Title.Lines))
+		for _, w := range g.Wires {
+			if home[w.Net] {
+				continue
+			}
+			for _, s := range w.Segs {
+				if s.Touches(in) && through(s, in) {
+					r.ForeignFrames = append(r.ForeignFrames, fmt.Sprintf("wire of %s runs through %s, which holds none of its pins", w.Net, name))
+					break
+				}
+			}
+		}
+	}
+}
+
+// through says whether the segment overlaps the rectangle's interior by
+// more than a point.
+func through(s geom.Seg, r geom.Rect) bool {
+	b := s.Box()
+	x0, x1 := math.Max(b.X0, r.X0), math.Min(b.X1, r.X1)
+	y0, y1 := math.Max(b.Y0, r.Y0), math.Min(b.Y1, r.Y1)
+	return x0 <= x1 && y0 <= y1 && (x1-x0 > geom.Eps || y1-y0 > geom.Eps)
+}
+
+// wireBoxes finds nets whose wires run along three or four sides of a stage
+// title or of a part's symbol.
+func (r *Report) wireBoxes(g *geom.Sheet) {
+	type target struct {
+		what string
+		box  geom.Rect
+	}
+	var ts []target
+	for k, f := range g.Frames {
+		ts = append(ts, target{fmt.Sprintf("the title of frame %d %q", k+1, first(f.Title.Lines)), f.Title.Box})
+	}
+	labels := map[string]geom.Rect{}
+	for _, l := range g.Labels {
+		if b, ok := labels[l.Owner]; ok {
+			labels[l.Owner] = b.Union(l.Box)
+		} else {
+			labels[l.Owner] = l.Box
+		}
+	}
+	for _, s := range g.Symbols {
+		if s.Kind == "" {
+			continue
+		}
+		b := s.Box
+		if l, ok := labels[s.Ref]; ok {
+			b = b.Union(l)
+		}
+		ts = append(ts, target{"part " + s.Ref + " and its label", b})
+	}
+	for _, t := range ts {
+		for _, w := range g.Wires {
+			if sides := boxSides(w.Segs, t.box); len(sides) >= 3 {
+				r.WireBoxes = append(r.WireBoxes, fmt.Sprintf("wire of %s runs on the %s of %s", w.Net, strings.Join(sides, ", "), t.what))
+			}
+		}
+	}
+}
+
+// boxSides lists the sides of b along which the segments run, outside b and
+// within boxReach of it, over at least boxCover of the side's length.
+func boxSides(segs []geom.Seg, b geom.Rect) []string {
+	var cover [4]float64 // top, right, bottom, left
+	for _, s := range segs {
+		sb := s.Box()
+		if s.Horizontal() {
+			run := overlap(sb.X0, sb.X1, b.X0, b.X1)
+			if y := sb.Y0; y <= b.Y0 && y >= b.Y0-boxReach {
+				cover[0] += run
+			} else if y >= b.Y1 && y <= b.Y1+boxReach {
+				cover[2] += run
+			}
+			continue
+		}
+		run := overlap(sb.Y0, sb.Y1, b.Y0, b.Y1)
+		if x := sb.X0; x >= b.X1 && x <= b.X1+boxReach {
+			cover[1] += run
+		} else if x <= b.X0 && x >= b.X0-boxReach {
+			cover[3] += run
+		}
+	}
+	names := [4]string{"top", "right", "bottom", "left"}
+	lens := [4]float64{b.W(), b.H(), b.W(), b.H()}
+	var out []string
+	for i, c := range cover {
+		if lens[i] > geom.Eps && c >= boxCover*lens[i] {
+			out = append(out, names[i])
+		}
+	}
+	sort.Strings(out)
+	return out
+}
+
+func overlap(a0, a1, b0, b1 float64) float64 {
+	return math.Max(0, math.Min(a1, b1)-math.Max(a0, b0))
+}
