@@ -113,8 +113,10 @@ func eachAtOnce(n int, fn func(i int)) {
 // (touching, or within half a step of a pin or dot) and within a grid step
 // of another net's wire, pin or junction dot (render/check's LocalsOn,
 // LocalsNear), as measured when the checker learned them, after a mains
-// transformer's winding earth was kept off the next winding's lane.
-var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots, localsOn, localsNear int }{1170, 194, 10, 106, 36, 44, 508}
+// transformer's winding earth was kept off the next winding's lane (44 and
+// 508). With wires kept out of foreign frames, all seven: 1166, 194, 10,
+// 102, 36, 46 and 510 (the frames' detours bring two flags closer).
+var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots, localsOn, localsNear int }{1166, 194, 10, 102, 36, 46, 510}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
