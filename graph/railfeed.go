@@ -33,6 +33,12 @@ func (c *Circuit) railFeed(net string) (from *Net, via string, ok bool) {
 			from, via, bestRank, bestR = ret, cn.Part.Ref, rank, r
 		}
 	}
+	if leg && c.Part(via) != nil && c.Part(via).Kind == Inductor {
+		// fed through a choke and loaded to chassis (a bleeder, a dummy
+		// load): a smoothing section's own line, named by the supply's
+		// pass, not a line hung off the rail before the choke
+		return nil, "", false
+	}
 	if from == nil || leg && legR < bleedRatio*bestR {
 		return nil, "", false // a bias divider's tap, not a supply line
 	}
