@@ -154,25 +154,31 @@ func TestBranchesOnTheirStagesPage(t *testing.T) {
 		{"b01", render.Faded, []string{"Q1", "C1", "C2", "C3", "R7", "R8"}, "oscillator and its RC ladder"},
 	}
 	for _, tc := range cases {
-		f := reviewFile(tc.file)
-		pages, err := cachedPages(f, tc.view, "A3")
-		if err != nil {
-			t.Fatal(err)
+		onOnePage(t, tc.file, tc.view, tc.refs, tc.why)
+	}
+}
+
+// onOnePage fails unless every one of refs stands on the same A3 page as
+// the first, in the review circuit's view.
+func onOnePage(t *testing.T, file string, view render.View, refs []string, why string) {
+	t.Helper()
+	pages, err := cachedPages(reviewFile(file), view, "A3")
+	if err != nil {
+		t.Fatal(err)
+	}
+	pageOf := map[string]int{}
+	for i, g := range pages {
+		for _, s := range g.Symbols {
+			pageOf[s.Ref] = i + 1
 		}
-		pageOf := map[string]int{}
-		for i, g := range pages {
-			for _, s := range g.Symbols {
-				pageOf[s.Ref] = i + 1
-			}
-		}
-		first := tc.refs[0]
-		for _, r := range tc.refs {
-			switch {
-			case pageOf[r] == 0:
-				t.Errorf("%s %s: %s is on no page", tc.file, tc.view, r)
-			case pageOf[r] != pageOf[first]:
-				t.Errorf("%s %s (%s): %s on page %d, %s on page %d of %d", tc.file, tc.view, tc.why, r, pageOf[r], first, pageOf[first], len(pages))
-			}
+	}
+	first := refs[0]
+	for _, r := range refs {
+		switch {
+		case pageOf[r] == 0:
+			t.Errorf("%s %s: %s is on no page", file, view, r)
+		case pageOf[r] != pageOf[first]:
+			t.Errorf("%s %s (%s): %s on page %d, %s on page %d of %d", file, view, why, r, pageOf[r], first, pageOf[first], len(pages))
 		}
 	}
 }

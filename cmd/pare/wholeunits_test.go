@@ -44,25 +44,6 @@ func TestUnitsOnOnePage(t *testing.T) {
 		{"c10", render.Reduced, []string{"T5", "SP1"}, "loudspeaker on its output transformer's secondary"},
 	}
 	for _, tc := range cases {
-		f := reviewFile(tc.file)
-		pages, err := cachedPages(f, tc.view, "A3")
-		if err != nil {
-			t.Fatal(err)
-		}
-		pageOf := map[string]int{}
-		for i, g := range pages {
-			for _, s := range g.Symbols {
-				pageOf[s.Ref] = i + 1
-			}
-		}
-		first := tc.refs[0]
-		for _, r := range tc.refs {
-			switch {
-			case pageOf[r] == 0:
-				t.Errorf("%s %s: %s is on no page", tc.file, tc.view, r)
-			case pageOf[r] != pageOf[first]:
-				t.Errorf("%s %s (%s): %s on page %d, %s on page %d of %d", tc.file, tc.view, tc.why, r, pageOf[r], first, pageOf[first], len(pages))
-			}
-		}
+		onOnePage(t, tc.file, tc.view, tc.refs, tc.why)
 	}
 }
