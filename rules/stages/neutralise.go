@@ -73,7 +73,7 @@ func calcNeutralising(x *figCtx) {
 		name = "c_added"
 		x.st.Title = expandTitle("Feedback capacitor from the output winding to the {control}, in phase with the {output} ({family})", x.st.Family)
 		x.flag("%s feeds %s's %s back from %s in phase with its %s: it adds to the internal capacitance's feedback, it does not neutralise (a link or winding connected the wrong way round?)",
-			cn.Ref, q.Ref, controlWord(q), xf.Ref, outputWord(q))
+			cn.Ref, q.Ref, ControlWord(q), xf.Ref, outputWord(q))
 	}
 	x.put(figure.Figure{Name: name, Unit: figure.Farad, Value: cf * cmplx.Abs(hn) / cmplx.Abs(hcf),
 		Origin: figure.BySolver(cn.Ref+"'s reverse transfer V("+ctl+")/V("+out+") over that of "+cfText+" from "+out+" to "+ctl+", times "+cfText, hz(f))})
@@ -82,7 +82,7 @@ func calcNeutralising(x *figCtx) {
 	x.put(figure.Figure{Name: "rev_transfer_open", Unit: figure.Ratio, Value: cmplx.Abs(hcf),
 		Origin: figure.BySolver("the same with "+cn.Ref+" taken out", at)})
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("compared with %s %s from %s's %s to %s (the solver's model has none)",
-		what, cfText, q.Ref, outputWord(q), controlWord(q)))
+		what, cfText, q.Ref, outputWord(q), ControlWord(q)))
 }
 
 // outputWindingOn is the transformer with a pin on net w and a pin on the

@@ -2,7 +2,6 @@ package stages
 
 import (
 	"fmt"
-	"math"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -43,31 +42,27 @@ func calcDriver(x *figCtx) {
 	if !x.solve {
 		return
 	}
-	b := x.w.c.BandOf(q)
-	ctl := q.NetOf(q.PinWithRole(graph.RoleControl))
-	out := q.NetOf(q.PinWithRole(graph.RoleOutput))
-	if b.Min <= 0 || b.Max <= b.Min || ctl == "" || out == "" {
+	c, ctl, out, f, ok := x.midbandDrive(q)
+	if !ok {
 		return
 	}
-	f := math.Sqrt(b.Min * b.Max)
-	c := x.solverCircuit()
 	g1, ok1 := transferAt(c, ctl, end1, f)
 	g2, ok2 := transferAt(c, ctl, end2, f)
 	if !ok1 || !ok2 {
 		return
 	}
-	if g1*g2 >= 0 || math.Abs(g1) > driverBalance*math.Abs(g2) || math.Abs(g2) > driverBalance*math.Abs(g1) {
+	if !antiphase(g1, g2, driverBalance) {
 		x.st.unconfirmed = fmt.Sprintf("in circuit %s drives %s ×%s and %s ×%s: not a push-pull pair's antiphase drive",
 			q.Ref, p1.Ref, figure.Plain(g1), p2.Ref, figure.Plain(g2))
 		return
 	}
 	at := hz(f) + ", " + gangMid.at
 	x.put(figure.Figure{Name: "gain", Unit: figure.Ratio, Value: g1,
-		Origin: figure.BySolver("V("+end1+")/V("+ctl+"), to "+p1.Ref+"'s "+controlWord(p1), at)})
+		Origin: figure.BySolver("V("+end1+")/V("+ctl+"), to "+p1.Ref+"'s "+ControlWord(p1), at)})
 	x.put(figure.Figure{Name: "gain_other_half", Unit: figure.Ratio, Value: g2,
-		Origin: figure.BySolver("V("+end2+")/V("+ctl+"), to "+p2.Ref+"'s "+controlWord(p2), at)})
-	gc, ok := transferAt(c, ctl, out, f)
-	if !ok {
+		Origin: figure.BySolver("V("+end2+")/V("+ctl+"), to "+p2.Ref+"'s "+ControlWord(p2), at)})
+	gc, okc := transferAt(c, ctl, out, f)
+	if !okc {
 		return
 	}
 	rl, _ := drivenZ(withPart(c, quietPart(q)), out, f)
@@ -93,8 +88,8 @@ func controlledBy(c *graph.Circuit, net string, not *graph.Part) *graph.Part {
 	return found
 }
 
-// controlWord is the control electrode's name for a device.
-func controlWord(p *graph.Part) string {
+// ControlWord is the control electrode's name for a device.
+func ControlWord(p *graph.Part) string {
 	switch p.Kind {
 	case graph.BJT:
 		return "base"

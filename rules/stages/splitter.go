@@ -2,7 +2,6 @@ package stages
 
 import (
 	"fmt"
-	"math"
 	"slices"
 
 	"pare/graph"
@@ -41,20 +40,16 @@ func calcSplitter(x *figCtx) {
 	if !x.solve {
 		return
 	}
-	b := x.w.c.BandOf(q)
-	g := q.NetOf(q.PinWithRole(graph.RoleControl))
-	o := q.NetOf(q.PinWithRole(graph.RoleOutput))
-	if b.Min <= 0 || b.Max <= b.Min || g == "" || o == "" {
+	c, g, o, f, ok := x.midbandDrive(q)
+	if !ok {
 		return
 	}
-	f := math.Sqrt(b.Min * b.Max)
-	c := x.solverCircuit()
 	ga, ok1 := transferAt(c, g, o, f)
 	gk, ok2 := transferAt(c, g, k, f)
 	if !ok1 || !ok2 {
 		return
 	}
-	if ga*gk >= 0 || math.Abs(ga) > splitBalance*math.Abs(gk) || math.Abs(gk) > splitBalance*math.Abs(ga) {
+	if !antiphase(ga, gk, splitBalance) {
 		x.st.unconfirmed = fmt.Sprintf("in circuit %s's %s gives ×%s and its %s ×%s: no split into equal and opposite halves",
 			q.Ref, outputWord(q), figure.Plain(ga), electrodeWord(q), figure.Plain(gk))
 		return

@@ -78,7 +78,7 @@ func ifInto(c *graph.Circuit, sts []stages.Stage, ifHz float64) string {
 	}
 	if p != nil {
 		pin := signalGrid(c, p)
-		return fmt.Sprintf("%s%s (%s %s, net %s) through a small capacitor", whose, controlWord(p), p.Ref, pin, p.NetOf(pin))
+		return fmt.Sprintf("%s%s (%s %s, net %s) through a small capacitor", whose, stages.ControlWord(p), p.Ref, pin, p.NetOf(pin))
 	}
 	if len(c.Inputs) > 0 {
 		return fmt.Sprintf("the IF strip's input (net %s)", c.Inputs[0])

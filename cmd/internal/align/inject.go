@@ -219,7 +219,7 @@ func controlPoint(c *graph.Circuit, p *graph.Part, mixer bool) point {
 			pin = sg
 		}
 	}
-	pt.net, pt.where = p.NetOf(pin), fmt.Sprintf("%s %s (%s)", p.Ref, controlWord(p), pin)
+	pt.net, pt.where = p.NetOf(pin), fmt.Sprintf("%s %s (%s)", p.Ref, stages.ControlWord(p), pin)
 	return pt
 }
 
@@ -262,16 +262,6 @@ func netDistances(c *graph.Circuit) func(string) int {
 
 func isDetector(s stages.Stage) bool {
 	return strings.Contains(s.Topology, "detector") || strings.Contains(s.Topology, "discriminator")
-}
-
-func controlWord(p *graph.Part) string {
-	switch p.Kind {
-	case graph.BJT:
-		return "base"
-	case graph.FET:
-		return "gate"
-	}
-	return "grid"
 }
 
 func portOn(c *graph.Circuit, net string) string {
