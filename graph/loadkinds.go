@@ -6,6 +6,7 @@ package graph
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"pare/graph/value"
@@ -78,6 +79,51 @@ func (ld *loader) inductor(path string, p *Part, m map[string]any, typ string) {
 
 var windingKeys = []string{"l", "q", "rdc"}
 
+// tapGuess reads a winding table whose l is a list of two inductances
+// ({ l = ["20u", "180u"], q = 90 }) as the tapped winding it plainly means,
+// after one message that shows the accepted form: refused outright, it used
+// to bring a knock-on "no terminal NAMEt" for every pin on the tap.
+func (ld *loader) tapGuess(np, name string, x any) ([]any, bool) {
+	t, ok := x.(map[string]any)
+	if !ok {
+		return nil, false
+	}
+	list, ok := t["l"].([]any)
+	if !ok || len(list) != 2 {
+		return nil, false
+	}
+	var rest []string
+	for _, k := range sortedKeys(t) {
+		if k != "l" {
+			rest = append(rest, fmt.Sprintf("%s = %s", k, tomlText(t[k])))
+		}
+	}
+	half := func(v any) map[string]any {
+		h := map[string]any{"l": v}
+		for k, w := range t {
+			if k != "l" {
+				h[k] = w
+			}
+		}
+		return h
+	}
+	extra := ""
+	if len(rest) > 0 {
+		extra = ", " + strings.Join(rest, ", ")
+	}
+	ld.errVal(np+".l", "a tapped winding is a list of its two sections, each a table: %s = [{ l = %s%s }, { l = %s%s }] (terminals %s1, %st, %s2)",
+		name, tomlText(list[0]), extra, tomlText(list[1]), extra, name, name, name)
+	return []any{half(list[0]), half(list[1])}, true
+}
+
+// tomlText writes a decoded TOML scalar back as it would be written.
+func tomlText(v any) string {
+	if s, ok := v.(string); ok {
+		return strconv.Quote(s)
+	}
+	return fmt.Sprint(v)
+}
+
 // winding reads one winding (or one half of a tapped one): its inductance,
 // or a table { l, q, rdc } with its own unloaded Q and DC resistance.
 func (ld *loader) winding(np string, w Winding, x any) Winding {
@@ -124,8 +170,12 @@ func (ld *loader) transformer(path string, p *Part, m map[string]any) {
 	for _, name := range sortedKeys(wm) {
 		np := wp + "." + name
 		w := Winding{Name: name, From: name + "1", To: name + "2", Q: q}
-		switch t := wm[name].(type) {
-		case []any:
+		t, ok := wm[name].([]any)
+		if !ok {
+			t, ok = ld.tapGuess(np, name, wm[name])
+		}
+		switch {
+		case ok:
 			// A centre-tapped winding: two halves, pins NAME1–NAMEt–NAME2, fully coupled.
 			if len(t) != 2 {
 				ld.errVal(np, "a tapped winding takes two partial inductances")

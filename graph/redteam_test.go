@@ -243,3 +243,15 @@ func TestPortOnGround(t *testing.T) {
 	wantError(t, "input on ground", "band = \"1k..2k\"\ninputs = [\"gnd\"]\n[parts]\nR1 = { r = \"1k\", pins = [\"a\", \"gnd\"] }\n", "2:11", "input gnd is a ground net")
 	wantError(t, "output on ground", "band = \"1k..2k\"\noutputs = [\"a\", \"gnd\"]\n[parts]\nR1 = { r = \"1k\", pins = [\"a\", \"gnd\"] }\n", "2:17", "output gnd is a ground net")
 }
+
+// A tapped winding written as one table with a list for l (a natural slip,
+// met in a blind review) gets one message at l that spells out the accepted
+// form, and no knock-on "no terminal pt" for the pin on the tap.
+func TestTappedWindingSlip(t *testing.T) {
+	src := head + `T1 = { windings = { p = { l = ["20u", "180u"], q = 90 }, s = "6u" }, k = 0.6, pins = { p1 = "a", pt = "b", p2 = "c", s1 = "d", s2 = "gnd" } }` + "\n"
+	wantError(t, "tap slip", src, "3:31", `p = [{ l = "20u", q = 90 }, { l = "180u", q = 90 }]`, "pt")
+	_, err := Parse("t.toml", []byte(src))
+	if list, ok := err.(ErrorList); ok && len(list) != 1 {
+		t.Errorf("tap slip: %d messages, want 1: %v", len(list), err)
+	}
+}
