@@ -52,7 +52,7 @@ func calcOverallFeedback(x *figCtx) {
 		return
 	}
 	at := hz(f) + ", " + gangMid.at
-	if math.Abs(closed) >= math.Abs(open) {
+	if !lowersGain(open, closed) {
 		x.st.unconfirmed = fmt.Sprintf("in circuit %s raises the gain from %s to %s (×%s open, ×%s closed): no negative feedback",
 			rf.Ref, g, fb, figure.Plain(open), figure.Plain(closed))
 		return

@@ -380,6 +380,34 @@ R4 = { r = "100k", pins = ["g2", "gnd"] }
 @Q2(g2, out, ht)
 R5 = { r = "4k7", pins = ["out", "gnd"] }
 R6 = { r = "100k", pins = ["out", "k"] }`},
+	// An inverting stage and a follower, the follower's output brought
+	// back to the first stage's control electrode through Rf, the signal
+	// coming in through Rin: overall shunt feedback, the loop lowering the
+	// gain (handbook inverting feedback amplifier, from memory).
+	{topology: "amp-shunt-feedback", families: allFamilies,
+		parts: `C1 = { c = "1u", pins = ["in", "s"] }
+R7 = { r = "10k", pins = ["s", "g1"] }
+R8 = { r = "47k", pins = ["g1", "gnd"] }
+@Q1(g1, gnd, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, out, ht)
+R5 = { r = "4k7", pins = ["out", "gnd"] }
+R6 = { r = "100k", pins = ["out", "g1"] }`,
+		// The second stage inverts too: the signal comes back in phase
+		// with the input, so the loop raises the gain (positive
+		// feedback), which the solver shows.
+		nearMiss: `C1 = { c = "1u", pins = ["in", "s"] }
+R7 = { r = "10k", pins = ["s", "g1"] }
+R8 = { r = "47k", pins = ["g1", "gnd"] }
+@Q1(g1, gnd, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, gnd, out)
+R5 = { r = "4k7", pins = ["out", "ht"] }
+R6 = { r = "100k", pins = ["out", "g1"] }`},
 	{topology: "amp-follower", families: allFamilies,
 		parts: `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`,
