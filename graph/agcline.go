@@ -209,7 +209,7 @@ func (c *Circuit) agcBranch(net string) (line, name, via string, ok bool) {
 			continue
 		}
 		if r := c.ReturnOf(far); r != nil && c.isAGCRail(r) {
-			return r.Name, withoutRemarks(WithoutVolts(railLabel(r))), cn.Part.Ref, true
+			return r.Name, FeedName(r), cn.Part.Ref, true
 		}
 	}
 	return "", "", "", false

@@ -101,10 +101,7 @@ func (c *Circuit) MarkDecoupled(net string) bool {
 	}
 	c.journal().saveNet(net)
 	n.Role = Supply
-	name := withoutRemarks(WithoutVolts(railLabel(from)))
-	if name == "" {
-		name = from.Name // a rail named only by its voltage ("+9 V"): its net's name
-	}
+	name := FeedName(from)
 	switch {
 	case from.Role == Bias:
 		n.Role = Bias // fed from a bias rail (an AGC line's filter): named after it
@@ -192,6 +189,21 @@ func WithoutVolts(label string) string {
 		return label
 	}
 	return strings.Join(strings.Fields(label[:loc[0]]+" "+label[loc[1]:]), " ")
+}
+
+// FeedName is how a line fed from rail n names it on its tag: the rail's
+// label without its voltage and remarks ("HT" from "HT +250 V (reservoir)"),
+// since the line has a voltage of its own; a rail named only by its
+// voltage keeps it ("+9 V via R5"), which is what the service sheet calls
+// it, not the netlist's net name.
+func FeedName(n *Net) string {
+	if n.Fed != "" && n.Label != "" {
+		return withoutRemarks(n.Label) // a line fed itself: its chain as named ("+12 V via R10")
+	}
+	if name := withoutRemarks(WithoutVolts(railLabel(n))); name != "" {
+		return name
+	}
+	return railLabel(n)
 }
 
 // withoutRemarks is a rail's label without its bracketed remarks ("HT1"

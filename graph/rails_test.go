@@ -172,7 +172,7 @@ func TestMarkDecoupledBiasLine(t *testing.T) {
 	}{
 		{"agc", "AGC line", Bias},
 		{"cd", "battery via R3", Supply},
-		{"gb", "vb via R5", Bias},
+		{"gb", "−2 V via R5", Bias}, // a rail known only by its voltage is named by it
 	} {
 		c, err := Parse("bias.toml", []byte(biasLineNetlist))
 		if err != nil {

@@ -37,7 +37,11 @@ func (r *Result) withLineVolts(c *graph.Circuit) *graph.Circuit {
 			if v > 0 {
 				text = "+" + text
 			}
-			n.Label = strings.TrimSpace(n.Label + " " + text + " V")
+			sep := " "
+			if graph.WithoutVolts(n.Label) != n.Label {
+				sep = ", " // named after a rail known by its voltage: "+9 V via R5, +8.3 V"
+			}
+			n.Label = strings.TrimSpace(n.Label + sep + text + " V")
 		}
 	}
 	return out

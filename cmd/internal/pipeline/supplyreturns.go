@@ -79,7 +79,7 @@ func lineLabel(c *graph.Circuit, lines map[string]supplyLine, net string) string
 	}
 	name := strings.ToUpper(ln.from)
 	if nn := c.Net(ln.from); nn != nil && nn.Label != "" {
-		name = graph.WithoutVolts(nn.Label)
+		name = graph.FeedName(nn)
 	}
 	return name + " via " + ln.via
 }
