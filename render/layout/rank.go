@@ -57,6 +57,15 @@ func (ly *state) signalRank() map[string]int {
 			inputs = append(inputs, in)
 		}
 	}
+	// a row of a page is entered by the nets that come from earlier rows:
+	// ranked from them, its parts follow the signal on from there, where
+	// ranked from its first part by name an IF can could stand left of the
+	// valve feeding it
+	for _, k := range ly.o.Continues {
+		if k.In && w.Follow(k.Net) && !slices.Contains(inputs, k.Net) {
+			inputs = append(inputs, k.Net)
+		}
+	}
 	w.FromNets(inputs, 1)
 	rank := map[string]int{}
 	maxR := 0
@@ -66,7 +75,7 @@ func (ly *state) signalRank() map[string]int {
 				if _, done := rank[cl.ref]; !done {
 					rank[cl.ref] = r
 					if cl.part.Kind == graph.Port && slices.Contains(inputs, cl.part.NetOf("1")) {
-						rank[cl.ref] = 0 // an input flag or port (cl.edge < 0 is one)
+						rank[cl.ref] = 0 // an input flag, port or off-row connector (cl.edge < 0 is one)
 					}
 					maxR = max(maxR, rank[cl.ref])
 				}
