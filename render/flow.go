@@ -1,6 +1,7 @@
 package render
 
 import (
+	"slices"
 	"sort"
 
 	"pare/graph"
@@ -24,6 +25,7 @@ type flow struct {
 	blockOf     map[string]int // part ref → its stretch
 	laid        map[[2]int]*layout.Result
 	supplyFlow  map[string]int // the whole sheet's (layout.SupplyFlow)
+	cw, ch      float64        // the page's room for a row (0: no page)
 }
 
 func newFlow(cfg Config, s *Sheet, bs []block) *flow {
@@ -31,6 +33,10 @@ func newFlow(cfg Config, s *Sheet, bs []block) *flow {
 		part: map[string]*graph.Part{}, at: map[string]int{}, blockOf: map[string]int{},
 		laid: map[[2]int]*layout.Result{}}
 	f.supplyFlow = layout.SupplyFlow(s.Circuit, cfg.options(s))
+	if cfg.Page != nil {
+		f.cw, f.ch = cfg.Page.content()
+		f.ch -= 1 + cfg.footReserve(s)
+	}
 	for i, p := range s.Circuit.Parts {
 		f.part[p.Ref], f.at[p.Ref] = p, i
 	}
@@ -94,7 +100,43 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 			}
 		}
 	}
+	if b-a == 1 {
+		if r, err = f.smaller(a, r); err != nil {
+			return nil, err
+		}
+	}
 	f.laid[[2]int{a, b}] = r
+	return r, nil
+}
+
+// smaller is the row of the one stretch a, laid out as r, or the same row
+// ranked from its first part where r is too big for the page and that one
+// is less so. Ranked from the nets that come in, a row's parts follow the
+// signal on from the row before (an IF can right of the valve feeding it);
+// but a stretch is never cut, and a stage whose every part stands a column
+// further on for it (a frequency changer's oscillator parts behind its
+// mixer) can come out bigger than the page, printed under 2.5 mm, where
+// ranked from its first part it fits.
+func (f *flow) smaller(a int, r *layout.Result) (*layout.Result, error) {
+	over := func(r *layout.Result) float64 {
+		bd := r.Geom.Bounds
+		return max(bd.W()/f.cw, bd.H()/f.ch)
+	}
+	if f.cw <= 0 || f.ch <= 0 || over(r) <= 1 {
+		return r, nil
+	}
+	sh := f.sheet(a, a+1, false)
+	if !slices.ContainsFunc(sh.continues, func(k layout.Continuation) bool { return k.In }) {
+		return r, nil
+	}
+	sh.fromFirst = true
+	o, err := f.cfg.layout(sh)
+	if err != nil {
+		return nil, err
+	}
+	if over(o) < over(r) && len(o.Geom.Failed) <= len(r.Geom.Failed) {
+		return o, nil
+	}
 	return r, nil
 }
 

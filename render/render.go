@@ -159,6 +159,9 @@ type Sheet struct {
 	// flow (layout.SupplyFlow), so a row holding part of a supply draws it
 	// in the whole supply's order.
 	supplyFlow map[string]int
+	// fromFirst ranks a row from its first part, not from the nets that
+	// come in (layout.Options.RankFromFirst)
+	fromFirst bool
 }
 
 // Tie is where a static valve electrode is held (render/symbol).
@@ -218,6 +221,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	o.Marks = s.Marks
 	o.Continues = s.continues
 	o.SupplyFlow = s.supplyFlow
+	o.RankFromFirst = s.fromFirst
 	for _, f := range s.Frames {
 		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts, Places: f.Places, Supply: f.Supply})
 	}

@@ -99,6 +99,11 @@ type Options struct {
 	// Continues are the nets of a row that run on in another row: each
 	// ends at an off-row connector at the row's edge (rows.go).
 	Continues []Continuation
+	// RankFromFirst ranks a row from its first part by name, as a piece
+	// the inputs do not reach, rather than from the nets of its incoming
+	// Continues: the caller's fallback for a row the signal's ranking
+	// makes too big for its page (render/flow.go)
+	RankFromFirst bool
 	// SupplyFlow gives, on a row of a paged sheet, each supply part's step
 	// along the whole sheet's supply flow (SupplyFlow); nil: found here.
 	SupplyFlow map[string]int

@@ -62,7 +62,7 @@ func (ly *state) signalRank() map[string]int {
 	// ranked from its first part by name an IF can could stand left of the
 	// valve feeding it
 	for _, k := range ly.o.Continues {
-		if k.In && w.Follow(k.Net) && !slices.Contains(inputs, k.Net) {
+		if k.In && !ly.o.RankFromFirst && w.Follow(k.Net) && !slices.Contains(inputs, k.Net) {
 			inputs = append(inputs, k.Net)
 		}
 	}
