@@ -16,20 +16,7 @@ import "pare/graph"
 // never moved. It reports whether it moved one: the stretches' x are then
 // measured afresh in line (inLine).
 func branchesBeside(c *graph.Circuit, bs []block) ([]block, bool) {
-	holders := map[string][]int{} // wired net → the stretches holding a part on it
-	for i, b := range bs {
-		for _, r := range b.refs {
-			p := c.Part(r)
-			if p == nil {
-				continue
-			}
-			for _, n := range wiredNets(c, p) {
-				if h := holders[n]; len(h) == 0 || h[len(h)-1] != i {
-					holders[n] = append(h, i)
-				}
-			}
-		}
-	}
+	holders := netHolders(c, bs) // wired net → the stretches holding a part on it
 	host := make([]int, len(bs)) // the earlier stretch a branch hangs on, -1 for none
 	moved := false
 	for i, b := range bs {

@@ -176,6 +176,9 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		if out, moved = unitsWhole(s.Circuit, out); moved {
 			inLine(out)
 		}
+		if out, moved = fedFirst(s.Circuit, out); moved {
+			inLine(out)
+		}
 	}
 	out = looseLast(out, loose, ext)
 	out = homeSockets(s.Circuit, out, sockets, ext)

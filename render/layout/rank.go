@@ -57,15 +57,7 @@ func (ly *state) signalRank() map[string]int {
 			inputs = append(inputs, in)
 		}
 	}
-	// a row of a page is entered by the nets that come from earlier rows:
-	// ranked from them, its parts follow the signal on from there, where
-	// ranked from its first part by name an IF can could stand left of the
-	// valve feeding it
-	for _, k := range ly.o.Continues {
-		if k.In && !ly.o.RankFromFirst && w.Follow(k.Net) && !slices.Contains(inputs, k.Net) {
-			inputs = append(inputs, k.Net)
-		}
-	}
+	inputs = append(inputs, ly.enteringNets(w.Follow, inputs)...)
 	w.FromNets(inputs, 1)
 	rank := map[string]int{}
 	maxR := 0
@@ -223,4 +215,69 @@ func (ly *state) portSides(byNet map[string][]*cell) {
 			}
 		}
 	}
+}
+
+// enteringNets are the nets of a row of a page that bring its signal in
+// from earlier rows, not in inputs already: ranked from them, the row's
+// parts follow the signal on from there, where ranked from its first part
+// by name an IF can could stand left of the valve feeding it. A net that
+// comes in but leads first to an active part's output or common electrode
+// (an overall feedback lead from the loudspeaker back to the first valve's
+// cathode, on the output stage's row) is the signal going back, not coming
+// in, and is left out while another net comes in to a control electrode.
+func (ly *state) enteringNets(follow func(string) bool, inputs []string) []string {
+	if ly.o.RankFromFirst {
+		return nil
+	}
+	var all, in []string
+	for _, k := range ly.o.Continues {
+		if k.In && follow(k.Net) && !slices.Contains(inputs, k.Net) && !slices.Contains(all, k.Net) {
+			all = append(all, k.Net)
+			if ly.leadsToControl(k.Net, follow) {
+				in = append(in, k.Net)
+			}
+		}
+	}
+	if len(in) == 0 {
+		return all
+	}
+	return in
+}
+
+// leadsToControl says whether the active electrodes nearest net, through
+// the row's passive parts over followed nets, include a control electrode,
+// or no active part is met at all (a row of passive parts).
+func (ly *state) leadsToControl(net string, follow func(string) bool) bool {
+	seenNet, seenCell := map[string]bool{net: true}, map[*cell]bool{}
+	front := []string{net}
+	for len(front) > 0 {
+		var next []string
+		control, active := false, false
+		for _, n := range front {
+			for _, cl := range ly.cells {
+				for _, pn := range cl.part.Pins {
+					if pn.Net != n || seenCell[cl] || cl.part.Kind == graph.Port {
+						continue
+					}
+					if cl.part.IsActive() {
+						active = true
+						control = control || graph.RoleOfPin(cl.part.Kind, pn.Name) == graph.RoleControl
+						continue
+					}
+					seenCell[cl] = true
+					for _, m := range cl.part.Pins {
+						if !seenNet[m.Net] && follow(m.Net) {
+							seenNet[m.Net] = true
+							next = append(next, m.Net)
+						}
+					}
+				}
+			}
+		}
+		if active {
+			return control
+		}
+		front = next
+	}
+	return true
 }
