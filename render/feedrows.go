@@ -130,6 +130,9 @@ func feedTarget(c *graph.Circuit, bs []block, i int) int {
 		if len(srcs) == 0 || slices.ContainsFunc(srcs, func(s string) bool { k, ok := at[s]; return !ok || k <= i }) {
 			continue
 		}
+		if slices.ContainsFunc(srcs, func(s string) bool { back, _ := signalFrom(c, c.Part(s)); return slices.Contains(back, d.Ref) }) {
+			continue // a ring (an oscillator's two devices) reads either way
+		}
 		near := dist[srcs[0]]
 		for ref, n := range dist {
 			k, ok := at[ref]
@@ -160,4 +163,36 @@ func netHolders(c *graph.Circuit, bs []block) map[string][]int {
 		}
 	}
 	return holders
+}
+
+// Rows are the parts of each row of the sheet cut onto cfg.Page, in
+// reading order (the row of loose parts, stacked where it finds room,
+// last); the whole sheet as one row without a page. Tests read the order
+// of the rows from it.
+func (cfg Config) Rows(s *Sheet) ([][]string, error) {
+	if cfg.Page == nil {
+		var refs []string
+		for _, p := range s.Circuit.Parts {
+			refs = append(refs, p.Ref)
+		}
+		return [][]string{refs}, nil
+	}
+	f, ends, _, err := cfg.flowRows(s)
+	if err != nil {
+		return nil, err
+	}
+	loose := looseRow(f.bs, ends)
+	var out, last [][]string
+	for i := range ends {
+		var refs []string
+		for _, b := range f.bs[start(ends, i):ends[i]] {
+			refs = append(refs, b.refs...)
+		}
+		if i == loose {
+			last = append(last, refs)
+			continue
+		}
+		out = append(out, refs)
+	}
+	return append(out, last...), nil
 }
