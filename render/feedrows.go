@@ -18,8 +18,9 @@ import (
 // signalFrom are, for an active part with a control electrode, the parts the
 // signal into it comes from, with every part met on the way: a walk from
 // the control electrode's net through passive parts, over nets not at AC
-// ground, that stops at another active part (any electrode but its control
-// one: a cathodyne drives from its cathode too) and at a port on a
+// ground, that stops at another active part, a source when met on its
+// output or common electrode (a cathodyne drives from its cathode too;
+// a further grid is no source), and at a port on a
 // declared input. dist gives each part met its step from the electrode;
 // srcs are the nearest sources, ordered by ref: a feedback lead from a later
 // stage (or an AGC line from the detector) reaches the electrode by a
@@ -44,7 +45,7 @@ func signalFrom(c *graph.Circuit, d *graph.Part) (srcs []string, dist map[string
 				dist[p.Ref] = step
 				switch {
 				case p.IsActive():
-					if p.PinWithRole(graph.RoleControl) != cn.Pin {
+					if r := graph.RoleOfPin(p.Kind, cn.Pin); r == graph.RoleOutput || r == graph.RoleCommon {
 						srcs = append(srcs, p.Ref)
 					}
 					continue

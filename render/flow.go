@@ -100,32 +100,32 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 			}
 		}
 	}
-	if b-a == 1 {
-		if r, err = f.smaller(a, r); err != nil {
-			return nil, err
-		}
+	if r, err = f.orFromFirst(a, b, r); err != nil {
+		return nil, err
 	}
 	f.laid[[2]int{a, b}] = r
 	return r, nil
 }
 
-// smaller is the row of the one stretch a, laid out as r, or the same row
-// ranked from its first part where r is too big for the page and that one
-// is less so. Ranked from the nets that come in, a row's parts follow the
-// signal on from the row before (an IF can right of the valve feeding it);
-// but a stretch is never cut, and a stage whose every part stands a column
-// further on for it (a frequency changer's oscillator parts behind its
-// mixer) can come out bigger than the page, printed under 2.5 mm, where
-// ranked from its first part it fits.
-func (f *flow) smaller(a int, r *layout.Result) (*layout.Result, error) {
+// orFromFirst is the row [a, b), laid out as r, or the same row ranked
+// from its first part where r left nets unrouted (drawn as flags) and that
+// one leaves fewer, or where r is a row of one stretch too big for the page
+// and that one, routed as well, is less so. Ranked from the nets that come
+// in, a row's parts follow the signal on from the row before (an IF can
+// right of the valve feeding it); but a stretch is never cut, and a stage
+// whose every part stands a column further on for it (a frequency
+// changer's oscillator parts behind its mixer) can come out bigger than
+// the page, printed under 2.5 mm, where ranked from its first part it fits.
+func (f *flow) orFromFirst(a, b int, r *layout.Result) (*layout.Result, error) {
 	over := func(r *layout.Result) float64 {
 		bd := r.Geom.Bounds
 		return max(bd.W()/f.cw, bd.H()/f.ch)
 	}
-	if f.cw <= 0 || f.ch <= 0 || over(r) <= 1 {
+	big := b-a == 1 && f.cw > 0 && f.ch > 0 && over(r) > 1
+	if !big && len(r.Geom.Failed) == 0 {
 		return r, nil
 	}
-	sh := f.sheet(a, a+1, false)
+	sh := f.sheet(a, b, false)
 	if !slices.ContainsFunc(sh.continues, func(k layout.Continuation) bool { return k.In }) {
 		return r, nil
 	}
@@ -134,7 +134,7 @@ func (f *flow) smaller(a int, r *layout.Result) (*layout.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	if over(o) < over(r) && len(o.Geom.Failed) <= len(r.Geom.Failed) {
+	if n, m := len(o.Geom.Failed), len(r.Geom.Failed); n < m || n == m && big && over(o) < over(r) {
 		return o, nil
 	}
 	return r, nil

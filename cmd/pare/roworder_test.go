@@ -14,8 +14,8 @@ import (
 // start): on every example, gallery fixture and third-review circuit cut
 // onto A3, reduced and faded, no amplifying part stands on a row before
 // every part its signal comes from. The sources of a control electrode are
-// found here on the circuit: the nearest active parts (any electrode but
-// the control one) or input ports a walk through passive parts reaches,
+// found here on the circuit: the nearest active parts met on an output or
+// common electrode (a cathodyne's cathode drives too) or input ports a walk through passive parts reaches,
 // over nets not at AC ground; a feedback lead or an AGC line reaches it
 // the longer way round; two parts each the other's nearest source (an
 // oscillator's or a multivibrator's ring) read either way. Review 14's a04 drew its push-pull output stage a
@@ -60,8 +60,8 @@ func TestRowsFollowSignal(t *testing.T) {
 	}
 }
 
-// nearestSources are the active parts (met on an electrode other than the
-// control one) and input ports nearest d's control electrode through
+// nearestSources are the active parts (met on an output or common
+// electrode) and input ports nearest d's control electrode through
 // passive parts, over nets not at AC ground.
 func nearestSources(c *graph.Circuit, d *graph.Part) []string {
 	start := d.NetOf(d.PinWithRole(graph.RoleControl))
@@ -80,7 +80,7 @@ func nearestSources(c *graph.Circuit, d *graph.Part) []string {
 				}
 				met[p.Ref] = true
 				if p.IsActive() || p.Kind == graph.Port {
-					if p.IsActive() && graph.RoleOfPin(p.Kind, cn.Pin) != graph.RoleControl || slices.Contains(c.Inputs, n) {
+					if r := graph.RoleOfPin(p.Kind, cn.Pin); p.IsActive() && (r == graph.RoleOutput || r == graph.RoleCommon) || p.Kind == graph.Port && slices.Contains(c.Inputs, n) {
 						srcs = append(srcs, p.Ref)
 					}
 					continue
