@@ -21,7 +21,10 @@ import (
 // ground, that stops at another active part, a source when met on its
 // output or common electrode (a cathodyne drives from its cathode too;
 // a further grid is no source), and at a port on a
-// declared input. dist gives each part met its step from the electrode;
+// declared input; the walk does not go on through the part's own other
+// electrodes' nets (an oscillator's tap back to its own cathode, and a
+// valve sharing that cathode beyond it, is its loop, not its signal's
+// source). dist gives each part met its step from the electrode;
 // srcs are the nearest sources, ordered by ref: a feedback lead from a later
 // stage (or an AGC line from the detector) reaches the electrode by a
 // longer way than the stage driving it.
@@ -33,6 +36,9 @@ func signalFrom(c *graph.Circuit, d *graph.Part) (srcs []string, dist map[string
 	}
 	dist = map[string]int{d.Ref: 0}
 	seenNet := map[string]bool{start: true}
+	for _, pn := range d.Pins {
+		seenNet[pn.Net] = true // its own loop (a Hartley's cathode tap) is no source
+	}
 	front := []string{start}
 	for step := 1; len(front) > 0; step++ {
 		var next []string
@@ -81,7 +87,8 @@ func signalFrom(c *graph.Circuit, d *graph.Part) (srcs []string, dist map[string
 // after the last stretch holding one of those sources or a part nearer the
 // control electrode than the nearest source (the coupling capacitor and
 // grid stopper between them), with the branches hung on it (branchOf)
-// that follow it. A stretch with one source before it stays: a feedback
+// that follow it, unless one of the stretches it would pass takes its
+// signal from it (feedsAny): that one would then read backwards. A stretch with one source before it stays: a feedback
 // lead from later on is not its signal. Stretches of another channel,
 // ports and loose parts are not moved, nor moved past. It reports whether
 // it moved one; each stretch is moved at most once, so a ring of stages
@@ -145,7 +152,26 @@ func feedTarget(c *graph.Circuit, bs []block, i int) int {
 			}
 		}
 	}
+	if to > i && feedsAny(c, bs[i], bs[i+1:to+1]) {
+		return -1 // moved past a stage it feeds, that one would read backwards
+	}
 	return to
+}
+
+// feedsAny says whether an active part of b is a nearest source (signalFrom)
+// of an active part in one of the stretches later.
+func feedsAny(c *graph.Circuit, b block, later []block) bool {
+	for _, l := range later {
+		for _, r := range l.refs {
+			if q := c.Part(r); q != nil && q.IsActive() {
+				srcs, _ := signalFrom(c, q)
+				if slices.ContainsFunc(srcs, func(s string) bool { return slices.Contains(b.refs, s) }) {
+					return true
+				}
+			}
+		}
+	}
+	return false
 }
 
 // netHolders lists, for each wired net, the stretches holding a part on it

@@ -62,13 +62,16 @@ func TestRowsFollowSignal(t *testing.T) {
 
 // nearestSources are the active parts (met on an output or common
 // electrode) and input ports nearest d's control electrode through
-// passive parts, over nets not at AC ground.
+// passive parts, over nets not at AC ground nor on d's other electrodes.
 func nearestSources(c *graph.Circuit, d *graph.Part) []string {
 	start := d.NetOf(d.PinWithRole(graph.RoleControl))
 	if start == "" || start == graph.NotConnected || c.RoleOf(start).IsACGround() {
 		return nil
 	}
 	met, seen := map[string]bool{d.Ref: true}, map[string]bool{start: true}
+	for _, pn := range d.Pins {
+		seen[pn.Net] = true // its own loop is no source
+	}
 	front := []string{start}
 	for len(front) > 0 {
 		var next, srcs []string
