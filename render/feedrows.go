@@ -138,7 +138,7 @@ func feedTarget(c *graph.Circuit, bs []block, i int) int {
 		if len(srcs) == 0 || slices.ContainsFunc(srcs, func(s string) bool { k, ok := at[s]; return !ok || k <= i }) {
 			continue
 		}
-		if slices.ContainsFunc(srcs, func(s string) bool { back, _ := signalFrom(c, c.Part(s)); return slices.Contains(back, d.Ref) }) {
+		if fedBy(c, srcs, d.Ref) {
 			continue // a ring (an oscillator's two devices) reads either way
 		}
 		near := dist[srcs[0]]
@@ -222,4 +222,23 @@ func (cfg Config) Rows(s *Sheet) ([][]string, error) {
 		out = append(out, refs)
 	}
 	return append(out, last...), nil
+}
+
+// fedBy says whether the signal of one of the parts srcs comes, source
+// after source (signalFrom), from ref: ref is then in a ring with them.
+func fedBy(c *graph.Circuit, srcs []string, ref string) bool {
+	seen := map[string]bool{}
+	for len(srcs) > 0 {
+		s := srcs[0]
+		srcs = srcs[1:]
+		if s == ref {
+			return true
+		}
+		if p := c.Part(s); p != nil && !seen[s] {
+			seen[s] = true
+			back, _ := signalFrom(c, p)
+			srcs = append(srcs, back...)
+		}
+	}
+	return false
 }
