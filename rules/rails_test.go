@@ -20,7 +20,7 @@ func TestRailReturnsSurviveTheReduction(t *testing.T) {
 		{"../examples/frequency-changer.toml", "R1", "2", "", ""},                     // grid leak to chassis
 		{"../examples/if-detector-audio.toml", "R9", "2", "ht_pre", "HT via R10"},     // anode load, R10 and C14
 		{"../examples/if-detector-audio.toml", "R8", "2", "", ""},                     // cathode resistor
-		{"../examples/transistor-front-end.toml", "C5", "2", "vcc_mix", "vcc via R7"}, // decoupled by R7 from a rail labelled only by its +9 V: named by its net
+		{"../examples/transistor-front-end.toml", "C5", "2", "vcc_mix", "+9 V via R7"}, // decoupled by R7 from a rail labelled only by its +9 V: named by that voltage
 		{"../examples/transistor-front-end.toml", "R6", "2", "", ""},                  // emitter resistor to 0 V
 		{"../testdata/good/review-bjt-if.toml", "T2", "p1", "vcc", "+9 V"},            // straight to the rail
 	}
