@@ -34,6 +34,9 @@ type model struct {
 	// sources holds, per node, what every probe from it shares (sourceAt).
 	sources map[int]*source
 	inputs  []int // the nodes of the declared inputs, in their order
+	// from is the model this one was made from at another setting
+	// (atSetting), nil for one elaborated.
+	from *model
 }
 
 // newModel elaborates c at the setting o, with c's DC view shared through dc.

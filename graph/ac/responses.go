@@ -17,7 +17,10 @@ import (
 // voltages are zero whether it is solved or not. A block's numbers are
 // those it has inside the whole matrix, to the last bit (assemble), so a
 // response costs the size of its block, not of the circuit, and reads the
-// same digits.
+// same digits. A transimpedance or an impedance across two nets is solved
+// on less: the part of its block the voltages read depend on (readPiece),
+// exact to rounding; and carried from setting to setting without being
+// assembled again (retune.go), to the bit.
 type Responses struct {
 	c      *graph.Circuit
 	dc     dcShare
@@ -25,6 +28,9 @@ type Responses struct {
 	// base is the first setting elaborated; the others are made from it
 	// (atSetting).
 	base *model
+	// shapes holds each transimpedance and impedance across asked for, as
+	// assembled at the first setting of the base's shape (retune.go).
+	shapes map[shapeKey]*shape
 }
 
 type respModel struct {
@@ -95,7 +101,7 @@ func (m *model) atSetting(o Options) *model {
 		}
 	}
 	out := *m
-	out.nl = &nl
+	out.nl, out.from = &nl, m
 	n := len(nl.nodes)
 	out.gen, out.nodeMark, out.primMark, out.grMark = 0, make([]int, n), make([]int, len(nl.prims)), make([]int, len(nl.groups))
 	return &out
@@ -164,6 +170,10 @@ func (rs *Responses) Transimpedance(in, out string, o Options) (*Response, error
 	if n == 0 || k == 0 {
 		return &Response{zero: true}, nil // into AC ground, or read there
 	}
+	key := shapeKey{shapeTransimpedance, n, k}
+	if r, ok := rs.reshaped(key, m); ok {
+		return r, nil
+	}
 	held := otherInputs(rs.c, m.nl, n)
 	isHeld := heldSet(len(m.nl.nodes), -1, held)
 	if err := m.floating(-1, held, isHeld); err != nil {
@@ -172,12 +182,12 @@ func (rs *Responses) Transimpedance(in, out string, o Options) (*Response, error
 	if !m.used[n] || isHeld[n] || !m.used[k] || isHeld[k] {
 		return nil, fmt.Errorf("net %s or %s is not connected to any part the small-signal model sees", in, out)
 	}
-	sub := m.component(n, isHeld)
-	if _, reached := slices.BinarySearch(sub.nodes, k); !reached {
-		return &Response{zero: true}, nil
+	sub := m.readPiece([]int{k}, isHeld)
+	if _, reached := slices.BinarySearch(sub.nodes, n); !reached {
+		return rs.keep(key, m, &Response{zero: true}, sub), nil // no row V(out) depends on holds in: 0 by structure
 	}
 	s := assemble(m.nl, -1, isHeld, sub)
-	return &Response{s: s, in: n, out: k, current: true}, nil
+	return rs.keep(key, m, &Response{s: s, in: n, out: k, current: true}, sub), nil
 }
 
 // Across is NewAcross of the circuit.
@@ -192,6 +202,10 @@ func (rs *Responses) Across(a, b string, o Options) (*Response, error) {
 	if n == 0 || n == k {
 		return &Response{zero: true}, nil
 	}
+	key := shapeKey{shapeAcross, n, k}
+	if r, ok := rs.reshaped(key, m); ok {
+		return r, nil
+	}
 	held := otherInputs(rs.c, m.nl, -1)
 	isHeld := heldSet(len(m.nl.nodes), -1, held)
 	if err := m.floating(-1, held, isHeld); err != nil {
@@ -200,22 +214,11 @@ func (rs *Responses) Across(a, b string, o Options) (*Response, error) {
 	if !m.used[n] || isHeld[n] || k != 0 && (!m.used[k] || isHeld[k]) {
 		return nil, fmt.Errorf("net %s or %s is not connected to any part the small-signal model sees", a, b)
 	}
-	sub := m.component(n, isHeld)
-	if _, reached := slices.BinarySearch(sub.nodes, k); k != 0 && !reached {
-		// The current leaves through another block: both are driven.
-		other := m.component(k, isHeld)
-		sub = &part{nodes: merged(sub.nodes, other.nodes), prims: merged(sub.prims, other.prims),
-			groups: merged(sub.groups, other.groups)}
-	}
+	// both ends are driven and read; where the current leaves through
+	// another block, the piece holds both
+	sub := m.readPiece([]int{n, k}, isHeld)
 	s := assemble(m.nl, -1, isHeld, sub)
-	return &Response{s: s, in: n, out: n, back: k, current: true}, nil
-}
-
-// merged is the sorted union of two disjoint sorted lists.
-func merged(a, b []int) []int {
-	out := slices.Concat(a, b)
-	slices.Sort(out)
-	return out
+	return rs.keep(key, m, &Response{s: s, in: n, out: n, back: k, current: true}, sub), nil
 }
 
 // capsStamped tells whether every capacitor of c has a value above zero at
