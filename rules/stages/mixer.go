@@ -305,6 +305,10 @@ type tankModel struct {
 	l    float64
 	a, b int
 	caps []*graph.Part
+	// net is caps numbered as a network, once f reads them (nets: as many
+	// caps as it was numbered with)
+	net  *capNet
+	nets int
 }
 
 // gangRef names the tank's section of the gang.
@@ -320,7 +324,10 @@ func (t *tankModel) gangRef(gang string) string {
 // f is the tank's resonance with its variable capacitors at frac of their
 // travel (0 at minimum capacitance).
 func (t *tankModel) f(frac float64) float64 {
-	return resonance(t.l, capBetween(t.w, t.caps, t.a, t.b, frac))
+	if t.net == nil || t.nets != len(t.caps) {
+		t.net, t.nets = capNetOf(t.w, t.caps, t.a, t.b), len(t.caps)
+	}
+	return resonance(t.l, t.net.at(frac))
 }
 
 // original rebuilds a tank from the parts of the original circuit the

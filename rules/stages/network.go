@@ -2,6 +2,7 @@ package stages
 
 import (
 	"math"
+	"slices"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -183,12 +184,28 @@ type capEdge struct {
 // and the charge on a read off. Variable sections are set at frac. NaN
 // when the network cannot be solved.
 func capBetween(w *world, caps []*graph.Part, a, b int, frac float64) float64 {
+	return capNetOf(w, caps, a, b).at(frac)
+}
+
+// capNet is a capacitor network between two nets as capBetween wires it:
+// the ends of its edges, numbered once, and the parts whose values they
+// take at each setting. A formula's dial walk reads one network at some
+// two thousand settings.
+type capNet struct {
+	same  bool // a and b are one net: no capacitance
+	edges []capEdge
+	parts []*graph.Part
+	n     int
+}
+
+// capNetOf numbers the network of caps between a and b: node 0 is net a,
+// node 1 net b, the others follow as met.
+func capNetOf(w *world, caps []*graph.Part, a, b int) *capNet {
 	if a == b {
-		return 0
+		return &capNet{same: true}
 	}
-	// Node 0 is net a, node 1 net b, the others follow as met.
 	idx := map[int]int{a: 0, b: 1}
-	var edges []capEdge
+	cn := &capNet{}
 	for _, p := range caps {
 		ci, ok := w.index[p]
 		if !ok || len(p.Pins) != 2 {
@@ -201,9 +218,24 @@ func capBetween(w *world, caps []*graph.Part, a, b int, frac float64) float64 {
 			}
 			ends[k] = idx[net]
 		}
-		edges = append(edges, capEdge{ends[0], ends[1], p.Capacitance(frac)})
+		cn.edges = append(cn.edges, capEdge{i: ends[0], j: ends[1]})
+		cn.parts = append(cn.parts, p)
 	}
-	v, ok := tankVoltages(edges, len(idx))
+	cn.n = len(idx)
+	return cn
+}
+
+// at is the network's capacitance between its two nets with the variable
+// sections at frac.
+func (cn *capNet) at(frac float64) float64 {
+	if cn.same {
+		return 0
+	}
+	edges := slices.Clone(cn.edges)
+	for k, p := range cn.parts {
+		edges[k].c = p.Capacitance(frac)
+	}
+	v, ok := tankVoltages(edges, cn.n)
 	if !ok {
 		return math.NaN()
 	}
@@ -230,7 +262,8 @@ func tankVoltages(edges []capEdge, n int) ([]float64, bool) {
 		unk[i] = -1
 	}
 	reached := []int{0, 1}
-	seen := map[int]bool{0: true, 1: true}
+	seen := make([]bool, n)
+	seen[0], seen[1] = true, true
 	m := 0
 	for k := 0; k < len(reached); k++ {
 		for _, e := range edges {
