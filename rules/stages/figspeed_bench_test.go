@@ -13,8 +13,9 @@ import (
 
 // BenchmarkStageFigures recognises the stages of whole sets and solves
 // their figures, as the main job does after its reduction: the flagship
-// example (123 parts) and a synthetic receiver bank of 1,010 parts (22
-// channels, internal/synth, seed 1). The loop searches ac remembers across
+// example (123 parts) and synthetic receiver banks of 1,010 parts (22
+// channels, internal/synth, seed 1) and of a tenth of that, whose ratio
+// is the phase's growth with the set. The loop searches ac remembers across
 // the process are forgotten before each run, so every run solves them.
 func BenchmarkStageFigures(b *testing.B) {
 	lib, err := Builtin()
@@ -25,6 +26,10 @@ func BenchmarkStageFigures(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
+	small, err := synth.Bank(100, 1)
+	if err != nil {
+		b.Fatal(err)
+	}
 	for _, set := range []struct {
 		name string
 		load func() (*graph.Circuit, error)
@@ -32,6 +37,7 @@ func BenchmarkStageFigures(b *testing.B) {
 		{"flagship", func() (*graph.Circuit, error) {
 			return graph.LoadFile(filepath.Join("..", "..", "examples", "club-receiver.toml"))
 		}},
+		{"bank100", func() (*graph.Circuit, error) { return graph.Parse("bank100.toml", small) }},
 		{"bank1000", func() (*graph.Circuit, error) { return graph.Parse("bank1000.toml", bank) }},
 	} {
 		full, err := set.load()
