@@ -11,9 +11,11 @@
 package pipeline
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"path/filepath"
+	"runtime/pprof"
 	"sort"
 
 	"pare/graph"
@@ -255,11 +257,24 @@ func Run(o Options) (*Result, error) {
 		if ph.p > until {
 			break
 		}
-		if err := ph.fn(r, o); err != nil {
+		if err := runPhase(ph.p, ph.fn, r, o); err != nil {
 			return r, err
 		}
 	}
 	return r, nil
+}
+
+// runPhase runs one phase with its name as a profiler label, which the
+// goroutines it starts inherit: a CPU profile (PARE_CPUPROFILE) of the
+// main job then tells the final proof's solves from the step proofs'
+// (`go tool pprof -tagfocus phase=verify`), which run the same code on
+// worker goroutines whose stacks do not say who started them.
+func runPhase(p Phase, fn func(*Result, Options) error, r *Result, o Options) error {
+	var err error
+	pprof.Do(context.Background(), pprof.Labels("phase", p.String()), func(context.Context) {
+		err = fn(r, o)
+	})
+	return err
 }
 
 func (r *Result) check(o Options) error {
