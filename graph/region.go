@@ -101,8 +101,10 @@ func (c *Circuit) BandOf(p *Part) value.Range {
 // no band is declared): the frequency at which a coil's q is its Q, so the
 // solver's winding loss (graph/ac) and the reduction's judgements (rules)
 // take the same series resistance.
-func (c *Circuit) BandCentre(p *Part) float64 {
-	b := c.BandOf(p)
+func (c *Circuit) BandCentre(p *Part) float64 { return c.centreOf(c.BandOf(p)) }
+
+// centreOf is BandCentre of a part whose band is b.
+func (c *Circuit) centreOf(b value.Range) float64 {
 	if b.Min <= 0 || b.Max <= 0 {
 		b = c.FullBand()
 	}
@@ -204,6 +206,9 @@ func (x *RegionIndex) BandOf(p *Part) value.Range {
 	}
 	return x.c.Band
 }
+
+// BandCentre is Circuit.BandCentre through the index.
+func (x *RegionIndex) BandCentre(p *Part) float64 { return x.c.centreOf(x.BandOf(p)) }
 
 // Joined follows Circuit.JoinNets(keep, gone), which renames gone to keep
 // in every region's nets: keep is then named first by whichever region

@@ -288,8 +288,9 @@ func joinPins(uf *graph.NamedSets, p *graph.Part, a, b string) {
 // simulator deck can carry, so pare and the exported deck solve the same
 // circuit; over a tuning band the real Q of a coil is roughly flat, so a
 // constant R errs by the band's frequency ratio at worst, on the side of less
-// loss at the low edge.
-func (nl *netlist) windings(c *graph.Circuit, p *graph.Part, node func(string) int, errs *graph.ErrorList) {
+// loss at the low edge. centre gives the centre of the coil's band
+// (graph.Circuit.BandCentre), asked only for a coil with windings.
+func (nl *netlist) windings(p *graph.Part, centre func() float64, node func(string) int, errs *graph.ErrorList) {
 	if len(p.Windings) == 0 {
 		if p.Value.Max > 0 {
 			a, b := node(p.NetOf("1")), node(p.NetOf("2"))
@@ -300,7 +301,7 @@ func (nl *netlist) windings(c *graph.Circuit, p *graph.Part, node func(string) i
 		}
 		return
 	}
-	loss := device.WindingLoss(p, 2*math.Pi*c.BandCentre(p))
+	loss := device.WindingLoss(p, 2*math.Pi*centre())
 	var ws []winding
 	index := map[string]int{}
 	for wi, w := range p.Windings {

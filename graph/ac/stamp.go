@@ -17,6 +17,18 @@ type stamper struct {
 	frac float64 // gang setting
 	errs graph.ErrorList
 	dc   *dcShare // the DC view for detector loads, built at the first diode
+	// regions answers each coil's band (its winding loss), built at the
+	// first coil: a whole set has a region per channel and a coil per
+	// tank, and Circuit.BandCentre walks every region's lists per coil.
+	regions *graph.RegionIndex
+}
+
+// bandCentre is c.BandCentre(p) through the stamper's region index.
+func (st *stamper) bandCentre(c *graph.Circuit, p *graph.Part) float64 {
+	if st.regions == nil {
+		st.regions = c.RegionIndex()
+	}
+	return st.regions.BandCentre(p)
 }
 
 // node is the node of a net, -1 for an unconnected terminal.
@@ -86,7 +98,7 @@ func (st *stamper) part(c *graph.Circuit, p *graph.Part) {
 			st.two(primR, p, "", "1", "2", p.Value.Max)
 		}
 	case graph.Inductor, graph.Transformer:
-		st.nl.windings(c, p, st.node, &st.errs)
+		st.nl.windings(p, func() float64 { return st.bandCentre(c, p) }, st.node, &st.errs)
 	case graph.Valve, graph.BJT, graph.FET, graph.Diode, graph.Crystal:
 		st.device(p)
 	case graph.Pot:
