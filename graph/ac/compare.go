@@ -213,7 +213,8 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 		}
 	}
 	cp := &comparer{o: o, settings: settings, marks: append(landmarks(orig), landmarks(reduced)...),
-		circuits: [2]*graph.Circuit{orig, reduced}, dc: dc, models: map[modelKey]*modelOrErr{}, swept: map[sweepKey]pairResult{}}
+		circuits: [2]*graph.Circuit{orig, reduced}, dc: dc, models: map[modelKey]*modelOrErr{}, swept: map[sweepKey]pairResult{},
+		flying: map[sweepKey]chan struct{}{}}
 	cp.plan = planKey(o, cp.marks)
 	var silent []string
 	for i, r := range cp.runQuantities(qs) {
@@ -287,9 +288,10 @@ type comparer struct {
 	circuits [2]*graph.Circuit
 	dc       [2]*dcShare // each circuit's DC view, the same at every setting
 	models   map[modelKey]*modelOrErr
-	mu       sync.Mutex // swept, when quantities run side by side
+	mu       sync.Mutex // swept and flying, when quantities run side by side
 	swept    map[sweepKey]pairResult
-	plan     string // planKey of the options and marks
+	flying   map[sweepKey]chan struct{} // sweeps under way, closed when done (claim)
+	plan     string                     // planKey of the options and marks
 }
 
 // probe builds the probe of a quantity in circuit ci (0 original, 1 reduced)

@@ -357,9 +357,7 @@ func (cp *comparer) sweep(po, pr *probe, bands []value.Range) (pairResult, error
 	if res, done := o.Memo.sweep(k); done {
 		return res, nil
 	}
-	cp.mu.Lock()
-	res, done := cp.swept[k]
-	cp.mu.Unlock()
+	res, done, landed := cp.claim(k)
 	if done {
 		return res, nil
 	}
@@ -369,12 +367,42 @@ func (cp *comparer) sweep(po, pr *probe, bands []value.Range) (pairResult, error
 	} else {
 		res, err = sweepPair(po, pr, bands, o, cp.marks)
 	}
+	cp.mu.Lock()
 	if err == nil {
-		cp.mu.Lock()
 		cp.swept[k] = res
-		cp.mu.Unlock()
 	}
+	delete(cp.flying, k)
+	cp.mu.Unlock()
+	close(landed)
 	return res, err
+}
+
+// claim returns the result of sweep k if it is done; if not, it waits
+// while another quantity running beside this one makes it (quantities of
+// different channels built alike sweep the same pair of systems), and
+// otherwise claims it: the caller sweeps and closes landed. Without a memo
+// a sweep is a function of its key alone, so the result waited for is the
+// one this quantity would have made; with one, quantities that share a
+// system run in one group, one after the other, and never wait here. A
+// sweep that failed is not kept: each waiter then sweeps for itself, as
+// the one-by-one loop would, and meets the failure on its own.
+func (cp *comparer) claim(k sweepKey) (pairResult, bool, chan struct{}) {
+	for {
+		cp.mu.Lock()
+		if res, done := cp.swept[k]; done {
+			cp.mu.Unlock()
+			return res, true, nil
+		}
+		ch, busy := cp.flying[k]
+		if !busy {
+			ch = make(chan struct{})
+			cp.flying[k] = ch
+			cp.mu.Unlock()
+			return pairResult{}, false, ch
+		}
+		cp.mu.Unlock()
+		<-ch
+	}
 }
 
 // bandsKey is the bands to the bit, as a map key.
