@@ -8,6 +8,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/internal/synth"
 	"pare/rules"
 )
 
@@ -73,4 +74,37 @@ func stepProofs(t *testing.T, file string, procs int) proofRun {
 		t.Fatal(err)
 	}
 	return run
+}
+
+// The final proof of a set of channels built alike (no memo: every
+// quantity runs on its own, and quantities of two channels alike sweep the
+// same pair of systems, the one that starts second waiting for the first)
+// reports the same numbers to the bit on one processor and on four, run
+// after run.
+func TestFinalProofSideBySide(t *testing.T) {
+	c, err := synth.BankCircuit(300, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	reduced, _, err := rules.Reduce(c.Clone(), rules.Options{Level: rules.LevelSignal})
+	if err != nil {
+		t.Fatal(err)
+	}
+	compare := func(procs int) *ac.Report {
+		defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
+		rep, err := ac.Compare(c, reduced, ac.CompareOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return rep
+	}
+	seq := compare(1)
+	if len(seq.Pairs) < 20 {
+		t.Fatalf("%d pairs compared: the case checks too little", len(seq.Pairs))
+	}
+	for range 3 {
+		if par := compare(4); !reflect.DeepEqual(seq, par) {
+			t.Fatalf("the reports differ between one processor and four")
+		}
+	}
 }
