@@ -20,6 +20,7 @@ import (
 	"pare/graph"
 	"pare/graph/ac"
 	"pare/graph/safety"
+	"pare/internal/testmain"
 )
 
 // examples lists the bundled example netlists; the main job must handle
@@ -125,8 +126,10 @@ func moreParallelSlots() {
 
 func TestMain(m *testing.M) {
 	if args, ok := killChildArgs(); ok { // the kill test's child: one main job
+		tuneCollector()
 		os.Exit(run(args, os.Stdout, os.Stderr))
 	}
+	testmain.Collector()
 	moreParallelSlots()
 	code := m.Run()
 	if jobRoot.dir != "" {
