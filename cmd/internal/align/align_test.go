@@ -10,6 +10,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"sync"
 	"testing"
 
 	"pare/cmd/internal/align"
@@ -44,14 +45,55 @@ func build(t *testing.T, path string) (*pipeline.Result, *align.Guide) {
 
 // buildWith runs the pipeline with the given step check: a refused step
 // leaves a different reduced circuit and stage order, and the guide must
-// read the same wiring either way.
+// read the same wiring either way. The pipeline runs once per file and
+// step check in the test binary (most tests read the same few sets, the
+// club receiver's run alone some seconds of CPU); the guide is built anew
+// each call, since a test may add to it (AddBands).
 func buildWith(t *testing.T, path string, check pipeline.StepCheck) (*pipeline.Result, *align.Guide) {
 	t.Helper()
-	r, err := pipeline.Run(pipeline.Options{Path: path, Until: pipeline.PhaseStages, Level: rules.LevelSignal, StepCheck: check})
+	r, err := runs.get(runKey{path, check})
 	if err != nil {
 		t.Fatalf("%s: %v", path, err)
 	}
 	return r, align.Build(r.Title, r.Circuit, r.Stages, r.Caution)
+}
+
+type runKey struct {
+	path  string
+	check pipeline.StepCheck
+}
+
+// runs are the pipeline's results the tests share; they only read them.
+var runs runMemo
+
+type runMemo struct {
+	sync.Mutex
+	m map[runKey]*runEntry
+}
+
+type runEntry struct {
+	once sync.Once
+	r    *pipeline.Result
+	err  error
+}
+
+// get is k's result, run on first use; callers of one key wait for the
+// first, callers of others go ahead.
+func (c *runMemo) get(k runKey) (*pipeline.Result, error) {
+	c.Lock()
+	if c.m == nil {
+		c.m = map[runKey]*runEntry{}
+	}
+	e, ok := c.m[k]
+	if !ok {
+		e = &runEntry{}
+		c.m[k] = e
+	}
+	c.Unlock()
+	e.once.Do(func() {
+		e.r, e.err = pipeline.Run(pipeline.Options{Path: k.path, Until: pipeline.PhaseStages, Level: rules.LevelSignal, StepCheck: k.check})
+	})
+	return e.r, e.err
 }
 
 func example(name string) string { return filepath.Join("..", "..", "..", "examples", name+".toml") }
