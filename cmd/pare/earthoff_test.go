@@ -5,7 +5,6 @@ import (
 	"testing"
 
 	"pare/render"
-	"pare/render/check"
 )
 
 // TestEarthOffMains: on a set with a mains transformer no earth, rail tag
@@ -33,7 +32,7 @@ func TestEarthOffMains(t *testing.T) {
 			t.Fatal(err)
 		}
 		for i, g := range pages {
-			for _, p := range check.Measure(g).LocalsOn {
+			for _, p := range measured(g).LocalsOn {
 				t.Errorf("%s faded A3 page %d: %s", filepath.Base(f), i+1, p)
 			}
 		}

@@ -6,7 +6,6 @@ import (
 	"testing"
 
 	"pare/render"
-	"pare/render/check"
 	"pare/render/geom"
 )
 
@@ -38,7 +37,7 @@ func TestFeedOrder(t *testing.T) {
 	for _, f := range files {
 		for _, v := range drawViews {
 			for i, g := range viewSheets(t, f, v) {
-				for _, p := range check.Measure(g).FeedOrder {
+				for _, p := range measured(g).FeedOrder {
 					t.Logf("%s %s %s: %s", filepath.Base(f), v, feedSheetName(i), p)
 					if v == render.Reduced {
 						reduced++

@@ -100,13 +100,13 @@ func drawGallery(items []*galleryItem) {
 }
 
 func (it *galleryItem) draw() {
-	o := pipeline.Options{Path: it.src, Level: rules.LevelSignal, Style: render.IEC}
+	var res *pipeline.Result
+	var err error
 	if it.name != "" {
-		o.Views = galleryViews
+		res, err = pipeline.Run(pipeline.Options{Path: it.src, Level: rules.LevelSignal, Style: render.IEC, Views: galleryViews})
 	} else {
-		o.Until = pipeline.PhaseStages // an example: its title only; its sheets are committed
+		res, err = resultOnce(it.src) // an example: its title only; its sheets are committed
 	}
-	res, err := pipeline.Run(o)
 	if err != nil {
 		it.err = err
 		return

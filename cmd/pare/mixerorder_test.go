@@ -67,7 +67,7 @@ func TestMixerFramesInOrder(t *testing.T) {
 				names = append(names, fmt.Sprintf("A3 page %d", i+1))
 			}
 			for i, g := range sheets {
-				r := check.Measure(g)
+				r := measured(g)
 				where := fmt.Sprintf("%s %s %s", filepath.Base(f), v, names[i])
 				for _, p := range r.MixerOrder {
 					if v == render.Reduced {

@@ -60,7 +60,7 @@ func checkPages(t *testing.T, f string, v render.View, paper string) {
 		t.Fatal(err)
 	}
 	for i, g := range pages {
-		r := check.Measure(g)
+		r := *measured(g) // a copy: the cached report is shared
 		for _, p := range r.SmallText {
 			small("%s %s on %s page %d: %s", filepath.Base(f), v, paper, i+1, p)
 		}

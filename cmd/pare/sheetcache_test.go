@@ -30,8 +30,9 @@ import (
 // with the kill test and the browser, which mostly wait.
 var sheetCache struct {
 	sync.Mutex
-	files map[string]*fileSheets
-	drawn memo[drawKey, []byte]
+	files    map[string]*fileSheets
+	drawn    memo[drawKey, []byte]
+	measured memo[*geom.Sheet, *check.Report]
 }
 
 // fileSheets is one file's pipeline result and its laid-out sheets.
@@ -108,7 +109,7 @@ func (fs *fileSheets) sheet(file string, k sheetKey) (*laidSheet, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%s %s %s: %w", file, k.view, k.style, err)
 	}
-	s := &laidSheet{g: g, report: check.Measure(g)}
+	s := &laidSheet{g: g, report: measured(g)}
 	fs.sheets[k] = s
 	return s, nil
 }
@@ -157,17 +158,31 @@ func cachedPages(file string, v render.View, paper string) ([]*geom.Sheet, error
 	return fs.paged(file, v, paper)
 }
 
+// measured is the checker's report on g, measured once per sheet: the
+// whole sheets and the pages the cache holds are read by several checks
+// (frames, wire boxes, feed order, mixers, paging, earths), each of which
+// measured every page again. The report is shared: a test that changes
+// one changes a copy.
+func measured(g *geom.Sheet) *check.Report {
+	r, _ := sheetCache.measured.get(g, func() (*check.Report, error) { return check.Measure(g), nil })
+	return r
+}
+
 // cachedResult is sheetsOf at level signal, once per file.
 func cachedResult(t *testing.T, file string) *pipeline.Result {
 	t.Helper()
-	fs := fileEntry(file)
-	fs.Lock()
-	defer fs.Unlock()
-	res, err := fs.result(file)
+	res, err := resultOnce(file)
 	if err != nil {
 		t.Fatal(err)
 	}
 	return res
+}
+
+func resultOnce(file string) (*pipeline.Result, error) {
+	fs := fileEntry(file)
+	fs.Lock()
+	defer fs.Unlock()
+	return fs.result(file)
 }
 
 // cachedSheet lays out one view of a file in one symbol style, once, and

@@ -51,7 +51,7 @@ func TestWiresKeepOutOfFrames(t *testing.T) {
 				t.Fatal(err)
 			}
 			for i, pg := range pages {
-				count(pageName(f, v, i), check.Measure(pg))
+				count(pageName(f, v, i), measured(pg))
 			}
 		}
 	}
