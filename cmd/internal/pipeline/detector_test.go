@@ -23,7 +23,7 @@ import (
 // Failed before: the note printed "r load 354 kΩ" while the solver used
 // 547k, with no ratio and no clipping flag.
 func TestDetectorLoadFigures(t *testing.T) {
-	res, err := Run(Options{Path: "../../../testdata/good/review-ifstrip.toml", Until: PhaseStages, Level: rules.LevelSignal})
+	res, err := stagesRun("../../../testdata/good/review-ifstrip.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

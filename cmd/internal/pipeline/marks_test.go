@@ -23,7 +23,7 @@ func TestAlignMarksOnEveryView(t *testing.T) {
 	for _, path := range []string{example("frequency-changer"), example("if-detector-audio"), example("transistor-front-end"),
 		filepath.Join("..", "..", "..", "testdata", "good", "review-align-c1-valve-superhet.toml")} {
 		name := filepath.Base(path)
-		r, err := Run(Options{Path: path, Until: PhaseStages, Level: rules.LevelSignal})
+		r, err := stagesRun(path)
 		if err != nil {
 			t.Fatal(err)
 		}

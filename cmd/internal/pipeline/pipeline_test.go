@@ -194,7 +194,7 @@ func TestReducedNetlist(t *testing.T) {
 // figure (issue 10, the reviewer's VFO: "DC a 126 g1 0"); its buffer, not
 // oscillating, keeps its grid figure.
 func TestOscillatorGridHasNoDCFigure(t *testing.T) {
-	res, err := Run(Options{Path: filepath.Join("..", "..", "..", "testdata", "good", "review-vfo.toml"), Until: PhaseStages, Level: rules.LevelSignal})
+	res, err := stagesRun(filepath.Join("..", "..", "..", "testdata", "good", "review-vfo.toml"))
 	if err != nil {
 		t.Fatal(err)
 	}

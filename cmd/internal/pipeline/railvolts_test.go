@@ -6,7 +6,6 @@ import (
 	"testing"
 
 	"pare/render"
-	"pare/rules"
 )
 
 // On the club receiver's reduced sheet each decoupled line is tagged with
@@ -15,7 +14,7 @@ import (
 // ("HT +250 V"): R11 drops the HT to 241.2 V on ht_if1 (graph/dc, checked
 // against ngspice .op in graph/dc's tests, docs/dc.md).
 func TestDecoupledLinesCarryTheirOwnVolts(t *testing.T) {
-	res, err := Run(Options{Path: "../../../examples/club-receiver.toml", Until: PhaseStages, Level: rules.LevelSignal})
+	res, err := stagesRun("../../../examples/club-receiver.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

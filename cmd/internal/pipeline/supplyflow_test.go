@@ -10,7 +10,6 @@ import (
 	"pare/render"
 	"pare/render/check"
 	"pare/render/geom"
-	"pare/rules"
 )
 
 // supplyCase is a set's supply in the order the trade draws it (common
@@ -54,7 +53,7 @@ func supplyCases() []supplyCase {
 // signal input and drew it backwards, the bridge as a ladder.
 func TestSupplyDrawnInFlowOrder(t *testing.T) {
 	for _, tc := range supplyCases() {
-		r, err := Run(Options{Path: tc.path, Level: rules.LevelSignal, Until: PhaseStages})
+		r, err := stagesRun(tc.path)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -5,7 +5,6 @@ import (
 	"testing"
 
 	"pare/render"
-	"pare/rules"
 )
 
 // TestSupplyDrawnAsOnePiece: a technician draws a set's supply as one π
@@ -25,7 +24,7 @@ func TestSupplyDrawnAsOnePiece(t *testing.T) {
 		{filepath.Join("..", "..", "..", "testdata", "good", "review17-acdc.toml"), "", "", 0},
 	}
 	for _, tc := range cases {
-		r, err := Run(Options{Path: tc.path, Level: rules.LevelSignal, Until: PhaseStages})
+		r, err := stagesRun(tc.path)
 		if err != nil {
 			t.Fatal(err)
 		}

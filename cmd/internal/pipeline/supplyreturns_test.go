@@ -6,7 +6,6 @@ import (
 
 	"pare/graph"
 	"pare/render"
-	"pare/rules"
 )
 
 // Only ground nets get the earth symbol (docs/netlist.md): a terminal that
@@ -27,7 +26,7 @@ func TestSupplyReturnsAreTaggedNotEarthed(t *testing.T) {
 	}
 	for _, tc := range cases {
 		t.Run(tc.part, func(t *testing.T) {
-			res, err := Run(Options{Path: tc.file, Until: PhaseStages, Level: rules.LevelSignal})
+			res, err := stagesRun(tc.file)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -83,7 +82,7 @@ func TestTagVolts(t *testing.T) {
 
 // a03's AGC line is tagged by name alone on the reduced sheet.
 func TestAGCLineAtRestHasNoExponent(t *testing.T) {
-	res, err := Run(Options{Path: "../../../testdata/review13/a03.toml", Until: PhaseStages, Level: rules.LevelSignal})
+	res, err := stagesRun("../../../testdata/review13/a03.toml")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -5,7 +5,6 @@ import (
 	"testing"
 
 	"pare/render"
-	"pare/rules"
 )
 
 // The frequency changer's pentode loses its screen (decoupled to chassis)
@@ -16,7 +15,7 @@ import (
 // (the netlist's own wiring: TC1 across VC1a, TC2 across VC1b). The other
 // views get no ties: they draw every electrode.
 func TestReducedSheetKeepsStaticGridsAndTrimmers(t *testing.T) {
-	r, err := Run(Options{Path: example("frequency-changer"), Until: PhaseStages, Level: rules.LevelSignal})
+	r, err := stagesRun(example("frequency-changer"))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -7,7 +7,6 @@ import (
 
 	"pare/render"
 	"pare/render/geom"
-	"pare/rules"
 )
 
 // TestStageTemplatesPlaceParts: on fixtures of the commonest templated
@@ -37,7 +36,7 @@ func TestStageTemplatesPlaceParts(t *testing.T) {
 	}
 	for _, tc := range cases {
 		t.Run(filepath.Base(tc.path), func(t *testing.T) {
-			r, err := Run(Options{Path: tc.path, Until: PhaseStages, Level: rules.LevelSignal})
+			r, err := stagesRun(tc.path)
 			if err != nil {
 				t.Fatal(err)
 			}
