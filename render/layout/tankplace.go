@@ -206,6 +206,11 @@ func (ly *state) standTank(b *block) {
 		}
 		dir := p1.Dir
 		switch {
+		case lying(coil, p1, p2):
+			dir = geom.Up
+			if i == 0 {
+				ly.labelUnderCoil(coil)
+			}
 		case dir == geom.Left || dir == geom.Right:
 		case p1.At.X == p2.At.X: // an upright coil's ends: beside it, right
 			dir = geom.Right

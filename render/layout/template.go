@@ -172,6 +172,7 @@ func (ly *state) slotMoves(anchor *block, slots []*slotted) {
 			s.d.Y = math.Round(cy[s.row] - (s.b.fp.Y0+s.b.fp.Y1)/2)
 		}
 	}
+	ly.levelLying(slots)
 }
 
 // levelWith is how far a block in the anchor's row moves down to put its
