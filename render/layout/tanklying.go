@@ -23,6 +23,13 @@ func lying(coil *cell, p1, p2 *geom.Pin) bool {
 	return coil.part.Kind != graph.Transformer && p1.At.Y == p2.At.Y && p1.Dir != p2.Dir
 }
 
+// live says whether a net is wired on the sheet: neither AC ground nor
+// left unconnected. A lying coil with one end at chassis keeps its
+// capacitors beside that end (besideWinding), as before.
+func (ly *state) live(net string) bool {
+	return wired(net) && !ly.c.RoleOf(net).IsACGround()
+}
+
 // labelUnderCoil puts a lying coil's label under it: above it stand its
 // capacitors, and a label between the two would sit inside the loop.
 func (ly *state) labelUnderCoil(coil *cell) {
@@ -43,10 +50,13 @@ func (ly *state) levelLying(slots []*slotted) {
 			continue
 		}
 		coil := s.b.cells[0]
+		if len(coil.shape.Pins) != 2 {
+			continue // a tapped coil: its tap's wire decides its height
+		}
 		var ends []*geom.Pin
 		for i := range coil.shape.Pins {
 			p := &coil.shape.Pins[i]
-			if wired(p.Net) && !ly.c.RoleOf(p.Net).IsACGround() {
+			if ly.live(p.Net) {
 				ends = append(ends, p)
 			}
 		}

@@ -206,7 +206,7 @@ func (ly *state) standTank(b *block) {
 		}
 		dir := p1.Dir
 		switch {
-		case lying(coil, p1, p2):
+		case lying(coil, p1, p2) && ly.live(p1.Net) && ly.live(p2.Net):
 			dir = geom.Up
 			if i == 0 {
 				ly.labelUnderCoil(coil)
