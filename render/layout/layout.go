@@ -134,11 +134,21 @@ func (o Options) drawnPart(p *graph.Part) *graph.Part {
 	return &q
 }
 
-// marksOf is what the symbol of a part shows beyond its netlist entry.
-func (o Options) marksOf(p *graph.Part) symbol.Marks {
+// marksOf is what the symbol of a part shows beyond its netlist entry:
+// its merged presets, its static electrodes' ties, and the windings the
+// sheet's capacitors tune (so one adjustable core is marked on the tuned
+// winding, not on a feedback or link winding drawn first).
+func (ly *state) marksOf(p *graph.Part) symbol.Marks {
+	o := ly.o
 	m := symbol.Marks{Preset: len(o.Presets[p.Ref]) > 0}
 	if o.HideUnconnected {
 		m.Ties = o.Ties[p.Ref]
+	}
+	if p.Kind == graph.Transformer {
+		if ly.tuned == nil {
+			ly.tuned = tunedWindings(ly.c, Tanks(ly.c))
+		}
+		m.Tuned = ly.tuned[p.Ref]
 	}
 	return m
 }
@@ -194,6 +204,9 @@ type state struct {
 	frameStage []int
 	// tankOf is, per capacitor across a winding, the winding (tankplace.go)
 	tankOf map[*cell]tankAt
+	// tuned is, per transformer ref, the ends of its windings with a
+	// capacitor across them (marksOf), found on first use
+	tuned map[string][][2]string
 	// bridges are the four-diode bridges of the supply frames, drawn as
 	// diamonds; supplyPorts the mains ports that open a supply's flow
 	// rather than stand at the sheet's edge (supplyflow.go)

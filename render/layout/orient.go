@@ -23,7 +23,7 @@ func (ly *state) orient() {
 			cl.shape = connectorShape(cl)
 			continue
 		}
-		base := symbol.ForMarked(ly.o.drawnPart(cl.part), ly.o.Style, ly.o.marksOf(cl.part))
+		base := symbol.ForMarked(ly.o.drawnPart(cl.part), ly.o.Style, ly.marksOf(cl.part))
 		if cl.part.Kind == graph.Port && len(cl.part.Pins) == 1 {
 			in := cl.edge <= 0
 			if ly.supplyPorts[cl.ref] {

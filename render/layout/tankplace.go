@@ -45,7 +45,9 @@ func (ly *state) findTanks() map[*cell]tankAt {
 		}
 	}
 	out := map[*cell]tankAt{}
-	for _, t := range Tanks(ly.c) {
+	tanks := Tanks(ly.c)
+	ly.tuned = tunedWindings(ly.c, tanks)
+	for _, t := range tanks {
 		cp, coil := byRef[t.Cap], byRef[t.Coil]
 		fc, okc := frame[t.Coil]
 		fk, okk := frame[t.Cap]
@@ -92,7 +94,7 @@ func (ly *state) orientTanks() {
 			// from one end of a coil lying down to chassis: a shunt
 			continue
 		}
-		base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.o.marksOf(cp.part))
+		base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.marksOf(cp.part))
 		want := geom.Up
 		if !vertical {
 			want = geom.Left

@@ -27,7 +27,7 @@ func (ly *state) underWinding(cp *cell, p2 *geom.Pin, taken []geom.Rect) bool {
 	if p2.Dir != geom.Left && p2.Dir != geom.Right || ly.c.RoleOf(p2.Net).IsACGround() {
 		return false
 	}
-	base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.o.marksOf(cp.part))
+	base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.marksOf(cp.part))
 	step := p2.Dir.Step().X
 	for i, o := range base.Turns {
 		s := base.Oriented(o)
@@ -249,7 +249,7 @@ func (ly *state) overWinding(cp *cell, p1 *geom.Pin, dir geom.Dir, taken []geom.
 	if dir != geom.Left && dir != geom.Right {
 		return false
 	}
-	base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.o.marksOf(cp.part))
+	base := symbol.ForMarked(ly.o.drawnPart(cp.part), ly.o.Style, ly.marksOf(cp.part))
 	for i, o := range base.Turns {
 		s := base.Oriented(o)
 		var hot, rail *geom.Pin

@@ -200,6 +200,10 @@ type Marks struct {
 	// Preset says a trimmer (a preset the repairer turns at alignment) was
 	// merged into the part: its preset mark stays on the merged symbol.
 	Preset bool
+	// Tuned are the end pins of a transformer's windings with a capacitor
+	// across them: a core adjusting the whole part is marked on the first
+	// coil holding one, the winding the repairer tunes with it.
+	Tuned [][2]string
 }
 
 // Tie is where a static electrode is held.

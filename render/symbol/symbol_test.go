@@ -377,3 +377,38 @@ func TestPresetMarks(t *testing.T) {
 		}
 	}
 }
+
+// An oscillator coil's one adjustable core is marked across its tuned
+// winding (the one the sheet's capacitors tune, Marks.Tuned), not across
+// the feedback winding drawn first (review14 b05's T2: f feedback, p tuned,
+// s link); with no winding tuned on the sheet it stays on the first coil.
+func TestWholeCoreOnTunedWinding(t *testing.T) {
+	x := part(graph.Transformer, "", "f1", "f2", "p1", "p2", "s1", "s2")
+	x.Windings = []graph.Winding{{Name: "f", L: 12e-6, From: "f1", To: "f2"}, {Name: "p", L: 200e-6, From: "p1", To: "p2"},
+		{Name: "s", L: 2e-6, From: "s1", To: "s2"}}
+	x.Adjust = []string{graph.CoreWhole}
+	// the mark's bar's y, and which coil's pin rows it lies between
+	markY := func(s Shape) float64 {
+		for _, pr := range s.Prims {
+			if pr.Thick && len(pr.Pts) == 2 && pr.Pts[0].X != pr.Pts[1].X && pr.Pts[0].Y != pr.Pts[1].Y {
+				return (pr.Pts[0].Y + pr.Pts[1].Y) / 2
+			}
+		}
+		t.Fatal("no core mark")
+		return 0
+	}
+	within := func(s Shape, a, b string) bool {
+		y0, y1 := s.Pin(a).At.Y, s.Pin(b).At.Y
+		y := markY(s)
+		return y >= math.Min(y0, y1)-1 && y <= math.Max(y0, y1)+1
+	}
+	for _, st := range []Style{IEC, IEEE} {
+		tuned := ForMarked(x, st, Marks{Tuned: [][2]string{{"p1", "p2"}}})
+		if !within(tuned, "p1", "p2") || within(tuned, "f1", "f2") {
+			t.Errorf("%v: core mark at y %.1f, not across the tuned winding p (%.0f..%.0f)", st, markY(tuned), tuned.Pin("p1").At.Y, tuned.Pin("p2").At.Y)
+		}
+		if plain := For(x, st); !within(plain, "f1", "f2") {
+			t.Errorf("%v: with no winding tuned the core mark should stay on the first coil", st)
+		}
+	}
+}

@@ -2,6 +2,7 @@ package symbol
 
 import (
 	"math"
+	"slices"
 	"sort"
 
 	"pare/graph"
@@ -34,9 +35,9 @@ func transformer(p *graph.Part, st Style, m Marks) Shape {
 	}
 	for i, c := range cs {
 		if i < nLeft {
-			yl = s.addCoil(c, -1, yl, st, adjustable(p, c, i))
+			yl = s.addCoil(c, -1, yl, st, adjustable(p, cs, i, m.Tuned))
 		} else {
-			yr = s.addCoil(c, 1, yr, st, adjustable(p, c, i))
+			yr = s.addCoil(c, 1, yr, st, adjustable(p, cs, i, m.Tuned))
 		}
 	}
 	height := math.Max(yl, yr) - 2
@@ -88,19 +89,34 @@ func (s *Shape) addCoil(c coil, side, top float64, st Style, adjust bool) float6
 
 // adjustable says whether the i-th coil has a core the repairer turns: its
 // own winding is named in the part's adjust list, or the part has one core
-// for the whole (marked on the first coil).
-func adjustable(p *graph.Part, c coil, i int) bool {
+// for the whole, marked on the first coil with a capacitor across it (an
+// oscillator coil's tuned winding, not its feedback winding drawn first),
+// or on the first coil when none is tuned on the sheet.
+func adjustable(p *graph.Part, cs []coil, i int, tuned [][2]string) bool {
 	for _, a := range p.Adjust {
-		if a == graph.CoreWhole && i == 0 {
+		if a == graph.CoreWhole && i == wholeCore(cs, tuned) {
 			return true
 		}
-		for _, w := range c.windings {
+		for _, w := range cs[i].windings {
 			if a == w.Name {
 				return true
 			}
 		}
 	}
 	return false
+}
+
+// wholeCore is the coil a core adjusting the whole part is marked on: the
+// first one spanning a tuned winding's two ends, else the first.
+func wholeCore(cs []coil, tuned [][2]string) int {
+	for i, c := range cs {
+		for _, t := range tuned {
+			if slices.Contains(c.pins, t[0]) && slices.Contains(c.pins, t[1]) {
+				return i
+			}
+		}
+	}
+	return 0
 }
 
 // coils groups a transformer's windings into chains (a centre-tapped winding
