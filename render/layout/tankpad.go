@@ -30,8 +30,8 @@ func tunedWindings(c *graph.Circuit, tanks []TankCap) map[string][][2]string {
 	}
 	var onNet map[string][]*graph.Part
 	for _, p := range c.Parts {
-		if p.Kind != graph.Transformer {
-			continue
+		if p.Kind != graph.Transformer || !slices.Contains(p.Adjust, graph.CoreWhole) {
+			continue // the padder search serves only a core marked once for the whole part
 		}
 		if onNet == nil {
 			onNet = map[string][]*graph.Part{}
