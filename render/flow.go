@@ -1,8 +1,10 @@
 package render
 
 import (
+	"fmt"
 	"slices"
 	"sort"
+	"strings"
 
 	"pare/graph"
 	"pare/render/layout"
@@ -24,14 +26,23 @@ type flow struct {
 	frameSpan   [][2]int       // per frame: the first and last stretch holding its parts
 	blockOf     map[string]int // part ref → its stretch
 	laid        map[[2]int]*layout.Result
-	supplyFlow  map[string]int // the whole sheet's (layout.SupplyFlow)
-	cw, ch      float64        // the page's room for a row (0: no page)
+	// rows are the rows laid out so far by what they hold (rowKey), kept
+	// from one flow of the sheet to the next: a sheet flowed afresh with
+	// a stretch cut into its pieces has the same rows before the cut.
+	rows       map[string]*layout.Result
+	supplyFlow map[string]int // the whole sheet's (layout.SupplyFlow)
+	cw, ch     float64        // the page's room for a row (0: no page)
 }
 
-func newFlow(cfg Config, s *Sheet, bs []block) *flow {
+// newFlow starts the flow of the sheet's stretches; rows are the rows an
+// earlier flow of the same sheet laid out (rowKey), nil for none.
+func newFlow(cfg Config, s *Sheet, bs []block, rows map[string]*layout.Result) *flow {
+	if rows == nil {
+		rows = map[string]*layout.Result{}
+	}
 	f := &flow{cfg: cfg, s: s, bs: bs, first: map[string]int{}, last: map[string]int{},
 		part: map[string]*graph.Part{}, at: map[string]int{}, blockOf: map[string]int{},
-		laid: map[[2]int]*layout.Result{}}
+		laid: map[[2]int]*layout.Result{}, rows: rows}
 	f.supplyFlow = layout.SupplyFlow(s.Circuit, cfg.options(s))
 	if cfg.Page != nil {
 		f.cw, f.ch = cfg.Page.content()
@@ -81,7 +92,12 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 		f.laid[[2]int{a, b}] = r
 		return r, nil
 	}
-	sh := f.sheet(a, b, false)
+	sh, again := f.sheet(a, b, false), f.sheet(a, b, true)
+	key := rowKey(sh) + "\x00" + rowKey(again)
+	if r, ok := f.rows[key]; ok {
+		f.laid[[2]int{a, b}] = r
+		return r, nil
+	}
 	r, err := f.cfg.layout(sh)
 	if err != nil {
 		return nil, err
@@ -90,7 +106,7 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 	// (continues); where the router then fails a net the row is laid out
 	// again with the outgoing ends, and the one with fewer flags kept
 	if len(r.Geom.Failed) > 0 {
-		if again := f.sheet(a, b, true); len(again.continues) > len(sh.continues) {
+		if len(again.continues) > len(sh.continues) {
 			o, err := f.cfg.layout(again)
 			if err != nil {
 				return nil, err
@@ -104,6 +120,7 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 		return nil, err
 	}
 	f.laid[[2]int{a, b}] = r
+	f.rows[key] = r
 	return r, nil
 }
 
@@ -138,6 +155,34 @@ func (f *flow) orFromFirst(a, b int, r *layout.Result) (*layout.Result, error) {
 		return o, nil
 	}
 	return r, nil
+}
+
+// rowKey is everything a row's sheet (flow.sheet) holds that differs from
+// one row of the sheet to another: its parts, inputs and outputs, its
+// frames with their parts, and its off-row connectors. The rest (the
+// options, the nets, the whole sheet's supply flow) is the sheet's own,
+// so two rows of one sheet with the same key are laid out the same.
+func rowKey(sh *Sheet) string {
+	var b strings.Builder
+	c := sh.Circuit
+	for _, p := range c.Parts {
+		b.WriteString(p.Ref)
+		b.WriteByte(0)
+	}
+	for _, ns := range [][]string{c.Inputs, c.Outputs} {
+		b.WriteByte(1)
+		for _, n := range ns {
+			b.WriteString(n)
+			b.WriteByte(0)
+		}
+	}
+	for _, fr := range sh.Frames {
+		fmt.Fprintf(&b, "\x02%q %q %v %v %q %#v", fr.Title, fr.Subtitle, fr.Joined, fr.Supply, fr.Parts, fr.Places)
+	}
+	for _, k := range sh.continues {
+		fmt.Fprintf(&b, "\x03%q %q %v", k.Net, k.Label, k.In)
+	}
+	return b.String()
 }
 
 // sheet is the row [a, b) as a sheet of its own: the circuit cut to the

@@ -141,9 +141,11 @@ func stackLoose(pages []*layout.Result, ys []float64, r *layout.Result, avail fl
 func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 	cw, ch := cfg.Page.content()
 	ch -= 1 + cfg.footReserve(s)
-	bs := blocks(s, layout.Extents(s.Circuit, cfg.options(s)))
+	bs := blocks(s, cfg.extents(s))
+	var rows map[string]*layout.Result // every flow's rows, by what they hold
 	for {
-		f := newFlow(cfg, s, bs)
+		f := newFlow(cfg, s, bs, rows)
+		rows = f.rows
 		ends := []int{len(bs)}
 		// a row grows in routing, and its connectors take room at both edges
 		if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack {

@@ -144,7 +144,7 @@ func (cfg Config) hostLoose(f *flow, ends []int, laid []*layout.Result, cw, ch f
 		if j > row {
 			k--
 		}
-		g := newFlow(cfg, f.s, bs)
+		g := newFlow(cfg, f.s, bs, f.rows)
 		r, err := g.layout(start(nends, k), nends[k])
 		if err != nil {
 			return nil, nil, nil, err

@@ -180,6 +180,10 @@ type Config struct {
 	// Page is the paper the sheet is printed on (FprintPages): nil draws
 	// one sheet as wide as the drawing.
 	Page *Paper
+	// placed is the sheet's parts placed without routing
+	// (layout.Extents), when FprintFitPages has worked it out already:
+	// the paged drawing starts from the same placement.
+	placed map[string]geom.Rect
 }
 
 // Geometry lays the sheet out and returns the geometry that Fprint draws.
@@ -254,7 +258,7 @@ func (cfg Config) FprintFit(s *Sheet, p *Paper, widths float64) ([]byte, bool, e
 	if cfg.Grid <= 0 {
 		cfg.Grid = 10
 	}
-	if s != nil && s.Circuit != nil && placedTooBig(s, cfg.options(s), p, widths) {
+	if s != nil && s.Circuit != nil && placedTooBig(cfg.extents(s), p, widths) {
 		return nil, false, nil
 	}
 	r, err := cfg.layout(s)
@@ -274,13 +278,40 @@ func (cfg Config) FprintFit(s *Sheet, p *Paper, widths float64) ([]byte, bool, e
 // height, by more than rowSlack: routing only adds to a sheet, so it could
 // not fit, and a whole set's sheet (hundreds of parts, routed only to be
 // cut into rows after) is not routed at all.
-func placedTooBig(s *Sheet, o layout.Options, p *Paper, widths float64) bool {
+func placedTooBig(placed map[string]geom.Rect, p *Paper, widths float64) bool {
 	b := geom.Rect{}
-	for _, r := range layout.Extents(s.Circuit, o) {
+	for _, r := range placed {
 		b = b.Union(r) // min and max: the map's order does not matter
 	}
 	cw, ch := p.content()
 	return b.W() > widths*cw+rowSlack || b.H() > ch+rowSlack
+}
+
+// FprintFitPages is FprintFit and, for a sheet that does not fit, the
+// pages FprintPagesText cuts it into on p (paged true): both start from
+// the sheet's parts placed without routing, which a whole set's sheet
+// takes a good part of its drawing time to work out, so it is worked out
+// once.
+func (cfg Config) FprintFitPages(s *Sheet, p *Paper, widths float64) (pages [][]byte, mm []float64, paged bool, err error) {
+	if s != nil && s.Circuit != nil {
+		cfg.placed = cfg.extents(s)
+	}
+	one, fits, err := cfg.FprintFit(s, p, widths)
+	if err != nil || fits {
+		return [][]byte{one}, []float64{0}, false, err
+	}
+	cfg.Page = p
+	pages, mm, err = cfg.FprintPagesText(s)
+	return pages, mm, true, err
+}
+
+// extents is the sheet's parts placed without routing: the one
+// FprintFitPages worked out, else worked out here.
+func (cfg Config) extents(s *Sheet) map[string]geom.Rect {
+	if cfg.placed != nil {
+		return cfg.placed
+	}
+	return layout.Extents(s.Circuit, cfg.options(s))
 }
 
 type drawer struct {

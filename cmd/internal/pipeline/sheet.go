@@ -57,18 +57,17 @@ func (r *Result) drawSheets(o Options) error {
 func drawView(s *render.Sheet, o Options) (Sheet, error) {
 	sh := Sheet{View: s.View, Sheet: s, Paper: o.Page}
 	cfg := render.Config{Style: o.Style, Page: o.Page}
+	var pages [][]byte
+	var mm []float64
+	var err error
 	if o.Page == nil && o.Fit != nil {
-		one, fits, err := cfg.FprintFit(s, o.Fit, FitWidths)
-		if err != nil {
-			return sh, err
+		var paged bool
+		if pages, mm, paged, err = cfg.FprintFitPages(s, o.Fit, FitWidths); paged {
+			cfg.Page, sh.Paper = o.Fit, o.Fit
 		}
-		if fits {
-			sh.SVG, sh.Pages = one, [][]byte{one}
-			return sh, nil
-		}
-		cfg.Page, sh.Paper = o.Fit, o.Fit
+	} else {
+		pages, mm, err = cfg.FprintPagesText(s)
 	}
-	pages, mm, err := cfg.FprintPagesText(s)
 	if err != nil {
 		return sh, err
 	}
