@@ -40,13 +40,16 @@ func (ly *state) orient() {
 		}
 		best, bestScore := base, math.Inf(-1)
 		cl.turns = base.Turns
+		// a turn the search fixed holds when it leaves the part upright
+		t, fixed := ly.turns[cl.ref]
+		fixed = fixed && len(base.Turns) > 0 && upright(ly.c, cl.part, base.Oriented(base.Turns[t]))
 		for i, o := range base.Turns {
 			s := base.Oriented(o)
 			score := ly.score(cl, s)
 			if up, ok := ups[cl.ref]; ok {
 				score += upBonus(s, up)
 			}
-			if t, ok := ly.turns[cl.ref]; ok && upright(ly.c, cl.part, base.Oriented(base.Turns[t])) {
+			if fixed {
 				score = 0
 				if t == i {
 					score = 1

@@ -100,22 +100,20 @@ func (o Orient) ApplyDir(d geom.Dir) geom.Dir {
 
 // Oriented returns the shape with o applied to every stroke, pin and box.
 func (s Shape) Oriented(o Orient) Shape {
-	out := Shape{Turns: s.Turns}
-	for _, p := range s.Prims {
-		q := p
-		q.Pts = make([]geom.Pt, len(p.Pts))
-		for i, pt := range p.Pts {
+	out := s.copied()
+	for k := range out.Prims {
+		q := &out.Prims[k]
+		for i, pt := range q.Pts {
 			q.Pts[i] = o.Apply(pt)
 		}
-		if p.Kind == Arc && o.Mirror {
-			q.Sweep = !p.Sweep
+		if q.Kind == Arc && o.Mirror {
+			q.Sweep = !q.Sweep
 		}
-		out.Prims = append(out.Prims, q)
 	}
-	for _, pin := range s.Pins {
+	for i := range out.Pins {
+		pin := &out.Pins[i]
 		pin.At = o.Apply(pin.At)
 		pin.Dir = o.ApplyDir(pin.Dir)
-		out.Pins = append(out.Pins, pin)
 	}
 	a, b := o.Apply(geom.Pt{X: s.Box.X0, Y: s.Box.Y0}), o.Apply(geom.Pt{X: s.Box.X1, Y: s.Box.Y1})
 	out.Box = geom.R(a.X, a.Y, b.X, b.Y)
@@ -124,18 +122,42 @@ func (s Shape) Oriented(o Orient) Shape {
 
 // Moved returns the shape shifted by d.
 func (s Shape) Moved(d geom.Pt) Shape {
-	out := Shape{Turns: s.Turns, Box: s.Box.Move(d)}
-	for _, p := range s.Prims {
-		q := p
-		q.Pts = make([]geom.Pt, len(p.Pts))
-		for i, pt := range p.Pts {
-			q.Pts[i] = pt.Add(d)
+	out := s.copied()
+	out.Box = s.Box.Move(d)
+	for k := range out.Prims {
+		pts := out.Prims[k].Pts
+		for i, pt := range pts {
+			pts[i] = pt.Add(d)
 		}
-		out.Prims = append(out.Prims, q)
 	}
-	for _, pin := range s.Pins {
-		pin.At = pin.At.Add(d)
-		out.Pins = append(out.Pins, pin)
+	for i := range out.Pins {
+		out.Pins[i].At = out.Pins[i].At.Add(d)
+	}
+	return out
+}
+
+// copied is the shape with strokes and pins of its own, to be changed in
+// place: the points of all its strokes in one allocation (each stroke's
+// slice capped at its own end), as a layout moves every symbol many times
+// while it places a sheet.
+func (s Shape) copied() Shape {
+	out := Shape{Turns: s.Turns, Box: s.Box}
+	if len(s.Prims) > 0 {
+		n := 0
+		for _, p := range s.Prims {
+			n += len(p.Pts)
+		}
+		pts := make([]geom.Pt, 0, n)
+		out.Prims = make([]Prim, len(s.Prims))
+		for k, p := range s.Prims {
+			at := len(pts)
+			pts = append(pts, p.Pts...)
+			p.Pts = pts[at:len(pts):len(pts)]
+			out.Prims[k] = p
+		}
+	}
+	if len(s.Pins) > 0 {
+		out.Pins = append([]geom.Pin(nil), s.Pins...)
 	}
 	return out
 }
