@@ -157,6 +157,29 @@ func (f *flow) orFromFirst(a, b int, r *layout.Result) (*layout.Result, error) {
 	return r, nil
 }
 
+// tooBig says whether the row [a, b), not laid out yet, is known not to
+// fit cw by ch from its placement alone (layout.LeastBounds): the layout
+// f.layout would make of it, of either sheet it may take, is at least
+// that big. A row grown by a stretch mostly ends so, and is then not
+// routed at all.
+func (f *flow) tooBig(a, b int, cw, ch float64) bool {
+	if _, ok := f.laid[[2]int{a, b}]; ok {
+		return false // laid out already: its fit is known for nothing
+	}
+	over := func(sh *Sheet) bool {
+		r, ok := layout.LeastBounds(sh.Circuit, f.cfg.options(sh))
+		return ok && (r.W() > cw || r.H() > ch)
+	}
+	if a == 0 && b == len(f.bs) {
+		return over(f.s)
+	}
+	sh, again := f.sheet(a, b, false), f.sheet(a, b, true)
+	if !over(sh) {
+		return false
+	}
+	return len(again.continues) <= len(sh.continues) || over(again)
+}
+
 // rowKey is everything a row's sheet (flow.sheet) holds that differs from
 // one row of the sheet to another: its parts, inputs and outputs, its
 // frames with their parts, and its off-row connectors. The rest (the

@@ -273,7 +273,7 @@ func (f *flow) layoutRows(ends []int, cw, ch float64) ([]int, []*layout.Result, 
 		}
 		for !known && i+1 < len(ends) && fits(r, cw, ch) {
 			a, grown := start(ends, i), pullEnd(f.bs, ends, i)
-			if span(f.bs[a:grown]) > cw {
+			if span(f.bs[a:grown]) > cw || f.tooBig(a, grown, cw, ch) {
 				break
 			}
 			g, err := f.layout(a, grown)

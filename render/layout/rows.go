@@ -57,6 +57,32 @@ func Extents(c *graph.Circuit, o Options) map[string]geom.Rect {
 	return out
 }
 
+// LeastBounds is a box that Layout's Bounds for the same circuit and
+// options is never smaller than, found by placing without routing, and
+// whether there is one. Without the untangle search a layout keeps its
+// plain placement, and routing only adds to it: the symbols and their
+// local ground and rail marks stay where they were placed, and frames
+// only grow (growFrames). A label (a frame's title too) can lose its line of DC figures to the
+// figures placed at the pins (trimDCLine), so labels are left out. The
+// untangle search may take another placement, so there is no such box.
+func LeastBounds(c *graph.Circuit, o Options) (geom.Rect, bool) {
+	if o.Untangle || c == nil {
+		return geom.Rect{}, false
+	}
+	ly := place(c, o, nil, false)
+	b := geom.Rect{}
+	for _, cl := range ly.cells {
+		b = b.Union(cl.shape.Box)
+		for _, l := range cl.locals {
+			b = b.Union(l.Box)
+		}
+	}
+	for _, f := range ly.frames {
+		b = b.Union(f.Box)
+	}
+	return b, true
+}
+
 // Moved is the result shifted by d: rows are laid out at the origin and
 // stacked on a page.
 func (r *Result) Moved(d geom.Pt) *Result {
