@@ -166,6 +166,9 @@ func (f *flow) tooBig(a, b int, cw, ch float64) bool {
 	if _, ok := f.laid[[2]int{a, b}]; ok {
 		return false // laid out already: its fit is known for nothing
 	}
+	if f.cfg.options(f.s).Untangle {
+		return false // laid out with the untangle search: no least box
+	}
 	over := func(sh *Sheet) bool {
 		r, ok := layout.LeastBounds(sh.Circuit, f.cfg.options(sh))
 		return ok && (r.W() > cw || r.H() > ch)
