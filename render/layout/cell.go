@@ -28,6 +28,9 @@ type cell struct {
 	conn  bool // an off-row connector (rows.go), at its edge
 	turns []symbol.Orient
 	turn  int // index of the chosen orientation in turns
+	// sig are its signal nets (state.signalNets), once sigDone
+	sig     []string
+	sigDone bool
 }
 
 func (c *cell) footprint() geom.Rect {

@@ -217,13 +217,20 @@ type state struct {
 	supplyRanked map[string]bool
 }
 
-// signalNets of a cell: the nets of its pins that are wired.
+// signalNets of a cell: the nets of its pins that are wired. A cell's part
+// and the circuit's roles never change while it is placed, and placement
+// asks for them again and again, so they are found once per cell; the
+// slice is shared: read it, never change it.
 func (ly *state) signalNets(cl *cell) []string {
+	if cl.sigDone {
+		return cl.sig
+	}
 	var out []string
 	for _, pn := range cl.part.Pins {
 		if pn.Net != notConnected && pn.Net != "" && !ly.c.RoleOf(pn.Net).IsACGround() {
 			out = append(out, pn.Net)
 		}
 	}
-	return out
+	cl.sig, cl.sigDone = out[:len(out):len(out)], true
+	return cl.sig
 }
