@@ -26,6 +26,7 @@ type flow struct {
 	frameSpan   [][2]int       // per frame: the first and last stretch holding its parts
 	blockOf     map[string]int // part ref → its stretch
 	laid        map[[2]int]*layout.Result
+	sheets      map[[2]int][2]*Sheet // rowSheets
 	// rows are the rows laid out so far by what they hold (rowKey), kept
 	// from one flow of the sheet to the next: a sheet flowed afresh with
 	// a stretch cut into its pieces has the same rows before the cut.
@@ -42,7 +43,7 @@ func newFlow(cfg Config, s *Sheet, bs []block, rows map[string]*layout.Result) *
 	}
 	f := &flow{cfg: cfg, s: s, bs: bs, first: map[string]int{}, last: map[string]int{},
 		part: map[string]*graph.Part{}, at: map[string]int{}, blockOf: map[string]int{},
-		laid: map[[2]int]*layout.Result{}, rows: rows}
+		laid: map[[2]int]*layout.Result{}, sheets: map[[2]int][2]*Sheet{}, rows: rows}
 	f.supplyFlow = layout.SupplyFlow(s.Circuit, cfg.options(s))
 	if cfg.Page != nil {
 		f.cw, f.ch = cfg.Page.content()
@@ -92,7 +93,7 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 		f.laid[[2]int{a, b}] = r
 		return r, nil
 	}
-	sh, again := f.sheet(a, b, false), f.sheet(a, b, true)
+	sh, again := f.rowSheets(a, b)
 	key := rowKey(sh) + "\x00" + rowKey(again)
 	if r, ok := f.rows[key]; ok {
 		f.laid[[2]int{a, b}] = r
@@ -176,11 +177,25 @@ func (f *flow) tooBig(a, b int, cw, ch float64) bool {
 	if a == 0 && b == len(f.bs) {
 		return over(f.s)
 	}
-	sh, again := f.sheet(a, b, false), f.sheet(a, b, true)
+	sh, again := f.rowSheets(a, b)
 	if !over(sh) {
 		return false
 	}
 	return len(again.continues) <= len(sh.continues) || over(again)
+}
+
+// rowSheets are the row [a, b)'s two sheets (flow.sheet: without and with
+// the nets that run through it going out again), built once per row: the
+// fit test and the layout read the same ones, and each sub-circuit builds
+// its connection index once.
+func (f *flow) rowSheets(a, b int) (*Sheet, *Sheet) {
+	k := [2]int{a, b}
+	if s, ok := f.sheets[k]; ok {
+		return s[0], s[1]
+	}
+	s := [2]*Sheet{f.sheet(a, b, false), f.sheet(a, b, true)}
+	f.sheets[k] = s
+	return s[0], s[1]
 }
 
 // rowKey is everything a row's sheet (flow.sheet) holds that differs from
