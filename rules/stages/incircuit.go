@@ -28,6 +28,8 @@ func (x *figCtx) solverCircuit() *graph.Circuit {
 			x.sub = x.w.c
 		case x.cut != nil:
 			x.sub = x.cut
+		case x.m == nil: // no match to cut round (a loop-found mixer's tank without its piece)
+			x.sub = x.w.c
 		default: // a solve outside solveFigures: the first piece, unconfirmed
 			x.sub = x.neighbourhood(solverDepth)
 		}

@@ -247,7 +247,12 @@ func loopTracking(w *world, st *Stage, through string, ifHz float64) {
 		return
 	}
 	scratch := &Stage{}
+	// no match to cut a piece round: the piece the feedback transformer
+	// stands in, cut only at AC ground (exact), or the whole circuit
 	x := &figCtx{w: w, st: scratch, solve: true}
+	if i := x.partIndex(w.c.Part(through)); i >= 0 {
+		x.cut, _ = w.piece([]int{i}, -1, len(w.parts))
+	}
 	x.tracking(&tankModel{w: w, l: oc.l, a: oc.a, b: oc.b, caps: caps}, oc, ifHz)
 	for _, f := range scratch.Figures {
 		st.Figures.Put(f)

@@ -8,6 +8,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/figure"
+	"pare/rules"
 )
 
 // pieceChannel is one channel of a synthetic set: a triode (µ 20, ra 10k)
@@ -123,5 +124,45 @@ func TestPieceSolve(t *testing.T) {
 				t.Errorf("the 4-step cut's gain %g against %g: the far load matters %v, want %v", naive, want, moved, tc.farLoadMatters)
 			}
 		})
+	}
+}
+
+// A mixer found by its oscillator loop has no pattern match to cut a piece
+// round: in a set over wholeCircuitParts its tracking figures were solved
+// on the piece of a nil match and pare crashed (a 1,010-part bank at level
+// tidy). They are now solved on the piece the feedback transformer stands
+// in, cut at AC ground: exact, so the same as on the whole circuit.
+func TestLoopMixerTrackingInLargeSet(t *testing.T) {
+	c, err := graph.LoadFile("../../examples/transistor-front-end.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelTidy})
+	if err != nil {
+		t.Fatal(err)
+	}
+	trackOf := func() map[string]float64 {
+		out := map[string]float64{}
+		for _, s := range find(t, r, Options{Full: c, ACGround: log.ACGround}) {
+			for _, f := range s.Figures {
+				if strings.Contains(f.Name, "track") {
+					out[s.Name+" "+f.Name] = f.Value
+				}
+			}
+		}
+		return out
+	}
+	whole := trackOf()
+	saved := wholeCircuitParts
+	defer func() { wholeCircuitParts = saved }()
+	wholeCircuitParts = 5
+	cut := trackOf()
+	if len(whole) == 0 {
+		t.Fatal("no tracking figures on the whole circuit")
+	}
+	for k, v := range whole {
+		if w, ok := cut[k]; !ok || !within(w, v, pieceAgree) {
+			t.Errorf("%s: %v on the piece (found %v), %v on the whole circuit", k, w, ok, v)
+		}
 	}
 }
