@@ -15,14 +15,14 @@ func TestRailReturnsSurviveTheReduction(t *testing.T) {
 		file, part, pin string
 		rail, label     string // the net returned to and its label; "" for chassis
 	}{
-		{"../examples/frequency-changer.toml", "T2", "p2", "ht_if", "HT via R2"},      // decoupled by R2, C6
-		{"../examples/frequency-changer.toml", "C5", "2", "agc", "AGC line"},          // a declared bias rail
-		{"../examples/frequency-changer.toml", "R1", "2", "", ""},                     // grid leak to chassis
-		{"../examples/if-detector-audio.toml", "R9", "2", "ht_pre", "HT via R10"},     // anode load, R10 and C14
-		{"../examples/if-detector-audio.toml", "R8", "2", "", ""},                     // cathode resistor
+		{"../examples/frequency-changer.toml", "T2", "p2", "ht_if", "HT via R2"},       // decoupled by R2, C6
+		{"../examples/frequency-changer.toml", "C5", "2", "agc", "AGC line"},           // a declared bias rail
+		{"../examples/frequency-changer.toml", "R1", "2", "", ""},                      // grid leak to chassis
+		{"../examples/if-detector-audio.toml", "R9", "2", "ht_pre", "HT via R10"},      // anode load, R10 and C14
+		{"../examples/if-detector-audio.toml", "R8", "2", "", ""},                      // cathode resistor
 		{"../examples/transistor-front-end.toml", "C5", "2", "vcc_mix", "+9 V via R7"}, // decoupled by R7 from a rail labelled only by its +9 V: named by that voltage
-		{"../examples/transistor-front-end.toml", "R6", "2", "", ""},                  // emitter resistor to 0 V
-		{"../testdata/good/review-bjt-if.toml", "T2", "p1", "vcc", "+9 V"},            // straight to the rail
+		{"../examples/transistor-front-end.toml", "R6", "2", "", ""},                   // emitter resistor to 0 V
+		{"../testdata/good/review-bjt-if.toml", "T2", "p1", "vcc", "+9 V"},             // straight to the rail
 	}
 	for _, tc := range tests {
 		r, _ := reduceChecked(t, loadFile(t, tc.file), Options{Level: LevelSignal})
