@@ -121,7 +121,9 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		power, errPow = recognise(full, lib, true, nil, nil, o.DC, budget)
 	}
 	held := heldOnOriginal(power)
-	folded := foldShunts(reduced, acg, signal, order, held)
+	signal = withoutSupplied(signal, power)
+	kept := supplyParts(power, reduced)
+	folded := foldShunts(reduced, acg, signal, order, mergeSets(held, kept))
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
 	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
 	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
@@ -161,7 +163,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	for _, top := range power {
 		if top.group == "power" {
 			name(top.Stage)
-			markSupply(top)
+			markSupply(top, reduced)
 			out = appendTree(out, top)
 		}
 	}
@@ -227,11 +229,11 @@ func originalNoteFor(parts []string, reduced *graph.Circuit) string {
 
 // markSupply marks a stage found on the full circuit, and its sub-stages,
 // as a supply stage.
-func markSupply(f *found) {
+func markSupply(f *found, reduced *graph.Circuit) {
 	f.Supply = true
-	f.Notes = append(f.Notes, SupplyNote)
+	f.Notes = append(f.Notes, supplyNoteFor(f.Parts, reduced))
 	for _, c := range f.subs {
-		markSupply(c)
+		markSupply(c, reduced)
 	}
 }
 

@@ -3,6 +3,7 @@ package stages
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -214,13 +215,59 @@ func (x *figCtx) supplyFilterNets(s *graph.Part) (in, out int, dev *graph.Part, 
 	if x.onAGCLine(in) || x.onAGCLine(out) {
 		return 0, 0, nil, false, false
 	}
+	if !x.reachesSource(in, si) && x.supplyOutlet(in, si) != nil && x.reachesSource(out, si) {
+		// the port scored as the source is where the line leaves the
+		// set: the supply reaches the section from the other end
+		in, out, swapped = out, in, !swapped
+	}
 	if !x.reachesSource(in, si) {
 		return 0, 0, nil, false, false
 	}
-	if dev = x.feedsStage(out, si); dev == nil {
+	if dev = x.feedsStage(out, si); dev == nil && (x.supplyOutlet(out, si) == nil || x.onOutputElectrode(in)) {
 		return 0, 0, nil, false, false
 	}
 	return in, out, dev, swapped, true
+}
+
+// onOutputElectrode tells whether an anode, collector or drain sits on id:
+// a section from there is a signal filter off the device's load (its load
+// reaches the supply), never a supply line's.
+func (x *figCtx) onOutputElectrode(id int) bool {
+	for _, ci := range x.w.conns[id] {
+		for j, pid := range x.w.pins[ci] {
+			if pid == id && x.w.roles[ci][j] == graph.RoleOutput {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// supplyOutlet is the port by which a filtered supply line leaves the
+// circuit as captured (an HT feed to a stage on another board): out holds
+// a port that is no declared signal input or output, and nothing else but
+// the section's series part (skip) and capacitors to chassis, so nothing
+// but the port draws on it. nil when out is anything else. The section's
+// input must reach a source without the section (supplyFilterNets), so a
+// signal filter into an output socket never reads as one.
+func (x *figCtx) supplyOutlet(out, skip int) *graph.Part {
+	name := x.w.names[out]
+	if slices.Contains(x.w.c.Inputs, name) || slices.Contains(x.w.c.Outputs, name) {
+		return nil
+	}
+	var port *graph.Part
+	for _, ci := range x.w.conns[out] {
+		p := x.w.parts[ci]
+		switch {
+		case ci == skip:
+		case p.Kind == graph.Port && port == nil:
+			port = p
+		case p.Kind == graph.Capacitor && slices.Contains(x.w.pins[ci], groundNet):
+		default:
+			return nil
+		}
+	}
+	return port
 }
 
 // filterCorner is where |V(out)/V(in)| falls 3 dB below its level at DC

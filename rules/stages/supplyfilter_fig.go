@@ -83,7 +83,12 @@ func calcSmoothing(x *figCtx) {
 		x.filterInCircuit(s, c2, in, out, nil, check)
 	default:
 		x.checkSmoothing(x.netName(in), x.netName(out))
-		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s", dev.Ref))
+		if dev == nil {
+			port := x.supplyOutlet(out, x.partIndex(s))
+			x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds the supply line that leaves the circuit by %s (%s), no signal path", port.Ref, port.Label))
+		} else {
+			x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s", dev.Ref))
+		}
 		x.filterInCircuit(s, c2, in, out, dev, check)
 	}
 }

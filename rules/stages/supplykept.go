@@ -1,0 +1,96 @@
+package stages
+
+import (
+	"strings"
+
+	"pare/graph"
+)
+
+// A supply stage is found on the full circuit, but the reduction may keep
+// some of its parts on the reduced one: a region declared at the supply's
+// own band (the ripple's) holds its smoothing resistor and capacitor, and
+// a decoupler that feeds a line leaving the set by a port has no stage on
+// the sheet to be grounded for. Those parts are the supply stage's, named
+// by its wiring: the signal search, which sees only a resistor into a
+// capacitor to chassis, must neither name them a signal stage ("RC low-pass
+// section") nor fold them into the stage that draws on the line.
+
+// supplyParts are the parts of the supply stages (group "power") the
+// reduced circuit still holds.
+func supplyParts(power []*found, reduced *graph.Circuit) map[string]bool {
+	kept := map[string]bool{}
+	for _, f := range power {
+		if f.group != "power" {
+			continue
+		}
+		for r := range f.set {
+			if reduced.Part(r) != nil {
+				kept[r] = true
+			}
+		}
+	}
+	return kept
+}
+
+// withoutSupplied drops the signal stages whose every part a single supply
+// stage holds: the supply stage says what they are (a decoupler, not a
+// low-pass section in the signal path). A stage with sub-stages or an
+// active device is never dropped.
+func withoutSupplied(signal, power []*found) []*found {
+	var out []*found
+	for _, f := range signal {
+		if len(f.subs) > 0 || !coveredBySupply(f, power) {
+			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// coveredBySupply tells whether one supply stage holds every part of f.
+func coveredBySupply(f *found, power []*found) bool {
+	for _, p := range power {
+		if p.group != "power" {
+			continue
+		}
+		all := len(f.set) > 0
+		for r := range f.set {
+			all = all && p.set[r]
+		}
+		if all {
+			return true
+		}
+	}
+	return false
+}
+
+// supplyNoteFor is SupplyNote, or where the reduction keeps some of the
+// stage's parts, the note that says which stay on the reduced sheet.
+func supplyNoteFor(parts []string, reduced *graph.Circuit) string {
+	var kept []string
+	for _, r := range parts {
+		if reduced.Part(r) != nil {
+			kept = append(kept, r)
+		}
+	}
+	switch len(kept) {
+	case 0:
+		return SupplyNote
+	case len(parts):
+		return "supply stage found on the full circuit; the reduction keeps its parts, drawn on the reduced sheet as a supply stage"
+	case 1:
+		return "supply stage found on the full circuit; of its parts only " + kept[0] + " stays on the reduced sheet"
+	}
+	return "supply stage found on the full circuit; of its parts only " + strings.Join(kept[:len(kept)-1], ", ") + " and " + kept[len(kept)-1] + " stay on the reduced sheet"
+}
+
+// mergeSets is a new set holding the members of both.
+func mergeSets(a, b map[string]bool) map[string]bool {
+	out := make(map[string]bool, len(a)+len(b))
+	for k := range a {
+		out[k] = true
+	}
+	for k := range b {
+		out[k] = true
+	}
+	return out
+}
