@@ -261,6 +261,11 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 			Places: framePlaces(s, byName, reduced, full), Supply: s.Supply})
 		names = append(names, s.Name)
 	}
+	drawn := full
+	if drawn == nil {
+		drawn = reduced
+	}
+	joinChained(frames, names, byName, drawn)
 	return joinSupply(frames, names, hosts)
 }
 
