@@ -75,16 +75,6 @@ func (ly *state) signalRank() map[string]int {
 		}
 	}
 	collect()
-	// a piece the inputs do not reach is walked from the connector that
-	// brings its signal in from an earlier row, where there is one: walked
-	// from its first cell by name, a pi filter's second capacitor (C11
-	// before R8) or a ladder's last leg stood at the row's input
-	for _, cl := range ly.cells {
-		if _, ok := rank[cl.ref]; !ok && cl.conn && cl.edge < 0 && len(ly.signalNets(cl)) > 0 {
-			w.FromPart(cl.part, maxR+1)
-			collect()
-		}
-	}
 	for _, cl := range ly.cells {
 		if _, ok := rank[cl.ref]; !ok && len(ly.signalNets(cl)) > 0 {
 			w.FromPart(cl.part, maxR+1)
