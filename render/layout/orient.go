@@ -150,7 +150,7 @@ func (ly *state) score(cl *cell, s symbol.Shape) float64 {
 	if signal == len(s.Pins) && horizontalSignal == signal {
 		score += 1 // a part in the signal path lies along it
 	}
-	return score + ly.hangScore(cl, s)
+	return score + ly.hangScore(cl, s) + ly.lineScore(cl, s)
 }
 
 // railScore rates a rail pin pointing in direction d where it should point

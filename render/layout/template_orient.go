@@ -144,3 +144,55 @@ func (ly *state) templateMisses() map[string]bool {
 	}
 	return out
 }
+
+// lineScore favours, for a part its template lays horizontal, the turn
+// whose pins point to the slots of the template's other parts on the same
+// net in its row or the rows beside it: a ladder's series parts joined end to end along its line (a
+// phase-shift network drawn under its device), not turned about so that
+// each link doubles back under the part. A net none of the template's
+// other parts is on says nothing (the mean-column score decides it).
+func (ly *state) lineScore(cl *cell, s symbol.Shape) float64 {
+	t, ok := ly.slot[cl.ref]
+	if !ok || standOf(s) != "horizontal" {
+		return 0
+	}
+	score := 0.0
+	for _, p := range s.Pins {
+		sum, n := 0.0, 0
+		for ref, o := range ly.slot {
+			if ref == cl.ref || o.anchor != t.anchor || o.row < t.row-1 || o.row > t.row+1 || !ly.onNet(ref, p.Net) {
+				continue
+			}
+			sum += o.col
+			n++
+		}
+		if n == 0 {
+			continue
+		}
+		switch mean := sum / float64(n); {
+		case mean < t.col-0.01 && p.Dir == geom.Left, mean > t.col+0.01 && p.Dir == geom.Right:
+			score += 5
+		case mean < t.col-0.01 && p.Dir == geom.Right, mean > t.col+0.01 && p.Dir == geom.Left:
+			score -= 5
+		}
+	}
+	return score
+}
+
+// onNet says whether the part of a cell is on net (a wired net, not AC
+// ground).
+func (ly *state) onNet(ref, net string) bool {
+	if net == "" || net == notConnected || ly.c.RoleOf(net).IsACGround() {
+		return false
+	}
+	p := ly.c.Part(ref)
+	if p == nil {
+		return false
+	}
+	for _, pn := range p.Pins {
+		if pn.Net == net {
+			return true
+		}
+	}
+	return false
+}

@@ -28,6 +28,7 @@ func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *
 		}
 	}
 	walk(s)
+	out = append(out, ladderPlaces(s.Parts, reduced)...)
 	if s.Topology == "push-pull" {
 		out = pairPlaces(out, s.Parts, reduced)
 	}

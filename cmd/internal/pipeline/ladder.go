@@ -1,0 +1,254 @@
+package pipeline
+
+import (
+	"slices"
+
+	"pare/graph"
+	"pare/render"
+)
+
+// An RC ladder (a phase-shift oscillator's feedback network, a chain of
+// low-pass sections inside one stage) is drawn the way the trade draws
+// one: its series parts in a line, each inner node's shunt part hanging
+// from the line between the two series parts it joins, down to chassis, in
+// the order the signal passes them (common practice). Left to the generic
+// placement, review14 b01's ladder came out tangled round the oscillator's
+// collector load.
+
+// ladder is a chain of series parts joined at inner nets, each holding
+// exactly one shunt part to AC ground: elems alternate series, shunt,
+// series ... series.
+type ladder struct {
+	elems []string
+}
+
+// ladderMin is the fewest inner nodes that make a ladder worth a template:
+// two (three sections of a phase-shift network, or a pi and a half); a
+// single node is an L or a pi section the generic placement draws in line.
+const ladderMin = 2
+
+// findLadder is the longest ladder among parts on c, ok false for none.
+// An inner net holds nothing but the two series parts and its shunt, all
+// of them among parts: a net that also feeds a device or a part outside
+// the stage is where the ladder ends.
+func findLadder(parts []string, c *graph.Circuit) (ladder, bool) {
+	in := map[string]bool{}
+	for _, r := range parts {
+		in[r] = true
+	}
+	ground := func(n string) bool { return c.RoleOf(n).IsACGround() }
+	twoEnded := func(p *graph.Part) bool {
+		return p != nil && in[p.Ref] && len(p.Pins) == 2 &&
+			(p.Kind == graph.Resistor || p.Kind == graph.Capacitor || p.Kind == graph.Inductor)
+	}
+	series, shunt := map[string][]string{}, map[string][]string{}
+	for _, r := range parts {
+		p := c.Part(r)
+		if !twoEnded(p) {
+			continue
+		}
+		a, b := p.Pins[0].Net, p.Pins[1].Net
+		switch {
+		case ground(a) && !ground(b):
+			shunt[b] = append(shunt[b], r)
+		case ground(b) && !ground(a):
+			shunt[a] = append(shunt[a], r)
+		case !ground(a) && !ground(b) && a != b:
+			series[a] = append(series[a], r)
+			series[b] = append(series[b], r)
+		}
+	}
+	inner := func(n string) bool {
+		return len(series[n]) == 2 && len(shunt[n]) == 1 && len(c.ConnsOf(n)) == 3
+	}
+	var best ladder
+	for _, r := range parts {
+		p := c.Part(r)
+		if !twoEnded(p) || len(series[p.Pins[0].Net]) == 0 || len(series[p.Pins[1].Net]) == 0 {
+			continue
+		}
+		// start at a series part with an end that is no inner net
+		for _, end := range p.Pins {
+			if inner(end.Net) {
+				continue
+			}
+			l := walkLadder(c, p, end.Net, series, shunt, inner)
+			if len(l.elems) > len(best.elems) {
+				best = l
+			}
+		}
+	}
+	return best, len(best.elems) >= 2*ladderMin+1
+}
+
+// walkLadder follows a ladder from series part p entered at net from.
+func walkLadder(c *graph.Circuit, p *graph.Part, from string, series, shunt map[string][]string, inner func(string) bool) ladder {
+	var l ladder
+	seen := map[string]bool{}
+	for p != nil && !seen[p.Ref] {
+		seen[p.Ref] = true
+		l.elems = append(l.elems, p.Ref)
+		next := p.Pins[0].Net
+		if next == from {
+			next = p.Pins[1].Net
+		}
+		if !inner(next) {
+			break
+		}
+		l.elems = append(l.elems, shunt[next][0])
+		var q *graph.Part
+		for _, r := range series[next] {
+			if r != p.Ref {
+				q = c.Part(r)
+			}
+		}
+		p, from = q, next
+	}
+	if len(l.elems)%2 == 0 { // ended on a shunt: the series part was seen
+		l.elems = l.elems[:len(l.elems)-1]
+	}
+	return l
+}
+
+// ladderPlaces is the template of the ladder among a stage's parts,
+// anchored on its middle series part: series parts lying along the line,
+// each shunt standing between the two it joins, the end nearer the
+// sheet's input on the left (the generic placement's order along the
+// signal, so the template only straightens it). Nil for no ladder, or
+// one longer than a template reaches.
+func ladderPlaces(parts []string, c *graph.Circuit) []render.Place {
+	l, ok := findLadder(parts, c)
+	if !ok {
+		return nil
+	}
+	if out := feedbackLadder(l, parts, c); out != nil {
+		return out
+	}
+	els := l.elems
+	if inputDist(c, els[len(els)-1]) < inputDist(c, els[0]) {
+		els = slices.Clone(els)
+		slices.Reverse(els)
+	}
+	mid := len(els) / 2
+	if mid%2 == 1 { // anchor a series part (even index)
+		mid--
+	}
+	if mid > ladderReach || len(els)-1-mid > ladderReach {
+		return nil
+	}
+	anchor := els[mid]
+	out := []render.Place{{Ref: anchor, Anchor: anchor, Stand: "horizontal"}}
+	for i, r := range els {
+		if i == mid {
+			continue
+		}
+		stand := "horizontal"
+		if i%2 == 1 {
+			stand = "vertical"
+		}
+		out = append(out, render.Place{Ref: r, Anchor: anchor, Col: i - mid, Stand: stand})
+	}
+	return out
+}
+
+// ladderReach is how many slots a template reaches either side of its
+// anchor (render/layout's slotReach).
+const ladderReach = 4
+
+// inputDist is a part's distance from the circuit's inputs over its
+// signal nets, large for a part they do not reach.
+func inputDist(c *graph.Circuit, ref string) int {
+	w := graph.NewWalk(c.View())
+	w.Follow = func(n string) bool { return n != graph.NotConnected && n != "" && !c.RoleOf(n).IsACGround() }
+	w.FromNets(c.Inputs, 1)
+	if d, ok := w.PartDist(c.Part(ref)); ok {
+		return d
+	}
+	return 1 << 30
+}
+
+// feedbackLadder is the template of a ladder that runs from a device's
+// output electrode back to its control electrode (a phase-shift
+// oscillator's), anchored on the device, as the trade draws it: the
+// device's common-lead parts under it, its output load up to the rail
+// beside the output electrode, and the ladder in a line below them, its
+// series parts along row 2 from the control side (left) to the output
+// side (right), each shunt under the line between the two series parts it
+// joins. Nil when no device of the stage has the ladder's ends on its
+// output and control electrodes, or the ladder is longer than a template
+// reaches.
+func feedbackLadder(l ladder, parts []string, c *graph.Circuit) []render.Place {
+	first, last := c.Part(l.elems[0]), c.Part(l.elems[len(l.elems)-1])
+	for _, r := range parts {
+		dev := c.Part(r)
+		if dev == nil || !dev.IsActive() {
+			continue
+		}
+		ctl, out := dev.NetOf(dev.PinWithRole(graph.RoleControl)), dev.NetOf(dev.PinWithRole(graph.RoleOutput))
+		els := l.elems
+		switch {
+		case ctl == "" || out == "":
+			continue
+		case hasNet(first, ctl) && hasNet(last, out):
+		case hasNet(first, out) && hasNet(last, ctl):
+			els = slices.Clone(els)
+			slices.Reverse(els)
+		default:
+			continue
+		}
+		half := len(els) / 2
+		if half > ladderReach {
+			return nil
+		}
+		places := []render.Place{{Ref: dev.Ref, Anchor: dev.Ref}}
+		places = append(places, devicePlaces(dev, parts, c)...)
+		for i, ref := range els {
+			pl := render.Place{Ref: ref, Anchor: dev.Ref, Col: i - half, Row: 2, Stand: "horizontal"}
+			if i%2 == 1 {
+				pl.Row, pl.Stand = 3, "vertical"
+			}
+			places = append(places, pl)
+		}
+		return places
+	}
+	return nil
+}
+
+// devicePlaces are the slots of a device's own two-terminal parts round
+// it: those from its common electrode to AC ground under it, those from
+// its output electrode to AC ground (its load to the rail) above and
+// right of it.
+func devicePlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Place {
+	common, out := dev.NetOf(dev.PinWithRole(graph.RoleCommon)), dev.NetOf(dev.PinWithRole(graph.RoleOutput))
+	var places []render.Place
+	for _, r := range parts {
+		p := c.Part(r)
+		if p == nil || p == dev || len(p.Pins) != 2 {
+			continue
+		}
+		a, b := p.Pins[0].Net, p.Pins[1].Net
+		if c.RoleOf(a).IsACGround() {
+			a, b = b, a
+		}
+		if !c.RoleOf(b).IsACGround() || c.RoleOf(a).IsACGround() {
+			continue
+		}
+		switch a {
+		case common:
+			places = append(places, render.Place{Ref: r, Anchor: dev.Ref, Col: 0, Row: 1, Stand: "vertical"})
+		case out:
+			places = append(places, render.Place{Ref: r, Anchor: dev.Ref, Col: 1, Row: -1, Stand: "vertical"})
+		}
+	}
+	return places
+}
+
+// hasNet tells whether a part has a pin on net.
+func hasNet(p *graph.Part, net string) bool {
+	for _, pn := range p.Pins {
+		if pn.Net == net {
+			return true
+		}
+	}
+	return false
+}
