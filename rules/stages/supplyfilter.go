@@ -44,13 +44,18 @@ func dcPath(p *graph.Part) bool {
 // signal detector's diode deliver no power, so a resistor and capacitor fed
 // from them (an AGC filter, a coil's AGC feed and its cold-end bypass) are
 // no supply filter.
+//
+// The walk never enters an anode's, collector's or drain's net: a supply
+// reached only through a device's load is no supply line of the section's
+// (an RC ladder off a collector, a phase-shift network, read as a chain of
+// decouplers).
 func (x *figCtx) reachesSource(net int, skip int) bool {
 	return x.walkDC(net, skip, func(id int, ci int, pin int) bool {
 		if ci < 0 {
 			return x.isSourceNet(id)
 		}
 		return x.isPowerRectifier(ci)
-	}, nil)
+	}, func(id int) bool { return !x.onOutputElectrode(id) })
 }
 
 // isSourceNet tells whether a net is itself a source of power: a declared

@@ -28,9 +28,9 @@ type ladder struct {
 const ladderMin = 2
 
 // findLadder is the longest ladder among parts on c, ok false for none.
-// An inner net holds nothing but the two series parts and its shunt, all
-// of them among parts: a net that also feeds a device or a part outside
-// the stage is where the ladder ends.
+// An inner net holds the stage's two series parts and its one shunt, and
+// no device and no other part of the stage; a part of another stage may
+// tap it (a buffer's coupling capacitor on the ladder's middle node).
 func findLadder(parts []string, c *graph.Circuit) (ladder, bool) {
 	in := map[string]bool{}
 	for _, r := range parts {
@@ -59,7 +59,15 @@ func findLadder(parts []string, c *graph.Circuit) (ladder, bool) {
 		}
 	}
 	inner := func(n string) bool {
-		return len(series[n]) == 2 && len(shunt[n]) == 1 && len(c.ConnsOf(n)) == 3
+		if len(series[n]) != 2 || len(shunt[n]) != 1 {
+			return false
+		}
+		for _, k := range c.ConnsOf(n) {
+			if p := k.Part; p == nil || p.IsActive() || in[p.Ref] && !slices.Contains(series[n], p.Ref) && shunt[n][0] != p.Ref {
+				return false
+			}
+		}
+		return true
 	}
 	var best ladder
 	for _, r := range parts {
@@ -217,10 +225,13 @@ func feedbackLadder(l ladder, parts []string, c *graph.Circuit) []render.Place {
 // devicePlaces are the slots of a device's own two-terminal parts round
 // it: those from its common electrode to AC ground under it, those from
 // its output electrode to AC ground (its load to the rail) above and
-// right of it.
+// right of it, those from its control electrode to AC ground (bias, the
+// ladder's last leg) hanging from the wire into it, left of it.
 func devicePlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Place {
 	common, out := dev.NetOf(dev.PinWithRole(graph.RoleCommon)), dev.NetOf(dev.PinWithRole(graph.RoleOutput))
+	ctl := dev.NetOf(dev.PinWithRole(graph.RoleControl))
 	var places []render.Place
+	col := -1
 	for _, r := range parts {
 		p := c.Part(r)
 		if p == nil || p == dev || len(p.Pins) != 2 {
@@ -238,6 +249,11 @@ func devicePlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Pl
 			places = append(places, render.Place{Ref: r, Anchor: dev.Ref, Col: 0, Row: 1, Stand: "vertical"})
 		case out:
 			places = append(places, render.Place{Ref: r, Anchor: dev.Ref, Col: 1, Row: -1, Stand: "vertical"})
+		case ctl:
+			if col >= -ladderReach {
+				places = append(places, render.Place{Ref: r, Anchor: dev.Ref, Col: col, Row: 0, Stand: "vertical"})
+				col--
+			}
 		}
 	}
 	return places
