@@ -61,3 +61,17 @@ func TestReview14DecouplerFeedingAPort(t *testing.T) {
 		})
 	}
 }
+
+// A phase-shift ladder fed from a collector reaches the supply only
+// through the collector load: its sections are no chain of supply
+// decouplers (the class fixtures named three "Supply decoupling filter"
+// stages over the ladder of bjt-lowpass4-buffer.toml).
+func TestLadderIsNoSupplyFilter(t *testing.T) {
+	for _, name := range []string{"bjt-lowpass4-buffer.toml", "fet-lowpass3.toml", "valve-highpass4.toml"} {
+		for _, s := range findBiased(t, reviewCircuit(t, "phase-shift", name)) {
+			if s.Supply {
+				t.Errorf("%s: %s %q %v named a supply stage", name, s.Name, s.Title, s.Parts)
+			}
+		}
+	}
+}
