@@ -24,6 +24,9 @@ type Place struct {
 	Ref, Anchor string
 	Col, Row    int
 	Stand       string
+	// Line marks a series part of a ladder laid along a row: its pins
+	// turn towards the ladder's shunts on its nets (lineScore).
+	Line bool
 }
 
 // Gaps between a template's slots, in grid steps: as between the generic

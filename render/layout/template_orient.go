@@ -145,22 +145,23 @@ func (ly *state) templateMisses() map[string]bool {
 	return out
 }
 
-// lineScore favours, for a part its template lays horizontal, the turn
-// whose pins point to the slots of the template's other parts on the same
-// net in its row or the rows beside it: a ladder's series parts joined end to end along its line (a
+// lineScore favours, for a ladder's series part its template lays along a
+// row (Place.Line), the turn whose pins point to the slots of the shunts
+// the template stands on the same net (upright, in the row under the line
+// or in its own): the series parts joined end to end along the line (a
 // phase-shift network drawn under its device), not turned about so that
-// each link doubles back under the part. A net none of the template's
-// other parts is on says nothing (the mean-column score decides it).
+// each link doubles back under the part. A net no such shunt is on says
+// nothing (the mean-column score decides it).
 func (ly *state) lineScore(cl *cell, s symbol.Shape) float64 {
 	t, ok := ly.slot[cl.ref]
-	if !ok || standOf(s) != "horizontal" {
+	if !ok || standOf(s) != "horizontal" || !ly.onLine(cl.ref) {
 		return 0
 	}
 	score := 0.0
 	for _, p := range s.Pins {
 		sum, n := 0.0, 0
 		for ref, o := range ly.slot {
-			if ref == cl.ref || o.anchor != t.anchor || o.row < t.row-1 || o.row > t.row+1 || !ly.onNet(ref, p.Net) {
+			if ref == cl.ref || o.anchor != t.anchor || !ly.shuntBelow(ref, o, t) || !ly.onNet(ref, p.Net) {
 				continue
 			}
 			sum += o.col
@@ -195,4 +196,41 @@ func (ly *state) onNet(ref, net string) bool {
 		}
 	}
 	return false
+}
+
+// shuntBelow says whether the template part ref in slot o stands as a
+// ladder's shunt under the line of the part in slot t: upright, in the
+// row under it or in its own row.
+func (ly *state) shuntBelow(ref string, o, t tplSlot) bool {
+	if o.row != t.row+1 && o.row != t.row {
+		return false
+	}
+	return ly.placeStand(ref) == "vertical"
+}
+
+// placeStand is the way the first template placing ref asks it to run.
+func (ly *state) placeStand(ref string) string {
+	if p, ok := ly.firstPlace(ref); ok {
+		return p.Stand
+	}
+	return ""
+}
+
+// onLine says whether the first template placing ref lays it along a
+// ladder's line (Place.Line).
+func (ly *state) onLine(ref string) bool {
+	p, ok := ly.firstPlace(ref)
+	return ok && p.Line
+}
+
+// firstPlace is the first template entry placing ref.
+func (ly *state) firstPlace(ref string) (Place, bool) {
+	for _, f := range ly.o.Frames {
+		for _, p := range f.Places {
+			if p.Ref == ref {
+				return p, true
+			}
+		}
+	}
+	return Place{}, false
 }

@@ -121,7 +121,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 		power, errPow = recognise(full, lib, true, nil, nil, o.DC, budget)
 	}
 	held := heldOnOriginal(power)
-	signal = withoutSupplied(signal, power)
+	signal = withoutSupplied(signal, power, reduced)
 	kept := supplyParts(power, reduced)
 	folded := foldShunts(reduced, acg, signal, order, mergeSets(held, kept))
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device

@@ -16,12 +16,13 @@ import (
 // section") nor fold them into the stage that draws on the line.
 
 // supplyParts are the parts of the supply stages (group "power") the
-// reduced circuit still holds.
+// reduced circuit still holds, but a screen feed's: the trade draws a
+// screen's dropper and bypass at the valve they feed.
 func supplyParts(power []*found, reduced *graph.Circuit) map[string]bool {
 	kept := map[string]bool{}
 	for _, f := range power {
-		if f.group != "power" {
-			continue
+		if f.group != "power" || f.Topology == screenFeedTopology {
+			continue // a screen feed is drawn with the stage whose screen it feeds
 		}
 		for r := range f.set {
 			if reduced.Part(r) != nil {
@@ -34,12 +35,14 @@ func supplyParts(power []*found, reduced *graph.Circuit) map[string]bool {
 
 // withoutSupplied drops the signal stages whose every part a single supply
 // stage holds: the supply stage says what they are (a decoupler, not a
-// low-pass section in the signal path). A stage with sub-stages or an
-// active device is never dropped.
-func withoutSupplied(signal, power []*found) []*found {
+// low-pass section in the signal path), and the "RC low-pass sections"
+// whose capacitor is a supply stage's (a load resistor into a decoupler's
+// capacitor: its output is a supply line). A stage with sub-stages is
+// never dropped.
+func withoutSupplied(signal, power []*found, c *graph.Circuit) []*found {
 	var out []*found
 	for _, f := range signal {
-		if len(f.subs) > 0 || !coveredBySupply(f, power) {
+		if len(f.subs) > 0 || !coveredBySupply(f, power) && !(f.Topology == "rc-low-pass" && capsBySupply(f, power, c)) {
 			out = append(out, f)
 		}
 	}
@@ -76,7 +79,7 @@ func supplyNoteFor(parts []string, reduced *graph.Circuit) string {
 	case 0:
 		return SupplyNote
 	case len(parts):
-		return "supply stage found on the full circuit; the reduction keeps its parts, drawn on the reduced sheet as a supply stage"
+		return "supply stage found on the full circuit; the reduction keeps its parts on the reduced sheet"
 	case 1:
 		return "supply stage found on the full circuit; of its parts only " + kept[0] + " stays on the reduced sheet"
 	}
@@ -93,4 +96,24 @@ func mergeSets(a, b map[string]bool) map[string]bool {
 		out[k] = true
 	}
 	return out
+}
+
+// capsBySupply tells whether f has capacitors and a supply stage holds
+// each of them.
+func capsBySupply(f *found, power []*found, c *graph.Circuit) bool {
+	n := 0
+	for r := range f.set {
+		if p := c.Part(r); p == nil || p.Kind != graph.Capacitor {
+			continue
+		}
+		n++
+		held := false
+		for _, p := range power {
+			held = held || p.group == "power" && p.set[r]
+		}
+		if !held {
+			return false
+		}
+	}
+	return n > 0
 }

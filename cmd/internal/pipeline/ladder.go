@@ -118,62 +118,22 @@ func walkLadder(c *graph.Circuit, p *graph.Part, from string, series, shunt map[
 	return l
 }
 
-// ladderPlaces is the template of the ladder among a stage's parts,
-// anchored on its middle series part: series parts lying along the line,
-// each shunt standing between the two it joins, the end nearer the
-// sheet's input on the left (the generic placement's order along the
-// signal, so the template only straightens it). Nil for no ladder, or
-// one longer than a template reaches.
+// ladderPlaces is the template of a ladder among a stage's parts that runs
+// from a device's output electrode back to its control electrode
+// (feedbackLadder). Nil for none: a ladder elsewhere keeps the generic
+// placement (laid on its own row by a template, a Clapp's coil and
+// capacitors, read as one, were turned about).
 func ladderPlaces(parts []string, c *graph.Circuit) []render.Place {
 	l, ok := findLadder(parts, c)
 	if !ok {
 		return nil
 	}
-	if out := feedbackLadder(l, parts, c); out != nil {
-		return out
-	}
-	els := l.elems
-	if inputDist(c, els[len(els)-1]) < inputDist(c, els[0]) {
-		els = slices.Clone(els)
-		slices.Reverse(els)
-	}
-	mid := len(els) / 2
-	if mid%2 == 1 { // anchor a series part (even index)
-		mid--
-	}
-	if mid > ladderReach || len(els)-1-mid > ladderReach {
-		return nil
-	}
-	anchor := els[mid]
-	out := []render.Place{{Ref: anchor, Anchor: anchor, Stand: "horizontal"}}
-	for i, r := range els {
-		if i == mid {
-			continue
-		}
-		stand := "horizontal"
-		if i%2 == 1 {
-			stand = "vertical"
-		}
-		out = append(out, render.Place{Ref: r, Anchor: anchor, Col: i - mid, Stand: stand})
-	}
-	return out
+	return feedbackLadder(l, parts, c)
 }
 
 // ladderReach is how many slots a template reaches either side of its
 // anchor (render/layout's slotReach).
 const ladderReach = 4
-
-// inputDist is a part's distance from the circuit's inputs over its
-// signal nets, large for a part they do not reach.
-func inputDist(c *graph.Circuit, ref string) int {
-	w := graph.NewWalk(c.View())
-	w.Follow = func(n string) bool { return n != graph.NotConnected && n != "" && !c.RoleOf(n).IsACGround() }
-	w.FromNets(c.Inputs, 1)
-	if d, ok := w.PartDist(c.Part(ref)); ok {
-		return d
-	}
-	return 1 << 30
-}
 
 // feedbackLadder is the template of a ladder that runs from a device's
 // output electrode back to its control electrode (a phase-shift
@@ -211,9 +171,9 @@ func feedbackLadder(l ladder, parts []string, c *graph.Circuit) []render.Place {
 		places := []render.Place{{Ref: dev.Ref, Anchor: dev.Ref}}
 		places = append(places, devicePlaces(dev, parts, c)...)
 		for i, ref := range els {
-			pl := render.Place{Ref: ref, Anchor: dev.Ref, Col: i - half, Row: 2, Stand: "horizontal"}
+			pl := render.Place{Ref: ref, Anchor: dev.Ref, Col: i - half, Row: 2, Stand: "horizontal", Line: true}
 			if i%2 == 1 {
-				pl.Row, pl.Stand = 3, "vertical"
+				pl.Row, pl.Stand, pl.Line = 3, "vertical", false
 			}
 			places = append(places, pl)
 		}
