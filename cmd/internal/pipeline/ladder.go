@@ -168,6 +168,9 @@ func feedbackLadder(l ladder, parts []string, c *graph.Circuit) []render.Place {
 		if half > ladderReach {
 			return nil
 		}
+		if splitLead(dev, parts, c) {
+			return nil // a part-bypassed lead has no slot: the template collided round it
+		}
 		places := []render.Place{{Ref: dev.Ref, Anchor: dev.Ref}}
 		places = append(places, devicePlaces(dev, parts, c)...)
 		for i, ref := range els {
@@ -224,6 +227,31 @@ func hasNet(p *graph.Part, net string) bool {
 	for _, pn := range p.Pins {
 		if pn.Net == net {
 			return true
+		}
+	}
+	return false
+}
+
+// splitLead tells whether a part of the stage runs from the device's
+// common electrode to a net other than AC ground (a part-bypassed
+// emitter's unbypassed resistor): the template places a common lead only
+// as parts straight to chassis under the device, and with such a lead its
+// ladder's slots collided and the sheet came out worse than the generic
+// placement's.
+func splitLead(dev *graph.Part, parts []string, c *graph.Circuit) bool {
+	common := dev.NetOf(dev.PinWithRole(graph.RoleCommon))
+	if common == "" || c.RoleOf(common).IsACGround() {
+		return false
+	}
+	for _, r := range parts {
+		p := c.Part(r)
+		if p == nil || p == dev || !hasNet(p, common) {
+			continue
+		}
+		for _, pn := range p.Pins {
+			if pn.Net != common && !c.RoleOf(pn.Net).IsACGround() {
+				return true
+			}
 		}
 	}
 	return false
