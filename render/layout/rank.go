@@ -49,8 +49,15 @@ func (ly *state) signalRank() map[string]int {
 	for i, cl := range ly.cells {
 		parts[i] = cl.part
 	}
-	w := graph.NewWalk(graph.NewView(graph.NewIndex(parts, nil), parts))
+	view := graph.NewView(graph.NewIndex(parts, nil), parts)
+	w := graph.NewWalk(view)
 	w.Follow = func(n string) bool { return n != notConnected && n != "" && !ly.c.RoleOf(n).IsACGround() }
+	// a part from a device's control or common electrode to a net the
+	// signal reaches after the device (graph.FeedbackParts) carries it
+	// only into that electrode, never out of it; one the walk reaches
+	// later than the electrode (a feedback part) takes its layer
+	fb := graph.FeedbackParts(parts, view, w.Follow)
+	w.Enter = func(p *graph.Part, pin string) bool { into, ok := fb[p]; return !ok || p.NetOf(pin) != into }
 	var inputs []string
 	for _, in := range ly.c.Inputs {
 		if w.Follow(in) {
@@ -79,6 +86,13 @@ func (ly *state) signalRank() map[string]int {
 		if _, ok := rank[cl.ref]; !ok && len(ly.signalNets(cl)) > 0 {
 			w.FromPart(cl.part, maxR+1)
 			collect()
+		}
+	}
+	for _, cl := range ly.cells {
+		if into, back := fb[cl.part]; back {
+			if r, ok := w.NetDist(into); ok && r < rank[cl.ref] {
+				rank[cl.ref] = r
+			}
 		}
 	}
 	return rank

@@ -130,7 +130,8 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	signal = append(signal, deviceStages(reduced, acg, signal, held)...)
 	refold(reduced, signal, folded)
 	signal = nestStoppers(reduced, signal)
-	inSignalOrder(signal, order)
+	naming := namingOrder(reduced)
+	inSignalOrder(signal, naming)
 	nameRoles(signal, reduced)
 	var out []Stage
 	n := 0
@@ -152,7 +153,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 			all = append(all, top)
 		}
 	}
-	inSignalOrder(all, order)
+	inSignalOrder(all, naming)
 	for _, top := range all {
 		name(top.Stage)
 		if onOriginal[top] {
