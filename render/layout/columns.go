@@ -190,7 +190,15 @@ func (ly *state) stages() map[string]int {
 // frame only the parts ranked along its flow (supplyflow.go), so a
 // decoupler between the HT line and a stage's feed stands with the stage
 // it feeds.
+//
+// A loudspeaker no stage claims is taken by none: it is the set's load,
+// drawn after the stages at the output, never inside the frame of the
+// coupling capacitor or network that feeds it (a reader takes a part
+// inside a frame for one of its stage).
 func (ly *state) takes(s int, nb *cell) bool {
+	if nb.part.Kind == graph.Loudspeaker {
+		return false
+	}
 	if s >= len(ly.o.Frames) || !ly.o.Frames[s].Supply {
 		return true
 	}
