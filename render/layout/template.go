@@ -2,6 +2,7 @@ package layout
 
 import (
 	"math"
+	"slices"
 
 	"pare/render/geom"
 )
@@ -110,12 +111,45 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 	ly.slotMoves(anchor, slots)
 	ly.makeRoom(stage, slots, all)
 	ly.refuseCollisions(stage, slots, all)
+	ly.closeIn(anchor, slots, all)
 	for _, s := range slots {
 		if s.keep {
 			s.b.move(s.d)
 			moved[s.b] = true
 			for _, cl := range append(append([]*cell{}, s.b.cells...), s.b.chain...) {
 				ly.tplMoved[cl.ref] = true
+			}
+		}
+	}
+	ly.clearRails(all)
+}
+
+// clearRails moves each rail-only block (railOnly) that a template's
+// blocks now touch straight down, or else up, to the nearest place where
+// it touches none: a faded reservoir capacitor yields its place to the
+// stage drawn round it.
+func (ly *state) clearRails(all []*block) {
+	hits := func(b *block, d geom.Pt) bool {
+		r := b.fp.Move(d).Inset(1)
+		for _, o := range all {
+			if o != b && o.fp.Overlaps(r) {
+				return true
+			}
+		}
+		return false
+	}
+	for _, b := range all {
+		if !ly.railOnly(b) || !hits(b, geom.Pt{}) {
+			continue
+		}
+		for dy := 1.0; dy < 200; dy++ {
+			if !hits(b, geom.Pt{Y: dy}) {
+				b.move(geom.Pt{Y: dy})
+				break
+			}
+			if !hits(b, geom.Pt{Y: -dy}) {
+				b.move(geom.Pt{Y: -dy})
+				break
 			}
 		}
 	}
@@ -176,6 +210,57 @@ func (ly *state) slotMoves(anchor *block, slots []*slotted) {
 		}
 	}
 	ly.levelLying(slots)
+	ly.alignChains(anchor, slots)
+}
+
+// alignChains stands the parts of a template column in line: a block of
+// one part in a column moves sideways, within its column's slack, until
+// its pin on a net it shares with the part nearer the anchor's row in the
+// same column (the anchor itself in column 0) is straight below or above
+// that part's pin there. An emitter resistor then hangs straight from its
+// emitter, the PNP of a complementary pair stands under the NPN, and a bias
+// chain of diodes and a preset is one straight wire; centred, each part's
+// leads jogged by the width of its label or wiper.
+func (ly *state) alignChains(anchor *block, slots []*slotted) {
+	order := slices.Clone(slots)
+	slices.SortStableFunc(order, func(a, b *slotted) int { return max(a.row, -a.row) - max(b.row, -b.row) })
+	byCol := map[int][]colPart{0: {{anchor.cells[0], geom.Pt{}}}}
+	for _, s := range order {
+		if len(s.b.cells) != 1 || len(s.b.chain) > 0 || s.row == 0 {
+			continue
+		}
+		cl := s.b.cells[0]
+		if dx, ok := ly.lineUp(cl, byCol[s.col]); ok && math.Abs(dx-s.d.X) <= 2*slotGapX {
+			s.d.X = dx
+		}
+		byCol[s.col] = append(byCol[s.col], colPart{cl, s.d})
+	}
+}
+
+// colPart is a part of a template column and the move it is given.
+type colPart struct {
+	cl *cell
+	d  geom.Pt
+}
+
+// lineUp is the sideways move that puts cl's pin on a wired net straight
+// in line with the same net's pin of one of the parts already in its
+// column (each at its own move), the latest first.
+func (ly *state) lineUp(cl *cell, col []colPart) (float64, bool) {
+	for i := len(col) - 1; i >= 0; i-- {
+		o := col[i]
+		for _, p := range cl.shape.Pins {
+			if p.Dir != geom.Up && p.Dir != geom.Down || p.Net == "" || p.Net == notConnected || ly.c.RoleOf(p.Net).IsACGround() {
+				continue
+			}
+			for _, q := range o.cl.shape.Pins {
+				if q.Net == p.Net && (q.Dir == geom.Up || q.Dir == geom.Down) && q.Dir != p.Dir {
+					return math.Round(q.At.X + o.d.X - p.At.X), true
+				}
+			}
+		}
+	}
+	return 0, false
 }
 
 // levelWith is how far a block in the anchor's row moves down to put its
@@ -278,6 +363,9 @@ func (ly *state) refuseCollisions(stage int, slots []*slotted, all []*block) {
 				if o == s.b {
 					continue
 				}
+				if ly.railOnly(o) {
+					continue // moved aside afterwards (clearRails)
+				}
 				other := ly.blockStage(o) != stage
 				if at(o).Overlaps(r) || other && at(o).Overlaps(frame.Inset(framePad+1)) {
 					bad = i
@@ -289,6 +377,19 @@ func (ly *state) refuseCollisions(stage int, slots []*slotted, all []*block) {
 		}
 		slots[bad].keep = false
 	}
+}
+
+// railOnly says whether every part of a block is wired to rails and
+// ground only (a reservoir or supply bypass on the faded sheet, which the
+// generic placement puts among the stage it sits beside): a template is
+// not refused for it, and it moves aside (clearRails).
+func (ly *state) railOnly(b *block) bool {
+	for _, cl := range append(append([]*cell{}, b.cells...), b.chain...) {
+		if cl.edge != 0 || cl.conn || len(ly.signalNets(cl)) > 0 {
+			return false
+		}
+	}
+	return true
 }
 
 // blockStage is the stage of a block's first part, -1 for none.

@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"pare/graph"
 	"pare/render/geom"
 	"pare/render/symbol"
 )
@@ -25,12 +26,17 @@ func (ly *state) stands() map[string]string {
 }
 
 // standOf is how a two-terminal shape runs: "vertical", "horizontal", or
-// "" for any other shape.
+// "" for any other shape. A pot runs the way its track's two ends do (its
+// first and last pins; the wiper leaves sideways), so a preset in a bias
+// chain stands in line with the chain.
 func standOf(s symbol.Shape) string {
-	if len(s.Pins) != 2 {
+	if len(s.Pins) != 2 && len(s.Pins) != 3 {
 		return ""
 	}
-	a, b := s.Pins[0].Dir, s.Pins[1].Dir
+	a, b := s.Pins[0].Dir, s.Pins[len(s.Pins)-1].Dir
+	if len(s.Pins) == 3 && a != geom.Dir((int(b)+2)%4) {
+		return ""
+	}
 	switch {
 	case (a == geom.Up || a == geom.Down) && (b == geom.Up || b == geom.Down):
 		return "vertical"
@@ -100,12 +106,76 @@ func (ly *state) hangScore(cl *cell, s symbol.Shape) float64 {
 	if t.row < 0 {
 		want = geom.Down
 	}
+	above, below := ly.chainNeighbours(cl.ref, t)
+	score := 0.0
 	for _, p := range s.Pins {
-		if p.Dir == want && ly.anchorNet(t.anchor, p.Net) {
+		switch {
+		case above != nil && p.Dir == geom.Up && hasNet(above, p.Net):
+			score += 3
+		case below != nil && p.Dir == geom.Down && hasNet(below, p.Net):
+			score += 3
+		case above == nil && below == nil && p.Dir == want && ly.anchorNet(t.anchor, p.Net):
 			return 3
 		}
 	}
-	return 0
+	return score
+}
+
+// chainNeighbours are the parts a template stands nearest above and below
+// a part in its own column (its anchor in row 0 counts): in a vertical
+// chain (a bias chain between two bases, an emitter resistor between its
+// device and the mid-point) each part's pins face the neighbours they
+// join. Nil where no part of the template shares a wired net with it.
+func (ly *state) chainNeighbours(ref string, t tplSlot) (above, below *graph.Part) {
+	me := t.anchor.part
+	if ref != t.anchor.ref {
+		for _, cl := range ly.cells {
+			if cl.ref == ref {
+				me = cl.part
+			}
+		}
+	}
+	bestUp, bestDown := 0, 0
+	consider := func(p *graph.Part, row int) {
+		if !sharesWired(ly.c, me, p) {
+			return
+		}
+		switch d := row - t.row; {
+		case d < 0 && (above == nil || d > bestUp):
+			above, bestUp = p, d
+		case d > 0 && (below == nil || d < bestDown):
+			below, bestDown = p, d
+		}
+	}
+	if float64(t.anchor.col) == t.col {
+		consider(t.anchor.part, 0)
+	}
+	for _, cl := range ly.cells {
+		if o, ok := ly.slot[cl.ref]; ok && cl.ref != ref && o.anchor == t.anchor && o.col == t.col {
+			consider(cl.part, o.row)
+		}
+	}
+	return above, below
+}
+
+// sharesWired says whether parts a and b share a net that is wired (not
+// AC ground, not unconnected).
+func sharesWired(c *graph.Circuit, a, b *graph.Part) bool {
+	for _, p := range a.Pins {
+		if p.Net != "" && p.Net != notConnected && !c.RoleOf(p.Net).IsACGround() && hasNet(b, p.Net) {
+			return true
+		}
+	}
+	return false
+}
+
+func hasNet(p *graph.Part, net string) bool {
+	for _, pn := range p.Pins {
+		if pn.Net == net {
+			return true
+		}
+	}
+	return false
 }
 
 // anchorNet says whether net is a wired net of the anchor's.

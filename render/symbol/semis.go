@@ -17,6 +17,13 @@ func bjt(p *graph.Part, st Style, m Marks) Shape {
 		s.Prims = append(s.Prims, poly(true, pt(1, 1.2), pt(0.45, 1.15), pt(0.7, 0.75)))
 	}
 	s.Pins = []geom.Pin{pin("b", -3, 0, geom.Left), pin("c", 1, -3, geom.Up), pin("e", 1, 3, geom.Down)}
+	if p.Type == "pnp" {
+		// a PNP may also stand flipped top to bottom, emitter up towards
+		// the positive rail and collector down, as the trade draws it
+		// (common practice: the lower half of a complementary pair, a PNP
+		// stage off a negative-going supply); the base stays left
+		s.Turns = []Orient{{false, 0}, {true, 2}}
+	}
 	return s
 }
 
