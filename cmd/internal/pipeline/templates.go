@@ -8,19 +8,20 @@ import (
 
 // framePlaces are the drawing templates of a top-level stage and its
 // sub-stages (a self-oscillating mixer's Hartley oscillator), its own
-// first, on the reduced sheet, whose parts are the ones the patterns
-// matched. The full and faded views keep the generic placement: the
-// original circuit's bias, supply and decoupling parts crowd round the
-// same devices, and a template that knows none of them cost those sheets
-// wires the router could no longer lay.
+// first. On the reduced sheet they place the parts the patterns matched;
+// on the full and faded sheets (fullTemplates) each such part's one
+// original (a part the reduction kept, or the one it made from a single
+// original), so a reader finds the stage drawn the same way in both views. A part the reduction
+// made from several originals has no single place there and is left to
+// the generic placement, and so is a template whose anchor is such a part.
 func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *graph.Circuit) []render.Place {
-	if full != nil {
+	if full != nil && !fullTemplates[s.Topology] {
 		return nil
 	}
 	var out []render.Place
 	var walk func(s stages.Stage)
 	walk = func(s stages.Stage) {
-		out = append(out, stagePlaces(s.Draw, reduced)...)
+		out = append(out, stagePlaces(s.Draw, reduced, full)...)
 		for _, c := range s.Contains {
 			if sub, ok := byName[c]; ok {
 				walk(sub)
@@ -30,22 +31,82 @@ func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *
 	walk(s)
 	out = append(out, ladderPlaces(s.Parts, reduced)...)
 	if s.Topology == "push-pull" {
-		out = pairPlaces(out, s.Parts, reduced)
+		c, parts := reduced, s.Parts
+		if full != nil {
+			c, parts = full, originals(s.Parts, reduced, full)
+		}
+		out = pairPlaces(out, parts, c)
 	}
 	return out
 }
 
+// fullTemplates are the stages whose templates the full and faded sheets
+// keep too: the output pairs and the phase splitter, whose devices the
+// original circuit's bias and supply parts do not crowd more than the
+// template's slots allow (review14's a04 and b04 drew them side by side
+// and looped on those sheets). The tuned stages' templates stay on the
+// reduced sheet: round an oscillator or mixer the original's heater,
+// screen and AGC wiring met the moved parts (the flagship's full sheet
+// read 46 more wires beside another net's with them).
+var fullTemplates = map[string]bool{
+	"push-pull":                 true,
+	"complementary-pair":        true,
+	"complementary-pair-preset": true,
+	"cathodyne":                 true,
+}
+
 // stagePlaces turns one stage's template into the sheet's; none when its
 // anchor is not on the sheet.
-func stagePlaces(draw []stages.Place, reduced *graph.Circuit) []render.Place {
-	if len(draw) == 0 || reduced.Part(draw[0].Part) == nil {
+func stagePlaces(draw []stages.Place, reduced, full *graph.Circuit) []render.Place {
+	if len(draw) == 0 {
 		return nil
 	}
-	anchor := draw[0].Part
+	anchor := sheetRef(draw[0].Part, reduced, full)
+	if anchor == "" {
+		return nil
+	}
 	out := []render.Place{{Ref: anchor, Anchor: anchor}}
 	for _, pl := range draw[1:] {
-		if reduced.Part(pl.Part) != nil {
-			out = append(out, render.Place{Ref: pl.Part, Anchor: anchor, Col: pl.Col, Row: pl.Row, Stand: pl.Stand})
+		if ref := sheetRef(pl.Part, reduced, full); ref != "" {
+			out = append(out, render.Place{Ref: ref, Anchor: anchor, Col: pl.Col, Row: pl.Row, Stand: pl.Stand})
+		}
+	}
+	return out
+}
+
+// sheetRef is the ref a reduced part is drawn under: itself on the reduced
+// sheet, its one original on the full and faded ones; "" when it has no
+// single part there.
+func sheetRef(ref string, reduced, full *graph.Circuit) string {
+	p := reduced.Part(ref)
+	if p == nil {
+		return ""
+	}
+	if full == nil {
+		return ref
+	}
+	var in []string
+	for _, o := range p.Origins() {
+		if full.Part(o) != nil {
+			in = append(in, o)
+		}
+	}
+	if len(in) != 1 {
+		return ""
+	}
+	return in[0]
+}
+
+// originals are the full circuit's parts behind a stage's reduced parts.
+func originals(refs []string, reduced, full *graph.Circuit) []string {
+	var out []string
+	for _, ref := range refs {
+		if p := reduced.Part(ref); p != nil {
+			for _, o := range p.Origins() {
+				if full.Part(o) != nil {
+					out = append(out, o)
+				}
+			}
 		}
 	}
 	return out
