@@ -121,16 +121,28 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 			}
 		}
 	}
-	ly.clearRails(all)
+	span := anchor.fp
+	for _, s := range slots {
+		if s.keep {
+			span = span.Union(s.b.fp)
+		}
+	}
+	ly.clearRails(span, all)
 }
 
-// clearRails moves each rail-only block (railOnly) that a template's
-// blocks now touch straight down, or else up, to the nearest place where
-// it touches none: a faded reservoir capacitor yields its place to the
-// stage drawn round it.
-func (ly *state) clearRails(all []*block) {
+// clearRails moves each block that yields to a template (yields) and that
+// stands within the template's span (its anchor and moved blocks) or
+// touches another block straight down to the nearest place clear of both
+// (up when there is none), where the router can wire the template's parts
+// past it:
+// a faded reservoir capacitor yields its place to the stage drawn round
+// it.
+func (ly *state) clearRails(span geom.Rect, all []*block) {
 	hits := func(b *block, d geom.Pt) bool {
 		r := b.fp.Move(d).Inset(1)
+		if r.Overlaps(span.Inset(-2)) {
+			return true
+		}
 		for _, o := range all {
 			if o != b && o.fp.Overlaps(r) {
 				return true
@@ -139,16 +151,12 @@ func (ly *state) clearRails(all []*block) {
 		return false
 	}
 	for _, b := range all {
-		if !ly.railOnly(b) || !hits(b, geom.Pt{}) {
+		if !ly.yields(b) || !hits(b, geom.Pt{}) {
 			continue
 		}
-		for dy := 1.0; dy < 200; dy++ {
+		for _, dy := range clearMoves() {
 			if !hits(b, geom.Pt{Y: dy}) {
 				b.move(geom.Pt{Y: dy})
-				break
-			}
-			if !hits(b, geom.Pt{Y: -dy}) {
-				b.move(geom.Pt{Y: -dy})
 				break
 			}
 		}
@@ -235,6 +243,38 @@ func (ly *state) alignChains(anchor *block, slots []*slotted) {
 		}
 		byCol[s.col] = append(byCol[s.col], colPart{cl, s.d})
 	}
+	for _, s := range slots {
+		if s.col != 0 && s.row != 0 && len(s.b.cells) == 1 && len(s.b.chain) == 0 {
+			if dy, ok := ly.between(s.b.cells[0], byCol[0]); ok {
+				s.d.Y = dy
+			}
+		}
+	}
+}
+
+// between is the move down that centres a part joining two devices of the
+// anchor's column (an output transformer's primary ends on the anodes of
+// a push-pull pair) between them: the mean of its two pins there level
+// with the middle of their symbols, so a winding's centre tap stands at
+// the pair's middle whatever its label and locals add to its box.
+func (ly *state) between(cl *cell, col0 []colPart) (float64, bool) {
+	var mine, theirs []float64
+	for _, p := range cl.shape.Pins {
+		if p.Net == "" || p.Net == notConnected || ly.c.RoleOf(p.Net).IsACGround() {
+			continue
+		}
+		for _, o := range col0 {
+			if q := pinOn(o.cl, p.Net); q != nil && o.cl != cl && o.cl.part.IsActive() {
+				mine = append(mine, p.At.Y)
+				theirs = append(theirs, (o.cl.shape.Box.Y0+o.cl.shape.Box.Y1)/2+o.d.Y)
+				break
+			}
+		}
+	}
+	if len(mine) != 2 || theirs[0] == theirs[1] {
+		return 0, false
+	}
+	return math.Round((theirs[0]+theirs[1])/2 - (mine[0]+mine[1])/2), true
 }
 
 // colPart is a part of a template column and the move it is given.
@@ -363,7 +403,7 @@ func (ly *state) refuseCollisions(stage int, slots []*slotted, all []*block) {
 				if o == s.b {
 					continue
 				}
-				if ly.railOnly(o) {
+				if ly.yields(o) {
 					continue // moved aside afterwards (clearRails)
 				}
 				other := ly.blockStage(o) != stage
@@ -379,13 +419,15 @@ func (ly *state) refuseCollisions(stage int, slots []*slotted, all []*block) {
 	}
 }
 
-// railOnly says whether every part of a block is wired to rails and
-// ground only (a reservoir or supply bypass on the faded sheet, which the
-// generic placement puts among the stage it sits beside): a template is
-// not refused for it, and it moves aside (clearRails).
-func (ly *state) railOnly(b *block) bool {
+// yields says whether a block gives way to a template: every part in it
+// wired to rails and ground only (a reservoir or supply bypass, which the
+// generic placement puts among the stage it sits beside) or faded (a part
+// the reduction removed, on the faded sheet: a battery switch in the
+// supply lead); a template is not refused for it, and it moves aside
+// (clearRails).
+func (ly *state) yields(b *block) bool {
 	for _, cl := range append(append([]*cell{}, b.cells...), b.chain...) {
-		if cl.edge != 0 || cl.conn || len(ly.signalNets(cl)) > 0 {
+		if cl.edge != 0 || cl.conn || len(ly.signalNets(cl)) > 0 && !cl.faded {
 			return false
 		}
 	}
@@ -398,4 +440,27 @@ func (ly *state) blockStage(b *block) int {
 		return s
 	}
 	return -1
+}
+
+// pinOn is cl's first pin on net, nil for none.
+func pinOn(cl *cell, net string) *geom.Pin {
+	for i, p := range cl.shape.Pins {
+		if p.Net == net {
+			return &cl.shape.Pins[i]
+		}
+	}
+	return nil
+}
+
+// clearMoves are the moves clearRails tries, in turn: down one step at a
+// time, then up.
+func clearMoves() []float64 {
+	var out []float64
+	for dy := 1.0; dy < 200; dy++ {
+		out = append(out, dy)
+	}
+	for dy := 1.0; dy < 200; dy++ {
+		out = append(out, -dy)
+	}
+	return out
 }

@@ -106,7 +106,11 @@ func (ly *state) hangScore(cl *cell, s symbol.Shape) float64 {
 	if t.row < 0 {
 		want = geom.Down
 	}
-	above, below := ly.chainNeighbours(cl.ref, t)
+	var above, below *graph.Part
+	if t.row != 0 {
+		// a part in the anchor's row hangs from the anchor's wire
+		above, below = ly.chainNeighbours(cl.ref, t)
+	}
 	score := 0.0
 	for _, p := range s.Pins {
 		switch {

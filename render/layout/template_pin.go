@@ -10,12 +10,13 @@ import (
 // electrode and the electrode's pin: room for a junction and no more.
 const stopperGap = 2
 
-// closeIn brings each lying part a template put in a column left of its
-// anchor's up to the pin of a part in the anchor's column and its own row
-// that its right-hand end joins, level with it: a grid or base stopper at its holder's pin, as
-// the trade draws it and as it is wired, not a slot's width and a label
-// away, where a reader takes the lead between for part of the grid
-// circuit. It stops stopperGap short of the pin, or short of the first
+// closeIn brings each part a template lays ("horizontal") in the column
+// just left of its anchor's up to the pin of a part in the anchor's column
+// and its own row that its right-hand end joins, level with it: a grid or
+// base stopper at its holder's pin, as the trade draws it and as it is
+// wired, not a slot's width and a label away, where a reader takes the
+// lead between for part of the grid circuit. A part further left (an
+// injection capacitor beyond the grid capacitor and leak) stays. It stops stopperGap short of the pin, or short of the first
 // block (the device's label) in the way; it never moves away.
 func (ly *state) closeIn(anchor *block, slots []*slotted, all []*block) {
 	// the parts in the anchor's column, by row
@@ -33,8 +34,10 @@ func (ly *state) closeIn(anchor *block, slots []*slotted, all []*block) {
 		}
 		return b.fp
 	}
+	stands := ly.stands()
 	for _, s := range slots {
-		if !s.keep || s.col >= 0 || len(s.b.cells) != 1 || len(s.b.chain) > 0 || standOf(s.b.cells[0].shape) != "horizontal" {
+		if !s.keep || s.col != -1 || len(s.b.cells) != 1 || len(s.b.chain) > 0 || stands[s.b.cells[0].ref] != "horizontal" ||
+			standOf(s.b.cells[0].shape) != "horizontal" {
 			continue
 		}
 		to, ok := ly.pinTarget(s.b.cells[0], col0[s.row])

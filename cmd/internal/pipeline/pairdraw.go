@@ -48,20 +48,41 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []rende
 	// part where it is)
 	for _, q := range c.Parts {
 		ref := q.Ref
-		if placed[ref] || len(q.Pins) != 2 || common[0] == "" {
+		if placed[ref] || len(q.Pins) != 2 {
 			continue
 		}
-		on := q.Pins[0].Net == common[0] || q.Pins[1].Net == common[0]
-		if common[0] == common[1] && on && touchesGround(c, q) {
+		on := func(n string) bool { return n != "" && (q.Pins[0].Net == n || q.Pins[1].Net == n) }
+		switch {
+		case !touchesGround(c, q):
+		case common[0] == common[1] && on(common[0]):
 			add(ref, 0, 1, "vertical")
+		case common[0] != common[1] && on(common[0]) && slices.Contains(parts, ref):
+			// each half's own emitter (cathode) resistor straight
+			// below its device, the lower device under the upper's
+			add(ref, 0, 1, "vertical")
+		case common[0] != common[1] && on(common[1]) && slices.Contains(parts, ref):
+			add(ref, 0, 3, "vertical")
 		}
 	}
 	// a feed shared by both halves (a screen-grid resistor from the
-	// supply) above the transformer, clear of the pair
+	// supply) above the transformer, clear of the pair; a half's own feed
+	// above the upper device or below the lower, mirrored, so neither
+	// stands in the transformer's slot between them
 	for _, ref := range parts {
 		q := c.Part(ref)
-		if q != nil && !placed[ref] && len(q.Pins) == 2 && sharedFeed(c, q, devs[0], devs[2]) {
+		if q == nil || placed[ref] || len(q.Pins) != 2 {
+			continue
+		}
+		switch {
+		case sharedFeed(c, q, devs[0], devs[2]):
 			add(ref, 1, -1, "vertical")
+			if cap := feedBypass(c, q, placed); cap != "" {
+				add(cap, 2, -1, "vertical")
+			}
+		case ownFeed(c, q, devs[0]):
+			add(ref, 1, -1, "vertical")
+		case ownFeed(c, q, devs[2]):
+			add(ref, 1, 3, "vertical")
 		}
 	}
 	return out
@@ -84,6 +105,39 @@ func sharedFeed(c *graph.Circuit, q, d1, d2 *graph.Part) bool {
 		supply = supply || c.RoleOf(p.Net).IsACGround()
 	}
 	return shared && supply
+}
+
+// feedBypass is the capacitor from a shared feed's far end (the screens)
+// to AC ground, drawn beside the feed; "" for none.
+func feedBypass(c *graph.Circuit, feed *graph.Part, placed map[string]bool) string {
+	far := ""
+	for _, p := range feed.Pins {
+		if !c.RoleOf(p.Net).IsACGround() {
+			far = p.Net
+		}
+	}
+	for _, q := range c.Parts {
+		if far == "" || placed[q.Ref] || q.Kind != graph.Capacitor || len(q.Pins) != 2 || !touchesGround(c, q) {
+			continue
+		}
+		if q.Pins[0].Net == far || q.Pins[1].Net == far {
+			return q.Ref
+		}
+	}
+	return ""
+}
+
+// ownFeed says whether two-terminal q joins a further grid of device d
+// (its screen) to AC ground (a supply): a screen resistor of its own.
+func ownFeed(c *graph.Circuit, q, d *graph.Part) bool {
+	grid, supply := false, false
+	for _, p := range q.Pins {
+		for _, dp := range d.Pins {
+			grid = grid || dp.Net == p.Net && graph.RoleOfPin(d.Kind, dp.Name) == graph.RoleGrid
+		}
+		supply = supply || c.RoleOf(p.Net).IsACGround()
+	}
+	return grid && supply
 }
 
 // stopperOf is the stage's resistor in series with dev's control
