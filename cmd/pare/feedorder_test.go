@@ -18,8 +18,9 @@ import (
 // and faded ones (the generic placement). A ratchet, as measured when the
 // checker learned the rule (14, 52): lowered as the placement improves,
 // never raised; {8, 28} once a page's rows were ranked from the nets they
-// take from earlier rows (the rest are whole sheets' placements).
-var feedOrderCeiling = struct{ reduced, generic int }{8, 28}
+// take from earlier rows (the rest are whole sheets' placements); {8, 24}
+// with feedback told from the forward path.
+var feedOrderCeiling = struct{ reduced, generic int }{8, 24}
 
 // TestFeedOrder: signal flows left to right, so a transformer fed by a
 // device's output (an IF can, an interstage or output transformer) stands
