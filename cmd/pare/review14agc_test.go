@@ -82,18 +82,20 @@ func railOrNet(c *graph.Circuit, name string) *graph.Net {
 // chain R1-R2 to chassis taken for a divider, and drawn as chassis), and a
 // base return the AGC line feeds by the line (b03's q1_bias was "bias via
 // R1"). Circuit: the reviewer's, testdata/review14; the feeds are the
-// netlists' own (R5 1 kΩ from +9 V against R1 82 kΩ to the base).
+// netlists' own (R5 1 kΩ from +9 V against R1 82 kΩ to the base). A rail
+// labelled only by its voltage names its lines by that voltage ("+9 V via
+// R5"), as the sheet's rail tag reads.
 func TestReview14LineTags(t *testing.T) {
 	cases := []struct{ file, net, label, fed string }{
-		{"review14/b02.toml", "vcc_rf", "vcc via R5", "vcc"},
+		{"review14/b02.toml", "vcc_rf", "+9 V via R5", "vcc"}, // the rail is known by its voltage
 		{"review14/b02.toml", "q1_bias", "AGC line via R2", "agc"},
 		{"review14/b03.toml", "q1_bias", "AGC line via R2", "agc"},
-		{"review14/b03.toml", "vcc_d1", "vcc via R9", "vcc"},
+		{"review14/b03.toml", "vcc_d1", "+9 V via R9", "vcc"},
 		{"review14/b05.toml", "vcc_mix", "battery via R30", "batt"},
 		{"review14/b05.toml", "q2_bias", "AGC line via R6", "agc"},
 		{"review14/b05.toml", "vcc_if", "battery via R31", "batt"},
 		{"review13/b03.toml", "agc_if", "AGC line via R2", "agc"},
-		{"review13/b05.toml", "vcc_if", "vcc via R11", "vcc"},
+		{"review13/b05.toml", "vcc_if", "+12 V via R11", "vcc"},
 	}
 	jobs := map[string]*pipeline.Result{}
 	for _, tc := range cases {
