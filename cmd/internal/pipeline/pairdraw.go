@@ -70,8 +70,8 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []rende
 	// stands in the transformer's slot between them
 	for _, ref := range parts {
 		q := c.Part(ref)
-		if q == nil || placed[ref] || len(q.Pins) != 2 {
-			continue
+		if q == nil || placed[ref] || len(q.Pins) != 2 || q.Kind == graph.Capacitor {
+			continue // a bypass is no feed: it comes with its feed (feedBypass)
 		}
 		switch {
 		case sharedFeed(c, q, devs[0], devs[2]):
@@ -89,7 +89,8 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []rende
 }
 
 // sharedFeed says whether two-terminal q joins a net both devices have a
-// pin on, other than their common electrode's, to AC ground (a supply).
+// pin on, other than their common electrode's and AC ground (a heater
+// return is on chassis), to AC ground (a supply).
 func sharedFeed(c *graph.Circuit, q, d1, d2 *graph.Part) bool {
 	on := func(d *graph.Part, net string) bool {
 		for _, p := range d.Pins {
@@ -101,8 +102,9 @@ func sharedFeed(c *graph.Circuit, q, d1, d2 *graph.Part) bool {
 	}
 	shared, supply := false, false
 	for _, p := range q.Pins {
-		shared = shared || on(d1, p.Net) && on(d2, p.Net)
-		supply = supply || c.RoleOf(p.Net).IsACGround()
+		ground := c.RoleOf(p.Net).IsACGround()
+		shared = shared || !ground && on(d1, p.Net) && on(d2, p.Net)
+		supply = supply || ground
 	}
 	return shared && supply
 }
@@ -132,10 +134,11 @@ func feedBypass(c *graph.Circuit, feed *graph.Part, placed map[string]bool) stri
 func ownFeed(c *graph.Circuit, q, d *graph.Part) bool {
 	grid, supply := false, false
 	for _, p := range q.Pins {
+		ground := c.RoleOf(p.Net).IsACGround()
 		for _, dp := range d.Pins {
-			grid = grid || dp.Net == p.Net && graph.RoleOfPin(d.Kind, dp.Name) == graph.RoleGrid
+			grid = grid || !ground && dp.Net == p.Net && graph.RoleOfPin(d.Kind, dp.Name) == graph.RoleGrid
 		}
-		supply = supply || c.RoleOf(p.Net).IsACGround()
+		supply = supply || ground
 	}
 	return grid && supply
 }

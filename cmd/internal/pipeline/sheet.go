@@ -3,6 +3,7 @@ package pipeline
 import (
 	"math"
 	"pare/cmd/internal/align"
+	"slices"
 	"sort"
 	"strings"
 
@@ -227,6 +228,7 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 		}
 	}
 	hosts := supplyHosts(found, full)
+	loose := looseSupply(found, full, hosts)
 	var frames []render.Frame
 	var names []string
 	for _, s := range found {
@@ -252,13 +254,19 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 		if len(set) == 0 {
 			continue
 		}
+		places := framePlaces(s, byName, reduced, full, loose)
+		for _, pl := range places {
+			if slices.Contains(loose, pl.Ref) {
+				set[pl.Ref] = true // a loose supply part the template placed
+			}
+		}
 		parts := make([]string, 0, len(set))
 		for ref := range set {
 			parts = append(parts, ref)
 		}
 		sort.Strings(parts)
 		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts,
-			Places: framePlaces(s, byName, reduced, full), Supply: s.Supply})
+			Places: places, Supply: s.Supply})
 		names = append(names, s.Name)
 	}
 	drawn := full

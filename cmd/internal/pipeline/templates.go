@@ -14,7 +14,12 @@ import (
 // original), so a reader finds the stage drawn the same way in both views. A part the reduction
 // made from several originals has no single place there and is left to
 // the generic placement, and so is a template whose anchor is such a part.
-func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *graph.Circuit) []render.Place {
+// loose are the full sheet's parts of supply sections no frame holds: a
+// push-pull pair's shared screen feed, which the supply walk reads as a
+// section serving two stages, is one, and the pair's template takes it
+// (left to the generic placement it stood in the transformer's slot and
+// pushed the centre tap level with the upper valve, review14 a04 faded).
+func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *graph.Circuit, loose []string) []render.Place {
 	if full != nil && !fullTemplates[s.Topology] {
 		return nil
 	}
@@ -33,7 +38,7 @@ func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *
 	if s.Topology == "push-pull" {
 		c, parts := reduced, s.Parts
 		if full != nil {
-			c, parts = full, originals(s.Parts, reduced, full)
+			c, parts = full, append(originals(s.Parts, reduced, full), loose...)
 		}
 		out = pairPlaces(out, parts, c)
 	}
@@ -107,6 +112,19 @@ func originals(refs []string, reduced, full *graph.Circuit) []string {
 					out = append(out, o)
 				}
 			}
+		}
+	}
+	return out
+}
+
+// looseSupply are the parts of the supply sections no frame holds on a
+// sheet of the original circuit (filterSection without a host): a
+// template may take one (a pair's shared screen feed) into its frame.
+func looseSupply(found []stages.Stage, full *graph.Circuit, hosts map[string]string) []string {
+	var out []string
+	for _, s := range found {
+		if filterSection(s, full) && hosts[s.Name] == "" {
+			out = append(out, s.Parts...)
 		}
 	}
 	return out
