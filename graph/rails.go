@@ -200,10 +200,11 @@ func FeedName(n *Net) string {
 	if n.Fed != "" && n.Label != "" {
 		return withoutRemarks(n.Label) // a line fed itself: its chain as named ("+12 V via R10")
 	}
-	if name := withoutRemarks(WithoutVolts(railLabel(n))); name != "" {
+	label := withoutRemarks(railLabel(n))
+	if name := WithoutVolts(label); name != "" {
 		return name
 	}
-	return railLabel(n)
+	return label // "+9 V (stabilised)" feeds "+9 V via R14", not "(stabilised) via R14"
 }
 
 // withoutRemarks is a rail's label without its bracketed remarks ("HT1"

@@ -218,3 +218,26 @@ func TestDecoupledTagDropsRemarks(t *testing.T) {
 		}
 	}
 }
+
+// FeedName: a line is named after the rail feeding it without the rail's
+// voltage and remarks; a rail known only by its voltage keeps that, its
+// remark dropped (a blind reviewer's "+9 V (stabilised)" fed lines tagged
+// "(stabilised) via R14").
+func TestFeedName(t *testing.T) {
+	for _, tc := range []struct {
+		net  Net
+		want string
+	}{
+		{Net{Name: "ht", Label: "HT +250 V (reservoir)", Volts: 250}, "HT"},
+		{Net{Name: "vcc", Label: "+9 V (stabilised)", Volts: 9}, "+9 V"},
+		{Net{Name: "vcc", Label: "+9 V", Volts: 9}, "+9 V"},
+		{Net{Name: "vcc", Volts: -6}, "−6 V"},
+		{Net{Name: "batt", Label: "battery (neg. earth)"}, "battery"},
+		{Net{Name: "x", Label: "(spare)"}, "(spare)"},
+		{Net{Name: "l2", Label: "+12 V via R10", Fed: "vcc"}, "+12 V via R10"},
+	} {
+		if got := FeedName(&tc.net); got != tc.want {
+			t.Errorf("%q: %q, want %q", tc.net.Label, got, tc.want)
+		}
+	}
+}
