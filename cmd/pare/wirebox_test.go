@@ -20,9 +20,10 @@ import (
 // templates on every view, 77 and 356; with the rows kept across flows, 77
 // and 322; with the ladders, pi filters and supply sections of another
 // branch joined to those, 79 and 305: two wires more through a frame, 17
-// fewer boxes). A change may lower these, never
+// fewer boxes; with the fourth review's circuits, testdata/review15, brought in
+// with their own 10 and 52: 89 and 357). A change may lower these, never
 // raise them; a new sheet brings its own.
-var wireBoxCeiling = struct{ foreign, boxes int }{79, 305}
+var wireBoxCeiling = struct{ foreign, boxes int }{89, 357}
 
 // TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
 // its net has a pin there (a frame says "these parts are this stage"), and
@@ -30,10 +31,7 @@ var wireBoxCeiling = struct{ foreign, boxes int }{79, 305}
 // as a part; a part in a wire box as a loop of its own). Both counts stay
 // under wireBoxCeiling; every finding is logged.
 func TestWiresKeepOutOfFrames(t *testing.T) {
-	review, err := filepath.Glob("../../testdata/review14/*.toml")
-	if err != nil || len(review) == 0 {
-		t.Fatalf("no review circuits: %v", err)
-	}
+	review := reviewCircuits(t)
 	files := append(readSheets(t), review...)
 	warmSheets(files, "A3")
 	foreign, boxes := 0, 0
