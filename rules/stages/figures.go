@@ -27,6 +27,7 @@ func init() {
 		"hartley":      {args: []string{"coil", "caps"}, required: []string{"coil", "caps"}, fn: calcHartley},
 		"colpitts":     {args: []string{"coil", "c1", "c2", "tune"}, required: []string{"coil", "c1", "c2"}, fn: calcColpitts},
 		"clapp":        {args: []string{"coil", "c1", "c2", "c3"}, required: []string{"coil", "c1", "c2", "c3"}, fn: calcClapp},
+		"series-share": {args: []string{"c1", "c2", "c3"}, required: []string{"c1", "c2", "c3"}, fn: calcSeriesShare},
 		"crystal":      {args: []string{"xtal"}, required: []string{"xtal"}, fn: calcCrystal},
 		"rc":           {args: []string{"r", "c", "use"}, required: []string{"r", "c"}, wordArgs: []string{"use"}, fn: calcRC},
 		"bypass":       {args: []string{"device", "r", "c", "load", "load_net"}, required: []string{"device", "r", "c"}, netArgs: []string{"load_net"}, fn: calcBypass},

@@ -16,6 +16,7 @@ var (
 	byColpitts      = figure.ByFormula("Ceff = C1C2/(C1+C2)")
 	byColpittsTuned = figure.ByFormula("Ceff = Ct + C1C2/(C1+C2)")
 	byClapp         = figure.ByFormula("1/Ceff = 1/C1 + 1/C2 + 1/C3")
+	bySeriesShare   = figure.ByFormula("(1/C3)/(1/C1 + 1/C2 + 1/C3), C3 at its largest")
 	byFeedback      = figure.ByFormula("β = C1/C2")
 	byColpittsA     = figure.ByFormula("A ≥ C2/C1")
 	byPi            = figure.ByFormula("f = 1/(2π√(L·C1C2/(C1+C2)))")
@@ -198,7 +199,32 @@ func calcClapp(x *figCtx) {
 	x.set("l", figure.Henry, l, byCoilL)
 	x.set("c_eff", figure.Farad, ceff, byClapp)
 	x.set("feedback", figure.Ratio, c1/c2, byFeedback)
-	x.fixedResonance("f", coil, resonance(l, ceff), byResonance, x.parts("c1"), x.parts("c2"), x.parts("c3"))
+	// a variable capacitor among the three (a tuned Clapp's series
+	// capacitor) moves the formula's frequency with the gang, so the
+	// formula gives a range beside the solver's, not one end of it
+	at := func(frac float64) float64 {
+		a, b, c := sumCap(x.parts("c1"), frac), sumCap(x.parts("c2"), frac), sumCap(x.parts("c3"), frac)
+		return resonance(l, 1/(1/a+1/b+1/c))
+	}
+	var refs []string
+	for _, role := range []string{"c1", "c2", "c3"} {
+		refs = append(refs, refsOf(x.parts(role))...)
+	}
+	x.resonanceFigure("f", coil.ref, coil.l, coil.a, coil.b, at, byResonance, refs)
+}
+
+// calcSeriesShare: the part of 1/Ceff = 1/C1 + 1/C2 + 1/C3 that the
+// capacitor in series with the coil holds, at its largest. A Clapp's series
+// capacitor sets the frequency almost alone (the larger part); a DC block
+// in series with a Colpitts tank is several times the divider's and holds
+// little (common practice): the guard of a pattern that cannot tell the two
+// apart by wiring.
+func calcSeriesShare(x *figCtx) {
+	c1, c2, c3 := sumCap(x.parts("c1"), 1), sumCap(x.parts("c2"), 1), sumCap(x.parts("c3"), 1)
+	if c1 <= 0 || c2 <= 0 || c3 <= 0 {
+		return
+	}
+	x.set("series_share", figure.Ratio, (1/c3)/(1/c1+1/c2+1/c3), bySeriesShare)
 }
 
 // calcCrystal: the crystal's marked (series) frequency.

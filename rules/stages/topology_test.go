@@ -168,6 +168,21 @@ L1 = { l = "22u", pins = ["top", "m"] }
 R3 = { r = "100", pins = ["m", "gnd"] }
 C2 = { c = "1n", pins = ["top", "k"] }
 C1 = { c = "1n", pins = ["k", "gnd"] }`},
+	// The series capacitor on the control side, the coil's far end at
+	// chassis: the same tank the other way round (blind review r15b's
+	// tuned VFO, named a Colpitts before).
+	{topology: "clapp-coil-grounded", families: allFamilies,
+		parts: `@Q1(top, k, ht)
+C3 = { c = "10p..120p", pins = ["top", "m"] }
+L1 = { l = "68u", pins = ["m", "gnd"] }
+C2 = { c = "470p", pins = ["top", "k"] }
+C1 = { c = "1n", pins = ["k", "gnd"] }`,
+		// A resistor, not a capacitor, in series with the coil.
+		nearMiss: `@Q1(top, k, ht)
+R3 = { r = "100", pins = ["top", "m"] }
+L1 = { l = "68u", pins = ["m", "gnd"] }
+C2 = { c = "470p", pins = ["top", "k"] }
+C1 = { c = "1n", pins = ["k", "gnd"] }`},
 	{topology: "clapp-grounded-control", families: allFamilies,
 		parts: `@Q1(gnd, k, top)
 L1 = { l = "22u", pins = ["top", "m"] }
