@@ -111,6 +111,9 @@ func (p *Point) Chart(mt Meter) (*Chart, error) {
 			amps = -amps // a negative rail delivers the current its pins return
 		}
 		ch.Rails = append(ch.Rails, Rail{Net: name, Volts: p.m.fixedV[i], Amps: amps, Estimate: p.estimateFor(name)})
+		if w := p.sinkingRail(name, amps); w != "" {
+			ch.Warnings = append(ch.Warnings, w)
+		}
 	}
 	sp, err := p.supplyPoints(mt)
 	if err != nil {

@@ -34,6 +34,16 @@ R1 = { r = "4k7", pins = ["ht", "c"] }`, []string{"Q1 collector current solves t
 		{"rail fed through a choke", "ht2 = { role = \"supply\" }\n", `L1 = { l = "10", rdc = "250R", pins = ["ht", "ht2"] }
 C1 = { c = "32u", pins = ["ht2", "gnd"] }
 R1 = { r = "10k", pins = ["ht2", "gnd"] }`, nil, []string{"rail ht2"}},
+		// A declared 9 V rail fed from ht through a dropper and held by a
+		// zener: ht gives (250 − 9)/10k = 24.1 mA, the load takes 9 mA, so
+		// the rail sinks 15.1 mA, which in the set D1 carries (Ohm's law).
+		{"rail a zener holds", "vz = { role = \"supply\", volts = 9 }\n", `R1 = { r = "10k", pins = ["ht", "vz"] }
+D1 = { diode = "zener", pins = ["gnd", "vz"] }
+R2 = { r = "1k", pins = ["vz", "gnd"] }`, []string{"rail vz is held at its declared voltage and takes in 15.1 mA", "shunt regulator D1"}, nil},
+		// The same rail drawing more than the dropper gives: no warning.
+		{"rail a zener holds, loaded", "vz = { role = \"supply\", volts = 9 }\n", `R1 = { r = "10k", pins = ["ht", "vz"] }
+D1 = { diode = "zener", pins = ["gnd", "vz"] }
+R2 = { r = "100", pins = ["vz", "gnd"] }`, nil, []string{"takes in"}},
 		{"rail nothing feeds", "ht2 = { role = \"supply\" }\n", `C1 = { c = "32u", pins = ["ht2", "gnd"] }
 R1 = { r = "10k", pins = ["ht2", "gnd"] }`, []string{"rail ht2 declares no volts and no rail feeds it"}, nil},
 	} {
