@@ -39,24 +39,11 @@ func calcOverallFeedback(x *figCtx) {
 	if !x.solve {
 		return
 	}
-	b := x.w.c.BandOf(q)
-	if b.Min <= 0 || b.Max <= b.Min {
-		return
-	}
-	f := math.Sqrt(b.Min * b.Max)
-	c := x.solverCircuit()
-	closed, ok1 := transferAt(c, g, fb, f)
-	open, ok2 := transferAt(feedbackOpened(c, rf, fb, x.w.names[groundNet]), g, fb, f)
-	if !ok1 || !ok2 || closed == 0 {
-		x.st.unconfirmed = fmt.Sprintf("the solver gives no gain from %s to %s: the loop through %s is not confirmed", g, fb, rf.Ref)
+	open, closed, f, ok := x.loopGains(q, rf, g, fb)
+	if !ok {
 		return
 	}
 	at := hz(f) + ", " + gangMid.at
-	if !lowersGain(open, closed) {
-		x.st.unconfirmed = fmt.Sprintf("in circuit %s raises the gain from %s to %s (×%s open, ×%s closed): no negative feedback",
-			rf.Ref, g, fb, figure.Plain(open), figure.Plain(closed))
-		return
-	}
 	fdb := 20 * math.Log10(math.Abs(open)/math.Abs(closed))
 	check := figure.Figure{Name: "nfb", Unit: figure.Decibel, Value: 20 * math.Log10(1+math.Abs(open)*beta), Origin: byFeedbackFraction}
 	nfb := figure.Figure{Name: "nfb", Unit: figure.Decibel, Value: fdb,

@@ -52,21 +52,8 @@ func calcShuntFeedback(x *figCtx) {
 	if !x.solve {
 		return
 	}
-	b := x.w.c.BandOf(q)
-	if b.Min <= 0 || b.Max <= b.Min {
-		return
-	}
-	f := math.Sqrt(b.Min * b.Max)
-	c := x.solverCircuit()
-	closed, ok1 := transferAt(c, src, fb, f)
-	open, ok2 := transferAt(feedbackOpened(c, rf, fb, x.w.names[groundNet]), src, fb, f)
-	if !ok1 || !ok2 || closed == 0 {
-		x.st.unconfirmed = fmt.Sprintf("the solver gives no gain from %s to %s: the loop through %s is not confirmed", src, fb, rf.Ref)
-		return
-	}
-	if !lowersGain(open, closed) {
-		x.st.unconfirmed = fmt.Sprintf("in circuit %s raises the gain from %s to %s (×%s open, ×%s closed): no negative feedback",
-			rf.Ref, src, fb, figure.Plain(open), figure.Plain(closed))
+	open, closed, f, ok := x.loopGains(q, rf, src, fb)
+	if !ok {
 		return
 	}
 	at := hz(f) + ", " + gangMid.at
@@ -117,4 +104,30 @@ func swapPlaces(pl []Place, a, b string) {
 			pl[i].Part = a
 		}
 	}
+}
+
+// loopGains is the gain from net in to the feedback resistor rf's far end
+// fb at the middle of q's band, with the loop opened (rf's far end at
+// chassis) and closed as wired, and that middle frequency. Where the solver
+// gives no gain, or the loop does not lower it as negative feedback does,
+// the stage is left unconfirmed and ok is false.
+func (x *figCtx) loopGains(q, rf *graph.Part, in, fb string) (open, closed, f float64, ok bool) {
+	b := x.w.c.BandOf(q)
+	if b.Min <= 0 || b.Max <= b.Min {
+		return 0, 0, 0, false
+	}
+	f = math.Sqrt(b.Min * b.Max)
+	c := x.solverCircuit()
+	closed, ok1 := transferAt(c, in, fb, f)
+	open, ok2 := transferAt(feedbackOpened(c, rf, fb, x.w.names[groundNet]), in, fb, f)
+	if !ok1 || !ok2 || closed == 0 {
+		x.st.unconfirmed = fmt.Sprintf("the solver gives no gain from %s to %s: the loop through %s is not confirmed", in, fb, rf.Ref)
+		return 0, 0, 0, false
+	}
+	if !lowersGain(open, closed) {
+		x.st.unconfirmed = fmt.Sprintf("in circuit %s raises the gain from %s to %s (×%s open, ×%s closed): no negative feedback",
+			rf.Ref, in, fb, figure.Plain(open), figure.Plain(closed))
+		return 0, 0, 0, false
+	}
+	return open, closed, f, true
 }
