@@ -99,5 +99,5 @@ func (m *model) blockWithout(seeds []int, isHeld []bool, removed map[int32]bool)
 			queue = append(queue, n)
 		}
 	}
-	return m.flood(queue, isHeld, removed)
+	return m.flood(queue, isHeld, removed, false)
 }

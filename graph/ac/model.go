@@ -146,14 +146,16 @@ func (m *model) floating(driven int, held []int, isHeld []bool) error {
 func (m *model) component(start int, isHeld []bool) *part {
 	m.gen++
 	m.nodeMark[start] = m.gen
-	return m.flood([]int{start}, isHeld, nil)
+	return m.flood([]int{start}, isHeld, nil, false)
 }
 
 // flood grows a block from the nodes queued (already marked with m.gen):
 // every node a stamp or a winding group joins to one in the block, ground
 // and held nodes left out, the primitives in removed neither followed nor
-// listed. component and blockWithout share it.
-func (m *model) flood(queue []int, isHeld []bool, removed map[int32]bool) *part {
+// listed. component and blockWithout share it; readPiece floods oneWay,
+// a VCCS followed from its output nodes only (a control node's column
+// brings no row).
+func (m *model) flood(queue []int, isHeld []bool, removed map[int32]bool, oneWay bool) *part {
 	g := m.gen
 	sub := &part{}
 	visit := func(n int) {
@@ -168,6 +170,9 @@ func (m *model) flood(queue []int, isHeld []bool, removed map[int32]bool) *part 
 		for _, i := range m.nodePrims[v] {
 			if m.primMark[i] == g || removed[i] {
 				continue
+			}
+			if p := &m.nl.prims[i]; oneWay && p.kind == primVCCS && v != p.a && v != p.b {
+				continue // a control node's column only: no row of v
 			}
 			m.primMark[i] = g
 			sub.prims = append(sub.prims, int(i))

@@ -1,7 +1,5 @@
 package ac
 
-import "slices"
-
 // readPiece is the part of the matrix a response read at the nodes from,
 // and driven only there, depends on: the nodes from, and every unknown
 // whose column has an entry in the row of one already in it, closed. Its
@@ -25,50 +23,12 @@ import "slices"
 // Ground and held nodes are no unknowns and are not followed.
 func (m *model) readPiece(from []int, isHeld []bool) *part {
 	m.gen++
-	g := m.gen
-	sub := &part{}
 	var queue []int
-	visit := func(n int) {
-		if n > 0 && !isHeld[n] && m.nodeMark[n] != g {
-			m.nodeMark[n] = g
+	for _, n := range from {
+		if n > 0 && !isHeld[n] && m.nodeMark[n] != m.gen {
+			m.nodeMark[n] = m.gen
 			queue = append(queue, n)
 		}
 	}
-	for _, n := range from {
-		visit(n)
-	}
-	for h := 0; h < len(queue); h++ {
-		v := queue[h]
-		sub.nodes = append(sub.nodes, v)
-		for _, i := range m.nodePrims[v] {
-			p := &m.nl.prims[i]
-			if m.primMark[i] == g || p.kind == primVCCS && v != p.a && v != p.b {
-				continue // a control node's column only: no row of v
-			}
-			m.primMark[i] = g
-			sub.prims = append(sub.prims, int(i))
-			if p.kind == primVCCS {
-				visit(p.c)
-				visit(p.d)
-				continue
-			}
-			visit(p.a)
-			visit(p.b)
-		}
-		for _, i := range m.nodeGroups[v] {
-			if m.grMark[i] == g {
-				continue
-			}
-			m.grMark[i] = g
-			sub.groups = append(sub.groups, int(i))
-			for _, w := range m.nl.groups[i].winds {
-				visit(w.a)
-				visit(w.b)
-			}
-		}
-	}
-	slices.Sort(sub.nodes)
-	slices.Sort(sub.prims)
-	slices.Sort(sub.groups)
-	return sub
+	return m.flood(queue, isHeld, nil, true)
 }
