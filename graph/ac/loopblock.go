@@ -91,6 +91,12 @@ func (m *model) floatingUsed(held []int, isHeld []bool, used func(int) bool) err
 // blockWithout is the union of the blocks of the seeds (component), the
 // primitives in removed neither followed nor listed.
 func (m *model) blockWithout(seeds []int, isHeld []bool, removed map[int32]bool) *part {
+	return m.floodFrom(seeds, isHeld, removed, false)
+}
+
+// floodFrom is flood from the seeds that are unknowns (not ground, not
+// held), each queued once.
+func (m *model) floodFrom(seeds []int, isHeld []bool, removed map[int32]bool, oneWay bool) *part {
 	m.gen++
 	var queue []int
 	for _, n := range seeds {
@@ -99,5 +105,5 @@ func (m *model) blockWithout(seeds []int, isHeld []bool, removed map[int32]bool)
 			queue = append(queue, n)
 		}
 	}
-	return m.flood(queue, isHeld, removed, false)
+	return m.flood(queue, isHeld, removed, oneWay)
 }

@@ -22,13 +22,5 @@ package ac
 // and the group's mutuals together, so one winding end brings the group.
 // Ground and held nodes are no unknowns and are not followed.
 func (m *model) readPiece(from []int, isHeld []bool) *part {
-	m.gen++
-	var queue []int
-	for _, n := range from {
-		if n > 0 && !isHeld[n] && m.nodeMark[n] != m.gen {
-			m.nodeMark[n] = m.gen
-			queue = append(queue, n)
-		}
-	}
-	return m.flood(queue, isHeld, nil, true)
+	return m.floodFrom(from, isHeld, nil, true)
 }
