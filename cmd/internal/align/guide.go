@@ -122,6 +122,7 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 	g.tracking(c, sts)
 	g.calibrate(c, sts)
 	g.coverage(c, sts)
+	g.signalTrack(c, sts)
 	for i := range g.Steps {
 		g.Steps[i].N = i + 1
 	}
