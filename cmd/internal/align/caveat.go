@@ -30,8 +30,12 @@ const (
 // the set has none).
 func caveats(c *graph.Circuit, in Injection, agc string) string {
 	var out []string
-	if pots := potsOnRow(c, in); len(pots) > 0 {
-		out = append(out, "assumes "+strings.Join(pots, " and ")+" (set as captured; the netlist gives a wiper's share of the resistance, not a law, so on a log-law control that is well past mid-rotation): the level depends on the control's setting, so read this row for the ratio, with the control where the table assumes")
+	controls, presets := potsOnRow(c, in)
+	if len(controls) > 0 {
+		out = append(out, "assumes "+strings.Join(controls, " and ")+" (set as captured; the netlist gives a wiper's share of the resistance, not a law, so on a log-law control that is well past mid-rotation): the level depends on the control's setting, so read this row for the ratio, with the control where the table assumes")
+	}
+	if len(presets) > 0 {
+		out = append(out, "assumes "+strings.Join(presets, " and ")+" as captured (a preset wired as a variable resistor, its wiper strapped to an end: an adjustment, not a control): set it by its own adjustment first, since the level here moves with it")
 	}
 	if in.BelowFloor {
 		out = append(out, floorMethod(in, agc))
@@ -55,12 +59,14 @@ func floorMethod(in Injection, agc string) string {
 // pare cannot say where a log-law knob stands), each control whose
 // wiper changes the row's response by more than potSens when moved by
 // potStep (the AC solver on the whole circuit, the rest as captured).
-func potsOnRow(c *graph.Circuit, in Injection) []string {
+// A pot whose wiper is strapped to one of its ends is a preset resistor
+// (a bias or current adjustment), listed apart as presets: calling its
+// setting a knob's rotation would mislead.
+func potsOnRow(c *graph.Circuit, in Injection) (controls, presets []string) {
 	base, err := Response(c, in.Net, in.RefNet, in.Freq, in.Gang)
 	if err != nil || base == 0 {
-		return nil
+		return nil, nil
 	}
-	var out []string
 	for _, p := range c.Parts {
 		if p.Kind != graph.Pot {
 			continue
@@ -75,7 +81,18 @@ func potsOnRow(c *graph.Circuit, in Injection) []string {
 		if err != nil || math.Abs(h-base) <= potSens*base {
 			continue
 		}
-		out = append(out, fmt.Sprintf("%s with its wiper at %.0f %% of the track's resistance", p.Ref, p.Set*100))
+		if wiperStrapped(p) {
+			presets = append(presets, fmt.Sprintf("%s at %.0f %% of its track", p.Ref, p.Set*100))
+			continue
+		}
+		controls = append(controls, fmt.Sprintf("%s with its wiper at %.0f %% of the track's resistance", p.Ref, p.Set*100))
 	}
-	return out
+	return controls, presets
+}
+
+// wiperStrapped reports whether a pot's wiper shares a net with one of its
+// ends: a variable resistor, not a divider.
+func wiperStrapped(p *graph.Part) bool {
+	w, a, b := p.Pin("w"), p.Pin("1"), p.Pin("2")
+	return w != nil && a != nil && b != nil && (w.Net == a.Net || w.Net == b.Net)
 }

@@ -54,3 +54,26 @@ func TestReview15SignalTanksPart(t *testing.T) {
 		}
 	}
 }
+
+// A pot whose wiper is strapped to an end (review15 b05's quiescent-current
+// preset RV2) is an adjustment: an injection row that depends on it says
+// so, and never calls its setting a knob's rotation on a log law; the
+// volume control RV1 still is one (common practice).
+func TestReview15PresetIsNoControl(t *testing.T) {
+	_, g := build(t, filepath.Join("..", "..", "..", "testdata", "review15", "b05.toml"))
+	seen := map[string]bool{}
+	for _, in := range g.Inject {
+		switch {
+		case strings.Contains(in.Caveat, "RV2 with its wiper"):
+			t.Errorf("row at %s calls the preset RV2 a control: %q", in.Net, in.Caveat)
+		case strings.Contains(in.Caveat, "RV2 at 30 % of its track as captured (a preset"):
+			seen["RV2"] = true
+		}
+		if strings.Contains(in.Caveat, "RV1 with its wiper at 50 %") && strings.Contains(in.Caveat, "log-law control") {
+			seen["RV1"] = true
+		}
+	}
+	if !seen["RV2"] || !seen["RV1"] {
+		t.Errorf("rows naming the preset RV2 / the control RV1: %v, want both", seen)
+	}
+}
