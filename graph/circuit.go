@@ -49,6 +49,15 @@ const (
 	IndChoke = "choke" // RF choke: meant to be open at signal frequency
 )
 
+// Pot types (Part.Type for Kind Pot): a control the user turns, or a preset
+// set on the bench and left (a bias or quiescent-current adjustment, a hum
+// balance). Empty: not said; pare treats the pot as a control and hedges
+// where the wiring suggests a preset.
+const (
+	PotControl = "control"
+	PotPreset  = "preset"
+)
+
 // Active device active types (Part.Type) are listed in terminals.go.
 
 // Role says what a net is for. Most nets are signal nets; the others carry

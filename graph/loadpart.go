@@ -33,6 +33,8 @@ var capTypes = []string{CapFixed, CapElectrolytic, CapVariable, CapTrimmer}
 
 var indTypes = []string{IndPlain, IndChoke}
 
+var potTypes = []string{PotControl, PotPreset}
+
 func (ld *loader) part(path, ref string, v any) {
 	p := &Part{Ref: ref, Pos: ld.ix.key(path)}
 	m, ok := v.(map[string]any)
@@ -267,6 +269,12 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 				ld.errVal(path+".set", "a pot's set is the wiper position from 0 (pin 1) to 1 (pin 2), not %g", p.Set)
 			}
 		}
+		if typ != "" {
+			if !contains(potTypes, typ) {
+				ld.badType(path+".type", "pot", typ, potTypes)
+			}
+			p.Type = typ
+		}
 	case Switch:
 		ld.switchPart(path, p, m)
 	case Port:
@@ -274,8 +282,8 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 	case Generic:
 		p.Label = ld.str(kp, m[key])
 	}
-	if typ != "" && p.Kind != Capacitor && p.Kind != Inductor && p.Kind != Valve && p.Kind != BJT && p.Kind != FET {
-		ld.errKey(path+".type", "type applies to capacitors (%s), inductors (%s), and valves and transistors (the type they are marked with)", strings.Join(capTypes, ", "), strings.Join(indTypes, ", "))
+	if typ != "" && p.Kind != Capacitor && p.Kind != Inductor && p.Kind != Pot && p.Kind != Valve && p.Kind != BJT && p.Kind != FET {
+		ld.errKey(path+".type", "type applies to capacitors (%s), inductors (%s), pots (%s), and valves and transistors (the type they are marked with)", strings.Join(capTypes, ", "), strings.Join(indTypes, ", "), strings.Join(potTypes, ", "))
 	}
 }
 

@@ -200,6 +200,9 @@ func kindKV(p *Part, add func(string)) {
 		if p.Set != 0.5 {
 			add("set = " + fmtFloat(p.Set))
 		}
+		if p.Type != "" {
+			add("type = " + quote(p.Type))
+		}
 	case Switch:
 		switchKV(p, add)
 	case Port:

@@ -30,12 +30,15 @@ const (
 // the set has none).
 func caveats(c *graph.Circuit, in Injection, agc string) string {
 	var out []string
-	controls, presets := potsOnRow(c, in)
+	controls, presets, unsure := potsOnRow(c, in)
 	if len(controls) > 0 {
 		out = append(out, "assumes "+strings.Join(controls, " and ")+" (set as captured; the netlist gives a wiper's share of the resistance, not a law, so on a log-law control that is well past mid-rotation): the level depends on the control's setting, so read this row for the ratio, with the control where the table assumes")
 	}
 	if len(presets) > 0 {
-		out = append(out, "assumes "+strings.Join(presets, " and ")+" as captured (a preset wired as a variable resistor, its wiper strapped to an end: an adjustment, not a control): set it by its own adjustment first, since the level here moves with it")
+		out = append(out, "assumes "+strings.Join(presets, " and ")+" as captured (a preset, set on the bench and left: an adjustment, not a control): set it by its own adjustment first, since the level here moves with it")
+	}
+	if len(unsure) > 0 {
+		out = append(out, "assumes "+strings.Join(unsure, " and ")+" as captured (wired as a variable resistor, its wiper strapped to an end; the netlist does not say whether it is a control or a preset, type = \"preset\" would): a preset is set by its own adjustment first, a control read for the ratio, since the level here moves with it")
 	}
 	if in.BelowFloor {
 		out = append(out, floorMethod(in, agc))
@@ -59,13 +62,14 @@ func floorMethod(in Injection, agc string) string {
 // pare cannot say where a log-law knob stands), each control whose
 // wiper changes the row's response by more than potSens when moved by
 // potStep (the AC solver on the whole circuit, the rest as captured).
-// A pot whose wiper is strapped to one of its ends is a preset resistor
-// (a bias or current adjustment), listed apart as presets: calling its
-// setting a knob's rotation would mislead.
-func potsOnRow(c *graph.Circuit, in Injection) (controls, presets []string) {
+// A pot captured as a preset (a bias or current adjustment) is listed
+// apart: calling its setting a knob's rotation would mislead. One not said
+// to be either whose wiper is strapped to an end (a variable resistor: a
+// tone control or a bias preset alike) is listed as unsure.
+func potsOnRow(c *graph.Circuit, in Injection) (controls, presets, unsure []string) {
 	base, err := Response(c, in.Net, in.RefNet, in.Freq, in.Gang)
 	if err != nil || base == 0 {
-		return nil, nil
+		return nil, nil, nil
 	}
 	for _, p := range c.Parts {
 		if p.Kind != graph.Pot {
@@ -81,13 +85,16 @@ func potsOnRow(c *graph.Circuit, in Injection) (controls, presets []string) {
 		if err != nil || math.Abs(h-base) <= potSens*base {
 			continue
 		}
-		if wiperStrapped(p) {
+		switch {
+		case p.Type == graph.PotPreset:
 			presets = append(presets, fmt.Sprintf("%s at %.0f %% of its track", p.Ref, p.Set*100))
-			continue
+		case p.Type == "" && wiperStrapped(p):
+			unsure = append(unsure, fmt.Sprintf("%s at %.0f %% of its track", p.Ref, p.Set*100))
+		default:
+			controls = append(controls, fmt.Sprintf("%s with its wiper at %.0f %% of the track's resistance", p.Ref, p.Set*100))
 		}
-		controls = append(controls, fmt.Sprintf("%s with its wiper at %.0f %% of the track's resistance", p.Ref, p.Set*100))
 	}
-	return controls, presets
+	return controls, presets, unsure
 }
 
 // wiperStrapped reports whether a pot's wiper shares a net with one of its

@@ -56,24 +56,40 @@ func TestReview15SignalTanksPart(t *testing.T) {
 }
 
 // A pot whose wiper is strapped to an end (review15 b05's quiescent-current
-// preset RV2) is an adjustment: an injection row that depends on it says
-// so, and never calls its setting a knob's rotation on a log law; the
-// volume control RV1 still is one (common practice).
+// preset RV2) may be a preset or a control (a tone control is wired so
+// too): an injection row that moves with it says the netlist does not tell
+// which, and never calls its setting a knob's rotation on a log law;
+// captured with type = "preset" it is an adjustment to set first. The
+// volume control RV1, a divider, stays a control (common practice).
 func TestReview15PresetIsNoControl(t *testing.T) {
-	_, g := build(t, filepath.Join("..", "..", "..", "testdata", "review15", "b05.toml"))
-	seen := map[string]bool{}
-	for _, in := range g.Inject {
-		switch {
-		case strings.Contains(in.Caveat, "RV2 with its wiper"):
-			t.Errorf("row at %s calls the preset RV2 a control: %q", in.Net, in.Caveat)
-		case strings.Contains(in.Caveat, "RV2 at 30 % of its track as captured (a preset"):
-			seen["RV2"] = true
-		}
-		if strings.Contains(in.Caveat, "RV1 with its wiper at 50 %") && strings.Contains(in.Caveat, "log-law control") {
-			seen["RV1"] = true
-		}
+	src := filepath.Join("..", "..", "..", "testdata", "review15", "b05.toml")
+	text, err := os.ReadFile(src)
+	if err != nil {
+		t.Fatal(err)
 	}
-	if !seen["RV2"] || !seen["RV1"] {
-		t.Errorf("rows naming the preset RV2 / the control RV1: %v, want both", seen)
+	const was = `RV2 = { pot = "100R", set = 0.3,`
+	if !strings.Contains(string(text), was) {
+		t.Fatalf("%s no longer holds %s", src, was)
+	}
+	preset := filepath.Join(t.TempDir(), "b05-preset.toml")
+	if err := os.WriteFile(preset, []byte(strings.Replace(string(text), was, was+` type = "preset",`, 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct{ path, want string }{
+		{src, "RV2 at 30 % of its track as captured (wired as a variable resistor, its wiper strapped to an end; the netlist does not say"},
+		{preset, "RV2 at 30 % of its track as captured (a preset, set on the bench and left"},
+	} {
+		_, g := build(t, tc.path)
+		seen := map[string]bool{}
+		for _, in := range g.Inject {
+			if strings.Contains(in.Caveat, "RV2 with its wiper") {
+				t.Errorf("%s: row at %s calls RV2 a control: %q", filepath.Base(tc.path), in.Net, in.Caveat)
+			}
+			seen["RV2"] = seen["RV2"] || strings.Contains(in.Caveat, tc.want)
+			seen["RV1"] = seen["RV1"] || strings.Contains(in.Caveat, "RV1 with its wiper at 50 %") && strings.Contains(in.Caveat, "log-law control")
+		}
+		if !seen["RV2"] || !seen["RV1"] {
+			t.Errorf("%s: rows naming RV2 as %q / the control RV1: %v, want both", filepath.Base(tc.path), tc.want, seen)
+		}
 	}
 }
