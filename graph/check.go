@@ -123,6 +123,7 @@ func Check(c *Circuit) ErrorList {
 	w = append(w, checkGangs(c)...)
 	w = append(w, checkPorts(c)...)
 	w = append(w, checkEnvelopes(c)...)
+	w = append(w, checkRegionStrays(c)...)
 	w.Sort()
 	return w
 }
