@@ -79,16 +79,8 @@ var parallel = Rule{
 // across a 330 Ω feed from the supply is the feed (review 13's b02: "R1
 // 327R ≡ R1, R4" kept R1's note and its tag "AGC line via R2" though R4
 // brings +9 V). A divider's two halves, one to a line and one to chassis,
-// return to chassis: for the small signal the pair is one resistance to AC
-// ground, and a tag "+12 V via R1" on it would read as that resistance fed
-// from the line, which sets no bias it has (review15 b01; the faded sheet
-// shows the divider as it is).
+// keep the line's tag: the reader sees where the bias comes from.
 func takeDominant(r, s, o *graph.Part) {
-	for i := range r.Pins {
-		if sr, or := railOn(s, r.Pins[i].Net), railOn(o, r.Pins[i].Net); (sr == "") != (or == "") {
-			r.Pins[i].Rail = ""
-		}
-	}
 	d := dominant(s, o)
 	if d == s {
 		return
@@ -106,17 +98,6 @@ func takeDominant(r, s, o *graph.Part) {
 		// name the resistor the AGC comes through
 		r.Ref, r.Note, r.Pos = d.Ref, d.Note, d.Pos
 	}
-}
-
-// railOn is the rail p's terminal on net returned to ("" for none or for
-// chassis).
-func railOn(p *graph.Part, net string) string {
-	for _, q := range p.Pins {
-		if q.Net == net {
-			return q.Rail
-		}
-	}
-	return ""
 }
 
 // dominant is the member of a parallel pair that carries most of the

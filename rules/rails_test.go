@@ -23,8 +23,6 @@ func TestRailReturnsSurviveTheReduction(t *testing.T) {
 		{"../examples/transistor-front-end.toml", "C5", "2", "vcc_mix", "+9 V via R7"}, // decoupled by R7 from a rail labelled only by its +9 V: named by that voltage
 		{"../examples/transistor-front-end.toml", "R6", "2", "", ""},                   // emitter resistor to 0 V
 		{"../testdata/good/review-bjt-if.toml", "T2", "p1", "vcc", "+9 V"},             // straight to the rail
-		{"../testdata/review15/b01.toml", "R2", "1", "", ""},                           // R2 (to the decoupled line) ∥ R3 (to chassis): one resistance to AC ground
-		{"../testdata/review15/b01.toml", "R5", "1", "", ""},                           // R5 (to the +12 V rail) ∥ R6 (to chassis) likewise
 	}
 	for _, tc := range tests {
 		r, _ := reduceChecked(t, loadFile(t, tc.file), Options{Level: LevelSignal})

@@ -33,7 +33,7 @@ func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
 		for i, pn := range p.Pins {
 			was := orig.NetOf(pn.Name)
 			ln, ok := lines[was]
-			if !ok || pn.Rail != "" || pn.Net == was || !c.RoleOf(pn.Net).IsACGround() || c.RoleOf(pn.Net).IsRail() || !allOn(r.Circuit, p, was) {
+			if !ok || pn.Rail != "" || pn.Net == was || !c.RoleOf(pn.Net).IsACGround() || c.RoleOf(pn.Net).IsRail() {
 				continue
 			}
 			if out == nil {
@@ -51,29 +51,6 @@ func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
 		return c
 	}
 	return out
-}
-
-// allOn reports whether every part p stands for (itself, or each member
-// it merged) has a terminal on net in the original: a bias divider's two
-// halves merged into one resistance, one half to the line and one to
-// chassis, return to neither alone (rules.takeDominant draws it to
-// chassis, as the resistance to AC ground it is for the signal).
-func allOn(orig *graph.Circuit, p *graph.Part, net string) bool {
-	for _, ref := range p.From {
-		if m := orig.Part(ref); m != nil && !touches(m, net) {
-			return false
-		}
-	}
-	return true
-}
-
-func touches(p *graph.Part, net string) bool {
-	for _, q := range p.Pins {
-		if q.Net == net {
-			return true
-		}
-	}
-	return false
 }
 
 func hasRail(c *graph.Circuit, name string) bool {
