@@ -1,7 +1,6 @@
 package graph
 
 import (
-	"bytes"
 	"strings"
 	"testing"
 )
@@ -28,17 +27,10 @@ R1 = { r = "1M", pins = ["g", "gnd"] }
 			t.Errorf("%s designation %q, want %q", ref, got, want[ref])
 		}
 	}
-	var b bytes.Buffer
-	if err := Write(&b, c); err != nil {
-		t.Fatal(err)
-	}
-	back, err := Parse("back.toml", b.Bytes())
-	if err != nil {
-		t.Fatalf("written netlist does not load: %v\n%s", err, b.String())
-	}
+	back, text := roundTrip(t, c)
 	for _, ref := range []string{"V1", "Q1", "J1"} {
 		if got := back.Part(ref).Designation; got != want[ref] {
-			t.Errorf("%s after a round trip: %q, want %q\n%s", ref, got, want[ref], b.String())
+			t.Errorf("%s after a round trip: %q, want %q\n%s", ref, got, want[ref], text)
 		}
 	}
 	bad := []struct{ part, msg string }{
