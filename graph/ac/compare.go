@@ -26,6 +26,12 @@ type CompareOptions struct {
 	// above the solver's rounding (roundingDB, roundingDeg): for the proof
 	// of one step among many, where only the verdict counts (rounding.go).
 	AboveRounding bool `json:"-"`
+	// ReadPieces, when set, solves each response on the part of its block
+	// the voltage read depends on (probe.go, pieceOf) and remembers it under
+	// that part's digest, so a step that changes nothing a response reads
+	// leaves its system, and its sweep, the same: for the proofs of the
+	// steps of a reduction, each against the circuit before it.
+	ReadPieces bool `json:"-"`
 }
 
 // Default tolerances: half a decibel and five degrees, well inside what a
@@ -97,6 +103,9 @@ type Report struct {
 	// proof is empty (an output impedance alone proves nothing about the
 	// frequency-setting parts), and OK is false.
 	Characteristic int `json:"characteristic"`
+	// nearTies: pairs whose scores differ by no more than rounding count
+	// as tied, and Worst names the first (CompareOptions.AboveRounding).
+	nearTies bool
 }
 
 // Empty reports a comparison that compared no transfer and no tank: not a
@@ -119,6 +128,13 @@ func (r *Report) Worst() (Pair, bool) {
 	best, bestScore := -1, -1.0
 	for i, p := range r.Pairs {
 		s := p.score(r.TolDB, r.TolDeg)
+		if r.nearTies && best >= 0 && s <= bestScore*(1+roundingRel) {
+			// Pairs a step moves alike (a response and one a fixed stage
+			// after it derives from it) deviate alike: which of them
+			// rounding puts first follows how the systems were solved
+			// (ReadPieces), so the first in order is named.
+			continue
+		}
 		if s > bestScore {
 			best, bestScore = i, s
 		}
@@ -193,7 +209,7 @@ func Compare(orig, reduced *graph.Circuit, o CompareOptions) (*Report, error) {
 	if o.Points <= 0 {
 		o.Points = 100
 	}
-	rep := &Report{TolDB: o.TolDB, TolDeg: o.TolDeg, OK: true, Pairs: []Pair{}}
+	rep := &Report{TolDB: o.TolDB, TolDeg: o.TolDeg, OK: true, Pairs: []Pair{}, nearTies: o.AboveRounding}
 	reduced = withDetectorLoads(orig, reduced)
 	qs := quantities(orig, reduced, rep)
 	dc := [2]*dcShare{{}, {}}
@@ -318,7 +334,7 @@ func (cp *comparer) newProbe(ci, si int, what, from, to string) (*probe, error) 
 	if me.err != nil {
 		return nil, me.err
 	}
-	return newProbe(me.m, what, from, to)
+	return newProbeOpt(me.m, what, from, to, cp.o.ReadPieces)
 }
 
 // quantity sweeps one quantity at every setting and returns its worst pair;

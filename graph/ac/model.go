@@ -216,6 +216,20 @@ type source struct {
 	// nothing driven ([1]), once asked.
 	float     [2]error
 	floatDone [2]bool
+	// pieceHeld is isHeld with the source's own node held too (heldDriven).
+	pieceHeld []bool
+}
+
+// heldDriven is isHeld with the driven node marked as well: a read piece
+// (readPiece) stops at the driven node, whose voltage is given, rather than
+// flooding on through the parts behind it, which the voltages read from
+// it cannot depend on.
+func (src *source) heldDriven(node int) []bool {
+	if src.pieceHeld == nil {
+		src.pieceHeld = slices.Clone(src.isHeld)
+		src.pieceHeld[node] = true
+	}
+	return src.pieceHeld
 }
 
 // sourceAt returns the shared part of the probes from node (not ground).

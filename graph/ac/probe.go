@@ -50,6 +50,44 @@ func (p *probe) wrote(f float64) {
 // newProbe builds the system of one response of the model: the block of
 // the matrix the source drives, with the circuit's other inputs held.
 func newProbe(m *model, what, from, to string) (*probe, error) {
+	return newProbeOpt(m, what, from, to, false)
+}
+
+// newProbeOpt is newProbe; with piece set, the system is only the part of
+// the block the response read depends on (pieceOf).
+func newProbeOpt(m *model, what, from, to string, piece bool) (*probe, error) {
+	p, err := buildProbe(m, what, from, to)
+	if err == nil && piece {
+		pieceOf(m, p)
+	}
+	return p, err
+}
+
+// pieceOf narrows a probe's system to the part of its block the voltage
+// it reads depends on (readPiece): the read node, closed under "a row of
+// the piece has an entry in this column", the driven node and the held
+// ones left out as no unknowns. The matrix is then block triangular and
+// the piece alone gives the response read, exactly but for rounding (the
+// smaller system is eliminated in another order). What a piece leaves out
+// is what lies beyond a device's one-way stamp from the node read: the
+// stages after an anode for a response read at the grid, and a stage's
+// own anode circuit for a response read before it. A step proof keyed by
+// the piece's digest (memo.go) therefore finds a response whose piece the
+// step did not touch already solved, and its sweep already made.
+func pieceOf(m *model, p *probe) {
+	switch {
+	case p.zero || p.silent || p.sub == nil:
+		return
+	case p.impedance:
+		p.sub = m.readPiece([]int{p.node}, p.isHeld)
+	case p.node > 0 && p.node != p.driven:
+		src := m.sourceAt(p.driven)
+		p.sub = m.readPiece([]int{p.node}, src.heldDriven(p.driven))
+	}
+}
+
+// buildProbe is newProbe.
+func buildProbe(m *model, what, from, to string) (*probe, error) {
 	c, nl := m.c, m.nl
 	fromNode, err := nodeOf(c, nl, from)
 	if err != nil {

@@ -218,6 +218,7 @@ func subCircuit(c *graph.Circuit, dead map[string]bool, in func(*graph.Circuit, 
 			s.Nets = append(s.Nets, n)
 		}
 	}
+	named := namedIn(s, c)
 	for _, r := range c.Regions {
 		rr := *r
 		if !used[r.Input] && !used[r.Output] {
@@ -225,9 +226,50 @@ func subCircuit(c *graph.Circuit, dead map[string]bool, in func(*graph.Circuit, 
 			// are not compared here.
 			rr.Input, rr.Output = "", ""
 		}
+		rr.Parts = keepNamed(r.Parts, named)
+		rr.Nets = keepNamed(r.Nets, named)
 		s.Regions = append(s.Regions, &rr)
 	}
 	return s, all
+}
+
+// namedIn is every name the comparison can look up in a region's lists of
+// the sub-circuit s: its parts' refs and origins (a part's band is that of
+// the first region naming it or an origin, else of the first naming one of
+// its nets) and its nets and the whole circuit c's declared ends (a net's
+// bands are those of every region naming it; filterEnds keeps the ends the
+// sub-circuit compares).
+func namedIn(s, c *graph.Circuit) map[string]bool {
+	named := make(map[string]bool, 4*len(s.Parts)+len(s.Nets))
+	for _, p := range s.Parts {
+		named[p.Ref] = true
+		for _, o := range p.From {
+			named[o] = true
+		}
+	}
+	for _, n := range s.Nets {
+		named[n.Name] = true
+	}
+	for _, n := range append(slices.Clone(c.Inputs), c.Outputs...) {
+		named[n] = true
+	}
+	return named
+}
+
+// keepNamed is list without the names the sub-circuit cannot look up, in
+// order: a region of a whole set lists a channel's parts and nets, and a
+// region index of the sub-circuit (graph.RegionIndex, built for every
+// step's comparison) built from every channel's lists made each step's
+// proof cost the whole set. The first region naming each name that is
+// kept is the same, so every band the comparison reads is the same.
+func keepNamed(list []string, named map[string]bool) []string {
+	var out []string
+	for _, x := range list {
+		if named[x] {
+			out = append(out, x)
+		}
+	}
+	return out
 }
 
 // crystalMarks adds a crystal's series and parallel resonance under names

@@ -112,6 +112,10 @@ type Options struct {
 	// wholeSteps proves each step on the whole circuit instead of the
 	// groups it touched (local.go); tests set it to show both agree.
 	wholeSteps bool
+	// blockSteps solves each step proof's responses on their whole blocks
+	// instead of the pieces the voltages read depend on
+	// (ac.CompareOptions.ReadPieces); tests set it to show both agree.
+	blockSteps bool
 
 	// Verify runs the final comparison in PhaseVerify; Compare sets its
 	// tolerances, sweep density and device settings, and those of the
@@ -373,12 +377,15 @@ func (r *Result) recognise(o Options) error {
 // final proof and every step check go through it. The step checks against
 // the previous circuit lend it their memo of solved responses and, since
 // only their verdict counts, leave the deviation's rounding unrefined
-// (ac.CompareOptions.AboveRounding); the final proof solves afresh and
-// searches every peak.
+// (ac.CompareOptions.AboveRounding) and solve each response on the piece
+// of the circuit it reads (ac.CompareOptions.ReadPieces), so a response the
+// step cannot reach is found in the memo; the final proof solves afresh on
+// whole blocks and searches every peak.
 func (r *Result) compare(orig, reduced *graph.Circuit, memo *ac.Memo) (*ac.Report, error) {
 	o := r.Compare
 	o.Memo = memo
 	o.AboveRounding = memo != nil
+	o.ReadPieces = memo != nil && !r.opts.blockSteps
 	return ac.Compare(orig, reduced, o)
 }
 
