@@ -17,14 +17,23 @@ import (
 // side ... joined at top and bottom"), never as net-name flags, and no
 // flag on any of its sheets overlaps a symbol, another flag or an earth.
 // The review circuit testdata/review14/a01.toml was drawn with seven
-// overlapping "tank g"/"tank a" flags; the fixtures of testdata/tanks are
-// the class (Clapp, FET Colpitts, a tank between base and collector).
+// overlapping "tank g"/"tank a" flags; review15's a01 still drew its tank
+// as flags, one on the grid leak's lead, when its coil was written anode
+// end first (the template's grid capacitor then stood in the leak's
+// column); the fixtures of testdata/tanks are the class (Clapp, FET
+// Colpitts, a tank between base and collector, a choke-fed collector with
+// its coil written collector end first, the divider's centre on the
+// cathode).
+// tankReviews are the blind reviews' tank circuits the tank tests read
+// beside testdata/tanks.
+var tankReviews = []string{"../../testdata/review14/a01.toml", "../../testdata/review15/a01.toml"}
+
 func TestTanksWiredAsLoop(t *testing.T) {
 	files, err := filepath.Glob("../../testdata/tanks/*.toml")
 	if err != nil || len(files) == 0 {
 		t.Fatalf("no tank fixtures: %v", err)
 	}
-	files = append(files, "../../testdata/review14/a01.toml")
+	files = append(files, tankReviews...)
 	warmSheets(files, "")
 	for _, f := range files {
 		c, err := graph.LoadFile(f)

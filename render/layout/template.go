@@ -305,7 +305,7 @@ func (ly *state) lineUp(cl *cell, col []colPart) (float64, bool) {
 
 // levelWith is how far a block in the anchor's row moves down to put its
 // first pin on one of the anchor's wires level with the anchor's pin
-// there (a grid leak's top on the grid wire); 0, where the generic
+// there (a grid leak's top a step under the grid wire); 0, where the generic
 // placement put it, when it has none.
 func (ly *state) levelWith(a *cell, b *block) float64 {
 	for _, cl := range b.cells {
@@ -314,9 +314,22 @@ func (ly *state) levelWith(a *cell, b *block) float64 {
 				continue
 			}
 			for _, q := range a.shape.Pins {
-				if q.Net == p.Net {
-					return q.At.Y - p.At.Y
+				if q.Net != p.Net {
+					continue
 				}
+				// a part hanging from a wire that leaves the anchor
+				// sideways stands a step below it (above, rising to it):
+				// the wire runs straight and turns into its pin; level
+				// with it, the wire left the pin the way it points and
+				// jogged a step to meet the anchor's pin
+				switch {
+				case q.Dir == geom.Up || q.Dir == geom.Down:
+				case p.Dir == geom.Up:
+					return q.At.Y + 1 - p.At.Y
+				case p.Dir == geom.Down:
+					return q.At.Y - 1 - p.At.Y
+				}
+				return q.At.Y - p.At.Y
 			}
 		}
 	}

@@ -130,6 +130,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	signal = append(signal, deviceStages(reduced, acg, signal, held)...)
 	refold(reduced, signal, folded)
 	signal = nestStoppers(reduced, signal)
+	leakPlaces(reduced, signal)
 	naming := namingOrder(reduced)
 	inSignalOrder(signal, naming)
 	nameRoles(signal, reduced)
