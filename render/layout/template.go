@@ -46,7 +46,8 @@ type slotted struct {
 	b        *block
 	col, row int
 	d        geom.Pt
-	keep     bool // false once the slot is refused: the block stays put
+	keep     bool    // false once the slot is refused: the block stays put
+	hang     float64 // the step under (over) the anchor's wire levelWith gave it
 }
 
 // templates applies every frame's templates, frame by frame, each
@@ -111,6 +112,7 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 	ly.slotMoves(anchor, slots)
 	ly.makeRoom(stage, slots, all)
 	ly.refuseCollisions(stage, slots, all)
+	unhang(slots)
 	ly.closeIn(anchor, slots, all)
 	for _, s := range slots {
 		if s.keep {
@@ -193,7 +195,7 @@ func (ly *state) slotMoves(anchor *block, slots []*slotted) {
 	for _, s := range slots {
 		w[s.col] = math.Max(w[s.col], s.b.fp.W())
 		if s.row == 0 {
-			s.d.Y = ly.levelWith(anchor.cells[0], s.b)
+			s.d.Y, s.hang = ly.levelWith(anchor.cells[0], s.b)
 			row0 = row0.Union(s.b.fp.Move(s.d))
 		} else {
 			h[s.row] = math.Max(h[s.row], s.b.fp.H())
@@ -305,9 +307,12 @@ func (ly *state) lineUp(cl *cell, col []colPart) (float64, bool) {
 
 // levelWith is how far a block in the anchor's row moves down to put its
 // first pin on one of the anchor's wires level with the anchor's pin
-// there (a grid leak's top a step under the grid wire); 0, where the generic
-// placement put it, when it has none.
-func (ly *state) levelWith(a *cell, b *block) float64 {
+// there, and the step of that move that stands a part hanging from a
+// sideways wire under it (a grid leak's top a step under the grid wire:
+// the wire runs straight and turns into its pin; level with it, the wire
+// left the pin the way it points and jogged a step to meet the anchor's
+// pin); 0, where the generic placement put it, when it has none.
+func (ly *state) levelWith(a *cell, b *block) (dy, hang float64) {
 	for _, cl := range b.cells {
 		for _, p := range cl.shape.Pins {
 			if !ly.anchorNet(a, p.Net) {
@@ -317,23 +322,39 @@ func (ly *state) levelWith(a *cell, b *block) float64 {
 				if q.Net != p.Net {
 					continue
 				}
-				// a part hanging from a wire that leaves the anchor
-				// sideways stands a step below it (above, rising to it):
-				// the wire runs straight and turns into its pin; level
-				// with it, the wire left the pin the way it points and
-				// jogged a step to meet the anchor's pin
 				switch {
 				case q.Dir == geom.Up || q.Dir == geom.Down:
 				case p.Dir == geom.Up:
-					return q.At.Y + 1 - p.At.Y
+					hang = 1
 				case p.Dir == geom.Down:
-					return q.At.Y - 1 - p.At.Y
+					hang = -1
 				}
-				return q.At.Y - p.At.Y
+				return q.At.Y + hang - p.At.Y, hang
 			}
 		}
 	}
-	return 0
+	return 0, 0
+}
+
+// unhang takes the step under the wire back from the kept parts of the
+// anchor's row once a part of that row is refused its slot: the refused
+// part stays where the generic placement put it, its pins level with the
+// anchor's, and a kept part a step lower stood its far lead in line with
+// that part's wire (a Hartley VFO's grid capacitor beside its leak).
+func unhang(slots []*slotted) {
+	refused := false
+	for _, s := range slots {
+		refused = refused || s.row == 0 && !s.keep
+	}
+	if !refused {
+		return
+	}
+	for _, s := range slots {
+		if s.row == 0 && s.keep {
+			s.d.Y -= s.hang
+			s.hang = 0
+		}
+	}
 }
 
 // centres lays slots of the given sizes out either side of slot 0, which
