@@ -412,3 +412,52 @@ func TestWholeCoreOnTunedWinding(t *testing.T) {
 		}
 	}
 }
+
+// A coil of several windings on one adjustable core (an oscillator coil's
+// tuned, feedback and link windings, review15 b05's T2) reads as one part:
+// one dashed core line (a dust or ferrite core, common drawing practice;
+// IEC 60617 draws a core as a line along the windings) runs between the
+// two sides the full height of every winding; an iron core keeps its two
+// solid lines, windings with a core each (an IF can's two slugs) or none
+// get no shared line.
+func TestOneCoreSpansItsWindings(t *testing.T) {
+	three := func(adjust ...string) *graph.Part {
+		x := part(graph.Transformer, "", "f1", "f2", "p1", "p2", "s1", "s2")
+		x.Windings = []graph.Winding{{Name: "f", L: 12e-6, From: "f1", To: "f2"}, {Name: "p", L: 190e-6, From: "p1", To: "p2"},
+			{Name: "s", L: 2e-6, From: "s1", To: "s2"}}
+		x.Coupling = []graph.Coupling{{A: "f", B: "p", K: 0.5}, {A: "p", B: "s", K: 0.85}}
+		x.Adjust = adjust
+		return x
+	}
+	cases := []struct {
+		name   string
+		p      *graph.Part
+		shared bool
+	}{
+		{"one core under three windings", three(graph.CoreWhole), true},
+		{"a core per winding", three("f", "p", "s"), false},
+		{"air-cored", three(), false},
+	}
+	for _, tc := range cases {
+		for _, st := range []Style{IEC, IEEE} {
+			s := For(tc.p, st)
+			lo, hi := math.Inf(1), math.Inf(-1)
+			for _, pn := range s.Pins {
+				lo, hi = math.Min(lo, pn.At.Y), math.Max(hi, pn.At.Y)
+			}
+			found := false
+			for _, pr := range s.Prims {
+				if pr.Kind != Line || !pr.Dash || len(pr.Pts) != 2 || pr.Pts[0].X != 0 || pr.Pts[1].X != 0 {
+					continue
+				}
+				found = true
+				if math.Min(pr.Pts[0].Y, pr.Pts[1].Y) > lo || math.Max(pr.Pts[0].Y, pr.Pts[1].Y) < hi {
+					t.Errorf("%s %v: core line %v does not span the windings' pins %g..%g", tc.name, st, pr.Pts, lo, hi)
+				}
+			}
+			if found != tc.shared {
+				t.Errorf("%s %v: shared core line drawn %v, want %v", tc.name, st, found, tc.shared)
+			}
+		}
+	}
+}

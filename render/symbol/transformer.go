@@ -11,7 +11,8 @@ import (
 
 // transformer draws the first half of the coils (primary first) on the left,
 // bulging right, the rest on the right bulging left; each coil's end and tap
-// pins point outwards. An iron core is a pair of lines between the sides.
+// pins point outwards. An iron core is a pair of lines between the sides,
+// one adjustable core under all the windings a dashed line.
 func transformer(p *graph.Part, st Style, m Marks) Shape {
 	// coils stand 0.9 either side of the centre so that their humps (0.4
 	// deep) clear the core lines at ±0.2 and read at print size
@@ -41,8 +42,16 @@ func transformer(p *graph.Part, st Style, m Marks) Shape {
 		}
 	}
 	height := math.Max(yl, yr) - 2
-	if ironCored(p) {
+	switch {
+	case ironCored(p):
 		s.Prims = append(s.Prims, thick(pt(-0.2, 0), pt(-0.2, height)), thick(pt(0.2, 0), pt(0.2, height)))
+	case slices.Contains(p.Adjust, graph.CoreWhole):
+		// one adjustable dust or ferrite core under every winding (an
+		// oscillator coil's tuned, feedback and link windings): one
+		// dashed core line down the middle, the whole symbol's height,
+		// so the windings either side read as one part on one core, not
+		// as separate coils (review15 b05's T2)
+		s.Prims = append(s.Prims, Prim{Kind: Line, Pts: []geom.Pt{pt(0, 0), pt(0, height)}, Dash: true})
 	}
 	s.Box = geom.R(-2, 0, 2, height)
 	return s.Moved(pt(0, -math.Round(height/2)))
