@@ -71,6 +71,13 @@ func isDevice(p *graph.Part) bool {
 // oscillator's grid leak on the net of a mixer's injector grid, moved to
 // the oscillator, left the gallery's triode-heptode sheets reading worse
 // (review-osc-c2b full and faded: wires in line across a gap 6 → 20).
+// Tried again for review15 a02 (moved only when its stage holds it
+// through a further grid alone): the reduced sheets read better (a02's
+// leak in the oscillator's frame, review-align-c1's misreads 6 → 2), but
+// the full and faded views of review-align-c1 and review-osc-c2b gained
+// 22 wires beside another net's, 10 in line and 4 crossings near a dot,
+// the leak standing in the channel the mixer's wires take to the
+// oscillator; kept here until the full view routes that channel.
 func refold(c *graph.Circuit, tops []*found, folded map[string]bool) {
 	claimed, _ := claims(tops)
 	for _, ref := range slices.Sorted(maps.Keys(folded)) {
