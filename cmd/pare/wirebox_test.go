@@ -21,9 +21,10 @@ import (
 // and 322; with the ladders, pi filters and supply sections of another
 // branch joined to those, 79 and 305: two wires more through a frame, 17
 // fewer boxes; with the fourth review's circuits, testdata/review15, brought in
-// with their own 10 and 52: 89 and 357). A change may lower these, never
+// with their own 10 and 52: 89 and 357; with an oscillator's grid leak and
+// output feed in its template, 89 and 342). A change may lower these, never
 // raise them; a new sheet brings its own.
-var wireBoxCeiling = struct{ foreign, boxes int }{89, 357}
+var wireBoxCeiling = struct{ foreign, boxes int }{89, 342}
 
 // TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
 // its net has a pin there (a frame says "these parts are this stage"), and
