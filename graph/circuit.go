@@ -118,6 +118,9 @@ type Circuit struct {
 	ix *Index
 	// jr is the journal recording the edits, if one runs (journal.go).
 	jr *Journal
+	// rx is the region index of the circuit this one was cut from, when it
+	// shares that circuit's regions (UseRegionIndex); nil: none.
+	rx *RegionIndex
 }
 
 // Comment holds the comment lines above a key and the comment after it on its line.

@@ -22,7 +22,7 @@ func (c *Circuit) Sort() {
 // must leave the loaded circuit as it was.
 func (c *Circuit) Clone() *Circuit {
 	d := *c
-	d.ix, d.jr = nil, nil // the clone builds its own index on first use, and records nothing
+	d.ix, d.jr, d.rx = nil, nil, nil // the clone builds its own indexes on first use, and records nothing
 	d.Freqs = make(map[string]float64, len(c.Freqs))
 	for k, v := range c.Freqs {
 		d.Freqs[k] = v
@@ -152,11 +152,42 @@ type RegionIndex struct {
 	c     *Circuit
 	byRef map[string]int // a part ref or origin: the first region naming it
 	byNet map[string]int // a net: the first region naming it
+	full  value.Range    // c.FullBand(), which walks every region
 }
 
-// RegionIndex takes the snapshot of c's regions.
+// UseRegionIndex has c answer RegionIndex with x, the index of a circuit
+// whose regions and band c shares (the same slice of regions: a piece of
+// it, or a copy with a part changed), so that each of many such circuits
+// does not take the snapshot of every region again. An index of other
+// regions is not taken. Neither circuit may edit its regions after.
+func (c *Circuit) UseRegionIndex(x *RegionIndex) {
+	if x != nil && x.sameRegions(c) {
+		c.rx = x
+	}
+}
+
+// ShareRegionIndex has c answer RegionIndex with the index from answers
+// with, when UseRegionIndex gave it one and c shares its regions: a copy
+// of a piece keeps the piece's index without taking a snapshot.
+func (c *Circuit) ShareRegionIndex(from *Circuit) { c.UseRegionIndex(from.rx) }
+
+// sameRegions says whether c has the regions and band x was taken of: the
+// same slice (a piece shares it) and the same default band, so every answer
+// of x (RegionOf, BandOf, BandCentre) is the one c's own snapshot gives.
+func (x *RegionIndex) sameRegions(c *Circuit) bool {
+	if c.Band != x.c.Band || len(c.Regions) != len(x.c.Regions) {
+		return false
+	}
+	return len(c.Regions) == 0 || &c.Regions[0] == &x.c.Regions[0]
+}
+
+// RegionIndex takes the snapshot of c's regions, or hands back the one
+// UseRegionIndex gave c.
 func (c *Circuit) RegionIndex() *RegionIndex {
-	x := &RegionIndex{c: c, byRef: map[string]int{}, byNet: map[string]int{}}
+	if c.rx != nil && c.rx.sameRegions(c) {
+		return c.rx
+	}
+	x := &RegionIndex{c: c, byRef: map[string]int{}, byNet: map[string]int{}, full: c.FullBand()}
 	for i, r := range c.Regions {
 		for _, ref := range r.Parts {
 			if _, ok := x.byRef[ref]; !ok {
@@ -208,7 +239,13 @@ func (x *RegionIndex) BandOf(p *Part) value.Range {
 }
 
 // BandCentre is Circuit.BandCentre through the index.
-func (x *RegionIndex) BandCentre(p *Part) float64 { return x.c.centreOf(x.BandOf(p)) }
+func (x *RegionIndex) BandCentre(p *Part) float64 {
+	b := x.BandOf(p)
+	if b.Min <= 0 || b.Max <= 0 {
+		b = x.full // what centreOf takes, without walking the regions per part
+	}
+	return x.c.centreOf(b)
+}
 
 // Joined follows Circuit.JoinNets(keep, gone), which renames gone to keep
 // in every region's nets: keep is then named first by whichever region

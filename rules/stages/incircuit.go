@@ -189,6 +189,7 @@ func withPart(c *graph.Circuit, p *graph.Part) *graph.Circuit {
 	out := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
 		Inputs: c.Inputs, Outputs: c.Outputs, Nets: c.Nets, Parts: make([]*graph.Part, len(c.Parts)),
 		DetectorLoads: c.DetectorLoads}
+	out.ShareRegionIndex(c) // the same regions: c's snapshot, when it has one
 	for i, q := range c.Parts {
 		out.Parts[i] = q
 		if q.Ref == p.Ref {

@@ -300,6 +300,7 @@ func (w *world) pieceCircuit(idx []int) *graph.Circuit {
 	c := w.c
 	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
 		DetectorLoads: c.DetectorLoads}
+	sub.UseRegionIndex(w.rx)
 	used := map[string]bool{}
 	var names []string
 	for _, ci := range idx {

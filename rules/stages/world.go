@@ -37,6 +37,14 @@ type world struct {
 	// walks are the formula's tracking walks done on this world
 	// (formulaWalk), by the tanks they walk.
 	walks map[formulaWalkKey]walkMemo
+	// rx is c's region index, taken once: the pieces cut from c share c's
+	// regions and answer with it (pieceCircuit), where each of their
+	// elaborations took the snapshot of every region of the set again,
+	// which made a whole set's figures grow with its square.
+	rx *graph.RegionIndex
+	// netAt is each net's place in c.Nets: a piece lists its nets in the
+	// circuit's order without reading every net of the set (cutFreed).
+	netAt map[string]int
 }
 
 // signalDist is each part's breadth-first distance from the circuit's
@@ -76,11 +84,15 @@ func newWorld(c *graph.Circuit, full bool, acGround map[string]bool) *world {
 // newWorldJoined is newWorld with the nets of each set in join made one
 // (join maps a net to its set's representative; nil joins nothing).
 func newWorldJoined(c *graph.Circuit, full bool, acGround map[string]bool, join map[string]string) *world {
-	w := &world{c: c, full: full, netID: map[string]int{}, byKind: map[graph.Kind][]int{}}
+	w := &world{c: c, full: full, netID: map[string]int{}, byKind: map[graph.Kind][]int{}, rx: c.RegionIndex(),
+		netAt: make(map[string]int, len(c.Nets))}
 	w.names = append(w.names, "⏚")
 	w.role = append(w.role, graph.Ground)
 	folded := map[string]bool{}
-	for _, n := range c.Nets {
+	for i, n := range c.Nets {
+		if _, ok := w.netAt[n.Name]; !ok {
+			w.netAt[n.Name] = i
+		}
 		f := n.Role == graph.Ground
 		if !full {
 			f = n.Role.IsACGround() || acGround[n.Name]
