@@ -325,3 +325,33 @@ func KeptDetectorRd(c *graph.Circuit, p *graph.Part) (rd float64, ok bool) {
 	}
 	return rd, rd > 0
 }
+
+// DetectorLoads is the DC load of every section of the diodes among ps as
+// the solver takes it when it elaborates c (the stamper's detectorLoad):
+// the load kept on c (KeepDetectorLoads), else the one c's DC paths give,
+// keyed as Circuit.DetectorLoads is. A caller that solves a piece of c cut
+// at AC ground gives the piece these loads, so its diodes take the rd they
+// have in c, whose DC paths run on past the piece's edge through the
+// rails; one DC network of c serves them all.
+func DetectorLoads(c *graph.Circuit, ps []*graph.Part) map[string]float64 {
+	out := map[string]float64{}
+	var d *dcNet
+	for _, p := range ps {
+		anodes, cathode := diodeSections(p)
+		if _, own := p.Param("rd"); own || len(anodes) == 0 || p.Type == "varicap" {
+			continue
+		}
+		for _, a := range anodes {
+			k := p.Ref + "." + a
+			if l, ok := c.DetectorLoads[k]; ok {
+				out[k] = l
+				continue
+			}
+			if d == nil {
+				d = newDCNet(c)
+			}
+			out[k] = d.load(p.NetOf(a), p.NetOf(cathode))
+		}
+	}
+	return out
+}

@@ -3,6 +3,7 @@ package stages
 import (
 	"math"
 	"math/cmplx"
+	"slices"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -33,7 +34,7 @@ func calcAGCLine(x *figCtx) {
 		return // not the detector's output, or a line that biases no grid or base: no figures, the guard drops it
 	}
 	formula := &figure.Figure{Name: "tau", Unit: figure.Second, Value: r.Value.Max * c.Capacitance(0.5), Origin: byTau}
-	sv := solvedLag(x.w.c, from, line)
+	sv := x.solvedLag(from, line)
 	x.putChecked(sv, formula, func() string {
 		return "in circuit the line also charges what it feeds (the grid filters' capacitors through their resistors)"
 	})
@@ -59,14 +60,14 @@ func sharedNet(a, b *graph.Part) string {
 // below its value at 1 mHz, found by bisection on a log scale between
 // 1 mHz and 10 kHz, the line freed from the AC ground its bias role puts
 // it at; nil where the solver cannot give it.
-func solvedLag(c *graph.Circuit, from, to string) *figure.Figure {
-	// The solver holds a declared bias net at AC ground, as the signal
-	// sees it; here the line is what is solved, so it is freed.
-	c = c.Clone()
-	if n := c.Net(to); n != nil {
-		n.Role = graph.Signal
-	}
-	r, err := ac.NewTransfer(c, from, to, gangMid.options())
+//
+// The solver holds a declared bias net at AC ground, as the signal sees
+// it; here the line is what is solved, so it is freed. Only the block of
+// the matrix the driven net reaches moves V(line): the parts reached from
+// the two nets without passing AC ground (lagPiece), whose diodes take the
+// DC loads the whole circuit's DC paths give them.
+func (x *figCtx) solvedLag(from, to string) *figure.Figure {
+	r, err := ac.NewTransfer(x.lagPiece(from, to), from, to, gangMid.options())
 	if err != nil {
 		return nil
 	}
@@ -236,6 +237,42 @@ func withAGCLines(full, reduced *graph.Circuit) *graph.Circuit {
 		fn.Role = graph.Bias
 		if fn.Label == "" {
 			fn.Label = n.Label
+		}
+	}
+	return out
+}
+
+// lagPiece is the circuit solvedLag solves: the parts reached from the nets
+// from and to (to freed from AC ground) without passing a net the solver
+// holds at AC ground, cut as a supply filter section is (cutFreed), with
+// the DC loads of its diodes taken on the whole circuit with the line
+// freed, which is what the whole circuit was solved with before. A whole
+// set has an AGC line per channel, and each elaborated the whole set.
+func (x *figCtx) lagPiece(from, to string) *graph.Circuit {
+	w := x.w
+	fi, fok := w.netID[from]
+	ti, tok := w.netID[to]
+	if !fok || !tok || fi == groundNet || ti == groundNet || w.role[fi].IsACGround() {
+		return freedWhole(w.c, to) // no piece to cut: the whole, as before
+	}
+	keep := w.reach([]int{fi, ti}, nil, true)
+	sub := x.cutFreed(keep, []string{from, to}, []string{to})
+	if x.keepsDiode(keep) {
+		sub.DetectorLoads = withLoads(w.c.DetectorLoads, ac.DetectorLoads(freedWhole(w.c, to), sub.Parts))
+	}
+	return sub
+}
+
+// freedWhole is c with the net to made a signal net, sharing every part and
+// every other net.
+func freedWhole(c *graph.Circuit, to string) *graph.Circuit {
+	out := withPart(c, &graph.Part{})
+	out.Nets = slices.Clone(c.Nets)
+	for i, n := range out.Nets {
+		if n.Name == to {
+			m := *n
+			m.Role = graph.Signal
+			out.Nets[i] = &m
 		}
 	}
 	return out
