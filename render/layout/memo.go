@@ -2,6 +2,7 @@ package layout
 
 import (
 	"hash/maphash"
+	"slices"
 	"sync"
 )
 
@@ -64,36 +65,56 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 		b = append(b, byte(v), byte(v>>8), byte(v>>16), byte(v>>24))
 	}
 	b = append(b, wide)
+	b = rt.gridKey(k, b)
+	rt.sc.key = b
+	return digest(b)
+}
+
+// gridKey appends to b the code of every grid point the search k reads
+// (its window and memoMargin round it), row by row. It is most of a
+// layout's routing time on a whole set, so the buffer is grown once and
+// each row's points off the grid are written apart from those on it,
+// leaving the loop over a row's grid points without a bounds test.
+func (rt *router) gridKey(k *seek, b []byte) []byte {
 	net := k.net
-	for y := win.y0 - memoMargin; y <= win.y1+memoMargin; y++ {
-		if y < 0 || y >= rt.h {
-			for x := win.x0 - memoMargin; x <= win.x1+memoMargin; x++ {
-				b = append(b, offGrid)
-			}
+	xs, xe := k.win.x0-memoMargin, k.win.x1+memoMargin
+	cols := xe - xs + 1
+	n := len(b)
+	b = slices.Grow(b, 3*cols*(k.win.y1-k.win.y0+1+2*memoMargin))
+	b = b[:cap(b)]
+	off := func(from, to int) { // points from..to off the grid
+		for x := from; x <= to; x++ {
+			b[n] = offGrid
+			n++
+		}
+	}
+	lo, hi := max(xs, 0), min(xe, rt.w-1)
+	for y := k.win.y0 - memoMargin; y <= k.win.y1+memoMargin; y++ {
+		if y < 0 || y >= rt.h || lo > hi {
+			off(xs, xe)
 			continue
 		}
-		row := rt.g[y*rt.w : (y+1)*rt.w]
-		for x := win.x0 - memoMargin; x <= win.x1+memoMargin; x++ {
-			if x < 0 || x >= rt.w {
-				b = append(b, offGrid)
-				continue
-			}
-			g := &row[x]
+		off(xs, min(xe, -1))
+		row := rt.g[y*rt.w+lo : y*rt.w+hi+1]
+		for i := range row {
+			g := &row[i]
 			fl := byte(g.flags&0x3f) | byte(g.flags&fStub>>2) // the faded flags left out
 			foreign := k.foreign(g)
 			if foreign {
 				fl |= 0x80 // only in the long form, whose third byte it is
 			}
 			if g.own[0]|g.own[1]|g.resv == 0 && g.arm[0]|g.arm[1] == 0 && !foreign {
-				b = append(b, fl) // no wire, nothing reserved: most of the grid
+				b[n] = fl // no wire, nothing reserved: most of the grid
+				n++
 				continue
 			}
-			b = append(b, withNets|whose(g.own[0], net)|whose(g.own[1], net)<<2|whose(g.resv, net)<<4,
-				g.arm[0]|g.arm[1]<<4, fl)
+			b[n] = withNets | whose(g.own[0], net) | whose(g.own[1], net)<<2 | whose(g.resv, net)<<4
+			b[n+1], b[n+2] = g.arm[0]|g.arm[1]<<4, fl
+			n += 3
 		}
+		off(max(xs, rt.w), xe)
 	}
-	rt.sc.key = b
-	return digest(b)
+	return b[:n]
 }
 
 // The key's point codes: a point without wire or reservation is its flags
