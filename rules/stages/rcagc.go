@@ -252,7 +252,7 @@ func (x *figCtx) lagPiece(from, to string) *graph.Circuit {
 	w := x.w
 	fi, fok := w.netID[from]
 	ti, tok := w.netID[to]
-	if !fok || !tok || fi == groundNet || ti == groundNet || w.role[fi].IsACGround() {
+	if solveWide || !fok || !tok || fi == groundNet || ti == groundNet || w.role[fi].IsACGround() {
 		return freedWhole(w.c, to) // no piece to cut: the whole, as before
 	}
 	keep := w.reach([]int{fi, ti}, nil, true)
