@@ -258,7 +258,11 @@ func (x *figCtx) lagPiece(from, to string) *graph.Circuit {
 	keep := w.reach([]int{fi, ti}, nil, true)
 	sub := x.cutFreed(keep, []string{from, to}, []string{to})
 	if x.keepsDiode(keep) {
-		sub.DetectorLoads = withLoads(w.c.DetectorLoads, ac.DetectorLoads(freedWhole(w.c, to), sub.Parts))
+		dc, ok := x.dcCut(keep, -1, []string{to})
+		if !ok {
+			dc = freedWhole(w.c, to)
+		}
+		sub.DetectorLoads = withLoads(w.c.DetectorLoads, ac.DetectorLoads(dc, sub.Parts))
 	}
 	return sub
 }

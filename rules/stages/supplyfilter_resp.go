@@ -34,11 +34,15 @@ func (x *figCtx) filterResponse(in, out int) (*ac.Response, error) {
 		// of the matrix its driven rail reaches in either, with those loads
 		// (each elaboration of the wide one took a DC load for every
 		// detector of the set, which grew with its square).
-		wide := x.cutFreed(x.filterParts(in, out, false), ends, ends)
 		if solveWide {
+			wide := x.cutFreed(x.filterParts(in, out, false), ends, ends)
 			return ac.NewTransfer(wide, inName, outName, gangMid.options())
 		}
-		sub.DetectorLoads = withLoads(x.w.c.DetectorLoads, ac.DetectorLoads(wide, sub.Parts))
+		dc, ok := x.dcCut(keep, in, ends)
+		if !ok {
+			dc = x.cutFreed(x.filterParts(in, out, false), ends, ends)
+		}
+		sub.DetectorLoads = withLoads(x.w.c.DetectorLoads, ac.DetectorLoads(dc, sub.Parts))
 	}
 	return ac.NewTransfer(sub, inName, outName, gangMid.options())
 }
@@ -154,7 +158,7 @@ func (w *world) reach(from, stop []int, atGround bool) []int {
 // idx: the solver gives it its DC load from the circuit's DC paths.
 func (x *figCtx) keepsDiode(idx []int) bool {
 	for _, ci := range idx {
-		if p := x.w.parts[ci]; p.Kind == graph.Diode || p.Kind == graph.Valve && (p.Type == "diode" || p.Type == "double-diode") {
+		if isDiode(x.w.parts[ci]) {
 			return true
 		}
 	}
