@@ -171,7 +171,10 @@ func (f *flow) tooBig(a, b int, cw, ch float64) bool {
 		return false // laid out with the untangle search: no least box
 	}
 	over := func(sh *Sheet) bool {
-		r, ok := layout.LeastBounds(sh.Circuit, f.cfg.options(sh))
+		r, ok, pl := layout.LeastBoundsPlaced(sh.Circuit, f.cfg.options(sh))
+		if pl != nil {
+			sh.placed = pl // the row's layout, if it is laid out, starts from it
+		}
 		return ok && (r.W() > cw || r.H() > ch)
 	}
 	if a == 0 && b == len(f.bs) {
@@ -232,6 +235,7 @@ func rowKey(sh *Sheet) string {
 // frame's span), not the whole sheet's.
 func (f *flow) sheet(a, b int, through bool) *Sheet {
 	sub := *f.s
+	sub.placed = nil // the whole sheet's, not the row's
 	keep := map[string]bool{}
 	var parts []*graph.Part
 	for _, bl := range f.bs[a:b] {

@@ -162,6 +162,10 @@ type Sheet struct {
 	// fromFirst ranks a row from its first part, not from the nets that
 	// come in (layout.Options.RankFromFirst)
 	fromFirst bool
+	// placed is the sheet placed without routing for its extents or its
+	// least box, which its layout takes instead of placing it again
+	// (layout.Options.Placed); nil once laid out, and on a copy.
+	placed *layout.Placement
 }
 
 // Tie is where a static valve electrode is held (render/symbol).
@@ -199,7 +203,9 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 	if s == nil || s.Circuit == nil {
 		return nil, fmt.Errorf("render: no circuit to draw")
 	}
-	r, err := layout.Layout(s.Circuit, cfg.options(s))
+	o := cfg.options(s)
+	o.Placed, s.placed = s.placed, nil // a placement is laid out once
+	r, err := layout.Layout(s.Circuit, o)
 	if err != nil {
 		return nil, fmt.Errorf("render: %w", err)
 	}
@@ -294,7 +300,7 @@ func placedTooBig(placed map[string]geom.Rect, p *Paper, widths float64) bool {
 // once.
 func (cfg Config) FprintFitPages(s *Sheet, p *Paper, widths float64) (pages [][]byte, mm []float64, paged bool, err error) {
 	if s != nil && s.Circuit != nil {
-		cfg.placed = cfg.extents(s)
+		cfg.placed, s.placed = layout.ExtentsPlaced(s.Circuit, cfg.options(s))
 	}
 	one, fits, err := cfg.FprintFit(s, p, widths)
 	if err != nil || fits {

@@ -107,7 +107,19 @@ type Options struct {
 	// SupplyFlow gives, on a row of a paged sheet, each supply part's step
 	// along the whole sheet's supply flow (SupplyFlow); nil: found here.
 	SupplyFlow map[string]int
+	// Placed is the plain placement of the same circuit with the same
+	// options, made by Extents or LeastBounds: Layout takes it instead of
+	// placing the circuit again (nil: placed here).
+	Placed *Placement
 }
+
+// Placement is a circuit placed without routing (Extents, LeastBounds),
+// kept for the Layout of the same circuit with the same options: placing
+// is deterministic, so it is the placement Layout would make. A paged
+// sheet's row is placed to test its fit and then laid out, and a sheet
+// that fits is placed for its extents and then laid out. Layout takes it
+// for one layout only, as the layout adds to what it holds.
+type Placement struct{ ly *state }
 
 // notConnected is the netlist format's net for a terminal that is really not
 // connected (docs/netlist.md): it never joins the pins on it, so it is never

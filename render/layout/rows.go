@@ -49,12 +49,18 @@ func connectorShape(cl *cell) symbol.Shape {
 // footprint: enough to decide where a sheet may be
 // cut into rows, at a small part of the cost of a layout.
 func Extents(c *graph.Circuit, o Options) map[string]geom.Rect {
+	out, _ := ExtentsPlaced(c, o)
+	return out
+}
+
+// ExtentsPlaced is Extents and the placement it made (Options.Placed).
+func ExtentsPlaced(c *graph.Circuit, o Options) (map[string]geom.Rect, *Placement) {
 	ly := place(c, o, nil, false)
 	out := make(map[string]geom.Rect, len(ly.cells))
 	for _, cl := range ly.cells {
 		out[cl.ref] = cl.footprint()
 	}
-	return out
+	return out, &Placement{ly: ly}
 }
 
 // LeastBounds is a box that Layout's Bounds for the same circuit and
@@ -66,8 +72,15 @@ func Extents(c *graph.Circuit, o Options) map[string]geom.Rect {
 // figures placed at the pins (trimDCLine), so labels are left out. The
 // untangle search may take another placement, so there is no such box.
 func LeastBounds(c *graph.Circuit, o Options) (geom.Rect, bool) {
+	r, ok, _ := LeastBoundsPlaced(c, o)
+	return r, ok
+}
+
+// LeastBoundsPlaced is LeastBounds and the placement it made
+// (Options.Placed), nil when there is no least box.
+func LeastBoundsPlaced(c *graph.Circuit, o Options) (geom.Rect, bool, *Placement) {
 	if o.Untangle || c == nil {
-		return geom.Rect{}, false
+		return geom.Rect{}, false, nil
 	}
 	ly := place(c, o, nil, false)
 	b := geom.Rect{}
@@ -80,7 +93,7 @@ func LeastBounds(c *graph.Circuit, o Options) (geom.Rect, bool) {
 	for _, f := range ly.frames {
 		b = b.Union(f.Box)
 	}
-	return b, true
+	return b, true, &Placement{ly: ly}
 }
 
 // Moved is the result shifted by d: rows are laid out at the origin and

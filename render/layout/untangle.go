@@ -144,7 +144,12 @@ type untangler struct {
 // layout places the circuit with the given changes and routes it, unless
 // the same placement was routed before.
 func (u *untangler) layout(turns map[string]int, free bool) *routed {
-	ly := place(u.c, u.o, turns, free)
+	var ly *state
+	if p := u.o.Placed; p != nil && turns == nil && !free && !u.shortFirst {
+		ly, u.o.Placed = p.ly, nil // the plain placement, made already
+	} else {
+		ly = place(u.c, u.o, turns, free)
+	}
 	ly.shortFirst = u.shortFirst
 	key := ly.key()
 	w, ok := u.seen[key]

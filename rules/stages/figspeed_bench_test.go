@@ -14,8 +14,9 @@ import (
 // BenchmarkStageFigures recognises the stages of whole sets and solves
 // their figures, as the main job does after its reduction: the flagship
 // example (123 parts) and synthetic receiver banks of 1,010 parts (22
-// channels, internal/synth, seed 1) and of a tenth of that, whose ratio
-// is the phase's growth with the set. The loop searches ac remembers across
+// channels, internal/synth, seed 1), of a tenth and of ten times that,
+// whose ratios are the phase's growth with the set (run one with
+// -bench 'StageFigures/bank10000$'). The loop searches ac remembers across
 // the process are forgotten before each run, so every run solves them.
 func BenchmarkStageFigures(b *testing.B) {
 	lib, err := Builtin()
@@ -30,6 +31,10 @@ func BenchmarkStageFigures(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
+	big, err := synth.Bank(10000, 1)
+	if err != nil {
+		b.Fatal(err)
+	}
 	for _, set := range []struct {
 		name string
 		load func() (*graph.Circuit, error)
@@ -39,6 +44,7 @@ func BenchmarkStageFigures(b *testing.B) {
 		}},
 		{"bank100", func() (*graph.Circuit, error) { return graph.Parse("bank100.toml", small) }},
 		{"bank1000", func() (*graph.Circuit, error) { return graph.Parse("bank1000.toml", bank) }},
+		{"bank10000", func() (*graph.Circuit, error) { return graph.Parse("bank10000.toml", big) }},
 	} {
 		full, err := set.load()
 		if err != nil {
