@@ -10,8 +10,9 @@ import (
 // the parts their DC paths can run through (resistors, pots, coils and
 // windings, switches), reached from the diodes' nets without passing a net
 // that returns DC (ground, a supply or heater rail, a bias supply with a
-// voltage: the solver's DC returns, the nets freed excepted), with the
-// nets those parts touch. A diode's DC load is the resistance of its own
+// voltage: the solver's DC returns, the nets freed excepted), each part
+// followed only along what it joins for DC (dcStep), with the nets those
+// parts touch. A diode's DC load is the resistance of its own
 // DC network, which the rest of the set does not meet: the solver's DC
 // network of a wider circuit is this one beside others that share no node
 // with it, numbered and ordered alike (block by block), so it gives the
@@ -57,9 +58,16 @@ func (x *figCtx) dcCut(idx []int, stop int, freed []string) (c *graph.Circuit, o
 			continue
 		}
 		for _, cj := range w.conns[id] {
-			if passesDC(w.parts[cj]) {
-				add(cj)
-			}
+			x.dcStep(cj, id, func(o int) {
+				if !in[cj] {
+					in[cj] = true
+					cut = append(cut, cj)
+				}
+				if !seen[o] {
+					seen[o] = true
+					frontier = append(frontier, o)
+				}
+			})
 		}
 	}
 	slices.Sort(cut)
@@ -83,16 +91,65 @@ func (x *figCtx) returnsDC(id int, freed []string) bool {
 	return false
 }
 
-// passesDC tells whether a part is in the solver's DC network: a
-// resistor, pot, coil, transformer or switch (capacitors, diodes and
-// amplifying parts pass no DC there).
-func passesDC(p *graph.Part) bool {
-	switch p.Kind {
-	case graph.Resistor, graph.Pot, graph.Inductor, graph.Transformer, graph.Switch:
-		return true
+// dcStep calls to with each net part ci joins net id to in the solver's DC
+// network: through a resistor or a pot's track, along a coil or one of a
+// transformer's windings (not from one winding to another), across a
+// switch's closed contacts. Capacitors, diodes and amplifying parts pass
+// no DC there, and an unconnected terminal joins nothing.
+func (x *figCtx) dcStep(ci, id int, to func(int)) {
+	w := x.w
+	p := w.parts[ci]
+	for j, at := range w.pins[ci] {
+		if at != id || !usable(p.Pins[j].Net) {
+			continue
+		}
+		for _, other := range dcJoined(p, p.Pins[j].Name) {
+			if n := p.NetOf(other); usable(n) {
+				if o, ok := w.netID[n]; ok {
+					to(o)
+				}
+			}
+		}
 	}
-	return false
 }
+
+// dcJoined is the pins a part joins pin to for DC (as ac's DC network
+// stamps it).
+func dcJoined(p *graph.Part, pin string) []string {
+	var out []string
+	pair := func(a, b string) {
+		switch pin {
+		case a:
+			out = append(out, b)
+		case b:
+			out = append(out, a)
+		}
+	}
+	switch p.Kind {
+	case graph.Resistor:
+		pair("1", "2")
+	case graph.Pot:
+		pair("1", "w")
+		pair("w", "2")
+	case graph.Inductor, graph.Transformer:
+		if len(p.Windings) == 0 {
+			pair("1", "2")
+		}
+		for _, wd := range p.Windings {
+			pair(wd.From, wd.To)
+		}
+	case graph.Switch:
+		if pos := int(p.Set); pos >= 1 && pos <= len(p.Closes) {
+			for _, c := range p.Closes[pos-1] {
+				pair(c[0], c[1])
+			}
+		}
+	}
+	return out
+}
+
+// usable is a net that joins something: not empty, not "nc".
+func usable(net string) bool { return net != "" && net != "nc" }
 
 // isDiode tells whether a part is a diode or a valve diode, whose DC load
 // the solver takes from the DC paths.
