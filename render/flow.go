@@ -33,6 +33,10 @@ type flow struct {
 	rows       map[string]*layout.Result
 	supplyFlow map[string]int // the whole sheet's (layout.SupplyFlow)
 	cw, ch     float64        // the page's room for a row (0: no page)
+	// starts are the rows, by index, that open a page where the rows
+	// were chosen with their pages (balance); nil: rows stack on a page
+	// while they fit
+	starts map[int]bool
 }
 
 // newFlow starts the flow of the sheet's stretches; rows are the rows an

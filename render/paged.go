@@ -96,7 +96,7 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 		// a row too big for the page (a stage never cut) has a page of
 		// its own, drawn smaller: the rows beside it keep the paper's scale
 		big := b.W() > cw || b.H() > avail
-		if n := len(ys); n == 0 || ys[n-1]+b.H() > avail || big {
+		if n := len(ys); n == 0 || ys[n-1]+b.H() > avail || big || f.starts[i] {
 			pages, ys = append(pages, &layout.Result{}), append(ys, 0)
 		}
 		n := len(ys) - 1
@@ -157,6 +157,9 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 		}
 		more := pieceOut(bs, ends, laid, cw, ch)
 		if more == nil {
+			if ends, laid, f.starts, err = f.balance(ends, laid, cw, ch); err != nil {
+				return nil, nil, nil, err
+			}
 			return cfg.hostLoose(f, ends, laid, cw, ch)
 		}
 		bs = more

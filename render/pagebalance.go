@@ -1,0 +1,318 @@
+package render
+
+import (
+	"pare/graph"
+	"pare/render/layout"
+)
+
+// balanceMost is the most stretches a sheet may have for its rows and
+// pages to be chosen by the search below: a small set (one amplifier, an
+// IF strip) whose greedy flow left a page of two parts or took a page more
+// than it needs. A whole set keeps the greedy flow: the search lays out
+// rows the greedy flow never tries, and a set of a hundred stretches would
+// lay out thousands.
+const balanceMost = 12
+
+// plan is a way to cut a sheet's stretches into rows and the rows onto
+// pages, with what it is judged by: fewer pages first, then the most parts
+// on its emptiest page (no page of leftovers beside full ones), then fewer
+// rows, then later page breaks (the first pages the fuller).
+type plan struct {
+	pages, least, rows int
+	ends               []int // where each row ends
+	starts             []int // the rows, by index, that open a page
+	ok                 bool
+}
+
+// better says whether plan p beats q.
+func (p plan) better(q plan) bool {
+	switch {
+	case !q.ok:
+		return p.ok
+	case !p.ok:
+		return false
+	case p.pages != q.pages:
+		return p.pages < q.pages
+	case p.least != q.least:
+		return p.least > q.least
+	case p.rows != q.rows:
+		return p.rows < q.rows
+	}
+	return lastBreakLater(p.starts, q.starts)
+}
+
+// lastBreakLater says whether the last page break of a (row index) comes
+// after b's, on plans of the same number of rows.
+func lastBreakLater(a, b []int) bool {
+	if len(a) == 0 || len(b) == 0 {
+		return false
+	}
+	return a[len(a)-1] > b[len(b)-1]
+}
+
+// balance is the greedy flow's rows (ends, laid) replaced, on a small
+// sheet of several pages, by the rows and page breaks of the best plan
+// (plan.better) when it beats the greedy one: b04 of the blind review
+// (an IF strip, detector and audio) had a second page holding a volume
+// control and a coupling capacitor, where the strip's two stages fill one
+// page and the detector and audio one row of the next. The greedy flow
+// fills each row, then each page, and so cannot move a stage from a full
+// row to balance the pages. Every row tried is laid out (and kept: a row
+// depends only on the stretches it holds and those before and after it),
+// so a plan's rows and heights are the ones drawn. starts marks the rows
+// that open a page (nil: the greedy stacking of pageResults).
+func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]int, []*layout.Result, map[int]bool, error) {
+	m := len(f.bs)
+	loose := looseRow(f.bs, ends)
+	if loose >= 0 {
+		if loose != len(ends)-1 {
+			return ends, laid, nil, nil
+		}
+		m-- // the loose parts' row stays last, for hostLoose
+	}
+	if m > balanceMost || m < 2 {
+		return ends, laid, nil, nil
+	}
+	greedy := f.greedyPlan(ends, laid, loose, cw, avail)
+	if greedy.pages < 2 || !f.worthSearch(greedy, ends, laid, loose, m) {
+		return ends, laid, nil, nil
+	}
+	s := &search{f: f, m: m, cw: cw, avail: avail, rows: map[[2]int]rowFit{}}
+	best, err := s.best()
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	if !best.ok || best.pages > greedy.pages || best.pages == greedy.pages && best.least <= greedy.least {
+		return ends, laid, nil, nil
+	}
+	var out []*layout.Result
+	for i, e := range best.ends {
+		r, err := f.layout(start(best.ends, i), e)
+		if err != nil {
+			return nil, nil, nil, err
+		}
+		out = append(out, r)
+	}
+	nends := best.ends
+	if loose >= 0 {
+		nends = append(append([]int{}, nends...), len(f.bs))
+		out = append(out, laid[loose])
+	}
+	starts := map[int]bool{}
+	for _, r := range best.starts {
+		starts[r] = true
+	}
+	return nends, out, starts, nil
+}
+
+// greedyPlan judges the greedy flow's rows as pageResults stacks them.
+func (f *flow) greedyPlan(ends []int, laid []*layout.Result, loose int, cw, avail float64) plan {
+	p := plan{ok: true, least: -1}
+	used, parts := 0.0, 0
+	for i, r := range laid {
+		if i == loose {
+			continue
+		}
+		b := r.Geom.Bounds
+		big := b.W() > cw || b.H() > avail
+		if p.pages == 0 || used+b.H() > avail || big || used < 0 {
+			if p.pages > 0 {
+				p.least = leastOf(p.least, parts)
+			}
+			p.pages, used, parts = p.pages+1, 0, 0
+			p.starts = append(p.starts, p.rows)
+		}
+		used += b.H() + rowGap
+		if big {
+			used = -1 // a page of its own
+		}
+		parts += f.partsIn(start(ends, i), ends[i])
+		p.rows++
+	}
+	p.least = leastOf(p.least, parts)
+	return p
+}
+
+// worthSearch says whether the greedy plan may be beaten, so the rows it
+// never tried are worth laying out: its rows' heights stacked would go on
+// a page fewer, or its emptiest page holds less than a third of the parts
+// a page holds on average (a volume control and a coupling capacitor
+// after a page of IF stages).
+func (f *flow) worthSearch(p plan, ends []int, laid []*layout.Result, loose, m int) bool {
+	h := -rowGap
+	for i, r := range laid {
+		if i != loose {
+			h += r.Geom.Bounds.H() + rowGap
+		}
+	}
+	if h <= float64(p.pages-1)*f.ch {
+		return true
+	}
+	return 3*p.least*p.pages < f.partsIn(0, m)
+}
+
+// leastOf is the smaller count, a = -1 standing for none yet.
+func leastOf(a, b int) int {
+	if a < 0 || b < a {
+		return b
+	}
+	return a
+}
+
+// partsIn counts the parts (sockets aside) of the stretches [a, b).
+func (f *flow) partsIn(a, b int) int {
+	n := 0
+	for _, bl := range f.bs[a:b] {
+		for _, r := range bl.refs {
+			if p := f.part[r]; p != nil && p.Kind != graph.Port {
+				n++
+			}
+		}
+	}
+	return n
+}
+
+// rowFit is a row tried by the search: its height, whether it goes on a
+// page beside others (fits), and whether it may be drawn at all (a row of
+// several stretches must fit the page; a lone stretch too big for it has
+// a page of its own).
+type rowFit struct {
+	h          float64
+	ok, shares bool
+}
+
+// search is the choice of rows and pages for the stretches [0, m).
+type search struct {
+	f         *flow
+	m         int
+	cw, avail float64
+	rows      map[[2]int]rowFit
+}
+
+// cutAt says whether a row may start at stretch c: never at a port, which
+// stays with the stretch before it.
+func (s *search) cutAt(c int) bool { return c == 0 || c == s.m || !s.f.bs[c].port }
+
+// row lays out (or recalls) the row [a, b) and says how it fits.
+func (s *search) row(a, b int) (rowFit, error) {
+	k := [2]int{a, b}
+	if r, ok := s.rows[k]; ok {
+		return r, nil
+	}
+	var fit rowFit
+	if b-a == 1 || span(s.f.bs[a:b]) <= s.cw && !s.f.tooBig(a, b, s.cw, s.avail) {
+		r, err := s.f.layout(a, b)
+		if err != nil {
+			return fit, err
+		}
+		fit = rowFit{h: r.Geom.Bounds.H(), shares: fits(r, s.cw, s.avail)}
+		fit.ok = fit.shares || b-a == 1
+	}
+	s.rows[k] = fit
+	return fit, nil
+}
+
+// page is the best way to stack the stretches [a, b) as rows on one page:
+// the rows' ends and the fewest rows of least height, ok false when they
+// do not go on one page.
+func (s *search) page(a, b int, memo map[[2]int]stack) (stack, error) {
+	k := [2]int{a, b}
+	if st, ok := memo[k]; ok {
+		return st, nil
+	}
+	best := stack{}
+	for c := a + 1; c <= b; c++ {
+		if !s.cutAt(c) {
+			continue
+		}
+		if c > a+1 && span(s.f.bs[a:c]) > s.cw {
+			break
+		}
+		r, err := s.row(a, c)
+		if err != nil {
+			return best, err
+		}
+		if !r.ok {
+			continue
+		}
+		st := stack{ok: true, h: r.h, ends: []int{c}}
+		if !r.shares {
+			st.alone = true // a page of its own: nothing after it on the page
+		}
+		if c < b {
+			if st.alone {
+				continue
+			}
+			rest, err := s.page(c, b, memo)
+			if err != nil {
+				return best, err
+			}
+			if !rest.ok || rest.alone {
+				continue
+			}
+			st.h += rowGap + rest.h
+			st.ends = append(st.ends, rest.ends...)
+		}
+		if !st.alone && st.h > s.avail {
+			continue
+		}
+		if st.before(best) {
+			best = st
+		}
+	}
+	memo[k] = best
+	return best, nil
+}
+
+// stack is the rows of one page.
+type stack struct {
+	ok, alone bool
+	h         float64
+	ends      []int
+}
+
+// before says whether stack p beats q: fewer rows, then less height.
+func (p stack) before(q stack) bool {
+	switch {
+	case !q.ok:
+		return p.ok
+	case !p.ok:
+		return false
+	case len(p.ends) != len(q.ends):
+		return len(p.ends) < len(q.ends)
+	}
+	return p.h < q.h
+}
+
+// best is the best plan for the stretches [0, m): pages in turn, each
+// the best stack of its stretches (page).
+func (s *search) best() (plan, error) {
+	memo := map[[2]int]stack{}
+	at := make([]plan, s.m+1) // at[b]: the best plan of [0, b) with a page ending at b
+	at[0] = plan{ok: true, least: -1}
+	for b := 1; b <= s.m; b++ {
+		if !s.cutAt(b) {
+			continue
+		}
+		for a := 0; a < b; a++ {
+			if !at[a].ok || !s.cutAt(a) {
+				continue
+			}
+			st, err := s.page(a, b, memo)
+			if err != nil {
+				return plan{}, err
+			}
+			if !st.ok {
+				continue
+			}
+			p := plan{ok: true, pages: at[a].pages + 1, least: leastOf(at[a].least, s.f.partsIn(a, b)),
+				rows:   at[a].rows + len(st.ends),
+				ends:   append(append([]int{}, at[a].ends...), st.ends...),
+				starts: append(append([]int{}, at[a].starts...), at[a].rows)}
+			if p.better(at[b]) {
+				at[b] = p
+			}
+		}
+	}
+	return at[s.m], nil
+}
