@@ -33,8 +33,8 @@ func partsOnPage(g *geom.Sheet) int {
 // parts.
 func TestPagesBalanced(t *testing.T) {
 	cases := []struct {
-		file        string
-		view        render.View
+		file         string
+		view         render.View
 		pages, least int
 	}{
 		{"b03", render.Reduced, 2, 7}, // IF strip | detector, AGC filter, volume, coupling
