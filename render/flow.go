@@ -37,6 +37,15 @@ type flow struct {
 	// were chosen with their pages (balance); nil: rows stack on a page
 	// while they fit
 	starts map[int]bool
+	gap    float64 // between rows on a page, rowGap when 0 (balance)
+}
+
+// rowGap is the gap between rows on the flow's pages.
+func (f *flow) rowGap() float64 {
+	if f.gap > 0 {
+		return f.gap
+	}
+	return rowGap
 }
 
 // newFlow starts the flow of the sheet's stretches; rows are the rows an

@@ -5,6 +5,11 @@ import (
 	"pare/render/layout"
 )
 
+// tightGap is the gap between rows, in grid units (5.9 mm on paper), of a
+// small set's pages where rowGap's would take a page more: still two grid
+// steps, the least the checker lets unrelated wires run apart.
+const tightGap = 2.0
+
 // balanceMost is the most stretches a sheet may have for its rows and
 // pages to be chosen by the search below: a small set (one amplifier, an
 // IF strip) whose greedy flow left a page of two parts or took a page more
@@ -52,7 +57,7 @@ func lastBreakLater(a, b []int) bool {
 
 // balance is the greedy flow's rows (ends, laid) replaced, on a small
 // sheet of several pages, by the rows and page breaks of the best plan
-// (plan.better) when it beats the greedy one: b04 of the blind review
+// (plan.better) when it beats the greedy one: b03 of the blind review
 // (an IF strip, detector and audio) had a second page holding a volume
 // control and a coupling capacitor, where the strip's two stages fill one
 // page and the detector and audio one row of the next. The greedy flow
@@ -62,58 +67,84 @@ func lastBreakLater(a, b []int) bool {
 // so a plan's rows and heights are the ones drawn. starts marks the rows
 // that open a page (nil: the greedy stacking of pageResults).
 func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]int, []*layout.Result, map[int]bool, error) {
-	m := len(f.bs)
+	m, n := len(f.bs), len(ends)
 	loose := looseRow(f.bs, ends)
 	if loose >= 0 {
-		if loose != len(ends)-1 {
+		if loose != n-1 {
 			return ends, laid, nil, nil
 		}
-		m-- // the loose parts' row stays last, for hostLoose
+		m, n = m-1, n-1 // the loose parts' row stays last, for hostLoose
 	}
-	if m > balanceMost || m < 2 {
+	all := f.greedyPlan(ends, laid, 0, n, cw, avail)
+	if all.pages < 2 {
 		return ends, laid, nil, nil
 	}
-	greedy := f.greedyPlan(ends, laid, loose, cw, avail)
-	if greedy.pages < 2 || !f.worthSearch(greedy, ends, laid, loose, m) {
+	// the window searched: the whole sheet when small, else its last two
+	// pages (a whole set's last page of one Zobel network)
+	w := 0
+	if m > balanceMost {
+		w = all.starts[len(all.starts)-2]
+	}
+	lo := start(ends, w)
+	greedy := f.greedyPlan(ends, laid, w, n, cw, avail)
+	if m-lo > balanceMost || !f.worthSearch(greedy, laid[w:n], lo, m) {
 		return ends, laid, nil, nil
 	}
-	s := &search{f: f, m: m, cw: cw, avail: avail, rows: map[[2]int]rowFit{}}
-	best, err := s.best()
-	if err != nil {
-		return nil, nil, nil, err
+	best, err := f.search(greedy, lo, m, cw, avail)
+	if err != nil || !best.ok {
+		return ends, laid, nil, err
 	}
-	if !best.ok || best.pages > greedy.pages || best.pages == greedy.pages && best.least <= greedy.least {
-		return ends, laid, nil, nil
-	}
-	var out []*layout.Result
-	for i, e := range best.ends {
-		r, err := f.layout(start(best.ends, i), e)
+	nends := append(append([]int{}, ends[:w]...), best.ends...)
+	out := append([]*layout.Result{}, laid[:w]...)
+	for i := w; i < len(nends); i++ {
+		r, err := f.layout(start(nends, i), nends[i])
 		if err != nil {
 			return nil, nil, nil, err
 		}
 		out = append(out, r)
 	}
-	nends := best.ends
 	if loose >= 0 {
-		nends = append(append([]int{}, nends...), len(f.bs))
+		nends = append(nends, len(f.bs))
 		out = append(out, laid[loose])
 	}
+	// the window's first row may still go under the last row before it,
+	// as the greedy stacking puts it where it fits: never a page more
 	starts := map[int]bool{}
 	for _, r := range best.starts {
-		starts[r] = true
+		if w == 0 || r > 0 {
+			starts[w+r] = true
+		}
 	}
 	return nends, out, starts, nil
 }
 
-// greedyPlan judges the greedy flow's rows as pageResults stacks them.
-func (f *flow) greedyPlan(ends []int, laid []*layout.Result, loose int, cw, avail float64) plan {
+// search is the best plan of the stretches [lo, m) that beats greedy's:
+// with the rows rowGap apart, one with fewer pages or a fuller emptiest
+// page; with them tightGap apart, only one with fewer pages. It sets the
+// flow's gap to the plan's.
+func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
+	rows := map[[2]int]rowFit{}
+	for _, gap := range []float64{rowGap, tightGap} {
+		s := &search{f: f, lo: lo, m: m, cw: cw, avail: avail, gap: gap, rows: rows}
+		p, err := s.best()
+		if err != nil {
+			return plan{}, err
+		}
+		if p.ok && (p.pages < greedy.pages || gap == rowGap && p.pages == greedy.pages && p.least > greedy.least) {
+			f.gap = gap
+			return p, nil
+		}
+	}
+	return plan{}, nil
+}
+
+// greedyPlan judges the greedy flow's rows [w, n) as pageResults stacks
+// them; its starts count rows from w.
+func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail float64) plan {
 	p := plan{ok: true, least: -1}
 	used, parts := 0.0, 0
-	for i, r := range laid {
-		if i == loose {
-			continue
-		}
-		b := r.Geom.Bounds
+	for i := w; i < n; i++ {
+		b := laid[i].Geom.Bounds
 		big := b.W() > cw || b.H() > avail
 		if p.pages == 0 || used+b.H() > avail || big || used < 0 {
 			if p.pages > 0 {
@@ -138,17 +169,15 @@ func (f *flow) greedyPlan(ends []int, laid []*layout.Result, loose int, cw, avai
 // a page fewer, or its emptiest page holds less than a third of the parts
 // a page holds on average (a volume control and a coupling capacitor
 // after a page of IF stages).
-func (f *flow) worthSearch(p plan, ends []int, laid []*layout.Result, loose, m int) bool {
-	h := -rowGap
-	for i, r := range laid {
-		if i != loose {
-			h += r.Geom.Bounds.H() + rowGap
-		}
+func (f *flow) worthSearch(p plan, laid []*layout.Result, lo, m int) bool {
+	h := -tightGap
+	for _, r := range laid {
+		h += r.Geom.Bounds.H() + tightGap
 	}
 	if h <= float64(p.pages-1)*f.ch {
 		return true
 	}
-	return 3*p.least*p.pages < f.partsIn(0, m)
+	return 3*p.least*p.pages < f.partsIn(lo, m)
 }
 
 // leastOf is the smaller count, a = -1 standing for none yet.
@@ -183,15 +212,15 @@ type rowFit struct {
 
 // search is the choice of rows and pages for the stretches [0, m).
 type search struct {
-	f         *flow
-	m         int
-	cw, avail float64
-	rows      map[[2]int]rowFit
+	f              *flow
+	lo, m          int     // the stretches [lo, m)
+	cw, avail, gap float64 // gap: between rows on a page
+	rows           map[[2]int]rowFit
 }
 
 // cutAt says whether a row may start at stretch c: never at a port, which
 // stays with the stretch before it.
-func (s *search) cutAt(c int) bool { return c == 0 || c == s.m || !s.f.bs[c].port }
+func (s *search) cutAt(c int) bool { return c == s.lo || c == s.m || !s.f.bs[c].port }
 
 // row lays out (or recalls) the row [a, b) and says how it fits.
 func (s *search) row(a, b int) (rowFit, error) {
@@ -250,7 +279,7 @@ func (s *search) page(a, b int, memo map[[2]int]stack) (stack, error) {
 			if !rest.ok || rest.alone {
 				continue
 			}
-			st.h += rowGap + rest.h
+			st.h += s.gap + rest.h
 			st.ends = append(st.ends, rest.ends...)
 		}
 		if !st.alone && st.h > s.avail {
@@ -284,17 +313,17 @@ func (p stack) before(q stack) bool {
 	return p.h < q.h
 }
 
-// best is the best plan for the stretches [0, m): pages in turn, each
+// best is the best plan for the stretches [lo, m): pages in turn, each
 // the best stack of its stretches (page).
 func (s *search) best() (plan, error) {
 	memo := map[[2]int]stack{}
-	at := make([]plan, s.m+1) // at[b]: the best plan of [0, b) with a page ending at b
-	at[0] = plan{ok: true, least: -1}
-	for b := 1; b <= s.m; b++ {
+	at := make([]plan, s.m+1) // at[b]: the best plan of [lo, b) with a page ending at b
+	at[s.lo] = plan{ok: true, least: -1}
+	for b := s.lo + 1; b <= s.m; b++ {
 		if !s.cutAt(b) {
 			continue
 		}
-		for a := 0; a < b; a++ {
+		for a := s.lo; a < b; a++ {
 			if !at[a].ok || !s.cutAt(a) {
 				continue
 			}

@@ -101,7 +101,7 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 		}
 		n := len(ys) - 1
 		pages[n].Add(r.Moved(geom.Pt{X: -b.X0, Y: ys[n] - b.Y0}))
-		ys[n] += b.H() + rowGap
+		ys[n] += b.H() + f.rowGap()
 		if big {
 			ys[n] = math.Inf(1)
 		}

@@ -145,7 +145,7 @@ func (cfg Config) hostLoose(f *flow, ends []int, laid []*layout.Result, cw, ch f
 			k--
 		}
 		g := newFlow(cfg, f.s, bs, f.rows)
-		g.starts = f.starts // the loose row was the last: the rows before keep their index
+		g.starts, g.gap = f.starts, f.gap // the loose row was the last: the rows before keep their index
 		r, err := g.layout(start(nends, k), nends[k])
 		if err != nil {
 			return nil, nil, nil, err

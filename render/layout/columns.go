@@ -157,6 +157,13 @@ func (ly *state) stages() map[string]int {
 			queue = append(queue, cl)
 		}
 	}
+	dev := ly.deviceStages(stageOf, byNet)
+	for _, cl := range ly.cells {
+		if s, ok := dev[cl]; ok {
+			st[cl.ref] = s
+			queue = append(queue, cl)
+		}
+	}
 	for len(queue) > 0 {
 		cl := queue[0]
 		queue = queue[1:]
