@@ -278,6 +278,7 @@ func (f *flow) sheet(a, b int, through bool) *Sheet {
 	}
 	sub.continues = f.continues(parts, a, b, through)
 	sub.supplyFlow = f.supplyFlow
+	sub.row = true
 	return &sub
 }
 

@@ -130,6 +130,15 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		}
 	}
 	with := beside(s.Circuit, blockOf)
+	if rides := deviceRides(s.Circuit, blockOf, with, ext); len(rides) > 0 {
+		for _, p := range s.Circuit.Parts {
+			if i, ok := rides[p.Ref]; ok && !framed[p.Ref] {
+				framed[p.Ref] = true
+				ride(s.Circuit, &bs[i], p)
+			}
+		}
+		with = beside(s.Circuit, blockOf)
+	}
 	var loose, sockets []*graph.Part
 	for _, p := range s.Circuit.Parts {
 		if framed[p.Ref] || ext[p.Ref] == (geom.Rect{}) {

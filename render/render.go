@@ -166,6 +166,8 @@ type Sheet struct {
 	// least box, which its layout takes instead of placing it again
 	// (layout.Options.Placed); nil once laid out, and on a copy.
 	placed *layout.Placement
+	// row is set on a row of a paged sheet (flow.sheet)
+	row bool
 }
 
 // Tie is where a static valve electrode is held (render/symbol).
@@ -232,6 +234,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	o.Continues = s.continues
 	o.SupplyFlow = s.supplyFlow
 	o.RankFromFirst = s.fromFirst
+	o.DeviceStages = s.row
 	for _, f := range s.Frames {
 		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts, Places: f.Places, Supply: f.Supply})
 	}

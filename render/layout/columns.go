@@ -150,6 +150,34 @@ func (ly *state) stages() map[string]int {
 		return 0, false
 	}
 	byNet := ly.cellsByNet()
+	st = ly.spread(stageOf, byNet, nil)
+	if ly.o.DeviceStages {
+		if dev := ly.deviceStages(stageOf, byNet, st); len(dev) > 0 {
+			st = ly.spread(stageOf, byNet, dev)
+		}
+	}
+	ly.railStages(st, stageOf)
+	for cp, t := range ly.tankOf {
+		// a tank capacitor no frame holds stands in its winding's stage
+		if _, framed := stageOf(cp); !framed {
+			if s, ok := st[t.coil.ref]; ok {
+				st[cp.ref] = s
+			}
+		}
+	}
+	for _, cl := range ly.cells {
+		if _, ok := st[cl.ref]; !ok && cl.edge == 0 {
+			st[cl.ref] = len(ly.o.Frames)
+		}
+	}
+	return st
+}
+
+// spread gives the framed parts their frame's stage, the parts in dev
+// theirs, and every part they reach through unframed parts the stage of
+// the nearest, breadth first in the cells' order.
+func (ly *state) spread(stageOf func(*cell) (int, bool), byNet map[string][]*cell, dev map[*cell]int) map[string]int {
+	st := map[string]int{}
 	var queue []*cell
 	for _, cl := range ly.cells {
 		if s, ok := stageOf(cl); ok && cl.part.Kind != graph.Port {
@@ -157,7 +185,6 @@ func (ly *state) stages() map[string]int {
 			queue = append(queue, cl)
 		}
 	}
-	dev := ly.deviceStages(stageOf, byNet)
 	for _, cl := range ly.cells {
 		if s, ok := dev[cl]; ok {
 			st[cl.ref] = s
@@ -174,20 +201,6 @@ func (ly *state) stages() map[string]int {
 					queue = append(queue, nb)
 				}
 			}
-		}
-	}
-	ly.railStages(st, stageOf)
-	for cp, t := range ly.tankOf {
-		// a tank capacitor no frame holds stands in its winding's stage
-		if _, framed := stageOf(cp); !framed {
-			if s, ok := st[t.coil.ref]; ok {
-				st[cp.ref] = s
-			}
-		}
-	}
-	for _, cl := range ly.cells {
-		if _, ok := st[cl.ref]; !ok && cl.edge == 0 {
-			st[cl.ref] = len(ly.o.Frames)
 		}
 	}
 	return st

@@ -2,7 +2,7 @@ package layout
 
 import "pare/graph"
 
-// deviceStages gives the unframed parts wired to a framed device's
+// deviceStages (Options.DeviceStages: a row of a paged sheet) gives the unframed parts wired to a framed device's
 // electrode, or to the far end of a winding whose other end is on a
 // framed device's control electrode (a base or grid fed through a coupling
 // winding), that device's stage, where the parts so wired reach only one
@@ -14,11 +14,17 @@ import "pare/graph"
 // end, stood in the AGC filter's frame a sheet away from Q1, and b02's
 // base bias network, at the cold end of the aerial coupling winding whose
 // hot end feeds Q1's base, in the aerial stage's frame on another page.
-func (ly *state) deviceStages(stageOf func(*cell) (int, bool), byNet map[string][]*cell) map[*cell]int {
-	cand := map[*cell]int{} // -1: parts of more than one stage reached
+func (ly *state) deviceStages(stageOf func(*cell) (int, bool), byNet map[string][]*cell, plain map[string]int) map[*cell]int {
+	cand := map[*cell]int{}   // -1: parts of more than one stage reached
+	devices := map[int]bool{} // the stages holding a device
+	for _, d := range ly.cells {
+		if s, framed := stageOf(d); framed && d.part.IsActive() {
+			devices[s] = true
+		}
+	}
 	offer := func(n string, s int) {
 		for _, nb := range byNet[n] {
-			if _, framed := stageOf(nb); framed || nb.edge != 0 || nb.part.Kind == graph.Port || !ly.takes(s, nb) {
+			if _, framed := stageOf(nb); framed || nb.edge != 0 || !biasKind(nb.part) || !ly.takes(s, nb) {
 				continue
 			}
 			if c, ok := cand[nb]; ok && c != s {
@@ -34,15 +40,12 @@ func (ly *state) deviceStages(stageOf func(*cell) (int, bool), byNet map[string]
 			continue
 		}
 		for _, pn := range d.part.Pins {
-			if !ly.wiredSignal(pn.Net) {
+			if !ly.wiredSignal(pn.Net) || graph.RoleOfPin(d.part.Kind, pn.Name) != graph.RoleControl {
 				continue
 			}
 			offer(pn.Net, s)
-			if graph.RoleOfPin(d.part.Kind, pn.Name) != graph.RoleControl {
-				continue
-			}
 			for _, w := range byNet[pn.Net] {
-				for _, far := range farEnds(w.part, pn.Net) {
+				for _, far := range FarEnds(w.part, pn.Net) {
 					if ly.wiredSignal(far) {
 						offer(far, s)
 					}
@@ -51,11 +54,24 @@ func (ly *state) deviceStages(stageOf func(*cell) (int, bool), byNet map[string]
 		}
 	}
 	for c, s := range cand {
-		if s < 0 {
+		// only a part the plain spread gave a stage without a device
+		// (an AGC filter, an aerial tank) or none moves
+		if p, ok := plain[c.ref]; s < 0 || ok && (p == s || devices[p]) {
 			delete(cand, c)
 		}
 	}
 	return cand
+}
+
+// biasKind says whether p biases or couples into a control electrode: a
+// resistor, capacitor, coil or transformer (not a switch section, which
+// stands with the coils it switches, nor a socket).
+func biasKind(p *graph.Part) bool {
+	switch p.Kind {
+	case graph.Resistor, graph.Capacitor, graph.Inductor, graph.Transformer:
+		return true
+	}
+	return false
 }
 
 // wiredSignal says whether net n is wired and not at AC ground.
@@ -63,10 +79,10 @@ func (ly *state) wiredSignal(n string) bool {
 	return n != notConnected && n != "" && !ly.c.RoleOf(n).IsACGround()
 }
 
-// farEnds are the nets at the other end of each winding of coil or
+// FarEnds are the nets at the other end of each winding of coil or
 // transformer p that has one end on net n (a plain two-pin coil is one
 // winding).
-func farEnds(p *graph.Part, n string) []string {
+func FarEnds(p *graph.Part, n string) []string {
 	if p.Kind != graph.Inductor && p.Kind != graph.Transformer {
 		return nil
 	}

@@ -57,6 +57,11 @@ type Frame struct {
 // Options says what to draw.
 type Options struct {
 	Style symbol.Style
+	// DeviceStages stands an unframed part wired to a framed device's
+	// control electrode (or through a winding to it) in that device's
+	// stage where the plain spread gave it a stage without a device
+	// (deviceStages): set on the rows of a paged sheet.
+	DeviceStages bool
 	// Faded refs are drawn faded; Merged maps a ref to the part it went into.
 	Faded  map[string]bool
 	Merged map[string]string
