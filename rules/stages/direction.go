@@ -109,7 +109,7 @@ func (x *figCtx) loadsBeyond(shunts []*graph.Part) []string {
 			continue
 		}
 		for _, net := range x.w.pins[pi] {
-			if net == groundNet {
+			if net == groundNet || x.heldByMatch(net, pi) {
 				continue
 			}
 			for _, ci := range x.w.conns[net] {
@@ -140,4 +140,20 @@ func (x *figCtx) controlOnly(ci, net int) bool {
 		touches = true
 	}
 	return touches
+}
+
+// heldByMatch tells whether another part of the match ties net to AC
+// ground: the shunt's foot on a bypassed return (a cathode the pattern's
+// bypass holds), whose other parts load the bypass, not the section.
+func (x *figCtx) heldByMatch(net, shunt int) bool {
+	for _, ci := range x.m.parts {
+		if ci < 0 || ci == shunt || len(x.w.pins[ci]) != 2 {
+			continue
+		}
+		a, b := x.w.pins[ci][0], x.w.pins[ci][1]
+		if a == net && b == groundNet || b == net && a == groundNet {
+			return true
+		}
+	}
+	return false
 }

@@ -70,6 +70,10 @@ var figureNames = []figName{
 	{name: "r_dyn", label: "dynamic R"},
 	{name: "tap_share", label: "tap share"},
 	{name: "z_in", label: "Zin"},
+	// shunt feedback seen at the control electrode (shuntfbz.go)
+	{name: "z_in_fb", label: "Zin with feedback"},
+	{name: "z_in_open", label: "Zin, feedback opened", working: true},
+	{name: "r_feedback", label: "feedback resistor", working: true},
 	{name: "z_out", label: "Zout"},
 	{name: "r_load", label: "r load"},
 	{name: "r_load_ac", label: "r load AC"},
@@ -84,6 +88,8 @@ var figureNames = []figName{
 	{name: "rev_transfer_open", label: "the same without it"},
 	{name: "gain_bypass_open", label: "gain with the bypass open"},
 	{name: "nfb", label: "overall feedback", inDB: true},
+	// a detector's return held by its bypass: the check behind the name
+	{name: "return_if", label: "IF at the return", working: true, inDB: true},
 	{name: "gain_closed_loop", label: "closed-loop gain"},
 	{name: "gain_open_loop", label: "open-loop gain"},
 	{name: "nfb_fraction", label: "feedback fraction β"},
@@ -122,6 +128,8 @@ var figureNames = []figName{
 	{name: "c_decoupling", label: "c decoupling"},
 	{name: "c_screen_bypass", label: "c screen bypass"},
 	{name: "screen_v", label: "screen V (DC)"},
+	// a detector or AGC diode held off by its return's standing volts
+	{name: "delay", label: "delay (DC)"},
 	{name: "screen_drop", label: "drop across the screen feed (DC)"},
 	{name: "f_ripple", label: "ripple f"},
 	{name: "atten_ripple", label: "attenuation at ripple f", inDB: true},

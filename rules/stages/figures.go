@@ -29,7 +29,7 @@ func init() {
 		"clapp":        {args: []string{"coil", "c1", "c2", "c3"}, required: []string{"coil", "c1", "c2", "c3"}, fn: calcClapp},
 		"series-share": {args: []string{"c1", "c2", "c3"}, required: []string{"c1", "c2", "c3"}, fn: calcSeriesShare},
 		"crystal":      {args: []string{"xtal"}, required: []string{"xtal"}, fn: calcCrystal},
-		"rc":           {args: []string{"r", "c", "use"}, required: []string{"r", "c"}, wordArgs: []string{"use"}, fn: calcRC},
+		"rc":           {args: []string{"r", "c", "use", "load_net"}, required: []string{"r", "c"}, netArgs: []string{"load_net"}, wordArgs: []string{"use"}, fn: calcRC},
 		"bypass":       {args: []string{"device", "r", "c", "load", "load_net"}, required: []string{"device", "r", "c"}, netArgs: []string{"load_net"}, fn: calcBypass},
 		"rc-phase":     {args: []string{"r", "c"}, required: []string{"r", "c"}, fn: calcPhaseShift},
 		"wien":         {args: []string{"r1", "c1", "r2", "c2"}, required: []string{"r1", "c1", "r2", "c2"}, fn: calcWien},

@@ -61,6 +61,13 @@ func walkOrder(c *graph.Circuit, skipBack bool) order {
 	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }
 	var fb map[*graph.Part]string
 	if skipBack {
+		// a bypassed common lead carries no signal to what else returns
+		// there: a double-diode-triode's detector diode on the triode's
+		// cathode had named and drawn the triode before the volume control
+		// and coupling capacitor that feed its grid
+		held := heldCommons(c)
+		follow := w.Follow
+		w.Follow = func(n string) bool { return follow(n) && !held[n] }
 		fb = graph.FeedbackParts(c.Parts, v, w.Follow)
 		w.Enter = func(p *graph.Part, pin string) bool { into, ok := fb[p]; return !ok || p.NetOf(pin) != into }
 	}
@@ -78,4 +85,52 @@ func walkOrder(c *graph.Circuit, skipBack bool) order {
 		}
 	}
 	return dist
+}
+
+// heldCommons are the nets of amplifying devices' common electrodes that a
+// capacitor to AC ground holds for the signal: its reactance at the bottom
+// of the device's band below the resistance of the lead's resistors to
+// AC ground (a bypassed cathode or emitter resistor; common practice).
+func heldCommons(c *graph.Circuit) map[string]bool {
+	held := map[string]bool{}
+	for _, p := range c.Parts {
+		if !p.IsActive() {
+			continue
+		}
+		net := p.NetOf(p.PinWithRole(graph.RoleCommon))
+		if net == "" || c.RoleOf(net).IsACGround() {
+			continue
+		}
+		if f := c.BandOf(p).Min; f > 0 && bypassedAt(c, net, f) {
+			held[net] = true
+		}
+	}
+	return held
+}
+
+// bypassedAt tells whether net has a capacitor to AC ground whose
+// reactance at f is below the parallel resistance of its resistors to AC
+// ground.
+func bypassedAt(c *graph.Circuit, net string, f float64) bool {
+	cap, g := 0.0, 0.0
+	for _, cn := range c.ConnsOf(net) {
+		p := cn.Part
+		if len(p.Pins) != 2 || p.Value.Max <= 0 {
+			continue
+		}
+		other := p.Pins[0].Net
+		if other == net {
+			other = p.Pins[1].Net
+		}
+		if !c.RoleOf(other).IsACGround() {
+			continue
+		}
+		switch p.Kind {
+		case graph.Capacitor:
+			cap += p.Value.Max
+		case graph.Resistor:
+			g += 1 / p.Value.Max
+		}
+	}
+	return cap > 0 && g > 0 && 1/(2*math.Pi*f*cap) < 1/g
 }

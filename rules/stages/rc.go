@@ -136,6 +136,13 @@ func (x *figCtx) detectorLoad(r float64) float64 {
 			}
 		}
 	}
+	if nets := x.spec.Args["load_net"]; len(nets) > 0 {
+		// the reservoir runs to a bypassed return, not chassis: the AC
+		// load is what the load net sees, not the return's bias resistor
+		if id, ok := x.w.netID[x.st.nets[nets[0]]]; ok && id != groundNet {
+			rac = resistanceToGround(x.w, id)
+		}
+	}
 	if rdc == 0 {
 		rdc = rac
 	}

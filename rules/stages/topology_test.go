@@ -423,6 +423,30 @@ R4 = { r = "100k", pins = ["g2", "gnd"] }
 @Q2(g2, gnd, out)
 R5 = { r = "4k7", pins = ["out", "ht"] }
 R6 = { r = "100k", pins = ["out", "g1"] }`},
+	// The same loop with the input through a coupling capacitor straight
+	// to the first control electrode (review15 b04: R1 from the output
+	// pair's midpoint to the driver's base, framed "RC coupling" before).
+	{topology: "amp-shunt-feedback-coupled", families: allFamilies,
+		parts: `C1 = { c = "1u", pins = ["in", "g1"] }
+R8 = { r = "47k", pins = ["g1", "gnd"] }
+@Q1(g1, gnd, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, out, ht)
+R5 = { r = "4k7", pins = ["out", "gnd"] }
+R6 = { r = "100k", pins = ["out", "g1"] }`,
+		// The second stage inverts too: the signal comes back in phase
+		// (positive feedback), which the solver shows.
+		nearMiss: `C1 = { c = "1u", pins = ["in", "g1"] }
+R8 = { r = "47k", pins = ["g1", "gnd"] }
+@Q1(g1, gnd, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, gnd, out)
+R5 = { r = "4k7", pins = ["out", "ht"] }
+R6 = { r = "100k", pins = ["out", "g1"] }`},
 	{topology: "amp-follower", families: allFamilies,
 		parts: `@Q1(in, k, ht)
 R1 = { r = "1k", pins = ["k", "gnd"] }`,
@@ -638,6 +662,101 @@ V2 = { valve = "double-diode", pins = { a1 = "d", a2 = "d", k = "x" } }
 R2 = { r = "10k", pins = ["x", "gnd"] }
 C7 = { c = "100p", pins = ["out", "gnd"] }
 R6 = { r = "1M", pins = ["out", "gnd"] }`},
+	// A double-diode-triode's diodes returned to the triode's bypassed
+	// cathode, the load at the IF winding's cold end to chassis, the
+	// reservoir to the cathode (review15 a03).
+	{topology: "diode-detector-bypassed-return", families: []string{"valve"},
+		parts: `@Q1(in, gnd, a)
+C1 = { c = "100p", pins = ["a", "ht"] }
+T1 = { windings = { p = "1m147", s = "1m147" }, k = 0.012, pins = { p1 = "a", p2 = "ht", s1 = "d", s2 = "out" } }
+C2 = { c = "100p", pins = ["d", "out"] }
+V2 = { valve = "double-diode", pins = { a1 = "d", a2 = "d", k = "k" } }
+V3 = { valve = "triode", pins = { a = "ta", g1 = "tg", k = "k" }, gm = "1.2mA/V", mu = 70 }
+R2 = { r = "2k2", pins = ["k", "gnd"] }
+C3 = { c = "25u", pins = ["k", "gnd"] }
+C7 = { c = "200p", pins = ["out", "k"] }
+R6 = { r = "1M", pins = ["out", "gnd"] }
+R9 = { r = "220k", pins = ["ta", "ht"] }
+R7 = { r = "1M", pins = ["tg", "gnd"] }`,
+		// The return has no bypass (100 pF to chassis): the diode works
+		// into the cathode resistor, not against AC ground.
+		nearMiss: `@Q1(in, gnd, a)
+C1 = { c = "100p", pins = ["a", "ht"] }
+T1 = { windings = { p = "1m147", s = "1m147" }, k = 0.012, pins = { p1 = "a", p2 = "ht", s1 = "d", s2 = "out" } }
+C2 = { c = "100p", pins = ["d", "out"] }
+V2 = { valve = "double-diode", pins = { a1 = "d", a2 = "d", k = "k" } }
+R2 = { r = "2k2", pins = ["k", "gnd"] }
+C3 = { c = "100p", pins = ["k", "gnd"] }
+C7 = { c = "200p", pins = ["out", "k"] }
+R6 = { r = "1M", pins = ["out", "gnd"] }`},
+	// The triode of that envelope: its bypassed cathode is the diodes'
+	// return too.
+	{topology: "amp-common-bypassed-diode-return", families: []string{"valve"},
+		parts: `@Q1(g, k, o)
+R1 = { r = "220k", pins = ["o", "ht"] }
+R2 = { r = "2k2", pins = ["k", "gnd"] }
+C2 = { c = "25u", pins = ["k", "gnd"] }
+R3 = { r = "1M", pins = ["g", "gnd"] }
+D1 = { diode = "signal", pins = ["d", "k"] }
+C1 = { c = "100p", pins = ["d", "in"] }
+R4 = { r = "1M", pins = ["d", "gnd"] }`,
+		// The common lead unbypassed (100 pF, no bypass at mid-band): a
+		// degenerated stage, not this one.
+		nearMiss: `@Q1(g, k, o)
+R1 = { r = "220k", pins = ["o", "ht"] }
+R2 = { r = "2k2", pins = ["k", "gnd"] }
+C2 = { c = "100p", pins = ["k", "gnd"] }
+R3 = { r = "1M", pins = ["g", "gnd"] }
+D1 = { diode = "signal", pins = ["d", "k"] }
+C1 = { c = "100p", pins = ["d", "in"] }
+R4 = { r = "1M", pins = ["d", "gnd"] }`},
+	// The second diode of a double-diode-triode fed from the IF anode
+	// through 47 pF, its load to chassis, its cathode the triode's
+	// bypassed one: the delayed AGC diode (review13 a03).
+	{topology: "agc-diode-delayed", families: []string{"valve"},
+		parts: `@Q1(in, gnd, a)
+C1 = { c = "100p", pins = ["a", "ht"] }
+T1 = { windings = { p = "1m147", s = "1m147" }, k = 0.012, pins = { p1 = "a", p2 = "ht", s1 = "d", s2 = "out" } }
+C2 = { c = "100p", pins = ["d", "out"] }
+V2 = { valve = "double-diode", pins = { a1 = "d", a2 = "agc", k = "k" } }
+R2 = { r = "2k2", pins = ["k", "gnd"] }
+C3 = { c = "25u", pins = ["k", "gnd"] }
+C7 = { c = "200p", pins = ["out", "k"] }
+R6 = { r = "1M", pins = ["out", "k"] }
+C4 = { c = "47p", pins = ["a", "agc"] }
+R5 = { r = "1M", pins = ["agc", "gnd"] }`,
+		// The feed is 100 nF (an audio coupling, not an IF feed).
+		nearMiss: `@Q1(in, gnd, a)
+C1 = { c = "100p", pins = ["a", "ht"] }
+T1 = { windings = { p = "1m147", s = "1m147" }, k = 0.012, pins = { p1 = "a", p2 = "ht", s1 = "d", s2 = "out" } }
+C2 = { c = "100p", pins = ["d", "out"] }
+V2 = { valve = "double-diode", pins = { a1 = "d", a2 = "agc", k = "k" } }
+R2 = { r = "2k2", pins = ["k", "gnd"] }
+C3 = { c = "25u", pins = ["k", "gnd"] }
+C7 = { c = "200p", pins = ["out", "k"] }
+R6 = { r = "1M", pins = ["out", "k"] }
+C4 = { c = "100n", pins = ["a", "agc"] }
+R5 = { r = "1M", pins = ["agc", "gnd"] }`},
+	// A volume control and IF filter returned to the bypassed cathode
+	// with the detector's load (review13 a03).
+	{topology: "volume-control-bypassed-return", families: []string{"valve"}, want: "passive",
+		parts: `RV1 = { pot = "500k", pins = ["in", "w", "k"] }
+C1 = { c = "25u", pins = ["k", "gnd"] }
+R1 = { r = "2k2", pins = ["k", "gnd"] }`,
+		// The foot unbypassed: a divider into a resistor.
+		nearMiss: `RV1 = { pot = "500k", pins = ["in", "w", "k"] }
+R1 = { r = "2k2", pins = ["k", "gnd"] }`},
+	{topology: "rc-low-pass-bypassed-return", families: []string{"valve"}, want: "passive",
+		parts: `R1 = { r = "47k", pins = ["in", "f"] }
+C1 = { c = "100p", pins = ["f", "k"] }
+C2 = { c = "25u", pins = ["k", "gnd"] }
+R2 = { r = "2k2", pins = ["k", "gnd"] }
+R3 = { r = "500k", pins = ["f", "k"] }`,
+		// The foot unbypassed.
+		nearMiss: `R1 = { r = "47k", pins = ["in", "f"] }
+C1 = { c = "100p", pins = ["f", "k"] }
+R2 = { r = "2k2", pins = ["k", "gnd"] }
+R3 = { r = "500k", pins = ["f", "k"] }`},
 	{topology: "grid-leak-detector", families: []string{"valve", "fet"},
 		parts: `@Q1(g, gnd, o)
 C1 = { c = "100p", pins = ["in", "g"] }

@@ -1,0 +1,83 @@
+package stages
+
+import (
+	"fmt"
+	"math"
+
+	"pare/graph"
+	"pare/graph/figure"
+)
+
+// Overall shunt feedback into a control electrode the signal reaches
+// through a coupling capacitor (patterns/amp-shunt-feedback-coupled.toml):
+// a resistor Rf from a later point of the signal path (an output pair's
+// midpoint) back to the driver's base or grid. With no series input
+// resistor in the circuit the gain from the input is the source's business;
+// what the feedback does in circuit is lower the impedance into the
+// control electrode by the loop (Miller's theorem: Rf looks like
+// Rf/(1 + |A|) to chassis, A the gain from the electrode to Rf's far end;
+// handbook, from memory). The solver gives that impedance with Rf as wired
+// and with its far end at chassis (the loop opened the loaded way, as for
+// the other feedback calcs); negative feedback lowers it, and the ratio
+// is the feedback in decibels. A resistor from the stage's own output or
+// common lead is local: no figures, and the guard drops the match.
+func init() {
+	calcs["shunt-feedback-z"] = calc{args: []string{"device", "feedback"}, required: []string{"device", "feedback"}, fn: calcShuntFeedbackZ}
+}
+
+var byMillerZ = figure.ByFormula("Zin = Rf/(1 + |A|) ∥ the rest (Miller's theorem)")
+
+func calcShuntFeedbackZ(x *figCtx) {
+	q, rf := x.part("device"), x.part("feedback")
+	if q == nil || rf == nil || len(rf.Pins) != 2 || rf.Value.Max <= 0 {
+		return
+	}
+	g := q.NetOf(q.PinWithRole(graph.RoleControl))
+	fb := farEnd(rf, g)
+	if g == "" || fb == "" || fb == q.NetOf(q.PinWithRole(graph.RoleOutput)) || fb == q.NetOf(q.PinWithRole(graph.RoleCommon)) {
+		return
+	}
+	x.set("r_feedback", figure.Ohm, rf.Value.Max, figure.FromNetlist(rf.Ref))
+	if !x.solve {
+		return
+	}
+	b := x.w.c.BandOf(q)
+	if b.Min <= 0 || b.Max <= b.Min {
+		return
+	}
+	f := math.Sqrt(b.Min * b.Max)
+	// the declared inputs freed: a source held at 0 V behind the coupling
+	// capacitor would short the electrode and hide the feedback
+	c := freeInputs(x.solverCircuit(), x.solverCircuit().Inputs...)
+	closed, ok1 := drivenZ(c, g, f)
+	open, ok2 := drivenZ(feedbackOpened(c, rf, fb, x.w.names[groundNet]), g, f)
+	a, ok3 := transferAt(c, g, fb, f)
+	if !ok1 || !ok2 || !ok3 {
+		x.st.unconfirmed = fmt.Sprintf("the solver gives no impedance at %s: the loop through %s is not confirmed", g, rf.Ref)
+		return
+	}
+	if a >= 0 || closed >= open {
+		// in phase at Rf's far end, or the impedance not lowered: the
+		// loop is positive (or no loop), not negative feedback
+		x.st.unconfirmed = fmt.Sprintf("in circuit %s brings back ×%s of %s's signal and takes the impedance there from %s to %s: no negative feedback",
+			rf.Ref, figure.Plain(a), g, figure.Format(open, figure.Ohm, figure.Text), figure.Format(closed, figure.Ohm, figure.Text))
+		return
+	}
+	at := hz(f) + ", " + gangMid.at
+	zin := figure.Figure{Name: "z_in_fb", Unit: figure.Ohm, Value: closed, Origin: figure.BySolver("|Z| into "+g, at)}
+	if rest := 1 / (1/open - 1/rf.Value.Max); rest > 0 {
+		zm := rf.Value.Max / (1 + math.Abs(a))
+		check := figure.Figure{Name: "z_in_fb", Unit: figure.Ohm, Value: zm * rest / (zm + rest), Origin: byMillerZ}
+		zin.Check = &check
+		if figure.Differs(closed, check.Value) {
+			zin.Why = fmt.Sprintf("Miller's theorem takes the gain as real; in circuit the loop's phase at %s and what loads %s move it", hz(f), fb)
+		}
+	}
+	x.put(figure.Figure{Name: "nfb", Unit: figure.Decibel, Value: 20 * math.Log10(open/closed),
+		Origin: figure.BySolver("20·log10 of |Z| into "+g+" with "+rf.Ref+"'s far end at chassis over the same as wired", at)})
+	x.put(zin)
+	x.put(figure.Figure{Name: "z_in_open", Unit: figure.Ohm, Value: open,
+		Origin: figure.BySolver("|Z| into "+g+" with "+rf.Ref+"'s far end at chassis", at)})
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("%s brings %s's signal back to %s's %s in antiphase: the impedance there falls from %s to %s in circuit",
+		rf.Ref, fb, q.Ref, ControlWord(q), figure.Format(open, figure.Ohm, figure.Text), figure.Format(closed, figure.Ohm, figure.Text)))
+}
