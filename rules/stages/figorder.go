@@ -130,6 +130,8 @@ var figureNames = []figName{
 	{name: "screen_v", label: "screen V (DC)"},
 	// a detector or AGC diode held off by its return's standing volts
 	{name: "delay", label: "delay (DC)"},
+	// the voltage a Vbe multiplier holds between an output pair's bases
+	{name: "bias_v", label: "bias V (DC)"},
 	{name: "screen_drop", label: "drop across the screen feed (DC)"},
 	{name: "f_ripple", label: "ripple f"},
 	{name: "atten_ripple", label: "attenuation at ripple f", inDB: true},

@@ -88,7 +88,8 @@ func walkOrder(c *graph.Circuit, skipBack bool) order {
 }
 
 // heldCommons are the nets of amplifying devices' common electrodes that a
-// capacitor to AC ground holds for the signal: its reactance at the bottom
+// capacitor to AC ground holds for the signal, the output taken from the
+// output electrode (not a follower): its reactance at the bottom
 // of the device's band below the resistance of the lead's resistors to
 // AC ground (a bypassed cathode or emitter resistor; common practice).
 func heldCommons(c *graph.Circuit) map[string]bool {
@@ -98,7 +99,10 @@ func heldCommons(c *graph.Circuit) map[string]bool {
 			continue
 		}
 		net := p.NetOf(p.PinWithRole(graph.RoleCommon))
-		if net == "" || c.RoleOf(net).IsACGround() {
+		out := p.NetOf(p.PinWithRole(graph.RoleOutput))
+		if net == "" || c.RoleOf(net).IsACGround() || out == "" || c.RoleOf(out).IsACGround() {
+			// a follower's common lead is its output: the capacitor
+			// there (a Colpitts divider's lower arm) holds nothing
 			continue
 		}
 		if f := c.BandOf(p).Min; f > 0 && bypassedAt(c, net, f) {

@@ -1048,6 +1048,19 @@ D2 = { diode = "signal", pins = ["dm", "bp"] }`,
 		nearMiss: strings.Replace(complementaryPair, `bjt = "pnp"`, `bjt = "npn"`, 1) + `
 D1 = { diode = "signal", pins = ["bn", "dm"] }
 D2 = { diode = "signal", pins = ["dm", "bp"] }`},
+	// A Vbe multiplier between the bases: a transistor from one base to
+	// the other, its base on the tap of a divider across it.
+	{topology: "complementary-pair-vbe", families: []string{"bjt"}, want: "bjt",
+		parts: complementaryPair + `
+Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
+R2 = { r = "1k5", pins = ["bn", "vt"] }
+R3 = { r = "1k", pins = ["vt", "bp"] }`,
+		// The divider's foot on chassis, not on the transistor's emitter:
+		// a transistor biased from a divider, not a multiplier across the gap.
+		nearMiss: complementaryPair + `
+Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
+R2 = { r = "1k5", pins = ["bn", "vt"] }
+R3 = { r = "1k", pins = ["vt", "gnd"] }`},
 	// The same with a standing-current preset strapped as a rheostat.
 	{topology: "complementary-pair-preset", families: []string{"bjt"}, want: "bjt",
 		parts: complementaryPair + `
