@@ -22,9 +22,11 @@ import (
 // branch joined to those, 79 and 305: two wires more through a frame, 17
 // fewer boxes; with the fourth review's circuits, testdata/review15, brought in
 // with their own 10 and 52: 89 and 357; with an oscillator's grid leak and
-// output feed in its template, 89 and 342). A change may lower these, never
+// output feed in its template, 89 and 342; with review15 a03's double-diode-
+// triode named and fed in path order and b04's feedback resistor a stage of
+// its own, 89 and 339). A change may lower these, never
 // raise them; a new sheet brings its own.
-var wireBoxCeiling = struct{ foreign, boxes int }{89, 342}
+var wireBoxCeiling = struct{ foreign, boxes int }{89, 339}
 
 // TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
 // its net has a pin there (a frame says "these parts are this stage"), and
