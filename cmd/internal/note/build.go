@@ -42,6 +42,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 		After:       PartCount{len(reduced.Parts), len(reduced.Nets)},
 		Removed:     sortedKeys(faded),
 		Merged:      mergesOf(c, reduced),
+		Drawn:       mergesOf(c, r.ReducedDrawn()),
 		ACGround:    sortedCopy(log.ACGround),
 		Gangs:       gangsOf(log.Gangs),
 		Stages:      noteStages(r.Stages),

@@ -198,7 +198,11 @@ func hHover(b *bytes.Buffer, n *Note) {
 		return
 	}
 	m := map[string][]string{} // json.Marshal writes map keys sorted
-	for _, g := range n.Merged {
+	drawn := n.Drawn
+	if drawn == nil {
+		drawn = n.Merged
+	}
+	for _, g := range drawn {
 		from := make([]string, len(g.From))
 		for i, f := range g.From {
 			from[i] = render.RefToken(f)

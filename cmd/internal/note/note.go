@@ -32,6 +32,10 @@ type Note struct {
 	Before, After PartCount
 	Removed       []string // original refs the reduction took out
 	Merged        []Merge  // reduced part -> the originals it stands for
+	// Drawn is Merged as the reduced sheet draws it, for the hover: a
+	// merged bias divider drawn as its halves pairs each half with itself
+	// (pipeline.Result.ReducedDrawn). Nil: the sheet draws Merged.
+	Drawn []Merge
 	ACGround      []string
 	Gangs         []Gang
 	// The parts' own notes from the netlist: on the reduced sheet, and

@@ -93,8 +93,9 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	}
 	switch v {
 	case render.Reduced:
-		s.Circuit = r.withLineVolts(r.withSupplyReturns(reduced))
-		s.Frames = tankFrames(stageFrames(r.Stages, reduced, nil), s.Circuit)
+		drawn, split := r.withDividersApart(r.withSupplyReturns(reduced))
+		s.Circuit = r.withLineVolts(drawn)
+		s.Frames = tankFrames(framesApart(stageFrames(r.Stages, reduced, nil), split), s.Circuit)
 		_, merged := FadedAndMerged(c, reduced)
 		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
 	case render.Full, render.Faded:

@@ -1,0 +1,141 @@
+package pipeline
+
+import (
+	"slices"
+	"sort"
+
+	"pare/graph"
+	"pare/render"
+)
+
+// withDividersApart is the reduced circuit for its sheet with every merged
+// resistor whose members return to different places, one to a supply or
+// bias line and one to chassis, drawn as those members again, each from
+// the merged part's signal end to its own return (the line's tag, or an
+// earth). The reduction merges a bias divider's halves, R2 33k from a
+// decoupled line and R3 22k to chassis, into one 13k2 on the line's tag,
+// and a figure or a proof wants it so; on a sheet that part reads as a
+// 13k2 fed from the line, which sets a bias the set does not have (review15
+// b01: "R2 13k2 ≡ R2, R3" under "+12 V via R1, +11.73 V"). Drawn apart the
+// reader sees the divider as built and where each half goes. Only the
+// drawing changes: the reduced netlist, its figures and its fixpoint stay
+// merged. split maps each merged ref drawn apart to its members.
+func (r *Result) withDividersApart(c *graph.Circuit) (out *graph.Circuit, split map[string][]string) {
+	for _, p := range c.Parts {
+		members := r.dividerMembers(c, p)
+		if members == nil {
+			continue
+		}
+		if out == nil {
+			out, split = c.Clone(), map[string][]string{}
+		}
+		refs := make([]string, len(members))
+		for i, m := range members {
+			refs[i] = m.Ref
+		}
+		sort.Strings(refs)
+		split[p.Ref] = refs
+		out.RemovePart(p.Ref)
+		for _, m := range members {
+			out.AddPart(m)
+		}
+	}
+	if out == nil {
+		return c, nil
+	}
+	return out, split
+}
+
+// dividerMembers are the original members of the merged resistor p, each
+// moved onto p's two nets with its own return, when they return to
+// different places and at least one to chassis; nil when p is not such a
+// merge. A member's return is its end off p's signal end: chassis when it
+// was on a ground net, else the line it was on, which must be one the
+// drawing knows (Circuit.ReturnOf finds it among the rails). A member whose
+// signal end is not p's (a merge across nets the reduction joined) leaves p
+// merged: the drawing could not say where that member stands.
+func (r *Result) dividerMembers(c *graph.Circuit, p *graph.Part) []*graph.Part {
+	from := p.Origins()
+	if p.Kind != graph.Resistor || len(p.Pins) != 2 || len(from) < 2 {
+		return nil
+	}
+	ret := -1
+	for i, pn := range p.Pins {
+		if c.RoleOf(pn.Net).IsACGround() {
+			ret = i
+		}
+	}
+	if ret < 0 || c.RoleOf(p.Pins[1-ret].Net).IsACGround() {
+		return nil
+	}
+	sig, back := p.Pins[1-ret].Net, p.Pins[ret].Net
+	var out []*graph.Part
+	chassis, line := false, false
+	for _, ref := range from {
+		o := r.Circuit.Part(ref)
+		if o == nil || o.Kind != graph.Resistor || len(o.Pins) != 2 || c.Part(ref) != nil && ref != p.Ref {
+			return nil
+		}
+		m := o.Clone()
+		m.From = nil
+		end := -1
+		for i, pn := range o.Pins {
+			if pn.Net == sig {
+				end = i
+			}
+		}
+		if end < 0 {
+			return nil
+		}
+		was := o.Pins[1-end].Net
+		m.Pins[end].Rail = ""
+		m.Pins[1-end].Net, m.Pins[1-end].Rail = back, ""
+		switch {
+		case r.Circuit.RoleOf(was) == graph.Ground:
+			chassis = true
+		default:
+			m.Pins[1-end].Rail = was
+			if n := c.ReturnOf(m.Pins[1-end]); n == nil || n.Name != was || !n.Role.IsRail() {
+				return nil
+			}
+			line = true
+		}
+		out = append(out, m)
+	}
+	if !chassis || !line {
+		return nil
+	}
+	return out
+}
+
+// framesApart puts the members of each merged part drawn apart in every
+// frame that holds the merged part: the stage stands for both halves of
+// its divider. The merged part's ref is one of its members', so a place a
+// template gave it still holds for that member.
+func framesApart(frames []render.Frame, split map[string][]string) []render.Frame {
+	if len(split) == 0 {
+		return frames
+	}
+	for i := range frames {
+		var add []string
+		for _, ref := range frames[i].Parts {
+			add = append(add, split[ref]...)
+		}
+		if len(add) == 0 {
+			continue
+		}
+		parts := slices.Concat(frames[i].Parts, add)
+		sort.Strings(parts)
+		frames[i].Parts = slices.Compact(parts)
+	}
+	return frames
+}
+
+// ReducedDrawn is the reduced circuit as its sheet draws it, before the
+// line voltages join the tags: a merged bias divider drawn as its members
+// (withDividersApart). The note's hover pairs the reduced sheet's parts
+// with the original's on it.
+func (r *Result) ReducedDrawn() *graph.Circuit {
+	c, _ := r.withDividersApart(r.withSupplyReturns(r.Reduced))
+	return c
+}
