@@ -35,9 +35,9 @@ type Note struct {
 	// Drawn is Merged as the reduced sheet draws it, for the hover: a
 	// merged bias divider drawn as its halves pairs each half with itself
 	// (pipeline.Result.ReducedDrawn). Nil: the sheet draws Merged.
-	Drawn []Merge
-	ACGround      []string
-	Gangs         []Gang
+	Drawn    []Merge
+	ACGround []string
+	Gangs    []Gang
 	// The parts' own notes from the netlist: on the reduced sheet, and
 	// removed by the reduction.
 	PartNotes, RemovedNotes []PartNote

@@ -95,7 +95,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	case render.Reduced:
 		drawn, split := r.withDividersApart(r.withSupplyReturns(reduced))
 		s.Circuit = r.withLineVolts(drawn)
-		s.Frames = tankFrames(framesApart(stageFrames(r.Stages, reduced, nil), split), s.Circuit)
+		s.Frames = tankFrames(framesApart(stageFrames(r.Stages, reduced, nil), split, drawn), s.Circuit)
 		_, merged := FadedAndMerged(c, reduced)
 		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
 	case render.Full, render.Faded:

@@ -111,8 +111,13 @@ func (r *Result) dividerMembers(c *graph.Circuit, p *graph.Part) []*graph.Part {
 // framesApart puts the members of each merged part drawn apart in every
 // frame that holds the merged part: the stage stands for both halves of
 // its divider. The merged part's ref is one of its members', so a place a
-// template gave it still holds for that member.
-func framesApart(frames []render.Frame, split map[string][]string) []render.Frame {
+// template gave it still holds for that member. A half to chassis hangs
+// from the signal wire down into the rows a template fills round the
+// device it biases (a base divider's lower leg beside an oscillator's
+// tank and feedback divider), where the generic placement put it in the
+// template's way: it gets a slot of its own in that template, in the
+// device's row left of the template's columns (chassisSlot).
+func framesApart(frames []render.Frame, split map[string][]string, drawn *graph.Circuit) []render.Frame {
 	if len(split) == 0 {
 		return frames
 	}
@@ -127,8 +132,49 @@ func framesApart(frames []render.Frame, split map[string][]string) []render.Fram
 		parts := slices.Concat(frames[i].Parts, add)
 		sort.Strings(parts)
 		frames[i].Parts = slices.Compact(parts)
+		for _, ref := range add {
+			frames[i].Places = chassisSlot(frames[i].Places, drawn, drawn.Part(ref))
+		}
 	}
 	return frames
+}
+
+// chassisSlot adds to places a slot for m, a divider's half drawn to
+// chassis that no template places, in the template anchored on a device
+// with a terminal on m's signal end: in the anchor's row, one column left
+// of the template's leftmost, standing vertical. Places are unchanged for
+// any other part.
+func chassisSlot(places []render.Place, drawn *graph.Circuit, m *graph.Part) []render.Place {
+	if m == nil || slices.ContainsFunc(places, func(p render.Place) bool { return p.Ref == m.Ref }) {
+		return places
+	}
+	sig := ""
+	for _, pn := range m.Pins {
+		role := drawn.RoleOf(pn.Net)
+		switch {
+		case !role.IsACGround():
+			sig = pn.Net
+		case pn.Rail != "" || role != graph.Ground:
+			return places // the half to a line hangs above the wire
+		}
+	}
+	for start := 0; start < len(places); {
+		end := start + 1
+		for end < len(places) && places[end].Ref != places[end].Anchor {
+			end++
+		}
+		a := drawn.Part(places[start].Anchor)
+		if a != nil && a.IsActive() && slices.ContainsFunc(a.Pins, func(p graph.Pin) bool { return p.Net == sig }) {
+			col := 0
+			for _, p := range places[start:end] {
+				col = min(col, p.Col)
+			}
+			pl := render.Place{Ref: m.Ref, Anchor: a.Ref, Col: col - 1, Stand: "vertical"}
+			return slices.Insert(places, end, pl)
+		}
+		start = end
+	}
+	return places
 }
 
 // ReducedDrawn is the reduced circuit as its sheet draws it, before the
