@@ -93,9 +93,10 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	}
 	switch v {
 	case render.Reduced:
-		drawn, split := r.withDividersApart(r.withSupplyReturns(reduced))
+		frames := stageFrames(r.Stages, reduced, nil)
+		drawn, split := r.withDividersApart(r.withSupplyReturns(reduced), frames)
 		s.Circuit = r.withLineVolts(drawn)
-		s.Frames = tankFrames(framesApart(stageFrames(r.Stages, reduced, nil), split, drawn), s.Circuit)
+		s.Frames = tankFrames(framesApart(frames, split, drawn), s.Circuit)
 		_, merged := FadedAndMerged(c, reduced)
 		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
 	case render.Full, render.Faded:

@@ -19,9 +19,22 @@ import (
 // b01: "R2 13k2 ≡ R2, R3" under "+12 V via R1, +11.73 V"). Drawn apart the
 // reader sees the divider as built and where each half goes. Only the
 // drawing changes: the reduced netlist, its figures and its fixpoint stay
-// merged. split maps each merged ref drawn apart to its members.
-func (r *Result) withDividersApart(c *graph.Circuit) (out *graph.Circuit, split map[string][]string) {
+// merged. So does a merged part a stage template places (frames): the
+// template draws it as one of its pattern's parts (a phase-shift ladder's
+// last leg, whose figure reads the two halves as one), and its halves
+// drawn round that slot tangled the ladder. split maps each merged ref
+// drawn apart to its members.
+func (r *Result) withDividersApart(c *graph.Circuit, frames []render.Frame) (out *graph.Circuit, split map[string][]string) {
+	slotted := map[string]bool{}
+	for _, f := range frames {
+		for _, pl := range f.Places {
+			slotted[pl.Ref] = true
+		}
+	}
 	for _, p := range c.Parts {
+		if slotted[p.Ref] {
+			continue
+		}
 		members := r.dividerMembers(c, p)
 		if members == nil {
 			continue
@@ -109,14 +122,9 @@ func (r *Result) dividerMembers(c *graph.Circuit, p *graph.Part) []*graph.Part {
 }
 
 // framesApart puts the members of each merged part drawn apart in every
-// frame that holds the merged part: the stage stands for both halves of
-// its divider. The merged part's ref is one of its members', so a place a
-// template gave it still holds for that member. A half to chassis hangs
-// from the signal wire down into the rows a template fills round the
-// device it biases (a base divider's lower leg beside an oscillator's
-// tank and feedback divider), where the generic placement put it in the
-// template's way: it gets a slot of its own in that template, in the
-// device's row left of the template's columns (chassisSlot).
+// frame that holds the merged part (the stage stands for both halves of
+// its divider), with slots of their own where a template is drawn round
+// the device they bias (halfSlots).
 func framesApart(frames []render.Frame, split map[string][]string, drawn *graph.Circuit) []render.Frame {
 	if len(split) == 0 {
 		return frames
@@ -125,6 +133,7 @@ func framesApart(frames []render.Frame, split map[string][]string, drawn *graph.
 		var add []string
 		for _, ref := range frames[i].Parts {
 			add = append(add, split[ref]...)
+			frames[i].Places = halfSlots(frames[i].Places, drawn, split[ref], ref)
 		}
 		if len(add) == 0 {
 			continue
@@ -132,30 +141,38 @@ func framesApart(frames []render.Frame, split map[string][]string, drawn *graph.
 		parts := slices.Concat(frames[i].Parts, add)
 		sort.Strings(parts)
 		frames[i].Parts = slices.Compact(parts)
-		for _, ref := range add {
-			frames[i].Places = chassisSlot(frames[i].Places, drawn, drawn.Part(ref))
-		}
 	}
 	return frames
 }
 
-// chassisSlot adds to places a slot for m, a divider's half drawn to
-// chassis that no template places, in the template anchored on a device
-// with a terminal on m's signal end: in the anchor's row, one column left
-// of the template's leftmost, standing vertical. Places are unchanged for
-// any other part.
-func chassisSlot(places []render.Place, drawn *graph.Circuit, m *graph.Part) []render.Place {
-	if m == nil || slices.ContainsFunc(places, func(p render.Place) bool { return p.Ref == m.Ref }) {
+// halfSlots stands a divider drawn as its halves (members, merged into
+// ref, which no template places: withDividersApart) straight across the
+// wire into the device it biases, as a divider is drawn by hand: the half
+// to the line above the wire, the half to chassis hanging below it, in one
+// column left of the leftmost of the template anchored on that device, so
+// the lower half does not stand where the template's parts go (a base
+// divider's lower leg where an oscillator's feedback capacitors go).
+// Places are unchanged for a divider next to no template's device.
+func halfSlots(places []render.Place, drawn *graph.Circuit, members []string, ref string) []render.Place {
+	var low, high *graph.Part
+	for _, m := range members {
+		p := drawn.Part(m)
+		if p == nil {
+			return places
+		}
+		if slices.ContainsFunc(p.Pins, func(pn graph.Pin) bool { return pn.Rail == "" && drawn.RoleOf(pn.Net) == graph.Ground }) {
+			low = cmpOr(low, p)
+		} else {
+			high = cmpOr(high, p)
+		}
+	}
+	if low == nil || high == nil || len(members) != 2 {
 		return places
 	}
 	sig := ""
-	for _, pn := range m.Pins {
-		role := drawn.RoleOf(pn.Net)
-		switch {
-		case !role.IsACGround():
+	for _, pn := range low.Pins {
+		if !drawn.RoleOf(pn.Net).IsACGround() {
 			sig = pn.Net
-		case pn.Rail != "" || role != graph.Ground:
-			return places // the half to a line hangs above the wire
 		}
 	}
 	for start := 0; start < len(places); {
@@ -164,17 +181,27 @@ func chassisSlot(places []render.Place, drawn *graph.Circuit, m *graph.Part) []r
 			end++
 		}
 		a := drawn.Part(places[start].Anchor)
-		if a != nil && a.IsActive() && slices.ContainsFunc(a.Pins, func(p graph.Pin) bool { return p.Net == sig }) {
-			col := 0
-			for _, p := range places[start:end] {
-				col = min(col, p.Col)
-			}
-			pl := render.Place{Ref: m.Ref, Anchor: a.Ref, Col: col - 1, Stand: "vertical"}
-			return slices.Insert(places, end, pl)
+		if a == nil || !a.IsActive() || !slices.ContainsFunc(a.Pins, func(p graph.Pin) bool { return p.Net == sig }) {
+			start = end
+			continue
 		}
-		start = end
+		at := render.Place{Anchor: a.Ref, Stand: "vertical"}
+		for _, p := range places[start:end] {
+			at.Col = min(at.Col, p.Col-1)
+		}
+		lo, hi := at, at
+		lo.Ref, hi.Ref, hi.Col, hi.Row = low.Ref, high.Ref, -1, -1
+		return slices.Insert(slices.Clone(places), end, lo, hi)
 	}
 	return places
+}
+
+// cmpOr is a when it is set, else b.
+func cmpOr(a, b *graph.Part) *graph.Part {
+	if a != nil {
+		return a
+	}
+	return b
 }
 
 // ReducedDrawn is the reduced circuit as its sheet draws it, before the
@@ -182,6 +209,6 @@ func chassisSlot(places []render.Place, drawn *graph.Circuit, m *graph.Part) []r
 // (withDividersApart). The note's hover pairs the reduced sheet's parts
 // with the original's on it.
 func (r *Result) ReducedDrawn() *graph.Circuit {
-	c, _ := r.withDividersApart(r.withSupplyReturns(r.Reduced))
+	c, _ := r.withDividersApart(r.withSupplyReturns(r.Reduced), stageFrames(r.Stages, r.Reduced, nil))
 	return c
 }

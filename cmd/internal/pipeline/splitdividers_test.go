@@ -74,7 +74,7 @@ func TestMergedDividerDrawnAsHalves(t *testing.T) {
 			t.Errorf("%s/%s stand in %d frames, want 1", tc.upper, tc.lower, framed)
 		}
 	}
-	if _, split := res.withDividersApart(res.withSupplyReturns(res.Reduced)); len(split) != len(cases) {
+	if _, split := res.withDividersApart(res.withSupplyReturns(res.Reduced), stageFrames(res.Stages, res.Reduced, nil)); len(split) != len(cases) {
 		t.Errorf("drawn apart: %v, want the %d dividers", split, len(cases))
 	}
 }
