@@ -126,6 +126,7 @@ type router struct {
 	flags        []geom.Local
 	sc           *scratch // the search's memory, shared by the layouts of one sheet
 	wide         bool     // search wide windows first (while removing crossings)
+	strict       bool     // price in-line ends above a crossing (while clearing them, unline.go)
 	pops         int      // states taken off the queue so far: the work budget
 }
 

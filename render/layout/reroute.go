@@ -48,6 +48,7 @@ func (rt *router) routeNets() {
 // finish reroutes crossing nets and flags the nets that could not be wired.
 func (rt *router) finish() {
 	rt.uncross()
+	rt.unline()
 	for id, nr := range rt.nets {
 		if !nr.ok && len(nr.pins) >= 2 {
 			rt.ripUp(id)

@@ -95,6 +95,7 @@ type seek struct {
 	cross int32    // a crossing's price: crossCost, or wideCrossCost
 	home  uint64   // the frames holding the net's pins (netRoute.home)
 	lines [3]int32 // a run's end's price by what lies in line beyond it
+	reach int      // how far beyond a run's end lines looks
 }
 
 // search is A* from a pending pin to the net's tree, inside a window of the
@@ -112,6 +113,10 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 	for d, st := range dirStep {
 		k.cellAt[d] = st[0] + st[1]*rt.w
 		k.stateAt[d] = 4 * (st[0] + st[1]<<k.shift)
+	}
+	if rt.strict {
+		// rare, and reading further than the memo's margin: not remembered
+		return rt.astar(&k, p)
 	}
 	key := rt.searchKey(&k, p)
 	if e, ok := memoGet(key); ok {
@@ -160,7 +165,10 @@ func (rt *router) astar(k *seek, p wirePin) []int {
 // onGrid points the search at the router's grid and crossing price.
 func (k *seek) onGrid(rt *router) {
 	k.grid, k.w, k.h = rt.g, rt.w, rt.h
-	k.cross, k.lines = crossCost, lineCosts
+	k.cross, k.lines, k.reach = crossCost, lineCosts, inLineReach
+	if rt.strict {
+		k.lines, k.reach = unlineCosts, unlineReach
+	}
 	if rt.wide {
 		// removing a crossing comes first: a wire may end in line
 		// close to another rather than cross it
@@ -211,7 +219,7 @@ func (k *seek) expand(c, s0, x, y, d int, g int32) {
 			// across a short gap, and the run starting here with its
 			// back to one
 			if ended < 0 {
-				ended = k.ahead(x, y, d, inLineReach)
+				ended = k.ahead(x, y, d, k.reach)
 			}
 			least += k.lines[ended]
 			if k.ahead(x, y, nd^2, closeReach) == inLineClose {
