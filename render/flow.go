@@ -277,9 +277,30 @@ func (f *flow) sheet(a, b int, through bool) *Sheet {
 		}
 	}
 	sub.continues = f.continues(parts, a, b, through)
+	sub.Circuit.Inputs, sub.Circuit.Outputs = endsHere(sub.Circuit.Inputs, sub.continues, true), endsHere(sub.Circuit.Outputs, sub.continues, false)
 	sub.supplyFlow = f.supplyFlow
 	sub.row = true
 	return &sub
+}
+
+// endsHere are the circuit's inputs (in) or outputs of a row that do not
+// come in from an earlier row (an input) or go on to a later one (an
+// output): the end's flag belongs where the net starts or stops. A row that
+// only passes the net on (an overall feedback resistor's row, whose lead
+// comes back from the loudspeaker two rows on) drew the output's flag too,
+// beside the connector to the row holding it, and read as a second output.
+func endsHere(ends []string, cs []layout.Continuation, in bool) []string {
+	var out []string
+	for _, n := range ends {
+		passed := false
+		for _, c := range cs {
+			passed = passed || (c.Net == n && c.In == in)
+		}
+		if !passed {
+			out = append(out, n)
+		}
+	}
+	return out
 }
 
 // continues are the off-row connectors of the row [a, b) of these parts:
