@@ -53,6 +53,7 @@ func (ly *state) growFrames(g *geom.Sheet) []geom.Frame {
 			fb.Y1 = math.Max(fb.Y1, sb.Y1+framePad+0.5)
 		}
 	}
+	ly.liftTitles(frames, g)
 	return frames
 }
 

@@ -137,8 +137,8 @@ func assemble(ly *state, w *wiring) *Result {
 			g.Labels = append(g.Labels, cl.label)
 		}
 	}
-	for _, f := range ly.frames {
-		g.Labels = append(g.Labels, f.Title)
+	for _, f := range w.frames {
+		g.Labels = append(g.Labels, f.Title) // where the wiring left it (liftTitles)
 	}
 	g.Wires, g.Dots, g.Failed = w.wires, w.dots, w.failed
 	g.Locals = append(g.Locals, w.flags...)
