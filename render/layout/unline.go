@@ -60,15 +60,16 @@ func (rt *router) unline() {
 // new wiring when the sheet's in-line ends fall below total at the price
 // unline's comment allows; it returns the new total.
 func (rt *router) unlineNet(id, total int) (int, bool) {
-	crossed, strays := rt.crossingsOf(id), rt.foreignFramesOf(id)
+	crossed, framed, strays := rt.crossingsOf(id), rt.framedCrossingsOf(id), rt.foreignFramesOf(id)
 	s := rt.save(id)
 	rt.ripUp(id)
 	rt.strict = true
 	ok := rt.routeNet(id)
 	rt.strict = false
-	if ok && rt.foreignFramesOf(id) <= strays {
+	if ok && rt.foreignFramesOf(id) <= strays && rt.framedCrossingsOf(id) <= framed {
 		// a crossing reads as no joint (no dot), two ends in line as one
-		// wire: one crossing more is worth a pair of such ends fewer
+		// wire: one crossing more is worth a pair of such ends fewer, if
+		// not inside a supply's frame
 		if now := rt.inLineEnds(); now < total && rt.crossingsOf(id) <= crossed+(total-now)/2 {
 			return now, true
 		}
@@ -148,4 +149,18 @@ func (rt *router) foreignFramesOf(id int) int {
 		}
 	}
 	return bits.OnesCount64(seen)
+}
+
+// framedCrossingsOf counts the cells where net id crosses another net
+// inside a supply's frame: a supply is drawn in its own flow, mains to
+// rails, without a crossing (render/supplyflow's test holds it).
+func (rt *router) framedCrossingsOf(id int) int {
+	n := 0
+	for _, c := range rt.nets[id].cells {
+		g := &rt.g[c]
+		if fr := int(g.flags >> frameShift); g.own[1] != 0 && fr > 0 && fr <= len(rt.ly.frameStage) && rt.ly.o.Frames[rt.ly.frameStage[fr-1]].Supply {
+			n++
+		}
+	}
+	return n
 }
