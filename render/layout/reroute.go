@@ -45,10 +45,13 @@ func (rt *router) routeNets() {
 	}
 }
 
-// finish reroutes crossing nets and flags the nets that could not be wired.
-func (rt *router) finish() {
+// finish reroutes crossing nets (and with unline, nets ending in line with
+// another's) and flags the nets that could not be wired.
+func (rt *router) finish(unline bool) {
 	rt.uncross()
-	rt.unline()
+	if unline {
+		rt.unline()
+	}
 	for id, nr := range rt.nets {
 		if !nr.ok && len(nr.pins) >= 2 {
 			rt.ripUp(id)

@@ -45,7 +45,7 @@ func routeSheet(ly *state, full bool) (*geom.Sheet, *router) {
 	rt := newRouter(ly, &scratch{})
 	rt.routeNets()
 	if full {
-		rt.finish()
+		rt.finish(true)
 	}
 	g := &geom.Sheet{}
 	for _, cl := range ly.cells {

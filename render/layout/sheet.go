@@ -90,15 +90,16 @@ type wiring struct {
 }
 
 // route wires a placed sheet: every net, then rip-up and reroute of
-// crossings and net-name flags for nets that could not be wired.
-func route(ly *state, sc *scratch) *wiring {
+// crossings (and, with unline, of ends in line) and net-name flags for nets
+// that could not be wired.
+func route(ly *state, sc *scratch, unline bool) *wiring {
 	w := &wiring{crossing: map[string]bool{}}
 	if len(ly.cells) == 0 {
 		return w
 	}
 	rt := newRouter(ly, sc)
 	rt.routeNets()
-	rt.finish()
+	rt.finish(unline)
 	var g geom.Sheet
 	rt.emit(&g)
 	w.frames = ly.growFrames(&g)

@@ -28,8 +28,20 @@ func (u *untangler) run() *routed {
 	if best.crossings > 0 && u.o.Untangle && len(best.ly.cells) <= maxRetryCells {
 		best = u.untangle(best)
 	}
+	if u.trial() {
+		// the search compared its trials wired without the unline pass
+		// (which would sway which placement wins); the winner gets it
+		w := route(best.ly, u.sc, true)
+		u.pops += w.pops
+		best.ly.crossing = w.crossing
+		best = &routed{ly: best.ly, w: w, crossings: w.crossings}
+	}
 	return best
 }
+
+// trial says whether layouts are trials of the untangle search, wired
+// without the unline pass until one is chosen.
+func (u *untangler) trial() bool { return u.o.Untangle }
 
 // scratchPool keeps the router's search memory from one sheet to the next
 // (render lays out several views of one circuit): a search starts by
@@ -154,7 +166,7 @@ func (u *untangler) layout(turns map[string]int, free bool) *routed {
 	key := ly.key()
 	w, ok := u.seen[key]
 	if !ok {
-		w = route(ly, u.sc)
+		w = route(ly, u.sc, !u.trial())
 		u.pops += w.pops
 		u.seen[key] = w
 	}
