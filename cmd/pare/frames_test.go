@@ -122,7 +122,7 @@ func eachAtOnce(n int, fn func(i int)) {
 // joined: 1152, 184, 10, 80, 36, 46 and 508; with an oscillator's grid
 // leak and output feed in its template and parts hanging a step under a
 // sideways wire (straight grid wires): 1138, 184, 10, 80, 36, 46 and 502.
-var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots, localsOn, localsNear int }{1138, 184, 10, 80, 36, 46, 500}
+var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots, localsOn, localsNear int }{1138, 126, 10, 76, 32, 46, 502}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame
