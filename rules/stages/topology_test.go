@@ -1061,6 +1061,14 @@ R3 = { r = "1k", pins = ["vt", "bp"] }`,
 Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
 R2 = { r = "1k5", pins = ["bn", "vt"] }
 R3 = { r = "1k", pins = ["vt", "gnd"] }`},
+	// Quasi-complementary: two NPN output transistors, the upper a
+	// Darlington, the lower a complementary feedback pair (a PNP driver
+	// whose collector drives it), two diodes between the drivers' bases.
+	{topology: "quasi-complementary-pair", families: []string{"bjt"}, want: "bjt",
+		parts: quasiPair,
+		// The lower driver an NPN follower too: no complementary feedback
+		// pair, so no quasi-complementary stage.
+		nearMiss: strings.Replace(quasiPair, `Q2 = { bjt = "pnp"`, `Q2 = { bjt = "npn"`, 1)},
 	// The same with a standing-current preset strapped as a rheostat.
 	{topology: "complementary-pair-preset", families: []string{"bjt"}, want: "bjt",
 		parts: complementaryPair + `
@@ -1375,6 +1383,23 @@ R7 = { r = "0R47", pins = ["ep", "out"] }
 R1 = { r = "1k", pins = ["ht", "bn"] }
 Q3 = { bjt = "npn", beta = 150, ic = "5m", pins = { b = "in", c = "bp", e = "gnd" } }
 C3 = { c = "470u", pins = ["out", "spk"] }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }`
+
+// quasiPair is a quasi-complementary output stage: driver Q5, bias diodes,
+// Darlington Q1 Q3 above, complementary feedback pair Q2 Q4 below.
+const quasiPair = `Q1 = { bjt = "npn", beta = 100, ic = "5m", pins = { b = "bn", c = "ht", e = "b3" } }
+Q3 = { bjt = "npn", beta = 50, ic = "50m", pins = { b = "b3", c = "ht", e = "e3" } }
+R8 = { r = "470R", pins = ["b3", "out"] }
+R6 = { r = "0R47", pins = ["e3", "out"] }
+Q2 = { bjt = "pnp", beta = 100, ic = "5m", pins = { b = "bp", c = "b4", e = "out" } }
+Q4 = { bjt = "npn", beta = 50, ic = "50m", pins = { b = "b4", c = "out", e = "e4" } }
+R9 = { r = "100R", pins = ["b4", "gnd"] }
+R7 = { r = "0R47", pins = ["e4", "gnd"] }
+R1 = { r = "1k8", pins = ["ht", "bn"] }
+D1 = { diode = "signal", pins = ["bn", "dm"] }
+D2 = { diode = "signal", pins = ["dm", "bp"] }
+Q5 = { bjt = "npn", beta = 150, ic = "5m", pins = { b = "in", c = "bp", e = "gnd" } }
+C3 = { c = "1000u", pins = ["out", "spk"] }
 LS1 = { spk = "8R", pins = ["spk", "gnd"] }`
 
 // driverPair is a driver with a part-bypassed common lead and a push-pull
