@@ -242,6 +242,11 @@ func (m *model) addPart(p *graph.Part, o *origins) error {
 	switch p.Kind {
 	case graph.Resistor:
 		m.addBranch(p, "", "1", "2", p.Value.Max)
+	case graph.Loudspeaker:
+		// the voice coil is a DC path: the same resistance the AC model
+		// gives it (docs/netlist.md), so a speaker returned straight to a
+		// feedback network or an output's midpoint carries its current
+		m.addBranch(p, "", "1", "2", p.Value.Max)
 	case graph.Pot:
 		m.addBranch(p, "1w", "1", "w", p.Set*p.Value.Max)
 		m.addBranch(p, "w2", "w", "2", (1-p.Set)*p.Value.Max)
