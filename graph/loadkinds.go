@@ -198,11 +198,17 @@ func (ld *loader) transformer(path string, p *Part, m map[string]any) {
 	case map[string]any:
 		for _, pair := range sortedKeys(t) {
 			a, b, ok := strings.Cut(pair, "-")
-			if !ok || p.Winding(a) == nil || p.Winding(b) == nil {
-				ld.errKey(kp+"."+pair, "coupling key %q must name two windings as \"A-B\"", pair)
+			as, bs := windingsNamed(p, a), windingsNamed(p, b)
+			if !ok || len(as) == 0 || len(bs) == 0 {
+				ld.errKey(kp+"."+pair, "coupling key %q must name two windings of %s as \"A-B\" (its windings: %s)", pair, p.Ref, strings.Join(windingsAsWritten(p), ", "))
 				continue
 			}
-			ld.addK(kp+"."+pair, p, a, b, t[pair])
+			// a tapped winding named whole couples both its halves alike
+			for _, x := range as {
+				for _, y := range bs {
+					ld.addK(kp+"."+pair, p, x, y, t[pair])
+				}
+			}
 		}
 	default:
 		// One k for every pair of distinct windings (halves of one tapped
@@ -216,6 +222,19 @@ func (ld *loader) transformer(path string, p *Part, m map[string]any) {
 			}
 		}
 	}
+}
+
+// windingsNamed are the windings a coupling key's name stands for: the
+// winding of that name, or both halves of a tapped winding named whole
+// (NAMEa and NAMEb); none when the part has no such winding.
+func windingsNamed(p *Part, name string) []string {
+	if p.Winding(name) != nil {
+		return []string{name}
+	}
+	if p.Winding(name+"a") != nil && p.Winding(name+"b") != nil {
+		return []string{name + "a", name + "b"}
+	}
+	return nil
 }
 
 func (ld *loader) addK(path string, p *Part, a, b string, v any) {
