@@ -124,6 +124,7 @@ func Check(c *Circuit) ErrorList {
 	w = append(w, checkPorts(c)...)
 	w = append(w, checkEnvelopes(c)...)
 	w = append(w, checkRegionStrays(c)...)
+	w = append(w, checkOutputDCPaths(c)...)
 	w.Sort()
 	return w
 }
