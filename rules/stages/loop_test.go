@@ -107,6 +107,9 @@ func TestOscillatorFoundByLoop(t *testing.T) {
 		{"../../testdata/osc/link-bjt.toml", "Q1", "Oscillator, feedback through T1 (BJT)", ""},
 		{"../../testdata/osc/wien-valve.toml", "V1", "Oscillator, feedback through an RC network (valve)", "V2 oscillates"},
 		{"../../testdata/osc/wien-bjt.toml", "Q1", "Oscillator, feedback through an RC network (BJT)", "Q2 oscillates"},
+		// an LC loop no pattern takes (an anode stopper in the tank's feed):
+		// the coil in the network makes it a tuned circuit, not RC
+		{"../../testdata/loops/colpitts-anode-stopper.toml", "V1", "Oscillator, feedback through a tuned circuit (valve)", ""},
 		{"testdata/link-bjt-reversed.toml", "", "", ""},
 		{"testdata/triode-stage.toml", "", "", ""},
 	}

@@ -176,7 +176,13 @@ func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, 
 		parts = loopParts(c, acg, p, through, claimed, gone)
 	}
 	word := through
-	if word == "" {
+	switch {
+	case word != "":
+	case holdsCoil(c, parts):
+		// an LC network no pattern names (a Colpitts with a lead no
+		// pattern takes): never called RC, which its coil contradicts
+		word = "a tuned circuit"
+	default:
 		word = "an RC network"
 	}
 	st := &Stage{Topology: loopTopology, group: "oscillator", Family: deviceFamily(p),
@@ -405,4 +411,15 @@ func seriesNets(w *world, dev, start int) map[string]bool {
 		frontier = next
 	}
 	return out
+}
+
+// holdsCoil reports whether any of refs is a coil (not an RF choke, which
+// feeds a supply and tunes nothing) or a transformer.
+func holdsCoil(c *graph.Circuit, refs []string) bool {
+	for _, r := range refs {
+		if p := c.Part(r); p != nil && (p.Kind == graph.Inductor && p.Type != graph.IndChoke || p.Kind == graph.Transformer) {
+			return true
+		}
+	}
+	return false
 }

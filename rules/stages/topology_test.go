@@ -131,6 +131,27 @@ L1 = { l = "10u", pins = ["top", "bot"] }
 C2 = { c = "1n", pins = ["top", "gnd"] }
 C3 = { c = "100p", pins = ["g", "top"] }
 C4 = { c = "1n", pins = ["o", "bot"] }`},
+	// The same with a bias resistor in the common lead and a bypass too
+	// small for the reduction to take (a blind reviewer's triode: 270 Ω and
+	// 10 nF at 740 kHz): still a Colpitts, not a loop "through an RC
+	// network".
+	{topology: "colpitts-grounded-tap", families: allFamilies,
+		parts: `@Q1(g, k, o)
+R5 = { r = "270", pins = ["k", "gnd"] }
+C5 = { c = "1n", pins = ["k", "gnd"] }
+L1 = { l = "10u", pins = ["top", "bot"] }
+C1 = { c = "1n", pins = ["bot", "gnd"] }
+C2 = { c = "1n", pins = ["top", "gnd"] }
+C3 = { c = "100p", pins = ["g", "top"] }
+C4 = { c = "1n", pins = ["o", "bot"] }`,
+		// No capacitor on the output side: the coil alone feeds back.
+		nearMiss: `@Q1(g, k, o)
+R5 = { r = "270", pins = ["k", "gnd"] }
+C5 = { c = "1n", pins = ["k", "gnd"] }
+L1 = { l = "10u", pins = ["top", "bot"] }
+C2 = { c = "1n", pins = ["top", "gnd"] }
+C3 = { c = "100p", pins = ["g", "top"] }
+C4 = { c = "1n", pins = ["o", "bot"] }`},
 	// The control electrode at AC ground (common base, grounded grid or
 	// gate): the tank on the output, the divider's tap on the common.
 	{topology: "colpitts-grounded-control", families: allFamilies,
