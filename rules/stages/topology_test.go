@@ -815,6 +815,23 @@ LS1 = { spk = "8", pins = ["spk", "gnd"] }`,
 R1 = { r = "470k", pins = ["g", "gnd"] }
 T1 = { windings = { p = "10", s = "16m" }, k = 0.99, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }
 R2 = { r = "8", pins = ["spk", "gnd"] }`},
+	// The primary's supply end on an HT line the reduction kept live (its
+	// smoothing capacitor and the smoothing resistor no bypass at the band's
+	// low edge: a blind reviewer's single-ended pentode was left unnamed).
+	{topology: "output-transformer", families: allFamilies,
+		parts: `@Q1(g, gnd, a)
+R1 = { r = "470k", pins = ["g", "gnd"] }
+T1 = { windings = { p = "10", s = "16m" }, k = 0.99, pins = { p1 = "a", p2 = "hts", s1 = "spk", s2 = "gnd" } }
+R3 = { r = "470", pins = ["hts", "ht"] }
+C3 = { c = "47u", pins = ["hts", "gnd"] }
+LS1 = { spk = "8", pins = ["spk", "gnd"] }`,
+		// the dummy load again: no loudspeaker
+		nearMiss: `@Q1(g, gnd, a)
+R1 = { r = "470k", pins = ["g", "gnd"] }
+T1 = { windings = { p = "10", s = "16m" }, k = 0.99, pins = { p1 = "a", p2 = "hts", s1 = "spk", s2 = "gnd" } }
+R3 = { r = "470", pins = ["hts", "ht"] }
+C3 = { c = "47u", pins = ["hts", "gnd"] }
+R2 = { r = "8", pins = ["spk", "gnd"] }`},
 	// An RF stage: untuned primary in the anode, the secondary tuned by a
 	// gang section into the next grid (common practice).
 	{topology: "amp-tuned-secondary", families: allFamilies,
