@@ -105,6 +105,7 @@ func (g *Guide) coverageSteps(c *graph.Circuit, st *stages.Stage, coil, tuner *g
 	if tr := trims; len(tr) > 0 {
 		g.Steps = append(g.Steps, Step{Phase: "oscillator", Part: tr[0].Ref, What: "oscillator trimmer " + tr[0].Ref, Freq: wantHi, Osc: wantHi, Counter: out,
 			Watch: fmt.Sprintf("set %s fully open (the high end) and turn %s until the counter reads %s", tuner.Ref, tr[0].Ref, hz(wantHi)), From: from})
+		g.trimmerReach(tr[0], coil, hi, wantHi)
 	} else {
 		g.Warnings = append(g.Warnings, fmt.Sprintf("no trimmer is captured across %s: the top of the coverage cannot be set", coil.Ref))
 	}
@@ -116,5 +117,28 @@ func (g *Guide) coverageSteps(c *graph.Circuit, st *stages.Stage, coil, tuner *g
 	}
 	if len(g.Steps)-first == 2 {
 		g.Repeat = append(g.Repeat, "repeat the two oscillator steps until both ends hold: each pulls the other (common practice)")
+	}
+}
+
+// trimmerReach warns when the trimmer cannot bring the top of the coverage
+// to want: the tank's capacitance at the top, taken from the coil's
+// inductance and the loop's top hi (C = 1/((2πf)²L), handbook; the strays
+// and the divider included, so an estimate), less what the trimmer gives
+// up from its setting to its least, or plus what it adds to its most.
+func (g *Guide) trimmerReach(tr, coil *graph.Part, hi, want float64) {
+	l := coil.Inductance()
+	if l <= 0 || tr.Set <= 0 || hi <= 0 || tr.Value.Max <= tr.Value.Min {
+		return
+	}
+	c := 1 / (math.Pow(2*math.Pi*hi, 2) * l)
+	top := hi * math.Sqrt(c/(c-(tr.Set-tr.Value.Min)))
+	bottom := hi * math.Sqrt(c/(c+(tr.Value.Max-tr.Set)))
+	switch {
+	case want > top*(1+bandSlack):
+		g.Warnings = append(g.Warnings, fmt.Sprintf("%s at its least (%s) brings the top of the coverage only to about %s: the step's %s is beyond its reach (an estimate from %s's inductance); check the coil, the tuning capacitor's minimum and the band in the netlist",
+			tr.Ref, pf(tr.Value.Min), hz(top), hz(want), coil.Ref))
+	case want < bottom*(1-bandSlack):
+		g.Warnings = append(g.Warnings, fmt.Sprintf("%s at its most (%s) brings the top of the coverage down only to about %s: the step's %s is beyond its reach (an estimate from %s's inductance); check the coil and the band in the netlist",
+			tr.Ref, pf(tr.Value.Max), hz(bottom), hz(want), coil.Ref))
 	}
 }
