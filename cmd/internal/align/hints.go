@@ -72,7 +72,7 @@ var hintTable = []hintRow{
 	{[]string{"volume-control"}, false,
 		"worn volume track",
 		"DC readings normal",
-		"injection at the detector load gives a crackling or missing output that changes as the control is moved"},
+		"injection at the top of the control (the detector load, in a receiver) gives a crackling or missing output that changes as the control is moved"},
 	{[]string{"agc-filter"}, false,
 		"leaky AGC decoupling capacitor",
 		"the AGC line stays near zero volts on a strong carrier",
