@@ -105,25 +105,7 @@ func (r *Report) wireBoxes(g *geom.Sheet) {
 // boxSides lists the sides of b along which the segments run, outside b and
 // within boxReach of it, over at least boxCover of the side's length.
 func boxSides(segs []geom.Seg, b geom.Rect) []string {
-	var cover [4]float64 // top, right, bottom, left
-	for _, s := range segs {
-		sb := s.Box()
-		if s.Horizontal() {
-			run := overlap(sb.X0, sb.X1, b.X0, b.X1)
-			if y := sb.Y0; y <= b.Y0 && y >= b.Y0-boxReach {
-				cover[0] += run
-			} else if y >= b.Y1 && y <= b.Y1+boxReach {
-				cover[2] += run
-			}
-			continue
-		}
-		run := overlap(sb.Y0, sb.Y1, b.Y0, b.Y1)
-		if x := sb.X0; x >= b.X1 && x <= b.X1+boxReach {
-			cover[1] += run
-		} else if x <= b.X0 && x >= b.X0-boxReach {
-			cover[3] += run
-		}
-	}
+	cover := geom.SideCover(segs, b, boxReach)
 	names := [4]string{"top", "right", "bottom", "left"}
 	lens := [4]float64{b.W(), b.H(), b.W(), b.H()}
 	var out []string
@@ -134,8 +116,4 @@ func boxSides(segs []geom.Seg, b geom.Rect) []string {
 	}
 	sort.Strings(out)
 	return out
-}
-
-func overlap(a0, a1, b0, b1 float64) float64 {
-	return math.Max(0, math.Min(a1, b1)-math.Max(a0, b0))
 }

@@ -208,3 +208,35 @@ type Sheet struct {
 	// which has no size on paper.
 	PageMM float64
 }
+
+// SideCover is, for each side of b (top, right, bottom, left), how much of
+// its length the segments run along, outside b and within reach of it: the
+// measure of a wire boxing a part or a title (render/check counts such
+// boxes; render/layout lifts a title out of one).
+func SideCover(segs []Seg, b Rect, reach float64) [4]float64 {
+	var cover [4]float64
+	for _, s := range segs {
+		sb := s.Box()
+		if s.Horizontal() {
+			run := Overlap(sb.X0, sb.X1, b.X0, b.X1)
+			if y := sb.Y0; y <= b.Y0 && y >= b.Y0-reach {
+				cover[0] += run
+			} else if y >= b.Y1 && y <= b.Y1+reach {
+				cover[2] += run
+			}
+			continue
+		}
+		run := Overlap(sb.Y0, sb.Y1, b.Y0, b.Y1)
+		if x := sb.X0; x >= b.X1 && x <= b.X1+reach {
+			cover[1] += run
+		} else if x <= b.X0 && x >= b.X0-reach {
+			cover[3] += run
+		}
+	}
+	return cover
+}
+
+// Overlap is the length two intervals share.
+func Overlap(a0, a1, b0, b1 float64) float64 {
+	return math.Max(0, math.Min(a1, b1)-math.Max(a0, b0))
+}

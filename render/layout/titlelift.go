@@ -42,7 +42,7 @@ func (ly *state) liftTitles(frames []geom.Frame, g *geom.Sheet) {
 				continue
 			}
 			for _, s := range w.Segs {
-				if b := s.Box(); s.Horizontal() && b.Y0 <= t.Y0 && b.Y0 >= t.Y0-titleReach && overlapLen(b.X0, b.X1, t.X0, t.X1) > 0 {
+				if b := s.Box(); s.Horizontal() && b.Y0 <= t.Y0 && b.Y0 >= t.Y0-titleReach && geom.Overlap(b.X0, b.X1, t.X0, t.X1) > 0 {
 					top = math.Min(top, b.Y0)
 				}
 			}
@@ -112,25 +112,7 @@ func (ly *state) bandClear(band geom.Rect) bool {
 // and within titleReach of it, over at least titleCover of the side's
 // length (render/check's wire boxes).
 func boxedSides(segs []geom.Seg, b geom.Rect) int {
-	var cover [4]float64 // top, right, bottom, left
-	for _, s := range segs {
-		sb := s.Box()
-		if s.Horizontal() {
-			run := overlapLen(sb.X0, sb.X1, b.X0, b.X1)
-			if y := sb.Y0; y <= b.Y0 && y >= b.Y0-titleReach {
-				cover[0] += run
-			} else if y >= b.Y1 && y <= b.Y1+titleReach {
-				cover[2] += run
-			}
-			continue
-		}
-		run := overlapLen(sb.Y0, sb.Y1, b.Y0, b.Y1)
-		if x := sb.X0; x >= b.X1 && x <= b.X1+titleReach {
-			cover[1] += run
-		} else if x <= b.X0 && x >= b.X0-titleReach {
-			cover[3] += run
-		}
-	}
+	cover := geom.SideCover(segs, b, titleReach)
 	lens := [4]float64{b.W(), b.H(), b.W(), b.H()}
 	n := 0
 	for i, c := range cover {
@@ -139,9 +121,4 @@ func boxedSides(segs []geom.Seg, b geom.Rect) int {
 		}
 	}
 	return n
-}
-
-// overlapLen is the length two intervals share.
-func overlapLen(a0, a1, b0, b1 float64) float64 {
-	return math.Max(0, math.Min(a1, b1)-math.Max(a0, b0))
 }
