@@ -9,8 +9,8 @@ import (
 )
 
 // withDividersApart is the reduced circuit for its sheet with every merged
-// resistor whose members return to different places, one to a supply or
-// bias line and one to chassis, drawn as those members again, each from
+// resistor whose members return to different places (a supply or bias
+// line and chassis, or two lines), drawn as those members again, each from
 // the merged part's signal end to its own return (the line's tag, or an
 // earth). The reduction merges a bias divider's halves, R2 33k from a
 // decoupled line and R3 22k to chassis, into one 13k2 on the line's tag,
@@ -61,8 +61,8 @@ func (r *Result) withDividersApart(c *graph.Circuit, frames []render.Frame) (out
 
 // dividerMembers are the original members of the merged resistor p, each
 // moved onto p's two nets with its own return, when they return to
-// different places and at least one to chassis; nil when p is not such a
-// merge. A member's return is its end off p's signal end: chassis when it
+// different places (a line and chassis, or two lines: a bias point fed from
+// the supply and from the AGC line); nil when p is not such a merge. A member's return is its end off p's signal end: chassis when it
 // was on a ground net, else the line it was on, which must be one the
 // drawing knows (Circuit.ReturnOf finds it among the rails). A member whose
 // signal end is not p's (a merge across nets the reduction joined) leaves p
@@ -83,7 +83,7 @@ func (r *Result) dividerMembers(c *graph.Circuit, p *graph.Part) []*graph.Part {
 	}
 	sig, back := p.Pins[1-ret].Net, p.Pins[ret].Net
 	var out []*graph.Part
-	chassis, line := false, false
+	returns := map[string]bool{} // "" for chassis
 	for _, ref := range from {
 		o := r.Circuit.Part(ref)
 		if o == nil || o.Kind != graph.Resistor || len(o.Pins) != 2 || c.Part(ref) != nil && ref != p.Ref {
@@ -105,17 +105,17 @@ func (r *Result) dividerMembers(c *graph.Circuit, p *graph.Part) []*graph.Part {
 		m.Pins[1-end].Net, m.Pins[1-end].Rail = back, ""
 		switch {
 		case r.Circuit.RoleOf(was) == graph.Ground:
-			chassis = true
+			returns[""] = true
 		default:
 			m.Pins[1-end].Rail = was
 			if n := c.ReturnOf(m.Pins[1-end]); n == nil || n.Name != was || !n.Role.IsRail() {
 				return nil
 			}
-			line = true
+			returns[was] = true
 		}
 		out = append(out, m)
 	}
-	if !chassis || !line {
+	if len(returns) < 2 {
 		return nil
 	}
 	return out

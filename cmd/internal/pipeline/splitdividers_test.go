@@ -78,3 +78,25 @@ func TestMergedDividerDrawnAsHalves(t *testing.T) {
 		t.Errorf("drawn apart: %v, want the %d dividers", split, len(cases))
 	}
 }
+
+// Resistors merged from one net to different lines (review16 b05: R19, R30
+// and R31 feeding three lines from the supply, merged into "R19 9R51 ≡
+// R19, R30, R31"; R5 from the supply line and R6 from the AGC line into one
+// base-bias resistance tagged with the supply alone) are drawn apart too:
+// the reviewer read the lump as three decouplers merged and the AGC return
+// hidden. The reduced sheet labels no merged part holding them.
+func TestMergedLineFeedsDrawnApart(t *testing.T) {
+	res, err := stagesRun("../../../testdata/review16/b05.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	g, err := render.Config{}.Geometry(res.Sheet(render.Reduced))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, l := range g.Labels {
+		if s := strings.Join(l.Lines, " / "); strings.Contains(s, "\u2261 R19") || strings.Contains(s, "\u2261 R5, R6") {
+			t.Errorf("%s is labelled %q: merged feeds from different lines drawn as one", l.Owner, s)
+		}
+	}
+}
