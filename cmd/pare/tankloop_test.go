@@ -28,13 +28,21 @@ import (
 // beside testdata/tanks.
 var tankReviews = []string{"../../testdata/review14/a01.toml", "../../testdata/review15/a01.toml"}
 
-func TestTanksWiredAsLoop(t *testing.T) {
+// tankFiles are testdata/tanks and tankReviews, their sheets drawn ahead
+// (warmSheets) for the tank tests that read them.
+func tankFiles(t *testing.T) []string {
+	t.Helper()
 	files, err := filepath.Glob("../../testdata/tanks/*.toml")
 	if err != nil || len(files) == 0 {
 		t.Fatalf("no tank fixtures: %v", err)
 	}
 	files = append(files, tankReviews...)
 	warmSheets(files, "")
+	return files
+}
+
+func TestTanksWiredAsLoop(t *testing.T) {
+	files := tankFiles(t)
 	for _, f := range files {
 		c, err := graph.LoadFile(f)
 		if err != nil {

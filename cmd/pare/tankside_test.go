@@ -23,12 +23,7 @@ import (
 // Colpitts with the divider's centre on the cathode) and a collector's
 // RF choke under the tank (a choke-fed transistor Colpitts).
 func TestTankElectrodesOnTheirSide(t *testing.T) {
-	files, err := filepath.Glob("../../testdata/tanks/*.toml")
-	if err != nil || len(files) == 0 {
-		t.Fatalf("no tank fixtures: %v", err)
-	}
-	files = append(files, tankReviews...)
-	warmSheets(files, "")
+	files := tankFiles(t)
 	for _, f := range files {
 		c, err := graph.LoadFile(f)
 		if err != nil {
