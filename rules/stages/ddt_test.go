@@ -13,12 +13,19 @@ import (
 	"pare/rules"
 )
 
-// findDetectorFixture reduces a fixture of testdata/detectors and finds its
-// stages as the main job does: the original beside it, with its DC
-// operating point.
+// findDetectorFixture finds the stages of a fixture of testdata/detectors.
 func findDetectorFixture(t *testing.T, name string) []Stage {
 	t.Helper()
-	c, err := graph.LoadFile(filepath.Join("..", "..", "testdata", "detectors", name))
+	_, st := findFixture(t, "detectors", name)
+	return st
+}
+
+// findFixture reduces testdata/DIR/NAME and finds its stages as the main
+// job does: the original beside it, with its DC operating point, which it
+// returns too.
+func findFixture(t *testing.T, dir, name string) (*dc.Point, []Stage) {
+	t.Helper()
+	c, err := graph.LoadFile(filepath.Join("..", "..", "testdata", dir, name))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -30,7 +37,7 @@ func findDetectorFixture(t *testing.T, name string) []Stage {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return find(t, r, Options{Full: c, ACGround: log.ACGround, DC: op})
+	return op, find(t, r, Options{Full: c, ACGround: log.ACGround, DC: op})
 }
 
 // A double-diode-triode (review15 a03, review13 a03): the diodes returned

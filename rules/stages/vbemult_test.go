@@ -2,14 +2,10 @@ package stages
 
 import (
 	"math"
-	"path/filepath"
 	"slices"
 	"testing"
 
-	"pare/graph"
-	"pare/graph/dc"
 	"pare/graph/figure"
-	"pare/rules"
 )
 
 // A Vbe multiplier between a complementary pair's bases is recognised with
@@ -18,19 +14,7 @@ import (
 // (handbook, from memory): 1k5 over 1k gives 2.5·Vbe. Before, the pair
 // with a transistor between its bases matched no pattern.
 func TestVbeMultiplierPair(t *testing.T) {
-	c, err := graph.LoadFile(filepath.Join("..", "..", "testdata", "pairs", "comp-vbe.toml"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	r, log, err := rules.Reduce(c, rules.Options{Level: rules.LevelSignal})
-	if err != nil {
-		t.Fatal(err)
-	}
-	op, err := dc.Solve(c)
-	if err != nil {
-		t.Fatal(err)
-	}
-	st := find(t, r, Options{Full: c, ACGround: log.ACGround, DC: op})
+	op, st := findFixture(t, "pairs", "comp-vbe.toml")
 	s := holding(st, "Q4")
 	if s == nil || s.Topology != "complementary-pair-vbe" || !slices.Contains(s.Parts, "Q2") || !slices.Contains(s.Parts, "Q3") {
 		t.Fatalf("Q4 not a Vbe multiplier with the pair: %s", topologies(st))
