@@ -66,13 +66,17 @@ func (p *Point) Oscillators() []Oscillator {
 	}
 	out := []Oscillator{}
 	bc, _ := p.Biased()
+	// one elaboration per gang setting for every device (ac.Loops): a
+	// fresh one per device elaborated the whole set each time, which on a
+	// bank of channels grew with the square of its size
+	lp := ac.NewLoops(bc)
 	for _, part := range bc.Parts {
 		if !part.IsActive() {
 			continue
 		}
 		best := Oscillator{Ref: part.Ref, MarginDB: -1}
 		for _, g := range oscGangs {
-			l, err := ac.FindLoop(bc, part.Ref, ac.LoopOptions{Options: ac.Options{VarFrac: g, VarSet: true}})
+			l, err := lp.Find(part.Ref, ac.LoopOptions{Options: ac.Options{VarFrac: g, VarSet: true}})
 			if err == nil && l.F > 0 && l.MarginDB > best.MarginDB {
 				best.F, best.MarginDB = l.F, l.MarginDB
 			}
