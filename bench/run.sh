@@ -22,6 +22,12 @@
 # on a shared machine counts waiting for a core. Each phase is a whole `pare` process, so every figure
 # includes loading the file. The machine is shared: run it when it is quiet,
 # or read the ratios rather than the seconds.
+#
+# Last it says whether issue 13's targets are met, from the rows above: the
+# main job at the size nearest 1,000 parts under 2 s and at most 20 times
+# its load, every phase's growth exponent at most 1.2 between the sizes
+# nearest 1,000 and 10,000 parts, and every phase under 300 MB at the size
+# nearest 10,000 (a target whose sizes were not run is left out).
 set -u
 sizes=${1:-100,1000,10000}
 phases=${2:-load,reduce,proof,verify,stages,draw,main}
@@ -81,8 +87,30 @@ for n in ${sizes//,/ }; do
 		}'
 		prev_t[$ph]=$t
 		prev_n[$ph]=$parts
+		echo "$ph $parts $t $kb $load" >>"$work/rows.txt"
 	done
 done
+
+# targets: issue 13's bounds read from the rows (phase parts seconds KB load)
+if [ -s "$work/rows.txt" ]; then
+	echo "# issue 13's targets"
+	awk 'function near(n, want) { return (n > want / 2 && n < want * 2) }
+	{ ph[NR] = $1; n[NR] = $2; t[NR] = $3; kb[NR] = $4; ld[NR] = $5 }
+	END {
+		for (i = 1; i <= NR; i++) {
+			if (ph[i] == "main" && near(n[i], 1000))
+				printf "main job at %d parts: %.2f s (target < 2 s: %s), %.1f x its load (target <= 20: %s)\n", n[i], t[i], (t[i] < 2) ? "met" : "NOT met", (ld[i] > 0) ? t[i] / ld[i] : 0, (ld[i] > 0 && t[i] / ld[i] <= 20) ? "met" : "NOT met"
+			if (near(n[i], 10000)) {
+				printf "%-7s at %d parts: %.0f MB (target < 300 MB: %s)\n", ph[i], n[i], kb[i] / 1024, (kb[i] / 1024 < 300) ? "met" : "NOT met"
+				for (j = 1; j <= NR; j++)
+					if (ph[j] == ph[i] && near(n[j], 1000) && t[j] > 0) {
+						g = log(t[i] / t[j]) / log(n[i] / n[j])
+						printf "%-7s growth %d -> %d parts: %.2f (target <= 1.2: %s)\n", ph[i], n[j], n[i], g, (g <= 1.2) ? "met" : "NOT met"
+					}
+			}
+		}
+	}' "$work/rows.txt"
+fi
 
 if [ "$ladder" -gt 0 ] && command -v ngspice >/dev/null; then
 	"$work/gen" -ladder "$ladder" >"$work/ladder.toml"
