@@ -11,9 +11,10 @@ import (
 // A search's result (the path found, or none, and the number of states it
 // took off its queue) is a function of what it reads: its window's size,
 // where the pin and the tree's box stand in it, whether crossings cost
-// their wide price, and the grid within three steps of the window (the
-// in-line test looks three steps on, the crowding, pin tip and junction
-// tests one step aside). Of
+// their wide price, whether in-line ends cost unline's strict price, and
+// the grid within three steps of the window (the in-line test looks three
+// steps on, the crowding, pin tip and junction tests one step aside), five
+// for a strict search (its in-line test looks unlineReach steps on). Of
 // a grid point it reads only whether each net there, and the net reserved
 // there, is its own, another or none, the arms, and the flags other than
 // the faded ones (beside a pin tip is read from the tips themselves). The same search comes up again and again: a pair of
@@ -32,8 +33,17 @@ import (
 // again, which costs time, never a different drawing.
 const searchMemoMax = 1 << 16
 
-// memoMargin is how far beyond its window a search reads the grid.
+// memoMargin is how far beyond its window a search reads the grid; a
+// strict search (unline.go) looks further, unlineReach.
 const memoMargin = inLineReach
+
+// margin is how far beyond its window the router's next search reads.
+func (rt *router) margin() int {
+	if rt.strict {
+		return max(memoMargin, unlineReach)
+	}
+	return memoMargin
+}
 
 // memoKey is a search's digest.
 type memoKey [2]uint64
@@ -59,6 +69,9 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 	if rt.wide {
 		wide = 1
 	}
+	if rt.strict {
+		wide |= 2 // in-line ends priced as unline prices them
+	}
 	px, py := p.cell%rt.w-win.x0, p.cell/rt.w-win.y0
 	for _, v := range [...]int{px, py, int(p.pin.Dir), k.to.x0 - win.x0, k.to.y0 - win.y0,
 		k.to.x1 - win.x0, k.to.y1 - win.y0, win.x1 - win.x0, win.y1 - win.y0} {
@@ -71,16 +84,16 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 }
 
 // gridKey appends to b the code of every grid point the search k reads
-// (its window and memoMargin round it), row by row. It is most of a
+// (its window and rt.margin() round it), row by row. It is most of a
 // layout's routing time on a whole set, so the buffer is grown once and
 // each row's points off the grid are written apart from those on it,
 // leaving the loop over a row's grid points without a bounds test.
 func (rt *router) gridKey(k *seek, b []byte) []byte {
-	net := k.net
-	xs, xe := k.win.x0-memoMargin, k.win.x1+memoMargin
+	net, m := k.net, rt.margin()
+	xs, xe := k.win.x0-m, k.win.x1+m
 	cols := xe - xs + 1
 	n := len(b)
-	b = slices.Grow(b, 3*cols*(k.win.y1-k.win.y0+1+2*memoMargin))
+	b = slices.Grow(b, 3*cols*(k.win.y1-k.win.y0+1+2*m))
 	b = b[:cap(b)]
 	off := func(from, to int) { // points from..to off the grid
 		for x := from; x <= to; x++ {
@@ -89,7 +102,7 @@ func (rt *router) gridKey(k *seek, b []byte) []byte {
 		}
 	}
 	lo, hi := max(xs, 0), min(xe, rt.w-1)
-	for y := k.win.y0 - memoMargin; y <= k.win.y1+memoMargin; y++ {
+	for y := k.win.y0 - m; y <= k.win.y1+m; y++ {
 		if y < 0 || y >= rt.h || lo > hi {
 			off(xs, xe)
 			continue

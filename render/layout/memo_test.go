@@ -103,3 +103,45 @@ func TestMemoKeysTheCrossingPrice(t *testing.T) {
 		t.Error("with the memo the two prices found other wires than without")
 	}
 }
+
+// TestMemoKeysTheStrictSearch: a strict search (unline.go) is a search of
+// its own to the memo, and its key holds the grid as far beyond its window
+// as its in-line test looks (unlineReach), where a plain search's stops at
+// memoMargin: a point changed between the two margins changes the strict
+// key alone.
+func TestMemoKeysTheStrictSearch(t *testing.T) {
+	ly := handSheet(
+		box{"A1", geom.R(-10, -1, -8, 1), []geom.Pin{pinAt("a", -8, 0, geom.Right)}},
+		box{"A2", geom.R(32, -1, 34, 1), []geom.Pin{pinAt("a", 32, 0, geom.Left)}},
+		box{"B1", geom.R(11, -12, 13, -10), []geom.Pin{pinAt("b", 12, -10, geom.Down)}},
+		box{"B2", geom.R(11, 10, 13, 12), []geom.Pin{pinAt("b", 12, 10, geom.Up)}},
+	)
+	rt := newRouter(ly, &scratch{})
+	from, to := rt.nets[1].pins[0], rt.nets[1].pins[1]
+	reach := max(memoMargin, unlineReach)
+	win := window{reach + 1, reach + 1, rt.w - reach - 2, rt.h - reach - 2}
+	if win.x1 <= win.x0 || win.y1 <= win.y0 || unlineReach <= memoMargin {
+		t.Fatalf("the grid (%d by %d) or the reaches leave no window to test", rt.w, rt.h)
+	}
+	key := func(strict bool) memoKey {
+		rt.strict = strict
+		defer func() { rt.strict = false }()
+		tree := rt.cellRect(from.cell)
+		k := seek{net: 2, home: rt.nets[1].home, pinCell: to.cell, win: win,
+			to: aim{int(tree.X0) - rt.x0, int(tree.Y0) - rt.y0, int(tree.X1) - rt.x0, int(tree.Y1) - rt.y0}}
+		return rt.searchKey(&k, to)
+	}
+	plain, strict := key(false), key(true)
+	if plain == strict {
+		t.Fatal("a strict search and a plain one share a key")
+	}
+	// a point unlineReach steps right of the window, beyond memoMargin
+	c := win.y0*rt.w + win.x1 + unlineReach
+	rt.g[c].flags ^= fBlocked
+	if key(false) != plain {
+		t.Error("a point beyond memoMargin changed a plain search's key")
+	}
+	if key(true) == strict {
+		t.Error("a point unlineReach beyond the window left a strict search's key the same")
+	}
+}

@@ -114,10 +114,6 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 		k.cellAt[d] = st[0] + st[1]*rt.w
 		k.stateAt[d] = 4 * (st[0] + st[1]<<k.shift)
 	}
-	if rt.strict {
-		// rare, and reading further than the memo's margin: not remembered
-		return rt.astar(&k, p)
-	}
 	key := rt.searchKey(&k, p)
 	if e, ok := memoGet(key); ok {
 		rt.pops += e.pops
