@@ -24,6 +24,7 @@ const balanceMost = 12
 // rows, then later page breaks (the first pages the fuller).
 type plan struct {
 	pages, least, rows int
+	splits             int   // page breaks between pieces of one joined stretch (chainBreak)
 	ends               []int // where each row ends
 	starts             []int // the rows, by index, that open a page
 	ok                 bool
@@ -38,6 +39,8 @@ func (p plan) better(q plan) bool {
 		return false
 	case p.pages != q.pages:
 		return p.pages < q.pages
+	case p.splits != q.splits:
+		return p.splits < q.splits
 	case p.least != q.least:
 		return p.least > q.least
 	case p.rows != q.rows:
@@ -87,7 +90,7 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 	}
 	lo := start(ends, w)
 	greedy := f.greedyPlan(ends, laid, w, n, cw, avail)
-	if m-lo > balanceMost || !f.worthSearch(greedy, laid[w:n], lo, m) {
+	if m-lo > balanceMost || greedy.splits == 0 && !f.worthSearch(greedy, laid[w:n], lo, m) {
 		return ends, laid, nil, nil
 	}
 	best, err := f.search(greedy, lo, m, cw, avail)
@@ -130,7 +133,9 @@ func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
 		if err != nil {
 			return plan{}, err
 		}
-		if p.ok && (p.pages < greedy.pages || gap == rowGap && p.pages == greedy.pages && p.least > greedy.least) {
+		same := p.pages == greedy.pages
+		if p.ok && (p.pages < greedy.pages || same && p.splits < greedy.splits ||
+			gap == rowGap && same && p.splits == greedy.splits && p.least > greedy.least) {
 			f.gap = gap
 			return p, nil
 		}
@@ -149,6 +154,9 @@ func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail
 		if p.pages == 0 || used+b.H() > avail || big || used < 0 {
 			if p.pages > 0 {
 				p.least = leastOf(p.least, parts)
+				if f.chainBreak(start(ends, i)) {
+					p.splits++
+				}
 			}
 			p.pages, used, parts = p.pages+1, 0, 0
 			p.starts = append(p.starts, p.rows)
@@ -178,6 +186,14 @@ func (f *flow) worthSearch(p plan, laid []*layout.Result, lo, m int) bool {
 		return true
 	}
 	return 3*p.least*p.pages < f.partsIn(lo, m)
+}
+
+// chainBreak says whether a page opening at stretch c parts two pieces of
+// one joined stretch cut apart (a bridge rectifier and its smoothing
+// filter, review16 a05: the supply chain read across a page break while
+// it fitted one page).
+func (f *flow) chainBreak(c int) bool {
+	return c > 0 && c < len(f.bs) && f.bs[c].chain != 0 && f.bs[c].chain == f.bs[c-1].chain
 }
 
 // leastOf is the smaller count, a = -1 standing for none yet.
@@ -335,9 +351,13 @@ func (s *search) best() (plan, error) {
 				continue
 			}
 			p := plan{ok: true, pages: at[a].pages + 1, least: leastOf(at[a].least, s.f.partsIn(a, b)),
+				splits: at[a].splits,
 				rows:   at[a].rows + len(st.ends),
 				ends:   append(append([]int{}, at[a].ends...), st.ends...),
 				starts: append(append([]int{}, at[a].starts...), at[a].rows)}
+			if a > s.lo && s.f.chainBreak(a) {
+				p.splits++
+			}
 			if p.better(at[b]) {
 				at[b] = p
 			}

@@ -171,6 +171,10 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 func pieceOut(bs []block, ends []int, laid []*layout.Result, cw, ch float64) []block {
 	var out []block
 	cut := false
+	chain := 0
+	for _, b := range bs {
+		chain = max(chain, b.chain)
+	}
 	for i := range ends {
 		a, b := start(ends, i), ends[i]
 		if b-a == 1 && len(bs[a].pieces) > 1 && !fits(laid[i], cw, ch) && !onlyPortsHelp(bs[a], laid[i], cw) {
@@ -178,6 +182,10 @@ func pieceOut(bs []block, ends []int, laid []*layout.Result, cw, ch float64) []b
 			// with the piece it stands after
 			ps := append([]block{}, bs[a].pieces...)
 			sort.SliceStable(ps, func(i, j int) bool { return ps[i].x0 < ps[j].x0 })
+			chain++
+			for k := range ps {
+				ps[k].chain = chain
+			}
 			out = append(out, ps...)
 			cut = true
 			continue

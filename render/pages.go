@@ -74,6 +74,10 @@ type block struct {
 	// page on its own is cut between them (pieces), never through a
 	// frame.
 	pieces []block
+	// chain is, on each piece of a joined stretch cut apart (pieceOut),
+	// a number the pieces share (0 on any other stretch): a page break
+	// between two is avoided where the pages allow (plan.splits).
+	chain int
 }
 
 // join is the stretch a followed by b, remembering both as pieces.
@@ -246,6 +250,7 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 			continue
 		}
 		group, at, ok, signal := []string{}, -1, true, false
+		first, fed := -1, false
 		queue := []*graph.Part{p}
 		seen[p.Ref] = true
 		for len(queue) > 0 {
@@ -253,7 +258,11 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 			queue = queue[1:]
 			group = append(group, q.Ref)
 			for _, pn := range q.Pins {
-				if pn.Net == "" || pn.Net == graph.NotConnected || c.RoleOf(pn.Net).IsACGround() {
+				if pn.Net == "" || pn.Net == graph.NotConnected {
+					continue
+				}
+				if c.RoleOf(pn.Net).IsACGround() {
+					fed = fed || c.RoleOf(pn.Net) == graph.Supply
 					continue
 				}
 				signal = signal || ends[pn.Net]
@@ -262,6 +271,9 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 					if i, in := blockOf[r.Ref]; in {
 						ok = ok && (at < 0 || at == i)
 						at = i
+						if first < 0 || i < first {
+							first = i
+						}
 					} else if free(r) && !seen[r.Ref] {
 						seen[r.Ref] = true
 						queue = append(queue, r)
@@ -271,6 +283,13 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 		}
 		if at < 0 && (signal || len(blockOf) == 0) {
 			continue
+		}
+		// a decoupler (a group fed from a supply rail) whose line feeds
+		// several stretches goes with the first of them in signal order,
+		// the stage it was put in for: review16 b01's oscillator decoupler
+		// stood in its follower's frame, a page from the oscillator
+		if !ok && fed && !signal {
+			ok, at = true, first
 		}
 		if ok {
 			for _, r := range group {

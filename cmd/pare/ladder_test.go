@@ -25,6 +25,10 @@ func TestLaddersDrawnInOrder(t *testing.T) {
 		{"review14/b01.toml", []string{"C1", "R4", "C2", "R5", "C3"}},
 		{"phase-shift/fet-lowpass3.toml", []string{"R1", "C1", "R2", "C2", "R3"}},
 		{"phase-shift/bjt-lowpass4-buffer.toml", []string{"R1", "C1", "R2", "C2", "R3", "C3", "R4"}},
+		// a part-bypassed emitter (a preset's wiper to the bypass): the
+		// ladder had kept the generic placement, its capacitors scattered
+		// round the collector (review16 b01)
+		{"review16/b01.toml", []string{"C6", "R8", "C5", "R7", "C4"}},
 	}
 	for _, tc := range cases {
 		pages, err := cachedPages(filepath.Join("../../testdata", tc.file), render.Reduced, "A3")
@@ -38,6 +42,26 @@ func TestLaddersDrawnInOrder(t *testing.T) {
 			}
 		}
 		checkLadder(t, tc.file, tc.chain, sym)
+	}
+}
+
+// A merged base bias divider that is the ladder's last leg is drawn as its
+// two halves, one to the supply line and one to chassis (as elsewhere on
+// the reduced sheet, splitdividers.go), not as one part marked "≡ R5, R6"
+// that reads as a resistor from the line alone (review16 b01).
+func TestLadderLegDividerApart(t *testing.T) {
+	pages, err := cachedPages("../../testdata/review16/b01.toml", render.Reduced, "A3")
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := map[string]bool{}
+	for _, g := range pages {
+		for _, s := range g.Symbols {
+			got[s.Ref] = true
+		}
+	}
+	if !got["R5"] || !got["R6"] {
+		t.Errorf("review16 b01: the base divider's halves R5 %v, R6 %v: want both drawn", got["R5"], got["R6"])
 	}
 }
 

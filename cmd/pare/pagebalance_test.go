@@ -91,3 +91,74 @@ func TestNoPageOfLeftovers(t *testing.T) {
 		}
 	}
 }
+
+// A small set that goes on one page at the paper's scale (text at
+// MinTextMM) is one page, and a supply chain cut into rows stays on one
+// page where it fits one (common practice: a service sheet prints a small
+// set whole, and the supply from rectifier to smoothing together). The
+// blind review's phase-shift oscillator (review16 b01, 25 parts) took two
+// half-empty faded pages, its oscillator's decoupler standing with the
+// follower on the second; its mains supply (a05) had the bridge on page 1
+// and the smoothing filter on page 2. together are refs that must share a
+// page.
+func TestSmallSetsWhole(t *testing.T) {
+	cases := []struct {
+		file     string
+		view     render.View
+		pages    int
+		together []string
+	}{
+		{"review16/b01.toml", render.Faded, 1, nil},
+		{"review16/b01.toml", render.Reduced, 1, nil},
+		{"review16/a05.toml", render.Faded, 2, []string{"D1", "C5", "R1", "C6"}},
+	}
+	for _, tc := range cases {
+		pages, err := cachedPages(filepath.Join("../../testdata", tc.file), tc.view, "A3")
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(pages) != tc.pages {
+			t.Errorf("%s %s on A3: %d pages, want %d", tc.file, tc.view, len(pages), tc.pages)
+		}
+		page := map[string]int{}
+		for i, g := range pages {
+			for _, s := range g.Symbols {
+				page[s.Ref] = i + 1
+			}
+		}
+		for _, r := range tc.together {
+			if page[r] == 0 || page[r] != page[tc.together[0]] {
+				t.Errorf("%s %s: %s on page %d, %s on page %d: the supply chain split across pages",
+					tc.file, tc.view, tc.together[0], page[tc.together[0]], r, page[r])
+			}
+		}
+	}
+}
+
+// A decoupler (a resistor from the supply and its bypass) whose line feeds
+// several stages is drawn with the first of them in signal order, the
+// stage it was put in for: review16 b01's oscillator decoupler R12, C9
+// stood in the follower's frame (common practice: a decoupler goes with
+// the stage it feeds). Both must lie inside the oscillator's frame's row,
+// nearer Q1 than Q2.
+func TestDecouplerWithItsStage(t *testing.T) {
+	pages, err := cachedPages("../../testdata/review16/b01.toml", render.Faded, "A3")
+	if err != nil {
+		t.Fatal(err)
+	}
+	at := map[string]geom.Rect{}
+	for _, g := range pages {
+		for _, s := range g.Symbols {
+			at[s.Ref] = s.Box
+		}
+	}
+	dist := func(a, b geom.Rect) float64 {
+		dx, dy := (a.X0+a.X1-b.X0-b.X1)/2, (a.Y0+a.Y1-b.Y0-b.Y1)/2
+		return dx*dx + dy*dy
+	}
+	for _, r := range []string{"R12", "C9"} {
+		if dist(at[r], at["Q1"]) >= dist(at[r], at["Q2"]) {
+			t.Errorf("review16 b01 faded: decoupler %s nearer the follower Q2 than the oscillator Q1", r)
+		}
+	}
+}

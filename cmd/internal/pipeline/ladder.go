@@ -168,15 +168,23 @@ func feedbackLadder(l ladder, parts []string, c *graph.Circuit) []render.Place {
 		if half > ladderReach {
 			return nil
 		}
-		if splitLead(dev, parts, c) {
-			return nil // a part-bypassed lead has no slot: the template collided round it
-		}
 		places := []render.Place{{Ref: dev.Ref, Anchor: dev.Ref}}
-		places = append(places, devicePlaces(dev, parts, c)...)
+		row := 2
+		if splitLead(dev, parts, c) {
+			// a part-bypassed lead takes rows 1 and 2 under the device
+			// (leadPlaces) and the ladder runs a row lower, clear of it:
+			// left to the generic placement the ladder came out as
+			// capacitors scattered round the collector (review16 b01)
+			row = 3
+			places = append(places, devicePlaces(dev, parts, c)...)
+			places = append(places, leadPlaces(dev, parts, c)...)
+		} else {
+			places = append(places, devicePlaces(dev, parts, c)...)
+		}
 		for i, ref := range els {
-			pl := render.Place{Ref: ref, Anchor: dev.Ref, Col: i - half, Row: 2, Stand: "horizontal", Line: true}
+			pl := render.Place{Ref: ref, Anchor: dev.Ref, Col: i - half, Row: row, Stand: "horizontal", Line: true}
 			if i%2 == 1 {
-				pl.Row, pl.Stand, pl.Line = 3, "vertical", false
+				pl.Row, pl.Stand, pl.Line = row+1, "vertical", false
 			}
 			places = append(places, pl)
 		}
@@ -213,6 +221,13 @@ func devicePlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Pl
 		case out:
 			places = append(places, render.Place{Ref: r, Anchor: dev.Ref, Col: 1, Row: -1, Stand: "vertical"})
 		case ctl:
+			// a merged bias divider is drawn as its halves across the
+			// wire into the control electrode (halfSlots), not as one
+			// part in a slot of its own: review16 b01's last leg read
+			// "R5 9k56 ≡ R5, R6" where the set has a divider
+			if len(p.Origins()) > 1 {
+				continue
+			}
 			if col >= -ladderReach {
 				places = append(places, render.Place{Ref: r, Anchor: dev.Ref, Col: col, Row: 0, Stand: "vertical"})
 				col--
@@ -255,4 +270,58 @@ func splitLead(dev *graph.Part, parts []string, c *graph.Circuit) bool {
 		}
 	}
 	return false
+}
+
+// ctlPlaces are devicePlaces' slots for the parts on the control
+// electrode alone (bias, the ladder's last leg), for a device whose common
+// lead keeps its generic place.
+func ctlPlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Place {
+	ctl := dev.NetOf(dev.PinWithRole(graph.RoleControl))
+	var out []render.Place
+	for _, pl := range devicePlaces(dev, parts, c) {
+		if hasNet(c.Part(pl.Ref), ctl) {
+			out = append(out, pl)
+		}
+	}
+	return out
+}
+
+// leadPlaces are the slots of a split common lead under its device: the
+// parts on the common electrode in row 1 (the unbypassed resistor, a
+// preset), those on the nets they lead on to in row 2 side by side (the
+// bypassed part, its capacitor), as the trade draws a partly bypassed
+// emitter.
+func leadPlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Place {
+	common := dev.NetOf(dev.PinWithRole(graph.RoleCommon))
+	var out []render.Place
+	placed := map[string]bool{dev.Ref: true}
+	next := map[string]bool{}
+	col := 0
+	for _, r := range parts {
+		p := c.Part(r)
+		if p == nil || placed[r] || p.IsActive() || !hasNet(p, common) {
+			continue
+		}
+		placed[r] = true
+		out = append(out, render.Place{Ref: r, Anchor: dev.Ref, Col: col, Row: 1, Stand: "vertical"})
+		col++
+		for _, pn := range p.Pins {
+			if pn.Net != common && !c.RoleOf(pn.Net).IsACGround() {
+				next[pn.Net] = true
+			}
+		}
+	}
+	col = 0
+	for _, r := range parts {
+		p := c.Part(r)
+		if p == nil || placed[r] || p.IsActive() || len(p.Pins) != 2 || col > ladderReach {
+			continue
+		}
+		if next[p.Pins[0].Net] || next[p.Pins[1].Net] {
+			placed[r] = true
+			out = append(out, render.Place{Ref: r, Anchor: dev.Ref, Col: col, Row: 2, Stand: "vertical"})
+			col++
+		}
+	}
+	return out
 }
