@@ -250,7 +250,7 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 			continue
 		}
 		group, at, ok, signal := []string{}, -1, true, false
-		first, fed := -1, false
+		loads, fed := map[int]bool{}, false
 		queue := []*graph.Part{p}
 		seen[p.Ref] = true
 		for len(queue) > 0 {
@@ -271,8 +271,8 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 					if i, in := blockOf[r.Ref]; in {
 						ok = ok && (at < 0 || at == i)
 						at = i
-						if first < 0 || i < first {
-							first = i
+						if loadOn(c, r, pn.Net) {
+							loads[i] = true
 						}
 					} else if free(r) && !seen[r.Ref] {
 						seen[r.Ref] = true
@@ -284,12 +284,16 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 		if at < 0 && (signal || len(blockOf) == 0) {
 			continue
 		}
-		// a decoupler (a group fed from a supply rail) whose line feeds
-		// several stretches goes with the first of them in signal order,
-		// the stage it was put in for: review16 b01's oscillator decoupler
-		// stood in its follower's frame, a page from the oscillator
-		if !ok && fed && !signal {
-			ok, at = true, first
+		// a decoupler (a group fed from a supply rail) whose line reaches
+		// several stretches goes with the one stretch whose device's load
+		// it feeds, the stage it was put in for (the others take only
+		// bias or a follower's collector from the line): review16 b01's
+		// oscillator decoupler stood in its follower's frame, a page from
+		// the oscillator
+		if !ok && fed && !signal && len(loads) == 1 {
+			for i := range loads {
+				ok, at = true, i
+			}
 		}
 		if ok {
 			for _, r := range group {
@@ -298,6 +302,28 @@ func beside(c *graph.Circuit, blockOf map[string]int) map[string]int {
 		}
 	}
 	return out
+}
+
+// loadOn says whether part p is a load fed from line: a two-terminal
+// passive part from line to a device's output electrode (an anode,
+// collector or drain load).
+func loadOn(c *graph.Circuit, p *graph.Part, line string) bool {
+	if len(p.Pins) != 2 || p.IsActive() || p.Kind == graph.Port {
+		return false
+	}
+	other := p.Pins[0].Net
+	if other == line {
+		other = p.Pins[1].Net
+	}
+	if other == line || other == "" || other == graph.NotConnected || c.RoleOf(other).IsACGround() {
+		return false
+	}
+	for _, cn := range c.ConnsOf(other) {
+		if d := cn.Part; d != nil && d.IsActive() && d.NetOf(d.PinWithRole(graph.RoleOutput)) == other {
+			return true
+		}
+	}
+	return false
 }
 
 // leadingPorts joins the ports that open a channel (its input sockets) to

@@ -21,17 +21,23 @@ func TestLaddersDrawnInOrder(t *testing.T) {
 	cases := []struct {
 		file  string
 		chain []string
+		view  render.View // Reduced when left out
 	}{
-		{"review14/b01.toml", []string{"C1", "R4", "C2", "R5", "C3"}},
-		{"phase-shift/fet-lowpass3.toml", []string{"R1", "C1", "R2", "C2", "R3"}},
-		{"phase-shift/bjt-lowpass4-buffer.toml", []string{"R1", "C1", "R2", "C2", "R3", "C3", "R4"}},
+		{"review14/b01.toml", []string{"C1", "R4", "C2", "R5", "C3"}, render.Reduced},
+		{"phase-shift/fet-lowpass3.toml", []string{"R1", "C1", "R2", "C2", "R3"}, render.Reduced},
+		{"phase-shift/bjt-lowpass4-buffer.toml", []string{"R1", "C1", "R2", "C2", "R3", "C3", "R4"}, render.Reduced},
 		// a part-bypassed emitter (a preset's wiper to the bypass): the
 		// ladder had kept the generic placement, its capacitors scattered
 		// round the collector (review16 b01)
-		{"review16/b01.toml", []string{"C6", "R8", "C5", "R7", "C4"}},
+		{"review16/b01.toml", []string{"C6", "R8", "C5", "R7", "C4"}, render.Reduced},
+		// the full and faded sheets draw the ladder on the original
+		// parts the same way: the generic placement had wound it round
+		// the collector and the base divider
+		{"review16/b01.toml", []string{"C6", "R8", "C5", "R7", "C4"}, render.Faded},
+		{"osc/phase-shift-valve.toml", []string{"C3", "R2", "C2", "R1", "C1"}, render.Faded},
 	}
 	for _, tc := range cases {
-		pages, err := cachedPages(filepath.Join("../../testdata", tc.file), render.Reduced, "A3")
+		pages, err := cachedPages(filepath.Join("../../testdata", tc.file), tc.view, "A3")
 		if err != nil {
 			t.Fatal(err)
 		}

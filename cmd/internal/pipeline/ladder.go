@@ -128,7 +128,7 @@ func ladderPlaces(parts []string, c *graph.Circuit) []render.Place {
 	if !ok {
 		return nil
 	}
-	return feedbackLadder(l, parts, c)
+	return feedbackLadder(l, parts, c, func(n string) bool { return c.RoleOf(n).IsACGround() })
 }
 
 // ladderReach is how many slots a template reaches either side of its
@@ -145,7 +145,7 @@ const ladderReach = 4
 // joins. Nil when no device of the stage has the ladder's ends on its
 // output and control electrodes, or the ladder is longer than a template
 // reaches.
-func feedbackLadder(l ladder, parts []string, c *graph.Circuit) []render.Place {
+func feedbackLadder(l ladder, parts []string, c *graph.Circuit, held func(string) bool) []render.Place {
 	first, last := c.Part(l.elems[0]), c.Part(l.elems[len(l.elems)-1])
 	for _, r := range parts {
 		dev := c.Part(r)
@@ -170,16 +170,13 @@ func feedbackLadder(l ladder, parts []string, c *graph.Circuit) []render.Place {
 		}
 		places := []render.Place{{Ref: dev.Ref, Anchor: dev.Ref}}
 		row := 2
+		places = append(places, devicePlaces(dev, parts, c, held)...)
 		if splitLead(dev, parts, c) {
-			// a part-bypassed lead takes rows 1 and 2 under the device
-			// (leadPlaces) and the ladder runs a row lower, clear of it:
-			// left to the generic placement the ladder came out as
-			// capacitors scattered round the collector (review16 b01)
-			row = 3
-			places = append(places, devicePlaces(dev, parts, c)...)
+			// a part-bypassed lead takes row 1 under the device
+			// (leadPlaces), the ladder row 2 under it: left to the
+			// generic placement the ladder came out as capacitors
+			// scattered round the collector (review16 b01)
 			places = append(places, leadPlaces(dev, parts, c)...)
-		} else {
-			places = append(places, devicePlaces(dev, parts, c)...)
 		}
 		for i, ref := range els {
 			pl := render.Place{Ref: ref, Anchor: dev.Ref, Col: i - half, Row: row, Stand: "horizontal", Line: true}
@@ -198,7 +195,7 @@ func feedbackLadder(l ladder, parts []string, c *graph.Circuit) []render.Place {
 // its output electrode to AC ground (its load to the rail) above and
 // right of it, those from its control electrode to AC ground (bias, the
 // ladder's last leg) hanging from the wire into it, left of it.
-func devicePlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Place {
+func devicePlaces(dev *graph.Part, parts []string, c *graph.Circuit, held func(string) bool) []render.Place {
 	common, out := dev.NetOf(dev.PinWithRole(graph.RoleCommon)), dev.NetOf(dev.PinWithRole(graph.RoleOutput))
 	ctl := dev.NetOf(dev.PinWithRole(graph.RoleControl))
 	var places []render.Place
@@ -209,11 +206,11 @@ func devicePlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Pl
 			continue
 		}
 		a, b := p.Pins[0].Net, p.Pins[1].Net
-		if c.RoleOf(a).IsACGround() {
+		if held(a) {
 			a, b = b, a
 		}
-		if !c.RoleOf(b).IsACGround() || c.RoleOf(a).IsACGround() {
-			continue
+		if !held(b) || held(a) || a != out && !c.RoleOf(b).IsACGround() {
+			continue // a line is a rail to the output load only
 		}
 		switch a {
 		case common:
@@ -272,19 +269,10 @@ func splitLead(dev *graph.Part, parts []string, c *graph.Circuit) bool {
 	return false
 }
 
-// ctlPlaces are devicePlaces' slots for the parts on the control
-// electrode alone (bias, the ladder's last leg), for a device whose common
-// lead keeps its generic place.
-func ctlPlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Place {
-	ctl := dev.NetOf(dev.PinWithRole(graph.RoleControl))
-	var out []render.Place
-	for _, pl := range devicePlaces(dev, parts, c) {
-		if hasNet(c.Part(pl.Ref), ctl) {
-			out = append(out, pl)
-		}
-	}
-	return out
-}
+// leadRow2 and leadRow2Col are where leadPlaces puts the parts a split
+// lead leads on to: beside the lead's first part in its row, so the lead
+// takes one row and the ladder keeps row 2.
+const leadRow2, leadRow2Col = 1, 1
 
 // leadPlaces are the slots of a split common lead under its device: the
 // parts on the common electrode in row 1 (the unbypassed resistor, a
@@ -311,7 +299,7 @@ func leadPlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Plac
 			}
 		}
 	}
-	col = 0
+	col = max(col, leadRow2Col)
 	for _, r := range parts {
 		p := c.Part(r)
 		if p == nil || placed[r] || p.IsActive() || len(p.Pins) != 2 || col > ladderReach {
@@ -319,9 +307,45 @@ func leadPlaces(dev *graph.Part, parts []string, c *graph.Circuit) []render.Plac
 		}
 		if next[p.Pins[0].Net] || next[p.Pins[1].Net] {
 			placed[r] = true
-			out = append(out, render.Place{Ref: r, Anchor: dev.Ref, Col: col, Row: 2, Stand: "vertical"})
+			out = append(out, render.Place{Ref: r, Anchor: dev.Ref, Col: col, Row: leadRow2, Stand: "vertical"})
 			col++
 		}
 	}
 	return out
+}
+
+// fullLadder is ladderPlaces on the original circuit's sheet, none when a
+// part the stage does not hold hangs on the device's common electrode (a
+// cathode bias the reduction removed, faded): the template's common-lead
+// slots left it where the ladder goes, and the router failed the anode
+// and cathode nets (testdata/phase-shift/valve-highpass4, faded).
+func fullLadder(parts []string, reduced, full *graph.Circuit) []render.Place {
+	l, ok := findLadder(parts, full)
+	if !ok {
+		return nil
+	}
+	// a decoupled supply line (a net the reduction held at AC ground or
+	// took away) is a rail to the device's output load: the collector
+	// load goes up over the output electrode as on the reduced sheet,
+	// where left in the generic place it stood in the ladder's row
+	// (good/review-osc-c3-phaseshift); the bias to it keeps its generic
+	// place, which hung review16 b01's divider clear of the ladder
+	held := func(n string) bool {
+		return full.RoleOf(n).IsACGround() || reduced.Net(n) == nil || reduced.RoleOf(n).IsACGround()
+	}
+	places := feedbackLadder(l, parts, full, held)
+	if len(places) == 0 {
+		return nil
+	}
+	dev := full.Part(places[0].Anchor)
+	common := dev.NetOf(dev.PinWithRole(graph.RoleCommon))
+	if common == "" || full.RoleOf(common).IsACGround() {
+		return places
+	}
+	for _, k := range full.ConnsOf(common) {
+		if k.Part != nil && k.Part != dev && !slices.Contains(parts, k.Part.Ref) {
+			return nil
+		}
+	}
+	return places
 }

@@ -21,7 +21,10 @@ import (
 // pushed the centre tap level with the upper valve, review14 a04 faded).
 func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *graph.Circuit, loose []string) []render.Place {
 	if full != nil && !fullTemplates[s.Topology] {
-		return nil
+		// a feedback ladder is drawn as a ladder on every sheet: left to
+		// the generic placement, review16 b01's faded view wound it round
+		// the collector and the base divider
+		return fullLadder(originals(s.Parts, reduced, full), reduced, full)
 	}
 	var out []render.Place
 	var walk func(s stages.Stage)
