@@ -80,7 +80,7 @@ func (x *figCtx) netDist(net int, skip ...int) int {
 	if x.w.isInput(net) {
 		return -1
 	}
-	dist := x.w.signalDist()
+	dist := x.w.forwardDist()
 	d := math.MaxInt
 	for _, ci := range x.w.conns[net] {
 		if slices.Contains(skip, ci) {

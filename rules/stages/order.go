@@ -34,7 +34,20 @@ func signalOrder(c *graph.Circuit) order { return walkOrder(c, false) }
 // driver or phase splitter that feeds them.
 func namingOrder(c *graph.Circuit) order { return walkOrder(c, true) }
 
-func walkOrder(c *graph.Circuit, skipBack bool) order {
+// forwardOrder is signalOrder walked the way the signal flows: into an
+// amplifying device at its control or common electrode and out at its
+// output or common, never out of a control electrode's net into a passive
+// part (a declared input's excepted: it is driven). What hangs on a base or
+// grid besides its device (a feedback resistor, the capacitor that brings
+// the output back to it, a DC feedback chain) carries the signal into the
+// electrode, not out of it. Walked both ways, review16 b04's feedback
+// capacitor C14 (loudspeaker to R14 to the driver's base) was reached from
+// the base three parts before the loudspeaker, so its load was taken on the
+// loudspeaker's side (48.5 kHz into 3.28 Ω) and the output coupling C9 was
+// paired with the DC feedback resistor on its own driven side.
+// walkStarts are the nets an order walks from: the circuit's inputs, else
+// its regions' inputs, else the one graph.InferredInput gives.
+func walkStarts(c *graph.Circuit) []string {
 	// A region's input is a point inside the chain (the IF strip starts at
 	// the mixer's anode); it only helps when the circuit names no inputs.
 	starts := append([]string(nil), c.Inputs...)
@@ -56,6 +69,46 @@ func walkOrder(c *graph.Circuit, skipBack bool) order {
 			starts = []string{n}
 		}
 	}
+	return starts
+}
+
+func forwardOrder(c *graph.Circuit) order {
+	starts := walkStarts(c)
+	control := map[string]bool{}
+	for _, p := range c.Parts {
+		if p.IsActive() {
+			for _, pin := range p.Pins {
+				if graph.RoleOfPin(p.Kind, pin.Name) == graph.RoleControl {
+					control[pin.Net] = true
+				}
+			}
+		}
+	}
+	for _, n := range starts {
+		delete(control, n)
+	}
+	w := graph.NewWalk(c.View())
+	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }
+	w.Enter = func(p *graph.Part, pin string) bool {
+		if p.IsActive() {
+			r := graph.RoleOfPin(p.Kind, pin)
+			return r == graph.RoleControl || r == graph.RoleCommon
+		}
+		return !control[p.NetOf(pin)]
+	}
+	w.Leave = func(p *graph.Part, pin string) bool {
+		return !p.IsActive() || graph.RoleOfPin(p.Kind, pin) != graph.RoleControl
+	}
+	w.FromNets(starts, 0)
+	dist := order{}
+	for _, p := range w.Parts() {
+		dist[p.Ref], _ = w.PartDist(p)
+	}
+	return dist
+}
+
+func walkOrder(c *graph.Circuit, skipBack bool) order {
+	starts := walkStarts(c)
 	v := c.View()
 	w := graph.NewWalk(v)
 	w.Follow = func(n string) bool { return !c.RoleOf(n).IsACGround() }

@@ -34,6 +34,7 @@ type world struct {
 	roles    [][]graph.TermRole  // part index → role per pin
 	index    map[*graph.Part]int // part → its index
 	dist     order               // part ref → distance from the inputs, built on first use
+	fwd      order               // dist walked the way the signal flows (forwardOrder), built on first use
 	// walks are the formula's tracking walks done on this world
 	// (formulaWalk), by the tanks they walk.
 	walks map[formulaWalkKey]walkMemo
@@ -54,6 +55,15 @@ func (w *world) signalDist() order {
 		w.dist = signalOrder(w.c)
 	}
 	return w.dist
+}
+
+// forwardDist is each part's distance from the circuit's inputs walked
+// the way the signal flows (forwardOrder), built once per world.
+func (w *world) forwardDist() order {
+	if w.fwd == nil {
+		w.fwd = forwardOrder(w.c)
+	}
+	return w.fwd
 }
 
 // isInput tells whether a net is a declared input of the circuit.
