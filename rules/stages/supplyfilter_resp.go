@@ -24,9 +24,16 @@ import (
 // on, before) gives it.
 func (x *figCtx) filterResponse(in, out int) (*ac.Response, error) {
 	inName, outName := x.netName(in), x.netName(out)
-	keep := x.filterParts(in, out, true)
+	lines := x.agcLines()
+	keep := x.w.reachPast([]int{out}, []int{in}, true, lines)
 	ends := []string{inName, outName}
-	sub := x.cutFreed(keep, ends, ends)
+	freed := ends
+	for id := range lines {
+		freed = append(freed, x.netName(id))
+	}
+	slices.Sort(freed[2:])
+	sub := x.cutFreed(keep, ends, freed)
+	sub.Inputs = x.unfedInputs(sub.Inputs, in, out)
 	if x.keepsDiode(keep) {
 		// The walk that passes the other rails as well keeps the circuit
 		// whose DC paths give the diodes their loads; the section's
@@ -35,16 +42,85 @@ func (x *figCtx) filterResponse(in, out int) (*ac.Response, error) {
 		// (each elaboration of the wide one took a DC load for every
 		// detector of the set, which grew with its square).
 		if solveWide {
-			wide := x.cutFreed(x.filterParts(in, out, false), ends, ends)
+			wide := x.cutFreed(x.filterParts(in, out, false), ends, freed)
+			wide.Inputs = sub.Inputs
 			return ac.NewTransfer(wide, inName, outName, gangMid.options())
 		}
-		dc, ok := x.dcCut(keep, in, ends)
+		dc, ok := x.dcCut(keep, in, freed)
 		if !ok {
-			dc = x.cutFreed(x.filterParts(in, out, false), ends, ends)
+			dc = x.cutFreed(x.filterParts(in, out, false), ends, freed)
 		}
 		sub.DetectorLoads = withLoads(x.w.c.DetectorLoads, ac.DetectorLoads(dc, sub.Parts))
 	}
 	return ac.NewTransfer(sub, inName, outName, gangMid.options())
+}
+
+// unfedInputs is inputs without those the section feeds: a declared input
+// joined for DC to the section's output net out (not through in) is an
+// output electrode's node, a collector or anode fed from the line through
+// its load (a transformer's primary, a load resistor) by a device beyond
+// the circuit's edge, and a collector or anode is a current source, a high
+// impedance: undriven it is open (an input on a device's control
+// electrode is that device's signal, and stays held), not the ideal 0 V source the solver
+// holds a declared input at. Held at 0 V, review16 b03's IF rail
+// decoupler (R10 into C13, C14) was loaded by the first IF can's primary
+// from the rail to the mixer's collector at AC ground: f c 315.7 Hz where
+// ngspice, the collector open, gives 7.237 Hz (the formula 7.231 Hz).
+func (x *figCtx) unfedInputs(inputs []string, in, out int) []string {
+	if len(inputs) == 0 {
+		return inputs
+	}
+	fed := x.dcJoinedFrom(out, in)
+	var kept []string
+	for _, n := range inputs {
+		if id, ok := x.w.netID[n]; ok && fed[id] && !x.onControl(id) {
+			continue
+		}
+		kept = append(kept, n)
+	}
+	return kept
+}
+
+// onControl tells whether a control electrode (a grid, base or gate) of
+// a device in the circuit is on net id: an input there is a signal fed to
+// that device (a base biased from the line through its upper resistor),
+// not a collector or anode beyond the circuit's edge.
+func (x *figCtx) onControl(id int) bool {
+	for _, ci := range x.w.conns[id] {
+		for j, at := range x.w.pins[ci] {
+			if at == id && x.w.parts[ci].IsActive() && x.w.roles[ci][j] == graph.RoleControl {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// dcJoinedFrom is the nets joined for DC to net from (dcStep: resistors,
+// pot tracks, coils, one winding's ends, closed switches), not through
+// stop, ground or any other net the solver takes as ground, bounded by
+// filterWalkDepth parts: a feed runs through a load, a winding and a
+// stopper, no further.
+func (x *figCtx) dcJoinedFrom(from, stop int) map[int]bool {
+	seen := map[int]bool{from: true, stop: true}
+	frontier := []int{from}
+	for depth := 0; depth < filterWalkDepth && len(frontier) > 0; depth++ {
+		var next []int
+		for _, id := range frontier {
+			for _, ci := range x.w.conns[id] {
+				x.dcStep(ci, id, func(o int) {
+					if seen[o] || o == groundNet || x.w.role[o].IsACGround() {
+						return
+					}
+					seen[o] = true
+					next = append(next, o)
+				})
+			}
+		}
+		frontier = next
+	}
+	delete(seen, stop)
+	return seen
 }
 
 // cutFreed is the world's circuit cut to the parts idx (ascending), with
@@ -115,10 +191,41 @@ func (x *figCtx) filterParts(in, out int, atGround bool) []int {
 	return x.w.reach([]int{out}, []int{in}, atGround)
 }
 
+// agcLines are the nets of the world that are AGC lines (a bias rail
+// without volts: declared so, or marked so by the reduction,
+// withAGCLines): the solver holds them at AC ground, which they are at the
+// signal's frequencies, not at a decoupler's few hertz, where the line's
+// own capacitor is kilohms. A supply filter's response is solved with
+// them free: review16 b03's IF rail decoupler fed Q1's bias chain down to
+// the AGC line, 7.637 Hz held, 8.121 Hz free (ngspice 8.119 Hz).
+func (x *figCtx) agcLines() map[int]bool {
+	out := map[int]bool{}
+	for id, r := range x.w.role {
+		if r != graph.Bias || id == groundNet {
+			continue
+		}
+		if i, ok := x.w.netAt[x.netName(id)]; ok && x.w.c.Nets[i].Volts == 0 {
+			out[id] = true
+		}
+	}
+	return out
+}
+
+// reachPast is reach with the nets of past walked through even where the
+// solver takes them as ground.
+func (w *world) reachPast(from, stop []int, atGround bool, past map[int]bool) []int {
+	return w.reachWith(from, stop, func(o int) bool { return !atGround || past[o] || !w.role[o].IsACGround() })
+}
+
 // reach is the parts (ascending) reached from the nets from without
 // passing the nets stop or the folded ground, nor, with atGround, any
 // other net the solver takes as ground.
 func (w *world) reach(from, stop []int, atGround bool) []int {
+	return w.reachWith(from, stop, func(o int) bool { return !atGround || !w.role[o].IsACGround() })
+}
+
+// reachWith is reach going on from the nets next says.
+func (w *world) reachWith(from, stop []int, goOn func(int) bool) []int {
 	seen := map[int]bool{groundNet: true}
 	for _, id := range stop {
 		seen[id] = true
@@ -130,7 +237,7 @@ func (w *world) reach(from, stop []int, atGround bool) []int {
 	var idx []int
 	frontier := from
 	for len(frontier) > 0 {
-		var next []int
+		var more []int
 		for _, id := range frontier {
 			for _, ci := range w.conns[id] {
 				if in[ci] {
@@ -141,14 +248,14 @@ func (w *world) reach(from, stop []int, atGround bool) []int {
 				for _, o := range w.pins[ci] {
 					if !seen[o] {
 						seen[o] = true
-						if !atGround || !w.role[o].IsACGround() {
-							next = append(next, o)
+						if goOn(o) {
+							more = append(more, o)
 						}
 					}
 				}
 			}
 		}
-		frontier = next
+		frontier = more
 	}
 	slices.Sort(idx)
 	return idx
