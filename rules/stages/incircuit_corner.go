@@ -200,3 +200,29 @@ func (x *figCtx) rcCorner(rp, cp *graph.Part, fc float64, highPass bool) {
 	x.putChecked(sv, &check, why)
 	x.cornerTau(sv)
 }
+
+// holdsAtGround tells whether an RC section is no low-pass the signal
+// passes through: another part joins the resistor's two ends (a winding
+// across it: the resistor is that winding's load and the capacitor holds
+// the winding's cold end at AC ground, the signal never runs through the
+// resistor into the capacitor). A name implying behaviour is confirmed by
+// behaviour:
+// review16 b02's "RC low-pass section C7 R5" (3.288 kHz in a MW stage,
+// 525 kHz up) was the link winding's load R5 and the mixer's bias
+// decoupler C7.
+func (x *figCtx) holdsAtGround(rs, cs []*graph.Part) bool {
+	if len(rs) != 1 || len(cs) != 1 {
+		return false
+	}
+	in, out, ok := x.rcNets(rs[0], cs[0])
+	if !ok {
+		return false
+	}
+	ri, cj := x.partIndex(rs[0]), x.partIndex(cs[0])
+	for _, ci := range x.w.conns[in] {
+		if ci != ri && ci != cj && x.w.joins(ci, in, out) {
+			return true
+		}
+	}
+	return false
+}

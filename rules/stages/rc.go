@@ -41,6 +41,9 @@ func calcRC(x *figCtx) {
 	if use == "section" && x.backwards(x.parts("r"), x.parts("c")) {
 		return // the capacitor is the previous section's: no figures, the guard drops the match
 	}
+	if use == "section" && x.holdsAtGround(x.parts("r"), x.parts("c")) {
+		return // no low-pass in the signal path: a decoupler; the guard drops the match
+	}
 	if use == "coupling" && x.upstream(x.parts("r"), x.parts("c")) {
 		return // the resistor is the source's (an anode load, a source resistor): no figures, the guard drops the match
 	}
