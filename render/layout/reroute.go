@@ -94,11 +94,12 @@ func (rt *router) budget() int { return 200000 + 50*len(rt.ly.cells) }
 type saved struct {
 	cells []int
 	arms  []uint8
+	ok    bool // whether the wiring reached every pin
 }
 
 func (rt *router) save(id int) saved {
 	net := int32(id + 1)
-	var s saved
+	s := saved{ok: rt.nets[id].ok}
 	for _, c := range rt.nets[id].cells {
 		s.cells = append(s.cells, c)
 		s.arms = append(s.arms, rt.arms(c, net))
@@ -114,7 +115,10 @@ func (rt *router) restore(id int, s saved) {
 		}
 	}
 	rt.nets[id].cells = append([]int(nil), s.cells...)
-	rt.nets[id].ok = true
+	// a net that had failed stays failed, so finish flags it: restored
+	// as wired, review16 a01's tank net kept its partial wiring and the
+	// divider capacitor's lead was drawn bare
+	rt.nets[id].ok = s.ok
 }
 
 // crossingsOf counts the cells where the given nets cross another net.

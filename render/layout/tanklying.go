@@ -1,6 +1,8 @@
 package layout
 
 import (
+	"math"
+
 	"pare/graph"
 	"pare/render/geom"
 )
@@ -32,8 +34,23 @@ func (ly *state) live(net string) bool {
 
 // labelUnderCoil puts a lying coil's label under it: above it stand its
 // capacitors, and a label between the two would sit inside the loop.
+//
+// A label wider than the coil is moved right until it starts at the left
+// end's column: the router keeps a wire off every grid line a label's box
+// reaches into, and a centred label a fifth of a step past the left end
+// closed the column the wire from that end takes down to the divider
+// capacitor standing just outside it (review16 a01: C2's lead was left
+// unwired).
 func (ly *state) labelUnderCoil(coil *cell) {
 	placeLabel(ly.c, coil, []geom.Dir{geom.Down, geom.Left, geom.Right, geom.Up})
+	b := coil.label.Box
+	if len(coil.shape.Pins) != 2 || b.Y0 < coil.shape.Box.Y1 {
+		return // not under it
+	}
+	left := math.Min(coil.shape.Pins[0].At.X, coil.shape.Pins[1].At.X)
+	if b.X0 < left {
+		coil.label.Box = b.Move(geom.Pt{X: left - b.X0})
+	}
 }
 
 // levelLying levels, in a template's row other than the anchor's, the

@@ -284,6 +284,13 @@ func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, inner b
 			d = geom.Pt{X: p1.At.X - top.At.X, Y: math.Min(p1.At.Y, p2.At.Y) - 2 - k - cp.shape.Box.Y1}
 		}
 		d.X = math.Round(d.X)
+		// the pins on the grid, the gap no smaller: a lying capacitor's
+		// box reaches 0.9 past its pins, and a box-based step above the
+		// coil left its pins 0.1 off the grid, where the router's wires
+		// (on the grid) missed them (review16 a01's tuning capacitor and
+		// trimmer read unwired, and its divider capacitor's lead was left
+		// bare)
+		d.Y = math.Floor(top.At.Y+d.Y+1e-9) - top.At.Y
 		if dir != geom.Up {
 			if y, ok := ly.levelTo(cp, p1, p2); ok {
 				d.Y = y
