@@ -209,8 +209,17 @@ func devicePlaces(dev *graph.Part, parts []string, c *graph.Circuit, held func(s
 		if held(a) {
 			a, b = b, a
 		}
-		if !held(b) || held(a) || a != out && !c.RoleOf(b).IsACGround() {
-			continue // a line is a rail to the output load only
+		feed := a == ctl && !c.RoleOf(b).IsACGround() && len(p.Origins()) == 1
+		if !held(b) || held(a) || a != out && !c.RoleOf(b).IsACGround() && !feed {
+			continue // a line is a rail to the output load and a bias feed only
+		}
+		if feed {
+			// a bias feed from a decoupled line stands over the wire into
+			// the control electrode, up to its line: left to the generic
+			// placement it took the slot under the split lead's second part
+			// (good/review-osc-c3-phaseshift's R3 over R8's lead)
+			places = append(places, render.Place{Ref: r, Anchor: dev.Ref, Col: -1, Row: -1, Stand: "vertical"})
+			continue
 		}
 		switch a {
 		case common:
