@@ -126,7 +126,19 @@ func (s *searcher) bindings(pp *PPart, ci int, out []binding) []binding {
 		if one < 0 || t < 0 || two < 0 {
 			return out
 		}
-		return append(out, bind(one, t, two), bind(two, t, one))
+		out = append(out, bind(one, t, two), bind(two, t, one))
+		if pp.Device == "pot" && rheostat(pp) && (t == one) != (t == two) {
+			// A preset strapped as a variable resistor is a resistor
+			// between its two nets whichever end its wiper is strapped
+			// to (that only sets which way the track turns): the
+			// pattern's strapped end may stand on either net.
+			free, held := two, one
+			if t == two {
+				free, held = one, two
+			}
+			out = append(out, bind(held, free, free), bind(free, free, held))
+		}
+		return out
 	case "diode":
 		anodes := []string{"a"}
 		if p.Type == "double-diode" {
@@ -321,4 +333,14 @@ func (w *world) joins(j, a, b int) bool {
 		onB = onB || n == b
 	}
 	return onA && onB
+}
+
+// rheostat reports whether a pattern pot is strapped as a variable
+// resistor: its wiper on the same pattern net as one end.
+func rheostat(pp *PPart) bool {
+	if len(pp.Pins) != 3 {
+		return false
+	}
+	w := pp.Pins[1].Net
+	return (w == pp.Pins[0].Net) != (w == pp.Pins[2].Net)
 }

@@ -60,6 +60,9 @@ var figureNames = []figName{
 	{name: "load_ratio", label: "load ratio", working: true},
 	// a driver's gain to the other half of a push-pull pair
 	{name: "gain_other_half", label: "gain to the other half"},
+	// a push-pull pair's drive, the lower half's control against the
+	// upper's, with the set driven from its input (pushpull.go)
+	{name: "drive_ratio", label: "drive ratio, lower half to upper"},
 	{name: "load_f", label: "load tuned f"},
 	// The tuned load's Q: the prefix's word before "loaded Q" would read
 	// "load loaded Q".

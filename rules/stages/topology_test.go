@@ -528,8 +528,7 @@ R3 = { r = "10k", pins = ["o2", "ht"] }`},
 	{topology: "push-pull", families: allFamilies,
 		parts: `@Q1(g1, gnd, a1)
 @Q2(g2, gnd, a2)
-C1 = { c = "10n", pins = ["in", "g1"] }
-C2 = { c = "10n", pins = ["inb", "g2"] }
+` + splitterIn + `
 T1 = { windings = { p = ["10", "10"], s = "0.1" }, k = 0.95, pins = { p1 = "a1", pt = "ht", p2 = "a2", s1 = "spk", s2 = "gnd" } }`,
 		// Both devices on one end of an untapped primary: parallel, not push-pull.
 		nearMiss: `@Q1(g1, gnd, a)
@@ -1171,8 +1170,7 @@ R8 = { r = "100", pins = ["x", "gnd"] }`},
 @Q2(g2, k2, a2)
 R1 = { r = "2R2", pins = ["k1", "gnd"] }
 R2 = { r = "2R2", pins = ["k2", "gnd"] }
-C1 = { c = "10n", pins = ["in", "g1"] }
-C2 = { c = "10n", pins = ["inb", "g2"] }
+` + splitterIn + `
 T1 = { windings = { p = ["10", "10"], s = "0.1" }, k = 0.95, pins = { p1 = "a1", pt = "ht", p2 = "a2", s1 = "spk", s2 = "gnd" } }`,
 		// Both on one end of an untapped primary: parallel, resistors or not.
 		nearMiss: `@Q1(g1, k1, a)
@@ -1182,6 +1180,35 @@ R2 = { r = "2R2", pins = ["k2", "gnd"] }
 C1 = { c = "10n", pins = ["in", "g1"] }
 C2 = { c = "10n", pins = ["inb", "g2"] }
 T1 = { windings = { p = "20", s = "0.1" }, k = 0.95, pins = { p1 = "a", p2 = "ht", s1 = "spk", s2 = "gnd" } }`},
+	// The centre tap on a supply line the reduction keeps (a resistor
+	// from the rail, a reservoir to chassis: review16 b05's output
+	// feed), the pair driven in antiphase: still push-pull.
+	{topology: "push-pull", families: allFamilies,
+		parts: `@Q1(g1, gnd, a1)
+@Q2(g2, gnd, a2)
+` + splitterIn + `
+` + decoupledTap,
+		// The same pair and primary, both control electrodes fed the same
+		// signal: the solver drives them in phase, two devices in
+		// parallel on half a winding each, not push-pull.
+		nearMiss: `@Q1(g1, gnd, a1)
+@Q2(g2, gnd, a2)
+C1 = { c = "10n", pins = ["in", "g1"] }
+C2 = { c = "10n", pins = ["in", "g2"] }
+R1 = { r = "100k", pins = ["g1", "gnd"] }
+R2 = { r = "100k", pins = ["g2", "gnd"] }
+` + decoupledTap},
+	// A preset strapped as a rheostat with its wiper on the diodes' end
+	// (review16 b04): the same resistor between the bases.
+	{topology: "complementary-pair-preset", families: []string{"bjt"}, want: "bjt",
+		parts: complementaryPair + `
+D1 = { diode = "signal", pins = ["bn", "dm"] }
+RV1 = { pot = "220R", set = 0.3, pins = ["dm", "dm", "bp"] }`,
+		// Strapped so, but from the diode to chassis: a base bias
+		// divider, not a network between the bases.
+		nearMiss: complementaryPair + `
+D1 = { diode = "signal", pins = ["bn", "bp"] }
+RV1 = { pot = "220R", set = 0.3, pins = ["bp", "bp", "gnd"] }`},
 	// A driver into a driver transformer whose centre-tapped secondary
 	// feeds the two bases (grids) of a push-pull pair in antiphase.
 	{topology: "driver-transformer", families: allFamilies, extra: driverRegion,
@@ -1452,6 +1479,17 @@ R5 = { r = "2R2", pins = ["e1", "gnd"] }
 R6 = { r = "2R2", pins = ["e2", "gnd"] }
 T2 = { windings = { p = ["100m", "100m"], s = "8m" }, k = 0.98, pins = { p1 = "c1", pt = "ht", p2 = "c2", s1 = "gnd", s2 = "spk" } }
 LS1 = { spk = "8R", pins = ["spk", "gnd"] }`
+
+// splitterIn drives a push-pull pair's two control electrodes in
+// antiphase from the fixture's input through a centre-tapped input
+// transformer, as a push-pull pair is driven.
+const splitterIn = `T0 = { windings = { p = "1", s = ["1", "1"] }, k = 0.95, pins = { p1 = "in", p2 = "gnd", s1 = "g1", st = "gnd", s2 = "g2" } }`
+
+// decoupledTap is a push-pull primary whose centre tap is a supply line
+// fed through a resistor and held by a reservoir, not chassis.
+const decoupledTap = `T1 = { windings = { p = ["10", "10"], s = "0.1" }, k = 0.95, pins = { p1 = "a1", pt = "vd", p2 = "a2", s1 = "spk", s2 = "gnd" } }
+R9 = { r = "10", pins = ["ht", "vd"] }
+C9 = { c = "470u", pins = ["vd", "gnd"] }`
 
 // driverRegion puts the driver and its pair in an audio band.
 const driverRegion = `[regions]
