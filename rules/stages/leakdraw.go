@@ -23,6 +23,7 @@ func leakPlaces(c *graph.Circuit, tops []*found) {
 		for _, st := range append([]*found{f}, f.subs...) {
 			leakPlacesOf(c, st.Stage)
 			feedPlaces(c, st.Stage, claimed)
+			pairPlaces(c, st.Stage)
 		}
 	}
 }
