@@ -63,7 +63,7 @@ func TestReview13BypassIsNoCoupling(t *testing.T) {
 }
 
 // A valve no pattern recognises gets a stage of its own titled by the
-// device (a04's driver), and the parts that serve a valve are held by its stage: loads,
+// device, and the parts that serve a valve are held by its stage: loads,
 // cathode resistors and bypasses, the split cathode resistor's foot (a04),
 // the splitter's anode load (a04), grid stoppers nested in the output
 // stage they stop (a04). A
@@ -77,7 +77,9 @@ func TestReview13DevicesKeepTheirParts(t *testing.T) {
 		// the triode of the double-diode-triode, named for its work since
 		// its cathode, the diodes' return, is recognised as bypassed
 		{"a03.toml", "V2b", "Audio amplifier: common-cathode amplifier, cathode bypassed, a detector diode returned to it (valve)", []string{"R10", "R11", "C17"}},
-		{"a04.toml", "V1a", "V1a stage", []string{"R2", "R3", "R4", "C2"}},
+		// the driver takes the feedback at the foot of its cathode lead
+		// (amp-common-feedback-foot), confirmed by the loop lowering its gain
+		{"a04.toml", "V1a", "Common-cathode amplifier, overall negative feedback into its cathode (valve)", []string{"R2", "R3", "R4", "C2"}},
 		// the splitter is named for its work (TestReview13Cathodyne)
 		{"a04.toml", "V1b", "Cathodyne phase splitter (valve)", []string{"R6", "R7"}},
 		{"a04.toml", "V2", "Push-pull output stage (valve)", []string{"R11", "R12"}},

@@ -392,6 +392,33 @@ C1 = { c = "22u", pins = ["k", "gnd"] }`},
 	// Two inverting stages, the second's output brought back across the
 	// first's unbypassed common resistor: overall negative feedback (the
 	// solver shows the loop lowering the gain; handbook, from memory).
+	// The lead the other way up: the bypassed bias resistor on top, the
+	// unbypassed one at the foot where the feedback (with a phase-advance
+	// capacitor across its resistor) comes in (a blind reviewer's driver).
+	{topology: "amp-common-feedback-foot", families: allFamilies,
+		parts: `@Q1(in, k, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+R3 = { r = "1k", pins = ["k", "kb"] }
+C1 = { c = "22u", pins = ["k", "kb"] }
+R2 = { r = "100", pins = ["kb", "gnd"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, gnd, out)
+R5 = { r = "4k7", pins = ["out", "ht"] }
+R6 = { r = "10k", pins = ["out", "kb"] }
+C6 = { c = "100p", pins = ["out", "kb"] }`,
+		// The second stage a follower: the loop raises the gain.
+		nearMiss: `@Q1(in, k, o)
+R1 = { r = "4k7", pins = ["o", "ht"] }
+R3 = { r = "1k", pins = ["k", "kb"] }
+C1 = { c = "22u", pins = ["k", "kb"] }
+R2 = { r = "100", pins = ["kb", "gnd"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, out, ht)
+R5 = { r = "4k7", pins = ["out", "gnd"] }
+R6 = { r = "10k", pins = ["out", "kb"] }
+C6 = { c = "100p", pins = ["out", "kb"] }`},
 	{topology: "amp-common-feedback", families: allFamilies,
 		parts: `@Q1(in, k, o)
 R1 = { r = "4k7", pins = ["o", "ht"] }
