@@ -42,3 +42,34 @@ func TestReview16OutputPairs(t *testing.T) {
 		}
 	}
 }
+
+// review16 a04's driver takes the overall feedback at the foot of its
+// cathode lead: named for it, its loop's figures against the reviewer's
+// deck (testdata/review16/spice/a/c04_run.cir at 775 Hz: V(spk)/V(v1_g)
+// 34.62 closed, 127.53 with R5/C3 to chassis, 11.33 dB between), and the
+// feedback resistor left to the loop, not framed with the driver (framed,
+// it pulled the push-pull page off its mirror).
+func TestReview16FeedbackFoot(t *testing.T) {
+	got := findBiased(t, reviewCircuit(t, "review16", "a04.toml"))
+	s := stageOf(got, "amp-common-feedback-foot")
+	if s == nil {
+		t.Fatalf("no amp-common-feedback-foot; found %s", topologies(got))
+	}
+	for _, ref := range []string{"V1", "R3", "R4", "C2"} {
+		if !slices.Contains(s.Parts, ref) {
+			t.Errorf("%s not in the driver's stage %v", ref, s.Parts)
+		}
+	}
+	if slices.Contains(s.Parts, "R5") || slices.Contains(s.Parts, "C3") {
+		t.Errorf("the feedback network framed with the driver: %v", s.Parts)
+	}
+	for _, w := range []struct {
+		name      string
+		want, tol float64
+	}{{"gain_closed_loop", 34.62, 0.01}, {"gain_open_loop", 127.53, 0.01}, {"nfb", 11.33, 0.01}} {
+		f, ok := s.Figures.Get(w.name)
+		if !ok || math.Abs(math.Abs(f.Value)-w.want) > w.tol*w.want {
+			t.Errorf("%s %v (found %v), want %g within %g %%", w.name, f.Value, ok, w.want, 100*w.tol)
+		}
+	}
+}
