@@ -61,6 +61,10 @@ type Report struct {
 	// junction dot of either net: the eye takes the crossing for part of
 	// the junction.
 	NearDots []string
+	// NearPins are crossings of two nets' wires closer than leadClear to
+	// a part's pin on either net: the crossing wire reads as joined at the
+	// pin, a part with pins on both nets as shorted (leads.go).
+	NearPins []string
 	// LongWires are nets wired much longer than their stage is wide
 	// (reported, not a fault).
 	LongWires []string
@@ -200,7 +204,9 @@ func Measure(g *geom.Sheet) *Report {
 	r.farTanks(g)
 	r.mixerOrder(g)
 	r.feedOrder(g)
-	r.nearDots(g, segs, r.crossings(g, segs))
+	xs := r.crossings(g, segs)
+	r.nearDots(g, segs, xs)
+	r.nearPins(g, xs)
 	r.connectivity(g, segs)
 	if g.PageMM > 0 {
 		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)

@@ -27,6 +27,7 @@ func (ly *state) place() {
 	ly.diamonds(cols)
 	ly.templates(cols)
 	ly.makeFrames()
+	ly.levelConnectors(cols)
 	ly.placeFeet(feet)
 }
 

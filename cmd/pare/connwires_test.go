@@ -1,0 +1,62 @@
+package main
+
+import (
+	"testing"
+
+	"pare/render/check"
+)
+
+// connWireCeiling is how many pairs of wires to off-row connectors cross
+// each other, and how many such wires run past their connector towards the
+// sheet's edge and back (render/check's ConnectorWires), over the A3 pages
+// of every view of the gallery and the blind-review circuits
+// (testdata/review14, review15, review16). Measured when the checker
+// learned them, with the connectors stacked at the edge in the order the
+// crossing reduction left them: 44 and 167; with each connector stood
+// level with its net's pin nearest the edge, in their nets' order, clear
+// of frames that hold none of the net's pins (layout/edgelevel.go), 18
+// and 77. A change may lower these, never raise them.
+//
+// nearPins counts crossings within two grid steps of a part's pin on either
+// crossing net on the same pages (render/check's NearPins, which
+// TestSheetsReadAsDrawn holds on whole sheets): the crossing wire reads as
+// joined at the pin (review16 a03's anode wire across its load's HT lead),
+// as measured when the checker learned it: 158.
+var connWireCeiling = struct{ crossings, loops, nearPins int }{18, 77, 158}
+
+// TestConnectorWiresStraight: a net going on to another row ends in one
+// connector at the edge reached by a short run; the runs of two
+// connectors do not cross, and none passes its connector and comes back.
+func TestConnectorWiresStraight(t *testing.T) {
+	files := append(readSheets(t), reviewCircuits(t)...)
+	warmSheets(files, "A3")
+	crossings, loops, nearPins := 0, 0, 0
+	for _, f := range files {
+		for _, v := range drawViews {
+			pages, err := cachedPages(f, v, "A3")
+			if err != nil {
+				t.Fatal(err)
+			}
+			for i, pg := range pages {
+				xs, ls := check.ConnectorWires(pg)
+				crossings += len(xs)
+				loops += len(ls)
+				np := measured(pg).NearPins
+				nearPins += len(np)
+				for _, p := range append(append(xs, ls...), np...) {
+					t.Logf("%s: %s", pageName(f, v, i), p)
+				}
+			}
+		}
+	}
+	t.Logf("crossing pairs of connector wires: %d (ceiling %d); connector wires looping past their connector: %d (ceiling %d)",
+		crossings, connWireCeiling.crossings, loops, connWireCeiling.loops)
+	t.Logf("crossings near a part's pin on the pages: %d (ceiling %d)", nearPins, connWireCeiling.nearPins)
+	if nearPins > connWireCeiling.nearPins {
+		t.Errorf("more crossings near a part's pin on the pages (%d, ceiling %d); the log lists them", nearPins, connWireCeiling.nearPins)
+	}
+	if crossings > connWireCeiling.crossings || loops > connWireCeiling.loops {
+		t.Errorf("more crossing connector wires (%d, ceiling %d) or loops past a connector (%d, ceiling %d); the log lists them",
+			crossings, connWireCeiling.crossings, loops, connWireCeiling.loops)
+	}
+}

@@ -1,0 +1,167 @@
+package layout
+
+import (
+	"math"
+	"pare/render/geom"
+	"sort"
+)
+
+// levelConnectors stands each off-row connector (rows.go) at its row's
+// edge level with the pin of its net nearest that edge, once the parts
+// and the stage templates are placed, so that the wire to it is a short
+// straight run. Placement stacks the cells of the edge columns from the
+// top in the order the crossing reduction left them, and a connector's
+// neighbours stand many columns away, so that order was arbitrary: a
+// connector stood above another whose net runs higher, their wires
+// crossed, and a wire ran past its connector to the edge and came back
+// round it (review16 b03's right edge, a04's push-pull page). The
+// connectors keep the order of their nets' levels, each as near its level
+// as the cells already in the column leave room for.
+func (ly *state) levelConnectors(cols [][]*block) {
+	if len(cols) < 2 {
+		return
+	}
+	ly.levelEdge(cols[0], true)
+	ly.levelEdge(cols[len(cols)-1], false)
+}
+
+// levelEdge places the connectors of one edge column.
+func (ly *state) levelEdge(col []*block, left bool) {
+	type want struct {
+		b     *block
+		y     float64 // the wanted level of the connector's pin
+		off   float64 // the pin below the block's top
+		reach float64 // how far the pin it levels with stands from the edge
+	}
+	var ws []want
+	var fixed []*block
+	for _, b := range col {
+		cl := b.cells[0]
+		if len(b.cells) != 1 || len(b.chain) > 0 || !cl.conn || len(cl.shape.Pins) != 1 {
+			fixed = append(fixed, b)
+			continue
+		}
+		p := cl.shape.Pins[0]
+		y, reach, ok := ly.edgeLevel(p.Net, left)
+		if !ok {
+			fixed = append(fixed, b)
+			continue
+		}
+		if left {
+			y = ly.clearOfFrames(p.Net, y, p.At.X, p.At.X+reach)
+		} else {
+			y = ly.clearOfFrames(p.Net, y, p.At.X-reach, p.At.X)
+		}
+		// the pin on the routing grid's nearest line: a pin between
+		// lines is left unwired
+		ws = append(ws, want{b: b, y: math.Round(y), off: p.At.Y - b.fp.Y0, reach: reach})
+	}
+	if len(ws) == 0 {
+		return
+	}
+	sort.SliceStable(ws, func(i, j int) bool {
+		if ws[i].y != ws[j].y {
+			return ws[i].y < ws[j].y
+		}
+		// of two on one level, the one whose net stands further in
+		// goes above: its wire comes round whatever stands between, and
+		// from below the nearer one's straight run it would loop round
+		// that connector (review16 a04's two grid connectors)
+		return ws[i].reach > ws[j].reach
+	})
+	top := math.Inf(-1)
+	for _, w := range ws {
+		// the pin stays on the routing grid, so its wire meets it square
+		// (moved from its level by whole steps only)
+		down := func(to float64) float64 { return w.y + math.Ceil(math.Max(0, to-w.y)-geom.Eps) }
+		y := down(top + w.off)
+		for moved := true; moved; {
+			moved = false
+			for _, f := range fixed {
+				if t := y - w.off; t < f.fp.Y1+rowGap && t+w.b.fp.H() > f.fp.Y0-rowGap {
+					y, moved = down(f.fp.Y1+rowGap+w.off), true
+				}
+			}
+		}
+		w.b.move(geom.Pt{Y: y - w.off - w.b.fp.Y0})
+		top = w.b.fp.Y1 + rowGap
+	}
+}
+
+// edgeLevel is the y of the pin on net nearest the left (right) edge among
+// the cells off the edge columns, and its distance from that edge; false
+// when no such cell has a pin on the net.
+func (ly *state) edgeLevel(net string, left bool) (y, reach float64, ok bool) {
+	best := math.Inf(1)
+	for _, cl := range ly.cells {
+		if cl.edge != 0 {
+			continue
+		}
+		for _, p := range cl.shape.Pins {
+			if p.Net != net {
+				continue
+			}
+			d := -p.At.X
+			if left {
+				d = p.At.X
+			}
+			// a pin leaving up or down meets its wire a step off its
+			// tip, where a part hangs under a sideways wire (hangOff)
+			at := p.At.Y
+			switch p.Dir {
+			case geom.Up:
+				at--
+			case geom.Down:
+				at++
+			}
+			if d < best || d == best && at < y {
+				best, y, ok = d, at, true
+			}
+		}
+	}
+	return y, best, ok
+}
+
+// clearOfFrames moves level y, run from x0 to x1, just above or below (the
+// nearer) each stage frame it would cross that holds no pin of net: a
+// connector's wire through another stage's frame tells the reader the net
+// is that stage's.
+func (ly *state) clearOfFrames(net string, y, x0, x1 float64) float64 {
+	var pins []geom.Pt
+	for _, cl := range ly.cells {
+		for _, p := range cl.shape.Pins {
+			if p.Net == net {
+				pins = append(pins, p.At)
+			}
+		}
+	}
+	for range ly.frames {
+		moved := false
+		for _, f := range ly.frames {
+			b := f.Box
+			if b.X1 < x0 || b.X0 > x1 || y < b.Y0-geom.Eps || y > b.Y1+geom.Eps || holdsAny(b, pins) {
+				continue
+			}
+			if y-b.Y0 < b.Y1-y {
+				y = b.Y0 - 2
+			} else {
+				y = b.Y1 + 2
+			}
+			moved = true
+		}
+		if !moved {
+			break
+		}
+	}
+	return y
+}
+
+// holdsAny reports whether any of the points lies in r.
+func holdsAny(r geom.Rect, pts []geom.Pt) bool {
+	for _, p := range pts {
+		if r.Contains(p) {
+			return true
+		}
+	}
+	return false
+}
