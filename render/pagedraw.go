@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 
 	"pare/graph/figure"
 
@@ -269,7 +270,18 @@ func (d *drawer) sheetLines(n, m int) []string {
 	if b := d.sheet.Circuit.Band; b.Max > 0 {
 		view += ", band " + figure.FormatRange(b, figure.Hertz, figure.Sheet)
 	}
-	return []string{cut(d.title(), titleChars), fmt.Sprintf("sheet %d of %d", n, m), view, "symbols: " + style}
+	num := fmt.Sprintf("sheet %d of %d", n, m)
+	title := layout.WrapWords(d.title(), titleChars)
+	if len(title) <= 1 {
+		return []string{cut(d.title(), titleChars), num, view, "symbols: " + style}
+	}
+	// a longer title takes two lines, the sheet's number and the symbols
+	// sharing one, so the block keeps its four: review16 a04's title was
+	// cut with an ellipsis and a reader took the block for clipped
+	if len(title) > 2 {
+		title[1] += " " + strings.Join(title[2:], " ")
+	}
+	return []string{title[0], cut(title[1], titleChars), num + ", symbols: " + style, view}
 }
 
 // pagedPage sizes page n of m: the paper's proportions, one grid unit
