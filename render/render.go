@@ -125,7 +125,10 @@ type Sheet struct {
 	// FadedPins are, per ref of a kept part, the pins the reduction dropped
 	// (heaters, static grids): drawn faded with their wires and locals.
 	FadedPins map[string]map[string]bool
-	Frames    []Frame
+	// Quiet are the original circuit's nets the reduction tied to AC
+	// ground (full and faded views; layout.Options.Quiet).
+	Quiet  map[string]bool
+	Frames []Frame
 	// Caution is the safety line printed under the drawing, as given
 	// (graph/safety words it for the set and the view). Empty: the
 	// circuit's own caution from graph/safety, so no sheet goes out
@@ -224,7 +227,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	// the reduction's faded and merged parts too): the full view draws it
 	// in plain ink, so the two show the same geometry.
 	if s.View != Reduced {
-		o.Faded, o.Merged, o.FadedPins = s.Faded, s.Merged, s.FadedPins
+		o.Faded, o.Merged, o.FadedPins, o.Quiet = s.Faded, s.Merged, s.FadedPins, s.Quiet
 		o.Plain = s.View == Full
 	}
 	if s.View != Reduced {

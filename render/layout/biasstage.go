@@ -2,7 +2,8 @@ package layout
 
 import "pare/graph"
 
-// deviceStages (Options.DeviceStages: a row of a paged sheet) gives the unframed parts wired to a framed device's
+// deviceStages gives the unframed transformers, and on a row of a paged
+// sheet (Options.DeviceStages) the other unframed parts, wired to a framed device's
 // electrode, or to the far end of a winding whose other end is on a
 // framed device's control electrode (a base or grid fed through a coupling
 // winding), that device's stage, where the parts so wired reach only one
@@ -54,9 +55,18 @@ func (ly *state) deviceStages(stageOf func(*cell) (int, bool), byNet map[string]
 		}
 	}
 	for c, s := range cand {
-		// only a part the plain spread gave a stage without a device
-		// (an AGC filter, an aerial tank) or none moves
-		if p, ok := plain[c.ref]; s < 0 || ok && (p == s || devices[p]) {
+		// a transformer moves from any other stage (on every sheet: the
+		// can whose secondary feeds a base stands before that base, not
+		// in the frame of whatever stage shares its decoupled supply
+		// line, review16 b03); another part, on a row only, and only
+		// from a stage without a device (an AGC filter, an aerial tank)
+		// or none
+		p, ok := plain[c.ref]
+		switch {
+		case s < 0 || ok && p == s:
+			delete(cand, c)
+		case c.part.Kind == graph.Transformer:
+		case !ly.o.DeviceStages || ok && devices[p]:
 			delete(cand, c)
 		}
 	}

@@ -151,10 +151,8 @@ func (ly *state) stages() map[string]int {
 	}
 	byNet := ly.cellsByNet()
 	st = ly.spread(stageOf, byNet, nil)
-	if ly.o.DeviceStages {
-		if dev := ly.deviceStages(stageOf, byNet, st); len(dev) > 0 {
-			st = ly.spread(stageOf, byNet, dev)
-		}
+	if dev := ly.deviceStages(stageOf, byNet, st); len(dev) > 0 {
+		st = ly.spread(stageOf, byNet, dev)
 	}
 	ly.railStages(st, stageOf)
 	for cp, t := range ly.tankOf {

@@ -60,7 +60,8 @@ type Options struct {
 	// DeviceStages stands an unframed part wired to a framed device's
 	// control electrode (or through a winding to it) in that device's
 	// stage where the plain spread gave it a stage without a device
-	// (deviceStages): set on the rows of a paged sheet.
+	// (deviceStages): set on the rows of a paged sheet. An unframed
+	// transformer so wired stands there on every sheet.
 	DeviceStages bool
 	// Faded refs are drawn faded; Merged maps a ref to the part it went into.
 	Faded  map[string]bool
@@ -72,7 +73,14 @@ type Options struct {
 	// Plain lays the sheet out exactly as with Faded, FadedPins and Merged
 	// but draws nothing faded and no merge mark: the full view, which is
 	// the faded view's layout in plain ink (fade.go).
-	Plain  bool
+	Plain bool
+	// Quiet are the nets of the original circuit the reduction tied to AC
+	// ground (a decoupled supply line, an AGC line behind its filter
+	// capacitor): wired on the full and faded sheets, but no signal passes
+	// through them, so the rank along the signal flow does not either (a
+	// transformer's cold end on a decoupled line ranked the IF can before
+	// the transistor feeding it, review16 b03 and b05).
+	Quiet  map[string]bool
 	Frames []Frame
 	// Links draws ganged sections joined by a dashed mechanical link.
 	Links bool

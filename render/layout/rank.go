@@ -11,7 +11,8 @@ import (
 // or right edge, and turns the layers into columns.
 func (ly *state) rank() {
 	byNet := ly.cellsByNet()
-	rank := ly.signalRank()
+	rank := ly.signalRank(byNet)
+	ly.quietLayers(rank)
 	ly.railLayers(rank)
 	ly.supplyRanks(rank)
 	ly.commonUnder(rank)
@@ -44,20 +45,29 @@ func (ly *state) cellsByNet() map[string][]*cell {
 // input nets over shared signal nets (graph.Walk): the parts on an input at
 // 1, input flags and ports there at 0; each piece the inputs do not reach
 // follows, from its first cell, one layer after the highest so far.
-func (ly *state) signalRank() map[string]int {
+func (ly *state) signalRank(byNet map[string][]*cell) map[string]int {
 	parts := make([]*graph.Part, len(ly.cells))
 	for i, cl := range ly.cells {
 		parts[i] = cl.part
 	}
 	view := graph.NewView(graph.NewIndex(parts, nil), parts)
 	w := graph.NewWalk(view)
-	w.Follow = func(n string) bool { return n != notConnected && n != "" && !ly.c.RoleOf(n).IsACGround() }
+	w.Follow = ly.carries
 	// a part from a device's control or common electrode to a net the
 	// signal reaches after the device (graph.FeedbackParts) carries it
 	// only into that electrode, never out of it; one the walk reaches
 	// later than the electrode (a feedback part) takes its layer
 	fb := graph.FeedbackParts(parts, view, w.Follow)
-	w.Enter = func(p *graph.Part, pin string) bool { into, ok := fb[p]; return !ok || p.NetOf(pin) != into }
+	// a transformer an output electrode feeds is entered from that
+	// electrode's net only (fedNets)
+	fed := ly.fedNets(parts)
+	w.Enter = func(p *graph.Part, pin string) bool {
+		if nets, ok := fed[p]; ok && !nets[p.NetOf(pin)] {
+			return false
+		}
+		into, ok := fb[p]
+		return !ok || p.NetOf(pin) != into
+	}
 	var inputs []string
 	for _, in := range ly.c.Inputs {
 		if w.Follow(in) {
@@ -82,11 +92,34 @@ func (ly *state) signalRank() map[string]int {
 		}
 	}
 	collect()
-	for _, cl := range ly.cells {
-		if _, ok := rank[cl.ref]; !ok && len(ly.signalNets(cl)) > 0 {
-			w.FromPart(cl.part, maxR+1)
-			collect()
+	quietRanked := func(n string) bool {
+		if !ly.o.Quiet[n] {
+			return false
 		}
+		for _, nb := range byNet[n] {
+			if _, ok := rank[nb.ref]; ok {
+				return true
+			}
+		}
+		return false
+	}
+	for _, cl := range ly.cells {
+		sig := ly.signalNets(cl)
+		if _, ok := rank[cl.ref]; ok || len(sig) == 0 {
+			continue
+		}
+		switch {
+		case slices.ContainsFunc(sig, ly.carries):
+			w.FromPart(cl.part, maxR+1)
+		case slices.ContainsFunc(sig, quietRanked):
+			continue // one after its ranked neighbour (quietLayers)
+		default:
+			// a piece that starts at a part on quiet nets only (an
+			// oscillator's base bypass, first by name) starts from
+			// those nets, as it did before they were told apart
+			w.FromNets(sig, maxR+1)
+		}
+		collect()
 	}
 	for _, cl := range ly.cells {
 		if into, back := fb[cl.part]; back {

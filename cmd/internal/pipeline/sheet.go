@@ -107,6 +107,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		s.Frames = tankFrames(stageFrames(r.Stages, reduced, c), c)
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
 		s.FadedPins = droppedPins(c, reduced)
+		s.Quiet = quietNets(c, r.Log)
 		s.Circuit = supplyRailsWired(c, s.Frames, s.Faded)
 		s.PinVolts = r.electrodeVolts()
 	}
