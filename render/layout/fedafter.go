@@ -15,8 +15,14 @@ import "pare/graph"
 // transformer with a winding on a net a gang section tunes (an oscillator
 // or signal tank's coil, drawn under its device) is left to the tank
 // placement. A transformer with no other net the signal crosses is left
-// as it is.
+// as it is. Only on a sheet of the original circuit (Options.Quiet given,
+// if empty): on the reduced sheets the templates place the cans, and a
+// reaction winding entered from its anode only opened an empty column in
+// the grid-leak detector's frame.
 func (ly *state) fedNets(parts []*graph.Part) map[*graph.Part]map[string]bool {
+	if ly.o.Quiet == nil {
+		return nil
+	}
 	outputs := map[string]bool{}
 	ganged := map[string]bool{}
 	for _, p := range parts {

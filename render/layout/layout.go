@@ -79,7 +79,8 @@ type Options struct {
 	// capacitor): wired on the full and faded sheets, but no signal passes
 	// through them, so the rank along the signal flow does not either (a
 	// transformer's cold end on a decoupled line ranked the IF can before
-	// the transistor feeding it, review16 b03 and b05).
+	// the transistor feeding it, review16 b03 and b05). Non-nil, if
+	// empty, on a sheet of the original circuit (fedNets).
 	Quiet  map[string]bool
 	Frames []Frame
 	// Links draws ganged sections joined by a dashed mechanical link.
