@@ -23,8 +23,14 @@ import (
 // review's circuits (testdata/review15) brought in with their own 8; {11, 60}
 // with the fifth's (testdata/review16) and their own 3 and 28 (review16 b05's
 // full views draw four IF cans left of their collectors); {8, 50} with
-// review16 b04's and b05's output pairs named and their templates drawn.
-var feedOrderCeiling = struct{ reduced, generic int }{8, 50}
+// review16 b04's and b05's output pairs named and their templates drawn;
+// {8, 14} once the full and faded sheets' rank no longer crossed the nets
+// the reduction tied to AC ground (a decoupled supply line reached every
+// IF can on it before the transistors feeding them), a transformer an
+// output feeds was entered from that output only, and an unframed can
+// stood in the stage of the base it feeds (layout.Options.Quiet, fedNets,
+// deviceStages).
+var feedOrderCeiling = struct{ reduced, generic int }{8, 14}
 
 // TestFeedOrder: signal flows left to right, so a transformer fed by a
 // device's output (an IF can, an interstage or output transformer) stands
