@@ -133,7 +133,7 @@ func eachAtOnce(n int, fn func(i int)) {
 // layout). With the full and faded sheets ranked without crossing the nets
 // the reduction tied to AC ground and their IF cans after their
 // collectors: 1020, 114, 10, 68, 32, 46 and 492 (nearPins measured 168,
-// left at 160: see TestFeedOrder's ceiling).
+// over its ceiling: left at 160, unraised).
 var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots, localsOn, localsNear, nearPins int }{1020, 114, 10, 68, 32, 46, 492, 160}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
