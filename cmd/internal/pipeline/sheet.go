@@ -10,6 +10,7 @@ import (
 	"pare/graph"
 	"pare/graph/dc"
 	"pare/graph/figure"
+	"pare/internal/par"
 	"pare/render"
 	"pare/rules/stages"
 )
@@ -39,14 +40,28 @@ func (r *Result) SheetFor(v render.View) *Sheet {
 	return nil
 }
 
+// drawSheets lays out and draws each view asked for. The views share
+// nothing they write (each is assembled and laid out afresh from the
+// result, which they only read), so they are drawn side by side on the
+// processors free (par.Do) and kept in the order asked, the first
+// failure in that order reported: the sheets are the same whatever ran
+// first.
 func (r *Result) drawSheets(o Options) error {
-	for _, v := range o.Views {
-		s := r.Sheet(v)
-		sh, err := drawView(s, o)
-		if err != nil {
-			return &Error{Phase: PhaseSheets, View: v, Err: err}
+	for _, c := range []*graph.Circuit{r.Circuit, r.Reduced} {
+		if c != nil {
+			c.Index() // built on first use, which is not safe side by side
 		}
-		r.Sheets = append(r.Sheets, sh)
+	}
+	sheets := make([]Sheet, len(o.Views))
+	errs := make([]error, len(o.Views))
+	par.Do(len(o.Views), func(i int) {
+		sheets[i], errs[i] = drawView(r.Sheet(o.Views[i]), o)
+	})
+	for i, v := range o.Views {
+		if errs[i] != nil {
+			return &Error{Phase: PhaseSheets, View: v, Err: errs[i]}
+		}
+		r.Sheets = append(r.Sheets, sheets[i])
 	}
 	return nil
 }
