@@ -9,6 +9,7 @@ import (
 	model "pare/graph/device"
 	"pare/graph/figure"
 	"pare/graph/value"
+	"pare/internal/par"
 )
 
 // In-circuit figures. A stage's resonance, gain, corner and bandwidth are
@@ -259,16 +260,41 @@ func quietPart(p *graph.Part) *graph.Part {
 // guard the solver's figures fail keeps its formulas' figures: the guard
 // chose it on them.
 func solveFigures(w *world, level []*found) []*found {
+	var all []*found
+	var walk func([]*found)
+	walk = func(l []*found) {
+		for _, f := range l {
+			all = append(all, f)
+			walk(f.subs)
+		}
+	}
+	walk(level)
+	// Each stage's figures are solved on its own piece and read the
+	// world only (its lazily built parts under world.lazy), so they are
+	// solved side by side and kept by stage, in the tree's order (a sub-
+	// stage of a stage dropped below is solved and not used).
+	solved := make(map[*found]*Stage, len(all))
+	sts := make([]*Stage, len(all))
+	par.Do(len(all), func(i int) { sts[i] = evaluatePiece(w, all[i].m) })
+	for i, f := range all {
+		solved[f] = sts[i]
+	}
+	return keepSolved(level, solved)
+}
+
+// keepSolved takes each stage's solved figures (solveFigures), dropping a
+// stage the solver did not bear out, with its sub-stages.
+func keepSolved(level []*found, solved map[*found]*Stage) []*found {
 	kept := level[:0]
 	for _, f := range level {
-		st := evaluatePiece(w, f.m)
+		st := solved[f]
 		if st != nil && st.unconfirmed != "" {
 			continue // named by its shape, not borne out in circuit (confirmTank)
 		}
 		if st != nil {
 			f.Title, f.Figures, f.figRanks, f.Flags, f.Notes = st.Title, st.Figures, st.figRanks, st.Flags, st.Notes
 		}
-		f.subs = solveFigures(w, f.subs)
+		f.subs = keepSolved(f.subs, solved)
 		kept = append(kept, f)
 	}
 	return kept

@@ -106,6 +106,8 @@ type branch struct {
 
 // resistive indexes the circuit's resistive branches by net, built once.
 func (w *world) resistive() map[int][]branch {
+	w.lazy.Lock()
+	defer w.lazy.Unlock()
 	if w.resAdj != nil {
 		return w.resAdj
 	}

@@ -70,15 +70,22 @@ func (x *figCtx) tracking(osc *tankModel, oc coilEnds, ifHz float64) {
 func formulaWalk(sig, osc *tankModel, ifHz float64) (trackWalk, bool) {
 	k := formulaWalkKey{sig: sig.key(), osc: osc.key(), ifHz: ifHz}
 	w := osc.w
-	if e, ok := w.walks[k]; ok {
+	w.lazy.Lock()
+	e, ok := w.walks[k]
+	w.lazy.Unlock()
+	if ok {
 		return cloneWalk(e.walk), e.ok
 	}
+	// walked outside the lock: two stages asking at once both walk, to
+	// the same result, and neither waits on the other's walk
 	walk, ok := walkDial(func(th float64) (float64, float64, bool) { return sig.f(th), osc.f(th), true },
 		ifHz, trackingScan, trackingFormulaRefine)
+	w.lazy.Lock()
 	if w.walks == nil {
 		w.walks = map[formulaWalkKey]walkMemo{}
 	}
 	w.walks[k] = walkMemo{walk: walk, ok: ok}
+	w.lazy.Unlock()
 	return cloneWalk(walk), ok
 }
 

@@ -4,6 +4,8 @@
 package stages
 
 import (
+	"sync"
+
 	"pare/graph"
 	"pare/graph/dc"
 )
@@ -46,11 +48,17 @@ type world struct {
 	// netAt is each net's place in c.Nets: a piece lists its nets in the
 	// circuit's order without reading every net of the set (cutFreed).
 	netAt map[string]int
+	// lazy guards what is built or remembered on first use (resAdj,
+	// dist, walks): the kept stages' figures are solved side by side
+	// (solveFigures), each reading the one world.
+	lazy sync.Mutex
 }
 
 // signalDist is each part's breadth-first distance from the circuit's
 // inputs (signalOrder), built once per world.
 func (w *world) signalDist() order {
+	w.lazy.Lock()
+	defer w.lazy.Unlock()
 	if w.dist == nil {
 		w.dist = signalOrder(w.c)
 	}
