@@ -10,6 +10,8 @@ import (
 	"sort"
 	"strings"
 	"sync"
+
+	"pare/internal/par"
 )
 
 // runBatch is the main job over many sets: every .toml named or found under
@@ -39,8 +41,16 @@ func runBatch(e *env, out string, cfg jobConfig, args []string) int {
 	progress := isTerminal(e.stderr)
 	for w := 0; w < min(runtime.GOMAXPROCS(0), len(paths)); w++ {
 		wg.Add(1)
+		// the first worker stands for the process's own goroutine (idle in
+		// Wait); the others count as busy until they run out of sets, so a
+		// set's own pieces (par.Do) take only the cores no set holds
+		release := func() {}
+		if w > 0 {
+			release = par.Reserve()
+		}
 		go func() {
 			defer wg.Done()
+			defer release()
 			for i := range next {
 				r := &results[i]
 				_, r.pk = oneJob(&env{stdout: &r.stdout, stderr: &r.stderr}, paths[i], dirs[i], cfg)

@@ -62,6 +62,28 @@ func Do(n int, fn func(i int)) {
 		}
 		return
 	}
+	run(n, helpers, fn)
+}
+
+// Ahead is Do for work done ahead of need (a guess at what a sequential
+// pass will ask, remembered for it): it runs only when a processor is
+// free, and else does nothing and returns false, so a job with no core to
+// spare never pays for a guess.
+func Ahead(n int, fn func(i int)) bool {
+	helpers := 0
+	for helpers < n-1 && take() {
+		helpers++
+	}
+	if helpers == 0 {
+		return false
+	}
+	run(n, helpers, fn)
+	return true
+}
+
+// run calls fn for every index on the caller and helpers goroutines (their
+// places already taken).
+func run(n, helpers int, fn func(i int)) {
 	var next atomic.Int64
 	var wg sync.WaitGroup
 	var mu sync.Mutex
@@ -89,7 +111,11 @@ func Do(n int, fn func(i int)) {
 		}()
 	}
 	work()
+	// the caller waits without working: its place is lent to the pieces'
+	// own work ahead (a view's rows, par.Ahead) until the helpers finish
+	busy.Add(-1)
 	wg.Wait()
+	busy.Add(1)
 	if raised != nil {
 		panic(raised)
 	}

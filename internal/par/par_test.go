@@ -71,3 +71,24 @@ func TestDoRaisesPanic(t *testing.T) {
 		}
 	})
 }
+
+// TestAheadOnlyWhenFree: work ahead of need runs only with a processor
+// free, and then calls every index once.
+func TestAheadOnlyWhenFree(t *testing.T) {
+	old := runtime.GOMAXPROCS(1)
+	defer runtime.GOMAXPROCS(old)
+	called := false
+	if Ahead(4, func(int) { called = true }) || called {
+		t.Error("ran ahead with no processor to spare")
+	}
+	runtime.GOMAXPROCS(4)
+	calls := make([]atomic.Int32, 6)
+	if !Ahead(6, func(i int) { calls[i].Add(1) }) {
+		t.Fatal("did not run ahead with three processors free")
+	}
+	for i := range calls {
+		if calls[i].Load() != 1 {
+			t.Errorf("index %d called %d times", i, calls[i].Load())
+		}
+	}
+}
