@@ -258,6 +258,7 @@ func start(ends []int, i int) int {
 // stretches back while they fit, so every row still ends only where the
 // next stretch does not fit beside it.
 func (f *flow) layoutRows(ends []int, cw, ch float64) ([]int, []*layout.Result, error) {
+	f.layoutAhead(ends)
 	var out []*layout.Result
 	for i := 0; i < len(ends); i++ {
 		var r *layout.Result

@@ -1,0 +1,67 @@
+package render
+
+import (
+	"maps"
+
+	"pare/internal/par"
+	"pare/render/layout"
+)
+
+// layoutAhead lays out, on the processors free (par.Ahead), the rows ends
+// cuts the sheet into as they stand, before layoutRows walks them one by
+// one: each row's layout reads only the sheet and the row's own stretches
+// (flow.layout remembers it by its stretches for that reason), so laid out
+// ahead it is the one the walk would make, and the walk finds it in
+// flow.laid. A row the walk cuts or grows is laid out again as before;
+// its guess cost a free processor only. With none free nothing is done.
+//
+// Each row is laid out on a flow of its own (the sheet's read-only parts
+// shared, its memos copied), and what they laid out is merged back in the
+// rows' order once all have finished.
+func (f *flow) layoutAhead(ends []int) {
+	var rows [][2]int
+	for i := range ends {
+		k := [2]int{start(ends, i), ends[i]}
+		if _, ok := f.laid[k]; !ok && k[1]-k[0] > 0 {
+			rows = append(rows, k)
+		}
+	}
+	if len(rows) < 2 {
+		return
+	}
+	f.s.Circuit.Index() // built on first use, which is not safe side by side
+	own := make([]*flow, len(rows))
+	for i := range own {
+		g := *f
+		g.laid, g.rows, g.sheets = map[[2]int]*layout.Result{}, maps.Clone(f.rows), map[[2]int][2]*Sheet{}
+		own[i] = &g
+	}
+	ok := par.Ahead(len(rows), func(i int) {
+		if _, err := own[i].layout(rows[i][0], rows[i][1]); err != nil {
+			own[i] = nil // the walk meets the error itself
+		}
+	})
+	if !ok {
+		return
+	}
+	for _, g := range own {
+		if g == nil {
+			continue
+		}
+		for k, r := range g.laid {
+			if _, have := f.laid[k]; !have {
+				f.laid[k] = r
+			}
+		}
+		for k, s := range g.sheets {
+			if _, have := f.sheets[k]; !have {
+				f.sheets[k] = s
+			}
+		}
+		for k, r := range g.rows {
+			if _, have := f.rows[k]; !have {
+				f.rows[k] = r
+			}
+		}
+	}
+}
