@@ -3,10 +3,9 @@ package ac
 import (
 	"crypto/sha256"
 	"runtime"
-	"sync"
-	"sync/atomic"
 
 	"pare/graph"
+	"pare/internal/par"
 )
 
 // The quantities of one comparison, swept on every processor.
@@ -63,31 +62,24 @@ func (cp *comparer) runQuantities(qs []quantity) []quantityResult {
 	built := cp.build(qs)
 	groups := cp.groups(qs, built)
 	txns := make([]*memoTxn, len(qs))
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for range min(workers, len(groups)) {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for g := int(next.Add(1)) - 1; g < len(groups); g = int(next.Add(1)) - 1 {
-				for _, i := range groups[g] {
-					txns[i] = &memoTxn{}
-					get := func(ci, si int, _, _, _ string) (*probe, error) {
-						b := built[i][si][ci]
-						if b.err == nil && cp.o.Memo != nil && memoTakes(b.p) {
-							cp.o.Memo.attachTxn(ci, b.p, b.key, txns[i])
-						}
-						return b.p, b.err
-					}
-					res[i].worst, res[i].out, res[i].err = cp.quantity(qs[i], get)
-					if res[i].err != nil {
-						break // the group's later quantities are undone below
-					}
+	// on the processors the process's jobs leave free (par: a batch's sets
+	// each keep to one)
+	par.Do(len(groups), func(g int) {
+		for _, i := range groups[g] {
+			txns[i] = &memoTxn{}
+			get := func(ci, si int, _, _, _ string) (*probe, error) {
+				b := built[i][si][ci]
+				if b.err == nil && cp.o.Memo != nil && memoTakes(b.p) {
+					cp.o.Memo.attachTxn(ci, b.p, b.key, txns[i])
 				}
+				return b.p, b.err
 			}
-		}()
-	}
-	wg.Wait()
+			res[i].worst, res[i].out, res[i].err = cp.quantity(qs[i], get)
+			if res[i].err != nil {
+				break // the group's later quantities are undone below
+			}
+		}
+	})
 	last := len(qs) - 1
 	for i := range res {
 		if res[i].err != nil {
