@@ -45,6 +45,17 @@ func Reserve() (release func()) {
 	return func() { once.Do(func() { busy.Add(-1) }) }
 }
 
+// Spare claims a helper's place for work of a job's own beside it (a
+// prefetch that stops itself), when one is free; ok false: none is, and
+// the work is not to start. Release gives the place back.
+func Spare() (release func(), ok bool) {
+	if !take() {
+		return nil, false
+	}
+	var once sync.Once
+	return func() { once.Do(func() { busy.Add(-1) }) }, true
+}
+
 // Do calls fn(i) for every i in [0, n), on the calling goroutine and on as
 // many helpers as there are processors free (none: all on the caller, in
 // order), and returns when every call has returned. The calls must be

@@ -92,3 +92,21 @@ func TestAheadOnlyWhenFree(t *testing.T) {
 		}
 	}
 }
+
+// TestSpareCounts: a spared place is taken only while one is free and is
+// counted until released.
+func TestSpareCounts(t *testing.T) {
+	old := runtime.GOMAXPROCS(2)
+	defer runtime.GOMAXPROCS(old)
+	release, ok := Spare()
+	if !ok {
+		t.Fatal("no place spared with one processor free")
+	}
+	if _, again := Spare(); again {
+		t.Error("a second place spared with two processors")
+	}
+	release()
+	if b := busy.Load(); b != 0 {
+		t.Errorf("busy %d after release, want 0", b)
+	}
+}

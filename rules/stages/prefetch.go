@@ -6,6 +6,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/internal/par"
 )
 
 // prefetchLoops starts solving, beside the pattern search, the loops the
@@ -16,24 +17,32 @@ import (
 // loopStages asks, it gets what it would have solved, only sooner; the
 // answers and their order are the finder's own. Each worker solves on its
 // own copy of lc (an ac.Loops is not shared between goroutines, and the
-// finder keeps reading lc). With one processor there is no one to do it
-// beside the search, and nothing is started. The returned stop makes the
+// finder keeps reading lc). With no processor free (one alone, or each
+// holding a set of a batch) there is no one to do it beside the search,
+// and nothing is started. The returned stop makes the
 // workers take no further part once the finder has what it needs.
 func prefetchLoops(reduced, lc *graph.Circuit) (stop func()) {
-	workers := min(runtime.GOMAXPROCS(0)-1, 2)
 	var refs []string
 	for _, p := range reduced.Parts {
 		if p.IsActive() && lc.Part(p.Ref) != nil {
 			refs = append(refs, p.Ref)
 		}
 	}
-	if workers < 1 || len(refs) == 0 {
+	if len(refs) == 0 {
 		return func() {}
 	}
 	var next, stopped atomic.Int64
-	for range workers {
+	// up to two workers, each on a processor no other work of the process
+	// holds (par): the stages' figures, solved side by side after the
+	// search, find the processors these leave once they stop
+	for range min(runtime.GOMAXPROCS(0)-1, 2) {
+		release, ok := par.Spare()
+		if !ok {
+			break
+		}
 		lp := ac.NewLoops(lc.Clone())
 		go func() {
+			defer release()
 			for stopped.Load() == 0 {
 				i := int(next.Add(1)) - 1
 				if i >= len(refs) {
