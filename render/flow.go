@@ -26,7 +26,8 @@ type flow struct {
 	frameSpan   [][2]int       // per frame: the first and last stretch holding its parts
 	blockOf     map[string]int // part ref → its stretch
 	laid        map[[2]int]*layout.Result
-	sheets      map[[2]int][2]*Sheet // rowSheets
+	ahead       map[[2]int]*layout.Result // rows laid out ahead of the walk (rowsahead.go), not yet asked for
+	sheets      map[[2]int][2]*Sheet      // rowSheets
 	// rows are the rows laid out so far by what they hold (rowKey), kept
 	// from one flow of the sheet to the next: a sheet flowed afresh with
 	// a stretch cut into its pieces has the same rows before the cut.
@@ -96,6 +97,10 @@ func newFlow(cfg Config, s *Sheet, bs []block, rows map[string]*layout.Result) *
 // row holds them all; a row asked for again is not laid out again.
 func (f *flow) layout(a, b int) (*layout.Result, error) {
 	if r, ok := f.laid[[2]int{a, b}]; ok {
+		return r, nil
+	}
+	if r, ok := f.ahead[[2]int{a, b}]; ok {
+		f.laid[[2]int{a, b}] = r
 		return r, nil
 	}
 	if a == 0 && b == len(f.bs) {

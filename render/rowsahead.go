@@ -12,7 +12,9 @@ import (
 // one: each row's layout reads only the sheet and the row's own stretches
 // (flow.layout remembers it by its stretches for that reason), so laid out
 // ahead it is the one the walk would make, and the walk finds it in
-// flow.laid. A row the walk cuts or grows is laid out again as before;
+// flow.ahead (moved to flow.laid when asked for, so flow.laid still holds
+// only the layouts the walk asked for, and a row it has not asked for is
+// judged by its placement first, as before). A row the walk cuts or grows is laid out again as before;
 // its guess cost a free processor only. With none free nothing is done.
 //
 // Each row is laid out on a flow of its own (the sheet's read-only parts
@@ -22,7 +24,8 @@ func (f *flow) layoutAhead(ends []int) {
 	var rows [][2]int
 	for i := range ends {
 		k := [2]int{start(ends, i), ends[i]}
-		if _, ok := f.laid[k]; !ok && k[1]-k[0] > 0 {
+		_, laid := f.laid[k]
+		if _, ahead := f.ahead[k]; !laid && !ahead && k[1]-k[0] > 0 {
 			rows = append(rows, k)
 		}
 	}
@@ -34,6 +37,7 @@ func (f *flow) layoutAhead(ends []int) {
 	for i := range own {
 		g := *f
 		g.laid, g.rows, g.sheets = map[[2]int]*layout.Result{}, maps.Clone(f.rows), map[[2]int][2]*Sheet{}
+		g.ahead = nil
 		own[i] = &g
 	}
 	ok := par.Ahead(len(rows), func(i int) {
@@ -48,9 +52,12 @@ func (f *flow) layoutAhead(ends []int) {
 		if g == nil {
 			continue
 		}
+		if f.ahead == nil {
+			f.ahead = map[[2]int]*layout.Result{}
+		}
 		for k, r := range g.laid {
 			if _, have := f.laid[k]; !have {
-				f.laid[k] = r
+				f.ahead[k] = r
 			}
 		}
 		for k, s := range g.sheets {
