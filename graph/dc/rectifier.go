@@ -253,9 +253,42 @@ func rectifierOf(c *graph.Circuit, p *graph.Part, vac float64, diodes []rectDiod
 		return rectifier{}, fmt.Errorf("the rectifier on winding %s is none pare can estimate (half-wave with one end at chassis, centre-tapped full-wave with the tap at chassis, or a bridge)", sec.name)
 	}
 	if r.c = reservoir(c, r.net); !(r.c > 0) {
+		if sr := surgeResistor(c, r.net); sr != nil {
+			return rectifier{}, fmt.Errorf("no reservoir capacitor from %s to chassis: %s between the rectifier and the reservoir is not one pare models; capture it as part of the winding (add its resistance to the winding's rdc) and the reservoir on the rectifier's net", r.net, sr.Ref)
+		}
 		return rectifier{}, fmt.Errorf("no reservoir capacitor from %s to chassis: pare estimates capacitor-input filters only", r.net)
 	}
 	return r, nil
+}
+
+// surgeResistor is the one resistor from the rectifier's net to a net with
+// a reservoir capacitor (a surge-limiting resistor before the reservoir),
+// nil when the net has no such resistor or more than one part besides the
+// rectifying junctions: review17's reviewer was told only "capacitor-input
+// filters only", not how to capture the common surge resistor.
+func surgeResistor(c *graph.Circuit, net string) *graph.Part {
+	var found *graph.Part
+	for _, k := range c.ConnsOf(net) {
+		p := k.Part
+		if p == nil || p.Kind == graph.Diode || p.Kind == graph.Valve {
+			continue
+		}
+		if found != nil || p.Kind != graph.Resistor || len(p.Pins) != 2 {
+			return nil
+		}
+		found = p
+	}
+	if found == nil {
+		return nil
+	}
+	far := found.Pins[0].Net
+	if far == net {
+		far = found.Pins[1].Net
+	}
+	if !(reservoir(c, far) > 0) {
+		return nil
+	}
+	return found
 }
 
 // junctionLaw takes the rectifying junction's law from part: a rectifier
