@@ -127,7 +127,15 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
 	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
 	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
-	signal = append(signal, deviceStages(reduced, acg, signal, held)...)
+	devs := deviceStages(reduced, acg, signal, held)
+	for _, f := range devs {
+		for _, ref := range f.Parts {
+			if isDevice(reduced.Part(ref)) {
+				f.Flags = append(f.Flags, turnedFlags(loops, loops.Circuit(), ref)...)
+			}
+		}
+	}
+	signal = append(signal, devs...)
 	refold(reduced, signal, folded)
 	signal = nestStoppers(reduced, signal)
 	leakPlaces(reduced, signal)

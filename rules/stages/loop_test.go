@@ -299,3 +299,26 @@ func TestDriverAndPushPull(t *testing.T) {
 		t.Errorf("reflected load %v (%v), want 1600 Ω", z, ok)
 	}
 }
+
+// TestTurnedWindingFlagged: a device no pattern names whose loop does not
+// run as captured, but runs with a transformer winding turned over, is
+// flagged with the winding to check: a reversed reaction winding is a
+// common capture and repair mistake (common practice), and pare drew the
+// superhet's local oscillator as an unnamed "V1b stage" without a word.
+// The loop figures, as captured and turned over, are the solver's.
+func TestTurnedWindingFlagged(t *testing.T) {
+	_, sts := findFixture(t, "loops", "superhet-reaction-reversed.toml")
+	var flags []string
+	for _, st := range sts {
+		if slices.Contains(st.Parts, "V1b") {
+			flags = append(flags, st.Flags...)
+		}
+	}
+	found := false
+	for _, f := range flags {
+		found = found || strings.Contains(f, "V1b does not oscillate as captured") && strings.Contains(f, "check T2's connections")
+	}
+	if !found {
+		t.Errorf("V1b's stage flags %q, want one saying it does not oscillate as captured and to check T2", flags)
+	}
+}
