@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"slices"
 	"sort"
 	"strings"
 
@@ -173,7 +174,14 @@ func (ly *state) stages() map[string]int {
 
 // spread gives the framed parts their frame's stage, the parts in dev
 // theirs, and every part they reach through unframed parts the stage of
-// the nearest, breadth first in the cells' order.
+// the nearest, breadth first in the cells' order. A device whose output
+// electrode sits on a net the reduction tied to AC ground that feeds
+// another device's load (an emitter follower's collector on an
+// oscillator's decoupled line) takes nothing in over that net while
+// another stage does: the line is its AC ground, and the decoupler stands
+// with the stage whose load it feeds (review16 b01's oscillator decoupler
+// stood in the frame of the follower, whose name sorts before the
+// oscillator's load).
 func (ly *state) spread(stageOf func(*cell) (int, bool), byNet map[string][]*cell, dev map[*cell]int) map[string]int {
 	st := map[string]int{}
 	var queue []*cell
@@ -189,10 +197,32 @@ func (ly *state) spread(stageOf func(*cell) (int, bool), byNet map[string][]*cel
 			queue = append(queue, cl)
 		}
 	}
+	fed := ly.loadLines()
+	ly.spreadFrom(st, queue, byNet, fed)
+	if len(fed) > 0 {
+		// the parts only such a device reaches stand in its stage
+		var again []*cell
+		for _, cl := range ly.cells {
+			if _, ok := st[cl.ref]; ok && cl.edge == 0 {
+				again = append(again, cl)
+			}
+		}
+		ly.spreadFrom(st, again, byNet, nil)
+	}
+	return st
+}
+
+// spreadFrom gives every unstaged part the queue reaches through unstaged
+// parts the stage of the nearest, breadth first, crossing no net in fed
+// from a device's output electrode on it.
+func (ly *state) spreadFrom(st map[string]int, queue []*cell, byNet map[string][]*cell, fed map[string]bool) {
 	for len(queue) > 0 {
 		cl := queue[0]
 		queue = queue[1:]
 		for _, n := range ly.signalNets(cl) {
+			if fed[n] && outputOn(cl, n) {
+				continue
+			}
 			for _, nb := range byNet[n] {
 				if _, ok := st[nb.ref]; !ok && nb.edge == 0 && ly.takes(st[cl.ref], nb) {
 					st[nb.ref] = st[cl.ref]
@@ -201,7 +231,53 @@ func (ly *state) spread(stageOf func(*cell) (int, bool), byNet map[string][]*cel
 			}
 		}
 	}
-	return st
+}
+
+// outputOn says whether cl is an active part with its output electrode on
+// net n.
+func outputOn(cl *cell, n string) bool {
+	if !cl.part.IsActive() {
+		return false
+	}
+	for _, pn := range cl.part.Pins {
+		if pn.Net == n && graph.RoleOfPin(cl.part.Kind, pn.Name) == graph.RoleOutput {
+			return true
+		}
+	}
+	return false
+}
+
+// loadLines are the nets in Options.Quiet that feed a load: a passive
+// part from the net to a net the signal passes through that an active
+// part's output electrode is on (a collector's load resistor; not a
+// collector's own decoupler, whose far net is quiet too, nor a reservoir
+// only an output pair's collectors sit on, which keeps its parts with
+// them).
+func (ly *state) loadLines() map[string]bool {
+	if len(ly.o.Quiet) == 0 {
+		return nil
+	}
+	outs := map[string]bool{}
+	for _, d := range ly.cells {
+		for _, pn := range d.part.Pins {
+			if outputOn(d, pn.Net) && ly.carries(pn.Net) {
+				outs[pn.Net] = true
+			}
+		}
+	}
+	fed := map[string]bool{}
+	for _, cl := range ly.cells {
+		if cl.part.IsActive() || cl.part.Kind == graph.Port {
+			continue
+		}
+		load := slices.ContainsFunc(cl.part.Pins, func(p graph.Pin) bool { return outs[p.Net] })
+		for _, pn := range cl.part.Pins {
+			if load && ly.o.Quiet[pn.Net] {
+				fed[pn.Net] = true
+			}
+		}
+	}
+	return fed
 }
 
 // takes says whether stage s takes in the unframed neighbour nb: a supply
