@@ -134,12 +134,15 @@ func trimHint(a, b dialTank, end string) string {
 	}
 	cNow := 1 / (math.Pow(2*math.Pi*up.hi, 2) * up.l)
 	need := t.Set + cNow*(math.Pow(up.hi/down.hi, 2)-1)
-	reach := "within its range"
+	reach := fmt.Sprintf("within its range of %s to %s", pf(t.Value.Min), pf(t.Value.Max))
 	if need > t.Value.Max {
-		reach = "beyond its range, so the coil or the section is suspect"
+		// the range before the verdict: a blind reviewer read "beyond its
+		// range, so the coil or the section is suspect 3 pF to 30 pF" as
+		// garbled
+		reach = fmt.Sprintf("beyond its range of %s to %s, so the coil or the gang section is suspect", pf(t.Value.Min), pf(t.Value.Max))
 	}
-	return fmt.Sprintf("; to meet %s at the high end %s must go from %s to about %s (%s %s to %s; an estimate from the tank's inductance)",
-		down.stage, t.Ref, pf(t.Set), pf(need), reach, pf(t.Value.Min), pf(t.Value.Max))
+	return fmt.Sprintf("; to meet %s at the high end %s must go from %s to about %s (%s; an estimate from the tank's inductance)",
+		down.stage, t.Ref, pf(t.Set), pf(need), reach)
 }
 
 func pf(v float64) string { return figure.Format(v, figure.Farad, figure.Text) }
