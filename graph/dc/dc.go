@@ -15,8 +15,10 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 
 	"pare/graph"
+	"pare/graph/figure"
 )
 
 // Point is a solved operating point.
@@ -85,6 +87,66 @@ func (p *Point) noteUnheldRails() {
 		if !fed[name] {
 			p.Notes = append(p.Notes, fmt.Sprintf("rail %s declares no volts and no rail feeds it through a resistor, choke or winding: it is solved as an ordinary net", name))
 		}
+	}
+	p.noteOpenBiasLines()
+}
+
+// diodeFed says whether a diode on this sheet feeds net: one reached from
+// it through resistors and windings, short of the rails and chassis (an AGC
+// line filtered from the detector's load here, exported at a port).
+func (p *Point) diodeFed(net string) bool {
+	seen := map[string]bool{net: true}
+	queue := []string{net}
+	for len(queue) > 0 {
+		n := queue[0]
+		queue = queue[1:]
+		for _, k := range p.Circuit.ConnsOf(n) {
+			q := k.Part
+			if q == nil {
+				continue
+			}
+			if q.Kind == graph.Diode || q.Kind == graph.Valve && strings.Contains(q.Type, "diode") {
+				return true
+			}
+			if q.Kind != graph.Resistor && q.Kind != graph.Inductor && q.Kind != graph.Transformer {
+				continue
+			}
+			for _, pn := range q.Pins {
+				if r := p.Circuit.RoleOf(pn.Net); !seen[pn.Net] && r != graph.Supply && r != graph.Ground {
+					seen[pn.Net] = true
+					queue = append(queue, pn.Net)
+				}
+			}
+		}
+	}
+	return false
+}
+
+// noteOpenBiasLines: a bias line that declares no volts and comes in at a
+// port (an AGC line from a detector off this sheet) is solved drawing no
+// current, at whatever its own resistors give; the readings of the devices
+// it biases rest on that, and a set's line sits where its source holds it
+// (an AGC line near 0 V with no signal: common practice). Said plainly, so
+// that the chart is not read as the set's: a blind reviewer's RF stage read
+// 714 µA of collector current where ngspice, with the line at 0 V, gives
+// 519 µA, and nothing said why.
+func (p *Point) noteOpenBiasLines() {
+	for _, n := range p.Circuit.Nets {
+		if n.Role != graph.Bias || n.Volts != 0 {
+			continue
+		}
+		var port string
+		for _, k := range p.Circuit.ConnsOf(n.Name) {
+			if k.Part != nil && k.Part.Kind == graph.Port {
+				port = k.Part.Ref
+			}
+		}
+		v, ok := p.Volts(n.Name)
+		if port == "" || !ok || p.diodeFed(n.Name) {
+			continue
+		}
+		p.Notes = append(p.Notes, fmt.Sprintf("bias line %s declares no volts and comes in at %s from off this sheet: it is solved drawing no current (%s here), and the readings of what it biases rest on that; give the line's no-signal volts (volts = ...) to hold it where its source does",
+			n.Name, port, figure.Format(v, figure.Volt, figure.Text)))
 	}
 }
 
