@@ -12,7 +12,7 @@ import (
 // feedOrderCeiling bounds render/check's FeedOrder findings (a transformer
 // drawn left of the device whose output feeds it) over the gallery: every
 // example and gallery fixture and the blind reviews' circuits
-// (testdata/review14, review15 and review16, whose faded pages drew two IF cans left of their
+// (testdata/review14 to review17, whose faded pages drew two IF cans left of their
 // valves), every view, whole sheets in both symbol styles and the A3 pages
 // `pare FILE -o DIR` cuts; reduced views (stage templates) apart from full
 // and faded ones (the generic placement). A ratchet, as measured when the

@@ -140,7 +140,7 @@ func inRing(c *graph.Circuit, srcs []string, ref string) bool {
 func reviewCircuits(t *testing.T) []string {
 	t.Helper()
 	var out []string
-	for _, dir := range []string{"review14", "review15", "review16"} {
+	for _, dir := range []string{"review14", "review15", "review16", "review17"} {
 		files, err := filepath.Glob(filepath.Join("../../testdata", dir, "*.toml"))
 		if err != nil || len(files) == 0 {
 			t.Fatalf("no review circuits in testdata/%s: %v", dir, err)
