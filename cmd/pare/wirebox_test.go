@@ -37,9 +37,10 @@ import (
 // 114 and 267, a deliberate trade: review16 a02's padder came by a loop
 // across the sheet, and the tank wire of good/review-align-c1-valve-
 // superhet's now boxes its gang section; with the sixth review's circuits,
-// testdata/review17, brought in with their own 66 and 27: 180 and 294).
+// testdata/review17, brought in with their own 66 and 27: 180 and 294; with a link winding's
+// cold-end bias parts beside their transistor on whole sheets, 172 and 294).
 // A change may lower these, never raise them; a new sheet brings its own.
-var wireBoxCeiling = struct{ foreign, boxes int }{180, 294}
+var wireBoxCeiling = struct{ foreign, boxes int }{172, 294}
 
 // TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
 // its net has a pin there (a frame says "these parts are this stage"), and
