@@ -50,7 +50,11 @@ func (p *Point) heaterChainHeat(part *graph.Part) (w float64, note string, ok bo
 // heater pin (one envelope: a series junction, not a parallel heater
 // line), along the chain through each valve's other heater pin while the
 // next junction again holds exactly one other valve. Chassis and held rails
-// end the walk: they are no series junction.
+// end the walk: they are no series junction. Nor is a net where the valve's
+// own cathode sits on its heater pin: that is a directly heated filament
+// doubling as the cathode (a rectifier's filament on the HT reservoir), and
+// the net carries the HT's DC, not a chain's heater current (review 17's
+// b05: its smoothing resistor from the reservoir was called a dropper).
 func (p *Point) chainValves(part *graph.Part) []*graph.Part {
 	var out []*graph.Part
 	seen := map[string]bool{}
@@ -81,6 +85,9 @@ func (p *Point) soleHeater(net string, seen map[string]bool) *graph.Part {
 	for _, c := range p.Circuit.ConnsOf(net) {
 		if c.Part.Kind != graph.Valve || graph.RoleOfPin(graph.Valve, c.Pin) != graph.RoleHeater || seen[envelope(c.Part)] {
 			continue // the valve the walk came through is behind it
+		}
+		if c.Part.NetOf("k") == net {
+			return nil // a filament that is the cathode: the HT line, no chain
 		}
 		envs[envelope(c.Part)] = true
 		found = c.Part
