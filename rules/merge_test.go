@@ -207,8 +207,10 @@ R8 = { r = "10k", pins = ["o", "gnd"] }
 // Two resistors in parallel once their far ends are both AC ground (a
 // 33 kΩ bias resistor to a bypassed bias point, a 330 Ω feed from the
 // supply): the merged part says what the one carrying the current says,
-// its note and the rail its terminal returns to, whichever ref survives
+// its ref and the rail its terminal returns to, whichever ref survives
 // (review 13's b02: common practice, the smaller resistor sets the pair).
+// Its note is neutral: the members do different jobs (a bias resistor, a
+// supply feed), and one member's note would say the pair does that job.
 func TestParallelTakesTheDominantMember(t *testing.T) {
 	src := `band = "530k..1.6M"
 inputs = ["in"]
@@ -234,8 +236,8 @@ R9 = { r = "100k", pins = ["in", "gnd"] }
 	if m == nil {
 		t.Fatalf("R1 and R4 not merged:\n%s", logText(log))
 	}
-	if m.Ref != "R4" || m.Note != "supply feed" {
-		t.Errorf("merged %s note %q, want R4's ref and note", m.Ref, m.Note)
+	if m.Ref != "R4" || m.Note != "2 resistors from line to AC ground in parallel" {
+		t.Errorf("merged %s note %q, want R4's ref and a neutral note", m.Ref, m.Note)
 	}
 	for _, pn := range m.Pins {
 		if pn.Net != "line" && pn.Rail != "vcc" {

@@ -63,6 +63,7 @@ var parallel = Rule{
 		}
 		r.From = origins(s, o)
 		takeDominant(r, s, o)
+		r.Note = x.mergedNote(r, s, o)
 		why := x.describe(s) + " ∥ " + x.describe(o) + " = " + mergedValue(r) + note + exact
 		merged := r.From
 		x.Remove(s)

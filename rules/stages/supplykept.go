@@ -1,6 +1,7 @@
 package stages
 
 import (
+	"slices"
 	"strings"
 
 	"pare/graph"
@@ -66,12 +67,32 @@ func coveredBySupply(f *found, power []*found) bool {
 	return false
 }
 
+// StandsAlone tells whether the reduced circuit keeps ref as a part of
+// the stage whose parts are given: it is there and stands for none but
+// those parts. A parallel merge may keep a screen feed's ref for seven
+// resistors from the HT line (its smoothing resistor, a bleeder,
+// decouplers: review 17's b05); that part is not the screen feed's, and a
+// frame or note that calls it so tells the reader the bundle does the
+// screen feed's job.
+func StandsAlone(reduced *graph.Circuit, ref string, parts []string) bool {
+	p := reduced.Part(ref)
+	if p == nil {
+		return false
+	}
+	for _, o := range p.Origins() {
+		if !slices.Contains(parts, o) {
+			return false
+		}
+	}
+	return true
+}
+
 // supplyNoteFor is SupplyNote, or where the reduction keeps some of the
 // stage's parts, the note that says which stay on the reduced sheet.
 func supplyNoteFor(parts []string, reduced *graph.Circuit) string {
 	var kept []string
 	for _, r := range parts {
-		if reduced.Part(r) != nil {
+		if StandsAlone(reduced, r, parts) {
 			kept = append(kept, r)
 		}
 	}

@@ -1,6 +1,7 @@
 package pipeline
 
 import (
+	"slices"
 	"sort"
 	"strings"
 
@@ -36,6 +37,9 @@ func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
 			if !ok || pn.Rail != "" || pn.Net == was || !c.RoleOf(pn.Net).IsACGround() || c.RoleOf(pn.Net).IsRail() {
 				continue
 			}
+			if !allReturnTo(r.Circuit, p, was) {
+				continue
+			}
 			if out == nil {
 				out = c.Clone()
 			}
@@ -51,6 +55,21 @@ func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
 		return c
 	}
 	return out
+}
+
+// allReturnTo tells whether every part p stands for had a terminal on the
+// line: a merged part keeps one member's ref, and where its members
+// returned to different lines (review 17's b05: a screen feed merged with
+// the smoothing resistor, the bleeder and four decouplers) a tag naming the
+// survivor's line would say the whole bundle returns there.
+func allReturnTo(orig *graph.Circuit, p *graph.Part, line string) bool {
+	for _, ref := range p.Origins() {
+		q := orig.Part(ref)
+		if q == nil || !slices.ContainsFunc(q.Pins, func(pn graph.Pin) bool { return pn.Net == line }) {
+			return false
+		}
+	}
+	return true
 }
 
 func hasRail(c *graph.Circuit, name string) bool {
