@@ -50,6 +50,10 @@ func (r *Result) acBase() *graph.Circuit {
 			e.Net, rectifierOf(e), e.Wave, v, e.Net)
 		r.Notes = append(r.Notes, &graph.Error{Pos: n.Pos, Msg: msg})
 		r.reservoirNotes = append(r.reservoirNotes, msg)
+		for _, msg := range smoothedLineNotes(r.Circuit, e.Net) {
+			r.Notes = append(r.Notes, &graph.Error{Pos: n.Pos, Msg: msg})
+			r.reservoirNotes = append(r.reservoirNotes, msg)
+		}
 	}
 	c.Sort()
 	r.base = c
