@@ -13,8 +13,10 @@ import (
 // member's note would tell the reader the whole bundle does that member's
 // job (review 17's b05: seven resistors from ht kept R3's "heptode screen
 // feed, about 90 V"). A member with no note says nothing against the other.
+// A gang section with a trimmer or fixed capacitor across it stays the
+// tuned section (the merge only shifts its range), so it keeps its note.
 func (x *Ctx) mergedNote(r, s, o *graph.Part) string {
-	if s.Note == o.Note || s.Note == "" || o.Note == "" {
+	if s.Note == o.Note || s.Note == "" || o.Note == "" || capClass(r) == 3 {
 		return r.Note
 	}
 	a, b := Ends(r, false)

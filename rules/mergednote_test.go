@@ -27,6 +27,7 @@ func TestMergedNoteNeutral(t *testing.T) {
 		{"different jobs from the HT line", string(b), "R3", "%d resistors from ht to AC ground in parallel"},
 		{"one job split in two", splitLoad(`, note = "anode load"`, `, note = "anode load"`), "R1", "anode load"},
 		{"one member without a note", splitLoad(`, note = "anode load"`, ""), "R1", "anode load"},
+		{"a gang section with its trimmer", string(b), "VC1a", "gang, aerial section"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			r, _ := reduceChecked(t, parse(t, tc.src), Options{Level: LevelSignal})
