@@ -60,10 +60,7 @@ func (x *figCtx) couplingCorner(p *graph.Part, up, down int, r, c float64) {
 		Origin: figure.BySolver("−3 dB of V("+downNet+")/V("+upNet+")", gangMid.at)}
 	why := func() string {
 		load := 1 / (2 * math.Pi * f * c)
-		beyond := "what lies beyond draws current too"
-		if refs := x.devicesOn(down); len(refs) > 0 {
-			beyond = "the input of " + figure.AndList(refs) + " draws current too"
-		}
+		beyond := loadingWhy(load, r, x.devicesOn(down))
 		return fmt.Sprintf("in circuit %s works into about %s, not the %s of resistors to AC ground the formula takes: %s",
 			p.Ref, figure.Format(load, figure.Ohm, figure.Text), figure.Format(r, figure.Ohm, figure.Text), beyond)
 	}
@@ -74,6 +71,27 @@ func (x *figCtx) couplingCorner(p *graph.Part, up, down int, r, c float64) {
 	rin := &figure.Figure{Name: "r_in", Unit: figure.Ohm, Value: 1 / (2 * math.Pi * f * c),
 		Origin: figure.BySolver("1/(2π·fc·C), fc the −3 dB point of V("+downNet+")/V("+upNet+")", gangMid.at)}
 	x.putChecked(rin, &figure.Figure{Name: "r_in", Unit: figure.Ohm, Value: r, Origin: byResistorsToGround}, sameLoading)
+}
+
+// loadingWhy words why a coupling capacitor works into load in circuit
+// rather than the r of its resistors to AC ground, by the sign of the
+// difference: a lower load is current drawn beyond the resistors (the
+// next device's input); a higher one is those resistors' far ends
+// following the signal (a grid leak returned to a cathode's bias foot, a
+// bootstrap, feedback), which raises the resistance: a cathodyne's grid
+// leak read as "the input draws current too" told a repairer the opposite
+// of what the circuit does.
+func loadingWhy(load, r float64, refs []string) string {
+	if load > r {
+		if len(refs) > 0 {
+			return "the resistors' far ends follow the signal through " + figure.AndList(refs) + " (bootstrapping or feedback), which raises the resistance"
+		}
+		return "the resistors' far ends follow the signal (bootstrapping or feedback), which raises the resistance"
+	}
+	if len(refs) > 0 {
+		return "the input of " + figure.AndList(refs) + " draws current too"
+	}
+	return "what lies beyond draws current too"
 }
 
 // cornerTau makes a stage's time constant the one its corner in circuit
