@@ -32,6 +32,8 @@ var figureNames = []figName{
 	{name: "osc_f", label: "osc f"},
 	{name: "sig_f", label: "sig f"},
 	{name: "f", label: "f"},
+	// an oscillator's tank resonance without its loop, beside the loop's f
+	{name: "f_tank", label: "tank alone"},
 	{name: "f1", label: "f1"},
 	{name: "f2", label: "f2"},
 	{name: "if", label: "IF"},

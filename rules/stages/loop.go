@@ -205,8 +205,8 @@ func gmMargin(ref string, db float64) string {
 }
 
 // pullFlags compares the loop's frequency at the ends of the dial with the
-// tank's own resonance (the stage's f figures): the difference is what the
-// device and its loads pull it by.
+// tank's own resonance (its tank-alone figure, else its f figures): the
+// difference is what the device and its loads pull it by.
 func pullFlags(st *Stage, l Loop) []string {
 	tank := func(keys ...string) float64 {
 		for _, k := range keys {
@@ -221,11 +221,11 @@ func pullFlags(st *Stage, l Loop) []string {
 		var f0 float64
 		switch {
 		case len(l.Settings) == 1:
-			f0 = tank("f_hz", "osc_f_hz")
+			f0 = tank("f_tank_hz", "f_hz", "osc_f_hz")
 		case s.Gang == 0:
-			f0 = tank("f_max_hz", "osc_f_max_hz")
+			f0 = tank("f_tank_max_hz", "f_max_hz", "osc_f_max_hz")
 		case s.Gang == 1:
-			f0 = tank("f_min_hz", "osc_f_min_hz")
+			f0 = tank("f_tank_min_hz", "f_min_hz", "osc_f_min_hz")
 		default:
 			continue
 		}

@@ -53,24 +53,110 @@ func withCheck(f figure.Figure, c figure.Figure, why string) figure.Figure {
 	return f
 }
 
-// loopFrequencyFigure makes an oscillator stage's formula-only frequency f
-// the loop's, keeping the formula as its check. Figures the solver
-// already gives (a tank's resonance in circuit) are left alone: the loop
-// line and the pull flag compare the two.
+// loopFrequencyFigure makes an oscillator stage's headline frequency f the
+// loop's, where the loop has a 0° crossing: the loop is where the stage
+// runs, with every load on it. A formula-only f becomes its check. On an
+// oscillator, a tank's own resonance in circuit (the solver's, but without
+// the device's loop) moves to a second figure, "tank alone", beside the
+// loop's, so a sheet, the title block and the note lead with the frequency
+// the bench counter reads; an oscillator with no f at all (one found by
+// its loop) gets the loop's. Other stages' solver figures stay: a mixer's
+// f may be its signal tuning, not its oscillator's.
 func loopFrequencyFigure(st *Stage, l Loop) {
 	old, ok := st.Figures.Get("f")
-	if !ok || old.Origin.Source != figure.Formula || old.Unit != figure.Hertz {
-		return
+	switch {
+	case ok && old.Unit == figure.Hertz && old.Origin.Source == figure.Formula:
+		f, ok := loopFreq("f", old.Label, l)
+		if !ok {
+			return
+		}
+		why := fmt.Sprintf("the formula takes the network unloaded; in circuit the loop's phase is 0° at %s, with %s's input and output loading the network", hzText(f.Value), l.Device)
+		if f.Range != nil {
+			why = fmt.Sprintf("the formula takes the network unloaded; in circuit %s's input and output load it", l.Device)
+		}
+		st.Figures.Put(withCheck(f, old, why))
+	case st.group != "oscillator" || ok && (old.Unit != figure.Hertz || old.Origin.Name == loopOrigin.Name):
+	case ok:
+		tankAlone(st, old, l)
+	default:
+		if _, has := st.Figures.Get("osc_f"); has {
+			return
+		}
+		if f, ok := loopFreq("f", "f", l); ok {
+			insertFigure(st, 0, f)
+		}
 	}
-	f, ok := loopFreq("f", old.Label, l)
+}
+
+// tankAlone makes the loop's frequency an oscillator's f, with its tank's
+// own resonance in circuit (tank, the solver's) the figure beside it.
+func tankAlone(st *Stage, tank figure.Figure, l Loop) {
+	f, ok := loopFreq("f", "f", l)
 	if !ok {
 		return
 	}
-	why := fmt.Sprintf("the formula takes the network unloaded; in circuit the loop's phase is 0° at %s, with %s's input and output loading the network", hzText(f.Value), l.Device)
-	if f.Range != nil {
-		why = fmt.Sprintf("the formula takes the network unloaded; in circuit %s's input and output load it", l.Device)
+	tank.Name, tank.Label = tankAloneName, tankAloneLabel
+	if tank.Check != nil {
+		ck := *tank.Check
+		ck.Name = tankAloneName
+		tank.Check = &ck
 	}
-	st.Figures.Put(withCheck(f, old, why))
+	if _, has := st.Figures.Get("f"); has {
+		st.Figures.Put(f)
+	} else {
+		insertFigure(st, 0, f)
+	}
+	insertFigure(st, figureIndexOf(st, "f")+1, tank)
+}
+
+// loopOscFigures gives an oscillator found by its loop alone the loop's
+// frequency, with the resonance of the tank its feedback transformer
+// tunes (its sub-stage, nil when none) beside it: without them its frame
+// on a sheet carried no frequency at all.
+func loopOscFigures(st *Stage, l Loop, tank *Stage) {
+	if t, ok := tankTuning(tank); ok && t.Origin.Source == figure.Solver {
+		if _, has := st.Figures.Get("f"); !has {
+			tankAlone(st, t, l)
+			return
+		}
+	}
+	loopFrequencyFigure(st, l)
+}
+
+// tankTuning is a tank stage's resonance figure, if it has one.
+func tankTuning(tank *Stage) (figure.Figure, bool) {
+	if tank == nil {
+		return figure.Figure{}, false
+	}
+	t, ok := tank.Figures.Get("f")
+	return t, ok && t.Unit == figure.Hertz
+}
+
+// tankAloneName and tankAloneLabel name an oscillator's tank resonance in
+// circuit without its loop (the device's gain taken out): the cross-check
+// beside the loop's frequency, and what a loop's pull is measured from.
+const (
+	tankAloneName  = "f_tank"
+	tankAloneLabel = "tank alone"
+)
+
+// figureIndexOf is the place of the figure of the given name, -1 if none.
+func figureIndexOf(st *Stage, name string) int {
+	return slices.IndexFunc(st.Figures, func(f figure.Figure) bool { return f.Name == name })
+}
+
+// insertFigure puts f at place i of the stage's figures, with its rank
+// beside it: the stage's figures are sorted before the loops are solved,
+// so a figure the loop adds goes where the one order puts it by hand.
+func insertFigure(st *Stage, i int, f figure.Figure) {
+	if !f.Finite() || i < 0 || i > len(st.Figures) {
+		return
+	}
+	if len(st.figRanks) == len(st.Figures) {
+		r := figRank{tier: 0, index: figureIndex(f.Name, f.Unit)}
+		st.figRanks = slices.Insert(slices.Clone(st.figRanks), i, r)
+	}
+	st.Figures = slices.Insert(slices.Clone(st.Figures), i, f)
 }
 
 // mixerFigures gives a mixer found by its loop the oscillator's range from

@@ -214,6 +214,8 @@ func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, 
 			st.Figures.Put(ifFigure(c.Freqs["if"]))
 		}
 		loopTracking(w, st, through, c.Freqs["if"])
+	} else {
+		loopOscFigures(st, l, tank)
 	}
 	st.Flags = loopFlags(lc, st, l)
 	slices.Sort(st.Flags)
