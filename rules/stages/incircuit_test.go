@@ -231,8 +231,11 @@ var formulaOnly = map[[2]string]string{
 	// frequency across the gang) and sig_f follows from it; their formula
 	// check is the tank's f = 1/(2π√(LC)) when a pattern names the tank the
 	// feedback goes through, and a padded tank no pattern names has none.
-	{"self-oscillating-mixer-loop", "osc_f"}:   "the loop's solver figure: its check needs a stage that names the tank (known gap for a padded tank)",
-	{"self-oscillating-mixer-loop", "sig_f"}:   "oscillator − IF from the loop: its check needs a stage that names the tank (known gap for a padded tank)",
+	{"self-oscillating-mixer-loop", "osc_f"}: "the loop's solver figure: its check needs a stage that names the tank (known gap for a padded tank)",
+	{"self-oscillating-mixer-loop", "sig_f"}: "oscillator − IF from the loop: its check needs a stage that names the tank (known gap for a padded tank)",
+	// An oscillator found by its loop whose tank no pattern names: f is
+	// the loop's, with no formula to check it by.
+	{"oscillator-loop", "f"}:                   "the loop's solver figure: its check needs a stage that names the tank (known gap)",
 	{"self-oscillating-mixer-loop", "image_f"}: "oscillator + IF from the loop: its check needs a stage that names the tank (known gap for a padded tank)",
 }
 

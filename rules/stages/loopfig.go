@@ -82,7 +82,7 @@ func loopFrequencyFigure(st *Stage, l Loop) {
 		if _, has := st.Figures.Get("osc_f"); has {
 			return
 		}
-		if f, ok := loopFreq("f", "f", l); ok {
+		if f, ok := loopFreq("f", "f", l); ok && loopRuns(l) {
 			insertFigure(st, 0, f)
 		}
 	}
@@ -92,15 +92,18 @@ func loopFrequencyFigure(st *Stage, l Loop) {
 // own resonance in circuit (tank, the solver's) the figure beside it.
 func tankAlone(st *Stage, tank figure.Figure, l Loop) {
 	f, ok := loopFreq("f", "f", l)
-	if !ok {
+	if !ok || !loopRuns(l) {
 		return
 	}
-	tank.Name, tank.Label = tankAloneName, tankAloneLabel
 	if tank.Check != nil {
+		// the tank's formula checks the loop's f as it checks a mixer's
+		// oscillator range (mixerFigures), and stays on the tank's own
+		f = withCheck(f, *tank.Check, "the tank alone, by its formula, leaves out what the device and its loads put across it: the loop runs where its phase is 0° in circuit")
 		ck := *tank.Check
 		ck.Name = tankAloneName
 		tank.Check = &ck
 	}
+	tank.Name, tank.Label = tankAloneName, tankAloneLabel
 	if _, has := st.Figures.Get("f"); has {
 		st.Figures.Put(f)
 	} else {
@@ -130,6 +133,15 @@ func tankTuning(tank *Stage) (figure.Figure, bool) {
 	}
 	t, ok := tank.Figures.Get("f")
 	return t, ok && t.Unit == figure.Hertz
+}
+
+// loopRuns tells whether a loop starts somewhere on the dial: only then
+// is its 0° frequency where the stage runs (a loop short of 0 dB, or with
+// its winding turned over, crosses 0° where nothing oscillates; its flag
+// says so, and the tank's own figure stays the stage's f).
+func loopRuns(l Loop) bool {
+	_, _, _, mMax, ok := l.Range()
+	return ok && mMax >= 0
 }
 
 // tankAloneName and tankAloneLabel name an oscillator's tank resonance in
