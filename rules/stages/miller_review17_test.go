@@ -1,10 +1,8 @@
 package stages
 
 import (
-	"bufio"
 	"math"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -70,23 +68,7 @@ func deckRatio(t *testing.T, path, num, den string, f float64) float64 {
 	fs := strconv.FormatFloat(f, 'g', 12, 64)
 	deck := body + ".control\nset wr_singlescale\nset wr_vecnames\noption numdgt=12\nac lin 1 " + fs + " " + fs +
 		"\nlet r = mag(v(" + num + ")/v(" + den + "))\nwrdata out.dat r\nquit\n.endc\n.end\n"
-	dir := t.TempDir()
-	if err := os.WriteFile(filepath.Join(dir, "deck.cir"), []byte(deck), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	cmd := exec.Command(reftool.Find(t, reftool.Ngspice), "-b", "deck.cir")
-	cmd.Dir = dir
-	out, err := cmd.CombinedOutput()
-	if err != nil || strings.Contains(string(out), "Error") {
-		t.Fatalf("ngspice: %v\n%s", err, out)
-	}
-	fh, err := os.Open(filepath.Join(dir, "out.dat"))
-	if err != nil {
-		t.Fatalf("ngspice wrote no data: %v\n%s", err, out)
-	}
-	defer fh.Close()
-	sc := bufio.NewScanner(fh)
-	sc.Scan() // header
+	sc := ngspiceData(t, reftool.Find(t, reftool.Ngspice), t.TempDir(), deck)
 	if !sc.Scan() {
 		t.Fatal("ngspice data has no row")
 	}

@@ -31,22 +31,7 @@ quit
 .endc
 .end
 `
-	if err := os.WriteFile(filepath.Join(dir, "deck.cir"), []byte(deck), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	cmd := exec.Command(bin, "-b", "deck.cir")
-	cmd.Dir = dir
-	out, err := cmd.CombinedOutput()
-	if err != nil || strings.Contains(string(out), "Error") {
-		t.Fatalf("ngspice: %v\n%s", err, out)
-	}
-	fh, err := os.Open(filepath.Join(dir, "out.dat"))
-	if err != nil {
-		t.Fatalf("ngspice wrote no data: %v\n%s", err, out)
-	}
-	defer fh.Close()
-	sc := bufio.NewScanner(fh)
-	sc.Scan() // header
+	sc := ngspiceData(t, bin, dir, deck)
 	for sc.Scan() {
 		fields := strings.Fields(sc.Text())
 		if len(fields) < 2 {
@@ -59,6 +44,28 @@ quit
 		}
 	}
 	return f, v
+}
+
+// ngspiceData runs deck in dir with ngspice and returns a scanner over the
+// rows of the out.dat it writes, past its header.
+func ngspiceData(t *testing.T, bin, dir, deck string) *bufio.Scanner {
+	t.Helper()
+	if err := os.WriteFile(filepath.Join(dir, "deck.cir"), []byte(deck), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cmd := exec.Command(bin, "-b", "deck.cir")
+	cmd.Dir = dir
+	out, err := cmd.CombinedOutput()
+	if err != nil || strings.Contains(string(out), "Error") {
+		t.Fatalf("ngspice: %v\n%s", err, out)
+	}
+	b, err := os.ReadFile(filepath.Join(dir, "out.dat"))
+	if err != nil {
+		t.Fatalf("ngspice wrote no data: %v\n%s", err, out)
+	}
+	sc := bufio.NewScanner(strings.NewReader(string(b)))
+	sc.Scan() // header
+	return sc
 }
 
 func peak(f, v []float64) (float64, float64) {
