@@ -262,9 +262,7 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 				// merged part that also stands for parts of other jobs is no
 				// part of its frame (a signal stage was found on the merged
 				// part itself)
-				if !s.Supply || stages.StandsAlone(reduced, ref, s.Parts) {
-					set[ref] = true
-				}
+				set[ref] = true
 			case full != nil && rp != nil:
 				for _, o := range rp.Origins() {
 					if full.Part(o) != nil {
