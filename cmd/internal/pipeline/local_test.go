@@ -20,11 +20,11 @@ func TestLocalStepProofIsWhole(t *testing.T) {
 	paths := stepProofSets(t, !testing.Short())
 	for _, p := range paths {
 		for _, lvl := range []rules.Level{rules.LevelSignal, rules.LevelIdeal} {
-			o := Options{Path: p, Until: PhaseReduce, Level: lvl, StepCheck: AgainstPrevious}
-			local, err := Run(o)
+			local, err := mainReduction(t, p, lvl)
 			if err != nil {
 				t.Fatalf("%s: %v", p, err)
 			}
+			o := mainReductionOptions(p, lvl)
 			o.wholeSteps = true
 			whole, err := Run(o)
 			if err != nil {
