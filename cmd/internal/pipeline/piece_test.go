@@ -26,9 +26,10 @@ import (
 // The final proof is not run here: it lends no memo and solves afresh on
 // whole blocks (Result.compare with a nil memo), from the circuit as
 // loaded and the reduced one, so the same reduced circuit, part for part
-// and in the same order (sameReduced), gives the same report. Running it
-// twice per set and level was two thirds of this test's time, and it is
-// the one test of the suite that reduces every fixture.
+// and in the same order (sameReduced), gives the same report. The runs
+// proven on pieces are the main job's reductions TestLocalStepProofIsWhole
+// made (mainReduction); with the final proofs left out, the two tests take
+// some 30 % less CPU (docs/performance.md, issue 13, session 12).
 func TestReadPieceStepsAreBlockSteps(t *testing.T) {
 	paths := stepProofSets(t, !testing.Short())
 	if !testing.Short() {
