@@ -42,7 +42,7 @@ func runFaultBatch(t *testing.T, bin string, decks []string, n int) [][]float64 
 	if err := os.WriteFile(path, []byte(ctl.String()), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	out := runNgspice(t, bin, dir, path, 30*time.Second+time.Duration(len(decks))*time.Second)
+	out := runNgspice(t, bin, dir, path, ngspiceLimit+time.Duration(len(decks))*2*time.Second)
 	got := parseBatch(t, out, len(decks))
 	for k, vals := range got {
 		if len(vals) != n {

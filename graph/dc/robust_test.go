@@ -34,7 +34,10 @@ func TestWildValuesNeverHang(t *testing.T) {
 			}
 			start := time.Now()
 			pt, err := Solve(c)
-			if d := time.Since(start); d > 20*time.Second {
+			// The bound is on a hang, not on speed: Newton runs are capped by
+			// maxIter, so only a loop outside them could pass two minutes,
+			// while a loaded two-core machine has taken 20 s to settle.
+			if d := time.Since(start); d > 2*time.Minute {
 				t.Errorf("%s trial %d: %v to settle or give up", file, trial, d)
 			}
 			if err != nil {
