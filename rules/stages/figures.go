@@ -85,8 +85,13 @@ type figCtx struct {
 // figure whose number is not finite is left out: no figure is better than
 // a wrong one.
 func (x *figCtx) put(f figure.Figure) {
+	x.putLabelled(x.named(f))
+}
+
+// putLabelled is put for a figure whose label, working and group are
+// already set (named, then a label made more particular).
+func (x *figCtx) putLabelled(f figure.Figure) {
 	name := f.Name
-	f = x.named(f)
 	if f.At != nil {
 		at := x.named(*f.At)
 		at.Name = prefixed(x.spec.Prefix, at.Name)

@@ -121,21 +121,37 @@ func refList(ps []*graph.Part) string {
 // capacitor of the main filter, or its input capacitor where no rectifier
 // sits on it; a decoupling capacitor; a screen bypass capacitor. A
 // decoupler's or screen feed's input capacitor belongs to the line before
-// it, so it is not the section's figure.
-func (x *figCtx) capRoles(class filterClass, in int, c1, c2 float64) {
+// it, so it is not the section's figure. Each figure's label names its
+// capacitors ("c reservoir (C2)"): a frame's figure line stands beside
+// whichever capacitor the sheet drew nearest, and on a reduced sheet the
+// reservoir is often not drawn at all, so a bare "c reservoir" was read as
+// the smoothing capacitor's label.
+func (x *figCtx) capRoles(class filterClass, in int, c1p, c2p []*graph.Part) {
+	c1, c2 := sumCap(c1p, 1), sumCap(c2p, 1)
 	switch class {
 	case mainSmoothing:
 		if c1 > 0 && x.rectifierOn(in) {
-			x.set("c_reservoir", figure.Farad, c1, byPartValue)
+			x.setCap("c_reservoir", c1, c1p)
 		} else if c1 > 0 {
-			x.set("c_input", figure.Farad, c1, byPartValue)
+			x.setCap("c_input", c1, c1p)
 		}
-		x.set("c_smoothing", figure.Farad, c2, byPartValue)
+		x.setCap("c_smoothing", c2, c2p)
 	case decoupler:
-		x.set("c_decoupling", figure.Farad, c2, byPartValue)
+		x.setCap("c_decoupling", c2, c2p)
 	case screenFeed:
-		x.set("c_screen_bypass", figure.Farad, c2, byPartValue)
+		x.setCap("c_screen_bypass", c2, c2p)
 	}
+}
+
+// setCap records a capacitance figure taken from the netlist values of
+// parts, its label naming them.
+func (x *figCtx) setCap(name string, v float64, parts []*graph.Part) {
+	f := x.named(figure.Figure{Name: name, Unit: figure.Farad})
+	if len(parts) > 0 {
+		f.Label += " (" + refList(parts) + ")"
+	}
+	f.Name, f.Value, f.Origin = name, v, byPartValue
+	x.putLabelled(f)
 }
 
 // dcPoint is the operating point of the original circuit, nil if unknown.

@@ -52,7 +52,7 @@ func calcSmoothing(x *figCtx) {
 		return
 	}
 	class, fed := x.filterClassOf(in, out, x.partIndex(s))
-	x.capRoles(class, in, c1, c2)
+	x.capRoles(class, in, c1p, c2p)
 	if class == mainSmoothing && c1 > 0 && x.rectifierOn(in) {
 		// the reservoir is the main filter's own: no other section ends
 		// on the rectifier, so the stage holds it
