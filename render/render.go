@@ -115,6 +115,9 @@ type Legend struct {
 // Place is one part of a stage's drawing template (see layout.Place).
 type Place = layout.Place
 
+// StandFlipped stands a device upside down (layout.StandFlipped).
+const StandFlipped = layout.StandFlipped
+
 // Sheet is what to draw.
 type Sheet struct {
 	Circuit *graph.Circuit

@@ -2,8 +2,10 @@ package layout
 
 import (
 	"math"
-	"pare/render/geom"
 	"sort"
+
+	"pare/graph"
+	"pare/render/geom"
 )
 
 // levelConnectors stands each off-row connector (rows.go) at its row's
@@ -47,11 +49,11 @@ func (ly *state) levelEdge(col []*block, left bool) {
 			fixed = append(fixed, b)
 			continue
 		}
-		if left {
-			y = ly.clearOfFrames(p.Net, y, p.At.X, p.At.X+reach)
-		} else {
-			y = ly.clearOfFrames(p.Net, y, p.At.X-reach, p.At.X)
+		x0, x1 := p.At.X, p.At.X+reach
+		if !left {
+			x0, x1 = p.At.X-reach, p.At.X
 		}
+		y = ly.clearOfFrames(p.Net, ly.underDevices(p.Net, y, x0, x1), x0, x1)
 		// the pin on the routing grid's nearest line: a pin between
 		// lines is left unwired
 		ws = append(ws, want{b: b, y: math.Round(y), off: p.At.Y - b.fp.Y0, reach: reach})
@@ -120,6 +122,58 @@ func (ly *state) edgeLevel(net string, left bool) (y, reach float64, ok bool) {
 		}
 	}
 	return y, best, ok
+}
+
+// underDevices is level y, run from x0 to x1, or, when that run would
+// pass a device (a valve or transistor) with no pin on net, a step below
+// every part standing in the span: a wire from the edge to a pin beyond a
+// stage's devices (an overall feedback lead from an output winding back to
+// an earlier row) runs along the stage's foot, as the trade draws a
+// feedback lead, not between the devices across their leads (review17
+// a04's push-pull page, the feedback across the pair's cathode lead).
+func (ly *state) underDevices(net string, y, x0, x1 float64) float64 {
+	above, below, through := false, false, false
+	foot := math.Inf(-1)
+	for _, cl := range ly.cells {
+		if cl.edge != 0 || cl.conn {
+			continue
+		}
+		b := cl.footprint()
+		if b.X1 <= x0 || b.X0 >= x1 {
+			continue
+		}
+		foot = math.Max(foot, b.Y1)
+		if !activeCell(cl) || onNet(cl, net) {
+			continue
+		}
+		// the symbol itself, not its label, stands in the run's way
+		if b = cl.shape.Box; b.X1 <= x0 || b.X0 >= x1 {
+			continue
+		}
+		through = through || b.Y0 < y && y < b.Y1
+		above = above || b.Y1 <= y
+		below = below || b.Y0 >= y
+	}
+	if !through && !(above && below) {
+		return y
+	}
+	return math.Ceil(foot) + rowGap
+}
+
+// activeCell says whether a cell is a device: a part with a control
+// electrode (a valve's grid, a transistor's base or gate).
+func activeCell(cl *cell) bool {
+	return cl.part != nil && cl.part.PinWithRole(graph.RoleControl) != ""
+}
+
+// onNet says whether a cell has a pin on net.
+func onNet(cl *cell, net string) bool {
+	for _, p := range cl.shape.Pins {
+		if p.Net == net {
+			return true
+		}
+	}
+	return false
 }
 
 // clearOfFrames moves level y, run from x0 to x1, just above or below (the

@@ -38,6 +38,13 @@ func (ly *state) orient() {
 			cl.shape = base
 			continue
 		}
+		if stands[cl.ref] == StandFlipped && len(base.Pins) > 2 {
+			// the lower half of a pair, mirrored about the line between
+			// the halves: one orientation, which the search keeps
+			flip := symbol.Orient{Mirror: true, Quarter: 2}
+			cl.shape, cl.turns, cl.turn = base.Oriented(flip), []symbol.Orient{flip}, 0
+			continue
+		}
 		best, bestScore := base, math.Inf(-1)
 		cl.turns = base.Turns
 		// a turn the search fixed holds when it leaves the part upright

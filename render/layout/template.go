@@ -20,7 +20,7 @@ import (
 // Place is one part of a stage template: Ref drawn Col slots right and Row
 // slots down of Anchor (the stage's active part, whose own place is Col 0,
 // Row 0). Stand, when set, is "vertical" or "horizontal": the way a
-// two-terminal part runs.
+// two-terminal part runs; or StandFlipped for a device.
 type Place struct {
 	Ref, Anchor string
 	Col, Row    int
@@ -29,6 +29,12 @@ type Place struct {
 	// turn towards the ladder's shunts on its nets (lineScore).
 	Line bool
 }
+
+// StandFlipped stands a device upside down (mirrored top to bottom, its
+// control electrode still on the left): the lower half of a push-pull
+// pair, its common electrode up towards the upper half's, so the two meet
+// on the centre line (common practice in service sheets).
+const StandFlipped = "flipped"
 
 // Gaps between a template's slots, in grid steps: as between the generic
 // placement's columns and stacked blocks.

@@ -32,6 +32,24 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []rende
 	}
 	common := [2]string{netOf(devs[0], graph.RoleCommon), netOf(devs[2], graph.RoleCommon)}
 	out := slices.Clone(places)
+	flipped := mirrorPair(c, devs[0], devs[2], common)
+	feedRow := [3]int{-1, -1, 3} // the upper half's, a shared, the lower half's feed
+	if flipped {
+		// the transformer a column further right: each half's screen
+		// feed stands in the column between, level with its device,
+		// inside the bend of its output lead, which it would cross
+		// from above or below (review17 a04's anode lead round R13)
+		feedRow = [3]int{0, 1, 2}
+		for i := range out {
+			switch {
+			case out[i].Ref == devs[2].Ref:
+				out[i].Stand = render.StandFlipped
+			case out[i].Col >= 1:
+				out[i].Col++
+			}
+		}
+	}
+	shared := -1 // the column of the next part of a flipped pair's common network
 	anchor := places[0].Anchor
 	add := func(ref string, col, row int, stand string) {
 		placed[ref] = true
@@ -54,6 +72,11 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []rende
 		on := func(n string) bool { return n != "" && (q.Pins[0].Net == n || q.Pins[1].Net == n) }
 		switch {
 		case !touchesGround(c, q):
+		case flipped && on(common[0]):
+			// left of the two common electrodes meeting on the centre
+			// line, clear of the transformer on the right
+			add(ref, shared, 1, "vertical")
+			shared--
 		case common[0] == common[1] && on(common[0]):
 			add(ref, 0, 1, "vertical")
 		case common[0] != common[1] && on(common[0]) && slices.Contains(parts, ref):
@@ -75,17 +98,29 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []rende
 		}
 		switch {
 		case sharedFeed(c, q, devs[0], devs[2]):
-			add(ref, 1, -1, "vertical")
-			if cap := feedBypass(c, q, placed); cap != "" {
+			add(ref, 1, feedRow[1], "vertical")
+			if cap := feedBypass(c, q, placed); cap != "" && !flipped {
 				add(cap, 2, -1, "vertical")
 			}
 		case ownFeed(c, q, devs[0]):
-			add(ref, 1, -1, "vertical")
+			add(ref, 1, feedRow[0], "vertical")
 		case ownFeed(c, q, devs[2]):
-			add(ref, 1, 3, "vertical")
+			add(ref, 1, feedRow[2], "vertical")
 		}
 	}
 	return out
+}
+
+// mirrorPair says whether the lower device of a pair stands upside down:
+// two devices of one kind and type (a push-pull pair, not a complementary
+// one, whose lower half turns by its own polarity) on one common net off
+// AC ground, so their common electrodes meet on the centre line with the
+// shared network beside them, and neither one's common lead runs round
+// its device across the control lead (review17 a04's V3 cathode lead
+// across V4's grid lead).
+func mirrorPair(c *graph.Circuit, d1, d2 *graph.Part, common [2]string) bool {
+	return d1.Kind == d2.Kind && d1.Type == d2.Type && common[0] != "" && common[0] == common[1] &&
+		!c.RoleOf(common[0]).IsACGround()
 }
 
 // sharedFeed says whether two-terminal q joins a net both devices have a
