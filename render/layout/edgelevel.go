@@ -126,14 +126,16 @@ func (ly *state) edgeLevel(net string, left bool) (y, reach float64, ok bool) {
 
 // underDevices is level y, run from x0 to x1, or, when that run would
 // pass a device (a valve or transistor) with no pin on net, a step below
-// every part standing in the span: a wire from the edge to a pin beyond a
+// every part standing in the span (above, when the level is above the
+// middle of the devices there): a wire from the edge to a pin beyond a
 // stage's devices (an overall feedback lead from an output winding back to
 // an earlier row) runs along the stage's foot, as the trade draws a
 // feedback lead, not between the devices across their leads (review17
 // a04's push-pull page, the feedback across the pair's cathode lead).
 func (ly *state) underDevices(net string, y, x0, x1 float64) float64 {
 	above, below, through := false, false, false
-	foot := math.Inf(-1)
+	top, foot := math.Inf(1), math.Inf(-1)
+	mid, devs := 0.0, 0.0 // the devices' mean height
 	for _, cl := range ly.cells {
 		if cl.edge != 0 || cl.conn {
 			continue
@@ -142,7 +144,7 @@ func (ly *state) underDevices(net string, y, x0, x1 float64) float64 {
 		if b.X1 <= x0 || b.X0 >= x1 {
 			continue
 		}
-		foot = math.Max(foot, b.Y1)
+		top, foot = math.Min(top, b.Y0), math.Max(foot, b.Y1)
 		if !activeCell(cl) || onNet(cl, net) {
 			continue
 		}
@@ -151,11 +153,15 @@ func (ly *state) underDevices(net string, y, x0, x1 float64) float64 {
 			continue
 		}
 		through = through || b.Y0 < y && y < b.Y1
+		mid, devs = mid+(b.Y0+b.Y1)/2, devs+1
 		above = above || b.Y1 <= y
 		below = below || b.Y0 >= y
 	}
-	if !through && !(above && below) {
+	switch {
+	case !through && !(above && below):
 		return y
+	case y < mid/devs:
+		return math.Floor(top) - rowGap
 	}
 	return math.Ceil(foot) + rowGap
 }

@@ -15,7 +15,11 @@ import (
 // common-electrode network between the two devices, the halves mirrored
 // about it. Only a stage whose template places a second device straight
 // below the first (row 2) is a pair; any other template is returned as is.
-func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []render.Place {
+// On a reduced sheet (mirror) a pair of one kind stands mirrored
+// (mirrorPair); on the full and faded sheets the lower device stays
+// upright, where its heater pins would otherwise point up into the middle
+// of the pair and crowd the common network.
+func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror bool) []render.Place {
 	if len(places) == 0 {
 		return places
 	}
@@ -32,7 +36,7 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit) []rende
 	}
 	common := [2]string{netOf(devs[0], graph.RoleCommon), netOf(devs[2], graph.RoleCommon)}
 	out := slices.Clone(places)
-	flipped := mirrorPair(c, devs[0], devs[2], common)
+	flipped := mirror && mirrorPair(c, devs[0], devs[2], common)
 	feedRow := [3]int{-1, -1, 3} // the upper half's, a shared, the lower half's feed
 	if flipped {
 		// the transformer a column further right: each half's screen
