@@ -2,6 +2,7 @@ package layout
 
 import (
 	"math"
+	"pare/graph"
 	"slices"
 
 	"pare/render/geom"
@@ -223,6 +224,11 @@ func (ly *state) slotMoves(anchor *block, slots []*slotted) {
 		}
 		if s.row != 0 {
 			s.d.Y = math.Round(cy[s.row] - (s.b.fp.Y0+s.b.fp.Y1)/2)
+			if y, ok := commonTop(anchor.cells[0], s.b); ok && ly.flippedBelow(slots) {
+				// a mirrored pair's common network hangs from the
+				// centre line, where the two common leads meet
+				s.d.Y = math.Round(cy[s.row] - y)
+			}
 		}
 	}
 	ly.levelLying(slots)
@@ -503,4 +509,39 @@ func clearMoves() []float64 {
 		out = append(out, -dy)
 	}
 	return out
+}
+
+// commonTop is the y of a block's pin, pointing up, on the anchor's common
+// electrode's net (a cathode or emitter resistor's top); false for none.
+func commonTop(a *cell, b *block) (float64, bool) {
+	pin := a.part.PinWithRole(graph.RoleCommon)
+	if pin == "" || len(b.cells) != 1 {
+		return 0, false
+	}
+	net := ""
+	for _, p := range a.part.Pins {
+		if p.Name == pin {
+			net = p.Net
+		}
+	}
+	for _, p := range b.cells[0].shape.Pins {
+		if p.Net == net && p.Dir == geom.Up {
+			return p.At.Y, true
+		}
+	}
+	return 0, false
+}
+
+// flippedBelow says whether a template's slots stand a device upside down
+// (StandFlipped): the lower half of a mirrored pair.
+func (ly *state) flippedBelow(slots []*slotted) bool {
+	stands := ly.stands()
+	for _, s := range slots {
+		for _, cl := range s.b.cells {
+			if stands[cl.ref] == StandFlipped {
+				return true
+			}
+		}
+	}
+	return false
 }

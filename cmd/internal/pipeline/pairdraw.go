@@ -38,12 +38,15 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 	out := slices.Clone(places)
 	flipped := mirror && mirrorPair(c, devs[0], devs[2], common)
 	feedRow := [3]int{-1, -1, 3} // the upper half's, a shared, the lower half's feed
+	feedStand := "vertical"
 	if flipped {
 		// the transformer a column further right: each half's screen
 		// feed stands in the column between, level with its device,
 		// inside the bend of its output lead, which it would cross
 		// from above or below (review17 a04's anode lead round R13)
-		feedRow = [3]int{0, 1, 2}
+		// lying level with its screen pin, so the screen lead is one
+		// straight run clear of the output lead under (over) it
+		feedRow, feedStand = [3]int{0, 1, 2}, "horizontal"
 		for i := range out {
 			switch {
 			case out[i].Ref == devs[2].Ref:
@@ -107,9 +110,9 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 				add(cap, 2, -1, "vertical")
 			}
 		case ownFeed(c, q, devs[0]):
-			add(ref, 1, feedRow[0], "vertical")
+			add(ref, 1, feedRow[0], feedStand)
 		case ownFeed(c, q, devs[2]):
-			add(ref, 1, feedRow[2], "vertical")
+			add(ref, 1, feedRow[2], feedStand)
 		}
 	}
 	return out
