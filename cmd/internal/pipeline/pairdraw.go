@@ -56,11 +56,19 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 			}
 		}
 	}
-	shared := -1 // the column of the next part of a flipped pair's common network
 	anchor := places[0].Anchor
 	add := func(ref string, col, row int, stand string) {
 		placed[ref] = true
 		out = append(out, render.Place{Ref: ref, Anchor: anchor, Col: col, Row: row, Stand: stand})
+	}
+	// a flipped pair's common network stands left of the centre line,
+	// in the stoppers' column and further out, when no grid leak of the
+	// stage stands there; else under the upper device, beside the
+	// common leads (a template slot of col 0 takes both)
+	left := flipped && !leaksIn(c, parts, devs[0], devs[2])
+	shared := 0
+	if left {
+		shared = -1
 	}
 	for _, row := range []int{0, 2} {
 		if r := stopperOf(c, devs[row], parts, placed); r != "" {
@@ -80,10 +88,12 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 		switch {
 		case !touchesGround(c, q):
 		case flipped && on(common[0]):
-			// left of the two common electrodes meeting on the centre
+			// beside the two common electrodes meeting on the centre
 			// line, clear of the transformer on the right
 			add(ref, shared, 1, "vertical")
-			shared--
+			if left {
+				shared--
+			}
 		case common[0] == common[1] && on(common[0]):
 			add(ref, 0, 1, "vertical")
 		case common[0] != common[1] && on(common[0]) && slices.Contains(parts, ref):
@@ -128,6 +138,24 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 func mirrorPair(c *graph.Circuit, d1, d2 *graph.Part, common [2]string) bool {
 	return d1.Kind == d2.Kind && d1.Type == d2.Type && common[0] != "" && common[0] == common[1] &&
 		!c.RoleOf(common[0]).IsACGround()
+}
+
+// leaksIn says whether the stage's parts hold a two-terminal part from
+// either device's control net to AC ground (a grid leak, a base
+// resistor): it stands left of its device, where the common network
+// would go.
+func leaksIn(c *graph.Circuit, parts []string, d1, d2 *graph.Part) bool {
+	nets := map[string]bool{netOf(d1, graph.RoleControl): true, netOf(d2, graph.RoleControl): true}
+	for _, ref := range parts {
+		q := c.Part(ref)
+		if q == nil || len(q.Pins) != 2 || !touchesGround(c, q) {
+			continue
+		}
+		if nets[q.Pins[0].Net] || nets[q.Pins[1].Net] {
+			return true
+		}
+	}
+	return false
 }
 
 // sharedFeed says whether two-terminal q joins a net both devices have a
