@@ -39,6 +39,12 @@ type flow struct {
 	// while they fit
 	starts map[int]bool
 	gap    float64 // between rows on a page, rowGap when 0 (balance)
+	// the feedback loops and connector nets a row break is judged by
+	// (rowcuts.go), found when first asked for
+	loops     []loop
+	loopsDone bool
+	loopFits  map[loop]bool // fitsRow's answers
+	nets      []string
 }
 
 // rowGap is the gap between rows on the flow's pages.
