@@ -4,6 +4,7 @@ import (
 	"path/filepath"
 	"testing"
 
+	"pare/graph"
 	"pare/render"
 )
 
@@ -58,3 +59,109 @@ func TestRowBreaks(t *testing.T) {
 // connectors at one break}. A ratchet: lowered as the cuts improve, never
 // raised.
 var rowBreakCeiling = [3]int{0, 403, 8}
+
+// TestTransformersPrimaryLeft: a transformer is drawn primary left,
+// secondary right, the signal through it left to right (common practice,
+// ../shared/DRAWING-NOTES.md). On every example and review14-17 circuit,
+// reduced and faded, whole and on A3 pages, a transformer with a winding
+// driven by an active part's output electrode (its primary) whose
+// primary pins stand right of its other pins on average is counted and
+// held under primaryRightCeiling. Review17 b05's faded view drew its
+// output transformer T5 secondary-left.
+func TestTransformersPrimaryLeft(t *testing.T) {
+	files := append(exampleFiles(t), reviewCircuits(t)...)
+	a3, _ := render.ParsePaper("A3")
+	cases := []struct {
+		name string
+		view render.View
+		cfg  render.Config
+	}{
+		{"reduced", render.Reduced, render.Config{}},
+		{"faded", render.Faded, render.Config{}},
+		{"reduced A3", render.Reduced, render.Config{Page: a3}},
+		{"faded A3", render.Faded, render.Config{Page: a3}},
+	}
+	right, seen := 0, 0
+	for _, f := range files {
+		res := cachedResult(t, f)
+		for _, tc := range cases {
+			s := res.Sheet(tc.view)
+			gs, err := tc.cfg.Geometries(s)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, g := range gs {
+				for _, sym := range g.Symbols {
+					p := s.Circuit.Part(sym.Ref)
+					if p == nil || p.Kind != graph.Transformer {
+						continue
+					}
+					prim := drivenWinding(s.Circuit, p)
+					if prim == nil {
+						continue
+					}
+					seen++
+					var px, ox float64
+					var pn, on int
+					for _, pin := range sym.Pins {
+						if prim[pin.Name] {
+							px, pn = px+pin.At.X, pn+1
+						} else {
+							ox, on = ox+pin.At.X, on+1
+						}
+					}
+					if pn > 0 && on > 0 && px/float64(pn) > ox/float64(on) {
+						right++
+						t.Logf("%s %s: %s drawn primary right", filepath.Join(filepath.Base(filepath.Dir(f)), filepath.Base(f)), tc.name, sym.Ref)
+					}
+				}
+			}
+		}
+	}
+	t.Logf("transformers drawn %d times, primary right %d (ceiling %d)", seen, right, primaryRightCeiling)
+	if right > primaryRightCeiling {
+		t.Errorf("%d transformers drawn primary right, ceiling %d; the log lists them", right, primaryRightCeiling)
+	}
+}
+
+// primaryRightCeiling bounds TestTransformersPrimaryLeft: 21 of 210
+// drawings before orient kept a primary left (oscillator coils of five
+// sets, review17 b05's T5), 0 after. A ratchet:
+// lowered only.
+const primaryRightCeiling = 0
+
+// drivenWinding is the pin names of the winding of p on a net an active
+// part's output electrode (anode, collector, drain) drives, with the
+// windings chained to it; nil when none is, or every pin is on it.
+func drivenWinding(c *graph.Circuit, p *graph.Part) map[string]bool {
+	driven := map[string]bool{}
+	for _, d := range c.Parts {
+		if !d.IsActive() {
+			continue
+		}
+		for _, pn := range d.Pins {
+			if graph.RoleOfPin(d.Kind, pn.Name) == graph.RoleOutput && !c.RoleOf(pn.Net).IsACGround() {
+				driven[pn.Net] = true
+			}
+		}
+	}
+	pins := map[string]bool{}
+	for _, w := range p.Windings {
+		if driven[p.NetOf(w.From)] || driven[p.NetOf(w.To)] {
+			pins[w.From], pins[w.To] = true, true
+			break
+		}
+	}
+	for grown := len(pins) > 0; grown; {
+		grown = false
+		for _, w := range p.Windings {
+			if pins[w.From] != pins[w.To] {
+				pins[w.From], pins[w.To], grown = true, true, true
+			}
+		}
+	}
+	if len(pins) == 0 || len(pins) == len(p.Pins) {
+		return nil
+	}
+	return pins
+}
