@@ -25,7 +25,6 @@ const balanceMost = 12
 type plan struct {
 	pages, least, rows int
 	splits             int   // page breaks between pieces of one joined stretch (chainBreak)
-	loops              int   // feedback loops fitting a row split by a row or page break (loopsCut)
 	ends               []int // where each row ends
 	starts             []int // the rows, by index, that open a page
 	ok                 bool
@@ -42,8 +41,6 @@ func (p plan) better(q plan) bool {
 		return p.pages < q.pages
 	case p.splits != q.splits:
 		return p.splits < q.splits
-	case p.loops != q.loops:
-		return p.loops < q.loops
 	case p.least != q.least:
 		return p.least > q.least
 	case p.rows != q.rows:
@@ -93,7 +90,7 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 	}
 	lo := start(ends, w)
 	greedy := f.greedyPlan(ends, laid, w, n, cw, avail)
-	if m-lo > balanceMost || greedy.splits == 0 && greedy.loops == 0 && !f.worthSearch(greedy, laid[w:n], lo, m) {
+	if m-lo > balanceMost || greedy.splits == 0 && !f.worthSearch(greedy, laid[w:n], lo, m) {
 		return ends, laid, nil, nil
 	}
 	best, err := f.search(greedy, lo, m, cw, avail)
@@ -138,7 +135,6 @@ func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
 		}
 		same := p.pages == greedy.pages
 		if p.ok && (p.pages < greedy.pages || same && p.splits < greedy.splits ||
-			same && p.splits == greedy.splits && p.loops < greedy.loops ||
 			gap == rowGap && same && p.splits == greedy.splits && p.least > greedy.least) {
 			f.gap = gap
 			return p, nil
@@ -170,9 +166,6 @@ func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail
 			used = -1 // a page of its own
 		}
 		parts += f.partsIn(start(ends, i), ends[i])
-		if i+1 < n {
-			p.loops += f.loopsCut(ends[i])
-		}
 		p.rows++
 	}
 	p.least = leastOf(p.least, parts)
@@ -304,7 +297,6 @@ func (s *search) page(a, b int, memo map[[2]int]stack) (stack, error) {
 			}
 			st.h += s.gap + rest.h
 			st.ends = append(st.ends, rest.ends...)
-			st.loops = s.f.loopsCut(c) + rest.loops
 		}
 		if !st.alone && st.h > s.avail {
 			continue
@@ -322,19 +314,15 @@ type stack struct {
 	ok, alone bool
 	h         float64
 	ends      []int
-	loops     int // feedback loops split between its rows (loopsCut)
 }
 
-// before says whether stack p beats q: fewer loops split, fewer rows,
-// then less height.
+// before says whether stack p beats q: fewer rows, then less height.
 func (p stack) before(q stack) bool {
 	switch {
 	case !q.ok:
 		return p.ok
 	case !p.ok:
 		return false
-	case p.loops != q.loops:
-		return p.loops < q.loops
 	case len(p.ends) != len(q.ends):
 		return len(p.ends) < len(q.ends)
 	}
@@ -363,15 +351,12 @@ func (s *search) best() (plan, error) {
 				continue
 			}
 			p := plan{ok: true, pages: at[a].pages + 1, least: leastOf(at[a].least, s.f.partsIn(a, b)),
-				splits: at[a].splits, loops: at[a].loops + st.loops,
+				splits: at[a].splits,
 				rows:   at[a].rows + len(st.ends),
 				ends:   append(append([]int{}, at[a].ends...), st.ends...),
 				starts: append(append([]int{}, at[a].starts...), at[a].rows)}
 			if a > s.lo && s.f.chainBreak(a) {
 				p.splits++
-			}
-			if a > s.lo {
-				p.loops += s.f.loopsCut(a)
 			}
 			if p.better(at[b]) {
 				at[b] = p

@@ -149,7 +149,7 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 		ends := []int{len(bs)}
 		// a row grows in routing, and its connectors take room at both edges
 		if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack {
-			ends = f.splitRows(0, cw-rowSlack)
+			ends = splitRows(bs, cw-rowSlack)
 		}
 		ends, laid, err := f.layoutRows(ends, cw, ch)
 		if err != nil {
@@ -216,22 +216,6 @@ func onlyPortsHelp(b block, r *layout.Result, cw float64) bool {
 	return rest == 1 && placed > 0 && w-ports*w/placed > cw
 }
 
-// splitRows is splitRows on the stretches from stretch from, each row's
-// end moved back to a cheaper break where there is one (cheaper), in
-// stretch indices.
-func (f *flow) splitRows(from int, width float64) []int {
-	var ends []int
-	for a := from; a < len(f.bs); {
-		e := a + splitRows(f.bs[a:], width)[0]
-		if e < len(f.bs) {
-			e = f.cheaper(a, e)
-		}
-		ends = append(ends, e)
-		a = e
-	}
-	return ends
-}
-
 // splitRows packs the blocks into rows no wider than width, in signal
 // order, and returns where each row ends; a block wider than a row gets a
 // row of its own.
@@ -294,13 +278,14 @@ func (f *flow) layoutRows(ends []int, cw, ch float64) ([]int, []*layout.Result, 
 			if scale > 0 {
 				// the rows after start afresh from the same measure,
 				// rather than each taking the last one's overflow
-				ends = append(ends[:i+1], f.splitRows(c, cw/scale)...)
+				for k, e := range splitRows(f.bs[c:], cw/scale) {
+					ends = append(ends[:i+1+k], c+e)
+				}
 			}
 		}
 		for !known && i+1 < len(ends) && fits(r, cw, ch) {
 			a, grown := start(ends, i), pullEnd(f.bs, ends, i)
-			if span(f.bs[a:grown]) > cw || f.tooBig(a, grown, cw, ch) ||
-				f.loopsCut(grown) > f.loopsCut(ends[i]) {
+			if span(f.bs[a:grown]) > cw || f.tooBig(a, grown, cw, ch) {
 				break
 			}
 			g, err := f.layout(a, grown)
@@ -347,12 +332,12 @@ func (f *flow) cut(a, b int, r *layout.Result, cw float64) (int, float64) {
 	w := r.Geom.Bounds.W()
 	est := f.bs[b-1].x1 - f.bs[a].x0
 	if w <= cw || est <= 0 {
-		return f.cheaper(a, one), 0
+		return one, 0
 	}
 	scale := w / est
 	for c := one; c > a+1; c-- {
 		if !f.bs[c].port && (f.bs[c-1].x1-f.bs[a].x0)*scale <= cw {
-			return f.cheaper(a, c), scale
+			return c, scale
 		}
 	}
 	return a + 1, scale

@@ -6,15 +6,16 @@ import (
 	"pare/graph"
 )
 
-// Where a row ends. A break between two rows costs an off-row connector
-// pair for every net held on both sides of it, and a feedback loop cut by
-// it reads as two loose leads whose connectors the reader must pair up
-// across the rows: the trade draws a feedback loop whole, its lead running
-// back above or below the stages it spans (../shared/DRAWING-NOTES.md), and
-// cuts a long sheet where fewest wires cross. So, among the places a row
-// may end, one that splits no loop fitting a row beats one that does, and
-// then one crossed by fewer nets; review17's a04, b04 and b05 were cut
-// through their overall feedback loops where the row simply filled.
+// What a row break costs. A break between two rows costs an off-row
+// connector pair for every net held on both sides of it, and a feedback
+// loop cut by it reads as two loose leads whose connectors the reader must
+// pair up across the rows: the trade draws a feedback loop whole, its lead
+// running back above or below the stages it spans
+// (../shared/DRAWING-NOTES.md), and cuts a long sheet where fewest wires
+// cross. Breaks measures both on the rows the flow chose (TestRowBreaks);
+// the flow does not yet choose by them: moving breaks by these counts alone
+// (tried) left review14 b05's faded output page with a stack of five
+// connectors and raised the misread and connector-wire ratchets.
 
 // loop is a feedback loop as the stretches it spans, [lo, hi].
 type loop struct{ lo, hi int }
@@ -214,32 +215,6 @@ func (f *flow) cutCost(c int) [2]int {
 		return [2]int{}
 	}
 	return [2]int{f.loopsCut(c), f.crossing(c)}
-}
-
-// cheaper is where the row from stretch a ends, given that it may end
-// at e at the latest: the break before e or earlier that splits fewest
-// loops fitting a row, then is crossed by fewest nets, the latest of
-// equals. A row is kept at least half as wide as ending at e would make
-// it, by placed extent: a row of one small stage to spare a connector
-// would cost a row, and a page.
-func (f *flow) cheaper(a, e int) int {
-	if e <= a+1 || e >= len(f.bs) {
-		return e
-	}
-	half := (f.bs[e-1].x1 - f.bs[a].x0) / 2
-	best, cost := e, f.cutCost(e)
-	for c := e - 1; c > a; c-- {
-		if f.bs[c-1].x1-f.bs[a].x0 < half {
-			break
-		}
-		if f.bs[c].port {
-			continue
-		}
-		if k := f.cutCost(c); k[0] < cost[0] || k[0] == cost[0] && k[1] < cost[1] {
-			best, cost = c, k
-		}
-	}
-	return best
 }
 
 // Break is one place a paged sheet's rows were cut: the feedback loops
