@@ -203,7 +203,6 @@ const (
 // state is the layout in progress.
 type state struct {
 	c        *graph.Circuit
-	outNets  map[string][]*graph.Part // nets an active part's output electrode drives (primaryPins)
 	o        Options
 	cells    []*cell
 	rankOf   map[string]int // ref -> layer rank

@@ -50,16 +50,8 @@ func (ly *state) orient() {
 		// a turn the search fixed holds when it leaves the part upright
 		t, fixed := ly.turns[cl.ref]
 		fixed = fixed && len(base.Turns) > 0 && upright(ly.c, cl.part, base.Oriented(base.Turns[t]))
-		var prim map[string]bool
-		if cl.part.Kind == graph.Transformer {
-			prim = ly.primaryPins(cl.part)
-			fixed = fixed && primaryLeft(base.Oriented(base.Turns[t]), prim)
-		}
 		for i, o := range base.Turns {
 			s := base.Oriented(o)
-			if !primaryLeft(s, prim) {
-				continue
-			}
 			score := ly.score(cl, s)
 			if up, ok := ups[cl.ref]; ok {
 				score += upBonus(s, up)
