@@ -152,7 +152,13 @@ func (ly *state) stages() map[string]int {
 	}
 	byNet := ly.cellsByNet()
 	st = ly.spread(stageOf, byNet, nil)
-	if dev := ly.deviceStages(stageOf, byNet, st); len(dev) > 0 {
+	dev := ly.deviceStages(stageOf, byNet, st)
+	for cl, s := range ly.acrossStages(stageOf) {
+		if _, ok := dev[cl]; !ok {
+			dev[cl] = s
+		}
+	}
+	if len(dev) > 0 {
 		st = ly.spread(stageOf, byNet, dev)
 	}
 	ly.railStages(st, stageOf)
