@@ -15,8 +15,7 @@ import (
 // Ceilings of the faded view's measures over review16 and review17 cut onto
 // A3 (fadedHomeCases), lower only. Measured when set: greyed wires crossing
 // black ones 30 (31 before a part across a framed part stood in that
-// part's stage and a bias network at a connector from the row before stood
-// at its device's base); greyed parts farther than fadedFar from every part they
+// part's stage); greyed parts farther than fadedFar from every part they
 // share a net with, or on another page than all of them, 2 (review17 b05's
 // screen bypass C13 and preamp decoupler C22).
 const (
