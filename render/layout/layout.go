@@ -238,6 +238,9 @@ type state struct {
 	// rather than stand at the sheet's edge (supplyflow.go)
 	bridges     []bridge
 	supplyPorts map[string]bool
+	// quietIn are the quiet nets entering a row by a connector from an
+	// earlier row (quietConnectors)
+	quietIn map[string]bool
 	// supplyRanked are the refs ranked along a supply's flow: the only
 	// unframed parts a supply frame's stage is passed on to (stages)
 	supplyRanked map[string]bool

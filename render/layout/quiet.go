@@ -84,3 +84,55 @@ func (ly *state) quietLayers(rank map[string]int) {
 		}
 	}
 }
+
+// quietConnectors ranks at 0, as an input connector, each off-row connector
+// from an earlier row (at the left edge) whose nets are all quiet and carry
+// no part the signal's walk ranked: the cold end of a winding drawn on the
+// row before (a base link's bias point). A connector to a later row stands
+// at the right edge and keeps its parts where they were.
+// Ranked by the row's first quiet part instead, the bias divider, its
+// decoupler and the AGC feed there started a piece of their own after
+// everything the walk reached and stood at the row's far right, past the
+// RF transformer, not at the base they bias (review17 b02's faded view).
+// quietLayers then ranks them one after the connector, the first layer of
+// the stage they are drawn in, and inFirst stands them before that layer's
+// device, between the connector and the base: behind it, its emitter or
+// cathode lead down to its bypass crossed the greyed line in.
+func (ly *state) quietConnectors(rank map[string]int, byNet map[string][]*cell) {
+	ly.quietIn = map[string]bool{}
+	for _, cl := range ly.cells {
+		if _, ok := rank[cl.ref]; ok || !cl.conn || cl.edge >= 0 {
+			continue
+		}
+		sig := ly.signalNets(cl)
+		quiet := len(sig) > 0
+		for _, n := range sig {
+			if !ly.o.Quiet[n] || slices.ContainsFunc(byNet[n], func(nb *cell) bool { _, r := rank[nb.ref]; return r }) {
+				quiet = false
+			}
+		}
+		if quiet {
+			rank[cl.ref] = 0
+			for _, n := range sig {
+				ly.quietIn[n] = true
+			}
+		}
+	}
+}
+
+// inFirst marks the shunts (one signal net, the other end at AC ground or
+// on a rail) quietLayers ranked first on a net quietIn holds as standing
+// before their layer's devices, the column controlShunts gives a shunt
+// from a control electrode. A series part on such a net (a feed from a
+// decoupled supply) stays in the device's column: before it, its lead on
+// to the supply crossed the base wire.
+func (ly *state) inFirst(rank map[string]int) {
+	for _, cl := range ly.cells {
+		if rank[cl.ref] != 1 || cl.edge != 0 || cl.part.IsActive() {
+			continue
+		}
+		if sig := ly.signalNets(cl); len(sig) == 1 && ly.quietIn[sig[0]] {
+			ly.before[cl.ref] = true
+		}
+	}
+}

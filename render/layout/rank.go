@@ -17,6 +17,7 @@ func (ly *state) rank() {
 	ly.supplyRanks(rank)
 	ly.commonUnder(rank)
 	ly.before = ly.controlShunts(rank)
+	ly.inFirst(rank)
 	for _, cl := range ly.cells {
 		if d, ok := ly.turns[shiftKey+cl.ref]; ok && rank[cl.ref]+d >= 0 {
 			rank[cl.ref] += d
@@ -92,6 +93,7 @@ func (ly *state) signalRank(byNet map[string][]*cell) map[string]int {
 		}
 	}
 	collect()
+	ly.quietConnectors(rank, byNet)
 	quietRanked := func(n string) bool {
 		if !ly.o.Quiet[n] {
 			return false
