@@ -170,3 +170,31 @@ func looseRow(bs []block, ends []int) int {
 	}
 	return -1
 }
+
+// acrossBlock is the stretch of a part that p is wired across (the same two
+// nets: an AGC line's return resistor across the filter capacitor), for a
+// part that is otherwise loose: wired only to chassis and rails, it went to
+// the row of loose parts at the set's end, pages from the filter it is
+// across (review17 b05's R12). Several such parts on different stretches
+// give none.
+func acrossBlock(c *graph.Circuit, p *graph.Part, blockOf map[string]int) (int, bool) {
+	k, ok := layout.TwoNets(p)
+	if !ok {
+		return 0, false
+	}
+	at := -1
+	for _, pn := range p.Pins {
+		for _, cn := range c.ConnsOf(pn.Net) {
+			h := cn.Part
+			i, in := blockOf[h.Ref]
+			if hk, two := layout.TwoNets(h); !in || h == p || !two || hk != k {
+				continue
+			}
+			if at >= 0 && at != i {
+				return 0, false
+			}
+			at = i
+		}
+	}
+	return at, at >= 0
+}

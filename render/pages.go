@@ -150,7 +150,9 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		}
 		if i, ok := with[p.Ref]; ok {
 			framed[p.Ref] = true
-			if i < 0 {
+			if h, ok := acrossBlock(s.Circuit, p, blockOf); i < 0 && ok {
+				ride(s.Circuit, &bs[h], p)
+			} else if i < 0 {
 				loose = append(loose, p)
 			} else {
 				ride(s.Circuit, &bs[i], p)

@@ -29,7 +29,7 @@ func (ly *state) acrossStages(stageOf func(*cell) (int, bool)) map[*cell]int {
 		if !framed || cl.edge != 0 || cl.part.Kind == graph.Port {
 			continue
 		}
-		if k, ok := twoNets(cl.part); ok {
+		if k, ok := TwoNets(cl.part); ok {
 			hosts[k] = append(hosts[k], s)
 		}
 	}
@@ -41,7 +41,7 @@ func (ly *state) acrossStages(stageOf func(*cell) (int, bool)) map[*cell]int {
 		if cl.part.Kind != graph.Resistor && cl.part.Kind != graph.Capacitor || !ly.o.Faded[cl.ref] {
 			continue
 		}
-		k, ok := twoNets(cl.part)
+		k, ok := TwoNets(cl.part)
 		if !ok || len(hosts[k]) == 0 {
 			continue
 		}
@@ -52,9 +52,9 @@ func (ly *state) acrossStages(stageOf func(*cell) (int, bool)) map[*cell]int {
 	return out
 }
 
-// twoNets is the two wired nets of a part wired to exactly two, in
+// TwoNets is the two wired nets of a part wired to exactly two, in
 // order, and whether it has two.
-func twoNets(p *graph.Part) ([2]string, bool) {
+func TwoNets(p *graph.Part) ([2]string, bool) {
 	var k [2]string
 	n := 0
 	for _, pn := range p.Pins {
