@@ -106,6 +106,8 @@ type wirePin struct {
 	ref   string
 	pin   geom.Pin
 	faded bool
+	lead  bool // a part's pin, drawn with a lead (not a sheet's flag or connector)
+	conn  bool // an off-row connector's pin
 	cell  int
 }
 
@@ -127,6 +129,7 @@ type router struct {
 	sc           *scratch // the search's memory, shared by the layouts of one sheet
 	wide         bool     // search wide windows first (while removing crossings)
 	strict       bool     // price in-line ends above a crossing (while clearing them, unline.go)
+	shy          bool     // price a crossing beside a junction or a lead high (while clearing them, undot.go)
 	pops         int      // states taken off the queue so far: the work budget
 }
 
@@ -164,7 +167,8 @@ func (rt *router) collectNets() {
 				byName[p.Net] = nr
 				names = append(names, p.Net)
 			}
-			nr.pins = append(nr.pins, wirePin{ref: cl.ref, pin: p, faded: cl.faded || cl.fadedPins[p.Name], cell: rt.index(p.At)})
+			lead := realPart(cl) != nil && !cl.conn
+			nr.pins = append(nr.pins, wirePin{ref: cl.ref, pin: p, faded: cl.faded || cl.fadedPins[p.Name], lead: lead, conn: cl.conn, cell: rt.index(p.At)})
 		}
 	}
 	sort.Strings(names)

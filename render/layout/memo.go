@@ -11,7 +11,8 @@ import (
 // A search's result (the path found, or none, and the number of states it
 // took off its queue) is a function of what it reads: its window's size,
 // where the pin and the tree's box stand in it, whether crossings cost
-// their wide price, whether in-line ends cost unline's strict price, and
+// their wide price, whether in-line ends cost unline's strict price,
+// whether crossings beside junctions and leads cost undot's shy price, and
 // the grid within three steps of the window (the in-line test looks three
 // steps on, the crowding, pin tip and junction tests one step aside), five
 // for a strict search (its in-line test looks unlineReach steps on). Of
@@ -71,6 +72,9 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 	}
 	if rt.strict {
 		wide |= 2 // in-line ends priced as unline prices them
+	}
+	if rt.shy {
+		wide |= 4 // crossings beside junctions and leads priced as undot prices them
 	}
 	px, py := p.cell%rt.w-win.x0, p.cell/rt.w-win.y0
 	for _, v := range [...]int{px, py, int(p.pin.Dir), k.to.x0 - win.x0, k.to.y0 - win.y0,

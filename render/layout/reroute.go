@@ -46,11 +46,13 @@ func (rt *router) routeNets() {
 }
 
 // finish reroutes crossing nets (and with unline, nets ending in line with
-// another's) and flags the nets that could not be wired.
+// another's, then nets crossing beside a junction or a lead) and flags the
+// nets that could not be wired.
 func (rt *router) finish(unline bool) {
 	rt.uncross()
 	if unline {
 		rt.unline()
+		rt.undot()
 	}
 	for id, nr := range rt.nets {
 		if !nr.ok && len(nr.pins) >= 2 {

@@ -96,6 +96,8 @@ type seek struct {
 	home  uint64   // the frames holding the net's pins (netRoute.home)
 	lines [3]int32 // a run's end's price by what lies in line beyond it
 	reach int      // how far beyond a run's end lines looks
+	dot   int32    // a crossing's price beside a junction: dotCost, or more while shy
+	shy   bool     // a crossing within leadClear of a pin tip of either net costs shyCost
 }
 
 // search is A* from a pending pin to the net's tree, inside a window of the
@@ -161,7 +163,10 @@ func (rt *router) astar(k *seek, p wirePin) []int {
 // onGrid points the search at the router's grid and crossing price.
 func (k *seek) onGrid(rt *router) {
 	k.grid, k.w, k.h = rt.g, rt.w, rt.h
-	k.cross, k.lines, k.reach = crossCost, lineCosts, inLineReach
+	k.cross, k.lines, k.reach, k.dot, k.shy = crossCost, lineCosts, inLineReach, dotCost, rt.shy
+	if rt.shy {
+		k.dot = dotCost + shyCost
+	}
 	if rt.strict {
 		k.lines, k.reach = unlineCosts, unlineReach
 	}
@@ -252,7 +257,7 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 			return 0, false
 		}
 		if bits.OnesCount8(g.arm[0]) == 2 && k.crossingBeside(n, nx, ny) {
-			extra += dotCost // a new junction beside a crossing
+			extra += k.dot // a new junction beside a crossing
 		}
 		if g.arm[0]&(1<<nd) == 0 && k.ahead(nx, ny, nd, closeReach) == inLineClose {
 			extra += k.lines[inLineClose] // the wire's last run points on at another net's end
@@ -268,7 +273,9 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 			}
 			extra += k.cross
 			if k.junctionBeside(n, nx, ny) {
-				extra += dotCost
+				extra += k.dot
+			} else if k.shy && k.tipNear(nx, ny) {
+				extra += shyCost
 			}
 		}
 		if g.flags&fNearPin != 0 && k.foreignTipBeside(nx, ny) {
@@ -413,6 +420,20 @@ func (k *seek) foreignTipBeside(nx, ny int) bool {
 			continue
 		}
 		if g := &k.grid[y*k.w+x]; g.flags&fPin != 0 && g.resv != k.net {
+			return true
+		}
+	}
+	return false
+}
+
+// tipNear says whether a pin tip lies within leadClear steps of point nx,
+// ny: a crossing there reads as a joint at the lead if the pin is on either
+// crossing net (render/check's crossings near a pin). Any net's tip counts,
+// as the memo's key tells only the search's own net from the others.
+func (k *seek) tipNear(nx, ny int) bool {
+	for _, st := range leadReach {
+		x, y := nx+st[0], ny+st[1]
+		if x >= 0 && y >= 0 && x < k.w && y < k.h && k.grid[y*k.w+x].flags&fPin != 0 {
 			return true
 		}
 	}
