@@ -23,7 +23,7 @@ import (
 // b05's screen bypass C13 and preamp decoupler C22).
 const (
 	fadedAcrossCeiling = 2
-	fadedCrossCeiling  = 30
+	fadedCrossCeiling  = 26 // with the loose-row ride and the base-bias ranking
 	fadedFarCeiling    = 2
 )
 

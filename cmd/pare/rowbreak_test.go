@@ -60,7 +60,7 @@ func TestRowBreaks(t *testing.T) {
 // connectors at one break} over 194 breaks, as measured when the test was
 // written (review16 b05 and review17 b05 cut through a loop that fits a
 // row). A ratchet: lowered as the cuts improve, never raised.
-var rowBreakCeiling = [3]int{2, 404, 8}
+var rowBreakCeiling = [3]int{2, 392, 8} // 404 before the faded-view and crossing fixes
 
 // TestTransformersPrimaryLeft: a transformer is drawn primary left,
 // secondary right, the signal through it left to right (common practice,
