@@ -28,10 +28,11 @@ func TestHandChecked(t *testing.T) {
 		// Three-halves law, µ 100, gm 1.6 mA/V at 1.2 mA: derived, and ngspice 39 .op 181.4059.
 		{"testdata/triode-self-bias.toml", "a", 181.406, 0.001, "derived (docs/references.md §10)"},
 		{"testdata/triode-self-bias.toml", "k", 1.02891, 0.00001, "derived (docs/references.md §10)"},
-		// Ebers–Moll, Is 1e-14, β 200: ngspice 39 npn(IS=1e-14 BF=200) 2.048446 / 1.385018 / 5.522803 V.
-		{"testdata/bjt-divider.toml", "b", 2.048446, 0.0001, "ngspice 39 .op (docs/references.md §10)"},
-		{"testdata/bjt-divider.toml", "e", 1.385018, 0.0001, "ngspice 39 .op (docs/references.md §10)"},
-		{"testdata/bjt-divider.toml", "c", 5.522803, 0.001, "ngspice 39 .op (docs/references.md §10)"},
+		// Ebers–Moll with the Early effect, Is 1e-14, β 200, VA 100 V (the device model's):
+		// ngspice 39 npn(IS=1e-14 BF=200 VAF=100) 2.050232 / 1.387634 / 5.509489 V.
+		{"testdata/bjt-divider.toml", "b", 2.050232, 0.0001, "ngspice 39 .op (docs/references.md §10)"},
+		{"testdata/bjt-divider.toml", "e", 1.387634, 0.0001, "ngspice 39 .op (docs/references.md §10)"},
+		{"testdata/bjt-divider.toml", "c", 5.509489, 0.001, "ngspice 39 .op (docs/references.md §10)"},
 	}
 	for _, tc := range cases {
 		pt, err := Solve(load(t, tc.file))

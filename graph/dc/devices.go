@@ -205,6 +205,10 @@ func (d *device) evalValve(v, cur []float64, jac [][]float64) {
 	}
 }
 
+// earlyFloor is the least Early factor evalBJT takes: reached only with
+// the base–collector junction forward by most of VA, never at a solution.
+const earlyFloor = 0.01
+
 // evalBJT: terminals b, c, e. A pnp is an npn with every voltage and current
 // reversed.
 func (d *device) evalBJT(v, cur []float64, jac [][]float64) {
@@ -221,10 +225,18 @@ func (d *device) evalBJT(v, cur []float64, jac [][]float64) {
 	}
 	def, der = def/VT, der/VT
 	is := l.is
-	ic := is*(ef-er) - is/l.br*(er-1)
+	// The Early factor 1 − vbc/VA (Gummel–Poon's 1/qb with VAR and IKF
+	// infinite), held above a small floor so a wild Newton step with the
+	// collector far forward cannot turn the transport current round.
+	early, dEarly := 1-vbc/l.va, -1/l.va
+	if early < earlyFloor {
+		early, dEarly = earlyFloor, 0
+	}
+	it := is * (ef - er)
+	ic := it*early - is/l.br*(er-1)
 	ib := is/l.bf*(ef-1) + is/l.br*(er-1)
 	// Partial derivatives with respect to vbe and vbc.
-	dicF, dicR := is*def, -is*der-is/l.br*der
+	dicF, dicR := is*def*early, -is*der*early+it*dEarly-is/l.br*der
 	dibF, dibR := is/l.bf*def, is/l.br*der
 	// vbe = vb − ve, vbc = vb − vc (times sign; the sign cancels in the slopes).
 	cur[0], cur[1] = sg*ib, sg*ic

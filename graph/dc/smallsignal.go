@@ -14,8 +14,8 @@ import (
 // (which reads gm, ra, ic, … from the part) needs nothing new; Origins say
 // which figures came from the operating point.
 //
-// Filled, only when not given: a BJT's ic (the AC model then takes
-// gm = Ic/VT, rπ = β/gm, ro = VA/Ic); a JFET's gm = ∂Id/∂Vgs; an amplifying
+// Filled, only when not given: a BJT's ic and rπ (the AC model then takes
+// gm = Ic/VT, rπ as filled, ro = VA/Ic); a JFET's gm = ∂Id/∂Vgs; an amplifying
 // valve's gm = ∂Ia/∂Vg1 unless ra and mu are both given (the AC model
 // completes any two of the three), and for a triode given none of them
 // ra = 1/(∂Ia/∂Va).
@@ -60,8 +60,20 @@ func (p *Point) Biased() (*graph.Circuit, []Origin) {
 		slopes := p.slopes(&d)
 		switch d.kind {
 		case devBJT:
-			if _, ok := part.Param("ic"); !ok {
+			_, hasIc := part.Param("ic")
+			if !hasIc {
 				set(part, "ic", math.Abs(p.Current(d.ref, "c")), "collector current")
+			}
+			// rπ from the base current's slope, not β/gm: the DC law's
+			// Early factor raises Ic and not Ib, so the β at the bias is
+			// βF·(1 + Vcb/VA), as in SPICE's model (an emitter follower's
+			// input, and the gain of the stage it loads, rest on it). The
+			// slope is the base–emitter junction's alone (−∂Ib/∂Ve, the
+			// hybrid-π's gπ; a saturated collector junction is rμ's), and
+			// only beside a filled ic: a given ic states the bias figures.
+			_, hasRpi := part.Param("rpi")
+			if !hasIc && !hasRpi && -slopes[0][2] > 0 {
+				set(part, "rpi", -1/slopes[0][2], "1/(∂Ib/∂Vbe) of Ebers–Moll with the Early effect")
 			}
 		case devFET:
 			if _, ok := part.Param("gm"); !ok {
@@ -104,7 +116,7 @@ func paramUnitText(name string) string {
 	switch name {
 	case "gm":
 		return "S"
-	case "ra":
+	case "ra", "rpi":
 		return "Ω"
 	case "ic":
 		return "A"

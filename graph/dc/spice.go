@@ -127,8 +127,8 @@ func (m *model) deviceCards(b *strings.Builder, i int, d *device) {
 		if d.bjt.sign < 0 {
 			typ = "pnp"
 		}
-		fmt.Fprintf(b, "Q%s %s %s %s QM%s\n.model QM%s %s(IS=%.12g BF=%.12g BR=%.12g)\n",
-			id, n(1), n(0), n(2), id, id, typ, d.bjt.is, d.bjt.bf, d.bjt.br)
+		fmt.Fprintf(b, "Q%s %s %s %s QM%s\n.model QM%s %s(IS=%.12g BF=%.12g BR=%.12g VAF=%.12g)\n",
+			id, n(1), n(0), n(2), id, id, typ, d.bjt.is, d.bjt.bf, d.bjt.br, d.bjt.va)
 	case devFET:
 		if d.fet.mos {
 			// Level 1 with W = L, so KP = 2k; bulk tied to the source (no body effect).

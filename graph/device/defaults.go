@@ -59,3 +59,17 @@ func def(class, param string) float64 {
 	}
 	panic("device: no default " + class + "." + param)
 }
+
+// DefaultValue is the value of one class's default, for a model outside this
+// package that must rest on the same figure (the DC law's Early voltage).
+func DefaultValue(class, param string) float64 { return def(class, param) }
+
+// DefaultSource is where that default comes from, for the law's origins.
+func DefaultSource(class, param string) string {
+	for _, d := range Defaults {
+		if d.Class == class && d.Param == param {
+			return d.Source
+		}
+	}
+	panic("device: no default " + class + "." + param)
+}
