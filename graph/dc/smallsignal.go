@@ -19,12 +19,14 @@ import (
 // valve's gm = ∂Ia/∂Vg1 unless ra and mu are both given (the AC model
 // completes any two of the three), and for a triode given none of them
 // ra = 1/(∂Ia/∂Va).
-// Diodes are left alone: a detector conducts on the signal's peaks, so its
-// small-signal resistance is not a property of the DC bias.
+// A signal diode is left alone unless it conducts at rest more than a peak
+// detector would (diodebias.go): a detector conducts on the signal's
+// peaks, so its small-signal resistance is a property of the DC bias only
+// where the circuit forward-biases it.
 
 // Fills says whether Biased can fill any figure of c: only transistors,
-// FETs and valves take figures at the bias (the devices Biased looks at are
-// built from those kinds alone), so on a circuit of none the operating
+// FETs, valves and signal diodes take figures at the bias (the devices
+// Biased looks at are built from those kinds alone), so on a circuit of none the operating
 // point changes nothing the small-signal model reads, and a command that
 // wants only the biased circuit need not solve it (TestFillsOnlyDevices).
 func Fills(c *graph.Circuit) bool {
@@ -32,6 +34,10 @@ func Fills(c *graph.Circuit) bool {
 		switch p.Kind {
 		case graph.BJT, graph.FET, graph.Valve:
 			return true
+		case graph.Diode:
+			if restDiode(p) {
+				return true
+			}
 		}
 	}
 	return false
@@ -93,6 +99,7 @@ func (p *Point) Biased() (*graph.Circuit, []Origin) {
 			}
 		}
 	}
+	p.diodeRds(out, set)
 	return out, origins
 }
 
@@ -116,7 +123,7 @@ func paramUnitText(name string) string {
 	switch name {
 	case "gm":
 		return "S"
-	case "ra", "rpi":
+	case "ra", "rpi", "rd":
 		return "Ω"
 	case "ic":
 		return "A"

@@ -84,10 +84,10 @@ func TestFillsOnlyDevices(t *testing.T) {
 			continue
 		}
 		for _, d := range pt.m.devices {
-			if d.kind != devBJT && d.kind != devFET && d.kind != devValve {
+			if d.kind != devBJT && d.kind != devFET && d.kind != devValve && d.kind != devDiode {
 				continue
 			}
-			if k := c.Part(d.ref).Kind; k != graph.BJT && k != graph.FET && k != graph.Valve {
+			if k := c.Part(d.ref).Kind; k != graph.BJT && k != graph.FET && k != graph.Valve && k != graph.Diode {
 				t.Errorf("%s: %s is a device Biased reads, of kind %v", f, d.ref, k)
 			}
 		}

@@ -83,6 +83,8 @@ var figureNames = []figName{
 	{name: "r_load", label: "r load"},
 	{name: "r_load_ac", label: "r load AC"},
 	{name: "ac_dc_ratio", label: "AC/DC load"},
+	// a detector diode forward-biased at rest (detbias.go)
+	{name: "rd_rest", label: "diode rd on the IF"},
 	{name: "r_boot", label: "bootstrapped load"},
 	{name: "r_load_plain", label: "the same without the bootstrap"},
 	{name: "r_unbypassed", label: "unbypassed common R"},

@@ -153,6 +153,9 @@ func (x *figCtx) detectorLoad(r float64) float64 {
 		return r
 	}
 	x.set("r_load", figure.Ohm, rdc, byLoadDC)
+	if i := x.index("D"); i >= 0 {
+		x.restDetector(x.w.parts[x.m.parts[i]], rdc)
+	}
 	if rac > 0 && rac < rdc*(1-1e-6) {
 		x.set("r_load_ac", figure.Ohm, rac, byLoadR)
 		x.checkClipping(rac / rdc)
