@@ -30,7 +30,9 @@ import (
 // inductance, and the gain read there (307 against 40.7 at 1 kHz for a
 // blind reviewer's push-pull pentode) is no capacitance: with an inductive
 // load the Miller admittance turns partly into a negative conductance, and
-// a corner worked from it claimed a cut the circuit does not make.
+// a corner worked from it claimed a cut the circuit does not make. Whether
+// the stopper cuts the signal is asked of the solver (stopperloss.go), the
+// corner kept beside as the formula's cross-check.
 func init() {
 	calcs["stopper"] = calc{args: []string{"r", "device"}, required: []string{"r", "device"}, fn: calcStopper}
 }
@@ -82,9 +84,9 @@ func calcStopper(x *figCtx) {
 	x.set("f_c", figure.Hertz, fc, byMiller)
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("input capacitance assumed from %s %s and %s feedback (the solver has no interelectrode capacitances): a check value",
 		what, figure.Format(cin, figure.Farad, figure.Text), figure.Format(cf, figure.Farad, figure.Text)))
-	if band.Max > 0 && fc < 10*band.Max {
-		x.flag("%s with %s's input capacitance makes a corner at %s, within ten times the band's top %s: it cuts the signal, not only parasitics",
-			r.Ref, dev.Ref, hz(fc), hz(band.Max))
+	if band.Max > 0 {
+		x.putStopperLoss(dev, r, cin, cf, fc, band.Max, fmt.Sprintf("%s %s and %s feedback", what,
+			figure.Format(cin, figure.Farad, figure.Text), figure.Format(cf, figure.Farad, figure.Text)))
 	}
 }
 
