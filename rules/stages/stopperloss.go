@@ -63,14 +63,24 @@ func (x *figCtx) stopperLoss(dev, r *graph.Part, cin, cf, f float64) (float64, s
 	short := *r
 	short.Value = value.Range{Min: shortOhms, Max: shortOhms}
 	shorted := withPart(with, &short)
+	// The first drive that reaches the output is the one: a region's or
+	// the set's input the output does not hear is no source of this
+	// stage's signal.
 	in, how := far, "driven at "+far
-	for _, src := range driveNets(with, dev) {
-		if h, ok := transferComplex(with, src, ctl, f); ok && src != ctl && cmplx.Abs(h) > 0 {
-			in, how = src, "driven from "+src
+	var hw complex128
+	ok1 := false
+	for _, src := range append(driveNets(with, dev), far) {
+		if src == ctl {
+			continue
+		}
+		if h, ok := transferComplex(with, src, out, f); ok && cmplx.Abs(h) > 0 {
+			in, hw, ok1 = src, h, true
+			if src != far {
+				how = "driven from " + src
+			}
 			break
 		}
 	}
-	hw, ok1 := transferComplex(with, in, out, f)
 	hs, ok2 := transferComplex(shorted, in, out, f)
 	if !ok1 || !ok2 || cmplx.Abs(hw) == 0 || cmplx.Abs(hs) == 0 {
 		return 0, "", false
