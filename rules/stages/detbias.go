@@ -37,6 +37,6 @@ func (x *figCtx) restDetector(d *graph.Part, rdc float64) {
 	x.putChecked(&sv, &check, func() string {
 		return "the diode conducts at rest: for a small carrier it is its slope at the bias, not a peak detector"
 	})
-	x.flag("detector diode %s conducts at rest: its load on the IF is lower than RL/2 (%s); the IF gains use its rd at the operating point, %s",
+	x.flag("detector diode %s conducts at rest: its load on the IF is lower than RL/2 (%s); the IF gains use its rd at the operating point, %s, right for a weak carrier (well under 26 mV at the diode); a strong one sees nearer RL/2",
 		d.Ref, figure.Format(half, figure.Ohm, figure.Text), figure.Format(rd, figure.Ohm, figure.Text))
 }
