@@ -11,7 +11,7 @@ import (
 
 // A bias divider the reduction merged is drawn on the reduced sheet as its
 // two halves, each to its own return: review15 b01's "R2 13k2 ≡ R2, R3"
-// under the tag "+12 V via R1, +11.73 V" read as a 13k2 fed from the line,
+// under the tag "+12 V via R1, +11.72 V" read as a 13k2 fed from the line,
 // a bias the set does not have (the reviewer's ngspice .op puts the base
 // at 22/(33+22) of the line, less the base current: a divider, not a
 // feed). The upper half ends at the line's tag, the lower at an earth, both
@@ -22,7 +22,7 @@ func TestMergedDividerDrawnAsHalves(t *testing.T) {
 	cases := []struct {
 		upper, lower, line, tag string
 	}{
-		{"R2", "R3", "vcc_osc", "+12 V via R1, +11.73 V"}, // the line's own volts from the operating point
+		{"R2", "R3", "vcc_osc", "+12 V via R1, +11.72 V"}, // the line's own volts from the operating point
 		{"R5", "R6", "vcc", "+12 V"},                      // the declared rail's label
 	}
 	res, err := stagesRun("../../../testdata/review15/b01.toml")
