@@ -142,6 +142,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	naming := namingOrder(reduced)
 	inSignalOrder(signal, naming)
 	nameRoles(signal, reduced)
+	cutOffFlags(signal, reduced, o.DC)
 	var out []Stage
 	n := 0
 	prefix := namePrefix(reduced, o.Full, len(signal)+len(power))
