@@ -31,6 +31,9 @@ const suggestedDesign = "suggested 3-point design"
 var figureNames = []figName{
 	{name: "osc_f", label: "osc f"},
 	{name: "sig_f", label: "sig f"},
+	// a self-oscillating mixer's oscillator tank without its loop, beside
+	// the loop's osc f (loopmixfig.go)
+	{name: "osc_f_tank", label: "osc tank alone"},
 	{name: "f", label: "f"},
 	// an oscillator's tank resonance without its loop, beside the loop's f
 	{name: "f_tank", label: "tank alone"},

@@ -221,11 +221,11 @@ func pullFlags(st *Stage, l Loop) []string {
 		var f0 float64
 		switch {
 		case len(l.Settings) == 1:
-			f0 = tank("f_tank_hz", "f_hz", "osc_f_hz")
+			f0 = tank("f_tank_hz", "osc_f_tank_hz", "f_hz", "osc_f_hz")
 		case s.Gang == 0:
-			f0 = tank("f_tank_max_hz", "f_max_hz", "osc_f_max_hz")
+			f0 = tank("f_tank_max_hz", "osc_f_tank_max_hz", "f_max_hz", "osc_f_max_hz")
 		case s.Gang == 1:
-			f0 = tank("f_tank_min_hz", "f_min_hz", "osc_f_min_hz")
+			f0 = tank("f_tank_min_hz", "osc_f_tank_min_hz", "f_min_hz", "osc_f_min_hz")
 		default:
 			continue
 		}
@@ -294,6 +294,9 @@ func addLoops(lp *ac.Loops, out []Stage) {
 			}
 			st.Loop = append(st.Loop, l)
 			loopFrequencyFigure(st, l)
+			if st.group == "mixer" {
+				mixerLoopFigures(st, l)
+			}
 			checkLeadTitle(c, st, l)
 			st.Flags = append(st.Flags, loopFlags(c, st, l)...)
 			if f := swappedWindingFlag(lp, st, l); f != "" {

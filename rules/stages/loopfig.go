@@ -243,6 +243,7 @@ func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage, tank *Stage) {
 		img = withCheck(img, ck, "it follows the oscillator's own difference from its tank's formula")
 	}
 	st.Figures.Put(img)
+	putTankAlone(st, tank) // last: a frame's two figures stay the ranges
 }
 
 // ifTuning is the tuning of an IF stage, if there is one.

@@ -332,7 +332,11 @@ func selfOscillating(w *world, lp *ac.Loops, acg map[string]bool, p *graph.Part,
 	slices.Sort(st.Parts)
 	st.Draw = loopDraw(w, st, p, through)
 	if _, _, _, best, ok := l.Range(); ok && best >= 0 {
-		mixerFigures(w.c, st, l, nil, nil) // a loop that runs: where it runs
+		var ts *Stage
+		if tank != nil {
+			ts = tank.Stage
+		}
+		mixerFigures(w.c, st, l, nil, ts) // a loop that runs: where it runs
 	} else if fif := w.c.Freqs["if"]; fif > 0 {
 		st.Figures.Put(ifFigure(fif))
 	}
