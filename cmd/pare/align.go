@@ -81,5 +81,6 @@ func alignGuide(path string, switches ...pipeline.SwitchSetting) (*align.Guide, 
 	}
 	g := align.Build(res.Title, res.Circuit, res.Stages, res.Caution)
 	g.AddBands(res.Circuit, res.Stages, res.BandRun)
+	g.AddPresets(res.Circuit, res.DC, res.Stages)
 	return g, nil
 }

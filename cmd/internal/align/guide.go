@@ -64,6 +64,9 @@ type Guide struct {
 	InjectErr string
 	// Hints are the symptom hints for the kinds of stage this circuit has.
 	Hints []Hint
+	// Presets are the procedures for the circuit's presets, in the order
+	// they are set (presets.go).
+	Presets []Preset
 
 	aerialInto string // where the RF generator goes, for the tracking steps
 }

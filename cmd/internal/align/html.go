@@ -37,6 +37,7 @@ func WriteHTML(w io.Writer, g *Guide) error {
 		b.WriteString("</ol>\n")
 	}
 	htmlItems(&b, closing)
+	writePresetsHTML(&b, g)
 	fmt.Fprintf(&b, "<h3>Signal injection</h3>\n<p>From the output back to the input; levels from the AC solver on the whole circuit as captured; %s.</p>\n", esc.HTML(g.injectNote()))
 	if len(g.Inject) > 0 {
 		b.WriteString("<table>\n<tr><th>#</th><th>inject at</th><th>frequency</th><th>level</th><th>gives</th><th>stage gain</th></tr>\n")

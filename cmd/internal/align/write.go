@@ -35,6 +35,7 @@ func WriteText(w io.Writer, g *Guide) error {
 	for _, l := range closing {
 		fmt.Fprintf(&b, "%s\n", l)
 	}
+	writePresetsText(&b, g)
 	fmt.Fprintf(&b, "\nSignal injection, from the output back to the input (levels from the AC solver on the whole circuit; %s):\n", g.injectNote())
 	for i, in := range g.Inject {
 		fmt.Fprintf(&b, "  %d. %s\n", i+1, injectLine(in))
@@ -76,6 +77,7 @@ func WriteMarkdown(w io.Writer, g *Guide) error {
 	for _, l := range closing {
 		fmt.Fprintf(&b, "- %s\n", esc.Markdown(l))
 	}
+	writePresetsMarkdown(&b, g)
 	fmt.Fprintf(&b, "\n### Signal injection\n\nFrom the output back to the input; levels from the AC solver on the whole circuit as captured; %s.\n\n", esc.Markdown(g.injectNote()))
 	if len(g.Inject) > 0 {
 		b.WriteString("| # | inject at | frequency | level | gives | stage gain |\n|---|---|---|---|---|---|\n")

@@ -61,6 +61,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 	if r.Stages != nil {
 		n.Align = align.Build(r.Title, r.Circuit, r.Stages, r.Caution)
 		n.Align.AddBands(r.Circuit, r.Stages, r.BandRun)
+		n.Align.AddPresets(r.Circuit, r.DC, r.Stages)
 		n.AlignMarks = alignMarks(n.Align, r.MarkedOn)
 	}
 	return n
