@@ -295,7 +295,7 @@ func addLoops(lp *ac.Loops, out []Stage) {
 			st.Loop = append(st.Loop, l)
 			loopFrequencyFigure(st, l)
 			if st.group == "mixer" {
-				mixerLoopFigures(st, l)
+				mixerLoopFigures(st, l, c.Band)
 			}
 			checkLeadTitle(c, st, l)
 			st.Flags = append(st.Flags, loopFlags(c, st, l)...)

@@ -2,6 +2,8 @@ package stages
 
 import (
 	"fmt"
+	"slices"
+	"strings"
 
 	"pare/graph/figure"
 	"pare/graph/value"
@@ -28,7 +30,7 @@ const (
 // and moves the signal and image ranges (oscillator ∓ IF) onto the loop's
 // frequency. A loop that never reaches 0 dB leaves the tank's figures:
 // its 0° crossing is where nothing runs (loopRuns), and its flag says so.
-func mixerLoopFigures(st *Stage, l Loop) {
+func mixerLoopFigures(st *Stage, l Loop, band value.Range) {
 	tank, ok := st.Figures.Get("osc_f")
 	if !ok || tank.Unit != figure.Hertz || tank.Origin.Name == loopOrigin.Name || !loopRuns(l) {
 		return
@@ -59,6 +61,15 @@ func mixerLoopFigures(st *Stage, l Loop) {
 	}
 	moveByIF(st, "sig_f", osc, -fif.Value, "loop gain, 0° of loop phase, less the IF")
 	moveByIF(st, "image_f", osc, fif.Value, "loop gain, 0° of loop phase, plus the IF")
+	// the band the set covers is the loop's range less the IF
+	st.Flags = slices.DeleteFunc(st.Flags, func(f string) bool { return strings.HasPrefix(f, coveragePrefix) })
+	lo, hi := osc.Value, osc.Value
+	if osc.Range != nil {
+		lo, hi = osc.Range.Min, osc.Range.Max
+	}
+	if f := coverageFlag(band, lo, hi, fif.Value); f != "" {
+		st.Flags = append(st.Flags, f)
+	}
 }
 
 // moveByIF sets the named range (sig_f, image_f) to the loop's oscillator

@@ -98,7 +98,7 @@ func TestMixerLoopFiguresNeedARunningLoop(t *testing.T) {
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
 			st := &Stage{Figures: figure.List{tank}}
-			mixerLoopFigures(st, tc.loop)
+			mixerLoopFigures(st, tc.loop, value.Range{})
 			got, _ := st.Figures.Get("osc_f")
 			if got.Range == nil || got.Range.Min != tc.want {
 				t.Errorf("osc f %+v, want low end %g", got, tc.want)
