@@ -256,22 +256,6 @@ func calcMixer(x *figCtx) {
 	x.tracking(osc, oc, ifHz)
 }
 
-// coverageFlag says when the oscillator's range omin–omax, less the IF,
-// misses the declared band: 1 % short of a band edge is within what the
-// trimmers set. "" when it covers it, or no band is declared.
-func coverageFlag(b value.Range, omin, omax, ifHz float64) string {
-	smin, smax := omin-ifHz, omax-ifHz
-	if b.Max <= 0 || smin <= b.Min*1.01 && smax >= b.Max*0.99 {
-		return ""
-	}
-	return fmt.Sprintf("%s%s–%s: with the IF %s the set tunes %s–%s, not the whole band %s–%s", coveragePrefix,
-		hz(omin), hz(omax), hz(ifHz), hz(smin), hz(smax), hz(b.Min), hz(b.Max))
-}
-
-// coveragePrefix opens the coverage flag, so the loop's range can put its
-// own in place of the tank's (mixerLoopFigures).
-const coveragePrefix = "oscillator covers "
-
 // intermediate writes the IF transformer's tuning and the IF, and returns
 // the IF: the declared one, else the transformer's; NaN when neither is
 // known.
