@@ -303,8 +303,27 @@ func addLoops(lp *ac.Loops, out []Stage) {
 				st.Flags = append(st.Flags, f)
 			}
 		}
+		if st.group == "mixer" && len(st.Loop) == 0 {
+			// a Hartley inside a mixer carries the loop: the mixer's
+			// osc f is still where that loop runs
+			if l, ok := subLoop(out, st); ok {
+				mixerLoopFigures(st, l, c.Band)
+			}
+		}
 		slices.Sort(st.Flags)
 	}
+}
+
+// subLoop is the loop a stage's oscillator sub-stage carries, if one does.
+func subLoop(out []Stage, st *Stage) (Loop, bool) {
+	for _, name := range st.Contains {
+		for i := range out {
+			if out[i].Name == name && out[i].group == "oscillator" && len(out[i].Loop) > 0 {
+				return out[i].Loop[0], true
+			}
+		}
+	}
+	return Loop{}, false
 }
 
 // swappedWindingFlag says, for an oscillator a pattern names whose loop

@@ -110,3 +110,35 @@ func TestMixerLoopFiguresNeedARunningLoop(t *testing.T) {
 		})
 	}
 }
+
+// A self-oscillating mixer whose oscillator is a sub-stage of its own (a
+// Hartley the pattern names inside the mixer) leads with the loop that
+// sub-stage carries: the mixer's osc f and the oscillator's f are one
+// frequency, where the loop runs (the loop solver itself is checked
+// against ngspice in graph/ac, TestLoopGainAgainstNgspiceTransient).
+func TestMixerLeadsWithItsOscillatorsLoop(t *testing.T) {
+	cases := []struct{ file, mixer, osc string }{
+		{"../../examples/frequency-changer.toml", "self-oscillating-mixer", "hartley-common-tap"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.mixer, func(t *testing.T) {
+			c, err := graph.LoadFile(tc.file)
+			if err != nil {
+				t.Fatal(err)
+			}
+			found := findReduced(t, c)
+			mix, osc := stageOf(found, tc.mixer), stageOf(found, tc.osc)
+			if mix == nil || osc == nil || len(osc.Loop) == 0 {
+				t.Fatalf("stages %s: want %s holding %s with its loop", topologies(found), tc.mixer, tc.osc)
+			}
+			fMin, fMax, _, _, _ := osc.Loop[0].Range()
+			f, ok := mix.Figures.Get("osc_f")
+			if !ok || f.Range == nil || f.Range.Min != fMin || f.Range.Max != fMax {
+				t.Errorf("osc f %+v, want the loop's %s–%s", f, hzText(fMin), hzText(fMax))
+			}
+			if _, ok := mix.Figures.Get(mixerTankAlone); !ok {
+				t.Error("no osc tank alone beside it")
+			}
+		})
+	}
+}
