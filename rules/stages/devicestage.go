@@ -66,17 +66,18 @@ func isDevice(p *graph.Part) bool {
 // (folded) to the stage holding the device whose output or common
 // electrode it serves (a splitter's anode load from the coupling its anode
 // feeds, electrodeRank 0), unless its stage holds such a device already.
-// A grid leak stays where signal order put it when its stage holds no
-// device (a coupling capacitor and its leak are one coupling, as the
-// rc-coupling pattern has them), but one whose stage holds it only
-// through a further grid (an oscillator triode's grid leak on the net of a
-// heptode's injector grid) goes to the stage of the device whose control
-// electrode it returns (leakToFoot): the trade frames a grid leak with its
-// own valve (review17 a02, the leak framed with the mixer on another
-// page). Earlier tries kept it out because the full and faded views of
-// review-align-c1 and review-osc-c2b then routed the leak through the
-// channel the mixer's wires take to the oscillator (more wires beside
-// another net's); the frame is the class, the routing is the router's.
+// A grid leak stays where signal order put it: a coupling capacitor and
+// its leak are one coupling, as the rc-coupling pattern has them, and an
+// oscillator's grid leak on the net of a mixer's injector grid, moved to
+// the oscillator, left the gallery's triode-heptode sheets reading worse
+// (review-osc-c2b full and faded: wires in line across a gap 6 → 20).
+// Tried again for review15 a02 (moved only when its stage holds it
+// through a further grid alone): the reduced sheets read better (a02's
+// leak in the oscillator's frame, review-align-c1's misreads 6 → 2), but
+// the full and faded views of review-align-c1 and review-osc-c2b gained
+// 22 wires beside another net's, 10 in line and 4 crossings near a dot,
+// the leak standing in the channel the mixer's wires take to the
+// oscillator; kept here until the full view routes that channel.
 func refold(c *graph.Circuit, tops []*found, folded map[string]bool) {
 	claimed, _ := claims(tops)
 	for _, ref := range slices.Sorted(maps.Keys(folded)) {
