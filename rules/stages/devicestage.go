@@ -87,7 +87,7 @@ func refold(c *graph.Circuit, tops []*found, folded map[string]bool) {
 		}
 		best, rank := from, holderRank(c, from, ref)
 		for _, f := range tops {
-			if r := holderRank(c, f, ref); r < rank && (r == 0 || r == 1 && rank == 2 && leakToFoot(c, f, ref)) {
+			if r := holderRank(c, f, ref); r < rank && r == 0 {
 				best, rank = f, r
 			}
 		}
@@ -236,32 +236,4 @@ func electrodeRank(c *graph.Circuit, dev *graph.Part, ref string) int {
 		rank++
 	}
 	return rank
-}
-
-// leakToFoot says whether resistor ref runs from the control electrode of
-// a device stage f holds to AC ground or to that device's common
-// electrode: its grid leak (base return), which belongs in the device's
-// own frame even where the grid's net also feeds a further grid of a
-// device in another stage (an oscillator triode's grid strapped to a
-// heptode's injector grid). refold moves it there from the stage that
-// holds it only through that further grid.
-func leakToFoot(c *graph.Circuit, f *found, ref string) bool {
-	p := c.Part(ref)
-	if p == nil || p.Kind != graph.Resistor || len(p.Pins) != 2 {
-		return false
-	}
-	for _, r := range f.Parts {
-		d := c.Part(r)
-		if d == nil || !d.IsActive() {
-			continue
-		}
-		g, k := d.NetOf(d.PinWithRole(graph.RoleControl)), d.NetOf(d.PinWithRole(graph.RoleCommon))
-		for i, pn := range p.Pins {
-			other := p.Pins[1-i].Net
-			if pn.Net == g && g != "" && (other == k || c.RoleOf(other).IsACGround()) {
-				return true
-			}
-		}
-	}
-	return false
 }
