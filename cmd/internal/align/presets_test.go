@@ -76,10 +76,8 @@ func TestPresetProcedures(t *testing.T) {
 }
 
 // checkCurrents reads "current A mA at the nominal setting, B mA–C mA
-// over the travel" and holds it within 10 % of ngspice's: pare's DC laws
-// take the diodes' and transistors' saturation currents from their vf and
-// vbe at 1 mA, ngspice's deck from the reviewer's IS; the two part by
-// some millivolts, and an output pair's current by a few per cent.
+// over the travel" and holds it within 2 % of ngspice's (pare prints three
+// significant digits).
 func checkCurrents(t *testing.T, text string, nom, lo, hi float64) {
 	t.Helper()
 	m := regexp.MustCompile(`quiescent current ([0-9.]+) mA at the nominal setting, ([0-9.]+) mA–([0-9.]+) mA over the travel`).FindStringSubmatch(text)
@@ -88,8 +86,8 @@ func checkCurrents(t *testing.T, text string, nom, lo, hi float64) {
 	}
 	for i, want := range []float64{nom, lo, hi} {
 		got, _ := strconv.ParseFloat(m[i+1], 64)
-		if math.Abs(got/want-1) > 0.1 {
-			t.Errorf("current %g mA, want within 10 %% of ngspice's %g mA", got, want)
+		if math.Abs(got/want-1) > 0.02 {
+			t.Errorf("current %g mA, want within 2 %% of ngspice's %g mA", got, want)
 		}
 	}
 }
