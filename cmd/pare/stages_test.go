@@ -215,7 +215,7 @@ func TestStagesSupplyListedApart(t *testing.T) {
 		t.Fatalf("exit %d\n%s\n%s", code, out, errs)
 	}
 	flat := strings.Join(strings.Fields(out), " ")
-	for _, want := range []string{"formula fc = 1/(2πRC2) gives 7.205 Hz", "c decoupling 47 µF", supplyHeading} {
+	for _, want := range []string{"formula fc = 1/(2πRC2) gives 7.205 Hz", "c decoupling (C10) 47 µF", supplyHeading} {
 		if !strings.Contains(flat, want) {
 			t.Errorf("output lacks %q:\n%s", want, out)
 		}
