@@ -245,6 +245,10 @@ func (s *search) row(a, b int) (rowFit, error) {
 		return r, nil
 	}
 	var fit rowFit
+	if mixes(s.f.bs[a:b]) {
+		s.rows[k] = fit // a supply filter never shares a signal stage's row
+		return fit, nil
+	}
 	if b-a == 1 || span(s.f.bs[a:b]) <= s.cw && !s.f.tooBig(a, b, s.cw, s.avail) {
 		r, err := s.f.layout(a, b)
 		if err != nil {

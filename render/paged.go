@@ -87,7 +87,8 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	avail := ch - 1 - cfg.footReserve(s)
 	loose := looseRow(f.bs, ends)
 	var pages []*layout.Result
-	var ys []float64 // where the next row goes on each page; +Inf on a page kept alone
+	var ys []float64        // where the next row goes on each page; +Inf on a page kept alone
+	var stood [][]geom.Rect // where each page's rows stand
 	for i, r := range laid {
 		if i == loose {
 			continue
@@ -96,11 +97,20 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 		// a row too big for the page (a stage never cut) has a page of
 		// its own, drawn smaller: the rows beside it keep the paper's scale
 		big := b.W() > cw || b.H() > avail
+		if n := len(ys); n > 0 && !big && !f.starts[i] && ys[n-1]+b.H() > avail && !mixes(f.bs[start(ends, i):ends[i]]) && f.bs[start(ends, i)].apart {
+			if at, ok := atMargin(stood[n-1], b, cw, avail); ok {
+				pages[n-1].Add(r.Moved(geom.Pt{X: at.X0 - b.X0, Y: at.Y0 - b.Y0}))
+				stood[n-1] = append(stood[n-1], at)
+				ys[n-1] = max(ys[n-1], at.Y1+f.rowGap())
+				continue
+			}
+		}
 		if n := len(ys); n == 0 || ys[n-1]+b.H() > avail || big || f.starts[i] {
-			pages, ys = append(pages, &layout.Result{}), append(ys, 0)
+			pages, ys, stood = append(pages, &layout.Result{}), append(ys, 0), append(stood, nil)
 		}
 		n := len(ys) - 1
 		pages[n].Add(r.Moved(geom.Pt{X: -b.X0, Y: ys[n] - b.Y0}))
+		stood[n] = append(stood[n], geom.R(0, ys[n], b.W(), ys[n]+b.H()))
 		ys[n] += b.H() + f.rowGap()
 		if big {
 			ys[n] = math.Inf(1)
@@ -148,7 +158,7 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 		rows = f.rows
 		ends := []int{len(bs)}
 		// a row grows in routing, and its connectors take room at both edges
-		if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack {
+		if len(bs) > 0 && (bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack || mixes(bs)) {
 			ends = splitRows(bs, cw-rowSlack)
 		}
 		ends, laid, err := f.layoutRows(ends, cw, ch)
@@ -218,12 +228,13 @@ func onlyPortsHelp(b block, r *layout.Result, cw float64) bool {
 
 // splitRows packs the blocks into rows no wider than width, in signal
 // order, and returns where each row ends; a block wider than a row gets a
-// row of its own.
+// row of its own, and the supply filters' stretches rows of their own
+// (mixes).
 func splitRows(bs []block, width float64) []int {
 	var ends []int
 	x0 := 0.0
 	for i, b := range bs {
-		if i == 0 || (b.x1-x0 > width && !b.port) {
+		if i == 0 || (b.x1-x0 > width && !b.port) || b.apart != bs[i-1].apart {
 			if i > 0 {
 				ends = append(ends, i)
 			}
@@ -285,7 +296,7 @@ func (f *flow) layoutRows(ends []int, cw, ch float64) ([]int, []*layout.Result, 
 		}
 		for !known && i+1 < len(ends) && fits(r, cw, ch) {
 			a, grown := start(ends, i), pullEnd(f.bs, ends, i)
-			if span(f.bs[a:grown]) > cw || f.tooBig(a, grown, cw, ch) {
+			if span(f.bs[a:grown]) > cw || mixes(f.bs[a:grown]) || f.tooBig(a, grown, cw, ch) {
 				break
 			}
 			g, err := f.layout(a, grown)

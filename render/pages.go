@@ -78,11 +78,15 @@ type block struct {
 	// a number the pieces share (0 on any other stretch): a page break
 	// between two is avoided where the pages allow (plan.splits).
 	chain int
+	// apart marks a supply filter's stretch on a reduced sheet (apartLast):
+	// it goes on rows of its own after the signal's, never on a row beside
+	// a signal stage.
+	apart bool
 }
 
 // join is the stretch a followed by b, remembering both as pieces.
 func join(a, b block) block {
-	return block{x0: min(a.x0, b.x0), x1: max(a.x1, b.x1), port: a.port, ch: min(a.ch, b.ch),
+	return block{x0: min(a.x0, b.x0), x1: max(a.x1, b.x1), port: a.port, ch: min(a.ch, b.ch), apart: a.apart && b.apart,
 		refs:   append(append([]string{}, a.refs...), b.refs...),
 		pieces: append(append([]block{}, a.split()...), b.split()...)}
 }
@@ -103,8 +107,8 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 	chOf := channels(s.Circuit)
 	framed := map[string]bool{}
 	var bs []block
-	add := func(refs []string, joined bool) {
-		b := block{x0: 1e18, x1: -1e18, ch: -1}
+	add := func(refs []string, joined, apart bool) {
+		b := block{x0: 1e18, x1: -1e18, ch: -1, apart: apart}
 		for _, r := range refs {
 			if e, ok := ext[r]; ok && !framed[r] {
 				framed[r] = true
@@ -125,7 +129,7 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 		}
 	}
 	for i, f := range s.Frames {
-		add(f.Parts, f.Joined && i > 0)
+		add(f.Parts, f.Joined && i > 0, s.View == Reduced && f.Apart)
 	}
 	blockOf := map[string]int{}
 	for i, b := range bs {
@@ -163,7 +167,7 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 			sockets = append(sockets, p)
 			continue
 		}
-		add([]string{p.Ref}, false)
+		add([]string{p.Ref}, false, false)
 		if n := len(bs); n > 0 && bs[n-1].refs[0] == p.Ref && p.Kind == graph.Port {
 			bs[n-1].port = true
 		}
@@ -178,7 +182,7 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 	// together they do not fit a page (pieces)
 	var out []block
 	for _, b := range bs {
-		if n := len(out); n > 0 && b.ch == out[n-1].ch && b.x0 < out[n-1].x1 {
+		if n := len(out); n > 0 && b.ch == out[n-1].ch && b.x0 < out[n-1].x1 && b.apart == out[n-1].apart {
 			out[n-1] = join(out[n-1], b)
 			continue
 		}
@@ -192,6 +196,9 @@ func blocks(s *Sheet, ext map[string]geom.Rect) []block {
 			inLine(out)
 		}
 		if out, moved = fedFirst(s.Circuit, out); moved {
+			inLine(out)
+		}
+		if out, moved = apartLast(out); moved {
 			inLine(out)
 		}
 	}

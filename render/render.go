@@ -101,6 +101,11 @@ type Frame struct {
 	// section on its output): its parts are laid out along the supply's
 	// own flow, mains to rails (layout.Frame.Supply).
 	Supply bool
+	// Apart marks, on a reduced sheet, a supply filter the reduction kept
+	// (a smoothing filter, a decoupler; not a screen feed, which the trade
+	// draws at its valve): its stretch goes on rows of its own after the
+	// signal's, joined to the stages by off-row connectors (apartLast).
+	Apart bool
 }
 
 // Legend is one line of a paged sheet's title block and the parts of the

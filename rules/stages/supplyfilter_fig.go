@@ -66,7 +66,7 @@ func calcSmoothing(x *figCtx) {
 	}
 	if class == screenFeed {
 		// named for its job, not the pattern that found it
-		x.st.Topology, x.st.Title = screenFeedTopology, screenFeedTitle
+		x.st.Topology, x.st.Title = ScreenFeedTopology, screenFeedTitle
 	}
 	if !x.solve {
 		x.put(check)
@@ -97,9 +97,10 @@ func calcSmoothing(x *figCtx) {
 // (or dropper) and screen bypass capacitor.
 const screenFeedTitle = "Screen feed: dropper resistor and bypass capacitor"
 
-// screenFeedTopology is a screen feed's topology: the supply filter
-// patterns find it, its wiring says what it is.
-const screenFeedTopology = "screen-feed"
+// ScreenFeedTopology is a screen feed's topology: the supply filter
+// patterns find it, its wiring says what it is. A sheet draws it at the
+// valve whose screen it feeds, not apart with the supply (render.Frame.Apart).
+const ScreenFeedTopology = "screen-feed"
 
 // filterInCircuit writes the solver's figures of a supply filter section on
 // the circuit as it is, its rail driven; dev is the one stage a decoupler

@@ -22,7 +22,7 @@ import (
 func supplyParts(power []*found, reduced *graph.Circuit) map[string]bool {
 	kept := map[string]bool{}
 	for _, f := range power {
-		if f.group != "power" || f.Topology == screenFeedTopology {
+		if f.group != "power" || f.Topology == ScreenFeedTopology {
 			continue // a screen feed is drawn with the stage whose screen it feeds
 		}
 		for r := range f.set {

@@ -288,7 +288,7 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 		}
 		sort.Strings(parts)
 		frames = append(frames, render.Frame{Title: s.Name + " " + s.Title, Subtitle: frameFigures(s.Figures, 2), Parts: parts,
-			Places: places, Supply: s.Supply})
+			Places: places, Supply: s.Supply, Apart: apart(s, full)})
 		names = append(names, s.Name)
 	}
 	drawn := full
@@ -296,6 +296,9 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 		drawn = reduced
 	}
 	joinChained(frames, names, byName, drawn)
+	if full == nil {
+		apartChain(frames, reduced)
+	}
 	return joinSupply(frames, names, hosts)
 }
 
@@ -316,6 +319,50 @@ func filterSection(s stages.Stage, full *graph.Circuit) bool {
 		}
 	}
 	return len(s.Parts) > 0
+}
+
+// apart says whether a stage's frame on the reduced sheet (full nil) is a
+// supply filter drawn apart from the signal stages (render.Frame.Apart):
+// a supply stage the reduction kept some parts of, but a screen feed,
+// which the trade draws at the valve it feeds (apartChain).
+func apart(s stages.Stage, full *graph.Circuit) bool {
+	return full == nil && s.Supply && s.Topology != stages.ScreenFeedTopology
+}
+
+// apartChain draws apart with the supply filters the screen feeds fed from
+// one of their lines (a dropper from the smoothed HT): review16 a05's, left
+// at its valve, stood in the output stage's row with the smoothed line run
+// into it past the loudspeaker, where the filter it hangs on was apart. A
+// screen feed that is only a bypass at its valve's screen (the dropper in
+// the valve's frame, a battery set's) stays there.
+func apartChain(frames []render.Frame, c *graph.Circuit) {
+	nets := make([]map[string]bool, len(frames))
+	for i, f := range frames {
+		nets[i] = map[string]bool{}
+		for _, ref := range f.Parts {
+			if p := c.Part(ref); p != nil {
+				for _, pn := range p.Pins {
+					if pn.Net != graph.NotConnected && !c.RoleOf(pn.Net).IsACGround() {
+						nets[i][pn.Net] = true
+					}
+				}
+			}
+		}
+	}
+	for more := true; more; {
+		more = false
+		for i := range frames {
+			if !frames[i].Supply || frames[i].Apart {
+				continue
+			}
+			for j := range frames {
+				if frames[j].Apart && shares(nets[i], nets[j]) {
+					frames[i].Apart, more = true, true
+					break
+				}
+			}
+		}
+	}
 }
 
 // frameFigures is a frame's second line: the first n items of the stage's
