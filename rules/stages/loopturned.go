@@ -27,6 +27,39 @@ func turnedFlags(lp *ac.Loops, lc *graph.Circuit, ref string) []string {
 	if fMax > fMin {
 		span += "–" + hzText(fMax)
 	}
+	if feedsOutput(lc, through) {
+		return []string{fmt.Sprintf("%s's loop through %s is negative feedback as captured; with a winding of %s turned over it would turn positive and the set would oscillate (%s, loop gain up to %+.1f dB): after %s is replaced or rewired, check its connections match the drawing (a winding connected the wrong way round does this)",
+			ref, through, through, span, best, through)}
+	}
 	return []string{fmt.Sprintf("%s does not oscillate as captured, but would with a winding of %s turned over (%s, loop gain up to %+.1f dB): if %s is meant to oscillate, check %s's connections (a winding connected the wrong way round does this)",
 		ref, through, span, best, ref, through)}
+}
+
+// feedsOutput says whether transformer ref carries the set's output: a
+// winding on a declared output net or across a loudspeaker. A loop through
+// such a transformer is an amplifier's overall feedback (the output
+// transformer's secondary brought back to an earlier stage), not an
+// oscillator's reaction winding, however alike their physics.
+func feedsOutput(c *graph.Circuit, ref string) bool {
+	t := c.Part(ref)
+	if t == nil {
+		return false
+	}
+	out := map[string]bool{}
+	for _, n := range c.Outputs {
+		out[n] = true
+	}
+	for _, p := range c.Parts {
+		if p.Kind == graph.Loudspeaker {
+			for _, pn := range p.Pins {
+				out[pn.Net] = true
+			}
+		}
+	}
+	for _, pn := range t.Pins {
+		if out[pn.Net] && pn.Net != c.GroundNet() {
+			return true
+		}
+	}
+	return false
 }
