@@ -684,6 +684,21 @@ R1 = { r = "1k", pins = ["e", "gnd"] }
 T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, pins = { p1 = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
 C3 = { c = "117p", pins = ["o", "ht"] }
 C4 = { c = "117p", pins = ["s", "gnd"] }`},
+	{topology: "mixer-common-injected-tapped", families: allFamilies,
+		parts: `@Q1(g, e, o)
+C1 = { c = "100p", pins = ["in", "g"] }
+C2 = { c = "50p", pins = ["osc", "e"] }
+R1 = { r = "1k", pins = ["e", "gnd"] }
+R2 = { r = "47k", pins = ["osc", "gnd"] }
+T1 = { windings = { p = ["750u", "250u"], s = "20u" }, k = 0.1, pins = { p1 = "hot", pt = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C3 = { c = "117p", pins = ["hot", "ht"] }`,
+		// The common electrode is only bypassed: a tapped tuned amplifier.
+		nearMiss: `@Q1(g, e, o)
+C1 = { c = "100p", pins = ["in", "g"] }
+C2 = { c = "50n", pins = ["e", "gnd"] }
+R1 = { r = "1k", pins = ["e", "gnd"] }
+T1 = { windings = { p = ["750u", "250u"], s = "20u" }, k = 0.1, pins = { p1 = "hot", pt = "o", p2 = "ht", s1 = "s", s2 = "gnd" } }
+C3 = { c = "117p", pins = ["hot", "ht"] }`},
 	{topology: "diode-detector", families: []string{"valve"}, want: "passive",
 		parts: `D1 = { diode = "signal", pins = ["in", "out"] }
 C1 = { c = "100p", pins = ["out", "gnd"] }
