@@ -8,6 +8,7 @@ import (
 	"pare/graph"
 	"pare/graph/ac"
 	"pare/graph/figure"
+	"pare/graph/value"
 )
 
 // Names checked against behaviour: a pattern's name claims a property (a
@@ -74,7 +75,51 @@ func (x *figCtx) confirmTank(coil string) {
 		x.st.unconfirmed = "no peak in the impedance across " + coil + " near its formula resonance"
 	case math.IsNaN(q) || q < tankMinQ:
 		x.st.unconfirmed = fmt.Sprintf("the peak across %s has a Q of %s in circuit, below the %d a tuned circuit has", coil, qText(q), tankMinQ)
+	case !nearAnyBand(x.w.c, x.tank.f):
+		x.st.unconfirmed = fmt.Sprintf("the peak across %s lies at %s in circuit, far from every band and named frequency the set declares: not one of its tuned circuits", coil, hzText(x.tank.f[0]))
 	}
+}
+
+// tankBandSpan is how far outside every declared band and named
+// frequency a tank may resonate and still be one of the set's tuned
+// circuits: a factor of five covers an oscillator above a band (a
+// superhet's runs at most about 2.4 times a medium-wave band's bottom)
+// and an IF below it (common practice, no source). A link winding with a
+// few picofarads across it (a neutralising capacitor) peaks tens of
+// times above the IF and tunes nothing.
+const tankBandSpan = 5
+
+// nearAnyBand says whether every frequency in fs lies within tankBandSpan
+// of the set's band, a region's band or a named frequency; true when the
+// set declares none.
+func nearAnyBand(c *graph.Circuit, fs []float64) bool {
+	var spans []value.Range
+	if c.Band.Max > 0 {
+		spans = append(spans, c.Band)
+	}
+	for _, r := range c.Regions {
+		if r.Band.Max > 0 {
+			spans = append(spans, r.Band)
+		}
+	}
+	for _, f := range c.Freqs {
+		spans = append(spans, value.Range{Min: f, Max: f})
+	}
+	if len(spans) == 0 {
+		return true
+	}
+	for _, f := range fs {
+		near := false
+		for _, b := range spans {
+			if f >= b.Min/tankBandSpan && f <= b.Max*tankBandSpan {
+				near = true
+			}
+		}
+		if !near {
+			return false
+		}
+	}
+	return true
 }
 
 // tankMinQ is the least loaded Q of a tank named a tuned circuit: below 1
