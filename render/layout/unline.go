@@ -30,9 +30,22 @@ var unlineCosts = [3]int32{0, closeCost, crossCost + closeCost}
 // unlineRounds bounds the passes over the nets with such ends.
 const unlineRounds = 2
 
+// unlineShare is the part of the router's budget the last pass (spare)
+// may spend: a large sheet (the every-kind fixture's reduced view) whose
+// crossings took the whole budget otherwise kept a wire ending one step
+// from another net's pin tip, read as one wire.
+const unlineShare = 4
+
 // unline wires again the nets with runs ending in line with another net's
-// wire, keeping each new wiring that leaves fewer such ends.
-func (rt *router) unline() {
+// wire, keeping each new wiring that leaves fewer such ends, within the
+// router's budget; with spare, as a last pass after undot on a share of
+// the budget of its own, keeping only wirings that grow nothing else
+// (unlineNet).
+func (rt *router) unline(spare bool) {
+	stop := rt.budget()
+	if spare {
+		stop = rt.pops + rt.budget()/unlineShare
+	}
 	for round := 0; round < unlineRounds; round++ {
 		total := rt.inLineEnds()
 		if total == 0 {
@@ -40,13 +53,13 @@ func (rt *router) unline() {
 		}
 		improved := false
 		for id := range rt.nets {
-			if rt.pops > rt.budget() {
-				return // the same deterministic work bound as uncross
+			if rt.pops > stop {
+				return // a deterministic work bound, as uncross's
 			}
 			if !rt.nets[id].ok || rt.netInLineEnds(id) == 0 {
 				continue
 			}
-			if now, ok := rt.unlineNet(id, total); ok {
+			if now, ok := rt.unlineNet(id, total, spare); ok {
 				total, improved = now, true
 			}
 		}
@@ -58,9 +71,23 @@ func (rt *router) unline() {
 
 // unlineNet wires net id again with in-line ends priced high and keeps the
 // new wiring when the sheet's in-line ends fall below total at the price
-// unline's comment allows; it returns the new total.
-func (rt *router) unlineNet(id, total int) (int, bool) {
+// unline's comment allows; it returns the new total. On the last pass
+// (spare) a new wiring is kept only when it grows nothing: no crossing
+// more, none beside a junction or a lead (on the net or anywhere), no pin
+// tip passed closer, no step beside another net's wire, no knot of off-row
+// connectors' runs (undot has cleared what it could by then; the cheaper
+// trade, tried before undot, let greyed wires cross black ones and
+// connector runs knot on paged sheets).
+func (rt *router) unlineNet(id, total int, spare bool) (int, bool) {
 	crossed, framed, strays := rt.crossingsOf(id), rt.framedCrossingsOf(id), rt.foreignFramesOf(id)
+	var was reading
+	knots, conn, shy := 0, spare && rt.ledToConnector(id), 0
+	if spare {
+		was, shy = rt.readingOf(id), len(rt.shyCrossings())
+	}
+	if conn {
+		knots = rt.connectorKnots()
+	}
 	s := rt.save(id)
 	rt.ripUp(id)
 	rt.strict = true
@@ -70,7 +97,17 @@ func (rt *router) unlineNet(id, total int) (int, bool) {
 		// a crossing reads as no joint (no dot), two ends in line as one
 		// wire: one crossing more is worth a pair of such ends fewer, if
 		// not inside a supply's frame
-		if now := rt.inLineEnds(); now < total && rt.crossingsOf(id) <= crossed+(total-now)/2 {
+		now := rt.inLineEnds()
+		allow := (total - now) / 2
+		if spare {
+			after := rt.readingOf(id)
+			if after.shy > was.shy || after.tips > was.tips || after.beside > was.beside ||
+				len(rt.shyCrossings()) > shy || conn && rt.connectorKnots() > knots {
+				now = total
+			}
+			allow = 0
+		}
+		if now < total && rt.crossingsOf(id) <= crossed+allow {
 			return now, true
 		}
 	}

@@ -34,7 +34,7 @@ func TestUnlineClearsEndsInLine(t *testing.T) {
 	if rt.inLineEnds() == 0 {
 		t.Fatalf("the hand-laid wire should end in line with b's: %v", rt.nets[a].cells)
 	}
-	rt.unline()
+	rt.unline(false)
 	if n := rt.inLineEnds(); n != 0 {
 		t.Errorf("after unline %d run ends still in line", n)
 	}
