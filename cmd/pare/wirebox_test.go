@@ -40,9 +40,11 @@ import (
 // testdata/review17, brought in with their own 66 and 27: 180 and 294; with a link winding's
 // cold-end bias parts beside their transistor on whole sheets, 172 and 294;
 // with merged parts of different jobs no longer tagged with one member's
-// line (review17 b05's "R3 422R" screen feed), unchanged).
+// line (review17 b05's "R3 422R" screen feed), unchanged; main measured
+// 167 foreign by the Early-effect figures; with runs ending in line wired
+// once more after undot (render/layout unline.go), 167 and 290).
 // A change may lower these, never raise them; a new sheet brings its own.
-var wireBoxCeiling = struct{ foreign, boxes int }{172, 294}
+var wireBoxCeiling = struct{ foreign, boxes int }{167, 290}
 
 // TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
 // its net has a pin there (a frame says "these parts are this stage"), and
