@@ -31,9 +31,9 @@ var unlineCosts = [3]int32{0, closeCost, crossCost + closeCost}
 const unlineRounds = 2
 
 // unlineShare is the part of the router's budget the last pass (spare)
-// may spend: a large sheet (the every-kind fixture's reduced view) whose
-// crossings took the whole budget otherwise kept a wire ending one step
-// from another net's pin tip, read as one wire.
+// may spend: on a large sheet (the every-kind fixture's reduced view) the
+// crossings took the whole budget before unline ran, so its ends in line
+// were never looked at.
 const unlineShare = 4
 
 // unline wires again the nets with runs ending in line with another net's
