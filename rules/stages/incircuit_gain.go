@@ -206,6 +206,11 @@ func (x *figCtx) solveTunedGain(p *graph.Part, rdn2, rOut float64) (*figure.Figu
 		}
 	}
 	f0, ok := x.st.Figures.Lookup("load_f_hz")
+	if !ok {
+		// a load the gang tunes: its peak at mid travel, where the
+		// formula's capacitance is taken too
+		f0, ok = x.tankAt(gangMid)
+	}
 	c := x.solverCircuit()
 	if !ok || in == "" || out == "" || c.Net(in) == nil || c.Net(out) == nil {
 		return nil, nil
@@ -254,4 +259,18 @@ func without(c *graph.Circuit, ref string) *graph.Circuit {
 		}
 	}
 	return out
+}
+
+// tankAt is the in-circuit resonance of the stage's last solved tank at
+// gang setting g, if it was solved there.
+func (x *figCtx) tankAt(g gang) (float64, bool) {
+	if !x.tankOK {
+		return 0, false
+	}
+	for i, tg := range x.tank.gs {
+		if tg.frac == g.frac && i < len(x.tank.f) {
+			return x.tank.f[i], true
+		}
+	}
+	return 0, false
 }
