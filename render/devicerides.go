@@ -44,7 +44,7 @@ func deviceRides(c *graph.Circuit, blockOf, with map[string]int, ext map[string]
 			offer(pn.Net, i)
 			for _, cn := range c.ConnsOf(pn.Net) {
 				for _, far := range layout.FarEnds(cn.Part, pn.Net) {
-					if signalNet(c, far) {
+					if signalNet(c, far) && !footOwn(c, cn.Part, far, i, blockOf) {
 						offer(far, i)
 					}
 				}
@@ -89,6 +89,22 @@ func deviceRides(c *graph.Circuit, blockOf, with map[string]int, ext map[string]
 		blockOf[r] = i
 	}
 	return out
+}
+
+// footOwn says whether net far, the foot of winding w that feeds a device
+// on stretch i, holds only a decoupler (layout.DecouplerFoot) while w
+// stands on a stretch of its own: the decoupler stays at the winding's foot.
+func footOwn(c *graph.Circuit, w *graph.Part, far string, i int, blockOf map[string]int) bool {
+	j, in := blockOf[w.Ref]
+	return in && j != i && layout.DecouplerFoot(c, w, far, func(p *graph.Part) layout.Foot {
+		switch k, in := blockOf[p.Ref]; {
+		case !in:
+			return layout.FootLoose
+		case k == j:
+			return layout.FootWith
+		}
+		return layout.FootElsewhere
+	})
 }
 
 // touchesOther says whether p shares a net with a part of a stretch other

@@ -50,7 +50,7 @@ func (ly *state) deviceStages(stageOf func(*cell) (int, bool), byNet map[string]
 			offer(pn.Net, s, false)
 			for _, w := range byNet[pn.Net] {
 				for _, far := range FarEnds(w.part, pn.Net) {
-					if ly.wiredSignal(far) {
+					if ly.wiredSignal(far) && !ly.footOwn(stageOf, w, far, s) {
 						offer(far, s, true)
 					}
 				}
@@ -76,6 +76,131 @@ func (ly *state) deviceStages(stageOf func(*cell) (int, bool), byNet map[string]
 		}
 	}
 	return cand
+}
+
+// footOwn says whether net far, the foot of winding w that feeds a device
+// of stage s, holds only a decoupler (DecouplerFoot) while w is framed in
+// another stage: the decoupler stays at the winding's foot, in w's stage,
+// a column after the parts of its rank (footAfter).
+func (ly *state) footOwn(stageOf func(*cell) (int, bool), w *cell, far string, s int) bool {
+	ws, framed := stageOf(w)
+	if !framed || ws == s {
+		return false
+	}
+	return DecouplerFoot(ly.c, w.part, far, ly.footPlace(stageOf, ws, nil))
+}
+
+// footPlace is where a part stands against a winding framed in stage ws
+// (DecouplerFoot), the loose ones added to *loose.
+func (ly *state) footPlace(stageOf func(*cell) (int, bool), ws int, loose *[]string) func(*graph.Part) Foot {
+	return func(p *graph.Part) Foot {
+		cl := ly.cellOf(p.Ref)
+		if cl == nil {
+			return FootElsewhere
+		}
+		switch ps, framed := stageOf(cl); {
+		case !framed:
+			if loose != nil {
+				*loose = append(*loose, p.Ref)
+			}
+			return FootLoose
+		case ps == ws:
+			return FootWith
+		}
+		return FootElsewhere
+	}
+}
+
+// markFeet puts the decoupler at the foot of a framed winding whose hot end
+// leads on (to a part ranked after the winding, or off the sheet's right
+// edge: an IF can's secondary) a column after its rank (footAfter): in the
+// can's column with the primary's anode decoupler, the two stacked made
+// the can's frame two decouplers tall (review17 a03's IFT1: the row grew
+// and the IF stage's row no longer fitted its page).
+func (ly *state) markFeet(stageOf func(*cell) (int, bool), byNet map[string][]*cell) {
+	for _, w := range ly.cells {
+		ws, framed := stageOf(w)
+		if !framed || w.part.Kind != graph.Transformer {
+			continue
+		}
+		for _, wd := range w.part.Windings {
+			a, b := w.part.NetOf(wd.From), w.part.NetOf(wd.To)
+			for _, e := range [][2]string{{a, b}, {b, a}} {
+				hot, foot := e[0], e[1]
+				if !ly.wiredSignal(foot) || !ly.leadsOn(w, hot, byNet) {
+					continue
+				}
+				var loose []string
+				if DecouplerFoot(ly.c, w.part, foot, ly.footPlace(stageOf, ws, &loose)) {
+					for _, r := range loose {
+						ly.footAfter[r] = true
+					}
+				}
+			}
+		}
+	}
+}
+
+// leadsOn says whether net hot reaches past winding w: a part on it ranked
+// after w, or the sheet's right edge.
+func (ly *state) leadsOn(w *cell, hot string, byNet map[string][]*cell) bool {
+	for _, nb := range byNet[hot] {
+		if nb != w && (nb.edge == 1 || nb.edge == 0 && ly.rankOf[nb.ref] > ly.rankOf[w.ref]) {
+			return true
+		}
+	}
+	return false
+}
+
+// Foot is where a part on a winding's foot stands against the winding.
+type Foot int
+
+// The places of a part on a winding's foot (DecouplerFoot).
+const (
+	FootLoose     Foot = iota // in no stage yet
+	FootWith                  // in the winding's own stage (its tuning capacitor)
+	FootElsewhere             // in another stage
+)
+
+// DecouplerFoot says whether the parts on net far, the foot of winding w,
+// other than w and the parts standing with it (its tuning capacitor) are
+// all loose (where) and only decouple a line into the winding: a
+// resistor from a rail other than chassis and a capacitor to chassis, at
+// least one of each (an AGC decoupler at an IF can's cold end). Such a
+// decoupler is drawn at the foot of the winding it feeds, as the can's
+// other winding's anode decoupler is; moved to the stage of the device the
+// winding feeds, review17 a03's AGC decoupler R2/C4 stood after the second
+// IF can, a row from the first can's secondary, wired there by a
+// connector. A bias divider (a resistor to chassis) is not one: it goes
+// with its device.
+func DecouplerFoot(c *graph.Circuit, w *graph.Part, far string, where func(*graph.Part) Foot) bool {
+	r, caps := 0, 0
+	for _, cn := range c.ConnsOf(far) {
+		p := cn.Part
+		if p == w {
+			continue
+		}
+		switch at := where(p); {
+		case at == FootWith:
+			continue
+		case at != FootLoose || len(p.Pins) != 2:
+			return false
+		}
+		other := p.Pins[0].Net
+		if other == far {
+			other = p.Pins[1].Net
+		}
+		role := c.RoleOf(other)
+		switch {
+		case p.Kind == graph.Capacitor && role == graph.Ground:
+			caps++
+		case p.Kind == graph.Resistor && role.IsACGround() && role != graph.Ground:
+			r++
+		default:
+			return false
+		}
+	}
+	return r > 0 && caps > 0
 }
 
 // biasPoint says whether every signal net of c is one the reduction tied

@@ -202,15 +202,18 @@ const (
 
 // state is the layout in progress.
 type state struct {
-	c        *graph.Circuit
-	o        Options
-	cells    []*cell
-	rankOf   map[string]int // ref -> layer rank
-	netCol   map[string]float64
-	stageOf  map[string]int
-	before   map[string]bool // shunts placed just before their active part
-	netCount map[string]int
-	frames   []geom.Frame
+	c       *graph.Circuit
+	o       Options
+	cells   []*cell
+	rankOf  map[string]int // ref -> layer rank
+	netCol  map[string]float64
+	stageOf map[string]int
+	before  map[string]bool // shunts placed just before their active part
+	// decouplers at the foot of a winding framed apart from the device it
+	// feeds, a column after their rank (footOwn)
+	footAfter map[string]bool
+	netCount  map[string]int
+	frames    []geom.Frame
 	// orientation search: fixed turns by ref, and refs on crossing nets
 	turns    map[string]int
 	crossing map[string]bool
