@@ -25,6 +25,7 @@ const (
 	fadedAcrossCeiling = 2
 	fadedCrossCeiling  = 26 // with the loose-row ride and the base-bias ranking
 	fadedFarCeiling    = 2
+	fadedServeCeiling  = 99
 )
 
 // fadedFar is how far (sheet units, centre to centre) a greyed part may
@@ -45,7 +46,7 @@ const acrossNear = 30.0
 // service sheet: a part is drawn at the part it works with, a part across
 // another beside it. Each count may only fall.
 func TestFadedPartsServeNearby(t *testing.T) {
-	across, cross, far := 0, 0, 0
+	across, cross, far, serve := 0, 0, 0, 0
 	for _, file := range fadedHomeCases(t) {
 		c := cachedResult(t, file).Circuit
 		pages, err := cachedPages(file, render.Faded, "A3")
@@ -59,6 +60,10 @@ func TestFadedPartsServeNearby(t *testing.T) {
 				across++
 			}
 		}
+		for _, m := range unserved(c, pages) {
+			t.Logf("%s faded: %s stands %s from %s it serves, want the same page within %g", name, m.ref, m.text(), m.host, fadedServeFar)
+			serve++
+		}
 		fc, ff := 0, farParts(c, pages)
 		for _, g := range pages {
 			fc += greyOverBlack(g)
@@ -71,6 +76,10 @@ func TestFadedPartsServeNearby(t *testing.T) {
 	}
 	t.Logf("faded view, review16+17 on A3: %d greyed parts away from the part they are across (ceiling %d), %d grey-over-black crossings (ceiling %d), %d greyed parts far from what they serve (ceiling %d)",
 		across, fadedAcrossCeiling, cross, fadedCrossCeiling, far, fadedFarCeiling)
+	t.Logf("faded view, review16+17 on A3: %d greyed parts away from what they serve (ceiling %d)", serve, fadedServeCeiling)
+	if serve > fadedServeCeiling {
+		t.Errorf("%d greyed parts stand away from what they serve, ceiling %d", serve, fadedServeCeiling)
+	}
 	if across > fadedAcrossCeiling {
 		t.Errorf("%d greyed parts stand away from the part they are across, ceiling %d", across, fadedAcrossCeiling)
 	}

@@ -111,16 +111,23 @@ func (ly *state) footPlace(stageOf func(*cell) (int, bool), ws int, loose *[]str
 	}
 }
 
-// markFeet puts the decoupler at the foot of a framed winding whose hot end
+// markFeet puts the decoupler at the foot of a winding framed without a
+// device (an IF can's own frame) whose hot end
 // leads on (to a part ranked after the winding, or off the sheet's right
 // edge: an IF can's secondary) a column after its rank (footAfter): in the
 // can's column with the primary's anode decoupler, the two stacked made
 // the can's frame two decouplers tall (review17 a03's IFT1: the row grew
 // and the IF stage's row no longer fitted its page).
 func (ly *state) markFeet(stageOf func(*cell) (int, bool), byNet map[string][]*cell) {
+	devices := map[int]bool{}
+	for _, d := range ly.cells {
+		if s, framed := stageOf(d); framed && d.part.IsActive() {
+			devices[s] = true
+		}
+	}
 	for _, w := range ly.cells {
 		ws, framed := stageOf(w)
-		if !framed || w.part.Kind != graph.Transformer {
+		if !framed || w.part.Kind != graph.Transformer || devices[ws] {
 			continue
 		}
 		for _, wd := range w.part.Windings {
