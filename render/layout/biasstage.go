@@ -81,7 +81,7 @@ func (ly *state) deviceStages(stageOf func(*cell) (int, bool), byNet map[string]
 // footOwn says whether net far, the foot of winding w that feeds a device
 // of stage s, holds only a decoupler (DecouplerFoot) while w is framed in
 // another stage: the decoupler stays at the winding's foot, in w's stage,
-// a column after the parts of its rank (footAfter).
+// a column after the parts of its rank (footCol).
 func (ly *state) footOwn(stageOf func(*cell) (int, bool), w *cell, far string, s int) bool {
 	ws, framed := stageOf(w)
 	if !framed || ws == s {
@@ -114,10 +114,15 @@ func (ly *state) footPlace(stageOf func(*cell) (int, bool), ws int, loose *[]str
 // markFeet puts the decoupler at the foot of a winding framed without a
 // device (an IF can's own frame) whose hot end
 // leads on (to a part ranked after the winding, or off the sheet's right
-// edge: an IF can's secondary) a column after its rank (footAfter): in the
+// edge: an IF can's secondary) a column after its rank (footCol): in the
 // can's column with the primary's anode decoupler, the two stacked made
 // the can's frame two decouplers tall (review17 a03's IFT1: the row grew
-// and the IF stage's row no longer fitted its page).
+// and the IF stage's row no longer fitted its page). The decoupler at the
+// foot of a winding an anode or collector feeds, where both ends of the
+// can's other winding lead on to other stages (bothLeave), stands a column
+// before the winding's rank (footCol), under the device's output lead: right
+// of the can, its leads crossed the secondary's lead on to the detector
+// (review17 a03's IFT2 anode decoupler R5/C7 and det_k).
 func (ly *state) markFeet(stageOf func(*cell) (int, bool), byNet map[string][]*cell) {
 	devices := map[int]bool{}
 	for _, d := range ly.cells {
@@ -127,25 +132,68 @@ func (ly *state) markFeet(stageOf func(*cell) (int, bool), byNet map[string][]*c
 	}
 	for _, w := range ly.cells {
 		ws, framed := stageOf(w)
-		if !framed || w.part.Kind != graph.Transformer || devices[ws] {
+		if !framed || w.part.Kind != graph.Transformer {
 			continue
 		}
 		for _, wd := range w.part.Windings {
 			a, b := w.part.NetOf(wd.From), w.part.NetOf(wd.To)
 			for _, e := range [][2]string{{a, b}, {b, a}} {
 				hot, foot := e[0], e[1]
-				if !ly.wiredSignal(foot) || !ly.leadsOn(w, hot, byNet) {
+				if !ly.wiredSignal(foot) {
+					continue
+				}
+				fed := ly.fedBy(hot, byNet) && ly.bothLeave(w, wd, ws, stageOf, byNet)
+				if !fed && (devices[ws] || !ly.leadsOn(w, hot, byNet)) {
 					continue
 				}
 				var loose []string
-				if DecouplerFoot(ly.c, w.part, foot, ly.footPlace(stageOf, ws, &loose)) {
-					for _, r := range loose {
-						ly.footAfter[r] = true
+				if !DecouplerFoot(ly.c, w.part, foot, ly.footPlace(stageOf, ws, &loose)) {
+					continue
+				}
+				for _, r := range loose {
+					ly.footCol[r] = 3*ly.rankOf[r] + 1 // after its rank
+					if fed {
+						ly.footCol[r] = 3*ly.rankOf[w.ref] - 1 // before the winding
 					}
 				}
 			}
 		}
 	}
+}
+
+// bothLeave says whether both ends of another winding of w than wd reach
+// parts framed in other stages than ws: a secondary whose foot leads on
+// too (a detector's return through its load), which the primary's
+// decoupler right of the can stood across.
+func (ly *state) bothLeave(w *cell, wd graph.Winding, ws int, stageOf func(*cell) (int, bool), byNet map[string][]*cell) bool {
+	leaves := func(n string) bool {
+		if !ly.wiredSignal(n) {
+			return false
+		}
+		for _, nb := range byNet[n] {
+			if s, framed := stageOf(nb); framed && s != ws {
+				return true
+			}
+		}
+		return false
+	}
+	for _, o := range w.part.Windings {
+		if o.Name != wd.Name && leaves(w.part.NetOf(o.From)) && leaves(w.part.NetOf(o.To)) {
+			return true
+		}
+	}
+	return false
+}
+
+// fedBy says whether net hot is fed from a device's output electrode (an
+// anode into its transformer's primary).
+func (ly *state) fedBy(hot string, byNet map[string][]*cell) bool {
+	for _, nb := range byNet[hot] {
+		if d := nb.part; d.IsActive() && d.NetOf(d.PinWithRole(graph.RoleOutput)) == hot {
+			return true
+		}
+	}
+	return false
 }
 
 // leadsOn says whether net hot reaches past winding w: a part on it ranked

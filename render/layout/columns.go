@@ -128,7 +128,7 @@ func (ly *state) branches(st map[string]int, byNet map[string][]*cell) []bool {
 // frames no part has a stage.
 func (ly *state) stages() map[string]int {
 	st := map[string]int{}
-	ly.footAfter = map[string]bool{}
+	ly.footCol = map[string]int{}
 	if len(ly.o.Frames) == 0 {
 		return st
 	}
@@ -330,17 +330,17 @@ func (ly *state) netColumns() {
 
 // column is a cell's place along the signal flow: three per rank, the
 // first for the shunts that stand before an active part's control
-// electrode, the last for a decoupler at a winding's foot (footAfter),
+// electrode, the last for a decoupler at a winding's foot (footCol),
 // which stacked under the other winding's decoupler of its rank made the
 // can's frame two decouplers tall (review17 a03's IFT1: the row grew and
 // the IF stage's row no longer fitted the page).
 func (ly *state) column(cl *cell) int {
+	if c, ok := ly.footCol[cl.ref]; ok {
+		return c
+	}
 	c := 3 * ly.rankOf[cl.ref]
-	switch {
-	case ly.before[cl.ref]:
+	if ly.before[cl.ref] {
 		c--
-	case ly.footAfter[cl.ref]:
-		c++
 	}
 	return c
 }

@@ -209,11 +209,10 @@ type state struct {
 	netCol  map[string]float64
 	stageOf map[string]int
 	before  map[string]bool // shunts placed just before their active part
-	// decouplers at the foot of a winding framed apart from the device it
-	// feeds, a column after their rank (footOwn)
-	footAfter map[string]bool
-	netCount  map[string]int
-	frames    []geom.Frame
+	// the columns of decouplers at a winding's foot (markFeet)
+	footCol  map[string]int
+	netCount map[string]int
+	frames   []geom.Frame
 	// orientation search: fixed turns by ref, and refs on crossing nets
 	turns    map[string]int
 	crossing map[string]bool
