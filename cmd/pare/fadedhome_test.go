@@ -21,14 +21,14 @@ import (
 // black ones 30 (31 before); greyed parts farther than fadedFar from every part they
 // share a net with, or on another page than all of them, 2 (review17
 // b05's screen bypass C13 and preamp decoupler C22); greyed resistors and
-// capacitors farther than fadedServeFar from all they serve (unserved) 53,
+// capacitors farther than fadedServeFar from all they serve (unserved) 54,
 // 55 before review16 and review17 a03's AGC decouplers R2/C4 stood at
 // their first IF can's foot instead of after the second can a row away.
 const (
 	fadedAcrossCeiling = 2
-	fadedCrossCeiling  = 25 // 26 before the decouplers at an IF can's foot
+	fadedCrossCeiling  = 26 // with the loose-row ride and the base-bias ranking
 	fadedFarCeiling    = 2
-	fadedServeCeiling  = 53
+	fadedServeCeiling  = 54
 )
 
 // fadedFar is how far (sheet units, centre to centre) a greyed part may

@@ -141,14 +141,11 @@ func (ly *state) score(cl *cell, s symbol.Shape) float64 {
 	score := 0.0
 	horizontalSignal := 0
 	signal := 0
-	fedLine := ly.fedLine(cl)
 	for _, p := range s.Pins {
 		want, rail := railWant(ly.c, cl.part, p)
 		switch {
 		case rail && ly.c.RoleOf(p.Net).IsACGround():
 			score += railScore(p.Dir, want)
-		case p.Net == fedLine:
-			score += railScore(p.Dir, geom.Up)
 		default:
 			signal++
 			score += ly.towards(cl, p)
@@ -161,46 +158,6 @@ func (ly *state) score(cl *cell, s symbol.Shape) float64 {
 		score += 1 // a part in the signal path lies along it
 	}
 	return score + ly.hangScore(cl, s) + ly.lineScore(cl, s)
-}
-
-// fedLine is the net of a two-pin passive part with no pin on a rail that
-// the reduction tied to AC ground (Options.Quiet) and a resistor feeds from
-// a supply rail of positive voltage: a decoupled supply line, on which the
-// part's pin points up as on the rail itself (a load or upper bias resistor
-// standing from its line). Scored as a signal pin it pointed along the line
-// to the rest of its net, and the part lay in the signal path: review17
-// b01's buffer bias resistor R7 lay on the base line, the base wire
-// detouring round it, and a03's triode anode load R11 lay right of the
-// anode, the anode lead looping back over the valve. "" for none.
-func (ly *state) fedLine(cl *cell) string {
-	p := cl.part
-	if len(ly.o.Quiet) == 0 || len(p.Pins) != 2 || p.IsActive() || p.Kind == graph.Port {
-		return ""
-	}
-	line := ""
-	for _, pn := range p.Pins {
-		switch {
-		case pn.Net == "" || pn.Net == notConnected || ly.c.RoleOf(pn.Net).IsACGround():
-			return ""
-		case ly.o.Quiet[pn.Net]:
-			line = pn.Net
-		}
-	}
-	if line == "" {
-		return ""
-	}
-	for _, cn := range ly.c.ConnsOf(line) {
-		r := cn.Part
-		if r == p || r.Kind != graph.Resistor || len(r.Pins) != 2 {
-			continue
-		}
-		for _, rp := range r.Pins {
-			if n := ly.c.Net(rp.Net); n != nil && n.Role == graph.Supply && n.Volts > 0 {
-				return line
-			}
-		}
-	}
-	return ""
 }
 
 // railScore rates a rail pin pointing in direction d where it should point
