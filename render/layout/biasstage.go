@@ -94,7 +94,7 @@ func (ly *state) footOwn(stageOf func(*cell) (int, bool), w *cell, far string, s
 // (DecouplerFoot), the loose ones added to *loose.
 func (ly *state) footPlace(stageOf func(*cell) (int, bool), ws int, loose *[]string) func(*graph.Part) Foot {
 	return func(p *graph.Part) Foot {
-		cl := ly.cellOf(p.Ref)
+		cl := ly.refCell[p.Ref]
 		if cl == nil {
 			return FootElsewhere
 		}

@@ -129,6 +129,10 @@ func (ly *state) branches(st map[string]int, byNet map[string][]*cell) []bool {
 func (ly *state) stages() map[string]int {
 	st := map[string]int{}
 	ly.footCol = map[string]int{}
+	ly.refCell = make(map[string]*cell, len(ly.cells))
+	for _, cl := range ly.cells {
+		ly.refCell[cl.ref] = cl
+	}
 	if len(ly.o.Frames) == 0 {
 		return st
 	}

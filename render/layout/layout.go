@@ -211,6 +211,7 @@ type state struct {
 	before  map[string]bool // shunts placed just before their active part
 	// the columns of decouplers at a winding's foot (markFeet)
 	footCol  map[string]int
+	refCell  map[string]*cell // the cells by ref, for the stage spread
 	netCount map[string]int
 	frames   []geom.Frame
 	// orientation search: fixed turns by ref, and refs on crossing nets
