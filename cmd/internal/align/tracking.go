@@ -33,12 +33,13 @@ func (g *Guide) trackingSteps(c *graph.Circuit, mix *stages.Stage) string {
 	if osc.gang == nil {
 		return mix.Name + " has no ganged tuning capacitor among its parts"
 	}
-	lo, hi, from, why := g.trackPoints(mix)
+	g.ends(c, mix)
+	lo, hi, from, why := g.trackPoints(c, mix)
 	if why != "" {
 		return why
 	}
-	g.ends(c, mix)
 	lo, hi, from = g.keepOnDial(c, lo, hi, from)
+	g.reachWarn(lo, hi)
 	g.trackWarnings(mix, osc)
 	g.trackSteps(c, osc, lo, hi, from)
 	return ""
@@ -103,26 +104,6 @@ func describe(p *graph.Part) string {
 		return "padder " + p.Ref
 	}
 	return "core of " + p.Ref
-}
-
-// trackPoints are the low and high tracking frequencies: where the set as
-// captured tracks exactly (track_fit) when it does at two points or more,
-// else the three customary points pare proposes (track_f), with a warning.
-func (g *Guide) trackPoints(mix *stages.Stage) (lo, hi float64, from, why string) {
-	fit, _ := mix.Figures.Get("track_fit")
-	if len(fit.Points) >= 2 {
-		return fit.Points[0], fit.Points[len(fit.Points)-1], fmt.Sprintf("%s: %s %s", mix.Name, fit.Label, hzList(fit.Points)), ""
-	}
-	sug, okS := mix.Figures.Get("track_f")
-	if !okS || len(sug.Points) < 2 {
-		return 0, 0, "", mix.Name + ": pare found no tracking points for this oscillator: the gang's sections could not be paired"
-	}
-	as := "nowhere on the dial"
-	if len(fit.Points) == 1 {
-		as = "at " + hz(fit.Points[0]) + " only"
-	}
-	g.Warnings = append(g.Warnings, fmt.Sprintf("as captured the set tracks exactly %s: the procedure aligns at the customary points of pare's suggested three-point design instead", as))
-	return sug.Points[0], sug.Points[len(sug.Points)-1], fmt.Sprintf("%s: %s, %s %s", mix.Name, sug.Group, sug.Label, hzList(sug.Points)), ""
 }
 
 // ends records the dial ends from the oscillator and signal ranges (the
