@@ -30,7 +30,7 @@ func OscillatorNotes(found []stages.Stage, pt *dc.Point) []string {
 	var notes []string
 	seen := map[string]bool{}
 	for _, s := range found {
-		if !strings.Contains(strings.ToLower(s.Title), "oscillat") {
+		if !oscillates(s) {
 			continue
 		}
 		for _, ref := range s.Parts {
@@ -55,12 +55,25 @@ func OscillatorNotes(found []stages.Stage, pt *dc.Point) []string {
 func StageOscillators(found []stages.Stage) []string {
 	var out []string
 	for _, s := range found {
-		if !strings.Contains(strings.ToLower(s.Title), "oscillat") {
+		if !oscillates(s) {
 			continue
 		}
 		out = append(out, s.Parts...)
 	}
 	return out
+}
+
+// oscillates says whether a stage's device runs an oscillation: a stage
+// named an oscillator or a self-oscillating mixer, not a mixer whose title
+// names the separate oscillator injected into it (its grids carry the
+// oscillator's bias, which the oscillator's own note gives; a blind
+// reviewer read "the grid reads more negative" on a triode-hexode's signal
+// grid, which stays at the AGC bias).
+func oscillates(s stages.Stage) bool {
+	if strings.HasPrefix(s.Topology, "mixer-") {
+		return false
+	}
+	return strings.Contains(strings.ToLower(s.Title), "oscillat")
 }
 
 // electrodeWord names an electrode for a repairer.
