@@ -200,12 +200,28 @@ func FeedName(n *Net) string {
 	if n.Fed != "" && n.Label != "" {
 		return withoutRemarks(n.Label) // a line fed itself: its chain as named ("+12 V via R10")
 	}
-	label := withoutRemarks(railLabel(n))
-	if name := WithoutVolts(label); name != "" {
-		return name
-	}
-	return label // "+9 V (stabilised)" feeds "+9 V via R14", not "(stabilised) via R14"
+	return RailName(withoutRemarks(railLabel(n))) // "+9 V (stabilised)" feeds "+9 V via R14", not "(stabilised) via R14"
 }
+
+// RailName is a rail's label without its stated voltage where the words
+// left name the rail ("HT" from "HT +250 V", "bias" from "−6 V bias"). A
+// label whose voltage is its only name keeps it: one that is just the
+// voltage ("+12V"), or one whose other words only say it is a line
+// ("+9 V line", "+12 V supply rail"): stripped, a blind reviewer's "+9 V
+// line" fed a tag reading "line via R4", which names no rail at all.
+func RailName(label string) string {
+	name := WithoutVolts(label)
+	for _, w := range strings.Fields(strings.ToLower(name)) {
+		if !lineWords[w] {
+			return name
+		}
+	}
+	return label
+}
+
+// lineWords are the words a supply's label uses to say it is a supply,
+// not which: they name no rail without the voltage beside them.
+var lineWords = map[string]bool{"line": true, "supply": true, "rail": true, "bus": true, "feed": true, "dc": true, "d.c.": true}
 
 // withoutRemarks is a rail's label without its bracketed remarks ("HT1"
 // from "HT1 (reservoir)", "battery" from "battery (neg. earth drawn
@@ -227,8 +243,9 @@ func withoutRemarks(label string) string {
 // remark is a bracketed aside in a label, innermost brackets only.
 var remark = regexp.MustCompile(`\([^()]*\)`)
 
-// statedVolts is a voltage as a label states it: "+250 V", "−6V", "250 V".
-var statedVolts = regexp.MustCompile(`[+−-]?[0-9]+(?:\.[0-9]+)?\s?V\b`)
+// statedVolts is a voltage as a label states it: "+250 V", "−6V", "250 V",
+// "6.3 V~" (an a.c. heater line: the mark goes with the voltage).
+var statedVolts = regexp.MustCompile(`[+−-]?[0-9]+(?:\.[0-9]+)?\s?V\b~?`)
 
 // dcNeighbour is the far terminal of a resistor or choke on a net: the
 // parts that carry a DC feed.

@@ -107,6 +107,7 @@ func TestWithoutVolts(t *testing.T) {
 		{"+9 V", ""},
 		{"−6V bias", "bias"},
 		{"HT 250 V line", "HT line"},
+		{"LT 6.3 V~", "LT"},
 	} {
 		if got := WithoutVolts(tc.in); got != tc.want {
 			t.Errorf("WithoutVolts(%q) = %q, want %q", tc.in, got, tc.want)
@@ -217,6 +218,46 @@ func TestDecoupledTagDropsRemarks(t *testing.T) {
 			t.Errorf("rail %q: line tagged %q, want %q", tc.label, got, tc.want)
 		}
 	}
+}
+
+// A decoupled line's tag keeps what its rail's label means: the voltage
+// goes only where other words name the rail. A blind reviewer read "line
+// via R4" on a sheet whose rail was labelled "+9 V line" (review18 b05).
+// The labels are the kinds service sheets print (common practice).
+func TestDecoupledTagKeepsRailMeaning(t *testing.T) {
+	for _, tc := range []struct{ label, want string }{
+		{"+9 V line", "+9 V line via R5"},
+		{"HT +300 V", "HT via R5"},
+		{"ht", "ht via R5"},
+		{"+12V", "+12V via R5"},
+		{"LT 6.3 V~", "LT via R5"},
+		{"supply", "supply via R5"},
+		{"+12 V supply rail", "+12 V supply rail via R5"},
+		{"−6 V bias", "bias via R5"},
+		{"+24 V DC", "+24 V DC via R5"},
+	} {
+		if got := decoupledTag(t, tc.label); got != tc.want {
+			t.Errorf("rail %q: line tagged %q, want %q", tc.label, got, tc.want)
+		}
+	}
+}
+
+// decoupledTag is the tag MarkDecoupled gives the rails netlist's line d
+// when its HT rail is labelled label.
+func decoupledTag(t *testing.T, label string) string {
+	t.Helper()
+	const ht = `label = "HT +250 V"`
+	if !strings.Contains(railsNetlist, ht) {
+		t.Fatal("rails netlist has no HT label to replace")
+	}
+	c, err := Parse("rails.toml", []byte(strings.Replace(railsNetlist, ht, `label = "`+label+`"`, 1)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !c.MarkDecoupled("d") {
+		t.Fatalf("%q: d not marked", label)
+	}
+	return c.Net("d").Label
 }
 
 // FeedName: a line is named after the rail feeding it without the rail's

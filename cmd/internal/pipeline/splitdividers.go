@@ -31,11 +31,12 @@ func (r *Result) withDividersApart(c *graph.Circuit, frames []render.Frame) (out
 			slotted[pl.Ref] = true
 		}
 	}
+	lines := r.supplyLines()
 	for _, p := range c.Parts {
 		if slotted[p.Ref] {
 			continue
 		}
-		members := r.dividerMembers(c, p)
+		members := r.dividerMembers(c, p, lines)
 		if members == nil {
 			continue
 		}
@@ -66,8 +67,14 @@ func (r *Result) withDividersApart(c *graph.Circuit, frames []render.Frame) (out
 // was on a ground net, else the line it was on, which must be one the
 // drawing knows (Circuit.ReturnOf finds it among the rails). A member whose
 // signal end is not p's (a merge across nets the reduction joined) leaves p
-// merged: the drawing could not say where that member stands.
-func (r *Result) dividerMembers(c *graph.Circuit, p *graph.Part) []*graph.Part {
+// merged: the drawing could not say where that member stands. So does a
+// merge on a supply line (lines) whose members return only to one line
+// and chassis (a smoothing resistor from the reservoir and the line's
+// bleeder, review18 a05's R2 470R and R3 220k): no divider sets a bias
+// there, the merged part is the line's source impedance the reduction
+// proved, and drawn as its members the reduced sheet showed two parts
+// where its netlist holds one. Feeds from two lines are drawn apart.
+func (r *Result) dividerMembers(c *graph.Circuit, p *graph.Part, lines map[string]supplyLine) []*graph.Part {
 	from := p.Origins()
 	if p.Kind != graph.Resistor || len(p.Pins) != 2 || len(from) < 2 {
 		return nil
@@ -114,6 +121,9 @@ func (r *Result) dividerMembers(c *graph.Circuit, p *graph.Part) []*graph.Part {
 			returns[was] = true
 		}
 		out = append(out, m)
+	}
+	if _, line := lines[sig]; line {
+		delete(returns, "") // a line's bleeder is no divider's lower half
 	}
 	if len(returns) < 2 {
 		return nil

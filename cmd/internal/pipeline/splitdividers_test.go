@@ -100,3 +100,40 @@ func TestMergedLineFeedsDrawnApart(t *testing.T) {
 		}
 	}
 }
+
+// A smoothing resistor and its line's bleeder merged in parallel (review18
+// a05: R2 470R from the reservoir, R3 220k to chassis, one 469R: 470 ∥
+// 220k = 468.998 Ω, Ohm's law) are drawn once, as the reduced netlist holds
+// them, with the merged value and the mark listing both, to the chassis
+// the netlist names: not apart as a bias divider (no bias is set on an HT
+// line) and not under the reservoir's tag, which only R2 returned to.
+func TestMergedLineBleederDrawnOnce(t *testing.T) {
+	res, err := stagesRun("../../../testdata/review18/a05.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := res.Sheet(render.Reduced)
+	if s.Circuit.Part("R3") != nil {
+		t.Error("R3 drawn apart on the reduced sheet: the netlist merged it into R2")
+	}
+	p := s.Circuit.Part("R2")
+	if p == nil || !slices.Equal(p.From, []string{"R2", "R3"}) {
+		t.Fatalf("R2 = %+v, want the merge of R2 and R3", p)
+	}
+	for _, pn := range p.Pins {
+		if pn.Rail != "" {
+			t.Errorf("R2 pin %s drawn to the %s tag: only one member returned there", pn.Name, pn.Rail)
+		}
+	}
+	g, err := render.Config{}.Geometry(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := false
+	for _, l := range g.Labels {
+		found = found || strings.Contains(strings.Join(l.Lines, " / "), "469R / \u2261 R2, R3")
+	}
+	if !found {
+		t.Error("no label reads 469R ≡ R2, R3")
+	}
+}
