@@ -38,6 +38,12 @@ func (r *Result) withDividersApart(c *graph.Circuit, frames []render.Frame) (out
 		}
 		members := r.dividerMembers(c, p, lines)
 		if members == nil {
+			if i := r.bundleRail(p); i >= 0 {
+				if out == nil {
+					out, split = c.Clone(), map[string][]string{}
+				}
+				out.Part(p.Ref).Pins[i].Rail = ""
+			}
 			continue
 		}
 		if out == nil {
@@ -58,6 +64,24 @@ func (r *Result) withDividersApart(c *graph.Circuit, frames []render.Frame) (out
 		return c, nil
 	}
 	return out, split
+}
+
+// bundleRail is the terminal of the merged part p, drawn merged, that the
+// reduction left on the survivor's rail though not every member returned
+// there, or -1. Review18 a05's smoothing R2 from the reservoir and bleeder
+// R3 to chassis, merged into one 469R, stood under the reservoir's tag and
+// read as fed from there alone; its return is drawn to the AC ground the
+// reduced netlist names. A part a template places keeps its slot's return.
+func (r *Result) bundleRail(p *graph.Part) int {
+	if len(p.From) < 2 {
+		return -1
+	}
+	for i, pn := range p.Pins {
+		if pn.Rail != "" && !allReturnTo(r.Circuit, p, pn.Rail) {
+			return i
+		}
+	}
+	return -1
 }
 
 // dividerMembers are the original members of the merged resistor p, each

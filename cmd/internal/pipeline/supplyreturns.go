@@ -21,7 +21,6 @@ import (
 // rectifier's decoupled line was drawn to a chassis symbol. The circuit is
 // copied only when a terminal changes.
 func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
-	c = r.withoutBundleRails(c)
 	lines := r.supplyLines()
 	if len(lines) == 0 {
 		return c
@@ -54,31 +53,6 @@ func (r *Result) withSupplyReturns(c *graph.Circuit) *graph.Circuit {
 	}
 	if out == nil {
 		return c
-	}
-	return out
-}
-
-// withoutBundleRails is c with a merged part's return drawn to the AC
-// ground its netlist names wherever the reduction kept the survivor's rail
-// on it but not every member returned there (review18 a05: smoothing R2
-// from the reservoir and bleeder R3 to chassis merged into one 469R, drawn
-// under the reservoir's tag, read as fed from the reservoir alone). The
-// circuit is copied only when a terminal changes.
-func (r *Result) withoutBundleRails(c *graph.Circuit) *graph.Circuit {
-	out := c
-	for _, p := range c.Parts {
-		if len(p.From) < 2 {
-			continue
-		}
-		for i, pn := range p.Pins {
-			if pn.Rail == "" || allReturnTo(r.Circuit, p, pn.Rail) {
-				continue
-			}
-			if out == c {
-				out = c.Clone()
-			}
-			out.Part(p.Ref).Pins[i].Rail = ""
-		}
 	}
 	return out
 }
