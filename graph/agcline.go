@@ -106,10 +106,13 @@ func (c *Circuit) signalDiodeOn(net string) bool {
 // holdsReservoir tells whether a capacitor of detectorCapMax or more sits
 // on a terminal of p other than one on chassis or a heater (a valve
 // diode's cathode and heater pins are there, beside every bypass in the
-// set).
+// set), or one on an amplifying device's common electrode: a detector
+// returned to the cathode of the triode in its envelope (or to an
+// emitter) finds that stage's bypass there, which holds a bias point, not
+// a rectifier's output.
 func (c *Circuit) holdsReservoir(p *Part) bool {
 	for _, pin := range p.Pins {
-		if r := c.RoleOf(pin.Net); r == Ground || r == Heater {
+		if r := c.RoleOf(pin.Net); r == Ground || r == Heater || c.commonOn(pin.Net) {
 			continue
 		}
 		for _, cn := range c.ConnsOf(pin.Net) {
@@ -241,4 +244,15 @@ func (c *Circuit) returnsControl(far Pin, net string) bool {
 	}
 	r := c.ReturnOf(far)
 	return r != nil && r.Role == Bias && r.Fed == net
+}
+
+// commonOn tells whether the common electrode of an amplifying device (a
+// cathode, an emitter, a source) sits on net.
+func (c *Circuit) commonOn(net string) bool {
+	for _, cn := range c.ConnsOf(net) {
+		if isCommonPin(cn) {
+			return true
+		}
+	}
+	return false
 }

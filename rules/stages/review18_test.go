@@ -28,6 +28,12 @@ func TestReview18Names(t *testing.T) {
 		{"b05.toml", "R16", "driver-transformer", "rc-low-pass"},
 		{"a04.toml", "R4", "amp-common-feedback", "rc-low-pass"},
 		{"b02.toml", "Q2", "mixer-common-injected-tapped", ""},
+		// a03: the 2M2 AGC filter resistor from the detector's load to the
+		// AGC line (τ = R9·C16 = 103 ms by ngspice with the line alone) was
+		// framed with the IF amplifier: the detector diode returns to the
+		// triode's bypassed cathode, whose 25 µF was taken for a reservoir
+		{"a03.toml", "R9", "agc-line-filter", "amp-tuned"},
+		{"a03.toml", "C16", "agc-line-filter", ""},
 	}
 	for _, tc := range cases {
 		sts := findBiased(t, loadReview18(t, tc.file))
@@ -80,4 +86,28 @@ func loadReview18(t *testing.T, name string) *graph.Circuit {
 		t.Fatal(err)
 	}
 	return c
+}
+
+// TestReview18Titles: a pot across an RF generator's output (a01, band
+// 1.2–1.8 MHz, fed from a cathode follower) is a level control; one a
+// detector feeds keeps the volume control's name (a03).
+func TestReview18Titles(t *testing.T) {
+	for _, tc := range []struct{ file, part, title string }{
+		{"a01.toml", "RV1", "RF level control"},
+		{"a03.toml", "RV1", "Volume control"},
+	} {
+		_, sts := findFixture(t, "review18", tc.file)
+		found := false
+		for _, s := range sts {
+			if contains(s.Parts, tc.part) && s.Topology == "volume-control" {
+				found = true
+				if s.Title != tc.title {
+					t.Errorf("%s: %s titled %q, want %q", tc.file, tc.part, s.Title, tc.title)
+				}
+			}
+		}
+		if !found {
+			t.Errorf("%s: %s in no volume-control stage", tc.file, tc.part)
+		}
+	}
 }

@@ -29,6 +29,7 @@ const ifRoleTol = 0.05
 func nameRoles(tops []*found, c *graph.Circuit) {
 	nameAerial(tops)
 	nameAudio(tops)
+	nameLevel(tops, c)
 	var changer *found
 	nIF := 0
 	for _, f := range tops {

@@ -424,3 +424,31 @@ func TestTrackingLoopOscillatorBesideMixer(t *testing.T) {
 		t.Errorf("no step peaks the aerial trimmer TC1: %v", g.Steps)
 	}
 }
+
+// TestHintsLevelControl: a pot across an RF generator's output (review18
+// a01, a VFO's output-level control) is no receiver's volume control, so
+// its worn-track hint names a level control without the detector wording;
+// a pot a detector feeds (review18 a03) keeps it.
+func TestHintsLevelControl(t *testing.T) {
+	for _, tc := range []struct {
+		file, fault, inject, notInject string
+	}{
+		{"a01.toml", "worn level-control track", "top of the control gives", "detector"},
+		{"a03.toml", "worn volume track", "top of the control (the detector load) gives", "in a receiver"},
+	} {
+		_, g := build(t, filepath.Join("..", "..", "..", "testdata", "review18", tc.file))
+		found := false
+		for _, h := range g.Hints {
+			if !strings.Contains(h.Fault, "track") {
+				continue
+			}
+			found = h.Fault == tc.fault
+			if !found || !strings.Contains(h.Inject, tc.inject) || strings.Contains(h.Inject, tc.notInject) {
+				t.Errorf("%s: %q: %q", tc.file, h.Fault, h.Inject)
+			}
+		}
+		if !found {
+			t.Errorf("%s: no %q hint", tc.file, tc.fault)
+		}
+	}
+}

@@ -70,9 +70,9 @@ var hintTable = []hintRow{
 		"the DC at the audio output is not zero with an unmodulated carrier at the IF",
 		"an FM signal at the IF gives distorted audio; AM on the carrier is heard"},
 	{[]string{"volume-control"}, false,
-		"worn volume track",
+		wornVolume,
 		"DC readings normal",
-		"injection at the top of the control (the detector load, in a receiver) gives a crackling or missing output that changes as the control is moved"},
+		"injection at the top of the control gives a crackling or missing output that changes as the control is moved"},
 	{[]string{"agc-filter"}, false,
 		"leaky AGC decoupling capacitor",
 		"the AGC line stays near zero volts on a strong carrier",
@@ -115,6 +115,9 @@ func hintsFor(c *graph.Circuit, sts []stages.Stage, ifHz float64, sides *detSide
 			if w := sides.dcWords(); w != "" && row.fault == openDetector {
 				row.readings += " (healthy: " + w + ")"
 			}
+			if row.fault == wornVolume {
+				row = potRow(c, s, row)
+			}
 			if alone, ok := ownOutput[row.fault]; ok && ifHz <= 0 && mixerStage(sts) == nil {
 				// No IF and no mixer: the oscillator is the circuit's
 				// own output (a test-tone board, a VFO), not a local
@@ -152,4 +155,28 @@ func shown(hs []Hint, fault string, parts []string) bool {
 		}
 	}
 	return false
+}
+
+const wornVolume = "worn volume track"
+
+// potRow words the worn-track fault for the pot the stage holds: a volume
+// control fed from a detector (its track the detector's load, in a
+// receiver) keeps the name and says where its top is; any other (an RF
+// generator's output attenuator, a level control after an amplifier) is a
+// level control, and the receiver's wording would be wrong there.
+func potRow(c *graph.Circuit, s stages.Stage, row hintRow) hintRow {
+	for _, ref := range s.Parts {
+		p := c.Part(ref)
+		if p == nil || p.Kind != graph.Pot {
+			continue
+		}
+		for _, pin := range p.Pins {
+			if c.DetectorFeeds(pin.Net, "") {
+				row.inject = strings.Replace(row.inject, "top of the control", "top of the control (the detector load)", 1)
+				return row
+			}
+		}
+	}
+	row.fault = "worn level-control track"
+	return row
 }
