@@ -8,6 +8,9 @@ import (
 	"pare/graph/value"
 )
 
+// LevelTitle is the title of a pot stage working above the audio range.
+const LevelTitle = "RF level control"
+
 // nameLevel retitles a volume-control match whose potentiometer works
 // above the audio range (its region's band, or the set's, lies wholly
 // above audioTopHz): a pot across an RF or IF signal sets a level (a
@@ -27,7 +30,7 @@ func nameLevel(tops []*found, c *graph.Circuit) {
 				continue
 			}
 			if b := c.BandOf(p); aboveAudio(b) && !detectorFed(c, p) {
-				f.Title = "RF level control"
+				f.Title = LevelTitle
 				f.Notes = append(f.Notes, fmt.Sprintf("named a level control, not a volume control: %s works in a band above the audio range (%s to %s)", ref, hz(b.Min), hz(b.Max)))
 			}
 			break

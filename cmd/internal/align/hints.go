@@ -161,9 +161,9 @@ const wornVolume = "worn volume track"
 
 // potRow words the worn-track fault for the pot the stage holds: a volume
 // control fed from a detector (its track the detector's load, in a
-// receiver) keeps the name and says where its top is; any other (an RF
-// generator's output attenuator, a level control after an amplifier) is a
-// level control, and the receiver's wording would be wrong there.
+// receiver) says where its top is; one the stages named a level control
+// (a pot above the audio range, an RF generator's output attenuator) is
+// worded as one; any other keeps the name without the receiver's words.
 func potRow(c *graph.Circuit, s stages.Stage, row hintRow) hintRow {
 	for _, ref := range s.Parts {
 		p := c.Part(ref)
@@ -177,6 +177,8 @@ func potRow(c *graph.Circuit, s stages.Stage, row hintRow) hintRow {
 			}
 		}
 	}
-	row.fault = "worn level-control track"
+	if s.Title == stages.LevelTitle {
+		row.fault = "worn level-control track"
+	}
 	return row
 }
