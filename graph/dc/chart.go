@@ -222,6 +222,7 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 			add("screen current", "g2", 1)
 		}
 		p.declaredCurrent(ch, part, "ia", "a", "anode")
+		p.positiveGrid(ch, part)
 		pd := p.Part(part.Ref)
 		if pmax, ok := part.Param("pmax"); ok && pd != nil {
 			va, _ := p.Volts(part.NetOf("a"))
@@ -343,4 +344,31 @@ func (p *Point) declaredCurrent(ch *Chart, part *graph.Part, key, pin, what stri
 		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s %s current solves to %s, %+.0f %% from the %s the netlist gives as %s: check the bias network as captured (cathode or emitter resistor, screen or base feed) and the declared figures against the part's data",
 			part.Ref, what, value.FormatPrec(got, value.Ampere, value.Symbol, 3), 100*off, value.FormatPrec(want, value.Ampere, value.Symbol, 3), key))
 	}
+}
+
+// gridPositive is how far a valve's control grid may stand positive of its
+// cathode at the operating point before the chart says so: half a volt.
+// Above it the grid draws current, which the law here does not model, so
+// the solved bias is not what the valve would take (common practice: a
+// grid is run negative of its cathode; a grid-leak's contact potential
+// leaves it a fraction of a volt negative, not positive).
+const gridPositive = 0.5
+
+// positiveGrid warns when a valve's control grid solves positive of its
+// cathode by more than gridPositive: a direct-coupled stage whose cathode
+// resistor, or the driving anode's volts, are not those of the set (a
+// blind reviewer's cathodyne solved 1.2 V positive and the chart said
+// only that its anode current was off).
+func (p *Point) positiveGrid(ch *Chart, part *graph.Part) {
+	g, k := part.NetOf("g1"), part.NetOf("k")
+	if g == "" || k == "" {
+		return
+	}
+	vg, okg := p.Volts(g)
+	vk, okk := p.Volts(k)
+	if !okg || !okk || vg-vk <= gridPositive {
+		return
+	}
+	ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s grid solves %s positive of its cathode: the valve would draw grid current and the bias as captured would not hold; check the grid's bias network and, in a direct-coupled stage, the driving anode's volts and the cathode resistor against the drawing",
+		part.Ref, value.FormatPrec(vg-vk, value.Volt, value.Symbol, 3)))
 }
