@@ -9,6 +9,7 @@ import (
 
 	"pare/graph"
 	"pare/render"
+	"pare/render/check"
 	"pare/render/geom"
 )
 
@@ -236,7 +237,7 @@ func greyOverBlack(g *geom.Sheet) int {
 			if a.Net == b.Net {
 				continue
 			}
-			n += crossCount(segsOf(a, true), segsOf(b, false)) + crossCount(segsOf(a, false), segsOf(b, true))
+			n += check.CrossCount(segsOf(a, true), segsOf(b, false)) + check.CrossCount(segsOf(a, false), segsOf(b, true))
 		}
 	}
 	return n
@@ -251,27 +252,4 @@ func segsOf(w geom.Wire, grey bool) []geom.Seg {
 		}
 	}
 	return out
-}
-
-// crossCount counts the perpendicular crossings of two sets of segments
-// inside both.
-func crossCount(a, b []geom.Seg) int {
-	n := 0
-	for _, s := range a {
-		for _, u := range b {
-			if s.Horizontal() == u.Horizontal() {
-				continue
-			}
-			h, v := s, u
-			if !s.Horizontal() {
-				h, v = u, s
-			}
-			x, y := v.A.X, h.A.Y
-			if x > math.Min(h.A.X, h.B.X)+geom.Eps && x < math.Max(h.A.X, h.B.X)-geom.Eps &&
-				y > math.Min(v.A.Y, v.B.Y)+geom.Eps && y < math.Max(v.A.Y, v.B.Y)-geom.Eps {
-				n++
-			}
-		}
-	}
-	return n
 }
