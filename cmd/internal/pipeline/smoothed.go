@@ -30,12 +30,9 @@ func smoothedLineNotes(c *graph.Circuit, reservoir string) []string {
 	seen := map[string]bool{}
 	for _, cn := range c.ConnsOf(reservoir) {
 		p := cn.Part
-		if (p.Kind != graph.Resistor && p.Kind != graph.Inductor) || len(p.Pins) != 2 {
+		line, ok := seriesFar(p, reservoir)
+		if !ok {
 			continue
-		}
-		line := p.Pins[0].Net
-		if line == reservoir {
-			line = p.Pins[1].Net
 		}
 		if seen[line] || line == reservoir || c.RoleOf(line) != graph.Signal {
 			continue

@@ -134,12 +134,9 @@ func (r *Result) supplyLines() map[string]supplyLine {
 		queue = queue[1:]
 		for _, cn := range c.ConnsOf(net) {
 			p := cn.Part
-			if (p.Kind != graph.Resistor && p.Kind != graph.Inductor) || len(p.Pins) != 2 {
+			next, ok := seriesFar(p, net)
+			if !ok {
 				continue
-			}
-			next := p.Pins[0].Net
-			if next == net {
-				next = p.Pins[1].Net
 			}
 			nn := c.Net(next)
 			if _, seen := out[next]; seen || nn == nil || nn.Role != graph.Signal {
@@ -202,4 +199,16 @@ func carriesSupply(c *graph.Circuit, net, feed string) bool {
 		}
 	}
 	return false
+}
+
+// seriesFar is the net at the far end of a two-pin resistor or inductor
+// from net: the next point along a supply line's series chain.
+func seriesFar(p *graph.Part, net string) (string, bool) {
+	if (p.Kind != graph.Resistor && p.Kind != graph.Inductor) || len(p.Pins) != 2 {
+		return "", false
+	}
+	if p.Pins[0].Net == net {
+		return p.Pins[1].Net, true
+	}
+	return p.Pins[0].Net, true
 }
