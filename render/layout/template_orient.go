@@ -224,8 +224,11 @@ func (ly *state) templateMisses() map[string]bool {
 // the template stands on the same net (upright, in the row under the line
 // or in its own): the series parts joined end to end along the line (a
 // phase-shift network drawn under its device), not turned about so that
-// each link doubles back under the part. A net no such shunt is on says
-// nothing (the mean-column score decides it).
+// each link doubles back under the part. The next series part of the same
+// arm on the line counts as such a slot (a trimming resistor in series
+// with a ladder's last capacitor, review13 b01's R6, had turned about and
+// its own wire ran back under it). A net no such part is on says nothing
+// (the mean-column score decides it).
 func (ly *state) lineScore(cl *cell, s symbol.Shape) float64 {
 	t, ok := ly.slot[cl.ref]
 	if !ok || standOf(s) != "horizontal" || !ly.onLine(cl.ref) {
@@ -235,7 +238,7 @@ func (ly *state) lineScore(cl *cell, s symbol.Shape) float64 {
 	for _, p := range s.Pins {
 		sum, n := 0.0, 0
 		for ref, o := range ly.slot {
-			if ref == cl.ref || o.anchor != t.anchor || !ly.shuntBelow(ref, o, t) || !ly.onNet(ref, p.Net) {
+			if ref == cl.ref || o.anchor != t.anchor || !ly.shuntBelow(ref, o, t) && !ly.alongLine(ref, o, t) || !ly.onNet(ref, p.Net) {
 				continue
 			}
 			sum += o.col
@@ -280,6 +283,12 @@ func (ly *state) shuntBelow(ref string, o, t tplSlot) bool {
 		return false
 	}
 	return ly.placeStand(ref) == "vertical"
+}
+
+// alongLine says whether the template part ref in slot o lies along the
+// same ladder line as the part in slot t.
+func (ly *state) alongLine(ref string, o, t tplSlot) bool {
+	return o.row == t.row && ly.onLine(ref)
 }
 
 // placeStand is the way the first template placing ref asks it to run.
