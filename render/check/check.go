@@ -65,6 +65,10 @@ type Report struct {
 	// a part's pin on either net: the crossing wire reads as joined at the
 	// pin, a part with pins on both nets as shorted (leads.go).
 	NearPins []string
+	// AlongParts are two-terminal parts with a wire of one of their own
+	// nets drawn beside them, parallel and close, over most of their
+	// length: the part reads as shorted by it (alongpart.go).
+	AlongParts []string
 	// LongWires are nets wired much longer than their stage is wide
 	// (reported, not a fault).
 	LongWires []string
@@ -207,11 +211,12 @@ func Measure(g *geom.Sheet) *Report {
 	xs := r.crossings(g, segs)
 	r.nearDots(g, segs, xs)
 	r.nearPins(g, xs)
+	r.alongParts(g)
 	r.connectivity(g, segs)
 	if g.PageMM > 0 {
 		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)
 	}
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions, r.AlongParts} {
 		sort.Strings(l)
 	}
 	return r
