@@ -17,6 +17,13 @@ import (
 // under it). A change may lower it, never raise it.
 const alongPartCeiling = 216
 
+// commonLeadCeiling is how many crossings, on the same pages, lie on the
+// run of wire leaving a device's emitter, source or cathode (render/check's
+// CommonLeads: review18 b04's bootstrap wire across the driver's emitter
+// lead), as measured when the count began (13: twelve of them a base
+// bias line across an emitter lead on a faded sheet). Lower only.
+const commonLeadCeiling = 13
+
 // alongPartFiles are the circuits TestPartsNotShorted reads: the examples
 // and every blind review's.
 func alongPartFiles(t *testing.T) []string {
@@ -33,10 +40,11 @@ func alongPartFiles(t *testing.T) []string {
 }
 
 // TestPartsNotShorted counts the parts drawn with a wire of their own net
-// alongside them against alongPartCeiling; every one is logged.
+// alongside them against alongPartCeiling, and the crossings on a common
+// electrode's lead against commonLeadCeiling; every one is logged.
 func TestPartsNotShorted(t *testing.T) {
 	files := alongPartFiles(t)
-	n := 0
+	n, leads := 0, 0
 	for _, f := range files {
 		for _, v := range []render.View{render.Reduced, render.Faded} {
 			pages, err := cachedPages(f, v, "A3")
@@ -44,14 +52,23 @@ func TestPartsNotShorted(t *testing.T) {
 				t.Fatal(err)
 			}
 			for i, g := range pages {
+				name := filepath.Join(filepath.Base(filepath.Dir(f)), filepath.Base(f))
 				for _, p := range measured(g).AlongParts {
 					n++
-					t.Logf("%s %s page %d: %s", filepath.Join(filepath.Base(filepath.Dir(f)), filepath.Base(f)), v, i+1, p)
+					t.Logf("%s %s page %d: %s", name, v, i+1, p)
+				}
+				for _, p := range measured(g).CommonLeads {
+					leads++
+					t.Logf("%s %s page %d: %s", name, v, i+1, p)
 				}
 			}
 		}
 	}
 	t.Logf("parts with a wire of their own net beside them: %d (ceiling %d)", n, alongPartCeiling)
+	t.Logf("crossings on a common electrode's lead: %d (ceiling %d)", leads, commonLeadCeiling)
+	if leads > commonLeadCeiling {
+		t.Errorf("%d crossings on a common electrode's lead, ceiling %d: the log lists them", leads, commonLeadCeiling)
+	}
 	if n > alongPartCeiling {
 		t.Errorf("%d parts drawn with a wire of their own net beside them, ceiling %d: the log lists them", n, alongPartCeiling)
 	}

@@ -69,6 +69,10 @@ type Report struct {
 	// nets drawn beside them, parallel and close, over most of their
 	// length: the part reads as shorted by it (alongpart.go).
 	AlongParts []string
+	// CommonLeads are crossings on the run of wire leaving a device's
+	// emitter, source or cathode: the crossing wire reads as joined to the
+	// lead (leads.go).
+	CommonLeads []string
 	// LongWires are nets wired much longer than their stage is wide
 	// (reported, not a fault).
 	LongWires []string
@@ -212,11 +216,12 @@ func Measure(g *geom.Sheet) *Report {
 	r.nearDots(g, segs, xs)
 	r.nearPins(g, xs)
 	r.alongParts(g)
+	r.commonLeads(g, xs)
 	r.connectivity(g, segs)
 	if g.PageMM > 0 {
 		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)
 	}
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions, r.AlongParts} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions, r.AlongParts, r.CommonLeads} {
 		sort.Strings(l)
 	}
 	return r

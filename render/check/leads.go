@@ -55,3 +55,63 @@ func (r *Report) nearPins(g *geom.Sheet, xs []crossing) {
 		}
 	}
 }
+
+// commonPins are the common electrode's pin name by symbol kind: the
+// emitter, source or cathode whose lead a reader follows down to its
+// resistor and bypass.
+var commonPins = map[string]string{"bjt": "e", "fet": "s", "valve": "k"}
+
+// commonLeads finds crossings on the straight run of wire that leaves a
+// device's common electrode: a wire drawn across an emitter or cathode
+// lead reads as joined to it (review18 b04: the bootstrap wire across the
+// driver's emitter lead). One finding per crossing.
+func (r *Report) commonLeads(g *geom.Sheet, xs []crossing) {
+	for _, s := range g.Symbols {
+		name, ok := commonPins[s.Kind]
+		if !ok {
+			continue
+		}
+		for _, p := range s.Pins {
+			if p.Name != name {
+				continue
+			}
+			for _, w := range g.Wires {
+				if w.Net != p.Net {
+					continue
+				}
+				for _, sg := range w.Segs {
+					if !samePt(sg.A, p.At) && !samePt(sg.B, p.At) {
+						continue
+					}
+					for _, x := range xs {
+						if (x.a == p.Net || x.b == p.Net) && inside(sg, x.at) {
+							r.CommonLeads = append(r.CommonLeads, fmt.Sprintf("wire of %s crosses %s's %s lead (%s) at %s", otherNet(x, p.Net), s.Ref, name, p.Net, pt(x.at)))
+						}
+					}
+				}
+			}
+		}
+	}
+}
+
+// samePt says whether two points are one.
+func samePt(a, b geom.Pt) bool {
+	return math.Abs(a.X-b.X) < geom.Eps && math.Abs(a.Y-b.Y) < geom.Eps
+}
+
+// inside says whether point q lies on segment s short of its ends.
+func inside(s geom.Seg, q geom.Pt) bool {
+	b := s.Box()
+	if s.Horizontal() {
+		return math.Abs(q.Y-b.Y0) < geom.Eps && q.X > b.X0+geom.Eps && q.X < b.X1-geom.Eps
+	}
+	return math.Abs(q.X-b.X0) < geom.Eps && q.Y > b.Y0+geom.Eps && q.Y < b.Y1-geom.Eps
+}
+
+// otherNet is the net of a crossing that is not net.
+func otherNet(x crossing, net string) string {
+	if x.a == net {
+		return x.b
+	}
+	return x.a
+}

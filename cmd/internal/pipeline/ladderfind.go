@@ -96,7 +96,10 @@ func ladderArms(parts []string, c *graph.Circuit, in map[string]bool) []arm {
 				refs = append(refs, k.Part.Ref)
 			}
 		}
-		if len(refs) != 2 || !slices.Contains(refs, from) {
+		// a coil in series with a capacitor is a tuned arm (a Clapp's
+		// L and C, which read as a ladder wound the oscillator's tank
+		// round on the faded sheet), not an RC ladder's
+		if len(refs) != 2 || !slices.Contains(refs, from) || c.Part(refs[0]).Kind == graph.Inductor || c.Part(refs[1]).Kind == graph.Inductor {
 			return ""
 		}
 		if refs[0] == from {
