@@ -1,0 +1,163 @@
+package main
+
+import (
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"pare/graph"
+	"pare/render"
+	"pare/render/check"
+	"pare/render/geom"
+	"pare/render/layout"
+)
+
+// Ceilings of the lead crossings the blind review (review18) rejected
+// faded views for, over the examples and review13..18 cut onto A3 (the
+// sheets a reader gets), lower only. Measured when set: a tapped winding's
+// tap lead crossing a lead of the capacitor tuning that winding 53; a
+// multi-grid valve's anode lead crossing the lead of its screen, cathode or
+// injector grid 24.
+const (
+	tapCrossCeiling   = 53
+	anodeCrossCeiling = 24
+)
+
+// TestFadedLeadsUntangled counts, on the faded view's pages, the two
+// classes of tangle the review named: the collector's (anode's) lead to a
+// tuned winding's tap crossing the tuning capacitor's lead (the capacitor
+// stood between the device and the tap), and a pentode's, hexode's or
+// heptode's anode lead crossing its screen, cathode or injector lead. Common
+// practice on a service sheet: the leads of one part leave it without
+// crossing each other. Each count may only fall.
+func TestFadedLeadsUntangled(t *testing.T) {
+	files := append(exampleFiles(t), fadedLeadCases(t)...)
+	warmSheets(files, "A3")
+	tap, anode := 0, 0
+	for _, file := range files {
+		c := cachedResult(t, file).Circuit
+		pages, err := cachedPages(file, render.Faded, "A3")
+		if err != nil {
+			t.Fatal(err)
+		}
+		nt, na := tapCrossings(c, pages), anodeCrossings(c, pages)
+		if nt+na > 0 {
+			t.Logf("%s/%s: tap over tuning lead %d, anode over screen/cathode %d",
+				filepath.Base(filepath.Dir(file)), filepath.Base(file), nt, na)
+		}
+		tap += nt
+		anode += na
+	}
+	t.Logf("tap leads over tuning leads %d (ceiling %d), anode leads over screen/cathode leads %d (ceiling %d)",
+		tap, tapCrossCeiling, anode, anodeCrossCeiling)
+	if tap > tapCrossCeiling {
+		t.Errorf("%d crossings of a tap lead with its tuning capacitor's leads, ceiling %d", tap, tapCrossCeiling)
+	}
+	if anode > anodeCrossCeiling {
+		t.Errorf("%d crossings of a multi-grid valve's anode lead with its other electrodes' leads, ceiling %d", anode, anodeCrossCeiling)
+	}
+}
+
+// fadedLeadCases are the blind reviews' circuits review13..18.
+func fadedLeadCases(t *testing.T) []string {
+	t.Helper()
+	var out []string
+	for _, dir := range []string{"review13", "review14", "review15", "review16", "review17", "review18"} {
+		files, err := filepath.Glob(filepath.Join("../../testdata", dir, "*.toml"))
+		if err != nil || len(files) == 0 {
+			t.Fatalf("no review circuits in testdata/%s: %v", dir, err)
+		}
+		out = append(out, files...)
+	}
+	return out
+}
+
+// tapCrossings counts, for each capacitor tuning a tapped winding, the
+// crossings of the tap's wires with the capacitor's two nets' wires on
+// one page.
+func tapCrossings(c *graph.Circuit, pages []*geom.Sheet) int {
+	n := 0
+	for _, tk := range layout.Tanks(c) {
+		coil, cp := c.Part(tk.Coil), c.Part(tk.Cap)
+		if coil == nil || cp == nil || !strings.HasSuffix(tk.Ends[0], "1") {
+			continue
+		}
+		tapNet := pinNet(coil, strings.TrimSuffix(tk.Ends[0], "1")+"t")
+		if tapNet == "" {
+			continue
+		}
+		var others []string
+		for _, pn := range cp.Pins {
+			if pn.Net != tapNet && !c.RoleOf(pn.Net).IsACGround() {
+				others = append(others, pn.Net)
+			}
+		}
+		n += netCrossings(pages, tapNet, others)
+	}
+	return n
+}
+
+// anodeCrossings counts, for each valve with a screen grid, the crossings
+// of its anode's wires with the wires of its other electrodes but the
+// control grid (screen, suppressor, injector grid, cathode) on one page.
+func anodeCrossings(c *graph.Circuit, pages []*geom.Sheet) int {
+	n := 0
+	for _, p := range c.Parts {
+		if p.Kind != graph.Valve || pinNet(p, "g2") == "" {
+			continue
+		}
+		anode := pinNet(p, "a")
+		if anode == "" {
+			continue
+		}
+		var others []string
+		for _, pn := range p.Pins {
+			switch {
+			case pn.Name == "a" || pn.Name == "g1" || pn.Name == "s" || strings.HasPrefix(pn.Name, "h"):
+			case pn.Net == anode || pn.Net == "" || c.RoleOf(pn.Net).IsACGround():
+			default:
+				others = append(others, pn.Net)
+			}
+		}
+		n += netCrossings(pages, anode, others)
+	}
+	return n
+}
+
+// netCrossings counts the crossings of net a's wires with the wires of
+// each distinct net of bs, page by page.
+func netCrossings(pages []*geom.Sheet, a string, bs []string) int {
+	seen := map[string]bool{}
+	n := 0
+	for _, b := range bs {
+		if seen[b] || b == a {
+			continue
+		}
+		seen[b] = true
+		for _, g := range pages {
+			n += check.CrossCount(netSegs(g, a), netSegs(g, b))
+		}
+	}
+	return n
+}
+
+// netSegs are all the segments of net's wires on one page.
+func netSegs(g *geom.Sheet, net string) []geom.Seg {
+	var out []geom.Seg
+	for _, w := range g.Wires {
+		if w.Net == net {
+			out = append(out, w.Segs...)
+		}
+	}
+	return out
+}
+
+// pinNet is the net on p's pin name, or "".
+func pinNet(p *graph.Part, name string) string {
+	for _, pn := range p.Pins {
+		if pn.Name == name {
+			return pn.Net
+		}
+	}
+	return ""
+}
