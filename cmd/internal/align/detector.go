@@ -257,7 +257,7 @@ func onLoadPart(c *graph.Circuit, det *stages.Stage, diode *graph.Part, net stri
 			continue
 		}
 		nets := netsOf(p)
-		if slices.Contains(nets, net) && !slices.ContainsFunc(nets, func(n string) bool { return n != net && slices.Contains(netsOf(diode), n) }) {
+		if slices.Contains(nets, net) && !slices.ContainsFunc(nets, func(n string) bool { return n != net && hasNet(diode, n) }) {
 			return true
 		}
 	}

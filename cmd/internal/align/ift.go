@@ -209,6 +209,13 @@ func netsOf(p *graph.Part) []string {
 	return out
 }
 
+// hasNet reports whether one of p's pins is on net, as
+// slices.Contains(netsOf(p), net) does, without making the slice: the
+// tank and trap searches ask it of every part of the circuit.
+func hasNet(p *graph.Part, net string) bool {
+	return net != "" && slices.ContainsFunc(p.Pins, func(pin graph.Pin) bool { return pin.Net == net })
+}
+
 // trimmersOn are the trimmer capacitors with a pin on one of the nets, in
 // the circuit's order.
 func trimmersOn(c *graph.Circuit, nets []string) []*graph.Part {

@@ -54,14 +54,16 @@ func (g *Guide) tracking(c *graph.Circuit, sts []stages.Stage) {
 // that holds the section.
 func loopOscillator(c *graph.Circuit, sts []stages.Stage) *stages.Stage {
 	for i := range sts {
-		st := withGang(c, sts[i])
-		if oscTank(c, &st).gang == nil {
+		// the loop first: withGang walks the circuit, and adds parts only
+		oscillates := slices.ContainsFunc(sts[i].Loop, func(l stages.Loop) bool {
+			_, _, _, _, ok := l.Range()
+			return ok
+		})
+		if !oscillates {
 			continue
 		}
-		for _, l := range st.Loop {
-			if _, _, _, _, ok := l.Range(); ok {
-				return &st
-			}
+		if st := withGang(c, sts[i]); oscTank(c, &st).gang != nil {
+			return &st
 		}
 	}
 	return nil
@@ -88,19 +90,25 @@ func withGang(c *graph.Circuit, st stages.Stage) stages.Stage {
 			}
 		}
 	}
+	// Every stage of a set asks this of every capacitor, so the pins are
+	// read in place (netsOf's order, a repeated net asked again, which
+	// changes nothing) rather than through a slice made per part.
+	onNets := func(p *graph.Part) bool {
+		return slices.ContainsFunc(p.Pins, func(pin graph.Pin) bool { return pin.Net != "" && nets[pin.Net] })
+	}
 	for _, hop := range []bool{false, true} {
 		for _, p := range c.Parts {
-			if p.Kind != graph.Capacitor || len(p.Pins) != 2 || p.Type == graph.CapVariable || !hop {
+			if !hop || p.Kind != graph.Capacitor || len(p.Pins) != 2 || p.Type == graph.CapVariable {
 				continue
 			}
-			for _, n := range netsOf(p) {
-				if nets[n] && !c.RoleOf(otherNet(p, n)).IsACGround() {
+			for _, pin := range p.Pins {
+				if n := pin.Net; n != "" && nets[n] && !c.RoleOf(otherNet(p, n)).IsACGround() {
 					nets[otherNet(p, n)] = true
 				}
 			}
 		}
 		for _, p := range c.Parts {
-			if p.Kind == graph.Capacitor && p.Gang != "" && p.Type == graph.CapVariable && slices.ContainsFunc(netsOf(p), func(n string) bool { return nets[n] }) {
+			if p.Kind == graph.Capacitor && p.Gang != "" && p.Type == graph.CapVariable && onNets(p) {
 				st.Parts = append(slices.Clone(st.Parts), p.Ref)
 				return st
 			}

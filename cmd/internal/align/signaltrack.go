@@ -63,10 +63,12 @@ func signalTanks(c *graph.Circuit, sts []stages.Stage) []dialTank {
 func oscSections(c *graph.Circuit, sts []stages.Stage) map[*graph.Part]bool {
 	out := map[*graph.Part]bool{}
 	for i := range sts {
-		st := withGang(c, sts[i])
-		_, mixer := st.Figures.Get("if")
+		// withGang adds parts only: the figures and loops asked first are
+		// the stage's own, and the walk over the circuit is made only for
+		// a stage that is a mixer or oscillates
+		_, mixer := sts[i].Figures.Get("if")
 		oscillates := false
-		for _, l := range st.Loop {
+		for _, l := range sts[i].Loop {
 			if _, _, _, _, ok := l.Range(); ok {
 				oscillates = true
 			}
@@ -74,6 +76,7 @@ func oscSections(c *graph.Circuit, sts []stages.Stage) map[*graph.Part]bool {
 		if !mixer && !oscillates {
 			continue
 		}
+		st := withGang(c, sts[i])
 		if t := oscTank(c, &st); t.gang != nil {
 			out[t.gang] = true
 		}

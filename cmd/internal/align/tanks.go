@@ -1,8 +1,6 @@
 package align
 
 import (
-	"slices"
-
 	"pare/graph"
 	"pare/rules/stages"
 )
@@ -36,13 +34,13 @@ func tankOn(c *graph.Circuit, vc *graph.Part) tank {
 		// trimmer across the capacitor's own two nets is in shunt, never
 		// a padder, and the coil is the one across them.
 		for _, p := range trimmersOn(c, ends) {
-			if p != vc && slices.Contains(netsOf(p), ends[0]) && slices.Contains(netsOf(p), ends[1]) {
+			if p != vc && hasNet(p, ends[0]) && hasNet(p, ends[1]) {
 				t.trimmer = p
 				break
 			}
 		}
 		for _, p := range c.Parts {
-			if (p.Kind == graph.Inductor || p.Kind == graph.Transformer) && slices.Contains(netsOf(p), ends[0]) && slices.Contains(netsOf(p), ends[1]) {
+			if (p.Kind == graph.Inductor || p.Kind == graph.Transformer) && hasNet(p, ends[0]) && hasNet(p, ends[1]) {
 				t.coil = p
 				break
 			}
@@ -78,7 +76,7 @@ func coldPadder(c *graph.Circuit, coil *graph.Part, hot string) *graph.Part {
 	}
 	for _, p := range c.Parts {
 		if p.Kind == graph.Capacitor && len(p.Pins) == 2 && p.Type != graph.CapVariable &&
-			slices.Contains(netsOf(p), cold) && c.RoleOf(otherNet(p, cold)).IsACGround() {
+			hasNet(p, cold) && c.RoleOf(otherNet(p, cold)).IsACGround() {
 			return p
 		}
 	}
@@ -174,7 +172,7 @@ func seriesCap(c *graph.Circuit, net string, gang *graph.Part) *graph.Part {
 		if p == gang || p.Kind != graph.Capacitor || len(p.Pins) != 2 || p.Type == graph.CapVariable {
 			continue
 		}
-		if slices.Contains(netsOf(p), net) && !c.RoleOf(otherNet(p, net)).IsACGround() && coilOn(c, otherNet(p, net)) != nil {
+		if hasNet(p, net) && !c.RoleOf(otherNet(p, net)).IsACGround() && coilOn(c, otherNet(p, net)) != nil {
 			return p
 		}
 	}
@@ -184,7 +182,7 @@ func seriesCap(c *graph.Circuit, net string, gang *graph.Part) *graph.Part {
 // coilOn is the coil or transformer with a pin on net.
 func coilOn(c *graph.Circuit, net string) *graph.Part {
 	for _, p := range c.Parts {
-		if (p.Kind == graph.Inductor || p.Kind == graph.Transformer) && slices.Contains(netsOf(p), net) {
+		if (p.Kind == graph.Inductor || p.Kind == graph.Transformer) && hasNet(p, net) {
 			return p
 		}
 	}

@@ -3,7 +3,6 @@ package align
 import (
 	"fmt"
 	"math"
-	"slices"
 
 	"pare/graph"
 )
@@ -63,12 +62,12 @@ func (g *Guide) trapSteps(c *graph.Circuit) {
 func ifTraps(c *graph.Circuit, in string, ifHz float64) []trap {
 	var out []trap
 	for _, l := range c.Parts {
-		if l.Kind != graph.Inductor || len(l.Pins) != 2 || !slices.Contains(netsOf(l), in) {
+		if l.Kind != graph.Inductor || len(l.Pins) != 2 || !hasNet(l, in) {
 			continue
 		}
 		mid := otherNet(l, in)
 		for _, cp := range c.Parts {
-			if cp.Kind != graph.Capacitor || len(cp.Pins) != 2 || cp.Type == graph.CapVariable || !slices.Contains(netsOf(cp), mid) {
+			if cp.Kind != graph.Capacitor || len(cp.Pins) != 2 || cp.Type == graph.CapVariable || !hasNet(cp, mid) {
 				continue
 			}
 			far := otherNet(cp, mid)

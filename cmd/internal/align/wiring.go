@@ -107,8 +107,14 @@ func signalNets(c *graph.Circuit, p *graph.Part) []string {
 // the can whose secondary drives the device feeding it. Cans the wiring
 // does not order keep the stages' order.
 func orderCans(c *graph.Circuit, cans []*graph.Part) []*graph.Part {
+	// each can's feeder is found once: the pick below asks it of every
+	// pair left, and finding it walks the whole circuit (a bank's cans)
+	feeder := make(map[*graph.Part]*graph.Part, len(cans))
+	for _, b := range cans {
+		feeder[b] = outputFeeder(c, b)
+	}
 	fedBy := func(b, a *graph.Part) bool {
-		f := outputFeeder(c, b)
+		f := feeder[b]
 		return f != nil && gridOn(f, signalNets(c, a))
 	}
 	rest := slices.Clone(cans)
