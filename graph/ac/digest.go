@@ -17,6 +17,9 @@ type digest struct {
 func (d *digest) put(vs ...uint64) {
 	if d.h == nil {
 		d.h = sha256.New()
+		// a small piece's key fits at once and a whole block's grows
+		// in a few doublings, not from eight bytes up
+		d.buf = make([]byte, 0, 1024)
 	}
 	for _, v := range vs {
 		d.buf = binary.LittleEndian.AppendUint64(d.buf, v)
