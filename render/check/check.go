@@ -95,6 +95,9 @@ type Report struct {
 	// finding). LocalsNear are those within a grid step: a reader may
 	// take them so too.
 	LocalsOn, LocalsNear []string
+	// TagsOnParts are rail tags closer than half a grid step to a part's
+	// body or pins (tags.go): the tag reads as the part's label.
+	TagsOnParts []string
 	Crossings            int   // wire–wire crossings of different nets
 	FrameCrossings       []int // crossings inside each frame, in frame order
 	Bends                int   // bends over all wires
@@ -208,6 +211,7 @@ func Measure(g *geom.Sheet) *Report {
 	r.misreadings(segs, boxes, &bix)
 	r.endsNear(g, segs)
 	r.localsNear(g, segs)
+	r.tagsOnParts(g)
 	r.longWires(g)
 	r.farTanks(g)
 	r.mixerOrder(g)
@@ -221,7 +225,7 @@ func Measure(g *geom.Sheet) *Report {
 	if g.PageMM > 0 {
 		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)
 	}
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions, r.AlongParts, r.CommonLeads} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.TagsOnParts, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions, r.AlongParts, r.CommonLeads} {
 		sort.Strings(l)
 	}
 	return r

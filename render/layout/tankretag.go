@@ -192,9 +192,19 @@ func (ly *state) tankTaken(b *block, cp *cell, skip map[int]bool) []geom.Rect {
 	return taken
 }
 
-// localBoxes are a local symbol's box and its stub's.
+// tagClear is the margin a part keeps from a rail tag's bar and text,
+// render/check's (a capacitor touching a centre tap's "HT +300 V" read as
+// the tag's own part, review18 a04's C8).
+const tagClear = 0.5
+
+// localBoxes are a local symbol's box and its stub's; a rail tag's box
+// grown by tagClear, so a capacitor stands clear of it, not touching it.
 func localBoxes(l geom.Local) []geom.Rect {
-	out := []geom.Rect{l.Box}
+	b := l.Box
+	if l.Kind == geom.LocalRail {
+		b = b.Inset(tagClear)
+	}
+	out := []geom.Rect{b}
 	for _, st := range l.Stub {
 		out = append(out, st.Box())
 	}
