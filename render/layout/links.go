@@ -7,9 +7,17 @@ import (
 	"pare/render/geom"
 )
 
-// links joins ganged sections by a dashed line where one can be drawn clear
-// of every symbol, label and local symbol; the gang is named in the labels
-// in any case.
+// linkReach is the longest mechanical link drawn, in grid steps along its
+// path: a longer one, run round the drawing, closed with the sections'
+// own lines into a dashed loop that read as a stage frame (review18 b02).
+// Sections further apart are joined by their labels alone ("gang tune"
+// beside each, cells.go), as the trade marks ganged sections drawn apart.
+const linkReach = 12.0
+
+// links joins ganged sections by a short dashed line, straight or with one
+// bend, between the sections' centres, where one can be drawn clear of
+// every symbol, label and local symbol; the gang is named in the labels in
+// any case.
 func (ly *state) links(g *geom.Sheet) []geom.Link {
 	byGang := map[string][]*cell{}
 	var names []string
@@ -22,15 +30,12 @@ func (ly *state) links(g *geom.Sheet) []geom.Link {
 		}
 	}
 	sort.Strings(names)
-	// a link between far-apart sections runs above or below everything drawn
-	ext := bounds(g)
-	over, under := math.Floor(ext.Y0)-1.5, math.Ceil(ext.Y1)+1.5
 	var out []geom.Link
 	for _, name := range names {
 		cs := byGang[name]
 		for i := 0; i+1 < len(cs); i++ {
 			a, b := cs[i], cs[i+1]
-			if path := ly.linkPath(g, a, b, over, under); path != nil {
+			if path := ly.linkPath(g, a, b); path != nil {
 				out = append(out, geom.Link{Name: name, Path: path})
 			}
 		}
@@ -38,48 +43,26 @@ func (ly *state) links(g *geom.Sheet) []geom.Link {
 	return out
 }
 
-// linkPaths are the ways a link may run between two sections, shortest
-// first: straight across from centre to centre (an L), then out of a side
-// of each symbol (the trade draws the link from the sections' sides) and
-// round above or below the whole drawing.
-func linkPaths(ba, bb geom.Rect, over, under float64) [][]geom.Pt {
+// linkPaths are the ways a link may run between two sections: straight
+// across from centre to centre (an L when they are not level), across
+// first or down first; none when the way is longer than linkReach.
+func linkPaths(ba, bb geom.Rect) [][]geom.Pt {
 	pa, pb := center(ba), center(bb)
-	out := [][]geom.Pt{
+	if math.Abs(pa.X-pb.X)+math.Abs(pa.Y-pb.Y) > linkReach+geom.Eps {
+		return nil
+	}
+	return [][]geom.Pt{
 		{pa, {X: pb.X, Y: pa.Y}, pb},
 		{pa, {X: pa.X, Y: pb.Y}, pb},
-		{pa, {X: pa.X, Y: over}, {X: pb.X, Y: over}, pb},
 	}
-	// out of a side, one to three steps clear of it, so the link can keep
-	// off a wire leaving the symbol there
-	side := func(r geom.Rect, left bool, d float64) (edge, out geom.Pt) {
-		c := center(r)
-		if left {
-			return geom.Pt{X: r.X0, Y: c.Y}, geom.Pt{X: r.X0 - d, Y: c.Y}
-		}
-		return geom.Pt{X: r.X1, Y: c.Y}, geom.Pt{X: r.X1 + d, Y: c.Y}
-	}
-	for _, via := range []float64{over, under} {
-		for _, leftA := range []bool{true, false} {
-			for _, leftB := range []bool{true, false} {
-				for _, da := range []float64{1, 2, 3} {
-					for _, db := range []float64{1, 2, 3} {
-						ea, oa := side(ba, leftA, da)
-						eb, ob := side(bb, leftB, db)
-						out = append(out, []geom.Pt{ea, oa, {X: oa.X, Y: via}, {X: ob.X, Y: via}, ob, eb})
-					}
-				}
-			}
-		}
-	}
-	return out
 }
 
 // linkPath is the first way clear of every symbol, label and local symbol
 // that also runs along no wire (a dashed line on a wire would read as part
 // of it); failing that, the first clear one.
-func (ly *state) linkPath(g *geom.Sheet, a, b *cell, over, under float64) []geom.Pt {
+func (ly *state) linkPath(g *geom.Sheet, a, b *cell) []geom.Pt {
 	var clear []geom.Pt
-	for _, path := range linkPaths(a.shape.Box, b.shape.Box, over, under) {
+	for _, path := range linkPaths(a.shape.Box, b.shape.Box) {
 		if !ly.linkClear(g, path, a.ref, b.ref) {
 			continue
 		}
