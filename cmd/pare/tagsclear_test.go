@@ -71,4 +71,3 @@ func TestRailTagsClearOfParts(t *testing.T) {
 		t.Errorf("%d rail tags closer than half a grid step to a part (ceiling %d); the log lists them", n, tagsOnPartsCeiling)
 	}
 }
-

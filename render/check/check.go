@@ -97,12 +97,12 @@ type Report struct {
 	LocalsOn, LocalsNear []string
 	// TagsOnParts are rail tags closer than half a grid step to a part's
 	// body or pins (tags.go): the tag reads as the part's label.
-	TagsOnParts []string
-	Crossings            int   // wire–wire crossings of different nets
-	FrameCrossings       []int // crossings inside each frame, in frame order
-	Bends                int   // bends over all wires
-	MaxBends             int   // most bends on one net
-	Flagged              int   // nets drawn with net-name flags instead of wires
+	TagsOnParts    []string
+	Crossings      int   // wire–wire crossings of different nets
+	FrameCrossings []int // crossings inside each frame, in frame order
+	Bends          int   // bends over all wires
+	MaxBends       int   // most bends on one net
+	Flagged        int   // nets drawn with net-name flags instead of wires
 }
 
 // Problems lists every fatal finding: overlaps, wires through symbols,
