@@ -117,22 +117,35 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 		}
 	}
 	if loose >= 0 {
-		pages = stackLoose(pages, ys, laid[loose], avail)
+		pages = stackLoose(pages, ys, laid[loose], cw, avail)
 	}
 	return pages, nil
 }
 
 // stackLoose puts the row of loose parts (hostLoose found no row to take
-// them) under the rows of the last page with room for it, else on a page
-// of its own: out of signal order it costs nothing, a page of its own a
-// sheet with no stage on it.
-func stackLoose(pages []*layout.Result, ys []float64, r *layout.Result, avail float64) []*layout.Result {
+// them) under the rows of the last page with room for it, else in the free
+// room of a page among what it holds (looseSpot), and only short of both
+// on a page of its own: out of signal order it costs nothing, a page of
+// its own a sheet with no stage on it.
+func stackLoose(pages []*layout.Result, ys []float64, r *layout.Result, cw, avail float64) []*layout.Result {
 	b := r.Geom.Bounds
 	k := len(pages) - 1
 	for k >= 0 && ys[k]+b.H() > avail {
 		k--
 	}
 	if k < 0 {
+		// no band under any page's rows: room among what a page holds,
+		// from the last page (the supply's) back
+		for j := len(pages) - 1; j >= 0; j-- {
+			if math.IsInf(ys[j], 1) {
+				continue // a page kept alone for a row too big, drawn smaller
+			}
+			if at, ok := looseSpot(pages[j], b, cw, avail); ok {
+				pages[j].Add(r.Moved(geom.Pt{X: at.X - b.X0, Y: at.Y - b.Y0}))
+				return pages
+			}
+		}
+
 		pages, ys, k = append(pages, &layout.Result{}), append(ys, 0), len(pages)
 	}
 	pages[k].Add(r.Moved(geom.Pt{X: -b.X0, Y: ys[k] - b.Y0}))

@@ -16,6 +16,25 @@ import (
 // A change may lower it, never raise it.
 var tagsOnPartsCeiling = 0
 
+// sheetFixtures are the circuits the sheet-furniture counts run over: the
+// gallery, the examples and the blind-review circuits of testdata/review13
+// to review18. PARE_SHEETS_ONLY keeps those whose path holds it (a quick
+// look at one family while working; the ceilings hold for the whole set).
+func sheetFixtures(t *testing.T) []string {
+	t.Helper()
+	files := append(readSheets(t), reviewCircuitsFrom(t, "review13", "review14", "review15", "review16", "review17", "review18")...)
+	if only := os.Getenv("PARE_SHEETS_ONLY"); only != "" {
+		var keep []string
+		for _, f := range files {
+			if strings.Contains(f, only) {
+				keep = append(keep, f)
+			}
+		}
+		files = keep
+	}
+	return files
+}
+
 // reviewCircuitsFrom lists the circuits of the named review folders; a
 // folder with none fails the test.
 func reviewCircuitsFrom(t *testing.T, dirs ...string) []string {
@@ -36,16 +55,7 @@ func reviewCircuitsFrom(t *testing.T, dirs ...string) []string {
 // or as the part tied to the rail (review18 a04's C8, b05's C20). Every
 // finding is logged; the count stays under tagsOnPartsCeiling.
 func TestRailTagsClearOfParts(t *testing.T) {
-	files := append(readSheets(t), reviewCircuitsFrom(t, "review13", "review14", "review15", "review16", "review17", "review18")...)
-	if only := os.Getenv("PARE_TAGS_ONLY"); only != "" {
-		var keep []string
-		for _, f := range files {
-			if strings.Contains(f, only) {
-				keep = append(keep, f)
-			}
-		}
-		files = keep
-	}
+	files := sheetFixtures(t)
 	warmSheets(files, "A3")
 	n := 0
 	for _, f := range files {
