@@ -12,7 +12,7 @@ import (
 // own lines into a dashed loop that read as a stage frame (review18 b02).
 // Sections further apart are joined by their labels alone ("gang tune"
 // beside each, cells.go), as the trade marks ganged sections drawn apart.
-const linkReach = 12.0
+const linkReach = 20.0
 
 // links joins ganged sections by a short dashed line, straight or with one
 // bend, between the sections' centres, where one can be drawn clear of

@@ -17,8 +17,9 @@ func TestLinkPathsShortOnly(t *testing.T) {
 		offers bool
 	}{
 		{"level, 8 apart", sq(0, 0), sq(8, 0), true},
-		{"one bend, 6 + 6", sq(0, 0), sq(6, 6), true},
-		{"one bend, 7 + 6", sq(0, 0), sq(7, 6), false},
+		{"one bend, 3 + 13 (neighbouring sections)", sq(0, 0), sq(13, 3), true},
+		{"one bend, 10 + 10", sq(0, 0), sq(10, 10), true},
+		{"one bend, 11 + 10", sq(0, 0), sq(11, 10), false},
 		{"far across the sheet", sq(0, 0), sq(40, 20), false},
 	}
 	for _, c := range cases {
