@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"slices"
 	"strings"
 	"testing"
 
@@ -311,13 +312,25 @@ func bridged(g geom.Sheet, net string, a, b geom.Pt) bool {
 	return lo >= hi
 }
 
-// TestGangLink: ganged sections are joined by a dashed mechanical link from
-// one body to the other, clear of every other symbol (common practice for a
-// full view).
+// TestGangLink: ganged sections drawn near each other are joined by a
+// short dashed mechanical link from one body to the other, clear of every
+// other symbol (common practice for a full view); sections drawn far apart
+// (the padded tank's VC1 and a grid section 39 steps off) get no link run
+// round the drawing, which closed into a loop read as a frame (review18
+// b02), but each its "gang tune" in its label.
 func TestGangLink(t *testing.T) {
-	const ganged = paddedTank + `VC2 = { c = "5p..50p", pins = ["g", "gnd"], gang = "tune" }
+	const near = `title = "near"
+band = "1M..2M"
+inputs = ["in"]
+outputs = ["out"]
+[parts]
+VC1 = { c = "10p..100p", pins = ["in", "gnd"], gang = "tune" }
+R1 = { r = "1k", pins = ["in", "out"] }
+VC2 = { c = "10p..100p", pins = ["out", "gnd"], gang = "tune" }
 `
-	res, err := Layout(parse(t, ganged), Options{Links: true})
+	const far = paddedTank + `VC2 = { c = "5p..50p", pins = ["g", "gnd"], gang = "tune" }
+`
+	res, err := Layout(parse(t, near), Options{Links: true})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -327,8 +340,8 @@ func TestGangLink(t *testing.T) {
 	l := res.Geom.Links[0]
 	a, b := symbolOf(t, &res.Geom, "VC1").Box, symbolOf(t, &res.Geom, "VC2").Box
 	ends := []geom.Pt{l.Path[0], l.Path[len(l.Path)-1]}
-	if l.Name != "tune" || !a.Contains(ends[0]) || !b.Contains(ends[1]) {
-		t.Errorf("link %q from %v to %v, want tune from VC1 %v to VC2 %v", l.Name, ends[0], ends[1], a, b)
+	if l.Name != "tune" || !a.Contains(ends[0]) || !b.Contains(ends[1]) || len(l.Path) > 3 {
+		t.Errorf("link %q from %v to %v by %v, want tune from VC1 %v to VC2 %v, one bend at most", l.Name, ends[0], ends[1], l.Path, a, b)
 	}
 	for k := 0; k+1 < len(l.Path); k++ {
 		seg := geom.Seg{A: l.Path[k], B: l.Path[k+1]}
@@ -338,8 +351,24 @@ func TestGangLink(t *testing.T) {
 			}
 		}
 	}
-	if plain, _ := Layout(parse(t, ganged), Options{}); len(plain.Geom.Links) != 0 {
+	if plain, _ := Layout(parse(t, near), Options{}); len(plain.Geom.Links) != 0 {
 		t.Error("a link drawn without Links")
+	}
+	res, err = Layout(parse(t, far), Options{Links: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(res.Geom.Links) != 0 {
+		t.Errorf("far sections linked by %v, want their labels alone", res.Geom.Links)
+	}
+	for _, ref := range []string{"VC1", "VC2"} {
+		named := false
+		for _, lb := range res.Geom.Labels {
+			named = named || lb.Owner == ref && slices.Contains(lb.Lines, "gang tune")
+		}
+		if !named {
+			t.Errorf("%s's label does not name its gang", ref)
+		}
 	}
 }
 
