@@ -1,6 +1,10 @@
 package layout
 
-import "sort"
+import (
+	"sort"
+
+	"pare/graph"
+)
 
 // order sorts the blocks of each column by the barycentre of their
 // neighbours in the columns before (sweeping right) and after (sweeping
@@ -41,6 +45,12 @@ func (ly *state) order(cols [][]*block) {
 				// a part on rails only (a battery, a heater bypass) stands
 				// under the signal path's parts, not among them
 				k = 3
+			}
+			if ly.entersCommon(b.cells[0]) {
+				// a source entering on a common electrode (an injected
+				// oscillator) stands under the input that enters on the
+				// control electrode, as the electrodes stand
+				k = 2
 			}
 			if _, sunk := ly.turns[sinkKey+b.cells[0].ref]; sunk {
 				k += 3
@@ -93,4 +103,26 @@ func (ly *state) sweep(col []*block, from int, byNet map[string][]*block) {
 	for k, b := range col {
 		b.pos = float64(k)
 	}
+}
+
+// entersCommon says whether cl is a port on the left edge whose net meets
+// the nearest active parts at their common electrodes only (a page's
+// connector bringing a row's signal on is no source of its own).
+func (ly *state) entersCommon(cl *cell) bool {
+	if cl.edge >= 0 || cl.part.Kind != graph.Port || len(cl.part.Pins) != 1 || ly.continued(cl.part.Pins[0].Net) {
+		return false
+	}
+	e := ly.nearestElectrodes(cl.part.Pins[0].Net, ly.carries)
+	return e.common && !e.control && !e.output
+}
+
+// continued says whether net is carried to or from another row or page
+// by a connector.
+func (ly *state) continued(net string) bool {
+	for _, k := range ly.o.Continues {
+		if k.Net == net {
+			return true
+		}
+	}
+	return false
 }

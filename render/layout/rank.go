@@ -26,6 +26,7 @@ func (ly *state) rank() {
 	ly.tankOf = ly.findTanks()
 	ly.tankRanks(rank)
 	ly.coldUnder(rank)
+	ly.injectionRanks(rank)
 	ly.rankOf = rank
 	ly.portSides(byNet)
 	ly.assignColumns()
@@ -250,6 +251,10 @@ func (ly *state) portSides(byNet map[string][]*cell) {
 			cl.edge = -1
 		case outputs[net]:
 			cl.edge = 1
+		case !ly.continued(net) && ly.injects(net):
+			// a source no input names (a separate oscillator's
+			// injection) enters on the left, as an input does
+			cl.edge = -1
 		default:
 			lo := maxRank
 			for _, nb := range byNet[net] {
@@ -297,11 +302,19 @@ func (ly *state) enteringNets(follow func(string) bool, inputs []string) []strin
 // the row's passive parts over followed nets, include a control electrode,
 // or no active part is met at all (a row of passive parts).
 func (ly *state) leadsToControl(net string, follow func(string) bool) bool {
+	e := ly.nearestElectrodes(net, follow)
+	return e.control || !e.met
+}
+
+// nearestElectrodes walks from net through passive parts over followed
+// nets to the first active parts met and says whether their electrodes
+// there include a control, common or output electrode, and whether any
+// active part was met at all.
+func (ly *state) nearestElectrodes(net string, follow func(string) bool) (e electrodes) {
 	seenNet, seenCell := map[string]bool{net: true}, map[*cell]bool{}
 	front := []string{net}
 	for len(front) > 0 {
 		var next []string
-		control, active := false, false
 		for _, n := range front {
 			for _, cl := range ly.cells {
 				for _, pn := range cl.part.Pins {
@@ -309,8 +322,15 @@ func (ly *state) leadsToControl(net string, follow func(string) bool) bool {
 						continue
 					}
 					if cl.part.IsActive() {
-						active = true
-						control = control || graph.RoleOfPin(cl.part.Kind, pn.Name) == graph.RoleControl
+						e.met = true
+						switch graph.RoleOfPin(cl.part.Kind, pn.Name) {
+						case graph.RoleControl:
+							e.control = true
+						case graph.RoleCommon:
+							e.common = true
+						case graph.RoleOutput:
+							e.output = true
+						}
 						continue
 					}
 					seenCell[cl] = true
@@ -323,10 +343,87 @@ func (ly *state) leadsToControl(net string, follow func(string) bool) bool {
 				}
 			}
 		}
-		if active {
-			return control
+		if e.met {
+			return e
 		}
 		front = next
 	}
-	return true
+	return e
+}
+
+// electrodes are the kinds of electrode nearestElectrodes met.
+type electrodes struct{ control, common, output, met bool }
+
+// injects says whether a port's net, one no input or output names, meets
+// the nearest active parts only at their control or common electrodes: a
+// separate oscillator's injection or a second input, a source.
+func (ly *state) injects(net string) bool {
+	e := ly.nearestElectrodes(net, ly.carries)
+	return (e.control || e.common) && !e.output
+}
+
+// injectionRanks moves the passive parts between a source port no input
+// names (injects) and the device it feeds to the layer before that
+// device: the walk from the inputs reached them through the device's
+// common electrode, after it, and they stood right of the stage with the
+// port's wire run back under it (review18 b02's oscillator injection).
+func (ly *state) injectionRanks(rank map[string]int) {
+	named := map[string]bool{}
+	for _, n := range append(slices.Clone(ly.c.Inputs), ly.c.Outputs...) {
+		named[n] = true
+	}
+	for _, cl := range ly.cells {
+		if cl.part.Kind != graph.Port || len(cl.part.Pins) != 1 || cl.conn || named[cl.part.Pins[0].Net] || ly.continued(cl.part.Pins[0].Net) || !ly.injects(cl.part.Pins[0].Net) {
+			continue
+		}
+		chain, dev := ly.chainTo(cl.part.Pins[0].Net)
+		if dev == nil {
+			continue
+		}
+		for i, p := range chain {
+			if r := rank[dev.ref] - len(chain) + i; r >= 0 && r < rank[p.ref] {
+				rank[p.ref] = r
+			}
+		}
+	}
+}
+
+// chainTo follows passive two-pin parts from net over carried nets, one
+// part per net, to the first active part: the parts in order and the
+// active part, or nil when the way branches or ends first. A shunt to a
+// net not carried (an emitter resistor to chassis) does not branch it.
+func (ly *state) chainTo(net string) ([]*cell, *cell) {
+	var chain []*cell
+	seen := map[*cell]bool{}
+	for len(chain) <= len(ly.cells) {
+		var dev, pass *cell
+		for _, o := range ly.cells {
+			if seen[o] || o.part.Kind == graph.Port || !slices.ContainsFunc(o.part.Pins, func(p graph.Pin) bool { return p.Net == net }) {
+				continue
+			}
+			switch {
+			case o.part.IsActive():
+				dev = o
+			case len(o.part.Pins) == 2 && ly.carries(o.part.Pins[0].Net) && ly.carries(o.part.Pins[1].Net):
+				if pass != nil {
+					return nil, nil
+				}
+				pass = o
+			}
+		}
+		if dev != nil {
+			return chain, dev
+		}
+		if pass == nil {
+			return nil, nil
+		}
+		seen[pass] = true
+		chain = append(chain, pass)
+		if pass.part.Pins[0].Net == net {
+			net = pass.part.Pins[1].Net
+		} else {
+			net = pass.part.Pins[0].Net
+		}
+	}
+	return nil, nil
 }
