@@ -143,13 +143,26 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 
 // halves maps each active device that is one of a stage's parallel halves
 // to that stage's name: two active devices of one stage whose common
-// electrodes (cathodes, emitters, sources) share a net (a push-pull pair, a
-// complementary pair, a long-tailed pair). The signal reaches them side by
-// side, never one from the other's control electrode, so one half's
-// injection row gains to what follows the pair, not to the other half.
+// electrodes (cathodes, emitters, sources) share a net (a complementary
+// pair, a long-tailed pair, a push-pull pair with a shared cathode
+// resistor), and the two halves of a push-pull stage the solver saw driven
+// in antiphase (its drive ratio, rules/stages pushpull.go), whatever their
+// common leads: a transformer-coupled pair with an emitter resistor each
+// to chassis shares no net but the output winding. The signal reaches them
+// side by side, never one from the other's control electrode, so one
+// half's injection row gains to what follows the pair, not to the other
+// half.
 func halves(c *graph.Circuit, sts []stages.Stage) map[string]string {
 	out := map[string]string{}
 	for _, s := range sts {
+		if _, ok := s.Figures.Get("drive_ratio"); ok {
+			for _, ref := range s.Parts {
+				if p := c.Part(ref); p != nil && p.IsActive() && out[ref] == "" {
+					out[ref] = s.Name
+				}
+			}
+			continue
+		}
 		byCommon := map[string][]string{}
 		for _, ref := range s.Parts {
 			p := c.Part(ref)

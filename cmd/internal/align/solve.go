@@ -54,6 +54,9 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 			in.GainNote = loopNote(broken, closed)
 		}
 	}
+	if note := halvesNote(sc, pts, i, in); note != "" {
+		in.GainNote = joinNote(in.GainNote, note)
+	}
 	if p.mixer {
 		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF rows take it as a quarter of this gain (an estimate)"
 	}
@@ -191,3 +194,11 @@ func peakGang(c *graph.Circuit, in, out string, f float64) float64 {
 }
 
 func db(v float64) float64 { return 20 * math.Log10(v) }
+
+// joinNote puts b after a, "; " between them where both are set.
+func joinNote(a, b string) string {
+	if a == "" {
+		return b
+	}
+	return a + "; " + b
+}
