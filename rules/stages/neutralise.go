@@ -61,6 +61,11 @@ func calcNeutralising(x *figCtx) {
 	if !ok1 || !ok2 || !ok3 || !ok4 {
 		return
 	}
+	// The figures shown are the reverse transfer as a meter would see it,
+	// with and without the capacitor (every path in); the share cancelled
+	// compares the two capacitors' own paths, what reaches the control
+	// electrode by other ways taken off both.
+	open := cmplx.Abs(hcf)
 	hn, hcf = hn-h0, hcf-h0
 	if hcf == 0 {
 		return
@@ -79,10 +84,48 @@ func calcNeutralising(x *figCtx) {
 		Origin: figure.BySolver(cn.Ref+"'s reverse transfer V("+ctl+")/V("+out+") over that of "+cfText+" from "+out+" to "+ctl+", times "+cfText, hz(f))})
 	x.put(figure.Figure{Name: "rev_transfer", Unit: figure.Ratio, Value: cmplx.Abs(hboth),
 		Origin: figure.BySolver("|V("+ctl+")/V("+out+")| with "+out+" driven", at)})
-	x.put(figure.Figure{Name: "rev_transfer_open", Unit: figure.Ratio, Value: cmplx.Abs(hcf),
+	x.put(figure.Figure{Name: "rev_transfer_open", Unit: figure.Ratio, Value: open,
 		Origin: figure.BySolver("the same with "+cn.Ref+" taken out", at)})
-	x.st.Notes = append(x.st.Notes, fmt.Sprintf("compared with %s %s from %s's %s to %s (the solver's model has none)",
-		what, cfText, q.Ref, outputWord(q), ControlWord(q)))
+	x.st.Notes = append(x.st.Notes, neutralBasis(q, cn, name, cf, cmplx.Abs(hn)/cmplx.Abs(hcf), what, cfText))
+	if cut := 1 - cmplx.Abs(hboth)/open; name == "c_cancelled" && cmplx.Abs(hn) < weakNeutral*cmplx.Abs(hcf) {
+		x.flag("%s neutralises little as captured: it cancels %.2g %% of %s %s %s (the solver's reverse transfer is %.2g %% lower with it); the winding end it returns to swings little, or the device's own %s is much smaller than that",
+			cn.Ref, 100*cmplx.Abs(hn)/cmplx.Abs(hcf), what, cfText, feedbackCapName(q), 100*cut, feedbackCapName(q))
+	}
+}
+
+// weakNeutral: a neutralising capacitor whose antiphase feedback cancels
+// less than this share of the device class's typical feedback capacitance
+// is flagged as neutralising little (common practice, no source: a
+// neutraliser is set to cancel the device's whole feedback capacitance;
+// the typical value is a guess that may be a few times off for a given
+// device, so only a share below a tenth is called little).
+const weakNeutral = 0.1
+
+// neutralBasis says what the capacitor's figure is: the feedback
+// capacitance whose reverse transfer its own feedback equals, found by the
+// solver against the device class's typical one (the solver's device
+// models have none, and a netlist gives none), and what share of that it
+// cancels or adds.
+func neutralBasis(q, cn *graph.Part, name string, cf, share float64, what, cfText string) string {
+	verb := "cancels"
+	if name == "c_added" {
+		verb = "adds to"
+	}
+	return fmt.Sprintf("%s %s %s of %s's %s: the %s-to-%s capacitance whose feedback %s's own equals, by the solver (the reverse transfer V(%s)/V(%s) with %s alone over that with %s %s alone, times %s); pare's device models have no internal capacitance and the netlist gives none, so the %s compared with is %s %s (from memory, not the part's data): %s %s %.2g %% of it",
+		cn.Ref, verb, figure.Format(cf*share, figure.Farad, figure.Text), q.Ref, feedbackCapName(q), outputWord(q), ControlWord(q), cn.Ref,
+		ControlWord(q), outputWord(q), cn.Ref, cfText, feedbackCapName(q), cfText, feedbackCapName(q), what, cfText, cn.Ref, verb, 100*share)
+}
+
+// feedbackCapName is the trade's name of the output-to-control
+// capacitance: Cbc, Cgd, Cag.
+func feedbackCapName(q *graph.Part) string {
+	switch q.Kind {
+	case graph.BJT:
+		return "Cbc"
+	case graph.FET:
+		return "Cgd"
+	}
+	return "Cag"
 }
 
 // outputWindingOn is the transformer with a pin on net w and a pin on the
