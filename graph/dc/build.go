@@ -264,6 +264,8 @@ func (m *model) addPart(p *graph.Part, o *origins) error {
 		}
 	case graph.Valve, graph.BJT, graph.FET, graph.Diode:
 		return m.addDevice(p, o)
+	case graph.Generic:
+		return m.addLED(p, o)
 	}
 	return nil
 }

@@ -59,6 +59,8 @@ var Defaults = []Default{
 	{"mosfet", "k", 0.05, "A/V²", "square-law factor of a typical small-signal MOSFET (50 mA at 1 V above threshold), from memory"},
 	{"diode", "vf", 0.65, "V", "silicon junction at 1 mA, common practice"},
 	{"diode", "n", 1, "", "ideality factor of Shockley's ideal junction, the SPICE default (N = 1)"},
+	{"LED", "vf", 1.8, "V", "a red indicator LED at 1 mA, from memory (about 1.9 V at 10 mA; green and yellow 2 V or so, blue and white near 3 V): give vf on the part for another"},
+	{"LED", "n", 2, "", "ideality factor of a visible LED, about 2, from memory"},
 	{"winding", "rdc", 1, "Ω", "DC resistance of a coil or winding when not given: small, from memory"},
 	{"mains", "hz", 50, "Hz", "mains frequency of a rectifier's transformer when hz is not given: 50 Hz in most of the world (60 Hz in North America), common practice"},
 	{"gmin", "g", 1e-12, "S", "conductance from every net to chassis, the SPICE GMIN default"},
