@@ -43,7 +43,7 @@ func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *
 		if full != nil {
 			c, parts = full, append(originals(s.Parts, reduced, full), loose...)
 		}
-		out = pairPlaces(out, parts, c, full == nil)
+		out = pairPlaces(out, parts, c, true)
 	}
 	return out
 }
