@@ -158,7 +158,10 @@ type Sheet struct {
 	Marks map[string]string
 	// Ties holds, per ref and pin, where a valve electrode the reduction
 	// made static is held: the reduced view keeps its grid line with a stub
-	// to that mark (the other views draw every electrode's lead).
+	// to that mark. On the full and faded views it holds only the grids
+	// wired to their own cathode that are drawn as the internal strap
+	// instead of a lead (a push-pull pair's suppressors); every other
+	// electrode keeps its lead there.
 	Ties map[string]map[string]Tie
 	// Presets holds, per ref of the circuit drawn, the trimmers merged into
 	// the part: the merged symbol keeps the preset mark.

@@ -104,6 +104,8 @@ type Options struct {
 	// Ties holds, per ref and pin, where a valve electrode the reduction
 	// made static is held (HideUnconnected sheets): its grid line stays,
 	// stubbed to a chassis mark or strapped to the cathode, with no pin.
+	// On the other views it holds only grids wired to their own cathode
+	// that the sheet draws as the internal strap (drawnPart).
 	Ties map[string]map[string]symbol.Tie
 	// Presets holds, per ref, the trimmers merged into the part: the merged
 	// symbol keeps the preset mark, so the alignment point stays on the
@@ -141,14 +143,18 @@ type Placement struct{ ly *state }
 const notConnected = "nc"
 
 // drawnPart is the part as its symbol shows it: with HideUnconnected, a
-// valve without its electrodes on "nc".
+// valve without its electrodes on "nc"; on the other views, without the
+// grids Ties straps to the cathode (the symbol draws the strap inside the
+// envelope instead of a lead round the valve).
 func (o Options) drawnPart(p *graph.Part) *graph.Part {
-	if !o.HideUnconnected || p.Kind != graph.Valve {
+	if p.Kind != graph.Valve {
 		return p
 	}
 	var keep []graph.Pin
 	for _, pn := range p.Pins {
-		if pn.Net != notConnected && pn.Net != "" {
+		nc := pn.Net == notConnected || pn.Net == ""
+		strapped := !o.HideUnconnected && o.Ties[p.Ref][pn.Name] == symbol.TieCathode
+		if !(o.HideUnconnected && nc) && !strapped {
 			keep = append(keep, pn)
 		}
 	}
@@ -167,9 +173,7 @@ func (o Options) drawnPart(p *graph.Part) *graph.Part {
 func (ly *state) marksOf(p *graph.Part) symbol.Marks {
 	o := ly.o
 	m := symbol.Marks{Preset: len(o.Presets[p.Ref]) > 0}
-	if o.HideUnconnected {
-		m.Ties = o.Ties[p.Ref]
-	}
+	m.Ties = o.Ties[p.Ref]
 	if p.Kind == graph.Transformer {
 		if ly.tuned == nil {
 			ly.tuned = tunedWindings(ly.c, Tanks(ly.c))

@@ -208,12 +208,15 @@ func (ly *state) slotMoves(anchor *block, slots []*slotted) {
 		}
 	}
 	mid := (anchor.fp.X0 + anchor.fp.X1) / 2
-	cx := centres(w, mid-w[0]/2, mid+w[0]/2, slotGapX)
+	lo, hi, under := ly.pairColumn(anchor, slots, mid-w[0]/2, mid+w[0]/2)
+	cx := centres(w, lo, hi, slotGapX)
 	cy := centres(h, row0.Y0, row0.Y1, slotGapY)
 	for _, s := range slots {
 		// a block narrower than its column keeps to the anchor's side
 		slack := (w[s.col] - s.b.fp.W()) / 2
 		switch {
+		case s == under:
+			// in line with the anchor already (pairColumn)
 		case s.col < 0:
 			s.d.X = math.Round(cx[s.col] + slack - (s.b.fp.X0+s.b.fp.X1)/2)
 		case s.col > 0:
@@ -234,6 +237,32 @@ func (ly *state) slotMoves(anchor *block, slots []*slotted) {
 	ly.alignChains(anchor, slots)
 }
 
+// pairColumn is the span of the anchor's column, from lo to hi as its
+// blocks' widths give it, widened to hold the lower half of a mirrored
+// pair (StandFlipped) moved in line with the anchor, common pin under
+// common pin; that slot, moved, is returned too (nil for none). The two
+// halves' labels may stand on opposite sides of their valves, so centring
+// the two blocks in one column stood the lower valve a column left
+// (review13 and review14 a04's full and faded sheets); a column wide
+// enough for both keeps the neighbouring columns clear of the lower
+// half's label.
+func (ly *state) pairColumn(anchor *block, slots []*slotted, lo, hi float64) (float64, float64, *slotted) {
+	stands := ly.stands()
+	for _, s := range slots {
+		if s.col != 0 || len(s.b.cells) != 1 || len(s.b.chain) > 0 || stands[s.b.cells[0].ref] != StandFlipped {
+			continue
+		}
+		dx, ok := ly.lineUp(s.b.cells[0], []colPart{{anchor.cells[0], geom.Pt{}}})
+		if !ok {
+			continue
+		}
+		s.d.X = dx
+		r := s.b.fp.Move(geom.Pt{X: dx})
+		return math.Min(lo, r.X0), math.Max(hi, r.X1), s
+	}
+	return lo, hi, nil
+}
+
 // alignChains stands the parts of a template column in line: a block of
 // one part in a column moves sideways, within its column's slack, until
 // its pin on a net it shares with the part nearer the anchor's row in the
@@ -246,12 +275,21 @@ func (ly *state) alignChains(anchor *block, slots []*slotted) {
 	order := slices.Clone(slots)
 	slices.SortStableFunc(order, func(a, b *slotted) int { return max(a.row, -a.row) - max(b.row, -b.row) })
 	byCol := map[int][]colPart{0: {{anchor.cells[0], geom.Pt{}}}}
+	stands := ly.stands()
 	for _, s := range order {
 		if len(s.b.cells) != 1 || len(s.b.chain) > 0 || s.row == 0 {
 			continue
 		}
 		cl := s.b.cells[0]
-		if dx, ok := ly.lineUp(cl, byCol[s.col]); ok && math.Abs(dx-s.d.X) <= 2*slotGapX {
+		// the lower half of a mirrored pair lines up with the upper
+		// however far apart their labels put the centres of their
+		// blocks (one label left, one right of its valve: review13
+		// and review14 a04's lower valve a column left)
+		reach := float64(2 * slotGapX)
+		if stands[cl.ref] == StandFlipped {
+			reach = math.Inf(1)
+		}
+		if dx, ok := ly.lineUp(cl, byCol[s.col]); ok && math.Abs(dx-s.d.X) <= reach {
 			s.d.X = dx
 		}
 		byCol[s.col] = append(byCol[s.col], colPart{cl, s.d})
