@@ -116,8 +116,18 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 		switch {
 		case sharedFeed(c, q, devs[0], devs[2]):
 			add(ref, 1, feedRow[1], "vertical")
-			if cap := feedBypass(c, q, placed); cap != "" && !flipped {
-				add(cap, 2, -1, "vertical")
+			if cap := feedBypass(c, q, placed); cap != "" {
+				// above the transformer, clear of the pair; on a
+				// flipped pair, in the feeds' column under the feed,
+				// level with the lower device (a shared feed leaves no
+				// own feed there): left to the generic placement it
+				// stood in the transformer's slot (review14 a04's C8,
+				// the centre tap off the pair's middle)
+				col, row := 2, -1
+				if flipped {
+					col, row = 1, 2
+				}
+				add(cap, col, row, "vertical")
 			}
 		case ownFeed(c, q, devs[0]):
 			add(ref, 1, feedRow[0], feedStand)
