@@ -27,7 +27,7 @@ import (
 // their first IF can's foot instead of after the second can a row away.
 const (
 	fadedAcrossCeiling = 2
-	fadedCrossCeiling  = 26 // with the loose-row ride and the base-bias ranking
+	fadedCrossCeiling  = 24 // 26 before push-pull pairs strapped their suppressors inside the envelope on the faded sheet (review16/17 a04)
 	fadedFarCeiling    = 2
 	fadedServeCeiling  = 54
 )

@@ -17,10 +17,11 @@ import (
 // sheets a reader gets), lower only. Measured when set: a tapped winding's
 // tap lead crossing a lead of the capacitor tuning that winding 53; a
 // multi-grid valve's anode lead crossing the lead of its screen, cathode or
-// injector grid 24.
+// injector grid 13 (24 before push-pull pairs stood mirrored on the full
+// and faded sheets with their suppressors strapped inside the envelope).
 const (
 	tapCrossCeiling   = 53
-	anodeCrossCeiling = 24
+	anodeCrossCeiling = 13
 )
 
 // TestFadedLeadsUntangled counts, on the faded view's pages, the two
