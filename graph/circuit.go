@@ -151,7 +151,10 @@ type Net struct {
 	Name  string  `json:"name"`
 	Role  Role    `json:"role"`
 	Volts float64 `json:"volts,omitempty"` // DC voltage of a supply or bias net
-	Label string  `json:"label,omitempty"` // text for the drawing, e.g. "HT +250 V"
+	// VoltsGiven says the netlist wrote volts, so a line declared at
+	// 0 V (an AGC line at rest) is held there, not taken as undeclared.
+	VoltsGiven bool   `json:"-"`
+	Label      string `json:"label,omitempty"` // text for the drawing, e.g. "HT +250 V"
 	// Fed is, for a decoupled line a reduction made a rail of its own
 	// (MarkDecoupled), the rail that feeds it through a resistor or choke;
 	// its DC voltage is its own, lower by the drop, which only the DC
@@ -253,3 +256,7 @@ func (c *Circuit) RoleOf(name string) Role {
 	}
 	return Signal
 }
+
+// HasVolts says whether the net declares its DC volts: any but 0 V, or 0 V
+// written as such.
+func (n *Net) HasVolts() bool { return n.Volts != 0 || n.VoltsGiven }

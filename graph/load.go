@@ -200,6 +200,7 @@ func (ld *loader) net(path, name string, v any) {
 			n.Role = Role(s)
 		case "volts":
 			n.Volts = ld.num(p, m[k], value.Volt)
+			n.VoltsGiven = true
 		case "label":
 			n.Label = ld.str(p, m[k])
 		default:

@@ -556,7 +556,7 @@ func tapOf(p *Part) (string, bool) {
 // the entry is there for a label or a voltage, so the entry reads in full.
 func netKV(n *Net) []string {
 	var kv []string
-	if n.Volts != 0 {
+	if n.HasVolts() {
 		kv = append(kv, "volts = "+fmtFloat(n.Volts))
 	}
 	if n.Label != "" {

@@ -139,7 +139,7 @@ func fixedVolts(n *graph.Net) (float64, bool) {
 	case graph.Ground, graph.Heater:
 		return 0, true
 	case graph.Supply, graph.Bias:
-		if n.Volts != 0 {
+		if n.HasVolts() {
 			return n.Volts, true
 		}
 	}
@@ -214,7 +214,7 @@ func (m *model) assignNodes(c *graph.Circuit, uf *graph.NamedSets) error {
 // heldEstimate starts an estimated rail at its rectifier's unloaded peak
 // (solveRails moves it), with a warning when the net also declares volts.
 func (m *model) heldEstimate(n *graph.Net, k int) (float64, bool) {
-	if n.Volts != 0 {
+	if n.HasVolts() {
 		m.warnings = append(m.warnings, fmt.Sprintf("rail %s declares %g V; it is held at the estimate from transformer %s's rectifier instead", n.Name, n.Volts, m.rects[k].xfmr))
 	}
 	return m.rects[k].peak, true

@@ -132,7 +132,7 @@ func (p *Point) diodeFed(net string) bool {
 // 519 µA, and nothing said why.
 func (p *Point) noteOpenBiasLines() {
 	for _, n := range p.Circuit.Nets {
-		if n.Role != graph.Bias || n.Volts != 0 {
+		if n.Role != graph.Bias || n.HasVolts() {
 			continue
 		}
 		var port string

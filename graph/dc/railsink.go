@@ -14,9 +14,13 @@ import (
 // difference in the rail itself. In the set a shunt regulator across the
 // rail (a zener) carries that current; held by the rail, the regulator
 // shows next to none, which a reader would take for an open zener (a blind
-// review's "D8 forward current 0 A"). "" for a rail that gives current.
+// review's "D8 forward current 0 A"). "" for a rail that gives current, and
+// for a bias line.
 func (p *Point) sinkingRail(net string, amps float64) string {
-	if amps > -1e-6 {
+	if amps > -1e-6 || p.Circuit.RoleOf(net) == graph.Bias {
+		// a bias line (an AGC line held at rest) takes in the current of
+		// the dividers returned to it: its source (the detector's load)
+		// sinks that in the set too, no fault of the capture
 		return ""
 	}
 	var shunts []string

@@ -36,7 +36,7 @@ func (r *Result) labelWarnings() graph.ErrorList {
 	}
 	var out graph.ErrorList
 	for _, n := range r.Circuit.Nets {
-		if n.Role != graph.Supply && n.Role != graph.Bias || n.Volts != 0 {
+		if n.Role != graph.Supply && n.Role != graph.Bias || n.HasVolts() {
 			continue
 		}
 		m := labelVolts.FindStringSubmatch(n.Label)
