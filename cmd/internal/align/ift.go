@@ -62,7 +62,7 @@ func tunedAt(s stages.Stage, ifHz float64) bool {
 // peaked).
 func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 	cans := ifTransformers(c, sts, g.IF)
-	watch := "watch " + ifWatch(c, sts, g.FM)
+	watch := "watch " + ifWatch(c, sts, g.FM, ifOutput(c, cans, ifInto(c, sts, g.IF)))
 	if mixerStage(sts) != nil {
 		watch += "; keep the oscillator from beating with the generator: tune to a quiet end of the dial or stop it (common practice)"
 	}
@@ -237,7 +237,7 @@ func trimmersOn(c *graph.Circuit, nets []string) []*graph.Part {
 // ifWatch is what to watch while peaking the IF (common practice): on an
 // AM set the detector's DC or the AGC line, or the output meter; on an FM
 // strip the detector's DC; a section without the detector its IF output.
-func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool) string {
+func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool, out string) string {
 	agc := agcNet(c)
 	det := detectorStage(c, sts)
 	switch {
@@ -247,8 +247,8 @@ func ifWatch(c *graph.Circuit, sts []stages.Stage, fm bool) string {
 		return fmt.Sprintf("the DC on the AGC line (%s) for %s, or the output meter for a maximum", agc, agcReading(c, sts, agc))
 	case det != nil:
 		return fmt.Sprintf("the detector's DC (%s%s) for its %s reading, or the output meter for a maximum", det.Name, detOn(c, sts), detWord(detectorSign(c, sts)))
-	case len(c.Outputs) > 0:
-		w := fmt.Sprintf("the IF at %s on an RF voltmeter or scope for a maximum", c.Outputs[0])
+	case out != "":
+		w := fmt.Sprintf("the IF at %s on an RF voltmeter or scope for a maximum", out)
 		if agc != "" {
 			w += fmt.Sprintf(" (on the whole set: the AGC line %s, %s)", agc, strings.TrimPrefix(agcReading(c, sts, agc), "its "))
 		}
@@ -283,6 +283,56 @@ func agcNet(c *graph.Circuit) string {
 	for _, n := range c.Nets {
 		if n.Role == graph.Bias && (strings.Contains(strings.ToLower(n.Name), "agc") || strings.Contains(strings.ToLower(n.Label), "agc")) {
 			return n.Name
+		}
+	}
+	return ""
+}
+
+// ifOutput is the net to watch the IF on when no detector is captured: the
+// declared output, unless the generator goes into that same net (a capture
+// that stops at the mixer's input: review19 b02 told the repairer to
+// inject at mix_b and watch mix_b); then the hot end of the winding the
+// last IF can passes the signal on by. "" when there is neither.
+func ifOutput(c *graph.Circuit, cans []*graph.Part, into string) string {
+	if len(c.Outputs) == 0 {
+		return ""
+	}
+	out := c.Outputs[0]
+	if !strings.Contains(into, "net "+out+")") || len(cans) == 0 {
+		return out
+	}
+	if n := passedOn(c, cans[len(cans)-1]); n != "" {
+		return n
+	}
+	return out
+}
+
+// passedOn is the first net, not at AC ground, of a can's windings other
+// than the one a device's output electrode drives (its tapped sections
+// share their tap pin, so they count as one winding).
+func passedOn(c *graph.Circuit, can *graph.Part) string {
+	driven := map[string]bool{}
+	for _, pin := range can.Pins {
+		for _, k := range c.ConnsOf(pin.Net) {
+			if k.Part != nil && k.Part.IsActive() && graph.RoleOfPin(k.Part.Kind, k.Pin) == graph.RoleOutput {
+				driven[pin.Name] = true
+			}
+		}
+	}
+	for grown := true; grown; {
+		grown = false
+		for _, w := range can.Windings {
+			if driven[w.From] != driven[w.To] {
+				driven[w.From], driven[w.To], grown = true, true, true
+			}
+		}
+	}
+	if len(driven) == 0 {
+		return ""
+	}
+	for _, pin := range can.Pins {
+		if !driven[pin.Name] && !c.RoleOf(pin.Net).IsACGround() {
+			return pin.Net
 		}
 	}
 	return ""

@@ -3,6 +3,7 @@ package align
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"pare/graph"
@@ -75,7 +76,33 @@ func reference(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injecti
 	if len(c.Outputs) == 0 {
 		return "", 0, ""
 	}
-	return c.Outputs[0], refVolts, fmt.Sprintf("1 V at the output (%s)", c.Outputs[0])
+	out := c.Outputs[0]
+	if out == pts[i].net {
+		// a capture that stops at this point's own net (review19 b02's
+		// outputs = mix_b gave "1 V at mix_b gives 1 V at mix_b, ×1"):
+		// the IF is read where the stage's transformer passes it on
+		if n := stagePassesOn(c, sts, out); n != "" {
+			out = n
+		}
+	}
+	return out, refVolts, fmt.Sprintf("1 V at the output (%s)", out)
+}
+
+// stagePassesOn is, for the stage whose active device has a pin on net,
+// the net its transformer passes the signal on by (passedOn), or "".
+func stagePassesOn(c *graph.Circuit, sts []stages.Stage, net string) string {
+	for _, st := range sts {
+		t := transformerIn(c, st)
+		if t == nil {
+			continue
+		}
+		for _, ref := range st.Parts {
+			if p := c.Part(ref); p != nil && p.IsActive() && slices.ContainsFunc(p.Pins, func(pn graph.Pin) bool { return pn.Net == net }) {
+				return passedOn(c, t)
+			}
+		}
+	}
+	return ""
 }
 
 // loudspeaker is the set's first loudspeaker with an impedance, or nil.
