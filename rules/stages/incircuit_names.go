@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"strings"
 
 	"pare/graph"
 	"pare/graph/ac"
@@ -178,11 +179,25 @@ func (x *figCtx) checkSmoothing(nets ...string) {
 			}
 		}
 	}
+	x.capAsDecoupling()
 	if _, rect := x.rectWave(); rect != "" {
 		x.rename("smooth", fmt.Sprintf("named a decoupling filter: the rectifier %s is not on its nets, it takes the supply after a section before it, so it filters a supply, it does not smooth one", rect))
 		return
 	}
 	x.rename("smooth", "named a decoupling filter: no rectifier feeds it, so it filters a supply, it does not smooth one")
+}
+
+// capAsDecoupling words a filter named a decoupling filter by what its
+// capacitor does there: "c decoupling (C4)", not "c smoothing (C4)" on a
+// stage whose next line says it does not smooth (review19 a04).
+func (x *figCtx) capAsDecoupling() {
+	for i, f := range x.st.Figures {
+		if f.Name == "c_smoothing" {
+			f.Name = "c_decoupling"
+			f.Label = strings.Replace(f.Label, "c smoothing", "c decoupling", 1)
+			x.st.Figures[i] = f
+		}
+	}
 }
 
 // isValveDiode tells a rectifier valve from an amplifying one: it has no
