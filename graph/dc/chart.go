@@ -340,10 +340,31 @@ func (p *Point) declaredCurrent(ch *Chart, part *graph.Part, key, pin, what stri
 			part.Ref, what, value.FormatPrec(want, value.Ampere, value.Symbol, 3), key))
 		return
 	}
-	if off := got/want - 1; math.Abs(off) > currentSpread {
+	off := got/want - 1
+	switch {
+	case math.Abs(off) <= currentSpread:
+	case off > 0 && p.oscillates(part.Ref):
+		// the chart is figured with the oscillators stopped: a device
+		// biased by its own grid or base current draws more stopped than
+		// running, so "check the bias network" would send the repairer
+		// after a sound network (review19 a01, a02: +65-67 %)
+		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s %s current solves to %s with the oscillator stopped, as the chart is figured, %+.0f %% from the %s the netlist gives as %s: an oscillator biased by its own grid (base) current draws more stopped than running; read it with the oscillator running, where it should come down towards %s, and a reading near %s means it is not oscillating",
+			part.Ref, what, value.FormatPrec(got, value.Ampere, value.Symbol, 3), 100*off, value.FormatPrec(want, value.Ampere, value.Symbol, 3), key, value.FormatPrec(want, value.Ampere, value.Symbol, 3), value.FormatPrec(got, value.Ampere, value.Symbol, 3)))
+	default:
 		ch.Warnings = append(ch.Warnings, fmt.Sprintf("%s %s current solves to %s, %+.0f %% from the %s the netlist gives as %s: check the bias network as captured (cathode or emitter resistor, screen or base feed) and the declared figures against the part's data",
 			part.Ref, what, value.FormatPrec(got, value.Ampere, value.Symbol, 3), 100*off, value.FormatPrec(want, value.Ampere, value.Symbol, 3), key))
 	}
+}
+
+// oscillates says whether ref is one of the circuit's oscillators (its
+// loop starts on its own: Oscillators).
+func (p *Point) oscillates(ref string) bool {
+	for _, o := range p.Oscillators() {
+		if o.Ref == ref {
+			return true
+		}
+	}
+	return false
 }
 
 // gridPositive is how far a valve's control grid may stand positive of its
