@@ -190,7 +190,7 @@ func findRectifiers(c *graph.Circuit) ([]rectifier, error) {
 		}
 		r, err := rectifierOf(c, p, vac, diodes)
 		if err != nil {
-			return nil, fmt.Errorf("%s: transformer %s: %w", p.Pos, p.Ref, err)
+			return nil, &graph.Error{Pos: p.Pos, Msg: fmt.Sprintf("transformer %s: %v", p.Ref, err)}
 		}
 		out = append(out, r)
 	}

@@ -1,6 +1,7 @@
 package pipeline
 
 import (
+	"errors"
 	"fmt"
 	"strings"
 
@@ -43,4 +44,24 @@ func (r *Result) BiasNote(c *graph.Circuit) string {
 		return list + " at the device model's default bias (docs/devices.md): the DC operating point was not solved"
 	}
 	return list + " at the device model's default bias (docs/devices.md): the DC operating point gave no current to take the figures at (cut off?)"
+}
+
+// warnUnsolved says, among the run's warnings, at the netlist's place,
+// that the DC operating point is not solved and what rests on it: `pare dc`
+// refused review19 a05's surge resistor with a clear message while the
+// main job went on silently, naming the mains transformer a tuned stage.
+func (r *Result) warnUnsolved() {
+	var list graph.ErrorList
+	var one *graph.Error
+	switch {
+	case errors.As(r.DCErr, &list):
+	case errors.As(r.DCErr, &one):
+		list = graph.ErrorList{one}
+	default:
+		list.Add(graph.Pos{File: r.Path}, "%v", r.DCErr)
+	}
+	for _, e := range list {
+		r.Warnings.Add(e.Pos, "no DC operating point: %s; the DC chart, the supply's figures and every figure taken at the bias rest on it, so they are missing or at the device model's defaults", e.Msg)
+	}
+	r.Warnings.Sort()
 }

@@ -304,6 +304,7 @@ func (r *Result) bias(o Options) error {
 	}
 	r.DC, r.DCErr = dc.Solve(r.Circuit)
 	if r.DCErr != nil {
+		r.warnUnsolved()
 		return nil
 	}
 	if ws := r.labelWarnings(); len(ws) > 0 {
