@@ -3,8 +3,6 @@ package dc
 import (
 	"math"
 	"testing"
-
-	"pare/graph"
 )
 
 // TestIndicatorLED: review18 b01's power-on LED, captured as a generic
@@ -15,18 +13,7 @@ import (
 // 9.6073 mA, LED 7.0986 mA; before, pare read 2.52 mA (the LED left out);
 // the reviewer's own LED law (Is 1e-20, n 2) gives 9.384 mA.
 func TestIndicatorLED(t *testing.T) {
-	c, err := graph.LoadFile("../../testdata/review18/b01.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	pt, err := Solve(c)
-	if err != nil {
-		t.Fatal(err)
-	}
-	ch, err := pt.Chart(Meter{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	pt, ch := chartFile(t, "../../testdata/review18/b01.toml")
 	if len(ch.Rails) != 1 || math.Abs(ch.Rails[0].Amps-9.6073e-3) > 0.01*9.6073e-3 { // ngspice, above
 		t.Errorf("rails %+v, want batt drawing 9.607 mA (ngspice)", ch.Rails)
 	}

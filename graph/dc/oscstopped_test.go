@@ -3,8 +3,6 @@ package dc
 import (
 	"strings"
 	"testing"
-
-	"pare/graph"
 )
 
 // TestStoppedOscillatorCurrent: the chart is figured with the oscillators
@@ -14,18 +12,7 @@ import (
 // 4 mA; the warning sent the repairer to "check the bias network". It now
 // says the reading is the stopped one and what a running set should show.
 func TestStoppedOscillatorCurrent(t *testing.T) {
-	c, err := graph.LoadFile("../../testdata/review19/a01.toml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	pt, err := Solve(c)
-	if err != nil {
-		t.Fatal(err)
-	}
-	ch, err := pt.Chart(Meter{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	_, ch := chartFile(t, "../../testdata/review19/a01.toml")
 	found := false
 	for _, w := range ch.Warnings {
 		if strings.HasPrefix(w, "V1 anode current") {
