@@ -1140,6 +1140,22 @@ R3 = { r = "1k", pins = ["vt", "bp"] }`,
 Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
 R2 = { r = "1k5", pins = ["bn", "vt"] }
 R3 = { r = "1k", pins = ["vt", "gnd"] }`},
+	// The same with the standing-current preset in the lower leg, in
+	// series with a fixed resistor (review19 b04's form).
+	{topology: "complementary-pair-vbe-preset", families: []string{"bjt"}, want: "bjt",
+		parts: complementaryPair + `
+Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
+R2 = { r = "1k5", pins = ["bn", "vt"] }
+R3 = { r = "1k", pins = ["vt", "vr"] }
+RV1 = { pot = "1k", set = 0.5, pins = ["vr", "bp", "bp"] }
+C4 = { c = "47u", pins = ["bn", "bp"] }`,
+		// The preset's foot on chassis, not on the transistor's emitter:
+		// a divider biasing a transistor, no multiplier across the gap.
+		nearMiss: complementaryPair + `
+Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
+R2 = { r = "1k5", pins = ["bn", "vt"] }
+R3 = { r = "1k", pins = ["vt", "vr"] }
+RV1 = { pot = "1k", set = 0.5, pins = ["vr", "gnd", "gnd"] }`},
 	// Quasi-complementary: two NPN output transistors, the upper a
 	// Darlington, the lower a complementary feedback pair (a PNP driver
 	// whose collector drives it), two diodes between the drivers' bases.
