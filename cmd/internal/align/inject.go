@@ -107,8 +107,9 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	mixer := mixerDevice(c, sts, g.IF)
 	osc := oscillatorOnly(sts, mixer)
 	half := halves(c, sts)
+	bias := biasDevices(c, sts, half)
 	device := func(p *graph.Part) {
-		if p != nil && !osc[p.Ref] {
+		if p != nil && !osc[p.Ref] && !bias[p.Ref] {
 			pt := controlPoint(c, p, p == mixer)
 			pt.halves = half[p.Ref]
 			add(pt)

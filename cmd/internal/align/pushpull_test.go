@@ -37,6 +37,12 @@ func TestPushPullPairIsOneStage(t *testing.T) {
 		{"review16/b05", []string{"q5_b", "q6_b"}, "in antiphase", "", 0, "", 0},
 		{"review18/a04", []string{"o1_g1", "o2_g1"}, "in antiphase", "", 0, "", 0},
 		{"review18/b04", []string{"q2_b", "q1_c"}, "in phase", "", 0, "", 0},
+		// A Vbe multiplier between the bases (review19 b04): the half's row
+		// against the reviewer's nonlinear deck
+		// testdata/review19/spice/b/c04_amp.cir (ngspice-39, .ac at
+		// 400 Hz): |V(spk)/V(q2_b)| = 5.7133/7.8123 = 0.7313 in circuit,
+		// driven from the input (pare drives q2_b alone: within 1 %).
+		{"review19/b04", []string{"q2_b", "q1_c"}, "in phase", "", 0, "q2_b", 0.7313},
 	}
 	for _, tc := range cases {
 		t.Run(tc.file, func(t *testing.T) {
@@ -69,6 +75,41 @@ func TestPushPullPairIsOneStage(t *testing.T) {
 				}
 				if in, ok := rows[net]; !ok || math.Abs(in.Gain-want)/want > 0.01 { // ngspice, above
 					t.Errorf("row at %s: ×%.4g to %s, ngspice ×%.4g", net, in.Gain, in.GainTo, want)
+				}
+			}
+		})
+	}
+}
+
+// TestBiasMultiplierNoInjection: the transistor of a Vbe multiplier
+// between a complementary pair's bases holds them apart, its capacitor
+// holds them together for the signal; the trade injects on the pair's
+// bases and the driver's, never on the multiplier's base (common
+// practice). Review19 b04's table injected at "Q4 base ×0.284 to q2_b":
+// the divider's loss quoted as a stage gain. The pair's diode-biased
+// kin (review18 b04, review13 b04) keep their rows.
+func TestBiasMultiplierNoInjection(t *testing.T) {
+	cases := []struct {
+		file   string
+		absent string   // no row here
+		rows   []string // these rows stay
+	}{
+		{"review19/b04", "q4_b", []string{"q2_b", "q1_c", "q1_b"}},
+		{"pairs/comp-vbe", "vm_b", []string{"q2_b", "drv", "q1_b"}},
+	}
+	for _, tc := range cases {
+		t.Run(tc.file, func(t *testing.T) {
+			_, g := build(t, filepath.Join("..", "..", "..", "testdata", tc.file+".toml"))
+			rows := map[string]bool{}
+			for _, in := range g.Inject {
+				rows[in.Net] = true
+				if in.Net == tc.absent || in.GainTo == tc.absent {
+					t.Errorf("row at %s gains ×%.3g to %s: the multiplier is no signal stage", in.Net, in.Gain, in.GainTo)
+				}
+			}
+			for _, n := range tc.rows {
+				if !rows[n] {
+					t.Errorf("no row at %s", n)
 				}
 			}
 		})
