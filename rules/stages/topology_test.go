@@ -1156,6 +1156,32 @@ Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp"
 R2 = { r = "1k5", pins = ["bn", "vt"] }
 R3 = { r = "1k", pins = ["vt", "vr"] }
 RV1 = { pot = "1k", set = 0.5, pins = ["vr", "gnd", "gnd"] }`},
+	// The preset in the upper leg, collector to base, the lower leg fixed.
+	{topology: "complementary-pair-vbe-preset-upper", families: []string{"bjt"}, want: "bjt",
+		parts: complementaryPair + `
+Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
+RV1 = { pot = "2k2", set = 0.5, pins = ["bn", "va", "va"] }
+R2 = { r = "470R", pins = ["va", "vt"] }
+R3 = { r = "1k", pins = ["vt", "bp"] }`,
+		// The lower leg to chassis: no multiplier across the gap.
+		nearMiss: complementaryPair + `
+Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
+RV1 = { pot = "2k2", set = 0.5, pins = ["bn", "va", "va"] }
+R2 = { r = "470R", pins = ["va", "vt"] }
+R3 = { r = "1k", pins = ["vt", "gnd"] }`},
+	// The preset as the divider, its wiper on the multiplier's base.
+	{topology: "complementary-pair-vbe-divider", families: []string{"bjt"}, want: "bjt",
+		parts: complementaryPair + `
+Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
+R2 = { r = "680R", pins = ["bn", "va"] }
+RV1 = { pot = "1k", set = 0.5, pins = ["va", "vt", "vb"] }
+R3 = { r = "680R", pins = ["vb", "bp"] }`,
+		// The track's foot on chassis: a divider from the base, no multiplier.
+		nearMiss: complementaryPair + `
+Q4 = { bjt = "npn", beta = 200, ic = "3m", pins = { b = "vt", c = "bn", e = "bp" } }
+R2 = { r = "680R", pins = ["bn", "va"] }
+RV1 = { pot = "1k", set = 0.5, pins = ["va", "vt", "vb"] }
+R3 = { r = "680R", pins = ["vb", "gnd"] }`},
 	// Quasi-complementary: two NPN output transistors, the upper a
 	// Darlington, the lower a complementary feedback pair (a PNP driver
 	// whose collector drives it), two diodes between the drivers' bases.
