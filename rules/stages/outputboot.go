@@ -93,11 +93,11 @@ func calcBootstrap(x *figCtx) {
 // halves come back in order (ra the driver's side) with the load's top.
 func bootDriver(c *graph.Circuit, ra, rb *graph.Part, boot string) (ra2, rb2 *graph.Part, top string, drv *graph.Part, out string) {
 	top = farEnd(ra, boot)
-	drv, out = drivingDevice(c, top)
+	drv, out = drivingDevice(c, top, boot)
 	if drv == nil && !c.RoleOf(farEnd(rb, boot)).IsACGround() {
 		ra, rb = rb, ra
 		top = farEnd(ra, boot)
-		drv, out = drivingDevice(c, top)
+		drv, out = drivingDevice(c, top, boot)
 	}
 	return ra, rb, top, drv, out
 }
@@ -178,11 +178,15 @@ func drivenZ(c *graph.Circuit, net string, f float64) (float64, bool) {
 const bootWalkDepth = 4
 
 // drivingDevice is the amplifying device whose output electrode net
-// reaches net through DC paths (resistors, pots, diodes) within
-// bootWalkDepth parts, never through AC ground, and that output net; nil
-// when none does, or more than one.
-func drivingDevice(c *graph.Circuit, net string) (*graph.Part, string) {
-	seen := map[string]bool{net: true}
+// reaches net through DC paths (resistors, pots, diodes, a Vbe
+// multiplier collector to emitter) within
+// bootWalkDepth parts, never through AC ground nor back through the
+// bootstrap tap (the far half of the load leads to the rail, not to a
+// driver: walked through the tap, a load whose far end is a decoupled line
+// finds the driver from the wrong end), and that output net; nil when none
+// does, or more than one.
+func drivingDevice(c *graph.Circuit, net, tap string) (*graph.Part, string) {
+	seen := map[string]bool{net: true, tap: true}
 	frontier := []string{net}
 	for d := 0; d <= bootWalkDepth && len(frontier) > 0; d++ {
 		var next []string
@@ -192,6 +196,11 @@ func drivingDevice(c *graph.Circuit, net string) (*graph.Part, string) {
 			for _, cn := range c.ConnsOf(n) {
 				p := cn.Part
 				if p.IsActive() && graph.RoleOfPin(p.Kind, cn.Pin) == graph.RoleOutput {
+					if e := p.NetOf("e"); vbeMultiplierAcross(c, p) && !seen[e] {
+						seen[e] = true // a bias source, crossed like diodes
+						next = append(next, e)
+						continue
+					}
 					if found != nil && found != p {
 						return nil, ""
 					}

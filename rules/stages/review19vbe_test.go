@@ -61,3 +61,28 @@ func TestVbeMultiplierWithPreset(t *testing.T) {
 		}
 	}
 }
+
+// TestBootstrapPastVbeMultiplier: the walk from a bootstrapped load to its
+// driver crosses a Vbe multiplier, collector to emitter, as it crosses
+// bias diodes, and never runs back through the bootstrap tap. Review19
+// b04's driver Q1 was a bare "Q1 stage" and its bootstrap capacitor C4 a
+// "Coupling capacitor": the walk took the multiplier Q4 for the driver.
+// Check value from the reviewer's deck testdata/review19/spice/b/
+// c04_amp.cir (ngspice-39, .ac at 632.456 Hz): the load R6 presents,
+// 1k2·|V(q2_b)/(V(q2_b) − V(bs))| = 4467 Ω against 2.2 kΩ with C4 open
+// (R5 + R6): a weak bootstrap, because the pair gains only 0.73 at its
+// standing current, but twofold.
+func TestBootstrapPastVbeMultiplier(t *testing.T) {
+	c, err := graph.LoadFile(filepath.Join("..", "..", "testdata", "review19", "b04.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := holding(findBiased(t, c), "Q1")
+	if s == nil || s.Topology != "bootstrapped-load" || !slices.Contains(s.Parts, "C4") {
+		t.Fatalf("Q1 not the driver of a bootstrapped load: %v", s)
+	}
+	f, ok := s.Figures.Get("r_boot")
+	if !ok || math.Abs(f.Value/4467-1) > 0.01 {
+		t.Errorf("bootstrapped load %v, ngspice 4467 Ω (1 %%)", f)
+	}
+}
