@@ -90,7 +90,9 @@ func rcFeedback(c, lc *graph.Circuit, ground func(string) bool, dev *graph.Part)
 // DC (dcPath), not through the device's own nets or a ground: a
 // decoupled rail the reduction kept (its capacitor not a bypass at the
 // band's low edge), which feeds the loads and the bias and carries no
-// feedback.
+// feedback. A net with a DC path of its own to ground (a divider's tap:
+// the base bias fed from the line, a series base resistor and a ladder's
+// last capacitor on it) is a bias point, not a line, and ends the walk.
 func railNets(c *graph.Circuit, ground func(string) bool, own map[string]bool) map[string]bool {
 	rail := map[string]bool{}
 	var frontier []string
@@ -108,7 +110,7 @@ func railNets(c *graph.Circuit, ground func(string) bool, own map[string]bool) m
 					continue
 				}
 				for _, pin := range cn.Part.Pins {
-					if n := pin.Net; !rail[n] && !own[n] && !ground(n) && n != graph.NotConnected {
+					if n := pin.Net; !rail[n] && !own[n] && !ground(n) && n != graph.NotConnected && !dcToChassis(c, n) {
 						rail[n] = true
 						next = append(next, n)
 					}
@@ -118,6 +120,19 @@ func railNets(c *graph.Circuit, ground func(string) bool, own map[string]bool) m
 		frontier = next
 	}
 	return rail
+}
+
+// dcToChassis reports whether a two-pin part that carries DC joins net to
+// chassis (0 V, not a supply line: the feed from the line is one).
+func dcToChassis(c *graph.Circuit, net string) bool {
+	chassis := func(m string) bool { return c.RoleOf(m) == graph.Ground }
+	for _, cn := range c.ConnsOf(net) {
+		q := cn.Part
+		if dcPath(q) && !q.IsActive() && len(q.Pins) == 2 && (chassis(q.Pins[0].Net) || chassis(q.Pins[1].Net)) {
+			return true
+		}
+	}
+	return false
 }
 
 // reachNets are the nets reached from starts through passive parts, never

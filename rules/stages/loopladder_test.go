@@ -20,7 +20,11 @@ import (
 // where ngspice finds it: .ac on testdata/review13/spice/b01_loop_values.cir
 // gives 0° at 586.777 Hz, +1.932 dB (the reviewer's b01_loop.cir read "5k6"
 // as 5 kΩ and gave 604.4 Hz); on testdata/review12/spice/c02loop.cir
-// 677.83 Hz, +7.25 dB (review 12); within 5 % (pare's DC point differs a
+// 677.83 Hz, +7.25 dB (review 12); on testdata/review19/spice/b/c01_loop.cir
+// 255.0 Hz, +11.06 dB (review 19: its base bias hangs from a decoupled line,
+// so the divider's tap, where the ladder's last capacitor and the series
+// base resistor meet, is a bias point, not part of the line; its buffer's
+// C5 and bias R8 ≡ R8, R9 are Q2's); within 5 % (pare's DC point differs a
 // little from the deck's).
 func TestPhaseShiftLadderByLoop(t *testing.T) {
 	for _, tc := range []struct {
@@ -32,6 +36,8 @@ func TestPhaseShiftLadderByLoop(t *testing.T) {
 			[]string{"C1", "C2", "C3", "R6", "R7", "R8", "R3"}, []string{"C5", "R11", "Q2"}},
 		{"../../testdata/review12/c02.toml", "TR1", 677.83,
 			[]string{"C2", "C3", "C4", "R5", "RV2", "R6"}, nil},
+		{"../../testdata/review19/b01.toml", "Q1", 255.0,
+			[]string{"C1", "C2", "C3", "R5", "R6", "RV1", "R7", "R2"}, []string{"C5", "R8", "Q2"}},
 	} {
 		t.Run(tc.file, func(t *testing.T) {
 			c, err := graph.LoadFile(tc.file)
