@@ -130,18 +130,29 @@ func humBalance(c *graph.Circuit, p *graph.Part) (Preset, bool) {
 
 // oscillatorPreset: a preset on an electrode net of a device whose stage
 // runs a loop sets that loop's gain: the margin over its travel from the
-// loop solver, with the device's bias at each end from the DC solver.
+// loop solver, with the device's bias at each end from the DC solver. A
+// preset inside the stage's feedback network (an arm of a phase-shift
+// ladder), on none of the device's nets, sets where the loop's phase
+// comes round as well: its frequency with its gain.
 func oscillatorPreset(c *graph.Circuit, sts []stages.Stage, op *dc.Point, p *graph.Part) (Preset, bool) {
 	for _, st := range sts {
 		for _, l := range st.Loop {
 			d := c.Part(l.Device)
-			if d == nil || !onDevice(c, d, p) {
+			if d == nil {
+				continue
+			}
+			on := onDevice(c, d, p)
+			if !on && !slices.Contains(st.Parts, p.Ref) {
 				continue
 			}
 			ps := Preset{Part: p.Ref, order: jobOscillator,
 				Job:     fmt.Sprintf("oscillator gain: %s is in %s's loop (%s) and sets how hard it runs: a reliable start without clipping", p.Ref, d.Ref, st.Name),
 				Measure: fmt.Sprintf("a scope on the oscillator's output: from the end that stops it, turn until it starts, then on a little further, until it starts at once on every switch-on (and with the supply 10 %% low) with no flattening of the peaks; too far and the wave clips"),
 				Caution: "more gain than it needs clips the wave and raises the distortion; too little and it stops when cold or as the supply falls"}
+			if !on {
+				ps.Job = fmt.Sprintf("oscillator frequency and gain: %s is in %s's feedback network (%s) and sets both where it runs and how hard", p.Ref, d.Ref, st.Name)
+				ps.Measure = "a frequency counter and a scope on the oscillator's output: turn it for the frequency wanted, then check it starts at once on every switch-on (and with the supply 10 % low) with no flattening of the peaks"
+			}
 			if op != nil {
 				ps.Points = append(netPoints(op, p), loopTravel(c, p, d.Ref)...)
 			}

@@ -91,3 +91,42 @@ func checkCurrents(t *testing.T, text string, nom, lo, hi float64) {
 		}
 	}
 }
+
+// A preset in an arm of a phase-shift ladder (review19 b01: RV1 in series
+// with R6, the second shunt arm), on none of the device's nets, is in the
+// oscillator's loop: it sets the frequency and the start, and the guide
+// gives the loop solver's 0° point and margin over its travel. Check
+// values: ngspice-39 .ac on testdata/review19/spice/b/c01_loop.cir with
+// RV1 at 1 mΩ, 3 kΩ (nominal, 60 %) and 5 kΩ (run by hand): 0° at
+// 284.4 Hz +10.82 dB, 255.0 Hz +11.06 dB, 239.3 Hz +10.93 dB.
+func TestLadderPresetInLoop(t *testing.T) {
+	file := filepath.Join("..", "..", "..", "testdata", "review19", "b01.toml")
+	res, g := build(t, file)
+	g.AddPresets(res.Circuit, res.DC, res.Stages)
+	if len(g.Presets) != 1 || !strings.HasPrefix(g.Presets[0].Job, "oscillator frequency and gain: RV1 is in Q1's feedback network") {
+		t.Fatalf("presets %+v, want RV1 in Q1's feedback network", g.Presets)
+	}
+	re := regexp.MustCompile(`RV1 at (\d+) % of its travel: Q1's loop gain ([+-][0-9.]+) dB at ([0-9.]+) Hz`)
+	want := map[string][2]float64{"0": {284.4, 10.82}, "60": {255.0, 11.06}, "100": {239.3, 10.93}}
+	got := 0
+	for _, pt := range g.Presets[0].Points {
+		m := re.FindStringSubmatch(pt)
+		if m == nil {
+			continue
+		}
+		w, ok := want[m[1]]
+		if !ok {
+			t.Errorf("unexpected travel point %q", pt)
+			continue
+		}
+		got++
+		db, _ := strconv.ParseFloat(m[2], 64)
+		f, _ := strconv.ParseFloat(m[3], 64)
+		if math.Abs(f/w[0]-1) > 0.02 || math.Abs(db-w[1]) > 0.5 {
+			t.Errorf("%s: want %.1f Hz %+.2f dB (ngspice) within 2 %% and 0.5 dB", pt, w[0], w[1])
+		}
+	}
+	if got != 3 {
+		t.Errorf("%d travel points, want 3: %v", got, g.Presets[0].Points)
+	}
+}
