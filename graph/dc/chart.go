@@ -236,6 +236,7 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 		add("collector current", "c", 1)
 		add("base current", "b", 1)
 		p.declaredCurrent(ch, part, "ic", "c", "collector")
+		p.saturationWarning(ch, part)
 	case graph.FET:
 		add("drain current", "d", 1)
 	case graph.Diode:

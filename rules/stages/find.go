@@ -143,6 +143,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	inSignalOrder(signal, naming)
 	nameRoles(signal, reduced)
 	cutOffFlags(signal, reduced, o.DC)
+	saturationFlags(signal, o.DC)
 	var out []Stage
 	n := 0
 	prefix := namePrefix(reduced, o.Full, len(signal)+len(power))
