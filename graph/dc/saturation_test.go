@@ -27,8 +27,8 @@ gnd = { role = "ground" }
 vcc = { role = "supply", volts = ` + rail + ` }
 [parts]
 Q1 = { bjt = "` + typ + `", pins = { b = "b", c = "c", e = "gnd" }, beta = 250 }
-RB = { r = "` + rb + `", pins = ["vcc", "b"] }
-RC = { r = "10k", pins = ["vcc", "c"] }
+R1 = { r = "` + rb + `", pins = ["vcc", "b"] }
+R2 = { r = "10k", pins = ["vcc", "c"] }
 `
 	}
 	for _, tc := range []struct {
