@@ -90,9 +90,11 @@ func rcFeedback(c, lc *graph.Circuit, ground func(string) bool, dev *graph.Part)
 // DC (dcPath), not through the device's own nets or a ground: a
 // decoupled rail the reduction kept (its capacitor not a bypass at the
 // band's low edge), which feeds the loads and the bias and carries no
-// feedback. A net with a DC path of its own to ground (a divider's tap:
-// the base bias fed from the line, a series base resistor and a ladder's
-// last capacitor on it) is a bias point, not a line, and ends the walk.
+// feedback. A net with a DC path of its own to chassis and no device on
+// it (a divider's tap: the base bias fed from the line, a series base
+// resistor and a ladder's last capacitor on it) is a bias point, not a
+// line, and ends the walk; one on another device's electrode (a buffer's
+// base bias) stays a stop, that device's.
 func railNets(c *graph.Circuit, ground func(string) bool, own map[string]bool) map[string]bool {
 	rail := map[string]bool{}
 	var frontier []string
@@ -122,17 +124,22 @@ func railNets(c *graph.Circuit, ground func(string) bool, own map[string]bool) m
 	return rail
 }
 
-// dcToChassis reports whether a two-pin part that carries DC joins net to
-// chassis (0 V, not a supply line: the feed from the line is one).
+// dcToChassis reports whether net is a bare bias point: a two-pin part
+// that carries DC joins it to chassis (0 V, not a supply line: the feed
+// from the line is one) and no active part has a pin on it.
 func dcToChassis(c *graph.Circuit, net string) bool {
 	chassis := func(m string) bool { return c.RoleOf(m) == graph.Ground }
+	found := false
 	for _, cn := range c.ConnsOf(net) {
 		q := cn.Part
-		if dcPath(q) && !q.IsActive() && len(q.Pins) == 2 && (chassis(q.Pins[0].Net) || chassis(q.Pins[1].Net)) {
-			return true
+		if q.IsActive() {
+			return false
+		}
+		if dcPath(q) && len(q.Pins) == 2 && (chassis(q.Pins[0].Net) || chassis(q.Pins[1].Net)) {
+			found = true
 		}
 	}
-	return false
+	return found
 }
 
 // reachNets are the nets reached from starts through passive parts, never

@@ -38,6 +38,12 @@ func TestPhaseShiftLadderByLoop(t *testing.T) {
 			[]string{"C2", "C3", "C4", "R5", "RV2", "R6"}, nil},
 		{"../../testdata/review19/b01.toml", "Q1", 255.0,
 			[]string{"C1", "C2", "C3", "R5", "R6", "RV1", "R7", "R2"}, []string{"C5", "R8", "Q2"}},
+		// a buffer's base fed from the supply and tapped off the ladder's
+		// middle: its bias and coupling are Q2's (ngspice 2541.33 Hz, on
+		// testdata/phase-shift/bjt-lowpass4-buffer_return.cir, as
+		// TestPhaseShiftInputAtControl)
+		{"../../testdata/phase-shift/bjt-lowpass4-buffer.toml", "Q1", 2541.33,
+			[]string{"R1", "R2", "R3", "R4", "C1", "C2", "C3", "C4"}, []string{"C12", "R8", "Q2"}},
 	} {
 		t.Run(tc.file, func(t *testing.T) {
 			c, err := graph.LoadFile(tc.file)
