@@ -22,8 +22,16 @@ import (
 // could be chains of parts (review18 b01: a resistor and a preset strapped
 // as a rheostat; review12 c02 and review13 b01 alike), 6 after: the
 // four-section valve ladder's and review12 c02's end capacitor, whose slot
-// meets the output coupling's parts, and three faded views.
-const ladderMisdrawnCeiling = 6
+// meets the output coupling's parts, and three faded views. 8 when review19
+// b01 joined the class (its ladder ends on a base divider fed from a
+// decoupled line, through a series base resistor: found and named a
+// phase-shift oscillator only from then, so its two sheets were not counted
+// before): its reduced sheet now draws the whole ladder in the oscillator's
+// box (C3 stood in a box of its own beyond the buffer) with R7 one jog off
+// the line; its faded sheet keeps the generic placement (the divider tap,
+// an inner net with two shunts to two returns, is no ladder node there).
+// No sheet counted before changed.
+const ladderMisdrawnCeiling = 8
 
 // phaseShiftText picks the fixtures that name a phase-shift network.
 var phaseShiftText = regexp.MustCompile(`(?i)phase[- ]shift`)
