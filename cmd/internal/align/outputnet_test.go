@@ -1,6 +1,7 @@
 package align_test
 
 import (
+	"math"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -22,6 +23,55 @@ func TestIFReadPastTheInjection(t *testing.T) {
 	for _, in := range g.Inject {
 		if in.Net == in.RefNet {
 			t.Errorf("injection at %s read at the same net (%s)", in.Net, in.RefWhat)
+		}
+	}
+}
+
+// TestHeptodeConversionCountedOnce: a frequency-changer valve's gm is its
+// conversion conductance in the device model (docs/devices.md, hexode,
+// heptode, octode: 0.5 mA/V), so the mixer row's gain at the IF is already
+// its conversion gain; review19 a02's RF rows took a quarter of it again
+// (the conversion loss counted twice). A transistor mixer's gm is its
+// amplifier transconductance, and its RF rows keep the quarter (a handbook
+// rule, from memory).
+func TestHeptodeConversionCountedOnce(t *testing.T) {
+	cases := []struct {
+		file    string
+		quarter bool
+	}{
+		{"review19/a02.toml", false},
+		{"review18/b02.toml", true},
+	}
+	for _, tc := range cases {
+		_, g := build(t, filepath.Join("..", "..", "..", "testdata", tc.file))
+		var mixerLevel float64
+		for _, in := range g.Inject {
+			if in.Band == "IF" && strings.Contains(in.GainNote, "RF rows take") {
+				mixerLevel = in.Level
+			}
+		}
+		if mixerLevel == 0 {
+			t.Fatalf("%s: no mixer row", tc.file)
+		}
+		n := 0
+		for _, in := range g.Inject {
+			if in.Band != "RF" || !strings.Contains(in.RefWhat, "mixer's") {
+				continue
+			}
+			n++
+			if q := strings.Contains(in.RefWhat, "a quarter"); q != tc.quarter {
+				t.Errorf("%s: RF row at %s refers to %q: quarter %v, want %v", tc.file, in.Net, in.RefWhat, q, tc.quarter)
+			}
+			want := mixerLevel
+			if tc.quarter {
+				want = mixerLevel / 0.25
+			}
+			if math.Abs(in.RefLevel/want-1) > 1e-9 {
+				t.Errorf("%s: RF row at %s refers to %g V at the mixer, want %g", tc.file, in.Net, in.RefLevel, want)
+			}
+		}
+		if n == 0 {
+			t.Errorf("%s: no RF row referred to the mixer", tc.file)
 		}
 	}
 }

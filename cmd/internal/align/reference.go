@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/device"
 	"pare/rules/stages"
 )
 
@@ -69,6 +70,14 @@ func reference(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injecti
 		for j := i + 1; j < len(pts); j++ {
 			if pts[j].mixer {
 				word, dev := mixerWords(c, pts[j].net)
+				if conversionGm(c, pts[j].net) {
+					// a frequency-changer valve's gm is its conversion
+					// conductance already (docs/devices.md): the
+					// mixer row's gain at the IF is its conversion gain,
+					// and a quarter of it again counted the loss twice
+					// (review19 a02)
+					return pts[j].net, rows[j].Level, fmt.Sprintf("the RF at the mixer's %s (%s) that gives the mixer row's IF: the %s's gm is its conversion conductance (docs/devices.md), so the row's gain at the IF stands for its conversion gain; an estimate, not solved", word, pts[j].net, dev)
+				}
 				return pts[j].net, rows[j].Level / convFraction, fmt.Sprintf("the RF at the mixer's %s (%s) that gives the mixer row's IF, through a conversion gain estimated at a quarter of its IF gain (conversion transconductance about a quarter to a third of the %s's gm, %s): an estimate, not solved", word, pts[j].net, dev, convSource)
 			}
 		}
@@ -244,4 +253,17 @@ func watts(w float64) string {
 		return fmt.Sprintf("%.3g W", w)
 	}
 	return fmt.Sprintf("%.3g mW", w*1e3)
+}
+
+// conversionGm says whether the device whose control electrode is on net
+// is a frequency-changer valve (hexode, heptode, octode), whose gm the
+// device model takes as its conversion conductance.
+func conversionGm(c *graph.Circuit, net string) bool {
+	for _, cn := range c.ConnsOf(net) {
+		p := cn.Part
+		if p.Kind == graph.Valve && graph.RoleOfPin(p.Kind, cn.Pin) == graph.RoleControl && device.ValveClass(p.Type) == "hexode, heptode, octode" {
+			return true
+		}
+	}
+	return false
 }

@@ -57,7 +57,10 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	if note := halvesNote(sc, pts, i, in); note != "" {
 		in.GainNote = joinNote(in.GainNote, note)
 	}
-	if p.mixer {
+	switch {
+	case p.mixer && conversionGm(c, p.net):
+		in.GainNote = "at the IF, with the valve's gm taken as its conversion conductance (docs/devices.md): the RF rows take this gain for its conversion gain (an estimate)"
+	case p.mixer:
 		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF rows take it as a quarter of this gain (an estimate)"
 	}
 	if in.Why = implausible(in); in.Why == "" {
