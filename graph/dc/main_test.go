@@ -19,6 +19,13 @@ func chartFile(t *testing.T, path string) (*Point, *Chart) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return chartCircuit(t, c)
+}
+
+// chartCircuit solves c's operating point and charts it with the ideal
+// meter.
+func chartCircuit(t *testing.T, c *graph.Circuit) (*Point, *Chart) {
+	t.Helper()
 	pt, err := Solve(c)
 	if err != nil {
 		t.Fatal(err)

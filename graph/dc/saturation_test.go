@@ -45,14 +45,7 @@ R2 = { r = "10k", pins = ["vcc", "c"] }
 			if err != nil {
 				t.Fatal(err)
 			}
-			pt, err := Solve(c)
-			if err != nil {
-				t.Fatal(err)
-			}
-			ch, err := pt.Chart(Meter{})
-			if err != nil {
-				t.Fatal(err)
-			}
+			_, ch := chartCircuit(t, c)
 			got := strings.Contains(strings.Join(ch.Warnings, "\n"), "Q1 rests saturated")
 			if got != tc.want {
 				t.Errorf("saturation warned %v, want %v: %q", got, tc.want, ch.Warnings)
