@@ -132,6 +132,16 @@ var groundNames = []string{"gnd", "0", "ground", "chassis"}
 // when there is none: the conventional names first, then the first ground
 // net by name.
 func (c *Circuit) GroundNet() string {
+	if name := c.GroundName(); name != "" {
+		return name
+	}
+	c.EnsureNet("gnd", Pos{})
+	return "gnd"
+}
+
+// GroundName is the name of the circuit's ground net as GroundNet finds it,
+// or "" when there is none; unlike GroundNet it never adds one.
+func (c *Circuit) GroundName() string {
 	for _, name := range groundNames {
 		if n := c.Net(name); n != nil && n.Role == Ground {
 			return name
@@ -142,8 +152,7 @@ func (c *Circuit) GroundNet() string {
 			return n.Name
 		}
 	}
-	c.EnsureNet("gnd", Pos{})
-	return "gnd"
+	return ""
 }
 
 // ChooseKeep decides which of two nets keeps its name when they are joined:

@@ -357,7 +357,7 @@ func (f *flow) continues(parts []*graph.Part, a, b int, through bool) []layout.C
 // output's flag and the connector to the port's row side by side).
 func subCircuit(c *graph.Circuit, parts []*graph.Part) *graph.Circuit {
 	sub := &graph.Circuit{File: c.File, Title: c.Title, Band: c.Band, Freqs: c.Freqs, Regions: c.Regions,
-		Nets: c.Nets, Rails: c.Rails, Parts: parts}
+		Rails: c.Rails, Parts: parts}
 	on, kept := map[string]bool{}, map[string]bool{}
 	for _, p := range parts {
 		kept[p.Ref] = true
@@ -365,6 +365,7 @@ func subCircuit(c *graph.Circuit, parts []*graph.Part) *graph.Circuit {
 			on[pn.Net] = true
 		}
 	}
+	sub.Nets = rowNets(c, on)
 	for _, p := range c.Parts {
 		if p.Kind == graph.Port && !kept[p.Ref] {
 			for _, pn := range p.Pins {
@@ -383,4 +384,33 @@ func subCircuit(c *graph.Circuit, parts []*graph.Part) *graph.Circuit {
 		}
 	}
 	return sub
+}
+
+// rowNets are the nets a row's circuit keeps: those its parts touch, the
+// declared ends and the ground net, as the whole circuit has them, in name
+// order. Not the whole circuit's nets: every row's layout indexes its
+// circuit, and a row carrying all of a 10,000-part set's nets made the
+// paged drawing grow with the square of the set.
+func rowNets(c *graph.Circuit, on map[string]bool) []*graph.Net {
+	want := make(map[string]bool, len(on)+4)
+	for n := range on {
+		want[n] = true
+	}
+	for _, n := range append(append([]string{}, c.Inputs...), c.Outputs...) {
+		want[n] = true
+	}
+	for _, r := range c.Regions {
+		want[r.Input], want[r.Output] = true, true
+	}
+	if g := c.Net(c.GroundName()); g != nil {
+		want[g.Name] = true
+	}
+	nets := make([]*graph.Net, 0, len(want))
+	for n := range want {
+		if nt := c.Net(n); nt != nil {
+			nets = append(nets, nt)
+		}
+	}
+	slices.SortFunc(nets, func(a, b *graph.Net) int { return strings.Compare(a.Name, b.Name) })
+	return nets
 }
