@@ -206,3 +206,25 @@ func cpuNow() time.Duration {
 	syscall.Getrusage(syscall.RUSAGE_SELF, &ru)
 	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
 }
+
+// BenchmarkExtentsBank: the placement without routing that a paged view
+// makes of the whole set to cut it into rows (ExtentsPlaced), on receiver
+// banks of about 1,000 and 10,000 parts in a full view: it should grow with
+// the set (issue 13's growth exponent of at most 1.2 per decade).
+func BenchmarkExtentsBank(b *testing.B) {
+	for _, n := range []int{1000, 10000} {
+		b.Run(fmt.Sprintf("bank-%d/full", n), func(b *testing.B) {
+			bank, err := synth.BankCircuit(n, 1)
+			if err != nil {
+				b.Fatal(err)
+			}
+			b.ResetTimer()
+			c0 := cpuNow()
+			for i := 0; i < b.N; i++ {
+				resetMemo()
+				ExtentsPlaced(bank, Options{Links: true})
+			}
+			b.ReportMetric(float64(cpuNow()-c0)/1e6/float64(b.N), "cpu-ms/op")
+		})
+	}
+}

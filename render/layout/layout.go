@@ -227,6 +227,14 @@ type state struct {
 	// slot is, per ref a stage template places, where (template.go), for
 	// orienting it before the template moves it
 	slot map[string]tplSlot
+	// slotMates are, per template anchor, the cells its template slots, in
+	// cell order: the orientation scores ask for a part's template mates
+	// once per part, and scanning every cell for them grew with the square
+	// of a whole set
+	slotMates map[*cell][]*cell
+	// pinCells are the cells on each net by any pin (cellsOn), built on
+	// first use: the cells and their pins stay as made while a layout runs
+	pinCells map[string][]*cell
 	// slotNetSum sums, per net, the columns of its pins' parts, a templated
 	// part's at its slot
 	slotNetSum map[string]float64

@@ -16,6 +16,12 @@ import (
 func (ly *state) orient() {
 	stands := ly.stands()
 	ly.slot = ly.templateSlots()
+	ly.slotMates = map[*cell][]*cell{}
+	for _, cl := range ly.cells {
+		if t, ok := ly.slot[cl.ref]; ok {
+			ly.slotMates[t.anchor] = append(ly.slotMates[t.anchor], cl)
+		}
+	}
 	ly.slotNetSum = ly.slotNets()
 	ups := ly.padderUps()
 	for _, cl := range ly.cells {

@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"slices"
 	"sort"
 
 	"pare/graph"
@@ -42,11 +43,11 @@ func Tanks(c *graph.Circuit) []TankCap {
 			onNet[pn.Net] = append(onNet[pn.Net], p)
 		}
 	}
-	caps := []*graph.Part{}
+	capAt := map[*graph.Part]int{}
 	for _, p := range c.Parts {
 		if p.Kind == graph.Capacitor && p.Type != graph.CapElectrolytic && len(p.Pins) == 2 && wired(p.Pins[0].Net) && wired(p.Pins[1].Net) &&
 			!(acg(p.Pins[0].Net) && acg(p.Pins[1].Net)) {
-			caps = append(caps, p)
+			capAt[p] = len(capAt)
 		}
 	}
 	used := map[string]bool{}
@@ -60,7 +61,7 @@ func Tanks(c *graph.Circuit) []TankCap {
 			if !wired(e1) || !wired(e2) || same(e1, e2) {
 				continue
 			}
-			for _, cp := range caps {
+			for _, cp := range capsAt(onNet, capAt, e1, e2, acg) {
 				if used[cp.Ref] {
 					continue
 				}
@@ -84,6 +85,28 @@ func Tanks(c *graph.Circuit) []TankCap {
 }
 
 func wired(n string) bool { return n != "" && n != notConnected }
+
+// capsAt are the candidate tuning capacitors on either end of a winding,
+// in the circuit's order, each once. A capacitor that tunes a winding has
+// a pin on one of its ends that is no AC ground (the ends are never both
+// AC ground, and a capacitor with both pins on AC ground is none), so only
+// these are tried: trying every capacitor for every
+// winding made a whole set's layout grow with its square.
+func capsAt(onNet map[string][]*graph.Part, capAt map[*graph.Part]int, e1, e2 string, acg func(string) bool) []*graph.Part {
+	var out []*graph.Part
+	for _, n := range [2]string{e1, e2} {
+		if acg(n) {
+			continue // a capacitor on this end alone has its other pin on AC ground too, or is on the other end
+		}
+		for _, p := range onNet[n] {
+			if _, ok := capAt[p]; ok && !slices.Contains(out, p) {
+				out = append(out, p)
+			}
+		}
+	}
+	sort.Slice(out, func(i, j int) bool { return capAt[out[i]] < capAt[out[j]] })
+	return out
+}
 
 // returns says whether a winding's cold-end net returns to AC ground
 // through a fixed capacitor other than cp and carries only resistors and

@@ -133,7 +133,7 @@ func (ly *state) hangScore(cl *cell, s symbol.Shape) float64 {
 func (ly *state) chainNeighbours(ref string, t tplSlot) (above, below *graph.Part) {
 	me := t.anchor.part
 	if ref != t.anchor.ref {
-		for _, cl := range ly.cells {
+		for _, cl := range ly.slotMates[t.anchor] {
 			if cl.ref == ref {
 				me = cl.part
 			}
@@ -154,8 +154,8 @@ func (ly *state) chainNeighbours(ref string, t tplSlot) (above, below *graph.Par
 	if float64(t.anchor.col) == t.col {
 		consider(t.anchor.part, 0)
 	}
-	for _, cl := range ly.cells {
-		if o, ok := ly.slot[cl.ref]; ok && cl.ref != ref && o.anchor == t.anchor && o.col == t.col {
+	for _, cl := range ly.slotMates[t.anchor] {
+		if o := ly.slot[cl.ref]; cl.ref != ref && o.col == t.col {
 			consider(cl.part, o.row)
 		}
 	}
@@ -237,8 +237,9 @@ func (ly *state) lineScore(cl *cell, s symbol.Shape) float64 {
 	score := 0.0
 	for _, p := range s.Pins {
 		sum, n := 0.0, 0
-		for ref, o := range ly.slot {
-			if ref == cl.ref || o.anchor != t.anchor || !ly.shuntBelow(ref, o, t) && !ly.alongLine(ref, o, t) || !ly.onNet(ref, p.Net) {
+		for _, mate := range ly.slotMates[t.anchor] {
+			ref, o := mate.ref, ly.slot[mate.ref]
+			if ref == cl.ref || !ly.shuntBelow(ref, o, t) && !ly.alongLine(ref, o, t) || !ly.onNet(ref, p.Net) {
 				continue
 			}
 			sum += o.col

@@ -99,9 +99,11 @@ func (ly *state) refuseCollisions(stage int, slots []*slotted, all []*block) {
 // supply lead); a template is not refused for it, and it moves aside
 // (clearRails).
 func (ly *state) yields(b *block) bool {
-	for _, cl := range append(append([]*cell{}, b.cells...), b.chain...) {
-		if cl.edge != 0 || cl.conn || len(ly.signalNets(cl)) > 0 && !cl.faded {
-			return false
+	for _, cells := range [2][]*cell{b.cells, b.chain} {
+		for _, cl := range cells {
+			if cl.edge != 0 || cl.conn || len(ly.signalNets(cl)) > 0 && !cl.faded {
+				return false
+			}
 		}
 	}
 	return true
