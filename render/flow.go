@@ -366,50 +366,43 @@ func subCircuit(c *graph.Circuit, parts []*graph.Part) *graph.Circuit {
 		}
 	}
 	sub.Nets = rowNets(c, on)
-	for _, p := range c.Parts {
-		if p.Kind == graph.Port && !kept[p.Ref] {
-			for _, pn := range p.Pins {
-				delete(on, pn.Net)
-			}
-		}
-	}
 	for _, n := range c.Inputs {
-		if on[n] {
+		if on[n] && !portElsewhere(c, n, kept) {
 			sub.Inputs = append(sub.Inputs, n)
 		}
 	}
 	for _, n := range c.Outputs {
-		if on[n] {
+		if on[n] && !portElsewhere(c, n, kept) {
 			sub.Outputs = append(sub.Outputs, n)
 		}
 	}
 	return sub
 }
 
-// rowNets are the nets a row's circuit keeps: those its parts touch, the
-// declared ends and the ground net, as the whole circuit has them, in name
-// order. Not the whole circuit's nets: every row's layout indexes its
+// portElsewhere says whether a port on net sits on another row.
+func portElsewhere(c *graph.Circuit, net string, kept map[string]bool) bool {
+	for _, cn := range c.ConnsOf(net) {
+		if cn.Part.Kind == graph.Port && !kept[cn.Part.Ref] {
+			return true
+		}
+	}
+	return false
+}
+
+// rowNets are the nets a row's circuit keeps: those its parts touch and
+// the ground net, as the whole circuit has them, in name order (a declared
+// end no part of the row is on is no end of the row's). Not the whole circuit's nets: every row's layout indexes its
 // circuit, and a row carrying all of a 10,000-part set's nets made the
 // paged drawing grow with the square of the set.
 func rowNets(c *graph.Circuit, on map[string]bool) []*graph.Net {
-	want := make(map[string]bool, len(on)+4)
+	nets := make([]*graph.Net, 0, len(on)+1)
 	for n := range on {
-		want[n] = true
-	}
-	for _, n := range append(append([]string{}, c.Inputs...), c.Outputs...) {
-		want[n] = true
-	}
-	for _, r := range c.Regions {
-		want[r.Input], want[r.Output] = true, true
-	}
-	if g := c.Net(c.GroundName()); g != nil {
-		want[g.Name] = true
-	}
-	nets := make([]*graph.Net, 0, len(want))
-	for n := range want {
 		if nt := c.Net(n); nt != nil {
 			nets = append(nets, nt)
 		}
+	}
+	if g := c.Net(c.GroundName()); g != nil && !on[g.Name] {
+		nets = append(nets, g)
 	}
 	slices.SortFunc(nets, func(a, b *graph.Net) int { return strings.Compare(a.Name, b.Name) })
 	return nets
