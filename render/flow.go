@@ -44,6 +44,11 @@ type flow struct {
 	loops     []loop
 	loopsDone bool
 	loopFits  map[loop]bool // fitsRow's answers
+	// the links from a tuned can to the stage it feeds (cancuts.go), and
+	// whether the rows keep each that fits a row whole (canRows)
+	feedLinks []loop
+	feedsDone bool
+	keepCans  bool
 	nets      []string
 }
 

@@ -174,7 +174,7 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 		if len(bs) > 0 && (bs[len(bs)-1].x1-bs[0].x0 > cw-rowSlack || mixes(bs)) {
 			ends = splitRows(bs, cw-rowSlack)
 		}
-		ends, laid, err := f.layoutRows(ends, cw, ch)
+		ends, laid, err := f.canRows(ends, cw, ch)
 		if err != nil {
 			return nil, nil, nil, err
 		}
@@ -320,6 +320,17 @@ func (f *flow) layoutRows(ends []int, cw, ch float64) ([]int, []*layout.Result, 
 				break
 			}
 			ends, r = moveEnd(ends, i, grown), g
+		}
+		// a row never ends between a can and the stage it feeds where
+		// the two fit a row together (cancuts.go): the can opens the next
+		if f.keepCans && i+1 < len(ends) {
+			if e := f.canStart(start(ends, i), ends[i]); e < ends[i] {
+				ends = moveEnd(ends, i, e)
+				var err error
+				if r, err = f.layout(start(ends, i), e); err != nil {
+					return nil, nil, err
+				}
+			}
 		}
 		out = append(out, r)
 	}

@@ -222,6 +222,9 @@ func (f *flow) cutCost(c int) [2]int {
 // (each an off-row connector on both rows).
 type Break struct {
 	Loops, Connectors int
+	// Cans counts the links from a tuned can to the stage it feeds
+	// (cancuts.go) that fit one row and are split there.
+	Cans int
 }
 
 // Breaks are the row breaks of the sheet cut onto cfg.Page, in order;
@@ -241,7 +244,7 @@ func (cfg Config) Breaks(s *Sheet) ([]Break, error) {
 			continue
 		}
 		k := f.cutCost(e)
-		out = append(out, Break{Loops: k[0], Connectors: k[1]})
+		out = append(out, Break{Loops: k[0], Connectors: k[1], Cans: f.cansCut(e)})
 	}
 	return out, nil
 }
