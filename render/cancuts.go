@@ -195,6 +195,22 @@ func (f *flow) hangsOn(i, can int) bool {
 	return true
 }
 
+// canEnd is row i of ends, laid out as r, ended before the can where it
+// would split a can from the stage it feeds (canStart) while the rows keep
+// cans whole: the can opens the next row.
+func (f *flow) canEnd(ends []int, i int, r *layout.Result) ([]int, *layout.Result, error) {
+	if !f.keepCans || i+1 >= len(ends) {
+		return ends, r, nil
+	}
+	e := f.canStart(start(ends, i), ends[i])
+	if e == ends[i] {
+		return ends, r, nil
+	}
+	ends = moveEnd(ends, i, e)
+	r, err := f.layout(start(ends, i), e)
+	return ends, r, err
+}
+
 // canRows lays the rows out (layoutRows) as the greedy flow cuts them, and
 // where that splits a can from the stage it feeds, again with the can
 // opening the next row (canStart); the second is kept when it takes no

@@ -321,16 +321,9 @@ func (f *flow) layoutRows(ends []int, cw, ch float64) ([]int, []*layout.Result, 
 			}
 			ends, r = moveEnd(ends, i, grown), g
 		}
-		// a row never ends between a can and the stage it feeds where
-		// the two fit a row together (cancuts.go): the can opens the next
-		if f.keepCans && i+1 < len(ends) {
-			if e := f.canStart(start(ends, i), ends[i]); e < ends[i] {
-				ends = moveEnd(ends, i, e)
-				var err error
-				if r, err = f.layout(start(ends, i), e); err != nil {
-					return nil, nil, err
-				}
-			}
+		var err error
+		if ends, r, err = f.canEnd(ends, i, r); err != nil {
+			return nil, nil, err
 		}
 		out = append(out, r)
 	}
