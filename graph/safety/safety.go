@@ -220,6 +220,16 @@ func collect(c *graph.Circuit) *evidence {
 	for _, p := range c.Parts {
 		partEvidence(ev, p, supply)
 	}
+	for _, t := range []struct{ what, text string }{{"the title", c.Title}, {"the netlist's note", c.Note}} {
+		// "The 18 V rail comes from a mains transformer and bridge in the
+		// set (not on this sheet)": with no mains transformer drawn, the
+		// sheet is cut from a set fed through one (review19 b04 got the
+		// battery caution). A note that denies the transformer is no
+		// evidence.
+		if len(ev.mainsTransformers) == 0 && mainsTransformerWord.MatchString(t.text) && !noTransformer.MatchString(t.text) {
+			ev.mainsTransformers = append(ev.mainsTransformers, "off the sheet ("+t.what+")")
+		}
+	}
 	ev.chain = append(ev.chain, seriesHeaters(c)...)
 	ev.hotHeaters = hotHeaterWindings(c, ev.hot)
 	return ev
@@ -418,7 +428,14 @@ var (
 	mainsWord           = regexp.MustCompile(`(?i)(^|[^a-z])mains([^a-z]|$)`)
 	mainsAC             = regexp.MustCompile(`(?i)\b(\d{3})\s*v\s*(~|ac\b|a\.c\.)`)
 	offSheetTransformer = regexp.MustCompile(`(?i)transformer`)
-	acdcWord            = regexp.MustCompile(`(?i)\bac\s*[/-]\s*dc\b|\buniversal\b`)
+	// mainsTransformerWord finds a set's text naming its mains
+	// transformer ("from a mains transformer and bridge"; a "mains
+	// adaptor" is not one: a battery set may be run from a safe
+	// extra-low-voltage adaptor), noTransformer one that denies it ("no
+	// mains transformer", "without a mains transformer", "transformerless").
+	mainsTransformerWord = regexp.MustCompile(`(?i)\bmains[\s-]+transformer`)
+	noTransformer        = regexp.MustCompile(`(?i)\b(no|not|without|never)\s+(a\s+|any\s+)?mains[\s-]+transformer|transformerless`)
+	acdcWord             = regexp.MustCompile(`(?i)\bac\s*[/-]\s*dc\b|\buniversal\b`)
 	// batteryWord finds a battery named as a source ("HT +90 V battery",
 	// "LT cell", "B+ batt"); a battery set's supplies say so.
 	batteryWord = regexp.MustCompile(`(?i)\bbatt(ery|eries)?\b|\bcells?\b`)

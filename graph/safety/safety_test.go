@@ -123,6 +123,20 @@ func TestAssess(t *testing.T) {
 		// the line: nothing carries the mains to T1.
 		{name: "mains stopped by a lamp", text: strings.NewReplacer(`d = "mains_n"`, `d = "nc"`, `"fuse 1 A"`, `"dial lamp"`).Replace(switchedNet),
 			want: LiveChassis, because: "mains inputs"},
+		// review19 b04: an 18 V transistor output stage whose netlist note
+		// says the rail comes from a mains transformer in the set, off this
+		// sheet: the mains caution, not the battery one (README "Safety").
+		{name: "mains transformer named in the note", file: "testdata/review19/b04.toml", want: MainsHT, because: "mains transformer off the sheet (the netlist's note)"},
+		{name: "mains transformer named in the title", text: "title = \"Mains transformer set, output stage\"\n" + strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1),
+			want: MainsHT, because: "mains transformer off the sheet (the title)"},
+		// Near misses: a note that denies the transformer, or speaks of a
+		// transformer without the mains, leaves a 12 V set a battery set.
+		{name: "note denies a mains transformer", text: "note = \"Battery set: no mains transformer, no mains input.\"\n" + strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1),
+			want: Battery, because: "vcc 12 V"},
+		{name: "note names a mains adaptor", text: "note = \"Battery set, also run from a 12 V mains adaptor.\"\n" + strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1),
+			want: Battery, because: "vcc 12 V"},
+		{name: "note names a transformer, not the mains", text: "note = \"The output transformer is a 1k:8 type.\"\n" + strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1),
+			want: Battery, because: "vcc 12 V"},
 		{name: "the whole club receiver", file: "examples/club-receiver.toml", want: MainsHT, because: "mains transformer T9"},
 		// A valve set whose HT rail is called a battery and nothing comes
 		// from the mains: the battery valve caution, not the mains one.
