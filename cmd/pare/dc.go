@@ -182,8 +182,8 @@ func writeSupply(w io.Writer, ch *dc.Chart) {
 		for _, r := range ch.Rails {
 			fmt.Fprintf(w, "  %-12s %10s   draws %s\n", r.Net, volts(r.Volts), amps(r.Amps))
 			if e := r.Estimate; e != nil {
-				fmt.Fprintf(w, "  %-12s estimate: %s rectifier on %s, %s peak, %s drop, ripple %s p-p\n  %-12s method: %s\n  %-12s cross-check: the conduction-angle formula gives %s\n",
-					"", e.Wave, e.Transformer, volts(e.Peak), volts(e.Drop), volts(e.Ripple), "", e.Method, "", volts(e.Formula))
+				fmt.Fprintf(w, "  %-12s estimate: %s rectifier on %s%s, %s peak, %s drop, ripple %s p-p\n  %-12s method: %s\n  %-12s cross-check: the conduction-angle formula gives %s\n",
+					"", e.Wave, e.Transformer, dc.Through(e), volts(e.Peak), volts(e.Drop), volts(e.Ripple), "", e.Method, "", volts(e.Formula))
 			}
 		}
 	}

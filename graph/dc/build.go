@@ -152,7 +152,7 @@ func (m *model) assignNodes(c *graph.Circuit, uf *graph.NamedSets) error {
 	// Fixed groups first, in net order; two different voltages joined is bad input.
 	estimated := map[string]int{} // reservoir net → its rectifier
 	for k, r := range m.rects {
-		estimated[r.net] = k
+		estimated[r.held()] = k
 	}
 	m.rectFixed = make([]int, len(m.rects))
 	for _, n := range c.Nets {

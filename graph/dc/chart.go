@@ -110,7 +110,14 @@ func (p *Point) Chart(mt Meter) (*Chart, error) {
 		if p.m.fixedV[i] < 0 {
 			amps = -amps // a negative rail delivers the current its pins return
 		}
-		ch.Rails = append(ch.Rails, Rail{Net: name, Volts: p.m.fixedV[i], Amps: amps, Estimate: p.estimateFor(name)})
+		rail := Rail{Net: name, Volts: p.m.fixedV[i], Amps: amps, Estimate: p.estimateFor(name)}
+		if r := p.m.surgeFed(name); r != nil {
+			// held before a surge resistor: the rail is the reservoir
+			// behind it, which carries the same current
+			rail.Net, rail.Estimate = r.net, p.estimateFor(r.net)
+			rail.Volts, _ = p.Volts(r.net)
+		}
+		ch.Rails = append(ch.Rails, rail)
 		if w := p.sinkingRail(name, amps); w != "" {
 			ch.Warnings = append(ch.Warnings, w)
 		}
@@ -166,6 +173,11 @@ func (p *Point) chartPart(ch *Chart, part *graph.Part, mt Meter) error {
 		}
 		rating, _ := part.Param("watts")
 		h := Heat{Ref: part.Ref, Watts: w, Rating: rating}
+		if e := p.surgeEstimate(part.Ref); e != nil {
+			// the charging pulses heat it, not their mean
+			h.Watts, h.Note = e.PulseRMS*e.PulseRMS*e.SurgeOhms, SurgeHeatNote
+			w = h.Watts
+		}
 		if part.Kind == graph.Resistor {
 			if hw, note, ok := p.heaterChainHeat(part); ok {
 				h.Watts, h.Note = w+hw, note

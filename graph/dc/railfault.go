@@ -41,6 +41,11 @@ func (e *faultEdit) rectifierFault(f Fault) {
 			}
 		case slices.Contains(r.parts, f.Ref) && f.Kind == "short":
 			r.dead = true
+		case f.Ref == r.surge && f.Kind == "high":
+			// a surge resistor gone high: the pulses see it too (an open
+			// one stops the DC solve's feed on its own)
+			r.rs += r.rsurge * (highFactor - 1)
+			r.rsurge *= highFactor
 		case f.Ref == r.xfmr && strings.HasPrefix(f.Kind, "winding "):
 			w := strings.TrimSuffix(strings.TrimPrefix(f.Kind, "winding "), " open")
 			switch {
@@ -94,10 +99,10 @@ func (p *Point) solveFaultRails(s *system, fm *model, extra []branch, start []fl
 				return 0, Estimate{}, err
 			}
 			v = w
-			e := r.at(fm.drawn(partCurrents(fm, w), r.net) + extraDrawn(fm, extra, w, r.net))
-			return rail - e.Volts, e, nil
+			e := r.at(fm.drawn(partCurrents(fm, w), r.held()) + extraDrawn(fm, extra, w, r.held()))
+			return rail - r.heldVolts(e), e, nil
 		}
-		est, ok, err := alternate(at, fm.fixedV[idx])
+		est, ok, err := alternate(at, fm.fixedV[idx], r.heldVolts)
 		if err != nil {
 			return nil, err
 		}
@@ -126,7 +131,7 @@ func (p *Point) solveFaultRails(s *system, fm *model, extra []branch, start []fl
 // alternate tries the healthy solve's plain alternation (the rail at the
 // estimate of the last load) for a few rounds; ok is false when it has not
 // settled, as under a heavy fault load.
-func alternate(at func(float64) (float64, Estimate, error), rail float64) (Estimate, bool, error) {
+func alternate(at func(float64) (float64, Estimate, error), rail float64, held func(Estimate) float64) (Estimate, bool, error) {
 	for range 8 {
 		g, e, err := at(rail)
 		if err != nil {
@@ -135,7 +140,7 @@ func alternate(at func(float64) (float64, Estimate, error), rail float64) (Estim
 		if math.Abs(g) < 1e-6 {
 			return e, true, nil
 		}
-		rail = e.Volts
+		rail = held(e)
 	}
 	return Estimate{}, false, nil
 }

@@ -34,6 +34,15 @@ import (
 //
 // with Vd at the mean current while a diode conducts, π·I/(k·θ). Leakage
 // inductance and the mains transformer's regulation are not modelled.
+//
+// A surge resistor between the rectifier and the reservoir (one resistor
+// from the diodes' cathodes to the reservoir's net) carries the same
+// charging pulses as the winding: it adds to the source resistance of the
+// estimate, and in the DC solve the diodes' net is held at the reservoir's
+// mean plus the load current times it (the mean of the pulses through the
+// resistor is the load current), so the resistor carries the load and the
+// reservoir's net solves to the estimate; a fault in the resistor changes
+// the DC solve as any resistor's does (railfault.go).
 // rectifier_test.go checks the estimate against an ngspice transient of the
 // same rectifier (docs/references.md §18).
 const rectifierMethod = "capacitor-input filter: the reservoir's periodic steady state over the mains cycle (winding rdc, each junction's own law); cross-check: conduction angle (Schade, Proc. IRE 1943)"
@@ -52,6 +61,13 @@ type Estimate struct {
 	Peak        float64 `json:"peak"` // √2·Vac across the conducting path, open circuit
 	Drop        float64 `json:"drop"` // peak less the reservoir's top: diodes and winding
 	Wave        string  `json:"wave"` // "half-wave", "full-wave centre-tapped", "full-wave bridge"
+	// Surge is the resistor between the rectifier and the reservoir, ""
+	// for none; SurgeOhms its resistance, counted in the source
+	// resistance; PulseRMS the RMS of the charging current through it
+	// over the cycle (its heat is PulseRMS²·R, not the mean's square).
+	Surge       string  `json:"surge,omitempty"`
+	SurgeOhms   float64 `json:"surge_ohms,omitempty"`
+	PulseRMS    float64 `json:"pulse_rms,omitempty"`
 	Transformer string  `json:"transformer"`
 	Method      string  `json:"method"`
 }
@@ -59,6 +75,11 @@ type Estimate struct {
 // rectifier is one captured rectifier and its reservoir.
 type rectifier struct {
 	net, xfmr, wave string
+	// feed is the diodes' cathodes' net when a surge resistor (surge,
+	// rsurge ohms) stands between it and the reservoir's net, "" without
+	// one; the DC solve holds feed (held).
+	feed, surge     string
+	rsurge          float64
 	full            bool
 	peak, hz, c, rs float64
 	ends            []string // the winding's nets that carry the secondary's AC
@@ -99,7 +120,8 @@ func (r *rectifier) drop(i float64) float64 {
 // at is the estimate at load current i: the reservoir's periodic steady
 // state (rectwave.go), with the conduction-angle formula as its cross-check.
 func (r *rectifier) at(i float64) Estimate {
-	e := Estimate{Net: r.net, Volts: r.peak, Formula: r.peak, Amps: i, Peak: r.peak, Wave: r.wave, Transformer: r.xfmr, Method: rectifierMethod}
+	e := Estimate{Net: r.net, Volts: r.peak, Formula: r.peak, Amps: i, Peak: r.peak, Wave: r.wave, Transformer: r.xfmr, Method: rectifierMethod,
+		Surge: r.surge, SurgeOhms: r.rsurge}
 	if r.dead {
 		e.Volts, e.Formula = 0, 0
 		return e
@@ -110,6 +132,9 @@ func (r *rectifier) at(i float64) Estimate {
 	e.Formula = r.formula(i)
 	w := r.steady(i, e.Formula)
 	e.Volts, e.Ripple, e.Drop, e.Fundamental = math.Max(w.mean, 0), w.top-w.bottom, r.peak-w.top, w.fundamental
+	if r.surge != "" {
+		e.PulseRMS = w.rms
+	}
 	return e
 }
 
@@ -253,10 +278,16 @@ func rectifierOf(c *graph.Circuit, p *graph.Part, vac float64, diodes []rectDiod
 		return rectifier{}, fmt.Errorf("the rectifier on winding %s is none pare can estimate (half-wave with one end at chassis, centre-tapped full-wave with the tap at chassis, or a bridge)", sec.name)
 	}
 	if r.c = reservoir(c, r.net); !(r.c > 0) {
-		if sr := surgeResistor(c, r.net); sr != nil {
-			return rectifier{}, fmt.Errorf("no reservoir capacitor from %s to chassis: %s between the rectifier and the reservoir is not one pare models; capture it as part of the winding (add its resistance to the winding's rdc) and the reservoir on the rectifier's net", r.net, sr.Ref)
+		sr := surgeResistor(c, r.net)
+		if sr == nil {
+			return rectifier{}, fmt.Errorf("no reservoir capacitor from %s to chassis: pare estimates capacitor-input filters only", r.net)
 		}
-		return rectifier{}, fmt.Errorf("no reservoir capacitor from %s to chassis: pare estimates capacitor-input filters only", r.net)
+		r.feed, r.surge, r.rsurge = r.net, sr.Ref, sr.Value.Max
+		r.net = sr.Pins[0].Net
+		if r.net == r.feed {
+			r.net = sr.Pins[1].Net
+		}
+		r.c, r.rs = reservoir(c, r.net), r.rs+r.rsurge
 	}
 	return r, nil
 }
@@ -290,75 +321,6 @@ func reservoir(c *graph.Circuit, net string) float64 {
 	return total
 }
 
-// rectifierWinding finds the one winding (or centre-tapped pair) of p that
-// feeds the rectifier: the winding with a rectifying junction's anode on an
-// end off chassis. A winding touched only by cathodes is not a source: the
-// filament winding of a directly heated rectifier valve has an end on the
-// cathode (the filament is the cathode, at full HT) and a heater winding
-// with one end at chassis meets the cathodes strapped there; both are the
-// cathodes' connections, not rectifier windings. Without any anode on an
-// end, the windings any junction touches are taken, so that a negative
-// supply or a stray diode gets its own message.
-func rectifierWinding(c *graph.Circuit, p *graph.Part, diodes []rectDiode) (secondary, error) {
-	anodeOn := func(n string) bool {
-		return n != "" && c.RoleOf(n) != graph.Ground && slices.ContainsFunc(diodes, func(d rectDiode) bool { return d.a == n })
-	}
-	touches := func(n string) bool {
-		return n != "" && slices.ContainsFunc(diodes, func(d rectDiode) bool { return d.a == n || d.k == n })
-	}
-	var fed, touched []secondary
-	for _, s := range secondaries(p) {
-		if anodeOn(s.e1) || anodeOn(s.e2) {
-			fed = append(fed, s)
-		}
-		if touches(s.e1) || touches(s.e2) {
-			touched = append(touched, s)
-		}
-	}
-	if len(fed) == 0 {
-		fed = touched
-	}
-	switch len(fed) {
-	case 0:
-		return secondary{}, fmt.Errorf("vac is given but no rectifier diode is connected to its windings")
-	case 1:
-		return fed[0], nil
-	}
-	return secondary{}, fmt.Errorf("vac is given but rectifier anodes hang on %d windings: pare estimates one rectifier winding per transformer", len(fed))
-}
-
-// secondaries lists p's windings with their end nets, a centre-tapped
-// winding (two halves NAMEa, NAME1–NAMEt, and NAMEb, NAMEt–NAME2) as one
-// with its tap.
-func secondaries(p *graph.Part) []secondary {
-	var out []secondary
-	for i := 0; i < len(p.Windings); i++ {
-		w := p.Windings[i]
-		s := secondary{name: w.Name, e1: p.NetOf(w.From), e2: p.NetOf(w.To)}
-		if i+1 < len(p.Windings) && w.To == p.Windings[i+1].From && w.To[len(w.To)-1] == 't' {
-			s = secondary{name: w.Name[:len(w.Name)-1], e1: p.NetOf(w.From), e2: p.NetOf(p.Windings[i+1].To), tap: p.NetOf(w.To)}
-			i++
-		}
-		out = append(out, s)
-	}
-	return out
-}
-
-// windingR is the DC resistance in the conducting path: the rectifier
-// winding's own rdc (a centre-tapped winding's first half: tap to end),
-// else the part's, else the default.
-func windingR(p *graph.Part, sec secondary) float64 {
-	for _, name := range []string{sec.name, sec.name + "a"} {
-		if w := p.Winding(name); w != nil && w.Rdc > 0 {
-			return w.Rdc
-		}
-	}
-	if r, ok := p.Param("rdc"); ok {
-		return r
-	}
-	return def("winding", "rdc")
-}
-
 // solveRails solves the model; with estimated rails it alternates the DC
 // solve and the estimate at the load current it gives until the rail
 // voltages agree to a microvolt (the load current changes little with the
@@ -371,9 +333,10 @@ func (m *model) solveRails() ([]float64, string, int, error) {
 		m.estimates = m.estimates[:0]
 		for k := range m.rects {
 			r := &m.rects[k] // keeps its warm start across the rounds
-			e := r.at(m.drawn(parts, r.net))
-			moved = math.Max(moved, math.Abs(e.Volts-m.fixedV[m.rectFixed[k]]))
-			m.fixedV[m.rectFixed[k]] = e.Volts
+			e := r.at(m.drawn(parts, r.held()))
+			v := r.heldVolts(e)
+			moved = math.Max(moved, math.Abs(v-m.fixedV[m.rectFixed[k]]))
+			m.fixedV[m.rectFixed[k]] = v
 			m.estimates = append(m.estimates, e)
 		}
 		if moved < 1e-6 {

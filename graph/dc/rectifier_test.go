@@ -155,8 +155,6 @@ func TestRectifierBadInput(t *testing.T) {
 			"x.toml:4:1: transformer T1: vac is given but no rectifier diode is connected to its windings"},
 		{"no reservoir", xfmr + "D1 = { diode = \"rectifier\", pins = [\"s1\", \"out\"] }\nR1 = { r = \"1k\", pins = [\"out\", \"gnd\"] }\n",
 			"x.toml:4:1: transformer T1: no reservoir capacitor from out to chassis: pare estimates capacitor-input filters only"},
-		{"surge resistor before the reservoir", xfmr + "D1 = { diode = \"rectifier\", pins = [\"s1\", \"out\"] }\nR1 = { r = \"10\", pins = [\"out\", \"res\"] }\nC1 = { c = \"100u\", pins = [\"res\", \"gnd\"] }\nR2 = { r = \"1k\", pins = [\"res\", \"gnd\"] }\n",
-			"x.toml:4:1: transformer T1: no reservoir capacitor from out to chassis: R1 between the rectifier and the reservoir is not one pare models; capture it as part of the winding (add its resistance to the winding's rdc) and the reservoir on the rectifier's net"},
 		{"negative supply", xfmr + "D1 = { diode = \"rectifier\", pins = [\"out\", \"s1\"] }\nD2 = { diode = \"rectifier\", pins = [\"out2\", \"s1\"] }\nR1 = { r = \"1k\", pins = [\"out\", \"gnd\"] }\n",
 			"x.toml:4:1: transformer T1: the rectifier on winding s must feed one reservoir net through the diodes' cathodes (a positive supply), not 0"},
 		{"anodes on two windings", strings.NewReplacer("s = \"100m\" }", "s = \"100m\", b = \"100m\" }", "s2 = \"gnd\"", "s2 = \"gnd\", b1 = \"b1\", b2 = \"gnd\"").Replace(xfmr) +

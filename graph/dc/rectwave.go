@@ -36,7 +36,9 @@ var sinTable = func() []float64 {
 // ripple is no sawtooth, its fast recharge puts more of the swing in the
 // fundamental than a sawtooth's 2/π, and the fundamental is what a
 // smoothing section passes most of).
-type wave struct{ mean, top, bottom, fundamental float64 }
+// rms is the charging current's RMS over the cycle: what heats a surge
+// resistor in the pulses' path.
+type wave struct{ mean, top, bottom, fundamental, rms float64 }
 
 // steady finds the reservoir's periodic steady state at load current i:
 // the secant method on the start voltage v of one ripple cycle, the
@@ -80,7 +82,7 @@ func (r *rectifier) cycle(i, v float64) (float64, wave) {
 		steps /= 2
 	}
 	w := wave{top: v, bottom: v}
-	sum, u := 0.0, 0.0
+	sum, u, sq := 0.0, 0.0, 0.0
 	re, im := 0.0, 0.0
 	per := stepsPerCycle / steps // mains steps per ripple step in sinTable
 	for n := 1; n <= steps; n++ {
@@ -89,12 +91,14 @@ func (r *rectifier) cycle(i, v float64) (float64, wave) {
 		j := r.junctionCurrent(e-v+h*i/r.c, r.rs+h/r.c, &u)
 		v += h * (j - i) / r.c
 		sum += v
+		sq += j * j
 		k := (n * per) % stepsPerCycle
 		re += v * sinTable[(k+stepsPerCycle/4)%stepsPerCycle] // cos of the ripple phase
 		im += v * sinTable[k]
 		w.top, w.bottom = math.Max(w.top, v), math.Min(w.bottom, v)
 	}
 	w.mean = sum / float64(steps)
+	w.rms = math.Sqrt(sq / float64(steps))
 	// amplitude 2/N·|Σ v·e^(−jθ)|, twice that peak to peak
 	w.fundamental = 4 * math.Hypot(re, im) / float64(steps)
 	return v, w

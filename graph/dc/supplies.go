@@ -46,6 +46,10 @@ func (p *Point) supplyWalk() []SupplyPoint {
 	var frontier []string
 	for _, name := range p.m.fixedNet {
 		if name != "" && p.Circuit.RoleOf(name) != graph.Ground && p.Circuit.RoleOf(name) != graph.Heater {
+			if r := p.m.surgeFed(name); r != nil {
+				fed[name] = true // the walk starts from the reservoir, the rail
+				name = r.net
+			}
 			frontier = append(frontier, name)
 			fed[name] = true
 		}

@@ -163,7 +163,8 @@ func (x *figCtx) checkFollower(p *graph.Part) {
 
 // checkSmoothing keeps "smoothing" where a power rectifier
 // (isPowerRectifier, the walk the ripple note's rectifier is found by) sits
-// on either of the filter's nets. A battery set's decoupling has none; a
+// on either of the filter's nets, or charges one through a surge resistor
+// (rectifierOn). A battery set's decoupling has none; a
 // mains set's decoupler takes a line a section before it has smoothed, and
 // says so, naming the rectifier its ripple note names, so the two notes
 // tell one story.
@@ -173,10 +174,8 @@ func (x *figCtx) checkSmoothing(nets ...string) {
 		if !ok || id == groundNet {
 			continue
 		}
-		for _, ci := range x.w.conns[id] {
-			if x.isPowerRectifier(ci) {
-				return
-			}
+		if x.rectifierOn(id) {
+			return
 		}
 	}
 	x.capAsDecoupling()

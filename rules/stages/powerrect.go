@@ -72,10 +72,10 @@ func (x *figCtx) junctions(ci int) []junction {
 func (x *figCtx) supplyJunction(j junction) (src int, ok bool) {
 	src, res := -1, -1
 	switch {
-	case j.k >= 0 && x.isReservoir(j.k):
-		src, res = j.a, j.k
-	case x.isReservoir(j.a):
-		src, res = j.k, j.a
+	case x.chargedNet(j.k) >= 0:
+		src, res = j.a, x.chargedNet(j.k)
+	case x.chargedNet(j.a) >= 0:
+		src, res = j.k, x.chargedNet(j.a)
 	}
 	if src < 0 || x.isBypassNet(res) || x.tunedSignalWinding(src) || x.chargedByDetector(res) {
 		return 0, false

@@ -47,14 +47,14 @@ func (x *figCtx) filterClassOf(in, out, skip int) (filterClass, []*graph.Part) {
 }
 
 // rectifierOn tells whether a power rectifier (isPowerRectifier) has a
-// terminal on id.
+// terminal on id, or charges it through a surge resistor (surgeres.go).
 func (x *figCtx) rectifierOn(id int) bool {
 	for _, ci := range x.w.conns[id] {
 		if x.isPowerRectifier(ci) {
 			return true
 		}
 	}
-	return false
+	return x.rectifierBehindSurge(id)
 }
 
 // onScreen tells whether a further grid (a screen) of an amplifying valve

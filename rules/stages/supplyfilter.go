@@ -217,7 +217,7 @@ func (x *figCtx) supplyFilterNets(s *graph.Part) (in, out int, dev *graph.Part, 
 	if x.feeds(out) > x.feeds(in) {
 		in, out, swapped = out, in, true
 	}
-	if x.onAGCLine(in) || x.onAGCLine(out) {
+	if x.onAGCLine(in) || x.onAGCLine(out) || x.isSurgeSection(si, in, out) {
 		return 0, 0, nil, false, false
 	}
 	if !x.reachesSource(in, si) && x.supplyOutlet(in, si) != nil && x.reachesSource(out, si) {
