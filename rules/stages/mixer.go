@@ -36,7 +36,7 @@ func calcDoubleTuned(x *figCtx) {
 	ci := x.m.parts[i]
 	p := x.w.parts[ci]
 	as := x.m.coils[i]
-	if len(as) < 2 {
+	if len(as) < 2 || x.notMainsTuned(ci) {
 		return
 	}
 	c1, c2 := x.w.coils[ci][as[0]], x.w.coils[ci][as[1]]

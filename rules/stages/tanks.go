@@ -93,6 +93,9 @@ func calcTank(x *figCtx) {
 	if !ok {
 		return
 	}
+	if ci := x.partIndex(x.w.c.Part(c.ref)); ci >= 0 && x.notMainsTuned(ci) {
+		return
+	}
 	if restore, ok := x.uncoupleTuned(); ok {
 		// A transformer tuned on both sides is tuned as an aligner peaks
 		// each side: with the other's coupling out (calcDoubleTuned), so
