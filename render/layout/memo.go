@@ -76,6 +76,9 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 	if rt.shy {
 		wide |= 4 // crossings beside junctions and leads priced as undot prices them
 	}
+	if rt.along {
+		wide |= 8 // runs beside the net's own parts priced as unalong prices them
+	}
 	px, py := p.cell%rt.w-win.x0, p.cell/rt.w-win.y0
 	for _, v := range [...]int{px, py, int(p.pin.Dir), k.to.x0 - win.x0, k.to.y0 - win.y0,
 		k.to.x1 - win.x0, k.to.y1 - win.y0, win.x1 - win.x0, win.y1 - win.y0} {
@@ -83,6 +86,7 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 	}
 	b = append(b, wide)
 	b = rt.gridKey(k, b)
+	b = rt.alongKey(k, b)
 	rt.sc.key = b
 	return digest(b)
 }

@@ -98,6 +98,10 @@ type seek struct {
 	reach int      // how far beyond a run's end lines looks
 	dot   int32    // a crossing's price beside a junction: dotCost, or more while shy
 	shy   bool     // a crossing within leadClear of a pin tip of either net costs shyCost
+	// the points beside two-terminal parts (router.alongAt, alongSets)
+	along     bool
+	alongAt   []int32
+	alongSets [][]alongMark
 }
 
 // search is A* from a pending pin to the net's tree, inside a window of the
@@ -164,6 +168,7 @@ func (rt *router) astar(k *seek, p wirePin) []int {
 func (k *seek) onGrid(rt *router) {
 	k.grid, k.w, k.h = rt.g, rt.w, rt.h
 	k.cross, k.lines, k.reach, k.dot, k.shy = crossCost, lineCosts, inLineReach, dotCost, rt.shy
+	k.along, k.alongAt, k.alongSets = rt.along && rt.alongAt != nil, rt.alongAt, rt.alongSets
 	if rt.shy {
 		k.dot = dotCost + shyCost
 	}
@@ -308,6 +313,7 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 	if k.foreign(g) {
 		extra += foreignCost
 	}
+	extra += k.alongStep(n, nd)
 	return extra, true
 }
 
