@@ -15,9 +15,12 @@ import (
 // measured when the count began (217: most a decoupler's or a grid leak's
 // own wire run down beside it, or a feedback resistor's lead looped back
 // under it; 216 before the transistor mixers' oscillator-coil template
-// stood review13 b05's padder wire beside its gang section VC1b). A change
+// stood review13 b05's padder wire beside its gang section VC1b; 215 on
+// main when the router learned it). 120 once each net running beside a part
+// of its own is wired again with such runs priced, kept only when nothing
+// else the reader trips on grows (render/layout/alongpart.go). A change
 // may lower it, never raise it.
-const alongPartCeiling = 217
+const alongPartCeiling = 120
 
 // commonLeadCeiling is how many crossings, on the same pages, lie on the
 // run of wire leaving a device's emitter, source or cathode (render/check's
