@@ -11,7 +11,11 @@ import "slices"
 // beside fewer of its parts and nothing undot weighs grows (its crossings,
 // crossings by a junction or lead, steps beside other wires and pin tips,
 // foreign frames, crossings in a supply's frame), nor the sheet's ends in
-// line or crossed connector runs. Priced in the search itself, every wire
+// line or crossed connector runs, except that each crossing the new wiring
+// takes away (one beside a junction or lead counted twice) may buy one run
+// end in line (review19 b05: R16's anode wire looped under it and crossed
+// the HT feed by its pin; wired over the stage it ends in line twice).
+// Priced in the search itself, every wire
 // paid it and the detours drew wires through other stages' frames, round
 // parts and in line with others' ends.
 
@@ -80,9 +84,13 @@ func (rt *router) unalongNet(id int) bool {
 	rt.along = false
 	if ok && rt.alongRuns(id) < runs {
 		now := rt.readingOf(id)
+		// a crossing the new wiring took away (one by a junction or lead
+		// counted twice) may buy one run end in line: the part no longer
+		// reads as shorted, nor the crossing as a joint
+		gain := was.shy - now.shy + was.crossed - now.crossed
 		if now.shy <= was.shy && now.crossed <= was.crossed && now.beside <= was.beside && now.tips <= was.tips &&
-			now.strays <= was.strays && now.framed <= was.framed && rt.inLineEnds() <= ends && noMoreLines(rt.farInLineEnds(), far) &&
-			(!conn || rt.connectorKnots() <= knots) {
+			now.strays <= was.strays && now.framed <= was.framed && rt.inLineEnds() <= ends+gain &&
+			moreLines(rt.farInLineEnds(), far) <= gain && (!conn || rt.connectorKnots() <= knots) {
 			return true
 		}
 	}
@@ -126,15 +134,14 @@ func (rt *router) farInLineEnds() map[[2]int32]int {
 	return n
 }
 
-// noMoreLines says whether no pair of nets has more ends in line in now
-// than in was.
-func noMoreLines(now, was map[[2]int32]int) bool {
+// moreLines counts the ends in line now has beyond was, pair of nets by
+// pair.
+func moreLines(now, was map[[2]int32]int) int {
+	more := 0
 	for k, n := range now {
-		if n > was[k] {
-			return false
-		}
+		more += max(0, n-was[k])
 	}
-	return true
+	return more
 }
 
 // pointsAt is the other net whose wire, running the same way, the run of
