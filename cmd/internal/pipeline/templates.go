@@ -56,11 +56,20 @@ func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *
 // reduced sheet: round an oscillator or mixer the original's heater,
 // screen and AGC wiring met the moved parts (the flagship's full sheet
 // read 46 more wires beside another net's with them).
+// The Vbe-multiplier and quasi-complementary pairs are output pairs of
+// the same kind: left to the generic placement review19 b04's faded sheet
+// stood its pair upside down (the PNP over the NPN, the multiplier under
+// both) where the reduced sheet drew it by its template.
 var fullTemplates = map[string]bool{
-	"push-pull":                 true,
-	"complementary-pair":        true,
-	"complementary-pair-preset": true,
-	"cathodyne":                 true,
+	"push-pull":                           true,
+	"complementary-pair":                  true,
+	"complementary-pair-preset":           true,
+	"complementary-pair-vbe":              true,
+	"complementary-pair-vbe-preset":       true,
+	"complementary-pair-vbe-preset-upper": true,
+	"complementary-pair-vbe-divider":      true,
+	"quasi-complementary-pair":            true,
+	"cathodyne":                           true,
 }
 
 // stagePlaces turns one stage's template into the sheet's; none when its
