@@ -147,6 +147,7 @@ type netSeg struct {
 	net   string
 	seg   geom.Seg
 	local int // index of the local symbol whose stub this is, or -1
+	body  int // 1 + the index of the flag whose body this is (flagBodies), or 0
 }
 
 type box struct {
@@ -208,7 +209,7 @@ func Measure(g *geom.Sheet) *Report {
 	r.foreignFrames(g)
 	r.wireBoxes(g)
 	r.closeWires(segs)
-	r.misreadings(segs, boxes, &bix)
+	r.misreadings(append(segs[:len(segs):len(segs)], flagBodies(g)...), boxes, &bix)
 	r.endsNear(g, segs)
 	r.localsNear(g, segs)
 	r.tagsOnParts(g)
@@ -250,12 +251,12 @@ func sheetSegs(g *geom.Sheet) []netSeg {
 	var segs []netSeg
 	for _, w := range g.Wires {
 		for _, s := range w.Segs {
-			segs = append(segs, netSeg{w.Net, s, -1})
+			segs = append(segs, netSeg{net: w.Net, seg: s, local: -1})
 		}
 	}
 	for i, l := range g.Locals {
 		for _, s := range l.Stub {
-			segs = append(segs, netSeg{l.Net, s, i})
+			segs = append(segs, netSeg{net: l.Net, seg: s, local: i})
 		}
 	}
 	return segs

@@ -44,7 +44,8 @@ const (
 // counted apart, those whose ends are endGap or less apart with a part
 // only beside the gap (one wire all the same). Local
 // symbols' stubs count as wire: a supply stub in line with a signal wire
-// reads as the same line.
+// reads as the same line; so do flags and connectors (flagBodies), for
+// the wires in line with them only.
 func (r *Report) misreadings(segs []netSeg, boxes []box, bix *bucketed) {
 	var six bucketed
 	for i, s := range segs {
@@ -57,15 +58,17 @@ func (r *Report) misreadings(segs []netSeg, boxes []box, bix *bucketed) {
 				continue
 			}
 			gap, run := alongside(a.seg, b.seg)
+			flag := a.body > 0 || b.body > 0
 			switch {
-			case gap > geom.Eps && gap < apartMin-geom.Eps && run > geom.Eps:
+			case !flag && gap > geom.Eps && gap < apartMin-geom.Eps && run > geom.Eps:
 				r.Beside = append(r.Beside, fmt.Sprintf("wires of %s %s-%s and %s %s-%s run %g apart for %g", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), gap, run))
 			case gap < geom.Eps && run < -geom.Eps && -run < inLineGap-geom.Eps && a.seg.Horizontal() == b.seg.Horizontal():
 				gap := between(a.seg, b.seg)
+				own := max(a.body, b.body) - 1 // a flag's own box ends its line, it does not part it
 				switch {
-				case !blocked(gap, boxes, bix):
+				case !blocked(gap, boxes, bix, own):
 					r.InLine = append(r.InLine, fmt.Sprintf("wires of %s %s-%s and %s %s-%s lie in line %g apart", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), -run))
-				case -run < endGap+geom.Eps && !crossed(gap, boxes, bix):
+				case -run < endGap+geom.Eps && !crossed(gap, boxes, bix, own):
 					r.EndsInLine = append(r.EndsInLine, fmt.Sprintf("wires of %s %s-%s and %s %s-%s end in line %g apart beside a part", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), -run))
 				}
 			}
@@ -100,9 +103,12 @@ func between(a, b geom.Seg) geom.Seg {
 // two wires meeting a part, not one wire. A part beside the gap, within a
 // grid step, counts too: the wire ends read as its leads, unless the gap is
 // short (crossed, below).
-func blocked(gap geom.Seg, boxes []box, bix *bucketed) bool {
+func blocked(gap geom.Seg, boxes []box, bix *bucketed, own int) bool {
 	near := gap.Box().Inset(1)
 	for _, j := range bix.near(near) {
+		if j == own {
+			continue
+		}
 		if b := boxes[j].r; near.X0 <= b.X1+geom.Eps && b.X0 <= near.X1+geom.Eps && near.Y0 <= b.Y1+geom.Eps && b.Y0 <= near.Y1+geom.Eps {
 			return true
 		}
@@ -120,9 +126,12 @@ func blocked(gap geom.Seg, boxes []box, bix *bucketed) bool {
 // further along (the blind reviewers read a screen line and a decoupling
 // line meeting end to end at such a capacitor as one wire, and an earth
 // stub as running on into the wire beyond it).
-func crossed(gap geom.Seg, boxes []box, bix *bucketed) bool {
+func crossed(gap geom.Seg, boxes []box, bix *bucketed, own int) bool {
 	g := gap.Box()
 	for _, j := range bix.near(g.Inset(geom.Eps)) {
+		if j == own {
+			continue
+		}
 		b := boxes[j].r
 		lo, hi, at, b0, b1 := g.X0, g.X1, g.Y0, b.Y0, b.Y1 // along the gap; across it
 		blo, bhi := b.X0, b.X1

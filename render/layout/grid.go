@@ -355,25 +355,48 @@ func (rt *router) blockLocal(l geom.Local) {
 // with one pin (a flag, a socket), on the pin's line: another net's wire
 // passing there would meet the tip end on and read as its continuation (a
 // socket flag whose tip stopped one step short of the tone control's wire
-// read as feeding it).
+// read as feeding it). That point and the tipLine-1 after it are marked
+// as a stub too: a run of another net that stops or starts a few steps
+// further on, in line, reads as the flag's line carried on just the same
+// (review19 b05: the tone control's feed began two steps past the
+// extension speaker socket's flag), and the search prices a run ending
+// within closeReach of a mark as it prices one in line with a stub
+// (ahead, inLineEnd), which keeps such ends inLineGap (render/check, six
+// steps) from the tip.
 func (rt *router) blockTip(sh symbol.Shape) {
 	if len(sh.Pins) != 1 {
 		return
 	}
 	p, b := sh.Pins[0], sh.Box
-	var at geom.Pt
+	var at, on geom.Pt // the point beyond the tip, and the step on from it
 	switch p.Dir {
 	case geom.Left:
-		at = geom.Pt{X: b.X1 + 1, Y: p.At.Y}
+		at, on = geom.Pt{X: b.X1 + 1, Y: p.At.Y}, geom.Pt{X: 1}
 	case geom.Right:
-		at = geom.Pt{X: b.X0 - 1, Y: p.At.Y}
+		at, on = geom.Pt{X: b.X0 - 1, Y: p.At.Y}, geom.Pt{X: -1}
 	case geom.Up:
-		at = geom.Pt{X: p.At.X, Y: b.Y1 + 1}
+		at, on = geom.Pt{X: p.At.X, Y: b.Y1 + 1}, geom.Pt{Y: 1}
 	default:
-		at = geom.Pt{X: p.At.X, Y: b.Y0 - 1}
+		at, on = geom.Pt{X: p.At.X, Y: b.Y0 - 1}, geom.Pt{Y: -1}
 	}
-	rt.block(geom.Rect{X0: at.X, Y0: at.Y, X1: at.X, Y1: at.Y})
+	for i := 0; i < tipLine; i++ {
+		q := geom.Pt{X: at.X + float64(i)*on.X, Y: at.Y + float64(i)*on.Y}
+		f := fStub
+		if i < tipBlock {
+			f |= fBlocked
+		}
+		rt.mark(geom.Rect{X0: q.X, Y0: q.Y, X1: q.X, Y1: q.Y}, f)
+	}
 }
+
+// tipLine is how many grid points beyond a flag's tip, on its line, read
+// as its stub: with closeReach they keep a run's end in line with the tip
+// at least inLineGap (render/check) steps from it.
+const tipLine = 3
+
+// tipBlock is how many of them no wire may pass: a wire across the line
+// two steps from the tip reads as what the flag points into.
+const tipBlock = 2
 
 func (rt *router) block(r geom.Rect) { rt.mark(r, fBlocked) }
 
