@@ -83,12 +83,27 @@ func (r *Report) wireBoxes(g *geom.Sheet) {
 			labels[l.Owner] = l.Box
 		}
 	}
+	// a part's own earth and rail symbols are drawn as its ends: a wire
+	// round the part and its earth reads as a frame round the part
+	// (review19 b02: VC1b's hot lead ran up its side, over its top and
+	// under its earth symbol, four steps below its body)
+	locals := map[string]geom.Rect{}
+	for _, l := range g.Locals {
+		if b, ok := locals[l.Owner]; ok {
+			locals[l.Owner] = b.Union(l.Box)
+		} else {
+			locals[l.Owner] = l.Box
+		}
+	}
 	for _, s := range g.Symbols {
 		if s.Kind == "" {
 			continue
 		}
 		b := s.Box
 		if l, ok := labels[s.Ref]; ok {
+			b = b.Union(l)
+		}
+		if l, ok := locals[s.Ref]; ok {
 			b = b.Union(l)
 		}
 		ts = append(ts, target{"part " + s.Ref + " and its label", b})
