@@ -22,6 +22,11 @@ func seg(x0, y0, x1, y1 float64) geom.Seg {
 	return geom.Seg{A: geom.Pt{X: x0, Y: y0}, B: geom.Pt{X: x1, Y: y1}}
 }
 
+func withKind(s geom.Symbol, kind string) geom.Symbol {
+	s.Kind = kind
+	return s
+}
+
 func wire(net string, segs ...geom.Seg) geom.Wire {
 	return geom.Wire{Net: net, Segs: segs, Faded: make([]bool, len(segs))}
 }
@@ -195,6 +200,39 @@ func TestFindings(t *testing.T) {
 			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
 			g.Wires = append(g.Wires, wire("s", seg(28, -3, 28, 0)))
 		}, "", func(r *Report) []string { return r.EndsNear }},
+		// the same flag, and net m's run starting in line beyond its tip (the
+		// tone control's feed two steps past the extension socket's flag):
+		// the flag's body is its net's line (flagBodies)
+		{"a wire in line two steps past a flag's tip", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
+			g.Wires = append(g.Wires, wire("m", seg(29, -3, 29, 0), seg(29, 0, 32, 0)))
+		}, "wires of m (29,0)-(32,0) and s (20,0)-(27,0) lie in line 2 apart", func(r *Report) []string { return r.InLine }},
+		{"a wire in line six steps past a flag's tip", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
+			g.Wires = append(g.Wires, wire("m", seg(33, -3, 33, 0), seg(33, 0, 36, 0)))
+		}, "", func(r *Report) []string { return r.InLine }},
+		{"the flag's own net in line past its tip", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
+			g.Wires = append(g.Wires, wire("s", seg(29, -3, 29, 0), seg(29, 0, 32, 0)))
+		}, "", func(r *Report) []string { return r.InLine }},
+		{"a wire one step beside a flag's body is no wire beside", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
+			g.Wires = append(g.Wires, wire("m", seg(21, 1, 26, 1)))
+		}, "", func(r *Report) []string { return r.Beside }},
+		// C1 upright at x=24, its earth symbol under it (y 25..27); net p
+		// leaves its top pin, runs left, down its side and under the earth
+		// two steps below it (review19 b02's VC1b): three sides of the
+		// part with its earth, two of the part alone
+		{"a wire round a part and its earth symbol", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, withKind(sym("C1", 23.4, 21, 24.6, 25, pin("1", "p", 24, 21, geom.Up), pin("2", "gnd", 24, 25, geom.Down)), "capacitor"))
+			g.Locals = append(g.Locals, geom.Local{Net: "gnd", Owner: "C1", Pin: "2", Stub: []geom.Seg{seg(24, 25, 24, 26)}, At: geom.Pt{X: 24, Y: 26}, Box: geom.Rect{X0: 23, Y0: 25, X1: 25, Y1: 27}})
+			g.Wires = append(g.Wires, wire("p", seg(24, 21, 24, 20), seg(26, 20, 21, 20), seg(21, 20, 21, 29), seg(21, 29, 27, 29)))
+		}, "wire of p runs on the bottom, left, top of part C1", func(r *Report) []string { return r.WireBoxes }},
+		{"another part's earth symbol is not the part's", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, withKind(sym("C1", 23.4, 21, 24.6, 25, pin("1", "p", 24, 21, geom.Up), pin("2", "gnd", 24, 25, geom.Down)), "capacitor"))
+			g.Locals = append(g.Locals, geom.Local{Net: "gnd", Owner: "C9", Pin: "2", Stub: []geom.Seg{seg(24, 25, 24, 26)}, At: geom.Pt{X: 24, Y: 26}, Box: geom.Rect{X0: 23, Y0: 25, X1: 25, Y1: 27}})
+			g.Wires = append(g.Wires, wire("p", seg(24, 21, 24, 20), seg(26, 20, 21, 20), seg(21, 20, 21, 29), seg(21, 29, 27, 29)))
+		}, "", func(r *Report) []string { return r.WireBoxes }},
 		{"a wire round the sheet", func(g *geom.Sheet) {
 			g.Frames = []geom.Frame{{Box: geom.Rect{X0: 9, Y0: -2, X1: 15, Y1: 2}, Parts: []string{"R2"}}}
 			g.Wires[0].Segs = []geom.Seg{seg(4, 0, 4, 10), seg(4, 10, 10, 10), seg(10, 10, 10, 0)}
