@@ -70,10 +70,11 @@ func (r *Report) wireBoxes(g *geom.Sheet) {
 	type target struct {
 		what string
 		box  geom.Rect
+		ends geom.Rect // the box with the part's own earth and rail symbols
 	}
 	var ts []target
 	for k, f := range g.Frames {
-		ts = append(ts, target{fmt.Sprintf("the title of frame %d %q", k+1, first(f.Title.Lines)), f.Title.Box})
+		ts = append(ts, target{fmt.Sprintf("the title of frame %d %q", k+1, first(f.Title.Lines)), f.Title.Box, f.Title.Box})
 	}
 	labels := map[string]geom.Rect{}
 	for _, l := range g.Labels {
@@ -86,7 +87,9 @@ func (r *Report) wireBoxes(g *geom.Sheet) {
 	// a part's own earth and rail symbols are drawn as its ends: a wire
 	// round the part and its earth reads as a frame round the part
 	// (review19 b02: VC1b's hot lead ran up its side, over its top and
-	// under its earth symbol, four steps below its body)
+	// under its earth symbol, four steps below its body). The part is
+	// measured both with and without them: with them its sides are longer,
+	// and a wire along half of its own side would be missed
 	locals := map[string]geom.Rect{}
 	for _, l := range g.Locals {
 		if b, ok := locals[l.Owner]; ok {
@@ -103,14 +106,19 @@ func (r *Report) wireBoxes(g *geom.Sheet) {
 		if l, ok := labels[s.Ref]; ok {
 			b = b.Union(l)
 		}
+		ends := b
 		if l, ok := locals[s.Ref]; ok {
-			b = b.Union(l)
+			ends = b.Union(l)
 		}
-		ts = append(ts, target{"part " + s.Ref + " and its label", b})
+		ts = append(ts, target{"part " + s.Ref + " and its label", b, ends})
 	}
 	for _, t := range ts {
 		for _, w := range g.Wires {
-			if sides := boxSides(w.Segs, t.box); len(sides) >= 3 {
+			sides := boxSides(w.Segs, t.box)
+			if len(sides) < 3 && t.ends != t.box {
+				sides = boxSides(w.Segs, t.ends)
+			}
+			if len(sides) >= 3 {
 				r.WireBoxes = append(r.WireBoxes, fmt.Sprintf("wire of %s runs on the %s of %s", w.Net, strings.Join(sides, ", "), t.what))
 			}
 		}
