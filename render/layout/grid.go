@@ -4,8 +4,8 @@ import (
 	"math"
 	"sort"
 
+	"pare/graph"
 	"pare/render/geom"
-	"pare/render/symbol"
 )
 
 // Routing costs, in grid steps: a bend costs three steps, a crossing thirty,
@@ -197,7 +197,7 @@ func (rt *router) blockObstacles() {
 		if len(cl.label.Lines) > 0 {
 			rt.block(cl.label.Box)
 		}
-		rt.blockTip(cl.shape)
+		rt.blockTip(cl)
 	}
 	for i, f := range rt.ly.frames {
 		rt.block(f.Title.Box)
@@ -362,10 +362,19 @@ func (rt *router) blockLocal(l geom.Local) {
 // extension speaker socket's flag), and the search prices a run ending
 // within closeReach of a mark as it prices one in line with a stub
 // (ahead, inLineEnd), which keeps such ends inLineGap (render/check, six
-// steps) from the tip.
-func (rt *router) blockTip(sh symbol.Shape) {
+// steps) from the tip. Only flags draw a line of their net to their tip
+// (render/check's flagBodies): a one-pin part keeps the one point.
+func (rt *router) blockTip(cl *cell) {
+	sh := cl.shape
 	if len(sh.Pins) != 1 {
 		return
+	}
+	line, block := 1, 1
+	if realPart(cl) == nil || cl.part.Kind == graph.Port {
+		line = tipLine
+		if !cl.conn {
+			block = flagBlock
+		}
 	}
 	p, b := sh.Pins[0], sh.Box
 	var at, on geom.Pt // the point beyond the tip, and the step on from it
@@ -379,10 +388,13 @@ func (rt *router) blockTip(sh symbol.Shape) {
 	default:
 		at, on = geom.Pt{X: p.At.X, Y: b.Y0 - 1}, geom.Pt{Y: -1}
 	}
-	for i := 0; i < tipLine; i++ {
+	for i := 0; i < line; i++ {
 		q := geom.Pt{X: at.X + float64(i)*on.X, Y: at.Y + float64(i)*on.Y}
-		f := fStub
-		if i < tipBlock {
+		f := uint16(0)
+		if line > 1 {
+			f = fStub
+		}
+		if i < block {
 			f |= fBlocked
 		}
 		rt.mark(geom.Rect{X0: q.X, Y0: q.Y, X1: q.X, Y1: q.Y}, f)
@@ -394,9 +406,12 @@ func (rt *router) blockTip(sh symbol.Shape) {
 // at least inLineGap (render/check) steps from it.
 const tipLine = 3
 
-// tipBlock is how many of them no wire may pass: a wire across the line
-// two steps from the tip reads as what the flag points into.
-const tipBlock = 2
+// flagBlock is how many of them no wire may pass beyond a flag (an input,
+// output or socket flag; one beyond an off-row connector, whose tip points
+// off the row): a wire across a flag's line two steps from its tip reads
+// as what the flag points into. Two beyond a connector too sent one
+// fixture's connector wires across each other (TestConnectorWiresStraight).
+const flagBlock = 2
 
 func (rt *router) block(r geom.Rect) { rt.mark(r, fBlocked) }
 
