@@ -215,6 +215,10 @@ func TestFindings(t *testing.T) {
 			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
 			g.Wires = append(g.Wires, wire("s", seg(29, -3, 29, 0), seg(29, 0, 32, 0)))
 		}, "", func(r *Report) []string { return r.InLine }},
+		{"a wire in line before a flag's pin is in line with a pin", func(g *geom.Sheet) {
+			g.Symbols = append(g.Symbols, sym("P1", 20, 19.3, 27, 20.7, pin("1", "s", 20, 20, geom.Left)))
+			g.Wires = append(g.Wires, wire("m", seg(14, 20, 17, 20)), wire("s", seg(20, 20, 20, 17)))
+		}, "", func(r *Report) []string { return r.InLine }},
 		{"a wire one step beside a flag's body is no wire beside", func(g *geom.Sheet) {
 			g.Symbols = append(g.Symbols, sym("P1", 20, -0.7, 27, 0.7, pin("1", "s", 20, 0, geom.Left)))
 			g.Wires = append(g.Wires, wire("m", seg(21, 1, 26, 1)))

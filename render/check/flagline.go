@@ -1,6 +1,10 @@
 package check
 
-import "pare/render/geom"
+import (
+	"math"
+
+	"pare/render/geom"
+)
 
 // flagBodies are the sheet's flags, ports and off-row connectors (one-pin
 // symbols of kind port or of no part kind) as the line a reader sees them draw: from the pin to the
@@ -31,3 +35,16 @@ func flagBodies(g *geom.Sheet) []netSeg {
 	}
 	return out
 }
+
+// atTip says whether the gap between two in-line segments opens at the tip
+// of the flag among them (flagBodies draws a flag from its pin to its tip).
+func atTip(gap geom.Seg, a, b netSeg) bool {
+	for _, s := range []netSeg{a, b} {
+		if s.body > 0 && (near(gap.A, s.seg.B) || near(gap.B, s.seg.B)) {
+			return true
+		}
+	}
+	return false
+}
+
+func near(p, q geom.Pt) bool { return math.Abs(p.X-q.X) < geom.Eps && math.Abs(p.Y-q.Y) < geom.Eps }

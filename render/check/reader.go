@@ -66,6 +66,9 @@ func (r *Report) misreadings(segs []netSeg, boxes []box, bix *bucketed) {
 				gap := between(a.seg, b.seg)
 				own := max(a.body, b.body) - 1 // a flag's own box ends its line, it does not part it
 				switch {
+				case flag && !atTip(gap, a, b):
+					// a flag's pin end is a pin like any part's: the line
+					// it draws runs on past its tip only
 				case !blocked(gap, boxes, bix, own):
 					r.InLine = append(r.InLine, fmt.Sprintf("wires of %s %s-%s and %s %s-%s lie in line %g apart", a.net, pt(a.seg.A), pt(a.seg.B), b.net, pt(b.seg.A), pt(b.seg.B), -run))
 				case -run < endGap+geom.Eps && !crossed(gap, boxes, bix, own):

@@ -296,12 +296,7 @@ func (ly *state) besideWinding(cp *cell, p1, p2 *geom.Pin, dir geom.Dir, inner b
 				d.Y = y
 			}
 		}
-		// a capacitor from one end to chassis, the other end decoupled
-		// (Hot), is wired to that end alone: centred on a long winding,
-		// its lead from the lower end ran up its side and over its top
-		// (review19 b02's VC1b, boxed by its own wire); levelTo stands
-		// it by that end
-		wiredBoth := !ly.c.RoleOf(p1.Net).IsACGround() && !ly.c.RoleOf(p2.Net).IsACGround() && ly.tankOf[cp].hot == ""
+		wiredBoth := !ly.c.RoleOf(p1.Net).IsACGround() && !ly.c.RoleOf(p2.Net).IsACGround()
 		if dir != geom.Up && wiredBoth && p2.At.Y-p1.At.Y >= 6 {
 			// a long winding: the capacitor centred on it
 			d.Y = math.Round((p1.At.Y+p2.At.Y)/2 - (top.At.Y+bot.At.Y)/2)
