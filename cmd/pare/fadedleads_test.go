@@ -19,10 +19,10 @@ import (
 // multi-grid valve's anode lead crossing the lead of its screen, cathode or
 // injector grid 13 (24 before push-pull pairs stood mirrored on the full
 // and faded sheets with their suppressors strapped inside the envelope).
-// 51 and 11 with a flag's line kept clear past its tip and a tank
-// capacitor by its winding's hot end (render/layout grid.go, tankplace.go).
+// Anode 11 with a flag's line kept clear past its tip (render/layout
+// grid.go blockTip).
 const (
-	tapCrossCeiling   = 51
+	tapCrossCeiling   = 53
 	anodeCrossCeiling = 11
 )
 
