@@ -59,7 +59,7 @@ import (
 // sense puts the collector end at the bottom), while each of the five
 // mixer sheets (review13-16 and 18 b05, the front-end example) lost its
 // loops round the frame (mixer-*.png compared before and after).
-var connWireCeiling = struct{ crossings, loops, nearPins int }{15, 107, 117} // loops 108 -> 107 with a can kept on the row of the stage it feeds (render/cancuts.go)
+var connWireCeiling = struct{ crossings, loops, nearPins int }{15, 101, 104} // loops 108 -> 107 with a can kept on the row of the stage it feeds (render/cancuts.go); 101 and near pins 104 with flags' lines kept clear
 
 // TestConnectorWiresStraight: a net going on to another row ends in one
 // connector at the edge reached by a short run; the runs of two
