@@ -134,7 +134,8 @@ type router struct {
 	pops         int      // states taken off the queue so far: the work budget
 	alongAt      []int32  // per point, 1 + its index in alongSets, or 0 (alongpart.go)
 	alongSets    [][]alongMark
-	alongCells   []int // the marked points, in grid order
+	alongCells   []int     // the marked points, in grid order
+	sib          [][]int32 // per net (id-1), the nets of the same valve's other leads (siblings.go)
 }
 
 func newRouter(ly *state, sc *scratch) *router {
@@ -151,6 +152,7 @@ func newRouter(ly *state, sc *scratch) *router {
 	rt.h = int(math.Ceil(b.Y1)) + 5 - rt.y0
 	rt.g = make([]gridCell, rt.w*rt.h)
 	rt.collectNets()
+	rt.siblingNets()
 	rt.blockObstacles()
 	rt.reservePins()
 	rt.markAlong()

@@ -17,7 +17,8 @@ import (
 // steps on, the crowding, pin tip and junction tests one step aside), five
 // for a strict search (its in-line test looks unlineReach steps on). Of
 // a grid point it reads only whether each net there, and the net reserved
-// there, is its own, another or none, the arms, and the flags other than
+// there, is its own, another lead of a valve its net leads from (siblings.go),
+// another or none, the arms, and the flags other than
 // the faded ones (beside a pin tip is read from the tips themselves). The same search comes up again and again: a pair of
 // crossing nets rerouted in round after round of uncross, every trial
 // layout of the untangle search (one part turned, the rest of the sheet the
@@ -97,7 +98,7 @@ func (rt *router) searchKey(k *seek, p wirePin) memoKey {
 // each row's points off the grid are written apart from those on it,
 // leaving the loop over a row's grid points without a bounds test.
 func (rt *router) gridKey(k *seek, b []byte) []byte {
-	net, m := k.net, rt.margin()
+	m := rt.margin()
 	xs, xe := k.win.x0-m, k.win.x1+m
 	cols := xe - xs + 1
 	n := len(b)
@@ -129,7 +130,7 @@ func (rt *router) gridKey(k *seek, b []byte) []byte {
 				n++
 				continue
 			}
-			b[n] = withNets | whose(g.own[0], net) | whose(g.own[1], net)<<2 | whose(g.resv, net)<<4
+			b[n] = withNets | k.whose(g.own[0]) | k.whose(g.own[1])<<2 | k.whose(g.resv)<<4
 			b[n+1], b[n+2] = g.arm[0]|g.arm[1]<<4, fl
 			n += 3
 		}
@@ -156,13 +157,17 @@ func digest(b []byte) memoKey {
 	return memoKey{maphash.Bytes(memoSeeds[0], b), maphash.Bytes(memoSeeds[1], b)}
 }
 
-// whose classes a net number as the search sees it: none, its own, another.
-func whose(v, net int32) byte {
-	switch v {
-	case 0:
+// whose classes a net number as the search sees it: none, its own,
+// another, or another lead of a valve its net leads from (a crossing
+// priced higher, siblings.go).
+func (k *seek) whose(v int32) byte {
+	switch {
+	case v == 0:
 		return 0
-	case net:
+	case v == k.net:
 		return 1
+	case k.sib != nil && k.sib[v]:
+		return 3
 	}
 	return 2
 }

@@ -434,7 +434,7 @@ func TestQueueOrder(t *testing.T) {
 // stops, or the run it starts begins, in line with another net's wire),
 // and the step's extras.
 func (rt *router) stepCost(net int32, c, n, nx, ny, d, nd int) (int32, bool) {
-	k := &seek{net: net}
+	k := &seek{net: net, sib: rt.siblingMask(net)}
 	k.onGrid(rt)
 	extra, ok := k.stepExtra(c, n, nx, ny, nd)
 	cost := stepCost + extra

@@ -25,6 +25,10 @@ type scratch struct {
 	gen uint32
 	q   stateQueue
 	key []byte // searchKey's buffer
+	// the nets the current search must not cross (siblingMask): marks
+	// by net id, and the ids marked
+	sib    []bool
+	sibSet []int32
 }
 
 // next starts a new search over n states.
@@ -102,6 +106,7 @@ type seek struct {
 	along     bool
 	alongAt   []int32
 	alongSets [][]alongMark
+	sib       []bool // by net id: another lead of a valve the net leads from (siblings.go); nil for none
 }
 
 // search is A* from a pending pin to the net's tree, inside a window of the
@@ -120,6 +125,7 @@ func (rt *router) search(net int32, p wirePin, tree geom.Rect, win window) []int
 		k.cellAt[d] = st[0] + st[1]*rt.w
 		k.stateAt[d] = 4 * (st[0] + st[1]<<k.shift)
 	}
+	k.sib = rt.siblingMask(net)
 	key := rt.searchKey(&k, p)
 	if e, ok := memoGet(key); ok {
 		rt.pops += e.pops
@@ -277,6 +283,9 @@ func (k *seek) stepExtra(c, n, nx, ny, nd int) (int32, bool) {
 				return 0, false
 			}
 			extra += k.cross
+			if k.sib != nil && k.sib[g.own[0]] {
+				extra += siblingCost
+			}
 			if k.junctionBeside(n, nx, ny) {
 				extra += k.dot
 			} else if k.shy && k.tipNear(nx, ny) {
