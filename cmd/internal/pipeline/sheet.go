@@ -122,7 +122,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		s.Quiet = quietNets(c, r.Log)
 		s.Circuit = supplyRailsWired(c, s.Frames, s.Faded)
 		s.PinVolts = r.electrodeVolts()
-		s.Ties = pairStraps(r.Stages, reduced, c)
+		s.Ties = cathodeStraps(c)
 	}
 	s.Marks = r.alignMarks(v)
 	s.Legend = legend(items, s.Circuit, reduced, v == render.Reduced)

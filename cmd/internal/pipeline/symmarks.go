@@ -3,7 +3,6 @@ package pipeline
 import (
 	"pare/graph"
 	"pare/render"
-	"pare/rules/stages"
 )
 
 // staticTies says, for each valve of the reduced circuit, where each
@@ -40,34 +39,30 @@ func staticTies(orig, reduced *graph.Circuit) map[string]map[string]render.Tie {
 	return out
 }
 
-// pairStraps says, on a sheet of the original circuit, which grids of a
-// push-pull pair's valves are wired to the valve's own cathode (the
-// suppressors): they are drawn as the trade's internal strap, as on the
-// reduced sheet. As a lead, a suppressor leaves on the right between the
-// anode and the screen, so its way round to the cathode crosses the screen
-// lead whichever way up the valve stands (review17 a04's lower valve's g3
-// lead across its screen lead, and the upper's beside it).
-func pairStraps(found []stages.Stage, reduced, full *graph.Circuit) map[string]map[string]render.Tie {
+// cathodeStraps says, on a sheet of the original circuit, which grids of
+// each valve are wired to the valve's own cathode (a suppressor, a
+// heptode's outer grid): they are drawn as the trade's internal strap, as
+// on the reduced sheet. As a lead, such a grid leaves on the right between
+// the anode and the screen, so its way round to the cathode crosses the
+// screen lead or the anode lead whichever way up the valve stands
+// (review17 a04's push-pull pair's g3 leads across their screen leads;
+// every heptode frequency changer of review13..19 its g5 lead, on its way
+// to the cathode net, across its anode lead).
+func cathodeStraps(full *graph.Circuit) map[string]map[string]render.Tie {
 	out := map[string]map[string]render.Tie{}
-	for _, s := range found {
-		if s.Topology != "push-pull" {
+	for _, p := range full.Parts {
+		if p.Kind != graph.Valve {
 			continue
 		}
-		for _, ref := range originals(s.Parts, reduced, full) {
-			p := full.Part(ref)
-			if p == nil || p.Kind != graph.Valve {
+		k := p.NetOf(p.PinWithRole(graph.RoleCommon))
+		for _, pn := range p.Pins {
+			if k == "" || k == graph.NotConnected || pn.Net != k || graph.RoleOfPin(p.Kind, pn.Name) != graph.RoleGrid {
 				continue
 			}
-			k := p.NetOf(p.PinWithRole(graph.RoleCommon))
-			for _, pn := range p.Pins {
-				if k == "" || pn.Net != k || graph.RoleOfPin(p.Kind, pn.Name) != graph.RoleGrid {
-					continue
-				}
-				if out[ref] == nil {
-					out[ref] = map[string]render.Tie{}
-				}
-				out[ref][pn.Name] = render.TieCathode
+			if out[p.Ref] == nil {
+				out[p.Ref] = map[string]render.Tie{}
 			}
+			out[p.Ref][pn.Name] = render.TieCathode
 		}
 	}
 	return out
