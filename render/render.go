@@ -240,6 +240,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	if s.View != Reduced {
 		o.Faded, o.Merged, o.FadedPins, o.Quiet = s.Faded, s.Merged, s.FadedPins, s.Quiet
 		o.Plain = s.View == Full
+		o.LeadsApart = true
 	}
 	if s.View != Reduced {
 		o.PinVolts = s.PinVolts

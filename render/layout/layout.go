@@ -70,6 +70,14 @@ type Options struct {
 	// dropped (heaters, a static grid): their locals and the wires that
 	// serve only them are faded.
 	FadedPins map[string]map[string]bool
+	// LeadsApart prices a crossing of two leads of one valve above a plain
+	// crossing (siblings.go): set on the full and faded sheets, where the
+	// reviews rejected anode leads across their own valve's screen and
+	// cathode leads. The reduced sheet's untangle search already trades
+	// placements for crossings; with the price there too, the kitchen-sink
+	// fixture's reduced A3 pages were cut elsewhere and drew one more
+	// transformer left of the device feeding it.
+	LeadsApart bool
 	// Plain lays the sheet out exactly as with Faded, FadedPins and Merged
 	// but draws nothing faded and no merge mark: the full view, which is
 	// the faded view's layout in plain ink (fade.go).

@@ -18,12 +18,16 @@ import "pare/graph"
 // crossings: round a valve the way round is rarely that short).
 const siblingCost = 3 * crossCost
 
-// siblingNets lists, per net (by id-1), the nets its wires must not cross:
+// siblingNets lists, per net (by id-1), the nets its wires must not cross
+// (none unless the sheet's Options.LeadsApart):
 // for every valve on the sheet, its anode's net against the nets of its
 // screen, further grids and cathode, both ways round. The control grid's
 // wire enters from the left and the heaters are faded or tagged, so
 // neither is counted.
 func (rt *router) siblingNets() {
+	if !rt.ly.o.LeadsApart {
+		return
+	}
 	id := map[string]int32{}
 	for i, nr := range rt.nets {
 		id[nr.name] = int32(i + 1)

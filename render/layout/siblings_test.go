@@ -33,6 +33,7 @@ func TestValveLeadsGoRound(t *testing.T) {
 			box{"B1", geom.R(14, -22, 16, -20), []geom.Pin{pinAt("b", 15, -20, geom.Down)}},
 			box{"B2", geom.R(14, 20, 16, 22), []geom.Pin{pinAt("b", 15, 20, geom.Up)}},
 		)
+		ly.o.LeadsApart = true // a full or faded sheet
 		v := ly.cells[0]
 		v.part.Kind = tc.kind
 		v.part.Pins[0].Name, v.part.Pins[1].Name = "a", "k"
