@@ -159,7 +159,11 @@ func eachAtOnce(n int, fn func(i int)) {
 // (render/layout/alongpart.go; measured on main before it: beside 960,
 // endsInLine 52, localsNear 484): beside 940, endsInLine 48, localsNear 432
 // (mostly a decoupler's own wire no longer run down beside it and its earth).
-var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots, localsOn, localsNear, nearPins int }{940, 66, 10, 48, 20, 46, 432, 98}
+// With a crossing of one valve's two leads priced on the full and faded
+// sheets and grids on their own cathode drawn as the strap
+// (render/layout/siblings.go, pipeline/symmarks.go): beside 804, inLine 46,
+// localsOn 18, localsNear 364, nearPins 90.
+var misreadCeiling = struct{ beside, inLine, endsNear, endsInLine, nearDots, localsOn, localsNear, nearPins int }{804, 46, 10, 48, 20, 18, 364, 90}
 
 // TestSheetsReadAsDrawn: no sheet of the gallery, in any view and either
 // symbol style, has a stage frame holding another stage's part (a frame

@@ -15,7 +15,7 @@ import (
 // the row of the stage it feeds (render/cancuts.go), 318 and 16 after
 // (review17 a02's reduced view: the aerial can beside the mixer it feeds,
 // the frequency changer's mixer and oscillator on one page, not two).
-var pageCountCeiling = struct{ pages, cans int }{318, 16}
+var pageCountCeiling = struct{ pages, cans int }{315, 16}
 
 // TestPagesAndCanCuts: a service sheet prints a small set on as few pages
 // as hold it, and draws an IF can beside the stage its secondary feeds

@@ -66,7 +66,14 @@ import (
 // earth, review19 b02's VC1b, was missed): a new measure, not a worse
 // drawing; the same sheets read 2 more under it without the flag-line
 // router change that came with it. Foreign frames 166 as measured.
-var wireBoxCeiling = struct{ foreign, boxes int }{166, 307}
+// Foreign 170 (+4, all one net: good/every-kind's cathode k on its full and
+// faded views in both styles, now through the BJT output stage's frame
+// where it ran round three sides of the Hartley stage's title) and boxes
+// 301 once the router prices a crossing of one valve's two leads and
+// grids on their own cathode are drawn as the strap: taken for the valve
+// sheets' untangled anode leads (wires beside another net's 940 -> 804, in
+// line across a gap 66 -> 46, earth and rail symbols on another net 46 -> 18).
+var wireBoxCeiling = struct{ foreign, boxes int }{170, 301}
 
 // TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
 // its net has a pin there (a frame says "these parts are this stage"), and
