@@ -95,12 +95,18 @@ func signalFrom(c *graph.Circuit, d *graph.Part) (srcs []string, dist map[string
 // each fed by the next cannot turn for ever.
 func fedFirst(c *graph.Circuit, bs []block) ([]block, bool) {
 	moved, done := false, map[string]bool{}
+	// where each part's stretch stands, built again only after a move:
+	// built for every stretch it cost the square of the stretches
+	var at map[string]int
 	for i := 0; i < len(bs); i++ {
 		b := bs[i]
 		if b.port || b.loose || len(b.refs) == 0 || done[b.refs[0]] {
 			continue
 		}
-		to := feedTarget(c, bs, i)
+		if at == nil {
+			at = stretchOf(bs)
+		}
+		to := feedTarget(c, bs, at, i)
 		if to <= i {
 			continue
 		}
@@ -113,21 +119,16 @@ func fedFirst(c *graph.Circuit, bs []block) ([]block, bool) {
 		run := append([]block{}, bs[i:end]...)
 		rest := append(append([]block{}, bs[:i]...), bs[end:to+1]...)
 		bs = append(append(rest, run...), bs[to+1:]...)
-		moved = true
+		moved, at = true, nil
 		i-- // the stretch now at i is another
 	}
 	return bs, moved
 }
 
 // feedTarget is the last stretch of stretch i's channel that its active
-// parts need before them (fedFirst), or -1 when they need none after i.
-func feedTarget(c *graph.Circuit, bs []block, i int) int {
-	at := map[string]int{}
-	for k, b := range bs {
-		for _, r := range b.refs {
-			at[r] = k
-		}
-	}
+// parts need before them (fedFirst), or -1 when they need none after i;
+// at is stretchOf(bs).
+func feedTarget(c *graph.Circuit, bs []block, at map[string]int, i int) int {
 	to := -1
 	for _, r := range bs[i].refs {
 		d := c.Part(r)
@@ -156,6 +157,17 @@ func feedTarget(c *graph.Circuit, bs []block, i int) int {
 		return -1 // moved past a stage it feeds, that one would read backwards
 	}
 	return to
+}
+
+// stretchOf is the index in bs of the stretch holding each part.
+func stretchOf(bs []block) map[string]int {
+	at := map[string]int{}
+	for k, b := range bs {
+		for _, r := range b.refs {
+			at[r] = k
+		}
+	}
+	return at
 }
 
 // feedsAny says whether an active part of b is a nearest source (signalFrom)
