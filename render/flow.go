@@ -196,7 +196,7 @@ func (f *flow) tooBig(a, b int, cw, ch float64) bool {
 	if _, ok := f.laid[[2]int{a, b}]; ok {
 		return false // laid out already: its fit is known for nothing
 	}
-	if f.cfg.options(f.s).Untangle {
+	if untangles(f.s) {
 		return false // laid out with the untangle search: no least box
 	}
 	over := func(sh *Sheet) bool {

@@ -232,7 +232,7 @@ func (cfg Config) layout(s *Sheet) (*layout.Result, error) {
 func (cfg Config) options(s *Sheet) layout.Options {
 	// the gang link is drawn on every view: it is how the trade shows that
 	// the sections turn together, reduced or not
-	o := layout.Options{Style: symbol.Style(cfg.Style), Links: true, Untangle: s.View == Reduced,
+	o := layout.Options{Style: symbol.Style(cfg.Style), Links: true, Untangle: untangles(s),
 		HideUnconnected: s.View == Reduced, Ties: s.Ties, Presets: s.Presets}
 	// The full and the faded view are one layout (the full sheet carries
 	// the reduction's faded and merged parts too): the full view draws it
@@ -255,6 +255,11 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	}
 	return o
 }
+
+// untangles says whether sheet s is laid out with the untangle search
+// (options): asked alone, it need not build the whole sheet's options,
+// whose frames grow with the set, for every row the flow tries.
+func untangles(s *Sheet) bool { return s.View == Reduced }
 
 // Fprint draws the sheet as SVG on w. Nothing is written if the sheet cannot
 // be drawn.
