@@ -249,6 +249,8 @@ type state struct {
 	// tplMoved are the refs a template moved; tplOff those whose template
 	// is not let orient them (a first placement left them where they were)
 	tplMoved, tplOff map[string]bool
+	// standsOf is stands, once worked out.
+	standsOf map[string]string
 	// frameStage is the stage (index into Options.Frames) of each frame drawn
 	frameStage []int
 	// tankOf is, per capacitor across a winding, the winding (tankplace.go)

@@ -13,8 +13,17 @@ import (
 // then leaves where it was is laid out again without its say.
 
 // stands are the ways the templates ask two-terminal parts to run, by ref.
+//
+// It is worked out once per placement (the frames and the refs whose
+// templates are off do not change during one) and only read: each
+// template asked for it, which made a sheet's templates cost the square
+// of its frames.
 func (ly *state) stands() map[string]string {
+	if ly.standsOf != nil {
+		return ly.standsOf
+	}
 	out := map[string]string{}
+	defer func() { ly.standsOf = out }()
 	for _, f := range ly.o.Frames {
 		for _, p := range f.Places {
 			if _, ok := out[p.Ref]; !ok && p.Stand != "" && !ly.tplOff[p.Ref] {
