@@ -17,6 +17,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/ac"
 	"pare/graph/safety"
 	"pare/rules/stages"
 )
@@ -67,6 +68,12 @@ type Guide struct {
 	// Presets are the procedures for the circuit's presets, in the order
 	// they are set (presets.go).
 	Presets []Preset
+	// solved answers the injection rows' responses of the circuit Build
+	// was given (response): one elaboration per gang setting for every
+	// row, where a fresh one per row made the table cost the square of
+	// the set.
+	solved *ac.Responses
+	of     *graph.Circuit
 
 	aerialInto string // where the RF generator goes, for the tracking steps
 }
@@ -108,7 +115,9 @@ func Build(title string, c *graph.Circuit, sts []stages.Stage, caution safety.Ca
 	g.Title, g.Caution = title, caution.Alignment()
 	g.AGC = agcNet(c)
 	g.confirmDetector(c)
+	g.solved, g.of = ac.NewResponses(c), c
 	g.Inject, g.InjectErr = injections(c, sts, g)
+	g.solved, g.of = nil, nil
 	g.Hints = hintsFor(c, sts, g.IF, g.det)
 	return g
 }

@@ -33,7 +33,7 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 		in.Broken = broken
 		in.Gang, in.Tuned = peakGang(sc, p.net, tuneNet(sc, sts, p.net, in.RefNet), in.Freq), true
 	}
-	h, err := Response(sc, in.Net, in.RefNet, in.Freq, in.Gang)
+	h, err := g.response(sc, in.Net, in.RefNet, in.Freq, in.Gang)
 	if err != nil {
 		return in, err
 	}
@@ -42,11 +42,11 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	}
 	in.Level = in.RefLevel / h
 	in.GainTo = gainTarget(pts, i, in.RefNet)
-	if in.Gain, err = Response(sc, in.Net, in.GainTo, in.Freq, in.Gang); err != nil {
+	if in.Gain, err = g.response(sc, in.Net, in.GainTo, in.Freq, in.Gang); err != nil {
 		return in, err
 	}
 	if len(broken) > 0 {
-		closed, err := Response(c, in.Net, in.GainTo, in.Freq, in.Gang)
+		closed, err := g.response(c, in.Net, in.GainTo, in.Freq, in.Gang)
 		if err != nil {
 			return in, err
 		}
@@ -111,6 +111,21 @@ func implausible(in Injection) string {
 // the gang at frac of its travel: the AC solver on the whole circuit.
 func Response(c *graph.Circuit, in, out string, f, frac float64) (float64, error) {
 	r, err := ac.NewTransfer(c, in, out, ac.Options{VarFrac: frac, VarSet: true})
+	if err != nil {
+		return 0, err
+	}
+	v, err := r.At(f)
+	return cmplx.Abs(v), err
+}
+
+// response is Response, from the guide's shared responses where c is the
+// circuit they are of (the same digits: ac.Responses), else afresh (a
+// circuit with its oscillators' loops broken).
+func (g *Guide) response(c *graph.Circuit, in, out string, f, frac float64) (float64, error) {
+	if g.solved == nil || c != g.of {
+		return Response(c, in, out, f, frac)
+	}
+	r, err := g.solved.Transfer(in, out, ac.Options{VarFrac: frac, VarSet: true})
 	if err != nil {
 		return 0, err
 	}
