@@ -19,7 +19,11 @@ import (
 // only they touch counts as unused, as in the copy without them.
 func loopSystemIn(c *graph.Circuit, m *model, ref string) (*loopSystem, error) {
 	nl := m.nl
-	idx := slices.IndexFunc(nl.prims, func(p prim) bool { return p.kind == primVCCS && p.ref == ref })
+	own := m.vccsOf(ref)
+	idx := -1
+	if len(own) > 0 {
+		idx = int(own[0])
+	}
 	if idx < 0 {
 		if c.Part(ref) == nil {
 			return nil, fmt.Errorf("no part %s in %s", ref, circuitName(c))
@@ -29,10 +33,10 @@ func loopSystemIn(c *graph.Circuit, m *model, ref string) (*loopSystem, error) {
 	src := nl.prims[idx]
 	removed := map[int32]bool{}
 	var srcs []loopSource
-	for i, p := range nl.prims {
-		if p.kind == primVCCS && p.ref == ref && p.c == src.c && p.d == src.d {
+	for _, i := range own {
+		if p := nl.prims[i]; p.c == src.c && p.d == src.d {
 			srcs = append(srcs, loopSource{gm: p.v, a: p.a, b: p.b})
-			removed[int32(i)] = true
+			removed[i] = true
 		}
 	}
 	used := func(n int) bool {
@@ -64,6 +68,24 @@ func loopSystemIn(c *graph.Circuit, m *model, ref string) (*loopSystem, error) {
 	sub := m.blockWithout(seeds, isHeld, removed)
 	s := assemble(nl, -1, isHeld, sub)
 	return &loopSystem{s: s, srcs: srcs, sign: 1, c: src.c, d: src.d}, nil
+}
+
+// vccsOf lists, in order, the controlled sources of part ref in m's
+// netlist. The index of every part's is built on the first call: each
+// loop system scanned every primitive of the set for its own device's,
+// which over a set's devices cost the square of the set. A model made at
+// another setting (atSetting) has the same primitives in the same order,
+// so it may share the index.
+func (m *model) vccsOf(ref string) []int32 {
+	if m.vccs == nil {
+		m.vccs = map[string][]int32{}
+		for i, p := range m.nl.prims {
+			if p.kind == primVCCS {
+				m.vccs[p.ref] = append(m.vccs[p.ref], int32(i))
+			}
+		}
+	}
+	return m.vccs[ref]
 }
 
 // floatingUsed is floating with nothing driven, for the netlist without

@@ -34,6 +34,8 @@ type model struct {
 	// sources holds, per node, what every probe from it shares (sourceAt).
 	sources map[int]*source
 	inputs  []int // the nodes of the declared inputs, in their order
+	// vccs lists each part's controlled sources by primitive (vccsOf).
+	vccs map[string][]int32
 	// from is the model this one was made from at another setting
 	// (atSetting), nil for one elaborated.
 	from *model
