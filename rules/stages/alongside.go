@@ -27,12 +27,37 @@ func alongside(w *world, m *match, i int) []*graph.Part {
 		}
 	}
 	var out []*graph.Part
-	for _, o := range w.conns[a] {
-		if o != ci && across(o) && !inMatch(m, o) {
+	for _, o := range w.across[netPair(a, b)] {
+		if o != ci && !inMatch(m, o) {
 			out = append(out, w.parts[o])
 		}
 	}
 	return out
+}
+
+// capsAcross indexes the two-terminal capacitors of w by the two nets they
+// sit across, each list in part order, as a walk of either net's parts
+// (w.conns, sorted) finds them: alongside read every part on one of the
+// two nets, for every capacitor of every match, and on a bank whose
+// channels' decouplers share a rail and the chassis that was every
+// decoupler of the set each time.
+func capsAcross(w *world) map[[2]int][]int {
+	out := map[[2]int][]int{}
+	for o, p := range w.pins {
+		if w.parts[o].Kind == graph.Capacitor && len(p) == 2 && p[0] != p[1] {
+			k := netPair(p[0], p[1])
+			out[k] = append(out[k], o)
+		}
+	}
+	return out
+}
+
+// netPair is the key of two nets, the lower id first.
+func netPair(a, b int) [2]int {
+	if a > b {
+		a, b = b, a
+	}
+	return [2]int{a, b}
 }
 
 func inMatch(m *match, ci int) bool {

@@ -48,6 +48,9 @@ type world struct {
 	// netAt is each net's place in c.Nets: a piece lists its nets in the
 	// circuit's order without reading every net of the set (cutFreed).
 	netAt map[string]int
+	// across lists, by the two nets (the lower id first), the
+	// two-terminal capacitors across them in part order (capsAcross).
+	across map[[2]int][]int
 	// lazy guards what is built or remembered on first use (resAdj,
 	// dist, walks): the kept stages' figures are solved side by side
 	// (solveFigures), each reading the one world.
@@ -186,6 +189,7 @@ func newWorldJoined(c *graph.Circuit, full bool, acGround map[string]bool, join 
 			}
 		}
 	}
+	w.across = capsAcross(w)
 	w.isEnd = make([]bool, len(w.names))
 	ends := append(append([]string(nil), c.Inputs...), c.Outputs...)
 	for _, r := range c.Regions {
