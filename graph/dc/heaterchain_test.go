@@ -60,14 +60,7 @@ func TestHeaterChainDropper(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			ch, err := pt.Chart(Meter{})
-			if err != nil {
-				t.Fatal(err)
-			}
-			heat := map[string]Heat{}
-			for _, h := range ch.Resistors {
-				heat[h.Ref] = h
-			}
+			_, heat := chartHeat(t, pt)
 			r16 := heat["R16"]
 			if math.Abs(r16.Watts-tc.watts) > 1e-9 || !strings.Contains(r16.Note, tc.note) {
 				t.Errorf("R16 %g W, note %q; want %g W and %q", r16.Watts, r16.Note, tc.watts, tc.note)

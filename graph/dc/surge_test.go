@@ -61,14 +61,7 @@ func TestSurgeResistorAgainstNgspice(t *testing.T) {
 	}
 	vres, _ := pt.Volts("res")
 	vk, _ := pt.Volts("rect_k")
-	ch, err := pt.Chart(Meter{})
-	if err != nil {
-		t.Fatal(err)
-	}
-	heat := map[string]Heat{}
-	for _, h := range ch.Resistors {
-		heat[h.Ref] = h
-	}
+	ch, heat := chartHeat(t, pt)
 	rail := Rail{}
 	for _, r := range ch.Rails {
 		if r.Net == "res" {
@@ -136,4 +129,19 @@ func TestSurgeResistorFaults(t *testing.T) {
 	if drop := healthy - high.Volts("res"); drop < amps*47 {
 		t.Errorf("R1 high (94 Ω): reservoir falls %.3g V, want more than the mean's %.3g V", drop, amps*47)
 	}
+}
+
+// chartHeat charts pt with an ideal meter and lists its resistors' heat by
+// ref.
+func chartHeat(t *testing.T, pt *Point) (*Chart, map[string]Heat) {
+	t.Helper()
+	ch, err := pt.Chart(Meter{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	heat := map[string]Heat{}
+	for _, h := range ch.Resistors {
+		heat[h.Ref] = h
+	}
+	return ch, heat
 }

@@ -78,11 +78,7 @@ func (r *Report) wireBoxes(g *geom.Sheet) {
 	}
 	labels := map[string]geom.Rect{}
 	for _, l := range g.Labels {
-		if b, ok := labels[l.Owner]; ok {
-			labels[l.Owner] = b.Union(l.Box)
-		} else {
-			labels[l.Owner] = l.Box
-		}
+		unionInto(labels, l.Owner, l.Box)
 	}
 	// a part's own earth and rail symbols are drawn as its ends: a wire
 	// round the part and its earth reads as a frame round the part
@@ -92,11 +88,7 @@ func (r *Report) wireBoxes(g *geom.Sheet) {
 	// and a wire along half of its own side would be missed
 	locals := map[string]geom.Rect{}
 	for _, l := range g.Locals {
-		if b, ok := locals[l.Owner]; ok {
-			locals[l.Owner] = b.Union(l.Box)
-		} else {
-			locals[l.Owner] = l.Box
-		}
+		unionInto(locals, l.Owner, l.Box)
 	}
 	for _, s := range g.Symbols {
 		if s.Kind == "" {
@@ -139,4 +131,13 @@ func boxSides(segs []geom.Seg, b geom.Rect) []string {
 	}
 	sort.Strings(out)
 	return out
+}
+
+// unionInto grows the box kept for owner by r (r itself for a new owner:
+// a zero box must not stretch it to the origin).
+func unionInto(boxes map[string]geom.Rect, owner string, r geom.Rect) {
+	if b, ok := boxes[owner]; ok {
+		r = b.Union(r)
+	}
+	boxes[owner] = r
 }
