@@ -114,16 +114,21 @@ func framedSpeakers(g *geom.Sheet) []string {
 // cathodyne-leak) and a grid coupled straight from the amplifier's anode
 // with the cathode load alone (cathodyne-dc); reduced and faded views.
 func TestCathodyneDrawn(t *testing.T) {
-	files := []string{
+	checkReducedAndFaded(t, cathodyneDrawn,
 		"../../testdata/review14/a04.toml",
 		"../../testdata/pairs/cathodyne-leak.toml",
-		"../../testdata/pairs/cathodyne-dc.toml",
-	}
+		"../../testdata/pairs/cathodyne-dc.toml")
+}
+
+// checkReducedAndFaded reports, for each file's reduced and faded sheets
+// (IEC), what wrong lists.
+func checkReducedAndFaded(t *testing.T, wrong func(*geom.Sheet) []string, files ...string) {
+	t.Helper()
 	for _, f := range files {
 		for _, v := range []render.View{render.Reduced, render.Faded} {
 			g := cachedSheet(t, f, v, render.IEC).g
 			name := fmt.Sprintf("%s %s", f[strings.LastIndex(f, "/")+1:], v)
-			for _, p := range cathodyneDrawn(g) {
+			for _, p := range wrong(g) {
 				t.Errorf("%s: %s", name, p)
 			}
 		}

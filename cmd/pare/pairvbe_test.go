@@ -2,10 +2,8 @@ package main
 
 import (
 	"fmt"
-	"strings"
 	"testing"
 
-	"pare/render"
 	"pare/render/geom"
 )
 
@@ -18,19 +16,9 @@ import (
 // class: the multiplier with its preset in the lower leg (review19 b04)
 // and with fixed resistors alone (pairs/comp-vbe).
 func TestVbePairDrawnStacked(t *testing.T) {
-	files := []string{
+	checkReducedAndFaded(t, vbePair,
 		"../../testdata/review19/b04.toml",
-		"../../testdata/pairs/comp-vbe.toml",
-	}
-	for _, f := range files {
-		for _, v := range []render.View{render.Reduced, render.Faded} {
-			g := cachedSheet(t, f, v, render.IEC).g
-			name := fmt.Sprintf("%s %s", f[strings.LastIndex(f, "/")+1:], v)
-			for _, p := range vbePair(g) {
-				t.Errorf("%s: %s", name, p)
-			}
-		}
-	}
+		"../../testdata/pairs/comp-vbe.toml")
 }
 
 // vbePair lists what is wrong with a Vbe-multiplier pair's drawing.
