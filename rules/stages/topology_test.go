@@ -530,6 +530,15 @@ C1 = { c = "180p", pins = ["hot", "ht"] }`,
 		nearMiss: `@Q1(in, gnd, o)
 T1 = { windings = { p = ["75u", "300u"], s = "20u" }, k = 0.15, pins = { p1 = "ht", pt = "nc", p2 = "o", s1 = "s", s2 = "gnd" } }
 C1 = { c = "180p", pins = ["o", "ht"] }`},
+	{topology: "amp-tuned-centre-fed", families: allFamilies,
+		parts: `@Q1(in, gnd, o)
+T1 = { windings = { p = ["300u", "75u"], s = "20u" }, k = 0.15, pins = { p1 = "o", pt = "ht", p2 = "far", s1 = "s", s2 = "gnd" } }
+C1 = { c = "180p", pins = ["o", "far"] }`,
+		// The tuning capacitor from the output to the rail: the tap's far
+		// section hangs loose, nothing tunes the whole winding.
+		nearMiss: `@Q1(in, gnd, o)
+T1 = { windings = { p = ["300u", "75u"], s = "20u" }, k = 0.15, pins = { p1 = "o", pt = "ht", p2 = "far", s1 = "s", s2 = "gnd" } }
+C1 = { c = "180p", pins = ["o", "ht"] }`},
 	{topology: "cascode", families: allFamilies,
 		parts: `@Q1(in, gnd, m)
 @Q2(gnd, m, o)
