@@ -36,13 +36,16 @@ const (
 	ownLineCrossCeiling = 13
 )
 
-// TestFadedLeadsUntangled counts, on the faded view's pages, the two
-// classes of tangle the review named: the collector's (anode's) lead to a
-// tuned winding's tap crossing the tuning capacitor's lead (the capacitor
-// stood between the device and the tap), and a pentode's, hexode's or
-// heptode's anode lead crossing its screen, cathode or injector lead. Common
-// practice on a service sheet: the leads of one part leave it without
-// crossing each other. Each count may only fall.
+// TestFadedLeadsUntangled counts, on the faded view's pages, the classes
+// of tangle the reviews named: the collector's (anode's) lead to a tuned
+// winding's tap crossing the tuning capacitor's lead (the capacitor stood
+// between the device and the tap); a pentode's, hexode's or heptode's
+// anode lead crossing its screen, cathode or injector lead; and any
+// valve's anode lead crossing the supply line its own load returns to, or
+// a triode's its cathode lead (ownLineCrossings: output and driver stages
+// whose load stood under the valve). Common practice on a service sheet:
+// the leads of one part leave it without crossing each other, the load
+// above the anode. Each count may only fall.
 func TestFadedLeadsUntangled(t *testing.T) {
 	files := append(exampleFiles(t), fadedLeadCases(t)...)
 	warmSheets(files, "A3")
