@@ -290,6 +290,13 @@ func selfOscillating(w *world, lp *ac.Loops, acg map[string]bool, p *graph.Part,
 	if err != nil {
 		return
 	}
+	if _, _, _, best, ok := l.Range(); ok && best < 0 && sharedLoop(lp, w.c, p.Ref, l) {
+		// Short of starting where another device's loop runs: the
+		// separate oscillator's tank seen through the mixer it injects
+		// into (its link or injection capacitor), so the mixer stays an
+		// injected one and the tracking is that oscillator's.
+		return
+	}
 	lc := lp.Circuit()
 	through, turned := "", Loop{}
 	if _, _, _, best, ok := l.Range(); ok && best >= loopDrawnDB {

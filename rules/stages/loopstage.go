@@ -60,6 +60,12 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 			// that device's, and its stage says so.
 			continue
 		}
+		if mMax < 0 && claimed[p.Ref] == nil && sharedLoop(lp, c, p.Ref, l) {
+			// Short of starting, at the frequency another device's loop
+			// runs at: that oscillator's tank seen through this device (a
+			// mixer the oscillator injects into), not a dead oscillator.
+			continue
+		}
 		if f := claimed[p.Ref]; mMax >= 0 && amplifierOf(c, f, tops, p.Ref) && !sharedLoop(lp, c, p.Ref, l) {
 			// Named an amplifier by its shape (a shunt-fed anode load, a
 			// bypassed cathode) but its loop runs: it is an oscillator,
