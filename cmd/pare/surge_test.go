@@ -2,8 +2,11 @@ package main
 
 import (
 	"math"
+	"slices"
 	"strings"
 	"testing"
+
+	"pare/render"
 )
 
 // TestSurgeResistorIsTheRectifiers: review19 a05 as first captured, a 47 Ω
@@ -52,4 +55,36 @@ func TestSurgeResistorIsTheRectifiers(t *testing.T) {
 		return
 	}
 	t.Errorf("no smoothing filter in %q", got)
+}
+
+// TestSurgeResistorFramedWithItsRectifier: the surge resistor carries the
+// rectifier's charging pulses, so the rectifier stage owns it and the
+// faded sheet draws it in the rectifier's frame, with the smoothing filter
+// behind the reservoir joined after that frame, as for the folded capture
+// (a05.toml); the blind review found review19 a05-surge's R1 and C2 loose
+// in the signal row, reached from the rectifier's frame by an off-row
+// connector.
+func TestSurgeResistorFramedWithItsRectifier(t *testing.T) {
+	r := cachedResult(t, "../../testdata/review19/a05-surge.toml")
+	for _, st := range r.Stages {
+		if st.Topology == "rectifier-bridge" && !slices.Contains(st.Parts, "R1") {
+			t.Errorf("%s %s parts %v: the surge resistor R1 is the rectifier's", st.Name, st.Title, st.Parts)
+		}
+	}
+	frames := r.Sheet(render.Faded).Frames
+	rect, filter := -1, -1
+	for i, f := range frames {
+		switch {
+		case slices.Contains(f.Parts, "D1"):
+			rect = i
+		case slices.Contains(f.Parts, "C2"):
+			filter = i
+		}
+	}
+	if rect < 0 || !slices.Contains(frames[rect].Parts, "R1") {
+		t.Fatalf("faded frames %+v: no rectifier frame holding R1", frames)
+	}
+	if filter != rect+1 || !frames[filter].Joined {
+		t.Errorf("faded frames %+v: the smoothing filter's frame (C2) is not joined after the rectifier's", frames)
+	}
 }

@@ -566,6 +566,10 @@ func evaluateOn(w *world, m *match, solve bool, cut *graph.Circuit) *Stage {
 			return nil
 		}
 	}
+	if p.Group == "power" {
+		st.Parts = append(st.Parts, x.surgeResistors()...)
+		sort.Strings(st.Parts)
+	}
 	sortFigures(st)
 	sort.Strings(st.Flags)
 	return st

@@ -1,6 +1,10 @@
 package stages
 
-import "pare/graph"
+import (
+	"slices"
+
+	"pare/graph"
+)
 
 // A surge resistor between a rectifier and its reservoir (review19 a05 as
 // first captured: 47 Ω from the bridge's output to the reservoir) carries
@@ -86,4 +90,31 @@ func (x *figCtx) isSurgeSection(si, in, out int) bool {
 	}
 	res, ri := x.surgeReservoir(out)
 	return ri == si && res == in
+}
+
+// surgeResistors are the surge resistors between the match's rectifying
+// junctions and their reservoirs (surgeReservoir) the match does not hold
+// itself: a rectifier stage owns the resistor that carries its charging
+// pulses, so a sheet frames it with the bridge, and the smoothing filter
+// behind its reservoir follows the rectifier's frame, rather than drawing
+// resistor and reservoir loose in a signal row (review19 a05 as first
+// captured).
+func (x *figCtx) surgeResistors() []string {
+	var out []string
+	for _, ci := range x.m.parts {
+		if ci < 0 {
+			continue
+		}
+		if p := x.w.parts[ci]; p.Kind != graph.Diode && !(p.Kind == graph.Valve && isValveDiode(p)) {
+			continue
+		}
+		for _, id := range x.w.pins[ci] {
+			_, ri := x.surgeReservoir(id)
+			if ri < 0 || inMatch(x.m, ri) || slices.Contains(out, x.w.parts[ri].Ref) {
+				continue
+			}
+			out = append(out, x.w.parts[ri].Ref)
+		}
+	}
+	return out
 }
