@@ -19,12 +19,17 @@ const tightGap = 2.0
 const balanceMost = 12
 
 // plan is a way to cut a sheet's stretches into rows and the rows onto
-// pages, with what it is judged by: fewer pages first, then the most parts
-// on its emptiest page (no page of leftovers beside full ones), then fewer
-// rows, then later page breaks (the first pages the fuller).
+// pages, with what it is judged by: fewer pages first, then fewer page
+// breaks through a joined stretch, then fewer row breaks between a tuned
+// can and the stage it feeds (cancuts.go: balancing the pages of review14
+// b03 put its last IF can and the detector on two rows where the greedy
+// flow had them on one), then the most parts on its emptiest page (no page
+// of leftovers beside full ones), then fewer rows, then later page breaks
+// (the first pages the fuller).
 type plan struct {
 	pages, least, rows int
 	splits             int   // page breaks between pieces of one joined stretch (chainBreak)
+	cans               int   // row breaks between a can and the stage it feeds (flow.cansCut)
 	ends               []int // where each row ends
 	starts             []int // the rows, by index, that open a page
 	ok                 bool
@@ -41,6 +46,8 @@ func (p plan) better(q plan) bool {
 		return p.pages < q.pages
 	case p.splits != q.splits:
 		return p.splits < q.splits
+	case p.cans != q.cans:
+		return p.cans < q.cans
 	case p.least != q.least:
 		return p.least > q.least
 	case p.rows != q.rows:
@@ -133,9 +140,9 @@ func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
 		if err != nil {
 			return plan{}, err
 		}
-		same := p.pages == greedy.pages
-		if p.ok && (p.pages < greedy.pages || same && p.splits < greedy.splits ||
-			gap == rowGap && same && p.splits == greedy.splits && p.least > greedy.least) {
+		same := p.pages == greedy.pages && p.splits == greedy.splits
+		if p.ok && (p.pages < greedy.pages || p.pages == greedy.pages && p.splits < greedy.splits ||
+			gap == rowGap && same && (p.cans < greedy.cans || p.cans == greedy.cans && p.least > greedy.least)) {
 			f.gap = gap
 			return p, nil
 		}
@@ -167,6 +174,9 @@ func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail
 		}
 		parts += f.partsIn(start(ends, i), ends[i])
 		p.rows++
+		if i+1 < n {
+			p.cans += f.cansCut(ends[i])
+		}
 	}
 	p.least = leastOf(p.least, parts)
 	return p
@@ -355,12 +365,17 @@ func (s *search) best() (plan, error) {
 				continue
 			}
 			p := plan{ok: true, pages: at[a].pages + 1, least: leastOf(at[a].least, s.f.partsIn(a, b)),
-				splits: at[a].splits,
+				splits: at[a].splits, cans: at[a].cans,
 				rows:   at[a].rows + len(st.ends),
 				ends:   append(append([]int{}, at[a].ends...), st.ends...),
 				starts: append(append([]int{}, at[a].starts...), at[a].rows)}
 			if a > s.lo && s.f.chainBreak(a) {
 				p.splits++
+			}
+			for _, e := range st.ends {
+				if e < s.m {
+					p.cans += s.f.cansCut(e)
+				}
 			}
 			if p.better(at[b]) {
 				at[b] = p

@@ -164,7 +164,7 @@ func stackLoose(pages []*layout.Result, ys []float64, r *layout.Result, cw, avai
 func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 	cw, ch := cfg.Page.content()
 	ch -= 1 + cfg.footReserve(s)
-	bs := blocks(s, cfg.extents(s))
+	bs := detectorsNext(s.Circuit, blocks(s, cfg.extents(s)), cw-rowSlack)
 	var rows map[string]*layout.Result // every flow's rows, by what they hold
 	for {
 		f := newFlow(cfg, s, bs, rows)
