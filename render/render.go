@@ -163,6 +163,10 @@ type Sheet struct {
 	// instead of a lead (a push-pull pair's suppressors); every other
 	// electrode keeps its lead there.
 	Ties map[string]map[string]Tie
+	// TieLabels holds, per ref, the line of its label that names the rails
+	// its electrodes tied to a rail (TieRail) are held at ("g2, g4 HT via
+	// R3 +96.2 V"): the rail bar alone does not say which rail.
+	TieLabels map[string]string
 	// Presets holds, per ref of the circuit drawn, the trimmers merged into
 	// the part: the merged symbol keeps the preset mark.
 	Presets map[string][]string
@@ -191,6 +195,7 @@ type Tie = symbol.Tie
 const (
 	TieGround  = symbol.TieGround  // at AC ground
 	TieCathode = symbol.TieCathode // strapped to the cathode
+	TieRail    = symbol.TieRail    // at a supply rail or a line fed from one
 )
 
 // Config says how to draw.
@@ -233,7 +238,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	// the gang link is drawn on every view: it is how the trade shows that
 	// the sections turn together, reduced or not
 	o := layout.Options{Style: symbol.Style(cfg.Style), Links: true, Untangle: untangles(s),
-		HideUnconnected: s.View == Reduced, Ties: s.Ties, Presets: s.Presets}
+		HideUnconnected: s.View == Reduced, Ties: s.Ties, TieLabels: s.TieLabels, Presets: s.Presets}
 	// The full and the faded view are one layout (the full sheet carries
 	// the reduction's faded and merged parts too): the full view draws it
 	// in plain ink, so the two show the same geometry.

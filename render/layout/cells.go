@@ -125,6 +125,9 @@ func labelLines(p *graph.Part, o Options) []string {
 	if len(second) > 0 {
 		out = append(out, strings.Join(second, ", "))
 	}
+	if t := o.TieLabels[p.Ref]; t != "" {
+		out = append(out, t)
+	}
 	if v := dcLine(p, o.PinVolts[p.Ref]); v != "" {
 		out = append(out, v)
 	}

@@ -115,6 +115,9 @@ type Options struct {
 	// On the other views it holds only grids wired to their own cathode
 	// that the sheet draws as the internal strap (drawnPart).
 	Ties map[string]map[string]symbol.Tie
+	// TieLabels holds, per ref, a line of its label naming the rails its
+	// electrodes tied to a rail are held at (symbol.TieRail).
+	TieLabels map[string]string
 	// Presets holds, per ref, the trimmers merged into the part: the merged
 	// symbol keeps the preset mark, so the alignment point stays on the
 	// sheet (the alignment mark in its label names the trimmer, "align 3

@@ -236,6 +236,11 @@ const (
 	TieNone    Tie = iota
 	TieGround      // at AC ground: a stub to a chassis mark
 	TieCathode     // strapped to the cathode, drawn as the trade's internal strap
+	// TieRail: at a supply rail or a line fed from one (a screen on its
+	// dropper and bypass): a stub to a rail bar, the rail named in the
+	// part's label (layout.Options.TieLabels), never a chassis mark, which
+	// would tell a technician the electrode sits at 0 V
+	TieRail
 )
 
 // table maps a part kind to its symbol builder: the single place that says

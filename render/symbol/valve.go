@@ -125,8 +125,8 @@ func valve(p *graph.Part, st Style, m Marks) Shape {
 		x0, x1 = math.Min(x0, pn.At.X), math.Max(x1, pn.At.X)
 	}
 	for _, t := range v.ties {
-		if t == TieGround {
-			x0 = math.Min(x0, -3) // the chassis mark of a grid held at AC ground
+		if t == TieGround || t == TieRail {
+			x0 = math.Min(x0, -3) // the chassis mark or rail bar of a grid held at AC ground
 		}
 	}
 	y0, y1 := v.top, v.bottom
@@ -220,6 +220,10 @@ func drawnGrids(p *graph.Part, ties map[string]Tie) []string {
 func (v *valveRows) tiedGrid(s *Shape, y float64, t Tie) {
 	if t == TieCathode {
 		s.Prims = append(s.Prims, line(pt(1.2, y), pt(1.5, y), pt(1.5, v.ky), pt(1, v.ky)))
+		return
+	}
+	if t == TieRail {
+		s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-2.6, y)), thick(pt(-2.6, y-0.35), pt(-2.6, y+0.35)))
 		return
 	}
 	s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-2.6, y), pt(-2.6, y-0.3)))

@@ -26,25 +26,34 @@ func (r *Result) withLineVolts(c *graph.Circuit) *graph.Circuit {
 				continue
 			}
 			v, ok := r.DC.Volts(n.Name)
-			text, tagged := tagVolts(v)
+			label, printed, tagged := withVolts(n.Label, v)
 			if !ok || !tagged {
 				continue
 			}
-			if r, err := strconv.ParseFloat(text, 64); err == nil {
-				n.Volts = r // the voltage kept as printed, so the tag states it once
-			}
-			text = strings.Replace(text, "-", "−", 1) // U+2212 MINUS SIGN, as typeset
-			if v > 0 {
-				text = "+" + text
-			}
-			sep := " "
-			if graph.WithoutVolts(n.Label) != n.Label {
-				sep = ", " // named after a rail known by its voltage: "+9 V via R5, +8.3 V"
-			}
-			n.Label = strings.TrimSpace(n.Label + sep + text + " V")
+			n.Label, n.Volts = label, printed // the voltage kept as printed, so the tag states it once
 		}
 	}
 	return out
+}
+
+// withVolts is a line's label with its DC voltage v added as a tag
+// prints it, and that voltage as printed; tagged is false for a voltage
+// no tag states (none, or 0 V).
+func withVolts(label string, v float64) (string, float64, bool) {
+	text, tagged := tagVolts(v)
+	if !tagged {
+		return label, 0, false
+	}
+	printed, _ := strconv.ParseFloat(text, 64)
+	text = strings.Replace(text, "-", "−", 1) // U+2212 MINUS SIGN, as typeset
+	if v > 0 {
+		text = "+" + text
+	}
+	sep := " "
+	if graph.WithoutVolts(label) != label {
+		sep = ", " // named after a rail known by its voltage: "+9 V via R5, +8.3 V"
+	}
+	return strings.TrimSpace(label + sep + text + " V"), printed, true
 }
 
 func hasFedLine(c *graph.Circuit) bool {

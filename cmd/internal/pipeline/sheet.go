@@ -110,7 +110,8 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		s.Circuit = r.withLineVolts(drawn)
 		s.Frames = tankFrames(framesApart(frames, split, drawn), s.Circuit)
 		_, merged := FadedAndMerged(c, reduced)
-		s.Ties, s.Presets = staticTies(c, reduced), presets(c, merged)
+		s.Ties, s.TieLabels = r.staticTies(c, reduced)
+		s.Presets = presets(c, merged)
 	case render.Full, render.Faded:
 		// one sheet for both: render lays the full view out with the
 		// faded parts known and draws it plain, so the faded view is the

@@ -8,10 +8,12 @@ import (
 	"pare/render"
 )
 
-// The frequency changer's pentode loses its screen (decoupled to chassis)
-// and its suppressor (strapped to the cathode, as its note says) to the
-// static-electrode rule: the reduced sheet is told to keep both grid lines,
-// the screen at AC ground and the suppressor on the cathode; and the
+// The frequency changer's pentode loses its screen (fed from the HT
+// through R3, decoupled to chassis by C7) and its suppressor (strapped to
+// the cathode, as its note says) to the static-electrode rule: the reduced
+// sheet is told to keep both grid lines, the screen at its line (a rail
+// bar, the valve's label naming the line "HT via R3") and the suppressor
+// on the cathode; and the
 // trimmers merged into the gang sections stay on them as alignment points
 // (the netlist's own wiring: TC1 across VC1a, TC2 across VC1b). The other
 // views draw every electrode the netlist wires, the suppressor as the
@@ -22,9 +24,12 @@ func TestReducedSheetKeepsStaticGridsAndTrimmers(t *testing.T) {
 		t.Fatal(err)
 	}
 	s := r.Sheet(render.Reduced)
-	want := map[string]render.Tie{"g2": render.TieGround, "g3": render.TieCathode}
+	want := map[string]render.Tie{"g2": render.TieRail, "g3": render.TieCathode}
 	if got := s.Ties["V1"]; !reflect.DeepEqual(got, want) {
 		t.Errorf("V1 ties %v, want %v", got, want)
+	}
+	if got := s.TieLabels["V1"]; got != "g2 HT via R3" {
+		t.Errorf("V1 tie label %q, want %q", got, "g2 HT via R3")
 	}
 	if got := s.Presets; !reflect.DeepEqual(got, map[string][]string{"VC1a": {"TC1"}, "VC1b": {"TC2"}}) {
 		t.Errorf("presets %v, want TC1 on VC1a and TC2 on VC1b", got)
