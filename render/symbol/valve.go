@@ -223,7 +223,9 @@ func (v *valveRows) tiedGrid(s *Shape, y float64, t Tie) {
 		return
 	}
 	if t == TieRail {
-		s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-2.6, y)), thick(pt(-2.6, y-0.35), pt(-2.6, y+0.35)))
+		// the bar of a rail tag, short enough to stay clear of g1's lead
+		// half a step below a static grid spread between rows
+		s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-2.6, y)), thick(pt(-2.6, y-0.25), pt(-2.6, y+0.2)))
 		return
 	}
 	s.Prims = append(s.Prims, line(pt(-1.2, y), pt(-2.6, y), pt(-2.6, y-0.3)))
