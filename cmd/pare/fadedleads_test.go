@@ -23,7 +23,12 @@ import (
 // grid.go blockTip). With review19 counted too: tap 57 (its b02 1, b03 3),
 // anode 16 on the same sheets, 12 since the router prices a crossing of
 // two leads of one valve at three crossings and every valve's grid on its
-// own cathode is drawn as the internal strap.
+// own cathode is drawn as the internal strap. Anode 8 since rip-up and
+// reroute judges a crossing of two leads of one valve at that price too,
+// and an off-row connector on a valve's grid or cathode stands below the
+// row when level with the pin it lay beyond the valve's own anode lead
+// (render/layout siblings.go, ownanode.go: review17 a05 and b05, review19
+// a05 and a05-surge each lose their one).
 // Own-line crossings: any valve's anode lead crossing the line at the far
 // end of its own anode load (the HT or decoupled supply its resistor,
 // choke or transformer primary returns to), and a valve without a screen grid (a
@@ -32,7 +37,7 @@ import (
 // review18 a02, review19 a04 a05 a05-surge b05: one each).
 const (
 	tapCrossCeiling     = 57
-	anodeCrossCeiling   = 12
+	anodeCrossCeiling   = 8
 	ownLineCrossCeiling = 13
 )
 

@@ -49,6 +49,7 @@ func (ly *state) levelEdge(col []*block, left bool) {
 			fixed = append(fixed, b)
 			continue
 		}
+		y = ly.pastOwnAnode(p.Net, y, left)
 		x0, x1 := p.At.X, p.At.X+reach
 		if !left {
 			x0, x1 = p.At.X-reach, p.At.X

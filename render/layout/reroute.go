@@ -185,7 +185,11 @@ func (rt *router) uncross() {
 // uncrossPair tries to reroute one net of a crossing pair, then both, and
 // keeps the first wiring with fewer crossings between them.
 func (rt *router) uncrossPair(p netPair, round int) bool {
-	before := rt.crossingsOf(p.a, p.b)
+	count := rt.crossingsOf
+	if rt.siblings(int32(p.a+1), int32(p.b+1)) {
+		count = rt.pricedCrossingsOf // two leads of one valve
+	}
+	before := count(p.a, p.b)
 	if before == 0 {
 		return false
 	}
@@ -204,7 +208,7 @@ func (rt *router) uncrossPair(p netPair, round int) bool {
 			ok = rt.routeNet(id) && ok
 		}
 		rt.wide = false
-		if ok && rt.crossingsOf(p.a, p.b) < before {
+		if ok && count(p.a, p.b) < before {
 			return true
 		}
 		rt.ripUp(p.a)

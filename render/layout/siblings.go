@@ -1,6 +1,10 @@
 package layout
 
-import "pare/graph"
+import (
+	"slices"
+
+	"pare/graph"
+)
 
 // A valve's leads leave it on the sides they are drawn on: the anode up to
 // its load, the screen and the further grids right to their feeds, the
@@ -90,4 +94,40 @@ func (rt *router) siblingMask(net int32) []bool {
 		sc.sibSet = append(sc.sibSet, v)
 	}
 	return sc.sib
+}
+
+// pricedCrossingsOf counts the cells where the given nets cross another
+// net, a crossing of two leads of one valve as the search prices it (one
+// crossing and siblingCost more). Rip-up and reroute of such a pair judges
+// by it, so it keeps a wiring the search itself would take: judged by the
+// plain count, an output pentode's anode lead kept its crossing of the
+// screen feed rather than one going round past two other nets' wires
+// (review17 a05's faded sheet: the anode lead over the screen feed and
+// the HT line, now up and over to the transformer).
+func (rt *router) pricedCrossingsOf(ids ...int) int {
+	seen := map[int]bool{}
+	n := 0
+	for _, id := range ids {
+		for _, c := range rt.nets[id].cells {
+			o := rt.g[c].own
+			if o[1] == 0 || seen[c] {
+				continue
+			}
+			seen[c] = true
+			n++
+			if rt.siblings(o[0], o[1]) {
+				n += siblingCost / crossCost
+			}
+		}
+	}
+	return n
+}
+
+// siblings says whether nets a and b (ids) lead from one valve, its anode
+// and another of its electrodes.
+func (rt *router) siblings(a, b int32) bool {
+	if int(a) > len(rt.sib) || a < 1 {
+		return false
+	}
+	return slices.Contains(rt.sib[a-1], b)
 }
