@@ -17,6 +17,8 @@ func TestFormat(t *testing.T) {
 		want string
 	}{
 		{1.47e6, Hertz, Text, "1.47 MHz"},      // SI prefix, common practice
+		{0.723, Hertz, Text, "0.723 Hz"},       // not "723 mHz", read as MHz on a sheet (common practice)
+		{0.723, Hertz, Sheet, "0.723 Hz"},      // the same on a sheet
 		{1455e3, Hertz, Text, "1.455 MHz"},     // four digits keep kHz steps (units table)
 		{1455e3, Hertz, Sheet, "1.46 MHz"},     // three on a sheet, as a marking carries
 		{459.6e3, Hertz, Text, "459.6 kHz"},    // an IF can 1 % high of 455 kHz shows as such

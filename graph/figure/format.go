@@ -36,6 +36,11 @@ func Format(v float64, u Unit, m Medium) string {
 		return Plain(v)
 	case u == Second && math.Abs(v) >= secondsPlain:
 		return Plain(v) + " s"
+	case u == Hertz && v != 0 && math.Abs(v) < 1:
+		// "723 mHz" reads as megahertz on a service sheet (a reviewer
+		// took a feedback loop's low-frequency pole for one): below a
+		// hertz, plain decimals
+		return Plain(v) + " Hz"
 	}
 	return value.FormatPrec(v, units[u].si, value.Symbol, digits(u, m))
 }
@@ -99,7 +104,7 @@ func (f Figure) rangeText(m Medium) string { return FormatRange(*f.Range, f.Unit
 // their prefixed unit where they can ("1–2.06 MHz", and one value where
 // the range is one). Sheets write bands and regions with it.
 func FormatRange(r value.Range, u Unit, m Medium) string {
-	if m == Sheet && u.known() && units[u].si != value.None && u != Second {
+	if m == Sheet && u.known() && units[u].si != value.None && u != Second && !(u == Hertz && math.Min(math.Abs(r.Min), math.Abs(r.Max)) < 1) {
 		return value.FormatRange(r, units[u].si, value.Symbol)
 	}
 	return Format(r.Min, u, m) + "\u2013" + Format(r.Max, u, m)
