@@ -111,13 +111,7 @@ func (f *flow) cansCut(c int) int {
 	if !f.feedsDone {
 		f.feedLinks, f.feedsDone = f.feeds(), true
 	}
-	n := 0
-	for _, l := range f.feedLinks {
-		if l.lo < c && c <= l.hi && f.fitsRow(l) {
-			n++
-		}
-	}
-	return n
+	return f.spansCut(f.feedLinks, c)
 }
 
 // canStart is where a row [a, e) that would end by splitting a can from the

@@ -163,8 +163,14 @@ func (f *flow) loopsCut(c int) int {
 	if !f.loopsDone {
 		f.loops, f.loopsDone = f.loopsOf(), true
 	}
+	return f.spansCut(f.loops, c)
+}
+
+// spansCut counts the spans among ls that fit a row and a row ending
+// before stretch c splits.
+func (f *flow) spansCut(ls []loop, c int) int {
 	n := 0
-	for _, l := range f.loops {
+	for _, l := range ls {
 		if l.lo < c && c <= l.hi && f.fitsRow(l) {
 			n++
 		}
