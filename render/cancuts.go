@@ -1,7 +1,6 @@
 package render
 
 import (
-	"sort"
 
 	"pare/graph"
 	"pare/render/layout"
@@ -49,12 +48,7 @@ func (f *flow) feeds() []loop {
 			}
 		}
 	}
-	sort.Slice(out, func(i, j int) bool {
-		if out[i].lo != out[j].lo {
-			return out[i].lo < out[j].lo
-		}
-		return out[i].hi < out[j].hi
-	})
+	sortLoops(out)
 	return out
 }
 

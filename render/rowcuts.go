@@ -56,12 +56,7 @@ func (f *flow) loopsOf() []loop {
 			out = append(out, l)
 		}
 	}
-	sort.Slice(out, func(i, j int) bool {
-		if out[i].lo != out[j].lo {
-			return out[i].lo < out[j].lo
-		}
-		return out[i].hi < out[j].hi
-	})
+	sortLoops(out)
 	return out
 }
 
@@ -253,4 +248,14 @@ func (cfg Config) Breaks(s *Sheet) ([]Break, error) {
 		out = append(out, Break{Loops: k[0], Connectors: k[1], Cans: f.cansCut(e)})
 	}
 	return out, nil
+}
+
+// sortLoops orders spans by their first stretch, then their last.
+func sortLoops(ls []loop) {
+	sort.Slice(ls, func(i, j int) bool {
+		if ls[i].lo != ls[j].lo {
+			return ls[i].lo < ls[j].lo
+		}
+		return ls[i].hi < ls[j].hi
+	})
 }
