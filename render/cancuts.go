@@ -1,7 +1,6 @@
 package render
 
 import (
-
 	"pare/graph"
 	"pare/render/layout"
 )
