@@ -36,7 +36,7 @@ func calcAGCLine(x *figCtx) {
 	formula := &figure.Figure{Name: "tau", Unit: figure.Second, Value: r.Value.Max * c.Capacitance(0.5), Origin: byTau}
 	sv := x.solvedLag(from, line)
 	x.putChecked(sv, formula, func() string {
-		return "in circuit the line also charges what it feeds (the grid filters' capacitors through their resistors)"
+		return "in circuit the line also charges what it feeds (the " + controlWord(controlledKinds(x.w.c, line, r.Ref)) + " filters' capacitors through their resistors)"
 	})
 	if f, ok := x.get("tau"); ok {
 		x.checkAGC(f.Value)
@@ -142,6 +142,13 @@ func detectorToLine(c *graph.Circuit, from, line, r string) bool {
 // nets other than a declared bias line, and tells whether it meets the
 // control electrode of an amplifying device.
 func reachesControl(c *graph.Circuit, net, skip string) bool {
+	return len(controlledKinds(c, net, skip)) > 0
+}
+
+// controlledKinds are the kinds of the devices whose control electrode
+// the walk of reachesControl reaches, in the order first reached.
+func controlledKinds(c *graph.Circuit, net, skip string) []graph.Kind {
+	var kinds []graph.Kind
 	seen := map[string]bool{net: true}
 	queue := []string{net}
 	for len(queue) > 0 {
@@ -150,7 +157,10 @@ func reachesControl(c *graph.Circuit, net, skip string) bool {
 		for _, cn := range c.ConnsOf(n) {
 			p := cn.Part
 			if p.IsActive() && graph.RoleOfPin(p.Kind, cn.Pin) == graph.RoleControl {
-				return true
+				if !slices.Contains(kinds, p.Kind) {
+					kinds = append(kinds, p.Kind)
+				}
+				continue
 			}
 			if p.Ref == skip {
 				continue
@@ -165,7 +175,26 @@ func reachesControl(c *graph.Circuit, net, skip string) bool {
 			}
 		}
 	}
-	return false
+	return kinds
+}
+
+// controlWord names the electrode a control line feeds in the words of
+// the devices it reaches: a transistor set's AGC filters feed bases, not
+// grids (review20 b03 read "the grid filters' capacitors"). Devices of
+// more than one kind get the neutral word.
+func controlWord(kinds []graph.Kind) string {
+	if len(kinds) != 1 {
+		return "feed"
+	}
+	switch kinds[0] {
+	case graph.Valve:
+		return "grid"
+	case graph.BJT:
+		return "base"
+	case graph.FET:
+		return "gate"
+	}
+	return "feed"
 }
 
 // dcEnds are the nets a part joins to pin's net for DC: a resistor's

@@ -255,20 +255,48 @@ func (x *figCtx) designInCircuit(osc *tankModel, oc coilEnds, section *graph.Par
 	}
 	x.put(figure.Figure{Name: "track_f", Unit: figure.Hertz, Points: des.pts[:], Origin: byDesignInC})
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("suggested design: solved in circuit, it tracks within %s at %s; the closed form on the oscillator tank's own parts, aimed at the same points, would miss by up to %s in circuit (what %s put across the coil)",
-		hz(des.residual), hzList(des.pts[:]), hz(des.closed), acrossCoil(x.st.Family)))
+		hz(des.residual), hzList(des.pts[:]), hz(des.closed), acrossCoil(stageFamily(x.st.Family, x.w.c))))
 }
 
 // acrossCoil names what an oscillator's device and its coupling put
 // across its coil, in the words of the device's kind: a transistor has a
-// base and its coupling capacitor, not a grid capacitor.
+// base and its coupling capacitor, not a grid capacitor. A family that is
+// no device's gets the neutral words.
 func acrossCoil(family string) string {
 	switch family {
+	case "valve":
+		return "the grid capacitor, the injection and the valve"
 	case "bjt":
 		return "the base coupling capacitor, the injection and the transistor"
 	case "fet":
 		return "the gate capacitor, the injection and the FET"
 	}
-	return "the grid capacitor, the injection and the valve"
+	return "the coupling capacitor, the injection and the device"
+}
+
+// stageFamily is a stage's device family, or for a stage of passive parts
+// (the gang's tracking, holding no device) the family of the circuit's
+// amplifying devices when they are all of one kind: a transistor set's
+// tracking note read "the grid capacitor … and the valve" (review20 b02).
+func stageFamily(family string, c *graph.Circuit) string {
+	if family != "passive" && family != "" {
+		return family
+	}
+	found := ""
+	for _, p := range c.Parts {
+		if !p.IsActive() {
+			continue
+		}
+		f := deviceFamily(p)
+		if f == "passive" {
+			continue
+		}
+		if found != "" && found != f {
+			return ""
+		}
+		found = f
+	}
+	return found
 }
 
 // scaledCoil is coil with its inductance times k: a tapped coil's sections

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/safety"
 	"pare/rules/stages"
 )
 
@@ -71,10 +72,11 @@ func (g *Guide) account(c *graph.Circuit, sts []stages.Stage) {
 // AddBands aligns with the switch turned.
 func switchedOut(c *graph.Circuit) map[string]bool {
 	open := map[string]bool{}
+	power := safety.PowerSwitches(c)
 	for _, p := range c.Parts {
 		pos := int(p.Set)
-		if p.Kind != graph.Switch || pos < 1 || pos > len(p.Closes) {
-			continue
+		if p.Kind != graph.Switch || pos < 1 || pos > len(p.Closes) || power[p.Ref] {
+			continue // a power switch's open contacts switch out no band
 		}
 		closed := map[string]bool{}
 		for _, pr := range p.Closes[pos-1] {

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	"pare/graph/safety"
 	"pare/graph/value"
 	"pare/rules/stages"
 )
@@ -36,6 +37,7 @@ func bandSwitches(c *graph.Circuit, sts []stages.Stage) (refs []string, position
 		return nil, 0
 	}
 	var nets []string
+	power := safety.PowerSwitches(c)
 	for _, t := range append(sigTanks(sc, osc.gang), osc) {
 		for _, p := range []*graph.Part{t.gang, t.trimmer, t.padder, t.coil} {
 			if p != nil {
@@ -46,8 +48,8 @@ func bandSwitches(c *graph.Circuit, sts []stages.Stage) (refs []string, position
 		}
 	}
 	for _, p := range c.Parts {
-		if p.Kind != graph.Switch || len(p.Closes) < 2 || int(p.Set) < 1 || int(p.Set) > len(p.Closes) {
-			continue
+		if p.Kind != graph.Switch || len(p.Closes) < 2 || int(p.Set) < 1 || int(p.Set) > len(p.Closes) || power[p.Ref] {
+			continue // a power switch's other position is the set switched off, not a band
 		}
 		if slices.ContainsFunc(switchedPins(p), func(pin string) bool { return slices.Contains(nets, p.NetOf(pin)) }) {
 			refs = append(refs, p.Ref)
@@ -94,10 +96,11 @@ func switchedPins(p *graph.Part) []string {
 // set on the first.
 func bandParts(c *graph.Circuit) map[string]bool {
 	nets := map[string]bool{}
+	power := safety.PowerSwitches(c)
 	for _, p := range c.Parts {
 		pos := int(p.Set)
-		if p.Kind != graph.Switch || pos < 1 || pos > len(p.Closes) {
-			continue
+		if p.Kind != graph.Switch || pos < 1 || pos > len(p.Closes) || power[p.Ref] {
+			continue // a power switch puts no band's parts in circuit
 		}
 		own := switchedPins(p)
 		for _, pr := range p.Closes[pos-1] {
