@@ -7,6 +7,7 @@ import (
 
 	"pare/graph"
 	"pare/graph/figure"
+	"pare/graph/safety"
 	"pare/render"
 	"pare/rules"
 	"pare/rules/stages"
@@ -79,13 +80,27 @@ func furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []furnIt
 	// position), so the sheet says which. The line concerns the switch and
 	// the parts wired to it: on the reduced sheet the switch is gone, its
 	// neighbours drawn.
+	power := safety.PowerSwitches(c)
 	for _, p := range c.Parts {
 		if p.Kind == graph.Switch {
-			items = append(items, furnItem{text: fmt.Sprintf("Switch %s at position %d of %d", p.Ref, int(p.Set), len(p.Closes)),
-				full: []string{p.Ref}, near: neighbours(c, p)})
+			items = append(items, furnItem{text: switchLine(p, power[p.Ref]), full: []string{p.Ref}, near: neighbours(c, p)})
 		}
 	}
 	return append(items, furnItem{text: "Reduction level " + lvl.String()})
+}
+
+// switchLine is a switch's line of the information block. An on/off
+// switch is said on or off: "at position 2 of 2" read as a band switch's
+// setting (review20 a05's double-pole mains switch).
+func switchLine(p *graph.Part, power bool) string {
+	pos := int(p.Set)
+	if !power {
+		return fmt.Sprintf("Switch %s at position %d of %d", p.Ref, pos, len(p.Closes))
+	}
+	if pos >= 1 && pos <= len(p.Closes) && len(p.Closes[pos-1]) > 0 {
+		return "On/off switch " + p.Ref + " on"
+	}
+	return "On/off switch " + p.Ref + " off"
 }
 
 // nonEmpty is the strings given that are not empty.
