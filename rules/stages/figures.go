@@ -25,7 +25,7 @@ func init() {
 	calcs = map[string]calc{
 		"tank":         {args: []string{"coil", "caps", "winding", "check", "other_caps"}, required: []string{"coil", "caps"}, wordArgs: []string{"winding", "check"}, fn: calcTank},
 		"hartley":      {args: []string{"coil", "caps"}, required: []string{"coil", "caps"}, fn: calcHartley},
-		"colpitts":     {args: []string{"coil", "c1", "c2", "tune"}, required: []string{"coil", "c1", "c2"}, fn: calcColpitts},
+		"colpitts":     {args: []string{"coil", "c1", "c2", "tune", "block"}, required: []string{"coil", "c1", "c2"}, fn: calcColpitts},
 		"clapp":        {args: []string{"coil", "c1", "c2", "c3"}, required: []string{"coil", "c1", "c2", "c3"}, fn: calcClapp},
 		"series-share": {args: []string{"c1", "c2", "c3"}, required: []string{"c1", "c2", "c3"}, fn: calcSeriesShare},
 		"crystal":      {args: []string{"xtal"}, required: []string{"xtal"}, fn: calcCrystal},

@@ -33,8 +33,9 @@ const tankSearch = 3
 
 // solveTank finds a tank's peaks between lo/tankSearch and hi·tankSearch;
 // ok is false when the coil has no end off ground, the solver fails, or
-// there is no peak in that span.
-func (x *figCtx) solveTank(a, b int, lo, hi float64) (tankPeaks, bool) {
+// there is no peak in that span. refs are the capacitors the tank's formula
+// counts: a declared input on one of their nets is left free (tankNets).
+func (x *figCtx) solveTank(a, b int, lo, hi float64, refs []string) (tankPeaks, bool) {
 	if !x.solve {
 		return tankPeaks{}, false
 	}
@@ -45,7 +46,7 @@ func (x *figCtx) solveTank(a, b int, lo, hi float64) (tankPeaks, bool) {
 	if t.net == "" || !(lo > 0) || !(hi >= lo) || math.IsInf(hi, 0) {
 		return t, false
 	}
-	c := freeInputs(quiet(x.solverCircuit()), t.net, x.netName(b))
+	c := freeInputs(quiet(x.solverCircuit()), x.tankNets(t.net, x.netName(b), refs)...)
 	for _, g := range t.gs {
 		var r *ac.Response
 		var err error
@@ -96,7 +97,7 @@ func (x *figCtx) resonanceFigure(name, coil string, l float64, a, b int, formula
 	} else {
 		check.Value = lo
 	}
-	t, ok := x.solveTank(a, b, lo, hi)
+	t, ok := x.solveTank(a, b, lo, hi, refs)
 	x.tank, x.tankOK = t, ok
 	if !x.solve || !ok {
 		x.put(check)
@@ -134,6 +135,24 @@ func refsOf(ps []*graph.Part) []string {
 		out[i] = p.Ref
 	}
 	return out
+}
+
+// tankNets are the coil's ends and the nets of the capacitors its formula
+// counts: the tank's own loop. A declared input on one of them (a
+// Colpitts's emitter tap named as the point a buffer is probed from) held
+// at 0 V would short a capacitor of the divider the coil resonates with,
+// and the "tank alone" figure, and every pull measured from it, would be
+// that of another tank.
+func (x *figCtx) tankNets(hot, cold string, refs []string) []string {
+	nets := []string{hot, cold}
+	for _, r := range refs {
+		if p := x.w.c.Part(r); p != nil {
+			for _, pin := range p.Pins {
+				nets = append(nets, pin.Net)
+			}
+		}
+	}
+	return nets
 }
 
 // freeInputs is c without the declared inputs among nets: the solver holds

@@ -15,6 +15,7 @@ var (
 	byHartleyL      = figure.ByFormula("L = L1 + L2 + 2M, M = k√(L1L2)")
 	byColpitts      = figure.ByFormula("Ceff = C1C2/(C1+C2)")
 	byColpittsTuned = figure.ByFormula("Ceff = Ct + C1C2/(C1+C2)")
+	byColpittsBlock = figure.ByFormula("Ceff = Ct + 1/(1/C1 + 1/C2 + 1/Cb)")
 	byClapp         = figure.ByFormula("1/Ceff = 1/C1 + 1/C2 + 1/C3")
 	bySeriesShare   = figure.ByFormula("(1/C3)/(1/C1 + 1/C2 + 1/C3), C3 at its largest")
 	byFeedback      = figure.ByFormula("β = C1/C2")
@@ -145,7 +146,11 @@ func calcHartley(x *figCtx) {
 // VFO's gang section with its trimmer) adds to the divider's series pair:
 // Ceff = Ct + C1C2/(C1+C2) is then what the coil resonates with, a range
 // over the gang, and the resonance formula counts it; the divider alone
-// would print a capacitance the tank does not have.
+// would print a capacitance the tank does not have. A DC block between the
+// coil's hot end and the divider (`block`: a VFO's coupling capacitor to
+// the base) is in series with the divider as the coil sees it, so it adds
+// as a reciprocal (series capacitors, handbook formula): left out, the
+// formula's tank sits lower than the oscillator runs and reads as pulled.
 func calcColpitts(x *figCtx) {
 	coil, ok := x.coil("coil")
 	l := coil.l
@@ -154,20 +159,24 @@ func calcColpitts(x *figCtx) {
 		return
 	}
 	x.set("l", figure.Henry, l, byCoilL)
-	tune := x.parts("tune")
-	ceffAt := func(frac float64) float64 { return sumCap(tune, frac) + c1*c2/(c1+c2) }
+	tune, block := x.parts("tune"), x.parts("block")
+	series, plain := c1*c2/(c1+c2), byColpitts
+	if cb := sumCap(block, 1); cb > 0 {
+		series, plain = 1/(1/c1+1/c2+1/cb), byColpittsBlock
+	}
+	ceffAt := func(frac float64) float64 { return sumCap(tune, frac) + series }
 	switch {
 	case len(tune) == 0:
-		x.set("c_eff", figure.Farad, ceffAt(1), byColpitts)
+		x.set("c_eff", figure.Farad, ceffAt(1), plain)
 	case hasVariable(tune) && ceffAt(1) > ceffAt(0)*1.0001:
-		x.span("c_eff", figure.Farad, ceffAt(0), ceffAt(1), byColpittsTuned)
+		x.span("c_eff", figure.Farad, ceffAt(0), ceffAt(1), tunedOrigin(plain))
 	default:
-		x.set("c_eff", figure.Farad, ceffAt(1), byColpittsTuned)
+		x.set("c_eff", figure.Farad, ceffAt(1), tunedOrigin(plain))
 	}
 	x.set("feedback", figure.Ratio, c1/c2, byFeedback)
 	x.set("gain_min", figure.Ratio, c2/c1, byColpittsA)
 	var refs []string
-	for _, cs := range [][]*graph.Part{tune, x.parts("c1"), x.parts("c2")} {
+	for _, cs := range [][]*graph.Part{tune, block, x.parts("c1"), x.parts("c2")} {
 		refs = append(refs, refsOf(cs)...)
 	}
 	formulaAt := func(frac float64) float64 {
@@ -177,6 +186,15 @@ func calcColpitts(x *figCtx) {
 		return resonance(l, ceffAt(frac))
 	}
 	x.resonanceFigure("f", coil.ref, coil.l, coil.a, coil.b, formulaAt, byResonance, refs)
+}
+
+// tunedOrigin is the origin of a Colpitts's Ceff with a tuning capacitor
+// across the coil: the block's formula names Ct already.
+func tunedOrigin(plain figure.Origin) figure.Origin {
+	if plain == byColpitts {
+		return byColpittsTuned
+	}
+	return plain
 }
 
 // fixedResonance is a tank's f from a formula on a fixed capacitance (the
