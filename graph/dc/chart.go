@@ -177,6 +177,9 @@ func (p *Point) chartPart(ch *Chart, part *graph.Part, mt Meter) error {
 			// the charging pulses heat it, not their mean
 			h.Watts, h.Note = e.PulseRMS*e.PulseRMS*e.SurgeOhms, SurgeHeatNote
 			w = h.Watts
+		} else if fw, ok := p.railFedSurgeHeat(part); ok {
+			h.Watts, h.Note = fw, FeedHeatNote
+			w = fw
 		}
 		if part.Kind == graph.Resistor {
 			if hw, note, ok := p.heaterChainHeat(part); ok {
