@@ -105,6 +105,12 @@ func labelLines(p *graph.Part, o Options) []string {
 	case graph.Port:
 		return nil
 	}
+	if len(p.From) > 1 && p.Gang == "" && strings.HasPrefix(first, p.Ref+" ") {
+		// an equivalent's value is on no part of the set: the ref it
+		// kept would read as that part's value ("R2 11k" where R2 is
+		// 22k), so the value stands alone over what it stands for
+		first = strings.TrimPrefix(first, p.Ref+" ")
+	}
 	var second []string
 	if p.Gang != "" {
 		second = append(second, "gang "+p.Gang)
