@@ -95,34 +95,11 @@ func (ly *state) levelEdge(col []*block, left bool) {
 // the cells off the edge columns, and its distance from that edge; false
 // when no such cell has a pin on the net.
 func (ly *state) edgeLevel(net string, left bool) (y, reach float64, ok bool) {
-	best := math.Inf(1)
-	for _, cl := range ly.cells {
-		if cl.edge != 0 {
-			continue
-		}
-		for _, p := range cl.shape.Pins {
-			if p.Net != net {
-				continue
-			}
-			d := -p.At.X
-			if left {
-				d = p.At.X
-			}
-			// a pin leaving up or down meets its wire a step off its
-			// tip, where a part hangs under a sideways wire (hangOff)
-			at := p.At.Y
-			switch p.Dir {
-			case geom.Up:
-				at--
-			case geom.Down:
-				at++
-			}
-			if d < best || d == best && at < y {
-				best, y, ok = d, at, true
-			}
-		}
+	_, p, ok := ly.edgePin(net, left)
+	if !ok {
+		return 0, math.Inf(1), false
 	}
-	return y, best, ok
+	return wireLevel(p), edgeDistance(p, left), true
 }
 
 // underDevices is level y, run from x0 to x1, or, when that run would

@@ -45,8 +45,9 @@ func (ly *state) pastOwnAnode(net string, y float64, left bool) float64 {
 	return math.Ceil(foot) + rowGap
 }
 
-// edgePin is the cell and pin on net nearest the left (right) edge, as
-// edgeLevel finds it.
+// edgePin is the cell and pin on net nearest the left (right) edge among
+// the cells off the edge columns, the highest level (wireLevel) among
+// equals: the pin edgeLevel reads.
 func (ly *state) edgePin(net string, left bool) (*cell, geom.Pin, bool) {
 	best := math.Inf(1)
 	var at *cell
@@ -59,16 +60,34 @@ func (ly *state) edgePin(net string, left bool) (*cell, geom.Pin, bool) {
 			if p.Net != net {
 				continue
 			}
-			d := -p.At.X
-			if left {
-				d = p.At.X
-			}
-			if d < best {
+			if d := edgeDistance(p, left); d < best || d == best && wireLevel(p) < wireLevel(pin) {
 				best, at, pin = d, cl, p
 			}
 		}
 	}
 	return at, pin, at != nil
+}
+
+// edgeDistance is how far a pin stands from the left (right) edge, up to
+// a constant.
+func edgeDistance(p geom.Pin, left bool) float64 {
+	if left {
+		return p.At.X
+	}
+	return -p.At.X
+}
+
+// wireLevel is the y where a pin meets its wire: a pin leaving up or down
+// meets it a step off its tip, where a part hangs under a sideways wire
+// (hangOff).
+func wireLevel(p geom.Pin) float64 {
+	switch p.Dir {
+	case geom.Up:
+		return p.At.Y - 1
+	case geom.Down:
+		return p.At.Y + 1
+	}
+	return p.At.Y
 }
 
 // anodeAcross says whether cl is a valve, pin one of its grids or its

@@ -29,7 +29,7 @@ func TestTankAloneCountsSeriesBlock(t *testing.T) {
 	const spiceLo, spiceHi = 2.673e6, 3.088e6       // reviewer's ngspice, c01.cir
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
-			c, err := graph.LoadFile("testdata/pull/vfo-blocked-tap-input.toml")
+			c, err := graph.LoadFile("../../testdata/review20/b01.toml")
 			if err != nil {
 				t.Fatal(err)
 			}
