@@ -292,6 +292,10 @@ func addLoops(lp *ac.Loops, out []Stage) {
 				st.Flags = append(st.Flags, fmt.Sprintf("loop gain of %s not computed: %v", ref, err))
 				continue
 			}
+			if freed, flag, ok := loopInputsOpen(c, st, ref, l); ok {
+				l = freed
+				st.Flags = append(st.Flags, flag)
+			}
 			st.Loop = append(st.Loop, l)
 			loopFrequencyFigure(st, l)
 			if st.group == "mixer" {
