@@ -44,9 +44,16 @@ const (
 	// no rectifier, no heater chain. Its HT (45–135 V) can still shock,
 	// and HT on the filament line blows every valve.
 	BatteryValve
+	// OutsideSupply: as Battery, but a port or rail names the low-voltage
+	// supply it comes from (a bench supply, an adaptor, a supply board)
+	// and nothing names a battery: the circuit is low voltage, the supply
+	// feeding it may be mains equipment, and "never short the battery"
+	// said of a board fed from a supply is wrong about the set.
+	OutsideSupply
 )
 
-var classNames = [...]string{Unknown: "unknown", Battery: "battery", MainsHT: "mains-ht", LiveChassis: "live-chassis", BatteryValve: "battery-valve"}
+var classNames = [...]string{Unknown: "unknown", Battery: "battery", MainsHT: "mains-ht", LiveChassis: "live-chassis",
+	BatteryValve: "battery-valve", OutsideSupply: "outside-supply"}
 
 // String gives the class's name as tests and JSON show it.
 func (c Class) String() string {
@@ -96,6 +103,7 @@ type evidence struct {
 	hotHeaters                  []string        // heater windings on a hot net
 	acdc                        []string        // labels that say AC/DC outright
 	batteries                   []string        // nets, ports and parts a label calls a battery
+	outside                     []string        // ports and rails a label calls an outside supply
 	maxVolts                    float64
 }
 
@@ -129,6 +137,10 @@ func Assess(c *graph.Circuit) Assessment {
 			group{"valve(s)", ev.valves}, group{"rail(s) above 50 V:", ev.highRails},
 			group{"mains transformer(s)", ev.mainsTransformers}, group{"rectifier(s)", ev.rectifiers},
 			group{"mains input(s)", ev.mainsInputs})
+	case len(ev.lowRails) > 0 && len(ev.batteries) == 0 && len(ev.outside) > 0:
+		a.Class = OutsideSupply
+		a.Evidence = summary(group{"no valves, no mains parts, rail(s) at 50 V or below:", ev.lowRails},
+			group{"fed from outside by", ev.outside})
 	case len(ev.lowRails) > 0:
 		a.Class = Battery
 		a.Evidence = summary(group{"no valves, no mains parts, rail(s) at 50 V or below:", ev.lowRails})
@@ -188,6 +200,9 @@ func collect(c *graph.Circuit) *evidence {
 		if (p.Kind == graph.Port || p.Kind == graph.Generic) && batteryWord.MatchString(p.Label) {
 			ev.batteries = append(ev.batteries, p.Ref)
 		}
+		if (p.Kind == graph.Port || p.Kind == graph.Generic) && outsideSupplyWord.MatchString(p.Label) {
+			ev.outside = append(ev.outside, p.Ref+" "+quote(p.Label))
+		}
 	}
 	for _, n := range c.Nets {
 		if n.Role == graph.Supply || n.Role == graph.Bias || n.Role == graph.Heater {
@@ -205,6 +220,9 @@ func collect(c *graph.Circuit) *evidence {
 		}
 		if n.Role != graph.Signal && (batteryWord.MatchString(n.Name) || batteryWord.MatchString(n.Label)) {
 			ev.batteries = append(ev.batteries, "net "+n.Name)
+		}
+		if n.Role == graph.Supply && outsideSupplyWord.MatchString(n.Label) {
+			ev.outside = append(ev.outside, "net "+n.Name+" "+quote(n.Label))
 		}
 	}
 	if saysACDC(c.Title) {
@@ -439,6 +457,12 @@ var (
 	// batteryWord finds a battery named as a source ("HT +90 V battery",
 	// "LT cell", "B+ batt"); a battery set's supplies say so.
 	batteryWord = regexp.MustCompile(`(?i)\bbatt(ery|eries)?\b|\bcells?\b`)
+	// outsideSupplyWord finds a low-voltage supply named as coming from
+	// outside the circuit ("+12 V from the supply board", "bench PSU",
+	// "9 V adaptor", "regulated 15 V"), not the bare word "supply", which
+	// a battery set's rail may carry too.
+	outsideSupplyWord = regexp.MustCompile(`(?i)\bbench\b|\bpsu\b|\badapt[oe]r\b|\bsupply\s+(board|unit|module)\b|` +
+		`\bpower\s+supply\b|\bfrom\s+(the|a|an)\s+([\w+.-]+\s+)?supply\b|\bregulat(or|ed)\b`)
 )
 
 func saysMains(s string) bool {

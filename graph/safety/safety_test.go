@@ -138,6 +138,19 @@ func TestAssess(t *testing.T) {
 		{name: "note names a transformer, not the mains", text: "note = \"The output transformer is a 1k:8 type.\"\n" + strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1),
 			want: Battery, because: "vcc 12 V"},
 		{name: "the whole club receiver", file: "examples/club-receiver.toml", want: MainsHT, because: "mains transformer T9"},
+		// review20 b01: a 12 V bench VFO whose port says "+12 V from the
+		// supply board" got "never short the battery". A low-voltage
+		// circuit whose port or rail names the supply it comes from, and
+		// nothing a battery, gets the outside-supply caution.
+		{name: "VFO fed from a supply board", file: "testdata/review20/b01.toml", want: OutsideSupply, because: "fed from outside by P1"},
+		{name: "rail from a bench PSU", text: strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1) + "P9 = { port = \"+12 V bench PSU\", pins = [\"vcc\"] }\n",
+			want: OutsideSupply, because: "P9"},
+		// Near misses: the bare word "supply", or a battery named beside
+		// an adaptor, leaves a battery set a battery set.
+		{name: "bare supply word", text: strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1) + "P9 = { port = \"+12 V supply\", pins = [\"vcc\"] }\n",
+			want: Battery, because: "vcc 12 V"},
+		{name: "battery beside an adaptor", text: strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1) + "P9 = { port = \"+12 V battery or adaptor\", pins = [\"vcc\"] }\n",
+			want: Battery, because: "vcc 12 V"},
 		// A valve set whose HT rail is called a battery and nothing comes
 		// from the mains: the battery valve caution, not the mains one.
 		{name: "battery valve portable", file: "testdata/good/review17-battery.toml", want: BatteryValve, because: "battery sources: B1, B2, net ht"},
@@ -196,7 +209,7 @@ func TestMainsWords(t *testing.T) {
 func TestCautionTexts(t *testing.T) {
 	for _, a := range []Assessment{
 		{Class: Unknown}, {Class: Battery, MaxVolts: 9}, {Class: MainsHT, MaxVolts: 250, Valves: 2},
-		{Class: MainsHT, MaxVolts: 24}, {Class: LiveChassis},
+		{Class: MainsHT, MaxVolts: 24}, {Class: LiveChassis}, {Class: OutsideSupply, MaxVolts: 12},
 	} {
 		c := a.Caution()
 		all := []string{c.Heading, strings.Join(c.Lines, " "), c.Sheet(false), c.Sheet(true)}
@@ -249,9 +262,17 @@ func TestCautionTexts(t *testing.T) {
 // live-set line and keeps the class's lines, but not the line about the
 // reduced diagram, which a chart of the whole set is not (common practice).
 func TestReadingsCaution(t *testing.T) {
-	for _, a := range []Assessment{{Class: MainsHT}, {Class: Battery, MaxVolts: 9}, {Class: LiveChassis}, {Class: Unknown}} {
+	for _, a := range []Assessment{{Class: MainsHT}, {Class: Battery, MaxVolts: 9}, {Class: LiveChassis}, {Class: Unknown}, {Class: OutsideSupply, MaxVolts: 12}} {
 		c := a.Caution()
 		readLine := liveLine
+		if a.Class == OutsideSupply {
+			readLine = supplyLiveLine
+			for _, l := range append(c.Readings(), c.Sheet(false), c.Heading) {
+				if strings.Contains(l, "battery connected") || strings.Contains(l, "never short the battery") {
+					t.Errorf("outside-supply text %q speaks as if the set had its own battery", l)
+				}
+			}
+		}
 		if a.Class == Battery {
 			// Failed before: a battery set's chart told the reader to
 			// clip to chassis and probe one-handed, the mains-HT wording.

@@ -152,6 +152,7 @@ const (
 const (
 	liveLine        = "These voltages are measured with the set switched on. Clip the meter's negative lead to chassis with the set off, then probe with one hand."
 	batteryLiveLine = "These voltages are measured with the set on (battery connected). Clip the meter's negative lead to the battery negative before you connect the battery, and keep the probes from bridging the battery's leads."
+	supplyLiveLine  = "These voltages are measured with the supply on. Clip the meter's negative lead to the supply's negative (the circuit's common) with the supply off, and keep the probes from bridging the supply's leads."
 )
 
 // Readings is the caution above a DC voltage chart or a readings report:
@@ -160,8 +161,11 @@ const (
 // line about the reduced diagram does not apply to a chart of the whole
 // set).
 func (c Caution) Readings() []string {
-	if c.Class == Battery || c.Class == BatteryValve {
+	switch c.Class {
+	case Battery, BatteryValve:
 		return c.live(batteryLiveLine)
+	case OutsideSupply:
+		return c.live(supplyLiveLine)
 	}
 	return c.live(liveLine)
 }
@@ -270,6 +274,15 @@ var texts = [...]classText{
 		},
 		sheet:    "Caution: battery valve set ({volts} V HT): the HT can shock, and HT on the filament line blows every valve. Disconnect the HT battery before working; follow local codes and licensed practice.",
 		sentence: "A battery valve set's HT battery can shock and burn, and HT reaching the filament line blows every valve: disconnect the HT battery before working and follow local codes and licensed practice.",
+	},
+	OutsideSupply: {
+		heading: "Caution: a low-voltage circuit fed from an outside supply: low voltage here, but the supply may be mains equipment.",
+		lines: []string{
+			"This circuit runs from {volts} V brought in from outside the netlist, low voltage on its own. The netlist does not say what feeds it: a battery, or a bench supply, an adaptor or the set's own supply board, any of which may be mains-powered: check it and its output before connecting, and prefer a bench supply with a current limit.",
+			"A battery, a reservoir or a large electrolytic shorted by a probe or a solder bridge can deliver a large current and burn: disconnect the supply before you solder.",
+		},
+		sheet:    "Caution: low-voltage circuit ({volts} V) fed from an outside supply that may be mains equipment: check the supply before connecting, disconnect it before soldering. Follow local codes and licensed practice.",
+		sentence: "This circuit is low voltage, but the supply feeding it may be mains equipment and a shorted reservoir can burn: check the supply before connecting and follow local codes and licensed practice.",
 	},
 	Unknown: {
 		heading: "Caution: the netlist does not show what powers this set; treat it as mains-powered equipment, which can kill.",
