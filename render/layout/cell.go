@@ -1,6 +1,8 @@
 package layout
 
 import (
+	"math"
+
 	"pare/graph"
 	"pare/render/geom"
 	"pare/render/symbol"
@@ -103,8 +105,26 @@ func corridor(p geom.Pin) geom.Rect {
 
 // buildLocals attaches a local symbol to every pin on a ground, supply,
 // heater or bias net: grounds first (they are compact), then rails, each at
-// the shortest stub that keeps clear of everything placed so far.
+// the shortest stub that keeps clear of everything placed so far. When a
+// pin finds no clear place (a rectifier's two heater pins and its cathode a
+// step apart: the first tag's centred text covered the next pin's way out,
+// and the fallback drew the tags over each other), the cell is tried again
+// with every tag's text beside its bar, away from its rail neighbour, and
+// that is kept when fewer tags are left on top of others.
 func buildLocals(c *graph.Circuit, cl *cell) {
+	locals, stuck := cellLocals(c, cl, false)
+	if stuck > 0 {
+		if again, n := cellLocals(c, cl, true); n < stuck {
+			locals = again
+		}
+	}
+	cl.locals = append(cl.locals, locals...)
+}
+
+// cellLocals is buildLocals' one try: the locals and how many pins found no
+// clear place. With sides set, an up or down rail tag's text stands beside
+// its bar, on the side away from the cell's next rail pin.
+func cellLocals(c *graph.Circuit, cl *cell, sides bool) ([]geom.Local, int) {
 	obs := &obstacles{boxes: []geom.Rect{cl.shape.Box}}
 	var wired []geom.Pin
 	for _, p := range cl.shape.Pins {
@@ -115,6 +135,8 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 	for _, p := range wired {
 		obs.boxes = append(obs.boxes, corridor(p))
 	}
+	var out []geom.Local
+	stuck := 0
 	for pass := 0; pass < 2; pass++ {
 		for _, p := range cl.shape.Pins {
 			if !c.RoleOf(p.Net).IsACGround() {
@@ -124,6 +146,10 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 			if (role == graph.Ground) != (pass == 0) {
 				continue
 			}
+			side := geom.Dir(-1)
+			if sides {
+				side = awaySide(c, cl, p)
+			}
 			// On a mains transformer (one declaring its mains frequency)
 			// the earth of a winding's end keeps off the next winding's
 			// lane: hung over the primary it read as the live primary
@@ -131,31 +157,60 @@ func buildLocals(c *graph.Circuit, cl *cell) {
 			// moved earths crowded other sheets' wires into line.
 			_, mains := cl.part.Params["hz"]
 			sideways := p.Dir == geom.Left || p.Dir == geom.Right
-			best := firstClear(obs, wired, p, ret, role, mains && cl.part.Kind == graph.Transformer && role == graph.Ground && sideways)
+			best := firstClear(obs, wired, p, ret, role, mains && cl.part.Kind == graph.Transformer && role == graph.Ground && sideways, side)
 			if best == nil {
-				best = firstClear(obs, wired, p, ret, role, false)
+				best = firstClear(obs, wired, p, ret, role, false, side)
 			}
 			if best == nil {
 				l := localCandidates(p, ret, role, 6)[0]
-				best = &l
+				best, stuck = &l, stuck+1
 			}
 			best.Owner, best.Faded = cl.ref, cl.faded || cl.fadedPins[p.Name]
-			cl.locals = append(cl.locals, *best)
+			out = append(out, *best)
 			obs.boxes = append(obs.boxes, best.Box)
 			obs.segs = append(obs.segs, best.Stub...)
 		}
 	}
+	return out, stuck
+}
+
+// awaySide is the side an up or down rail tag's text takes at pin p: away
+// from the nearest other pin of the cell on a rail leaving the same way
+// (left of it when that pin is to the right), -1 for no preference.
+func awaySide(c *graph.Circuit, cl *cell, p geom.Pin) geom.Dir {
+	if p.Dir != geom.Up && p.Dir != geom.Down {
+		return -1
+	}
+	best, side := 0.0, geom.Dir(-1)
+	for _, q := range cl.shape.Pins {
+		if q.Name == p.Name || q.Dir != p.Dir || !c.RoleOf(q.Net).IsACGround() {
+			continue
+		}
+		d := q.At.X - p.At.X
+		if d == 0 || side >= 0 && math.Abs(d) >= best {
+			continue
+		}
+		best, side = math.Abs(d), geom.Right
+		if d > 0 {
+			side = geom.Left
+		}
+	}
+	return side
 }
 
 // firstClear is the first candidate local symbol for pin p, shortest stub
-// first, that keeps clear of the obstacles and, when lanes is set, stays
+// first (with its text on side, when side is not -1), that keeps clear of
+// the obstacles and, when lanes is set, stays
 // more than a grid step from the line out of every other wired pin of the
 // cell: an earth hung from a winding's end one step above the next
 // winding's pin sat on that winding's wire and its junction dot, so the
 // wire read as earthed.
-func firstClear(obs *obstacles, wired []geom.Pin, p geom.Pin, ret *graph.Net, role graph.Role, lanes bool) *geom.Local {
+func firstClear(obs *obstacles, wired []geom.Pin, p geom.Pin, ret *graph.Net, role graph.Role, lanes bool, side geom.Dir) *geom.Local {
 	for s := 1.0; s <= 6; s++ {
 		for _, l := range localCandidates(p, ret, role, s) {
+			if side >= 0 && l.Kind == geom.LocalRail && l.Side != side {
+				continue // buildLocals' second try: text beside the bar only
+			}
 			turnedUp := l.Kind == geom.LocalGround && !l.Down && (p.Dir == geom.Left || p.Dir == geom.Right)
 			if obs.hits(l.Box.Inset(0.15), l.Stub) || (lanes && nearLane(l, wired, p.Net)) || (!lanes && turnedUp) {
 				// an earth turned up only to keep off a lane: the

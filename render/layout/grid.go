@@ -341,7 +341,13 @@ func (rt *router) neighbour(i, d int) int {
 // grid between two screen grids on a rail), leaving it no way out.
 func (rt *router) blockLocal(l geom.Local) {
 	b := l.Box
-	const m = 0.35 // the clearance a wire keeps from a tag beside its line
+	m := 0.35 // the clearance a wire keeps from a tag beside its line
+	if n := len(l.Stub); l.Kind == geom.LocalRail && n > 0 && l.Stub[n-1].A.X == l.Stub[n-1].B.X && (l.Side == geom.Left || l.Side == geom.Right) {
+		// a tag on a stub going up or down with its text beside the bar
+		// (buildLocals' second try, pins a step apart): a wire passing
+		// the next grid line would run under the bar and read as its rail
+		m = 0.99
+	}
 	if l.Side == geom.Left || l.Side == geom.Right {
 		b.Y0, b.Y1 = math.Ceil(b.Y0-m), math.Floor(b.Y1+m)
 	} else {
