@@ -85,9 +85,22 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 		}
 		m, n = m-1, n-1 // the loose parts' row stays last, for hostLoose
 	}
-	all := f.greedyPlan(ends, laid, 0, n, cw, avail)
+	all := f.greedyPlan(ends, laid, 0, n, cw, avail, rowGap)
 	if all.pages < 2 {
 		return ends, laid, nil, nil
+	}
+	// the greedy rows themselves, tightGap apart, when that takes fewer
+	// pages than the plan chosen below: the rows drawn as laid out, only
+	// closer (review20 a01's faded view, two rows a grid unit too tall for
+	// one page rowGap apart, had a page each). Never with a row of loose
+	// parts, which hostLoose then gives to a row and makes it taller.
+	tight := f.greedyPlan(ends, laid, 0, n, cw, avail, tightGap)
+	closer := func(pages int) bool {
+		if loose >= 0 || tight.pages >= pages || tight.splits > all.splits {
+			return false
+		}
+		f.gap = tightGap
+		return true
 	}
 	// the window searched: the whole sheet when small, else its last two
 	// pages (a whole set's last page of one Zobel network)
@@ -96,13 +109,21 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 		w = all.starts[len(all.starts)-2]
 	}
 	lo := start(ends, w)
-	greedy := f.greedyPlan(ends, laid, w, n, cw, avail)
+	greedy := f.greedyPlan(ends, laid, w, n, cw, avail, rowGap)
 	if m-lo > balanceMost || greedy.splits == 0 && !f.worthSearch(greedy, laid[w:n], lo, m) {
+		closer(all.pages)
 		return ends, laid, nil, nil
 	}
 	best, err := f.search(greedy, lo, m, cw, avail)
-	if err != nil || !best.ok {
+	if err != nil {
 		return ends, laid, nil, err
+	}
+	// rows cut afresh for the tighter gap (the search's) come only after
+	// the greedy rows closer: cut afresh, review15 a05's decoupler went to
+	// the rectifier's row and its line's wires looped back to connectors
+	if !best.ok || closer(all.pages-greedy.pages+best.pages) {
+		closer(all.pages)
+		return ends, laid, nil, nil
 	}
 	nends := append(append([]int{}, ends[:w]...), best.ends...)
 	out := append([]*layout.Result{}, laid[:w]...)
@@ -151,8 +172,8 @@ func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
 }
 
 // greedyPlan judges the greedy flow's rows [w, n) as pageResults stacks
-// them; its starts count rows from w.
-func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail float64) plan {
+// them, gap apart; its starts count rows from w.
+func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail, gap float64) plan {
 	p := plan{ok: true, least: -1}
 	used, parts := 0.0, 0
 	for i := w; i < n; i++ {
@@ -168,7 +189,7 @@ func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail
 			p.pages, used, parts = p.pages+1, 0, 0
 			p.starts = append(p.starts, p.rows)
 		}
-		used += b.H() + rowGap
+		used += b.H() + gap
 		if big {
 			used = -1 // a page of its own
 		}

@@ -1,0 +1,130 @@
+package main
+
+import (
+	"math"
+	"path/filepath"
+	"testing"
+
+	"pare/render"
+	"pare/render/geom"
+)
+
+// emptyPagesCeiling bounds TestPagesFilled: the A3 pages, over every
+// example and blind-review circuit (review13 to review20) and the reduced
+// and faded views, of a view cut onto more than one page whose drawing
+// covers less than emptyPageShare of the page's printable area. A ratchet:
+// lowered as the flow fills pages, never raised. Measured 174 of 312 when
+// the count was added, 166 of 305 once the flow's own rows went two grid
+// steps apart where that saves a page (render/pagebalance.go, balance).
+var emptyPagesCeiling = 166
+
+// emptyPageShare is the share of a page's printable area under which the
+// review called a page of a view of several pages "mostly empty" (review20
+// a02: the oscillator alone on an 85 %-empty page; b01: 20 parts over two
+// pages each under 40 % used).
+const emptyPageShare = 0.40
+
+// TestPagesFilled: a service sheet fills a page before it opens the next
+// (common practice: a small set's drawing on as few sheets as hold it, each
+// stage whole). Every page of a view of several whose drawing covers less
+// than emptyPageShare of the printable area is logged and counted against
+// emptyPagesCeiling.
+func TestPagesFilled(t *testing.T) {
+	files := append(exampleFiles(t), reviewCircuitsFrom(t, "review13", "review14", "review15", "review16", "review17", "review18", "review19", "review20")...)
+	warmSheets(files, "A3")
+	n, all := 0, 0
+	for _, f := range files {
+		for _, v := range galleryViews {
+			pages, err := cachedPages(f, v, "A3")
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(pages) < 2 {
+				continue // one page: nothing to fill it from
+			}
+			for i, g := range pages {
+				all++
+				if u := pageUse(g, 400, 277); u < emptyPageShare {
+					n++
+					t.Logf("%s of %d: %.0f %% used", pageName(f, v, i), len(pages), 100*u)
+				}
+			}
+		}
+	}
+	t.Logf("pages under %.0f %% used: %d of %d on views of several pages (ceiling %d)", 100*emptyPageShare, n, all, emptyPagesCeiling)
+	if n > emptyPagesCeiling {
+		t.Errorf("%d pages under %.0f %% used (ceiling %d); the log lists them", n, 100*emptyPageShare, emptyPagesCeiling)
+	}
+}
+
+// pageUse is the share of a page's printable area (w by h millimetres,
+// A3 less a 10 mm margin each side) its drawing covers: the cells of a
+// one-unit grid under a frame, a part, a label or a wire, each widened by
+// the gap a reader sees as belonging to it (two units round a box, one
+// round a wire). The title block and caution, the same on every page, are
+// not counted as used.
+func pageUse(g *geom.Sheet, w, h float64) float64 {
+	if g.PageMM <= 0 {
+		return 1
+	}
+	cols, rows := int(w/g.PageMM), int(h/g.PageMM)
+	if cols <= 0 || rows <= 0 {
+		return 1
+	}
+	used := make([]bool, cols*rows)
+	mark := func(r geom.Rect, pad float64) {
+		x0, x1 := max(0, int(math.Floor(r.X0-pad))), min(cols, int(math.Ceil(r.X1+pad)))
+		y0, y1 := max(0, int(math.Floor(r.Y0-pad))), min(rows, int(math.Ceil(r.Y1+pad)))
+		for y := y0; y < y1; y++ {
+			for x := x0; x < x1; x++ {
+				used[y*cols+x] = true
+			}
+		}
+	}
+	for _, fr := range g.Frames {
+		mark(fr.Box, 2)
+	}
+	for _, s := range g.Symbols {
+		mark(s.Box, 2)
+	}
+	for _, l := range g.Labels {
+		mark(l.Box, 2)
+	}
+	for _, wr := range g.Wires {
+		for _, s := range wr.Segs {
+			mark(s.Box(), 1)
+		}
+	}
+	n := 0
+	for _, u := range used {
+		if u {
+			n++
+		}
+	}
+	return float64(n) / float64(len(used))
+}
+
+// TestSmallViewsOnOnePage: a view whose rows go on one A3 page two grid
+// steps apart is drawn on one page, not spread over two mostly empty ones
+// (review20 a01's faded view: two rows, each a grid unit too tall to share
+// a page rowGap apart, drew a page each, and the blind review called both
+// about 60 % empty). The rows are the ones the flow cut, only closer.
+func TestSmallViewsOnOnePage(t *testing.T) {
+	cases := []struct {
+		file string
+		view render.View
+	}{
+		{"review20/a01.toml", render.Faded},   // Colpitts VFO and buffer: 2 pages before
+		{"review16/a03.toml", render.Reduced}, // IF, detector, audio: 2 pages before
+		{"review18/a05.toml", render.Faded},   // 2 pages before
+	}
+	for _, tc := range cases {
+		pages, err := cachedPages(filepath.Join("../../testdata", tc.file), tc.view, "A3")
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(pages) != 1 {
+			t.Errorf("%s %s on A3: %d pages, want 1", tc.file, tc.view, len(pages))
+		}
+	}
+}
