@@ -66,7 +66,7 @@ func TestRowBreaks(t *testing.T) {
 // one labelled connector ("ht", "scr") across a break of its own, as the
 // trade joins a supply to its stages by rail marks; both sheets read
 // better for it.
-var rowBreakCeiling = [3]int{2, 392, 8} // 392 with push-pull pairs mirrored on the full and faded sheets: review17 a04's faded and full page 3 put the Zobel network on a row under the pair (one more connector), every changed sheet reads better (review13/14/16/17/18 a04 full and faded pair pages: no anode or screen lead across the cathode network, no suppressor lead across the screen lead); 391 with the AGC filters named on DDT sets (one more stage frame, one more connector at a break); 390 with IF cans' AGC decouplers at their feet; 404 before the faded-view and crossing fixes, 392 before the supply apart
+var rowBreakCeiling = [3]int{2, 390, 8} // 390 with small sets' rows two steps apart where that saves a page (render/pagebalance.go); 392 with push-pull pairs mirrored on the full and faded sheets: review17 a04's faded and full page 3 put the Zobel network on a row under the pair (one more connector), every changed sheet reads better (review13/14/16/17/18 a04 full and faded pair pages: no anode or screen lead across the cathode network, no suppressor lead across the screen lead); 391 with the AGC filters named on DDT sets (one more stage frame, one more connector at a break); 390 with IF cans' AGC decouplers at their feet; 404 before the faded-view and crossing fixes, 392 before the supply apart
 
 // TestTransformersPrimaryLeft: a transformer is drawn primary left,
 // secondary right, the signal through it left to right (common practice,
