@@ -77,6 +77,9 @@ type figCtx struct {
 	// pair is the tracking pair found for the stage's oscillator tank
 	// (trackPair), nil before the first ask.
 	pair *trackPairMemo
+	// oscDev is the oscillator device a loop found for the stage (the
+	// tracking walk solves its loop); "" leaves the walk to find it.
+	oscDev string
 }
 
 // put records a figure on the stage under the pattern's prefix ("osc" makes

@@ -321,7 +321,7 @@ C4 = { c = "122.354p", pins = ["if", "gnd"] }`, "[freqs]\nif = \"455k\"")
 	// follows the solver's figure, not the formula's 1.5 %.
 	flagged := false
 	for _, f := range s.Flags {
-		flagged = flagged || strings.Contains(f, "tracking is off by up to "+hz(worst.Value))
+		flagged = flagged || strings.Contains(f, "tracking is off by up to "+hz(math.Abs(worst.Value)))
 	}
 	if flagged != (math.Abs(worst.Value) > 0.02*455e3) {
 		t.Errorf("in circuit %s: flags %q", hz(worst.Value), s.Flags)

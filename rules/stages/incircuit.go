@@ -244,6 +244,10 @@ func quietPart(p *graph.Part) *graph.Part {
 	switch p.Kind {
 	case graph.Valve:
 		q.Params["ra"] = s.ROut
+		// a pentagrid's oscillator section too: left out, its gmo falls
+		// back to the class default and the "quiet" copy oscillates
+		// through g2 (review20 a05's oscillator tank read 2.6 % high)
+		q.Params["gmo"] = quietGm
 	case graph.BJT:
 		q.Params["beta"], q.Params["ic"] = s.Beta, s.Ic
 		q.Params["rpi"], q.Params["ro"] = s.RPi, s.ROut

@@ -10,9 +10,13 @@ import (
 
 // In-circuit tracking. The oscillator and the signal tank a gang turns
 // together are solved as each sits in the circuit, at settings across the
-// whole travel: the frequency of each is the peak of the impedance across
-// its coil with the devices quiet (as the oscillator's own f is), so every
-// stray and load the circuit puts across either tank counts. The tracking
+// whole travel: the signal tank's frequency is the peak of the impedance
+// across its coil with the devices quiet; the oscillator's is where its
+// device's loop phase is 0° (as the oscillator's own f is: the grid
+// coupling and the reaction winding's phase move it off its tank's peak,
+// 2 % on review20 a05, four times the set's real tracking error), or its
+// tank's peak where no running device is found. So every stray and load
+// the circuit puts across either tank counts. The tracking
 // error fosc − (fsig + IF) then comes from the same circuit that gives the
 // oscillator's and the signal tank's ranges; the parts' formula stays
 // beside it as the cross-check.
@@ -44,6 +48,9 @@ type trackWalk struct {
 	// bwAtWorst is the signal tank's loaded −3 dB bandwidth in circuit at
 	// the worst setting (the solver's walk only; 0 when not found).
 	bwAtWorst float64
+	// oscDev is the device whose loop gave the oscillator's frequency
+	// (the solver's walk only; "" when it was the tank's peak).
+	oscDev string
 }
 
 // walkDial walks curve at n+1 settings from least to full capacitance: the
@@ -184,6 +191,29 @@ func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackW
 		return trackWalk{}, false
 	}
 	rs, sn, on := tp.rs, tp.sn, tp.on
+	if dev := tp.dev; dev != "" {
+		lp := ac.NewLoops(tp.live)
+		gs, gosc := &follow{formula: sigF.f}, &follow{formula: oscF.f}
+		curve := func(th float64) (float64, float64, bool) {
+			// the pair's modes keep the signal tank on its own peak;
+			// the tank's peak is the loop's guess
+			fs, fp, ok1 := pairAt(rs, sn, on, th, gs.at(th), gosc.at(th))
+			if !ok1 {
+				return 0, 0, false
+			}
+			fo, ok2 := loopAt(lp, dev, th, fp)
+			if ok2 {
+				gs.solved(th, fs)
+				gosc.solved(th, fp)
+			}
+			return fs, fo, ok2
+		}
+		if walk, ok := walkDial(curve, ifHz, trackSettings, trackRefine); ok {
+			walk.bwAtWorst = tankBandwidth(rs, sn, walk.worstTh, walk.worstAt)
+			walk.oscDev = dev
+			return walk, true
+		}
+	}
 	gs, gosc := &follow{formula: sigF.f}, &follow{formula: oscF.f}
 	curve := func(th float64) (float64, float64, bool) {
 		fs, fo, ok := pairAt(rs, sn, on, th, gs.at(th), gosc.at(th))
@@ -200,12 +230,63 @@ func (x *figCtx) solveTracking(osc, sigF, oscF *tankModel, ifHz float64) (trackW
 	return walk, ok
 }
 
+// loopAt is where device dev's loop phase is 0° at gang setting th: the
+// crossing nearest guess within a factor trackNear of it, where the loop
+// gain is above 1 (the oscillator runs there). ok is false when there is
+// none.
+func loopAt(lp *ac.Loops, dev string, th, guess float64) (float64, bool) {
+	if !(guess > 0) {
+		return 0, false
+	}
+	r, err := lp.Find(dev, ac.LoopOptions{Options: ac.Options{VarFrac: th, VarSet: true},
+		From: guess / trackNear, To: guess * trackNear})
+	if err != nil {
+		return 0, false
+	}
+	best := 0.0
+	for _, c := range r.Crossings {
+		if c.GainDB > 0 && (best == 0 || math.Abs(math.Log(c.F/guess)) < math.Abs(math.Log(best/guess))) {
+			best = c.F
+		}
+	}
+	return best, best > 0
+}
+
+// runningOscillator is the device whose loop runs near the oscillator
+// tank's peak at least capacitance (guess the formula's frequency there):
+// the stage's own oscillator when a loop found it, else among the solver
+// circuit's devices the one whose running crossing lies nearest the peak.
+// "" when none runs within trackNear of it: the walk then takes the
+// tank's peak.
+func (x *figCtx) runningOscillator(tp trackPairs, guess float64) string {
+	peak, ok := tankAt(tp.rs, tp.on, 0, guess)
+	if !ok {
+		return ""
+	}
+	lp := ac.NewLoops(tp.live)
+	best, bestD := "", math.Inf(1)
+	for _, p := range tp.live.Parts {
+		if !p.IsActive() || (x.oscDev != "" && p.Ref != x.oscDev) {
+			continue
+		}
+		if f, ok := loopAt(lp, p.Ref, 0, peak); ok && math.Abs(math.Log(f/peak)) < bestD {
+			best, bestD = p.Ref, math.Abs(math.Log(f/peak))
+		}
+	}
+	return best
+}
+
 // trackPairs is the circuit the tracking walk solves (the solver's,
 // devices quiet), its responses and its two tanks' nets.
 type trackPairs struct {
 	c      *graph.Circuit
 	rs     *ac.Responses
 	sn, on tankNets
+	// live is the same circuit with its devices running, dev the device
+	// whose loop runs the oscillator there ("" when none is found: the
+	// oscillator's frequency is then its tank's peak).
+	live *graph.Circuit
+	dev  string
 }
 
 // trackPair finds the signal tank ganged to the oscillator tank osc in the
@@ -243,7 +324,9 @@ func (x *figCtx) findTrackPair(osc *tankModel) (trackPairs, bool) {
 		return trackPairs{}, false
 	}
 	c := quiet(x.solverCircuit())
-	return trackPairs{c: c, rs: ac.NewResponses(c), sn: sn, on: on}, true
+	tp := trackPairs{c: c, rs: ac.NewResponses(c), sn: sn, on: on, live: x.solverCircuit()}
+	tp.dev = x.runningOscillator(tp, osc.f(0))
+	return tp, true
 }
 
 // tankBandwidth is a tank's loaded −3 dB bandwidth in circuit c at gang

@@ -63,13 +63,28 @@ func ngspiceTank(t *testing.T, net string, th, near float64) float64 {
 	return fp
 }
 
+// ngspiceOscLoop is where the example's oscillator runs at gang setting
+// th: the deck with V1's 2.2 mA/V (the example's gm, grid osc_g, cathode
+// k1, anode mix_a) driven from an independent 1 V and the 1 A source off,
+// the 0° crossing of V(osc_g) − V(k1) nearest near.
+func ngspiceOscLoop(t *testing.T, th, near float64) float64 {
+	t.Helper()
+	cg := 12e-12 + th*(365e-12-12e-12)
+	deck := strings.ReplaceAll(frequencyChangerDeck, "{CG}", fmt.Sprintf("%.6gp", cg*1e12))
+	deck = strings.Replace(deck, "I1 0 out DC 0 AC 1", "I1 0 osc_tank DC 0 AC 0", 1)
+	deck += "\nGl mix_a k1 gt 0 2.2m\nVt gt 0 DC 0 AC 1\n"
+	return ngspiceLoopAt(t, deck, fmt.Sprintf("lin 4001 %g %g", near*0.99, near*1.01), "osc_g", "k1", near)
+}
+
 // The example frequency changer's tracking in circuit against ngspice 39
 // .ac on the hand-written deck above: at five gang settings each tank's
 // peak is where pare's solver finds it (within 10⁻⁴, two sweep steps and
 // the tapped coil's loss placement), the worst tracking error pare reports
 // (at the bottom of the dial, full capacitance) is ngspice's there, and
 // each crossing pare reports lies between settings where ngspice's error
-// changes sign.
+// changes sign. The oscillator's frequency in the error is where V1's loop
+// phase is 0° (ngspiceOscLoop), as the walk takes it: 215 Hz above its
+// tank's peak at full capacitance.
 func TestTrackingInCircuitAgainstNgspice(t *testing.T) {
 	full, reduced, log := reduceExample(t, "frequency-changer.toml")
 	mix := stageOf(find(t, reduced, Options{Full: full, ACGround: log.ACGround}), "self-oscillating-mixer")
@@ -91,6 +106,9 @@ func TestTrackingInCircuitAgainstNgspice(t *testing.T) {
 				t.Errorf("%s at gang %.2f: pare %.1f Hz, ngspice %.1f Hz", net, th, f, ng)
 			}
 			got[i] = ng
+			if net == "osc_tank" { // the walk reads the oscillator where its loop runs
+				got[i] = ngspiceOscLoop(t, th, ng)
+			}
 		}
 		fsig, errs = append(fsig, got[0]), append(errs, got[1]-got[0]-470e3)
 	}

@@ -241,7 +241,7 @@ func windingWord(role graph.TermRole, tank bool) string {
 // pattern (tracking.go): the tuned winding of its feedback transformer and
 // its gang section against the signal tank on the other section, in
 // circuit and by the formula.
-func loopTracking(w *world, st *Stage, through string, ifHz float64) {
+func loopTracking(w *world, st *Stage, dev, through string, ifHz float64) {
 	oc, caps, ok := loopTank(w, through)
 	if !ok || !(ifHz > 0) {
 		return
@@ -249,7 +249,7 @@ func loopTracking(w *world, st *Stage, through string, ifHz float64) {
 	scratch := &Stage{}
 	// no match to cut a piece round: the piece the feedback transformer
 	// stands in, cut only at AC ground (exact), or the whole circuit
-	x := &figCtx{w: w, st: scratch, solve: true}
+	x := &figCtx{w: w, st: scratch, solve: true, oscDev: dev}
 	if i := x.partIndex(w.c.Part(through)); i >= 0 {
 		x.cut, _ = w.piece([]int{i}, -1, len(w.parts))
 	}
@@ -347,7 +347,7 @@ func selfOscillating(w *world, lp *ac.Loops, acg map[string]bool, p *graph.Part,
 	} else if fif := w.c.Freqs["if"]; fif > 0 {
 		st.Figures.Put(ifFigure(fif))
 	}
-	loopTracking(w, st, through, w.c.Freqs["if"])
+	loopTracking(w, st, p.Ref, through, w.c.Freqs["if"])
 	st.Flags = append(st.Flags, loopFlags(lc, st, l)...)
 	if fMin, fMax, _, best, ok := turned.Range(); ok {
 		st.Flags = append(st.Flags, fmt.Sprintf("a winding of %s connected the wrong way round as captured: with its ends swapped the loop would give %+.1f dB at best, %s–%s (%s)",

@@ -219,7 +219,7 @@ func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, 
 			}
 			st.Figures.Put(ifFigure(c.Freqs["if"]))
 		}
-		loopTracking(w, st, through, c.Freqs["if"])
+		loopTracking(w, st, p.Ref, through, c.Freqs["if"])
 	} else {
 		loopOscFigures(st, l, tank)
 	}

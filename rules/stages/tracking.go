@@ -23,6 +23,14 @@ var (
 	trackWhat       = "fosc − (fsig + IF), each the peak of |Z| across its coil"
 )
 
+// trackWhatOf is how the solver's walk w found its two frequencies.
+func trackWhatOf(w trackWalk) string {
+	if w.oscDev == "" {
+		return trackWhat
+	}
+	return "fosc − (fsig + IF), fosc where " + w.oscDev + "'s loop phase is 0°, fsig the peak of |Z| across the signal coil"
+}
+
 // trackingFormulaRefine is the bisection steps of the formula's crossings:
 // the formula costs nothing, so to the bottom of float64.
 const trackingFormulaRefine = 60
@@ -55,6 +63,9 @@ func (x *figCtx) tracking(osc *tankModel, oc coilEnds, ifHz float64) {
 	x.trackingError(formula, sv, ifHz, why)
 	x.trackingFits(formula, sv, why)
 	x.trackingNote(gangCap.Ref+" and "+sig.gangRef(gangCap.Gang), formula, sv, sig)
+	if threePointAsCaptured(sv) {
+		return
+	}
 	x.suggestDesign(sig, gangCap.Gang, ifHz, sv)
 	if sv != nil {
 		x.designInCircuit(osc, oc, gangCap, sig, ifHz, *sv)
@@ -123,8 +134,12 @@ func trackWhy(sig, osc *tankModel, walk trackWalk) string {
 	c := func(l, f float64) string {
 		return figure.Format(1/(math.Pow(2*math.Pi*f, 2)*l), figure.Farad, figure.Text)
 	}
-	return fmt.Sprintf("with the gang at least capacitance the signal coil resonates in circuit with %s (formula %s) and the oscillator coil with %s (formula %s): strays and loads the formula leaves out move the tracking",
-		c(sig.l, walk.fs[0]), c(sig.l, sig.f(0)), c(osc.l, walk.fo[0]), c(osc.l, osc.f(0)))
+	oscWord := "the oscillator coil with"
+	if walk.oscDev != "" {
+		oscWord = "the oscillator runs as its coil would with"
+	}
+	return fmt.Sprintf("with the gang at least capacitance the signal coil resonates in circuit with %s (formula %s) and %s %s (formula %s): strays and loads the formula leaves out move the tracking",
+		c(sig.l, walk.fs[0]), c(sig.l, sig.f(0)), oscWord, c(osc.l, walk.fo[0]), c(osc.l, osc.f(0)))
 }
 
 // hzList writes frequencies as prose: "600 kHz, 1.1 MHz and 1.6 MHz".
@@ -148,7 +163,7 @@ func (x *figCtx) trackingError(formula trackWalk, sv *trackWalk, ifHz float64, w
 	worst := formula
 	var solved *figure.Figure
 	if sv != nil {
-		solved, worst = errFig(*sv, figure.BySolver(trackWhat, gangWalk)), *sv
+		solved, worst = errFig(*sv, figure.BySolver(trackWhatOf(*sv), gangWalk)), *sv
 	}
 	x.putChecked(solved, check, why)
 	if sv != nil && sv.bwAtWorst > 0 {
@@ -156,7 +171,8 @@ func (x *figCtx) trackingError(formula trackWalk, sv *trackWalk, ifHz float64, w
 			Origin: figure.BySolver("−3 dB width of |Z| across the signal tank at the setting of the worst error", "that gang setting")})
 	}
 	if why := mistracks(worst, ifHz); why != "" {
-		x.flag("oscillator tracking is off by up to %s (at %s on the dial): %s; check the padder and trimmers", hz(worst.worst), hz(worst.worstAt), why)
+		x.flag("oscillator tracking is off by up to %s (the oscillator %s, at %s on the dial): %s; %s", hz(math.Abs(worst.worst)),
+			highLow(worst.worst), hz(worst.worstAt), why, trackingCure(worst))
 	}
 }
 
@@ -176,6 +192,34 @@ func mistracks(w trackWalk, ifHz float64) string {
 	}
 	return ""
 }
+
+// highLow words the sign of a tracking error fosc − (fsig + IF).
+func highLow(e float64) string {
+	if e < 0 {
+		return "low"
+	}
+	return "high"
+}
+
+// trackingCure says what sets a tracking error right. A set that already
+// tracks at three points is a three-point design: its error between and
+// beyond them is the design's own, and the end that strays is set by that
+// end's adjuster (common practice: the oscillator trimmer at the top of
+// the dial, the padder or the coil's core at the bottom), not by new parts.
+func trackingCure(w trackWalk) string {
+	if len(w.fits) < 3 {
+		return "check the padder and trimmers"
+	}
+	if w.worstTh < 0.5 { // setting 0 is the gang at least capacitance: the top
+		return "it tracks exactly at three points, so align the oscillator trimmer at the top of the dial before any part is changed"
+	}
+	return "it tracks exactly at three points, so align the padder or the oscillator coil's core at the bottom of the dial before any part is changed"
+}
+
+// threePointAsCaptured: the solver's walk crosses three times, so the set
+// as captured is already a three-point design and a suggested one would
+// only move its points.
+func threePointAsCaptured(sv *trackWalk) bool { return sv != nil && len(sv.fits) >= 3 }
 
 // gangWalk is where the solver's tracking figures were solved.
 var gangWalk = fmt.Sprintf("%d gang settings over the travel", trackSettings+1)
@@ -197,7 +241,7 @@ func (x *figCtx) trackingFits(formula trackWalk, sv *trackWalk, why func() strin
 		return
 	}
 	solved := &figure.Figure{Name: "track_fit", Unit: figure.Hertz, Points: sv.fits,
-		Origin: figure.BySolver("fosc = fsig + IF, crossings of "+trackWhat, gangWalk)}
+		Origin: figure.BySolver("fosc = fsig + IF, crossings of "+trackWhatOf(*sv), gangWalk)}
 	x.putChecked(solved, check, why)
 }
 
@@ -219,8 +263,12 @@ func (x *figCtx) trackingNote(sections string, formula trackWalk, sv *trackWalk,
 		lo, hi = sv.fs[1], sv.fs[0]
 	}
 	ideal := TrackingPoints(lo, hi)
-	x.st.Notes = append(x.st.Notes, fmt.Sprintf("tracking: %s turn together, capacitance taken as linear in rotation; %s; a suggested three-point design would be exact at %s",
-		sections, text, hzList(ideal[:])))
+	design := "a suggested three-point design would be exact at " + hzList(ideal[:])
+	if threePointAsCaptured(sv) {
+		design = "as captured it is a three-point design already, so pare suggests none"
+	}
+	x.st.Notes = append(x.st.Notes, fmt.Sprintf("tracking: %s turn together, capacitance taken as linear in rotation; %s; %s",
+		sections, text, design))
 }
 
 // suggestDesign writes the oscillator coil, trimmer and padder that would

@@ -159,10 +159,10 @@ func solveDesign(tp trackPairs, d designParts, pts [3]float64, ifHz float64, sig
 		if err != nil {
 			return inCircuitDesign{}, false
 		}
-		withDesign := ac.NewResponses(d.apply(tp.c, p))
+		pairWith := designPair(tp, d, p)
 		out = inCircuitDesign{p: p}
 		for i := range th {
-			fs, fo, ok := pairAt(withDesign, sn, on, th[i], pts[i], p.OscillatorAt(cg[i]))
+			fs, fo, ok := pairWith(th[i], pts[i], p.OscillatorAt(cg[i]))
 			if !ok {
 				return inCircuitDesign{}, false
 			}
@@ -179,6 +179,27 @@ func solveDesign(tp trackPairs, d designParts, pts [3]float64, ifHz float64, sig
 	}
 	out.closed = closed
 	return out, true
+}
+
+// designPair solves the signal tank and the oscillator with design p in
+// place, as the tracking walk does: the oscillator where its device's loop
+// runs when the walk found one, else its tank's peak.
+func designPair(tp trackPairs, d designParts, p Padding) func(th, gs, gosc float64) (fs, fo float64, ok bool) {
+	withDesign := ac.NewResponses(d.apply(tp.c, p))
+	if tp.dev == "" {
+		return func(th, gs, gosc float64) (float64, float64, bool) {
+			return pairAt(withDesign, tp.sn, tp.on, th, gs, gosc)
+		}
+	}
+	lp := ac.NewLoops(d.apply(tp.live, p))
+	return func(th, gs, gosc float64) (float64, float64, bool) {
+		fs, fp, ok := pairAt(withDesign, tp.sn, tp.on, th, gs, gosc)
+		if !ok {
+			return 0, 0, false
+		}
+		fo, ok := loopAt(lp, tp.dev, th, fp)
+		return fs, fo, ok
+	}
 }
 
 // nextAim is the next oscillator frequency to aim the closed form at for
