@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"pare/graph"
+	"pare/graph/figure"
 	"pare/rules/stages"
 )
 
@@ -57,9 +58,10 @@ func (g *Guide) coverage(c *graph.Circuit, sts []stages.Stage) {
 		return
 	}
 	if len(g.Ends) == 2 {
-		g.missWarn("the signal circuit", g.Ends[0].Sig, g.Ends[1].Sig, b.Min, b.Max, "")
+		oscGang, sigGang := endGangs(c, sts)
+		g.missWarn(c, sigGang, "the signal circuit", g.Ends[0].Sig, g.Ends[1].Sig, b.Min, b.Max, "")
 		if g.IF > 0 && g.Ends[0].Osc > 0 {
-			g.missWarn("the oscillator", g.Ends[0].Osc, g.Ends[1].Osc, b.Min+g.IF, b.Max+g.IF, fmt.Sprintf(" (the band plus the IF %s)", hz(g.IF)))
+			g.missWarn(c, oscGang, "the oscillator", g.Ends[0].Osc, g.Ends[1].Osc, b.Min+g.IF, b.Max+g.IF, fmt.Sprintf(" (the band plus the IF %s)", hz(g.IF)))
 		}
 		return
 	}
@@ -75,24 +77,52 @@ func (g *Guide) coverage(c *graph.Circuit, sts []stages.Stage) {
 			g.Warnings = append(g.Warnings, fmt.Sprintf("pare could not check whether the aerial/RF circuit on %s covers the declared band %s to %s: no recognised stage names its tank as captured; check the dial ends with a generator", gp.Ref, hz(b.Min), hz(b.Max)))
 			continue
 		}
-		g.missWarn(fmt.Sprintf("the aerial/RF circuit %s (%s)", name, gp.Ref), lo, hi, b.Min, b.Max, "")
+		g.missWarn(c, gp, fmt.Sprintf("the aerial/RF circuit %s (%s)", name, gp.Ref), lo, hi, b.Min, b.Max, "")
 	}
 }
 
-// missWarn adds the warning when lo..hi misses want lo..hi.
-func (g *Guide) missWarn(what string, lo, hi, wLo, wHi float64, note string) {
+// missWarn adds the warning when lo..hi misses want lo..hi. With gang
+// (the tank's section; nil when not known) the tank is first solved with
+// its trimmer and core where alignment can turn them (reach.go): a
+// shortfall they make up is an alignment step, not a fault.
+func (g *Guide) missWarn(c *graph.Circuit, gang *graph.Part, what string, lo, hi, wLo, wHi float64, note string) {
 	var miss []string
 	if lo > wLo*(1+bandSlack) {
-		miss = append(miss, fmt.Sprintf("the low end %s", hz(wLo)))
+		miss = append(miss, fmt.Sprintf("the low end %s (%s %%)", hz(wLo), figure.Plain(100*(lo/wLo-1))))
 	}
 	if hi < wHi*(1-bandSlack) {
-		miss = append(miss, fmt.Sprintf("the high end %s", hz(wHi)))
+		miss = append(miss, fmt.Sprintf("the high end %s (%s %%)", hz(wHi), figure.Plain(100*(1-hi/wHi))))
 	}
 	if len(miss) == 0 {
 		return
 	}
-	g.Warnings = append(g.Warnings, fmt.Sprintf("as captured %s tunes %s to %s and misses %s of the declared band%s: alignment cannot reach that end of the dial; check the coil, the gang and the trimmer, or the band in the netlist",
-		what, hz(lo), hz(hi), joinAnd(miss), note))
+	head := fmt.Sprintf("as captured %s tunes %s to %s and falls short of %s of the declared band%s", what, hz(lo), hz(hi), joinAnd(miss), note)
+	if gang != nil {
+		if r, ok := reachOf(c, gang, lo, hi, wLo, wHi); ok {
+			if r.reaches {
+				g.Warnings = append(g.Warnings, head+": "+r.words()+", so alignment brings the dial's ends in (trimmer at the top, core at the bottom)")
+				return
+			}
+			g.Warnings = append(g.Warnings, head+": even with "+r.limitWords()+": alignment cannot reach that end of the dial; check the coil, the gang and the trimmer, or the band in the netlist")
+			return
+		}
+	}
+	g.Warnings = append(g.Warnings, head+": alignment cannot reach that end of the dial; check the coil, the gang and the trimmer, or the band in the netlist")
+}
+
+// endGangs are the gang sections of the dial ends' oscillator and signal
+// tank (nil where not found).
+func endGangs(c *graph.Circuit, sts []stages.Stage) (osc, sig *graph.Part) {
+	for _, gp := range gangSections(c) {
+		if oscSections(c, sts)[gp] {
+			osc = gp
+			break
+		}
+	}
+	if osc != nil {
+		sig = sigTank(c, osc).gang
+	}
+	return osc, sig
 }
 
 func joinAnd(s []string) string {

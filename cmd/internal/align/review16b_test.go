@@ -88,7 +88,7 @@ func TestCoverageMissesBand(t *testing.T) {
 	_, g := build(t, review("c4-heptode"))
 	found := false
 	for _, w := range g.Warnings {
-		miss := strings.Contains(w, "aerial/RF circuit") && strings.Contains(w, "misses the low end 530 kHz")
+		miss := strings.Contains(w, "aerial/RF circuit") && strings.Contains(w, "falls short of the low end 530 kHz")
 		unchecked := strings.Contains(w, "could not check whether the aerial/RF circuit on C1a covers the declared band")
 		found = found || miss || unchecked
 	}

@@ -55,7 +55,7 @@ func TestTrackingNeverSilent(t *testing.T) {
 		}
 	}
 	// pare's aerial circuit bottoms at 545 kHz (S1's figure), above 525 kHz
-	if !slices.ContainsFunc(g.Warnings, func(w string) bool { return strings.Contains(w, "misses the low end 525 kHz") }) {
+	if !slices.ContainsFunc(g.Warnings, func(w string) bool { return strings.Contains(w, "falls short of the low end 525 kHz") }) {
 		t.Errorf("no coverage warning in %q", g.Warnings)
 	}
 	// The reviewer's figures: oscillator top 2.352 MHz − 455 kHz = 1.897 MHz

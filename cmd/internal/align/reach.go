@@ -1,0 +1,148 @@
+package align
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+
+	"pare/graph"
+	"pare/graph/ac"
+)
+
+// What the adjusters reach. A tuned circuit that falls short of a dial end
+// as captured may still be brought to it by the parts alignment turns:
+// its trimmer (the top of the dial) and its coil's core (both ends). Before
+// saying alignment cannot reach an end, the circuit is solved with the
+// trimmer at the least of its range: that sets the widest span of the dial
+// the tank can cover, which the core cannot change (a core scales the
+// coil's inductance, so it moves both ends by the same ratio); the core
+// then slides that span, within what a core moves.
+
+// coreSpan is how far an adjustable core moves a coil's inductance either
+// way: about ±10 % for the dust-iron and ferrite slugs of broadcast coils
+// (common practice, from memory).
+const coreSpan = 0.10
+
+// reachSweep is the points of each pass of the search for a tank's peak:
+// the first over a factor reachWindow either side of a guess (a trimmer
+// from its setting to its least moves the top of the dial by half as much
+// again), each next over two steps of the last round its best.
+const (
+	reachSweep  = 401
+	reachWindow = 2.0
+	reachPasses = 3
+)
+
+// reachOf says whether the tank on gang section gang, which covers lo..hi
+// as captured (the dial ends' figures), can cover wLo..wHi with its
+// trimmer and core: the span with the trimmer at its least (solved in
+// circuit, as ratios to the tank's own solve as captured, so whatever the
+// ends' figures were read from carries over) and the core's inductance
+// ratio k that places it. ok is false when the tank could not be solved.
+type tankReach struct {
+	lo, hi  float64 // the span with the trimmer at its least, core as captured
+	k       float64 // the core's inductance ratio that places it (1 without a core)
+	trimmer *graph.Part
+	core    *graph.Part
+	reaches bool
+}
+
+func reachOf(c *graph.Circuit, gang *graph.Part, lo, hi, wLo, wHi float64) (tankReach, bool) {
+	t := tankOn(c, gang)
+	net := hotNet(c, gang)
+	r := tankReach{lo: lo, hi: hi, k: 1, trimmer: t.trimmer}
+	if t.coil != nil && len(t.coil.Adjust) > 0 {
+		r.core = t.coil
+	}
+	if t.trimmer != nil && t.trimmer.Value.IsSpan() {
+		moved := c.Clone()
+		moved.Part(t.trimmer.Ref).Set = t.trimmer.Value.Min
+		s0, s1, ok1 := tankEndPeaks(c, net, lo, hi)
+		m0, m1, ok2 := tankEndPeaks(moved, net, lo, hi)
+		if !ok1 || !ok2 {
+			return r, false
+		}
+		r.lo, r.hi = lo*m0/s0, hi*m1/s1
+	}
+	// the core scales L by k: both ends move by 1/√k
+	kMin, kMax := math.Pow(r.lo/wLo, 2), math.Pow(r.hi/wHi, 2)
+	span := 0.0
+	if r.core != nil {
+		span = coreSpan
+	}
+	kMin, kMax = math.Max(kMin, 1-span), math.Min(kMax, 1+span)
+	r.reaches = kMin <= kMax*(1+bandSlack)
+	if r.reaches {
+		r.k = math.Max(kMin, math.Min(1, kMax)) // the least turn from as captured
+	}
+	return r, true
+}
+
+// tankEndPeaks is the peak of |Z| at net with the gang at both ends,
+// searched near the dial ends' figures lo (gang full) and hi (gang least).
+func tankEndPeaks(c *graph.Circuit, net string, lo, hi float64) (fLo, fHi float64, ok bool) {
+	fLo, ok1 := tankPeak(c, net, 1, lo)
+	fHi, ok2 := tankPeak(c, net, 0, hi)
+	return fLo, fHi, ok1 && ok2
+}
+
+// tankPeak is the largest |Z| at net within a factor reachWindow of guess
+// with the gang at frac; ok is false when it lies at the search's edge.
+func tankPeak(c *graph.Circuit, net string, frac, guess float64) (float64, bool) {
+	lo, hi := guess/reachWindow, guess*reachWindow
+	best := 0.0
+	for pass := range reachPasses {
+		freqs := make([]float64, reachSweep)
+		for i := range freqs {
+			freqs[i] = lo * math.Pow(hi/lo, float64(i)/float64(reachSweep-1))
+		}
+		zs, err := ac.Impedance(c, net, freqs, ac.Options{VarFrac: frac, VarSet: true})
+		if err != nil {
+			return 0, false
+		}
+		at := 0
+		for i, z := range zs {
+			if cmplx.Abs(z) > cmplx.Abs(zs[at]) {
+				at = i
+			}
+		}
+		if at == 0 || at == len(zs)-1 {
+			if pass == 0 {
+				return 0, false
+			}
+			return freqs[at], true
+		}
+		best, lo, hi = freqs[at], freqs[at-1], freqs[at+1]
+	}
+	return best, true
+}
+
+// words says what the adjusters do about a tank's shortfall: the span
+// with the trimmer at the least of its range, and the core that slides it
+// onto the band.
+func (r tankReach) words() string {
+	span := fmt.Sprintf("the tank spans %s to %s in circuit", hz(r.lo), hz(r.hi))
+	if r.trimmer != nil {
+		span = fmt.Sprintf("with %s at the least of its range (%s) %s", r.trimmer.Ref, pf(r.trimmer.Value.Min), span)
+	}
+	if r.core != nil && r.k != 1 {
+		span += fmt.Sprintf(", wider than the band, and the core of %s (±%.0f %% of its inductance, common practice) can slide such a span onto it",
+			r.core.Ref, 100*coreSpan)
+	}
+	return span
+}
+
+// limitWords says how far the adjusters go when they fall short: the span
+// with the trimmer at its least, and the core's limits on it.
+func (r tankReach) limitWords() string {
+	w := fmt.Sprintf("its widest span in circuit, %s to %s", hz(r.lo), hz(r.hi))
+	if r.trimmer != nil {
+		w = fmt.Sprintf("%s at the least of its range (%s) %s", r.trimmer.Ref, pf(r.trimmer.Value.Min), w)
+	}
+	if r.core != nil {
+		w += fmt.Sprintf(", and the core of %s anywhere within ±%.0f %% of its inductance (common practice), it falls short", r.core.Ref, 100*coreSpan)
+	} else {
+		w += ", and no adjustable core to slide it, it falls short"
+	}
+	return w
+}
