@@ -103,7 +103,7 @@ func (g *Guide) missWarn(c *graph.Circuit, gang *graph.Part, what string, lo, hi
 				g.Warnings = append(g.Warnings, head+": "+r.words()+", so alignment brings the dial's ends in (trimmer at the top, core at the bottom)")
 				return
 			}
-			g.Warnings = append(g.Warnings, head+": even with "+r.limitWords()+": alignment cannot reach that end of the dial; check the coil, the gang and the trimmer, or the band in the netlist")
+			g.Warnings = append(g.Warnings, head+": "+r.limitWords()+"; check the coil, the gang and the trimmer, or the band in the netlist")
 			return
 		}
 	}

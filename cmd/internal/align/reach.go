@@ -133,16 +133,16 @@ func (r tankReach) words() string {
 }
 
 // limitWords says how far the adjusters go when they fall short: the span
-// with the trimmer at its least, and the core's limits on it.
+// with the trimmer at its least, and the core's limits on it. With a core
+// the claim is whole (a core cannot widen the span); without one only the
+// trimmer's end was solved, and a trimmer trades one end for the other.
 func (r tankReach) limitWords() string {
-	w := fmt.Sprintf("its widest span in circuit, %s to %s", hz(r.lo), hz(r.hi))
+	w := fmt.Sprintf("the tank spans %s to %s in circuit", hz(r.lo), hz(r.hi))
 	if r.trimmer != nil {
-		w = fmt.Sprintf("%s at the least of its range (%s) %s", r.trimmer.Ref, pf(r.trimmer.Value.Min), w)
+		w = fmt.Sprintf("with %s at the least of its range (%s) %s", r.trimmer.Ref, pf(r.trimmer.Value.Min), w)
 	}
 	if r.core != nil {
-		w += fmt.Sprintf(", and the core of %s anywhere within ±%.0f %% of its inductance (common practice), it falls short", r.core.Ref, 100*coreSpan)
-	} else {
-		w += ", and no adjustable core to slide it, it falls short"
+		return w + fmt.Sprintf(", and no setting of the core of %s within ±%.0f %% of its inductance (common practice) slides that span over the band: alignment cannot reach that end of the dial", r.core.Ref, 100*coreSpan)
 	}
-	return w
+	return w + ", with no adjustable core to slide that span: the trimmer trades one end for the other, so alignment may not reach both ends"
 }
