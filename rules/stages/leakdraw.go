@@ -21,6 +21,7 @@ func leakPlaces(c *graph.Circuit, tops []*found) {
 	claimed, _ := claims(tops)
 	for _, f := range tops {
 		for _, st := range append([]*found{f}, f.subs...) {
+			ltpPlaces(c, st.Stage)
 			leakPlacesOf(c, st.Stage)
 			feedPlaces(c, st.Stage, claimed)
 			pairPlaces(c, st.Stage)
