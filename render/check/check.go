@@ -95,6 +95,10 @@ type Report struct {
 	// finding). LocalsNear are those within a grid step: a reader may
 	// take them so too.
 	LocalsOn, LocalsNear []string
+	// FiguresAstray are pin figures set where they read as another wire's
+	// (pinfigs.go): in line past another net's wire end, or with a wire
+	// between them and their pin.
+	FiguresAstray []string
 	// TagsOnParts are rail tags closer than half a grid step to a part's
 	// body or pins (tags.go): the tag reads as the part's label.
 	TagsOnParts    []string
@@ -213,6 +217,7 @@ func Measure(g *geom.Sheet) *Report {
 	r.endsNear(g, segs)
 	r.localsNear(g, segs)
 	r.tagsOnParts(g)
+	r.figuresAstray(g)
 	r.longWires(g)
 	r.farTanks(g)
 	r.mixerOrder(g)

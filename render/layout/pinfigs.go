@@ -48,6 +48,7 @@ func placePinFigures(ly *state, g *geom.Sheet) {
 		return
 	}
 	var figs []geom.Label
+	segs := geom.NetSegs(g)
 	for _, cl := range ly.cells {
 		want := ly.o.PinVolts[cl.ref]
 		if len(want) == 0 || cl.part == nil {
@@ -63,7 +64,7 @@ func placePinFigures(ly *state, g *geom.Sheet) {
 			text := v + " V"
 			r, ok := geom.Rect{}, false
 			if drawn {
-				r, ok = pinFigSpot(cl, pin, text, g, figs)
+				r, ok = pinFigSpot(cl, pin, p.Net, text, g, figs, segs)
 			}
 			if !ok {
 				left = append(left, p.Name+" "+v)
@@ -104,13 +105,15 @@ func trimDCLine(g *geom.Sheet, ref string, left []string) {
 }
 
 // pinFigSpot searches the candidate boxes round the pin's tip, nearest
-// first (ties by scan order), for one that clears the sheet.
-func pinFigSpot(cl *cell, p geom.Pin, text string, g *geom.Sheet, figs []geom.Label) (geom.Rect, bool) {
+// first (ties by scan order), for one that clears the sheet and reads as
+// the pin's own (geom.FigureAstray, over segs: the sheet's wires and stubs).
+func pinFigSpot(cl *cell, p geom.Pin, net, text string, g *geom.Sheet, figs []geom.Label, segs []geom.NetSeg) (geom.Rect, bool) {
 	w := symbol.TextWidth(text)*symbol.SmallScale + 0.2
 	h := symbol.LineH * symbol.SmallScale
 	area := geom.Rect{X0: p.At.X - pinFigReach - w, Y0: p.At.Y - pinFigReach - h,
 		X1: p.At.X + pinFigReach + w, Y1: p.At.Y + pinFigReach + h}
 	obs := nearObstacles(g, figs, area)
+	near := nearNetSegs(segs, area)
 	best, bestD := geom.Rect{}, math.Inf(1)
 	n := int(math.Ceil((pinFigReach + w) / pinFigStep))
 	m := int(math.Ceil((pinFigReach + h) / pinFigStep))
@@ -119,13 +122,27 @@ func pinFigSpot(cl *cell, p geom.Pin, text string, g *geom.Sheet, figs []geom.La
 			x0, y0 := p.At.X+float64(j)*pinFigStep, p.At.Y+float64(i)*pinFigStep
 			r := geom.Rect{X0: x0, Y0: y0, X1: x0 + w, Y1: y0 + h}
 			d := rectDist(r, p.At)
-			if d >= bestD || d > pinFigReach || !nearestPin(cl, p, r, d) || obs.hits(r.Inset(0.15), nil) {
+			if d >= bestD || d > pinFigReach || !nearestPin(cl, p, r, d) || obs.hits(r.Inset(0.15), nil) ||
+				geom.FigureAstray(r, p.At, net, near) != "" {
 				continue
 			}
 			best, bestD = r, d
 		}
 	}
 	return best, !math.IsInf(bestD, 1)
+}
+
+// nearNetSegs keeps the segments that could run in line with, or between
+// a pin and, a figure in area.
+func nearNetSegs(segs []geom.NetSeg, area geom.Rect) []geom.NetSeg {
+	var out []geom.NetSeg
+	reach := area.Inset(3)
+	for _, s := range segs {
+		if s.Touches(reach) {
+			out = append(out, s)
+		}
+	}
+	return out
 }
 
 // nearObstacles collects what a figure in area must keep clear of.
