@@ -49,3 +49,51 @@ func TestPinFiguresReadAsTheirPins(t *testing.T) {
 	}
 	t.Logf("pin figures that read as another wire's: %d", astray)
 }
+
+// dotPairCeiling is how many pairs of junction dots of unrelated nets
+// stand less than two grid steps apart on one line (render/check's
+// DotPairs: they read as one joint, review20 a04's HT dot over the grid
+// line's), over the A3 pages of the full and faded views of every example,
+// gallery fixture and blind-review circuit, and over the whole sheets of
+// every view and both styles of the examples and gallery, as measured when
+// the checker learned them: 2 and 0, the one review20 a04 pair on its full
+// and faded page 2 (R13's foot on the HT2 line stacked a step above C5's
+// top on the long-tailed pair's grid line). A change may lower these, never
+// raise them.
+var dotPairCeiling = struct{ pages, sheets int }{2, 0}
+
+// TestJunctionDotsApart holds dotPairCeiling.
+func TestJunctionDotsApart(t *testing.T) {
+	files := append(append(readSheets(t), reviewCircuits(t)...), reviewCircuitsFrom(t, "review13", "review18", "review19", "review20")...)
+	warmSheets(files, "A3")
+	pages, sheets := 0, 0
+	for _, f := range files {
+		for _, v := range drawViews {
+			pgs, err := cachedPages(f, v, "A3")
+			if err != nil {
+				t.Fatal(err)
+			}
+			for i, pg := range pgs {
+				for _, p := range measured(pg).DotPairs {
+					pages++
+					t.Logf("%s: %s", pageName(f, v, i), p)
+				}
+			}
+		}
+	}
+	for _, f := range readSheets(t) {
+		for _, v := range drawViews {
+			for _, st := range []render.Style{render.IEC, render.IEEE} {
+				for _, p := range cachedSheet(t, f, v, st).report.DotPairs {
+					sheets++
+					t.Logf("%s %s %s: %s", filepath.Base(f), v, st, p)
+				}
+			}
+		}
+	}
+	t.Logf("junction dots of unrelated nets a step apart: %d on pages (ceiling %d), %d on whole sheets (ceiling %d)", pages, dotPairCeiling.pages, sheets, dotPairCeiling.sheets)
+	if pages > dotPairCeiling.pages || sheets > dotPairCeiling.sheets {
+		t.Errorf("more junction dots of unrelated nets a step apart: %d on pages (ceiling %d), %d on whole sheets (ceiling %d); the log lists them",
+			pages, dotPairCeiling.pages, sheets, dotPairCeiling.sheets)
+	}
+}

@@ -61,6 +61,9 @@ type Report struct {
 	// junction dot of either net: the eye takes the crossing for part of
 	// the junction.
 	NearDots []string
+	// DotPairs are junction dots of unrelated nets closer than two grid
+	// steps on one line: they read as one joint (dotpairs.go).
+	DotPairs []string
 	// NearPins are crossings of two nets' wires closer than leadClear to
 	// a part's pin on either net: the crossing wire reads as joined at the
 	// pin, a part with pins on both nets as shorted (leads.go).
@@ -224,6 +227,7 @@ func Measure(g *geom.Sheet) *Report {
 	r.feedOrder(g)
 	xs := r.crossings(g, segs)
 	r.nearDots(g, segs, xs)
+	r.dotPairs(g, segs)
 	r.nearPins(g, xs)
 	r.alongParts(g)
 	r.commonLeads(g, xs)

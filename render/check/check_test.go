@@ -185,6 +185,18 @@ func TestFindings(t *testing.T) {
 			g.Dots = []geom.Pt{{X: 6, Y: 0}}
 			g.Wires = append(g.Wires, wire("m", seg(8, -3, 8, 2)))
 		}, "", func(r *Report) []string { return r.NearDots }},
+		// net n branches down at (6,0), net m at (6,1) a step below it on
+		// the same vertical (review20 a04's HT dot over the grid line's)
+		{"two nets' junction dots a step apart on one line", func(g *geom.Sheet) {
+			g.Wires[0].Segs = append(g.Wires[0].Segs, seg(6, 0, 6, -3))
+			g.Wires = append(g.Wires, wire("m", seg(3, 1, 9, 1), seg(6, 1, 6, 4)))
+			g.Dots = []geom.Pt{{X: 6, Y: 0}, {X: 6, Y: 1}}
+		}, "junction dots of n at (6,0) and of m at (6,1), 1 apart on one line", func(r *Report) []string { return r.DotPairs }},
+		{"two nets' junction dots two steps apart", func(g *geom.Sheet) {
+			g.Wires[0].Segs = append(g.Wires[0].Segs, seg(6, 0, 6, -3))
+			g.Wires = append(g.Wires, wire("m", seg(3, 2, 9, 2), seg(6, 2, 6, 4)))
+			g.Dots = []geom.Pt{{X: 6, Y: 0}, {X: 6, Y: 2}}
+		}, "", func(r *Report) []string { return r.DotPairs }},
 		// a flag P1 on net s, its tip at 27,0, and a wire of m turning just
 		// beyond it (the extension socket that read as feeding the tone
 		// control)
