@@ -33,6 +33,36 @@ type cell struct {
 	// sig are its signal nets (state.signalNets), once sigDone
 	sig     []string
 	sigDone bool
+	// own is the strokes and pins that move copied for the cell: while
+	// the shape still has them, it is the cell's alone and later moves
+	// shift it in place (a template's room moves every block right of its
+	// stage, once per template; a copy per move grew with the square of a
+	// set). A shape put in the cell from elsewhere (an orientation, a
+	// tank's turn) has other storage and is copied on its first move.
+	own ownKey
+}
+
+// ownKey names a shape's storage: its strokes' and pins' first elements.
+type ownKey struct {
+	prims *symbol.Prim
+	pins  *geom.Pin
+}
+
+func shapeKey(s symbol.Shape) ownKey {
+	var k ownKey
+	if len(s.Prims) > 0 {
+		k.prims = &s.Prims[0]
+	}
+	if len(s.Pins) > 0 {
+		k.pins = &s.Pins[0]
+	}
+	return k
+}
+
+// ownsShape says whether the cell's shape is still the copy move made.
+func (c *cell) ownsShape() bool {
+	k := shapeKey(c.shape)
+	return k != ownKey{} && k == c.own
 }
 
 func (c *cell) footprint() geom.Rect {
@@ -50,7 +80,11 @@ func (c *cell) footprint() geom.Rect {
 }
 
 func (c *cell) move(d geom.Pt) {
-	c.shape = c.shape.Moved(d)
+	if !c.ownsShape() {
+		c.shape = c.shape.Owned()
+		c.own = shapeKey(c.shape)
+	}
+	c.shape.Shift(d)
 	for i := range c.locals {
 		l := &c.locals[i]
 		l.At = l.At.Add(d)

@@ -123,17 +123,28 @@ func (s Shape) Oriented(o Orient) Shape {
 // Moved returns the shape shifted by d.
 func (s Shape) Moved(d geom.Pt) Shape {
 	out := s.copied()
-	out.Box = s.Box.Move(d)
-	for k := range out.Prims {
-		pts := out.Prims[k].Pts
+	out.Shift(d)
+	return out
+}
+
+// Owned is the shape with strokes and pins of its own, which Shift may
+// then change without touching the shape it was copied from.
+func (s Shape) Owned() Shape { return s.copied() }
+
+// Shift moves the shape by d in place: the same sums as Moved, for a
+// holder that owns the shape's strokes and pins (Owned) and moves it many
+// times, so that each move does not copy it again.
+func (s *Shape) Shift(d geom.Pt) {
+	s.Box = s.Box.Move(d)
+	for k := range s.Prims {
+		pts := s.Prims[k].Pts
 		for i, pt := range pts {
 			pts[i] = pt.Add(d)
 		}
 	}
-	for i := range out.Pins {
-		out.Pins[i].At = out.Pins[i].At.Add(d)
+	for i := range s.Pins {
+		s.Pins[i].At = s.Pins[i].At.Add(d)
 	}
-	return out
 }
 
 // copied is the shape with strokes and pins of its own, to be changed in
