@@ -20,7 +20,14 @@ func (c *Circuit) Sort() {
 
 // Clone returns a deep copy that shares nothing with c, for reductions that
 // must leave the loaded circuit as it was.
-func (c *Circuit) Clone() *Circuit {
+func (c *Circuit) Clone() *Circuit { return c.CloneSharing(nil) }
+
+// CloneSharing is Clone with only the parts own says yes to copied (all
+// of them for a nil own): the others are c's own parts, shared, for a
+// reader that changes no part but those (ac.Alone, which sets the other
+// devices' parameters, once per oscillator: copying every part of a set
+// for each grew with the square of a bank).
+func (c *Circuit) CloneSharing(own func(*Part) bool) *Circuit {
 	d := *c
 	d.ix, d.jr, d.rx = nil, nil, nil // the clone builds its own indexes on first use, and records nothing
 	d.Freqs = make(map[string]float64, len(c.Freqs))
@@ -48,7 +55,11 @@ func (c *Circuit) Clone() *Circuit {
 	}
 	d.Parts = make([]*Part, len(c.Parts))
 	for i, p := range c.Parts {
-		d.Parts[i] = p.Clone()
+		if own == nil || own(p) {
+			d.Parts[i] = p.Clone()
+		} else {
+			d.Parts[i] = p
+		}
 	}
 	if c.Comments != nil {
 		d.Comments = make(map[string]Comment, len(c.Comments))

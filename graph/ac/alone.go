@@ -22,9 +22,13 @@ const quietGm = 1e-12
 
 // Alone is a copy of c with every amplifying device but ref made passive:
 // transconductance gone, input and output resistances kept, so each still
-// loads the circuit as it does.
+// loads the circuit as it does. Its other parts are c's own: a reader of
+// the copy changes none of them.
 func Alone(c *graph.Circuit, ref string) *graph.Circuit {
-	out := c.Clone()
+	// only the devices' parameters change: every other part is c's own
+	out := c.CloneSharing(func(p *graph.Part) bool {
+		return p.Kind == graph.Valve || p.Kind == graph.BJT || p.Kind == graph.FET
+	})
 	for _, p := range out.Parts {
 		if p.Ref == ref || (p.Kind != graph.Valve && p.Kind != graph.BJT && p.Kind != graph.FET) {
 			continue
