@@ -55,13 +55,22 @@ func loopCapacitors(lp *ac.Loops, out []Stage) {
 	for _, l := range loops {
 		near[l.Device] = loopNets(lc, l.Device)
 	}
+	// A capacitor on a declared input or output is the circuit's coupling
+	// to what lies outside it (an aerial, the next stage), whatever it
+	// does to a loop the solver closes through an ideal source there. The
+	// set is the circuit's, made once: made per stage and loop it grew
+	// with the square of a bank.
+	ends := map[string]bool{}
+	for _, n := range append(slices.Clone(lc.Inputs), lc.Outputs...) {
+		ends[n] = true
+	}
 	for i := range out {
 		st := &out[i]
 		if !slices.Contains(couplingTopologies, st.Topology) {
 			continue
 		}
 		for _, l := range loops {
-			if what, ref := openedLoop(lc, st, l, near[l.Device]); what != "" {
+			if what, ref := openedLoop(lc, st, l, near[l.Device], ends); what != "" {
 				markLoopCap(st, l.Device, ref, what)
 				break
 			}
@@ -72,15 +81,9 @@ func loopCapacitors(lp *ac.Loops, out []Stage) {
 // openedLoop is what opening a capacitor of stage st does to loop l,
 // worded for the stage ("stops the oscillator: …"), and the capacitor;
 // "" when no capacitor of the stage matters to the loop. Only capacitors
-// on the loop's nets (near) are tried.
-func openedLoop(lc *graph.Circuit, st *Stage, l Loop, near map[string]bool) (what, ref string) {
-	// A capacitor on a declared input or output is the circuit's coupling
-	// to what lies outside it (an aerial, the next stage), whatever it
-	// does to a loop the solver closes through an ideal source there.
-	ends := map[string]bool{}
-	for _, n := range append(slices.Clone(lc.Inputs), lc.Outputs...) {
-		ends[n] = true
-	}
+// on the loop's nets (near) and on none of the circuit's inputs and
+// outputs (ends) are tried.
+func openedLoop(lc *graph.Circuit, st *Stage, l Loop, near, ends map[string]bool) (what, ref string) {
 	for _, r := range st.Parts {
 		p := lc.Part(r)
 		if p == nil || p.Kind != graph.Capacitor || !touches(p, near) || touches(p, ends) {
