@@ -174,7 +174,7 @@ func TestHits(t *testing.T) {
 	if n != log.Applied() {
 		t.Errorf("hits add up to %d, steps %d", n, log.Applied())
 	}
-	if log.Hits[0].Rule != "ground-merge" || len(log.Hits) != 11 {
+	if log.Hits[0].Rule != "ground-merge" || len(log.Hits) != 12 {
 		t.Errorf("hits not in table order for the signal level: %+v", log.Hits)
 	}
 }

@@ -17,6 +17,7 @@ var table = [...]*Rule{
 	&prune,           // tidy:   dangling and shorted-out parts, lone ports
 	&dcFeed,          // signal: parts with every terminal at AC ground
 	&noSignal,        // signal: groups that meet the signal only at AC ground
+	&supplyLine,      // signal: lines fed from a supply and held by their own capacitor
 	&parallel,        // tidy:   parallel R, C, L
 	&series,          // tidy:   series R, C, L through an otherwise empty net
 	&bypass,          // signal: bypass and decoupling capacitors ground their net
