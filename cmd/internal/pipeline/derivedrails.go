@@ -16,9 +16,8 @@ const SupplyLineRule = "supply-line"
 // layout draws a rail as a tag at each terminal on it: a smoothed HT line
 // left a signal net was drawn as black wires from every load it feeds, the
 // whole distribution run out to off-row connectors on another page
-// (review 20's a05: five of them for HT2). A reservoir the small-signal
-// work took as a supply (acBase) is made one too, with its estimate. The
-// circuit is copied only when there is such a line.
+// (review 20's a05: five of them for HT2). The circuit is copied only when
+// there is such a line.
 func (r *Result) withDerivedRails(c *graph.Circuit) *graph.Circuit {
 	if r.Log == nil || r.Reduced == nil {
 		return c
@@ -47,21 +46,6 @@ func (r *Result) withDerivedRails(c *graph.Circuit) *graph.Circuit {
 					m.Label, m.Volts = label, printed
 				}
 			}
-		}
-	}
-	if r.base != nil && r.base != r.Circuit {
-		// a reservoir estimated from a captured rectifier, which the
-		// small-signal work took as a supply (acBase): a rail as plainly
-		for _, b := range r.base.Nets {
-			n := c.Net(b.Name)
-			if b.Role != graph.Supply || n == nil || n.Role != graph.Signal || r.isEnd(b.Name) {
-				continue
-			}
-			if out == nil {
-				out = c.Clone()
-			}
-			m := out.Net(b.Name)
-			m.Role, m.Volts, m.Label = graph.Supply, b.Volts, b.Label
 		}
 	}
 	if out == nil {
