@@ -1,7 +1,10 @@
 package pipeline
 
 import (
+	"slices"
+
 	"pare/graph"
+	"pare/render"
 )
 
 // SupplyLineRule is the reduction rule that takes an undeclared line fed
@@ -16,9 +19,12 @@ const SupplyLineRule = "supply-line"
 // layout draws a rail as a tag at each terminal on it: a smoothed HT line
 // left a signal net was drawn as black wires from every load it feeds, the
 // whole distribution run out to off-row connectors on another page
-// (review 20's a05: five of them for HT2). The circuit is copied only when
+// (review 20's a05: five of them for HT2). A line that feeds one stage
+// (a decoupled collector feed inside a small set's one frame) stays wired
+// there: the wire is short and tags at both ends of its feed would only
+// part the section from what it serves. The circuit is copied only when
 // there is such a line.
-func (r *Result) withDerivedRails(c *graph.Circuit) *graph.Circuit {
+func (r *Result) withDerivedRails(c *graph.Circuit, frames []render.Frame) *graph.Circuit {
 	if r.Log == nil || r.Reduced == nil {
 		return c
 	}
@@ -30,7 +36,7 @@ func (r *Result) withDerivedRails(c *graph.Circuit) *graph.Circuit {
 		for _, name := range st.Grounded {
 			n := c.Net(name)
 			rail := reducedRail(r.Reduced, name)
-			if n == nil || n.Role != graph.Signal || rail == nil || r.isEnd(name) {
+			if n == nil || n.Role != graph.Signal || rail == nil || r.isEnd(name) || stagesFed(c, name, frames, st.Refs) < 2 {
 				continue
 			}
 			if out == nil {
@@ -67,3 +73,36 @@ func reducedRail(c *graph.Circuit, name string) *graph.Net {
 // isEnd says whether a net is a declared signal end of the circuit or of a
 // region: such a net keeps its wires, whatever the reduction made of it.
 func (r *Result) isEnd(name string) bool { return r.Circuit.IsEnd(name) }
+
+// stagesFed counts the signal stages (frames not of a supply) holding a
+// part with a terminal on line, leaving out the parts the step took away
+// (its capacitor), the feed from a supply and the supply frames' parts; a
+// part in no frame counts as a stage of its own.
+func stagesFed(c *graph.Circuit, line string, frames []render.Frame, removed []string) int {
+	seen := map[int]bool{}
+	loose := 0
+	for _, cn := range c.ConnsOf(line) {
+		ref := cn.Part.Ref
+		if slices.Contains(removed, ref) || slices.ContainsFunc(cn.Part.Pins, func(pn graph.Pin) bool { return c.RoleOf(pn.Net) == graph.Supply }) {
+			continue // the section's capacitor, or its feed from the rail
+		}
+		at, supply := -1, false
+		for i, f := range frames {
+			if slices.Contains(f.Parts, ref) {
+				if f.Supply {
+					supply = true
+				} else if at < 0 {
+					at = i
+				}
+			}
+		}
+		switch {
+		case supply:
+		case at >= 0:
+			seen[at] = true
+		default:
+			loose++
+		}
+	}
+	return len(seen) + loose
+}

@@ -116,7 +116,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		// one sheet for both: render lays the full view out with the
 		// faded parts known and draws it plain, so the faded view is the
 		// same layout greyed where the reduction took parts away
-		c = r.withDerivedRails(c)
+		c = r.withDerivedRails(c, stageFrames(r.Stages, reduced, c))
 		s.Circuit = c
 		s.Frames = tankFrames(stageFrames(r.Stages, reduced, c), c)
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
