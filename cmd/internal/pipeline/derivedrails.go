@@ -22,7 +22,10 @@ const SupplyLineRule = "supply-line"
 // (review 20's a05: five of them for HT2). A line that feeds one stage
 // (a decoupled collector feed inside a small set's one frame) stays wired
 // there: the wire is short and tags at both ends of its feed would only
-// part the section from what it serves. The circuit is copied only when
+// part the section from what it serves. So does a line fed from a
+// reservoir the netlist does not declare: that reservoir is drawn wired,
+// with its smoothing section, and the line's tags would part the section
+// from it (the note asks for both to be declared). The circuit is copied only when
 // there is such a line.
 func (r *Result) withDerivedRails(c *graph.Circuit, frames []render.Frame) *graph.Circuit {
 	if r.Log == nil || r.Reduced == nil {
@@ -38,6 +41,9 @@ func (r *Result) withDerivedRails(c *graph.Circuit, frames []render.Frame) *grap
 			rail := reducedRail(r.Reduced, name)
 			if n == nil || n.Role != graph.Signal || rail == nil || r.isEnd(name) || stagesFed(c, name, frames, st.Refs) < 2 {
 				continue
+			}
+			if !fedFromRail(c, out, rail.Fed) {
+				continue // fed from a reservoir only estimated: wired, as that reservoir is
 			}
 			if out == nil {
 				out = c.Clone()
@@ -105,4 +111,14 @@ func stagesFed(c *graph.Circuit, line string, frames []render.Frame, removed []s
 		}
 	}
 	return len(seen) + loose
+}
+
+// fedFromRail says whether the net a line is fed from is drawn as a rail:
+// declared a supply, or a line made one before it (out, when made).
+func fedFromRail(c, out *graph.Circuit, fed string) bool {
+	if out != nil {
+		c = out
+	}
+	n := c.Net(fed)
+	return n != nil && n.Role == graph.Supply
 }
