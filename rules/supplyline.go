@@ -100,10 +100,13 @@ func supplyLineGuard(x *Ctx, m *Plan) (bool, string) {
 	return false, d + ": " + fed + "; " + at + " > " + num(lineCorner) + " × " + ohms(zf) + ": the feed, not the capacitor, sets the line's impedance at the band's low edge; not a supply line"
 }
 
-// lineFeed is the resistor or choke that feeds net from a supply rail (a
-// supply net, or an AC-ground net its terminal returned to a supply rail
-// on), the one of least impedance at f, with that impedance; nil when no
-// supply feeds the net.
+// lineFeed is the resistor or choke that feeds net from a declared supply
+// rail (a supply net, or an AC-ground net its terminal returned to such a
+// rail on), the one of least impedance at f, with that impedance; nil when
+// none feeds the net. A line fed from a reservoir the netlist leaves
+// undeclared (estimated from its rectifier for the small-signal work) is
+// left to the bypass rule, as its reservoir is drawn wired: the note on
+// that reservoir asks for both to be declared.
 func (x *Ctx) lineFeed(net string, f float64) (*graph.Part, float64) {
 	var best *graph.Part
 	bestZ := math.Inf(1)
@@ -119,8 +122,8 @@ func (x *Ctx) lineFeed(net string, f float64) (*graph.Part, float64) {
 		if far.Net == net {
 			continue
 		}
-		if ret := x.c.ReturnOf(far); ret == nil || ret.Role != graph.Supply {
-			continue
+		if ret := x.c.ReturnOf(far); ret == nil || ret.Role != graph.Supply || !ret.Declared {
+			continue // no supply, or one the netlist does not declare (a reservoir estimated from its rectifier)
 		}
 		z := q.Value.Max
 		if q.Kind == graph.Inductor {

@@ -11,11 +11,11 @@ import (
 // resistor or choke and held by a smoothing capacitor to chassis (common
 // practice: a reservoir, a series R or L, a second electrolytic). When
 // only the reservoir is undeclared and estimated, the line after the
-// smoothing is undeclared too. The reduction takes it as a supply line
-// where its capacitor holds it over the band (the rule supply-line, a
-// logged and proven step: review 17's b05 had its feeds merged with the
-// decouplers into one bundle before); a note says what the line is, with
-// the fix that names it, beside the reservoir's.
+// smoothing is still a signal net to the reduction: its resistors to the
+// decoupled lines merge into one bundle and its capacitor is judged by its
+// reactance (review 17's b05). The line is a supply rail as plainly as the
+// reservoir, so a note says so with the fix, beside the reservoir's; the
+// reduction is not changed behind the user's back.
 
 // smoothingMinF is the least capacitance read as smoothing: an HT
 // smoothing capacitor is microfarads (common practice, 8–50 µF), an RF
@@ -42,7 +42,7 @@ func smoothedLineNotes(c *graph.Circuit, reservoir string) []string {
 			continue
 		}
 		seen[line] = true
-		out = append(out, fmt.Sprintf("%s looks like a supply rail: fed from the reservoir %s through %s and smoothed by %s (%s to chassis); declare it to name it: [nets] %s = { role = \"supply\" }",
+		out = append(out, fmt.Sprintf("%s looks like a supply rail: fed from the reservoir %s through %s and smoothed by %s (%s to chassis); declare it to say so, and the reduction takes it as AC ground for the signal: [nets] %s = { role = \"supply\" }",
 			line, reservoir, p.Ref, sc.Ref, value.Format(sc.Value.Max, value.Farad, value.Symbol), line))
 	}
 	return out
