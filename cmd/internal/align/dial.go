@@ -74,10 +74,12 @@ func (g *Guide) coverage(c *graph.Circuit, sts []stages.Stage) {
 		if name == "" {
 			// Say so rather than stay silent: no named tank means no
 			// in-circuit range, so the coverage was not checked.
-			g.Warnings = append(g.Warnings, fmt.Sprintf("pare could not check whether the aerial/RF circuit on %s covers the declared band %s to %s: no recognised stage names its tank as captured; check the dial ends with a generator", gp.Ref, hz(b.Min), hz(b.Max)))
+			g.Warnings = append(g.Warnings, fmt.Sprintf("pare could not check whether %s on %s covers the declared band %s to %s: no recognised stage names its tank as captured; check the dial ends with a generator", tankKind(c, sts, gp), gp.Ref, hz(b.Min), hz(b.Max)))
 			continue
 		}
-		g.missWarn(c, gp, fmt.Sprintf("the aerial/RF circuit %s (%s)", name, gp.Ref), lo, hi, b.Min, b.Max, "")
+		// named by the stage it serves: a VFO's tank is its oscillator's,
+		// not an aerial circuit (review20 b01)
+		g.missWarn(c, gp, fmt.Sprintf("%s %s (%s)", tankKind(c, sts, gp), name, gp.Ref), lo, hi, b.Min, b.Max, "")
 	}
 }
 

@@ -63,6 +63,9 @@ type Guide struct {
 	// input; InjectErr says why it could not be made.
 	Inject    []Injection
 	InjectErr string
+	// dials are the RF rows' gang settings, by tank and frequency: the
+	// rows of one set share them (dialGang).
+	dials map[string][2]float64
 	// Hints are the symptom hints for the kinds of stage this circuit has.
 	Hints []Hint
 	// Presets are the procedures for the circuit's presets, in the order

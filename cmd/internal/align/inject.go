@@ -30,9 +30,15 @@ type Injection struct {
 	GainTo   string
 	GainNote string
 	// Gang is the gang setting the row is solved at (fraction of travel
-	// from fully open); Tuned says the gang was turned for the peak.
-	Gang  float64
-	Tuned bool
+	// from fully open); Tuned says the gang was turned for the peak or,
+	// with DialTank set, that the gang does not tune the row's path and
+	// stands where DialTank, the tuned circuit that reads the dial for the
+	// row ("the aerial circuit (C1a)"), resonates at Freq (dialgang.go).
+	// DialTank without Tuned: that tank does not reach Freq, and the gang
+	// stays at mid-travel.
+	Gang     float64
+	Tuned    bool
+	DialTank string
 	// Why, when set, says why pare gives no numbers for this row (it could
 	// not be solved, or its result is no level a bench could meet); the
 	// other rows stand.

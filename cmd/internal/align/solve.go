@@ -11,7 +11,9 @@ import (
 )
 
 // solveRow solves row i: its frequency, the gang (turned for the peak on an
-// RF row, as the repairer tunes the set to the generator), the level that
+// RF row, as the repairer tunes the set to the generator; where the gang
+// does not tune the row's path, set where the tank that reads the dial
+// resonates at it: dialgang.go), the level that
 // gives the reference, and the gain to the next point of its band.
 func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injection, i int, g *Guide) (Injection, error) {
 	p := pts[i]
@@ -31,7 +33,10 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	if p.band == "RF" {
 		sc, broken = loopsBroken(c, sts)
 		in.Broken = broken
-		in.Gang, in.Tuned = peakGang(sc, p.net, tuneNet(sc, sts, p.net, in.RefNet), in.Freq), true
+		if in.Gang, in.Tuned = peakGang(sc, p.net, tuneNet(sc, sts, p.net, in.RefNet), in.Freq); !in.Tuned {
+			in.Gang = 0.5
+			g.dialGang(sc, sts, &in)
+		}
 	}
 	h, err := g.response(sc, in.Net, in.RefNet, in.Freq, in.Gang)
 	if err != nil {
@@ -176,8 +181,13 @@ func rowFreq(c *graph.Circuit, band string, g *Guide) float64 {
 }
 
 // peakGang turns the gang for the largest response at f: a scan of the
-// travel, then a golden-section search around the best point.
-func peakGang(c *graph.Circuit, in, out string, f float64) float64 {
+// travel, then a golden-section search around the best point. tuned is
+// false when the gang does not tune the path at f (the response varies by
+// less than tunedRatio over the travel: a path that no ganged tank is on,
+// as from an oscillator's buffer onwards); the setting then says nothing
+// about the dial (review20 b01 read "gang 2 % of the way" at 2.828 MHz,
+// where the VFO's own tank stands at about 55 %).
+func peakGang(c *graph.Circuit, in, out string, f float64) (th float64, tuned bool) {
 	mag := func(th float64) float64 {
 		v, err := Response(c, in, out, f, th)
 		if err != nil {
@@ -186,12 +196,17 @@ func peakGang(c *graph.Circuit, in, out string, f float64) float64 {
 		return v
 	}
 	const scan = 40
-	best, bestV := 0.0, -1.0
+	best, bestV, leastV := 0.0, -1.0, math.Inf(1)
 	for k := 0; k <= scan; k++ {
 		th := float64(k) / scan
-		if v := mag(th); v > bestV {
+		v := mag(th)
+		if v > bestV {
 			best, bestV = th, v
 		}
+		leastV = math.Min(leastV, v)
+	}
+	if !(bestV > tunedRatio*leastV) {
+		return best, false
 	}
 	lo, hi := math.Max(0, best-1.0/scan), math.Min(1, best+1.0/scan)
 	const phi = 0.6180339887498949
@@ -208,8 +223,13 @@ func peakGang(c *graph.Circuit, in, out string, f float64) float64 {
 			fb = mag(b)
 		}
 	}
-	return (lo + hi) / 2
+	return (lo + hi) / 2, true
 }
+
+// tunedRatio is how much a tuned path's response must rise from its least
+// to its peak over the gang's travel to call the gang the thing that tunes
+// it: 3 dB, a tank's own −3 dB width (common practice).
+const tunedRatio = math.Sqrt2
 
 func db(v float64) float64 { return 20 * math.Log10(v) }
 

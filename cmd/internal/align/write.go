@@ -245,8 +245,13 @@ func (g *Guide) injectNote() string {
 }
 
 func freqNote(in Injection) string {
-	if in.Tuned {
+	switch {
+	case in.Tuned && in.DialTank == "":
 		return fmt.Sprintf(" (set tuned to it: gang %.0f %% of the way from fully open to fully meshed)", in.Gang*100)
+	case in.Tuned:
+		return fmt.Sprintf(" (set tuned to it: gang %.0f %% of the way from fully open to fully meshed, where %s resonates at it)", in.Gang*100, in.DialTank)
+	case in.DialTank != "":
+		return fmt.Sprintf(" (%s does not reach it as captured: solved with the gang at mid-travel)", in.DialTank)
 	}
 	return ""
 }
