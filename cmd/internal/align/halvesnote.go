@@ -20,6 +20,11 @@ import (
 // nor its gain target is one of a pair's halves.
 func halvesNote(c *graph.Circuit, pts []point, i int, in Injection) string {
 	if h := pts[i].halves; h != "" {
+		if len(otherHalves(pts, i)) == 0 {
+			// the other half's control electrode is held at AC ground
+			// (dropDecoupled): a long-tailed pair driven on one grid
+			return fmt.Sprintf("the driven half of the pair %s (the other half's control electrode is at AC ground, so the pair is driven from here alone): the pair is one stage, so its gain is taken past both halves", h)
+		}
 		return fmt.Sprintf("one half of the push-pull pair %s (the other half on %s, driven beside it): the pair is one stage, so its gain is taken past both halves", h, strings.Join(otherHalves(pts, i), ", "))
 	}
 	j := pointOn(pts, in.GainTo)

@@ -145,7 +145,7 @@ func injectionPoints(c *graph.Circuit, sts []stages.Stage, g *Guide) []point {
 	slices.SortStableFunc(pts, func(a, b point) int { return dist(a.net) - dist(b.net) })
 	pts = chainOrder(c, pts, g, mixer != nil)
 	classify(c, pts, g, mixer != nil)
-	return pts
+	return dropDecoupled(c, pts, g)
 }
 
 // halves maps each active device that is one of a stage's parallel halves

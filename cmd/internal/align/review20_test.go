@@ -2,7 +2,9 @@ package align_test
 
 import (
 	"math"
+	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 
@@ -110,5 +112,56 @@ func TestVFOTankNamed(t *testing.T) {
 	}
 	if !named {
 		t.Errorf("no coverage warning names the oscillator's tuned circuit: %q", g.Warnings)
+	}
+}
+
+// TestFeedbackRowWords: review20 a04's output grids, forced alone inside
+// 20 dB of overall feedback, pass next to nothing (the reviewer's ngspice:
+// ×0.0465 at V4's grid); the row blames the loop, not the bias, and says
+// what the opened loop passes. The long-tailed pair's second grid, held at
+// AC ground by C5, is no injection point. Without R21 (a variant: the same
+// amplifier with no loop) the output grid's row gives a level.
+func TestFeedbackRowWords(t *testing.T) {
+	_, g := build(t, review20("a04"))
+	var blamed int
+	for _, in := range g.Inject {
+		if in.Net == "ltp_g2" || in.GainTo == "ltp_g2" {
+			t.Errorf("row on the decoupled grid: %s → %s", in.Net, in.GainTo)
+		}
+		if in.Net != "v3_g" && in.Net != "v4_g" {
+			continue
+		}
+		if strings.Contains(in.Why, "see pare dc for the bias") || !strings.Contains(in.Why, "overall feedback (R21 from spk") {
+			t.Errorf("%s: %q: want the loop blamed", in.Net, in.Why)
+		}
+		if in.Net == "v4_g" && math.Abs(in.RefLevel/in.Level/0.0465-1) > 0.02 {
+			t.Errorf("v4_g passes ×%.4g, reviewer's ngspice ×0.0465", in.RefLevel/in.Level)
+		}
+		blamed++
+	}
+	if blamed != 2 {
+		t.Errorf("%d output-grid rows blame the loop, want 2", blamed)
+	}
+	src, err := os.ReadFile(review20("a04"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	open := regexp.MustCompile(`(?m)^R21 = .*$`).ReplaceAllString(string(src), "")
+	path := filepath.Join(t.TempDir(), "a04-open.toml")
+	if err := os.WriteFile(path, []byte(open), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	_, g2 := build(t, path)
+	found := false
+	for _, in := range g2.Inject {
+		if in.Net == "v4_g" {
+			found = true
+			if in.Why != "" || in.Level <= 0 {
+				t.Errorf("no loop: v4_g row %q, want a level", in.Why)
+			}
+		}
+	}
+	if !found {
+		t.Errorf("no loop: no row on v4_g")
 	}
 }

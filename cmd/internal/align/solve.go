@@ -68,7 +68,12 @@ func solveRow(c *graph.Circuit, sts []stages.Stage, pts []point, rows []Injectio
 	case p.mixer:
 		in.GainNote = "at the IF, as an IF amplifier; its conversion gain (RF in, IF out) is no small-signal quantity: the RF rows take it as a quarter of this gain (an estimate)"
 	}
-	if in.Why = implausible(in); in.Why == "" {
+	if in.Why = implausible(in); in.Why != "" && in.Level > maxGenVolts && in.Gain < 1 {
+		if why := feedbackCancels(sc, sts, in); why != "" {
+			in.Why = why
+		}
+	}
+	if in.Why == "" {
 		in.BelowFloor = in.Level < genFloor
 		in.Caveat = caveats(sc, in, g.AGC)
 		if len(broken) > 0 && !in.BelowFloor && in.GainNote == "" {
