@@ -16,7 +16,8 @@ import (
 // 0.05 % and is in the solve. The review's 49.47 is the deck's ratio with
 // its source left on the mixer anode (the IF input) and read at 400 Hz,
 // where what reaches the grid also reaches the cathode through the supply
-// and detector returns: another measurement, not a missing part.
+// and detector returns: another measurement, not a missing part
+// (docs/references.md §45).
 func TestFirstAudioRowAtItsFrequency(t *testing.T) {
 	_, g := build(t, "../../../testdata/review20/a03.toml")
 	found := false

@@ -31,7 +31,7 @@ import (
 // 1.5029 MHz (271.3 there, Q3 as its rπ and ro) and 1.5019 MHz (255.2).
 // pare's own exported deck at that gang gives 277.5 and 252.8 at the same
 // peaks, within 2.3 % (the transistors' rπ and ro from pare's bias). Not
-// a modelling difference: no change to the solve.
+// a modelling difference: no change to the solve (docs/references.md §45).
 func TestGainAtIFBesideThePeak(t *testing.T) {
 	res, err := Run(Options{Path: filepath.Join("..", "..", "..", "testdata", "review20", "b05.toml"), Level: rules.LevelSignal})
 	if err != nil {
