@@ -236,7 +236,7 @@ func collect(c *graph.Circuit) *evidence {
 		}
 	}
 	for _, p := range c.Parts {
-		partEvidence(ev, p, supply)
+		partEvidence(ev, c, p, supply)
 	}
 	for _, t := range []struct{ what, text string }{{"the title", c.Title}, {"the netlist's note", c.Note}} {
 		// "The 18 V rail comes from a mains transformer and bridge in the
@@ -251,6 +251,25 @@ func collect(c *graph.Circuit) *evidence {
 	ev.chain = append(ev.chain, seriesHeaters(c)...)
 	ev.hotHeaters = hotHeaterWindings(c, ev.hot)
 	return ev
+}
+
+// fedByMainsWinding says whether a valve diode's anodes hang on a winding
+// of a transformer that declares its mains frequency: a rectifier, whether
+// or not the netlist declares the HT its cathode charges (review21 a04's
+// directly heated rectifier, its reservoir an estimated rail, lost the
+// caution that its filament winding sits at the full HT).
+func fedByMainsWinding(c *graph.Circuit, p *graph.Part) bool {
+	for _, pin := range p.Pins {
+		if pin.Name != "a" && pin.Name != "a1" && pin.Name != "a2" {
+			continue
+		}
+		for _, cn := range c.ConnsOf(pin.Net) {
+			if _, mains := cn.Part.Params["hz"]; mains && cn.Part.Kind == graph.Transformer {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // hotHeaterWindings finds the transformer windings that feed a valve's
@@ -276,7 +295,11 @@ func hotHeaterWindings(c *graph.Circuit, hot map[string]bool) []string {
 			if on == "" {
 				continue
 			}
-			if v := heatedBy(c, ends); v != "" {
+			if v := heatedBy(c, ends[:1]); v != "" && v == heatedBy(c, ends[1:]) {
+				// a heater across the winding: one valve's heater pins on
+				// both its ends (an output transformer's primary on the HT
+				// a directly heated rectifier's filament also sits on is
+				// no heater winding)
 				out = append(out, fmt.Sprintf("%s winding %s, %s's heater, on %s", p.Ref, w.Name, v, on))
 			}
 		}
@@ -358,7 +381,7 @@ func railEvidence(ev *evidence, n *graph.Net) {
 }
 
 // partEvidence looks at one part: valves, rectifiers, mains transformers.
-func partEvidence(ev *evidence, p *graph.Part, supply map[string]bool) {
+func partEvidence(ev *evidence, c *graph.Circuit, p *graph.Part, supply map[string]bool) {
 	onMains := false
 	for _, pin := range p.Pins {
 		onMains = onMains || ev.mainsNets[pin.Net]
@@ -368,7 +391,7 @@ func partEvidence(ev *evidence, p *graph.Part, supply map[string]bool) {
 		ev.valves = append(ev.valves, p.Ref)
 		// A valve diode with its cathode on a supply rail charges the
 		// reservoir: a rectifier. One on a signal net is a detector.
-		if (p.Type == "diode" || p.Type == "double-diode") && supply[p.NetOf("k")] {
+		if (p.Type == "diode" || p.Type == "double-diode") && (supply[p.NetOf("k")] || fedByMainsWinding(c, p)) {
 			ev.rectifiers = append(ev.rectifiers, p.Ref)
 			ev.hot[p.NetOf("k")] = true // the HT it charges, declared or estimated
 			if onMains {
