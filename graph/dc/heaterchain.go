@@ -3,7 +3,9 @@ package dc
 import (
 	"fmt"
 	"math"
+	"regexp"
 	"slices"
+	"strconv"
 
 	"pare/graph"
 )
@@ -42,8 +44,52 @@ func (p *Point) heaterChainHeat(part *graph.Part) (w float64, note string, ok bo
 	if ih == 0 {
 		return 0, fmt.Sprintf("in the heater chain of %s (AC from the mains, outside the DC solve): give the valves' heater current ih for its dissipation", refs(valves)), true
 	}
+	if across, r, known := p.shunted(part); across != "" {
+		// a shunt across a part of the chain (a dial lamp's): the chain's
+		// current divides between the two by their resistances
+		if !known {
+			return 0, fmt.Sprintf("across %s in the heater chain of %s: its share of the chain's %.3g A is not known (give %s's resistance, or its rating as volts and amps)", across, refs(valves), ih, across), true
+		}
+		i := ih * r / (r + part.Value.Max)
+		return i * i * part.Value.Max, fmt.Sprintf("AC: its share %.3g A RMS of the heater chain's %.3g A (ih of %s), across %s (%.3g Ω hot), squared times R", i, ih, from, across, r), true
+	}
 	return ih * ih * part.Value.Max, fmt.Sprintf("AC: heater chain current %.3g A RMS (ih of %s) squared times R", ih, from), true
 }
+
+// shunted names the part wired across resistor part (both its nets), if
+// one is, with that part's resistance when known: a resistor's value, or a
+// lamp's hot resistance from a rating in its label ("6.3 V 0.15 A": R =
+// V/I, Ohm's law at its rated current, which the chain runs it near).
+func (p *Point) shunted(part *graph.Part) (ref string, r float64, known bool) {
+	if len(part.Pins) != 2 {
+		return "", 0, false
+	}
+	a, b := part.Pins[0].Net, part.Pins[1].Net
+	for _, cn := range p.Circuit.ConnsOf(a) {
+		q := cn.Part
+		if q == part || len(q.Pins) != 2 || q.Kind == graph.Capacitor || q.Kind == graph.Valve {
+			continue
+		}
+		if !(q.Pins[0].Net == a && q.Pins[1].Net == b || q.Pins[0].Net == b && q.Pins[1].Net == a) {
+			continue
+		}
+		if q.Kind == graph.Resistor {
+			return q.Ref, q.Value.Max, q.Value.Max > 0
+		}
+		if m := lampRating.FindStringSubmatch(q.Label); m != nil {
+			v, _ := strconv.ParseFloat(m[1], 64)
+			i, _ := strconv.ParseFloat(m[2], 64)
+			if v > 0 && i > 0 {
+				return q.Ref, v / i, true
+			}
+		}
+		return q.Ref, 0, false
+	}
+	return "", 0, false
+}
+
+// lampRating reads a lamp's rating from its label: "6.3 V 0.15 A".
+var lampRating = regexp.MustCompile(`(\d+(?:\.\d+)?)\s*V\b[^0-9]*?(\d+(?:\.\d+)?)\s*A\b`)
 
 // chainValves are the valves whose heaters lie in series with the
 // resistor: from each of its ends on a net that holds exactly one valve's
