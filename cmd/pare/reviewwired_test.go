@@ -20,7 +20,7 @@ import (
 // fixtures TestFixtureSheetsCheck walks, so nothing checked them.
 func TestReviewSheetsWired(t *testing.T) {
 	var files []string
-	for _, dir := range []string{"review15", "review16", "review17", "review18", "review19", "review20"} {
+	for _, dir := range []string{"review15", "review16", "review17", "review18", "review19", "review20", "review21"} {
 		more, err := filepath.Glob(filepath.Join("../../testdata", dir, "*.toml"))
 		if err != nil || len(more) == 0 {
 			t.Fatalf("no review circuits in %s: %v", dir, err)
