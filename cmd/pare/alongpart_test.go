@@ -29,7 +29,12 @@ import (
 // step apart stopped being drawn over each other (cell.go): earth, rail
 // and flag symbols on another net 18 → 14, near one 364 → 348, one wire
 // re-routed beside its own part.
-const alongPartCeiling = 120
+// 123 (+3: wires beside C6/C8 on the club receiver's and review13/17
+// a02's faded pages) with the router's undot pass re-wiring a net beside a junction dot from its far end as well (render/layout/undot.go, farFirst): a
+// deliberate trade for crossings near a pin 90 → 70, near a dot 20 → 12
+// (pages 69 → 54), wires beside another net's 808 → 800, wire boxes
+// 301 → 297.
+const alongPartCeiling = 123
 
 // commonLeadCeiling is how many crossings, on the same pages, lie on the
 // run of wire leaving a device's emitter, source or cathode (render/check's

@@ -59,7 +59,7 @@ import (
 // sense puts the collector end at the bottom), while each of the five
 // mixer sheets (review13-16 and 18 b05, the front-end example) lost its
 // loops round the frame (mixer-*.png compared before and after).
-var connWireCeiling = struct{ crossings, loops, nearPins int }{15, 92, 106} // near pins 108 -> 106 with rail tags beside their bars kept a grid line clear; loops 108 -> 107 with a can kept on the row of the stage it feeds (render/cancuts.go); 101 and near pins 104 with flags' lines kept clear; loops 93, near pins 108 (+4) once a valve's two leads cost three crossings to cross on the full and faded sheets (render/layout/siblings.go): the anode leads leave their valves untangled, a few runs now pass a pin on the way
+var connWireCeiling = struct{ crossings, loops, nearPins int }{15, 92, 96} // near pins 106 -> 96 with the router's undot pass re-wiring a net beside a junction dot from its far end as well (render/layout/undot.go, farFirst); near pins 108 -> 106 with rail tags beside their bars kept a grid line clear; loops 108 -> 107 with a can kept on the row of the stage it feeds (render/cancuts.go); 101 and near pins 104 with flags' lines kept clear; loops 93, near pins 108 (+4) once a valve's two leads cost three crossings to cross on the full and faded sheets (render/layout/siblings.go): the anode leads leave their valves untangled, a few runs now pass a pin on the way
 
 // TestConnectorWiresStraight: a net going on to another row ends in one
 // connector at the edge reached by a short run; the runs of two

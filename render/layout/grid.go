@@ -130,6 +130,7 @@ type router struct {
 	wide         bool     // search wide windows first (while removing crossings)
 	strict       bool     // price in-line ends above a crossing (while clearing them, unline.go)
 	shy          bool     // price a crossing beside a junction or a lead high (while clearing them, undot.go)
+	farFirst     bool     // grow a net's tree from its last pin in reading order (undot.go's second try)
 	along        bool     // price a run beside a part of the net's own (while clearing them, alongpart.go)
 	pops         int      // states taken off the queue so far: the work budget
 	alongAt      []int32  // per point, 1 + its index in alongSets, or 0 (alongpart.go)

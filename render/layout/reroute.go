@@ -287,6 +287,9 @@ func (rt *router) routeNet(id int) bool {
 	pins := append([]wirePin(nil), nr.pins...)
 	sort.SliceStable(pins, func(a, b int) bool {
 		pa, pb := pins[a].pin.At, pins[b].pin.At
+		if rt.farFirst {
+			pa, pb = pb, pa
+		}
 		if pa.X != pb.X {
 			return pa.X < pb.X
 		}

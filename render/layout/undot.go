@@ -259,25 +259,58 @@ func (rt *router) foreignTipBeside(c int, net int32) bool {
 // undotNet wires net id again with crossings beside junctions and leads
 // priced high, and keeps the new wiring when it has fewer of them and no
 // more of anything else reading weighs, nor the sheet more ends in line.
+// The tree is grown first from the net's first pin in reading order, then,
+// when that keeps the crossing, from its last: the search prices a crossing
+// beside a junction already drawn, never one its own branch makes, so a
+// net whose first two pins straddle another net's pin (a heptode's screen
+// grids round the signal grid) links them tightly round that grid's lead
+// and the rest of the net joins at the link's corner, a step from the
+// crossing; grown from the far end, the tree reaches the two pins from
+// outside and the join need not stand by the crossing.
 func (rt *router) undotNet(id int) bool {
-	was, ends, knots := rt.readingOf(id), rt.inLineEnds(), 0
+	was, ends, far, knots := rt.readingOf(id), rt.inLineEnds(), rt.farInLineEnds(), 0
+	runs, sibs := 0, rt.siblingCrossingsOf(id)
+	if rt.alongAt != nil {
+		runs = rt.alongRuns(id)
+	}
 	conn := rt.ledToConnector(id)
 	if conn {
 		knots = rt.connectorKnots()
 	}
 	s := rt.save(id)
-	rt.ripUp(id)
-	rt.shy = true
-	ok := rt.routeNet(id)
-	rt.shy = false
-	if ok {
-		now := rt.readingOf(id)
-		if now.shy < was.shy && now.crossed <= was.crossed && now.beside <= was.beside && now.tips <= was.tips &&
-			now.strays <= was.strays && now.framed <= was.framed && rt.inLineEnds() <= ends && (!conn || rt.connectorKnots() <= knots) {
-			return true
+	for _, fromFar := range [2]bool{false, true} {
+		rt.ripUp(id)
+		rt.shy, rt.farFirst = true, fromFar
+		ok := rt.routeNet(id)
+		rt.shy, rt.farFirst = false, false
+		if ok {
+			now := rt.readingOf(id)
+			// nor may the new wiring run beside a part of its own (a
+			// strap across it), end in line with another net's wire,
+			// or cross another lead of its own valve more than the old:
+			// a detour round a crossing, grown from the far end, tends to
+			if now.shy < was.shy && now.crossed <= was.crossed && now.beside <= was.beside && now.tips <= was.tips &&
+				now.strays <= was.strays && now.framed <= was.framed && rt.inLineEnds() <= ends && (!conn || rt.connectorKnots() <= knots) &&
+				(rt.alongAt == nil || rt.alongRuns(id) <= runs) && moreLines(rt.farInLineEnds(), far) == 0 &&
+				rt.siblingCrossingsOf(id) <= sibs {
+				return true
+			}
 		}
 	}
 	rt.ripUp(id)
 	rt.restore(id, s)
 	return false
+}
+
+// siblingCrossingsOf counts net id's crossings with another lead of one of
+// its valves (siblings.go): the anode lead over its own screen feed or
+// cathode lead reads as a tangle round the valve.
+func (rt *router) siblingCrossingsOf(id int) int {
+	n := 0
+	for _, c := range rt.nets[id].cells {
+		if o := rt.g[c].own; o[1] != 0 && rt.siblings(o[0], o[1]) {
+			n++
+		}
+	}
+	return n
 }
