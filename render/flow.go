@@ -38,6 +38,9 @@ type flow struct {
 	// were chosen with their pages (balance); nil: rows stack on a page
 	// while they fit
 	starts map[int]bool
+	// beside are the rows, by index, that stand right of the row before
+	// on its page where the rows were chosen with their pages (band)
+	beside map[int]bool
 	gap    float64 // between rows on a page, rowGap when 0 (balance)
 	// the feedback loops and connector nets a row break is judged by
 	// (rowcuts.go), found when first asked for

@@ -2,6 +2,7 @@ package render
 
 import (
 	"pare/graph"
+	"pare/render/geom"
 	"pare/render/layout"
 )
 
@@ -32,6 +33,7 @@ type plan struct {
 	cans               int   // row breaks between a can and the stage it feeds (flow.cansCut)
 	ends               []int // where each row ends
 	starts             []int // the rows, by index, that open a page
+	beside             []int // the rows, by index, that stand right of the row before (band)
 	ok                 bool
 }
 
@@ -110,11 +112,13 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 	}
 	lo := start(ends, w)
 	greedy := f.greedyPlan(ends, laid, w, n, cw, avail, rowGap)
-	if m-lo > balanceMost || greedy.splits == 0 && !f.worthSearch(greedy, laid[w:n], lo, m) {
+	stacked, sides := f.worthSearch(greedy, laid[w:n], lo, m)
+	stacked = stacked || greedy.splits > 0
+	if m-lo > balanceMost || !stacked && !sides {
 		closer(all.pages)
 		return ends, laid, nil, nil
 	}
-	best, err := f.search(greedy, lo, m, cw, avail)
+	best, err := f.search(greedy, lo, m, cw, avail, stacked)
 	if err != nil {
 		return ends, laid, nil, err
 	}
@@ -146,26 +150,40 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 			starts[w+r] = true
 		}
 	}
+	f.beside = map[int]bool{}
+	for _, r := range best.beside {
+		f.beside[w+r] = true
+	}
 	return nends, out, starts, nil
 }
 
 // search is the best plan of the stretches [lo, m) that beats greedy's:
 // with the rows rowGap apart, one with fewer pages or a fuller emptiest
-// page; with them tightGap apart, only one with fewer pages. It sets the
-// flow's gap to the plan's.
-func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
+// page; with them tightGap apart, only one with fewer pages; and only
+// then, with rows side by side (band), one with fewer pages: a fuller
+// emptiest page bought by rows side by side emptied the page before it
+// (the example IF strip's detector row went over to the volume control's
+// page). Stacked rows are tried only where worthSearch says so. It sets
+// the flow's gap to the plan's.
+func (f *flow) search(greedy plan, lo, m int, cw, avail float64, stacked bool) (plan, error) {
 	rows := map[[2]int]rowFit{}
-	for _, gap := range []float64{rowGap, tightGap} {
-		s := &search{f: f, lo: lo, m: m, cw: cw, avail: avail, gap: gap, rows: rows}
-		p, err := s.best()
-		if err != nil {
-			return plan{}, err
+	for _, sides := range []bool{false, true} {
+		if !sides && !stacked {
+			continue
 		}
-		same := p.pages == greedy.pages && p.splits == greedy.splits
-		if p.ok && (p.pages < greedy.pages || p.pages == greedy.pages && p.splits < greedy.splits ||
-			gap == rowGap && same && (p.cans < greedy.cans || p.cans == greedy.cans && p.least > greedy.least)) {
-			f.gap = gap
-			return p, nil
+		for _, gap := range []float64{rowGap, tightGap} {
+			s := &search{f: f, lo: lo, m: m, cw: cw, avail: avail, gap: gap, rows: rows, sides: sides}
+			p, err := s.best()
+			if err != nil {
+				return plan{}, err
+			}
+			same := p.pages == greedy.pages && p.splits == greedy.splits
+			fewer := p.pages < greedy.pages && p.splits <= greedy.splits
+			if p.ok && (fewer || !sides && (p.pages < greedy.pages || p.pages == greedy.pages && p.splits < greedy.splits ||
+				gap == rowGap && same && (p.cans < greedy.cans || p.cans == greedy.cans && p.least > greedy.least))) {
+				f.gap = gap
+				return p, nil
+			}
 		}
 	}
 	return plan{}, nil
@@ -175,23 +193,28 @@ func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
 // them, gap apart; its starts count rows from w.
 func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail, gap float64) plan {
 	p := plan{ok: true, least: -1}
-	used, parts := 0.0, 0
+	var pg *band
+	parts := 0
 	for i := w; i < n; i++ {
 		b := laid[i].Geom.Bounds
 		big := b.W() > cw || b.H() > avail
-		if p.pages == 0 || used+b.H() > avail || big || used < 0 {
+		pt, ok := geom.Pt{}, false
+		if pg != nil && !big {
+			pt, ok = pg.at(b, false)
+		}
+		if !ok {
 			if p.pages > 0 {
 				p.least = leastOf(p.least, parts)
 				if f.chainBreak(start(ends, i)) {
 					p.splits++
 				}
 			}
-			p.pages, used, parts = p.pages+1, 0, 0
+			p.pages, pg, parts = p.pages+1, newBand(cw, avail, gap), 0
 			p.starts = append(p.starts, p.rows)
 		}
-		used += b.H() + gap
+		pg.put(b, pt)
 		if big {
-			used = -1 // a page of its own
+			pg.alone() // a page of its own
 		}
 		parts += f.partsIn(start(ends, i), ends[i])
 		p.rows++
@@ -204,19 +227,21 @@ func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail
 }
 
 // worthSearch says whether the greedy plan may be beaten, so the rows it
-// never tried are worth laying out: its rows' heights stacked would go on
-// a page fewer, or its emptiest page holds less than a third of the parts
-// a page holds on average (a volume control and a coupling capacitor
-// after a page of IF stages).
-func (f *flow) worthSearch(p plan, laid []*layout.Result, lo, m int) bool {
-	h := -tightGap
+// never tried are worth laying out: stacked, where its rows' heights
+// stacked would go on a page fewer, or its emptiest page holds less than a
+// third of the parts a page holds on average (a volume control and a
+// coupling capacitor after a page of IF stages); side by side (band),
+// where its rows' areas would go on a page fewer. Only the first may buy a
+// fuller emptiest page (search).
+func (f *flow) worthSearch(p plan, laid []*layout.Result, lo, m int) (stacked, sides bool) {
+	h, area := -tightGap, 0.0
 	for _, r := range laid {
-		h += r.Geom.Bounds.H() + tightGap
+		b := r.Geom.Bounds
+		h += b.H() + tightGap
+		area += b.W() * b.H()
 	}
-	if h <= float64(p.pages-1)*f.ch {
-		return true
-	}
-	return 3*p.least*p.pages < f.partsIn(lo, m)
+	sides = area <= float64(p.pages-1)*f.ch*f.cw
+	return h <= float64(p.pages-1)*f.ch || 3*p.least*p.pages < f.partsIn(lo, m), sides
 }
 
 // chainBreak says whether a page opening at stretch c parts two pieces of
@@ -246,162 +271,4 @@ func (f *flow) partsIn(a, b int) int {
 		}
 	}
 	return n
-}
-
-// rowFit is a row tried by the search: its height, whether it goes on a
-// page beside others (fits), and whether it may be drawn at all (a row of
-// several stretches must fit the page; a lone stretch too big for it has
-// a page of its own).
-type rowFit struct {
-	h          float64
-	ok, shares bool
-}
-
-// search is the choice of rows and pages for the stretches [0, m).
-type search struct {
-	f              *flow
-	lo, m          int     // the stretches [lo, m)
-	cw, avail, gap float64 // gap: between rows on a page
-	rows           map[[2]int]rowFit
-}
-
-// cutAt says whether a row may start at stretch c: never at a port, which
-// stays with the stretch before it.
-func (s *search) cutAt(c int) bool { return c == s.lo || c == s.m || !s.f.bs[c].port }
-
-// row lays out (or recalls) the row [a, b) and says how it fits.
-func (s *search) row(a, b int) (rowFit, error) {
-	k := [2]int{a, b}
-	if r, ok := s.rows[k]; ok {
-		return r, nil
-	}
-	var fit rowFit
-	if mixes(s.f.bs[a:b]) {
-		s.rows[k] = fit // a supply filter never shares a signal stage's row
-		return fit, nil
-	}
-	if b-a == 1 || span(s.f.bs[a:b]) <= s.cw && !s.f.tooBig(a, b, s.cw, s.avail) {
-		r, err := s.f.layout(a, b)
-		if err != nil {
-			return fit, err
-		}
-		fit = rowFit{h: r.Geom.Bounds.H(), shares: fits(r, s.cw, s.avail)}
-		fit.ok = fit.shares || b-a == 1
-	}
-	s.rows[k] = fit
-	return fit, nil
-}
-
-// page is the best way to stack the stretches [a, b) as rows on one page:
-// the rows' ends and the fewest rows of least height, ok false when they
-// do not go on one page.
-func (s *search) page(a, b int, memo map[[2]int]stack) (stack, error) {
-	k := [2]int{a, b}
-	if st, ok := memo[k]; ok {
-		return st, nil
-	}
-	best := stack{}
-	for c := a + 1; c <= b; c++ {
-		if !s.cutAt(c) {
-			continue
-		}
-		if c > a+1 && span(s.f.bs[a:c]) > s.cw {
-			break
-		}
-		r, err := s.row(a, c)
-		if err != nil {
-			return best, err
-		}
-		if !r.ok {
-			continue
-		}
-		st := stack{ok: true, h: r.h, ends: []int{c}}
-		if !r.shares {
-			st.alone = true // a page of its own: nothing after it on the page
-		}
-		if c < b {
-			if st.alone {
-				continue
-			}
-			rest, err := s.page(c, b, memo)
-			if err != nil {
-				return best, err
-			}
-			if !rest.ok || rest.alone {
-				continue
-			}
-			st.h += s.gap + rest.h
-			st.ends = append(st.ends, rest.ends...)
-		}
-		if !st.alone && st.h > s.avail {
-			continue
-		}
-		if st.before(best) {
-			best = st
-		}
-	}
-	memo[k] = best
-	return best, nil
-}
-
-// stack is the rows of one page.
-type stack struct {
-	ok, alone bool
-	h         float64
-	ends      []int
-}
-
-// before says whether stack p beats q: fewer rows, then less height.
-func (p stack) before(q stack) bool {
-	switch {
-	case !q.ok:
-		return p.ok
-	case !p.ok:
-		return false
-	case len(p.ends) != len(q.ends):
-		return len(p.ends) < len(q.ends)
-	}
-	return p.h < q.h
-}
-
-// best is the best plan for the stretches [lo, m): pages in turn, each
-// the best stack of its stretches (page).
-func (s *search) best() (plan, error) {
-	memo := map[[2]int]stack{}
-	at := make([]plan, s.m+1) // at[b]: the best plan of [lo, b) with a page ending at b
-	at[s.lo] = plan{ok: true, least: -1}
-	for b := s.lo + 1; b <= s.m; b++ {
-		if !s.cutAt(b) {
-			continue
-		}
-		for a := s.lo; a < b; a++ {
-			if !at[a].ok || !s.cutAt(a) {
-				continue
-			}
-			st, err := s.page(a, b, memo)
-			if err != nil {
-				return plan{}, err
-			}
-			if !st.ok {
-				continue
-			}
-			p := plan{ok: true, pages: at[a].pages + 1, least: leastOf(at[a].least, s.f.partsIn(a, b)),
-				splits: at[a].splits, cans: at[a].cans,
-				rows:   at[a].rows + len(st.ends),
-				ends:   append(append([]int{}, at[a].ends...), st.ends...),
-				starts: append(append([]int{}, at[a].starts...), at[a].rows)}
-			if a > s.lo && s.f.chainBreak(a) {
-				p.splits++
-			}
-			for _, e := range st.ends {
-				if e < s.m {
-					p.cans += s.f.cansCut(e)
-				}
-			}
-			if p.better(at[b]) {
-				at[b] = p
-			}
-		}
-	}
-	return at[s.m], nil
 }

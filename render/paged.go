@@ -87,7 +87,7 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	avail := ch - 1 - cfg.footReserve(s)
 	loose := looseRow(f.bs, ends)
 	var pages []*layout.Result
-	var ys []float64        // where the next row goes on each page; +Inf on a page kept alone
+	var bands []*band       // each page's rows so far (band)
 	var stood [][]geom.Rect // where each page's rows stand
 	for i, r := range laid {
 		if i == loose {
@@ -97,24 +97,34 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 		// a row too big for the page (a stage never cut) has a page of
 		// its own, drawn smaller: the rows beside it keep the paper's scale
 		big := b.W() > cw || b.H() > avail
-		if n := len(ys); n > 0 && !big && !f.starts[i] && ys[n-1]+b.H() > avail && !mixes(f.bs[start(ends, i):ends[i]]) && f.bs[start(ends, i)].apart {
+		if n := len(bands); n > 0 && !big && !f.starts[i] && bands[n-1].y+b.H() > avail && !mixes(f.bs[start(ends, i):ends[i]]) && f.bs[start(ends, i)].apart {
 			if at, ok := atMargin(stood[n-1], b, cw, avail); ok {
 				pages[n-1].Add(r.Moved(geom.Pt{X: at.X0 - b.X0, Y: at.Y0 - b.Y0}))
 				stood[n-1] = append(stood[n-1], at)
-				ys[n-1] = max(ys[n-1], at.Y1+f.rowGap())
+				bands[n-1].y = max(bands[n-1].y, at.Y1+f.rowGap())
 				continue
 			}
 		}
-		if n := len(ys); n == 0 || ys[n-1]+b.H() > avail || big || f.starts[i] {
-			pages, ys, stood = append(pages, &layout.Result{}), append(ys, 0), append(stood, nil)
+		var pt geom.Pt
+		ok := false
+		if n := len(bands); n > 0 && !big && !f.starts[i] {
+			pt, ok = bands[n-1].at(b, f.beside[i])
 		}
-		n := len(ys) - 1
-		pages[n].Add(r.Moved(geom.Pt{X: -b.X0, Y: ys[n] - b.Y0}))
-		stood[n] = append(stood[n], geom.R(0, ys[n], b.W(), ys[n]+b.H()))
-		ys[n] += b.H() + f.rowGap()
+		if !ok {
+			pages, bands, stood = append(pages, &layout.Result{}), append(bands, newBand(cw, avail, f.rowGap())), append(stood, nil)
+			pt = geom.Pt{}
+		}
+		n := len(bands) - 1
+		pages[n].Add(r.Moved(geom.Pt{X: pt.X - b.X0, Y: pt.Y - b.Y0}))
+		stood[n] = append(stood[n], geom.R(pt.X, pt.Y, pt.X+b.W(), pt.Y+b.H()))
+		bands[n].put(b, pt)
 		if big {
-			ys[n] = math.Inf(1)
+			bands[n].alone()
 		}
+	}
+	ys := make([]float64, len(bands))
+	for k, bd := range bands {
+		ys[k] = bd.y
 	}
 	if loose >= 0 {
 		pages = stackLoose(pages, ys, laid[loose], cw, avail)

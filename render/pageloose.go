@@ -145,7 +145,7 @@ func (cfg Config) hostLoose(f *flow, ends []int, laid []*layout.Result, cw, ch f
 			k--
 		}
 		g := newFlow(cfg, f.s, bs, f.rows)
-		g.starts, g.gap = f.starts, f.gap // the loose row was the last: the rows before keep their index
+		g.starts, g.beside, g.gap = f.starts, f.beside, f.gap // the loose row was the last: the rows before keep their index
 		r, err := g.layout(start(nends, k), nends[k])
 		if err != nil {
 			return nil, nil, nil, err
