@@ -112,13 +112,11 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 	}
 	lo := start(ends, w)
 	greedy := f.greedyPlan(ends, laid, w, n, cw, avail, rowGap)
-	stacked, sides := f.worthSearch(greedy, laid[w:n], lo, m)
-	stacked = stacked || greedy.splits > 0
-	if m-lo > balanceMost || !stacked && !sides {
+	if m-lo > balanceMost || greedy.splits == 0 && !f.worthSearch(greedy, laid[w:n], lo, m) {
 		closer(all.pages)
 		return ends, laid, nil, nil
 	}
-	best, err := f.search(greedy, lo, m, cw, avail, stacked)
+	best, err := f.search(greedy, lo, m, cw, avail)
 	if err != nil {
 		return ends, laid, nil, err
 	}
@@ -163,14 +161,10 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 // then, with rows side by side (band), one with fewer pages: a fuller
 // emptiest page bought by rows side by side emptied the page before it
 // (the example IF strip's detector row went over to the volume control's
-// page). Stacked rows are tried only where worthSearch says so. It sets
-// the flow's gap to the plan's.
-func (f *flow) search(greedy plan, lo, m int, cw, avail float64, stacked bool) (plan, error) {
+// page). It sets the flow's gap to the plan's.
+func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
 	rows := map[[2]int]rowFit{}
 	for _, sides := range []bool{false, true} {
-		if !sides && !stacked {
-			continue
-		}
 		for _, gap := range []float64{rowGap, tightGap} {
 			s := &search{f: f, lo: lo, m: m, cw: cw, avail: avail, gap: gap, rows: rows, sides: sides}
 			p, err := s.best()
@@ -227,21 +221,22 @@ func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail
 }
 
 // worthSearch says whether the greedy plan may be beaten, so the rows it
-// never tried are worth laying out: stacked, where its rows' heights
-// stacked would go on a page fewer, or its emptiest page holds less than a
-// third of the parts a page holds on average (a volume control and a
-// coupling capacitor after a page of IF stages); side by side (band),
-// where its rows' areas would go on a page fewer. Only the first may buy a
-// fuller emptiest page (search).
-func (f *flow) worthSearch(p plan, laid []*layout.Result, lo, m int) (stacked, sides bool) {
-	h, area := -tightGap, 0.0
+// never tried are worth laying out: its rows' heights stacked would go on
+// a page fewer, or its emptiest page holds less than a third of the parts
+// a page holds on average (a volume control and a coupling capacitor
+// after a page of IF stages). Rows side by side are tried only then: the
+// search lays out rows the greedy flow never did, and a chain of stages
+// whose rows' areas would go on a page fewer but never pair had every
+// row laid out again for nothing.
+func (f *flow) worthSearch(p plan, laid []*layout.Result, lo, m int) bool {
+	h := -tightGap
 	for _, r := range laid {
-		b := r.Geom.Bounds
-		h += b.H() + tightGap
-		area += b.W() * b.H()
+		h += r.Geom.Bounds.H() + tightGap
 	}
-	sides = area <= float64(p.pages-1)*f.ch*f.cw
-	return h <= float64(p.pages-1)*f.ch || 3*p.least*p.pages < f.partsIn(lo, m), sides
+	if h <= float64(p.pages-1)*f.ch {
+		return true
+	}
+	return 3*p.least*p.pages < f.partsIn(lo, m)
 }
 
 // chainBreak says whether a page opening at stretch c parts two pieces of
