@@ -154,7 +154,14 @@ func (cfg Config) hostLoose(f *flow, ends []int, laid []*layout.Result, cw, ch f
 			continue
 		}
 		out := append(append([]*layout.Result{}, laid[:row]...), laid[row+1:]...)
+		was := g.pagesOf(out, cw, ch)
 		out[k] = r
+		// a host made taller may no longer share its page as the rows
+		// were planned (balance: review19 b02's faded rows two grid steps
+		// apart on two pages took three once a row held the loose parts)
+		if g.pagesOf(out, cw, ch) > was {
+			continue
+		}
 		return g, nends, out, nil
 	}
 	return f, ends, laid, nil
@@ -197,4 +204,28 @@ func acrossBlock(c *graph.Circuit, p *graph.Part, blockOf map[string]int) (int, 
 		}
 	}
 	return at, at >= 0
+}
+
+// pagesOf is the number of pages pageResults stacks the rows laid on
+// (a supply row at a page's margin aside), as the flow's plan has them,
+// on a page of cw by avail (less the foot).
+func (f *flow) pagesOf(laid []*layout.Result, cw, avail float64) int {
+	var pg *band
+	n := 0
+	for i, r := range laid {
+		b := r.Geom.Bounds
+		big := b.W() > cw || b.H() > avail
+		pt, ok := geom.Pt{}, false
+		if pg != nil && !big && !f.starts[i] {
+			pt, ok = pg.at(b, f.beside[i])
+		}
+		if !ok {
+			pg, n = newBand(cw, avail, f.rowGap()), n+1
+		}
+		pg.put(b, pt)
+		if big {
+			pg.alone()
+		}
+	}
+	return n
 }
