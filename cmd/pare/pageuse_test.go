@@ -16,8 +16,10 @@ import (
 // lowered as the flow fills pages, never raised. Measured 174 of 312 when
 // the count was added, 166 of 305 once the flow's own rows went two grid
 // steps apart where that saves a page (render/pagebalance.go, balance);
-// 165 with the long-tailed pair in one frame (review20 a04).
-var emptyPagesCeiling = 165
+// 165 with the long-tailed pair in one frame (review20 a04);
+// 164 once the loose parts ride on a row only where it keeps the
+// planned pages (render/pageloose.go: review19 b05's faded view).
+var emptyPagesCeiling = 164
 
 // emptyPageShare is the share of a page's printable area under which the
 // review called a page of a view of several pages "mostly empty" (review20

@@ -40,3 +40,28 @@ func TestRowsSideBySide(t *testing.T) {
 		}
 	}
 }
+
+// TestLooseKeepPlannedPages: the loose parts (heater and AGC bypasses wired
+// to no stage) ride on a row only where that row still shares its page as
+// planned; review19 b02's faded view, rows planned two grid steps apart on
+// two A3 pages, took three once its first row grew with them (measured
+// before the change).
+func TestLooseKeepPlannedPages(t *testing.T) {
+	cases := []struct {
+		file         string
+		view         render.View
+		before, want int
+	}{
+		{"review19/b02.toml", render.Faded, 3, 2},
+	}
+	for _, tc := range cases {
+		f := filepath.Join("../../testdata", tc.file)
+		pages, err := cachedPages(f, tc.view, "A3")
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(pages) != tc.want {
+			t.Errorf("%s %s on A3: %d pages, want %d (%d before)", tc.file, tc.view, len(pages), tc.want, tc.before)
+		}
+	}
+}
