@@ -19,7 +19,7 @@ import (
 // where they do (render/pagebalance.go, balance: review16 a03 reduced and
 // review18 a05 faded on one page, review19 b03 faded on two); 311 once
 // the loose parts ride on a row only where it keeps the planned pages
-// (render/pageloose.go: review19 b02 faded on two pages, not three).
+// (render/pageloose.go: review19 b05 faded on five pages, not six).
 var pageCountCeiling = struct{ pages, cans int }{311, 16}
 
 // TestPagesAndCanCuts: a service sheet prints a small set on as few pages
