@@ -164,3 +164,52 @@ func (ly *state) flippedBelow(slots []*slotted) bool {
 	}
 	return false
 }
+
+// leadRooms are, per block of a placement, the ways out its wired leads
+// need (corridor): the room a wire takes to leave a pin.
+type leadRooms struct {
+	all   []*block
+	rooms [][]geom.Rect
+}
+
+// leadRoom is every block's leadRooms, by its index in all.
+func (ly *state) leadRoom(all []*block) leadRooms {
+	lr := leadRooms{all: all, rooms: make([][]geom.Rect, len(all))}
+	for i, b := range all {
+		for _, cells := range [2][]*cell{b.cells, b.chain} {
+			for _, cl := range cells {
+				for _, p := range cl.shape.Pins {
+					if p.Net != notConnected && p.Net != "" && !ly.c.RoleOf(p.Net).IsACGround() {
+						lr.rooms[i] = append(lr.rooms[i], corridor(p))
+					}
+				}
+			}
+		}
+	}
+	return lr
+}
+
+// meet says whether block all[j] moved by d (its footprint then at) and
+// block all[i] close each other's leads: a lead's way out of either runs
+// into the other's footprint.
+func (lr leadRooms) meet(i, j int, d geom.Pt, at geom.Rect) bool {
+	for _, r := range lr.rooms[i] {
+		if r.Overlaps(at) {
+			return true
+		}
+	}
+	o := lr.all[i].fp
+	for _, r := range lr.rooms[j] {
+		if r.Move(d).Overlaps(o) {
+			return true
+		}
+	}
+	return false
+}
+
+// move keeps block all[j]'s leads' room with it when it moves by d.
+func (lr leadRooms) move(j int, d geom.Pt) {
+	for k := range lr.rooms[j] {
+		lr.rooms[j][k] = lr.rooms[j][k].Move(d)
+	}
+}
