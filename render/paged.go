@@ -8,6 +8,7 @@ import (
 
 	svg "github.com/ajstarks/svgo/float"
 
+	"pare/graph"
 	"pare/render/geom"
 	"pare/render/layout"
 )
@@ -174,7 +175,8 @@ func stackLoose(pages []*layout.Result, ys []float64, r *layout.Result, cw, avai
 func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 	cw, ch := cfg.Page.content()
 	ch -= 1 + cfg.footReserve(s)
-	bs := detectorsNext(s.Circuit, blocks(s, cfg.extents(s)), cw-rowSlack)
+	ext := cfg.extents(s)
+	bs := detectorsNext(s.Circuit, blocks(s, ext), cw-rowSlack)
 	var rows map[string]*layout.Result // every flow's rows, by what they hold
 	for {
 		f := newFlow(cfg, s, bs, rows)
@@ -188,7 +190,7 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 		if err != nil {
 			return nil, nil, nil, err
 		}
-		more := pieceOut(bs, ends, laid, cw, ch)
+		more := pieceOut(s.Circuit, bs, ends, laid, ext, cw, ch)
 		if more == nil {
 			if ends, laid, f.starts, err = f.balance(ends, laid, cw, ch); err != nil {
 				return nil, nil, nil, err
@@ -200,8 +202,9 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 }
 
 // pieceOut is the stretches with every one that is a row of its own too
-// big for the page and has pieces replaced by them; nil when there is none.
-func pieceOut(bs []block, ends []int, laid []*layout.Result, cw, ch float64) []block {
+// big for the page and has pieces, or riders to cut off (riderPieces),
+// replaced by them; nil when there is none.
+func pieceOut(c *graph.Circuit, bs []block, ends []int, laid []*layout.Result, ext map[string]geom.Rect, cw, ch float64) []block {
 	var out []block
 	cut := false
 	chain := 0
@@ -210,10 +213,18 @@ func pieceOut(bs []block, ends []int, laid []*layout.Result, cw, ch float64) []b
 	}
 	for i := range ends {
 		a, b := start(ends, i), ends[i]
-		if b-a == 1 && len(bs[a].pieces) > 1 && !fits(laid[i], cw, ch) && !onlyPortsHelp(bs[a], laid[i], cw) {
+		if b-a != 1 || fits(laid[i], cw, ch) {
+			out = append(out, bs[a:b]...)
+			continue
+		}
+		ps := riderPieces(c, bs, a, ext)
+		if ps == nil && len(bs[a].pieces) > 1 && !onlyPortsHelp(bs[a], laid[i], cw) {
+			ps = bs[a].pieces
+		}
+		if ps != nil {
 			// left to right as placed: a port joined by overlap goes
 			// with the piece it stands after
-			ps := append([]block{}, bs[a].pieces...)
+			ps := append([]block{}, ps...)
 			sort.SliceStable(ps, func(i, j int) bool { return ps[i].x0 < ps[j].x0 })
 			chain++
 			for k := range ps {

@@ -16,7 +16,9 @@ func ride(c *graph.Circuit, b *block, p *graph.Part) {
 	if len(b.pieces) > 0 {
 		k := pieceOf(c, b.pieces, p)
 		b.pieces[k].refs = append(b.pieces[k].refs, p.Ref)
+		return
 	}
+	b.riders = append(b.riders, p.Ref)
 }
 
 // wiredNets are the nets of a part that carry signal: not chassis, not a

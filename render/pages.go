@@ -82,6 +82,10 @@ type block struct {
 	// it goes on rows of its own after the signal's, never on a row beside
 	// a signal stage.
 	apart bool
+	// riders are the unframed parts ride put on a stretch without pieces:
+	// a stretch too big for the page is cut between them and its own
+	// parts where they share no wired net (riderPieces)
+	riders []string
 }
 
 // join is the stretch a followed by b, remembering both as pieces.
