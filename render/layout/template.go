@@ -144,35 +144,27 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 // (up when there is none), where the router can wire the template's parts
 // past it:
 // a faded reservoir capacitor yields its place to the stage drawn round
-// it. The place must leave every wired lead its way out too (leadRoom): a
-// faded decoupler's capacitors set with their lead's tip a step under the
-// tip of their resistor's left the two tips no room for the wire from
-// the third part of their net, and the net was drawn with a flag at each
-// pin, over each other (review17 b01).
+// it.
 func (ly *state) clearRails(span geom.Rect, all []*block) {
-	leads := ly.leadRoom(all)
-	hits := func(j int, d geom.Pt) bool {
-		b := all[j]
-		at := b.fp.Move(d)
-		r := at.Inset(1)
+	hits := func(b *block, d geom.Pt) bool {
+		r := b.fp.Move(d).Inset(1)
 		if r.Overlaps(span.Inset(-2)) {
 			return true
 		}
-		for i, o := range all {
-			if i != j && (o.fp.Overlaps(r) || leads.meet(i, j, d, at)) {
+		for _, o := range all {
+			if o != b && o.fp.Overlaps(r) {
 				return true
 			}
 		}
 		return false
 	}
-	for j, b := range all {
-		if !ly.yields(b) || !hits(j, geom.Pt{}) {
+	for _, b := range all {
+		if !ly.yields(b) || !hits(b, geom.Pt{}) {
 			continue
 		}
 		for _, dy := range clearMoves() {
-			if d := (geom.Pt{Y: dy}); !hits(j, d) {
-				b.move(d)
-				leads.move(j, d)
+			if !hits(b, geom.Pt{Y: dy}) {
+				b.move(geom.Pt{Y: dy})
 				break
 			}
 		}
