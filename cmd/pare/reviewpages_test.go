@@ -12,10 +12,12 @@ import (
 // no other test held to them. Measured when the test was written: 22 on
 // three views; a rectifier's two heater tags and cathode tag drawn over
 // each other (review20 a05 faded page 5, the six findings of its pins a
-// step apart) then took their text beside their bars: 16. Left: review17
-// b01's faded decoupler (R11, C8, C9) packed over its own tags, review16
-// b05's faded page 2 drawn at 2.31 mm.
-const reviewPageProblems = 16
+// step apart) then took their text beside their bars: 16. Review16 b05's
+// faded mixer, drawn at 2.31 mm on a page of its own with the base bias
+// network riding on its stretch, was cut from that network (riderPieces):
+// 5. Left: review17 b01's faded decoupler (R11, C8, C9) packed over its
+// own net's flags (its capacitors' tips a step under its resistor's).
+const reviewPageProblems = 5
 
 // TestReviewPagesHold: every page of every review circuit is checked as a
 // sheet of its own; each finding is logged and their count held under
