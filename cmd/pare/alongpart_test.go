@@ -34,7 +34,11 @@ import (
 // deliberate trade for crossings near a pin 90 → 70, near a dot 20 → 12
 // (pages 69 → 54), wires beside another net's 808 → 800, wire boxes
 // 301 → 297.
-const alongPartCeiling = 123
+// 124 (+1) and wire boxes 297 → 299 with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm):
+// the mixer row routed afresh at full size, vcc_if beside R5 and q2_bias
+// round it on its full and faded page 1; the review pages' fatal findings
+// 16 → 5, a page fewer.
+const alongPartCeiling = 124
 
 // commonLeadCeiling is how many crossings, on the same pages, lie on the
 // run of wire leaving a device's emitter, source or cathode (render/check's

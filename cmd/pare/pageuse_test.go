@@ -19,7 +19,8 @@ import (
 // 165 with the long-tailed pair in one frame (review20 a04);
 // 164 once the loose parts ride on a row only where it keeps the
 // planned pages (render/pageloose.go: review19 b05's faded view).
-var emptyPagesCeiling = 164
+// 161 with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm).
+var emptyPagesCeiling = 161
 
 // emptyPageShare is the share of a page's printable area under which the
 // review called a page of a view of several pages "mostly empty" (review20
