@@ -260,6 +260,13 @@ func calcCoupling(x *figCtx) {
 	if !ok {
 		return
 	}
+	x.couplingFigures(p, ci, down, r)
+}
+
+// couplingFigures sets a coupling capacitor's figures once its driven side
+// (down, a pin index) and the resistance there (r) are known.
+func (x *figCtx) couplingFigures(p *graph.Part, ci, down int, r float64) {
+	c := p.Value.Max
 	if r <= 0 {
 		if down >= 0 {
 			x.noteOpenPort(p, x.w.pins[ci][down])
@@ -289,8 +296,11 @@ func (x *figCtx) downstream(ci int) (down int, r float64, ok bool) {
 		}
 		// a side nothing else reaches from the inputs is downstream (MaxInt)
 		sides[i].d, sides[i].r = x.netDist(net, ci), resistanceToGround(x.w, net)
-		if sides[i].r <= 0 {
-			sides[i].r = speakerLoad(x.w, net)
+		if sp := speakerLoad(x.w, net); sp > 0 {
+			// the loudspeaker is across whatever else the side holds (an
+			// overall feedback resistor's path): 8 Ω beside 1.6 kΩ sets
+			// the corner, not the 1.6 kΩ alone (review20 b04)
+			sides[i].r = parallelOf(sides[i].r, sp)
 		}
 	}
 	down = -1

@@ -1112,6 +1112,25 @@ C1 = { c = "470u", pins = ["e", "spk"] }
 LS1 = { spk = "8R", pins = ["spk", "gnd"] }
 R8 = { r = "10", pins = ["spk", "z"] }
 C4 = { c = "4u7", pins = ["z", "gnd"] }`},
+	// An output capacitor into the loudspeaker: the follower's common
+	// electrode drives it, the speaker is its load (470 µF into 8 Ω beside
+	// nothing else: 42.3 Hz, fc = 1/(2πRC), handbook).
+	{topology: "speaker-coupling", families: allFamilies, want: "passive", extra: speakerRegion,
+		parts: `@Q1(in, e, ht)
+R1 = { r = "1k", pins = ["e", "gnd"] }
+C1 = { c = "470u", pins = ["e", "spk"] }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }`,
+		// The same shape the other way: a capacitor from the loudspeaker
+		// (driven from a socket, the output stage off this sheet) back
+		// through 47 kΩ to the control electrode, an overall feedback
+		// path's DC block (review16 b04's C14): the speaker is its source,
+		// not its load.
+		nearMiss: `@Q1(in, e, ht)
+R1 = { r = "1k", pins = ["e", "gnd"] }
+P1 = { port = "from the output stage", pins = ["spk"] }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }
+C1 = { c = "470u", pins = ["spk", "fb"] }
+R2 = { r = "47k", pins = ["fb", "in"] }`},
 	// The same network the other way round, behind an output transformer.
 	{topology: "zobel-capacitor-first", families: allFamilies, want: "passive", extra: audioRegion,
 		parts: `@Q1(in, gnd, a)
@@ -1609,6 +1628,11 @@ audio = { band = "60..12k", parts = ["Q1", "C6"] }`
 
 // audioRegion puts a fixture's parts in an audio band (the fixture's own
 // band is the medium wave).
+// speakerRegion puts an output capacitor and its loudspeaker in the audio
+// band, where their corner is.
+const speakerRegion = `[regions]
+audio = { band = "60..12k", parts = ["C1", "LS1"] }`
+
 const audioRegion = `[regions]
 audio = { band = "60..12k", parts = ["R8", "C4"] }`
 

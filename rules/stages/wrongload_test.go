@@ -26,7 +26,7 @@ func TestCornersOnTheirRealLoad(t *testing.T) {
 		// C14 from the loudspeaker into R14 and the driver's base
 		{"b04.toml", "C14", "coupling-capacitor", 3.267, "c04_c14.cir"},
 		// C9 from the midpoint into the loudspeaker and Zobel
-		{"b04.toml", "C9", "coupling-capacitor", 19.89, "c04_c9.cir"},
+		{"b04.toml", "C9", "speaker-coupling", 19.89, "c04_c9.cir"},
 	}
 	for _, tc := range cases {
 		t.Run(tc.file+"/"+tc.part, func(t *testing.T) {
