@@ -41,6 +41,7 @@ func pairPlaces(c *graph.Circuit, st *Stage) {
 		st.Draw = append(st.Draw, Place{Part: ref, Col: col, Row: row, Stand: "vertical"})
 		return true
 	}
+	mid, midRow := pairMid(c, st)
 	for _, ref := range st.Parts {
 		p := c.Part(ref)
 		if p == nil || placed[ref] || p.Kind != graph.Resistor || len(p.Pins) != 2 {
@@ -48,6 +49,9 @@ func pairPlaces(c *graph.Circuit, st *Stage) {
 		}
 		if onNet(p, top) && c.RoleOf(other(p, top)).IsACGround() {
 			put(ref, chainCol, -1)
+			continue
+		}
+		if mid != "" && onNet(p, mid) && c.RoleOf(other(p, mid)).IsACGround() && put(ref, 1, midRow) {
 			continue
 		}
 		for _, pl := range st.Draw {
@@ -72,4 +76,40 @@ func servesLead(c *graph.Circuit, p, d *graph.Part) bool {
 		}
 	}
 	return false
+}
+
+// pairMid is the pair's mid-point as the template draws it: the net two
+// parts of the device column (col 0) of one kind share off AC ground and
+// off any device's control electrode (the emitter resistors' joint, or
+// the devices' joined common electrodes when the template shorts the
+// resistors out), with the row between them. A resistor from
+// it to AC ground (a DC feedback resistor from the mid-point, its far end
+// bypassed) stands right of that row; left to the generic placement it
+// pulled the pair out of its column (review20 b04's R2).
+func pairMid(c *graph.Circuit, st *Stage) (string, int) {
+	controls := map[string]bool{}
+	for _, pl := range st.Draw {
+		if d := c.Part(pl.Part); d != nil && d.IsActive() {
+			controls[d.NetOf(d.PinWithRole(graph.RoleControl))] = true
+		}
+	}
+	for i, a := range st.Draw {
+		pa := c.Part(a.Part)
+		if a.Col != 0 || pa == nil {
+			continue
+		}
+		for _, b := range st.Draw[i+1:] {
+			pb := c.Part(b.Part)
+			if b.Col != 0 || pb == nil || pa.IsActive() != pb.IsActive() {
+				continue
+			}
+			for _, pin := range pa.Pins {
+				n := pin.Net
+				if n != "" && onNet(pb, n) && !controls[n] && !c.RoleOf(n).IsACGround() {
+					return n, (a.Row + b.Row) / 2
+				}
+			}
+		}
+	}
+	return "", 0
 }
