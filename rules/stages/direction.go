@@ -70,6 +70,13 @@ func (x *figCtx) upstream(rs, cs []*graph.Part) bool {
 	if shared < 0 || other < 0 || other == shared {
 		return false
 	}
+	if sp := speakerLoad(x.w, other); sp > 0 && outputDriven(x.w, shared, cj, sp*drivenSeriesMax) {
+		// an output device drives the resistor's side and the loudspeaker
+		// is on the other: the signal runs into the speaker however near
+		// the inputs an overall feedback resistor from it stands (review20
+		// b04: C7 was paired with the mid-point's DC feedback resistor R2)
+		return true
+	}
 	return x.netDist(shared, ri, cj) < x.netDist(other, ri, cj)
 }
 
