@@ -179,7 +179,7 @@ func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, 
 	if rc {
 		parts = rcLoopParts(c, acg, p, fb, claimed, gone)
 	} else {
-		parts = loopParts(c, acg, p, through, claimed, gone)
+		parts = loopParts(w, acg, p, through, claimed, gone)
 	}
 	word := through
 	switch {
@@ -239,9 +239,9 @@ const loopHops = 2
 // that a coupling stage holds (which is then marked gone). Tuned stages
 // and amplifiers keep their parts: an IF transformer is the next stage's
 // input, an amplifier in the loop (a Wien bridge's second valve) is a stage
-// of its own.
-func loopParts(c *graph.Circuit, acg map[string]bool, dev *graph.Part, through string, claimed map[string]*found, gone map[*found]bool) []string {
-	return loopPartsFrom(c, acg, dev, through, claimed, gone, func(graph.Pin) bool { return true }, nil)
+// of its own. Nor does it take another gang section's tank (loopapart.go).
+func loopParts(w *world, acg map[string]bool, dev *graph.Part, through string, claimed map[string]*found, gone map[*found]bool) []string {
+	return loopPartsFrom(w.c, acg, dev, through, claimed, gone, func(graph.Pin) bool { return true }, otherSections(w, through))
 }
 
 // groundOf says which nets of c are AC ground, with the nets acg names.
