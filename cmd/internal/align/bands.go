@@ -105,13 +105,17 @@ func bandParts(c *graph.Circuit) map[string]bool {
 		own := switchedPins(p)
 		for _, pr := range p.Closes[pos-1] {
 			for _, pin := range pr {
-				if slices.Contains(own, pin) {
-					nets[p.NetOf(pin)] = true
+				if n := p.NetOf(pin); slices.Contains(own, pin) && !c.RoleOf(n).IsACGround() {
+					nets[n] = true // a contact to chassis puts no one part in circuit: every part has a pin there
 				}
 			}
 		}
 	}
-	return partsOnNets(c, nets)
+	out := partsOnNets(c, nets)
+	for r := range leftOutElsewhere(c, power) {
+		out[r] = true
+	}
+	return out
 }
 
 // partsOnNets are the parts other than switches with a pin on one of the

@@ -48,7 +48,10 @@ type tankReach struct {
 }
 
 func reachOf(c *graph.Circuit, gang *graph.Part, lo, hi, wLo, wHi float64) (tankReach, bool) {
-	t := tankOn(c, gang)
+	// The tank's parts as the switches leave them: a wavechange wafer
+	// between the gang section's padder and the coil hides the coil (and
+	// its core) from a search on the circuit as drawn.
+	t := tankOn(switched(c), gang)
 	net := hotNet(c, gang)
 	r := tankReach{lo: lo, hi: hi, k: 1, trimmer: t.trimmer}
 	if t.coil != nil && len(t.coil.Adjust) > 0 {
