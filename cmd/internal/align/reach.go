@@ -51,8 +51,12 @@ func reachOf(c *graph.Circuit, gang *graph.Part, lo, hi, wLo, wHi float64) (tank
 	// The tank's parts as the switches leave them: a wavechange wafer
 	// between the gang section's padder and the coil hides the coil (and
 	// its core) from a search on the circuit as drawn.
-	t := tankOn(switched(c), gang)
 	net := hotNet(c, gang)
+	sc := switched(c)
+	if sg := sc.Part(gang.Ref); sg != nil {
+		gang = sg // its nets as the switches join them
+	}
+	t := tankOn(sc, gang)
 	r := tankReach{lo: lo, hi: hi, k: 1, trimmer: t.trimmer}
 	if t.coil != nil && len(t.coil.Adjust) > 0 {
 		r.core = t.coil
