@@ -49,12 +49,21 @@ func supplyEvidence(c *graph.Circuit, st *Stage) bool {
 
 // onMains tells whether a transformer is a mains transformer: it declares
 // the AC voltage it gives (vac), or one of its nets, or a port or part on
-// one, speaks of the mains.
+// one, speaks of the mains. The chassis is not such a net: in an AC/DC set
+// it is tied to the mains neutral and says so ("chassis (mains
+// neutral!)", a port "mains neutral: to chassis"), yet every winding that
+// returns to it (the aerial coil, the IF cans, the output transformer's
+// secondary) is a signal winding; a mains winding's other end is on the
+// line side, which still speaks of the mains (review21 a05 had all five of
+// its transformers dropped as mains transformers).
 func onMains(c *graph.Circuit, t *graph.Part) bool {
 	if _, ok := t.Param("vac"); ok {
 		return true
 	}
 	for _, pin := range t.Pins {
+		if c.RoleOf(pin.Net) == graph.Ground {
+			continue
+		}
 		if n := c.Net(pin.Net); n != nil && (safety.SaysMains(n.Name) || safety.SaysMains(n.Label)) {
 			return true
 		}
