@@ -16,9 +16,10 @@ import (
 // far end: 20·log10(A open / A closed) = 20·log10(1 + Aβ) (handbook
 // feedback amplifier, from memory; docs/references.md §38), with the loop
 // opened the usual loaded way: Rf's far end put at chassis, so the lead
-// and the output keep the load Rf puts on them.
+// and the output keep the load Rf puts on them. A DC-blocking capacitor in
+// series with Rf is part of the path: the solver counts its reactance.
 func init() {
-	calcs["overall-feedback"] = calc{args: []string{"device", "feedback", "lead", "bias", "bypass"}, required: []string{"device", "feedback", "lead"}, fn: calcOverallFeedback}
+	calcs["overall-feedback"] = calc{args: []string{"device", "feedback", "series", "lead", "bias", "bypass"}, required: []string{"device", "feedback", "lead"}, fn: calcOverallFeedback}
 }
 
 var byFeedbackFraction = figure.ByFormula("feedback = 20·log10(1 + |A|·β), β = Ru/(Ru + Rf), A the open-loop gain in circuit")
@@ -30,7 +31,12 @@ func calcOverallFeedback(x *figCtx) {
 	}
 	k := q.NetOf(q.PinWithRole(graph.RoleCommon))
 	g := q.NetOf(q.PinWithRole(graph.RoleControl))
-	fb := farEnd(rf, k)
+	near := k
+	if cs := x.part("series"); cs != nil && len(cs.Pins) == 2 {
+		// a DC block between the lead and Rf: Rf's far end is past it
+		near = farEnd(cs, k)
+	}
+	fb := farEnd(rf, near)
 	if fb == "" || g == "" || fb == q.NetOf(q.PinWithRole(graph.RoleOutput)) {
 		return // feedback from the stage's own output is local, not overall
 	}

@@ -25,6 +25,14 @@ func init() {
 	calcs["shunt-feedback-z"] = calc{args: []string{"device", "feedback"}, required: []string{"device", "feedback"}, fn: calcShuntFeedbackZ}
 }
 
+// minFeedbackShare is the least share of the device's output signal that
+// Rf's far end must carry for Rf to bring signal back. A feedback point (an
+// output pair's midpoint, a later stage's output) carries most of it: 0.73
+// to 0.99 over the fixtures with such feedback (solved); a decoupled supply
+// line carries only what its capacitor lets through (review21 b05's driver
+// line: 0.05 %). A tenth splits the two with a wide margin on each side.
+const minFeedbackShare = 0.1
+
 var byMillerZ = figure.ByFormula("Zin = Rf/(1 + |A|) ∥ the rest (Miller's theorem)")
 
 func calcShuntFeedbackZ(x *figCtx) {
@@ -54,6 +62,13 @@ func calcShuntFeedbackZ(x *figCtx) {
 	a, ok3 := transferAt(c, g, fb, f)
 	if !ok1 || !ok2 || !ok3 {
 		x.st.unconfirmed = fmt.Sprintf("the solver gives no impedance at %s: the loop through %s is not confirmed", g, rf.Ref)
+		return
+	}
+	if ao, ok := transferAt(c, g, q.NetOf(q.PinWithRole(graph.RoleOutput)), f); ok && math.Abs(a) < minFeedbackShare*math.Abs(ao) {
+		// Rf's far end is a line a capacitor holds at AC ground: Rf is a
+		// bias feed, and what little signal the line carries is ripple
+		x.st.unconfirmed = fmt.Sprintf("in circuit %s carries ×%s of %s's signal, %s of what %s's %s carries: an AC-grounded line, so %s is a bias feed, not feedback",
+			fb, figure.Plain(a), g, figure.Format(100*math.Abs(a/ao), figure.Ratio, figure.Text)+" %", q.Ref, outputWord(q), rf.Ref)
 		return
 	}
 	if a >= 0 || closed >= open {
