@@ -4,8 +4,6 @@ import (
 	"math"
 	"strings"
 	"testing"
-
-	"pare/graph"
 )
 
 // An oscillator whose tank carries the declared input: the solver holds an
@@ -25,14 +23,7 @@ func TestLoopFreesInputOnItsTank(t *testing.T) {
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
-			c, err := graph.LoadFile("../../testdata/review20/b01.toml")
-			if err != nil {
-				t.Fatal(err)
-			}
-			if tc.inputs != nil {
-				c.Inputs = tc.inputs
-			}
-			st := stageOf(findReduced(t, c), "colpitts-common-tap-blocked")
+			st := blockedColpitts(t, tc.inputs)
 			if st == nil || len(st.Loop) == 0 {
 				t.Fatal("no blocked Colpitts with a loop found")
 			}

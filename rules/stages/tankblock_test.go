@@ -29,14 +29,7 @@ func TestTankAloneCountsSeriesBlock(t *testing.T) {
 	const spiceLo, spiceHi = 2.673e6, 3.088e6       // reviewer's ngspice, c01.cir
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
-			c, err := graph.LoadFile("../../testdata/review20/b01.toml")
-			if err != nil {
-				t.Fatal(err)
-			}
-			if tc.inputs != nil {
-				c.Inputs = tc.inputs
-			}
-			st := stageOf(findReduced(t, c), "colpitts-common-tap-blocked")
+			st := blockedColpitts(t, tc.inputs)
 			if st == nil {
 				t.Fatal("no blocked Colpitts found")
 			}
@@ -64,4 +57,19 @@ func TestTankAloneCountsSeriesBlock(t *testing.T) {
 			}
 		})
 	}
+}
+
+// blockedColpitts is review20 b01's blocked Colpitts stage, with the
+// circuit's declared inputs replaced by inputs when they are given; nil when
+// no such stage is found.
+func blockedColpitts(t *testing.T, inputs []string) *Stage {
+	t.Helper()
+	c, err := graph.LoadFile("../../testdata/review20/b01.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if inputs != nil {
+		c.Inputs = inputs
+	}
+	return stageOf(findReduced(t, c), "colpitts-common-tap-blocked")
 }
