@@ -1,5 +1,6 @@
 // Heater and mains-winding evidence: which valves are rectifiers fed by a
 // mains winding, which heater windings sit at HT, and series heater chains.
+
 package safety
 
 import (
