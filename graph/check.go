@@ -65,9 +65,9 @@ func Check(c *Circuit) ErrorList {
 		}
 		cs := c.ConnsOf(n.Name)
 		switch {
-		case len(cs) == 0 && !isSignalEnd(c, n.Name):
+		case len(cs) == 0 && !c.IsEnd(n.Name):
 			w.Add(n.Pos, "net %s is declared but nothing connects to it", n.Name)
-		case len(cs) == 1 && !n.Role.IsACGround() && n.Role != PortN && !isSignalEnd(c, n.Name) && cs[0].Part.Kind != Port &&
+		case len(cs) == 1 && !n.Role.IsACGround() && n.Role != PortN && !c.IsEnd(n.Name) && cs[0].Part.Kind != Port &&
 			!isCommonPin(cs[0]): // a lone cathode/emitter/source gets its own, plainer warning below
 			w.Add(cs[0].Part.Pin(cs[0].Pin).Pos, "net %s has only one connection (%s.%s): a wire missing, or a typo in the net name?", n.Name, cs[0].Part.Ref, cs[0].Pin)
 		}
@@ -136,25 +136,6 @@ func isCommonPin(cn Conn) bool {
 
 // refLetters splits a reference designator into its letters: "VC1a" → "VC".
 var refLetters = regexp.MustCompile(`^([A-Za-z]+?)[0-9]+[A-Za-z]?$`)
-
-func isSignalEnd(c *Circuit, net string) bool {
-	for _, n := range c.Inputs {
-		if n == net {
-			return true
-		}
-	}
-	for _, n := range c.Outputs {
-		if n == net {
-			return true
-		}
-	}
-	for _, r := range c.Regions {
-		if r.Input == net || r.Output == net {
-			return true
-		}
-	}
-	return false
-}
 
 func electrodeName(p *Part, pin string) string {
 	switch p.Kind {
