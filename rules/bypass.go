@@ -24,27 +24,43 @@ var bypass = Rule{
 	Kinds:     []graph.Kind{graph.Capacitor},
 	Symmetric: true,
 	Match: func(x *Ctx, a Anchor) *Plan {
-		p := a.Part
-		net, gnd := Ends(p, a.Flip)
-		if p.Type == graph.CapVariable || p.Type == graph.CapTrimmer {
-			return nil // a tuning element, never a bypass
-		}
-		if p.Kind != graph.Capacitor || p.Keep || len(p.Pins) != 2 || net == "nc" || gnd == "nc" || net == gnd {
-			return nil
-		}
-		if !x.IsACGround(gnd) || x.IsACGround(net) || x.IsEnd(net) {
+		p, net, gnd, ok := shuntToGround(x, a)
+		if !ok {
 			return nil
 		}
 		return &Plan{Parts: []*graph.Part{p}, Nets: []string{net, gnd}}
 	},
 	Guard: bypassGuard,
-	Apply: func(x *Ctx, m *Plan) Step {
-		p, net := m.Parts[0], m.Nets[0]
-		removed := origins(p)
-		x.Remove(p)
-		x.GroundNet(net)
-		return Step{Removed: removed, Grounded: []string{net}}
-	},
+	Apply: groundThroughCap,
+}
+
+// shuntToGround is what the bypass and supply-line rules ask of their
+// anchor first: a fixed two-terminal capacitor, free to go, from a signal
+// net that is no declared end to a net at AC ground. It gives the part and
+// its two nets, the grounded one second.
+func shuntToGround(x *Ctx, a Anchor) (p *graph.Part, net, gnd string, ok bool) {
+	p = a.Part
+	net, gnd = Ends(p, a.Flip)
+	if p.Type == graph.CapVariable || p.Type == graph.CapTrimmer {
+		return nil, "", "", false // a tuning element, never a bypass
+	}
+	if p.Kind != graph.Capacitor || p.Keep || len(p.Pins) != 2 || net == "nc" || gnd == "nc" || net == gnd {
+		return nil, "", "", false
+	}
+	if !x.IsACGround(gnd) || x.IsACGround(net) || x.IsEnd(net) {
+		return nil, "", "", false
+	}
+	return p, net, gnd, true
+}
+
+// groundThroughCap applies both rules' plan: the capacitor goes and its net
+// joins AC ground.
+func groundThroughCap(x *Ctx, m *Plan) Step {
+	p, net := m.Parts[0], m.Nets[0]
+	removed := origins(p)
+	x.Remove(p)
+	x.GroundNet(net)
+	return Step{Removed: removed, Grounded: []string{net}}
 }
 
 func bypassGuard(x *Ctx, m *Plan) (bool, string) {

@@ -30,12 +30,8 @@ var supplyLine = Rule{
 	Kinds:     []graph.Kind{graph.Capacitor},
 	Symmetric: true,
 	Match: func(x *Ctx, a Anchor) *Plan {
-		p := a.Part
-		net, gnd := Ends(p, a.Flip)
-		if p.Type == graph.CapVariable || p.Type == graph.CapTrimmer || p.Keep || len(p.Pins) != 2 {
-			return nil
-		}
-		if net == "nc" || gnd == "nc" || net == gnd || !x.IsACGround(gnd) || x.IsACGround(net) || x.IsEnd(net) {
+		p, net, gnd, ok := shuntToGround(x, a)
+		if !ok {
 			return nil
 		}
 		if x.RoleOf(net) != graph.Signal || !x.onlySupplied(net) {
@@ -48,13 +44,7 @@ var supplyLine = Rule{
 		return &Plan{Parts: []*graph.Part{p}, Nets: []string{net, gnd}}
 	},
 	Guard: supplyLineGuard,
-	Apply: func(x *Ctx, m *Plan) Step {
-		p, net := m.Parts[0], m.Nets[0]
-		removed := origins(p)
-		x.Remove(p)
-		x.GroundNet(net)
-		return Step{Removed: removed, Grounded: []string{net}}
-	},
+	Apply: groundThroughCap,
 }
 
 // lineCorner bounds a smoothing or decoupling section's capacitor against
