@@ -443,6 +443,32 @@ R4 = { r = "100k", pins = ["g2", "gnd"] }
 @Q2(g2, out, ht)
 R5 = { r = "4k7", pins = ["out", "gnd"] }
 R6 = { r = "100k", pins = ["out", "k"] }`},
+	// The same loop where the first stage works into a choke, so no
+	// pattern of its own holds the feedback (a driver named by its
+	// transformer, review 21's b05): the feedback resistor is named on its
+	// own, confirmed by the loop lowering the gain.
+	{topology: "feedback-overall", families: allFamilies,
+		parts: `@Q1(in, k, o)
+L1 = { l = "10", pins = ["o", "ht"] }
+R2 = { r = "100", pins = ["k", "kb"] }
+R3 = { r = "1k", pins = ["kb", "gnd"] }
+C1 = { c = "22u", pins = ["kb", "gnd"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, gnd, out)
+R5 = { r = "4k7", pins = ["out", "ht"] }
+R6 = { r = "10k", pins = ["out", "k"] }`,
+		// The second stage a follower: the loop raises the gain.
+		nearMiss: `@Q1(in, k, o)
+L1 = { l = "10", pins = ["o", "ht"] }
+R2 = { r = "100", pins = ["k", "kb"] }
+R3 = { r = "1k", pins = ["kb", "gnd"] }
+C1 = { c = "22u", pins = ["kb", "gnd"] }
+C2 = { c = "1u", pins = ["o", "g2"] }
+R4 = { r = "100k", pins = ["g2", "gnd"] }
+@Q2(g2, out, ht)
+R5 = { r = "4k7", pins = ["out", "gnd"] }
+R6 = { r = "100k", pins = ["out", "k"] }`},
 	// An inverting stage and a follower, the follower's output brought
 	// back to the first stage's control electrode through Rf, the signal
 	// coming in through Rin: overall shunt feedback, the loop lowering the
