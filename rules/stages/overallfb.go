@@ -88,3 +88,10 @@ func feedbackOpened(c *graph.Circuit, rf *graph.Part, fb, gnd string) *graph.Cir
 	}
 	return withPart(c, p)
 }
+
+// OverallFeedbackTopology is the overall feedback loop named on its own
+// (patterns/feedback-overall.toml): a resistor from a later stage's output
+// to an earlier stage's lead. Sheets draw it as the loop's lead between
+// the two stages, unframed: a frame round it alone took a row of its own
+// and drew its two ends as a wire looping back on itself.
+const OverallFeedbackTopology = "feedback-overall"

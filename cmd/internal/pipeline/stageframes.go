@@ -32,7 +32,7 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 	var frames []render.Frame
 	var names []string
 	for _, s := range found {
-		if sub[s.Name] || filterSection(s, full) && hosts[s.Name] == "" {
+		if sub[s.Name] || filterSection(s, full) && hosts[s.Name] == "" || s.Topology == stages.OverallFeedbackTopology {
 			continue
 		}
 		set := map[string]bool{}
