@@ -8,12 +8,14 @@ import (
 )
 
 // TestMergedNoteNeutral: a parallel merge keeps a note only when its
-// members say the same thing. Common practice: two resistors on one anode
-// with different notes do different jobs, so the merged part may not carry
-// either's note. Two halves of one anode load with the same note keep it; a
-// member without a note says nothing against the other's. (Review 17's
-// b05, where seven feeds from the smoothed HT once merged into one part,
-// keeps them apart now: TestSupplyFeedsApart.)
+// members say the same thing. In review 17's b05 (the circuit's own
+// wiring) seven resistors run from the smoothed HT line ht to nets the
+// reduction puts at AC ground: a screen feed R3, the smoothing resistor
+// R22, the bleeder R23, decouplers R9/R16/R20 and the IF screen feed R8.
+// Common practice: those are different jobs, so the bundle may not carry
+// R3's "heptode screen feed, about 90 V". Two halves of one anode load
+// with the same note keep it; a member without a note says nothing
+// against the other's.
 func TestMergedNoteNeutral(t *testing.T) {
 	b, err := os.ReadFile("../testdata/review17/b05.toml")
 	if err != nil {
@@ -22,7 +24,7 @@ func TestMergedNoteNeutral(t *testing.T) {
 	for _, tc := range []struct {
 		name, src, ref, note string
 	}{
-		{"different jobs on one anode", splitLoad(`, note = "anode load"`, `, note = "bleeds the anode"`), "R1", "%d resistors from AC ground to a in parallel"},
+		{"different jobs from the HT line", string(b), "R3", "%d resistors from ht to AC ground in parallel"},
 		{"one job split in two", splitLoad(`, note = "anode load"`, `, note = "anode load"`), "R1", "anode load"},
 		{"one member without a note", splitLoad(`, note = "anode load"`, ""), "R1", "anode load"},
 		{"a gang section with its trimmer", string(b), "VC1a", "gang, aerial section"},

@@ -37,7 +37,7 @@ var parallel = Rule{
 			if !(qa == na && qb == nb) && !(qa == nb && qb == na) {
 				continue
 			}
-			if ok, _ := compatible(p, q, true); !ok || x.apartOnSupply(p, na, nb) {
+			if ok, _ := compatible(p, q, true); !ok {
 				continue
 			}
 			s, o := survivor(p, q)

@@ -145,20 +145,13 @@ func feedPin(q *graph.Part, net string) *graph.Pin {
 // is the only one to AC ground on it (two in parallel merge first, then the
 // bypass rule judges them as one).
 func (x *Ctx) onlySupplied(net string) bool {
-	supplied, caps := x.feedsDevices(net)
-	return supplied && caps == 1
-}
-
-// feedsDevices tells whether net supplies devices and nothing else (as
-// onlySupplied says, whatever capacitors hold it), and how many capacitors
-// run from it to AC ground.
-func (x *Ctx) feedsDevices(net string) (supplied bool, caps int) {
+	supplied, caps := false, 0
 	for _, cn := range x.Conns(net) {
 		q := cn.Part
 		switch {
 		case q.IsActive():
 			if graph.RoleOfPin(q.Kind, cn.Pin) != graph.RoleGrid {
-				return false, 0
+				return false
 			}
 			supplied = true
 		case q.Kind == graph.Capacitor && len(q.Pins) == 2:
@@ -172,13 +165,13 @@ func (x *Ctx) feedsDevices(net string) (supplied bool, caps int) {
 				}
 				s, control := x.electrodesOn(far.Net)
 				if control && len(q.Pins) > 2 || control && q.Kind != graph.Resistor {
-					return false, 0 // a winding into a grid or base: the signal's return
+					return false // a winding into a grid or base: the signal's return
 				}
 				supplied = supplied || s
 			}
 		}
 	}
-	return supplied, caps
+	return supplied && caps == 1
 }
 
 // farEnds are the terminals a two-pin resistor or choke, or the winding of a
