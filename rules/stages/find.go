@@ -122,11 +122,17 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	held := heldOnOriginal(power)
 	signal = withoutSupplied(signal, power, reduced)
 	kept := supplyParts(power, reduced)
+	// Only a device no pattern names takes its parts to a decoupled line as
+	// its own: folding shunts by the same returns also left review13 b02's
+	// decoupler and bias resistor in no stage and reflowed six review
+	// sheets (alongPartCeiling, wireBoxCeiling, pages up), so signal order
+	// still folds those.
+	returns := withSupplyLines(reduced, acg, kept)
 	folded := foldShunts(reduced, acg, signal, order, mergeSets(held, kept))
 	loops := ac.NewLoops(loopCircuit) // elaborated once per setting for every device
 	byLoop, gone := loopStages(reduced, loops, acg, signal, orig)
 	signal = append(slices.DeleteFunc(signal, func(f *found) bool { return gone[f] }), byLoop...)
-	devs := deviceStages(reduced, acg, signal, held)
+	devs := deviceStages(reduced, returns, signal, held)
 	for _, f := range devs {
 		for _, ref := range f.Parts {
 			if isDevice(reduced.Part(ref)) {

@@ -1,6 +1,7 @@
 package stages
 
 import (
+	"maps"
 	"slices"
 	"strings"
 
@@ -137,4 +138,30 @@ func capsBySupply(f *found, power []*found, c *graph.Circuit) bool {
 		}
 	}
 	return n > 0
+}
+
+// withSupplyLines is acg plus the lines the kept supply parts decouple:
+// the net a kept capacitor holds against chassis or AC ground (a preamp's
+// rail behind its decoupling resistor). The reduction keeps such a line
+// because in band it is not quite AC ground, and the solver works on it as
+// it is; but for the drawing a resistor from a device's electrode to it is
+// that device's load or bias, returned to a supply, not a part of the
+// signal path: left loose, it was drawn inside whatever frame stood next to
+// it (a preamplifier's collector load in the next coupling's frame).
+func withSupplyLines(c *graph.Circuit, acg, kept map[string]bool) map[string]bool {
+	out := maps.Clone(acg)
+	ground := func(net string) bool { return acg[net] || c.RoleOf(net).IsACGround() }
+	for _, ref := range slices.Sorted(maps.Keys(kept)) {
+		p := c.Part(ref)
+		if p == nil || p.Kind != graph.Capacitor || len(p.Pins) != 2 {
+			continue
+		}
+		a, b := p.Pins[0].Net, p.Pins[1].Net
+		if ground(a) && !ground(b) {
+			out[b] = true
+		} else if ground(b) && !ground(a) {
+			out[a] = true
+		}
+	}
+	return out
 }
