@@ -98,6 +98,17 @@ type Report struct {
 	// finding). LocalsNear are those within a grid step: a reader may
 	// take them so too.
 	LocalsOn, LocalsNear []string
+	// EarthsFacing are earth symbols whose bars face another net's wire
+	// less than a grid step straight on (locals.go): the stub reads as
+	// carried on through the bars, that net as earthed (review21 b05: an
+	// earth over the aerial tank's hot junction).
+	EarthsFacing []string
+	// LooseEnds are pins alone on their net on the sheet with nothing
+	// drawn at them: no wire, no earth, tag or flag (connect.go). A lead
+	// that ends in the air reads as a wire left off the drawing (review21
+	// b05's oscillator coil: its band-switched extension winding's free
+	// end on the reduced sheet, where the switch no longer stands).
+	LooseEnds []string
 	// FiguresAstray are pin figures set where they read as another wire's
 	// (pinfigs.go): in line past another net's wire end, or with a wire
 	// between them and their pin.
@@ -219,6 +230,7 @@ func Measure(g *geom.Sheet) *Report {
 	r.misreadings(append(segs[:len(segs):len(segs)], flagBodies(g)...), boxes, &bix)
 	r.endsNear(g, segs)
 	r.localsNear(g, segs)
+	r.earthsFacing(g, segs)
 	r.tagsOnParts(g)
 	r.figuresAstray(g)
 	r.longWires(g)
@@ -235,7 +247,7 @@ func Measure(g *geom.Sheet) *Report {
 	if g.PageMM > 0 {
 		r.SmallText = TextHeights(g, g.PageMM, symbol.SmallScale, MinTextMM)
 	}
-	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.TagsOnParts, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions, r.AlongParts, r.CommonLeads} {
+	for _, l := range [][]string{r.SymbolOverlaps, r.WireThrough, r.LabelOverlaps, r.FrameCuts, r.FrameIntruders, r.ForeignFrames, r.WireBoxes, r.FrameStrays, r.CloseWires, r.FrameHugs, r.Beside, r.InLine, r.EndsNear, r.EndsInLine, r.NearDots, r.LocalsOn, r.LocalsNear, r.EarthsFacing, r.LooseEnds, r.TagsOnParts, r.LongWires, r.FarTanks, r.Connectivity, r.Junctions, r.AlongParts, r.CommonLeads} {
 		sort.Strings(l)
 	}
 	return r

@@ -236,6 +236,7 @@ func (r *Report) pieces(nc *netCheck) {
 // has one (a pin sitting on its own ground symbol is wired).
 func (r *Report) unwiredPins(nc *netCheck) {
 	if len(nc.ps) < 2 {
+		r.looseEnd(nc)
 		return
 	}
 	hasLocals := len(nc.sn.localsOf[nc.net]) > 0
@@ -247,6 +248,20 @@ func (r *Report) unwiredPins(nc *netCheck) {
 		}
 		r.Connectivity = append(r.Connectivity, fmt.Sprintf("pin %s of %s is not wired", p.what, nc.net))
 	}
+}
+
+// looseEnd reports a net's only pin when nothing is drawn at it: no wire
+// leaves its lead and no local symbol of the net ends its piece.
+func (r *Report) looseEnd(nc *netCheck) {
+	if len(nc.ps) != 1 {
+		return
+	}
+	p := nc.sn.pins[nc.ps[0]]
+	k := nc.idx[p.at]
+	if nc.arms[k] >= 2 || nc.withLocal[nc.uf.find(k)] {
+		return
+	}
+	r.LooseEnds = append(r.LooseEnds, fmt.Sprintf("pin %s of %s ends in the air", p.what, nc.net))
 }
 
 // junctions reports four-way junctions (drawn, they read as a crossing) and

@@ -81,6 +81,38 @@ func (r *Report) localsNear(g *geom.Sheet, segs []netSeg) {
 	}
 }
 
+// earthsFacing reports each earth symbol with a wire of another net less
+// than localNear past its bars, across their width: the eye runs the stub
+// on through the bars into that wire, so the wire reads as chassis. An
+// earth beside a wire (LocalsNear) does not read so; one in front of it
+// does, whichever view or net.
+func (r *Report) earthsFacing(g *geom.Sheet, segs []netSeg) {
+	var six bucketed
+	for i, s := range segs {
+		six.add(i, s.seg.Box())
+	}
+	for _, l := range g.Locals {
+		if l.Kind != geom.LocalGround {
+			continue
+		}
+		b := l.Box
+		ahead := geom.Rect{X0: b.X0, Y0: b.Y0 - localNear, X1: b.X1, Y1: b.Y0}
+		if l.Down {
+			ahead = geom.Rect{X0: b.X0, Y0: b.Y1, X1: b.X1, Y1: b.Y1 + localNear}
+		}
+		for _, j := range six.near(ahead) {
+			w := segs[j]
+			if w.net == l.Net || w.net == notConnected {
+				continue
+			}
+			if d := rectSeg(ahead, w.seg); d < geom.Eps {
+				r.EarthsFacing = append(r.EarthsFacing, fmt.Sprintf("earth symbol of %s at %s.%s faces a wire of %s %s-%s", l.Net, l.Owner, l.Pin, w.net, pt(w.seg.A), pt(w.seg.B)))
+				break
+			}
+		}
+	}
+}
+
 func (r *Report) addLocal(on bool, what string) {
 	if on {
 		r.LocalsOn = append(r.LocalsOn, what)

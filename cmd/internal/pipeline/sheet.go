@@ -107,7 +107,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 	case render.Reduced:
 		frames := stageFrames(r.Stages, reduced, nil)
 		drawn, split := r.withDividersApart(r.withSupplyReturns(reduced), frames)
-		s.Circuit = r.withLineVolts(drawn)
+		s.Circuit = withoutIdleWindings(r.withLineVolts(drawn))
 		s.Frames = tankFrames(framesApart(frames, split, drawn), s.Circuit)
 		_, merged := FadedAndMerged(c, reduced)
 		s.Ties, s.TieLabels = r.staticTies(c, reduced)
