@@ -21,8 +21,12 @@ import (
 // facing counts earth symbols whose bars face another net's wire less than
 // a grid step on (render/check's EarthsFacing: the wire reads as chassis;
 // review21 b05's earth over the aerial tank's hot junction), on the same
-// pages: measured when the checker learned it, 36.
-var looseEndsCeiling = struct{ loose, twice, facing int }{2, 0, 36}
+// pages: measured when the checker learned it, 36. With an earth kept from
+// facing the lane out of a pin whose net has a capacitor to chassis
+// (render/layout/earthlane.go: review21 b05's ferrite rod earth off the
+// aerial tank's hot junction on the reduced page, and S1c's earth off C7's
+// wire on the faded page 2): 34.
+var looseEndsCeiling = struct{ loose, twice, facing int }{2, 0, 34}
 
 // TestNoLooseEnds: a lead that ends in the air reads as a wire left off the
 // drawing, an earth in front of a wire earths it to the eye, and one part drawn as two symbols on a page (a transformer's

@@ -189,11 +189,24 @@ func cellLocals(c *graph.Circuit, cl *cell, sides bool) ([]geom.Local, int) {
 			// lane: hung over the primary it read as the live primary
 			// tied to chassis. Elsewhere the shortest stub stays, as the
 			// moved earths crowded other sheets' wires into line.
+			// Any earth keeps its bars from facing such a lane a step on
+			// where a capacitor to chassis on the lane's net draws its
+			// wire straight along it (review21 b05: a ferrite rod
+			// winding's earth stood over the aerial tank's hot junction,
+			// so the tank read as earthed).
 			_, mains := cl.part.Params["hz"]
 			sideways := p.Dir == geom.Left || p.Dir == geom.Right
-			best := firstClear(obs, wired, p, ret, role, mains && cl.part.Kind == graph.Transformer && role == graph.Ground && sideways, side)
+			mode := laneFacing
+			if mains && cl.part.Kind == graph.Transformer && role == graph.Ground && sideways {
+				mode = laneNear
+			}
+			lanes := wired
+			if mode == laneFacing {
+				lanes = shunted(c, wired)
+			}
+			best := firstClear(obs, lanes, p, ret, role, mode, side)
 			if best == nil {
-				best = firstClear(obs, wired, p, ret, role, false, side)
+				best = firstClear(obs, wired, p, ret, role, laneNone, side)
 			}
 			if best == nil {
 				l := localCandidates(p, ret, role, 6)[0]
@@ -239,17 +252,21 @@ func awaySide(c *graph.Circuit, cl *cell, p geom.Pin) geom.Dir {
 // cell: an earth hung from a winding's end one step above the next
 // winding's pin sat on that winding's wire and its junction dot, so the
 // wire read as earthed.
-func firstClear(obs *obstacles, wired []geom.Pin, p geom.Pin, ret *graph.Net, role graph.Role, lanes bool, side geom.Dir) *geom.Local {
+func firstClear(obs *obstacles, wired []geom.Pin, p geom.Pin, ret *graph.Net, role graph.Role, lanes laneMode, side geom.Dir) *geom.Local {
 	for s := 1.0; s <= 6; s++ {
 		for _, l := range localCandidates(p, ret, role, s) {
 			if side >= 0 && l.Kind == geom.LocalRail && l.Side != side {
 				continue // buildLocals' second try: text beside the bar only
 			}
 			turnedUp := l.Kind == geom.LocalGround && !l.Down && (p.Dir == geom.Left || p.Dir == geom.Right)
-			if obs.hits(l.Box.Inset(0.15), l.Stub) || (lanes && nearLane(l, wired, p.Net)) || (!lanes && turnedUp) {
+			if obs.hits(l.Box.Inset(0.15), l.Stub) || (lanes == laneNear && nearLane(l, wired, p.Net)) ||
+				(lanes == laneFacing && facesLane(l, wired, p.Net)) || (lanes == laneNone && turnedUp) {
 				// an earth turned up only to keep off a lane: the
 				// plain way down is the better drawing otherwise
 				continue
+			}
+			if lanes == laneFacing && turnedUp && !facesLane(localCandidates(p, ret, role, s)[0], wired, p.Net) {
+				continue // turned up only where the plain way faces a lane
 			}
 			return &l
 		}
