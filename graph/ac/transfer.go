@@ -136,11 +136,11 @@ func impedance(c *graph.Circuit, net string, freqs []float64, o Options, lost []
 	if n == 0 {
 		return out, nil // a net at AC ground: zero impedance
 	}
-	s, err := newSystem(nl, -1, otherInputs(c, nl, n)...)
+	s, err := impedanceSystem(c, nl, n, lost == nil)
 	if err != nil {
 		return nil, err
 	}
-	if s.unk[n] < 0 {
+	if s == nil || s.unk[n] < 0 {
 		return nil, fmt.Errorf("net %s is not connected to any part the small-signal model sees: its impedance is unbounded", net)
 	}
 	// The net is driven with 1 A: the right-hand side is that alone.
@@ -161,4 +161,31 @@ func impedance(c *graph.Circuit, net string, freqs []float64, o Options, lost []
 		return nil, err
 	}
 	return out, nil
+}
+
+// impedanceSystem is the system a driving-point impedance at node n is
+// solved on: with block, only the block of the matrix n lies in (model.go),
+// as Responses solves a response: a set's other channels, joined to this
+// one only through AC ground, carry no current from n, and the block's
+// numbers are those it has inside the whole matrix, to the last bit
+// (assemble; TestBlockProbeMatchesWhole), so a tank's peak in a bank of 22
+// sets costs one set's solve, not the bank's (cmd/internal/align's reach
+// search solves the whole dial per tank). Without block, the whole matrix:
+// a resolution check (ImpedanceChecked) reads the work vector of the whole
+// solve. The floating check is the whole circuit's either way, with the
+// same nets in the same words. nil (and no error) where n is no unknown.
+func impedanceSystem(c *graph.Circuit, nl *netlist, n int, block bool) (*system, error) {
+	held := otherInputs(c, nl, n)
+	if !block {
+		return newSystem(nl, -1, held...)
+	}
+	m := indexModel(c, nl)
+	isHeld := heldSet(len(nl.nodes), -1, held)
+	if err := m.floating(-1, held, isHeld); err != nil {
+		return nil, err
+	}
+	if !m.used[n] || isHeld[n] {
+		return nil, nil // no unknown at n: the caller says it is not connected
+	}
+	return assemble(nl, -1, isHeld, m.component(n, isHeld)), nil
 }
