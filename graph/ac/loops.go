@@ -3,13 +3,18 @@ package ac
 import "pare/graph"
 
 // Loops finds the loops of many parts of one circuit, which must not change
-// while it is in use: the circuit is elaborated once per gang setting for
-// all of them (a set's diode detectors make elaboration cost a DC solve
-// each), and each part's loop is solved on its own blocks of the matrix.
+// while it is in use: the circuit is elaborated once for all of them (a
+// set's diode detectors make elaboration cost a DC solve each), each other
+// gang setting made from that elaboration with the capacitors' values at
+// it (atSetting, as Responses does: a tracking walk asks some 60 settings
+// of one mixer's loop), and each part's loop is solved on its own blocks
+// of the matrix.
 type Loops struct {
 	c   *graph.Circuit
 	nls map[[2]float64]nlOrErr
 	dc  dcShare
+	// base is the first setting elaborated; the others are made from it.
+	base *model
 }
 
 type nlOrErr struct {
@@ -36,7 +41,15 @@ func (l *Loops) system(ref string, o Options) (*loopSystem, error) {
 	k := [2]float64{set, o.VarFrac}
 	e, ok := l.nls[k]
 	if !ok {
-		e.m, e.err = newModel(l.c, o, &l.dc)
+		if l.base != nil {
+			e.m = l.base.atSetting(o)
+		}
+		if e.m == nil {
+			e.m, e.err = newModel(l.c, o, &l.dc)
+		}
+		if l.base == nil && e.err == nil && capsStamped(l.c, o) {
+			l.base = e.m
+		}
 		l.nls[k] = e
 	}
 	if e.err != nil {
