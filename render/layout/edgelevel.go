@@ -81,13 +81,13 @@ func (ly *state) levelEdge(col []*block, left bool) {
 		for moved := true; moved; {
 			moved = false
 			for _, f := range fixed {
-				if t := y - w.off; t < f.fp.Y1+rowGap && t+w.b.fp.H() > f.fp.Y0-rowGap {
-					y, moved = down(f.fp.Y1+rowGap+w.off), true
+				if t := y - w.off; t < f.fp.Y1+ly.gapY() && t+w.b.fp.H() > f.fp.Y0-ly.gapY() {
+					y, moved = down(f.fp.Y1+ly.gapY()+w.off), true
 				}
 			}
 		}
 		w.b.move(geom.Pt{Y: y - w.off - w.b.fp.Y0})
-		top = w.b.fp.Y1 + rowGap
+		top = w.b.fp.Y1 + ly.gapY()
 	}
 }
 
@@ -139,9 +139,9 @@ func (ly *state) underDevices(net string, y, x0, x1 float64) float64 {
 	case !through && !(above && below):
 		return y
 	case y < mid/devs:
-		return math.Floor(top) - rowGap
+		return math.Floor(top) - ly.gapY()
 	}
-	return math.Ceil(foot) + rowGap
+	return math.Ceil(foot) + ly.gapY()
 }
 
 // activeCell says whether a cell is a device: a part with a control

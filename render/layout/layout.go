@@ -131,6 +131,11 @@ type Options struct {
 	// Continues: the caller's fallback for a row the signal's ranking
 	// makes too big for its page (render/flow.go)
 	RankFromFirst bool
+	// Compact stacks the blocks of a column stackGap apart, not rowGap:
+	// the caller's retry of a row whose height alone takes a page more
+	// (render/compactrows.go), kept only where the checker finds the row
+	// no worse for it
+	Compact bool
 	// SupplyFlow gives, on a row of a paged sheet, each supply part's step
 	// along the whole sheet's supply flow (SupplyFlow); nil: found here.
 	SupplyFlow map[string]int

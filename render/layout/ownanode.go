@@ -42,7 +42,7 @@ func (ly *state) pastOwnAnode(net string, y float64, left bool) float64 {
 			foot = math.Max(foot, b.Y1)
 		}
 	}
-	return math.Ceil(foot) + rowGap
+	return math.Ceil(foot) + ly.gapY()
 }
 
 // edgePin is the cell and pin on net nearest the left (right) edge among

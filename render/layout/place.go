@@ -14,6 +14,7 @@ const (
 	framePad  = 1 // frame margin round its parts
 	blockGap  = 1 // between the parts of one block (a tuned circuit's L and C)
 	maxTracks = 8 // routing tracks reserved between columns, at most
+	stackGap  = 2 // between blocks stacked in a column of a compact row (Options.Compact)
 )
 
 // place orders the blocks in each column, then gives columns their x and
@@ -109,6 +110,16 @@ func (ly *state) columnStages(cols [][]*block) []int {
 	return colStage
 }
 
+// gapY is the gap between blocks stacked in a column, and between a
+// level edge, a device's foot or a slot row and what it clears: stackGap
+// on a compact row, else rowGap.
+func (ly *state) gapY() float64 {
+	if ly.o.Compact {
+		return stackGap
+	}
+	return rowGap
+}
+
 // placeRows gives each block its y: its first wired pin level with a pin
 // already placed on the same net, else stacked under the block above;
 // blocks in a column keep their order.
@@ -119,8 +130,8 @@ func (ly *state) placeRows(cols [][]*block) {
 		var above *block
 		for _, b := range col {
 			dy := math.Round(ly.rowOf(b, pinY))
-			if b.fp.Y0+dy < bottom+rowGap {
-				dy = math.Ceil(bottom + rowGap - b.fp.Y0)
+			if b.fp.Y0+dy < bottom+ly.gapY() {
+				dy = math.Ceil(bottom + ly.gapY() - b.fp.Y0)
 			}
 			b.move(geom.Pt{Y: dy})
 			if above != nil {

@@ -127,7 +127,7 @@ func (ly *state) diamond(br bridge, blockOf map[*cell]*block, all []*block) {
 		h = max(h, blockOf[cl].fp.H())
 	}
 	mid := (y0 + y1) / 2
-	gap := h + rowGap
+	gap := h + ly.gapY()
 	want := map[*cell]float64{}
 	for i := range 2 {
 		y := mid + gap/2

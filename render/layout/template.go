@@ -210,7 +210,7 @@ func (ly *state) slotMoves(anchor *block, slots []*slotted) {
 	mid := (anchor.fp.X0 + anchor.fp.X1) / 2
 	lo, hi, under := ly.pairColumn(anchor, slots, mid-w[0]/2, mid+w[0]/2)
 	cx := centres(w, lo, hi, slotGapX)
-	cy := centres(h, row0.Y0, row0.Y1, slotGapY)
+	cy := centres(h, row0.Y0, row0.Y1, ly.gapY())
 	for _, s := range slots {
 		// a block narrower than its column keeps to the anchor's side
 		slack := (w[s.col] - s.b.fp.W()) / 2
