@@ -195,6 +195,9 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 			if ends, laid, f.starts, err = f.balance(ends, laid, cw, ch); err != nil {
 				return nil, nil, nil, err
 			}
+			if laid, err = f.compact(ends, laid, cw, ch); err != nil {
+				return nil, nil, nil, err
+			}
 			return cfg.hostLoose(f, ends, laid, cw, ch)
 		}
 		bs = more

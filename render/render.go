@@ -180,6 +180,8 @@ type Sheet struct {
 	// fromFirst ranks a row from its first part, not from the nets that
 	// come in (layout.Options.RankFromFirst)
 	fromFirst bool
+	// compact stacks a row's blocks closer (layout.Options.Compact)
+	compact bool
 	// placed is the sheet placed without routing for its extents or its
 	// least box, which its layout takes instead of placing it again
 	// (layout.Options.Placed); nil once laid out, and on a copy.
@@ -254,6 +256,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	o.Continues = s.continues
 	o.SupplyFlow = s.supplyFlow
 	o.RankFromFirst = s.fromFirst
+	o.Compact = s.compact
 	o.DeviceStages = s.row
 	for _, f := range s.Frames {
 		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts, Places: f.Places, Supply: f.Supply})

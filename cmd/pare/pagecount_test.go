@@ -20,7 +20,12 @@ import (
 // review18 a05 faded on one page, review19 b03 faded on two); 311 once
 // the loose parts ride on a row only where it keeps the planned pages
 // (render/pageloose.go: review19 b05 faded on five pages, not six).
-var pageCountCeiling = struct{ pages, cans int }{310, 16} // 310 with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm)
+// 310 with a stretch too big for its page cut from the unframed parts
+// riding on it (render/riders.go; review16 b05's mixer at 2.5 mm); 307
+// with rows laid out compact where that alone saves a view a page
+// (render/compactrows.go: review15 a02 faded, review18 b01 and review19
+// b01 reduced).
+var pageCountCeiling = struct{ pages, cans int }{307, 16}
 
 // TestPagesAndCanCuts: a service sheet prints a small set on as few pages
 // as hold it, and draws an IF can beside the stage its secondary feeds

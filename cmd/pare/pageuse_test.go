@@ -23,7 +23,9 @@ import (
 // 162 (+1) with the output capacitor into the speaker recognised: review20
 // b04's reduced page 2 holds its output pair, output capacitor and Zobel
 // on one row where it had two, the same parts on less of the page.
-var emptyPagesCeiling = 162
+// 158 with rows laid out compact where that alone saves a view a page
+// (render/compactrows.go).
+var emptyPagesCeiling = 158
 
 // emptyPageShare is the share of a page's printable area under which the
 // review called a page of a view of several pages "mostly empty" (review20
@@ -115,7 +117,8 @@ func pageUse(g *geom.Sheet, w, h float64) float64 {
 // steps apart is drawn on one page, not spread over two mostly empty ones
 // (review20 a01's faded view: two rows, each a grid unit too tall to share
 // a page rowGap apart, drew a page each, and the blind review called both
-// about 60 % empty). The rows are the ones the flow cut, only closer.
+// about 60 % empty). The rows are the ones the flow cut, only closer, or
+// laid out compact where that alone saves the page.
 func TestSmallViewsOnOnePage(t *testing.T) {
 	cases := []struct {
 		file string
@@ -124,6 +127,9 @@ func TestSmallViewsOnOnePage(t *testing.T) {
 		{"review20/a01.toml", render.Faded},   // Colpitts VFO and buffer: 2 pages before
 		{"review16/a03.toml", render.Reduced}, // IF, detector, audio: 2 pages before
 		{"review18/a05.toml", render.Faded},   // 2 pages before
+		// rows laid out compact where that saves the page (render/compactrows.go)
+		{"review18/b01.toml", render.Reduced}, // phase-shift injector and buffer: 2 pages before
+		{"review19/b01.toml", render.Reduced}, // 2 pages before
 	}
 	for _, tc := range cases {
 		pages, err := cachedPages(filepath.Join("../../testdata", tc.file), tc.view, "A3")
