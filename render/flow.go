@@ -32,8 +32,9 @@ type flow struct {
 	// from one flow of the sheet to the next: a sheet flowed afresh with
 	// a stretch cut into its pieces has the same rows before the cut.
 	rows       map[string]*layout.Result
-	supplyFlow map[string]int // the whole sheet's (layout.SupplyFlow)
-	cw, ch     float64        // the page's room for a row (0: no page)
+	supplyFlow map[string]int  // the whole sheet's (layout.SupplyFlow)
+	returns    map[string]bool // the whole sheet's bias returns (layout.BiasReturns)
+	cw, ch     float64         // the page's room for a row (0: no page)
 	// starts are the rows, by index, that open a page where the rows
 	// were chosen with their pages (balance); nil: rows stack on a page
 	// while they fit
@@ -73,6 +74,10 @@ func newFlow(cfg Config, s *Sheet, bs []block, rows map[string]*layout.Result) *
 		part: map[string]*graph.Part{}, at: map[string]int{}, blockOf: map[string]int{},
 		laid: map[[2]int]*layout.Result{}, sheets: map[[2]int][2]*Sheet{}, rows: rows}
 	f.supplyFlow = layout.SupplyFlow(s.Circuit, cfg.options(s))
+	f.returns = s.returns
+	if f.returns == nil {
+		f.returns = layout.BiasReturns(s.Circuit)
+	}
 	if cfg.Page != nil {
 		f.cw, f.ch = cfg.Page.content()
 		f.ch -= 1 + cfg.footReserve(s)
@@ -298,6 +303,7 @@ func (f *flow) sheet(a, b int, through bool) *Sheet {
 	sub.continues = f.continues(parts, a, b, through)
 	sub.Circuit.Inputs, sub.Circuit.Outputs = endsHere(sub.Circuit.Inputs, sub.continues, true), endsHere(sub.Circuit.Outputs, sub.continues, false)
 	sub.supplyFlow = f.supplyFlow
+	sub.returns = f.returns
 	sub.row = true
 	return &sub
 }

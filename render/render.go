@@ -177,6 +177,10 @@ type Sheet struct {
 	// flow (layout.SupplyFlow), so a row holding part of a supply draws it
 	// in the whole supply's order.
 	supplyFlow map[string]int
+	// returns are, on a row of a paged sheet, the whole sheet's bias
+	// returns (layout.Options.Returns): the row may hold a shunt to a
+	// bypassed cathode but not its bypass.
+	returns map[string]bool
 	// fromFirst ranks a row from its first part, not from the nets that
 	// come in (layout.Options.RankFromFirst)
 	fromFirst bool
@@ -253,6 +257,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 		o.PinVolts = s.PinVolts
 	}
 	o.Marks = s.Marks
+	o.Returns = s.returns
 	o.Continues = s.continues
 	o.SupplyFlow = s.supplyFlow
 	o.RankFromFirst = s.fromFirst

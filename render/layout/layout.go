@@ -89,8 +89,12 @@ type Options struct {
 	// transformer's cold end on a decoupled line ranked the IF can before
 	// the transistor feeding it, review16 b03 and b05). Non-nil, if
 	// empty, on a sheet of the original circuit (fedNets).
-	Quiet  map[string]bool
-	Frames []Frame
+	Quiet map[string]bool
+	// Returns are the bias points bypassed to chassis (BiasReturns) of
+	// the whole circuit, given when the sheet is a row of it, whose
+	// circuit may lack the bypass; nil: those of the circuit laid out.
+	Returns map[string]bool
+	Frames  []Frame
 	// Links draws ganged sections joined by a dashed mechanical link.
 	Links bool
 	// Untangle tries other orientations of the parts on crossing nets until
@@ -237,7 +241,9 @@ type state struct {
 	// orientation search: fixed turns by ref, and refs on crossing nets
 	turns    map[string]int
 	crossing map[string]bool
-	free     bool // no common signal line: every part lines up along its nets
+	// returns are the bias points bypassed to chassis (BiasReturns)
+	returns map[string]bool
+	free    bool // no common signal line: every part lines up along its nets
 	// shortFirst routes the nets shortest first rather than most pins first
 	shortFirst bool
 	// slot is, per ref a stage template places, where (template.go), for

@@ -55,7 +55,7 @@ func (ly *state) orient() {
 		cl.turns = base.Turns
 		// a turn the search fixed holds when it leaves the part upright
 		t, fixed := ly.turns[cl.ref]
-		fixed = fixed && len(base.Turns) > 0 && upright(ly.c, cl.part, base.Oriented(base.Turns[t]))
+		fixed = fixed && len(base.Turns) > 0 && upright(ly.c, cl.part, base.Oriented(base.Turns[t])) && ly.hangsToReturn(cl, base.Oriented(base.Turns[t]))
 		for i, o := range base.Turns {
 			s := base.Oriented(o)
 			score := ly.score(cl, s)
@@ -104,7 +104,7 @@ func (ly *state) standing(cl *cell, base, best symbol.Shape, stand string) symbo
 	bestScore := math.Inf(-1)
 	for i, o := range base.Turns {
 		s := base.Oriented(o)
-		if standOf(s) != stand || !upright(ly.c, cl.part, s) {
+		if standOf(s) != stand || !upright(ly.c, cl.part, s) || !ly.hangsToReturn(cl, s) {
 			continue
 		}
 		if score := ly.score(cl, s); score > bestScore+1e-9 {
@@ -147,11 +147,15 @@ func (ly *state) score(cl *cell, s symbol.Shape) float64 {
 	score := 0.0
 	horizontalSignal := 0
 	signal := 0
+	ret := ly.returnPin(cl)
 	for _, p := range s.Pins {
 		want, rail := railWant(ly.c, cl.part, p)
 		switch {
 		case rail && ly.c.RoleOf(p.Net).IsACGround():
 			score += railScore(p.Dir, want)
+		case p.Net == ret:
+			// a shunt's end on a bias return hangs down to it
+			score += railScore(p.Dir, geom.Down)
 		default:
 			signal++
 			score += ly.towards(cl, p)

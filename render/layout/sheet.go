@@ -27,6 +27,10 @@ func placeOnce(c *graph.Circuit, o Options, turns map[string]int, free bool, off
 	if len(cells) == 0 {
 		return ly
 	}
+	ly.returns = o.Returns
+	if ly.returns == nil {
+		ly.returns = BiasReturns(c)
+	}
 	ly.rank()
 	ly.orient()
 	for _, cl := range ly.cells {

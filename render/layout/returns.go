@@ -1,0 +1,110 @@
+package layout
+
+import (
+	"math"
+	"slices"
+
+	"pare/graph"
+	"pare/render/geom"
+	"pare/render/symbol"
+)
+
+// Bias returns: a cathode, emitter or source bias point bypassed to
+// chassis is no rail, yet at every frequency the parts on it work at it
+// is a return all the same. A capacitor or resistor from a signal net to
+// it is a shunt, and the trade hangs it off the row towards the return,
+// never in line between two parts of the row, where it reads as a series
+// part (review21 a03: the detector's IF bypasses to the bypassed cathode
+// of the double-diode-triode lay flat in the signal row).
+
+// BiasReturns are the nets of c bypassed to chassis (bypassedReturn).
+func BiasReturns(c *graph.Circuit) map[string]bool {
+	out := map[string]bool{}
+	for _, p := range c.Parts {
+		for _, pn := range p.Pins {
+			if _, seen := out[pn.Net]; !seen && pn.Net != "" {
+				out[pn.Net] = bypassedReturn(c, pn.Net)
+			}
+		}
+	}
+	for n, ok := range out {
+		if !ok {
+			delete(out, n)
+		}
+	}
+	return out
+}
+
+// bypassedReturn says whether net n, no rail itself and no declared end,
+// has resistors only to chassis and capacitors to chassis whose reactance,
+// at the lowest frequency any part on n works at, is under the resistors'
+// parallel resistance: the bias point of a bypassed cathode or emitter.
+func bypassedReturn(c *graph.Circuit, n string) bool {
+	if c.RoleOf(n).IsACGround() || isEnd(c, n) {
+		return false
+	}
+	capF, g, f := 0.0, 0.0, math.Inf(1)
+	for _, cn := range c.ConnsOf(n) {
+		p := cn.Part
+		if b := c.BandOf(p); b.Min > 0 {
+			f = math.Min(f, b.Min)
+		}
+		if len(p.Pins) != 2 || p.Value.Max <= 0 {
+			continue
+		}
+		other := p.Pins[0].Net
+		if other == n {
+			other = p.Pins[1].Net
+		}
+		role := c.RoleOf(other)
+		switch {
+		case !role.IsACGround():
+		case p.Kind == graph.Resistor && role != graph.Ground:
+			return false // fed from a rail: a decoupled line, not a return
+		case p.Kind == graph.Resistor:
+			g += 1 / p.Value.Max
+		case p.Kind == graph.Capacitor:
+			capF += p.Value.Max
+		}
+	}
+	return capF > 0 && g > 0 && !math.IsInf(f, 1) && 1/(2*math.Pi*f*capF) < 1/g
+}
+
+// isEnd says whether n is one of the circuit's declared inputs or outputs.
+func isEnd(c *graph.Circuit, n string) bool {
+	return slices.Contains(c.Inputs, n) || slices.Contains(c.Outputs, n)
+}
+
+// returnPin is the net of a two-terminal part's end on a bias return
+// when its other end carries the signal: the part is a shunt, and that end
+// points down as a shunt's to chassis does. "" for any other part.
+func (ly *state) returnPin(cl *cell) string {
+	pins := cl.part.Pins
+	if len(pins) != 2 || cl.part.IsActive() || cl.conn {
+		return ""
+	}
+	for i, p := range pins {
+		q := pins[1-i].Net
+		if ly.returns[p.Net] && !ly.returns[q] && ly.carries(q) {
+			return p.Net
+		}
+	}
+	return ""
+}
+
+// hangsToReturn says whether a shunt to a bias return (returnPin) has that
+// end pointing down in shape s; true for every other part. A turn the
+// untangle search fixed, or a template's stand, holds only when it does:
+// lying in the row, the shunt reads as a series part.
+func (ly *state) hangsToReturn(cl *cell, s symbol.Shape) bool {
+	ret := ly.returnPin(cl)
+	if ret == "" {
+		return true
+	}
+	for _, p := range s.Pins {
+		if p.Net == ret && p.Dir != geom.Down {
+			return false
+		}
+	}
+	return true
+}
