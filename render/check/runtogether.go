@@ -1,0 +1,115 @@
+package check
+
+import (
+	"cmp"
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"pare/render/geom"
+	"pare/render/symbol"
+)
+
+// Two parts' labels set on one line with less than a character's width
+// between them read as one label: the reader cannot tell where one part's
+// text ends. A narrow standing part between them does not set them apart,
+// the eye jumps its body (review21 b03 "C15 180pT1": T1's name against
+// C15's plates on the line of C15's label; a02 "C8 100p T3 k=0.01": T3's
+// name on the far side of C8 from C8's label).
+
+// narrowBody is the widest symbol, in grid steps, the eye jumps between two
+// labels on one line: a standing resistor's or capacitor's body with its
+// lead room (symbol package: 1.6 to 2 steps), not a lying part or a device.
+const narrowBody = 2.5
+
+// runGap is how much empty room, in character widths, two labels on one
+// line need between them, not counting the narrow bodies between them.
+const runGap = 1.5
+
+// textLine is one line of a label as the drawer sets it (render/draw.go:
+// left-aligned at the box's left edge, one LineH per line).
+type textLine struct {
+	part string
+	text string
+	box  geom.Rect
+}
+
+// RunTogether lists the pairs of labels of different parts with a line of
+// each on one text line (their line boxes overlap in height) and less than
+// runGap character widths (symbol.CharW) of empty room between them once
+// the narrow bodies in the gap are taken out, or overlapping. Frame
+// titles are left out: the frame's edge sets them apart. A pin figure is
+// its part's (its owner is "ref.pin").
+func RunTogether(g *geom.Sheet) []string {
+	var lines []textLine
+	for _, l := range g.Labels {
+		if strings.HasPrefix(l.Owner, "frame:") || l.Owner == "" {
+			continue
+		}
+		part, _, _ := strings.Cut(l.Owner, ".")
+		for i, s := range l.Lines {
+			w := symbol.TextWidth(s)
+			if i > 0 || l.Small {
+				w *= symbol.SmallScale
+			}
+			y := l.Box.Y0 + float64(i)*symbol.LineH
+			lines = append(lines, textLine{part, s, geom.Rect{X0: l.Box.X0, Y0: y, X1: l.Box.X0 + w, Y1: y + symbol.LineH}})
+		}
+	}
+	seen := map[[2]string]bool{}
+	var out []string
+	for i, a := range lines {
+		for _, b := range lines[i+1:] {
+			if a.part == b.part || math.Min(a.box.Y1, b.box.Y1)-math.Max(a.box.Y0, b.box.Y0) <= geom.Eps {
+				continue
+			}
+			k := [2]string{a.part + "\x00" + a.text, b.part + "\x00" + b.text}
+			if seen[k] || emptyBetween(g, a.box, b.box) >= runGap*symbol.CharW {
+				continue
+			}
+			seen[k] = true
+			out = append(out, fmt.Sprintf("%q (%s) and %q (%s) run together at %s", a.text, a.part, b.text, b.part, pt(geom.Pt{X: a.box.X0, Y: a.box.Y1})))
+		}
+	}
+	return out
+}
+
+// emptyBetween is the room between two text lines' boxes on one line less
+// the width the narrow symbols standing across that line take of it;
+// negative when the boxes overlap.
+func emptyBetween(g *geom.Sheet, a, b geom.Rect) float64 {
+	if a.X0 > b.X0 {
+		a, b = b, a
+	}
+	lo, hi := a.X1, b.X0
+	if hi-lo <= geom.Eps {
+		return hi - lo
+	}
+	y0, y1 := math.Max(a.Y0, b.Y0), math.Min(a.Y1, b.Y1)
+	var spans [][2]float64
+	for _, s := range g.Symbols {
+		r := s.Box
+		if s.Kind == "" || r.W() > narrowBody || r.Y1 <= y0 || r.Y0 >= y1 || r.X1 <= lo || r.X0 >= hi {
+			continue
+		}
+		spans = append(spans, [2]float64{math.Max(r.X0, lo), math.Min(r.X1, hi)})
+	}
+	return hi - lo - covered(spans)
+}
+
+// covered is the length of the union of the spans.
+func covered(spans [][2]float64) float64 {
+	slices.SortFunc(spans, func(p, q [2]float64) int { return cmp.Compare(p[0], q[0]) })
+	total, end := 0.0, math.Inf(-1)
+	for _, sp := range spans {
+		if sp[0] > end {
+			total += sp[1] - sp[0]
+			end = sp[1]
+		} else if sp[1] > end {
+			total += sp[1] - end
+			end = sp[1]
+		}
+	}
+	return total
+}
