@@ -15,14 +15,16 @@ import (
 // detector's IF bypasses, returned to the double-diode-triode's bypassed
 // cathode, read as series capacitors).
 
-// FlatShunts lists the two-terminal symbols of g with one pin on a net
+// FlatShunts lists the resistors and capacitors of g with one pin on a net
 // isReturn accepts and the other on a net it does not, both pins on one
 // horizontal line, and a wire of each pin's net leaving that pin
 // horizontally away from the part: the part lies in line in the row.
 func FlatShunts(g *geom.Sheet, isReturn func(net string) bool) []string {
 	var out []string
 	for _, s := range g.Symbols {
-		if s.Kind == "" || len(s.Pins) != 2 {
+		if s.Kind != "resistor" && s.Kind != "capacitor" || len(s.Pins) != 2 {
+			// a diode or choke to a rail is a rectifier's or a feed's
+			// series part, drawn along its flow
 			continue
 		}
 		a, b := s.Pins[0], s.Pins[1]

@@ -30,20 +30,21 @@ const runGap = 1.5
 // textLine is one line of a label as the drawer sets it (render/draw.go:
 // left-aligned at the box's left edge, one LineH per line).
 type textLine struct {
-	part string
-	text string
-	box  geom.Rect
+	label int // index in the sheet's labels
+	part  string
+	text  string
+	box   geom.Rect
 }
 
-// RunTogether lists the pairs of labels of different parts with a line of
-// each on one text line (their line boxes overlap in height) and less than
+// RunTogether lists the pairs of labels of different parts, once a pair, with a
+// line of each on one text line (their line boxes overlap in height) and less than
 // runGap character widths (symbol.CharW) of empty room between them once
 // the narrow bodies in the gap are taken out, or overlapping. Frame
 // titles are left out: the frame's edge sets them apart. A pin figure is
 // its part's (its owner is "ref.pin").
 func RunTogether(g *geom.Sheet) []string {
 	var lines []textLine
-	for _, l := range g.Labels {
+	for li, l := range g.Labels {
 		if strings.HasPrefix(l.Owner, "frame:") || l.Owner == "" {
 			continue
 		}
@@ -54,17 +55,17 @@ func RunTogether(g *geom.Sheet) []string {
 				w *= symbol.SmallScale
 			}
 			y := l.Box.Y0 + float64(i)*symbol.LineH
-			lines = append(lines, textLine{part, s, geom.Rect{X0: l.Box.X0, Y0: y, X1: l.Box.X0 + w, Y1: y + symbol.LineH}})
+			lines = append(lines, textLine{li, part, s, geom.Rect{X0: l.Box.X0, Y0: y, X1: l.Box.X0 + w, Y1: y + symbol.LineH}})
 		}
 	}
-	seen := map[[2]string]bool{}
+	seen := map[[2]int]bool{} // one finding per pair of labels
 	var out []string
 	for i, a := range lines {
 		for _, b := range lines[i+1:] {
 			if a.part == b.part || math.Min(a.box.Y1, b.box.Y1)-math.Max(a.box.Y0, b.box.Y0) <= geom.Eps {
 				continue
 			}
-			k := [2]string{a.part + "\x00" + a.text, b.part + "\x00" + b.text}
+			k := [2]int{a.label, b.label}
 			if seen[k] || emptyBetween(g, a.box, b.box) >= runGap*symbol.CharW {
 				continue
 			}

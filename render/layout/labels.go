@@ -30,40 +30,13 @@ func placeLabel(c *graph.Circuit, cl *cell, prefer []geom.Dir) {
 	if len(cl.label.Lines) == 0 {
 		return
 	}
-	obs := &obstacles{boxes: []geom.Rect{cl.shape.Box}}
-	for _, p := range cl.shape.Pins {
-		if !c.RoleOf(p.Net).IsACGround() {
-			obs.boxes = append(obs.boxes, corridor(p))
-		}
-	}
-	for _, l := range cl.locals {
-		obs.boxes = append(obs.boxes, l.Box)
-		obs.segs = append(obs.segs, l.Stub...)
-	}
-	w, h := 0.0, 0.0
-	for i, line := range cl.label.Lines {
-		lw := symbol.TextWidth(line)
-		if i > 0 {
-			lw *= symbol.SmallScale
-		}
-		w = math.Max(w, lw)
-		h += symbol.LineH
-	}
+	obs := labelObstacles(c, cl)
+	w, h := labelSize(cl)
 	b := cl.shape.Box
-	cx, cy := (b.X0+b.X1)/2, (b.Y0+b.Y1)/2
+	cy := (b.Y0 + b.Y1) / 2
 	for gap := 0.4; gap < 12; gap += 1 {
 		for _, d := range prefer {
-			var r geom.Rect
-			switch d {
-			case geom.Right:
-				r = geom.Rect{X0: b.X1 + gap, Y0: cy - h/2, X1: b.X1 + gap + w, Y1: cy + h/2}
-			case geom.Left:
-				r = geom.Rect{X0: b.X0 - gap - w, Y0: cy - h/2, X1: b.X0 - gap, Y1: cy + h/2}
-			case geom.Up:
-				r = geom.Rect{X0: cx - w/2, Y0: b.Y0 - gap - h, X1: cx + w/2, Y1: b.Y0 - gap}
-			case geom.Down:
-				r = geom.Rect{X0: cx - w/2, Y0: b.Y1 + gap, X1: cx + w/2, Y1: b.Y1 + gap + h}
-			}
+			r := labelAt(b, d, gap, w, h)
 			if !obs.hits(r.Inset(0.2), nil) {
 				cl.label.Box = r
 				return
@@ -83,4 +56,49 @@ func placeLabel(c *graph.Circuit, cl *cell, prefer []geom.Dir) {
 		}
 	}
 	cl.label.Box = geom.Rect{X0: b.X1 + 12, Y0: cy - h/2, X1: b.X1 + 12 + w, Y1: cy + h/2}
+}
+
+// labelObstacles are what a cell's label must keep clear of: its symbol,
+// the corridors its signal pins' wires leave along, its local symbols.
+func labelObstacles(c *graph.Circuit, cl *cell) *obstacles {
+	obs := &obstacles{boxes: []geom.Rect{cl.shape.Box}}
+	for _, p := range cl.shape.Pins {
+		if !c.RoleOf(p.Net).IsACGround() {
+			obs.boxes = append(obs.boxes, corridor(p))
+		}
+	}
+	for _, l := range cl.locals {
+		obs.boxes = append(obs.boxes, l.Box)
+		obs.segs = append(obs.segs, l.Stub...)
+	}
+	return obs
+}
+
+// labelSize is the width and height of a cell's label, its lines after
+// the first set small.
+func labelSize(cl *cell) (w, h float64) {
+	for i, line := range cl.label.Lines {
+		lw := symbol.TextWidth(line)
+		if i > 0 {
+			lw *= symbol.SmallScale
+		}
+		w = math.Max(w, lw)
+		h += symbol.LineH
+	}
+	return w, h
+}
+
+// labelAt is the label box of size w × h on side d of symbol box b, gap
+// away: centred on the side.
+func labelAt(b geom.Rect, d geom.Dir, gap, w, h float64) geom.Rect {
+	cx, cy := (b.X0+b.X1)/2, (b.Y0+b.Y1)/2
+	switch d {
+	case geom.Right:
+		return geom.Rect{X0: b.X1 + gap, Y0: cy - h/2, X1: b.X1 + gap + w, Y1: cy + h/2}
+	case geom.Left:
+		return geom.Rect{X0: b.X0 - gap - w, Y0: cy - h/2, X1: b.X0 - gap, Y1: cy + h/2}
+	case geom.Up:
+		return geom.Rect{X0: cx - w/2, Y0: b.Y0 - gap - h, X1: cx + w/2, Y1: b.Y0 - gap}
+	}
+	return geom.Rect{X0: cx - w/2, Y0: b.Y1 + gap, X1: cx + w/2, Y1: b.Y1 + gap + h}
 }

@@ -36,11 +36,12 @@ func BiasReturns(c *graph.Circuit) map[string]bool {
 }
 
 // bypassedReturn says whether net n, no rail itself and no declared end,
+// a device's common electrode on it or one resistor away (commonNear),
 // has resistors only to chassis and capacitors to chassis whose reactance,
 // at the lowest frequency any part on n works at, is under the resistors'
 // parallel resistance: the bias point of a bypassed cathode or emitter.
 func bypassedReturn(c *graph.Circuit, n string) bool {
-	if c.RoleOf(n).IsACGround() || isEnd(c, n) {
+	if c.RoleOf(n).IsACGround() || isEnd(c, n) || !commonNear(c, n) {
 		return false
 	}
 	capF, g, f := 0.0, 0.0, math.Inf(1)
@@ -68,6 +69,34 @@ func bypassedReturn(c *graph.Circuit, n string) bool {
 		}
 	}
 	return capF > 0 && g > 0 && !math.IsInf(f, 1) && 1/(2*math.Pi*f*capF) < 1/g
+}
+
+// commonNear says whether a device's common electrode (cathode, emitter,
+// source) sits on net n, or one resistor away (the bypassed lower part of
+// a split cathode or emitter resistor): a bias point, not a filter's
+// output, which a capacitor to chassis also holds at AC ground over the
+// band of the part before it (a detector's IF filter: its output carries
+// the audio).
+func commonNear(c *graph.Circuit, n string) bool {
+	for _, cn := range c.ConnsOf(n) {
+		p := cn.Part
+		if p.IsActive() && graph.RoleOfPin(p.Kind, cn.Pin) == graph.RoleCommon {
+			return true
+		}
+		if p.Kind != graph.Resistor || len(p.Pins) != 2 {
+			continue
+		}
+		other := p.Pins[0].Net
+		if other == n {
+			other = p.Pins[1].Net
+		}
+		for _, fc := range c.ConnsOf(other) {
+			if fc.Part.IsActive() && graph.RoleOfPin(fc.Part.Kind, fc.Pin) == graph.RoleCommon {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // isEnd says whether n is one of the circuit's declared inputs or outputs.
