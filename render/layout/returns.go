@@ -36,12 +36,12 @@ func BiasReturns(c *graph.Circuit) map[string]bool {
 }
 
 // bypassedReturn says whether net n, no rail itself and no declared end,
-// a device's common electrode on it or one resistor away (commonNear),
-// has resistors only to chassis and capacitors to chassis whose reactance,
+// a device's common electrode on it or one resistor away (commonNear) and
+// feeding no device's control (drivesControl), has resistors only to chassis and capacitors to chassis whose reactance,
 // at the lowest frequency any part on n works at, is under the resistors'
 // parallel resistance: the bias point of a bypassed cathode or emitter.
 func bypassedReturn(c *graph.Circuit, n string) bool {
-	if c.RoleOf(n).IsACGround() || isEnd(c, n) || !commonNear(c, n) {
+	if c.RoleOf(n).IsACGround() || isEnd(c, n) || !commonNear(c, n) || drivesControl(c, n) {
 		return false
 	}
 	capF, g, f := 0.0, 0.0, math.Inf(1)
@@ -71,32 +71,77 @@ func bypassedReturn(c *graph.Circuit, n string) bool {
 	return capF > 0 && g > 0 && !math.IsInf(f, 1) && 1/(2*math.Pi*f*capF) < 1/g
 }
 
-// commonNear says whether a device's common electrode (cathode, emitter,
-// source) sits on net n, or one resistor away (the bypassed lower part of
-// a split cathode or emitter resistor): a bias point, not a filter's
-// output, which a capacitor to chassis also holds at AC ground over the
-// band of the part before it (a detector's IF filter: its output carries
-// the audio).
+// commonNear says whether an amplifying device's common electrode
+// (cathode, emitter, source) sits on net n, or one resistor away from a
+// net that is no return itself (the bypassed lower part of a split
+// cathode or emitter resistor): a bias point, not a filter's output,
+// which a capacitor to chassis also holds at AC ground over the band of
+// the part before it (a detector's IF filter: its output carries the
+// audio).
 func commonNear(c *graph.Circuit, n string) bool {
+	if hasCommon(c, n) {
+		return true
+	}
 	for _, cn := range c.ConnsOf(n) {
-		p := cn.Part
-		if p.IsActive() && graph.RoleOfPin(p.Kind, cn.Pin) == graph.RoleCommon {
+		if other, ok := farEnd(cn.Part, n); ok && cn.Part.Kind == graph.Resistor && !c.RoleOf(other).IsACGround() && hasCommon(c, other) {
 			return true
 		}
-		if p.Kind != graph.Resistor || len(p.Pins) != 2 {
+	}
+	return false
+}
+
+// drivesControl says whether a two-terminal part joins net n to an
+// amplifying device's control electrode: n feeds a stage (an oscillator's
+// emitter, its feedback capacitor to chassis a tank's, coupled to a
+// buffer), so it is no return however large its capacitor to chassis.
+func drivesControl(c *graph.Circuit, n string) bool {
+	for _, cn := range c.ConnsOf(n) {
+		other, ok := farEnd(cn.Part, n)
+		if !ok || c.RoleOf(other).IsACGround() {
 			continue
 		}
-		other := p.Pins[0].Net
-		if other == n {
-			other = p.Pins[1].Net
-		}
 		for _, fc := range c.ConnsOf(other) {
-			if fc.Part.IsActive() && graph.RoleOfPin(fc.Part.Kind, fc.Pin) == graph.RoleCommon {
+			if amplifies(fc.Part) && graph.RoleOfPin(fc.Part.Kind, fc.Pin) == graph.RoleControl {
 				return true
 			}
 		}
 	}
 	return false
+}
+
+// hasCommon says whether an amplifying device's common electrode is on n.
+func hasCommon(c *graph.Circuit, n string) bool {
+	for _, cn := range c.ConnsOf(n) {
+		if amplifies(cn.Part) && graph.RoleOfPin(cn.Part.Kind, cn.Pin) == graph.RoleCommon {
+			return true
+		}
+	}
+	return false
+}
+
+// amplifies says whether p is an active part with a control electrode: a
+// valve, transistor or FET, not a diode, whose cathode is no bias point.
+func amplifies(p *graph.Part) bool {
+	if !p.IsActive() {
+		return false
+	}
+	for _, pn := range p.Pins {
+		if graph.RoleOfPin(p.Kind, pn.Name) == graph.RoleControl {
+			return true
+		}
+	}
+	return false
+}
+
+// farEnd is the net at the other end of a two-terminal part from n.
+func farEnd(p *graph.Part, n string) (string, bool) {
+	if len(p.Pins) != 2 {
+		return "", false
+	}
+	if p.Pins[0].Net == n {
+		return p.Pins[1].Net, true
+	}
+	return p.Pins[0].Net, true
 }
 
 // isEnd says whether n is one of the circuit's declared inputs or outputs.
