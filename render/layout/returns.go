@@ -39,12 +39,13 @@ func BiasReturns(c *graph.Circuit) map[string]bool {
 // a device's common electrode on it or one resistor away (commonNear) and
 // feeding no device's control (drivesControl), has resistors only to chassis and capacitors to chassis whose reactance,
 // at the lowest frequency any part on n works at, is under the resistors'
-// parallel resistance: the bias point of a bypassed cathode or emitter.
+// parallel resistance, and dwarfing the capacitors from n to the signal:
+// the bias point of a bypassed cathode or emitter.
 func bypassedReturn(c *graph.Circuit, n string) bool {
 	if c.RoleOf(n).IsACGround() || isEnd(c, n) || !commonNear(c, n) || drivesControl(c, n) {
 		return false
 	}
-	capF, g, f := 0.0, 0.0, math.Inf(1)
+	capF, g, f, toSignal := 0.0, 0.0, math.Inf(1), 0.0
 	for _, cn := range c.ConnsOf(n) {
 		p := cn.Part
 		if b := c.BandOf(p); b.Min > 0 {
@@ -59,6 +60,8 @@ func bypassedReturn(c *graph.Circuit, n string) bool {
 		}
 		role := c.RoleOf(other)
 		switch {
+		case !role.IsACGround() && p.Kind == graph.Capacitor:
+			toSignal += p.Value.Max
 		case !role.IsACGround():
 		case p.Kind == graph.Resistor && role != graph.Ground:
 			return false // fed from a rail: a decoupled line, not a return
@@ -68,7 +71,9 @@ func bypassedReturn(c *graph.Circuit, n string) bool {
 			capF += p.Value.Max
 		}
 	}
-	return capF > 0 && g > 0 && !math.IsInf(f, 1) && 1/(2*math.Pi*f*capF) < 1/g
+	// a bypass dwarfs the capacitors to the signal; a capacitive
+	// divider's tap (a Colpitts emitter) is no bypass point
+	return capF > 0 && g > 0 && !math.IsInf(f, 1) && 1/(2*math.Pi*f*capF) < 1/g && capF > bypassRatio*toSignal
 }
 
 // commonNear says whether an amplifying device's common electrode
@@ -144,17 +149,27 @@ func farEnd(p *graph.Part, n string) (string, bool) {
 	return p.Pins[0].Net, true
 }
 
+// bypassRatio is how many times the capacitance from a bias point to the
+// signal its capacitor to chassis must be to count as its bypass (a
+// cathode's 25 µF against a detector's 100 pF IF bypasses; a Colpitts
+// divider's 1 nF against 470 pF is a tap, not a bypass).
+const bypassRatio = 10
+
 // isEnd says whether n is one of the circuit's declared inputs or outputs.
 func isEnd(c *graph.Circuit, n string) bool {
 	return slices.Contains(c.Inputs, n) || slices.Contains(c.Outputs, n)
 }
 
-// returnPin is the net of a two-terminal part's end on a bias return
+// returnPin is the net of a capacitor's end on a bias return
 // when its other end carries the signal: the part is a shunt, and that end
 // points down as a shunt's to chassis does. "" for any other part.
 func (ly *state) returnPin(cl *cell) string {
 	pins := cl.part.Pins
-	if len(pins) != 2 || cl.part.IsActive() || cl.conn {
+	if len(pins) != 2 || cl.part.Kind != graph.Capacitor || cl.conn {
+		// only a capacitor: a resistor to a bias return is mostly the
+		// upper part of a split cathode or emitter resistor, which hung
+		// down re-routed whole pages round it and raised the wire
+		// ratchets (cmd/pare alongPartCeiling, connWireCeiling)
 		return ""
 	}
 	for i, p := range pins {

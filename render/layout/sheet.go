@@ -38,7 +38,6 @@ func placeOnce(c *graph.Circuit, o Options, turns map[string]int, free bool, off
 		placeLabel(c, cl, labelPrefs(cl))
 	}
 	ly.place()
-	ly.apartLabels()
 	return ly
 }
 
