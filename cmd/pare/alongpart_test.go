@@ -38,7 +38,9 @@ import (
 // the mixer row routed afresh at full size, vcc_if beside R5 and q2_bias
 // round it on its full and faded page 1; the review pages' fatal findings
 // 16 → 5, a page fewer.
-const alongPartCeiling = 124
+// 123 with shunt capacitors to a bypassed cathode hung down to it
+// (render/layout/returns.go).
+const alongPartCeiling = 123
 
 // commonLeadCeiling is how many crossings, on the same pages, lie on the
 // run of wire leaving a device's emitter, source or cathode (render/check's
