@@ -1138,6 +1138,24 @@ C1 = { c = "470u", pins = ["e", "spk"] }
 LS1 = { spk = "8R", pins = ["spk", "gnd"] }
 R8 = { r = "10", pins = ["spk", "z"] }
 C4 = { c = "4u7", pins = ["z", "gnd"] }`},
+	// The Zobel at the follower's output, the output capacitor between it
+	// and the loudspeaker (review22 b04: 10 Ω + 47 nF at the mid-point,
+	// 470 µF into 8 Ω). The load the output sees stays between 8 Ω and
+	// |8 − j8.47| = 11.6 Ω at 40 Hz (derived, 1/(2π·40·470µ) = 8.47 Ω).
+	{topology: "zobel-before-output-capacitor", families: allFamilies, want: "passive", extra: audioRegion,
+		parts: `@Q1(in, e, ht)
+R1 = { r = "1k", pins = ["e", "gnd"] }
+C1 = { c = "470u", pins = ["e", "spk"] }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }
+R8 = { r = "10", pins = ["e", "z"] }
+C4 = { c = "47n", pins = ["z", "gnd"] }`,
+		// 100 Ω: twelve times the loudspeaker, no load held near 8 Ω.
+		nearMiss: `@Q1(in, e, ht)
+R1 = { r = "1k", pins = ["e", "gnd"] }
+C1 = { c = "470u", pins = ["e", "spk"] }
+LS1 = { spk = "8R", pins = ["spk", "gnd"] }
+R8 = { r = "100", pins = ["e", "z"] }
+C4 = { c = "47n", pins = ["z", "gnd"] }`},
 	// An output capacitor into the loudspeaker: the follower's common
 	// electrode drives it, the speaker is its load (470 µF into 8 Ω beside
 	// nothing else: 42.3 Hz, fc = 1/(2πRC), handbook).
@@ -1347,6 +1365,18 @@ RV1 = { pot = "220R", set = 0.3, pins = ["dm", "dm", "bp"] }`,
 		nearMiss: complementaryPair + `
 D1 = { diode = "signal", pins = ["bn", "bp"] }
 RV1 = { pot = "220R", set = 0.3, pins = ["bp", "bp", "gnd"] }`},
+	// The preset at the NPN's end of the chain, a diode below it to the
+	// PNP's base where the driver's collector meets it (review22 b04's
+	// form: VR1 strapped at the NPN's base, D1 to the driver).
+	{topology: "complementary-pair-preset-upper", families: []string{"bjt"}, want: "bjt",
+		parts: complementaryPair + `
+RV1 = { pot = "220R", set = 0.3, pins = ["bn", "bn", "dm"] }
+D1 = { diode = "signal", pins = ["dm", "bp"] }`,
+		// The preset from the supply, not from the NPN's base: the chain
+		// feeds the PNP's base from the rail, no network between the bases.
+		nearMiss: complementaryPair + `
+RV1 = { pot = "220R", set = 0.3, pins = ["ht", "ht", "dm"] }
+D1 = { diode = "signal", pins = ["dm", "bp"] }`},
 	// A driver into a driver transformer whose centre-tapped secondary
 	// feeds the two bases (grids) of a push-pull pair in antiphase.
 	{topology: "driver-transformer", families: allFamilies, extra: driverRegion,

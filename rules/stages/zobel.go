@@ -26,7 +26,7 @@ import (
 // (docs/netlist.md), so the solver shows what the Zobel adds, not the
 // voice coil it compensates.
 func init() {
-	calcs["zobel"] = calc{args: []string{"r", "c", "speaker"}, required: []string{"r", "c", "speaker"}, fn: calcZobel}
+	calcs["zobel"] = calc{args: []string{"r", "c", "speaker", "coupling"}, required: []string{"r", "c", "speaker"}, fn: calcZobel}
 }
 
 // zobelFloor is the least |Z| across the band, as a share of the
@@ -59,7 +59,18 @@ func calcZobel(x *figCtx) {
 	if x.w.c.RoleOf(hot).IsACGround() {
 		hot = spk.Pins[1].Net
 	}
-	lo, hi, ok := loadSpan(x.w.c, hot, []string{r.NetOf(r.Pins[0].Name), r.NetOf(r.Pins[1].Name)}, b.Min, b.Max)
+	also := []string{r.NetOf(r.Pins[0].Name), r.NetOf(r.Pins[1].Name)}
+	if co := x.part("coupling"); co != nil && len(co.Pins) == 2 {
+		// The Zobel stands at the amplifier's output, the output
+		// capacitor between it and the loudspeaker: the load is what the
+		// output sees, the Zobel across the capacitor and loudspeaker.
+		also = append(also, hot)
+		hot = co.Pins[0].Net
+		if hot == spk.Pins[0].Net || hot == spk.Pins[1].Net {
+			hot = co.Pins[1].Net
+		}
+	}
+	lo, hi, ok := loadSpan(x.w.c, hot, also, b.Min, b.Max)
 	if !ok || lo < zobelFloor*rating {
 		return
 	}
