@@ -157,6 +157,9 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 	if r, err = f.orFromFirst(a, b, r); err != nil {
 		return nil, err
 	}
+	if r, err = f.orCloser(a, b, r); err != nil {
+		return nil, err
+	}
 	f.laid[[2]int{a, b}] = r
 	f.rows[key] = r
 	return r, nil

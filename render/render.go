@@ -186,6 +186,9 @@ type Sheet struct {
 	fromFirst bool
 	// compact stacks a row's blocks closer (layout.Options.Compact)
 	compact bool
+	// closeGaps takes back the columns a template left empty
+	// (layout.Options.CloseGaps)
+	closeGaps bool
 	// placed is the sheet placed without routing for its extents or its
 	// least box, which its layout takes instead of placing it again
 	// (layout.Options.Placed); nil once laid out, and on a copy.
@@ -262,6 +265,7 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	o.SupplyFlow = s.supplyFlow
 	o.RankFromFirst = s.fromFirst
 	o.Compact = s.compact
+	o.CloseGaps = s.closeGaps
 	o.DeviceStages = s.row
 	for _, f := range s.Frames {
 		o.Frames = append(o.Frames, layout.Frame{Title: f.Title, Subtitle: f.Subtitle, Parts: f.Parts, Places: f.Places, Supply: f.Supply})

@@ -14,10 +14,19 @@ import (
 // carry anyway: cut off as a piece of their own, the stage keeps the
 // paper's scale and they stand on the row their wires come from, or the
 // next.
+//
+// A rider tied to the stretch's own parts only by a net another stretch
+// holds too is as loose: that net runs on to the other stretch by a
+// connector pair wherever the two stand on different rows, and the rider
+// can take such a pair as well. Review21 b05's faded mixer, 147 units
+// against 136 with its text at 2.31 mm, carried its base bias divider
+// and decoupler (R1, R2, C1) for the far end of the aerial rod's base
+// winding, tied to the stage only by the front end's decoupled supply
+// line, which its decoupler (another stretch) holds as well.
 
 // riderPieces is stretch bs[a], too big for its page, as two pieces: its
 // own parts and the riders wired to none of them (not through another
-// rider either), those first when a wire of theirs reaches a stretch
+// rider either) by a net no other stretch holds, those first when a wire of theirs reaches a stretch
 // before it, else after; nil when it has pieces already or no such
 // riders. The riders' piece takes their width in the whole sheet's
 // placement (ext) at the side of the stretch it goes on.
@@ -26,7 +35,7 @@ func riderPieces(c *graph.Circuit, bs []block, a int, ext map[string]geom.Rect) 
 	if len(b.pieces) > 0 || len(b.riders) == 0 {
 		return nil
 	}
-	free := looseRiders(c, b)
+	free := looseRiders(c, b, heldElsewhere(c, bs, a))
 	if len(free) == 0 {
 		return nil
 	}
@@ -53,8 +62,9 @@ func riderPieces(c *graph.Circuit, bs []block, a int, ext map[string]geom.Rect) 
 }
 
 // looseRiders are the riders of stretch b that share no wired net with
-// its own parts, directly or through the riders that do.
-func looseRiders(c *graph.Circuit, b block) map[string]bool {
+// its own parts, directly or through the riders that do, counting only
+// the nets no other stretch holds (elsewhere).
+func looseRiders(c *graph.Circuit, b block, elsewhere map[string]bool) map[string]bool {
 	rider := map[string]bool{}
 	for _, r := range b.riders {
 		rider[r] = true
@@ -63,7 +73,7 @@ func looseRiders(c *graph.Circuit, b block) map[string]bool {
 	for _, r := range b.refs {
 		if p := c.Part(r); p != nil && !rider[r] {
 			for _, n := range wiredNets(c, p) {
-				held[n] = true
+				held[n] = !elsewhere[n]
 			}
 		}
 	}
@@ -80,7 +90,7 @@ func looseRiders(c *graph.Circuit, b block) map[string]bool {
 				if held[n] {
 					tied[r], grew = true, true
 					for _, m := range nets {
-						held[m] = true
+						held[m] = !elsewhere[m]
 					}
 					break
 				}
@@ -94,6 +104,25 @@ func looseRiders(c *graph.Circuit, b block) map[string]bool {
 		}
 	}
 	return free
+}
+
+// heldElsewhere are the wired nets of the parts of every stretch but
+// bs[a].
+func heldElsewhere(c *graph.Circuit, bs []block, a int) map[string]bool {
+	out := map[string]bool{}
+	for i, b := range bs {
+		if i == a {
+			continue
+		}
+		for _, r := range b.refs {
+			if p := c.Part(r); p != nil {
+				for _, n := range wiredNets(c, p) {
+					out[n] = true
+				}
+			}
+		}
+	}
+	return out
 }
 
 // reachesBack says whether a wired net of one of refs is held by a part

@@ -140,6 +140,11 @@ type Options struct {
 	// (render/compactrows.go), kept only where the checker finds the row
 	// no worse for it
 	Compact bool
+	// CloseGaps moves the stages after a template back left by the
+	// columns its moves left empty (giveBack): the caller's retry of a
+	// row of one stretch too wide for its page (render/flow.go), which
+	// would otherwise be drawn smaller than the 2.5 mm text rule
+	CloseGaps bool
 	// SupplyFlow gives, on a row of a paged sheet, each supply part's step
 	// along the whole sheet's supply flow (SupplyFlow); nil: found here.
 	SupplyFlow map[string]int

@@ -116,6 +116,11 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 		return
 	}
 	ly.slotMoves(anchor, slots)
+	var after map[*block]bool
+	gap := -1.0
+	if ly.o.CloseGaps {
+		after, gap = ly.rightOf(stage, all)
+	}
 	ly.makeRoom(stage, slots, all)
 	ly.refuseCollisions(stage, slots, all)
 	unhang(slots)
@@ -136,6 +141,7 @@ func (ly *state) template(stage int, places []Place, blockOf map[string]*block, 
 		}
 	}
 	ly.clearRails(span, all)
+	ly.giveBack(stage, after, gap, all)
 }
 
 // clearRails moves each block that yields to a template (yields) and that

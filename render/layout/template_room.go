@@ -47,6 +47,81 @@ func (ly *state) makeRoom(stage int, slots []*slotted, all []*block) {
 	}
 }
 
+// A template that moves blocks from right of its anchor to its left (an
+// oscillator's grid leak, grid capacitor and gang section stood left of
+// the valve) leaves their columns empty, and makeRoom has already moved
+// the stages after it right by what the slots need on the left: the
+// stretch came out wider than its parts by those empty columns (review21
+// a05's reduced mixer, 142 units for 107 placed, its text drawn at
+// 2.39 mm). The stages after it move back left until the gap before them
+// is the one the generic placement left, wide enough for the same routing
+// tracks.
+
+// rightOf is the blocks standing right of a stage's blocks, none of its
+// own, and the gap between them and everything else (the least x of
+// theirs less the greatest x of the rest); gap < 0 where none stand
+// there or a block of the rest reaches over them.
+func (ly *state) rightOf(stage int, all []*block) (map[*block]bool, float64) {
+	extent := geom.Rect{}
+	for _, b := range all {
+		if ly.blockStage(b) == stage {
+			extent = extent.Union(b.fp)
+		}
+	}
+	if extent == (geom.Rect{}) {
+		return nil, -1
+	}
+	after := map[*block]bool{}
+	for _, b := range all {
+		if ly.blockStage(b) != stage && b.fp.X0 >= extent.X1 {
+			after[b] = true
+		}
+	}
+	return after, ly.gapBefore(stage, after, all)
+}
+
+// gapBefore is the gap between the blocks after a stage and the rest,
+// the stage's frame title counted where it is wider than the stage's
+// parts (the frame is drawn round both); -1 for none after.
+func (ly *state) gapBefore(stage int, after map[*block]bool, all []*block) float64 {
+	lo, hi, own := math.Inf(1), math.Inf(-1), geom.Rect{}
+	for _, b := range all {
+		if after[b] {
+			lo = math.Min(lo, b.fp.X0)
+			continue
+		}
+		hi = math.Max(hi, b.fp.X1)
+		if ly.blockStage(b) == stage {
+			own = own.Union(b.fp)
+		}
+	}
+	if stage >= 0 && stage < len(ly.o.Frames) && own != (geom.Rect{}) {
+		hi = math.Max(hi, own.X0+titleWidth(ly.o.Frames[stage], own.W()))
+	}
+	if math.IsInf(lo, 1) || math.IsInf(hi, -1) {
+		return -1
+	}
+	return lo - hi
+}
+
+// giveBack moves the blocks after a stage left by what its template left
+// empty before them: back to the gap they had (rightOf) before the
+// template moved anything.
+func (ly *state) giveBack(stage int, after map[*block]bool, gap float64, all []*block) {
+	if gap < 0 || len(after) == 0 {
+		return
+	}
+	d := math.Floor(ly.gapBefore(stage, after, all) - gap)
+	if d <= 0 {
+		return
+	}
+	for _, b := range all {
+		if after[b] {
+			b.move(geom.Pt{X: -d})
+		}
+	}
+}
+
 // refuseCollisions refuses the slots that would touch another block or
 // stretch the stage's frame over a part of another stage or none,
 // refusing one at a time, the last listed first, until the rest fit.
