@@ -35,6 +35,7 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 		return places
 	}
 	common := [2]string{netOf(devs[0], graph.RoleCommon), netOf(devs[2], graph.RoleCommon)}
+	supply := supplyOf(c, places, devs[0], devs[2])
 	out := slices.Clone(places)
 	flipped := mirror && mirrorPair(c, devs[0], devs[2], common)
 	feedRow := [3]int{-1, -1, 3} // the upper half's, a shared, the lower half's feed
@@ -114,9 +115,9 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 			continue // a bypass is no feed: it comes with its feed (feedBypass)
 		}
 		switch {
-		case sharedFeed(c, q, devs[0], devs[2]):
+		case sharedFeed(c, q, devs[0], devs[2], supply):
 			add(ref, 1, feedRow[1], "vertical")
-			if cap := feedBypass(c, q, placed); cap != "" {
+			if cap := feedBypass(c, q, placed, supply); cap != "" {
 				// above the transformer, clear of the pair; on a
 				// flipped pair, in the feeds' column under the feed,
 				// level with the lower device (a shared feed leaves no
@@ -129,9 +130,9 @@ func pairPlaces(places []render.Place, parts []string, c *graph.Circuit, mirror 
 				}
 				add(cap, col, row, "vertical")
 			}
-		case ownFeed(c, q, devs[0]):
+		case ownFeed(c, q, devs[0], supply):
 			add(ref, 1, feedRow[0], feedStand)
-		case ownFeed(c, q, devs[2]):
+		case ownFeed(c, q, devs[2], supply):
 			add(ref, 1, feedRow[2], feedStand)
 		}
 	}
@@ -170,8 +171,8 @@ func leaksIn(c *graph.Circuit, parts []string, d1, d2 *graph.Part) bool {
 
 // sharedFeed says whether two-terminal q joins a net both devices have a
 // pin on, other than their common electrode's and AC ground (a heater
-// return is on chassis), to AC ground (a supply).
-func sharedFeed(c *graph.Circuit, q, d1, d2 *graph.Part) bool {
+// return is on chassis), to a supply (supplyNet).
+func sharedFeed(c *graph.Circuit, q, d1, d2 *graph.Part, supplyNet func(string) bool) bool {
 	on := func(d *graph.Part, net string) bool {
 		for _, p := range d.Pins {
 			if p.Net == net && graph.RoleOfPin(d.Kind, p.Name) != graph.RoleCommon {
@@ -182,7 +183,7 @@ func sharedFeed(c *graph.Circuit, q, d1, d2 *graph.Part) bool {
 	}
 	shared, supply := false, false
 	for _, p := range q.Pins {
-		ground := c.RoleOf(p.Net).IsACGround()
+		ground := supplyNet(p.Net)
 		shared = shared || !ground && on(d1, p.Net) && on(d2, p.Net)
 		supply = supply || ground
 	}
@@ -191,10 +192,10 @@ func sharedFeed(c *graph.Circuit, q, d1, d2 *graph.Part) bool {
 
 // feedBypass is the capacitor from a shared feed's far end (the screens)
 // to AC ground, drawn beside the feed; "" for none.
-func feedBypass(c *graph.Circuit, feed *graph.Part, placed map[string]bool) string {
+func feedBypass(c *graph.Circuit, feed *graph.Part, placed map[string]bool, supplyNet func(string) bool) string {
 	far := ""
 	for _, p := range feed.Pins {
-		if !c.RoleOf(p.Net).IsACGround() {
+		if !supplyNet(p.Net) {
 			far = p.Net
 		}
 	}
@@ -210,11 +211,11 @@ func feedBypass(c *graph.Circuit, feed *graph.Part, placed map[string]bool) stri
 }
 
 // ownFeed says whether two-terminal q joins a further grid of device d
-// (its screen) to AC ground (a supply): a screen resistor of its own.
-func ownFeed(c *graph.Circuit, q, d *graph.Part) bool {
+// (its screen) to a supply (supplyNet): a screen resistor of its own.
+func ownFeed(c *graph.Circuit, q, d *graph.Part, supplyNet func(string) bool) bool {
 	grid, supply := false, false
 	for _, p := range q.Pins {
-		ground := c.RoleOf(p.Net).IsACGround()
+		ground := supplyNet(p.Net)
 		for _, dp := range d.Pins {
 			grid = grid || !ground && dp.Net == p.Net && graph.RoleOfPin(d.Kind, dp.Name) == graph.RoleGrid
 		}
@@ -263,4 +264,47 @@ func touchesGround(c *graph.Circuit, q *graph.Part) bool {
 		}
 	}
 	return false
+}
+
+// supplyOf says which nets a pair's feeds come from: AC ground, and the
+// net of the output transformer's centre tap (the winding end both
+// halves' output windings share), which the reduction keeps as a line of
+// its own where only the smoothing capacitor grounds it (review21 a04's
+// HT): a screen stopper to it is a feed as one to a rail is.
+func supplyOf(c *graph.Circuit, places []render.Place, d1, d2 *graph.Part) func(string) bool {
+	ct := ""
+	for _, pl := range places {
+		if t := c.Part(pl.Ref); t != nil && t.Kind == graph.Transformer && ct == "" {
+			ct = centreTap(t, netOf(d1, graph.RoleOutput), netOf(d2, graph.RoleOutput))
+		}
+	}
+	return func(net string) bool {
+		return c.RoleOf(net).IsACGround() || net != "" && net == ct
+	}
+}
+
+// centreTap is the net where the windings from outputs o1 and o2 meet
+// on transformer t (the centre tap of a push-pull primary), "" if none.
+func centreTap(t *graph.Part, o1, o2 string) string {
+	ends := func(o string) map[string]bool {
+		out := map[string]bool{}
+		for _, w := range t.Windings {
+			a, b := t.NetOf(w.From), t.NetOf(w.To)
+			switch {
+			case a == o && b != o:
+				out[b] = true
+			case b == o && a != o:
+				out[a] = true
+			}
+		}
+		return out
+	}
+	e2 := ends(o2)
+	ct := ""
+	for n := range ends(o1) {
+		if e2[n] && n != "" && (ct == "" || n < ct) {
+			ct = n
+		}
+	}
+	return ct
 }

@@ -28,7 +28,7 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 		}
 	}
 	hosts := supplyHosts(found, full)
-	loose := looseSupply(found, full, hosts)
+	loose := looseSupply(found, reduced, full, hosts)
 	var frames []render.Frame
 	var names []string
 	for _, s := range found {

@@ -1,6 +1,8 @@
 package pipeline
 
 import (
+	"slices"
+
 	"pare/graph"
 	"pare/render"
 	"pare/rules/stages"
@@ -39,7 +41,7 @@ func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *
 	walk(s)
 	out = append(out, ladderPlaces(s.Parts, reduced)...)
 	if s.Topology == "push-pull" {
-		c, parts := reduced, s.Parts
+		c, parts := reduced, append(slices.Clone(s.Parts), loose...)
 		if full != nil {
 			c, parts = full, append(originals(s.Parts, reduced, full), loose...)
 		}
@@ -129,14 +131,37 @@ func originals(refs []string, reduced, full *graph.Circuit) []string {
 	return out
 }
 
-// looseSupply are the parts of the supply sections no frame holds on a
-// sheet of the original circuit (filterSection without a host): a
-// template may take one (a pair's shared screen feed) into its frame.
-func looseSupply(found []stages.Stage, full *graph.Circuit, hosts map[string]string) []string {
+// looseSupply are the parts no frame holds that a template may take into
+// its frame: the supply sections' on a sheet of the original circuit
+// (filterSection without a host: a pair's shared screen feed), and on
+// every sheet the parts no stage holds (a pair's own screen stoppers to
+// HT, which no pattern names: left out of the pair's template they stood
+// between the anodes and the transformer on the reduced sheet, their
+// wires looping round the primary, and on the supply's page of the faded
+// view, review21 a04).
+func looseSupply(found []stages.Stage, reduced, full *graph.Circuit, hosts map[string]string) []string {
 	var out []string
+	held := map[string]bool{}
 	for _, s := range found {
+		for _, ref := range s.Parts {
+			held[ref] = true
+			if p := reduced.Part(ref); full != nil && p != nil {
+				for _, o := range p.Origins() {
+					held[o] = true
+				}
+			}
+		}
 		if filterSection(s, full) && hosts[s.Name] == "" {
 			out = append(out, s.Parts...)
+		}
+	}
+	drawn := full
+	if drawn == nil {
+		drawn = reduced
+	}
+	for _, p := range drawn.Parts {
+		if !held[p.Ref] {
+			out = append(out, p.Ref)
 		}
 	}
 	return out
