@@ -4,6 +4,8 @@ import (
 	"math"
 	"slices"
 
+	"pare/graph"
+
 	"pare/render/geom"
 )
 
@@ -239,8 +241,75 @@ func (ly *state) slotMoves(anchor *block, slots []*slotted) {
 			}
 		}
 	}
+	ly.hangCommon(anchor, slots)
 	ly.levelLying(slots)
 	ly.alignChains(anchor, slots)
+}
+
+// hangCommon stands a mirrored pair's common network (the blocks whose top
+// pin is on the anchor's common net, off column 0) with that pin level
+// with the middle of the two devices' common pins, where their leads meet
+// on the centre line. Centred in its row instead, it stood where the
+// row's tallest block put it (the output transformer's label above or
+// beside it), and its wire jogged to meet the centre line (review13 a04).
+func (ly *state) hangCommon(anchor *block, slots []*slotted) {
+	if !ly.flippedBelow(slots) {
+		return
+	}
+	pa := commonPin(anchor.cells[0])
+	if pa == nil {
+		return
+	}
+	var yb float64
+	found := false
+	stands := ly.stands()
+	for _, s := range slots {
+		if s.col == 0 && len(s.b.cells) == 1 && stands[s.b.cells[0].ref] == StandFlipped {
+			if p := commonPin(s.b.cells[0]); p != nil && p.Net == pa.Net {
+				yb, found = p.At.Y+s.d.Y, true
+			}
+		}
+	}
+	if !found {
+		return
+	}
+	mid := math.Round((pa.At.Y + yb) / 2)
+	for _, s := range slots {
+		if s.row == 0 || s.col == 0 {
+			continue // under the upper device it hangs from its common lead
+		}
+		if y, ok := netTop(s.b, pa.Net); ok {
+			s.d.Y = mid - y
+		}
+	}
+}
+
+// netTop is the y of the highest pin, pointing up, of a block's parts on
+// net (a cathode resistor and its bypass drawn as one block); false for
+// none.
+func netTop(b *block, net string) (float64, bool) {
+	top, ok := 0.0, false
+	for _, cl := range b.cells {
+		for _, p := range cl.shape.Pins {
+			if p.Net == net && p.Dir == geom.Up && (!ok || p.At.Y < top) {
+				top, ok = p.At.Y, true
+			}
+		}
+	}
+	return top, ok
+}
+
+// commonPin is a device cell's common electrode's pin (a pentode's
+// suppressor may share its net: the cathode's own pin is meant), nil for
+// none.
+func commonPin(a *cell) *geom.Pin {
+	name := a.part.PinWithRole(graph.RoleCommon)
+	for i, p := range a.shape.Pins {
+		if name != "" && p.Name == name {
+			return &a.shape.Pins[i]
+		}
+	}
+	return nil
 }
 
 // pairColumn is the span of the anchor's column, from lo to hi as its
