@@ -45,28 +45,23 @@ type textLine struct {
 func RunTogether(g *geom.Sheet) []string {
 	var lines []textLine
 	for li, l := range g.Labels {
-		if strings.HasPrefix(l.Owner, "frame:") || l.Owner == "" {
+		if !PartLabel(l) {
 			continue
 		}
-		part, _, _ := strings.Cut(l.Owner, ".")
-		for i, s := range l.Lines {
-			w := symbol.TextWidth(s)
-			if i > 0 || l.Small {
-				w *= symbol.SmallScale
-			}
-			y := l.Box.Y0 + float64(i)*symbol.LineH
-			lines = append(lines, textLine{li, part, s, geom.Rect{X0: l.Box.X0, Y0: y, X1: l.Box.X0 + w, Y1: y + symbol.LineH}})
+		part := LabelPart(l)
+		for i, box := range LineBoxes(l) {
+			lines = append(lines, textLine{li, part, l.Lines[i], box})
 		}
 	}
 	seen := map[[2]int]bool{} // one finding per pair of labels
 	var out []string
 	for i, a := range lines {
 		for _, b := range lines[i+1:] {
-			if a.part == b.part || math.Min(a.box.Y1, b.box.Y1)-math.Max(a.box.Y0, b.box.Y0) <= geom.Eps {
+			if a.part == b.part {
 				continue
 			}
 			k := [2]int{a.label, b.label}
-			if seen[k] || emptyBetween(g, a.box, b.box) >= runGap*symbol.CharW {
+			if seen[k] || !linesRun(g, a.box, b.box) {
 				continue
 			}
 			seen[k] = true
@@ -74,6 +69,66 @@ func RunTogether(g *geom.Sheet) []string {
 		}
 	}
 	return out
+}
+
+// PartLabel says whether l is a part's label or pin figure, the labels
+// RunTogether weighs: not a frame's title, not an unowned text.
+func PartLabel(l geom.Label) bool {
+	return l.Owner != "" && !strings.HasPrefix(l.Owner, "frame:")
+}
+
+// LabelPart is the part a label is of: a pin figure's ("ref.pin") is its
+// part's.
+func LabelPart(l geom.Label) string {
+	part, _, _ := strings.Cut(l.Owner, ".")
+	return part
+}
+
+// LineBoxes are the boxes of a label's text lines as the drawer sets them
+// (render/draw.go: left-aligned at the box's left edge, one LineH per
+// line, lines after the first and small labels at SmallScale).
+func LineBoxes(l geom.Label) []geom.Rect {
+	out := make([]geom.Rect, len(l.Lines))
+	for i, s := range l.Lines {
+		w := symbol.TextWidth(s)
+		if i > 0 || l.Small {
+			w *= symbol.SmallScale
+		}
+		y := l.Box.Y0 + float64(i)*symbol.LineH
+		out[i] = geom.Rect{X0: l.Box.X0, Y0: y, X1: l.Box.X0 + w, Y1: y + symbol.LineH}
+	}
+	return out
+}
+
+// LabelsRun says whether a line of label a and a line of label b run
+// together on g: RunTogether's test for one pair, whatever their owners.
+func LabelsRun(g *geom.Sheet, a, b geom.Label) bool {
+	return LabelRoom(g, a, b) < runGap*symbol.CharW
+}
+
+// LabelRoom is the least empty room, in grid units, between a line of label
+// a and a line of label b that share a text line, the narrow bodies between
+// taken out (negative when they overlap); +Inf when no lines share one.
+func LabelRoom(g *geom.Sheet, a, b geom.Label) float64 {
+	room := math.Inf(1)
+	bb := LineBoxes(b)
+	for _, ra := range LineBoxes(a) {
+		for _, rb := range bb {
+			if math.Min(ra.Y1, rb.Y1)-math.Max(ra.Y0, rb.Y0) > geom.Eps {
+				room = math.Min(room, emptyBetween(g, ra, rb))
+			}
+		}
+	}
+	return room
+}
+
+// linesRun says whether two text lines' boxes share a text line with less
+// than runGap character widths of empty room between them.
+func linesRun(g *geom.Sheet, a, b geom.Rect) bool {
+	if math.Min(a.Y1, b.Y1)-math.Max(a.Y0, b.Y0) <= geom.Eps {
+		return false
+	}
+	return emptyBetween(g, a, b) < runGap*symbol.CharW
 }
 
 // emptyBetween is the room between two text lines' boxes on one line less
