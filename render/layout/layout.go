@@ -26,7 +26,8 @@
 // y), template.go and template_orient.go (a recognised stage's parts moved
 // to the slots its pattern's drawing template gives round its active
 // part, and oriented for them), frames.go and links.go (stage frames, gang links), sheet.go (one
-// placement routed and assembled), fade.go (the faded view's greying of
+// placement routed and assembled; labelnudge.go: two parts' labels that run
+// together set apart after routing), fade.go (the faded view's greying of
 // the full view's wires, and the plain full view), untangle.go (the search for fewer
 // crossings), rows.go (off-row connectors of a row of a paged sheet), and the router: grid.go (the grid and its costs), search.go
 // and queue.go (A*), reroute.go (net order, rip-up and reroute), emit.go

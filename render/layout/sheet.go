@@ -152,6 +152,7 @@ func assemble(ly *state, w *wiring) *Result {
 		g.Links = ly.links(g)
 	}
 	placePinFigures(ly, g)
+	apartLabels(g) // after routing: the wires stay the router's (labelnudge.go)
 	if ly.o.Plain {
 		plain(ly, res)
 	}
