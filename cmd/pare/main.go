@@ -93,7 +93,9 @@ func (e *env) pipeline(o pipeline.Options) (*pipeline.Result, error) {
 func main() {
 	tuneCollector()
 	stop := startProfile()
+	stopMem := startMemProfile()
 	code := run(os.Args[1:], os.Stdout, os.Stderr)
+	stopMem()
 	stop()
 	os.Exit(code)
 }
