@@ -202,7 +202,9 @@ func BenchmarkCompareExample(b *testing.B) {
 // BenchmarkCompareBank is verify's comparison on a receiver bank of about
 // 100, 1,000 and 10,000 parts (internal/synth, seed 1) against a copy of
 // itself: every input to every output, each region, each port impedance, at
-// three gang settings. It reports the process CPU time per operation too:
+// three gang settings. It reports the process CPU time per operation too,
+// and the largest live heap it saw (peak-live-MB: the probes a comparison
+// keeps assembled at once):
 //
 //	go test -run XXX -bench CompareBank -benchtime 1x -cpu 1 ./graph/ac/
 func BenchmarkCompareBank(b *testing.B) {
@@ -214,11 +216,13 @@ func BenchmarkCompareBank(b *testing.B) {
 		d := c.Clone()
 		b.Run(fmt.Sprint(parts), func(b *testing.B) {
 			cpu0 := cpuTime()
+			w := watchLive()
 			for i := 0; i < b.N; i++ {
 				if _, err := Compare(c, d, CompareOptions{}); err != nil {
 					b.Fatal(err)
 				}
 			}
+			b.ReportMetric(w.stop(), "peak-live-MB")
 			b.ReportMetric((cpuTime()-cpu0).Seconds()/float64(b.N), "cpu-s/op")
 		})
 	}

@@ -366,6 +366,8 @@ func (cp *comparer) quantity(q quantity, get func(ci, si int, what, from, to str
 			continue
 		}
 		p, err := cp.sweep(po, pr, q.bands)
+		po.release()
+		pr.release()
 		if err != nil {
 			if p.origFailed {
 				return worst, outCompared, fmt.Errorf("original circuit: %s: %w", worst.Label(), err)

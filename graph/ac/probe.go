@@ -31,6 +31,21 @@ type probe struct {
 	sum *[sha256.Size]byte // digest, once worked out (key)
 }
 
+// release drops the probe's assembled system and LU factors and its
+// block once its sweep is done: a comparison's probes are each swept once
+// (built ahead for every quantity, comparepar.go), and kept assembled to
+// the end of the comparison a whole set's final proof held some 250 MB of
+// systems no one would solve again (docs/performance.md). The digest, if
+// worked out, stays: it is all the memo and the sweeps read afterwards.
+// A released probe must not be solved again: its pivots would be chosen
+// afresh, which is not the sequence of numbers it gave.
+func (p *probe) release() {
+	p.s = nil
+	if p.sum != nil || p.zero {
+		p.sub, p.isHeld = nil, nil
+	}
+}
+
 // key is the probe's digest (memo.go), worked out once.
 func (p *probe) key() [sha256.Size]byte {
 	if p.sum == nil {
