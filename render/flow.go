@@ -31,7 +31,10 @@ type flow struct {
 	// rows are the rows laid out so far by what they hold (rowKey), kept
 	// from one flow of the sheet to the next: a sheet flowed afresh with
 	// a stretch cut into its pieces has the same rows before the cut.
-	rows       map[string]*layout.Result
+	rows map[string]*layout.Result
+	// shared are the rows of the flow this one was forked from to lay a
+	// row out ahead (rowsahead.go), read beside rows and never written
+	shared     map[string]*layout.Result
 	supplyFlow map[string]int  // the whole sheet's (layout.SupplyFlow)
 	returns    map[string]bool // the whole sheet's bias returns (layout.BiasReturns)
 	cw, ch     float64         // the page's room for a row (0: no page)
@@ -133,6 +136,10 @@ func (f *flow) layout(a, b int) (*layout.Result, error) {
 	sh, again := f.rowSheets(a, b)
 	key := rowKey(sh) + "\x00" + rowKey(again)
 	if r, ok := f.rows[key]; ok {
+		f.laid[[2]int{a, b}] = r
+		return r, nil
+	}
+	if r, ok := f.shared[key]; ok {
 		f.laid[[2]int{a, b}] = r
 		return r, nil
 	}

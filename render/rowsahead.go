@@ -1,7 +1,6 @@
 package render
 
 import (
-	"maps"
 
 	"pare/internal/par"
 	"pare/render/layout"
@@ -18,7 +17,7 @@ import (
 // its guess cost a free processor only. With none free nothing is done.
 //
 // Each row is laid out on a flow of its own (the sheet's read-only parts
-// shared, its memos copied), and what they laid out is merged back in the
+// shared, its memos its own), and what they laid out is merged back in the
 // rows' order once all have finished.
 func (f *flow) layoutAhead(ends []int) {
 	var rows [][2]int
@@ -36,7 +35,11 @@ func (f *flow) layoutAhead(ends []int) {
 	own := make([]*flow, len(rows))
 	for i := range own {
 		g := *f
-		g.laid, g.rows, g.sheets = map[[2]int]*layout.Result{}, maps.Clone(f.rows), map[[2]int][2]*Sheet{}
+		// the rows so far are read through shared, not copied: a copy
+		// per row ahead, each of every row laid out so far, held 50 MB
+		// at once on a 10,000-part sheet (docs/performance.md); no one
+		// writes f.rows while the rows ahead are laid out
+		g.laid, g.rows, g.shared, g.sheets = map[[2]int]*layout.Result{}, map[string]*layout.Result{}, f.rows, map[[2]int][2]*Sheet{}
 		g.ahead = nil
 		own[i] = &g
 	}
