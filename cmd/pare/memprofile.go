@@ -53,6 +53,9 @@ func (w *peakWatch) run() {
 	for {
 		select {
 		case <-w.done:
+			if w.peak == 0 {
+				w.write() // a job shorter than a tick still gets its profile
+			}
 			return
 		case <-tick.C:
 		}
