@@ -1,7 +1,6 @@
 package render
 
 import (
-
 	"pare/internal/par"
 	"pare/render/layout"
 )
