@@ -122,7 +122,7 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 		s.Faded, s.Merged = FadedAndMerged(c, reduced)
 		s.FadedPins = droppedPins(c, reduced)
 		s.Quiet = quietNets(c, r.Log)
-		s.Circuit = supplyRailsWired(c, s.Frames, s.Faded)
+		s.Circuit = withHeaterJunctions(supplyRailsWired(c, s.Frames, s.Faded))
 		s.PinVolts = r.electrodeVolts()
 		s.Ties = cathodeStraps(c)
 	}
