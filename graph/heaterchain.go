@@ -17,8 +17,9 @@ import (
 // HeaterChain is a series heater chain: Links[i] are the refs of one link
 // (a valve's envelope, or the parts at one end: the dropper, a lamp and
 // its shunt), and Nets[i] the junction between Links[i] and Links[i+1].
-// Directed: Links run from the mains end to chassis; otherwise the chain
-// has no end at chassis pare can tell and the order is only a walk's.
+// Directed: Links run from the mains end to chassis (or, of a chain whose
+// one end is open as captured, from the end fed through a dropper);
+// otherwise the order is only a walk's.
 type HeaterChain struct {
 	Links    [][]string
 	Nets     []string
@@ -46,6 +47,9 @@ func (c *Circuit) HeaterChainAt(net string) (HeaterChain, bool) {
 	if len(envs) == 1 {
 		sides[1] = chainSide{end: net}
 	}
+	if sides[0].end == sides[1].end && len(envs) == 2 {
+		return HeaterChain{}, false // both ways back to one net: heaters in parallel across it
+	}
 	if len(sides[0].valves)+len(sides[1].valves) < 2 || sides[0].broken || sides[1].broken {
 		return HeaterChain{}, false
 	}
@@ -65,13 +69,32 @@ func (c *Circuit) HeaterChainAt(net string) (HeaterChain, bool) {
 		ch.add([]string{v}, sides[1].nets[i])
 	}
 	ch.add(c.endLink(sides[1].end), sides[1].end)
-	first, last := c.toChassis(sides[0].end), c.toChassis(sides[1].end)
+	first, last := c.endKind(sides[0].end), c.endKind(sides[1].end)
 	ch.Directed = first != last
-	if first {
+	if first == chassisEnd || first == openEnd && last == mainsEnd {
 		slices.Reverse(ch.Links)
 		slices.Reverse(ch.Nets)
 	}
 	return ch, true
+}
+
+// What a chain's end is: it goes on to chassis, on through its end link
+// to some other net (the dropper to the mains: the feed), or nowhere (an
+// open end, as captured).
+const (
+	openEnd = iota
+	chassisEnd
+	mainsEnd
+)
+
+func (c *Circuit) endKind(net string) int {
+	switch {
+	case c.toChassis(net):
+		return chassisEnd
+	case len(c.endLink(net)) > 0:
+		return mainsEnd
+	}
+	return openEnd
 }
 
 // Junction names what the chain joins at net: the refs on the mains side

@@ -50,6 +50,19 @@ V1 = { valve = "triode", pins = { a = "a1", g1 = "g1", k = "gnd", h1 = "ha", h2 
 V2 = { valve = "triode", pins = { a = "a2", g1 = "g2", k = "gnd", h1 = "ha", h2 = "hb" } }
 `
 
+// two heaters from one supply line to chassis: in parallel, though the
+// walk from the line meets each once
+const parallelToChassis = `
+title = "line"
+band = "50..5k"
+[nets]
+gnd = { role = "ground" }
+hx = { role = "heater", label = "6.3 V~" }
+[parts]
+V1 = { valve = "triode", pins = { a = "a1", g1 = "g1", k = "k1", h1 = "hx", h2 = "gnd" } }
+V2 = { valve = "triode", pins = { a = "a2", g1 = "g2", k = "k2", h1 = "hx", h2 = "gnd" } }
+`
+
 // a chain with no dropper, its last heater on chassis: the direction comes
 // from the chassis end alone
 const shortChain = `
@@ -60,6 +73,19 @@ gnd = { role = "ground" }
 [parts]
 V1 = { valve = "triode", pins = { a = "a1", g1 = "g1", k = "k1", h1 = "line", h2 = "j" } }
 V2 = { valve = "triode", pins = { a = "a2", g1 = "g2", k = "k2", h1 = "j", h2 = "gnd" } }
+`
+
+// a chain whose last heater is left open as captured: the fed end (the
+// dropper's) comes first
+const openChain = `
+title = "open"
+band = "50..5k"
+[nets]
+gnd = { role = "ground" }
+[parts]
+R1 = { r = "1k", pins = ["mains", "x"] }
+V1 = { valve = "triode", pins = { a = "a1", g1 = "g1", k = "k1", h1 = "y", h2 = "z" } }
+V2 = { valve = "triode", pins = { a = "a2", g1 = "g2", k = "k2", h1 = "x", h2 = "y" } }
 `
 
 func TestHeaterJunctions(t *testing.T) {
@@ -74,7 +100,9 @@ func TestHeaterJunctions(t *testing.T) {
 		{"a label naming a ref only by its prefix", acdcChain2, "h5", "chain V40 to V50: V4 → V5", true},
 		{"a label naming the junction already", acdcChain3, "h6", "", false},
 		{"a signal net is no junction", acdcChain, "mains", "", false},
+		{"an open end: from the dropper", openChain, "y", "heater chain: V2 → V1", true},
 		{"parallel heaters", parallelPair, "ha", "", false},
+		{"parallel heaters from a line to chassis", parallelToChassis, "hx", "", false},
 		{"chain ending on chassis", shortChain, "j", "heater chain: V1 → V2", true},
 		{"the line end of a chain whose first link is the line", shortChain, "line", "", false},
 	}
