@@ -107,10 +107,14 @@ func (ch HeaterChain) Junction(net string) (before, after []string, ok bool) {
 	return ch.Links[i], ch.Links[i+1], true
 }
 
-// JunctionText is a heater junction's tag: label (the net's, or "heater
-// chain") and the links either side, "heater chain: V5 → V1", the arrow
-// pointing to chassis; a chain with no known direction joins them with a
-// dash. ok is false when net is no junction of a series chain.
+// JunctionText is a heater junction's tag: "htr" (the trade's short
+// form on service sheets) and the links either side, "htr V5→V1", the
+// arrow pointing to chassis; a chain with no known direction joins them
+// with a dash. It stands in for the net's label (label), which on a chain
+// repeats at every junction ("heater chain"), and is kept short because a
+// tag's width is room the sheet's wires must go round. ok is false when
+// net is no junction of a series chain, or when label names a neighbour
+// already (the user has said where it sits).
 func (c *Circuit) JunctionText(net, label string) (string, bool) {
 	ch, ok := c.HeaterChainAt(net)
 	if !ok {
@@ -121,16 +125,13 @@ func (c *Circuit) JunctionText(net, label string) (string, bool) {
 		return "", false
 	}
 	if namesAny(label, before) || namesAny(label, after) {
-		return "", false // the user's label says where it sits already
+		return "", false
 	}
-	if label == "" {
-		label = "heater chain"
-	}
-	join := " – "
+	join := "–"
 	if ch.Directed {
-		join = " → "
+		join = "→"
 	}
-	return label + ": " + strings.Join(before, ", ") + join + strings.Join(after, ", "), true
+	return "htr " + strings.Join(before, ",") + join + strings.Join(after, ","), true
 }
 
 // namesAny says whether label names one of refs as a word of its own

@@ -93,17 +93,17 @@ func TestHeaterJunctions(t *testing.T) {
 		name, src, net, want string
 		ok                   bool
 	}{
-		{"dropper to first valve", acdcChain, "h1", "heater chain: R1 → V4", true},
-		{"between two valves", acdcChain, "h2", "heater chain: V4 → V5", true},
-		{"an envelope of two sections", acdcChain, "h3", "heater chain: V5 → V3", true},
-		{"lamp and shunt at the chassis end, bypass left out", acdcChain, "h4", "heater chain: V3 → LP1, R2", true},
-		{"a label naming a ref only by its prefix", acdcChain2, "h5", "chain V40 to V50: V4 → V5", true},
+		{"dropper to first valve", acdcChain, "h1", "htr R1→V4", true},
+		{"between two valves", acdcChain, "h2", "htr V4→V5", true},
+		{"an envelope of two sections", acdcChain, "h3", "htr V5→V3", true},
+		{"lamp and shunt at the chassis end, bypass left out", acdcChain, "h4", "htr V3→LP1,R2", true},
+		{"a label naming a ref only by its prefix", acdcChain2, "h5", "htr V4→V5", true},
 		{"a label naming the junction already", acdcChain3, "h6", "", false},
 		{"a signal net is no junction", acdcChain, "mains", "", false},
-		{"an open end: from the dropper", openChain, "y", "heater chain: V2 → V1", true},
+		{"an open end: from the dropper", openChain, "y", "htr V2→V1", true},
 		{"parallel heaters", parallelPair, "ha", "", false},
 		{"parallel heaters from a line to chassis", parallelToChassis, "hx", "", false},
-		{"chain ending on chassis", shortChain, "j", "heater chain: V1 → V2", true},
+		{"chain ending on chassis", shortChain, "j", "htr V1→V2", true},
 		{"the line end of a chain whose first link is the line", shortChain, "line", "", false},
 	}
 	for _, tc := range cases {

@@ -4,7 +4,7 @@ import "pare/graph"
 
 // withHeaterJunctions is the full and faded views' circuit with each
 // junction of a series heater chain labelled by what it joins, in the
-// chain's order from the mains ("heater chain: V5 → V1", graph
+// chain's order from the mains ("htr V5→V1", graph
 // JunctionText): every heater pin's tag said only "heater chain", so the
 // order a technician follows to find an open heater was lost. The labels
 // are read on the whole circuit here, before the drawing cuts it into

@@ -20,10 +20,10 @@ func TestHeaterJunctionTags(t *testing.T) {
 		want     map[string]string
 	}{
 		{"review21/a05.toml", "heater chain", map[string]string{
-			"h1": "heater chain: R22 → V4",
-			"h3": "heater chain: V5 → V1",
-			"h5": "heater chain: V2 → V3",
-			"h6": "heater chain: V3 → LP1, R23",
+			"h1": "htr R22→V4",
+			"h3": "htr V5→V1",
+			"h5": "htr V2→V3",
+			"h6": "htr V3→LP1,R23",
 		}},
 		{"review20/a05.toml", "heater chain V4-V5", map[string]string{
 			"h0": "heater chain after R22",
