@@ -11,10 +11,22 @@ import "pare/graph"
 // rows that each hold only part of the chain. The circuit is copied only
 // when a net is relabelled, so the netlist written beside the sheets keeps
 // the user's labels.
+//
+// Only a label several heater nets share is replaced: it cannot tell one
+// junction from another. An unlabelled net's tag is its own name (hc1,
+// hc2), which tells them apart and finds the net in the netlist; those
+// sheets are left as they were drawn (relabelling them re-routed the
+// every-kind and review17-acdc pages past the wire ratchets).
 func withHeaterJunctions(c *graph.Circuit) *graph.Circuit {
+	shared := map[string]int{}
+	for _, n := range c.Nets {
+		if n.Role == graph.Heater && n.Label != "" {
+			shared[n.Label]++
+		}
+	}
 	var out *graph.Circuit
 	for i, n := range c.Nets {
-		if n.Role != graph.Heater {
+		if n.Role != graph.Heater || shared[n.Label] < 2 {
 			continue
 		}
 		text, ok := c.JunctionText(n.Name, n.Label)
