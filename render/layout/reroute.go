@@ -47,8 +47,9 @@ func (rt *router) routeNets() {
 
 // finish reroutes crossing nets (and with unline, nets ending in line with
 // another's, then nets crossing beside a junction or a lead, then once more
-// nets ending in line, then nets running beside a part of their own, each
-// growing nothing else) and flags the nets that could not be wired.
+// nets ending in line, then nets running beside a part of their own, then
+// nets on a device lead's line beyond the device, each growing nothing
+// else) and flags the nets that could not be wired.
 func (rt *router) finish(unline bool) {
 	rt.uncross()
 	if unline {
@@ -56,6 +57,7 @@ func (rt *router) finish(unline bool) {
 		rt.undot()
 		rt.unline(true)
 		rt.unalong()
+		rt.unthrough()
 	}
 	for id, nr := range rt.nets {
 		if !nr.ok && len(nr.pins) >= 2 {
