@@ -20,14 +20,7 @@ import (
 // to a decoupled supply line (rules/stages/supplykept.go, withSupplyLines),
 // 242 after (review21 b05: the preamp's collector load and upper bias
 // resistor in its own frame, not the next coupling's and the driver's).
-// 244 (+2) when a supply filter had to carry its current forward at the
-// DC operating point (rules/stages feedsBackward): review13 b02's base
-// bias resistor R1 and AGC-fed bias node, wrongly named a "supply
-// decoupling filter", are named by no stage now, so R1 (in Q1's frame)
-// and the real decoupler R4 (beside the tank that shares its capacitor)
-// count as strays on the faded page; the names were wrong, the drawing
-// did not change.
-var stageFrameCeiling = struct{ strays, splits int }{244, 0}
+var stageFrameCeiling = struct{ strays, splits int }{242, 0}
 
 // TestFramesOwnTheirParts: a frame tells the reader "these parts are this
 // stage"; a part of no stage inside it, or a stage drawn in two frames,
