@@ -194,15 +194,29 @@ func (x *figCtx) checkAGC(tau float64) {
 }
 
 // checkDetector: common practice, no source: the load must pass the top
-// audio (about 5 kHz for AM) yet hold the IF ripple.
+// audio (about 5 kHz for AM) yet hold the IF ripple. A corner below 3 kHz
+// says how much of the top is cut, and what the load's time constant does
+// to deep modulation there: it cannot discharge fast enough to follow the
+// troughs of a tone at f deeper than m = 1/√(1 + (2πf·RC)²) (diagonal
+// clipping, handbook formula from memory; 2πf·RC = f/fc), which is a
+// different limit from the AC/DC load ratio's (checkClipping).
 func (x *figCtx) checkDetector(fc float64) {
 	if fc < 3e3 {
-		x.flag("detector load corner %s is below 3 kHz: the top of the audio is lost and deep modulation clips", hz(fc))
+		m := 1 / math.Sqrt(1+math.Pow(audioTop/fc, 2))
+		x.flag("detector load corner %s is below 3 kHz: the top of the audio is cut (%s down at %s), and a %s tone modulated deeper than %.0f %% is clipped diagonally (the load's RC cannot follow the troughs)",
+			hz(fc), dbText(-10*math.Log10(1+math.Pow(audioTop/fc, 2))), hz(audioTop), hz(audioTop), 100*m)
 	}
 	if ifHz := x.w.c.Freqs["if"]; ifHz > 0 && fc > ifHz/5 {
 		x.flag("detector load corner %s is close to the IF (%s): IF ripple reaches the audio", hz(fc), hz(ifHz))
 	}
 }
+
+// audioTop is the highest audio an AM detector's load should pass (about
+// 5 kHz; common practice, no source).
+const audioTop = 5e3
+
+// dbText writes a level change in dB to one decimal.
+func dbText(db float64) string { return fmt.Sprintf("%.1f dB", math.Abs(db)) }
 
 // calcPhaseShift: three equal RC sections give f = 1/(2πRC√6) and need a
 // gain of 29 (handbook formula, from memory).

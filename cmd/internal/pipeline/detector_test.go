@@ -19,7 +19,9 @@ import (
 // = 353.6k, both derived from the netlist by hand; ratio 0.6465, below the
 // 0.8 peak modulation a broadcast detector should follow (common practice:
 // the depth followed without clipping is about Rac/Rdc); corner
-// 1/(2π·547k·100p) = 2.91 kHz, under the 3 kHz the detector check asks.
+// 1/(2π·547k·100p) = 2.91 kHz, under the 3 kHz the detector check asks;
+// there a 5 kHz tone deeper than 1/√(1 + (5/2.91)²) = 50 % is clipped
+// diagonally (handbook formula, from memory).
 // Failed before: the note printed "r load 354 kΩ" while the solver used
 // 547k, with no ratio and no clipping flag.
 func TestDetectorLoadFigures(t *testing.T) {
@@ -40,7 +42,7 @@ func TestDetectorLoadFigures(t *testing.T) {
 			}
 		}
 		flags := strings.Join(st.Flags, "\n")
-		for _, w := range []string{"AC/DC load ratio 0.65", "below 3 kHz"} {
+		for _, w := range []string{"AC/DC load ratio 0.65", "below 3 kHz", "deeper than 50 % is clipped diagonally"} {
 			if !strings.Contains(flags, w) {
 				t.Errorf("%s: no flag with %q in %q", st.Name, w, flags)
 			}
