@@ -125,6 +125,7 @@ func Check(c *Circuit) ErrorList {
 	w = append(w, checkEnvelopes(c)...)
 	w = append(w, checkRegionStrays(c)...)
 	w = append(w, checkOutputDCPaths(c)...)
+	w = append(w, checkZeners(c)...)
 	w.Sort()
 	return w
 }

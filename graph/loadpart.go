@@ -155,6 +155,17 @@ func (ld *loader) valveParams(path string, p *Part, m map[string]any) {
 	}
 }
 
+// zenerParams refuses a breakdown on a diode that has none to speak of:
+// vz and rz describe a zener's reverse conduction, and on a signal diode
+// or a rectifier they would silently make it one.
+func (ld *loader) zenerParams(path string, p *Part, m map[string]any) {
+	for _, k := range []string{"vz", "rz"} {
+		if _, ok := m[k]; ok && p.Type != "zener" {
+			ld.errKey(path+"."+k, "%s is a zener's breakdown (diode = \"zener\"), not a %s diode's", k, p.Type)
+		}
+	}
+}
+
 // fetParams refuses the DC law parameters of the other kind of FET: a JFET's
 // law is set by idss and vp, a MOSFET's by its threshold vth and k.
 func (ld *loader) fetParams(path string, p *Part, m map[string]any) {
@@ -176,11 +187,11 @@ func paramUnit(name string) value.Unit {
 	switch name {
 	case "gm", "gmo":
 		return value.Siemens
-	case "ra", "rd", "ro", "rpi", "rm", "rdc", "leak":
+	case "ra", "rd", "ro", "rpi", "rm", "rdc", "leak", "rz":
 		return value.Ohm
 	case "ic", "ia", "idss", "is", "ih":
 		return value.Ampere
-	case "vbe", "vp", "vf", "vth", "vac", "vknee":
+	case "vbe", "vp", "vf", "vth", "vac", "vknee", "vz":
 		return value.Volt
 	case "lm":
 		return value.Henry
@@ -256,6 +267,7 @@ func (ld *loader) kindValue(path string, p *Part, key string, m map[string]any) 
 		p.Designation = ld.designation(path, typ)
 	case Diode:
 		p.Type = ld.deviceType(kp, m[key], "diode", DiodeTypes)
+		ld.zenerParams(path, p, m)
 	case Crystal:
 		p.Value = ld.rngOne(kp, m[key], value.Hertz)
 	case Loudspeaker:

@@ -41,6 +41,8 @@ var positiveParams = map[string]string{
 	"kg":        "the grid current's perveance",
 	"perveance": "the valve diode's perveance",
 	"is":        "the diode's saturation current",
+	"vz":        "the zener's breakdown voltage",
+	"rz":        "the zener's dynamic resistance in breakdown",
 }
 
 func hasParam(p *Part, name string) bool { _, ok := p.Params[name]; return ok }

@@ -181,11 +181,13 @@ var paramNames = map[Kind][]string{
 	// valve's DC law; kg: grid current; gmo: a pentagrid converter's g1-to-g2
 	// transconductance (loadpart.go checks which).
 	// ih: the heater's rated current (graph/dc: a series heater chain's
-	// dropper).
+	// dropper). A diode's n, is: the Shockley law's ideality and saturation
+	// current (graph/dc); vz, rz: a zener's breakdown voltage and dynamic
+	// resistance (graph/device).
 	Valve:       {"gm", "gmo", "ra", "mu", "rd", "off", "ia", "pmax", "mu2", "share", "vknee", "kg", "perveance", "ih"},
 	BJT:         {"beta", "ic", "gm", "ro", "rpi", "vbe"},
 	FET:         {"gm", "rd", "idss", "vp", "vth", "k"}, // idss, vp: JFET; vth, k: MOSFET (loadpart.go checks which)
-	Diode:       {"rd", "off", "vf", "n", "is"},         // n, is: the Shockley law's ideality and saturation current (graph/dc)
+	Diode:       {"rd", "off", "vf", "n", "is", "vz", "rz"},
 	Crystal:     {"rm", "lm", "cm", "c0", "q"},
 	Inductor:    {"q", "q_at", "rdc"},              // q_at: the frequency q is stated at (graph/qref.go)
 	Transformer: {"q", "q_at", "rdc", "vac", "hz"}, // vac, hz: a mains transformer's rectifier winding (graph/dc)

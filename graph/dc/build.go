@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"pare/graph"
+	dev "pare/graph/device"
 )
 
 // A terminal is a free node (index ≥ 0) or a fixed one (−1 − index into
@@ -44,6 +45,10 @@ type device struct {
 	fet   fetLaw
 	is    float64 // diode saturation current; valve diode perveance
 	n     float64 // diode ideality factor
+	// zener is a zener's breakdown, added to its junction's current when
+	// breaks (it declares a breakdown voltage).
+	zener  dev.Zener
+	breaks bool
 	// Faults: emission scales the valve's perveance; openBE and openBC
 	// remove a junction.
 	emission       float64

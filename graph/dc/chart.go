@@ -255,7 +255,7 @@ func (p *Point) deviceCurrents(ch *Chart, part *graph.Part) {
 	case graph.FET:
 		add("drain current", "d", 1)
 	case graph.Diode:
-		add("forward current", "a", 1)
+		add(diodeCurrent(part))
 	}
 }
 

@@ -69,6 +69,7 @@ func Solve(c *graph.Circuit) (*Point, error) {
 	sort.Slice(pt.Estimates, func(i, j int) bool { return pt.Estimates[i].Net < pt.Estimates[j].Net })
 	pt.fill()
 	pt.noteUnheldRails()
+	pt.noteZeners()
 	return pt, nil
 }
 

@@ -64,6 +64,7 @@ func (m *model) addDevice(p *graph.Part, o *origins) error {
 		if d.is, d.n, err = diodeLaw(p, o); err != nil {
 			return err
 		}
+		d.zener, d.breaks = zenerLaw(p, o)
 		if !need("a", "k") {
 			return fmt.Errorf("%s: diode %s needs a and k connected", p.Pos, p.Ref)
 		}
@@ -114,7 +115,14 @@ func (d *device) eval(v []float64, cur []float64, jac [][]float64) {
 		twoTerm(cur, jac, i, g)
 	case devDiode:
 		i, g := shockley(d.is, (v[0]-v[1])/d.n)
-		twoTerm(cur, jac, i, g/d.n)
+		g /= d.n
+		if d.breaks {
+			// breakdown flows from cathode to anode: against the forward
+			// current, rising as the cathode rises above the anode
+			ir, gr := d.zener.Reverse(v[1] - v[0])
+			i, g = i-ir, g+gr
+		}
+		twoTerm(cur, jac, i, g)
 	case devBJT:
 		d.evalBJT(v, cur, jac)
 	case devFET:

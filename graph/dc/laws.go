@@ -275,6 +275,23 @@ func resolveMOS(p *graph.Part, o *origins) (fetLaw, error) {
 	return fetLaw{beta: k, vto: vth * sign, sign: sign, mos: true}, nil
 }
 
+// zenerLaw is a zener's reverse breakdown (graph/device's Zener: the one
+// model the AC small-signal slope comes from too) when the part declares
+// its breakdown voltage vz, with where rz came from.
+func zenerLaw(p *graph.Part, o *origins) (dev.Zener, bool) {
+	z, ok := dev.ZenerOf(p)
+	if !ok {
+		return z, false
+	}
+	o.list = append(o.list, Origin{p.Ref, "vz", z.Vz, "V", "given"})
+	from := "given"
+	if z.RzAssumed {
+		from = "default: " + dev.DefaultSource("zener", "rz")
+	}
+	o.list = append(o.list, Origin{p.Ref, "rz", z.Rz, "Ω", from})
+	return z, true
+}
+
 // diodeLaw is the Shockley law of a semiconductor diode (Shockley, Bell
 // Syst. Tech. J. 28, 1949), I = Is·(e^(V/(n·VT)) − 1): Is given, or the one
 // that passes 1 mA at vf; n given or 1.

@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"pare/graph"
+	dev "pare/graph/device"
 )
 
 // Small-signal parameters at the operating point. Where the user gives a
@@ -22,7 +23,9 @@ import (
 // A signal diode is left alone unless it conducts at rest more than a peak
 // detector would (diodebias.go): a detector conducts on the signal's
 // peaks, so its small-signal resistance is a property of the DC bias only
-// where the circuit forward-biases it.
+// where the circuit forward-biases it. A zener that declares its
+// breakdown takes its slope at the bias: rz in breakdown, off when it
+// does not conduct (zener.go).
 
 // Fills says whether Biased can fill any figure of c: only transistors,
 // FETs, valves and signal diodes take figures at the bias (the devices
@@ -35,7 +38,7 @@ func Fills(c *graph.Circuit) bool {
 		case graph.BJT, graph.FET, graph.Valve:
 			return true
 		case graph.Diode:
-			if restDiode(p) {
+			if _, breaks := dev.ZenerOf(p); restDiode(p) || breaks {
 				return true
 			}
 		}
@@ -100,6 +103,7 @@ func (p *Point) Biased() (*graph.Circuit, []Origin) {
 		}
 	}
 	p.diodeRds(out, set)
+	p.zenerRds(out, set)
 	return out, origins
 }
 

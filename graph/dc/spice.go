@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"pare/graph"
+	dev "pare/graph/device"
 )
 
 // WriteSpiceOP writes a SPICE deck of the DC model of c, for an independent
@@ -122,6 +123,12 @@ func (m *model) deviceCards(b *strings.Builder, i int, d *device) {
 			return
 		}
 		fmt.Fprintf(b, "D%s %s %s DM%s\n.model DM%s D(IS=%.12g N=%.12g)\n", id, n(0), n(1), id, id, d.is, d.n)
+		if d.breaks {
+			// the breakdown as graph/device's law, cathode to anode:
+			// (Vk/Rz)·ln(1 + e^x) written so that no exponent overflows
+			x := fmt.Sprintf("(v(%s,%s)-%.12g)/%.12g", n(1), n(0), d.zener.Vz, dev.ZenerKnee)
+			fmt.Fprintf(b, "BZ%s %s %s I=%.12g*(max(%s,0)+ln(1+exp(-abs(%s))))\n", id, n(1), n(0), dev.ZenerKnee/d.zener.Rz, x, x)
+		}
 	case devBJT:
 		typ := "npn"
 		if d.bjt.sign < 0 {

@@ -44,6 +44,7 @@ var Defaults = []Default{
 	{"fet", "rd", 50e3, "Ω", "typical small-signal JFET, from memory"},
 	{"detector", "rin/rl", 0.5, "", "a peak detector's input resistance is half its DC load: common practice, derived from the power balance (efficiency 1)"},
 	{"diode", "id", 1e-3, "A", "conducting at 1 mA: rd = VT/Id = 25.85 Ω (Shockley, ideality 1)"},
+	{"zener", "rz", 10, "Ω", "dynamic resistance of a small (0.4 to 0.5 W) zener of 6 to 10 V at a few milliamps, 5 to 15 Ω, from memory; a zener below about 5 V is far softer: give its rz"},
 	{"crystal", "c0", 5e-12, "F", "typical HC-6 holder capacitance, from memory"},
 	{"crystal", "cm", 20e-15, "F", "c0/cm = 250, typical, from memory"},
 	{"crystal", "q", 50e3, "", "typical quartz unit, from memory"},

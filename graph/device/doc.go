@@ -20,7 +20,10 @@
 //   - Diodes: rd given, else, for a signal diode with a DC load RL, a peak
 //     detector of input resistance RL/2 (DetectorRd), else VT/Id
 //     (Shockley, ideality 1) or the valve diode default; off = 1 opens
-//     them; a varicap without rd is open.
+//     them; a varicap without rd is open. A zener with its breakdown
+//     voltage vz is rz in breakdown (zener.go; the DC solve uses the same
+//     breakdown law, and the operating point fills rd, or off when it does
+//     not conduct); a zener without vz is open, as the DC solve takes it.
 //   - Crystals: motional Rm–Lm–Cm with the holder capacitance C0 across it.
 //
 // The impedances into the electrodes, one formula each (nodal analysis of
@@ -48,6 +51,7 @@
 //	fet                      rd      50 kΩ     typical small-signal JFET, from memory
 //	detector                 rin/rl  0.5       peak detector: Rin = RL/2, common practice (power balance)
 //	diode                    id      1 mA      rd = VT/Id = 25.85 Ω (Shockley, ideality 1)
+//	zener                    rz      10 Ω      small zener of 6–10 V at a few mA, from memory
 //	crystal                  c0      5 pF      typical HC-6 holder capacitance, from memory
 //	crystal                  cm      20 fF     c0/cm = 250, typical, from memory
 //	crystal                  q       50 000    typical quartz unit, from memory

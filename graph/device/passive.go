@@ -20,7 +20,10 @@ import (
 // detector's input resistance, DetectorRd(load). Any other diode, or one
 // with no DC load (load 0 or infinite), conducts at the class bias: VT/Id
 // for a semiconductor diode (Shockley, ideality 1), the "valve diode" rd
-// for a valve.
+// for a valve. A zener is held in breakdown by its circuit, so its rd is
+// its rz (Zener); one that declares no breakdown voltage is open, as the DC
+// solve takes it. The operating point says better where it is known
+// (graph/dc fills rd, or off when the zener does not conduct).
 func DiodeRd(p *graph.Part, load float64) (rd float64, assumed bool) {
 	if off, ok := p.Param("off"); ok && off != 0 {
 		return 0, false
@@ -28,8 +31,11 @@ func DiodeRd(p *graph.Part, load float64) (rd float64, assumed bool) {
 	if rd, ok := p.Param("rd"); ok {
 		return rd, false
 	}
-	if p.Type == "varicap" {
+	if p.Type == "varicap" || NoBreakdown(p) {
 		return 0, true
+	}
+	if z, ok := ZenerOf(p); ok {
+		return z.Rz, z.RzAssumed
 	}
 	if load > 0 && !math.IsInf(load, 0) && p.Type != "rectifier" && p.Type != "zener" {
 		return DetectorRd(load), true
