@@ -76,6 +76,12 @@ func fmtNum(v float64, u value.Unit) string {
 	if u != value.Ohm && u != value.Farad && u != value.Henry {
 		return fmtDecimal(v, u)
 	}
+	return fmtCode(v, u)
+}
+
+// fmtCode writes v in the letter code, in the fewest digits that read back
+// as v itself.
+func fmtCode(v float64, u value.Unit) string {
 	for _, digits := range []int{3, 6, 9, 15} {
 		s := value.FormatPrec(v, u, value.Code, digits)
 		if back, err := value.Parse(s, u); err == nil && closeEnough(back, v, digits) {
@@ -134,6 +140,9 @@ func fmtDecimal(v float64, u value.Unit) string {
 func paramText(name string, v float64) string {
 	u := paramUnit(name)
 	switch {
+	case name == "vz":
+		// a zener's voltage as its body is marked: 8V2, 12V
+		return quote(fmtCode(v, u))
 	case u == value.None:
 		return fmtFloat(v)
 	case u == value.Siemens:

@@ -27,7 +27,14 @@ func diodeCurrent(part *graph.Part) (what, pin string, sign float64) {
 // chart shows, and is passed over: the rail's declaration holds the line.
 func (p *Point) noteZeners() {
 	for _, part := range p.Circuit.Parts {
-		if !dev.NoBreakdown(part) || len(part.Pins) != 2 {
+		if len(part.Pins) != 2 {
+			continue
+		}
+		if z, ok := dev.ZenerOf(part); ok {
+			p.noteHeldZener(part, z)
+			continue
+		}
+		if !dev.NoBreakdown(part) {
 			continue
 		}
 		line := part.NetOf("k")
@@ -43,6 +50,27 @@ func (p *Point) noteZeners() {
 		p.Notes = append(p.Notes, fmt.Sprintf("%s (zener) has no breakdown voltage declared: treated as open; the line it holds (%s, %s here) may read high; give its breakdown voltage (vz = \"8V2\" for an 8.2 V zener) to model it",
 			part.Ref, line, value.FormatPrec(v, value.Volt, value.Symbol, 4)))
 	}
+}
+
+// noteHeldZener: a zener across two held nets (a rail declared with its
+// volts and chassis) whose breakdown lies below the volts held across it
+// conducts as far as its rz lets it, tens of milliamps and more, which in
+// the set would pull the line down to its vz: the declaration and the
+// zener disagree, and the chart says so rather than show the current as
+// the set's.
+func (p *Point) noteHeldZener(part *graph.Part, z dev.Zener) {
+	ta, okA := p.m.netTerm[part.NetOf("a")]
+	tk, okK := p.m.netTerm[part.NetOf("k")]
+	if !okA || !okK || ta >= 0 || tk >= 0 {
+		return
+	}
+	vr := p.m.voltOf(p.v, tk) - p.m.voltOf(p.v, ta)
+	if vr <= z.Vz {
+		return
+	}
+	ir, _ := z.Reverse(vr)
+	p.Notes = append(p.Notes, fmt.Sprintf("%s (zener, vz %s) sits across %s held at %s: above its breakdown, it carries %s as solved, where in the set it would hold the line near its vz; check the rail's declared volts against the zener",
+		part.Ref, value.FormatPrec(z.Vz, value.Volt, value.Symbol, 3), part.NetOf("k"), value.FormatPrec(vr, value.Volt, value.Symbol, 4), value.FormatPrec(ir, value.Ampere, value.Symbol, 3)))
 }
 
 // zenerOpenRd is the resistance above which a zener's slope at the bias is
