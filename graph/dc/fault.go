@@ -149,10 +149,11 @@ func (m *model) clone() *model {
 	return &c
 }
 
-// resistor opens a resistor, a diode (no current) or a valve diode (no
-// emission), or doubles a resistor's value.
+// resistor opens a resistor, a diode (no current either way) or a valve
+// diode (no emission), or doubles a resistor's value.
 func (e *faultEdit) resistor(f Fault) {
-	e.c.eachDevice(f.Ref, func(d *device) { d.emission, d.is = 0, 0 })
+	// an open zener loses its breakdown with its junction
+	e.c.eachDevice(f.Ref, func(d *device) { d.emission, d.is, d.breaks = 0, 0, false })
 	for i := range e.c.branches {
 		if e.c.branches[i].ref == f.Ref {
 			if f.Kind == "open" {
