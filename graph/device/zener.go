@@ -20,8 +20,8 @@ import (
 //
 // well past the knee Ir = (Vr − Vz)/Rz, the straight line of a shunt
 // regulator's handbook calculation (I = (Vin − Vz)/R shared with the load,
-// common practice); well below it Ir falls off as e^((Vr − Vz)/Vk), a few
-// nanoamps 0.3 V below Vz for the default Rz. Vz is the knee, where the
+// common practice); well below it Ir falls off as e^((Vr − Vz)/Vk), some
+// 20 nA 0.3 V below Vz for the default Rz. Vz is the knee, where the
 // straight line starts: a part marked 8V2 and run at a few milliamps
 // reads Vz + Iz·Rz, a few tens of millivolts above, well inside a zener's
 // usual 5 % tolerance (from memory).
