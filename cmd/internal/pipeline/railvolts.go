@@ -6,7 +6,6 @@ import (
 	"strings"
 
 	"pare/graph"
-	"pare/graph/device"
 )
 
 // withLineVolts is the reduced circuit for its sheet, each decoupled line
@@ -15,15 +14,12 @@ import (
 // operating point, the chart's ("HT +241 V" where the rail it is fed from
 // is "HT +250 V"). A line the solution does not give keeps its name
 // without a voltage. The circuit is copied only when there is a line to
-// tag, so the reduced netlist written beside the sheet is untouched. A
-// line whose voltage rests on a zener that declares no breakdown voltage
-// keeps its name alone: its solved voltage is not the set's.
+// tag, so the reduced netlist written beside the sheet is untouched.
 func (r *Result) withLineVolts(c *graph.Circuit) *graph.Circuit {
 	if r.DC == nil || !hasFedLine(c) {
 		return c
 	}
 	out := c.Clone()
-	open := openZenerLines(r.DC.Circuit)
 	for _, list := range [][]*graph.Net{out.Nets, out.Rails} {
 		for _, n := range list {
 			if n.Fed == "" {
@@ -31,7 +27,7 @@ func (r *Result) withLineVolts(c *graph.Circuit) *graph.Circuit {
 			}
 			v, ok := r.DC.Volts(n.Name)
 			label, printed, tagged := withVolts(n.Label, v)
-			if !ok || !tagged || open[n.Name] {
+			if !ok || !tagged {
 				continue
 			}
 			n.Label, n.Volts = label, printed // the voltage kept as printed, so the tag states it once
@@ -58,49 +54,6 @@ func withVolts(label string, v float64) (string, float64, bool) {
 		sep = ", " // named after a rail known by its voltage: "+9 V via R5, +8.3 V"
 	}
 	return strings.TrimSpace(label + sep + text + " V"), printed, true
-}
-
-// openZenerLines are the nets whose solved voltage rests on a zener that
-// declares no breakdown voltage: the net it holds, and the nets fed from
-// that one through resistors and windings (a collector's decoupled feed),
-// short of chassis and declared rails. The solve takes such a zener open,
-// so their voltages are what the dropper and loads alone give, high of
-// the set's (the DC chart says so), and a tag would state them as the
-// lines'.
-func openZenerLines(c *graph.Circuit) map[string]bool {
-	held := func(name string) bool {
-		n := c.Net(name)
-		return c.RoleOf(name) == graph.Ground || n != nil && n.HasVolts()
-	}
-	seen := map[string]bool{}
-	var queue []string
-	for _, p := range c.Parts {
-		if !device.NoBreakdown(p) {
-			continue
-		}
-		for _, pin := range p.Pins {
-			if !held(pin.Net) && !seen[pin.Net] {
-				seen[pin.Net] = true
-				queue = append(queue, pin.Net)
-			}
-		}
-	}
-	for len(queue) > 0 {
-		net := queue[0]
-		queue = queue[1:]
-		for _, cn := range c.ConnsOf(net) {
-			if k := cn.Part.Kind; k != graph.Resistor && k != graph.Inductor && k != graph.Transformer {
-				continue
-			}
-			for _, pin := range cn.Part.Pins {
-				if !held(pin.Net) && !seen[pin.Net] {
-					seen[pin.Net] = true
-					queue = append(queue, pin.Net)
-				}
-			}
-		}
-	}
-	return seen
 }
 
 func hasFedLine(c *graph.Circuit) bool {
