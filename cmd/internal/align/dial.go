@@ -59,7 +59,17 @@ func (g *Guide) coverage(c *graph.Circuit, sts []stages.Stage) {
 	}
 	if len(g.Ends) == 2 {
 		oscGang, sigGang := endGangs(c, sts)
-		g.missWarn(c, sigGang, "the signal circuit", g.Ends[0].Sig, g.Ends[1].Sig, b.Min, b.Max, "")
+		// The dial ends' signal figures are what the set receives (the
+		// oscillator less the IF); the signal circuit's trimmer and core
+		// move its own tank, so its reach is judged on that tank's range
+		// where a stage solved it.
+		sLo, sHi := g.Ends[0].Sig, g.Ends[1].Sig
+		if sigGang != nil {
+			if name, lo, hi := tankRange(sts, sigGang.Ref); name != "" {
+				sLo, sHi = lo, hi
+			}
+		}
+		g.missWarn(c, sigGang, "the signal circuit", sLo, sHi, b.Min, b.Max, "")
 		if g.IF > 0 && g.Ends[0].Osc > 0 {
 			g.missWarn(c, oscGang, "the oscillator", g.Ends[0].Osc, g.Ends[1].Osc, b.Min+g.IF, b.Max+g.IF, fmt.Sprintf(" (the band plus the IF %s)", hz(g.IF)))
 		}

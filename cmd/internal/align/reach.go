@@ -45,6 +45,21 @@ type tankReach struct {
 	trimmer *graph.Part
 	core    *graph.Part
 	reaches bool
+	// found is the trimmer setting and core ratio the search over both
+	// found when the trimmer at its least was not enough (reachsearch.go),
+	// with the span solved with both applied; nil when not searched or
+	// not found. top is the largest trimmer setting that keeps the top
+	// end, searched (top.ok false when the search could not solve it).
+	found    *coreTrim
+	top      spanAt
+	searched bool
+}
+
+// coreTrim is a pair of settings, trimmer t and core ratio k, and the
+// span solved with both applied.
+type coreTrim struct {
+	t, k, lo, hi float64
+	onEnds       bool // both ends on the band's (the span just holds it)
 }
 
 func reachOf(c *graph.Circuit, gang *graph.Part, lo, hi, wLo, wHi float64) (tankReach, bool) {
@@ -61,6 +76,11 @@ func reachOf(c *graph.Circuit, gang *graph.Part, lo, hi, wLo, wHi float64) (tank
 	if t.coil != nil && len(t.coil.Adjust) > 0 {
 		r.core = t.coil
 	}
+	span := 0.0
+	if r.core != nil {
+		span = coreSpan
+	}
+	s := trimSearch{c: c, net: net, trimmer: t.trimmer, lo: lo, hi: hi, wLo: wLo, wHi: wHi, span: span}
 	if t.trimmer != nil && t.trimmer.Value.IsSpan() {
 		moved := c.Clone()
 		moved.Part(t.trimmer.Ref).Set = t.trimmer.Value.Min
@@ -70,18 +90,17 @@ func reachOf(c *graph.Circuit, gang *graph.Part, lo, hi, wLo, wHi float64) (tank
 			return r, false
 		}
 		r.lo, r.hi = lo*m0/s0, hi*m1/s1
+		s.s0, s.s1 = s0, s1
 	}
 	// the core scales L by k: both ends move by 1/√k
-	kMin, kMax := math.Pow(r.lo/wLo, 2), math.Pow(r.hi/wHi, 2)
-	span := 0.0
-	if r.core != nil {
-		span = coreSpan
+	least := spanAt{t: s.trimmerMin(), lo: r.lo, hi: r.hi, ok: true}
+	r.k, r.reaches = s.coreFor(least)
+	if r.reaches || t.trimmer == nil || !t.trimmer.Value.IsSpan() || s.margin(least) < 0 {
+		return r, true
 	}
-	kMin, kMax = math.Max(kMin, 1-span), math.Min(kMax, 1+span)
-	r.reaches = kMin <= kMax*(1+bandSlack)
-	if r.reaches {
-		r.k = math.Max(kMin, math.Min(1, kMax)) // the least turn from as captured
-	}
+	r.found, r.top = s.search(least, r.core)
+	r.searched = true
+	r.reaches = r.found != nil
 	return r, true
 }
 
@@ -128,6 +147,23 @@ func tankPeak(c *graph.Circuit, net string, frac, guess float64) (float64, bool)
 // with the trimmer at the least of its range, and the core that slides it
 // onto the band.
 func (r tankReach) words() string {
+	if f := r.found; f != nil {
+		w := fmt.Sprintf("with %s at %s", r.trimmer.Ref, pf(f.t))
+		if r.core != nil && f.k != 1 {
+			w += fmt.Sprintf(" and the core of %s at %+.1f %% of its inductance", r.core.Ref, 100*(f.k-1))
+		}
+		over := "over the band"
+		if f.onEnds {
+			w += ", where the alignment's repeated steps settle,"
+			over = "the band's ends"
+		}
+		keeps := "the top end holds"
+		if r.core != nil {
+			keeps = "the core keeps the top end"
+		}
+		return w + fmt.Sprintf(" the tank tunes %s to %s in circuit (solved with both), %s: the trimmer at its least (%s) leaves the low end at %s with the core as captured, and more trimmer lowers it while %s",
+			hz(f.lo), hz(f.hi), over, pf(r.trimmer.Value.Min), hz(r.lo), keeps)
+	}
 	span := fmt.Sprintf("the tank spans %s to %s in circuit", hz(r.lo), hz(r.hi))
 	if r.trimmer != nil {
 		span = fmt.Sprintf("with %s at the least of its range (%s) %s", r.trimmer.Ref, pf(r.trimmer.Value.Min), span)
@@ -148,8 +184,40 @@ func (r tankReach) limitWords() string {
 	if r.trimmer != nil {
 		w = fmt.Sprintf("with %s at the least of its range (%s) %s", r.trimmer.Ref, pf(r.trimmer.Value.Min), w)
 	}
+	if r.searched {
+		return w + r.searchedWords()
+	}
 	if r.core != nil {
 		return w + fmt.Sprintf(", and no setting of the core of %s within ±%.0f %% of its inductance (common practice) slides that span over the band: alignment cannot reach that end of the dial", r.core.Ref, 100*coreSpan)
 	}
 	return w + ", with no adjustable core to slide that span: the trimmer trades one end for the other, so alignment may not reach both ends"
+}
+
+// searchedWords says why the search over the trimmer and the core found
+// no cover: at the largest trimmer setting that keeps the top end (where
+// the low end is lowest) the core's travel does not bring the low end
+// down to the band's; or the search could not solve the tank.
+func (r tankReach) searchedWords() string {
+	if !r.top.ok {
+		return fmt.Sprintf("; pare could not solve the tank with %s at %s (its peak left the search), so it cannot say whether more trimmer and the core reach the band: check the dial ends with a generator", r.trimmer.Ref, pf(r.top.t))
+	}
+	core, pair := "(no adjustable core is captured)", "no setting of %s (%s to %s) covers both ends"
+	if r.core != nil {
+		core = fmt.Sprintf("even with the core of %s at +%.0f %% of its inductance (common practice)", r.core.Ref, 100*coreSpan)
+		pair = "no pair of settings of %s (%s to %s) and the core covers both ends"
+	}
+	pair = fmt.Sprintf(pair, r.trimmer.Ref, pf(r.trimmer.Value.Min), pf(r.trimmer.Value.Max))
+	at := fmt.Sprintf("at %s, the most that keeps the top end", pf(r.top.t))
+	if r.top.t >= r.trimmer.Value.Max {
+		at = fmt.Sprintf("at the most of its range (%s)", pf(r.top.t))
+	}
+	return fmt.Sprintf("; with %s %s, the low end stays at %s %s: %s, so alignment cannot reach the dial's ends",
+		r.trimmer.Ref, at, hz(r.top.lo/math.Sqrt(1+r.coreSpanOf())), core, pair)
+}
+
+func (r tankReach) coreSpanOf() float64 {
+	if r.core != nil {
+		return coreSpan
+	}
+	return 0
 }
