@@ -85,3 +85,19 @@ func ifInto(c *graph.Circuit, sts []stages.Stage, ifHz float64) string {
 	}
 	return "the mixer's input"
 }
+
+// ifIntoNet is the net ifInto sends the IF generator to, "" when it names
+// none: the mixer's (or IF strip's) control electrode, else the input.
+func ifIntoNet(c *graph.Circuit, sts []stages.Stage, ifHz float64) string {
+	p := mixerDevice(c, sts, ifHz)
+	if p == nil {
+		p = ifFeeder(c, sts, ifHz)
+	}
+	if p != nil {
+		return p.NetOf(signalGrid(c, p))
+	}
+	if len(c.Inputs) > 0 {
+		return c.Inputs[0]
+	}
+	return ""
+}

@@ -63,6 +63,9 @@ func tunedAt(s stages.Stage, ifHz float64) bool {
 func (g *Guide) ifSteps(c *graph.Circuit, sts []stages.Stage) {
 	cans := ifTransformers(c, sts, g.IF)
 	watch := "watch " + ifWatch(c, sts, g.FM, ifOutput(c, cans, ifInto(c, sts, g.IF)))
+	if w := delayedWatch(c, sts, ifIntoNet(c, sts, g.IF), g.IF, agcNet(c)); w != "" && !g.FM {
+		watch = "watch " + w
+	}
 	if mixerStage(sts) != nil {
 		watch += "; keep the oscillator from beating with the generator: tune to a quiet end of the dial or stop it (common practice)"
 	}
