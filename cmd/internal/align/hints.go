@@ -46,9 +46,9 @@ var hintTable = []hintRow{
 		"DC readings normal",
 		"the IF row at the IF needs far more level than the table says; rocking the generator finds a peak away from the IF"},
 	{[]string{"amp-common-bypassed"}, false,
-		"open cathode or emitter bypass",
+		openBypass,
 		"DC readings normal",
-		"the stage gains about half its figure or less (its unbypassed gain); the level at its input row rises by the same factor"},
+		bypassUnsolved}, // worded per stage with its solved fall (bypass.go)
 	{[]string{"oscillator-loop-capacitor"}, false,
 		"open or failing capacitor in an oscillator's loop (a padder, a feedback or DC-blocking capacitor)",
 		"open, the oscillator stops or runs off frequency: a stopped one's grid or base loses the bias its running gives, and its cathode or emitter current rises to its no-signal value",
@@ -63,11 +63,11 @@ var hintTable = []hintRow{
 		"injection after the capacitor works, before it nothing (or a faint signal by stray capacity)"},
 	{[]string{"speaker-coupling"}, false,
 		"open or dried-out output capacitor",
-		"DC readings normal: the output's mid-point still sits near half the supply",
+		"DC readings normal: the output's mid-point keeps its chart reading",
 		"the rows up to the output reach it at their level, yet the loudspeaker gives nothing, or thin sound with the bass gone"},
 	{[]string{"speaker-coupling"}, false,
 		"leaky output capacitor",
-		"DC flows through the loudspeaker: the output's mid-point is pulled from half the supply towards 0 V and the cone sits pushed off centre",
+		"DC flows through the loudspeaker: the output's mid-point is pulled off its chart reading towards the loudspeaker's return and the cone sits pushed off centre",
 		"the output distorts early, on one half of the wave, at levels the table's gain should pass clean"},
 	{[]string{"detector"}, false,
 		openDetector,
@@ -133,6 +133,11 @@ func hintsFor(c *graph.Circuit, sts []stages.Stage, ifHz float64, sides *detSide
 				row.inject = strings.ReplaceAll(alone, "{out}", outputName(c))
 			}
 			out = addHint(out, s, row)
+		}
+	}
+	for i := range out {
+		if out[i].Fault == openBypass {
+			out[i].Inject = bypassInject(c, sts, out[i].Stages)
 		}
 	}
 	return out
