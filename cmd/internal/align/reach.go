@@ -81,19 +81,20 @@ func reachOf(c *graph.Circuit, gang *graph.Part, lo, hi, wLo, wHi float64) (tank
 		span = coreSpan
 	}
 	s := trimSearch{c: c, net: net, trimmer: t.trimmer, lo: lo, hi: hi, wLo: wLo, wHi: wHi, span: span}
+	var least spanAt
 	if t.trimmer != nil && t.trimmer.Value.IsSpan() {
 		moved := c.Clone()
 		moved.Part(t.trimmer.Ref).Set = t.trimmer.Value.Min
 		s0, s1, ok1 := tankEndPeaks(c, net, lo, hi)
-		m0, m1, ok2 := tankEndPeaks(moved, net, lo, hi)
+		m0, m1, ok2 := tankEndPeaks(moved, net, s0, s1)
 		if !ok1 || !ok2 {
 			return r, false
 		}
 		r.lo, r.hi = lo*m0/s0, hi*m1/s1
-		s.s0, s.s1 = s0, s1
+		s.s0, s.s1, least.m0, least.m1 = s0, s1, m0, m1
 	}
 	// the core scales L by k: both ends move by 1/√k
-	least := spanAt{t: s.trimmerMin(), lo: r.lo, hi: r.hi, ok: true}
+	least.t, least.lo, least.hi, least.ok = s.trimmerMin(), r.lo, r.hi, true
 	r.k, r.reaches = s.coreFor(least)
 	if r.reaches || t.trimmer == nil || !t.trimmer.Value.IsSpan() || s.margin(least) < 0 {
 		return r, true
@@ -115,12 +116,16 @@ func tankEndPeaks(c *graph.Circuit, net string, lo, hi float64) (fLo, fHi float6
 // tankPeak is the largest |Z| at net within a factor reachWindow of guess
 // with the gang at frac; ok is false when it lies at the search's edge.
 func tankPeak(c *graph.Circuit, net string, frac, guess float64) (float64, bool) {
-	lo, hi := guess/reachWindow, guess*reachWindow
+	return tankPeakIn(c, net, frac, guess/reachWindow, guess*reachWindow, reachSweep)
+}
+
+// tankPeakIn is tankPeak over lo..hi with n points a pass.
+func tankPeakIn(c *graph.Circuit, net string, frac, lo, hi float64, n int) (float64, bool) {
 	best := 0.0
 	for pass := range reachPasses {
-		freqs := make([]float64, reachSweep)
+		freqs := make([]float64, n)
 		for i := range freqs {
-			freqs[i] = lo * math.Pow(hi/lo, float64(i)/float64(reachSweep-1))
+			freqs[i] = lo * math.Pow(hi/lo, float64(i)/float64(n-1))
 		}
 		zs, err := ac.Impedance(c, net, freqs, ac.Options{VarFrac: frac, VarSet: true})
 		if err != nil {
