@@ -68,13 +68,13 @@ func fallOf(c *graph.Circuit, s stages.Stage) (bypassFall, bool) {
 	return bypassFall{}, false
 }
 
-// liftLead is c with part ref's lead on net moved to a net of its own.
+// liftLead is c with part ref's lead on net left unconnected (the
+// circuit-editing API's Unconnect, on a copy that owns only that part).
 func liftLead(c *graph.Circuit, ref, net string) *graph.Circuit {
 	m := c.CloneSharing(func(p *graph.Part) bool { return p.Ref == ref })
-	p := m.Part(ref)
-	for i, pin := range p.Pins {
+	for _, pin := range m.Part(ref).Pins {
 		if pin.Net == net {
-			p.Pins[i].Net = ref + "~open"
+			m.Unconnect(ref, pin.Name)
 			break
 		}
 	}
