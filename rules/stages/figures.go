@@ -206,11 +206,14 @@ type coilEnds struct {
 	a, b       int
 	pinA, pinB string
 	l, q       float64
+	sec        *coilSections // two windings in series, else nil
 }
 
 // coil gives the coil an argument names: a plain or tapped inductor end to
 // end (L1 + L2 + 2M, graph.Part.Inductance), or the winding of a transformer
-// the pattern maps (winding = "1" is the first in the pattern's list).
+// the pattern maps (winding = "1" is the first in the pattern's list;
+// "1+2" the first two in series, seriesWindings; a second name, a
+// loading coil in series with the winding, loadedWinding).
 func (x *figCtx) coil(arg string) (coilEnds, bool) {
 	names := x.spec.Args[arg]
 	if len(names) == 0 {
@@ -230,6 +233,9 @@ func (x *figCtx) coil(arg string) (coilEnds, bool) {
 		}
 		return coilEnds{ref: p.Ref, a: x.w.pinNet(ci, "1"), b: x.w.pinNet(ci, "2"), pinA: "1", pinB: "2", l: p.Inductance(), q: q}, true
 	case graph.Transformer:
+		if x.word("winding", "1") == "1+2" {
+			return x.seriesWindings(i, ci)
+		}
 		wi := 0
 		if x.word("winding", "1") == "2" {
 			wi = 1
@@ -237,9 +243,12 @@ func (x *figCtx) coil(arg string) (coilEnds, bool) {
 		if wi >= len(x.m.coils[i]) {
 			return coilEnds{}, false
 		}
-		cl := x.w.coils[ci][x.m.coils[i][wi]]
-		first, last := cl.pins[0], cl.pins[len(cl.pins)-1]
-		return coilEnds{ref: p.Ref, a: x.w.pinNet(ci, first), b: x.w.pinNet(ci, last), pinA: first, pinB: last, l: cl.l, q: cl.q}, true
+		e := x.windingEnds(ci, x.w.coils[ci][x.m.coils[i][wi]])
+		e.ref = p.Ref
+		if len(names) > 1 {
+			return x.loadedWinding(e, names[1])
+		}
+		return e, true
 	}
 	return coilEnds{}, false
 }

@@ -48,7 +48,13 @@ func loopTank(w *world, ref string) (oc coilEnds, caps []*graph.Part, ok bool) {
 		if gangSection(cs) == nil {
 			continue
 		}
-		return coilEnds{ref: ref, a: a, b: b, pinA: first, pinB: last, l: cl.l, q: cl.q}, cs, true
+		oc := coilEnds{ref: ref, a: a, b: b, pinA: first, pinB: last, l: cl.l, q: cl.q}
+		if j, ok := extendToGround(w, ci, cl.name, oc); ok {
+			if jcs := tankCaps(w, j.a, j.b); gangSection(jcs) != nil {
+				return j, jcs, true
+			}
+		}
+		return oc, cs, true
 	}
 	return coilEnds{}, nil, false
 }
@@ -196,8 +202,12 @@ func oscillatorWords(w *world, dev *graph.Part, ref string) string {
 		if role == "" {
 			role = reachRole(w, di, ci, b)
 		}
-		if tuned && a == oc.a && b == oc.b {
-			tank = windingWord(role, true)
+		if tuned && oc.holds(a, b) {
+			// A tank of two windings in series (a long-wave extension)
+			// takes its word from the one that reaches an electrode.
+			if word := windingWord(role, true); tank == "" || word != "tuned-coil" {
+				tank = word
+			}
 		} else if word := windingWord(role, false); word != "" && !slices.Contains(others, word) {
 			others = append(others, word)
 		}

@@ -223,7 +223,7 @@ func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, 
 	} else {
 		loopOscFigures(st, l, tank)
 	}
-	st.Flags = loopFlags(lc, st, l)
+	st.Flags = append(st.Flags, loopFlags(lc, st, l)...) // the tracking's flags kept
 	slices.Sort(st.Flags)
 	return f
 }

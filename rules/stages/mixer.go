@@ -415,6 +415,9 @@ func gangTanks(w *world, osc *graph.Part, exclude []*graph.Part) []*tankModel {
 				}
 			}
 		}
+		if t.l == 0 {
+			t.l = seriesCoilAcross(w, a, b, cold, across)
+		}
 		if t.l > 0 {
 			out = append(out, t)
 		}

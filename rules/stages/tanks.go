@@ -40,10 +40,10 @@ func resonance(l, c float64) float64 {
 // the capacitors the pattern names as its cross-check; a range when a
 // variable capacitor takes part (full capacitance gives the low end of f,
 // least the high end).
-func (x *figCtx) tankFigures(ref string, l float64, a, b int, caps []*graph.Part) {
-	cmin := capBetween(x.w, caps, a, b, 0)
-	cmax := capBetween(x.w, caps, a, b, 1)
-	x.set("l", figure.Henry, l, byCoilL)
+func (x *figCtx) tankFigures(c coilEnds, caps []*graph.Part) {
+	capAt := func(frac float64) float64 { return c.capAcross(x.w, caps, frac) }
+	cmin, cmax := capAt(0), capAt(1)
+	x.set("l", figure.Henry, c.l, byCoilL)
 	if hasVariable(caps) && cmax > cmin*1.0001 {
 		x.span("c", figure.Farad, cmin, cmax, byTankC)
 	} else {
@@ -53,9 +53,9 @@ func (x *figCtx) tankFigures(ref string, l float64, a, b int, caps []*graph.Part
 		if !hasVariable(caps) {
 			frac = 1
 		}
-		return resonance(l, capBetween(x.w, caps, a, b, frac))
+		return resonance(c.l, capAt(frac))
 	}
-	x.resonanceFigure("f", ref, l, a, b, formulaAt, byResonance, tuningRefs(caps, cmax))
+	x.resonanceFigure("f", c.ref, c.l, c.a, c.b, formulaAt, byResonance, tuningRefs(caps, cmax))
 }
 
 // tankBypassRatio is how many times a tank's largest capacitance a
@@ -103,7 +103,7 @@ func calcTank(x *figCtx) {
 		// the pair's split is not read as this side's frequency.
 		defer restore()
 	}
-	x.tankFigures(c.ref, c.l, c.a, c.b, x.parts("caps"))
+	x.tankFigures(c, x.parts("caps"))
 	x.loadedQ(c.ref, c.q)
 	x.confirmTank(c.ref)
 	if x.word("check", "") == "if" {
@@ -137,7 +137,7 @@ func calcHartley(x *figCtx) {
 		x.set("l2", figure.Henry, l2, byPartValue)
 		x.set("m", figure.Henry, m, byHartleyL)
 	}
-	x.tankFigures(c.ref, c.l, c.a, c.b, x.parts("caps"))
+	x.tankFigures(c, x.parts("caps"))
 }
 
 // calcColpitts: Ceff = C1C2/(C1+C2); feedback fraction β = C1/C2 with C1

@@ -56,6 +56,29 @@ C2 = { c = "50n", pins = ["r", "gnd"] }`,
 		nearMiss: `T1 = { windings = { p = "30u", s = "230u" }, k = 0.2, pins = { p1 = "a", p2 = "gnd", s1 = "t", s2 = "r" } }
 C1 = { c = "12p..365p", pins = ["t", "gnd"] }
 C2 = { c = "100p", pins = ["r", "gnd"] }`},
+	// Two windings of one transformer in series, tuned across the whole
+	// (a long-wave loading winding on the rod), a trimmer across the
+	// loading section.
+	{topology: "tuned-winding-series", families: []string{"valve"}, want: "passive",
+		parts: `T1 = { windings = { p = "330u", l = "2m7", s = "6u" }, k = 0.3, pins = { p1 = "t", p2 = "m", l1 = "m", l2 = "gnd", s1 = "b", s2 = "gnd" } }
+C1 = { c = "10p..280p", pins = ["t", "gnd"] }
+C2 = { c = "20p", pins = ["m", "gnd"] }`,
+		// The gang tunes the first winding alone: the loading winding's
+		// end is not the capacitor's.
+		nearMiss: `T1 = { windings = { p = "330u", l = "2m7", s = "6u" }, k = 0.3, pins = { p1 = "t", p2 = "m", l1 = "m", l2 = "gnd", s1 = "b", s2 = "gnd" } }
+C1 = { c = "10p..280p", pins = ["t", "m"] }
+R1 = { r = "1k", pins = ["t", "gnd"] }`},
+	// A winding with a separate loading coil in series.
+	{topology: "tuned-winding-loading-coil", families: []string{"valve"}, want: "passive",
+		parts: `T1 = { windings = { p = "330u", s = "6u" }, k = 0.8, pins = { p1 = "t", p2 = "m", s1 = "b", s2 = "gnd" } }
+L1 = { l = "2m7", pins = ["m", "gnd"] }
+C1 = { c = "10p..280p", pins = ["t", "gnd"] }`,
+		// The coil is not in series with the winding: it loads the
+		// tuned end to a resistor.
+		nearMiss: `T1 = { windings = { p = "330u", s = "6u" }, k = 0.8, pins = { p1 = "t", p2 = "gnd", s1 = "b", s2 = "gnd" } }
+L1 = { l = "2m7", pins = ["t", "m"] }
+R1 = { r = "1k", pins = ["m", "gnd"] }
+C1 = { c = "10p..280p", pins = ["t", "gnd"] }`},
 	{topology: "double-tuned", families: []string{"valve"}, want: "passive",
 		parts: `T1 = { windings = { p = "1m", s = "1m" }, k = 0.01, q = 100, pins = { p1 = "a", p2 = "ht", s1 = "g", s2 = "gnd" } }
 C1 = { c = "122p", pins = ["a", "ht"] }

@@ -63,6 +63,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 		n.Align.AddBands(r.Circuit, r.Stages, r.BandRun)
 		n.Align.AddPresets(r.Circuit, r.DC, r.Stages)
 		n.AlignMarks = alignMarks(n.Align, r.MarkedOn)
+		n.OtherBands = otherBands(r)
 	}
 	return n
 }

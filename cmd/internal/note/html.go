@@ -57,6 +57,7 @@ func WriteHTML(w io.Writer, n *Note, svgs map[string][]byte) error {
 		b.WriteString("<div>\n")
 	}
 	hStages(&b, n)
+	hOtherBands(&b, n)
 	hDC(&b, n)
 	if n.Align != nil {
 		if err := align.WriteHTML(&b, n.Align); err != nil {

@@ -80,8 +80,14 @@ func hStages(b *bytes.Buffer, n *Note) {
 		b.WriteString("<p>No stage was recognised in the reduced circuit.</p>\n")
 		return
 	}
+	hStageTable(b, n.Stages)
+}
+
+// hStageTable writes stages as the HTML note's table of them, with their
+// figures' checks under it.
+func hStageTable(b *bytes.Buffer, sts []Stage) {
 	b.WriteString("<table>\n<tr><th>stage</th><th>what</th><th>family</th><th>parts</th><th>figures</th><th>flags</th></tr>\n")
-	for _, s := range n.Stages {
+	for _, s := range sts {
 		what := h(s.Title)
 		if s.Topology != "" {
 			what += " (" + hCode(s.Topology) + ")"
@@ -94,7 +100,7 @@ func hStages(b *bytes.Buffer, n *Note) {
 	}
 	b.WriteString("</table>\n")
 	var lines []string
-	for _, s := range n.Stages {
+	for _, s := range sts {
 		for _, c := range append(append([]string(nil), s.Checks...), s.Notes...) {
 			lines = append(lines, fmt.Sprintf("<li><b>%s</b> %s</li>", h(s.Name), h(c)))
 		}

@@ -43,6 +43,9 @@ type Note struct {
 
 	Stages      []Stage
 	StagesLimit string // set when the stage search stopped early, with why
+	// OtherBands are the gang-tuned stages of each other position of the
+	// wavechange switch, from that band's own run (otherBands).
+	OtherBands []Band
 	Steps       []Step
 	NearMisses  []Step // candidates a numeric guard turned down
 	Verify      Verify
@@ -195,6 +198,7 @@ func Write(w io.Writer, n *Note) error {
 	writeFindings(&b, n)
 	writeSheets(&b, n)
 	writeStages(&b, n)
+	writeOtherBands(&b, n)
 	writeDC(&b, n)
 	if n.Align != nil {
 		if err := align.WriteMarkdown(&b, n.Align); err != nil {
@@ -306,9 +310,16 @@ func writeStages(b *bytes.Buffer, n *Note) {
 		b.WriteString("No stage was recognised in the reduced circuit.\n\n")
 		return
 	}
+	writeStageTable(b, n.Stages)
+	b.WriteString("\n")
+	writeChecks(b, n.Stages)
+}
+
+// writeStageTable writes stages as the note's table of them.
+func writeStageTable(b *bytes.Buffer, sts []Stage) {
 	b.WriteString("| stage | what | family | parts | figures | flags |\n")
 	b.WriteString("|---|---|---|---|---|---|\n")
-	for _, s := range n.Stages {
+	for _, s := range sts {
 		what := mdCell(s.Title)
 		if s.Topology != "" {
 			what += " (`" + mdCode(s.Topology) + "`)"
@@ -323,17 +334,15 @@ func writeStages(b *bytes.Buffer, n *Note) {
 		fmt.Fprintf(b, "| %s | %s | %s | %s | %s | %s |\n", mdCell(s.Name), what, mdCell(s.Family),
 			codeList(s.Parts), orDash(mdCell(s.Figures)), orDash(strings.Join(flags, ", ")))
 	}
-	b.WriteString("\n")
-	writeChecks(b, n)
 }
 
 // writeChecks lists under the stage table how its figures were checked:
 // each is the solver's on the stage as it sits in the reduced circuit,
 // with the handbook formula beside it and why they part where they do,
 // and each name the solver did not bear out.
-func writeChecks(b *bytes.Buffer, n *Note) {
+func writeChecks(b *bytes.Buffer, sts []Stage) {
 	var lines []string
-	for _, s := range n.Stages {
+	for _, s := range sts {
 		for _, c := range append(append([]string(nil), s.Checks...), s.Notes...) {
 			lines = append(lines, fmt.Sprintf("- **%s** %s", mdText(s.Name), mdText(c)))
 		}
