@@ -46,11 +46,11 @@ type Note struct {
 	// OtherBands are the gang-tuned stages of each other position of the
 	// wavechange switch, from that band's own run (otherBands).
 	OtherBands []Band
-	Steps       []Step
-	NearMisses  []Step // candidates a numeric guard turned down
-	Verify      Verify
-	Caution     Caution
-	DC          DC // the voltage chart
+	Steps      []Step
+	NearMisses []Step // candidates a numeric guard turned down
+	Verify     Verify
+	Caution    Caution
+	DC         DC // the voltage chart
 	// Align is the alignment and signal-tracing guide (cmd/internal/align);
 	// nil when the stages were not found.
 	Align *align.Guide
