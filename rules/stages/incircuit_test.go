@@ -90,11 +90,12 @@ CVC1 bs 0 ` + vc
 		if f.Range == nil || !within(f.Range.Min, lo, 1e-3) || !within(f.Range.Max, hi, 1e-3) {
 			t.Errorf("f = %v, ngspice %g–%g Hz", f.Text(figure.Text), lo, hi)
 		}
-		// The formula counts the bandspread branch alone: 1/(2π√(LC)) with
-		// L = 16 + 4 + 2·0.5·√64 µH = 28 µH and 47 pF in series with
-		// 10..50 pF (derived): 6.11–10.5 MHz, nowhere near.
-		if c := f.Check; c == nil || c.Range == nil || !within(c.Range.Max, 1/(2*math.Pi*math.Sqrt(28e-6*47*10/57*1e-12)), 1e-6) {
-			t.Errorf("formula cross-check %v, want 1/(2π√(28 µH · 8.246 pF)) at the top", c)
+		// The formula counts the bandspread branch and the fixed capacitor
+		// straight across the coil: 1/(2π√(LC)) with L = 16 + 4 +
+		// 2·0.5·√64 µH = 28 µH and 100 pF plus 47 pF in series with
+		// 10..50 pF (derived), 108.246 pF at the top.
+		if c := f.Check; c == nil || c.Range == nil || !within(c.Range.Max, 1/(2*math.Pi*math.Sqrt(28e-6*(100+47.0*10/57)*1e-12)), 1e-6) {
+			t.Errorf("formula cross-check %v, want 1/(2π√(28 µH · 108.246 pF)) at the top", c)
 		}
 	})
 	t.Run("gain: a cathode capacitor that is no bypass", func(t *testing.T) {

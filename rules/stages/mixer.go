@@ -206,7 +206,7 @@ func calcMixer(x *figCtx) {
 	if !ok {
 		return
 	}
-	oscCaps := x.parts("caps")
+	oscCaps := x.withAcross(oc, x.parts("caps"))
 	osc := &tankModel{w: x.w, l: oc.l, a: oc.a, b: oc.b, caps: oscCaps}
 	x.resonanceFigure("osc_f", oc.ref, oc.l, oc.a, oc.b, osc.f, byResonance, refsOf(oscCaps))
 	fmin, fmax := osc.f(1), osc.f(0) // the formula's

@@ -137,7 +137,7 @@ func calcHartley(x *figCtx) {
 		x.set("l2", figure.Henry, l2, byPartValue)
 		x.set("m", figure.Henry, m, byHartleyL)
 	}
-	x.tankFigures(c, x.parts("caps"))
+	x.tankFigures(c, x.withAcross(c, x.parts("caps")))
 }
 
 // calcColpitts: Ceff = C1C2/(C1+C2); feedback fraction β = C1/C2 with C1
