@@ -110,7 +110,7 @@ func (g *Guide) missWarn(c *graph.Circuit, gang *graph.Part, what string, lo, hi
 	}
 	head := fmt.Sprintf("as captured %s tunes %s to %s and falls short of %s of the declared band%s", what, hz(lo), hz(hi), joinAnd(miss), note)
 	if gang != nil {
-		if r, ok := reachOf(c, gang, lo, hi, wLo, wHi); ok {
+		if r, ok := g.reaches.of(c, gang, lo, hi, wLo, wHi); ok {
 			if r.reaches {
 				g.Warnings = append(g.Warnings, head+": "+r.words()+", so alignment brings the dial's ends in (trimmer at the top, core at the bottom)")
 				return

@@ -77,6 +77,9 @@ type Guide struct {
 	// the set.
 	solved *ac.Responses
 	of     *graph.Circuit
+	// reaches are the reach searches shared with the other guides of the
+	// same circuit (nil: each searched afresh).
+	reaches *Reaches
 
 	aerialInto string // where the RF generator goes, for the tracking steps
 }
@@ -114,7 +117,12 @@ type End struct {
 // Build makes the guide of a circuit as captured (the original, not the
 // reduced one) from the stages pare found, under the caution of its class.
 func Build(title string, c *graph.Circuit, sts []stages.Stage, caution safety.Caution) *Guide {
-	g := procedure(c, sts)
+	return build(title, c, sts, caution, nil)
+}
+
+// build is Build with the reach searches of rs (nil: none shared).
+func build(title string, c *graph.Circuit, sts []stages.Stage, caution safety.Caution, rs *Reaches) *Guide {
+	g := procedure(c, sts, rs)
 	g.Title, g.Caution = title, caution.Alignment()
 	g.AGC = agcNet(c)
 	g.confirmDetector(c)
@@ -125,9 +133,10 @@ func Build(title string, c *graph.Circuit, sts []stages.Stage, caution safety.Ca
 	return g
 }
 
-// procedure is the numbered procedure alone: what a sheet marks.
-func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
-	g := &Guide{}
+// procedure is the numbered procedure alone: what a sheet marks. Its
+// reach searches are rs's (nil: searched afresh).
+func procedure(c *graph.Circuit, sts []stages.Stage, rs *Reaches) *Guide {
+	g := &Guide{reaches: rs}
 	mix := mixerStage(sts)
 	g.IF, g.IFFrom = setIF(c, mix)
 	g.det = detectorSides(c, sts)
@@ -155,7 +164,12 @@ func procedure(c *graph.Circuit, sts []stages.Stage) *Guide {
 // AddBands numbers them; nil: the set's own band only), so a band's own
 // trimmers, switched out as captured, carry their marks too.
 func Marks(c *graph.Circuit, sts []stages.Stage, run Runner) map[string]string {
-	g := procedure(c, sts)
+	return marks(c, sts, run, nil)
+}
+
+// marks is Marks with the reach searches of rs (nil: none shared).
+func marks(c *graph.Circuit, sts []stages.Stage, run Runner, rs *Reaches) map[string]string {
+	g := procedure(c, sts, rs)
 	g.AddBands(c, sts, run)
 	steps := map[string][]Step{}
 	var refs []string

@@ -1,7 +1,6 @@
 package note
 
 import (
-	"pare/cmd/internal/align"
 	"path/filepath"
 	"slices"
 	"sort"
@@ -59,7 +58,7 @@ func FromResult(r *pipeline.Result, m Meta) *Note {
 	}
 	n.DC = dcFrom(r)
 	if r.Stages != nil {
-		n.Align = align.Build(r.Title, r.Circuit, r.Stages, r.Caution)
+		n.Align = r.AlignReaches().Build(r.Title, r.Circuit, r.Stages, r.Caution)
 		n.Align.AddBands(r.Circuit, r.Stages, r.BandRun)
 		n.Align.AddPresets(r.Circuit, r.DC, r.Stages)
 		n.AlignMarks = alignMarks(n.Align, r.MarkedOn)

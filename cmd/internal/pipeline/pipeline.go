@@ -18,6 +18,7 @@ import (
 	"runtime/pprof"
 	"sort"
 
+	"pare/cmd/internal/align"
 	"pare/graph"
 	"pare/graph/ac"
 	"pare/graph/dc"
@@ -164,8 +165,11 @@ func (e *Error) Unwrap() error { return e.Err }
 // Result is everything the pipeline made of one netlist. Fields of phases
 // that did not run are zero.
 type Result struct {
-	opts    Options             // what the run was asked (BandRun reruns with them)
-	bands   map[string]*bandRun // the other bands' runs started beside the drawing
+	opts  Options             // what the run was asked (BandRun reruns with them)
+	bands map[string]*bandRun // the other bands' runs started beside the drawing
+	// reaches are the alignment's reach searches on Circuit, shared by the
+	// sheets' marks and the note's guide (AlignReaches).
+	reaches *align.Reaches
 	Path    string
 	Title   string // the netlist's title, or its file name
 	Circuit *graph.Circuit
@@ -225,7 +229,7 @@ func Run(o Options) (*Result, error) {
 	if until == 0 {
 		until = PhaseSheets
 	}
-	r := &Result{Path: o.Path, Level: o.Level, Compare: o.Compare, opts: o}
+	r := &Result{Path: o.Path, Level: o.Level, Compare: o.Compare, opts: o, reaches: align.NewReaches()}
 	c, err := graph.LoadFile(o.Path)
 	if o.Loaded != nil {
 		o.Loaded()

@@ -141,6 +141,11 @@ func (r *Result) Sheet(v render.View) *render.Sheet {
 // with the oscillators stopped (docs/dc.md).
 const PinLegend = "Pin figures: DC volts to chassis, ideal meter, oscillators stopped"
 
+// AlignReaches are the alignment's reach searches on the circuit as
+// captured, shared by every guide made of it in this run (nil when the
+// result was not made by Run: each guide searches afresh).
+func (r *Result) AlignReaches() *align.Reaches { return r.reaches }
+
 // alignMarks are the alignment steps at each part drawn on the view
 // (cmd/internal/align numbers them on the circuit as captured); on the
 // reduced view a part merged into another is marked on the one it went
@@ -153,9 +158,9 @@ func (r *Result) alignMarks(v render.View) map[string]string {
 		// the original shows every band's trimmers: their marks too, from
 		// the other bands' runs (a band's own parts are switched out of the
 		// reduced circuit and not on the reduced view)
-		return align.Marks(r.Circuit, r.Stages, r.BandRun)
+		return r.reaches.Marks(r.Circuit, r.Stages, r.BandRun)
 	}
-	marks := align.Marks(r.Circuit, r.Stages, nil)
+	marks := r.reaches.Marks(r.Circuit, r.Stages, nil)
 	if len(marks) == 0 {
 		return marks
 	}
