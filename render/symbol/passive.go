@@ -176,8 +176,18 @@ func switchSym(p *graph.Part, st Style, m Marks) Shape {
 	return s
 }
 
-// generic is a box with the part's terminals split left and right.
+// generic is a box with the part's terminals split left and right; a
+// two-terminal fuse or lamp, told by the words of its description, is
+// drawn as the standards draw it (genericBody), in the same box.
 func generic(p *graph.Part, st Style, m Marks) Shape {
+	if len(p.Pins) == 2 {
+		if body := genericBody(p.Label, st); body != nil {
+			s := Shape{Turns: []Orient{{false, 0}, {true, 0}}, Box: geom.R(-3, -0.8, 3, 0.8)}
+			s.Pins = []geom.Pin{pin(p.Pins[0].Name, -3, 0, geom.Left), pin(p.Pins[1].Name, 3, 0, geom.Right)}
+			s.Prims = body
+			return s
+		}
+	}
 	n := len(p.Pins)
 	half := (n + 1) / 2
 	rows := math.Max(1, float64(half))

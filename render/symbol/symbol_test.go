@@ -17,6 +17,11 @@ func part(k graph.Kind, typ string, pins ...string) *graph.Part {
 	return p
 }
 
+func labelled(p *graph.Part, label string) *graph.Part {
+	p.Label = label
+	return p
+}
+
 func kinds() map[string]*graph.Part {
 	tapped := part(graph.Inductor, "plain", "1", "t", "2")
 	tapped.Windings = []graph.Winding{{Name: "1t", L: 10e-6, From: "1", To: "t"}, {Name: "t2", L: 90e-6, From: "t", To: "2"}}
@@ -50,6 +55,8 @@ func kinds() map[string]*graph.Part {
 		"pot":          part(graph.Pot, "", "1", "w", "2"),
 		"switch":       sw,
 		"generic":      part(graph.Generic, "", "a", "b", "c"),
+		"fuse":         labelled(part(graph.Generic, "", "a", "b"), "mains fuse 500 mA"),
+		"lamp":         labelled(part(graph.Generic, "", "a", "b"), "dial lamp 6V3 0.3 A"),
 		"loudspeaker":  part(graph.Loudspeaker, "", "1", "2"),
 		"port":         part(graph.Port, "", "1"),
 	}
@@ -192,12 +199,15 @@ func TestOutputTransformerReads(t *testing.T) {
 // resistor and pot (zig-zag against rectangle), capacitors (one curved
 // plate), coils and windings (loops against humps), diodes (IEC's open
 // triangle with the lead through it); valves, transistors, crystals,
-// loudspeakers, switches and the generic box are drawn alike in both. The
+// loudspeakers, switches and the generic box are drawn alike in both; a
+// fuse (IEC's rectangle with the lead through it, IEEE's S-curve) and a
+// lamp (IEC's crossed circle, IEEE's filament loop) differ. The
 // pins never move with the style: the layout is the same in both.
 func TestStylesDifferWhereStandardsDiffer(t *testing.T) {
 	differ := map[string]bool{
 		"resistor": true, "pot": true, "capacitor": true, "electrolytic": true, "variable": true, "trimmer": true,
 		"inductor": true, "tapped": true, "transformer": true, "diode": true, "zener": true, "varicap": true,
+		"fuse": true, "lamp": true,
 	}
 	ks := kinds()
 	drawn := map[graph.Kind]bool{}
@@ -459,5 +469,29 @@ func TestOneCoreSpansItsWindings(t *testing.T) {
 				t.Errorf("%s %v: shared core line drawn %v, want %v", tc.name, st, found, tc.shared)
 			}
 		}
+	}
+}
+
+// A description names a fuse or a lamp by a whole word: "refused" or a
+// "clamp" diode's description names nothing, and a plain description
+// keeps the box (from the netlists' own wording, common practice).
+func TestGenericForms(t *testing.T) {
+	for _, tc := range []struct{ label, want string }{
+		{"mains fuse 500 mA", "fuse"},
+		{"Fuse, 2 A slow", "fuse"},
+		{"dial lamp 6V3 0.3 A", "lamp"},
+		{"scale bulb", "lamp"},
+		{"clamp, refused", ""},
+		{"mains inlet, 230 V", ""},
+		{"", ""},
+	} {
+		if got := genericForm(tc.label); got != tc.want {
+			t.Errorf("%q: form %q, want %q", tc.label, got, tc.want)
+		}
+	}
+	plain := For(labelled(part(graph.Generic, "", "a", "b"), "mains inlet"), IEC)
+	fuse := For(labelled(part(graph.Generic, "", "a", "b"), "fuse"), IEC)
+	if plain.Box != fuse.Box || !reflect.DeepEqual(plain.Pins, fuse.Pins) {
+		t.Errorf("the fuse moves the box's pins or box: %v %v against %v %v", fuse.Pins, fuse.Box, plain.Pins, plain.Box)
 	}
 }
