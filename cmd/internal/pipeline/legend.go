@@ -72,7 +72,9 @@ func furniture(c *graph.Circuit, found []stages.Stage, lvl rules.Level) []furnIt
 	}
 	for _, s := range found {
 		if f, ok := s.Figures.Get("f"); ok && f.Range != nil && f.Range.Max > f.Range.Min {
-			items = append(items, furnItem{text: "Tuning " + s.Name + ": " + f.Text(figure.Sheet), reducedParts: s.Parts})
+			// "Tuning S1: …" read as a switch S1's position (a reviewer's
+			// reading): the stage is called a stage.
+			items = append(items, furnItem{text: "Stage " + s.Name + " tunes " + f.Text(figure.Sheet), reducedParts: s.Parts})
 		}
 	}
 	// A reduced sheet holds for one setting of each switch only (the
