@@ -54,9 +54,9 @@ func calcShuntFeedbackZ(x *figCtx) {
 		return
 	}
 	f := math.Sqrt(b.Min * b.Max)
-	// the declared inputs freed: a source held at 0 V behind the coupling
-	// capacitor would short the electrode and hide the feedback
-	c := freeInputs(x.solverCircuit(), x.solverCircuit().Inputs...)
+	// the electrode's own input freed (seriesInputs), any input further
+	// off held at 0 V as its source holds it
+	c := freeInputs(x.solverCircuit(), seriesInputs(x.solverCircuit(), g)...)
 	closed, ok1 := drivenZ(c, g, f)
 	open, ok2 := drivenZ(feedbackOpened(c, rf, fb, x.w.names[groundNet]), g, f)
 	a, ok3 := transferAt(c, g, fb, f)
@@ -95,4 +95,48 @@ func calcShuntFeedbackZ(x *figCtx) {
 		Origin: figure.BySolver("|Z| into "+g+" with "+rf.Ref+"'s far end at chassis", at)})
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("%s brings %s's signal back to %s's %s in antiphase: the impedance there falls from %s to %s in circuit",
 		rf.Ref, fb, q.Ref, ControlWord(q), figure.Format(open, figure.Ohm, figure.Text), figure.Format(closed, figure.Ohm, figure.Text)))
+}
+
+// seriesInputs are the declared inputs that reach net g through nothing
+// but a chain of two-terminal passives (a coupling capacitor, a series
+// input resistor), each inner net of the chain joining just the two parts
+// either side: the electrode's own input. Held at 0 V such an input would
+// short the electrode through the chain and hide the feedback, so it is
+// freed. An input further off (behind a preamplifier) stays held at 0 V,
+// as the source that drives it holds it: it sets how the earlier stages
+// load the electrode and carry the overall loop (review22 b04: Q1's base
+// held through C1 lets R19's feedback reach Q2's base through Q1's
+// collector; ngspice with the input source in place, 73.8 Ω).
+func seriesInputs(c *graph.Circuit, g string) []string {
+	var out []string
+	for _, in := range c.Inputs {
+		if in == g || seriesPath(c, in, g, "", 4) {
+			out = append(out, in)
+		}
+	}
+	return out
+}
+
+// seriesPath tells whether net from reaches net to along two-terminal
+// passives in series within depth parts, not turning back through the part
+// it came by (skip); an inner net with a third connection ends the chain.
+func seriesPath(c *graph.Circuit, from, to, skip string, depth int) bool {
+	if depth == 0 {
+		return false
+	}
+	conns := c.ConnsOf(from)
+	if skip != "" && len(conns) != 2 {
+		return false
+	}
+	for _, cn := range conns {
+		p := cn.Part
+		if p.Ref == skip || !p.IsTwoTerminal() || p.Kind == graph.Diode {
+			continue
+		}
+		next := farEnd(p, from)
+		if next == to || (next != "" && seriesPath(c, next, to, p.Ref, depth-1)) {
+			return true
+		}
+	}
+	return false
 }
