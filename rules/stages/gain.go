@@ -13,7 +13,6 @@ import (
 // gives them (docs/references.md §5; from memory where calcGain says so).
 var (
 	byDecibels  = figure.ByFormula("20·log10|A|")
-	byROut      = figure.ByFormula("Rout = ra/(µ+1) ∥ Rk (1/gm ∥ RS)")
 	byLoad      = figure.ByFormula("RL = load ∥ every resistor to AC ground")
 	byDynamicR  = figure.ByFormula("Rd = Q·ω0·L")
 	byTapShare  = figure.ByFormula("n = √Lcold/(√L1 + √L2)")

@@ -181,17 +181,17 @@ func parZ(a, b float64) float64 {
 // followerROut writes a follower's output resistance: the solver's |Z|
 // into its common electrode at the band centre with the load cut off (the
 // parts beyond it, as stageImpedances cuts them) and the device live, with
-// the formula ra/(µ+1) ∥ Rk (1/gm ∥ RE for a transistor) beside it; the
+// the formula that fits the device beside it (followerROutCheck); the
 // formula alone where the solver cannot say.
 func (x *figCtx) followerROut(p *graph.Part, d device, rk float64) {
-	check := figure.Figure{Name: "r_out", Unit: figure.Ohm, Value: parallel(d.small.ZCommon(0), rk), Origin: byROut}
 	_, out := x.gainNets("follower")
 	band := x.w.c.BandOf(p)
 	if !x.solve || out == "" || band.Min <= 0 || band.Max <= 0 {
-		x.put(check)
+		x.put(x.followerROutCheck(p, d, rk, 0))
 		return
 	}
 	f := math.Sqrt(band.Min * band.Max)
+	check := x.followerROutCheck(p, d, rk, f)
 	z, ok := impedanceAt(withoutRefs(x.solverCircuit(), x.neighbours(out, p)), out, f)
 	if !ok {
 		x.put(check)
@@ -200,6 +200,9 @@ func (x *figCtx) followerROut(p *graph.Part, d device, rk float64) {
 	sv := &figure.Figure{Name: "r_out", Unit: figure.Ohm, Value: cmplx.Abs(z),
 		Origin: figure.BySolver("|Z| into "+out+", the load cut off", hz(f)+", "+gangMid.at)}
 	x.putChecked(sv, &check, func() string {
+		if check.Origin == byROutBJT {
+			return "the formula takes the transistor's re and β alone (no ro, no junction capacitance); the solver the whole circuit round the stage at " + hz(f)
+		}
 		return "the formula takes the device and its resistor alone; the solver the whole circuit round the stage at " + hz(f)
 	})
 }
