@@ -333,7 +333,7 @@ func calcBypass(x *figCtx) {
 	cs := x.parts("c")
 	b := x.bypassInCircuit(p, cs[0])
 	if b.solved && len(cs) == 1 {
-		x.checkBypass(cs[0], b)
+		x.checkBypass(p, cs[0], b)
 	}
 	if !b.solved || !b.hasCorner || len(cs) != 1 {
 		x.put(check)
@@ -349,19 +349,28 @@ func calcBypass(x *figCtx) {
 
 // checkBypass keeps the name "bypassed" only where the solver shows it:
 // across the band (its middle and its low edge) the gain comes within
-// bypassAgreement of a perfect bypass's. Else the plainer name, a flag
-// where the bypass corner lies in the band, and a note where even the
-// middle of the band falls short.
-func (x *figCtx) checkBypass(ck *graph.Part, b bypassSolve) {
+// bypassAgreement of a perfect bypass's. Else a flag where the bypass
+// corner lies in the band, and the plainer name "partly bypassed" where
+// the solver or the wiring shows part of the lead left: the middle of the
+// band falls short (with a note), or the capacitor sits below an
+// unbypassed part of the lead. A capacitor straight across the whole lead
+// that holds the middle of the band bypasses all of it there, and only
+// the band's low edge falls short: "bypass weak at the band's low end"
+// (review22 b05's C19 across R16 had been named "partly bypassed").
+func (x *figCtx) checkBypass(dev, ck *graph.Part, b bypassSolve) {
 	if b.bypassed() {
 		return
 	}
+	midHeld := math.Abs(b.a-b.full) <= bypassAgreement*b.full
 	x.st.Title = expandTitle(partlyBypassed, x.st.Family)
+	if midHeld && x.acrossWholeLead(dev, ck) {
+		x.st.Title = expandTitle(weakBypass, x.st.Family)
+	}
 	if b.aLo < (1-bypassAgreement)*b.fullLo && b.hasCorner && b.corner > b.lo {
 		x.flag("bypass corner %s lies in the band %s–%s: gain falls to %s at %s (%s with a perfect bypass)",
 			hz(b.corner), hz(b.lo), hz(b.hi), figure.Plain(b.aLo), hz(b.lo), figure.Plain(b.fullLo))
 	}
-	if math.Abs(b.a-b.full) <= bypassAgreement*b.full {
+	if midHeld {
 		return
 	}
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("named partly bypassed: at %s the gain in circuit is %s, %s %% short of the %s a perfect bypass gives; %s is no bypass at the band",

@@ -144,6 +144,12 @@ const bypassAgreement = 0.05
 // capacitor the solver shows is no bypass at the band.
 const partlyBypassed = "Common-{common} amplifier, {common} resistor partly bypassed ({family})"
 
+// weakBypass is the name of a stage whose capacitor across the whole
+// common lead holds the middle of the band but not its low edge: the
+// resistor is wholly bypassed, not partly, and the bypass falls off below
+// its corner inside the band.
+const weakBypass = "Common-{common} amplifier, {common} bypass weak at the band's low end ({family})"
+
 // lowPassCorner is where V(out)/V(in) falls 3 dB below its pass band
 // level, the most of |H| between guess/cornerSpan and guess, the −3 dB
 // point searched up to guess·cornerSpan.

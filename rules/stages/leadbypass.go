@@ -158,3 +158,16 @@ func checkLeadTitle(c *graph.Circuit, st *Stage, l Loop) {
 		st.Notes = append(st.Notes, "named partly bypassed: "+j.gainsText())
 	}
 }
+
+// acrossWholeLead tells whether capacitor ck joins dev's common electrode
+// itself to AC ground: nothing of the lead lies outside it.
+func (x *figCtx) acrossWholeLead(dev, ck *graph.Part) bool {
+	a, b, ok := passiveEnds(ck)
+	k := dev.NetOf(dev.PinWithRole(graph.RoleCommon))
+	if !ok || k == "" {
+		return false
+	}
+	c := x.solverCircuit()
+	ground := func(n string) bool { return c.RoleOf(n).IsACGround() }
+	return (a == k && ground(b)) || (b == k && ground(a))
+}
