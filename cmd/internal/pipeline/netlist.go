@@ -1,6 +1,7 @@
 package pipeline
 
 import (
+	"math"
 	"strconv"
 	"strings"
 
@@ -18,7 +19,9 @@ import (
 func (r *Result) ReducedNetlist() ([]byte, error) {
 	// Marshal proves the text loads back as the reduced circuit; if not,
 	// that is pare's bug (graph.ErrWriter), not the input's.
-	return graph.Marshal(annotated(r.Reduced, r.Level))
+	d := annotated(r.Reduced, r.Level)
+	readerValues(d)
+	return graph.Marshal(d)
 }
 
 // annotated marks the reduced netlist as such above its first key.
@@ -48,6 +51,40 @@ func annotated(c *graph.Circuit, lvl rules.Level) *graph.Circuit {
 	d.Comments[first] = cm
 	keepDetectorRd(d)
 	return d
+}
+
+// readerDigits is how many significant figures a merged part's value is
+// written with: what a reader can buy or measure (an E192 value carries
+// three, a 0.1 % bridge four), as the IEC 60062 code writes it ("325R1").
+// The reduced circuit the figures come from keeps full precision; the file
+// solves within half a part in a thousand of it (common practice: well
+// inside any part's tolerance).
+const readerDigits = 4
+
+// readerValues rounds the values pare computed (parts merged from others,
+// From set) to readerDigits: a parallel pair of 330R and 22k is 325R1, not
+// "325R12315270936". A part the user captured keeps the value as written.
+func readerValues(c *graph.Circuit) {
+	for i, p := range c.Parts {
+		if len(p.From) == 0 || p.Value.Max == 0 {
+			continue
+		}
+		q := p.Clone()
+		q.Value.Min, q.Value.Max = roundSig(p.Value.Min), roundSig(p.Value.Max)
+		for k := range q.Windings {
+			q.Windings[k].L = roundSig(q.Windings[k].L)
+		}
+		c.Parts[i] = q
+	}
+}
+
+// roundSig is v to readerDigits significant figures.
+func roundSig(v float64) float64 {
+	if v == 0 || math.IsInf(v, 0) || math.IsNaN(v) {
+		return v
+	}
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', readerDigits, 64), 64)
+	return r
 }
 
 // keepDetectorRd writes each detector's rd, as the reduced circuit solves
