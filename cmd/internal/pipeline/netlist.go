@@ -1,12 +1,15 @@
 package pipeline
 
 import (
+	"maps"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
 	"pare/graph"
 	"pare/graph/ac"
+	"pare/graph/value"
 	"pare/rules"
 	"pare/rules/stages"
 )
@@ -21,6 +24,8 @@ func (r *Result) ReducedNetlist() ([]byte, error) {
 	// that is pare's bug (graph.ErrWriter), not the input's.
 	d := annotated(r.Reduced, r.Level)
 	readerValues(d)
+	_, split := r.withDividersApart(r.withSupplyReturns(r.Reduced), stageFrames(r.Stages, r.Reduced, nil))
+	r.sayDrawnApart(d, split)
 	return graph.Marshal(d)
 }
 
@@ -148,4 +153,32 @@ func (r *Result) Unmatched() []Unmatched {
 		out = append(out, Unmatched{Ref: ref, Reason: reason})
 	}
 	return out
+}
+
+// sayDrawnApart tells, beside each merged resistor the reduced sheet draws
+// as its members (withDividersApart: feeds from different lines), which
+// members the sheet shows with their own values: review22 b02's sheet
+// drew R2 22k and R4 330R where the netlist held R4 325R1, and a reader
+// holding both took one for a mistake.
+func (r *Result) sayDrawnApart(c *graph.Circuit, split map[string][]string) {
+	refs := slices.Sorted(maps.Keys(split))
+	for _, ref := range refs {
+		var each []string
+		for _, m := range split[ref] {
+			if o := r.Circuit.Part(m); o != nil {
+				each = append(each, m+" "+value.Format(o.Value.Max, value.Ohm, value.Code))
+			}
+		}
+		if len(each) < 2 || c.Part(ref) == nil {
+			continue
+		}
+		key := "parts." + ref
+		cm := c.Comments[key]
+		said := " the reduced sheet draws it as " + strings.Join(each[:len(each)-1], ", ") + " and " + each[len(each)-1] + ", each to its own return"
+		if cm.After != "" {
+			said = cm.After + ";" + said
+		}
+		cm.After = said
+		c.Comments[key] = cm
+	}
 }

@@ -16,7 +16,8 @@ var nonDigit = regexp.MustCompile(`[^0-9]`)
 // A merged part's value is written for a reader: review22 b02's R2 22k ∥
 // R4 330R had been written "325R12315270936". 22000·330/22330 = 325.12 Ω
 // (arithmetic), written to four significant figures in the IEC 60062 code
-// as 325R1. The file still loads and matches the original circuit by AC
+// as 325R1, and its line says the sheet draws it as R2 22k and R4 330R
+// (feeds from two lines, drawn apart). The file still loads and matches the original circuit by AC
 // analysis (the proof the main job gives, redone on the written text).
 func TestReducedNetlistValuesForReader(t *testing.T) {
 	code := regexp.MustCompile(`(?m)^(\w+) = \{ (?:r|c|l) = "([^"]+)"[^\n]*from = `)
@@ -44,6 +45,9 @@ func TestReducedNetlistValuesForReader(t *testing.T) {
 				if m[1] == tc.ref && m[2] != tc.want {
 					t.Errorf("%s = %q, want %q", m[1], m[2], tc.want)
 				}
+			}
+			if tc.ref == "R4" && !strings.Contains(string(text), "draws it as R2 22k and R4 330R") {
+				t.Errorf("R4's line does not say how the sheet draws it:\n%s", text)
 			}
 			back, err := graph.Parse("reduced.toml", text)
 			if err != nil {
