@@ -43,6 +43,12 @@ var figureNames = []figName{
 	{name: "ift_f", label: "IF transformer f"},
 	{name: "bw", label: "bandwidth"},
 	{name: "q_loaded", label: "loaded Q"},
+	// a coupled pair's pass band as the solver gives it (pairpass.go)
+	{name: "pass_centre", label: "pass band centre"},
+	{name: "hump_lo", label: "lower hump"},
+	{name: "hump_hi", label: "upper hump"},
+	// a mixer's anode peak where it is not the pass band's centre (iftnote.go)
+	{name: "ift_anode_f", label: "anode peak"},
 	{name: "image_f", label: "image f"},
 	{name: "track_err_max", label: "track err max"},
 	{name: "track_err_at", label: "track err at"},

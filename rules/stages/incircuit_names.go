@@ -216,24 +216,24 @@ func (x *figCtx) rename(claim, why string) {
 	x.st.Notes = append(x.st.Notes, why)
 }
 
-// pairBandwidth is a coupled pair's −3 dB bandwidth as the solver gives it
+// pairBandwidth is a coupled pair's −3 dB band as the solver gives it
 // in circuit: 1 A into the primary's hot end (as the anode or collector
 // feeds it), the secondary's hot end read, every device quiet and all the
 // pair's loads in; the band's outer edges, so an over-coupled pair's dip
 // between its humps does not cut it short. ok is false where the solver
-// cannot say.
-func (x *figCtx) pairBandwidth(prim, sec string, f0 float64) (float64, bool) {
+// cannot say. Its humps are found inside the band (pairpass.go).
+func (x *figCtx) pairBandwidth(prim, sec string, f0 float64) (passband, bool) {
 	if !x.solve || prim == "" || sec == "" || !(f0 > 0) {
-		return 0, false
+		return passband{}, false
 	}
 	r, err := ac.NewTransimpedance(quiet(x.solverCircuit()), prim, sec, gangMid.options())
 	if err != nil {
-		return 0, false
+		return passband{}, false
 	}
 	lo, hi := f0/1.5, f0*1.5
 	_, top, ok := peakOf(r, lo, hi)
 	if !ok {
-		return 0, false
+		return passband{}, false
 	}
 	level := top / math.Sqrt2
 	const n = 200
@@ -249,12 +249,13 @@ func (x *figCtx) pairBandwidth(prim, sec string, f0 float64) (float64, bool) {
 		}
 	}
 	if first <= 0 || last < 0 || last >= n-1 {
-		return 0, false
+		return passband{}, false
 	}
 	f1, ok1 := crossing(r, level, fs[first], fs[first-1])
 	f2, ok2 := crossing(r, level, fs[last], fs[last+1])
 	if !ok1 || !ok2 {
-		return 0, false
+		return passband{}, false
 	}
-	return f2 - f1, true
+	humps, dip := humpsIn(r, f1, f2)
+	return passband{lo: f1, hi: f2, humps: humps, dipDB: dip}, true
 }

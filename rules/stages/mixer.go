@@ -467,16 +467,17 @@ func (x *figCtx) hotEnd(ci int, cl coil) string {
 // (pairBandwidth), with √2·f0/Q beside it: the formula holds at critical
 // coupling and for equal Q, so the words for a difference give k/kc.
 func (x *figCtx) pairFigure(prim, sec string, f0 float64) {
-	bw, ok := x.pairBandwidth(prim, sec, f0)
+	pb, ok := x.pairBandwidth(prim, sec, f0)
 	check, has := x.get("bw")
 	if !ok || !has {
 		return
 	}
-	sv := &figure.Figure{Name: "bw", Unit: figure.Hertz, Value: bw,
+	sv := &figure.Figure{Name: "bw", Unit: figure.Hertz, Value: pb.hi - pb.lo,
 		Origin: figure.BySolver("−3 dB band of V("+sec+") for 1 A into "+prim, gangMid.at)}
 	x.putChecked(sv, &check, func() string {
 		kr, _ := x.get("k_ratio")
 		return fmt.Sprintf("the formula holds at critical coupling with the windings' own Q; here k is %s·kc and the pair works into its loads in circuit",
 			figure.Plain(kr.Value))
 	})
+	x.pairPassFigures(pb)
 }
