@@ -294,11 +294,27 @@ func (x *figCtx) tapShare() float64 {
 	if la <= 0 || lb <= 0 {
 		return 1
 	}
+	// The cold end is at chassis, or on the decoupled line the pattern's
+	// return bypass holds (ret): the winding's supply end.
 	cold := la
-	if x.w.pinNet(ci, cl.pins[2]) == groundNet {
+	if end := x.w.pinNet(ci, cl.pins[2]); end == groundNet || end == x.patternNet("ret") {
 		cold = lb
 	}
 	return math.Sqrt(cold) / (math.Sqrt(la) + math.Sqrt(lb))
+}
+
+// patternNet is the circuit net the match bound to the pattern net name,
+// -1 where the pattern has none or the match left it out.
+func (x *figCtx) patternNet(name string) int {
+	n, ok := x.st.nets[name]
+	if !ok {
+		return -1
+	}
+	id, ok := x.w.netID[n]
+	if !ok {
+		return -1
+	}
+	return id
 }
 
 // calcBypass gives the corner of a cathode (emitter, source) bypass
