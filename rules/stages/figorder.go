@@ -159,6 +159,9 @@ var figureNames = []figName{
 	{name: "c_in", label: "input C with Miller"},
 	{name: "gain_miller", label: "Miller gain |A|"},
 	{name: "z_screen_unbypassed", label: "screen |Z| without its bypass"},
+	// a gang-tuned amplifier's gain solved at each end of the travel
+	{name: "gain_band_low", label: "gain at the band's low end"},
+	{name: "gain_band_high", label: "gain at the band's high end"},
 	{name: "l", working: true},
 	{name: "c", working: true},
 	{name: "l1", working: true},

@@ -234,6 +234,7 @@ func (x *figCtx) solveTunedGain(p *graph.Part, rdn2, rOut float64) (*figure.Figu
 	sv := &figure.Figure{Name: "gain", Unit: figure.Ratio, Value: g,
 		Origin: figure.BySolver("peak of V("+out+")/V("+in+")", hz(f)+", "+gangMid.at)}
 	x.gainAtIF(r, f, g)
+	x.bandEndGains(c, in, out, "the device's own output electrode")
 	why := func() string {
 		z, ok := impedanceAt(quiet(c), out, f)
 		if !ok {

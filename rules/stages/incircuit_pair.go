@@ -58,6 +58,7 @@ func (x *figCtx) tunedSecondaryGain(p *graph.Part, gm, rdn2, rOut, f0 float64) b
 		return "the formula takes each winding's own Q and the coupling as captured; in circuit what the secondary feeds and the strays load the pair"
 	})
 	x.anodeGain(c, in, r, f, at)
+	x.bandEndGains(c, in, sec, "the tuned secondary the next stage takes")
 	old, _ := x.get("load_f")
 	lf := figure.Figure{Name: "load_f", Unit: figure.Hertz, Value: f,
 		Origin: figure.BySolver(fmt.Sprintf("peak of |V(%s)/V(%s)|: the transformer's pass-band centre", sec, in), at)}
