@@ -397,6 +397,10 @@ func withoutHeldPorts(orig *graph.Circuit, qs []quantity, o Options, rep *Report
 	}
 	rep.Notes = append(rep.Notes, fmt.Sprintf("Held at 0 V: net(s) %s, reached only through a port (the source or reference beyond it, undriven; state a termination to model it otherwise)",
 		strings.Join(nl.portHeld, ", ")))
+	if len(nl.heldVia) > 0 {
+		rep.Notes = append(rep.Notes, fmt.Sprintf("Taken as a way in from outside (a part the model leaves open, e.g. a mains inlet): %s",
+			strings.Join(nl.heldVia, ", ")))
+	}
 	out := qs[:0]
 	for _, q := range qs {
 		held := q.from

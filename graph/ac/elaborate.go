@@ -64,6 +64,9 @@ type netlist struct {
 	// portHeld lists the port nets held at 0 V because nothing else gives
 	// their group of nets a path to ground (portHeldNets), sorted.
 	portHeld []string
+	// heldVia lists the generic parts (an inlet, a plug) through which a
+	// held group is reached, in part order.
+	heldVia []string
 }
 
 // ncNet marks a terminal that is not connected (docs/netlist.md).
@@ -100,12 +103,32 @@ func elaborateShared(c *graph.Circuit, o Options, dc *dcShare) (*netlist, error)
 		return nil, err
 	}
 	nl.portHeld = held
+	nl.heldVia = genericWaysIn(c, held)
 	return nl, nil
+}
+
+// genericWaysIn lists the generic parts with a terminal on a held net, so
+// the note can say which part was taken as the way in.
+func genericWaysIn(c *graph.Circuit, held []string) []string {
+	var refs []string
+	for _, p := range c.Parts {
+		if p.Kind != graph.Generic {
+			continue
+		}
+		for _, pin := range p.Pins {
+			if contains(held, pin.Net) {
+				refs = append(refs, p.Ref)
+				break
+			}
+		}
+	}
+	return refs
 }
 
 // portHeldNets finds the port nets of groups of nets that nothing connects
 // to ground or to a declared input through a part that conducts at AC: a
-// mains primary brought in on two ports, a winding wired to a socket, the
+// mains primary brought in on two ports or a two-pin inlet (a generic part
+// counts as a way in, entersFromOutside), a winding wired to a socket, the
 // far winding of a transformer at the edge of a focus cut. Such a group is
 // reached only from outside, through its ports, so for the small-signal
 // model a port is a source that is not driven (or the reference of what
@@ -148,7 +171,7 @@ func portHeldNets(c *graph.Circuit, nl *netlist) []string {
 	seen := map[string]bool{}
 	var held []string
 	for _, p := range c.Parts {
-		if p.Kind != graph.Port {
+		if !entersFromOutside(p) {
 			continue
 		}
 		for _, pin := range p.Pins {
@@ -162,6 +185,15 @@ func portHeldNets(c *graph.Circuit, nl *netlist) []string {
 	}
 	sort.Strings(held)
 	return held
+}
+
+// entersFromOutside tells whether a part is a way in from outside what the
+// model describes: a port, or a generic part (a mains inlet, a plug, a
+// socket), which the model leaves open. A mains primary wired to a two-pin
+// inlet is then held just as one brought in on two ports: the capture's
+// choice of symbol must not decide whether the circuit solves.
+func entersFromOutside(p *graph.Part) bool {
+	return p.Kind == graph.Port || p.Kind == graph.Generic
 }
 
 // build is elaborate with the nets in held joined to ground.

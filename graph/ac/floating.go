@@ -4,6 +4,7 @@
 package ac
 
 import (
+	"errors"
 	"fmt"
 	"strings"
 
@@ -58,4 +59,50 @@ func (e *FloatingError) Error() string {
 		nets = nets[:8]
 	}
 	return fmt.Sprintf("floating: net(s) %s%s have no path to ground through any part (a winding or stage left unconnected?)", strings.Join(nets, ", "), more)
+}
+
+// Undriven lists the nets of c that no part conducting at AC ties to
+// ground, to a declared input, or to a way in from outside (a port, a
+// generic part: portHeldNets): a winding or stage truly left unconnected,
+// which no small-signal solve can fix. `pare check` warns about them so
+// that the capture is mended before the AC proof fails on them. An
+// elaboration error returns nil: the solves report it with its context.
+func Undriven(c *graph.Circuit) []string {
+	nl, err := elaborate(c, Options{})
+	if err != nil {
+		return nil
+	}
+	// Only nodes some element touches are unknowns of a solve.
+	s := &system{nl: nl, unk: make([]int, len(nl.nodes))}
+	for i := range s.unk {
+		s.unk[i] = unkGround
+	}
+	for _, p := range nl.prims {
+		for _, n := range []int{p.a, p.b, p.c, p.d} {
+			if n > 0 { // a negative node is no node (portHeldNets)
+				s.unk[n] = 0
+			}
+		}
+	}
+	for _, g := range nl.groups {
+		for _, w := range g.winds {
+			for _, n := range []int{w.a, w.b} {
+				if n > 0 {
+					s.unk[n] = 0
+				}
+			}
+		}
+	}
+	s.unk[0] = unkGround
+	held := make([]bool, len(nl.nodes))
+	for _, in := range c.Inputs {
+		if n, ok := nl.netNode[in]; ok {
+			held[n] = true
+		}
+	}
+	var fe *FloatingError
+	if errors.As(s.checkFloating(0, held), &fe) {
+		return fe.Nets
+	}
+	return nil
 }

@@ -78,3 +78,51 @@ func TestCompareHeldPorts(t *testing.T) {
 		t.Errorf("notes do not name the held nets:\n%s", notes)
 	}
 }
+
+// A two-pin inlet (a generic part, which the model leaves open) is a way in
+// just as two ports are: the primary behind it is held, and the secondary
+// shows the leakage inductance Ls·(1−k²) of coupled inductors with the
+// other winding shorted (textbook, as above). Undriven names only a group
+// that nothing brings in: a primary across a resistor and nothing else.
+func TestInletPartIsAWayIn(t *testing.T) {
+	const base = `
+band = "1k..1k"
+inputs = ["in"]
+outputs = ["s"]
+[parts]
+R1 = { r = "1k", pins = ["in", "s"] }
+T1 = { windings = { p = "4", s = "1" }, k = 0.98, pins = { p1 = "mains_l", p2 = "mains_n", s1 = "s", s2 = "gnd" } }
+`
+	w := 2 * math.Pi * 1e3
+	z := complex(0, w*1*(1-0.98*0.98))
+	want := z / (1e3 + z)
+	cases := []struct {
+		name, extra string
+		undriven    string // nets Undriven names, joined
+		solves      bool
+	}{
+		{"two-pin inlet", `P2 = { part = "mains inlet", pins = { l = "mains_l", n = "mains_n" } }`, "", true},
+		{"two ports", "P2 = { port = \"line\", pins = [\"mains_l\"] }\nP3 = { port = \"neutral\", pins = [\"mains_n\"] }", "", true},
+		{"nothing brings it in", `R2 = { r = "10", pins = ["mains_l", "mains_n"] }`, "mains_l,mains_n", false},
+	}
+	for _, tc := range cases {
+		c := mustParse(t, base+tc.extra+"\n")
+		if got := strings.Join(Undriven(c), ","); got != tc.undriven {
+			t.Errorf("%s: Undriven = %q, want %q", tc.name, got, tc.undriven)
+		}
+		got, err := Transfer(c, "in", "s", []float64{1e3}, Options{})
+		if !tc.solves {
+			var fe *FloatingError
+			if !errors.As(err, &fe) {
+				t.Errorf("%s: want a FloatingError, got %v", tc.name, err)
+			}
+			continue
+		}
+		if err != nil {
+			t.Fatalf("%s: %v", tc.name, err)
+		}
+		if d := cmplx.Abs(got[0]-want) / cmplx.Abs(want); d > 1e-6 {
+			t.Errorf("%s: V(s)/V(in) = %v, want %v", tc.name, got[0], want)
+		}
+	}
+}

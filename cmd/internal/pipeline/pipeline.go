@@ -290,6 +290,8 @@ func (r *Result) check(o Options) error {
 		return nil
 	}
 	r.Warnings = graph.Check(r.Circuit)
+	r.Warnings = append(r.Warnings, undrivenWarnings(r.Circuit)...)
+	r.Warnings.Sort()
 	r.Notes = append(r.Notes, graph.CheckNotes(r.Circuit)...)
 	r.weighNoInput()
 	return nil
