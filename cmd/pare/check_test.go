@@ -178,3 +178,25 @@ func TestCheckStrictOscillator(t *testing.T) {
 		}
 	}
 }
+
+// TestCheckUndriven: a primary that nothing brings in warns at its first
+// terminal (file:line:col) and check --strict exits 1; the same primary on a
+// two-pin inlet part (review22 a04) or on two ports (a04-two-ports) is held
+// as an undriven source and check is clean.
+func TestCheckUndriven(t *testing.T) {
+	cases := []struct {
+		file string
+		code int
+		want string
+	}{
+		{"cmd/pare/testdata/floating-primary.toml", exitFound, "floating-primary.toml:12:26: warning: net(s) mains_l, mains_n have no path to ground"},
+		{"testdata/review22/a04.toml", exitOK, ", 0 warnings"},
+		{"testdata/review22/a04-two-ports.toml", exitOK, ", 0 warnings"},
+	}
+	for _, tc := range cases {
+		code, out, _ := cliRun(t, "check", "--strict", filepath.Join(root, tc.file))
+		if code != tc.code || !strings.Contains(out, tc.want) {
+			t.Errorf("%s: exit %d, want %d with %q in:\n%s", tc.file, code, tc.code, tc.want, out)
+		}
+	}
+}
