@@ -189,7 +189,7 @@ func TestCheckUndriven(t *testing.T) {
 		code int
 		want string
 	}{
-		{"cmd/pare/testdata/floating-primary.toml", exitFound, "floating-primary.toml:12:26: warning: net(s) mains_l, mains_n have no path to ground"},
+		{"cmd/pare/testdata/check/floating-primary.toml", exitFound, "floating-primary.toml:12:26: warning: net(s) mains_l, mains_n have no path to ground"},
 		{"testdata/review22/a04.toml", exitOK, ", 0 warnings"},
 		{"testdata/review22/a04-two-ports.toml", exitOK, ", 0 warnings"},
 	}
