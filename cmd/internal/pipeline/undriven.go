@@ -14,7 +14,13 @@ import (
 // primary brought in on ports or an inlet part is not one of them: the
 // model holds it at 0 V as an undriven source.
 func undrivenWarnings(c *graph.Circuit) graph.ErrorList {
-	nets := ac.Undriven(c)
+	var nets []string
+	for _, n := range ac.Undriven(c) {
+		// A net with one connection has graph.Check's plainer warning.
+		if len(c.ConnsOf(n)) > 1 {
+			nets = append(nets, n)
+		}
+	}
 	if len(nets) == 0 {
 		return nil
 	}
