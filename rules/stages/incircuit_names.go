@@ -179,8 +179,12 @@ func (x *figCtx) checkSmoothing(nets ...string) {
 		}
 	}
 	x.capAsDecoupling()
-	if _, rect := x.rectWave(); rect != "" {
-		x.rename("smooth", fmt.Sprintf("named a decoupling filter: the rectifier %s is not on its nets, it takes the supply after a section before it, so it filters a supply, it does not smooth one", rect))
+	if _, refs := x.rectWave(); len(refs) > 0 {
+		what := "the rectifier " + refList(refs) + " is" // one part: a double-diode valve, a bridge block
+		if len(refs) > 1 {
+			what = "the rectifiers " + refList(refs) + " are"
+		}
+		x.rename("smooth", fmt.Sprintf("named a decoupling filter: %s not on its nets, it takes the supply after a section before it, so it filters a supply, it does not smooth one", what))
 		return
 	}
 	x.rename("smooth", "named a decoupling filter: no rectifier feeds it, so it filters a supply, it does not smooth one")

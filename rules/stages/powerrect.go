@@ -116,41 +116,53 @@ const (
 // distinct nets that feed a reservoir through a supply junction
 // (supplyJunction: anodes strapped together are one path) are its sources.
 // One source is half-wave; two are full-wave, a bridge when two more
-// junctions return from chassis to those sources. ref is the first
-// rectifier found.
-func (x *figCtx) rectWave() (waveKind, string) {
+// junctions return from chassis to those sources. refs are the parts that
+// make the rectifier, in part order: every part with a supply junction,
+// and a bridge's return diodes, so two diodes are named as two and a
+// double-diode valve as one.
+func (x *figCtx) rectWave() (waveKind, []*graph.Part) {
 	var all []junction
-	sources, ref := map[int]bool{}, ""
+	var owner []int
+	sources := map[int]bool{}
+	in := map[int]bool{}
 	for ci, p := range x.w.parts {
 		if !(p.Kind == graph.Diode || p.Kind == graph.Valve && isValveDiode(p)) {
 			continue
 		}
 		for _, j := range x.junctions(ci) {
-			all = append(all, j)
+			all, owner = append(all, j), append(owner, ci)
 			if src, ok := x.supplyJunction(j); ok && src != groundNet {
-				sources[src] = true
-				if ref == "" {
-					ref = p.Ref
-				}
+				sources[src], in[ci] = true, true
 			}
 		}
 	}
-	switch {
-	case len(sources) == 0:
-		return noRectifier, ""
-	case len(sources) == 1:
-		return halfWave, ref
-	}
-	returns := 0
-	for _, j := range all {
-		if j.a == groundNet && sources[j.k] || j.k == groundNet && sources[j.a] {
-			returns++
+	wave := fullWave
+	switch len(sources) {
+	case 0:
+		return noRectifier, nil
+	case 1:
+		wave = halfWave
+	default:
+		var returns []int // the parts of the junctions back from chassis
+		for i, j := range all {
+			if j.a == groundNet && sources[j.k] || j.k == groundNet && sources[j.a] {
+				returns = append(returns, owner[i])
+			}
+		}
+		if len(returns) >= 2 {
+			wave = bridgeWave
+			for _, ci := range returns {
+				in[ci] = true
+			}
 		}
 	}
-	if returns >= 2 {
-		return bridgeWave, ref
+	var parts []*graph.Part
+	for ci, p := range x.w.parts {
+		if in[ci] {
+			parts = append(parts, p)
+		}
 	}
-	return fullWave, ref
+	return wave, parts
 }
 
 // reservoirMin is the least capacitance that makes a rectifier's load a

@@ -336,7 +336,8 @@ func (x *figCtx) rippleSource() (float64, string, bool) {
 			break
 		}
 	}
-	wave, rect := x.rectWave()
+	wave, refs := x.rectWave()
+	rect := refList(refs)
 	switch wave {
 	case noRectifier:
 		return 0, "", false
@@ -345,5 +346,11 @@ func (x *figCtx) rippleSource() (float64, string, bool) {
 	case bridgeWave:
 		return 2 * mains, fmt.Sprintf("bridge rectifier %s, %s", rect, said), true
 	}
-	return 2 * mains, fmt.Sprintf("full-wave rectifier %s (two anodes on the winding's ends), %s", rect, said), true
+	// Two anodes in one envelope (a double-diode valve) or two diodes: the
+	// words follow the parts, so a reader counts what is on the chassis.
+	how := "two anodes on the winding's ends"
+	if len(refs) > 1 {
+		how = "two diodes on the winding's ends"
+	}
+	return 2 * mains, fmt.Sprintf("full-wave rectifier %s (%s), %s", rect, how, said), true
 }
