@@ -82,6 +82,9 @@ func (m *model) addValveDiodes(p *graph.Part, o *origins) error {
 			class = "rectifier valve"
 		}
 	}
+	if feedsSupply(m.circuit, p) {
+		class = "rectifier valve"
+	}
 	perv := o.given(p, "perveance", class, "A/V^1.5")
 	k, okK := m.term(p, "k")
 	if !okK {
@@ -299,4 +302,37 @@ func shichman(beta, vgst, vds float64) (float64, float64, float64) {
 		return beta * vds * (2*vgst - vds), 2 * beta * vds, 2 * beta * (vgst - vds)
 	}
 	return beta * vgst * vgst, 2 * beta * vgst, 0
+}
+
+// feedsSupply tells whether a valve diode's cathode charges a supply: a
+// supply net, or a reservoir-sized capacitor (1 µF and more, common
+// practice) to chassis on a net where no amplifying valve or transistor
+// has its cathode, emitter or source (a double-diode-triode's diodes share
+// its bypassed cathode: a detector, not a rectifier). Such a diode is an
+// HT rectifier however it is fed (a winding, or the mains straight through
+// a surge resistor in an AC/DC set, which no rectifier estimate covers), so
+// it takes the rectifier valve's law, not a signal diode's.
+func feedsSupply(c *graph.Circuit, p *graph.Part) bool {
+	k := p.NetOf("k")
+	if k == "" || c.RoleOf(k) == graph.Ground {
+		return false
+	}
+	for _, cn := range c.ConnsOf(k) {
+		q := cn.Part
+		if q != p && q.IsActive() && graph.RoleOfPin(q.Kind, cn.Pin) == graph.RoleCommon && !isValveDiode(q) {
+			return false
+		}
+	}
+	return c.RoleOf(k) == graph.Supply || reservoir(c, k) >= reservoirMin
+}
+
+// reservoirMin is the least capacitance to chassis that makes a diode's
+// load a reservoir rather than a detector's RF bypass (hundreds of
+// picofarads) or an AGC filter (tens of nanofarads): common practice.
+const reservoirMin = 1e-6
+
+// isValveDiode tells a valve that is only a diode (its DC law is the
+// three-halves law of addValveDiodes).
+func isValveDiode(p *graph.Part) bool {
+	return p.Kind == graph.Valve && (p.Type == "diode" || p.Type == "double-diode")
 }
