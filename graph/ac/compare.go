@@ -395,12 +395,12 @@ func withoutHeldPorts(orig *graph.Circuit, qs []quantity, o Options, rep *Report
 	if err != nil || len(nl.portHeld) == 0 {
 		return qs // an elaboration error is reported by the probes with its context
 	}
-	rep.Notes = append(rep.Notes, fmt.Sprintf("Held at 0 V: net(s) %s, reached only through a port (the source or reference beyond it, undriven; state a termination to model it otherwise)",
-		strings.Join(nl.portHeld, ", ")))
-	if len(nl.heldVia) > 0 {
-		rep.Notes = append(rep.Notes, fmt.Sprintf("Taken as a way in from outside (a part the model leaves open, e.g. a mains inlet): %s",
-			strings.Join(nl.heldVia, ", ")))
+	via := "a port"
+	if len(nl.heldVia) > 0 { // an inlet, a fuse: parts the model leaves open
+		via = "a port or " + strings.Join(nl.heldVia, ", ") + ", which the model leaves open"
 	}
+	rep.Notes = append(rep.Notes, fmt.Sprintf("Held at 0 V: net(s) %s, reached only through %s (the source or reference beyond it, undriven; state a termination to model it otherwise)",
+		strings.Join(nl.portHeld, ", "), via))
 	out := qs[:0]
 	for _, q := range qs {
 		held := q.from
