@@ -228,3 +228,29 @@ func BenchmarkExtentsBank(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkNudgeSpots: the free places round every part label of the
+// club receiver laid out whole (full view, gang links), as apartLabels
+// looks for them round a label running into its neighbour's: the pass's
+// cost grows with the labels tried and, per place, with what of the
+// sheet lies near it (labelnudge.go, nearArea).
+func BenchmarkNudgeSpots(b *testing.B) {
+	r, err := Layout(loadFixture(b, "../../examples/club-receiver.toml"), Options{Links: true})
+	if err != nil {
+		b.Fatal(err)
+	}
+	g := &r.Geom
+	syms := map[string]int{}
+	for i, s := range g.Symbols {
+		syms[s.Ref] = i
+	}
+	b0 := bounds(g)
+	b.ResetTimer()
+	c0 := cpuNow()
+	for i := 0; i < b.N; i++ {
+		for k := range g.Labels {
+			nudgeSpots(g, syms, b0, k)
+		}
+	}
+	b.ReportMetric(float64(cpuNow()-c0)/1e6/float64(b.N), "cpu-ms/op")
+}

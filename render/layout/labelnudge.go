@@ -122,8 +122,9 @@ func nudgeSpots(g *geom.Sheet, syms map[string]int, b0 geom.Rect, k int) ([]geom
 	}
 	sb := g.Symbols[si].Box
 	w, h := l.Box.W(), l.Box.H()
-	area := geom.Rect{X0: sb.X0 - nudgeReach - w, Y0: sb.Y0 - nudgeReach - h, X1: sb.X1 + nudgeReach + w, Y1: sb.Y1 + nudgeReach + h}
+	area := nudgeArea(l, sb)
 	obs := nudgeObstacles(g, k, area)
+	near := nearArea(g, area)
 	type spot struct {
 		r     geom.Rect
 		score float64
@@ -137,7 +138,7 @@ func nudgeSpots(g *geom.Sheet, syms map[string]int, b0 geom.Rect, k int) ([]geom
 		for kx := kx0; kx <= kx1; kx++ {
 			r := l.Box.Move(geom.Pt{X: kx * nudgeStep, Y: ky * nudgeStep})
 			d := boxDist(r, sb)
-			if kx == 0 && ky == 0 || d < nudgeGap-geom.Eps || d > nudgeReach || !within(r, b0) || !nudgeFree(g, k, si, r, obs) {
+			if kx == 0 && ky == 0 || d < nudgeGap-geom.Eps || d > nudgeReach || !within(r, b0) || !nudgeFree(g, k, si, r, obs, near) {
 				continue
 			}
 			// nearest its symbol first, then centred on a side of it
@@ -163,11 +164,52 @@ func nudgeSpots(g *geom.Sheet, syms map[string]int, b0 geom.Rect, k int) ([]geom
 	return out, spots[0].score
 }
 
+// nudgeArea is where label l may be moved round its symbol's box sb:
+// within nudgeReach of it.
+func nudgeArea(l geom.Label, sb geom.Rect) geom.Rect {
+	w, h := l.Box.W(), l.Box.H()
+	return geom.Rect{X0: sb.X0 - nudgeReach - w, Y0: sb.Y0 - nudgeReach - h, X1: sb.X1 + nudgeReach + w, Y1: sb.Y1 + nudgeReach + h}
+}
+
+// nudgeNear is what of a sheet the places tried in one area can meet: the
+// wire segments that touch the area, and the symbols nearer it than a
+// label may stand from its own (nudgeReach) and still be nearer its own
+// (nudgeOwn). A place lies in its area, and so does its own symbol, so
+// the room between them does too: a wire or symbol left out could not
+// have answered either test, and the sheet's wires and symbols, scanned
+// for each of the thousands of places tried round a label, were most of
+// the pass's time on a whole set (docs/performance.md).
+type nudgeNear struct {
+	segs []geom.Seg
+	syms []int // indices into the sheet's symbols, in their order
+}
+
+// nearArea is what the places tried in area can meet, with a grid unit
+// to spare for rounding.
+func nearArea(g *geom.Sheet, area geom.Rect) nudgeNear {
+	var n nudgeNear
+	grown := area.Inset(-1)
+	for _, w := range g.Wires {
+		for _, s := range w.Segs {
+			if s.Touches(grown) {
+				n.segs = append(n.segs, s)
+			}
+		}
+	}
+	for i, s := range g.Symbols {
+		if boxDist(area, s.Box) < nudgeReach+nudgeOwn+1 {
+			n.syms = append(n.syms, i)
+		}
+	}
+	return n
+}
+
 // nudgeFree says whether label k of g, its part's symbol si, may stand at
 // r: clear of obs, in the frames its symbol is in and no other, nearer its
 // own symbol than any other part's, and running together with no other
-// part's label.
-func nudgeFree(g *geom.Sheet, k, si int, r geom.Rect, obs *obstacles) bool {
+// part's label. near is what of the sheet r's area can meet (nearArea);
+// r is at most nudgeReach from its symbol.
+func nudgeFree(g *geom.Sheet, k, si int, r geom.Rect, obs *obstacles, near nudgeNear) bool {
 	if obs.hits(r.Inset(nudgeClear), nil) {
 		return false
 	}
@@ -177,12 +219,12 @@ func nudgeFree(g *geom.Sheet, k, si int, r geom.Rect, obs *obstacles) bool {
 			return false
 		}
 	}
-	if wireBetween(g, r, sb) {
+	if wireBetween(near.segs, r, sb) {
 		return false
 	}
 	own := boxDist(r, sb)
-	for i, s := range g.Symbols {
-		if i != si && boxDist(r, s.Box) < own+nudgeOwn {
+	for _, i := range near.syms {
+		if i != si && boxDist(r, g.Symbols[i].Box) < own+nudgeOwn {
 			return false
 		}
 	}
@@ -217,10 +259,10 @@ func linesMeet(a, b geom.Label) bool {
 	return math.Min(a1, b1)-math.Max(a.Box.Y0, b.Box.Y0) > geom.Eps
 }
 
-// wireBetween says whether a wire runs through the room between label box
-// r and symbol box sb: across it the label reads as whatever stands on the
-// wire's far side.
-func wireBetween(g *geom.Sheet, r, sb geom.Rect) bool {
+// wireBetween says whether a wire segment of segs runs through the room
+// between label box r and symbol box sb: across it the label reads as
+// whatever stands on the wire's far side.
+func wireBetween(segs []geom.Seg, r, sb geom.Rect) bool {
 	gap := geom.Rect{X0: math.Max(r.X0, sb.X0), X1: math.Min(r.X1, sb.X1), Y0: math.Max(r.Y0, sb.Y0), Y1: math.Min(r.Y1, sb.Y1)}
 	if gap.X0 > gap.X1 { // apart in x: the room between their facing sides
 		gap.X0, gap.X1 = gap.X1, gap.X0
@@ -229,11 +271,9 @@ func wireBetween(g *geom.Sheet, r, sb geom.Rect) bool {
 		gap.Y0, gap.Y1 = gap.Y1, gap.Y0
 	}
 	in := gap.Inset(-geom.Eps * 10)
-	for _, w := range g.Wires {
-		for _, s := range w.Segs {
-			if s.Touches(in) {
-				return true
-			}
+	for _, s := range segs {
+		if s.Touches(in) {
+			return true
 		}
 	}
 	return false

@@ -81,3 +81,71 @@ func TestApartLabels(t *testing.T) {
 		}
 	}
 }
+
+// TestNudgeNearKeepsEveryAnswer: nudgeFree given only what of the sheet a
+// label's area can meet (nearArea) answers as it does given every wire
+// and symbol of the sheet, at every place round every label: on the
+// hand-made can with a wire hemming it in, and on examples laid out
+// whole (many wires and symbols far from each label). It fails when
+// nearArea drops too much: given nothing at all, some places change
+// their answer, which the test also checks, so the sheets exercise the
+// wire and symbol tests.
+func TestNudgeNearKeepsEveryAnswer(t *testing.T) {
+	sheets := map[string]*geom.Sheet{"hand-made can": nudgeSheet(geom.Seg{A: geom.Pt{X: 17.5, Y: 3}, B: geom.Pt{X: 17.5, Y: 9}})}
+	for _, f := range []string{"../../examples/club-receiver.toml", "../../examples/transistor-front-end.toml"} {
+		r, err := Layout(loadFixture(t, f), Options{Links: true})
+		if err != nil {
+			t.Fatal(err)
+		}
+		sheets[f] = &r.Geom
+	}
+	for name, g := range sheets {
+		tried, dropped := nudgeAgree(t, name, g)
+		if tried == 0 || dropped == 0 {
+			t.Errorf("%s: %d places tried, %d answered otherwise given no wire or symbol: the sheet tests nothing", name, tried, dropped)
+		}
+	}
+}
+
+// nudgeAgree compares nudgeFree's answers, given nearArea's part of g
+// and given all of it, at every place nudgeSpots would try for each part
+// label of g; it returns the places tried and how many of them answer
+// otherwise given no wire and no symbol.
+func nudgeAgree(t *testing.T, name string, g *geom.Sheet) (tried, dropped int) {
+	t.Helper()
+	syms := map[string]int{}
+	all := nudgeNear{}
+	for i, s := range g.Symbols {
+		syms[s.Ref] = i
+		all.syms = append(all.syms, i)
+	}
+	for _, w := range g.Wires {
+		all.segs = append(all.segs, w.Segs...)
+	}
+	for k, l := range g.Labels {
+		si, ok := syms[l.Owner]
+		if !ok || l.Small {
+			continue
+		}
+		sb := g.Symbols[si].Box
+		area := nudgeArea(l, sb)
+		obs, near := nudgeObstacles(g, k, area), nearArea(g, area)
+		for y := area.Y0; y+l.Box.H() <= area.Y1; y += nudgeStep {
+			for x := area.X0; x+l.Box.W() <= area.X1; x += nudgeStep {
+				r := geom.Rect{X0: x, Y0: y, X1: x + l.Box.W(), Y1: y + l.Box.H()}
+				if boxDist(r, sb) > nudgeReach {
+					continue // nudgeSpots never asks
+				}
+				tried++
+				want := nudgeFree(g, k, si, r, obs, all)
+				if got := nudgeFree(g, k, si, r, obs, near); got != want {
+					t.Errorf("%s: label of %s at %v: free %v given the area's part of the sheet, %v given all of it", name, l.Owner, r, got, want)
+				}
+				if nudgeFree(g, k, si, r, obs, nudgeNear{}) != want {
+					dropped++
+				}
+			}
+		}
+	}
+	return tried, dropped
+}
