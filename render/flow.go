@@ -219,10 +219,16 @@ func (f *flow) tooBig(a, b int, cw, ch float64) bool {
 	}
 	over := func(sh *Sheet) bool {
 		r, ok, pl := layout.LeastBoundsPlaced(sh.Circuit, f.cfg.options(sh))
-		if pl != nil {
-			sh.placed = pl // the row's layout, if it is laid out, starts from it
+		big := ok && (r.W() > cw || r.H() > ch)
+		if pl != nil && (!big || b-a == 1) {
+			// the row's layout, if it is laid out, starts from it; a row
+			// of several stretches too big is cut, not laid out, and its
+			// placement kept in f.sheets held 15 MB at once on a
+			// 10,000-part sheet (docs/performance.md): were it laid out
+			// after all, it is placed again, the same way
+			sh.placed = pl
 		}
-		return ok && (r.W() > cw || r.H() > ch)
+		return big
 	}
 	if a == 0 && b == len(f.bs) {
 		return over(f.s)

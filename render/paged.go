@@ -84,6 +84,12 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	// the flow's memos (every row and sheet laid out while the cuts were
+	// chosen, most of them not kept) are not read again, and each row laid
+	// is let go once its copy stands on its page: on a whole set both views
+	// stack their pages at once, and the memos and the rows beside their
+	// copies were the job's peak of memory (docs/performance.md)
+	f.laid, f.ahead, f.rows, f.shared, f.sheets = nil, nil, nil, nil, nil
 	cw, ch := cfg.Page.content()
 	avail := ch - 1 - cfg.footReserve(s)
 	loose := looseRow(f.bs, ends)
@@ -101,6 +107,7 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 		if n := len(bands); n > 0 && !big && !f.starts[i] && bands[n-1].y+b.H() > avail && !mixes(f.bs[start(ends, i):ends[i]]) && f.bs[start(ends, i)].apart {
 			if at, ok := atMargin(stood[n-1], b, cw, avail); ok {
 				pages[n-1].Add(r.Moved(geom.Pt{X: at.X0 - b.X0, Y: at.Y0 - b.Y0}))
+				laid[i] = nil
 				stood[n-1] = append(stood[n-1], at)
 				bands[n-1].y = max(bands[n-1].y, at.Y1+f.rowGap())
 				continue
@@ -117,6 +124,7 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 		}
 		n := len(bands) - 1
 		pages[n].Add(r.Moved(geom.Pt{X: pt.X - b.X0, Y: pt.Y - b.Y0}))
+		laid[i] = nil
 		stood[n] = append(stood[n], geom.R(pt.X, pt.Y, pt.X+b.W(), pt.Y+b.H()))
 		bands[n].put(b, pt)
 		if big {
@@ -177,6 +185,14 @@ func (cfg Config) flowRows(s *Sheet) (*flow, []int, []*layout.Result, error) {
 	ch -= 1 + cfg.footReserve(s)
 	ext := cfg.extents(s)
 	bs := detectorsNext(s.Circuit, blocks(s, ext), cw-rowSlack)
+	if len(bs) > 0 && bs[len(bs)-1].x1-bs[0].x0 > 2*cw {
+		// the whole sheet's placement (FprintFitPages) is read by a
+		// layout of the whole sheet as one row, which one twice the
+		// page's width never is (were it, it is placed again, the same
+		// way): let it go rather than hold it through the rows' layouts,
+		// 25 MB on a 10,000-part sheet (docs/performance.md)
+		s.placed = nil
+	}
 	var rows map[string]*layout.Result // every flow's rows, by what they hold
 	for {
 		f := newFlow(cfg, s, bs, rows)

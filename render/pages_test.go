@@ -4,7 +4,9 @@ import (
 	"bytes"
 	"fmt"
 	"math"
+	"pare/render/layout"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -265,4 +267,67 @@ func TestUnframedPartsGoWithTheirStage(t *testing.T) {
 	if got["R1"] == got["V1"] || got["R1"] == got["T1"] {
 		t.Errorf("R1, wired to two stages, joined stretch %d", got["R1"])
 	}
+}
+
+// TestPlacementsKeptChangeNothing: a row's layout that starts from the
+// placement its fit test made (flow.tooBig) is the same as one placed
+// afresh, which is what a placement let go to save memory costs (paged.go,
+// flow.go): every single-stretch row of a chain of stages framed in
+// halves, in the faded and full views (the reduced view's rows have no
+// fit test by placement), laid out both ways. It checks that the fit test
+// kept placements to start from.
+func TestPlacementsKeptChangeNothing(t *testing.T) {
+	defer func() { placementsOff = false }()
+	for _, view := range []View{Faded, Full} {
+		kept, fresh := rowLayouts(t, view, false), rowLayouts(t, view, true)
+		if kept == nil {
+			t.Errorf("view %d: no row started from a placement its fit test kept; the test tests nothing", view)
+		}
+		if !reflect.DeepEqual(kept, fresh) {
+			t.Errorf("view %d: rows laid out from kept placements differ from rows placed afresh", view)
+		}
+	}
+}
+
+// rowLayouts lays out each single-stretch row of splitChainSheet(6) on A4
+// after its fit test, with placementsOff set to off; nil when no row's
+// sheet held a placement to start from (with off clear).
+func rowLayouts(t *testing.T, view View, off bool) []*layout.Result {
+	t.Helper()
+	placementsOff = off
+	s := splitChainSheet(6)
+	s.View = view
+	cfg := Config{Page: &Papers[0]}
+	cw, ch := cfg.Page.content()
+	bs := blocks(s, cfg.extents(s))
+	f := newFlow(cfg, s, bs, nil)
+	var out []*layout.Result
+	held := false
+	for a := range bs {
+		f.tooBig(a, a+1, cw, ch)
+		sh, _ := f.rowSheets(a, a+1)
+		held = held || sh.placed != nil
+		r, err := f.layout(a, a+1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		out = append(out, r)
+	}
+	if !held && !off {
+		return nil
+	}
+	return out
+}
+
+// splitChainSheet is chainSheet with each stage framed in two (its grid
+// coupling, then its valve and anode and cathode parts): stretches narrow
+// enough that rows of several are placed, judged and laid out.
+func splitChainSheet(stages int) *Sheet {
+	s := chainSheet(stages)
+	var fs []Frame
+	for _, f := range s.Frames {
+		fs = append(fs, Frame{Title: f.Title + " grid", Parts: f.Parts[:2]}, Frame{Title: f.Title, Parts: f.Parts[2:]})
+	}
+	s.Frames = fs
+	return s
 }
