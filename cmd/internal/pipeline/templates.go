@@ -25,8 +25,12 @@ func framePlaces(s stages.Stage, byName map[string]stages.Stage, reduced, full *
 	if full != nil && !fullTemplates[s.Topology] {
 		// a feedback ladder is drawn as a ladder on every sheet: left to
 		// the generic placement, review16 b01's faded view wound it round
-		// the collector and the base divider
-		return fullLadder(originals(s.Parts, reduced, full), reduced, full)
+		// the collector and the base divider; a transistor amplifier's
+		// template yields to it (the ladder's ends wrap round the device)
+		ladder := fullLadder(originals(s.Parts, reduced, full), reduced, full)
+		if len(ladder) > 0 || !transistorTemplate(s, reduced, full) {
+			return ladder
+		}
 	}
 	var out []render.Place
 	var walk func(s stages.Stage)
@@ -72,6 +76,98 @@ var fullTemplates = map[string]bool{
 	"complementary-pair-vbe-divider":      true,
 	"quasi-complementary-pair":            true,
 	"cathodyne":                           true,
+}
+
+// transistorTemplates are the untuned common-emitter (source) amplifiers
+// whose templates the full and faded sheets keep when the stage's device
+// is a transistor: left to the generic placement, the faded sheet hung the
+// collector load under the row, its collector lead down across the
+// emitter's (review22 b01 and b05: "Q3's collector crosses its own
+// emitter lead"); the template stands the load above the collector and
+// the emitter resistor below, as on the reduced sheet. A valve's stage
+// keeps the generic placement there: round it the heater and screen
+// wiring met the moved parts (wire boxes and pages more on the review
+// circuits' faded sheets when tried).
+var transistorTemplates = map[string]bool{
+	"amp-common":                       true,
+	"amp-common-bypassed":              true,
+	"amp-common-degenerated":           true,
+	"amp-common-partly-bypassed":       true,
+	"amp-common-series-bypassed":       true,
+	"amp-common-bypassed-diode-return": true,
+}
+
+// transistorTemplate says whether s is a transistorTemplates stage whose
+// device (its template's anchor) is a bipolar or field-effect transistor
+// the template serves on the drawn circuit full. Two are left to the
+// generic placement: a device whose common electrode is the chassis itself
+// there has no common lead for its output load's to cross (the template
+// only moved the load and stretched the row, every-kind's FET boxing its
+// neighbours' wires); and a device whose output returns to its own control
+// electrode through resistors and capacitors (a phase-shift oscillator's
+// ladder, a collector-to-base bias resistor), whose return wire the
+// template's fixed slots wrapped round the device (phase-shift-two-
+// sections' base wire boxing Q1).
+func transistorTemplate(s stages.Stage, reduced, full *graph.Circuit) bool {
+	if !transistorTemplates[s.Topology] || len(s.Draw) == 0 {
+		return false
+	}
+	p := reduced.Part(s.Draw[0].Part)
+	if p == nil || (p.Kind != graph.BJT && p.Kind != graph.FET) {
+		return false
+	}
+	drawn := full.Part(sheetRef(p.Ref, reduced, full))
+	if drawn == nil || drawn.Kind != p.Kind {
+		return false
+	}
+	if full.RoleOf(drawn.NetOf(drawn.PinWithRole(graph.RoleCommon))) == graph.Ground {
+		return false
+	}
+	return !returnsToControl(p, reduced)
+}
+
+// returnsToControl says whether d's output electrode reaches its control
+// electrode through resistors, capacitors and inductors alone, on nets
+// that are not AC ground by their role (a rail ends the walk: the load's
+// and the divider's ends there are no return).
+func returnsToControl(d *graph.Part, c *graph.Circuit) bool {
+	from, to := d.NetOf(d.PinWithRole(graph.RoleOutput)), d.NetOf(d.PinWithRole(graph.RoleControl))
+	if from == "" || to == "" {
+		return false
+	}
+	seen := map[string]bool{from: true}
+	queue := []string{from}
+	for len(queue) > 0 {
+		net := queue[0]
+		queue = queue[1:]
+		for _, cn := range c.ConnsOf(net) {
+			if !passive(cn.Part) {
+				continue
+			}
+			for _, pin := range cn.Part.Pins {
+				n := pin.Net
+				if n == to {
+					return true
+				}
+				if seen[n] || c.RoleOf(n).IsACGround() {
+					continue
+				}
+				seen[n] = true
+				queue = append(queue, n)
+			}
+		}
+	}
+	return false
+}
+
+// passive says whether a part is a resistor, capacitor or plain inductor,
+// the parts a return path through a network is made of.
+func passive(p *graph.Part) bool {
+	switch p.Kind {
+	case graph.Resistor, graph.Capacitor, graph.Inductor:
+		return p.IsTwoTerminal()
+	}
+	return false
 }
 
 // stagePlaces turns one stage's template into the sheet's; none when its
