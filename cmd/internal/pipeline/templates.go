@@ -87,7 +87,10 @@ var fullTemplates = map[string]bool{
 // the emitter resistor below, as on the reduced sheet. A valve's stage
 // keeps the generic placement there: round it the heater and screen
 // wiring met the moved parts (wire boxes and pages more on the review
-// circuits' faded sheets when tried).
+// circuits' faded sheets when tried). The amplifier with overall feedback
+// into its emitter is one of them: left to the generic placement its
+// collector wire wound round the emitter's feedback junction (review22
+// b04 Q1).
 var transistorTemplates = map[string]bool{
 	"amp-common":                       true,
 	"amp-common-bypassed":              true,
@@ -95,6 +98,8 @@ var transistorTemplates = map[string]bool{
 	"amp-common-partly-bypassed":       true,
 	"amp-common-series-bypassed":       true,
 	"amp-common-bypassed-diode-return": true,
+	"amp-common-feedback":              true,
+	"amp-common-feedback-foot":         true,
 }
 
 // transistorTemplate says whether s is a transistorTemplates stage whose
