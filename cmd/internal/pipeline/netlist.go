@@ -24,10 +24,14 @@ func (r *Result) ReducedNetlist() ([]byte, error) {
 	// that is pare's bug (graph.ErrWriter), not the input's.
 	d := annotated(r.Reduced, r.Level)
 	readerValues(d)
+	sayBiased(d, r.Biased)
 	_, split := r.withDividersApart(r.withSupplyReturns(r.Reduced), stageFrames(r.Stages, r.Reduced, nil))
 	r.sayDrawnApart(d, split)
 	return graph.Marshal(d)
 }
+
+// reducedMark opens the line that marks a netlist as pare's reduction.
+const reducedMark = " Reduced by pare (level "
 
 // annotated marks the reduced netlist as such above its first key.
 func annotated(c *graph.Circuit, lvl rules.Level) *graph.Circuit {
@@ -45,10 +49,10 @@ func annotated(c *graph.Circuit, lvl rules.Level) *graph.Circuit {
 		}
 	}
 	cm := d.Comments[first]
-	marker := " Reduced by pare (level " + lvl.String() + "): small-signal equivalent only, not a wiring diagram."
+	marker := reducedMark + lvl.String() + "): small-signal equivalent only, not a wiring diagram."
 	var above []string
 	for _, a := range cm.Above {
-		if !strings.HasPrefix(a, " Reduced by pare (") {
+		if !strings.HasPrefix(a, reducedMark) && a != biasedHeader {
 			above = append(above, a)
 		}
 	}
