@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"pare/cmd/internal/pipeline"
 	"pare/graph/dc"
@@ -83,7 +84,30 @@ func dcFrom(r *pipeline.Result) DC {
 	for _, o := range r.Biased {
 		d.Notes = append(d.Notes, fmt.Sprintf("%s %s = %.4g %s taken at this operating point (%s).", o.Ref, o.Param, o.Value, o.Unit, o.From))
 	}
+	if refs := keptBiased(r); len(refs) > 0 {
+		d.Notes = append(d.Notes, "reduced.toml writes the figures of "+strings.Join(refs, ", ")+" taken here as the devices' own (marked \"at the operating point\"): the reduced circuit has no supply or bias network to solve them from.")
+	}
 	return d
+}
+
+// keptBiased lists, in the reduced circuit's order, the parts the reduction
+// kept whose figures were taken at the operating point: reduced.toml
+// carries those figures (pipeline's sayBiased), and the note says so.
+func keptBiased(r *pipeline.Result) []string {
+	if r.Reduced == nil {
+		return nil
+	}
+	biased := map[string]bool{}
+	for _, o := range r.Biased {
+		biased[o.Ref] = true
+	}
+	var refs []string
+	for _, p := range r.Reduced.Parts {
+		if biased[p.Ref] {
+			refs = append(refs, p.Ref)
+		}
+	}
+	return refs
 }
 
 // writeDC writes the voltage chart: the DC voltages a repairer measures
