@@ -19,15 +19,39 @@ func sayBiased(c *graph.Circuit, filled []dc.Origin) {
 	if markBiased(c, filled) == 0 {
 		return
 	}
-	// Said once at the top, beside the reduction's own mark (annotated
-	// puts it first), and kept short on each part's line.
+	// Said once at the top, beside the reduction's own mark, and kept
+	// short on each part's line.
+	addHeader(c, biasedHeader)
+}
+
+// headerPrefixes open the lines pare writes at the top of a reduced
+// netlist; annotated drops them from a netlist that was itself reduced.
+var headerPrefixes = []string{reducedMark, biasedHeader, switchesHeader}
+
+// addHeader puts a line under the reduction's mark (annotated puts it
+// first) and the lines added before it.
+func addHeader(c *graph.Circuit, line string) {
 	for key, cm := range c.Comments {
-		if len(cm.Above) > 0 && strings.HasPrefix(cm.Above[0], reducedMark) {
-			cm.Above = append([]string{cm.Above[0], biasedHeader}, cm.Above[1:]...)
-			c.Comments[key] = cm
-			return
+		if len(cm.Above) == 0 || !strings.HasPrefix(cm.Above[0], reducedMark) {
+			continue
+		}
+		at := 1
+		for at < len(cm.Above) && isHeader(cm.Above[at]) {
+			at++
+		}
+		cm.Above = append(cm.Above[:at:at], append([]string{line}, cm.Above[at:]...)...)
+		c.Comments[key] = cm
+		return
+	}
+}
+
+func isHeader(line string) bool {
+	for _, p := range headerPrefixes {
+		if strings.HasPrefix(line, p) {
+			return true
 		}
 	}
+	return false
 }
 
 // biasedHeader is the top line sayBiased adds.

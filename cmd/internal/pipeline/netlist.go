@@ -25,6 +25,7 @@ func (r *Result) ReducedNetlist() ([]byte, error) {
 	d := annotated(r.Reduced, r.Level)
 	readerValues(d)
 	sayBiased(d, r.Biased)
+	saySwitches(d, r.Circuit, r.opts.Switches)
 	_, split := r.withDividersApart(r.withSupplyReturns(r.Reduced), stageFrames(r.Stages, r.Reduced, nil))
 	r.sayDrawnApart(d, split)
 	return graph.Marshal(d)
@@ -52,7 +53,7 @@ func annotated(c *graph.Circuit, lvl rules.Level) *graph.Circuit {
 	marker := reducedMark + lvl.String() + "): small-signal equivalent only, not a wiring diagram."
 	var above []string
 	for _, a := range cm.Above {
-		if !strings.HasPrefix(a, reducedMark) && a != biasedHeader {
+		if !isHeader(a) {
 			above = append(above, a)
 		}
 	}
