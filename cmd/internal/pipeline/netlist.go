@@ -24,6 +24,7 @@ func (r *Result) ReducedNetlist() ([]byte, error) {
 	// that is pare's bug (graph.ErrWriter), not the input's.
 	d := annotated(r.Reduced, r.Level)
 	readerValues(d)
+	readerBands(d)
 	sayBiased(d, r.Biased)
 	saySwitches(d, r.Circuit, r.opts.Switches)
 	_, split := r.withDividersApart(r.withSupplyReturns(r.Reduced), stageFrames(r.Stages, r.Reduced, nil))
@@ -86,6 +87,39 @@ func readerValues(c *graph.Circuit) {
 		}
 		c.Parts[i] = q
 	}
+}
+
+// readerBands writes the bands to readerDigits significant figures,
+// rounded outwards: a band a switch retuned is worked out from its tanks
+// ("150.47687044591k..289.097764478464k" for the club receiver on LW),
+// and a band the file sweeps must hold the band the proof swept (a
+// verification of the file then covers the proof's band and a hair more).
+// A band typed by the user has no more figures and is written as it was.
+func readerBands(c *graph.Circuit) {
+	out := func(b value.Range) value.Range {
+		return value.Range{Min: roundOut(b.Min, false), Max: roundOut(b.Max, true)}
+	}
+	c.Band = out(c.Band)
+	for i, rg := range c.Regions {
+		if b := out(rg.Band); b != rg.Band {
+			q := *rg
+			q.Band = b
+			c.Regions[i] = &q
+		}
+	}
+}
+
+// roundOut is v to readerDigits significant figures, rounded up or down.
+func roundOut(v float64, up bool) float64 {
+	r := roundSig(v)
+	if v <= 0 || math.IsInf(v, 0) || math.IsNaN(v) || (up && r >= v) || (!up && r <= v) {
+		return r
+	}
+	step := math.Pow(10, math.Floor(math.Log10(v))-(readerDigits-1))
+	if up {
+		return roundSig(r + step)
+	}
+	return roundSig(r - step)
 }
 
 // roundSig is v to readerDigits significant figures.

@@ -157,7 +157,9 @@ func TestReducedNetlistSaysSwitches(t *testing.T) {
 		want []string
 	}{
 		{nil, []string{"# Switches as reduced: S1a at 1, S1b at 1,", "S3 at 1 (taken out"}},
-		{[]SwitchSetting{{"S1", 2}}, []string{"S1a at 2, S1b at 2,", "S1g at 2,", "turned for this run by --switch S1=2."}},
+		// the LW band RetuneBands works out from the LW tanks, written to
+		// four figures rounded outwards (150.477k..289.098k as solved)
+		{[]SwitchSetting{{"S1", 2}}, []string{"S1a at 2, S1b at 2,", "S1g at 2,", "turned for this run by --switch S1=2.", `band = "150.4k..289.1k"`}},
 	} {
 		res, err := Run(Options{Path: path, Level: rules.LevelSignal, Verify: true, Until: PhaseStages, Switches: tc.set})
 		if err != nil {
@@ -179,6 +181,31 @@ func TestReducedNetlistSaysSwitches(t *testing.T) {
 		rep, err := ac.Compare(res.acBase(), back, res.Compare)
 		if err != nil || !rep.OK {
 			t.Errorf("switches %v: the file is not the circuit the proof passed: %v %+v", tc.set, err, rep)
+		}
+	}
+}
+
+// roundOut rounds to four significant figures away from the band's inside
+// (arithmetic): a band's low end down, its high end up; a value with four
+// figures or fewer stays as it is.
+func TestRoundOut(t *testing.T) {
+	for _, tc := range []struct {
+		v    float64
+		up   bool
+		want float64
+	}{
+		{150476.87044591, false, 150400},
+		{289097.764478464, true, 289100},
+		{289091, true, 289100},
+		{540e3, false, 540e3},
+		{1.6e6, true, 1.6e6},
+		{20, false, 20},
+		{0.012345, true, 0.01235},
+		{0.012345, false, 0.01234},
+		{9999.5, true, 10000},
+	} {
+		if got := roundOut(tc.v, tc.up); got != tc.want {
+			t.Errorf("roundOut(%v, %v) = %v, want %v", tc.v, tc.up, got, tc.want)
 		}
 	}
 }
