@@ -26,7 +26,7 @@ func sayBiased(c *graph.Circuit, filled []dc.Origin) {
 
 // headerPrefixes open the lines pare writes at the top of a reduced
 // netlist; annotated drops them from a netlist that was itself reduced.
-var headerPrefixes = []string{reducedMark, biasedHeader, switchesHeader}
+var headerPrefixes = []string{reducedMark, biasedHeader, switchesHeader, cautionHeader}
 
 // addHeader puts a line under the reduction's mark (annotated puts it
 // first) and the lines added before it.

@@ -27,6 +27,7 @@ func (r *Result) ReducedNetlist() ([]byte, error) {
 	readerBands(d)
 	sayBiased(d, r.Biased)
 	saySwitches(d, r.Circuit, r.opts.Switches)
+	sayCaution(d, r.Caution)
 	_, split := r.withDividersApart(r.withSupplyReturns(r.Reduced), stageFrames(r.Stages, r.Reduced, nil))
 	r.sayDrawnApart(d, split)
 	return graph.Marshal(d)

@@ -209,3 +209,32 @@ func TestRoundOut(t *testing.T) {
 		}
 	}
 }
+
+// The reduction takes the supply out, so the reduced file alone reads as a
+// set that does not show what powers it; reduced.toml then carries the
+// original's caution (graph/safety's wording for the original), and
+// leaves it out where the file alone is given the same one (a valve set:
+// the valves stay).
+func TestReducedNetlistSaysCaution(t *testing.T) {
+	for _, tc := range []struct {
+		file string
+		want bool
+	}{
+		{filepath.Join("testdata", "review22", "b05.toml"), true}, // 9 V battery portable
+		{filepath.Join("testdata", "review13", "b05.toml"), true}, // mains transistor set
+		{filepath.Join("examples", "club-receiver.toml"), false},
+	} {
+		res, err := Run(Options{Path: filepath.Join("..", "..", "..", tc.file), Level: rules.LevelSignal, Until: PhaseStages})
+		if err != nil {
+			t.Fatal(err)
+		}
+		text, err := res.ReducedNetlist()
+		if err != nil {
+			t.Fatal(err)
+		}
+		line := "#" + cautionHeader + " " + res.Caution.Heading + "\n"
+		if got := strings.Contains(string(text), line); got != tc.want {
+			t.Errorf("%s: caution line %q written %v, want %v", tc.file, line, got, tc.want)
+		}
+	}
+}
