@@ -31,7 +31,7 @@ var positiveParams = map[string]string{
 	"cm":   "the motional capacitance",
 	"q":    "the quality factor",
 	"k":    "the MOSFET's square-law factor k",
-	"vac":  "the RMS voltage of the rectifier winding",
+	"vac":  "the RMS voltage of the rectifier winding or of the mains",
 	"hz":   "the mains frequency",
 	"rdc":  "the DC resistance of each winding",
 	"q_at": "the frequency the coil's q is stated at",

@@ -191,6 +191,10 @@ var paramNames = map[Kind][]string{
 	Crystal:     {"rm", "lm", "cm", "c0", "q"},
 	Inductor:    {"q", "q_at", "rdc"},              // q_at: the frequency q is stated at (graph/qref.go)
 	Transformer: {"q", "q_at", "rdc", "vac", "hz"}, // vac, hz: a mains transformer's rectifier winding (graph/dc)
+	// vac, hz: the mains an inlet brings to a rectifier straight off it (an
+	// AC/DC set, graph/dc rectmains.go).
+	Port:    {"vac", "hz"},
+	Generic: {"vac", "hz"},
 	// DC-only attributes (graph/dc): a resistor's power rating in watts, a
 	// capacitor's leakage resistance.
 	Resistor:  {"watts"},

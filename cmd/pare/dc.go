@@ -121,6 +121,8 @@ func writeChart(w io.Writer, path string, pt *dc.Point, ch *dc.Chart, caution, o
 	for _, tp := range ch.Points {
 		line := fmt.Sprintf("  %-6s %-11s %-12s %10s", tp.Ref, tp.Label, tp.Net, volts(tp.Volts))
 		switch {
+		case tp.AC && tp.Mains:
+			line += "   AC: the mains"
 		case tp.AC:
 			line += "   AC: the rectifier's winding"
 		case tp.Elsewhere:
@@ -183,7 +185,7 @@ func writeSupply(w io.Writer, ch *dc.Chart) {
 			fmt.Fprintf(w, "  %-12s %10s   draws %s\n", r.Net, volts(r.Volts), amps(r.Amps))
 			if e := r.Estimate; e != nil {
 				fmt.Fprintf(w, "  %-12s estimate: %s rectifier on %s%s, %s peak, %s drop, ripple %s p-p\n  %-12s method: %s\n  %-12s cross-check: the conduction-angle formula gives %s\n",
-					"", e.Wave, e.Transformer, dc.Through(e), volts(e.Peak), volts(e.Drop), volts(e.Ripple), "", e.Method, "", volts(e.Formula))
+					"", e.Wave, e.Source(), dc.Through(e), volts(e.Peak), volts(e.Drop), volts(e.Ripple), "", e.Method, "", volts(e.Formula))
 			}
 		}
 	}

@@ -220,7 +220,7 @@ func (m *model) assignNodes(c *graph.Circuit, uf *graph.NamedSets) error {
 // (solveRails moves it), with a warning when the net also declares volts.
 func (m *model) heldEstimate(n *graph.Net, k int) (float64, bool) {
 	if n.HasVolts() {
-		m.warnings = append(m.warnings, fmt.Sprintf("rail %s declares %g V; it is held at the estimate from transformer %s's rectifier instead", n.Name, n.Volts, m.rects[k].xfmr))
+		m.warnings = append(m.warnings, fmt.Sprintf("rail %s declares %g V; it is held at the estimate from %s's rectifier instead", n.Name, n.Volts, m.rects[k].source()))
 	}
 	return m.rects[k].peak, true
 }

@@ -36,6 +36,7 @@ type TestPoint struct {
 	Reading   float64 `json:"reading"`             // what the chart's meter shows
 	Elsewhere bool    `json:"elsewhere,omitempty"` // the net has no DC path on this sheet
 	AC        bool    `json:"ac,omitempty"`        // a rectifier's winding end: it carries the secondary's AC
+	Mains     bool    `json:"mains,omitempty"`     // with AC: the net carries the mains itself (no transformer)
 }
 
 // Rail is a held net and the current the circuit draws from it.
@@ -163,7 +164,7 @@ func (p *Point) chartPart(ch *Chart, part *graph.Part, mt Meter) error {
 			}
 			t := p.m.netTerm[pin.Net]
 			ch.Points = append(ch.Points, TestPoint{Ref: part.Ref, Pin: pin.Name, Label: electrode(part, pin.Name),
-				Net: pin.Net, Volts: v, Reading: rd, Elsewhere: t >= 0 && p.m.floating[t], AC: p.m.isWindingEnd(pin.Net)})
+				Net: pin.Net, Volts: v, Reading: rd, Elsewhere: t >= 0 && p.m.floating[t], AC: p.m.isWindingEnd(pin.Net), Mains: p.m.isMainsNet(pin.Net)})
 		}
 		p.deviceCurrents(ch, part)
 	case graph.Resistor, graph.Pot:

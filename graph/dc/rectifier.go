@@ -69,12 +69,16 @@ type Estimate struct {
 	SurgeOhms   float64 `json:"surge_ohms,omitempty"`
 	PulseRMS    float64 `json:"pulse_rms,omitempty"`
 	Transformer string  `json:"transformer"`
-	Method      string  `json:"method"`
+	// Mains is the inlet or port that gives the mains volts of a rectifier
+	// straight off the mains (no transformer), "" otherwise.
+	Mains  string `json:"mains,omitempty"`
+	Method string `json:"method"`
 }
 
 // rectifier is one captured rectifier and its reservoir.
 type rectifier struct {
 	net, xfmr, wave string
+	mains           bool // xfmr is the mains inlet or port of a set without a transformer
 	// feed is the diodes' cathodes' net when a surge resistor (surge,
 	// rsurge ohms) stands between it and the reservoir's net, "" without
 	// one; the DC solve holds feed (held).
@@ -120,8 +124,13 @@ func (r *rectifier) drop(i float64) float64 {
 // at is the estimate at load current i: the reservoir's periodic steady
 // state (rectwave.go), with the conduction-angle formula as its cross-check.
 func (r *rectifier) at(i float64) Estimate {
-	e := Estimate{Net: r.net, Volts: r.peak, Formula: r.peak, Amps: i, Peak: r.peak, Wave: r.wave, Transformer: r.xfmr, Method: rectifierMethod,
+	e := Estimate{Net: r.net, Volts: r.peak, Formula: r.peak, Amps: i, Peak: r.peak, Wave: r.wave, Method: rectifierMethod,
 		Surge: r.surge, SurgeOhms: r.rsurge}
+	if r.mains {
+		e.Mains, e.Method = r.xfmr, mainsRectifierMethod
+	} else {
+		e.Transformer = r.xfmr
+	}
 	if r.dead {
 		e.Volts, e.Formula = 0, 0
 		return e
@@ -204,7 +213,8 @@ func rectDiodes(c *graph.Circuit) []rectDiode {
 	return out
 }
 
-// findRectifiers finds the rectifier of every transformer that gives vac.
+// findRectifiers finds the rectifier of every transformer that gives vac,
+// then of every mains inlet that does (rectmains.go).
 func findRectifiers(c *graph.Circuit) ([]rectifier, error) {
 	diodes := rectDiodes(c)
 	var out []rectifier
@@ -219,7 +229,8 @@ func findRectifiers(c *graph.Circuit) ([]rectifier, error) {
 		}
 		out = append(out, r)
 	}
-	return out, nil
+	mains, err := findMainsRectifiers(c, diodes)
+	return append(out, mains...), err
 }
 
 // secondary is the winding feeding the rectifier: its two ends and, for a
@@ -374,6 +385,34 @@ func (m *model) isWindingEnd(net string) bool {
 			if e == net {
 				return true
 			}
+		}
+	}
+	return false
+}
+
+// Source names what an estimate's rectifier is fed from: "T1" for a
+// transformer, "the mains at P1" for a set without one.
+func (e *Estimate) Source() string {
+	if e.Mains != "" {
+		return "the mains at " + e.Mains
+	}
+	return e.Transformer
+}
+
+// source is the rectifier's Source, for warnings.
+func (r *rectifier) source() string {
+	if r.mains {
+		return "the mains at " + r.xfmr
+	}
+	return "transformer " + r.xfmr
+}
+
+// isMainsNet reports whether net carries the mains to a rectifier straight
+// off it (rectmains.go).
+func (m *model) isMainsNet(net string) bool {
+	for _, r := range m.rects {
+		if r.mains && slices.Contains(r.ends, net) {
+			return true
 		}
 	}
 	return false

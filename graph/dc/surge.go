@@ -87,5 +87,8 @@ func (r *rectifier) heldVolts(e Estimate) float64 {
 	if r.dead {
 		return 0
 	}
+	if r.feed == "" { // no resistor before the reservoir (a mains-fed one's limiter is on the anode's side)
+		return e.Volts
+	}
 	return e.Volts + e.Amps*r.rsurge
 }

@@ -323,15 +323,17 @@ func seriesAtten(s *graph.Part, c, f float64) (float64, bool) {
 }
 
 // rippleSource is the ripple frequency of the set's supply and the words
-// that say where it comes from: the mains frequency a transformer declares
-// (hz), else 50 Hz assumed; twice it where the rectifier is full-wave (a
+// that say where it comes from: the mains frequency a transformer or a
+// mains inlet declares (hz), else 50 Hz assumed; twice it where the rectifier is full-wave (a
 // centre-tapped pair or a bridge), once for half-wave (rectWave reads
 // which from the wiring). ok is false for a set with no rectifier (a
 // battery set has no ripple).
 func (x *figCtx) rippleSource() (float64, string, bool) {
 	mains, said := 50.0, "50 Hz mains assumed (the set declares none)"
 	for _, p := range x.w.c.Parts {
-		if p.Kind == graph.Transformer && p.Params["hz"] > 0 {
+		// a mains transformer, or the inlet of a set without one
+		mainsPart := p.Kind == graph.Transformer || p.Kind == graph.Port || p.Kind == graph.Generic
+		if mainsPart && p.Params["hz"] > 0 {
 			mains, said = p.Params["hz"], fmt.Sprintf("%s Hz mains from %s", figure.Plain(p.Params["hz"]), p.Ref)
 			break
 		}

@@ -59,6 +59,8 @@ func dcFrom(r *pipeline.Result) DC {
 	for _, p := range ch.Points {
 		reads := Volts(p.Reading)
 		switch {
+		case p.AC && p.Mains:
+			reads = "AC: the mains"
 		case p.AC:
 			reads = "AC: the rectifier's winding"
 		case p.Elsewhere:
@@ -70,8 +72,8 @@ func dcFrom(r *pipeline.Result) DC {
 		label := ""
 		if e := rl.Estimate; e != nil {
 			label = "estimate"
-			d.Notes = append(d.Notes, fmt.Sprintf("Rail %s is an estimate, not a declared voltage: %s rectifier on %s%s, %s peak, %s drop in the diodes and winding, ripple %s p-p at the load current (%s; the formula gives %s).",
-				rl.Net, e.Wave, e.Transformer, dc.Through(e), Volts(e.Peak), Volts(e.Drop), Volts(e.Ripple), e.Method, Volts(e.Formula)))
+			d.Notes = append(d.Notes, fmt.Sprintf("Rail %s is an estimate, not a declared voltage: %s rectifier on %s%s, %s peak, %s drop in %s, ripple %s p-p at the load current (%s; the formula gives %s).",
+				rl.Net, e.Wave, e.Source(), dc.Through(e), Volts(e.Peak), Volts(e.Drop), e.DropIn(), Volts(e.Ripple), e.Method, Volts(e.Formula)))
 		}
 		d.Rows = append(d.Rows, DCRow{"rail", label, rl.Net, Volts(rl.Volts), "draws " + value.FormatPrec(rl.Amps, value.Ampere, value.Symbol, 3)})
 	}

@@ -60,11 +60,11 @@ func (r *Result) acBase() *graph.Circuit {
 	return c
 }
 
-// rectifierOf names what an estimate comes from: its transformer, else
-// its net.
+// rectifierOf names what an estimate comes from: its transformer or the
+// mains inlet, else its net.
 func rectifierOf(e dc.Estimate) string {
-	if e.Transformer != "" {
-		return e.Transformer
+	if e.Transformer != "" || e.Mains != "" {
+		return e.Source()
 	}
 	return e.Net
 }
