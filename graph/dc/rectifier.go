@@ -71,8 +71,10 @@ type Estimate struct {
 	Transformer string  `json:"transformer"`
 	// Mains is the inlet or port that gives the mains volts of a rectifier
 	// straight off the mains (no transformer), "" otherwise.
-	Mains  string `json:"mains,omitempty"`
-	Method string `json:"method"`
+	Mains string `json:"mains,omitempty"`
+	// Hz is the mains frequency of a rectifier off the mains (with Mains).
+	Hz     float64 `json:"hz,omitempty"`
+	Method string  `json:"method"`
 }
 
 // rectifier is one captured rectifier and its reservoir.
@@ -127,7 +129,7 @@ func (r *rectifier) at(i float64) Estimate {
 	e := Estimate{Net: r.net, Volts: r.peak, Formula: r.peak, Amps: i, Peak: r.peak, Wave: r.wave, Method: rectifierMethod,
 		Surge: r.surge, SurgeOhms: r.rsurge}
 	if r.mains {
-		e.Mains, e.Method = r.xfmr, mainsRectifierMethod
+		e.Mains, e.Hz, e.Method = r.xfmr, r.hz, mainsRectifierMethod
 	} else {
 		e.Transformer = r.xfmr
 	}

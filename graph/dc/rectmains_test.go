@@ -53,7 +53,7 @@ func TestMainsRectifierAgainstNgspice(t *testing.T) {
 		t.Fatal(err)
 	}
 	e := pt.estimateFor("ht_res")
-	if e == nil || e.Mains != "P1" || e.Transformer != "" || e.Surge != "R19" || e.Wave != "half-wave" {
+	if e == nil || e.Mains != "P1" || e.Hz != 50 || e.Transformer != "" || e.Surge != "R19" || e.Wave != "half-wave" {
 		t.Fatalf("estimate of ht_res: %+v, want a half-wave one off the mains at P1 through R19", e)
 	}
 	vres, _ := pt.Volts("ht_res")
