@@ -91,6 +91,7 @@ func build(c *graph.Circuit) (*model, error) {
 		return nil, err
 	}
 	m.rects = rects
+	m.warnings = append(m.warnings, mainsHints(c, rects)...)
 	if err := m.assignNodes(c, uf); err != nil {
 		return nil, err
 	}

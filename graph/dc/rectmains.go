@@ -258,3 +258,44 @@ func returnsToChassis(c *graph.Circuit, p *graph.Part, pin string) bool {
 	}
 	return false
 }
+
+// mainsHints says, for each rectifier straight off the mains into a rail
+// the netlist declares (no inlet gives vac), how to have it estimated: an
+// AC/DC set captured without the mains' volts gets its HT as declared and
+// no ripple, and the reader should know the one key that changes that.
+func mainsHints(c *graph.Circuit, rects []rectifier) []string {
+	var out []string
+	said := map[string]bool{}
+	for _, d := range rectDiodes(c) {
+		if !acNet(c, d.a) || c.RoleOf(d.k) != graph.Supply || !(reservoir(c, d.k) > 0) || said[d.k] || estimatedNet(rects, d.k) {
+			continue
+		}
+		// The inlet is the farthest such part: a fuse on the way is one too.
+		var inlet *graph.Part
+		far := 0
+		for _, p := range c.Parts {
+			if p.Kind != graph.Port && p.Kind != graph.Generic {
+				continue
+			}
+			mp, ok := seriesPathTo(c, d.a, p)
+			if ok && len(mp.nets) > far && returnsToChassis(c, p, mp.pin) {
+				inlet, far = p, len(mp.nets)
+			}
+		}
+		if inlet != nil {
+			said[d.k] = true
+			out = append(out, fmt.Sprintf("rail %s is fed by %s straight off the mains at %s: it is held at its declared volts with no ripple; give %s vac (the mains' RMS volts, e.g. vac = \"230\") and hz for pare to estimate both", d.k, d.part.Ref, inlet.Ref, inlet.Ref))
+		}
+	}
+	return out
+}
+
+// estimatedNet tells whether a rectifier estimate holds net.
+func estimatedNet(rects []rectifier, net string) bool {
+	for _, r := range rects {
+		if r.net == net || r.feed == net {
+			return true
+		}
+	}
+	return false
+}

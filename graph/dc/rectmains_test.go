@@ -101,14 +101,15 @@ func TestMainsRectifierNearMisses(t *testing.T) {
 		name, from, to string
 		estimate       bool   // the reservoir is estimated
 		refusal        string // part of the error, "" for none
+		hint           string // a note naming the inlet to give vac, "" for none
 	}{
-		{"as captured", "", "", true, ""},
-		{"no vac: the rail is the netlist's", `, vac = "230", hz = "50"`, "", false, ""},
+		{"as captured", "", "", true, "", ""},
+		{"no vac: the rail is the netlist's, and a note says which inlet takes vac", `, vac = "230", hz = "50"`, "", false, "", "straight off the mains at P1"},
 		{"a one-pin port is the mains against chassis", `P1 = { part = "mains inlet", pins = { l = "mains_l", n = "mains_n" }, vac = "230", hz = "50" }`,
-			`P1 = { port = "mains, line", pins = ["mains_l"], vac = "230" }` + "\nP2 = { port = \"mains, neutral\", pins = [\"mains_n\"] }", true, ""},
-		{"switch off: the mains reaches no rectifier", "set = 2", "set = 1", false, ""},
-		{"neutral open from chassis", `"c-1 d-2"`, `"c-1"`, false, "reaches no chassis"},
-		{"no reservoir", `pins = ["ht_res", "gnd"], rating = "350V"`, `pins = ["ht_res", "rect_a"], rating = "350V"`, false, "no reservoir"},
+			`P1 = { port = "mains, line", pins = ["mains_l"], vac = "230" }` + "\nP2 = { port = \"mains, neutral\", pins = [\"mains_n\"] }", true, "", ""},
+		{"switch off: the mains reaches no rectifier", "set = 2", "set = 1", false, "", ""},
+		{"neutral open from chassis", `"c-1 d-2"`, `"c-1"`, false, "reaches no chassis", ""},
+		{"no reservoir", `pins = ["ht_res", "gnd"], rating = "350V"`, `pins = ["ht_res", "rect_a"], rating = "350V"`, false, "no reservoir", ""},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			text := string(base)
@@ -134,6 +135,15 @@ func TestMainsRectifierNearMisses(t *testing.T) {
 			}
 			if got := pt.estimateFor("ht_res") != nil; got != c.estimate {
 				t.Errorf("estimated: %v, want %v", got, c.estimate)
+			}
+			hinted := ""
+			for _, n := range pt.Notes {
+				if strings.Contains(n, "give ") && strings.Contains(n, " vac ") {
+					hinted = n
+				}
+			}
+			if (c.hint == "") != (hinted == "") || !strings.Contains(hinted, c.hint) {
+				t.Errorf("notes %q, want a vac hint saying %q", pt.Notes, c.hint)
 			}
 		})
 	}
