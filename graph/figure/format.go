@@ -194,7 +194,11 @@ func Items(l List, m Medium) []string {
 		switch {
 		case f.Working:
 		case f.Group == "":
-			out = append(out, f.Item(m)+f.formulaMark())
+			item := f.Item(m) + f.formulaMark()
+			if at := f.solvedAtHz(); at != "" && at != nextSolvedAtHz(l[i+1:]) {
+				item += " at " + at // once for a run of gains at one frequency
+			}
+			out = append(out, item)
 		case !done[f.Group]:
 			done[f.Group] = true
 			var members []string
@@ -207,6 +211,37 @@ func Items(l List, m Medium) []string {
 		}
 	}
 	return out
+}
+
+// solvedAtHz is the frequency a solved gain (a ratio or decibels) was
+// taken at, as the solver's origin gives it ("563.7 kHz, gang at mid
+// travel" gives "563.7 kHz"); "" for any other figure. A gain without its
+// frequency is read as the one a reader expects (an IF stage's at the IF)
+// when the solver took it elsewhere (its load's peak): say where.
+func (f Figure) solvedAtHz() string {
+	if f.Origin.Source != Solver || (f.Unit != Ratio && f.Unit != Decibel) || f.Range != nil || f.Points != nil {
+		return ""
+	}
+	head, _, _ := strings.Cut(f.Origin.At, ",")
+	if head = strings.TrimSpace(head); !strings.HasSuffix(head, "Hz") {
+		return ""
+	}
+	return head
+}
+
+// nextSolvedAtHz is the frequency of the next figure a line prints, if it
+// is a solved gain: a run of gains at one frequency names it once, last.
+func nextSolvedAtHz(rest List) string {
+	for _, g := range rest {
+		if g.Working {
+			continue
+		}
+		if g.Group != "" {
+			return ""
+		}
+		return g.solvedAtHz()
+	}
+	return ""
 }
 
 // FormulaMark follows, in a list of figures, a figure of a kind the
