@@ -367,7 +367,7 @@ func TestMainJobStageFigures(t *testing.T) {
 // topology is topology: "gain -61.5, f c 33.86 Hz" → {"gain": -61.5,
 // "f c": 33.86}. Ranges ("f 1 MHz–2 MHz") are left out.
 func stageFigures(md, topology string) (map[string]float64, bool) {
-	item := regexp.MustCompile(`^(.+?) (-?[0-9.]+(?:e[-+]?[0-9]+)?)(?: ?([pnµumkMG]?)(?:Hz|s|Ω|F|H|V|A)?)?$`)
+	item := regexp.MustCompile(`^(.+?) (-?[0-9.]+(?:e[-+]?[0-9]+)?)(?: ?([pnµumkMG]?)(?:Hz|s|Ω|F|H|V|A)?)?(?: at [0-9.]+ ?[kMG]?Hz)?$`)
 	scale := map[string]float64{"": 1, "p": 1e-12, "n": 1e-9, "µ": 1e-6, "u": 1e-6, "m": 1e-3, "k": 1e3, "M": 1e6, "G": 1e9}
 	for _, line := range strings.Split(md, "\n") {
 		if !strings.Contains(line, "(`"+topology+"`)") {
