@@ -29,7 +29,7 @@ func oscTank(c *graph.Circuit, mix *stages.Stage) tank {
 // series, the coil.
 func tankOn(c *graph.Circuit, vc *graph.Part) tank {
 	t := tank{gang: vc}
-	if ends := netsOf(vc); len(ends) == 2 && !c.RoleOf(ends[0]).IsACGround() && !c.RoleOf(ends[1]).IsACGround() {
+	if ends := netsOf(vc); len(ends) == 2 && !tankGround(c, ends[0], vc) && !tankGround(c, ends[1], vc) {
 		// A tank off ground (a Colpitts tank between grid and anode): a
 		// trimmer across the capacitor's own two nets is in shunt, never
 		// a padder, and the coil is the one across them.
@@ -50,7 +50,7 @@ func tankOn(c *graph.Circuit, vc *graph.Part) tank {
 		}
 	}
 	hot := hotNet(c, t.gang)
-	t.trimmer = shuntTrimmer(c, hot, t.gang)
+	t.trimmer = shuntTrimmer(c, hot, t.gang, t.gang)
 	t.padder = seriesCap(c, hot, t.gang)
 	coilNet := hot
 	if t.padder != nil {
@@ -58,10 +58,10 @@ func tankOn(c *graph.Circuit, vc *graph.Part) tank {
 	}
 	t.coil = coilOn(c, coilNet)
 	if t.trimmer == nil && t.padder != nil {
-		t.trimmer = shuntTrimmer(c, coilNet, nil)
+		t.trimmer = shuntTrimmer(c, coilNet, nil, t.gang)
 	}
 	if t.padder == nil && t.coil != nil {
-		t.padder = coldPadder(c, t.coil, hot)
+		t.padder = coldPadder(c, t.coil, hot, t.gang)
 	}
 	return t
 }
@@ -69,14 +69,14 @@ func tankOn(c *graph.Circuit, vc *graph.Part) tank {
 // coldPadder is a padder between the coil's cold end and ground (the
 // other customary place for it, common practice): a capacitor from the far
 // end of the winding on hot to AC ground, that end being no ground itself.
-func coldPadder(c *graph.Circuit, coil *graph.Part, hot string) *graph.Part {
+func coldPadder(c *graph.Circuit, coil *graph.Part, hot string, vc *graph.Part) *graph.Part {
 	cold := farEnd(coil, hot)
-	if cold == "" || c.RoleOf(cold).IsACGround() {
+	if cold == "" || tankGround(c, cold, vc) {
 		return nil
 	}
 	for _, p := range c.Parts {
 		if p.Kind == graph.Capacitor && len(p.Pins) == 2 && p.Type != graph.CapVariable &&
-			hasNet(p, cold) && c.RoleOf(otherNet(p, cold)).IsACGround() {
+			hasNet(p, cold) && tankGround(c, otherNet(p, cold), vc) {
 			return p
 		}
 	}
@@ -125,7 +125,7 @@ func sigTanks(c *graph.Circuit, oscGang *graph.Part) []tank {
 		}
 		t := tank{gang: p}
 		hot := hotNet(c, p)
-		t.trimmer = shuntTrimmer(c, hot, p)
+		t.trimmer = shuntTrimmer(c, hot, p, p)
 		t.coil = coilOn(c, hot)
 		if t.aerial = t.coil != nil && len(c.Inputs) > 0 && fedFromAerial(c, t.coil, c.Inputs[0]); t.aerial || len(c.Inputs) == 0 {
 			aerial = append(aerial, t)
@@ -136,10 +136,12 @@ func sigTanks(c *graph.Circuit, oscGang *graph.Part) []tank {
 	return append(rf, aerial...)
 }
 
-// hotNet is a gang section's net away from ground.
+// hotNet is a gang section's net away from ground (tankGround: a
+// decoupled line it returns to is its ground), or any other two-terminal
+// part's net away from AC ground.
 func hotNet(c *graph.Circuit, p *graph.Part) string {
 	for _, pin := range p.Pins {
-		if !c.RoleOf(pin.Net).IsACGround() {
+		if !tankGround(c, pin.Net, p) {
 			return pin.Net
 		}
 	}
@@ -155,10 +157,11 @@ func otherNet(p *graph.Part, net string) string {
 	return ""
 }
 
-// shuntTrimmer is a trimmer from net to AC ground.
-func shuntTrimmer(c *graph.Circuit, net string, not *graph.Part) *graph.Part {
+// shuntTrimmer is a trimmer from net to the ground of vc's tank
+// (tankGround).
+func shuntTrimmer(c *graph.Circuit, net string, not, vc *graph.Part) *graph.Part {
 	for _, t := range trimmersOn(c, []string{net}) {
-		if t != not && c.RoleOf(otherNet(t, net)).IsACGround() {
+		if t != not && tankGround(c, otherNet(t, net), vc) {
 			return t
 		}
 	}
@@ -172,7 +175,7 @@ func seriesCap(c *graph.Circuit, net string, gang *graph.Part) *graph.Part {
 		if p == gang || p.Kind != graph.Capacitor || len(p.Pins) != 2 || p.Type == graph.CapVariable {
 			continue
 		}
-		if hasNet(p, net) && !c.RoleOf(otherNet(p, net)).IsACGround() && coilOn(c, otherNet(p, net)) != nil {
+		if hasNet(p, net) && !tankGround(c, otherNet(p, net), gang) && coilOn(c, otherNet(p, net)) != nil {
 			return p
 		}
 	}
@@ -187,4 +190,34 @@ func coilOn(c *graph.Circuit, net string) *graph.Part {
 		}
 	}
 	return nil
+}
+
+// holdRatio is how many times the tank's largest tuning capacitance a
+// fixed capacitor to AC ground must be for the net it holds to count as
+// the tank's ground: in series with the tuning capacitance C it moves the
+// tank's frequency by about C/(2·Cb), under 0.5 % here, inside what a dial
+// is read to (pare's choice, from the series-capacitance formula).
+const holdRatio = 100
+
+// tankGround says whether net is AC ground for the tank the variable
+// capacitor vc tunes, as the AC solver sees it: by its role, or as a line
+// held there by a bypass of its own (a decoupled supply line the gang
+// section, its trimmer and its coil return to: an RF or oscillator
+// section's "vcc_rf" fed from the rail through a resistor). A part that is
+// no capacitor is judged by role alone.
+func tankGround(c *graph.Circuit, net string, vc *graph.Part) bool {
+	if c.RoleOf(net).IsACGround() {
+		return true
+	}
+	if net == "" || vc == nil || vc.Kind != graph.Capacitor || vc.Value.Max <= 0 {
+		return false
+	}
+	for _, cn := range c.ConnsOf(net) {
+		b := cn.Part
+		if b.Kind == graph.Capacitor && len(b.Pins) == 2 && b.Type != graph.CapVariable && b.Type != graph.CapTrimmer &&
+			b.Value.Min >= holdRatio*vc.Value.Max && c.RoleOf(otherNet(b, net)).IsACGround() {
+			return true
+		}
+	}
+	return false
 }
