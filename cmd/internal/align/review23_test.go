@@ -1,0 +1,114 @@
+package align_test
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"pare/cmd/internal/align"
+)
+
+func review23(name string) string {
+	return filepath.Join("testdata", "review23", name+".toml")
+}
+
+// A separate oscillator found by its loop, its tank returned to a
+// decoupled supply line (review23 c02: VC1c and TC3 from osc_pad to
+// vcc_osc, the padder C12 in series with T3's tuned winding, vcc_osc fed
+// through R12 and held by C14; c05 the same on vcc_rf), and an RF tank
+// whose gang section and trimmer return to such a line (c02: VC1b and TC2
+// across T2's primary, to vcc_rf). The reviewer read "the low end cannot
+// be set: no padder and no adjustable core is captured", "The core of T3:
+// no step" and "no RF trimmer is captured on VC1b" where all of them are
+// captured: each must have its step, with no such warning.
+func TestSeparateOscillatorOnADecoupledLine(t *testing.T) {
+	for _, tc := range []struct {
+		name            string
+		oscTrim, oscLow string // the oscillator's high and low end
+		rf              []string
+	}{
+		{"c02", "TC3", "T3", []string{"TC2", "T2", "TC1", "T1"}},
+		{"c05", "TC2", "T2", []string{"TC1", "T1"}},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			_, g := build(t, review23(tc.name))
+			var osc, rf []string
+			for _, s := range g.Steps {
+				switch s.Phase {
+				case "oscillator":
+					osc = append(osc, s.Part)
+				case "aerial/RF":
+					rf = append(rf, s.Part)
+				}
+			}
+			if strings.Join(osc, " ") != tc.oscTrim+" "+tc.oscLow {
+				t.Errorf("oscillator steps turn %v, want %s at the top and the core of %s at the bottom", osc, tc.oscTrim, tc.oscLow)
+			}
+			if strings.Join(rf, " ") != strings.Join(tc.rf, " ") {
+				t.Errorf("aerial/RF steps turn %v, want %v (RF tank first, aerial last)", rf, tc.rf)
+			}
+			for _, w := range append(g.Warnings, g.LeftOut...) {
+				if strings.Contains(w, "cannot be set") || strings.Contains(w, "trimmer is captured") || strings.Contains(w, "no step") ||
+					strings.Contains(w, "alignment cannot reach") {
+					t.Errorf("false warning: %s", w)
+				}
+			}
+		})
+	}
+}
+
+// Near misses: the same set with truly nothing to turn still warns. With
+// the padder gone (the gang and trimmer straight across the winding) and
+// no core on the oscillator coil, the low end cannot be set; with the
+// padder kept but a fixed coil, the fixed padder is named; with the RF
+// trimmer gone, the RF tank has no high-end step.
+func TestSeparateOscillatorNearMisses(t *testing.T) {
+	src, err := os.ReadFile(review23("c02"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	noCore := func(s string) string {
+		return strings.Replace(s, `pins = { p1 = "vcc_osc", pt = "q3_c", p2 = "osc_tank", f1 = "q3_b", f2 = "q3_bias", l1 = "osc_inj", l2 = "gnd" }, adjust = "core",`,
+			`pins = { p1 = "vcc_osc", pt = "q3_c", p2 = "osc_tank", f1 = "q3_b", f2 = "q3_bias", l1 = "osc_inj", l2 = "gnd" },`, 1)
+	}
+	for _, tc := range []struct {
+		name, warn string
+		edit       func(string) string
+	}{
+		{"no padder, fixed coil", "the low end cannot be set: no padder and no adjustable core is captured on T3", func(s string) string {
+			s = noCore(s)
+			s = strings.Replace(s, `C12 = { c = "275p", pins = ["osc_tank", "osc_pad"], tol = "2%", note = "padder: low end" }`+"\n", "", 1)
+			s = strings.Replace(s, `"TC3", "C12", `, `"TC3", `, 1)
+			return strings.ReplaceAll(s, `"osc_pad"`, `"osc_tank"`)
+		}},
+		{"fixed padder, fixed coil", "the low end cannot be set: the padder C12 is fixed and no adjustable core is captured on T3", noCore},
+		{"no RF trimmer", "no RF trimmer is captured on VC1b", func(s string) string {
+			return strings.Replace(s, `TC2 = { c = "3p..30p", set = "15p", pins = ["rf_tank", "vcc_rf"], note = "RF trimmer" }`+"\n", "", 1)
+		}},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			edited := tc.edit(string(src))
+			if edited == string(src) {
+				t.Fatal("the edit changed nothing")
+			}
+			path := filepath.Join(t.TempDir(), "c02.toml")
+			if err := os.WriteFile(path, []byte(edited), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			_, g := build(t, path)
+			if !hasWarning(g, tc.warn) {
+				t.Errorf("no warning %q in %q", tc.warn, g.Warnings)
+			}
+		})
+	}
+}
+
+func hasWarning(g *align.Guide, w string) bool {
+	for _, s := range g.Warnings {
+		if strings.Contains(s, w) {
+			return true
+		}
+	}
+	return false
+}
