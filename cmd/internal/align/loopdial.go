@@ -93,8 +93,13 @@ func withGang(c *graph.Circuit, st stages.Stage) stages.Stage {
 	// Every stage of a set asks this of every capacitor, so the pins are
 	// read in place (netsOf's order, a repeated net asked again, which
 	// changes nothing) rather than through a slice made per part.
+	// A section reached only through the line its tank returns to (a
+	// decoupled supply line the stage shares, tankGround) is no section
+	// of this stage's tank: the line is AC ground for it.
 	onNets := func(p *graph.Part) bool {
-		return slices.ContainsFunc(p.Pins, func(pin graph.Pin) bool { return pin.Net != "" && nets[pin.Net] })
+		return slices.ContainsFunc(p.Pins, func(pin graph.Pin) bool {
+			return pin.Net != "" && nets[pin.Net] && !tankGround(c, pin.Net, p)
+		})
 	}
 	for _, hop := range []bool{false, true} {
 		for _, p := range c.Parts {
@@ -102,7 +107,9 @@ func withGang(c *graph.Circuit, st stages.Stage) stages.Stage {
 				continue
 			}
 			for _, pin := range p.Pins {
-				if n := pin.Net; n != "" && nets[n] && !c.RoleOf(otherNet(p, n)).IsACGround() {
+				// never from a line the capacitor's bypass holds (a
+				// decoupled supply line): no signal crosses from it
+				if n := pin.Net; n != "" && nets[n] && !c.RoleOf(otherNet(p, n)).IsACGround() && !tankGround(c, n, p) {
 					nets[otherNet(p, n)] = true
 				}
 			}

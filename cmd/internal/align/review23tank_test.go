@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/rules/stages"
 )
 
 // The oscillator tank the reach search solves is the tank as a dip meter
@@ -71,4 +72,28 @@ func ref(p *graph.Part) string {
 		return "none"
 	}
 	return p.Ref
+}
+
+// A stage that holds no gang section takes the one its tank reaches
+// through the padder, not one that merely returns to a decoupled line the
+// stage shares: review23 c05's mixer (Q1, the IF can T3 and C15, all on
+// vcc_rf) is not tuned by the oscillator's section VC1b, which returns to
+// vcc_rf too; the oscillator (Q2, T2) is, through the padder C12.
+func TestWithGangNotThroughTheTanksGround(t *testing.T) {
+	c, err := graph.LoadFile(filepath.Join("testdata", "review23", "c05.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct {
+		parts []string
+		gang  string
+	}{
+		{[]string{"Q1", "T3", "C15", "C13", "R3"}, "none"},
+		{[]string{"Q2", "T2", "C11", "R11"}, "VC1b"},
+	} {
+		st := withGang(c, stages.Stage{Parts: tc.parts})
+		if got := ref(oscTank(c, &st).gang); got != tc.gang {
+			t.Errorf("stage %v: gang %s, want %s", tc.parts, got, tc.gang)
+		}
+	}
 }
