@@ -71,7 +71,7 @@ func reachOf(c *graph.Circuit, gang *graph.Part, lo, hi, wLo, wHi float64) (tank
 	// The tank is solved quiet, every device's gain taken out and its
 	// resistances kept, as a dip meter finds it with the set off: an
 	// oscillator's own loop, closed, makes the impedance at its tank
-	// regenerative and its peaks the loop's (review23 c02's oscillator tank
+	// regenerative and its peaks the loop's (review23 b02's oscillator tank
 	// peaked at 1.26 and 2.52 MHz live where it resonates at 1.00 and
 	// 2.01 MHz), and only the ratios of the tank's own peaks are used.
 	c = quietened(c)

@@ -12,15 +12,17 @@ import (
 	"pare/cmd/internal/align"
 )
 
+// review23 is a fixture of the twelfth blind review (testdata/review23 at
+// the repository's root; the reviewer called b02 and b05 c02 and c05).
 func review23(name string) string {
-	return filepath.Join("testdata", "review23", name+".toml")
+	return filepath.Join("..", "..", "..", "testdata", "review23", name+".toml")
 }
 
 // A separate oscillator found by its loop, its tank returned to a
-// decoupled supply line (review23 c02: VC1c and TC3 from osc_pad to
+// decoupled supply line (review23 b02: VC1c and TC3 from osc_pad to
 // vcc_osc, the padder C12 in series with T3's tuned winding, vcc_osc fed
-// through R12 and held by C14; c05 the same on vcc_rf), and an RF tank
-// whose gang section and trimmer return to such a line (c02: VC1b and TC2
+// through R12 and held by C14; b05 the same on vcc_rf), and an RF tank
+// whose gang section and trimmer return to such a line (b02: VC1b and TC2
 // across T2's primary, to vcc_rf). The reviewer read "the low end cannot
 // be set: no padder and no adjustable core is captured", "The core of T3:
 // no step" and "no RF trimmer is captured on VC1b" where all of them are
@@ -31,8 +33,8 @@ func TestSeparateOscillatorOnADecoupledLine(t *testing.T) {
 		oscTrim, oscLow string // the oscillator's high and low end
 		rf              []string
 	}{
-		{"c02", "TC3", "T3", []string{"TC2", "T2", "TC1", "T1"}},
-		{"c05", "TC2", "T2", []string{"TC1", "T1"}},
+		{"b02", "TC3", "T3", []string{"TC2", "T2", "TC1", "T1"}},
+		{"b05", "TC2", "T2", []string{"TC1", "T1"}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			_, g := build(t, review23(tc.name))
@@ -61,13 +63,31 @@ func TestSeparateOscillatorOnADecoupledLine(t *testing.T) {
 	}
 }
 
+// The guide's dial ends for a separate oscillator on a decoupled line are
+// its loop's: review23 b02's Q3, the return ratio of its controlled source
+// solved by ngspice-39 on testdata/review23/c02loop.cir (docs/references.md
+// §46): 0° of loop phase at 976.885 kHz with the gang fully meshed and at
+// 2.01393 MHz fully open. 0.2 %: pare's rπ and ro come from its own DC
+// solve, the deck's from ngspice's.
+func TestSeparateOscillatorDialEndsAgainstNgspice(t *testing.T) {
+	_, g := build(t, review23("b02"))
+	if len(g.Ends) != 2 {
+		t.Fatalf("dial ends %+v, want the meshed and the open end", g.Ends)
+	}
+	for i, want := range []float64{976.885e3, 2.01393e6} {
+		if got := g.Ends[i].Osc; math.Abs(got-want) > 0.002*want {
+			t.Errorf("%s: oscillator at %.0f Hz, ngspice's return ratio %.0f Hz", g.Ends[i].Where, got, want)
+		}
+	}
+}
+
 // Near misses: the same set with truly nothing to turn still warns. With
 // the padder gone (the gang and trimmer straight across the winding) and
 // no core on the oscillator coil, the low end cannot be set; with the
 // padder kept but a fixed coil, the fixed padder is named; with the RF
 // trimmer gone, the RF tank has no high-end step.
 func TestSeparateOscillatorNearMisses(t *testing.T) {
-	src, err := os.ReadFile(review23("c02"))
+	src, err := os.ReadFile(review23("b02"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -95,7 +115,7 @@ func TestSeparateOscillatorNearMisses(t *testing.T) {
 			if edited == string(src) {
 				t.Fatal("the edit changed nothing")
 			}
-			path := filepath.Join(t.TempDir(), "c02.toml")
+			path := filepath.Join(t.TempDir(), "b02.toml")
 			if err := os.WriteFile(path, []byte(edited), 0o644); err != nil {
 				t.Fatal(err)
 			}

@@ -11,10 +11,11 @@ import (
 
 // The oscillator tank the reach search solves is the tank as a dip meter
 // finds it, every transistor quiet (its gain gone, its resistances kept):
-// review23 c02's T3 with the padder C12 in series with VC1c and TC3, all
+// review23 b02's T3 with the padder C12 in series with VC1c and TC3, all
 // returned to the decoupled line vcc_osc. ngspice-39 .ac lin 40001 600 kHz
 // to 4 MHz, max of |V(osc_pad)| for 1 A into osc_pad, on
-// testdata/review23/c02tankquiet.cir (the reviewer's deck c02osc.cir with
+// testdata/review23/c02tankquiet.cir here (the reviewer's deck
+// testdata/review23/spice/b/c02osc.cir at the repository's root with
 // each transistor replaced by its rπ and ro at the deck's operating point):
 // TC3 at 28 pF (as captured) 2.007515 MHz gang least, 996.27 kHz gang
 // full; TC3 at 3 pF 3.14643 MHz and 1.01854 MHz. 0.5 %: the deck and pare
@@ -22,7 +23,7 @@ import (
 // the same net peaked at 2.52 and 1.26 MHz, the loop's regeneration, not
 // the tank.
 func TestQuietOscillatorTankAgainstNgspice(t *testing.T) {
-	c, err := graph.LoadFile(filepath.Join("testdata", "review23", "c02.toml"))
+	c, err := graph.LoadFile(filepath.Join("..", "..", "..", "testdata", "review23", "b02.toml"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -47,10 +48,10 @@ func TestQuietOscillatorTankAgainstNgspice(t *testing.T) {
 // A bypass too small to hold its line for the tank (under holdRatio
 // times the gang's largest capacitance) leaves the line a signal net: the
 // gang section then stands off ground, and only a trimmer across its own
-// two nets is its trimmer (review23 c02 with C14 made 10 nF, 38 times
+// two nets is its trimmer (review23 b02 with C14 made 10 nF, 38 times
 // VC1c's 265 pF).
 func TestTankGroundNeedsABypassThatHolds(t *testing.T) {
-	c, err := graph.LoadFile(filepath.Join("testdata", "review23", "c02.toml"))
+	c, err := graph.LoadFile(filepath.Join("..", "..", "..", "testdata", "review23", "b02.toml"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -76,11 +77,11 @@ func ref(p *graph.Part) string {
 
 // A stage that holds no gang section takes the one its tank reaches
 // through the padder, not one that merely returns to a decoupled line the
-// stage shares: review23 c05's mixer (Q1, the IF can T3 and C15, all on
+// stage shares: review23 b05's mixer (Q1, the IF can T3 and C15, all on
 // vcc_rf) is not tuned by the oscillator's section VC1b, which returns to
 // vcc_rf too; the oscillator (Q2, T2) is, through the padder C12.
 func TestWithGangNotThroughTheTanksGround(t *testing.T) {
-	c, err := graph.LoadFile(filepath.Join("testdata", "review23", "c05.toml"))
+	c, err := graph.LoadFile(filepath.Join("..", "..", "..", "testdata", "review23", "b05.toml"))
 	if err != nil {
 		t.Fatal(err)
 	}
