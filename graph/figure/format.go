@@ -215,11 +215,12 @@ func Items(l List, m Medium) []string {
 
 // solvedAtHz is the frequency a solved gain (a ratio or decibels) was
 // taken at, as the solver's origin gives it ("563.7 kHz, gang at mid
-// travel" gives "563.7 kHz"); "" for any other figure. A gain without its
+// travel" gives "563.7 kHz"); "" for any other figure, and for one that
+// says its own frequency (a gain at each end of the band). A gain without its
 // frequency is read as the one a reader expects (an IF stage's at the IF)
 // when the solver took it elsewhere (its load's peak): say where.
 func (f Figure) solvedAtHz() string {
-	if f.Origin.Source != Solver || (f.Unit != Ratio && f.Unit != Decibel) || f.Range != nil || f.Points != nil {
+	if f.Origin.Source != Solver || (f.Unit != Ratio && f.Unit != Decibel) || f.Range != nil || f.Points != nil || f.At != nil {
 		return ""
 	}
 	head, _, _ := strings.Cut(f.Origin.At, ",")

@@ -41,8 +41,13 @@ func TestGainsSayTheirFrequency(t *testing.T) {
 		solved("gain_formula", 380, "the tank's own Q"),
 		{Name: "gain_db", Unit: Decibel, Value: 34.9, Origin: ByFormula("20·log10 |A|")},
 	}
+	// a gain that carries its own frequency (at each end of the band)
+	// says it once
+	lowEnd := solved("gain_low", -192, "531.1 kHz, gang at its low end")
+	lowEnd.At = &Figure{Unit: Hertz, Value: 531.1e3}
+	l = append(l, lowEnd)
 	got := strings.Join(Items(l, Sheet), ", ")
-	want := "gain 10.1, gain anode 338 at 563.7 kHz, f 564 kHz, gain formula 380, gain db 34.9 dB"
+	want := "gain 10.1, gain anode 338 at 563.7 kHz, f 564 kHz, gain formula 380, gain db 34.9 dB, gain low -192 at 531 kHz"
 	if got != want {
 		t.Errorf("Items = %q\nwant    %q", got, want)
 	}

@@ -30,7 +30,7 @@ func loopFreq(name, label string, l Loop) (figure.Figure, bool) {
 	o := loopOrigin
 	f := figure.Figure{Name: name, Label: label, Unit: figure.Hertz, Origin: o}
 	if len(l.Settings) > 1 && fMax/fMin-1 > 1e-4 {
-		f.Origin.At = "across the gang"
+		f.Origin.At = "every gang setting"
 		f.Range = &value.Range{Min: fMin, Max: fMax}
 	} else {
 		f.Origin.At = "in circuit"

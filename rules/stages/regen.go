@@ -40,7 +40,7 @@ func calcRegeneration(x *figCtx) {
 	if !ok {
 		return
 	}
-	origin := figure.BySolver("loop gain at the tuned frequency", "across the gang")
+	origin := figure.BySolver("loop gain at the tuned frequency", "every gang setting")
 	if mMax-mMin < 0.05 {
 		x.set("regen_loop", figure.Decibel, mMax, origin)
 	} else {
