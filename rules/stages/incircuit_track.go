@@ -326,6 +326,20 @@ func (x *figCtx) findTrackPair(osc *tankModel) (trackPairs, bool) {
 	c := quiet(x.solverCircuit())
 	tp := trackPairs{c: c, rs: ac.NewResponses(c), sn: sn, on: on, live: x.solverCircuit()}
 	tp.dev = x.runningOscillator(tp, osc.f(0))
+	if tp.dev == "" && x.oscDev != "" && x.w.orig != nil {
+		// The reduction can take away part of a loop the stage's own
+		// figures solve on the original: a pentagrid's oscillator anode
+		// (g2), dropped as a static electrode at AC ground, no longer
+		// sends its current through a Hartley's cathode tap (review23
+		// a05: +15.8 dB on the original, −1.9 dB reduced). The walk then
+		// finds the oscillator where the stage's loop was solved, on the
+		// original circuit, so its ends are the stage's osc f.
+		whole := tp
+		whole.live = x.w.orig.c
+		if whole.dev = x.runningOscillator(whole, osc.f(0)); whole.dev != "" {
+			tp = whole
+		}
+	}
 	return tp, true
 }
 

@@ -246,12 +246,19 @@ func mixerFigures(c *graph.Circuit, st *Stage, l Loop, ifStage, tank *Stage) {
 	putTankAlone(st, tank) // last: a frame's two figures stay the ranges
 }
 
-// ifTuning is the tuning of an IF stage, if there is one.
+// ifTuning is the tuning of an IF stage, if there is one: a single-tuned
+// winding's f, or a double-tuned can's primary f1 (the winding on the
+// mixer's output, peaked as an aligner peaks it with the secondary's
+// coupling out, calcDoubleTuned), which is what the mixer's own pattern
+// gives as ift_f.
 func ifTuning(ifStage *Stage) (figure.Figure, bool) {
 	if ifStage == nil {
 		return figure.Figure{}, false
 	}
-	return ifStage.Figures.Get("f")
+	if f, ok := ifStage.Figures.Get("f"); ok {
+		return f, true
+	}
+	return ifStage.Figures.Get("f1")
 }
 
 // ifFigure is the declared IF as a mixer's figure: a loop-found mixer

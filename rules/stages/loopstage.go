@@ -38,6 +38,7 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 	gone = map[*found]bool{}
 	w := newWorld(c, false, acg)
 	w.orig = orig
+	out = oscillatorMixers(w, lp, groundOf(c, acg), tops, claimed, gone)
 	for _, p := range c.Parts {
 		if f := claimed[p.Ref]; f != nil && injectedMixer(f.Topology) {
 			selfOscillating(w, lp, acg, p, f, tops, claimed, gone)
@@ -213,7 +214,7 @@ func loopStage(w *world, lc *graph.Circuit, acg map[string]bool, p *graph.Part, 
 		if _, _, _, mMax, _ := l.Range(); mMax >= 0 {
 			mixerFigures(c, st, l, ifStage.Stage, tank) // a loop that runs: where it runs
 		} else {
-			if ft, ok := ifStage.Figures.Get("f"); ok {
+			if ft, ok := ifTuning(ifStage.Stage); ok {
 				ft.Name, ft.Label, ft.Check, ft.Why = "ift_f", "IF transformer f", nil, ""
 				st.Figures.Put(ft)
 			}
@@ -380,8 +381,8 @@ func ifOutput(w *world, dev *graph.Part, tops []*found) *found {
 		if f.group != "tuned" {
 			continue
 		}
-		fr, ok := f.Figures.Lookup("f_hz")
-		if !ok || (fr/fif-1 > ifFreqTol || 1-fr/fif > ifFreqTol) {
+		t, ok := ifTuning(f.Stage)
+		if fr := t.Value; !ok || t.Range != nil || (fr/fif-1 > ifFreqTol || 1-fr/fif > ifFreqTol) {
 			continue
 		}
 		for _, ref := range f.Parts {
