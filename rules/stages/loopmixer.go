@@ -33,45 +33,6 @@ const loopDrawnDB = -20.0
 // reaction winding.
 const windingReach = 2
 
-// loopTank finds the tuned winding of transformer ref in w: the winding
-// whose ends a capacitor network with a ganged section joins, and those
-// capacitors; for a plain or tapped coil (a Hartley's), the coil end to
-// end. ok is false when no winding of it is tuned by the gang.
-func loopTank(w *world, ref string) (oc coilEnds, caps []*graph.Part, ok bool) {
-	ci := slices.IndexFunc(w.parts, func(p *graph.Part) bool { return p.Ref == ref })
-	if ci < 0 {
-		return coilEnds{}, nil, false
-	}
-	if p := w.parts[ci]; p.Kind == graph.Inductor {
-		a, b := w.pinNet(ci, "1"), w.pinNet(ci, "2")
-		cs := tankCaps(w, a, b)
-		if gangSection(cs) == nil {
-			return coilEnds{}, nil, false
-		}
-		q := 0.0
-		if len(p.Windings) > 0 {
-			q = p.Windings[0].Q
-		}
-		return coilEnds{ref: ref, a: a, b: b, pinA: "1", pinB: "2", l: p.Inductance(), q: q}, cs, true
-	}
-	for _, cl := range w.coils[ci] {
-		first, last := cl.pins[0], cl.pins[len(cl.pins)-1]
-		a, b := w.pinNet(ci, first), w.pinNet(ci, last)
-		cs := tankCaps(w, a, b)
-		if gangSection(cs) == nil {
-			continue
-		}
-		oc := coilEnds{ref: ref, a: a, b: b, pinA: first, pinB: last, l: cl.l, q: cl.q}
-		if j, ok := extendToGround(w, ci, cl.name, oc); ok {
-			if jcs := tankCaps(w, j.a, j.b); gangSection(jcs) != nil {
-				return j, jcs, true
-			}
-		}
-		return oc, cs, true
-	}
-	return coilEnds{}, nil, false
-}
-
 // tankCaps gathers the capacitors that tune a winding between nets a and
 // b: those reached from its ends through capacitors alone, never through
 // AC ground (where every decoupling capacitor meets) nor into a net an

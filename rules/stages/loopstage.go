@@ -360,68 +360,6 @@ func carrier(lc *graph.Circuit, ref string, l Loop, inverted bool) string {
 	return ""
 }
 
-// ifFreqTol is how near the declared IF a tuned output must be for the
-// device to be a mixer: 10 %, wider than any IF can's trimming range
-// (common practice).
-const ifFreqTol = 0.1
-
-// ifOutput finds the tuned stage on a device's output circuit that is
-// tuned to the declared IF: the IF transformer of a self-oscillating
-// mixer, on the output net or beyond a winding in series with it (a
-// reaction winding between the collector and the IF can).
-func ifOutput(w *world, dev *graph.Part, tops []*found) *found {
-	fif := w.c.Freqs["if"]
-	di, ok := w.index[dev]
-	out := w.pinNet(di, dev.PinWithRole(graph.RoleOutput))
-	if fif <= 0 || !ok || out <= groundNet {
-		return nil
-	}
-	reached := seriesNets(w, di, out)
-	for _, f := range tops {
-		if f.group != "tuned" {
-			continue
-		}
-		t, ok := ifTuning(f.Stage)
-		if fr := t.Value; !ok || t.Range != nil || (fr/fif-1 > ifFreqTol || 1-fr/fif > ifFreqTol) {
-			continue
-		}
-		for _, ref := range f.Parts {
-			if q := w.c.Part(ref); q != nil && touches(q, reached) {
-				return f
-			}
-		}
-	}
-	return nil
-}
-
-// seriesNets are the nets reached from net start through at most
-// windingReach windings or capacitors of parts other than the device,
-// never through AC ground: the output circuit of a device as the signal
-// current runs through it.
-func seriesNets(w *world, dev, start int) map[string]bool {
-	out := map[string]bool{w.names[start]: true}
-	frontier, seen := []int{start}, map[int]bool{start: true}
-	for hop := 0; hop < windingReach && len(frontier) > 0; hop++ {
-		var next []int
-		for _, n := range frontier {
-			for _, ci := range w.conns[n] {
-				if ci == dev {
-					continue
-				}
-				for _, m := range passOn(w, ci, n) {
-					if !seen[m] && m != groundNet {
-						seen[m] = true
-						out[w.names[m]] = true
-						next = append(next, m)
-					}
-				}
-			}
-		}
-		frontier = next
-	}
-	return out
-}
-
 // holdsCoil reports whether any of refs is a coil (not an RF choke, which
 // feeds a supply and tunes nothing) or a transformer.
 func holdsCoil(c *graph.Circuit, refs []string) bool {

@@ -230,3 +230,104 @@ func changerDraw(c *graph.Circuit, dev *graph.Part, ifs *found) []Place {
 	}
 	return draw
 }
+
+// ifFreqTol is how near the declared IF a tuned output must be for the
+// device to be a mixer: 10 %, wider than any IF can's trimming range
+// (common practice).
+const ifFreqTol = 0.1
+
+// ifOutput finds the tuned stage on a device's output circuit that is
+// tuned to the declared IF: the IF transformer of a self-oscillating
+// mixer, on the output net or beyond a winding in series with it (a
+// reaction winding between the collector and the IF can).
+func ifOutput(w *world, dev *graph.Part, tops []*found) *found {
+	fif := w.c.Freqs["if"]
+	di, ok := w.index[dev]
+	out := w.pinNet(di, dev.PinWithRole(graph.RoleOutput))
+	if fif <= 0 || !ok || out <= groundNet {
+		return nil
+	}
+	reached := seriesNets(w, di, out)
+	for _, f := range tops {
+		if f.group != "tuned" {
+			continue
+		}
+		t, ok := ifTuning(f.Stage)
+		if fr := t.Value; !ok || t.Range != nil || (fr/fif-1 > ifFreqTol || 1-fr/fif > ifFreqTol) {
+			continue
+		}
+		for _, ref := range f.Parts {
+			if q := w.c.Part(ref); q != nil && touches(q, reached) {
+				return f
+			}
+		}
+	}
+	return nil
+}
+
+// seriesNets are the nets reached from net start through at most
+// windingReach windings or capacitors of parts other than the device,
+// never through AC ground: the output circuit of a device as the signal
+// current runs through it.
+func seriesNets(w *world, dev, start int) map[string]bool {
+	out := map[string]bool{w.names[start]: true}
+	frontier, seen := []int{start}, map[int]bool{start: true}
+	for hop := 0; hop < windingReach && len(frontier) > 0; hop++ {
+		var next []int
+		for _, n := range frontier {
+			for _, ci := range w.conns[n] {
+				if ci == dev {
+					continue
+				}
+				for _, m := range passOn(w, ci, n) {
+					if !seen[m] && m != groundNet {
+						seen[m] = true
+						out[w.names[m]] = true
+						next = append(next, m)
+					}
+				}
+			}
+		}
+		frontier = next
+	}
+	return out
+}
+
+// loopTank finds the tuned winding of transformer ref in w: the winding
+// whose ends a capacitor network with a ganged section joins, and those
+// capacitors; for a plain or tapped coil (a Hartley's), the coil end to
+// end. ok is false when no winding of it is tuned by the gang.
+func loopTank(w *world, ref string) (oc coilEnds, caps []*graph.Part, ok bool) {
+	ci := slices.IndexFunc(w.parts, func(p *graph.Part) bool { return p.Ref == ref })
+	if ci < 0 {
+		return coilEnds{}, nil, false
+	}
+	if p := w.parts[ci]; p.Kind == graph.Inductor {
+		a, b := w.pinNet(ci, "1"), w.pinNet(ci, "2")
+		cs := tankCaps(w, a, b)
+		if gangSection(cs) == nil {
+			return coilEnds{}, nil, false
+		}
+		q := 0.0
+		if len(p.Windings) > 0 {
+			q = p.Windings[0].Q
+		}
+		return coilEnds{ref: ref, a: a, b: b, pinA: "1", pinB: "2", l: p.Inductance(), q: q}, cs, true
+	}
+	for _, cl := range w.coils[ci] {
+		first, last := cl.pins[0], cl.pins[len(cl.pins)-1]
+		a, b := w.pinNet(ci, first), w.pinNet(ci, last)
+		cs := tankCaps(w, a, b)
+		if gangSection(cs) == nil {
+			continue
+		}
+		oc := coilEnds{ref: ref, a: a, b: b, pinA: first, pinB: last, l: cl.l, q: cl.q}
+		if j, ok := extendToGround(w, ci, cl.name, oc); ok {
+			if jcs := tankCaps(w, j.a, j.b); gangSection(jcs) != nil {
+				return j, jcs, true
+			}
+		}
+		return oc, cs, true
+	}
+	return coilEnds{}, nil, false
+}
