@@ -16,7 +16,8 @@ import (
 // oscillator's feedback: review23 a05's pentagrid has a Hartley with the
 // cathode on a tap, which the Hartley pattern names alone; a02's octode a
 // tuned grid with a reaction winding in g2; the variants below are a05
-// rewired with a Colpitts on the cathode and with a reaction winding.
+// rewired with a Colpitts on the cathode, with a reaction winding, and with
+// an RF stage whose tuned transformer feeds the signal grid.
 // Each must be named a self-oscillating mixer holding its IF transformer
 // (docs/references.md §47),
 // with its oscillator's and its signal's ranges, the IF and the tracking.
@@ -49,6 +50,22 @@ C9 = { c = "100n", pins = ["osc_ht", "gnd"] }
 R10 = { r = "220R", pins = ["k1", "gnd"] }
 C7 = { c = "50n", pins = ["k1", "gnd"] }`}},
 			"tuned-grid oscillator with reaction winding"},
+		{"a05 rewired: an RF stage before the changer", a05, [][2]string{
+			{`s1 = "sig_g", s2 = "agc_a" }, note = "aerial coil, MW" }`, `s1 = "rf_g", s2 = "agc_a" }, note = "aerial coil, MW" }`},
+			{`VC1a = { c = "12p..365p", gang = "tune", pins = ["sig_g", "gnd"]`, `VC1a = { c = "12p..365p", gang = "tune", pins = ["rf_g", "gnd"]`},
+			{`TC1 = { c = "3p..50p", set = "30p", pins = ["sig_g", "gnd"], note = "aerial trimmer: peak at 1500 kHz" }`,
+				`TC1 = { c = "3p..50p", set = "30p", pins = ["rf_g", "gnd"] }
+V6 = { valve = "pentode", pins = { a = "rf_a", g1 = "rf_g", g2 = "rf_scr", g3 = "rf_k", k = "rf_k", h1 = "hx", h2 = "gnd" }, gm = "2mA/V", ra = "1M", ia = "5mA" }
+R24 = { r = "220R", pins = ["rf_k", "gnd"] }
+C34 = { c = "50n", pins = ["rf_k", "gnd"] }
+R25 = { r = "47k", pins = ["ht", "rf_scr"] }
+C35 = { c = "50n", pins = ["rf_scr", "gnd"] }
+T6 = { windings = { p = "60u", s = "230u" }, k = 0.3, q = 85, adjust = ["s"], pins = { p1 = "rf_a", p2 = "ht", s1 = "sig_g", s2 = "agc_b" } }
+R26 = { r = "1M", pins = ["agc", "agc_b"] }
+C36 = { c = "50n", pins = ["agc_b", "gnd"] }
+VC1c = { c = "12p..365p", gang = "tune", pins = ["sig_g", "gnd"] }
+TC3 = { c = "3p..50p", set = "30p", pins = ["sig_g", "gnd"] }`}},
+			"Hartley oscillator with cathode tap"},
 		{"a05 rewired: anode into a resistor", a05, [][2]string{
 			{`T2 = { windings = { p = { l = "1m147", q = 110 }, s = { l = "1m147", q = 100 } }, k = 0.01, adjust = ["p", "s"], pins = { p1 = "mix_a", p2 = "ht_mix", s1 = "if_g", s2 = "agc_if" }, note = "first IF transformer, 470 kHz" }`,
 				`R22 = { r = "47k", pins = ["mix_a", "ht_mix"] }
