@@ -44,6 +44,18 @@ type LoopOptions struct {
 	// feeds back against the signal (degeneration), as a reaction winding
 	// connected the wrong way round does.
 	Inverted bool
+	// AtControl breaks the loop at the device's control electrode only:
+	// its controlled current keeps following its common electrode (the
+	// emitter, cathode or source), so a feedback loop that closes on the
+	// common electrode (the gain-setting negative feedback of a Wien
+	// bridge, returned to the first emitter) stays closed, and the return
+	// ratio is that of the loops that close on the control electrode
+	// alone, with everything else in place.
+	AtControl bool
+	// Lift, when set, breaks the loop at a part's end instead of at the
+	// device (looplift.go): the device named in Find is then only the
+	// loop's name, and every device stays in place.
+	Lift *Lift
 }
 
 // Crossing is one frequency where the loop phase is 0°.
@@ -68,8 +80,9 @@ type Loop struct {
 type loopSystem struct {
 	s    *system
 	srcs []loopSource
-	sign float64 // 1, or −1 for the loop seen the other way round
-	c, d int     // control, control reference
+	sign float64  // 1, or −1 for the loop seen the other way round
+	c, d int      // control, control reference
+	lift *liftEnd // the part end lifted, for a loop broken there
 }
 
 // loopSource is one controlled current of the part: gm·1 V from node a
@@ -87,7 +100,7 @@ func newLoopSystem(c *graph.Circuit, ref string, o Options) (*loopSystem, error)
 	if err != nil {
 		return nil, err
 	}
-	return loopSystemOf(c, nl, ref)
+	return loopSystemOf(c, nl, ref, false)
 }
 
 // loopSystemOf removes ref's controlled source from the elaborated nl and
@@ -97,7 +110,13 @@ func newLoopSystem(c *graph.Circuit, ref string, o Options) (*loopSystem, error)
 // whether it is solved or not. The blocks are numbered and ordered as they
 // are inside the whole matrix, so a circuit of one block solves exactly as
 // before, and a set of many costs the size of the source's channel.
-func loopSystemOf(c *graph.Circuit, nl *netlist, ref string) (*loopSystem, error) {
+//
+// With atControl the source is made independent on its control side only:
+// a controlled source gm·(0 − V(common)) stays in the circuit beside it,
+// and the loop gain read is V(control) alone (Bode's return ratio for the
+// control electrode's share of the controlling voltage: by the matrix
+// determinant lemma its L = 1 is still the circuit's natural frequency).
+func loopSystemOf(c *graph.Circuit, nl *netlist, ref string, atControl bool) (*loopSystem, error) {
 	idx := slices.IndexFunc(nl.prims, func(p prim) bool { return p.kind == primVCCS && p.ref == ref })
 	if idx < 0 {
 		if c.Part(ref) == nil {
@@ -112,6 +131,9 @@ func loopSystemOf(c *graph.Circuit, nl *netlist, ref string) (*loopSystem, error
 	for _, p := range nl.prims {
 		if p.kind == primVCCS && p.ref == ref && p.c == src.c && p.d == src.d {
 			srcs = append(srcs, loopSource{gm: p.v, a: p.a, b: p.b})
+			if atControl && p.d > 0 {
+				cp.prims = append(cp.prims, prim{kind: primVCCS, ref: p.ref, sub: p.sub + " common", a: p.a, b: p.b, c: 0, d: p.d, v: p.v})
+			}
 			continue
 		}
 		cp.prims = append(cp.prims, p)
@@ -143,12 +165,19 @@ func loopSystemOf(c *graph.Circuit, nl *netlist, ref string) (*loopSystem, error
 		slices.Sort(sub.groups)
 	}
 	s := assemble(&cp, -1, isHeld, sub)
-	return &loopSystem{s: s, srcs: srcs, sign: 1, c: src.c, d: src.d}, nil
+	ls := &loopSystem{s: s, srcs: srcs, sign: 1, c: src.c, d: src.d}
+	if atControl {
+		ls.d = 0 // the return read at the control electrode alone
+	}
+	return ls, nil
 }
 
 // at returns L at complex frequency sc (rad/s): the controlling voltage the
 // circuit returns for a unit controlling voltage at the source.
 func (ls *loopSystem) at(sc complex128) (complex128, error) {
+	if ls.lift != nil {
+		return ls.liftAt(sc)
+	}
 	s := ls.s
 	if err := s.assemble(sc); err != nil {
 		return 0, err
@@ -256,7 +285,16 @@ func (l *Loops) Find(ref string, o LoopOptions) (Loop, error) {
 		frac = o.VarFrac
 	}
 	res := Loop{Ref: ref, Frac: frac}
-	ls, err := l.system(ref, o.Options)
+	var ls *loopSystem
+	var err error
+	switch {
+	case o.Lift != nil:
+		ls, err = liftSystem(l.c, *o.Lift, o.Options)
+	case o.AtControl:
+		ls, err = atControlSystem(l.c, ref, o.Options)
+	default:
+		ls, err = l.system(ref, o.Options)
+	}
 	if err != nil {
 		return res, err
 	}
@@ -266,6 +304,16 @@ func (l *Loops) Find(ref string, o LoopOptions) (Loop, error) {
 	})
 	res.Crossings, res.F, res.MarginDB = slices.Clone(e.loop.Crossings), e.loop.F, e.loop.MarginDB
 	return res, err
+}
+
+// atControlSystem is ref's loop system broken at its control electrode
+// only (LoopOptions.AtControl), elaborated afresh: few loops ask for it.
+func atControlSystem(c *graph.Circuit, ref string, o Options) (*loopSystem, error) {
+	nl, err := elaborate(c, o)
+	if err != nil {
+		return nil, err
+	}
+	return loopSystemOf(c, nl, ref, true)
 }
 
 // searchGrid is the coarse frequency grid: PerDecade points a decade from

@@ -30,7 +30,7 @@ func TestLoopSystemInIsLoopSystemOf(t *testing.T) {
 				if !p.IsActive() {
 					continue
 				}
-				want, err1 := loopSystemOf(c, nl, p.Ref)
+				want, err1 := loopSystemOf(c, nl, p.Ref, false)
 				got, err2 := loopSystemIn(c, m, p.Ref)
 				if (err1 == nil) != (err2 == nil) || err1 != nil && err1.Error() != err2.Error() {
 					t.Errorf("%s %s at %g: errors %v and %v", f, p.Ref, frac, err1, err2)

@@ -101,6 +101,12 @@ func (ls *loopSystem) key(o LoopOptions, what uint64, extra ...float64) [sha256.
 	for _, x := range extra {
 		put(f(x))
 	}
+	if o.AtControl {
+		put(2, uint64(int64(ls.d))) // read at the control electrode alone
+	}
+	if le := ls.lift; le != nil {
+		put(3, unk(le.a), unk(le.m), f(le.g), f(le.cap)) // broken at a lifted part
+	}
 	put(uint64(s.n), uint64(len(s.a.p)), uint64(len(s.a.i)), uint64(len(s.stamps)), uint64(len(s.coefs)), uint64(len(ls.srcs)))
 	for _, v := range s.a.p {
 		put(uint64(int64(v)))
