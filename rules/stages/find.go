@@ -184,7 +184,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 			out = appendTree(out, top)
 		}
 	}
-	addLoops(loops, out)
+	addLoops(loops, out, reduced, acg)
 	loopCapacitors(loops, out)
 	dropContradicted(out)
 	return out, errors.Join(errSig, errPow)

@@ -32,6 +32,14 @@ type Loop struct {
 	// GrowthPerS is the linear circuit's growth rate σ at the setting with
 	// the largest margin (1/s; the natural frequency's real part).
 	GrowthPerS float64 `json:"growth_per_s,omitempty"`
+	// BrokenAt says where a loop through several devices is broken, ""
+	// for Device's own return ratio: a part's lifted end ("C5's end at
+	// q2_c, the Wien series arm", Lift) or Device's control electrode
+	// alone ("Q1's base", ac.LoopOptions.AtControl). Its margin is then the
+	// loop's gain, not Device's gm's.
+	BrokenAt string `json:"broken_at,omitempty"`
+	// Lift is the part end lifted, nil when the loop is not broken at one.
+	Lift *ac.Lift `json:"-"`
 }
 
 // Range gives the lowest and highest oscillation frequency and margin over
@@ -160,7 +168,7 @@ func shortLoopFlag(l Loop) string {
 		}
 	}
 	return fmt.Sprintf("%s: loop phase 0° at %s%s, loop gain %+.1f dB at best (%s): does not oscillate as drawn",
-		l.Device, hzText(best.F), dialPlace(best.Gang, len(l.Settings)), best.MarginDB, gmMargin(l.Device, best.MarginDB))
+		l.Device, hzText(best.F), dialPlace(best.Gang, len(l.Settings)), best.MarginDB, marginWords(l, best.MarginDB))
 }
 
 // squeggFlag is the squegging risk of an oscillator's loop, "" when there
@@ -273,12 +281,26 @@ func biasTau(c *graph.Circuit, ref string) float64 {
 // mixer does not repeat it), with its flags.
 // A loop that cannot be solved (a net the model leaves floating) is said in
 // a flag; the stage stays.
-func addLoops(lp *ac.Loops, out []Stage) {
+//
+// A stage whose devices close one loop through a Wien network (reduced
+// and acg, the reduced circuit and its AC-ground nets, to find it) carries
+// that loop once, broken at the network's series arm (wholeLoop), and no
+// device's own: each device's return ratio would read the open amplifier.
+func addLoops(lp *ac.Loops, out []Stage, reduced *graph.Circuit, acg map[string]bool) {
 	c := lp.Circuit()
 	done := map[string]bool{}
 	for i := len(out) - 1; i >= 0; i-- { // sub-stages follow their parent
 		st := &out[i]
-		if st.group != "oscillator" && st.group != "mixer" || injectedMixer(st.Topology) {
+		if st.group != "oscillator" && st.group != "mixer" || injectedMixer(st.Topology) ||
+			slices.ContainsFunc(st.Loop, func(l Loop) bool { return l.BrokenAt != "" }) {
+			// (a loop through several devices is carried once: joinLoop)
+			continue
+		}
+		if st.group == "oscillator" && wienStageLoop(c, reduced, acg, st) {
+			for _, ref := range st.Parts {
+				done[ref] = true
+			}
+			slices.Sort(st.Flags)
 			continue
 		}
 		for _, ref := range st.Parts {
@@ -383,16 +405,24 @@ func LoopLine(l Loop) string {
 		return fmt.Sprintf("loop %s: no 0° loop phase from 10 Hz to 1 GHz", l.Device)
 	}
 	var b strings.Builder
-	fmt.Fprintf(&b, "loop %s: ", l.Device)
+	if l.BrokenAt != "" {
+		fmt.Fprintf(&b, "loop broken at %s: ", l.BrokenAt)
+	} else {
+		fmt.Fprintf(&b, "loop %s: ", l.Device)
+	}
+	word := "gm margin"
+	if l.BrokenAt != "" {
+		word = "margin"
+	}
 	if fMax/fMin-1 < 1e-4 {
 		b.WriteString(hzText(fMin))
 	} else {
 		fmt.Fprintf(&b, "%s–%s", hzText(fMin), hzText(fMax))
 	}
 	if mMax-mMin < 0.05 {
-		fmt.Fprintf(&b, ", gm margin %+.1f dB", mMin)
+		fmt.Fprintf(&b, ", %s %+.1f dB", word, mMin)
 	} else {
-		fmt.Fprintf(&b, ", gm margin %+.1f to %+.1f dB", mMin, mMax)
+		fmt.Fprintf(&b, ", %s %+.1f to %+.1f dB", word, mMin, mMax)
 	}
 	if len(l.Settings) > 1 {
 		b.WriteString(" across the dial; by gang travel")

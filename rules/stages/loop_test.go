@@ -97,16 +97,20 @@ func TestOscillatorLoopFlags(t *testing.T) {
 // feedback reaches the emitter through a separate link winding, and the
 // Wien bridge whose first valve has the bridge's arm on its cathode, with a
 // Wien pattern that knows only the grounded drawing in place of the
-// built-in one (which names the class: TestWienBridgeClass). The near miss is the same converter with the link winding reversed: negative
-// feedback, no 0° loop phase, no oscillator.
+// built-in one (which names the class: TestWienBridgeClass); its second
+// valve, which an amplifier pattern names, is in the same loop and joins
+// the one oscillator, named by its network, with no amplifier flagged as
+// oscillating (TestLoopThroughTwoDevicesIsOneOscillator). The near miss is
+// the same converter with the link winding reversed: negative feedback, no
+// 0° loop phase, no oscillator.
 func TestOscillatorFoundByLoop(t *testing.T) {
 	cases := []struct {
 		path, device, title string
-		amplifierFlag       string // a device in an amplifier stage that oscillates
+		joined              string // a second device in the same loop, in the stage
 	}{
 		{"../../testdata/osc/link-bjt.toml", "Q1", "Oscillator, feedback through T1 (BJT)", ""},
-		{"../../testdata/osc/wien-valve.toml", "V1", "Oscillator, feedback through an RC network (valve)", "V2 oscillates"},
-		{"../../testdata/osc/wien-bjt.toml", "Q1", "Oscillator, feedback through an RC network (BJT)", "Q2 oscillates"},
+		{"../../testdata/osc/wien-valve.toml", "V1", "Wien-bridge oscillator (valve)", "V2"},
+		{"../../testdata/osc/wien-bjt.toml", "Q1", "Wien-bridge oscillator (BJT)", "Q2"},
 		// an LC loop no pattern takes (an anode stopper in the tank's feed):
 		// the coil in the network makes it a tuned circuit, not RC
 		{"../../testdata/loops/colpitts-anode-stopper.toml", "V1", "Oscillator, feedback through a tuned circuit (valve)", ""},
@@ -133,10 +137,12 @@ func TestOscillatorFoundByLoop(t *testing.T) {
 			if len(st.Loop) != 1 || st.Loop[0].Device != tc.device {
 				t.Errorf("loop %+v", st.Loop)
 			}
-			if tc.amplifierFlag != "" {
-				amp := stageOf(found, "amp-common")
-				if amp == nil || !strings.Contains(strings.Join(amp.Flags, "\n"), tc.amplifierFlag) {
-					t.Errorf("amplifier stage lacks %q", tc.amplifierFlag)
+			if tc.joined != "" && !slices.Contains(st.Parts, tc.joined) {
+				t.Errorf("%s, in the same loop, not in the oscillator %v", tc.joined, st.Parts)
+			}
+			for _, other := range found {
+				if strings.Contains(strings.Join(other.Flags, "\n"), "oscillates") {
+					t.Errorf("%s flagged as oscillating: %q", other.Name, other.Flags)
 				}
 			}
 		})

@@ -39,6 +39,7 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 	w := newWorld(c, false, acg)
 	w.orig = orig
 	out = oscillatorMixers(w, lp, groundOf(c, acg), tops, claimed, gone)
+	var inLoop []pendingAmp
 	for _, p := range c.Parts {
 		if f := claimed[p.Ref]; f != nil && injectedMixer(f.Topology) {
 			selfOscillating(w, lp, acg, p, f, tops, claimed, gone)
@@ -77,23 +78,34 @@ func loopStages(c *graph.Circuit, lp *ac.Loops, acg map[string]bool, tops []*fou
 				delete(claimed, r)
 			}
 		}
+		if f := claimed[p.Ref]; mMax >= 0 && amplifierOf(c, f, tops, p.Ref) {
+			// An amplifier whose loop another device's shares (a Wien
+			// bridge's second stage): decided once every oscillator is
+			// found (joinAmplifiers).
+			inLoop = append(inLoop, pendingAmp{p, f, l})
+			continue
+		}
 		if f, in := claimed[p.Ref]; in {
-			f.Flags = append(f.Flags, claimedLoopFlags(lc, l)...)
-			if mMax >= 0 {
-				// Below 0 dB it is not an oscillator: the stage keeps its
-				// own name and the alignment its signal path.
-				f.Loop = append(f.Loop, l)
-			}
-			slices.Sort(f.Flags)
+			flagClaimed(lc, f, l)
 			continue
 		}
 		f := loopStage(w, lc, acg, p, l, tops, claimed, gone)
+		if j := joinedLoop(lp, out, p.Ref, l); j != nil {
+			// the same loop seen from a second device: one oscillator
+			joinLoop(w, lc, acg, j, f, l)
+			for _, r := range j.Parts {
+				j.set[r] = true
+				claimed[r] = j
+			}
+			continue
+		}
 		for _, r := range f.Parts {
 			f.set[r] = true
 			claimed[r] = f
 		}
 		out = append(out, f)
 	}
+	joinAmplifiers(w, lp, acg, inLoop, out, claimed, gone)
 	return out, gone
 }
 
