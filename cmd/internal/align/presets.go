@@ -154,7 +154,7 @@ func oscillatorPreset(c *graph.Circuit, sts []stages.Stage, op *dc.Point, p *gra
 				ps.Measure = "a frequency counter and a scope on the oscillator's output: turn it for the frequency wanted, then check it starts at once on every switch-on (and with the supply 10 % low) with no flattening of the peaks"
 			}
 			if op != nil {
-				ps.Points = append(netPoints(op, p), loopTravel(c, p, d.Ref)...)
+				ps.Points = append(netPoints(op, p), loopTravel(c, p, l)...)
 			}
 			return ps, true
 		}
@@ -193,24 +193,32 @@ func atSetting(c *graph.Circuit, ref string, set float64) (*graph.Circuit, *dc.P
 // and at its nominal setting: at each, the operating point solved afresh
 // and the small-signal figures the netlist leaves open taken there
 // (dc.Point.Biased), as the main job takes them at the nominal setting.
-func loopTravel(c *graph.Circuit, p *graph.Part, dev string) []string {
+// A loop through several devices is read where the stage reads it
+// (stages.Loop.BrokenAt: the Wien series arm, or one control electrode
+// alone): a device's gm margin would read the open amplifier's gain.
+func loopTravel(c *graph.Circuit, p *graph.Part, sl stages.Loop) []string {
 	var out []string
+	dev, what, gain := sl.Device, sl.Device+"'s loop", sl.Device+"'s loop gain"
+	if sl.BrokenAt != "" {
+		what = "the loop broken at " + sl.BrokenAt
+		gain = "the loop gain broken at " + sl.BrokenAt + ","
+	}
 	for _, s := range []float64{presetEnds[0], p.Set, presetEnds[1]} {
 		_, at, ok := atSetting(c, p.Ref, s)
 		if !ok {
 			continue
 		}
 		biased, _ := at.Biased()
-		l, err := ac.FindLoop(biased, dev, ac.LoopOptions{})
+		l, err := ac.FindLoop(biased, dev, sl.Break(ac.LoopOptions{}))
 		if err != nil || l.F == 0 {
-			out = append(out, fmt.Sprintf("%s at %.0f %% of its travel: %s's loop has no 0° crossing (does not start), from the loop solver", p.Ref, 100*s, dev))
+			out = append(out, fmt.Sprintf("%s at %.0f %% of its travel: %s has no 0° crossing (does not start), from the loop solver", p.Ref, 100*s, what))
 			continue
 		}
 		state := "starts"
 		if l.MarginDB < 0 {
 			state = "does not start"
 		}
-		out = append(out, fmt.Sprintf("%s at %.0f %% of its travel: %s's loop gain %+.1f dB at %s (%s), from the loop solver", p.Ref, 100*s, dev, l.MarginDB, hz(l.F), state))
+		out = append(out, fmt.Sprintf("%s at %.0f %% of its travel: %s %+.1f dB at %s (%s), from the loop solver", p.Ref, 100*s, gain, l.MarginDB, hz(l.F), state))
 	}
 	return out
 }
