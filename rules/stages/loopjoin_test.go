@@ -7,6 +7,8 @@ import (
 	"testing"
 
 	"pare/graph"
+	"pare/graph/ac"
+	"pare/graph/dc"
 	"pare/graph/figure"
 )
 
@@ -123,5 +125,45 @@ func TestNearMissesKeepTheirStages(t *testing.T) {
 				}
 			}
 		})
+	}
+}
+
+// TestWholeLoopWithoutWien: a loop through two devices with no Wien
+// network found is broken at each device's control electrode alone, the
+// smallest return ratio read (wholeLoop). On review23 b01 that is Q1's
+// base, with the negative feedback to its emitter closed: near the
+// loop's margin at the series arm (the reviewer's ngspice, |T| = 1.095,
+// +0.79 dB; docs/references.md §46), far below either device's own
+// return ratio (+13.9 and +35.8 dB, the open amplifier). A break away
+// from the arm reads another T off 0 dB, so within 0.5 dB and 5 %.
+func TestWholeLoopWithoutWien(t *testing.T) {
+	c, err := graph.LoadFile("../../testdata/review23/b01.toml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	op, err := dc.Solve(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ := op.Biased()
+	lp := ac.NewLoops(b)
+	var loops []Loop
+	for _, d := range []string{"Q1", "Q2"} {
+		l, err := loopOf(lp, d)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if _, _, _, m, _ := l.Range(); m < 10 {
+			t.Fatalf("%s's own return ratio %+.1f dB: want the open amplifier's, above 10 dB", d, m)
+		}
+		loops = append(loops, l)
+	}
+	l, ok := wholeLoop(b, wien{}, false, loops)
+	if !ok || l.BrokenAt != "Q1's base" || l.Lift != nil {
+		t.Fatalf("whole loop %+v: want it broken at Q1's base", l)
+	}
+	f, _, m, _, _ := l.Range()
+	if math.Abs(m-20*math.Log10(1.095)) > 0.5 || math.Abs(f/1059.3-1) > 0.05 {
+		t.Errorf("loop %s %+.2f dB, want near the series arm's 1059.3 Hz, +0.79 dB", hzText(f), m)
 	}
 }
