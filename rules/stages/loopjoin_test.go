@@ -19,7 +19,7 @@ import (
 // review23 b01 came out as two oscillators, +13.9 dB and +35.8 dB, where
 // the loop has +0.8 dB. The second device may be unclaimed (b01) or
 // named an amplifier by a pattern (valve-lamp's bypassed second triode).
-// Check values (docs/references.md §46): review23 b01, the reviewer's
+// Check values (docs/references.md §48): review23 b01, the reviewer's
 // ngspice deck testdata/review23/spice/b/c01.cir, phase 0 at 1059.3 Hz,
 // |T| = 1.095 (RESULTS.md; the same deck with an exact replica load,
 // testdata/wien/b01-exact.cir, 1059.51 Hz, 1.0956); testdata/wien/
@@ -133,7 +133,7 @@ func TestNearMissesKeepTheirStages(t *testing.T) {
 // smallest return ratio read (wholeLoop). On review23 b01 that is Q1's
 // base, with the negative feedback to its emitter closed: near the
 // loop's margin at the series arm (the reviewer's ngspice, |T| = 1.095,
-// +0.79 dB; docs/references.md §46), far below either device's own
+// +0.79 dB; docs/references.md §48), far below either device's own
 // return ratio (+13.9 and +35.8 dB, the open amplifier). A break away
 // from the arm reads another T off 0 dB, so within 0.5 dB and 5 %.
 func TestWholeLoopWithoutWien(t *testing.T) {
