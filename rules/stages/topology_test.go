@@ -442,6 +442,35 @@ R4 = { r = "100k", pins = ["g2", "gnd"] }
 R5 = { r = "4k7", pins = ["out", "gnd"] }
 R6 = { r = "10k", pins = ["out", "kb"] }
 C6 = { c = "100p", pins = ["out", "kb"] }`},
+	// The same lead under a pentode whose screen is bypassed to its own
+	// cathode (a blind reviewer's cathodyne amplifier, unnamed while the
+	// screen capacitor stood on the cathode net). Near miss: the feedback
+	// resistor from the pentode's own anode is local, not overall.
+	{topology: "amp-common-feedback-foot-screen", families: []string{"valve"},
+		parts: `V1 = { valve = "pentode", pins = { g1 = "in", g2 = "s", g3 = "k", a = "o", k = "k" }, gm = "2mA/V", ra = "2M5" }
+R1 = { r = "100k", pins = ["o", "ht"] }
+R5 = { r = "390k", pins = ["s", "ht"] }
+C3 = { c = "100n", pins = ["s", "k"] }
+R3 = { r = "2k2", pins = ["k", "kb"] }
+C1 = { c = "100u", pins = ["k", "kb"] }
+R2 = { r = "100", pins = ["kb", "gnd"] }
+C2 = { c = "47n", pins = ["o", "g2"] }
+R4 = { r = "1M", pins = ["g2", "gnd"] }
+@Q2(g2, gnd, out)
+R7 = { r = "47k", pins = ["out", "ht"] }
+R6 = { r = "33k", pins = ["out", "kb"] }`,
+		nearMiss: `V1 = { valve = "pentode", pins = { g1 = "in", g2 = "s", g3 = "k", a = "o", k = "k" }, gm = "2mA/V", ra = "2M5" }
+R1 = { r = "100k", pins = ["o", "ht"] }
+R5 = { r = "390k", pins = ["s", "ht"] }
+C3 = { c = "100n", pins = ["s", "k"] }
+R3 = { r = "2k2", pins = ["k", "kb"] }
+C1 = { c = "100u", pins = ["k", "kb"] }
+R2 = { r = "100", pins = ["kb", "gnd"] }
+C2 = { c = "47n", pins = ["o", "g2"] }
+R4 = { r = "1M", pins = ["g2", "gnd"] }
+@Q2(g2, gnd, out)
+R7 = { r = "47k", pins = ["out", "ht"] }
+R6 = { r = "330k", pins = ["o", "kb"] }`},
 	{topology: "amp-common-feedback", families: allFamilies,
 		parts: `@Q1(in, k, o)
 R1 = { r = "4k7", pins = ["o", "ht"] }
