@@ -34,6 +34,8 @@ const (
 	Decibel
 	Watt
 	Volt
+	// Degree is an angle: a loop's phase margin.
+	Degree
 )
 
 // units is the one table of what each unit means to the formatter: its SI
@@ -57,6 +59,7 @@ var units = [...]struct {
 	Decibel: {"decibel", value.None, "_db", 3},
 	Watt:    {"watt", value.Watt, "_w", 3},
 	Volt:    {"volt", value.Volt, "_v", 3},
+	Degree:  {"degree", value.None, "_deg", 3},
 }
 
 // Units lists every unit, for tests and documentation.
@@ -84,6 +87,8 @@ func (u Unit) Symbol() string {
 	switch {
 	case u == Decibel:
 		return "dB"
+	case u == Degree:
+		return "°"
 	case u.known():
 		return units[u].si.Symbol()
 	}

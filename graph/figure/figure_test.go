@@ -33,6 +33,7 @@ func TestFormat(t *testing.T) {
 		{0.0102062, Ratio, Text, "0.0102"},     // three significant digits
 		{1e-5, Ratio, Text, "1e-05"},           // below a thousandth: %g
 		{35.78, Decibel, Text, "35.8 dB"},      // tenths of a decibel, common practice
+		{40.26, Degree, Sheet, "40°"},          // a phase margin in whole degrees, common practice
 		{364.241e-12, Farad, Text, "364.2 pF"}, // docs/references.md §2 three-point padder, four digits
 		{364.241e-12, Farad, Sheet, "364 pF"},  // the same on a sheet
 		{4.7e-3, Farad, Text, "4700 µF"},       // capacitances skip milli (graph/value, common practice)

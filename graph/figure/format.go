@@ -32,6 +32,10 @@ func Format(v float64, u Unit, m Medium) string {
 	switch {
 	case u == Decibel:
 		return fmt.Sprintf("%.1f dB", v)
+	case u == Degree:
+		// whole degrees: a margin read off a sweep is no finer
+		// (common practice)
+		return fmt.Sprintf("%.0f°", v)
 	case u == Ratio || !u.known():
 		return Plain(v)
 	case u == Second && math.Abs(v) >= secondsPlain:
