@@ -109,6 +109,11 @@ var figureNames = []figName{
 	{name: "gain_closed_loop", label: "closed-loop gain"},
 	{name: "gain_open_loop", label: "open-loop gain"},
 	{name: "nfb_fraction", label: "feedback fraction β"},
+	// a feedback loop's margins off its return ratio (loopmargin.go)
+	{name: "phase_margin", label: "phase margin"},
+	{name: "phase_margin_at", label: "phase margin at"},
+	{name: "gain_margin", label: "gain margin", inDB: true},
+	{name: "gain_margin_at", label: "gain margin at"},
 	{name: "r_out", label: "r out"},
 	{name: "r_in", label: "r in"},
 	{name: "r", label: "r"},

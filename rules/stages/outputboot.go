@@ -143,6 +143,19 @@ func transferAt(c *graph.Circuit, in, out string, f float64) (float64, bool) {
 	return g, true
 }
 
+// transferAtC is V(out)/V(in) at f with in driven, as solved: complex.
+func transferAtC(c *graph.Circuit, in, out string, f float64) (complex128, bool) {
+	r, err := ac.NewTransfer(c, in, out, gangMid.options())
+	if err != nil {
+		return 0, false
+	}
+	h, err := r.At(f)
+	if err != nil || cmplx.IsNaN(h) || cmplx.IsInf(h) {
+		return 0, false
+	}
+	return h, true
+}
+
 // resistorZ is what a load resistor r from top to tap presents to the
 // circuit, |r·V(top)/(V(top) − V(tap))|, with 1 A driven into net at f: r
 // itself with its tap at AC ground, far more where the tap follows the

@@ -2,7 +2,6 @@ package stages
 
 import (
 	"fmt"
-	"math"
 
 	"pare/graph"
 	"pare/graph/figure"
@@ -11,18 +10,21 @@ import (
 // Overall negative feedback into a stage's common lead
 // (patterns/amp-common-feedback.toml): a resistor Rf from a later point of
 // the signal path (an output transformer's secondary) to the top of the
-// unbypassed part Ru of the stage's lead. The feedback in decibels is how
-// far the loop lowers the gain from the stage's control electrode to Rf's
-// far end: 20·log10(A open / A closed) = 20·log10(1 + Aβ) (handbook
-// feedback amplifier, from memory; docs/references.md §38), with the loop
-// opened the usual loaded way: Rf's far end put at chassis, so the lead
-// and the output keep the load Rf puts on them. A DC-blocking capacitor in
-// series with Rf is part of the path: the solver counts its reactance.
+// unbypassed part Ru of the stage's lead. The feedback in decibels is
+// 20·log10|1 + T|, T the loop's return ratio solved with the loop broken
+// at Rf's far end (returnratio.go; docs/references.md §46), at the middle
+// of the band; the formula 20·log10|1 + A·β| with β = Ru/(Ru + Rf) is its
+// cross-check (handbook feedback amplifier, from memory; §38). The gains
+// from the control electrode to Rf's far end with the loop closed and
+// opened the usual loaded way (Rf's far end put at chassis, so the lead
+// and the output keep the load Rf puts on them) are shown beside it. A
+// DC-blocking capacitor in series with Rf is part of the path: the solver
+// counts its reactance.
 func init() {
 	calcs["overall-feedback"] = calc{args: []string{"device", "feedback", "series", "lead", "bias", "bypass"}, required: []string{"device", "feedback", "lead"}, fn: calcOverallFeedback}
 }
 
-var byFeedbackFraction = figure.ByFormula("feedback = 20·log10(1 + |A|·β), β = Ru/(Ru + Rf), A the open-loop gain in circuit")
+var byFeedbackFraction = figure.ByFormula("feedback = 20·log10|1 + A·β|, β = Ru/(Ru + Rf), A the complex open-loop gain in circuit")
 
 func calcOverallFeedback(x *figCtx) {
 	q, rf, ru := x.part("device"), x.part("feedback"), x.part("lead")
@@ -49,23 +51,24 @@ func calcOverallFeedback(x *figCtx) {
 	if !ok {
 		return
 	}
-	at := hz(f) + ", " + gangMid.at
-	fdb := 20 * math.Log10(math.Abs(open)/math.Abs(closed))
-	check := figure.Figure{Name: "nfb", Unit: figure.Decibel, Value: 20 * math.Log10(1+math.Abs(open)*beta), Origin: byFeedbackFraction}
-	nfb := figure.Figure{Name: "nfb", Unit: figure.Decibel, Value: fdb,
-		Origin: figure.BySolver("20·log10 of V("+fb+")/V("+g+") with "+rf.Ref+"'s far end at chassis over the same closed", at)}
-	nfb.Check = &check
-	if figure.Differs(fdb, check.Value) {
-		nfb.Why = fmt.Sprintf("the formula takes β from %s and %s alone; in circuit the valve's own cathode impedance (or the transistor's emitter's) shunts %s and the loop's phase is not 0° at %s",
-			ru.Ref, rf.Ref, ru.Ref, hz(f))
+	a, ok := transferAtC(feedbackOpened(x.solverCircuit(), rf, fb, x.w.names[groundNet]), g, fb, f)
+	if !ok {
+		x.st.unconfirmed = fmt.Sprintf("the solver gives no gain from %s to %s with the loop through %s opened", g, fb, rf.Ref)
+		return
 	}
-	x.put(nfb)
+	check := figure.Figure{Value: feedbackDB(a * complex(beta, 0)), Origin: byFeedbackFraction}
+	why := func() string {
+		return fmt.Sprintf("the formula takes β from %s and %s alone with %s's control electrode held; in circuit the valve's own cathode impedance (or the transistor's emitter's) shunts %s and the source driving %s moves with the returned signal",
+			ru.Ref, rf.Ref, q.Ref, ru.Ref, g)
+	}
+	at := hz(f) + ", " + gangMid.at
 	x.put(figure.Figure{Name: "gain_open_loop", Unit: figure.Ratio, Value: open,
 		Origin: figure.BySolver("V("+fb+")/V("+g+") with "+rf.Ref+"'s far end at chassis", at)})
 	x.put(figure.Figure{Name: "gain_closed_loop", Unit: figure.Ratio, Value: closed,
 		Origin: figure.BySolver("V("+fb+")/V("+g+")", at)})
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("%s brings %s's signal back into %s's %s across %s (the feedback injection); %s is the stage's bias",
 		rf.Ref, fb, q.Ref, electrodeWord(q), ru.Ref, x.biasRefs()))
+	x.putLoopFeedback(x.solverCircuit(), q, rf, fb, f, check, why)
 }
 
 // biasRefs names the bypassed part of the lead with its capacitor.

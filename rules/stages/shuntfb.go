@@ -15,7 +15,9 @@ import (
 // −Rf/Rin (handbook inverting feedback amplifier, from memory;
 // docs/references.md §38): that is the cross-check, the solver's figure on
 // the circuit as wired is the one shown. The loop is opened the loaded way,
-// as for feedback into a common lead: Rf's far end put at chassis.
+// as for feedback into a common lead: Rf's far end put at chassis. The
+// amount of feedback is |1 + T|, T the return ratio with the loop broken at
+// Rf's far end, with its margins (loopfb.go; §46).
 func init() {
 	calcs["shunt-feedback"] = calc{args: []string{"device", "input", "feedback"}, required: []string{"device", "input", "feedback"}, fn: calcShuntFeedback}
 }
@@ -66,11 +68,25 @@ func calcShuntFeedback(x *figCtx) {
 	x.put(gain)
 	x.put(figure.Figure{Name: "gain_open_loop", Unit: figure.Ratio, Value: open,
 		Origin: figure.BySolver("V("+fb+")/V("+src+") with "+rf.Ref+"'s far end at chassis", at)})
-	x.put(figure.Figure{Name: "nfb", Unit: figure.Decibel, Value: 20 * math.Log10(math.Abs(open)/math.Abs(closed)),
-		Origin: figure.BySolver("20·log10 of V("+fb+")/V("+src+") with "+rf.Ref+"'s far end at chassis over the same closed", at)})
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("%s brings %s's signal back to %s's %s, where it meets the input through %s: the gain is set by the two resistors",
 		rf.Ref, fb, q.Ref, ControlWord(q), rin.Ref))
+	// the formula's loop: the gain from the electrode to Rf's far end, the
+	// loop opened, returned through the divider Rf and Rin make (an
+	// inverting gain, so T = −A·β)
+	a, ok := transferAtC(feedbackOpened(x.solverCircuit(), rf, fb, x.w.names[groundNet]), g, fb, f)
+	if !ok {
+		x.st.unconfirmed = fmt.Sprintf("the solver gives no gain from %s to %s with the loop through %s opened", g, fb, rf.Ref)
+		return
+	}
+	beta := rin.Value.Max / (rin.Value.Max + rf.Value.Max)
+	nfbCheck := figure.Figure{Value: feedbackDB(-a * complex(beta, 0)), Origin: byShuntFraction}
+	x.putLoopFeedback(x.solverCircuit(), q, rf, fb, f, nfbCheck, func() string {
+		return fmt.Sprintf("the formula returns the signal through %s and %s alone; in circuit what else hangs on %s (bias resistors, the device's own input) takes part of it, and what drives %s moves with it",
+			rf.Ref, rin.Ref, g, src)
+	})
 }
+
+var byShuntFraction = figure.ByFormula("feedback = 20·log10|1 − A·β|, β = Rin/(Rin + Rf), A the complex open-loop gain in circuit from the control electrode")
 
 // farDist is netDist for a circuit net, leaving out the given parts.
 func (x *figCtx) farDist(net string, skip ...*graph.Part) int {

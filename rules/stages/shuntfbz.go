@@ -88,14 +88,20 @@ func calcShuntFeedbackZ(x *figCtx) {
 			zin.Why = fmt.Sprintf("Miller's theorem takes the gain as real; in circuit the loop's phase at %s and what loads %s move it", hz(f), fb)
 		}
 	}
-	x.put(figure.Figure{Name: "nfb", Unit: figure.Decibel, Value: 20 * math.Log10(open/closed),
-		Origin: figure.BySolver("20·log10 of |Z| into "+g+" with "+rf.Ref+"'s far end at chassis over the same as wired", at)})
 	x.put(zin)
 	x.put(figure.Figure{Name: "z_in_open", Unit: figure.Ohm, Value: open,
 		Origin: figure.BySolver("|Z| into "+g+" with "+rf.Ref+"'s far end at chassis", at)})
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("%s brings %s's signal back to %s's %s in antiphase: the impedance there falls from %s to %s in circuit",
 		rf.Ref, fb, q.Ref, ControlWord(q), figure.Format(open, figure.Ohm, figure.Text), figure.Format(closed, figure.Ohm, figure.Text)))
+	// Blackman's impedance formula: with the electrode's own source open
+	// the impedance there falls by |1 + T| (handbook, from memory; §46)
+	check := figure.Figure{Value: 20 * math.Log10(open/closed), Origin: byBlackmanZ}
+	x.putLoopFeedback(c, q, rf, fb, f, check, func() string {
+		return fmt.Sprintf("the impedance with %s's far end at chassis is not quite the loop's own with T at 0: %s then loads %s", rf.Ref, rf.Ref, g)
+	})
 }
+
+var byBlackmanZ = figure.ByFormula("feedback = 20·log10 of |Z| into the electrode with Rf's far end at chassis over the same as wired (Blackman: Z falls by |1 + T|)")
 
 // seriesInputs are the declared inputs that reach net g through nothing
 // but a chain of two-terminal passives (a coupling capacitor, a series
