@@ -11,15 +11,22 @@ import (
 	"pare/graph/value"
 )
 
-// putLoopFeedback writes what the overall-feedback calcs share, solved on
-// c (the solver's circuit, its inputs held or freed as the calc drives it)
-// with the loop broken at rf's end on fb (returnratio.go): the amount of
-// feedback |1 + T| at f in decibels, with check (the calc's formula) beside
-// it and why saying why they differ; the loop's phase and gain margins
-// (loopmargin.go); and notes saying what T is at f, at the band's ends
-// and 1 kHz, and where the margins were found. Where the solver gives no
-// return ratio the stage is left unconfirmed and it returns false.
-func (x *figCtx) putLoopFeedback(c *graph.Circuit, q, rf *graph.Part, fb string, f float64, check figure.Figure, why func() string) bool {
+// putLoopFeedback writes what the overall-feedback calcs share, solved
+// with the loop broken at rf's end on fb (returnratio.go), on the circuit
+// loopCircuit chooses, its declared inputs held at 0 V, or freed where
+// free (the electrode's own source open, as an impedance is solved): the
+// amount of feedback |1 + T| at f in decibels, with check (the calc's
+// formula) beside it and why saying why they differ; the loop's phase and
+// gain margins (loopmargin.go); and notes saying what T is at f, at the
+// band's ends and 1 kHz, and where the margins were found. Where the
+// solver gives no return ratio the stage is left unconfirmed and it
+// returns false.
+func (x *figCtx) putLoopFeedback(free bool, q, rf *graph.Part, fb string, f float64, check figure.Figure, why func() string) bool {
+	c, where := x.loopCircuit(q, rf)
+	if free {
+		g := q.NetOf(q.PinWithRole(graph.RoleControl))
+		c = freeInputs(c, seriesInputs(c, g)...)
+	}
 	loop, ok := newLoopReturn(c, rf, fb, x.w.names[groundNet])
 	t, ok2 := loop.at(f)
 	if !ok || !ok2 {
@@ -28,7 +35,7 @@ func (x *figCtx) putLoopFeedback(c *graph.Circuit, q, rf *graph.Part, fb string,
 	}
 	at := hz(f) + ", " + gangMid.at
 	nfb := figure.Figure{Name: "nfb", Unit: figure.Decibel, Value: feedbackDB(t),
-		Origin: figure.BySolver("20·log10|1 + T|, T the return ratio: "+rf.Ref+"'s end on "+fb+" lifted and driven, a replica of it loading "+fb+", the inputs held at 0 V", at)}
+		Origin: figure.BySolver("20·log10|1 + T|, T the return ratio on "+where+": "+rf.Ref+"'s end on "+fb+" lifted and driven, a replica of it loading "+fb+", "+inputsWord(free), at)}
 	check.Name, check.Unit = "nfb", figure.Decibel
 	nfb.Check = &check
 	if figure.Differs(nfb.Value, check.Value) {
@@ -44,6 +51,30 @@ func (x *figCtx) putLoopFeedback(c *graph.Circuit, q, rf *graph.Part, fb string,
 	}
 	x.putMargins(rf, below, above, band.Min/marginReach, band.Max*marginReach)
 	return true
+}
+
+// loopCircuit is the circuit a feedback loop is solved on, and its name
+// in an origin: the circuit as captured where it holds rf between the
+// same nets and q (the reduction is proven over the band, not three
+// decades past it: a decoupler it took for AC ground turns the loop's
+// phase below the band, where its margin is read), else the solver's.
+func (x *figCtx) loopCircuit(q, rf *graph.Part) (*graph.Circuit, string) {
+	if x.w.orig != nil {
+		oc := x.w.orig.c
+		p, d := oc.Part(rf.Ref), oc.Part(q.Ref)
+		if p != nil && d != nil && len(p.Pins) == 2 && onBoth(p, rf.Pins[0].Net, rf.Pins[1].Net) {
+			return oc, "the circuit as captured"
+		}
+	}
+	return x.solverCircuit(), "the reduced circuit"
+}
+
+// inputsWord says how the loop's solve treats the declared inputs.
+func inputsWord(free bool) string {
+	if free {
+		return "the electrode's own input freed"
+	}
+	return "the inputs held at 0 V"
 }
 
 // loopNote says what the loop is at f and how much feedback is left at
@@ -104,8 +135,8 @@ func (x *figCtx) putMargins(rf *graph.Part, below, above marginSide, lo, hi floa
 	x.st.Notes = append(x.st.Notes, note)
 	for _, s := range []marginSide{below, above} {
 		if s.pmFound && s.pm <= 0 {
-			x.flag("the loop through %s has turned %s past 180° where its gain falls to 1 (%s): by its return ratio the amplifier oscillates there",
-				rf.Ref, figure.Format(-s.pm, figure.Degree, figure.Text), hz(s.pmAt))
+			x.flag("the loop through %s has turned %s past 180° where its gain falls to 1 (%s): by its return ratio the amplifier is unstable and oscillates%s",
+				rf.Ref, figure.Format(-s.pm, figure.Degree, figure.Text), hz(s.pmAt), oscillatesNear(s.over180At))
 		}
 	}
 }
@@ -134,8 +165,11 @@ func (s marginSide) words() string {
 	default:
 		parts = append(parts, fmt.Sprintf("|T| does not cross 1 (%.3g at %s, the end of the sweep): no phase margin found", s.end.mag(), hz(s.end.f)))
 	}
-	if s.conditionalAt > 0 {
-		parts = append(parts, fmt.Sprintf("the phase reaches 180° at %s with |T| above 1 and turns back: conditionally stable, it can burst into oscillation when the gain falls (overload, a weak device)", hz(s.conditionalAt)))
+	switch {
+	case s.over180At > 0 && s.pmFound && s.pm > 0:
+		parts = append(parts, fmt.Sprintf("the phase reaches 180° at %s with |T| above 1 and turns back: conditionally stable, it can burst into oscillation when the gain falls (overload, a weak device)", hz(s.over180At)))
+	case s.over180At > 0:
+		parts = append(parts, fmt.Sprintf("the phase passes 180° at %s with |T| above 1", hz(s.over180At)))
 	}
 	if s.gmFound {
 		parts = append(parts, fmt.Sprintf("%s of gain margin where the phase reaches 180° at %s", figure.Format(s.gm, figure.Decibel, figure.Text), hz(s.gmAt)))
@@ -143,4 +177,14 @@ func (s marginSide) words() string {
 		parts = append(parts, "its phase does not reach 180° with |T| below 1")
 	}
 	return strings.Join(parts, ", ")
+}
+
+// oscillatesNear says where an unstable loop runs: near the frequency its
+// phase passed 180° with gain to spare (the loop's own frequency moves
+// with the limiting that stops it growing), if the sweep found it.
+func oscillatesNear(f float64) string {
+	if f <= 0 {
+		return ""
+	}
+	return " near " + hz(f) + ", where its phase passes 180° with |T| above 1"
 }

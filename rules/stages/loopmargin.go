@@ -50,10 +50,12 @@ type marginSide struct {
 	gm, gmAt float64
 	gmFound  bool
 	peak     float64 // the largest |T| on the side
-	// conditionalAt is where the phase first reached 180° with |T| still
-	// above 1; 0 where it did not
-	conditionalAt float64
-	end           loopPoint
+	// over180At is where the phase first reached 180° with |T| still
+	// above 1 (a conditionally stable loop's, where the phase turns back
+	// before |T| falls to 1, an oscillating one's otherwise); 0 where it
+	// did not
+	over180At float64
+	end       loopPoint
 }
 
 // point solves T at f, its phase unwrapped against prev.
@@ -109,8 +111,8 @@ func (l loopReturn) step(prev loopPoint, f float64, depth int) ([]loopPoint, boo
 
 // read takes the margins a step from a to b crosses: the first |T| = 1,
 // and the first 180° with |T| below 1. A 180° with |T| above 1 before
-// that is a conditionally stable loop's (or an oscillating one's, which
-// its phase margin says): noted, not a margin.
+// that is a conditionally stable loop's, or an oscillating one's (its
+// phase margin says which): noted, not a margin.
 func (s *marginSide) read(l loopReturn, a, b loopPoint) {
 	s.peak = math.Max(s.peak, b.mag())
 	if !s.pmFound && (a.mag()-1)*(b.mag()-1) <= 0 && a.mag() != b.mag() {
@@ -122,8 +124,8 @@ func (s *marginSide) read(l loopReturn, a, b loopPoint) {
 	}
 	p := l.bisect(a, b, func(p loopPoint) float64 { return math.Abs(p.phase) - 180 })
 	if p.mag() >= 1 {
-		if s.conditionalAt == 0 {
-			s.conditionalAt = p.f
+		if s.over180At == 0 {
+			s.over180At = p.f
 		}
 		return
 	}

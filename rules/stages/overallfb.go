@@ -68,7 +68,7 @@ func calcOverallFeedback(x *figCtx) {
 		Origin: figure.BySolver("V("+fb+")/V("+g+")", at)})
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("%s brings %s's signal back into %s's %s across %s (the feedback injection); %s is the stage's bias",
 		rf.Ref, fb, q.Ref, electrodeWord(q), ru.Ref, x.biasRefs()))
-	x.putLoopFeedback(x.solverCircuit(), q, rf, fb, f, check, why)
+	x.putLoopFeedback(false, q, rf, fb, f, check, why)
 }
 
 // biasRefs names the bypassed part of the lead with its capacitor.

@@ -80,7 +80,7 @@ func calcShuntFeedback(x *figCtx) {
 	}
 	beta := rin.Value.Max / (rin.Value.Max + rf.Value.Max)
 	nfbCheck := figure.Figure{Value: feedbackDB(-a * complex(beta, 0)), Origin: byShuntFraction}
-	x.putLoopFeedback(x.solverCircuit(), q, rf, fb, f, nfbCheck, func() string {
+	x.putLoopFeedback(false, q, rf, fb, f, nfbCheck, func() string {
 		return fmt.Sprintf("the formula returns the signal through %s and %s alone; in circuit what else hangs on %s (bias resistors, the device's own input) takes part of it, and what drives %s moves with it",
 			rf.Ref, rin.Ref, g, src)
 	})

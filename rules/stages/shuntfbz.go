@@ -96,7 +96,7 @@ func calcShuntFeedbackZ(x *figCtx) {
 	// Blackman's impedance formula: with the electrode's own source open
 	// the impedance there falls by |1 + T| (handbook, from memory; §46)
 	check := figure.Figure{Value: 20 * math.Log10(open/closed), Origin: byBlackmanZ}
-	x.putLoopFeedback(c, q, rf, fb, f, check, func() string {
+	x.putLoopFeedback(true, q, rf, fb, f, check, func() string {
 		return fmt.Sprintf("the impedance with %s's far end at chassis is not quite the loop's own with T at 0: %s then loads %s", rf.Ref, rf.Ref, g)
 	})
 }
