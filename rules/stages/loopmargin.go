@@ -6,7 +6,7 @@ import (
 )
 
 // A feedback loop's stability margins, read off its return ratio T swept
-// over frequency (Bode's margins, from memory; docs/references.md §46):
+// over frequency (Bode's margins, from memory; docs/references.md §49):
 // where |T| falls to 1 the phase margin is how far T's phase is from
 // 180°, and where the phase reaches 180° the gain margin is how far |T|
 // is below 1. An audio amplifier's loop has both ends to watch: below the

@@ -12,7 +12,7 @@ import (
 // the signal path (an output transformer's secondary) to the top of the
 // unbypassed part Ru of the stage's lead. The feedback in decibels is
 // 20·log10|1 + T|, T the loop's return ratio solved with the loop broken
-// at Rf's far end (returnratio.go; docs/references.md §46), at the middle
+// at Rf's far end (returnratio.go; docs/references.md §49), at the middle
 // of the band; the formula 20·log10|1 + A·β| with β = Ru/(Ru + Rf) is its
 // cross-check (handbook feedback amplifier, from memory; §38). The gains
 // from the control electrode to Rf's far end with the loop closed and

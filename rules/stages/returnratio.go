@@ -13,7 +13,7 @@ import (
 // complex number, so a loop through transformers and coupling capacitors
 // (each turning the phase towards the band's ends) has less feedback there
 // than 1 + |T| says, and can have less than none (handbook feedback
-// amplifier, Black's formula, from memory; docs/references.md §46). The
+// amplifier, Black's formula, from memory; docs/references.md §49). The
 // loop is broken at the feedback resistor's far end, the usual loaded
 // way: that end lifted off the output and driven by 1 V, a replica of the
 // resistor (and of whatever stands across it: a phase-advance capacitor)

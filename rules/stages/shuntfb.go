@@ -17,7 +17,7 @@ import (
 // the circuit as wired is the one shown. The loop is opened the loaded way,
 // as for feedback into a common lead: Rf's far end put at chassis. The
 // amount of feedback is |1 + T|, T the return ratio with the loop broken at
-// Rf's far end, with its margins (loopfb.go; §46).
+// Rf's far end, with its margins (loopfb.go; §49).
 func init() {
 	calcs["shunt-feedback"] = calc{args: []string{"device", "input", "feedback"}, required: []string{"device", "input", "feedback"}, fn: calcShuntFeedback}
 }

@@ -94,7 +94,7 @@ func calcShuntFeedbackZ(x *figCtx) {
 	x.st.Notes = append(x.st.Notes, fmt.Sprintf("%s brings %s's signal back to %s's %s in antiphase: the impedance there falls from %s to %s in circuit",
 		rf.Ref, fb, q.Ref, ControlWord(q), figure.Format(open, figure.Ohm, figure.Text), figure.Format(closed, figure.Ohm, figure.Text)))
 	// Blackman's impedance formula: with the electrode's own source open
-	// the impedance there falls by |1 + T| (handbook, from memory; §46)
+	// the impedance there falls by |1 + T| (handbook, from memory; §49)
 	check := figure.Figure{Value: 20 * math.Log10(open/closed), Origin: byBlackmanZ}
 	x.putLoopFeedback(true, q, rf, fb, f, check, func() string {
 		return fmt.Sprintf("the impedance with %s's far end at chassis is not quite the loop's own with T at 0: %s then loads %s", rf.Ref, rf.Ref, g)

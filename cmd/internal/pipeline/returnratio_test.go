@@ -21,7 +21,7 @@ import (
 )
 
 // Overall feedback is |1 + T|, T the loop's complex return ratio, with
-// the loop's margins off T swept over frequency (docs/references.md §46).
+// the loop's margins off T swept over frequency (docs/references.md §49).
 // Checked on the twelfth blind review's two amplifiers with overall
 // feedback and on an invented three-stage amplifier that motorboats
 // (testdata/feedback/three-stage-lf.toml), run as the main job runs,
@@ -208,7 +208,7 @@ func (s loopSweep) at(f float64) complex128 {
 // margins are the loop's smallest phase margin (where |T| crosses 1) and
 // gain margin (where the phase, unwrapped, reaches ±180° with |T| below
 // 1), each with where it is, over the whole sweep, by Bode's definitions
-// (docs/references.md §46), read between points on log frequency. The
+// (docs/references.md §49), read between points on log frequency. The
 // phase is unwrapped along the sweep and taken on the branch where it
 // lies within ±180° at mid, where negative feedback has it near 0°.
 func (s loopSweep) margins(mid float64) (pm, pmAt, gm, gmAt float64) {
