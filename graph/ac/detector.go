@@ -23,6 +23,7 @@ import (
 // capacitor passes no DC: so the loads are taken once from the circuit as
 // written (KeepDetectorLoads) and the reduced circuit keeps them.
 type dcNet struct {
+	c       *graph.Circuit // the circuit it was built from (loopLoad)
 	uf      *graph.NamedSets
 	node    map[string]int // representative net -> unknown; -1 the return
 	n       int
@@ -43,7 +44,7 @@ const (
 	noLoadOhms = 1e11  // a load this high is no DC path at all
 )
 
-func newDCNet(c *graph.Circuit) *dcNet {
+func newDCNet(c *graph.Circuit, conducting ...section) *dcNet {
 	uf := &graph.NamedSets{}
 	for _, n := range c.Nets {
 		if dcReturn(n) {
@@ -90,7 +91,10 @@ func newDCNet(c *graph.Circuit) *dcNet {
 			}
 		}
 	}
-	d := &dcNet{uf: uf, node: map[string]int{}, loads: map[[2]string]float64{}}
+	for _, sc := range conducting {
+		joinPins(uf, sc.p, sc.a, sc.k)
+	}
+	d := &dcNet{c: c, uf: uf, node: map[string]int{}, loads: map[[2]string]float64{}}
 	ground := uf.Find(groundName)
 	id := func(net string) int {
 		r := uf.Find(net)
@@ -195,7 +199,7 @@ func (st *stamper) detectorLoad(p *graph.Part, anodes []string, a, cathode strin
 		if st.dc.net == nil {
 			st.dc.net = newDCNet(st.c)
 		}
-		l = st.dc.net.load(p.NetOf(a), p.NetOf(cathode))
+		l = st.dc.net.sectionLoad(p, a, cathode)
 	}
 	return float64(sharing(p, anodes, a)) * l
 }
@@ -259,7 +263,7 @@ func KeepDetectorLoads(c *graph.Circuit) {
 			d = newDCNet(c)
 		}
 		for _, a := range anodes {
-			loads[p.Ref+"."+a] = d.load(p.NetOf(a), p.NetOf(cathode))
+			loads[p.Ref+"."+a] = d.sectionLoad(p, a, cathode)
 		}
 	}
 	c.DetectorLoads = loads
@@ -277,7 +281,7 @@ func DetectorLoad(c *graph.Circuit, p *graph.Part) float64 {
 	if l, ok := c.DetectorLoads[p.Ref+"."+anodes[0]]; ok {
 		return l
 	}
-	return newDCNet(c).load(p.NetOf(anodes[0]), p.NetOf(cathode))
+	return newDCNet(c).sectionLoad(p, anodes[0], cathode)
 }
 
 // withDetectorLoads is reduced with the detector loads of orig when it
@@ -350,7 +354,7 @@ func DetectorLoads(c *graph.Circuit, ps []*graph.Part) map[string]float64 {
 			if d == nil {
 				d = newDCNet(c)
 			}
-			out[k] = d.load(p.NetOf(a), p.NetOf(cathode))
+			out[k] = d.sectionLoad(p, a, cathode)
 		}
 	}
 	return out
