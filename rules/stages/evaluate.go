@@ -5,6 +5,7 @@ package stages
 
 import (
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -177,7 +178,7 @@ func Unmatched(c *graph.Circuit, stages []Stage) []string {
 }
 
 // sharesCoil reports whether two stages' figures are calculated on the
-// same coil (the circuit part each pattern's `coil` argument binds; both
+// same coil (the circuit part each pattern's `coil` or `xfmr` argument binds; both
 // stages come from one search, so one numbering of parts).
 func sharesCoil(a, b *found) bool {
 	ca := figureCoils(a)
@@ -192,7 +193,8 @@ func sharesCoil(a, b *found) bool {
 func figureCoils(f *found) map[int]bool {
 	out := map[int]bool{}
 	for _, spec := range f.m.v.p.Figures {
-		for _, name := range spec.Args["coil"] {
+		names := append(slices.Clone(spec.Args["coil"]), spec.Args["xfmr"]...)
+		for _, name := range names {
 			for i, vp := range f.m.v.parts {
 				if vp.pp.Name == name && f.m.parts[i] >= 0 {
 					out[f.m.parts[i]] = true

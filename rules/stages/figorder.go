@@ -37,6 +37,12 @@ var figureNames = []figName{
 	{name: "f", label: "f"},
 	// an oscillator's tank resonance without its loop, beside the loop's f
 	{name: "f_tank", label: "tank alone"},
+	// an FM detector's S-curve (discriminator.go): its zero, where both
+	// diodes are driven alike, and its two peaks; the centre first, what the detector is aligned to
+	{name: "f_centre", label: "centre"},
+	{name: "s_peak_sep", label: "S-curve peaks apart"},
+	{name: "s_peak_lo", label: "S-curve peak, low"},
+	{name: "s_peak_hi", label: "S-curve peak, high"},
 	{name: "f1", label: "f1"},
 	{name: "f2", label: "f2"},
 	{name: "if", label: "IF"},
@@ -81,6 +87,8 @@ var figureNames = []figName{
 	{name: "f_c", label: "f c"},
 	{name: "f_c_unloaded", label: "f c (unloaded)"},
 	{name: "tau", label: "tau"},
+	// a de-emphasis network's level below its corner, its load's cost
+	{name: "pass_level", label: "level below the corner", inDB: true},
 	{name: "r_dyn", label: "dynamic R"},
 	{name: "tap_share", label: "tap share"},
 	{name: "z_in", label: "Zin"},

@@ -151,24 +151,66 @@ const partlyBypassed = "Common-{common} amplifier, {common} resistor partly bypa
 const weakBypass = "Common-{common} amplifier, {common} bypass weak at the band's low end ({family})"
 
 // lowPassCorner is where V(out)/V(in) falls 3 dB below its pass band
-// level, the most of |H| between guess/cornerSpan and guess, the −3 dB
-// point searched up to guess·cornerSpan.
+// level, the −3 dB point searched up to guess·cornerSpan. The pass band
+// level is the most of |H| between guess/cornerSpan and guess, unless the
+// response still climbs at the bottom of that span (passBand): a section
+// whose load hangs from it through a coupling capacitor (a de-emphasis
+// into the volume control) is unloaded only near DC, where that capacitor
+// blocks; its pass band is the flat stretch between the two corners, with
+// the load in place (review23 b03: 10 k and 4n7 into 47 k through 1 µ fall
+// 3 dB at 4.113 kHz in the reviewer's ngspice deck, not at 1/(2πRC) =
+// 3.386 kHz).
 func lowPassCorner(c *graph.Circuit, in, out string, guess float64) (float64, bool) {
+	f, _, ok := lowPassBand(c, in, out, guess)
+	return f, ok
+}
+
+// lowPassBand is lowPassCorner with the pass band's level it was taken
+// from: |V(out)/V(in)| on the flat, what a load costs the section there.
+func lowPassBand(c *graph.Circuit, in, out string, guess float64) (fc, level float64, ok bool) {
 	r, err := ac.NewTransfer(c, in, out, gangMid.options())
 	if err != nil {
-		return 0, false
+		return 0, 0, false
 	}
+	const steps = 12
+	fs := make([]float64, steps+1)
+	ms := make([]float64, steps+1)
 	top, level := 0.0, 0.0
-	for i := 0; i <= 12; i++ {
-		f := guess / math.Pow(cornerSpan, float64(i)/12)
-		if m := magnitude(r, f); m > level {
-			top, level = f, m
+	for i := range fs {
+		fs[i] = guess / math.Pow(cornerSpan, float64(i)/steps)
+		ms[i] = magnitude(r, fs[i])
+		if ms[i] > level {
+			top, level = fs[i], ms[i]
 		}
 	}
 	if level == 0 {
-		return 0, false
+		return 0, 0, false
 	}
-	return crossing(r, level/math.Sqrt2, top, guess*cornerSpan)
+	if f, m, ok := passBand(fs, ms); ok {
+		top, level = f, m
+	}
+	fc, ok = crossing(r, level/math.Sqrt2, top, guess*cornerSpan)
+	return fc, level, ok
+}
+
+// passBand is the flattest step of a scan downward in f (fs, ms): its
+// upper point and level, ok only when that step is not the lowest, so the
+// response climbs again below it (a series capacitor to the load taking
+// the load off); a section flat to the bottom keeps its highest level.
+func passBand(fs, ms []float64) (f, m float64, ok bool) {
+	best, at := math.Inf(1), -1
+	for i := 0; i+1 < len(ms); i++ {
+		if !(ms[i] > 0) || !(ms[i+1] > 0) {
+			return 0, 0, false
+		}
+		if d := math.Abs(math.Log(ms[i] / ms[i+1])); d < best {
+			best, at = d, i
+		}
+	}
+	if at < 0 || at+2 >= len(ms) {
+		return 0, 0, false
+	}
+	return fs[at], ms[at], true
 }
 
 // rcNets are the nets of a series-shunt RC pair: the series part's free
@@ -207,11 +249,12 @@ func (x *figCtx) rcCorner(rp, cp *graph.Part, fc float64, highPass bool) {
 		x.put(check)
 		return
 	}
-	solve := lowPassCorner
+	var f, level float64
 	if highPass {
-		solve = highPassCorner
+		f, ok = highPassCorner(x.solverCircuit(), inNet, outNet, fc)
+	} else {
+		f, level, ok = lowPassBand(x.solverCircuit(), inNet, outNet, fc)
 	}
-	f, ok := solve(x.solverCircuit(), inNet, outNet, fc)
 	if !ok {
 		x.put(check)
 		return
@@ -222,6 +265,15 @@ func (x *figCtx) rcCorner(rp, cp *graph.Part, fc float64, highPass bool) {
 		return fmt.Sprintf("the formula takes %s and %s alone; in circuit what follows loads the section", rp.Ref, cp.Ref)
 	}
 	x.putChecked(sv, &check, why)
+	if x.word("tau", "") == "network" {
+		// τ names the network's design constant (a de-emphasis's 50 or
+		// 75 µs): it stays RC, the loaded corner beside it is the
+		// solver's, and so is what its load costs on the flat
+		if level > 0 {
+			x.set("pass_level", figure.Decibel, db(level), figure.BySolver("|V("+outNet+")/V("+inNet+")| on the flat below the corner", gangMid.at))
+		}
+		return
+	}
 	x.cornerTau(sv)
 }
 

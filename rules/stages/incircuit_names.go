@@ -67,18 +67,45 @@ func (x *figCtx) confirmTank(coil string) {
 	if !x.solve || x.st.group != "tuned" {
 		return
 	}
+	x.st.unconfirmed = x.tankDoubt(coil)
+}
+
+// tankDoubt says why the tank last solved (resonanceFigure) is not borne
+// out as a tuned circuit in circuit, "" when it is: no peak near its
+// formula resonance, a loaded Q under tankMinQ, or a peak far from every
+// band the set declares.
+func (x *figCtx) tankDoubt(coil string) string {
 	q := math.NaN()
 	if x.tankOK && len(x.tank.q) > 0 {
 		q = x.tank.q[len(x.tank.q)/2]
 	}
 	switch {
 	case !x.tankOK:
-		x.st.unconfirmed = "no peak in the impedance across " + coil + " near its formula resonance"
+		return "no peak in the impedance across " + coil + " near its formula resonance"
 	case math.IsNaN(q) || q < tankMinQ:
-		x.st.unconfirmed = fmt.Sprintf("the peak across %s has a Q of %s in circuit, below the %d a tuned circuit has", coil, qText(q), tankMinQ)
+		return fmt.Sprintf("the peak across %s has a Q of %s in circuit, below the %d a tuned circuit has", coil, qText(q), tankMinQ)
 	case !nearAnyBand(x.w.c, x.tank.f):
-		x.st.unconfirmed = fmt.Sprintf("the peak across %s lies at %s in circuit, far from every band and named frequency the set declares: not one of its tuned circuits", coil, hzText(x.tank.f[0]))
+		return fmt.Sprintf("the peak across %s lies at %s in circuit, far from every band and named frequency the set declares: not one of its tuned circuits", coil, hzText(x.tank.f[0]))
 	}
+	return ""
+}
+
+// doubtTank: in a stage that is not itself named a tuned circuit (a
+// detector, a mixer) a tank the solver does not bear out keeps the
+// stage, but its resonance and loaded Q are no figures of the circuit:
+// they are dropped and a note says the tank was not confirmed and why: a
+// winding that conducting diodes damp to a Q under tankMinQ has no
+// resonance to quote, and a false one is worse than none.
+func (x *figCtx) doubtTank(coil string) {
+	if !x.solve || x.st.group == "tuned" {
+		return
+	}
+	why := x.tankDoubt(coil)
+	if why == "" {
+		return
+	}
+	x.dropFigures("f", "q_loaded")
+	x.st.Notes = append(x.st.Notes, "tank "+coil+" not confirmed in circuit, so no resonance figure: "+why)
 }
 
 // tankBandSpan is how far outside every declared band and named

@@ -47,9 +47,20 @@ func calcDoubleTuned(x *figCtx) {
 	x.sub = withPart(x.solverCircuit(), x.w.uncoupled(ci, as[0], as[1]))
 	f1 := x.windingTank(ci, c1, x.parts("caps1"), "1")
 	ql1 := x.tankLoadedQ()
+	doubt := x.tankDoubt(p.Ref)
 	f2 := x.windingTank(ci, c2, x.parts("caps2"), "2")
 	ql2 := x.tankLoadedQ()
+	if doubt == "" {
+		doubt = x.tankDoubt(p.Ref)
+	}
 	x.sub = sub
+	if x.solve && x.st.group == "tuned" && doubt != "" {
+		// a side that is no tuned circuit in circuit (a winding its
+		// conducting diodes damp below tankMinQ) makes no double-tuned
+		// pair: the stage is dropped, as confirmTank drops a single tank
+		x.st.unconfirmed = doubt
+		return
+	}
 	k := p.K(c1.name, c2.name)
 	x.set("k", figure.Ratio, k, byCoupling)
 	q1, q2 := c1.q, c2.q

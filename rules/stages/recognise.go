@@ -103,10 +103,13 @@ func place(level *[]*found, f *found, parent *found) {
 	if inside, _ := relation(f.set, parent.set); !inside || !f.m.v.p.Inner || f.group == parent.group || len(f.set) == len(parent.set) {
 		return
 	}
-	if sharesCoil(f, parent) && parent.group == "oscillator" {
+	if sharesCoil(f, parent) && tunesOwnCoil(parent) {
 		// an oscillator's figures already give its tank's resonance with
 		// every capacitor of the tank counted; a tank stage inside it would
-		// repeat f on part of them (a Colpitts' gang without the divider)
+		// repeat f on part of them (a Colpitts' gang without the divider).
+		// An FM detector's give its transformer's two resonances: a
+		// double-tuned pair inside it would add a pass band its
+		// secondary, which drives the diodes, does not have
 		return
 	}
 	for _, t := range *level {
@@ -116,6 +119,20 @@ func place(level *[]*found, f *found, parent *found) {
 		}
 	}
 	*level = append(*level, f)
+}
+
+// tunesOwnCoil says whether a stage's own figures solve the coils it
+// holds: an oscillator's, or one whose pattern asks for a discriminator.
+func tunesOwnCoil(f *found) bool {
+	if f.group == "oscillator" {
+		return true
+	}
+	for _, fs := range f.m.v.p.Figures {
+		if fs.Calc == "discriminator" {
+			return true
+		}
+	}
+	return false
 }
 
 // sortTree orders each level of sub-stages by first part ref, so names do

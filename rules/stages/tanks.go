@@ -106,6 +106,7 @@ func calcTank(x *figCtx) {
 	x.tankFigures(c, x.parts("caps"))
 	x.loadedQ(c.ref, c.q)
 	x.confirmTank(c.ref)
+	x.doubtTank(c.ref)
 	if x.word("check", "") == "if" {
 		if f, ok := x.get("f"); ok && f.Range == nil {
 			x.checkIF(c.ref, f.Value)
