@@ -27,7 +27,15 @@ func (d *dcNet) sectionLoad(p *graph.Part, a, cathode string) float64 {
 	if !math.IsInf(l, 1) || d.c == nil {
 		return l
 	}
-	return loopLoad(d.c, p, a, cathode)
+	// remembered with the network's loads: each loop load builds and
+	// factors a network per diode on it
+	k := [2]string{"\x00loop " + p.Ref, a}
+	if r, ok := d.loads[k]; ok {
+		return r
+	}
+	r := loopLoad(d.c, p, a, cathode)
+	d.loads[k] = r
+	return r
 }
 
 // loopLoad is the load of a diode section whose current returns only

@@ -41,8 +41,8 @@ var figureNames = []figName{
 	// diodes are driven alike, and its two peaks; the centre first, what the detector is aligned to
 	{name: "f_centre", label: "centre"},
 	{name: "s_peak_sep", label: "S-curve peaks apart"},
-	{name: "s_peak_lo", label: "S-curve peak, low"},
-	{name: "s_peak_hi", label: "S-curve peak, high"},
+	{name: "s_peak_lo", label: "S-curve low peak"},
+	{name: "s_peak_hi", label: "S-curve high peak"},
 	{name: "f1", label: "f1"},
 	{name: "f2", label: "f2"},
 	{name: "if", label: "IF"},
