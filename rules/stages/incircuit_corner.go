@@ -150,7 +150,7 @@ const partlyBypassed = "Common-{common} amplifier, {common} resistor partly bypa
 // its corner inside the band.
 const weakBypass = "Common-{common} amplifier, {common} bypass weak at the band's low end ({family})"
 
-// lowPassCorner is where V(out)/V(in) falls 3 dB below its pass band
+// lowPassBand is where V(out)/V(in) falls 3 dB below its pass band
 // level, the −3 dB point searched up to guess·cornerSpan. The pass band
 // level is the most of |H| between guess/cornerSpan and guess, unless the
 // response still climbs at the bottom of that span (passBand): a section
@@ -160,13 +160,9 @@ const weakBypass = "Common-{common} amplifier, {common} bypass weak at the band'
 // the load in place (review23 b03: 10 k and 4n7 into 47 k through 1 µ fall
 // 3 dB at 4.113 kHz in the reviewer's ngspice deck, not at 1/(2πRC) =
 // 3.386 kHz).
-func lowPassCorner(c *graph.Circuit, in, out string, guess float64) (float64, bool) {
-	f, _, ok := lowPassBand(c, in, out, guess)
-	return f, ok
-}
-
-// lowPassBand is lowPassCorner with the pass band's level it was taken
-// from: |V(out)/V(in)| on the flat, what a load costs the section there.
+//
+// The level is returned with the corner: |V(out)/V(in)| on the flat, what
+// a load costs the section there.
 func lowPassBand(c *graph.Circuit, in, out string, guess float64) (fc, level float64, ok bool) {
 	r, err := ac.NewTransfer(c, in, out, gangMid.options())
 	if err != nil {
