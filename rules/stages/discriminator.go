@@ -27,9 +27,8 @@ var (
 // higher is no figure of either winding; a side the solver shows no tuned
 // circuit (loaded Q under tankMinQ) gets no resonance, a note instead. Then
 // the stage's own response: the S-curve, each diode's drive the IF voltage
-// across it and its load's bypass to the diodes' IF return (net "ret",
-// chassis when the pattern binds none), its zero the detector's centre and
-// its two peaks the span it detects linearly over.
+// across it and its load's bypass (diodeReturns), its zero the detector's
+// centre and its two peaks the span it detects linearly over.
 func calcDiscriminator(x *figCtx) {
 	i := x.index(x.spec.Args["xfmr"][0])
 	if i < 0 {
