@@ -34,7 +34,9 @@ import (
 // aerial circuit alone and the mixer opens a third page (looked at: the
 // RF stage reads whole where it was "Q1 stage" with its transformer a
 // separate frame on the next row).
-var emptyPagesCeiling = 209
+// 208 with an FM detector one stage holding its transformer, loads and
+// stabiliser (review23 b03's ratio detector, four frames before).
+var emptyPagesCeiling = 208
 
 // emptyPageShare is the share of a page's printable area under which the
 // review called a page of a view of several pages "mostly empty" (review20

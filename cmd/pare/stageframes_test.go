@@ -20,7 +20,10 @@ import (
 // to a decoupled supply line (rules/stages/supplykept.go, withSupplyLines),
 // 242 after (review21 b05: the preamp's collector load and upper bias
 // resistor in its own frame, not the next coupling's and the driver's).
-var stageFrameCeiling = struct{ strays, splits int }{242, 0}
+// 217 with an FM detector one stage holding its transformer, loads,
+// stabiliser and IF bypasses (review23 b03: its parts no longer strays of
+// four small frames).
+var stageFrameCeiling = struct{ strays, splits int }{217, 0}
 
 // TestFramesOwnTheirParts: a frame tells the reader "these parts are this
 // stage"; a part of no stage inside it, or a stage drawn in two frames,
