@@ -8,7 +8,7 @@ import (
 )
 
 // TestLoopDetectorLoad: a diode whose current returns only through other
-// diodes takes its share of the loop's load (docs/references.md §46; a
+// diodes takes its share of the loop's load (docs/references.md §50; a
 // ratio detector's input resistance is half its total load, common
 // practice). Before, each of a ratio detector's diodes had no DC load and
 // fell to VT/Id, 26 Ω, damping its secondary to a Q of 0.19.

@@ -72,7 +72,7 @@ func stagesHolding(st []Stage, refs ...string) []string {
 // reviewer's T3 and detector from testdata/review23/spice/b/c03.cir, the
 // diodes as 500 Ω); the reviewer's RESULTS.md gives T3's primary peak
 // 10.702 MHz (diodes at rest, driven through the strip) (docs/references.md
-// §46).
+// §50).
 func TestReview23RatioDetector(t *testing.T) {
 	got := findBiased(t, reviewCircuit(t, "review23", "b03.toml"))
 	det := stageOf(got, "fm-ratio-detector")
@@ -127,7 +127,7 @@ func TestReview23RatioDetector(t *testing.T) {
 // RESULTS.md, ngspice on c03.cir and c03de.cir): T1's peak 10.730 MHz,
 // T2's 10.7295 MHz; the de-emphasis with its 47k load through C14 −3 dB at
 // 4.113 kHz, 1.68 dB down on the flat, where 1/(2π·10k·4n7) gives
-// 3.386 kHz (docs/references.md §46).
+// 3.386 kHz (docs/references.md §50).
 func TestReview23StripAndDeEmphasis(t *testing.T) {
 	got := findBiased(t, reviewCircuit(t, "review23", "b03.toml"))
 	cases := []struct {
@@ -170,7 +170,7 @@ func TestReview23StripAndDeEmphasis(t *testing.T) {
 // one stage with its primary tuning, reference capacitor, choke and loads;
 // balanced, its centre stays by its secondary's tuning. Reference: ngspice
 // on rules/stages/testdata/fm/foster-seeley.cir, the same circuit with the
-// diodes as RL/2 = 50k (docs/references.md §46).
+// diodes as RL/2 = 50k (docs/references.md §50).
 func TestFosterSeeleyFigures(t *testing.T) {
 	c, err := graph.LoadFile(filepath.Join("..", "..", "graph", "ac", "testdata", "fm-discriminator.toml"))
 	if err != nil {
