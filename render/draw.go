@@ -43,6 +43,9 @@ type page struct {
 	paper         *Paper
 	foot          foot
 	footY, textMM float64
+	// a paged sheet's footer set in the bottom right corner (footcorner.go)
+	corner   footCorner
+	inCorner bool
 }
 
 // page sizes the sheet: wide enough for the drawing, the title and every

@@ -38,6 +38,10 @@ type flow struct {
 	supplyFlow map[string]int  // the whole sheet's (layout.SupplyFlow)
 	returns    map[string]bool // the whole sheet's bias returns (layout.BiasReturns)
 	cw, ch     float64         // the page's room for a row (0: no page)
+	// the page's printable height and its footer set in the corner
+	// (footcorner.go), where a page's lowest rows may go beside it
+	pageH  float64
+	corner footCorner
 	// starts are the rows, by index, that open a page where the rows
 	// were chosen with their pages (balance); nil: rows stack on a page
 	// while they fit
@@ -57,6 +61,9 @@ type flow struct {
 	feedsDone bool
 	keepCans  bool
 	nets      []string
+	// per stretch, the framed stretches an unframed one is wired to
+	// (strand.go), found when first asked for
+	home [][]int
 }
 
 // rowGap is the gap between rows on the flow's pages.
@@ -83,7 +90,10 @@ func newFlow(cfg Config, s *Sheet, bs []block, rows map[string]*layout.Result) *
 	}
 	if cfg.Page != nil {
 		f.cw, f.ch = cfg.Page.content()
-		f.ch -= 1 + cfg.footReserve(s)
+		f.pageH = f.ch
+		fl := (&drawer{cfg: cfg, sheet: s}).sharedFoot().layout
+		f.ch -= 1 + fl.h
+		f.corner = fl.corner()
 	}
 	for i, p := range s.Circuit.Parts {
 		f.part[p.Ref], f.at[p.Ref] = p, i

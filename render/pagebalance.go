@@ -88,7 +88,8 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 		m, n = m-1, n-1 // the loose parts' row stays last, for hostLoose
 	}
 	all := f.greedyPlan(ends, laid, 0, n, cw, avail, rowGap)
-	if all.pages < 2 {
+	stranded := f.stranded(ends[:n])
+	if all.pages < 2 && (!stranded || m > balanceMost) {
 		return ends, laid, nil, nil
 	}
 	// the greedy rows themselves, tightGap apart, when that takes fewer
@@ -107,23 +108,23 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 	// the window searched: the whole sheet when small, else its last two
 	// pages (a whole set's last page of one Zobel network)
 	w := 0
-	if m > balanceMost {
+	if m > balanceMost && all.pages > 1 {
 		w = all.starts[len(all.starts)-2]
 	}
 	lo := start(ends, w)
 	greedy := f.greedyPlan(ends, laid, w, n, cw, avail, rowGap)
-	if m-lo > balanceMost || greedy.splits == 0 && !f.worthSearch(greedy, laid[w:n], lo, m) {
+	if m-lo > balanceMost || greedy.splits == 0 && !stranded && !f.worthSearch(greedy, laid[w:n], lo, m) {
 		closer(all.pages)
 		return ends, laid, nil, nil
 	}
-	best, err := f.search(greedy, lo, m, cw, avail)
+	best, err := f.search(greedy, stranded, lo, m, cw, avail)
 	if err != nil {
 		return ends, laid, nil, err
 	}
 	// rows cut afresh for the tighter gap (the search's) come only after
 	// the greedy rows closer: cut afresh, review15 a05's decoupler went to
 	// the rectifier's row and its line's wires looped back to connectors
-	if !best.ok || closer(all.pages-greedy.pages+best.pages) {
+	if !best.ok || !stranded && closer(all.pages-greedy.pages+best.pages) {
 		closer(all.pages)
 		return ends, laid, nil, nil
 	}
@@ -162,8 +163,10 @@ func (f *flow) balance(ends []int, laid []*layout.Result, cw, avail float64) ([]
 // emptiest page bought by rows side by side emptied the page before it
 // (the example IF strip's detector row went over to the volume control's
 // page). It sets the flow's gap to the plan's.
-func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
+func (f *flow) search(greedy plan, stranded bool, lo, m int, cw, avail float64) (plan, error) {
 	rows := map[[2]int]rowFit{}
+	var least plan // with stranded rows: the plan of fewest pages the search found
+	leastGap := rowGap
 	for _, sides := range []bool{false, true} {
 		for _, gap := range []float64{rowGap, tightGap} {
 			s := &search{f: f, lo: lo, m: m, cw: cw, avail: avail, gap: gap, rows: rows, sides: sides}
@@ -173,6 +176,12 @@ func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
 			}
 			same := p.pages == greedy.pages && p.splits == greedy.splits
 			fewer := p.pages < greedy.pages && p.splits <= greedy.splits
+			// the greedy rows strand a part away from its stages
+			// (strand.go), which no row of the search does
+			fewer = fewer || stranded && p.pages <= greedy.pages && p.splits <= greedy.splits
+			if stranded && p.ok && (!least.ok || p.pages < least.pages) {
+				least, leastGap = p, gap
+			}
 			if p.ok && (fewer || !sides && (p.pages < greedy.pages || p.pages == greedy.pages && p.splits < greedy.splits ||
 				gap == rowGap && same && (p.cans < greedy.cans || p.cans == greedy.cans && p.least > greedy.least))) {
 				f.gap = gap
@@ -180,7 +189,9 @@ func (f *flow) search(greedy plan, lo, m int, cw, avail float64) (plan, error) {
 			}
 		}
 	}
-	return plan{}, nil
+	// rows that strand a part are refused even at a page more
+	f.gap = leastGap
+	return least, nil
 }
 
 // greedyPlan judges the greedy flow's rows [w, n) as pageResults stacks
@@ -203,7 +214,7 @@ func (f *flow) greedyPlan(ends []int, laid []*layout.Result, w, n int, cw, avail
 					p.splits++
 				}
 			}
-			p.pages, pg, parts = p.pages+1, newBand(cw, avail, gap), 0
+			p.pages, pg, parts = p.pages+1, f.band(cw, avail, gap), 0
 			p.starts = append(p.starts, p.rows)
 		}
 		pg.put(b, pt)

@@ -119,7 +119,7 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 			pt, ok = bands[n-1].at(b, f.beside[i])
 		}
 		if !ok {
-			pages, bands, stood = append(pages, &layout.Result{}), append(bands, newBand(cw, avail, f.rowGap())), append(stood, nil)
+			pages, bands, stood = append(pages, &layout.Result{}), append(bands, f.band(cw, avail, f.rowGap())), append(stood, nil)
 			pt = geom.Pt{}
 		}
 		n := len(bands) - 1

@@ -61,6 +61,10 @@ type footLayout struct {
 	cols    int
 	caution []string
 	h       float64
+	// the sheet's own column's width, a legend column's, and the caution
+	// unwrapped: what the corner footer is set from (footcorner.go)
+	headW, colW float64
+	cautionText string
 }
 
 // footLayout fits the block to the page's printable width: as many legend
@@ -87,7 +91,8 @@ func (d *drawer) footLayout() footLayout {
 	wrapAt := int(math.Max(cautionMin, (cw-headW-float64(cols)*colW-2)/small))
 	caution := layout.WrapWords(d.caution(), wrapAt)
 	lineH := symbol.LineH * furnitureW
-	return footLayout{cols: cols, caution: caution, h: float64(max(len(caution), legendRows))*lineH + 1.6}
+	return footLayout{cols: cols, caution: caution, h: float64(max(len(caution), legendRows))*lineH + 1.6,
+		headW: headW, colW: colW, cautionText: d.caution()}
 }
 
 // foot lays out the footer of page n of m: the shared layout with the
@@ -295,10 +300,19 @@ func (d *drawer) pagedPage(n, m int) page {
 	ft := d.foot(n, m)
 	pg := page{b: b, title: d.title(), lineH: symbol.LineH * furnitureW, cautionLines: ft.caution, paper: p, foot: ft}
 	needH := b.H() + 1 + ft.h
+	if needH > ch {
+		pg.corner, pg.inCorner = d.cornerPage(b, cw, ch)
+	}
 	f := math.Max(1, math.Max(b.W()/cw, needH/ch))
+	if pg.inCorner {
+		f = 1
+	}
 	k := mmPerUnit()
 	pg.W, pg.H, pg.m = p.W/k*f, p.H/k*f, marginMM/k*f
 	pg.footY = pg.m + ch*f - ft.h + 1
+	if pg.inCorner {
+		pg.footY = pg.m + ch - pg.corner.h + 1
+	}
 	pg.textMM = MinTextMM / f
 	d.ox = pg.m - b.X0
 	d.oy = pg.m - b.Y0
@@ -308,6 +322,10 @@ func (d *drawer) pagedPage(n, m int) page {
 // titleBlock writes the caution at the foot on the left and the title
 // block, boxed, at the foot on the right.
 func (d *drawer) titleBlock(pg page) {
+	if pg.inCorner {
+		d.titleCorner(pg)
+		return
+	}
 	k := d.cfg.Grid
 	cv := d.canvas
 	y := pg.footY + pg.lineH
@@ -315,12 +333,20 @@ func (d *drawer) titleBlock(pg page) {
 		cv.Text(pg.m*k, y*k, l, `class="sm"`)
 		y += pg.lineH
 	}
+	d.block(pg, pg.footY)
+}
+
+// block writes the title block, boxed, at the page's right margin from
+// height top down.
+func (d *drawer) block(pg page, top float64) {
+	k := d.cfg.Grid
+	cv := d.canvas
 	ft := pg.foot
 	x := pg.W - pg.m - ft.blockW
 	rows := ft.rows()
-	cv.Rect(x*k, pg.footY*k, ft.blockW*k, (float64(rows)*pg.lineH+0.6)*k, `class="fr"`)
+	cv.Rect(x*k, top*k, ft.blockW*k, (float64(rows)*pg.lineH+0.6)*k, `class="fr"`)
 	for c, col := range ft.block {
-		y = pg.footY + pg.lineH
+		y := top + pg.lineH
 		for _, l := range col {
 			cv.Text((x+0.5)*k, y*k, l, `class="sm"`)
 			y += pg.lineH

@@ -222,7 +222,7 @@ func (f *flow) pagesOf(laid []*layout.Result, cw, avail float64) int {
 			pt, ok = pg.at(b, f.beside[i])
 		}
 		if !ok {
-			pg, n = newBand(cw, avail, f.rowGap()), n+1
+			pg, n = f.band(cw, avail, f.rowGap()), n+1
 		}
 		pg.put(b, pt)
 		if big {

@@ -1,5 +1,7 @@
 package render
 
+import "pare/render/geom"
+
 // rowFit is a row tried by the search: its height, whether it goes on a
 // page beside others (fits), and whether it may be drawn at all (a row of
 // several stretches must fit the page; a lone stretch too big for it has
@@ -29,8 +31,11 @@ func (s *search) row(a, b int) (rowFit, error) {
 		return r, nil
 	}
 	var fit rowFit
-	if mixes(s.f.bs[a:b]) {
-		s.rows[k] = fit // a supply filter never shares a signal stage's row
+	if mixes(s.f.bs[a:b]) || s.f.strands(a, b) {
+		// a supply filter never shares a signal stage's row, nor does a
+		// part no frame holds stand on a row away from every stage it
+		// is wired to (strand.go)
+		s.rows[k] = fit
 		return fit, nil
 	}
 	if b-a == 1 || span(s.f.bs[a:b]) <= s.cw && !s.f.tooBig(a, b, s.cw, s.avail) {
@@ -70,7 +75,7 @@ func (s *search) page(a, b int, memo map[[2]int]stack) (stack, error) {
 		if !r.ok {
 			continue
 		}
-		st := stack{ok: true, h: r.h, ends: []int{c}, sides: []bool{false}}
+		st := stack{ok: true, h: r.h, ends: []int{c}, sides: []bool{false}, lowW: r.w, lowH: r.h}
 		if !r.shares {
 			st.alone = true // a page of its own: nothing after it on the page
 		}
@@ -94,7 +99,7 @@ func (s *search) page(a, b int, memo map[[2]int]stack) (stack, error) {
 			if !r2.shares || r.w+sideGap+r2.w > s.cw {
 				continue
 			}
-			two := stack{ok: true, h: max(r.h, r2.h), ends: []int{c, d}, sides: []bool{false, true}, beside: 1}
+			two := stack{ok: true, h: max(r.h, r2.h), ends: []int{c, d}, sides: []bool{false, true}, beside: 1, lowW: r.w + sideGap + r2.w, lowH: max(r.h, r2.h)}
 			if err := s.under(two, d, b, memo, &best); err != nil {
 				return best, err
 			}
@@ -122,8 +127,9 @@ func (s *search) under(st stack, c, b int, memo map[[2]int]stack, best *stack) e
 		st.ends = append(append([]int{}, st.ends...), rest.ends...)
 		st.sides = append(append([]bool{}, st.sides...), rest.sides...)
 		st.beside += rest.beside
+		st.lowW, st.lowH = rest.lowW, rest.lowH
 	}
-	if !st.alone && st.h > s.avail {
+	if !st.alone && st.h > s.avail && !s.besideCorner(st) {
 		return nil
 	}
 	if st.before(*best) {
@@ -135,11 +141,25 @@ func (s *search) under(st stack, c, b int, memo map[[2]int]stack, best *stack) e
 // stack is the rows of one page: sides marks, per row, one standing
 // right of the row before; beside counts them.
 type stack struct {
-	ok, alone bool
-	h         float64
-	ends      []int
-	sides     []bool
-	beside    int
+	ok, alone  bool
+	h          float64
+	ends       []int
+	sides      []bool
+	beside     int
+	lowW, lowH float64 // the lowest band's width and height
+}
+
+// besideCorner says whether the stack st, too tall for the room above a
+// footer across the page, goes on it with the footer in the corner
+// (footcorner.go): its lowest band left of the corner and within the
+// printable area, every band above it in the room above the footer, as
+// the page's band (sidebyside.go) then stacks them.
+func (s *search) besideCorner(st stack) bool {
+	f := s.f
+	if f.corner.w <= 0 || st.h-st.lowH-s.gap > s.avail {
+		return false
+	}
+	return f.corner.fitsBeside(geom.Pt{X: 0, Y: st.h - st.lowH}, geom.R(0, 0, st.lowW, st.lowH), s.cw, f.pageH)
 }
 
 // before says whether stack p beats q: fewer rows, then fewer rows side

@@ -21,6 +21,11 @@ type band struct {
 	y              float64 // where the next row goes under the rows so far; +Inf on a page kept alone
 	top, right     float64 // the last band's top and right edge
 	rows           int     // rows on the page
+	// the page's printable height and its footer set in the corner: a
+	// row too tall for the room above the footer goes down beside it
+	// where it keeps left of or above the corner (footcorner.go)
+	ch     float64
+	corner footCorner
 }
 
 // sideGap is the gap, in grid units, between two rows side by side: the
@@ -41,10 +46,10 @@ func (p *band) at(b geom.Rect, beside bool) (geom.Pt, bool) {
 	if math.IsInf(p.y, 1) {
 		return geom.Pt{}, false
 	}
-	if !beside && (p.rows == 0 || p.y+b.H() <= p.avail) {
-		return geom.Pt{X: 0, Y: p.y}, true
+	if under := (geom.Pt{X: 0, Y: p.y}); !beside && (p.rows == 0 || p.y+b.H() <= p.avail || p.corner.fitsBeside(under, b, p.cw, p.ch)) {
+		return under, true
 	}
-	if x := p.right + sideGap; p.rows > 0 && x+b.W() <= p.cw && p.top+b.H() <= p.avail {
+	if x := p.right + sideGap; p.rows > 0 && (x+b.W() <= p.cw && p.top+b.H() <= p.avail || p.corner.fitsBeside(geom.Pt{X: x, Y: p.top}, b, p.cw, p.ch)) {
 		return geom.Pt{X: x, Y: p.top}, true
 	}
 	return geom.Pt{}, false
@@ -60,6 +65,14 @@ func (p *band) put(b geom.Rect, pt geom.Pt) {
 		p.y = pt.Y + b.H() + p.gap
 	}
 	p.rows++
+}
+
+// band is an empty page of the flow's paper, rows gap apart, whose
+// footer may take the corner (footcorner.go).
+func (f *flow) band(cw, avail, gap float64) *band {
+	p := newBand(cw, avail, gap)
+	p.ch, p.corner = f.pageH, f.corner
+	return p
 }
 
 // alone keeps the page for the row on it (a row too big, drawn smaller).

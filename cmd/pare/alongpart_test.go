@@ -40,7 +40,9 @@ import (
 // 16 → 5, a page fewer.
 // 123 with shunt capacitors to a bypassed cathode hung down to it
 // (render/layout/returns.go).
-const alongPartCeiling = 123
+// 122 with a page's footer in its corner and a supply line's parts kept
+// off another stage's row (render/footcorner.go, render/strand.go).
+const alongPartCeiling = 122
 
 // commonLeadCeiling is how many crossings, on the same pages, lie on the
 // run of wire leaving a device's emitter, source or cathode (render/check's

@@ -33,7 +33,13 @@ import (
 // stage reads whole where it was "Q1 stage" and a separate transformer
 // frame; its reduced view takes one page, not two, and its faded view
 // still two).
-var pageCountCeiling = struct{ pages, cans int }{307, 17}
+// 302 with a page's footer set in its bottom right corner where that
+// lets a narrow lowest row go down beside it (render/footcorner.go:
+// review13 b03, review15 b03, review17 b03 and review20 b01 reduced on a
+// page fewer) and a supply line's parts never stranded on a row away
+// from the stages they join (render/strand.go: review15 a05's faded view
+// on one page, its decoupler where it was on two).
+var pageCountCeiling = struct{ pages, cans int }{302, 17}
 
 // TestPagesAndCanCuts: a service sheet prints a small set on as few pages
 // as hold it, and draws an IF can beside the stage its secondary feeds

@@ -34,9 +34,11 @@ import (
 // aerial circuit alone and the mixer opens a third page (looked at: the
 // RF stage reads whole where it was "Q1 stage" with its transformer a
 // separate frame on the next row).
-// 208 with an FM detector one stage holding its transformer, loads and
-// stabiliser (review23 b03's ratio detector, four frames before).
-var emptyPagesCeiling = 208
+// 198 of 382 with a page's footer set in its bottom right corner where
+// that lets a narrow lowest row go down beside it (render/footcorner.go)
+// and a supply line's parts kept off another stage's row
+// (render/strand.go).
+var emptyPagesCeiling = 198
 
 // emptyPageShare is the share of a page's printable area under which the
 // review called a page of a view of several pages "mostly empty" (review20
@@ -141,6 +143,12 @@ func TestSmallViewsOnOnePage(t *testing.T) {
 		// rows laid out compact where that saves the page (render/compactrows.go)
 		{"review18/b01.toml", render.Reduced}, // phase-shift injector and buffer: 2 pages before
 		{"review19/b01.toml", render.Reduced}, // 2 pages before
+		// the footer set in the corner beside a narrow last row
+		// (render/footcorner.go): rows 36, 36 and 16 units tall
+		{"review20/b01.toml", render.Reduced}, // 2 pages before
+		// and a supply line's parts kept off the rectifier's row
+		// (render/strand.go), its three rows tightGap apart
+		{"review15/a05.toml", render.Faded}, // 2 pages before
 	}
 	for _, tc := range cases {
 		pages, err := cachedPages(filepath.Join("../../testdata", tc.file), tc.view, "A3")
