@@ -116,7 +116,10 @@ func (cfg Config) pageResults(s *Sheet) ([]*layout.Result, error) {
 		var pt geom.Pt
 		ok := false
 		if n := len(bands); n > 0 && !big && !f.starts[i] {
-			pt, ok = bands[n-1].at(b, f.beside[i])
+			if r, pt, ok, err = f.onLastPage(ends, i, r, bands[n-1], cw, avail); err != nil {
+				return nil, err
+			}
+			b = r.Geom.Bounds
 		}
 		if !ok {
 			pages, bands, stood = append(pages, &layout.Result{}), append(bands, f.band(cw, avail, f.rowGap())), append(stood, nil)
