@@ -93,17 +93,36 @@ func (f *flow) plannedPages(ends []int, laid []*layout.Result, cw, avail float64
 	return f.greedyPlan(ends, laid, 0, len(ends), cw, avail, f.rowGap()).pages
 }
 
-// compactRow is the row [a, b) laid out compact, when that is shorter than
-// was, fits the page, routes every net was routes and leaves the checker
-// no more to find; nil otherwise.
+// compactRow is the row [a, b) laid out compact, its tall columns split
+// or not (layout.Options.Spread), the shorter of the two that is shorter
+// than was, fits the page, routes every net was routes and leaves the
+// checker no more to find; nil for neither. Split, a row's wires find new
+// ways to its connectors, which the checker sometimes finds worse: the
+// columns kept whole stay the first choice at equal height.
 func (f *flow) compactRow(a, b int, was *layout.Result, cw, avail float64) (*layout.Result, error) {
+	var best *layout.Result
+	for _, spread := range []bool{false, true} {
+		r, err := f.compactTry(a, b, was, cw, avail, spread)
+		if err != nil {
+			return nil, err
+		}
+		if r != nil && (best == nil || r.Geom.Bounds.H() < best.Geom.Bounds.H()) {
+			best = r
+		}
+	}
+	return best, nil
+}
+
+// compactTry is the row [a, b) laid out compact (spread: its tall columns
+// split) where compactRow may keep it; nil otherwise.
+func (f *flow) compactTry(a, b int, was *layout.Result, cw, avail float64, spread bool) (*layout.Result, error) {
 	sh := f.sheet(a, b, false)
 	if a == 0 && b == len(f.bs) {
 		cp := *f.s
 		sh = &cp
 		sh.placed = nil
 	}
-	sh.compact = true
+	sh.compact, sh.spread = true, spread
 	r, err := f.cfg.layout(sh)
 	if err != nil {
 		return nil, err
