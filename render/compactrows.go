@@ -134,6 +134,11 @@ func (f *flow) compactTry(a, b int, was *layout.Result, cw, avail float64, sprea
 	if findings(&r.Geom) > findings(&was.Geom) {
 		return nil, nil
 	}
+	if spread && check.Measure(&r.Geom).Crossings > check.Measure(&was.Geom).Crossings {
+		// the split columns' wires find new ways to the connectors:
+		// a faded mixer's anode lead then crossed its screen's
+		return nil, nil
+	}
 	return r, nil
 }
 
