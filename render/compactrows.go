@@ -93,36 +93,17 @@ func (f *flow) plannedPages(ends []int, laid []*layout.Result, cw, avail float64
 	return f.greedyPlan(ends, laid, 0, len(ends), cw, avail, f.rowGap()).pages
 }
 
-// compactRow is the row [a, b) laid out compact, its tall columns split
-// or not (layout.Options.Spread), the shorter of the two that is shorter
-// than was, fits the page, routes every net was routes and leaves the
-// checker no more to find; nil for neither. Split, a row's wires find new
-// ways to its connectors, which the checker sometimes finds worse: the
-// columns kept whole stay the first choice at equal height.
+// compactRow is the row [a, b) laid out compact, when that is shorter than
+// was, fits the page, routes every net was routes and leaves the checker
+// no more to find; nil otherwise.
 func (f *flow) compactRow(a, b int, was *layout.Result, cw, avail float64) (*layout.Result, error) {
-	var best *layout.Result
-	for _, spread := range []bool{false, true} {
-		r, err := f.compactTry(a, b, was, cw, avail, spread)
-		if err != nil {
-			return nil, err
-		}
-		if r != nil && (best == nil || r.Geom.Bounds.H() < best.Geom.Bounds.H()) {
-			best = r
-		}
-	}
-	return best, nil
-}
-
-// compactTry is the row [a, b) laid out compact (spread: its tall columns
-// split) where compactRow may keep it; nil otherwise.
-func (f *flow) compactTry(a, b int, was *layout.Result, cw, avail float64, spread bool) (*layout.Result, error) {
 	sh := f.sheet(a, b, false)
 	if a == 0 && b == len(f.bs) {
 		cp := *f.s
 		sh = &cp
 		sh.placed = nil
 	}
-	sh.compact, sh.spread = true, spread
+	sh.compact = true
 	r, err := f.cfg.layout(sh)
 	if err != nil {
 		return nil, err
@@ -132,11 +113,6 @@ func (f *flow) compactTry(a, b int, was *layout.Result, cw, avail float64, sprea
 		return nil, nil
 	}
 	if findings(&r.Geom) > findings(&was.Geom) {
-		return nil, nil
-	}
-	if spread && check.Measure(&r.Geom).Crossings > check.Measure(&was.Geom).Crossings {
-		// the split columns' wires find new ways to the connectors:
-		// a faded mixer's anode lead then crossed its screen's
 		return nil, nil
 	}
 	return r, nil

@@ -186,8 +186,6 @@ type Sheet struct {
 	fromFirst bool
 	// compact stacks a row's blocks closer (layout.Options.Compact)
 	compact bool
-	// spread splits a row's tall columns (layout.Options.Spread)
-	spread bool
 	// closeGaps takes back the columns a template left empty
 	// (layout.Options.CloseGaps)
 	closeGaps bool
@@ -274,7 +272,6 @@ func (cfg Config) options(s *Sheet) layout.Options {
 	o.SupplyFlow = s.supplyFlow
 	o.RankFromFirst = s.fromFirst
 	o.Compact = s.compact
-	o.Spread = s.spread
 	o.CloseGaps = s.closeGaps
 	o.DeviceStages = s.row
 	for _, f := range s.Frames {

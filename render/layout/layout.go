@@ -141,11 +141,6 @@ type Options struct {
 	// (render/compactrows.go), kept only where the checker finds the row
 	// no worse for it
 	Compact bool
-	// Spread stands the lower half of a tall column of two-terminal
-	// parts in a column of its own (spread.go): the caller's second
-	// retry of a compact row (render/compactrows.go), kept on the same
-	// terms
-	Spread bool
 	// CloseGaps moves the stages after a template back left by the
 	// columns its moves left empty (giveBack): the caller's retry of a
 	// row of one stretch too wide for its page (render/flow.go), which

@@ -23,9 +23,6 @@ const (
 func (ly *state) place() {
 	cols, feet := ly.footSockets(ly.blocks())
 	ly.order(cols)
-	if ly.o.Spread {
-		cols = ly.spreadColumns(cols, feet)
-	}
 	ly.placeColumns(cols, feet)
 	ly.placeRows(cols)
 	ly.diamonds(cols)
