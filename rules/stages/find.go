@@ -121,7 +121,7 @@ func Find(reduced *graph.Circuit, o Options) ([]Stage, error) {
 	}
 	held := heldOnOriginal(power)
 	signal = withoutSupplied(signal, power, reduced)
-	kept := supplyParts(power, reduced)
+	kept := supplyParts(power, reduced, o.Full)
 	// Only a device no pattern names takes its parts to a decoupled line as
 	// its own: folding shunts by the same returns also left review13 b02's
 	// decoupler and bias resistor in no stage and reflowed six review

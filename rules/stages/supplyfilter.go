@@ -225,13 +225,38 @@ func (x *figCtx) supplyFilterNets(s *graph.Part) (in, out int, dev *graph.Part, 
 		// set: the supply reaches the section from the other end
 		in, out, swapped = out, in, !swapped
 	}
-	if !x.reachesSource(in, si) {
+	if !x.reachesSource(in, si) || x.feedsBackward(in, out) {
 		return 0, 0, nil, false, false
 	}
 	if dev = x.feedsStage(out, si); dev == nil && (x.supplyOutlet(out, si) == nil || x.onOutputElectrode(in)) {
 		return 0, 0, nil, false, false
 	}
 	return in, out, dev, swapped, true
+}
+
+// feedsBackward tells whether the DC operating point has the series part's
+// current running from out back into in: the section's "supply" end sits
+// nearer chassis than the line it would feed, so it feeds nothing from
+// there (a base bias resistor from a decoupled collector line to a bias
+// node held by its own capacitor: review22 b02's R2 and C3 named a
+// "supply decoupling filter" at 153.9 Hz, where the line's feed was R4).
+// Unknown volts decide nothing; a margin of a hundredth of the input's
+// volts (at least 10 mV) keeps an unloaded section's equal ends a feed.
+func (x *figCtx) feedsBackward(in, out int) bool {
+	op := x.dcPoint()
+	if op == nil {
+		return false
+	}
+	vi, ok1 := op.Volts(x.netName(in))
+	vo, ok2 := op.Volts(x.netName(out))
+	if !ok1 || !ok2 || vi == 0 {
+		return false
+	}
+	margin := max(0.01*math.Abs(vi), 0.01)
+	if vi > 0 {
+		return vo > vi+margin
+	}
+	return vo < vi-margin
 }
 
 // onOutputElectrode tells whether an anode, collector or drain sits on id:

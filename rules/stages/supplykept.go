@@ -19,20 +19,77 @@ import (
 
 // supplyParts are the parts of the supply stages (group "power") the
 // reduced circuit still holds, but a screen feed's: the trade draws a
-// screen's dropper and bypass at the valve they feed.
-func supplyParts(power []*found, reduced *graph.Circuit) map[string]bool {
-	kept := map[string]bool{}
+// screen's dropper and bypass at the valve they feed. A merged part that
+// also stands for a device's bias feed is not one: a base bias resistor
+// from a decoupled line to the bias node (the cold end of the base
+// winding, held by its own capacitor) runs from the line to AC ground as
+// the line's decoupler does, so the reduction merges the two, and the
+// device stage takes the merged part with it. A bleeder merged with the
+// smoothing resistor stays the supply's: it feeds no electrode.
+func supplyParts(power []*found, reduced, full *graph.Circuit) map[string]bool {
+	held := map[string]bool{}
 	for _, f := range power {
 		if f.group != "power" || f.Topology == ScreenFeedTopology {
 			continue // a screen feed is drawn with the stage whose screen it feeds
 		}
 		for r := range f.set {
-			if reduced.Part(r) != nil {
-				kept[r] = true
-			}
+			held[r] = true
+		}
+	}
+	bias := biasNets(full)
+	kept := map[string]bool{}
+	for r := range held {
+		if p := reduced.Part(r); p != nil && !feedsBias(p.Origins(), held, full, bias) {
+			kept[r] = true
 		}
 	}
 	return kept
+}
+
+// biasNets are the nets of the full circuit a device's control electrode
+// sits on, and the far ends of the windings that reach one (the cold end
+// of a base or grid winding, where its bias is fed) but chassis and
+// supply lines: a winding returned there feeds no bias of its own.
+func biasNets(full *graph.Circuit) map[string]bool {
+	out := map[string]bool{}
+	if full == nil {
+		return out
+	}
+	for _, p := range full.Parts {
+		if pin := p.PinWithRole(graph.RoleControl); pin != "" && p.IsActive() {
+			out[p.NetOf(pin)] = true
+		}
+	}
+	for _, p := range full.Parts {
+		for _, w := range p.Windings {
+			a, b := p.NetOf(w.From), p.NetOf(w.To)
+			switch {
+			case out[a] && !out[b] && full.RoleOf(b) == graph.Signal && b != "":
+				out[b] = true
+			case out[b] && !out[a] && full.RoleOf(a) == graph.Signal && a != "":
+				out[a] = true
+			}
+		}
+	}
+	return out
+}
+
+// feedsBias tells whether a merged part stands for an original part no
+// supply stage holds that has a terminal on a bias net.
+func feedsBias(refs []string, held map[string]bool, full *graph.Circuit, bias map[string]bool) bool {
+	for _, r := range refs {
+		if held[r] || full == nil {
+			continue
+		}
+		if p := full.Part(r); p != nil && p.Kind == graph.Resistor {
+			for _, pin := range p.Pins {
+				if bias[pin.Net] {
+					return true
+				}
+			}
+		}
+	}
+	return false
 }
 
 // withoutSupplied drops the signal stages whose every part a single supply
