@@ -16,10 +16,11 @@ import (
 // ground), and the device stage owns the merged part, so the faded sheet
 // frames the bias resistor with its transistor (review13 b02 drawn in one
 // piece, TestSmallSetsInOnePiece). The line's real decoupler keeps its
-// name; its corner in circuit against ngspice-39 on the reviewer's deck
-// (testdata/review22/spice/b/c02-base.inc with VCC given AC 1 and the
-// battery bypass C7 left out, -3 dB of v(vcc_rf), `ac dec 2000 100 1meg`):
-// 11.466 kHz (the formula's 1/(2π·330 Ω·47 nF) is 10.26 kHz).
+// name; its corner in circuit against ngspice-39 on the reviewer's
+// circuit (testdata/review22/spice/b/c02-decoupler.cir: c02-base.inc with
+// VCC given AC 1 and the battery bypass C7 left out, -3 dB of v(vcc_rf)):
+// 11.466 kHz (the formula's 1/(2π·330 Ω·47 nF) is 10.26 kHz);
+// docs/references.md §46.
 func TestBiasResistorWithItsDevice(t *testing.T) {
 	cases := []struct {
 		review          string
