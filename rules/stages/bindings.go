@@ -293,11 +293,15 @@ const bypassRatio = 1000
 // it (a capacitor across a resistor bypasses it, as a cathode bypass across
 // the upper part of a split cathode resistor does) and neither end held at
 // AC ground by a capacitor to ground bypassRatio times larger (a bypass or
-// decoupling capacitor from a signal node to a bypassed cathode or line).
+// decoupling capacitor from a signal node to a bypassed cathode or line),
+// nor a static electrode's bypass (bypassesElectrode).
 func (w *world) blocksDC(ci int) bool {
 	p := w.parts[ci]
 	if len(w.pins[ci]) != 2 || !(p.Value.Max > 0) {
 		return true
+	}
+	if w.bypassesElectrode(ci) {
+		return false
 	}
 	a, b := w.pins[ci][0], w.pins[ci][1]
 	for _, end := range []int{a, b} {

@@ -169,9 +169,11 @@ var figureNames = []figName{
 	{name: "f_feed", label: "fed stage's lowest f"},
 	{name: "atten_feed", label: "attenuation at fed stage's lowest f", inDB: true},
 	{name: "z_screen", label: "screen |Z| to chassis"},
+	{name: "z_screen_k", label: "screen |Z| to its cathode"},
 	{name: "c_in", label: "input C with Miller"},
 	{name: "gain_miller", label: "Miller gain |A|"},
 	{name: "z_screen_unbypassed", label: "screen |Z| without its bypass"},
+	{name: "z_screen_k_unbypassed", label: "screen |Z| to its cathode without its bypass"},
 	// a gang-tuned amplifier's gain solved at each end of the travel
 	{name: "gain_band_low", label: "gain at the band's low end"},
 	{name: "gain_band_high", label: "gain at the band's high end"},

@@ -1,9 +1,7 @@
 package stages
 
 import (
-	"fmt"
 	"math"
-	"math/cmplx"
 	"sort"
 	"strings"
 
@@ -170,54 +168,6 @@ func (x *figCtx) dcPoint() *dc.Point {
 // a tenth (common practice, no source: the screen then carries a tenth of
 // the signal it would unbypassed, about 20 dB of degeneration removed).
 const screenBypassMax = 0.1
-
-// screenFeedFigures writes a screen feed's figures: the DC drop across the
-// dropper at the operating point, and, at the fed stage's lowest
-// frequency, the screen's impedance to chassis in circuit with and
-// without its bypass (the solver's), the bypass's own reactance
-// 1/(2πfC) as the check.
-func (x *figCtx) screenFeedFigures(s *graph.Part, c2 []*graph.Part, in, out int, dev *graph.Part) {
-	inName, outName := x.netName(in), x.netName(out)
-	if op := x.dcPoint(); op != nil {
-		vi, ok1 := op.Volts(inName)
-		vo, ok2 := op.Volts(outName)
-		if ok1 && ok2 {
-			x.set("screen_drop", figure.Volt, vi-vo, figure.BySolver("V("+inName+") − V("+outName+") at the", "DC operating point"))
-			x.set("screen_v", figure.Volt, vo, figure.BySolver("V("+outName+") at the", "DC operating point"))
-		}
-	}
-	f := x.w.c.BandOf(dev).Min
-	if !(f > 0) {
-		return
-	}
-	x.set("f_feed", figure.Hertz, f, byFeedBandLow)
-	c := x.solverCircuit()
-	bare := c
-	for _, p := range c2 {
-		bare = without(bare, p.Ref)
-	}
-	zb, okB := impedanceAt(bare, outName, f)
-	z, ok := impedanceAt(c, outName, f)
-	if !okB || !ok {
-		x.st.Notes = append(x.st.Notes, "the solver could not take the screen's impedance at "+hz(f))
-		return
-	}
-	x.set("z_screen_unbypassed", figure.Ohm, cmplx.Abs(zb), figure.BySolver("|Z("+outName+")| without the bypass", hz(f)))
-	xc := 1 / (2 * math.Pi * f * sumCap(c2, 1))
-	sv := &figure.Figure{Name: "z_screen", Unit: figure.Ohm, Value: cmplx.Abs(z), Origin: figure.BySolver("|Z("+outName+")|", hz(f))}
-	check := &figure.Figure{Name: "z_screen", Unit: figure.Ohm, Value: xc, Origin: byReactanceC}
-	x.putChecked(sv, check, func() string {
-		return fmt.Sprintf("the formula takes the bypass alone; in circuit %s and the screen lie across it", s.Ref)
-	})
-	share := cmplx.Abs(z) / cmplx.Abs(zb)
-	if share <= screenBypassMax {
-		x.st.Notes = append(x.st.Notes, fmt.Sprintf("the bypass holds %s's screen at AC ground at %s: %s to chassis in circuit against %s without it",
-			dev.Ref, hz(f), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text), figure.Format(cmplx.Abs(zb), figure.Ohm, figure.Text)))
-		return
-	}
-	x.flag("screen bypass of %s is not effective at %s: the screen sees %s to chassis in circuit, %.0f %% of the %s without it",
-		dev.Ref, hz(f), figure.Format(cmplx.Abs(z), figure.Ohm, figure.Text), 100*share, figure.Format(cmplx.Abs(zb), figure.Ohm, figure.Text))
-}
 
 // sawtoothFundamental is the share of a sawtooth's peak-to-peak swing its
 // fundamental has, peak to peak: 2/π (Fourier series of a sawtooth,

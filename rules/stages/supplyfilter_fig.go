@@ -74,7 +74,11 @@ func calcSmoothing(x *figCtx) {
 	}
 	switch class {
 	case screenFeed:
-		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s's screen: %s drops the HT to it, %s holds it at AC ground", dev.Ref, s.Ref, refList(c2p)))
+		held := "AC ground"
+		if x.bypassReturn(c2p, out) != "" {
+			held = "its cathode's AC potential"
+		}
+		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s's screen: %s drops the HT to it, %s holds it at %s", dev.Ref, s.Ref, refList(c2p), held))
 		x.filterCorner(s, in, out, check)
 		x.screenFeedFigures(s, c2p, in, out, dev)
 	case mainSmoothing:
