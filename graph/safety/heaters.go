@@ -19,6 +19,12 @@ func fedByMainsWinding(c *graph.Circuit, p *graph.Part) bool {
 		if pin.Name != "a" && pin.Name != "a1" && pin.Name != "a2" {
 			continue
 		}
+		if n := c.Net(pin.Net); n != nil && n.Role == graph.Ground {
+			// an unused diode anode strapped to chassis (a detector
+			// diode-triode's spare) touches a winding's centre tap
+			// there, yet no winding drives it: it rectifies nothing
+			continue
+		}
 		for _, cn := range c.ConnsOf(pin.Net) {
 			if _, mains := cn.Part.Params["hz"]; mains && cn.Part.Kind == graph.Transformer {
 				return true
