@@ -110,7 +110,12 @@ func calcGain(x *figCtx) {
 		return
 	}
 	rl := x.load()
+	// a tapped load's upper resistor (degeneration_foot) is in series with
+	// the rest: the whole of it carries the common electrode's current
 	rk := parallelR(x.parts("degeneration"))
+	for _, p := range x.parts("degeneration_foot") {
+		rk += p.Value.Max
+	}
 	form := x.word("form", "common")
 	if form != "follower" && rl == 0 {
 		return
