@@ -149,7 +149,7 @@ func (x *figCtx) filterCorner(s *graph.Part, inID, outID int, check figure.Figur
 		sv := &figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: f, Origin: figure.BySolver("−3 dB of "+transfer, "")}
 		x.putChecked(sv, &check, func() string {
 			if s.Kind == graph.Inductor {
-				return "the formula is the section's resonance; an LC section falls 3 dB only above it (√(1+√2) = 1.55 times it, undamped and unloaded)"
+				return chokeCornerWhy(s, check.Value, f)
 			}
 			return fmt.Sprintf("the formula takes %s and the capacitor alone; in circuit what the node feeds loads it", s.Ref)
 		})
