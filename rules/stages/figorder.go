@@ -166,6 +166,10 @@ var figureNames = []figName{
 	{name: "atten_ripple", label: "attenuation at ripple f", inDB: true},
 	{name: "ripple_in", label: "ripple p-p at the reservoir"},
 	{name: "hum_out", label: "hum p-p left at the output (fundamental)"},
+	// a choke section's resonance and Q as the solver shows them
+	// (chokesection.go), after its corner and ripple figures
+	{name: "f_res", label: "section resonance"},
+	{name: "q_section", label: "section Q"},
 	{name: "f_feed", label: "fed stage's lowest f"},
 	{name: "atten_feed", label: "attenuation at fed stage's lowest f", inDB: true},
 	{name: "z_screen", label: "screen |Z| to chassis"},

@@ -211,13 +211,16 @@ R1 = { r = "10k", pins = ["o2", "m"] }
 C1 = { c = "10n", pins = ["m", "g1"] }
 R2 = { r = "10k", pins = ["g1", "gnd"] }
 C2 = { c = "10n", pins = ["g1", "gnd"] }`, "wien-bridge", "f_hz", 1591.55, 1e-5},
-	// Smoothing: 10 H with 32 µF → 1/(2π√(LC)) = 8.89703 Hz (derived).
+	// Smoothing: 10 H with 32 µF, no copper declared, unloaded: resonance
+	// 1/(2π√(LC)) = 8.89703 Hz, and the section falls 3 dB at √(1+√2)
+	// times it, 13.82398 Hz (|1 − (f/f0)²| = √2, derived; the formula's
+	// figure without the solver is the section model's corner).
 	{"smoothing", "valve", "", `C1 = { c = "32u", type = "electrolytic", pins = ["hv", "gnd"] }
 L1 = { l = "10", type = "choke", pins = ["hv", "ht"] }
 C2 = { c = "32u", type = "electrolytic", pins = ["ht", "gnd"] }
 D9 = { diode = "rectifier", pins = { a = "ac9", k = "hv" } }
 V9 = { valve = "triode", pins = { g1 = "gnd", k = "gnd", a = "a9" }, mu = 20, ra = "10k" }
-R9 = { r = "47k", pins = ["ht", "a9"] }`, "smoothing-filter", "f_c_hz", 8.89703, 1e-5},
+R9 = { r = "47k", pins = ["ht", "a9"] }`, "smoothing-filter", "f_c_hz", 13.82398, 1e-5},
 }
 
 // agcRef is an AGC filter as a set wires it: the detector's diode on the

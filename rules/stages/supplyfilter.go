@@ -329,22 +329,15 @@ func attenuation(r *ac.Response, f float64) (float64, bool) {
 	return -20 * math.Log10(m), true
 }
 
-// seriesAtten is the textbook attenuation of one section at f: X_C/R for a
-// resistor, X_C/(X_L − X_C) for a choke (handbook formulas, from memory),
-// in decibels; 0 and false below the choke's resonance, where it gives none.
+// seriesAtten is the textbook attenuation of an RC section at f,
+// √(R² + X_C²)/X_C (handbook, from memory), in decibels; false for any
+// other series part (a choke's is its section's model, chokesection.go).
 func seriesAtten(s *graph.Part, c, f float64) (float64, bool) {
-	xc := 1 / (2 * math.Pi * f * c)
-	switch s.Kind {
-	case graph.Resistor:
-		return 20 * math.Log10(math.Hypot(s.Value.Max, xc)/xc), true
-	case graph.Inductor:
-		xl := 2 * math.Pi * f * s.Inductance()
-		if xl <= xc {
-			return 0, false
-		}
-		return 20 * math.Log10((xl-xc)/xc), true
+	if s.Kind != graph.Resistor {
+		return 0, false
 	}
-	return 0, false
+	xc := 1 / (2 * math.Pi * f * c)
+	return 20 * math.Log10(math.Hypot(s.Value.Max, xc)/xc), true
 }
 
 // rippleSource is the ripple frequency of the set's supply and the words

@@ -17,7 +17,6 @@ var (
 	byChoke       = figure.ByFormula("f0 = 1/(2π√(LC2))")
 	bySmoothRC    = figure.ByFormula("fc = 1/(2πRC2)")
 	byAttenRC     = figure.ByFormula("A = √(R² + X_C²)/X_C")
-	byAttenChoke  = figure.ByFormula("A = (X_L − X_C)/X_C")
 	byRippleRule  = figure.ByFormula("f ripple = 2 × mains (full-wave), 1 × (half-wave)")
 	byFeedBandLow = figure.ByFormula("the lowest frequency of the fed stage's band")
 	byReactanceC  = figure.ByFormula("X_C = 1/(2πfC)")
@@ -61,8 +60,10 @@ func calcSmoothing(x *figCtx) {
 	guess := 1 / (2 * math.Pi * s.Value.Max * c2)
 	check := figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: guess, Origin: bySmoothRC}
 	if s.Kind == graph.Inductor {
-		guess = resonance(s.Inductance(), c2)
-		check = figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: guess, Origin: byChoke}
+		// the corner of the section as loaded, its winding's copper
+		// with it: an undamped section's resonance is no corner (a field
+		// coil's falls 3 dB well below it)
+		check = figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: x.chokeSectionOf(s, c2, in, out).corner(), Origin: byChokeCorner}
 	}
 	if class == screenFeed {
 		// named for its job, not the pattern that found it
@@ -79,12 +80,13 @@ func calcSmoothing(x *figCtx) {
 			held = "its cathode's AC potential"
 		}
 		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s's screen: %s drops the HT to it, %s holds it at %s", dev.Ref, s.Ref, refList(c2p), held))
-		x.filterCorner(s, in, out, check)
+		x.filterCorner(s, c2, in, out, check)
 		x.screenFeedFigures(s, c2p, in, out, dev)
 	case mainSmoothing:
 		x.checkSmoothing(x.netName(in), x.netName(out))
 		x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds the supply line of %s (%s), so its figure is the ripple's, not one stage's frequency", stagesCount(len(fed)), refList(fed)))
 		x.filterInCircuit(s, c2, in, out, nil, check)
+		x.chokeFigures(s, c2, in, out)
 	default:
 		x.checkSmoothing(x.netName(in), x.netName(out))
 		if dev == nil {
@@ -94,6 +96,7 @@ func calcSmoothing(x *figCtx) {
 			x.st.Notes = append(x.st.Notes, fmt.Sprintf("feeds %s", dev.Ref))
 		}
 		x.filterInCircuit(s, c2, in, out, dev, check)
+		x.chokeFigures(s, c2, in, out)
 	}
 }
 
@@ -110,13 +113,13 @@ const ScreenFeedTopology = "screen-feed"
 // the circuit as it is, its rail driven; dev is the one stage a decoupler
 // feeds (nil for the main filter: no attenuation at one stage's frequency).
 func (x *figCtx) filterInCircuit(s *graph.Part, c2 float64, inID, outID int, dev *graph.Part, check figure.Figure) {
-	r, transfer, ok := x.filterCorner(s, inID, outID, check)
+	r, transfer, ok := x.filterCorner(s, c2, inID, outID, check)
 	if !ok {
 		return
 	}
 	if f, said, ok := x.rippleSource(); ok {
 		x.set("f_ripple", figure.Hertz, f, byRippleRule)
-		x.attenFigure("atten_ripple", s, c2, f, r, transfer)
+		x.attenFigure("atten_ripple", s, c2, f, inID, outID, r, transfer)
 		x.st.Notes = append(x.st.Notes, "ripple from the "+said)
 		if dev == nil {
 			x.humOut(inID, outID, r, f)
@@ -129,14 +132,14 @@ func (x *figCtx) filterInCircuit(s *graph.Part, c2 float64, inID, outID int, dev
 	}
 	if band := x.w.c.BandOf(dev); band.Min > 0 {
 		x.set("f_feed", figure.Hertz, band.Min, byFeedBandLow)
-		x.attenFigure("atten_feed", s, c2, band.Min, r, transfer)
+		x.attenFigure("atten_feed", s, c2, band.Min, inID, outID, r, transfer)
 	}
 }
 
 // filterCorner writes the section's −3 dB corner in circuit, its rail
 // driven, with the formula's beside it, and returns the response; ok false
 // (the formula's corner written) where the solver cannot drive the rail.
-func (x *figCtx) filterCorner(s *graph.Part, inID, outID int, check figure.Figure) (*ac.Response, string, bool) {
+func (x *figCtx) filterCorner(s *graph.Part, c2 float64, inID, outID int, check figure.Figure) (*ac.Response, string, bool) {
 	in, out := x.netName(inID), x.netName(outID)
 	r, err := x.filterResponse(inID, outID)
 	if err != nil {
@@ -145,11 +148,18 @@ func (x *figCtx) filterCorner(s *graph.Part, inID, outID int, check figure.Figur
 		return nil, "", false
 	}
 	transfer := "V(" + out + ")/V(" + in + "), " + in + " driven"
-	if f, ok := filterCorner(r, check.Value); ok {
+	guess := check.Value
+	if s.Kind == graph.Inductor {
+		// searched about the section's resonance, where its response
+		// turns, whatever the model's corner (the DC level is read a
+		// hundredth of it down)
+		guess = resonance(s.Inductance(), c2)
+	}
+	if f, ok := filterCorner(r, guess); ok {
 		sv := &figure.Figure{Name: "f_c", Unit: figure.Hertz, Value: f, Origin: figure.BySolver("−3 dB of "+transfer, "")}
 		x.putChecked(sv, &check, func() string {
 			if s.Kind == graph.Inductor {
-				return chokeCornerWhy(s, check.Value, f)
+				return fmt.Sprintf("the formula takes %s's winding and the capacitor alone with the load as V/I; in circuit what the node feeds loads it as the solver gives it", s.Ref)
 			}
 			return fmt.Sprintf("the formula takes %s and the capacitor alone; in circuit what the node feeds loads it", s.Ref)
 		})
@@ -161,18 +171,17 @@ func (x *figCtx) filterCorner(s *graph.Part, inID, outID int, check figure.Figur
 
 // attenFigure writes the solver's attenuation at f with the section's
 // textbook one beside it.
-func (x *figCtx) attenFigure(name string, s *graph.Part, c2, f float64, r *ac.Response, transfer string) {
+func (x *figCtx) attenFigure(name string, s *graph.Part, c2, f float64, inID, outID int, r *ac.Response, transfer string) {
 	db, ok := attenuation(r, f)
 	if !ok {
 		return
 	}
 	var check *figure.Figure
-	if v, ok := seriesAtten(s, c2, f); ok {
-		o := byAttenRC
-		if s.Kind == graph.Inductor {
-			o = byAttenChoke
-		}
-		check = &figure.Figure{Name: name, Unit: figure.Decibel, Value: v, Origin: o}
+	if s.Kind == graph.Inductor {
+		k := x.chokeSectionOf(s, c2, inID, outID)
+		check = &figure.Figure{Name: name, Unit: figure.Decibel, Value: k.atten(f), Origin: byChokeAtten}
+	} else if v, ok := seriesAtten(s, c2, f); ok {
+		check = &figure.Figure{Name: name, Unit: figure.Decibel, Value: v, Origin: byAttenRC}
 	}
 	sv := &figure.Figure{Name: name, Unit: figure.Decibel, Value: db, Origin: figure.BySolver(transfer, hz(f))}
 	x.putChecked(sv, check, func() string {
