@@ -12,7 +12,7 @@ import (
 
 // The textbook figures of a choke (or loudspeaker field coil) smoothing
 // section taken as loaded (handbook second-order low pass, from memory;
-// docs/references.md §24, §47): its winding L with its copper Rdc in
+// docs/references.md §24, §52): its winding L with its copper Rdc in
 // series, into C2 with the load across it as the resistance V/I the DC
 // operating point gives. H = RL/(RL + Rdc + s(L + Rdc·RL·C2) + s²·L·RL·C2).
 var (

@@ -11,7 +11,7 @@ import (
 // TestChokeSectionModel: the textbook model of a choke section (its
 // winding's copper in series, its load across the capacitor as V/I),
 // the check beside the solver's figures, against ngspice-39 on review23
-// a05's field-coil section alone (docs/references.md §47): L2 6 H with
+// a05's field-coil section alone (docs/references.md §52): L2 6 H with
 // 1.2 kΩ into C27 16 µF, unloaded (the set's load as the DC current
 // sources of the reviewer's c05_supply.cir, open at AC:
 // testdata/review23/spice/a/c05_section_ac.cir) and loaded by RL =

@@ -130,7 +130,7 @@ R9 = { r = "47k", pins = ["ht", "a9"] }
 		t.Fatalf("no smoothing filter: %s", topologies(st))
 	}
 	// derived: the section's model with no copper and no DC point is an
-	// undamped LC, falling 3 dB at √(1+√2) × 1/(2π√(LC2)) (docs/references.md §47)
+	// undamped LC, falling 3 dB at √(1+√2) × 1/(2π√(LC2)) (docs/references.md §52)
 	want := math.Sqrt(1+math.Sqrt2) / (2 * math.Pi * math.Sqrt(10*16e-6))
 	if got, _ := formulaOf(sm.Figures, "f_c_hz"); math.Abs(got-want) > 1e-3*want {
 		t.Errorf("f c %g Hz, want %g Hz (with C2, the smoothing capacitor)", got, want)

@@ -20,7 +20,7 @@ import (
 // circuit (testdata/review22/spice/b/c02-decoupler.cir: c02-base.inc with
 // VCC given AC 1 and the battery bypass C7 left out, -3 dB of v(vcc_rf)):
 // 11.466 kHz (the formula's 1/(2π·330 Ω·47 nF) is 10.26 kHz);
-// docs/references.md §46.
+// docs/references.md §51.
 func TestBiasResistorWithItsDevice(t *testing.T) {
 	cases := []struct {
 		review          string
