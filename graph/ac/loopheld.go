@@ -9,16 +9,32 @@ import (
 // The inputs a loop search holds. A declared input is where a generator
 // goes when the signal path is measured, and every transfer holds the
 // others at 0 V through their ideal sources, the generators idle. A loop
-// is asked of the circuit as drawn, so a generator held on an electrode of
-// the device whose loop is sought would answer for another circuit: its
-// zero impedance ties that electrode to AC ground and cuts the feedback
-// the device closes through it. An RC phase-shift oscillator captured with
-// its input at the base (testdata/review14/b01.toml) showed "no 0° loop
-// phase" for its held base, where ngspice, with nothing on the base, finds
-// it running at 1.17 kHz with a margin of +7.7 dB. So an input on one of
-// the device's own nets (its control, its common, the nets its controlled
-// current flows between) is left free; any other stays held, as the
-// transfers hold it.
+// is asked of the circuit as it runs, so a held input must be one a
+// generator of low impedance really drives, or the loop answers for
+// another circuit. Two kinds of input are left free:
+//
+//   - One on the device's own nets (its control, its common, the nets its
+//     controlled current flows between): a generator's zero impedance there
+//     would tie that electrode to AC ground and cut the feedback the device
+//     closes through it. An RC phase-shift oscillator captured with its
+//     input at the base (testdata/review14/b01.toml) showed "no 0° loop
+//     phase" for its held base, where ngspice, with nothing on the base,
+//     finds it running at 1.17 kHz with a margin of +7.7 dB.
+//   - One a tuned circuit stands across: an inductance and a capacitance
+//     from that node to the same return (the capacitance possibly a chain,
+//     a padder in series with a gang section, or returned through a bypass),
+//     or any winding of a transformer one of whose windings is tuned so. A
+//     generator couples into such a point loosely (a ferrite rod, a loop
+//     aerial, a tank fed through a dummy aerial) and the set runs with its
+//     aerial, not with a short across its tank. A mains transistor set with
+//     its input at the hot end of the ferrite-rod tank (testdata/review23/
+//     b05.toml) had the aerial tank shorted, which reaches the oscillator's
+//     loop through the mixer's emitter and read its top end at 2.030 MHz,
+//     where ngspice's return ratio with the tank free gives 2.008 MHz
+//     (docs/references.md §47).
+//
+// Any other input (a generator on an untuned input resistor, an audio
+// input) stays held, as the transfers hold it.
 
 // loopHeld are the nodes of c's declared inputs that the loop of the
 // controlled sources srcs, ruled by V(cn) − V(dn), holds at 0 V.
@@ -27,5 +43,72 @@ func loopHeld(c *graph.Circuit, nl *netlist, srcs []loopSource, cn, dn int) []in
 	for _, q := range srcs {
 		own = append(own, q.a, q.b)
 	}
-	return slices.DeleteFunc(otherInputs(c, nl, -1), func(n int) bool { return slices.Contains(own, n) })
+	held := slices.DeleteFunc(otherInputs(c, nl, -1), func(n int) bool { return slices.Contains(own, n) })
+	if len(held) == 0 {
+		return held
+	}
+	t := newTanks(c, nl)
+	return slices.DeleteFunc(held, t.across)
+}
+
+// tanks answers which nodes of a netlist a tuned circuit stands across.
+type tanks struct {
+	nl   *netlist
+	caps graph.DisjointSets // nodes joined by capacitors alone (capacitor parts, no device's)
+}
+
+func newTanks(c *graph.Circuit, nl *netlist) *tanks {
+	t := &tanks{nl: nl}
+	for _, p := range nl.prims {
+		if p.kind != primC {
+			continue
+		}
+		if part := c.Part(p.ref); part != nil && part.Kind == graph.Capacitor {
+			t.caps.Union(p.a, p.b)
+		}
+	}
+	return t
+}
+
+// tuned says whether nodes x and y, the two ends of an inductance, are
+// also joined by capacitance alone: a tank.
+func (t *tanks) tuned(x, y int) bool { return x != y && t.caps.Find(x) == t.caps.Find(y) }
+
+// across says whether a tuned circuit stands across node n: an uncoupled
+// coil from n that a capacitance closes, or a winding on n of a coupled
+// group with a tuned winding (a tapped winding's ends, joined through its
+// sections, count as one winding).
+func (t *tanks) across(n int) bool {
+	for _, p := range t.nl.prims {
+		if p.kind == primRL && p.l > 0 && (p.a == n || p.b == n) && t.tuned(p.a, p.b) {
+			return true
+		}
+	}
+	for _, g := range t.nl.groups {
+		on := slices.ContainsFunc(g.winds, func(w winding) bool { return w.a == n || w.b == n })
+		if on && t.groupTuned(g) {
+			return true
+		}
+	}
+	return false
+}
+
+// groupTuned says whether any two ends of g's windings that its windings
+// join (one winding, or the sections of a tapped one) are joined by
+// capacitance alone.
+func (t *tanks) groupTuned(g group) bool {
+	var coil graph.DisjointSets
+	var ends []int
+	for _, w := range g.winds {
+		coil.Union(w.a, w.b)
+		ends = append(ends, w.a, w.b)
+	}
+	for i, x := range ends {
+		for _, y := range ends[i+1:] {
+			if coil.Find(x) == coil.Find(y) && t.tuned(x, y) {
+				return true
+			}
+		}
+	}
+	return false
 }
