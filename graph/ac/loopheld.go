@@ -22,8 +22,8 @@ import (
 //     finds it running at 1.17 kHz with a margin of +7.7 dB.
 //   - One a tuned circuit stands across: an inductance and a capacitance
 //     from that node to the same return (the capacitance possibly a chain,
-//     a padder in series with a gang section, or returned through a bypass),
-//     or any winding of a transformer one of whose windings is tuned so. A
+//     a padder in series with a gang section, or returned through a bypass):
+//     a tuned coil or tuned winding of a transformer, its tap too. A
 //     generator couples into such a point loosely (a ferrite rod, a loop
 //     aerial, a tank fed through a dummy aerial) and the set runs with its
 //     aerial, not with a short across its tank. A mains transistor set with
@@ -34,7 +34,8 @@ import (
 //     (docs/references.md §47).
 //
 // Any other input (a generator on an untuned input resistor, an audio
-// input) stays held, as the transfers hold it.
+// input, the untuned coupling winding of an aerial coil, made for an aerial
+// of low impedance) stays held, as the transfers hold it.
 
 // loopHeld are the nodes of c's declared inputs that the loop of the
 // controlled sources srcs, ruled by V(cn) − V(dn), holds at 0 V.
@@ -53,12 +54,13 @@ func loopHeld(c *graph.Circuit, nl *netlist, srcs []loopSource, cn, dn int) []in
 
 // tanks answers which nodes of a netlist a tuned circuit stands across.
 type tanks struct {
+	c    *graph.Circuit
 	nl   *netlist
 	caps graph.DisjointSets // nodes joined by capacitors alone (capacitor parts, no device's)
 }
 
 func newTanks(c *graph.Circuit, nl *netlist) *tanks {
-	t := &tanks{nl: nl}
+	t := &tanks{c: c, nl: nl}
 	for _, p := range nl.prims {
 		if p.kind != primC {
 			continue
@@ -74,10 +76,12 @@ func newTanks(c *graph.Circuit, nl *netlist) *tanks {
 // also joined by capacitance alone: a tank.
 func (t *tanks) tuned(x, y int) bool { return x != y && t.caps.Find(x) == t.caps.Find(y) }
 
-// across says whether a tuned circuit stands across node n: an uncoupled
-// coil from n that a capacitance closes, or a winding on n of a coupled
-// group with a tuned winding (a tapped winding's ends, joined through its
-// sections, count as one winding).
+// across says whether a tuned circuit stands across node n: n is on a coil
+// whose ends a capacitance closes. A coil is an uncoupled winding, or the
+// windings of one coupled group that join in series (the sections of a
+// tapped winding, so a tap counts too). A group's other windings are not
+// the tank: an untuned coupling winding (an aerial coil's primary) is where
+// a generator of low impedance drives the tuned one, and stays held.
 func (t *tanks) across(n int) bool {
 	for _, p := range t.nl.prims {
 		if p.kind == primRL && p.l > 0 && (p.a == n || p.b == n) && t.tuned(p.a, p.b) {
@@ -85,28 +89,52 @@ func (t *tanks) across(n int) bool {
 		}
 	}
 	for _, g := range t.nl.groups {
-		on := slices.ContainsFunc(g.winds, func(w winding) bool { return w.a == n || w.b == n })
-		if on && t.groupTuned(g) {
+		if t.coilTuned(g, n) {
 			return true
 		}
 	}
 	return false
 }
 
-// groupTuned says whether any two ends of g's windings that its windings
-// join (one winding, or the sections of a tapped one) are joined by
-// capacitance alone.
-func (t *tanks) groupTuned(g group) bool {
-	var coil graph.DisjointSets
-	var ends []int
-	for _, w := range g.winds {
-		coil.Union(w.a, w.b)
-		ends = append(ends, w.a, w.b)
+// coilTuned says whether n is on a coil of g two of whose ends are joined
+// by capacitance alone. A coil is the windings of g that share a pin (the
+// sections of a tapped winding), not those that merely meet on a net: an
+// aerial coil's primary and secondary both returned to chassis are two.
+func (t *tanks) coilTuned(g group, n int) bool {
+	part := t.c.Part(g.ref)
+	if part == nil {
+		return false
 	}
-	for i, x := range ends {
-		for _, y := range ends[i+1:] {
-			if coil.Find(x) == coil.Find(y) && t.tuned(x, y) {
-				return true
+	var coil graph.DisjointSets
+	first := map[string]int{} // pin name -> the first winding on it
+	for i, w := range g.winds {
+		pw := part.Winding(w.name)
+		if pw == nil {
+			continue
+		}
+		for _, pin := range []string{pw.From, pw.To} {
+			if j, ok := first[pin]; ok {
+				coil.Union(i, j)
+			} else {
+				first[pin] = i
+			}
+		}
+	}
+	for i, w := range g.winds {
+		if w.a != n && w.b != n {
+			continue
+		}
+		var ends []int
+		for j, v := range g.winds {
+			if coil.Find(j) == coil.Find(i) {
+				ends = append(ends, v.a, v.b)
+			}
+		}
+		for k, x := range ends {
+			for _, y := range ends[k+1:] {
+				if t.tuned(x, y) {
+					return true
+				}
 			}
 		}
 	}

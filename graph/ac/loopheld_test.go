@@ -50,11 +50,12 @@ func TestLoopInputOnOwnElectrode(t *testing.T) {
 
 // Which declared inputs a tuned circuit stands across, and so a loop search
 // leaves free (loopheld.go): the classes of a loosely coupled input (a tank
-// to chassis, a padder chain, a tank returned through a bypass, the
-// coupling winding or the tap of a tuned coil) and the near misses that a
-// generator drives stiffly and that stay held (an untuned input resistor,
-// an RF choke with a coupling capacitor, an untuned input transformer, a
-// coil and a capacitor to different returns). Common practice: a tank
+// to chassis, a padder chain, a tank returned through a bypass, the tap of
+// a tuned coil) and the near misses that a generator drives stiffly and
+// that stay held (the untuned coupling winding of a tuned aerial coil, its
+// secondary returned to the same chassis; an untuned input resistor; an RF
+// choke with a coupling capacitor; an untuned input transformer; a coil and
+// a capacitor to different returns). Common practice: a tank
 // resonates only where its inductance and capacitance close a loop
 // (docs/references.md §47).
 func TestLoopTunedInputs(t *testing.T) {
@@ -72,10 +73,10 @@ R1 = { r = "1M", pins = ["x", "gnd"] }`, true},
 C1 = { c = "200p", pins = ["in", "gnd"] }
 R1 = { r = "470", pins = ["dec", "gnd"] }
 C2 = { c = "47n", pins = ["dec", "gnd"] }`, true},
-		{"coupling winding of a tuned coil", `T1 = { windings = { p = "20u", s = "200u" }, k = 0.3, pins = { p1 = "in", p2 = "gnd", s1 = "g", s2 = "gnd" } }
-VC1 = { c = "12p..365p", pins = ["g", "gnd"] }`, true},
 		{"tap of a tuned coil", `T1 = { windings = { p = ["20u", "180u"] }, pins = { p1 = "gnd", pt = "in", p2 = "hot" } }
 C1 = { c = "100p", pins = ["hot", "gnd"] }`, true},
+		{"coupling winding of a tuned coil", `T1 = { windings = { p = "20u", s = "200u" }, k = 0.3, pins = { p1 = "in", p2 = "gnd", s1 = "g", s2 = "gnd" } }
+VC1 = { c = "12p..365p", pins = ["g", "gnd"] }`, false},
 		{"untuned resistor", `R1 = { r = "10k", pins = ["in", "g"] }
 R2 = { r = "1M", pins = ["g", "gnd"] }
 C1 = { c = "100p", pins = ["g", "gnd"] }`, false},
