@@ -31,7 +31,7 @@ import (
 //     b05.toml) had the aerial tank shorted, which reaches the oscillator's
 //     loop through the mixer's emitter and read its top end at 2.030 MHz,
 //     where ngspice's return ratio with the tank free gives 2.008 MHz
-//     (docs/references.md §47).
+//     (docs/references.md §53).
 //
 // Any other input (a generator on an untuned input resistor, an audio
 // input, the untuned coupling winding of an aerial coil, made for an aerial

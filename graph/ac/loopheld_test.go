@@ -57,7 +57,7 @@ func TestLoopInputOnOwnElectrode(t *testing.T) {
 // choke with a coupling capacitor; an untuned input transformer; a coil and
 // a capacitor to different returns). Common practice: a tank
 // resonates only where its inductance and capacitance close a loop
-// (docs/references.md §47).
+// (docs/references.md §53).
 func TestLoopTunedInputs(t *testing.T) {
 	for _, tc := range []struct {
 		name, parts string
@@ -114,7 +114,7 @@ C1 = { c = "200p", pins = ["in", "gnd"] }`, false},
 // primary, VC1a, TC1 to chassis), is left free: the oscillator Q2's loop is
 // the one of the set with no input declared, a part for a part, at both
 // ends of the gang, and not the one with ant_tank tied to chassis, which
-// shorts the aerial tank and moves the top end (docs/references.md §47).
+// shorts the aerial tank and moves the top end (docs/references.md §53).
 func TestLoopTunedInputFree(t *testing.T) {
 	c := load(t, "../../testdata/review23/b05.toml")
 	bare := c.Clone()

@@ -14,7 +14,7 @@ import (
 // oscillate as drawn" where the reviewer's ngspice transient of the same
 // capture (testdata/review20/spice/b, c01.cir) runs at 2.673–3.088 MHz. The
 // loop search now leaves an input a tuned circuit stands across free in the
-// first place (graph/ac loopheld.go, docs/references.md §47): the loop
+// first place (graph/ac loopheld.go, docs/references.md §53): the loop
 // starts as the set runs, with nothing to reopen and so no flag.
 func TestLoopFreesInputOnItsTank(t *testing.T) {
 	const spiceLo, spiceHi = 2.673e6, 3.088e6 // reviewer's ngspice transient, c01.cir

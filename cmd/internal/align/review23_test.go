@@ -65,7 +65,7 @@ func TestSeparateOscillatorOnADecoupledLine(t *testing.T) {
 
 // The guide's dial ends for a separate oscillator on a decoupled line are
 // its loop's: the return ratio of its controlled source solved by ngspice-39
-// (docs/references.md §46, §47). Review23 b02's Q3 on
+// (docs/references.md §46, §53). Review23 b02's Q3 on
 // testdata/review23/c02loop.cir: 0° of loop phase at 976.885 kHz with the
 // gang fully meshed and at 2.01393 MHz fully open. Review23 b05's Q2 on
 // testdata/review23/c05loop.cir with the aerial tank's input free, as the

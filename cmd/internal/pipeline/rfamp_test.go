@@ -66,7 +66,7 @@ func TestRFAmplifierWithItsLoad(t *testing.T) {
 // the gang at 12 pF, and at 917.9 kHz with 0.765 (−2.3 dB) at 100 pF; with
 // the rod held at 0 V, as an idle generator would hold it, only at
 // 39.6 MHz, far below 0 dB, which named it an RF amplifier before. The
-// stage is named by the loop the solver finds (docs/references.md §47):
+// stage is named by the loop the solver finds (docs/references.md §53):
 // 0.1 % on the frequency, 1 dB on the margin (pare refers each coil's q to
 // the frequency its tank tunes at, the deck to the band's centre).
 func TestRFStageThatRuns(t *testing.T) {
