@@ -33,7 +33,7 @@ func init() {
 		"bypass":        {args: []string{"device", "r", "c", "load", "load_net"}, required: []string{"device", "r", "c"}, netArgs: []string{"load_net"}, fn: calcBypass},
 		"rc-phase":      {args: []string{"r", "c"}, required: []string{"r", "c"}, fn: calcPhaseShift},
 		"wien":          {args: []string{"r1", "c1", "r2", "c2"}, required: []string{"r1", "c1", "r2", "c2"}, fn: calcWien},
-		"gain":          {args: []string{"device", "load", "load_net", "degeneration", "form"}, required: []string{"device", "form"}, netArgs: []string{"load_net"}, wordArgs: []string{"form"}, fn: calcGain},
+		"gain":          {args: []string{"device", "load", "load_net", "degeneration", "degeneration_foot", "form"}, required: []string{"device", "form"}, netArgs: []string{"load_net"}, wordArgs: []string{"form"}, fn: calcGain},
 		"discriminator": {args: []string{"xfmr", "caps1", "caps2", "ret", "ends"}, required: []string{"xfmr", "caps2"}, netArgs: []string{"ret", "ends"}, fn: calcDiscriminator},
 		"double-tuned":  {args: []string{"xfmr", "caps1", "caps2"}, required: []string{"xfmr", "caps1", "caps2"}, fn: calcDoubleTuned},
 		"mixer":         {args: []string{"coil", "caps", "ift", "ift_caps", "winding"}, required: []string{"coil", "caps", "ift", "ift_caps"}, wordArgs: []string{"winding"}, fn: calcMixer},
