@@ -336,7 +336,11 @@ var (
 	// mains transformer", "without a mains transformer", "transformerless").
 	mainsTransformerWord = regexp.MustCompile(`(?i)\bmains[\s-]+transformer`)
 	noTransformer        = regexp.MustCompile(`(?i)\b(no|not|without|never)\s+(a\s+|any\s+)?mains[\s-]+transformer|transformerless`)
-	acdcWord             = regexp.MustCompile(`(?i)\bac\s*[/-]\s*dc\b|\buniversal\b`)
+	// mainsUnitWord names a unit that makes a low voltage from the mains.
+	mainsUnitWord = regexp.MustCompile(`(?i)\bmains\s+(unit|adapt[oe]r|psu|pack|power\s+unit|supply\s+unit)\b`)
+	// statedVolts finds a voltage a label states, with an AC mark if any.
+	statedVolts = regexp.MustCompile(`(?i)([+-]?\d+(?:\.\d+)?)\s*v(\s*(?:~|ac\b|a\.c\.))?(?:[^a-z]|$)`)
+	acdcWord    = regexp.MustCompile(`(?i)\bac\s*[/-]\s*dc\b|\buniversal\b`)
 	// batteryWord finds a battery named as a source ("HT +90 V battery",
 	// "LT cell", "B+ batt"); a battery set's supplies say so.
 	batteryWord = regexp.MustCompile(`(?i)\bbatt(ery|eries)?\b|\bcells?\b`)
@@ -344,7 +348,7 @@ var (
 	// outside the circuit ("+12 V from the supply board", "bench PSU",
 	// "9 V adaptor", "regulated 15 V"), not the bare word "supply", which
 	// a battery set's rail may carry too.
-	outsideSupplyWord = regexp.MustCompile(`(?i)\bbench\b|\bpsu\b|\badapt[oe]r\b|\bsupply\s+(board|unit|module)\b|` +
+	outsideSupplyWord = regexp.MustCompile(`(?i)\bbench\b|\bpsu\b|\badapt[oe]r\b|\b(supply|mains|power)\s+(board|unit|module)\b|` +
 		`\bpower\s+supply\b|\bfrom\s+(the|a|an)\s+([\w+.-]+\s+)?supply\b|\bregulat(or|ed)\b`)
 )
 
@@ -352,7 +356,7 @@ func saysMains(s string) bool {
 	if s == "" {
 		return false
 	}
-	if mainsWord.MatchString(s) {
+	if mainsWord.MatchString(s) && !lowVoltsFromMainsUnit(s) {
 		return true
 	}
 	for _, m := range mainsAC.FindAllStringSubmatch(s, -1) {
@@ -363,6 +367,27 @@ func saysMains(s string) bool {
 		}
 	}
 	return false
+}
+
+// lowVoltsFromMainsUnit is a label naming a low DC voltage that a mains
+// unit makes ("+12 V from the mains unit", "9 V mains adaptor"): the
+// circuit is fed the low voltage, not the mains (a bench oscillator whose
+// port said so got the live-chassis caution). A voltage marked AC, or one
+// over 50 V, is no such feed.
+func lowVoltsFromMainsUnit(s string) bool {
+	if !mainsUnitWord.MatchString(s) || mainsAC.MatchString(s) {
+		return false
+	}
+	low := false
+	for _, m := range statedVolts.FindAllStringSubmatch(s, -1) {
+		var v float64
+		fmt.Sscan(strings.TrimPrefix(m[1], "+"), &v)
+		if m[2] != "" || v > 50 || v < -50 {
+			return false
+		}
+		low = true
+	}
+	return low
 }
 
 func saysACDC(s string) bool { return s != "" && acdcWord.MatchString(s) }

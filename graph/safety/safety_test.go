@@ -143,6 +143,10 @@ func TestAssess(t *testing.T) {
 		// circuit whose port or rail names the supply it comes from, and
 		// nothing a battery, gets the outside-supply caution.
 		{name: "VFO fed from a supply board", file: "testdata/review20/b01.toml", want: OutsideSupply, because: "fed from outside by P1"},
+		// review24 d01: "+12 V from the mains unit" on a transistor
+		// oscillator's supply port got the live-chassis caution.
+		{name: "rail from a mains unit", text: strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1) + "P9 = { port = \"+12 V from the mains unit\", pins = [\"vcc\"] }\n",
+			want: OutsideSupply, because: "P9"},
 		{name: "rail from a bench PSU", text: strings.Replace(offSheetNet, "6 V from the mains transformer", "6 V heater", 1) + "P9 = { port = \"+12 V bench PSU\", pins = [\"vcc\"] }\n",
 			want: OutsideSupply, because: "P9"},
 		// Near misses: the bare word "supply", or a battery named beside
@@ -194,6 +198,13 @@ func TestMainsWords(t *testing.T) {
 		{"6.3 V~", false},
 		{"HT +250 V from power supply", false}, // DC, not an AC supply
 		{"remains of the chassis", false},      // a word that only contains "mains"
+		// a low DC voltage a mains unit makes is fed in, not the mains
+		// (common practice: a bench unit's output is isolated low voltage)
+		{"+12 V from the mains unit", false},
+		{"9V mains adaptor", false},
+		{"230 V~ to the mains unit", true},
+		{"+250 V from the mains unit", true},
+		{"mains unit", true},
 		{"", false},
 	} {
 		if got := saysMains(tc.s); got != tc.want {
