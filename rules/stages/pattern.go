@@ -13,6 +13,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"pare/graph"
+	"pare/rules"
 )
 
 //go:embed patterns/*.toml
@@ -119,8 +120,18 @@ var (
 // Library is never changed after loading). It is checked by the tests, so
 // an error here is a build mistake.
 func Builtin() (*Library, error) {
-	builtinOnce.Do(func() { builtinLib, builtinErr = loadFS(builtin, "patterns", "patterns") })
+	builtinOnce.Do(func() { builtinLib, builtinErr = ownLibrary(loadFS(builtin, "patterns", "patterns")) })
 	return builtinLib, builtinErr
+}
+
+// ownLibrary marks a failure to load pare's own patterns as an internal
+// error (exit 3): it is a build mistake, never the user's netlist, which
+// a positioned complaint would have blamed.
+func ownLibrary(lib *Library, err error) (*Library, error) {
+	if err != nil {
+		return nil, fmt.Errorf("%w: a built-in stage pattern does not load: %v", rules.ErrInternal, err)
+	}
+	return lib, nil
 }
 
 // LoadDir reads every *.toml file in dir as a pattern file.
