@@ -181,7 +181,11 @@ func (st *stamper) device(p *graph.Part) {
 func (st *stamper) diode(p *graph.Part, sub string, anodes []string, cathode string) {
 	for _, a := range anodes {
 		load := math.Inf(1)
-		if _, own := p.Param("rd"); !own && p.Type != "varicap" {
+		_, own := p.Param("rd")
+		if !own && InverseParallel(st.c, p, a, cathode) {
+			continue // a limiter's pair: off at rest, it conducts only on the swing
+		}
+		if !own && p.Type != "varicap" {
 			load = st.detectorLoad(p, anodes, a, cathode)
 		}
 		piece := ""
