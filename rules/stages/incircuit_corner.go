@@ -185,8 +185,36 @@ func lowPassBand(c *graph.Circuit, in, out string, guess float64) (fc, level flo
 	if f, m, ok := passBand(fs, ms); ok {
 		top, level = f, m
 	}
+	if f, m, ok := firstFlat(fs, ms); ok && level/m > liftedAbove {
+		// the highest level is a lift far below the corner (a load
+		// hung through a coupling capacitor comes off there, a blind
+		// reviewer's 15 k and 3n3 into 250 k through 22 n): the corner
+		// is read from the plateau the corner falls from
+		top, level = f, m
+	}
 	fc, ok = crossing(r, level/math.Sqrt2, top, guess*cornerSpan)
 	return fc, level, ok
+}
+
+// flatStep is the change in level, 0.05 dB, under which a step of the
+// downward scan counts as flat; liftedAbove is the ratio (0.1 dB) by
+// which the highest level must stand over that plateau to be a lift.
+const (
+	flatStep    = 1.00577
+	liftedAbove = 1.0116
+)
+
+// firstFlat is the first step of the downward scan (fs, ms) whose level
+// changes by less than flatStep: the plateau just below a low-pass
+// corner, which a lift further down (a load coming off through its
+// coupling capacitor) does not reach.
+func firstFlat(fs, ms []float64) (f, m float64, ok bool) {
+	for i := 0; i+1 < len(ms); i++ {
+		if ms[i] > 0 && ms[i+1] > 0 && math.Max(ms[i]/ms[i+1], ms[i+1]/ms[i]) < flatStep {
+			return fs[i+1], ms[i+1], true
+		}
+	}
+	return 0, 0, false
 }
 
 // passBand is the flattest step of a scan downward in f (fs, ms): its

@@ -267,3 +267,24 @@ C3 = { c = "100p", pins = ["out", "gnd"] }
 		}
 	}
 }
+
+// A de-emphasis whose load hangs through a small coupling capacitor lifts
+// to its unloaded level far below the corner (review24 d02: 15 k and 3n3
+// into 250 k through 22 n): the corner is read from the plateau it falls
+// from, not from the lift. Reference: the blind reviewer's ngspice,
+// testdata/review24/spice/RESULTS.md, −3 dB re 100 Hz at 3.375 kHz (pare
+// 3.41 kHz, its plateau read a step nearer the corner); the lift's level
+// gave 3.013 kHz before.
+func TestDeEmphasisPlateauBelowALift(t *testing.T) {
+	got := findBiased(t, reviewCircuit(t, "review24", "d02.toml"))
+	de := stageOf(got, "de-emphasis")
+	if de == nil {
+		t.Fatalf("no de-emphasis; found %s", topologies(got))
+	}
+	if f, ok := de.Figures.Get("f_c"); !ok || math.Abs(f.Value/3.375e3-1) > 0.015 {
+		t.Errorf("de-emphasis corner %v (found %v), want 3.375 kHz within 1.5 %%", f.Value, ok)
+	}
+	if f, ok := de.Figures.Get("pass_level"); !ok || math.Abs(f.Value+0.47) > 0.1 {
+		t.Errorf("de-emphasis level on the plateau %v (found %v), want −0.47 dB", f.Value, ok)
+	}
+}
