@@ -42,7 +42,8 @@ import (
 // (render/layout/returns.go).
 // 122 with a page's footer in its corner and a supply line's parts kept
 // off another stage's row (render/footcorner.go, render/strand.go).
-const alongPartCeiling = 122
+// 117 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming).
+const alongPartCeiling = 117
 
 // commonLeadCeiling is how many crossings, on the same pages, lie on the
 // run of wire leaving a device's emitter, source or cathode (render/check's

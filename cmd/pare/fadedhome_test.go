@@ -29,7 +29,7 @@ const (
 	fadedAcrossCeiling = 2
 	fadedCrossCeiling  = 24 // 26 before push-pull pairs strapped their suppressors inside the envelope on the faded sheet (review16/17 a04)
 	fadedFarCeiling    = 2
-	fadedServeCeiling  = 52 // 52 with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm)
+	fadedServeCeiling  = 50 // 50 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming); 52 with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm)
 )
 
 // fadedFar is how far (sheet units, centre to centre) a greyed part may

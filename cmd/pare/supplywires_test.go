@@ -28,7 +28,8 @@ import (
 // decoupled line vcc_mix reaches it by six connectors (looked at: the RF
 // stage reads whole where it was "Q1 stage" and a separate transformer
 // frame on the next row).
-var supplyWireCeiling = 24
+// 22 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming).
+var supplyWireCeiling = 22
 
 // TestSupplyNetsAsRails counts the supply lines (declared, or smoothed
 // lines fed from one, with the decoupled lines hanging on each) drawn as
