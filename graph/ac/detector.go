@@ -315,8 +315,11 @@ func KeptDetectorRd(c *graph.Circuit, p *graph.Part) (rd float64, ok bool) {
 	if _, own := p.Param("rd"); own || c.DetectorLoads == nil {
 		return 0, false
 	}
-	anodes, _ := diodeSections(p)
+	anodes, cathode := diodeSections(p)
 	for i, a := range anodes {
+		if InverseParallel(c, p, a, cathode) {
+			return 0, false // a limiter's pair is open, never a detector
+		}
 		l, kept := c.DetectorLoads[p.Ref+"."+a]
 		if !kept {
 			return 0, false
