@@ -36,6 +36,8 @@ const (
 	Volt
 	// Degree is an angle: a loop's phase margin.
 	Degree
+	// Ampere: a DC current at the operating point (a stabiliser's feed)
+	Ampere
 )
 
 // units is the one table of what each unit means to the formatter: its SI
@@ -60,6 +62,7 @@ var units = [...]struct {
 	Watt:    {"watt", value.Watt, "_w", 3},
 	Volt:    {"volt", value.Volt, "_v", 3},
 	Degree:  {"degree", value.None, "_deg", 3},
+	Ampere:  {"ampere", value.Ampere, "_a", 3},
 }
 
 // Units lists every unit, for tests and documentation.

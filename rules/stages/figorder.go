@@ -162,6 +162,11 @@ var figureNames = []figName{
 	// the voltage a Vbe multiplier holds between an output pair's bases
 	{name: "bias_v", label: "bias V (DC)"},
 	{name: "screen_drop", label: "drop across the screen feed (DC)"},
+	// a shunt stabiliser's feed (stabfeed.go)
+	{name: "v_stab", label: "stabilised V (DC)"},
+	{name: "i_feed", label: "feed current (DC)"},
+	{name: "i_line", label: "drawn by the line's loads (DC)"},
+	{name: "i_stab", label: "stabiliser current (DC)"},
 	{name: "f_ripple", label: "ripple f"},
 	{name: "atten_ripple", label: "attenuation at ripple f", inDB: true},
 	{name: "ripple_in", label: "ripple p-p at the reservoir"},

@@ -20,6 +20,8 @@ import (
 //   - a screen feed: the output is a screen grid itself, a dropper resistor
 //     and its bypass capacitor; its figures are the DC drop and whether the
 //     bypass holds the screen at AC ground at the stage's frequency;
+//   - a stabiliser feed: a shunt stabiliser holds its output (stabfeed.go);
+//     its figures are the DC point's volts and currents;
 //   - a decoupler: it feeds one stage's supply through that stage's load;
 //     its figures are the attenuation at the ripple and at that stage's
 //     frequency.
@@ -29,6 +31,8 @@ const (
 	mainSmoothing filterClass = iota
 	decoupler
 	screenFeed
+	// a feed into a line a shunt stabiliser holds (stabfeed.go)
+	stabiliserFeed
 )
 
 // filterClassOf tells what the section from in to out does; fed are the
@@ -36,6 +40,8 @@ const (
 func (x *figCtx) filterClassOf(in, out, skip int) (filterClass, []*graph.Part) {
 	fed := x.fedStages(out, skip)
 	switch {
+	case x.stabiliserOn(out) != nil:
+		return stabiliserFeed, fed
 	case x.rectifierOn(in) || len(fed) > 1:
 		return mainSmoothing, fed
 	case x.onScreen(out):

@@ -187,6 +187,9 @@ func (x *figCtx) feeds(id int) float64 {
 	score := 0.0
 	for _, ci := range x.w.conns[id] {
 		switch p := x.w.parts[ci]; {
+		case p.Kind == graph.Diode && p.Type == "zener":
+			// a zener across a line holds it (a shunt stabiliser,
+			// stabfeed.go); it feeds nothing
 		case p.Kind == graph.Diode, p.Kind == graph.Valve && isValveDiode(p):
 			score = max(score, 4)
 		case p.Kind == graph.Port:

@@ -69,6 +69,10 @@ func calcSmoothing(x *figCtx) {
 		// named for its job, not the pattern that found it
 		x.st.Topology, x.st.Title = ScreenFeedTopology, screenFeedTitle
 	}
+	if class == stabiliserFeed {
+		x.stabiliserFeed(s, c2, in, out, check)
+		return
+	}
 	if !x.solve {
 		x.put(check)
 		return
@@ -160,6 +164,9 @@ func (x *figCtx) filterCorner(s *graph.Part, c2 float64, inID, outID int, check 
 		x.putChecked(sv, &check, func() string {
 			if s.Kind == graph.Inductor {
 				return fmt.Sprintf("the formula takes %s's winding and the capacitor alone with the load as V/I; in circuit what the node feeds loads it as the solver gives it", s.Ref)
+			}
+			if st := x.stabiliserOn(outID); st != nil {
+				return fmt.Sprintf("the formula takes %s and the capacitor alone; in circuit %s's slope resistance across the line sets it", s.Ref, st.Ref)
 			}
 			return fmt.Sprintf("the formula takes %s and the capacitor alone; in circuit what the node feeds loads it", s.Ref)
 		})
