@@ -42,8 +42,7 @@ import (
 // (render/layout/returns.go).
 // 122 with a page's footer in its corner and a supply line's parts kept
 // off another stage's row (render/footcorner.go, render/strand.go).
-// 117 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming).
-const alongPartCeiling = 117
+const alongPartCeiling = 117 // 122 before with the tapped follower's gain calc loading again and a shunt stabiliser's feed framed after its rectifier as a supply section (review15 b05)
 
 // commonLeadCeiling is how many crossings, on the same pages, lie on the
 // run of wire leaving a device's emitter, source or cathode (render/check's

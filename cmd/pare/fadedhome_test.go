@@ -26,10 +26,10 @@ import (
 // 55 before review16 and review17 a03's AGC decouplers R2/C4 stood at
 // their first IF can's foot instead of after the second can a row away.
 const (
-	fadedAcrossCeiling = 2
+	fadedAcrossCeiling = 0  // 2 before with the tapped follower's gain calc loading again and a shunt stabiliser's feed framed after its rectifier as a supply section (review15 b05)
 	fadedCrossCeiling  = 24 // 26 before push-pull pairs strapped their suppressors inside the envelope on the faded sheet (review16/17 a04)
 	fadedFarCeiling    = 2
-	fadedServeCeiling  = 50 // 50 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming); 52 with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm)
+	fadedServeCeiling  = 50 // 52 before with the tapped follower's gain calc loading again and a shunt stabiliser's feed framed after its rectifier as a supply section (review15 b05); 52 with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm)
 )
 
 // fadedFar is how far (sheet units, centre to centre) a greyed part may

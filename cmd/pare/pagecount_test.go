@@ -42,8 +42,7 @@ import (
 // units too tall for the room left on a page laid out compact where it
 // then goes on that page (render/pagefill.go: review13 b05's faded mixer
 // under its aerial circuit, 4 pages, was 5).
-// 299 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming).
-var pageCountCeiling = struct{ pages, cans int }{299, 17}
+var pageCountCeiling = struct{ pages, cans int }{299, 17} // 301 before with the tapped follower's gain calc loading again and a shunt stabiliser's feed framed after its rectifier as a supply section (review15 b05)
 
 // TestPagesAndCanCuts: a service sheet prints a small set on as few pages
 // as hold it, and draws an IF can beside the stage its secondary feeds

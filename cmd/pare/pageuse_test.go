@@ -41,8 +41,7 @@ import (
 // 196 of 381 with a row a few units too tall for the room left on a page
 // laid out compact where it then goes on that page (render/pagefill.go:
 // review13 b05's faded aerial page, 11 % used, now holds the mixer too).
-// 192 of 377 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming).
-var emptyPagesCeiling = 192
+var emptyPagesCeiling = 191 // 196 before with the tapped follower's gain calc loading again and a shunt stabiliser's feed framed after its rectifier as a supply section (review15 b05)
 
 // emptyPageShare is the share of a page's printable area under which the
 // review called a page of a view of several pages "mostly empty" (review20

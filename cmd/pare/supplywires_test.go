@@ -28,8 +28,7 @@ import (
 // decoupled line vcc_mix reaches it by six connectors (looked at: the RF
 // stage reads whole where it was "Q1 stage" and a separate transformer
 // frame on the next row).
-// 22 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming).
-var supplyWireCeiling = 22
+var supplyWireCeiling = 22 // 24 before with the tapped follower's gain calc loading again and a shunt stabiliser's feed framed after its rectifier as a supply section (review15 b05)
 
 // TestSupplyNetsAsRails counts the supply lines (declared, or smoothed
 // lines fed from one, with the decoupled lines hanging on each) drawn as

@@ -73,7 +73,7 @@ import (
 // grids on their own cathode are drawn as the strap: taken for the valve
 // sheets' untangled anode leads (wires beside another net's 940 -> 804, in
 // line across a gap 66 -> 46, earth and rail symbols on another net 46 -> 18).
-var wireBoxCeiling = struct{ foreign, boxes int }{169, 295} // 169 and 295 on the merged sheets of the eighteenth session (FM detector, two-device loop, corner footer, supply naming); 299 (+2) with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm) (see alongPartCeiling); // boxes 301 → 297 with the router's undot pass re-wiring a net beside a junction dot from its far end as well (render/layout/undot.go, farFirst)
+var wireBoxCeiling = struct{ foreign, boxes int }{165, 291} // 165 and 291 (from 170 and 299) with the tapped follower's gain calc loading again and a shunt stabiliser's feed framed after its rectifier as a supply section (review15 b05); 299 (+2) with a stretch too big for its page cut from the unframed parts riding on it (render/riders.go; review16 b05's mixer at 2.5 mm) (see alongPartCeiling); // boxes 301 → 297 with the router's undot pass re-wiring a net beside a junction dot from its far end as well (render/layout/undot.go, farFirst)
 
 // TestWiresKeepOutOfFrames: a wire runs through a stage's frame only when
 // its net has a pin there (a frame says "these parts are this stage"), and

@@ -89,18 +89,33 @@ func stageFrames(found []stages.Stage, reduced, full *graph.Circuit) []render.Fr
 // frames: its parts sit where the rail meets each stage's feed, often far
 // apart on the sheet, and a frame around them would sweep across the
 // stages between; the stage list and the note name it with its figures.
-// A section on the rectifier's output is the exception (supplyHosts).
+// A section on the rectifier's output is the exception (supplyHosts). A
+// shunt stabiliser's feed is such a section too: its stabiliser (a zener,
+// a neon) stands on the line it holds as a decoupler's capacitor does.
 func filterSection(s stages.Stage, full *graph.Circuit) bool {
 	if !s.Supply || full == nil {
 		return false
 	}
 	for _, ref := range s.Parts {
 		p := full.Part(ref)
-		if p == nil || p.Kind != graph.Resistor && p.Kind != graph.Inductor && p.Kind != graph.Capacitor {
+		if p == nil || !sectionPart(p, s.Topology) {
 			return false
 		}
 	}
 	return len(s.Parts) > 0
+}
+
+// sectionPart tells a part a supply filter section is made of: a
+// resistor, choke or capacitor, or, in a shunt stabiliser's feed, the
+// two-terminal stabiliser across its line.
+func sectionPart(p *graph.Part, topology string) bool {
+	switch p.Kind {
+	case graph.Resistor, graph.Inductor, graph.Capacitor:
+		return true
+	case graph.Diode, graph.Generic:
+		return topology == stages.ShuntStabiliserTopology && len(p.Pins) == 2
+	}
+	return false
 }
 
 // apart says whether a stage's frame on the reduced sheet (full nil) is a
