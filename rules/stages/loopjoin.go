@@ -24,7 +24,7 @@ import (
 // breaks it (wholeLoop).
 
 // joinedLoop is the stage in out whose loop is dev's: an oscillator found
-// by its loop whose device's 0° point is within sharedLoopTol of dev's,
+// by its loop whose device's 0° point is within joinLoopTol of dev's,
 // where neither device closes a loop by its own gain (ac.OwnLoop): the
 // loop needs both. Two oscillators that each run alone stay two.
 func joinedLoop(lp *ac.Loops, out []*found, dev string, l Loop) *found {
@@ -32,7 +32,7 @@ func joinedLoop(lp *ac.Loops, out []*found, dev string, l Loop) *found {
 	if !ok {
 		return nil
 	}
-	lo, hi := fMin*(1-sharedLoopTol), fMax*(1+sharedLoopTol)
+	lo, hi := fMin*(1-joinLoopTol), fMax*(1+joinLoopTol)
 	for _, f := range out {
 		if f.Topology != loopTopology || len(f.Loop) == 0 {
 			continue
@@ -49,6 +49,16 @@ func joinedLoop(lp *ac.Loops, out []*found, dev string, l Loop) *found {
 	}
 	return nil
 }
+
+// joinLoopTol is how far apart two devices' 0° points may lie and still
+// be one loop seen from each: breaking one device's controlled source
+// also opens the negative feedback the other's stage sets its gain by, and
+// the two breaks load the Wien arms differently, so each reads the shared
+// loop's frequency off by some per cent (a blind reviewer's 12 V Wien
+// oscillator: 1.172 and 1.067 kHz from its two transistors, 1.053 kHz in
+// ngspice). The guard that neither runs by its own gain (ownLoop) keeps two
+// oscillators that each run alone apart however close they are.
+const joinLoopTol = 0.15
 
 // ownLoop says whether ref's loop runs by its own gain, searched an
 // octave either side of where it shows (as inheritedLoop searches).
