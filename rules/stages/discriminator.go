@@ -30,14 +30,8 @@ var (
 // across it and its load's bypass (diodeReturns), its zero the detector's
 // centre and its two peaks the span it detects linearly over.
 func calcDiscriminator(x *figCtx) {
-	i := x.index(x.spec.Args["xfmr"][0])
-	if i < 0 {
-		return
-	}
-	ci := x.m.parts[i]
-	p := x.w.parts[ci]
-	as := x.m.coils[i]
-	if len(as) < 2 || x.notMainsTuned(ci) {
+	ci, p, as, ok := x.tunedPair()
+	if !ok {
 		return
 	}
 	c1, c2 := x.w.coils[ci][as[0]], x.w.coils[ci][as[1]]
@@ -221,4 +215,20 @@ func (s sCurveResp) at(f float64) float64 {
 		v[i] = z
 	}
 	return cmplx.Abs(v[0]-v[2]) - cmplx.Abs(v[1]-v[3])
+}
+
+// tunedPair is the match's "xfmr" with its first two coils: the circuit
+// index, the part and the coils' indices; ok is false for a transformer
+// of fewer than two windings or a mains transformer, which no tuned-pair
+// calc reads (the double-tuned pair and the FM discriminator share it).
+func (x *figCtx) tunedPair() (ci int, p *graph.Part, as []int, ok bool) {
+	i := x.index(x.spec.Args["xfmr"][0])
+	if i < 0 {
+		return 0, nil, nil, false
+	}
+	ci, as = x.m.parts[i], x.m.coils[i]
+	if len(as) < 2 || x.notMainsTuned(ci) {
+		return 0, nil, nil, false
+	}
+	return ci, x.w.parts[ci], as, true
 }

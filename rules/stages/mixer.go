@@ -29,14 +29,8 @@ var (
 // and the bandwidth at critical coupling √2·f0/Q, with Q = √(Q1Q2)
 // (docs/references.md §6; exact for equal Q).
 func calcDoubleTuned(x *figCtx) {
-	i := x.index(x.spec.Args["xfmr"][0])
-	if i < 0 {
-		return
-	}
-	ci := x.m.parts[i]
-	p := x.w.parts[ci]
-	as := x.m.coils[i]
-	if len(as) < 2 || x.notMainsTuned(ci) {
+	ci, p, as, ok := x.tunedPair()
+	if !ok {
 		return
 	}
 	c1, c2 := x.w.coils[ci][as[0]], x.w.coils[ci][as[1]]

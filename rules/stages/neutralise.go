@@ -7,7 +7,6 @@ import (
 	"slices"
 
 	"pare/graph"
-	"pare/graph/ac"
 	"pare/graph/figure"
 	"pare/graph/value"
 )
@@ -54,10 +53,10 @@ func calcNeutralising(x *figCtx) {
 	withCf := base.Clone()
 	withCf.AddPart(&graph.Part{Ref: q.Ref + "~cf", Kind: graph.Capacitor, Type: graph.CapFixed,
 		Value: value.Range{Min: cf, Max: cf}, Pins: []graph.Pin{{Name: "1", Net: out}, {Name: "2", Net: ctl}}})
-	hn, ok1 := reverseAt(base, out, ctl, f)                     // with the capacitor's own feedback
-	hcf, ok2 := reverseAt(without(withCf, cn.Ref), out, ctl, f) // with the internal capacitance's instead
-	hboth, ok3 := reverseAt(withCf, out, ctl, f)
-	h0, ok4 := reverseAt(without(base, cn.Ref), out, ctl, f) // what reaches the control electrode by other ways
+	hn, ok1 := transferAtC(base, out, ctl, f)                     // with the capacitor's own feedback
+	hcf, ok2 := transferAtC(without(withCf, cn.Ref), out, ctl, f) // with the internal capacitance's instead
+	hboth, ok3 := transferAtC(withCf, out, ctl, f)
+	h0, ok4 := transferAtC(without(base, cn.Ref), out, ctl, f) // what reaches the control electrode by other ways
 	if !ok1 || !ok2 || !ok3 || !ok4 {
 		return
 	}
@@ -150,17 +149,4 @@ func outputWindingOn(c *graph.Circuit, out, w string) *graph.Part {
 		found = p
 	}
 	return found
-}
-
-// reverseAt is V(to)/V(from) at f with from driven.
-func reverseAt(c *graph.Circuit, from, to string, f float64) (complex128, bool) {
-	r, err := ac.NewTransfer(c, from, to, gangMid.options())
-	if err != nil {
-		return 0, false
-	}
-	h, err := r.At(f)
-	if err != nil || cmplx.IsNaN(h) || cmplx.IsInf(h) {
-		return 0, false
-	}
-	return h, true
 }
